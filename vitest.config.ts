@@ -1,0 +1,39 @@
+import { defineConfig } from 'vitest/config';
+
+// Suites outside src/: the engineering core (shared), the API against a real
+// PostgreSQL (server) and the browser tests in Chromium (e2e). Angular
+// component specs run through `ng test`, which has its own vitest set-up.
+export default defineConfig({
+  test: {
+    projects: [
+      {
+        test: {
+          name: 'shared',
+          include: ['test/shared/**/*.test.ts'],
+          environment: 'node',
+        },
+      },
+      {
+        test: {
+          name: 'server',
+          include: ['test/server/**/*.test.ts'],
+          environment: 'node',
+          globalSetup: ['test/support/pg-global-setup.ts'],
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
+        },
+      },
+      {
+        test: {
+          name: 'e2e',
+          include: ['test/e2e/**/*.test.ts'],
+          environment: 'node',
+          globalSetup: ['test/support/pg-global-setup.ts'],
+          fileParallelism: false,
+          testTimeout: 90_000,
+          hookTimeout: 120_000,
+        },
+      },
+    ],
+  },
+});
