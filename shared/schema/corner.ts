@@ -1,0 +1,335 @@
+/**
+ * The corner document: one LEFT suspension corner's hardpoints, Rollwise's own
+ * JSON format (formatVersion 1). Points in mm, ISO 8855 vehicle axes (x
+ * forward, y left, z up, origin on the ground under the front axle centre);
+ * see docs/kinematics.md for every key.
+ *
+ * The zod schema checks shapes; `cornerSemanticIssues` (run by the schema)
+ * checks geometry that would leave a link, arm or axis undefined, and every
+ * message names the point involved.
+ */
+import { z } from 'zod';
+import type { FieldIssue } from '../errors.js';
+import { InputError } from '../errors.js';
+
+export const CORNER_FORMAT_VERSION = 1;
+
+export type Vec3 = [number, number, number];
+
+const finite = z.number().finite();
+export const vec3Schema = z.tuple([finite, finite, finite]);
+
+/** Body-mounted lever or rocker attachments say what they ride on. */
+export const attachmentSchema = z.enum(['lowerArm', 'upperArm', 'upright']);
+export type Attachment = z.infer<typeof attachmentSchema>;
+
+const rackSteeringSchema = z.object({
+  kind: z.literal('rack'),
+  /** Direction of rack travel in the vehicle frame (normalised on use). */
+  rackAxis: vec3Schema.default([0, 1, 0]),
+  /** Rack travel limits [min, max] in mm; must contain 0. */
+  rackStroke: z.tuple([finite, finite]),
+});
+
+/**
+ * Steering box with arms (pitman or idler): the tie-rod inner point swings
+ * about a body-fixed axis. The steering input is the arc travel (mm) of the
+ * tie-rod inner point, positive for rotation by the right-hand rule about
+ * `armAxisDirection` on the left side.
+ */
+const armSteeringSchema = z.object({
+  kind: z.literal('arm'),
+  armAxisPoint: vec3Schema,
+  armAxisDirection: vec3Schema,
+  /** Arm rotation limits [min, max] in degrees; must contain 0. */
+  angularStrokeDeg: z.tuple([finite, finite]),
+});
+
+export const steeringSchema = z.discriminatedUnion('kind', [rackSteeringSchema, armSteeringSchema]);
+export type Steering = z.infer<typeof steeringSchema>;
+
+const directSpringSchema = z.object({
+  kind: z.literal('direct'),
+  springBody: vec3Schema,
+  springOuter: vec3Schema,
+  springOuterOn: attachmentSchema,
+});
+
+/** Pushrod or pullrod to a body-mounted rocker; the spring runs rocker → body. */
+const rockerSpringSchema = z.object({
+  kind: z.literal('rocker'),
+  rockerPivot: vec3Schema,
+  rockerAxis: vec3Schema,
+  rodOuter: vec3Schema,
+  rodOuterOn: attachmentSchema,
+  rodRocker: vec3Schema,
+  springRocker: vec3Schema,
+  springBody: vec3Schema,
+});
+
+export const springSchema = z.discriminatedUnion('kind', [directSpringSchema, rockerSpringSchema]);
+export type Spring = z.infer<typeof springSchema>;
+
+/** Anti-roll bar: a drop link from the suspension to the bar's lever end. */
+export const antiRollBarSchema = z.object({
+  dropLinkOuter: vec3Schema,
+  dropLinkOuterOn: attachmentSchema,
+  /** The drop link's inner end, on the end of the bar's lever. */
+  dropLinkInner: vec3Schema,
+  barAxisPoint: vec3Schema,
+  barAxisDirection: vec3Schema,
+});
+export type AntiRollBar = z.infer<typeof antiRollBarSchema>;
+
+const wheelSchema = z.object({
+  /** Loaded radius, mm. */
+  radius: finite.refine((r) => r > 0, { message: 'wheel.radius must be positive (loaded radius in mm)' }),
+});
+
+const common = {
+  formatVersion: z.literal(CORNER_FORMAT_VERSION, { message: `formatVersion must be ${CORNER_FORMAT_VERSION}` }),
+  name: z.string().max(200).optional(),
+  /** false: the tie rod is a fixed toe link (no steering). */
+  steered: z.boolean(),
+  wheel: wheelSchema,
+  steering: steeringSchema.optional(),
+  spring: springSchema.optional(),
+  antiRollBar: antiRollBarSchema.optional(),
+};
+
+const wheelPoints = { wheelCentre: vec3Schema, spindle: vec3Schema };
+const tieRodPoints = { tieRodInner: vec3Schema, tieRodOuter: vec3Schema };
+const lowerArmPoints = { lowerFront: vec3Schema, lowerRear: vec3Schema, lowerOuter: vec3Schema };
+
+export const doubleWishbonePointsSchema = z.object({
+  ...wheelPoints,
+  ...tieRodPoints,
+  ...lowerArmPoints,
+  upperFront: vec3Schema,
+  upperRear: vec3Schema,
+  upperOuter: vec3Schema,
+});
+
+export const strutPointsSchema = z.object({
+  ...wheelPoints,
+  ...tieRodPoints,
+  ...lowerArmPoints,
+  /** Top mount (body). */
+  strutTop: vec3Schema,
+  /** A point on the strut axis fixed to the upright. */
+  strutLower: vec3Schema,
+});
+
+export const fiveLinkPointsSchema = z.object({
+  ...wheelPoints,
+  link1Inner: vec3Schema,
+  link1Outer: vec3Schema,
+  link2Inner: vec3Schema,
+  link2Outer: vec3Schema,
+  link3Inner: vec3Schema,
+  link3Outer: vec3Schema,
+  link4Inner: vec3Schema,
+  link4Outer: vec3Schema,
+  link5Inner: vec3Schema,
+  link5Outer: vec3Schema,
+});
+
+const doubleWishboneSchema = z.object({ ...common, type: z.literal('double-wishbone'), points: doubleWishbonePointsSchema });
+const strutSchema = z.object({ ...common, type: z.literal('strut'), points: strutPointsSchema });
+const fiveLinkSchema = z.object({
+  ...common,
+  type: z.literal('five-link'),
+  points: fiveLinkPointsSchema,
+  /** Which link (1–5) is the toe link; its ends play the tie rod's part. */
+  toeLink: z.number().int().min(1).max(5),
+});
+
+const cornerShapeSchema = z.discriminatedUnion('type', [doubleWishboneSchema, strutSchema, fiveLinkSchema]);
+
+/** Coincidence / collinearity tolerance, mm (a link shorter than this is undefined). */
+export const GEOMETRY_TOLERANCE_MM = 0.5;
+
+export const cornerSchema = cornerShapeSchema.superRefine((corner, ctx) => {
+  for (const issue of cornerSemanticIssues(corner)) {
+    ctx.addIssue({ code: 'custom', message: issue.message, path: issue.path.split('.') });
+  }
+});
+
+export type Corner = z.infer<typeof cornerSchema>;
+export type CornerInput = z.input<typeof cornerSchema>;
+export type CornerType = Corner['type'];
+export type DoubleWishboneCorner = Extract<Corner, { type: 'double-wishbone' }>;
+export type StrutCorner = Extract<Corner, { type: 'strut' }>;
+export type FiveLinkCorner = Extract<Corner, { type: 'five-link' }>;
+
+/**
+ * Brings an older corner document to the current formatVersion. Version 1 is
+ * the first published format, so there is nothing to migrate yet; a document
+ * from a newer Rollwise is refused rather than silently misread.
+ */
+export function upgradeCornerDocument(doc: unknown): unknown {
+  if (doc === null || typeof doc !== 'object' || Array.isArray(doc)) return doc;
+  const v = (doc as { formatVersion?: unknown }).formatVersion;
+  if (typeof v === 'number' && Number.isInteger(v) && v > CORNER_FORMAT_VERSION) {
+    throw new InputError(`formatVersion ${v} was written by a newer Rollwise; this engine reads up to ${CORNER_FORMAT_VERSION}`, [
+      { path: 'formatVersion', message: `unsupported formatVersion ${v}` },
+    ]);
+  }
+  return doc;
+}
+
+// ---------- semantic validation ----------
+
+function sub(a: readonly number[], b: readonly number[]): Vec3 {
+  return [a[0]! - b[0]!, a[1]! - b[1]!, a[2]! - b[2]!];
+}
+function norm(a: readonly number[]): number {
+  return Math.hypot(a[0]!, a[1]!, a[2]!);
+}
+function cross(a: readonly number[], b: readonly number[]): Vec3 {
+  return [a[1]! * b[2]! - a[2]! * b[1]!, a[2]! * b[0]! - a[0]! * b[2]!, a[0]! * b[1]! - a[1]! * b[0]!];
+}
+/** Distance (mm) of p from the line through a and b. */
+function distanceToLine(p: readonly number[], a: readonly number[], b: readonly number[]): number {
+  const d = sub(b, a);
+  return norm(cross(sub(p, a), d)) / norm(d);
+}
+/** Distance (mm) of p from the line through a with direction d. */
+function distanceToAxis(p: readonly number[], a: readonly number[], d: readonly number[]): number {
+  return norm(cross(sub(p, a), d)) / norm(d);
+}
+const fmt = (p: readonly number[]) => `[${p.map((v) => +v.toFixed(3)).join(', ')}]`;
+
+type NamedPoints = Record<string, Vec3>;
+
+/**
+ * Geometry rules a corner must satisfy before it can be solved. Returns one
+ * issue per broken rule; each path and message names the point.
+ */
+export function cornerSemanticIssues(corner: z.infer<typeof cornerShapeSchema>): FieldIssue[] {
+  const issues: FieldIssue[] = [];
+  const tol = GEOMETRY_TOLERANCE_MM;
+  const pts = corner.points as NamedPoints;
+  const add = (path: string, message: string) => issues.push({ path, message });
+
+  const link = (inner: string, outer: string, what: string) => {
+    if (norm(sub(pts[outer]!, pts[inner]!)) < tol) {
+      add(`points.${outer}`, `points.${outer} coincides with points.${inner}: the ${what} has no length`);
+    }
+  };
+  const arm = (front: string, rear: string, outer: string, what: string) => {
+    if (norm(sub(pts[rear]!, pts[front]!)) < tol) {
+      add(`points.${rear}`, `points.${rear} coincides with points.${front}: the ${what}'s pivot axis is undefined`);
+    } else if (distanceToLine(pts[outer]!, pts[front]!, pts[rear]!) < tol) {
+      add(`points.${outer}`, `points.${outer} lies on the ${what}'s pivot axis (${front}–${rear}): the arm cannot hold the upright`);
+    }
+  };
+
+  // Wheel and spin axis.
+  const wc = pts['wheelCentre']!;
+  const sp = pts['spindle']!;
+  if (norm(sub(wc, sp)) < tol) add('points.spindle', 'points.spindle coincides with points.wheelCentre: the spin axis is undefined');
+  else if (sp[1] >= wc[1]) add('points.spindle', `points.spindle (y ${sp[1]}) must be inboard of points.wheelCentre (y ${wc[1]}) so the spin axis points outboard`);
+
+  let inner: string[];
+  let uprightPts: string[];
+  if (corner.type === 'double-wishbone') {
+    arm('lowerFront', 'lowerRear', 'lowerOuter', 'lower arm');
+    arm('upperFront', 'upperRear', 'upperOuter', 'upper arm');
+    link('tieRodInner', 'tieRodOuter', 'tie rod');
+    link('lowerOuter', 'upperOuter', 'kingpin (lower to upper ball joint)');
+    inner = ['lowerFront', 'lowerRear', 'upperFront', 'upperRear', 'tieRodInner'];
+    uprightPts = ['lowerOuter', 'upperOuter', 'tieRodOuter'];
+  } else if (corner.type === 'strut') {
+    arm('lowerFront', 'lowerRear', 'lowerOuter', 'lower arm');
+    link('tieRodInner', 'tieRodOuter', 'tie rod');
+    link('strutLower', 'strutTop', 'strut axis');
+    inner = ['lowerFront', 'lowerRear', 'strutTop', 'tieRodInner'];
+    uprightPts = ['lowerOuter', 'strutLower', 'tieRodOuter'];
+    if (norm(sub(pts['strutTop']!, pts['strutLower']!)) >= tol && distanceToLine(pts['lowerOuter']!, pts['strutLower']!, pts['strutTop']!) < tol) {
+      add('points.lowerOuter', 'points.lowerOuter lies on the strut axis (strutLower–strutTop): the upright cannot be located');
+    }
+  } else {
+    inner = [];
+    uprightPts = [];
+    for (let i = 1; i <= 5; i++) {
+      link(`link${i}Inner`, `link${i}Outer`, `link ${i}`);
+      inner.push(`link${i}Inner`);
+      uprightPts.push(`link${i}Outer`);
+    }
+    for (let i = 1; i <= 5; i++) {
+      for (let j = i + 1; j <= 5; j++) {
+        if (norm(sub(pts[`link${i}Inner`]!, pts[`link${j}Inner`]!)) < tol && norm(sub(pts[`link${i}Outer`]!, pts[`link${j}Outer`]!)) < tol) {
+          add(`points.link${j}Outer`, `points.link${j}Inner/link${j}Outer duplicate link ${i}: five independent links are needed`);
+        }
+      }
+    }
+  }
+
+  // The upright must be a body, not a line.
+  if (corner.type !== 'five-link') {
+    const [a, b, c] = uprightPts.map((n) => pts[n]!) as [Vec3, Vec3, Vec3];
+    if (norm(sub(b, a)) >= tol && distanceToLine(c, a, b) < tol) {
+      add(`points.${uprightPts[2]}`, `points.${uprightPts[2]} is collinear with points.${uprightPts[0]} and points.${uprightPts[1]}: the upright's rotation about that line is undefined`);
+    }
+  }
+
+  // Wheel centre outboard of every body-side link point.
+  for (const n of inner) {
+    if (wc[1] <= pts[n]![1]) add('points.wheelCentre', `points.wheelCentre (y ${wc[1]}) is not outboard of points.${n} (y ${pts[n]![1]}); enter the LEFT corner (y > 0)`);
+  }
+
+  // Steering.
+  if (corner.steered && !corner.steering) add('steering', 'steering is required when steered is true (a rack or a steering-box arm)');
+  if (corner.steering?.kind === 'rack') {
+    const [lo, hi] = corner.steering.rackStroke;
+    if (!(lo < hi)) add('steering.rackStroke', `steering.rackStroke [${lo}, ${hi}] must have min < max`);
+    else if (lo > 0 || hi < 0) add('steering.rackStroke', `steering.rackStroke [${lo}, ${hi}] does not contain 0 (the design position)`);
+    if (norm(corner.steering.rackAxis) < 1e-9) add('steering.rackAxis', 'steering.rackAxis has zero length');
+  } else if (corner.steering?.kind === 'arm') {
+    const s = corner.steering;
+    const [lo, hi] = s.angularStrokeDeg;
+    if (!(lo < hi)) add('steering.angularStrokeDeg', `steering.angularStrokeDeg [${lo}, ${hi}] must have min < max`);
+    else if (lo > 0 || hi < 0) add('steering.angularStrokeDeg', `steering.angularStrokeDeg [${lo}, ${hi}] does not contain 0 (the design position)`);
+    if (norm(s.armAxisDirection) < 1e-9) add('steering.armAxisDirection', 'steering.armAxisDirection has zero length');
+    else {
+      const tri = corner.type === 'five-link' ? `link${corner.toeLink}Inner` : 'tieRodInner';
+      if (distanceToAxis(pts[tri]!, s.armAxisPoint, s.armAxisDirection) < tol) {
+        add(`points.${tri}`, `points.${tri} lies on the steering arm axis (steering.armAxisPoint): the arm has no length`);
+      }
+    }
+  }
+
+  const checkOn = (path: string, on: Attachment) => {
+    if (on === 'upperArm' && corner.type !== 'double-wishbone') add(path, `${path} is upperArm but a ${corner.type} corner has no upper arm`);
+    if (on === 'lowerArm' && corner.type === 'five-link') add(path, `${path} is lowerArm but a five-link corner has no arm; attach to the upright`);
+  };
+
+  // Springs.
+  const sp2 = corner.spring;
+  if (sp2?.kind === 'direct') {
+    checkOn('spring.springOuterOn', sp2.springOuterOn);
+    if (norm(sub(sp2.springOuter, sp2.springBody)) < tol) add('spring.springOuter', 'spring.springOuter coincides with spring.springBody: the spring has no length');
+  } else if (sp2?.kind === 'rocker') {
+    checkOn('spring.rodOuterOn', sp2.rodOuterOn);
+    if (norm(sp2.rockerAxis) < 1e-9) add('spring.rockerAxis', 'spring.rockerAxis has zero length');
+    else {
+      if (distanceToAxis(sp2.rodRocker, sp2.rockerPivot, sp2.rockerAxis) < tol) add('spring.rodRocker', 'spring.rodRocker lies on the rocker axis: the rocker has no lever for the rod');
+      if (distanceToAxis(sp2.springRocker, sp2.rockerPivot, sp2.rockerAxis) < tol) add('spring.springRocker', 'spring.springRocker lies on the rocker axis: the rocker has no lever for the spring');
+    }
+    if (norm(sub(sp2.rodOuter, sp2.rodRocker)) < tol) add('spring.rodOuter', 'spring.rodOuter coincides with spring.rodRocker: the rod has no length');
+    if (norm(sub(sp2.springRocker, sp2.springBody)) < tol) add('spring.springBody', 'spring.springBody coincides with spring.springRocker: the spring has no length');
+  }
+
+  // Anti-roll bar.
+  const bar = corner.antiRollBar;
+  if (bar) {
+    checkOn('antiRollBar.dropLinkOuterOn', bar.dropLinkOuterOn);
+    if (norm(sub(bar.dropLinkOuter, bar.dropLinkInner)) < tol) add('antiRollBar.dropLinkOuter', 'antiRollBar.dropLinkOuter coincides with antiRollBar.dropLinkInner: the drop link has no length');
+    if (norm(bar.barAxisDirection) < 1e-9) add('antiRollBar.barAxisDirection', 'antiRollBar.barAxisDirection has zero length');
+    else if (distanceToAxis(bar.dropLinkInner, bar.barAxisPoint, bar.barAxisDirection) < tol) {
+      add('antiRollBar.dropLinkInner', `antiRollBar.dropLinkInner ${fmt(bar.dropLinkInner)} lies on the bar axis: the bar has no lever`);
+    }
+  }
+  return issues;
+}
