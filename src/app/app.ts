@@ -1,12 +1,51 @@
-import { Component, signal } from '@angular/core';
-import { RouterOutlet } from '@angular/router';
+import { Component, DestroyRef, ElementRef, inject, viewChild } from '@angular/core';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import {
+  NavigationCancel,
+  NavigationEnd,
+  NavigationError,
+  NavigationStart,
+  Router,
+  RouterOutlet,
+} from '@angular/router';
+import { AuthService } from './core/auth/auth-service';
+import { LoadingIndicator } from './core/layout/loading-indicator';
+import { TopBar } from './core/layout/top-bar';
 
 @Component({
   selector: 'app-root',
-  imports: [RouterOutlet],
+  imports: [RouterOutlet, TopBar, MatProgressBarModule],
   templateUrl: './app.html',
-  styleUrl: './app.scss'
+  styleUrl: './app.scss',
 })
 export class App {
-  protected readonly title = signal('rollwise');
+  protected readonly loading = inject(LoadingIndicator);
+  protected readonly auth = inject(AuthService);
+  private readonly main = viewChild.required<ElementRef<HTMLElement>>('main');
+
+  constructor() {
+    // Route loads (lazy chunks, guards fetching data) count as loading too.
+    let navigating = false;
+    inject(Router)
+      .events.pipe(takeUntilDestroyed(inject(DestroyRef)))
+      .subscribe((event) => {
+        if (event instanceof NavigationStart && !navigating) {
+          navigating = true;
+          this.loading.begin();
+        } else if (
+          (event instanceof NavigationEnd ||
+            event instanceof NavigationCancel ||
+            event instanceof NavigationError) &&
+          navigating
+        ) {
+          navigating = false;
+          this.loading.end();
+        }
+      });
+  }
+
+  protected skipToContent(): void {
+    this.main().nativeElement.focus();
+  }
 }

@@ -1,0 +1,49 @@
+import { Component, inject, signal } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { ActivatedRoute, Router, RouterLink } from '@angular/router';
+import { homeUrl, safeReturnUrl } from '../core/auth/auth-guards';
+import { AuthService } from '../core/auth/auth-service';
+import { apiProblem } from '../core/http/api-error';
+
+@Component({
+  selector: 'app-sign-in-page',
+  imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule, RouterLink],
+  templateUrl: './sign-in-page.html',
+})
+export class SignInPage {
+  private readonly auth = inject(AuthService);
+  private readonly router = inject(Router);
+  private readonly route = inject(ActivatedRoute);
+
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    email: ['', [Validators.required, Validators.email]],
+    password: ['', [Validators.required]],
+  });
+  protected readonly submitting = signal(false);
+  protected readonly failure = signal<string | null>(null);
+
+  protected submit(): void {
+    this.failure.set(null);
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    const { email, password } = this.form.getRawValue();
+    this.submitting.set(true);
+    this.auth.signIn(email.trim(), password).subscribe({
+      next: () => {
+        const target =
+          safeReturnUrl(this.route.snapshot.queryParamMap.get('returnUrl')) ?? homeUrl(this.auth);
+        void this.router.navigateByUrl(target);
+      },
+      error: (error: unknown) => {
+        this.submitting.set(false);
+        this.form.controls.password.reset();
+        this.failure.set(apiProblem(error).message);
+      },
+    });
+  }
+}

@@ -1,0 +1,50 @@
+import { Component, computed, inject } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDividerModule } from '@angular/material/divider';
+import { MatIconModule } from '@angular/material/icon';
+import { MatMenuModule } from '@angular/material/menu';
+import { MatToolbarModule } from '@angular/material/toolbar';
+import { Router, RouterLink, RouterLinkActive } from '@angular/router';
+import { AuthService } from '../auth/auth-service';
+import { TeamAccess } from '../teams/team-access';
+import { Notifier } from './notifier';
+
+/** Product name, team switcher, the team's sections and the user menu. */
+@Component({
+  selector: 'app-top-bar',
+  imports: [
+    MatToolbarModule,
+    MatButtonModule,
+    MatIconModule,
+    MatMenuModule,
+    MatDividerModule,
+    RouterLink,
+    RouterLinkActive,
+  ],
+  templateUrl: './top-bar.html',
+  styleUrl: './top-bar.scss',
+})
+export class TopBar {
+  protected readonly auth = inject(AuthService);
+  protected readonly access = inject(TeamAccess);
+  private readonly router = inject(Router);
+  private readonly notifier = inject(Notifier);
+
+  protected readonly team = this.auth.currentTeam;
+  protected readonly canManageMembers = computed(
+    () => this.access.team()?.id === this.team()?.teamId && this.access.can('members:manage'),
+  );
+
+  protected switchTo(teamId: string): void {
+    this.auth.switchTeam(teamId);
+    void this.router.navigate(['/teams', teamId]);
+  }
+
+  protected signOut(): void {
+    this.auth.signOut().subscribe(() => {
+      this.access.clear();
+      void this.router.navigate(['/sign-in']);
+      void this.notifier.info('You are signed out.');
+    });
+  }
+}

@@ -1,0 +1,176 @@
+import { Component, computed, inject, input, signal } from '@angular/core';
+import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import {
+  AbstractControl,
+  NonNullableFormBuilder,
+  ReactiveFormsModule,
+  ValidationErrors,
+  Validators,
+} from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatChipListboxChange, MatChipsModule } from '@angular/material/chips';
+import { MatDialog } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
+import { MatTableModule } from '@angular/material/table';
+import { Router } from '@angular/router';
+import { catchError, combineLatest, map, of, startWith, switchMap } from 'rxjs';
+import { Role, ROLE_DESCRIPTIONS, ROLES, TeamMember } from '../core/api-types';
+import { AuthService } from '../core/auth/auth-service';
+import { apiProblem } from '../core/http/api-error';
+import { confirmAction } from '../core/layout/confirm-dialog';
+import { TeamAccess } from '../core/teams/team-access';
+import { TeamsApi } from '../core/teams/teams-api';
+import { Notifier } from '../core/layout/notifier';
+
+type MemberListState =
+  | { readonly status: 'loading' }
+  | { readonly status: 'ready'; readonly members: readonly TeamMember[] }
+  | { readonly status: 'error'; readonly message: string };
+
+function atLeastOneRole(control: AbstractControl): ValidationErrors | null {
+  const roles = control.value as readonly Role[] | null;
+  return roles && roles.length > 0 ? null : { noRole: true };
+}
+
+/** `/teams/:teamId/members` (owners): add existing users, change their roles, remove them. */
+@Component({
+  selector: 'app-members-page',
+  imports: [
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatChipsModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressSpinnerModule,
+    MatTableModule,
+  ],
+  templateUrl: './members-page.html',
+  styleUrl: './members-page.scss',
+})
+export class MembersPage {
+  /** Bound from the route parameter. */
+  readonly teamId = input.required<string>();
+
+  protected readonly access = inject(TeamAccess);
+  private readonly auth = inject(AuthService);
+  private readonly api = inject(TeamsApi);
+  private readonly dialog = inject(MatDialog);
+  private readonly notifier = inject(Notifier);
+  private readonly router = inject(Router);
+
+  protected readonly roles = ROLES;
+  protected readonly roleDescriptions = ROLE_DESCRIPTIONS;
+  protected readonly columns = ['member', 'roles', 'actions'];
+  protected readonly state = signal<MemberListState>({ status: 'loading' });
+  protected readonly myUserId = computed(() => this.auth.user()?.id ?? null);
+  private readonly reloads = signal(0);
+
+  protected readonly addForm = inject(NonNullableFormBuilder).group({
+    email: ['', [Validators.required, Validators.email]],
+    roles: [['viewer'] as Role[], [atLeastOneRole]],
+  });
+  protected readonly adding = signal(false);
+  protected readonly addFailure = signal<string | null>(null);
+
+  constructor() {
+    combineLatest([toObservable(this.teamId), toObservable(this.reloads)])
+      .pipe(
+        switchMap(([teamId]) =>
+          this.api.members(teamId).pipe(
+            map((members): MemberListState => ({ status: 'ready', members })),
+            catchError((error: unknown) =>
+              of<MemberListState>({ status: 'error', message: apiProblem(error).message }),
+            ),
+            startWith<MemberListState>({ status: 'loading' }),
+          ),
+        ),
+        takeUntilDestroyed(),
+      )
+      .subscribe((state) => this.state.set(state));
+  }
+
+  protected reload(): void {
+    this.reloads.update((n) => n + 1);
+  }
+
+  protected addMember(): void {
+    this.addFailure.set(null);
+    if (this.addForm.invalid) {
+      this.addForm.markAllAsTouched();
+      return;
+    }
+    const { email, roles } = this.addForm.getRawValue();
+    this.adding.set(true);
+    this.api.addMember(this.teamId(), email.trim(), roles).subscribe({
+      next: () => {
+        this.adding.set(false);
+        this.addForm.reset({ email: '', roles: ['viewer'] });
+        void this.notifier.info(`${email.trim()} added to the team.`);
+        this.reload();
+      },
+      error: (error: unknown) => {
+        this.adding.set(false);
+        this.addFailure.set(apiProblem(error).message);
+      },
+    });
+  }
+
+  protected changeRoles(member: TeamMember, event: MatChipListboxChange): void {
+    const roles = ROLES.filter((role) => (event.value as Role[]).includes(role));
+    if (roles.length === 0) {
+      void this.notifier.error(
+        `${member.displayName} needs at least one role. To take them off the team, use Remove.`,
+      );
+      this.reload();
+      return;
+    }
+    this.api.setRoles(this.teamId(), member.userId, roles).subscribe({
+      next: () => {
+        void this.notifier.info(`Roles of ${member.displayName} saved.`);
+        if (member.userId === this.myUserId()) this.afterOwnChange();
+        else this.reload();
+      },
+      error: () => this.reload(), // e.g. last_owner: show the roles that are stored
+    });
+  }
+
+  protected removeMember(member: TeamMember): void {
+    const self = member.userId === this.myUserId();
+    confirmAction(this.dialog, {
+      title: self ? 'Leave this team?' : 'Remove member?',
+      message: self
+        ? 'You will lose access to this team and its vehicles.'
+        : `${member.displayName} (${member.email}) will lose access to this team. Their revisions and reviews stay in the history.`,
+      confirmLabel: self ? 'Leave team' : 'Remove member',
+    }).subscribe((confirmed) => {
+      if (!confirmed) return;
+      this.api.removeMember(this.teamId(), member.userId).subscribe({
+        next: () => {
+          void this.notifier.info(`${member.displayName} removed from the team.`);
+          if (self) this.afterOwnChange();
+          else this.reload();
+        },
+      });
+    });
+  }
+
+  /** One's own roles changed: refresh who may do what, and leave if no longer allowed here. */
+  private afterOwnChange(): void {
+    const teamId = this.teamId();
+    this.auth.refresh().subscribe(() => {
+      if (!this.auth.isMemberOf(teamId)) {
+        this.access.clear();
+        void this.router.navigate(['/teams']);
+        return;
+      }
+      this.access.load(teamId, true).subscribe((team) => {
+        if (team.permissions.includes('members:manage')) this.reload();
+        else void this.router.navigate(['/teams', teamId]);
+      });
+    });
+  }
+}
