@@ -1,0 +1,163 @@
+/**
+ * Handling intent (issue 5): what one axle should do in roll, what the
+ * designer may move to get there and inside which package. Our own JSON,
+ * documented key by key in docs/intent.md. Coordinates and bounds in mm,
+ * ISO 8855 vehicle axes, LEFT corner (the right corner is its mirror).
+ */
+import { z } from 'zod';
+import { cornerSchema, upgradeCornerDocument, type Corner } from './corner.js';
+import { upgradeVehicleDocument, vehicleSchema } from './vehicle.js';
+import { TRACK_PROFILE_IDS } from '../intent/profiles.js';
+import { CAUTION_CODES } from '../intent/cautions.js';
+
+export const INTENT_FORMAT_VERSION = 1 as const;
+
+/**
+ * A movable coordinate: `<point>.<axis>` for a tie-rod (or five-link toe-link)
+ * end, or `rack.z`: the rack's height change (both tie-rod inner points, and
+ * the steering-box arm axis with arm steering, move together). Its bounds are
+ * an offset from the current height; every other bound is an absolute
+ * coordinate in mm.
+ */
+export const MOVABLE_COORDINATE_PATTERN = /^(?:(tieRodInner|tieRodOuter|link[1-5]Inner|link[1-5]Outer)\.([xyz])|rack\.z)$/;
+export type MovableCoordinate = string;
+
+const finite = (what: string) => z.number({ error: `${what} must be a number` }).finite();
+const coordinateSchema = z.string().regex(MOVABLE_COORDINATE_PATTERN, {
+  message: 'expected tieRodInner.z, tieRodInner.y, tieRodOuter.z, tieRodOuter.x, rack.z (any of x, y, z) or link<k>Inner/Outer.<axis> for a five-link toe link',
+});
+
+export const intentTargetSchema = z.union([
+  z.strictObject({ rollSteerCoefficient: finite('target.rollSteerCoefficient').min(-1).max(1) }),
+  z.strictObject({ understeerChangeDegPerG: finite('target.understeerChangeDegPerG').min(-20).max(20) }),
+  z.strictObject({ zeroBumpSteer: z.literal(true) }),
+], { error: 'target must be { rollSteerCoefficient }, { understeerChangeDegPerG } or { zeroBumpSteer: true }' });
+export type IntentTarget = z.infer<typeof intentTargetSchema>;
+
+export const trackProfileChoiceSchema = z.union([
+  z.enum(TRACK_PROFILE_IDS),
+  z.strictObject({
+    id: z.enum(TRACK_PROFILE_IDS),
+    /** Travel range of the sweeps [droop, bump], mm; must contain 0. */
+    travelMm: z.tuple([finite('travelMm[0]'), finite('travelMm[1]')]).optional(),
+    /** Single-wheel bump height of the bump cautions, mm. */
+    bumpHeightMm: finite('bumpHeightMm').positive().max(1000).optional(),
+  }),
+]);
+
+const levelThresholdsSchema = z.strictObject({
+  info: finite('info').optional(),
+  warning: finite('warning').optional(),
+  critical: finite('critical').optional(),
+});
+
+export const intentOptionsSchema = z.strictObject({
+  /** Rack positions (mm) of the worst-toe report and bump cautions; default: stroke min, 0, stroke max. */
+  rackPositionsMm: z.array(finite('rackPositionsMm[]')).min(1).max(9).optional(),
+  /** Travel step of the objective and verification sweeps, mm (default: range / 20). */
+  travelStepMm: finite('travelStepMm').positive().optional(),
+  /** Optional bound on the worst toe deviation from its linear fit at any rack position, deg. */
+  worstToeBoundDeg: finite('worstToeBoundDeg').positive().optional(),
+  /** Members of the returned solution family (default 21). */
+  familySize: z.number().int().min(3).max(101).default(21),
+  /** Shim thickness for the shim stacks at each end, mm. */
+  shimThicknessMm: finite('shimThicknessMm').positive().default(1),
+  /** Thread pitch of the tie-rod adjuster, mm per turn. */
+  threadPitchMm: finite('threadPitchMm').positive().default(1.5),
+  /** `single-thread`: one turn = one pitch; `turnbuckle` (left- and right-hand threads): one turn = two pitches. */
+  adjuster: z.enum(['single-thread', 'turnbuckle']).default('single-thread'),
+  /** Roll angle (deg) at which the curvature caution compares roll steer; default from the vehicle at 1 g, else 2°. */
+  referenceRollDeg: finite('referenceRollDeg').positive().max(15).optional(),
+});
+
+export const intentSchema = z
+  .strictObject({
+    formatVersion: z.literal(INTENT_FORMAT_VERSION).optional(),
+    name: z.string().max(200).optional(),
+    corner: z.preprocess(upgradeCornerDocument, cornerSchema),
+    axle: z.enum(['front', 'rear'], { error: 'axle must be "front" or "rear"' }),
+    target: intentTargetSchema,
+    movable: z.array(coordinateSchema).min(1, 'movable must name at least one coordinate').max(5),
+    bounds: z.record(z.string(), z.tuple([finite('min'), finite('max')])),
+    trackProfile: trackProfileChoiceSchema,
+    vehicle: z.preprocess(upgradeVehicleDocument, vehicleSchema).optional(),
+    options: intentOptionsSchema.default(() => intentOptionsSchema.parse({})),
+    /** Per-vehicle overrides of the caution thresholds, by caution code. */
+    cautionThresholds: z.partialRecord(z.enum(CAUTION_CODES.filter((c) => c !== 'safety-notice' && c !== 'compliance-steer-unmodelled') as [string, ...string[]]), levelThresholdsSchema).optional(),
+  })
+  .superRefine((intent, ctx) => {
+    const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });
+    const seen = new Set<string>();
+    intent.movable.forEach((m, i) => {
+      if (seen.has(m)) issue(['movable', i], `${m} is listed twice`);
+      seen.add(m);
+      const why = coordinateProblem(intent.corner, m);
+      if (why) issue(['movable', i], why);
+      if (!intent.bounds[m]) issue(['bounds', m], `bounds.${m} is required: every movable coordinate needs packaging bounds [min, max] in mm`);
+    });
+    if (seen.has('rack.z') && seen.has(innerName(intent.corner) + '.z')) {
+      issue(['movable'], `rack.z and ${innerName(intent.corner)}.z move the same point: list one of them`);
+    }
+    for (const [k, b] of Object.entries(intent.bounds)) {
+      if (!seen.has(k)) issue(['bounds', k], `bounds.${k} is given but ${k} is not in movable`);
+      else if (!(b[0] < b[1])) issue(['bounds', k], `bounds.${k} [${b[0]}, ${b[1]}] must have min < max`);
+    }
+    if ('understeerChangeDegPerG' in intent.target && !intent.vehicle) {
+      issue(['vehicle'], 'vehicle is required for target.understeerChangeDegPerG (the suspension roll gradient turns it into a roll steer coefficient)');
+    }
+    const tp = intent.trackProfile;
+    if (typeof tp === 'object' && tp.travelMm && !(tp.travelMm[0] < 0 && tp.travelMm[1] > 0)) {
+      issue(['trackProfile', 'travelMm'], `trackProfile.travelMm [${tp.travelMm[0]}, ${tp.travelMm[1]}] must run from droop (< 0) to bump (> 0)`);
+    }
+    const st = intent.corner.steering;
+    const stroke = st?.kind === 'rack' ? st.rackStroke : st?.kind === 'arm' ? armStrokeMm(intent.corner) : null;
+    (intent.options.rackPositionsMm ?? []).forEach((r, i) => {
+      if (!intent.corner.steered) issue(['options', 'rackPositionsMm', i], 'the corner is not steered: rack positions do not apply');
+      else if (stroke && (r < stroke[0] || r > stroke[1])) issue(['options', 'rackPositionsMm', i], `rack position ${r} mm is outside the stroke [${stroke[0]}, ${stroke[1]}]`);
+    });
+  });
+
+export type Intent = z.infer<typeof intentSchema>;
+export type IntentInput = z.input<typeof intentSchema>;
+
+/** The point that plays the tie-rod inner part: `tieRodInner`, or `link<k>Inner` of a five-link's toe link. */
+export function innerName(corner: Corner): string {
+  return corner.type === 'five-link' ? `link${corner.toeLink}Inner` : 'tieRodInner';
+}
+export function outerName(corner: Corner): string {
+  return corner.type === 'five-link' ? `link${corner.toeLink}Outer` : 'tieRodOuter';
+}
+
+/** Arc travel limits (mm) of a steering-box arm, from its angular stroke. */
+function armStrokeMm(corner: Corner): [number, number] | null {
+  const st = corner.steering;
+  if (st?.kind !== 'arm') return null;
+  const p = corner.points as Record<string, [number, number, number]>;
+  const tri = p[innerName(corner)]!;
+  const d = st.armAxisDirection;
+  const n = Math.hypot(d[0], d[1], d[2]);
+  const r = [tri[0] - st.armAxisPoint[0], tri[1] - st.armAxisPoint[1], tri[2] - st.armAxisPoint[2]];
+  const along = (r[0] * d[0] + r[1] * d[1] + r[2] * d[2]) / n;
+  const radius = Math.sqrt(Math.max(0, r[0] ** 2 + r[1] ** 2 + r[2] ** 2 - along ** 2));
+  const k = (radius * Math.PI) / 180;
+  return [st.angularStrokeDeg[0] * k, st.angularStrokeDeg[1] * k];
+}
+
+/** Why coordinate `m` cannot move on this corner, or null when it can. */
+export function coordinateProblem(corner: Corner, m: string): string | null {
+  const match = MOVABLE_COORDINATE_PATTERN.exec(m);
+  if (!match) return `${m} is not a movable coordinate`;
+  if (m === 'rack.z') {
+    if (corner.type === 'five-link') return 'rack.z does not apply to a five-link corner; move the toe link ends instead';
+    if (!corner.steering) return 'rack.z needs a steered corner with a rack or steering arm';
+    return null;
+  }
+  const point = match[1]!;
+  if (corner.type === 'five-link') {
+    if (point.startsWith('tieRod')) return `a five-link corner has no ${point}; its toe link is link ${corner.toeLink}: use link${corner.toeLink}${point.endsWith('Inner') ? 'Inner' : 'Outer'}.${match[2]}`;
+    if (!point.startsWith(`link${corner.toeLink}`)) return `${point} is not the toe link (toeLink is ${corner.toeLink}): only the toe link's ends may move`;
+    return null;
+  }
+  if (point.startsWith('link')) return `${point} exists only on a five-link corner; this is a ${corner.type}`;
+  return null;
+}
