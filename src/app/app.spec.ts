@@ -2,6 +2,7 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
+import { ENGINE_VERSION } from '../../shared/version';
 import { App } from './app';
 
 describe('App shell', () => {
@@ -19,7 +20,29 @@ describe('App shell', () => {
     expect(root.querySelector('.plain-brand')?.textContent?.trim()).toBe('Rollwise');
     expect(root.querySelector('.skip-link')?.textContent?.trim()).toBe('Skip to content');
     expect(root.querySelector('app-top-bar')).toBeNull();
-    TestBed.inject(HttpTestingController).verify();
+    const backend = TestBed.inject(HttpTestingController);
+    backend.expectOne('/api/health').flush({ status: 'ok', database: 'reachable', engineVersion: ENGINE_VERSION });
+    await fixture.whenStable();
+    expect(root.querySelector('.engine-banner')).toBeNull();
+    backend.verify();
+  });
+
+  it("asks to reload when the server's engine version differs from the page's", async () => {
+    const fixture = TestBed.createComponent(App);
+    await fixture.whenStable();
+    // A degraded server still names its version.
+    TestBed.inject(HttpTestingController)
+      .expectOne('/api/health')
+      .flush(
+        { status: 'degraded', database: 'unreachable', engineVersion: '999.0.0' },
+        { status: 503, statusText: 'Service Unavailable' },
+      );
+    await fixture.whenStable();
+    const banner = (fixture.nativeElement as HTMLElement).querySelector('.engine-banner');
+    expect(banner?.getAttribute('role')).toBe('alert');
+    expect(banner?.textContent).toContain('999.0.0');
+    expect(banner?.textContent).toContain(ENGINE_VERSION);
+    expect(banner?.querySelector('button')?.textContent?.trim()).toBe('Reload');
   });
 
   it('moves focus to the main region from the skip link', async () => {

@@ -1,5 +1,6 @@
 import { Component, DestroyRef, ElementRef, inject, viewChild } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import {
   NavigationCancel,
@@ -10,21 +11,24 @@ import {
   RouterOutlet,
 } from '@angular/router';
 import { AuthService } from './core/auth/auth-service';
+import { EngineVersionCheck } from './core/layout/engine-version-check';
 import { LoadingIndicator } from './core/layout/loading-indicator';
 import { TopBar } from './core/layout/top-bar';
 
 @Component({
   selector: 'app-root',
-  imports: [RouterOutlet, TopBar, MatProgressBarModule],
+  imports: [RouterOutlet, TopBar, MatProgressBarModule, MatButtonModule],
   templateUrl: './app.html',
   styleUrl: './app.scss',
 })
 export class App {
   protected readonly loading = inject(LoadingIndicator);
   protected readonly auth = inject(AuthService);
+  protected readonly engine = inject(EngineVersionCheck);
   private readonly main = viewChild.required<ElementRef<HTMLElement>>('main');
 
   constructor() {
+    this.engine.check();
     // Route loads (lazy chunks, guards fetching data) count as loading too.
     let navigating = false;
     inject(Router)
@@ -43,6 +47,10 @@ export class App {
           this.loading.end();
         }
       });
+  }
+
+  protected reload(): void {
+    location.reload();
   }
 
   protected skipToContent(): void {

@@ -9,7 +9,11 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { AuthService } from '../core/auth/auth-service';
-import { matchingPasswords, MIN_PASSWORD_LENGTH } from '../core/auth/password-rules';
+import {
+  matchingPasswords,
+  MAX_PASSWORD_LENGTH,
+  MIN_PASSWORD_LENGTH,
+} from '../core/auth/password-rules';
 import { apiProblem } from '../core/http/api-error';
 
 /** Current password, new password twice; success ends the user's other sessions. */
@@ -22,10 +26,18 @@ export class ChangePasswordForm {
   private readonly auth = inject(AuthService);
 
   protected readonly minPasswordLength = MIN_PASSWORD_LENGTH;
+  protected readonly maxPasswordLength = MAX_PASSWORD_LENGTH;
   protected readonly form = inject(NonNullableFormBuilder).group(
     {
       currentPassword: ['', [Validators.required]],
-      newPassword: ['', [Validators.required, Validators.minLength(MIN_PASSWORD_LENGTH)]],
+      newPassword: [
+        '',
+        [
+          Validators.required,
+          Validators.minLength(MIN_PASSWORD_LENGTH),
+          Validators.maxLength(MAX_PASSWORD_LENGTH),
+        ],
+      ],
       confirm: ['', [Validators.required]],
     },
     { validators: matchingPasswords('newPassword', 'confirm') },

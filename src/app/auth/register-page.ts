@@ -6,7 +6,11 @@ import { MatInputModule } from '@angular/material/input';
 import { Router, RouterLink } from '@angular/router';
 import { homeUrl } from '../core/auth/auth-guards';
 import { AuthService } from '../core/auth/auth-service';
-import { matchingPasswords, MIN_PASSWORD_LENGTH } from '../core/auth/password-rules';
+import {
+  matchingPasswords,
+  MAX_PASSWORD_LENGTH,
+  MIN_PASSWORD_LENGTH,
+} from '../core/auth/password-rules';
 import { apiProblem } from '../core/http/api-error';
 
 @Component({
@@ -19,11 +23,19 @@ export class RegisterPage {
   private readonly router = inject(Router);
 
   protected readonly minPasswordLength = MIN_PASSWORD_LENGTH;
+  protected readonly maxPasswordLength = MAX_PASSWORD_LENGTH;
   protected readonly form = inject(NonNullableFormBuilder).group(
     {
       displayName: ['', [Validators.required, Validators.maxLength(100)]],
       email: ['', [Validators.required, Validators.email]],
-      password: ['', [Validators.required, Validators.minLength(MIN_PASSWORD_LENGTH)]],
+      password: [
+        '',
+        [
+          Validators.required,
+          Validators.minLength(MIN_PASSWORD_LENGTH),
+          Validators.maxLength(MAX_PASSWORD_LENGTH),
+        ],
+      ],
       confirm: ['', [Validators.required]],
     },
     { validators: matchingPasswords() },

@@ -13,7 +13,9 @@ import { apiProblem } from '../core/http/api-error';
 import { TeamsApi } from '../core/teams/teams-api';
 import { Notifier } from '../core/layout/notifier';
 
-export const TEAM_SLUG_PATTERN = /^[a-z0-9](?:[a-z0-9-]{0,46}[a-z0-9])?$/;
+/** As the API: lower-case letters and digits in groups joined by single hyphens, 2–60 long. */
+export const TEAM_SLUG_PATTERN = /^[a-z0-9]+(?:-[a-z0-9]+)*$/;
+export const TEAM_SLUG_MAX_LENGTH = 60;
 
 /** A short web-safe name from the team name: "Brackenfield Road" → "brackenfield-road". */
 export function slugFromName(name: string): string {
@@ -23,7 +25,7 @@ export function slugFromName(name: string): string {
     .toLowerCase()
     .replace(/[^a-z0-9]+/g, '-')
     .replace(/^-+|-+$/g, '')
-    .slice(0, 48)
+    .slice(0, TEAM_SLUG_MAX_LENGTH)
     .replace(/-+$/g, '');
 }
 
@@ -49,8 +51,16 @@ export class TeamListPage {
   private readonly notifier = inject(Notifier);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
-    name: ['', [Validators.required, Validators.maxLength(100)]],
-    slug: ['', [Validators.required, Validators.pattern(TEAM_SLUG_PATTERN)]],
+    name: ['', [Validators.required, Validators.maxLength(120)]],
+    slug: [
+      '',
+      [
+        Validators.required,
+        Validators.minLength(2),
+        Validators.maxLength(TEAM_SLUG_MAX_LENGTH),
+        Validators.pattern(TEAM_SLUG_PATTERN),
+      ],
+    ],
   });
   protected readonly creating = signal(false);
   protected readonly failure = signal<string | null>(null);
