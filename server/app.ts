@@ -1,0 +1,114 @@
+/**
+ * The Express application: API under /api, the built Angular app (with SPA
+ * fallback) everywhere else. Routes are thin; services talk to Drizzle;
+ * engine calls go to the worker pool; every error reaches one handler.
+ */
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import express, { type Express, type RequestHandler } from 'express';
+import compression from 'compression';
+import type { Config } from './config.js';
+import type { Database } from './db/client.js';
+import { createLogger, requestLogger } from './http/logging.js';
+import { securityHeaders } from './http/security.js';
+import { csrfProtection } from './http/csrf.js';
+import { absoluteTimeout, createSession } from './http/session.js';
+import { createAuthorizer } from './http/authorize.js';
+import { apiNotFound, errorHandler, HttpError } from './http/errors.js';
+import { Accounts } from './services/accounts.js';
+import { Teams } from './services/teams.js';
+import { Vehicles } from './services/vehicles.js';
+import { AxleDesigns } from './services/axle-designs.js';
+import { createComputePool } from './compute/pool.js';
+import { SolveJobs } from './compute/jobs.js';
+import { healthRouter } from './routes/health.js';
+import { authRouter } from './routes/auth.js';
+import { teamsRouter } from './routes/teams.js';
+import { vehiclesRouter } from './routes/vehicles.js';
+import { axleDesignsRouter, vehicleAxleDesignsRouter } from './routes/axle-designs.js';
+import { computeRouter } from './routes/compute.js';
+
+export type RollwiseApp = Express & {
+  /** Stops the app's own timers, workers and session store (not the database). */
+  close(): Promise<void>;
+};
+
+const BODY_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+
+/** Bodies must be JSON; anything else would silently arrive empty. */
+const requireJsonBody: RequestHandler = (req, _res, next) => {
+  const hasBody = Number(req.get('content-length') ?? 0) > 0 || req.get('transfer-encoding') !== undefined;
+  if (BODY_METHODS.has(req.method) && hasBody && !req.is('application/json')) {
+    return next(new HttpError(415, 'unsupported_media_type', 'Send the request body as application/json'));
+  }
+  next();
+};
+
+export function createApp(config: Config, db: Database): RollwiseApp {
+  const logger = createLogger(config.logLevel);
+  const app = express() as RollwiseApp;
+  app.disable('x-powered-by');
+  if (config.production) app.set('trust proxy', 1);
+
+  const session = createSession(config, db.pool, (err) => logger.warn({ err }, 'session store error'));
+  const auth = createAuthorizer(db.orm);
+  const accounts = new Accounts(db.orm, config.bcryptRounds);
+  const teams = new Teams(db.orm);
+  const vehicles = new Vehicles(db.orm);
+  const designs = new AxleDesigns(db.orm);
+  const pool = createComputePool({ threads: config.computeThreads });
+  const jobs = new SolveJobs(pool, { timeLimitMs: config.solveJobTimeLimitMs });
+
+  app.use(requestLogger(logger));
+  app.use(securityHeaders(config.staticDir, config.production));
+  app.use(compression());
+
+  const api = express.Router();
+  api.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
+  api.use(requireJsonBody);
+  api.use(express.json({ limit: config.bodyLimit }));
+  api.use(csrfProtection(config.publicUrl));
+  api.use('/health', healthRouter(db.pool));
+  api.use(session.middleware);
+  api.use(absoluteTimeout(config.sessionAbsoluteMs));
+  api.use('/auth', authRouter(config, accounts, db.pool, auth));
+  api.use('/teams/:teamId/vehicles/:vehicleId/axle-designs', vehicleAxleDesignsRouter(designs, auth));
+  api.use('/teams/:teamId/vehicles', vehiclesRouter(vehicles, auth));
+  api.use('/teams/:teamId/axle-designs', axleDesignsRouter(designs, auth));
+  api.use('/teams', teamsRouter(teams, auth));
+  api.use('/compute', computeRouter(pool, jobs, auth, config.computeTimeLimitMs));
+  api.use(apiNotFound);
+  app.use('/api', api);
+
+  // The built Angular app: hashed assets cached long, index.html never.
+  const index = join(config.staticDir, 'index.html');
+  app.use(
+    express.static(config.staticDir, {
+      index: false,
+      setHeaders(res, path) {
+        if (/\.[0-9a-z]{8,}\.(js|css|woff2?|ttf|svg|png)$/i.test(path) || /[-.][A-Z0-9]{8}\.(js|css)$/.test(path)) {
+          res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
+        }
+      },
+    }),
+  );
+  app.get('/{*splat}', (req, res, next) => {
+    if (!existsSync(index)) {
+      return next(new HttpError(404, 'not_found', 'The web app has not been built on this server (run `npm run build`)'));
+    }
+    res.setHeader('Cache-Control', 'no-cache');
+    res.sendFile(index);
+  });
+  app.use((req, _res, next) => next(new HttpError(404, 'not_found', `Nothing at ${req.method} ${req.path}`)));
+  app.use(errorHandler);
+
+  app.close = async () => {
+    session.close();
+    jobs.close();
+    await pool.close();
+  };
+  return app;
+}

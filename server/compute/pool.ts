@@ -1,0 +1,80 @@
+/**
+ * The worker-thread pool for engine calls (piscina). Each task has a time
+ * limit: when it runs out the task is aborted (piscina ends that worker
+ * thread, so a runaway solve cannot keep a core) and the caller gets a
+ * SolveError `time_limit`. A full queue is 503 `compute_busy`.
+ */
+import { MessageChannel } from 'node:worker_threads';
+import { Piscina } from 'piscina';
+import { SolveError } from '../../shared/errors.js';
+import { HttpError } from '../http/errors.js';
+import { deserializeError, type ComputeKind, type ComputeTask, type ProgressMessage, type WorkerOutcome } from './tasks.js';
+
+export interface RunOptions {
+  timeLimitMs: number;
+  onProgress?: (m: ProgressMessage) => void;
+  /** Aborts the task early (a cancelled job). */
+  signal?: AbortSignal;
+}
+
+export interface ComputePool {
+  run(kind: ComputeKind, input: unknown, o: RunOptions): Promise<unknown>;
+  close(): Promise<void>;
+}
+
+const WORKER = new URL('./worker.ts', import.meta.url).href;
+
+export function createComputePool(o: { threads: number; maxQueue?: number }): ComputePool {
+  // Workers run the TypeScript sources through tsx, like the main process.
+  const hasTsx = process.execArgv.some((a, i, all) => a.includes('tsx') && (all[i - 1] === '--import' || a.startsWith('--import')));
+  let pool: Piscina | undefined;
+  const get = () =>
+    (pool ??= new Piscina({
+      filename: WORKER,
+      minThreads: 0,
+      maxThreads: o.threads,
+      maxQueue: o.maxQueue ?? 64,
+      idleTimeout: 60_000,
+      execArgv: hasTsx ? process.execArgv : [...process.execArgv, '--import', 'tsx'],
+    }));
+
+  return {
+    async run(kind, input, opts) {
+      const timer = new AbortController();
+      const timeout = setTimeout(() => timer.abort(), opts.timeLimitMs);
+      const signal = opts.signal ? AbortSignal.any([timer.signal, opts.signal]) : timer.signal;
+      let port: MessageChannel | undefined;
+      const task: ComputeTask = { kind, input };
+      const transferList = [];
+      if (opts.onProgress) {
+        port = new MessageChannel();
+        port.port1.on('message', opts.onProgress);
+        task.progressPort = port.port2;
+        transferList.push(port.port2);
+      }
+      try {
+        const out = (await get().run(task, { signal, transferList })) as WorkerOutcome;
+        if (!out.ok) throw deserializeError(out.error);
+        return out.result;
+      } catch (err) {
+        if (timer.signal.aborted) {
+          throw new SolveError('time_limit', `The computation did not finish within ${Math.round(opts.timeLimitMs / 1000)} s; reduce the range or step count`, {
+            timeLimitMs: opts.timeLimitMs,
+          });
+        }
+        if (opts.signal?.aborted) throw new HttpError(409, 'cancelled', 'The computation was cancelled');
+        if (err instanceof Error && /queue is at limit/i.test(err.message)) {
+          throw new HttpError(503, 'compute_busy', 'The server is busy with other computations; try again in a moment');
+        }
+        throw err;
+      } finally {
+        clearTimeout(timeout);
+        port?.port1.close();
+      }
+    },
+    async close() {
+      await pool?.destroy();
+      pool = undefined;
+    },
+  };
+}

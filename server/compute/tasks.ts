@@ -1,0 +1,33 @@
+/** What crosses the worker boundary: task kinds, and errors as plain data (class identity does not survive structured clone). */
+import { InputError, SolveError, type FieldIssue, type SolveErrorCode } from '../../shared/errors.js';
+
+export const COMPUTE_KINDS = ['corner-sweep', 'axle-roll', 'balance', 'solve'] as const;
+export type ComputeKind = (typeof COMPUTE_KINDS)[number];
+
+export interface ComputeTask {
+  kind: ComputeKind;
+  input: unknown;
+  /** Receives `ProgressMessage`s (solve only). */
+  progressPort?: import('node:worker_threads').MessagePort;
+}
+
+export type ProgressMessage = { type: 'started' } | { type: 'progress'; fraction: number; message: string };
+
+export type SerializedError =
+  | { kind: 'input'; message: string; issues: FieldIssue[] }
+  | { kind: 'solve'; code: SolveErrorCode; message: string; details: Record<string, unknown> }
+  | { kind: 'internal'; message: string };
+
+export type WorkerOutcome = { ok: true; result: unknown } | { ok: false; error: SerializedError };
+
+export function serializeError(err: unknown): SerializedError {
+  if (err instanceof InputError) return { kind: 'input', message: err.message, issues: err.issues };
+  if (err instanceof SolveError) return { kind: 'solve', code: err.code, message: err.message, details: err.details };
+  return { kind: 'internal', message: err instanceof Error ? err.message : String(err) };
+}
+
+export function deserializeError(e: SerializedError): Error {
+  if (e.kind === 'input') return new InputError(e.message, e.issues);
+  if (e.kind === 'solve') return new SolveError(e.code, e.message, e.details);
+  return new Error(`compute worker failed: ${e.message}`);
+}

@@ -1,0 +1,115 @@
+/**
+ * Server configuration from environment variables, with safe development
+ * defaults. Production refuses to start without a real session secret.
+ * Every variable is documented in docs/operations.md.
+ */
+import { resolve } from 'node:path';
+
+export type LogLevel = 'fatal' | 'error' | 'warn' | 'info' | 'debug' | 'trace' | 'silent';
+
+export interface Config {
+  /** PostgreSQL connection string. */
+  databaseUrl: string;
+  /** Signs the session cookie. Required (≥ 32 chars) in production. */
+  sessionSecret: string;
+  /** The origin users reach the app at, e.g. https://rollwise.example (no trailing slash). */
+  publicUrl: string;
+  host: string;
+  /** 0 = any free port. */
+  port: number;
+  production: boolean;
+  /** Seed the invented demo scenario at start (never in production). */
+  seedDemo: boolean;
+  /** Built Angular app served with SPA fallback; absent folder = API only. */
+  staticDir: string;
+  logLevel: LogLevel;
+  /** Outgoing mail server, e.g. smtp://127.0.0.1:2525 (not used yet). */
+  smtpUrl: string | undefined;
+  /** Sessions end after this long without a request (rolling). */
+  sessionIdleMs: number;
+  /** Sessions end this long after sign-in whatever the activity. */
+  sessionAbsoluteMs: number;
+  /** Sign-in attempts allowed per IP and e-mail address within the window. */
+  signInLimit: { windowMs: number; max: number };
+  /** Largest accepted JSON body (express/body-parser size syntax). */
+  bodyLimit: string;
+  /** Milliseconds to wait for a database connection before answering 503. */
+  dbConnectTimeoutMs: number;
+  /** Compute worker pool: threads and per-task time limit. */
+  computeThreads: number;
+  computeTimeLimitMs: number;
+  /** Time limit of a background solve job (longer family sweeps). */
+  solveJobTimeLimitMs: number;
+  /** bcrypt cost factor for password hashes. */
+  bcryptRounds: number;
+}
+
+export const DEV_SESSION_SECRET = 'rollwise-development-secret-not-for-production';
+
+function int(env: NodeJS.ProcessEnv, name: string, fallback: number, min = 0): number {
+  const raw = env[name];
+  if (raw === undefined || raw === '') return fallback;
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n < min) throw new Error(`${name} must be an integer ≥ ${min} (got "${raw}")`);
+  return n;
+}
+
+function flag(env: NodeJS.ProcessEnv, name: string, fallback: boolean): boolean {
+  const raw = env[name];
+  if (raw === undefined || raw === '') return fallback;
+  if (/^(1|true|yes|on)$/i.test(raw)) return true;
+  if (/^(0|false|no|off)$/i.test(raw)) return false;
+  throw new Error(`${name} must be true or false (got "${raw}")`);
+}
+
+const LOG_LEVELS: LogLevel[] = ['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'];
+
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
+  const production = env['NODE_ENV'] === 'production';
+  const test = env['NODE_ENV'] === 'test' || env['VITEST'] !== undefined;
+  const host = env['HOST'] || '127.0.0.1';
+  const port = int(env, 'PORT', 4200);
+
+  const sessionSecret = env['SESSION_SECRET'] || (production ? '' : DEV_SESSION_SECRET);
+  if (production && sessionSecret.length < 32) {
+    throw new Error('SESSION_SECRET must be set to a random string of at least 32 characters in production');
+  }
+
+  const publicUrl = (env['PUBLIC_URL'] || `http://${host === '0.0.0.0' ? '127.0.0.1' : host}:${port}`).replace(/\/+$/, '');
+  try {
+    new URL(publicUrl);
+  } catch {
+    throw new Error(`PUBLIC_URL must be an absolute URL (got "${publicUrl}")`);
+  }
+
+  const logLevel = (env['LOG_LEVEL'] || (test ? 'silent' : 'info')) as LogLevel;
+  if (!LOG_LEVELS.includes(logLevel)) throw new Error(`LOG_LEVEL must be one of ${LOG_LEVELS.join(', ')}`);
+
+  const seedDemo = production ? false : flag(env, 'ROLLWISE_SEED_DEMO', true);
+
+  return {
+    databaseUrl: env['DATABASE_URL'] || 'postgres://postgres@127.0.0.1:5433/rollwise',
+    sessionSecret,
+    publicUrl,
+    host,
+    port,
+    production,
+    seedDemo,
+    staticDir: resolve(env['ROLLWISE_STATIC_DIR'] || 'dist/rollwise/browser'),
+    logLevel,
+    smtpUrl: env['SMTP_URL'] || undefined,
+    sessionIdleMs: int(env, 'SESSION_IDLE_MINUTES', 120, 1) * 60_000,
+    sessionAbsoluteMs: int(env, 'SESSION_ABSOLUTE_HOURS', 24 * 7, 1) * 3_600_000,
+    signInLimit: {
+      windowMs: int(env, 'SIGN_IN_WINDOW_MINUTES', 15, 1) * 60_000,
+      max: int(env, 'SIGN_IN_MAX_ATTEMPTS', 10, 1),
+    },
+    bodyLimit: env['BODY_LIMIT'] || '1mb',
+    dbConnectTimeoutMs: int(env, 'DB_CONNECT_TIMEOUT_MS', 3000, 100),
+    computeThreads: int(env, 'COMPUTE_THREADS', 2, 1),
+    computeTimeLimitMs: int(env, 'COMPUTE_TIME_LIMIT_MS', 10_000, 50),
+    solveJobTimeLimitMs: int(env, 'SOLVE_JOB_TIME_LIMIT_MS', 120_000, 50),
+    // Tests hash many throwaway passwords; everything else uses a real cost.
+    bcryptRounds: int(env, 'BCRYPT_ROUNDS', test ? 4 : 12, 4),
+  };
+}

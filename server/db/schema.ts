@@ -1,0 +1,167 @@
+/**
+ * The data model. Engineering documents (vehicle data, corner geometry) are
+ * validated JSON carrying their own `formatVersion`; every edit is kept as an
+ * immutable revision row, and the parent row holds the current revision.
+ */
+import { sql } from 'drizzle-orm';
+import {
+  pgTable,
+  uuid,
+  text,
+  boolean,
+  integer,
+  jsonb,
+  json,
+  timestamp,
+  varchar,
+  index,
+  uniqueIndex,
+  primaryKey,
+  check,
+} from 'drizzle-orm/pg-core';
+
+const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
+
+export const users = pgTable(
+  'users',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    /** Stored lower-cased; unique. */
+    email: text('email').notNull(),
+    displayName: text('display_name').notNull(),
+    passwordHash: text('password_hash').notNull(),
+    displayUnits: text('display_units', { enum: ['si', 'imperial'] }).notNull().default('si'),
+    /** Instructors run cross-team programmes; it is not a team role. */
+    instructor: boolean('instructor').notNull().default(false),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('users_email_unique').on(t.email)],
+);
+
+export const teams = pgTable(
+  'teams',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    name: text('name').notNull(),
+    slug: text('slug').notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('teams_slug_unique').on(t.slug)],
+);
+
+export const memberships = pgTable(
+  'memberships',
+  {
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    userId: uuid('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    /** A set of roles: owner, engineer, designer, reviewer, viewer. */
+    roles: text('roles').array().notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.teamId, t.userId] }),
+    index('memberships_user_idx').on(t.userId),
+    check('memberships_roles_not_empty', sql`cardinality(${t.roles}) > 0`),
+  ],
+);
+
+export const vehicles = pgTable(
+  'vehicles',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    archived: boolean('archived').notNull().default(false),
+    /** Current revision number (1 = created). */
+    revision: integer('revision').notNull().default(1),
+    /** Vehicle document of the balance model (shared/schema/vehicle.ts), or null until entered. */
+    data: jsonb('data'),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('vehicles_team_idx').on(t.teamId)],
+);
+
+/** Immutable snapshot of a vehicle at each revision. */
+export const vehicleRevisions = pgTable(
+  'vehicle_revisions',
+  {
+    vehicleId: uuid('vehicle_id')
+      .notNull()
+      .references(() => vehicles.id, { onDelete: 'cascade' }),
+    revision: integer('revision').notNull(),
+    name: text('name').notNull(),
+    archived: boolean('archived').notNull(),
+    data: jsonb('data'),
+    message: text('message'),
+    authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.vehicleId, t.revision] })],
+);
+
+export const AXLES = ['front', 'rear'] as const;
+export type Axle = (typeof AXLES)[number];
+export const DESIGN_STATUSES = ['draft', 'proposed', 'accepted', 'approved', 'changes_requested'] as const;
+export type DesignStatus = (typeof DESIGN_STATUSES)[number];
+
+export const axleDesigns = pgTable(
+  'axle_designs',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    vehicleId: uuid('vehicle_id')
+      .notNull()
+      .references(() => vehicles.id, { onDelete: 'cascade' }),
+    axle: text('axle', { enum: AXLES }).notNull(),
+    name: text('name').notNull(),
+    status: text('status', { enum: DESIGN_STATUSES }).notNull().default('draft'),
+    archived: boolean('archived').notNull().default(false),
+    revision: integer('revision').notNull().default(1),
+    /** Corner document (shared/schema/corner.ts). */
+    corner: jsonb('corner').notNull(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('axle_designs_vehicle_idx').on(t.vehicleId)],
+);
+
+/** Immutable snapshot of an axle design at each revision. */
+export const axleDesignRevisions = pgTable(
+  'axle_design_revisions',
+  {
+    designId: uuid('design_id')
+      .notNull()
+      .references(() => axleDesigns.id, { onDelete: 'cascade' }),
+    revision: integer('revision').notNull(),
+    name: text('name').notNull(),
+    status: text('status', { enum: DESIGN_STATUSES }).notNull(),
+    archived: boolean('archived').notNull(),
+    corner: jsonb('corner').notNull(),
+    message: text('message'),
+    authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.designId, t.revision] })],
+);
+
+/**
+ * Sessions of connect-pg-simple (its documented table layout). Created here
+ * so the migration owns it; the store never creates tables itself.
+ */
+export const sessions = pgTable(
+  'session',
+  {
+    sid: varchar('sid').primaryKey(),
+    sess: json('sess').notNull(),
+    expire: timestamp('expire', { precision: 6 }).notNull(),
+  },
+  (t) => [index('IDX_session_expire').on(t.expire)],
+);

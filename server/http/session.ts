@@ -1,0 +1,90 @@
+/**
+ * Sessions in PostgreSQL (connect-pg-simple, table created by migration).
+ * Cookie `rollwise.sid`: httpOnly, SameSite=Lax, Secure in production.
+ * Idle timeout: rolling maxAge refreshed on every request. Absolute timeout:
+ * the sign-in time is stored in the session and checked on every request.
+ */
+import type { RequestHandler, Request } from 'express';
+import session from 'express-session';
+import connectPgSimple from 'connect-pg-simple';
+import type pg from 'pg';
+import type { Config } from '../config.js';
+
+declare module 'express-session' {
+  interface SessionData {
+    userId: string;
+    /** Epoch ms of sign-in; the absolute timeout counts from here. */
+    signedInAt: number;
+  }
+}
+
+export const SESSION_COOKIE = 'rollwise.sid';
+export const SESSION_TABLE = 'session';
+
+export interface SessionSetup {
+  middleware: RequestHandler;
+  close(): void;
+}
+
+export function createSession(config: Config, pool: pg.Pool, onStoreError: (err: unknown) => void): SessionSetup {
+  const PgStore = connectPgSimple(session);
+  const store = new PgStore({
+    pool,
+    tableName: SESSION_TABLE,
+    createTableIfMissing: false,
+    // Expired rows are pruned every 15 minutes; the first prune waits that long too.
+    pruneSessionInterval: 15 * 60,
+    errorLog: onStoreError,
+  });
+  const middleware = session({
+    name: SESSION_COOKIE,
+    secret: config.sessionSecret,
+    store,
+    resave: false,
+    saveUninitialized: false,
+    rolling: true,
+    proxy: config.production ? true : undefined,
+    cookie: {
+      httpOnly: true,
+      sameSite: 'lax',
+      secure: config.production,
+      maxAge: config.sessionIdleMs,
+      path: '/',
+    },
+  });
+  return { middleware, close: () => store.close() };
+}
+
+/** Ends a session past its absolute lifetime before any route sees it. */
+export function absoluteTimeout(absoluteMs: number): RequestHandler {
+  return (req, _res, next) => {
+    const s = req.session;
+    if (s?.userId && (!s.signedInAt || Date.now() - s.signedInAt > absoluteMs)) {
+      s.destroy((err) => next(err));
+      return;
+    }
+    next();
+  };
+}
+
+/** New session id at sign-in (no fixation), then stores the user. */
+export function establishSession(req: Request, userId: string): Promise<void> {
+  return new Promise((resolve, reject) => {
+    req.session.regenerate((err) => {
+      if (err) return reject(err);
+      req.session.userId = userId;
+      req.session.signedInAt = Date.now();
+      req.session.save((e) => (e ? reject(e) : resolve()));
+    });
+  });
+}
+
+export function destroySession(req: Request): Promise<void> {
+  return new Promise((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
+}
+
+/** Deletes every other session row of a user (after a password change). */
+export async function endOtherSessions(pool: pg.Pool, userId: string, keepSid: string): Promise<number> {
+  const r = await pool.query(`DELETE FROM "${SESSION_TABLE}" WHERE sess->>'userId' = $1 AND sid <> $2`, [userId, keepSid]);
+  return r.rowCount ?? 0;
+}

@@ -1,0 +1,78 @@
+/**
+ * Starts Rollwise: applies migrations, seeds the demo scenario when asked
+ * (never in production), and serves app + API on one origin.
+ * Run directly (`node --import tsx server/main.ts`) it reads the environment
+ * and stops cleanly on SIGINT/SIGTERM.
+ */
+import type { AddressInfo } from 'node:net';
+import { pathToFileURL } from 'node:url';
+import { loadConfig, type Config } from './config.js';
+import { createDatabase } from './db/client.js';
+import { migrateDatabase } from './db/migrate.js';
+import { seedDemo } from './db/seed.js';
+import { createApp } from './app.js';
+import { createLogger } from './http/logging.js';
+
+export interface RunningServer {
+  url: string;
+  close(): Promise<void>;
+}
+
+export async function startServer(overrides: Partial<Config> = {}): Promise<RunningServer> {
+  const config: Config = { ...loadConfig(process.env), ...overrides };
+  if (config.production) config.seedDemo = false;
+  const logger = createLogger(config.logLevel);
+  const db = createDatabase(config.databaseUrl, {
+    connectTimeoutMs: config.dbConnectTimeoutMs,
+    onPoolError: (err) => logger.warn({ err }, 'database connection lost'),
+  });
+  try {
+    await migrateDatabase(db);
+    if (config.seedDemo) await seedDemo(db.orm, { bcryptRounds: config.bcryptRounds });
+  } catch (err) {
+    await db.close();
+    throw err;
+  }
+  const app = createApp(config, db);
+  const server = await new Promise<import('node:http').Server>((resolve, reject) => {
+    const s = app.listen(config.port, config.host, (err?: Error) => (err ? reject(err) : resolve(s)));
+  });
+  const { port } = server.address() as AddressInfo;
+  const host = config.host === '0.0.0.0' || config.host === '::' ? '127.0.0.1' : config.host;
+  const url = `http://${host.includes(':') ? `[${host}]` : host}:${port}`;
+  logger.info({ url }, 'Rollwise is listening');
+  let closing: Promise<void> | undefined;
+  return {
+    url,
+    close: () =>
+      (closing ??= (async () => {
+        await new Promise<void>((resolve) => {
+          server.close(() => resolve());
+          server.closeAllConnections();
+        });
+        await app.close();
+        await db.close();
+      })()),
+  };
+}
+
+const runDirectly = process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href;
+if (runDirectly) {
+  startServer().then(
+    (s) => {
+      console.log(`Rollwise is running at ${s.url}`);
+      const stop = () => {
+        s.close().then(
+          () => process.exit(0),
+          () => process.exit(1),
+        );
+      };
+      process.once('SIGINT', stop);
+      process.once('SIGTERM', stop);
+    },
+    (err: unknown) => {
+      console.error('Rollwise could not start:', err instanceof Error ? err.message : err);
+      process.exit(1);
+    },
+  );
+}

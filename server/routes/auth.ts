@@ -1,0 +1,90 @@
+/** /api/auth: register, sign in/out, me, profile, change password. */
+import { Router } from 'express';
+import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
+import { z } from 'zod';
+import type { Config } from '../config.js';
+import type pg from 'pg';
+import { HttpError, validate } from '../http/errors.js';
+import { currentUser, type Authorizer } from '../http/authorize.js';
+import { destroySession, endOtherSessions, establishSession, SESSION_COOKIE } from '../http/session.js';
+import { normaliseEmail, type Accounts } from '../services/accounts.js';
+
+// bcrypt reads at most 72 bytes; longer passwords would be silently truncated.
+const password = (min: number) =>
+  z
+    .string()
+    .min(min, `must be at least ${min} characters`)
+    .refine((s) => Buffer.byteLength(s, 'utf8') <= 72, 'must be at most 72 bytes');
+const email = z.string().trim().pipe(z.email('must be an e-mail address').max(254));
+const displayName = z.string().trim().min(1, 'is required').max(100);
+
+const registerSchema = z.strictObject({ email, password: password(10), displayName });
+const signInSchema = z.strictObject({ email: z.string().min(1, 'is required').max(254), password: z.string().min(1, 'is required').max(1000) });
+const changePasswordSchema = z.strictObject({ currentPassword: z.string().min(1, 'is required').max(1000), newPassword: password(10) });
+const profileSchema = z.strictObject({ displayName: displayName.optional(), displayUnits: z.enum(['si', 'imperial']).optional() });
+
+export function authRouter(config: Config, accounts: Accounts, pool: pg.Pool, auth: Authorizer): Router {
+  const r = Router();
+
+  const signInLimiter = rateLimit({
+    windowMs: config.signInLimit.windowMs,
+    limit: config.signInLimit.max,
+    // Only failed attempts count, per client address and account.
+    skipSuccessfulRequests: true,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    keyGenerator: (req) => {
+      const body = req.body as { email?: unknown } | undefined;
+      const who = typeof body?.email === 'string' ? normaliseEmail(body.email) : '';
+      return `${ipKeyGenerator(req.ip ?? '')}|${who}`;
+    },
+    handler: (_req, _res, next) => {
+      next(new HttpError(429, 'rate_limited', 'Too many sign-in attempts. Please wait a few minutes and try again.'));
+    },
+  });
+
+  r.get('/me', auth.requireUser, async (req, res) => {
+    res.json(await accounts.me(currentUser(req).id));
+  });
+
+  r.patch('/me', auth.requireUser, async (req, res) => {
+    const patch = validate(profileSchema, req.body);
+    const id = currentUser(req).id;
+    await accounts.updateProfile(id, patch);
+    res.json(await accounts.me(id));
+  });
+
+  // Public: anyone may register.
+  r.post('/register', async (req, res) => {
+    const input = validate(registerSchema, req.body);
+    const id = await accounts.register(input);
+    await establishSession(req, id);
+    res.status(201).json(await accounts.me(id));
+  });
+
+  // Public, rate-limited.
+  r.post('/sign-in', signInLimiter, async (req, res) => {
+    const { email: e, password: p } = validate(signInSchema, req.body);
+    const id = await accounts.verify(e, p);
+    if (!id) throw new HttpError(401, 'invalid_credentials', 'The e-mail address or password is not correct');
+    await establishSession(req, id);
+    res.json(await accounts.me(id));
+  });
+
+  // Public: signing out when already signed out is not an error.
+  r.post('/sign-out', async (req, res) => {
+    if (req.session?.userId) await destroySession(req);
+    res.clearCookie(SESSION_COOKIE, { path: '/', httpOnly: true, sameSite: 'lax', secure: config.production });
+    res.status(204).end();
+  });
+
+  r.post('/change-password', auth.requireUser, async (req, res) => {
+    const { currentPassword, newPassword } = validate(changePasswordSchema, req.body);
+    const id = currentUser(req).id;
+    await accounts.changePassword(id, currentPassword, newPassword);
+    await endOtherSessions(pool, id, req.sessionID);
+    res.status(204).end();
+  });
+
+  return r;
+}

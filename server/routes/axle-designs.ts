@@ -1,0 +1,73 @@
+/**
+ * Axle designs: listed and created under their vehicle
+ * (/api/teams/:teamId/vehicles/:vehicleId/axle-designs), read and edited
+ * by id (/api/teams/:teamId/axle-designs/:designId).
+ */
+import { Router } from 'express';
+import { z } from 'zod';
+import { notFound, validate } from '../http/errors.js';
+import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
+import { AXLES } from '../db/schema.js';
+import { parseCorner, type AxleDesigns } from '../services/axle-designs.js';
+import { archivedQuery, baseRevision, documentName, idParam, revisionMessage, revisionParam } from './vehicles.js';
+
+const createSchema = z.strictObject({ axle: z.enum(AXLES), name: documentName, corner: z.unknown() });
+const patchSchema = z
+  .strictObject({ name: documentName.optional(), archived: z.boolean().optional(), baseRevision, message: revisionMessage })
+  .refine((p) => p.name !== undefined || p.archived !== undefined, { message: 'give name or archived', path: ['name'] });
+const cornerBodySchema = z.strictObject({ corner: z.unknown(), baseRevision, message: revisionMessage });
+
+/** Mounted at /api/teams/:teamId/vehicles/:vehicleId/axle-designs. */
+export function vehicleAxleDesignsRouter(designs: AxleDesigns, auth: Authorizer): Router {
+  const r = Router({ mergeParams: true });
+  r.get('/', auth.requirePermission('team:read'), async (req, res) => {
+    const q = validate(archivedQuery, req.query, 'query');
+    res.json(await designs.list(currentAccess(req).teamId, idParam(req.params['vehicleId'], 'Vehicle'), q.archived === 'true'));
+  });
+  r.post('/', auth.requirePermission('vehicle:manage'), async (req, res) => {
+    const input = validate(createSchema, req.body);
+    const corner = parseCorner(input.corner);
+    const vehicleId = idParam(req.params['vehicleId'], 'Vehicle');
+    res.status(201).json(await designs.create(currentAccess(req).teamId, vehicleId, currentUser(req).id, { ...input, corner }));
+  });
+  return r;
+}
+
+/** Mounted at /api/teams/:teamId/axle-designs. */
+export function axleDesignsRouter(designs: AxleDesigns, auth: Authorizer): Router {
+  const r = Router({ mergeParams: true });
+  const { requirePermission } = auth;
+  const designId = (raw: unknown) => idParam(raw, 'Axle design');
+
+  r.get('/:designId', requirePermission('team:read'), async (req, res) => {
+    res.json(await designs.get(currentAccess(req).teamId, designId(req.params['designId'])));
+  });
+
+  r.patch('/:designId', requirePermission('vehicle:manage'), async (req, res) => {
+    const { baseRevision: base, ...change } = validate(patchSchema, req.body);
+    res.json(await designs.update(currentAccess(req).teamId, designId(req.params['designId']), currentUser(req).id, base, change));
+  });
+
+  r.put('/:designId/corner', requirePermission('design:edit'), async (req, res) => {
+    const input = validate(cornerBodySchema, req.body);
+    const corner = parseCorner(input.corner);
+    res.json(
+      await designs.update(currentAccess(req).teamId, designId(req.params['designId']), currentUser(req).id, input.baseRevision, {
+        corner,
+        message: input.message,
+      }),
+    );
+  });
+
+  r.get('/:designId/revisions', requirePermission('team:read'), async (req, res) => {
+    res.json(await designs.revisions(currentAccess(req).teamId, designId(req.params['designId'])));
+  });
+
+  r.get('/:designId/revisions/:revision', requirePermission('team:read'), async (req, res) => {
+    const n = revisionParam.safeParse(req.params['revision']);
+    if (!n.success) throw notFound('Revision');
+    res.json(await designs.revision(currentAccess(req).teamId, designId(req.params['designId']), n.data));
+  });
+
+  return r;
+}

@@ -1,0 +1,78 @@
+/** /api/teams: teams and their members. */
+import { Router } from 'express';
+import { z } from 'zod';
+import { validate, notFound } from '../http/errors.js';
+import { currentAccess, currentUser, isUuid, type Authorizer } from '../http/authorize.js';
+import { ROLES } from '../permissions.js';
+import type { Teams } from '../services/teams.js';
+
+const teamName = z.string().trim().min(1, 'is required').max(120);
+const slug = z
+  .string()
+  .trim()
+  .min(2, 'must be at least 2 characters')
+  .max(60)
+  .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'use lower-case letters, digits and single hyphens');
+const roles = z
+  .array(z.enum(ROLES))
+  .min(1, 'give at least one role')
+  .transform((r) => ROLES.filter((x) => r.includes(x)));
+
+const createTeamSchema = z.strictObject({ name: teamName, slug });
+const renameTeamSchema = z.strictObject({ name: teamName });
+const addMemberSchema = z.strictObject({ email: z.string().trim().min(1, 'is required').max(254), roles });
+const changeRolesSchema = z.strictObject({ roles });
+
+function memberId(raw: unknown): string {
+  if (!isUuid(raw)) throw notFound('Member');
+  return raw;
+}
+
+export function teamsRouter(teams: Teams, auth: Authorizer): Router {
+  const r = Router();
+  const { requireUser, requirePermission } = auth;
+
+  r.get('/', requireUser, async (req, res) => {
+    res.json(await teams.listFor(currentUser(req).id));
+  });
+
+  r.post('/', requireUser, async (req, res) => {
+    res.status(201).json(await teams.create(currentUser(req).id, validate(createTeamSchema, req.body)));
+  });
+
+  r.get('/:teamId', requirePermission('team:read'), async (req, res) => {
+    const a = currentAccess(req);
+    res.json(await teams.detail(a.teamId, a.roles));
+  });
+
+  r.patch('/:teamId', requirePermission('members:manage'), async (req, res) => {
+    const a = currentAccess(req);
+    res.json(await teams.rename(a.teamId, validate(renameTeamSchema, req.body).name, a.roles));
+  });
+
+  r.delete('/:teamId', requirePermission('members:manage'), async (req, res) => {
+    await teams.remove(currentAccess(req).teamId);
+    res.status(204).end();
+  });
+
+  r.get('/:teamId/members', requirePermission('team:read'), async (req, res) => {
+    res.json(await teams.members(currentAccess(req).teamId));
+  });
+
+  r.post('/:teamId/members', requirePermission('members:manage'), async (req, res) => {
+    const input = validate(addMemberSchema, req.body);
+    res.status(201).json(await teams.addMember(currentAccess(req).teamId, input.email, input.roles));
+  });
+
+  r.patch('/:teamId/members/:userId', requirePermission('members:manage'), async (req, res) => {
+    const input = validate(changeRolesSchema, req.body);
+    res.json(await teams.changeMember(currentAccess(req).teamId, memberId(req.params['userId']), input.roles));
+  });
+
+  r.delete('/:teamId/members/:userId', requirePermission('members:manage'), async (req, res) => {
+    await teams.changeMember(currentAccess(req).teamId, memberId(req.params['userId']), null);
+    res.status(204).end();
+  });
+
+  return r;
+}

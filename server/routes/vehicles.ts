@@ -1,0 +1,71 @@
+/** /api/teams/:teamId/vehicles: vehicles, their data and revisions. */
+import { Router } from 'express';
+import { z } from 'zod';
+import { notFound, validate } from '../http/errors.js';
+import { currentAccess, currentUser, isUuid, type Authorizer } from '../http/authorize.js';
+import { parseVehicleData, type Vehicles } from '../services/vehicles.js';
+
+export const documentName = z.string().trim().min(1, 'is required').max(120);
+export const baseRevision = z.number({ error: 'baseRevision (the revision your edit starts from) is required' }).int().positive();
+export const revisionMessage = z.string().trim().max(500).optional();
+export const archivedQuery = z.object({ archived: z.enum(['true', 'false']).optional() });
+export const revisionParam = z.coerce.number().int().positive();
+
+const createSchema = z.strictObject({ name: documentName, data: z.unknown().optional() });
+const patchSchema = z
+  .strictObject({ name: documentName.optional(), archived: z.boolean().optional(), baseRevision, message: revisionMessage })
+  .refine((p) => p.name !== undefined || p.archived !== undefined, { message: 'give name or archived', path: ['name'] });
+const dataSchema = z.strictObject({ data: z.unknown(), baseRevision, message: revisionMessage });
+
+export function idParam(raw: unknown, what: string): string {
+  if (!isUuid(raw)) throw notFound(what);
+  return raw;
+}
+
+export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
+  const r = Router({ mergeParams: true });
+  const { requirePermission } = auth;
+  const vehicleId = (raw: unknown) => idParam(raw, 'Vehicle');
+
+  r.get('/', requirePermission('team:read'), async (req, res) => {
+    const q = validate(archivedQuery, req.query, 'query');
+    res.json(await vehicles.list(currentAccess(req).teamId, q.archived === 'true'));
+  });
+
+  r.post('/', requirePermission('vehicle:manage'), async (req, res) => {
+    const input = validate(createSchema, req.body);
+    res.status(201).json(await vehicles.create(currentAccess(req).teamId, currentUser(req).id, input));
+  });
+
+  r.get('/:vehicleId', requirePermission('team:read'), async (req, res) => {
+    res.json(await vehicles.get(currentAccess(req).teamId, vehicleId(req.params['vehicleId'])));
+  });
+
+  r.patch('/:vehicleId', requirePermission('vehicle:manage'), async (req, res) => {
+    const { baseRevision: base, ...change } = validate(patchSchema, req.body);
+    res.json(await vehicles.update(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), currentUser(req).id, base, change));
+  });
+
+  r.put('/:vehicleId/data', requirePermission('vehicle:edit'), async (req, res) => {
+    const input = validate(dataSchema, req.body);
+    const data = parseVehicleData(input.data);
+    res.json(
+      await vehicles.update(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), currentUser(req).id, input.baseRevision, {
+        data,
+        message: input.message,
+      }),
+    );
+  });
+
+  r.get('/:vehicleId/revisions', requirePermission('team:read'), async (req, res) => {
+    res.json(await vehicles.revisions(currentAccess(req).teamId, vehicleId(req.params['vehicleId'])));
+  });
+
+  r.get('/:vehicleId/revisions/:revision', requirePermission('team:read'), async (req, res) => {
+    const n = revisionParam.safeParse(req.params['revision']);
+    if (!n.success) throw notFound('Revision');
+    res.json(await vehicles.revision(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), n.data));
+  });
+
+  return r;
+}

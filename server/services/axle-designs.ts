@@ -1,0 +1,165 @@
+/**
+ * Axle designs (front or rear corner geometry variants of a vehicle), with
+ * immutable revisions like vehicles. A geometry change returns the design to
+ * `draft`: an approval is for the geometry it was given on.
+ */
+import { and, asc, desc, eq, sql } from 'drizzle-orm';
+import type { Executor, Orm } from '../db/client.js';
+import { axleDesignRevisions, axleDesigns, users, vehicles, type Axle, type DesignStatus } from '../db/schema.js';
+import { notFound } from '../http/errors.js';
+import { cornerSchema, upgradeCornerDocument, type Corner } from '../../shared/schema/corner.js';
+import { parseDocument, staleRevision, type RevisionRow } from './revisions.js';
+
+export interface AxleDesignView {
+  id: string;
+  vehicleId: string;
+  axle: Axle;
+  name: string;
+  revision: number;
+  status: DesignStatus;
+  archived: boolean;
+  corner: unknown;
+  updatedAt: Date;
+  updatedByName: string | null;
+}
+
+export const parseCorner = (doc: unknown): Corner => parseDocument(cornerSchema, upgradeCornerDocument, doc, 'corner');
+
+const columns = {
+  id: axleDesigns.id,
+  vehicleId: axleDesigns.vehicleId,
+  axle: axleDesigns.axle,
+  name: axleDesigns.name,
+  revision: axleDesigns.revision,
+  status: axleDesigns.status,
+  archived: axleDesigns.archived,
+  updatedAt: axleDesigns.updatedAt,
+  updatedByName: users.displayName,
+};
+
+export class AxleDesigns {
+  constructor(private readonly orm: Orm) {}
+
+  private async vehicleInTeam(teamId: string, vehicleId: string): Promise<void> {
+    const [v] = await this.orm.select({ id: vehicles.id }).from(vehicles).where(and(eq(vehicles.id, vehicleId), eq(vehicles.teamId, teamId)));
+    if (!v) throw notFound('Vehicle');
+  }
+
+  async list(teamId: string, vehicleId: string, includeArchived: boolean) {
+    await this.vehicleInTeam(teamId, vehicleId);
+    const where = includeArchived
+      ? eq(axleDesigns.vehicleId, vehicleId)
+      : and(eq(axleDesigns.vehicleId, vehicleId), eq(axleDesigns.archived, false));
+    return this.orm
+      .select(columns)
+      .from(axleDesigns)
+      .leftJoin(users, eq(users.id, axleDesigns.updatedBy))
+      .where(where)
+      .orderBy(asc(axleDesigns.axle), asc(axleDesigns.name));
+  }
+
+  async get(teamId: string, designId: string, orm: Executor = this.orm): Promise<AxleDesignView> {
+    const [d] = await orm
+      .select({ ...columns, corner: axleDesigns.corner })
+      .from(axleDesigns)
+      .innerJoin(vehicles, eq(vehicles.id, axleDesigns.vehicleId))
+      .leftJoin(users, eq(users.id, axleDesigns.updatedBy))
+      .where(and(eq(axleDesigns.id, designId), eq(vehicles.teamId, teamId)));
+    if (!d) throw notFound('Axle design');
+    return { ...d, corner: upgradeCornerDocument(d.corner) };
+  }
+
+  async create(teamId: string, vehicleId: string, authorId: string, input: { axle: Axle; name: string; corner: Corner }): Promise<AxleDesignView> {
+    await this.vehicleInTeam(teamId, vehicleId);
+    return this.orm.transaction(async (tx) => {
+      const [d] = await tx
+        .insert(axleDesigns)
+        .values({ vehicleId, axle: input.axle, name: input.name, corner: input.corner, updatedBy: authorId })
+        .returning();
+      if (!d) throw new Error('insert returned nothing');
+      await tx.insert(axleDesignRevisions).values({
+        designId: d.id,
+        revision: 1,
+        name: d.name,
+        status: d.status,
+        archived: false,
+        corner: d.corner,
+        message: 'Created',
+        authorId,
+      });
+      return this.get(teamId, d.id, tx);
+    });
+  }
+
+  async update(
+    teamId: string,
+    designId: string,
+    authorId: string,
+    baseRevision: number,
+    change: { name?: string | undefined; archived?: boolean | undefined; corner?: Corner; message?: string | undefined },
+  ): Promise<AxleDesignView> {
+    const existing = await this.get(teamId, designId); // 404 outside the team
+    return this.orm.transaction(async (tx) => {
+      const set: Record<string, unknown> = { revision: sql`${axleDesigns.revision} + 1`, updatedAt: sql`now()`, updatedBy: authorId };
+      if (change.name !== undefined) set['name'] = change.name;
+      if (change.archived !== undefined) set['archived'] = change.archived;
+      if (change.corner !== undefined) {
+        set['corner'] = change.corner;
+        set['status'] = 'draft';
+      }
+      const [row] = await tx
+        .update(axleDesigns)
+        .set(set)
+        .where(and(eq(axleDesigns.id, existing.id), eq(axleDesigns.revision, baseRevision)))
+        .returning();
+      if (!row) throw staleRevision(baseRevision, await this.get(teamId, designId, tx));
+      await tx.insert(axleDesignRevisions).values({
+        designId,
+        revision: row.revision,
+        name: row.name,
+        status: row.status,
+        archived: row.archived,
+        corner: row.corner,
+        message: change.message ?? null,
+        authorId,
+      });
+      return this.get(teamId, designId, tx);
+    });
+  }
+
+  async revisions(teamId: string, designId: string): Promise<(RevisionRow & { status: DesignStatus })[]> {
+    await this.get(teamId, designId);
+    return this.orm
+      .select({
+        revision: axleDesignRevisions.revision,
+        status: axleDesignRevisions.status,
+        message: axleDesignRevisions.message,
+        authorName: users.displayName,
+        createdAt: axleDesignRevisions.createdAt,
+      })
+      .from(axleDesignRevisions)
+      .leftJoin(users, eq(users.id, axleDesignRevisions.authorId))
+      .where(eq(axleDesignRevisions.designId, designId))
+      .orderBy(desc(axleDesignRevisions.revision));
+  }
+
+  async revision(teamId: string, designId: string, revision: number) {
+    await this.get(teamId, designId);
+    const [r] = await this.orm
+      .select({
+        revision: axleDesignRevisions.revision,
+        name: axleDesignRevisions.name,
+        status: axleDesignRevisions.status,
+        archived: axleDesignRevisions.archived,
+        corner: axleDesignRevisions.corner,
+        message: axleDesignRevisions.message,
+        authorName: users.displayName,
+        createdAt: axleDesignRevisions.createdAt,
+      })
+      .from(axleDesignRevisions)
+      .leftJoin(users, eq(users.id, axleDesignRevisions.authorId))
+      .where(and(eq(axleDesignRevisions.designId, designId), eq(axleDesignRevisions.revision, revision)));
+    if (!r) throw notFound('Revision');
+    return { ...r, corner: upgradeCornerDocument(r.corner) };
+  }
+}

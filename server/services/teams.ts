@@ -1,0 +1,106 @@
+/** Teams and memberships, with last-owner protection. */
+import { and, asc, eq, sql } from 'drizzle-orm';
+import type { Orm } from '../db/client.js';
+import { memberships, teams, users } from '../db/schema.js';
+import { HttpError, notFound } from '../http/errors.js';
+import { permissionsOf, type Role } from '../permissions.js';
+import { normaliseEmail } from './accounts.js';
+
+export interface TeamSummary {
+  id: string;
+  name: string;
+  slug: string;
+  roles: Role[];
+}
+
+export interface Member {
+  userId: string;
+  email: string;
+  displayName: string;
+  roles: Role[];
+}
+
+const lastOwner = () => new HttpError(409, 'last_owner', 'A team needs at least one owner: make someone else an owner first');
+
+export class Teams {
+  constructor(private readonly orm: Orm) {}
+
+  async listFor(userId: string): Promise<TeamSummary[]> {
+    const rows = await this.orm
+      .select({ id: teams.id, name: teams.name, slug: teams.slug, roles: memberships.roles })
+      .from(memberships)
+      .innerJoin(teams, eq(teams.id, memberships.teamId))
+      .where(eq(memberships.userId, userId))
+      .orderBy(asc(teams.name));
+    return rows.map((r) => ({ ...r, roles: r.roles as Role[] }));
+  }
+
+  async detail(teamId: string, roles: Role[]) {
+    const [t] = await this.orm.select({ id: teams.id, name: teams.name, slug: teams.slug }).from(teams).where(eq(teams.id, teamId));
+    if (!t) throw notFound('Team');
+    return { ...t, roles, permissions: permissionsOf(roles) };
+  }
+
+  async create(userId: string, input: { name: string; slug: string }): Promise<TeamSummary> {
+    return this.orm.transaction(async (tx) => {
+      const [t] = await tx.insert(teams).values(input).onConflictDoNothing({ target: teams.slug }).returning();
+      if (!t) throw new HttpError(409, 'slug_taken', `The address "${input.slug}" is already used by another team`);
+      await tx.insert(memberships).values({ teamId: t.id, userId, roles: ['owner'] });
+      return { id: t.id, name: t.name, slug: t.slug, roles: ['owner'] };
+    });
+  }
+
+  async rename(teamId: string, name: string, roles: Role[]) {
+    await this.orm.update(teams).set({ name }).where(eq(teams.id, teamId));
+    return this.detail(teamId, roles);
+  }
+
+  async remove(teamId: string): Promise<void> {
+    await this.orm.delete(teams).where(eq(teams.id, teamId));
+  }
+
+  async members(teamId: string): Promise<Member[]> {
+    const rows = await this.orm
+      .select({ userId: users.id, email: users.email, displayName: users.displayName, roles: memberships.roles })
+      .from(memberships)
+      .innerJoin(users, eq(users.id, memberships.userId))
+      .where(eq(memberships.teamId, teamId))
+      .orderBy(asc(users.displayName));
+    return rows.map((r) => ({ ...r, roles: r.roles as Role[] }));
+  }
+
+  async addMember(teamId: string, emailRaw: string, roles: Role[]): Promise<Member> {
+    const [u] = await this.orm
+      .select({ id: users.id, email: users.email, displayName: users.displayName })
+      .from(users)
+      .where(eq(users.email, normaliseEmail(emailRaw)));
+    if (!u) throw new HttpError(404, 'user_not_found', 'No Rollwise account uses that e-mail address; ask them to register first');
+    const inserted = await this.orm.insert(memberships).values({ teamId, userId: u.id, roles }).onConflictDoNothing().returning();
+    if (!inserted.length) throw new HttpError(409, 'already_member', `${u.displayName} is already a member of this team`);
+    return { userId: u.id, email: u.email, displayName: u.displayName, roles };
+  }
+
+  /** Changes roles (roles given) or removes the member (roles null), never leaving the team without an owner. */
+  async changeMember(teamId: string, userId: string, roles: Role[] | null): Promise<Member | null> {
+    return this.orm.transaction(async (tx) => {
+      // Lock the team's memberships so two concurrent demotions cannot both pass the owner count.
+      const all = await tx
+        .select({ userId: memberships.userId, roles: memberships.roles })
+        .from(memberships)
+        .where(eq(memberships.teamId, teamId))
+        .for('update');
+      const target = all.find((m) => m.userId === userId);
+      if (!target) throw notFound('Member');
+      const ownersAfter = all.filter((m) => (m.userId === userId ? roles?.includes('owner') : m.roles.includes('owner'))).length;
+      if (ownersAfter === 0) throw lastOwner();
+      const where = and(eq(memberships.teamId, teamId), eq(memberships.userId, userId));
+      if (roles === null) {
+        await tx.delete(memberships).where(where);
+        return null;
+      }
+      await tx.update(memberships).set({ roles: sql`${roles}::text[]` }).where(where);
+      const [u] = await tx.select({ email: users.email, displayName: users.displayName }).from(users).where(eq(users.id, userId));
+      return { userId, email: u?.email ?? '', displayName: u?.displayName ?? '', roles };
+    });
+  }
+}

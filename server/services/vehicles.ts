@@ -1,0 +1,131 @@
+/**
+ * Vehicles of a team. Every change (data, name, archived) is a new immutable
+ * revision written in the same transaction as a conditional update on the
+ * current revision, so a stale write can never overwrite a newer one.
+ */
+import { and, asc, desc, eq, sql } from 'drizzle-orm';
+import type { Executor, Orm } from '../db/client.js';
+import { users, vehicleRevisions, vehicles } from '../db/schema.js';
+import { notFound } from '../http/errors.js';
+import { upgradeVehicleDocument, vehicleSchema, type Vehicle } from '../../shared/schema/vehicle.js';
+import { parseDocument, staleRevision, type RevisionRow } from './revisions.js';
+
+export interface VehicleView {
+  id: string;
+  name: string;
+  archived: boolean;
+  revision: number;
+  data: unknown;
+  updatedAt: Date;
+  updatedByName: string | null;
+}
+
+export type VehicleSummary = Omit<VehicleView, 'data'>;
+
+export const parseVehicleData = (doc: unknown): Vehicle => parseDocument(vehicleSchema, upgradeVehicleDocument, doc, 'vehicle data');
+
+const summaryColumns = {
+  id: vehicles.id,
+  name: vehicles.name,
+  archived: vehicles.archived,
+  revision: vehicles.revision,
+  updatedAt: vehicles.updatedAt,
+  updatedByName: users.displayName,
+};
+
+export class Vehicles {
+  constructor(private readonly orm: Orm) {}
+
+  async list(teamId: string, includeArchived: boolean): Promise<VehicleSummary[]> {
+    const where = includeArchived ? eq(vehicles.teamId, teamId) : and(eq(vehicles.teamId, teamId), eq(vehicles.archived, false));
+    return this.orm.select(summaryColumns).from(vehicles).leftJoin(users, eq(users.id, vehicles.updatedBy)).where(where).orderBy(asc(vehicles.name));
+  }
+
+  async get(teamId: string, vehicleId: string, orm: Executor = this.orm): Promise<VehicleView> {
+    const [v] = await orm
+      .select({ ...summaryColumns, data: vehicles.data })
+      .from(vehicles)
+      .leftJoin(users, eq(users.id, vehicles.updatedBy))
+      .where(and(eq(vehicles.id, vehicleId), eq(vehicles.teamId, teamId)));
+    if (!v) throw notFound('Vehicle');
+    return { ...v, data: v.data === null ? null : upgradeVehicleDocument(v.data) };
+  }
+
+  async create(teamId: string, authorId: string, input: { name: string; data?: unknown }): Promise<VehicleView> {
+    const data = input.data === undefined || input.data === null ? null : parseVehicleData(input.data);
+    return this.orm.transaction(async (tx) => {
+      const [v] = await tx.insert(vehicles).values({ teamId, name: input.name, data, updatedBy: authorId }).returning({ id: vehicles.id });
+      if (!v) throw new Error('insert returned nothing');
+      await tx.insert(vehicleRevisions).values({ vehicleId: v.id, revision: 1, name: input.name, archived: false, data, message: 'Created', authorId });
+      return this.get(teamId, v.id, tx);
+    });
+  }
+
+  /** Applies a change based on `baseRevision`; 409 `stale_revision` when someone saved in between. */
+  async update(
+    teamId: string,
+    vehicleId: string,
+    authorId: string,
+    baseRevision: number,
+    change: { name?: string | undefined; archived?: boolean | undefined; data?: Vehicle; message?: string | undefined },
+  ): Promise<VehicleView> {
+    return this.orm.transaction(async (tx) => {
+      const set: Record<string, unknown> = {
+        revision: sql`${vehicles.revision} + 1`,
+        updatedAt: sql`now()`,
+        updatedBy: authorId,
+      };
+      if (change.name !== undefined) set['name'] = change.name;
+      if (change.archived !== undefined) set['archived'] = change.archived;
+      if (change.data !== undefined) set['data'] = change.data;
+      const [row] = await tx
+        .update(vehicles)
+        .set(set)
+        .where(and(eq(vehicles.id, vehicleId), eq(vehicles.teamId, teamId), eq(vehicles.revision, baseRevision)))
+        .returning();
+      if (!row) {
+        const current = await this.get(teamId, vehicleId, tx); // 404 when it is not this team's
+        throw staleRevision(baseRevision, current);
+      }
+      await tx.insert(vehicleRevisions).values({
+        vehicleId,
+        revision: row.revision,
+        name: row.name,
+        archived: row.archived,
+        data: row.data,
+        message: change.message ?? null,
+        authorId,
+      });
+      return this.get(teamId, vehicleId, tx);
+    });
+  }
+
+  async revisions(teamId: string, vehicleId: string): Promise<RevisionRow[]> {
+    await this.get(teamId, vehicleId);
+    return this.orm
+      .select({ revision: vehicleRevisions.revision, message: vehicleRevisions.message, authorName: users.displayName, createdAt: vehicleRevisions.createdAt })
+      .from(vehicleRevisions)
+      .leftJoin(users, eq(users.id, vehicleRevisions.authorId))
+      .where(eq(vehicleRevisions.vehicleId, vehicleId))
+      .orderBy(desc(vehicleRevisions.revision));
+  }
+
+  async revision(teamId: string, vehicleId: string, revision: number) {
+    await this.get(teamId, vehicleId);
+    const [r] = await this.orm
+      .select({
+        revision: vehicleRevisions.revision,
+        name: vehicleRevisions.name,
+        archived: vehicleRevisions.archived,
+        data: vehicleRevisions.data,
+        message: vehicleRevisions.message,
+        authorName: users.displayName,
+        createdAt: vehicleRevisions.createdAt,
+      })
+      .from(vehicleRevisions)
+      .leftJoin(users, eq(users.id, vehicleRevisions.authorId))
+      .where(and(eq(vehicleRevisions.vehicleId, vehicleId), eq(vehicleRevisions.revision, revision)));
+    if (!r) throw notFound('Revision');
+    return { ...r, data: r.data === null ? null : upgradeVehicleDocument(r.data) };
+  }
+}

@@ -1,0 +1,74 @@
+/** Shared set-up for API tests: a migrated fresh database, an app on it, and signed-in agents. */
+import request from 'supertest';
+import { expect } from 'vitest';
+import { freshDatabaseUrl } from '../support/db.js';
+import { loadConfig, type Config } from '../../server/config.js';
+import { createDatabase, type Database } from '../../server/db/client.js';
+import { migrateDatabase } from '../../server/db/migrate.js';
+import { createApp, type RollwiseApp } from '../../server/app.js';
+import { seedDemo, DEMO_PASSWORD } from '../../server/db/seed.js';
+
+export { DEMO_PASSWORD };
+
+export interface TestApp {
+  app: RollwiseApp;
+  db: Database;
+  databaseUrl: string;
+  config: Config;
+  close(): Promise<void>;
+}
+
+export function testConfig(databaseUrl: string, overrides: Partial<Config> = {}): Config {
+  return { ...loadConfig({ NODE_ENV: 'test' }), databaseUrl, staticDir: '/nonexistent-rollwise-static', ...overrides };
+}
+
+/** A fresh database (migrated, optionally seeded) and an app on it. */
+export async function startTestApp(o: { seed?: boolean; databaseUrl?: string; config?: Partial<Config> } = {}): Promise<TestApp> {
+  const databaseUrl = o.databaseUrl ?? freshDatabaseUrl();
+  const db = createDatabase(databaseUrl);
+  await migrateDatabase(db);
+  if (o.seed) await seedDemo(db.orm, { bcryptRounds: 4 });
+  const config = testConfig(databaseUrl, o.config);
+  const app = createApp(config, db);
+  return {
+    app,
+    db,
+    databaseUrl,
+    config,
+    async close() {
+      await app.close();
+      await db.close();
+    },
+  };
+}
+
+export type Agent = ReturnType<typeof request.agent>;
+
+/** An agent that keeps cookies and sends the CSRF header on every request. */
+export function agent(app: RollwiseApp): Agent {
+  return request.agent(app).set('X-Rollwise-Request', '1');
+}
+
+export async function signIn(app: RollwiseApp, email: string, password = DEMO_PASSWORD): Promise<Agent> {
+  const a = agent(app);
+  const r = await a.post('/api/auth/sign-in').send({ email, password });
+  expect(r.status, `sign-in of ${email}: ${JSON.stringify(r.body)}`).toBe(200);
+  return a;
+}
+
+let counter = 0;
+export async function registerUser(app: RollwiseApp, name = 'Test User'): Promise<{ agent: Agent; email: string; id: string }> {
+  const email = `user${++counter}-${Date.now()}@test.example`;
+  const a = agent(app);
+  const r = await a.post('/api/auth/register').send({ email, password: 'long-enough-pass', displayName: name });
+  expect(r.status, JSON.stringify(r.body)).toBe(201);
+  return { agent: a, email, id: r.body.user.id as string };
+}
+
+/** The `{ error: { code, message } }` shape, with the given status and code. */
+export function expectError(r: request.Response, status: number, code: string): void {
+  expect(r.status, JSON.stringify(r.body)).toBe(status);
+  expect(r.body?.error?.code).toBe(code);
+  expect(typeof r.body.error.message).toBe('string');
+  expect(JSON.stringify(r.body)).not.toMatch(/\bat \S+ \(|node_modules|\.ts:\d+/);
+}
