@@ -28,8 +28,8 @@ const tur26Ember: Vehicle = {
     antiRollBar: { rollRateNmPerDeg: 240 },
     rollSteerCoefficient: 0,
     rollCamberDegPerDeg: 0.35,
-    complianceSteerDegPerKN: 0.12,
-    steeringStiffnessNmPerDeg: 55,
+    complianceSteerDegPerKN: 0.06,
+    steeringStiffnessNmPerDeg: 120,
   },
   rear: {
     trackMm: 1180,
@@ -68,8 +68,8 @@ const tur25Cinder: Vehicle = {
     antiRollBar: { outerDiameterMm: 16, innerDiameterMm: 12, activeLengthMm: 380, leverLengthMm: 70, linkMotionRatio: 0.6 },
     rollSteerCoefficient: 0.01,
     rollCamberDegPerDeg: 0.3,
-    complianceSteerDegPerKN: 0.15,
-    steeringStiffnessNmPerDeg: 50,
+    complianceSteerDegPerKN: 0.07,
+    steeringStiffnessNmPerDeg: 110,
   },
   rear: {
     trackMm: 1190,
@@ -108,7 +108,7 @@ const brackenfieldB3: Vehicle = {
     antiRollBar: { rollRateNmPerDeg: 480 },
     rollSteerCoefficient: 0.06,
     rollCamberDegPerDeg: 0.75,
-    complianceSteerDegPerKN: 0.25,
+    complianceSteerDegPerKN: 0.04,
     steeringStiffnessNmPerDeg: 1400,
   },
   rear: {
@@ -121,7 +121,7 @@ const brackenfieldB3: Vehicle = {
     antiRollBar: { rollRateNmPerDeg: 200 },
     rollSteerCoefficient: -0.03,
     rollCamberDegPerDeg: 0.7,
-    complianceSteerDegPerKN: -0.1,
+    complianceSteerDegPerKN: -0.02,
   },
 };
 
@@ -148,7 +148,7 @@ const brackenfieldB5: Vehicle = {
     antiRollBar: { rollRateNmPerDeg: 520 },
     rollSteerCoefficient: 0.06,
     rollCamberDegPerDeg: 0.75,
-    complianceSteerDegPerKN: 0.25,
+    complianceSteerDegPerKN: 0.04,
     steeringStiffnessNmPerDeg: 1400,
   },
   rear: {
@@ -161,7 +161,7 @@ const brackenfieldB5: Vehicle = {
     antiRollBar: { rollRateNmPerDeg: 180 },
     rollSteerCoefficient: -0.04,
     rollCamberDegPerDeg: 0.7,
-    complianceSteerDegPerKN: -0.1,
+    complianceSteerDegPerKN: -0.02,
   },
 };
 

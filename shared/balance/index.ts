@@ -1,0 +1,173 @@
+/**
+ * The vehicle balance model (issue 4): roll stiffness and load transfer,
+ * the understeer budget and its sensitivity, the steady-state bicycle model
+ * and the step-steer transient. Pure and synchronous; docs/balance.md
+ * documents every formula and output.
+ */
+import { SAFETY_CAUTION } from '../intent/cautions.js';
+import type { Vehicle } from '../schema/vehicle.js';
+import { DEG, KPH } from './constants.js';
+import { evaluateRoll, type AxleLoadTransfer, type AxleRollStiffness, type MassProperties } from './roll.js';
+import { gainsAt, sideslipZeroSpeedKph, speedCharacteristic, steerCurve, type GainRow, type SpeedCharacteristic, type SteerCurve } from './steady.js';
+import { stepResponse, transientModels, type StepResponse } from './transient.js';
+import {
+  balanceCore,
+  DEFAULT_BUDGET_LATERAL_G,
+  understeerBudget,
+  understeerGradientAt,
+  understeerSensitivity,
+  type AxleCompliance,
+  type SensitivityEntry,
+  type UndersteerBudget,
+  type Validity,
+} from './understeer.js';
+
+export { exampleVehicles, type ExampleVehicleName } from './examples.js';
+export { rollSteerUndersteerDegPerG, suspensionRollGradients, understeerSensitivity, budgetFromCompliances, BUDGET_TERMS } from './understeer.js';
+export { evaluateRoll, seriesStiffness, barTorsionalRateNmPerRad, springRollStiffnessNmPerRad, tyreRollStiffnessNmPerRad } from './roll.js';
+export { compareBalance, type BalanceComparison } from './compare.js';
+
+export const DEFAULT_SPEEDS_KPH: readonly number[] = Array.from({ length: 20 }, (_, i) => 10 * (i + 1));
+
+export interface BalanceOptions {
+  /** Lateral acceleration of the load-transfer term, g (default 0.4). */
+  lateralAccelerationG?: number;
+  /** Speed of the step steer, km/h (default 80). */
+  speedKph?: number;
+  /** Speeds of the gain table, km/h (default 10…200 in steps of 10). */
+  speedsKph?: readonly number[];
+  /** Radius of the steer-angle curve, m (default 40). */
+  cornerRadiusM?: number;
+  /** Highest lateral acceleration of the steer curve, g (default 0.8, cut at the validity limit). */
+  steerCurveMaxG?: number;
+  steerCurvePoints?: number;
+  /** Road-wheel step steer, deg (default 1). */
+  stepSteerDeg?: number;
+  /** Simulated time of the step, s (default 3). */
+  stepDurationS?: number;
+  /** Sampling interval of the step metrics, s (default 0.001); history rows every 10 ms. */
+  stepSampleS?: number;
+  /** Rank the inputs by their effect on K (default true). */
+  sensitivity?: boolean;
+  /** K points of K(a_y) (default 9, from 0 to the validity limit). */
+  gradientPoints?: number;
+}
+
+export interface BalanceResult {
+  vehicleName: string | null;
+  caution: string;
+  /** Which roll-gradient formula was used (options.rollGravityTerm). */
+  rollGravityTerm: { included: boolean; note: string };
+  mass: MassProperties;
+  rollGradientDegPerG: number;
+  rollStiffnessNmPerDeg: { front: number; rear: number; frontShare: number; detail: { front: AxleRollStiffness; rear: AxleRollStiffness } };
+  suspensionRollDegPerG: { front: number; rear: number };
+  lateralLoadTransfer: { frontNPerG: number; rearNPerG: number; frontShare: number; front: AxleLoadTransfer; rear: AxleLoadTransfer };
+  rollMomentBalance: { loadTransferMomentNmPerG: number; appliedMomentNmPerG: number; gravityMomentNmPerG: number; relativeError: number; holds: boolean };
+  rollCentreHeightMm: { front: number; rear: number };
+  understeerBudget: UndersteerBudget;
+  budgetLateralAccelerationG: number;
+  linearUndersteerGradientDegPerG: number;
+  axleCompliance: { front: AxleCompliance; rear: AxleCompliance };
+  understeerGradientByLateralAcceleration: { lateralAccelerationG: number; understeerGradientDegPerG: number }[];
+  validity: Validity;
+  sensitivity: { fraction: number; entries: SensitivityEntry[] } | null;
+  regime: SpeedCharacteristic['regime'];
+  neutralSteer: boolean;
+  characteristicSpeedKph: number | null;
+  criticalSpeedKph: number | null;
+  gains: { peakYawRateGainPerS: number | null; sideslipZeroSpeedKph: number | null; unstableAboveKph: number | null; rows: GainRow[] };
+  steerCurve: SteerCurve;
+  stepSteer: StepResponse & { withRoll: StepResponse | null };
+}
+
+export function evaluateBalance(vehicle: Vehicle, options: BalanceOptions = {}): BalanceResult {
+  const lateralG = options.lateralAccelerationG ?? DEFAULT_BUDGET_LATERAL_G;
+  const roll = evaluateRoll(vehicle);
+  const core = balanceCore(vehicle, roll);
+  const budget = understeerBudget(core, lateralG);
+  const K = budget.understeerBudget.total;
+  const L = core.wheelbaseM;
+  const b = L - core.cgToFrontM;
+  const sc = speedCharacteristic(K, L);
+  const gainInputs = { kDegPerG: K, wheelbaseM: L, cgToRearM: b, rearComplianceDegPerG: budget.axleCompliance.rear.total, steeringRatio: vehicle.steeringRatio };
+  const gradientPoints = options.gradientPoints ?? 9;
+  const kOfAyMaxG = Math.min(1, 0.98 * physicalLimit(budget.validity));
+  const kOfAy = Array.from({ length: gradientPoints }, (_, i) => {
+    const A = (kOfAyMaxG * i) / Math.max(1, gradientPoints - 1);
+    return { lateralAccelerationG: A, understeerGradientDegPerG: understeerGradientAt(core, A) };
+  });
+  const curve = steerCurve(core, {
+    radiusM: options.cornerRadiusM ?? 40,
+    maxG: options.steerCurveMaxG ?? 0.8,
+    points: options.steerCurvePoints ?? 20,
+    slopeAtG: lateralG,
+    linearKDegPerG: budget.linearUndersteerGradientDegPerG,
+    limitG: physicalLimit(budget.validity),
+  });
+  const speedMps = (options.speedKph ?? 80) * KPH;
+  const models = transientModels(core, budget.axleCompliance, speedMps);
+  const stepOpts = { steerRad: (options.stepSteerDeg ?? 1) * DEG, durationS: options.stepDurationS ?? 3, sampleS: options.stepSampleS ?? 0.001, historyEvery: Math.max(1, Math.round(0.01 / (options.stepSampleS ?? 0.001))) };
+  const step2 = stepResponse(models.twoDof, stepOpts);
+  const step3 = models.threeDof ? stepResponse(models.threeDof, stepOpts) : null;
+  const mb = roll.rollMomentBalance;
+  const sens = options.sensitivity === false ? null : understeerSensitivity(vehicle, lateralG);
+  return {
+    vehicleName: vehicle.name ?? null,
+    caution: SAFETY_CAUTION,
+    rollGravityTerm: {
+      included: roll.gravityTerm,
+      note: roll.gravityTerm
+        ? "roll gradient includes the sprung mass's gravity term m_s·g·h₁"
+        : "gravity term omitted (options.rollGravityTerm = false), as in simplified published analyses; roll gradient and elastic load transfer are lower",
+    },
+    mass: roll.mass,
+    rollGradientDegPerG: roll.rollGradientDegPerG,
+    rollStiffnessNmPerDeg: {
+      front: roll.rollStiffness.front.totalNmPerDeg,
+      rear: roll.rollStiffness.rear.totalNmPerDeg,
+      frontShare: roll.rollStiffnessFrontShare,
+      detail: roll.rollStiffness,
+    },
+    suspensionRollDegPerG: roll.suspensionRollDegPerG,
+    lateralLoadTransfer: {
+      frontNPerG: roll.lateralLoadTransfer.front.totalNPerG,
+      rearNPerG: roll.lateralLoadTransfer.rear.totalNPerG,
+      frontShare: roll.lateralLoadTransfer.frontShare,
+      front: roll.lateralLoadTransfer.front,
+      rear: roll.lateralLoadTransfer.rear,
+    },
+    rollMomentBalance: {
+      loadTransferMomentNmPerG: mb.loadTransferMomentNm,
+      appliedMomentNmPerG: mb.appliedMomentNm,
+      gravityMomentNmPerG: mb.gravityMomentNm,
+      relativeError: mb.relativeError,
+      holds: mb.relativeError <= 1e-9,
+    },
+    rollCentreHeightMm: roll.rollCentreHeightMm,
+    understeerBudget: budget.understeerBudget,
+    budgetLateralAccelerationG: lateralG,
+    linearUndersteerGradientDegPerG: budget.linearUndersteerGradientDegPerG,
+    axleCompliance: budget.axleCompliance,
+    understeerGradientByLateralAcceleration: kOfAy,
+    validity: budget.validity,
+    sensitivity: sens ? { fraction: sens.fraction, entries: sens.entries } : null,
+    regime: sc.regime,
+    neutralSteer: sc.neutral,
+    characteristicSpeedKph: sc.characteristicSpeedKph,
+    criticalSpeedKph: sc.criticalSpeedKph,
+    gains: {
+      peakYawRateGainPerS: sc.peakYawRateGainPerS,
+      sideslipZeroSpeedKph: sideslipZeroSpeedKph(b, budget.axleCompliance.rear.total),
+      unstableAboveKph: sc.criticalSpeedKph,
+      rows: (options.speedsKph ?? DEFAULT_SPEEDS_KPH).map((s) => gainsAt(gainInputs, s)),
+    },
+    steerCurve: curve,
+    stepSteer: { ...step2, withRoll: step3 },
+  };
+}
+
+/** Where the load-sensitive model itself ends (wheel lift, stiffness reaching zero), g. */
+function physicalLimit(v: Validity): number {
+  return Math.min(v.wheelLiftG.front, v.wheelLiftG.rear, v.stiffnessLimitG.front ?? Infinity, v.stiffnessLimitG.rear ?? Infinity);
+}
