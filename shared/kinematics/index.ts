@@ -1,2 +1,46 @@
-/** Corner and axle kinematics: public library API (see docs/kinematics.md). */
+/**
+ * Corner and axle kinematics: public library API (see docs/kinematics.md).
+ * Conventions (axes, signs, units) are those of shared/docs/domain.md.
+ */
 export { exampleCorners, type ExampleCornerName } from './examples.js';
+export { compileCorner, type CornerModel, type Side } from './model.js';
+export { CornerSolver, RESIDUAL_TOL_MM, type SolveDiagnostics } from './solver.js';
+export { poseOutputs, kingpinAxis, type PoseResult, type KingpinAxis } from './pose.js';
+export {
+  solvePose,
+  sweepCorner,
+  sweepTravels,
+  expandRange,
+  checkRack,
+  MAX_SWEEP_POINTS,
+  type PoseState,
+  type Range,
+  type SweepOptions,
+  type SweepResult,
+  type SweepRow,
+  type SweepFit,
+} from './sweep.js';
+export { polyFit, fitToeCamber, type ToeFit } from './fit.js';
+export {
+  axleSides,
+  axleKinematics,
+  axleSummary,
+  rollSweep,
+  rollSteerCoefficient,
+  rackForAxleSteer,
+  ackermannPercent,
+  frontViewIc,
+  sideViewIc,
+  rollCentreOf,
+  rightCornerToLeftFrame,
+  type AxleSides,
+  type AxleSummary,
+  type AxleKinematicsOptions,
+  type AntiOptions,
+  type RollRow,
+  type RollRackSummary,
+  type RollSweepOptions,
+  type SteeringRow,
+  type FrontViewIc,
+  type SideViewIc,
+} from './axle.js';

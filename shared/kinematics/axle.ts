@@ -1,0 +1,459 @@
+/**
+ * Axle kinematics from a left corner and its mirror (or an explicit right
+ * corner): front- and side-view instant centres, roll centre, anti-dive /
+ * anti-squat, steering (ratio, Ackermann), and the roll sweep of domain.md
+ * (roll steer coefficient ε = −dδ̄/dφ, roll camber). Every derivative comes
+ * from the solver's analytic pose tangents.
+ */
+import { InputError, SolveError, formatPath } from '../errors.js';
+import { cornerSchema, type Corner, type Vec3 } from '../schema/corner.js';
+import { compileCorner } from './model.js';
+import { CornerSolver } from './solver.js';
+import { poseOutputs, uprightPoint, type PoseResult } from './pose.js';
+import { expandRange, checkRack, type Range } from './sweep.js';
+import { RAD } from './vec.js';
+
+// ---------- the two sides ----------
+
+/** Mirrors a RIGHT corner (vehicle frame, y < 0) into the left frame; the rack axis stays a vehicle-frame direction. */
+export function rightCornerToLeftFrame(right: unknown): Corner {
+  const flip = (v: unknown, key: string): unknown => {
+    if (Array.isArray(v) && v.length === 3 && v.every((n) => typeof n === 'number') && key !== 'rackAxis') return [v[0], -v[1], v[2]];
+    if (Array.isArray(v)) return v.map((x) => flip(x, ''));
+    if (v && typeof v === 'object') return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, flip(x, k)]));
+    return v;
+  };
+  const r = cornerSchema.safeParse(flip(right, ''));
+  if (!r.success) {
+    const issues = r.error.issues.map((i) => ({ path: `rightCorner.${formatPath(i.path)}`, message: i.message.replace(/\(y (-?[\d.]+)/g, '(mirrored y $1') }));
+    throw new InputError(`Invalid right corner (checked as its mirror image): ${issues[0]!.path}: ${issues[0]!.message}`, issues);
+  }
+  return r.data;
+}
+
+/** Left and right solvers of an axle (right = mirror of the left corner unless given). */
+export interface AxleSides {
+  left: CornerSolver;
+  right: CornerSolver;
+  /** Design contact-patch track, mm. */
+  trackMm: number;
+}
+
+export function axleSides(corner: Corner, rightCorner?: unknown): AxleSides {
+  const lm = compileCorner(corner);
+  const rm = rightCorner === undefined ? lm : compileCorner(rightCornerToLeftFrame(rightCorner));
+  if (rm.corner.steered !== lm.corner.steered) {
+    throw new InputError('rightCorner.steered must match the left corner', [{ path: 'rightCorner.steered', message: 'must match the left corner' }]);
+  }
+  return { left: new CornerSolver(lm, 'left'), right: new CornerSolver(rm, 'right'), trackMm: lm.cp0[1] + rm.cp0[1] };
+}
+
+/** Steering input range both sides accept. */
+function axleStroke(sides: AxleSides): [number, number] {
+  const a = sides.left.model.rackStroke;
+  const b = sides.right.model.rackStroke;
+  return [Math.max(a[0], b[0]), Math.min(a[1], b[1])];
+}
+
+function checkAxleRack(sides: AxleSides, racks: number[], field: string): void {
+  checkRack(sides.left.model, racks, field);
+  if (sides.right.model !== sides.left.model) checkRack(sides.right.model, racks, field);
+}
+
+/** Steer angle rate of a solved side, deg per mm of travel (from the toe gradient: toe_L = −δ_L, toe_R = δ_R). */
+function steerRatePerMm(p: PoseResult): number {
+  return ((p.side === 'left' ? -1 : 1) * p.toeGradientDegPerM) / 1000;
+}
+
+/** Steer angle rate per mm of rack at the current pose, deg/mm (from the steering tangent). */
+function steerPerRack(s: CornerSolver): number {
+  const m = s.model;
+  const a = rot(s.R, m.spin0);
+  const w: Vec3 = [s.tSteer[3]!, s.tSteer[4]!, s.tSteer[5]!];
+  const da: Vec3 = [w[1] * a[2] - w[2] * a[1], w[2] * a[0] - w[0] * a[2], w[0] * a[1] - w[1] * a[0]];
+  const ddm = (a[0] * da[1] - a[1] * da[0]) / (a[0] * a[0] + a[1] * a[1]);
+  return (s.side === 'left' ? ddm : -ddm) * RAD;
+}
+
+function rot(R: Float64Array, v: ArrayLike<number>): Vec3 {
+  return [R[0]! * v[0]! + R[1]! * v[1]! + R[2]! * v[2]!, R[3]! * v[0]! + R[4]! * v[1]! + R[5]! * v[2]!, R[6]! * v[0]! + R[7]! * v[1]! + R[8]! * v[2]!];
+}
+
+// ---------- instant centres ----------
+
+export interface FrontViewIc {
+  /** Instant centre in the vehicle front view (y, z), mm; null at infinity (parallel arms). */
+  yMm: number | null;
+  zMm: number | null;
+  /** Unit direction (y, z) of the line from the contact patch toward the instant centre. */
+  lineDir: [number, number];
+  /** Contact patch (y, z) the line passes through, mm. */
+  cp: [number, number];
+}
+
+/** Front-view instant centre of a solved side, in the vehicle frame (right side mirrored back). */
+export function frontViewIc(s: CornerSolver): FrontViewIc {
+  const p = poseOutputs(s);
+  const sg = s.side === 'left' ? 1 : -1;
+  const cpLeft: Vec3 = [p.contactPatch[0], sg * p.contactPatch[1], p.contactPatch[2]];
+  const { v } = uprightPoint(s, cpLeft, s.tTravel);
+  // Left frame: the instant centre lies on the perpendicular to the contact-patch velocity.
+  const vy = v[1];
+  const vz = v[2];
+  const wx = s.tTravel[3]!;
+  let dy = -vz;
+  let dz = vy;
+  const n = Math.hypot(dy, dz);
+  dy /= n;
+  dz /= n;
+  if (dy > 0) {
+    // Point the line inboard (toward −y in the left frame).
+    dy = -dy;
+    dz = -dz;
+  }
+  const far = Math.abs(wx) < 1e-12;
+  const yL = far ? null : cpLeft[1] - vz / wx;
+  const zL = far ? null : cpLeft[2] + vy / wx;
+  return {
+    yMm: yL === null ? null : sg * yL,
+    zMm: zL,
+    lineDir: [sg * dy, dz],
+    cp: [sg * cpLeft[1], cpLeft[2]],
+  };
+}
+
+/** Intersection of the two contact-patch-to-IC lines (front view), mm; null if parallel. */
+export function rollCentreOf(l: FrontViewIc, r: FrontViewIc): { yMm: number; heightMm: number } | null {
+  // l.cp + a·l.dir = r.cp + b·r.dir
+  const det = l.lineDir[0] * -r.lineDir[1] - l.lineDir[1] * -r.lineDir[0];
+  if (Math.abs(det) < 1e-12) return null;
+  const ry = r.cp[0] - l.cp[0];
+  const rz = r.cp[1] - l.cp[1];
+  const a = (ry * -r.lineDir[1] - rz * -r.lineDir[0]) / det;
+  return { yMm: l.cp[0] + a * l.lineDir[0], heightMm: l.cp[1] + a * l.lineDir[1] };
+}
+
+export interface SideViewIc {
+  /** Side-view instant centre (x, z), mm; null at infinity. */
+  xMm: number | null;
+  zMm: number | null;
+  /** tan of the side-view swing-arm angle seen from the contact patch (outboard brakes), and from the wheel centre (inboard drive/brakes), positive when the IC is above the point toward the axle's anti side. */
+  tanFromContactPatchFront: number;
+  tanFromWheelCentreFront: number;
+}
+
+/** Side-view instant centre of the left corner at its current pose. */
+export function sideViewIc(s: CornerSolver): SideViewIc {
+  const p = poseOutputs(s);
+  const cp = p.contactPatch;
+  const sg = s.side === 'left' ? 1 : -1;
+  const vcp = uprightPoint(s, [cp[0], sg * cp[1], cp[2]], s.tTravel).v;
+  const vwc: Vec3 = [s.tTravel[0]!, s.tTravel[1]!, s.tTravel[2]!];
+  const wy = s.tTravel[4]!;
+  const far = Math.abs(wy) < 1e-12;
+  return {
+    xMm: far ? null : cp[0] + vcp[2] / wy,
+    zMm: far ? null : cp[2] - vcp[0] / wy,
+    // IC behind and above (a front axle's anti-dive side): the point moves forward in bump, tan = v_x / v_z.
+    tanFromContactPatchFront: vcp[0] / vcp[2],
+    tanFromWheelCentreFront: vwc[0] / vwc[2],
+  };
+}
+
+// ---------- axle analysis ----------
+
+export interface AntiOptions {
+  /** Which axle the corner is. */
+  axle: 'front' | 'rear';
+  cgHeightMm: number;
+  wheelbaseMm: number;
+  /** Share of braking force on the front axle (0–1); outboard brakes act at the contact patch. */
+  brakeFrontFraction?: number;
+  /** Share of drive force on the front axle (0–1); drive through half-shafts acts at the wheel centre. */
+  driveFrontFraction?: number;
+}
+
+export interface AxleKinematicsOptions {
+  rightCorner?: unknown;
+  rackMm?: number;
+  wheelbaseMm?: number;
+  anti?: AntiOptions;
+  /** Rack travel per handwheel revolution, mm (gives the overall steering ratio). */
+  rackMmPerHandwheelRev?: number;
+  /** Number of points over the rack stroke for the steering table (default 21). */
+  steeringPoints?: number;
+}
+
+export interface SteeringRow {
+  rackMm: number;
+  leftSteerDeg: number;
+  rightSteerDeg: number;
+  axleSteerDeg: number;
+  ackermannPercent: number | null;
+}
+
+/** Ackermann percentage: (δ_in − δ_out)/(δ_in − δ_out,ideal)·100 with cot δ_out,ideal = cot δ_in + t/L (common practice); null near straight ahead. */
+export function ackermannPercent(leftSteerDeg: number, rightSteerDeg: number, trackMm: number, wheelbaseMm: number): number | null {
+  const mean = (leftSteerDeg + rightSteerDeg) / 2;
+  if (Math.abs(mean) < 0.5 || !(wheelbaseMm > 0)) return null;
+  const left = mean > 0;
+  const inner = Math.abs(left ? leftSteerDeg : rightSteerDeg) / RAD;
+  const outer = Math.abs(left ? rightSteerDeg : leftSteerDeg) / RAD;
+  const ideal = Math.atan(1 / (1 / Math.tan(inner) + trackMm / wheelbaseMm));
+  const denom = inner - ideal;
+  if (Math.abs(denom) < 1e-12) return null;
+  return ((inner - outer) / denom) * 100;
+}
+
+function solveBoth(sides: AxleSides, travelL: number, travelR: number, rack: number): { l: PoseResult; r: PoseResult } {
+  sides.left.reset();
+  sides.left.solve(0, 0);
+  sides.left.solveTowards(travelL, rack);
+  sides.right.reset();
+  sides.right.solve(0, 0);
+  sides.right.solveTowards(travelR, rack);
+  return { l: poseOutputs(sides.left), r: poseOutputs(sides.right) };
+}
+
+/** Full axle analysis at design height (and the given rack position). */
+export function axleKinematics(corner: Corner, options: AxleKinematicsOptions = {}) {
+  const sides = axleSides(corner, options.rightCorner);
+  const rack = options.rackMm ?? 0;
+  checkAxleRack(sides, [rack], 'rackMm');
+  const { l, r } = solveBoth(sides, 0, 0, rack);
+  const icL = frontViewIc(sides.left);
+  const icR = frontViewIc(sides.right);
+  const rc = rollCentreOf(icL, icR);
+  const sv = sideViewIc(sides.left);
+  let anti: Record<string, number> | null = null;
+  if (options.anti) {
+    const a = options.anti;
+    if (!(a.cgHeightMm > 0)) throw new InputError('anti.cgHeightMm must be positive', [{ path: 'anti.cgHeightMm', message: 'must be positive' }]);
+    if (!(a.wheelbaseMm > 0)) throw new InputError('anti.wheelbaseMm must be positive', [{ path: 'anti.wheelbaseMm', message: 'must be positive' }]);
+    const k = a.wheelbaseMm / a.cgHeightMm;
+    const bf = a.brakeFrontFraction ?? 0.6;
+    const df = a.driveFrontFraction ?? 0;
+    // Anti-dive / anti-lift / anti-squat: tanθ·(L/h)·share·100 (Gillespie ch. 9, from memory); rear tan from the front-view sign flipped.
+    if (a.axle === 'front') {
+      anti = { antiDivePercent: sv.tanFromContactPatchFront * k * bf * 100, antiLiftDrivePercent: sv.tanFromWheelCentreFront * k * df * 100 };
+    } else {
+      anti = { antiLiftPercent: -sv.tanFromContactPatchFront * k * (1 - bf) * 100, antiSquatPercent: -sv.tanFromWheelCentreFront * k * (1 - df) * 100 };
+    }
+  }
+  let steering: null | {
+    rows: SteeringRow[];
+    steeringRatioDegPerMm: number;
+    overallRatio: number | null;
+  } = null;
+  if (corner.steered) {
+    const [lo, hi] = axleStroke(sides);
+    const n = Math.max(3, Math.min(201, options.steeringPoints ?? 21));
+    const rows: SteeringRow[] = [];
+    for (let i = 0; i < n; i++) {
+      const rk = lo + ((hi - lo) * i) / (n - 1);
+      const p = solveBoth(sides, 0, 0, rk);
+      const axleSteerDeg = (p.l.steerDeg + p.r.steerDeg) / 2;
+      rows.push({
+        rackMm: rk,
+        leftSteerDeg: p.l.steerDeg,
+        rightSteerDeg: p.r.steerDeg,
+        axleSteerDeg,
+        ackermannPercent: options.wheelbaseMm ? ackermannPercent(p.l.steerDeg, p.r.steerDeg, sides.trackMm, options.wheelbaseMm) : null,
+      });
+    }
+    solveBoth(sides, 0, 0, 0);
+    const ratio = (steerPerRack(sides.left) + steerPerRack(sides.right)) / 2;
+    steering = {
+      rows,
+      steeringRatioDegPerMm: ratio,
+      overallRatio: options.rackMmPerHandwheelRev ? 360 / options.rackMmPerHandwheelRev / Math.abs(ratio) : null,
+    };
+  }
+  return {
+    trackMm: sides.trackMm,
+    rackMm: rack,
+    left: { frontViewIc: { yMm: icL.yMm, zMm: icL.zMm }, toeDeg: l.toeDeg, camberDeg: l.camberDeg, steerDeg: l.steerDeg },
+    right: { frontViewIc: { yMm: icR.yMm, zMm: icR.zMm }, toeDeg: r.toeDeg, camberDeg: r.camberDeg, steerDeg: r.steerDeg },
+    rollCentreHeightMm: rc ? rc.heightMm : null,
+    rollCentreYMm: rc ? rc.yMm : null,
+    sideViewIc: { xMm: sv.xMm, zMm: sv.zMm },
+    anti,
+    steering,
+  };
+}
+
+// ---------- roll ----------
+
+export interface RollRow {
+  rollDeg: number;
+  rackMm: number;
+  /** Wheel-centre travel of each side, mm (left −s, right +s). */
+  leftTravelMm: number;
+  rightTravelMm: number;
+  leftSteerDeg: number;
+  rightSteerDeg: number;
+  /** Mean steer δ̄ = (δ_L + δ_R)/2, deg, positive to the left. */
+  axleSteerDeg: number;
+  leftToeDeg: number;
+  rightToeDeg: number;
+  /** Camber relative to the body, deg. */
+  leftCamberDeg: number;
+  rightCamberDeg: number;
+  /** Mean lean of the wheel tops toward the outside of the turn relative to the ground, (γ_out − γ_in)/2, deg. */
+  rollCamberDeg: number;
+  /** Kinematic roll centre in the body frame, mm; null when the lines are parallel. */
+  rollCentreHeightMm: number | null;
+  rollCentreYMm: number | null;
+  /** Ackermann percentage at this roll (needs wheelbaseMm and a steered axle off centre). */
+  ackermannPercent: number | null;
+}
+
+export interface RollRackSummary {
+  rackMm: number;
+  /** ε = −dδ̄/dφ at φ = 0, deg/deg (positive: the axle steers out of the turn). */
+  rollSteerCoefficient: number;
+  /** Roll camber coefficient at φ = 0 (domain.md), deg per deg of roll. */
+  rollCamberDegPerDeg: number;
+}
+
+export interface RollSweepOptions {
+  roll: Range;
+  rackMm?: number[];
+  rightCorner?: unknown;
+  wheelbaseMm?: number;
+}
+
+/** ε and roll camber at φ = 0 for one rack position, from the analytic tangents. */
+function rollCoefficients(sides: AxleSides, rack: number): { eps: number; rollCamber: number; l: PoseResult; r: PoseResult } {
+  const { l, r } = solveBoth(sides, 0, 0, rack);
+  const half = sides.trackMm / 2;
+  // ds/dφ = t/2 per rad; left travel −s, right +s (domain.md). Rates in deg/mm → deg/rad, then per degree.
+  const dMean = ((-steerRatePerMm(l) + steerRatePerMm(r)) / 2) * half / RAD;
+  const gL = l.camberGradientDegPerM / 1000;
+  const gR = r.camberGradientDegPerM / 1000;
+  // d/dφ[(γ_R(+s) + φ − γ_L(−s) + φ)/2]
+  const rollCamber = 1 + ((gR + gL) / 2) * half / RAD;
+  return { eps: -dMean, rollCamber, l, r };
+}
+
+/** ε = −dδ̄/dφ at φ = 0 (deg/deg), domain.md. */
+export function rollSteerCoefficient(corner: Corner, rackMm = 0, rightCorner?: unknown): number {
+  const sides = axleSides(corner, rightCorner);
+  checkAxleRack(sides, [rackMm], 'rackMm');
+  return rollCoefficients(sides, rackMm).eps;
+}
+
+/** Roll sweep: body roll φ with heave held at zero, s = (t/2)·sin φ. */
+export function rollSweep(corner: Corner, options: RollSweepOptions) {
+  const sides = axleSides(corner, options.rightCorner);
+  const rolls = expandRange(options.roll, 'roll');
+  if (rolls.some((p) => Math.abs(p) >= 45)) throw new InputError('roll: angles must lie within ±45 deg', [{ path: 'roll', message: 'outside ±45 deg' }]);
+  const racks = options.rackMm && options.rackMm.length ? options.rackMm : [0];
+  checkAxleRack(sides, racks, 'rackMm');
+  const half = sides.trackMm / 2;
+  const rows: RollRow[] = [];
+  const byRack: RollRackSummary[] = [];
+  for (const rack of racks) {
+    const co = rollCoefficients(sides, rack);
+    byRack.push({ rackMm: rack, rollSteerCoefficient: co.eps, rollCamberDegPerDeg: co.rollCamber });
+    // Continuation outward from φ nearest 0, each side by its own solver.
+    let start = 0;
+    for (let i = 1; i < rolls.length; i++) if (Math.abs(rolls[i]!) < Math.abs(rolls[start]!)) start = i;
+    const block = new Array<RollRow>(rolls.length);
+    const at = (i: number) => {
+      const phi = rolls[i]!;
+      const s = half * Math.sin(phi / RAD);
+      sides.left.solveTowards(-s, rack);
+      sides.right.solveTowards(s, rack);
+      const l = poseOutputs(sides.left);
+      const r = poseOutputs(sides.right);
+      const rc = rollCentreOf(frontViewIc(sides.left), frontViewIc(sides.right));
+      block[i] = {
+        rollDeg: phi,
+        rackMm: rack,
+        leftTravelMm: -s,
+        rightTravelMm: s,
+        leftSteerDeg: l.steerDeg,
+        rightSteerDeg: r.steerDeg,
+        axleSteerDeg: (l.steerDeg + r.steerDeg) / 2,
+        leftToeDeg: l.toeDeg,
+        rightToeDeg: r.toeDeg,
+        leftCamberDeg: l.camberDeg,
+        rightCamberDeg: r.camberDeg,
+        rollCamberDeg: (r.camberDeg + phi - (l.camberDeg - phi)) / 2,
+        rollCentreHeightMm: rc ? rc.heightMm : null,
+        rollCentreYMm: rc ? rc.yMm : null,
+        ackermannPercent: options.wheelbaseMm && corner.steered ? ackermannPercent(l.steerDeg, r.steerDeg, sides.trackMm, options.wheelbaseMm) : null,
+      };
+    };
+    for (let i = start; i < rolls.length; i++) at(i);
+    solveBoth(sides, -half * Math.sin(rolls[start]! / RAD), half * Math.sin(rolls[start]! / RAD), rack);
+    for (let i = start - 1; i >= 0; i--) at(i);
+    rows.push(...block);
+  }
+  const main = byRack.find((b) => b.rackMm === 0) ?? byRack[0]!;
+  return {
+    rows,
+    trackMm: sides.trackMm,
+    rollSteerCoefficient: main.rollSteerCoefficient,
+    rollCamberDegPerDeg: main.rollCamberDegPerDeg,
+    byRack,
+  };
+}
+
+export interface AxleSummary {
+  rollSteerCoefficient: number;
+  rollCamberDegPerDeg: number;
+  rollCentreHeightMm: number;
+  trackMm: number;
+  /** Toe-in gradient at design height, deg/m (mean of both sides). */
+  bumpSteerDegPerM: number;
+  springMotionRatio?: number;
+  barMotionRatio?: number;
+}
+
+/** What the balance model takes from an axle's kinematics (design height, given rack). */
+export function axleSummary(corner: Corner, options: { rackMm?: number; rightCorner?: unknown } = {}): AxleSummary {
+  const sides = axleSides(corner, options.rightCorner);
+  const rack = options.rackMm ?? 0;
+  checkAxleRack(sides, [rack], 'rackMm');
+  const co = rollCoefficients(sides, rack);
+  const rc = rollCentreOf(frontViewIc(sides.left), frontViewIc(sides.right));
+  if (!rc) {
+    throw new SolveError('singular_geometry', 'The roll centre is at infinity (the contact-patch-to-instant-centre lines are parallel)', { rackMm: rack });
+  }
+  const out: AxleSummary = {
+    rollSteerCoefficient: co.eps,
+    rollCamberDegPerDeg: co.rollCamber,
+    rollCentreHeightMm: rc.heightMm,
+    trackMm: sides.trackMm,
+    bumpSteerDegPerM: (co.l.toeGradientDegPerM + co.r.toeGradientDegPerM) / 2,
+  };
+  if (co.l.motionRatio !== undefined && co.r.motionRatio !== undefined) out.springMotionRatio = (co.l.motionRatio + co.r.motionRatio) / 2;
+  if (co.l.barMotionRatio !== undefined && co.r.barMotionRatio !== undefined) out.barMotionRatio = (co.l.barMotionRatio + co.r.barMotionRatio) / 2;
+  return out;
+}
+
+/** Rack position (mm) at which the axle's mean steer angle δ̄ equals `axleSteerDeg` at design height (Newton on the analytic steering rate). */
+export function rackForAxleSteer(corner: Corner, axleSteerDeg: number, rightCorner?: unknown): number {
+  const sides = axleSides(corner, rightCorner);
+  if (!corner.steered) throw new InputError('corner: not steered, so no rack position steers it', [{ path: 'corner.steered', message: 'corner not steered' }]);
+  const [lo, hi] = axleStroke(sides);
+  let rack = 0;
+  for (let it = 0; it < 50; it++) {
+    const { l, r } = solveBoth(sides, 0, 0, rack);
+    const f = (l.steerDeg + r.steerDeg) / 2 - axleSteerDeg;
+    if (Math.abs(f) < 1e-10) return rack;
+    const d = (steerPerRack(sides.left) + steerPerRack(sides.right)) / 2;
+    if (!(Math.abs(d) > 1e-12)) break;
+    let next = rack - f / d;
+    next = Math.min(hi, Math.max(lo, next));
+    if (next === rack) break;
+    rack = next;
+  }
+  throw new SolveError('unreachable_pose', `No rack position within the stroke [${lo}, ${hi}] mm gives a mean steer of ${axleSteerDeg} deg`, {
+    axleSteerDeg,
+    rackStroke: [lo, hi],
+  });
+}
+

@@ -1,0 +1,71 @@
+/** Least-squares polynomial fits used by the sweep summaries. */
+
+/** Fits y = b0 + b1·x (+ b2·x² when `quadratic`) by least squares; returns [b0, b1, b2]. */
+export function polyFit(xs: ArrayLike<number>, ys: ArrayLike<number>, quadratic: boolean): [number, number, number] {
+  const n = xs.length;
+  // Centre x for conditioning, then shift back.
+  let mx = 0;
+  for (let i = 0; i < n; i++) mx += xs[i]!;
+  mx /= n;
+  const k = quadratic ? 3 : 2;
+  const A = [0, 0, 0, 0, 0, 0, 0, 0, 0];
+  const b = [0, 0, 0];
+  for (let i = 0; i < n; i++) {
+    const x = xs[i]! - mx;
+    const p = [1, x, x * x];
+    for (let r = 0; r < k; r++) {
+      b[r]! += p[r]! * ys[i]!;
+      for (let c = 0; c < k; c++) A[3 * r + c]! += p[r]! * p[c]!;
+    }
+  }
+  const sol = solveSmall(A, b, k);
+  const c0 = sol[0]!;
+  const c1 = sol[1]!;
+  const c2 = k === 3 ? sol[2]! : 0;
+  // y = c0 + c1 (x − m) + c2 (x − m)²
+  return [c0 - c1 * mx + c2 * mx * mx, c1 - 2 * c2 * mx, c2];
+}
+
+function solveSmall(A: number[], b: number[], k: number): number[] {
+  const M = A.slice();
+  const x = b.slice(0, k);
+  for (let c = 0; c < k; c++) {
+    let p = c;
+    for (let r = c + 1; r < k; r++) if (Math.abs(M[3 * r + c]!) > Math.abs(M[3 * p + c]!)) p = r;
+    for (let j = 0; j < 3; j++) [M[3 * c + j], M[3 * p + j]] = [M[3 * p + j]!, M[3 * c + j]!];
+    [x[c], x[p]] = [x[p]!, x[c]!];
+    for (let r = c + 1; r < k; r++) {
+      const f = M[3 * r + c]! / M[3 * c + c]!;
+      for (let j = c; j < k; j++) M[3 * r + j]! -= f * M[3 * c + j]!;
+      x[r]! -= f * x[c]!;
+    }
+  }
+  for (let c = k - 1; c >= 0; c--) {
+    let s = x[c]!;
+    for (let j = c + 1; j < k; j++) s -= M[3 * c + j]! * x[j]!;
+    x[c] = s / M[3 * c + c]!;
+  }
+  return x;
+}
+
+export interface ToeFit {
+  /** Linear toe-in gradient, deg/m of bump (least squares). */
+  bumpSteerDegPerM: number;
+  /** Second derivative of toe with travel from a quadratic fit, deg/m². */
+  curvatureDegPerM2: number;
+  /** Largest |toe − linear fit| over the fitted rows, deg. */
+  maxDeviationDeg: number;
+  /** Linear camber gradient, deg/m of bump. */
+  camberGainDegPerM: number;
+}
+
+/** Fits toe and camber (deg) against travel (mm); needs at least three points. */
+export function fitToeCamber(travelMm: number[], toeDeg: number[], camberDeg: number[]): ToeFit {
+  const x = travelMm.map((t) => t / 1000);
+  const [a0, a1] = polyFit(x, toeDeg, false);
+  const [, , q2] = polyFit(x, toeDeg, true);
+  const [, c1] = polyFit(x, camberDeg, false);
+  let dev = 0;
+  for (let i = 0; i < x.length; i++) dev = Math.max(dev, Math.abs(toeDeg[i]! - (a0 + a1 * x[i]!)));
+  return { bumpSteerDegPerM: a1, curvatureDegPerM2: 2 * q2, maxDeviationDeg: dev, camberGainDegPerM: c1 };
+}

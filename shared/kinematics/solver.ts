@@ -1,0 +1,428 @@
+/**
+ * Pose solver for one corner: six unknowns (wheel-centre position c, mm, and
+ * the upright's rotation R), five link / strut constraints plus the driving
+ * equation c_z = design z + travel. Newton's method with an analytic
+ * Jacobian (rotation updated multiplicatively, R ← exp([δω]×)·R, so a point
+ * P = c + R·r moves by δc + δω × (P − c)), backtracking on the residual,
+ * warm-started and predicted along the pose tangent. The Newton loop works
+ * only in preallocated Float64Arrays.
+ *
+ * Residuals are in mm: distance rows (|P − A|² − L²)/(2L) ≈ |P − A| − L,
+ * strut rows (T − S)·e (perpendicular offsets of the top mount from the
+ * upright-fixed strut axis).
+ */
+import { SolveError } from '../errors.js';
+import type { CornerModel, Side } from './model.js';
+
+/** Convergence tolerance on every residual row, mm. */
+export const RESIDUAL_TOL_MM = 1e-10;
+const MAX_ITER = 40;
+
+export interface SolveDiagnostics {
+  converged: true;
+  iterations: number;
+  /** Largest residual row at convergence, mm. */
+  residualMm: number;
+}
+
+export class CornerSolver {
+  /** Wheel-centre position, mm (left frame). */
+  readonly c = new Float64Array(3);
+  /** Upright rotation from the design pose, row-major 3×3. */
+  readonly R = new Float64Array(9);
+  /** Pose tangent per mm of travel: [dc (mm/mm), dω (rad/mm)]. */
+  readonly tTravel = new Float64Array(6);
+  /** Pose tangent per mm of steering input (rack or arm arc). */
+  readonly tSteer = new Float64Array(6);
+  /** Current tie-rod / toe-link inner point and its derivative per mm of steering input. */
+  readonly steerInner = new Float64Array(3);
+  readonly steerInnerRate = new Float64Array(3);
+  /** Travel and steering input of the current pose. */
+  travelMm = 0;
+  rackMm = 0;
+  iterations = 0;
+  residualMm = 0;
+  /** Lever angles (rad) of rocker and bar at the current pose, for branch continuity. */
+  rockerAngle = 0;
+  barAngle = 0;
+
+  private readonly g = new Float64Array(6);
+  private readonly J = new Float64Array(36);
+  private readonly LU = new Float64Array(36);
+  private readonly piv = new Int32Array(6);
+  private readonly dx = new Float64Array(6);
+  private readonly c0 = new Float64Array(3);
+  private readonly R0 = new Float64Array(9);
+  private readonly sgn: number;
+  private readonly rackDir = new Float64Array(3);
+
+  constructor(
+    readonly model: CornerModel,
+    readonly side: Side = 'left',
+  ) {
+    this.sgn = side === 'left' ? 1 : -1;
+    const st = model.steering;
+    if (st?.kind === 'rack') {
+      // Vehicle-frame rack displacement r·u; a right corner solved as its mirror sees r·(u_x, −u_y, u_z) (domain.md).
+      this.rackDir.set([st.axis[0], this.sgn * st.axis[1], st.axis[2]]);
+    } else if (!st) {
+      // Unsteered: a virtual rack along y, used only for the steering tangent (five-link steering axis).
+      this.rackDir.set([0, 1, 0]);
+    }
+    this.reset();
+  }
+
+  /** Back to the design pose (travel 0, rack 0). */
+  reset(): void {
+    const m = this.model;
+    this.c.set(m.wc0);
+    this.R.fill(0);
+    this.R[0] = this.R[4] = this.R[8] = 1;
+    this.travelMm = 0;
+    this.rackMm = 0;
+    this.rockerAngle = 0;
+    this.barAngle = 0;
+    this.setSteer(0);
+  }
+
+  /** Places the steering inner point for input s (mm): rack translation or arm rotation. */
+  private setSteer(s: number): void {
+    const m = this.model;
+    const k = 3 * m.steerRow;
+    const a0x = m.bodyPts[k]!;
+    const a0y = m.bodyPts[k + 1]!;
+    const a0z = m.bodyPts[k + 2]!;
+    const st = m.steering;
+    if (st?.kind === 'arm') {
+      // Rotation about the arm axis by θ = s / radius (right corner: −θ in the mirrored frame).
+      const th = (this.sgn * s) / st.radius;
+      const ux = st.dir[0];
+      const uy = st.dir[1];
+      const uz = st.dir[2];
+      const vx = a0x - st.point[0];
+      const vy = a0y - st.point[1];
+      const vz = a0z - st.point[2];
+      const co = Math.cos(th);
+      const si = Math.sin(th);
+      const kd = (ux * vx + uy * vy + uz * vz) * (1 - co);
+      const cx = uy * vz - uz * vy;
+      const cy = uz * vx - ux * vz;
+      const cz = ux * vy - uy * vx;
+      const px = vx * co + cx * si + ux * kd;
+      const py = vy * co + cy * si + uy * kd;
+      const pz = vz * co + cz * si + uz * kd;
+      this.steerInner[0] = st.point[0] + px;
+      this.steerInner[1] = st.point[1] + py;
+      this.steerInner[2] = st.point[2] + pz;
+      const f = this.sgn / st.radius;
+      this.steerInnerRate[0] = f * (uy * pz - uz * py);
+      this.steerInnerRate[1] = f * (uz * px - ux * pz);
+      this.steerInnerRate[2] = f * (ux * py - uy * px);
+    } else {
+      const d = this.rackDir;
+      this.steerInner[0] = a0x + s * d[0]!;
+      this.steerInner[1] = a0y + s * d[1]!;
+      this.steerInner[2] = a0z + s * d[2]!;
+      this.steerInnerRate.set(d);
+    }
+  }
+
+  /** Residuals g and Jacobian J at the current state; returns max |g| (mm). */
+  private evaluate(zTarget: number): number {
+    const m = this.model;
+    const c = this.c;
+    const R = this.R;
+    const g = this.g;
+    const J = this.J;
+    let res = 0;
+    for (let i = 0; i < m.nDist; i++) {
+      const k = 3 * i;
+      const rx = m.localPts[k]!;
+      const ry = m.localPts[k + 1]!;
+      const rz = m.localPts[k + 2]!;
+      const dx = R[0]! * rx + R[1]! * ry + R[2]! * rz;
+      const dy = R[3]! * rx + R[4]! * ry + R[5]! * rz;
+      const dz = R[6]! * rx + R[7]! * ry + R[8]! * rz;
+      let ax: number, ay: number, az: number;
+      if (i === m.steerRow) {
+        ax = this.steerInner[0]!;
+        ay = this.steerInner[1]!;
+        az = this.steerInner[2]!;
+      } else {
+        ax = m.bodyPts[k]!;
+        ay = m.bodyPts[k + 1]!;
+        az = m.bodyPts[k + 2]!;
+      }
+      const ex = c[0]! + dx - ax;
+      const ey = c[1]! + dy - ay;
+      const ez = c[2]! + dz - az;
+      const L = m.lengths[i]!;
+      const gi = (ex * ex + ey * ey + ez * ez - L * L) / (2 * L);
+      g[i] = gi;
+      const a = Math.abs(gi);
+      if (a > res) res = a;
+      const row = 6 * i;
+      const il = 1 / L;
+      J[row] = ex * il;
+      J[row + 1] = ey * il;
+      J[row + 2] = ez * il;
+      J[row + 3] = (dy * ez - dz * ey) * il;
+      J[row + 4] = (dz * ex - dx * ez) * il;
+      J[row + 5] = (dx * ey - dy * ex) * il;
+    }
+    const s = m.strut;
+    if (s) {
+      const lx = s.lowerLocal[0]!;
+      const ly = s.lowerLocal[1]!;
+      const lz = s.lowerLocal[2]!;
+      const Sx = c[0]! + R[0]! * lx + R[1]! * ly + R[2]! * lz;
+      const Sy = c[1]! + R[3]! * lx + R[4]! * ly + R[5]! * lz;
+      const Sz = c[2]! + R[6]! * lx + R[7]! * ly + R[8]! * lz;
+      const wx = s.top[0]! - Sx;
+      const wy = s.top[1]! - Sy;
+      const wz = s.top[2]! - Sz;
+      const tx = s.top[0]! - c[0]!;
+      const ty = s.top[1]! - c[1]!;
+      const tz = s.top[2]! - c[2]!;
+      for (let j = 0; j < 2; j++) {
+        const e0 = j === 0 ? s.e1 : s.e2;
+        const ex = R[0]! * e0[0]! + R[1]! * e0[1]! + R[2]! * e0[2]!;
+        const ey = R[3]! * e0[0]! + R[4]! * e0[1]! + R[5]! * e0[2]!;
+        const ez = R[6]! * e0[0]! + R[7]! * e0[1]! + R[8]! * e0[2]!;
+        const i = m.nDist + j;
+        const gi = wx * ex + wy * ey + wz * ez;
+        g[i] = gi;
+        const a = Math.abs(gi);
+        if (a > res) res = a;
+        const row = 6 * i;
+        J[row] = -ex;
+        J[row + 1] = -ey;
+        J[row + 2] = -ez;
+        J[row + 3] = ey * tz - ez * ty;
+        J[row + 4] = ez * tx - ex * tz;
+        J[row + 5] = ex * ty - ey * tx;
+      }
+    }
+    // Driving equation: wheel-centre height.
+    const g5 = c[2]! - zTarget;
+    g[5] = g5;
+    J[30] = 0;
+    J[31] = 0;
+    J[32] = 1;
+    J[33] = 0;
+    J[34] = 0;
+    J[35] = 0;
+    const a5 = Math.abs(g5);
+    if (a5 > res) res = a5;
+    return res;
+  }
+
+  /** LU with partial pivoting of J into LU/piv; false if singular. */
+  private factor(): boolean {
+    const A = this.LU;
+    A.set(this.J);
+    const piv = this.piv;
+    for (let k = 0; k < 6; k++) {
+      let p = k;
+      let best = Math.abs(A[6 * k + k]!);
+      for (let i = k + 1; i < 6; i++) {
+        const v = Math.abs(A[6 * i + k]!);
+        if (v > best) {
+          best = v;
+          p = i;
+        }
+      }
+      if (!(best > 1e-13)) return false;
+      piv[k] = p;
+      if (p !== k) {
+        for (let j = 0; j < 6; j++) {
+          const t = A[6 * k + j]!;
+          A[6 * k + j] = A[6 * p + j]!;
+          A[6 * p + j] = t;
+        }
+      }
+      const inv = 1 / A[6 * k + k]!;
+      for (let i = k + 1; i < 6; i++) {
+        const f = (A[6 * i + k]! *= inv);
+        if (f !== 0) for (let j = k + 1; j < 6; j++) A[6 * i + j]! -= f * A[6 * k + j]!;
+      }
+    }
+    return true;
+  }
+
+  /** Solves LU·x = b in place (b overwritten with x). */
+  private backSolve(b: Float64Array): void {
+    const A = this.LU;
+    const piv = this.piv;
+    // Row swaps were applied to whole rows (L included), so permute b first, then substitute.
+    for (let k = 0; k < 6; k++) {
+      const p = piv[k]!;
+      if (p !== k) {
+        const t = b[k]!;
+        b[k] = b[p]!;
+        b[p] = t;
+      }
+    }
+    for (let k = 0; k < 6; k++) {
+      const bk = b[k]!;
+      for (let i = k + 1; i < 6; i++) b[i]! -= A[6 * i + k]! * bk;
+    }
+    for (let k = 5; k >= 0; k--) {
+      let s = b[k]!;
+      for (let j = k + 1; j < 6; j++) s -= A[6 * k + j]! * b[j]!;
+      b[k] = s / A[6 * k + k]!;
+    }
+  }
+
+  /** c += α·dc, R = exp([α·dω]×)·R0 (Rodrigues), from the backed-up state. */
+  private applyStep(dx: Float64Array, alpha: number): void {
+    const c = this.c;
+    c[0] = this.c0[0]! + alpha * dx[0]!;
+    c[1] = this.c0[1]! + alpha * dx[1]!;
+    c[2] = this.c0[2]! + alpha * dx[2]!;
+    rotateInto(this.R, this.R0, alpha * dx[3]!, alpha * dx[4]!, alpha * dx[5]!);
+  }
+
+  /** Moves the state along the stored tangents by Δtravel and Δsteer (predictor). */
+  predict(dTravel: number, dSteer: number): void {
+    const t = this.tTravel;
+    const s = this.tSteer;
+    this.c0.set(this.c);
+    this.R0.set(this.R);
+    for (let i = 0; i < 6; i++) this.dx[i] = t[i]! * dTravel + s[i]! * dSteer;
+    this.applyStep(this.dx, 1);
+  }
+
+  /**
+   * Solves the pose at (travel, steer input) from the current state. Throws
+   * SolveError naming travel, rack and the link with the largest residual
+   * when no pose exists. On success fills the tangents.
+   */
+  solve(travelMm: number, rackMm: number): SolveDiagnostics {
+    const m = this.model;
+    this.setSteer(rackMm);
+    const zTarget = m.wc0[2] + travelMm;
+    let res = this.evaluate(zTarget);
+    let it = 0;
+    const dx = this.dx;
+    for (;;) {
+      if (res < RESIDUAL_TOL_MM) break;
+      if (it >= MAX_ITER || !this.factor()) this.fail(travelMm, rackMm, res, it >= MAX_ITER ? 'no_convergence' : 'singular');
+      for (let i = 0; i < 6; i++) dx[i] = -this.g[i]!;
+      this.backSolve(dx);
+      // Limit the step: no more than 0.3 rad of rotation or 100 mm of translation per iteration.
+      const rot = Math.hypot(dx[3]!, dx[4]!, dx[5]!);
+      const tr = Math.hypot(dx[0]!, dx[1]!, dx[2]!);
+      let alpha = Math.min(1, 0.3 / (rot || 1e-300), 100 / (tr || 1e-300));
+      this.c0.set(this.c);
+      this.R0.set(this.R);
+      this.applyStep(dx, alpha);
+      let next = this.evaluate(zTarget);
+      let tries = 0;
+      while (!(next < res) && tries < 12) {
+        alpha *= 0.5;
+        this.applyStep(dx, alpha);
+        next = this.evaluate(zTarget);
+        tries++;
+      }
+      res = next;
+      it++;
+    }
+    if (!this.factor()) this.fail(travelMm, rackMm, res, 'singular');
+    // Tangents: J·t = −∂g/∂travel = e6; J·t = −∂g/∂s (steer row only).
+    const tt = this.tTravel;
+    tt.fill(0);
+    tt[5] = 1;
+    this.backSolve(tt);
+    const ts = this.tSteer;
+    ts.fill(0);
+    {
+      const k = 3 * m.steerRow;
+      const R = this.R;
+      const rx = m.localPts[k]!;
+      const ry = m.localPts[k + 1]!;
+      const rz = m.localPts[k + 2]!;
+      const ex = this.c[0]! + R[0]! * rx + R[1]! * ry + R[2]! * rz - this.steerInner[0]!;
+      const ey = this.c[1]! + R[3]! * rx + R[4]! * ry + R[5]! * rz - this.steerInner[1]!;
+      const ez = this.c[2]! + R[6]! * rx + R[7]! * ry + R[8]! * rz - this.steerInner[2]!;
+      const q = this.steerInnerRate;
+      ts[m.steerRow] = (ex * q[0]! + ey * q[1]! + ez * q[2]!) / m.lengths[m.steerRow]!;
+      this.backSolve(ts);
+    }
+    this.travelMm = travelMm;
+    this.rackMm = rackMm;
+    this.iterations = it;
+    this.residualMm = res;
+    return { converged: true, iterations: it, residualMm: res };
+  }
+
+  /**
+   * Solves (travel, rack) by continuation from the current pose in steps of
+   * at most `maxStepMm`, predicting along the tangents. Returns the total
+   * number of Newton iterations.
+   */
+  solveTowards(travelMm: number, rackMm: number, maxStepMm = 10): number {
+    const dT = travelMm - this.travelMm;
+    const dS = rackMm - this.rackMm;
+    const n = Math.max(1, Math.ceil(Math.max(Math.abs(dT), Math.abs(dS)) / maxStepMm));
+    let iters = 0;
+    const t0 = this.travelMm;
+    const s0 = this.rackMm;
+    for (let i = 1; i <= n; i++) {
+      const t = i === n ? travelMm : t0 + (dT * i) / n;
+      const s = i === n ? rackMm : s0 + (dS * i) / n;
+      this.predict(t - this.travelMm, s - this.rackMm);
+      iters += this.solve(t, s).iterations;
+    }
+    return iters;
+  }
+
+  private fail(travelMm: number, rackMm: number, res: number, why: 'no_convergence' | 'singular'): never {
+    // Name the row with the largest residual: the link that cannot close.
+    let worst = 0;
+    for (let i = 1; i < 6; i++) if (Math.abs(this.g[i]!) > Math.abs(this.g[worst]!)) worst = i;
+    const link = worst === 5 ? 'wheel-centre height (travel beyond the linkage’s reach)' : this.model.linkNames[worst]!;
+    const where = `at travel ${round(travelMm)} mm, rack ${round(rackMm)} mm${this.side === 'right' ? ' (right corner)' : ''}`;
+    const message =
+      why === 'singular'
+        ? `Pose cannot be solved ${where}: the links do not locate the upright (singular geometry near the ${link})`
+        : `Pose unreachable ${where}: the ${link} cannot close (residual ${round(res)} mm)`;
+    throw new SolveError('unreachable_pose', message, { travelMm, rackMm, side: this.side, link, residualMm: res });
+  }
+}
+
+function round(x: number): number {
+  return Math.round(x * 1000) / 1000;
+}
+
+/** out = exp([w]×)·R (Rodrigues); out and R must differ. */
+export function rotateInto(out: Float64Array, R: Float64Array, wx: number, wy: number, wz: number): void {
+  const th2 = wx * wx + wy * wy + wz * wz;
+  let a: number, b: number;
+  if (th2 < 1e-16) {
+    a = 1 - th2 / 6;
+    b = 0.5 - th2 / 24;
+  } else {
+    const th = Math.sqrt(th2);
+    a = Math.sin(th) / th;
+    b = (1 - Math.cos(th)) / th2;
+  }
+  // E = I + a[w]× + b[w]×²
+  const e00 = 1 - b * (wy * wy + wz * wz);
+  const e01 = -a * wz + b * wx * wy;
+  const e02 = a * wy + b * wx * wz;
+  const e10 = a * wz + b * wx * wy;
+  const e11 = 1 - b * (wx * wx + wz * wz);
+  const e12 = -a * wx + b * wy * wz;
+  const e20 = -a * wy + b * wx * wz;
+  const e21 = a * wx + b * wy * wz;
+  const e22 = 1 - b * (wx * wx + wy * wy);
+  for (let j = 0; j < 3; j++) {
+    const r0 = R[j]!;
+    const r1 = R[3 + j]!;
+    const r2 = R[6 + j]!;
+    out[j] = e00 * r0 + e01 * r1 + e02 * r2;
+    out[3 + j] = e10 * r0 + e11 * r1 + e12 * r2;
+    out[6 + j] = e20 * r0 + e21 * r1 + e22 * r2;
+  }
+}

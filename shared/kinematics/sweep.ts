@@ -1,0 +1,190 @@
+/**
+ * Corner sweeps: poses over a travel range at one or more steering inputs,
+ * solved by continuation from the design pose (outward from the travel
+ * nearest zero, predicted along the analytic pose tangent), with fits.
+ */
+import { InputError } from '../errors.js';
+import type { Corner } from '../schema/corner.js';
+import { compileCorner, type CornerModel, type Side } from './model.js';
+import { CornerSolver } from './solver.js';
+import { poseOutputs, type PoseResult } from './pose.js';
+import { fitToeCamber, type ToeFit } from './fit.js';
+
+export interface Range {
+  from: number;
+  to: number;
+  step: number;
+}
+
+/** Largest pose count a library sweep accepts (the HTTP API caps lower). */
+export const MAX_SWEEP_POINTS = 100_000;
+
+/** Expands FROM:TO:STEP (inclusive of TO when it falls on a step) into values; InputError names `field`. */
+export function expandRange(r: Range, field: string): number[] {
+  const bad = (message: string): never => {
+    throw new InputError(`${field}: ${message}`, [{ path: field, message }]);
+  };
+  if (![r.from, r.to, r.step].every(Number.isFinite)) bad('from, to and step must be finite numbers');
+  if (r.to < r.from) bad(`to (${r.to}) must not be below from (${r.from})`);
+  if (r.to > r.from && !(r.step > 0)) bad(`step must be positive, got ${r.step}`);
+  if (r.to === r.from) return [r.from];
+  const n = Math.floor((r.to - r.from) / r.step + 1e-9) + 1;
+  if (n > MAX_SWEEP_POINTS) bad(`${n} points is more than ${MAX_SWEEP_POINTS}`);
+  const out: number[] = [];
+  for (let i = 0; i < n; i++) out.push(r.from + i * r.step);
+  return out;
+}
+
+/** Checks steering inputs against the corner's stroke (and that an unsteered corner gets only 0). */
+export function checkRack(model: CornerModel, rackMm: number[], field: string): void {
+  const [lo, hi] = model.rackStroke;
+  rackMm.forEach((r, i) => {
+    const path = `${field}[${i}]`;
+    if (!Number.isFinite(r)) throw new InputError(`${path}: must be a finite number`, [{ path, message: 'not a finite number' }]);
+    if (!model.corner.steered && r !== 0) {
+      throw new InputError(`${path}: the corner is not steered (fixed toe link), so the rack position must be 0, got ${r}`, [{ path, message: 'corner not steered' }]);
+    }
+    if (r < lo - 1e-9 || r > hi + 1e-9) {
+      throw new InputError(`${path}: rack ${r} mm is outside the steering stroke [${lo}, ${hi}] mm`, [{ path, message: `outside stroke [${lo}, ${hi}]` }]);
+    }
+  });
+}
+
+export type SweepRow = Omit<PoseResult, 'side' | 'diagnostics'> & { iterations: number };
+
+export interface SweepFit extends ToeFit {
+  rackMm: number;
+  /** Travel range the fit used, mm. */
+  fromMm: number;
+  toMm: number;
+  /** Analytic toe gradient at design height (travel 0), deg/m; null when 0 is outside the sweep. */
+  toeGradientAtDesignDegPerM: number | null;
+}
+
+export interface SweepOptions {
+  travel: Range;
+  /** Steering inputs, mm (default [0]). */
+  rackMm?: number[];
+  /** Travel window for the fits, mm (default: the whole sweep). */
+  fitRange?: { fromMm: number; toMm: number };
+  side?: Side;
+}
+
+export interface SweepResult {
+  rows: SweepRow[];
+  /** Fit at rack 0 (or the first rack given), and each rack's fit in `byRack`. */
+  fit: SweepFit & { byRack: SweepFit[] };
+  diagnostics: { poses: number; iterations: number; iterationsPerPose: number };
+}
+
+function toRow(p: PoseResult): SweepRow {
+  const { side: _s, diagnostics, ...rest } = p;
+  return { ...rest, iterations: diagnostics.iterations };
+}
+
+/**
+ * Solves one rack position's travel list by continuation: first the design
+ * pose, then to the travel nearest 0, outward up, then outward down. Calls
+ * `visit(index)` with the solver at each converged pose.
+ */
+export function sweepTravels(solver: CornerSolver, travels: number[], rackMm: number, visit: (index: number) => void): number {
+  solver.reset();
+  let iters = solver.solve(0, 0).iterations;
+  let start = 0;
+  for (let i = 1; i < travels.length; i++) if (Math.abs(travels[i]!) < Math.abs(travels[start]!)) start = i;
+  iters += solver.solveTowards(travels[start]!, rackMm);
+  visit(start);
+  const c = Float64Array.from(solver.c);
+  const R = Float64Array.from(solver.R);
+  const tt = Float64Array.from(solver.tTravel);
+  const ts = Float64Array.from(solver.tSteer);
+  const keep = { rocker: solver.rockerAngle, bar: solver.barAngle, travel: solver.travelMm };
+  for (let i = start + 1; i < travels.length; i++) {
+    iters += solver.solveTowards(travels[i]!, rackMm);
+    visit(i);
+  }
+  solver.c.set(c);
+  solver.R.set(R);
+  solver.tTravel.set(tt);
+  solver.tSteer.set(ts);
+  solver.rockerAngle = keep.rocker;
+  solver.barAngle = keep.bar;
+  solver.travelMm = keep.travel;
+  solver.rackMm = rackMm;
+  for (let i = start - 1; i >= 0; i--) {
+    iters += solver.solveTowards(travels[i]!, rackMm);
+    visit(i);
+  }
+  return iters;
+}
+
+/** Corner sweep over travel at each rack position, with per-rack fits. */
+export function sweepCorner(corner: Corner, options: SweepOptions): SweepResult {
+  const model = compileCorner(corner);
+  const travels = expandRange(options.travel, 'travel');
+  const racks = options.rackMm && options.rackMm.length ? options.rackMm : [0];
+  checkRack(model, racks, 'rackMm');
+  const solver = new CornerSolver(model, options.side ?? 'left');
+  const rows: SweepRow[] = [];
+  const fits: SweepFit[] = [];
+  let iterations = 0;
+  const fr = options.fitRange ?? { fromMm: travels[0]!, toMm: travels[travels.length - 1]! };
+  for (const rack of racks) {
+    const block = new Array<SweepRow>(travels.length);
+    iterations += sweepTravels(solver, travels, rack, (i) => {
+      block[i] = toRow(poseOutputs(solver));
+    });
+    rows.push(...block);
+    const inFit = block.filter((r) => r.travelMm >= fr.fromMm - 1e-9 && r.travelMm <= fr.toMm + 1e-9);
+    if (inFit.length < 3) {
+      throw new InputError(`fitRange: needs at least three sweep points, found ${inFit.length} in [${fr.fromMm}, ${fr.toMm}] mm`, [
+        { path: 'fitRange', message: 'fewer than three points' },
+      ]);
+    }
+    const design = block.find((r) => r.travelMm === 0);
+    fits.push({
+      rackMm: rack,
+      fromMm: fr.fromMm,
+      toMm: fr.toMm,
+      ...fitToeCamber(
+        inFit.map((r) => r.travelMm),
+        inFit.map((r) => r.toeDeg),
+        inFit.map((r) => r.camberDeg),
+      ),
+      toeGradientAtDesignDegPerM: design ? design.toeGradientDegPerM : null,
+    });
+  }
+  const main = fits.find((f) => f.rackMm === 0) ?? fits[0]!;
+  return {
+    rows,
+    fit: { ...main, byRack: fits },
+    diagnostics: { poses: rows.length, iterations, iterationsPerPose: iterations / rows.length },
+  };
+}
+
+/** One pose; warm start from a previous pose's state when given, else continuation from the design pose. */
+export function solvePose(corner: Corner, at: { travelMm: number; rackMm?: number; side?: Side }, warm?: PoseState): PoseResult & { state: PoseState } {
+  const model = compileCorner(corner);
+  const rack = at.rackMm ?? 0;
+  if (!Number.isFinite(at.travelMm)) throw new InputError('travelMm: must be a finite number', [{ path: 'travelMm', message: 'not a finite number' }]);
+  checkRack(model, [rack], 'rackMm');
+  const s = new CornerSolver(model, at.side ?? 'left');
+  if (warm) {
+    s.c.set(warm.c);
+    s.R.set(warm.R);
+    s.travelMm = warm.travelMm;
+    s.rackMm = warm.rackMm;
+    s.solve(warm.travelMm, warm.rackMm);
+  } else s.solve(0, 0);
+  s.solveTowards(at.travelMm, rack);
+  const pose = poseOutputs(s);
+  return { ...pose, state: { c: [s.c[0]!, s.c[1]!, s.c[2]!], R: Array.from(s.R), travelMm: at.travelMm, rackMm: rack } };
+}
+
+/** A solved pose's state (left frame), to warm-start a nearby solve. */
+export interface PoseState {
+  c: [number, number, number];
+  R: number[];
+  travelMm: number;
+  rackMm: number;
+}
