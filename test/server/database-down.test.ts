@@ -1,0 +1,111 @@
+/** The database going away: 503 JSON, the server keeps running, and recovers when the database returns. */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import net from 'node:net';
+import { createHmac } from 'node:crypto';
+import request from 'supertest';
+import { freshDatabaseUrl } from '../support/db.js';
+import { createDatabase, type Database } from '../../server/db/client.js';
+import { migrateDatabase } from '../../server/db/migrate.js';
+import { seedDemo } from '../../server/db/seed.js';
+import { createApp, type RollwiseApp } from '../../server/app.js';
+import { freePort } from '../../server/tools/pg.js';
+import { agent, expectError, testConfig } from './helpers.js';
+
+/** A TCP relay in front of PostgreSQL that can be cut and restored. */
+class Relay {
+  private server: net.Server | undefined;
+  private readonly sockets = new Set<net.Socket>();
+  constructor(
+    readonly port: number,
+    private readonly target: number,
+  ) {}
+  async open(): Promise<void> {
+    this.server = net.createServer((client) => {
+      const upstream = net.connect(this.target, '127.0.0.1');
+      for (const s of [client, upstream]) {
+        this.sockets.add(s);
+        s.on('close', () => this.sockets.delete(s));
+        s.on('error', () => s.destroy());
+      }
+      client.pipe(upstream).pipe(client);
+    });
+    await new Promise<void>((resolve) => this.server!.listen(this.port, '127.0.0.1', resolve));
+  }
+  async cut(): Promise<void> {
+    for (const s of this.sockets) s.destroy();
+    await new Promise<void>((resolve) => (this.server ? this.server.close(() => resolve()) : resolve()));
+    this.server = undefined;
+  }
+}
+
+describe('database unreachable from the start (a closed port)', () => {
+  let db: Database;
+  let app: RollwiseApp;
+  beforeAll(async () => {
+    const port = await freePort();
+    const url = `postgres://postgres@127.0.0.1:${port}/nothing`;
+    db = createDatabase(url, { connectTimeoutMs: 500 });
+    app = createApp(testConfig(url), db);
+  });
+  afterAll(async () => {
+    await app.close();
+    await db.close();
+  });
+
+  it('health says degraded with 503', async () => {
+    const r = await request(app).get('/api/health');
+    expect(r.status).toBe(503);
+    expect(r.body).toMatchObject({ status: 'degraded', database: 'unreachable' });
+  });
+  it('sign-in answers 503 database_unavailable in the error shape, without internals', async () => {
+    const r = await agent(app).post('/api/auth/sign-in').send({ email: 'viewer@tallowmere.example', password: 'demo-pass-2026' });
+    expectError(r, 503, 'database_unavailable');
+    expect(JSON.stringify(r.body)).not.toMatch(/ECONNREFUSED|127\.0\.0\.1/);
+    expect(r.headers['retry-after']).toBe('5');
+  });
+  it('a request with a validly signed session cookie answers 503 (session store unreachable), not 500', async () => {
+    // express-session's cookie format: "s:" + id + "." + base64 HMAC-SHA256 of the id, padding removed.
+    const sid = 'some-session-id';
+    const mac = createHmac('sha256', testConfig('').sessionSecret).update(sid).digest('base64').replace(/=+$/, '');
+    const r = await request(app).get('/api/auth/me').set('Cookie', `rollwise.sid=${encodeURIComponent(`s:${sid}.${mac}`)}`);
+    expectError(r, 503, 'database_unavailable');
+  });
+});
+
+describe('database lost and regained', () => {
+  let db: Database;
+  let app: RollwiseApp;
+  let relay: Relay;
+  beforeAll(async () => {
+    const direct = freshDatabaseUrl();
+    const target = Number(new URL(direct).port);
+    relay = new Relay(await freePort(), target);
+    await relay.open();
+    const url = direct.replace(`:${target}/`, `:${relay.port}/`);
+    db = createDatabase(url, { connectTimeoutMs: 500 });
+    await migrateDatabase(db);
+    await seedDemo(db.orm, { bcryptRounds: 4 });
+    app = createApp(testConfig(url), db);
+  });
+  afterAll(async () => {
+    await app.close();
+    await db.close();
+    await relay.cut();
+  });
+
+  it('keeps serving 503 while down and recovers, session intact', async () => {
+    const a = agent(app);
+    await a.post('/api/auth/sign-in').send({ email: 'owner@tallowmere.example', password: 'demo-pass-2026' }).expect(200);
+    await a.get('/api/teams').expect(200);
+
+    await relay.cut();
+    expectError(await a.get('/api/teams'), 503, 'database_unavailable');
+    expect((await request(app).get('/api/health')).status).toBe(503);
+    expectError(await agent(app).post('/api/auth/sign-in').send({ email: 'owner@tallowmere.example', password: 'demo-pass-2026' }), 503, 'database_unavailable');
+
+    await relay.open();
+    await request(app).get('/api/health').expect(200);
+    const teams = await a.get('/api/teams').expect(200);
+    expect(teams.body.map((x: { slug: string }) => x.slug)).toEqual(['tallowmere']);
+  });
+});
