@@ -128,6 +128,13 @@ export function outerName(corner: Corner): string {
   return corner.type === 'five-link' ? `link${corner.toeLink}Outer` : 'tieRodOuter';
 }
 
+/** Steering stroke in mm: the rack stroke, or a steering-box arm's arc travel; null when not steered. */
+export function steeringStrokeMm(corner: Corner): [number, number] | null {
+  const st = corner.steering;
+  if (!corner.steered || !st) return null;
+  return st.kind === 'rack' ? [st.rackStroke[0], st.rackStroke[1]] : armStrokeMm(corner);
+}
+
 /** Arc travel limits (mm) of a steering-box arm, from its angular stroke. */
 function armStrokeMm(corner: Corner): [number, number] | null {
   const st = corner.steering;

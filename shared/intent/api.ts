@@ -1,0 +1,18 @@
+/**
+ * JSON entry point of the back-solver for the HTTP worker and the CLI:
+ * validates with `intentSchema` (InputError naming every field), solves, and
+ * returns a JSON-safe plain object (no NaN, no undefined).
+ */
+import { parseOrThrow } from '../errors.js';
+import { intentSchema } from '../schema/intent.js';
+import { solveIntent, type Progress, type SolveResult } from './solve.js';
+
+export function computeSolve(input: unknown, onProgress?: Progress): SolveResult {
+  const intent = parseOrThrow(intentSchema, input, 'intent');
+  return jsonSafe(solveIntent(intent, onProgress));
+}
+
+/** Replaces non-finite numbers by null so the result survives JSON unchanged. */
+function jsonSafe<T>(value: T): T {
+  return JSON.parse(JSON.stringify(value, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v))) as T;
+}

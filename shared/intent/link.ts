@@ -1,0 +1,42 @@
+/**
+ * Every call the back-solver makes into the kinematics engine goes through
+ * here, so the number of poses it evaluates is counted in one place
+ * (`PoseCounter`) and the search never computes kinematics of its own.
+ * Counts: one per pose solved (a sweep row, one wheel of an axle pose).
+ */
+import type { Corner, Vec3 } from '../schema/corner.js';
+import { axleKinematics, axleSummary, rollSteerCoefficient, solvePose, sweepCorner, type AxleSummary, type PoseResult, type SweepResult } from '../kinematics/index.js';
+
+export class PoseCounter {
+  poses = 0;
+}
+
+export type Pose = PoseResult & { state: { c: Vec3; R: number[] } };
+
+export function pose(counter: PoseCounter, corner: Corner, travelMm: number, rackMm = 0): Pose {
+  counter.poses++;
+  return solvePose(corner, { travelMm, rackMm }) as Pose;
+}
+
+export function sweep(counter: PoseCounter, corner: Corner, travel: { from: number; to: number; step: number }, rackMm: number[]): SweepResult {
+  const r = sweepCorner(corner, { travel, rackMm });
+  counter.poses += r.rows.length;
+  return r;
+}
+
+/** ε = −dδ̄/dφ at φ = 0, rack straight ahead (left corner and its mirror: two poses). */
+export function rollSteer(counter: PoseCounter, corner: Corner, rackMm = 0): number {
+  counter.poses += 2;
+  return rollSteerCoefficient(corner, rackMm);
+}
+
+export function summary(counter: PoseCounter, corner: Corner): AxleSummary {
+  counter.poses += 2;
+  return axleSummary(corner);
+}
+
+/** Steering ratio and Ackermann over `points` rack positions across the stroke. */
+export function steering(counter: PoseCounter, corner: Corner, wheelbaseMm: number | undefined, points: number) {
+  counter.poses += 2 * points + 4;
+  return axleKinematics(corner, { steeringPoints: points, ...(wheelbaseMm ? { wheelbaseMm } : {}) }).steering;
+}

@@ -1,0 +1,564 @@
+/**
+ * From handling intent to tie-rod heights (issue 5): turns the target into a
+ * roll steer coefficient ε*, searches the movable coordinates (optimise.ts),
+ * then verifies the proposal with the full kinematics. Everything the result
+ * reports as achieved comes from that verification, not from the search.
+ */
+import type { Corner, Vec3 } from '../schema/corner.js';
+import { innerName, outerName, steeringStrokeMm, type Intent } from '../schema/intent.js';
+import type { Vehicle } from '../schema/vehicle.js';
+import { rollSteerUndersteerDegPerG, suspensionRollGradients } from '../balance/index.js';
+import { ENGINE_VERSION } from '../version.js';
+import { SolveError } from '../errors.js';
+import { evaluateCautions, SAFETY_CAUTION, type Caution } from './cautions.js';
+import { resolveTrackProfile, type TrackProfile } from './profiles.js';
+import { applyCoordinates, readCoordinates } from './coordinates.js';
+import { solveFamily, type LimitingBound } from './optimise.js';
+import { linearFitDeviation, secantRoot } from './numeric.js';
+import { asBuiltCorner, workshopNumbers, type WorkshopNumbers } from './workshop.js';
+import { pose, PoseCounter, rollSteer, steering, summary, sweep } from './link.js';
+
+export type Progress = (fraction: number, message: string) => void;
+
+/** |ε − ε*| below this meets the target in the search, deg/deg (the checks ask 0.002 of the verified value). */
+export const TARGET_TOL = 1e-6;
+const G_STD = 9.80665;
+/** Cornering stiffness per unit load used when the vehicle gives no tyre data, 1/deg (from memory: 0.15–0.25 for car tyres). */
+export const DEFAULT_CORNERING_COEFFICIENT_PER_DEG = 0.2;
+/** Reference roll of the curvature caution when no vehicle is given, deg. */
+export const DEFAULT_REFERENCE_ROLL_DEG = 2;
+const PENALTY_PER_DEG = 100;
+
+export interface CoordinateChange {
+  name: string;
+  currentMm: number;
+  proposedMm: number;
+  changeMm: number;
+  boundsMm: [number, number];
+  atBound: 'min' | 'max' | null;
+}
+
+export interface RackFit {
+  rackMm: number;
+  bumpSteerDegPerM: number;
+  curvatureDegPerM2: number;
+  /** Largest |toe − its linear fit| over the travel range, deg. */
+  maxDeviationDeg: number;
+  /** Toe change over the profile's single-wheel bump at this rack position, deg. */
+  bumpToeChangeDeg: number;
+}
+
+export interface FamilyMemberOut {
+  coordinates: Record<string, number>;
+  /** RMS toe deviation from its own linear fit (zero bump steer: from static toe), deg. */
+  objectiveRmsDeg: number;
+  rollSteerCoefficient: number;
+  /** Toe change over the profile's single-wheel bump, rack straight ahead, deg. */
+  bumpToeChangeDeg: number;
+  understeerChangeDegPerG: number | null;
+  withinBounds: boolean;
+  chosen: boolean;
+}
+
+export interface SolveResult {
+  engineVersion: string;
+  feasible: boolean;
+  reason: string | null;
+  axle: 'front' | 'rear';
+  target: {
+    kind: 'rollSteerCoefficient' | 'understeerChangeDegPerG' | 'zeroBumpSteer';
+    rollSteerCoefficient: number;
+    understeerChangeDegPerG: number | null;
+    /** Toe-in of the outside wheel per degree of roll (−ε; exact for a linear symmetric toe curve). */
+    outsideToeInDegPerDegRoll: number;
+    label: string;
+  };
+  trackProfile: TrackProfile;
+  current: { rollSteerCoefficient: number; label: string; objectiveRmsDeg: number };
+  geometry: { tieRodInner: Vec3; tieRodOuter: Vec3; innerPoint: string; outerPoint: string };
+  coordinates: CoordinateChange[];
+  corner: Corner;
+  achieved: {
+    verified: true;
+    rollSteerCoefficient: number;
+    label: string;
+    outsideToeInDegPerDegRoll: number;
+    bumpSteerDegPerM: number;
+    curvatureDegPerM2: number;
+    objectiveRmsDeg: number;
+    worstToeDeg: number;
+    worstToeRackMm: number;
+    byRack: RackFit[];
+    toeCurve: { travelMm: number; rackMm: number; toeDeg: number; camberDeg: number; halfTrackChangeMm: number }[];
+  };
+  /** The search's own estimate, before verification. */
+  estimate: { rollSteerCoefficient: number; objectiveRmsDeg: number };
+  limitingBound: LimitingBound | null;
+  limitingBounds: LimitingBound[];
+  family: FamilyMemberOut[];
+  familyParameter: string | null;
+  primaryCoordinate: string;
+  tieBreak: 'unique' | 'nearest-current';
+  /** dε per mm of each movable coordinate at the proposal (verified ε, central differences ±0.5 mm). */
+  sensitivity: Record<string, number>;
+  sideEffects: SideEffects;
+  workshop: WorkshopNumbers & {
+    asBuilt: { rollSteerCoefficient: number; geometry: { tieRodInner: Vec3; tieRodOuter: Vec3 } };
+    staticToe: { designToeDeg: number; toeAfterShimmingDeg: number; resetDeg: number; note: string };
+  };
+  understeerChangeDegPerG: number | null;
+  cautions: Caution[];
+  safety: string;
+  diagnostics: { poses: number; targetEvaluations: number; objectiveEvaluations: number };
+}
+
+export interface SideEffects {
+  /** Mean road-wheel steer per mm of rack at design, deg/mm. */
+  steeringRatioDegPerMm: { before: number; after: number; change: number } | null;
+  /** Ackermann percentage at half the stroke (needs the vehicle's wheelbase). */
+  ackermannPct: { before: number; after: number; change: number; rackMm: number } | null;
+  rollCentreHeightMm: { before: number; after: number; change: number };
+  /** Largest angle the tie rod turns through at each ball joint over travel and rack, relative to its design direction, deg. */
+  ballJointArticulationDeg: { inner: { before: number; after: number }; outer: { before: number; after: number } };
+}
+
+const label = (axle: 'front' | 'rear', eps: number): string => {
+  if (Math.abs(eps) < 5e-4) return 'no roll steer';
+  const under = axle === 'front' ? eps > 0 : eps < 0;
+  return under ? 'roll understeer' : 'roll oversteer';
+};
+
+/** The solve of one intent. Throws SolveError where the verification cannot reach a pose. */
+export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult {
+  const counter = new PoseCounter();
+  const progress = (f: number, m: string) => onProgress?.(Math.min(1, Math.max(0, f)), m);
+  const current = intent.corner;
+  const profile = resolveTrackProfile(intent.trackProfile);
+  const [from, to] = profile.travelMm;
+  const step = intent.options.travelStepMm ?? (to - from) / 20;
+  const travel = { from, to, step };
+  const racks = rackPositions(intent);
+  const zeroBump = 'zeroBumpSteer' in intent.target;
+  progress(0.02, 'current geometry');
+
+  const currentSummary = summary(counter, current);
+  const track = currentSummary.trackMm;
+  const epsOf = (c: Corner) => rollSteer(counter, c);
+  const epsCurrent = currentSummary.rollSteerCoefficient;
+  const gradients = intent.vehicle ? suspensionRollGradients(intent.vehicle) : null;
+  const dKdEps = gradients ? (intent.axle === 'front' ? gradients.frontDegPerG : -gradients.rearDegPerG) : null;
+  let epsTarget: number;
+  if ('rollSteerCoefficient' in intent.target) epsTarget = intent.target.rollSteerCoefficient;
+  else if ('understeerChangeDegPerG' in intent.target) epsTarget = epsCurrent + intent.target.understeerChangeDegPerG / dKdEps!;
+  else epsTarget = 0;
+
+  const names = intent.movable;
+  const lo = names.map((n) => intent.bounds[n]![0]);
+  const hi = names.map((n) => intent.bounds[n]![1]);
+  const q0 = readCoordinates(current, names);
+  const build = (q: number[]) => applyCoordinates(current, names, q);
+
+  const toeObjective = (c: Corner, rack: number): number => {
+    const rows = sweep(counter, c, travel, [rack]).rows;
+    if (zeroBump) {
+      const t0 = pose(counter, c, 0, rack).toeDeg;
+      return Math.sqrt(rows.reduce((s, r) => s + (r.toeDeg - t0) ** 2, 0) / rows.length);
+    }
+    return linearFitDeviation(
+      rows.map((r) => r.travelMm),
+      rows.map((r) => r.toeDeg),
+    ).rms;
+  };
+  const worstToe = (c: Corner) => {
+    let worst = 0;
+    for (const r of racks) {
+      const rows = sweep(counter, c, travel, [r]).rows;
+      worst = Math.max(worst, linearFitDeviation(rows.map((x) => x.travelMm), rows.map((x) => x.toeDeg)).max);
+    }
+    return worst;
+  };
+  const bound = intent.options.worstToeBoundDeg;
+  const objective = (q: number[]) => {
+    const c = build(q);
+    try {
+      let j = toeObjective(c, 0);
+      if (bound !== undefined) j += PENALTY_PER_DEG * Math.max(0, worstToe(c) - bound);
+      return j;
+    } catch (e) {
+      if (e instanceof SolveError) return 1e6; // a member the kinematics cannot sweep is never chosen
+      throw e;
+    }
+  };
+  const currentObjective = toeObjective(current, 0);
+
+  progress(0.05, 'searching the solution family');
+  const outcome = solveFamily({
+    names,
+    lo,
+    hi,
+    current: q0,
+    constraint: (q) => epsOf(build(q)) - epsTarget,
+    objective,
+    tolConstraint: TARGET_TOL,
+    familySize: intent.options.familySize,
+    onProgress: (f, m) => progress(0.05 + 0.6 * f, m),
+  });
+  let q = outcome.q;
+  let proposed = build(q);
+  let epsVerified = epsOf(proposed);
+  // The search solves on the same ε the verification reports; a last secant on
+  // the primary coordinate removes any residual the tie-break left.
+  if (outcome.feasible && Math.abs(epsVerified - epsTarget) > TARGET_TOL) {
+    const pi = names.indexOf(outcome.primary);
+    const r = secantRoot(
+      (v) => epsOf(build(q.map((x, i) => (i === pi ? v : x)))) - epsTarget,
+      q[pi]!,
+      outcome.gradient[pi]!,
+      lo[pi]!,
+      hi[pi]!,
+      TARGET_TOL,
+    );
+    q = q.map((x, i) => (i === pi ? r.x : x));
+    proposed = build(q);
+    epsVerified = epsOf(proposed);
+  }
+
+  progress(0.7, 'verifying with the full kinematics');
+  const verification = sweep(counter, proposed, travel, racks);
+  const bump = profile.bumpHeightMm;
+  const byRack: RackFit[] = verification.fit.byRack.map((f) => {
+    const t0 = pose(counter, proposed, 0, f.rackMm).toeDeg;
+    const tb = pose(counter, proposed, bump, f.rackMm).toeDeg;
+    return { rackMm: f.rackMm, bumpSteerDegPerM: f.bumpSteerDegPerM, curvatureDegPerM2: f.curvatureDegPerM2, maxDeviationDeg: f.maxDeviationDeg, bumpToeChangeDeg: tb - t0 };
+  });
+  const straight = byRack.find((r) => r.rackMm === 0)!;
+  let worst = byRack[0]!;
+  for (const r of byRack) if (r.maxDeviationDeg > worst.maxDeviationDeg) worst = r;
+  const achievedObjective = toeObjective(proposed, 0);
+
+  let feasible = outcome.feasible;
+  let reason: string | null = null;
+  let limiting = outcome.limiting;
+  if (!outcome.feasible) {
+    const lim = limiting.map((l) => `${l.coordinate} at its ${l.side} ${l.valueMm} mm`).join(', ');
+    reason = `The target ε = ${epsTarget.toFixed(4)} deg/deg cannot be met inside the bounds; the closest achievable is ε = ${epsVerified.toFixed(4)} deg/deg with ${lim || 'the current geometry'}.`;
+  } else if (bound !== undefined && worst.maxDeviationDeg > bound + 1e-9) {
+    feasible = false;
+    limiting = [{ coordinate: 'options.worstToeBoundDeg', side: 'max', valueMm: bound }];
+    reason = `The target is met, but no member of the solution family keeps the worst toe deviation within options.worstToeBoundDeg = ${bound}°: the best has ${worst.maxDeviationDeg.toFixed(4)}° at rack ${worst.rackMm} mm.`;
+  }
+
+  progress(0.8, 'family, sensitivity and side effects');
+  const uChange = (eps: number) => (dKdEps === null ? null : understeerChange(intent.vehicle!, intent.axle, epsCurrent, eps));
+  const t0Straight = (c: Corner) => pose(counter, c, 0).toeDeg;
+  const memberOut = (mq: number[], withinBounds: boolean, chosen: boolean, objectiveDeg: number): FamilyMemberOut => {
+    const c = build(mq);
+    const eps = epsOf(c);
+    let bumpToe = NaN;
+    try {
+      bumpToe = pose(counter, c, bump).toeDeg - t0Straight(c);
+    } catch (e) {
+      if (!(e instanceof SolveError)) throw e;
+    }
+    return {
+      coordinates: Object.fromEntries(names.map((n, i) => [n, mq[i]!])),
+      objectiveRmsDeg: objectiveDeg,
+      rollSteerCoefficient: eps,
+      bumpToeChangeDeg: Number.isFinite(bumpToe) ? bumpToe : (null as unknown as number),
+      understeerChangeDegPerG: uChange(eps),
+      withinBounds,
+      chosen,
+    };
+  };
+  const family: FamilyMemberOut[] = [];
+  if (feasible || outcome.feasible) {
+    const k = outcome.parameter ? names.indexOf(outcome.parameter) : -1;
+    const members = outcome.family.filter((m) => m.feasible);
+    const same = (a: number[]) => a.every((v, i) => Math.abs(v - q[i]!) < 1e-6);
+    let placed = members.some((m) => same(m.q));
+    for (const m of members) {
+      if (!placed && k >= 0 && m.q[k]! > q[k]!) {
+        family.push(memberOut(q, true, true, achievedObjective));
+        placed = true;
+      }
+      family.push(memberOut(m.q, true, same(m.q), m.objective));
+    }
+    if (!placed) family.push(memberOut(q, true, true, achievedObjective));
+  }
+
+  const sensitivity: Record<string, number> = {};
+  names.forEach((n, i) => {
+    const h = 0.5;
+    const up = epsOf(build(q.map((x, j) => (j === i ? x + h : x))));
+    const dn = epsOf(build(q.map((x, j) => (j === i ? x - h : x))));
+    sensitivity[n] = (up - dn) / (2 * h);
+  });
+
+  const sideEffects = sideEffectsOf(counter, current, currentSummary.rollCentreHeightMm, proposed, intent.vehicle, racks, travel);
+
+  progress(0.9, 'workshop numbers and cautions');
+  const ws = workshopNumbers(current, proposed, intent.options);
+  const built = asBuiltCorner(current, proposed, intent.options.shimThicknessMm);
+  const builtPts = built.points as Record<string, Vec3>;
+  const staticToe = toeAfterShimming(counter, current, built);
+
+  const cautions = evaluateCautions(cautionInputs(counter, intent, profile, proposed, epsVerified, byRack, straight, track));
+
+  const pts = proposed.points as Record<string, Vec3>;
+  const inner = innerName(current);
+  const outer = outerName(current);
+  const coordinates: CoordinateChange[] = names.map((n, i) => ({
+    name: n,
+    currentMm: q0[i]!,
+    proposedMm: q[i]!,
+    changeMm: q[i]! - q0[i]!,
+    boundsMm: [lo[i]!, hi[i]!],
+    atBound: Math.abs(q[i]! - lo[i]!) < 1e-6 ? 'min' : Math.abs(q[i]! - hi[i]!) < 1e-6 ? 'max' : null,
+  }));
+  progress(1, 'done');
+  const targetKind = 'rollSteerCoefficient' in intent.target ? 'rollSteerCoefficient' : 'understeerChangeDegPerG' in intent.target ? 'understeerChangeDegPerG' : 'zeroBumpSteer';
+  return {
+    engineVersion: ENGINE_VERSION,
+    feasible,
+    reason,
+    axle: intent.axle,
+    target: {
+      kind: targetKind,
+      rollSteerCoefficient: epsTarget,
+      understeerChangeDegPerG: uChange(epsTarget),
+      outsideToeInDegPerDegRoll: -epsTarget,
+      label: label(intent.axle, epsTarget),
+    },
+    trackProfile: profile,
+    current: { rollSteerCoefficient: epsCurrent, label: label(intent.axle, epsCurrent), objectiveRmsDeg: currentObjective },
+    geometry: { tieRodInner: pts[inner]!, tieRodOuter: pts[outer]!, innerPoint: inner, outerPoint: outer },
+    coordinates,
+    corner: proposed,
+    achieved: {
+      verified: true,
+      rollSteerCoefficient: epsVerified,
+      label: label(intent.axle, epsVerified),
+      outsideToeInDegPerDegRoll: -epsVerified,
+      bumpSteerDegPerM: straight.bumpSteerDegPerM,
+      curvatureDegPerM2: straight.curvatureDegPerM2,
+      objectiveRmsDeg: achievedObjective,
+      worstToeDeg: worst.maxDeviationDeg,
+      worstToeRackMm: worst.rackMm,
+      byRack,
+      toeCurve: verification.rows.map((r) => ({ travelMm: r.travelMm, rackMm: r.rackMm, toeDeg: r.toeDeg, camberDeg: r.camberDeg, halfTrackChangeMm: r.halfTrackChangeMm })),
+    },
+    estimate: { rollSteerCoefficient: epsTarget + outcome.constraint, objectiveRmsDeg: outcome.objective },
+    limitingBound: limiting[0] ?? null,
+    limitingBounds: limiting,
+    family,
+    familyParameter: outcome.parameter,
+    primaryCoordinate: outcome.primary,
+    tieBreak: outcome.tieBreak,
+    sensitivity,
+    sideEffects,
+    workshop: {
+      ...ws,
+      asBuilt: { rollSteerCoefficient: epsOf(built), geometry: { tieRodInner: builtPts[inner]!, tieRodOuter: builtPts[outer]! } },
+      staticToe,
+    },
+    understeerChangeDegPerG: uChange(epsVerified),
+    cautions,
+    safety: SAFETY_CAUTION,
+    diagnostics: { poses: counter.poses, targetEvaluations: outcome.evaluations.constraint, objectiveEvaluations: outcome.evaluations.objective },
+  };
+}
+
+/** Rack positions of the verification: 0 first, then the intent's or the stroke's ends. */
+export function rackPositions(intent: Intent): number[] {
+  if (!intent.corner.steered) return [0];
+  const stroke = steeringStrokeMm(intent.corner);
+  const list = intent.options.rackPositionsMm ?? (stroke ? [stroke[0], stroke[1]] : []);
+  return [0, ...list.filter((r) => r !== 0)];
+}
+
+/** Understeer-gradient change from this axle's roll steer going from ε0 to ε, deg/g (balance model, domain.md K_rs). */
+export function understeerChange(vehicle: Vehicle, axle: 'front' | 'rear', eps0: number, eps: number): number {
+  const other = axle === 'front' ? (vehicle.rear.rollSteerCoefficient ?? 0) : (vehicle.front.rollSteerCoefficient ?? 0);
+  const k = (e: number) => rollSteerUndersteerDegPerG(vehicle, axle === 'front' ? { front: e, rear: other } : { front: other, rear: e });
+  return k(eps) - k(eps0);
+}
+
+/**
+ * The static toe a mechanic sees after shimming, before turning the
+ * adjuster: the old tie-rod length on the new points. Modelled as the new
+ * corner with its inner point displaced along the tie rod by (L_old − L_new)
+ * (a temporary rack along the rod): exact to first order, the second-order
+ * residual is below 1e-4 mm for changes of a few mm.
+ */
+function toeAfterShimming(counter: PoseCounter, current: Corner, built: Corner): SolveResult['workshop']['staticToe'] {
+  const inner = innerName(current);
+  const outer = outerName(current);
+  const cp = current.points as Record<string, Vec3>;
+  const bp = built.points as Record<string, Vec3>;
+  const len = (p: Record<string, Vec3>) => Math.hypot(p[outer]![0] - p[inner]![0], p[outer]![1] - p[inner]![1], p[outer]![2] - p[inner]![2]);
+  const dl = len(cp) - len(bp);
+  const designToe = pose(counter, built, 0).toeDeg;
+  const u: Vec3 = [bp[outer]![0] - bp[inner]![0], bp[outer]![1] - bp[inner]![1], bp[outer]![2] - bp[inner]![2]];
+  const n = Math.hypot(...u);
+  const probe = {
+    ...built,
+    steered: true,
+    steering: { kind: 'rack' as const, rackAxis: [u[0] / n, u[1] / n, u[2] / n] as Vec3, rackStroke: [-Math.abs(dl) - 1, Math.abs(dl) + 1] as [number, number] },
+  } as Corner;
+  const after = pose(counter, probe, 0, dl).toeDeg;
+  return {
+    designToeDeg: designToe,
+    toeAfterShimmingDeg: after,
+    resetDeg: designToe - after,
+    note: 'Shim both ends first, then turn the adjuster by the stated turns to bring static toe back to its design value, and check it on the alignment rig.',
+  };
+}
+
+function sideEffectsOf(
+  counter: PoseCounter,
+  before: Corner,
+  rcBefore: number,
+  after: Corner,
+  vehicle: Vehicle | undefined,
+  racks: number[],
+  travel: { from: number; to: number },
+): SideEffects {
+  const rcAfter = summary(counter, after).rollCentreHeightMm;
+  const a0 = articulation(counter, before, racks, travel);
+  const a1 = articulation(counter, after, racks, travel);
+  let sr: SideEffects['steeringRatioDegPerMm'] = null;
+  let ack: SideEffects['ackermannPct'] = null;
+  if (before.steered) {
+    // Five rack positions: stroke ends, half strokes and straight ahead; Ackermann at the half stroke to the left (kinematics engine).
+    const sb = steering(counter, before, vehicle?.wheelbaseMm, 5)!;
+    const sa = steering(counter, after, vehicle?.wheelbaseMm, 5)!;
+    sr = { before: sb.steeringRatioDegPerMm, after: sa.steeringRatioDegPerMm, change: sa.steeringRatioDegPerMm - sb.steeringRatioDegPerMm };
+    const rb = sb.rows[3]!;
+    const ra = sa.rows[3]!;
+    if (vehicle && rb.ackermannPercent !== null && ra.ackermannPercent !== null) {
+      ack = { before: rb.ackermannPercent, after: ra.ackermannPercent, change: ra.ackermannPercent - rb.ackermannPercent, rackMm: rb.rackMm };
+    }
+  }
+  return {
+    steeringRatioDegPerMm: sr,
+    ackermannPct: ack,
+    rollCentreHeightMm: { before: rcBefore, after: rcAfter, change: rcAfter - rcBefore },
+    ballJointArticulationDeg: { inner: { before: a0.inner, after: a1.inner }, outer: { before: a0.outer, after: a1.outer } },
+  };
+}
+
+/** Largest angle of the tie rod from its design direction at each ball joint, over the travel ends and rack positions, deg. */
+function articulation(counter: PoseCounter, c: Corner, racks: number[], travel: { from: number; to: number }): { inner: number; outer: number } {
+  const p = c.points as Record<string, Vec3>;
+  const inner = p[innerName(c)]!;
+  const outer = p[outerName(c)]!;
+  const wc = p['wheelCentre']!;
+  const st = c.steering;
+  const axis: Vec3 = st?.kind === 'rack' ? st.rackAxis : [0, 1, 0];
+  const an = Math.hypot(...axis);
+  const d0: Vec3 = [outer[0] - inner[0], outer[1] - inner[1], outer[2] - inner[2]];
+  const angle = (a: Vec3, b: Vec3) => {
+    const cos = (a[0] * b[0] + a[1] * b[1] + a[2] * b[2]) / (Math.hypot(...a) * Math.hypot(...b));
+    return Math.acos(Math.min(1, Math.max(-1, cos))) * (180 / Math.PI);
+  };
+  let maxIn = 0;
+  let maxOut = 0;
+  for (const r of racks) {
+    for (const t of [travel.from, 0, travel.to]) {
+      const ps = pose(counter, c, t, r);
+      const R = ps.state.R;
+      const l: Vec3 = [outer[0] - wc[0], outer[1] - wc[1], outer[2] - wc[2]];
+      const o: Vec3 = [
+        ps.state.c[0] + R[0]! * l[0] + R[1]! * l[1] + R[2]! * l[2],
+        ps.state.c[1] + R[3]! * l[0] + R[4]! * l[1] + R[5]! * l[2],
+        ps.state.c[2] + R[6]! * l[0] + R[7]! * l[1] + R[8]! * l[2],
+      ];
+      // Arm steering moves the inner point on an arc; the rack's straight line is close enough for the joint angle at the stroke used here.
+      const i: Vec3 = st?.kind === 'rack' ? [inner[0] + (r * axis[0]) / an, inner[1] + (r * axis[1]) / an, inner[2] + (r * axis[2]) / an] : inner;
+      const d: Vec3 = [o[0] - i[0], o[1] - i[1], o[2] - i[2]];
+      maxIn = Math.max(maxIn, angle(d, d0));
+      // In the upright's frame: Rᵀ·d against the design direction.
+      const dl: Vec3 = [R[0]! * d[0] + R[3]! * d[1] + R[6]! * d[2], R[1]! * d[0] + R[4]! * d[1] + R[7]! * d[2], R[2]! * d[0] + R[5]! * d[1] + R[8]! * d[2]];
+      maxOut = Math.max(maxOut, angle(dl, d0));
+    }
+  }
+  return { inner: maxIn, outer: maxOut };
+}
+
+function cautionInputs(
+  counter: PoseCounter,
+  intent: Intent,
+  profile: TrackProfile,
+  proposed: Corner,
+  eps: number,
+  byRack: RackFit[],
+  straight: RackFit,
+  track: number,
+) {
+  const bump = profile.bumpHeightMm;
+  let worstBump = byRack[0]!;
+  for (const r of byRack) if (Math.abs(r.bumpToeChangeDeg) > Math.abs(worstBump.bumpToeChangeDeg)) worstBump = r;
+  let spread = 0;
+  let spreadRack = 0;
+  for (const r of byRack) {
+    const d = Math.abs(r.bumpSteerDegPerM - straight.bumpSteerDegPerM);
+    if (d > spread) {
+      spread = d;
+      spreadRack = r.rackMm;
+    }
+  }
+  const scrub = Math.abs(pose(counter, proposed, bump).halfTrackChangeMm);
+  // Outside wheel's local toe gradient at the reference roll versus design.
+  const v = intent.vehicle;
+  const grads = v ? suspensionRollGradients(v) : null;
+  const refRoll = intent.options.referenceRollDeg ?? (grads ? Math.abs(intent.axle === 'front' ? grads.frontDegPerG : grads.rearDegPerG) : DEFAULT_REFERENCE_ROLL_DEG);
+  const s = (track / 2) * Math.sin((refRoll * Math.PI) / 180);
+  const g0 = pose(counter, proposed, 0).toeGradientDegPerM;
+  const gs = pose(counter, proposed, s).toeGradientDegPerM;
+  const curvatureChange = -((gs - g0) / 1000) * (track / 2) * (Math.PI / 180);
+  // Tyre's cornering stiffness per unit load at its landing load.
+  let cc = DEFAULT_CORNERING_COEFFICIENT_PER_DEG;
+  let ccSource = `the product default ${DEFAULT_CORNERING_COEFFICIENT_PER_DEG} per degree`;
+  let landing: number | null = null;
+  let complianceRatio: number | null = null;
+  if (v) {
+    const axleLoadN = v.massKg * G_STD * (intent.axle === 'front' ? (v.wheelbaseMm - v.cgToFrontAxleMm) / v.wheelbaseMm : v.cgToFrontAxleMm / v.wheelbaseMm);
+    const wheel = axleLoadN / 2;
+    landing = wheel * profile.landingLoadFactor;
+    const tyre = v[intent.axle].tyre;
+    if (tyre.loadSensitivity) {
+      cc = tyre.loadSensitivity.a - tyre.loadSensitivity.b * landing;
+      ccSource = 'the vehicle tyre load sensitivity at the landing load';
+    } else if (tyre.corneringStiffnessNPerDeg !== undefined) {
+      cc = tyre.corneringStiffnessNPerDeg / wheel;
+      ccSource = "the vehicle tyre's cornering stiffness at its static load";
+    } else if (tyre.axleComplianceDegPerG !== undefined) {
+      cc = 1 / tyre.axleComplianceDegPerG;
+      ccSource = "the vehicle axle's tyre cornering compliance";
+    }
+    const comp = v[intent.axle].complianceSteerDegPerKN;
+    if (comp !== undefined && grads) {
+      const compDegPerG = Math.abs(comp * (axleLoadN / 1000));
+      const rollDegPerG = Math.abs(eps * (intent.axle === 'front' ? grads.frontDegPerG : grads.rearDegPerG));
+      complianceRatio = rollDegPerG > 1e-9 ? Math.min(1e3, compDegPerG / rollDegPerG) : 1e3;
+    }
+  }
+  return {
+    axle: intent.axle,
+    steered: intent.corner.steered,
+    profile,
+    rollSteerCoefficient: eps,
+    bumpToeChangeDeg: Math.abs(worstBump.bumpToeChangeDeg),
+    bumpToeRackMm: worstBump.rackMm,
+    corneringCoefficientPerDeg: Math.max(0, cc),
+    corneringCoefficientSource: ccSource,
+    landingLoadN: landing,
+    bumpScrubMm: scrub,
+    rollSteerCurvatureChange: curvatureChange,
+    referenceRollDeg: refRoll,
+    lockBumpSteerSpreadDegPerM: spread,
+    lockBumpSteerRackMm: spreadRack,
+    complianceRatio,
+    thresholds: intent.cautionThresholds,
+  };
+}
