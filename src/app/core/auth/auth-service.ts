@@ -7,23 +7,32 @@ import { SHOW_ERRORS_INLINE } from '../http/api-error';
 /** localStorage key of the team the user last worked in. */
 export const CURRENT_TEAM_STORAGE_KEY = 'rollwise.currentTeamId';
 
+/**
+ * localStorage key set while this browser holds a session. Without it the
+ * app does not ask `GET /api/auth/me` (whose 401 the browser would log as a
+ * console error on every visit to the sign-in page). The cookie itself is
+ * httpOnly, so this is only a hint: the server still decides.
+ */
+export const SESSION_HINT_STORAGE_KEY = 'rollwise.session';
+
 function inlineErrors(): { context: HttpContext } {
   return { context: new HttpContext().set(SHOW_ERRORS_INLINE, true) };
 }
 
-function readStoredTeam(): string | null {
+function readStored(key: string): string | null {
   try {
-    return globalThis.localStorage?.getItem(CURRENT_TEAM_STORAGE_KEY) ?? null;
+    return globalThis.localStorage?.getItem(key) ?? null;
   } catch {
-    return null; // storage disabled: the choice just is not remembered
+    return null; // storage disabled: nothing is remembered
   }
 }
 
-function storeTeam(teamId: string): void {
+function store(key: string, value: string | null): void {
   try {
-    globalThis.localStorage?.setItem(CURRENT_TEAM_STORAGE_KEY, teamId);
+    if (value === null) globalThis.localStorage?.removeItem(key);
+    else globalThis.localStorage?.setItem(key, value);
   } catch {
-    // storage disabled or full: keep the choice for this page only
+    // storage disabled or full: the value lasts for this page only
   }
 }
 
@@ -35,7 +44,7 @@ function storeTeam(teamId: string): void {
 export class AuthService {
   private readonly http = inject(HttpClient);
   private readonly state = signal<Me | null>(null);
-  private readonly selectedTeamId = signal<string | null>(readStoredTeam());
+  private readonly selectedTeamId = signal<string | null>(readStored(CURRENT_TEAM_STORAGE_KEY));
   private initial$: Observable<Me | null> | null = null;
 
   /** The whole `Me` document, or null when signed out. */
@@ -54,10 +63,13 @@ export class AuthService {
 
   /**
    * Asks the server once per page load who is signed in (401 means nobody).
-   * Guards wait on this before deciding.
+   * Guards wait on this before deciding. A browser that never signed in
+   * (no session hint) is known to be signed out without asking.
    */
   ensureLoaded(): Observable<Me | null> {
-    this.initial$ ??= this.refresh().pipe(shareReplay(1));
+    this.initial$ ??= readStored(SESSION_HINT_STORAGE_KEY)
+      ? this.refresh().pipe(shareReplay(1))
+      : of(null);
     return this.initial$;
   }
 
@@ -68,7 +80,10 @@ export class AuthService {
         if (error instanceof HttpErrorResponse && error.status === 401) return of(null);
         throw error;
       }),
-      tap((me) => this.state.set(me)),
+      tap((me) => {
+        this.state.set(me);
+        store(SESSION_HINT_STORAGE_KEY, me ? '1' : null);
+      }),
     );
   }
 
@@ -106,7 +121,7 @@ export class AuthService {
   /** Makes `teamId` the current team and remembers it for the next visit. */
   switchTeam(teamId: string): void {
     this.selectedTeamId.set(teamId);
-    storeTeam(teamId);
+    store(CURRENT_TEAM_STORAGE_KEY, teamId);
   }
 
   isMemberOf(teamId: string): boolean {
@@ -117,10 +132,12 @@ export class AuthService {
   forget(): void {
     this.state.set(null);
     this.initial$ = of(null);
+    store(SESSION_HINT_STORAGE_KEY, null);
   }
 
   private adopt(me: Me): void {
     this.state.set(me);
     this.initial$ = of(me);
+    store(SESSION_HINT_STORAGE_KEY, '1');
   }
 }
