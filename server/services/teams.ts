@@ -1,5 +1,5 @@
 /** Teams and memberships, with last-owner protection. */
-import { and, asc, eq, sql } from 'drizzle-orm';
+import { and, asc, eq } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { memberships, teams, users } from '../db/schema.js';
 import { HttpError, notFound } from '../http/errors.js';
@@ -98,7 +98,7 @@ export class Teams {
         await tx.delete(memberships).where(where);
         return null;
       }
-      await tx.update(memberships).set({ roles: sql`${roles}::text[]` }).where(where);
+      await tx.update(memberships).set({ roles }).where(where);
       const [u] = await tx.select({ email: users.email, displayName: users.displayName }).from(users).where(eq(users.id, userId));
       return { userId, email: u?.email ?? '', displayName: u?.displayName ?? '', roles };
     });

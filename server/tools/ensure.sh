@@ -1,0 +1,33 @@
+#!/usr/bin/env bash
+# First step of `npm start` and `npm test` on any machine: install what is
+# missing. npm itself runs this script, so it only needs bash and node.
+#   - node_modules: `npm ci` when missing or older than package-lock.json
+#   - PostgreSQL 15 (Debian package) when its server binary is absent
+#   - Debian's Chromium, for `npm test` only (browser tests)
+set -euo pipefail
+cd "$(dirname "$0")/../.."
+want="${1:-start}"
+
+as_root() { if [ "$(id -u)" = 0 ]; then "$@"; else sudo "$@"; fi; }
+apt_updated=0
+apt_install() {
+  if [ "$apt_updated" = 0 ]; then as_root apt-get update -qq; apt_updated=1; fi
+  DEBIAN_FRONTEND=noninteractive as_root apt-get install -y -qq "$@" >/dev/null
+}
+
+lock_sum=$(sha256sum package-lock.json | cut -d' ' -f1)
+if [ ! -f node_modules/.rollwise-lock-sum ] || [ "$(cat node_modules/.rollwise-lock-sum)" != "$lock_sum" ]; then
+  echo "[rollwise] installing npm packages (npm ci)…"
+  npm ci --no-audit --no-fund --loglevel=error
+  echo "$lock_sum" > node_modules/.rollwise-lock-sum
+fi
+
+if [ ! -x /usr/lib/postgresql/15/bin/postgres ]; then
+  echo "[rollwise] installing PostgreSQL 15 (Debian package)…"
+  apt_install postgresql
+fi
+
+if [ "$want" = test ] && [ ! -x /usr/bin/chromium ]; then
+  echo "[rollwise] installing Chromium (Debian package) for the browser tests…"
+  apt_install chromium
+fi

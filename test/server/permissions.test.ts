@@ -1,0 +1,198 @@
+/**
+ * Role × route matrix. The expected statuses are written out here by hand
+ * from the permission table of coord/contracts.md, not read from the
+ * server's route declarations, so a route guarded with the wrong permission
+ * fails this test.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import { exampleCorners } from '../../shared/kinematics/examples.js';
+import { exampleVehicles } from '../../shared/balance/examples.js';
+import { ROLE_PERMISSIONS } from '../../server/permissions.js';
+import { agent, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+
+type Who = 'owner' | 'engineer' | 'designer' | 'reviewer' | 'viewer' | 'nonMember' | 'anonymous';
+const WHO: Who[] = ['owner', 'engineer', 'designer', 'reviewer', 'viewer', 'nonMember', 'anonymous'];
+const EMAIL: Record<Exclude<Who, 'anonymous'>, string> = {
+  owner: 'owner@tallowmere.example',
+  engineer: 'engineer@tallowmere.example',
+  designer: 'designer@tallowmere.example',
+  reviewer: 'reviewer@tallowmere.example',
+  viewer: 'viewer@tallowmere.example',
+  nonMember: 'reviewer@brackenfield.example',
+};
+
+let t: TestApp;
+const agents = {} as Record<Who, Agent>;
+let teamId = '';
+let vehicleId = '';
+let designId = '';
+let viewerId = '';
+let instructorEmail = 'instructor@programme.example';
+let instructorId = '';
+
+beforeAll(async () => {
+  t = await startTestApp({ seed: true });
+  for (const w of WHO) agents[w] = w === 'anonymous' ? agent(t.app) : await signIn(t.app, EMAIL[w]);
+  const teams = await agents.owner.get('/api/teams').expect(200);
+  teamId = teams.body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
+  const vehicles = await agents.owner.get(`/api/teams/${teamId}/vehicles`).expect(200);
+  vehicleId = vehicles.body.find((v: { name: string }) => v.name === 'TUR-26 Ember').id;
+  const designs = await agents.owner.get(`/api/teams/${teamId}/vehicles/${vehicleId}/axle-designs`).expect(200);
+  designId = designs.body.find((d: { axle: string }) => d.axle === 'front').id;
+  const members = await agents.owner.get(`/api/teams/${teamId}/members`).expect(200);
+  viewerId = members.body.find((m: { email: string }) => m.email === EMAIL.viewer).userId;
+  const inst = await signIn(t.app, instructorEmail);
+  instructorId = (await inst.get('/api/auth/me')).body.user.id;
+});
+afterAll(async () => {
+  await t?.close();
+});
+
+async function currentRevision(path: string): Promise<number> {
+  return (await agents.owner.get(path).expect(200)).body.revision as number;
+}
+
+interface Row {
+  name: string;
+  method: 'get' | 'post' | 'patch' | 'put' | 'delete';
+  path: () => string;
+  body?: () => Promise<unknown> | unknown;
+  expect: Record<Who, number>;
+}
+
+const team = () => `/api/teams/${teamId}`;
+const vehicle = () => `${team()}/vehicles/${vehicleId}`;
+const design = () => `${team()}/axle-designs/${designId}`;
+
+//                          owner engineer designer reviewer viewer nonMember anonymous
+const READ = { owner: 200, engineer: 200, designer: 200, reviewer: 200, viewer: 200, nonMember: 404, anonymous: 401 };
+
+const ROWS: Row[] = [
+  { name: 'read team', method: 'get', path: team, expect: READ },
+  {
+    name: 'rename team',
+    method: 'patch',
+    path: team,
+    body: () => ({ name: 'Tallowmere University Racing' }),
+    expect: { owner: 200, engineer: 403, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  { name: 'list members', method: 'get', path: () => `${team()}/members`, expect: READ },
+  {
+    name: 'add member',
+    method: 'post',
+    path: () => `${team()}/members`,
+    body: () => ({ email: instructorEmail, roles: ['viewer'] }),
+    expect: { owner: 201, engineer: 403, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  {
+    name: 'change member roles',
+    method: 'patch',
+    path: () => `${team()}/members/${viewerId}`,
+    body: () => ({ roles: ['viewer'] }),
+    expect: { owner: 200, engineer: 403, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  {
+    name: 'remove member',
+    method: 'delete',
+    path: () => `${team()}/members/${instructorId}`,
+    expect: { owner: 204, engineer: 403, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  { name: 'list vehicles', method: 'get', path: () => `${team()}/vehicles`, expect: READ },
+  {
+    name: 'create vehicle',
+    method: 'post',
+    path: () => `${team()}/vehicles`,
+    body: () => ({ name: 'Matrix test car' }),
+    expect: { owner: 201, engineer: 201, designer: 201, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  { name: 'read vehicle', method: 'get', path: vehicle, expect: READ },
+  {
+    name: 'rename vehicle',
+    method: 'patch',
+    path: vehicle,
+    body: async () => ({ name: 'TUR-26 Ember', baseRevision: await currentRevision(vehicle()) }),
+    expect: { owner: 200, engineer: 200, designer: 200, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  {
+    name: 'edit vehicle data',
+    method: 'put',
+    path: () => `${vehicle()}/data`,
+    body: async () => ({ data: exampleVehicles.tur26Ember, baseRevision: await currentRevision(vehicle()) }),
+    expect: { owner: 403, engineer: 200, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  { name: 'vehicle revisions', method: 'get', path: () => `${vehicle()}/revisions`, expect: READ },
+  { name: 'list axle designs', method: 'get', path: () => `${vehicle()}/axle-designs`, expect: READ },
+  {
+    name: 'create axle design',
+    method: 'post',
+    path: () => `${vehicle()}/axle-designs`,
+    body: () => ({ axle: 'front', name: 'Matrix variant', corner: exampleCorners.fsFrontWishbone }),
+    expect: { owner: 201, engineer: 201, designer: 201, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  { name: 'read axle design', method: 'get', path: design, expect: READ },
+  {
+    name: 'rename axle design',
+    method: 'patch',
+    path: design,
+    body: async () => ({ name: 'Front baseline', baseRevision: await currentRevision(design()) }),
+    expect: { owner: 200, engineer: 200, designer: 200, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  {
+    name: 'edit hardpoints',
+    method: 'put',
+    path: () => `${design()}/corner`,
+    body: async () => ({ corner: exampleCorners.fsFrontWishbone, baseRevision: await currentRevision(design()) }),
+    expect: { owner: 403, engineer: 403, designer: 200, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  { name: 'axle design revisions', method: 'get', path: () => `${design()}/revisions`, expect: READ },
+];
+
+describe('role × route matrix (Tallowmere; non-member is a Brackenfield reviewer)', () => {
+  for (const row of ROWS) {
+    it(`${row.method.toUpperCase()} ${row.name}`, async () => {
+      const got: Partial<Record<Who, number>> = {};
+      for (const w of WHO) {
+        let req = agents[w][row.method](row.path());
+        if (row.body) req = req.send((await row.body()) as object);
+        const r = await req;
+        got[w] = r.status;
+        if (r.status >= 400) expect(r.body.error.code, `${w}: ${JSON.stringify(r.body)}`).toBe({ 401: 'unauthenticated', 403: 'forbidden', 404: 'not_found' }[r.status]);
+      }
+      expect(got).toEqual(row.expect);
+    });
+  }
+
+  it('a user with several roles holds the union of their permissions (Bo: owner + engineer + designer)', async () => {
+    const bo = await signIn(t.app, 'owner@brackenfield.example');
+    const teams = await bo.get('/api/teams').expect(200);
+    const b = teams.body.find((x: { slug: string }) => x.slug === 'brackenfield');
+    const detail = await bo.get(`/api/teams/${b.id}`).expect(200);
+    expect(detail.body.roles).toEqual(['owner', 'engineer', 'designer']);
+    expect([...detail.body.permissions].sort()).toEqual(
+      ['team:read', 'members:manage', 'vehicle:manage', 'vehicle:edit', 'design:propose', 'design:edit', 'design:accept'].sort(),
+    );
+  });
+
+  it('GET team reports the caller’s own permissions per role', async () => {
+    const expected: Record<string, string[]> = {
+      owner: ['team:read', 'members:manage', 'vehicle:manage'],
+      engineer: ['team:read', 'vehicle:manage', 'vehicle:edit', 'design:propose'],
+      designer: ['team:read', 'vehicle:manage', 'design:edit', 'design:accept'],
+      reviewer: ['team:read', 'review:decide'],
+      viewer: ['team:read'],
+    };
+    for (const [role, perms] of Object.entries(expected)) {
+      const r = await agents[role as Who].get(team()).expect(200);
+      expect([...r.body.permissions].sort(), role).toEqual([...perms].sort());
+      // And the server's own matrix agrees with what is written here.
+      expect([...ROLE_PERMISSIONS[role as keyof typeof ROLE_PERMISSIONS]].sort()).toEqual([...perms].sort());
+    }
+  });
+
+  it('a malformed team id is a plain 404', async () => {
+    const r = await agents.owner.get('/api/teams/not-a-uuid/vehicles');
+    expect(r.status).toBe(404);
+    expect((await request(t.app).get('/api/teams/not-a-uuid')).status).toBe(401);
+  });
+});

@@ -1,0 +1,109 @@
+/** Teams and members: creation, switching, adding by e-mail, roles, last-owner protection. */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { expectError, registerUser, signIn, startTestApp, type TestApp } from './helpers.js';
+
+let t: TestApp;
+beforeAll(async () => {
+  t = await startTestApp({ seed: true });
+});
+afterAll(async () => {
+  await t?.close();
+});
+
+describe('teams', () => {
+  it('a new team makes its creator the owner and appears in Me', async () => {
+    const u = await registerUser(t.app, 'Founder');
+    const r = await u.agent.post('/api/teams').send({ name: 'Hollin Works', slug: 'hollin-works' });
+    expect(r.status).toBe(201);
+    expect(r.body).toMatchObject({ name: 'Hollin Works', slug: 'hollin-works', roles: ['owner'] });
+    const me = await u.agent.get('/api/auth/me').expect(200);
+    expect(me.body.memberships).toEqual([{ teamId: r.body.id, teamName: 'Hollin Works', teamSlug: 'hollin-works', roles: ['owner'] }]);
+    const detail = await u.agent.get(`/api/teams/${r.body.id}`).expect(200);
+    expect(detail.body.permissions).toEqual(['team:read', 'members:manage', 'vehicle:manage']);
+  });
+
+  it('refuses a taken slug and a malformed one', async () => {
+    const u = await registerUser(t.app);
+    expectError(await u.agent.post('/api/teams').send({ name: 'Again', slug: 'tallowmere' }), 409, 'slug_taken');
+    const bad = await u.agent.post('/api/teams').send({ name: 'Bad', slug: 'Has Spaces!' });
+    expectError(bad, 400, 'invalid_input');
+    expect(bad.body.error.details.fields[0].path).toBe('slug');
+  });
+
+  it('a user in two teams sees both (team switching)', async () => {
+    const eli = await signIn(t.app, 'engineer@tallowmere.example');
+    const r = await eli.get('/api/teams').expect(200);
+    expect(r.body.map((x: { slug: string; roles: string[] }) => [x.slug, x.roles])).toEqual([
+      ['brackenfield', ['engineer']],
+      ['tallowmere', ['engineer']],
+    ]);
+  });
+
+  it('an owner can delete their team; it is gone for everyone', async () => {
+    const u = await registerUser(t.app);
+    const team = (await u.agent.post('/api/teams').send({ name: 'Short-lived', slug: 'short-lived' })).body;
+    await u.agent.delete(`/api/teams/${team.id}`).expect(204);
+    expectError(await u.agent.get(`/api/teams/${team.id}`), 404, 'not_found');
+  });
+});
+
+describe('members', () => {
+  async function ownTeam() {
+    const owner = await registerUser(t.app, 'Owner');
+    const team = (await owner.agent.post('/api/teams').send({ name: 'Members Lab', slug: `lab-${Date.now()}-${Math.round(Math.random() * 1e6)}` })).body;
+    return { owner, teamId: team.id as string };
+  }
+
+  it('adds an existing user by e-mail with a set of roles, then lists them', async () => {
+    const { owner, teamId } = await ownTeam();
+    const other = await registerUser(t.app, 'Zed Second');
+    const r = await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: other.email.toUpperCase(), roles: ['viewer', 'engineer', 'engineer'] });
+    expect(r.status).toBe(201);
+    expect(r.body).toMatchObject({ userId: other.id, roles: ['engineer', 'viewer'] });
+    const list = await owner.agent.get(`/api/teams/${teamId}/members`).expect(200);
+    expect(list.body).toHaveLength(2);
+    const me = await other.agent.get('/api/auth/me').expect(200);
+    expect(me.body.memberships.map((m: { teamId: string }) => m.teamId)).toEqual([teamId]);
+  });
+
+  it('unknown e-mail → 404 user_not_found; already member → 409; bad role → 400', async () => {
+    const { owner, teamId } = await ownTeam();
+    expectError(await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: 'ghost@nowhere.example', roles: ['viewer'] }), 404, 'user_not_found');
+    expectError(await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: owner.email, roles: ['viewer'] }), 409, 'already_member');
+    expectError(await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: owner.email, roles: ['admin'] }), 400, 'invalid_input');
+    expectError(await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: owner.email, roles: [] }), 400, 'invalid_input');
+  });
+
+  it('never leaves a team without an owner', async () => {
+    const { owner, teamId } = await ownTeam();
+    expectError(await owner.agent.patch(`/api/teams/${teamId}/members/${owner.id}`).send({ roles: ['engineer'] }), 409, 'last_owner');
+    expectError(await owner.agent.delete(`/api/teams/${teamId}/members/${owner.id}`), 409, 'last_owner');
+    const other = await registerUser(t.app);
+    await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: other.email, roles: ['owner'] }).expect(201);
+    // With a second owner the first may step down.
+    const r = await owner.agent.patch(`/api/teams/${teamId}/members/${owner.id}`).send({ roles: ['engineer'] });
+    expect(r.status).toBe(200);
+    expect(r.body.roles).toEqual(['engineer']);
+    expectError(await other.agent.delete(`/api/teams/${teamId}/members/${other.id}`), 409, 'last_owner');
+    await other.agent.delete(`/api/teams/${teamId}/members/${owner.id}`).expect(204);
+    expectError(await owner.agent.get(`/api/teams/${teamId}`), 404, 'not_found');
+  });
+
+  it('concurrent demotions of the two owners cannot both succeed', async () => {
+    const { owner, teamId } = await ownTeam();
+    const other = await registerUser(t.app);
+    await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: other.email, roles: ['owner'] }).expect(201);
+    const [a, b] = await Promise.all([
+      owner.agent.patch(`/api/teams/${teamId}/members/${owner.id}`).send({ roles: ['viewer'] }),
+      other.agent.patch(`/api/teams/${teamId}/members/${other.id}`).send({ roles: ['viewer'] }),
+    ]);
+    expect([a.status, b.status].sort()).toEqual([200, 409]);
+  });
+
+  it('changing a non-member or a malformed id is 404', async () => {
+    const { owner, teamId } = await ownTeam();
+    const stranger = await registerUser(t.app);
+    expectError(await owner.agent.patch(`/api/teams/${teamId}/members/${stranger.id}`).send({ roles: ['viewer'] }), 404, 'not_found');
+    expectError(await owner.agent.delete(`/api/teams/${teamId}/members/123`), 404, 'not_found');
+  });
+});
