@@ -1,7 +1,15 @@
 import { Routes } from '@angular/router';
+import { unsavedChangesGuard } from './unsaved-changes';
 
 /**
  * Team screens below `teams/:teamId` (vehicle, axle design, …), lazily
  * loaded by app.routes.ts. Owned by the screens work (issue 6).
  */
-export const FEATURE_ROUTES: Routes = [];
+export const FEATURE_ROUTES: Routes = [
+  {
+    path: 'vehicles/:vehicleId/axle-designs/:designId',
+    title: 'Axle design · Rollwise',
+    canDeactivate: [unsavedChangesGuard],
+    loadComponent: () => import('./axle-design/axle-design-page').then((m) => m.AxleDesignPage),
+  },
+];

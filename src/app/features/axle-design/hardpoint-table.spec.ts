@@ -1,0 +1,83 @@
+import { TestBed } from '@angular/core/testing';
+import type { Corner, Vec3 } from '../../../../shared/schema/corner';
+import { exampleCorners } from '../../../../shared/kinematics/examples';
+import { HardpointTable, PointEdit } from './hardpoint-table';
+
+const example = exampleCorners.fsFrontWishbone;
+const inner = example.points.tieRodInner;
+const outer = example.points.tieRodOuter;
+
+function setUp(editable: boolean, corner: Corner = exampleCorners.fsFrontWishbone) {
+  const fixture = TestBed.createComponent(HardpointTable);
+  fixture.componentRef.setInput('corner', corner);
+  fixture.componentRef.setInput('editable', editable);
+  fixture.detectChanges();
+  const edits: PointEdit[] = [];
+  const pastes: ReadonlyMap<string, Vec3>[] = [];
+  fixture.componentInstance.pointEdited.subscribe((e) => edits.push(e));
+  fixture.componentInstance.pointsPasted.subscribe((p) => pastes.push(p));
+  return { fixture, el: fixture.nativeElement as HTMLElement, edits, pastes };
+}
+
+describe('HardpointTable', () => {
+  it('lists points in plain words with labelled coordinate inputs', () => {
+    const { el } = setUp(true);
+    const names = Array.from(el.querySelectorAll('.rw-hardpoint-table tbody th[scope="row"]')).map((th) => th.textContent!.trim());
+    expect(names).toContain('Tie rod, inner end (rack)');
+    expect(names).toContain('Upper ball joint');
+    const z = el.querySelector<HTMLInputElement>('input[aria-label="Tie rod, inner end (rack), z in mm"]')!;
+    expect(Number(z.value)).toBe(inner[2]);
+  });
+
+  it('commits an edit on change, with a decimal comma accepted', () => {
+    const { el, edits } = setUp(true);
+    const z = el.querySelector<HTMLInputElement>('#hp-points-tieRodInner-z')!;
+    z.value = '172,5';
+    z.dispatchEvent(new Event('change'));
+    expect(edits).toEqual([{ key: 'points.tieRodInner', value: [inner[0], inner[1], 172.5] }]);
+  });
+
+  it('refuses text that is not a number and says which cell', () => {
+    const { fixture, el, edits } = setUp(true);
+    const z = el.querySelector<HTMLInputElement>('#hp-points-tieRodInner-z')!;
+    z.value = '17o';
+    z.dispatchEvent(new Event('change'));
+    fixture.detectChanges();
+    expect(edits).toEqual([]);
+    expect(z.getAttribute('aria-invalid')).toBe('true');
+    expect(el.querySelector('[role="alert"]')!.textContent).toContain('Tie rod, inner end (rack) z: "17o" is not a number');
+  });
+
+  it('applies a pasted spreadsheet block downward from the cell it lands in', () => {
+    const { fixture, pastes } = setUp(true);
+    const rows = fixture.componentInstance['rows']();
+    const start = rows.findIndex((r) => r.key === 'points.tieRodInner');
+    const message = fixture.componentInstance.applyBlock('-50\t205\t165\n-61\t566\t171\n', start, 0);
+    expect(message).toBe('Pasted 2 points.');
+    expect([...pastes[0]!]).toEqual([
+      ['points.tieRodInner', [-50, 205, 165]],
+      ['points.tieRodOuter', [-61, 566, 171]],
+    ]);
+  });
+
+  it('pastes nothing when one pasted cell is bad', () => {
+    const { fixture, pastes } = setUp(true);
+    const message = fixture.componentInstance.applyBlock('1\t2\tx\n', 0, 0);
+    expect(message).toContain('Nothing pasted');
+    expect(pastes).toEqual([]);
+  });
+
+  it('shows link lengths at design', () => {
+    const { el } = setUp(false);
+    const tie = Array.from(el.querySelectorAll('.rw-link-table tbody tr')).find((tr) => tr.textContent!.includes('Tie rod'))!;
+    // The straight-line distance between the two ends, to 0.01 mm.
+    const length = Math.hypot(outer[0] - inner[0], outer[1] - inner[1], outer[2] - inner[2]);
+    expect(tie.querySelector('td')!.textContent!.trim()).toBe(length.toFixed(2));
+  });
+
+  it('offers no inputs to a read-only user', () => {
+    const { el } = setUp(false);
+    expect(el.querySelectorAll('input').length).toBe(0);
+    expect(el.querySelectorAll('.rw-coordinate-text').length).toBeGreaterThan(0);
+  });
+});

@@ -1,0 +1,97 @@
+import { HttpClient, HttpContext } from '@angular/common/http';
+import { inject, Injectable } from '@angular/core';
+import { Observable } from 'rxjs';
+import type { Corner } from '../../../shared/schema/corner';
+import { SHOW_ERRORS_INLINE } from '../core/http/api-error';
+
+export type AxleName = 'front' | 'rear';
+
+/** `GET /api/teams/:teamId/axle-designs/:designId`. */
+export interface AxleDesign {
+  readonly id: string;
+  readonly vehicleId: string;
+  readonly axle: AxleName;
+  readonly name: string;
+  readonly revision: number;
+  readonly status: string;
+  readonly corner: Corner;
+  readonly updatedAt: string;
+  readonly updatedByName: string | null;
+}
+
+/** `GET /api/teams/:teamId/vehicles/:vehicleId/axle-designs` rows. */
+export interface AxleDesignSummary {
+  readonly id: string;
+  readonly axle: AxleName;
+  readonly name: string;
+  readonly revision: number;
+  readonly status: string;
+  readonly updatedAt: string;
+}
+
+/** A revision history row (vehicles and axle designs). */
+export interface RevisionRow {
+  readonly revision: number;
+  readonly message: string | null;
+  readonly authorName: string | null;
+  readonly createdAt: string;
+}
+
+/** `GET /api/teams/:teamId/vehicles/:vehicleId`. */
+export interface VehicleRecord {
+  readonly id: string;
+  readonly name: string;
+  readonly archived: boolean;
+  readonly revision: number;
+  readonly data: unknown;
+  readonly updatedAt: string;
+  readonly updatedByName: string | null;
+}
+
+const inline = () => ({ context: new HttpContext().set(SHOW_ERRORS_INLINE, true) });
+
+function team(teamId: string): string {
+  return `/api/teams/${encodeURIComponent(teamId)}`;
+}
+
+/** Vehicles and axle designs of a team (the endpoints of coord/contracts.md). */
+@Injectable({ providedIn: 'root' })
+export class FeaturesApi {
+  private readonly http = inject(HttpClient);
+
+  vehicle(teamId: string, vehicleId: string): Observable<VehicleRecord> {
+    return this.http.get<VehicleRecord>(`${team(teamId)}/vehicles/${encodeURIComponent(vehicleId)}`, inline());
+  }
+
+  vehicleRevisions(teamId: string, vehicleId: string): Observable<RevisionRow[]> {
+    return this.http.get<RevisionRow[]>(`${team(teamId)}/vehicles/${encodeURIComponent(vehicleId)}/revisions`, inline());
+  }
+
+  saveVehicleData(teamId: string, vehicleId: string, data: unknown, baseRevision: number, message?: string): Observable<VehicleRecord> {
+    return this.http.put<VehicleRecord>(
+      `${team(teamId)}/vehicles/${encodeURIComponent(vehicleId)}/data`,
+      { data, baseRevision, ...(message ? { message } : {}) },
+      inline(),
+    );
+  }
+
+  axleDesigns(teamId: string, vehicleId: string): Observable<AxleDesignSummary[]> {
+    return this.http.get<AxleDesignSummary[]>(`${team(teamId)}/vehicles/${encodeURIComponent(vehicleId)}/axle-designs`, inline());
+  }
+
+  axleDesign(teamId: string, designId: string): Observable<AxleDesign> {
+    return this.http.get<AxleDesign>(`${team(teamId)}/axle-designs/${encodeURIComponent(designId)}`, inline());
+  }
+
+  axleDesignRevisions(teamId: string, designId: string): Observable<RevisionRow[]> {
+    return this.http.get<RevisionRow[]>(`${team(teamId)}/axle-designs/${encodeURIComponent(designId)}/revisions`, inline());
+  }
+
+  saveCorner(teamId: string, designId: string, corner: Corner, baseRevision: number, message?: string): Observable<AxleDesign> {
+    return this.http.put<AxleDesign>(
+      `${team(teamId)}/axle-designs/${encodeURIComponent(designId)}/corner`,
+      { corner, baseRevision, ...(message ? { message } : {}) },
+      inline(),
+    );
+  }
+}

@@ -1,0 +1,71 @@
+import type { Corner, Vec3 } from '../../../shared/schema/corner';
+
+/** What the editor asks the engine for: one corner, its sweep ranges and the pose to draw. */
+export interface AnalysisRequest {
+  readonly corner: Corner;
+  readonly travel: { readonly from: number; readonly to: number; readonly step: number };
+  /** Rack positions for the toe and camber curves, mm; 0 first. */
+  readonly rackMm: readonly number[];
+  readonly roll: { readonly from: number; readonly to: number; readonly step: number };
+  /** Pose shown in the drawings. */
+  readonly pose: { readonly travelMm: number; readonly rackMm: number };
+}
+
+export interface CurvePoint {
+  readonly travelMm: number;
+  readonly toeDeg: number;
+  readonly camberDeg: number;
+}
+
+export interface RackCurve {
+  readonly rackMm: number;
+  readonly points: readonly CurvePoint[];
+  /** Toe-in per metre of bump, deg/m (linear fit). */
+  readonly bumpSteerDegPerM: number;
+  /** Second-order term of the toe fit, deg/m². */
+  readonly curvatureDegPerM2: number;
+  /** Largest deviation of toe from its linear fit, deg. */
+  readonly maxDeviationDeg: number;
+  /** Camber change per metre of bump, deg/m. */
+  readonly camberGainDegPerM: number;
+}
+
+export interface RollCurve {
+  readonly rackMm: number;
+  /** ε at this rack position, deg/deg. */
+  readonly rollSteerCoefficient: number;
+  readonly points: readonly { readonly rollDeg: number; readonly axleSteerDeg: number }[];
+}
+
+/** A pose of the corner for the drawings: every hardpoint where it is at that travel and rack. */
+export interface DrawnPose {
+  readonly travelMm: number;
+  readonly rackMm: number;
+  readonly toeDeg: number;
+  readonly camberDeg: number;
+  readonly points: Readonly<Record<string, Vec3>>;
+  readonly contactPatch: Vec3;
+}
+
+export interface CornerAnalysis {
+  readonly curves: readonly RackCurve[];
+  readonly roll: readonly RollCurve[];
+  /** ε = −dδ̄/dφ at φ = 0 and rack 0, deg/deg (domain.md). */
+  readonly rollSteerCoefficient: number;
+  readonly rollCamberDegPerDeg: number;
+  readonly pose: DrawnPose;
+  /** Time the engine took, ms (shown as a small figure; the bench measures properly). */
+  readonly elapsedMs: number;
+}
+
+/** An engine failure in a form that crosses the worker boundary. */
+export interface AnalysisFailure {
+  readonly code: string;
+  readonly message: string;
+  readonly details?: unknown;
+}
+
+export type WorkerRequest = { readonly id: number; readonly request: AnalysisRequest };
+export type WorkerReply =
+  | { readonly id: number; readonly ok: true; readonly analysis: CornerAnalysis }
+  | { readonly id: number; readonly ok: false; readonly failure: AnalysisFailure };

@@ -1,0 +1,92 @@
+/**
+ * The editor's analysis of one corner, composed from the shared/ kinematics
+ * engine (no engineering math here): travel sweeps with fits at several rack
+ * positions, the roll sweep with ε, and the pose shown in the drawings.
+ * Runs inside the Web Worker (or in the page where no Worker exists).
+ */
+import { InputError, SolveError } from '../../../shared/errors';
+import { rollSweep, solvePose, sweepCorner } from '../../../shared/kinematics/index';
+import type { Vec3 } from '../../../shared/schema/corner';
+import type { AnalysisFailure, AnalysisRequest, CornerAnalysis, DrawnPose, RackCurve, RollCurve } from './analysis-types';
+
+/** Points carried by the upright (they move as one rigid body with it). */
+const UPRIGHT_POINTS = ['wheelCentre', 'spindle', 'lowerOuter', 'upperOuter', 'tieRodOuter', 'strutLower'];
+
+function posedPoints(request: AnalysisRequest): DrawnPose {
+  const { corner, pose } = request;
+  const solved = solvePose(corner, { travelMm: pose.travelMm, rackMm: pose.rackMm });
+  const { c, R } = solved.state;
+  const points = corner.points as Record<string, Vec3>;
+  const wc0 = points['wheelCentre']!;
+  // Upright-fixed point: c + R · (p − wc0), R row-major (the solver's pose state).
+  const onUpright = (p: Vec3): Vec3 => {
+    const d = [p[0] - wc0[0], p[1] - wc0[1], p[2] - wc0[2]];
+    return [
+      c[0] + R[0]! * d[0]! + R[1]! * d[1]! + R[2]! * d[2]!,
+      c[1] + R[3]! * d[0]! + R[4]! * d[1]! + R[5]! * d[2]!,
+      c[2] + R[6]! * d[0]! + R[7]! * d[1]! + R[8]! * d[2]!,
+    ];
+  };
+  const drawn: Record<string, Vec3> = {};
+  for (const [key, p] of Object.entries(points)) {
+    const moves = UPRIGHT_POINTS.includes(key) || /^link[1-5]Outer$/.test(key);
+    drawn[key] = moves ? onUpright(p) : [p[0], p[1], p[2]];
+  }
+  // The rack carries the tie-rod inner point along its axis.
+  const steering = corner.steering;
+  if (steering?.kind === 'rack' && corner.steered && pose.rackMm !== 0) {
+    const a = steering.rackAxis;
+    const n = Math.hypot(a[0], a[1], a[2]);
+    const inner = points['tieRodInner']!;
+    drawn['tieRodInner'] = [
+      inner[0] + (pose.rackMm * a[0]) / n,
+      inner[1] + (pose.rackMm * a[1]) / n,
+      inner[2] + (pose.rackMm * a[2]) / n,
+    ];
+  }
+  return {
+    travelMm: pose.travelMm,
+    rackMm: pose.rackMm,
+    toeDeg: solved.toeDeg,
+    camberDeg: solved.camberDeg,
+    points: drawn,
+    contactPatch: solved.contactPatch,
+  };
+}
+
+export function analyseCorner(request: AnalysisRequest): CornerAnalysis {
+  const started = performance.now();
+  const racks = [...request.rackMm];
+  const sweep = sweepCorner(request.corner, { travel: { ...request.travel }, rackMm: racks });
+  const curves: RackCurve[] = sweep.fit.byRack.map((fit) => ({
+    rackMm: fit.rackMm,
+    points: sweep.rows
+      .filter((r) => r.rackMm === fit.rackMm)
+      .map((r) => ({ travelMm: r.travelMm, toeDeg: r.toeDeg, camberDeg: r.camberDeg })),
+    bumpSteerDegPerM: fit.bumpSteerDegPerM,
+    curvatureDegPerM2: fit.curvatureDegPerM2,
+    maxDeviationDeg: fit.maxDeviationDeg,
+    camberGainDegPerM: fit.camberGainDegPerM,
+  }));
+  const roll = rollSweep(request.corner, { roll: { ...request.roll }, rackMm: racks });
+  const rollCurves: RollCurve[] = roll.byRack.map((b) => ({
+    rackMm: b.rackMm,
+    rollSteerCoefficient: b.rollSteerCoefficient,
+    points: roll.rows.filter((r) => r.rackMm === b.rackMm).map((r) => ({ rollDeg: r.rollDeg, axleSteerDeg: r.axleSteerDeg })),
+  }));
+  return {
+    curves,
+    roll: rollCurves,
+    rollSteerCoefficient: roll.rollSteerCoefficient,
+    rollCamberDegPerDeg: roll.rollCamberDegPerDeg,
+    pose: posedPoints(request),
+    elapsedMs: performance.now() - started,
+  };
+}
+
+/** Engine errors as plain data: InputError lists fields, SolveError names travel, rack and link. */
+export function describeFailure(error: unknown): AnalysisFailure {
+  if (error instanceof InputError) return { code: error.code, message: error.message, details: error.issues };
+  if (error instanceof SolveError) return { code: error.code, message: error.message, details: error.details };
+  return { code: 'engine_error', message: error instanceof Error ? error.message : String(error) };
+}
