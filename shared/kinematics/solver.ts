@@ -357,13 +357,20 @@ export class CornerSolver {
   }
 
   /**
-   * Solves (travel, rack) by continuation from the current pose in steps of
-   * at most `maxStepMm`, predicting along the tangents. Returns the total
-   * number of Newton iterations.
+   * Solves (travel, rack) by continuation from the current pose: first the
+   * steering input at the current travel, then the travel, in steps of at
+   * most `maxStepMm`, predicting along the tangents. So a failure names the
+   * requested rack and the travel at which the linkage stopped closing.
+   * Returns the total number of Newton iterations.
    */
   solveTowards(travelMm: number, rackMm: number, maxStepMm = 10): number {
+    return this.walk(this.travelMm, rackMm, maxStepMm) + this.walk(travelMm, rackMm, maxStepMm);
+  }
+
+  private walk(travelMm: number, rackMm: number, maxStepMm: number): number {
     const dT = travelMm - this.travelMm;
     const dS = rackMm - this.rackMm;
+    if (dT === 0 && dS === 0) return 0;
     const n = Math.max(1, Math.ceil(Math.max(Math.abs(dT), Math.abs(dS)) / maxStepMm));
     let iters = 0;
     const t0 = this.travelMm;
