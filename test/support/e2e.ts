@@ -1,0 +1,118 @@
+/**
+ * Browser-test harness: the real server (fresh database, migrated, seeded)
+ * serving the production build, and Debian's Chromium through
+ * playwright-core. Every page fails its test on a request that leaves
+ * 127.0.0.1, and records console errors and uncaught page errors.
+ * Build the app first (`npx ng build`); npm test does.
+ */
+import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { tmpdir } from 'node:os';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { freshDatabaseUrl } from './db.js';
+
+const root = resolve(import.meta.dirname, '..', '..');
+export const DEMO_PASSWORD = 'demo-pass-2026';
+const staticDir = join(root, 'dist', 'rollwise', 'browser');
+
+export interface E2eApp {
+  baseUrl: string;
+  databaseUrl: string;
+  stop(): Promise<void>;
+}
+
+export async function startE2eApp(): Promise<E2eApp> {
+  if (!existsSync(join(staticDir, 'index.html'))) {
+    throw new Error(`No built app in ${staticDir}: run \`npx ng build\` first (npm test does).`);
+  }
+  const databaseUrl = freshDatabaseUrl('e2e');
+  const { startServer } = await import('../../server/main.js');
+  const server = await startServer({
+    databaseUrl,
+    host: '127.0.0.1',
+    port: 0,
+    seedDemo: true,
+    staticDir,
+    logLevel: 'silent',
+    production: false,
+  });
+  return { baseUrl: server.url, databaseUrl, stop: () => server.close() };
+}
+
+interface PageRecord {
+  consoleErrors: string[];
+  offsite: string[];
+}
+const records = new WeakMap<Page, PageRecord>();
+
+export interface E2eBrowser {
+  browser: Browser;
+  /** A page in a new context (its own cookies), guarded and recorded. */
+  newPage(): Promise<Page>;
+  close(): Promise<void>;
+}
+
+export async function openBrowser(): Promise<E2eBrowser> {
+  const home = mkdtempSync(join(tmpdir(), 'rollwise-chromium-'));
+  const browser = await chromium.launch({
+    executablePath: process.env['CHROMIUM_PATH'] ?? '/usr/bin/chromium',
+    headless: true,
+    args: ['--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    env: { ...process.env, HOME: home, XDG_CONFIG_HOME: join(home, 'config'), XDG_CACHE_HOME: join(home, 'cache') },
+  });
+  const contexts: BrowserContext[] = [];
+  return {
+    browser,
+    async newPage() {
+      const context = await browser.newContext({ viewport: { width: 1366, height: 900 } });
+      contexts.push(context);
+      const page = await context.newPage();
+      const rec: PageRecord = { consoleErrors: [], offsite: [] };
+      records.set(page, rec);
+      await context.route('**/*', (route) => {
+        const url = new URL(route.request().url());
+        const local = url.hostname === '127.0.0.1' || url.protocol === 'data:' || url.protocol === 'blob:';
+        if (local) return route.continue();
+        rec.offsite.push(url.href);
+        return route.abort('blockedbyclient');
+      });
+      page.on('console', (msg) => {
+        if (msg.type() === 'error') rec.consoleErrors.push(msg.text());
+      });
+      page.on('pageerror', (err) => rec.consoleErrors.push(`uncaught: ${err.message}`));
+      return page;
+    },
+    async close() {
+      for (const c of contexts) await c.close().catch(() => undefined);
+      await browser.close();
+      rmSync(home, { recursive: true, force: true });
+    },
+  };
+}
+
+/** Console errors and uncaught exceptions seen on the page so far. */
+export function consoleErrors(page: Page): string[] {
+  return records.get(page)?.consoleErrors ?? [];
+}
+
+/** Requests the page tried to send anywhere but 127.0.0.1 (all were blocked). */
+export function offsiteRequests(page: Page): string[] {
+  return records.get(page)?.offsite ?? [];
+}
+
+export async function saveScreenshot(page: Page, name: string): Promise<string> {
+  const dir = join(root, 'test-results');
+  mkdirSync(dir, { recursive: true });
+  const file = join(dir, `${name}.png`);
+  await page.screenshot({ path: file, fullPage: true });
+  return file;
+}
+
+/** Signs in through the sign-in page and waits until the app has left it. */
+export async function signIn(page: Page, baseUrl: string, email: string, password = DEMO_PASSWORD): Promise<void> {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password', { exact: false }).first().fill(password);
+  await page.getByRole('button', { name: /sign in/i }).click();
+  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'), { timeout: 15_000 });
+}
