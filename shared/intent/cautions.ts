@@ -177,6 +177,8 @@ export interface CautionInputs {
   lockBumpSteerRackMm: number;
   /** |Compliance steer (deg/g)| ÷ |kinematic roll steer (deg/g)| on this axle, null without compliance data. */
   complianceRatio: number | null;
+  /** The vehicle gives this axle's compliance steer (no "unmodelled" notice then). */
+  complianceKnown?: boolean | undefined;
   thresholds?: CautionThresholds | undefined;
 }
 
@@ -257,7 +259,7 @@ export function evaluateCautions(inputs: CautionInputs): Caution[] {
         `Elastic steer under lateral force is ${fmt(inputs.complianceRatio ?? 0, 2)} times the kinematic roll steer of this axle: the rigid-link result alone does not set the balance.`,
       ),
     );
-  } else if (p.road) {
+  } else if (p.road && !inputs.complianceKnown) {
     out.push({
       level: 'info',
       code: 'compliance-steer-unmodelled',

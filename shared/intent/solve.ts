@@ -117,7 +117,8 @@ export interface SideEffects {
   steeringRatioDegPerMm: { before: number; after: number; change: number } | null;
   /** Ackermann percentage at half the stroke (needs the vehicle's wheelbase). */
   ackermannPct: { before: number; after: number; change: number; rackMm: number } | null;
-  rollCentreHeightMm: { before: number; after: number; change: number };
+  /** Null where a roll centre is at infinity (parallel contact-patch-to-instant-centre lines, e.g. a parallelogram). */
+  rollCentreHeightMm: { before: number; after: number; change: number } | null;
   /** Largest angle the tie rod turns through at each ball joint over travel and rack, relative to its design direction, deg. */
   ballJointArticulationDeg: { inner: { before: number; after: number }; outer: { before: number; after: number } };
 }
@@ -141,10 +142,10 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   const zeroBump = 'zeroBumpSteer' in intent.target;
   progress(0.02, 'current geometry');
 
-  const currentSummary = summary(counter, current);
-  const track = currentSummary.trackMm;
+  // Design contact-patch track of the mirrored axle (domain.md: the roll sweep's t).
+  const track = 2 * pose(counter, current, 0).contactPatch[1];
   const epsOf = (c: Corner) => rollSteer(counter, c);
-  const epsCurrent = currentSummary.rollSteerCoefficient;
+  const epsCurrent = epsOf(current);
   const gradients = intent.vehicle ? suspensionRollGradients(intent.vehicle) : null;
   const dKdEps = gradients ? (intent.axle === 'front' ? gradients.frontDegPerG : -gradients.rearDegPerG) : null;
   let epsTarget: number;
@@ -294,7 +295,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
     sensitivity[n] = (up - dn) / (2 * h);
   });
 
-  const sideEffects = sideEffectsOf(counter, current, currentSummary.rollCentreHeightMm, proposed, intent.vehicle, racks, travel);
+  const sideEffects = sideEffectsOf(counter, current, proposed, intent.vehicle, racks, travel);
 
   progress(0.9, 'workshop numbers and cautions');
   const ws = workshopNumbers(current, proposed, intent.options);
@@ -417,13 +418,13 @@ function toeAfterShimming(counter: PoseCounter, current: Corner, built: Corner):
 function sideEffectsOf(
   counter: PoseCounter,
   before: Corner,
-  rcBefore: number,
   after: Corner,
   vehicle: Vehicle | undefined,
   racks: number[],
   travel: { from: number; to: number },
 ): SideEffects {
-  const rcAfter = summary(counter, after).rollCentreHeightMm;
+  const rcBefore = rollCentreHeight(counter, before);
+  const rcAfter = rollCentreHeight(counter, after);
   const a0 = articulation(counter, before, racks, travel);
   const a1 = articulation(counter, after, racks, travel);
   let sr: SideEffects['steeringRatioDegPerMm'] = null;
@@ -442,9 +443,18 @@ function sideEffectsOf(
   return {
     steeringRatioDegPerMm: sr,
     ackermannPct: ack,
-    rollCentreHeightMm: { before: rcBefore, after: rcAfter, change: rcAfter - rcBefore },
+    rollCentreHeightMm: rcBefore !== null && rcAfter !== null ? { before: rcBefore, after: rcAfter, change: rcAfter - rcBefore } : null,
     ballJointArticulationDeg: { inner: { before: a0.inner, after: a1.inner }, outer: { before: a0.outer, after: a1.outer } },
   };
+}
+
+function rollCentreHeight(counter: PoseCounter, c: Corner): number | null {
+  try {
+    return summary(counter, c).rollCentreHeightMm;
+  } catch (e) {
+    if (e instanceof SolveError && e.code === 'singular_geometry') return null;
+    throw e;
+  }
 }
 
 /** Largest angle of the tie rod from its design direction at each ball joint, over the travel ends and rack positions, deg. */
@@ -521,6 +531,7 @@ function cautionInputs(
   let ccSource = `the product default ${DEFAULT_CORNERING_COEFFICIENT_PER_DEG} per degree`;
   let landing: number | null = null;
   let complianceRatio: number | null = null;
+  let complianceKnown = false;
   if (v) {
     const axleLoadN = v.massKg * G_STD * (intent.axle === 'front' ? (v.wheelbaseMm - v.cgToFrontAxleMm) / v.wheelbaseMm : v.cgToFrontAxleMm / v.wheelbaseMm);
     const wheel = axleLoadN / 2;
@@ -540,7 +551,9 @@ function cautionInputs(
     if (comp !== undefined && grads) {
       const compDegPerG = Math.abs(comp * (axleLoadN / 1000));
       const rollDegPerG = Math.abs(eps * (intent.axle === 'front' ? grads.frontDegPerG : grads.rearDegPerG));
-      complianceRatio = rollDegPerG > 1e-9 ? Math.min(1e3, compDegPerG / rollDegPerG) : 1e3;
+      // Only against deliberate roll steer: with none, there is nothing for compliance to rival.
+      complianceRatio = rollDegPerG > 1e-3 ? compDegPerG / rollDegPerG : null;
+      complianceKnown = true;
     }
   }
   return {
@@ -559,6 +572,7 @@ function cautionInputs(
     lockBumpSteerSpreadDegPerM: spread,
     lockBumpSteerRackMm: spreadRack,
     complianceRatio,
+    complianceKnown,
     thresholds: intent.cautionThresholds,
   };
 }
