@@ -34,12 +34,20 @@ function flatten(value: unknown, path: string, out: Map<string, number | null>):
   else if (typeof value === 'object') for (const [k, v] of Object.entries(value as Record<string, unknown>)) flatten(v, path ? `${path}.${k}` : k, out);
 }
 
+/** The issue's headline outputs first, in this order; everything else after, in result order. */
+const FIRST = ['rollGradientDegPerG', 'rollStiffnessNmPerDeg.', 'suspensionRollDegPerG.', 'lateralLoadTransfer.', 'understeerBudget.', 'characteristicSpeedKph', 'criticalSpeedKph', 'stepSteer.'];
+const rank = (path: string) => {
+  const i = FIRST.findIndex((p) => path === p || (p.endsWith('.') && path.startsWith(p)));
+  return i === -1 ? FIRST.length : i;
+};
+
 export function compareBalance(baseline: BalanceResult, variant: BalanceResult): BalanceComparison {
   const a = new Map<string, number | null>();
   const b = new Map<string, number | null>();
   flatten(baseline, '', a);
   flatten(variant, '', b);
-  const paths = [...a.keys(), ...[...b.keys()].filter((k) => !a.has(k))];
+  const all = [...a.keys(), ...[...b.keys()].filter((k) => !a.has(k))];
+  const paths = all.map((p, i) => ({ p, i, r: rank(p) })).sort((x, y) => x.r - y.r || x.i - y.i).map((x) => x.p);
   const rows = paths.map((path): ComparisonRow => {
     const x = a.get(path) ?? null;
     const y = b.get(path) ?? null;

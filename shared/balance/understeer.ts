@@ -159,11 +159,13 @@ export type UndersteerBudget = Record<BudgetTerm | 'total', number>;
 
 /** K per term = D_front − D_rear (deg/g; positive = understeer). */
 export function budgetFromCompliances(front: Record<BudgetTerm, number>, rear: Record<BudgetTerm, number>): UndersteerBudget {
-  const out = { total: 0 } as UndersteerBudget;
+  const out = {} as UndersteerBudget;
+  let total = 0;
   for (const k of BUDGET_TERMS) {
     out[k] = front[k] - rear[k];
-    out.total += out[k];
+    total += out[k];
   }
+  out.total = total;
   return out;
 }
 

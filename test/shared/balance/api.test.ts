@@ -1,0 +1,119 @@
+import { describe, expect, it } from 'vitest';
+import { computeBalance } from '../../../shared/balance/api.js';
+import { exampleVehicles } from '../../../shared/balance/examples.js';
+import { evaluateBalance } from '../../../shared/balance/index.js';
+import { InputError } from '../../../shared/errors.js';
+import { axleSummary, exampleCorners, rackForAxleSteer } from '../../../shared/kinematics/index.js';
+
+const fs = { vehicle: exampleVehicles.tur26Ember, frontCorner: exampleCorners.fsFrontWishbone, rearCorner: exampleCorners.fsRearWishbone };
+
+describe('computeBalance: kinematics link', () => {
+  const r = computeBalance({ ...fs, sensitivity: false });
+
+  it('takes ε, roll camber, roll-centre height and motion ratios from the corners and says so', () => {
+    const kin = axleSummary(exampleCorners.fsRearWishbone, { rackMm: 0 });
+    const rear = r.kinematicsLink.rear;
+    expect(rear.fromCorner).toBe(true);
+    expect(rear.source.rollSteerCoefficient).toBe('kinematics');
+    expect(rear.used.rollSteerCoefficient).toBe(kin.rollSteerCoefficient);
+    expect(rear.used.rollCamberDegPerDeg).toBe(kin.rollCamberDegPerDeg);
+    expect(rear.used.rollCentreHeightMm).toBe(kin.rollCentreHeightMm);
+    expect(r.rollCentreHeightMm.rear).toBe(kin.rollCentreHeightMm);
+    if (kin.springMotionRatio !== undefined) {
+      expect(rear.source.springMotionRatio).toBe('kinematics');
+      expect(r.effectiveVehicle.rear.spring!.motionRatio).toBe(kin.springMotionRatio);
+    }
+    // The bar of this vehicle is a roll rate at the wheels: its motion ratio does not apply, and a note says so.
+    expect(rear.source.barMotionRatio).toBe('not-applicable');
+    expect(rear.notes.join(' ')).toMatch(/bar motion ratio not used/);
+  });
+
+  it('the budget uses the linked ε: matches evaluateBalance of the effective vehicle', () => {
+    const direct = evaluateBalance(r.effectiveVehicle, { sensitivity: false });
+    expect(r.understeerBudget.rollSteer).toBeCloseTo(direct.understeerBudget.rollSteer, 12);
+    expect(r.understeerBudget.rollSteer).not.toBeCloseTo(evaluateBalance(exampleVehicles.tur26Ember, { sensitivity: false }).understeerBudget.rollSteer, 6);
+  });
+
+  it('an entered override wins over the kinematics', () => {
+    const o = computeBalance({ ...fs, sensitivity: false, overrides: { rear: { rollSteerCoefficient: -0.1, rollCentreHeightMm: 44 } } });
+    expect(o.kinematicsLink.rear.source.rollSteerCoefficient).toBe('override');
+    expect(o.kinematicsLink.rear.used.rollSteerCoefficient).toBe(-0.1);
+    expect(o.rollCentreHeightMm.rear).toBe(44);
+    expect(o.kinematicsLink.rear.source.rollCamberDegPerDeg).toBe('kinematics');
+  });
+
+  it('without corners the vehicle values are used', () => {
+    const o = computeBalance({ vehicle: exampleVehicles.tur26Ember, sensitivity: false });
+    expect(o.kinematicsLink.front.fromCorner).toBe(false);
+    expect(o.kinematicsLink.front.source.rollSteerCoefficient).toBe('vehicle');
+    expect(o.kinematicsLink.rear.used.rollSteerCoefficient).toBe(exampleVehicles.tur26Ember.rear.rollSteerCoefficient);
+  });
+
+  it('reads the steered front at the rack position a corner radius needs (δ = L/R + K·a_y)', () => {
+    const o = computeBalance({ ...fs, sensitivity: false, cornerRadiusM: 15 });
+    const f = o.kinematicsLink.front;
+    const L = exampleVehicles.tur26Ember.wheelbaseMm / 1000;
+    const expectedSteer = (L / 15) * (180 / Math.PI) + o.understeerBudget.total * 0.4;
+    expect(f.axleSteerDeg!).toBeCloseTo(expectedSteer, 3);
+    expect(f.rackMm!).toBeCloseTo(rackForAxleSteer(exampleCorners.fsFrontWishbone, f.axleSteerDeg!), 9);
+    expect(f.rackMm).not.toBe(0);
+    expect(o.kinematicsLink.rear.rackMm).toBe(0);
+  });
+
+  it('compares a baseline with a variant side by side', () => {
+    const o = computeBalance({ vehicle: exampleVehicles.tur25Cinder, sensitivity: false, variant: { vehicle: exampleVehicles.tur26Ember } });
+    const c = o.comparison!;
+    expect(c.baselineName).toBe('TUR-25 Cinder');
+    expect(c.variantName).toBe('TUR-26 Ember');
+    expect(c.rows[0]!.path).toBe('rollGradientDegPerG');
+    const k = c.rows.find((x) => x.path === 'understeerBudget.total')!;
+    expect(k.baseline).toBeCloseTo(o.understeerBudget.total, 12);
+    expect(k.variant).toBeCloseTo(c.variant.understeerBudget.total, 12);
+    expect(k.change).toBeCloseTo(k.variant! - k.baseline!, 12);
+    expect(c.yawRateHistory.variant.length).toBe(c.variant.stepSteer.history.length);
+  });
+
+  it('returns JSON-safe values (no NaN or Infinity)', () => {
+    const o = computeBalance({ ...fs, cornerRadiusM: 20 });
+    const text = JSON.stringify(o);
+    expect(text).not.toMatch(/NaN|Infinity/);
+    expect(JSON.parse(text)).toEqual(JSON.parse(JSON.stringify(o)));
+    let nulls = 0;
+    JSON.stringify(o, (_k, v) => {
+      if (typeof v === 'number' && !Number.isFinite(v)) nulls++;
+      return v;
+    });
+    expect(nulls).toBe(0);
+  });
+});
+
+describe('computeBalance: bad input', () => {
+  const issuePath = (input: unknown) => {
+    try {
+      computeBalance(input);
+    } catch (e) {
+      expect(e).toBeInstanceOf(InputError);
+      return (e as InputError).issues[0]!.path;
+    }
+    throw new Error('expected an InputError');
+  };
+
+  it('names the vehicle field', () => {
+    expect(issuePath({ vehicle: { ...exampleVehicles.tur26Ember, massKg: -3 } })).toBe('vehicle.massKg');
+    expect(issuePath({ vehicle: { ...exampleVehicles.tur26Ember, rear: { ...exampleVehicles.tur26Ember.rear, tyre: {} } } })).toBe('vehicle.rear.tyre');
+    expect(issuePath({})).toBe('vehicle');
+    expect(issuePath({ vehicle: exampleVehicles.tur26Ember, speedKph: 0 })).toBe('speedKph');
+    expect(issuePath({ vehicle: exampleVehicles.tur26Ember, unknownKey: 1 })).toBe('(root)');
+  });
+
+  it('names the corner field', () => {
+    const bad = structuredClone(exampleCorners.fsFrontWishbone) as unknown as Record<string, unknown>;
+    delete (bad['points'] as Record<string, unknown>)['tieRodInner'];
+    expect(issuePath({ vehicle: exampleVehicles.tur26Ember, frontCorner: bad })).toMatch(/^frontCorner\.points/);
+  });
+
+  it('accepts a vehicle document without formatVersion (upgraded to 1)', () => {
+    const { formatVersion: _f, ...old } = exampleVehicles.brackenfieldB3;
+    expect(computeBalance({ vehicle: old, sensitivity: false }).vehicleName).toBe('Brackenfield B3 hatchback');
+  });
+});
