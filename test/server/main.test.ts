@@ -58,3 +58,30 @@ describe('startServer', () => {
     await expect(startServer({ databaseUrl: 'postgres://postgres@127.0.0.1:1/none', port: 0, logLevel: 'silent', dbConnectTimeoutMs: 500 })).rejects.toThrow();
   });
 });
+
+describe('migrations', () => {
+  it('several servers migrating one database at once all succeed', async () => {
+    const { createDatabase } = await import('../../server/db/client.js');
+    const { migrateDatabase } = await import('../../server/db/migrate.js');
+    const url = freshDatabaseUrl();
+    const dbs = [createDatabase(url), createDatabase(url), createDatabase(url)];
+    try {
+      await Promise.all(dbs.map((d) => migrateDatabase(d)));
+      const r = await dbs[0]!.pool.query(`SELECT count(*)::int AS n FROM drizzle.__drizzle_migrations`);
+      expect(r.rows[0].n).toBeGreaterThanOrEqual(1);
+      const tables = await dbs[0]!.pool.query(`SELECT tablename FROM pg_tables WHERE schemaname = 'public' ORDER BY tablename`);
+      expect(tables.rows.map((x: { tablename: string }) => x.tablename)).toEqual([
+        'axle_design_revisions',
+        'axle_designs',
+        'memberships',
+        'session',
+        'teams',
+        'users',
+        'vehicle_revisions',
+        'vehicles',
+      ]);
+    } finally {
+      await Promise.all(dbs.map((d) => d.close()));
+    }
+  });
+});
