@@ -45,7 +45,7 @@ export interface BalanceOptions {
   stepSteerDeg?: number;
   /** Simulated time of the step, s (default 3). */
   stepDurationS?: number;
-  /** Sampling interval of the step metrics, s (default 0.001); history rows every 10 ms. */
+  /** Sampling interval of the step metrics, s (default 0.002; crossings interpolated); history rows every 10 ms. */
   stepSampleS?: number;
   /** Rank the inputs by their effect on K (default true). */
   sensitivity?: boolean;
@@ -107,7 +107,7 @@ export function evaluateBalance(vehicle: Vehicle, options: BalanceOptions = {}):
   });
   const speedMps = (options.speedKph ?? 80) * KPH;
   const models = transientModels(core, budget.axleCompliance, speedMps);
-  const stepOpts = { steerRad: (options.stepSteerDeg ?? 1) * DEG, durationS: options.stepDurationS ?? 3, sampleS: options.stepSampleS ?? 0.001, historyEvery: Math.max(1, Math.round(0.01 / (options.stepSampleS ?? 0.001))) };
+  const stepOpts = { steerRad: (options.stepSteerDeg ?? 1) * DEG, durationS: options.stepDurationS ?? 3, sampleS: options.stepSampleS ?? 0.002, historyEvery: Math.max(1, Math.round(0.01 / (options.stepSampleS ?? 0.002))) };
   const step2 = stepResponse(models.twoDof, stepOpts);
   const step3 = models.threeDof ? stepResponse(models.threeDof, stepOpts) : null;
   const mb = roll.rollMomentBalance;

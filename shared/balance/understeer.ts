@@ -254,6 +254,8 @@ export interface SensitivityEntry {
 }
 
 const NOT_PERTURBED = new Set(['formatVersion']);
+/** Inputs that do not enter the steady-state K (inertias, damping, steering ratio): listed with no change, not re-evaluated. */
+const NOT_IN_K = new Set(['yawInertiaKgM2', 'rollInertiaKgM2', 'rollDampingNmsPerDeg', 'steeringRatio']);
 
 function numericLeaves(obj: unknown, prefix: string, out: { path: string; parent: Record<string, unknown>; key: string }[]): void {
   if (obj === null || typeof obj !== 'object') return;
@@ -286,6 +288,7 @@ export function understeerSensitivity(vehicle: Vehicle, lateralG = DEFAULT_BUDGE
   numericLeaves(work, '', leaves);
   const entries: SensitivityEntry[] = leaves.map(({ path, parent, key }) => {
     const value = parent[key] as number;
+    if (NOT_IN_K.has(path)) return { path, value, kPlusDegPerG: base, kMinusDegPerG: base, maxAbsChangeDegPerG: 0 };
     parent[key] = value * (1 + fraction);
     const kPlus = kOf(work);
     parent[key] = value * (1 - fraction);

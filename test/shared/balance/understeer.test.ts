@@ -264,6 +264,7 @@ describe('sensitivity ranking', () => {
   it('is ranked by the larger |ΔK| of ±10 %', () => {
     for (let i = 1; i < s.entries.length; i++) expect(s.entries[i - 1]!.maxAbsChangeDegPerG).toBeGreaterThanOrEqual(s.entries[i]!.maxAbsChangeDegPerG);
     expect(s.entries.find((e) => e.path === 'yawInertiaKgM2')!.maxAbsChangeDegPerG).toBe(0);
+    expect(s.entries.find((e) => e.path === 'massKg')!.maxAbsChangeDegPerG).toBeGreaterThan(0);
   });
 
   it('roll steer is linear in ε: ±10 % of ε_r moves K by 10 % of its rear term', () => {
