@@ -64,9 +64,11 @@ export interface FamilyOutcome {
 }
 
 const GRADIENT_STEP_MM = 0.5;
-/** Objective values within this of the best count as equally good, deg (toe noise of the pose solver is ~1e-10 deg). */
-export const OBJECTIVE_TIE_TOL_DEG = 1e-8;
+/** Objective values within this of the best count as equally good, deg (above the noise of the pose solver and of the target search, ~1e-11 deg). */
+export const OBJECTIVE_TIE_TOL_DEG = 1e-10;
 const FAIL = 1e6;
+/** A tie-break must bring the solution this much nearer the current geometry to count, mm. */
+export const TIE_MOVE_MM = 0.01;
 
 export function solveFamily(p: FamilyProblem): FamilyOutcome {
   const n = p.names.length;
@@ -214,7 +216,7 @@ export function solveFamily(p: FamilyProblem): FamilyOutcome {
       const lo = grid[Math.max(0, bi - 1)]!.q[j]!;
       const hi = grid[Math.min(m - 1, bi + 1)]!.q[j]!;
       const f = (s: number) => withObjective(member(s)).objective;
-      const best = brentMinimise(f, lo, hi, 1e-4 * Math.max(1, b - a), 40, { x: grid[bi]!.q[j]!, fx: grid[bi]!.objective });
+      const best = brentMinimise(f, lo, hi, 1e-5, 60, { x: grid[bi]!.q[j]!, fx: grid[bi]!.objective });
       const bm = withObjective(member(best.x));
       if (bm.feasible && bm.objective <= x.objective) x = bm;
     }
@@ -240,7 +242,8 @@ export function solveFamily(p: FamilyProblem): FamilyOutcome {
         if (equal(edge)) pick = edge;
       }
       for (const g of grid) if (equal(g) && distance(g.q) < distance(pick.q)) pick = g;
-      if (distance(pick.q) < distance(x.q) - 1e-3) {
+      // Moves below a hundredth of a millimetre are search noise, not a different solution.
+      if (distance(pick.q) < distance(x.q) - TIE_MOVE_MM) {
         tieBreak = 'nearest-current';
         x = pick;
       }
