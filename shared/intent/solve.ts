@@ -53,8 +53,8 @@ export interface FamilyMemberOut {
   /** RMS toe deviation from its own linear fit (zero bump steer: from static toe), deg. */
   objectiveRmsDeg: number;
   rollSteerCoefficient: number;
-  /** Toe change over the profile's single-wheel bump, rack straight ahead, deg. */
-  bumpToeChangeDeg: number;
+  /** Toe change over the profile's single-wheel bump, rack straight ahead, deg (null where that pose is unreachable). */
+  bumpToeChangeDeg: number | null;
   understeerChangeDegPerG: number | null;
   withinBounds: boolean;
   chosen: boolean;
@@ -265,7 +265,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
       coordinates: Object.fromEntries(names.map((n, i) => [n, mq[i]!])),
       objectiveRmsDeg: objectiveDeg,
       rollSteerCoefficient: eps,
-      bumpToeChangeDeg: Number.isFinite(bumpToe) ? bumpToe : (null as unknown as number),
+      bumpToeChangeDeg: Number.isFinite(bumpToe) ? bumpToe : null,
       understeerChangeDegPerG: uChange(eps),
       withinBounds,
       chosen,
