@@ -89,7 +89,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
     express.static(config.staticDir, {
       index: false,
       setHeaders(res, path) {
-        if (/\.[0-9a-z]{8,}\.(js|css|woff2?|ttf|svg|png)$/i.test(path) || /[-.][A-Z0-9]{8}\.(js|css)$/.test(path)) {
+        if (/-[A-Z0-9]{8}\.(js|css|woff2?|ttf|otf|svg|png|jpe?g|webp)$/.test(path)) {
           res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
         }
       },
