@@ -107,3 +107,21 @@ describe('caution rules', () => {
     expect(resolveTrackProfile('bumpy-circuit').bumpHeightMm).toBe(trackProfiles['bumpy-circuit'].bumpHeightMm);
   });
 });
+
+describe('docs/cautions.md', () => {
+  it('documents every caution code and every default threshold', async () => {
+    const { readFileSync } = await import('node:fs');
+    const { join } = await import('node:path');
+    const doc = readFileSync(join(import.meta.dirname, '..', '..', '..', 'docs', 'cautions.md'), 'utf8');
+    const { CAUTION_CODES } = await import('../../../shared/intent/cautions.js');
+    for (const code of CAUTION_CODES) expect(doc).toContain(`\`${code}\``);
+    for (const [code, rule] of Object.entries(CAUTION_RULES)) {
+      const row = doc.split('\n').find((l) => l.startsWith(`| \`${code}\``))!;
+      expect(row).toContain(rule.basis);
+      for (const id of Object.keys(trackProfiles) as (keyof typeof trackProfiles)[]) {
+        const t = thresholdsFor(code as keyof typeof CAUTION_RULES, id);
+        for (const v of [t.info, t.warning, t.critical]) if (v !== undefined) expect(row).toContain(String(v));
+      }
+    }
+  });
+});
