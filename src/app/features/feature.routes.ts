@@ -7,6 +7,13 @@ import { unsavedChangesGuard } from './unsaved-changes';
  */
 export const FEATURE_ROUTES: Routes = [
   {
+    path: 'vehicles/:vehicleId',
+    pathMatch: 'full',
+    title: 'Vehicle · Rollwise',
+    canDeactivate: [unsavedChangesGuard],
+    loadComponent: () => import('./vehicle/vehicle-page').then((m) => m.VehiclePage),
+  },
+  {
     path: 'vehicles/:vehicleId/axle-designs/:designId',
     title: 'Axle design · Rollwise',
     canDeactivate: [unsavedChangesGuard],

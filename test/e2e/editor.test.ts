@@ -1,0 +1,182 @@
+/**
+ * Browser test of the axle design editor (issue 6, "How it is checked"):
+ * as the demo designer open an axle design, change the tie-rod inner
+ * height, see the toe chart and the fitted gradient change (solved in the
+ * page's Web Worker, no server round trip), save, see the new revision; as
+ * the demo viewer see the same design with no edit controls. Real server,
+ * fresh seeded database, Debian's Chromium. Needs `npx ng build` first.
+ */
+import { AxeBuilder } from '@axe-core/playwright';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, signIn, startE2eApp } from '../support/e2e.js';
+
+type App = Awaited<ReturnType<typeof startE2eApp>>;
+type Browser = Awaited<ReturnType<typeof openBrowser>>;
+
+const TIE_ROD_INNER_Z = 'Tie rod, inner end (rack), z in mm';
+
+async function seriousA11yViolations(page: Page): Promise<string[]> {
+  const result = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']).analyze();
+  return result.violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
+}
+
+/** From the team dashboard to the front baseline design of TUR-26 Ember, through the vehicle page. */
+async function openFrontBaseline(page: Page): Promise<string> {
+  await page.getByRole('link', { name: 'TUR-26 Ember' }).click();
+  await page.getByRole('heading', { name: 'TUR-26 Ember' }).waitFor();
+  await page.getByRole('link', { name: 'Front baseline' }).click();
+  await page.getByRole('heading', { name: /Front baseline/ }).waitFor();
+  await page.locator('[data-testid="toe-chart"] path.rw-series-line').first().waitFor();
+  return new URL(page.url()).pathname;
+}
+
+function rackZeroBumpSteer(page: Page): Promise<string> {
+  return page.locator('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]').innerText();
+}
+
+function toePath(page: Page): Promise<string | null> {
+  return page.locator('[data-testid="toe-chart"] svg.rw-chart-svg path.rw-series-line').first().getAttribute('d');
+}
+
+describe('Axle design editor in Chromium', () => {
+  let app: App;
+  let browser: Browser;
+  let designPath = '';
+
+  beforeAll(async () => {
+    app = await startE2eApp();
+    browser = await openBrowser();
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+    await app?.stop();
+  });
+
+  it('lets the designer change the tie-rod inner height, see toe and gradient change, and save a new revision', async () => {
+    const page = await browser.newPage();
+    await signIn(page, app.baseUrl, 'designer@tallowmere.example');
+    designPath = await openFrontBaseline(page);
+    expect(designPath).toMatch(/^\/teams\/[^/]+\/vehicles\/[^/]+\/axle-designs\/[^/]+$/);
+    await expect(page.getByTestId('revision').innerText()).resolves.toMatch(/^Revision 1\b/);
+
+    const gradientBefore = await rackZeroBumpSteer(page);
+    const pathBefore = await toePath(page);
+    const epsilonBefore = await page.getByTestId('epsilon').innerText();
+    expect(Number(gradientBefore)).not.toBeNaN();
+    await expect(page.getByTestId('roll-steer').innerText()).resolves.toMatch(/roll (under|over)steer|practically no roll steer/);
+
+    // Raise the tie-rod inner point by 8 mm: the tie rod tilts, so the toe curve must move.
+    const zInput = page.getByLabel(TIE_ROD_INNER_Z);
+    const zBefore = Number(await zInput.inputValue());
+    const computeRequests: string[] = [];
+    page.on('request', (r) => {
+      if (r.url().includes('/api/compute/')) computeRequests.push(r.url());
+    });
+    await zInput.fill(String(zBefore + 8));
+    await zInput.press('Enter');
+    await page.waitForFunction(
+      (before) => document.querySelector('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]')?.textContent?.trim() !== before,
+      gradientBefore,
+    );
+    const gradientAfter = await rackZeroBumpSteer(page);
+    expect(gradientAfter).not.toBe(gradientBefore);
+    expect(await toePath(page)).not.toBe(pathBefore);
+    expect(await page.getByTestId('epsilon').innerText()).not.toBe(epsilonBefore);
+    // Solved in the browser's worker: no request to the compute API.
+    expect(computeRequests).toEqual([]);
+    await expect(page.getByText('1 point(s) changed since revision 1').isVisible()).resolves.toBe(true);
+
+    // Undo and redo move between the two versions.
+    await page.getByRole('button', { name: 'Undo' }).click();
+    await page.waitForFunction(
+      (before) => document.querySelector('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]')?.textContent?.trim() === before,
+      gradientBefore,
+    );
+    await page.getByRole('button', { name: 'Redo' }).click();
+    await page.waitForFunction(
+      (after) => document.querySelector('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]')?.textContent?.trim() === after,
+      gradientAfter,
+    );
+
+    await page.getByLabel('Revision note').fill('Tie-rod inner point up 8 mm');
+    await page.getByRole('button', { name: 'Save revision' }).click();
+    await page.getByText('Saved as revision 2.').waitFor();
+    await expect(page.getByTestId('revision').innerText()).resolves.toMatch(/^Revision 2\b/);
+    await page.locator('.rw-revision-list li[data-revision="2"]').getByText(/Tie-rod inner point up 8 mm/).waitFor();
+
+    // The stored corner holds the new height after a reload.
+    await page.reload();
+    await page.locator('[data-testid="toe-chart"] path.rw-series-line').first().waitFor();
+    expect(Number(await page.getByLabel(TIE_ROD_INNER_Z).inputValue())).toBe(zBefore + 8);
+    await expect(page.getByTestId('revision').innerText()).resolves.toMatch(/^Revision 2\b/);
+    await page.waitForFunction(
+      (after) => document.querySelector('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]')?.textContent?.trim() === after,
+      gradientAfter,
+    );
+
+    expect(await seriousA11yViolations(page)).toEqual([]);
+    await saveScreenshot(page, 'editor-designer');
+    expect(offsiteRequests(page)).toEqual([]);
+    expect(consoleErrors(page)).toEqual([]);
+    await page.close();
+  });
+
+  it('keeps both versions when a save is stale', async () => {
+    const mine = await browser.newPage();
+    await signIn(mine, app.baseUrl, 'designer@tallowmere.example');
+    await mine.goto(app.baseUrl + designPath);
+    await mine.locator('[data-testid="toe-chart"] path.rw-series-line').first().waitFor();
+    const revision = Number(/Revision (\d+)/.exec(await mine.getByTestId('revision').innerText())![1]);
+
+    // Someone else saves first, from another session.
+    const theirs = await browser.newPage();
+    await signIn(theirs, app.baseUrl, 'designer@tallowmere.example');
+    await theirs.goto(app.baseUrl + designPath);
+    const theirX = theirs.getByLabel('Lower ball joint, x in mm');
+    await theirX.fill(String(Number(await theirX.inputValue()) + 1));
+    await theirX.press('Enter');
+    await theirs.getByRole('button', { name: 'Save revision' }).click();
+    await theirs.getByText(`Saved as revision ${revision + 1}.`).waitFor();
+
+    const myZ = mine.getByLabel(TIE_ROD_INNER_Z);
+    await myZ.fill(String(Number(await myZ.inputValue()) - 3));
+    await myZ.press('Enter');
+    await mine.getByRole('button', { name: 'Save revision' }).click();
+    await mine.getByRole('heading', { name: 'Someone else saved first' }).waitFor();
+    const conflict = mine.locator('.rw-conflict');
+    await conflict.getByText('Lower ball joint').waitFor();
+    await conflict.getByText('Tie rod, inner end (rack)').waitFor();
+    await saveScreenshot(mine, 'editor-stale-save');
+
+    await mine.getByRole('button', { name: `Save mine as revision ${revision + 2}` }).click();
+    await mine.getByText(`Saved as revision ${revision + 2}.`).waitFor();
+    // The refused save is the one expected error the browser logs (a 409 response).
+    expect(consoleErrors(mine).filter((e) => !/status of 409/.test(e))).toEqual([]);
+    expect(consoleErrors(theirs)).toEqual([]);
+    await mine.close();
+    await theirs.close();
+  });
+
+  it('shows the viewer the design with no edit controls', async () => {
+    const page = await browser.newPage();
+    await signIn(page, app.baseUrl, 'viewer@tallowmere.example');
+    await openFrontBaseline(page);
+    await page.getByText('Read only: your roles in this team do not include editing axle designs.').waitFor();
+    await expect(page.locator('input.rw-coordinate').count()).resolves.toBe(0);
+    await expect(page.getByRole('button', { name: 'Save revision' }).count()).resolves.toBe(0);
+    await expect(page.getByRole('button', { name: 'Undo' }).count()).resolves.toBe(0);
+    await expect(page.getByRole('button', { name: /^Import/ }).count()).resolves.toBe(0);
+    // The kinematics are still there to read.
+    expect(Number(await rackZeroBumpSteer(page))).not.toBeNaN();
+    await page.getByRole('button', { name: 'Export CSV' }).waitFor();
+    expect(await seriousA11yViolations(page)).toEqual([]);
+    await saveScreenshot(page, 'editor-viewer');
+    expect(offsiteRequests(page)).toEqual([]);
+    expect(consoleErrors(page)).toEqual([]);
+    await page.close();
+  });
+});
