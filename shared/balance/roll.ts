@@ -23,12 +23,11 @@ export function springRollStiffnessNmPerRad(rateNPerM: number, motionRatio: numb
 /**
  * Roll stiffness of an anti-roll bar at the wheels, N·m/rad:
  * Kφ = k_θ·(MR_link / lever)²·t² (bar twist per unit wheel travel = MR_link / lever).
- * `linkMotionRatioOverride` replaces the entered drop-link ratio (from kinematics).
  */
-export function barRollStiffnessNmPerRad(bar: AntiRollBar, trackM: number, linkMotionRatioOverride?: number): number {
+export function barRollStiffnessNmPerRad(bar: AntiRollBar, trackM: number): number {
   if ('rollRateNmPerDeg' in bar) return bar.rollRateNmPerDeg / DEG;
   const kTheta = barTorsionalRateNmPerRad(bar.outerDiameterMm / 1000, (bar.innerDiameterMm ?? 0) / 1000, bar.activeLengthMm / 1000, (bar.shearModulusGPa ?? STEEL_SHEAR_MODULUS_GPA) * 1e9);
-  const twistPerWheelTravel = (linkMotionRatioOverride ?? bar.linkMotionRatio) / (bar.leverLengthMm / 1000);
+  const twistPerWheelTravel = bar.linkMotionRatio / (bar.leverLengthMm / 1000);
   return kTheta * twistPerWheelTravel * twistPerWheelTravel * trackM * trackM;
 }
 
@@ -41,13 +40,6 @@ export function seriesStiffness(kTyre: number, kSuspension: number): number {
 /** Roll stiffness of a tyre pair, N·m/rad: K_t = Kt·t²/2 (Kt = one tyre's vertical rate, N/m). */
 export function tyreRollStiffnessNmPerRad(verticalRateNPerM: number, trackM: number): number {
   return 0.5 * verticalRateNPerM * trackM * trackM;
-}
-
-/** Motion ratios and roll-centre heights the kinematics may supply in place of the entered ones. */
-export interface AxleOverrides {
-  springMotionRatio?: number;
-  barMotionRatio?: number;
-  rollCentreHeightMm?: number;
 }
 
 export interface AxleRollStiffness {
@@ -63,7 +55,7 @@ export interface AxleRollStiffness {
   source: 'springs-and-bar' | 'entered-roll-stiffness';
 }
 
-export function axleRollStiffness(axle: Axle, o: AxleOverrides = {}): AxleRollStiffness {
+export function axleRollStiffness(axle: Axle): AxleRollStiffness {
   const t = axle.trackMm / 1000;
   let springs = 0;
   let bar = 0;
@@ -74,8 +66,8 @@ export function axleRollStiffness(axle: Axle, o: AxleOverrides = {}): AxleRollSt
     source = 'entered-roll-stiffness';
   } else {
     const s = axle.spring!;
-    springs = springRollStiffnessNmPerRad(s.rateNPerMm * 1000, o.springMotionRatio ?? s.motionRatio, t);
-    bar = axle.antiRollBar ? barRollStiffnessNmPerRad(axle.antiRollBar, t, o.barMotionRatio) : 0;
+    springs = springRollStiffnessNmPerRad(s.rateNPerMm * 1000, s.motionRatio, t);
+    bar = axle.antiRollBar ? barRollStiffnessNmPerRad(axle.antiRollBar, t) : 0;
     suspension = springs + bar;
     source = 'springs-and-bar';
   }
@@ -168,14 +160,14 @@ export interface RollModel {
   rollCentreHeightMm: { front: number; rear: number };
 }
 
-export function evaluateRoll(v: Vehicle, overrides: { front?: AxleOverrides; rear?: AxleOverrides } = {}): RollModel {
+export function evaluateRoll(v: Vehicle): RollModel {
   const gravityTerm = v.options.rollGravityTerm;
   const rcMm = {
-    front: overrides.front?.rollCentreHeightMm ?? v.front.rollCentreHeightMm,
-    rear: overrides.rear?.rollCentreHeightMm ?? v.rear.rollCentreHeightMm,
+    front: v.front.rollCentreHeightMm,
+    rear: v.rear.rollCentreHeightMm,
   };
   const mass = massProperties(v, { front: rcMm.front / 1000, rear: rcMm.rear / 1000 });
-  const ks = { front: axleRollStiffness(v.front, overrides.front), rear: axleRollStiffness(v.rear, overrides.rear) };
+  const ks = { front: axleRollStiffness(v.front), rear: axleRollStiffness(v.rear) };
   const kTotal = (ks.front.totalNmPerDeg + ks.rear.totalNmPerDeg) / DEG;
   const h1 = mass.sprungCgAboveRollAxisM;
   const phiPerMps2 = rollGradientRadPerMps2(mass.sprungMassKg, h1, kTotal, gravityTerm);

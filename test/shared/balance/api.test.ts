@@ -117,3 +117,24 @@ describe('computeBalance: bad input', () => {
     expect(computeBalance({ vehicle: old, sensitivity: false }).vehicleName).toBe('Brackenfield B3 hatchback');
   });
 });
+
+describe('fixtures and solve errors', () => {
+  it('test/fixtures/vehicles hold the example vehicles unchanged', async () => {
+    const { readFileSync } = await import('node:fs');
+    const files: Record<string, keyof typeof exampleVehicles> = { 'tur26-ember': 'tur26Ember', 'tur25-cinder': 'tur25Cinder', 'brackenfield-b3': 'brackenfieldB3', 'brackenfield-b5': 'brackenfieldB5' };
+    for (const [file, name] of Object.entries(files)) {
+      expect(JSON.parse(readFileSync(`test/fixtures/vehicles/${file}.json`, 'utf8'))).toEqual(exampleVehicles[name]);
+    }
+  });
+
+  it('a corner radius tighter than the rack stroke allows is a SolveError naming the steer', async () => {
+    const { SolveError } = await import('../../../shared/errors.js');
+    try {
+      computeBalance({ ...fs, sensitivity: false, cornerRadiusM: 2 });
+      throw new Error('expected a SolveError');
+    } catch (e) {
+      expect(e).toBeInstanceOf(SolveError);
+      expect((e as InstanceType<typeof SolveError>).details).toHaveProperty('axleSteerDeg');
+    }
+  });
+});
