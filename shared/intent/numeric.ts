@@ -5,6 +5,7 @@
  * (golden section with parabolic steps; Brent, "Algorithms for Minimization
  * without Derivatives", 1973, ch. 5, from memory and re-derived).
  */
+import { polyFit } from '../kinematics/index.js';
 
 export interface RootResult {
   x: number;
@@ -135,25 +136,10 @@ export function brentMinimise(f: (x: number) => number, a: number, b: number, to
   return { x, fx, evaluations };
 }
 
-/** Least-squares line through (x, y) and the RMS and largest |deviation| from it. */
+/** Least-squares line through (x, y) (the kinematics engine's fit) and the RMS and largest |deviation| from it. */
 export function linearFitDeviation(xs: ArrayLike<number>, ys: ArrayLike<number>): { slope: number; intercept: number; rms: number; max: number } {
+  const [intercept, slope] = polyFit(xs, ys, false);
   const n = xs.length;
-  let sx = 0;
-  let sy = 0;
-  for (let i = 0; i < n; i++) {
-    sx += xs[i]!;
-    sy += ys[i]!;
-  }
-  const mx = sx / n;
-  const my = sy / n;
-  let sxx = 0;
-  let sxy = 0;
-  for (let i = 0; i < n; i++) {
-    sxx += (xs[i]! - mx) ** 2;
-    sxy += (xs[i]! - mx) * (ys[i]! - my);
-  }
-  const slope = sxx > 0 ? sxy / sxx : 0;
-  const intercept = my - slope * mx;
   let ss = 0;
   let max = 0;
   for (let i = 0; i < n; i++) {
