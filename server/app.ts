@@ -19,6 +19,7 @@ import { Accounts } from './services/accounts.js';
 import { Teams } from './services/teams.js';
 import { Vehicles } from './services/vehicles.js';
 import { AxleDesigns } from './services/axle-designs.js';
+import { Proposals } from './services/proposals.js';
 import { createComputePool } from './compute/pool.js';
 import { SolveJobs } from './compute/jobs.js';
 import { healthRouter } from './routes/health.js';
@@ -56,6 +57,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   const teams = new Teams(db.orm);
   const vehicles = new Vehicles(db.orm);
   const designs = new AxleDesigns(db.orm);
+  const proposals = new Proposals(db.orm, designs);
   const pool = createComputePool({ threads: config.computeThreads });
   const jobs = new SolveJobs(pool, { timeLimitMs: config.solveJobTimeLimitMs });
 
@@ -77,7 +79,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use('/auth', authRouter(config, accounts, db.pool, auth));
   api.use('/teams/:teamId/vehicles/:vehicleId/axle-designs', vehicleAxleDesignsRouter(designs, auth));
   api.use('/teams/:teamId/vehicles', vehiclesRouter(vehicles, auth));
-  api.use('/teams/:teamId/axle-designs', axleDesignsRouter(designs, auth));
+  api.use('/teams/:teamId/axle-designs', axleDesignsRouter(designs, proposals, auth));
   api.use('/teams', teamsRouter(teams, auth));
   api.use('/compute', computeRouter(pool, jobs, auth, config.computeTimeLimitMs));
   api.use(apiNotFound);

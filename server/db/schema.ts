@@ -152,6 +152,39 @@ export const axleDesignRevisions = pgTable(
   (t) => [primaryKey({ columns: [t.designId, t.revision] })],
 );
 
+export const PROPOSAL_STATUSES = ['open', 'accepted', 'rejected', 'withdrawn'] as const;
+export type ProposalStatus = (typeof PROPOSAL_STATUSES)[number];
+
+/**
+ * Geometry proposed for an axle design (e.g. an intent solution applied by an
+ * engineer). It never touches the design until a designer accepts it; then
+ * it becomes a new revision of the design.
+ */
+export const axleDesignProposals = pgTable(
+  'axle_design_proposals',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    designId: uuid('design_id')
+      .notNull()
+      .references(() => axleDesigns.id, { onDelete: 'cascade' }),
+    /** The design revision the proposal was made on. */
+    baseRevision: integer('base_revision').notNull(),
+    corner: jsonb('corner').notNull(),
+    message: text('message'),
+    /** What produced it (e.g. the intent and the solve summary), kept for the reviewer. */
+    origin: jsonb('origin'),
+    status: text('status', { enum: PROPOSAL_STATUSES }).notNull().default('open'),
+    authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+    decidedBy: uuid('decided_by').references(() => users.id, { onDelete: 'set null' }),
+    decidedAt: timestamp('decided_at', { withTimezone: true }),
+    decisionMessage: text('decision_message'),
+    /** The design revision created by accepting it. */
+    acceptedRevision: integer('accepted_revision'),
+  },
+  (t) => [index('axle_design_proposals_design_idx').on(t.designId)],
+);
+
 /**
  * Sessions of connect-pg-simple (its documented table layout). Created here
  * so the migration owns it; the store never creates tables itself.

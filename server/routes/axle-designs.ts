@@ -9,6 +9,7 @@ import { notFound, validate } from '../http/errors.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
 import { AXLES } from '../db/schema.js';
 import { parseCorner, type AxleDesigns } from '../services/axle-designs.js';
+import type { Proposals } from '../services/proposals.js';
 import { archivedQuery, baseRevision, documentName, idParam, revisionMessage, revisionParam } from './vehicles.js';
 
 const createSchema = z.strictObject({ axle: z.enum(AXLES), name: documentName, corner: z.unknown() });
@@ -16,6 +17,14 @@ const patchSchema = z
   .strictObject({ name: documentName.optional(), archived: z.boolean().optional(), baseRevision, message: revisionMessage })
   .refine((p) => p.name !== undefined || p.archived !== undefined, { message: 'give name or archived', path: ['name'] });
 const cornerBodySchema = z.strictObject({ corner: z.unknown(), baseRevision, message: revisionMessage });
+const proposalSchema = z.strictObject({
+  corner: z.unknown(),
+  baseRevision,
+  message: revisionMessage,
+  /** What produced the geometry (e.g. the intent and a summary of the solution), shown to the designer. */
+  origin: z.record(z.string(), z.unknown()).optional(),
+});
+const decisionSchema = z.strictObject({ message: revisionMessage });
 
 /** Mounted at /api/teams/:teamId/vehicles/:vehicleId/axle-designs. */
 export function vehicleAxleDesignsRouter(designs: AxleDesigns, auth: Authorizer): Router {
@@ -34,10 +43,11 @@ export function vehicleAxleDesignsRouter(designs: AxleDesigns, auth: Authorizer)
 }
 
 /** Mounted at /api/teams/:teamId/axle-designs. */
-export function axleDesignsRouter(designs: AxleDesigns, auth: Authorizer): Router {
+export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
   const { requirePermission } = auth;
   const designId = (raw: unknown) => idParam(raw, 'Axle design');
+  const proposalId = (raw: unknown) => idParam(raw, 'Proposal');
 
   r.get('/:designId', requirePermission('team:read'), async (req, res) => {
     res.json(await designs.get(currentAccess(req).teamId, designId(req.params['designId'])));
@@ -67,6 +77,38 @@ export function axleDesignsRouter(designs: AxleDesigns, auth: Authorizer): Route
     const n = revisionParam.safeParse(req.params['revision']);
     if (!n.success) throw notFound('Revision');
     res.json(await designs.revision(currentAccess(req).teamId, designId(req.params['designId']), n.data));
+  });
+
+  r.get('/:designId/proposals', requirePermission('team:read'), async (req, res) => {
+    res.json(await proposals.list(currentAccess(req).teamId, designId(req.params['designId'])));
+  });
+
+  r.post('/:designId/proposals', requirePermission('design:propose'), async (req, res) => {
+    const input = validate(proposalSchema, req.body);
+    const corner = parseCorner(input.corner);
+    const p = await proposals.create(currentAccess(req).teamId, designId(req.params['designId']), currentUser(req).id, { ...input, corner });
+    res.status(201).json(p);
+  });
+
+  r.get('/:designId/proposals/:proposalId', requirePermission('team:read'), async (req, res) => {
+    res.json(await proposals.get(currentAccess(req).teamId, designId(req.params['designId']), proposalId(req.params['proposalId'])));
+  });
+
+  r.post('/:designId/proposals/:proposalId/accept', requirePermission('design:accept'), async (req, res) => {
+    const { message } = validate(decisionSchema, req.body ?? {});
+    const ids = [currentAccess(req).teamId, designId(req.params['designId']), proposalId(req.params['proposalId'])] as const;
+    res.json(await proposals.accept(...ids, currentUser(req).id, message));
+  });
+
+  r.post('/:designId/proposals/:proposalId/reject', requirePermission('design:accept'), async (req, res) => {
+    const { message } = validate(decisionSchema, req.body ?? {});
+    const ids = [currentAccess(req).teamId, designId(req.params['designId']), proposalId(req.params['proposalId'])] as const;
+    res.json(await proposals.reject(...ids, currentUser(req).id, message));
+  });
+
+  r.delete('/:designId/proposals/:proposalId', requirePermission('design:propose'), async (req, res) => {
+    const ids = [currentAccess(req).teamId, designId(req.params['designId']), proposalId(req.params['proposalId'])] as const;
+    res.json(await proposals.withdraw(...ids, currentUser(req).id));
   });
 
   return r;

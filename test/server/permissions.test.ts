@@ -58,6 +58,8 @@ interface Row {
   method: 'get' | 'post' | 'patch' | 'put' | 'delete';
   path: () => string;
   body?: () => Promise<unknown> | unknown;
+  /** Runs once before the row (e.g. creates the proposal it acts on). */
+  before?: () => Promise<void>;
   expect: Record<Who, number>;
 }
 
@@ -146,12 +148,51 @@ const ROWS: Row[] = [
     expect: { owner: 403, engineer: 403, designer: 200, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
   },
   { name: 'axle design revisions', method: 'get', path: () => `${design()}/revisions`, expect: READ },
+  {
+    name: 'propose geometry',
+    method: 'post',
+    path: () => `${design()}/proposals`,
+    body: async () => ({ corner: exampleCorners.fsFrontWishbone, baseRevision: await currentRevision(design()) }),
+    expect: { owner: 403, engineer: 201, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  { name: 'list proposals', method: 'get', path: () => `${design()}/proposals`, expect: READ },
+  {
+    name: 'accept a proposal',
+    method: 'post',
+    before: newProposal,
+    path: () => `${design()}/proposals/${proposalId}/accept`,
+    body: () => ({}),
+    expect: { owner: 403, engineer: 403, designer: 200, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  {
+    name: 'reject a proposal',
+    method: 'post',
+    before: newProposal,
+    path: () => `${design()}/proposals/${proposalId}/reject`,
+    body: () => ({ message: 'not this one' }),
+    expect: { owner: 403, engineer: 403, designer: 200, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  {
+    name: 'withdraw own proposal',
+    method: 'delete',
+    before: newProposal,
+    path: () => `${design()}/proposals/${proposalId}`,
+    expect: { owner: 403, engineer: 200, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
 ];
+
+let proposalId = '';
+async function newProposal(): Promise<void> {
+  const r = await agents.engineer.post(`${design()}/proposals`).send({ corner: exampleCorners.fsFrontWishbone, baseRevision: await currentRevision(design()) });
+  expect(r.status, JSON.stringify(r.body)).toBe(201);
+  proposalId = r.body.id;
+}
 
 describe('role × route matrix (Tallowmere; non-member is a Brackenfield reviewer)', () => {
   for (const row of ROWS) {
     it(`${row.method.toUpperCase()} ${row.name}`, async () => {
       const got: Partial<Record<Who, number>> = {};
+      await row.before?.();
       for (const w of WHO) {
         let req = agents[w][row.method](row.path());
         if (row.body) req = req.send((await row.body()) as object);

@@ -1,0 +1,166 @@
+/**
+ * Geometry proposals for axle designs. An engineer proposes (for example by
+ * applying an intent solution); the design is untouched until a designer
+ * accepts, which writes the proposed corner as a new revision — only if the
+ * design is still at the revision the proposal was made on, so a proposal
+ * never overwrites geometry it did not see.
+ */
+import { and, desc, eq, sql } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/pg-core';
+import type { Orm } from '../db/client.js';
+import { axleDesignProposals, axleDesignRevisions, axleDesigns, users, type ProposalStatus } from '../db/schema.js';
+import { HttpError, notFound } from '../http/errors.js';
+import { upgradeCornerDocument, type Corner } from '../../shared/schema/corner.js';
+import type { AxleDesigns, AxleDesignView } from './axle-designs.js';
+
+export interface ProposalView {
+  id: string;
+  designId: string;
+  baseRevision: number;
+  status: ProposalStatus;
+  message: string | null;
+  origin: unknown;
+  authorId: string | null;
+  authorName: string | null;
+  createdAt: Date;
+  decidedByName: string | null;
+  decidedAt: Date | null;
+  decisionMessage: string | null;
+  acceptedRevision: number | null;
+  corner?: unknown;
+}
+
+const author = alias(users, 'author');
+const decider = alias(users, 'decider');
+
+const columns = {
+  id: axleDesignProposals.id,
+  designId: axleDesignProposals.designId,
+  baseRevision: axleDesignProposals.baseRevision,
+  status: axleDesignProposals.status,
+  message: axleDesignProposals.message,
+  origin: axleDesignProposals.origin,
+  authorId: axleDesignProposals.authorId,
+  authorName: author.displayName,
+  createdAt: axleDesignProposals.createdAt,
+  decidedByName: decider.displayName,
+  decidedAt: axleDesignProposals.decidedAt,
+  decisionMessage: axleDesignProposals.decisionMessage,
+  acceptedRevision: axleDesignProposals.acceptedRevision,
+};
+
+const closed = (p: { status: string }) => new HttpError(409, 'proposal_closed', `This proposal is already ${p.status}`);
+
+export class Proposals {
+  constructor(
+    private readonly orm: Orm,
+    private readonly designs: AxleDesigns,
+  ) {}
+
+  async list(teamId: string, designId: string): Promise<ProposalView[]> {
+    await this.designs.get(teamId, designId);
+    return this.orm
+      .select(columns)
+      .from(axleDesignProposals)
+      .leftJoin(author, eq(author.id, axleDesignProposals.authorId))
+      .leftJoin(decider, eq(decider.id, axleDesignProposals.decidedBy))
+      .where(eq(axleDesignProposals.designId, designId))
+      .orderBy(desc(axleDesignProposals.createdAt));
+  }
+
+  async get(teamId: string, designId: string, proposalId: string): Promise<ProposalView> {
+    await this.designs.get(teamId, designId);
+    const [p] = await this.orm
+      .select({ ...columns, corner: axleDesignProposals.corner })
+      .from(axleDesignProposals)
+      .leftJoin(author, eq(author.id, axleDesignProposals.authorId))
+      .leftJoin(decider, eq(decider.id, axleDesignProposals.decidedBy))
+      .where(and(eq(axleDesignProposals.id, proposalId), eq(axleDesignProposals.designId, designId)));
+    if (!p) throw notFound('Proposal');
+    return { ...p, corner: upgradeCornerDocument(p.corner) };
+  }
+
+  async create(
+    teamId: string,
+    designId: string,
+    authorId: string,
+    input: { corner: Corner; baseRevision: number; message?: string | undefined; origin?: unknown },
+  ): Promise<ProposalView> {
+    const design = await this.designs.get(teamId, designId);
+    if (input.baseRevision !== design.revision) throw this.outdated(input.baseRevision, design);
+    const [p] = await this.orm
+      .insert(axleDesignProposals)
+      .values({ designId, baseRevision: input.baseRevision, corner: input.corner, message: input.message ?? null, origin: input.origin ?? null, authorId })
+      .returning({ id: axleDesignProposals.id });
+    return this.get(teamId, designId, p!.id);
+  }
+
+  /** Writes the proposed corner as the design's next revision (status `accepted`). */
+  async accept(teamId: string, designId: string, proposalId: string, deciderId: string, message?: string): Promise<{ proposal: ProposalView; design: AxleDesignView }> {
+    await this.designs.get(teamId, designId);
+    await this.orm.transaction(async (tx) => {
+      const [p] = await tx
+        .select()
+        .from(axleDesignProposals)
+        .where(and(eq(axleDesignProposals.id, proposalId), eq(axleDesignProposals.designId, designId)))
+        .for('update');
+      if (!p) throw notFound('Proposal');
+      if (p.status !== 'open') throw closed(p);
+      const [proposer] = p.authorId ? await tx.select({ name: users.displayName }).from(users).where(eq(users.id, p.authorId)) : [];
+      const [row] = await tx
+        .update(axleDesigns)
+        .set({ corner: p.corner, status: 'accepted', revision: sql`${axleDesigns.revision} + 1`, updatedAt: sql`now()`, updatedBy: deciderId })
+        .where(and(eq(axleDesigns.id, designId), eq(axleDesigns.revision, p.baseRevision)))
+        .returning();
+      if (!row) throw this.outdated(p.baseRevision, await this.designs.get(teamId, designId, tx));
+      const note = [`Accepted proposal${proposer ? ` by ${proposer.name}` : ''}`, p.message, message].filter(Boolean).join(': ');
+      await tx.insert(axleDesignRevisions).values({
+        designId,
+        revision: row.revision,
+        name: row.name,
+        status: row.status,
+        archived: row.archived,
+        corner: row.corner,
+        message: note,
+        // The geometry's author is the proposer; the design records who accepted it.
+        authorId: p.authorId,
+      });
+      await tx
+        .update(axleDesignProposals)
+        .set({ status: 'accepted', decidedBy: deciderId, decidedAt: sql`now()`, decisionMessage: message ?? null, acceptedRevision: row.revision })
+        .where(eq(axleDesignProposals.id, proposalId));
+    });
+    return { proposal: await this.get(teamId, designId, proposalId), design: await this.designs.get(teamId, designId) };
+  }
+
+  async reject(teamId: string, designId: string, proposalId: string, deciderId: string, message?: string): Promise<ProposalView> {
+    return this.close(teamId, designId, proposalId, 'rejected', deciderId, message);
+  }
+
+  /** Only the author may withdraw their own open proposal. */
+  async withdraw(teamId: string, designId: string, proposalId: string, userId: string): Promise<ProposalView> {
+    const p = await this.get(teamId, designId, proposalId);
+    if (p.authorId !== userId) throw new HttpError(403, 'forbidden', 'Only the author can withdraw a proposal');
+    return this.close(teamId, designId, proposalId, 'withdrawn', userId);
+  }
+
+  private async close(teamId: string, designId: string, proposalId: string, status: 'rejected' | 'withdrawn', userId: string, message?: string) {
+    await this.designs.get(teamId, designId);
+    const updated = await this.orm
+      .update(axleDesignProposals)
+      .set({ status, decidedBy: userId, decidedAt: sql`now()`, decisionMessage: message ?? null })
+      .where(and(eq(axleDesignProposals.id, proposalId), eq(axleDesignProposals.designId, designId), eq(axleDesignProposals.status, 'open')))
+      .returning({ id: axleDesignProposals.id });
+    if (!updated.length) throw closed(await this.get(teamId, designId, proposalId));
+    return this.get(teamId, designId, proposalId);
+  }
+
+  private outdated(baseRevision: number, current: AxleDesignView): HttpError {
+    return new HttpError(
+      409,
+      'proposal_outdated',
+      `The design is at revision ${current.revision}, but the proposal was made on revision ${baseRevision}; propose again on the current geometry`,
+      { baseRevision, current },
+    );
+  }
+}
