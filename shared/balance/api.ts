@@ -7,7 +7,7 @@
  * InputError (bad input) or SolveError (unsolvable corner).
  */
 import { z } from 'zod';
-import { parseOrThrow } from '../errors.js';
+import { InputError, parseOrThrow, SolveError } from '../errors.js';
 import { axleSummary, rackForAxleSteer, type AxleSummary } from '../kinematics/index.js';
 import { cornerSchema, upgradeCornerDocument, type Corner } from '../schema/corner.js';
 import { upgradeVehicleDocument, vehicleSchema, type Vehicle } from '../schema/vehicle.js';
@@ -144,24 +144,43 @@ function linkAxle(v: Vehicle, name: 'front' | 'rear', corner: Corner | undefined
  * δ = L/R + K·a_y at the budget's lateral acceleration: K depends on the roll
  * steer read there, so this is iterated (a fixed point, three passes at most).
  */
-function evaluateCase(c: Case, options: BalanceOptions, radiusM: number | null): { result: BalanceResult; front: AxleLink; rear: AxleLink; vehicle: Vehicle } {
+function evaluateCase(c: Case, options: BalanceOptions, radiusM: number | null, prefix = ''): { result: BalanceResult; front: AxleLink; rear: AxleLink; vehicle: Vehicle } {
   const v = c.vehicle;
   const ackermannDeg = radiusM !== null ? (v.wheelbaseMm / 1000 / radiusM) / DEG : null;
   const lateralG = options.lateralAccelerationG ?? DEFAULT_BUDGET_LATERAL_G;
   const iterate = ackermannDeg !== null && c.frontCorner?.steered === true;
-  const r = linkAxle(v, 'rear', c.rearCorner, c.overrides?.rear, null);
+  const r = blame(`${prefix}rearCorner`, () => linkAxle(v, 'rear', c.rearCorner, c.overrides?.rear, null));
   let steerDeg = ackermannDeg;
-  let f = linkAxle(v, 'front', c.frontCorner, c.overrides?.front, steerDeg);
+  const linkFront = () => blame(`${prefix}frontCorner`, () => linkAxle(v, 'front', c.frontCorner, c.overrides?.front, steerDeg));
+  let f = linkFront();
   for (let pass = 0; iterate && pass < 3; pass++) {
-    const k = understeerBudget(balanceCore({ ...v, front: f.axle, rear: r.axle }), lateralG).understeerBudget.total;
+    const k = blame(`${prefix}vehicle`, () => understeerBudget(balanceCore({ ...v, front: f.axle, rear: r.axle }), lateralG).understeerBudget.total);
     const next = ackermannDeg! + k * lateralG;
     if (Math.abs(next - steerDeg!) < 1e-4) break;
     steerDeg = next;
-    f = linkAxle(v, 'front', c.frontCorner, c.overrides?.front, steerDeg);
+    f = linkFront();
   }
   if (iterate) f.link.notes.push(`read at the rack position for ${steerDeg!.toFixed(3)} deg of mean steer: ${radiusM} m radius at ${lateralG} g (L/R + K·a_y)`);
   const vehicle: Vehicle = { ...v, front: f.axle, rear: r.axle };
-  return { result: evaluateBalance(vehicle, options), front: f.link, rear: r.link, vehicle };
+  return { result: blame(`${prefix}vehicle`, () => evaluateBalance(vehicle, options)), front: f.link, rear: r.link, vehicle };
+}
+
+/**
+ * Runs `body`, re-throwing its errors against the request field they belong
+ * to: InputError paths get `where.` in front (the engine names paths inside
+ * the vehicle or corner), SolveError messages and details name the corner.
+ */
+function blame<T>(where: string, body: () => T): T {
+  try {
+    return body();
+  } catch (e) {
+    if (e instanceof InputError) {
+      const issues = e.issues.map((i) => ({ ...i, path: i.path === '(root)' ? where : `${where}.${i.path.replace(/^corner\./, '')}` }));
+      throw new InputError(`${where}: ${e.message}`, issues);
+    }
+    if (e instanceof SolveError) throw new SolveError(e.code, `${where}: ${e.message}`, { ...e.details, field: where });
+    throw e;
+  }
 }
 
 export function computeBalance(input: unknown): BalanceResponse {
@@ -182,7 +201,7 @@ export function computeBalance(input: unknown): BalanceResponse {
   const base = evaluateCase(req, options, radius);
   let comparison: BalanceResponse['comparison'] = null;
   if (req.variant) {
-    const variant = evaluateCase(req.variant, options, radius);
+    const variant = evaluateCase(req.variant, options, radius, 'variant.');
     comparison = { ...compareBalance(base.result, variant.result), variant: { ...variant.result, kinematicsLink: { front: variant.front, rear: variant.rear } } };
   }
   return { ...base.result, kinematicsLink: { front: base.front, rear: base.rear, cornerRadiusM: radius }, effectiveVehicle: base.vehicle, comparison };

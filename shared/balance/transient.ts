@@ -5,6 +5,7 @@
  * step response is here too, for checking. docs/balance.md §5 (metrics after
  * ISO 7401).
  */
+import { InputError } from '../errors.js';
 import { DEG, G, KPH } from './constants.js';
 import { integrateOnGrid } from './ode.js';
 import { eigenvalues, matVec, modesOf, solveLinear, type Complex, type Matrix, type Mode } from './linear.js';
@@ -277,6 +278,13 @@ export function effectiveStiffnessNPerRad(staticLoadN: number, complianceDegPerG
 }
 
 export function bicycleParameters(core: BalanceCore, frontDegPerG: number, rearDegPerG: number): BicycleParameters {
+  for (const [axle, d] of [['front', frontDegPerG], ['rear', rearDegPerG]] as const) {
+    if (!(Math.abs(d) > 1e-9)) {
+      throw new InputError(`${axle}: the axle's total cornering compliance is zero (its roll steer and compliances cancel its tyres), so the bicycle model has no finite axle stiffness`, [
+        { path: axle, message: 'total cornering compliance is zero' },
+      ]);
+    }
+  }
   return {
     massKg: core.vehicle.massKg,
     yawInertiaKgM2: core.vehicle.yawInertiaKgM2,

@@ -138,3 +138,39 @@ describe('fixtures and solve errors', () => {
     }
   });
 });
+
+describe('errors name the request field', () => {
+  it('a vehicle whose roll stiffness cannot hold the body: InputError on vehicle.front / vehicle.rear', () => {
+    const v = structuredClone(exampleVehicles.brackenfieldB3);
+    v.front.rollStiffnessNmPerDeg = 1;
+    v.rear.rollStiffnessNmPerDeg = 1;
+    try {
+      computeBalance({ vehicle: v, sensitivity: false });
+      throw new Error('expected an InputError');
+    } catch (e) {
+      expect(e).toBeInstanceOf(InputError);
+      expect((e as InputError).issues.map((i) => i.path)).toEqual(['vehicle.front', 'vehicle.rear']);
+    }
+    try {
+      computeBalance({ vehicle: exampleVehicles.brackenfieldB3, sensitivity: false, variant: { vehicle: v } });
+      throw new Error('expected an InputError');
+    } catch (e) {
+      expect((e as InputError).issues[0]!.path).toBe('variant.vehicle.front');
+    }
+  });
+
+  it('an axle whose compliances cancel its tyres is refused, naming the axle', () => {
+    // Rear compliance steer chosen so that it cancels every other rear entry: D_r = 0 (constructed).
+    const v = structuredClone(exampleVehicles.brackenfieldB3);
+    const b = evaluateBalance(v, { sensitivity: false }).axleCompliance.rear;
+    const perKN = v.rear.complianceSteerDegPerKN!;
+    v.rear.complianceSteerDegPerKN = perKN - (b.total * perKN) / b.complianceSteer;
+    try {
+      computeBalance({ vehicle: v, sensitivity: false });
+      throw new Error('expected an InputError');
+    } catch (e) {
+      expect(e).toBeInstanceOf(InputError);
+      expect((e as InputError).issues[0]!.path).toBe('vehicle.rear');
+    }
+  });
+});
