@@ -71,6 +71,7 @@ describe('migrations', () => {
       expect(r.rows[0].n).toBeGreaterThanOrEqual(1);
       const tables = await dbs[0]!.pool.query(`SELECT tablename FROM pg_tables WHERE schemaname = 'public' ORDER BY tablename`);
       expect(tables.rows.map((x: { tablename: string }) => x.tablename)).toEqual([
+        'axle_design_proposals',
         'axle_design_revisions',
         'axle_designs',
         'memberships',
