@@ -6,5 +6,5 @@ export default defineConfig({
   dialect: 'postgresql',
   schema: './server/db/schema.ts',
   out: './drizzle',
-  dbCredentials: { url: process.env['DATABASE_URL'] ?? 'postgres://postgres@127.0.0.1:5433/rollwise' },
+  dbCredentials: { url: process.env['DATABASE_URL'] ?? 'postgres://postgres@127.0.0.1:54329/rollwise' },
 });

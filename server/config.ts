@@ -88,7 +88,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const seedDemo = production ? false : flag(env, 'ROLLWISE_SEED_DEMO', true);
 
   return {
-    databaseUrl: env['DATABASE_URL'] || 'postgres://postgres@127.0.0.1:5433/rollwise',
+    databaseUrl: env['DATABASE_URL'] || 'postgres://postgres@127.0.0.1:54329/rollwise',
     sessionSecret,
     publicUrl,
     host,
