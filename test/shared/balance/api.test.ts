@@ -174,3 +174,24 @@ describe('errors name the request field', () => {
     }
   });
 });
+
+describe('bar geometry and the link', () => {
+  it('a bar entered by geometry takes its drop-link motion ratio from the corner', () => {
+    const v = exampleVehicles.tur25Cinder; // rear bar by geometry (tube)
+    const o = computeBalance({ vehicle: v, rearCorner: exampleCorners.fsRearWishbone, sensitivity: false });
+    const kin = axleSummary(exampleCorners.fsRearWishbone, { rackMm: 0 });
+    expect(kin.barMotionRatio).toBeDefined();
+    expect(o.kinematicsLink.rear.source.barMotionRatio).toBe('kinematics');
+    const bar = o.effectiveVehicle.rear.antiRollBar!;
+    expect('linkMotionRatio' in bar && bar.linkMotionRatio).toBe(kin.barMotionRatio);
+    // Kφ,bar = π(D⁴ − d⁴)G/(32 l) · (MR/lever)² · t² (kktse; Shigley G = 79.3 GPa), in N·m/deg.
+    const kTheta = (Math.PI * (0.014 ** 4 - 0.011 ** 4) * 79.3e9) / (32 * 0.36);
+    const expected = kTheta * (kin.barMotionRatio! / 0.065) ** 2 * 1.19 ** 2 * (Math.PI / 180);
+    expect(o.rollStiffnessNmPerDeg.detail.rear.barNmPerDeg).toBeCloseTo(expected, 9);
+  });
+
+  it('handwheel gains are road-wheel gains over the steering ratio', () => {
+    const o = computeBalance({ vehicle: exampleVehicles.brackenfieldB3, sensitivity: false, speedsKph: [50, 120] });
+    for (const row of o.gains.rows) expect(row.handwheel!.yawRateGainPerS).toBeCloseTo(row.yawRateGainPerS! / 15.2, 12);
+  });
+});
