@@ -157,7 +157,18 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   const lo = names.map((n) => intent.bounds[n]![0]);
   const hi = names.map((n) => intent.bounds[n]![1]);
   const q0 = readCoordinates(current, names);
-  const build = (q: number[]) => applyCoordinates(current, names, q);
+  // One corner object per coordinate vector, so the engine compiles (validates) each geometry once.
+  const built = new Map<string, Corner>();
+  const build = (q: number[]) => {
+    const key = q.join(',');
+    let c = built.get(key);
+    if (!c) {
+      if (built.size > 5000) built.clear();
+      c = applyCoordinates(current, names, q);
+      built.set(key, c);
+    }
+    return c;
+  };
 
   const toeObjective = (c: Corner, rack: number): number => {
     const rows = sweep(counter, c, travel, [rack]).rows;
@@ -299,9 +310,9 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
 
   progress(0.9, 'workshop numbers and cautions');
   const ws = workshopNumbers(current, proposed, intent.options);
-  const built = asBuiltCorner(current, proposed, intent.options.shimThicknessMm);
-  const builtPts = built.points as Record<string, Vec3>;
-  const staticToe = toeAfterShimming(counter, current, built);
+  const asBuilt = asBuiltCorner(current, proposed, intent.options.shimThicknessMm);
+  const builtPts = asBuilt.points as Record<string, Vec3>;
+  const staticToe = toeAfterShimming(counter, current, asBuilt);
 
   const cautions = evaluateCautions(cautionInputs(counter, intent, profile, proposed, epsVerified, byRack, straight, track));
 
@@ -359,7 +370,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
     sideEffects,
     workshop: {
       ...ws,
-      asBuilt: { rollSteerCoefficient: epsOf(built), geometry: { tieRodInner: builtPts[inner]!, tieRodOuter: builtPts[outer]! } },
+      asBuilt: { rollSteerCoefficient: epsOf(asBuilt), geometry: { tieRodInner: builtPts[inner]!, tieRodOuter: builtPts[outer]! } },
       staticToe,
     },
     understeerChangeDegPerG: uChange(epsVerified),

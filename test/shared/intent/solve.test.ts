@@ -293,3 +293,30 @@ describe('result contents', () => {
     expect(r.achieved.bumpSteerDegPerM).toBeCloseTo(sw.fit.bumpSteerDegPerM, 9);
   });
 });
+
+describe('coordinates and profiles', () => {
+  it('rack.z moves the tie-rod inner height by an offset from the current rack height', () => {
+    const corner = exampleCorners.fsFrontWishbone;
+    const p = corner.points as Record<string, Vec3>;
+    const bounds = { 'rack.z': [-15, 15] as [number, number], 'tieRodOuter.z': [p['tieRodOuter']![2] - 15, p['tieRodOuter']![2] + 15] as [number, number] };
+    const r = solve({ corner, axle: 'front', target: { rollSteerCoefficient: 0.04 }, movable: ['rack.z', 'tieRodOuter.z'], bounds, trackProfile: 'smooth-circuit' });
+    expect(r.feasible).toBe(true);
+    const rack = r.coordinates.find((c) => c.name === 'rack.z')!;
+    expect(rack.currentMm).toBe(0);
+    expect(r.geometry.tieRodInner[2]).toBeCloseTo(p['tieRodInner']![2] + rack.proposedMm, 12);
+    expect(Math.abs(rollSteerCoefficient(r.corner) - 0.04)).toBeLessThan(ROUND_TRIP_TOL);
+    expectOnlyMovableChanged(corner, r.corner, ['rack.z', 'tieRodOuter.z']);
+    expect(r.workshop.shims.find((s) => s.end === 'inner')!.heightChangeMm).toBeCloseTo(rack.proposedMm, 12);
+  });
+
+  it('deliberate roll steer on the off-road profile carries the zero-bump-steer advice', () => {
+    const corner = exampleCorners.fsRearWishbone;
+    const r = solve({ corner, axle: 'rear', target: { rollSteerCoefficient: -0.05 }, movable: ['tieRodInner.z', 'tieRodOuter.z'], bounds: around(corner, 20), trackProfile: { id: 'off-road', travelMm: [-25, 25], bumpHeightMm: 20 } });
+    const c = r.cautions.find((x) => x.code === 'long-travel-roll-steer');
+    expect(c?.level).toBe('critical'); // |ε| = 0.05 ≥ 0.03
+    expect(c?.message).toMatch(/zero bump steer/);
+    const z = solve({ corner, axle: 'rear', target: { zeroBumpSteer: true }, movable: ['tieRodInner.z', 'tieRodOuter.z'], bounds: around(corner, 20), trackProfile: { id: 'off-road', travelMm: [-25, 25], bumpHeightMm: 20 } });
+    expect(z.cautions.some((x) => x.code === 'long-travel-roll-steer')).toBe(false);
+    expect(Math.abs(z.achieved.rollSteerCoefficient)).toBeLessThan(1e-6);
+  });
+});
