@@ -41,9 +41,12 @@ export interface FamilyMember {
 }
 
 export interface LimitingBound {
+  /** The movable coordinate, or an option such as `options.worstToeBoundDeg`. */
   coordinate: string;
   side: 'min' | 'max';
-  valueMm: number;
+  /** The bound's value, in `unit`. */
+  value: number;
+  unit: 'mm' | 'deg';
 }
 
 export interface FamilyOutcome {
@@ -123,7 +126,7 @@ export function solveFamily(p: FamilyProblem): FamilyOutcome {
     if (Math.sign(cv) === Math.sign(c0) && Math.abs(cv) > p.tolConstraint) {
       const limiting: LimitingBound[] = order
         .filter((i) => authority[i]! > 1e-3 * maxAuthority)
-        .map((i) => ({ coordinate: p.names[i]!, side: vertex[i] === p.hi[i] ? ('max' as const) : ('min' as const), valueMm: vertex[i]! }));
+        .map((i) => ({ coordinate: p.names[i]!, side: vertex[i] === p.hi[i] ? ('max' as const) : ('min' as const), value: vertex[i]!, unit: 'mm' as const }));
       return outcome({ feasible: false, q: vertex, constraint: cv, objective: J(vertex), parameter: null, family: [], limiting, tieBreak: 'unique' });
     }
     // A point on the target between the current geometry and that corner.

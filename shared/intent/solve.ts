@@ -252,11 +252,11 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   let reason: string | null = null;
   let limiting = outcome.limiting;
   if (!outcome.feasible) {
-    const lim = limiting.map((l) => `${l.coordinate} at its ${l.side} ${l.valueMm} mm`).join(', ');
+    const lim = limiting.map((l) => `${l.coordinate} at its ${l.side} ${l.value} mm`).join(', ');
     reason = `The target ε = ${epsTarget.toFixed(4)} deg/deg cannot be met inside the bounds; the closest achievable is ε = ${epsVerified.toFixed(4)} deg/deg with ${lim || 'the current geometry'}.`;
   } else if (bound !== undefined && worst.maxDeviationDeg > bound + 1e-9) {
     feasible = false;
-    limiting = [{ coordinate: 'options.worstToeBoundDeg', side: 'max', valueMm: bound }];
+    limiting = [{ coordinate: 'options.worstToeBoundDeg', side: 'max', value: bound, unit: 'deg' }];
     reason = `The target is met, but no member of the solution family keeps the worst toe deviation within options.worstToeBoundDeg = ${bound}°: the best has ${worst.maxDeviationDeg.toFixed(4)}° at rack ${worst.rackMm} mm.`;
   }
 

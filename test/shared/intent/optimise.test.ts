@@ -91,7 +91,7 @@ describe('solveFamily', () => {
     const o = solveFamily(base({ constraint: (q) => 0.002 * q[0]! - 0.0001 * q[1]! - 0.5 }));
     expect(o.feasible).toBe(false);
     expect(o.q).toEqual([100, 0]);
-    expect(o.limiting[0]).toEqual({ coordinate: 'a.z', side: 'max', valueMm: 100 });
+    expect(o.limiting[0]).toEqual({ coordinate: 'a.z', side: 'max', value: 100, unit: 'mm' });
     expect(o.limiting.map((l) => l.coordinate)).toContain('b.z');
     expect(o.constraint).toBeCloseTo(0.2 - 0.5, 12);
   });
