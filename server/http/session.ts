@@ -60,7 +60,8 @@ export function absoluteTimeout(absoluteMs: number): RequestHandler {
   return (req, _res, next) => {
     const s = req.session;
     if (s?.userId && (!s.signedInAt || Date.now() - s.signedInAt > absoluteMs)) {
-      s.destroy((err) => next(err));
+      // A fresh empty session replaces it (deleting the old row), so the request goes on signed out.
+      s.regenerate((err) => next(err));
       return;
     }
     next();

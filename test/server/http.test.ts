@@ -135,6 +135,11 @@ describe('sessions', () => {
       await a.get('/api/auth/me').expect(200);
       await new Promise((r) => setTimeout(r, 250));
       expectError(await a.get('/api/auth/me'), 401, 'unauthenticated');
+      // Signing in straight over an expired session works.
+      const b = await signIn(short, 'viewer@tallowmere.example');
+      await new Promise((r) => setTimeout(r, 450));
+      await b.post('/api/auth/sign-in').send({ email: 'viewer@tallowmere.example', password: 'demo-pass-2026' }).expect(200);
+      await b.get('/api/auth/me').expect(200);
     } finally {
       await short.close();
     }
