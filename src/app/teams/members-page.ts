@@ -16,19 +16,15 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
-import { catchError, combineLatest, map, of, startWith, switchMap } from 'rxjs';
+import { combineLatest, switchMap } from 'rxjs';
 import { Role, ROLE_DESCRIPTIONS, ROLES, TeamMember } from '../core/api-types';
 import { AuthService } from '../core/auth/auth-service';
 import { apiProblem } from '../core/http/api-error';
+import { LoadState, toLoadState } from '../core/http/load-state';
 import { confirmAction } from '../core/layout/confirm-dialog';
 import { TeamAccess } from '../core/teams/team-access';
 import { TeamsApi } from '../core/teams/teams-api';
 import { Notifier } from '../core/layout/notifier';
-
-type MemberListState =
-  | { readonly status: 'loading' }
-  | { readonly status: 'ready'; readonly members: readonly TeamMember[] }
-  | { readonly status: 'error'; readonly message: string };
 
 function atLeastOneRole(control: AbstractControl): ValidationErrors | null {
   const roles = control.value as readonly Role[] | null;
@@ -65,7 +61,7 @@ export class MembersPage {
   protected readonly roles = ROLES;
   protected readonly roleDescriptions = ROLE_DESCRIPTIONS;
   protected readonly columns = ['member', 'roles', 'actions'];
-  protected readonly state = signal<MemberListState>({ status: 'loading' });
+  protected readonly state = signal<LoadState<TeamMember[]>>({ status: 'loading' });
   protected readonly myUserId = computed(() => this.auth.user()?.id ?? null);
   private readonly reloads = signal(0);
 
@@ -79,15 +75,7 @@ export class MembersPage {
   constructor() {
     combineLatest([toObservable(this.teamId), toObservable(this.reloads)])
       .pipe(
-        switchMap(([teamId]) =>
-          this.api.members(teamId).pipe(
-            map((members): MemberListState => ({ status: 'ready', members })),
-            catchError((error: unknown) =>
-              of<MemberListState>({ status: 'error', message: apiProblem(error).message }),
-            ),
-            startWith<MemberListState>({ status: 'loading' }),
-          ),
-        ),
+        switchMap(([teamId]) => toLoadState(this.api.members(teamId))),
         takeUntilDestroyed(),
       )
       .subscribe((state) => this.state.set(state));

@@ -6,20 +6,15 @@ import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
-import { catchError, combineLatest, map, of, startWith, switchMap } from 'rxjs';
+import { combineLatest, switchMap } from 'rxjs';
 import { ROLE_DESCRIPTIONS, VehicleSummary } from '../core/api-types';
-import { apiProblem } from '../core/http/api-error';
+import { LoadState, toLoadState } from '../core/http/load-state';
 import { confirmAction } from '../core/layout/confirm-dialog';
 import { TeamAccess } from '../core/teams/team-access';
 import { VehicleNameDialog, VehicleNameDialogData } from './vehicle-name-dialog';
 import { VehicleTable } from './vehicle-table';
 import { VehiclesApi } from './vehicles-api';
 import { Notifier } from '../core/layout/notifier';
-
-type VehicleListState =
-  | { readonly status: 'loading' }
-  | { readonly status: 'ready'; readonly vehicles: readonly VehicleSummary[] }
-  | { readonly status: 'error'; readonly message: string };
 
 /** `/teams/:teamId`: the team's vehicles, with the commands the caller's roles allow. */
 @Component({
@@ -47,7 +42,7 @@ export class TeamDashboardPage {
   protected readonly canManage = this.access.permission('vehicle:manage');
   protected readonly showArchived = signal(false);
   private readonly reloads = signal(0);
-  protected readonly state = signal<VehicleListState>({ status: 'loading' });
+  protected readonly state = signal<LoadState<VehicleSummary[]>>({ status: 'loading' });
   protected readonly roleWords = computed(() =>
     (this.access.team()?.roles ?? []).map((role) => ({ role, description: ROLE_DESCRIPTIONS[role] })),
   );
@@ -55,15 +50,7 @@ export class TeamDashboardPage {
   constructor() {
     combineLatest([toObservable(this.teamId), toObservable(this.showArchived), toObservable(this.reloads)])
       .pipe(
-        switchMap(([teamId, archived]) =>
-          this.api.list(teamId, archived).pipe(
-            map((vehicles): VehicleListState => ({ status: 'ready', vehicles })),
-            catchError((error: unknown) =>
-              of<VehicleListState>({ status: 'error', message: apiProblem(error).message }),
-            ),
-            startWith<VehicleListState>({ status: 'loading' }),
-          ),
-        ),
+        switchMap(([teamId, archived]) => toLoadState(this.api.list(teamId, archived))),
         takeUntilDestroyed(),
       )
       .subscribe((state) => this.state.set(state));
