@@ -232,9 +232,11 @@ export function solveFamily(p: FamilyProblem): FamilyOutcome {
       const sNear = Math.min(b, Math.max(a, (p.current[j]! + rr * (p.current[pi]! - x.q[pi]! + rr * x.q[j]!)) / (1 + rr * rr)));
       const near = withObjective(member(sNear));
       let pick = x;
+      // Only a tie region reaching TIE_MOVE_MM toward the current geometry can change the answer: probe that first.
+      const probeS = x.q[j]! + Math.sign(sNear - x.q[j]!) * Math.min(Math.abs(sNear - x.q[j]!), TIE_MOVE_MM);
       if (equal(near)) pick = near;
-      else {
-        let inS = x.q[j]!;
+      else if (equal(withObjective(member(probeS)))) {
+        let inS = probeS;
         let outS = sNear;
         for (let i = 0; i < 20 && Math.abs(outS - inS) > 1e-6; i++) {
           const mid = 0.5 * (inS + outS);
