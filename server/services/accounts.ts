@@ -13,10 +13,10 @@ export interface Me {
 
 export const normaliseEmail = (email: string) => email.trim().toLowerCase();
 
-// Compared against when the e-mail is unknown, so both failures take as long.
-const DUMMY_HASH = bcrypt.hashSync('rollwise-no-such-user', 10);
-
 export class Accounts {
+  /** Compared against when the e-mail is unknown, at the same cost, so both failures take as long. */
+  private dummyHash: Promise<string> | undefined;
+
   constructor(
     private readonly orm: Orm,
     private readonly bcryptRounds: number,
@@ -60,7 +60,7 @@ export class Accounts {
       .select({ id: users.id, passwordHash: users.passwordHash })
       .from(users)
       .where(eq(users.email, normaliseEmail(emailRaw)));
-    const ok = await bcrypt.compare(password, u?.passwordHash ?? DUMMY_HASH);
+    const ok = await bcrypt.compare(password, u?.passwordHash ?? (await (this.dummyHash ??= this.hashPassword('rollwise-no-such-user'))));
     return ok && u ? u.id : null;
   }
 
