@@ -1,4 +1,5 @@
 import { Routes } from '@angular/router';
+import { permissionGuard } from '../core/teams/team-guards';
 import { unsavedChangesGuard } from './unsaved-changes';
 
 /**
@@ -18,5 +19,11 @@ export const FEATURE_ROUTES: Routes = [
     title: 'Axle design · Rollwise',
     canDeactivate: [unsavedChangesGuard],
     loadComponent: () => import('./axle-design/axle-design-page').then((m) => m.AxleDesignPage),
+  },
+  {
+    path: 'vehicles/:vehicleId/axle-designs/:designId/intent',
+    title: 'Handling intent · Rollwise',
+    canActivate: [permissionGuard('design:propose')],
+    loadComponent: () => import('./intent/intent-page').then((m) => m.IntentPage),
   },
 ];

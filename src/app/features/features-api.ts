@@ -48,6 +48,22 @@ export interface VehicleRecord {
   readonly updatedByName: string | null;
 }
 
+/** A geometry proposal on an axle design (engineer proposes, designer accepts). */
+export interface Proposal {
+  readonly id: string;
+  readonly designId: string;
+  readonly baseRevision: number;
+  readonly status: 'open' | 'accepted' | 'rejected' | 'withdrawn' | string;
+  readonly message: string | null;
+  readonly origin: unknown;
+  readonly authorName: string | null;
+  readonly createdAt: string;
+  readonly decidedByName: string | null;
+  readonly decidedAt: string | null;
+  readonly acceptedRevision: number | null;
+  readonly corner?: Corner;
+}
+
 const inline = () => ({ context: new HttpContext().set(SHOW_ERRORS_INLINE, true) });
 
 function team(teamId: string): string {
@@ -85,6 +101,29 @@ export class FeaturesApi {
 
   axleDesignRevisions(teamId: string, designId: string): Observable<RevisionRow[]> {
     return this.http.get<RevisionRow[]>(`${team(teamId)}/axle-designs/${encodeURIComponent(designId)}/revisions`, inline());
+  }
+
+  proposals(teamId: string, designId: string): Observable<Proposal[]> {
+    return this.http.get<Proposal[]>(`${team(teamId)}/axle-designs/${encodeURIComponent(designId)}/proposals`, inline());
+  }
+
+  proposal(teamId: string, designId: string, proposalId: string): Observable<Proposal> {
+    return this.http.get<Proposal>(
+      `${team(teamId)}/axle-designs/${encodeURIComponent(designId)}/proposals/${encodeURIComponent(proposalId)}`,
+      inline(),
+    );
+  }
+
+  propose(teamId: string, designId: string, body: { corner: Corner; baseRevision: number; message?: string; origin?: Record<string, unknown> }): Observable<Proposal> {
+    return this.http.post<Proposal>(`${team(teamId)}/axle-designs/${encodeURIComponent(designId)}/proposals`, body, inline());
+  }
+
+  decideProposal(teamId: string, designId: string, proposalId: string, decision: 'accept' | 'reject', message?: string): Observable<unknown> {
+    return this.http.post(
+      `${team(teamId)}/axle-designs/${encodeURIComponent(designId)}/proposals/${encodeURIComponent(proposalId)}/${decision}`,
+      message ? { message } : {},
+      inline(),
+    );
   }
 
   saveCorner(teamId: string, designId: string, corner: Corner, baseRevision: number, message?: string): Observable<AxleDesign> {

@@ -12,7 +12,7 @@ import { LineSeries } from '../../charts/chart-types';
 import { downloadText, fileNameFor } from '../../charts/csv';
 import { AnalysisError, AnalysisSuperseded, KinematicsClient } from '../../workers/kinematics-client';
 import type { AnalysisFailure, CornerAnalysis } from '../../workers/analysis-types';
-import { AxleDesign, FeaturesApi, RevisionRow } from '../features-api';
+import { AxleDesign, FeaturesApi, Proposal, RevisionRow } from '../features-api';
 import { routeParam } from '../route-params';
 import { rollSteerWords } from '../roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
@@ -70,6 +70,12 @@ export class AxleDesignPage implements OnInit {
   private readonly historyVersion = signal(0);
 
   protected readonly editable = computed(() => this.access.can('design:edit'));
+  protected readonly canAccept = computed(() => this.access.can('design:accept'));
+  protected readonly canPropose = computed(() => this.access.can('design:propose'));
+  protected readonly proposals = signal<readonly Proposal[]>([]);
+  protected readonly openProposals = computed(() => this.proposals().filter((p) => p.status === 'open'));
+  protected readonly deciding = signal(false);
+  protected readonly proposalError = signal<string | null>(null);
 
   protected readonly corner = computed<Corner | null>(() => {
     this.historyVersion();
@@ -196,6 +202,41 @@ export class AxleDesignPage implements OnInit {
     } catch {
       this.revisions.set([]);
     }
+    try {
+      this.proposals.set(await firstValueFrom(this.api.proposals(this.teamId, this.designId)));
+    } catch {
+      this.proposals.set([]);
+    }
+  }
+
+  /** Accepts (a new revision from the proposed corner) or rejects an engineer's proposal. */
+  protected async decide(proposal: Proposal, decision: 'accept' | 'reject'): Promise<void> {
+    if (this.deciding() || (decision === 'accept' && this.dirty())) return;
+    this.deciding.set(true);
+    this.proposalError.set(null);
+    try {
+      await firstValueFrom(this.api.decideProposal(this.teamId, this.designId, proposal.id, decision));
+      const design = await firstValueFrom(this.api.axleDesign(this.teamId, this.designId));
+      if (decision === 'accept') {
+        this.adopt(design);
+        this.savedNotice.set(`Accepted the proposal from ${proposal.authorName ?? 'an engineer'}: now revision ${design.revision}.`);
+      } else {
+        this.savedNotice.set('Proposal rejected; the design is unchanged.');
+      }
+      await this.loadRevisions();
+    } catch (error) {
+      this.proposalError.set(apiProblem(error).message);
+    } finally {
+      this.deciding.set(false);
+    }
+  }
+
+  protected proposalSummary(p: Proposal): string {
+    const o = p.origin as { achievedRollSteerCoefficient?: number; understeerChangeDegPerG?: number | null } | null;
+    const parts: string[] = [];
+    if (o && typeof o.achievedRollSteerCoefficient === 'number') parts.push(`ε ${o.achievedRollSteerCoefficient.toFixed(4)} deg/deg`);
+    if (o && typeof o.understeerChangeDegPerG === 'number') parts.push(`understeer change ${o.understeerChangeDegPerG.toFixed(3)} deg/g`);
+    return parts.join(', ');
   }
 
   private adopt(design: AxleDesign): void {

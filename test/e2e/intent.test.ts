@@ -1,0 +1,102 @@
+/**
+ * Browser test of the intent panel (issue 6, "How it is checked"): as the
+ * demo engineer set a rear roll-steer target on TUR-26 Ember's rear
+ * baseline, solve in the page's worker with a progress indicator, see the
+ * verified ε, the cautions and the workshop numbers, propose the geometry as
+ * a draft; as the demo designer accept it in the editor and see the new
+ * revision with the proposed ε. Sign convention of shared/docs/domain.md:
+ * "rear roll understeer of 0.06" means ε_r = −0.06.
+ */
+import { AxeBuilder } from '@axe-core/playwright';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, signIn, startE2eApp } from '../support/e2e.js';
+
+type App = Awaited<ReturnType<typeof startE2eApp>>;
+type Browser = Awaited<ReturnType<typeof openBrowser>>;
+
+const TARGET_EPSILON = -0.06;
+/** Target tolerance of the back-solver (issue 5: within 0.002 deg/deg); the screen prints 4 decimals. */
+const TARGET_TOL = 0.002;
+
+async function seriousA11yViolations(page: Page): Promise<string[]> {
+  const result = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']).analyze();
+  return result.violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
+}
+
+async function openRearBaseline(page: Page): Promise<void> {
+  await page.getByRole('link', { name: 'TUR-26 Ember' }).click();
+  await page.getByRole('heading', { name: 'TUR-26 Ember' }).waitFor();
+  await page.getByRole('link', { name: 'Rear baseline' }).click();
+  await page.getByRole('heading', { name: /Rear baseline/ }).waitFor();
+  await page.locator('[data-testid="toe-chart"] path.rw-series-line').first().waitFor();
+}
+
+describe('Intent panel in Chromium', () => {
+  let app: App;
+  let browser: Browser;
+
+  beforeAll(async () => {
+    app = await startE2eApp();
+    browser = await openBrowser();
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+    await app?.stop();
+  });
+
+  it('solves a rear roll-steer target, proposes it, and the designer accepts it', async () => {
+    const engineer = await browser.newPage();
+    await signIn(engineer, app.baseUrl, 'engineer@tallowmere.example');
+    await engineer.goto(app.baseUrl + '/teams');
+    await engineer.getByRole('link', { name: /Tallowmere/ }).first().click();
+    await openRearBaseline(engineer);
+    const editorPath = new URL(engineer.url()).pathname;
+    const epsilonBefore = Number(await engineer.getByTestId('epsilon').innerText());
+
+    await engineer.getByRole('link', { name: 'Handling intent' }).click();
+    await engineer.getByRole('heading', { name: /Handling intent/ }).waitFor();
+    await engineer.getByLabel('Roll steer coefficient ε (deg/deg)').check();
+    await engineer.getByLabel('Target value').fill(String(TARGET_EPSILON));
+    await engineer.getByText('roll understeer', { exact: true }).waitFor();
+    await engineer.getByRole('button', { name: 'Solve' }).click();
+    await engineer.getByTestId('intent-result').waitFor({ timeout: 60_000 });
+
+    const achieved = Number((await engineer.getByTestId('achieved-epsilon').innerText()).split(' ')[0]);
+    expect(Math.abs(achieved - TARGET_EPSILON)).toBeLessThanOrEqual(TARGET_TOL);
+    expect(Math.abs(achieved - epsilonBefore)).toBeGreaterThan(TARGET_TOL);
+    await expect(engineer.getByTestId('achieved-epsilon').innerText()).resolves.toContain('roll understeer');
+    // TUR-26 Ember has full vehicle data, so the understeer change is a number of deg/g.
+    await expect(engineer.getByTestId('understeer-change').innerText()).resolves.toMatch(/^-?\d+\.\d{3} deg\/g$/);
+    await engineer.getByTestId('workshop').getByText('Tie-rod length').waitFor();
+    await engineer.locator('rw-caution-list li').first().waitFor();
+    await engineer.getByText('Design estimates from an idealised rigid-link model.', { exact: false }).waitFor();
+    expect(await seriousA11yViolations(engineer)).toEqual([]);
+    await saveScreenshot(engineer, 'intent-engineer-result');
+
+    await engineer.getByRole('button', { name: 'Propose as draft revision' }).click();
+    await engineer.getByText(/Proposed as a draft on revision 1/).waitFor();
+    expect(offsiteRequests(engineer)).toEqual([]);
+    expect(consoleErrors(engineer)).toEqual([]);
+    await engineer.close();
+
+    const designer = await browser.newPage();
+    await signIn(designer, app.baseUrl, 'designer@tallowmere.example');
+    await designer.goto(app.baseUrl + editorPath);
+    await designer.getByRole('heading', { name: 'Proposed geometry waiting for a designer' }).waitFor();
+    await designer.getByRole('button', { name: 'Accept as new revision' }).click();
+    await designer.getByText(/Accepted the proposal from Eli Marsh: now revision 2\./).waitFor();
+    await expect(designer.getByTestId('revision').innerText()).resolves.toMatch(/^Revision 2\b/);
+    await designer.waitForFunction(
+      ([target, tol]) => Math.abs(Number(document.querySelector('[data-testid="epsilon"]')?.textContent) - target!) <= tol!,
+      [TARGET_EPSILON, TARGET_TOL],
+    );
+    await saveScreenshot(designer, 'intent-designer-accepted');
+    expect(offsiteRequests(designer)).toEqual([]);
+    expect(consoleErrors(designer)).toEqual([]);
+    await designer.close();
+  });
+});
