@@ -94,7 +94,9 @@ export function solveFamily(p: FamilyProblem): FamilyOutcome {
   const q0 = p.current.map((v, i) => clampI(i, v));
   const c0 = C(q0);
   const gradient = q0.map((v, i) => {
-    const h = v + GRADIENT_STEP_MM <= p.hi[i]! ? GRADIENT_STEP_MM : -GRADIENT_STEP_MM;
+    // A step that stays inside the box (toward the side with more room).
+    const step = Math.min(GRADIENT_STEP_MM, (p.hi[i]! - p.lo[i]!) / 4);
+    const h = v + step <= p.hi[i]! ? step : -step;
     const q = [...q0];
     q[i] = v + h;
     return (C(q) - c0) / h;

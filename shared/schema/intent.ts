@@ -7,7 +7,7 @@
 import { z } from 'zod';
 import { cornerSchema, upgradeCornerDocument, type Corner } from './corner.js';
 import { upgradeVehicleDocument, vehicleSchema } from './vehicle.js';
-import { TRACK_PROFILE_IDS } from '../intent/profiles.js';
+import { TRACK_PROFILE_IDS, trackProfiles } from '../intent/profiles.js';
 import { CAUTION_CODES } from '../intent/cautions.js';
 
 export const INTENT_FORMAT_VERSION = 1 as const;
@@ -108,6 +108,11 @@ export const intentSchema = z
     const tp = intent.trackProfile;
     if (typeof tp === 'object' && tp.travelMm && !(tp.travelMm[0] < 0 && tp.travelMm[1] > 0)) {
       issue(['trackProfile', 'travelMm'], `trackProfile.travelMm [${tp.travelMm[0]}, ${tp.travelMm[1]}] must run from droop (< 0) to bump (> 0)`);
+    }
+    const travel = typeof tp === 'object' && tp.travelMm ? tp.travelMm : trackProfiles[typeof tp === 'object' ? tp.id : tp].travelMm;
+    const stepMm = intent.options.travelStepMm;
+    if (stepMm !== undefined && (travel[1] - travel[0]) / stepMm < 4) {
+      issue(['options', 'travelStepMm'], `options.travelStepMm ${stepMm} mm leaves fewer than five sweep points over the travel range [${travel[0]}, ${travel[1]}] mm`);
     }
     const st = intent.corner.steering;
     const stroke = st?.kind === 'rack' ? st.rackStroke : st?.kind === 'arm' ? armStrokeMm(intent.corner) : null;
