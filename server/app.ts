@@ -98,6 +98,8 @@ export function createApp(config: Config, db: Database): RollwiseApp {
     }),
   );
   app.get('/{*splat}', (req, res, next) => {
+    // A missing asset (an old hashed file after a deploy) is a 404, not the page.
+    if (/\.[A-Za-z0-9]{1,8}$/.test(req.path)) return next();
     if (!existsSync(index)) {
       return next(new HttpError(404, 'not_found', 'The web app has not been built on this server (run `npm run build`)'));
     }

@@ -69,6 +69,12 @@ export function teamsRouter(teams: Teams, auth: Authorizer): Router {
     res.json(await teams.changeMember(currentAccess(req).teamId, memberId(req.params['userId']), input.roles));
   });
 
+  // Any member may leave a team (the last owner may not).
+  r.delete('/:teamId/membership', requirePermission('team:read'), async (req, res) => {
+    await teams.changeMember(currentAccess(req).teamId, currentUser(req).id, null);
+    res.status(204).end();
+  });
+
   r.delete('/:teamId/members/:userId', requirePermission('members:manage'), async (req, res) => {
     await teams.changeMember(currentAccess(req).teamId, memberId(req.params['userId']), null);
     res.status(204).end();

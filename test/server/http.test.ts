@@ -193,6 +193,7 @@ describe('static app with SPA fallback', () => {
       const js = await request(app).get('/main-ABCDEFGH.js').expect(200);
       expect(js.headers['cache-control']).toMatch(/immutable/);
       expectError(await request(app).get('/api/nope'), 404, 'not_found');
+      expectError(await request(app).get('/main-OLDHASH1.js'), 404, 'not_found');
       // The CSP allows exactly the build's inline snippets by hash.
       const csp = String(page.headers['content-security-policy']);
       const { scripts, handlers } = inlineScriptHashes(html);

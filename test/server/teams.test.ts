@@ -100,6 +100,15 @@ describe('members', () => {
     expect([a.status, b.status].sort()).toEqual([200, 409]);
   });
 
+  it('any member may leave; the last owner may not', async () => {
+    const { owner, teamId } = await ownTeam();
+    const other = await registerUser(t.app);
+    await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: other.email, roles: ['viewer'] }).expect(201);
+    await other.agent.delete(`/api/teams/${teamId}/membership`).expect(204);
+    expectError(await other.agent.get(`/api/teams/${teamId}`), 404, 'not_found');
+    expectError(await owner.agent.delete(`/api/teams/${teamId}/membership`), 409, 'last_owner');
+  });
+
   it('changing a non-member or a malformed id is 404', async () => {
     const { owner, teamId } = await ownTeam();
     const stranger = await registerUser(t.app);
