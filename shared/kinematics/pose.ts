@@ -6,16 +6,15 @@
  */
 import { SolveError } from '../errors.js';
 import type { Vec3, Attachment } from '../schema/corner.js';
-import type { CornerModel, LeverModel } from './model.js';
+import type { ArmModel, LeverModel } from './model.js';
 import type { CornerSolver } from './solver.js';
-import { add, cross, dot, norm, sub, scale, RAD, rotateAbout } from './vec.js';
+import { add, cross, dot, norm, sub, scale, RAD } from './vec.js';
 
-export interface PoseResult {
+export interface PoseRow {
   /** Wheel-centre travel from design, mm (+ bump). */
   travelMm: number;
   /** Steering input, mm (rack travel toward +y; arc travel for a steering-box arm). */
   rackMm: number;
-  side: 'left' | 'right';
   /** Toe, deg, toe-in positive. */
   toeDeg: number;
   /** Camber relative to the body, deg, top leaning outboard positive. */
@@ -50,6 +49,12 @@ export interface PoseResult {
   barMotionRatio?: number;
   /** Anti-roll bar lever rotation per metre of wheel travel, rad/m. */
   barTwistRadPerM?: number;
+  /** Newton iterations this pose took. */
+  iterations: number;
+}
+
+export interface PoseResult extends PoseRow {
+  side: 'left' | 'right';
   diagnostics: { converged: true; iterations: number; residualMm: number };
 }
 
@@ -70,35 +75,120 @@ export function uprightPoint(s: CornerSolver, pDesign: ArrayLike<number>, tangen
   return { p, v };
 }
 
-/** A point on an arm (rotating about its pivot axis) or the upright: position and velocity per mm of travel. */
-function attachedPoint(s: CornerSolver, on: Attachment, pDesign: Vec3): { p: Vec3; v: Vec3 } {
+// Scratch for the per-pose mechanism outputs (single-threaded; no allocation per pose).
+const att = new Float64Array(6);
+
+/**
+ * A point riding on an arm (turning about its pivot axis) or on the upright,
+ * design position pDesign: writes its position and velocity per mm of
+ * travel into `out` [x, y, z, vx, vy, vz].
+ */
+function attachInto(s: CornerSolver, on: Attachment, pDesign: Vec3, out: Float64Array): void {
+  const px = pDesign[0];
+  const py = pDesign[1];
+  const pz = pDesign[2];
   const m = s.model;
-  if (on === 'upright') return uprightPoint(s, pDesign, s.tTravel);
-  const arm = on === 'lowerArm' ? m.lowerArm : m.upperArm;
-  const outerLocal = on === 'lowerArm' ? m.lowerOuterLocal : m.upperOuterLocal;
-  if (!arm || !outerLocal) throw new SolveError('singular_geometry', `no ${on} on a ${m.corner.type} corner`, { attachment: on });
-  const jo = uprightPoint(s, add(outerLocal, m.wc0), s.tTravel);
-  const d = sub(jo.p, arm.pivot);
-  const r1 = sub(d, scale(arm.axis, dot(d, arm.axis)));
-  const th = Math.atan2(dot(cross(arm.r0, r1), arm.axis), dot(arm.r0, r1));
-  const p = add(arm.pivot, rotateAbout(sub(pDesign, arm.pivot), arm.axis, th));
-  // Arm angular rate α from the ball joint's velocity: v = α·u × r1.
-  const alpha = dot(jo.v, cross(arm.axis, r1)) / dot(r1, r1);
-  const v = scale(cross(arm.axis, sub(p, arm.pivot)), alpha);
-  return { p, v };
+  const R = s.R;
+  const c = s.c;
+  const t = s.tTravel;
+  const wx = t[3]!;
+  const wy = t[4]!;
+  const wz = t[5]!;
+  let lx: number, ly: number, lz: number;
+  let arm: ArmModel | null = null;
+  if (on === 'upright') {
+    lx = px - m.wc0[0];
+    ly = py - m.wc0[1];
+    lz = pz - m.wc0[2];
+  } else {
+    arm = on === 'lowerArm' ? m.lowerArm : m.upperArm;
+    const ol = on === 'lowerArm' ? m.lowerOuterLocal : m.upperOuterLocal;
+    if (!arm || !ol) throw new SolveError('singular_geometry', `no ${on} on a ${m.corner.type} corner`, { attachment: on });
+    lx = ol[0];
+    ly = ol[1];
+    lz = ol[2];
+  }
+  const dx = R[0]! * lx + R[1]! * ly + R[2]! * lz;
+  const dy = R[3]! * lx + R[4]! * ly + R[5]! * lz;
+  const dz = R[6]! * lx + R[7]! * ly + R[8]! * lz;
+  const Px = c[0]! + dx;
+  const Py = c[1]! + dy;
+  const Pz = c[2]! + dz;
+  const vx = t[0]! + wy * dz - wz * dy;
+  const vy = t[1]! + wz * dx - wx * dz;
+  const vz = t[2]! + wx * dy - wy * dx;
+  if (!arm) {
+    out[0] = Px;
+    out[1] = Py;
+    out[2] = Pz;
+    out[3] = vx;
+    out[4] = vy;
+    out[5] = vz;
+    return;
+  }
+  // Arm angle from its ball joint: θ between the design and current offsets from the pivot axis.
+  const ux = arm.axis[0];
+  const uy = arm.axis[1];
+  const uz = arm.axis[2];
+  const ex = Px - arm.pivot[0];
+  const ey = Py - arm.pivot[1];
+  const ez = Pz - arm.pivot[2];
+  const ea = ex * ux + ey * uy + ez * uz;
+  const r1x = ex - ea * ux;
+  const r1y = ey - ea * uy;
+  const r1z = ez - ea * uz;
+  const r0x = arm.r0[0];
+  const r0y = arm.r0[1];
+  const r0z = arm.r0[2];
+  const sn = (r0y * r1z - r0z * r1y) * ux + (r0z * r1x - r0x * r1z) * uy + (r0x * r1y - r0y * r1x) * uz;
+  const cs = r0x * r1x + r0y * r1y + r0z * r1z;
+  const th = Math.atan2(sn, cs);
+  // Rotate the design point about the axis by θ (Rodrigues).
+  const qx = px - arm.pivot[0];
+  const qy = py - arm.pivot[1];
+  const qz = pz - arm.pivot[2];
+  const co = Math.cos(th);
+  const si = Math.sin(th);
+  const k = (ux * qx + uy * qy + uz * qz) * (1 - co);
+  const rx = qx * co + (uy * qz - uz * qy) * si + ux * k;
+  const ry = qy * co + (uz * qx - ux * qz) * si + uy * k;
+  const rz = qz * co + (ux * qy - uy * qx) * si + uz * k;
+  // Arm rate α from the joint's velocity: v = α·u × r1.
+  const alpha = (vx * (uy * r1z - uz * r1y) + vy * (uz * r1x - ux * r1z) + vz * (ux * r1y - uy * r1x)) / (r1x * r1x + r1y * r1y + r1z * r1z);
+  out[0] = arm.pivot[0] + rx;
+  out[1] = arm.pivot[1] + ry;
+  out[2] = arm.pivot[2] + rz;
+  out[3] = alpha * (uy * rz - uz * ry);
+  out[4] = alpha * (uz * rx - ux * rz);
+  out[5] = alpha * (ux * ry - uy * rx);
 }
 
 /**
- * Lever angle θ about its axis so the driving link closes: A·cosθ + B·sinθ = C,
- * the root nearest the previous angle. Throws SolveError if the link cannot reach.
+ * Lever (rocker or bar lever) angle θ so its driving link closes:
+ * A·cosθ + B·sinθ = C, the root nearest the previous angle, and dθ/dtravel
+ * (rad/mm), written to `lev` [θ, rate, cosθ, sinθ]. Throws SolveError if
+ * the link cannot reach.
  */
-function leverAngle(s: CornerSolver, lv: LeverModel, o: Vec3, prev: number): number {
-  const q2 = cross(lv.axis, lv.leverPerp);
-  const D = sub(add(lv.pivot, lv.leverPar), o);
-  const A = 2 * dot(D, lv.leverPerp);
-  const B = 2 * dot(D, q2);
-  const C = lv.linkLength * lv.linkLength - dot(D, D) - lv.leverRadius * lv.leverRadius;
-  const h = Math.hypot(A, B);
+const lev = new Float64Array(4);
+
+function leverSolve(s: CornerSolver, lv: LeverModel, prev: number): void {
+  attachInto(s, lv.linkOuterOn, lv.linkOuter, att);
+  const wx = lv.axis[0];
+  const wy = lv.axis[1];
+  const wz = lv.axis[2];
+  const px = lv.leverPerp[0];
+  const py = lv.leverPerp[1];
+  const pz = lv.leverPerp[2];
+  const q2x = wy * pz - wz * py;
+  const q2y = wz * px - wx * pz;
+  const q2z = wx * py - wy * px;
+  const Dx = lv.pivot[0] + lv.leverPar[0] - att[0]!;
+  const Dy = lv.pivot[1] + lv.leverPar[1] - att[1]!;
+  const Dz = lv.pivot[2] + lv.leverPar[2] - att[2]!;
+  const A = 2 * (Dx * px + Dy * py + Dz * pz);
+  const B = 2 * (Dx * q2x + Dy * q2y + Dz * q2z);
+  const C = lv.linkLength * lv.linkLength - (Dx * Dx + Dy * Dy + Dz * Dz) - lv.leverRadius * lv.leverRadius;
+  const h = Math.sqrt(A * A + B * B);
   if (!(h > 0) || Math.abs(C) > h) {
     throw new SolveError('unreachable_pose', `Pose unreachable at travel ${s.travelMm} mm, rack ${s.rackMm} mm: the ${lv.what} cannot reach its lever`, {
       travelMm: s.travelMm,
@@ -110,30 +200,28 @@ function leverAngle(s: CornerSolver, lv: LeverModel, o: Vec3, prev: number): num
   }
   const base = Math.atan2(B, A);
   const off = Math.acos(C / h);
-  const wrap = (t: number) => t - 2 * Math.PI * Math.round((t - prev) / (2 * Math.PI));
-  const t1 = wrap(base + off);
-  const t2 = wrap(base - off);
-  return Math.abs(t1 - prev) <= Math.abs(t2 - prev) ? t1 : t2;
-}
-
-function leverPoint(lv: LeverModel, par: Vec3, perp: Vec3, th: number): Vec3 {
-  return add(add(lv.pivot, par), rotateAbout(perp, lv.axis, th));
-}
-
-/** Lever state: angle, the lever point and the angular rate per mm of travel. */
-function leverState(s: CornerSolver, lv: LeverModel, prev: number) {
-  const o = attachedPoint(s, lv.linkOuterOn, lv.linkOuter);
-  const th = leverAngle(s, lv, o.p, prev);
-  const q = leverPoint(lv, lv.leverPar, lv.leverPerp, th);
-  const qo = sub(q, o.p);
-  // d/dθ of |Q − O|² balances d/dO: dθ = (Q−O)·v_O / ((Q−O)·(w × (Q − K)))
-  const rate = dot(qo, o.v) / dot(qo, cross(lv.axis, sub(q, lv.pivot)));
-  return { th, rate };
-}
-
-/** Steer angle of the mirror-frame spin axis a: δ_m = atan2(−a_x, a_y), and its rate for da. */
-function steerOf(a: Vec3): number {
-  return Math.atan2(-a[0], a[1]);
+  // The two roots, each wrapped to within π of the previous angle; keep the nearer (branch continuity).
+  const tw = 2 * Math.PI;
+  let t1 = base + off;
+  t1 -= tw * Math.round((t1 - prev) / tw);
+  let t2 = base - off;
+  t2 -= tw * Math.round((t2 - prev) / tw);
+  const th = Math.abs(t1 - prev) <= Math.abs(t2 - prev) ? t1 : t2;
+  const co = Math.cos(th);
+  const si = Math.sin(th);
+  // Lever point Q − pivot = par + cosθ·perp + sinθ·(w × perp); its velocity per dθ is w × (Q − pivot).
+  const ox = lv.leverPar[0] + co * px + si * q2x;
+  const oy = lv.leverPar[1] + co * py + si * q2y;
+  const oz = lv.leverPar[2] + co * pz + si * q2z;
+  const qox = lv.pivot[0] + ox - att[0]!;
+  const qoy = lv.pivot[1] + oy - att[1]!;
+  const qoz = lv.pivot[2] + oz - att[2]!;
+  const num = qox * att[3]! + qoy * att[4]! + qoz * att[5]!;
+  const den = qox * (wy * oz - wz * oy) + qoy * (wz * ox - wx * oz) + qoz * (wx * oy - wy * ox);
+  lev[0] = th;
+  lev[1] = num / den;
+  lev[2] = co;
+  lev[3] = si;
 }
 
 export interface KingpinAxis {
@@ -167,69 +255,135 @@ export function kingpinAxis(s: CornerSolver): KingpinAxis {
   return { point: p, dir };
 }
 
-/** All per-pose outputs for the solver's current (converged) pose. */
-export function poseOutputs(s: CornerSolver): PoseResult {
+/** Per-pose outputs as a sweep row (no side, no diagnostics object), computed with scalar arithmetic. */
+export function poseRow(s: CornerSolver): PoseRow {
   const m = s.model;
   const R = s.R;
-  const a = mul(R, m.spin0);
-  const wt: Vec3 = [s.tTravel[3]!, s.tTravel[4]!, s.tTravel[5]!];
-  const da = cross(wt, a);
-  const dm = steerOf(a);
-  const ddm = (a[0] * da[1] - a[1] * da[0]) / (a[0] * a[0] + a[1] * a[1]);
+  const c = s.c;
+  const s0 = m.spin0;
+  // Spin axis a = R·a0 and its rate da = ω_t × a.
+  const ax = R[0]! * s0[0] + R[1]! * s0[1] + R[2]! * s0[2];
+  const ay = R[3]! * s0[0] + R[4]! * s0[1] + R[5]! * s0[2];
+  const az = R[6]! * s0[0] + R[7]! * s0[1] + R[8]! * s0[2];
+  const wx = s.tTravel[3]!;
+  const wy = s.tTravel[4]!;
+  const wz = s.tTravel[5]!;
+  const dax = wy * az - wz * ay;
+  const day = wz * ax - wx * az;
+  const daz = wx * ay - wy * ax;
+  const hn2 = ax * ax + ay * ay;
+  const dm = Math.atan2(-ax, ay);
+  const ddm = (ax * day - ay * dax) / hn2;
   const right = s.side === 'right';
   // Contact patch: wheel centre + R·unit(projection of −ẑ on the wheel plane).
-  const dn: Vec3 = [a[2] * a[0], a[2] * a[1], -1 + a[2] * a[2]];
-  const cp = add(s.c, scale(dn, m.radius / norm(dn)));
-  const wc: Vec3 = [s.c[0]!, s.c[1]!, s.c[2]!];
+  const nx = az * ax;
+  const ny = az * ay;
+  const nz = -1 + az * az;
+  const f = m.radius / Math.sqrt(nx * nx + ny * ny + nz * nz);
+  const cpx = c[0]! + f * nx;
+  const cpy = c[1]! + f * ny;
+  const cpz = c[2]! + f * nz;
 
-  const kp = kingpinAxis(s);
-  const k = kp.dir;
-  const G = add(kp.point, scale(k, (cp[2] - kp.point[2]) / k[2]));
-  const hn = Math.hypot(a[0], a[1]);
-  const h: Vec3 = [a[1] / hn, -a[0] / hn, 0];
-  const nOut: Vec3 = [-h[1], h[0], 0];
+  // Kingpin axis (unit, pointing up) through point (kx, ky, kz).
+  let kx: number, ky: number, kz: number, ux: number, uy: number, uz: number;
+  const kp = m.kingpin;
+  if (kp.kind === 'instant') {
+    const k = kingpinAxis(s);
+    [kx, ky, kz] = k.point;
+    [ux, uy, uz] = k.dir;
+  } else {
+    const l = kp.lowerLocal;
+    kx = c[0]! + R[0]! * l[0] + R[1]! * l[1] + R[2]! * l[2];
+    ky = c[1]! + R[3]! * l[0] + R[4]! * l[1] + R[5]! * l[2];
+    kz = c[2]! + R[6]! * l[0] + R[7]! * l[1] + R[8]! * l[2];
+    if (kp.kind === 'points') {
+      const u = kp.upperLocal;
+      ux = c[0]! + R[0]! * u[0] + R[1]! * u[1] + R[2]! * u[2] - kx;
+      uy = c[1]! + R[3]! * u[0] + R[4]! * u[1] + R[5]! * u[2] - ky;
+      uz = c[2]! + R[6]! * u[0] + R[7]! * u[1] + R[8]! * u[2] - kz;
+    } else {
+      ux = kp.top[0] - kx;
+      uy = kp.top[1] - ky;
+      uz = kp.top[2] - kz;
+    }
+    const un = (uz < 0 ? -1 : 1) / Math.sqrt(ux * ux + uy * uy + uz * uz);
+    ux *= un;
+    uy *= un;
+    uz *= un;
+  }
+  // Kingpin meets the ground plane through the contact patch at G; wheel heading h and outboard n in that plane.
+  const g = (cpz - kz) / uz;
+  const Gx = kx + g * ux;
+  const Gy = ky + g * uy;
+  const hn = Math.sqrt(hn2);
+  const hx = ay / hn;
+  const hy = -ax / hn;
 
-  const out: PoseResult = {
+  const out: PoseRow = {
     travelMm: s.travelMm,
     rackMm: s.rackMm,
-    side: s.side,
     toeDeg: -dm * RAD,
-    camberDeg: -Math.asin(a[2]) * RAD,
+    camberDeg: -Math.asin(az) * RAD,
     steerDeg: (right ? -dm : dm) * RAD,
-    wheelCentre: right ? [wc[0], -wc[1], wc[2]] : wc,
-    contactPatch: right ? [cp[0], -cp[1], cp[2]] : cp,
-    halfTrackChangeMm: cp[1] - m.cp0[1],
-    wheelCentreShiftXMm: wc[0] - m.wc0[0],
-    kingpinInclinationDeg: Math.atan2(-k[1], k[2]) * RAD,
-    casterDeg: Math.atan2(-k[0], k[2]) * RAD,
-    scrubRadiusMm: dot(sub(cp, G), nOut),
-    mechanicalTrailMm: dot(sub(G, cp), h),
+    wheelCentre: [c[0]!, right ? -c[1]! : c[1]!, c[2]!],
+    contactPatch: [cpx, right ? -cpy : cpy, cpz],
+    halfTrackChangeMm: cpy - m.cp0[1],
+    wheelCentreShiftXMm: c[0]! - m.wc0[0],
+    kingpinInclinationDeg: Math.atan2(-uy, uz) * RAD,
+    casterDeg: Math.atan2(-ux, uz) * RAD,
+    scrubRadiusMm: (cpx - Gx) * -hy + (cpy - Gy) * hx,
+    mechanicalTrailMm: (Gx - cpx) * hx + (Gy - cpy) * hy,
     toeGradientDegPerM: -ddm * RAD * 1000,
-    camberGradientDegPerM: (-da[2] / Math.sqrt(1 - a[2] * a[2])) * RAD * 1000,
-    diagnostics: { converged: true, iterations: s.iterations, residualMm: s.residualMm },
+    camberGradientDegPerM: (-daz / Math.sqrt(1 - az * az)) * RAD * 1000,
+    iterations: s.iterations,
   };
 
   if (m.directSpring) {
-    const o = attachedPoint(s, m.directSpring.on, m.directSpring.outer);
-    const d = sub(o.p, m.directSpring.body);
-    const L = norm(d);
+    const sp = m.directSpring;
+    attachInto(s, sp.on, sp.outer, att);
+    const dx = att[0]! - sp.body[0];
+    const dy = att[1]! - sp.body[1];
+    const dz = att[2]! - sp.body[2];
+    const L = Math.sqrt(dx * dx + dy * dy + dz * dz);
     out.springLengthMm = L;
-    out.motionRatio = -dot(d, o.v) / L;
+    out.motionRatio = -(dx * att[3]! + dy * att[4]! + dz * att[5]!) / L;
   } else if (m.rocker) {
     const lv = m.rocker;
-    const st = leverState(s, lv, s.rockerAngle);
-    s.rockerAngle = st.th;
-    const sp = leverPoint(lv, lv.springPar!, lv.springPerp!, st.th);
-    const d = sub(sp, lv.springBody!);
-    const L = norm(d);
+    leverSolve(s, lv, s.rockerAngle);
+    s.rockerAngle = lev[0]!;
+    const rate = lev[1]!;
+    const co = lev[2]!;
+    const si = lev[3]!;
+    const wx = lv.axis[0];
+    const wy = lv.axis[1];
+    const wz = lv.axis[2];
+    const px = lv.springPerp![0];
+    const py = lv.springPerp![1];
+    const pz = lv.springPerp![2];
+    // spring's rocker end relative to the pivot, and its rate per dθ (w × that)
+    const ox = lv.springPar![0] + co * px + si * (wy * pz - wz * py);
+    const oy = lv.springPar![1] + co * py + si * (wz * px - wx * pz);
+    const oz = lv.springPar![2] + co * pz + si * (wx * py - wy * px);
+    const dx = lv.pivot[0] + ox - lv.springBody![0];
+    const dy = lv.pivot[1] + oy - lv.springBody![1];
+    const dz = lv.pivot[2] + oz - lv.springBody![2];
+    const L = Math.sqrt(dx * dx + dy * dy + dz * dz);
     out.springLengthMm = L;
-    out.motionRatio = -(dot(d, cross(lv.axis, sub(sp, lv.pivot))) / L) * st.rate;
+    out.motionRatio = (-(dx * (wy * oz - wz * oy) + dy * (wz * ox - wx * oz) + dz * (wx * oy - wy * ox)) / L) * rate;
   }
   if (m.bar) {
-    const st = leverState(s, m.bar, s.barAngle);
-    s.barAngle = st.th;
-    out.barMotionRatio = Math.abs(st.rate) * m.bar.leverRadius;
-    out.barTwistRadPerM = Math.abs(st.rate) * 1000;
+    leverSolve(s, m.bar, s.barAngle);
+    s.barAngle = lev[0]!;
+    out.barMotionRatio = Math.abs(lev[1]!) * m.bar.leverRadius;
+    out.barTwistRadPerM = Math.abs(lev[1]!) * 1000;
   }
   return out;
+}
+
+/** All per-pose outputs for the solver's current (converged) pose, with side and diagnostics. */
+export function poseOutputs(s: CornerSolver): PoseResult {
+  const row = poseRow(s) as PoseResult;
+  row.side = s.side;
+  row.diagnostics = { converged: true, iterations: s.iterations, residualMm: s.residualMm };
+  return row;
 }

@@ -51,6 +51,17 @@ export class CornerSolver {
   private readonly LU = new Float64Array(36);
   private readonly piv = new Int32Array(6);
   private readonly dx = new Float64Array(6);
+  /**
+   * Scalars of the Newton loop kept in a typed array, not passed or returned:
+   * V8 boxes a double argument or return value on the heap, so the loop
+   * reads [0] largest residual (mm), [1] target wheel-centre z (mm),
+   * [2] step fraction α, [3] steering input (mm) from here.
+   */
+  private readonly sc = new Float64Array(4);
+  private readonly w = new Float64Array(3);
+  /** Travel tangent of the previous pose, and [travel step to this pose (mm), 1 if valid]. */
+  private readonly tPrev = new Float64Array(6);
+  private readonly hist = new Float64Array(2);
   private readonly c0 = new Float64Array(3);
   private readonly R0 = new Float64Array(9);
   private readonly sgn: number;
@@ -82,11 +93,14 @@ export class CornerSolver {
     this.rackMm = 0;
     this.rockerAngle = 0;
     this.barAngle = 0;
-    this.setSteer(0);
+    this.forgetHistory();
+    this.sc[3] = 0;
+    this.setSteer();
   }
 
-  /** Places the steering inner point for input s (mm): rack translation or arm rotation. */
-  private setSteer(s: number): void {
+  /** Places the steering inner point for input s = sc[3] (mm): rack translation or arm rotation. */
+  private setSteer(): void {
+    const s = this.sc[3]!;
     const m = this.model;
     const k = 3 * m.steerRow;
     const a0x = m.bodyPts[k]!;
@@ -127,8 +141,12 @@ export class CornerSolver {
     }
   }
 
-  /** Residuals g and Jacobian J at the current state; returns max |g| (mm). */
-  private evaluate(zTarget: number): number {
+  /**
+   * Residuals g and Jacobian J at the current state; the largest |g| (mm) goes
+   * to `sc[0]` (a returned double would be boxed on the heap).
+   */
+  private evaluate(): void {
+    const zTarget = this.sc[1]!;
     const m = this.model;
     const c = this.c;
     const R = this.R;
@@ -214,7 +232,7 @@ export class CornerSolver {
     J[35] = 0;
     const a5 = Math.abs(g5);
     if (a5 > res) res = a5;
-    return res;
+    this.sc[0] = res;
   }
 
   /** LU with partial pivoting of J into LU/piv; false if singular. */
@@ -275,34 +293,55 @@ export class CornerSolver {
   }
 
   /** c += α·dc, R = exp([α·dω]×)·R0 (Rodrigues), from the backed-up state. */
-  private applyStep(dx: Float64Array, alpha: number): void {
+  private applyStep(dx: Float64Array): void {
+    const alpha = this.sc[2]!;
     const c = this.c;
     c[0] = this.c0[0]! + alpha * dx[0]!;
     c[1] = this.c0[1]! + alpha * dx[1]!;
     c[2] = this.c0[2]! + alpha * dx[2]!;
-    rotateInto(this.R, this.R0, alpha * dx[3]!, alpha * dx[4]!, alpha * dx[5]!);
+    const w = this.w;
+    w[0] = alpha * dx[3]!;
+    w[1] = alpha * dx[4]!;
+    w[2] = alpha * dx[5]!;
+    rotateInto(this.R, this.R0, w);
   }
 
-  /** Moves the state along the stored tangents by Δtravel and Δsteer (predictor). */
+  /**
+   * Moves the state along the stored tangents by Δtravel and Δsteer
+   * (predictor). Along a pure travel sweep it adds the second-order term
+   * from the change of tangent since the previous pose, so Newton usually
+   * needs a single iteration.
+   */
   predict(dTravel: number, dSteer: number): void {
     const t = this.tTravel;
     const s = this.tSteer;
     this.c0.set(this.c);
     this.R0.set(this.R);
-    for (let i = 0; i < 6; i++) this.dx[i] = t[i]! * dTravel + s[i]! * dSteer;
-    this.applyStep(this.dx, 1);
+    const h = this.hist;
+    if (dSteer === 0 && h[1] === 1) {
+      const k = (0.5 * dTravel * dTravel) / h[0]!;
+      const p = this.tPrev;
+      for (let i = 0; i < 6; i++) this.dx[i] = t[i]! * dTravel + k * (t[i]! - p[i]!);
+    } else {
+      for (let i = 0; i < 6; i++) this.dx[i] = t[i]! * dTravel + s[i]! * dSteer;
+    }
+    this.sc[2] = 1;
+    this.applyStep(this.dx);
   }
 
   /**
    * Solves the pose at (travel, steer input) from the current state. Throws
    * SolveError naming travel, rack and the link with the largest residual
-   * when no pose exists. On success fills the tangents.
+   * when no pose exists. On success fills the tangents and returns the
+   * number of Newton iterations (see `diagnostics()` for the residual).
    */
-  solve(travelMm: number, rackMm: number): SolveDiagnostics {
+  solve(travelMm: number, rackMm: number): number {
     const m = this.model;
-    this.setSteer(rackMm);
-    const zTarget = m.wc0[2] + travelMm;
-    let res = this.evaluate(zTarget);
+    this.sc[3] = rackMm;
+    this.setSteer();
+    this.sc[1] = m.wc0[2] + travelMm;
+    this.evaluate();
+    let res = this.sc[0]!;
     let it = 0;
     const dx = this.dx;
     for (;;) {
@@ -311,18 +350,25 @@ export class CornerSolver {
       for (let i = 0; i < 6; i++) dx[i] = -this.g[i]!;
       this.backSolve(dx);
       // Limit the step: no more than 0.3 rad of rotation or 100 mm of translation per iteration.
-      const rot = Math.hypot(dx[3]!, dx[4]!, dx[5]!);
-      const tr = Math.hypot(dx[0]!, dx[1]!, dx[2]!);
-      let alpha = Math.min(1, 0.3 / (rot || 1e-300), 100 / (tr || 1e-300));
+      // (Math.hypot is avoided in the loop: its varargs box doubles on the heap.)
+      const rot = Math.sqrt(dx[3]! * dx[3]! + dx[4]! * dx[4]! + dx[5]! * dx[5]!);
+      const tr = Math.sqrt(dx[0]! * dx[0]! + dx[1]! * dx[1]! + dx[2]! * dx[2]!);
+      const sc = this.sc;
+      let alpha = 1;
+      if (rot * alpha > 0.3) alpha = 0.3 / rot;
+      if (tr * alpha > 100) alpha = 100 / tr;
+      sc[2] = alpha;
       this.c0.set(this.c);
       this.R0.set(this.R);
-      this.applyStep(dx, alpha);
-      let next = this.evaluate(zTarget);
+      this.applyStep(dx);
+      this.evaluate();
+      let next = this.sc[0]!;
       let tries = 0;
       while (!(next < res) && tries < 12) {
-        alpha *= 0.5;
-        this.applyStep(dx, alpha);
-        next = this.evaluate(zTarget);
+        sc[2]! *= 0.5;
+        this.applyStep(dx);
+        this.evaluate();
+        next = this.sc[0]!;
         tries++;
       }
       res = next;
@@ -331,6 +377,13 @@ export class CornerSolver {
     if (!this.factor()) this.fail(travelMm, rackMm, res, 'singular');
     // Tangents: J·t = −∂g/∂travel = e6; J·t = −∂g/∂s (steer row only).
     const tt = this.tTravel;
+    // Keep the previous travel tangent for the second-order predictor (same rack, travel moved).
+    const hist = this.hist;
+    if (rackMm === this.rackMm && travelMm !== this.travelMm) {
+      this.tPrev.set(tt);
+      hist[0] = travelMm - this.travelMm;
+      hist[1] = 1;
+    } else hist[1] = 0;
     tt.fill(0);
     tt[5] = 1;
     this.backSolve(tt);
@@ -353,7 +406,17 @@ export class CornerSolver {
     this.rackMm = rackMm;
     this.iterations = it;
     this.residualMm = res;
-    return { converged: true, iterations: it, residualMm: res };
+    return it;
+  }
+
+  /** Drops the predictor's memory of the previous pose (after the state is set from outside). */
+  forgetHistory(): void {
+    this.hist[1] = 0;
+  }
+
+  /** Diagnostics of the last solve. */
+  diagnostics(): SolveDiagnostics {
+    return { converged: true, iterations: this.iterations, residualMm: this.residualMm };
   }
 
   /**
@@ -379,7 +442,7 @@ export class CornerSolver {
       const t = i === n ? travelMm : t0 + (dT * i) / n;
       const s = i === n ? rackMm : s0 + (dS * i) / n;
       this.predict(t - this.travelMm, s - this.rackMm);
-      iters += this.solve(t, s).iterations;
+      iters += this.solve(t, s);
     }
     return iters;
   }
@@ -402,8 +465,11 @@ function round(x: number): number {
   return Math.round(x * 1000) / 1000;
 }
 
-/** out = exp([w]×)·R (Rodrigues); out and R must differ. */
-export function rotateInto(out: Float64Array, R: Float64Array, wx: number, wy: number, wz: number): void {
+/** out = exp([w]×)·R (Rodrigues), w a rotation vector (rad); out and R must differ. */
+export function rotateInto(out: Float64Array, R: Float64Array, w: Float64Array): void {
+  const wx = w[0]!;
+  const wy = w[1]!;
+  const wz = w[2]!;
   const th2 = wx * wx + wy * wy + wz * wz;
   let a: number, b: number;
   if (th2 < 1e-16) {

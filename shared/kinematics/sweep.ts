@@ -7,7 +7,7 @@ import { InputError } from '../errors.js';
 import type { Corner } from '../schema/corner.js';
 import { compileCorner, type CornerModel, type Side } from './model.js';
 import { CornerSolver } from './solver.js';
-import { poseOutputs, type PoseResult } from './pose.js';
+import { poseOutputs, poseRow, type PoseResult, type PoseRow } from './pose.js';
 import { fitToeCamber, type ToeFit } from './fit.js';
 
 export interface Range {
@@ -50,7 +50,7 @@ export function checkRack(model: CornerModel, rackMm: number[], field: string): 
   });
 }
 
-export type SweepRow = Omit<PoseResult, 'side' | 'diagnostics'> & { iterations: number };
+export type SweepRow = PoseRow;
 
 export interface SweepFit extends ToeFit {
   rackMm: number;
@@ -77,11 +77,6 @@ export interface SweepResult {
   diagnostics: { poses: number; iterations: number; iterationsPerPose: number };
 }
 
-function toRow(p: PoseResult): SweepRow {
-  const { side: _s, diagnostics, ...rest } = p;
-  return { ...rest, iterations: diagnostics.iterations };
-}
-
 /**
  * Solves one rack position's travel list by continuation: first the design
  * pose, then to the travel nearest 0, outward up, then outward down. Calls
@@ -89,7 +84,7 @@ function toRow(p: PoseResult): SweepRow {
  */
 export function sweepTravels(solver: CornerSolver, travels: number[], rackMm: number, visit: (index: number) => void): number {
   solver.reset();
-  let iters = solver.solve(0, 0).iterations;
+  let iters = solver.solve(0, 0);
   let start = 0;
   for (let i = 1; i < travels.length; i++) if (Math.abs(travels[i]!) < Math.abs(travels[start]!)) start = i;
   iters += solver.solveTowards(travels[start]!, rackMm);
@@ -111,6 +106,7 @@ export function sweepTravels(solver: CornerSolver, travels: number[], rackMm: nu
   solver.barAngle = keep.bar;
   solver.travelMm = keep.travel;
   solver.rackMm = rackMm;
+  solver.forgetHistory();
   for (let i = start - 1; i >= 0; i--) {
     iters += solver.solveTowards(travels[i]!, rackMm);
     visit(i);
@@ -132,7 +128,7 @@ export function sweepCorner(corner: Corner, options: SweepOptions): SweepResult 
   for (const rack of racks) {
     const block = new Array<SweepRow>(travels.length);
     iterations += sweepTravels(solver, travels, rack, (i) => {
-      block[i] = toRow(poseOutputs(solver));
+      block[i] = poseRow(solver);
     });
     rows.push(...block);
     const inFit = block.filter((r) => r.travelMm >= fr.fromMm - 1e-9 && r.travelMm <= fr.toMm + 1e-9);
@@ -174,6 +170,7 @@ export function solvePose(corner: Corner, at: { travelMm: number; rackMm?: numbe
     s.R.set(warm.R);
     s.travelMm = warm.travelMm;
     s.rackMm = warm.rackMm;
+    s.forgetHistory();
     s.solve(warm.travelMm, warm.rackMm);
   } else s.solve(0, 0);
   s.solveTowards(at.travelMm, rack);

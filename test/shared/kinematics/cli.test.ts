@@ -13,7 +13,7 @@ function run(...args: string[]) {
   return { code: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
-describe('rollwise sweep / roll', () => {
+describe("rollwise sweep / roll", { timeout: 60_000 }, () => {
   it('sweep prints rows and fits as JSON', () => {
     const r = run('sweep', '--corner', fixture('fs-front-wishbone.json'), '--travel=-25:25:5', '--rack=-10,0,10');
     expect(r.code).toBe(0);
