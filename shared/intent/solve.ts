@@ -201,7 +201,18 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
       throw e;
     }
   };
-  const currentObjective = toeObjective(current, 0);
+  let currentObjective: number;
+  try {
+    currentObjective = toeObjective(current, 0);
+  } catch (e) {
+    if (!(e instanceof SolveError)) throw e;
+    // The profile's travel range is beyond what the corner as entered can reach: say which setting to change.
+    throw new SolveError(
+      e.code,
+      `${e.message}. The travel range [${from}, ${to}] mm of the ${profile.label.toLowerCase()} profile is beyond this corner's reach: set trackProfile.travelMm to the corner's travel`,
+      { ...e.details, field: 'trackProfile.travelMm', travelRangeMm: [from, to] },
+    );
+  }
 
   progress(0.05, 'searching the solution family');
   const outcome = solveFamily({

@@ -320,3 +320,12 @@ describe('coordinates and profiles', () => {
     expect(Math.abs(z.achieved.rollSteerCoefficient)).toBeLessThan(1e-6);
   });
 });
+
+describe('travel beyond the corner', () => {
+  it('a profile travel the corner cannot reach is a SolveError naming the travel and the setting to change', () => {
+    const corner = exampleCorners.fsFrontWishbone;
+    expect(() => solve({ corner, axle: 'front', target: { rollSteerCoefficient: 0.02 }, movable: ['tieRodInner.z'], bounds: { 'tieRodInner.z': [130, 150] }, trackProfile: 'off-road' })).toThrow(
+      /travel -?\d+(\.\d+)? mm.*trackProfile\.travelMm/,
+    );
+  });
+});
