@@ -6,8 +6,7 @@
  */
 import { Router } from 'express';
 import { ENGINE_VERSION } from '../../shared/version.js';
-import { currentUser, type Authorizer } from '../http/authorize.js';
-import { isUuid } from '../http/authorize.js';
+import { currentUser, isUuid, type Authorizer } from '../http/authorize.js';
 import { notFound } from '../http/errors.js';
 import type { ComputePool } from '../compute/pool.js';
 import type { SolveJobs, JobView } from '../compute/jobs.js';
@@ -23,7 +22,12 @@ export function computeRouter(pool: ComputePool, jobs: SolveJobs, auth: Authoriz
 
   for (const kind of COMPUTE_KINDS) {
     r.post(`/${kind}`, auth.requireUser, async (req, res) => {
-      const result = await pool.run(kind, req.body, { timeLimitMs });
+      // A client that goes away frees its worker instead of waiting out the time limit.
+      const gone = new AbortController();
+      res.on('close', () => {
+        if (!res.writableFinished) gone.abort();
+      });
+      const result = await pool.run(kind, req.body, { timeLimitMs, signal: gone.signal });
       res.json({ engineVersion: ENGINE_VERSION, result });
     });
   }

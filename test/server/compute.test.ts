@@ -180,4 +180,19 @@ describe('compute pool', () => {
       await pool.close();
     }
   });
+
+  it('stops a task when its caller aborts (a client that went away)', async () => {
+    const { createComputePool } = await import('../../server/compute/pool.js');
+    const pool = createComputePool({ threads: 1 });
+    try {
+      const stop = new AbortController();
+      setTimeout(() => stop.abort(), 100);
+      const started = Date.now();
+      const big = { ...sweepInput, travel: { from: -25, to: 25, step: 0.01 } };
+      await expect(pool.run('corner-sweep', big, { timeLimitMs: 60_000, signal: stop.signal })).rejects.toMatchObject({ code: 'cancelled' });
+      expect(Date.now() - started).toBeLessThan(5_000);
+    } finally {
+      await pool.close();
+    }
+  });
 });
