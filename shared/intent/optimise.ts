@@ -121,13 +121,15 @@ export function solveFamily(p: FamilyProblem): FamilyOutcome {
 
   // The box corner that moves ε furthest toward the target (ε is near-linear).
   const dir = -Math.sign(c0);
-  const vertex = q0.map((v, i) => (gradient[i]! * dir > 0 ? p.hi[i]! : gradient[i]! * dir < 0 ? p.lo[i]! : v));
+  // Coordinates with next to no authority stay where they are (nearest the current geometry).
+  const strong = (i: number) => authority[i]! > 1e-3 * maxAuthority;
+  const vertex = q0.map((v, i) => (!strong(i) ? v : gradient[i]! * dir > 0 ? p.hi[i]! : gradient[i]! * dir < 0 ? p.lo[i]! : v));
   let start = q0;
   if (Math.abs(c0) > p.tolConstraint) {
     const cv = C(vertex);
     if (Math.sign(cv) === Math.sign(c0) && Math.abs(cv) > p.tolConstraint) {
       const limiting: LimitingBound[] = order
-        .filter((i) => authority[i]! > 1e-3 * maxAuthority)
+        .filter(strong)
         .map((i) => ({ coordinate: p.names[i]!, side: vertex[i] === p.hi[i] ? ('max' as const) : ('min' as const), value: vertex[i]!, unit: 'mm' as const }));
       return outcome({ feasible: false, q: vertex, constraint: cv, objective: J(vertex), parameter: null, family: [], limiting, tieBreak: 'unique' });
     }

@@ -96,6 +96,13 @@ describe('solveFamily', () => {
     expect(o.constraint).toBeCloseTo(0.2 - 0.5, 12);
   });
 
+  it('when infeasible, a coordinate with no authority over the target stays at its current value', () => {
+    const o = solveFamily(base({ constraint: (q) => 0.002 * q[0]! + 0 * q[1]! - 0.5, current: [50, 37] }));
+    expect(o.feasible).toBe(false);
+    expect(o.q).toEqual([100, 37]);
+    expect(o.limiting.map((l) => l.coordinate)).toEqual(['a.z']);
+  });
+
   it('solves a single coordinate by the secant search alone', () => {
     const o = solveFamily(base({ names: ['a.z'], lo: [0], hi: [100], current: [10], constraint: (q) => 0.002 * q[0]! + 1e-6 * q[0]! ** 2 - 0.1, objective: () => 1 }));
     expect(o.feasible).toBe(true);
