@@ -5,7 +5,7 @@
  *
  * A module exports `run(): Promise<BenchFigures>`; add it to `modules`.
  */
-import { mkdirSync, writeFileSync, existsSync } from 'node:fs';
+import { mkdirSync, writeFileSync, existsSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { dirname, join } from 'node:path';
 
@@ -27,5 +27,8 @@ for (const name of modules) {
 }
 const out = join(here, '..', '..', 'test-results');
 mkdirSync(out, { recursive: true });
-writeFileSync(join(out, 'bench.json'), JSON.stringify(all, null, 2) + '\n');
+const file = join(out, 'bench.json');
+// A run of some modules keeps the other modules' last figures.
+const previous = only.length && existsSync(file) ? (JSON.parse(readFileSync(file, 'utf8')) as BenchFigures) : {};
+writeFileSync(file, JSON.stringify({ ...previous, ...all }, null, 2) + '\n');
 console.log(`\nwrote test-results/bench.json (${Object.keys(all).length} figures)`);
