@@ -48,11 +48,10 @@ export interface LevelThresholds {
 }
 export type CautionThresholds = Partial<Record<CautionCode, LevelThresholds>>;
 
-/** Safety wording carried by every report and result screen. */
+/** Safety wording carried by every report and result screen (DEVELOPERS.md: keep the wording). */
 export const SAFETY_CAUTION =
-  'Design estimate from an idealised rigid-link model: bushes, compliance and tyre behaviour are simplified. ' +
-  'Verify the geometry on a kinematics rig and in controlled testing before running it, and follow the technical ' +
-  'regulations of your series and the engineering practice and codes that apply where the vehicle is built and used.';
+  'Design estimates from an idealised rigid-link model. Verify on a kinematics rig and in controlled testing, ' +
+  "and follow your series' technical regulations and the engineering codes and licensed practice that apply.";
 
 interface RuleDefinition {
   unit: string;

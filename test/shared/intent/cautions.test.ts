@@ -4,6 +4,8 @@
  * basis "common practice"); the tests check the rule logic against them.
  */
 import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { CAUTION_RULES, evaluateCautions, thresholdsFor, type CautionInputs, type CautionCode } from '../../../shared/intent/cautions.js';
 import { resolveTrackProfile, trackProfiles } from '../../../shared/intent/profiles.js';
 
@@ -34,6 +36,10 @@ describe('caution rules', () => {
     const list = evaluateCautions(quiet());
     expect(list.map((c) => c.code)).toEqual(['safety-notice']);
     expect(list[0]!.message).toMatch(/kinematics rig/);
+    // DEVELOPERS.md fixes the wording: the notice must carry it verbatim.
+    const dev = readFileSync(join(import.meta.dirname, '..', '..', '..', 'DEVELOPERS.md'), 'utf8');
+    const quoted = dev.split('## The safety caution')[1]!.split('\n').filter((l) => l.startsWith('> ')).map((l) => l.slice(2)).join(' ');
+    expect(list[0]!.message).toBe(quoted);
   });
 
   // [code, inputs producing value v, profile]
