@@ -9,26 +9,21 @@ import type { ComputePool } from './pool.js';
 
 export type JobState = 'queued' | 'running' | 'succeeded' | 'failed' | 'cancelled';
 
-interface Job {
-  id: string;
-  ownerId: string;
-  state: JobState;
-  progress: { fraction: number; message: string };
-  result?: unknown;
-  error?: { code: string; message: string; details?: unknown; status: number };
-  createdAt: Date;
-  finishedAt?: Date;
-  abort: AbortController;
-}
-
+/** What GET /api/compute/solve-jobs/:id shows. */
 export interface JobView {
   id: string;
   state: JobState;
   progress: { fraction: number; message: string };
   result?: unknown;
+  /** As the direct call would have answered. */
   error?: { code: string; message: string; details?: unknown; status: number };
   createdAt: Date;
   finishedAt?: Date;
+}
+
+interface Job extends JobView {
+  ownerId: string;
+  abort: AbortController;
 }
 
 export class SolveJobs {

@@ -5,12 +5,12 @@
  */
 import { Router } from 'express';
 import { z } from 'zod';
-import { notFound, validate } from '../http/errors.js';
+import { validate } from '../http/errors.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
 import { AXLES } from '../db/schema.js';
 import { parseCorner, type AxleDesigns } from '../services/axle-designs.js';
 import type { Proposals } from '../services/proposals.js';
-import { archivedQuery, baseRevision, documentName, idParam, revisionMessage, revisionParam } from './vehicles.js';
+import { archivedQuery, baseRevision, documentName, idParam, revisionMessage, revisionNumber } from './vehicles.js';
 
 const createSchema = z.strictObject({ axle: z.enum(AXLES), name: documentName, corner: z.unknown() });
 const patchSchema = z
@@ -74,9 +74,7 @@ export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, au
   });
 
   r.get('/:designId/revisions/:revision', requirePermission('team:read'), async (req, res) => {
-    const n = revisionParam.safeParse(req.params['revision']);
-    if (!n.success) throw notFound('Revision');
-    res.json(await designs.revision(currentAccess(req).teamId, designId(req.params['designId']), n.data));
+    res.json(await designs.revision(currentAccess(req).teamId, designId(req.params['designId']), revisionNumber(req.params['revision'])));
   });
 
   r.get('/:designId/proposals', requirePermission('team:read'), async (req, res) => {

@@ -9,7 +9,14 @@ export const documentName = z.string().trim().min(1, 'is required').max(120);
 export const baseRevision = z.number({ error: 'baseRevision (the revision your edit starts from) is required' }).int().positive();
 export const revisionMessage = z.string().trim().max(500).optional();
 export const archivedQuery = z.object({ archived: z.enum(['true', 'false']).optional() });
-export const revisionParam = z.coerce.number().int().positive();
+const revisionParam = z.coerce.number().int().positive();
+
+/** The :revision path parameter; anything but a positive integer is a missing revision. */
+export function revisionNumber(raw: unknown): number {
+  const n = revisionParam.safeParse(raw);
+  if (!n.success) throw notFound('Revision');
+  return n.data;
+}
 
 const createSchema = z.strictObject({ name: documentName, data: z.unknown().optional() });
 const patchSchema = z
@@ -62,9 +69,7 @@ export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
   });
 
   r.get('/:vehicleId/revisions/:revision', requirePermission('team:read'), async (req, res) => {
-    const n = revisionParam.safeParse(req.params['revision']);
-    if (!n.success) throw notFound('Revision');
-    res.json(await vehicles.revision(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), n.data));
+    res.json(await vehicles.revision(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), revisionNumber(req.params['revision'])));
   });
 
   return r;
