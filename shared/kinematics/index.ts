@@ -8,6 +8,7 @@ export { CornerSolver, RESIDUAL_TOL_MM, type SolveDiagnostics } from './solver.j
 export { poseOutputs, kingpinAxis, type PoseResult, type KingpinAxis } from './pose.js';
 export {
   solvePose,
+  posedHardpoints,
   sweepCorner,
   sweepTravels,
   expandRange,

@@ -4,7 +4,7 @@
  * nearest zero, predicted along the analytic pose tangent), with fits.
  */
 import { InputError } from '../errors.js';
-import type { Corner } from '../schema/corner.js';
+import type { Corner, Vec3 } from '../schema/corner.js';
 import { compileCorner, type CornerModel, type Side } from './model.js';
 import { CornerSolver } from './solver.js';
 import { poseOutputs, poseRow, type PoseResult, type PoseRow } from './pose.js';
@@ -184,4 +184,36 @@ export interface PoseState {
   R: number[];
   travelMm: number;
   rackMm: number;
+}
+
+/**
+ * Every entry of `corner.points` at a pose, left frame, mm: upright points
+ * (wheel centre, spindle, outer joints, strut lower point, link outers) move
+ * with the upright, body points stay, and the tie-rod / toe-link inner point
+ * follows the rack or steering arm. For drawing the linkage.
+ */
+export function posedHardpoints(corner: Corner, at: { travelMm: number; rackMm?: number }): Record<string, Vec3> {
+  const model = compileCorner(corner);
+  const rack = at.rackMm ?? 0;
+  checkRack(model, [rack], 'rackMm');
+  const s = new CornerSolver(model, 'left');
+  s.solve(0, 0);
+  s.solveTowards(at.travelMm, rack);
+  const pts = model.corner.points as Record<string, Vec3>;
+  const upright = new Set(['wheelCentre', 'spindle', 'lowerOuter', 'upperOuter', 'tieRodOuter', 'strutLower', 'link1Outer', 'link2Outer', 'link3Outer', 'link4Outer', 'link5Outer']);
+  const steerInner = model.corner.type === 'five-link' ? `link${model.corner.toeLink}Inner` : 'tieRodInner';
+  const out: Record<string, Vec3> = {};
+  const R = s.R;
+  for (const [key, p] of Object.entries(pts)) {
+    if (upright.has(key)) {
+      const d = [p[0] - model.wc0[0], p[1] - model.wc0[1], p[2] - model.wc0[2]] as const;
+      out[key] = [
+        s.c[0]! + R[0]! * d[0] + R[1]! * d[1] + R[2]! * d[2],
+        s.c[1]! + R[3]! * d[0] + R[4]! * d[1] + R[5]! * d[2],
+        s.c[2]! + R[6]! * d[0] + R[7]! * d[1] + R[8]! * d[2],
+      ];
+    } else if (key === steerInner) out[key] = [s.steerInner[0]!, s.steerInner[1]!, s.steerInner[2]!];
+    else out[key] = [p[0], p[1], p[2]];
+  }
+  return out;
 }

@@ -164,12 +164,14 @@ export type FiveLinkCorner = Extract<Corner, { type: 'five-link' }>;
 
 /**
  * Brings an older corner document to the current formatVersion. Version 1 is
- * the first published format, so there is nothing to migrate yet; a document
- * from a newer Rollwise is refused rather than silently misread.
+ * the first published format, so there is nothing to migrate yet: a document
+ * without `formatVersion` is read as version 1 (as vehicle documents are), and
+ * one from a newer Rollwise is refused rather than silently misread.
  */
 export function upgradeCornerDocument(doc: unknown): unknown {
   if (doc === null || typeof doc !== 'object' || Array.isArray(doc)) return doc;
   const v = (doc as { formatVersion?: unknown }).formatVersion;
+  if (v === undefined) return { ...doc, formatVersion: CORNER_FORMAT_VERSION };
   if (typeof v === 'number' && Number.isInteger(v) && v > CORNER_FORMAT_VERSION) {
     throw new InputError(`formatVersion ${v} was written by a newer Rollwise; this engine reads up to ${CORNER_FORMAT_VERSION}`, [
       { path: 'formatVersion', message: `unsupported formatVersion ${v}` },

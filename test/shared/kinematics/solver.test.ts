@@ -282,3 +282,19 @@ describe('request API', () => {
     expect(roll.axle.anti!['antiSquatPercent']).toBeTypeOf('number');
   });
 });
+
+describe('posedHardpoints', () => {
+  it('moves upright points rigidly, keeps body points and carries the tie-rod inner point with the rack', async () => {
+    const { posedHardpoints } = await import('../../../shared/kinematics/index.js');
+    const c = exampleCorners.fsFrontWishbone;
+    const p = posedHardpoints(c, { travelMm: 15, rackMm: 12 });
+    const pose = solvePose(c, { travelMm: 15, rackMm: 12 });
+    for (let k = 0; k < 3; k++) expect(p['wheelCentre']![k]!).toBeCloseTo(pose.wheelCentre[k]!, 9);
+    expect(p['lowerFront']).toEqual(c.points.lowerFront);
+    expect(p['tieRodInner']![1]).toBeCloseTo(c.points.tieRodInner[1] + 12, 12);
+    const L = (a: string, b: string, q: Record<string, number[]>) => len(sub(q[a]!, q[b]!));
+    const design = c.points as Record<string, number[]>;
+    expect(L('tieRodInner', 'tieRodOuter', p)).toBeCloseTo(L('tieRodInner', 'tieRodOuter', design), 9);
+    expect(L('upperOuter', 'lowerOuter', p)).toBeCloseTo(L('upperOuter', 'lowerOuter', design), 9);
+  });
+});

@@ -80,6 +80,8 @@ describe('corner validation names the point', () => {
     }
     const same: Corner = exampleCorners.fsRearWishbone;
     expect(upgradeCornerDocument(same)).toBe(same);
+    const { formatVersion: _v, ...unversioned } = same;
+    expect(cornerSchema.safeParse(upgradeCornerDocument(unversioned)).success).toBe(true);
   });
 
   it('an unknown type and a missing point are shape errors with their path', () => {
