@@ -95,6 +95,37 @@ describe('Intent panel in Chromium', () => {
       [TARGET_EPSILON, TARGET_TOL],
     );
     await saveScreenshot(designer, 'intent-designer-accepted');
+
+    // The balance view evaluates the vehicle with the accepted rear design; its
+    // roll-steer term is what the balance API reports for the same request.
+    await designer.getByRole('link', { name: 'Vehicle', exact: true }).click();
+    await designer.getByRole('link', { name: /^Balance view/ }).click();
+    await designer.getByRole('heading', { name: /^Balance/ }).waitFor();
+    await designer.getByRole('button', { name: 'Evaluate' }).click();
+    await designer.getByTestId('balance-result').waitFor({ timeout: 60_000 });
+    const rollSteerRow = designer.getByTestId('key-figures').locator('tr', { hasText: 'Roll steer term' });
+    const shownRollSteer = Number(await rollSteerRow.locator('td').first().innerText());
+    const teamPath = editorPath.split('/vehicles/')[0]!;
+    const vehicleId = editorPath.split('/vehicles/')[1]!.split('/')[0]!;
+    const apiRollSteer = await designer.evaluate(
+      async ({ teamPath: t, vehicleId: vid }) => {
+        const get = async (url: string) => (await fetch(url)).json();
+        const api = '/api' + t;
+        const vehicle = await get(`${api}/vehicles/${vid}`);
+        const designs: { id: string; axle: string }[] = await get(`${api}/vehicles/${vid}/axle-designs`);
+        const front = await get(`${api}/axle-designs/${designs.find((d) => d.axle === 'front')!.id}`);
+        const rear = await get(`${api}/axle-designs/${designs.find((d) => d.axle === 'rear')!.id}`);
+        const res = await fetch('/api/compute/balance', {
+          method: 'POST',
+          headers: { 'Content-Type': 'application/json', 'X-Rollwise-Request': '1' },
+          body: JSON.stringify({ vehicle: vehicle.data, frontCorner: front.corner, rearCorner: rear.corner, speedKph: 80, cornerRadiusM: 40 }),
+        });
+        return (await res.json()).result.understeerBudget.rollSteer as number;
+      },
+      { teamPath, vehicleId },
+    );
+    expect(shownRollSteer).toBeCloseTo(apiRollSteer, 3);
+    await saveScreenshot(designer, 'balance-after-accept');
     expect(offsiteRequests(designer)).toEqual([]);
     expect(consoleErrors(designer)).toEqual([]);
     await designer.close();

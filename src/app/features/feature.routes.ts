@@ -15,6 +15,11 @@ export const FEATURE_ROUTES: Routes = [
     loadComponent: () => import('./vehicle/vehicle-page').then((m) => m.VehiclePage),
   },
   {
+    path: 'vehicles/:vehicleId/balance',
+    title: 'Balance · Rollwise',
+    loadComponent: () => import('./balance/balance-page').then((m) => m.BalancePage),
+  },
+  {
     path: 'vehicles/:vehicleId/axle-designs/:designId',
     title: 'Axle design · Rollwise',
     canDeactivate: [unsavedChangesGuard],

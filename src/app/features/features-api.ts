@@ -126,6 +126,11 @@ export class FeaturesApi {
     );
   }
 
+  /** `POST /api/compute/balance`: the balance model on the server (request of shared/balance/api.ts). */
+  balance<T>(request: unknown): Observable<{ engineVersion: string; result: T }> {
+    return this.http.post<{ engineVersion: string; result: T }>('/api/compute/balance', request, inline());
+  }
+
   saveCorner(teamId: string, designId: string, corner: Corner, baseRevision: number, message?: string): Observable<AxleDesign> {
     return this.http.put<AxleDesign>(
       `${team(teamId)}/axle-designs/${encodeURIComponent(designId)}/corner`,
