@@ -58,7 +58,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   const vehicles = new Vehicles(db.orm);
   const designs = new AxleDesigns(db.orm);
   const proposals = new Proposals(db.orm, designs);
-  const pool = createComputePool({ threads: config.computeThreads });
+  const pool = createComputePool({ threads: config.computeThreads, warm: config.computeWarmStart });
   const jobs = new SolveJobs(pool, { timeLimitMs: config.solveJobTimeLimitMs });
 
   app.use(requestLogger(logger));

@@ -38,6 +38,8 @@ export interface Config {
   /** Compute worker pool: threads and per-task time limit. */
   computeThreads: number;
   computeTimeLimitMs: number;
+  /** Start a compute worker at start-up rather than on the first request (off in tests). */
+  computeWarmStart: boolean;
   /** Time limit of a background solve job (longer family sweeps). */
   solveJobTimeLimitMs: number;
   /** bcrypt cost factor for password hashes. */
@@ -108,6 +110,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     dbConnectTimeoutMs: int(env, 'DB_CONNECT_TIMEOUT_MS', 3000, 100),
     computeThreads: int(env, 'COMPUTE_THREADS', 2, 1),
     computeTimeLimitMs: int(env, 'COMPUTE_TIME_LIMIT_MS', 10_000, 50),
+    computeWarmStart: !test,
     solveJobTimeLimitMs: int(env, 'SOLVE_JOB_TIME_LIMIT_MS', 120_000, 50),
     // Tests hash many throwaway passwords; everything else uses a real cost.
     bcryptRounds: int(env, 'BCRYPT_ROUNDS', test ? 4 : 12, 4),
