@@ -37,7 +37,9 @@ export class App {
         if (event instanceof NavigationStart && !navigating) {
           navigating = true;
           this.loading.begin();
-        } else if (
+        }
+        if (event instanceof NavigationEnd) this.keepFocusOnPage();
+        if (
           (event instanceof NavigationEnd ||
             event instanceof NavigationCancel ||
             event instanceof NavigationError) &&
@@ -51,6 +53,18 @@ export class App {
 
   protected reload(): void {
     location.reload();
+  }
+
+  /**
+   * After a route change the focused control (say, the sign-in button) may
+   * have left the page; start keyboard and screen-reader users at the
+   * content instead of nowhere. Focus that is still on the page is left alone.
+   */
+  private keepFocusOnPage(): void {
+    setTimeout(() => {
+      const active = document.activeElement;
+      if (!active || active === document.body) this.main().nativeElement.focus();
+    });
   }
 
   protected skipToContent(): void {

@@ -39,6 +39,52 @@ async function switchTeam(page: Page, teamName: string): Promise<void> {
   await page.getByRole('heading', { name: `Vehicles · ${teamName}` }).waitFor();
 }
 
+interface Focused {
+  tag: string;
+  label: string;
+  text: string;
+  control: string;
+  /** An outline ring, Material's focus ring, or (inputs) the form field's focused border. */
+  focusShown: boolean;
+}
+
+/** Presses Tab until the focused element passes `wanted` (keyboard-only use). */
+async function tabUntil(page: Page, wanted: (el: Focused) => boolean, maxTabs = 40): Promise<Focused> {
+  for (let i = 0; i < maxTabs; i++) {
+    await page.keyboard.press('Tab');
+    const focused = await page.evaluate((): Focused => {
+      const el = document.activeElement as HTMLElement;
+      return {
+        tag: el.tagName,
+        label: el.getAttribute('aria-label') ?? '',
+        text: el.textContent?.trim() ?? '',
+        control: el.getAttribute('formcontrolname') ?? '',
+        focusShown:
+          getComputedStyle(el).outlineStyle !== 'none' ||
+          // Material's strong focus indicator: a ring drawn by a child's ::before
+          [el, el.querySelector(':scope > .mat-focus-indicator')].some((node) => {
+            if (!node?.classList.contains('mat-focus-indicator')) return false;
+            const ring = getComputedStyle(node, '::before');
+            return ring.display !== 'none' && ring.borderStyle === 'solid';
+          }) ||
+          el.closest('mat-form-field')?.classList.contains('mat-focused') === true,
+      };
+    });
+    if (wanted(focused)) return focused;
+  }
+  throw new Error(`Tab never reached the wanted element in ${maxTabs} presses`);
+}
+
+/** Presses ArrowDown in an open menu until the focused item reads `text`. */
+async function arrowTo(page: Page, text: string, maxPresses = 10): Promise<void> {
+  for (let i = 0; i < maxPresses; i++) {
+    const current = await page.evaluate(() => document.activeElement?.textContent?.trim() ?? '');
+    if (current.includes(text)) return;
+    await page.keyboard.press('ArrowDown');
+  }
+  throw new Error(`No menu item "${text}" reached with the arrow keys`);
+}
+
 function vehicleLinks(page: Page): Promise<string[]> {
   return page.locator('a.vehicle-link').allTextContents().then((names) => names.map((n) => n.trim()).sort());
 }
@@ -126,5 +172,46 @@ describe('Angular shell in Chromium', () => {
     await saveScreenshot(owner, 'shell-members');
     expect(offsiteRequests(owner)).toEqual([]);
     expect(consoleErrors(owner)).toEqual([]);
+  });
+
+  it('can be used from the keyboard alone, with the focus always visible', async () => {
+    const page = await browser.newPage();
+    await page.goto(app.baseUrl + '/sign-in');
+    await page.getByRole('heading', { name: 'Sign in' }).waitFor();
+
+    const email = await tabUntil(page, (el) => el.control === 'email');
+    expect(email.focusShown).toBe(true);
+    await page.keyboard.type('engineer@tallowmere.example');
+    await tabUntil(page, (el) => el.control === 'password');
+    await page.keyboard.type('demo-pass-2026');
+    await page.keyboard.press('Enter');
+    await page.getByRole('heading', { name: /^Vehicles · / }).waitFor();
+
+    const switcher = await tabUntil(page, (el) => el.label.endsWith('Switch team'));
+    expect(switcher.focusShown).toBe(true);
+    await page.keyboard.press('Enter');
+    await page.getByRole('menu', { name: 'Switch team' }).waitFor();
+    await arrowTo(page, TALLOWMERE);
+    await page.keyboard.press('Enter');
+    await page.getByRole('link', { name: 'TUR-26 Ember' }).waitFor();
+
+    // A vehicle command opens its dialog and Escape closes it again.
+    const archive = await tabUntil(page, (el) => el.label === 'Archive TUR-25 Cinder');
+    expect(archive.focusShown).toBe(true);
+    await page.keyboard.press('Enter');
+    await page.getByRole('dialog', { name: 'Archive vehicle?' }).waitFor();
+    await page.keyboard.press('Escape');
+    await page.getByRole('dialog').waitFor({ state: 'detached' });
+    expect(await vehicleLinks(page)).toEqual(['TUR-25 Cinder', 'TUR-26 Ember']);
+
+    await tabUntil(page, (el) => el.label.endsWith('Account menu'));
+    await page.keyboard.press('Enter');
+    await page.getByRole('menu', { name: 'Account' }).waitFor();
+    await arrowTo(page, 'Sign out');
+    await page.keyboard.press('Enter');
+    await page.getByRole('heading', { name: 'Sign in' }).waitFor();
+
+    expect(offsiteRequests(page)).toEqual([]);
+    expect(consoleErrors(page)).toEqual([]);
   });
 });
