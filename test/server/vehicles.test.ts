@@ -93,6 +93,17 @@ describe('vehicles', () => {
     expectError(await owner.get(`/api/teams/${teamId}/vehicles?archived=maybe`), 400, 'invalid_input');
   });
 
+  it('a stored document of an older format (no formatVersion) is upgraded when read', async () => {
+    const v = (await engineer.post(`/api/teams/${teamId}/vehicles`).send({ name: 'Legacy', data: exampleVehicles.tur26Ember }).expect(201)).body;
+    const { formatVersion: _dropped, ...legacy } = exampleVehicles.tur26Ember as Record<string, unknown>;
+    await t.db.pool.query('UPDATE vehicles SET data = $1 WHERE id = $2', [JSON.stringify(legacy), v.id]);
+    const raw = await t.db.pool.query('SELECT data FROM vehicles WHERE id = $1', [v.id]);
+    expect(raw.rows[0].data.formatVersion).toBeUndefined();
+    const r = await engineer.get(`/api/teams/${teamId}/vehicles/${v.id}`).expect(200);
+    expect(r.body.data.formatVersion).toBe(1);
+    expect(r.body.data.massKg).toBe(exampleVehicles.tur26Ember.massKg);
+  });
+
   it("another team's vehicle is 404 through this team's path", async () => {
     expectError(await engineer.get(`/api/teams/${teamId}/vehicles/${otherTeamVehicleId}`), 404, 'not_found');
     expectError(await engineer.put(`/api/teams/${teamId}/vehicles/${otherTeamVehicleId}/data`).send({ data: exampleVehicles.tur26Ember, baseRevision: 1 }), 404, 'not_found');
