@@ -50,7 +50,40 @@ export function secantRoot(f: (x: number) => number, x0: number, slope: number, 
     if (Math.abs(fx) < Math.abs(best.fx)) best = { x, fx };
     if (bracketed && Math.abs(xPos - xNeg) < 1e-10) break;
   }
+  if (Math.abs(best.fx) > tolF && (best.x === lo || best.x === hi)) {
+    // Stopped on a bound: a root may still lie across the interval (a wrong-signed slope estimate). Check the other end.
+    const other = best.x === lo ? hi : lo;
+    const fo = ev(other);
+    if (fo * best.fx < 0) {
+      const r = illinois(ev, best.x, best.fx, other, fo, tolF, maxIter);
+      if (Math.abs(r.fx) < Math.abs(best.fx)) best = r;
+    } else if (Math.abs(fo) < Math.abs(best.fx)) best = { x: other, fx: fo };
+  }
   return { x: best.x, fx: best.fx, found: Math.abs(best.fx) <= tolF, evaluations };
+}
+
+/** Root in a bracket [a, b] with f(a)·f(b) < 0 by the Illinois variant of regula falsi (common practice). */
+function illinois(f: (x: number) => number, a: number, fa: number, b: number, fb: number, tolF: number, maxIter: number): { x: number; fx: number } {
+  let side = 0;
+  let x = a;
+  let fx = fa;
+  for (let i = 0; i < maxIter; i++) {
+    x = (a * fb - b * fa) / (fb - fa);
+    fx = f(x);
+    if (Math.abs(fx) <= tolF) break;
+    if (fx * fb > 0) {
+      b = x;
+      fb = fx;
+      if (side === -1) fa /= 2;
+      side = -1;
+    } else {
+      a = x;
+      fa = fx;
+      if (side === 1) fb /= 2;
+      side = 1;
+    }
+  }
+  return { x, fx };
 }
 
 export interface MinResult {

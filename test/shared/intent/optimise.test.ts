@@ -27,6 +27,10 @@ describe('numeric helpers', () => {
     const r = secantRoot(f, 1, 1, 0, 4, 1e-12);
     expect(r.found).toBe(true);
     expect(r.x).toBeCloseTo(2.0945514815, 9);
+    // A wrong-signed slope estimate first pushes against the far bound; the root is still found.
+    const wrong = secantRoot((x) => x - 3 + 0.01 * x * x, 0, -1, 0, 10, 1e-12);
+    expect(wrong.found).toBe(true);
+    expect(wrong.x).toBeCloseTo((-1 + Math.sqrt(1 + 0.12)) / 0.02, 9); // root of 0.01x² + x − 3
     const none = secantRoot((x) => x + 10, 0, 1, 0, 5, 1e-9);
     expect(none.found).toBe(false);
     expect(none.x).toBe(0);
