@@ -8,7 +8,7 @@ import { SolveError } from '../errors.js';
 import type { Vec3, Attachment } from '../schema/corner.js';
 import type { ArmModel, LeverModel } from './model.js';
 import type { CornerSolver } from './solver.js';
-import { add, cross, dot, norm, sub, scale, RAD } from './vec.js';
+import { add, cross, dot, norm, sub, scale, RAD, rotateOffsetInto } from './vec.js';
 
 export interface PoseRow {
   /** Wheel-centre travel from design, mm (+ bump). */
@@ -77,6 +77,7 @@ export function uprightPoint(s: CornerSolver, pDesign: ArrayLike<number>, tangen
 
 // Scratch for the per-pose mechanism outputs (single-threaded; no allocation per pose).
 const att = new Float64Array(6);
+const rot = new Float64Array(3);
 
 /**
  * A point riding on an arm (turning about its pivot axis) or on the upright,
@@ -84,9 +85,6 @@ const att = new Float64Array(6);
  * travel into `out` [x, y, z, vx, vy, vz].
  */
 function attachInto(s: CornerSolver, on: Attachment, pDesign: Vec3, out: Float64Array): void {
-  const px = pDesign[0];
-  const py = pDesign[1];
-  const pz = pDesign[2];
   const m = s.model;
   const R = s.R;
   const c = s.c;
@@ -97,9 +95,9 @@ function attachInto(s: CornerSolver, on: Attachment, pDesign: Vec3, out: Float64
   let lx: number, ly: number, lz: number;
   let arm: ArmModel | null = null;
   if (on === 'upright') {
-    lx = px - m.wc0[0];
-    ly = py - m.wc0[1];
-    lz = pz - m.wc0[2];
+    lx = pDesign[0] - m.wc0[0];
+    ly = pDesign[1] - m.wc0[1];
+    lz = pDesign[2] - m.wc0[2];
   } else {
     arm = on === 'lowerArm' ? m.lowerArm : m.upperArm;
     const ol = on === 'lowerArm' ? m.lowerOuterLocal : m.upperOuterLocal;
@@ -143,16 +141,11 @@ function attachInto(s: CornerSolver, on: Attachment, pDesign: Vec3, out: Float64
   const sn = (r0y * r1z - r0z * r1y) * ux + (r0z * r1x - r0x * r1z) * uy + (r0x * r1y - r0y * r1x) * uz;
   const cs = r0x * r1x + r0y * r1y + r0z * r1z;
   const th = Math.atan2(sn, cs);
-  // Rotate the design point about the axis by θ (Rodrigues).
-  const qx = px - arm.pivot[0];
-  const qy = py - arm.pivot[1];
-  const qz = pz - arm.pivot[2];
-  const co = Math.cos(th);
-  const si = Math.sin(th);
-  const k = (ux * qx + uy * qy + uz * qz) * (1 - co);
-  const rx = qx * co + (uy * qz - uz * qy) * si + ux * k;
-  const ry = qy * co + (uz * qx - ux * qz) * si + uy * k;
-  const rz = qz * co + (ux * qy - uy * qx) * si + uz * k;
+  // Rotate the design point about the axis by θ.
+  rotateOffsetInto(rot, arm.axis, pDesign, arm.pivot, th);
+  const rx = rot[0]!;
+  const ry = rot[1]!;
+  const rz = rot[2]!;
   // Arm rate α from the joint's velocity: v = α·u × r1.
   const alpha = (vx * (uy * r1z - uz * r1y) + vy * (uz * r1x - ux * r1z) + vz * (ux * r1y - uy * r1x)) / (r1x * r1x + r1y * r1y + r1z * r1z);
   out[0] = arm.pivot[0] + rx;

@@ -13,6 +13,7 @@
  */
 import { SolveError } from '../errors.js';
 import type { CornerModel, Side } from './model.js';
+import { rotateOffsetInto } from './vec.js';
 
 /** Convergence tolerance on every residual row, mm. */
 export const RESIDUAL_TOL_MM = 1e-10;
@@ -66,12 +67,16 @@ export class CornerSolver {
   private readonly R0 = new Float64Array(9);
   private readonly sgn: number;
   private readonly rackDir = new Float64Array(3);
+  /** Design position of the steering inner point, and rotation scratch. */
+  private readonly steerInner0: Float64Array;
+  private readonly rot3 = new Float64Array(3);
 
   constructor(
     readonly model: CornerModel,
     readonly side: Side = 'left',
   ) {
     this.sgn = side === 'left' ? 1 : -1;
+    this.steerInner0 = model.bodyPts.slice(3 * model.steerRow, 3 * model.steerRow + 3);
     const st = model.steering;
     if (st?.kind === 'rack') {
       // Vehicle-frame rack displacement r·u; a right corner solved as its mirror sees r·(u_x, −u_y, u_z) (domain.md).
@@ -102,29 +107,18 @@ export class CornerSolver {
   private setSteer(): void {
     const s = this.sc[3]!;
     const m = this.model;
-    const k = 3 * m.steerRow;
-    const a0x = m.bodyPts[k]!;
-    const a0y = m.bodyPts[k + 1]!;
-    const a0z = m.bodyPts[k + 2]!;
+    const a0 = this.steerInner0;
     const st = m.steering;
     if (st?.kind === 'arm') {
       // Rotation about the arm axis by θ = s / radius (right corner: −θ in the mirrored frame).
-      const th = (this.sgn * s) / st.radius;
+      const q = this.rot3;
+      rotateOffsetInto(q, st.dir, a0, st.point, (this.sgn * s) / st.radius);
       const ux = st.dir[0];
       const uy = st.dir[1];
       const uz = st.dir[2];
-      const vx = a0x - st.point[0];
-      const vy = a0y - st.point[1];
-      const vz = a0z - st.point[2];
-      const co = Math.cos(th);
-      const si = Math.sin(th);
-      const kd = (ux * vx + uy * vy + uz * vz) * (1 - co);
-      const cx = uy * vz - uz * vy;
-      const cy = uz * vx - ux * vz;
-      const cz = ux * vy - uy * vx;
-      const px = vx * co + cx * si + ux * kd;
-      const py = vy * co + cy * si + uy * kd;
-      const pz = vz * co + cz * si + uz * kd;
+      const px = q[0]!;
+      const py = q[1]!;
+      const pz = q[2]!;
       this.steerInner[0] = st.point[0] + px;
       this.steerInner[1] = st.point[1] + py;
       this.steerInner[2] = st.point[2] + pz;
@@ -134,9 +128,9 @@ export class CornerSolver {
       this.steerInnerRate[2] = f * (ux * py - uy * px);
     } else {
       const d = this.rackDir;
-      this.steerInner[0] = a0x + s * d[0]!;
-      this.steerInner[1] = a0y + s * d[1]!;
-      this.steerInner[2] = a0z + s * d[2]!;
+      this.steerInner[0] = a0[0]! + s * d[0]!;
+      this.steerInner[1] = a0[1]! + s * d[1]!;
+      this.steerInner[2] = a0[2]! + s * d[2]!;
       this.steerInnerRate.set(d);
     }
   }
@@ -457,7 +451,10 @@ export class CornerSolver {
       why === 'singular'
         ? `Pose cannot be solved ${where}: the links do not locate the upright (singular geometry near the ${link})`
         : `Pose unreachable ${where}: the ${link} cannot close (residual ${round(res)} mm)`;
-    throw new SolveError('unreachable_pose', message, { travelMm, rackMm, side: this.side, link, residualMm: res });
+    // Singular at the design pose itself: the hardpoints never locate the upright (not a reach problem).
+    const atDesign = travelMm === 0 && rackMm === 0 && this.travelMm === 0 && this.rackMm === 0;
+    const code = why === 'singular' && atDesign ? 'singular_geometry' : 'unreachable_pose';
+    throw new SolveError(code, message, { travelMm, rackMm, side: this.side, link, residualMm: res });
   }
 }
 

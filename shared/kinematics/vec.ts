@@ -12,15 +12,24 @@ export const cross = (a: ArrayLike<number>, b: ArrayLike<number>): Vec3 => [
 ];
 export const norm = (a: ArrayLike<number>): number => Math.hypot(a[0]!, a[1]!, a[2]!);
 export const unit = (a: ArrayLike<number>): Vec3 => scale(a, 1 / norm(a));
-export const mirrorY = (a: ArrayLike<number>): Vec3 => [a[0]!, -a[1]!, a[2]!];
-
-/** Rotation of v about unit axis u by angle t (rad), Rodrigues. */
-export function rotateAbout(v: ArrayLike<number>, u: ArrayLike<number>, t: number): Vec3 {
-  const c = Math.cos(t);
-  const s = Math.sin(t);
-  const k = dot(u, v) * (1 - c);
-  const x = cross(u, v);
-  return [v[0]! * c + x[0] * s + u[0]! * k, v[1]! * c + x[1] * s + u[1]! * k, v[2]! * c + x[2] * s + u[2]! * k];
-}
-
 export const RAD = 180 / Math.PI;
+
+/**
+ * Rodrigues rotation of the offset (p − origin) about the unit axis u by
+ * angle th (rad), written to out[0..2] (still relative to origin). Scalar
+ * code for per-pose use (no arrays created).
+ */
+export function rotateOffsetInto(out: Float64Array, u: ArrayLike<number>, p: ArrayLike<number>, origin: ArrayLike<number>, th: number): void {
+  const ux = u[0]!;
+  const uy = u[1]!;
+  const uz = u[2]!;
+  const qx = p[0]! - origin[0]!;
+  const qy = p[1]! - origin[1]!;
+  const qz = p[2]! - origin[2]!;
+  const co = Math.cos(th);
+  const si = Math.sin(th);
+  const k = (ux * qx + uy * qy + uz * qz) * (1 - co);
+  out[0] = qx * co + (uy * qz - uz * qy) * si + ux * k;
+  out[1] = qy * co + (uz * qx - ux * qz) * si + uy * k;
+  out[2] = qz * co + (ux * qy - uy * qx) * si + uz * k;
+}
