@@ -13,6 +13,8 @@ import { seedDemo } from './db/seed.js';
 import { createApp } from './app.js';
 import { createLogger } from './http/logging.js';
 
+const SHUTDOWN_GRACE_MS = 5_000;
+
 export interface RunningServer {
   url: string;
   close(): Promise<void>;
@@ -46,9 +48,14 @@ export async function startServer(overrides: Partial<Config> = {}): Promise<Runn
     url,
     close: () =>
       (closing ??= (async () => {
+        // Requests in flight may finish (up to a grace period); idle keep-alive connections close now.
         await new Promise<void>((resolve) => {
-          server.close(() => resolve());
-          server.closeAllConnections();
+          const force = setTimeout(() => server.closeAllConnections(), SHUTDOWN_GRACE_MS);
+          server.close(() => {
+            clearTimeout(force);
+            resolve();
+          });
+          server.closeIdleConnections();
         });
         await app.close();
         await db.close();

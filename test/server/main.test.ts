@@ -86,3 +86,26 @@ describe('migrations', () => {
     }
   });
 });
+
+describe('shutdown', () => {
+  it('lets a request in flight finish before closing', async () => {
+    const s = await startServer({ databaseUrl: freshDatabaseUrl(), port: 0, seedDemo: false, logLevel: 'silent', bcryptRounds: 4 });
+    const reg = await fetch(`${s.url}/api/auth/register`, {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json', 'X-Rollwise-Request': '1' },
+      body: JSON.stringify({ email: 'late@test.example', password: 'long-enough-pass', displayName: 'Late' }),
+    });
+    const cookie = reg.headers.get('set-cookie')!.split(';')[0]!;
+    // A solve takes a while in the worker; close while it runs.
+    const inFlight = fetch(`${s.url}/api/compute/axle-roll`, {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json', 'X-Rollwise-Request': '1', Cookie: cookie },
+      body: JSON.stringify({ corner: (await import('../../shared/kinematics/examples.js')).exampleCorners.fsRearWishbone, roll: { from: -3, to: 3, step: 0.25 } }),
+    });
+    await new Promise((r) => setTimeout(r, 100));
+    const closing = s.close();
+    const r = await inFlight;
+    expect(r.status).toBe(200);
+    await closing;
+  });
+});
