@@ -128,11 +128,19 @@ export class AxleDesignPage implements OnInit {
     return a && d ? rollSteerWords(a.rollSteerCoefficient, d.axle) : '';
   });
 
+  /**
+   * Toe change from ride height per rack position: steering shifts the whole
+   * curve by the steer angle, so each curve starts from its own toe at zero
+   * travel and only the bump steer shows.
+   */
   protected readonly toeSeries = computed<LineSeries[]>(() =>
-    (this.analysis()?.curves ?? []).map((c) => ({
-      name: `Rack ${c.rackMm} mm`,
-      points: c.points.map((p) => ({ x: p.travelMm, y: p.toeDeg })),
-    })),
+    (this.analysis()?.curves ?? []).map((c) => {
+      const atRide = c.points.find((p) => p.travelMm === 0)?.toeDeg ?? c.points[0]?.toeDeg ?? 0;
+      return {
+        name: `Rack ${c.rackMm} mm`,
+        points: c.points.map((p) => ({ x: p.travelMm, y: p.toeDeg - atRide })),
+      };
+    }),
   );
 
   protected readonly camberSeries = computed<LineSeries[]>(() =>
@@ -142,11 +150,15 @@ export class AxleDesignPage implements OnInit {
     })),
   );
 
+  /** Axle steer change from zero roll per rack position (the steer angle itself is set by the rack). */
   protected readonly rollSeries = computed<LineSeries[]>(() =>
-    (this.analysis()?.roll ?? []).map((c) => ({
-      name: `Rack ${c.rackMm} mm`,
-      points: c.points.map((p) => ({ x: p.rollDeg, y: p.axleSteerDeg })),
-    })),
+    (this.analysis()?.roll ?? []).map((c) => {
+      const atZero = c.points.find((p) => p.rollDeg === 0)?.axleSteerDeg ?? 0;
+      return {
+        name: `Rack ${c.rackMm} mm`,
+        points: c.points.map((p) => ({ x: p.rollDeg, y: p.axleSteerDeg - atZero })),
+      };
+    }),
   );
 
   protected readonly toeDescription = computed(() => {

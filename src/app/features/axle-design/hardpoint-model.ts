@@ -71,6 +71,28 @@ export function pointName(key: string, corner: Corner): string {
   return key;
 }
 
+/** Display order of the linkage points (stored documents may hold their keys in any order). */
+const POINT_ORDER = [
+  'wheelCentre',
+  'spindle',
+  'lowerFront',
+  'lowerRear',
+  'lowerOuter',
+  'upperFront',
+  'upperRear',
+  'upperOuter',
+  'strutTop',
+  'strutLower',
+  'tieRodInner',
+  'tieRodOuter',
+  ...[1, 2, 3, 4, 5].flatMap((k) => [`link${k}Inner`, `link${k}Outer`]),
+];
+
+function orderOf(list: readonly string[], name: string): number {
+  const i = list.indexOf(name);
+  return i < 0 ? list.length : i;
+}
+
 function isVec3(v: unknown): v is Vec3 {
   return Array.isArray(v) && v.length === 3 && v.every((n) => typeof n === 'number');
 }
@@ -80,7 +102,9 @@ export function hardpointRows(corner: Corner): HardpointRow[] {
   const rows: HardpointRow[] = [];
   const collect = (section: string, group: string, obj: Record<string, unknown> | undefined, names?: Readonly<Record<string, string>>) => {
     if (!obj) return;
-    for (const [name, value] of Object.entries(obj)) {
+    const order = names ? Object.keys(names) : POINT_ORDER;
+    const entries = Object.entries(obj).sort(([a], [b]) => orderOf(order, a) - orderOf(order, b));
+    for (const [name, value] of entries) {
       if (!isVec3(value)) continue;
       if (names && !(name in names)) continue;
       const key = `${section}.${name}`;
