@@ -5,6 +5,7 @@
  * documents every formula and output.
  */
 import { SAFETY_CAUTION } from '../intent/cautions.js';
+import { SolveError } from '../errors.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { DEG, KPH } from './constants.js';
 import { evaluateRoll, type AxleLoadTransfer, type AxleRollStiffness, type MassProperties } from './roll.js';
@@ -92,6 +93,7 @@ export function evaluateBalance(vehicle: Vehicle, options: BalanceOptions = {}):
   const sc = speedCharacteristic(K, L);
   const gainInputs = { kDegPerG: K, wheelbaseM: L, cgToRearM: b, rearComplianceDegPerG: budget.axleCompliance.rear.total, steeringRatio: vehicle.steeringRatio };
   const gradientPoints = options.gradientPoints ?? 9;
+  refuseNoValidRange(core, budget.validity);
   const kOfAyMaxG = Math.min(1, 0.98 * physicalLimit(budget.validity));
   const kOfAy = Array.from({ length: gradientPoints }, (_, i) => {
     const A = (kOfAyMaxG * i) / Math.max(1, gradientPoints - 1);
@@ -165,6 +167,24 @@ export function evaluateBalance(vehicle: Vehicle, options: BalanceOptions = {}):
     steerCurve: curve,
     stepSteer: { ...step2, withRoll: step3 },
   };
+}
+
+/**
+ * An axle whose lateral load transfer is not positive (e.g. a roll centre far
+ * above the CG) leaves the model no lateral acceleration at which it holds:
+ * the wheel-lift limit comes out ≤ 0 and the steer curve would be NaN.
+ */
+function refuseNoValidRange(core: ReturnType<typeof balanceCore>, v: Validity): void {
+  const limit = physicalLimit(v);
+  if (limit > 0) return;
+  const axle = (['front', 'rear'] as const).find((a) => !(v.wheelLiftG[a] > 0) || !((v.stiffnessLimitG[a] ?? Infinity) > 0)) ?? 'front';
+  const transfer = core[axle].loadTransferNPerG;
+  throw new SolveError(
+    'singular_geometry',
+    `${axle}: lateral load transfer ${transfer.toFixed(0)} N/g leaves the model no valid lateral acceleration (limit ${limit.toFixed(2)} g); ` +
+      `check ${axle}.rollCentreHeightMm (a roll centre far above the CG, entered or read from the corner) and the roll stiffnesses`,
+    { axle, field: `${axle}.rollCentreHeightMm`, loadTransferNPerG: transfer, limitG: limit },
+  );
 }
 
 /** Where the load-sensitive model itself ends (wheel lift, stiffness reaching zero), g. */

@@ -1,0 +1,58 @@
+/**
+ * Found by the compute fuzzing (issue 8): a roll centre far above the CG makes
+ * an axle's lateral load transfer negative, the model's wheel-lift limit ≤ 0,
+ * and the steer curve's speeds √(a_y·g·R) NaN (null in JSON). The balance
+ * model now refuses such a vehicle with a SolveError naming the axle.
+ * Lateral load transfer per axle (elastic share + geometric part through the
+ * roll centre) follows Milliken & Milliken, Race Car Vehicle Dynamics, ch. 18
+ * (from memory): with the roll centre above the CG the roll moment reverses.
+ */
+import { describe, expect, it } from 'vitest';
+import { computeBalance } from '../../../shared/balance/api.js';
+import { exampleVehicles } from '../../../shared/balance/examples.js';
+import { evaluateBalance } from '../../../shared/balance/index.js';
+import { SolveError } from '../../../shared/errors.js';
+import { exampleCorners } from '../../../shared/kinematics/examples.js';
+
+function walkFinite(v: unknown, path: string, out: string[]): string[] {
+  if (typeof v === 'number' && !Number.isFinite(v)) out.push(path);
+  else if (v && typeof v === 'object') for (const [k, x] of Object.entries(v)) walkFinite(x, `${path}.${k}`, out);
+  return out;
+}
+
+describe('a vehicle with no valid lateral-acceleration range', () => {
+  it('a roll centre 3 m up is a SolveError naming the axle and the roll-centre field, not NaN speeds', () => {
+    const v = structuredClone(exampleVehicles.brackenfieldB5);
+    v.front.rollCentreHeightMm = 3000;
+    let err: unknown;
+    try {
+      evaluateBalance(v);
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(SolveError);
+    const e = err as SolveError;
+    expect(e.code).toBe('singular_geometry');
+    expect(e.message).toMatch(/^(front|rear): lateral load transfer -?\d+ N\/g/);
+    expect(e.message).toMatch(/rollCentreHeightMm/);
+    expect(e.details['limitG']).toBeLessThanOrEqual(0);
+    expect(['front', 'rear']).toContain(e.details['axle']);
+  });
+
+  it('a degenerate corner (lower front pivot on the spindle point) linked into the vehicle is refused the same way', () => {
+    const front = structuredClone(exampleCorners.fsFrontWishbone);
+    if (front.type !== 'double-wishbone') throw new Error('example changed');
+    front.points.lowerFront = [...front.points.spindle];
+    expect(() => computeBalance({ vehicle: exampleVehicles.brackenfieldB5, frontCorner: front, rearCorner: exampleCorners.fsRearWishbone })).toThrow(SolveError);
+  });
+
+  it('plausible roll-centre heights still evaluate, every number finite', () => {
+    for (const h of [-50, 60, 400, 1000]) {
+      const v = structuredClone(exampleVehicles.brackenfieldB5);
+      v.front.rollCentreHeightMm = h;
+      const r = evaluateBalance(v);
+      expect(r.steerCurve.rows.length).toBeGreaterThan(1);
+      expect(walkFinite(r, 'result', [])).toEqual([]);
+    }
+  });
+});
