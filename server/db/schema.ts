@@ -198,3 +198,134 @@ export const sessions = pgTable(
   },
   (t) => [index('IDX_session_expire').on(t.expire)],
 );
+
+export const CONFIGURATION_STATUSES = ['draft', 'in_review', 'approved', 'changes_requested', 'released', 'validated'] as const;
+export type ConfigurationStatus = (typeof CONFIGURATION_STATUSES)[number];
+
+/**
+ * A configuration: what a balance figure depends on (one vehicle revision,
+ * one front and one rear axle design revision, a track profile). It is the
+ * unit of review. Every change of its references is a new immutable
+ * revision and returns it to `draft`. References use NO ACTION, so a
+ * vehicle or design a configuration points at can never be deleted on its
+ * own (only with its whole team).
+ */
+export const configurations = pgTable(
+  'configurations',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    status: text('status', { enum: CONFIGURATION_STATUSES }).notNull().default('draft'),
+    revision: integer('revision').notNull().default(1),
+    vehicleId: uuid('vehicle_id')
+      .notNull()
+      .references(() => vehicles.id),
+    vehicleRevision: integer('vehicle_revision').notNull(),
+    frontDesignId: uuid('front_design_id')
+      .notNull()
+      .references(() => axleDesigns.id),
+    frontDesignRevision: integer('front_design_revision').notNull(),
+    rearDesignId: uuid('rear_design_id')
+      .notNull()
+      .references(() => axleDesigns.id),
+    rearDesignRevision: integer('rear_design_revision').notNull(),
+    /** Track profile id of the intent engine (shared/intent/profiles.ts). */
+    trackProfile: text('track_profile').notNull(),
+    archived: boolean('archived').notNull().default(false),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('configurations_team_idx').on(t.teamId)],
+);
+
+/** Immutable snapshot of a configuration's references at each revision. */
+export const configurationRevisions = pgTable(
+  'configuration_revisions',
+  {
+    configurationId: uuid('configuration_id')
+      .notNull()
+      .references(() => configurations.id, { onDelete: 'cascade' }),
+    revision: integer('revision').notNull(),
+    name: text('name').notNull(),
+    vehicleId: uuid('vehicle_id').notNull(),
+    vehicleRevision: integer('vehicle_revision').notNull(),
+    frontDesignId: uuid('front_design_id').notNull(),
+    frontDesignRevision: integer('front_design_revision').notNull(),
+    rearDesignId: uuid('rear_design_id').notNull(),
+    rearDesignRevision: integer('rear_design_revision').notNull(),
+    trackProfile: text('track_profile').notNull(),
+    message: text('message'),
+    authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.configurationId, t.revision] })],
+);
+
+/** Every status change of a configuration, with who made it and why. */
+export const configurationTransitions = pgTable(
+  'configuration_transitions',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    configurationId: uuid('configuration_id')
+      .notNull()
+      .references(() => configurations.id, { onDelete: 'cascade' }),
+    revision: integer('revision').notNull(),
+    fromStatus: text('from_status', { enum: CONFIGURATION_STATUSES }).notNull(),
+    toStatus: text('to_status', { enum: CONFIGURATION_STATUSES }).notNull(),
+    message: text('message'),
+    actorId: uuid('actor_id').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('configuration_transitions_configuration_idx').on(t.configurationId)],
+);
+
+/**
+ * What an approval froze: the inputs (documents), the computed results and
+ * the engine version that computed them. Never updated.
+ */
+export const configurationApprovals = pgTable(
+  'configuration_approvals',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    configurationId: uuid('configuration_id')
+      .notNull()
+      .references(() => configurations.id, { onDelete: 'cascade' }),
+    revision: integer('revision').notNull(),
+    engineVersion: text('engine_version').notNull(),
+    inputs: jsonb('inputs').notNull(),
+    results: jsonb('results').notNull(),
+    message: text('message'),
+    approvedBy: uuid('approved_by').references(() => users.id, { onDelete: 'set null' }),
+    approvedAt: timestamp('approved_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('configuration_approvals_configuration_idx').on(t.configurationId)],
+);
+
+/**
+ * Review comments in threads (a reply has a parent). A comment may point at
+ * a result by a reference key (`budget`, `chart:steer-curve`,
+ * `caution:bump-toe-change`…); a thread is resolved on its first comment.
+ */
+export const reviewComments = pgTable(
+  'review_comments',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    configurationId: uuid('configuration_id')
+      .notNull()
+      .references(() => configurations.id, { onDelete: 'cascade' }),
+    /** The configuration revision the comment was written on. */
+    revision: integer('revision').notNull(),
+    parentId: uuid('parent_id'),
+    resultRef: text('result_ref'),
+    body: text('body').notNull(),
+    authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+    resolvedAt: timestamp('resolved_at', { withTimezone: true }),
+    resolvedBy: uuid('resolved_by').references(() => users.id, { onDelete: 'set null' }),
+  },
+  (t) => [index('review_comments_configuration_idx').on(t.configurationId)],
+);
