@@ -1,10 +1,8 @@
-import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter, Router } from '@angular/router';
+import { fakeNotifier, shellTestProviders } from '../../testing/shell-testing';
+import { Router } from '@angular/router';
 import { Me } from '../core/api-types';
-import { rollwiseInterceptor } from '../core/http/rollwise-interceptor';
-import { Notifier } from '../core/layout/notifier';
 import { RegisterPage } from './register-page';
 
 const NEW_USER: Me = {
@@ -18,12 +16,7 @@ describe('RegisterPage', () => {
   beforeEach(async () => {
     await TestBed.configureTestingModule({
       imports: [RegisterPage],
-      providers: [
-        provideRouter([]),
-        provideHttpClient(withInterceptors([rollwiseInterceptor])),
-        provideHttpClientTesting(),
-        { provide: Notifier, useValue: { error: vi.fn(), info: vi.fn() } },
-      ],
+      providers: shellTestProviders(fakeNotifier()),
     }).compileComponents();
     backend = TestBed.inject(HttpTestingController);
   });

@@ -1,9 +1,8 @@
-import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter, Router } from '@angular/router';
+import { fakeNotifier, shellTestProviders } from '../../testing/shell-testing';
+import { Router } from '@angular/router';
 import { Me } from '../core/api-types';
-import { rollwiseInterceptor } from '../core/http/rollwise-interceptor';
 import { SignInPage } from './sign-in-page';
 
 const ELI: Me = {
@@ -36,11 +35,7 @@ describe('SignInPage', () => {
   beforeEach(async () => {
     await TestBed.configureTestingModule({
       imports: [SignInPage],
-      providers: [
-        provideRouter([]),
-        provideHttpClient(withInterceptors([rollwiseInterceptor])),
-        provideHttpClientTesting(),
-      ],
+      providers: shellTestProviders(fakeNotifier()),
     }).compileComponents();
     backend = TestBed.inject(HttpTestingController);
   });

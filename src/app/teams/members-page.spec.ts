@@ -1,11 +1,8 @@
-import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
+import { fakeNotifier, FakeNotifier, shellTestProviders } from '../../testing/shell-testing';
 import { Me, TeamMember } from '../core/api-types';
 import { AuthService } from '../core/auth/auth-service';
-import { rollwiseInterceptor } from '../core/http/rollwise-interceptor';
-import { Notifier } from '../core/layout/notifier';
 import { MembersPage } from './members-page';
 
 const ANA: Me = {
@@ -20,18 +17,13 @@ const MEMBERS: TeamMember[] = [
 
 describe('MembersPage', () => {
   let backend: HttpTestingController;
-  let notifier: { error: ReturnType<typeof vi.fn>; info: ReturnType<typeof vi.fn> };
+  let notifier: FakeNotifier;
 
   beforeEach(async () => {
-    notifier = { error: vi.fn(() => Promise.resolve()), info: vi.fn(() => Promise.resolve()) };
+    notifier = fakeNotifier();
     await TestBed.configureTestingModule({
       imports: [MembersPage],
-      providers: [
-        provideRouter([]),
-        provideHttpClient(withInterceptors([rollwiseInterceptor])),
-        provideHttpClientTesting(),
-        { provide: Notifier, useValue: notifier },
-      ],
+      providers: shellTestProviders(notifier),
     }).compileComponents();
     backend = TestBed.inject(HttpTestingController);
     TestBed.inject(AuthService).refresh().subscribe();

@@ -1,10 +1,7 @@
-import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
+import { fakeNotifier, FakeNotifier, shellTestProviders } from '../../testing/shell-testing';
 import { Permission, TeamDetail, VehicleSummary } from '../core/api-types';
-import { rollwiseInterceptor } from '../core/http/rollwise-interceptor';
-import { Notifier } from '../core/layout/notifier';
 import { TeamAccess } from '../core/teams/team-access';
 import { TeamDashboardPage } from './team-dashboard-page';
 
@@ -19,18 +16,13 @@ function team(roles: TeamDetail['roles'], permissions: Permission[]): TeamDetail
 
 describe('TeamDashboardPage', () => {
   let backend: HttpTestingController;
-  let notifier: { error: ReturnType<typeof vi.fn>; info: ReturnType<typeof vi.fn> };
+  let notifier: FakeNotifier;
 
   beforeEach(async () => {
-    notifier = { error: vi.fn(() => Promise.resolve()), info: vi.fn(() => Promise.resolve()) };
+    notifier = fakeNotifier();
     await TestBed.configureTestingModule({
       imports: [TeamDashboardPage],
-      providers: [
-        provideRouter([]),
-        provideHttpClient(withInterceptors([rollwiseInterceptor])),
-        provideHttpClientTesting(),
-        { provide: Notifier, useValue: notifier },
-      ],
+      providers: shellTestProviders(notifier),
     }).compileComponents();
     backend = TestBed.inject(HttpTestingController);
   });

@@ -1,27 +1,22 @@
-import { HttpClient, HttpContext, provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpClient, HttpContext } from '@angular/common/http';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter, Router } from '@angular/router';
+import { fakeNotifier, FakeNotifier, shellTestProviders } from '../../../testing/shell-testing';
+import { Router } from '@angular/router';
 import { AuthService } from '../auth/auth-service';
 import { LoadingIndicator } from '../layout/loading-indicator';
-import { Notifier } from '../layout/notifier';
 import { SHOW_ERRORS_INLINE } from './api-error';
-import { CSRF_HEADER, rollwiseInterceptor } from './rollwise-interceptor';
+import { CSRF_HEADER } from './rollwise-interceptor';
 
 describe('rollwiseInterceptor', () => {
   let http: HttpClient;
   let backend: HttpTestingController;
-  let notifier: { error: ReturnType<typeof vi.fn>; info: ReturnType<typeof vi.fn> };
+  let notifier: FakeNotifier;
 
   beforeEach(() => {
-    notifier = { error: vi.fn(() => Promise.resolve()), info: vi.fn(() => Promise.resolve()) };
+    notifier = fakeNotifier();
     TestBed.configureTestingModule({
-      providers: [
-        provideRouter([]),
-        provideHttpClient(withInterceptors([rollwiseInterceptor])),
-        provideHttpClientTesting(),
-        { provide: Notifier, useValue: notifier },
-      ],
+      providers: shellTestProviders(notifier),
     });
     http = TestBed.inject(HttpClient);
     backend = TestBed.inject(HttpTestingController);

@@ -1,10 +1,9 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
+import { fakeNotifier, FakeNotifier, shellTestProviders } from '../../../testing/shell-testing';
 import {
   ActivatedRouteSnapshot,
   convertToParamMap,
-  provideRouter,
   Router,
   RouterStateSnapshot,
   UrlTree,
@@ -12,7 +11,6 @@ import {
 import { firstValueFrom, isObservable, Observable, of } from 'rxjs';
 import { TeamDetail } from '../api-types';
 import { AuthService } from '../auth/auth-service';
-import { Notifier } from '../layout/notifier';
 import { permissionGuard, teamMemberGuard } from './team-guards';
 
 const VIEWER_TEAM: TeamDetail = {
@@ -37,18 +35,13 @@ async function run(guard: typeof teamMemberGuard, teamId: string): Promise<boole
 
 describe('team guards', () => {
   let backend: HttpTestingController;
-  let notifier: { error: ReturnType<typeof vi.fn>; info: ReturnType<typeof vi.fn> };
+  let notifier: FakeNotifier;
 
   beforeEach(() => {
     localStorage.clear();
-    notifier = { error: vi.fn(() => Promise.resolve()), info: vi.fn(() => Promise.resolve()) };
+    notifier = fakeNotifier();
     TestBed.configureTestingModule({
-      providers: [
-        provideRouter([]),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        { provide: Notifier, useValue: notifier },
-      ],
+      providers: shellTestProviders(notifier),
     });
     backend = TestBed.inject(HttpTestingController);
   });
