@@ -36,6 +36,7 @@ export const CAUTION_CODES = [
   'lock-bump-steer-spread',
   'compliance-steer-rivals',
   'compliance-steer-unmodelled',
+  'rack-pose-unreachable',
   'safety-notice',
 ] as const;
 export type CautionCode = (typeof CAUTION_CODES)[number];
@@ -63,7 +64,7 @@ interface RuleDefinition {
 const ALIGNMENT_BASIS =
   'common practice: alignment specs hold toe to about ±0.1–0.2° per wheel (check-values.md); a bump that toes the wheel by more than that is felt';
 
-export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-steer-unmodelled' | 'safety-notice'>, RuleDefinition>> = {
+export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-steer-unmodelled' | 'rack-pose-unreachable' | 'safety-notice'>, RuleDefinition>> = {
   'bump-toe-change': {
     unit: 'deg',
     basis: ALIGNMENT_BASIS + '; tighter where landings are heavy',
@@ -129,6 +130,9 @@ export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-ste
   },
 };
 
+/** Codes of the rules that compare a measured value with thresholds. */
+export type ThresholdCautionCode = keyof typeof CAUTION_RULES;
+
 /** Default thresholds of a rule for a profile, with the intent's overrides on top. */
 export function thresholdsFor(
   code: keyof typeof CAUTION_RULES,
@@ -178,6 +182,8 @@ export interface CautionInputs {
   complianceRatio: number | null;
   /** The vehicle gives this axle's compliance steer (no "unmodelled" notice then). */
   complianceKnown?: boolean | undefined;
+  /** Rack positions the proposal cannot reach over the whole travel range. */
+  unreachableRacks?: { rackMm: number; travelMm: number | null; message: string }[] | undefined;
   thresholds?: CautionThresholds | undefined;
 }
 
@@ -268,6 +274,17 @@ export function evaluateCautions(inputs: CautionInputs): Caution[] {
       threshold: null,
       unit: '',
       basis: 'common practice (Bundorf analysis table, check-values.md)',
+    });
+  }
+  for (const u of inputs.unreachableRacks ?? []) {
+    out.push({
+      level: 'warning',
+      code: 'rack-pose-unreachable',
+      message: `At rack ${fmt(u.rackMm, 1)} mm the proposed geometry cannot reach ${u.travelMm !== null ? `travel ${fmt(u.travelMm, 1)} mm` : 'the whole travel range'}: ${u.message}. Its bump steer there is not verified.`,
+      value: u.rackMm,
+      threshold: null,
+      unit: 'mm',
+      basis: 'kinematics engine: a link cannot close at that pose',
     });
   }
   const rank: Record<CautionLevel, number> = { critical: 0, warning: 1, info: 2 };

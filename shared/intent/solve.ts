@@ -17,6 +17,7 @@ import { solveFamily, type LimitingBound } from './optimise.js';
 import { linearFitDeviation, secantRoot } from './numeric.js';
 import { asBuiltCorner, workshopNumbers, type WorkshopNumbers } from './workshop.js';
 import { pose, PoseCounter, rollSteer, steering, summary, sweep } from './link.js';
+import type { SweepRow } from '../kinematics/index.js';
 
 export type Progress = (fraction: number, message: string) => void;
 
@@ -46,6 +47,13 @@ export interface RackFit {
   maxDeviationDeg: number;
   /** Toe change over the profile's single-wheel bump at this rack position, deg. */
   bumpToeChangeDeg: number;
+}
+
+export interface UnreachableRack {
+  rackMm: number;
+  /** Travel at which the pose could not be reached, mm, when the engine names it. */
+  travelMm: number | null;
+  message: string;
 }
 
 export interface FamilyMemberOut {
@@ -89,6 +97,8 @@ export interface SolveResult {
     worstToeDeg: number;
     worstToeRackMm: number;
     byRack: RackFit[];
+    /** Rack positions where the proposal cannot reach every travel of the range (with the engine's message). */
+    unreachableRacks: UnreachableRack[];
     toeCurve: { travelMm: number; rackMm: number; toeDeg: number; camberDeg: number; halfTrackChangeMm: number }[];
   };
   /** The search's own estimate, before verification. */
@@ -184,7 +194,13 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   const worstToe = (c: Corner) => {
     let worst = 0;
     for (const r of racks) {
-      const rows = sweep(counter, c, travel, [r]).rows;
+      let rows: SweepRow[];
+      try {
+        rows = sweep(counter, c, travel, [r]).rows;
+      } catch (e) {
+        if (e instanceof SolveError && r !== 0) continue; // an unreachable rack position is reported by the verification
+        throw e;
+      }
       worst = Math.max(worst, linearFitDeviation(rows.map((x) => x.travelMm), rows.map((x) => x.toeDeg)).max);
     }
     return worst;
@@ -247,13 +263,25 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   }
 
   progress(0.7, 'verifying with the full kinematics');
-  const verification = sweep(counter, proposed, travel, racks);
+  // Rack by rack, so a rack position the proposal cannot reach over the travel is reported, not fatal (rack 0 must be reachable).
   const bump = profile.bumpHeightMm;
-  const byRack: RackFit[] = verification.fit.byRack.map((f) => {
-    const t0 = pose(counter, proposed, 0, f.rackMm).toeDeg;
-    const tb = pose(counter, proposed, bump, f.rackMm).toeDeg;
-    return { rackMm: f.rackMm, bumpSteerDegPerM: f.bumpSteerDegPerM, curvatureDegPerM2: f.curvatureDegPerM2, maxDeviationDeg: f.maxDeviationDeg, bumpToeChangeDeg: tb - t0 };
-  });
+  const byRack: RackFit[] = [];
+  const verificationRows: SweepRow[] = [];
+  const unreachableRacks: UnreachableRack[] = [];
+  for (const rack of racks) {
+    try {
+      const v = sweep(counter, proposed, travel, [rack]);
+      const f = v.fit;
+      const t0 = pose(counter, proposed, 0, rack).toeDeg;
+      const tb = pose(counter, proposed, bump, rack).toeDeg;
+      byRack.push({ rackMm: rack, bumpSteerDegPerM: f.bumpSteerDegPerM, curvatureDegPerM2: f.curvatureDegPerM2, maxDeviationDeg: f.maxDeviationDeg, bumpToeChangeDeg: tb - t0 });
+      verificationRows.push(...v.rows);
+    } catch (e) {
+      if (!(e instanceof SolveError) || rack === 0) throw e;
+      unreachableRacks.push({ rackMm: rack, message: e.message, travelMm: typeof e.details['travelMm'] === 'number' ? e.details['travelMm'] : null });
+    }
+  }
+  const verifiedRacks = byRack.map((r) => r.rackMm);
   const straight = byRack.find((r) => r.rackMm === 0)!;
   let worst = byRack[0]!;
   for (const r of byRack) if (r.maxDeviationDeg > worst.maxDeviationDeg) worst = r;
@@ -317,7 +345,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
     sensitivity[n] = (up - dn) / (2 * h);
   });
 
-  const sideEffects = sideEffectsOf(counter, current, proposed, intent.vehicle, racks, travel);
+  const sideEffects = sideEffectsOf(counter, current, proposed, intent.vehicle, verifiedRacks, travel);
 
   progress(0.9, 'workshop numbers and cautions');
   const ws = workshopNumbers(current, proposed, intent.options);
@@ -325,7 +353,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   const builtPts = asBuilt.points as Record<string, Vec3>;
   const staticToe = toeAfterShimming(counter, current, asBuilt);
 
-  const cautions = evaluateCautions(cautionInputs(counter, intent, profile, proposed, epsVerified, byRack, straight, track));
+  const cautions = evaluateCautions(cautionInputs(counter, intent, profile, proposed, epsVerified, byRack, straight, track, unreachableRacks));
 
   const pts = proposed.points as Record<string, Vec3>;
   const inner = innerName(current);
@@ -368,7 +396,8 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
       worstToeDeg: worst.maxDeviationDeg,
       worstToeRackMm: worst.rackMm,
       byRack,
-      toeCurve: verification.rows.map((r) => ({ travelMm: r.travelMm, rackMm: r.rackMm, toeDeg: r.toeDeg, camberDeg: r.camberDeg, halfTrackChangeMm: r.halfTrackChangeMm })),
+      unreachableRacks,
+      toeCurve: verificationRows.map((r) => ({ travelMm: r.travelMm, rackMm: r.rackMm, toeDeg: r.toeDeg, camberDeg: r.camberDeg, halfTrackChangeMm: r.halfTrackChangeMm })),
     },
     estimate: { rollSteerCoefficient: epsTarget + outcome.constraint, objectiveRmsDeg: outcome.objective },
     limitingBound: limiting[0] ?? null,
@@ -449,12 +478,23 @@ function sideEffectsOf(
   const rcAfter = rollCentreHeight(counter, after);
   const a0 = articulation(counter, before, racks, travel);
   const a1 = articulation(counter, after, racks, travel);
+  const rc = () => (rcBefore !== null && rcAfter !== null ? { before: rcBefore, after: rcAfter, change: rcAfter - rcBefore } : null);
+  const art = () => ({ inner: { before: a0.inner, after: a1.inner }, outer: { before: a0.outer, after: a1.outer } });
   let sr: SideEffects['steeringRatioDegPerMm'] = null;
   let ack: SideEffects['ackermannPct'] = null;
   if (before.steered) {
     // Five rack positions: stroke ends, half strokes and straight ahead; Ackermann at the half stroke to the left (kinematics engine).
-    const sb = steering(counter, before, vehicle?.wheelbaseMm, 5)!;
-    const sa = steering(counter, after, vehicle?.wheelbaseMm, 5)!;
+    let sb: ReturnType<typeof steering>;
+    let sa: ReturnType<typeof steering>;
+    try {
+      sb = steering(counter, before, vehicle?.wheelbaseMm, 5)!;
+      sa = steering(counter, after, vehicle?.wheelbaseMm, 5)!;
+    } catch (e) {
+      // A stroke the linkage cannot reach at design height: no steering side effects (the rack cautions say where).
+      if (e instanceof SolveError) return { steeringRatioDegPerMm: null, ackermannPct: null, rollCentreHeightMm: rc(), ballJointArticulationDeg: art() };
+      throw e;
+    }
+    if (!sb || !sa) return { steeringRatioDegPerMm: null, ackermannPct: null, rollCentreHeightMm: rc(), ballJointArticulationDeg: art() };
     sr = { before: sb.steeringRatioDegPerMm, after: sa.steeringRatioDegPerMm, change: sa.steeringRatioDegPerMm - sb.steeringRatioDegPerMm };
     const rb = sb.rows[3]!;
     const ra = sa.rows[3]!;
@@ -462,12 +502,7 @@ function sideEffectsOf(
       ack = { before: rb.ackermannPercent, after: ra.ackermannPercent, change: ra.ackermannPercent - rb.ackermannPercent, rackMm: rb.rackMm };
     }
   }
-  return {
-    steeringRatioDegPerMm: sr,
-    ackermannPct: ack,
-    rollCentreHeightMm: rcBefore !== null && rcAfter !== null ? { before: rcBefore, after: rcAfter, change: rcAfter - rcBefore } : null,
-    ballJointArticulationDeg: { inner: { before: a0.inner, after: a1.inner }, outer: { before: a0.outer, after: a1.outer } },
-  };
+  return { steeringRatioDegPerMm: sr, ackermannPct: ack, rollCentreHeightMm: rc(), ballJointArticulationDeg: art() };
 }
 
 function rollCentreHeight(counter: PoseCounter, c: Corner): number | null {
@@ -497,7 +532,13 @@ function articulation(counter: PoseCounter, c: Corner, racks: number[], travel: 
   let maxOut = 0;
   for (const r of racks) {
     for (const t of [travel.from, 0, travel.to]) {
-      const ps = pose(counter, c, t, r);
+      let ps: ReturnType<typeof pose>;
+      try {
+        ps = pose(counter, c, t, r);
+      } catch (e) {
+        if (e instanceof SolveError) continue; // reported by the rack cautions
+        throw e;
+      }
       const R = ps.state.R;
       const l: Vec3 = [outer[0] - wc[0], outer[1] - wc[1], outer[2] - wc[2]];
       const o: Vec3 = [
@@ -526,6 +567,7 @@ function cautionInputs(
   byRack: RackFit[],
   straight: RackFit,
   track: number,
+  unreachableRacks: UnreachableRack[],
 ) {
   const bump = profile.bumpHeightMm;
   let worstBump = byRack[0]!;
@@ -595,6 +637,7 @@ function cautionInputs(
     lockBumpSteerRackMm: spreadRack,
     complianceRatio,
     complianceKnown,
+    unreachableRacks,
     thresholds: intent.cautionThresholds,
   };
 }

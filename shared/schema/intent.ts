@@ -83,7 +83,7 @@ export const intentSchema = z
     vehicle: z.preprocess(upgradeVehicleDocument, vehicleSchema).optional(),
     options: intentOptionsSchema.default(() => intentOptionsSchema.parse({})),
     /** Per-vehicle overrides of the caution thresholds, by caution code. */
-    cautionThresholds: z.partialRecord(z.enum(CAUTION_CODES.filter((c) => c !== 'safety-notice' && c !== 'compliance-steer-unmodelled') as [string, ...string[]]), levelThresholdsSchema).optional(),
+    cautionThresholds: z.partialRecord(z.enum(CAUTION_CODES.filter((c) => c !== 'safety-notice' && c !== 'compliance-steer-unmodelled' && c !== 'rack-pose-unreachable') as [string, ...string[]]), levelThresholdsSchema).optional(),
   })
   .superRefine((intent, ctx) => {
     const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });

@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { CAUTION_RULES, evaluateCautions, thresholdsFor, type CautionInputs, type CautionCode } from '../../../shared/intent/cautions.js';
+import { CAUTION_RULES, evaluateCautions, thresholdsFor, type CautionInputs, type ThresholdCautionCode } from '../../../shared/intent/cautions.js';
 import { resolveTrackProfile, trackProfiles } from '../../../shared/intent/profiles.js';
 
 const quiet = (over: Partial<CautionInputs> = {}): CautionInputs => ({
@@ -43,7 +43,7 @@ describe('caution rules', () => {
   });
 
   // [code, inputs producing value v, profile]
-  const cases: Array<[Exclude<CautionCode, 'compliance-steer-unmodelled' | 'safety-notice'>, (v: number) => Partial<CautionInputs>, Partial<CautionInputs>]> = [
+  const cases: Array<[ThresholdCautionCode, (v: number) => Partial<CautionInputs>, Partial<CautionInputs>]> = [
     ['bump-toe-change', (v) => ({ bumpToeChangeDeg: v, corneringCoefficientPerDeg: 0 }), {}],
     ['bump-lateral-force', (v) => ({ bumpToeChangeDeg: v / 0.2 }), { profile: resolveTrackProfile({ id: 'smooth-circuit' }) }],
     ['bump-lateral-scrub', (v) => ({ bumpScrubMm: v }), {}],
@@ -92,6 +92,14 @@ describe('caution rules', () => {
     expect(codes(quiet({ profile: resolveTrackProfile('rough-road') }))).toContain('compliance-steer-unmodelled:info');
     expect(codes(quiet({ profile: resolveTrackProfile('rough-road'), complianceKnown: true }))).not.toContain('compliance-steer-unmodelled:info');
     expect(codes(quiet())).not.toContain('compliance-steer-unmodelled:info');
+  });
+
+  it('a rack position the proposal cannot reach is a warning naming the rack and travel', () => {
+    const u = { rackMm: 30, travelMm: 25, message: 'Pose unreachable at travel 25 mm, rack 30 mm: the tie rod cannot close' };
+    const c = evaluateCautions(quiet({ unreachableRacks: [u] })).find((x) => x.code === 'rack-pose-unreachable');
+    expect(c?.level).toBe('warning');
+    expect(c?.message).toMatch(/rack 30\.0 mm.*travel 25\.0 mm/);
+    expect(codes(quiet({ unreachableRacks: [] })).some((x) => x.startsWith('rack-pose-unreachable'))).toBe(false);
   });
 
   it('per-vehicle thresholds override the defaults', () => {

@@ -329,3 +329,17 @@ describe('travel beyond the corner', () => {
     );
   });
 });
+
+describe('rack positions the linkage cannot reach', () => {
+  it('are reported with a caution, left out of the worst toe, and do not stop the solve', () => {
+    const corner = structuredClone(exampleCorners.fsFrontWishbone) as Corner;
+    if (corner.steering?.kind !== 'rack') throw new Error('expected a rack');
+    corner.steering.rackStroke = [-30, 120]; // beyond what the tie rod can follow (the kinematics engine says where)
+    const r = solve({ corner, axle: 'front', target: { rollSteerCoefficient: 0.02 }, movable: ['tieRodInner.z', 'tieRodOuter.z'], bounds: around(corner, 20), trackProfile: 'smooth-circuit', options: { rackPositionsMm: [-30, 110], worstToeBoundDeg: 1 } });
+    expect(r.feasible).toBe(true);
+    expect(r.achieved.unreachableRacks.map((u) => u.rackMm)).toEqual([110]);
+    expect(r.achieved.byRack.map((b) => b.rackMm)).toEqual([0, -30]);
+    expect(r.cautions.find((c) => c.code === 'rack-pose-unreachable')?.value).toBe(110);
+    expect(Math.abs(rollSteerCoefficient(r.corner) - 0.02)).toBeLessThan(ROUND_TRIP_TOL);
+  });
+});
