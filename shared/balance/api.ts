@@ -40,8 +40,8 @@ const caseSchema = {
 
 export const balanceRequestSchema = z.strictObject({
   ...caseSchema,
-  /** Speed of the step steer, km/h. */
-  speedKph: finite.positive().max(400).optional(),
+  /** Speed of the step steer, km/h. Below walking pace the transient model's 1/V terms make it singular. */
+  speedKph: finite.min(1, 'speedKph must be at least 1 km/h (the step-steer model divides by the speed)').max(400).optional(),
   /** Corner radius: sets the steer (and so the rack position) at which the kinematics are read, and the steer curve's radius, m. */
   cornerRadiusM: finite.positive().min(2).max(10000).optional(),
   lateralAccelerationG: finite.min(0).max(2).optional(),

@@ -56,3 +56,13 @@ describe('a vehicle with no valid lateral-acceleration range', () => {
     }
   });
 });
+
+describe('a step-steer speed close to zero', () => {
+  // Also found by fuzzing: 1e-170 km/h passed `positive()` and the transient model failed with "singular matrix".
+  it('is refused at the door, naming speedKph', () => {
+    for (const speedKph of [1e-170, 0.01, 0.5]) {
+      expect(() => computeBalance({ vehicle: exampleVehicles.tur26Ember, speedKph })).toThrow(/^Invalid balance request: speedKph: speedKph must be at least 1 km\/h/);
+    }
+    expect(computeBalance({ vehicle: exampleVehicles.tur26Ember, speedKph: 1 }).stepSteer.speedKph).toBe(1);
+  });
+});
