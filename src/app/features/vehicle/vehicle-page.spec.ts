@@ -1,0 +1,121 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
+import { provideRouter } from '@angular/router';
+import { RouterTestingHarness } from '@angular/router/testing';
+import { exampleVehicles } from '../../../../shared/balance/examples';
+import { VehiclePage } from './vehicle-page';
+
+const URL = '/teams/t-tal/vehicles/v-ember';
+const settle = () => new Promise((resolve) => setTimeout(resolve, 0));
+
+function record(revision: number, data: unknown = exampleVehicles.tur26Ember) {
+  return { id: 'v-ember', name: 'TUR-26 Ember', archived: false, revision, data, updatedAt: '2026-12-01T10:00:00.000Z', updatedByName: 'Eli Marsh' };
+}
+
+describe('VehiclePage', () => {
+  let backend: HttpTestingController;
+
+  beforeEach(async () => {
+    await TestBed.configureTestingModule({
+      providers: [provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId', component: VehiclePage }]), provideHttpClient(), provideHttpClientTesting()],
+    }).compileComponents();
+    backend = TestBed.inject(HttpTestingController);
+  });
+
+  afterEach(() => backend.verify());
+
+  async function open(permissions: string[]) {
+    const harness = await RouterTestingHarness.create();
+    await harness.navigateByUrl(URL, VehiclePage);
+    backend.expectOne('/api/teams/t-tal/vehicles/v-ember').flush(record(4));
+    backend.expectOne('/api/teams/t-tal').flush({ id: 't-tal', name: 'Tallowmere University Racing', slug: 'tallowmere', roles: [], permissions });
+    await settle();
+    backend.expectOne('/api/teams/t-tal/vehicles/v-ember/axle-designs').flush([
+      { id: 'd1', axle: 'front', name: 'Front baseline', revision: 1, status: 'draft', updatedAt: '2026-12-01T10:00:00.000Z' },
+      { id: 'd2', axle: 'rear', name: 'Rear baseline', revision: 2, status: 'approved', updatedAt: '2026-12-01T10:00:00.000Z' },
+    ]);
+    backend.expectOne('/api/teams/t-tal/vehicles/v-ember/revisions').flush([
+      { revision: 4, message: 'Springs', authorName: 'Eli Marsh', createdAt: '2026-12-01T10:00:00.000Z' },
+    ]);
+    await settle();
+    harness.detectChanges();
+    return { harness, root: harness.routeNativeElement as HTMLElement };
+  }
+
+  function field(root: HTMLElement, label: string): HTMLInputElement {
+    const formField = [...root.querySelectorAll('mat-form-field')].find((f) => f.querySelector('mat-label')?.textContent?.trim() === label)!;
+    return formField.querySelector('input')!;
+  }
+
+  function unitOf(root: HTMLElement, label: string): string {
+    const formField = [...root.querySelectorAll('mat-form-field')].find((f) => f.querySelector('mat-label')?.textContent?.trim() === label)!;
+    return formField.querySelector('.rw-unit')!.textContent!.trim();
+  }
+
+  it('shows the axle designs by axle and the stored values with their SI units', async () => {
+    const { root } = await open(['team:read', 'vehicle:edit']);
+    const tables = [...root.querySelectorAll('.rw-design-table')];
+    expect(tables.map((t) => t.querySelector('caption')!.textContent!.trim())).toEqual(['Front axle', 'Rear axle']);
+    expect(tables[1]!.textContent).toContain('Rear baseline');
+    expect(Number(field(root, 'Total mass').value)).toBe(exampleVehicles.tur26Ember.massKg);
+    expect(unitOf(root, 'Wheelbase')).toBe('mm');
+    expect(root.textContent).toContain('Revision 4 · Eli Marsh');
+  });
+
+  it('shows inch/pound values on request and saves them converted back to SI', async () => {
+    const { harness, root } = await open(['team:read', 'vehicle:edit']);
+    const toggle = [...root.querySelectorAll('mat-button-toggle button')].find((b) => b.textContent?.includes('Inch'))! as HTMLButtonElement;
+    toggle.click();
+    await vi.waitFor(() => {
+      harness.detectChanges();
+      if (unitOf(root, 'Wheelbase') !== 'in') throw new Error('not converted yet');
+    });
+    // 1 in = 25.4 mm exactly.
+    expect(Number(field(root, 'Wheelbase').value)).toBeCloseTo(exampleVehicles.tur26Ember.wheelbaseMm / 25.4, 3);
+    const wheelbase = field(root, 'Wheelbase');
+    wheelbase.value = '62';
+    wheelbase.dispatchEvent(new Event('input'));
+    harness.detectChanges();
+    (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
+    const req = backend.expectOne('/api/teams/t-tal/vehicles/v-ember/data');
+    expect(req.request.method).toBe('PUT');
+    expect(req.request.body.baseRevision).toBe(4);
+    expect(req.request.body.data.wheelbaseMm).toBeCloseTo(62 * 25.4, 6);
+    expect(req.request.body.data.massKg).toBeCloseTo(exampleVehicles.tur26Ember.massKg, 3);
+    req.flush(record(5, req.request.body.data));
+    await settle();
+    backend.expectOne('/api/teams/t-tal/vehicles/v-ember/revisions').flush([]);
+    harness.detectChanges();
+    expect(root.textContent).toContain('Saved as revision 5.');
+  });
+
+  it('names a bad entry and saves nothing', async () => {
+    const { harness, root } = await open(['team:read', 'vehicle:edit']);
+    const cg = field(root, 'CG behind the front axle');
+    cg.value = '99999';
+    cg.dispatchEvent(new Event('input'));
+    const mass = field(root, 'Total mass');
+    mass.value = 'heavy';
+    mass.dispatchEvent(new Event('input'));
+    harness.detectChanges();
+    (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
+    harness.detectChanges();
+    expect(root.textContent).toContain('Total mass must be a number');
+    expect(root.textContent).toContain('nothing was saved');
+    mass.value = String(exampleVehicles.tur26Ember.massKg);
+    mass.dispatchEvent(new Event('input'));
+    (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
+    harness.detectChanges();
+    // The schema's own rule (CG ahead of the rear axle) is shown beside its field.
+    expect(root.textContent).toContain('must be less than wheelbaseMm');
+    backend.expectNone('/api/teams/t-tal/vehicles/v-ember/data');
+  });
+
+  it('gives a viewer the values read only', async () => {
+    const { root } = await open(['team:read']);
+    expect(field(root, 'Total mass').disabled).toBe(true);
+    expect(root.querySelector('button[type="submit"]')).toBeNull();
+    expect(root.textContent).toContain('Read only');
+  });
+});
