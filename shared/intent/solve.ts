@@ -9,7 +9,7 @@ import { innerName, outerName, steeringStrokeMm, type Intent } from '../schema/i
 import type { Vehicle } from '../schema/vehicle.js';
 import { rollSteerUndersteerDegPerG, suspensionRollGradients } from '../balance/index.js';
 import { ENGINE_VERSION } from '../version.js';
-import { SolveError } from '../errors.js';
+import { InputError, SolveError } from '../errors.js';
 import { evaluateCautions, SAFETY_CAUTION, type Caution } from './cautions.js';
 import { resolveTrackProfile, type TrackProfile } from './profiles.js';
 import { applyCoordinates, readCoordinates } from './coordinates.js';
@@ -160,7 +160,14 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   const dKdEps = gradients ? (intent.axle === 'front' ? gradients.frontDegPerG : -gradients.rearDegPerG) : null;
   let epsTarget: number;
   if ('rollSteerCoefficient' in intent.target) epsTarget = intent.target.rollSteerCoefficient;
-  else if ('understeerChangeDegPerG' in intent.target) epsTarget = epsCurrent + intent.target.understeerChangeDegPerG / dKdEps!;
+  else if ('understeerChangeDegPerG' in intent.target) {
+    if (dKdEps === null || !(Math.abs(dKdEps) > 1e-9)) {
+      throw new InputError('target.understeerChangeDegPerG: the vehicle has no suspension roll on this axle, so roll steer cannot change its understeer', [
+        { path: 'target.understeerChangeDegPerG', message: 'suspension roll gradient is zero' },
+      ]);
+    }
+    epsTarget = epsCurrent + intent.target.understeerChangeDegPerG / dKdEps;
+  }
   else epsTarget = 0;
 
   const names = intent.movable;
