@@ -5,7 +5,7 @@
 export { exampleCorners, type ExampleCornerName } from './examples.js';
 export { compileCorner, type CornerModel, type Side } from './model.js';
 export { CornerSolver, RESIDUAL_TOL_MM, type SolveDiagnostics } from './solver.js';
-export { poseOutputs, kingpinAxis, type PoseResult, type KingpinAxis } from './pose.js';
+export { poseOutputs, poseRow, kingpinAxis, type PoseResult, type PoseRow, type KingpinAxis } from './pose.js';
 export {
   solvePose,
   posedHardpoints,
