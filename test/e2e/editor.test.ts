@@ -161,6 +161,61 @@ describe('Axle design editor in Chromium', () => {
     await theirs.close();
   });
 
+  it('can be worked by keyboard alone: reach a coordinate, change it, undo, redo and save', async () => {
+    const page = await browser.newPage();
+    await signIn(page, app.baseUrl, 'designer@tallowmere.example');
+    await page.goto(app.baseUrl + designPath);
+    await page.locator('[data-testid="toe-chart"] path.rw-series-line').first().waitFor();
+    const revision = Number(/Revision (\d+)/.exec(await page.getByTestId('revision').innerText())![1]);
+    const focusedLabel = () => page.evaluate(() => document.activeElement?.getAttribute('aria-label') ?? document.activeElement?.textContent?.trim() ?? '');
+
+    // Tab from the top of the page to the tie-rod inner z cell.
+    await page.locator('body').focus();
+    let steps = 0;
+    while ((await focusedLabel()) !== TIE_ROD_INNER_Z) {
+      await page.keyboard.press('Tab');
+      if (++steps > 120) throw new Error('the tie-rod inner z cell is not reachable by Tab');
+    }
+    const before = await rackZeroBumpSteer(page);
+    const z = Number(await page.getByLabel(TIE_ROD_INNER_Z).inputValue());
+    await page.keyboard.press('Control+A');
+    await page.keyboard.type(String(z + 5));
+    await page.keyboard.press('Enter');
+    await page.waitForFunction(
+      (b) => document.querySelector('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]')?.textContent?.trim() !== b,
+      before,
+    );
+
+    // Back up to the toolbar: Undo, then Redo, then Save revision, by keyboard.
+    const reach = async (name: string) => {
+      let n = 0;
+      while ((await focusedLabel()) !== name) {
+        await page.keyboard.press('Shift+Tab');
+        if (++n > 120) throw new Error(`"${name}" is not reachable by Shift+Tab`);
+      }
+    };
+    await reach('Save revision');
+    await reach('Undo');
+    await page.keyboard.press('Enter');
+    await page.waitForFunction(
+      (b) => document.querySelector('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]')?.textContent?.trim() === b,
+      before,
+    );
+    await page.keyboard.press('Tab'); // Redo
+    await page.keyboard.press('Enter');
+    await page.getByText('1 point(s) changed since revision').waitFor();
+    let n = 0;
+    while ((await focusedLabel()) !== 'Save revision') {
+      await page.keyboard.press('Tab');
+      if (++n > 20) throw new Error('"Save revision" is not reachable by Tab from Redo');
+    }
+    await page.keyboard.press('Enter');
+    await page.getByText(`Saved as revision ${revision + 1}.`).waitFor();
+    await saveScreenshot(page, 'editor-keyboard');
+    expect(consoleErrors(page)).toEqual([]);
+    await page.close();
+  });
+
   it('shows the viewer the design with no edit controls', async () => {
     const page = await browser.newPage();
     await signIn(page, app.baseUrl, 'viewer@tallowmere.example');
