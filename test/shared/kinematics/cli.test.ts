@@ -1,4 +1,4 @@
-/** The rollwise sweep / roll commands, spawned as a user would run them (issue 3, "Command line"). */
+/** The rollwise sweep / roll commands, spawned as a user would run them. Source: issue 3, "Interfaces: Command line" (JSON shape, exit 2 naming the field, exit 3 with the travel). */
 import { describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync, readFileSync } from 'node:fs';

@@ -70,6 +70,7 @@ describe('pose solver', () => {
   });
 
   it('reports convergence diagnostics and solves the design pose with zero iterations', () => {
+    // Source: issue 3 / conventions.md (result objects carry converged, iterations, residual); the design pose satisfies every constraint by construction (derived).
     const p = solvePose(exampleCorners.roadFrontStrut, { travelMm: 0 });
     expect(p.diagnostics.iterations).toBe(0);
     expect(p.diagnostics.residualMm).toBeLessThan(1e-12);
@@ -83,6 +84,7 @@ describe('pose solver', () => {
   });
 
   it('an unreachable pose is a SolveError naming travel, rack and the link, never NaN', () => {
+    // Source: domain.md "A pose that cannot be reached ... is an error with the travel at which it happened, never NaN"; a 300 mm arm cannot lift its joint 400 mm (derived).
     const c = planarWishbone({ tieRodInner: [-100, 300, 200] });
     let err: unknown;
     try {
@@ -100,6 +102,7 @@ describe('pose solver', () => {
   });
 
   it('analytic tangents agree with finite differences (toe and camber gradients, motion ratios)', () => {
+    // Source: central differences of the solved poses (common practice), independent of the analytic tangent.
     for (const c of Object.values(exampleCorners)) {
       const h = 1e-3;
       const a = solvePose(c, { travelMm: 10 - h });
@@ -138,6 +141,7 @@ describe('pose solver', () => {
   });
 
   it('a five-link kingpin is the instantaneous steering axis', () => {
+    // Source: issue 3 (five-link kingpin = instantaneous steering axis); screw-axis definition from memory: points on the axis move only along it.
     const c = exampleCorners.roadRearFiveLink;
     const m = compileCorner(c);
     const s = new CornerSolver(m);
@@ -157,6 +161,7 @@ describe('pose solver', () => {
 
 describe('sweeps, fits and the axle', () => {
   it('polyFit recovers a known quadratic', () => {
+    // Source: derived (exact data of a known polynomial).
     const xs = [-2, -1, 0, 1, 2, 3];
     const ys = xs.map((x) => 1.5 - 0.25 * x + 0.75 * x * x);
     const [b0, b1, b2] = polyFit(xs, ys, true);
@@ -166,6 +171,7 @@ describe('sweeps, fits and the axle', () => {
   });
 
   it('sweep rows are grouped by rack and ordered by travel; fits per rack', () => {
+    // Source: issue 3 (505-pose sweep: 101 travel points × 5 racks, fit per rack); slope vs analytic gradient derived.
     const sw = sweepCorner(exampleCorners.fsFrontWishbone, { travel: { from: -25, to: 25, step: 0.5 }, rackMm: [-20, -10, 0, 10, 20] });
     expect(sw.rows).toHaveLength(505);
     expect(sw.rows[0]!.rackMm).toBe(-20);
@@ -187,6 +193,7 @@ describe('sweeps, fits and the axle', () => {
   });
 
   it('roll sweep: ε and roll camber agree with central differences of the rows', () => {
+    // Source: domain.md definitions of ε and the roll camber coefficient, checked by central differences (common practice).
     const r = rollSweep(exampleCorners.roadFrontStrut, { roll: { from: -3, to: 3, step: 0.1 }, rackMm: [0, 30], wheelbaseMm: 2650 });
     expect(r.rows).toHaveLength(122);
     const at = (rack: number, phi: number) => r.rows.find((x) => x.rackMm === rack && Math.abs(x.rollDeg - phi) < 1e-9)!;
@@ -207,6 +214,7 @@ describe('sweeps, fits and the axle', () => {
   });
 
   it('explicit right corner equal to the mirror gives the same roll result', () => {
+    // Source: domain.md (the right corner is the mirror unless given explicitly; rack mapping r·(u_x, −u_y, u_z)).
     const left = exampleCorners.fsFrontWishbone;
     const right = structuredClone(left) as Corner;
     const flip = (o: any): any =>
@@ -232,6 +240,7 @@ describe('sweeps, fits and the axle', () => {
   });
 
   it('axle: symmetric instant centres, roll centre on the centreline, anti-dive sign, steering ratio and Ackermann', () => {
+    // Source: symmetry of a mirrored axle (derived); anti-dive positive with the side-view IC behind and above the front contact patch (Gillespie, from memory); overall ratio = handwheel deg / wheel deg (common practice).
     const ak = axleKinematics(exampleCorners.roadFrontStrut, { wheelbaseMm: 2650, anti: { axle: 'front', cgHeightMm: 550, wheelbaseMm: 2650, brakeFrontFraction: 0.7 }, rackMmPerHandwheelRev: 50 });
     expect(ak.left.frontViewIc.yMm!).toBeCloseTo(-ak.right.frontViewIc.yMm!, 9);
     expect(ak.rollCentreYMm!).toBeCloseTo(0, 9);
@@ -253,6 +262,7 @@ describe('sweeps, fits and the axle', () => {
   });
 
   it('rackForAxleSteer inverts the mean steer angle', () => {
+    // Source: derived (round trip through solvePose of both wheels; δ̄ = (δ_L + δ_R)/2 from domain.md).
     const c = exampleCorners.roadFrontStrut;
     const rack = rackForAxleSteer(c, 12);
     const l = solvePose(c, { travelMm: 0, rackMm: rack });
@@ -265,6 +275,7 @@ describe('sweeps, fits and the axle', () => {
 
 describe('request API', () => {
   it('validates, caps poses and returns plain JSON', () => {
+    // Source: issue 3 (same zod schemas, caps on poses per request, JSON-safe results).
     const res = computeCornerSweep({ corner: exampleCorners.fsRearWishbone, travel: { from: -25, to: 25, step: 5 } });
     expect(JSON.stringify(JSON.parse(JSON.stringify(res)))).toBe(JSON.stringify(res));
     expect(JSON.stringify(res)).not.toMatch(/null|NaN/);
@@ -285,6 +296,7 @@ describe('request API', () => {
 
 describe('posedHardpoints', () => {
   it('moves upright points rigidly, keeps body points and carries the tie-rod inner point with the rack', async () => {
+    // Source: derived (rigid upright, body-fixed pivots, rack displacement along rackAxis per domain.md).
     const { posedHardpoints } = await import('../../../shared/kinematics/index.js');
     const c = exampleCorners.fsFrontWishbone;
     const p = posedHardpoints(c, { travelMm: 15, rackMm: 12 });
