@@ -343,3 +343,23 @@ describe('rack positions the linkage cannot reach', () => {
     expect(Math.abs(rollSteerCoefficient(r.corner) - 0.02)).toBeLessThan(ROUND_TRIP_TOL);
   });
 });
+
+describe('steering-box arm', () => {
+  it('rack.z raises the arm axis with the tie-rod inner point, and the target is met', () => {
+    const corner = structuredClone(exampleCorners.fsFrontWishbone) as Corner;
+    const p = corner.points as Record<string, Vec3>;
+    // An idler-style arm swinging about a vertical axis 60 mm inboard of the tie-rod inner point (invented layout).
+    corner.steering = { kind: 'arm', armAxisPoint: [p['tieRodInner']![0], p['tieRodInner']![1] - 60, 100], armAxisDirection: [0, 0, 1], angularStrokeDeg: [-20, 20] };
+    const bounds = { 'rack.z': [-10, 10] as [number, number], 'tieRodOuter.z': [p['tieRodOuter']![2] - 15, p['tieRodOuter']![2] + 15] as [number, number] };
+    const r = solve({ corner, axle: 'front', target: { rollSteerCoefficient: 0.03 }, movable: ['rack.z', 'tieRodOuter.z'], bounds, trackProfile: 'smooth-circuit' });
+    expect(r.feasible).toBe(true);
+    const dz = r.coordinates.find((c) => c.name === 'rack.z')!.proposedMm;
+    expect(r.corner.steering?.kind).toBe('arm');
+    if (r.corner.steering?.kind === 'arm') expect(r.corner.steering.armAxisPoint[2]).toBeCloseTo(100 + dz, 12);
+    expect(r.geometry.tieRodInner[2]).toBeCloseTo(p['tieRodInner']![2] + dz, 12);
+    expect(Math.abs(rollSteerCoefficient(r.corner) - 0.03)).toBeLessThan(ROUND_TRIP_TOL);
+    // Rack positions of an arm are its arc travel at the stroke ends: 60 mm × 20° × π/180
+    const arc = (60 * 20 * Math.PI) / 180;
+    expect(r.achieved.byRack.map((b) => b.rackMm).sort((a, b) => a - b).map((x) => +x.toFixed(6))).toEqual([-arc, 0, arc].map((x) => +x.toFixed(6)));
+  });
+});
