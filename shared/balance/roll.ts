@@ -173,10 +173,12 @@ export function evaluateRoll(v: Vehicle): RollModel {
   const phiPerMps2 = rollGradientRadPerMps2(mass.sprungMassKg, h1, kTotal, gravityTerm);
   const gravityNmPerRad = gravityTerm ? mass.sprungMassKg * G * h1 : 0;
   if (!(kTotal - gravityNmPerRad > 0)) {
-    const message = `total roll stiffness ${(kTotal * DEG).toFixed(1)} N·m/deg does not exceed the sprung mass's gravity term ${(gravityNmPerRad * DEG).toFixed(1)} N·m/deg: the body has no stable roll angle`;
+    // The message names the fields, so it reads on its own wherever the error is relayed.
+    const message = `front and rear roll stiffness, ${(kTotal * DEG).toFixed(1)} N·m/deg in total, does not exceed the sprung mass's gravity term ${(gravityNmPerRad * DEG).toFixed(1)} N·m/deg: the body has no stable roll angle (check cgHeightMm and the roll-centre heights too)`;
     throw new InputError(message, [
       { path: 'front', message: 'roll stiffness too low for the sprung mass and its height above the roll axis' },
       { path: 'rear', message: 'roll stiffness too low for the sprung mass and its height above the roll axis' },
+      { path: 'cgHeightMm', message: 'sets the sprung mass height above the roll axis' },
     ]);
   }
   const phiPerG = phiPerMps2 * G; // rad per g

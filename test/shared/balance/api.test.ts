@@ -140,7 +140,7 @@ describe('fixtures and solve errors', () => {
 });
 
 describe('errors name the request field', () => {
-  it('a vehicle whose roll stiffness cannot hold the body: InputError on vehicle.front / vehicle.rear', () => {
+  it('a vehicle whose roll stiffness cannot hold the body: InputError on vehicle.front / vehicle.rear (and the CG height)', () => {
     const v = structuredClone(exampleVehicles.brackenfieldB3);
     v.front.rollStiffnessNmPerDeg = 1;
     v.rear.rollStiffnessNmPerDeg = 1;
@@ -149,7 +149,7 @@ describe('errors name the request field', () => {
       throw new Error('expected an InputError');
     } catch (e) {
       expect(e).toBeInstanceOf(InputError);
-      expect((e as InputError).issues.map((i) => i.path)).toEqual(['vehicle.front', 'vehicle.rear']);
+      expect((e as InputError).issues.map((i) => i.path)).toEqual(['vehicle.front', 'vehicle.rear', 'vehicle.cgHeightMm']);
     }
     try {
       computeBalance({ vehicle: exampleVehicles.brackenfieldB3, sensitivity: false, variant: { vehicle: v } });

@@ -66,3 +66,21 @@ describe('a step-steer speed close to zero', () => {
     expect(computeBalance({ vehicle: exampleVehicles.tur26Ember, speedKph: 1 }).stepSteer.speedKph).toBe(1);
   });
 });
+
+describe('a body with no stable roll angle', () => {
+  // Found by fuzzing: relayed without a prefix (the intent solver passes it on), the old message named no field.
+  it('the message itself names the axles and cgHeightMm', async () => {
+    const { InputError } = await import('../../../shared/errors.js');
+    const v = structuredClone(exampleVehicles.tur26Ember);
+    v.cgHeightMm = 9e15;
+    let err: unknown;
+    try {
+      evaluateBalance(v);
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(InputError);
+    expect((err as Error).message).toMatch(/^front and rear roll stiffness, [\d.]+ N·m\/deg in total, does not exceed/);
+    expect((err as InstanceType<typeof InputError>).issues.map((i) => i.path)).toEqual(['front', 'rear', 'cgHeightMm']);
+  });
+});
