@@ -299,7 +299,7 @@ export interface RollRow {
   /** Camber relative to the body, deg. */
   leftCamberDeg: number;
   rightCamberDeg: number;
-  /** Mean lean of the wheel tops toward the outside of the turn relative to the ground, (γ_out − γ_in)/2, deg. */
+  /** (γ_out − γ_in)/2 with γ_out = γ_R + φ, γ_in = γ_L − φ (domain.md): mean lean of the wheel tops relative to the ground toward −y (the outside of a left turn, φ > 0), deg. */
   rollCamberDeg: number;
   /** Kinematic roll centre in the body frame, mm; null when the lines are parallel. */
   rollCentreHeightMm: number | null;
