@@ -11,6 +11,8 @@ import { TRACK_PROFILE_IDS, trackProfiles } from '../intent/profiles.js';
 import { CAUTION_CODES } from '../intent/cautions.js';
 
 export const INTENT_FORMAT_VERSION = 1 as const;
+/** Largest number of travel points per sweep a solve accepts (it runs dozens of sweeps). */
+export const MAX_SWEEP_POINTS_PER_SOLVE = 201;
 
 /**
  * A movable coordinate: `<point>.<axis>` for a tie-rod (or five-link toe-link)
@@ -113,6 +115,9 @@ export const intentSchema = z
     const stepMm = intent.options.travelStepMm;
     if (stepMm !== undefined && (travel[1] - travel[0]) / stepMm < 4) {
       issue(['options', 'travelStepMm'], `options.travelStepMm ${stepMm} mm leaves fewer than five sweep points over the travel range [${travel[0]}, ${travel[1]}] mm`);
+    }
+    if (stepMm !== undefined && (travel[1] - travel[0]) / stepMm > MAX_SWEEP_POINTS_PER_SOLVE - 1) {
+      issue(['options', 'travelStepMm'], `options.travelStepMm ${stepMm} mm gives more than ${MAX_SWEEP_POINTS_PER_SOLVE} sweep points over [${travel[0]}, ${travel[1]}] mm; a solve runs dozens of sweeps`);
     }
     const st = intent.corner.steering;
     const stroke = st?.kind === 'rack' ? st.rackStroke : st?.kind === 'arm' ? armStrokeMm(intent.corner) : null;

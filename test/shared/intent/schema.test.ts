@@ -56,6 +56,7 @@ describe('intent validation names the field', () => {
     ['a rack position outside the stroke', (i) => (i['options'] = { rackPositionsMm: [45] }), 'options.rackPositionsMm[0]'],
     ['a bad corner point', (i) => (i['corner'] = { ...exampleCorners.fsFrontWishbone, points: { ...exampleCorners.fsFrontWishbone.points, tieRodOuter: [-55, 210, 141.5] } }), /corner\.points\.tieRodOuter/],
     ['a travel step too coarse for a fit', (i) => (i['options'] = { travelStepMm: 20 }), 'options.travelStepMm'],
+    ['a travel step so fine the solve would run away', (i) => (i['options'] = { travelStepMm: 0.1 }), 'options.travelStepMm'],
     ['a negative shim', (i) => (i['options'] = { shimThicknessMm: -1 }), 'options.shimThicknessMm'],
   ];
   for (const [what, mutate, path] of cases) {
