@@ -310,3 +310,36 @@ describe('posedHardpoints', () => {
     expect(L('upperOuter', 'lowerOuter', p)).toBeCloseTo(L('upperOuter', 'lowerOuter', design), 9);
   });
 });
+
+describe('steering-box arm on both sides', () => {
+  it('right wheel mirrors the left with the arm input mapped like the rack', () => {
+    // Source: domain.md (right corner solved as the mirror: δ_R = −δ_mirror, toe_R = toe_mirror); both arms turn the same
+    // way seen from above, so vehicle-frame input −s on the right equals +s on the left in the mirrored frame (derived).
+    const c = structuredClone(exampleCorners.fsFrontWishbone) as Corner;
+    c.steering = { kind: 'arm', armAxisPoint: [-55, 150, 141.5], armAxisDirection: [0, 0, 1], angularStrokeDeg: [-30, 30] };
+    for (const [t, s] of [
+      [-20, 12],
+      [0, -15],
+      [15, 8],
+    ] as const) {
+      const l = solvePose(c, { travelMm: t, rackMm: s });
+      const r = solvePose(c, { travelMm: t, rackMm: -s, side: 'right' });
+      expect(r.toeDeg).toBeCloseTo(l.toeDeg, 10);
+      expect(r.steerDeg).toBeCloseTo(-l.steerDeg, 10);
+      expect(r.wheelCentre[1]).toBeCloseTo(-l.wheelCentre[1], 10);
+    }
+    // the arm's inner point moves on its circle: 60 mm radius, so 10 mm of arc is 10/60 rad of arm rotation
+    const p = posedHardpointsOf(c, 10);
+    const d = Math.hypot(p[0]! + 55, p[1]! - 150);
+    expect(d).toBeCloseTo(60, 9);
+    expect(Math.atan2(p[1]! - 150, p[0]! + 55)).toBeCloseTo(Math.PI / 2 + 10 / 60, 9);
+  });
+});
+
+function posedHardpointsOf(c: Corner, rackMm: number): Vec3 {
+  const m = compileCorner(c);
+  const s = new CornerSolver(m);
+  s.solve(0, 0);
+  s.solveTowards(0, rackMm);
+  return [s.steerInner[0]!, s.steerInner[1]!, s.steerInner[2]!];
+}
