@@ -28,7 +28,7 @@ function rodrigues(t: number[]): number[] {
   return [1 - b * (y * y + z * z), -a * z + b * x * y, a * y + b * x * z, a * z + b * x * y, 1 - b * (x * x + z * z), -a * x + b * y * z, -a * y + b * x * z, a * x + b * y * z, 1 - b * (x * x + y * y)];
 }
 
-/** The same six equations as the solver (distance rows in mm, driving row), evaluated generically. */
+/** The same six equations as the solver (distance rows in mm, driving row), evaluated generically (rack along +y, as in this corner). */
 function residuals(m: CornerModel, x: number[], travelMm: number, rackMm: number): number[] {
   const R = rodrigues(x.slice(3));
   const f: number[] = [];
