@@ -137,7 +137,12 @@ export interface SideViewIc {
   /** Side-view instant centre (x, z), mm; null at infinity. */
   xMm: number | null;
   zMm: number | null;
-  /** tan of the side-view swing-arm angle seen from the contact patch (outboard brakes), and from the wheel centre (inboard drive/brakes), positive when the IC is above the point toward the axle's anti side. */
+  /**
+   * tan of the side-view swing-arm angle, v_x / v_z of the point in bump,
+   * from the contact patch (outboard brakes) and from the wheel centre
+   * (inboard drive): positive when the instant centre is behind and above
+   * the point (a front axle's anti-dive sense); a rear axle uses −tan.
+   */
   tanFromContactPatchFront: number;
   tanFromWheelCentreFront: number;
 }

@@ -64,7 +64,7 @@ export interface CornerModel {
   rackStroke: [number, number];
   lowerArm: ArmModel | null;
   upperArm: ArmModel | null;
-  /** Upright-local indices of the arms' outer joints (for arm angles). */
+  /** Upright-local positions (from the design wheel centre) of the arms' outer joints, for the arm angles. */
   lowerOuterLocal: Vec3 | null;
   upperOuterLocal: Vec3 | null;
   /** Kingpin: two upright-local points (DW: lower → upper ball joint), or body top + local lower (strut), or null (five-link: instantaneous axis). */
