@@ -125,7 +125,23 @@ describe('Intent panel in Chromium', () => {
       { teamPath, vehicleId },
     );
     expect(shownRollSteer).toBeCloseTo(apiRollSteer, 3);
+    expect(await seriousA11yViolations(designer)).toEqual([]);
     await saveScreenshot(designer, 'balance-after-accept');
+
+    // Compare the accepted rear design with the seeded +6 mm variant: ε differs and is highlighted.
+    await designer.getByRole('link', { name: 'Vehicle', exact: true }).click();
+    await designer.getByRole('link', { name: 'Compare axle designs' }).click();
+    await designer.getByRole('checkbox', { name: /^Rear baseline/ }).check();
+    await designer.getByRole('checkbox', { name: /toe link inner \+6 mm/ }).check();
+    await designer.getByRole('button', { name: 'Compare' }).click();
+    await designer.getByTestId('compare-result').waitFor({ timeout: 60_000 });
+    const epsRow = designer.locator('.rw-compare-table tr', { hasText: 'Roll steer coefficient' });
+    const cells = epsRow.locator('td');
+    expect(Number((await cells.nth(0).innerText()).split(/\s/)[0])).toBeCloseTo(TARGET_EPSILON, 2);
+    await expect(cells.nth(1).getAttribute('class')).resolves.toContain('rw-differs');
+    await expect(designer.locator('.rw-compare-charts svg.rw-chart-svg').first().locator('path.rw-series-line').count()).resolves.toBe(2);
+    expect(await seriousA11yViolations(designer)).toEqual([]);
+    await saveScreenshot(designer, 'compare-rear-designs');
     expect(offsiteRequests(designer)).toEqual([]);
     expect(consoleErrors(designer)).toEqual([]);
     await designer.close();

@@ -20,6 +20,11 @@ export const FEATURE_ROUTES: Routes = [
     loadComponent: () => import('./balance/balance-page').then((m) => m.BalancePage),
   },
   {
+    path: 'vehicles/:vehicleId/compare',
+    title: 'Compare axle designs · Rollwise',
+    loadComponent: () => import('./compare/compare-page').then((m) => m.ComparePage),
+  },
+  {
     path: 'vehicles/:vehicleId/axle-designs/:designId',
     title: 'Axle design · Rollwise',
     canDeactivate: [unsavedChangesGuard],
