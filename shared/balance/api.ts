@@ -204,5 +204,23 @@ export function computeBalance(input: unknown): BalanceResponse {
     const variant = evaluateCase(req.variant, options, radius, 'variant.');
     comparison = { ...compareBalance(base.result, variant.result), variant: { ...variant.result, kinematicsLink: { front: variant.front, rear: variant.rear } } };
   }
-  return { ...base.result, kinematicsLink: { front: base.front, rear: base.rear, cornerRadiusM: radius }, effectiveVehicle: base.vehicle, comparison };
+  const response: BalanceResponse = { ...base.result, kinematicsLink: { front: base.front, rear: base.rear, cornerRadiusM: radius }, effectiveVehicle: base.vehicle, comparison };
+  refuseNonFinite(response, 'result');
+  return response;
+}
+
+/**
+ * Last line of defence: inputs many orders of magnitude off (a damping of
+ * 1e300) can overflow the model; JSON would turn the NaN into a silent null.
+ * Names the output and the case it belongs to instead.
+ */
+function refuseNonFinite(value: unknown, path: string): void {
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) {
+      // The base case is walked first, so a non-finite value under comparison comes from the variant.
+      const where = path.startsWith('result.comparison') ? 'variant.vehicle' : 'vehicle';
+      throw new SolveError('singular_geometry', `${where}: the model overflowed (${path} is ${value}); check for an entry many orders of magnitude off`, { field: where, path });
+    }
+  } else if (Array.isArray(value)) value.forEach((v, i) => refuseNonFinite(v, `${path}[${i}]`));
+  else if (value && typeof value === 'object') for (const [k, v] of Object.entries(value)) refuseNonFinite(v, `${path}.${k}`);
 }

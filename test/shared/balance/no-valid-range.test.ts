@@ -84,3 +84,13 @@ describe('a body with no stable roll angle', () => {
     expect((err as InstanceType<typeof InputError>).issues.map((i) => i.path)).toEqual(['front', 'rear', 'cgHeightMm']);
   });
 });
+
+describe('inputs many orders of magnitude off', () => {
+  // Found by fuzzing: a roll damping of 9e300 N·m·s/deg gave NaN eigenvalues of the roll model (null in JSON, status 200).
+  it('are a SolveError naming the vehicle and the output, never a NaN in the result', () => {
+    const v = structuredClone(exampleVehicles.tur26Ember);
+    v.rollDampingNmsPerDeg = 9e300;
+    expect(() => computeBalance({ vehicle: v })).toThrow(/^vehicle: the model overflowed \(result\.stepSteer\.withRoll\.[\w.[\]]+ is NaN\)/);
+    expect(() => computeBalance({ vehicle: exampleVehicles.tur26Ember, variant: { vehicle: v } })).toThrow(/^variant\.vehicle: the model overflowed/);
+  });
+});
