@@ -20,6 +20,7 @@ import { Teams } from './services/teams.js';
 import { Vehicles } from './services/vehicles.js';
 import { AxleDesigns } from './services/axle-designs.js';
 import { Proposals } from './services/proposals.js';
+import { Configurations } from './services/configurations.js';
 import { createComputePool } from './compute/pool.js';
 import { SolveJobs } from './compute/jobs.js';
 import { healthRouter } from './routes/health.js';
@@ -28,6 +29,7 @@ import { teamsRouter } from './routes/teams.js';
 import { vehiclesRouter } from './routes/vehicles.js';
 import { axleDesignsRouter, vehicleAxleDesignsRouter } from './routes/axle-designs.js';
 import { computeRouter } from './routes/compute.js';
+import { configurationsRouter } from './routes/configurations.js';
 
 export type RollwiseApp = Express & {
   /** Stops the app's own timers, workers and session store (not the database). */
@@ -60,6 +62,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   const proposals = new Proposals(db.orm, designs);
   const pool = createComputePool({ threads: config.computeThreads, warm: config.computeWarmStart });
   const jobs = new SolveJobs(pool, { timeLimitMs: config.solveJobTimeLimitMs });
+  const configurations = new Configurations(db.orm, pool, config.computeTimeLimitMs);
 
   app.use(requestLogger(logger));
   app.use(securityHeaders(config.staticDir, config.production));
@@ -80,6 +83,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use('/teams/:teamId/vehicles/:vehicleId/axle-designs', vehicleAxleDesignsRouter(designs, auth));
   api.use('/teams/:teamId/vehicles', vehiclesRouter(vehicles, auth));
   api.use('/teams/:teamId/axle-designs', axleDesignsRouter(designs, proposals, auth));
+  api.use('/teams/:teamId/configurations', configurationsRouter(configurations, auth));
   api.use('/teams', teamsRouter(teams, auth));
   api.use('/compute', computeRouter(pool, jobs, auth, config.computeTimeLimitMs));
   api.use(apiNotFound);

@@ -15,14 +15,16 @@ export const PERMISSIONS = [
   'design:propose',
   'design:accept',
   'review:decide',
+  'review:submit',
+  'review:comment',
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
 export const ROLE_PERMISSIONS: Readonly<Record<Role, readonly Permission[]>> = {
-  owner: ['team:read', 'members:manage', 'vehicle:manage'],
-  engineer: ['team:read', 'vehicle:manage', 'vehicle:edit', 'design:propose'],
-  designer: ['team:read', 'vehicle:manage', 'design:edit', 'design:accept'],
-  reviewer: ['team:read', 'review:decide'],
+  owner: ['team:read', 'members:manage', 'vehicle:manage', 'review:comment'],
+  engineer: ['team:read', 'vehicle:manage', 'vehicle:edit', 'design:propose', 'review:submit', 'review:comment'],
+  designer: ['team:read', 'vehicle:manage', 'design:edit', 'design:accept', 'review:submit', 'review:comment'],
+  reviewer: ['team:read', 'review:decide', 'review:comment'],
   viewer: ['team:read'],
 };
 

@@ -60,14 +60,23 @@ interface Row {
   body?: () => Promise<unknown> | unknown;
   /** Runs once before the row (e.g. creates the proposal it acts on). */
   before?: () => Promise<void>;
+  /** Runs before each caller's request (e.g. a fresh configuration in the state the transition starts from). */
+  beforeEach?: () => Promise<void>;
   expect: Record<Who, number>;
 }
 
 const team = () => `/api/teams/${teamId}`;
 const vehicle = () => `${team()}/vehicles/${vehicleId}`;
 const design = () => `${team()}/axle-designs/${designId}`;
+let configurationId = '';
+let approvalId = '';
+let commentId = '';
+const configuration = () => `${team()}/configurations/${configurationId}`;
 
 //                          owner engineer designer reviewer viewer nonMember anonymous
+const REVIEW_SUBMIT = { owner: 403, engineer: 200, designer: 200, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 };
+const REVIEW_DECIDE = { owner: 403, engineer: 403, designer: 403, reviewer: 200, viewer: 403, nonMember: 404, anonymous: 401 };
+const MANAGE = { owner: 200, engineer: 200, designer: 200, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 };
 const READ = { owner: 200, engineer: 200, designer: 200, reviewer: 200, viewer: 200, nonMember: 404, anonymous: 401 };
 
 const ROWS: Row[] = [
@@ -179,7 +188,100 @@ const ROWS: Row[] = [
     path: () => `${design()}/proposals/${proposalId}`,
     expect: { owner: 403, engineer: 200, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
   },
+  { name: 'list configurations', method: 'get', path: () => `${team()}/configurations`, expect: READ },
+  {
+    name: 'create configuration',
+    method: 'post',
+    path: () => `${team()}/configurations`,
+    body: () => configurationBody('Matrix configuration'),
+    expect: { owner: 201, engineer: 201, designer: 201, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  { name: 'read configuration', method: 'get', before: () => freshConfiguration('draft'), path: configuration, expect: READ },
+  {
+    name: 'revise configuration',
+    method: 'put',
+    path: configuration,
+    body: async () => ({ baseRevision: await currentRevision(configuration()), trackProfile: 'bumpy-circuit' }),
+    expect: MANAGE,
+  },
+  { name: 'archive configuration', method: 'patch', path: configuration, body: () => ({ archived: false }), expect: MANAGE },
+  { name: 'configuration revisions', method: 'get', path: () => `${configuration()}/revisions`, expect: READ },
+  { name: 'configuration history', method: 'get', path: () => `${configuration()}/history`, expect: READ },
+  { name: 'configuration results', method: 'get', path: () => `${configuration()}/results`, expect: READ },
+  { name: 'compare configurations', method: 'get', path: () => `${team()}/configurations/compare?a=${configurationId}&b=${configurationId}`, expect: READ },
+  { name: 'submit for review', method: 'post', beforeEach: () => freshConfiguration('draft'), path: () => `${configuration()}/submit`, body: () => ({}), expect: REVIEW_SUBMIT },
+  { name: 'withdraw from review', method: 'post', beforeEach: () => freshConfiguration('in_review'), path: () => `${configuration()}/withdraw`, body: () => ({}), expect: REVIEW_SUBMIT },
+  { name: 'approve', method: 'post', beforeEach: () => freshConfiguration('in_review'), path: () => `${configuration()}/approve`, body: () => ({}), expect: REVIEW_DECIDE },
+  {
+    name: 'request changes',
+    method: 'post',
+    beforeEach: () => freshConfiguration('in_review'),
+    path: () => `${configuration()}/request-changes`,
+    body: () => ({ message: 'more rear roll steer' }),
+    expect: REVIEW_DECIDE,
+  },
+  { name: 'release', method: 'post', beforeEach: () => freshConfiguration('approved'), path: () => `${configuration()}/release`, body: () => ({}), expect: REVIEW_DECIDE },
+  { name: 'validate', method: 'post', beforeEach: () => freshConfiguration('released'), path: () => `${configuration()}/validate`, body: () => ({}), expect: REVIEW_DECIDE },
+  { name: 'list approvals', method: 'get', before: () => freshConfiguration('approved'), path: () => `${configuration()}/approvals`, expect: READ },
+  { name: 'read approval with recompute', method: 'get', path: () => `${configuration()}/approvals/${approvalId}`, expect: READ },
+  { name: 'list comments', method: 'get', path: () => `${configuration()}/comments`, expect: READ },
+  {
+    name: 'comment',
+    method: 'post',
+    path: () => `${configuration()}/comments`,
+    body: () => ({ body: 'Budget: rear roll steer term', resultRef: 'budget' }),
+    expect: { owner: 201, engineer: 201, designer: 201, reviewer: 201, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  {
+    name: 'resolve a thread',
+    method: 'post',
+    before: newComment,
+    path: () => `${configuration()}/comments/${commentId}/resolve`,
+    body: () => ({}),
+    expect: { owner: 200, engineer: 200, designer: 200, reviewer: 200, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  {
+    name: 'reopen a thread',
+    method: 'post',
+    path: () => `${configuration()}/comments/${commentId}/reopen`,
+    body: () => ({}),
+    expect: { owner: 200, engineer: 200, designer: 200, reviewer: 200, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
 ];
+
+
+async function configurationBody(name: string) {
+  const designs = (await agents.owner.get(`${vehicle()}/axle-designs`).expect(200)).body as { id: string; axle: string; name: string }[];
+  return {
+    name,
+    vehicleId,
+    frontDesignId: designId,
+    rearDesignId: designs.find((d) => d.name === 'Rear baseline')!.id,
+    trackProfile: 'smooth-circuit',
+  };
+}
+
+/** A new configuration (by the owner, who decides nothing) brought to `state` by the engineer and the reviewer. */
+async function freshConfiguration(state: 'draft' | 'in_review' | 'approved' | 'released'): Promise<void> {
+  const c = await agents.owner.post(`${team()}/configurations`).send(await configurationBody(`Matrix ${state}`));
+  expect(c.status, JSON.stringify(c.body)).toBe(201);
+  configurationId = c.body.id;
+  const steps = { draft: [], in_review: ['submit'], approved: ['submit', 'approve'], released: ['submit', 'approve', 'release'] }[state];
+  for (const step of steps) {
+    const who = step === 'submit' ? agents.engineer : agents.reviewer;
+    const r = await who.post(`${configuration()}/${step}`).send({});
+    expect(r.status, `${step}: ${JSON.stringify(r.body)}`).toBe(200);
+  }
+  if (state !== 'draft' && state !== 'in_review') {
+    approvalId = (await agents.owner.get(`${configuration()}/approvals`).expect(200)).body[0].id;
+  }
+}
+
+async function newComment(): Promise<void> {
+  const r = await agents.reviewer.post(`${configuration()}/comments`).send({ body: 'Thread to resolve' });
+  expect(r.status, JSON.stringify(r.body)).toBe(201);
+  commentId = r.body.id;
+}
 
 let proposalId = '';
 async function newProposal(): Promise<void> {
@@ -194,6 +296,7 @@ describe('role × route matrix (Tallowmere; non-member is a Brackenfield reviewe
       const got: Partial<Record<Who, number>> = {};
       await row.before?.();
       for (const w of WHO) {
+        await row.beforeEach?.();
         let req = agents[w][row.method](row.path());
         if (row.body) req = req.send((await row.body()) as object);
         const r = await req;
@@ -211,16 +314,16 @@ describe('role × route matrix (Tallowmere; non-member is a Brackenfield reviewe
     const detail = await bo.get(`/api/teams/${b.id}`).expect(200);
     expect(detail.body.roles).toEqual(['owner', 'engineer', 'designer']);
     expect([...detail.body.permissions].sort()).toEqual(
-      ['team:read', 'members:manage', 'vehicle:manage', 'vehicle:edit', 'design:propose', 'design:edit', 'design:accept'].sort(),
+      ['team:read', 'members:manage', 'vehicle:manage', 'vehicle:edit', 'design:propose', 'design:edit', 'design:accept', 'review:submit', 'review:comment'].sort(),
     );
   });
 
   it('GET team reports the caller’s own permissions per role', async () => {
     const expected: Record<string, string[]> = {
-      owner: ['team:read', 'members:manage', 'vehicle:manage'],
-      engineer: ['team:read', 'vehicle:manage', 'vehicle:edit', 'design:propose'],
-      designer: ['team:read', 'vehicle:manage', 'design:edit', 'design:accept'],
-      reviewer: ['team:read', 'review:decide'],
+      owner: ['team:read', 'members:manage', 'vehicle:manage', 'review:comment'],
+      engineer: ['team:read', 'vehicle:manage', 'vehicle:edit', 'design:propose', 'review:submit', 'review:comment'],
+      designer: ['team:read', 'vehicle:manage', 'design:edit', 'design:accept', 'review:submit', 'review:comment'],
+      reviewer: ['team:read', 'review:decide', 'review:comment'],
       viewer: ['team:read'],
     };
     for (const [role, perms] of Object.entries(expected)) {

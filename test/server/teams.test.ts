@@ -19,7 +19,7 @@ describe('teams', () => {
     const me = await u.agent.get('/api/auth/me').expect(200);
     expect(me.body.memberships).toEqual([{ teamId: r.body.id, teamName: 'Hollin Works', teamSlug: 'hollin-works', roles: ['owner'] }]);
     const detail = await u.agent.get(`/api/teams/${r.body.id}`).expect(200);
-    expect(detail.body.permissions).toEqual(['team:read', 'members:manage', 'vehicle:manage']);
+    expect(detail.body.permissions).toEqual(['team:read', 'members:manage', 'vehicle:manage', 'review:comment']);
   });
 
   it('refuses a taken slug and a malformed one', async () => {
