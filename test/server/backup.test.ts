@@ -1,0 +1,114 @@
+/**
+ * Backups (issue 8, "Nothing lost"): the seeded database, plus a session and
+ * an edit, is dumped with server/tools/backup.ts (pg_dump -Fc), restored into
+ * a database in a fresh PostgreSQL cluster, and every table compared row by
+ * row (ordered) with the original. Also: a restore refuses a non-empty
+ * database without --clean, and a failed dump leaves no file behind.
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import pg from 'pg';
+import { startThrowawayCluster, createDatabase, type Cluster } from '../../server/tools/pg.js';
+import { dumpDatabase, restoreDatabase } from '../../server/tools/backup.js';
+import { signIn, startTestApp, type TestApp } from './helpers.js';
+
+const ROOT = resolve('.');
+const dir = mkdtempSync(join(tmpdir(), 'rollwise-backup-'));
+let t: TestApp;
+let cluster: (Cluster & { remove(): void }) | undefined;
+
+beforeAll(async () => {
+  t = await startTestApp({ seed: true });
+  // A session row and an edited vehicle revision, on top of the seed.
+  const engineer = await signIn(t.app, 'engineer@tallowmere.example');
+  const teams = await engineer.get('/api/teams').expect(200);
+  const team = (teams.body as { id: string; slug: string }[]).find((x) => x.slug === 'tallowmere')!;
+  const vehicles = await engineer.get(`/api/teams/${team.id}/vehicles`).expect(200);
+  const v = (vehicles.body as { id: string; revision: number }[])[0]!;
+  await engineer.patch(`/api/teams/${team.id}/vehicles/${v.id}`).send({ name: 'TUR-26 Ember (backup test)', baseRevision: v.revision }).expect(200);
+  cluster = await startThrowawayCluster('restored');
+}, 120_000);
+
+afterAll(async () => {
+  await t?.close();
+  cluster?.remove();
+  rmSync(dir, { recursive: true, force: true });
+});
+
+async function snapshot(url: string): Promise<Map<string, string[]>> {
+  const c = new pg.Client({ connectionString: url });
+  await c.connect();
+  try {
+    const tables = await c.query<{ schemaname: string; tablename: string }>(
+      "SELECT schemaname, tablename FROM pg_tables WHERE schemaname NOT IN ('pg_catalog', 'information_schema') ORDER BY 1, 2",
+    );
+    const out = new Map<string, string[]>();
+    for (const { schemaname, tablename } of tables.rows) {
+      const name = `"${schemaname}"."${tablename}"`;
+      // Rows as JSON text, ordered by that text: every column compared, json columns included.
+      const rows = await c.query<{ r: string }>(`SELECT row_to_json(t)::text AS r FROM ${name} t ORDER BY 1`);
+      out.set(name, rows.rows.map((x) => x.r));
+    }
+    return out;
+  } finally {
+    await c.end();
+  }
+}
+
+const backup = (...args: string[]) =>
+  spawnSync(process.execPath, ['--import', 'tsx', join(ROOT, 'server', 'tools', 'backup.ts'), ...args], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 });
+
+describe('backup and restore', () => {
+  it('the command-line dump restored into a fresh cluster holds every table with identical rows', async () => {
+    const file = join(dir, 'rollwise.dump');
+    const dump = backup('dump', file, `--database-url=${t.databaseUrl}`);
+    expect(dump.status, dump.stderr).toBe(0);
+    expect(dump.stdout).toMatch(/backup: dumped .* \(\d+ kB, \d+ tables with data\)/);
+    expect(existsSync(`${file}.partial`)).toBe(false);
+
+    const target = cluster!.url;
+    const restore = backup('restore', file, `--database-url=${target}`);
+    expect(restore.status, restore.stderr).toBe(0);
+
+    const before = await snapshot(t.databaseUrl);
+    const after = await snapshot(target);
+    expect([...after.keys()]).toEqual([...before.keys()]);
+    // The product's own tables are there and hold the seed.
+    for (const table of ['"public"."users"', '"public"."teams"', '"public"."memberships"', '"public"."vehicles"', '"public"."session"']) {
+      expect(before.get(table)?.length, table).toBeGreaterThan(0);
+    }
+    for (const [table, rows] of before) expect(after.get(table), table).toEqual(rows);
+    expect(after.get('"public"."vehicles"')!.some((r) => r.includes('TUR-26 Ember (backup test)'))).toBe(true);
+  });
+
+  it('a restore into a database that already holds tables is refused without --clean, and replaces it with --clean', async () => {
+    const file = join(dir, 'again.dump');
+    await dumpDatabase(t.databaseUrl, file);
+    await expect(restoreDatabase(cluster!.url, file)).rejects.toThrow(/already holds \d+ tables; restore into an empty database, or pass --clean/);
+    await restoreDatabase(cluster!.url, file, { clean: true });
+    expect(await snapshot(cluster!.url)).toEqual(await snapshot(t.databaseUrl));
+  });
+
+  it('a dump that fails leaves no file; a file that is no dump is refused before anything is restored', async () => {
+    const file = join(dir, 'nothing.dump');
+    const r = backup('dump', file, `--database-url=postgres://postgres@127.0.0.1:${cluster!.port}/no_such_database`);
+    expect(r.status).toBe(1);
+    expect(r.stderr).toMatch(/^backup: pg_dump failed \(exit 1\): .*no_such_database/);
+    expect(existsSync(file) || existsSync(`${file}.partial`)).toBe(false);
+
+    const junk = join(dir, 'junk.dump');
+    writeFileSync(junk, 'not a dump at all');
+    const empty = createDatabase(cluster!.port, 'empty_target');
+    await expect(restoreDatabase(empty, junk)).rejects.toThrow(/pg_restore failed/);
+    expect((await snapshot(empty)).size).toBe(0);
+  });
+
+  it('usage errors exit 2 with the usage text', () => {
+    const r = backup('copy', 'x');
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/usage:\n.*backup\.ts dump FILE/);
+  });
+});
