@@ -33,6 +33,8 @@ export const users = pgTable(
     displayUnits: text('display_units', { enum: ['si', 'imperial'] }).notNull().default('si'),
     /** Instructors run cross-team programmes; it is not a team role. */
     instructor: boolean('instructor').notNull().default(false),
+    /** When the address was confirmed through the verification mail; null until then. */
+    emailVerifiedAt: timestamp('email_verified_at', { withTimezone: true }),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex('users_email_unique').on(t.email)],
@@ -329,3 +331,78 @@ export const reviewComments = pgTable(
   },
   (t) => [index('review_comments_configuration_idx').on(t.configurationId)],
 );
+
+export const MAIL_STATUSES = ['pending', 'sent', 'failed'] as const;
+
+/**
+ * Outgoing mail, written in the same transaction as the action that causes
+ * it and sent by the mail worker (server/mail/outbox.ts), so no action is
+ * lost while the mail server is down. `dedupeKey` makes enqueueing
+ * idempotent; the Message-ID derives from the row id, so a resend after a
+ * crash is recognisable as the same message.
+ */
+export const mailOutbox = pgTable(
+  'mail_outbox',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    kind: text('kind').notNull(),
+    teamId: uuid('team_id').references(() => teams.id, { onDelete: 'set null' }),
+    toAddress: text('to_address').notNull(),
+    subject: text('subject').notNull(),
+    textBody: text('text_body').notNull(),
+    dedupeKey: text('dedupe_key'),
+    status: text('status', { enum: MAIL_STATUSES }).notNull().default('pending'),
+    attempts: integer('attempts').notNull().default(0),
+    nextAttemptAt: timestamp('next_attempt_at', { withTimezone: true }).notNull().defaultNow(),
+    lastError: text('last_error'),
+    sentAt: timestamp('sent_at', { withTimezone: true }),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('mail_outbox_dedupe_unique').on(t.dedupeKey), index('mail_outbox_due_idx').on(t.status, t.nextAttemptAt)],
+);
+
+/** What the development fake SMTP server received (never used in production). */
+export const capturedMail = pgTable(
+  'captured_mail',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    messageId: text('message_id').notNull(),
+    fromAddress: text('from_address').notNull(),
+    toAddresses: text('to_addresses').array().notNull(),
+    subject: text('subject').notNull(),
+    textBody: text('text_body').notNull(),
+    receivedAt: timestamp('received_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('captured_mail_message_unique').on(t.messageId)],
+);
+
+/** An invitation to a team by e-mail, accepted through a signed, expiring link. */
+export const teamInvitations = pgTable(
+  'team_invitations',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    /** Stored lower-cased. */
+    email: text('email').notNull(),
+    roles: text('roles').array().notNull(),
+    invitedBy: uuid('invited_by').references(() => users.id, { onDelete: 'set null' }),
+    expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+    acceptedAt: timestamp('accepted_at', { withTimezone: true }),
+    acceptedBy: uuid('accepted_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('team_invitations_team_idx').on(t.teamId)],
+);
+
+/** Single-use password reset tokens; only a SHA-256 of the token is stored. */
+export const passwordResets = pgTable('password_resets', {
+  tokenHash: text('token_hash').primaryKey(),
+  userId: uuid('user_id')
+    .notNull()
+    .references(() => users.id, { onDelete: 'cascade' }),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  usedAt: timestamp('used_at', { withTimezone: true }),
+  createdAt: createdAt(),
+});
