@@ -142,6 +142,21 @@ describe('Intent panel in Chromium', () => {
     await expect(designer.locator('.rw-compare-charts svg.rw-chart-svg').first().locator('path.rw-series-line').count()).resolves.toBe(2);
     expect(await seriousA11yViolations(designer)).toEqual([]);
     await saveScreenshot(designer, 'compare-rear-designs');
+
+    // The printable report of the accepted revision carries its cautions and the safety caution; print drops the app's header.
+    await designer.goto(app.baseUrl + editorPath + '/report');
+    await designer.getByRole('heading', { name: 'Axle design report: Rear baseline' }).waitFor();
+    await designer.getByText(/accepted as this revision/).waitFor();
+    await designer.locator('[data-testid="report"] rw-caution-list li').first().waitFor();
+    await designer.locator('[data-testid="report"] rw-line-chart path.rw-series-line').first().waitFor();
+    await designer.locator('[data-testid="report"] rw-bar-chart rect.rw-bar').first().waitFor();
+    await designer.emulateMedia({ media: 'print' });
+    await expect(designer.locator('app-root > header').isVisible()).resolves.toBe(false);
+    await expect(designer.getByRole('button', { name: 'Print' }).isVisible()).resolves.toBe(false);
+    await expect(designer.locator('rw-safety-caution').isVisible()).resolves.toBe(true);
+    await saveScreenshot(designer, 'report-print');
+    await designer.emulateMedia({ media: 'screen' });
+    expect(await seriousA11yViolations(designer)).toEqual([]);
     expect(offsiteRequests(designer)).toEqual([]);
     expect(consoleErrors(designer)).toEqual([]);
     await designer.close();

@@ -31,6 +31,11 @@ export const FEATURE_ROUTES: Routes = [
     loadComponent: () => import('./axle-design/axle-design-page').then((m) => m.AxleDesignPage),
   },
   {
+    path: 'vehicles/:vehicleId/axle-designs/:designId/report',
+    title: 'Axle design report · Rollwise',
+    loadComponent: () => import('./report/design-report-page').then((m) => m.DesignReportPage),
+  },
+  {
     path: 'vehicles/:vehicleId/axle-designs/:designId/intent',
     title: 'Handling intent · Rollwise',
     canActivate: [permissionGuard('design:propose')],

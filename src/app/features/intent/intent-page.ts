@@ -325,6 +325,7 @@ export class IntentPage implements OnInit {
             understeerChangeDegPerG: r.understeerChangeDegPerG,
             trackProfile: r.trackProfile.id,
             engineVersion: r.engineVersion,
+            cautions: r.cautions.filter((c) => c.code !== 'safety-notice'),
           },
         }),
       );

@@ -1,0 +1,160 @@
+import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal, ViewEncapsulation } from '@angular/core';
+import { DatePipe } from '@angular/common';
+import { ActivatedRoute, RouterLink } from '@angular/router';
+import { MatButton } from '@angular/material/button';
+import { firstValueFrom } from 'rxjs';
+import type { BalanceResponse } from '../../../../shared/balance/api';
+import type { Caution } from '../../../../shared/intent/cautions';
+import { vehicleSchema } from '../../../../shared/schema/vehicle';
+import { ENGINE_VERSION } from '../../../../shared/version';
+import { apiProblem } from '../../core/http/api-error';
+import { BarChart } from '../../charts/bar-chart';
+import { LineChart } from '../../charts/line-chart';
+import { BarGroup, LineSeries } from '../../charts/chart-types';
+import { AnalysisError, KinematicsClient } from '../../workers/kinematics-client';
+import type { CornerAnalysis } from '../../workers/analysis-types';
+import { HardpointTable } from '../axle-design/hardpoint-table';
+import { AxleDesign, FeaturesApi, Proposal, RevisionRow, VehicleRecord } from '../features-api';
+import { CautionList } from '../intent/caution-list';
+import { routeParam } from '../route-params';
+import { rollSteerWords } from '../roll-steer-words';
+import { SafetyCaution } from '../safety-caution';
+
+const TRAVEL = { from: -25, to: 25, step: 2.5 };
+const ROLL = { from: -3, to: 3, step: 0.25 };
+
+/**
+ * Printable report of one axle design revision: inputs (hardpoints, link
+ * lengths), kinematic curves and figures, the understeer budget of the
+ * vehicle with this design, cautions from the intent solve that proposed the
+ * geometry (when there was one), the revision history and the safety
+ * caution. Laid out for print (the print stylesheet drops the app's chrome).
+ */
+@Component({
+  selector: 'rw-design-report-page',
+  imports: [DatePipe, RouterLink, MatButton, HardpointTable, LineChart, BarChart, CautionList, SafetyCaution],
+  templateUrl: './design-report-page.html',
+  styleUrl: './design-report-page.scss',
+  encapsulation: ViewEncapsulation.None,
+  providers: [KinematicsClient],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class DesignReportPage implements OnInit {
+  private readonly route = inject(ActivatedRoute);
+  private readonly api = inject(FeaturesApi);
+  private readonly engine = inject(KinematicsClient);
+
+  protected readonly teamId = routeParam(this.route, 'teamId');
+  protected readonly vehicleId = routeParam(this.route, 'vehicleId');
+  protected readonly designId = routeParam(this.route, 'designId');
+  protected readonly engineVersion = ENGINE_VERSION;
+  protected readonly printedAt = new Date().toISOString();
+  protected readonly travel = TRAVEL;
+
+  protected readonly loadError = signal<string | null>(null);
+  protected readonly design = signal<AxleDesign | null>(null);
+  protected readonly vehicle = signal<VehicleRecord | null>(null);
+  protected readonly revisions = signal<readonly RevisionRow[]>([]);
+  protected readonly analysis = signal<CornerAnalysis | null>(null);
+  protected readonly analysisError = signal<string | null>(null);
+  protected readonly balance = signal<BalanceResponse | null>(null);
+  protected readonly balanceNote = signal<string | null>(null);
+  protected readonly source = signal<Proposal | null>(null);
+
+  protected readonly words = computed(() => {
+    const a = this.analysis();
+    const d = this.design();
+    return a && d ? rollSteerWords(a.rollSteerCoefficient, d.axle) : '';
+  });
+
+  protected readonly cautions = computed<Caution[]>(() => {
+    const o = this.source()?.origin as { cautions?: Caution[] } | null | undefined;
+    return Array.isArray(o?.cautions) ? o!.cautions : [];
+  });
+
+  protected readonly toe = computed<LineSeries[]>(() =>
+    (this.analysis()?.curves ?? []).map((c) => {
+      const ride = c.points.find((p) => p.travelMm === 0)?.toeDeg ?? 0;
+      return { name: `Rack ${c.rackMm} mm`, points: c.points.map((p) => ({ x: p.travelMm, y: p.toeDeg - ride })) };
+    }),
+  );
+  protected readonly camber = computed<LineSeries[]>(() =>
+    (this.analysis()?.curves ?? []).map((c) => ({ name: `Rack ${c.rackMm} mm`, points: c.points.map((p) => ({ x: p.travelMm, y: p.camberDeg })) })),
+  );
+  protected readonly roll = computed<LineSeries[]>(() =>
+    (this.analysis()?.roll ?? []).map((c) => {
+      const zero = c.points.find((p) => p.rollDeg === 0)?.axleSteerDeg ?? 0;
+      return { name: `Rack ${c.rackMm} mm`, points: c.points.map((p) => ({ x: p.rollDeg, y: p.axleSteerDeg - zero })) };
+    }),
+  );
+  protected readonly budget = computed<BarGroup[]>(() => {
+    const b = this.balance()?.understeerBudget;
+    if (!b) return [];
+    return (
+      [
+        ['Tyres', b.tyres],
+        ['Load transfer', b.loadTransfer],
+        ['Roll steer', b.rollSteer],
+        ['Roll camber', b.rollCamber],
+        ['Compliance steer', b.complianceSteer],
+        ['Aligning torque', b.alignTorque],
+        ['Total', b.total],
+      ] as const
+    ).map(([label, v]) => ({ label, values: [v] }));
+  });
+
+  ngOnInit(): void {
+    void this.load();
+  }
+
+  private async load(): Promise<void> {
+    let design: AxleDesign;
+    try {
+      design = await firstValueFrom(this.api.axleDesign(this.teamId, this.designId));
+      this.design.set(design);
+    } catch (error) {
+      this.loadError.set(apiProblem(error).message);
+      return;
+    }
+    const stroke = design.corner.steered && design.corner.steering?.kind === 'rack' ? design.corner.steering.rackStroke : null;
+    const kinematics = this.engine
+      .analyse({ corner: design.corner, travel: TRAVEL, rackMm: stroke ? [0, stroke[0] / 2, stroke[1] / 2] : [0], roll: ROLL, pose: { travelMm: 0, rackMm: 0 } })
+      .then((a) => this.analysis.set(a))
+      .catch((e) => this.analysisError.set(e instanceof AnalysisError ? e.message : String(e)));
+    const others = Promise.all([
+      firstValueFrom(this.api.axleDesignRevisions(this.teamId, this.designId)).then((r) => this.revisions.set(r)),
+      firstValueFrom(this.api.proposals(this.teamId, this.designId)).then((list) =>
+        this.source.set(list.find((p) => p.status === 'accepted' && p.acceptedRevision === design.revision) ?? null),
+      ),
+      this.loadBalance(design),
+    ]).catch((e) => this.balanceNote.set(apiProblem(e).message));
+    await Promise.all([kinematics, others]);
+  }
+
+  /** The vehicle with this design on its axle and the first design of the other axle. */
+  private async loadBalance(design: AxleDesign): Promise<void> {
+    const vehicle = await firstValueFrom(this.api.vehicle(this.teamId, this.vehicleId));
+    this.vehicle.set(vehicle);
+    if (!vehicleSchema.safeParse(vehicle.data).success) {
+      this.balanceNote.set('The vehicle data is incomplete, so no understeer budget is given.');
+      return;
+    }
+    const list = await firstValueFrom(this.api.axleDesigns(this.teamId, this.vehicleId));
+    const otherAxle = design.axle === 'front' ? 'rear' : 'front';
+    const other = list.find((d) => d.axle === otherAxle);
+    const otherCorner = other ? (await firstValueFrom(this.api.axleDesign(this.teamId, other.id))).corner : undefined;
+    const corners = design.axle === 'front' ? { frontCorner: design.corner, rearCorner: otherCorner } : { frontCorner: otherCorner, rearCorner: design.corner };
+    const request = { vehicle: vehicle.data, ...Object.fromEntries(Object.entries(corners).filter(([, c]) => c)) };
+    const response = await firstValueFrom(this.api.balance<BalanceResponse>(request));
+    this.balance.set(response.result);
+    this.balanceNote.set(`With the ${otherAxle} axle design ${other ? `"${other.name}"` : 'values of the vehicle page'}.`);
+  }
+
+  protected print(): void {
+    globalThis.print();
+  }
+
+  protected fmt(v: number | null | undefined, digits = 3): string {
+    return v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
+  }
+}
