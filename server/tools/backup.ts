@@ -57,9 +57,9 @@ function runTool(tool: string, args: string[], databaseUrl: string, io: ToolRun 
     const child = spawn(file, argv, { env, stdio: [io.stdin ? 'pipe' : 'ignore', 'pipe', 'pipe'] });
     let stderr = '';
     let stdout = '';
-    child.stderr.on('data', (d: Buffer) => (stderr += d.toString()));
-    if (io.stdout) child.stdout.pipe(io.stdout);
-    else child.stdout.on('data', (d: Buffer) => (stdout += d.toString()));
+    child.stderr!.on('data', (d: Buffer) => (stderr += d.toString()));
+    if (io.stdout) child.stdout!.pipe(io.stdout);
+    else child.stdout!.on('data', (d: Buffer) => (stdout += d.toString()));
     if (io.stdin && child.stdin) {
       io.stdin.on('error', (e) => child.kill() && reject(new BackupError(`cannot read the input: ${e.message}`)));
       io.stdin.pipe(child.stdin);
