@@ -25,12 +25,21 @@ const BRACKENFIELD = 'Brackenfield Road Programme';
 
 /** WCAG 2.2 AA rules; serious and critical findings fail (issue 6 quality bar). */
 async function seriousA11yViolations(page: Page): Promise<string[]> {
+  // Judge the settled page: nothing loading, no element half-way through a fade.
+  await page.locator('mat-progress-bar').waitFor({ state: 'detached' });
   const result = await new AxeBuilder({ page })
     .withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'])
     .analyze();
   return result.violations
     .filter((v) => v.impact === 'serious' || v.impact === 'critical')
     .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
+}
+
+/** A guarded page with animations off (Material honours reduced motion), so checks see settled states. */
+async function newSettledPage(browser: Browser): Promise<Page> {
+  const page = await browser.newPage();
+  await page.emulateMedia({ reducedMotion: 'reduce' });
+  return page;
 }
 
 async function switchTeam(page: Page, teamName: string): Promise<void> {
@@ -104,7 +113,7 @@ describe('Angular shell in Chromium', () => {
   });
 
   it('signs the demo engineer in, shows each team’s vehicles across a team switch, and signs out', async () => {
-    const page = await browser.newPage();
+    const page = await newSettledPage(browser);
 
     // A first visit lands on the sign-in page, which meets WCAG 2.2 AA.
     await page.goto(app.baseUrl + '/');
@@ -154,7 +163,7 @@ describe('Angular shell in Chromium', () => {
   });
 
   it('shows a viewer no vehicle commands and an owner the members page', async () => {
-    const viewer = await browser.newPage();
+    const viewer = await newSettledPage(browser);
     await signIn(viewer, app.baseUrl, 'viewer@tallowmere.example');
     await viewer.getByRole('link', { name: 'TUR-26 Ember' }).waitFor();
     await expect(viewer.getByRole('button', { name: 'New vehicle' }).count()).resolves.toBe(0);
@@ -163,7 +172,7 @@ describe('Angular shell in Chromium', () => {
     expect(offsiteRequests(viewer)).toEqual([]);
     expect(consoleErrors(viewer)).toEqual([]);
 
-    const owner = await browser.newPage();
+    const owner = await newSettledPage(browser);
     await signIn(owner, app.baseUrl, 'owner@tallowmere.example');
     await owner.getByRole('link', { name: 'Members' }).click();
     await owner.getByRole('heading', { name: `Members · ${TALLOWMERE}` }).waitFor();
@@ -175,7 +184,7 @@ describe('Angular shell in Chromium', () => {
   });
 
   it('can be used from the keyboard alone, with the focus always visible', async () => {
-    const page = await browser.newPage();
+    const page = await newSettledPage(browser);
     await page.goto(app.baseUrl + '/sign-in');
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();
 
