@@ -1,0 +1,193 @@
+/**
+ * `npm run load` (issue 8, "Load"): starts a throwaway PostgreSQL cluster and
+ * the real server (seeded), signs in as the demo engineer and drives it with
+ * autocannon over loopback. Every scenario is bounded in time and in request
+ * count and stops by itself. Prints requests/s, p50/p99 latency and errors
+ * per scenario, and writes test-results/load.json. Targets are printed, not
+ * asserted: zero errors; mixed p99 ≤ 200 ms; read p99 ≤ 50 ms while compute
+ * runs (solves stay off the event loop, in the worker pool).
+ *
+ * Scenarios:
+ *   read             10 connections, 10 s: team vehicles, a vehicle, an axle design, its revisions
+ *   compute          4 connections, 10 s: POST /api/compute/corner-sweep (101 travel × 3 rack = 303 poses)
+ *   readDuringCompute  the read mix (10 connections) while the compute scenario runs beside it, 10 s
+ *   mixed            50 connections, 30 s: 8 reads to 1 sweep, one session
+ */
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { cpus, loadavg } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import autocannon, { type Request, type Result } from 'autocannon';
+import { startThrowawayCluster } from '../../server/tools/pg.js';
+import { startServer } from '../../server/main.js';
+import { DEMO_PASSWORD } from '../../server/db/seed.js';
+import { exampleCorners } from '../../shared/kinematics/examples.js';
+
+const here = dirname(fileURLToPath(import.meta.url));
+const SHORT_S = Number(process.env['LOAD_SHORT_SECONDS'] ?? 10);
+const MIXED_S = Number(process.env['LOAD_MIXED_SECONDS'] ?? 30);
+/** Hard cap on requests per scenario, whatever the speed of the machine. */
+const MAX_REQUESTS = 200_000;
+
+interface Figures {
+  rps: number;
+  p50Ms: number;
+  p99Ms: number;
+  maxMs: number;
+  requests: number;
+  errors: number;
+  non2xx: number;
+  timeouts: number;
+}
+
+function figures(r: Result): Figures {
+  return {
+    rps: Math.round(r.requests.average * 10) / 10,
+    p50Ms: r.latency.p50,
+    p99Ms: r.latency.p99,
+    maxMs: r.latency.max,
+    requests: r.requests.total,
+    // Connection errors and timeouts, plus any answer that is not 2xx.
+    errors: r.errors + r.non2xx,
+    non2xx: r.non2xx,
+    timeouts: r.timeouts,
+  };
+}
+
+function print(name: string, f: Figures): void {
+  console.log(
+    `${name.padEnd(20)} ${String(f.rps).padStart(8)} req/s   p50 ${String(f.p50Ms).padStart(4)} ms   p99 ${String(f.p99Ms).padStart(4)} ms   max ${String(f.maxMs).padStart(5)} ms   ${f.requests} requests, ${f.errors} errors (${f.non2xx} non-2xx, ${f.timeouts} timeouts)`,
+  );
+}
+
+/** One bounded autocannon run; a watchdog stops it if it overruns its duration. */
+async function cannon(url: string, cookie: string, o: { connections: number; seconds: number; requests: Request[] }): Promise<Result> {
+  const instance = autocannon({
+    url,
+    connections: o.connections,
+    duration: o.seconds,
+    maxOverallRequests: MAX_REQUESTS,
+    timeout: 10,
+    headers: { cookie, 'x-rollwise-request': '1', 'content-type': 'application/json' },
+    requests: o.requests,
+  });
+  const watchdog = setTimeout(() => instance.stop(), (o.seconds + 15) * 1000);
+  try {
+    return await instance;
+  } finally {
+    clearTimeout(watchdog);
+  }
+}
+
+async function main(): Promise<void> {
+  const started = Date.now();
+  console.log('load: starting a throwaway PostgreSQL cluster and the server…');
+  const cluster = await startThrowawayCluster('rollwise_load');
+  const server = await startServer({
+    databaseUrl: cluster.url,
+    host: '127.0.0.1',
+    port: 0,
+    seedDemo: true,
+    production: false,
+    logLevel: 'warn',
+    staticDir: join(here, 'no-static-dir'),
+    // Seeding hashes a dozen demo passwords; a low cost keeps start-up short (sign-in cost is not what is measured).
+    bcryptRounds: 4,
+  });
+  try {
+    const base = server.url;
+    const signIn = await fetch(`${base}/api/auth/sign-in`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'x-rollwise-request': '1' },
+      body: JSON.stringify({ email: 'engineer@tallowmere.example', password: DEMO_PASSWORD }),
+    });
+    if (signIn.status !== 200) throw new Error(`sign-in answered ${signIn.status}: ${await signIn.text()}`);
+    const cookie = (signIn.headers.get('set-cookie') ?? '').split(';')[0]!;
+    const get = async <T>(path: string): Promise<T> => {
+      const r = await fetch(`${base}${path}`, { headers: { cookie } });
+      if (!r.ok) throw new Error(`GET ${path} answered ${r.status}`);
+      return (await r.json()) as T;
+    };
+    const teams = await get<{ id: string; slug: string }[]>('/api/teams');
+    const team = teams.find((t) => t.slug === 'tallowmere') ?? teams[0]!;
+    const vehicles = await get<{ id: string; name: string }[]>(`/api/teams/${team.id}/vehicles`);
+    const vehicle = vehicles[0]!;
+    const designs = await get<{ id: string }[]>(`/api/teams/${team.id}/vehicles/${vehicle.id}/axle-designs`);
+    if (!designs[0]) throw new Error(`the seeded vehicle ${vehicle.name} has no axle design`);
+    const design = designs[0];
+
+    const reads: Request[] = [
+      { method: 'GET', path: `/api/teams/${team.id}/vehicles` },
+      { method: 'GET', path: `/api/teams/${team.id}/vehicles/${vehicle.id}` },
+      { method: 'GET', path: `/api/teams/${team.id}/axle-designs/${design.id}` },
+      { method: 'GET', path: `/api/teams/${team.id}/axle-designs/${design.id}/revisions` },
+    ];
+    const sweep: Request = {
+      method: 'POST',
+      path: '/api/compute/corner-sweep',
+      body: JSON.stringify({ corner: exampleCorners.fsFrontWishbone, travel: { from: -25, to: 25, step: 0.5 }, rackMm: [-10, 0, 10] }),
+    };
+    // Warm-up: the worker pool starts its threads (and tsx compiles the engine) on the first compute.
+    for (let i = 0; i < 3; i++) {
+      const r = await fetch(`${base}${sweep.path}`, { method: 'POST', headers: { cookie, 'x-rollwise-request': '1', 'content-type': 'application/json' }, body: sweep.body });
+      if (r.status !== 200) throw new Error(`warm-up sweep answered ${r.status}: ${await r.text()}`);
+    }
+
+    // Other processes on the machine share its cores: the load average says how far the figures can be trusted.
+    const loadBefore = loadavg()[0]!;
+    console.log(`load: ${base}, signed in as engineer@tallowmere.example; scenarios of ${SHORT_S} s and ${MIXED_S} s`);
+    console.log(`load: ${cpus().length} cores, 1-minute load average ${loadBefore.toFixed(1)} before the run\n`);
+    const read = figures(await cannon(base, cookie, { connections: 10, seconds: SHORT_S, requests: reads }));
+    print('read', read);
+    const compute = figures(await cannon(base, cookie, { connections: 4, seconds: SHORT_S, requests: [sweep] }));
+    print('compute', compute);
+    const [readBeside, computeBeside] = await Promise.all([
+      cannon(base, cookie, { connections: 10, seconds: SHORT_S, requests: reads }),
+      cannon(base, cookie, { connections: 4, seconds: SHORT_S, requests: [sweep] }),
+    ]);
+    const readDuringCompute = figures(readBeside);
+    const computeDuringRead = figures(computeBeside);
+    print('read during compute', readDuringCompute);
+    print('compute beside reads', computeDuringRead);
+    const mixed = figures(await cannon(base, cookie, { connections: 50, seconds: MIXED_S, requests: [...reads, ...reads, sweep] }));
+    print('mixed (50 conn.)', mixed);
+
+    const out: Record<string, number> = {};
+    const put = (prefix: string, f: Figures) => {
+      for (const [k, v] of Object.entries(f)) out[`${prefix}.${k}`] = v;
+    };
+    put('load.read', read);
+    put('load.compute', compute);
+    put('load.readDuringCompute', readDuringCompute);
+    put('load.computeDuringRead', computeDuringRead);
+    put('load.mixed', mixed);
+    out['load.machine.cores'] = cpus().length;
+    out['load.machine.loadAvgBefore'] = Math.round(loadBefore * 10) / 10;
+    out['load.machine.loadAvgAfter'] = Math.round(loadavg()[0]! * 10) / 10;
+    const dir = join(here, '..', '..', 'test-results');
+    mkdirSync(dir, { recursive: true });
+    writeFileSync(join(dir, 'load.json'), JSON.stringify(out, null, 2) + '\n');
+
+    const totalErrors = read.errors + compute.errors + readDuringCompute.errors + computeDuringRead.errors + mixed.errors;
+    const check = (ok: boolean) => (ok ? 'met' : 'NOT met');
+    console.log(`\ntargets (shown, not asserted):`);
+    console.log(`  zero errors                          ${check(totalErrors === 0)} (${totalErrors})`);
+    console.log(`  mixed p99 ≤ 200 ms                   ${check(mixed.p99Ms <= 200)} (${mixed.p99Ms} ms)`);
+    console.log(`  read p99 ≤ 50 ms while compute runs  ${check(readDuringCompute.p99Ms <= 50)} (${readDuringCompute.p99Ms} ms)`);
+    console.log(`  (1-minute load average ${loadBefore.toFixed(1)} before, ${loadavg()[0]!.toFixed(1)} after, on ${cpus().length} cores)`);
+    console.log(`\nwrote test-results/load.json (${Object.keys(out).length} figures) in ${Math.round((Date.now() - started) / 1000)} s`);
+  } finally {
+    // Let the sweeps autocannon cut off at the end finish before the pool shuts down.
+    await new Promise((r) => setTimeout(r, 2000));
+    await server.close();
+    cluster.remove();
+  }
+}
+
+main().then(
+  () => process.exit(0),
+  (err: unknown) => {
+    console.error('load:', err instanceof Error ? err.message : err);
+    process.exit(1);
+  },
+);
