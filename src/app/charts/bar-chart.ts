@@ -1,7 +1,8 @@
-import { ChangeDetectionStrategy, Component, computed, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { scaleBand, scaleLinear } from 'd3';
 import { BarGroup, formatNumber } from './chart-types';
-import { downloadText, fileNameFor, toCsv } from './csv';
+import { ChartData } from './chart-data';
+import { toCsv } from './csv';
 
 const MARGIN = { top: 16, right: 16, bottom: 56, left: 64 };
 
@@ -18,6 +19,7 @@ const FILLS = ['solid', 'hatch', 'dots'] as const;
 @Component({
   selector: 'rw-bar-chart',
   templateUrl: './bar-chart.html',
+  imports: [ChartData],
   styleUrl: './chart.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
@@ -35,7 +37,6 @@ export class BarChart {
 
   protected readonly id = `rw-bar-chart-${nextBarChartId++}`;
   protected readonly margin = MARGIN;
-  protected readonly showTable = signal(false);
 
   protected readonly plotWidth = computed(() => this.width() - MARGIN.left - MARGIN.right);
   protected readonly plotHeight = computed(() => this.height() - MARGIN.top - MARGIN.bottom);
@@ -130,15 +131,8 @@ export class BarChart {
     ]),
   );
 
-  protected toggleTable(): void {
-    this.showTable.update((v) => !v);
-  }
-
   csv(): string {
     return toCsv(this.header(), this.cells(), [this.chartTitle()]);
   }
 
-  protected downloadCsv(): void {
-    downloadText(this.csv(), fileNameFor(this.chartTitle(), 'csv'));
-  }
 }

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { extent, line, scaleLinear, symbol, symbolCircle, symbolCross, symbolDiamond, symbolSquare, symbolStar, symbolTriangle, SymbolType } from 'd3';
 import {
   axisTitle,
@@ -10,7 +10,8 @@ import {
   SERIES_DASHES,
   SERIES_MARKERS,
 } from './chart-types';
-import { downloadText, fileNameFor, toCsv } from './csv';
+import { ChartData } from './chart-data';
+import { toCsv } from './csv';
 import { seriesTable, tableCells } from './series-table';
 
 const SYMBOLS: Readonly<Record<MarkerShape, SymbolType>> = {
@@ -62,6 +63,7 @@ function paddedDomain(values: number[], includeZero: boolean): [number, number] 
 @Component({
   selector: 'rw-line-chart',
   templateUrl: './line-chart.html',
+  imports: [ChartData],
   styleUrl: './chart.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
@@ -79,7 +81,6 @@ export class LineChart {
   readonly height = input<number>(300);
 
   protected readonly id = `rw-line-chart-${nextChartId++}`;
-  protected readonly showTable = signal(false);
   protected readonly margin = MARGIN;
 
   protected readonly plotWidth = computed(() => this.width() - MARGIN.left - MARGIN.right);
@@ -174,16 +175,9 @@ export class LineChart {
   protected readonly table = computed(() => seriesTable(this.series(), this.x(), this.y()));
   protected readonly cells = computed(() => tableCells(this.table()));
 
-  protected toggleTable(): void {
-    this.showTable.update((v) => !v);
-  }
-
   /** The chart's numbers as CSV text (also what the download button saves). */
   csv(): string {
     return toCsv(this.table().header, this.cells(), [this.chartTitle()]);
   }
 
-  protected downloadCsv(): void {
-    downloadText(this.csv(), fileNameFor(this.chartTitle(), 'csv'));
-  }
 }
