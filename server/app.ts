@@ -30,10 +30,14 @@ import { vehiclesRouter } from './routes/vehicles.js';
 import { axleDesignsRouter, vehicleAxleDesignsRouter } from './routes/axle-designs.js';
 import { computeRouter } from './routes/compute.js';
 import { configurationsRouter } from './routes/configurations.js';
+import { devMailRouter } from './routes/dev-mail.js';
+import { MailWorker } from './mail/outbox.js';
 
 export type RollwiseApp = Express & {
   /** Stops the app's own timers, workers and session store (not the database). */
   close(): Promise<void>;
+  /** The outbox worker, when SMTP_URL is set (tests run passes with it). */
+  mail: MailWorker | undefined;
 };
 
 const BODY_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
@@ -62,7 +66,21 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   const proposals = new Proposals(db.orm, designs);
   const pool = createComputePool({ threads: config.computeThreads, warm: config.computeWarmStart });
   const jobs = new SolveJobs(pool, { timeLimitMs: config.solveJobTimeLimitMs });
-  const configurations = new Configurations(db.orm, pool, config.computeTimeLimitMs);
+  const configurations = new Configurations(db.orm, pool, config.computeTimeLimitMs, config.publicUrl);
+
+  const mail = config.smtpUrl
+    ? new MailWorker(db.orm, {
+        smtpUrl: config.smtpUrl,
+        from: config.mailFrom,
+        pollMs: config.mailPollMs,
+        maxAttempts: config.mailMaxAttempts,
+        backoffBaseMs: config.mailBackoffMs,
+        logger,
+      })
+    : undefined;
+  if (mail) mail.start();
+  else logger.warn('SMTP_URL is not set: mail stays in the outbox until a mail server is configured');
+  app.mail = mail;
 
   app.use(requestLogger(logger));
   app.use(securityHeaders(config.staticDir, config.production));
@@ -84,6 +102,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use('/teams/:teamId/vehicles', vehiclesRouter(vehicles, auth));
   api.use('/teams/:teamId/axle-designs', axleDesignsRouter(designs, proposals, auth));
   api.use('/teams/:teamId/configurations', configurationsRouter(configurations, auth));
+  if (!config.production) api.use('/teams/:teamId/dev/mail', devMailRouter(db.orm, auth));
   api.use('/teams', teamsRouter(teams, auth));
   api.use('/compute', computeRouter(pool, jobs, auth, config.computeTimeLimitMs));
   api.use(apiNotFound);
@@ -116,6 +135,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   app.close = async () => {
     session.close();
     jobs.close();
+    await mail?.stop();
     await pool.close();
   };
   return app;

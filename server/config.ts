@@ -23,8 +23,22 @@ export interface Config {
   /** Built Angular app served with SPA fallback; absent folder = API only. */
   staticDir: string;
   logLevel: LogLevel;
-  /** Outgoing mail server, e.g. smtp://127.0.0.1:2525 (not used yet). */
+  /** Outgoing mail server, e.g. smtp://127.0.0.1:2525; unset = mail waits in the outbox. */
   smtpUrl: string | undefined;
+  /** Sender of every mail. */
+  mailFrom: string;
+  /** How often the mail worker looks for due mail, and its retry policy. */
+  mailPollMs: number;
+  mailMaxAttempts: number;
+  mailBackoffMs: number;
+  /** Start the local fake SMTP server in the server process and send to it (never in production). */
+  fakeSmtp: boolean;
+  /** Its port (0 = any free port). */
+  fakeSmtpPort: number;
+  /** Team invitation links expire after this long. */
+  invitationTtlMs: number;
+  /** Password reset links expire after this long. */
+  passwordResetTtlMs: number;
   /** Sessions end after this long without a request (rolling). */
   sessionIdleMs: number;
   /** Sessions end this long after sign-in whatever the activity. */
@@ -100,6 +114,14 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     staticDir: resolve(env['ROLLWISE_STATIC_DIR'] || 'dist/rollwise/browser'),
     logLevel,
     smtpUrl: env['SMTP_URL'] || undefined,
+    mailFrom: env['MAIL_FROM'] || 'Rollwise <no-reply@rollwise.invalid>',
+    mailPollMs: int(env, 'MAIL_POLL_MS', test ? 100 : 2000, 10),
+    mailMaxAttempts: int(env, 'MAIL_MAX_ATTEMPTS', 10, 1),
+    mailBackoffMs: int(env, 'MAIL_BACKOFF_MS', test ? 50 : 30_000, 1),
+    fakeSmtp: production ? false : flag(env, 'ROLLWISE_FAKE_SMTP', false),
+    fakeSmtpPort: int(env, 'ROLLWISE_FAKE_SMTP_PORT', 0),
+    invitationTtlMs: int(env, 'INVITATION_TTL_HOURS', 24 * 7, 1) * 3_600_000,
+    passwordResetTtlMs: int(env, 'PASSWORD_RESET_TTL_MINUTES', 60, 1) * 60_000,
     sessionIdleMs: int(env, 'SESSION_IDLE_MINUTES', 120, 1) * 60_000,
     sessionAbsoluteMs: int(env, 'SESSION_ABSOLUTE_HOURS', 24 * 7, 1) * 3_600_000,
     signInLimit: {

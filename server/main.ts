@@ -12,11 +12,15 @@ import { migrateDatabase } from './db/migrate.js';
 import { seedDemo } from './db/seed.js';
 import { createApp } from './app.js';
 import { createLogger } from './http/logging.js';
+import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp.js';
+import { capturedMail } from './db/schema.js';
 
 const SHUTDOWN_GRACE_MS = 5_000;
 
 export interface RunningServer {
   url: string;
+  /** smtp://… of the in-process fake SMTP server, when ROLLWISE_FAKE_SMTP started one. */
+  smtpUrl?: string | undefined;
   close(): Promise<void>;
 }
 
@@ -35,6 +39,21 @@ export async function startServer(overrides: Partial<Config> = {}): Promise<Runn
     await db.close();
     throw err;
   }
+  // Development and tests: the fake SMTP server runs in this process and stores what it receives.
+  let fake: FakeSmtp | undefined;
+  if (config.fakeSmtp && !config.production) {
+    fake = await startFakeSmtp({
+      port: config.fakeSmtpPort,
+      store: async (m) => {
+        await db.orm
+          .insert(capturedMail)
+          .values({ messageId: m.messageId, fromAddress: m.from, toAddresses: m.to, subject: m.subject, textBody: m.text, receivedAt: m.receivedAt })
+          .onConflictDoNothing();
+      },
+    });
+    config.smtpUrl ??= fake.url;
+    logger.info({ smtp: fake.url }, 'fake SMTP server listening (development only)');
+  }
   const app = createApp(config, db);
   const server = await new Promise<import('node:http').Server>((resolve, reject) => {
     const s = app.listen(config.port, config.host, (err?: Error) => (err ? reject(err) : resolve(s)));
@@ -46,6 +65,7 @@ export async function startServer(overrides: Partial<Config> = {}): Promise<Runn
   let closing: Promise<void> | undefined;
   return {
     url,
+    smtpUrl: fake?.url,
     close: () =>
       (closing ??= (async () => {
         // Requests in flight may finish (up to a grace period); idle keep-alive connections close now.
@@ -58,6 +78,7 @@ export async function startServer(overrides: Partial<Config> = {}): Promise<Runn
           server.closeIdleConnections();
         });
         await app.close();
+        await fake?.close();
         await db.close();
       })()),
   };

@@ -24,7 +24,9 @@ import {
   configurationRevisions,
   configurations,
   configurationTransitions,
+  memberships,
   reviewComments,
+  teams,
   users,
   vehicleRevisions,
   vehicles,
@@ -38,6 +40,8 @@ import { trackProfiles, type TrackProfileId } from '../../shared/intent/profiles
 import { upgradeCornerDocument } from '../../shared/schema/corner.js';
 import { upgradeVehicleDocument } from '../../shared/schema/vehicle.js';
 import { staleRevision } from './revisions.js';
+import { enqueueMail, type OutgoingMail } from '../mail/outbox.js';
+import { mailText } from '../mail/messages.js';
 import { diffDocuments, type Difference } from './document-diff.js';
 
 export type ReviewAction = 'submit' | 'withdraw' | 'approve' | 'request-changes' | 'release' | 'validate';
@@ -160,6 +164,7 @@ export class Configurations {
     private readonly orm: Orm,
     private readonly pool: ComputePool,
     private readonly computeTimeLimitMs: number,
+    private readonly publicUrl: string,
   ) {}
 
   private select(orm: Executor) {
@@ -454,14 +459,10 @@ export class Configurations {
         if (now.revision !== before.revision) throw staleRevision(before.revision, now);
         throw invalidTransition(action, now.status);
       }
-      await tx.insert(configurationTransitions).values({
-        configurationId: id,
-        revision: before.revision,
-        fromStatus: before.status,
-        toStatus: t.to,
-        message: o.message ?? null,
-        actorId: actor.id,
-      });
+      const [transitionRow] = await tx
+        .insert(configurationTransitions)
+        .values({ configurationId: id, revision: before.revision, fromStatus: before.status, toStatus: t.to, message: o.message ?? null, actorId: actor.id })
+        .returning({ id: configurationTransitions.id });
       if (snapshot && results) {
         await tx.insert(configurationApprovals).values({
           configurationId: id,
@@ -474,9 +475,55 @@ export class Configurations {
         });
       }
       const after = await this.get(teamId, id, tx);
+      await enqueueMail(tx, await this.reviewMails(tx, teamId, after, action, actor.id, o.message ?? null, transitionRow!.id));
       await afterTransition?.(tx, after, before.status);
       return after;
     });
+  }
+
+  /** Review requested → the team's reviewers; approved / changes requested → who submitted and who authored the revision. */
+  private async reviewMails(
+    tx: Executor,
+    teamId: string,
+    c: ConfigurationView,
+    action: ReviewAction,
+    actorId: string,
+    message: string | null,
+    transitionId: string,
+  ): Promise<OutgoingMail[]> {
+    if (action !== 'submit' && action !== 'approve' && action !== 'request-changes') return [];
+    const [team] = await tx.select({ name: teams.name }).from(teams).where(eq(teams.id, teamId));
+    const [actor] = await tx.select({ name: users.displayName }).from(users).where(eq(users.id, actorId));
+    const link = `${this.publicUrl}/teams/${teamId}/configurations/${c.id}`;
+    const base = { teamName: team?.name ?? '', configurationName: c.name, revision: c.revision, link, message };
+    let recipients: { id: string; email: string }[];
+    if (action === 'submit') {
+      recipients = await tx
+        .select({ id: users.id, email: users.email })
+        .from(memberships)
+        .innerJoin(users, eq(users.id, memberships.userId))
+        .where(and(eq(memberships.teamId, teamId), sql`'reviewer' = ANY(${memberships.roles})`));
+    } else {
+      const rev = await this.revisionRow(c.id, c.revision, tx);
+      const submitters = await tx
+        .select({ actorId: configurationTransitions.actorId })
+        .from(configurationTransitions)
+        .where(and(eq(configurationTransitions.configurationId, c.id), eq(configurationTransitions.revision, c.revision), eq(configurationTransitions.toStatus, 'in_review')));
+      const ids = [...new Set([rev.authorId, ...submitters.map((x) => x.actorId)].filter((x): x is string => !!x))];
+      recipients = ids.length
+        ? await tx
+            .select({ id: users.id, email: users.email })
+            .from(users)
+            .where(sql`${users.id} IN (${sql.join(ids.map((x) => sql`${x}`), sql`, `)})`)
+        : [];
+    }
+    const text =
+      action === 'submit'
+        ? mailText.reviewRequested({ ...base, submitterName: actor?.name ?? 'Someone' })
+        : mailText.decisionMade({ ...base, deciderName: actor?.name ?? 'A reviewer', decision: action === 'approve' ? 'approved' : 'changes requested' });
+    return recipients
+      .filter((r) => r.id !== actorId)
+      .map((r) => ({ kind: action === 'submit' ? 'review-requested' : 'decision-made', to: r.email, teamId, ...text, dedupeKey: `transition:${transitionId}:${r.id}` }));
   }
 
   async approvals(teamId: string, id: string) {

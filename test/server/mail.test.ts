@@ -1,0 +1,149 @@
+/**
+ * Mail through the outbox: the fake SMTP server receives review mail; with
+ * the server stopped the action still succeeds and the mail goes out when it
+ * returns; enqueueing is idempotent and two workers never send a row twice;
+ * the development mail API shows a team owner the captured mail.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { eq, sql } from 'drizzle-orm';
+import { capturedMail, mailOutbox } from '../../server/db/schema.js';
+import { enqueueMail, MailWorker } from '../../server/mail/outbox.js';
+import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp.js';
+import { agent, expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+
+let t: TestApp;
+let fake: FakeSmtp;
+let smtpPort = 0;
+let owner: Agent, engineer: Agent, designer: Agent, reviewer: Agent;
+let teamId = '';
+let body: Record<string, string> = {};
+
+async function startFake(port = 0): Promise<FakeSmtp> {
+  return startFakeSmtp({
+    port,
+    store: async (m) => {
+      await t.db.orm
+        .insert(capturedMail)
+        .values({ messageId: m.messageId, fromAddress: m.from, toAddresses: m.to, subject: m.subject, textBody: m.text })
+        .onConflictDoNothing();
+    },
+  });
+}
+
+beforeAll(async () => {
+  // The app needs the SMTP address before it starts; the fake needs the database to store into.
+  const probe = await startFakeSmtp();
+  smtpPort = probe.port;
+  await probe.close();
+  t = await startTestApp({ seed: true, config: { smtpUrl: `smtp://127.0.0.1:${smtpPort}`, mailPollMs: 50, mailBackoffMs: 20 } });
+  fake = await startFake(smtpPort);
+  owner = await signIn(t.app, 'owner@tallowmere.example');
+  engineer = await signIn(t.app, 'engineer@tallowmere.example');
+  designer = await signIn(t.app, 'designer@tallowmere.example');
+  reviewer = await signIn(t.app, 'reviewer@tallowmere.example');
+  teamId = (await owner.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
+  const vehicleId = (await owner.get(`/api/teams/${teamId}/vehicles`).expect(200)).body.find((v: { name: string }) => v.name === 'TUR-26 Ember').id;
+  const designs = (await owner.get(`/api/teams/${teamId}/vehicles/${vehicleId}/axle-designs`).expect(200)).body as { id: string; name: string }[];
+  body = {
+    vehicleId,
+    frontDesignId: designs.find((d) => d.name === 'Front baseline')!.id,
+    rearDesignId: designs.find((d) => d.name === 'Rear baseline')!.id,
+    trackProfile: 'smooth-circuit',
+  };
+});
+afterAll(async () => {
+  await t?.close();
+  await fake?.close();
+});
+
+async function configuration(name: string): Promise<string> {
+  const r = await designer.post(`/api/teams/${teamId}/configurations`).send({ ...body, name });
+  expect(r.status, JSON.stringify(r.body)).toBe(201);
+  return r.body.id;
+}
+
+describe('mail', () => {
+  it('review requested goes to the reviewers; the decision to who submitted it', async () => {
+    const id = await configuration('Mail walk');
+    await designer.post(`/api/teams/${teamId}/configurations/${id}/submit`).send({ message: 'please look at the rear' }).expect(200);
+    const asked = await fake.waitFor((m) => m.subject.includes('Review requested: Mail walk'));
+    expect(asked.to).toEqual(['reviewer@tallowmere.example']);
+    expect(asked.text).toContain('Dana Quist submitted the configuration "Mail walk", revision 1, of Tallowmere University Racing');
+    expect(asked.text).toContain('please look at the rear');
+    expect(asked.text).toContain(`/teams/${teamId}/configurations/${id}`);
+    expect(asked.from).toBe('no-reply@rollwise.invalid');
+
+    await reviewer.post(`/api/teams/${teamId}/configurations/${id}/request-changes`).send({ message: 'ε rear too small — raise the toe link' }).expect(200);
+    const decided = await fake.waitFor((m) => m.subject.startsWith('Mail walk (revision 1): changes requested'));
+    expect(decided.to).toEqual(['designer@tallowmere.example']);
+    expect(decided.text).toContain('Ravi Osei decided');
+    expect(decided.text).toContain('ε rear too small — raise the toe link');
+  });
+
+  it('with the mail server stopped the action succeeds, and the mail goes out once it is back', async () => {
+    await fake.close();
+    const id = await configuration('While down');
+    await engineer.post(`/api/teams/${teamId}/configurations/${id}/submit`).send({}).expect(200);
+    const [row] = await t.db.orm.select().from(mailOutbox).where(sql`${mailOutbox.subject} LIKE 'Review requested: While down%'`);
+    expect(row).toBeDefined();
+    // The worker keeps trying and records why it could not send.
+    await expect.poll(async () => (await t.db.orm.select().from(mailOutbox).where(eq(mailOutbox.id, row!.id)))[0]!.attempts, { timeout: 5000 }).toBeGreaterThanOrEqual(1);
+    const failed = (await t.db.orm.select().from(mailOutbox).where(eq(mailOutbox.id, row!.id)))[0]!;
+    expect(failed.status).toBe('pending');
+    expect(failed.lastError).toMatch(/ECONNREFUSED|connect/i);
+    expect(failed.nextAttemptAt.getTime()).toBeGreaterThan(failed.createdAt.getTime());
+
+    fake = await startFake(smtpPort);
+    const m = await fake.waitFor((x) => x.subject.startsWith('Review requested: While down'), 10_000);
+    expect(m.to).toEqual(['reviewer@tallowmere.example']);
+    await expect.poll(async () => (await t.db.orm.select().from(mailOutbox).where(eq(mailOutbox.id, row!.id)))[0]!.status, { timeout: 5000 }).toBe('sent');
+    expect(fake.messages.filter((x) => x.subject.startsWith('Review requested: While down'))).toHaveLength(1);
+  });
+
+  it('enqueueing is idempotent and two workers claiming together send each mail once', async () => {
+    await enqueueMail(t.db.orm, { kind: 'test', to: 'a@test.example', subject: 'Once only', text: 'x', dedupeKey: 'once-only' });
+    await enqueueMail(t.db.orm, { kind: 'test', to: 'a@test.example', subject: 'Once only', text: 'x', dedupeKey: 'once-only' });
+    expect(await t.db.orm.select().from(mailOutbox).where(eq(mailOutbox.dedupeKey, 'once-only'))).toHaveLength(1);
+
+    // Stop the app's own worker so only the two below claim rows.
+    await t.app.mail!.stop();
+    await enqueueMail(
+      t.db.orm,
+      Array.from({ length: 12 }, (_, i) => ({ kind: 'test', to: `batch${i}@test.example`, subject: `Batch ${i}`, text: `mail ${i}` })),
+    );
+    const options = { smtpUrl: fake.url, from: 'Rollwise <no-reply@rollwise.invalid>', pollMs: 1000, maxAttempts: 3, backoffBaseMs: 10, batchSize: 5 };
+    const w1 = new MailWorker(t.db.orm, options);
+    const w2 = new MailWorker(t.db.orm, options);
+    let sent = 0;
+    for (let i = 0; i < 6; i++) sent += (await Promise.all([w1.runOnce(), w2.runOnce()])).reduce((a, b) => a + b, 0);
+    await w1.stop();
+    await w2.stop();
+    expect(sent).toBe(13); // the 12 and the once-only mail
+    for (let i = 0; i < 12; i++) expect(fake.messages.filter((m) => m.subject === `Batch ${i}`), `Batch ${i}`).toHaveLength(1);
+    const pending = await t.db.orm.select().from(mailOutbox).where(eq(mailOutbox.status, 'pending'));
+    expect(pending).toEqual([]);
+  });
+
+  it('the development mail API shows the team owner the captured mail, and nobody else', async () => {
+    const r = await owner.get(`/api/teams/${teamId}/dev/mail`).expect(200);
+    const subjects = (r.body as { subject: string }[]).map((m) => m.subject);
+    expect(subjects.some((s) => s.startsWith('Review requested: Mail walk'))).toBe(true);
+    expect(subjects).not.toContain('Batch 1'); // not to this team's members, not caused by this team
+    expectError(await engineer.get(`/api/teams/${teamId}/dev/mail`), 403, 'forbidden');
+    const kit = await signIn(t.app, 'owner@brackenfield.example');
+    expectError(await kit.get(`/api/teams/${teamId}/dev/mail`), 404, 'not_found');
+  });
+
+  it('a production server has no development mail API', async () => {
+    // Anonymous callers see the difference without a session: 401 where the route exists, 404 "no route" where it does not.
+    expectError(await agent(t.app).get(`/api/teams/${teamId}/dev/mail`), 401, 'unauthenticated');
+    const prod = await startTestApp({ databaseUrl: t.databaseUrl, config: { production: true, sessionSecret: 'x'.repeat(40) } });
+    try {
+      const r = await agent(prod.app).get(`/api/teams/${teamId}/dev/mail`);
+      expectError(r, 404, 'not_found');
+      expect(r.body.error.message).toContain('No API route');
+    } finally {
+      await prod.close();
+    }
+  });
+});
