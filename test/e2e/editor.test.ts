@@ -161,6 +161,57 @@ describe('Axle design editor in Chromium', () => {
     await theirs.close();
   });
 
+  it('imports hardpoints: a good CSV, one with a bad row, and one from another CAD frame', async () => {
+    const page = await browser.newPage();
+    await signIn(page, app.baseUrl, 'designer@tallowmere.example');
+    await page.goto(app.baseUrl + designPath);
+    await page.locator('[data-testid="toe-chart"] path.rw-series-line').first().waitFor();
+    const z = Number(await page.getByLabel(TIE_ROD_INNER_Z).inputValue());
+    const [x, y] = [
+      Number(await page.getByLabel('Tie rod, inner end (rack), x in mm').inputValue()),
+      Number(await page.getByLabel('Tie rod, inner end (rack), y in mm').inputValue()),
+    ];
+    const before = await rackZeroBumpSteer(page);
+    const upload = (name: string, text: string) =>
+      page.locator('rw-hardpoint-import input[type="file"]').setInputFiles({ name, mimeType: 'text/csv', buffer: Buffer.from(text, 'utf8') });
+    const decimalComma = (v: number) => String(v).replace('.', ',');
+
+    // A bad row is named, and nothing can be applied.
+    await page.getByRole('button', { name: 'Import…' }).click();
+    await upload('bad.csv', `point,x (mm),y (mm),z (mm)\ntieRodInner,${x},${y},${z + 4}\nlowerOuter,2,five,130\n`);
+    await page.getByText('Line 3 (lowerOuter): y "five" is not a number.').waitFor();
+    await expect(page.getByRole('button', { name: 'Apply import' }).isDisabled()).resolves.toBe(true);
+
+    // A good file from a spreadsheet in a decimal-comma locale: semicolons and a byte-order mark.
+    await upload('good.csv', `\uFEFFpoint;x (mm);y (mm);z (mm)\r\nTie rod, inner end (rack);${decimalComma(x)};${decimalComma(y)};${decimalComma(z + 4.5)}\r\n`);
+    await page.locator('.rw-preview-table tbody tr').first().waitFor();
+    await page.getByRole('button', { name: 'Apply import' }).click();
+    await page.getByText('Imported 1 point(s).', { exact: false }).waitFor();
+    expect(Number(await page.getByLabel(TIE_ROD_INNER_Z).inputValue())).toBe(z + 4.5);
+    await page.waitForFunction(
+      (b) => document.querySelector('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]')?.textContent?.trim() !== b,
+      before,
+    );
+
+    // A file from a CAD model with y to the right, z down, in metres: mapped before it is applied.
+    await page.getByRole('button', { name: 'Import…' }).click();
+    await upload('cad.csv', `point,x,y,z\ntieRodInner,${x / 1000},${-y / 1000},${-(z + 2) / 1000}\n`);
+    await page.getByLabel('Axis convention').selectOption({ label: 'x forward, y right, z down' });
+    await page.getByLabel('CAD length unit').selectOption({ label: 'metre' });
+    await page.locator('rw-hardpoint-import .rw-overlay').first().waitFor();
+    await saveScreenshot(page, 'editor-import-cad-preview');
+    await page.getByRole('button', { name: 'Apply import' }).click();
+    await page.getByText('Imported 1 point(s).', { exact: false }).waitFor();
+    expect(Number(await page.getByLabel(TIE_ROD_INNER_Z).inputValue())).toBeCloseTo(z + 2, 6);
+    expect(Number(await page.getByLabel('Tie rod, inner end (rack), y in mm').inputValue())).toBeCloseTo(y, 6);
+
+    // Each import is one undo step.
+    await page.getByRole('button', { name: 'Undo' }).click();
+    await page.waitForFunction((v) => Number((document.getElementById('hp-points-tieRodInner-z') as HTMLInputElement).value) === v, z + 4.5);
+    expect(consoleErrors(page)).toEqual([]);
+    await page.close();
+  });
+
   it('can be worked by keyboard alone: reach a coordinate, change it, undo, redo and save', async () => {
     const page = await browser.newPage();
     await signIn(page, app.baseUrl, 'designer@tallowmere.example');
