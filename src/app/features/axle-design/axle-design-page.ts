@@ -51,6 +51,7 @@ function travelStorageKey(designId: string): string {
   changeDetection: ChangeDetectionStrategy.OnPush,
   host: {
     '(keydown)': 'shortcut($event)',
+    '(window:beforeunload)': 'warnBeforeUnload($event)',
   },
 })
 export class AxleDesignPage implements OnInit {
@@ -304,6 +305,11 @@ export class AxleDesignPage implements OnInit {
 
   protected redo(): void {
     this.history?.redo();
+  }
+
+  /** Closing or reloading the tab with unsaved edits asks first (the browser words the question). */
+  protected warnBeforeUnload(event: BeforeUnloadEvent): void {
+    if (this.dirty()) event.preventDefault();
   }
 
   protected shortcut(event: KeyboardEvent): void {

@@ -52,6 +52,7 @@ function requiredText(control: AbstractControl<string>): ValidationErrors | null
   templateUrl: './vehicle-page.html',
   styleUrl: './vehicle-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  host: { '(window:beforeunload)': 'warnBeforeUnload($event)' },
 })
 export class VehiclePage implements OnInit {
   private readonly route = inject(ActivatedRoute);
@@ -107,6 +108,11 @@ export class VehiclePage implements OnInit {
 
   ngOnInit(): void {
     void this.load();
+  }
+
+  /** Closing or reloading the tab with unsaved entries asks first. */
+  protected warnBeforeUnload(event: BeforeUnloadEvent): void {
+    if (this.dirty()) event.preventDefault();
   }
 
   private async load(): Promise<void> {
