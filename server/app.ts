@@ -21,6 +21,8 @@ import { Vehicles } from './services/vehicles.js';
 import { AxleDesigns } from './services/axle-designs.js';
 import { Proposals } from './services/proposals.js';
 import { Configurations } from './services/configurations.js';
+import { Invitations } from './services/invitations.js';
+import { invitationLinksRouter, teamInvitationsRouter } from './routes/invitations.js';
 import { createComputePool } from './compute/pool.js';
 import { SolveJobs } from './compute/jobs.js';
 import { healthRouter } from './routes/health.js';
@@ -59,7 +61,12 @@ export function createApp(config: Config, db: Database): RollwiseApp {
 
   const session = createSession(config, db.pool, (err) => logger.warn({ err }, 'session store error'));
   const auth = createAuthorizer(db.orm);
-  const accounts = new Accounts(db.orm, config.bcryptRounds);
+  const accounts = new Accounts(db.orm, config.bcryptRounds, {
+    secret: config.sessionSecret,
+    publicUrl: config.publicUrl,
+    passwordResetTtlMs: config.passwordResetTtlMs,
+  });
+  const invitations = new Invitations(db.orm, accounts, { secret: config.sessionSecret, publicUrl: config.publicUrl, ttlMs: config.invitationTtlMs });
   const teams = new Teams(db.orm);
   const vehicles = new Vehicles(db.orm);
   const designs = new AxleDesigns(db.orm);
@@ -101,6 +108,8 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use('/teams/:teamId/vehicles/:vehicleId/axle-designs', vehicleAxleDesignsRouter(designs, auth));
   api.use('/teams/:teamId/vehicles', vehiclesRouter(vehicles, auth));
   api.use('/teams/:teamId/axle-designs', axleDesignsRouter(designs, proposals, auth));
+  api.use('/invitations', invitationLinksRouter(invitations, accounts));
+  api.use('/teams/:teamId/invitations', teamInvitationsRouter(invitations, auth));
   api.use('/teams/:teamId/configurations', configurationsRouter(configurations, auth));
   if (!config.production) api.use('/teams/:teamId/dev/mail', devMailRouter(db.orm, auth));
   api.use('/teams', teamsRouter(teams, auth));

@@ -10,17 +10,20 @@ import { destroySession, endOtherSessions, establishSession, SESSION_COOKIE } fr
 import { normaliseEmail, type Accounts } from '../services/accounts.js';
 
 // bcrypt reads at most 72 bytes; longer passwords would be silently truncated.
-const password = (min: number) =>
+export const password = (min: number) =>
   z
     .string()
     .min(min, `must be at least ${min} characters`)
     .refine((s) => Buffer.byteLength(s, 'utf8') <= 72, 'must be at most 72 bytes');
-const email = z.string().trim().pipe(z.email('must be an e-mail address').max(254));
-const displayName = z.string().trim().min(1, 'is required').max(100);
+export const email = z.string().trim().pipe(z.email('must be an e-mail address').max(254));
+export const displayName = z.string().trim().min(1, 'is required').max(100);
 
 const registerSchema = z.strictObject({ email, password: password(10), displayName });
 const signInSchema = z.strictObject({ email: z.string().min(1, 'is required').max(254), password: z.string().min(1, 'is required').max(1000) });
 const changePasswordSchema = z.strictObject({ currentPassword: z.string().min(1, 'is required').max(1000), newPassword: password(10) });
+const resetRequestSchema = z.strictObject({ email: z.string().trim().min(1, 'is required').max(254) });
+const resetConfirmSchema = z.strictObject({ token: z.string().min(10).max(200), newPassword: password(10) });
+const verifySchema = z.strictObject({ token: z.string().min(10).max(2000) });
 const profileSchema = z.strictObject({ displayName: displayName.optional(), displayUnits: z.enum(['si', 'imperial']).optional() });
 
 export function authRouter(config: Config, accounts: Accounts, pool: pg.Pool, auth: Authorizer): Router {
@@ -41,6 +44,15 @@ export function authRouter(config: Config, accounts: Accounts, pool: pg.Pool, au
     handler: (_req, _res, next) => {
       next(new HttpError(429, 'rate_limited', 'Too many sign-in attempts. Please wait a few minutes and try again.'));
     },
+  });
+
+  const resetLimiter = rateLimit({
+    windowMs: config.signInLimit.windowMs,
+    limit: config.signInLimit.max,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    keyGenerator: (req) => ipKeyGenerator(req.ip ?? ''),
+    handler: (_req, _res, next) => next(new HttpError(429, 'rate_limited', 'Too many reset requests. Please wait a few minutes and try again.')),
   });
 
   r.get('/me', auth.requireUser, async (req, res) => {
@@ -84,6 +96,33 @@ export function authRouter(config: Config, accounts: Accounts, pool: pg.Pool, au
     await accounts.changePassword(id, currentPassword, newPassword);
     await endOtherSessions(pool, id, req.sessionID);
     res.status(204).end();
+  });
+
+  // Public: always 202, whether or not the address has an account (nothing is disclosed).
+  r.post('/password-reset', resetLimiter, async (req, res) => {
+    const { email: e } = validate(resetRequestSchema, req.body);
+    await accounts.requestPasswordReset(e);
+    res.status(202).json({ status: 'If an account uses that address, a reset link is on its way.' });
+  });
+
+  // Public: the token from the mail is the credential; every session of the account ends.
+  r.post('/password-reset/confirm', async (req, res) => {
+    const { token, newPassword } = validate(resetConfirmSchema, req.body);
+    const userId = await accounts.resetPassword(token, newPassword);
+    await endOtherSessions(pool, userId, '');
+    res.status(204).end();
+  });
+
+  // Public: confirming an address needs only the link.
+  r.post('/verify-email', async (req, res) => {
+    const { token } = validate(verifySchema, req.body);
+    await accounts.verifyEmail(token);
+    res.json({ verified: true });
+  });
+
+  r.post('/verify-email/resend', auth.requireUser, async (req, res) => {
+    await accounts.resendVerification(currentUser(req).id);
+    res.status(202).json({ status: 'A new confirmation link is on its way.' });
   });
 
   return r;

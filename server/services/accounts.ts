@@ -1,13 +1,27 @@
 /** Users: registration, credentials, profile, and the `Me` view of the API. */
+import { createHash, randomBytes } from 'node:crypto';
 import bcrypt from 'bcryptjs';
-import { asc, eq } from 'drizzle-orm';
-import type { Orm } from '../db/client.js';
-import { memberships, teams, users } from '../db/schema.js';
+import { and, asc, eq, gt, isNull, sql } from 'drizzle-orm';
+import type { Executor, Orm } from '../db/client.js';
+import { memberships, passwordResets, teams, users } from '../db/schema.js';
 import { HttpError } from '../http/errors.js';
+import { makeToken, readToken } from '../http/signed-token.js';
+import { enqueueMail } from '../mail/outbox.js';
+import { mailText } from '../mail/messages.js';
 import type { Role } from '../permissions.js';
 
+/** Links in account mail: signing secret, the app's address, lifetimes. */
+export interface AccountMailOptions {
+  secret: string;
+  publicUrl: string;
+  passwordResetTtlMs: number;
+  verificationTtlMs?: number;
+}
+
+const sha256 = (s: string) => createHash('sha256').update(s).digest('hex');
+
 export interface Me {
-  user: { id: string; email: string; displayName: string; displayUnits: 'si' | 'imperial'; instructor: boolean };
+  user: { id: string; email: string; displayName: string; displayUnits: 'si' | 'imperial'; instructor: boolean; emailVerified: boolean };
   memberships: { teamId: string; teamName: string; teamSlug: string; roles: Role[] }[];
 }
 
@@ -20,6 +34,7 @@ export class Accounts {
   constructor(
     private readonly orm: Orm,
     private readonly bcryptRounds: number,
+    private readonly mail: AccountMailOptions = { secret: 'unset', publicUrl: 'http://127.0.0.1', passwordResetTtlMs: 3_600_000 },
   ) {}
 
   hashPassword(password: string): Promise<string> {
@@ -28,30 +43,92 @@ export class Accounts {
 
   async me(userId: string): Promise<Me> {
     const [u] = await this.orm
-      .select({ id: users.id, email: users.email, displayName: users.displayName, displayUnits: users.displayUnits, instructor: users.instructor })
+      .select({ id: users.id, email: users.email, displayName: users.displayName, displayUnits: users.displayUnits, instructor: users.instructor, verifiedAt: users.emailVerifiedAt })
       .from(users)
       .where(eq(users.id, userId));
     if (!u) throw new HttpError(401, 'unauthenticated', 'Please sign in');
+    const { verifiedAt, ...user } = u;
     const rows = await this.orm
       .select({ teamId: teams.id, teamName: teams.name, teamSlug: teams.slug, roles: memberships.roles })
       .from(memberships)
       .innerJoin(teams, eq(teams.id, memberships.teamId))
       .where(eq(memberships.userId, userId))
       .orderBy(asc(teams.name));
-    return { user: u, memberships: rows.map((r) => ({ ...r, roles: r.roles as Role[] })) };
+    return { user: { ...user, emailVerified: verifiedAt !== null }, memberships: rows.map((r) => ({ ...r, roles: r.roles as Role[] })) };
   }
 
   async register(input: { email: string; password: string; displayName: string }): Promise<string> {
     const email = normaliseEmail(input.email);
     const passwordHash = await this.hashPassword(input.password);
-    const rows = await this.orm
-      .insert(users)
-      .values({ email, passwordHash, displayName: input.displayName })
-      .onConflictDoNothing({ target: users.email })
+    return this.orm.transaction(async (tx) => {
+      const rows = await tx
+        .insert(users)
+        .values({ email, passwordHash, displayName: input.displayName })
+        .onConflictDoNothing({ target: users.email })
+        .returning({ id: users.id });
+      const row = rows[0];
+      if (!row) throw new HttpError(409, 'email_taken', 'An account with that e-mail address already exists');
+      await this.enqueueVerification(tx, row.id, email, input.displayName);
+      return row.id;
+    });
+  }
+
+  private async enqueueVerification(tx: Executor, userId: string, email: string, displayName: string): Promise<void> {
+    const expiresAt = new Date(Date.now() + (this.mail.verificationTtlMs ?? 7 * 24 * 3_600_000));
+    const token = makeToken(this.mail.secret, 'verify-email', { uid: userId, email }, expiresAt);
+    const text = mailText.verifyEmail({ displayName, link: `${this.mail.publicUrl}/verify-email/${token}` });
+    await enqueueMail(tx, { kind: 'verify-email', to: email, ...text });
+  }
+
+  /** Sends a new verification mail (the old links keep working until they expire). */
+  async resendVerification(userId: string): Promise<void> {
+    const [u] = await this.orm.select().from(users).where(eq(users.id, userId));
+    if (!u) throw new HttpError(401, 'unauthenticated', 'Please sign in');
+    if (u.emailVerifiedAt) throw new HttpError(409, 'already_verified', 'Your e-mail address is already confirmed');
+    await this.orm.transaction((tx) => this.enqueueVerification(tx, u.id, u.email, u.displayName));
+  }
+
+  /** Confirms the address the link was sent to (only if the account still uses it). */
+  async verifyEmail(token: string): Promise<void> {
+    const t = readToken<{ uid: string; email: string }>(this.mail.secret, 'verify-email', token);
+    if (!t.ok || typeof t.payload.uid !== 'string' || typeof t.payload.email !== 'string') {
+      throw new HttpError(400, 'verification_invalid', 'This confirmation link is not valid');
+    }
+    if (t.expired) throw new HttpError(410, 'verification_expired', 'This confirmation link has expired; ask for a new one from your account page');
+    const done = await this.orm
+      .update(users)
+      .set({ emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, now())` })
+      .where(and(eq(users.id, t.payload.uid), eq(users.email, t.payload.email)))
       .returning({ id: users.id });
-    const row = rows[0];
-    if (!row) throw new HttpError(409, 'email_taken', 'An account with that e-mail address already exists');
-    return row.id;
+    if (!done.length) throw new HttpError(400, 'verification_invalid', 'This confirmation link is for an address the account no longer uses');
+  }
+
+  /** Mails a single-use reset link when the address has an account; says nothing either way. */
+  async requestPasswordReset(emailRaw: string): Promise<void> {
+    const [u] = await this.orm.select().from(users).where(eq(users.email, normaliseEmail(emailRaw)));
+    if (!u) return;
+    const token = randomBytes(32).toString('base64url');
+    await this.orm.transaction(async (tx) => {
+      await tx.insert(passwordResets).values({ tokenHash: sha256(token), userId: u.id, expiresAt: new Date(Date.now() + this.mail.passwordResetTtlMs) });
+      const text = mailText.passwordReset({ displayName: u.displayName, link: `${this.mail.publicUrl}/reset-password/${token}`, minutes: Math.round(this.mail.passwordResetTtlMs / 60_000) });
+      await enqueueMail(tx, { kind: 'password-reset', to: u.email, ...text });
+    });
+  }
+
+  /** Uses a reset token once; returns the user whose password changed. */
+  async resetPassword(token: string, newPassword: string): Promise<string> {
+    const passwordHash = await this.hashPassword(newPassword);
+    return this.orm.transaction(async (tx) => {
+      const [r] = await tx
+        .update(passwordResets)
+        .set({ usedAt: sql`now()` })
+        .where(and(eq(passwordResets.tokenHash, sha256(token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, sql`now()`)))
+        .returning({ userId: passwordResets.userId });
+      if (!r) throw new HttpError(400, 'reset_link_invalid', 'This reset link is not valid, was already used or has expired; ask for a new one');
+      // A link sent to the address also proves it.
+      await tx.update(users).set({ passwordHash, emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, now())` }).where(eq(users.id, r.userId));
+      return r.userId;
+    });
   }
 
   /** The user id when the credentials match; null otherwise (same cost either way). */

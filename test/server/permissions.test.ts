@@ -188,6 +188,25 @@ const ROWS: Row[] = [
     path: () => `${design()}/proposals/${proposalId}`,
     expect: { owner: 403, engineer: 200, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
   },
+  {
+    name: 'list invitations',
+    method: 'get',
+    path: () => `${team()}/invitations`,
+    expect: { owner: 200, engineer: 403, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  {
+    name: 'invite by e-mail',
+    method: 'post',
+    path: () => `${team()}/invitations`,
+    body: () => ({ email: `invitee-${Date.now()}-${Math.random().toString(36).slice(2)}@test.example`, roles: ['viewer'] }),
+    expect: { owner: 201, engineer: 403, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  {
+    name: 'captured mail (development only)',
+    method: 'get',
+    path: () => `${team()}/dev/mail`,
+    expect: { owner: 200, engineer: 403, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
   { name: 'list configurations', method: 'get', path: () => `${team()}/configurations`, expect: READ },
   {
     name: 'create configuration',

@@ -1,0 +1,61 @@
+/**
+ * Team invitations: the owner invites by e-mail (/api/teams/:teamId/invitations);
+ * the invited person opens the link (/api/invitations/:token: GET shows it and
+ * never accepts, POST …/accept accepts once).
+ */
+import { Router } from 'express';
+import { z } from 'zod';
+import { validate } from '../http/errors.js';
+import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
+import { establishSession } from '../http/session.js';
+import { ROLES } from '../permissions.js';
+import type { Accounts } from '../services/accounts.js';
+import type { Invitations } from '../services/invitations.js';
+import { displayName, email, password } from './auth.js';
+
+const roles = z
+  .array(z.enum(ROLES))
+  .min(1, 'give at least one role')
+  .transform((r) => ROLES.filter((x) => r.includes(x)));
+const inviteSchema = z.strictObject({ email, roles });
+const acceptSchema = z.strictObject({ displayName: displayName.optional(), password: password(10).optional() });
+const token = (raw: unknown) => validate(z.string().min(10).max(2000), raw, 'invitation link');
+
+/** Mounted at /api/teams/:teamId/invitations. */
+export function teamInvitationsRouter(invitations: Invitations, auth: Authorizer): Router {
+  const r = Router({ mergeParams: true });
+  r.get('/', auth.requirePermission('members:manage'), async (req, res) => {
+    res.json(await invitations.list(currentAccess(req).teamId));
+  });
+  r.post('/', auth.requirePermission('members:manage'), async (req, res) => {
+    const input = validate(inviteSchema, req.body);
+    res.status(201).json(await invitations.create(currentAccess(req).teamId, currentUser(req).id, input));
+  });
+  return r;
+}
+
+/** Mounted at /api/invitations (public: the link is the credential). */
+export function invitationLinksRouter(invitations: Invitations, accounts: Accounts): Router {
+  const r = Router();
+  r.get('/:token', async (req, res) => {
+    res.json(await invitations.info(token(req.params['token'])));
+  });
+  r.post('/:token/accept', async (req, res) => {
+    const t = token(req.params['token']);
+    const body = validate(acceptSchema, req.body ?? {});
+    const signedIn = req.session?.userId ? await accounts.me(req.session.userId).catch(() => undefined) : undefined;
+    let result: { userId: string; teamId: string };
+    if (signedIn) {
+      result = await invitations.accept(t, { userId: signedIn.user.id, email: signedIn.user.email });
+    } else {
+      const reg = validate(
+        z.object({ displayName, password: password(10) }, { error: 'give displayName and password to create your account, or sign in first' }),
+        body,
+      );
+      result = await invitations.accept(t, { register: reg });
+      await establishSession(req, result.userId);
+    }
+    res.json({ teamId: result.teamId, me: await accounts.me(result.userId) });
+  });
+  return r;
+}
