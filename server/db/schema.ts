@@ -406,3 +406,34 @@ export const passwordResets = pgTable('password_resets', {
   usedAt: timestamp('used_at', { withTimezone: true }),
   createdAt: createdAt(),
 });
+
+export const TOKEN_SCOPES = ['read', 'write'] as const;
+export type TokenScope = (typeof TOKEN_SCOPES)[number];
+
+/**
+ * Personal API tokens for scripts and the command line: bound to one user
+ * and one team, read or write. Only a SHA-256 of the token is stored; the
+ * token itself is shown once, when created.
+ */
+export const apiTokens = pgTable(
+  'api_tokens',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    userId: uuid('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    scope: text('scope', { enum: TOKEN_SCOPES }).notNull(),
+    tokenHash: text('token_hash').notNull(),
+    /** The first characters, so a person can tell their tokens apart. */
+    prefix: text('prefix').notNull(),
+    expiresAt: timestamp('expires_at', { withTimezone: true }),
+    lastUsedAt: timestamp('last_used_at', { withTimezone: true }),
+    revokedAt: timestamp('revoked_at', { withTimezone: true }),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('api_tokens_hash_unique').on(t.tokenHash), index('api_tokens_user_idx').on(t.userId)],
+);
