@@ -23,6 +23,9 @@ import { Proposals } from './services/proposals.js';
 import { Configurations } from './services/configurations.js';
 import { Invitations } from './services/invitations.js';
 import { invitationLinksRouter, teamInvitationsRouter } from './routes/invitations.js';
+import { ApiTokens } from './services/api-tokens.js';
+import { bearerAuth } from './http/bearer.js';
+import { apiTokensRouter } from './routes/api-tokens.js';
 import { createComputePool } from './compute/pool.js';
 import { SolveJobs } from './compute/jobs.js';
 import { healthRouter } from './routes/health.js';
@@ -68,6 +71,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   });
   const invitations = new Invitations(db.orm, accounts, { secret: config.sessionSecret, publicUrl: config.publicUrl, ttlMs: config.invitationTtlMs });
   const teams = new Teams(db.orm);
+  const apiTokens = new ApiTokens(db.orm);
   const vehicles = new Vehicles(db.orm);
   const designs = new AxleDesigns(db.orm);
   const proposals = new Proposals(db.orm, designs);
@@ -100,10 +104,13 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   });
   api.use(requireJsonBody);
   api.use(express.json({ limit: config.bodyLimit }));
+  api.use(bearerAuth(apiTokens));
   api.use(csrfProtection(config.publicUrl));
   api.use('/health', healthRouter(db.pool));
-  api.use(session.middleware);
+  // A token-authenticated request neither reads nor creates a session.
+  api.use((req, res, next) => (req.tokenGrant ? next() : session.middleware(req, res, next)));
   api.use(absoluteTimeout(config.sessionAbsoluteMs));
+  api.use('/auth/tokens', apiTokensRouter(apiTokens, auth));
   api.use('/auth', authRouter(config, accounts, db.pool, auth));
   api.use('/teams/:teamId/vehicles/:vehicleId/axle-designs', vehicleAxleDesignsRouter(designs, auth));
   api.use('/teams/:teamId/vehicles', vehiclesRouter(vehicles, auth));

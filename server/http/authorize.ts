@@ -11,6 +11,7 @@ import type { Orm } from '../db/client.js';
 import { memberships, users } from '../db/schema.js';
 import { hasPermission, type Permission, type Role } from '../permissions.js';
 import { HttpError, notFound } from './errors.js';
+import { tokenAllows } from './bearer.js';
 
 export interface SessionUser {
   id: string;
@@ -84,6 +85,10 @@ export function createAuthorizer(orm: Orm): Authorizer {
         .from(memberships)
         .where(and(eq(memberships.teamId, teamId), eq(memberships.userId, user.id)));
       if (!m) throw notFound('Team');
+      if (req.tokenGrant) {
+        const refused = tokenAllows(req.tokenGrant, teamId, req.method);
+        if (refused) throw refused;
+      }
       if (!hasPermission(m.roles, permission)) {
         throw new HttpError(403, 'forbidden', `Your roles in this team do not allow this (needs ${permission})`, { permission });
       }

@@ -14,6 +14,8 @@ export function csrfProtection(publicUrl: string): RequestHandler {
   const publicOrigin = new URL(publicUrl).origin;
   return (req, _res, next) => {
     if (SAFE_METHODS.has(req.method)) return next();
+    // Token-authenticated scripts (bearer.ts ran first and accepted the token): no browser, no CSRF.
+    if (req.tokenGrant) return next();
     if (req.get(CSRF_HEADER) !== '1') {
       return next(new HttpError(403, 'csrf_refused', 'This request is missing the X-Rollwise-Request header'));
     }

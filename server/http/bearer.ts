@@ -1,0 +1,47 @@
+/**
+ * `Authorization: Bearer rw_…` for scripts and the command line. A request
+ * with a token is authenticated by it alone (no session, no cookie) and is
+ * exempt from the CSRF header: a browser never attaches it by itself, so a
+ * cross-site page cannot ride on it. An invalid token is 401, never a
+ * fallback to the session.
+ */
+import type { RequestHandler } from 'express';
+import type { ApiTokens, TokenGrant } from '../services/api-tokens.js';
+import { HttpError } from './errors.js';
+
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace Express {
+    interface Request {
+      /** Set when the request authenticated with a personal API token. */
+      tokenGrant?: TokenGrant;
+    }
+  }
+}
+
+const BEARER = /^Bearer\s+(\S+)$/i;
+const READ_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
+
+export function bearerAuth(tokens: ApiTokens): RequestHandler {
+  return async (req, _res, next) => {
+    const header = req.get('authorization');
+    if (header === undefined) return next();
+    const m = BEARER.exec(header);
+    const found = m ? await tokens.authenticate(m[1]!) : null;
+    if (!found) return next(new HttpError(401, 'invalid_token', 'The API token is not valid (unknown, revoked or expired)'));
+    // Account and token management need a signed-in person, not a script.
+    if (req.path.startsWith('/auth/') && !(req.path === '/auth/me' && READ_METHODS.has(req.method))) {
+      return next(new HttpError(403, 'session_required', 'Sign in to do this; API tokens cannot manage accounts or tokens'));
+    }
+    req.user = found.user;
+    req.tokenGrant = found.grant;
+    next();
+  };
+}
+
+/** What a token's scope allows on a team route: read = reading only; write = also changes. */
+export function tokenAllows(grant: TokenGrant, teamId: string, method: string): HttpError | null {
+  if (grant.teamId !== teamId) return new HttpError(403, 'token_scope', 'This API token is for another team');
+  if (grant.scope === 'read' && !READ_METHODS.has(method)) return new HttpError(403, 'token_scope', 'This API token may only read; create a write token to make changes');
+  return null;
+}
