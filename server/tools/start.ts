@@ -45,6 +45,9 @@ async function main(): Promise<void> {
   process.env['PORT'] = String(port);
   process.env['SESSION_SECRET'] ??= readFileSync(secretFile, 'utf8').trim();
   process.env['ROLLWISE_STATIC_DIR'] ??= join(root, 'dist', 'rollwise', 'browser');
+  // Development mail: a local fake SMTP server on loopback stores every message;
+  // team owners read them in the app. Set SMTP_URL to use a real server instead.
+  if (!process.env['SMTP_URL']) process.env['ROLLWISE_FAKE_SMTP'] ??= 'true';
   const { startServer } = await import('../main.js');
   let server: Awaited<ReturnType<typeof startServer>>;
   try {
@@ -54,7 +57,7 @@ async function main(): Promise<void> {
     throw err;
   }
   console.log(`
-Rollwise is running at ${server.url}
+Rollwise is running at ${server.url}${server.smtpUrl ? `\nDevelopment mail goes to the local fake SMTP server at ${server.smtpUrl}` : ''}
 
 Demo sign-ins (password for all: demo-pass-2026):
   owner@tallowmere.example        owner     Tallowmere University Racing

@@ -35,6 +35,7 @@ export async function startE2eApp(): Promise<E2eApp> {
     staticDir,
     logLevel: 'silent',
     production: false,
+    fakeSmtp: true,
   });
   return { baseUrl: server.url, databaseUrl, stop: () => server.close() };
 }
