@@ -437,3 +437,27 @@ export const apiTokens = pgTable(
   },
   (t) => [uniqueIndex('api_tokens_hash_unique').on(t.tokenHash), index('api_tokens_user_idx').on(t.userId)],
 );
+
+/**
+ * Who changed what, when (UTC), per team; entries about an axle design carry
+ * its id so the design's own history can be listed. Written in the same
+ * transaction as the change where the change has one. Never updated.
+ */
+export const activityLog = pgTable(
+  'activity_log',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    actorId: uuid('actor_id').references(() => users.id, { onDelete: 'set null' }),
+    /** e.g. `vehicle.data`, `design.corner`, `configuration.approve`, `member.add`. */
+    action: text('action').notNull(),
+    subjectType: text('subject_type').notNull(),
+    subjectId: uuid('subject_id'),
+    designId: uuid('design_id'),
+    summary: text('summary').notNull(),
+    at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('activity_log_team_idx').on(t.teamId, t.at), index('activity_log_design_idx').on(t.designId, t.at)],
+);
