@@ -56,7 +56,8 @@ class Raw {
 function toJsonText(v: unknown): string {
   if (v instanceof Raw) return v.text;
   if (v === undefined) return 'null';
-  if (Array.isArray(v)) return `[${v.map(toJsonText).join(',')}]`;
+  // Plain loops, not map/splice: a mutated array may carry an own `constructor` key, which breaks Symbol.species.
+  if (Array.isArray(v)) return `[${Array.from({ length: v.length }, (_, i) => toJsonText(v[i])).join(',')}]`;
   if (v && typeof v === 'object') {
     return `{${Object.entries(v as Record<string, unknown>)
       .filter(([, x]) => x !== undefined)
@@ -69,7 +70,7 @@ function toJsonText(v: unknown): string {
 /** Deep copy that keeps Raw fragments and own `__proto__` keys (structuredClone keeps neither). */
 function clone(v: unknown): unknown {
   if (v instanceof Raw || v === null || typeof v !== 'object') return v;
-  if (Array.isArray(v)) return v.map(clone);
+  if (Array.isArray(v)) return Array.from({ length: v.length }, (_, i) => clone(v[i]));
   const out = {};
   for (const [k, x] of Object.entries(v)) Object.defineProperty(out, k, { value: clone(x), enumerable: true, writable: true, configurable: true });
   return out;
@@ -202,7 +203,7 @@ function applyMutation(body: Json, m: Mutation): Json {
     case 'delete': {
       const where = parentOf(body, pick(m.at));
       if (where) {
-        if (Array.isArray(where.parent)) where.parent.splice(where.key as number, 1);
+        if (Array.isArray(where.parent)) Array.prototype.copyWithin.call(where.parent, where.key as number, (where.key as number) + 1), (where.parent.length -= 1);
         else delete (where.parent as Record<PathStep, Json>)[where.key];
       }
       return body;
