@@ -26,6 +26,8 @@ import { invitationLinksRouter, teamInvitationsRouter } from './routes/invitatio
 import { ApiTokens } from './services/api-tokens.js';
 import { bearerAuth } from './http/bearer.js';
 import { apiTokensRouter } from './routes/api-tokens.js';
+import { Activity } from './services/activity.js';
+import { activityRouter } from './routes/activity.js';
 import { createComputePool } from './compute/pool.js';
 import { SolveJobs } from './compute/jobs.js';
 import { healthRouter } from './routes/health.js';
@@ -72,6 +74,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   const invitations = new Invitations(db.orm, accounts, { secret: config.sessionSecret, publicUrl: config.publicUrl, ttlMs: config.invitationTtlMs });
   const teams = new Teams(db.orm);
   const apiTokens = new ApiTokens(db.orm);
+  const activity = new Activity(db.orm);
   const vehicles = new Vehicles(db.orm);
   const designs = new AxleDesigns(db.orm);
   const proposals = new Proposals(db.orm, designs);
@@ -119,6 +122,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use('/teams/:teamId/invitations', teamInvitationsRouter(invitations, auth));
   api.use('/teams/:teamId/configurations', configurationsRouter(configurations, auth));
   if (!config.production) api.use('/teams/:teamId/dev/mail', devMailRouter(db.orm, auth));
+  api.use('/teams/:teamId', activityRouter(activity, designs, auth));
   api.use('/teams', teamsRouter(teams, auth));
   api.use('/compute', computeRouter(pool, jobs, auth, config.computeTimeLimitMs));
   api.use(apiNotFound);

@@ -61,22 +61,22 @@ export function teamsRouter(teams: Teams, auth: Authorizer): Router {
 
   r.post('/:teamId/members', requirePermission('members:manage'), async (req, res) => {
     const input = validate(addMemberSchema, req.body);
-    res.status(201).json(await teams.addMember(currentAccess(req).teamId, input.email, input.roles));
+    res.status(201).json(await teams.addMember(currentAccess(req).teamId, input.email, input.roles, currentUser(req).id));
   });
 
   r.patch('/:teamId/members/:userId', requirePermission('members:manage'), async (req, res) => {
     const input = validate(changeRolesSchema, req.body);
-    res.json(await teams.changeMember(currentAccess(req).teamId, memberId(req.params['userId']), input.roles));
+    res.json(await teams.changeMember(currentAccess(req).teamId, memberId(req.params['userId']), input.roles, currentUser(req).id));
   });
 
   // Any member may leave a team (the last owner may not).
   r.delete('/:teamId/membership', requirePermission('team:read'), async (req, res) => {
-    await teams.changeMember(currentAccess(req).teamId, currentUser(req).id, null);
+    await teams.changeMember(currentAccess(req).teamId, currentUser(req).id, null, currentUser(req).id);
     res.status(204).end();
   });
 
   r.delete('/:teamId/members/:userId', requirePermission('members:manage'), async (req, res) => {
-    await teams.changeMember(currentAccess(req).teamId, memberId(req.params['userId']), null);
+    await teams.changeMember(currentAccess(req).teamId, memberId(req.params['userId']), null, currentUser(req).id);
     res.status(204).end();
   });
 

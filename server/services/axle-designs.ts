@@ -9,6 +9,7 @@ import { axleDesignRevisions, axleDesigns, users, vehicles, type Axle, type Desi
 import { notFound } from '../http/errors.js';
 import { cornerSchema, upgradeCornerDocument, type Corner } from '../../shared/schema/corner.js';
 import { parseDocument, staleRevision, type RevisionRow } from './revisions.js';
+import { changeWords, recordActivity } from './activity.js';
 
 export interface AxleDesignView {
   id: string;
@@ -87,6 +88,7 @@ export class AxleDesigns {
         message: 'Created',
         authorId,
       });
+      await recordActivity(tx, { teamId, actorId: authorId, action: 'design.create', subjectType: 'axle_design', subjectId: d.id, designId: d.id, summary: `Created ${d.axle} axle design "${d.name}"` });
       return this.get(teamId, d.id, tx);
     });
   }
@@ -122,6 +124,15 @@ export class AxleDesigns {
         corner: row.corner,
         message: change.message ?? null,
         authorId,
+      });
+      await recordActivity(tx, {
+        teamId,
+        actorId: authorId,
+        action: change.corner !== undefined ? 'design.corner' : 'design.update',
+        subjectType: 'axle_design',
+        subjectId: designId,
+        designId,
+        summary: `Axle design "${row.name}" revision ${row.revision}: ${changeWords(change, 'corner')}${change.message ? ` (${change.message})` : ''}`,
       });
       return this.get(teamId, designId, tx);
     });

@@ -43,6 +43,7 @@ import { staleRevision } from './revisions.js';
 import { enqueueMail, type OutgoingMail } from '../mail/outbox.js';
 import { mailText } from '../mail/messages.js';
 import { diffDocuments, type Difference } from './document-diff.js';
+import { recordActivity } from './activity.js';
 
 export type ReviewAction = 'submit' | 'withdraw' | 'approve' | 'request-changes' | 'release' | 'validate';
 export const REVIEW_ACTIONS: readonly ReviewAction[] = ['submit', 'withdraw', 'approve', 'request-changes', 'release', 'validate'];
@@ -239,6 +240,7 @@ export class Configurations {
         .values({ teamId, name: input.name, ...refs, updatedBy: authorId })
         .returning({ id: configurations.id });
       await tx.insert(configurationRevisions).values({ configurationId: c!.id, revision: 1, name: input.name, ...refs, message: input.message ?? 'Created', authorId });
+      await recordActivity(tx, { teamId, actorId: authorId, action: 'configuration.create', subjectType: 'configuration', subjectId: c!.id, summary: `Created configuration "${input.name}"` });
       return this.get(teamId, c!.id, tx);
     });
   }
@@ -275,6 +277,14 @@ export class Configurations {
         .returning({ revision: configurations.revision, status: configurations.status });
       if (!row) throw staleRevision(baseRevision, await this.get(teamId, id, tx));
       await tx.insert(configurationRevisions).values({ configurationId: id, revision: row.revision, name, ...refs, message: change.message ?? null, authorId });
+      await recordActivity(tx, {
+        teamId,
+        actorId: authorId,
+        action: 'configuration.revise',
+        subjectType: 'configuration',
+        subjectId: id,
+        summary: `Configuration "${name}" revision ${row.revision}${change.message ? ` (${change.message})` : ''}`,
+      });
       if (current.status !== 'draft') {
         await tx.insert(configurationTransitions).values({
           configurationId: id,
@@ -475,6 +485,14 @@ export class Configurations {
         });
       }
       const after = await this.get(teamId, id, tx);
+      await recordActivity(tx, {
+        teamId,
+        actorId: actor.id,
+        action: `configuration.${action}`,
+        subjectType: 'configuration',
+        subjectId: id,
+        summary: `Configuration "${after.name}" revision ${after.revision}: ${before.status.replace('_', ' ')} → ${t.to.replace('_', ' ')}${o.message ? ` (${o.message})` : ''}`,
+      });
       await enqueueMail(tx, await this.reviewMails(tx, teamId, after, action, actor.id, o.message ?? null, transitionRow!.id));
       await afterTransition?.(tx, after, before.status);
       return after;
@@ -624,11 +642,15 @@ export class Configurations {
       if (!p) throw new HttpError(404, 'not_found', 'The comment replied to was not found', { field: 'parentId' });
       if (p.parentId !== null) throw new HttpError(400, 'invalid_input', 'Reply to the first comment of a thread', { fields: [{ path: 'parentId', message: 'is a reply itself' }] });
     }
-    const [row] = await this.orm
-      .insert(reviewComments)
-      .values({ configurationId: id, revision: c.revision, parentId: input.parentId ?? null, resultRef: input.resultRef ?? null, body: input.body, authorId })
-      .returning();
-    return row!;
+    return this.orm.transaction(async (tx) => {
+      const [row] = await tx
+        .insert(reviewComments)
+        .values({ configurationId: id, revision: c.revision, parentId: input.parentId ?? null, resultRef: input.resultRef ?? null, body: input.body, authorId })
+        .returning();
+      const on = input.resultRef ? ` on ${input.resultRef}` : '';
+      await recordActivity(tx, { teamId, actorId: authorId, action: 'comment.create', subjectType: 'comment', subjectId: row!.id, summary: `Commented${on} on configuration "${c.name}": ${input.body.slice(0, 200)}` });
+      return row!;
+    });
   }
 
   async resolveThread(teamId: string, id: string, commentId: string, userId: string, resolved: boolean) {

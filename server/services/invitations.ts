@@ -14,6 +14,7 @@ import { enqueueMail } from '../mail/outbox.js';
 import { mailText } from '../mail/messages.js';
 import type { Role } from '../permissions.js';
 import { normaliseEmail, type Accounts } from './accounts.js';
+import { recordActivity } from './activity.js';
 
 const invalid = () => new HttpError(404, 'invitation_invalid', 'This invitation link is not valid; ask the team owner for a new one');
 const expired = () => new HttpError(410, 'invitation_expired', 'This invitation has expired; ask the team owner for a new one');
@@ -57,6 +58,7 @@ export class Invitations {
       const token = makeToken(this.o.secret, 'invitation', { id: inv!.id }, expiresAt);
       const text = mailText.invitation({ teamName: team!.name, inviterName: inviter?.name ?? 'A team owner', roles: input.roles, link: this.link(token), expiresAt });
       await enqueueMail(tx, { kind: 'invitation', to: email, teamId, ...text, dedupeKey: `invitation:${inv!.id}` });
+      await recordActivity(tx, { teamId, actorId: inviterId, action: 'invitation.create', subjectType: 'invitation', subjectId: inv!.id, summary: `Invited ${email} as ${input.roles.join(', ')}` });
       return { id: inv!.id, email, roles: input.roles as Role[], expiresAt, acceptedAt: null };
     });
   }
@@ -132,6 +134,7 @@ export class Invitations {
       const added = await tx.insert(memberships).values({ teamId: inv.teamId, userId, roles: inv.roles }).onConflictDoNothing().returning();
       if (!added.length) throw new HttpError(409, 'already_member', 'You are already a member of this team');
       await tx.update(teamInvitations).set({ acceptedBy: userId }).where(eq(teamInvitations.id, inv.id));
+      await recordActivity(tx, { teamId: inv.teamId, actorId: userId, action: 'invitation.accept', subjectType: 'invitation', subjectId: inv.id, summary: `${inv.email} accepted the invitation as ${inv.roles.join(', ')}` });
       return { userId, teamId: inv.teamId };
     });
   }

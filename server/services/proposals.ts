@@ -12,6 +12,7 @@ import { axleDesignProposals, axleDesignRevisions, axleDesigns, users, type Prop
 import { HttpError, notFound } from '../http/errors.js';
 import { upgradeCornerDocument, type Corner } from '../../shared/schema/corner.js';
 import type { AxleDesigns, AxleDesignView } from './axle-designs.js';
+import { recordActivity } from './activity.js';
 
 export interface ProposalView {
   id: string;
@@ -88,11 +89,23 @@ export class Proposals {
   ): Promise<ProposalView> {
     const design = await this.designs.get(teamId, designId);
     if (input.baseRevision !== design.revision) throw this.outdated(input.baseRevision, design);
-    const [p] = await this.orm
-      .insert(axleDesignProposals)
-      .values({ designId, baseRevision: input.baseRevision, corner: input.corner, message: input.message ?? null, origin: input.origin ?? null, authorId })
-      .returning({ id: axleDesignProposals.id });
-    return this.get(teamId, designId, p!.id);
+    const p = await this.orm.transaction(async (tx) => {
+      const [row] = await tx
+        .insert(axleDesignProposals)
+        .values({ designId, baseRevision: input.baseRevision, corner: input.corner, message: input.message ?? null, origin: input.origin ?? null, authorId })
+        .returning({ id: axleDesignProposals.id });
+      await recordActivity(tx, {
+        teamId,
+        actorId: authorId,
+        action: 'proposal.create',
+        subjectType: 'proposal',
+        subjectId: row!.id,
+        designId,
+        summary: `Proposed geometry for "${design.name}" on revision ${input.baseRevision}${input.message ? ` (${input.message})` : ''}`,
+      });
+      return row!;
+    });
+    return this.get(teamId, designId, p.id);
   }
 
   /** Writes the proposed corner as the design's next revision (status `accepted`). */
@@ -129,6 +142,15 @@ export class Proposals {
         .update(axleDesignProposals)
         .set({ status: 'accepted', decidedBy: deciderId, decidedAt: sql`now()`, decisionMessage: message ?? null, acceptedRevision: row.revision })
         .where(eq(axleDesignProposals.id, proposalId));
+      await recordActivity(tx, {
+        teamId,
+        actorId: deciderId,
+        action: 'proposal.accept',
+        subjectType: 'proposal',
+        subjectId: proposalId,
+        designId,
+        summary: `Accepted a proposal for "${row.name}" as revision ${row.revision}`,
+      });
     });
     return { proposal: await this.get(teamId, designId, proposalId), design: await this.designs.get(teamId, designId) };
   }
@@ -145,12 +167,19 @@ export class Proposals {
   }
 
   private async close(teamId: string, designId: string, proposalId: string, status: 'rejected' | 'withdrawn', userId: string, message?: string) {
-    await this.designs.get(teamId, designId);
-    const updated = await this.orm
-      .update(axleDesignProposals)
-      .set({ status, decidedBy: userId, decidedAt: sql`now()`, decisionMessage: message ?? null })
-      .where(and(eq(axleDesignProposals.id, proposalId), eq(axleDesignProposals.designId, designId), eq(axleDesignProposals.status, 'open')))
-      .returning({ id: axleDesignProposals.id });
+    const design = await this.designs.get(teamId, designId);
+    const updated = await this.orm.transaction(async (tx) => {
+      const rows = await tx
+        .update(axleDesignProposals)
+        .set({ status, decidedBy: userId, decidedAt: sql`now()`, decisionMessage: message ?? null })
+        .where(and(eq(axleDesignProposals.id, proposalId), eq(axleDesignProposals.designId, designId), eq(axleDesignProposals.status, 'open')))
+        .returning({ id: axleDesignProposals.id });
+      if (rows.length) {
+        const verb = status === 'rejected' ? 'Rejected' : 'Withdrew';
+        await recordActivity(tx, { teamId, actorId: userId, action: `proposal.${status === 'rejected' ? 'reject' : 'withdraw'}`, subjectType: 'proposal', subjectId: proposalId, designId, summary: `${verb} a proposal for "${design.name}"${message ? ` (${message})` : ''}` });
+      }
+      return rows;
+    });
     if (!updated.length) throw closed(await this.get(teamId, designId, proposalId));
     return this.get(teamId, designId, proposalId);
   }

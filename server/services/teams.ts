@@ -5,6 +5,7 @@ import { memberships, teams, users } from '../db/schema.js';
 import { HttpError, notFound } from '../http/errors.js';
 import { permissionsOf, type Role } from '../permissions.js';
 import { normaliseEmail } from './accounts.js';
+import { recordActivity } from './activity.js';
 
 export interface TeamSummary {
   id: string;
@@ -69,19 +70,23 @@ export class Teams {
     return rows.map((r) => ({ ...r, roles: r.roles as Role[] }));
   }
 
-  async addMember(teamId: string, emailRaw: string, roles: Role[]): Promise<Member> {
+  async addMember(teamId: string, emailRaw: string, roles: Role[], actorId: string | null = null): Promise<Member> {
     const [u] = await this.orm
       .select({ id: users.id, email: users.email, displayName: users.displayName })
       .from(users)
       .where(eq(users.email, normaliseEmail(emailRaw)));
     if (!u) throw new HttpError(404, 'user_not_found', 'No Rollwise account uses that e-mail address; ask them to register first');
-    const inserted = await this.orm.insert(memberships).values({ teamId, userId: u.id, roles }).onConflictDoNothing().returning();
+    const inserted = await this.orm.transaction(async (tx) => {
+      const rows = await tx.insert(memberships).values({ teamId, userId: u.id, roles }).onConflictDoNothing().returning();
+      if (rows.length) await recordActivity(tx, { teamId, actorId, action: 'member.add', subjectType: 'member', subjectId: u.id, summary: `Added ${u.displayName} as ${roles.join(', ')}` });
+      return rows;
+    });
     if (!inserted.length) throw new HttpError(409, 'already_member', `${u.displayName} is already a member of this team`);
     return { userId: u.id, email: u.email, displayName: u.displayName, roles };
   }
 
   /** Changes roles (roles given) or removes the member (roles null), never leaving the team without an owner. */
-  async changeMember(teamId: string, userId: string, roles: Role[] | null): Promise<Member | null> {
+  async changeMember(teamId: string, userId: string, roles: Role[] | null, actorId: string | null = null): Promise<Member | null> {
     return this.orm.transaction(async (tx) => {
       // Lock the team's memberships so two concurrent demotions cannot both pass the owner count.
       const all = await tx
@@ -94,12 +99,16 @@ export class Teams {
       const ownersAfter = all.filter((m) => (m.userId === userId ? roles?.includes('owner') : m.roles.includes('owner'))).length;
       if (ownersAfter === 0) throw lastOwner();
       const where = and(eq(memberships.teamId, teamId), eq(memberships.userId, userId));
+      const [u] = await tx.select({ email: users.email, displayName: users.displayName }).from(users).where(eq(users.id, userId));
+      const who = u?.displayName ?? 'a member';
       if (roles === null) {
         await tx.delete(memberships).where(where);
+        const summary = actorId === userId ? `${who} left the team` : `Removed ${who}`;
+        await recordActivity(tx, { teamId, actorId, action: 'member.remove', subjectType: 'member', subjectId: userId, summary });
         return null;
       }
       await tx.update(memberships).set({ roles }).where(where);
-      const [u] = await tx.select({ email: users.email, displayName: users.displayName }).from(users).where(eq(users.id, userId));
+      await recordActivity(tx, { teamId, actorId, action: 'member.roles', subjectType: 'member', subjectId: userId, summary: `Roles of ${who}: ${target.roles.join(', ')} → ${roles.join(', ')}` });
       return { userId, email: u?.email ?? '', displayName: u?.displayName ?? '', roles };
     });
   }

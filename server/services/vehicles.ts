@@ -9,6 +9,7 @@ import { users, vehicleRevisions, vehicles } from '../db/schema.js';
 import { notFound } from '../http/errors.js';
 import { upgradeVehicleDocument, vehicleSchema, type Vehicle } from '../../shared/schema/vehicle.js';
 import { parseDocument, staleRevision, type RevisionRow } from './revisions.js';
+import { changeWords, recordActivity } from './activity.js';
 
 export interface VehicleView {
   id: string;
@@ -57,6 +58,7 @@ export class Vehicles {
       const [v] = await tx.insert(vehicles).values({ teamId, name: input.name, data, updatedBy: authorId }).returning({ id: vehicles.id });
       if (!v) throw new Error('insert returned nothing');
       await tx.insert(vehicleRevisions).values({ vehicleId: v.id, revision: 1, name: input.name, archived: false, data, message: 'Created', authorId });
+      await recordActivity(tx, { teamId, actorId: authorId, action: 'vehicle.create', subjectType: 'vehicle', subjectId: v.id, summary: `Created vehicle "${input.name}"` });
       return this.get(teamId, v.id, tx);
     });
   }
@@ -95,6 +97,14 @@ export class Vehicles {
         data: row.data,
         message: change.message ?? null,
         authorId,
+      });
+      await recordActivity(tx, {
+        teamId,
+        actorId: authorId,
+        action: change.data !== undefined ? 'vehicle.data' : 'vehicle.update',
+        subjectType: 'vehicle',
+        subjectId: vehicleId,
+        summary: `Vehicle "${row.name}" revision ${row.revision}: ${changeWords(change, 'data')}${change.message ? ` (${change.message})` : ''}`,
       });
       return this.get(teamId, vehicleId, tx);
     });

@@ -207,6 +207,9 @@ const ROWS: Row[] = [
     path: () => `${team()}/dev/mail`,
     expect: { owner: 200, engineer: 403, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
   },
+  { name: 'team activity', method: 'get', path: () => `${team()}/activity`, expect: READ },
+  { name: 'team activity as CSV', method: 'get', path: () => `${team()}/activity?format=csv`, expect: READ },
+  { name: 'axle design activity', method: 'get', path: () => `${design()}/activity`, expect: READ },
   { name: 'list configurations', method: 'get', path: () => `${team()}/configurations`, expect: READ },
   {
     name: 'create configuration',
