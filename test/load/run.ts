@@ -1,7 +1,8 @@
 /**
  * `npm run load` (issue 8, "Load"): starts a throwaway PostgreSQL cluster and
- * the real server (seeded), signs in as the demo engineer and drives it with
- * autocannon over loopback. Every scenario is bounded in time and in request
+ * the real server (server/main.ts → startServer, seeded) in its own process,
+ * so the load generator does not share the server's event loop, signs in as
+ * the demo engineer and drives it with autocannon over loopback. Every scenario is bounded in time and in request
  * count and stops by itself. Prints requests/s, p50/p99 latency and errors
  * per scenario, and writes test-results/load.json. Targets are printed, not
  * asserted: zero errors; mixed p99 ≤ 200 ms; read p99 ≤ 50 ms while compute
@@ -19,7 +20,7 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import autocannon, { type Request, type Result } from 'autocannon';
 import { startThrowawayCluster } from '../../server/tools/pg.js';
-import { startServer } from '../../server/main.js';
+import { spawn, type ChildProcess } from 'node:child_process';
 import { DEMO_PASSWORD } from '../../server/db/seed.js';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 
@@ -79,20 +80,53 @@ async function cannon(url: string, cookie: string, o: { connections: number; sec
   }
 }
 
+/** Runs `node --import tsx server/main.ts` with the given environment; resolves with its URL once it listens. */
+function startServerProcess(env: Record<string, string>): Promise<{ url: string; close(): Promise<void> }> {
+  const main = join(here, '..', '..', 'server', 'main.ts');
+  const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', main], {
+    env: { ...process.env, NODE_ENV: 'development', ...env },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
+  const close = () =>
+    new Promise<void>((resolve) => {
+      if (child.exitCode !== null) return resolve();
+      child.once('exit', () => resolve());
+      child.kill('SIGTERM');
+    });
+  return new Promise((resolve, reject) => {
+    let out = '';
+    const timer = setTimeout(() => {
+      void close();
+      reject(new Error(`the server did not start within 60 s:\n${out}`));
+    }, 60_000);
+    child.stdout!.on('data', (d: Buffer) => {
+      out += d.toString();
+      const m = /Rollwise is running at (\S+)/.exec(out);
+      if (m) {
+        clearTimeout(timer);
+        resolve({ url: m[1]!, close });
+      }
+    });
+    child.once('exit', (code) => {
+      clearTimeout(timer);
+      reject(new Error(`the server exited (${code}) before it listened:\n${out}`));
+    });
+  });
+}
+
 async function main(): Promise<void> {
   const started = Date.now();
   console.log('load: starting a throwaway PostgreSQL cluster and the server…');
   const cluster = await startThrowawayCluster('rollwise_load');
-  const server = await startServer({
-    databaseUrl: cluster.url,
-    host: '127.0.0.1',
-    port: 0,
-    seedDemo: true,
-    production: false,
-    logLevel: 'warn',
-    staticDir: join(here, 'no-static-dir'),
+  const server = await startServerProcess({
+    DATABASE_URL: cluster.url,
+    HOST: '127.0.0.1',
+    PORT: '0',
+    ROLLWISE_SEED_DEMO: 'true',
+    LOG_LEVEL: 'warn',
+    ROLLWISE_STATIC_DIR: join(here, 'no-static-dir'),
     // Seeding hashes a dozen demo passwords; a low cost keeps start-up short (sign-in cost is not what is measured).
-    bcryptRounds: 4,
+    BCRYPT_ROUNDS: '4',
   });
   try {
     const base = server.url;
