@@ -138,13 +138,26 @@ function linkAxle(v: Vehicle, name: 'front' | 'rear', corner: Corner | undefined
   };
 }
 
+/** A vehicle with its front and rear corners (and overrides), as `computeBalance` takes it. */
+export type BalanceCase = Case;
+
+/** The vehicle the balance model evaluates: entered values with the corners' kinematics written in, and where each came from. */
+export interface LinkedVehicle {
+  vehicle: Vehicle;
+  front: AxleLink;
+  rear: AxleLink;
+}
+
 /**
- * Evaluates one vehicle with its corners. With a steered front corner and a
- * corner radius, the rack is set to the steer the car needs on that radius,
- * δ = L/R + K·a_y at the budget's lateral acceleration: K depends on the roll
- * steer read there, so this is iterated (a fixed point, three passes at most).
+ * Links the corners' kinematics into the vehicle exactly as `computeBalance`
+ * does. With a steered front corner and a corner radius, the rack is set to
+ * the steer the car needs on that radius, δ = L/R + K·a_y at the budget's
+ * lateral acceleration: K depends on the roll steer read there, so this is
+ * iterated (a fixed point, three passes at most). Without a radius the
+ * kinematics are read with the rack straight ahead. Errors name the request
+ * field (`frontCorner`, `rearCorner`, `vehicle`, after `prefix`).
  */
-function evaluateCase(c: Case, options: BalanceOptions, radiusM: number | null, prefix = ''): { result: BalanceResult; front: AxleLink; rear: AxleLink; vehicle: Vehicle } {
+export function linkVehicle(c: BalanceCase, options: Pick<BalanceOptions, 'lateralAccelerationG'> = {}, radiusM: number | null = null, prefix = ''): LinkedVehicle {
   const v = c.vehicle;
   const ackermannDeg = radiusM !== null ? (v.wheelbaseMm / 1000 / radiusM) / DEG : null;
   const lateralG = options.lateralAccelerationG ?? DEFAULT_BUDGET_LATERAL_G;
@@ -161,8 +174,22 @@ function evaluateCase(c: Case, options: BalanceOptions, radiusM: number | null, 
     f = linkFront();
   }
   if (iterate) f.link.notes.push(`read at the rack position for ${steerDeg!.toFixed(3)} deg of mean steer: ${radiusM} m radius at ${lateralG} g (L/R + K·a_y)`);
-  const vehicle: Vehicle = { ...v, front: f.axle, rear: r.axle };
-  return { result: blame(`${prefix}vehicle`, () => evaluateBalance(vehicle, options)), front: f.link, rear: r.link, vehicle };
+  return { vehicle: { ...v, front: f.axle, rear: r.axle }, front: f.link, rear: r.link };
+}
+
+/**
+ * The roll-steer term of the understeer budget, K_rs (deg/g), of a linked
+ * vehicle: the very functions `evaluateBalance` reports
+ * `understeerBudget.rollSteer` from (balanceCore → understeerBudget).
+ */
+export function rollSteerTermDegPerG(vehicle: Vehicle): number {
+  return understeerBudget(balanceCore(vehicle)).understeerBudget.rollSteer;
+}
+
+/** Evaluates one vehicle with its corners linked in (`linkVehicle`). */
+function evaluateCase(c: Case, options: BalanceOptions, radiusM: number | null, prefix = ''): { result: BalanceResult; front: AxleLink; rear: AxleLink; vehicle: Vehicle } {
+  const linked = linkVehicle(c, options, radiusM, prefix);
+  return { result: blame(`${prefix}vehicle`, () => evaluateBalance(linked.vehicle, options)), front: linked.front, rear: linked.rear, vehicle: linked.vehicle };
 }
 
 /**

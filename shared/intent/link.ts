@@ -5,7 +5,9 @@
  * Counts: one per pose solved (a sweep row, one wheel of an axle pose).
  */
 import type { Corner, Vec3 } from '../schema/corner.js';
+import type { Vehicle } from '../schema/vehicle.js';
 import { axleKinematics, axleSummary, rollSteerCoefficient, solvePose, sweepCorner, type AxleSummary, type PoseResult, type SweepResult } from '../kinematics/index.js';
+import { linkVehicle, type LinkedVehicle } from '../balance/api.js';
 
 export class PoseCounter {
   poses = 0;
@@ -39,4 +41,16 @@ export function summary(counter: PoseCounter, corner: Corner): AxleSummary {
 export function steering(counter: PoseCounter, corner: Corner, wheelbaseMm: number | undefined, points: number) {
   counter.poses += 2 * points + 4;
   return axleKinematics(corner, { steeringPoints: points, ...(wheelbaseMm ? { wheelbaseMm } : {}) }).steering;
+}
+
+/**
+ * The vehicle with this axle's corner linked in by the balance model
+ * (`linkVehicle`, what `computeBalance` does): ε, roll camber, roll-centre
+ * height and motion ratios read from the corner (its axleSummary, two poses),
+ * the other axle as entered. `rollSteerCoefficient` overrides the corner's ε.
+ */
+export function linked(counter: PoseCounter, vehicle: Vehicle, axle: 'front' | 'rear', corner: Corner, rollSteerCoefficient?: number): LinkedVehicle {
+  counter.poses += 2;
+  const overrides = rollSteerCoefficient === undefined ? undefined : { [axle]: { rollSteerCoefficient } };
+  return linkVehicle({ vehicle, ...(axle === 'front' ? { frontCorner: corner } : { rearCorner: corner }), ...(overrides ? { overrides } : {}) });
 }

@@ -7,7 +7,8 @@
 import type { Corner, Vec3 } from '../schema/corner.js';
 import { innerName, outerName, steeringStrokeMm, type Intent } from '../schema/intent.js';
 import type { Vehicle } from '../schema/vehicle.js';
-import { rollSteerUndersteerDegPerG, suspensionRollGradients } from '../balance/index.js';
+import { suspensionRollGradients } from '../balance/index.js';
+import { rollSteerTermDegPerG } from '../balance/api.js';
 import { ENGINE_VERSION } from '../version.js';
 import { InputError, SolveError } from '../errors.js';
 import { evaluateCautions, SAFETY_CAUTION, type Caution } from './cautions.js';
@@ -16,7 +17,7 @@ import { applyCoordinates, readCoordinates } from './coordinates.js';
 import { solveFamily, type LimitingBound } from './optimise.js';
 import { linearFitDeviation, secantRoot } from './numeric.js';
 import { asBuiltCorner, workshopNumbers, type WorkshopNumbers } from './workshop.js';
-import { pose, PoseCounter, rollSteer, steering, summary, sweep } from './link.js';
+import { linked, pose, PoseCounter, rollSteer, steering, summary, sweep } from './link.js';
 import type { SweepRow } from '../kinematics/index.js';
 
 export type Progress = (fraction: number, message: string) => void;
@@ -156,19 +157,36 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   const track = 2 * pose(counter, current, 0).contactPatch[1];
   const epsOf = (c: Corner) => rollSteer(counter, c);
   const epsCurrent = epsOf(current);
-  const gradients = intent.vehicle ? suspensionRollGradients(intent.vehicle) : null;
+  const targetDK = 'understeerChangeDegPerG' in intent.target ? intent.target.understeerChangeDegPerG : null;
+  // The understeer change goes through the balance model's own kinematics link
+  // (linkVehicle, as computeBalance): ε, roll camber, roll-centre height and
+  // motion ratios read from each geometry, K_rs from the budget's functions.
+  const base = linkedRollSteer(counter, intent, current, targetDK !== null);
+  const gradients = base ? suspensionRollGradients(base.vehicle) : null;
   const dKdEps = gradients ? (intent.axle === 'front' ? gradients.frontDegPerG : -gradients.rearDegPerG) : null;
+  /** ΔK of a geometry relative to the current one, deg/g (null without a vehicle, or where the link finds no roll centre). */
+  const uChange = (c: Corner): number | null => {
+    if (!base) return null;
+    const k = c === current ? base : linkedRollSteer(counter, intent, c, targetDK !== null);
+    return k ? k.kRs - base.kRs : null;
+  };
+  /** ΔK of a bare ε on the current geometry (the link's ε override), deg/g. */
+  const uChangeEps = (eps: number): number | null => (base ? rollSteerTermDegPerG(withRollSteer(base.vehicle, intent.axle, eps)) - base.kRs : null);
   let epsTarget: number;
   if ('rollSteerCoefficient' in intent.target) epsTarget = intent.target.rollSteerCoefficient;
-  else if ('understeerChangeDegPerG' in intent.target) {
+  else if (targetDK !== null) {
     if (dKdEps === null || !(Math.abs(dKdEps) > 1e-9)) {
       throw new InputError('target.understeerChangeDegPerG: the vehicle has no suspension roll on this axle, so roll steer cannot change its understeer', [
         { path: 'target.understeerChangeDegPerG', message: 'suspension roll gradient is zero' },
       ]);
     }
-    epsTarget = epsCurrent + intent.target.understeerChangeDegPerG / dKdEps;
+    // The ε it means at the current suspension roll gradient; the search meets ΔK itself, since
+    // the roll centre and motion ratios (so dφs/da_y) move a little with the tie rod.
+    epsTarget = epsCurrent + targetDK / dKdEps;
   }
   else epsTarget = 0;
+  /** What the search drives to zero: ε − ε*, or for an understeer target ΔK − ΔK* through the balance link. */
+  const residual = (c: Corner): number => (targetDK === null ? epsOf(c) - epsTarget : uChange(c)! - targetDK);
 
   const names = intent.movable;
   const lo = names.map((n) => intent.bounds[n]![0]);
@@ -243,7 +261,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
     lo,
     hi,
     current: q0,
-    constraint: (q) => epsOf(build(q)) - epsTarget,
+    constraint: (q) => residual(build(q)),
     objective,
     tolConstraint: TARGET_TOL,
     familySize: intent.options.familySize,
@@ -254,10 +272,10 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   let epsVerified = epsOf(proposed);
   // The search solves on the same ε the verification reports; a last secant on
   // the primary coordinate removes any residual the tie-break left.
-  if (outcome.feasible && Math.abs(epsVerified - epsTarget) > TARGET_TOL) {
+  if (outcome.feasible && Math.abs(residual(proposed)) > TARGET_TOL) {
     const pi = names.indexOf(outcome.primary);
     const r = secantRoot(
-      (v) => epsOf(build(q.map((x, i) => (i === pi ? v : x)))) - epsTarget,
+      (v) => residual(build(q.map((x, i) => (i === pi ? v : x)))),
       q[pi]!,
       outcome.gradient[pi]!,
       lo[pi]!,
@@ -299,7 +317,8 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   let limiting = outcome.limiting;
   if (!outcome.feasible) {
     const lim = limiting.map((l) => `${l.coordinate} at its ${l.side} ${l.value} mm`).join(', ');
-    reason = `The target ε = ${epsTarget.toFixed(4)} deg/deg cannot be met inside the bounds; the closest achievable is ε = ${epsVerified.toFixed(4)} deg/deg with ${lim || 'the current geometry'}.`;
+    const asked = targetDK === null ? `ε = ${epsTarget.toFixed(4)} deg/deg` : `understeer change ${targetDK} deg/g (ε ≈ ${epsTarget.toFixed(4)} deg/deg)`;
+    reason = `The target ${asked} cannot be met inside the bounds; the closest achievable is ε = ${epsVerified.toFixed(4)} deg/deg with ${lim || 'the current geometry'}.`;
   } else if (bound !== undefined && worst.maxDeviationDeg > bound + 1e-9) {
     feasible = false;
     limiting = [{ coordinate: 'options.worstToeBoundDeg', side: 'max', value: bound, unit: 'deg' }];
@@ -307,7 +326,6 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   }
 
   progress(0.8, 'family, sensitivity and side effects');
-  const uChange = (eps: number) => (dKdEps === null ? null : understeerChange(intent.vehicle!, intent.axle, epsCurrent, eps));
   const t0Straight = (c: Corner) => pose(counter, c, 0).toeDeg;
   const memberOut = (mq: number[], withinBounds: boolean, chosen: boolean, objectiveDeg: number): FamilyMemberOut => {
     const c = build(mq);
@@ -323,7 +341,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
       objectiveRmsDeg: objectiveDeg,
       rollSteerCoefficient: eps,
       bumpToeChangeDeg: Number.isFinite(bumpToe) ? bumpToe : null,
-      understeerChangeDegPerG: uChange(eps),
+      understeerChangeDegPerG: uChange(c),
       withinBounds,
       chosen,
     };
@@ -353,6 +371,10 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   });
 
   const sideEffects = sideEffectsOf(counter, current, proposed, intent.vehicle, verifiedRacks, travel);
+  // The verified understeer change and the suspension roll the cautions use, from the proposal linked into the vehicle.
+  const proposedLink = proposed === current ? base : linkedRollSteer(counter, intent, proposed, false);
+  const proposedDK = base && proposedLink ? proposedLink.kRs - base.kRs : null;
+  const proposedGradients = proposedLink ? suspensionRollGradients(proposedLink.vehicle) : gradients;
 
   progress(0.9, 'workshop numbers and cautions');
   const ws = workshopNumbers(current, proposed, intent.options);
@@ -360,7 +382,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   const builtPts = asBuilt.points as Record<string, Vec3>;
   const staticToe = toeAfterShimming(counter, current, asBuilt);
 
-  const cautions = evaluateCautions(cautionInputs(counter, intent, profile, proposed, epsVerified, byRack, straight, track, unreachableRacks));
+  const cautions = evaluateCautions(cautionInputs(counter, intent, profile, proposed, epsVerified, byRack, straight, track, unreachableRacks, proposedGradients));
 
   const pts = proposed.points as Record<string, Vec3>;
   const inner = innerName(current);
@@ -383,7 +405,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
     target: {
       kind: targetKind,
       rollSteerCoefficient: epsTarget,
-      understeerChangeDegPerG: uChange(epsTarget),
+      understeerChangeDegPerG: targetDK ?? uChangeEps(epsTarget),
       outsideToeInDegPerDegRoll: -epsTarget,
       label: label(intent.axle, epsTarget),
     },
@@ -406,7 +428,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
       unreachableRacks,
       toeCurve: verificationRows.map((r) => ({ travelMm: r.travelMm, rackMm: r.rackMm, toeDeg: r.toeDeg, camberDeg: r.camberDeg, halfTrackChangeMm: r.halfTrackChangeMm })),
     },
-    estimate: { rollSteerCoefficient: epsTarget + outcome.constraint, objectiveRmsDeg: outcome.objective },
+    estimate: { rollSteerCoefficient: targetDK === null ? epsTarget + outcome.constraint : epsOf(build(outcome.q)), objectiveRmsDeg: outcome.objective },
     limitingBound: limiting[0] ?? null,
     limitingBounds: limiting,
     family,
@@ -420,7 +442,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
       asBuilt: { rollSteerCoefficient: epsOf(asBuilt), geometry: { tieRodInner: builtPts[inner]!, tieRodOuter: builtPts[outer]! } },
       staticToe,
     },
-    understeerChangeDegPerG: uChange(epsVerified),
+    understeerChangeDegPerG: proposedDK,
     cautions,
     safety: SAFETY_CAUTION,
     diagnostics: { poses: counter.poses, targetEvaluations: outcome.evaluations.constraint, objectiveEvaluations: outcome.evaluations.objective },
@@ -435,11 +457,38 @@ export function rackPositions(intent: Intent): number[] {
   return [0, ...list.filter((r) => r !== 0)];
 }
 
-/** Understeer-gradient change from this axle's roll steer going from ε0 to ε, deg/g (balance model, domain.md K_rs). */
-export function understeerChange(vehicle: Vehicle, axle: 'front' | 'rear', eps0: number, eps: number): number {
-  const other = axle === 'front' ? (vehicle.rear.rollSteerCoefficient ?? 0) : (vehicle.front.rollSteerCoefficient ?? 0);
-  const k = (e: number) => rollSteerUndersteerDegPerG(vehicle, axle === 'front' ? { front: e, rear: other } : { front: other, rear: e });
-  return k(eps) - k(eps0);
+/** A vehicle with `axle`'s roll steer coefficient set to ε (what the balance link's override does). */
+function withRollSteer(v: Vehicle, axle: 'front' | 'rear', eps: number): Vehicle {
+  return { ...v, [axle]: { ...v[axle], rollSteerCoefficient: eps } };
+}
+
+/**
+ * The intent's vehicle with `corner` linked in by the balance model and its
+ * roll-steer term K_rs (deg/g); null without a vehicle. A geometry whose roll
+ * centre is at infinity cannot be linked: null, or for an understeer target
+ * (`required`) a SolveError naming the corner.
+ */
+function linkedRollSteer(counter: PoseCounter, intent: Intent, corner: Corner, required: boolean): { vehicle: Vehicle; kRs: number } | null {
+  if (!intent.vehicle) return null;
+  try {
+    const v = linked(counter, intent.vehicle, intent.axle, corner).vehicle;
+    return { vehicle: v, kRs: rollSteerTermDegPerG(v) };
+  } catch (e) {
+    if (!(e instanceof SolveError) || e.code !== 'singular_geometry') throw e;
+    if (required) throw new SolveError(e.code, `corner: the balance model cannot link this geometry for the understeer target: ${e.message}`, { ...e.details, field: 'corner' });
+    return null;
+  }
+}
+
+/**
+ * Understeer-gradient change from `axle`'s roll steer going from the
+ * baseline to the proposed corner, deg/g: the difference of the balance
+ * model's roll-steer term with each corner linked in (`linkVehicle` +
+ * `rollSteerTermDegPerG`, the path of `computeBalance`).
+ */
+export function understeerChange(vehicle: Vehicle, axle: 'front' | 'rear', baseline: Corner, proposed: Corner): number {
+  const k = (c: Corner) => rollSteerTermDegPerG(linked(new PoseCounter(), vehicle, axle, c).vehicle);
+  return k(proposed) - k(baseline);
 }
 
 /**
@@ -575,6 +624,7 @@ function cautionInputs(
   straight: RackFit,
   track: number,
   unreachableRacks: UnreachableRack[],
+  grads: { frontDegPerG: number; rearDegPerG: number } | null,
 ) {
   const bump = profile.bumpHeightMm;
   let worstBump = byRack[0]!;
@@ -591,7 +641,6 @@ function cautionInputs(
   const scrub = Math.abs(pose(counter, proposed, bump).halfTrackChangeMm);
   // Outside wheel's local toe gradient at the reference roll versus design.
   const v = intent.vehicle;
-  const grads = v ? suspensionRollGradients(v) : null;
   const refRoll = intent.options.referenceRollDeg ?? (grads ? Math.abs(intent.axle === 'front' ? grads.frontDegPerG : grads.rearDegPerG) : DEFAULT_REFERENCE_ROLL_DEG);
   const s = (track / 2) * Math.sin((refRoll * Math.PI) / 180);
   const g0 = pose(counter, proposed, 0).toeGradientDegPerM;

@@ -8,7 +8,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { exampleCorners, rollSteerCoefficient, solvePose, sweepCorner } from '../../../shared/kinematics/index.js';
-import { exampleVehicles, rollSteerUndersteerDegPerG } from '../../../shared/balance/index.js';
+import { exampleVehicles } from '../../../shared/balance/index.js';
+import { computeBalance } from '../../../shared/balance/api.js';
 import { intentSchema, type IntentInput } from '../../../shared/schema/intent.js';
 import type { Corner, Vec3 } from '../../../shared/schema/corner.js';
 import { solveIntent, type SolveResult } from '../../../shared/intent/index.js';
@@ -105,17 +106,19 @@ describe('round trips (verified ε within 0.002 deg/deg, issue 5)', () => {
     expectOnlyMovableChanged(corner, r.corner, movable);
   });
 
-  it('an understeer-gradient target becomes ε through the suspension roll gradient (balance model)', () => {
+  it('an understeer-gradient target is met through the balance model (its roll-steer term with the corner linked in)', () => {
     const vehicle = exampleVehicles.tur26Ember;
     const corner = exampleCorners.fsRearWishbone;
     const r = solve({ corner, axle: 'rear', target: { understeerChangeDegPerG: 0.05 }, movable: ['tieRodInner.z', 'tieRodOuter.z'], bounds: around(corner, 25), trackProfile: 'smooth-circuit', vehicle });
     expect(r.feasible).toBe(true);
     const e0 = rollSteerCoefficient(corner);
     const e1 = rollSteerCoefficient(r.corner);
-    // K_rs = ε_f·dφs,f/da_y − ε_r·dφs,r/da_y (domain.md); the change from the rear alone:
-    const dK = rollSteerUndersteerDegPerG(vehicle, { front: 0, rear: e1 }) - rollSteerUndersteerDegPerG(vehicle, { front: 0, rear: e0 });
-    expect(dK).toBeCloseTo(0.05, 3);
+    // K_rs = ε_f·dφs,f/da_y − ε_r·dφs,r/da_y (domain.md), read by the balance API with each corner linked in.
+    const kRs = (c: Corner) => computeBalance({ vehicle, rearCorner: c, sensitivity: false }).understeerBudget.rollSteer;
+    const dK = kRs(r.corner) - kRs(corner);
+    expect(dK).toBeCloseTo(0.05, 9);
     expect(r.understeerChangeDegPerG).toBeCloseTo(dK, 9);
+    expect(r.target.understeerChangeDegPerG).toBe(0.05);
     expect(e1).toBeLessThan(e0); // more rear roll understeer (ε_r more negative) adds understeer
   });
 });
