@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { notFound, validate } from '../http/errors.js';
 import { currentAccess, currentUser, isUuid, type Authorizer } from '../http/authorize.js';
 import { parseVehicleData, type Vehicles } from '../services/vehicles.js';
+import { diffDocuments } from '../services/document-diff.js';
 
 export const documentName = z.string().trim().min(1, 'is required').max(120);
 export const baseRevision = z.number({ error: 'baseRevision (the revision your edit starts from) is required' }).int().positive();
@@ -68,9 +69,25 @@ export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
     res.json(await vehicles.revisions(currentAccess(req).teamId, vehicleId(req.params['vehicleId'])));
   });
 
+  // Changed values between two revisions (e.g. ?from=1&to=3), side by side.
+  r.get('/:vehicleId/compare', requirePermission('team:read'), async (req, res) => {
+    const { from, to } = compareRevisions(req.query);
+    const teamId = currentAccess(req).teamId;
+    const id = vehicleId(req.params['vehicleId']);
+    const [a, b] = await Promise.all([vehicles.revision(teamId, id, from), vehicles.revision(teamId, id, to)]);
+    res.json({ from, to, changes: diffDocuments({ name: a.name, archived: a.archived, data: a.data }, { name: b.name, archived: b.archived, data: b.data }, { expandArrays: true }) });
+  });
+
   r.get('/:vehicleId/revisions/:revision', requirePermission('team:read'), async (req, res) => {
     res.json(await vehicles.revision(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), revisionNumber(req.params['revision'])));
   });
 
   return r;
+}
+
+const compareRevisionsQuery = z.object({ from: z.coerce.number().int().positive(), to: z.coerce.number().int().positive() });
+
+/** `?from=&to=` of a revisions compare route. */
+export function compareRevisions(raw: unknown): { from: number; to: number } {
+  return validate(compareRevisionsQuery, raw, 'query');
 }

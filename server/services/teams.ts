@@ -1,7 +1,7 @@
 /** Teams and memberships, with last-owner protection. */
 import { and, asc, eq } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
-import { memberships, teams, users } from '../db/schema.js';
+import { configurationApprovals, configurations, memberships, teams, users } from '../db/schema.js';
 import { HttpError, notFound } from '../http/errors.js';
 import { permissionsOf, type Role } from '../permissions.js';
 import { normaliseEmail } from './accounts.js';
@@ -56,7 +56,15 @@ export class Teams {
     return this.detail(teamId, roles);
   }
 
+  /** Deletes the team and everything in it, unless it holds approvals: approved work is archived, never deleted. */
   async remove(teamId: string): Promise<void> {
+    const [a] = await this.orm
+      .select({ id: configurationApprovals.id })
+      .from(configurationApprovals)
+      .innerJoin(configurations, eq(configurations.id, configurationApprovals.configurationId))
+      .where(eq(configurations.teamId, teamId))
+      .limit(1);
+    if (a) throw new HttpError(409, 'has_approvals', 'This team has approved configurations; approved work is kept: archive its vehicles and designs instead');
     await this.orm.delete(teams).where(eq(teams.id, teamId));
   }
 

@@ -300,4 +300,27 @@ describe('configurations', () => {
     expectError(stale, 409, 'stale_revision');
     expect(stale.body.error.details.current).toMatchObject({ revision: 2, trackProfile: 'rough-road' });
   });
+  it('any two revisions of a vehicle or an axle design can be compared', async () => {
+    const v = await engineer.post(`${team()}/vehicles`).send({ name: 'Compare car', data: exampleVehicles.tur26Ember }).expect(201);
+    const heavier = { ...exampleVehicles.tur26Ember, massKg: exampleVehicles.tur26Ember.massKg + 12 };
+    await engineer.put(`${team()}/vehicles/${v.body.id}/data`).send({ data: heavier, baseRevision: 1 }).expect(200);
+    const vc = await viewer.get(`${team()}/vehicles/${v.body.id}/compare`).query({ from: 1, to: 2 }).expect(200);
+    expect(vc.body.changes).toEqual([{ path: 'data.massKg', a: exampleVehicles.tur26Ember.massKg, b: heavier.massKg, change: 12 }]);
+
+    const d = await designer.post(`${team()}/vehicles/${v.body.id}/axle-designs`).send({ axle: 'rear', name: 'Compare rear', corner: exampleCorners.fsRearWishbone }).expect(201);
+    const moved = structuredClone(exampleCorners.fsRearWishbone);
+    moved.points.tieRodOuter = [moved.points.tieRodOuter[0], moved.points.tieRodOuter[1], moved.points.tieRodOuter[2] - 2];
+    await designer.put(`${team()}/axle-designs/${d.body.id}/corner`).send({ corner: moved, baseRevision: 1 }).expect(200);
+    await designer.patch(`${team()}/axle-designs/${d.body.id}`).send({ name: 'Compare rear, renamed', baseRevision: 2 }).expect(200);
+    const dc = await viewer.get(`${team()}/axle-designs/${d.body.id}/compare`).query({ from: 1, to: 3 }).expect(200);
+    expect(dc.body.changes.map((c: { path: string }) => c.path)).toEqual(['corner.points.tieRodOuter[2]', 'name']);
+    expect(dc.body.changes[0].change).toBeCloseTo(-2, 9);
+    expectError(await viewer.get(`${team()}/axle-designs/${d.body.id}/compare`).query({ from: 1, to: 9 }), 404, 'not_found');
+    expectError(await viewer.get(`${team()}/axle-designs/${d.body.id}/compare`).query({ from: 1 }), 400, 'invalid_input');
+  });
+
+  it('a team with approved work is not deleted', async () => {
+    expectError(await owner.delete(team()), 409, 'has_approvals');
+    expect((await owner.get(team()).expect(200)).body.slug).toBe('tallowmere');
+  });
 });

@@ -133,6 +133,7 @@ const ROWS: Row[] = [
     expect: { owner: 403, engineer: 200, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
   },
   { name: 'vehicle revisions', method: 'get', path: () => `${vehicle()}/revisions`, expect: READ },
+  { name: 'compare vehicle revisions', method: 'get', path: () => `${vehicle()}/compare?from=1&to=1`, expect: READ },
   { name: 'list axle designs', method: 'get', path: () => `${vehicle()}/axle-designs`, expect: READ },
   {
     name: 'create axle design',
@@ -157,6 +158,7 @@ const ROWS: Row[] = [
     expect: { owner: 403, engineer: 403, designer: 200, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
   },
   { name: 'axle design revisions', method: 'get', path: () => `${design()}/revisions`, expect: READ },
+  { name: 'compare axle design revisions', method: 'get', path: () => `${design()}/compare?from=1&to=1`, expect: READ },
   {
     name: 'propose geometry',
     method: 'post',
