@@ -461,3 +461,50 @@ export const activityLog = pgTable(
   },
   (t) => [index('activity_log_team_idx').on(t.teamId, t.at), index('activity_log_design_idx').on(t.designId, t.at)],
 );
+
+/** An instructor-led programme comparing teams' configurations on one track profile. */
+export const programmes = pgTable('programmes', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  name: text('name').notNull(),
+  instructorId: uuid('instructor_id')
+    .notNull()
+    .references(() => users.id, { onDelete: 'cascade' }),
+  trackProfile: text('track_profile').notNull(),
+  createdAt: createdAt(),
+});
+
+export const PROGRAMME_TEAM_STATUSES = ['invited', 'accepted', 'declined'] as const;
+
+/** A team's place in a programme; `accepted` grants the instructor read access to the team. */
+export const programmeTeams = pgTable(
+  'programme_teams',
+  {
+    programmeId: uuid('programme_id')
+      .notNull()
+      .references(() => programmes.id, { onDelete: 'cascade' }),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    status: text('status', { enum: PROGRAMME_TEAM_STATUSES }).notNull().default('invited'),
+    invitedAt: timestamp('invited_at', { withTimezone: true }).notNull().defaultNow(),
+    decidedAt: timestamp('decided_at', { withTimezone: true }),
+    decidedBy: uuid('decided_by').references(() => users.id, { onDelete: 'set null' }),
+  },
+  (t) => [primaryKey({ columns: [t.programmeId, t.teamId] }), index('programme_teams_team_idx').on(t.teamId)],
+);
+
+/** The board as it stood at a moment (e.g. a deadline). Never updated. */
+export const programmeSnapshots = pgTable(
+  'programme_snapshots',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    programmeId: uuid('programme_id')
+      .notNull()
+      .references(() => programmes.id, { onDelete: 'cascade' }),
+    label: text('label'),
+    board: jsonb('board').notNull(),
+    takenBy: uuid('taken_by').references(() => users.id, { onDelete: 'set null' }),
+    takenAt: timestamp('taken_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('programme_snapshots_programme_idx').on(t.programmeId)],
+);
