@@ -375,7 +375,8 @@ function judge(endpoint: Endpoint, status: number, body: Record<string, unknown>
   }
   const error = (body?.['error'] ?? undefined) as { code?: unknown; message?: unknown; details?: Record<string, unknown> } | undefined;
   if (!error || typeof error.code !== 'string' || typeof error.message !== 'string' || error.message === '') return `status ${status} without the error shape`;
-  if (/\bat \S+ \(|node_modules|\.ts:\d+/.test(JSON.stringify(body))) return `status ${status} leaks a stack trace`;
+  // A stack frame: `at fn (file:line:col)`; prose such as "at infinity (the lines…)" is not one.
+  if (/\bat \S+ \([^)]*:\d+:\d+\)|node_modules|\.ts:\d+/.test(JSON.stringify(body))) return `status ${status} leaks a stack trace: ${JSON.stringify(body).slice(0, 800)}`;
   if (status === 400) {
     if (error.code === 'malformed_json') return undefined; // no field to name in unparsable text
     const fields = error.details?.['fields'] as { path?: unknown; message?: unknown }[] | undefined;
