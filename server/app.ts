@@ -28,6 +28,8 @@ import { bearerAuth } from './http/bearer.js';
 import { apiTokensRouter } from './routes/api-tokens.js';
 import { Activity } from './services/activity.js';
 import { activityRouter } from './routes/activity.js';
+import { Programmes } from './services/programmes.js';
+import { programmesRouter, teamProgrammesRouter } from './routes/programmes.js';
 import { createComputePool } from './compute/pool.js';
 import { SolveJobs } from './compute/jobs.js';
 import { healthRouter } from './routes/health.js';
@@ -65,7 +67,9 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   if (config.production) app.set('trust proxy', 1);
 
   const session = createSession(config, db.pool, (err) => logger.warn({ err }, 'session store error'));
-  const auth = createAuthorizer(db.orm);
+  // The programmes service needs the configurations service (created below); the authorizer only its read check.
+  let programmes: Programmes | undefined;
+  const auth = createAuthorizer(db.orm, (userId, teamId) => programmes!.instructorReads(userId, teamId));
   const accounts = new Accounts(db.orm, config.bcryptRounds, {
     secret: config.sessionSecret,
     publicUrl: config.publicUrl,
@@ -81,6 +85,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   const pool = createComputePool({ threads: config.computeThreads, warm: config.computeWarmStart });
   const jobs = new SolveJobs(pool, { timeLimitMs: config.solveJobTimeLimitMs });
   const configurations = new Configurations(db.orm, pool, config.computeTimeLimitMs, config.publicUrl);
+  programmes = new Programmes(db.orm, configurations);
 
   const mail = config.smtpUrl
     ? new MailWorker(db.orm, {
@@ -123,6 +128,8 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use('/teams/:teamId/configurations', configurationsRouter(configurations, auth));
   if (!config.production) api.use('/teams/:teamId/dev/mail', devMailRouter(db.orm, auth));
   api.use('/teams/:teamId', activityRouter(activity, designs, auth));
+  api.use('/teams/:teamId/programmes', teamProgrammesRouter(programmes, auth));
+  api.use('/programmes', programmesRouter(programmes, auth));
   api.use('/teams', teamsRouter(teams, auth));
   api.use('/compute', computeRouter(pool, jobs, auth, config.computeTimeLimitMs));
   api.use(apiNotFound);

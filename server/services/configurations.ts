@@ -561,6 +561,17 @@ export class Configurations {
       .orderBy(desc(configurationApprovals.approvedAt));
   }
 
+  /** An approval's frozen inputs' track profile and results, as stored. */
+  async frozen(teamId: string, id: string, approvalId: string): Promise<{ trackProfile: string; results: ConfigurationResults }> {
+    await this.get(teamId, id);
+    const [a] = await this.orm
+      .select({ inputs: configurationApprovals.inputs, results: configurationApprovals.results })
+      .from(configurationApprovals)
+      .where(and(eq(configurationApprovals.id, approvalId), eq(configurationApprovals.configurationId, id)));
+    if (!a) throw notFound('Approval');
+    return { trackProfile: (a.inputs as ConfigurationInputs).trackProfile, results: a.results as ConfigurationResults };
+  }
+
   /** The frozen snapshot as approved, and beside it what the current engine computes from the same frozen inputs. */
   async approval(teamId: string, id: string, approvalId: string) {
     await this.get(teamId, id);

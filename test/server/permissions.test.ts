@@ -212,6 +212,27 @@ const ROWS: Row[] = [
   { name: 'team activity', method: 'get', path: () => `${team()}/activity`, expect: READ },
   { name: 'team activity as CSV', method: 'get', path: () => `${team()}/activity?format=csv`, expect: READ },
   { name: 'axle design activity', method: 'get', path: () => `${design()}/activity`, expect: READ },
+  {
+    name: 'programme invitations of the team',
+    method: 'get',
+    before: newProgramme,
+    path: () => `${team()}/programmes`,
+    expect: { owner: 200, engineer: 403, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  {
+    name: 'decline a programme',
+    method: 'post',
+    path: () => `${team()}/programmes/${programmeId}/decline`,
+    body: () => ({}),
+    expect: { owner: 200, engineer: 403, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  {
+    name: 'accept a programme',
+    method: 'post',
+    path: () => `${team()}/programmes/${programmeId}/accept`,
+    body: () => ({}),
+    expect: { owner: 200, engineer: 403, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
   { name: 'list configurations', method: 'get', path: () => `${team()}/configurations`, expect: READ },
   {
     name: 'create configuration',
@@ -299,6 +320,15 @@ async function freshConfiguration(state: 'draft' | 'in_review' | 'approved' | 'r
   if (state !== 'draft' && state !== 'in_review') {
     approvalId = (await agents.owner.get(`${configuration()}/approvals`).expect(200)).body[0].id;
   }
+}
+
+let programmeId = '';
+async function newProgramme(): Promise<void> {
+  const iris = await signIn(t.app, instructorEmail);
+  const p = await iris.post('/api/programmes').send({ name: 'Matrix programme', trackProfile: 'smooth-circuit' });
+  expect(p.status, JSON.stringify(p.body)).toBe(201);
+  programmeId = p.body.id;
+  await iris.post(`/api/programmes/${programmeId}/teams`).send({ teamSlug: 'tallowmere' }).expect(201);
 }
 
 async function newComment(): Promise<void> {

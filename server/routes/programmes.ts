@@ -1,0 +1,71 @@
+/**
+ * /api/programmes (instructors) and /api/teams/:teamId/programmes (the team
+ * owner accepts or declines an invitation to a programme).
+ */
+import { Router } from 'express';
+import { z } from 'zod';
+import { validate } from '../http/errors.js';
+import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
+import { TRACK_PROFILE_IDS } from '../../shared/intent/profiles.js';
+import { Programmes, type BoardRow } from '../services/programmes.js';
+import { idParam } from './vehicles.js';
+
+const createSchema = z.strictObject({ name: z.string().trim().min(1, 'is required').max(120), trackProfile: z.enum(TRACK_PROFILE_IDS) });
+const inviteSchema = z.strictObject({ teamSlug: z.string().trim().min(1).max(60) });
+const snapshotSchema = z.strictObject({ label: z.string().trim().min(1).max(120).optional() });
+const formatQuery = z.object({ format: z.enum(['json', 'csv']).optional() });
+
+export function programmesRouter(programmes: Programmes, auth: Authorizer): Router {
+  const r = Router();
+  const pid = (raw: unknown) => idParam(raw, 'Programme');
+
+  r.get('/', auth.requireUser, async (req, res) => {
+    res.json(await programmes.list(currentUser(req)));
+  });
+  r.post('/', auth.requireUser, async (req, res) => {
+    res.status(201).json(await programmes.create(currentUser(req), validate(createSchema, req.body)));
+  });
+  r.get('/:programmeId', auth.requireUser, async (req, res) => {
+    res.json(await programmes.get(currentUser(req), pid(req.params['programmeId'])));
+  });
+  r.post('/:programmeId/teams', auth.requireUser, async (req, res) => {
+    const { teamSlug } = validate(inviteSchema, req.body);
+    res.status(201).json(await programmes.inviteTeam(currentUser(req), pid(req.params['programmeId']), teamSlug));
+  });
+  r.get('/:programmeId/board', auth.requireUser, async (req, res) => {
+    res.json(await programmes.board(currentUser(req), pid(req.params['programmeId'])));
+  });
+  r.post('/:programmeId/snapshots', auth.requireUser, async (req, res) => {
+    const { label } = validate(snapshotSchema, req.body ?? {});
+    res.status(201).json(await programmes.snapshot(currentUser(req), pid(req.params['programmeId']), label));
+  });
+  r.get('/:programmeId/snapshots', auth.requireUser, async (req, res) => {
+    res.json(await programmes.snapshots(currentUser(req), pid(req.params['programmeId'])));
+  });
+  r.get('/:programmeId/snapshots/:snapshotId', auth.requireUser, async (req, res) => {
+    const q = validate(formatQuery, req.query, 'query');
+    const s = await programmes.snapshotById(currentUser(req), pid(req.params['programmeId']), idParam(req.params['snapshotId'], 'Snapshot'));
+    if (q.format === 'csv') {
+      res.setHeader('Content-Type', 'text/csv; charset=utf-8');
+      res.setHeader('Content-Disposition', `attachment; filename="programme-board-${s.takenAt.toISOString().slice(0, 10)}.csv"`);
+      res.send(Programmes.csv(s.board as { rows: BoardRow[] }));
+      return;
+    }
+    res.json(s);
+  });
+  return r;
+}
+
+/** Mounted at /api/teams/:teamId/programmes. */
+export function teamProgrammesRouter(programmes: Programmes, auth: Authorizer): Router {
+  const r = Router({ mergeParams: true });
+  r.get('/', auth.requirePermission('members:manage'), async (req, res) => {
+    res.json(await programmes.forTeam(currentAccess(req).teamId));
+  });
+  for (const [path, status] of [['accept', 'accepted'], ['decline', 'declined']] as const) {
+    r.post(`/:programmeId/${path}`, auth.requirePermission('members:manage'), async (req, res) => {
+      res.json(await programmes.decide(currentAccess(req).teamId, idParam(req.params['programmeId'], 'Programme'), currentUser(req).id, status));
+    });
+  }
+  return r;
+}

@@ -1,0 +1,139 @@
+/**
+ * Programmes: visibility across teams before and after a team accepts, the
+ * instructor reads and never writes, the board with key figures (checked
+ * against direct engine calls), snapshots and their CSV export.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import Papa from 'papaparse';
+import { computeBalance } from '../../shared/balance/api.js';
+import { computeCornerSweep } from '../../shared/kinematics/api.js';
+import { trackProfiles } from '../../shared/intent/profiles.js';
+import { expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+
+let t: TestApp;
+let iris: Agent, ana: Agent, bo: Agent, eli: Agent, dana: Agent, ravi: Agent, kit: Agent;
+let tallowmere = '';
+let brackenfield = '';
+let programmeId = '';
+
+beforeAll(async () => {
+  t = await startTestApp({ seed: true });
+  [iris, ana, bo, eli, dana, ravi, kit] = await Promise.all(
+    [
+      'instructor@programme.example',
+      'owner@tallowmere.example',
+      'owner@brackenfield.example',
+      'engineer@tallowmere.example',
+      'designer@tallowmere.example',
+      'reviewer@tallowmere.example',
+      'reviewer@brackenfield.example',
+    ].map((e) => signIn(t.app, e)),
+  ) as [Agent, Agent, Agent, Agent, Agent, Agent, Agent];
+  const teams = (await eli.get('/api/teams').expect(200)).body as { id: string; slug: string }[];
+  tallowmere = teams.find((x) => x.slug === 'tallowmere')!.id;
+  brackenfield = teams.find((x) => x.slug === 'brackenfield')!.id;
+});
+afterAll(async () => {
+  await t?.close();
+});
+
+async function configurationOf(by: Agent, teamId: string, vehicleName: string, name: string): Promise<string> {
+  const v = (await by.get(`/api/teams/${teamId}/vehicles`).expect(200)).body.find((x: { name: string }) => x.name === vehicleName).id;
+  const ds = (await by.get(`/api/teams/${teamId}/vehicles/${v}/axle-designs`).expect(200)).body as { id: string; axle: string }[];
+  const r = await by
+    .post(`/api/teams/${teamId}/configurations`)
+    .send({ name, vehicleId: v, frontDesignId: ds.find((d) => d.axle === 'front')!.id, rearDesignId: ds.find((d) => d.axle === 'rear')!.id, trackProfile: 'smooth-circuit' });
+  expect(r.status, JSON.stringify(r.body)).toBe(201);
+  return r.body.id;
+}
+
+describe('programmes', () => {
+  it('only instructors create programmes and invite teams', async () => {
+    expectError(await ana.post('/api/programmes').send({ name: 'Not mine', trackProfile: 'smooth-circuit' }), 403, 'forbidden');
+    const p = await iris.post('/api/programmes').send({ name: 'Autumn roll-steer study', trackProfile: 'bumpy-circuit' }).expect(201);
+    programmeId = p.body.id;
+    await iris.post(`/api/programmes/${programmeId}/teams`).send({ teamSlug: 'tallowmere' }).expect(201);
+    await iris.post(`/api/programmes/${programmeId}/teams`).send({ teamSlug: 'brackenfield' }).expect(201);
+    expectError(await iris.post(`/api/programmes/${programmeId}/teams`).send({ teamSlug: 'tallowmere' }), 409, 'already_invited');
+    expectError(await iris.post(`/api/programmes/${programmeId}/teams`).send({ teamSlug: 'no-such-team' }), 404, 'not_found');
+    expectError(await ana.get(`/api/programmes/${programmeId}`), 404, 'not_found');
+    const detail = await iris.get(`/api/programmes/${programmeId}`).expect(200);
+    expect(detail.body.teams.map((x: { teamSlug: string; status: string }) => [x.teamSlug, x.status])).toEqual([
+      ['brackenfield', 'invited'],
+      ['tallowmere', 'invited'],
+    ]);
+  });
+
+  it('the instructor sees a team only after its owner accepts, and then only reads', async () => {
+    expectError(await iris.get(`/api/teams/${tallowmere}/vehicles`), 404, 'not_found');
+    expect((await iris.get(`/api/programmes/${programmeId}/board`).expect(200)).body.rows).toEqual([]);
+    const inv = await ana.get(`/api/teams/${tallowmere}/programmes`).expect(200);
+    expect(inv.body).toMatchObject([{ programmeId, name: 'Autumn roll-steer study', instructorName: 'Iris Calder', status: 'invited' }]);
+    expectError(await eli.post(`/api/teams/${tallowmere}/programmes/${programmeId}/accept`).send({}), 403, 'forbidden');
+    await ana.post(`/api/teams/${tallowmere}/programmes/${programmeId}/accept`).send({}).expect(200);
+
+    const vehicles = await iris.get(`/api/teams/${tallowmere}/vehicles`).expect(200);
+    expect(vehicles.body.map((v: { name: string }) => v.name)).toContain('TUR-26 Ember');
+    await iris.get(`/api/teams/${tallowmere}/configurations`).expect(200);
+    // Writes are refused and nothing is created.
+    const before = vehicles.body.length;
+    expect((await iris.post(`/api/teams/${tallowmere}/vehicles`).send({ name: 'Instructor car' })).status).toBe(404);
+    expect((await ana.get(`/api/teams/${tallowmere}/vehicles`).expect(200)).body).toHaveLength(before);
+    // Brackenfield has not accepted yet: still invisible to her; and team members never see other teams.
+    expectError(await iris.get(`/api/teams/${brackenfield}/vehicles`), 404, 'not_found');
+    expectError(await kit.get(`/api/teams/${tallowmere}/vehicles`), 404, 'not_found');
+    expectError(await kit.get(`/api/programmes/${programmeId}/board`), 404, 'not_found');
+  });
+
+  it('the board lists both teams’ configurations with key figures, latest and approved', async () => {
+    await bo.post(`/api/teams/${brackenfield}/programmes/${programmeId}/accept`).send({}).expect(200);
+    const tc = await configurationOf(dana, tallowmere, 'TUR-26 Ember', 'Ember for the study');
+    await dana.post(`/api/teams/${tallowmere}/configurations/${tc}/submit`).send({}).expect(200);
+    await ravi.post(`/api/teams/${tallowmere}/configurations/${tc}/approve`).send({}).expect(200);
+    await configurationOf(bo, brackenfield, 'Brackenfield B3 hatchback', 'B3 for the study');
+
+    const board = await iris.get(`/api/programmes/${programmeId}/board`).expect(200);
+    expect(board.body.trackProfile).toBe('bumpy-circuit');
+    const rows = board.body.rows as { teamName: string; configurationName: string; status: string; latest: { figures: Record<string, number> }; approved: { figures: Record<string, number>; trackProfile: string } | null }[];
+    expect(rows.map((r) => [r.teamName, r.configurationName, r.status])).toEqual([
+      ['Brackenfield Road Programme', 'B3 for the study', 'draft'],
+      ['Tallowmere University Racing', 'Ember for the study', 'approved'],
+    ]);
+    expect(rows[0]!.approved).toBeNull();
+
+    // The figures are the engines' own, for the same documents (direct calls).
+    const inputs = (await iris.get(`/api/teams/${tallowmere}/configurations/${tc}/approvals`).expect(200)).body[0];
+    const frozen = (await iris.get(`/api/teams/${tallowmere}/configurations/${tc}/approvals/${inputs.id}`).expect(200)).body.inputs;
+    const direct = computeBalance({ vehicle: frozen.vehicle, frontCorner: frozen.frontCorner, rearCorner: frozen.rearCorner });
+    const ember = rows[1]!;
+    expect(ember.latest.figures.rollSteerRear).toBeCloseTo(direct.kinematicsLink.rear.used.rollSteerCoefficient, 12);
+    expect(ember.latest.figures.rollSteerUndersteerDegPerG).toBeCloseTo(direct.understeerBudget.rollSteer, 12);
+    const [from, to] = trackProfiles['bumpy-circuit'].travelMm;
+    const sweep = computeCornerSweep({ corner: frozen.frontCorner, travel: { from, to, step: (to - from) / 40 } });
+    expect(ember.latest.figures.bumpSteerFrontDegPerM).toBeCloseTo(sweep.fit.bumpSteerDegPerM, 12);
+    // The approved column is the frozen snapshot, on the configuration's own profile.
+    expect(ember.approved!.trackProfile).toBe('smooth-circuit');
+    expect(ember.approved!.figures.understeerGradientDegPerG).toBeCloseTo(direct.understeerBudget.total, 12);
+  });
+
+  it('a snapshot keeps the board as it was and exports as CSV', async () => {
+    const snap = await iris.post(`/api/programmes/${programmeId}/snapshots`).send({ label: 'Deadline week 6' }).expect(201);
+    // Later work does not change the snapshot.
+    await configurationOf(bo, brackenfield, 'Brackenfield B5 estate', 'B5 late entry');
+    const again = await iris.get(`/api/programmes/${programmeId}/snapshots/${snap.body.id}`).expect(200);
+    expect(again.body.board.rows).toHaveLength(2);
+    expect((await iris.get(`/api/programmes/${programmeId}/board`).expect(200)).body.rows).toHaveLength(3);
+    expect((await iris.get(`/api/programmes/${programmeId}/snapshots`).expect(200)).body.map((s: { label: string }) => s.label)).toEqual(['Deadline week 6']);
+
+    const csv = await iris.get(`/api/programmes/${programmeId}/snapshots/${snap.body.id}`).query({ format: 'csv' }).expect(200);
+    expect(csv.headers['content-type']).toMatch(/^text\/csv/);
+    const [header, ...lines] = Papa.parse<string[]>(csv.text, { skipEmptyLines: true }).data;
+    expect(header!.slice(0, 5)).toEqual(['team', 'configuration', 'status', 'latest_revision', 'latest_rollSteerFront']);
+    expect(lines).toHaveLength(2);
+    const ember = lines.find((l) => l[0] === 'Tallowmere University Racing')!;
+    const row = again.body.board.rows.find((r: { teamName: string }) => r.teamName === 'Tallowmere University Racing');
+    expect(Number(ember[header!.indexOf('latest_rollSteerRear')])).toBe(row.latest.figures.rollSteerRear);
+    expect(ember[header!.indexOf('approved_revision')]).toBe('1');
+    expectError(await kit.get(`/api/programmes/${programmeId}/snapshots/${snap.body.id}`), 404, 'not_found');
+  });
+});
