@@ -11,7 +11,6 @@ import { AXLES } from '../db/schema.js';
 import { parseCorner, type AxleDesigns } from '../services/axle-designs.js';
 import type { Proposals } from '../services/proposals.js';
 import { archivedQuery, baseRevision, compareRevisions, documentName, idParam, revisionMessage, revisionNumber } from './vehicles.js';
-import { diffDocuments } from '../services/document-diff.js';
 
 const createSchema = z.strictObject({ axle: z.enum(AXLES), name: documentName, corner: z.unknown() });
 const patchSchema = z
@@ -76,11 +75,9 @@ export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, au
 
   // Changed values (hardpoint coordinates one by one) between two revisions, e.g. ?from=1&to=3.
   r.get('/:designId/compare', requirePermission('team:read'), async (req, res) => {
-    const { from, to } = compareRevisions(req.query);
     const teamId = currentAccess(req).teamId;
     const id = designId(req.params['designId']);
-    const [a, b] = await Promise.all([designs.revision(teamId, id, from), designs.revision(teamId, id, to)]);
-    res.json({ from, to, changes: diffDocuments({ name: a.name, archived: a.archived, corner: a.corner }, { name: b.name, archived: b.archived, corner: b.corner }, { expandArrays: true }) });
+    res.json(await compareRevisions(req.query, (n) => designs.revision(teamId, id, n), 'corner'));
   });
 
   r.get('/:designId/revisions/:revision', requirePermission('team:read'), async (req, res) => {

@@ -71,11 +71,9 @@ export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
 
   // Changed values between two revisions (e.g. ?from=1&to=3), side by side.
   r.get('/:vehicleId/compare', requirePermission('team:read'), async (req, res) => {
-    const { from, to } = compareRevisions(req.query);
     const teamId = currentAccess(req).teamId;
     const id = vehicleId(req.params['vehicleId']);
-    const [a, b] = await Promise.all([vehicles.revision(teamId, id, from), vehicles.revision(teamId, id, to)]);
-    res.json({ from, to, changes: diffDocuments({ name: a.name, archived: a.archived, data: a.data }, { name: b.name, archived: b.archived, data: b.data }, { expandArrays: true }) });
+    res.json(await compareRevisions(req.query, (n) => vehicles.revision(teamId, id, n), 'data'));
   });
 
   r.get('/:vehicleId/revisions/:revision', requirePermission('team:read'), async (req, res) => {
@@ -87,7 +85,17 @@ export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
 
 const compareRevisionsQuery = z.object({ from: z.coerce.number().int().positive(), to: z.coerce.number().int().positive() });
 
-/** `?from=&to=` of a revisions compare route. */
-export function compareRevisions(raw: unknown): { from: number; to: number } {
-  return validate(compareRevisionsQuery, raw, 'query');
+/**
+ * Answer of a revisions compare route (`?from=&to=`): the changed values of
+ * two revisions of one document (name, archived and the document under `docKey`).
+ */
+export async function compareRevisions<K extends string>(
+  query: unknown,
+  load: (revision: number) => Promise<{ name: string; archived: boolean } & Record<K, unknown>>,
+  docKey: K,
+) {
+  const { from, to } = validate(compareRevisionsQuery, query, 'query');
+  const [a, b] = await Promise.all([load(from), load(to)]);
+  const pick = (r: typeof a) => ({ name: r.name, archived: r.archived, [docKey]: r[docKey] });
+  return { from, to, changes: diffDocuments(pick(a), pick(b), { expandArrays: true }) };
 }
