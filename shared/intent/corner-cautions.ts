@@ -8,7 +8,7 @@ import type { Corner } from '../schema/corner.js';
 import { steeringStrokeMm } from '../schema/intent.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { SolveError } from '../errors.js';
-import { suspensionRollGradients } from '../balance/index.js';
+import { suspensionRollGradients } from '../balance/understeer.js';
 import { evaluateCautions, type Caution, type CautionThresholds } from './cautions.js';
 import { resolveTrackProfile, type TrackProfileChoice, type TrackProfileId } from './profiles.js';
 import { cautionInputs, sweepRacks } from './measure.js';
@@ -37,9 +37,6 @@ export function cautionRackPositions(corner: Corner, list?: number[]): number[] 
   const others = list ?? (stroke ? [stroke[0], stroke[1]] : []);
   return [0, ...others.filter((r) => r !== 0)];
 }
-
-/** The profile a screen starts from for each axle (vehicles store no profile of their own yet). */
-export const DEFAULT_TRACK_PROFILE: Readonly<Record<'front' | 'rear', TrackProfileId>> = { front: 'smooth-circuit', rear: 'smooth-circuit' };
 
 /** Suspension roll gradients with `corner` linked into the vehicle (balance model), or null (no vehicle, or a roll centre at infinity). */
 export function linkedRollGradients(counter: PoseCounter, vehicle: Vehicle | undefined, axle: 'front' | 'rear', corner: Corner) {

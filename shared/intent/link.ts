@@ -7,7 +7,7 @@
 import type { Corner, Vec3 } from '../schema/corner.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { axleKinematics, axleSummary, rollSteerCoefficient, solvePose, sweepCorner, type AxleSummary, type PoseResult, type SweepResult } from '../kinematics/index.js';
-import { linkVehicle, type LinkedVehicle } from '../balance/api.js';
+import { linkVehicle, type LinkedVehicle } from '../balance/link.js';
 
 export class PoseCounter {
   poses = 0;

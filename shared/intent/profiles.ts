@@ -69,6 +69,9 @@ export const trackProfiles: Readonly<Record<TrackProfileId, TrackProfile>> = {
   },
 };
 
+/** The profile a screen starts from for each axle (vehicles store no profile of their own yet). */
+export const DEFAULT_TRACK_PROFILE: Readonly<Record<'front' | 'rear', TrackProfileId>> = { front: 'smooth-circuit', rear: 'smooth-circuit' };
+
 /** Total travel (mm) from which any profile counts as long travel. */
 export const LONG_TRAVEL_SPAN_MM = 300;
 

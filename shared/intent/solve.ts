@@ -8,7 +8,7 @@ import type { Corner, Vec3 } from '../schema/corner.js';
 import { innerName, outerName, type Intent } from '../schema/intent.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { suspensionRollGradients } from '../balance/index.js';
-import { rollSteerTermDegPerG } from '../balance/api.js';
+import { rollSteerTermDegPerG } from '../balance/link.js';
 import { ENGINE_VERSION } from '../version.js';
 import { InputError, SolveError } from '../errors.js';
 import { evaluateCautions, SAFETY_CAUTION, type Caution } from './cautions.js';
