@@ -1,4 +1,28 @@
 import type { Corner, Vec3 } from '../../../shared/schema/corner';
+import type { Caution } from '../../../shared/intent/cautions';
+import type { TrackProfile, TrackProfileChoice } from '../../../shared/intent/profiles';
+
+/** What the cautions beside the results are measured for. */
+export interface CautionRequest {
+  readonly axle: 'front' | 'rear';
+  readonly trackProfile: TrackProfileChoice;
+  /** The vehicle's stored data (validated in the worker; left out of the cautions when incomplete), or null. */
+  readonly vehicleData: unknown;
+}
+
+/** The cautions of the corner (shared/intent `cautionsForCorner`), or why they could not be measured. */
+export type CornerCautions =
+  | {
+      readonly ok: true;
+      readonly list: readonly Caution[];
+      readonly profile: TrackProfile;
+      /** Rack positions the bump cautions were measured at, mm. */
+      readonly racksMm: readonly number[];
+      /** Whether the vehicle's tyres, loads and roll were used, and why not. */
+      readonly vehicleUsed: boolean;
+      readonly vehicleNote: string | null;
+    }
+  | { readonly ok: false; readonly profile: TrackProfile; readonly failure: AnalysisFailure };
 
 /** What the editor asks the engine for: one corner, its sweep ranges and the pose to draw. */
 export interface AnalysisRequest {
@@ -9,6 +33,8 @@ export interface AnalysisRequest {
   readonly roll: { readonly from: number; readonly to: number; readonly step: number };
   /** Pose shown in the drawings. */
   readonly pose: { readonly travelMm: number; readonly rackMm: number };
+  /** Cautions to measure beside the results (left out: none). */
+  readonly cautions?: CautionRequest;
 }
 
 export interface CurvePoint {
@@ -54,6 +80,7 @@ export interface CornerAnalysis {
   readonly rollSteerCoefficient: number;
   readonly rollCamberDegPerDeg: number;
   readonly pose: DrawnPose;
+  readonly cautions: CornerCautions | null;
   /** Time the engine took, ms (shown as a small figure; the bench measures properly). */
   readonly elapsedMs: number;
 }

@@ -6,8 +6,11 @@
  */
 import { InputError, SolveError } from '../../../shared/errors';
 import { rollSweep, solvePose, sweepCorner } from '../../../shared/kinematics/index';
-import type { Vec3 } from '../../../shared/schema/corner';
-import type { AnalysisFailure, AnalysisRequest, CornerAnalysis, DrawnPose, RackCurve, RollCurve } from './analysis-types';
+import type { Corner, Vec3 } from '../../../shared/schema/corner';
+import { upgradeVehicleDocument, vehicleSchema, type Vehicle } from '../../../shared/schema/vehicle';
+import { cautionRackPositions, cautionsForCorner } from '../../../shared/intent/corner-cautions';
+import { resolveTrackProfile } from '../../../shared/intent/profiles';
+import type { AnalysisFailure, AnalysisRequest, CautionRequest, CornerAnalysis, CornerCautions, DrawnPose, RackCurve, RollCurve } from './analysis-types';
 
 /** Points carried by the upright (they move as one rigid body with it). */
 const UPRIGHT_POINTS = ['wheelCentre', 'spindle', 'lowerOuter', 'upperOuter', 'tieRodOuter', 'strutLower'];
@@ -80,8 +83,31 @@ export function analyseCorner(request: AnalysisRequest): CornerAnalysis {
     rollSteerCoefficient: roll.rollSteerCoefficient,
     rollCamberDegPerDeg: roll.rollCamberDegPerDeg,
     pose: posedPoints(request),
+    cautions: request.cautions ? cornerCautions(request.corner, request.cautions) : null,
     elapsedMs: performance.now() - started,
   };
+}
+
+/** The vehicle's stored data as the balance model reads it, or why it cannot be used. */
+function vehicleFrom(data: unknown): { vehicle: Vehicle | undefined; note: string | null } {
+  if (data === null || data === undefined) return { vehicle: undefined, note: 'no vehicle data' };
+  const parsed = vehicleSchema.safeParse(upgradeVehicleDocument(data));
+  if (parsed.success) return { vehicle: parsed.data, note: null };
+  const first = parsed.error.issues[0];
+  return { vehicle: undefined, note: `the vehicle data is incomplete (${first ? `${first.path.join('.') || '(root)'}: ${first.message}` : 'invalid'})` };
+}
+
+/** The corner's cautions on the chosen profile (shared/intent); a profile it cannot reach is reported, not fatal to the kinematics. */
+function cornerCautions(corner: Corner, request: CautionRequest): CornerCautions {
+  const profile = resolveTrackProfile(request.trackProfile);
+  const { vehicle, note } = vehicleFrom(request.vehicleData);
+  try {
+    const list = cautionsForCorner(corner, { axle: request.axle, trackProfile: request.trackProfile, vehicle });
+    return { ok: true, list, profile, racksMm: cautionRackPositions(corner), vehicleUsed: vehicle !== undefined, vehicleNote: note };
+  } catch (error) {
+    if (error instanceof InputError || error instanceof SolveError) return { ok: false, profile, failure: describeFailure(error) };
+    throw error;
+  }
 }
 
 /** Engine errors as plain data: InputError lists fields, SolveError names travel, rack and link. */

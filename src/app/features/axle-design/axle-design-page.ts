@@ -5,13 +5,14 @@ import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
 import type { Corner, Vec3 } from '../../../../shared/schema/corner';
+import { DEFAULT_TRACK_PROFILE, trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
 import { LineChart } from '../../charts/line-chart';
 import { LineSeries } from '../../charts/chart-types';
 import { downloadText, fileNameFor } from '../../charts/csv';
 import { AnalysisError, AnalysisSuperseded, KinematicsClient } from '../../workers/kinematics-client';
-import type { AnalysisFailure, CornerAnalysis } from '../../workers/analysis-types';
+import type { AnalysisFailure, AnalysisRequest, CornerAnalysis } from '../../workers/analysis-types';
 import { AxleDesign, FeaturesApi, Proposal, RevisionRow } from '../features-api';
 import { routeParam } from '../route-params';
 import { rollSteerWords } from '../roll-steer-words';
@@ -22,6 +23,8 @@ import { hardpointCsv, hardpointJson } from './hardpoint-io';
 import { changedPoints, getPoint, pointName, withPoint, withPoints } from './hardpoint-model';
 import { HardpointTable, PointEdit } from './hardpoint-table';
 import { LinkageViews } from './linkage-views';
+import { CornerCautions } from './corner-cautions';
+import { TrackProfileSelect } from './track-profile-select';
 
 interface Conflict {
   readonly theirs: AxleDesign;
@@ -36,6 +39,10 @@ function travelStorageKey(designId: string): string {
   return `rollwise.travel.${designId}`;
 }
 
+function profileStorageKey(designId: string): string {
+  return `rollwise.cautionProfile.${designId}`;
+}
+
 /**
  * Axle design editor: the corner's hardpoints with live kinematics. Every
  * committed edit re-solves in the Web Worker and redraws the views, charts
@@ -44,7 +51,7 @@ function travelStorageKey(designId: string): string {
  */
 @Component({
   selector: 'rw-axle-design-page',
-  imports: [DatePipe, RouterLink, MatButton, MatProgressBar, HardpointTable, HardpointImport, LinkageViews, LineChart, SafetyCaution],
+  imports: [DatePipe, RouterLink, MatButton, MatProgressBar, HardpointTable, HardpointImport, LinkageViews, LineChart, SafetyCaution, CornerCautions, TrackProfileSelect],
   templateUrl: './axle-design-page.html',
   styleUrl: './axle-design-page.scss',
   providers: [KinematicsClient],
@@ -112,6 +119,12 @@ export class AxleDesignPage implements OnInit {
     return [0, s[0] / 2, s[1] / 2].filter((v, i, a) => a.indexOf(v) === i);
   });
 
+  // Cautions beside the results: the track profile they are measured for, and the vehicle's data (tyres, loads, roll).
+  private readonly axle = computed(() => this.saved()?.axle ?? null);
+  private readonly chosenProfile = signal<TrackProfileId | null>(null);
+  protected readonly trackProfileId = computed<TrackProfileId>(() => this.chosenProfile() ?? DEFAULT_TRACK_PROFILE[this.axle() ?? 'front']);
+  private readonly vehicleData = signal<unknown>(null);
+
   protected readonly analysis = signal<CornerAnalysis | null>(null);
   protected readonly failure = signal<AnalysisFailure | null>(null);
   protected readonly solving = signal(false);
@@ -176,8 +189,13 @@ export class AxleDesignPage implements OnInit {
       const step = this.travelStep();
       const rackMm = this.rackPositions();
       const pose = { travelMm: this.poseTravel(), rackMm: this.rackStroke() ? this.poseRack() : 0 };
+      const axle = this.axle();
+      const profile = this.trackProfileId();
+      const vehicleData = this.vehicleData();
       if (!corner) return;
-      untracked(() => this.solve(corner, { from, to, step }, rackMm, pose));
+      // The cautions are measured over the curves' travel range (the corner's own), with the profile's bump height.
+      const cautions = axle ? { axle, trackProfile: { id: profile, travelMm: [from, to] as [number, number] }, vehicleData } : undefined;
+      untracked(() => this.solve(corner, { from, to, step }, rackMm, pose, cautions));
     });
   }
 
@@ -191,16 +209,26 @@ export class AxleDesignPage implements OnInit {
         this.travelStep.set(step!);
       }
     }
+    const profile = globalThis.localStorage?.getItem(profileStorageKey(this.designId));
+    if (profile && profile in trackProfiles) this.chosenProfile.set(profile as TrackProfileId);
     void this.load();
+  }
+
+  protected chooseProfile(id: TrackProfileId): void {
+    this.chosenProfile.set(id);
+    globalThis.localStorage?.setItem(profileStorageKey(this.designId), id);
   }
 
   private async load(): Promise<void> {
     this.state.set({ kind: 'loading' });
     try {
-      const [design] = await Promise.all([
+      const [design, vehicle] = await Promise.all([
         firstValueFrom(this.api.axleDesign(this.teamId, this.designId)),
+        // The cautions use the vehicle's tyres and loads where it can be read; without it they use the product defaults.
+        firstValueFrom(this.api.vehicle(this.teamId, this.vehicleId)).catch(() => null),
         firstValueFrom(this.access.load(this.teamId)),
       ]);
+      this.vehicleData.set(vehicle?.data ?? null);
       this.adopt(design);
       this.state.set({ kind: 'ready' });
       void this.loadRevisions();
@@ -263,10 +291,11 @@ export class AxleDesignPage implements OnInit {
     travel: { from: number; to: number; step: number },
     rackMm: number[],
     pose: { travelMm: number; rackMm: number },
+    cautions: AnalysisRequest['cautions'],
   ): Promise<void> {
     this.solving.set(true);
     try {
-      const analysis = await this.engine.analyse({ corner, travel, rackMm, roll: ROLL_RANGE, pose });
+      const analysis = await this.engine.analyse({ corner, travel, rackMm, roll: ROLL_RANGE, pose, ...(cautions ? { cautions } : {}) });
       this.analysis.set(analysis);
       this.failure.set(null);
       this.solving.set(false);
@@ -425,6 +454,27 @@ export class AxleDesignPage implements OnInit {
     const c = this.corner();
     if (c) downloadText(hardpointJson(c, this.exportTitle()), fileNameFor(`${this.saved()!.name} corner`, 'json'), 'application/json');
   }
+
+  protected readonly cautionList = computed(() => {
+    const c = this.analysis()?.cautions;
+    return c && c.ok ? c.list : null;
+  });
+  protected readonly cautionFailure = computed(() => {
+    const c = this.analysis()?.cautions;
+    return c && !c.ok ? c.failure : null;
+  });
+
+  /** How the cautions were measured, in words (beside the profile selector). */
+  protected readonly cautionBasis = computed(() => {
+    const c = this.analysis()?.cautions;
+    if (!c) return '';
+    const p = c.profile;
+    const where = `over ${p.travelMm[0]} to ${p.travelMm[1]} mm of travel (the curves' range) with a ${p.bumpHeightMm} mm single-wheel bump`;
+    if (!c.ok) return `Measured ${where}.`;
+    const racks = c.racksMm.length > 1 ? `, at rack ${c.racksMm.join(', ')} mm` : '';
+    const vehicle = c.vehicleUsed ? "the vehicle's tyres, loads and roll" : `product default tyre figures (${c.vehicleNote ?? 'no vehicle'})`;
+    return `Measured ${where}${racks}, with ${vehicle}; thresholds are the product defaults for ${p.label.toLowerCase()}.`;
+  });
 
   protected fmt(v: number | undefined, digits = 3): string {
     return v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);

@@ -1,0 +1,79 @@
+import { TestBed } from '@angular/core/testing';
+import { exampleCorners } from '../../../../shared/kinematics/examples';
+import { cautionsForCorner } from '../../../../shared/intent/corner-cautions';
+import type { Caution } from '../../../../shared/intent/cautions';
+import type { TrackProfileId } from '../../../../shared/intent/profiles';
+import { CAUTION_GROUPS, CornerCautions } from './corner-cautions';
+import { TrackProfileSelect } from './track-profile-select';
+
+/** Real cautions of the example front wishbone from the shared engine, with thresholds low enough that each bump rule fires. */
+function realCautions(): Caution[] {
+  return cautionsForCorner(exampleCorners.fsFrontWishbone, {
+    axle: 'front',
+    trackProfile: 'smooth-circuit',
+    thresholds: { 'bump-toe-change': { warning: 1e-6 }, 'bump-lateral-scrub': { critical: 1e-6 }, 'front-roll-steer-feel': { info: 0 } },
+  });
+}
+
+function render(cautions: readonly Caution[], group: 'bump' | 'roll') {
+  const fixture = TestBed.createComponent(CornerCautions);
+  fixture.componentRef.setInput('cautions', cautions);
+  fixture.componentRef.setInput('group', group);
+  fixture.componentRef.setInput('title', group === 'bump' ? 'Bump-steer cautions' : 'Roll-steer cautions');
+  fixture.detectChanges();
+  return fixture.nativeElement as HTMLElement;
+}
+
+describe('CornerCautions', () => {
+  it('shows the bump cautions beside the bump-steer fits with level, message, value, threshold and basis', () => {
+    const cautions = realCautions();
+    const el = render(cautions, 'bump');
+    const items = Array.from(el.querySelectorAll<HTMLElement>('li.rw-caution'));
+    const codes = items.map((li) => li.dataset['code']);
+    expect(codes).toContain('bump-toe-change');
+    expect(codes).toContain('bump-lateral-scrub');
+    for (const code of codes) expect(CAUTION_GROUPS.bump).toContain(code);
+    const toe = cautions.find((c) => c.code === 'bump-toe-change')!;
+    const li = items.find((x) => x.dataset['code'] === 'bump-toe-change')!;
+    expect(li.classList).toContain('rw-caution-warning');
+    expect(li.textContent).toContain('Warning');
+    expect(li.textContent).toContain(toe.message);
+    expect(li.textContent).toContain(`Value ${toe.value!.toPrecision(3)} deg`);
+    expect(li.textContent).toContain(`threshold ${toe.threshold!.toPrecision(3)} deg`);
+    expect(li.textContent).toContain(`Basis: ${toe.basis}`);
+    expect(items.find((x) => x.dataset['code'] === 'bump-lateral-scrub')!.classList).toContain('rw-caution-critical');
+  });
+
+  it('shows the roll-steer cautions in their own group and never repeats the safety notice', () => {
+    const el = render(realCautions(), 'roll');
+    const codes = Array.from(el.querySelectorAll<HTMLElement>('li.rw-caution')).map((li) => li.dataset['code']);
+    expect(codes).toContain('front-roll-steer-feel');
+    expect(codes).not.toContain('bump-toe-change');
+    expect(codes).not.toContain('safety-notice');
+  });
+
+  it('says so when no caution of the group applies', () => {
+    const el = render(realCautions().filter((c) => c.code === 'safety-notice'), 'bump');
+    expect(el.querySelector('li.rw-caution')).toBeNull();
+    expect(el.textContent).toContain('None on this profile.');
+  });
+});
+
+describe('TrackProfileSelect', () => {
+  it('offers the four profiles with their bump heights, shows the chosen one and emits a new choice', () => {
+    const fixture = TestBed.createComponent(TrackProfileSelect);
+    fixture.componentRef.setInput('value', 'smooth-circuit');
+    fixture.detectChanges();
+    const picked: TrackProfileId[] = [];
+    fixture.componentInstance.changed.subscribe((id) => picked.push(id));
+    const el = fixture.nativeElement as HTMLElement;
+    const select = el.querySelector<HTMLSelectElement>('select')!;
+    expect(el.querySelector('label')!.textContent).toContain('Track profile for the cautions');
+    expect(Array.from(select.options).map((o) => o.value)).toEqual(['smooth-circuit', 'bumpy-circuit', 'rough-road', 'off-road']);
+    expect(select.value).toBe('smooth-circuit');
+    expect(select.options[1]!.textContent).toContain('25 mm bump');
+    select.value = 'bumpy-circuit';
+    select.dispatchEvent(new Event('change'));
+    expect(picked).toEqual(['bumpy-circuit']);
+  });
+});
