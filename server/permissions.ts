@@ -1,32 +1,11 @@
 /**
- * The permission matrix: which role grants which permission. The one source
- * the authorization middleware reads; docs/permissions.md shows the same
- * table for people.
+ * Authorization helpers over the permission matrix. The roles, permissions
+ * and the matrix itself live in shared/schema/roles.ts (the app reads the
+ * same copy); docs/permissions.md shows the table for people.
  */
-export const ROLES = ['owner', 'engineer', 'designer', 'reviewer', 'viewer'] as const;
-export type Role = (typeof ROLES)[number];
+import { PERMISSIONS, ROLE_PERMISSIONS, type Permission, type Role } from '../shared/schema/roles.js';
 
-export const PERMISSIONS = [
-  'team:read',
-  'members:manage',
-  'vehicle:manage',
-  'vehicle:edit',
-  'design:edit',
-  'design:propose',
-  'design:accept',
-  'review:decide',
-  'review:submit',
-  'review:comment',
-] as const;
-export type Permission = (typeof PERMISSIONS)[number];
-
-export const ROLE_PERMISSIONS: Readonly<Record<Role, readonly Permission[]>> = {
-  owner: ['team:read', 'members:manage', 'vehicle:manage', 'review:comment'],
-  engineer: ['team:read', 'vehicle:manage', 'vehicle:edit', 'design:propose', 'review:submit', 'review:comment'],
-  designer: ['team:read', 'vehicle:manage', 'design:edit', 'design:accept', 'review:submit', 'review:comment'],
-  reviewer: ['team:read', 'review:decide', 'review:comment'],
-  viewer: ['team:read'],
-};
+export { PERMISSIONS, ROLE_PERMISSIONS, ROLES, type Permission, type Role } from '../shared/schema/roles.js';
 
 /** Union of the permissions of a set of roles, in matrix order. */
 export function permissionsOf(roles: readonly string[]): Permission[] {

@@ -3,20 +3,10 @@
  * (see coord/contracts.md, "HTTP API"). Dates arrive as ISO strings.
  */
 
-export const ROLES = ['owner', 'engineer', 'designer', 'reviewer', 'viewer'] as const;
-export type Role = (typeof ROLES)[number];
-
-export const PERMISSIONS = [
-  'team:read',
-  'members:manage',
-  'vehicle:manage',
-  'vehicle:edit',
-  'design:edit',
-  'design:propose',
-  'design:accept',
-  'review:decide',
-] as const;
-export type Permission = (typeof PERMISSIONS)[number];
+// Roles, permissions and the matrix: one copy, shared with the server.
+export { PERMISSIONS, ROLE_PERMISSIONS, ROLES } from '../../../shared/schema/roles';
+export type { Permission, Role } from '../../../shared/schema/roles';
+import type { Permission, Role } from '../../../shared/schema/roles';
 
 export type DisplayUnits = 'si' | 'imperial';
 
@@ -25,6 +15,10 @@ export interface User {
   readonly email: string;
   readonly displayName: string;
   readonly displayUnits: DisplayUnits;
+  /** The address was confirmed (verification link, invitation or password reset). */
+  readonly emailVerified?: boolean;
+  /** May create programmes (an account property, not a team role). */
+  readonly instructor?: boolean;
 }
 
 export interface Membership {

@@ -15,6 +15,8 @@ const PERMISSION_WORDS: Readonly<Record<Permission, string>> = {
   'design:propose': 'propose geometry',
   'design:accept': 'accept proposals',
   'review:decide': 'decide reviews',
+  'review:submit': 'submit configurations for review',
+  'review:comment': 'comment on reviews',
 };
 
 /**
