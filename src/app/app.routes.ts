@@ -23,6 +23,31 @@ export const routes: Routes = [
     loadComponent: () => import('./auth/register-page').then((m) => m.RegisterPage),
   },
   {
+    path: 'forgot-password',
+    title: 'Reset your password · Rollwise',
+    canActivate: [signedOutGuard],
+    loadComponent: () =>
+      import('./auth/forgot-password-page').then((m) => m.ForgotPasswordPage),
+  },
+  // The links Rollwise mails (server/services: PUBLIC_URL/reset-password/<token>,
+  // /verify-email/<token>, /invitations/<token>). Open to everyone: the token
+  // is the credential, and each page adapts to whoever is signed in.
+  {
+    path: 'reset-password/:token',
+    title: 'Choose a new password · Rollwise',
+    loadComponent: () => import('./auth/reset-password-page').then((m) => m.ResetPasswordPage),
+  },
+  {
+    path: 'verify-email/:token',
+    title: 'Confirm your e-mail address · Rollwise',
+    loadComponent: () => import('./auth/verify-email-page').then((m) => m.VerifyEmailPage),
+  },
+  {
+    path: 'invitations/:token',
+    title: 'Team invitation · Rollwise',
+    loadComponent: () => import('./invitations/invitation-page').then((m) => m.InvitationPage),
+  },
+  {
     path: 'account',
     title: 'Account · Rollwise',
     canActivate: [signedInGuard],
@@ -51,6 +76,13 @@ export const routes: Routes = [
         title: 'Members · Rollwise',
         canActivate: [permissionGuard('members:manage')],
         loadComponent: () => import('./teams/members-page').then((m) => m.MembersPage),
+      },
+      {
+        // Development servers only (the API route is absent in production).
+        path: 'dev-mail',
+        title: 'Development mail · Rollwise',
+        canActivate: [permissionGuard('members:manage')],
+        loadComponent: () => import('./dev-mail/dev-mail-page').then((m) => m.DevMailPage),
       },
       {
         // Vehicle, axle-design, balance, compare and report screens.

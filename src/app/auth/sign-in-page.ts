@@ -12,6 +12,11 @@ import { apiProblem } from '../core/http/api-error';
   selector: 'app-sign-in-page',
   imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule, RouterLink],
   templateUrl: './sign-in-page.html',
+  styles: `
+    .forgot {
+      margin: -0.5rem 0 0;
+    }
+  `,
 })
 export class SignInPage {
   private readonly auth = inject(AuthService);
@@ -24,6 +29,12 @@ export class SignInPage {
   });
   protected readonly submitting = signal(false);
   protected readonly failure = signal<string | null>(null);
+
+  /** The reset page starts with the address typed here, if any. */
+  protected forgotParams(): { email?: string } {
+    const email = this.form.controls.email.value.trim();
+    return email ? { email } : {};
+  }
 
   protected submit(): void {
     this.failure.set(null);

@@ -1,10 +1,11 @@
-import { Component, computed, inject } from '@angular/core';
+import { Component, computed, effect, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDividerModule } from '@angular/material/divider';
 import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule } from '@angular/material/menu';
 import { MatToolbarModule } from '@angular/material/toolbar';
 import { Router, RouterLink, RouterLinkActive } from '@angular/router';
+import { DevMailApi } from '../../dev-mail/dev-mail-api';
 import { AuthService } from '../auth/auth-service';
 import { TeamAccess } from '../teams/team-access';
 import { Notifier } from './notifier';
@@ -34,6 +35,18 @@ export class TopBar {
   protected readonly canManageMembers = computed(
     () => this.access.team()?.id === this.team()?.teamId && this.access.can('members:manage'),
   );
+  private readonly devMail = inject(DevMailApi);
+  /** Owners on a development server: the page of captured mail. */
+  protected readonly showDevMail = computed(
+    () => this.canManageMembers() && this.devMail.available() === true,
+  );
+
+  constructor() {
+    effect(() => {
+      const team = this.team();
+      if (team && this.canManageMembers()) this.devMail.probe(team.teamId);
+    });
+  }
 
   protected switchTo(teamId: string): void {
     this.auth.switchTeam(teamId);

@@ -1,0 +1,56 @@
+import { HttpClient, HttpContext } from '@angular/common/http';
+import { inject, Injectable } from '@angular/core';
+import { Observable } from 'rxjs';
+import { Me, Role } from '../core/api-types';
+import { SHOW_ERRORS_INLINE } from '../core/http/api-error';
+
+/** The invitation page explains every refusal itself. */
+const INLINE = { context: new HttpContext().set(SHOW_ERRORS_INLINE, true) };
+
+/** `GET /api/invitations/:token`: what the invitation offers. Reading it never accepts. */
+export interface InvitationInfo {
+  readonly teamId: string;
+  readonly teamName: string;
+  /** The invited address (lower-case). */
+  readonly email: string;
+  readonly roles: readonly Role[];
+  readonly invitedByName: string | null;
+  readonly expiresAt: string;
+  /** An account with the invited address exists: its owner signs in to accept. */
+  readonly accountExists: boolean;
+}
+
+/** `POST /api/invitations/:token/accept`. */
+export interface AcceptedInvitation {
+  readonly teamId: string;
+  readonly me: Me;
+}
+
+/** A new person's account, created by accepting. */
+export interface InvitationRegistration {
+  readonly displayName: string;
+  readonly password: string;
+}
+
+function linkPath(token: string): string {
+  return `/api/invitations/${encodeURIComponent(token)}`;
+}
+
+/** Invitation links (public: the signed token is the credential). */
+@Injectable({ providedIn: 'root' })
+export class InvitationsApi {
+  private readonly http = inject(HttpClient);
+
+  /** 404 `invitation_invalid`, 410 `invitation_expired` / `invitation_used`. */
+  get(token: string): Observable<InvitationInfo> {
+    return this.http.get<InvitationInfo>(linkPath(token), INLINE);
+  }
+
+  /**
+   * Signed in: `{}` (the account's address must be the invited one, else 403
+   * `wrong_email`). Signed out: the new account's name and password.
+   */
+  accept(token: string, registration?: InvitationRegistration): Observable<AcceptedInvitation> {
+    return this.http.post<AcceptedInvitation>(`${linkPath(token)}/accept`, registration ?? {}, INLINE);
+  }
+}
