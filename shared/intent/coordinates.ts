@@ -29,20 +29,36 @@ export function readCoordinates(corner: Corner, names: string[]): number[] {
   return names.map((n) => (n === 'rack.z' ? 0 : pts[parse(corner, n).point]![parse(corner, n).axis]));
 }
 
-/** A copy of `corner` with the coordinates set to `values` (mm); everything else shared, untouched. */
-export function applyCoordinates(corner: Corner, names: string[], values: number[]): Corner {
-  const points = { ...(corner.points as Record<string, Vec3>) };
-  let steering = corner.steering;
+/**
+ * The moved points (and a steering-box arm's axis point) that set the
+ * coordinates to `values` (mm): every other coordinate of a moved point is
+ * kept. What the engine's trusted path (`moveCornerPoints`) takes.
+ */
+export function coordinateMoves(corner: Corner, names: string[], values: number[]): { points: Record<string, Vec3>; armAxisPoint?: Vec3 } {
+  const base = corner.points as Record<string, Vec3>;
+  const points: Record<string, Vec3> = {};
+  let armAxisPoint: Vec3 | undefined;
   names.forEach((n, i) => {
     const t = parse(corner, n);
-    const p: Vec3 = [...points[t.point]!];
+    const p: Vec3 = [...(points[t.point] ?? base[t.point]!)];
     if (n === 'rack.z') {
       const dz = values[i]!;
       p[2] += dz;
       // A steering-box arm rises with the rack's height.
-      if (steering?.kind === 'arm') steering = { ...steering, armAxisPoint: [steering.armAxisPoint[0], steering.armAxisPoint[1], steering.armAxisPoint[2] + dz] };
+      const st = corner.steering;
+      if (st?.kind === 'arm') {
+        const a = armAxisPoint ?? st.armAxisPoint;
+        armAxisPoint = [a[0], a[1], a[2] + dz];
+      }
     } else p[t.axis] = values[i]!;
     points[t.point] = p;
   });
-  return { ...corner, points, ...(steering ? { steering } : {}) } as Corner;
+  return armAxisPoint ? { points, armAxisPoint } : { points };
+}
+
+/** A copy of `corner` with the coordinates set to `values` (mm); everything else shared, untouched. */
+export function applyCoordinates(corner: Corner, names: string[], values: number[]): Corner {
+  const m = coordinateMoves(corner, names, values);
+  const steering = m.armAxisPoint && corner.steering?.kind === 'arm' ? { ...corner.steering, armAxisPoint: m.armAxisPoint } : corner.steering;
+  return { ...corner, points: { ...corner.points, ...m.points }, ...(steering ? { steering } : {}) } as Corner;
 }

@@ -6,11 +6,21 @@
  */
 import type { Corner, Vec3 } from '../schema/corner.js';
 import type { Vehicle } from '../schema/vehicle.js';
-import { axleKinematics, axleSummary, rollSteerCoefficient, solvePose, sweepCorner, type AxleSummary, type PoseResult, type SweepResult } from '../kinematics/index.js';
+import { axleKinematics, axleSummary, moveCornerPoints, rollSteerCoefficient, solvePose, sweepCorner, type AxleSummary, type PoseResult, type SweepResult } from '../kinematics/index.js';
 import { linkVehicle, type LinkedVehicle } from '../balance/link.js';
+import { coordinateMoves } from './coordinates.js';
 
 export class PoseCounter {
   poses = 0;
+}
+
+/**
+ * A trial geometry of the search: `current` (validated once) with the
+ * movable coordinates set to `values`, through the engine's trusted path (no
+ * zod parse of each new geometry; the semantic geometry checks still run).
+ */
+export function trialCorner(current: Corner, names: string[], values: number[]): Corner {
+  return moveCornerPoints(current, coordinateMoves(current, names, values));
 }
 
 export type Pose = PoseResult & { state: { c: Vec3; R: number[] } };

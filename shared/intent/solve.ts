@@ -13,13 +13,13 @@ import { ENGINE_VERSION } from '../version.js';
 import { InputError, SolveError } from '../errors.js';
 import { evaluateCautions, SAFETY_CAUTION, type Caution } from './cautions.js';
 import { resolveTrackProfile, type TrackProfile } from './profiles.js';
-import { applyCoordinates, readCoordinates } from './coordinates.js';
+import { readCoordinates } from './coordinates.js';
 import { solveFamily, type LimitingBound } from './optimise.js';
 import { linearFitDeviation, secantRoot } from './numeric.js';
 import { asBuiltCorner, workshopNumbers, type WorkshopNumbers } from './workshop.js';
 import { cautionRackPositions } from './corner-cautions.js';
 import { cautionInputs, sweepRacks, type RackFit, type UnreachableRack } from './measure.js';
-import { linked, pose, PoseCounter, rollSteer, steering, summary, sweep } from './link.js';
+import { linked, pose, PoseCounter, trialCorner, rollSteer, steering, summary, sweep } from './link.js';
 import type { SweepRow } from '../kinematics/index.js';
 
 export type { RackFit, UnreachableRack } from './measure.js';
@@ -180,7 +180,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
     let c = built.get(key);
     if (!c) {
       if (built.size > 5000) built.clear();
-      c = applyCoordinates(current, names, q);
+      c = trialCorner(current, names, q);
       built.set(key, c);
     }
     return c;

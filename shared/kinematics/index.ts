@@ -3,7 +3,7 @@
  * Conventions (axes, signs, units) are those of shared/docs/domain.md.
  */
 export { exampleCorners, type ExampleCornerName } from './examples.js';
-export { compileCorner, type CornerModel, type Side } from './model.js';
+export { compileCorner, moveCornerPoints, type CornerModel, type CornerMoves, type Side } from './model.js';
 export { CornerSolver, RESIDUAL_TOL_MM, type SolveDiagnostics } from './solver.js';
 export { poseOutputs, poseRow, kingpinAxis, type PoseResult, type PoseRow, type KingpinAxis } from './pose.js';
 export {

@@ -4,8 +4,8 @@
  * centre, design rotation = identity), link lengths, the strut line, the
  * steering input and the spring / bar mechanisms. All lengths mm.
  */
-import { cornerSchema, type Corner, type Vec3, type Attachment } from '../schema/corner.js';
-import { parseOrThrow } from '../errors.js';
+import { cornerSchema, cornerSemanticIssues, type Corner, type Vec3, type Attachment } from '../schema/corner.js';
+import { InputError, parseOrThrow } from '../errors.js';
 import { cross, dot, norm, sub, unit, scale } from './vec.js';
 
 /** Which wheel a solve describes: the left corner as entered, or the right one solved as its mirror. */
@@ -131,6 +131,45 @@ export function compileCorner(input: Corner | unknown): CornerModel {
   const m = buildModel(corner);
   if (input && typeof input === 'object') cache.set(input, m);
   return m;
+}
+
+/** Coordinates an engine-built corner may move: points by name, and a steering-box arm's axis point. */
+export interface CornerMoves {
+  points?: Readonly<Record<string, Vec3>>;
+  armAxisPoint?: Vec3;
+}
+
+/**
+ * A copy of an already-validated corner with only coordinates moved, built
+ * by the engine itself (the intent solver's trial geometries): the structure
+ * is the validated corner's, so the zod parse is skipped; the moved values
+ * must be finite and the semantic geometry checks (`cornerSemanticIssues`)
+ * still run, with the InputError the parse would give. The compiled model is
+ * cached for the copy. `base` itself is validated (once) by compileCorner.
+ */
+export function moveCornerPoints(base: Corner, moves: CornerMoves): Corner {
+  const validated = compileCorner(base).corner;
+  const issues: { path: string; message: string }[] = [];
+  const finite = (v: Vec3, path: string) => {
+    if (!Array.isArray(v) || v.length !== 3 || !v.every((x) => typeof x === 'number' && Number.isFinite(x))) issues.push({ path, message: `${path} must be three finite numbers (mm)` });
+  };
+  const points = { ...(validated.points as Record<string, Vec3>) };
+  for (const [name, v] of Object.entries(moves.points ?? {})) {
+    if (!(name in points)) throw new Error(`moveCornerPoints: ${name} is not a point of this ${validated.type} corner`);
+    finite(v, `points.${name}`);
+    points[name] = [v[0], v[1], v[2]];
+  }
+  let steering = validated.steering;
+  if (moves.armAxisPoint) {
+    if (steering?.kind !== 'arm') throw new Error('moveCornerPoints: armAxisPoint needs a steering-box arm');
+    finite(moves.armAxisPoint, 'steering.armAxisPoint');
+    steering = { ...steering, armAxisPoint: [moves.armAxisPoint[0], moves.armAxisPoint[1], moves.armAxisPoint[2]] };
+  }
+  const next = { ...validated, points, ...(steering ? { steering } : {}) } as Corner;
+  if (!issues.length) issues.push(...cornerSemanticIssues(next));
+  if (issues.length) throw new InputError(`Invalid corner: ${issues[0]!.path}: ${issues[0]!.message}`, issues);
+  cache.set(next, buildModel(next));
+  return next;
 }
 
 function buildModel(corner: Corner): CornerModel {
