@@ -3,6 +3,7 @@
  * fallback) everywhere else. Routes are thin; services talk to Drizzle;
  * engine calls go to the worker pool; every error reaches one handler.
  */
+import { limitJsonDepth } from './http/json-depth.js';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import express, { type Express, type RequestHandler } from 'express';
@@ -112,6 +113,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   });
   api.use(requireJsonBody);
   api.use(express.json({ limit: config.bodyLimit }));
+  api.use(limitJsonDepth());
   api.use(bearerAuth(apiTokens));
   api.use(csrfProtection(config.publicUrl));
   api.use('/health', healthRouter(db.pool));

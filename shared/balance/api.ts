@@ -8,7 +8,7 @@
  */
 import { z } from 'zod';
 import { parseOrThrow, SolveError } from '../errors.js';
-import { cornerSchema, upgradeCornerDocument } from '../schema/corner.js';
+import { cornerDocumentSchema } from '../schema/corner.js';
 import { upgradeVehicleDocument, vehicleSchema, type Vehicle } from '../schema/vehicle.js';
 import { compareBalance, type BalanceComparison } from './compare.js';
 import { evaluateBalance, type BalanceOptions, type BalanceResult } from './index.js';
@@ -28,7 +28,7 @@ export const axleOverridesSchema = z.strictObject({
 });
 
 const vehicleDocument = z.preprocess(upgradeVehicleDocument, vehicleSchema);
-const cornerDocument = z.preprocess(upgradeCornerDocument, cornerSchema);
+const cornerDocument = cornerDocumentSchema;
 
 const caseSchema = {
   vehicle: vehicleDocument,

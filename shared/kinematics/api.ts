@@ -5,7 +5,7 @@
  */
 import { z } from 'zod';
 import { InputError, SolveError, parseOrThrow } from '../errors.js';
-import { cornerSchema, upgradeCornerDocument } from '../schema/corner.js';
+import { cornerDocumentSchema, upgradeCornerDocument } from '../schema/corner.js';
 import { sweepCorner, expandRange } from './sweep.js';
 import { axleKinematics, rollSweep, rightCornerToLeftFrame } from './axle.js';
 
@@ -16,7 +16,7 @@ export const MAX_RACK_POSITIONS = 25;
 
 const finite = z.number().finite();
 const rangeSchema = z.object({ from: finite, to: finite, step: finite });
-const cornerField = z.preprocess((d) => upgradeCornerDocument(d), cornerSchema);
+const cornerField = cornerDocumentSchema;
 const rackList = z.array(finite).min(1).max(MAX_RACK_POSITIONS).optional();
 
 export const cornerSweepRequestSchema = z.object({

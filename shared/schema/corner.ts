@@ -180,6 +180,22 @@ export function upgradeCornerDocument(doc: unknown): unknown {
   return doc;
 }
 
+/**
+ * A stored or sent corner document: upgraded to the current formatVersion,
+ * then checked by `cornerSchema`. A document from a newer Rollwise becomes an
+ * ordinary schema issue at its own `formatVersion` path (so callers see
+ * `corner.formatVersion`, and `safeParse` reports it instead of throwing).
+ */
+export const cornerDocumentSchema = z.preprocess((doc, ctx) => {
+  try {
+    return upgradeCornerDocument(doc);
+  } catch (e) {
+    if (!(e instanceof InputError)) throw e;
+    for (const issue of e.issues) ctx.addIssue({ code: 'custom', message: e.message, path: [issue.path] });
+    return z.NEVER;
+  }
+}, cornerSchema);
+
 // ---------- semantic validation ----------
 
 function sub(a: readonly number[], b: readonly number[]): Vec3 {

@@ -5,7 +5,7 @@
  * ISO 8855 vehicle axes, LEFT corner (the right corner is its mirror).
  */
 import { z } from 'zod';
-import { cornerSchema, upgradeCornerDocument, type Corner } from './corner.js';
+import { cornerDocumentSchema, type Corner } from './corner.js';
 import { upgradeVehicleDocument, vehicleSchema } from './vehicle.js';
 import { TRACK_PROFILE_IDS, trackProfiles } from '../intent/profiles.js';
 import { CAUTION_CODES } from '../intent/cautions.js';
@@ -76,7 +76,7 @@ export const intentSchema = z
   .strictObject({
     formatVersion: z.literal(INTENT_FORMAT_VERSION).optional(),
     name: z.string().max(200).optional(),
-    corner: z.preprocess(upgradeCornerDocument, cornerSchema),
+    corner: cornerDocumentSchema,
     axle: z.enum(['front', 'rear'], { error: 'axle must be "front" or "rear"' }),
     target: intentTargetSchema,
     movable: z.array(coordinateSchema).min(1, 'movable must name at least one coordinate').max(5),

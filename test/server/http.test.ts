@@ -69,6 +69,19 @@ describe('bodies and errors', () => {
     const r = await agent(t.app).post('/api/auth/register').send({ email: 'x@y.example', password: 'long-enough-pass', displayName: 'X', admin: true });
     expectError(r, 400, 'invalid_input');
   });
+  it('a body nested deeper than 64 levels → 400 before any route sees it, even 5000 levels deep', async () => {
+    // Found by the compute fuzz (issue 8): 5000 nested arrays overflowed the stack when cloned to a worker (500).
+    for (const depth of [65, 5000]) {
+      const body = '['.repeat(depth) + '1' + ']'.repeat(depth);
+      const r = await agent(t.app).post('/api/auth/sign-in').set('Content-Type', 'application/json').send(body);
+      expectError(r, 400, 'invalid_input');
+      expect(r.body.error.message).toMatch(/nested deeper than 64/);
+    }
+    const ok = '{"a":'.repeat(63) + '1' + '}'.repeat(63);
+    const r = await agent(t.app).post('/api/auth/sign-in').set('Content-Type', 'application/json').send(ok);
+    expect(r.status).toBe(400);
+    expect(r.body.error.message).not.toMatch(/nested deeper/);
+  });
   it('unknown /api route → 404 JSON', async () => {
     const r = await request(t.app).get('/api/no-such-thing');
     expectError(r, 404, 'not_found');
