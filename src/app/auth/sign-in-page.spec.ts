@@ -97,4 +97,15 @@ describe('SignInPage', () => {
     expect(input('password').value).toBe('');
     expect(root.querySelector<HTMLButtonElement>('button[type="submit"]')!.disabled).toBe(false);
   });
+
+  it('offers a password reset, carrying the address typed so far', async () => {
+    const { type, root, fixture } = await render();
+    const forgot = () => [...root.querySelectorAll('a')].find((a) => a.textContent?.trim() === 'Forgot your password?')!;
+    expect(forgot().getAttribute('href')).toBe('/forgot-password');
+    await type('email', ' designer@tallowmere.example ');
+    await fixture.whenStable();
+    const href = new URL(forgot().getAttribute('href')!, 'http://127.0.0.1');
+    expect(href.pathname).toBe('/forgot-password');
+    expect(href.searchParams.get('email')).toBe('designer@tallowmere.example');
+  });
 });

@@ -1,0 +1,114 @@
+/**
+ * Browser test of the links Rollwise mails (issue 7, "E-mail"): a demo user
+ * asks for a password reset on the sign-in page; the team owner, in another
+ * browser context, finds the mail on the development mail page and follows
+ * its link; the new password is set there, and the user signs in with it.
+ * The harness runs the local fake SMTP server and fails on any request that
+ * leaves 127.0.0.1; every page must end without console errors.
+ * Needs `npx ng build` first.
+ */
+import type { Locator, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import {
+  consoleErrors,
+  offsiteRequests,
+  openBrowser,
+  saveScreenshot,
+  signIn,
+  startE2eApp,
+} from '../support/e2e.js';
+
+type App = Awaited<ReturnType<typeof startE2eApp>>;
+type Browser = Awaited<ReturnType<typeof openBrowser>>;
+
+const DESIGNER = 'designer@tallowmere.example';
+const OWNER = 'owner@tallowmere.example';
+const NEW_PASSWORD = 'quist-fresh-pass-27';
+const SAME_ANSWER = /^If an account uses \S+, a link to choose a new password is on its way\./;
+
+/** The captured mail with this subject to this address, refreshing until the outbox has sent it. */
+async function waitForMail(page: Page, subject: string, to: string): Promise<Locator> {
+  const mail = page
+    .locator('li.mail')
+    .filter({ has: page.getByRole('heading', { name: subject }) })
+    .filter({ hasText: to });
+  for (let attempt = 0; attempt < 40; attempt++) {
+    if ((await mail.count()) > 0) return mail.first();
+    await page.waitForTimeout(500);
+    await page.getByRole('button', { name: 'Refresh' }).click();
+    await page.locator('mat-progress-bar').waitFor({ state: 'detached' });
+  }
+  throw new Error(`No mail "${subject}" to ${to} reached the development mail page`);
+}
+
+describe('account links in mail', () => {
+  let app: App;
+  let browser: Browser;
+
+  beforeAll(async () => {
+    app = await startE2eApp();
+    browser = await openBrowser();
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+    await app?.stop();
+  });
+
+  it('resets a password through the mailed link, found on the development mail page', async () => {
+    // The demo designer forgot the password: the sign-in page leads to the request.
+    const user = await browser.newPage();
+    await user.goto(`${app.baseUrl}/sign-in`);
+    await user.getByLabel('E-mail').fill(DESIGNER);
+    await user.getByRole('link', { name: 'Forgot your password?' }).click();
+    await user.waitForURL((url) => url.pathname === '/forgot-password');
+    expect(await user.getByLabel('E-mail').inputValue()).toBe(DESIGNER);
+    await user.getByRole('button', { name: 'Send reset link' }).click();
+    const answer = user.getByRole('status');
+    await answer.waitFor();
+    const known = (await answer.innerText()).trim();
+    expect(known).toMatch(SAME_ANSWER);
+
+    // An address without an account gets the same answer (nothing is disclosed).
+    await user.getByRole('button', { name: 'Ask again' }).click();
+    await user.getByLabel('E-mail').fill('nobody@tallowmere.example');
+    await user.getByRole('button', { name: 'Send reset link' }).click();
+    await user.getByRole('status').waitFor();
+    const unknown = (await user.getByRole('status').innerText()).trim();
+    expect(unknown).toBe(known.replace(DESIGNER, 'nobody@tallowmere.example'));
+
+    // The team owner, in another context, reads the captured mail.
+    const owner = await browser.newPage();
+    await signIn(owner, app.baseUrl, OWNER);
+    await owner.getByRole('navigation', { name: 'Team sections' }).getByRole('link', { name: 'Dev mail' }).click();
+    await owner.waitForURL((url) => url.pathname.endsWith('/dev-mail'));
+    await owner.getByRole('heading', { name: /^Development mail/ }).waitFor();
+    const mail = await waitForMail(owner, 'Reset your Rollwise password', DESIGNER);
+    const link = mail.locator('pre a');
+    expect(await link.count()).toBe(1);
+    const href = new URL((await link.getAttribute('href'))!);
+    expect(href.pathname).toMatch(/^\/reset-password\/[A-Za-z0-9_-]{20,}$/);
+    expect(await link.innerText()).toBe(href.href);
+    await saveScreenshot(owner, 'account-links-dev-mail');
+
+    // The link is built from the server's PUBLIC_URL, which the harness leaves at
+    // its default port while the test server listens on another: open the same
+    // path on the test server.
+    await owner.goto(new URL(href.pathname, app.baseUrl).href);
+    await owner.getByRole('heading', { name: 'Choose a new password' }).waitFor();
+    await owner.getByLabel('New password', { exact: true }).fill(NEW_PASSWORD);
+    await owner.getByLabel('Repeat new password').fill(NEW_PASSWORD);
+    await owner.getByRole('button', { name: 'Set new password' }).click();
+    await owner.getByRole('status').filter({ hasText: 'Your password is changed' }).waitFor();
+    await saveScreenshot(owner, 'account-links-password-reset');
+
+    // The designer signs in with the new password and reaches the team.
+    await signIn(user, app.baseUrl, DESIGNER, NEW_PASSWORD);
+    await user.getByRole('heading', { name: 'Vehicles · Tallowmere University Racing' }).waitFor();
+
+    for (const page of [user, owner]) {
+      expect(consoleErrors(page)).toEqual([]);
+      expect(offsiteRequests(page)).toEqual([]);
+    }
+  });
+});
