@@ -72,6 +72,9 @@ export const intentOptionsSchema = z.strictObject({
   referenceRollDeg: finite('referenceRollDeg').positive().max(15).optional(),
 });
 
+/** Smallest travel range a solve fits toe over (mm); below it the fit's curvature is numerical noise. */
+export const MIN_TRAVEL_SPAN_MM = 2;
+
 export const intentSchema = z
   .strictObject({
     formatVersion: z.literal(INTENT_FORMAT_VERSION).optional(),
@@ -110,6 +113,9 @@ export const intentSchema = z
     const tp = intent.trackProfile;
     if (typeof tp === 'object' && tp.travelMm && !(tp.travelMm[0] < 0 && tp.travelMm[1] > 0)) {
       issue(['trackProfile', 'travelMm'], `trackProfile.travelMm [${tp.travelMm[0]}, ${tp.travelMm[1]}] must run from droop (< 0) to bump (> 0)`);
+    } else if (typeof tp === 'object' && tp.travelMm && tp.travelMm[1] - tp.travelMm[0] < MIN_TRAVEL_SPAN_MM) {
+      // A span of micrometres makes the toe fit's curvature a ratio of rounding errors (NaN or 1e47 deg/m²).
+      issue(['trackProfile', 'travelMm'], `trackProfile.travelMm [${tp.travelMm[0]}, ${tp.travelMm[1]}] spans less than ${MIN_TRAVEL_SPAN_MM} mm of travel`);
     }
     const travel = typeof tp === 'object' && tp.travelMm ? tp.travelMm : trackProfiles[typeof tp === 'object' ? tp.id : tp].travelMm;
     const stepMm = intent.options.travelStepMm;

@@ -264,8 +264,8 @@ function applyMutation(body: Json, m: Mutation): Json {
       ];
       const range = ranges[m.variant % ranges.length];
       if (key) b[key] = range;
-      // KNOWN BUG (reported, intent engine): trackProfile.travelMm of ±1e-80 mm solves with curvatureDegPerM2 NaN (null in JSON); kept ≥ ±0.5 mm here.
-      else if ('trackProfile' in b) b['trackProfile'] = { id: 'smooth-circuit', travelMm: [-Math.max(0.5, Math.abs(m.a)), Math.max(0.5, Math.abs(m.a))] };
+      // Spans of micrometres (once a NaN curvature in a 200) are refused by the intent schema now.
+      else if ('trackProfile' in b) b['trackProfile'] = { id: 'smooth-circuit', travelMm: [-Math.abs(m.a), Math.abs(m.a)] };
       else if ('speedKph' in b || 'vehicle' in b) b['speedKph'] = m.a;
       if ('rackMm' in b || m.variant % 3 === 0) {
         const racks = [[m.a], [1e6], Array.from({ length: 30 }, (_, i) => i), [], [m.b, -m.b]];

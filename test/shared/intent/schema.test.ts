@@ -53,6 +53,8 @@ describe('intent validation names the field', () => {
     ['an understeer target without a vehicle', (i) => (i['target'] = { understeerChangeDegPerG: 0.1 }), 'vehicle'],
     ['a target of two kinds', (i) => (i['target'] = { rollSteerCoefficient: 0.1, zeroBumpSteer: true }), 'target'],
     ['a travel range without droop', (i) => (i['trackProfile'] = { id: 'bumpy-circuit', travelMm: [0, 30] }), 'trackProfile.travelMm'],
+    // Found by the compute fuzz (issue 8): ±1e-80 mm solved with a NaN curvature (null in JSON).
+    ['a travel range of micrometres', (i) => (i['trackProfile'] = { id: 'smooth-circuit', travelMm: [-1e-80, 1e-80] }), 'trackProfile.travelMm'],
     ['a rack position outside the stroke', (i) => (i['options'] = { rackPositionsMm: [45] }), 'options.rackPositionsMm[0]'],
     ['a bad corner point', (i) => (i['corner'] = { ...exampleCorners.fsFrontWishbone, points: { ...exampleCorners.fsFrontWishbone.points, tieRodOuter: [-55, 210, 141.5] } }), /corner\.points\.tieRodOuter/],
     ['a travel step too coarse for a fit', (i) => (i['options'] = { travelStepMm: 20 }), 'options.travelStepMm'],
