@@ -1,4 +1,5 @@
 import { Routes } from '@angular/router';
+import { sessionKnownGuard } from './auth/session-known-guard';
 import { homeRedirectGuard, signedInGuard, signedOutGuard } from './core/auth/auth-guards';
 import { NotFoundPage } from './core/layout/not-found-page';
 import { permissionGuard, teamMemberGuard } from './core/teams/team-guards';
@@ -31,19 +32,23 @@ export const routes: Routes = [
   },
   // The links Rollwise mails (server/services: PUBLIC_URL/reset-password/<token>,
   // /verify-email/<token>, /invitations/<token>). Open to everyone: the token
-  // is the credential, and each page adapts to whoever is signed in.
+  // is the credential, and each page adapts to whoever is signed in (so the
+  // guard first learns whether this browser holds a session).
   {
     path: 'reset-password/:token',
+    canActivate: [sessionKnownGuard],
     title: 'Choose a new password · Rollwise',
     loadComponent: () => import('./auth/reset-password-page').then((m) => m.ResetPasswordPage),
   },
   {
     path: 'verify-email/:token',
+    canActivate: [sessionKnownGuard],
     title: 'Confirm your e-mail address · Rollwise',
     loadComponent: () => import('./auth/verify-email-page').then((m) => m.VerifyEmailPage),
   },
   {
     path: 'invitations/:token',
+    canActivate: [sessionKnownGuard],
     title: 'Team invitation · Rollwise',
     loadComponent: () => import('./invitations/invitation-page').then((m) => m.InvitationPage),
   },

@@ -96,6 +96,8 @@ describe('account links in mail', () => {
     // path on the test server.
     await owner.goto(new URL(href.pathname, app.baseUrl).href);
     await owner.getByRole('heading', { name: 'Choose a new password' }).waitFor();
+    // The page is open to everyone but still knows who is signed in here.
+    await owner.getByRole('button', { name: /^Signed in as Ana Ferreira/ }).waitFor();
     await owner.getByLabel('New password', { exact: true }).fill(NEW_PASSWORD);
     await owner.getByLabel('Repeat new password').fill(NEW_PASSWORD);
     await owner.getByRole('button', { name: 'Set new password' }).click();
