@@ -10,6 +10,7 @@ import { join, resolve } from 'node:path';
 import { tmpdir } from 'node:os';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { freshDatabaseUrl } from './db.js';
+import { freePort } from '../../server/tools/pg.js';
 
 const root = resolve(import.meta.dirname, '..', '..');
 export const DEMO_PASSWORD = 'demo-pass-2026';
@@ -27,10 +28,13 @@ export async function startE2eApp(): Promise<E2eApp> {
   }
   const databaseUrl = freshDatabaseUrl('e2e');
   const { startServer } = await import('../../server/main.js');
+  // A known port up front, so links in mail (built from publicUrl) point at this server.
+  const port = await freePort();
   const server = await startServer({
     databaseUrl,
     host: '127.0.0.1',
-    port: 0,
+    port,
+    publicUrl: `http://127.0.0.1:${port}`,
     seedDemo: true,
     staticDir,
     logLevel: 'silent',
