@@ -4,6 +4,7 @@
  * engine calls go to the worker pool; every error reaches one handler.
  */
 import { limitJsonDepth } from './http/json-depth.js';
+import { isUploadRequest } from './http/upload.js';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import express, { type Express, type RequestHandler } from 'express';
@@ -55,7 +56,8 @@ const BODY_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 /** Bodies must be JSON; anything else would silently arrive empty. */
 const requireJsonBody: RequestHandler = (req, _res, next) => {
   const hasBody = Number(req.get('content-length') ?? 0) > 0 || req.get('transfer-encoding') !== undefined;
-  if (BODY_METHODS.has(req.method) && hasBody && !req.is('application/json')) {
+  // The hardpoint import takes a multipart file upload (server/http/upload.ts checks it).
+  if (BODY_METHODS.has(req.method) && hasBody && !req.is('application/json') && !isUploadRequest(req)) {
     return next(new HttpError(415, 'unsupported_media_type', 'Send the request body as application/json'));
   }
   next();

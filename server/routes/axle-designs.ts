@@ -5,7 +5,9 @@
  */
 import { Router } from 'express';
 import { z } from 'zod';
-import { validate } from '../http/errors.js';
+import { HttpError, validate } from '../http/errors.js';
+import { singleTextUpload, uploadedText } from '../http/upload.js';
+import { cadFrameSchema } from '../../shared/io/cad-frame.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
 import { AXLES } from '../db/schema.js';
 import { parseCorner, type AxleDesigns } from '../services/axle-designs.js';
@@ -25,6 +27,20 @@ const proposalSchema = z.strictObject({
   origin: z.record(z.string(), z.unknown()).optional(),
 });
 const decisionSchema = z.strictObject({ message: revisionMessage });
+/** Text fields beside the uploaded file: the CAD frame the file's points are in, as JSON. */
+const importFieldsSchema = z.strictObject({ frame: z.string().max(2000).optional() });
+
+function importFrame(body: unknown) {
+  const { frame } = validate(importFieldsSchema, body ?? {}, 'upload fields');
+  if (frame === undefined) return undefined;
+  let parsed: unknown;
+  try {
+    parsed = JSON.parse(frame);
+  } catch {
+    throw new HttpError(400, 'invalid_input', 'Invalid upload fields: frame: not valid JSON', { fields: [{ path: 'frame', message: 'not valid JSON' }] });
+  }
+  return validate(cadFrameSchema, parsed, 'frame');
+}
 
 /** Mounted at /api/teams/:teamId/vehicles/:vehicleId/axle-designs. */
 export function vehicleAxleDesignsRouter(designs: AxleDesigns, auth: Authorizer): Router {
@@ -67,6 +83,13 @@ export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, au
         message: input.message,
       }),
     );
+  });
+
+  // Reads an uploaded CSV or JSON file against the current corner and answers the preview; saves nothing.
+  r.post('/:designId/import', requirePermission('design:edit'), singleTextUpload('file', ['csv', 'txt', 'tsv', 'json']), async (req, res) => {
+    const frame = importFrame(req.body);
+    const file = uploadedText(req);
+    res.json(await designs.previewImport(currentAccess(req).teamId, designId(req.params['designId']), file, frame));
   });
 
   r.get('/:designId/revisions', requirePermission('team:read'), async (req, res) => {

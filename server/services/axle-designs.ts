@@ -6,8 +6,19 @@
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import type { Executor, Orm } from '../db/client.js';
 import { axleDesignRevisions, axleDesigns, users, vehicles, type Axle, type DesignStatus } from '../db/schema.js';
-import { notFound } from '../http/errors.js';
+import { HttpError, notFound } from '../http/errors.js';
 import { cornerSchema, upgradeCornerDocument, type Corner } from '../../shared/schema/corner.js';
+import type { CadFrame } from '../../shared/io/cad-frame.js';
+import { prepareHardpointImport, type ChangedPoint } from '../../shared/io/hardpoints.js';
+
+/** `POST …/import`: what the file would make of the design's corner; nothing is stored. */
+export interface ImportPreview {
+  corner: Corner;
+  changedPoints: ChangedPoint[];
+  warnings: string[];
+  /** The design revision the preview was made on (save with it as baseRevision). */
+  baseRevision: number;
+}
 import { parseDocument, staleRevision, type RevisionRow } from './revisions.js';
 import { changeWords, recordActivity } from './activity.js';
 
@@ -136,6 +147,34 @@ export class AxleDesigns {
       });
       return this.get(teamId, designId, tx);
     });
+  }
+
+  /**
+   * Reads an uploaded hardpoint file against the design's current corner:
+   * every bad row named (400 `import_rows`), the merged corner checked by the
+   * corner schema (400 `import_geometry`), and nothing saved either way.
+   */
+  async previewImport(teamId: string, designId: string, file: { name: string; text: string }, frame?: CadFrame): Promise<ImportPreview> {
+    const design = await this.get(teamId, designId);
+    const current = parseCorner(design.corner);
+    const prepared = prepareHardpointImport(current, file.name, file.text, frame);
+    if (!prepared.ok) {
+      const n = prepared.errors.length;
+      throw new HttpError(400, 'import_rows', `${file.name} cannot be imported: ${prepared.errors[0]}${n > 1 ? ` (and ${n - 1} more)` : ''}`, {
+        errors: prepared.errors,
+      });
+    }
+    try {
+      const corner = parseCorner(prepared.corner);
+      return { corner, changedPoints: prepared.changedPoints, warnings: prepared.warnings, baseRevision: design.revision };
+    } catch (e) {
+      if (!(e instanceof HttpError) || e.code !== 'invalid_input') throw e;
+      const fields = (e.details as { fields: { path: string; message: string }[] }).fields;
+      throw new HttpError(400, 'import_geometry', `The imported points break the corner: ${fields[0] ? `${fields[0].path}: ${fields[0].message}` : e.message}`, {
+        fields,
+        changedPoints: prepared.changedPoints,
+      });
+    }
   }
 
   async revisions(teamId: string, designId: string): Promise<(RevisionRow & { status: DesignStatus })[]> {

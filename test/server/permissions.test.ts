@@ -58,6 +58,8 @@ interface Row {
   method: 'get' | 'post' | 'patch' | 'put' | 'delete';
   path: () => string;
   body?: () => Promise<unknown> | unknown;
+  /** A file sent as multipart/form-data in field `file` (instead of a JSON body). */
+  upload?: () => { name: string; text: string };
   /** Runs once before the row (e.g. creates the proposal it acts on). */
   before?: () => Promise<void>;
   /** Runs before each caller's request (e.g. a fresh configuration in the state the transition starts from). */
@@ -155,6 +157,13 @@ const ROWS: Row[] = [
     method: 'put',
     path: () => `${design()}/corner`,
     body: async () => ({ corner: exampleCorners.fsFrontWishbone, baseRevision: await currentRevision(design()) }),
+    expect: { owner: 403, engineer: 403, designer: 200, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  {
+    name: 'import hardpoints (preview, nothing saved)',
+    method: 'post',
+    path: () => `${design()}/import`,
+    upload: () => ({ name: 'points.csv', text: `point,x,y,z\ntieRodInner,${exampleCorners.fsFrontWishbone.points.tieRodInner.join(',')}\n` }),
     expect: { owner: 403, engineer: 403, designer: 200, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
   },
   { name: 'axle design revisions', method: 'get', path: () => `${design()}/revisions`, expect: READ },
@@ -353,6 +362,10 @@ describe('role × route matrix (Tallowmere; non-member is a Brackenfield reviewe
         await row.beforeEach?.();
         let req = agents[w][row.method](row.path());
         if (row.body) req = req.send((await row.body()) as object);
+        if (row.upload) {
+          const file = row.upload();
+          req = req.attach('file', Buffer.from(file.text, 'utf8'), { filename: file.name, contentType: 'text/csv' });
+        }
         const r = await req;
         got[w] = r.status;
         if (r.status >= 400) expect(r.body.error.code, `${w}: ${JSON.stringify(r.body)}`).toBe({ 401: 'unauthenticated', 403: 'forbidden', 404: 'not_found' }[r.status]);

@@ -1,4 +1,5 @@
-import { frameProblems, IDENTITY_FRAME, isRightHanded, mapCadPoint } from './cad-frame';
+import { describe, expect, it } from 'vitest';
+import { frameProblems, IDENTITY_FRAME, isRightHanded, mapCadPoint } from '../../../shared/io/cad-frame.js';
 
 describe('CAD frame mapping', () => {
   it('leaves Rollwise points unchanged with the identity frame', () => {
