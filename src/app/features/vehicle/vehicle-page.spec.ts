@@ -70,7 +70,8 @@ describe('VehiclePage', () => {
     await vi.waitFor(() => {
       harness.detectChanges();
       if (unitOf(root, 'Wheelbase') !== 'in') throw new Error('not converted yet');
-    });
+      // The unit converter (mathjs) loads lazily; on a busy 2-core machine that takes over a second.
+    }, { timeout: 10_000, interval: 50 });
     // 1 in = 25.4 mm exactly.
     expect(Number(field(root, 'Wheelbase').value)).toBeCloseTo(exampleVehicles.tur26Ember.wheelbaseMm / 25.4, 3);
     const wheelbase = field(root, 'Wheelbase');
