@@ -27,7 +27,7 @@ export interface UploadedText {
 export function singleTextUpload(fieldName: string, extensions: readonly string[]): RequestHandler {
   const m = multer({
     storage: multer.memoryStorage(),
-    limits: { fileSize: UPLOAD_LIMIT_BYTES, files: 1, fields: 4, fieldSize: 4096, parts: 6 },
+    limits: { fileSize: UPLOAD_LIMIT_BYTES, files: 1, fields: 4, fieldSize: 64 * 1024, parts: 6 },
   }).single(fieldName);
   const extension = new RegExp(`\\.(${extensions.join('|')})$`, 'i');
   return (req, res, next) => {

@@ -27,19 +27,27 @@ const proposalSchema = z.strictObject({
   origin: z.record(z.string(), z.unknown()).optional(),
 });
 const decisionSchema = z.strictObject({ message: revisionMessage });
-/** Text fields beside the uploaded file: the CAD frame the file's points are in, as JSON. */
-const importFieldsSchema = z.strictObject({ frame: z.string().max(2000).optional() });
+/**
+ * Text fields beside the uploaded file, each JSON: `frame`, the CAD frame the
+ * file's points are in; `corner`, the editor's working corner (unsaved edits
+ * included) to merge into instead of the stored one.
+ */
+const importFieldsSchema = z.strictObject({ frame: z.string().max(2000).optional(), corner: z.string().max(60_000).optional() });
 
-function importFrame(body: unknown) {
-  const { frame } = validate(importFieldsSchema, body ?? {}, 'upload fields');
-  if (frame === undefined) return undefined;
-  let parsed: unknown;
+function jsonField(field: string, text: string): unknown {
   try {
-    parsed = JSON.parse(frame);
+    return JSON.parse(text);
   } catch {
-    throw new HttpError(400, 'invalid_input', 'Invalid upload fields: frame: not valid JSON', { fields: [{ path: 'frame', message: 'not valid JSON' }] });
+    throw new HttpError(400, 'invalid_input', `Invalid upload fields: ${field}: not valid JSON`, { fields: [{ path: field, message: 'not valid JSON' }] });
   }
-  return validate(cadFrameSchema, parsed, 'frame');
+}
+
+function importFields(body: unknown) {
+  const fields = validate(importFieldsSchema, body ?? {}, 'upload fields');
+  return {
+    frame: fields.frame === undefined ? undefined : validate(cadFrameSchema, jsonField('frame', fields.frame), 'frame'),
+    corner: fields.corner === undefined ? undefined : parseCorner(jsonField('corner', fields.corner)),
+  };
 }
 
 /** Mounted at /api/teams/:teamId/vehicles/:vehicleId/axle-designs. */
@@ -87,9 +95,9 @@ export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, au
 
   // Reads an uploaded CSV or JSON file against the current corner and answers the preview; saves nothing.
   r.post('/:designId/import', requirePermission('design:edit'), singleTextUpload('file', ['csv', 'txt', 'tsv', 'json']), async (req, res) => {
-    const frame = importFrame(req.body);
+    const fields = importFields(req.body);
     const file = uploadedText(req);
-    res.json(await designs.previewImport(currentAccess(req).teamId, designId(req.params['designId']), file, frame));
+    res.json(await designs.previewImport(currentAccess(req).teamId, designId(req.params['designId']), file, fields));
   });
 
   r.get('/:designId/revisions', requirePermission('team:read'), async (req, res) => {

@@ -153,11 +153,23 @@ export class AxleDesigns {
    * Reads an uploaded hardpoint file against the design's current corner:
    * every bad row named (400 `import_rows`), the merged corner checked by the
    * corner schema (400 `import_geometry`), and nothing saved either way.
+   * `options.corner` is the editor's working corner (unsaved edits), merged
+   * into instead of the stored one so the preview shows what the user has.
    */
-  async previewImport(teamId: string, designId: string, file: { name: string; text: string }, frame?: CadFrame): Promise<ImportPreview> {
+  async previewImport(
+    teamId: string,
+    designId: string,
+    file: { name: string; text: string },
+    options: { frame?: CadFrame | undefined; corner?: Corner | undefined } = {},
+  ): Promise<ImportPreview> {
     const design = await this.get(teamId, designId);
-    const current = parseCorner(design.corner);
-    const prepared = prepareHardpointImport(current, file.name, file.text, frame);
+    const stored = parseCorner(design.corner);
+    if (options.corner && options.corner.type !== stored.type) {
+      throw new HttpError(400, 'invalid_input', `Invalid upload fields: corner: this design is a ${stored.type}, not a ${options.corner.type}`, {
+        fields: [{ path: 'corner.type', message: `must be ${stored.type}` }],
+      });
+    }
+    const prepared = prepareHardpointImport(options.corner ?? stored, file.name, file.text, options.frame);
     if (!prepared.ok) {
       const n = prepared.errors.length;
       throw new HttpError(400, 'import_rows', `${file.name} cannot be imported: ${prepared.errors[0]}${n > 1 ? ` (and ${n - 1} more)` : ''}`, {

@@ -89,6 +89,23 @@ describe('POST …/axle-designs/:designId/import', () => {
     expect(bad.body.error.message).toContain('different Rollwise axis');
   });
 
+  it('merges into the editor\'s working corner when it is sent (unsaved edits included)', async () => {
+    const working = structuredClone(stored.corner);
+    const [x, y, z] = working.points.tieRodInner;
+    working.points.tieRodInner = [x, y, z + 10];
+    const r = await designer
+      .post(path())
+      .field('corner', JSON.stringify(working))
+      .attach('file', Buffer.from(`point,x,y,z\ntieRodInner,${x},${y},${z + 11}\n`), { filename: 'w.csv', contentType: 'text/csv' });
+    expect(r.status, JSON.stringify(r.body)).toBe(200);
+    expect(r.body.changedPoints[0]).toMatchObject({ current: [x, y, z + 10], imported: [x, y, z + 11], movedMm: 1 });
+    const strut = await designer.post(path()).field('corner', JSON.stringify(exampleCorners.roadFrontStrut)).attach('file', Buffer.from('point,x,y,z\n'), 'w.csv');
+    expectError(strut, 400, 'invalid_input');
+    const broken = await designer.post(path()).field('corner', '{"type":').attach('file', Buffer.from('point,x,y,z\n'), 'w.csv');
+    expectError(broken, 400, 'invalid_input');
+    await expectUnchanged();
+  });
+
   it('reads a JSON export', async () => {
     const corner = structuredClone(stored.corner);
     corner.points.upperOuter = [corner.points.upperOuter[0], corner.points.upperOuter[1], corner.points.upperOuter[2] + 3];

@@ -1,6 +1,8 @@
-import { ChangeDetectionStrategy, Component, computed, input, output, signal } from '@angular/core';
-import { cornerSchema, type Corner, type Vec3 } from '../../../../shared/schema/corner';
+import { ChangeDetectionStrategy, Component, computed, DestroyRef, inject, input, output, signal } from '@angular/core';
+import { Subscription } from 'rxjs';
+import type { Corner, Vec3 } from '../../../../shared/schema/corner';
 import { formatNumber } from '../../charts/chart-types';
+import { apiProblem } from '../../core/http/api-error';
 import {
   AXIS_DIRECTIONS,
   AxisDirection,
@@ -8,21 +10,32 @@ import {
   FRAME_PRESETS,
   frameProblems,
   IDENTITY_FRAME,
-  isRightHanded,
   LENGTH_UNITS,
   LengthUnit,
-  mapCadPoints,
 } from './cad-frame';
-import { readHardpointCsv, readHardpointJson, parseDecimal, HardpointImport as ImportResult } from './hardpoint-io';
-import { getPoint, pointName, withPoints } from './hardpoint-model';
+import { parseDecimal } from './hardpoint-io';
+import { HardpointImportApi, ImportPreview } from './hardpoint-import-api';
 import { LinkageViews } from './linkage-views';
 import { MatButton } from '@angular/material/button';
 
+/** Where the server's reading of the chosen file stands. */
+type ImportState =
+  | { readonly kind: 'reading' }
+  | { readonly kind: 'ready'; readonly preview: ImportPreview }
+  /** Some rows are bad (each named by its line): nothing of the file can be used. */
+  | { readonly kind: 'rows'; readonly errors: readonly string[] }
+  /** The file was read, but the points it gives break the corner's rules. */
+  | { readonly kind: 'geometry'; readonly problems: readonly string[] }
+  /** The upload itself was refused (binary, too large, network…). */
+  | { readonly kind: 'refused'; readonly message: string };
+
 /**
  * Import of hardpoints from a CSV or JSON file, optionally from another CAD
- * frame (origin offset, axis directions, units, side). Shows every problem
- * by row, previews the mapped points over the current ones, and applies
- * nothing until the whole import is valid and the user accepts it.
+ * frame (origin offset, axis directions, units, side). The file is uploaded
+ * with the frame and the working corner; the server reads, maps and checks
+ * it (shared/io) and answers the preview. Every bad row is shown by line,
+ * the moved points are drawn over the current ones, and nothing is applied
+ * until the whole import is valid and the user accepts it.
  */
 @Component({
   selector: 'rw-hardpoint-import',
@@ -32,7 +45,11 @@ import { MatButton } from '@angular/material/button';
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class HardpointImport {
+  private readonly api = inject(HardpointImportApi);
+
   readonly corner = input.required<Corner>();
+  readonly teamId = input.required<string>();
+  readonly designId = input.required<string>();
   readonly applied = output<ReadonlyMap<string, Vec3>>();
   readonly cancelled = output<void>();
 
@@ -41,9 +58,15 @@ export class HardpointImport {
   protected readonly units = Object.entries(LENGTH_UNITS).map(([id, u]) => ({ id: id as LengthUnit, label: u.label }));
 
   protected readonly fileName = signal<string | null>(null);
-  protected readonly parsed = signal<ImportResult | null>(null);
+  private file: Blob | null = null;
+  private request: Subscription | null = null;
+  protected readonly state = signal<ImportState | null>(null);
   protected readonly frame = signal<CadFrame>(IDENTITY_FRAME);
   protected readonly originText = signal<[string, string, string]>(['0', '0', '0']);
+
+  constructor() {
+    inject(DestroyRef).onDestroy(() => this.request?.unsubscribe());
+  }
 
   protected readonly originProblems = computed(() =>
     this.originText()
@@ -52,55 +75,72 @@ export class HardpointImport {
   );
 
   protected readonly problems = computed(() => [...frameProblems(this.frame()), ...this.originProblems()]);
-  protected readonly leftHanded = computed(() => frameProblems(this.frame()).length === 0 && !isRightHanded(this.frame()));
 
-  /** Points after the frame mapping, or null while there is nothing valid to map. */
+  /** The file was read (well or with geometry problems): the frame can be chosen and the file read again. */
+  protected readonly readable = computed(() => {
+    const k = this.state()?.kind;
+    return k === 'reading' || k === 'ready' || k === 'geometry';
+  });
+
+  protected readonly preview = computed(() => {
+    const s = this.state();
+    return s?.kind === 'ready' && this.problems().length === 0 ? s.preview : null;
+  });
+
+  /** The moved points in Rollwise's frame, drawn over the current ones. */
   protected readonly mapped = computed<Map<string, Vec3> | null>(() => {
-    const p = this.parsed();
-    if (!p?.ok || this.problems().length > 0) return null;
-    return mapCadPoints(p.points, this.frame());
+    const p = this.preview();
+    return p ? new Map(p.changedPoints.map((c) => [c.key, c.imported])) : null;
   });
 
-  /** Geometry rules of the corner checked on the imported result (each names its point). */
-  protected readonly geometryProblems = computed(() => {
-    const m = this.mapped();
-    if (!m) return [];
-    const r = cornerSchema.safeParse(withPoints(this.corner(), m));
-    return r.success ? [] : r.error.issues.map((i) => i.message);
-  });
-
-  protected readonly previewRows = computed(() => {
-    const m = this.mapped();
-    if (!m) return [];
-    return [...m].map(([key, p]) => {
-      const current = getPoint(this.corner(), key)!;
-      const moved = Math.hypot(p[0] - current[0], p[1] - current[1], p[2] - current[2]);
-      return { key, name: pointName(key, this.corner()), current, mapped: p, movedMm: moved };
-    });
-  });
-
-  protected readonly canApply = computed(() => this.mapped() !== null && this.geometryProblems().length === 0);
+  protected readonly canApply = computed(() => (this.mapped()?.size ?? 0) > 0);
 
   protected fmt(v: number): string {
     return formatNumber(v, 7);
   }
 
-  protected async chooseFile(event: Event): Promise<void> {
+  protected chooseFile(event: Event): void {
     const file = (event.target as HTMLInputElement).files?.[0];
-    if (!file) return;
-    this.readText(file.name, await file.text());
+    if (file) this.read(file.name, file);
   }
 
-  /** Parses file text (JSON by extension or a leading brace, CSV otherwise). */
-  readText(name: string, text: string): void {
+  /** Sends the file to the server with the frame and the working corner; the answer replaces any earlier one. */
+  read(name: string, file: Blob): void {
     this.fileName.set(name);
-    const isJson = /\.json$/i.test(name) || /^\uFEFF?\s*\{/.test(text);
-    this.parsed.set(isJson ? readHardpointJson(text, this.corner()) : readHardpointCsv(text, this.corner()));
+    this.file = file;
+    this.upload();
+  }
+
+  /** The same as choosing a file holding `text` (for pasted text and tests). */
+  readText(name: string, text: string): void {
+    this.read(name, new Blob([text], { type: /\.json$/i.test(name) ? 'application/json' : 'text/csv' }));
+  }
+
+  private upload(): void {
+    this.request?.unsubscribe();
+    const name = this.fileName();
+    if (!this.file || !name || this.problems().length > 0) return;
+    this.state.set({ kind: 'reading' });
+    this.request = this.api.preview(this.teamId(), this.designId(), this.file, name, this.frame(), this.corner()).subscribe({
+      next: (preview) => this.state.set({ kind: 'ready', preview }),
+      error: (err: unknown) => {
+        const p = apiProblem(err);
+        const details = (p.details ?? {}) as { errors?: string[]; fields?: { path: string; message: string }[] };
+        if (p.code === 'import_rows' && details.errors) this.state.set({ kind: 'rows', errors: details.errors });
+        else if (p.code === 'import_geometry' && details.fields) this.state.set({ kind: 'geometry', problems: details.fields.map((f) => f.message) });
+        else this.state.set({ kind: 'refused', message: p.message });
+      },
+    });
+  }
+
+  private changeFrame(change: (f: CadFrame) => CadFrame): void {
+    this.frame.update(change);
+    this.upload();
   }
 
   protected usePreset(index: string): void {
     const preset = FRAME_PRESETS[Number(index)];
-    if (preset) this.frame.update((f) => ({ ...f, axes: preset.axes }));
+    if (preset) this.changeFrame((f) => ({ ...f, axes: preset.axes }));
   }
 
   protected presetIndex(): number {
@@ -109,7 +149,7 @@ export class HardpointImport {
   }
 
   protected setAxis(i: number, value: string): void {
-    this.frame.update((f) => {
+    this.changeFrame((f) => {
       const axes = [...f.axes] as [AxisDirection, AxisDirection, AxisDirection];
       axes[i] = value as AxisDirection;
       return { ...f, axes };
@@ -117,11 +157,11 @@ export class HardpointImport {
   }
 
   protected setUnit(value: string): void {
-    this.frame.update((f) => ({ ...f, unit: value as LengthUnit }));
+    this.changeFrame((f) => ({ ...f, unit: value as LengthUnit }));
   }
 
   protected setSide(value: 'left' | 'right'): void {
-    this.frame.update((f) => ({ ...f, side: value }));
+    this.changeFrame((f) => ({ ...f, side: value }));
   }
 
   protected setOrigin(i: number, text: string): void {
@@ -129,7 +169,8 @@ export class HardpointImport {
     next[i] = text;
     this.originText.set(next);
     const values = next.map(parseDecimal);
-    if (values.every((v) => v !== null)) this.frame.update((f) => ({ ...f, originMm: values as Vec3 }));
+    if (values.every((v) => v !== null)) this.changeFrame((f) => ({ ...f, originMm: values as Vec3 }));
+    else this.request?.unsubscribe();
   }
 
   protected apply(): void {
