@@ -67,6 +67,7 @@ Demo sign-ins (password for all: demo-pass-2026):
   viewer@tallowmere.example       viewer    Tallowmere University Racing
   owner@brackenfield.example      owner, engineer, designer  Brackenfield Road Programme
   reviewer@brackenfield.example   reviewer  Brackenfield Road Programme
+  instructor@programme.example    instructor (programmes; no team role)
 
 Press Ctrl-C to stop (the data is kept for the next npm start).`);
 
