@@ -6,22 +6,14 @@
  * the demo viewer see the same design with no edit controls. Real server,
  * fresh seeded database, Debian's Chromium. Needs `npx ng build` first.
  */
-import { AxeBuilder } from '@axe-core/playwright';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, signIn, startE2eApp } from '../support/e2e.js';
+import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, signIn, startE2eApp, seriousA11yViolations } from '../support/e2e.js';
 
 type App = Awaited<ReturnType<typeof startE2eApp>>;
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
 const TIE_ROD_INNER_Z = 'Tie rod, inner end (rack), z in mm';
-
-async function seriousA11yViolations(page: Page): Promise<string[]> {
-  const result = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']).analyze();
-  return result.violations
-    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
-}
 
 /** From the team dashboard to the front baseline design of TUR-26 Ember, through the vehicle page. */
 async function openFrontBaseline(page: Page): Promise<string> {

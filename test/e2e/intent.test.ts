@@ -7,10 +7,9 @@
  * revision with the proposed ε. Sign convention of shared/docs/domain.md:
  * "rear roll understeer of 0.06" means ε_r = −0.06.
  */
-import { AxeBuilder } from '@axe-core/playwright';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, signIn, startE2eApp } from '../support/e2e.js';
+import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, signIn, startE2eApp, seriousA11yViolations } from '../support/e2e.js';
 
 type App = Awaited<ReturnType<typeof startE2eApp>>;
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
@@ -18,13 +17,6 @@ type Browser = Awaited<ReturnType<typeof openBrowser>>;
 const TARGET_EPSILON = -0.06;
 /** Target tolerance of the back-solver (issue 5: within 0.002 deg/deg); the screen prints 4 decimals. */
 const TARGET_TOL = 0.002;
-
-async function seriousA11yViolations(page: Page): Promise<string[]> {
-  const result = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']).analyze();
-  return result.violations
-    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
-}
 
 async function openRearBaseline(page: Page): Promise<void> {
   await page.getByRole('link', { name: 'TUR-26 Ember' }).click();

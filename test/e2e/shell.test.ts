@@ -5,7 +5,6 @@
  * blocks and records any request leaving 127.0.0.1 and every console error;
  * each page here must end with none of either. Needs `npx ng build` first.
  */
-import { AxeBuilder } from '@axe-core/playwright';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {
@@ -15,6 +14,7 @@ import {
   saveScreenshot,
   signIn,
   startE2eApp,
+  seriousA11yViolations,
 } from '../support/e2e.js';
 
 type App = Awaited<ReturnType<typeof startE2eApp>>;
@@ -22,18 +22,6 @@ type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
 const TALLOWMERE = 'Tallowmere University Racing';
 const BRACKENFIELD = 'Brackenfield Road Programme';
-
-/** WCAG 2.2 AA rules; serious and critical findings fail (issue 6 quality bar). */
-async function seriousA11yViolations(page: Page): Promise<string[]> {
-  // Judge the settled page: nothing loading, no element half-way through a fade.
-  await page.locator('mat-progress-bar').waitFor({ state: 'detached' });
-  const result = await new AxeBuilder({ page })
-    .withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'])
-    .analyze();
-  return result.violations
-    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
-}
 
 /** A guarded page with animations off (Material honours reduced motion), so checks see settled states. */
 async function newSettledPage(browser: Browser): Promise<Page> {

@@ -9,6 +9,7 @@ import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { tmpdir } from 'node:os';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { AxeBuilder } from '@axe-core/playwright';
 import { freshDatabaseUrl } from './db.js';
 import { freePort } from '../../server/tools/pg.js';
 
@@ -120,4 +121,16 @@ export async function signIn(page: Page, baseUrl: string, email: string, passwor
   await page.getByLabel('Password', { exact: false }).first().fill(password);
   await page.getByRole('button', { name: /sign in/i }).click();
   await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'), { timeout: 15_000 });
+}
+
+/**
+ * Serious and critical accessibility findings on the page under WCAG 2.2 AA
+ * rules (issue 6 quality bar), judged on the settled page: no indeterminate (loading) progress bar left.
+ */
+export async function seriousA11yViolations(page: Page): Promise<string[]> {
+  await page.locator('mat-progress-bar[mode="indeterminate"]').waitFor({ state: 'detached' });
+  const result = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']).analyze();
+  return result.violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
 }
