@@ -17,7 +17,8 @@ import fc from 'fast-check';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import { exampleVehicles } from '../../shared/balance/examples.js';
 
-const SEED = process.env['FUZZ_SEED'] ? Number(process.env['FUZZ_SEED']) : Date.now() % 2_147_483_647;
+// A fixed default keeps CI repeatable; FUZZ_SEED=<n> explores (or replays) other bodies.
+const SEED = process.env['FUZZ_SEED'] ? Number(process.env['FUZZ_SEED']) : 20_261_202;
 const ROOT = resolve('.');
 const CLI = join(ROOT, 'server', 'cli', 'rollwise.ts');
 const dir = mkdtempSync(join(tmpdir(), 'rollwise-cli-fuzz-'));

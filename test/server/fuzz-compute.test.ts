@@ -24,7 +24,8 @@ import { computeBalance } from '../../shared/balance/api.js';
 import { solveIntent } from '../../shared/intent/solve.js';
 import { startTestApp, type TestApp } from './helpers.js';
 
-const SEED = process.env['FUZZ_SEED'] ? Number(process.env['FUZZ_SEED']) : Date.now() % 2_147_483_647;
+// A fixed default keeps CI repeatable; FUZZ_SEED=<n> explores (or replays) other bodies.
+const SEED = process.env['FUZZ_SEED'] ? Number(process.env['FUZZ_SEED']) : 20_261_202;
 /** Bodies per endpoint; the suite total is asserted to be at least 10 000 below. */
 const RUNS = { 'corner-sweep': 3200, 'axle-roll': 2800, balance: 2800, solve: 1400 } as const;
 type Endpoint = keyof typeof RUNS;
@@ -460,7 +461,8 @@ function keepSolvesCheap(text: string): string {
     tally.solve.validSolves++;
     return text;
   }
-  return toJsonText({ ...(parsed as object), trackProfile: 'no-such-profile' });
+  // Native JSON.stringify: the parsed body may keep a deeply nested extra field (schemas strip unknown keys), too deep for toJsonText's recursion.
+  return JSON.stringify({ ...(parsed as object), trackProfile: 'no-such-profile' });
 }
 
 async function sendOne(endpoint: Endpoint, recipe: { base: number; mutations: Mutation[] }): Promise<void> {
