@@ -32,10 +32,16 @@ function trackScripts(context: BrowserContext): { bytes: () => Promise<number> }
   return {
     async bytes() {
       let total = 0;
+      const sizes: [string, number][] = [];
       for (const url of urls) {
         // The server gzips with compression's default level 6, as zlib does here.
         const body = new Uint8Array(await (await fetch(url)).arrayBuffer());
-        total += gzipSync(body).length;
+        const gz = gzipSync(body).length;
+        sizes.push([new URL(url).pathname, gz]);
+        total += gz;
+      }
+      if (process.env['UI_BENCH_VERBOSE']) {
+        for (const [path, gz] of sizes.sort((a, b) => b[1] - a[1])) console.log(`    ${(gz / 1024).toFixed(1).padStart(7)} kB  ${path}`);
       }
       return total;
     },
