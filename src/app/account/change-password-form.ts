@@ -15,18 +15,17 @@ import {
   MIN_PASSWORD_LENGTH,
 } from '../core/auth/password-rules';
 import { apiProblem } from '../core/http/api-error';
+import { NewPasswordFields } from '../core/forms/new-password-fields';
 
 /** Current password, new password twice; success ends the user's other sessions. */
 @Component({
   selector: 'app-change-password-form',
-  imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule],
+  imports: [NewPasswordFields, ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule],
   templateUrl: './change-password-form.html',
 })
 export class ChangePasswordForm {
   private readonly auth = inject(AuthService);
 
-  protected readonly minPasswordLength = MIN_PASSWORD_LENGTH;
-  protected readonly maxPasswordLength = MAX_PASSWORD_LENGTH;
   protected readonly form = inject(NonNullableFormBuilder).group(
     {
       currentPassword: ['', [Validators.required]],

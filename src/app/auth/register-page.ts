@@ -12,18 +12,17 @@ import {
   MIN_PASSWORD_LENGTH,
 } from '../core/auth/password-rules';
 import { apiProblem } from '../core/http/api-error';
+import { NewPasswordFields } from '../core/forms/new-password-fields';
 
 @Component({
   selector: 'app-register-page',
-  imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule, RouterLink],
+  imports: [NewPasswordFields, ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule, RouterLink],
   templateUrl: './register-page.html',
 })
 export class RegisterPage {
   private readonly auth = inject(AuthService);
   private readonly router = inject(Router);
 
-  protected readonly minPasswordLength = MIN_PASSWORD_LENGTH;
-  protected readonly maxPasswordLength = MAX_PASSWORD_LENGTH;
   protected readonly form = inject(NonNullableFormBuilder).group(
     {
       displayName: ['', [Validators.required, Validators.maxLength(100)]],

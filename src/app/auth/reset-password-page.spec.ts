@@ -28,7 +28,7 @@ describe('ResetPasswordPage', () => {
     const root = fixture.nativeElement as HTMLElement;
     const fill = async (values: Record<string, string>) => {
       for (const [name, value] of Object.entries(values)) {
-        const input = root.querySelector<HTMLInputElement>(`input[formcontrolname="${name}"]`)!;
+        const input = root.querySelector<HTMLInputElement>(`input[formcontrolname="${name}"], input[name="${name}"]`)!;
         input.value = value;
         input.dispatchEvent(new Event('input'));
         input.dispatchEvent(new Event('blur'));

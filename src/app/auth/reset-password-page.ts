@@ -11,6 +11,7 @@ import {
   MIN_PASSWORD_LENGTH,
 } from '../core/auth/password-rules';
 import { apiProblem } from '../core/http/api-error';
+import { NewPasswordFields } from '../core/forms/new-password-fields';
 import { AccountLinksApi } from './account-links-api';
 
 /**
@@ -20,7 +21,7 @@ import { AccountLinksApi } from './account-links-api';
  */
 @Component({
   selector: 'app-reset-password-page',
-  imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule, RouterLink],
+  imports: [NewPasswordFields, ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule, RouterLink],
   templateUrl: './reset-password-page.html',
 })
 export class ResetPasswordPage {
@@ -30,8 +31,6 @@ export class ResetPasswordPage {
   /** From the link (route parameter). */
   readonly token = input.required<string>();
 
-  protected readonly minPasswordLength = MIN_PASSWORD_LENGTH;
-  protected readonly maxPasswordLength = MAX_PASSWORD_LENGTH;
   protected readonly form = inject(NonNullableFormBuilder).group(
     {
       password: [

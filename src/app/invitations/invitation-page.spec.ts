@@ -64,7 +64,7 @@ describe('InvitationPage', () => {
     }
     const fill = async (values: Record<string, string>) => {
       for (const [name, value] of Object.entries(values)) {
-        const input = root.querySelector<HTMLInputElement>(`input[formcontrolname="${name}"]`)!;
+        const input = root.querySelector<HTMLInputElement>(`input[formcontrolname="${name}"], input[name="${name}"]`)!;
         input.value = value;
         input.dispatchEvent(new Event('input'));
         input.dispatchEvent(new Event('blur'));

@@ -14,6 +14,7 @@ import {
   MIN_PASSWORD_LENGTH,
 } from '../core/auth/password-rules';
 import { apiProblem } from '../core/http/api-error';
+import { NewPasswordFields } from '../core/forms/new-password-fields';
 import { Notifier } from '../core/layout/notifier';
 import { TeamAccess } from '../core/teams/team-access';
 import { InvitationInfo, InvitationsApi } from './invitations-api';
@@ -40,7 +41,7 @@ const LINK_TITLES: Readonly<Record<string, string>> = {
  */
 @Component({
   selector: 'app-invitation-page',
-  imports: [
+  imports: [NewPasswordFields, 
     DatePipe,
     ReactiveFormsModule,
     MatFormFieldModule,
@@ -62,8 +63,6 @@ export class InvitationPage {
   readonly token = input.required<string>();
 
   protected readonly roleDescriptions = ROLE_DESCRIPTIONS;
-  protected readonly minPasswordLength = MIN_PASSWORD_LENGTH;
-  protected readonly maxPasswordLength = MAX_PASSWORD_LENGTH;
   protected readonly loaded = signal<Loaded>({ status: 'loading' });
   protected readonly accepting = signal(false);
   protected readonly failure = signal<string | null>(null);
