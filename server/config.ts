@@ -3,6 +3,7 @@
  * defaults. Production refuses to start without a real session secret.
  * Every variable is documented in docs/operations.md.
  */
+import { availableParallelism } from 'node:os';
 import { resolve } from 'node:path';
 
 export type LogLevel = 'fatal' | 'error' | 'warn' | 'info' | 'debug' | 'trace' | 'silent';
@@ -130,7 +131,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     },
     bodyLimit: env['BODY_LIMIT'] || '1mb',
     dbConnectTimeoutMs: int(env, 'DB_CONNECT_TIMEOUT_MS', 3000, 100),
-    computeThreads: int(env, 'COMPUTE_THREADS', 2, 1),
+    // One core stays with the event loop so reads keep their latency while solves run.
+    computeThreads: int(env, 'COMPUTE_THREADS', Math.max(1, availableParallelism() - 1), 1),
     computeTimeLimitMs: int(env, 'COMPUTE_TIME_LIMIT_MS', 10_000, 50),
     computeWarmStart: !test,
     solveJobTimeLimitMs: int(env, 'SOLVE_JOB_TIME_LIMIT_MS', 120_000, 50),
