@@ -3,6 +3,8 @@
  * Cookie `rollwise.sid`: httpOnly, SameSite=Lax, Secure in production.
  * Idle timeout: rolling maxAge refreshed on every request. Absolute timeout:
  * the sign-in time is stored in the session and checked on every request.
+ * The stored expiry is refreshed at most once a minute per session (see
+ * throttleTouch), so the idle timeout holds to within that minute.
  */
 import type { RequestHandler, Request } from 'express';
 import session from 'express-session';
@@ -36,6 +38,7 @@ export function createSession(config: Config, pool: pg.Pool, onStoreError: (err:
     pruneSessionInterval: 15 * 60,
     errorLog: onStoreError,
   });
+  throttleTouch(store, Math.min(60_000, config.sessionIdleMs / 10));
   const middleware = session({
     name: SESSION_COOKIE,
     secret: config.sessionSecret,
@@ -88,4 +91,31 @@ export function destroySession(req: Request): Promise<void> {
 export async function endOtherSessions(pool: pg.Pool, userId: string, keepSid: string): Promise<number> {
   const r = await pool.query(`DELETE FROM "${SESSION_TABLE}" WHERE sess->>'userId' = $1 AND sid <> $2`, [userId, keepSid]);
   return r.rowCount ?? 0;
+}
+
+interface TouchingStore {
+  touch(sid: string, sess: session.SessionData, fn?: (err?: unknown) => void): void;
+}
+
+/**
+ * Rolling sessions touch the store on every request: one UPDATE of the same
+ * row per request, which a busy client (a script, a page firing parallel
+ * requests) turns into a queue on that row's lock. This lets one touch per
+ * session through every `intervalMs`; the cookie itself is still renewed on
+ * every response.
+ */
+export function throttleTouch(store: TouchingStore, intervalMs: number, maxTracked = 10_000): void {
+  const last = new Map<string, number>();
+  const touch = store.touch.bind(store);
+  store.touch = (sid, sess, fn) => {
+    const now = Date.now();
+    const at = last.get(sid);
+    if (at !== undefined && now - at < intervalMs) {
+      fn?.();
+      return;
+    }
+    if (last.size >= maxTracked) last.clear();
+    last.set(sid, now);
+    touch(sid, sess, fn);
+  };
 }
