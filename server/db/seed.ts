@@ -7,8 +7,13 @@
 import bcrypt from 'bcryptjs';
 import { and, eq, inArray } from 'drizzle-orm';
 import type { Orm } from './client.js';
-import { axleDesignRevisions, axleDesigns, memberships, teams, users, vehicleRevisions, vehicles, type Axle } from './schema.js';
+import { axleDesignRevisions, axleDesigns, configurations, memberships, teams, users, vehicleRevisions, vehicles, type Axle } from './schema.js';
 import type { Role } from '../permissions.js';
+import type { ComputePool } from '../compute/pool.js';
+import { deserializeError } from '../compute/tasks.js';
+import runComputeTask from '../compute/worker.js';
+import { Configurations, type ReviewAction } from '../services/configurations.js';
+import type { TrackProfileId } from '../../shared/intent/profiles.js';
 import { exampleVehicles, type ExampleVehicleName } from '../../shared/balance/examples.js';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import type { Corner } from '../../shared/schema/corner.js';
@@ -44,11 +49,25 @@ interface DemoDesign {
   corner: Corner;
 }
 
+/** A demo configuration and the review steps it has been through (each by a demo member, through the configurations service). */
+interface DemoConfiguration {
+  name: string;
+  vehicle: string;
+  front: string;
+  rear: string;
+  trackProfile: TrackProfileId;
+  author: string;
+  message: string;
+  steps: { action: ReviewAction; by: string; message?: string }[];
+  comments?: { by: string; body: string; resultRef?: string }[];
+}
+
 interface DemoTeam {
   slug: string;
   name: string;
   members: { email: string; roles: Role[] }[];
   vehicles: { example: ExampleVehicleName; designs: DemoDesign[] }[];
+  configurations: DemoConfiguration[];
 }
 
 export const DEMO_TEAMS: DemoTeam[] = [
@@ -79,6 +98,42 @@ export const DEMO_TEAMS: DemoTeam[] = [
         ],
       },
     ],
+    configurations: [
+      {
+        name: 'Ember baseline',
+        vehicle: 'TUR-26 Ember',
+        front: 'Front baseline',
+        rear: 'Rear baseline',
+        trackProfile: 'smooth-circuit',
+        author: 'designer@tallowmere.example',
+        message: 'Baseline for the 2026 season',
+        steps: [
+          { action: 'submit', by: 'designer@tallowmere.example', message: 'Baseline as built' },
+          { action: 'approve', by: 'reviewer@tallowmere.example', message: 'Balance as intended for the smooth circuits' },
+        ],
+      },
+      {
+        name: 'Ember, rear toe link +6 mm',
+        vehicle: 'TUR-26 Ember',
+        front: 'Front baseline',
+        rear: 'Rear, toe link inner +6 mm',
+        trackProfile: 'bumpy-circuit',
+        author: 'designer@tallowmere.example',
+        message: 'More rear roll understeer for the bumpy tracks',
+        steps: [{ action: 'submit', by: 'designer@tallowmere.example', message: 'Please check the rear roll-steer term' }],
+        comments: [{ by: 'reviewer@tallowmere.example', body: 'Looking at the roll-steer term of the budget first.', resultRef: 'budget' }],
+      },
+      {
+        name: 'Cinder carry-over',
+        vehicle: 'TUR-25 Cinder',
+        front: 'Front 2025',
+        rear: 'Rear 2025',
+        trackProfile: 'smooth-circuit',
+        author: 'engineer@tallowmere.example',
+        message: 'Last year’s car as a reference',
+        steps: [],
+      },
+    ],
   },
   {
     slug: 'brackenfield',
@@ -105,10 +160,40 @@ export const DEMO_TEAMS: DemoTeam[] = [
         ],
       },
     ],
+    configurations: [
+      {
+        name: 'B3 road baseline',
+        vehicle: 'Brackenfield B3 hatchback',
+        front: 'Front strut baseline',
+        rear: 'Rear five-link baseline',
+        trackProfile: 'rough-road',
+        author: 'owner@brackenfield.example',
+        message: 'Production baseline',
+        steps: [
+          { action: 'submit', by: 'owner@brackenfield.example' },
+          { action: 'approve', by: 'reviewer@brackenfield.example', message: 'Road baseline agreed' },
+        ],
+      },
+    ],
   },
 ];
 
-export async function seedDemo(orm: Orm, o: { bcryptRounds?: number } = {}): Promise<void> {
+/** The compute pool's tasks run in this process: the seed runs once at start, before the server's worker pool exists. */
+const inProcessPool: ComputePool = {
+  async run(kind, input) {
+    const out = await runComputeTask({ kind, input });
+    if (!out.ok) throw deserializeError(out.error);
+    return out.result;
+  },
+  async close() {},
+};
+
+/**
+ * `publicUrl` is what the review mails of the demo configurations link to
+ * (default PUBLIC_URL, else the development address).
+ */
+export async function seedDemo(orm: Orm, o: { bcryptRounds?: number; publicUrl?: string } = {}): Promise<void> {
+  const publicUrl = o.publicUrl ?? process.env['PUBLIC_URL'] ?? 'http://127.0.0.1:4200';
   await orm.transaction(async (tx) => {
     // One advisory lock: two servers starting together seed once.
     await tx.execute('SELECT pg_advisory_xact_lock(742001)');
@@ -168,6 +253,46 @@ export async function seedDemo(orm: Orm, o: { bcryptRounds?: number } = {}): Pro
           });
         }
       }
+      await seedConfigurations(tx as unknown as Orm, team.id, t, userId, publicUrl);
     }
   });
+}
+
+/**
+ * The team's demo configurations that are missing (matched by name), made
+ * and walked through review by the configurations service itself, so their
+ * states, transitions, approval snapshots, activity and review mails are
+ * what the app would have written. Runs inside the seed's transaction (the
+ * service's own transactions become savepoints).
+ */
+async function seedConfigurations(tx: Orm, teamId: string, t: DemoTeam, userId: Map<string, string>, publicUrl: string): Promise<void> {
+  if (t.configurations.length === 0) return;
+  const existing = await tx.select({ name: configurations.name }).from(configurations).where(eq(configurations.teamId, teamId));
+  const service = new Configurations(tx, inProcessPool, 60_000, publicUrl);
+  const roles = new Map(t.members.map((m) => [m.email, m.roles]));
+  for (const c of t.configurations) {
+    if (existing.some((e) => e.name === c.name)) continue;
+    const [vehicle] = await tx.select({ id: vehicles.id }).from(vehicles).where(and(eq(vehicles.teamId, teamId), eq(vehicles.name, c.vehicle)));
+    if (!vehicle) throw new Error(`seed: vehicle ${c.vehicle} missing`);
+    const designs = await tx.select({ id: axleDesigns.id, name: axleDesigns.name, axle: axleDesigns.axle }).from(axleDesigns).where(eq(axleDesigns.vehicleId, vehicle.id));
+    const design = (axle: Axle, name: string) => {
+      const d = designs.find((x) => x.axle === axle && x.name === name);
+      if (!d) throw new Error(`seed: ${axle} design ${name} missing`);
+      return d.id;
+    };
+    const created = await service.create(teamId, userId.get(c.author)!, {
+      name: c.name,
+      vehicleId: vehicle.id,
+      frontDesignId: design('front', c.front),
+      rearDesignId: design('rear', c.rear),
+      trackProfile: c.trackProfile,
+      message: c.message,
+    });
+    for (const step of c.steps) {
+      await service.transition(teamId, created.id, { id: userId.get(step.by)!, roles: roles.get(step.by)! }, step.action, { message: step.message });
+    }
+    for (const comment of c.comments ?? []) {
+      await service.addComment(teamId, created.id, userId.get(comment.by)!, { body: comment.body, resultRef: comment.resultRef });
+    }
+  }
 }
