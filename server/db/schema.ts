@@ -14,6 +14,7 @@ import {
   json,
   timestamp,
   varchar,
+  doublePrecision,
   index,
   uniqueIndex,
   primaryKey,
@@ -508,3 +509,68 @@ export const programmeSnapshots = pgTable(
   },
   (t) => [index('programme_snapshots_programme_idx').on(t.programmeId)],
 );
+
+export const RIG_ATTACHMENTS = ['configuration', 'baseline'] as const;
+export const SIDES = ['left', 'right'] as const;
+export const RIG_BASES = ['change', 'absolute'] as const;
+
+/**
+ * A bump-steer rig measurement (docs/rig-measurements.md): the parsed points
+ * in Rollwise's conventions (not only the file), the column mapping, units
+ * and signs it was read with, and what it is compared with: a configuration
+ * revision's front or rear axle design, or an axle design revision on its
+ * own as a baseline of the current car before a change. The design and
+ * revision the comparison uses are always stored. Points are never edited;
+ * a measurement is only created whole or deleted.
+ */
+export const rigMeasurements = pgTable(
+  'rig_measurements',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    fileName: text('file_name').notNull(),
+    attachedTo: text('attached_to', { enum: RIG_ATTACHMENTS }).notNull(),
+    configurationId: uuid('configuration_id').references(() => configurations.id, { onDelete: 'cascade' }),
+    configurationRevision: integer('configuration_revision'),
+    axle: text('axle', { enum: AXLES }).notNull(),
+    designId: uuid('design_id')
+      .notNull()
+      .references(() => axleDesigns.id, { onDelete: 'cascade' }),
+    designRevision: integer('design_revision').notNull(),
+    side: text('side', { enum: SIDES }).notNull().default('left'),
+    rackMm: doublePrecision('rack_mm').notNull().default(0),
+    basis: text('basis', { enum: RIG_BASES }).notNull().default('change'),
+    /** The mapping the file was read with (shared/io/rig-measurement.ts `RigMapping`). */
+    mapping: jsonb('mapping').notNull(),
+    /** Parsed points: `{ travelMm, toeDeg, camberDeg, line }[]`, mm and deg, Rollwise signs. */
+    points: jsonb('points').notNull(),
+    pointCount: integer('point_count').notNull(),
+    hasCamber: boolean('has_camber').notNull(),
+    note: text('note'),
+    authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    index('rig_measurements_team_idx').on(t.teamId, t.createdAt),
+    index('rig_measurements_configuration_idx').on(t.configurationId),
+    index('rig_measurements_design_idx').on(t.designId),
+    check(
+      'rig_measurements_attachment',
+      sql`(${t.attachedTo} = 'configuration' AND ${t.configurationId} IS NOT NULL AND ${t.configurationRevision} IS NOT NULL) OR (${t.attachedTo} = 'baseline' AND ${t.configurationId} IS NULL)`,
+    ),
+  ],
+);
+
+/** A team's rig tolerance: the largest |measured − predicted| before a caution, deg. No row: the product defaults. */
+export const teamRigSettings = pgTable('team_rig_settings', {
+  teamId: uuid('team_id')
+    .primaryKey()
+    .references(() => teams.id, { onDelete: 'cascade' }),
+  toeToleranceDeg: doublePrecision('toe_tolerance_deg').notNull(),
+  camberToleranceDeg: doublePrecision('camber_tolerance_deg').notNull(),
+  updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});

@@ -37,6 +37,8 @@ export const CAUTION_CODES = [
   'compliance-steer-rivals',
   'compliance-steer-unmodelled',
   'rack-pose-unreachable',
+  'rig-toe-disagreement',
+  'rig-camber-disagreement',
   'safety-notice',
 ] as const;
 export type CautionCode = (typeof CAUTION_CODES)[number];
@@ -64,7 +66,10 @@ interface RuleDefinition {
 const ALIGNMENT_BASIS =
   'common practice: alignment specs hold toe to about ±0.1–0.2° per wheel (check-values.md); a bump that toes the wheel by more than that is felt';
 
-export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-steer-unmodelled' | 'rack-pose-unreachable' | 'safety-notice'>, RuleDefinition>> = {
+/** Rig-measurement codes compare with the team's rig tolerance (shared/intent/rig-compare.ts), not with per-profile thresholds. */
+export type RigCautionCode = 'rig-toe-disagreement' | 'rig-camber-disagreement';
+
+export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-steer-unmodelled' | 'rack-pose-unreachable' | 'safety-notice' | RigCautionCode>, RuleDefinition>> = {
   'bump-toe-change': {
     unit: 'deg',
     basis: ALIGNMENT_BASIS + '; tighter where landings are heavy',
