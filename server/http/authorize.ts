@@ -11,7 +11,7 @@ import type { Orm } from '../db/client.js';
 import { memberships, users } from '../db/schema.js';
 import { hasPermission, type Permission, type Role } from '../permissions.js';
 import { HttpError, notFound } from './errors.js';
-import { tokenAllows } from './bearer.js';
+import { tokenAllows, tokenAllowsOutsideTeam } from './bearer.js';
 
 export interface SessionUser {
   id: string;
@@ -73,6 +73,10 @@ export function createAuthorizer(orm: Orm, instructorReads?: (userId: string, te
 
   const requireUser: RequestHandler = async (req, _res, next) => {
     await loadUser(req);
+    if (req.tokenGrant) {
+      const refused = tokenAllowsOutsideTeam(req.method, req.baseUrl);
+      if (refused) throw refused;
+    }
     next();
   };
 

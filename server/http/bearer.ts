@@ -20,7 +20,18 @@ declare global {
 }
 
 const BEARER = /^Bearer\s+(\S+)$/i;
-const READ_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
+export const READ_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
+
+/**
+ * Paths a token never reaches: account and token management, and accepting
+ * an invitation (it signs a person in or registers one). Reading the own
+ * account (`GET /auth/me`) and looking at an invitation are allowed.
+ */
+function needsSession(path: string, method: string): boolean {
+  if (path.startsWith('/auth/')) return !(path === '/auth/me' && READ_METHODS.has(method));
+  if (path.startsWith('/invitations/')) return !READ_METHODS.has(method);
+  return false;
+}
 
 export function bearerAuth(tokens: ApiTokens): RequestHandler {
   return async (req, _res, next) => {
@@ -30,13 +41,23 @@ export function bearerAuth(tokens: ApiTokens): RequestHandler {
     const found = m ? await tokens.authenticate(m[1]!) : null;
     if (!found) return next(new HttpError(401, 'invalid_token', 'The API token is not valid (unknown, revoked or expired)'));
     // Account and token management need a signed-in person, not a script.
-    if (req.path.startsWith('/auth/') && !(req.path === '/auth/me' && READ_METHODS.has(req.method))) {
-      return next(new HttpError(403, 'session_required', 'Sign in to do this; API tokens cannot manage accounts or tokens'));
+    if (needsSession(req.path, req.method)) {
+      return next(new HttpError(403, 'session_required', 'Sign in to do this; API tokens cannot manage accounts, tokens or invitations'));
     }
     req.user = found.user;
     req.tokenGrant = found.grant;
     next();
   };
+}
+
+/**
+ * A token on a route that only needs a signed-in user (not a team's
+ * permission): it may read, and use the compute API (which stores nothing);
+ * any other change is outside its one team (creating teams or programmes).
+ */
+export function tokenAllowsOutsideTeam(method: string, baseUrl: string): HttpError | null {
+  if (READ_METHODS.has(method) || baseUrl === '/api/compute') return null;
+  return new HttpError(403, 'token_scope', 'An API token acts only within its team; sign in to do this');
 }
 
 /** What a token's scope allows on a team route: read = reading only; write = also changes. */

@@ -72,3 +72,39 @@ export function expectError(r: request.Response, status: number, code: string): 
   expect(typeof r.body.error.message).toBe('string');
   expect(JSON.stringify(r.body)).not.toMatch(/\bat \S+ \(|node_modules|\.ts:\d+/);
 }
+
+/** One mounted route, as `METHOD /full/path/:param` (Express 5 / router 2 layers). */
+export interface MountedRoute {
+  method: string;
+  path: string;
+}
+
+/**
+ * Every route the app has mounted, read from its router stack: nested routers
+ * are walked with their mount paths (`:teamId` and other params kept as
+ * written), so a new route shows up here without anyone listing it.
+ */
+export function listRoutes(app: RollwiseApp): MountedRoute[] {
+  interface Layer {
+    route?: { path: string | string[]; methods: Record<string, boolean> };
+    handle?: { stack?: Layer[] };
+    rawPath?: string | string[];
+    slash?: boolean;
+  }
+  const out: MountedRoute[] = [];
+  const walk = (stack: Layer[], prefix: string) => {
+    for (const l of stack) {
+      if (l.route) {
+        for (const p of ([] as string[]).concat(l.route.path)) {
+          for (const [m, on] of Object.entries(l.route.methods)) if (on && m !== '_all') out.push({ method: m.toUpperCase(), path: `${prefix}${p === '/' ? '' : p}` });
+        }
+      } else if (l.handle?.stack) {
+        if (Array.isArray(l.rawPath)) throw new Error('listRoutes: a router mounted at several paths');
+        walk(l.handle.stack, prefix + (l.slash || l.rawPath === undefined ? '' : l.rawPath));
+      }
+    }
+  };
+  walk((app as unknown as { router: { stack: Layer[] } }).router.stack, '');
+  if (out.length === 0) throw new Error('listRoutes: no routes found (has the router layout changed?)');
+  return out;
+}
