@@ -1,0 +1,184 @@
+import { Component, computed, inject, input, signal, WritableSignal } from '@angular/core';
+import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
+import { RouterLink } from '@angular/router';
+import { combineLatest, switchMap } from 'rxjs';
+import { browserTimeZone, formatLocalTime } from '../activity/local-time';
+import { apiProblem } from '../core/http/api-error';
+import { LoadState, toLoadState } from '../core/http/load-state';
+import { Notifier } from '../core/layout/notifier';
+import { SafetyCaution } from '../features/safety-caution';
+import { BoardTable } from './board-table';
+import { profileLabel } from './board-figures';
+import { Board, ProgrammeDetail, ProgrammesApi, ProgrammeTeamStatus, SnapshotSummary } from './programmes-api';
+
+/** A reload keeps what is shown until the new answer arrives (the forms below it stay put). */
+function keepShown<T>(target: WritableSignal<LoadState<T>>, next: LoadState<T>): void {
+  if (next.status === 'loading' && target().status === 'ready') return;
+  target.set(next);
+}
+
+const TEAM_STATUS_WORDS: Readonly<Record<ProgrammeTeamStatus, string>> = {
+  invited: 'Invited, waiting for the owner',
+  accepted: 'Accepted',
+  declined: 'Declined',
+};
+
+/**
+ * `/programmes/:programmeId` (its instructor): the teams and their answers,
+ * inviting a team by its address, the board of every accepted team's
+ * configurations, and snapshots of the board with their CSV export. The
+ * instructor only reads the teams: nothing here changes a team's data.
+ */
+@Component({
+  selector: 'app-programme-page',
+  imports: [
+    ReactiveFormsModule,
+    RouterLink,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressSpinnerModule,
+    SafetyCaution,
+    BoardTable,
+  ],
+  templateUrl: './programme-page.html',
+  styleUrl: './programme-page.scss',
+})
+export class ProgrammePage {
+  /** Bound from the route parameter. */
+  readonly programmeId = input.required<string>();
+
+  protected readonly api = inject(ProgrammesApi);
+  private readonly notifier = inject(Notifier);
+  private readonly fb = inject(NonNullableFormBuilder);
+
+  protected readonly timeZone = browserTimeZone();
+  protected readonly profileLabel = profileLabel;
+  protected readonly teamStatusWords = TEAM_STATUS_WORDS;
+
+  protected readonly detail = signal<LoadState<ProgrammeDetail>>({ status: 'loading' });
+  protected readonly board = signal<LoadState<Board>>({ status: 'loading' });
+  protected readonly snapshots = signal<LoadState<SnapshotSummary[]>>({ status: 'loading' });
+  private readonly detailReloads = signal(0);
+  private readonly boardReloads = signal(0);
+  private readonly snapshotReloads = signal(0);
+
+  /** Accepted teams that have no configuration on the board (yet). */
+  protected readonly acceptedWithoutRows = computed(() => {
+    const d = this.detail();
+    const b = this.board();
+    if (d.status !== 'ready' || b.status !== 'ready') return [];
+    const onBoard = new Set(b.value.rows.map((r) => r.teamId));
+    return d.value.teams.filter((t) => t.status === 'accepted' && !onBoard.has(t.teamId));
+  });
+  protected readonly acceptedWithoutRowsWords = computed(() =>
+    this.acceptedWithoutRows()
+      .map((t) => t.teamName)
+      .join(', '),
+  );
+  protected readonly acceptedCount = computed(() => {
+    const d = this.detail();
+    return d.status === 'ready' ? d.value.teams.filter((t) => t.status === 'accepted').length : 0;
+  });
+
+  protected readonly inviteForm = this.fb.group({
+    teamSlug: ['', [Validators.required, Validators.maxLength(60)]],
+  });
+  protected readonly inviting = signal(false);
+  protected readonly inviteFailure = signal<string | null>(null);
+
+  protected readonly snapshotForm = this.fb.group({ label: ['', [Validators.maxLength(120)]] });
+  protected readonly snapping = signal(false);
+  protected readonly snapshotFailure = signal<string | null>(null);
+
+  constructor() {
+    const id$ = toObservable(this.programmeId);
+    combineLatest([id$, toObservable(this.detailReloads)])
+      .pipe(
+        switchMap(([id]) => toLoadState(this.api.get(id))),
+        takeUntilDestroyed(),
+      )
+      .subscribe((s) => keepShown(this.detail, s));
+    combineLatest([id$, toObservable(this.boardReloads)])
+      .pipe(
+        switchMap(([id]) => toLoadState(this.api.board(id))),
+        takeUntilDestroyed(),
+      )
+      .subscribe((s) => this.board.set(s));
+    combineLatest([id$, toObservable(this.snapshotReloads)])
+      .pipe(
+        switchMap(([id]) => toLoadState(this.api.snapshots(id))),
+        takeUntilDestroyed(),
+      )
+      .subscribe((s) => keepShown(this.snapshots, s));
+  }
+
+  protected reloadDetail(): void {
+    this.detailReloads.update((n) => n + 1);
+  }
+
+  protected reloadBoard(): void {
+    this.boardReloads.update((n) => n + 1);
+    this.reloadDetail();
+  }
+
+  protected reloadSnapshots(): void {
+    this.snapshotReloads.update((n) => n + 1);
+  }
+
+  protected local(iso: string): string {
+    return formatLocalTime(iso, this.timeZone);
+  }
+
+  protected invite(): void {
+    this.inviteFailure.set(null);
+    const slug = this.inviteForm.controls.teamSlug.value.trim();
+    if (!slug) this.inviteForm.controls.teamSlug.setValue('');
+    if (this.inviteForm.invalid) {
+      this.inviteForm.markAllAsTouched();
+      return;
+    }
+    this.inviting.set(true);
+    this.api.inviteTeam(this.programmeId(), slug).subscribe({
+      next: (t) => {
+        this.inviting.set(false);
+        this.inviteForm.reset({ teamSlug: '' });
+        void this.notifier.info(`${t.teamName} invited. The team's owner accepts or declines on the team's Programmes page.`);
+        this.reloadDetail();
+      },
+      error: (error: unknown) => {
+        this.inviting.set(false);
+        this.inviteFailure.set(apiProblem(error).message);
+      },
+    });
+  }
+
+  protected takeSnapshot(): void {
+    this.snapshotFailure.set(null);
+    if (this.snapshotForm.invalid) {
+      this.snapshotForm.markAllAsTouched();
+      return;
+    }
+    const label = this.snapshotForm.controls.label.value.trim() || undefined;
+    this.snapping.set(true);
+    this.api.takeSnapshot(this.programmeId(), label).subscribe({
+      next: (s) => {
+        this.snapping.set(false);
+        this.snapshotForm.reset({ label: '' });
+        void this.notifier.info(`Snapshot taken at ${this.local(s.takenAt)} (${this.timeZone}).`);
+        this.reloadSnapshots();
+      },
+      error: (error: unknown) => {
+        this.snapping.set(false);
+        this.snapshotFailure.set(apiProblem(error).message);
+      },
+    });
+  }
+}

@@ -1,0 +1,86 @@
+import { Component, inject, input, signal } from '@angular/core';
+import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
+import { RouterLink } from '@angular/router';
+import { combineLatest, switchMap } from 'rxjs';
+import { browserTimeZone, formatLocalTime } from '../activity/local-time';
+import { LoadState, toLoadState } from '../core/http/load-state';
+import { SafetyCaution } from '../features/safety-caution';
+import { BoardTable } from './board-table';
+import { ProgrammesApi, Snapshot } from './programmes-api';
+
+/** `/programmes/:programmeId/snapshots/:snapshotId`: the board as it was frozen, and its CSV. */
+@Component({
+  selector: 'app-snapshot-page',
+  imports: [RouterLink, MatButtonModule, MatIconModule, MatProgressSpinnerModule, SafetyCaution, BoardTable],
+  template: `
+    <section class="rw-page">
+      <p class="back"><a [routerLink]="['/programmes', programmeId()]">← Back to the programme</a></p>
+      @let s = state();
+      @if (s.status === 'loading') {
+        <div class="rw-state" role="status">
+          <mat-spinner diameter="24" aria-hidden="true" />
+          Loading the snapshot…
+        </div>
+      } @else if (s.status === 'error') {
+        <div class="rw-state rw-state-error" role="alert">
+          <mat-icon aria-hidden="true">error</mat-icon>
+          <span>The snapshot could not be loaded: {{ s.message }}</span>
+          <button mat-button type="button" (click)="reload()">Try again</button>
+        </div>
+      } @else {
+        @let snap = s.value;
+        <div class="rw-page-header">
+          <h1>{{ snap.label ?? 'Snapshot' }}</h1>
+          <a mat-flat-button [href]="api.snapshotCsvUrl(programmeId(), snap.id)" download>
+            <mat-icon aria-hidden="true">download</mat-icon>
+            Download CSV
+          </a>
+        </div>
+        <p class="rw-muted">
+          Frozen {{ local(snap.takenAt) }} ({{ timeZone }}) with engine {{ snap.board.engineVersion }}. Later
+          work in the teams does not change it.
+        </p>
+        <rw-safety-caution />
+        @if (snap.board.rows.length === 0) {
+          <div class="rw-state" role="status">The board was empty when this snapshot was taken.</div>
+        } @else {
+          <app-board-table [board]="snap.board" [timeZone]="timeZone" [caption]="'Snapshot ' + (snap.label ?? '')" />
+        }
+      }
+    </section>
+  `,
+  styles: `
+    .back {
+      margin: 0 0 0.5rem;
+    }
+  `,
+})
+export class SnapshotPage {
+  readonly programmeId = input.required<string>();
+  readonly snapshotId = input.required<string>();
+
+  protected readonly api = inject(ProgrammesApi);
+  protected readonly timeZone = browserTimeZone();
+  protected readonly state = signal<LoadState<Snapshot>>({ status: 'loading' });
+  private readonly reloads = signal(0);
+
+  constructor() {
+    combineLatest([toObservable(this.programmeId), toObservable(this.snapshotId), toObservable(this.reloads)])
+      .pipe(
+        switchMap(([p, s]) => toLoadState(this.api.snapshot(p, s))),
+        takeUntilDestroyed(),
+      )
+      .subscribe((s) => this.state.set(s));
+  }
+
+  protected reload(): void {
+    this.reloads.update((n) => n + 1);
+  }
+
+  protected local(iso: string): string {
+    return formatLocalTime(iso, this.timeZone);
+  }
+}
