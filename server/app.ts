@@ -43,6 +43,8 @@ import { computeRouter } from './routes/compute.js';
 import { configurationsRouter } from './routes/configurations.js';
 import { devMailRouter } from './routes/dev-mail.js';
 import { MailWorker } from './mail/outbox.js';
+import { RigMeasurements } from './services/rig-measurements.js';
+import { rigMeasurementsRouter } from './routes/rig-measurements.js';
 
 export type RollwiseApp = Express & {
   /** Stops the app's own timers, workers and session store (not the database). */
@@ -131,6 +133,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use('/teams/:teamId/invitations', teamInvitationsRouter(invitations, auth));
   api.use('/teams/:teamId/configurations', configurationsRouter(configurations, auth));
   if (!config.production) api.use('/teams/:teamId/dev/mail', devMailRouter(db.orm, auth));
+  api.use('/teams/:teamId', rigMeasurementsRouter(new RigMeasurements(db.orm, configurations, pool, config.computeTimeLimitMs), auth));
   api.use('/teams/:teamId', activityRouter(activity, designs, auth));
   api.use('/teams/:teamId/programmes', teamProgrammesRouter(programmes, auth));
   api.use('/programmes', programmesRouter(programmes, auth));

@@ -8,6 +8,7 @@ import { serializeError } from './tasks.js';
 import { computeAxleRoll, computeCornerSweep } from '../../shared/kinematics/api.js';
 import { computeBalance } from '../../shared/balance/api.js';
 import { computeSolve } from '../../shared/intent/api.js';
+import { computeRigComparison } from '../../shared/intent/rig-compare.js';
 
 type Engine = (input: unknown, onProgress?: (fraction: number, message: string) => void) => unknown;
 
@@ -16,6 +17,7 @@ const ENGINES: Record<ComputeKind, Engine> = {
   'axle-roll': computeAxleRoll,
   balance: computeBalance,
   solve: computeSolve,
+  'rig-compare': computeRigComparison,
 };
 
 export default async function runComputeTask(task: ComputeTask): Promise<WorkerOutcome> {

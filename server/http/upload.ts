@@ -10,8 +10,8 @@ import { HttpError } from './errors.js';
 
 export const UPLOAD_LIMIT_BYTES = 256 * 1024;
 
-/** Routes that take multipart bodies (every other body must be JSON). */
-export const UPLOAD_ROUTE = /^\/teams\/[^/]+\/axle-designs\/[^/]+\/import$/;
+/** Routes that take multipart bodies (every other body must be JSON): the hardpoint import and the rig measurement upload. */
+export const UPLOAD_ROUTE = /^\/teams\/[^/]+\/(axle-designs\/[^/]+\/import|rig-measurements(\/preview)?)$/;
 export const isUploadRequest = (req: Request): boolean => UPLOAD_ROUTE.test(req.path) && Boolean(req.is('multipart/form-data'));
 
 const TEXT_TYPES = new Set(['text/csv', 'text/plain', 'application/json', 'application/vnd.ms-excel', 'text/tab-separated-values']);

@@ -12,15 +12,16 @@
  * `rig-toe-disagreement` / `rig-camber-disagreement` caution
  * (docs/cautions.md). docs/rig-measurements.md gives the math.
  */
-import { InputError, SolveError } from '../errors.js';
-import type { Corner } from '../schema/corner.js';
+import { z } from 'zod';
+import { InputError, SolveError, parseOrThrow } from '../errors.js';
+import { cornerDocumentSchema, type Corner } from '../schema/corner.js';
 import { compileCorner, type Side } from '../kinematics/model.js';
 import { CornerSolver } from '../kinematics/solver.js';
 import { poseRow } from '../kinematics/pose.js';
 import { checkRack, sweepTravels } from '../kinematics/sweep.js';
 import { assertFinite } from '../kinematics/api.js';
 import { SAFETY_CAUTION, type Caution } from './cautions.js';
-import type { RigPoint } from '../io/rig-measurement.js';
+import { RIG_BOUNDS, RIG_LIMITS, type RigPoint } from '../io/rig-measurement.js';
 
 /** Largest |measured − predicted| a team accepts before a caution, deg. */
 export interface RigTolerance {
@@ -244,4 +245,40 @@ export function compareRigMeasurement(corner: Corner, measured: readonly RigPoin
   const result: RigComparison = { basis, rackMm, side, points, predicted, atDesign, toe, camber, tolerance: { ...tolerance }, cautions, safetyNotice: SAFETY_CAUTION };
   assertFinite(result);
   return result;
+}
+
+const finite = z.number().finite();
+
+/** Rig tolerance as a team sets it: positive, at most 5° (a larger one would never caution). */
+export const rigToleranceSchema = z.strictObject({
+  toeDeg: finite.positive().max(5),
+  camberDeg: finite.positive().max(5),
+});
+
+/** `POST /api/compute/rig-compare` and the worker task: a corner, measured points in Rollwise conventions, options. */
+export const rigCompareRequestSchema = z.strictObject({
+  corner: cornerDocumentSchema,
+  points: z
+    .array(
+      z.strictObject({
+        travelMm: finite.min(-RIG_BOUNDS.travelMm).max(RIG_BOUNDS.travelMm),
+        toeDeg: finite.min(-RIG_BOUNDS.toeDeg).max(RIG_BOUNDS.toeDeg),
+        camberDeg: finite.min(-RIG_BOUNDS.camberDeg).max(RIG_BOUNDS.camberDeg).nullable().optional(),
+        /** File line (default: the point's position + 1). */
+        line: z.number().int().positive().optional(),
+      }),
+    )
+    .min(RIG_LIMITS.minRows)
+    .max(RIG_LIMITS.maxRows),
+  rackMm: finite.optional(),
+  side: z.enum(['left', 'right']).optional(),
+  basis: z.enum(RIG_BASES).optional(),
+  tolerance: rigToleranceSchema.optional(),
+});
+
+/** Validated entry point for the worker pool and the compute API. */
+export function computeRigComparison(input: unknown): RigComparison {
+  const req = parseOrThrow(rigCompareRequestSchema, input, 'rig-compare request');
+  const points: RigPoint[] = req.points.map((p, i) => ({ travelMm: p.travelMm, toeDeg: p.toeDeg, camberDeg: p.camberDeg ?? null, line: p.line ?? i + 1 }));
+  return compareRigMeasurement(req.corner, points, { rackMm: req.rackMm, side: req.side, basis: req.basis, tolerance: req.tolerance });
 }

@@ -60,6 +60,8 @@ interface Row {
   body?: () => Promise<unknown> | unknown;
   /** A file sent as multipart/form-data in field `file` (instead of a JSON body). */
   upload?: () => { name: string; text: string };
+  /** Text fields sent beside `upload` (multipart). */
+  fields?: () => Record<string, string>;
   /** Runs once before the row (e.g. creates the proposal it acts on). */
   before?: () => Promise<void>;
   /** Runs before each caller's request (e.g. a fresh configuration in the state the transition starts from). */
@@ -301,6 +303,38 @@ const ROWS: Row[] = [
     body: () => ({}),
     expect: { owner: 200, engineer: 200, designer: 200, reviewer: 200, viewer: 403, nonMember: 404, anonymous: 401 },
   },
+  { name: 'list rig measurements', method: 'get', path: () => `${team()}/rig-measurements`, expect: READ },
+  {
+    name: 'preview a rig file (nothing stored)',
+    method: 'post',
+    path: () => `${team()}/rig-measurements/preview`,
+    upload: () => rigFile(),
+    expect: MANAGE,
+  },
+  {
+    name: 'store a rig measurement',
+    method: 'post',
+    path: () => `${team()}/rig-measurements`,
+    upload: () => rigFile(),
+    fields: () => ({ mapping: JSON.stringify(RIG_MAPPING), target: JSON.stringify({ kind: 'baseline', designId }) }),
+    expect: { owner: 201, engineer: 201, designer: 201, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  { name: 'read a rig measurement with its comparison', method: 'get', before: newRigMeasurement, path: () => `${team()}/rig-measurements/${rigMeasurementId}`, expect: READ },
+  {
+    name: 'delete a rig measurement',
+    method: 'delete',
+    beforeEach: newRigMeasurement,
+    path: () => `${team()}/rig-measurements/${rigMeasurementId}`,
+    expect: { owner: 204, engineer: 204, designer: 204, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
+  { name: 'read the rig tolerance', method: 'get', path: () => `${team()}/rig-tolerance`, expect: READ },
+  {
+    name: 'set the rig tolerance',
+    method: 'put',
+    path: () => `${team()}/rig-tolerance`,
+    body: () => ({ toeDeg: 0.1, camberDeg: 0.25 }),
+    expect: { owner: 200, engineer: 403, designer: 403, reviewer: 403, viewer: 403, nonMember: 404, anonymous: 401 },
+  },
 ];
 
 
@@ -346,6 +380,21 @@ async function newComment(): Promise<void> {
   commentId = r.body.id;
 }
 
+const RIG_MAPPING = { hasHeader: true, travelColumn: 0, toeColumn: 1, travelUnit: 'mm', toeUnit: 'deg', travelSign: 'bump-positive', toeSign: 'toe-in-positive' };
+const rigFile = () => ({ name: 'rig.csv', text: 'travel (mm),toe (deg)\n-20,0.01\n0,0\n20,0.012\n' });
+let rigMeasurementId = '';
+/** A stored rig measurement (by the designer) for the read and delete rows. */
+async function newRigMeasurement(): Promise<void> {
+  const f = rigFile();
+  const r = await agents.designer
+    .post(`${team()}/rig-measurements`)
+    .field('mapping', JSON.stringify(RIG_MAPPING))
+    .field('target', JSON.stringify({ kind: 'baseline', designId }))
+    .attach('file', Buffer.from(f.text, 'utf8'), { filename: f.name, contentType: 'text/csv' });
+  expect(r.status, JSON.stringify(r.body)).toBe(201);
+  rigMeasurementId = r.body.id;
+}
+
 let proposalId = '';
 async function newProposal(): Promise<void> {
   const r = await agents.engineer.post(`${design()}/proposals`).send({ corner: exampleCorners.fsFrontWishbone, baseRevision: await currentRevision(design()) });
@@ -362,6 +411,7 @@ describe('role × route matrix (Tallowmere; non-member is a Brackenfield reviewe
         await row.beforeEach?.();
         let req = agents[w][row.method](row.path());
         if (row.body) req = req.send((await row.body()) as object);
+        for (const [k, v] of Object.entries(row.fields?.() ?? {})) req = req.field(k, v);
         if (row.upload) {
           const file = row.upload();
           req = req.attach('file', Buffer.from(file.text, 'utf8'), { filename: file.name, contentType: 'text/csv' });
