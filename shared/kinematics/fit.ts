@@ -8,16 +8,28 @@ export function polyFit(xs: ArrayLike<number>, ys: ArrayLike<number>, quadratic:
   for (let i = 0; i < n; i++) mx += xs[i]!;
   mx /= n;
   const k = quadratic ? 3 : 2;
-  const A = [0, 0, 0, 0, 0, 0, 0, 0, 0];
-  const b = [0, 0, 0];
+  // Normal equations from the power sums Σx⁰…Σx⁴ and Σy, Σxy, Σx²y (x centred).
+  let s1 = 0;
+  let s2 = 0;
+  let s3 = 0;
+  let s4 = 0;
+  let b0 = 0;
+  let b1 = 0;
+  let b2 = 0;
   for (let i = 0; i < n; i++) {
     const x = xs[i]! - mx;
-    const p = [1, x, x * x];
-    for (let r = 0; r < k; r++) {
-      b[r]! += p[r]! * ys[i]!;
-      for (let c = 0; c < k; c++) A[3 * r + c]! += p[r]! * p[c]!;
-    }
+    const x2 = x * x;
+    const y = ys[i]!;
+    s1 += x;
+    s2 += x2;
+    s3 += x2 * x;
+    s4 += x2 * x2;
+    b0 += y;
+    b1 += x * y;
+    b2 += x2 * y;
   }
+  const A = [n, s1, s2, s1, s2, s3, s2, s3, s4];
+  const b = [b0, b1, b2];
   const sol = solveSmall(A, b, k);
   const c0 = sol[0]!;
   const c1 = sol[1]!;
@@ -61,7 +73,8 @@ export interface ToeFit {
 
 /** Fits toe and camber (deg) against travel (mm); needs at least three points. */
 export function fitToeCamber(travelMm: number[], toeDeg: number[], camberDeg: number[]): ToeFit {
-  const x = travelMm.map((t) => t / 1000);
+  const x = new Float64Array(travelMm.length);
+  for (let i = 0; i < x.length; i++) x[i] = travelMm[i]! / 1000;
   const [a0, a1] = polyFit(x, toeDeg, false);
   const [, , q2] = polyFit(x, toeDeg, true);
   const [, c1] = polyFit(x, camberDeg, false);

@@ -31,10 +31,13 @@ export interface LeverModel {
   /** Lever point (link's inner end) at design: component along the axis from pivot, and perpendicular part. */
   leverPar: Vec3;
   leverPerp: Vec3;
+  /** axis × leverPerp (per-pose code turns the lever as par + cosθ·perp + sinθ·perpX). */
+  leverPerpX: Vec3;
   leverRadius: number;
-  /** Spring's rocker end (rocker only): parallel and perpendicular parts. */
+  /** Spring's rocker end (rocker only): parallel and perpendicular parts, and axis × perpendicular. */
   springPar?: Vec3;
   springPerp?: Vec3;
+  springPerpX?: Vec3;
   springBody?: Vec3;
   /** Names for error messages. */
   what: string;
@@ -106,6 +109,7 @@ function leverModel(
     axis,
     leverPar,
     leverPerp,
+    leverPerpX: cross(axis, leverPerp),
     leverRadius: norm(leverPerp),
     what,
     linkField,
@@ -114,6 +118,7 @@ function leverModel(
     const [sp, sq] = split(spring.rockerPoint);
     m.springPar = sp;
     m.springPerp = sq;
+    m.springPerpX = cross(axis, sq);
     m.springBody = spring.body;
   }
   return m;

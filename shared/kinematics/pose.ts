@@ -8,7 +8,7 @@ import { SolveError } from '../errors.js';
 import type { Vec3, Attachment } from '../schema/corner.js';
 import type { ArmModel, LeverModel } from './model.js';
 import type { CornerSolver } from './solver.js';
-import { add, cross, dot, norm, sub, scale, RAD, rotateOffsetInto } from './vec.js';
+import { add, cross, dot, norm, sub, scale, RAD, rotateOffsetCsInto } from './vec.js';
 
 export interface PoseRow {
   /** Wheel-centre travel from design, mm (+ bump). */
@@ -140,9 +140,9 @@ function attachInto(s: CornerSolver, on: Attachment, pDesign: Vec3, out: Float64
   const r0z = arm.r0[2];
   const sn = (r0y * r1z - r0z * r1y) * ux + (r0z * r1x - r0x * r1z) * uy + (r0x * r1y - r0y * r1x) * uz;
   const cs = r0x * r1x + r0y * r1y + r0z * r1z;
-  const th = Math.atan2(sn, cs);
-  // Rotate the design point about the axis by θ.
-  rotateOffsetInto(rot, arm.axis, pDesign, arm.pivot, th);
+  // Rotate the design point about the axis by θ, with cos θ and sin θ straight from (cs, sn) (no trig).
+  const hs = 1 / Math.sqrt(sn * sn + cs * cs);
+  rotateOffsetCsInto(rot, arm.axis, pDesign, arm.pivot, cs * hs, sn * hs);
   const rx = rot[0]!;
   const ry = rot[1]!;
   const rz = rot[2]!;
@@ -158,13 +158,15 @@ function attachInto(s: CornerSolver, on: Attachment, pDesign: Vec3, out: Float64
 
 /**
  * Lever (rocker or bar lever) angle θ so its driving link closes:
- * A·cosθ + B·sinθ = C, the root nearest the previous angle, and dθ/dtravel
- * (rad/mm), written to `lev` [θ, rate, cosθ, sinθ]. Throws SolveError if
- * the link cannot reach.
+ * A·cosθ + B·sinθ = C, the root nearest the previous angle (given by its
+ * cosine and sine, `prev[k]`, `prev[k + 1]`, and updated there), and
+ * dθ/dtravel (rad/mm), written to `lev` [rate, cosθ, sinθ]. Works on cos θ
+ * and sin θ throughout (no trig calls). Throws SolveError if the link cannot
+ * reach.
  */
-const lev = new Float64Array(4);
+const lev = new Float64Array(3);
 
-function leverSolve(s: CornerSolver, lv: LeverModel, prev: number): void {
+function leverSolve(s: CornerSolver, lv: LeverModel, prev: Float64Array, k: number): void {
   attachInto(s, lv.linkOuterOn, lv.linkOuter, att);
   const wx = lv.axis[0];
   const wy = lv.axis[1];
@@ -172,9 +174,9 @@ function leverSolve(s: CornerSolver, lv: LeverModel, prev: number): void {
   const px = lv.leverPerp[0];
   const py = lv.leverPerp[1];
   const pz = lv.leverPerp[2];
-  const q2x = wy * pz - wz * py;
-  const q2y = wz * px - wx * pz;
-  const q2z = wx * py - wy * px;
+  const q2x = lv.leverPerpX[0];
+  const q2y = lv.leverPerpX[1];
+  const q2z = lv.leverPerpX[2];
   const Dx = lv.pivot[0] + lv.leverPar[0] - att[0]!;
   const Dy = lv.pivot[1] + lv.leverPar[1] - att[1]!;
   const Dz = lv.pivot[2] + lv.leverPar[2] - att[2]!;
@@ -191,17 +193,21 @@ function leverSolve(s: CornerSolver, lv: LeverModel, prev: number): void {
       field: lv.linkField,
     });
   }
-  const base = Math.atan2(B, A);
-  const off = Math.acos(C / h);
-  // The two roots, each wrapped to within π of the previous angle; keep the nearer (branch continuity).
-  const tw = 2 * Math.PI;
-  let t1 = base + off;
-  t1 -= tw * Math.round((t1 - prev) / tw);
-  let t2 = base - off;
-  t2 -= tw * Math.round((t2 - prev) / tw);
-  const th = Math.abs(t1 - prev) <= Math.abs(t2 - prev) ? t1 : t2;
-  const co = Math.cos(th);
-  const si = Math.sin(th);
+  // Roots θ = β ± γ with cos β = A/h, sin β = B/h, cos γ = C/h, sin γ ≥ 0.
+  const cb = A / h;
+  const sb = B / h;
+  const cg = C / h;
+  const sg = Math.sqrt(Math.max(0, 1 - cg * cg));
+  const c1 = cb * cg - sb * sg;
+  const s1 = sb * cg + cb * sg;
+  const c2 = cb * cg + sb * sg;
+  const s2 = sb * cg - cb * sg;
+  // Branch continuity: the root nearer the previous angle has the larger cos(θ − θprev) (ties to β + γ).
+  const cp = prev[k]!;
+  const sp = prev[k + 1]!;
+  const first = c1 * cp + s1 * sp >= c2 * cp + s2 * sp;
+  const co = first ? c1 : c2;
+  const si = first ? s1 : s2;
   // Lever point Q − pivot = par + cosθ·perp + sinθ·(w × perp); its velocity per dθ is w × (Q − pivot).
   const ox = lv.leverPar[0] + co * px + si * q2x;
   const oy = lv.leverPar[1] + co * py + si * q2y;
@@ -211,10 +217,11 @@ function leverSolve(s: CornerSolver, lv: LeverModel, prev: number): void {
   const qoz = lv.pivot[2] + oz - att[2]!;
   const num = qox * att[3]! + qoy * att[4]! + qoz * att[5]!;
   const den = qox * (wy * oz - wz * oy) + qoy * (wz * ox - wx * oz) + qoz * (wx * oy - wy * ox);
-  lev[0] = th;
-  lev[1] = num / den;
-  lev[2] = co;
-  lev[3] = si;
+  prev[k] = co;
+  prev[k + 1] = si;
+  lev[0] = num / den;
+  lev[1] = co;
+  lev[2] = si;
 }
 
 export interface KingpinAxis {
@@ -281,9 +288,20 @@ export function poseRow(s: CornerSolver): PoseRow {
   let kx: number, ky: number, kz: number, ux: number, uy: number, uz: number;
   const kp = m.kingpin;
   if (kp.kind === 'instant') {
-    const k = kingpinAxis(s);
-    [kx, ky, kz] = k.point;
-    [ux, uy, uz] = k.dir;
+    // Screw axis of the steering motion (as kingpinAxis, in scalars): direction ω, point c + ω × v_c / |ω|².
+    const t = s.tSteer;
+    const ox = t[3]!;
+    const oy = t[4]!;
+    const oz = t[5]!;
+    const w2 = ox * ox + oy * oy + oz * oz;
+    if (!(w2 > 0)) throw new SolveError('singular_geometry', 'the toe link does not steer the upright: no steering axis', { travelMm: s.travelMm });
+    kx = c[0]! + (oy * t[2]! - oz * t[1]!) / w2;
+    ky = c[1]! + (oz * t[0]! - ox * t[2]!) / w2;
+    kz = c[2]! + (ox * t[1]! - oy * t[0]!) / w2;
+    const un = (oz < 0 ? -1 : 1) / Math.sqrt(w2);
+    ux = ox * un;
+    uy = oy * un;
+    uz = oz * un;
   } else {
     const l = kp.lowerLocal;
     kx = c[0]! + R[0]! * l[0] + R[1]! * l[1] + R[2]! * l[2];
@@ -342,21 +360,19 @@ export function poseRow(s: CornerSolver): PoseRow {
     out.motionRatio = -(dx * att[3]! + dy * att[4]! + dz * att[5]!) / L;
   } else if (m.rocker) {
     const lv = m.rocker;
-    leverSolve(s, lv, s.rockerAngle);
-    s.rockerAngle = lev[0]!;
-    const rate = lev[1]!;
-    const co = lev[2]!;
-    const si = lev[3]!;
+    leverSolve(s, lv, s.levers, 0);
+    const rate = lev[0]!;
+    const co = lev[1]!;
+    const si = lev[2]!;
     const wx = lv.axis[0];
     const wy = lv.axis[1];
     const wz = lv.axis[2];
-    const px = lv.springPerp![0];
-    const py = lv.springPerp![1];
-    const pz = lv.springPerp![2];
+    const pp = lv.springPerp!;
+    const px = lv.springPerpX!;
     // spring's rocker end relative to the pivot, and its rate per dθ (w × that)
-    const ox = lv.springPar![0] + co * px + si * (wy * pz - wz * py);
-    const oy = lv.springPar![1] + co * py + si * (wz * px - wx * pz);
-    const oz = lv.springPar![2] + co * pz + si * (wx * py - wy * px);
+    const ox = lv.springPar![0] + co * pp[0] + si * px[0];
+    const oy = lv.springPar![1] + co * pp[1] + si * px[1];
+    const oz = lv.springPar![2] + co * pp[2] + si * px[2];
     const dx = lv.pivot[0] + ox - lv.springBody![0];
     const dy = lv.pivot[1] + oy - lv.springBody![1];
     const dz = lv.pivot[2] + oz - lv.springBody![2];
@@ -365,10 +381,9 @@ export function poseRow(s: CornerSolver): PoseRow {
     out.motionRatio = (-(dx * (wy * oz - wz * oy) + dy * (wz * ox - wx * oz) + dz * (wx * oy - wy * ox)) / L) * rate;
   }
   if (m.bar) {
-    leverSolve(s, m.bar, s.barAngle);
-    s.barAngle = lev[0]!;
-    out.barMotionRatio = Math.abs(lev[1]!) * m.bar.leverRadius;
-    out.barTwistRadPerM = Math.abs(lev[1]!) * 1000;
+    leverSolve(s, m.bar, s.levers, 2);
+    out.barMotionRatio = Math.abs(lev[0]!) * m.bar.leverRadius;
+    out.barTwistRadPerM = Math.abs(lev[0]!) * 1000;
   }
   return out;
 }

@@ -43,13 +43,12 @@ export class CornerSolver {
   rackMm = 0;
   iterations = 0;
   residualMm = 0;
-  /** Lever angles (rad) of rocker and bar at the current pose, for branch continuity. */
-  rockerAngle = 0;
-  barAngle = 0;
+  /** Lever angles of rocker and bar at the current pose as [cos, sin, cos, sin], for branch continuity. */
+  readonly levers = new Float64Array(4);
 
   private readonly g = new Float64Array(6);
+  /** Jacobian, factored in place into its LU factors by `factor()` (evaluate rewrites it). */
   private readonly J = new Float64Array(36);
-  private readonly LU = new Float64Array(36);
   private readonly piv = new Int32Array(6);
   private readonly dx = new Float64Array(6);
   /**
@@ -60,9 +59,14 @@ export class CornerSolver {
    */
   private readonly sc = new Float64Array(4);
   private readonly w = new Float64Array(3);
-  /** Travel tangent of the previous pose, and [travel step to this pose (mm), 1 if valid]. */
-  private readonly tPrev = new Float64Array(6);
-  private readonly hist = new Float64Array(2);
+  private readonly w2 = new Float64Array(3);
+  /**
+   * Predictor memory along a travel sweep at one steering input: the travel
+   * tangents of up to three previous poses, newest first (tPrev[6k..6k+5]),
+   * and hist = [their travels (mm) ×3, how many are valid (0–3)].
+   */
+  private readonly tPrev = new Float64Array(18);
+  private readonly hist = new Float64Array(4);
   private readonly c0 = new Float64Array(3);
   private readonly R0 = new Float64Array(9);
   private readonly sgn: number;
@@ -96,8 +100,9 @@ export class CornerSolver {
     this.R[0] = this.R[4] = this.R[8] = 1;
     this.travelMm = 0;
     this.rackMm = 0;
-    this.rockerAngle = 0;
-    this.barAngle = 0;
+    const lv = this.levers;
+    lv[0] = lv[2] = 1;
+    lv[1] = lv[3] = 0;
     this.forgetHistory();
     this.sc[3] = 0;
     this.setSteer();
@@ -131,7 +136,9 @@ export class CornerSolver {
       this.steerInner[0] = a0[0]! + s * d[0]!;
       this.steerInner[1] = a0[1]! + s * d[1]!;
       this.steerInner[2] = a0[2]! + s * d[2]!;
-      this.steerInnerRate.set(d);
+      this.steerInnerRate[0] = d[0]!;
+      this.steerInnerRate[1] = d[1]!;
+      this.steerInnerRate[2] = d[2]!;
     }
   }
 
@@ -229,10 +236,9 @@ export class CornerSolver {
     this.sc[0] = res;
   }
 
-  /** LU with partial pivoting of J into LU/piv; false if singular. */
+  /** LU with partial pivoting of J, in place (J then holds L and U), pivots in piv; false if singular. */
   private factor(): boolean {
-    const A = this.LU;
-    A.set(this.J);
+    const A = this.J;
     const piv = this.piv;
     for (let k = 0; k < 6; k++) {
       let p = k;
@@ -264,7 +270,7 @@ export class CornerSolver {
 
   /** Solves LU·x = b in place (b overwritten with x). */
   private backSolve(b: Float64Array): void {
-    const A = this.LU;
+    const A = this.J;
     const piv = this.piv;
     // Row swaps were applied to whole rows (L included), so permute b first, then substitute.
     for (let k = 0; k < 6; k++) {
@@ -286,6 +292,18 @@ export class CornerSolver {
     }
   }
 
+  /** c0 ← c, R0 ← R (element loops: TypedArray.set is a builtin call, slow for 3 or 9 numbers). */
+  private backup(): void {
+    const c = this.c;
+    const c0 = this.c0;
+    const R = this.R;
+    const R0 = this.R0;
+    c0[0] = c[0]!;
+    c0[1] = c[1]!;
+    c0[2] = c[2]!;
+    for (let i = 0; i < 9; i++) R0[i] = R[i]!;
+  }
+
   /** c += α·dc, R = exp([α·dω]×)·R0 (Rodrigues), from the backed-up state. */
   private applyStep(dx: Float64Array): void {
     const alpha = this.sc[2]!;
@@ -302,25 +320,79 @@ export class CornerSolver {
 
   /**
    * Moves the state along the stored tangents by Δtravel and Δsteer
-   * (predictor). Along a pure travel sweep it adds the second-order term
-   * from the change of tangent since the previous pose, so Newton usually
-   * needs a single iteration.
+   * (predictor). Along a pure travel sweep it integrates the travel tangent
+   * interpolated through this pose's and up to three previous poses'
+   * tangents (a cubic in travel: the predicted pose is then fourth-order
+   * accurate), with the leading rotation-composition terms of
+   * R ← exp([Δ]×)·R (Δ = ∫ω − ½∫Δ×ω), so along a fine sweep Newton usually
+   * needs no iteration or one.
    */
   predict(dTravel: number, dSteer: number): void {
     const t = this.tTravel;
     const s = this.tSteer;
-    this.c0.set(this.c);
-    this.R0.set(this.R);
-    const h = this.hist;
-    if (dSteer === 0 && h[1] === 1) {
-      const k = (0.5 * dTravel * dTravel) / h[0]!;
+    const dx = this.dx;
+    this.backup();
+    const hist = this.hist;
+    const x0 = this.travelMm;
+    const s1 = hist[0]! - x0;
+    const s2 = hist[1]! - x0;
+    const s3 = hist[2]! - x0;
+    let n = dSteer === 0 ? hist[3]! : 0;
+    // Interpolate only near the nodes (a step no longer than four node spacings) and with distinct nodes.
+    const near = Math.abs(dTravel) <= 4 * Math.abs(s1);
+    if (n === 3 && !(near && s3 !== 0 && s3 !== s1 && s3 !== s2)) n = 2;
+    if (n === 2 && !(near && s2 !== 0 && s2 !== s1)) n = 1;
+    if (n >= 1) {
+      // ẋ(σ) = t + D1·σ + D2·σ(σ − s1) + D3·σ(σ − s1)(σ − s2), σ = travel − this travel (Newton form).
       const p = this.tPrev;
-      for (let i = 0; i < 6; i++) this.dx[i] = t[i]! * dTravel + k * (t[i]! - p[i]!);
+      const h = dTravel;
+      const h2 = h * h;
+      const h3 = h2 * h;
+      const i1 = 1 / s1;
+      const i12 = n >= 2 ? 1 / (s2 - s1) : 0;
+      const i2 = n >= 2 ? 1 / s2 : 0;
+      const i23 = n === 3 ? 1 / (s3 - s2) : 0;
+      const i13 = n === 3 ? 1 / (s3 - s1) : 0;
+      const i3 = n === 3 ? 1 / s3 : 0;
+      // ∫₀ʰ of the three basis products.
+      const k1 = 0.5 * h2;
+      const k2 = h3 / 3 - 0.5 * s1 * h2;
+      const k3 = 0.25 * h3 * h - ((s1 + s2) * h3) / 3 + 0.5 * s1 * s2 * h2;
+      const w = this.w;
+      const w2 = this.w2;
+      for (let i = 0; i < 6; i++) {
+        const t0 = t[i]!;
+        const t1 = p[i]!;
+        const t2 = p[6 + i]!;
+        const t3 = p[12 + i]!;
+        const d01 = (t1 - t0) * i1;
+        const d12 = (t2 - t1) * i12;
+        const d012 = (d12 - d01) * i2;
+        const d0123 = ((((t3 - t2) * i23 - d12) * i13) - d012) * i3;
+        dx[i] = t0 * h + d01 * k1 + d012 * k2 + d0123 * k3;
+        if (i >= 3) {
+          // ω′ and ω″ at this pose (rad/mm², rad/mm³), for the composition terms.
+          w[i - 3] = d01 - d012 * s1 + d0123 * s1 * s2;
+          w2[i - 3] = 2 * (d012 - d0123 * (s1 + s2));
+        }
+      }
+      // Δ −= (h³/12)·ω×ω′ + (h⁴/24)·ω×ω″.
+      const c1 = h3 / 12;
+      const c2 = (h3 * h) / 24;
+      const ox = t[3]!;
+      const oy = t[4]!;
+      const oz = t[5]!;
+      const ax = c1 * w[0]! + c2 * w2[0]!;
+      const ay = c1 * w[1]! + c2 * w2[1]!;
+      const az = c1 * w[2]! + c2 * w2[2]!;
+      dx[3] = dx[3]! - (oy * az - oz * ay);
+      dx[4] = dx[4]! - (oz * ax - ox * az);
+      dx[5] = dx[5]! - (ox * ay - oy * ax);
     } else {
-      for (let i = 0; i < 6; i++) this.dx[i] = t[i]! * dTravel + s[i]! * dSteer;
+      for (let i = 0; i < 6; i++) dx[i] = t[i]! * dTravel + s[i]! * dSteer;
     }
     this.sc[2] = 1;
-    this.applyStep(this.dx);
+    this.applyStep(dx);
   }
 
   /**
@@ -352,8 +424,7 @@ export class CornerSolver {
       if (rot * alpha > 0.3) alpha = 0.3 / rot;
       if (tr * alpha > 100) alpha = 100 / tr;
       sc[2] = alpha;
-      this.c0.set(this.c);
-      this.R0.set(this.R);
+      this.backup();
       this.applyStep(dx);
       this.evaluate();
       let next = this.sc[0]!;
@@ -373,16 +444,13 @@ export class CornerSolver {
     const tt = this.tTravel;
     // Keep the previous travel tangent for the second-order predictor (same rack, travel moved).
     const hist = this.hist;
-    if (rackMm === this.rackMm && travelMm !== this.travelMm) {
-      this.tPrev.set(tt);
-      hist[0] = travelMm - this.travelMm;
-      hist[1] = 1;
-    } else hist[1] = 0;
-    tt.fill(0);
+    if (rackMm === this.rackMm && travelMm !== this.travelMm) this.rememberTangent(this.travelMm, tt);
+    else hist[3] = 0;
+    for (let i = 0; i < 5; i++) tt[i] = 0;
     tt[5] = 1;
     this.backSolve(tt);
     const ts = this.tSteer;
-    ts.fill(0);
+    for (let i = 0; i < 6; i++) ts[i] = 0;
     {
       const k = 3 * m.steerRow;
       const R = this.R;
@@ -405,7 +473,26 @@ export class CornerSolver {
 
   /** Drops the predictor's memory of the previous pose (after the state is set from outside). */
   forgetHistory(): void {
-    this.hist[1] = 0;
+    this.hist[3] = 0;
+  }
+
+  /**
+   * Adds a travel tangent of an earlier converged pose at the current steering
+   * input to the predictor's memory (older poses first), so a sweep resumed
+   * from a stored pose keeps its higher-order predictor.
+   */
+  rememberTangent(travelMm: number, tangent: ArrayLike<number>): void {
+    const tp = this.tPrev;
+    const hist = this.hist;
+    for (let i = 0; i < 6; i++) {
+      tp[12 + i] = tp[6 + i]!;
+      tp[6 + i] = tp[i]!;
+      tp[i] = tangent[i]!;
+    }
+    hist[2] = hist[1]!;
+    hist[1] = hist[0]!;
+    hist[0] = travelMm;
+    hist[3] = hist[3]! < 3 ? hist[3]! + 1 : 3;
   }
 
   /** Diagnostics of the last solve. */

@@ -89,24 +89,29 @@ export function sweepTravels(solver: CornerSolver, travels: number[], rackMm: nu
   for (let i = 1; i < travels.length; i++) if (Math.abs(travels[i]!) < Math.abs(travels[start]!)) start = i;
   iters += solver.solveTowards(travels[start]!, rackMm);
   visit(start);
-  const c = Float64Array.from(solver.c);
-  const R = Float64Array.from(solver.R);
-  const tt = Float64Array.from(solver.tTravel);
-  const ts = Float64Array.from(solver.tSteer);
-  const keep = { rocker: solver.rockerAngle, bar: solver.barAngle, travel: solver.travelMm };
+  // The start pose (c, R, travel and steering tangents, lever angles), and the travel tangents of the
+  // next three poses up, so the downward pass resumes with the predictor's memory.
+  const keep = new Float64Array(9 + 3 + 6 + 6 + 18 + 4);
+  const startTravel = solver.travelMm;
+  keep.set(solver.levers, 42);
+  keep.set(solver.R, 0);
+  keep.set(solver.c, 9);
+  keep.set(solver.tTravel, 12);
+  keep.set(solver.tSteer, 18);
   for (let i = start + 1; i < travels.length; i++) {
     iters += solver.solveTowards(travels[i]!, rackMm);
+    if (i - start <= 3) keep.set(solver.tTravel, 24 + 6 * (i - start - 1));
     visit(i);
   }
-  solver.c.set(c);
-  solver.R.set(R);
-  solver.tTravel.set(tt);
-  solver.tSteer.set(ts);
-  solver.rockerAngle = keep.rocker;
-  solver.barAngle = keep.bar;
-  solver.travelMm = keep.travel;
+  solver.R.set(keep.subarray(0, 9));
+  solver.c.set(keep.subarray(9, 12));
+  solver.tTravel.set(keep.subarray(12, 18));
+  solver.tSteer.set(keep.subarray(18, 24));
+  solver.levers.set(keep.subarray(42, 46));
+  solver.travelMm = startTravel;
   solver.rackMm = rackMm;
   solver.forgetHistory();
+  for (let k = Math.min(3, travels.length - 1 - start); k >= 1; k--) solver.rememberTangent(travels[start + k]!, keep.subarray(18 + 6 * k, 24 + 6 * k));
   for (let i = start - 1; i >= 0; i--) {
     iters += solver.solveTowards(travels[i]!, rackMm);
     visit(i);
@@ -130,23 +135,35 @@ export function sweepCorner(corner: Corner, options: SweepOptions): SweepResult 
     iterations += sweepTravels(solver, travels, rack, (i) => {
       block[i] = poseRow(solver);
     });
-    rows.push(...block);
-    const inFit = block.filter((r) => r.travelMm >= fr.fromMm - 1e-9 && r.travelMm <= fr.toMm + 1e-9);
-    if (inFit.length < 3) {
-      throw new InputError(`fitRange: needs at least three sweep points, found ${inFit.length} in [${fr.fromMm}, ${fr.toMm}] mm`, [
+    // The rows in the fit window, as columns (one pass, no intermediate row arrays).
+    const fx: number[] = [];
+    const ftoe: number[] = [];
+    const fcam: number[] = [];
+    let design: SweepRow | undefined;
+    for (let i = 0; i < block.length; i++) {
+      const r = block[i]!;
+      rows.push(r);
+      if (r.travelMm === 0 && !design) design = r;
+      if (r.travelMm >= fr.fromMm - 1e-9 && r.travelMm <= fr.toMm + 1e-9) {
+        fx.push(r.travelMm);
+        ftoe.push(r.toeDeg);
+        fcam.push(r.camberDeg);
+      }
+    }
+    if (fx.length < 3) {
+      throw new InputError(`fitRange: needs at least three sweep points, found ${fx.length} in [${fr.fromMm}, ${fr.toMm}] mm`, [
         { path: 'fitRange', message: 'fewer than three points' },
       ]);
     }
-    const design = block.find((r) => r.travelMm === 0);
+    const f = fitToeCamber(fx, ftoe, fcam);
     fits.push({
       rackMm: rack,
       fromMm: fr.fromMm,
       toMm: fr.toMm,
-      ...fitToeCamber(
-        inFit.map((r) => r.travelMm),
-        inFit.map((r) => r.toeDeg),
-        inFit.map((r) => r.camberDeg),
-      ),
+      bumpSteerDegPerM: f.bumpSteerDegPerM,
+      curvatureDegPerM2: f.curvatureDegPerM2,
+      maxDeviationDeg: f.maxDeviationDeg,
+      camberGainDegPerM: f.camberGainDegPerM,
       toeGradientAtDesignDegPerM: design ? design.toeGradientDegPerM : null,
     });
   }

@@ -20,14 +20,17 @@ export const RAD = 180 / Math.PI;
  * code for per-pose use (no arrays created).
  */
 export function rotateOffsetInto(out: Float64Array, u: ArrayLike<number>, p: ArrayLike<number>, origin: ArrayLike<number>, th: number): void {
+  rotateOffsetCsInto(out, u, p, origin, Math.cos(th), Math.sin(th));
+}
+
+/** As rotateOffsetInto, given the angle's cosine `co` and sine `si` (no trig calls). */
+export function rotateOffsetCsInto(out: Float64Array, u: ArrayLike<number>, p: ArrayLike<number>, origin: ArrayLike<number>, co: number, si: number): void {
   const ux = u[0]!;
   const uy = u[1]!;
   const uz = u[2]!;
   const qx = p[0]! - origin[0]!;
   const qy = p[1]! - origin[1]!;
   const qz = p[2]! - origin[2]!;
-  const co = Math.cos(th);
-  const si = Math.sin(th);
   const k = (ux * qx + uy * qy + uz * qz) * (1 - co);
   out[0] = qx * co + (uy * qz - uz * qy) * si + ux * k;
   out[1] = qy * co + (uz * qx - ux * qz) * si + uy * k;
