@@ -7,7 +7,7 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { HttpError, validate } from '../http/errors.js';
 import { singleTextUpload, uploadedText } from '../http/upload.js';
-import { cadFrameSchema } from '../../shared/io/cad-frame.js';
+import { cadFrameSchema } from '../../shared/io/cad-frame-schema.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
 import { AXLES } from '../db/schema.js';
 import { parseCorner, type AxleDesigns } from '../services/axle-designs.js';

@@ -4,7 +4,7 @@
  * change; the input corner is never mutated.
  */
 import type { Corner, Vec3 } from '../schema/corner.js';
-import { innerName, MOVABLE_COORDINATE_PATTERN } from '../schema/intent.js';
+import { innerName, MOVABLE_COORDINATE_PATTERN } from '../schema/steering-link.js';
 
 const AXIS = { x: 0, y: 1, z: 2 } as const;
 

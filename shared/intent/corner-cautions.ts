@@ -5,7 +5,7 @@
  * a corner gets one list whichever screen asks. docs/cautions.md.
  */
 import type { Corner } from '../schema/corner.js';
-import { steeringStrokeMm } from '../schema/intent.js';
+import { steeringStrokeMm } from '../schema/steering-link.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { SolveError } from '../errors.js';
 import { suspensionRollGradients } from '../balance/understeer.js';

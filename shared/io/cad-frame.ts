@@ -1,5 +1,6 @@
+// Pure frame geometry, free of zod so the browser's import dialog can use it
+// without loading the validator; the upload's schema is in cad-frame-schema.ts.
 import type { Vec3 } from '../schema/corner.js';
-import { z } from 'zod';
 
 /** Where a CAD axis points in Rollwise's frame (x forward, y left, z up). */
 export type AxisDirection = '+x' | '-x' | '+y' | '-y' | '+z' | '-z';
@@ -82,13 +83,3 @@ export function mapCadPoint(p: Vec3, frame: CadFrame): Vec3 {
 export function mapCadPoints(points: ReadonlyMap<string, Vec3>, frame: CadFrame): Map<string, Vec3> {
   return new Map([...points].map(([k, p]) => [k, mapCadPoint(p, frame)]));
 }
-
-const axisDirection = z.enum(AXIS_DIRECTIONS as [AxisDirection, ...AxisDirection[]]);
-
-/** A CAD frame as sent with an upload (the same shape as `CadFrame`). */
-export const cadFrameSchema = z.strictObject({
-  axes: z.tuple([axisDirection, axisDirection, axisDirection]),
-  unit: z.enum(Object.keys(LENGTH_UNITS) as [LengthUnit, ...LengthUnit[]]),
-  originMm: z.tuple([z.number().finite(), z.number().finite(), z.number().finite()]),
-  side: z.enum(['left', 'right']),
-});

@@ -4,25 +4,21 @@
  * documented key by key in docs/intent.md. Coordinates and bounds in mm,
  * ISO 8855 vehicle axes, LEFT corner (the right corner is its mirror).
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import { cornerDocumentSchema, type Corner } from './corner.js';
+import { armStrokeMm, innerName, MOVABLE_COORDINATE_PATTERN } from './steering-link.js';
 import { upgradeVehicleDocument, vehicleSchema } from './vehicle.js';
 import { TRACK_PROFILE_IDS, trackProfiles } from '../intent/profiles.js';
 import { CAUTION_CODES } from '../intent/cautions.js';
 
+// The steering-link helpers and the movable-coordinate pattern live in a
+// zod-free module (the browser's kinematics worker uses them without the
+// schema); re-exported here for the intent code.
+export { innerName, outerName, steeringStrokeMm, MOVABLE_COORDINATE_PATTERN, type MovableCoordinate } from './steering-link.js';
+
 export const INTENT_FORMAT_VERSION = 1 as const;
 /** Largest number of travel points per sweep a solve accepts (it runs dozens of sweeps). */
 export const MAX_SWEEP_POINTS_PER_SOLVE = 201;
-
-/**
- * A movable coordinate: `<point>.<axis>` for a tie-rod (or five-link toe-link)
- * end, or `rack.z`: the rack's height change (both tie-rod inner points, and
- * the steering-box arm axis with arm steering, move together). Its bounds are
- * an offset from the current height; every other bound is an absolute
- * coordinate in mm.
- */
-export const MOVABLE_COORDINATE_PATTERN = /^(?:(tieRodInner|tieRodOuter|link[1-5]Inner|link[1-5]Outer)\.([xyz])|rack\.z)$/;
-export type MovableCoordinate = string;
 
 const finite = (what: string) => z.number({ error: `${what} must be a number` }).finite();
 const coordinateSchema = z.string().regex(MOVABLE_COORDINATE_PATTERN, {
@@ -135,36 +131,6 @@ export const intentSchema = z
 
 export type Intent = z.infer<typeof intentSchema>;
 export type IntentInput = z.input<typeof intentSchema>;
-
-/** The point that plays the tie-rod inner part: `tieRodInner`, or `link<k>Inner` of a five-link's toe link. */
-export function innerName(corner: Corner): string {
-  return corner.type === 'five-link' ? `link${corner.toeLink}Inner` : 'tieRodInner';
-}
-export function outerName(corner: Corner): string {
-  return corner.type === 'five-link' ? `link${corner.toeLink}Outer` : 'tieRodOuter';
-}
-
-/** Steering stroke in mm: the rack stroke, or a steering-box arm's arc travel; null when not steered. */
-export function steeringStrokeMm(corner: Corner): [number, number] | null {
-  const st = corner.steering;
-  if (!corner.steered || !st) return null;
-  return st.kind === 'rack' ? [st.rackStroke[0], st.rackStroke[1]] : armStrokeMm(corner);
-}
-
-/** Arc travel limits (mm) of a steering-box arm, from its angular stroke. */
-function armStrokeMm(corner: Corner): [number, number] | null {
-  const st = corner.steering;
-  if (st?.kind !== 'arm') return null;
-  const p = corner.points as Record<string, [number, number, number]>;
-  const tri = p[innerName(corner)]!;
-  const d = st.armAxisDirection;
-  const n = Math.hypot(d[0], d[1], d[2]);
-  const r = [tri[0] - st.armAxisPoint[0], tri[1] - st.armAxisPoint[1], tri[2] - st.armAxisPoint[2]];
-  const along = (r[0] * d[0] + r[1] * d[1] + r[2] * d[2]) / n;
-  const radius = Math.sqrt(Math.max(0, r[0] ** 2 + r[1] ** 2 + r[2] ** 2 - along ** 2));
-  const k = (radius * Math.PI) / 180;
-  return [st.angularStrokeDeg[0] * k, st.angularStrokeDeg[1] * k];
-}
 
 /** Why coordinate `m` cannot move on this corner, or null when it can. */
 export function coordinateProblem(corner: Corner, m: string): string | null {

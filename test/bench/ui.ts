@@ -19,7 +19,8 @@ import { median, round } from './stats.js';
 import type { BenchFigures } from './run.js';
 
 const root = resolve(import.meta.dirname, '..', '..');
-const staticDir = join(root, 'dist', 'rollwise', 'browser');
+// UI_BENCH_STATIC_DIR: another build's browser/ folder (default: the one `npx ng build` writes).
+const staticDir = process.env['UI_BENCH_STATIC_DIR'] ? resolve(process.env['UI_BENCH_STATIC_DIR']) : join(root, 'dist', 'rollwise', 'browser');
 const TIE_ROD_INNER_Z = 'Tie rod, inner end (rack), z in mm';
 
 /** Sums the compressed size of every script (page and workers) the context fetched. */

@@ -13,7 +13,8 @@ import {
   readPastedBlock,
 } from '../../../shared/io/hardpoints.js';
 import { getPoint } from '../../../shared/io/hardpoint-points.js';
-import { cadFrameSchema, IDENTITY_FRAME } from '../../../shared/io/cad-frame.js';
+import { IDENTITY_FRAME } from '../../../shared/io/cad-frame.js';
+import { cadFrameSchema } from '../../../shared/io/cad-frame-schema.js';
 
 const corner: Corner = exampleCorners.fsFrontWishbone;
 

@@ -5,7 +5,7 @@ import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
 import type { SolveResult } from '../../../../shared/intent/index';
 import { trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
-import { innerName, outerName } from '../../../../shared/schema/intent';
+import { innerName, outerName } from '../../../../shared/schema/steering-link';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
