@@ -4,7 +4,7 @@ import { unsavedChangesGuard } from './unsaved-changes';
 
 /**
  * Team screens below `teams/:teamId` (vehicle, axle design, …), lazily
- * loaded by app.routes.ts. Owned by the screens work (issue 6).
+ * loaded by app.routes.ts. Owned by the screens work (issues 6 and 7).
  */
 export const FEATURE_ROUTES: Routes = [
   {
@@ -40,5 +40,18 @@ export const FEATURE_ROUTES: Routes = [
     title: 'Handling intent · Rollwise',
     canActivate: [permissionGuard('design:propose')],
     loadComponent: () => import('./intent/intent-page').then((m) => m.IntentPage),
+  },
+  {
+    // Configurations (vehicle revision + both axle design revisions + track profile) and their review (issue 7).
+    path: 'configurations',
+    pathMatch: 'full',
+    title: 'Configurations · Rollwise',
+    loadComponent: () => import('./configurations/configurations-page').then((m) => m.ConfigurationsPage),
+  },
+  {
+    // The page review mail links to (PUBLIC_URL/teams/:teamId/configurations/:id).
+    path: 'configurations/:configurationId',
+    title: 'Configuration · Rollwise',
+    loadComponent: () => import('./configurations/configuration-page').then((m) => m.ConfigurationPage),
   },
 ];

@@ -6,6 +6,7 @@ import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
+import { RouterLink } from '@angular/router';
 import { combineLatest, switchMap } from 'rxjs';
 import { ROLE_DESCRIPTIONS, VehicleSummary } from '../core/api-types';
 import { LoadState, toLoadState } from '../core/http/load-state';
@@ -25,6 +26,7 @@ import { Notifier } from '../core/layout/notifier';
     MatIconModule,
     MatProgressSpinnerModule,
     MatSlideToggleModule,
+    RouterLink,
     VehicleTable,
   ],
   templateUrl: './team-dashboard-page.html',

@@ -1,0 +1,421 @@
+import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal, viewChild } from '@angular/core';
+import { ActivatedRoute, RouterLink } from '@angular/router';
+import { MatButton } from '@angular/material/button';
+import { MatProgressBar } from '@angular/material/progress-bar';
+import { firstValueFrom } from 'rxjs';
+import type { Caution } from '../../../../shared/intent/cautions';
+import { trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
+import { apiProblem } from '../../core/http/api-error';
+import { TeamAccess } from '../../core/teams/team-access';
+import { BarChart } from '../../charts/bar-chart';
+import { LineChart } from '../../charts/line-chart';
+import type { BarGroup, LineSeries } from '../../charts/chart-types';
+import { AnalysisError, KinematicsClient } from '../../workers/kinematics-client';
+import { CornerCautions } from '../axle-design/corner-cautions';
+import { AxleDesignSummary, FeaturesApi } from '../features-api';
+import { routeParam } from '../route-params';
+import { SafetyCaution } from '../safety-caution';
+import {
+  ApprovalDetail,
+  ApprovalSummary,
+  CompareAnswer,
+  Configuration,
+  ConfigurationChange,
+  ConfigurationRevision,
+  ConfigurationsApi,
+  ResultsAnswer,
+  TransitionRow,
+} from './configurations-api';
+import { RefOption, ReviewComments } from './review-comments';
+import { ActionSpec, actionsFor, CHART_REFS, diffValue, fmt, keyFigures, localTime, localTimeZone, pathLabel, problemText, STATUS_WORDS } from './review-words';
+import { StatusChip } from './status-chip';
+
+type Load<T> = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; value: T };
+
+type AxleCautions = { axle: 'front' | 'rear'; ok: true; list: readonly Caution[] } | { axle: 'front' | 'rear'; ok: false; message: string };
+
+const BUDGET_TERMS = [
+  ['tyres', 'Tyres'],
+  ['loadTransfer', 'Load transfer'],
+  ['rollSteer', 'Roll steer'],
+  ['rollCamber', 'Roll camber'],
+  ['complianceSteer', 'Compliance steer'],
+  ['alignTorque', 'Aligning torque'],
+  ['total', 'Total'],
+] as const;
+
+/** A key figure frozen in an approval beside what the current engine gives for the same inputs. */
+interface FrozenFigure {
+  readonly path: string;
+  readonly label: string;
+  readonly unit: string;
+  readonly digits: number;
+  readonly frozen: number | null;
+  readonly now: number | null;
+  readonly change: number | null;
+}
+
+/**
+ * `/teams/:teamId/configurations/:configurationId`: one configuration under
+ * review. What it pins (the revisions), what the engines compute for it (ε
+ * per axle, the understeer budget and its roll-steer term, bump steer) with
+ * the cautions of its track profile beside them, the review steps the
+ * caller's roles allow (the server refuses the rest, and any decision on
+ * one's own work), the comment threads, the frozen approval snapshot beside
+ * a recompute with the current engine, the history, and a comparison with
+ * another revision or configuration.
+ */
+@Component({
+  selector: 'rw-configuration-page',
+  imports: [RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, StatusChip, ReviewComments],
+  providers: [KinematicsClient],
+  templateUrl: './configuration-page.html',
+  styleUrl: './configuration-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ConfigurationPage implements OnInit {
+  private readonly route = inject(ActivatedRoute);
+  private readonly api = inject(ConfigurationsApi);
+  private readonly features = inject(FeaturesApi);
+  private readonly engine = inject(KinematicsClient);
+  protected readonly access = inject(TeamAccess);
+
+  protected readonly teamId = routeParam(this.route, 'teamId');
+  protected readonly configurationId = routeParam(this.route, 'configurationId');
+  protected readonly timeZone = localTimeZone();
+  protected readonly fmt = fmt;
+  protected readonly diffValue = diffValue;
+  protected readonly pathLabel = pathLabel;
+  protected readonly localTime = localTime;
+  protected readonly profiles = Object.values(trackProfiles);
+  protected readonly statusWords = STATUS_WORDS;
+
+  protected readonly config = signal<Load<Configuration>>({ kind: 'loading' });
+  protected readonly results = signal<Load<ResultsAnswer>>({ kind: 'loading' });
+  protected readonly cautions = signal<Load<readonly AxleCautions[]>>({ kind: 'loading' });
+  protected readonly history = signal<readonly TransitionRow[]>([]);
+  protected readonly revisions = signal<readonly ConfigurationRevision[]>([]);
+  protected readonly approvals = signal<readonly ApprovalSummary[]>([]);
+  protected readonly approval = signal<Load<ApprovalDetail> | null>(null);
+  protected readonly others = signal<readonly Configuration[]>([]);
+  protected readonly designs = signal<readonly AxleDesignSummary[]>([]);
+
+  protected readonly current = computed(() => {
+    const c = this.config();
+    return c.kind === 'ready' ? c.value : null;
+  });
+  protected readonly profile = computed(() => {
+    const c = this.current();
+    return c ? trackProfiles[c.trackProfile] : null;
+  });
+
+  // ---- review steps ----
+  protected readonly stepMessage = signal('');
+  protected readonly stepBusy = signal(false);
+  protected readonly stepError = signal<string | null>(null);
+  protected readonly stepNotice = signal<string | null>(null);
+  protected readonly actions = computed<ActionSpec[]>(() => {
+    const c = this.current();
+    if (!c || c.archived) return [];
+    return actionsFor(c.status, (p) => this.access.permissions().has(p));
+  });
+  protected readonly canComment = computed(() => this.access.permissions().has('review:comment'));
+  protected readonly canRevise = computed(() => this.access.permissions().has('vehicle:manage'));
+
+  // ---- results ----
+  protected readonly figures = computed(() => {
+    const r = this.results();
+    return r.kind === 'ready' ? keyFigures(r.value.results) : [];
+  });
+  protected readonly budgetGroups = computed<BarGroup[]>(() => {
+    const r = this.results();
+    if (r.kind !== 'ready') return [];
+    const b = r.value.results.balance.understeerBudget;
+    return BUDGET_TERMS.map(([key, label]) => ({ label, values: [b[key]] }));
+  });
+  protected readonly yawGain = computed<LineSeries[]>(() => {
+    const r = this.results();
+    if (r.kind !== 'ready') return [];
+    const rows = r.value.results.balance.gains.rows;
+    return [{ name: 'Yaw-rate gain', points: rows.filter((g) => g.yawRateGainPerS !== null).map((g) => ({ x: g.speedKph, y: g.yawRateGainPerS! })) }];
+  });
+  protected readonly refOptions = computed<RefOption[]>(() => {
+    const out: RefOption[] = [{ ref: 'budget', label: 'Understeer budget' }];
+    for (const [name, label] of Object.entries(CHART_REFS)) if (name === 'yaw-gain') out.push({ ref: `chart:${name}`, label });
+    const c = this.cautions();
+    if (c.kind === 'ready') {
+      const seen = new Set<string>();
+      for (const axle of c.value) {
+        if (!axle.ok) continue;
+        for (const x of axle.list) {
+          if (x.code === 'safety-notice' || seen.has(x.code)) continue;
+          seen.add(x.code);
+          out.push({ ref: `caution:${x.code}`, label: `Caution: ${x.message.slice(0, 70)}${x.message.length > 70 ? '…' : ''}` });
+        }
+      }
+    }
+    for (const f of this.figures()) out.push({ ref: `figure:${f.path}`, label: `Figure: ${f.label}` });
+    return out;
+  });
+  protected readonly commentTarget = signal('');
+  private readonly commentsPanel = viewChild(ReviewComments);
+
+  // ---- approval snapshot ----
+  protected readonly frozenFigures = computed<FrozenFigure[]>(() => {
+    const a = this.approval();
+    if (!a || a.kind !== 'ready') return [];
+    const diffs = 'differences' in a.value.recompute ? a.value.recompute.differences : [];
+    return keyFigures(a.value.results).map((f) => {
+      const d = diffs.find((x) => x.path === f.path);
+      const now = d ? (typeof d.b === 'number' ? d.b : null) : 'error' in a.value.recompute ? null : f.value;
+      return { path: f.path, label: f.label, unit: f.unit, digits: f.digits, frozen: f.value, now, change: d && typeof d.change === 'number' ? d.change : now === null ? null : 0 };
+    });
+  });
+
+  // ---- revise ----
+  protected readonly revising = signal(false);
+  protected readonly reviseName = signal('');
+  protected readonly reviseFront = signal('');
+  protected readonly reviseRear = signal('');
+  protected readonly reviseProfile = signal<TrackProfileId>('smooth-circuit');
+  protected readonly reviseLatest = signal(false);
+  protected readonly reviseMessage = signal('');
+  protected readonly reviseError = signal<string | null>(null);
+  protected readonly fronts = computed(() => this.designs().filter((d) => d.axle === 'front'));
+  protected readonly rears = computed(() => this.designs().filter((d) => d.axle === 'rear'));
+
+  // ---- compare ----
+  protected readonly compareARevision = signal('');
+  protected readonly compareB = signal('');
+  protected readonly compareBRevision = signal('');
+  protected readonly comparison = signal<Load<CompareAnswer> | null>(null);
+  protected readonly compareChoices = computed(() => this.others());
+
+  ngOnInit(): void {
+    void this.loadAll();
+  }
+
+  protected async loadAll(): Promise<void> {
+    this.config.set({ kind: 'loading' });
+    try {
+      const [c] = await Promise.all([firstValueFrom(this.api.get(this.teamId, this.configurationId)), firstValueFrom(this.access.load(this.teamId)).catch(() => null)]);
+      this.config.set({ kind: 'ready', value: c });
+      this.compareB.set(c.id);
+      void this.loadResults(c);
+      void this.loadSide(c);
+    } catch (error) {
+      this.config.set({ kind: 'error', message: apiProblem(error).message });
+    }
+  }
+
+  /** History, revisions, approvals and the team's other configurations (for compare). */
+  private async loadSide(c: Configuration): Promise<void> {
+    const [history, revisions, approvals, others, designs] = await Promise.all([
+      firstValueFrom(this.api.history(this.teamId, c.id)).catch(() => []),
+      firstValueFrom(this.api.revisions(this.teamId, c.id)).catch(() => []),
+      firstValueFrom(this.api.approvals(this.teamId, c.id)).catch(() => []),
+      firstValueFrom(this.api.list(this.teamId)).catch(() => []),
+      firstValueFrom(this.features.axleDesigns(this.teamId, c.vehicle.id)).catch(() => []),
+    ]);
+    this.history.set(history);
+    this.revisions.set(revisions);
+    this.approvals.set(approvals);
+    this.others.set(others.some((o) => o.id === c.id) ? others : [c, ...others]);
+    this.designs.set(designs);
+    if (approvals[0]) void this.showApproval(approvals[0].id);
+    else this.approval.set(null);
+  }
+
+  private async loadResults(c: Configuration): Promise<void> {
+    this.results.set({ kind: 'loading' });
+    this.cautions.set({ kind: 'loading' });
+    try {
+      this.results.set({ kind: 'ready', value: await firstValueFrom(this.api.results(this.teamId, c.id)) });
+    } catch (error) {
+      this.results.set({ kind: 'error', message: problemText(error) });
+    }
+    await this.loadCautions(c);
+  }
+
+  /** The cautions of both corners on the configuration's track profile, measured in the browser's kinematics worker. */
+  private async loadCautions(c: Configuration): Promise<void> {
+    try {
+      const [vehicle, front, rear] = await Promise.all([
+        firstValueFrom(this.api.vehicleRevision(this.teamId, c.vehicle.id, c.vehicle.revision)),
+        firstValueFrom(this.api.designRevision(this.teamId, c.front.designId, c.front.revision)),
+        firstValueFrom(this.api.designRevision(this.teamId, c.rear.designId, c.rear.revision)),
+      ]);
+      const p = trackProfiles[c.trackProfile];
+      const [from, to] = p.travelMm;
+      const out: AxleCautions[] = [];
+      for (const [axle, corner] of [['front', front.corner], ['rear', rear.corner]] as const) {
+        try {
+          const a = await this.engine.analyse({
+            corner,
+            travel: { from, to, step: (to - from) / 20 },
+            rackMm: [0],
+            roll: { from: -2, to: 2, step: 1 },
+            pose: { travelMm: 0, rackMm: 0 },
+            cautions: { axle, trackProfile: { id: c.trackProfile }, vehicleData: vehicle.data },
+          });
+          const k = a.cautions;
+          out.push(k && k.ok ? { axle, ok: true, list: k.list } : { axle, ok: false, message: k && !k.ok ? k.failure.message : 'No cautions were measured.' });
+        } catch (error) {
+          out.push({ axle, ok: false, message: error instanceof AnalysisError ? error.failure.message : String(error) });
+        }
+      }
+      this.cautions.set({ kind: 'ready', value: out });
+    } catch (error) {
+      this.cautions.set({ kind: 'error', message: problemText(error) });
+    }
+  }
+
+  protected async showApproval(id: string): Promise<void> {
+    this.approval.set({ kind: 'loading' });
+    try {
+      this.approval.set({ kind: 'ready', value: await firstValueFrom(this.api.approval(this.teamId, this.configurationId, id)) });
+    } catch (error) {
+      this.approval.set({ kind: 'error', message: problemText(error) });
+    }
+  }
+
+  protected async act(a: ActionSpec): Promise<void> {
+    const c = this.current();
+    if (!c || this.stepBusy()) return;
+    const message = this.stepMessage().trim();
+    if (a.needsMessage && !message) {
+      this.stepError.set(`Say what should change (the message is required for “${a.label}”).`);
+      return;
+    }
+    this.stepBusy.set(true);
+    this.stepError.set(null);
+    this.stepNotice.set(null);
+    try {
+      const after = await firstValueFrom(this.api.act(this.teamId, c.id, a.action, c.revision, message || undefined));
+      this.config.set({ kind: 'ready', value: after });
+      this.stepMessage.set('');
+      this.stepNotice.set(`${a.label}: done. The configuration is now ${STATUS_WORDS[after.status].label.toLowerCase()}.`);
+      await this.loadSide(after);
+    } catch (error) {
+      const p = apiProblem(error);
+      this.stepError.set(p.code === 'own_revision' ? `${p.message}.` : problemText(error));
+      if (p.code === 'stale_revision' || p.code === 'invalid_transition') void this.reloadConfig();
+    } finally {
+      this.stepBusy.set(false);
+    }
+  }
+
+  private async reloadConfig(): Promise<void> {
+    try {
+      const c = await firstValueFrom(this.api.get(this.teamId, this.configurationId));
+      this.config.set({ kind: 'ready', value: c });
+    } catch {
+      /* the error shown stays */
+    }
+  }
+
+  /** "Comment" beside a result: the new comment points at it, and the keyboard focus moves to the comment box. */
+  protected commentOn(ref: string): void {
+    this.commentTarget.set(ref);
+    queueMicrotask(() => this.commentsPanel()?.focus());
+  }
+
+  protected openRevise(): void {
+    const c = this.current();
+    if (!c) return;
+    this.reviseName.set(c.name);
+    this.reviseFront.set(c.front.designId);
+    this.reviseRear.set(c.rear.designId);
+    this.reviseProfile.set(c.trackProfile);
+    this.reviseLatest.set(false);
+    this.reviseMessage.set('');
+    this.reviseError.set(null);
+    this.revising.set(true);
+  }
+
+  protected async revise(): Promise<void> {
+    const c = this.current();
+    if (!c || this.stepBusy()) return;
+    const name = this.reviseName().trim();
+    const latest = this.reviseLatest();
+    const change: { -readonly [K in keyof ConfigurationChange]: ConfigurationChange[K] } = { baseRevision: c.revision };
+    if (!name) {
+      this.reviseError.set('The name is required.');
+      return;
+    }
+    if (name !== c.name) change.name = name;
+    if (latest) change.vehicleId = c.vehicle.id;
+    if (latest || this.reviseFront() !== c.front.designId) change.frontDesignId = this.reviseFront();
+    if (latest || this.reviseRear() !== c.rear.designId) change.rearDesignId = this.reviseRear();
+    if (this.reviseProfile() !== c.trackProfile) change.trackProfile = this.reviseProfile();
+    if (Object.keys(change).length === 1) {
+      this.reviseError.set('Change at least one thing: the name, a design, the track profile, or bring the revisions up to date.');
+      return;
+    }
+    if (this.reviseMessage().trim()) change.message = this.reviseMessage().trim();
+    this.stepBusy.set(true);
+    this.reviseError.set(null);
+    try {
+      const after = await firstValueFrom(this.api.revise(this.teamId, c.id, change));
+      this.config.set({ kind: 'ready', value: after });
+      this.revising.set(false);
+      this.stepNotice.set(`Saved as revision ${after.revision}; the configuration is a draft again.`);
+      void this.loadResults(after);
+      await this.loadSide(after);
+    } catch (error) {
+      this.reviseError.set(problemText(error));
+      if (apiProblem(error).code === 'stale_revision') void this.reloadConfig();
+    } finally {
+      this.stepBusy.set(false);
+    }
+  }
+
+  protected async compare(): Promise<void> {
+    const c = this.current();
+    if (!c) return;
+    const b = this.compareB() || c.id;
+    this.comparison.set({ kind: 'loading' });
+    try {
+      const value = await firstValueFrom(
+        this.api.compare(
+          this.teamId,
+          { id: c.id, ...(this.compareARevision() ? { revision: Number(this.compareARevision()) } : {}) },
+          { id: b, ...(this.compareBRevision() ? { revision: Number(this.compareBRevision()) } : {}) },
+        ),
+      );
+      this.comparison.set({ kind: 'ready', value });
+    } catch (error) {
+      this.comparison.set({ kind: 'error', message: problemText(error) });
+    }
+  }
+
+  /** Compares one of this configuration's revisions with its current one. */
+  protected compareRevision(revision: number): void {
+    const c = this.current();
+    if (!c) return;
+    this.compareARevision.set(String(revision));
+    this.compareB.set(c.id);
+    this.compareBRevision.set('');
+    void this.compare();
+  }
+
+  protected configName(id: string): string {
+    return this.others().find((o) => o.id === id)?.name ?? 'another configuration';
+  }
+
+  protected profileLabel(id: string): string {
+    return trackProfiles[id as TrackProfileId]?.label ?? id;
+  }
+
+  protected statusLabel(s: string): string {
+    return STATUS_WORDS[s as keyof typeof STATUS_WORDS]?.label ?? s;
+  }
+
+  protected value(event: Event): string {
+    return (event.target as HTMLInputElement | HTMLSelectElement | HTMLTextAreaElement).value;
+  }
+
+  protected checked(event: Event): boolean {
+    return (event.target as HTMLInputElement).checked;
+  }
+}

@@ -1,0 +1,204 @@
+import { ChangeDetectionStrategy, Component, ElementRef, effect, inject, input, model, signal, viewChild } from '@angular/core';
+import { MatButton } from '@angular/material/button';
+import { firstValueFrom } from 'rxjs';
+import { CommentThread, ConfigurationsApi } from './configurations-api';
+import { localTime, problemText, refLabel, validRef } from './review-words';
+
+export interface RefOption {
+  readonly ref: string;
+  readonly label: string;
+}
+
+type ThreadsState = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; threads: readonly CommentThread[] };
+
+/**
+ * Review comment threads of a configuration: post (optionally pointing at a
+ * result: the budget, a chart, a caution or a key figure), reply, resolve and
+ * reopen. The page sets `target` when someone picks "Comment" beside a result.
+ */
+@Component({
+  selector: 'rw-review-comments',
+  imports: [MatButton],
+  template: `
+    @if (canComment()) {
+      <form class="rw-comment-form" (submit)="$event.preventDefault(); post()" aria-label="New comment">
+        <label><span>Points at</span>
+          <select name="resultRef" (change)="target.set(value($event))">
+            <option value="" [selected]="target() === ''">The configuration as a whole</option>
+            @for (o of refOptions(); track o.ref) { <option [value]="o.ref" [selected]="target() === o.ref">{{ o.label }}</option> }
+          </select>
+        </label>
+        <label><span>Comment</span>
+          <textarea #commentBox name="body" rows="3" maxlength="4000" [value]="draft()" (input)="draft.set(value($event))"></textarea>
+        </label>
+        @if (postError(); as m) { <p class="rw-form-error" role="alert">{{ m }}</p> }
+        <div class="rw-form-actions"><button mat-flat-button type="submit" [disabled]="busy()">Post comment</button></div>
+      </form>
+    }
+    @switch (state().kind) {
+      @case ('loading') { <p class="rw-state" role="status">Loading comments…</p> }
+      @case ('error') {
+        @if (state(); as s) { @if (s.kind === 'error') {
+          <div class="rw-state rw-state-error" role="alert"><span>The comments could not be loaded: {{ s.message }}</span>
+            <button mat-button type="button" (click)="load()">Try again</button></div>
+        } }
+      }
+      @case ('ready') {
+        @if (state(); as s) { @if (s.kind === 'ready') {
+          @if (s.threads.length === 0) {
+            <p class="rw-state" role="status">No comments yet.</p>
+          } @else {
+            <ol class="rw-threads" aria-label="Comment threads">
+              @for (t of s.threads; track t.id) {
+                <li class="rw-thread" [class.rw-thread-resolved]="t.resolved" [attr.data-ref]="t.resultRef">
+                  <article [attr.aria-label]="'Comment by ' + (t.authorName ?? 'someone')">
+                    <p class="rw-thread-meta">
+                      <strong>{{ t.authorName ?? 'Someone' }}</strong> · <time [attr.datetime]="t.createdAt">{{ time(t.createdAt) }}</time> · on revision {{ t.revision }}
+                      @if (t.resultRef) { · <span class="rw-thread-ref">On: {{ label(t.resultRef) }}</span> }
+                      · <span class="rw-thread-state">{{ t.resolved ? 'Resolved' : 'Open' }}</span>
+                    </p>
+                    <p class="rw-thread-body">{{ t.body }}</p>
+                    @for (r of t.replies; track r.id) {
+                      <div class="rw-reply">
+                        <p class="rw-thread-meta"><strong>{{ r.authorName ?? 'Someone' }}</strong> · <time [attr.datetime]="r.createdAt">{{ time(r.createdAt) }}</time></p>
+                        <p class="rw-thread-body">{{ r.body }}</p>
+                      </div>
+                    }
+                    @if (canComment()) {
+                      <form class="rw-reply-form" (submit)="$event.preventDefault(); reply(t)" [attr.aria-label]="'Reply to ' + (t.authorName ?? 'this comment')">
+                        <label><span>Reply</span>
+                          <textarea name="reply" rows="2" maxlength="4000" [value]="replies()[t.id] ?? ''" (input)="setReply(t.id, value($event))"></textarea>
+                        </label>
+                        <div class="rw-form-actions">
+                          <button mat-stroked-button type="submit" [disabled]="busy()">Reply</button>
+                          <button mat-button type="button" [disabled]="busy()" (click)="setResolved(t, !t.resolved)">{{ t.resolved ? 'Reopen thread' : 'Resolve thread' }}</button>
+                        </div>
+                      </form>
+                    }
+                  </article>
+                </li>
+              }
+            </ol>
+          }
+        } }
+      }
+    }
+    @if (threadError(); as m) { <p class="rw-form-error" role="alert">{{ m }}</p> }
+  `,
+  styles: `
+    .rw-comment-form, .rw-reply-form { display: flex; flex-direction: column; gap: 0.4rem; max-width: 44rem; }
+    label { display: flex; flex-direction: column; gap: 0.2rem; font: var(--mat-sys-body-small); }
+    select, textarea { font: var(--mat-sys-body-medium); padding: 0.3rem; }
+    .rw-threads { list-style: none; padding: 0; display: flex; flex-direction: column; gap: 0.75rem; }
+    .rw-thread { border-left: 4px solid var(--mat-sys-primary); padding: 0.5rem 0.75rem; background: var(--mat-sys-surface-container-low); }
+    .rw-thread-resolved { border-left-style: dashed; border-left-color: var(--mat-sys-outline); }
+    .rw-thread-meta { margin: 0; font: var(--mat-sys-body-small); }
+    .rw-thread-body { margin: 0.25rem 0 0.5rem; white-space: pre-wrap; }
+    .rw-thread-state { font-weight: 600; }
+    .rw-reply { margin-left: 1.25rem; padding-left: 0.75rem; border-left: 2px solid var(--mat-sys-outline-variant); }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ReviewComments {
+  private readonly api = inject(ConfigurationsApi);
+  readonly teamId = input.required<string>();
+  readonly configurationId = input.required<string>();
+  readonly canComment = input(false);
+  readonly refOptions = input<readonly RefOption[]>([]);
+  /** What the next comment points at ('' = nothing in particular). */
+  readonly target = model('');
+
+  protected readonly state = signal<ThreadsState>({ kind: 'loading' });
+  protected readonly draft = signal('');
+  protected readonly replies = signal<Record<string, string>>({});
+  protected readonly busy = signal(false);
+  protected readonly postError = signal<string | null>(null);
+  protected readonly threadError = signal<string | null>(null);
+  private readonly commentBox = viewChild<ElementRef<HTMLTextAreaElement>>('commentBox');
+
+  constructor() {
+    effect(() => {
+      this.teamId();
+      this.configurationId();
+      void this.load();
+    });
+  }
+
+  /** Moves the keyboard focus to the comment box (after "Comment" beside a result). */
+  focus(): void {
+    this.commentBox()?.nativeElement.focus();
+  }
+
+  async load(): Promise<void> {
+    try {
+      const threads = await firstValueFrom(this.api.comments(this.teamId(), this.configurationId()));
+      this.state.set({ kind: 'ready', threads });
+    } catch (error) {
+      this.state.set({ kind: 'error', message: problemText(error) });
+    }
+  }
+
+  protected async post(): Promise<void> {
+    const body = this.draft().trim();
+    const ref = this.target();
+    if (!body) {
+      this.postError.set('Write the comment first.');
+      return;
+    }
+    if (ref && !validRef(ref)) {
+      this.postError.set('That result cannot be pointed at.');
+      return;
+    }
+    await this.run(this.postError, async () => {
+      await firstValueFrom(this.api.addComment(this.teamId(), this.configurationId(), { body, ...(ref ? { resultRef: ref } : {}) }));
+      this.draft.set('');
+      this.target.set('');
+    });
+  }
+
+  protected async reply(t: CommentThread): Promise<void> {
+    const body = (this.replies()[t.id] ?? '').trim();
+    if (!body) {
+      this.threadError.set('Write the reply first.');
+      return;
+    }
+    await this.run(this.threadError, async () => {
+      await firstValueFrom(this.api.addComment(this.teamId(), this.configurationId(), { body, parentId: t.id }));
+      this.setReply(t.id, '');
+    });
+  }
+
+  protected async setResolved(t: CommentThread, resolved: boolean): Promise<void> {
+    await this.run(this.threadError, () => firstValueFrom(this.api.setResolved(this.teamId(), this.configurationId(), t.id, resolved)));
+  }
+
+  private async run(error: ReturnType<typeof signal<string | null>>, step: () => Promise<unknown>): Promise<void> {
+    if (this.busy()) return;
+    this.busy.set(true);
+    error.set(null);
+    try {
+      await step();
+      await this.load();
+    } catch (e) {
+      error.set(problemText(e));
+    } finally {
+      this.busy.set(false);
+    }
+  }
+
+  protected setReply(id: string, text: string): void {
+    this.replies.update((r) => ({ ...r, [id]: text }));
+  }
+
+  protected label(ref: string): string {
+    return this.refOptions().find((o) => o.ref === ref)?.label ?? refLabel(ref);
+  }
+
+  protected time(iso: string): string {
+    return localTime(iso);
+  }
+
+  protected value(event: Event): string {
+    return (event.target as HTMLSelectElement | HTMLTextAreaElement).value;
+  }
+}
