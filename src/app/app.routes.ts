@@ -58,6 +58,27 @@ export const routes: Routes = [
     canActivate: [signedInGuard],
     loadComponent: () => import('./account/account-page').then((m) => m.AccountPage),
   },
+  // Programmes (instructors): the page itself tells anyone else what they are.
+  {
+    path: 'programmes',
+    title: 'Programmes · Rollwise',
+    pathMatch: 'full',
+    canActivate: [signedInGuard],
+    loadComponent: () => import('./programmes/programme-list-page').then((m) => m.ProgrammeListPage),
+  },
+  {
+    path: 'programmes/:programmeId',
+    title: 'Programme · Rollwise',
+    pathMatch: 'full',
+    canActivate: [signedInGuard],
+    loadComponent: () => import('./programmes/programme-page').then((m) => m.ProgrammePage),
+  },
+  {
+    path: 'programmes/:programmeId/snapshots/:snapshotId',
+    title: 'Programme snapshot · Rollwise',
+    canActivate: [signedInGuard],
+    loadComponent: () => import('./programmes/snapshot-page').then((m) => m.SnapshotPage),
+  },
   {
     path: 'teams',
     title: 'Your teams · Rollwise',
@@ -81,6 +102,23 @@ export const routes: Routes = [
         title: 'Members · Rollwise',
         canActivate: [permissionGuard('members:manage')],
         loadComponent: () => import('./teams/members-page').then((m) => m.MembersPage),
+      },
+      {
+        path: 'programmes',
+        title: 'Programmes · Rollwise',
+        canActivate: [permissionGuard('members:manage')],
+        loadComponent: () =>
+          import('./programmes/team-programmes-page').then((m) => m.TeamProgrammesPage),
+      },
+      {
+        path: 'activity',
+        title: 'Activity · Rollwise',
+        loadComponent: () => import('./activity/activity-page').then((m) => m.ActivityPage),
+      },
+      {
+        path: 'activity/axle-designs/:designId',
+        title: 'Axle design activity · Rollwise',
+        loadComponent: () => import('./activity/activity-page').then((m) => m.ActivityPage),
       },
       {
         // Development servers only (the API route is absent in production).

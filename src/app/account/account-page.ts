@@ -7,10 +7,11 @@ import { MatRadioModule } from '@angular/material/radio';
 import { DisplayUnits } from '../core/api-types';
 import { AuthService } from '../core/auth/auth-service';
 import { apiProblem } from '../core/http/api-error';
+import { ApiTokensSection } from './api-tokens-section';
 import { ChangePasswordForm } from './change-password-form';
 import { Notifier } from '../core/layout/notifier';
 
-/** The signed-in user's name, display units and password. */
+/** The signed-in user's name, display units, password and personal API tokens. */
 @Component({
   selector: 'app-account-page',
   imports: [
@@ -20,6 +21,7 @@ import { Notifier } from '../core/layout/notifier';
     MatRadioModule,
     MatButtonModule,
     ChangePasswordForm,
+    ApiTokensSection,
   ],
   templateUrl: './account-page.html',
   styleUrl: './account-page.scss',

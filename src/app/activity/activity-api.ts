@@ -1,0 +1,41 @@
+import { HttpClient, HttpParams } from '@angular/common/http';
+import { inject, Injectable } from '@angular/core';
+import { Observable } from 'rxjs';
+
+/** `GET /api/teams/:teamId/activity` rows (docs/api.md, "Activity log"); `at` is UTC. */
+export interface ActivityEntry {
+  readonly id: string;
+  readonly at: string;
+  readonly actorName: string | null;
+  readonly action: string;
+  readonly subjectType: string;
+  readonly subjectId: string | null;
+  readonly designId: string | null;
+  readonly summary: string;
+}
+
+/** Entries per request (the API allows 1–5000). */
+export const ACTIVITY_PAGE_SIZE = 100;
+
+function path(teamId: string, designId?: string | null): string {
+  const team = `/api/teams/${encodeURIComponent(teamId)}`;
+  return designId ? `${team}/axle-designs/${encodeURIComponent(designId)}/activity` : `${team}/activity`;
+}
+
+/** A team's (or one axle design's) activity log. */
+@Injectable({ providedIn: 'root' })
+export class ActivityApi {
+  private readonly http = inject(HttpClient);
+
+  /** Newest first; `before` (an entry's `at`) pages to older entries. */
+  list(teamId: string, designId: string | null, before?: string): Observable<ActivityEntry[]> {
+    let params = new HttpParams().set('limit', ACTIVITY_PAGE_SIZE);
+    if (before) params = params.set('before', before);
+    return this.http.get<ActivityEntry[]>(path(teamId, designId), { params });
+  }
+
+  /** The CSV download address, with a local-time column in `timeZone`. */
+  csvUrl(teamId: string, designId: string | null, timeZone: string): string {
+    return `${path(teamId, designId)}?${new HttpParams().set('format', 'csv').set('timeZone', timeZone).toString()}`;
+  }
+}
