@@ -1,0 +1,179 @@
+import { TestBed } from '@angular/core/testing';
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { exampleCorners } from '../../../../shared/kinematics/examples';
+import { sweepCorner } from '../../../../shared/kinematics/sweep';
+import { previewRigCsv, readRigCsv, type RigMapping } from '../../../../shared/io/rig-measurement';
+import { compareRigMeasurement, DEFAULT_RIG_TOLERANCE } from '../../../../shared/intent/rig-compare';
+import { RigMeasurementsPanel } from './rig-measurements-panel';
+
+const TEAM = '/api/teams/team-1';
+const corner = exampleCorners.fsFrontWishbone;
+
+/** The design's own predicted curve written as a rig file, toe shifted by `offset` deg. */
+function engineFile(offset: number): string {
+  const s = sweepCorner(corner, { travel: { from: -25, to: 25, step: 5 } });
+  return ['Wheel travel (mm),Toe (deg),Camber (deg)', ...s.rows.map((r) => `${r.travelMm},${r.toeDeg + offset},${r.camberDeg}`)].join('\n');
+}
+
+function setUp(inputs: Record<string, unknown> = { configurationId: 'config-1' }) {
+  TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting()] });
+  const fixture = TestBed.createComponent(RigMeasurementsPanel);
+  fixture.componentRef.setInput('teamId', 'team-1');
+  for (const [k, v] of Object.entries(inputs)) fixture.componentRef.setInput(k, v);
+  fixture.detectChanges();
+  const http = TestBed.inject(HttpTestingController);
+  return { fixture, el: fixture.nativeElement as HTMLElement, http };
+}
+
+function answerStart(http: HttpTestingController, list: unknown[] = []) {
+  http.expectOne((r) => r.url === `${TEAM}/rig-measurements`).flush(list);
+  http.expectOne(`${TEAM}/rig-tolerance`).flush({ ...DEFAULT_RIG_TOLERANCE, isDefault: true, updatedAt: null, updatedByName: null });
+}
+
+const button = (el: HTMLElement, text: string) => Array.from(el.querySelectorAll('button')).find((b) => b.textContent!.includes(text))!;
+
+/** What the server answers, made with the same shared reader and engine it uses. */
+function previewAnswer(name: string, text: string) {
+  const p = previewRigCsv(text);
+  if (!p.ok) throw new Error(p.errors.join('; '));
+  return { fileName: name, ...p.preview };
+}
+
+const summary = (id: string) => ({
+  id,
+  name: 'Rig day 1',
+  fileName: 'rig.csv',
+  attachedTo: 'configuration',
+  configurationId: 'config-1',
+  configurationRevision: 2,
+  axle: 'front',
+  designId: 'design-1',
+  designName: 'Front baseline',
+  designRevision: 3,
+  side: 'left',
+  rackMm: 0,
+  basis: 'absolute',
+  pointCount: 11,
+  hasCamber: true,
+  note: null,
+  authorName: 'Dana Quist',
+  createdAt: '2026-11-30T10:15:00.000Z',
+});
+
+describe('RigMeasurementsPanel', () => {
+  it('shows the empty state and the team tolerance once loaded', () => {
+    const { fixture, el, http } = setUp();
+    expect(el.textContent).toContain('Loading rig measurements');
+    const list = http.expectOne((r) => r.url === `${TEAM}/rig-measurements`);
+    expect(list.request.params.get('configurationId')).toBe('config-1');
+    list.flush([]);
+    http.expectOne(`${TEAM}/rig-tolerance`).flush({ toeDeg: 0.08, camberDeg: 0.3, isDefault: false, updatedAt: '2026-11-01T00:00:00Z', updatedByName: 'Ana Ferreira' });
+    fixture.detectChanges();
+    expect(el.querySelector('.rw-rig-empty')!.textContent).toContain('No rig measurements');
+    expect(el.textContent).toContain('toe 0.08°, camber 0.3°');
+    expect(el.textContent).toContain('set by Ana Ferreira');
+    http.verify();
+  });
+
+  it('uploads, maps, stores and shows the overlay with RMS, largest difference, the tolerance caution and the safety caution', async () => {
+    const { fixture, el, http } = setUp();
+    answerStart(http);
+    const text = engineFile(0.12);
+    await fixture.componentInstance.readText('rig.csv', text);
+    const previewReq = http.expectOne(`${TEAM}/rig-measurements/preview`);
+    expect((previewReq.request.body as FormData).get('file')).toBeInstanceOf(Blob);
+    previewReq.flush(previewAnswer('rig.csv', text));
+    fixture.detectChanges();
+    // The proposed mapping fills the dropdowns, the file's first rows and the converted values are shown.
+    expect(el.querySelector<HTMLSelectElement>('select[name=camberColumn]')!.value).toBe('2');
+    expect(el.querySelectorAll('.rw-rig-preview tbody tr').length).toBe(8);
+    expect(el.querySelectorAll('.rw-rig-converted tbody tr').length).toBe(8);
+    const basis = el.querySelector<HTMLSelectElement>('select[name=basis]')!;
+    basis.value = 'absolute';
+    basis.dispatchEvent(new Event('change'));
+    fixture.detectChanges();
+    button(el, 'Store measurement').click();
+    const create = http.expectOne(`${TEAM}/rig-measurements`);
+    const body = create.request.body as FormData;
+    const mapping = JSON.parse(body.get('mapping') as string) as RigMapping;
+    expect(mapping).toMatchObject({ travelColumn: 0, toeColumn: 1, camberColumn: 2, travelUnit: 'mm', toeUnit: 'deg', toeSign: 'toe-in-positive' });
+    expect(JSON.parse(body.get('target') as string)).toEqual({ kind: 'configuration', configurationId: 'config-1', axle: 'front' });
+    expect(JSON.parse(body.get('options') as string)).toMatchObject({ basis: 'absolute', rackMm: 0, side: 'left', name: 'rig' });
+    create.flush({ ...summary('m-1') });
+    http.expectOne((r) => r.url === `${TEAM}/rig-measurements`).flush([summary('m-1')]);
+    const read = readRigCsv(text, mapping);
+    if (!read.ok) throw new Error(read.errors.join('; '));
+    const comparison = compareRigMeasurement(corner, read.points, { basis: 'absolute' });
+    http.expectOne(`${TEAM}/rig-measurements/m-1`).flush({ ...summary('m-1'), mapping, points: read.points, comparison, engineVersion: 'test' });
+    fixture.detectChanges();
+    // 0.12° toe offset: RMS and largest are the offset (an identity), above the 0.1° default tolerance.
+    const toeRow = el.querySelector('.rw-rig-figures tr[data-quantity=Toe]')!;
+    expect(toeRow.querySelector('.rw-rig-rms')!.textContent!.trim()).toBe('0.12');
+    expect(toeRow.querySelector('.rw-rig-largest')!.textContent!.trim()).toBe('0.12');
+    expect(el.querySelector('rw-caution-list [data-code=rig-toe-disagreement]')).not.toBeNull();
+    expect(el.querySelectorAll('rw-line-chart').length).toBe(2);
+    const toeChart = el.querySelector('[data-testid=rig-toe-chart]')!;
+    expect(Array.from(toeChart.querySelectorAll('.rw-legend li')).map((li) => li.textContent!.trim())).toEqual(['Predicted toe', 'Measured toe']);
+    // Told apart without colour: solid against dashed, circles against squares.
+    expect(toeChart.querySelector('.rw-series-1 .rw-series-line')!.getAttribute('stroke-dasharray')).toBeTruthy();
+    expect(toeChart.querySelector('.rw-series-0 .rw-series-line')!.getAttribute('stroke-dasharray')).toBeNull();
+    expect(el.querySelector('rw-safety-caution')).not.toBeNull();
+    expect(el.querySelector('.rw-rig-preview')).toBeNull();
+    http.verify();
+  });
+
+  it('shows the lines the server refuses and stores nothing', async () => {
+    const { fixture, el, http } = setUp({ designId: 'design-1' });
+    const list = http.expectOne((r) => r.url === `${TEAM}/rig-measurements`);
+    expect(list.request.params.get('designId')).toBe('design-1');
+    list.flush([]);
+    http.expectOne(`${TEAM}/rig-tolerance`).flush({ ...DEFAULT_RIG_TOLERANCE, isDefault: true, updatedAt: null, updatedByName: null });
+    await fixture.componentInstance.readText('bad.csv', 'travel (mm),toe (rad)\n-25,0.0002\n0,0\n25,0.0002\n');
+    const errors = ['Line 1: the toe column "toe (rad)" is in a unit Rollwise does not read (deg, arcmin or mm at the rim).'];
+    http.expectOne(`${TEAM}/rig-measurements/preview`).flush(previewAnswer('bad.csv', 'travel (mm),toe (rad)\n-25,0.0002\n0,0\n25,0.0002\n'));
+    fixture.detectChanges();
+    // The shared reader already names the line while mapping; Store stays disabled.
+    expect(el.querySelector('.rw-rig-local-errors')!.textContent).toContain(errors[0]);
+    expect(button(el, 'Store measurement').disabled).toBe(true);
+    fixture.componentInstance.store();
+    http.expectNone(`${TEAM}/rig-measurements`);
+    http.verify();
+  });
+
+  it('shows a refusal of the upload itself (a binary file) with the server message', async () => {
+    const { fixture, el, http } = setUp();
+    answerStart(http);
+    await fixture.componentInstance.readText('rig.csv', 'PK\u0000\u0003');
+    http
+      .expectOne(`${TEAM}/rig-measurements/preview`)
+      .flush({ error: { code: 'not_text', message: '"rig.csv" is a binary file (it holds NUL bytes), not CSV or JSON text' } }, { status: 415, statusText: 'Unsupported Media Type' });
+    fixture.detectChanges();
+    expect(el.querySelector('.rw-rig-refused')!.textContent).toContain('binary file');
+    expect(el.querySelector('.rw-rig-mapping')).toBeNull();
+  });
+
+  it('keeps Store disabled when two quantities share a column', async () => {
+    const { fixture, el, http } = setUp();
+    answerStart(http);
+    const text = engineFile(0);
+    await fixture.componentInstance.readText('rig.csv', text);
+    http.expectOne(`${TEAM}/rig-measurements/preview`).flush(previewAnswer('rig.csv', text));
+    fixture.detectChanges();
+    const toe = el.querySelector<HTMLSelectElement>('select[name=toeColumn]')!;
+    toe.value = '0';
+    toe.dispatchEvent(new Event('change'));
+    fixture.detectChanges();
+    expect(el.textContent).toContain('Travel, toe and camber must be different columns.');
+    expect(button(el, 'Store measurement').disabled).toBe(true);
+  });
+
+  it('offers no upload without edit rights, and shows a list error', () => {
+    const { fixture, el, http } = setUp({ configurationId: 'config-1', canEdit: false });
+    http.expectOne((r) => r.url === `${TEAM}/rig-measurements`).flush({ error: { code: 'not_found', message: 'Configuration not found' } }, { status: 404, statusText: 'Not Found' });
+    http.expectOne(`${TEAM}/rig-tolerance`).flush({ ...DEFAULT_RIG_TOLERANCE, isDefault: true, updatedAt: null, updatedByName: null });
+    fixture.detectChanges();
+    expect(el.querySelector('input[type=file]')).toBeNull();
+    expect(el.textContent).toContain('could not be loaded: Configuration not found');
+  });
+});
