@@ -195,22 +195,22 @@ export class RigMeasurements {
     const where: SQL[] = [eq(rigMeasurements.teamId, teamId)];
     if (filter.configurationId) where.push(eq(rigMeasurements.configurationId, filter.configurationId));
     if (filter.designId) where.push(eq(rigMeasurements.designId, filter.designId));
-    return this.orm
-      .select(summaryColumns)
-      .from(rigMeasurements)
-      .innerJoin(axleDesigns, eq(axleDesigns.id, rigMeasurements.designId))
-      .leftJoin(users, eq(users.id, rigMeasurements.authorId))
+    return this.select()
       .where(and(...where))
       .orderBy(desc(rigMeasurements.createdAt), desc(rigMeasurements.id));
   }
 
-  private async summary(teamId: string, id: string) {
-    const [row] = await this.orm
+  /** Summary rows with the design's name and the author's. */
+  private select() {
+    return this.orm
       .select(summaryColumns)
       .from(rigMeasurements)
       .innerJoin(axleDesigns, eq(axleDesigns.id, rigMeasurements.designId))
-      .leftJoin(users, eq(users.id, rigMeasurements.authorId))
-      .where(and(eq(rigMeasurements.id, id), eq(rigMeasurements.teamId, teamId)));
+      .leftJoin(users, eq(users.id, rigMeasurements.authorId));
+  }
+
+  private async summary(teamId: string, id: string) {
+    const [row] = await this.select().where(and(eq(rigMeasurements.id, id), eq(rigMeasurements.teamId, teamId)));
     if (!row) throw notFound('Rig measurement');
     return row;
   }
