@@ -255,6 +255,13 @@ export class Configurations {
   ): Promise<ConfigurationView> {
     const current = await this.get(teamId, id);
     return this.orm.transaction(async (tx) => {
+      // The status this revision replaces, read under the row lock: a review decision may have landed since `current` was read.
+      const [locked] = await tx
+        .select({ status: configurations.status })
+        .from(configurations)
+        .where(and(eq(configurations.id, id), eq(configurations.revision, baseRevision)))
+        .for('update');
+      if (!locked) throw staleRevision(baseRevision, await this.get(teamId, id, tx));
       const refs = await this.resolveRefs(
         teamId,
         {
@@ -285,11 +292,11 @@ export class Configurations {
         subjectId: id,
         summary: `Configuration "${name}" revision ${row.revision}${change.message ? ` (${change.message})` : ''}`,
       });
-      if (current.status !== 'draft') {
+      if (locked.status !== 'draft') {
         await tx.insert(configurationTransitions).values({
           configurationId: id,
           revision: row.revision,
-          fromStatus: current.status,
+          fromStatus: locked.status,
           toStatus: 'draft',
           message: `New revision ${row.revision}`,
           actorId: authorId,
