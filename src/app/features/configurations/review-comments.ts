@@ -110,7 +110,7 @@ export class ReviewComments {
 
   protected readonly state = signal<ThreadsState>({ kind: 'loading' });
   protected readonly draft = signal('');
-  protected readonly replies = signal<Record<string, string>>({});
+  protected readonly replies = signal<Partial<Record<string, string>>>({});
   protected readonly busy = signal(false);
   protected readonly postError = signal<string | null>(null);
   protected readonly threadError = signal<string | null>(null);

@@ -1,0 +1,302 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting, TestRequest } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
+import { provideRouter } from '@angular/router';
+import { RouterTestingHarness } from '@angular/router/testing';
+import { computeBalance } from '../../../../shared/balance/api';
+import { exampleVehicles } from '../../../../shared/balance/examples';
+import { computeCornerSweep } from '../../../../shared/kinematics/api';
+import { exampleCorners } from '../../../../shared/kinematics/examples';
+import type { Caution } from '../../../../shared/intent/cautions';
+import type { AnalysisRequest, CornerAnalysis } from '../../workers/analysis-types';
+import { KinematicsClient } from '../../workers/kinematics-client';
+import { ConfigurationPage } from './configuration-page';
+import type { Configuration, ConfigurationResults } from './configurations-api';
+import { Answer, refuse, serve } from './spec-backend';
+
+const TEAM = '/api/teams/t-tal';
+const C = `${TEAM}/configurations/c1`;
+
+// Results as the server computes them: the same engines, called directly (trackProfile smooth-circuit: ±25 mm).
+const sweep = (corner: unknown) => computeCornerSweep({ corner, travel: { from: -25, to: 25, step: 1.25 } }).fit;
+const RESULTS: ConfigurationResults = {
+  balance: computeBalance({ vehicle: exampleVehicles.tur26Ember, frontCorner: exampleCorners.fsFrontWishbone, rearCorner: exampleCorners.fsRearWishbone }),
+  bumpSteer: { front: sweep(exampleCorners.fsFrontWishbone), rear: sweep(exampleCorners.fsRearWishbone), travelMm: [-25, 25] },
+};
+
+function config(over: Partial<Configuration> = {}): Configuration {
+  return {
+    id: 'c1',
+    name: 'Ember baseline',
+    status: 'draft',
+    revision: 2,
+    archived: false,
+    vehicle: { id: 'v-ember', name: 'TUR-26 Ember', revision: 1 },
+    front: { designId: 'd-f', name: 'Front baseline', revision: 1 },
+    rear: { designId: 'd-r', name: 'Rear baseline', revision: 3 },
+    trackProfile: 'smooth-circuit',
+    updatedAt: '2026-12-01T10:00:00.000Z',
+    updatedByName: 'Dana Quist',
+    createdAt: '2026-12-01T09:00:00.000Z',
+    ...over,
+  };
+}
+
+const BUMP_CAUTION: Caution = {
+  code: 'bump-toe-change',
+  level: 'warning',
+  message: 'Toe changes by 0.2 deg over a 10 mm single-wheel bump',
+  value: 0.2,
+  threshold: 0.15,
+  unit: 'deg',
+  basis: 'product default',
+} as Caution;
+
+/** The kinematics worker's answer for the cautions (the worker itself has its own specs). */
+class FakeEngine {
+  readonly requests: AnalysisRequest[] = [];
+  analyse(request: AnalysisRequest): Promise<CornerAnalysis> {
+    this.requests.push(request);
+    const list = request.cautions?.axle === 'rear' ? [BUMP_CAUTION] : [];
+    return Promise.resolve({ cautions: { ok: true, list, profile: {}, racksMm: [0], vehicleUsed: true, vehicleNote: null } } as unknown as CornerAnalysis);
+  }
+}
+
+function table(c: Configuration, permissions: string[], extra: Record<string, Answer> = {}): Record<string, Answer> {
+  return {
+    [`GET ${TEAM}`]: { id: 't-tal', name: 'Tallowmere University Racing', slug: 'tallowmere', roles: [], permissions },
+    [`GET ${C}`]: c,
+    [`GET ${C}/results`]: { revision: c.revision, refs: {}, engineVersion: '1.4.0', results: RESULTS },
+    [`GET ${TEAM}/vehicles/v-ember/revisions/1`]: { revision: 1, name: 'TUR-26 Ember', data: exampleVehicles.tur26Ember },
+    [`GET ${TEAM}/axle-designs/d-f/revisions/1`]: { revision: 1, name: 'Front baseline', corner: exampleCorners.fsFrontWishbone },
+    [`GET ${TEAM}/axle-designs/d-r/revisions/3`]: { revision: 3, name: 'Rear baseline', corner: exampleCorners.fsRearWishbone },
+    [`GET ${C}/history`]: [],
+    [`GET ${C}/revisions`]: [
+      { revision: 2, name: c.name, vehicleId: 'v-ember', vehicleRevision: 1, frontDesignId: 'd-f', frontDesignRevision: 1, rearDesignId: 'd-r', rearDesignRevision: 3, trackProfile: 'smooth-circuit', message: 'rear moved', authorName: 'Dana Quist', createdAt: '2026-12-01T10:00:00.000Z' },
+      { revision: 1, name: c.name, vehicleId: 'v-ember', vehicleRevision: 1, frontDesignId: 'd-f', frontDesignRevision: 1, rearDesignId: 'd-r', rearDesignRevision: 2, trackProfile: 'smooth-circuit', message: null, authorName: 'Dana Quist', createdAt: '2026-12-01T09:00:00.000Z' },
+    ],
+    [`GET ${C}/approvals`]: [],
+    [`GET ${TEAM}/configurations`]: [c],
+    [`GET ${TEAM}/vehicles/v-ember/axle-designs`]: [
+      { id: 'd-f', axle: 'front', name: 'Front baseline', revision: 1, status: 'draft', updatedAt: '' },
+      { id: 'd-r', axle: 'rear', name: 'Rear baseline', revision: 3, status: 'draft', updatedAt: '' },
+    ],
+    [`GET ${C}/comments`]: [],
+    ...extra,
+  };
+}
+
+describe('ConfigurationPage', () => {
+  let backend: HttpTestingController;
+  let engine: FakeEngine;
+
+  beforeEach(async () => {
+    engine = new FakeEngine();
+    TestBed.configureTestingModule({
+      providers: [provideRouter([{ path: 'teams/:teamId/configurations/:configurationId', component: ConfigurationPage }]), provideHttpClient(), provideHttpClientTesting()],
+    });
+    TestBed.overrideComponent(ConfigurationPage, { set: { providers: [{ provide: KinematicsClient, useValue: engine }] } });
+    await TestBed.compileComponents();
+    backend = TestBed.inject(HttpTestingController);
+  });
+  afterEach(() => backend.verify());
+
+  async function open(c: Configuration, permissions: string[], extra: Record<string, Answer> = {}) {
+    const harness = await RouterTestingHarness.create();
+    await harness.navigateByUrl('/teams/t-tal/configurations/c1', ConfigurationPage);
+    const answers = table(c, permissions, extra);
+    await serve(backend, answers);
+    harness.detectChanges();
+    return { harness, root: harness.routeNativeElement as HTMLElement, answers };
+  }
+
+  const buttons = (root: HTMLElement) => [...root.querySelectorAll('.rw-review button[data-action]')].map((b) => b.textContent!.trim());
+
+  it('shows what the configuration pins and the engines’ figures, with the profile’s cautions beside them', async () => {
+    const { root } = await open(config(), ['team:read']);
+    const inputs = root.querySelector('[data-testid="inputs"]')!.textContent!;
+    expect(inputs).toContain('TUR-26 Ember, revision 1');
+    expect(inputs).toContain('Rear baseline, revision 3');
+    expect(inputs).toContain('Smooth circuit');
+    const figures = [...root.querySelectorAll('[data-testid="key-figures"] tbody tr')].map((r) => [...r.children].map((x) => x.textContent!.trim()));
+    const row = (label: string) => figures.find((f) => f[0] === label)!;
+    // The figures are the engine's own numbers (computed directly above), rounded for the table.
+    expect(row('Roll steer ε, rear')[1]).toBe(RESULTS.balance.kinematicsLink.rear.used.rollSteerCoefficient.toFixed(4));
+    expect(row('Understeer-gradient change from roll steer')[1]).toBe(RESULTS.balance.understeerBudget.rollSteer.toFixed(3));
+    expect(row('Understeer gradient K')[1]).toBe(RESULTS.balance.understeerBudget.total.toFixed(3));
+    expect(row('Bump steer, front')[1]).toBe(RESULTS.bumpSteer.front.bumpSteerDegPerM.toFixed(3));
+    // Cautions measured for the configuration's own corners, profile and vehicle data.
+    expect(engine.requests.map((r) => [r.cautions?.axle, r.cautions?.trackProfile, r.travel.from, r.travel.to])).toEqual([
+      ['front', { id: 'smooth-circuit' }, -25, 25],
+      ['rear', { id: 'smooth-circuit' }, -25, 25],
+    ]);
+    expect(engine.requests[1]!.corner).toEqual(exampleCorners.fsRearWishbone);
+    const rear = root.querySelector('.rw-axle-cautions[data-axle="rear"]')!;
+    expect(rear.querySelector('[data-code="bump-toe-change"]')!.textContent).toContain('Warning');
+    expect(root.querySelector('rw-safety-caution')!.textContent).toContain('Verify on a kinematics rig');
+    // A viewer has no review steps and cannot comment.
+    expect(buttons(root)).toEqual([]);
+    expect(root.querySelector('rw-review-comments form')).toBeNull();
+  });
+
+  it('offers each role only its own review steps for the status', async () => {
+    const designer = ['team:read', 'vehicle:manage', 'review:submit', 'review:comment'];
+    expect(buttons((await open(config({ status: 'draft' }), designer)).root)).toEqual(['Submit for review']);
+  });
+
+  it.each([
+    ['in_review', ['team:read', 'vehicle:manage', 'review:submit'], ['Withdraw from review']],
+    ['in_review', ['team:read', 'review:decide'], ['Approve', 'Request changes']],
+    ['draft', ['team:read', 'review:decide'], []],
+    ['approved', ['team:read', 'review:decide'], ['Release to build']],
+    ['approved', ['team:read', 'review:submit'], []],
+    ['released', ['team:read', 'review:decide'], ['Mark validated']],
+    ['changes_requested', ['team:read', 'review:submit'], []],
+  ] as const)('status %s with %j offers %j', async (status, permissions, expected) => {
+    const answers = status === 'approved' || status === 'released' ? { [`GET ${C}/approvals`]: [] } : {};
+    expect(buttons((await open(config({ status }), [...permissions], answers)).root)).toEqual([...expected]);
+  });
+
+  it('a change request needs a message; it is sent with the revision looked at, and a refusal is shown', async () => {
+    const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide', 'review:comment']);
+    const press = (label: string) => [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === label)!.click();
+    press('Request changes');
+    harness.detectChanges();
+    expect(root.querySelector('.rw-review [role="alert"]')!.textContent).toContain('Say what should change');
+    backend.expectNone(`${C}/request-changes`);
+    const box = root.querySelector('textarea[name="stepMessage"]') as HTMLTextAreaElement;
+    box.value = 'Raise the rear toe link';
+    box.dispatchEvent(new Event('input'));
+    press('Request changes');
+    let body: unknown;
+    await serve(backend, {
+      [`POST ${C}/request-changes`]: (req: TestRequest) => {
+        body = req.request.body;
+        return config({ status: 'changes_requested' });
+      },
+      [`GET ${C}/history`]: [{ revision: 2, fromStatus: 'in_review', toStatus: 'changes_requested', message: 'Raise the rear toe link', actorName: 'Ravi Osei', createdAt: '2026-12-01T11:00:00.000Z' }],
+      [`GET ${C}/revisions`]: [],
+      [`GET ${C}/approvals`]: [],
+      [`GET ${TEAM}/configurations`]: [],
+      [`GET ${TEAM}/vehicles/v-ember/axle-designs`]: [],
+    });
+    harness.detectChanges();
+    expect(body).toEqual({ revision: 2, message: 'Raise the rear toe link' });
+    expect(root.querySelector('rw-status-chip')!.textContent).toContain('Changes requested');
+    expect(root.querySelector('.rw-history')!.textContent).toContain('In review → Changes requested');
+    expect(buttons(root)).toEqual([]);
+  });
+
+  it('shows the server’s own-work refusal of an approval', async () => {
+    const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide']);
+    [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === 'Approve')!.click();
+    await serve(backend, {
+      [`POST ${C}/approve`]: refuse(403, 'own_revision', 'You authored this configuration or a revision it uses; another reviewer must decide'),
+    });
+    harness.detectChanges();
+    expect(root.querySelector('.rw-review [role="alert"]')!.textContent).toContain('another reviewer must decide');
+    expect(root.querySelector('rw-status-chip')!.textContent).toContain('In review');
+  });
+
+  it('an approved configuration shows its frozen figures beside a recompute with the current engine', async () => {
+    const frozen = structuredClone(RESULTS) as ConfigurationResults & { balance: { understeerBudget: { total: number } } };
+    frozen.balance.understeerBudget.total += 0.05;
+    const { root } = await open(config({ status: 'approved' }), ['team:read'], {
+      [`GET ${C}/approvals`]: [{ id: 'a1', revision: 2, engineVersion: '0.9.0', message: 'good', approvedByName: 'Ravi Osei', approvedAt: '2026-12-01T12:00:00.000Z' }],
+      [`GET ${C}/approvals/a1`]: {
+        id: 'a1', revision: 2, engineVersion: '0.9.0', message: 'good', approvedByName: 'Ravi Osei', approvedAt: '2026-12-01T12:00:00.000Z',
+        inputs: {}, results: frozen,
+        recompute: { engineVersion: '1.4.0', differences: [{ path: 'balance.understeerBudget.total', a: frozen.balance.understeerBudget.total, b: RESULTS.balance.understeerBudget.total, change: -0.05 }] },
+      },
+    });
+    const section = root.querySelector('[data-testid="approval"]')!;
+    expect(section.textContent).toContain('approved by Ravi Osei');
+    expect(section.textContent).toContain('gives 1 different figure(s)');
+    const rows = [...section.querySelectorAll('[data-testid="frozen-figures"] tbody tr')];
+    const k = rows.find((r) => r.querySelector('th')!.textContent!.trim() === 'Understeer gradient K')!;
+    const cells = [...k.querySelectorAll('td')].map((td) => td.textContent!.trim());
+    expect(cells[0]).toBe(frozen.balance.understeerBudget.total.toFixed(3));
+    expect(cells[1]).toBe(RESULTS.balance.understeerBudget.total.toFixed(3));
+    expect(cells[2]).toContain('-0.05');
+    expect(cells[2]).toContain('(differs)');
+    const same = rows.find((r) => r.querySelector('th')!.textContent!.trim() === 'Roll steer ε, rear')!;
+    expect(same.querySelectorAll('td')[2]!.textContent!.trim()).toBe('none');
+  });
+
+  it('“Comment on the budget” points the new comment at the budget and posts it in the server’s reference format', async () => {
+    const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide', 'review:comment']);
+    [...root.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Comment on the budget')!.click();
+    harness.detectChanges();
+    await new Promise((r) => setTimeout(r, 0));
+    const select = root.querySelector('rw-review-comments select[name="resultRef"]') as HTMLSelectElement;
+    expect(select.value).toBe('budget');
+    expect(document.activeElement).toBe(root.querySelector('rw-review-comments textarea[name="body"]'));
+    // The rear caution is one of the things a comment can point at.
+    expect([...select.options].map((o) => o.value)).toContain('caution:bump-toe-change');
+    const box = root.querySelector('rw-review-comments textarea[name="body"]') as HTMLTextAreaElement;
+    box.value = 'Rear roll-steer term looks small';
+    box.dispatchEvent(new Event('input'));
+    (root.querySelector('rw-review-comments form button[type="submit"]') as HTMLButtonElement).click();
+    let posted: unknown;
+    await serve(backend, {
+      [`POST ${C}/comments`]: (req: TestRequest) => {
+        posted = req.request.body;
+        return { id: 'k1' };
+      },
+      [`GET ${C}/comments`]: [
+        { id: 'k1', revision: 2, parentId: null, resultRef: 'budget', body: 'Rear roll-steer term looks small', authorName: 'Ravi Osei', createdAt: '2026-12-01T12:00:00.000Z', resolvedAt: null, resolved: false, replies: [] },
+      ],
+    });
+    harness.detectChanges();
+    expect(posted).toEqual({ body: 'Rear roll-steer term looks small', resultRef: 'budget' });
+    const thread = root.querySelector('.rw-thread')!;
+    expect(thread.textContent).toContain('On: Understeer budget');
+    expect(thread.textContent).toContain('Open');
+    // Resolve the thread.
+    [...thread.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Resolve thread')!.click();
+    await serve(backend, {
+      [`POST ${C}/comments/k1/resolve`]: { id: 'k1', resolved: true },
+      [`GET ${C}/comments`]: [
+        { id: 'k1', revision: 2, parentId: null, resultRef: 'budget', body: 'Rear roll-steer term looks small', authorName: 'Ravi Osei', createdAt: '2026-12-01T12:00:00.000Z', resolvedAt: '2026-12-01T12:05:00.000Z', resolved: true, replies: [] },
+      ],
+    });
+    harness.detectChanges();
+    expect(root.querySelector('.rw-thread .rw-thread-state')!.textContent).toBe('Resolved');
+    expect([...root.querySelectorAll('.rw-thread button')].map((b) => b.textContent!.trim())).toContain('Reopen thread');
+  });
+
+  it('compares an older revision with the current one: changed inputs and results side by side', async () => {
+    const { harness, root } = await open(config(), ['team:read']);
+    [...root.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.getAttribute('aria-label') === 'Compare revision 1 with the current one')!.click();
+    let url = '';
+    await serve(backend, {
+      [`GET ${TEAM}/configurations/compare`]: (req: TestRequest) => {
+        url = req.request.urlWithParams;
+        return {
+          engineVersion: '1.4.0',
+          a: { configurationId: 'c1', revision: 1, refs: {} },
+          b: { configurationId: 'c1', revision: 2, refs: {} },
+          inputs: [{ path: 'rearCorner.points.tieRodInner[2]', a: 180, b: 186, change: 6 }],
+          results: [{ path: 'balance.understeerBudget.rollSteer', a: 0.1, b: 0.16, change: 0.06 }],
+        };
+      },
+    });
+    harness.detectChanges();
+    expect(url).toBe(`${TEAM}/configurations/compare?a=c1&b=c1&aRevision=1`);
+    const grid = root.querySelector('[data-testid="comparison"]')!;
+    const [inputs, results] = [...grid.querySelectorAll('table')];
+    expect([...inputs!.querySelectorAll('tbody td, tbody th')].map((x) => x.textContent!.trim())).toEqual(['rearCorner.points.tieRodInner[2]', '180', '186', '6']);
+    expect(results!.querySelector('tbody th')!.textContent!.trim()).toBe('Understeer-gradient change from roll steer');
+  });
+
+  it('says why the configuration could not be loaded', async () => {
+    const harness = await RouterTestingHarness.create();
+    await harness.navigateByUrl('/teams/t-tal/configurations/c1', ConfigurationPage);
+    await serve(backend, {
+      [`GET ${TEAM}`]: { id: 't-tal', name: 'T', slug: 'tallowmere', roles: [], permissions: ['team:read'] },
+      [`GET ${C}`]: refuse(404, 'not_found', 'Configuration not found'),
+    });
+    harness.detectChanges();
+    expect((harness.routeNativeElement as HTMLElement).querySelector('[role="alert"]')!.textContent).toContain('Configuration not found');
+  });
+});
