@@ -227,3 +227,17 @@ describe('permissions, other teams and the tolerance', () => {
     expectError(await viewer.get(`${base()}/rig-measurements/not-an-id`), 404, 'not_found');
   });
 });
+
+describe('POST /api/compute/rig-compare', () => {
+  it('compares points sent directly (engine points: RMS ~0, an identity) and refuses a bad body with the field named', async () => {
+    const s = sweepCorner(exampleCorners.fsFrontWishbone, { travel: { from: -20, to: 20, step: 10 } });
+    const points = s.rows.map((r) => ({ travelMm: r.travelMm, toeDeg: r.toeDeg, camberDeg: r.camberDeg }));
+    const ok = await viewer.post('/api/compute/rig-compare').send({ corner: exampleCorners.fsFrontWishbone, points, basis: 'absolute' });
+    expect(ok.status, JSON.stringify(ok.body)).toBe(200);
+    expect(ok.body.result.toe.rmsDeg).toBeLessThan(1e-9);
+    expect(ok.body.result.points[0].line).toBe(1);
+    const bad = await viewer.post('/api/compute/rig-compare').send({ corner: exampleCorners.fsFrontWishbone, points: points.slice(0, 2) });
+    expectError(bad, 400, 'invalid_input');
+    expect(bad.body.error.details.fields[0].path).toBe('points');
+  });
+});

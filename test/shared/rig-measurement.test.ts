@@ -201,6 +201,18 @@ describe('rig comparison with the corner sweep', () => {
     expect((err as SolveError).details).toMatchObject({ measuredTravelMm: 900, line: 5 });
   });
 
+  it('a right wheel on the rig is compared with the mirrored corner: same toe and camber signs (domain.md: toe_R = toe_mirror)', () => {
+    const pts = mustRead(engineFile(), FILE_MAPPING);
+    const left = compareRigMeasurement(corner, pts, { basis: 'absolute', side: 'left' });
+    const right = compareRigMeasurement(corner, pts, { basis: 'absolute', side: 'right' });
+    expect(right.side).toBe('right');
+    expect(right.toe.rmsDeg).toBeLessThan(1e-9);
+    for (let i = 0; i < left.predicted.length; i++) {
+      expect(right.predicted[i]!.toeDeg).toBeCloseTo(left.predicted[i]!.toeDeg, 9);
+      expect(right.predicted[i]!.camberDeg).toBeCloseTo(left.predicted[i]!.camberDeg, 9);
+    }
+  });
+
   it('a change basis needs travels spanning 0, and the rack must be inside the stroke', () => {
     const pts = mustRead('travel,toe\n5,0\n10,0\n15,0\n', { ...MM_DEG, camberColumn: null });
     expect(() => compareRigMeasurement(corner, pts, { basis: 'change' })).toThrow(InputError);
