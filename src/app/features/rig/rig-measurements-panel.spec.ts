@@ -168,6 +168,47 @@ describe('RigMeasurementsPanel', () => {
     expect(button(el, 'Store measurement').disabled).toBe(true);
   });
 
+  it('deletes a stored measurement after confirmation and lists again', () => {
+    const { fixture, el, http } = setUp();
+    answerStart(http, [summary('m-1')]);
+    fixture.detectChanges();
+    expect(el.querySelectorAll('.rw-rig-list tbody tr').length).toBe(1);
+    const confirmSpy = vi.spyOn(globalThis, 'confirm').mockReturnValue(true);
+    button(el, 'Delete').click();
+    expect(confirmSpy).toHaveBeenCalledOnce();
+    const del = http.expectOne(`${TEAM}/rig-measurements/m-1`);
+    expect(del.request.method).toBe('DELETE');
+    del.flush(null, { status: 204, statusText: 'No Content' });
+    http.expectOne((r) => r.url === `${TEAM}/rig-measurements`).flush([]);
+    fixture.detectChanges();
+    expect(el.querySelector('.rw-rig-empty')).not.toBeNull();
+    confirmSpy.mockRestore();
+    http.verify();
+  });
+
+  it('lets an owner set the team tolerance, refusing a non-positive value before sending', () => {
+    const { fixture, el, http } = setUp({ configurationId: 'config-1', canSetTolerance: true });
+    answerStart(http);
+    fixture.detectChanges();
+    const toe = el.querySelector<HTMLInputElement>('input[name=toeTol]')!;
+    expect(toe.value).toBe('0.1');
+    toe.value = '0';
+    toe.dispatchEvent(new Event('input'));
+    fixture.detectChanges();
+    expect(button(el, 'Save tolerance').disabled).toBe(true);
+    toe.value = '0,15';
+    toe.dispatchEvent(new Event('input'));
+    fixture.detectChanges();
+    button(el, 'Save tolerance').click();
+    const put = http.expectOne(`${TEAM}/rig-tolerance`);
+    expect(put.request.method).toBe('PUT');
+    expect(put.request.body).toEqual({ toeDeg: 0.15, camberDeg: 0.25 });
+    put.flush({ toeDeg: 0.15, camberDeg: 0.25, isDefault: false, updatedAt: '2026-12-01T00:00:00Z', updatedByName: 'Ana Ferreira' });
+    fixture.detectChanges();
+    expect(el.textContent).toContain('toe 0.15°, camber 0.25°');
+    http.verify();
+  });
+
   it('offers no upload without edit rights, and shows a list error', () => {
     const { fixture, el, http } = setUp({ configurationId: 'config-1', canEdit: false });
     http.expectOne((r) => r.url === `${TEAM}/rig-measurements`).flush({ error: { code: 'not_found', message: 'Configuration not found' } }, { status: 404, statusText: 'Not Found' });

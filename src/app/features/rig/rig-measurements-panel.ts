@@ -375,7 +375,7 @@ export class RigMeasurementsPanel {
   }
 
   protected remove(row: RigMeasurementSummary): void {
-    if (!confirm(`Delete the rig measurement "${row.name}"? Its points are removed for good.`)) return;
+    if (!globalThis.confirm(`Delete the rig measurement "${row.name}"? Its points are removed for good.`)) return;
     this.actionError.set(null);
     this.requests.add(
       this.api.remove(this.teamId(), row.id).subscribe({
