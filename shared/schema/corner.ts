@@ -4,17 +4,56 @@
  * forward, y left, z up, origin on the ground under the front axle centre);
  * see docs/kinematics.md for every key.
  *
- * The zod schema checks shapes; `cornerSemanticIssues` (run by the schema)
- * checks geometry that would leave a link, arm or axis undefined, and every
- * message names the point involved.
+ * The zod schema checks shapes (every object is strict: an unknown key, such
+ * as a misspelt point name, is an error naming the key and its path, never
+ * silently dropped); `cornerSemanticIssues` (run by the schema) checks
+ * geometry that would leave a link, arm or axis undefined, and every message
+ * names the point involved.
  */
 import { z } from 'zod';
 import type { FieldIssue } from '../errors.js';
-import { InputError } from '../errors.js';
+import { InputError, formatPath } from '../errors.js';
 
 export const CORNER_FORMAT_VERSION = 1;
 
 export type Vec3 = [number, number, number];
+
+/** Edit distance (insertions, deletions, substitutions), case-insensitive, for "did you mean". */
+function editDistance(a: string, b: string): number {
+  const x = a.toLowerCase();
+  const y = b.toLowerCase();
+  let prev = Array.from({ length: y.length + 1 }, (_, j) => j);
+  for (let i = 1; i <= x.length; i++) {
+    const row = [i];
+    for (let j = 1; j <= y.length; j++) row.push(Math.min(prev[j]! + 1, row[j - 1]! + 1, prev[j - 1]! + (x[i - 1] === y[j - 1] ? 0 : 1)));
+    prev = row;
+  }
+  return prev[y.length]!;
+}
+
+/** The message of an unknown-key issue: each key with its full path, the nearest known key, and the keys accepted there. */
+export function unknownKeysMessage(keys: readonly string[], path: ReadonlyArray<PropertyKey>, known: readonly string[]): string {
+  const at = (k: string) => formatPath([...path, k]);
+  const one = (k: string) => {
+    let best = '';
+    let bestD = Infinity;
+    for (const n of known) {
+      const d = editDistance(k, n);
+      if (d < bestD) (best = n), (bestD = d);
+    }
+    return `${at(k)}${best && bestD <= Math.max(2, Math.floor(k.length / 4)) ? ` (did you mean ${at(best)}?)` : ''}`;
+  };
+  const where = path.length ? formatPath(path) : 'the corner';
+  return `unknown key${keys.length > 1 ? 's' : ''} ${keys.map(one).join(', ')}: not part of the corner format (${where} takes ${known.join(', ')})`;
+}
+
+/** z.strictObject whose unknown-key issue names each key, its path and the accepted keys. */
+function strictObject<T extends z.ZodRawShape>(shape: T) {
+  const known = Object.keys(shape);
+  return z.strictObject(shape, {
+    error: (iss) => (iss.code === 'unrecognized_keys' ? unknownKeysMessage(iss.keys, iss.path ?? [], known) : undefined),
+  });
+}
 
 const finite = z.number().finite();
 export const vec3Schema = z.tuple([finite, finite, finite]);
@@ -23,7 +62,7 @@ export const vec3Schema = z.tuple([finite, finite, finite]);
 export const attachmentSchema = z.enum(['lowerArm', 'upperArm', 'upright']);
 export type Attachment = z.infer<typeof attachmentSchema>;
 
-const rackSteeringSchema = z.object({
+const rackSteeringSchema = strictObject({
   kind: z.literal('rack'),
   /** Direction of rack travel in the vehicle frame (normalised on use). */
   rackAxis: vec3Schema.default([0, 1, 0]),
@@ -37,7 +76,7 @@ const rackSteeringSchema = z.object({
  * tie-rod inner point, positive for rotation by the right-hand rule about
  * `armAxisDirection` on the left side.
  */
-const armSteeringSchema = z.object({
+const armSteeringSchema = strictObject({
   kind: z.literal('arm'),
   armAxisPoint: vec3Schema,
   armAxisDirection: vec3Schema,
@@ -48,7 +87,7 @@ const armSteeringSchema = z.object({
 export const steeringSchema = z.discriminatedUnion('kind', [rackSteeringSchema, armSteeringSchema]);
 export type Steering = z.infer<typeof steeringSchema>;
 
-const directSpringSchema = z.object({
+const directSpringSchema = strictObject({
   kind: z.literal('direct'),
   springBody: vec3Schema,
   springOuter: vec3Schema,
@@ -56,7 +95,7 @@ const directSpringSchema = z.object({
 });
 
 /** Pushrod or pullrod to a body-mounted rocker; the spring runs rocker → body. */
-const rockerSpringSchema = z.object({
+const rockerSpringSchema = strictObject({
   kind: z.literal('rocker'),
   rockerPivot: vec3Schema,
   rockerAxis: vec3Schema,
@@ -71,7 +110,7 @@ export const springSchema = z.discriminatedUnion('kind', [directSpringSchema, ro
 export type Spring = z.infer<typeof springSchema>;
 
 /** Anti-roll bar: a drop link from the suspension to the bar's lever end. */
-export const antiRollBarSchema = z.object({
+export const antiRollBarSchema = strictObject({
   dropLinkOuter: vec3Schema,
   dropLinkOuterOn: attachmentSchema,
   /** The drop link's inner end, on the end of the bar's lever. */
@@ -81,7 +120,7 @@ export const antiRollBarSchema = z.object({
 });
 export type AntiRollBar = z.infer<typeof antiRollBarSchema>;
 
-const wheelSchema = z.object({
+const wheelSchema = strictObject({
   /** Loaded radius, mm. */
   radius: finite.refine((r) => r > 0, { message: 'wheel.radius must be positive (loaded radius in mm)' }),
 });
@@ -101,7 +140,7 @@ const wheelPoints = { wheelCentre: vec3Schema, spindle: vec3Schema };
 const tieRodPoints = { tieRodInner: vec3Schema, tieRodOuter: vec3Schema };
 const lowerArmPoints = { lowerFront: vec3Schema, lowerRear: vec3Schema, lowerOuter: vec3Schema };
 
-export const doubleWishbonePointsSchema = z.object({
+export const doubleWishbonePointsSchema = strictObject({
   ...wheelPoints,
   ...tieRodPoints,
   ...lowerArmPoints,
@@ -110,7 +149,7 @@ export const doubleWishbonePointsSchema = z.object({
   upperOuter: vec3Schema,
 });
 
-export const strutPointsSchema = z.object({
+export const strutPointsSchema = strictObject({
   ...wheelPoints,
   ...tieRodPoints,
   ...lowerArmPoints,
@@ -120,7 +159,7 @@ export const strutPointsSchema = z.object({
   strutLower: vec3Schema,
 });
 
-export const fiveLinkPointsSchema = z.object({
+export const fiveLinkPointsSchema = strictObject({
   ...wheelPoints,
   link1Inner: vec3Schema,
   link1Outer: vec3Schema,
@@ -134,9 +173,9 @@ export const fiveLinkPointsSchema = z.object({
   link5Outer: vec3Schema,
 });
 
-const doubleWishboneSchema = z.object({ ...common, type: z.literal('double-wishbone'), points: doubleWishbonePointsSchema });
-const strutSchema = z.object({ ...common, type: z.literal('strut'), points: strutPointsSchema });
-const fiveLinkSchema = z.object({
+const doubleWishboneSchema = strictObject({ ...common, type: z.literal('double-wishbone'), points: doubleWishbonePointsSchema });
+const strutSchema = strictObject({ ...common, type: z.literal('strut'), points: strutPointsSchema });
+const fiveLinkSchema = strictObject({
   ...common,
   type: z.literal('five-link'),
   points: fiveLinkPointsSchema,
@@ -251,6 +290,8 @@ export function cornerSemanticIssues(corner: z.infer<typeof cornerShapeSchema>):
 
   let inner: string[];
   let uprightPts: string[];
+  /** Body-point / upright-point pairs that are one link's own ends (the link and arm rules report those). */
+  let ownEnds: Array<[string, string]>;
   if (corner.type === 'double-wishbone') {
     arm('lowerFront', 'lowerRear', 'lowerOuter', 'lower arm');
     arm('upperFront', 'upperRear', 'upperOuter', 'upper arm');
@@ -258,22 +299,26 @@ export function cornerSemanticIssues(corner: z.infer<typeof cornerShapeSchema>):
     link('lowerOuter', 'upperOuter', 'kingpin (lower to upper ball joint)');
     inner = ['lowerFront', 'lowerRear', 'upperFront', 'upperRear', 'tieRodInner'];
     uprightPts = ['lowerOuter', 'upperOuter', 'tieRodOuter'];
+    ownEnds = [['lowerFront', 'lowerOuter'], ['lowerRear', 'lowerOuter'], ['upperFront', 'upperOuter'], ['upperRear', 'upperOuter'], ['tieRodInner', 'tieRodOuter']];
   } else if (corner.type === 'strut') {
     arm('lowerFront', 'lowerRear', 'lowerOuter', 'lower arm');
     link('tieRodInner', 'tieRodOuter', 'tie rod');
     link('strutLower', 'strutTop', 'strut axis');
     inner = ['lowerFront', 'lowerRear', 'strutTop', 'tieRodInner'];
     uprightPts = ['lowerOuter', 'strutLower', 'tieRodOuter'];
+    ownEnds = [['lowerFront', 'lowerOuter'], ['lowerRear', 'lowerOuter'], ['strutTop', 'strutLower'], ['tieRodInner', 'tieRodOuter']];
     if (norm(sub(pts['strutTop']!, pts['strutLower']!)) >= tol && distanceToLine(pts['lowerOuter']!, pts['strutLower']!, pts['strutTop']!) < tol) {
       add('points.lowerOuter', 'points.lowerOuter lies on the strut axis (strutLower–strutTop): the upright cannot be located');
     }
   } else {
     inner = [];
     uprightPts = [];
+    ownEnds = [];
     for (let i = 1; i <= 5; i++) {
       link(`link${i}Inner`, `link${i}Outer`, `link ${i}`);
       inner.push(`link${i}Inner`);
       uprightPts.push(`link${i}Outer`);
+      ownEnds.push([`link${i}Inner`, `link${i}Outer`]);
     }
     for (let i = 1; i <= 5; i++) {
       for (let j = i + 1; j <= 5; j++) {
@@ -289,6 +334,17 @@ export function cornerSemanticIssues(corner: z.infer<typeof cornerShapeSchema>):
     const [a, b, c] = uprightPts.map((n) => pts[n]!) as [Vec3, Vec3, Vec3];
     if (norm(sub(b, a)) >= tol && distanceToLine(c, a, b) < tol) {
       add(`points.${uprightPts[2]}`, `points.${uprightPts[2]} is collinear with points.${uprightPts[0]} and points.${uprightPts[1]}: the upright's rotation about that line is undefined`);
+    }
+  }
+
+  // No body-side point on an upright point (e.g. lowerFront on the spindle): a body mount cannot sit on the
+  // upright. A link's own two ends are left to the link and arm rules above.
+  for (const b of inner) {
+    for (const u of ['wheelCentre', 'spindle', ...uprightPts]) {
+      if (ownEnds.some(([i, o]) => i === b && o === u)) continue;
+      if (norm(sub(pts[b]!, pts[u]!)) < tol) {
+        add(`points.${b}`, `points.${b} ${fmt(pts[b]!)} coincides with points.${u} ${fmt(pts[u]!)}: a body-side point cannot sit on an upright point (they must be at least ${tol} mm apart)`);
+      }
     }
   }
 

@@ -48,6 +48,11 @@ const cases: Array<[string, () => any, Mut, string, string]> = [
   ['bar axis of zero length', dw, (c) => (c.antiRollBar.barAxisDirection = [0, 0, 0]), 'antiRollBar.barAxisDirection', 'zero length'],
   ['drop link on the bar axis', dw, (c) => (c.antiRollBar.dropLinkInner = [60, 350, 220]), 'antiRollBar.dropLinkInner', 'bar axis'],
   ['drop link on an upper arm a strut lacks', strut, (c) => (c.antiRollBar.dropLinkOuterOn = 'upperArm'), 'antiRollBar.dropLinkOuterOn', 'no upper arm'],
+  // A body-side point on an upright point (other than a link's own two ends, covered above).
+  ['lower front pivot on the spindle point', dw, (c) => (c.points.lowerFront = [...c.points.spindle]), 'points.lowerFront', 'points.spindle'],
+  ['tie-rod inner point on the lower ball joint', dw, (c) => (c.points.tieRodInner = [...c.points.lowerOuter]), 'points.tieRodInner', 'points.lowerOuter'],
+  ['strut top mount on the tie-rod outer point', strut, (c) => (c.points.strutTop = [...c.points.tieRodOuter]), 'points.strutTop', 'points.tieRodOuter'],
+  ['five-link inner point on another link’s outer point', five, (c) => (c.points.link1Inner = [...c.points.link2Outer]), 'points.link1Inner', 'points.link2Outer'],
 ];
 
 describe('corner validation names the point', () => {
