@@ -13,7 +13,7 @@ import { HttpError, validate } from '../http/errors.js';
 import { singleTextUpload, uploadedText } from '../http/upload.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
 import { AXLES } from '../db/schema.js';
-import { rigMappingSchema } from '../../shared/io/rig-measurement.js';
+import { rigMappingSchema } from '../../shared/io/rig-mapping-schema.js';
 import { RIG_BASES, rigToleranceSchema } from '../../shared/intent/rig-compare.js';
 import type { RigMeasurements } from '../services/rig-measurements.js';
 import { idParam } from './vehicles.js';

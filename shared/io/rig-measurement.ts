@@ -12,7 +12,6 @@
  * tab; decimal commas; a byte-order mark; `#` comment lines).
  */
 import Papa from 'papaparse';
-import { z } from 'zod';
 import { detectDelimiter, parseDecimal } from './hardpoints.js';
 
 /** Limits of one rig file: bytes (the upload limit of the API) and data rows. */
@@ -47,32 +46,28 @@ const MM_PER_IN = 25.4;
 const DEG_PER_ARCMIN = 1 / 60;
 const RAD = Math.PI / 180;
 
-/** Which column holds what (0-based column indexes of the file), units and signs. */
-export const rigMappingSchema = z
-  .strictObject({
-    /** The first non-comment line names the columns (else every line is data). */
-    hasHeader: z.boolean(),
-    travelColumn: z.number().int().min(0).max(63),
-    toeColumn: z.number().int().min(0).max(63),
-    /** Null or absent: the file has no camber. */
-    camberColumn: z.number().int().min(0).max(63).nullable().optional(),
-    travelUnit: z.enum(TRAVEL_UNITS),
-    toeUnit: z.enum(TOE_UNITS),
-    camberUnit: z.enum(CAMBER_UNITS).optional(),
-    /** Reference diameter for toe given as mm at the rim (the distance between the measuring points across the wheel). */
-    rimDiameterMm: z.number().finite().min(100).max(2000).optional(),
-    travelSign: z.enum(TRAVEL_SIGNS),
-    toeSign: z.enum(TOE_SIGNS),
-    camberSign: z.enum(CAMBER_SIGNS).optional(),
-  })
-  .superRefine((m, ctx) => {
-    const cols = [m.travelColumn, m.toeColumn, ...(m.camberColumn != null ? [m.camberColumn] : [])];
-    if (new Set(cols).size !== cols.length) ctx.addIssue({ code: 'custom', path: ['toeColumn'], message: 'travel, toe and camber must be different columns' });
-    if (m.toeUnit === 'mm-at-rim' && m.rimDiameterMm === undefined) {
-      ctx.addIssue({ code: 'custom', path: ['rimDiameterMm'], message: 'toe in mm at the rim needs the reference diameter in mm' });
-    }
-  });
-export type RigMapping = z.infer<typeof rigMappingSchema>;
+/**
+ * Which column holds what (0-based column indexes of the file), units and
+ * signs. Checked at the API door by `rigMappingSchema`
+ * (shared/io/rig-mapping-schema.ts, kept apart so the app can read files
+ * without loading zod).
+ */
+export interface RigMapping {
+  /** The first non-comment line names the columns (else every line is data). */
+  hasHeader: boolean;
+  travelColumn: number;
+  toeColumn: number;
+  /** Null or absent: the file has no camber. */
+  camberColumn?: number | null | undefined;
+  travelUnit: TravelUnit;
+  toeUnit: ToeUnit;
+  camberUnit?: CamberUnit | undefined;
+  /** Reference diameter for toe given as mm at the rim (the distance between the measuring points across the wheel). */
+  rimDiameterMm?: number | undefined;
+  travelSign: (typeof TRAVEL_SIGNS)[number];
+  toeSign: (typeof TOE_SIGNS)[number];
+  camberSign?: (typeof CAMBER_SIGNS)[number] | undefined;
+}
 
 /** One measured point in Rollwise's conventions, with the file line it came from. */
 export interface RigPoint {

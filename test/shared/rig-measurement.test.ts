@@ -113,7 +113,7 @@ describe('rig CSV: preview and mapping', () => {
 
   it('refuses the same travel on every row and a mapping with the same column twice', async () => {
     expect(readRigCsv('t,toe\n5,0\n5,0.1\n5,0.2\n', { ...MM_DEG, camberColumn: null })).toMatchObject({ ok: false, errors: [expect.stringMatching(/same travel/)] });
-    const { rigMappingSchema } = await import('../../shared/io/rig-measurement.js');
+    const { rigMappingSchema } = await import('../../shared/io/rig-mapping-schema.js');
     expect(rigMappingSchema.safeParse({ ...MM_DEG, toeColumn: 0 }).success).toBe(false);
     expect(rigMappingSchema.safeParse({ ...MM_DEG, toeUnit: 'mm-at-rim' }).success).toBe(false);
     expect(rigMappingSchema.safeParse(MM_DEG).success).toBe(true);
