@@ -39,11 +39,14 @@ describe('a vehicle with no valid lateral-acceleration range', () => {
     expect(['front', 'rear']).toContain(e.details['axle']);
   });
 
-  it('a degenerate corner (lower front pivot on the spindle point) linked into the vehicle is refused the same way', () => {
+  it('a degenerate corner (lower front pivot on the spindle point) linked into the vehicle is refused at the door, naming both points', () => {
     const front = structuredClone(exampleCorners.fsFrontWishbone);
     if (front.type !== 'double-wishbone') throw new Error('example changed');
     front.points.lowerFront = [...front.points.spindle];
-    expect(() => computeBalance({ vehicle: exampleVehicles.brackenfieldB5, frontCorner: front, rearCorner: exampleCorners.fsRearWishbone })).toThrow(SolveError);
+    // The corner schema refuses a body point on an upright point (issue 3 validation), before any solve.
+    const run = () => computeBalance({ vehicle: exampleVehicles.brackenfieldB5, frontCorner: front, rearCorner: exampleCorners.fsRearWishbone });
+    expect(run).toThrow(/^Invalid balance request: frontCorner\.points\.lowerFront: .*coincides with points\.spindle/);
+    expect(run).not.toThrow(SolveError);
   });
 
   it('plausible roll-centre heights still evaluate, every number finite', () => {
