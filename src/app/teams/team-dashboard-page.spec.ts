@@ -52,6 +52,14 @@ describe('TeamDashboardPage', () => {
     expect(root.querySelector('[aria-label^="Rename"]')).toBeNull();
   });
 
+  it('links every member to the team’s configurations and their review', async () => {
+    const { fixture, root } = await render(team(['viewer'], ['team:read']));
+    backend.expectOne('/api/teams/t-tal/vehicles').flush(VEHICLES);
+    await fixture.whenStable();
+    const link = [...root.querySelectorAll('a')].find((a) => a.textContent?.trim() === 'Configurations and review');
+    expect(link?.getAttribute('href')).toBe('/teams/t-tal/configurations');
+  });
+
   it('gives an engineer the new-vehicle, rename and archive commands', async () => {
     const { fixture, root } = await render(
       team(['engineer'], ['team:read', 'vehicle:manage', 'vehicle:edit', 'design:propose']),

@@ -23,13 +23,13 @@ type ThreadsState = { kind: 'loading' } | { kind: 'error'; message: string } | {
     @if (canComment()) {
       <form class="rw-comment-form" (submit)="$event.preventDefault(); post()" aria-label="New comment">
         <label><span>Points at</span>
-          <select name="resultRef" (change)="target.set(value($event))">
+          <select aria-label="Points at" name="resultRef" (change)="target.set(value($event))">
             <option value="" [selected]="target() === ''">The configuration as a whole</option>
             @for (o of refOptions(); track o.ref) { <option [value]="o.ref" [selected]="target() === o.ref">{{ o.label }}</option> }
           </select>
         </label>
         <label><span>Comment</span>
-          <textarea #commentBox name="body" rows="3" maxlength="4000" [value]="draft()" (input)="draft.set(value($event))"></textarea>
+          <textarea aria-label="Comment" #commentBox name="body" rows="3" maxlength="4000" [value]="draft()" (input)="draft.set(value($event))"></textarea>
         </label>
         @if (postError(); as m) { <p class="rw-form-error" role="alert">{{ m }}</p> }
         <div class="rw-form-actions"><button mat-flat-button type="submit" [disabled]="busy()">Post comment</button></div>
@@ -67,7 +67,7 @@ type ThreadsState = { kind: 'loading' } | { kind: 'error'; message: string } | {
                     @if (canComment()) {
                       <form class="rw-reply-form" (submit)="$event.preventDefault(); reply(t)" [attr.aria-label]="'Reply to ' + (t.authorName ?? 'this comment')">
                         <label><span>Reply</span>
-                          <textarea name="reply" rows="2" maxlength="4000" [value]="replies()[t.id] ?? ''" (input)="setReply(t.id, value($event))"></textarea>
+                          <textarea aria-label="Reply" name="reply" rows="2" maxlength="4000" [value]="replies()[t.id] ?? ''" (input)="setReply(t.id, value($event))"></textarea>
                         </label>
                         <div class="rw-form-actions">
                           <button mat-stroked-button type="submit" [disabled]="busy()">Reply</button>

@@ -7,7 +7,7 @@ import { STATUS_WORDS } from './review-words';
 @Component({
   selector: 'rw-status-chip',
   imports: [MatIcon],
-  template: `<span class="rw-status" [attr.data-status]="status()"><mat-icon aria-hidden="true">{{ words().icon }}</mat-icon>{{ words().label }}</span>`,
+  template: `<span class="rw-status" [attr.data-status]="status()"><mat-icon aria-hidden="true">{{ words().icon }}</mat-icon><span class="rw-status-label">{{ words().label }}</span></span>`,
   styles: `
     .rw-status {
       display: inline-flex; align-items: center; gap: 0.25rem; padding: 0.1rem 0.6rem 0.1rem 0.35rem;

@@ -1,0 +1,190 @@
+/**
+ * Browser test of configurations under review (issue 7, "How it is
+ * checked"): the demo designer makes a configuration of TUR-26 Ember and
+ * submits it; the reviewer, in another browser context, comments on the
+ * understeer budget and requests changes; the designer revises it (the rear
+ * design with the toe link raised) and submits again; the reviewer approves
+ * and releases it, and sees the approval snapshot beside its recompute; the
+ * team owner finds the review mails on the development mail page. Every page
+ * ends without console errors or requests leaving 127.0.0.1, and passes the
+ * harness's accessibility check. Needs `npx ng build` first.
+ */
+import type { Locator, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, startE2eApp } from '../support/e2e.js';
+
+type App = Awaited<ReturnType<typeof startE2eApp>>;
+type Browser = Awaited<ReturnType<typeof openBrowser>>;
+
+const NAME = 'Ember review walk';
+const COMMENT = 'The rear roll-steer term of the budget looks small for the bumpy tracks.';
+
+/** Waits until the results and the cautions of the configuration page are in. */
+async function settled(page: Page): Promise<void> {
+  await page.getByTestId('key-figures').waitFor({ timeout: 60_000 });
+  await page.locator('.rw-axle-cautions[data-axle="rear"]').waitFor({ timeout: 60_000 });
+  await page.locator('mat-progress-bar[mode="indeterminate"]').waitFor({ state: 'detached' });
+}
+
+async function status(page: Page): Promise<string> {
+  return (await page.locator('rw-status-chip .rw-status-label').first().innerText()).trim();
+}
+
+async function expectStatus(page: Page, label: string): Promise<void> {
+  await page.locator('rw-status-chip').first().getByText(label, { exact: true }).waitFor();
+  expect(await status(page)).toBe(label);
+}
+
+/** The captured mail with this subject to this address, refreshing until the outbox has sent it. */
+async function waitForMail(page: Page, subject: string, to: string): Promise<Locator> {
+  const mail = page.locator('li.mail').filter({ has: page.getByRole('heading', { name: subject }) }).filter({ hasText: to });
+  for (let attempt = 0; attempt < 40; attempt++) {
+    if ((await mail.count()) > 0) return mail.first();
+    await page.waitForTimeout(500);
+    await page.getByRole('button', { name: 'Refresh' }).click();
+    await page.locator('mat-progress-bar').waitFor({ state: 'detached' });
+  }
+  throw new Error(`No mail "${subject}" to ${to} reached the development mail page`);
+}
+
+function clean(page: Page): void {
+  expect(offsiteRequests(page)).toEqual([]);
+  expect(consoleErrors(page)).toEqual([]);
+}
+
+describe('Configuration review in Chromium', () => {
+  let app: App;
+  let browser: Browser;
+
+  beforeAll(async () => {
+    app = await startE2eApp();
+    browser = await openBrowser();
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+    await app?.stop();
+  });
+
+  it('designer submits, reviewer comments on the budget and requests changes, designer revises, reviewer approves and releases, mail is captured', async () => {
+    // The designer makes the configuration from the team dashboard and submits it.
+    const designer = await browser.newPage();
+    await signIn(designer, app.baseUrl, 'designer@tallowmere.example');
+    await designer.goto(app.baseUrl + '/teams');
+    await designer.getByRole('link', { name: /Tallowmere/ }).first().click();
+    await designer.getByRole('link', { name: 'Configurations and review' }).click();
+    await designer.getByRole('heading', { name: /^Configurations/ }).waitFor();
+    // The demo configurations are listed with their state.
+    await designer.getByRole('link', { name: 'Ember baseline' }).waitFor();
+    expect(await designer.getByTestId('configurations').innerText()).toContain('In review');
+    const teamId = new URL(designer.url()).pathname.split('/')[2]!;
+
+    await designer.getByRole('button', { name: 'New configuration' }).click();
+    await designer.getByLabel('Name', { exact: true }).fill(NAME);
+    await designer.getByLabel('Vehicle', { exact: true }).selectOption({ label: 'TUR-26 Ember' });
+    await designer.getByLabel('Front axle design', { exact: true }).selectOption({ label: 'Front baseline' });
+    await designer.getByLabel('Rear axle design', { exact: true }).selectOption({ label: 'Rear baseline' });
+    await designer.getByLabel('Track profile').selectOption('bumpy-circuit');
+    await designer.getByLabel('Message (optional)').fill('Baseline on the bumpy profile');
+    await designer.getByRole('button', { name: 'Create configuration' }).click();
+    await designer.waitForURL((url) => /\/configurations\/[0-9a-f-]{36}$/.test(url.pathname));
+    const configurationPath = new URL(designer.url()).pathname;
+    await designer.getByRole('heading', { name: NAME }).waitFor();
+    await settled(designer);
+    await expectStatus(designer, 'Draft');
+    expect(await designer.getByTestId('inputs').innerText()).toContain('Bumpy circuit');
+    // The designer may submit, never decide.
+    expect(await designer.getByRole('button', { name: 'Approve' }).count()).toBe(0);
+    await designer.getByLabel(/Message with the review step/).fill('Please look at the rear');
+    await designer.getByRole('button', { name: 'Submit for review' }).click();
+    await expectStatus(designer, 'In review');
+    expect(await seriousA11yViolations(designer)).toEqual([]);
+    await saveScreenshot(designer, 'review-1-designer-submitted');
+
+    // The reviewer, in another context, comments on the budget and requests changes.
+    const reviewer = await browser.newPage();
+    await signIn(reviewer, app.baseUrl, 'reviewer@tallowmere.example');
+    await reviewer.goto(app.baseUrl + configurationPath);
+    await settled(reviewer);
+    await expectStatus(reviewer, 'In review');
+    expect(await reviewer.getByRole('button', { name: 'Submit for review' }).count()).toBe(0);
+    await reviewer.getByRole('button', { name: 'Comment on the budget' }).click();
+    const commentBox = reviewer.getByLabel('Comment', { exact: true });
+    await expect.poll(() => commentBox.evaluate((el) => el === document.activeElement)).toBe(true);
+    expect(await reviewer.getByLabel('Points at').inputValue()).toBe('budget');
+    await reviewer.keyboard.type(COMMENT);
+    await reviewer.getByRole('button', { name: 'Post comment' }).click();
+    const thread = reviewer.locator('.rw-thread').filter({ hasText: COMMENT });
+    await thread.waitFor();
+    expect(await thread.innerText()).toContain('On: Understeer budget');
+    // A change request needs words; with them it goes through.
+    await reviewer.getByRole('button', { name: 'Request changes' }).click();
+    await reviewer.getByText('Say what should change').waitFor();
+    await reviewer.getByLabel(/Message with the review step/).fill('Raise the rear toe link');
+    await reviewer.getByRole('button', { name: 'Request changes' }).click();
+    await expectStatus(reviewer, 'Changes requested');
+    expect(await seriousA11yViolations(reviewer)).toEqual([]);
+    await saveScreenshot(reviewer, 'review-2-reviewer-changes-requested');
+
+    // The designer reads the comment, replies, and makes a new revision with the raised toe link.
+    await designer.reload();
+    await settled(designer);
+    await expectStatus(designer, 'Changes requested');
+    const designerThread = designer.locator('.rw-thread').filter({ hasText: COMMENT });
+    await designerThread.getByLabel('Reply', { exact: true }).fill('Raised the rear toe link inner point by 6 mm.');
+    await designerThread.getByRole('button', { name: 'Reply' }).click();
+    await designerThread.getByText('Raised the rear toe link inner point by 6 mm.', { exact: true }).waitFor();
+    await designer.getByRole('button', { name: 'Make a new revision' }).click();
+    await designer.getByLabel('Rear axle design', { exact: true }).selectOption({ label: 'Rear, toe link inner +6 mm (now revision 1)' });
+    await designer.getByLabel('Message (what changed)').fill('Rear toe link inner +6 mm');
+    await designer.getByRole('button', { name: 'Save new revision' }).click();
+    await designer.getByText('Saved as revision 2; the configuration is a draft again.').waitFor();
+    await expectStatus(designer, 'Draft');
+    await settled(designer);
+    expect(await designer.getByTestId('inputs').innerText()).toContain('Rear, toe link inner +6 mm, revision 1');
+    // Compare the first revision with the new one: the toe link's inner height changed, and the roll-steer term with it.
+    await designer.getByRole('button', { name: 'Compare revision 1 with the current one' }).click();
+    const comparison = designer.getByTestId('comparison');
+    await comparison.waitFor();
+    expect(await comparison.innerText()).toContain('rearCorner.points.tieRodInner[2]');
+    expect(await comparison.innerText()).toContain('Understeer-gradient change from roll steer');
+    await designer.getByRole('button', { name: 'Submit for review' }).click();
+    await expectStatus(designer, 'In review');
+    clean(designer);
+
+    // The reviewer approves the new revision and releases it; the snapshot agrees with a recompute.
+    await reviewer.reload();
+    await settled(reviewer);
+    await expectStatus(reviewer, 'In review');
+    await reviewer.getByLabel(/Message with the review step/).fill('Rear roll understeer as asked');
+    await reviewer.getByRole('button', { name: 'Approve' }).click();
+    await expectStatus(reviewer, 'Approved');
+    const approval = reviewer.getByTestId('approval');
+    await approval.getByText('gives the same figures').waitFor();
+    expect(await approval.innerText()).toContain('Revision 2 approved by Ravi Osei');
+    await reviewer.getByRole('button', { name: 'Release to build' }).click();
+    await expectStatus(reviewer, 'Released to build');
+    await reviewer.locator('.rw-history li').filter({ hasText: 'Approved → Released to build' }).waitFor();
+    await reviewer.locator('.rw-thread').filter({ hasText: COMMENT }).getByRole('button', { name: 'Resolve thread' }).click();
+    await reviewer.locator('.rw-thread').filter({ hasText: COMMENT }).locator('.rw-thread-state').getByText('Resolved').waitFor();
+    expect(await seriousA11yViolations(reviewer)).toEqual([]);
+    await saveScreenshot(reviewer, 'review-3-reviewer-released');
+    clean(reviewer);
+
+    // The team owner finds the review mails on the development mail page.
+    const owner = await browser.newPage();
+    await signIn(owner, app.baseUrl, 'owner@tallowmere.example');
+    await owner.goto(`${app.baseUrl}/teams/${teamId}/dev-mail`);
+    await owner.getByRole('heading', { name: /Development mail/ }).waitFor();
+    const asked = await waitForMail(owner, `Review requested: ${NAME} (revision 1)`, 'reviewer@tallowmere.example');
+    expect(await asked.innerText()).toContain('Please look at the rear');
+    await waitForMail(owner, `${NAME} (revision 1): changes requested`, 'designer@tallowmere.example');
+    await waitForMail(owner, `Review requested: ${NAME} (revision 2)`, 'reviewer@tallowmere.example');
+    const approved = await waitForMail(owner, `${NAME} (revision 2): approved`, 'designer@tallowmere.example');
+    // The mailed link opens the configuration page on this server.
+    expect(await approved.getByRole('link').first().getAttribute('href')).toBe(app.baseUrl + configurationPath);
+    expect(await seriousA11yViolations(owner)).toEqual([]);
+    await saveScreenshot(owner, 'review-4-owner-dev-mail');
+    clean(owner);
+  });
+});
