@@ -90,6 +90,8 @@ describe('ApiTokensSection', () => {
     await fixture.whenStable();
     backend.expectOne('/api/auth/tokens').flush([{ ...TOKEN, id: 'k3', name: 'Batch study', scope: 'write' }]);
     await fixture.whenStable();
+    // The emptied form shows no error after the token was made.
+    expect(root.querySelector('.token-form mat-error')).toBeNull();
     const secret = root.querySelector('.secret')!;
     expect(secret.textContent).toContain('This is the only time Rollwise shows it');
     expect(secret.querySelector<HTMLInputElement>('input')!.value).toBe(SECRET);

@@ -1,7 +1,7 @@
 import { Clipboard } from '@angular/cdk/clipboard';
 import { Component, computed, effect, inject, signal } from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -109,7 +109,8 @@ export class ApiTokensSection {
     return !t.revokedAt && !(t.expiresAt && new Date(t.expiresAt).getTime() <= Date.now());
   }
 
-  protected create(): void {
+  /** `formDir` resets the submitted state too, so the emptied name shows no error. */
+  protected create(formDir: FormGroupDirective): void {
     this.failure.set(null);
     const name = this.form.controls.name.value.trim();
     if (!name) this.form.controls.name.setValue('');
@@ -124,7 +125,7 @@ export class ApiTokensSection {
         this.creating.set(false);
         this.copied.set(false);
         this.created.set(t);
-        this.form.reset({ name: '', teamId, scope: 'read', expiresInDays: 90 });
+        formDir.resetForm({ name: '', teamId, scope: 'read', expiresInDays: 90 });
         this.reload();
       },
       error: (error: unknown) => {

@@ -5,7 +5,7 @@ import type { BoardRow, KeyFigures } from './programmes-api';
 export const BOARD_FIGURES: readonly { key: keyof KeyFigures; label: string; unit: string; digits: number }[] = [
   { key: 'rollSteerFront', label: 'ε front', unit: 'deg/deg', digits: 3 },
   { key: 'rollSteerRear', label: 'ε rear', unit: 'deg/deg', digits: 3 },
-  { key: 'rollSteerUndersteerDegPerG', label: 'Understeer change from roll steer', unit: 'deg/g', digits: 3 },
+  { key: 'rollSteerUndersteerDegPerG', label: 'Roll-steer understeer', unit: 'deg/g', digits: 3 },
   { key: 'understeerGradientDegPerG', label: 'Understeer gradient', unit: 'deg/g', digits: 3 },
   { key: 'bumpSteerFrontDegPerM', label: 'Bump steer front', unit: 'deg/m', digits: 2 },
   { key: 'bumpSteerRearDegPerM', label: 'Bump steer rear', unit: 'deg/m', digits: 2 },

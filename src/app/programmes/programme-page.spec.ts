@@ -95,7 +95,7 @@ describe('ProgrammePage', () => {
     expect(cells(ember.querySelector('tr.approved'))).toEqual(['0.050', '0.100', '0.200', '1.100', '3.50', '−2.25']);
     expect(cells(ember.querySelector('tr.change'))).toEqual(['no change', '+0.025', 'no change', 'no change', 'no change', 'no change']);
     // The approval ran on another profile than the board's: said in words.
-    expect(ember.querySelector('tr.change')?.textContent).toContain('approval on another track profile');
+    expect(ember.querySelector('tr.change')?.textContent).toContain('approved on another track profile');
     expect(ember.querySelector('tr.approved')?.textContent).toContain('Smooth circuit');
   });
 
@@ -140,6 +140,10 @@ describe('ProgrammePage', () => {
     backend.expectOne({ method: 'POST', url: '/api/programmes/p1/teams' }).flush(DETAIL.teams[0]);
     await fixture.whenStable();
     backend.expectOne('/api/programmes/p1').flush(DETAIL);
+    await fixture.whenStable();
+    // The emptied field is not shown as an error after a successful invitation.
+    expect(slug.value).toBe('');
+    expect(root.querySelector('.invite-form mat-error')).toBeNull();
     expect(notifier.info).toHaveBeenCalledWith(expect.stringContaining('Brackenfield Road Programme invited.'));
   });
 

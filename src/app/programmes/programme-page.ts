@@ -1,6 +1,6 @@
 import { Component, computed, inject, input, signal, WritableSignal } from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -137,7 +137,8 @@ export class ProgrammePage {
     return formatLocalTime(iso, this.timeZone);
   }
 
-  protected invite(): void {
+  /** `form` resets the submitted state too, so the emptied field shows no error. */
+  protected invite(form: FormGroupDirective): void {
     this.inviteFailure.set(null);
     const slug = this.inviteForm.controls.teamSlug.value.trim();
     if (!slug) this.inviteForm.controls.teamSlug.setValue('');
@@ -149,7 +150,7 @@ export class ProgrammePage {
     this.api.inviteTeam(this.programmeId(), slug).subscribe({
       next: (t) => {
         this.inviting.set(false);
-        this.inviteForm.reset({ teamSlug: '' });
+        form.resetForm({ teamSlug: '' });
         void this.notifier.info(`${t.teamName} invited. The team's owner accepts or declines on the team's Programmes page.`);
         this.reloadDetail();
       },
@@ -160,7 +161,7 @@ export class ProgrammePage {
     });
   }
 
-  protected takeSnapshot(): void {
+  protected takeSnapshot(form: FormGroupDirective): void {
     this.snapshotFailure.set(null);
     if (this.snapshotForm.invalid) {
       this.snapshotForm.markAllAsTouched();
@@ -171,7 +172,7 @@ export class ProgrammePage {
     this.api.takeSnapshot(this.programmeId(), label).subscribe({
       next: (s) => {
         this.snapping.set(false);
-        this.snapshotForm.reset({ label: '' });
+        form.resetForm({ label: '' });
         void this.notifier.info(`Snapshot taken at ${this.local(s.takenAt)} (${this.timeZone}).`);
         this.reloadSnapshots();
       },
