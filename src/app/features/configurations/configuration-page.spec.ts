@@ -134,8 +134,9 @@ describe('ConfigurationPage', () => {
     const rear = root.querySelector('.rw-axle-cautions[data-axle="rear"]')!;
     expect(rear.querySelector('[data-code="bump-toe-change"]')!.textContent).toContain('Warning');
     expect(root.querySelector('rw-safety-caution')!.textContent).toContain('Verify on a kinematics rig');
-    // A viewer has no review steps and cannot comment.
+    // A viewer has no review steps, cannot revise or archive, and cannot comment.
     expect(buttons(root)).toEqual([]);
+    expect(root.querySelector('.rw-review button')).toBeNull();
     expect(root.querySelector('rw-review-comments form')).toBeNull();
   });
 
@@ -287,6 +288,23 @@ describe('ConfigurationPage', () => {
     const [inputs, results] = [...grid.querySelectorAll('table')];
     expect([...inputs!.querySelectorAll('tbody td, tbody th')].map((x) => x.textContent!.trim())).toEqual(['rearCorner.points.tieRodInner[2]', '180', '186', '6']);
     expect(results!.querySelector('tbody th')!.textContent!.trim()).toBe('Understeer-gradient change from roll steer');
+  });
+
+  it('archives (never deletes) and restores for those who manage the team’s designs', async () => {
+    const { harness, root } = await open(config(), ['team:read', 'vehicle:manage']);
+    const press = (label: string) => [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === label)!.click();
+    press('Archive configuration');
+    let body: unknown;
+    await serve(backend, {
+      [`PATCH ${C}`]: (req: TestRequest) => {
+        body = req.request.body;
+        return config({ archived: true });
+      },
+    });
+    harness.detectChanges();
+    expect(body).toEqual({ archived: true });
+    expect(root.textContent).toContain('· archived');
+    expect([...root.querySelectorAll('.rw-review button')].map((b) => b.textContent!.trim())).toEqual(['Restore configuration']);
   });
 
   it('says why the configuration could not be loaded', async () => {

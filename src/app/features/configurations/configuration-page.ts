@@ -141,7 +141,7 @@ export class ConfigurationPage implements OnInit {
   });
   protected readonly refOptions = computed<RefOption[]>(() => {
     const out: RefOption[] = [{ ref: 'budget', label: 'Understeer budget' }];
-    for (const [name, label] of Object.entries(CHART_REFS)) if (name === 'yaw-gain') out.push({ ref: `chart:${name}`, label });
+    for (const [name, label] of Object.entries(CHART_REFS)) out.push({ ref: `chart:${name}`, label });
     const c = this.cautions();
     if (c.kind === 'ready') {
       const seen = new Set<string>();
@@ -365,6 +365,23 @@ export class ConfigurationPage implements OnInit {
     } catch (error) {
       this.reviseError.set(problemText(error));
       if (apiProblem(error).code === 'stale_revision') void this.reloadConfig();
+    } finally {
+      this.stepBusy.set(false);
+    }
+  }
+
+  /** Archive (hidden from the list, kept with its history and approvals; never deleted) or restore. */
+  protected async setArchived(archived: boolean): Promise<void> {
+    const c = this.current();
+    if (!c || this.stepBusy()) return;
+    this.stepBusy.set(true);
+    this.stepError.set(null);
+    try {
+      const after = await firstValueFrom(this.api.setArchived(this.teamId, c.id, archived));
+      this.config.set({ kind: 'ready', value: after });
+      this.stepNotice.set(archived ? 'Archived: hidden from the list (shown with “Show archived”), kept with its history and approvals.' : 'Restored to the list.');
+    } catch (error) {
+      this.stepError.set(problemText(error));
     } finally {
       this.stepBusy.set(false);
     }

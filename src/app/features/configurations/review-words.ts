@@ -41,7 +41,6 @@ export function actionsFor(status: ConfigurationStatus, can: (p: Permission) => 
 /** Charts a comment can point at (`chart:<name>`). */
 export const CHART_REFS: Readonly<Record<string, string>> = {
   'yaw-gain': 'Chart: yaw-rate gain against speed',
-  'steer-curve': 'Chart: steer against lateral acceleration',
 };
 
 export interface KeyFigure {
