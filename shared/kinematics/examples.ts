@@ -105,7 +105,14 @@ const roadFrontStrut: Corner = {
   },
 };
 
-/** Road-car rear five-link (link 5 is the toe link), ±80 mm travel, ~1550 mm track, 2650 mm wheelbase. */
+/**
+ * Road-car rear five-link (link 5 is the toe link), ±80 mm travel, ~1550 mm track, 2650 mm wheelbase.
+ * Links 1–2 (upper) point at a virtual upper joint near [-2661, 662, 450] and links 3–4 (lower) at a
+ * virtual lower joint near [-2640, 721, 150], so the instantaneous steering axis has KPI ≈ 11°, caster
+ * ≈ 4°, scrub ≈ +25 mm and trail ≈ 18 mm at design — inside what road rear multi-links commonly have
+ * (KPI roughly 5–15°, scrub within a few tens of mm; from memory, common practice). The toe link behind
+ * the axle gives slight toe-in in bump (≈ +4 deg/m, nearly linear), ε ≈ −0.03 (roll understeer).
+ */
 const roadRearFiveLink: Corner = {
   formatVersion: 1,
   name: 'Road rear five-link',
@@ -116,16 +123,16 @@ const roadRearFiveLink: Corner = {
   points: {
     wheelCentre: [-2650, 770, 315],
     spindle: [-2650, 720, 314.1273],
-    link1Inner: [-2550, 450, 430],
-    link1Outer: [-2620, 700, 460],
-    link2Inner: [-2800, 470, 425],
-    link2Outer: [-2680, 705, 455],
-    link3Inner: [-2450, 420, 205],
-    link3Outer: [-2600, 730, 190],
-    link4Inner: [-2680, 330, 200],
-    link4Outer: [-2680, 740, 180],
-    link5Inner: [-2780, 360, 246],
-    link5Outer: [-2780, 720, 240],
+    link1Inner: [-2560, 440, 440],
+    link1Outer: [-2650.9, 639.8, 449],
+    link2Inner: [-2800, 450, 435],
+    link2Outer: [-2677.7, 636.6, 448.2],
+    link3Inner: [-2450, 400, 200],
+    link3Outer: [-2611.5, 672.8, 157.5],
+    link4Inner: [-2700, 330, 190],
+    link4Outer: [-2641.8, 709.3, 151.2],
+    link5Inner: [-2780, 400, 265],
+    link5Outer: [-2780, 710, 245],
   },
   spring: { kind: 'direct', springBody: [-2690, 640, 600], springOuter: [-2680, 690, 250], springOuterOn: 'upright' },
 };
