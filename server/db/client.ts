@@ -34,6 +34,10 @@ export function createDatabase(url: string, o: DatabaseOptions = {}): Database {
     query_timeout: 30_000,
   });
   pool.on('error', (err) => o.onPoolError?.(err));
+  // A connection lost while a request holds it (e.g. between two statements of a transaction, the
+  // database restarting) emits 'error' on the client, where the pool's idle listener is detached:
+  // unheard, that crashes the process. The request sees the loss on its next statement (503).
+  pool.on('connect', (client) => client.on('error', () => undefined));
   const orm = drizzle(pool, { schema });
   let closed = false;
   return {

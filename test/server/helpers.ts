@@ -108,3 +108,55 @@ export function listRoutes(app: RollwiseApp): MountedRoute[] {
   if (out.length === 0) throw new Error('listRoutes: no routes found (has the router layout changed?)');
   return out;
 }
+
+/**
+ * A TCP relay in front of PostgreSQL: `stop()` ends every connection through
+ * it with PostgreSQL's own shutdown message (pg_terminate_backend: FATAL
+ * 57P01, what a stopping server sends) and closes the port, as a stopped
+ * server does; `start()` opens it again. Stops "the database" for one app
+ * without stopping the cluster other test files share.
+ */
+export class DatabaseRelay {
+  private server: import('node:net').Server | undefined;
+  private readonly sockets = new Set<import('node:net').Socket>();
+  readonly url: string;
+  constructor(
+    private readonly directUrl: string,
+    readonly port: number,
+  ) {
+    const u = new URL(directUrl);
+    u.port = String(port);
+    this.url = u.toString();
+  }
+  async start(): Promise<void> {
+    const net = await import('node:net');
+    const target = Number(new URL(this.directUrl).port);
+    this.server = net.createServer((client) => {
+      const upstream = net.connect(target, '127.0.0.1');
+      for (const s of [client, upstream]) {
+        this.sockets.add(s);
+        s.on('close', () => this.sockets.delete(s));
+        s.on('error', () => s.destroy());
+      }
+      client.pipe(upstream).pipe(client);
+    });
+    await new Promise<void>((resolve) => this.server!.listen(this.port, '127.0.0.1', resolve));
+  }
+  /** Terminates the backends of connections made through the relay, then closes it. */
+  async stop(): Promise<void> {
+    const pg = (await import('pg')).default;
+    const admin = new pg.Client({ connectionString: this.directUrl });
+    await admin.connect();
+    try {
+      // Connections through the relay arrive from 127.0.0.1 on the relay's outgoing ports: every backend of this database but ours.
+      await admin.query('SELECT pg_terminate_backend(pid) FROM pg_stat_activity WHERE datname = current_database() AND pid <> pg_backend_pid()');
+    } finally {
+      await admin.end();
+    }
+    const server = this.server;
+    this.server = undefined;
+    const closed = new Promise<void>((resolve) => (server ? server.close(() => resolve()) : resolve()));
+    for (const s of this.sockets) s.destroy();
+    await closed;
+  }
+}
