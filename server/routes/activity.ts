@@ -11,19 +11,23 @@ import { checkTimeZone, type Activity, type ActivityQuery } from '../services/ac
 import type { AxleDesigns } from '../services/axle-designs.js';
 import { idParam } from './vehicles.js';
 
-const querySchema = z.object({
-  before: z.iso.datetime({ offset: true }).optional(),
-  limit: z.coerce.number().int().min(1).max(5000).optional(),
-  format: z.enum(['json', 'csv']).optional(),
-  timeZone: z.string().min(1).max(64).optional(),
-});
+const querySchema = z
+  .object({
+    before: z.iso.datetime({ offset: true }).optional(),
+    /** With `before`: the id of the last entry seen (entries sharing its time are paged by id). */
+    beforeId: z.uuid().optional(),
+    limit: z.coerce.number().int().min(1).max(5000).optional(),
+    format: z.enum(['json', 'csv']).optional(),
+    timeZone: z.string().min(1).max(64).optional(),
+  })
+  .refine((q) => !q.beforeId || q.before, { message: 'needs before (the time of that entry)', path: ['beforeId'] });
 
 export function activityRouter(activity: Activity, designs: AxleDesigns, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
 
   async function answer(res: Response, teamId: string, raw: unknown, designId?: string, fileName = 'activity') {
     const q = validate(querySchema, raw, 'query');
-    const query: ActivityQuery = { designId, before: q.before ? new Date(q.before) : undefined, limit: q.limit ?? (q.format === 'csv' ? 5000 : 200) };
+    const query: ActivityQuery = { designId, before: q.before ? new Date(q.before) : undefined, beforeId: q.beforeId, limit: q.limit ?? (q.format === 'csv' ? 5000 : 200) };
     if (q.format === 'csv') {
       const timeZone = q.timeZone ? checkTimeZone(q.timeZone) : undefined;
       res.setHeader('Content-Type', 'text/csv; charset=utf-8');

@@ -5,7 +5,7 @@
  * the reader's time zone.
  */
 import Papa from 'papaparse';
-import { and, desc, eq, lt } from 'drizzle-orm';
+import { and, desc, eq, lt, sql } from 'drizzle-orm';
 import type { Executor, Orm } from '../db/client.js';
 import { activityLog, users } from '../db/schema.js';
 import { HttpError } from '../http/errors.js';
@@ -37,6 +37,12 @@ export interface ActivityQuery {
   designId?: string | undefined;
   /** Entries strictly older than this (paging). */
   before?: Date | undefined;
+  /**
+   * With `before`: the id of the last entry already seen, so the next page
+   * starts right after it even when entries share its time (one transaction
+   * writes them all at one time; the API's times are whole milliseconds).
+   */
+  beforeId?: string | undefined;
   limit: number;
 }
 
@@ -65,7 +71,10 @@ export class Activity {
   async list(teamId: string, q: ActivityQuery) {
     const where = [eq(activityLog.teamId, teamId)];
     if (q.designId) where.push(eq(activityLog.designId, q.designId));
-    if (q.before) where.push(lt(activityLog.at, q.before));
+    // Sorted and paged on the time as the API shows it (whole milliseconds), then the id.
+    const atMs = sql`date_trunc('milliseconds', ${activityLog.at})`;
+    if (q.before && q.beforeId) where.push(sql`(${atMs}, ${activityLog.id}) < (${q.before.toISOString()}::timestamptz, ${q.beforeId}::uuid)`);
+    else if (q.before) where.push(lt(activityLog.at, q.before));
     return this.orm
       .select({
         id: activityLog.id,
@@ -80,7 +89,7 @@ export class Activity {
       .from(activityLog)
       .leftJoin(users, eq(users.id, activityLog.actorId))
       .where(and(...where))
-      .orderBy(desc(activityLog.at), desc(activityLog.id))
+      .orderBy(desc(atMs), desc(activityLog.id))
       .limit(q.limit);
   }
 

@@ -27,10 +27,10 @@ function path(teamId: string, designId?: string | null): string {
 export class ActivityApi {
   private readonly http = inject(HttpClient);
 
-  /** Newest first; `before` (an entry's `at`) pages to older entries. */
-  list(teamId: string, designId: string | null, before?: string): Observable<ActivityEntry[]> {
+  /** Newest first; `after` (the last entry shown) pages to the entries older than it. */
+  list(teamId: string, designId: string | null, after?: ActivityEntry): Observable<ActivityEntry[]> {
     let params = new HttpParams().set('limit', ACTIVITY_PAGE_SIZE);
-    if (before) params = params.set('before', before);
+    if (after) params = params.set('before', after.at).set('beforeId', after.id);
     return this.http.get<ActivityEntry[]>(path(teamId, designId), { params });
   }
 

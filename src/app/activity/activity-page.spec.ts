@@ -91,13 +91,14 @@ describe('ActivityPage', () => {
     expect(root.querySelector('a.design-link')).toBeNull();
   });
 
-  it('pages to older entries with the last entry’s time', async () => {
+  it('pages to older entries after the last one shown (its time and id)', async () => {
     const full = Array.from({ length: 100 }, (_, i) => entry(i));
     const { fixture, root, rows } = await render(undefined, full);
     root.querySelector<HTMLButtonElement>('.rw-form-actions button')!.click();
     await fixture.whenStable();
     const req = backend.expectOne((r) => r.url === '/api/teams/t-tal/activity' && r.params.has('before'));
     expect(req.request.params.get('before')).toBe(full[99]!.at);
+    expect(req.request.params.get('beforeId')).toBe(full[99]!.id);
     req.flush([entry(100)]);
     await fixture.whenStable();
     expect(rows()).toHaveLength(101);

@@ -114,7 +114,7 @@ export class ActivityPage {
     const last = s.value[s.value.length - 1]!;
     this.loadingOlder.set(true);
     this.olderFailure.set(null);
-    this.api.list(this.teamId(), this.designId() ?? null, last.at).subscribe({
+    this.api.list(this.teamId(), this.designId() ?? null, last).subscribe({
       next: (older) => {
         this.loadingOlder.set(false);
         const seen = new Set(s.value.map((e) => e.id));

@@ -1,4 +1,6 @@
 import { trackProfiles, type TrackProfileId } from '../../../shared/intent/profiles';
+import type { ConfigurationStatus } from '../features/configurations/configurations-api';
+import { STATUS_WORDS } from '../features/configurations/review-words';
 import type { BoardRow, KeyFigures } from './programmes-api';
 
 /** The key figures of the board, in the order shown, with units and shown digits. */
@@ -11,17 +13,9 @@ export const BOARD_FIGURES: readonly { key: keyof KeyFigures; label: string; uni
   { key: 'bumpSteerRearDegPerM', label: 'Bump steer rear', unit: 'deg/m', digits: 2 },
 ];
 
-export const STATUS_WORDS: Readonly<Record<string, string>> = {
-  draft: 'Draft',
-  in_review: 'In review',
-  approved: 'Approved',
-  changes_requested: 'Changes requested',
-  released: 'Released',
-  validated: 'Validated',
-};
-
+/** A configuration's review status in words (the configuration screens' own words). */
 export function statusWords(status: string): string {
-  return STATUS_WORDS[status] ?? status;
+  return status in STATUS_WORDS ? STATUS_WORDS[status as ConfigurationStatus].label : status;
 }
 
 export function profileLabel(id: string): string {
