@@ -41,6 +41,8 @@ export function singleTextUpload(fieldName: string, extensions: readonly string[
         }
         return next(new HttpError(400, 'invalid_upload', `The upload was refused: ${err.message}${err.field ? ` (${err.field})` : ''}`));
       }
+      // The multipart parser's own errors (a body cut short, a broken part header, no boundary) are the client's.
+      if (err instanceof Error) return next(new HttpError(400, 'invalid_upload', `The upload could not be read: ${err.message}`));
       if (err) return next(err);
       const file = req.file;
       if (!file) return next(new HttpError(400, 'invalid_upload', `Attach the file in the field "${fieldName}"`));
