@@ -134,6 +134,8 @@ describe('ConfigurationPage', () => {
     const rear = root.querySelector('.rw-axle-cautions[data-axle="rear"]')!;
     expect(rear.querySelector('[data-code="bump-toe-change"]')!.textContent).toContain('Warning');
     expect(root.querySelector('rw-safety-caution')!.textContent).toContain('Verify on a kinematics rig');
+    expect(root.querySelector('[data-testid="no-approval"]')!.textContent).toContain('Not approved yet');
+    expect(root.querySelector('[data-testid="approval"]')).toBeNull();
     // A viewer has no review steps, cannot revise or archive, and cannot comment.
     expect(buttons(root)).toEqual([]);
     expect(root.querySelector('.rw-review button')).toBeNull();
@@ -211,6 +213,7 @@ describe('ConfigurationPage', () => {
       },
     });
     const section = root.querySelector('[data-testid="approval"]')!;
+    expect(root.querySelector('[data-testid="no-approval"]')).toBeNull();
     expect(section.textContent).toContain('approved by Ravi Osei');
     expect(section.textContent).toContain('gives 1 different figure(s)');
     const rows = [...section.querySelectorAll('[data-testid="frozen-figures"] tbody tr')];
