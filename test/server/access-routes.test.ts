@@ -18,6 +18,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
+import { sweepCorner } from '../../shared/kinematics/sweep.js';
 import { COMPUTE_KINDS } from '../../server/compute/tasks.js';
 import { agent, listRoutes, registerUser, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
@@ -114,6 +115,7 @@ const ids = {
   snapshot: '',
   job: '',
   spareUser: '',
+  rigMeasurement: '',
   spareEmail: '',
   pendingInstructor: '',
 };
@@ -189,6 +191,21 @@ beforeAll(async () => {
   tokens.tokenRead = (await ok(agents.engineer.post('/api/auth/tokens').send({ name: 'access read', teamId: ids.team, scope: 'read' }), 201)).body.token;
   tokens.tokenWrite = (await ok(agents.engineer.post('/api/auth/tokens').send({ name: 'access write', teamId: ids.team, scope: 'write' }), 201)).body.token;
   ids.job = (await ok(agents.engineer.post('/api/compute/solve-jobs').send(PROBE), 202)).body.jobId;
+
+  // A rig measurement of the front baseline (its own predicted toe and camber, as a rig would give them).
+  const sweep = sweepCorner(exampleCorners.fsFrontWishbone, { travel: { from: -25, to: 25, step: 5 } });
+  const rigFile = ['travel (mm),toe (deg),camber (deg)', ...sweep.rows.map((r) => `${r.travelMm},${r.toeDeg},${r.camberDeg}`)].join('\n');
+  const mapping = { hasHeader: true, travelColumn: 0, toeColumn: 1, camberColumn: 2, travelUnit: 'mm', toeUnit: 'deg', camberUnit: 'deg', travelSign: 'bump-positive', toeSign: 'toe-in-positive', camberSign: 'top-out-positive' };
+  ids.rigMeasurement = (
+    await ok(
+      agents.designer
+        .post(`${team()}/rig-measurements`)
+        .field('mapping', JSON.stringify(mapping))
+        .field('target', JSON.stringify({ kind: 'baseline', designId: ids.design }))
+        .attach('file', Buffer.from(rigFile), { filename: 'rig.csv', contentType: 'text/csv' }),
+      201,
+    )
+  ).body.id;
 
   const spare = await registerUser(t.app, 'Spare Member');
   ids.spareUser = spare.id;
@@ -369,6 +386,17 @@ const ROWS: Row[] = [
       expect: teamRoute(['owner', 'engineer', 'designer', 'reviewer'], 200, { method: 'POST' }),
     }),
   ),
+
+  // Rig measurements and the team's rig tolerance.
+  // JSON instead of the multipart file: past authorisation the upload check refuses it (nothing stored).
+  { route: 'POST /api/teams/:teamId/rig-measurements/preview', path: () => `${team()}/rig-measurements/preview`, body: PROBE, expect: teamRoute(['owner', 'engineer', 'designer'], 415, { method: 'POST' }) },
+  { route: 'POST /api/teams/:teamId/rig-measurements', path: () => `${team()}/rig-measurements`, body: PROBE, expect: teamRoute(['owner', 'engineer', 'designer'], 415, { method: 'POST' }) },
+  { route: 'GET /api/teams/:teamId/rig-measurements', path: () => `${team()}/rig-measurements`, expect: teamRead() },
+  { route: 'GET /api/teams/:teamId/rig-measurements/:measurementId', path: () => `${team()}/rig-measurements/${ids.rigMeasurement}`, expect: teamRead() },
+  // An id that does not exist: past authorisation it is 404, short of it 403 (nothing deleted either way).
+  { route: 'DELETE /api/teams/:teamId/rig-measurements/:measurementId', path: () => `${team()}/rig-measurements/${RANDOM_ID}`, expect: teamRoute(['owner', 'engineer', 'designer'], 404, { method: 'DELETE' }) },
+  { route: 'GET /api/teams/:teamId/rig-tolerance', path: () => `${team()}/rig-tolerance`, expect: teamRead() },
+  { route: 'PUT /api/teams/:teamId/rig-tolerance', path: () => `${team()}/rig-tolerance`, body: PROBE, expect: teamRoute(['owner'], 400, { method: 'PUT' }) },
 
   // Programmes: the team's owner decides; instructors run their own.
   { route: 'GET /api/teams/:teamId/programmes', path: () => `${team()}/programmes`, expect: teamRoute(['owner'], 200, { method: 'GET' }) },
