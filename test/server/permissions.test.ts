@@ -1,8 +1,10 @@
 /**
- * Role × route matrix. The expected statuses are written out here by hand
- * from the permission table of coord/contracts.md, not read from the
- * server's route declarations, so a route guarded with the wrong permission
- * fails this test.
+ * Role × route matrix with real bodies: the success answers (200/201/204)
+ * of each role. The expected statuses are written out here by hand from the
+ * permission table (docs/permissions.md), not read from the server's route
+ * declarations, so a route guarded with the wrong permission fails this
+ * test. access-routes.test.ts covers every mounted route (read from the
+ * router) for more callers: another team, instructors, API tokens.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
