@@ -7,7 +7,8 @@
  * the account page, a script (Node's fetch, `Authorization: Bearer`) uses it
  * to add a configuration, and the token is revoked and refused; the
  * instructor's board then lists both teams, a snapshot is taken and its CSV
- * downloaded. Every page ends without console errors, off-site requests or
+ * downloaded, and a configuration opened from the board offers her no
+ * control that writes. Every page ends without console errors, off-site requests or
  * serious accessibility findings. Needs `npx ng build` first.
  */
 import { readFileSync } from 'node:fs';
@@ -223,6 +224,18 @@ describe('programmes, API tokens and the activity log', () => {
     await iris.locator('app-board-table tbody.config').nth(1).waitFor();
     expect(await seriousA11yViolations(iris)).toEqual([]);
     await saveScreenshot(iris, 'programme-snapshot');
+
+    // From the board the instructor opens a configuration in its team: read only, no step,
+    // revision, archive or comment controls (she holds no permission in the team).
+    await iris.locator('app-board-table a.config-link', { hasText: 'Ember, toe link +6 mm' }).click();
+    await iris.getByRole('heading', { level: 1, name: 'Ember, toe link +6 mm' }).waitFor();
+    // The page and its results have loaded (every loading bar gone).
+    await iris.waitForFunction(() => !document.querySelector('mat-progress-bar[mode="indeterminate"]'), null, { timeout: 60_000 });
+    expect(await iris.locator('button[data-action], textarea, .rw-comment-on').count()).toBe(0);
+    for (const name of ['Make a new revision', 'Archive configuration', 'Comment on the budget']) {
+      expect(await iris.getByRole('button', { name }).count(), name).toBe(0);
+    }
+    await saveScreenshot(iris, 'programme-instructor-reads-configuration');
 
     // The team's activity log shows the script's change, in the browser's (named) time zone:
     // this browser is put in Tokyo (UTC+9 all year, no daylight saving; from memory).

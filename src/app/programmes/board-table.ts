@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import { RouterLink } from '@angular/router';
 import { formatLocalTime } from '../activity/local-time';
 import {
   BOARD_FIGURES,
@@ -24,9 +25,13 @@ interface ShownRow {
  * The programme board (live or a snapshot): one group of lines per
  * configuration — latest revision, latest approval, and the change between
  * them written as signed numbers — so differences read without colour.
+ * Each configuration's name opens its page in the team (read only for an
+ * instructor: the page offers only what the caller's permissions allow, and
+ * an instructor holds none in the team).
  */
 @Component({
   selector: 'app-board-table',
+  imports: [RouterLink],
   templateUrl: './board-table.html',
   styleUrl: './board-table.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -90,6 +90,8 @@ describe('ProgrammePage', () => {
     expect(root.querySelector('rw-safety-caution')?.textContent).toContain(SAFETY_CAUTION_TEXT);
     const ember = group('Ember for the study');
     expect(ember.querySelector('.status')?.textContent?.trim()).toBe('Approved');
+    // The name opens the configuration in its team (read only for the instructor).
+    expect(ember.querySelector('a.config-link')?.getAttribute('href')).toBe('/teams/t-tal/configurations/c1');
     expect(ember.querySelector('tr.latest th.kind')?.textContent).toContain('Latest · rev 2');
     expect(cells(ember.querySelector('tr.latest')).slice(1)).toEqual(['0.050', '0.125', '0.200', '1.100', '3.50', '−2.25']);
     expect(cells(ember.querySelector('tr.approved'))).toEqual(['0.050', '0.100', '0.200', '1.100', '3.50', '−2.25']);
@@ -111,6 +113,7 @@ describe('ProgrammePage', () => {
     const buttons = [...root.querySelectorAll('button')].map((b) => b.textContent?.trim());
     expect(buttons).toEqual(['group_add Invite team', 'refresh Refresh board', 'photo_camera Take snapshot']);
     expect(root.querySelectorAll('app-board-table input, app-board-table button, app-board-table select')).toHaveLength(0);
+    expect([...root.querySelectorAll('app-board-table a')].every((a) => /^\/teams\/[^/]+\/configurations\/[^/]+$/.test(a.getAttribute('href')!))).toBe(true);
   });
 
   it('explains an empty board', async () => {
