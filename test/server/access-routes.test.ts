@@ -530,7 +530,7 @@ describe("another team's ids, guessed or swapped in, are not found", () => {
     expect(comment.status).toBe(404);
   });
 
-  it('in the body: a configuration cannot pin another team’s vehicle or designs, a token not another team, a comment not another thread', async () => {
+  it('in bodies, queries and upload fields: no configuration, token, reply, compare or rig measurement reaches another team’s records', async () => {
     const body = { name: 'Swapped', vehicleId: ids.vehicle, frontDesignId: ids.design, rearDesignId: ids.rearDesign, trackProfile: 'smooth-circuit' };
     for (const swap of [{ vehicleId: ids.otherVehicle }, { frontDesignId: ids.otherDesign }, { rearDesignId: ids.otherDesign }]) {
       const swapped = await agents.engineer.post(`${team()}/configurations`).send({ ...body, ...swap });
@@ -551,6 +551,25 @@ describe("another team's ids, guessed or swapped in, are not found", () => {
     expect(reply.status, JSON.stringify(reply.body)).toBe(404);
     const otherTeamReply = await agents.reviewer.post(`${team()}/configurations/${second}/comments`).send({ body: 'reply', parentId: RANDOM_ID });
     expect(reply.body).toEqual(otherTeamReply.body);
+    // In a query: comparing with another team's configuration.
+    const cmp = await agents.engineer.get(`${team()}/configurations/compare?a=${ids.configuration}&b=${ids.otherConfiguration}`);
+    const cmpGuess = await agents.engineer.get(`${team()}/configurations/compare?a=${ids.configuration}&b=${RANDOM_ID}`);
+    expect(cmp.status).toBe(404);
+    expect(cmp.body).toEqual(cmpGuess.body);
+    // In an upload's fields: a rig measurement compared with another team's design; nothing is stored.
+    const rigCount = async () => Number((await t.db.pool.query('SELECT count(*) FROM rig_measurements')).rows[0].count);
+    const rigBefore = await rigCount();
+    const rig = (designId: string) =>
+      agents.designer
+        .post(`${team()}/rig-measurements`)
+        .field('mapping', JSON.stringify({ hasHeader: true, travelColumn: 0, toeColumn: 1, camberColumn: null, travelUnit: 'mm', toeUnit: 'deg', camberUnit: 'deg', travelSign: 'bump-positive', toeSign: 'toe-in-positive', camberSign: 'top-out-positive' }))
+        .field('target', JSON.stringify({ kind: 'baseline', designId }))
+        .attach('file', Buffer.from('travel (mm),toe (deg)\n-20,0\n-10,0\n0,0\n10,0\n20,0\n'), { filename: 'rig.csv', contentType: 'text/csv' });
+    const rigSwapped = await rig(ids.otherDesign);
+    const rigGuessed = await rig(RANDOM_ID);
+    expect(rigSwapped.status, JSON.stringify(rigSwapped.body)).toBe(404);
+    expect(rigSwapped.body).toEqual(rigGuessed.body);
+    expect(await rigCount()).toBe(rigBefore);
     // A member id of someone outside the team.
     const kit = (await ok(agents.otherTeam.get('/api/auth/me'), 200)).body.user.id;
     const member = await agents.owner.patch(`${team()}/members/${kit}`).send({ roles: ['viewer'] });
