@@ -27,7 +27,9 @@ export const READ_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
  * an invitation (it signs a person in or registers one). Reading the own
  * account (`GET /auth/me`) and looking at an invitation are allowed.
  */
-function needsSession(path: string, method: string): boolean {
+function needsSession(rawPath: string, method: string): boolean {
+  // Express matches routes case-insensitively (/api/AUTH/tokens reaches the tokens router), so compare in lower case.
+  const path = rawPath.toLowerCase();
   if (path.startsWith('/auth/')) return !(path === '/auth/me' && READ_METHODS.has(method));
   if (path.startsWith('/invitations/')) return !READ_METHODS.has(method);
   return false;

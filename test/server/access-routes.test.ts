@@ -588,6 +588,20 @@ describe("another team's ids, guessed or swapped in, are not found", () => {
     expect((await ok(agent(t.app).get(`/api/invitations/${link}`), 200)).body.accountExists).toBe(false);
   });
 
+  it('spelling a path in capitals (Express routes ignore case) does not let a token reach account or token management', async () => {
+    const cases: [string, string, object?][] = [
+      ['get', '/api/AUTH/tokens'],
+      ['post', '/api/Auth/tokens', { name: 'minted', teamId: ids.team, scope: 'write' }],
+      ['patch', '/api/Auth/Me', { displayName: 'Renamed by a script' }],
+      ['post', '/api/INVITATIONS/not-a-real-invitation-link/accept', { displayName: 'X', password: 'long-enough-pass' }],
+    ];
+    for (const [method, path, body] of cases) {
+      const req = request(t.app)[method as 'get' | 'post' | 'patch'](path).set('Authorization', `Bearer ${tokens.tokenRead}`);
+      const r = await (body ? req.send(body) : req);
+      expect(`${r.status} ${r.body?.error?.code}`, `${method} ${path}`).toBe('403 session_required');
+    }
+  });
+
   it('a token for one team reaches nothing of another, even where its holder is a member', async () => {
     // The engineer is also in Brackenfield; the token is for Tallowmere.
     const r = await request(t.app).get(`${other()}/vehicles`).set('Authorization', `Bearer ${tokens.tokenWrite}`);
