@@ -23,6 +23,8 @@ import {
   signIn,
   startE2eApp,
 } from '../support/e2e.js';
+import { createDatabase } from '../../server/db/client.js';
+import { DEMO_PROGRAMME, seedDemoProgramme } from '../../server/db/seed-programme.js';
 
 type App = Awaited<ReturnType<typeof startE2eApp>>;
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
@@ -70,6 +72,13 @@ describe('programmes, API tokens and the activity log', () => {
 
   beforeAll(async () => {
     app = await startE2eApp();
+    // The demo programme too (idempotent: harmless once the server seeds it at start).
+    const db = createDatabase(app.databaseUrl);
+    try {
+      await seedDemoProgramme(db.orm);
+    } finally {
+      await db.close();
+    }
     browser = await openBrowser();
   });
 
@@ -104,12 +113,16 @@ describe('programmes, API tokens and the activity log', () => {
     const ana = await settledPage(browser);
     await signIn(ana, app.baseUrl, TALLOWMERE_OWNER);
     await acceptAsOwner(ana, TALLOWMERE);
+    // The demo programme, accepted by the seed, is listed beside it.
+    await ana.locator('section[aria-labelledby="taking-heading"]').getByText(DEMO_PROGRAMME.name).waitFor();
     expect(await seriousA11yViolations(ana)).toEqual([]);
     await saveScreenshot(ana, 'programme-team-accepted');
 
     const bo = await settledPage(browser);
     await signIn(bo, app.baseUrl, BRACKENFIELD_OWNER);
     await acceptAsOwner(bo, BRACKENFIELD);
+    // Brackenfield has yet to answer the demo programme.
+    await bo.getByRole('button', { name: `Accept ${DEMO_PROGRAMME.name}` }).waitFor();
 
     // Tallowmere's owner creates a write token on the account page; the secret is shown once.
     await ana.getByRole('button', { name: /Account menu$/ }).click();
