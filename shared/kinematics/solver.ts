@@ -47,9 +47,17 @@ export class CornerSolver {
   readonly levers = new Float64Array(4);
 
   private readonly g = new Float64Array(6);
-  /** Jacobian, factored in place into its LU factors by `factor()` (evaluate rewrites it). */
-  private readonly J = new Float64Array(36);
-  private readonly piv = new Int32Array(6);
+  /**
+   * Jacobian of rows 0–4 (links / strut) with respect to (δc_x, δc_y, δω_x,
+   * δω_y, δω_z), 5×5 row-major, factored in place into its LU factors by
+   * `factor()` (evaluate rewrites it); `jz` is their column for δc_z. The
+   * driving row (c_z − target) has Jacobian e₃, so δc_z comes straight from
+   * its right-hand side and the rest is a 5×5 solve.
+   */
+  private readonly J = new Float64Array(25);
+  private readonly jz = new Float64Array(5);
+  private readonly r5 = new Float64Array(5);
+  private readonly piv = new Int32Array(5);
   private readonly dx = new Float64Array(6);
   /**
    * Scalars of the Newton loop kept in a typed array, not passed or returned:
@@ -153,6 +161,7 @@ export class CornerSolver {
     const R = this.R;
     const g = this.g;
     const J = this.J;
+    const jz = this.jz;
     let res = 0;
     for (let i = 0; i < m.nDist; i++) {
       const k = 3 * i;
@@ -180,14 +189,14 @@ export class CornerSolver {
       g[i] = gi;
       const a = Math.abs(gi);
       if (a > res) res = a;
-      const row = 6 * i;
+      const row = 5 * i;
       const il = 1 / L;
       J[row] = ex * il;
       J[row + 1] = ey * il;
-      J[row + 2] = ez * il;
-      J[row + 3] = (dy * ez - dz * ey) * il;
-      J[row + 4] = (dz * ex - dx * ez) * il;
-      J[row + 5] = (dx * ey - dy * ex) * il;
+      jz[i] = ez * il;
+      J[row + 2] = (dy * ez - dz * ey) * il;
+      J[row + 3] = (dz * ex - dx * ez) * il;
+      J[row + 4] = (dx * ey - dy * ex) * il;
     }
     const s = m.strut;
     if (s) {
@@ -213,38 +222,32 @@ export class CornerSolver {
         g[i] = gi;
         const a = Math.abs(gi);
         if (a > res) res = a;
-        const row = 6 * i;
+        const row = 5 * i;
         J[row] = -ex;
         J[row + 1] = -ey;
-        J[row + 2] = -ez;
-        J[row + 3] = ey * tz - ez * ty;
-        J[row + 4] = ez * tx - ex * tz;
-        J[row + 5] = ex * ty - ey * tx;
+        jz[i] = -ez;
+        J[row + 2] = ey * tz - ez * ty;
+        J[row + 3] = ez * tx - ex * tz;
+        J[row + 4] = ex * ty - ey * tx;
       }
     }
-    // Driving equation: wheel-centre height.
+    // Driving equation: wheel-centre height (Jacobian e₃, not stored).
     const g5 = c[2]! - zTarget;
     g[5] = g5;
-    J[30] = 0;
-    J[31] = 0;
-    J[32] = 1;
-    J[33] = 0;
-    J[34] = 0;
-    J[35] = 0;
     const a5 = Math.abs(g5);
     if (a5 > res) res = a5;
     this.sc[0] = res;
   }
 
-  /** LU with partial pivoting of J, in place (J then holds L and U), pivots in piv; false if singular. */
+  /** LU with partial pivoting of the 5×5 J, in place (J then holds L and U), pivots in piv; false if singular. */
   private factor(): boolean {
     const A = this.J;
     const piv = this.piv;
-    for (let k = 0; k < 6; k++) {
+    for (let k = 0; k < 5; k++) {
       let p = k;
-      let best = Math.abs(A[6 * k + k]!);
-      for (let i = k + 1; i < 6; i++) {
-        const v = Math.abs(A[6 * i + k]!);
+      let best = Math.abs(A[5 * k + k]!);
+      for (let i = k + 1; i < 5; i++) {
+        const v = Math.abs(A[5 * i + k]!);
         if (v > best) {
           best = v;
           p = i;
@@ -253,43 +256,57 @@ export class CornerSolver {
       if (!(best > 1e-13)) return false;
       piv[k] = p;
       if (p !== k) {
-        for (let j = 0; j < 6; j++) {
-          const t = A[6 * k + j]!;
-          A[6 * k + j] = A[6 * p + j]!;
-          A[6 * p + j] = t;
+        for (let j = 0; j < 5; j++) {
+          const t = A[5 * k + j]!;
+          A[5 * k + j] = A[5 * p + j]!;
+          A[5 * p + j] = t;
         }
       }
-      const inv = 1 / A[6 * k + k]!;
-      for (let i = k + 1; i < 6; i++) {
-        const f = (A[6 * i + k]! *= inv);
-        if (f !== 0) for (let j = k + 1; j < 6; j++) A[6 * i + j]! -= f * A[6 * k + j]!;
+      const inv = 1 / A[5 * k + k]!;
+      for (let i = k + 1; i < 5; i++) {
+        const f = (A[5 * i + k]! *= inv);
+        if (f !== 0) for (let j = k + 1; j < 5; j++) A[5 * i + j]! -= f * A[5 * k + j]!;
       }
     }
     return true;
   }
 
-  /** Solves LU·x = b in place (b overwritten with x). */
+  /**
+   * Solves the full 6×6 system J₆·x = b in place (b overwritten with x, in
+   * the order δc_x, δc_y, δc_z, δω_x, δω_y, δω_z): δc_z = b[5] from the
+   * driving row, then the factored 5×5 for the rest.
+   */
   private backSolve(b: Float64Array): void {
     const A = this.J;
     const piv = this.piv;
-    // Row swaps were applied to whole rows (L included), so permute b first, then substitute.
-    for (let k = 0; k < 6; k++) {
+    const jz = this.jz;
+    const r = this.r5;
+    const z = b[5]!;
+    for (let i = 0; i < 5; i++) r[i] = b[i]! - jz[i]! * z;
+    // Row swaps were applied to whole rows (L included), so permute r first, then substitute.
+    for (let k = 0; k < 5; k++) {
       const p = piv[k]!;
       if (p !== k) {
-        const t = b[k]!;
-        b[k] = b[p]!;
-        b[p] = t;
+        const t = r[k]!;
+        r[k] = r[p]!;
+        r[p] = t;
       }
     }
-    for (let k = 0; k < 6; k++) {
-      const bk = b[k]!;
-      for (let i = k + 1; i < 6; i++) b[i]! -= A[6 * i + k]! * bk;
+    for (let k = 0; k < 5; k++) {
+      const rk = r[k]!;
+      for (let i = k + 1; i < 5; i++) r[i]! -= A[5 * i + k]! * rk;
     }
-    for (let k = 5; k >= 0; k--) {
-      let s = b[k]!;
-      for (let j = k + 1; j < 6; j++) s -= A[6 * k + j]! * b[j]!;
-      b[k] = s / A[6 * k + k]!;
+    for (let k = 4; k >= 0; k--) {
+      let s = r[k]!;
+      for (let j = k + 1; j < 5; j++) s -= A[5 * k + j]! * r[j]!;
+      r[k] = s / A[5 * k + k]!;
     }
+    b[0] = r[0]!;
+    b[1] = r[1]!;
+    b[2] = z;
+    b[3] = r[2]!;
+    b[4] = r[3]!;
+    b[5] = r[4]!;
   }
 
   /** c0 ← c, R0 ← R (element loops: TypedArray.set is a builtin call, slow for 3 or 9 numbers). */
@@ -556,9 +573,11 @@ export function rotateInto(out: Float64Array, R: Float64Array, w: Float64Array):
   const wz = w[2]!;
   const th2 = wx * wx + wy * wy + wz * wz;
   let a: number, b: number;
-  if (th2 < 1e-16) {
-    a = 1 - th2 / 6;
-    b = 0.5 - th2 / 24;
+  if (th2 < 1e-4) {
+    // sin θ/θ and (1 − cos θ)/θ² by their series (the next terms are below 1e-21 here): no trig calls for the
+    // small rotations of predictor and Newton steps.
+    a = 1 - (th2 / 6) * (1 - (th2 / 20) * (1 - th2 / 42));
+    b = 0.5 - (th2 / 24) * (1 - (th2 / 30) * (1 - th2 / 56));
   } else {
     const th = Math.sqrt(th2);
     a = Math.sin(th) / th;
