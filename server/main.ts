@@ -10,6 +10,7 @@ import { loadConfig, type Config } from './config.js';
 import { createDatabase } from './db/client.js';
 import { migrateDatabase } from './db/migrate.js';
 import { seedDemo } from './db/seed.js';
+import { seedDemoProgramme } from './db/seed-programme.js';
 import { createApp } from './app.js';
 import { createLogger } from './http/logging.js';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp.js';
@@ -34,7 +35,10 @@ export async function startServer(overrides: Partial<Config> = {}): Promise<Runn
   });
   try {
     await migrateDatabase(db);
-    if (config.seedDemo) await seedDemo(db.orm, { bcryptRounds: config.bcryptRounds });
+    if (config.seedDemo) {
+      await seedDemo(db.orm, { bcryptRounds: config.bcryptRounds, publicUrl: config.publicUrl });
+      await seedDemoProgramme(db.orm);
+    }
   } catch (err) {
     await db.close();
     throw err;

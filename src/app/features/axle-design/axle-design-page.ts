@@ -1,3 +1,4 @@
+import { RigMeasurementsPanel } from '../rig/rig-measurements-panel';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, OnInit, signal, untracked } from '@angular/core';
 import { DatePipe } from '@angular/common';
 import { ActivatedRoute, RouterLink } from '@angular/router';
@@ -51,7 +52,7 @@ function profileStorageKey(designId: string): string {
  */
 @Component({
   selector: 'rw-axle-design-page',
-  imports: [DatePipe, RouterLink, MatButton, MatProgressBar, HardpointTable, HardpointImport, LinkageViews, LineChart, SafetyCaution, CornerCautions, TrackProfileSelect],
+  imports: [DatePipe, RouterLink, MatButton, MatProgressBar, HardpointTable, HardpointImport, LinkageViews, LineChart, SafetyCaution, CornerCautions, TrackProfileSelect, RigMeasurementsPanel],
   templateUrl: './axle-design-page.html',
   styleUrl: './axle-design-page.scss',
   providers: [KinematicsClient],
@@ -80,6 +81,8 @@ export class AxleDesignPage implements OnInit {
   protected readonly editable = computed(() => this.access.can('design:edit'));
   protected readonly canAccept = computed(() => this.access.can('design:accept'));
   protected readonly canPropose = computed(() => this.access.can('design:propose'));
+  protected readonly canManage = computed(() => this.access.can('vehicle:manage'));
+  protected readonly canSetTolerance = computed(() => this.access.can('members:manage'));
   protected readonly proposals = signal<readonly Proposal[]>([]);
   protected readonly openProposals = computed(() => this.proposals().filter((p) => p.status === 'open'));
   protected readonly deciding = signal(false);
@@ -120,7 +123,7 @@ export class AxleDesignPage implements OnInit {
   });
 
   // Cautions beside the results: the track profile they are measured for, and the vehicle's data (tyres, loads, roll).
-  private readonly axle = computed(() => this.saved()?.axle ?? null);
+  protected readonly axle = computed(() => this.saved()?.axle ?? null);
   private readonly chosenProfile = signal<TrackProfileId | null>(null);
   protected readonly trackProfileId = computed<TrackProfileId>(() => this.chosenProfile() ?? DEFAULT_TRACK_PROFILE[this.axle() ?? 'front']);
   private readonly vehicleData = signal<unknown>(null);

@@ -82,6 +82,9 @@ function table(c: Configuration, permissions: string[], extra: Record<string, An
       { id: 'd-r', axle: 'rear', name: 'Rear baseline', revision: 3, status: 'draft', updatedAt: '' },
     ],
     [`GET ${C}/comments`]: [],
+    // The embedded rig panel (src/app/features/rig): nothing measured yet.
+    [`GET ${TEAM}/rig-measurements`]: [],
+    [`GET ${TEAM}/rig-tolerance`]: { toeDeg: 0.1, camberDeg: 0.25, isDefault: true, updatedByName: null, updatedAt: null },
     ...extra,
   };
 }

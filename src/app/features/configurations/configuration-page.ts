@@ -1,3 +1,4 @@
+import { RigMeasurementsPanel } from '../rig/rig-measurements-panel';
 import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal, viewChild } from '@angular/core';
 import { ActivatedRoute, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
@@ -67,7 +68,7 @@ interface FrozenFigure {
  */
 @Component({
   selector: 'rw-configuration-page',
-  imports: [RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, StatusChip, ReviewComments],
+  imports: [RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, StatusChip, ReviewComments, RigMeasurementsPanel],
   providers: [KinematicsClient],
   templateUrl: './configuration-page.html',
   styleUrl: './configuration-page.scss',
@@ -121,6 +122,7 @@ export class ConfigurationPage implements OnInit {
   });
   protected readonly canComment = computed(() => this.access.permissions().has('review:comment'));
   protected readonly canRevise = computed(() => this.access.permissions().has('vehicle:manage'));
+  protected readonly canSetTolerance = computed(() => this.access.permissions().has('members:manage'));
 
   // ---- results ----
   protected readonly figures = computed(() => {

@@ -1,5 +1,7 @@
+import { browserTimeZone, formatLocalTime } from '../../activity/local-time';
 import { ChangeDetectionStrategy, Component, computed, DestroyRef, effect, inject, input, signal, untracked } from '@angular/core';
 import { Subscription } from 'rxjs';
+import { MatButton } from '@angular/material/button';
 import {
   CAMBER_SIGNS,
   CAMBER_UNITS,
@@ -57,7 +59,7 @@ const UNIT_WORDS: Readonly<Record<string, string>> = {
  */
 @Component({
   selector: 'rw-rig-measurements',
-  imports: [LineChart, CautionList, SafetyCaution],
+  imports: [MatButton, LineChart, CautionList, SafetyCaution],
   templateUrl: './rig-measurements-panel.html',
   styleUrl: './rig-measurements-panel.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -222,6 +224,12 @@ export class RigMeasurementsPanel {
   protected readonly toeSeries = computed(() => this.overlay('toe'));
   protected readonly camberSeries = computed(() => this.overlay('camber'));
   protected readonly basisWords = computed(() => (this.comparison()?.basis === 'absolute' ? 'as measured' : 'change from design height'));
+
+  /** Stored in UTC, shown in the browser's zone (named in the column header). */
+  protected readonly timeZone = browserTimeZone();
+  protected localTime(iso: string): string {
+    return formatLocalTime(iso, this.timeZone);
+  }
 
   protected fmt(v: number, digits = 4): string {
     return formatNumber(v, digits);
