@@ -34,7 +34,8 @@ describe('PostgreSQL stopped and restarted while requests run', () => {
     db = createDatabase(relay.url, { connectTimeoutMs: 500 });
     await migrateDatabase(db);
     await seedDemo(db.orm, { bcryptRounds: 4 });
-    app = createApp(testConfig(relay.url, { dbConnectTimeoutMs: 500 }), db);
+    // The outbox worker runs too (polling every 50 ms; its mail server is a closed port), as on a real server.
+    app = createApp(testConfig(relay.url, { dbConnectTimeoutMs: 500, smtpUrl: `smtp://127.0.0.1:${await freePort()}`, mailPollMs: 50 }), db);
   });
   afterAll(async () => {
     await app?.close();
