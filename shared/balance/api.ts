@@ -6,7 +6,7 @@
  * compares with a variant. Returns JSON-safe plain objects; throws
  * InputError (bad input) or SolveError (unsolvable corner).
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import { parseOrThrow, SolveError } from '../errors.js';
 import { cornerDocumentSchema } from '../schema/corner.js';
 import { upgradeVehicleDocument, vehicleSchema, type Vehicle } from '../schema/vehicle.js';

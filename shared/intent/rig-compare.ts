@@ -12,7 +12,7 @@
  * `rig-toe-disagreement` / `rig-camber-disagreement` caution
  * (docs/cautions.md). docs/rig-measurements.md gives the math.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import { InputError, SolveError, parseOrThrow } from '../errors.js';
 import { cornerDocumentSchema, type Corner } from '../schema/corner.js';
 import { compileCorner, type Side } from '../kinematics/model.js';

@@ -1,5 +1,5 @@
 /** The zod schema of a rig file's column mapping (shared/io/rig-measurement.ts `RigMapping`), used at the API door. */
-import { z } from 'zod';
+import * as z from 'zod';
 import { CAMBER_SIGNS, CAMBER_UNITS, TOE_SIGNS, TOE_UNITS, TRAVEL_SIGNS, TRAVEL_UNITS, type RigMapping } from './rig-measurement.js';
 
 const column = z.number().int().min(0).max(63);

@@ -4,7 +4,7 @@
  * through shared/schema/units.ts and is converted before it reaches here.
  * Every field is documented with its unit in docs/balance.md.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 
 export const VEHICLE_FORMAT_VERSION = 1 as const;
 
