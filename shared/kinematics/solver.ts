@@ -354,11 +354,13 @@ export class CornerSolver {
     const s1 = hist[0]! - x0;
     const s2 = hist[1]! - x0;
     const s3 = hist[2]! - x0;
-    let n = dSteer === 0 ? hist[3]! : 0;
+    let n = dSteer === 0 && s1 !== 0 ? hist[3]! : 0;
     // Interpolate only near the nodes (a step no longer than four node spacings) and with distinct nodes.
     const near = Math.abs(dTravel) <= 4 * Math.abs(s1);
-    if (n === 3 && !(near && s3 !== 0 && s3 !== s1 && s3 !== s2)) n = 2;
-    if (n === 2 && !(near && s2 !== 0 && s2 !== s1)) n = 1;
+    const distinct2 = s2 !== 0 && s2 !== s1;
+    const distinct3 = distinct2 && s3 !== 0 && s3 !== s1 && s3 !== s2;
+    if (n === 3 && !(near && distinct3)) n = 2;
+    if (n === 2 && !(near && distinct2)) n = 1;
     if (n >= 1) {
       // ẋ(σ) = t + D1·σ + D2·σ(σ − s1) + D3·σ(σ − s1)(σ − s2), σ = travel − this travel (Newton form).
       const p = this.tPrev;
@@ -501,6 +503,11 @@ export class CornerSolver {
   rememberTangent(travelMm: number, tangent: ArrayLike<number>): void {
     const tp = this.tPrev;
     const hist = this.hist;
+    if (hist[3]! >= 1 && hist[0] === travelMm) {
+      // Same travel as the newest node (a repeated travel): replace it, so the nodes stay distinct.
+      for (let i = 0; i < 6; i++) tp[i] = tangent[i]!;
+      return;
+    }
     for (let i = 0; i < 6; i++) {
       tp[12 + i] = tp[6 + i]!;
       tp[6 + i] = tp[i]!;

@@ -160,6 +160,18 @@ describe('pose solver', () => {
 });
 
 describe('sweeps, fits and the axle', () => {
+  it('a travel list with repeats, uneven steps and both directions gives the same poses as separate solves', async () => {
+    // Source: derived (a pose depends only on travel and rack, not on the path the continuation took);
+    // exercises the predictor's memory (repeated nodes, resumed downward pass).
+    const { sweepTravels } = await import('../../../shared/kinematics/index.js');
+    const c = exampleCorners.fsFrontWishbone;
+    const s = new CornerSolver(compileCorner(c));
+    const travels = [-7, -3, 0, 0, 0.5, 0.5, 1.5, 4, 4.5, 12, 12.5];
+    const toe: number[] = [];
+    sweepTravels(s, travels, 10, (i) => (toe[i] = poseOutputs(s).toeDeg));
+    travels.forEach((t, i) => expect(toe[i]).toBeCloseTo(solvePose(c, { travelMm: t, rackMm: 10 }).toeDeg, 9));
+  });
+
   it('polyFit recovers a known quadratic', () => {
     // Source: derived (exact data of a known polynomial).
     const xs = [-2, -1, 0, 1, 2, 3];
