@@ -130,6 +130,35 @@ describe('two sessions change the same vehicle at once', () => {
   });
 });
 
+describe('accepting a proposal racing a hardpoint edit', () => {
+  it('one of them lands; the other is refused whole: a proposal is accepted with its revision or stays open', async () => {
+    const design = (await dana.post(`/api/teams/${teamId}/vehicles/${vehicleId}/axle-designs`).send({ axle: 'front', name: 'Proposal race', corner: exampleCorners.fsFrontWishbone }).expect(201)).body;
+    const url = `/api/teams/${teamId}/axle-designs/${design.id}`;
+    for (const delayMs of [0, 0, 5, 15, 30]) {
+      const base = (await dana.get(url).expect(200)).body.revision as number;
+      const proposal = (await eli.post(`${url}/proposals`).send({ corner: raised(7), baseRevision: base, message: 'from the intent' }).expect(201)).body;
+      const [accept, edit] = await Promise.all([
+        dana.post(`${url}/proposals/${proposal.id}/accept`).send({}),
+        new Promise((r) => setTimeout(r, delayMs)).then(() => sam.put(`${url}/corner`).send({ corner: raised(-7), baseRevision: base, message: 'by hand' })),
+      ]);
+      expect([accept.status, edit.status].sort(), `${JSON.stringify(accept.body)} ${JSON.stringify(edit.body)}`).toEqual([200, 409]);
+      const now = (await dana.get(url).expect(200)).body;
+      expect(now.revision).toBe(base + 1);
+      const p = (await dana.get(`${url}/proposals/${proposal.id}`).expect(200)).body;
+      if (accept.status === 200) {
+        expect(p).toMatchObject({ status: 'accepted', acceptedRevision: base + 1 });
+        expect(tieRodZ(now.corner)).toBeCloseTo(tieRodZ(raised(7)), 9);
+        expectError(edit, 409, 'stale_revision');
+      } else {
+        // Refused whole: still open, nothing of it in the design; the edit is the new revision.
+        expect(p).toMatchObject({ status: 'open', acceptedRevision: null });
+        expect(tieRodZ(now.corner)).toBeCloseTo(tieRodZ(raised(-7)), 9);
+        expect(accept.body.error.details.current.revision).toBe(base + 1);
+      }
+    }
+  });
+});
+
 describe('an approval racing an edit', () => {
   /** A configuration by the engineer, submitted for review. */
   async function inReview(name: string): Promise<{ url: string; revision: number }> {
