@@ -9,7 +9,7 @@ import { cornerDocumentSchema, type Corner } from './corner.js';
 import { armStrokeMm, innerName, MOVABLE_COORDINATE_PATTERN } from './steering-link.js';
 import { upgradeVehicleDocument, vehicleSchema } from './vehicle.js';
 import { TRACK_PROFILE_IDS, trackProfiles } from '../intent/profiles.js';
-import { CAUTION_CODES } from '../intent/cautions.js';
+import { CAUTION_RULES } from '../intent/cautions.js';
 
 // The steering-link helpers and the movable-coordinate pattern live in a
 // zod-free module (the browser's kinematics worker uses them without the
@@ -84,7 +84,8 @@ export const intentSchema = z
     vehicle: z.preprocess(upgradeVehicleDocument, vehicleSchema).optional(),
     options: intentOptionsSchema.default(() => intentOptionsSchema.parse({})),
     /** Per-vehicle overrides of the caution thresholds, by caution code. */
-    cautionThresholds: z.partialRecord(z.enum(CAUTION_CODES.filter((c) => c !== 'safety-notice' && c !== 'compliance-steer-unmodelled' && c !== 'rack-pose-unreachable') as [string, ...string[]]), levelThresholdsSchema).optional(),
+    // Only codes with a threshold rule can be tuned (not the notices, nor the rig tolerance cautions, which take the team's tolerance).
+    cautionThresholds: z.partialRecord(z.enum(Object.keys(CAUTION_RULES) as [string, ...string[]]), levelThresholdsSchema).optional(),
   })
   .superRefine((intent, ctx) => {
     const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });

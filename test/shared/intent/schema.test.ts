@@ -60,6 +60,9 @@ describe('intent validation names the field', () => {
     ['a travel step too coarse for a fit', (i) => (i['options'] = { travelStepMm: 20 }), 'options.travelStepMm'],
     ['a travel step so fine the solve would run away', (i) => (i['options'] = { travelStepMm: 0.1 }), 'options.travelStepMm'],
     ['a negative shim', (i) => (i['options'] = { shimThicknessMm: -1 }), 'options.shimThicknessMm'],
+    // The rig cautions follow the team's rig tolerance, the notices have no threshold (docs/cautions.md).
+    ['a threshold for a rig tolerance caution', (i) => (i['cautionThresholds'] = { 'rig-toe-disagreement': { warning: 0.1 } }), /cautionThresholds/],
+    ['a threshold for the safety notice', (i) => (i['cautionThresholds'] = { 'safety-notice': { warning: 0.1 } }), /cautionThresholds/],
   ];
   for (const [what, mutate, path] of cases) {
     it(`refuses ${what}`, () => {
