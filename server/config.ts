@@ -46,6 +46,12 @@ export interface Config {
   sessionAbsoluteMs: number;
   /** Sign-in attempts allowed per IP and e-mail address within the window. */
   signInLimit: { windowMs: number; max: number };
+  /**
+   * Per client address, whatever the account: failed sign-ins, registrations
+   * and confirmation resends allowed within the window (bounds the bcrypt work
+   * one address can cause and how fast it can probe which addresses exist).
+   */
+  addressLimit: { windowMs: number; max: number };
   /** Largest accepted JSON body (express/body-parser size syntax). */
   bodyLimit: string;
   /** Milliseconds to wait for a database connection before answering 503. */
@@ -128,6 +134,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     signInLimit: {
       windowMs: int(env, 'SIGN_IN_WINDOW_MINUTES', 15, 1) * 60_000,
       max: int(env, 'SIGN_IN_MAX_ATTEMPTS', 10, 1),
+    },
+    addressLimit: {
+      windowMs: int(env, 'SIGN_IN_WINDOW_MINUTES', 15, 1) * 60_000,
+      // Test suites register hundreds of throwaway accounts from 127.0.0.1.
+      max: int(env, 'ADDRESS_MAX_ATTEMPTS', test ? 100_000 : 50, 1),
     },
     bodyLimit: env['BODY_LIMIT'] || '1mb',
     dbConnectTimeoutMs: int(env, 'DB_CONNECT_TIMEOUT_MS', 3000, 100),

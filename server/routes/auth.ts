@@ -55,6 +55,21 @@ export function authRouter(config: Config, accounts: Accounts, pool: pg.Pool, au
     handler: (_req, _res, next) => next(new HttpError(429, 'rate_limited', 'Too many reset requests. Please wait a few minutes and try again.')),
   });
 
+  /** One client address, all accounts together (config.addressLimit). */
+  const addressLimiter = (message: string, failedOnly: boolean) =>
+    rateLimit({
+      windowMs: config.addressLimit.windowMs,
+      limit: config.addressLimit.max,
+      skipSuccessfulRequests: failedOnly,
+      standardHeaders: 'draft-8',
+      legacyHeaders: false,
+      keyGenerator: (req) => ipKeyGenerator(req.ip ?? ''),
+      handler: (_req, _res, next) => next(new HttpError(429, 'rate_limited', message)),
+    });
+  const signInAddressLimiter = addressLimiter('Too many failed sign-ins from this address. Please wait a few minutes and try again.', true);
+  const registerLimiter = addressLimiter('Too many accounts created from this address. Please wait a few minutes and try again.', false);
+  const resendLimiter = addressLimiter('Too many confirmation links requested. Please wait a few minutes and try again.', false);
+
   r.get('/me', auth.requireUser, async (req, res) => {
     res.json(await accounts.me(currentUser(req).id));
   });
@@ -66,8 +81,8 @@ export function authRouter(config: Config, accounts: Accounts, pool: pg.Pool, au
     res.json(await accounts.me(id));
   });
 
-  // Public: anyone may register.
-  r.post('/register', async (req, res) => {
+  // Public: anyone may register (a bounded number of times per address).
+  r.post('/register', registerLimiter, async (req, res) => {
     const input = validate(registerSchema, req.body);
     const id = await accounts.register(input);
     await establishSession(req, id);
@@ -75,7 +90,7 @@ export function authRouter(config: Config, accounts: Accounts, pool: pg.Pool, au
   });
 
   // Public, rate-limited.
-  r.post('/sign-in', signInLimiter, async (req, res) => {
+  r.post('/sign-in', signInAddressLimiter, signInLimiter, async (req, res) => {
     const { email: e, password: p } = validate(signInSchema, req.body);
     const id = await accounts.verify(e, p);
     if (!id) throw new HttpError(401, 'invalid_credentials', 'The e-mail address or password is not correct');
@@ -120,7 +135,7 @@ export function authRouter(config: Config, accounts: Accounts, pool: pg.Pool, au
     res.json({ verified: true });
   });
 
-  r.post('/verify-email/resend', auth.requireUser, async (req, res) => {
+  r.post('/verify-email/resend', auth.requireUser, resendLimiter, async (req, res) => {
     await accounts.resendVerification(currentUser(req).id);
     res.status(202).json({ status: 'A new confirmation link is on its way.' });
   });

@@ -9,7 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createApp } from '../../server/app.js';
 import { SESSION_COOKIE, SESSION_TABLE } from '../../server/http/session.js';
-import { agent, DEMO_PASSWORD, expectError, listRoutes, registerUser, signIn, startTestApp, testConfig, type TestApp } from './helpers.js';
+import { agent, DEMO_PASSWORD, expectError, listRoutes, registerUser, signIn, startTestApp, testConfig, type Agent, type TestApp } from './helpers.js';
 
 const LIMIT = 4;
 let t: TestApp;
@@ -179,6 +179,39 @@ describe('rate limits', () => {
         if (r.status === 429) expectError(r, 429, 'rate_limited');
       }
       expect(statuses).toEqual([...Array(LIMIT).fill(202), 429, 429]);
+    } finally {
+      await app.close();
+    }
+  });
+});
+
+describe('limits per client address (config.addressLimit)', () => {
+  const MAX = 4;
+  it(`failed sign-ins over many accounts, registrations and confirmation resends: ${MAX} per window from one address, then 429`, async () => {
+    const app = createApp(testConfig(t.databaseUrl, { addressLimit: { windowMs: 60_000, max: MAX } }), t.db);
+    try {
+      // Failed sign-ins spread over different addresses (the per-account limit never trips).
+      const signIns: number[] = [];
+      for (let i = 0; i < MAX + 1; i++) signIns.push((await agent(app).post('/api/auth/sign-in').send({ email: `probe-${i}@test.example`, password: 'not-the-password' })).status);
+      expect(signIns).toEqual([...Array(MAX).fill(401), 429]);
+      expectError(await agent(app).post('/api/auth/sign-in').send({ email: 'viewer@tallowmere.example', password: DEMO_PASSWORD }), 429, 'rate_limited');
+
+      const stamp = Date.now();
+      const registrations: number[] = [];
+      let first: Agent | undefined;
+      for (let i = 0; i < MAX + 1; i++) {
+        const a = agent(app);
+        registrations.push((await a.post('/api/auth/register').send({ email: `limit-${stamp}-${i}@test.example`, password: 'long-enough-pass', displayName: `Limit ${i}` })).status);
+        first ??= a;
+      }
+      expect(registrations).toEqual([...Array(MAX).fill(201), 429]);
+      // Nothing was created by the refused registration.
+      const made = await t.db.pool.query(`SELECT count(*)::int AS n FROM users WHERE email LIKE $1`, [`limit-${stamp}-%`]);
+      expect(made.rows[0].n).toBe(MAX);
+
+      const resends: number[] = [];
+      for (let i = 0; i < MAX + 1; i++) resends.push((await first!.post('/api/auth/verify-email/resend')).status);
+      expect(resends).toEqual([...Array(MAX).fill(202), 429]);
     } finally {
       await app.close();
     }
