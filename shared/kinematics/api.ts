@@ -3,7 +3,7 @@
  * the CLI: validate with zod (InputError naming the field), cap the pose
  * count, solve, and return JSON-safe plain objects (no NaN, no Infinity).
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import { InputError, SolveError, parseOrThrow } from '../errors.js';
 import { cornerDocumentSchema, upgradeCornerDocument } from '../schema/corner.js';
 import { sweepCorner, expandRange } from './sweep.js';
@@ -15,22 +15,22 @@ export const MAX_POSES_PER_REQUEST = 20_000;
 export const MAX_RACK_POSITIONS = 25;
 
 const finite = z.number().finite();
-const rangeSchema = z.object({ from: finite, to: finite, step: finite });
+const rangeSchema = z.strictObject({ from: finite, to: finite, step: finite });
 const cornerField = cornerDocumentSchema;
 const rackList = z.array(finite).min(1).max(MAX_RACK_POSITIONS).optional();
 
-export const cornerSweepRequestSchema = z.object({
+export const cornerSweepRequestSchema = z.strictObject({
   corner: cornerField,
   /** Wheel travel range, mm. */
   travel: rangeSchema,
   /** Rack positions, mm (default [0]). */
   rackMm: rackList,
   /** Travel window of the fits, mm. */
-  fitRange: z.object({ fromMm: finite, toMm: finite }).optional(),
+  fitRange: z.strictObject({ fromMm: finite, toMm: finite }).optional(),
 });
 export type CornerSweepRequest = z.infer<typeof cornerSweepRequestSchema>;
 
-export const axleRollRequestSchema = z.object({
+export const axleRollRequestSchema = z.strictObject({
   corner: cornerField,
   /** Explicit RIGHT corner in vehicle coordinates (y < 0); default: the mirror of `corner`. */
   rightCorner: z.unknown().optional(),
@@ -41,7 +41,7 @@ export const axleRollRequestSchema = z.object({
   wheelbaseMm: finite.positive().optional(),
   /** Anti-dive / anti-squat inputs. */
   anti: z
-    .object({
+    .strictObject({
       axle: z.enum(['front', 'rear']),
       cgHeightMm: finite.positive(),
       wheelbaseMm: finite.positive(),

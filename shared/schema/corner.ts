@@ -10,7 +10,7 @@
  * geometry that would leave a link, arm or axis undefined, and every message
  * names the point involved.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import type { FieldIssue } from '../errors.js';
 import { InputError, formatPath } from '../errors.js';
 

@@ -8,7 +8,7 @@
 import { describe, expect, it } from 'vitest';
 import { cornerSchema, cornerDocumentSchema, unknownKeysMessage } from '../../../shared/schema/corner.js';
 import { exampleCorners, compileCorner } from '../../../shared/kinematics/index.js';
-import { computeCornerSweep } from '../../../shared/kinematics/api.js';
+import { computeAxleRoll, computeCornerSweep } from '../../../shared/kinematics/api.js';
 import { InputError } from '../../../shared/errors.js';
 
 const dw = () => structuredClone(exampleCorners.fsFrontWishbone) as any;
@@ -80,6 +80,24 @@ describe('corner documents refuse unknown keys', () => {
     expect(caught).toBeInstanceOf(InputError);
     const issue = (caught as InputError).issues.find((i) => i.path === 'corner.points');
     expect(issue?.message).toContain('corner.points.tieRodInnr (did you mean corner.points.tieRodInner?)');
+  });
+
+  it('the sweep and roll requests refuse a misspelt option instead of ignoring it', () => {
+    const issuesOf = (f: () => unknown): { path: string; message: string }[] => {
+      try {
+        f();
+      } catch (e) {
+        expect(e).toBeInstanceOf(InputError);
+        return (e as InputError).issues;
+      }
+      throw new Error('expected an InputError');
+    };
+    const corner = exampleCorners.fsFrontWishbone;
+    const travel = { from: -10, to: 10, step: 5 };
+    // `fitrange` would otherwise be dropped and the fit silently run over the whole travel.
+    expect(issuesOf(() => computeCornerSweep({ corner, travel, fitrange: { fromMm: -5, toMm: 5 } })).map((i) => i.message).join(' ')).toContain('fitrange');
+    expect(issuesOf(() => computeCornerSweep({ corner, travel: { ...travel, stepMm: 1 } })).map((i) => i.path)).toContain('travel');
+    expect(issuesOf(() => computeAxleRoll({ corner, roll: { from: -2, to: 2, step: 1 }, wheelBase: 1550 })).map((i) => i.message).join(' ')).toContain('wheelBase');
   });
 
   it('a stored document read through cornerDocumentSchema is refused the same way, and the examples still pass', () => {
