@@ -19,6 +19,8 @@ export interface RunOptions {
 
 export interface ComputePool {
   run(kind: ComputeKind, input: unknown, o: RunOptions): Promise<unknown>;
+  /** The same, with the result as JSON text made in the worker (for routes that only send it on). */
+  runJson(kind: ComputeKind, input: unknown, o: RunOptions): Promise<string>;
   close(): Promise<void>;
 }
 
@@ -41,42 +43,48 @@ export function createComputePool(o: { threads: number; maxQueue?: number; warm?
 
   if (o.warm) get();
   return {
-    async run(kind, input, opts) {
-      const timer = new AbortController();
-      const timeout = setTimeout(() => timer.abort(), opts.timeLimitMs);
-      const signal = opts.signal ? AbortSignal.any([timer.signal, opts.signal]) : timer.signal;
-      let port: MessageChannel | undefined;
-      const task: ComputeTask = { kind, input };
-      const transferList = [];
-      if (opts.onProgress) {
-        port = new MessageChannel();
-        port.port1.on('message', opts.onProgress);
-        task.progressPort = port.port2;
-        transferList.push(port.port2);
-      }
-      try {
-        const out = (await get().run(task, { signal, transferList })) as WorkerOutcome;
-        if (!out.ok) throw deserializeError(out.error);
-        return out.result;
-      } catch (err) {
-        if (timer.signal.aborted) {
-          throw new SolveError('time_limit', `The computation did not finish within ${Math.round(opts.timeLimitMs / 1000)} s; reduce the range or step count`, {
-            timeLimitMs: opts.timeLimitMs,
-          });
-        }
-        if (opts.signal?.aborted) throw new HttpError(409, 'cancelled', 'The computation was cancelled');
-        if (err instanceof Error && /queue is at limit/i.test(err.message)) {
-          throw new HttpError(503, 'compute_busy', 'The server is busy with other computations; try again in a moment');
-        }
-        throw err;
-      } finally {
-        clearTimeout(timeout);
-        port?.port1.close();
-      }
+    async run(kind: ComputeKind, input: unknown, opts: RunOptions): Promise<unknown> {
+      return exec({ kind, input }, opts);
+    },
+    async runJson(kind: ComputeKind, input: unknown, opts: RunOptions): Promise<string> {
+      return (await exec({ kind, input, asJson: true }, opts)) as string;
     },
     async close() {
       await pool?.destroy();
       pool = undefined;
     },
   };
+
+  async function exec(task: ComputeTask, opts: RunOptions): Promise<unknown> {
+    const timer = new AbortController();
+    const timeout = setTimeout(() => timer.abort(), opts.timeLimitMs);
+    const signal = opts.signal ? AbortSignal.any([timer.signal, opts.signal]) : timer.signal;
+    let port: MessageChannel | undefined;
+    const transferList = [];
+    if (opts.onProgress) {
+      port = new MessageChannel();
+      port.port1.on('message', opts.onProgress);
+      task.progressPort = port.port2;
+      transferList.push(port.port2);
+    }
+    try {
+      const out = (await get().run(task, { signal, transferList })) as WorkerOutcome;
+      if (!out.ok) throw deserializeError(out.error);
+      return 'json' in out ? out.json : out.result;
+    } catch (err) {
+      if (timer.signal.aborted) {
+        throw new SolveError('time_limit', `The computation did not finish within ${Math.round(opts.timeLimitMs / 1000)} s; reduce the range or step count`, {
+          timeLimitMs: opts.timeLimitMs,
+        });
+      }
+      if (opts.signal?.aborted) throw new HttpError(409, 'cancelled', 'The computation was cancelled');
+      if (err instanceof Error && /queue is at limit/i.test(err.message)) {
+        throw new HttpError(503, 'compute_busy', 'The server is busy with other computations; try again in a moment');
+      }
+      throw err;
+    } finally {
+      clearTimeout(timeout);
+      port?.port1.close();
+    }
+  }
 }

@@ -9,6 +9,12 @@ export interface ComputeTask {
   input: unknown;
   /** Receives `ProgressMessage`s (solve only). */
   progressPort?: import('node:worker_threads').MessagePort;
+  /**
+   * Return the result as JSON text (`json`) instead of an object: the worker
+   * pays for JSON.stringify, and the main thread copies one string instead of
+   * rebuilding a large object graph and stringifying it again.
+   */
+  asJson?: boolean;
 }
 
 export type ProgressMessage = { type: 'started' } | { type: 'progress'; fraction: number; message: string };
@@ -18,7 +24,7 @@ export type SerializedError =
   | { kind: 'solve'; code: SolveErrorCode; message: string; details: Record<string, unknown> }
   | { kind: 'internal'; message: string };
 
-export type WorkerOutcome = { ok: true; result: unknown } | { ok: false; error: SerializedError };
+export type WorkerOutcome = { ok: true; result: unknown } | { ok: true; json: string } | { ok: false; error: SerializedError };
 
 export function serializeError(err: unknown): SerializedError {
   if (err instanceof InputError) return { kind: 'input', message: err.message, issues: err.issues };

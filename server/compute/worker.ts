@@ -29,7 +29,7 @@ export default async function runComputeTask(task: ComputeTask): Promise<WorkerO
       ? (fraction: number, message: string) => port.postMessage({ type: 'progress', fraction, message } satisfies ProgressMessage)
       : undefined;
     const result = await fn(task.input, onProgress);
-    return { ok: true, result };
+    return task.asJson ? { ok: true, json: JSON.stringify(result) } : { ok: true, result };
   } catch (err) {
     return { ok: false, error: serializeError(err) };
   } finally {

@@ -27,8 +27,9 @@ export function computeRouter(pool: ComputePool, jobs: SolveJobs, auth: Authoriz
       res.on('close', () => {
         if (!res.writableFinished) gone.abort();
       });
-      const result = await pool.run(kind, req.body, { timeLimitMs, signal: gone.signal });
-      res.json({ engineVersion: ENGINE_VERSION, result });
+      // The worker hands back JSON text; wrapping it keeps the big result off this thread's JSON.stringify.
+      const json = await pool.runJson(kind, req.body, { timeLimitMs, signal: gone.signal });
+      res.type('application/json').send(`{"engineVersion":${JSON.stringify(ENGINE_VERSION)},"result":${json}}`);
     });
   }
 

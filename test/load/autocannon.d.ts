@@ -11,6 +11,8 @@ declare module 'autocannon' {
     connections?: number;
     duration?: number;
     maxOverallRequests?: number;
+    /** Requests per second over all connections (a paced, open-ended load). */
+    overallRate?: number;
     timeout?: number;
     headers?: Record<string, string>;
     requests?: Request[];
