@@ -1,5 +1,6 @@
 import { TestBed } from '@angular/core/testing';
 import { provideHttpClient } from '@angular/common/http';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { sweepCorner } from '../../../../shared/kinematics/sweep';
@@ -17,7 +18,9 @@ function engineFile(offset: number): string {
 }
 
 function setUp(inputs: Record<string, unknown> = { configurationId: 'config-1' }) {
-  TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting()] });
+  TestBed.configureTestingModule({
+    providers: [provideHttpClient(), provideHttpClientTesting(), { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } }],
+  });
   const fixture = TestBed.createComponent(RigMeasurementsPanel);
   fixture.componentRef.setInput('teamId', 'team-1');
   for (const [k, v] of Object.entries(inputs)) fixture.componentRef.setInput(k, v);
@@ -168,21 +171,24 @@ describe('RigMeasurementsPanel', () => {
     expect(button(el, 'Store measurement').disabled).toBe(true);
   });
 
-  it('deletes a stored measurement after confirmation and lists again', () => {
+  it('deletes a stored measurement after confirmation and lists again', async () => {
     const { fixture, el, http } = setUp();
     answerStart(http, [summary('m-1')]);
     fixture.detectChanges();
     expect(el.querySelectorAll('.rw-rig-list tbody tr').length).toBe(1);
-    const confirmSpy = vi.spyOn(globalThis, 'confirm').mockReturnValue(true);
     button(el, 'Delete').click();
-    expect(confirmSpy).toHaveBeenCalledOnce();
+    await fixture.whenStable();
+    // Nothing is sent until the dialog is confirmed.
+    http.expectNone(`${TEAM}/rig-measurements/m-1`);
+    expect(document.querySelector('mat-dialog-content')?.textContent).toContain('removed for good');
+    [...document.querySelectorAll<HTMLButtonElement>('mat-dialog-actions button')].find((b) => b.textContent?.trim() === 'Delete measurement')!.click();
+    await fixture.whenStable();
     const del = http.expectOne(`${TEAM}/rig-measurements/m-1`);
     expect(del.request.method).toBe('DELETE');
     del.flush(null, { status: 204, statusText: 'No Content' });
     http.expectOne((r) => r.url === `${TEAM}/rig-measurements`).flush([]);
     fixture.detectChanges();
     expect(el.querySelector('.rw-rig-empty')).not.toBeNull();
-    confirmSpy.mockRestore();
     http.verify();
   });
 

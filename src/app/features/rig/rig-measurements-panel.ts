@@ -2,6 +2,8 @@ import { browserTimeZone, formatLocalTime } from '../../activity/local-time';
 import { ChangeDetectionStrategy, Component, computed, DestroyRef, effect, inject, input, signal, untracked } from '@angular/core';
 import { Subscription } from 'rxjs';
 import { MatButton } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { confirmAction } from '../../core/layout/confirm-dialog';
 import {
   CAMBER_SIGNS,
   CAMBER_UNITS,
@@ -66,6 +68,7 @@ const UNIT_WORDS: Readonly<Record<string, string>> = {
 })
 export class RigMeasurementsPanel {
   private readonly api = inject(RigApi);
+  private readonly dialog = inject(MatDialog);
 
   readonly teamId = input.required<string>();
   /** Compare with this configuration (its current revision); the axle is chosen in the panel, starting from `axle`. */
@@ -383,16 +386,24 @@ export class RigMeasurementsPanel {
   }
 
   protected remove(row: RigMeasurementSummary): void {
-    if (!globalThis.confirm(`Delete the rig measurement "${row.name}"? Its points are removed for good.`)) return;
-    this.actionError.set(null);
     this.requests.add(
-      this.api.remove(this.teamId(), row.id).subscribe({
-        next: () => {
-          const s = this.selected();
-          if (s?.status === 'ready' && s.value.id === row.id) this.selected.set(null);
-          this.refresh();
-        },
-        error: (e: unknown) => this.actionError.set(apiProblem(e).message),
+      confirmAction(this.dialog, {
+        title: 'Delete rig measurement?',
+        message: `"${row.name}" (${row.fileName}) and its points are removed for good; the activity log keeps a line saying who deleted it.`,
+        confirmLabel: 'Delete measurement',
+      }).subscribe((confirmed) => {
+        if (!confirmed) return;
+        this.actionError.set(null);
+        this.requests.add(
+          this.api.remove(this.teamId(), row.id).subscribe({
+            next: () => {
+              const s = this.selected();
+              if (s?.status === 'ready' && s.value.id === row.id) this.selected.set(null);
+              this.refresh();
+            },
+            error: (e: unknown) => this.actionError.set(apiProblem(e).message),
+          }),
+        );
       }),
     );
   }
