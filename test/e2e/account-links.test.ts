@@ -8,17 +8,9 @@
  * Needs `npx ng build` first.
  */
 import type { Locator, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import {
-  consoleErrors,
-  offsiteRequests,
-  openBrowser,
-  saveScreenshot,
-  signIn,
-  startE2eApp,
-} from '../support/e2e.js';
+import { describe, expect, it } from 'vitest';
+import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, signIn, useE2eApp } from '../support/e2e.js';
 
-type App = Awaited<ReturnType<typeof startE2eApp>>;
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
 const DESIGNER = 'designer@tallowmere.example';
@@ -42,23 +34,12 @@ async function waitForMail(page: Page, subject: string, to: string): Promise<Loc
 }
 
 describe('account links in mail', () => {
-  let app: App;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    app = await startE2eApp();
-    browser = await openBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await app?.stop();
-  });
+  const env = useE2eApp();
 
   it('resets a password through the mailed link, found on the development mail page', async () => {
     // The demo designer forgot the password: the sign-in page leads to the request.
-    const user = await browser.newPage();
-    await user.goto(`${app.baseUrl}/sign-in`);
+    const user = await env.browser.newPage();
+    await user.goto(`${env.app.baseUrl}/sign-in`);
     await user.getByLabel('E-mail').fill(DESIGNER);
     await user.getByRole('link', { name: 'Forgot your password?' }).click();
     await user.waitForURL((url) => url.pathname === '/forgot-password');
@@ -78,8 +59,8 @@ describe('account links in mail', () => {
     expect(unknown).toBe(known.replace(DESIGNER, 'nobody@tallowmere.example'));
 
     // The team owner, in another context, reads the captured mail.
-    const owner = await browser.newPage();
-    await signIn(owner, app.baseUrl, OWNER);
+    const owner = await env.browser.newPage();
+    await signIn(owner, env.app.baseUrl, OWNER);
     await owner.getByRole('navigation', { name: 'Team sections' }).getByRole('link', { name: 'Dev mail' }).click();
     await owner.waitForURL((url) => url.pathname.endsWith('/dev-mail'));
     await owner.getByRole('heading', { name: /^Development mail/ }).waitFor();
@@ -94,7 +75,7 @@ describe('account links in mail', () => {
     // The link is built from the server's PUBLIC_URL, which the harness leaves at
     // its default port while the test server listens on another: open the same
     // path on the test server.
-    await owner.goto(new URL(href.pathname, app.baseUrl).href);
+    await owner.goto(new URL(href.pathname, env.app.baseUrl).href);
     await owner.getByRole('heading', { name: 'Choose a new password' }).waitFor();
     // The page is open to everyone but still knows who is signed in here.
     await owner.getByRole('button', { name: /^Signed in as Ana Ferreira/ }).waitFor();
@@ -105,7 +86,7 @@ describe('account links in mail', () => {
     await saveScreenshot(owner, 'account-links-password-reset');
 
     // The designer signs in with the new password and reaches the team.
-    await signIn(user, app.baseUrl, DESIGNER, NEW_PASSWORD);
+    await signIn(user, env.app.baseUrl, DESIGNER, NEW_PASSWORD);
     await user.getByRole('heading', { name: 'Vehicles · Tallowmere University Racing' }).waitFor();
 
     for (const page of [user, owner]) {

@@ -7,10 +7,9 @@
  * fresh seeded database, Debian's Chromium. Needs `npx ng build` first.
  */
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, signIn, startE2eApp, seriousA11yViolations } from '../support/e2e.js';
+import { describe, expect, it } from 'vitest';
+import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 
-type App = Awaited<ReturnType<typeof startE2eApp>>;
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
 const TIE_ROD_INNER_Z = 'Tie rod, inner end (rack), z in mm';
@@ -34,23 +33,12 @@ function toePath(page: Page): Promise<string | null> {
 }
 
 describe('Axle design editor in Chromium', () => {
-  let app: App;
-  let browser: Browser;
+  const env = useE2eApp();
   let designPath = '';
 
-  beforeAll(async () => {
-    app = await startE2eApp();
-    browser = await openBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await app?.stop();
-  });
-
   it('lets the designer change the tie-rod inner height, see toe and gradient change, and save a new revision', async () => {
-    const page = await browser.newPage();
-    await signIn(page, app.baseUrl, 'designer@tallowmere.example');
+    const page = await env.browser.newPage();
+    await signIn(page, env.app.baseUrl, 'designer@tallowmere.example');
     designPath = await openFrontBaseline(page);
     expect(designPath).toMatch(/^\/teams\/[^/]+\/vehicles\/[^/]+\/axle-designs\/[^/]+$/);
     await expect(page.getByTestId('revision').innerText()).resolves.toMatch(/^Revision 1\b/);
@@ -118,16 +106,16 @@ describe('Axle design editor in Chromium', () => {
   });
 
   it('keeps both versions when a save is stale', async () => {
-    const mine = await browser.newPage();
-    await signIn(mine, app.baseUrl, 'designer@tallowmere.example');
-    await mine.goto(app.baseUrl + designPath);
+    const mine = await env.browser.newPage();
+    await signIn(mine, env.app.baseUrl, 'designer@tallowmere.example');
+    await mine.goto(env.app.baseUrl + designPath);
     await mine.locator('[data-testid="toe-chart"] path.rw-series-line').first().waitFor();
     const revision = Number(/Revision (\d+)/.exec(await mine.getByTestId('revision').innerText())![1]);
 
     // Someone else saves first, from another session.
-    const theirs = await browser.newPage();
-    await signIn(theirs, app.baseUrl, 'designer@tallowmere.example');
-    await theirs.goto(app.baseUrl + designPath);
+    const theirs = await env.browser.newPage();
+    await signIn(theirs, env.app.baseUrl, 'designer@tallowmere.example');
+    await theirs.goto(env.app.baseUrl + designPath);
     const theirX = theirs.getByLabel('Lower ball joint, x in mm');
     await theirX.fill(String(Number(await theirX.inputValue()) + 1));
     await theirX.press('Enter');
@@ -154,9 +142,9 @@ describe('Axle design editor in Chromium', () => {
   });
 
   it('imports hardpoints: a good CSV, one with a bad row, and one from another CAD frame', async () => {
-    const page = await browser.newPage();
-    await signIn(page, app.baseUrl, 'designer@tallowmere.example');
-    await page.goto(app.baseUrl + designPath);
+    const page = await env.browser.newPage();
+    await signIn(page, env.app.baseUrl, 'designer@tallowmere.example');
+    await page.goto(env.app.baseUrl + designPath);
     await page.locator('[data-testid="toe-chart"] path.rw-series-line').first().waitFor();
     const z = Number(await page.getByLabel(TIE_ROD_INNER_Z).inputValue());
     const [x, y] = [
@@ -212,9 +200,9 @@ describe('Axle design editor in Chromium', () => {
   });
 
   it('can be worked by keyboard alone: reach a coordinate, change it, undo, redo and save', async () => {
-    const page = await browser.newPage();
-    await signIn(page, app.baseUrl, 'designer@tallowmere.example');
-    await page.goto(app.baseUrl + designPath);
+    const page = await env.browser.newPage();
+    await signIn(page, env.app.baseUrl, 'designer@tallowmere.example');
+    await page.goto(env.app.baseUrl + designPath);
     await page.locator('[data-testid="toe-chart"] path.rw-series-line').first().waitFor();
     const revision = Number(/Revision (\d+)/.exec(await page.getByTestId('revision').innerText())![1]);
     const focusedLabel = () => page.evaluate(() => document.activeElement?.getAttribute('aria-label') ?? document.activeElement?.textContent?.trim() ?? '');
@@ -267,8 +255,8 @@ describe('Axle design editor in Chromium', () => {
   });
 
   it('shows the viewer the design with no edit controls', async () => {
-    const page = await browser.newPage();
-    await signIn(page, app.baseUrl, 'viewer@tallowmere.example');
+    const page = await env.browser.newPage();
+    await signIn(page, env.app.baseUrl, 'viewer@tallowmere.example');
     await openFrontBaseline(page);
     await page.getByText('Read only: your roles in this team do not include editing axle designs.').waitFor();
     await expect(page.locator('input.rw-coordinate').count()).resolves.toBe(0);

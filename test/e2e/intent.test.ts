@@ -8,10 +8,9 @@
  * "rear roll understeer of 0.06" means ε_r = −0.06.
  */
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, signIn, startE2eApp, seriousA11yViolations } from '../support/e2e.js';
+import { describe, expect, it } from 'vitest';
+import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 
-type App = Awaited<ReturnType<typeof startE2eApp>>;
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
 const TARGET_EPSILON = -0.06;
@@ -27,23 +26,12 @@ async function openRearBaseline(page: Page): Promise<void> {
 }
 
 describe('Intent panel in Chromium', () => {
-  let app: App;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    app = await startE2eApp();
-    browser = await openBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await app?.stop();
-  });
+  const env = useE2eApp();
 
   it('solves a rear roll-steer target, proposes it, and the designer accepts it', async () => {
-    const engineer = await browser.newPage();
-    await signIn(engineer, app.baseUrl, 'engineer@tallowmere.example');
-    await engineer.goto(app.baseUrl + '/teams');
+    const engineer = await env.browser.newPage();
+    await signIn(engineer, env.app.baseUrl, 'engineer@tallowmere.example');
+    await engineer.goto(env.app.baseUrl + '/teams');
     await engineer.getByRole('link', { name: /Tallowmere/ }).first().click();
     await openRearBaseline(engineer);
     const editorPath = new URL(engineer.url()).pathname;
@@ -75,9 +63,9 @@ describe('Intent panel in Chromium', () => {
     expect(consoleErrors(engineer)).toEqual([]);
     await engineer.close();
 
-    const designer = await browser.newPage();
-    await signIn(designer, app.baseUrl, 'designer@tallowmere.example');
-    await designer.goto(app.baseUrl + editorPath);
+    const designer = await env.browser.newPage();
+    await signIn(designer, env.app.baseUrl, 'designer@tallowmere.example');
+    await designer.goto(env.app.baseUrl + editorPath);
     await designer.getByRole('heading', { name: 'Proposed geometry waiting for a designer' }).waitFor();
     await designer.getByRole('button', { name: 'Accept as new revision' }).click();
     await designer.getByText(/Accepted the proposal from Eli Marsh: now revision 2\./).waitFor();
@@ -136,7 +124,7 @@ describe('Intent panel in Chromium', () => {
     await saveScreenshot(designer, 'compare-rear-designs');
 
     // The printable report of the accepted revision carries its cautions and the safety caution; print drops the app's header.
-    await designer.goto(app.baseUrl + editorPath + '/report');
+    await designer.goto(env.app.baseUrl + editorPath + '/report');
     await designer.getByRole('heading', { name: 'Axle design report: Rear baseline' }).waitFor();
     await designer.getByText(/accepted as this revision/).waitFor();
     await designer.locator('[data-testid="report"] rw-caution-list li').first().waitFor();

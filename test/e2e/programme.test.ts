@@ -13,20 +13,10 @@
  */
 import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import {
-  consoleErrors,
-  offsiteRequests,
-  openBrowser,
-  saveScreenshot,
-  seriousA11yViolations,
-  signIn,
-  startE2eApp,
-} from '../support/e2e.js';
-import { createDatabase } from '../../server/db/client.js';
-import { DEMO_PROGRAMME, seedDemoProgramme } from '../../server/db/seed-programme.js';
+import { describe, expect, it } from 'vitest';
+import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+import { DEMO_PROGRAMME } from '../../server/db/seed-programme.js';
 
-type App = Awaited<ReturnType<typeof startE2eApp>>;
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
 const INSTRUCTOR = 'instructor@programme.example';
@@ -67,30 +57,12 @@ async function acceptAsOwner(page: Page, teamName: string): Promise<void> {
 }
 
 describe('programmes, API tokens and the activity log', () => {
-  let app: App;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    app = await startE2eApp();
-    // The demo programme too (idempotent: harmless once the server seeds it at start).
-    const db = createDatabase(app.databaseUrl);
-    try {
-      await seedDemoProgramme(db.orm);
-    } finally {
-      await db.close();
-    }
-    browser = await openBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await app?.stop();
-  });
+  const env = useE2eApp();
 
   it('an instructor’s board lists two teams after both owners accepted; a token works once and is revoked', async () => {
     // The instructor starts a programme and invites both teams by their address.
-    const iris = await settledPage(browser);
-    await signIn(iris, app.baseUrl, INSTRUCTOR);
+    const iris = await settledPage(env.browser);
+    await signIn(iris, env.app.baseUrl, INSTRUCTOR);
     await iris.getByRole('navigation', { name: 'Instructor' }).getByRole('link', { name: 'My programmes' }).click();
     await iris.getByRole('heading', { name: 'Programmes', exact: true }).waitFor();
     await iris.getByLabel('Programme name').fill(PROGRAMME);
@@ -110,16 +82,16 @@ describe('programmes, API tokens and the activity log', () => {
     ]);
 
     // Each owner accepts in a separate browser context.
-    const ana = await settledPage(browser);
-    await signIn(ana, app.baseUrl, TALLOWMERE_OWNER);
+    const ana = await settledPage(env.browser);
+    await signIn(ana, env.app.baseUrl, TALLOWMERE_OWNER);
     await acceptAsOwner(ana, TALLOWMERE);
     // The demo programme, accepted by the seed, is listed beside it.
     await ana.locator('section[aria-labelledby="taking-heading"]').getByText(DEMO_PROGRAMME.name).waitFor();
     expect(await seriousA11yViolations(ana)).toEqual([]);
     await saveScreenshot(ana, 'programme-team-accepted');
 
-    const bo = await settledPage(browser);
-    await signIn(bo, app.baseUrl, BRACKENFIELD_OWNER);
+    const bo = await settledPage(env.browser);
+    await signIn(bo, env.app.baseUrl, BRACKENFIELD_OWNER);
     await acceptAsOwner(bo, BRACKENFIELD);
     // Brackenfield has yet to answer the demo programme.
     await bo.getByRole('button', { name: `Accept ${DEMO_PROGRAMME.name}` }).waitFor();
@@ -146,7 +118,7 @@ describe('programmes, API tokens and the activity log', () => {
     // A script uses the token: no cookie, no CSRF header.
     const tallowmereId = await teamIdOf(ana, 'tallowmere');
     const bearer = { Authorization: `Bearer ${secret}` };
-    const team = `${app.baseUrl}/api/teams/${tallowmereId}`;
+    const team = `${env.app.baseUrl}/api/teams/${tallowmereId}`;
     const vehicles = (await (await fetch(`${team}/vehicles`, { headers: bearer })).json()) as { id: string; name: string }[];
     const ember = vehicles.find((v) => v.name === 'TUR-26 Ember')!;
     const designs = (await (await fetch(`${team}/vehicles/${ember.id}/axle-designs`, { headers: bearer })).json()) as { id: string; axle: string; name: string }[];

@@ -10,10 +10,9 @@
  * harness's accessibility check. Needs `npx ng build` first.
  */
 import type { Locator, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, startE2eApp } from '../support/e2e.js';
+import { describe, expect, it } from 'vitest';
+import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 
-type App = Awaited<ReturnType<typeof startE2eApp>>;
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
 const NAME = 'Ember review walk';
@@ -53,24 +52,13 @@ function clean(page: Page): void {
 }
 
 describe('Configuration review in Chromium', () => {
-  let app: App;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    app = await startE2eApp();
-    browser = await openBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await app?.stop();
-  });
+  const env = useE2eApp();
 
   it('designer submits, reviewer comments on the budget and requests changes, designer revises, reviewer approves and releases, mail is captured', async () => {
     // The designer makes the configuration from the team dashboard and submits it.
-    const designer = await browser.newPage();
-    await signIn(designer, app.baseUrl, 'designer@tallowmere.example');
-    await designer.goto(app.baseUrl + '/teams');
+    const designer = await env.browser.newPage();
+    await signIn(designer, env.app.baseUrl, 'designer@tallowmere.example');
+    await designer.goto(env.app.baseUrl + '/teams');
     await designer.getByRole('link', { name: /Tallowmere/ }).first().click();
     await designer.getByRole('link', { name: 'Configurations and review' }).click();
     await designer.getByRole('heading', { name: /^Configurations/ }).waitFor();
@@ -102,9 +90,9 @@ describe('Configuration review in Chromium', () => {
     await saveScreenshot(designer, 'review-1-designer-submitted');
 
     // The reviewer, in another context, comments on the budget and requests changes.
-    const reviewer = await browser.newPage();
-    await signIn(reviewer, app.baseUrl, 'reviewer@tallowmere.example');
-    await reviewer.goto(app.baseUrl + configurationPath);
+    const reviewer = await env.browser.newPage();
+    await signIn(reviewer, env.app.baseUrl, 'reviewer@tallowmere.example');
+    await reviewer.goto(env.app.baseUrl + configurationPath);
     await settled(reviewer);
     await expectStatus(reviewer, 'In review');
     expect(await reviewer.getByRole('button', { name: 'Submit for review' }).count()).toBe(0);
@@ -172,9 +160,9 @@ describe('Configuration review in Chromium', () => {
     clean(reviewer);
 
     // The team owner finds the review mails on the development mail page.
-    const owner = await browser.newPage();
-    await signIn(owner, app.baseUrl, 'owner@tallowmere.example');
-    await owner.goto(`${app.baseUrl}/teams/${teamId}/dev-mail`);
+    const owner = await env.browser.newPage();
+    await signIn(owner, env.app.baseUrl, 'owner@tallowmere.example');
+    await owner.goto(`${env.app.baseUrl}/teams/${teamId}/dev-mail`);
     await owner.getByRole('heading', { name: /Development mail/ }).waitFor();
     const asked = await waitForMail(owner, `Review requested: ${NAME} (revision 1)`, 'reviewer@tallowmere.example');
     expect(await asked.innerText()).toContain('Please look at the rear');
@@ -182,7 +170,7 @@ describe('Configuration review in Chromium', () => {
     await waitForMail(owner, `Review requested: ${NAME} (revision 2)`, 'reviewer@tallowmere.example');
     const approved = await waitForMail(owner, `${NAME} (revision 2): approved`, 'designer@tallowmere.example');
     // The mailed link opens the configuration page on this server.
-    expect(await approved.getByRole('link').first().getAttribute('href')).toBe(app.baseUrl + configurationPath);
+    expect(await approved.getByRole('link').first().getAttribute('href')).toBe(env.app.baseUrl + configurationPath);
     expect(await seriousA11yViolations(owner)).toEqual([]);
     await saveScreenshot(owner, 'review-4-owner-dev-mail');
     clean(owner);

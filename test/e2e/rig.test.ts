@@ -9,10 +9,9 @@
  * API gives one. Needs `npx ng build` first.
  */
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, startE2eApp } from '../support/e2e.js';
+import { describe, expect, it } from 'vitest';
+import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 
-type App = Awaited<ReturnType<typeof startE2eApp>>;
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
 /**
@@ -39,23 +38,12 @@ function shown(text: string): number {
 }
 
 describe('Rig measurements in Chromium', () => {
-  let app: App;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    app = await startE2eApp();
-    browser = await openBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await app?.stop();
-  });
+  const env = useE2eApp();
 
   it('refuses a file with a bad line, stores a good one and overlays it on the prediction with the API figures', async () => {
-    const page = await browser.newPage();
-    await signIn(page, app.baseUrl, 'designer@tallowmere.example');
-    await page.goto(app.baseUrl + '/teams');
+    const page = await env.browser.newPage();
+    await signIn(page, env.app.baseUrl, 'designer@tallowmere.example');
+    await page.goto(env.app.baseUrl + '/teams');
     await page.getByRole('link', { name: /Tallowmere/ }).first().click();
     await page.getByRole('link', { name: 'Configurations and review' }).click();
     await page.getByRole('link', { name: 'Ember baseline' }).click();

@@ -6,18 +6,9 @@
  * each page here must end with none of either. Needs `npx ng build` first.
  */
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import {
-  consoleErrors,
-  offsiteRequests,
-  openBrowser,
-  saveScreenshot,
-  signIn,
-  startE2eApp,
-  seriousA11yViolations,
-} from '../support/e2e.js';
+import { describe, expect, it } from 'vitest';
+import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 
-type App = Awaited<ReturnType<typeof startE2eApp>>;
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
 const TALLOWMERE = 'Tallowmere University Racing';
@@ -87,28 +78,17 @@ function vehicleLinks(page: Page): Promise<string[]> {
 }
 
 describe('Angular shell in Chromium', () => {
-  let app: App;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    app = await startE2eApp();
-    browser = await openBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await app?.stop();
-  });
+  const env = useE2eApp();
 
   it('signs the demo engineer in, shows each team’s vehicles across a team switch, and signs out', async () => {
-    const page = await newSettledPage(browser);
+    const page = await newSettledPage(env.browser);
 
     // A first visit lands on the sign-in page, which meets WCAG 2.2 AA.
-    await page.goto(app.baseUrl + '/');
+    await page.goto(env.app.baseUrl + '/');
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();
     expect(await seriousA11yViolations(page)).toEqual([]);
 
-    await signIn(page, app.baseUrl, 'engineer@tallowmere.example');
+    await signIn(page, env.app.baseUrl, 'engineer@tallowmere.example');
     await page.getByRole('heading', { name: /^Vehicles/ }).waitFor();
     await expect(page.getByRole('button', { name: /Eli Marsh/ }).isVisible()).resolves.toBe(true);
 
@@ -133,7 +113,7 @@ describe('Angular shell in Chromium', () => {
     await saveScreenshot(page, 'shell-dashboard-brackenfield');
 
     // The chosen team is remembered across a reload.
-    await page.goto(app.baseUrl + '/');
+    await page.goto(env.app.baseUrl + '/');
     await page.getByRole('heading', { name: `Vehicles · ${BRACKENFIELD}` }).waitFor();
 
     await page.getByRole('button', { name: /Account menu$/ }).click();
@@ -142,7 +122,7 @@ describe('Angular shell in Chromium', () => {
     expect(new URL(page.url()).pathname).toBe('/sign-in');
 
     // Signed out, a team address leads back to sign-in.
-    await page.goto(app.baseUrl + '/teams');
+    await page.goto(env.app.baseUrl + '/teams');
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();
     expect(new URL(page.url()).searchParams.get('returnUrl')).toBe('/teams');
 
@@ -151,8 +131,8 @@ describe('Angular shell in Chromium', () => {
   });
 
   it('shows a viewer no vehicle commands and an owner the members page', async () => {
-    const viewer = await newSettledPage(browser);
-    await signIn(viewer, app.baseUrl, 'viewer@tallowmere.example');
+    const viewer = await newSettledPage(env.browser);
+    await signIn(viewer, env.app.baseUrl, 'viewer@tallowmere.example');
     await viewer.getByRole('link', { name: 'TUR-26 Ember' }).waitFor();
     await expect(viewer.getByRole('button', { name: 'New vehicle' }).count()).resolves.toBe(0);
     await expect(viewer.getByRole('button', { name: /^(Rename|Archive) / }).count()).resolves.toBe(0);
@@ -160,8 +140,8 @@ describe('Angular shell in Chromium', () => {
     expect(offsiteRequests(viewer)).toEqual([]);
     expect(consoleErrors(viewer)).toEqual([]);
 
-    const owner = await newSettledPage(browser);
-    await signIn(owner, app.baseUrl, 'owner@tallowmere.example');
+    const owner = await newSettledPage(env.browser);
+    await signIn(owner, env.app.baseUrl, 'owner@tallowmere.example');
     await owner.getByRole('link', { name: 'Members' }).click();
     await owner.getByRole('heading', { name: `Members · ${TALLOWMERE}` }).waitFor();
     await owner.getByText('Vera Nyman').waitFor();
@@ -172,8 +152,8 @@ describe('Angular shell in Chromium', () => {
   });
 
   it('can be used from the keyboard alone, with the focus always visible', async () => {
-    const page = await newSettledPage(browser);
-    await page.goto(app.baseUrl + '/sign-in');
+    const page = await newSettledPage(env.browser);
+    await page.goto(env.app.baseUrl + '/sign-in');
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();
 
     const email = await tabUntil(page, (el) => el.control === 'email');

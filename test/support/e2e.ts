@@ -10,6 +10,7 @@ import { join, resolve } from 'node:path';
 import { tmpdir } from 'node:os';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { AxeBuilder } from '@axe-core/playwright';
+import { afterAll, beforeAll } from 'vitest';
 import { freshDatabaseUrl } from './db.js';
 import { freePort } from '../../server/tools/pg.js';
 
@@ -43,6 +44,35 @@ export async function startE2eApp(): Promise<E2eApp> {
     fakeSmtp: true,
   });
   return { baseUrl: server.url, databaseUrl, stop: () => server.close() };
+}
+
+/**
+ * The app and a browser for one describe block: started before its tests and
+ * closed after them. Read `env.app` and `env.browser` inside the tests.
+ */
+export function useE2eApp(): { readonly app: E2eApp; readonly browser: E2eBrowser } {
+  let app: E2eApp | undefined;
+  let browser: E2eBrowser | undefined;
+  beforeAll(async () => {
+    app = await startE2eApp();
+    browser = await openBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await app?.stop();
+  });
+  const started = <T>(v: T | undefined, what: string): T => {
+    if (v === undefined) throw new Error(`the e2e ${what} is not started yet: read env.${what} inside a test`);
+    return v;
+  };
+  return {
+    get app() {
+      return started(app, 'app');
+    },
+    get browser() {
+      return started(browser, 'browser');
+    },
+  };
 }
 
 interface PageRecord {
