@@ -14,6 +14,11 @@ export interface ChartPoint {
 export interface LineSeries {
   readonly name: string;
   readonly points: readonly ChartPoint[];
+  /**
+   * `line` (default): a line with a few markers to tell it apart; `points`: a
+   * marker at every point and no line (measured data such as a rig file).
+   */
+  readonly style?: 'line' | 'points';
 }
 
 /** An axis: what is plotted and in which unit, e.g. `{ label: 'Wheel travel', unit: 'mm' }`. */

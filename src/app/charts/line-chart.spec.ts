@@ -36,6 +36,23 @@ describe('LineChart', () => {
     expect(el.querySelectorAll('svg.rw-chart-svg [data-series="Rack 0 mm"] .rw-series-marker').length).toBe(5);
   });
 
+  it('draws a points series as a marker at every point and no line (measured data)', () => {
+    const measured = Array.from({ length: 17 }, (_, k) => ({ x: -40 + 5 * k, y: 0.005 * (-40 + 5 * k) }));
+    const { el } = setUp([
+      { name: 'Predicted toe', points: travel.map((x) => ({ x, y: 0.004 * x })) },
+      { name: 'Measured toe', points: measured, style: 'points' },
+    ]);
+    const group = el.querySelector('svg.rw-chart-svg [data-series="Measured toe"]')!;
+    expect(group.querySelector('.rw-series-line')).toBeNull();
+    // Every one of the 17 points is marked (a line series shows at most seven markers).
+    expect(group.querySelectorAll('.rw-series-marker').length).toBe(17);
+    expect(el.querySelectorAll('svg.rw-chart-svg [data-series="Predicted toe"] .rw-series-line').length).toBe(1);
+    // Its legend entry is the marker alone.
+    const legend = Array.from(el.querySelectorAll('.rw-legend li')).find((li) => li.textContent?.includes('Measured toe'))!;
+    expect(legend.querySelector('.rw-series-line')).toBeNull();
+    expect(legend.querySelector('.rw-series-marker')).not.toBeNull();
+  });
+
   it('maps values to positions: increasing y is drawn higher up', () => {
     const { el } = setUp([twoSeries[0]!]);
     const d = el.querySelector('path.rw-series-line')!.getAttribute('d')!;

@@ -42,6 +42,8 @@ interface DrawnSeries {
   readonly markerShape: MarkerShape;
   readonly markerPositions: readonly { readonly x: number; readonly y: number }[];
   readonly styleIndex: number;
+  /** Drawn as markers only (no line). */
+  readonly pointsOnly: boolean;
 }
 
 /** Widens a degenerate extent so a flat line still gets an axis. */
@@ -129,20 +131,22 @@ export class LineChart {
       const styleIndex = i % SERIES_DASHES.length;
       const shape = SERIES_MARKERS[styleIndex]!;
       const n = s.points.length;
-      const stride = Math.max(1, Math.ceil(n / MARKERS_PER_SERIES));
+      const pointsOnly = s.style === 'points';
+      const stride = pointsOnly ? 1 : Math.max(1, Math.ceil(n / MARKERS_PER_SERIES));
       // Offset each series' markers so that coincident lines still show every marker.
-      const offset = Math.floor((i * stride) / Math.max(1, this.series().length)) % stride;
+      const offset = pointsOnly ? 0 : Math.floor((i * stride) / Math.max(1, this.series().length)) % stride;
       const markerPositions = s.points
         .filter((p, k) => (k - offset) % stride === 0 && Number.isFinite(p.y))
         .map((p) => ({ x: xs(p.x), y: ys(p.y) }));
       return {
         name: s.name,
-        path: path(s.points as { x: number; y: number }[]) ?? '',
+        path: pointsOnly ? '' : (path(s.points as { x: number; y: number }[]) ?? ''),
         dash: SERIES_DASHES[styleIndex]!,
         marker: symbol(SYMBOLS[shape], 42)() ?? '',
         markerShape: shape,
         markerPositions,
         styleIndex,
+        pointsOnly,
       };
     });
   });

@@ -118,9 +118,12 @@ describe('RigMeasurementsPanel', () => {
     expect(el.querySelectorAll('rw-line-chart').length).toBe(2);
     const toeChart = el.querySelector('[data-testid=rig-toe-chart]')!;
     expect(Array.from(toeChart.querySelectorAll('.rw-legend li')).map((li) => li.textContent!.trim())).toEqual(['Predicted toe', 'Measured toe']);
-    // Told apart without colour: solid against dashed, circles against squares.
-    expect(toeChart.querySelector('.rw-series-1 .rw-series-line')!.getAttribute('stroke-dasharray')).toBeTruthy();
+    // Told apart without colour: the prediction is a solid line, the measurement a square at every measured point and no line.
     expect(toeChart.querySelector('.rw-series-0 .rw-series-line')!.getAttribute('stroke-dasharray')).toBeNull();
+    const measured = toeChart.querySelector('svg.rw-chart-svg [data-series="Measured toe"]')!;
+    expect(measured.querySelector('.rw-series-line')).toBeNull();
+    expect(read.points.length).toBeGreaterThan(7);
+    expect(measured.querySelectorAll('.rw-series-marker[data-shape=square]').length).toBe(read.points.length);
     expect(el.querySelector('rw-safety-caution')).not.toBeNull();
     expect(el.querySelector('.rw-rig-preview')).toBeNull();
     http.verify();

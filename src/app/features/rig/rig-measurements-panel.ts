@@ -220,7 +220,7 @@ export class RigMeasurementsPanel {
       .sort((a, b) => a.x - b.x);
     return [
       { name: `Predicted ${pick}`, points: c.predicted.map((p) => ({ x: p.travelMm, y: pick === 'toe' ? p.toeDeg : p.camberDeg })) },
-      { name: `Measured ${pick}`, points: measured },
+      { name: `Measured ${pick}`, points: measured, style: 'points' },
     ];
   }
 
