@@ -4,6 +4,7 @@ import { TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 import { ENGINE_VERSION } from '../../shared/version';
 import { App } from './app';
+import { LoadingIndicator } from './core/layout/loading-indicator';
 
 describe('App shell', () => {
   beforeEach(async () => {
@@ -43,6 +44,22 @@ describe('App shell', () => {
     expect(banner?.textContent).toContain('999.0.0');
     expect(banner?.textContent).toContain(ENGINE_VERSION);
     expect(banner?.querySelector('button')?.textContent?.trim()).toBe('Reload');
+  });
+
+  it('shows the loading bar (a labelled progressbar) only while work is in flight', async () => {
+    const fixture = TestBed.createComponent(App);
+    await fixture.whenStable();
+    const root = fixture.nativeElement as HTMLElement;
+    const loading = TestBed.inject(LoadingIndicator);
+    TestBed.inject(HttpTestingController).expectOne('/api/health').flush({ status: 'ok', database: 'reachable', engineVersion: ENGINE_VERSION });
+    await fixture.whenStable();
+    expect(root.querySelector('.rw-busy-bar')).toBeNull();
+    loading.begin();
+    await fixture.whenStable();
+    expect(root.querySelector('.rw-busy-bar[role="progressbar"]')?.getAttribute('aria-label')).toBe('Loading');
+    loading.end();
+    await fixture.whenStable();
+    expect(root.querySelector('.rw-busy-bar')).toBeNull();
   });
 
   it('moves focus to the main region from the skip link', async () => {

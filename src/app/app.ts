@@ -1,7 +1,6 @@
 import { Component, DestroyRef, ElementRef, inject, viewChild } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import {
   NavigationCancel,
   NavigationEnd,
@@ -17,7 +16,7 @@ import { TopBar } from './core/layout/top-bar';
 
 @Component({
   selector: 'app-root',
-  imports: [RouterOutlet, TopBar, MatProgressBarModule, MatButtonModule],
+  imports: [RouterOutlet, TopBar, MatButtonModule],
   templateUrl: './app.html',
   styleUrl: './app.scss',
 })

@@ -28,7 +28,7 @@ async function waitForMail(page: Page, subject: string, to: string): Promise<Loc
     if ((await mail.count()) > 0) return mail.first();
     await page.waitForTimeout(500);
     await page.getByRole('button', { name: 'Refresh' }).click();
-    await page.locator('mat-progress-bar').waitFor({ state: 'detached' });
+    await page.locator('mat-progress-bar, .rw-busy-bar').waitFor({ state: 'detached' });
   }
   throw new Error(`No mail "${subject}" to ${to} reached the development mail page`);
 }

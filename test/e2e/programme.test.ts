@@ -53,7 +53,7 @@ async function acceptAsOwner(page: Page, teamName: string): Promise<void> {
     .locator('section[aria-labelledby="taking-heading"]')
     .getByText(PROGRAMME)
     .waitFor();
-  await page.locator('mat-progress-bar[mode="indeterminate"]').waitFor({ state: 'detached' });
+  await page.locator('mat-progress-bar[mode="indeterminate"], .rw-busy-bar').waitFor({ state: 'detached' });
 }
 
 describe('programmes, API tokens and the activity log', () => {
@@ -215,7 +215,7 @@ describe('programmes, API tokens and the activity log', () => {
     await iris.locator('app-board-table a.config-link', { hasText: 'Ember, toe link +6 mm' }).click();
     await iris.getByRole('heading', { level: 1, name: 'Ember, toe link +6 mm' }).waitFor();
     // The page and its results have loaded (every loading bar gone).
-    await iris.waitForFunction(() => !document.querySelector('mat-progress-bar[mode="indeterminate"]'), null, { timeout: 60_000 });
+    await iris.waitForFunction(() => !document.querySelector('mat-progress-bar[mode="indeterminate"], .rw-busy-bar'), null, { timeout: 60_000 });
     expect(await iris.locator('button[data-action], textarea, .rw-comment-on').count()).toBe(0);
     for (const name of ['Make a new revision', 'Archive configuration', 'Comment on the budget']) {
       expect(await iris.getByRole('button', { name }).count(), name).toBe(0);

@@ -22,7 +22,7 @@ const COMMENT = 'The rear roll-steer term of the budget looks small for the bump
 async function settled(page: Page): Promise<void> {
   await page.getByTestId('key-figures').waitFor({ timeout: 60_000 });
   await page.locator('.rw-axle-cautions[data-axle="rear"]').waitFor({ timeout: 60_000 });
-  await page.locator('mat-progress-bar[mode="indeterminate"]').waitFor({ state: 'detached' });
+  await page.locator('mat-progress-bar[mode="indeterminate"], .rw-busy-bar').waitFor({ state: 'detached' });
 }
 
 async function status(page: Page): Promise<string> {
@@ -41,7 +41,7 @@ async function waitForMail(page: Page, subject: string, to: string): Promise<Loc
     if ((await mail.count()) > 0) return mail.first();
     await page.waitForTimeout(500);
     await page.getByRole('button', { name: 'Refresh' }).click();
-    await page.locator('mat-progress-bar').waitFor({ state: 'detached' });
+    await page.locator('mat-progress-bar, .rw-busy-bar').waitFor({ state: 'detached' });
   }
   throw new Error(`No mail "${subject}" to ${to} reached the development mail page`);
 }

@@ -158,7 +158,7 @@ export async function signIn(page: Page, baseUrl: string, email: string, passwor
  * rules (issue 6 quality bar), judged on the settled page: no indeterminate (loading) progress bar left.
  */
 export async function seriousA11yViolations(page: Page): Promise<string[]> {
-  await page.locator('mat-progress-bar[mode="indeterminate"]').waitFor({ state: 'detached' });
+  await page.locator('mat-progress-bar[mode="indeterminate"], .rw-busy-bar').waitFor({ state: 'detached' });
   const result = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']).analyze();
   return result.violations
     .filter((v) => v.impact === 'serious' || v.impact === 'critical')
