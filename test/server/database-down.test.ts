@@ -1,6 +1,5 @@
 /** The database going away: 503 JSON, the server keeps running, and recovers when the database returns. */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import net from 'node:net';
 import { createHmac } from 'node:crypto';
 import request from 'supertest';
 import { freshDatabaseUrl } from '../support/db.js';
@@ -9,34 +8,7 @@ import { migrateDatabase } from '../../server/db/migrate.js';
 import { seedDemo } from '../../server/db/seed.js';
 import { createApp, type RollwiseApp } from '../../server/app.js';
 import { freePort } from '../../server/tools/pg.js';
-import { agent, expectError, testConfig } from './helpers.js';
-
-/** A TCP relay in front of PostgreSQL that can be cut and restored. */
-class Relay {
-  private server: net.Server | undefined;
-  private readonly sockets = new Set<net.Socket>();
-  constructor(
-    readonly port: number,
-    private readonly target: number,
-  ) {}
-  async open(): Promise<void> {
-    this.server = net.createServer((client) => {
-      const upstream = net.connect(this.target, '127.0.0.1');
-      for (const s of [client, upstream]) {
-        this.sockets.add(s);
-        s.on('close', () => this.sockets.delete(s));
-        s.on('error', () => s.destroy());
-      }
-      client.pipe(upstream).pipe(client);
-    });
-    await new Promise<void>((resolve) => this.server!.listen(this.port, '127.0.0.1', resolve));
-  }
-  async cut(): Promise<void> {
-    for (const s of this.sockets) s.destroy();
-    await new Promise<void>((resolve) => (this.server ? this.server.close(() => resolve()) : resolve()));
-    this.server = undefined;
-  }
-}
+import { agent, DatabaseRelay, expectError, testConfig } from './helpers.js';
 
 describe('database unreachable from the start (a closed port)', () => {
   let db: Database;
@@ -75,13 +47,12 @@ describe('database unreachable from the start (a closed port)', () => {
 describe('database lost and regained', () => {
   let db: Database;
   let app: RollwiseApp;
-  let relay: Relay;
+  let relay: DatabaseRelay;
   beforeAll(async () => {
-    const direct = freshDatabaseUrl();
-    const target = Number(new URL(direct).port);
-    relay = new Relay(await freePort(), target);
-    await relay.open();
-    const url = direct.replace(`:${target}/`, `:${relay.port}/`);
+    // Connections go through a TCP relay that is cut abruptly (faults.test.ts stops the database politely instead).
+    relay = new DatabaseRelay(freshDatabaseUrl(), await freePort());
+    await relay.start();
+    const url = relay.url;
     db = createDatabase(url, { connectTimeoutMs: 500 });
     await migrateDatabase(db);
     await seedDemo(db.orm, { bcryptRounds: 4 });
@@ -103,7 +74,7 @@ describe('database lost and regained', () => {
     expect((await request(app).get('/api/health')).status).toBe(503);
     expectError(await agent(app).post('/api/auth/sign-in').send({ email: 'owner@tallowmere.example', password: 'demo-pass-2026' }), 503, 'database_unavailable');
 
-    await relay.open();
+    await relay.start();
     await request(app).get('/api/health').expect(200);
     const teams = await a.get('/api/teams').expect(200);
     expect(teams.body.map((x: { slug: string }) => x.slug)).toEqual(['tallowmere']);

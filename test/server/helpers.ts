@@ -142,6 +142,14 @@ export class DatabaseRelay {
     });
     await new Promise<void>((resolve) => this.server!.listen(this.port, '127.0.0.1', resolve));
   }
+  /** Drops every connection abruptly (no goodbye from the server, as when the network fails) and closes the port. */
+  async cut(): Promise<void> {
+    const server = this.server;
+    this.server = undefined;
+    const closed = new Promise<void>((resolve) => (server ? server.close(() => resolve()) : resolve()));
+    for (const s of this.sockets) s.destroy();
+    await closed;
+  }
   /** Terminates the backends of connections made through the relay, then closes it. */
   async stop(): Promise<void> {
     const pg = (await import('pg')).default;
@@ -153,10 +161,6 @@ export class DatabaseRelay {
     } finally {
       await admin.end();
     }
-    const server = this.server;
-    this.server = undefined;
-    const closed = new Promise<void>((resolve) => (server ? server.close(() => resolve()) : resolve()));
-    for (const s of this.sockets) s.destroy();
-    await closed;
+    await this.cut();
   }
 }
