@@ -38,7 +38,7 @@ export function createDatabase(url: string, o: DatabaseOptions = {}): Database {
   // database restarting) emits 'error' on the client, where the pool's idle listener is detached:
   // unheard, that crashes the process. The request sees the loss on its next statement (503).
   pool.on('connect', (client) => client.on('error', () => undefined));
-  const orm = drizzle(pool, { schema });
+  const orm = drizzle(new ReleasingPool(pool) as unknown as pg.Pool, { schema });
   let closed = false;
   return {
     pool,
@@ -49,4 +49,40 @@ export function createDatabase(url: string, o: DatabaseOptions = {}): Database {
       await pool.end();
     },
   };
+}
+
+/**
+ * What Drizzle is given in place of the pool. Drizzle's transaction()
+ * (drizzle-orm 0.45, node-postgres session) checks a client out and runs BEGIN
+ * before its try/finally, so when BEGIN fails (the connection dropped between
+ * checkout and the first statement, as in a database restart) the client is
+ * never released and the pool loses a slot for good: after `max` such losses
+ * every request waits for a connection that never comes. Here a client whose
+ * first statement fails is released, as broken, before the error goes on.
+ * Drizzle recognises a pool by its class name, hence the name.
+ */
+export class ReleasingPool {
+  constructor(private readonly pool: pg.Pool) {}
+
+  query(...args: unknown[]): unknown {
+    return (this.pool.query as (...a: unknown[]) => unknown)(...args);
+  }
+
+  async connect(): Promise<pg.PoolClient> {
+    const client = await this.pool.connect();
+    const own = client as unknown as { query: (...a: unknown[]) => unknown };
+    own.query = (...args: unknown[]) => {
+      // Back to the prototype's method for every later statement of this checkout and the next ones.
+      delete (own as { query?: unknown }).query;
+      const result = own.query(...args);
+      if (result instanceof Promise) {
+        return result.catch((err: unknown) => {
+          client.release(err instanceof Error ? err : new Error(String(err)));
+          throw err;
+        });
+      }
+      return result;
+    };
+    return client;
+  }
 }

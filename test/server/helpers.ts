@@ -133,10 +133,20 @@ export class DatabaseRelay {
     const target = Number(new URL(this.directUrl).port);
     this.server = net.createServer((client) => {
       const upstream = net.connect(target, '127.0.0.1');
-      for (const s of [client, upstream]) {
+      const pair = [client, upstream];
+      for (const s of pair) {
         this.sockets.add(s);
-        s.on('close', () => this.sockets.delete(s));
         s.on('error', () => s.destroy());
+        // When one side goes, the other follows (as one TCP connection would): a side destroyed after an error
+        // does not end its pipe, and a pg client left on a half-open relay waits for ever in pool.end().
+        s.on('close', () => {
+          this.sockets.delete(s);
+          for (const other of pair) {
+            if (other === s || other.destroyed) continue;
+            other.end();
+            setTimeout(() => other.destroy(), 100).unref();
+          }
+        });
       }
       client.pipe(upstream).pipe(client);
     });
