@@ -11,7 +11,7 @@ import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatRadioModule } from '@angular/material/radio';
 import { MatSelectModule } from '@angular/material/select';
 import { switchMap } from 'rxjs';
-import { browserTimeZone, formatLocalTime } from '../activity/local-time';
+import { browserTimeZone, formatLocalTime } from '../core/time/local-time';
 import { AuthService } from '../core/auth/auth-service';
 import { apiProblem } from '../core/http/api-error';
 import { LoadState, toLoadState } from '../core/http/load-state';

@@ -3,7 +3,7 @@ import { TestBed } from '@angular/core/testing';
 import { fakeNotifier, shellTestProviders } from '../../testing/shell-testing';
 import { ActivityEntry } from './activity-api';
 import { ActivityPage } from './activity-page';
-import { browserTimeZone, formatLocalTime } from './local-time';
+import { browserTimeZone, formatLocalTime } from '../core/time/local-time';
 
 const entry = (n: number, over: Partial<ActivityEntry> = {}): ActivityEntry => ({
   id: `a${n}`,

@@ -13,7 +13,7 @@ import { apiProblem } from '../core/http/api-error';
 import { LoadState, toLoadState } from '../core/http/load-state';
 import { TeamAccess } from '../core/teams/team-access';
 import { ACTIVITY_PAGE_SIZE, ActivityApi, ActivityEntry } from './activity-api';
-import { browserTimeZone, formatLocalTime } from './local-time';
+import { browserTimeZone, formatLocalTime } from '../core/time/local-time';
 
 export const SUBJECT_WORDS: Readonly<Partial<Record<string, string>>> = {
   team: 'Team',

@@ -1,6 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { RouterLink } from '@angular/router';
-import { formatLocalTime } from '../activity/local-time';
+import { formatLocalTime } from '../core/time/local-time';
 import {
   BOARD_FIGURES,
   formatChange,

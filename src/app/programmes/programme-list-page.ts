@@ -10,7 +10,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { Router, RouterLink } from '@angular/router';
 import { combineLatest, EMPTY, switchMap } from 'rxjs';
 import { trackProfiles, type TrackProfileId } from '../../../shared/intent/profiles';
-import { formatLocalTime, browserTimeZone } from '../activity/local-time';
+import { formatLocalTime, browserTimeZone } from '../core/time/local-time';
 import { AuthService } from '../core/auth/auth-service';
 import { apiProblem } from '../core/http/api-error';
 import { LoadState, toLoadState } from '../core/http/load-state';

@@ -8,7 +8,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
 import { combineLatest, switchMap } from 'rxjs';
-import { browserTimeZone, formatLocalTime } from '../activity/local-time';
+import { browserTimeZone, formatLocalTime } from '../core/time/local-time';
 import { apiProblem } from '../core/http/api-error';
 import { LoadState, toLoadState } from '../core/http/load-state';
 import { Notifier } from '../core/layout/notifier';

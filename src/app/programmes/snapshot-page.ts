@@ -5,7 +5,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
 import { combineLatest, switchMap } from 'rxjs';
-import { browserTimeZone, formatLocalTime } from '../activity/local-time';
+import { browserTimeZone, formatLocalTime } from '../core/time/local-time';
 import { LoadState, toLoadState } from '../core/http/load-state';
 import { SafetyCaution } from '../features/safety-caution';
 import { BoardTable } from './board-table';

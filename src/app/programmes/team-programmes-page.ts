@@ -5,7 +5,7 @@ import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { combineLatest, switchMap } from 'rxjs';
-import { browserTimeZone, formatLocalTime } from '../activity/local-time';
+import { browserTimeZone, formatLocalTime } from '../core/time/local-time';
 import { LoadState, toLoadState } from '../core/http/load-state';
 import { confirmAction } from '../core/layout/confirm-dialog';
 import { Notifier } from '../core/layout/notifier';

@@ -28,7 +28,8 @@ import {
   TransitionRow,
 } from './configurations-api';
 import { RefOption, ReviewComments } from './review-comments';
-import { ActionSpec, actionsFor, CHART_REFS, diffValue, fmt, keyFigures, localTime, localTimeZone, pathLabel, problemText, STATUS_WORDS } from './review-words';
+import { ActionSpec, actionsFor, CHART_REFS, diffValue, fmt, keyFigures, pathLabel, problemText, STATUS_WORDS } from './review-words';
+import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { StatusChip } from './status-chip';
 
 type Load<T> = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; value: T };
@@ -83,11 +84,13 @@ export class ConfigurationPage implements OnInit {
 
   protected readonly teamId = routeParam(this.route, 'teamId');
   protected readonly configurationId = routeParam(this.route, 'configurationId');
-  protected readonly timeZone = localTimeZone();
+  protected readonly timeZone = browserTimeZone();
   protected readonly fmt = fmt;
   protected readonly diffValue = diffValue;
   protected readonly pathLabel = pathLabel;
-  protected readonly localTime = localTime;
+  protected localTime(iso: string): string {
+    return formatLocalTime(iso, this.timeZone);
+  }
   protected readonly profiles = Object.values(trackProfiles);
   protected readonly statusWords = STATUS_WORDS;
 

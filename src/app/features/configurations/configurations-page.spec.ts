@@ -6,7 +6,7 @@ import { provideHttpClient } from '@angular/common/http';
 import { provideHttpClientTesting } from '@angular/common/http/testing';
 import { ConfigurationsPage } from './configurations-page';
 import type { Configuration } from './configurations-api';
-import { localTime } from './review-words';
+import { formatLocalTime } from '../../core/time/local-time';
 import { refuse, serve, settle } from './spec-backend';
 
 const TEAM = '/api/teams/t-tal';
@@ -76,7 +76,7 @@ describe('ConfigurationsPage', () => {
     expect(rows[1]!.querySelector('rw-status-chip')!.textContent).toContain('Draft');
     expect(rows[0]!.textContent).toContain('Rear baseline rev 3');
     expect(rows[0]!.textContent).toContain('Smooth circuit');
-    expect(rows[0]!.textContent).toContain(`${localTime('2026-12-01T23:30:00.000Z')} · Ravi Osei`);
+    expect(rows[0]!.textContent).toContain(`${formatLocalTime('2026-12-01T23:30:00.000Z')} · Ravi Osei`);
     expect(rows[0]!.querySelector('a')!.getAttribute('href')).toBe('/teams/t-tal/configurations/c1');
     // A viewer cannot make configurations: no button.
     expect([...root.querySelectorAll('button')].some((b) => b.textContent?.includes('New configuration'))).toBe(false);

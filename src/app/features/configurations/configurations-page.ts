@@ -12,7 +12,8 @@ import { VehiclesApi } from '../../teams/vehicles-api';
 import { AxleDesignSummary, FeaturesApi, RevisionRow } from '../features-api';
 import { routeParam } from '../route-params';
 import { Configuration, ConfigurationsApi, NewConfiguration } from './configurations-api';
-import { localTime, localTimeZone, problemText } from './review-words';
+import { problemText } from './review-words';
+import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { StatusChip } from './status-chip';
 
 type ListState = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; list: readonly Configuration[] };
@@ -44,9 +45,11 @@ export class ConfigurationsPage implements OnInit {
   protected readonly state = signal<ListState>({ kind: 'loading' });
   protected readonly vehicles = signal<readonly VehicleSummary[]>([]);
   protected readonly canCreate = this.access.permission('vehicle:manage');
-  protected readonly timeZone = localTimeZone();
+  protected readonly timeZone = browserTimeZone();
   protected readonly profiles = Object.values(trackProfiles);
-  protected readonly localTime = localTime;
+  protected localTime(iso: string): string {
+    return formatLocalTime(iso, this.timeZone);
+  }
 
   protected readonly shown = computed(() => {
     const s = this.state();

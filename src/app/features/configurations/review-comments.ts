@@ -2,7 +2,8 @@ import { ChangeDetectionStrategy, Component, ElementRef, effect, inject, input, 
 import { MatButton } from '@angular/material/button';
 import { firstValueFrom } from 'rxjs';
 import { CommentThread, ConfigurationsApi } from './configurations-api';
-import { localTime, problemText, refLabel, validRef } from './review-words';
+import { problemText, refLabel, validRef } from './review-words';
+import { formatLocalTime } from '../../core/time/local-time';
 
 export interface RefOption {
   readonly ref: string;
@@ -195,7 +196,7 @@ export class ReviewComments {
   }
 
   protected time(iso: string): string {
-    return localTime(iso);
+    return formatLocalTime(iso);
   }
 
   protected value(event: Event): string {

@@ -116,22 +116,6 @@ export function diffValue(v: unknown): string {
   return typeof v === 'string' ? v : JSON.stringify(v);
 }
 
-/** The IANA time zone of this browser, UTC when it cannot tell. */
-export function localTimeZone(): string {
-  try {
-    return Intl.DateTimeFormat().resolvedOptions().timeZone || 'UTC';
-  } catch {
-    return 'UTC';
-  }
-}
-
-/** An API time (UTC, ISO 8601) in the user's time zone, e.g. "2 Dec 2026, 14:03". */
-export function localTime(iso: string, timeZone = localTimeZone()): string {
-  const d = new Date(iso);
-  if (Number.isNaN(d.getTime())) return iso;
-  return new Intl.DateTimeFormat('en-GB', { timeZone, year: 'numeric', month: 'short', day: 'numeric', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' }).format(d);
-}
-
 /** The API's refusal in words, with the fields it names (400 invalid_input `details.fields`). */
 export function problemText(error: unknown): string {
   const p = apiProblem(error);

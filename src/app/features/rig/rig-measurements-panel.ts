@@ -1,4 +1,4 @@
-import { browserTimeZone, formatLocalTime } from '../../activity/local-time';
+import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { ChangeDetectionStrategy, Component, computed, DestroyRef, effect, inject, input, signal, untracked } from '@angular/core';
 import { Subscription } from 'rxjs';
 import { MatButton } from '@angular/material/button';
