@@ -22,6 +22,8 @@ interface Tally {
   step: string;
   passed: number;
   failed: number;
+  /** Wall-clock seconds the step took. */
+  seconds?: number;
 }
 const tallies: Tally[] = [];
 const env: NodeJS.ProcessEnv = { ...process.env, NO_COLOR: '1', FORCE_COLOR: '0', NG_CLI_ANALYTICS: 'false' };
@@ -65,6 +67,14 @@ async function vitest(step: string, projects: string[]): Promise<void> {
   tallies.push(vitestTally(step, out, r.code));
 }
 
+/** Runs one step and stamps the tallies it adds with the time it took. */
+async function timed(step: () => Promise<void>): Promise<void> {
+  const from = tallies.length;
+  const t = Date.now();
+  await step();
+  for (const tally of tallies.slice(from)) tally.seconds = Math.round((Date.now() - t) / 1000);
+}
+
 async function main(): Promise<number> {
   const t0 = Date.now();
   console.log('[rollwise] starting a throwaway PostgreSQL cluster…');
@@ -72,23 +82,29 @@ async function main(): Promise<number> {
   env['ROLLWISE_TEST_PG_PORT'] = String(cluster.port);
   try {
     console.log('\n[rollwise] type check (tsc)…');
-    const tsc = await run(bin('tsc'), ['-p', 'tsconfig.node.json'], env);
-    tallies.push({ step: 'type check', passed: tsc.code === 0 ? 1 : 0, failed: tsc.code === 0 ? 0 : 1 });
+    await timed(async () => {
+      const tsc = await run(bin('tsc'), ['-p', 'tsconfig.node.json'], env);
+      tallies.push({ step: 'type check', passed: tsc.code === 0 ? 1 : 0, failed: tsc.code === 0 ? 0 : 1 });
+    });
 
     console.log('\n[rollwise] engine and API tests (vitest)…');
-    await vitest('unit', ['shared', 'server']);
+    await timed(() => vitest('unit', ['shared', 'server']));
 
     console.log('\n[rollwise] Angular component specs (ng test)…');
-    const ng = await run(bin('ng'), ['test', '--watch=false'], env);
-    tallies.push(ngTally(ng.output, ng.code));
+    await timed(async () => {
+      const ng = await run(bin('ng'), ['test', '--watch=false'], env);
+      tallies.push(ngTally(ng.output, ng.code));
+    });
 
     console.log('\n[rollwise] building the app for the browser tests…');
+    const buildStart = Date.now();
     const build = await run(bin('ng'), ['build', '--configuration', 'production'], env);
+    const buildSeconds = Math.round((Date.now() - buildStart) / 1000);
     if (build.code !== 0) {
-      tallies.push({ step: 'app build', passed: 0, failed: 1 });
+      tallies.push({ step: 'app build', passed: 0, failed: 1, seconds: buildSeconds });
     } else {
-      console.log('\n[rollwise] browser tests (playwright-core + Chromium)…');
-      await vitest('e2e', ['e2e']);
+      console.log(`\n[rollwise] browser tests (playwright-core + Chromium), after a ${buildSeconds} s build…`);
+      await timed(() => vitest('e2e', ['e2e']));
     }
   } finally {
     cluster.remove();
@@ -96,7 +112,10 @@ async function main(): Promise<number> {
   const passed = tallies.reduce((s, t) => s + t.passed, 0);
   const failed = tallies.reduce((s, t) => s + t.failed, 0);
   console.log('\n[rollwise] summary');
-  for (const t of tallies) console.log(`  ${t.step.padEnd(16)} ${t.passed} passed, ${t.failed} failed`);
+  for (const t of tallies) {
+    const time = t.seconds === undefined ? '' : ` in ${t.seconds} s`;
+    console.log(`  ${t.step.padEnd(16)} ${t.passed} passed, ${t.failed} failed${time}`);
+  }
   console.log(`  took ${Math.round((Date.now() - t0) / 1000)} s`);
   console.log(`${passed} passed, ${failed} failed`);
   return failed === 0 && passed > 0 ? 0 : 1;
