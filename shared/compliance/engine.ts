@@ -401,8 +401,6 @@ export function evaluatePoseCompliance(s: CornerSolver, spec: ComplianceSpec = c
       solve6(lu, piv, col);
       for (let i = 0; i < 6; i++) G[6 * i + j] = col[i]!;
     }
-    // Symmetrise the rounding (G is symmetric in exact arithmetic).
-    for (let i = 0; i < 6; i++) for (let j = i + 1; j < 6; j++) G[6 * i + j] = G[6 * j + i] = 0.5 * (G[6 * i + j]! + G[6 * j + i]!);
   }
 
   const s0 = m.spin0;
