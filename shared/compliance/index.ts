@@ -94,7 +94,13 @@ export function solvedCorner(corner: Corner | unknown, at: { travelMm?: number |
   const travel = at.travelMm ?? 0;
   const rack = at.rackMm ?? 0;
   if (!Number.isFinite(travel)) throw new InputError('travelMm: must be a finite number', [{ path: 'travelMm', message: 'not a finite number' }]);
-  checkRack(model, [rack], field);
+  try {
+    checkRack(model, [rack], field);
+  } catch (e) {
+    // One position, so the message names the field itself rather than its first list entry.
+    if (e instanceof InputError) throw new InputError(e.message.replace(`${field}[0]`, field), e.issues.map((i) => ({ ...i, path: field })));
+    throw e;
+  }
   const s = new CornerSolver(model, 'left');
   s.solve(0, 0);
   s.solveTowards(travel, rack);
