@@ -240,6 +240,10 @@ export interface PoseCompliance {
   steerDir: [number, number, number];
 }
 
+// Scratch of evaluatePoseCompliance (single-threaded; not part of the result).
+const scratchY = new Float64Array(36);
+const scratchCol = new Float64Array(6);
+
 /**
  * Builds A and C at the solver's current (converged) pose and forms G.
  * Throws SolveError when the rows do not locate the upright (singular pose).
@@ -388,8 +392,8 @@ export function evaluatePoseCompliance(s: CornerSolver, spec: ComplianceSpec = c
   // G = A⁻¹ C A⁻ᵀ: Y = A⁻¹ C (columns), then G = A⁻¹ Yᵀ (Yᵀ = C A⁻ᵀ as C is symmetric).
   const G = new Float64Array(36);
   if (!spec.rigid) {
-    const Y = new Float64Array(36);
-    const col = new Float64Array(6);
+    const Y = scratchY;
+    const col = scratchCol;
     for (let j = 0; j < 6; j++) {
       for (let i = 0; i < 6; i++) col[i] = C[6 * i + j]!;
       solve6(lu, piv, col);
