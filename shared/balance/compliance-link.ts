@@ -26,9 +26,19 @@ export function linkCompliance(axle: Vehicle['front'], name: 'front' | 'rear', c
   const enteredK = axle.steeringStiffnessNmPerDeg !== undefined;
   const enteredCamber = axle.complianceCamberDegPerKN !== undefined;
   const src = (entered: boolean, has: boolean): ComplianceSource => (entered ? 'entered' : has ? 'computed' : 'none');
+  let usedK = false;
   if (computed) {
-    if (!enteredSteer) axle.complianceSteerDegPerKN = computed.steeringStiffnessNmPerDeg === null ? computed.totalSteerDegPerKN : computed.complianceSteerDegPerKN;
-    if (!enteredK && computed.steeringStiffnessNmPerDeg !== null) axle.steeringStiffnessNmPerDeg = computed.steeringStiffnessNmPerDeg;
+    // Without an entered steering stiffness, the whole computed steer (lateral force at the contact patch, so the
+    // mechanical trail's moment, plus the pneumatic trail's moment) goes into complianceSteer and no equivalent
+    // stiffness is written: the aligning-torque term then holds the tyre moment's own effect only, whatever trail
+    // it applies a stiffness with. With an entered stiffness, that carries the aligning torque and the computed
+    // figure is the lateral force at the steering axis' ground point. An entered complianceSteer alone gets the
+    // computed equivalent stiffness for the aligning torque.
+    if (!enteredSteer) axle.complianceSteerDegPerKN = enteredK ? computed.complianceSteerDegPerKN : computed.totalSteerDegPerKN;
+    else if (!enteredK && computed.steeringStiffnessNmPerDeg !== null) {
+      axle.steeringStiffnessNmPerDeg = computed.steeringStiffnessNmPerDeg;
+      usedK = true;
+    }
     if (!enteredCamber) axle.complianceCamberDegPerKN = computed.complianceCamberDegPerKN;
     const entered = [enteredSteer && 'complianceSteerDegPerKN', enteredK && 'steeringStiffnessNmPerDeg', enteredCamber && 'complianceCamberDegPerKN'].filter(Boolean);
     notes.push(
@@ -39,7 +49,7 @@ export function linkCompliance(axle: Vehicle['front'], name: 'front' | 'rear', c
   return {
     source: {
       complianceSteerDegPerKN: src(enteredSteer, computed !== null),
-      steeringStiffnessNmPerDeg: src(enteredK, computed?.steeringStiffnessNmPerDeg != null),
+      steeringStiffnessNmPerDeg: src(enteredK, usedK),
       complianceCamberDegPerKN: src(enteredCamber, computed !== null),
     },
     used: { complianceSteerDegPerKN: axle.complianceSteerDegPerKN ?? null, steeringStiffnessNmPerDeg: axle.steeringStiffnessNmPerDeg ?? null, complianceCamberDegPerKN: axle.complianceCamberDegPerKN ?? null },

@@ -5,11 +5,9 @@
  */
 import type { Corner } from '../schema/corner.js';
 import type { Vehicle } from '../schema/vehicle.js';
-import { suspensionRollGradients } from '../balance/understeer.js';
+import { balanceCore } from '../balance/understeer.js';
 import { cornerCompliance } from './index.js';
 import { axleComplianceOf } from './axle.js';
-
-const G_STD = 9.80665;
 
 export interface ComplianceBesideRollSteer {
   /** No bushings, link or steering rates: every compliance figure is zero. */
@@ -21,20 +19,18 @@ export interface ComplianceBesideRollSteer {
   lateralStiffnessNPerMm: number | null;
   /** Axle steer out of the turn per kN of axle lateral force at the contact patch (no pneumatic trail), deg/kN. */
   axleSteerDegPerKN: number;
-  /** With a vehicle: compliance steer (with its tyres' pneumatic trail) and kinematic roll steer of the axle, deg/g, positive out of the turn. */
+  /** With a vehicle: compliance steer (with its tyres' pneumatic trail) and kinematic roll steer of the axle, deg/g, positive out of the turn, on the budget's own axle force and suspension roll. */
   perG: { complianceSteerDegPerG: number; rollSteerDegPerG: number } | null;
 }
 
-/** The corner's compliance figures, and with a vehicle both steers in deg/g (the vehicle's suspension roll gradient, the axle's static load). */
+/** The corner's compliance figures, and with a vehicle both steers in deg/g (the balance model's suspension roll gradient and axle lateral force per g). */
 export function complianceBesideRollSteer(corner: Corner, rollSteerCoefficient: number, axle: 'front' | 'rear', vehicle?: Vehicle): ComplianceBesideRollSteer {
   const r = cornerCompliance(corner);
   const a = axleComplianceOf(corner, { pneumaticTrailMm: vehicle?.[axle].tyre.pneumaticTrailMm });
   let perG: ComplianceBesideRollSteer['perG'] = null;
   if (vehicle) {
-    const share = axle === 'front' ? (vehicle.wheelbaseMm - vehicle.cgToFrontAxleMm) / vehicle.wheelbaseMm : vehicle.cgToFrontAxleMm / vehicle.wheelbaseMm;
-    const axleLoadKN = (vehicle.massKg * G_STD * share) / 1000;
-    const g = suspensionRollGradients(vehicle);
-    perG = { complianceSteerDegPerG: (a?.totalSteerDegPerKN ?? 0) * axleLoadKN, rollSteerDegPerG: rollSteerCoefficient * (axle === 'front' ? g.frontDegPerG : g.rearDegPerG) };
+    const core = balanceCore(vehicle)[axle];
+    perG = { complianceSteerDegPerG: ((a?.totalSteerDegPerKN ?? 0) * core.lateralForceNPerG) / 1000, rollSteerDegPerG: rollSteerCoefficient * core.suspensionRollDegPerG };
   }
   return {
     rigid: r.rigid,

@@ -69,7 +69,11 @@ describe('balance link', () => {
       const a = axleComplianceOf(corner, { pneumaticTrailMm: v[name].tyre.pneumaticTrailMm })!;
       expect(link.source.complianceSteerDegPerKN).toBe('computed');
       expect(link.source.complianceCamberDegPerKN).toBe('computed');
-      expect(l.vehicle[name].complianceSteerDegPerKN).toBe(a.steeringStiffnessNmPerDeg === null ? a.totalSteerDegPerKN : a.complianceSteerDegPerKN);
+      // No stiffness entered: the whole computed steer (contact patch, plus the pneumatic trail's moment) is the
+      // compliance steer, and no equivalent stiffness is written (the aligning-torque term keeps the tyre moment only).
+      expect(l.vehicle[name].complianceSteerDegPerKN).toBe(a.totalSteerDegPerKN);
+      expect(l.vehicle[name].steeringStiffnessNmPerDeg).toBeUndefined();
+      expect(link.source.steeringStiffnessNmPerDeg).toBe('none');
       expect(l.vehicle[name].complianceCamberDegPerKN).toBe(a.complianceCamberDegPerKN);
       expect(l[name].notes.join(' ')).toMatch(/computed from the corner's bushings/);
     }
@@ -92,6 +96,17 @@ describe('balance link', () => {
     expect(l.front.compliance.source.complianceCamberDegPerKN).toBe('computed');
     expect(l.vehicle.front.complianceSteerDegPerKN).toBe(0.123);
     expect(l.front.notes.join(' ')).toMatch(/entered complianceSteerDegPerKN overrides/);
+    // The aligning torque then gets the computed equivalent stiffness.
+    expect(l.front.compliance.source.steeringStiffnessNmPerDeg).toBe('computed');
+    expect(l.vehicle.front.steeringStiffnessNmPerDeg).toBe(l.front.compliance.computed!.steeringStiffnessNmPerDeg);
+  });
+
+  it('an entered steering stiffness carries the aligning torque; the computed steer is then the force at the steering axis', () => {
+    const v = bareVehicle();
+    v.front.steeringStiffnessNmPerDeg = 900;
+    const l = linkVehicle({ vehicle: v, frontCorner: front });
+    expect(l.front.compliance.source.steeringStiffnessNmPerDeg).toBe('entered');
+    expect(l.vehicle.front.complianceSteerDegPerKN).toBe(l.front.compliance.computed!.complianceSteerDegPerKN);
   });
 
   it('a rigid corner leaves the vehicle as entered', () => {
@@ -117,5 +132,25 @@ describe('caution "compliance rivals roll steer" from computed values', () => {
     // Without bushings and without an entered figure there is nothing to compare.
     const rigid = cautionInputs(new PoseCounter(), { axle: 'rear', vehicle: v, gradients: grads }, resolveTrackProfile('rough-road'), fixture('road-rear-five-link'), eps, byRack, []);
     expect(rigid.complianceRatio).toBeNull();
+  });
+});
+
+describe('compliance beside roll steer (the editor figure)', () => {
+  it('gives both steers in deg/g on the budget’s own terms', async () => {
+    // docs/balance.md: roll steer term ε·dφs/da_y; compliance steer = (deg/kN) × the axle's lateral force per g
+    // (kN), the lateral force and aligning-torque parts together. Compared with the balance API's axle terms.
+    const { complianceBesideRollSteer } = await import('../../../shared/compliance/compare.js');
+    const { computeBalance } = await import('../../../shared/balance/api.js');
+    const v = bareVehicle();
+    const rear = fixture('road-rear-five-link-bushings');
+    const b = computeBalance({ vehicle: v, rearCorner: rear, sensitivity: false });
+    const eps = b.kinematicsLink.rear.used.rollSteerCoefficient;
+    const c = complianceBesideRollSteer(rear, eps, 'rear', b.effectiveVehicle as Vehicle);
+    const a = b.axleCompliance.rear;
+    expect(c.rigid).toBe(false);
+    expect(c.perG!.rollSteerDegPerG).toBeCloseTo(a.rollSteer, 9);
+    expect(a.alignTorqueComplianceSteer).toBe(0);
+    expect(c.perG!.complianceSteerDegPerG).toBeCloseTo(a.complianceSteer, 9);
+    expect(complianceBesideRollSteer(fixture('road-rear-five-link'), eps, 'rear').rigid).toBe(true);
   });
 });
