@@ -8,13 +8,13 @@ import { ENGINE_VERSION } from '../../shared/version.js';
 import { computeAxleRoll, computeCornerSweep } from '../../shared/kinematics/api.js';
 import { parseArgs, parseList, parseRange, readJsonFile, requireArg, runCommand } from './args.js';
 
-function rejectUnknown(args: Map<string, string>, allowed: string[]): void {
+export function rejectUnknown(args: Map<string, string>, allowed: string[]): void {
   for (const k of args.keys()) {
     if (!allowed.includes(k)) throw new InputError(`--${k}: unknown option (expected ${allowed.map((a) => `--${a}`).join(', ')})`, [{ path: `--${k}`, message: 'unknown option' }]);
   }
 }
 
-function optionalNumber(args: Map<string, string>, name: string): number | undefined {
+export function optionalNumber(args: Map<string, string>, name: string): number | undefined {
   const v = args.get(name);
   if (v === undefined) return undefined;
   const n = Number(v);
@@ -23,7 +23,7 @@ function optionalNumber(args: Map<string, string>, name: string): number | undef
 }
 
 /** Maps request-field paths in an InputError to the CLI's flags and files. */
-function withFlags<T>(body: () => T, map: Record<string, string>): T {
+export function withFlags<T>(body: () => T, map: Record<string, string>): T {
   try {
     return body();
   } catch (e) {

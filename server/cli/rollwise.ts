@@ -7,6 +7,7 @@ type Command = (argv: string[]) => Promise<number>;
 const commands: Record<string, { help: string; load: () => Promise<Command> }> = {
   sweep: { help: 'sweep --corner FILE --travel=FROM:TO:STEP [--rack=R1,R2,…]', load: async () => (await import('./kinematics.js')).sweepCommand },
   roll: { help: 'roll --corner FILE --roll=FROM:TO:STEP [--rack=…] [--wheelbase=MM]', load: async () => (await import('./kinematics.js')).rollCommand },
+  compliance: { help: 'compliance --corner FILE [--travel=MM] [--rack=MM]', load: async () => (await import('./compliance.js')).complianceCommand },
   balance: { help: 'balance --vehicle FILE [--front-corner FILE --rear-corner FILE] [--speed=KPH]', load: async () => (await import('./balance.js')).balanceCommand },
   solve: { help: 'solve --intent FILE', load: async () => (await import('./intent.js')).solveCommand },
 };

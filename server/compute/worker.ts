@@ -7,6 +7,7 @@ import type { ComputeKind, ComputeTask, ProgressMessage, WorkerOutcome } from '.
 import { serializeError } from './tasks.js';
 import { computeAxleRoll, computeCornerSweep } from '../../shared/kinematics/api.js';
 import { computeBalance } from '../../shared/balance/api.js';
+import { computeCornerCompliance } from '../../shared/compliance/api.js';
 import { computeSolve } from '../../shared/intent/api.js';
 import { computeRigComparison } from '../../shared/intent/rig-compare.js';
 
@@ -15,6 +16,7 @@ type Engine = (input: unknown, onProgress?: (fraction: number, message: string) 
 const ENGINES: Record<ComputeKind, Engine> = {
   'corner-sweep': computeCornerSweep,
   'axle-roll': computeAxleRoll,
+  'corner-compliance': computeCornerCompliance,
   balance: computeBalance,
   solve: computeSolve,
   'rig-compare': computeRigComparison,

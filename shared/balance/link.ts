@@ -13,6 +13,7 @@ import type { Corner } from '../schema/corner.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { DEG } from './constants.js';
 import { balanceCore, DEFAULT_BUDGET_LATERAL_G, understeerBudget } from './understeer.js';
+import { linkCompliance, type ComplianceLink } from './compliance-link.js';
 
 /** Entered values that win over both the kinematics and the vehicle's own fields (`axleOverridesSchema` in api.ts). */
 export interface AxleOverrides {
@@ -32,6 +33,8 @@ export interface AxleLink {
   rackMm: number | null;
   /** Mean road-wheel steer at that rack position, deg. */
   axleSteerDeg: number | null;
+  /** Compliance steer and camber: computed from the corner's bushings, or entered in the vehicle (which wins). */
+  compliance: ComplianceLink;
   kinematics: AxleSummary | null;
   used: { rollSteerCoefficient: number; rollCamberDegPerDeg: number; rollCentreHeightMm: number; springMotionRatio: number | null; barMotionRatio: number | null };
   source: { rollSteerCoefficient: ValueSource; rollCamberDegPerDeg: ValueSource; rollCentreHeightMm: ValueSource; springMotionRatio: ValueSource; barMotionRatio: ValueSource };
@@ -63,6 +66,7 @@ function linkAxle(v: Vehicle, name: 'front' | 'rear', corner: Corner | undefined
       notes.push(`the corner's track (${kin.trackMm.toFixed(0)} mm) differs from the vehicle's ${name}.trackMm (${axle.trackMm.toFixed(0)} mm) by more than 1 %; the vehicle's value is used`);
     }
   }
+  const compliance = linkCompliance(axle, name, corner, rackMm, notes);
   const eps = pick(o?.rollSteerCoefficient, kin?.rollSteerCoefficient, axle.rollSteerCoefficient);
   const camber = pick(o?.rollCamberDegPerDeg, kin?.rollCamberDegPerDeg, axle.rollCamberDegPerDeg);
   const rc = pick(o?.rollCentreHeightMm, kin?.rollCentreHeightMm, axle.rollCentreHeightMm);
@@ -91,6 +95,7 @@ function linkAxle(v: Vehicle, name: 'front' | 'rear', corner: Corner | undefined
       fromCorner: corner !== undefined,
       rackMm,
       axleSteerDeg,
+      compliance,
       kinematics: kin,
       used: { rollSteerCoefficient: axle.rollSteerCoefficient, rollCamberDegPerDeg: axle.rollCamberDegPerDeg, rollCentreHeightMm: axle.rollCentreHeightMm, springMotionRatio: spring.value ?? null, barMotionRatio: bar.value ?? null },
       source: { rollSteerCoefficient: eps.source, rollCamberDegPerDeg: camber.source, rollCentreHeightMm: rc.source, springMotionRatio: spring.source, barMotionRatio: bar.source },

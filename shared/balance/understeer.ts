@@ -96,8 +96,8 @@ export function balanceCore(v: Vehicle, roll: RollModel = evaluateRoll(v)): Bala
       tyreA: cs.a,
       loadTransferNPerG: roll.lateralLoadTransfer[name].totalNPerG,
       camberStiffnessNPerDeg: 2 * (ax.tyre.camberStiffnessNPerDeg ?? 0),
-      // Suspension roll × roll camber, plus the axle's own tilt on its tyres (φ − φ_s) leaning both wheels out.
-      inclinationDegPerG: (ax.rollCamberDegPerDeg ?? 0) * phiS + (phiPerG - phiS),
+      // Suspension roll × roll camber, plus the axle's own tilt on its tyres (φ − φ_s) leaning both wheels out, plus compliance camber.
+      inclinationDegPerG: (ax.rollCamberDegPerDeg ?? 0) * phiS + (phiPerG - phiS) + ((ax.complianceCamberDegPerKN ?? 0) * fy) / 1000,
       rollSteerCoefficient: eps,
       suspensionRollDegPerG: phiS,
       steerOutDegPerG: steerOut,

@@ -187,6 +187,8 @@ export interface CautionInputs {
   complianceRatio: number | null;
   /** The vehicle gives this axle's compliance steer (no "unmodelled" notice then). */
   complianceKnown?: boolean | undefined;
+  /** Where the compliance steer came from: entered in the vehicle, or computed from the corner's bushings. */
+  complianceSource?: 'entered' | 'computed' | undefined;
   /** Rack positions the proposal cannot reach over the whole travel range. */
   unreachableRacks?: { rackMm: number; travelMm: number | null; message: string }[] | undefined;
   thresholds?: CautionThresholds | undefined;
@@ -266,7 +268,7 @@ export function evaluateCautions(inputs: CautionInputs): Caution[] {
   if (inputs.complianceRatio !== null) {
     out.push(
       measured('compliance-steer-rivals', inputs.complianceRatio, inputs, () =>
-        `Elastic steer under lateral force is ${fmt(inputs.complianceRatio ?? 0, 2)} times the kinematic roll steer of this axle: the rigid-link result alone does not set the balance.`,
+        `Elastic steer under lateral force${inputs.complianceSource === 'computed' ? " (computed from the corner's bushings)" : ''} is ${fmt(inputs.complianceRatio ?? 0, 2)} times the kinematic roll steer of this axle: the rigid-link result alone does not set the balance.`,
       ),
     );
   } else if (p.road && !inputs.complianceKnown) {
@@ -274,7 +276,7 @@ export function evaluateCautions(inputs: CautionInputs): Caution[] {
       level: 'info',
       code: 'compliance-steer-unmodelled',
       message:
-        'On road cars, elastic steer of the bushes under lateral force can rival the kinematic roll steer of this rigid-link model; enter the axle compliance steer in the vehicle to include it.',
+        'On road cars, elastic steer of the bushes under lateral force can rival the kinematic roll steer of this rigid-link model; enter the axle compliance steer in the vehicle, or the corner’s bushing rates, to include it.',
       value: null,
       threshold: null,
       unit: '',

@@ -13,6 +13,7 @@ import type { SweepRow } from '../kinematics/index.js';
 import type { CautionInputs, CautionThresholds } from './cautions.js';
 import type { TrackProfile } from './profiles.js';
 import { pose, PoseCounter, sweep } from './link.js';
+import { axleComplianceOf } from '../compliance/axle.js';
 
 const G_STD = 9.80665;
 /** Cornering stiffness per unit load used when the vehicle gives no tyre data, 1/deg (from memory: 0.15–0.25 for car tyres). */
@@ -118,6 +119,7 @@ export function cautionInputs(
   let landing: number | null = null;
   let complianceRatio: number | null = null;
   let complianceKnown = false;
+  let complianceSource: 'entered' | 'computed' | undefined;
   if (v) {
     const axleLoadN = v.massKg * G_STD * (ctx.axle === 'front' ? (v.wheelbaseMm - v.cgToFrontAxleMm) / v.wheelbaseMm : v.cgToFrontAxleMm / v.wheelbaseMm);
     const wheel = axleLoadN / 2;
@@ -133,7 +135,11 @@ export function cautionInputs(
       cc = 1 / tyre.axleComplianceDegPerG;
       ccSource = "the vehicle axle's tyre cornering compliance";
     }
-    const comp = v[ctx.axle].complianceSteerDegPerKN;
+    // Entered compliance steer wins; else the corner's own, computed from its bushings (lateral force at the
+    // contact patch acting a pneumatic trail behind it), for this very geometry.
+    const entered = v[ctx.axle].complianceSteerDegPerKN;
+    const comp = entered ?? axleComplianceOf(corner, { pneumaticTrailMm: v[ctx.axle].tyre.pneumaticTrailMm })?.totalSteerDegPerKN;
+    if (comp !== undefined) complianceSource = entered !== undefined ? 'entered' : 'computed';
     if (comp !== undefined && grads) {
       const compDegPerG = Math.abs(comp * (axleLoadN / 1000));
       const rollDegPerG = Math.abs(eps * (ctx.axle === 'front' ? grads.frontDegPerG : grads.rearDegPerG));
@@ -159,6 +165,7 @@ export function cautionInputs(
     lockBumpSteerRackMm: spreadRack,
     complianceRatio,
     complianceKnown,
+    complianceSource,
     unreachableRacks,
     thresholds: ctx.thresholds,
   };

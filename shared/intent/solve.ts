@@ -9,6 +9,7 @@ import { innerName, outerName, type Intent } from '../schema/intent.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { suspensionRollGradients } from '../balance/index.js';
 import { rollSteerTermDegPerG } from '../balance/link.js';
+import { balanceCore, understeerBudget } from '../balance/understeer.js';
 import { ENGINE_VERSION } from '../version.js';
 import { InputError, SolveError } from '../errors.js';
 import { evaluateCautions, SAFETY_CAUTION, type Caution } from './cautions.js';
@@ -58,7 +59,7 @@ export interface SolveResult {
   reason: string | null;
   axle: 'front' | 'rear';
   target: {
-    kind: 'rollSteerCoefficient' | 'understeerChangeDegPerG' | 'zeroBumpSteer';
+    kind: 'rollSteerCoefficient' | 'understeerChangeDegPerG' | 'zeroBumpSteer' | 'rollAndComplianceSteerDegPerG';
     rollSteerCoefficient: number;
     understeerChangeDegPerG: number | null;
     /** Toe-in of the outside wheel per degree of roll (−ε; exact for a linear symmetric toe curve). */
@@ -101,6 +102,8 @@ export interface SolveResult {
     staticToe: { designToeDeg: number; toeAfterShimmingDeg: number; resetDeg: number; note: string };
   };
   understeerChangeDegPerG: number | null;
+  /** The proposal's axle steer out of the turn with compliance included, deg/g, and where the compliance came from; null without a vehicle. */
+  axleSteer: { rollSteerDegPerG: number; complianceSteerDegPerG: number; totalDegPerG: number; complianceSource: 'entered' | 'computed' | 'none' } | null;
   cautions: Caution[];
   safety: string;
   diagnostics: { poses: number; targetEvaluations: number; objectiveEvaluations: number };
@@ -142,13 +145,14 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   // The understeer change goes through the balance model's own kinematics link
   // (linkVehicle, as computeBalance): ε, roll camber, roll-centre height and
   // motion ratios read from each geometry, K_rs from the budget's functions.
-  const base = linkedRollSteer(counter, intent, current, targetDK !== null);
+  const targetSteer = 'rollAndComplianceSteerDegPerG' in intent.target ? intent.target.rollAndComplianceSteerDegPerG : null;
+  const base = linkedRollSteer(counter, intent, current, targetDK !== null || targetSteer !== null);
   const gradients = base ? suspensionRollGradients(base.vehicle) : null;
   const dKdEps = gradients ? (intent.axle === 'front' ? gradients.frontDegPerG : -gradients.rearDegPerG) : null;
   /** ΔK of a geometry relative to the current one, deg/g (null without a vehicle, or where the link finds no roll centre). */
   const uChange = (c: Corner): number | null => {
     if (!base) return null;
-    const k = c === current ? base : linkedRollSteer(counter, intent, c, targetDK !== null);
+    const k = c === current ? base : linkedRollSteer(counter, intent, c, targetDK !== null || targetSteer !== null);
     return k ? k.kRs - base.kRs : null;
   };
   /** ΔK of a bare ε on the current geometry (the link's ε override), deg/g. */
@@ -165,9 +169,26 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
     // the roll centre and motion ratios (so dφs/da_y) move a little with the tie rod.
     epsTarget = epsCurrent + targetDK / dKdEps;
   }
+  else if (targetSteer !== null) {
+    const phiS = gradients ? (intent.axle === 'front' ? gradients.frontDegPerG : gradients.rearDegPerG) : 0;
+    if (!(Math.abs(phiS) > 1e-9)) {
+      throw new InputError('target.rollAndComplianceSteerDegPerG: the vehicle has no suspension roll on this axle, so roll steer cannot change the axle steer', [
+        { path: 'target.rollAndComplianceSteerDegPerG', message: 'suspension roll gradient is zero' },
+      ]);
+    }
+    // The ε it means with the current compliance steer; the search meets the sum itself (compliance moves with the geometry).
+    epsTarget = epsCurrent + (targetSteer - axleSteerOut(base!.vehicle, intent.axle).totalDegPerG) / phiS;
+  }
   else epsTarget = 0;
-  /** What the search drives to zero: ε − ε*, or for an understeer target ΔK − ΔK* through the balance link. */
-  const residual = (c: Corner): number => (targetDK === null ? epsOf(c) - epsTarget : uChange(c)! - targetDK);
+  const phiSAxle = gradients ? Math.abs(intent.axle === 'front' ? gradients.frontDegPerG : gradients.rearDegPerG) : 1;
+  /** What the search drives to zero: ε − ε*; for an understeer target ΔK − ΔK* through the balance link; for an axle-steer target (steer − target)/φ_s (in ε units). */
+  const residual = (c: Corner): number => {
+    if (targetSteer !== null) {
+      const l = c === current ? base : linkedRollSteer(counter, intent, c, true);
+      return (axleSteerOut(l!.vehicle, intent.axle).totalDegPerG - targetSteer) / phiSAxle;
+    }
+    return targetDK === null ? epsOf(c) - epsTarget : uChange(c)! - targetDK;
+  };
 
   const names = intent.movable;
   const lo = names.map((n) => intent.bounds[n]![0]);
@@ -282,7 +303,12 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   let limiting = outcome.limiting;
   if (!outcome.feasible) {
     const lim = limiting.map((l) => `${l.coordinate} at its ${l.side} ${l.value} mm`).join(', ');
-    const asked = targetDK === null ? `ε = ${epsTarget.toFixed(4)} deg/deg` : `understeer change ${targetDK} deg/g (ε ≈ ${epsTarget.toFixed(4)} deg/deg)`;
+    const asked =
+      targetSteer !== null
+        ? `roll plus compliance steer ${targetSteer} deg/g (ε ≈ ${epsTarget.toFixed(4)} deg/deg)`
+        : targetDK === null
+          ? `ε = ${epsTarget.toFixed(4)} deg/deg`
+          : `understeer change ${targetDK} deg/g (ε ≈ ${epsTarget.toFixed(4)} deg/deg)`;
     reason = `The target ${asked} cannot be met inside the bounds; the closest achievable is ε = ${epsVerified.toFixed(4)} deg/deg with ${lim || 'the current geometry'}.`;
   } else if (bound !== undefined && worst.maxDeviationDeg > bound + 1e-9) {
     feasible = false;
@@ -362,7 +388,18 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
     atBound: Math.abs(q[i]! - lo[i]!) < 1e-6 ? 'min' : Math.abs(q[i]! - hi[i]!) < 1e-6 ? 'max' : null,
   }));
   progress(1, 'done');
-  const targetKind = 'rollSteerCoefficient' in intent.target ? 'rollSteerCoefficient' : 'understeerChangeDegPerG' in intent.target ? 'understeerChangeDegPerG' : 'zeroBumpSteer';
+  const targetKind =
+    'rollSteerCoefficient' in intent.target
+      ? 'rollSteerCoefficient'
+      : 'understeerChangeDegPerG' in intent.target
+        ? 'understeerChangeDegPerG'
+        : 'rollAndComplianceSteerDegPerG' in intent.target
+          ? 'rollAndComplianceSteerDegPerG'
+          : 'zeroBumpSteer';
+  // The proposal's axle steer with compliance included (the balance link: computed from bushings or entered).
+  const axleSteer = proposedLink
+    ? { ...axleSteerOut(proposedLink.vehicle, intent.axle), complianceSource: linked(counter, intent.vehicle!, intent.axle, proposed)[intent.axle].compliance.source.complianceSteerDegPerKN }
+    : null;
   return {
     engineVersion: ENGINE_VERSION,
     feasible,
@@ -394,7 +431,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
       unreachableRacks,
       toeCurve: verificationRows.map((r) => ({ travelMm: r.travelMm, rackMm: r.rackMm, toeDeg: r.toeDeg, camberDeg: r.camberDeg, halfTrackChangeMm: r.halfTrackChangeMm })),
     },
-    estimate: { rollSteerCoefficient: targetDK === null ? epsTarget + outcome.constraint : epsOf(build(outcome.q)), objectiveRmsDeg: outcome.objective },
+    estimate: { rollSteerCoefficient: targetDK === null && targetSteer === null ? epsTarget + outcome.constraint : epsOf(build(outcome.q)), objectiveRmsDeg: outcome.objective },
     limitingBound: limiting[0] ?? null,
     limitingBounds: limiting,
     family,
@@ -409,6 +446,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
       staticToe,
     },
     understeerChangeDegPerG: proposedDK,
+    axleSteer,
     cautions,
     safety: SAFETY_CAUTION,
     diagnostics: { poses: counter.poses, targetEvaluations: outcome.evaluations.constraint, objectiveEvaluations: outcome.evaluations.objective },
@@ -418,6 +456,16 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
 /** Rack positions of the verification: 0 first, then the intent's or the stroke's ends. */
 export function rackPositions(intent: Intent): number[] {
   return cautionRackPositions(intent.corner, intent.options.rackPositionsMm);
+}
+
+/**
+ * The axle's steer out of the turn per g in a linked vehicle (the budget's own terms): roll steer, compliance
+ * steer (lateral force and aligning torque) and their sum, deg/g.
+ */
+export function axleSteerOut(v: Vehicle, axle: 'front' | 'rear'): { rollSteerDegPerG: number; complianceSteerDegPerG: number; totalDegPerG: number } {
+  const c = understeerBudget(balanceCore(v)).axleCompliance[axle];
+  const compliance = c.complianceSteer + c.alignTorqueComplianceSteer;
+  return { rollSteerDegPerG: c.rollSteer, complianceSteerDegPerG: compliance, totalDegPerG: c.rollSteer + compliance };
 }
 
 /** A vehicle with `axle`'s roll steer coefficient set to ε (what the balance link's override does). */

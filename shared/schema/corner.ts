@@ -173,10 +173,55 @@ export const fiveLinkPointsSchema = strictObject({
   link5Outer: vec3Schema,
 });
 
-const doubleWishboneSchema = strictObject({ ...common, type: z.literal('double-wishbone'), points: doubleWishbonePointsSchema });
-const strutSchema = strictObject({ ...common, type: z.literal('strut'), points: strutPointsSchema });
+// ---------- elastic keys (compliance, docs/compliance.md) ----------
+
+/** Largest rate accepted, N/mm (a short solid steel link is about 2e5 N/mm; leave a key out for rigid). */
+export const MAX_RATE_N_PER_MM = 1e7;
+const rate = (what: string) =>
+  z
+    .number({ message: `${what} must be a number (N/mm)` })
+    .finite({ message: `${what} must be a finite rate in N/mm` })
+    .positive({ message: `${what} must be a positive rate in N/mm (leave the key out for a rigid mount)` })
+    .max(MAX_RATE_N_PER_MM, { message: `${what} above ${MAX_RATE_N_PER_MM} N/mm: leave the key out for a rigid mount` });
+
+/**
+ * One bushing (or a compliant ball joint): radial rate and axial rate, N/mm.
+ * Axial is along the arm's pivot axis at a wishbone pivot, along the link at
+ * a single link's end, along the strut at the top mount and along the
+ * kingpin at an arm's outer ball joint.
+ */
+export const bushingSchema = strictObject({ radialNPerMm: rate('radialNPerMm'), axialNPerMm: rate('axialNPerMm') });
+export type Bushing = z.infer<typeof bushingSchema>;
+
+/** Bushing map keyed by the corner's own point names (body ends, and upright ball joints when they are compliant). */
+function bushingsOf(names: readonly string[]) {
+  return strictObject(Object.fromEntries(names.map((n) => [n, bushingSchema.optional()])) as Record<string, z.ZodOptional<typeof bushingSchema>>).optional();
+}
+function linkRatesOf(names: readonly string[]) {
+  return strictObject(Object.fromEntries(names.map((n) => [n, rate(n)])) as Record<string, ReturnType<typeof rate>>).partial().optional();
+}
+/** Point names a bushing may sit at, per corner type. */
+export const BUSHING_POINTS = {
+  'double-wishbone': ['lowerFront', 'lowerRear', 'upperFront', 'upperRear', 'tieRodInner', 'lowerOuter', 'upperOuter', 'tieRodOuter'],
+  strut: ['lowerFront', 'lowerRear', 'strutTop', 'tieRodInner', 'lowerOuter', 'tieRodOuter'],
+  'five-link': [1, 2, 3, 4, 5].flatMap((i) => [`link${i}Inner`, `link${i}Outer`]),
+} as const;
+/** Single links whose own axial stiffness may be given, per corner type. */
+export const STIFF_LINKS = { 'double-wishbone': ['tieRod'], strut: ['tieRod'], 'five-link': ['link1', 'link2', 'link3', 'link4', 'link5'] } as const;
+const elastic = (type: keyof typeof BUSHING_POINTS) => ({
+  /** Bushing rates by point name; a point not listed is rigid. */
+  bushings: bushingsOf(BUSHING_POINTS[type]),
+  /** Axial stiffness of single links (the link itself, in series with its end bushings), N/mm. */
+  linkAxialNPerMm: linkRatesOf(STIFF_LINKS[type]),
+  /** Steering system (rack mounts, column) as a rate at the rack along its travel, N/mm; steered corners only. */
+  steeringStiffnessNPerMm: rate('steeringStiffnessNPerMm').optional(),
+});
+
+const doubleWishboneSchema = strictObject({ ...common, ...elastic('double-wishbone'), type: z.literal('double-wishbone'), points: doubleWishbonePointsSchema });
+const strutSchema = strictObject({ ...common, ...elastic('strut'), type: z.literal('strut'), points: strutPointsSchema });
 const fiveLinkSchema = strictObject({
   ...common,
+  ...elastic('five-link'),
   type: z.literal('five-link'),
   points: fiveLinkPointsSchema,
   /** Which link (1–5) is the toe link; its ends play the tie rod's part. */
@@ -354,6 +399,9 @@ export function cornerSemanticIssues(corner: z.infer<typeof cornerShapeSchema>):
   }
 
   // Steering.
+  if (corner.steeringStiffnessNPerMm !== undefined && !corner.steered) {
+    add('steeringStiffnessNPerMm', 'steeringStiffnessNPerMm applies to a steered corner only (this corner has a fixed toe link: give its rate as linkAxialNPerMm or a bushing)');
+  }
   if (corner.steered && !corner.steering) add('steering', 'steering is required when steered is true (a rack or a steering-box arm)');
   if (corner.steering?.kind === 'rack') {
     const [lo, hi] = corner.steering.rackStroke;

@@ -29,7 +29,9 @@ export const intentTargetSchema = z.union([
   z.strictObject({ rollSteerCoefficient: finite('target.rollSteerCoefficient').min(-1).max(1) }),
   z.strictObject({ understeerChangeDegPerG: finite('target.understeerChangeDegPerG').min(-20).max(20) }),
   z.strictObject({ zeroBumpSteer: z.literal(true) }),
-], { error: 'target must be { rollSteerCoefficient }, { understeerChangeDegPerG } or { zeroBumpSteer: true }' });
+  /** Roll steer plus compliance steer of the axle (deg/g, positive out of the turn), compliance from the corner's bushings or the vehicle. */
+  z.strictObject({ rollAndComplianceSteerDegPerG: finite('target.rollAndComplianceSteerDegPerG').min(-20).max(20) }),
+], { error: 'target must be { rollSteerCoefficient }, { understeerChangeDegPerG }, { zeroBumpSteer: true } or { rollAndComplianceSteerDegPerG }' });
 export type IntentTarget = z.infer<typeof intentTargetSchema>;
 
 export const trackProfileChoiceSchema = z.union([
@@ -103,6 +105,9 @@ export const intentSchema = z
     for (const [k, b] of Object.entries(intent.bounds)) {
       if (!seen.has(k)) issue(['bounds', k], `bounds.${k} is given but ${k} is not in movable`);
       else if (!(b[0] < b[1])) issue(['bounds', k], `bounds.${k} [${b[0]}, ${b[1]}] must have min < max`);
+    }
+    if ('rollAndComplianceSteerDegPerG' in intent.target && !intent.vehicle) {
+      issue(['vehicle'], 'vehicle is required for target.rollAndComplianceSteerDegPerG (its suspension roll and axle load turn steer per degree and per kN into deg/g)');
     }
     if ('understeerChangeDegPerG' in intent.target && !intent.vehicle) {
       issue(['vehicle'], 'vehicle is required for target.understeerChangeDegPerG (the suspension roll gradient turns it into a roll steer coefficient)');

@@ -35,6 +35,7 @@ export const VEHICLE_FIELD_UNITS: Readonly<Record<string, string>> = {
   rollStiffnessNmPerDeg: 'N m / deg',
   steeringStiffnessNmPerDeg: 'N m / deg',
   complianceSteerDegPerKN: 'deg / kN',
+  complianceCamberDegPerKN: 'deg / kN',
   axleComplianceDegPerG: 'deg',
   shearModulusGPa: 'GPa',
 };

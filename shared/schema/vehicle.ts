@@ -87,6 +87,8 @@ export const axleSchema = z
     complianceSteerDegPerKN: finite('complianceSteerDegPerKN').optional(),
     /** Steering (or toe-link) stiffness against aligning torque, N·m/deg of road-wheel steer. */
     steeringStiffnessNmPerDeg: positive('steeringStiffnessNmPerDeg').optional(),
+    /** Lateral-force compliance camber of the axle: outward wheel inclination, deg per kN of axle lateral force. */
+    complianceCamberDegPerKN: finite('complianceCamberDegPerKN').optional(),
   })
   .superRefine((a, ctx) => {
     if (a.spring === undefined && a.rollStiffnessNmPerDeg === undefined) {

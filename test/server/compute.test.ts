@@ -9,6 +9,7 @@ import { exampleCorners } from '../../shared/kinematics/examples.js';
 import { exampleVehicles } from '../../shared/balance/examples.js';
 import { computeAxleRoll, computeCornerSweep } from '../../shared/kinematics/api.js';
 import { computeBalance } from '../../shared/balance/api.js';
+import { computeCornerCompliance } from '../../shared/compliance/api.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import { createApp } from '../../server/app.js';
 import { agent, expectError, registerUser, startTestApp, testConfig, type Agent, type TestApp } from './helpers.js';
@@ -48,6 +49,19 @@ describe('direct compute calls', () => {
     expect(r.body.engineVersion).toBe(ENGINE_VERSION);
     expect(r.body.result).toEqual(json(computeCornerSweep(sweepInput)));
     expect(r.body.result.rows).toHaveLength(33);
+  });
+
+  it('corner-compliance returns the engine result, and a bad bushing rate names its field', async () => {
+    // Issue 17: the HTTP route runs the same code as the CLI and the Web Worker.
+    const corner = { ...exampleCorners.fsFrontWishbone, bushings: { lowerFront: { radialNPerMm: 3000, axialNPerMm: 800 }, tieRodInner: { radialNPerMm: 4000, axialNPerMm: 900 } }, steeringStiffnessNPerMm: 3000 };
+    const input = { corner, travelMm: 5, rackMm: 5, sweep: { travel: { from: -20, to: 20, step: 10 }, rackMm: [-10, 0, 10] } };
+    const r = await user.post('/api/compute/corner-compliance').send(input).expect(200);
+    expect(r.body.result).toEqual(json(computeCornerCompliance(input)));
+    expect(r.body.result.rigid).toBe(false);
+    expect(r.body.result.sweep).toHaveLength(15);
+    const bad = await user.post('/api/compute/corner-compliance').send({ corner: { ...corner, bushings: { lowerFront: { radialNPerMm: 0, axialNPerMm: 800 } } } });
+    expectError(bad, 400, 'invalid_input');
+    expect(JSON.stringify(bad.body.error.details)).toContain('corner.bushings.lowerFront.radialNPerMm');
   });
 
   it('axle-roll returns the engine result', async () => {

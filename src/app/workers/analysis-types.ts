@@ -1,5 +1,6 @@
 import type { Corner, Vec3 } from '../../../shared/schema/corner';
 import type { Caution } from '../../../shared/intent/cautions';
+import type { ComplianceBesideRollSteer } from '../../../shared/compliance/compare';
 import type { TrackProfile, TrackProfileChoice } from '../../../shared/intent/profiles';
 
 /** What the cautions beside the results are measured for. */
@@ -81,6 +82,8 @@ export interface CornerAnalysis {
   readonly rollCamberDegPerDeg: number;
   readonly pose: DrawnPose;
   readonly cautions: CornerCautions | null;
+  /** Compliance from the corner's bushings beside the roll steer (shared/compliance), or why it could not be computed. */
+  readonly compliance: { readonly ok: true; readonly value: ComplianceBesideRollSteer } | { readonly ok: false; readonly failure: AnalysisFailure };
   /** Time the engine took, ms (shown as a small figure; the bench measures properly). */
   readonly elapsedMs: number;
 }

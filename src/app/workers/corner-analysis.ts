@@ -10,6 +10,7 @@ import type { Corner, Vec3 } from '../../../shared/schema/corner';
 import { upgradeVehicleDocument, vehicleSchema, type Vehicle } from '../../../shared/schema/vehicle';
 import { cautionRackPositions, cautionsForCorner } from '../../../shared/intent/corner-cautions';
 import { resolveTrackProfile } from '../../../shared/intent/profiles';
+import { complianceBesideRollSteer } from '../../../shared/compliance/compare';
 import type { AnalysisFailure, AnalysisRequest, CautionRequest, CornerAnalysis, CornerCautions, DrawnPose, RackCurve, RollCurve } from './analysis-types';
 
 /** Points carried by the upright (they move as one rigid body with it). */
@@ -84,6 +85,7 @@ export function analyseCorner(request: AnalysisRequest): CornerAnalysis {
     rollCamberDegPerDeg: roll.rollCamberDegPerDeg,
     pose: posedPoints(request),
     cautions: request.cautions ? cornerCautions(request.corner, request.cautions) : null,
+    compliance: cornerCompliance(request, roll.rollSteerCoefficient),
     elapsedMs: performance.now() - started,
   };
 }
@@ -95,6 +97,18 @@ function vehicleFrom(data: unknown): { vehicle: Vehicle | undefined; note: strin
   if (parsed.success) return { vehicle: parsed.data, note: null };
   const first = parsed.error.issues[0];
   return { vehicle: undefined, note: `the vehicle data is incomplete (${first ? `${first.path.join('.') || '(root)'}: ${first.message}` : 'invalid'})` };
+}
+
+/** Compliance steer beside the roll steer, in deg/g with the vehicle when its data is complete. */
+function cornerCompliance(request: AnalysisRequest, eps: number): CornerAnalysis['compliance'] {
+  const c = request.cautions;
+  const vehicle = c ? vehicleFrom(c.vehicleData).vehicle : undefined;
+  try {
+    return { ok: true, value: complianceBesideRollSteer(request.corner, eps, c?.axle ?? 'front', vehicle) };
+  } catch (error) {
+    if (error instanceof InputError || error instanceof SolveError) return { ok: false, failure: describeFailure(error) };
+    throw error;
+  }
 }
 
 /** The corner's cautions on the chosen profile (shared/intent); a profile it cannot reach is reported, not fatal to the kinematics. */

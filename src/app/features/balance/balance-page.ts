@@ -108,6 +108,7 @@ export class BalancePage implements OnInit {
     return [
       row('Understeer gradient K', 'deg/g', (x) => x.understeerBudget.total),
       row('Roll steer term', 'deg/g', (x) => x.understeerBudget.rollSteer),
+      row('Compliance steer term', 'deg/g', (x) => x.understeerBudget.complianceSteer),
       row('Roll gradient', 'deg/g', (x) => x.rollGradientDegPerG),
       row('Roll stiffness, front', 'N·m/deg', (x) => x.rollStiffnessNmPerDeg.front, 0),
       row('Roll stiffness, rear', 'N·m/deg', (x) => x.rollStiffnessNmPerDeg.rear, 0),

@@ -41,6 +41,7 @@ function axleFields(axle: 'front' | 'rear'): VehicleField[] {
     f(p('rollSteerCoefficient'), 'Roll steer coefficient ε (+ out of the turn)', null, 'deg/deg'),
     f(p('rollCamberDegPerDeg'), 'Roll camber coefficient', null, 'deg/deg'),
     f(p('complianceSteerDegPerKN'), 'Compliance steer (+ out of the turn)', 'deg / kN', 'deg/kN'),
+    f(p('complianceCamberDegPerKN'), 'Compliance camber (+ wheels lean out)', 'deg / kN', 'deg/kN'),
     f(p('steeringStiffnessNmPerDeg'), 'Steering stiffness against aligning torque', 'N m / deg', 'N·m/deg'),
   ];
 }
