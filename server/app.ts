@@ -132,7 +132,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use('/invitations', invitationLinksRouter(invitations, accounts));
   api.use('/teams/:teamId/invitations', teamInvitationsRouter(invitations, auth));
   api.use('/teams/:teamId/configurations', configurationsRouter(configurations, auth));
-  if (!config.production) api.use('/teams/:teamId/dev/mail', devMailRouter(db.orm, auth));
+  if (!config.production) api.use('/dev/mail', devMailRouter(db.orm, auth));
   api.use('/teams/:teamId', rigMeasurementsRouter(new RigMeasurements(db.orm, configurations, pool, config.computeTimeLimitMs), auth));
   api.use('/teams/:teamId', activityRouter(activity, designs, auth));
   api.use('/teams/:teamId/programmes', teamProgrammesRouter(programmes, auth));

@@ -46,7 +46,7 @@ export function invitationLinksRouter(invitations: Invitations, accounts: Accoun
     const signedIn = req.session?.userId ? await accounts.me(req.session.userId).catch(() => undefined) : undefined;
     let result: { userId: string; teamId: string };
     if (signedIn) {
-      result = await invitations.accept(t, { userId: signedIn.user.id, email: signedIn.user.email });
+      result = await invitations.accept(t, { userId: signedIn.user.id, email: signedIn.user.email, emailVerified: signedIn.user.emailVerified });
     } else {
       const reg = validate(
         z.object({ displayName, password: password(10) }, { error: 'give displayName and password to create your account, or sign in first' }),

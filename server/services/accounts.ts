@@ -9,6 +9,7 @@ import { makeToken, readToken } from '../http/signed-token.js';
 import { enqueueMail } from '../mail/outbox.js';
 import { mailText } from '../mail/messages.js';
 import type { Role } from '../permissions.js';
+import { revokeTokens } from './api-tokens.js';
 
 /** Links in account mail: signing secret, the app's address, lifetimes. */
 export interface AccountMailOptions {
@@ -127,6 +128,8 @@ export class Accounts {
       if (!r) throw new HttpError(400, 'reset_link_invalid', 'This reset link is not valid, was already used or has expired; ask for a new one');
       // A link sent to the address also proves it.
       await tx.update(users).set({ passwordHash, emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, now())` }).where(eq(users.id, r.userId));
+      // Whoever knew the old password may have made tokens with it: they all end.
+      await revokeTokens(tx, { userId: r.userId });
       return r.userId;
     });
   }
@@ -147,7 +150,12 @@ export class Accounts {
     if (!(await bcrypt.compare(currentPassword, u.passwordHash))) {
       throw new HttpError(400, 'wrong_password', 'The current password is not correct', { fields: [{ path: 'currentPassword', message: 'not correct' }] });
     }
-    await this.orm.update(users).set({ passwordHash: await this.hashPassword(newPassword) }).where(eq(users.id, userId));
+    const passwordHash = await this.hashPassword(newPassword);
+    await this.orm.transaction(async (tx) => {
+      await tx.update(users).set({ passwordHash }).where(eq(users.id, userId));
+      // Every API token of the account ends with the old password.
+      await revokeTokens(tx, { userId });
+    });
   }
 
   async updateProfile(userId: string, patch: { displayName?: string | undefined; displayUnits?: 'si' | 'imperial' | undefined }): Promise<void> {
