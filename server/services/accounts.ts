@@ -26,6 +26,8 @@ export interface Me {
   memberships: { teamId: string; teamName: string; teamSlug: string; roles: Role[] }[];
 }
 
+const resetLinkInvalid = () => new HttpError(400, 'reset_link_invalid', 'This reset link is not valid, was already used or has expired; ask for a new one');
+
 export const normaliseEmail = (email: string) => email.trim().toLowerCase();
 
 export class Accounts {
@@ -118,6 +120,12 @@ export class Accounts {
 
   /** Uses a reset token once; returns the user whose password changed. */
   async resetPassword(token: string, newPassword: string): Promise<string> {
+    // The link first: a link that is not valid costs a lookup, never a bcrypt hash.
+    const [live] = await this.orm
+      .select({ userId: passwordResets.userId })
+      .from(passwordResets)
+      .where(and(eq(passwordResets.tokenHash, sha256(token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, sql`now()`)));
+    if (!live) throw resetLinkInvalid();
     const passwordHash = await this.hashPassword(newPassword);
     return this.orm.transaction(async (tx) => {
       const [r] = await tx
@@ -125,7 +133,8 @@ export class Accounts {
         .set({ usedAt: sql`now()` })
         .where(and(eq(passwordResets.tokenHash, sha256(token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, sql`now()`)))
         .returning({ userId: passwordResets.userId });
-      if (!r) throw new HttpError(400, 'reset_link_invalid', 'This reset link is not valid, was already used or has expired; ask for a new one');
+      // Used by a request racing this one, or expired while hashing.
+      if (!r) throw resetLinkInvalid();
       // A link sent to the address also proves it.
       await tx.update(users).set({ passwordHash, emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, now())` }).where(eq(users.id, r.userId));
       // Whoever knew the old password may have made tokens with it: they all end.
