@@ -96,7 +96,15 @@ export class ApiTokens {
     const [r] = await this.orm
       .update(apiTokens)
       .set({ lastUsedAt: sql`now()` })
-      .where(and(eq(apiTokens.tokenHash, hashToken(token)), isNull(apiTokens.revokedAt), sql`(${apiTokens.expiresAt} IS NULL OR ${apiTokens.expiresAt} > now())`))
+      .where(
+        and(
+          eq(apiTokens.tokenHash, hashToken(token)),
+          isNull(apiTokens.revokedAt),
+          sql`(${apiTokens.expiresAt} IS NULL OR ${apiTokens.expiresAt} > now())`,
+          // Only while its holder is a member of its team (leaving also revokes it; this covers any path that did not).
+          sql`EXISTS (SELECT 1 FROM ${memberships} WHERE ${memberships.userId} = ${apiTokens.userId} AND ${memberships.teamId} = ${apiTokens.teamId})`,
+        ),
+      )
       .returning({ id: apiTokens.id, userId: apiTokens.userId, teamId: apiTokens.teamId, scope: apiTokens.scope });
     if (!r) return null;
     const [u] = await this.orm
