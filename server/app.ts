@@ -129,10 +129,10 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use('/teams/:teamId/vehicles/:vehicleId/axle-designs', vehicleAxleDesignsRouter(designs, auth));
   api.use('/teams/:teamId/vehicles', vehiclesRouter(vehicles, auth));
   api.use('/teams/:teamId/axle-designs', axleDesignsRouter(designs, proposals, auth));
-  api.use('/invitations', invitationLinksRouter(invitations, accounts));
+  api.use('/invitations', invitationLinksRouter(invitations, accounts, config.addressLimit));
   api.use('/teams/:teamId/invitations', teamInvitationsRouter(invitations, auth));
   api.use('/teams/:teamId/configurations', configurationsRouter(configurations, auth));
-  if (!config.production) api.use('/teams/:teamId/dev/mail', devMailRouter(db.orm, auth));
+  if (!config.production) api.use('/dev/mail', devMailRouter(db.orm, auth));
   api.use('/teams/:teamId', rigMeasurementsRouter(new RigMeasurements(db.orm, configurations, pool, config.computeTimeLimitMs), auth));
   api.use('/teams/:teamId', activityRouter(activity, designs, auth));
   api.use('/teams/:teamId/programmes', teamProgrammesRouter(programmes, auth));

@@ -4,8 +4,9 @@
  * it can run at every start without undoing what demo users changed.
  * Never run in production.
  */
+import { randomBytes } from 'node:crypto';
 import bcrypt from 'bcryptjs';
-import { and, eq, inArray } from 'drizzle-orm';
+import { and, eq, inArray, sql } from 'drizzle-orm';
 import type { Orm } from './client.js';
 import { axleDesignRevisions, axleDesigns, configurations, memberships, teams, users, vehicleRevisions, vehicles, type Axle } from './schema.js';
 import type { Role } from '../permissions.js';
@@ -13,6 +14,8 @@ import type { ComputePool } from '../compute/pool.js';
 import { deserializeError, type ComputeKind } from '../compute/tasks.js';
 import runComputeTask from '../compute/worker.js';
 import { Configurations, type ReviewAction } from '../services/configurations.js';
+import { Accounts } from '../services/accounts.js';
+import { Invitations } from '../services/invitations.js';
 import type { TrackProfileId } from '../../shared/intent/profiles.js';
 import { exampleVehicles, type ExampleVehicleName } from '../../shared/balance/examples.js';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
@@ -209,18 +212,31 @@ export async function seedDemo(orm: Orm, o: { bcryptRounds?: number; publicUrl?:
         .values(missing.map((u) => ({ email: u.email, displayName: u.displayName, passwordHash, instructor: 'instructor' in u && u.instructor })))
         .onConflictDoNothing();
     }
+    // The demo addresses are the seed's own invention: they count as confirmed.
+    await tx.update(users).set({ emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, now())` }).where(inArray(users.email, emails));
     const userRows = await tx.select({ id: users.id, email: users.email }).from(users).where(inArray(users.email, emails));
     const userId = new Map(userRows.map((u) => [u.email, u.id]));
     const ownerOf = (t: DemoTeam) => userId.get(t.members[0]!.email)!;
 
+    // People join a team only by accepting an invitation, the demo's people too (no mail: they accept at once).
+    const invitations = new Invitations(tx as unknown as Orm, new Accounts(tx as unknown as Orm, o.bcryptRounds ?? 12), {
+      secret: randomBytes(32).toString('hex'),
+      publicUrl,
+      ttlMs: 3_600_000,
+    });
     for (const t of DEMO_TEAMS) {
-      await tx.insert(teams).values({ slug: t.slug, name: t.name }).onConflictDoNothing();
+      const created = await tx.insert(teams).values({ slug: t.slug, name: t.name }).onConflictDoNothing().returning({ id: teams.id });
       const [team] = await tx.select({ id: teams.id }).from(teams).where(eq(teams.slug, t.slug));
       if (!team) throw new Error(`seed: team ${t.slug} missing`);
-      await tx
-        .insert(memberships)
-        .values(t.members.map((m) => ({ teamId: team.id, userId: userId.get(m.email)!, roles: m.roles })))
-        .onConflictDoNothing();
+      if (created.length) {
+        // The first member created the team (its owner), and invited the others, who accepted.
+        const [first, ...others] = t.members;
+        await tx.insert(memberships).values({ teamId: team.id, userId: userId.get(first!.email)!, roles: first!.roles });
+        for (const m of others) {
+          const inv = await invitations.create(team.id, userId.get(first!.email)!, { email: m.email, roles: m.roles }, { mail: false });
+          await invitations.acceptForSeed(inv.id, { userId: userId.get(m.email)!, email: m.email });
+        }
+      }
 
       const author = ownerOf(t);
       for (const v of t.vehicles) {

@@ -92,6 +92,9 @@ export function createAuthorizer(orm: Orm, instructorReads?: (userId: string, te
       if (!m) {
         // An instructor whose programme the team accepted may read it, and only read.
         if (permission === 'team:read' && user.instructor && (req.method === 'GET' || req.method === 'HEAD') && (await instructorReads?.(user.id, teamId))) {
+          // A token is held to its team here as everywhere.
+          const refused = req.tokenGrant ? tokenAllows(req.tokenGrant, teamId, req.method) : null;
+          if (refused) throw refused;
           req.access = { teamId, roles: [] };
           return next();
         }

@@ -23,8 +23,9 @@ const BEARER = /^Bearer\s+(\S+)$/i;
 export const READ_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
 
 /**
- * Paths a token never reaches: account and token management, and accepting
- * an invitation (it signs a person in or registers one). Reading the own
+ * Paths a token never reaches: account and token management, accepting
+ * an invitation (it signs a person in or registers one), and the
+ * development mailbox. Reading the own
  * account (`GET /auth/me`) and looking at an invitation are allowed.
  */
 function needsSession(rawPath: string, method: string): boolean {
@@ -32,6 +33,8 @@ function needsSession(rawPath: string, method: string): boolean {
   const path = rawPath.toLowerCase();
   if (path.startsWith('/auth/')) return !(path === '/auth/me' && READ_METHODS.has(method));
   if (path.startsWith('/invitations/')) return !READ_METHODS.has(method);
+  // The development mailbox holds reset and confirmation links: reading it would turn a token into the account.
+  if (path === '/dev' || path.startsWith('/dev/')) return true;
   return false;
 }
 

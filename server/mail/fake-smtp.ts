@@ -82,10 +82,13 @@ export async function startFakeSmtp(o: { port?: number; host?: string; store?: (
           receivedAt: new Date(),
         };
         if (messages.some((x) => x.messageId === m.messageId)) return callback();
-        messages.push(m);
-        for (const w of waiters) if (w.match(m)) (waiters.delete(w), w.resolve(m));
+        // Listed (and waiters told) only once stored: whoever waited for a message can read it from the store.
         (o.store ? o.store(m) : Promise.resolve()).then(
-          () => callback(),
+          () => {
+            if (!messages.some((x) => x.messageId === m.messageId)) messages.push(m);
+            for (const w of waiters) if (w.match(m)) (waiters.delete(w), w.resolve(m));
+            callback();
+          },
           (err: Error) => callback(err),
         );
       });

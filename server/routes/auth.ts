@@ -3,6 +3,7 @@ import { Router } from 'express';
 import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
 import { z } from 'zod';
 import type { Config } from '../config.js';
+import { perAccountFailures, perAddress } from '../http/rate-limits.js';
 import type pg from 'pg';
 import { HttpError, validate } from '../http/errors.js';
 import { currentUser, type Authorizer } from '../http/authorize.js';
@@ -56,19 +57,15 @@ export function authRouter(config: Config, accounts: Accounts, pool: pg.Pool, au
   });
 
   /** One client address, all accounts together (config.addressLimit). */
-  const addressLimiter = (message: string, failedOnly: boolean) =>
-    rateLimit({
-      windowMs: config.addressLimit.windowMs,
-      limit: config.addressLimit.max,
-      skipSuccessfulRequests: failedOnly,
-      standardHeaders: 'draft-8',
-      legacyHeaders: false,
-      keyGenerator: (req) => ipKeyGenerator(req.ip ?? ''),
-      handler: (_req, _res, next) => next(new HttpError(429, 'rate_limited', message)),
-    });
+  const addressLimiter = (message: string, failedOnly: boolean) => perAddress(config.addressLimit, message, { failedOnly });
   const signInAddressLimiter = addressLimiter('Too many failed sign-ins from this address. Please wait a few minutes and try again.', true);
   const registerLimiter = addressLimiter('Too many accounts created from this address. Please wait a few minutes and try again.', false);
   const resendLimiter = addressLimiter('Too many confirmation links requested. Please wait a few minutes and try again.', false);
+  // Routes that hash or compare passwords (bcrypt): every request counts, successful or not.
+  const confirmLimiter = addressLimiter('Too many password resets from this address. Please wait a few minutes and try again.', false);
+  const changePasswordLimiter = addressLimiter('Too many password changes from this address. Please wait a few minutes and try again.', false);
+  // A stolen session guessing the current password: failures per account, as for sign-in.
+  const changePasswordAccountLimiter = perAccountFailures(config.signInLimit, 'Too many wrong current passwords. Please wait a few minutes and try again.');
 
   r.get('/me', auth.requireUser, async (req, res) => {
     res.json(await accounts.me(currentUser(req).id));
@@ -105,7 +102,7 @@ export function authRouter(config: Config, accounts: Accounts, pool: pg.Pool, au
     res.status(204).end();
   });
 
-  r.post('/change-password', auth.requireUser, async (req, res) => {
+  r.post('/change-password', auth.requireUser, changePasswordLimiter, changePasswordAccountLimiter, async (req, res) => {
     const { currentPassword, newPassword } = validate(changePasswordSchema, req.body);
     const id = currentUser(req).id;
     await accounts.changePassword(id, currentPassword, newPassword);
@@ -120,8 +117,8 @@ export function authRouter(config: Config, accounts: Accounts, pool: pg.Pool, au
     res.status(202).json({ status: 'If an account uses that address, a reset link is on its way.' });
   });
 
-  // Public: the token from the mail is the credential; every session of the account ends.
-  r.post('/password-reset/confirm', async (req, res) => {
+  // Public: the token from the mail is the credential (checked before any hashing); every session of the account ends.
+  r.post('/password-reset/confirm', confirmLimiter, async (req, res) => {
     const { token, newPassword } = validate(resetConfirmSchema, req.body);
     const userId = await accounts.resetPassword(token, newPassword);
     await endOtherSessions(pool, userId, '');

@@ -8,6 +8,7 @@ import { z } from 'zod';
 import { validate } from '../http/errors.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
 import { establishSession } from '../http/session.js';
+import { perAddress, type Limit } from '../http/rate-limits.js';
 import { ROLES } from '../permissions.js';
 import type { Accounts } from '../services/accounts.js';
 import type { Invitations } from '../services/invitations.js';
@@ -35,18 +36,20 @@ export function teamInvitationsRouter(invitations: Invitations, auth: Authorizer
 }
 
 /** Mounted at /api/invitations (public: the link is the credential). */
-export function invitationLinksRouter(invitations: Invitations, accounts: Accounts): Router {
+export function invitationLinksRouter(invitations: Invitations, accounts: Accounts, limit: Limit): Router {
   const r = Router();
+  // Accepting may create an account (a bcrypt hash): limited per client address like registering.
+  const acceptLimiter = perAddress(limit, 'Too many invitations accepted from this address. Please wait a few minutes and try again.');
   r.get('/:token', async (req, res) => {
     res.json(await invitations.info(token(req.params['token'])));
   });
-  r.post('/:token/accept', async (req, res) => {
+  r.post('/:token/accept', acceptLimiter, async (req, res) => {
     const t = token(req.params['token']);
     const body = validate(acceptSchema, req.body ?? {});
     const signedIn = req.session?.userId ? await accounts.me(req.session.userId).catch(() => undefined) : undefined;
     let result: { userId: string; teamId: string };
     if (signedIn) {
-      result = await invitations.accept(t, { userId: signedIn.user.id, email: signedIn.user.email });
+      result = await invitations.accept(t, { userId: signedIn.user.id, email: signedIn.user.email, emailVerified: signedIn.user.emailVerified });
     } else {
       const reg = validate(
         z.object({ displayName, password: password(10) }, { error: 'give displayName and password to create your account, or sign in first' }),

@@ -1,4 +1,4 @@
-/** /api/teams: teams and their members. */
+/** /api/teams: teams and their members (who join only by accepting an invitation: routes/invitations.ts). */
 import { Router } from 'express';
 import { z } from 'zod';
 import { validate, notFound } from '../http/errors.js';
@@ -20,7 +20,6 @@ const roles = z
 
 const createTeamSchema = z.strictObject({ name: teamName, slug });
 const renameTeamSchema = z.strictObject({ name: teamName });
-const addMemberSchema = z.strictObject({ email: z.string().trim().min(1, 'is required').max(254), roles });
 const changeRolesSchema = z.strictObject({ roles });
 
 function memberId(raw: unknown): string {
@@ -59,10 +58,7 @@ export function teamsRouter(teams: Teams, auth: Authorizer): Router {
     res.json(await teams.members(currentAccess(req).teamId));
   });
 
-  r.post('/:teamId/members', requirePermission('members:manage'), async (req, res) => {
-    const input = validate(addMemberSchema, req.body);
-    res.status(201).json(await teams.addMember(currentAccess(req).teamId, input.email, input.roles, currentUser(req).id));
-  });
+  // Nobody is added directly: people join by accepting an invitation (routes/invitations.ts).
 
   r.patch('/:teamId/members/:userId', requirePermission('members:manage'), async (req, res) => {
     const input = validate(changeRolesSchema, req.body);

@@ -9,6 +9,7 @@ import { makeToken, readToken } from '../http/signed-token.js';
 import { enqueueMail } from '../mail/outbox.js';
 import { mailText } from '../mail/messages.js';
 import type { Role } from '../permissions.js';
+import { revokeTokens } from './api-tokens.js';
 
 /** Links in account mail: signing secret, the app's address, lifetimes. */
 export interface AccountMailOptions {
@@ -24,6 +25,8 @@ export interface Me {
   user: { id: string; email: string; displayName: string; displayUnits: 'si' | 'imperial'; instructor: boolean; emailVerified: boolean };
   memberships: { teamId: string; teamName: string; teamSlug: string; roles: Role[] }[];
 }
+
+const resetLinkInvalid = () => new HttpError(400, 'reset_link_invalid', 'This reset link is not valid, was already used or has expired; ask for a new one');
 
 export const normaliseEmail = (email: string) => email.trim().toLowerCase();
 
@@ -117,6 +120,12 @@ export class Accounts {
 
   /** Uses a reset token once; returns the user whose password changed. */
   async resetPassword(token: string, newPassword: string): Promise<string> {
+    // The link first: a link that is not valid costs a lookup, never a bcrypt hash.
+    const [live] = await this.orm
+      .select({ userId: passwordResets.userId })
+      .from(passwordResets)
+      .where(and(eq(passwordResets.tokenHash, sha256(token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, sql`now()`)));
+    if (!live) throw resetLinkInvalid();
     const passwordHash = await this.hashPassword(newPassword);
     return this.orm.transaction(async (tx) => {
       const [r] = await tx
@@ -124,9 +133,12 @@ export class Accounts {
         .set({ usedAt: sql`now()` })
         .where(and(eq(passwordResets.tokenHash, sha256(token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, sql`now()`)))
         .returning({ userId: passwordResets.userId });
-      if (!r) throw new HttpError(400, 'reset_link_invalid', 'This reset link is not valid, was already used or has expired; ask for a new one');
+      // Used by a request racing this one, or expired while hashing.
+      if (!r) throw resetLinkInvalid();
       // A link sent to the address also proves it.
       await tx.update(users).set({ passwordHash, emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, now())` }).where(eq(users.id, r.userId));
+      // Whoever knew the old password may have made tokens with it: they all end.
+      await revokeTokens(tx, { userId: r.userId });
       return r.userId;
     });
   }
@@ -147,7 +159,12 @@ export class Accounts {
     if (!(await bcrypt.compare(currentPassword, u.passwordHash))) {
       throw new HttpError(400, 'wrong_password', 'The current password is not correct', { fields: [{ path: 'currentPassword', message: 'not correct' }] });
     }
-    await this.orm.update(users).set({ passwordHash: await this.hashPassword(newPassword) }).where(eq(users.id, userId));
+    const passwordHash = await this.hashPassword(newPassword);
+    await this.orm.transaction(async (tx) => {
+      await tx.update(users).set({ passwordHash }).where(eq(users.id, userId));
+      // Every API token of the account ends with the old password.
+      await revokeTokens(tx, { userId });
+    });
   }
 
   async updateProfile(userId: string, patch: { displayName?: string | undefined; displayUnits?: 'si' | 'imperial' | undefined }): Promise<void> {

@@ -5,13 +5,24 @@
  */
 import { createHash, randomBytes } from 'node:crypto';
 import { and, desc, eq, isNull, sql } from 'drizzle-orm';
-import type { Orm } from '../db/client.js';
+import type { Executor, Orm } from '../db/client.js';
 import { apiTokens, memberships, teams, users, type TokenScope } from '../db/schema.js';
 import { HttpError, notFound } from '../http/errors.js';
 import type { SessionUser } from '../http/authorize.js';
 
 export const TOKEN_PREFIX = 'rw_';
 export const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
+
+/**
+ * Revokes every live token of a user (or only those for one team): a password change or reset
+ * ends them all, leaving or being removed from a team ends that team's. Revoked is final.
+ */
+export async function revokeTokens(tx: Executor, o: { userId: string; teamId?: string }): Promise<void> {
+  await tx
+    .update(apiTokens)
+    .set({ revokedAt: sql`now()` })
+    .where(and(eq(apiTokens.userId, o.userId), isNull(apiTokens.revokedAt), o.teamId ? eq(apiTokens.teamId, o.teamId) : undefined));
+}
 
 export interface TokenGrant {
   tokenId: string;
@@ -85,7 +96,15 @@ export class ApiTokens {
     const [r] = await this.orm
       .update(apiTokens)
       .set({ lastUsedAt: sql`now()` })
-      .where(and(eq(apiTokens.tokenHash, hashToken(token)), isNull(apiTokens.revokedAt), sql`(${apiTokens.expiresAt} IS NULL OR ${apiTokens.expiresAt} > now())`))
+      .where(
+        and(
+          eq(apiTokens.tokenHash, hashToken(token)),
+          isNull(apiTokens.revokedAt),
+          sql`(${apiTokens.expiresAt} IS NULL OR ${apiTokens.expiresAt} > now())`,
+          // Only while its holder is a member of its team (leaving also revokes it; this covers any path that did not).
+          sql`EXISTS (SELECT 1 FROM ${memberships} WHERE ${memberships.userId} = ${apiTokens.userId} AND ${memberships.teamId} = ${apiTokens.teamId})`,
+        ),
+      )
       .returning({ id: apiTokens.id, userId: apiTokens.userId, teamId: apiTokens.teamId, scope: apiTokens.scope });
     if (!r) return null;
     const [u] = await this.orm

@@ -8,9 +8,9 @@
  *
  * Any new revision (other references, name, track profile) returns the
  * configuration to draft. Decisions (approve, request changes, release,
- * validate) are the reviewer's, and never on a configuration whose current
- * revision — or any vehicle / axle design revision it references — the
- * reviewer authored. Approval freezes inputs, computed results and the
+ * validate) are the reviewer's, and never on a configuration any revision of
+ * whose current review round — or any vehicle / axle design revision it
+ * references — the reviewer authored. Approval freezes inputs, computed results and the
  * engine version. Results come from the shared engines through the compute
  * pool; nothing here does engineering math.
  */
@@ -418,10 +418,37 @@ export class Configurations {
     return { revision: rev, refs, engineVersion: ENGINE_VERSION, results: await this.compute(inputs) };
   }
 
-  /** True when the user authored the configuration revision or any vehicle / design revision it references. */
+  /**
+   * True when the user authored any configuration revision of the current review round, or any
+   * vehicle / design revision the current revision references. The round is every revision after
+   * the last one a decision closed (approved or changes requested); with none, all of them. So a
+   * reviewer who wrote revision 1 cannot approve once someone else has renamed it.
+   */
   private async authored(userId: string, configurationId: string, revision: number, orm: Executor): Promise<boolean> {
     const r = await this.revisionRow(configurationId, revision, orm);
     if (r.authorId === userId) return true;
+    const [closed] = await orm
+      .select({ revision: sql<number | null>`max(${configurationTransitions.revision})` })
+      .from(configurationTransitions)
+      .where(
+        and(
+          eq(configurationTransitions.configurationId, configurationId),
+          sql`${configurationTransitions.toStatus} IN ('approved', 'changes_requested')`,
+          sql`${configurationTransitions.revision} < ${revision}`,
+        ),
+      );
+    const [inRound] = await orm
+      .select({ n: sql<number>`count(*)::int` })
+      .from(configurationRevisions)
+      .where(
+        and(
+          eq(configurationRevisions.configurationId, configurationId),
+          eq(configurationRevisions.authorId, userId),
+          sql`${configurationRevisions.revision} > ${closed?.revision ?? 0}`,
+          sql`${configurationRevisions.revision} <= ${revision}`,
+        ),
+      );
+    if ((inRound?.n ?? 0) > 0) return true;
     const [v] = await orm
       .select({ authorId: vehicleRevisions.authorId })
       .from(vehicleRevisions)

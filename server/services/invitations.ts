@@ -1,9 +1,13 @@
 /**
- * Team invitations by e-mail. The owner invites an address with roles; the
- * mail (enqueued in the same transaction) carries a signed link that expires.
- * Reading the invitation never changes anything; accepting is a POST, once:
- * a signed-in user whose address matches joins the team, a new person
- * registers straight into it (the link proves the address).
+ * Team invitations by e-mail: the only way into a team besides creating it.
+ * The owner invites an address with roles; the mail (enqueued in the same
+ * transaction) carries a signed link that expires. Inviting answers alike
+ * whether or not the address has an account, and reading the invitation
+ * does not say either. Reading never changes anything; accepting is a POST,
+ * once: a signed-in user whose *confirmed* address is the invited one joins
+ * the team (an unconfirmed account cannot squat a colleague's address), or
+ * a new person registers straight into it (the link proves the address).
+ * Until then the invited person is no member and holds no role.
  */
 import { and, desc, eq, gt, isNull, sql } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
@@ -27,8 +31,6 @@ export interface InvitationInfo {
   roles: Role[];
   invitedByName: string | null;
   expiresAt: Date;
-  /** An account with the invited address exists: sign in with it to accept. */
-  accountExists: boolean;
 }
 
 export class Invitations {
@@ -42,14 +44,16 @@ export class Invitations {
     return `${this.o.publicUrl}/invitations/${token}`;
   }
 
-  async create(teamId: string, inviterId: string, input: { email: string; roles: Role[] }) {
+  /** `o.mail: false` only for the demo seed, which accepts at once for its invented people. */
+  async create(teamId: string, inviterId: string, input: { email: string; roles: Role[] }, o: { mail?: boolean } = {}) {
     const email = normaliseEmail(input.email);
     const [member] = await this.orm
-      .select({ name: users.displayName })
+      .select({ userId: users.id })
       .from(memberships)
       .innerJoin(users, eq(users.id, memberships.userId))
       .where(and(eq(memberships.teamId, teamId), eq(users.email, email)));
-    if (member) throw new HttpError(409, 'already_member', `${member.name} is already a member of this team`);
+    // Owners see their members' addresses anyway; the answer names nobody.
+    if (member) throw new HttpError(409, 'already_member', 'That address belongs to a member of this team already');
     const expiresAt = new Date(Date.now() + this.o.ttlMs);
     return this.orm.transaction(async (tx) => {
       const [inv] = await tx.insert(teamInvitations).values({ teamId, email, roles: input.roles, invitedBy: inviterId, expiresAt }).returning();
@@ -57,7 +61,7 @@ export class Invitations {
       const [inviter] = await tx.select({ name: users.displayName }).from(users).where(eq(users.id, inviterId));
       const token = makeToken(this.o.secret, 'invitation', { id: inv!.id }, expiresAt);
       const text = mailText.invitation({ teamName: team!.name, inviterName: inviter?.name ?? 'A team owner', roles: input.roles, link: this.link(token), expiresAt });
-      await enqueueMail(tx, { kind: 'invitation', to: email, teamId, ...text, dedupeKey: `invitation:${inv!.id}` });
+      if (o.mail !== false) await enqueueMail(tx, { kind: 'invitation', to: email, teamId, ...text, dedupeKey: `invitation:${inv!.id}` });
       await recordActivity(tx, { teamId, actorId: inviterId, action: 'invitation.create', subjectType: 'invitation', subjectId: inv!.id, summary: `Invited ${email} as ${input.roles.join(', ')}` });
       return { id: inv!.id, email, roles: input.roles as Role[], expiresAt, acceptedAt: null };
     });
@@ -99,18 +103,41 @@ export class Invitations {
   /** What the invitation page shows. Changes nothing. */
   async info(token: string): Promise<InvitationInfo> {
     const inv = await this.load(token);
-    const [u] = await this.orm.select({ id: users.id }).from(users).where(eq(users.email, inv.email));
-    return { teamId: inv.teamId, teamName: inv.teamName, email: inv.email, roles: inv.roles as Role[], invitedByName: inv.invitedByName, expiresAt: inv.expiresAt, accountExists: !!u };
+    // Whether the address has an account is not said: the page offers signing in and registering alike.
+    return { teamId: inv.teamId, teamName: inv.teamName, email: inv.email, roles: inv.roles as Role[], invitedByName: inv.invitedByName, expiresAt: inv.expiresAt };
   }
 
   /**
    * Accepts once. `userId`: the signed-in user (their address must be the invited one);
    * otherwise `register` creates the account for the invited address. Returns the member's user id.
    */
-  async accept(token: string, who: { userId: string; email: string } | { register: { displayName: string; password: string } }): Promise<{ userId: string; teamId: string }> {
-    const inv = await this.load(token);
+  async accept(
+    token: string,
+    who: { userId: string; email: string; emailVerified: boolean } | { register: { displayName: string; password: string } },
+  ): Promise<{ userId: string; teamId: string }> {
+    return this.acceptLoaded(await this.load(token), who);
+  }
+
+  /** The demo seed's invented people accept their invitations (their addresses are the seed's own). */
+  async acceptForSeed(invitationId: string, user: { userId: string; email: string }): Promise<void> {
+    const [inv] = await this.orm
+      .select({ id: teamInvitations.id, teamId: teamInvitations.teamId, email: teamInvitations.email, roles: teamInvitations.roles })
+      .from(teamInvitations)
+      .where(eq(teamInvitations.id, invitationId));
+    if (!inv) throw invalid();
+    await this.acceptLoaded(inv, { ...user, emailVerified: true });
+  }
+
+  private async acceptLoaded(
+    inv: { id: string; teamId: string; email: string; roles: string[] },
+    who: { userId: string; email: string; emailVerified: boolean } | { register: { displayName: string; password: string } },
+  ): Promise<{ userId: string; teamId: string }> {
     if ('userId' in who && normaliseEmail(who.email) !== inv.email) {
       throw new HttpError(403, 'wrong_email', 'This invitation is for another e-mail address; sign in with the invited address');
+    }
+    // Membership binds to a confirmed address: an account registered with someone else's address cannot take their place.
+    if ('userId' in who && !who.emailVerified) {
+      throw new HttpError(403, 'email_unverified', 'Confirm your e-mail address first (the link is in the mail we sent when you registered; your account page sends a new one), then accept');
     }
     const passwordHash = 'register' in who ? await this.accounts.hashPassword(who.register.password) : null;
     return this.orm.transaction(async (tx) => {
@@ -128,7 +155,7 @@ export class Invitations {
           .values({ email: inv.email, displayName: who.register.displayName, passwordHash: passwordHash!, emailVerifiedAt: sql`now()` })
           .onConflictDoNothing({ target: users.email })
           .returning({ id: users.id });
-        if (!rows[0]) throw new HttpError(409, 'email_taken', 'An account with this address exists: sign in with it, then accept the invitation');
+        if (!rows[0]) throw new HttpError(409, 'email_taken', 'This address already has an account: sign in with it (or reset its password), then accept the invitation');
         userId = rows[0].id;
       }
       const added = await tx.insert(memberships).values({ teamId: inv.teamId, userId, roles: inv.roles }).onConflictDoNothing().returning();

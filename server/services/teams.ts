@@ -2,9 +2,9 @@
 import { and, asc, eq } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { configurationApprovals, configurations, memberships, teams, users } from '../db/schema.js';
+import { revokeTokens } from './api-tokens.js';
 import { HttpError, notFound } from '../http/errors.js';
 import { permissionsOf, type Role } from '../permissions.js';
-import { normaliseEmail } from './accounts.js';
 import { recordActivity } from './activity.js';
 
 export interface TeamSummary {
@@ -78,21 +78,6 @@ export class Teams {
     return rows.map((r) => ({ ...r, roles: r.roles as Role[] }));
   }
 
-  async addMember(teamId: string, emailRaw: string, roles: Role[], actorId: string | null = null): Promise<Member> {
-    const [u] = await this.orm
-      .select({ id: users.id, email: users.email, displayName: users.displayName })
-      .from(users)
-      .where(eq(users.email, normaliseEmail(emailRaw)));
-    if (!u) throw new HttpError(404, 'user_not_found', 'No Rollwise account uses that e-mail address; ask them to register first');
-    const inserted = await this.orm.transaction(async (tx) => {
-      const rows = await tx.insert(memberships).values({ teamId, userId: u.id, roles }).onConflictDoNothing().returning();
-      if (rows.length) await recordActivity(tx, { teamId, actorId, action: 'member.add', subjectType: 'member', subjectId: u.id, summary: `Added ${u.displayName} as ${roles.join(', ')}` });
-      return rows;
-    });
-    if (!inserted.length) throw new HttpError(409, 'already_member', `${u.displayName} is already a member of this team`);
-    return { userId: u.id, email: u.email, displayName: u.displayName, roles };
-  }
-
   /** Changes roles (roles given) or removes the member (roles null), never leaving the team without an owner. */
   async changeMember(teamId: string, userId: string, roles: Role[] | null, actorId: string | null = null): Promise<Member | null> {
     return this.orm.transaction(async (tx) => {
@@ -111,6 +96,8 @@ export class Teams {
       const who = u?.displayName ?? 'a member';
       if (roles === null) {
         await tx.delete(memberships).where(where);
+        // Their API tokens for this team end for good: being invited back does not revive them.
+        await revokeTokens(tx, { userId, teamId });
         const summary = actorId === userId ? `${who} left the team` : `Removed ${who}`;
         await recordActivity(tx, { teamId, actorId, action: 'member.remove', subjectType: 'member', subjectId: userId, summary });
         return null;

@@ -12,7 +12,8 @@
  * refuses a database that already holds tables unless --clean is given.
  * When run as root the PostgreSQL tools run as the `postgres` OS user (as in
  * server/tools/pg.ts); the files are streamed through this process, so that
- * user needs no access to them. A password in the URL is passed in
+ * user needs no access to them, and they start in `/`, a folder that user
+ * can always enter. A password in the URL is passed in
  * PGPASSWORD, not on a command line other users could read.
  */
 import { spawn } from 'node:child_process';
@@ -54,7 +55,10 @@ function runTool(tool: string, args: string[], databaseUrl: string, io: ToolRun 
   const argv = isRoot ? ['-u', 'postgres', '--', bin, ...args] : args;
   const env = { ...process.env, ...(password !== undefined ? { PGPASSWORD: password } : {}) };
   return new Promise((resolve, reject) => {
-    const child = spawn(file, argv, { env, stdio: [io.stdin ? 'pipe' : 'ignore', 'pipe', 'pipe'] });
+    // The tools start in `/`: as the postgres user they cannot enter our working directory when it
+    // is private (a clone inside a mode-700 folder), and would print a warning before their real message.
+    // Every path they get is absolute or streamed through this process.
+    const child = spawn(file, argv, { cwd: '/', env, stdio: [io.stdin ? 'pipe' : 'ignore', 'pipe', 'pipe'] });
     let stderr = '';
     let stdout = '';
     child.stderr!.on('data', (d: Buffer) => (stderr += d.toString()));

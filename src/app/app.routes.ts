@@ -53,6 +53,13 @@ export const routes: Routes = [
     loadComponent: () => import('./invitations/invitation-page').then((m) => m.InvitationPage),
   },
   {
+    // One's own mail, on development servers only (the API route is absent in production).
+    path: 'dev-mail',
+    title: 'Development mail · Rollwise',
+    canActivate: [signedInGuard],
+    loadComponent: () => import('./dev-mail/dev-mail-page').then((m) => m.DevMailPage),
+  },
+  {
     path: 'account',
     title: 'Account · Rollwise',
     canActivate: [signedInGuard],
@@ -119,13 +126,6 @@ export const routes: Routes = [
         path: 'activity/axle-designs/:designId',
         title: 'Axle design activity · Rollwise',
         loadComponent: () => import('./activity/activity-page').then((m) => m.ActivityPage),
-      },
-      {
-        // Development servers only (the API route is absent in production).
-        path: 'dev-mail',
-        title: 'Development mail · Rollwise',
-        canActivate: [permissionGuard('members:manage')],
-        loadComponent: () => import('./dev-mail/dev-mail-page').then((m) => m.DevMailPage),
       },
       {
         // Vehicle, axle-design, balance, compare and report screens.

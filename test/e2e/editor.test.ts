@@ -187,9 +187,10 @@ describe('Axle design editor in Chromium', () => {
     await page.locator('rw-hardpoint-import .rw-overlay').first().waitFor();
     await saveScreenshot(page, 'editor-import-cad-preview');
     await page.getByRole('button', { name: 'Apply import' }).click();
-    // The first import's "Imported 1 point(s)." is still on the page: wait for the table to change instead.
+    // The first import's "Imported 1 point(s)." is still on the page: wait for the table to show the new value
+    // (a condition, not a counted number of 50 ms polls that a loaded machine could run out of).
     const innerZ = page.getByLabel(TIE_ROD_INNER_Z);
-    for (let i = 0; i < 100 && Number(await innerZ.inputValue()) === z + 4.5; i++) await page.waitForTimeout(50);
+    await page.waitForFunction((v) => Math.abs(Number((document.getElementById('hp-points-tieRodInner-z') as HTMLInputElement).value) - v) < 1e-6, z + 2);
     await page.getByText('Imported 1 point(s).', { exact: false }).waitFor();
     expect(Number(await innerZ.inputValue())).toBeCloseTo(z + 2, 6);
     expect(Number(await page.getByLabel('Tie rod, inner end (rack), y in mm').inputValue())).toBeCloseTo(y, 6);

@@ -5,7 +5,8 @@
  * understeer budget and requests changes; the designer revises it (the rear
  * design with the toe link raised) and submits again; the reviewer approves
  * and releases it, and sees the approval snapshot beside its recompute; the
- * team owner finds the review mails on the development mail page. Every page
+ * reviewer and the designer each find their review mails in their own
+ * development mailbox, and the team owner finds none of them. Every page
  * ends without console errors or requests leaving 127.0.0.1, and passes the
  * harness's accessibility check. Needs `npx ng build` first.
  */
@@ -54,7 +55,7 @@ function clean(page: Page): void {
 describe('Configuration review in Chromium', () => {
   const env = useE2eApp();
 
-  it('designer submits, reviewer comments on the budget and requests changes, designer revises, reviewer approves and releases, mail is captured', async () => {
+  it('designer submits, reviewer comments on the budget and requests changes, designer revises, reviewer approves and releases, each reads their own mail', async () => {
     // The designer makes the configuration from the team dashboard and submits it.
     const designer = await env.browser.newPage();
     await signIn(designer, env.app.baseUrl, 'designer@tallowmere.example');
@@ -159,20 +160,32 @@ describe('Configuration review in Chromium', () => {
     await saveScreenshot(reviewer, 'review-3-reviewer-released');
     clean(reviewer);
 
-    // The team owner finds the review mails on the development mail page.
-    const owner = await env.browser.newPage();
-    await signIn(owner, env.app.baseUrl, 'owner@tallowmere.example');
-    await owner.goto(`${env.app.baseUrl}/teams/${teamId}/dev-mail`);
-    await owner.getByRole('heading', { name: /Development mail/ }).waitFor();
-    const asked = await waitForMail(owner, `Review requested: ${NAME} (revision 1)`, 'reviewer@tallowmere.example');
+    // Each reader finds their own review mail in their own development mailbox, reached from the account menu.
+    const openOwnMail = async (page: Page, who: string) => {
+      await page.getByRole('button', { name: new RegExp(`^Signed in as ${who}`) }).click();
+      await page.getByRole('menuitem', { name: 'Dev mail' }).click();
+      await page.waitForURL((url) => url.pathname === '/dev-mail');
+      await page.getByRole('heading', { name: 'Your development mail' }).waitFor();
+    };
+    await openOwnMail(reviewer, 'Ravi Osei');
+    const asked = await waitForMail(reviewer, `Review requested: ${NAME} (revision 1)`, 'reviewer@tallowmere.example');
     expect(await asked.innerText()).toContain('Please look at the rear');
-    await waitForMail(owner, `${NAME} (revision 1): changes requested`, 'designer@tallowmere.example');
-    await waitForMail(owner, `Review requested: ${NAME} (revision 2)`, 'reviewer@tallowmere.example');
-    const approved = await waitForMail(owner, `${NAME} (revision 2): approved`, 'designer@tallowmere.example');
+    await waitForMail(reviewer, `Review requested: ${NAME} (revision 2)`, 'reviewer@tallowmere.example');
+    await openOwnMail(designer, 'Dana Quist');
+    await waitForMail(designer, `${NAME} (revision 1): changes requested`, 'designer@tallowmere.example');
+    const approved = await waitForMail(designer, `${NAME} (revision 2): approved`, 'designer@tallowmere.example');
     // The mailed link opens the configuration page on this server.
     expect(await approved.getByRole('link').first().getAttribute('href')).toBe(env.app.baseUrl + configurationPath);
-    expect(await seriousA11yViolations(owner)).toEqual([]);
-    await saveScreenshot(owner, 'review-4-owner-dev-mail');
-    clean(owner);
+    // Nobody reads another's mail: the designer's mailbox holds none of the reviewer's, and the owner's none of either.
+    expect(await designer.locator('li.mail').filter({ hasText: 'Review requested' }).count()).toBe(0);
+    expect(await seriousA11yViolations(designer)).toEqual([]);
+    await saveScreenshot(designer, 'review-4-designer-dev-mail');
+    const owner = await env.browser.newPage();
+    await signIn(owner, env.app.baseUrl, 'owner@tallowmere.example');
+    await owner.goto(`${env.app.baseUrl}/dev-mail`);
+    await owner.getByRole('heading', { name: 'Your development mail' }).waitFor();
+    await owner.locator('li.mail').or(owner.getByText('No mail captured yet.')).first().waitFor();
+    expect(await owner.locator('li.mail').filter({ hasText: NAME }).count()).toBe(0);
+    for (const page of [reviewer, designer, owner]) clean(page);
   });
 });

@@ -20,7 +20,7 @@ import request from 'supertest';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import { sweepCorner } from '../../shared/kinematics/sweep.js';
 import { COMPUTE_KINDS } from '../../server/compute/tasks.js';
-import { agent, listRoutes, registerUser, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { addMember, agent, listRoutes, registerUser, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 const WHO = [
   'anonymous',
@@ -97,6 +97,7 @@ function irisOnly(ok: Cell, others: Cell = 404): Record<Who, Cell> {
 let t: TestApp;
 const agents = {} as Record<Exclude<Who, 'tokenRead' | 'tokenWrite'>, Agent>;
 const tokens = { tokenRead: '', tokenWrite: '' };
+let spareAgent: Agent;
 const ids = {
   team: '',
   otherTeam: '',
@@ -188,8 +189,7 @@ beforeAll(async () => {
   ids.decideProgramme = (await ok(agents.instructorAccepted.post('/api/programmes').send({ name: 'Decide programme', trackProfile: 'smooth-circuit' }), 201)).body.id;
   await ok(agents.instructorAccepted.post(`/api/programmes/${ids.decideProgramme}/teams`).send({ teamSlug: 'tallowmere' }), 201);
 
-  tokens.tokenRead = (await ok(agents.engineer.post('/api/auth/tokens').send({ name: 'access read', teamId: ids.team, scope: 'read' }), 201)).body.token;
-  tokens.tokenWrite = (await ok(agents.engineer.post('/api/auth/tokens').send({ name: 'access write', teamId: ids.team, scope: 'write' }), 201)).body.token;
+  await mintTokens();
   ids.job = (await ok(agents.engineer.post('/api/compute/solve-jobs').send(PROBE), 202)).body.jobId;
 
   // A rig measurement of the front baseline (its own predicted toe and camber, as a rig would give them).
@@ -208,12 +208,19 @@ beforeAll(async () => {
   ).body.id;
 
   const spare = await registerUser(t.app, 'Spare Member');
+  spareAgent = spare.agent;
   ids.spareUser = spare.id;
   ids.spareEmail = spare.email;
 });
 afterAll(async () => {
   await t?.close();
 });
+
+/** The engineer's read and write tokens (again after the engineer left the team, which ends them). */
+async function mintTokens(): Promise<void> {
+  tokens.tokenRead = (await ok(agents.engineer.post('/api/auth/tokens').send({ name: 'access read', teamId: ids.team, scope: 'read' }), 201)).body.token;
+  tokens.tokenWrite = (await ok(agents.engineer.post('/api/auth/tokens').send({ name: 'access write', teamId: ids.team, scope: 'write' }), 201)).body.token;
+}
 
 async function newProposal(): Promise<{ id: string }> {
   const base = (await ok(agents.owner.get(design()), 200)).body.revision;
@@ -255,8 +262,8 @@ const ROWS: Row[] = [
   {
     route: 'POST /api/auth/verify-email/resend',
     path: () => '/api/auth/verify-email/resend',
-    // Nobody here has confirmed an address yet (the demo seed does not), so each gets a new link.
-    expect: signedIn(202, SESSION_REQUIRED),
+    // The demo seed's people have confirmed addresses (409); Pim, registered here, has not and gets a new link.
+    expect: { ...signedIn('409 already_verified', SESSION_REQUIRED), instructorPending: 202 },
   },
 
   // Invitation links: public, the signed link is the credential; a script accepts nothing.
@@ -272,7 +279,7 @@ const ROWS: Row[] = [
   // The owner gets past authorisation; the team holds an approval, so it is kept.
   { route: 'DELETE /api/teams/:teamId', path: team, expect: teamRoute(['owner'], '409 has_approvals', { method: 'DELETE' }) },
   { route: 'GET /api/teams/:teamId/members', path: () => `${team()}/members`, expect: teamRead() },
-  { route: 'POST /api/teams/:teamId/members', path: () => `${team()}/members`, body: PROBE, expect: teamRoute(['owner'], 400, { method: 'POST' }) },
+  // No POST …/members: people join only by accepting an invitation (docs/permissions.md).
   { route: 'PATCH /api/teams/:teamId/members/:userId', path: () => `${team()}/members/${ids.spareUser}`, body: PROBE, expect: teamRoute(['owner'], 400, { method: 'PATCH' }) },
   {
     route: 'DELETE /api/teams/:teamId/membership',
@@ -281,21 +288,26 @@ const ROWS: Row[] = [
     expect: { ...teamRoute(ALL_ROLES, 204, { method: 'DELETE', teamRead: true }), owner: '409 last_owner' },
     afterEach: async (who, status) => {
       const role = ROLE_OF[who];
-      if (status === 204 && role) await ok(agents.owner.post(`${team()}/members`).send({ email: EMAIL[role], roles: [role] }), 201);
+      if (status !== 204 || !role) return;
+      // Back in through an invitation, the only way in.
+      await addMember(t, agents.owner, ids.team, { agent: agents[role], email: EMAIL[role] }, [role]);
+      // Leaving ended the engineer's tokens for good: the rows that follow get a new pair.
+      if (role === 'engineer') await mintTokens();
     },
   },
   {
     route: 'DELETE /api/teams/:teamId/members/:userId',
     path: () => `${team()}/members/${ids.spareUser}`,
     beforeEach: async () => {
-      const r = await agents.owner.post(`${team()}/members`).send({ email: ids.spareEmail, roles: ['viewer'] });
-      expect([201, 409]).toContain(r.status);
+      const members = (await ok(agents.owner.get(`${team()}/members`), 200)).body as { userId: string }[];
+      if (!members.some((m) => m.userId === ids.spareUser)) await addMember(t, agents.owner, ids.team, { agent: spareAgent, email: ids.spareEmail }, ['viewer']);
     },
     expect: teamRoute(['owner'], 204, { method: 'DELETE' }),
   },
   { route: 'GET /api/teams/:teamId/invitations', path: () => `${team()}/invitations`, expect: teamRoute(['owner'], 200, { method: 'GET' }) },
   { route: 'POST /api/teams/:teamId/invitations', path: () => `${team()}/invitations`, body: PROBE, expect: teamRoute(['owner'], 400, { method: 'POST' }) },
-  { route: 'GET /api/teams/:teamId/dev/mail', path: () => `${team()}/dev/mail`, expect: teamRoute(['owner'], 200, { method: 'GET' }) },
+  // Development servers: one's own inbox, for a signed-in person, never through a token (it holds reset links).
+  { route: 'GET /api/dev/mail', path: () => '/api/dev/mail', expect: signedIn(200, SESSION_REQUIRED) },
   { route: 'GET /api/teams/:teamId/activity', path: () => `${team()}/activity`, expect: teamRead() },
   { route: 'GET /api/teams/:teamId/axle-designs/:designId/activity', path: () => `${design()}/activity`, expect: teamRead() },
 
@@ -585,7 +597,7 @@ describe("another team's ids, guessed or swapped in, are not found", () => {
       expect(r.status, JSON.stringify(r.body)).toBe(403);
       expect(r.body.error.code).toBe('session_required');
     }
-    expect((await ok(agent(t.app).get(`/api/invitations/${link}`), 200)).body.accountExists).toBe(false);
+    expect((await ok(agent(t.app).get(`/api/invitations/${link}`), 200)).body).toMatchObject({ email: 'token-invitee@test.example', roles: ['viewer'] });
   });
 
   it('spelling a path in capitals (Express routes ignore case) does not let a token reach account or token management', async () => {

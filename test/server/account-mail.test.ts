@@ -49,7 +49,8 @@ describe('team invitations', () => {
     const anon = agent(t.app);
     for (let i = 0; i < 2; i++) {
       const info = await anon.get(`/api/invitations/${token}`).expect(200);
-      expect(info.body).toMatchObject({ teamName: 'Tallowmere University Racing', email: 'newcomer@test.example', roles: ['designer', 'viewer'], invitedByName: 'Ana Ferreira', accountExists: false });
+      expect(info.body).toMatchObject({ teamName: 'Tallowmere University Racing', email: 'newcomer@test.example', roles: ['designer', 'viewer'], invitedByName: 'Ana Ferreira' });
+      expect(info.body).not.toHaveProperty('accountExists');
     }
     // Opening the link created neither an account nor a membership.
     expect(await t.db.orm.select().from(memberships).where(sql`${memberships.userId} IN (SELECT id FROM users WHERE email = 'newcomer@test.example')`)).toEqual([]);
@@ -72,11 +73,16 @@ describe('team invitations', () => {
     await agent(t.app).get(`/api/invitations/${token}`).expect(200);
   });
 
-  it('an existing account accepts by signing in; not by registering again', async () => {
+  it('an existing account accepts by signing in with its confirmed address; not by registering again', async () => {
     const u = await registerUser(t.app, 'Existing Person');
     const token = await invite(u.email, ['reviewer']);
-    expect((await agent(t.app).get(`/api/invitations/${token}`).expect(200)).body.accountExists).toBe(true);
+    expect((await agent(t.app).get(`/api/invitations/${token}`).expect(200)).body).not.toHaveProperty('accountExists');
     expectError(await agent(t.app).post(`/api/invitations/${token}/accept`).send({ displayName: 'Impostor', password: 'long-enough-pass' }), 409, 'email_taken');
+    // Not with the address unconfirmed: whoever registered it first has not proved it is theirs.
+    expectError(await u.agent.post(`/api/invitations/${token}/accept`).send({}), 403, 'email_unverified');
+    expect((await u.agent.get('/api/auth/me').expect(200)).body.memberships).toEqual([]);
+    const verify = await fake.waitFor((m) => m.to.includes(u.email) && m.subject === 'Confirm your e-mail address for Rollwise');
+    await u.agent.post('/api/auth/verify-email').send({ token: linkToken(verify.text, 'verify-email') }).expect(200);
     const r = await u.agent.post(`/api/invitations/${token}/accept`).send({}).expect(200);
     expect(r.body.me.memberships.find((m: { teamId: string }) => m.teamId === teamId).roles).toEqual(['reviewer']);
     expectError(await owner.post(`/api/teams/${teamId}/invitations`).send({ email: u.email, roles: ['viewer'] }), 409, 'already_member');
@@ -114,8 +120,11 @@ describe('team invitations', () => {
     const eng = await signIn(t.app, 'engineer@tallowmere.example');
     expectError(await eng.post(`/api/teams/${teamId}/invitations`).send({ email: 'x@test.example', roles: ['viewer'] }), 403, 'forbidden');
     expectError(await eng.get(`/api/teams/${teamId}/invitations`), 403, 'forbidden');
+    // Its own invitation, accepted here (not one of another test: each test stands alone).
+    const token = await invite('listed@test.example', ['viewer']);
+    await agent(t.app).post(`/api/invitations/${token}/accept`).send({ displayName: 'Listed Person', password: 'long-enough-pass' }).expect(200);
     const list = await owner.get(`/api/teams/${teamId}/invitations`).expect(200);
-    expect(list.body.find((i: { email: string }) => i.email === 'newcomer@test.example').acceptedAt).not.toBeNull();
+    expect(list.body.find((i: { email: string }) => i.email === 'listed@test.example').acceptedAt).not.toBeNull();
   });
 });
 

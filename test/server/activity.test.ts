@@ -4,7 +4,7 @@ import Papa from 'papaparse';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import { exampleVehicles } from '../../shared/balance/examples.js';
 import { toCsv } from '../../server/services/activity.js';
-import { agent, expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { addMember, agent, expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let owner: Agent, engineer: Agent, designer: Agent, viewer: Agent;
@@ -66,7 +66,7 @@ describe('activity log', () => {
     // Someone whose display name is a formula joins and leaves: their name is the actor cell.
     const sneaky = agent(t.app);
     await sneaky.post('/api/auth/register').send({ email: 'sneaky@test.example', password: 'long-enough-pass', displayName: '=2+5' }).expect(201);
-    await owner.post(`/api/teams/${teamId}/members`).send({ email: 'sneaky@test.example', roles: ['viewer'] }).expect(201);
+    await addMember(t, owner, teamId, { agent: sneaky, email: 'sneaky@test.example' }, ['viewer']);
     await sneaky.delete(`/api/teams/${teamId}/membership`).expect(204);
     const r = await viewer.get(`/api/teams/${teamId}/activity`).query({ format: 'csv', timeZone: 'Asia/Tokyo' }).expect(200);
     expect(r.headers['content-type']).toMatch(/^text\/csv/);

@@ -6,7 +6,7 @@ import { eq } from 'drizzle-orm';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import { exampleVehicles } from '../../shared/balance/examples.js';
 import { apiTokens } from '../../server/db/schema.js';
-import { expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { addMember, agent, DEMO_PASSWORD, expectError, mailedLink, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let engineer: Agent;
@@ -108,6 +108,75 @@ describe('API tokens', () => {
     const bo = await signIn(t.app, 'owner@brackenfield.example');
     const kitId = (await kit.get('/api/auth/me').expect(200)).body.user.id;
     await bo.delete(`/api/teams/${brackenfield}/members/${kitId}`).expect(204);
-    expectError(await script(tok.token).get(`/api/teams/${brackenfield}/vehicles`), 404, 'not_found');
+    // Removal revokes the token (it was 404 for a non-member before; now the token itself is dead).
+    expectError(await script(tok.token).get(`/api/teams/${brackenfield}/vehicles`), 401, 'invalid_token');
+  });
+
+  it('removed from the team, the token stays dead when its owner is invited back', async () => {
+    const kit = await signIn(t.app, 'reviewer@brackenfield.example');
+    const bo = await signIn(t.app, 'owner@brackenfield.example');
+    const kitId = (await kit.get('/api/auth/me').expect(200)).body.user.id;
+    // Kit may have been removed by the test above: bring them back first.
+    if (!(await kit.get('/api/auth/me').expect(200)).body.memberships.some((m: { teamId: string }) => m.teamId === brackenfield)) {
+      await addMember(t, bo, brackenfield, { agent: kit, email: 'reviewer@brackenfield.example' }, ['reviewer']);
+    }
+    const tok = await token(kit, brackenfield, 'read');
+    await script(tok.token).get(`/api/teams/${brackenfield}/vehicles`).expect(200);
+    await bo.delete(`/api/teams/${brackenfield}/members/${kitId}`).expect(204);
+    // Not even for what needs no team (the compute API, the own account).
+    expectError(await script(tok.token).get('/api/auth/me'), 401, 'invalid_token');
+    await addMember(t, bo, brackenfield, { agent: kit, email: 'reviewer@brackenfield.example' }, ['reviewer']);
+    await kit.get(`/api/teams/${brackenfield}/vehicles`).expect(200);
+    expectError(await script(tok.token).get(`/api/teams/${brackenfield}/vehicles`), 401, 'invalid_token');
+    expect((await kit.get('/api/auth/tokens').expect(200)).body.find((x: { id: string }) => x.id === tok.id).revokedAt).not.toBeNull();
+  });
+
+  it('leaving the team ends the token too', async () => {
+    const eli = await signIn(t.app, 'engineer@tallowmere.example');
+    const tok = await token(eli, brackenfield, 'read');
+    await script(tok.token).get(`/api/teams/${brackenfield}/vehicles`).expect(200);
+    const other = await token(eli, tallowmere, 'read');
+    await eli.delete(`/api/teams/${brackenfield}/membership`).expect(204);
+    expectError(await script(tok.token).get('/api/auth/me'), 401, 'invalid_token');
+    // The token for the team Eli is still in keeps working.
+    await script(other.token).get(vehicle).expect(200);
+  });
+
+  it('a password change ends every token of the account; so does a password reset', async () => {
+    const u = agent(t.app);
+    const email = `tokens-${Date.now()}@test.example`;
+    await u.post('/api/auth/register').send({ email, password: 'first-password-1', displayName: 'Token Holder' }).expect(201);
+    const team = (await u.post('/api/teams').send({ name: 'Token team', slug: `token-team-${Date.now()}` }).expect(201)).body.id;
+    const a = await token(u, team, 'write');
+    await script(a.token).get(`/api/teams/${team}/vehicles`).expect(200);
+    await u.post('/api/auth/change-password').send({ currentPassword: 'first-password-1', newPassword: 'second-password-2' }).expect(204);
+    expectError(await script(a.token).get(`/api/teams/${team}/vehicles`), 401, 'invalid_token');
+
+    const b = await token(u, team, 'read');
+    await script(b.token).get(`/api/teams/${team}/vehicles`).expect(200);
+    await agent(t.app).post('/api/auth/password-reset').send({ email }).expect(202);
+    await agent(t.app).post('/api/auth/password-reset/confirm').send({ token: await mailedLink(t, email, 'password-reset'), newPassword: 'third-password-3' }).expect(204);
+    expectError(await script(b.token).get(`/api/teams/${team}/vehicles`), 401, 'invalid_token');
+    // A token made after the change works.
+    const again = await signIn(t.app, email, 'third-password-3');
+    const c = await token(again, team, 'read');
+    await script(c.token).get(`/api/teams/${team}/vehicles`).expect(200);
+  });
+
+  it("an instructor's token is held to its scope: a token for the own team does not read a programme team", async () => {
+    const iris = await signIn(t.app, 'instructor@programme.example', DEMO_PASSWORD);
+    const sandbox = (await iris.post('/api/teams').send({ name: 'Iris sandbox', slug: `iris-sandbox-${Date.now()}` }).expect(201)).body.id;
+    const programme = (await iris.post('/api/programmes').send({ name: 'Token scope programme', trackProfile: 'smooth-circuit' }).expect(201)).body.id;
+    await iris.post(`/api/programmes/${programme}/teams`).send({ teamSlug: 'tallowmere' }).expect(201);
+    const ana = await signIn(t.app, 'owner@tallowmere.example');
+    await ana.post(`/api/teams/${tallowmere}/programmes/${programme}/accept`).send({}).expect(200);
+    // Signed in, Iris reads Tallowmere through the programme.
+    await iris.get(`/api/teams/${tallowmere}/members`).expect(200);
+    for (const scope of ['read', 'write'] as const) {
+      const tok = await token(iris, sandbox, scope);
+      await script(tok.token).get(`/api/teams/${sandbox}/vehicles`).expect(200);
+      expectError(await script(tok.token).get(`/api/teams/${tallowmere}/members`), 403, 'token_scope');
+      expectError(await script(tok.token).get(`/api/teams/${tallowmere}/activity`), 403, 'token_scope');
+    }
   });
 });

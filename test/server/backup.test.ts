@@ -6,9 +6,10 @@
  * database without --clean, and a failed dump leaves no file behind.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { chmodSync, existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import pg from 'pg';
 import { startThrowawayCluster, createDatabase, type Cluster } from '../../server/tools/pg.js';
@@ -104,6 +105,27 @@ describe('backup and restore', () => {
     const empty = createDatabase(cluster!.port, 'empty_target');
     await expect(restoreDatabase(empty, junk)).rejects.toThrow(/pg_restore failed/);
     expect((await snapshot(empty)).size).toBe(0);
+  });
+
+  it('run from a folder the postgres user cannot enter (a fresh clone in a mode-700 folder), its messages stay clean', () => {
+    // The tools run as the postgres OS user when we are root; they must not start in our working directory.
+    const closed = mkdtempSync(join(tmpdir(), 'rollwise-closed-'));
+    chmodSync(closed, 0o700);
+    try {
+      const tsx = pathToFileURL(join(ROOT, 'node_modules', 'tsx', 'dist', 'loader.mjs')).href;
+      const file = join(dir, 'closed.dump');
+      const run = (...args: string[]) =>
+        spawnSync(process.execPath, ['--import', tsx, join(ROOT, 'server', 'tools', 'backup.ts'), ...args], { cwd: closed, encoding: 'utf8', timeout: 120_000 });
+      const ok = run('dump', file, `--database-url=${t.databaseUrl}`);
+      expect(ok.status, ok.stderr).toBe(0);
+      expect(ok.stderr).toBe('');
+      const bad = run('dump', file, `--database-url=postgres://postgres@127.0.0.1:${cluster!.port}/no_such_database`);
+      expect(bad.status).toBe(1);
+      expect(bad.stderr).toMatch(/^backup: pg_dump failed \(exit 1\): .*no_such_database/);
+      expect(bad.stderr).not.toMatch(/could not change directory|Permission denied/);
+    } finally {
+      rmSync(closed, { recursive: true, force: true });
+    }
   });
 
   it('usage errors exit 2 with the usage text', () => {

@@ -17,7 +17,7 @@ import pg from 'pg';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import { exampleVehicles } from '../../shared/balance/examples.js';
 import { freshDatabaseUrl } from '../support/db.js';
-import { DEMO_PASSWORD, expectError, registerUser, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { addMember, DEMO_PASSWORD, expectError, registerUser, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let dana: Agent; // designer
@@ -37,7 +37,7 @@ beforeAll(async () => {
   );
   teamId = (await owner.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
   const s = await registerUser(t.app, 'Sam Second');
-  await owner.post(`/api/teams/${teamId}/members`).send({ email: s.email, roles: ['engineer', 'designer'] }).expect(201);
+  await addMember(t, owner, teamId, s, ['engineer', 'designer']);
   sam = s.agent;
   vehicleId = (await owner.get(`/api/teams/${teamId}/vehicles`).expect(200)).body.find((v: { name: string }) => v.name === 'TUR-26 Ember').id;
   const designs = (await owner.get(`/api/teams/${teamId}/vehicles/${vehicleId}/axle-designs`).expect(200)).body as { id: string; name: string }[];

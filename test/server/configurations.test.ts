@@ -195,6 +195,43 @@ describe('configurations', () => {
     }
   });
 
+  it('the four-eyes rule covers every revision of the current review round, not only the latest', async () => {
+    // Ravi, given the designer role for a moment, writes revision 1; Dana renames it (revision 2) and submits.
+    await owner.patch(`${team()}/members/${reviewerId}`).send({ roles: ['reviewer', 'designer'] }).expect(200);
+    let id = '';
+    try {
+      id = await newConfiguration(reviewer, 'Ravi wrote the first', rearPlus6Id); // a rear design Ravi never edited
+    } finally {
+      await owner.patch(`${team()}/members/${reviewerId}`).send({ roles: ['reviewer'] }).expect(200);
+    }
+    const c = (await designer.get(`${team()}/configurations/${id}`).expect(200)).body;
+    await designer
+      .put(`${team()}/configurations/${id}`)
+      .send({ name: 'Renamed by Dana', vehicleId, frontDesignId: frontId, rearDesignId: rearPlus6Id, trackProfile: 'smooth-circuit', baseRevision: c.revision })
+      .expect(200);
+    await act(designer, id, 'submit').expect(200);
+    expectError(await act(reviewer, id, 'approve'), 403, 'own_revision');
+    expectError(await act(reviewer, id, 'request-changes', { message: 'mine' }), 403, 'own_revision');
+    // Vera, made a reviewer, wrote nothing of it and decides: changes requested ends the round.
+    const vera = (await owner.get(`${team()}/members`).expect(200)).body.find((m: { email: string }) => m.email === 'viewer@tallowmere.example').userId;
+    await owner.patch(`${team()}/members/${vera}`).send({ roles: ['viewer', 'reviewer'] }).expect(200);
+    try {
+      const rc = await act(viewer, id, "request-changes", { message: "round one done" });
+      expect(rc.status, JSON.stringify(rc.body)).toBe(200);
+      // Round two: only Dana's new revision is in it, so Ravi may now decide.
+      const now = (await designer.get(`${team()}/configurations/${id}`).expect(200)).body;
+      await designer
+        .put(`${team()}/configurations/${id}`)
+        .send({ name: 'Renamed again', vehicleId, frontDesignId: frontId, rearDesignId: rearPlus6Id, trackProfile: 'smooth-circuit', baseRevision: now.revision })
+        .expect(200);
+      await act(designer, id, 'submit').expect(200);
+      const ok = await act(reviewer, id, 'approve');
+      expect(ok.status, JSON.stringify(ok.body)).toBe(200);
+    } finally {
+      await owner.patch(`${team()}/members/${vera}`).send({ roles: ['viewer'] }).expect(200);
+    }
+  });
+
   it('the approval snapshot stays as approved after later edits; a recompute difference is shown beside it', async () => {
     const designNow = (await designer.get(`${team()}/axle-designs/${rearPlus6Id}`).expect(200)).body;
     const id = await newConfiguration(designer, 'Frozen', rearPlus6Id);

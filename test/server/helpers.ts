@@ -65,6 +65,39 @@ export async function registerUser(app: RollwiseApp, name = 'Test User'): Promis
   return { agent: a, email, id: r.body.user.id as string };
 }
 
+/** The token of the newest link of `kind` mailed to `email` (read from the outbox: the mail as the app wrote it). */
+export async function mailedLink(t: TestApp, email: string, kind: 'invitation' | 'verify-email' | 'password-reset'): Promise<string> {
+  const r = await t.db.pool.query<{ text_body: string }>(
+    'SELECT text_body FROM mail_outbox WHERE kind = $1 AND to_address = $2 ORDER BY created_at DESC LIMIT 1',
+    [kind, email.toLowerCase()],
+  );
+  const path = { invitation: 'invitations', 'verify-email': 'verify-email', 'password-reset': 'reset-password' }[kind];
+  const m = new RegExp(`/${path}/([A-Za-z0-9._~-]+)`).exec(r.rows[0]?.text_body ?? '');
+  if (!m) throw new Error(`no ${kind} mail to ${email}`);
+  return m[1]!;
+}
+
+/** Confirms the signed-in person's address with the link mailed at registration (a no-op when it is confirmed). */
+export async function verifyAddress(t: TestApp, who: Agent, email: string): Promise<void> {
+  const me = await who.get('/api/auth/me');
+  expect(me.status, JSON.stringify(me.body)).toBe(200);
+  if (me.body.user.emailVerified) return;
+  const r = await who.post('/api/auth/verify-email').send({ token: await mailedLink(t, email, 'verify-email') });
+  expect(r.status, JSON.stringify(r.body)).toBe(200);
+}
+
+/**
+ * Adds a person to a team the only way there is: the owner invites the address, and the
+ * person, signed in with that address (confirmed first), accepts the mailed link.
+ */
+export async function addMember(t: TestApp, owner: Agent, teamId: string, member: { agent: Agent; email: string }, roles: string[]): Promise<void> {
+  const inv = await owner.post(`/api/teams/${teamId}/invitations`).send({ email: member.email, roles });
+  expect(inv.status, JSON.stringify(inv.body)).toBe(201);
+  await verifyAddress(t, member.agent, member.email);
+  const r = await member.agent.post(`/api/invitations/${await mailedLink(t, member.email, 'invitation')}/accept`).send({});
+  expect(r.status, JSON.stringify(r.body)).toBe(200);
+}
+
 /** The `{ error: { code, message } }` shape, with the given status and code. */
 export function expectError(r: request.Response, status: number, code: string): void {
   expect(r.status, JSON.stringify(r.body)).toBe(status);

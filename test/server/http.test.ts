@@ -1,5 +1,5 @@
 /** The HTTP door: CSRF, body handling, error shape, rate limiting, sessions across restarts, static app. */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import request from 'supertest';
 import { mkdtempSync, writeFileSync, mkdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -140,20 +140,25 @@ describe('sessions', () => {
   });
 
   it('end after the absolute timeout even when active', async () => {
-    const short = createApp(testConfig(t.databaseUrl, { sessionAbsoluteMs: 400 }), t.db);
+    // The clock is moved by hand (only Date is faked; timers and I/O run as usual), so a loaded machine
+    // cannot stretch a real wait past the limit too early: the test once slept 250 ms twice under a 400 ms limit.
+    const short = createApp(testConfig(t.databaseUrl, { sessionAbsoluteMs: 60_000 }), t.db);
+    const later = (ms: number) => vi.setSystemTime(new Date(Date.now() + ms));
+    vi.useFakeTimers({ toFake: ['Date'] });
     try {
       const a = await signIn(short, 'viewer@tallowmere.example');
       await a.get('/api/auth/me').expect(200);
-      await new Promise((r) => setTimeout(r, 250));
+      later(40_000);
       await a.get('/api/auth/me').expect(200);
-      await new Promise((r) => setTimeout(r, 250));
+      later(40_000);
       expectError(await a.get('/api/auth/me'), 401, 'unauthenticated');
       // Signing in straight over an expired session works.
       const b = await signIn(short, 'viewer@tallowmere.example');
-      await new Promise((r) => setTimeout(r, 450));
+      later(70_000);
       await b.post('/api/auth/sign-in').send({ email: 'viewer@tallowmere.example', password: 'demo-pass-2026' }).expect(200);
       await b.get('/api/auth/me').expect(200);
     } finally {
+      vi.useRealTimers();
       await short.close();
     }
   });

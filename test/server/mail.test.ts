@@ -2,9 +2,10 @@
  * Mail through the outbox: the fake SMTP server receives review mail; with
  * the server stopped the action still succeeds and the mail goes out when it
  * returns; enqueueing is idempotent and two workers never send a row twice;
- * the development mail API shows a team owner the captured mail.
+ * the development mailbox shows each person only the mail addressed to them.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
 import { eq, sql } from 'drizzle-orm';
 import { capturedMail, mailOutbox } from '../../server/db/schema.js';
 import { enqueueMail, MailWorker } from '../../server/mail/outbox.js';
@@ -101,12 +102,16 @@ describe('mail', () => {
   });
 
   it('enqueueing is idempotent and two workers claiming together send each mail once', async () => {
+    // Stop the app's own worker before anything is enqueued, so only the two workers below can claim these rows
+    // (stopped after the first enqueue, it sometimes sent the once-only mail itself: a race, not a double send).
+    await t.app.mail!.stop();
+    // Mail of earlier tests the app's worker had not sent yet is the two workers' to send as well; made due now,
+    // so the count below does not depend on where a retry's back-off stands.
+    const earlier = (await t.db.orm.update(mailOutbox).set({ nextAttemptAt: sql`now()` }).where(eq(mailOutbox.status, 'pending')).returning()).length;
     await enqueueMail(t.db.orm, { kind: 'test', to: 'a@test.example', subject: 'Once only', text: 'x', dedupeKey: 'once-only' });
     await enqueueMail(t.db.orm, { kind: 'test', to: 'a@test.example', subject: 'Once only', text: 'x', dedupeKey: 'once-only' });
     expect(await t.db.orm.select().from(mailOutbox).where(eq(mailOutbox.dedupeKey, 'once-only'))).toHaveLength(1);
 
-    // Stop the app's own worker so only the two below claim rows.
-    await t.app.mail!.stop();
     await enqueueMail(
       t.db.orm,
       Array.from({ length: 12 }, (_, i) => ({ kind: 'test', to: `batch${i}@test.example`, subject: `Batch ${i}`, text: `mail ${i}` })),
@@ -118,28 +123,92 @@ describe('mail', () => {
     for (let i = 0; i < 6; i++) sent += (await Promise.all([w1.runOnce(), w2.runOnce()])).reduce((a, b) => a + b, 0);
     await w1.stop();
     await w2.stop();
-    expect(sent).toBe(13); // the 12 and the once-only mail
+    expect(sent).toBe(earlier + 13); // the 12 and the once-only mail (and any left over), each once
+    expect(fake.messages.filter((m) => m.subject === 'Once only')).toHaveLength(1);
     for (let i = 0; i < 12; i++) expect(fake.messages.filter((m) => m.subject === `Batch ${i}`), `Batch ${i}`).toHaveLength(1);
     const pending = await t.db.orm.select().from(mailOutbox).where(eq(mailOutbox.status, 'pending'));
     expect(pending).toEqual([]);
   });
 
-  it('the development mail API shows the team owner the captured mail, and nobody else', async () => {
-    const r = await owner.get(`/api/teams/${teamId}/dev/mail`).expect(200);
-    const subjects = (r.body as { subject: string }[]).map((m) => m.subject);
-    expect(subjects.some((s) => s.startsWith('Review requested: Mail walk'))).toBe(true);
-    expect(subjects).not.toContain('Batch 1'); // not to this team's members, not caused by this team
-    expectError(await engineer.get(`/api/teams/${teamId}/dev/mail`), 403, 'forbidden');
+  /** Sends everything due, through a worker of our own (the app's was stopped above); resolves once it is stored. */
+  async function deliverAll(): Promise<void> {
+    const w = new MailWorker(t.db.orm, { smtpUrl: fake.url, from: 'Rollwise <no-reply@rollwise.invalid>', pollMs: 1000, maxAttempts: 3, backoffBaseMs: 10 });
+    try {
+      while ((await w.runOnce()) > 0);
+    } finally {
+      await w.stop();
+    }
+  }
+
+  it('the development mailbox shows each person only the mail addressed to them', async () => {
+    const subjects = async (a: Agent) => ((await a.get('/api/dev/mail').expect(200)).body as { subject: string; to: string[] }[]).map((m) => m.subject);
+    // Ravi was asked to review "Mail walk"; Dana was told the decision. Ana, their owner, sees neither.
+    expect((await subjects(reviewer)).some((x) => x.startsWith('Review requested: Mail walk'))).toBe(true);
+    expect((await subjects(designer)).some((x) => x.startsWith('Mail walk (revision 1): changes requested'))).toBe(true);
+    expect((await subjects(owner)).some((x) => x.includes('Mail walk'))).toBe(false);
+    expect(await subjects(reviewer)).not.toContain('Batch 1');
     const kit = await signIn(t.app, 'owner@brackenfield.example');
-    expectError(await kit.get(`/api/teams/${teamId}/dev/mail`), 404, 'not_found');
+    expect((await subjects(kit)).some((x) => x.includes('Mail walk'))).toBe(false);
+    // Every row is addressed to the reader.
+    for (const m of (await reviewer.get('/api/dev/mail').expect(200)).body as { to: string[] }[]) expect(m.to).toEqual(['reviewer@tallowmere.example']);
+  });
+
+  it("the account takeover through the development mailbox is closed: a victim's reset link reaches only the victim", async () => {
+    // The attack of issue 12: register, make a team, invite the victim, ask a reset for the victim, read the team's mail.
+    const attacker = agent(t.app);
+    await attacker.post('/api/auth/register').send({ email: 'mallory@test.example', password: 'long-enough-pass', displayName: 'Mallory' }).expect(201);
+    const team = (await attacker.post('/api/teams').send({ name: 'Bait', slug: 'bait-team' }).expect(201)).body.id;
+    await attacker.post(`/api/teams/${team}/invitations`).send({ email: 'viewer@tallowmere.example', roles: ['owner'] }).expect(201);
+    await attacker.post('/api/auth/password-reset').send({ email: 'viewer@tallowmere.example' }).expect(202);
+    await deliverAll();
+    expect(fake.messages.filter((m) => m.to.includes('viewer@tallowmere.example') && /\/(reset-password|invitations)\//.test(m.text))).toHaveLength(2);
+    const seen = JSON.stringify((await attacker.get('/api/dev/mail').expect(200)).body);
+    expect(seen).not.toContain('/reset-password/');
+    expect(seen).not.toContain('/invitations/');
+    expect(seen).not.toContain('viewer@tallowmere.example');
+    // The old team mailbox is gone.
+    expectError(await attacker.get(`/api/teams/${team}/dev/mail`), 404, 'not_found');
+    // The victim, and only the victim, finds both links.
+    const vera = await signIn(t.app, 'viewer@tallowmere.example');
+    const hers = JSON.stringify((await vera.get('/api/dev/mail').expect(200)).body);
+    expect(hers).toContain('/reset-password/');
+    expect(hers).toContain('/invitations/');
+  });
+
+  it("an account registered with someone's address sees only its own confirmation mail until the address is confirmed", async () => {
+    const victim = 'squatted@test.example';
+    // Mail already on its way to the address (an invitation) before anyone registers it.
+    await owner.post(`/api/teams/${teamId}/invitations`).send({ email: victim, roles: ['engineer'] }).expect(201);
+    await deliverAll();
+    const squatter = agent(t.app);
+    await squatter.post('/api/auth/register').send({ email: victim, password: 'long-enough-pass', displayName: 'Squatter' }).expect(201);
+    await squatter.post('/api/auth/password-reset').send({ email: victim }).expect(202);
+    await deliverAll();
+    expect(fake.messages.filter((m) => m.to.includes(victim)).map((m) => m.text.match(/\/(verify-email|reset-password|invitations)\//)?.[1]).sort()).toEqual([
+      'invitations',
+      'reset-password',
+      'verify-email',
+    ]);
+    const rows = (await squatter.get('/api/dev/mail').expect(200)).body as { text: string }[];
+    expect(rows.length).toBeGreaterThan(0);
+    for (const m of rows) {
+      expect(m.text).toContain('/verify-email/');
+      expect(m.text).not.toMatch(/\/reset-password\/|\/invitations\//);
+    }
+  });
+
+  it('an API token cannot read the development mailbox', async () => {
+    const tok = (await reviewer.post('/api/auth/tokens').send({ name: 'mail reader', teamId, scope: 'read' }).expect(201)).body.token;
+    const r = await request(t.app).get('/api/dev/mail').set('Authorization', `Bearer ${tok}`);
+    expectError(r, 403, 'session_required');
   });
 
   it('a production server has no development mail API', async () => {
     // Anonymous callers see the difference without a session: 401 where the route exists, 404 "no route" where it does not.
-    expectError(await agent(t.app).get(`/api/teams/${teamId}/dev/mail`), 401, 'unauthenticated');
+    expectError(await agent(t.app).get('/api/dev/mail'), 401, 'unauthenticated');
     const prod = await startTestApp({ databaseUrl: t.databaseUrl, config: { production: true, sessionSecret: 'x'.repeat(40) } });
     try {
-      const r = await agent(prod.app).get(`/api/teams/${teamId}/dev/mail`);
+      const r = await agent(prod.app).get('/api/dev/mail');
       expectError(r, 404, 'not_found');
       expect(r.body.error.message).toContain('No API route');
     } finally {

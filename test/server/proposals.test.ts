@@ -1,7 +1,7 @@
 /** Proposals: applying a solution never overwrites; a designer accepts it as a new revision. */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
-import { expectError, registerUser, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { addMember, expectError, registerUser, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let engineer: Agent;
@@ -90,7 +90,7 @@ describe('proposals', () => {
     const owner = await signIn(t.app, 'owner@tallowmere.example');
     const second = await registerUser(t.app, 'Second Engineer');
     const teamPath = base.split('/axle-designs/')[0]!;
-    await owner.post(`${teamPath}/members`).send({ email: second.email, roles: ['engineer'] }).expect(201);
+    await addMember(t, owner, teamPath.split('/').pop()!, second, ['engineer']);
     const p = await engineer.post(`${base}/proposals`).send({ corner: raised(5), baseRevision: cur }).expect(201);
     expectError(await second.agent.delete(`${base}/proposals/${p.body.id}`), 403, 'forbidden');
     await engineer.delete(`${base}/proposals/${p.body.id}`).expect(200);

@@ -1,6 +1,6 @@
 /** Teams and members: creation, switching, adding by e-mail, roles, last-owner protection. */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { expectError, registerUser, signIn, startTestApp, type TestApp } from './helpers.js';
+import { addMember, expectError, mailedLink, registerUser, signIn, startTestApp, type TestApp } from './helpers.js';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -54,24 +54,46 @@ describe('members', () => {
     return { owner, teamId: team.id as string };
   }
 
-  it('adds an existing user by e-mail with a set of roles, then lists them', async () => {
+  it('there is no direct adding: a person joins by accepting an invitation, with the set of roles it names', async () => {
     const { owner, teamId } = await ownTeam();
     const other = await registerUser(t.app, 'Zed Second');
-    const r = await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: other.email.toUpperCase(), roles: ['viewer', 'engineer', 'engineer'] });
-    expect(r.status).toBe(201);
-    expect(r.body).toMatchObject({ userId: other.id, roles: ['engineer', 'viewer'] });
+    // The old direct route is gone (404 "no API route"); nothing was added.
+    const direct = await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: other.email, roles: ['viewer'] });
+    expectError(direct, 404, 'not_found');
+    const inv = await owner.agent.post(`/api/teams/${teamId}/invitations`).send({ email: other.email.toUpperCase(), roles: ['viewer', 'engineer', 'engineer'] });
+    expect(inv.status, JSON.stringify(inv.body)).toBe(201);
+    // Invited, not a member, no roles, until they accept.
+    expect((await owner.agent.get(`/api/teams/${teamId}/members`).expect(200)).body).toHaveLength(1);
+    expect((await other.agent.get('/api/auth/me').expect(200)).body.memberships).toEqual([]);
+    expectError(await other.agent.get(`/api/teams/${teamId}`), 404, 'not_found');
+    await addMember(t, owner.agent, teamId, other, ['viewer', 'engineer']);
     const list = await owner.agent.get(`/api/teams/${teamId}/members`).expect(200);
     expect(list.body).toHaveLength(2);
+    expect(list.body.find((m: { userId: string }) => m.userId === other.id).roles).toEqual(['engineer', 'viewer']);
     const me = await other.agent.get('/api/auth/me').expect(200);
     expect(me.body.memberships.map((m: { teamId: string }) => m.teamId)).toEqual([teamId]);
   });
 
-  it('unknown e-mail → 404 user_not_found; already member → 409; bad role → 400', async () => {
+  it('inviting a known and an unknown address answers alike; a member again → 409 naming nobody; bad role → 400', async () => {
     const { owner, teamId } = await ownTeam();
-    expectError(await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: 'ghost@nowhere.example', roles: ['viewer'] }), 404, 'user_not_found');
-    expectError(await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: owner.email, roles: ['viewer'] }), 409, 'already_member');
-    expectError(await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: owner.email, roles: ['admin'] }), 400, 'invalid_input');
-    expectError(await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: owner.email, roles: [] }), 400, 'invalid_input');
+    const known = await registerUser(t.app, 'Known Person');
+    const a = await owner.agent.post(`/api/teams/${teamId}/invitations`).send({ email: known.email, roles: ['viewer'] });
+    const b = await owner.agent.post(`/api/teams/${teamId}/invitations`).send({ email: 'ghost@nowhere.example', roles: ['viewer'] });
+    expect([a.status, b.status]).toEqual([201, 201]);
+    const shape = (r: typeof a) => Object.keys(r.body).sort();
+    expect(shape(a)).toEqual(shape(b));
+    expect(shape(a)).toEqual(['acceptedAt', 'email', 'expiresAt', 'id', 'roles']);
+    expect(JSON.stringify(a.body)).not.toContain('Known Person');
+    // The invitation page reads alike too: no word on whether an account exists.
+    const info = (await owner.agent.get(`/api/invitations/${await mailedLink(t, known.email, 'invitation')}`).expect(200)).body;
+    const ghost = (await owner.agent.get(`/api/invitations/${await mailedLink(t, 'ghost@nowhere.example', 'invitation')}`).expect(200)).body;
+    expect(Object.keys(info).sort()).toEqual(Object.keys(ghost).sort());
+    expect(info).not.toHaveProperty('accountExists');
+    const again = await owner.agent.post(`/api/teams/${teamId}/invitations`).send({ email: owner.email, roles: ['viewer'] });
+    expectError(again, 409, 'already_member');
+    expect(again.body.error.message).not.toContain('Owner');
+    expectError(await owner.agent.post(`/api/teams/${teamId}/invitations`).send({ email: known.email, roles: ['admin'] }), 400, 'invalid_input');
+    expectError(await owner.agent.post(`/api/teams/${teamId}/invitations`).send({ email: known.email, roles: [] }), 400, 'invalid_input');
   });
 
   it('never leaves a team without an owner', async () => {
@@ -79,7 +101,7 @@ describe('members', () => {
     expectError(await owner.agent.patch(`/api/teams/${teamId}/members/${owner.id}`).send({ roles: ['engineer'] }), 409, 'last_owner');
     expectError(await owner.agent.delete(`/api/teams/${teamId}/members/${owner.id}`), 409, 'last_owner');
     const other = await registerUser(t.app);
-    await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: other.email, roles: ['owner'] }).expect(201);
+    await addMember(t, owner.agent, teamId, other, ['owner']);
     // With a second owner the first may step down.
     const r = await owner.agent.patch(`/api/teams/${teamId}/members/${owner.id}`).send({ roles: ['engineer'] });
     expect(r.status).toBe(200);
@@ -92,7 +114,7 @@ describe('members', () => {
   it('concurrent demotions of the two owners cannot both succeed', async () => {
     const { owner, teamId } = await ownTeam();
     const other = await registerUser(t.app);
-    await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: other.email, roles: ['owner'] }).expect(201);
+    await addMember(t, owner.agent, teamId, other, ['owner']);
     const [a, b] = await Promise.all([
       owner.agent.patch(`/api/teams/${teamId}/members/${owner.id}`).send({ roles: ['viewer'] }),
       other.agent.patch(`/api/teams/${teamId}/members/${other.id}`).send({ roles: ['viewer'] }),
@@ -103,7 +125,7 @@ describe('members', () => {
   it('any member may leave; the last owner may not', async () => {
     const { owner, teamId } = await ownTeam();
     const other = await registerUser(t.app);
-    await owner.agent.post(`/api/teams/${teamId}/members`).send({ email: other.email, roles: ['viewer'] }).expect(201);
+    await addMember(t, owner.agent, teamId, other, ['viewer']);
     await other.agent.delete(`/api/teams/${teamId}/membership`).expect(204);
     expectError(await other.agent.get(`/api/teams/${teamId}`), 404, 'not_found');
     expectError(await owner.agent.delete(`/api/teams/${teamId}/membership`), 409, 'last_owner');

@@ -54,6 +54,17 @@ export interface TeamMember {
   readonly roles: readonly Role[];
 }
 
+/** `POST /api/teams/:teamId/invitations` answer and `GET …/invitations` rows (the list adds who invited, and when). */
+export interface TeamInvitation {
+  readonly id: string;
+  readonly email: string;
+  readonly roles: readonly Role[];
+  readonly expiresAt: string;
+  readonly acceptedAt: string | null;
+  readonly invitedByName?: string | null;
+  readonly createdAt?: string;
+}
+
 /** `GET /api/teams/:teamId/vehicles` rows. */
 export interface VehicleSummary {
   readonly id: string;

@@ -5,7 +5,7 @@ import { SHOW_ERRORS_INLINE } from '../core/http/api-error';
 
 const INLINE = { context: new HttpContext().set(SHOW_ERRORS_INLINE, true) };
 
-/** `GET /api/teams/:teamId/dev/mail` rows: what the local fake SMTP server captured. */
+/** `GET /api/dev/mail` rows: what the local fake SMTP server captured for the signed-in person. */
 export interface CapturedMail {
   readonly id: string;
   readonly messageId: string;
@@ -16,13 +16,11 @@ export interface CapturedMail {
   readonly receivedAt: string;
 }
 
-function devMailPath(teamId: string): string {
-  return `/api/teams/${encodeURIComponent(teamId)}/dev/mail`;
-}
+const DEV_MAIL_PATH = '/api/dev/mail';
 
 /**
- * Development mail (owners only). The route exists only on a development
- * server; `available` learns that once per page load from one HEAD request
+ * The signed-in person's own development mailbox (mail addressed to them,
+ * nobody else's). The route exists only on a development server; `available` learns that once per page load from one HEAD request
  * (404 on a production server), so the navigation shows the page only where
  * it works.
  */
@@ -36,22 +34,22 @@ export class DevMailApi {
   readonly available = this.availability.asReadonly();
 
   /** Newest first, at most 200. The page shows the errors itself. */
-  list(teamId: string): Observable<CapturedMail[]> {
-    return this.http.get<CapturedMail[]>(devMailPath(teamId), INLINE);
+  list(): Observable<CapturedMail[]> {
+    return this.http.get<CapturedMail[]>(DEV_MAIL_PATH, INLINE);
   }
 
-  /** Asks once (through a team the caller owns) whether this server has the route. */
-  probe(teamId: string): void {
+  /** Asks once (signed in) whether this server has the route. */
+  probe(): void {
     if (this.availability() !== null || this.probing) return;
     this.probing = true;
-    this.http.head(devMailPath(teamId), { ...INLINE, observe: 'response' }).subscribe({
+    this.http.head(DEV_MAIL_PATH, { ...INLINE, observe: 'response' }).subscribe({
       next: () => {
         this.probing = false;
         this.availability.set(true);
       },
       error: (error: unknown) => {
         this.probing = false;
-        // Only "no such route" settles it; anything else (offline, roles changed) asks again later.
+        // Only "no such route" settles it; anything else (offline, signed out) asks again later.
         if (error instanceof HttpErrorResponse && error.status === 404) this.availability.set(false);
       },
     });

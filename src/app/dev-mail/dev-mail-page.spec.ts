@@ -40,14 +40,13 @@ describe('DevMailPage', () => {
 
   async function render() {
     const fixture = TestBed.createComponent(DevMailPage);
-    fixture.componentRef.setInput('teamId', 't-tal');
     await fixture.whenStable();
     return { fixture, root: fixture.nativeElement as HTMLElement };
   }
 
   it('lists the captured mail newest first with time, recipients, subject and body, links clickable', async () => {
     const { fixture, root } = await render();
-    backend.expectOne({ method: 'GET', url: '/api/teams/t-tal/dev/mail' }).flush([RESET, INVITE]);
+    backend.expectOne({ method: 'GET', url: '/api/dev/mail' }).flush([RESET, INVITE]);
     await fixture.whenStable();
     const items = [...root.querySelectorAll('li.mail')];
     expect(items.map((i) => i.querySelector('h2')?.textContent?.trim())).toEqual([
@@ -66,24 +65,24 @@ describe('DevMailPage', () => {
 
   it('says when nothing was captured, and fetches again on Refresh', async () => {
     const { fixture, root } = await render();
-    backend.expectOne('/api/teams/t-tal/dev/mail').flush([]);
+    backend.expectOne('/api/dev/mail').flush([]);
     await fixture.whenStable();
     expect(root.querySelector('[role="status"]')?.textContent?.trim()).toBe('No mail captured yet.');
     [...root.querySelectorAll('button')].find((b) => b.textContent?.includes('Refresh'))!.click();
     await fixture.whenStable();
-    backend.expectOne('/api/teams/t-tal/dev/mail').flush([INVITE]);
+    backend.expectOne('/api/dev/mail').flush([INVITE]);
     await fixture.whenStable();
     expect(root.querySelectorAll('li.mail').length).toBe(1);
   });
 
   it('shows a refusal on the page, not in a snackbar', async () => {
     const { fixture, root } = await render();
-    backend.expectOne('/api/teams/t-tal/dev/mail').flush(
-      { error: { code: 'not_found', message: 'No such route: GET /api/teams/t-tal/dev/mail' } },
+    backend.expectOne('/api/dev/mail').flush(
+      { error: { code: 'not_found', message: 'No such route: GET /api/dev/mail' } },
       { status: 404, statusText: 'Not Found' },
     );
     await fixture.whenStable();
-    expect(root.querySelector('[role="alert"]')?.textContent?.trim()).toBe('No such route: GET /api/teams/t-tal/dev/mail');
+    expect(root.querySelector('[role="alert"]')?.textContent?.trim()).toBe('No such route: GET /api/dev/mail');
     expect(notifier.error).not.toHaveBeenCalled();
   });
 });
@@ -101,27 +100,27 @@ describe('DevMailApi.probe', () => {
   afterEach(() => backend.verify());
 
   it('asks once with HEAD and hides the page on a server without the route (404)', () => {
-    api.probe('t-tal');
-    api.probe('t-tal');
-    const head = backend.expectOne({ method: 'HEAD', url: '/api/teams/t-tal/dev/mail' });
+    api.probe();
+    api.probe();
+    const head = backend.expectOne({ method: 'HEAD', url: '/api/dev/mail' });
     head.flush(null, { status: 404, statusText: 'Not Found' });
     expect(api.available()).toBe(false);
-    api.probe('t-brk');
-    backend.expectNone('/api/teams/t-brk/dev/mail');
+    api.probe();
+    backend.expectNone('/api/dev/mail');
   });
 
   it('shows the page when the route answers', () => {
-    api.probe('t-tal');
-    backend.expectOne({ method: 'HEAD', url: '/api/teams/t-tal/dev/mail' }).flush(null);
+    api.probe();
+    backend.expectOne({ method: 'HEAD', url: '/api/dev/mail' }).flush(null);
     expect(api.available()).toBe(true);
   });
 
   it('does not decide on other failures and asks again later', () => {
-    api.probe('t-tal');
-    backend.expectOne('/api/teams/t-tal/dev/mail').flush(null, { status: 503, statusText: 'Service Unavailable' });
+    api.probe();
+    backend.expectOne('/api/dev/mail').flush(null, { status: 503, statusText: 'Service Unavailable' });
     expect(api.available()).toBeNull();
-    api.probe('t-tal');
-    backend.expectOne('/api/teams/t-tal/dev/mail').flush(null);
+    api.probe();
+    backend.expectOne('/api/dev/mail').flush(null);
     expect(api.available()).toBe(true);
   });
 });

@@ -1,11 +1,11 @@
 import { DatePipe } from '@angular/common';
-import { Component, computed, inject, input } from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { Component, computed, inject } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { BehaviorSubject, combineLatest, switchMap } from 'rxjs';
+import { BehaviorSubject, switchMap } from 'rxjs';
 import { LoadState, toLoadState } from '../core/http/load-state';
-import { TeamAccess } from '../core/teams/team-access';
+import { AuthService } from '../core/auth/auth-service';
 import { CapturedMail, DevMailApi } from './dev-mail-api';
 import { MailSegment, splitMailLinks } from './mail-links';
 
@@ -14,9 +14,10 @@ interface ShownMail extends CapturedMail {
 }
 
 /**
- * `/teams/:teamId/dev-mail` (owners, development servers only): the mail the
- * local fake SMTP server caught for the team's members or because of the
- * team, newest first, with the links in each body clickable.
+ * `/dev-mail` (signed in, development servers only): the signed-in person's
+ * own inbox on the local fake SMTP server, newest first, with the links in
+ * each body clickable. Nobody sees anyone else's mail here, so no reset,
+ * confirmation or invitation link reaches anyone but its addressee.
  */
 @Component({
   selector: 'app-dev-mail-page',
@@ -26,16 +27,11 @@ interface ShownMail extends CapturedMail {
 })
 export class DevMailPage {
   private readonly api = inject(DevMailApi);
-  protected readonly access = inject(TeamAccess);
-
-  /** Route parameter of `teams/:teamId`. */
-  readonly teamId = input.required<string>();
+  protected readonly auth = inject(AuthService);
 
   private readonly reload$ = new BehaviorSubject<void>(undefined);
   protected readonly state = toSignal(
-    combineLatest([toObservable(this.teamId), this.reload$]).pipe(
-      switchMap(([teamId]) => toLoadState(this.api.list(teamId))),
-    ),
+    this.reload$.pipe(switchMap(() => toLoadState(this.api.list()))),
     { initialValue: { status: 'loading' } as LoadState<CapturedMail[]> },
   );
 

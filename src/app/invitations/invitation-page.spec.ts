@@ -16,10 +16,9 @@ const INVITATION: InvitationInfo = {
   roles: ['designer', 'reviewer'],
   invitedByName: 'Ana Ferreira',
   expiresAt: '2026-12-05T09:00:00.000Z',
-  accountExists: false,
 };
 const NOOR: Me = {
-  user: { id: 'u-noor', email: 'noor@tallowmere.example', displayName: 'Noor Pell', displayUnits: 'si' },
+  user: { id: 'u-noor', email: 'noor@tallowmere.example', displayName: 'Noor Pell', displayUnits: 'si', emailVerified: true },
   memberships: [],
 };
 const NOOR_IN_TEAM: Me = {
@@ -144,17 +143,26 @@ describe('InvitationPage', () => {
     expect(notifier.info).toHaveBeenCalledWith('Welcome to Tallowmere University Racing.');
   });
 
-  it('an address that has an account: sign in first, and come back here', async () => {
-    const { root } = await render({ ...INVITATION, accountExists: true });
-    expect(root.querySelector('form')).toBeNull();
+  it('signed out: offers signing in (and coming back here) and creating an account alike, never saying which applies', async () => {
+    const { root } = await render(INVITATION);
+    expect(root.querySelector('form')).not.toBeNull();
     const signIn = [...root.querySelectorAll('a')].find((a) => a.textContent?.includes('Sign in to accept'));
     expect(signIn?.getAttribute('href')).toBe('/sign-in?returnUrl=%2Finvitations%2F' + encodeURIComponent(TOKEN));
+    expect(root.textContent).not.toMatch(/already has a Rollwise account|has no account/);
+  });
+
+  it('signed in with the invited address not yet confirmed: asks to confirm it first and offers no accept', async () => {
+    signInAs({ ...NOOR, user: { ...NOOR.user, emailVerified: false } });
+    const { root } = await render(INVITATION);
+    expect(root.querySelector('[role="status"]')?.textContent).toContain('Confirm your e-mail address first');
+    expect([...root.querySelectorAll('button')].some((b) => b.textContent?.includes('Accept'))).toBe(false);
+    backend.expectNone(`${LINK}/accept`);
   });
 
   it('the invited person signed in accepts with a POST and the app re-reads its memberships', async () => {
     signInAs(NOOR);
     const navigate = vi.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
-    const { click, fixture } = await render({ ...INVITATION, accountExists: true });
+    const { click, fixture } = await render(INVITATION);
     await click('Accept and join Tallowmere University Racing');
     const accept = backend.expectOne(`${LINK}/accept`);
     expect(accept.request.body).toEqual({});
@@ -167,7 +175,7 @@ describe('InvitationPage', () => {
 
   it('signed in as someone else: says so, offers to sign out, and never accepts', async () => {
     signInAs(ELI);
-    const { root, click, fixture } = await render({ ...INVITATION, accountExists: true });
+    const { root, click, fixture } = await render(INVITATION);
     expect(root.querySelector('[role="status"]')?.textContent).toContain(
       'You are signed in as engineer@tallowmere.example, but this invitation is for noor@tallowmere.example',
     );
@@ -175,13 +183,13 @@ describe('InvitationPage', () => {
     await click('Sign out');
     backend.expectOne('/api/auth/sign-out').flush(null, { status: 204, statusText: 'No Content' });
     await fixture.whenStable();
-    expect(root.textContent).toContain('Sign in with it to accept');
+    expect(root.textContent).toContain('Sign in to accept');
     backend.expectNone(`${LINK}/accept`);
   });
 
   it('shows a refusal of the accept inline and lets the person try again', async () => {
     signInAs(NOOR);
-    const { click, fixture, alerts, button } = await render({ ...INVITATION, accountExists: true });
+    const { click, fixture, alerts, button } = await render(INVITATION);
     await click('Accept and join');
     backend.expectOne(`${LINK}/accept`).flush(
       { error: { code: 'already_member', message: 'You are already a member of this team' } },

@@ -25,7 +25,7 @@ type Loaded =
   | { readonly status: 'error'; readonly code: string; readonly message: string };
 
 /** What the visitor can do with the invitation, given who is signed in. */
-export type InvitationMode = 'accept' | 'member' | 'wrong-account' | 'sign-in' | 'register';
+export type InvitationMode = 'accept' | 'member' | 'wrong-account' | 'unverified' | 'signed-out';
 
 const LINK_TITLES: Readonly<Record<string, string>> = {
   invitation_expired: 'This invitation has expired',
@@ -36,8 +36,9 @@ const LINK_TITLES: Readonly<Record<string, string>> = {
 /**
  * `/invitations/:token`, the link of the invitation mail. Shows the team and
  * roles offered; the invited person accepts with a POST: signed in with the
- * invited address, or by creating their account here (the link proves the
- * address). Expired, used and tampered links say so.
+ * invited, confirmed address, or by creating their account here (the link
+ * proves the address). Signed out, it offers both alike and never says
+ * whether the address has an account. Expired, used and tampered links say so.
  */
 @Component({
   selector: 'app-invitation-page',
@@ -92,9 +93,12 @@ export class InvitationPage {
     const invitation = this.invitation();
     if (!invitation) return null;
     const user = this.auth.user();
-    if (!user) return invitation.accountExists ? 'sign-in' : 'register';
+    // Signed out: both ways in are offered, so the page never says whether the address has an account.
+    if (!user) return 'signed-out';
     if (user.email.toLowerCase() !== invitation.email.toLowerCase()) return 'wrong-account';
-    return this.auth.isMemberOf(invitation.teamId) ? 'member' : 'accept';
+    if (this.auth.isMemberOf(invitation.teamId)) return 'member';
+    // Membership binds to a confirmed address.
+    return user.emailVerified ? 'accept' : 'unverified';
   });
 
   protected readonly linkTitle = computed(() => {

@@ -16,8 +16,6 @@ export interface InvitationInfo {
   readonly roles: readonly Role[];
   readonly invitedByName: string | null;
   readonly expiresAt: string;
-  /** An account with the invited address exists: its owner signs in to accept. */
-  readonly accountExists: boolean;
 }
 
 /** `POST /api/invitations/:token/accept`. */
@@ -48,7 +46,8 @@ export class InvitationsApi {
 
   /**
    * Signed in: `{}` (the account's address must be the invited one, else 403
-   * `wrong_email`). Signed out: the new account's name and password.
+   * `wrong_email`, and confirmed, else 403 `email_unverified`). Signed out:
+   * the new account's name and password.
    */
   accept(token: string, registration?: InvitationRegistration): Observable<AcceptedInvitation> {
     return this.http.post<AcceptedInvitation>(`${linkPath(token)}/accept`, registration ?? {}, INLINE);

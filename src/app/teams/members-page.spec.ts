@@ -15,6 +15,12 @@ const MEMBERS: TeamMember[] = [
   { userId: 'u-dana', email: 'designer@tallowmere.example', displayName: 'Dana Quist', roles: ['designer', 'reviewer'] },
 ];
 
+const INVITATIONS = [
+  { id: 'i-1', email: 'noor@tallowmere.example', roles: ['designer'], expiresAt: '2999-01-01T00:00:00.000Z', acceptedAt: null, invitedByName: 'Ana Ferreira' },
+  { id: 'i-2', email: 'late@tallowmere.example', roles: ['viewer'], expiresAt: '2000-01-01T00:00:00.000Z', acceptedAt: null, invitedByName: 'Ana Ferreira' },
+  { id: 'i-3', email: 'eli@tallowmere.example', roles: ['engineer'], expiresAt: '2999-01-01T00:00:00.000Z', acceptedAt: '2026-01-01T00:00:00.000Z', invitedByName: 'Ana Ferreira' },
+];
+
 describe('MembersPage', () => {
   let backend: HttpTestingController;
   let notifier: FakeNotifier;
@@ -38,6 +44,7 @@ describe('MembersPage', () => {
     await fixture.whenStable();
     const root = fixture.nativeElement as HTMLElement;
     backend.expectOne('/api/teams/t-tal/members').flush(MEMBERS);
+    backend.expectOne('/api/teams/t-tal/invitations').flush(INVITATIONS);
     await fixture.whenStable();
     const row = (name: string) =>
       [...root.querySelectorAll<HTMLElement>('tr[mat-row]')].find((tr) => tr.textContent?.includes(name))!;
@@ -61,50 +68,60 @@ describe('MembersPage', () => {
     expect(row('Ana Ferreira').querySelector('[aria-label="Leave the team"]')).not.toBeNull();
   });
 
-  it('adds an existing user by e-mail with the chosen roles', async () => {
+  it('invites by e-mail with the chosen roles: nobody is added until they accept', async () => {
     const { fixture, root } = await render();
     const email = root.querySelector<HTMLInputElement>('input[formcontrolname="email"]')!;
     email.value = ' viewer@tallowmere.example ';
     email.dispatchEvent(new Event('input'));
     root.querySelector<HTMLButtonElement>('.add-form button[type="submit"]')!.click();
     await fixture.whenStable();
-    const add = backend.expectOne({ method: 'POST', url: '/api/teams/t-tal/members' });
-    expect(add.request.body).toEqual({ email: 'viewer@tallowmere.example', roles: ['viewer'] });
-    add.flush({ userId: 'u-vera', email: 'viewer@tallowmere.example', displayName: 'Vera Nyman', roles: ['viewer'] });
+    backend.expectNone({ method: 'POST', url: '/api/teams/t-tal/members' });
+    const invite = backend.expectOne({ method: 'POST', url: '/api/teams/t-tal/invitations' });
+    expect(invite.request.body).toEqual({ email: 'viewer@tallowmere.example', roles: ['viewer'] });
+    invite.flush({ id: 'i-4', email: 'viewer@tallowmere.example', roles: ['viewer'], expiresAt: '2999-01-01T00:00:00.000Z', acceptedAt: null });
     await fixture.whenStable();
-    backend.expectOne('/api/teams/t-tal/members').flush([
-      ...MEMBERS,
-      { userId: 'u-vera', email: 'viewer@tallowmere.example', displayName: 'Vera Nyman', roles: ['viewer'] },
+    expect(notifier.info).toHaveBeenCalledWith('Invitation sent to viewer@tallowmere.example. They join the team when they accept it.');
+    backend.expectOne('/api/teams/t-tal/members').flush(MEMBERS);
+    backend.expectOne('/api/teams/t-tal/invitations').flush([
+      { id: 'i-4', email: 'viewer@tallowmere.example', roles: ['viewer'], expiresAt: '2999-01-01T00:00:00.000Z', acceptedAt: null },
+      ...INVITATIONS,
     ]);
     await fixture.whenStable();
-    expect(root.textContent).toContain('Vera Nyman');
+    expect(root.querySelector('.open-invitations')?.textContent).toContain('viewer@tallowmere.example');
+    expect(root.querySelectorAll('tr[mat-row]').length).toBe(MEMBERS.length);
   });
 
-  it('refuses to send an add request without a valid e-mail', async () => {
+  it('lists the invitations still waiting, marking the expired ones, not the accepted', async () => {
+    const { root } = await render();
+    const items = [...root.querySelectorAll('.open-invitations li')].map((li) => li.textContent?.replace(/\s+/g, ' ').trim());
+    expect(items).toHaveLength(2);
+    expect(items[0]).toContain('noor@tallowmere.example as designer');
+    expect(items[0]).toContain('until');
+    expect(items[1]).toContain('late@tallowmere.example as viewer');
+    expect(items[1]).toContain('expired');
+  });
+
+  it('refuses to send an invitation without a valid e-mail', async () => {
     const { fixture, root } = await render();
     root.querySelector<HTMLButtonElement>('.add-form button[type="submit"]')!.click();
     await fixture.whenStable();
-    expect(root.querySelector('.add-form mat-error')?.textContent?.trim()).toBe(
-      "Enter the member's e-mail address.",
-    );
-    backend.expectNone({ method: 'POST', url: '/api/teams/t-tal/members' });
+    expect(root.querySelector('.add-form mat-error')?.textContent?.trim()).toBe('Enter the e-mail address to invite.');
+    backend.expectNone({ method: 'POST', url: '/api/teams/t-tal/invitations' });
   });
 
-  it('shows an unknown e-mail refusal beside the form', async () => {
+  it('shows a refusal beside the form', async () => {
     const { fixture, root } = await render();
     const email = root.querySelector<HTMLInputElement>('input[formcontrolname="email"]')!;
-    email.value = 'nobody@tallowmere.example';
+    email.value = 'eli@tallowmere.example';
     email.dispatchEvent(new Event('input'));
     root.querySelector<HTMLButtonElement>('.add-form button[type="submit"]')!.click();
     await fixture.whenStable();
-    backend.expectOne({ method: 'POST', url: '/api/teams/t-tal/members' }).flush(
-      { error: { code: 'user_not_found', message: 'No Rollwise account uses this e-mail.' } },
-      { status: 404, statusText: 'Not Found' },
+    backend.expectOne({ method: 'POST', url: '/api/teams/t-tal/invitations' }).flush(
+      { error: { code: 'already_member', message: 'That address belongs to a member of this team already' } },
+      { status: 409, statusText: 'Conflict' },
     );
     await fixture.whenStable();
-    expect(root.querySelector('.add-member [role="alert"]')?.textContent?.trim()).toBe(
-      'No Rollwise account uses this e-mail.',
-    );
+    expect(root.querySelector('.add-member [role="alert"]')?.textContent?.trim()).toBe('That address belongs to a member of this team already');
     expect(notifier.error).not.toHaveBeenCalled();
   });
 
@@ -118,6 +135,7 @@ describe('MembersPage', () => {
     await fixture.whenStable();
     expect(notifier.info).toHaveBeenCalledWith('Roles of Eli Marsh saved.');
     backend.expectOne('/api/teams/t-tal/members').flush(MEMBERS);
+    backend.expectOne('/api/teams/t-tal/invitations').flush(INVITATIONS);
   });
 
   it('keeps at least one role and shows the stored roles again after a refusal', async () => {
@@ -129,6 +147,7 @@ describe('MembersPage', () => {
       'Eli Marsh needs at least one role. To take them off the team, use Remove.',
     );
     backend.expectOne('/api/teams/t-tal/members').flush(MEMBERS);
+    backend.expectOne('/api/teams/t-tal/invitations').flush(INVITATIONS);
     await fixture.whenStable();
     expect(selectedRoles('Eli Marsh')).toEqual(['engineer']);
   });

@@ -1,3 +1,4 @@
+import { DatePipe } from '@angular/common';
 import { Component, computed, inject, input, signal } from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import {
@@ -17,7 +18,7 @@ import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
 import { combineLatest, switchMap } from 'rxjs';
-import { Role, ROLE_DESCRIPTIONS, ROLES, TeamMember } from '../core/api-types';
+import { Role, ROLE_DESCRIPTIONS, ROLES, TeamInvitation, TeamMember } from '../core/api-types';
 import { AuthService } from '../core/auth/auth-service';
 import { apiProblem } from '../core/http/api-error';
 import { LoadState, toLoadState } from '../core/http/load-state';
@@ -31,10 +32,14 @@ function atLeastOneRole(control: AbstractControl): ValidationErrors | null {
   return roles && roles.length > 0 ? null : { noRole: true };
 }
 
-/** `/teams/:teamId/members` (owners): add existing users, change their roles, remove them. */
+/**
+ * `/teams/:teamId/members` (owners): invite people by e-mail (they join when
+ * they accept), see open invitations, change members' roles, remove them.
+ */
 @Component({
   selector: 'app-members-page',
   imports: [
+    DatePipe,
     ReactiveFormsModule,
     MatButtonModule,
     MatChipsModule,
@@ -71,6 +76,13 @@ export class MembersPage {
   });
   protected readonly adding = signal(false);
   protected readonly addFailure = signal<string | null>(null);
+  /** Invitations not accepted yet (expired ones included, marked). */
+  protected readonly invitations = signal<LoadState<TeamInvitation[]>>({ status: 'loading' });
+  protected readonly openInvitations = computed(() => {
+    const state = this.invitations();
+    return state.status === 'ready' ? state.value.filter((i) => i.acceptedAt === null) : [];
+  });
+  protected readonly now = signal(Date.now());
 
   constructor() {
     combineLatest([toObservable(this.teamId), toObservable(this.reloads)])
@@ -79,13 +91,26 @@ export class MembersPage {
         takeUntilDestroyed(),
       )
       .subscribe((state) => this.state.set(state));
+    combineLatest([toObservable(this.teamId), toObservable(this.reloads)])
+      .pipe(
+        switchMap(([teamId]) => toLoadState(this.api.invitations(teamId))),
+        takeUntilDestroyed(),
+      )
+      .subscribe((state) => {
+        this.now.set(Date.now());
+        this.invitations.set(state);
+      });
+  }
+
+  protected expired(invitation: TeamInvitation): boolean {
+    return new Date(invitation.expiresAt).getTime() <= this.now();
   }
 
   protected reload(): void {
     this.reloads.update((n) => n + 1);
   }
 
-  protected addMember(): void {
+  protected invite(): void {
     this.addFailure.set(null);
     if (this.addForm.invalid) {
       this.addForm.markAllAsTouched();
@@ -93,11 +118,11 @@ export class MembersPage {
     }
     const { email, roles } = this.addForm.getRawValue();
     this.adding.set(true);
-    this.api.addMember(this.teamId(), email.trim(), roles).subscribe({
+    this.api.invite(this.teamId(), email.trim(), roles).subscribe({
       next: () => {
         this.adding.set(false);
         this.addForm.reset({ email: '', roles: ['viewer'] });
-        void this.notifier.info(`${email.trim()} added to the team.`);
+        void this.notifier.info(`Invitation sent to ${email.trim()}. They join the team when they accept it.`);
         this.reload();
       },
       error: (error: unknown) => {

@@ -36,15 +36,14 @@ export class TopBar {
     () => this.access.team()?.id === this.team()?.teamId && this.access.can('members:manage'),
   );
   private readonly devMail = inject(DevMailApi);
-  /** Owners on a development server: the page of captured mail. */
+  /** Anyone signed in, on a development server: their own captured mail. */
   protected readonly showDevMail = computed(
-    () => this.canManageMembers() && this.devMail.available() === true,
+    () => this.auth.user() !== null && this.devMail.available() === true,
   );
 
   constructor() {
     effect(() => {
-      const team = this.team();
-      if (team && this.canManageMembers()) this.devMail.probe(team.teamId);
+      if (this.auth.user()) this.devMail.probe();
     });
   }
 

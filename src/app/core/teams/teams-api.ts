@@ -1,7 +1,7 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
-import { Role, TeamDetail, TeamMember, TeamSummary } from '../api-types';
+import { Role, TeamDetail, TeamInvitation, TeamMember, TeamSummary } from '../api-types';
 import { SHOW_ERRORS_INLINE } from '../http/api-error';
 
 /** For requests made from a form that shows the error beside itself. */
@@ -32,8 +32,14 @@ export class TeamsApi {
     return this.http.get<TeamMember[]>(`${teamPath(teamId)}/members`);
   }
 
-  addMember(teamId: string, email: string, roles: readonly Role[]): Observable<TeamMember> {
-    return this.http.post<TeamMember>(`${teamPath(teamId)}/members`, { email, roles }, INLINE);
+  /** Invites an address (the only way into a team); the answer is alike whether or not it has an account. */
+  invite(teamId: string, email: string, roles: readonly Role[]): Observable<TeamInvitation> {
+    return this.http.post<TeamInvitation>(`${teamPath(teamId)}/invitations`, { email, roles }, INLINE);
+  }
+
+  /** The team's invitations, newest first (owners). */
+  invitations(teamId: string): Observable<TeamInvitation[]> {
+    return this.http.get<TeamInvitation[]>(`${teamPath(teamId)}/invitations`);
   }
 
   setRoles(teamId: string, userId: string, roles: readonly Role[]): Observable<TeamMember> {
