@@ -413,8 +413,15 @@ export interface AxleSummary {
   trackMm: number;
   /** Toe-in gradient at design height, deg/m (mean of both sides). */
   bumpSteerDegPerM: number;
+  /** Mechanical trail at the ground, mm (mean of both sides; positive when the steering axis meets the ground ahead of the contact patch). */
+  mechanicalTrailMm: number;
   springMotionRatio?: number;
+  /** Bar lever-end travel per unit wheel travel (mm/mm), tied to the corner's own lever radius. */
   barMotionRatio?: number;
+  /** Bar twist per unit wheel travel, rad/m (mean of both sides): what the bar's roll stiffness needs. */
+  barTwistRadPerM?: number;
+  /** The corner's bar lever radius (bar axis to the drop link's inner end), mm. */
+  barLeverMm?: number;
 }
 
 /** What the balance model takes from an axle's kinematics (design height, given rack). */
@@ -433,9 +440,14 @@ export function axleSummary(corner: Corner, options: { rackMm?: number; rightCor
     rollCentreHeightMm: rc.heightMm,
     trackMm: sides.trackMm,
     bumpSteerDegPerM: (co.l.toeGradientDegPerM + co.r.toeGradientDegPerM) / 2,
+    mechanicalTrailMm: (co.l.mechanicalTrailMm + co.r.mechanicalTrailMm) / 2,
   };
   if (co.l.motionRatio !== undefined && co.r.motionRatio !== undefined) out.springMotionRatio = (co.l.motionRatio + co.r.motionRatio) / 2;
   if (co.l.barMotionRatio !== undefined && co.r.barMotionRatio !== undefined) out.barMotionRatio = (co.l.barMotionRatio + co.r.barMotionRatio) / 2;
+  if (co.l.barTwistRadPerM !== undefined && co.r.barTwistRadPerM !== undefined) {
+    out.barTwistRadPerM = (co.l.barTwistRadPerM + co.r.barTwistRadPerM) / 2;
+    out.barLeverMm = sides.left.model.bar!.leverRadius;
+  }
   return out;
 }
 
