@@ -7,32 +7,16 @@
  */
 import { describe, expect, it } from 'vitest';
 import { ackermannPercent, axleKinematics, rollSweep } from '../../../shared/kinematics/index.js';
-import type { Corner } from '../../../shared/schema/corner.js';
+import type { Corner, DoubleWishboneCorner } from '../../../shared/schema/corner.js';
+import { planarWishbone } from './helpers.js';
 
 const TOE = (0.1 * Math.PI) / 180;
-// Vertical kingpin at x = 0, y = 600 mm (ball joints straight above each other); steering-arm point 100 mm behind it at
-// z = 200, tie rod 300 mm along y to the rack; wheel centre 250 mm up on a 250 mm radius; spin axis turned by 0.1° so
-// that the left wheel points inward at the front (toe-in: δ_L = −0.1°, domain.md).
-const corner: Corner = {
-  formatVersion: 1,
-  name: 'planar four-bar steering, 0.1° toe-in',
-  type: 'double-wishbone',
-  steered: true,
-  wheel: { radius: 250 },
-  points: {
-    wheelCentre: [0, 650, 250],
-    spindle: [-50 * Math.sin(TOE), 650 - 50 * Math.cos(TOE), 250],
-    lowerFront: [100, 300, 120],
-    lowerRear: [-100, 300, 120],
-    lowerOuter: [0, 600, 120],
-    upperFront: [100, 300, 350],
-    upperRear: [-100, 300, 350],
-    upperOuter: [0, 600, 350],
-    tieRodInner: [-100, 300, 200],
-    tieRodOuter: [-100, 600, 200],
-  },
-  steering: { kind: 'rack', rackAxis: [0, 1, 0], rackStroke: [-40, 40] },
-};
+// The planar-equivalent double wishbone (./helpers.ts): vertical kingpin at x = 0, y = 600 mm (ball joints straight
+// above each other); steering-arm point 100 mm behind it at z = 200, tie rod 300 mm along y to the rack; its spin axis
+// turned by 0.1° so that the left wheel points inward at the front (toe-in: δ_L = −0.1°, domain.md).
+const base = planarWishbone({ tieRodInner: [-100, 300, 200] }) as DoubleWishboneCorner;
+const wc = base.points.wheelCentre;
+const corner: Corner = { ...base, name: 'planar four-bar steering, 0.1° toe-in', points: { ...base.points, spindle: [wc[0] - 50 * Math.sin(TOE), wc[1] - 50 * Math.cos(TOE), wc[2]] } };
 const L = 2600;
 
 /**

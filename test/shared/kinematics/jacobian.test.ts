@@ -11,6 +11,7 @@ import { describe, expect, it } from 'vitest';
 import { cornerSchema, type Corner, type Vec3 } from '../../../shared/schema/corner.js';
 import { exampleCorners, solvePose, sweepCorner } from '../../../shared/kinematics/index.js';
 import { conditionNumber, designJacobian } from './jacobian-helpers.js';
+import { planarWishbone } from './helpers.js';
 
 const kappa = (c: Corner) => conditionNumber(designJacobian(c));
 const clone = <T>(c: T): any => structuredClone(c);
@@ -90,24 +91,7 @@ describe('rules that stay: the geometry they refuse is singular', () => {
   it('the tie-rod outer point on the steering axis: singular with a vertical kingpin, and with caster and inclination held only by their second-order coupling', () => {
     // Vertical kingpin (ball joints straight above each other): steering about it leaves the wheel centre's height
     // unchanged, so nothing holds the steer: exactly singular.
-    const planar: Corner = {
-      formatVersion: 1,
-      type: 'double-wishbone',
-      steered: false,
-      wheel: { radius: 250 },
-      points: {
-        wheelCentre: [0, 650, 250],
-        spindle: [0, 600, 250],
-        lowerFront: [100, 300, 120],
-        lowerRear: [-100, 300, 120],
-        lowerOuter: [0, 600, 120],
-        upperFront: [100, 300, 350],
-        upperRear: [-100, 300, 350],
-        upperOuter: [0, 600, 350],
-        tieRodInner: [-100, 300, 200],
-        tieRodOuter: [0, 600, 200],
-      },
-    };
+    const planar = planarWishbone({ tieRodInner: [-100, 300, 200], tieRodOuter: [0, 600, 200] });
     expect(cornerSchema.safeParse(planar).success).toBe(false);
     expect(kappa(planar)).toBeGreaterThan(1e7);
     // The FS front corner: the tie-rod outer point moved to the middle of its ball joints. The steer is then held only
