@@ -202,7 +202,7 @@ function refuseNoValidRange(core: ReturnType<typeof balanceCore>, v: Validity): 
   throw new SolveError(
     'singular_geometry',
     `${axle}: lateral load transfer ${transfer.toFixed(0)} N/g leaves the model no valid lateral acceleration (limit ${limit.toFixed(2)} g); ` +
-      `check ${axle}.rollCentreHeightMm (a roll centre far above the CG, entered or read from the corner) and the roll stiffnesses`,
+      `check ${axle}.rollCentreHeightMm (a roll centre far above the CG, entered or read from the corner; front ${core.roll.rollCentreHeightMm.front.toFixed(0)} mm, rear ${core.roll.rollCentreHeightMm.rear.toFixed(0)} mm) and the roll stiffnesses`,
     { axle, field: `${axle}.rollCentreHeightMm`, loadTransferNPerG: transfer, limitG: limit },
   );
 }
