@@ -160,13 +160,8 @@ export interface Mode {
 export function modesOf(eigs: Complex[]): Mode[] {
   const pairs: Mode[] = [];
   const reals: Mode[] = [];
-  const upper = eigs.filter((e) => e.im > 0);
-  const lower = eigs.filter((e) => e.im < 0);
-  for (const e of upper) {
-    // Its partner is the conjugate; a root without one would mean a non-real matrix.
-    const k = lower.findIndex((c) => Math.abs(c.re - e.re) <= 1e-9 * Math.max(1, Math.abs(e.re)) && Math.abs(c.im + e.im) <= 1e-9 * Math.max(1, e.im));
-    if (k === -1) throw new Error('modesOf: a complex eigenvalue without its conjugate');
-    lower.splice(k, 1);
+  // The roots of a real polynomial: each root with Im λ > 0 stands for itself and its conjugate (Im λ < 0, skipped).
+  for (const e of eigs.filter((x) => x.im > 0)) {
     const w = Math.hypot(e.re, e.im);
     pairs.push({ eigenvalue: e, kind: 'oscillatory', naturalFrequencyHz: w / (2 * Math.PI), dampingRatio: -e.re / w, timeConstantS: null, oscillatory: true });
   }

@@ -207,9 +207,9 @@ export interface SteeringRow {
  * steer, negative anti-Ackermann. Null within 0.5° of straight ahead, where
  * the ratio is ill-conditioned.
  */
-export function ackermannPercent(leftSteerDeg: number, rightSteerDeg: number, steeringAxisTrackMm: number, wheelbaseMm: number): number | null {
+export function ackermannPercent(leftSteerDeg: number, rightSteerDeg: number, steeringAxisTrackMm: number | null, wheelbaseMm: number): number | null {
   const mean = (leftSteerDeg + rightSteerDeg) / 2;
-  if (Math.abs(mean) < 0.5 || !(wheelbaseMm > 0)) return null;
+  if (Math.abs(mean) < 0.5 || !(wheelbaseMm > 0) || steeringAxisTrackMm === null || !Number.isFinite(steeringAxisTrackMm)) return null;
   const left = mean > 0;
   const inner = Math.abs(left ? leftSteerDeg : rightSteerDeg) / RAD;
   const outer = Math.abs(left ? rightSteerDeg : leftSteerDeg) / RAD;
@@ -226,8 +226,8 @@ export interface StraightAhead {
   rackMm: number;
   leftSteerDeg: number;
   rightSteerDeg: number;
-  /** Distance between the left and right steering axes' ground points, mm. */
-  steeringAxisTrackMm: number;
+  /** Distance between the left and right steering axes' ground points, mm (null: an axis parallel to the ground). */
+  steeringAxisTrackMm: number | null;
 }
 
 /** Where the kingpin axis of a solved side meets the ground plane through its contact patch (left frame), mm. */
@@ -256,7 +256,8 @@ export function straightAhead(sides: AxleSides): StraightAhead {
   const gl = steeringAxisGroundPoint(sides.left);
   const gr = steeringAxisGroundPoint(sides.right);
   // The right side is solved in the mirrored frame: its ground point is (x, −y) in the vehicle frame.
-  return { rackMm: rack, leftSteerDeg: p.l.steerDeg, rightSteerDeg: p.r.steerDeg, steeringAxisTrackMm: Math.hypot(gl[0] - gr[0], gl[1] + gr[1]) };
+  const ts = Math.hypot(gl[0] - gr[0], gl[1] + gr[1]);
+  return { rackMm: rack, leftSteerDeg: p.l.steerDeg, rightSteerDeg: p.r.steerDeg, steeringAxisTrackMm: Number.isFinite(ts) ? ts : null };
 }
 
 /** The Ackermann definition in words, for outputs. */
