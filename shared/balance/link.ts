@@ -144,22 +144,25 @@ function linkBar(axle: Vehicle['front'], name: 'front' | 'rear', kin: AxleSummar
     if (offered) notes.push(`${name} bar geometry not used: the bar is entered as a roll rate at the wheels, or the axle's roll stiffness directly`);
     return { value: undefined, source: 'not-applicable' };
   }
-  const { leverLengthMm, linkMotionRatio, twistRadPerM: _own, ...section } = b;
-  const write = (twist: number, keepLever: boolean) => {
-    axle.antiRollBar = keepLever && leverLengthMm !== undefined && linkMotionRatio !== undefined ? { ...section, leverLengthMm, linkMotionRatio, twistRadPerM: twist } : { ...section, twistRadPerM: twist };
+  const { leverLengthMm, linkMotionRatio: _mr, twistRadPerM: _own, ...section } = b;
+  // The evaluated bar carries its section and the twist used; lever figures that were not used are dropped.
+  const write = (twist: number) => {
+    axle.antiRollBar = { ...section, twistRadPerM: twist };
   };
   if (o?.barTwistRadPerM !== undefined) {
-    write(o.barTwistRadPerM, false);
+    write(o.barTwistRadPerM);
     return { value: o.barTwistRadPerM, source: 'override' };
   }
   if (o?.barMotionRatio !== undefined) {
-    if (leverLengthMm === undefined) throw new InputError(`overrides.${name}.barMotionRatio needs ${name}.antiRollBar.leverLengthMm`, [{ path: `${name}.antiRollBar.leverLengthMm`, message: 'needed with the barMotionRatio override' }]);
-    const twist = o.barMotionRatio / (leverLengthMm / 1000);
-    write(twist, true);
-    return { value: twist, source: 'override' };
+    if (leverLengthMm !== undefined) {
+      const twist = o.barMotionRatio / (leverLengthMm / 1000);
+      write(twist);
+      return { value: twist, source: 'override' };
+    }
+    notes.push(`overrides.${name}.barMotionRatio not used: the vehicle's bar gives its twist per wheel travel, not a lever length; override barTwistRadPerM instead`);
   }
   if (kin?.barTwistRadPerM !== undefined) {
-    write(kin.barTwistRadPerM, false);
+    write(kin.barTwistRadPerM);
     notes.push(
       `${name} bar twist ${kin.barTwistRadPerM.toFixed(3)} rad/m from the corner's bar geometry (lever ${kin.barLeverMm!.toFixed(1)} mm); ` +
         `the vehicle's bar section and length are used, its leverLengthMm and linkMotionRatio are not`,
