@@ -25,6 +25,8 @@ export const axleOverridesSchema = z.strictObject({
   rollCentreHeightMm: finite.optional(),
   springMotionRatio: finite.positive().optional(),
   barMotionRatio: finite.positive().optional(),
+  barTwistRadPerM: finite.positive().optional(),
+  mechanicalTrailMm: finite.optional(),
 });
 
 const vehicleDocument = z.preprocess(upgradeVehicleDocument, vehicleSchema);

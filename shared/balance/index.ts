@@ -11,13 +11,16 @@ import { DEG, KPH } from './constants.js';
 import { evaluateRoll, type AxleLoadTransfer, type AxleRollStiffness, type MassProperties } from './roll.js';
 import { gainsAt, sideslipZeroSpeedKph, speedCharacteristic, steerCurve, type GainRow, type SpeedCharacteristic, type SteerCurve } from './steady.js';
 import { stepResponse, transientModels, type StepResponse } from './transient.js';
+import { describeTyreLoadLaw } from './tyre.js';
 import {
   balanceCore,
+  BUDGET_TERMS,
   DEFAULT_BUDGET_LATERAL_G,
   understeerBudget,
   understeerGradientAt,
   understeerSensitivity,
   type AxleCompliance,
+  type BudgetTerm,
   type SensitivityEntry,
   type UndersteerBudget,
   type Validity,
@@ -25,7 +28,8 @@ import {
 
 export { exampleVehicles, type ExampleVehicleName } from './examples.js';
 export { rollSteerUndersteerDegPerG, suspensionRollGradients, understeerSensitivity, budgetFromCompliances, BUDGET_TERMS } from './understeer.js';
-export { evaluateRoll, seriesStiffness, barTorsionalRateNmPerRad, springRollStiffnessNmPerRad, tyreRollStiffnessNmPerRad } from './roll.js';
+export { tyreLoadLaw, tyreStiffnessAt, describeTyreLoadLaw, DEGRESSIVE_PEAK_LOAD_RATIO, type TyreLoadLaw } from './tyre.js';
+export { evaluateRoll, barTwistRadPerM, seriesStiffness, barTorsionalRateNmPerRad, springRollStiffnessNmPerRad, tyreRollStiffnessNmPerRad } from './roll.js';
 export { compareBalance, type BalanceComparison } from './compare.js';
 
 export const DEFAULT_SPEEDS_KPH: readonly number[] = Array.from({ length: 20 }, (_, i) => 10 * (i + 1));
@@ -64,12 +68,24 @@ export interface BalanceResult {
   rollStiffnessNmPerDeg: { front: number; rear: number; frontShare: number; detail: { front: AxleRollStiffness; rear: AxleRollStiffness } };
   suspensionRollDegPerG: { front: number; rear: number };
   lateralLoadTransfer: { frontNPerG: number; rearNPerG: number; frontShare: number; front: AxleLoadTransfer; rear: AxleLoadTransfer };
-  rollMomentBalance: { loadTransferMomentNmPerG: number; appliedMomentNmPerG: number; gravityMomentNmPerG: number; relativeError: number; holds: boolean };
+  /** The roll moments per g, as a breakdown (Σ ΔW_i·t_i = m·h·a_y + m_s·g·h₁·φ holds by construction of the formulas, so it is not a check). */
+  rollMomentBalance: { loadTransferMomentNmPerG: number; appliedMomentNmPerG: number; gravityMomentNmPerG: number };
   rollCentreHeightMm: { front: number; rear: number };
+  /** Terms of K; each taken at the lateral acceleration `budgetTermLateralAccelerationG` gives (only loadTransfer depends on it). */
   understeerBudget: UndersteerBudget;
   budgetLateralAccelerationG: number;
+  /** Lateral acceleration at which each budget term is taken, g: 0 (on-centre) for all but loadTransfer. */
+  budgetTermLateralAccelerationG: Record<BudgetTerm, number>;
+  /** K without the load-transfer term (cornering stiffness at static loads), deg/g: equals the on-centre K. */
   linearUndersteerGradientDegPerG: number;
+  /** On-centre understeer gradient K(a_y → 0), deg/g: the characteristic or critical speed, the gains and the step steer use it. */
+  onCentreUndersteerGradientDegPerG: number;
+  /** Axle compliances at the budget's lateral acceleration. */
   axleCompliance: { front: AxleCompliance; rear: AxleCompliance };
+  /** Axle compliances on-centre (a_y → 0): the gains and the step steer use them. */
+  onCentreAxleCompliance: { front: AxleCompliance; rear: AxleCompliance };
+  /** How each axle's tyre cornering stiffness changes with load (load-transfer term, steer curve). */
+  tyreLoadLaw: { front: string; rear: string };
   understeerGradientByLateralAcceleration: { lateralAccelerationG: number; understeerGradientDegPerG: number }[];
   validity: Validity;
   sensitivity: { fraction: number; entries: SensitivityEntry[] } | null;
@@ -87,11 +103,13 @@ export function evaluateBalance(vehicle: Vehicle, options: BalanceOptions = {}):
   const roll = evaluateRoll(vehicle);
   const core = balanceCore(vehicle, roll);
   const budget = understeerBudget(core, lateralG);
-  const K = budget.understeerBudget.total;
+  // The speed characteristic, gains and step steer are small-signal properties about straight running: on-centre K.
+  const onCentre = understeerBudget(core, 0);
+  const K0 = onCentre.understeerBudget.total;
   const L = core.wheelbaseM;
   const b = L - core.cgToFrontM;
-  const sc = speedCharacteristic(K, L);
-  const gainInputs = { kDegPerG: K, wheelbaseM: L, cgToRearM: b, rearComplianceDegPerG: budget.axleCompliance.rear.total, steeringRatio: vehicle.steeringRatio };
+  const sc = speedCharacteristic(K0, L);
+  const gainInputs = { kDegPerG: K0, wheelbaseM: L, cgToRearM: b, rearComplianceDegPerG: onCentre.axleCompliance.rear.total, steeringRatio: vehicle.steeringRatio };
   const gradientPoints = options.gradientPoints ?? 9;
   refuseNoValidRange(core, budget.validity);
   const kOfAyMaxG = Math.min(1, 0.98 * physicalLimit(budget.validity));
@@ -108,7 +126,7 @@ export function evaluateBalance(vehicle: Vehicle, options: BalanceOptions = {}):
     limitG: physicalLimit(budget.validity),
   });
   const speedMps = (options.speedKph ?? 80) * KPH;
-  const models = transientModels(core, budget.axleCompliance, speedMps);
+  const models = transientModels(core, onCentre.axleCompliance, speedMps);
   const stepOpts = { steerRad: (options.stepSteerDeg ?? 1) * DEG, durationS: options.stepDurationS ?? 3, sampleS: options.stepSampleS ?? 0.002, historyEvery: Math.max(1, Math.round(0.01 / (options.stepSampleS ?? 0.002))) };
   const step2 = stepResponse(models.twoDof, stepOpts);
   const step3 = models.threeDof ? stepResponse(models.threeDof, stepOpts) : null;
@@ -143,14 +161,16 @@ export function evaluateBalance(vehicle: Vehicle, options: BalanceOptions = {}):
       loadTransferMomentNmPerG: mb.loadTransferMomentNm,
       appliedMomentNmPerG: mb.appliedMomentNm,
       gravityMomentNmPerG: mb.gravityMomentNm,
-      relativeError: mb.relativeError,
-      holds: mb.relativeError <= 1e-9,
     },
     rollCentreHeightMm: roll.rollCentreHeightMm,
     understeerBudget: budget.understeerBudget,
     budgetLateralAccelerationG: lateralG,
+    budgetTermLateralAccelerationG: Object.fromEntries(BUDGET_TERMS.map((t) => [t, t === 'loadTransfer' ? lateralG : 0])) as Record<BudgetTerm, number>,
     linearUndersteerGradientDegPerG: budget.linearUndersteerGradientDegPerG,
+    onCentreUndersteerGradientDegPerG: K0,
     axleCompliance: budget.axleCompliance,
+    onCentreAxleCompliance: onCentre.axleCompliance,
+    tyreLoadLaw: { front: describeTyreLoadLaw(core.front.tyreLaw), rear: describeTyreLoadLaw(core.rear.tyreLaw) },
     understeerGradientByLateralAcceleration: kOfAy,
     validity: budget.validity,
     sensitivity: sens ? { fraction: sens.fraction, entries: sens.entries } : null,
@@ -160,7 +180,7 @@ export function evaluateBalance(vehicle: Vehicle, options: BalanceOptions = {}):
     criticalSpeedKph: sc.criticalSpeedKph,
     gains: {
       peakYawRateGainPerS: sc.peakYawRateGainPerS,
-      sideslipZeroSpeedKph: sideslipZeroSpeedKph(b, budget.axleCompliance.rear.total),
+      sideslipZeroSpeedKph: sideslipZeroSpeedKph(b, onCentre.axleCompliance.rear.total),
       unstableAboveKph: sc.criticalSpeedKph,
       rows: (options.speedsKph ?? DEFAULT_SPEEDS_KPH).map((s) => gainsAt(gainInputs, s)),
     },
@@ -182,7 +202,7 @@ function refuseNoValidRange(core: ReturnType<typeof balanceCore>, v: Validity): 
   throw new SolveError(
     'singular_geometry',
     `${axle}: lateral load transfer ${transfer.toFixed(0)} N/g leaves the model no valid lateral acceleration (limit ${limit.toFixed(2)} g); ` +
-      `check ${axle}.rollCentreHeightMm (a roll centre far above the CG, entered or read from the corner) and the roll stiffnesses`,
+      `check ${axle}.rollCentreHeightMm (a roll centre far above the CG, entered or read from the corner; front ${core.roll.rollCentreHeightMm.front.toFixed(0)} mm, rear ${core.roll.rollCentreHeightMm.rear.toFixed(0)} mm) and the roll stiffnesses`,
     { axle, field: `${axle}.rollCentreHeightMm`, loadTransferNPerG: transfer, limitG: limit },
   );
 }

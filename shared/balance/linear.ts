@@ -134,32 +134,42 @@ export function eigenvalues(A: Matrix): Complex[] {
 
 export interface Mode {
   eigenvalue: Complex;
-  /** Undamped natural frequency |λ|, Hz. */
-  naturalFrequencyHz: number;
-  /** Damping ratio −Re λ/|λ| (≥ 1 for a real pair, see `modesOf`). */
-  dampingRatio: number;
+  /** 'oscillatory': a complex-conjugate pair (the root with Im λ > 0 stands for both); 'real': one real root, a first-order mode. */
+  kind: 'oscillatory' | 'real';
+  /** Undamped natural frequency |λ|/2π of a conjugate pair, Hz (null for a real root). */
+  naturalFrequencyHz: number | null;
+  /** Damping ratio −Re λ/|λ| of a conjugate pair (null for a real root). */
+  dampingRatio: number | null;
+  /** Time constant −1/λ of a real root, s (negative: a growing mode; null for a pair). */
+  timeConstantS: number | null;
   oscillatory: boolean;
 }
 
 /**
- * Modes of a set of eigenvalues: each complex pair gives ω_n = |λ|,
- * ζ = −Re λ/|λ|; two real roots of one second-order pair give
- * ω_n = √(λ1·λ2), ζ = −(λ1+λ2)/(2ω_n) (common practice).
+ * Modes of a real matrix's eigenvalues. The roots of a real characteristic
+ * polynomial come as complex-conjugate pairs and real roots: each pair (λ and
+ * its conjugate, matched by conjugacy) is one oscillatory mode with
+ * ω_n = |λ|, ζ = −Re λ/|λ|; each real root is a first-order mode of its own,
+ * reported by its time constant τ = −1/λ. Real roots are never paired with
+ * one another: two of them need not belong to one second-order motion (in
+ * the yaw-roll model one may be the roll's, the other the yaw's), so a
+ * frequency and damping made from them would describe nothing (common
+ * practice). Oscillatory modes first, by frequency; then real roots, slowest
+ * first.
  */
 export function modesOf(eigs: Complex[]): Mode[] {
-  const out: Mode[] = [];
-  const complex = eigs.filter((e) => e.im > 0);
-  for (const e of complex) {
+  const pairs: Mode[] = [];
+  const reals: Mode[] = [];
+  // The roots of a real polynomial: each root with Im λ > 0 stands for itself and its conjugate (Im λ < 0, skipped).
+  for (const e of eigs.filter((x) => x.im > 0)) {
     const w = Math.hypot(e.re, e.im);
-    out.push({ eigenvalue: e, naturalFrequencyHz: w / (2 * Math.PI), dampingRatio: -e.re / w, oscillatory: true });
+    pairs.push({ eigenvalue: e, kind: 'oscillatory', naturalFrequencyHz: w / (2 * Math.PI), dampingRatio: -e.re / w, timeConstantS: null, oscillatory: true });
   }
-  const real = eigs.filter((e) => e.im === 0).sort((a, b) => b.re - a.re);
-  for (let i = 0; i + 1 < real.length; i += 2) {
-    const l1 = real[i]!.re;
-    const l2 = real[i + 1]!.re;
-    const prod = l1 * l2;
-    const w = Math.sqrt(Math.abs(prod));
-    out.push({ eigenvalue: real[i]!, naturalFrequencyHz: w / (2 * Math.PI), dampingRatio: prod > 0 ? -(l1 + l2) / (2 * w) : Number.NaN, oscillatory: false });
+  for (const e of eigs) {
+    if (e.im !== 0) continue;
+    reals.push({ eigenvalue: e, kind: 'real', naturalFrequencyHz: null, dampingRatio: null, timeConstantS: e.re !== 0 ? -1 / e.re : null, oscillatory: false });
   }
-  return out.filter((m) => Number.isFinite(m.dampingRatio)).sort((x, y) => x.naturalFrequencyHz - y.naturalFrequencyHz);
+  pairs.sort((x, y) => x.naturalFrequencyHz! - y.naturalFrequencyHz!);
+  reals.sort((x, y) => Math.abs(x.eigenvalue.re) - Math.abs(y.eigenvalue.re));
+  return [...pairs, ...reals];
 }

@@ -12,7 +12,8 @@ import { axleSummary, rackForAxleSteer, type AxleSummary } from '../kinematics/i
 import type { Corner } from '../schema/corner.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { DEG } from './constants.js';
-import { balanceCore, DEFAULT_BUDGET_LATERAL_G, understeerBudget } from './understeer.js';
+import { barTwistRadPerM } from './roll.js';
+import { balanceCore, DEFAULT_BUDGET_LATERAL_G, steerBeyondKinematicDeg, understeerBudget } from './understeer.js';
 import { linkCompliance, type ComplianceLink } from './compliance-link.js';
 
 /** Entered values that win over both the kinematics and the vehicle's own fields (`axleOverridesSchema` in api.ts). */
@@ -21,7 +22,12 @@ export interface AxleOverrides {
   rollCamberDegPerDeg?: number | undefined;
   rollCentreHeightMm?: number | undefined;
   springMotionRatio?: number | undefined;
+  /** Drop-link travel per wheel travel, applied with the vehicle's own bar lever (leverLengthMm). */
   barMotionRatio?: number | undefined;
+  /** Bar twist per wheel travel, rad/m (wins over barMotionRatio). */
+  barTwistRadPerM?: number | undefined;
+  /** Mechanical trail, mm (aligning-torque compliance steer). */
+  mechanicalTrailMm?: number | undefined;
 }
 
 export type ValueSource = 'override' | 'kinematics' | 'vehicle' | 'not-applicable';
@@ -36,8 +42,23 @@ export interface AxleLink {
   /** Compliance steer and camber: computed from the corner's bushings, or entered in the vehicle (which wins). */
   compliance: ComplianceLink;
   kinematics: AxleSummary | null;
-  used: { rollSteerCoefficient: number; rollCamberDegPerDeg: number; rollCentreHeightMm: number; springMotionRatio: number | null; barMotionRatio: number | null };
-  source: { rollSteerCoefficient: ValueSource; rollCamberDegPerDeg: ValueSource; rollCentreHeightMm: ValueSource; springMotionRatio: ValueSource; barMotionRatio: ValueSource };
+  used: {
+    rollSteerCoefficient: number;
+    rollCamberDegPerDeg: number;
+    rollCentreHeightMm: number;
+    springMotionRatio: number | null;
+    /** Bar twist per unit wheel travel the bar's roll stiffness was computed with, rad/m (null: no bar geometry used). */
+    barTwistRadPerM: number | null;
+    mechanicalTrailMm: number | null;
+  };
+  source: {
+    rollSteerCoefficient: ValueSource;
+    rollCamberDegPerDeg: ValueSource;
+    rollCentreHeightMm: ValueSource;
+    springMotionRatio: ValueSource;
+    barTwistRadPerM: ValueSource;
+    mechanicalTrailMm: ValueSource;
+  };
   notes: string[];
 }
 
@@ -81,14 +102,9 @@ function linkAxle(v: Vehicle, name: 'front' | 'rear', corner: Corner | undefined
     notes.push(`${name}.rollStiffnessNmPerDeg is entered directly, so the spring motion ratio is not used`);
     spring = { value: undefined, source: 'not-applicable' };
   }
-  let bar = { value: undefined as number | undefined, source: 'not-applicable' as ValueSource };
-  const b = axle.antiRollBar;
-  if (b && 'linkMotionRatio' in b && axle.rollStiffnessNmPerDeg === undefined) {
-    bar = pick(o?.barMotionRatio, kin?.barMotionRatio, b.linkMotionRatio);
-    b.linkMotionRatio = bar.value!;
-  } else if (o?.barMotionRatio !== undefined || kin?.barMotionRatio !== undefined) {
-    notes.push(`${name} bar motion ratio not used: the bar is entered as a roll rate at the wheels, or the axle's roll stiffness directly`);
-  }
+  const bar = linkBar(axle, name, kin, o, notes);
+  const trail = pick(o?.mechanicalTrailMm, kin?.mechanicalTrailMm, axle.mechanicalTrailMm);
+  if (trail.value !== undefined) axle.mechanicalTrailMm = trail.value;
   return {
     axle,
     link: {
@@ -97,11 +113,68 @@ function linkAxle(v: Vehicle, name: 'front' | 'rear', corner: Corner | undefined
       axleSteerDeg,
       compliance,
       kinematics: kin,
-      used: { rollSteerCoefficient: axle.rollSteerCoefficient, rollCamberDegPerDeg: axle.rollCamberDegPerDeg, rollCentreHeightMm: axle.rollCentreHeightMm, springMotionRatio: spring.value ?? null, barMotionRatio: bar.value ?? null },
-      source: { rollSteerCoefficient: eps.source, rollCamberDegPerDeg: camber.source, rollCentreHeightMm: rc.source, springMotionRatio: spring.source, barMotionRatio: bar.source },
+      used: {
+        rollSteerCoefficient: axle.rollSteerCoefficient,
+        rollCamberDegPerDeg: axle.rollCamberDegPerDeg,
+        rollCentreHeightMm: axle.rollCentreHeightMm,
+        springMotionRatio: spring.value ?? null,
+        barTwistRadPerM: bar.value ?? null,
+        mechanicalTrailMm: trail.value ?? null,
+      },
+      source: {
+        rollSteerCoefficient: eps.source,
+        rollCamberDegPerDeg: camber.source,
+        rollCentreHeightMm: rc.source,
+        springMotionRatio: spring.source,
+        barTwistRadPerM: bar.source,
+        mechanicalTrailMm: trail.source,
+      },
       notes,
     },
   };
+}
+
+/**
+ * The bar twist per unit wheel travel (rad/m) the axle's bar roll stiffness
+ * uses, written into the copied axle's bar geometry. In order: the override
+ * `barTwistRadPerM`; the override `barMotionRatio` over the vehicle's own
+ * lever; the corner's bar (its lever-end rotation per wheel travel, so its own
+ * lever radius, and the vehicle's `leverLengthMm` and `linkMotionRatio` are
+ * dropped from the evaluated vehicle); the vehicle's own figures.
+ */
+function linkBar(axle: Vehicle['front'], name: 'front' | 'rear', kin: AxleSummary | null, o: AxleOverrides | undefined, notes: string[]): { value: number | undefined; source: ValueSource } {
+  const b = axle.antiRollBar;
+  const offered = o?.barTwistRadPerM !== undefined || o?.barMotionRatio !== undefined || kin?.barTwistRadPerM !== undefined;
+  if (!b || !('outerDiameterMm' in b) || axle.rollStiffnessNmPerDeg !== undefined) {
+    if (offered) notes.push(`${name} bar geometry not used: the bar is entered as a roll rate at the wheels, or the axle's roll stiffness directly`);
+    return { value: undefined, source: 'not-applicable' };
+  }
+  const { leverLengthMm, linkMotionRatio: _mr, twistRadPerM: _own, ...section } = b;
+  // The evaluated bar carries its section and the twist used; lever figures that were not used are dropped.
+  const write = (twist: number) => {
+    axle.antiRollBar = { ...section, twistRadPerM: twist };
+  };
+  if (o?.barTwistRadPerM !== undefined) {
+    write(o.barTwistRadPerM);
+    return { value: o.barTwistRadPerM, source: 'override' };
+  }
+  if (o?.barMotionRatio !== undefined) {
+    if (leverLengthMm !== undefined) {
+      const twist = o.barMotionRatio / (leverLengthMm / 1000);
+      write(twist);
+      return { value: twist, source: 'override' };
+    }
+    notes.push(`overrides.${name}.barMotionRatio not used: the vehicle's bar gives its twist per wheel travel, not a lever length; override barTwistRadPerM instead`);
+  }
+  if (kin?.barTwistRadPerM !== undefined) {
+    write(kin.barTwistRadPerM);
+    notes.push(
+      `${name} bar twist ${kin.barTwistRadPerM.toFixed(3)} rad/m from the corner's bar geometry (lever ${kin.barLeverMm!.toFixed(1)} mm); ` +
+        `the vehicle's bar section and length are used, its leverLengthMm and linkMotionRatio are not`,
+    );
+    return { value: kin.barTwistRadPerM, source: 'kinematics' };
+  }
+  return { value: barTwistRadPerM(b), source: 'vehicle' };
 }
 
 /** The vehicle the balance model evaluates: entered values with the corners' kinematics written in, and where each came from. */
@@ -114,9 +187,11 @@ export interface LinkedVehicle {
 /**
  * Links the corners' kinematics into the vehicle exactly as `computeBalance`
  * does. With a steered front corner and a corner radius, the rack is set to
- * the steer the car needs on that radius, δ = L/R + K·a_y at the budget's
- * lateral acceleration: K depends on the roll steer read there, so this is
- * iterated (a fixed point, three passes at most). Without a radius the
+ * the steer the car needs on that radius at the budget's lateral
+ * acceleration, δ = L/R + the steady axle slips and steer-outs there
+ * (`steerBeyondKinematicDeg`, the secant of the steer curve, not the tangent
+ * K·a_y): they depend on the roll steer read there, so this is iterated (a
+ * fixed point, three passes at most). Without a radius the
  * kinematics are read with the rack straight ahead. Errors name the request
  * field (`frontCorner`, `rearCorner`, `vehicle`, after `prefix`).
  */
@@ -130,13 +205,13 @@ export function linkVehicle(c: BalanceCase, options: { lateralAccelerationG?: nu
   const linkFront = () => blame(`${prefix}frontCorner`, () => linkAxle(v, 'front', c.frontCorner, c.overrides?.front, steerDeg));
   let f = linkFront();
   for (let pass = 0; iterate && pass < 3; pass++) {
-    const k = blame(`${prefix}vehicle`, () => understeerBudget(balanceCore({ ...v, front: f.axle, rear: r.axle }), lateralG).understeerBudget.total);
-    const next = ackermannDeg! + k * lateralG;
+    const beyond = blame(`${prefix}vehicle`, () => steerBeyondKinematicDeg(balanceCore({ ...v, front: f.axle, rear: r.axle }), lateralG));
+    const next = ackermannDeg! + beyond;
     if (Math.abs(next - steerDeg!) < 1e-4) break;
     steerDeg = next;
     f = linkFront();
   }
-  if (iterate) f.link.notes.push(`read at the rack position for ${steerDeg!.toFixed(3)} deg of mean steer: ${radiusM} m radius at ${lateralG} g (L/R + K·a_y)`);
+  if (iterate) f.link.notes.push(`read at the rack position for ${steerDeg!.toFixed(3)} deg of mean steer: ${radiusM} m radius at ${lateralG} g (L/R plus the steady axle slips and steer at that lateral acceleration)`);
   return { vehicle: { ...v, front: f.axle, rear: r.axle }, front: f.link, rear: r.link };
 }
 

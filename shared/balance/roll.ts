@@ -21,14 +21,23 @@ export function springRollStiffnessNmPerRad(rateNPerM: number, motionRatio: numb
 }
 
 /**
+ * Bar twist per unit wheel travel, rad/m: the entered `twistRadPerM` (a
+ * linked corner's bar geometry), else MR_link / lever from the lever figures.
+ */
+export function barTwistRadPerM(bar: Extract<AntiRollBar, { outerDiameterMm: number }>): number {
+  if (bar.twistRadPerM !== undefined) return bar.twistRadPerM;
+  return bar.linkMotionRatio! / (bar.leverLengthMm! / 1000);
+}
+
+/**
  * Roll stiffness of an anti-roll bar at the wheels, N·m/rad:
- * Kφ = k_θ·(MR_link / lever)²·t² (bar twist per unit wheel travel = MR_link / lever).
+ * Kφ = k_θ·θ_w²·t², θ_w the bar twist per unit wheel travel (kktse, "Simplified lateral load transfer analysis").
  */
 export function barRollStiffnessNmPerRad(bar: AntiRollBar, trackM: number): number {
   if ('rollRateNmPerDeg' in bar) return bar.rollRateNmPerDeg / DEG;
   const kTheta = barTorsionalRateNmPerRad(bar.outerDiameterMm / 1000, (bar.innerDiameterMm ?? 0) / 1000, bar.activeLengthMm / 1000, (bar.shearModulusGPa ?? STEEL_SHEAR_MODULUS_GPA) * 1e9);
-  const twistPerWheelTravel = bar.linkMotionRatio / (bar.leverLengthMm / 1000);
-  return kTheta * twistPerWheelTravel * twistPerWheelTravel * trackM * trackM;
+  const twist = barTwistRadPerM(bar);
+  return kTheta * twist * twist * trackM * trackM;
 }
 
 /** Springs in series, e.g. tyres and suspension: K = K_t·K_s/(K_t + K_s) (formuladen, "Roll rate with anti-roll bar"). */
@@ -155,8 +164,8 @@ export interface RollModel {
   /** Suspension roll (body relative to the axle) per g, deg/g. */
   suspensionRollDegPerG: { front: number; rear: number };
   lateralLoadTransfer: { front: AxleLoadTransfer; rear: AxleLoadTransfer; frontShare: number };
-  /** Σ ΔW·t against m·h·a_y (+ m_s·g·h₁·φ), per g, N·m. */
-  rollMomentBalance: { loadTransferMomentNm: number; appliedMomentNm: number; gravityMomentNm: number; relativeError: number };
+  /** Σ ΔW·t, m·h·a_y and m_s·g·h₁·φ per g, N·m: a breakdown of the roll moments (they balance by construction). */
+  rollMomentBalance: { loadTransferMomentNm: number; appliedMomentNm: number; gravityMomentNm: number };
   rollCentreHeightMm: { front: number; rear: number };
 }
 
@@ -210,7 +219,6 @@ export function evaluateRoll(v: Vehicle): RollModel {
       loadTransferMomentNm: ltMoment,
       appliedMomentNm: applied,
       gravityMomentNm: gravity,
-      relativeError: Math.abs(ltMoment - applied - gravity) / (applied + Math.abs(gravity)),
     },
     rollCentreHeightMm: rcMm,
   };

@@ -206,13 +206,27 @@ export interface StepResponse extends StepMetrics {
   stable: boolean;
   eigenvalues: Complex[];
   modes: Mode[];
-  /** Of the lowest-frequency oscillatory mode (else the lowest), Hz and –. */
+  /**
+   * 2-DOF: of the model's one second-order characteristic polynomial
+   * s² + a1·s + a0 (ω_n = √a0, ζ = a1/(2ω_n); ζ > 1 when both roots are real).
+   * 3-DOF: of its lowest-frequency oscillatory mode, null when it has none
+   * (its real roots are reported in `modes` as time constants). Hz and –.
+   */
   naturalFrequencyHz: number | null;
   dampingRatio: number | null;
   steadyYawRateDegPerS: number;
   steadyRollDeg: number | null;
   history: HistoryRow[];
   odeSteps: number;
+}
+
+/** ω_n and ζ of a 2×2 system's characteristic polynomial s² − tr(A)·s + det(A) (null when det A ≤ 0: no natural frequency). */
+function secondOrder(A: Matrix): { naturalFrequencyHz: number; dampingRatio: number } | null {
+  const a0 = A[0]![0]! * A[1]![1]! - A[0]![1]! * A[1]![0]!;
+  const a1 = -(A[0]![0]! + A[1]![1]!);
+  if (!(a0 > 0)) return null;
+  const w = Math.sqrt(a0);
+  return { naturalFrequencyHz: w / (2 * Math.PI), dampingRatio: a1 / (2 * w) };
 }
 
 export interface StepOptions {
@@ -227,7 +241,7 @@ export interface StepOptions {
 export function stepResponse(model: LinearModel, o: StepOptions): StepResponse {
   const eigs = eigenvalues(model.A);
   const modes = modesOf(eigs);
-  const main = modes.find((m) => m.oscillatory) ?? modes[0] ?? null;
+  const main = model.dof === 2 ? secondOrder(model.A) : (modes.find((m) => m.oscillatory) ?? null);
   const stable = eigs.every((e) => e.re < 0);
   const ss = steadyState(model, o.steerRad);
   const base = {

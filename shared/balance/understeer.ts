@@ -8,6 +8,7 @@ import { InputError } from '../errors.js';
 import type { Axle, Vehicle } from '../schema/vehicle.js';
 import { G, type AxleName } from './constants.js';
 import { evaluateRoll, type RollModel } from './roll.js';
+import { tyreLoadLaw, tyreStiffnessAt, tyreStiffnessSlope, type TyreLoadLaw } from './tyre.js';
 
 /** Lateral acceleration at which the load-transfer term is evaluated by default, g (Bundorf: linear to about 0.4 g). */
 export const DEFAULT_BUDGET_LATERAL_G = 0.4;
@@ -24,9 +25,8 @@ export interface AxleCore {
   lateralForceNPerG: number;
   /** Axle cornering stiffness at static loads, N/deg. */
   corneringStiffnessNPerDeg: number;
-  /** b of Cα = a·Fz − b·Fz² per tyre (0 = load-insensitive), 1/(deg·N). */
-  quadraticPerDegPerN: number;
-  tyreA: number | null;
+  /** How each tyre's cornering stiffness changes with its load (./tyre.ts). */
+  tyreLaw: TyreLoadLaw;
   loadTransferNPerG: number;
   /** Camber thrust stiffness of the axle (both tyres), N/deg. */
   camberStiffnessNPerDeg: number;
@@ -37,6 +37,8 @@ export interface AxleCore {
   /** Steer out of the turn per g from everything but slip, deg/g. */
   steerOutDegPerG: number;
   pneumaticTrailM: number;
+  /** Lever of the lateral force about the steering axis: mechanical plus pneumatic trail, m. */
+  steeringTrailM: number;
 }
 
 export interface AxleCompliance extends Record<BudgetTerm, number> {
@@ -56,16 +58,12 @@ export interface BalanceCore {
   cgToFrontM: number;
 }
 
-function axleCorneringStiffness(axle: Axle, staticLoadN: number, path: string): { c0: number; b: number; a: number | null } {
-  const t = axle.tyre;
-  if (t.loadSensitivity) {
-    const fz = staticLoadN / 2;
-    const c = t.loadSensitivity.a * fz - t.loadSensitivity.b * fz * fz;
-    if (!(c > 0)) throw new InputError(`${path}.tyre.loadSensitivity gives a non-positive cornering stiffness (${c.toFixed(1)} N/deg) at the static load ${fz.toFixed(0)} N`, [{ path: `${path}.tyre.loadSensitivity`, message: 'non-positive cornering stiffness at static load' }]);
-    return { c0: 2 * c, b: t.loadSensitivity.b, a: t.loadSensitivity.a };
-  }
-  if (t.corneringStiffnessNPerDeg !== undefined) return { c0: 2 * t.corneringStiffnessNPerDeg, b: 0, a: null };
-  return { c0: staticLoadN / t.axleComplianceDegPerG!, b: 0, a: null };
+function axleCorneringStiffness(axle: Axle, staticLoadN: number, path: string): { c0: number; law: TyreLoadLaw } {
+  const fz = staticLoadN / 2;
+  const law = tyreLoadLaw(axle.tyre, fz);
+  const c = tyreStiffnessAt(law, fz);
+  if (!(c > 0)) throw new InputError(`${path}.tyre.loadSensitivity gives a non-positive cornering stiffness (${c.toFixed(1)} N/deg) at the static load ${fz.toFixed(0)} N`, [{ path: `${path}.tyre.loadSensitivity`, message: 'non-positive cornering stiffness at static load' }]);
+  return { c0: 2 * c, law };
 }
 
 /** Builds the per-axle numbers from a vehicle (and its roll model, computed when not given). */
@@ -87,13 +85,14 @@ export function balanceCore(v: Vehicle, roll: RollModel = evaluateRoll(v)): Bala
     const eps = ax.rollSteerCoefficient ?? 0;
     const fy = fyPerG[name];
     const tp = (ax.tyre.pneumaticTrailMm ?? 0) / 1000;
-    const steerOut = eps * phiS + ((ax.complianceSteerDegPerKN ?? 0) * fy) / 1000 + (ax.steeringStiffnessNmPerDeg ? (fy * tp) / ax.steeringStiffnessNmPerDeg : 0);
+    // The lateral force acts a pneumatic trail behind the contact patch, which lies a mechanical trail behind the steering axis.
+    const trail = tp + (ax.mechanicalTrailMm ?? 0) / 1000;
+    const steerOut = eps * phiS + ((ax.complianceSteerDegPerKN ?? 0) * fy) / 1000 + (ax.steeringStiffnessNmPerDeg ? (fy * trail) / ax.steeringStiffnessNmPerDeg : 0);
     return {
       staticLoadN: load,
       lateralForceNPerG: fy,
       corneringStiffnessNPerDeg: cs.c0,
-      quadraticPerDegPerN: cs.b,
-      tyreA: cs.a,
+      tyreLaw: cs.law,
       loadTransferNPerG: roll.lateralLoadTransfer[name].totalNPerG,
       camberStiffnessNPerDeg: 2 * (ax.tyre.camberStiffnessNPerDeg ?? 0),
       // Suspension roll × roll camber, plus the axle's own tilt on its tyres (φ − φ_s) leaning both wheels out, plus compliance camber.
@@ -102,15 +101,24 @@ export function balanceCore(v: Vehicle, roll: RollModel = evaluateRoll(v)): Bala
       suspensionRollDegPerG: phiS,
       steerOutDegPerG: steerOut,
       pneumaticTrailM: tp,
+      steeringTrailM: trail,
     };
   };
   return { vehicle: v, roll, front: axle('front'), rear: axle('rear'), wheelbaseM: L, cgToFrontM: a };
 }
 
-/** Axle cornering stiffness at lateral acceleration A (g), both tyres at W/2 ± ΔW: C0 − 2b·ΔW², N/deg. */
+/** Axle cornering stiffness at lateral acceleration A (g), both tyres at W/2 ± ΔW on the tyre law, N/deg. */
 export function axleStiffnessAt(c: AxleCore, lateralG: number): number {
   const dw = c.loadTransferNPerG * lateralG;
-  return c.corneringStiffnessNPerDeg - 2 * c.quadraticPerDegPerN * dw * dw;
+  const fz = c.staticLoadN / 2;
+  return tyreStiffnessAt(c.tyreLaw, fz + dw) + tyreStiffnessAt(c.tyreLaw, fz - dw);
+}
+
+/** dC_axle/dA at A, N/deg per g: ΔW'·(C'(W/2 + ΔW) − C'(W/2 − ΔW)). */
+function axleStiffnessSlope(c: AxleCore, lateralG: number): number {
+  const dw = c.loadTransferNPerG * lateralG;
+  const fz = c.staticLoadN / 2;
+  return c.loadTransferNPerG * (tyreStiffnessSlope(c.tyreLaw, fz + dw) - tyreStiffnessSlope(c.tyreLaw, fz - dw));
 }
 
 /** Force the tyres must make by slip per g: the lateral force plus the outward camber thrust, N/g. */
@@ -123,11 +131,10 @@ export function axleSlipDeg(c: AxleCore, lateralG: number): number {
   return (slipForceNPerG(c) * lateralG) / axleStiffnessAt(c, lateralG);
 }
 
-/** d(slip)/dA at A: X·(C0 + 2b·L²·A²)/C(A)² (derivative of X·A/C(A)), deg/g. */
+/** d(slip)/dA at A: X·(C(A) − A·C'(A))/C(A)² (derivative of X·A/C(A)), deg/g. */
 export function axleSlipGradientDegPerG(c: AxleCore, lateralG: number): number {
   const C = axleStiffnessAt(c, lateralG);
-  const dw = c.loadTransferNPerG * lateralG;
-  return (slipForceNPerG(c) * (c.corneringStiffnessNPerDeg + 2 * c.quadraticPerDegPerN * dw * dw)) / (C * C);
+  return (slipForceNPerG(c) * (C - lateralG * axleStiffnessSlope(c, lateralG))) / (C * C);
 }
 
 /** The axle's compliance split into the budget's terms, deg/g; loadTransfer at lateral acceleration A. */
@@ -136,7 +143,7 @@ export function axleCompliance(c: AxleCore, ax: Axle, lateralG: number): AxleCom
   const fy = c.lateralForceNPerG;
   const tyres = c.staticLoadN / c0;
   const alignTorqueMoment = (fy - c.staticLoadN) / c0;
-  const alignTorqueComplianceSteer = ax.steeringStiffnessNmPerDeg ? (fy * c.pneumaticTrailM) / ax.steeringStiffnessNmPerDeg : 0;
+  const alignTorqueComplianceSteer = ax.steeringStiffnessNmPerDeg ? (fy * c.steeringTrailM) / ax.steeringStiffnessNmPerDeg : 0;
   const rollCamber = (c.camberStiffnessNPerDeg * c.inclinationDegPerG) / c0;
   const rollSteer = c.rollSteerCoefficient * c.suspensionRollDegPerG;
   const complianceSteer = ((ax.complianceSteerDegPerKN ?? 0) * fy) / 1000;
@@ -174,6 +181,20 @@ export function understeerGradientAt(core: BalanceCore, lateralG: number): numbe
   return axleSlipGradientDegPerG(core.front, lateralG) + core.front.steerOutDegPerG - axleSlipGradientDegPerG(core.rear, lateralG) - core.rear.steerOutDegPerG;
 }
 
+/** On-centre understeer gradient K(a_y → 0), deg/g: what the characteristic and critical speeds, the gains and the step steer use. */
+export function onCentreUndersteerGradient(core: BalanceCore): number {
+  return understeerGradientAt(core, 0);
+}
+
+/**
+ * Road-wheel steer beyond the kinematic L/R at steady lateral acceleration A
+ * (g), deg: the axle slips and steer-outs of this model at A (its secant, not
+ * the tangent K(A)·A). δ = L/R + this.
+ */
+export function steerBeyondKinematicDeg(core: BalanceCore, lateralG: number): number {
+  return axleSlipDeg(core.front, lateralG) + core.front.steerOutDegPerG * lateralG - axleSlipDeg(core.rear, lateralG) - core.rear.steerOutDegPerG * lateralG;
+}
+
 export interface Validity {
   /** The linear analysis's stated range (Bundorf), g. */
   linearRangeG: number;
@@ -189,11 +210,13 @@ export interface Validity {
 export function validity(core: BalanceCore): Validity {
   const lift = (c: AxleCore) => c.staticLoadN / 2 / c.loadTransferNPerG;
   const stiff = (c: AxleCore): number | null => {
-    if (c.quadraticPerDegPerN === 0 || c.tyreA === null) return null;
+    // The degressive default law stays positive at every positive load; only an entered quadratic reaches zero.
+    const law = c.tyreLaw;
+    if (law.kind !== 'quadratic' || law.b === 0) return null;
     // Outer tyre: a·Fz − b·Fz² > 0 ⇒ Fz < a/b; axle: C0 − 2b·ΔW² > 0.
-    const fzMax = c.tyreA / c.quadraticPerDegPerN;
+    const fzMax = law.a / law.b;
     const outer = (fzMax - c.staticLoadN / 2) / c.loadTransferNPerG;
-    const axle = Math.sqrt(c.corneringStiffnessNPerDeg / (2 * c.quadraticPerDegPerN)) / c.loadTransferNPerG;
+    const axle = Math.sqrt(c.corneringStiffnessNPerDeg / (2 * law.b)) / c.loadTransferNPerG;
     return Math.min(outer, axle);
   };
   const wheelLiftG = { front: lift(core.front), rear: lift(core.rear) };

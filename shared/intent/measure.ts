@@ -14,6 +14,7 @@ import type { CautionInputs, CautionThresholds } from './cautions.js';
 import type { TrackProfile } from './profiles.js';
 import { pose, PoseCounter, sweep } from './link.js';
 import { axleComplianceOf } from '../compliance/axle.js';
+import { describeTyreLoadLaw, tyreLoadLaw, tyreStiffnessAt } from '../balance/tyre.js';
 
 const G_STD = 9.80665;
 /** Cornering stiffness per unit load used when the vehicle gives no tyre data, 1/deg (from memory: 0.15–0.25 for car tyres). */
@@ -124,17 +125,11 @@ export function cautionInputs(
     const axleLoadN = v.massKg * G_STD * (ctx.axle === 'front' ? (v.wheelbaseMm - v.cgToFrontAxleMm) / v.wheelbaseMm : v.cgToFrontAxleMm / v.wheelbaseMm);
     const wheel = axleLoadN / 2;
     landing = wheel * profile.landingLoadFactor;
-    const tyre = v[ctx.axle].tyre;
-    if (tyre.loadSensitivity) {
-      cc = tyre.loadSensitivity.a - tyre.loadSensitivity.b * landing;
-      ccSource = 'the vehicle tyre load sensitivity at the landing load';
-    } else if (tyre.corneringStiffnessNPerDeg !== undefined) {
-      cc = tyre.corneringStiffnessNPerDeg / wheel;
-      ccSource = "the vehicle tyre's cornering stiffness at its static load";
-    } else if (tyre.axleComplianceDegPerG !== undefined) {
-      cc = 1 / tyre.axleComplianceDegPerG;
-      ccSource = "the vehicle axle's tyre cornering compliance";
-    }
+    // The tyre's stiffness at the landing load on the one load law of the balance model (shared/balance/tyre.ts):
+    // the vehicle's own quadratic, or the degressive law from its static-load stiffness (not linear scaling).
+    const law = tyreLoadLaw(v[ctx.axle].tyre, wheel);
+    cc = tyreStiffnessAt(law, landing) / landing;
+    ccSource = `the vehicle tyre at the landing load, by ${describeTyreLoadLaw(law)}`;
     // Entered compliance steer wins; else the corner's own, computed from its bushings (lateral force at the
     // contact patch acting a pneumatic trail behind it), for this very geometry.
     const entered = v[ctx.axle].complianceSteerDegPerKN;

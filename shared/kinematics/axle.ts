@@ -9,7 +9,7 @@ import { InputError, SolveError, formatPath } from '../errors.js';
 import { cornerSchema, type Corner, type Vec3 } from '../schema/corner.js';
 import { compileCorner } from './model.js';
 import { CornerSolver } from './solver.js';
-import { poseOutputs, uprightPoint, type PoseResult } from './pose.js';
+import { kingpinAxis, poseOutputs, uprightPoint, type PoseResult } from './pose.js';
 import { expandRange, checkRack, type Range } from './sweep.js';
 import { RAD } from './vec.js';
 
@@ -197,18 +197,72 @@ export interface SteeringRow {
   ackermannPercent: number | null;
 }
 
-/** Ackermann percentage: (δ_in − δ_out)/(δ_in − δ_out,ideal)·100 with cot δ_out,ideal = cot δ_in + t/L (common practice); null near straight ahead. */
-export function ackermannPercent(leftSteerDeg: number, rightSteerDeg: number, trackMm: number, wheelbaseMm: number): number | null {
+/**
+ * Ackermann percentage from the two wheels' steer angles MEASURED FROM THE
+ * STRAIGHT-AHEAD POSE (static toe removed; see `straightAhead`), deg:
+ * (δ_i − δ_o)/(δ_i,ideal − δ_o)·100, where the ideal inner angle for the
+ * actual outer angle δ_o satisfies cot δ_o − cot δ_i,ideal = t_s/L, t_s the
+ * distance between the two steering axes' ground points and L the wheelbase
+ * (common practice; Gillespie, from memory). 100 % is the ideal, 0 % parallel
+ * steer, negative anti-Ackermann. Null within 0.5° of straight ahead, where
+ * the ratio is ill-conditioned.
+ */
+export function ackermannPercent(leftSteerDeg: number, rightSteerDeg: number, steeringAxisTrackMm: number | null, wheelbaseMm: number): number | null {
   const mean = (leftSteerDeg + rightSteerDeg) / 2;
-  if (Math.abs(mean) < 0.5 || !(wheelbaseMm > 0)) return null;
+  if (Math.abs(mean) < 0.5 || !(wheelbaseMm > 0) || steeringAxisTrackMm === null || !Number.isFinite(steeringAxisTrackMm)) return null;
   const left = mean > 0;
   const inner = Math.abs(left ? leftSteerDeg : rightSteerDeg) / RAD;
   const outer = Math.abs(left ? rightSteerDeg : leftSteerDeg) / RAD;
-  const ideal = Math.atan(1 / (1 / Math.tan(inner) + trackMm / wheelbaseMm));
-  const denom = inner - ideal;
+  if (!(outer > 0)) return null;
+  const cotIdeal = 1 / Math.tan(outer) - steeringAxisTrackMm / wheelbaseMm;
+  const ideal = Math.atan2(1, cotIdeal);
+  const denom = ideal - outer;
   if (Math.abs(denom) < 1e-12) return null;
   return ((inner - outer) / denom) * 100;
 }
+
+/** The straight-ahead pose of an axle at design height: the rack position where δ̄ = 0, each wheel's steer there (static toe), and the steering axes' ground-point distance t_s. */
+export interface StraightAhead {
+  rackMm: number;
+  leftSteerDeg: number;
+  rightSteerDeg: number;
+  /** Distance between the left and right steering axes' ground points, mm (null: an axis parallel to the ground). */
+  steeringAxisTrackMm: number | null;
+}
+
+/** Where the kingpin axis of a solved side meets the ground plane through its contact patch (left frame), mm. */
+function steeringAxisGroundPoint(s: CornerSolver): [number, number] {
+  const k = kingpinAxis(s);
+  const cpz = poseOutputs(s).contactPatch[2];
+  const g = (cpz - k.point[2]) / k.dir[2];
+  return [k.point[0] + g * k.dir[0], k.point[1] + g * k.dir[1]];
+}
+
+/** The straight-ahead pose (Newton on the rack for δ̄ = 0 at design height; rack 0 for a symmetric axle). */
+export function straightAhead(sides: AxleSides): StraightAhead {
+  const [lo, hi] = axleStroke(sides);
+  let rack = 0;
+  let p = solveBoth(sides, 0, 0, rack);
+  for (let it = 0; it < 50; it++) {
+    const f = (p.l.steerDeg + p.r.steerDeg) / 2;
+    if (Math.abs(f) < 1e-10) break;
+    const d = (steerPerRack(sides.left) + steerPerRack(sides.right)) / 2;
+    if (!(Math.abs(d) > 1e-12)) break;
+    const next = Math.min(hi, Math.max(lo, rack - f / d));
+    if (next === rack) break;
+    rack = next;
+    p = solveBoth(sides, 0, 0, rack);
+  }
+  const gl = steeringAxisGroundPoint(sides.left);
+  const gr = steeringAxisGroundPoint(sides.right);
+  // The right side is solved in the mirrored frame: its ground point is (x, −y) in the vehicle frame.
+  const ts = Math.hypot(gl[0] - gr[0], gl[1] + gr[1]);
+  return { rackMm: rack, leftSteerDeg: p.l.steerDeg, rightSteerDeg: p.r.steerDeg, steeringAxisTrackMm: Number.isFinite(ts) ? ts : null };
+}
+
+/** The Ackermann definition in words, for outputs. */
+export const ACKERMANN_DEFINITION =
+  'steer angles measured from the straight-ahead pose (static toe removed); 100 % when the inner angle is the ideal one for the outer, cot δo − cot δi = t_s/L, with t_s the distance between the steering axes\' ground points';
 
 function solveBoth(sides: AxleSides, travelL: number, travelR: number, rack: number): { l: PoseResult; r: PoseResult } {
   sides.left.reset();
@@ -249,10 +303,13 @@ export function axleKinematics(corner: Corner, options: AxleKinematicsOptions = 
     rows: SteeringRow[];
     steeringRatioDegPerMm: number;
     overallRatio: number | null;
+    straightAhead: StraightAhead;
+    ackermannDefinition: string;
   } = null;
   if (corner.steered) {
     const [lo, hi] = axleStroke(sides);
     const n = Math.max(3, Math.min(201, options.steeringPoints ?? 21));
+    const sa = straightAhead(sides);
     const rows: SteeringRow[] = [];
     for (let i = 0; i < n; i++) {
       const rk = lo + ((hi - lo) * i) / (n - 1);
@@ -263,7 +320,7 @@ export function axleKinematics(corner: Corner, options: AxleKinematicsOptions = 
         leftSteerDeg: p.l.steerDeg,
         rightSteerDeg: p.r.steerDeg,
         axleSteerDeg,
-        ackermannPercent: options.wheelbaseMm ? ackermannPercent(p.l.steerDeg, p.r.steerDeg, sides.trackMm, options.wheelbaseMm) : null,
+        ackermannPercent: options.wheelbaseMm ? ackermannPercent(p.l.steerDeg - sa.leftSteerDeg, p.r.steerDeg - sa.rightSteerDeg, sa.steeringAxisTrackMm, options.wheelbaseMm) : null,
       });
     }
     solveBoth(sides, 0, 0, 0);
@@ -272,6 +329,8 @@ export function axleKinematics(corner: Corner, options: AxleKinematicsOptions = 
       rows,
       steeringRatioDegPerMm: ratio,
       overallRatio: options.rackMmPerHandwheelRev ? 360 / options.rackMmPerHandwheelRev / Math.abs(ratio) : null,
+      straightAhead: sa,
+      ackermannDefinition: ACKERMANN_DEFINITION,
     };
   }
   return {
@@ -358,13 +417,12 @@ export function rollSweep(corner: Corner, options: RollSweepOptions) {
   const half = sides.trackMm / 2;
   const rows: RollRow[] = [];
   const byRack: RollRackSummary[] = [];
-  for (const rack of racks) {
-    const co = rollCoefficients(sides, rack);
-    byRack.push({ rackMm: rack, rollSteerCoefficient: co.eps, rollCamberDegPerDeg: co.rollCamber });
-    // Continuation outward from φ nearest 0, each side by its own solver.
-    let start = 0;
-    for (let i = 1; i < rolls.length; i++) if (Math.abs(rolls[i]!) < Math.abs(rolls[start]!)) start = i;
-    const block = new Array<RollRow>(rolls.length);
+  // Continuation outward from φ nearest 0, each side by its own solver.
+  let start = 0;
+  for (let i = 1; i < rolls.length; i++) if (Math.abs(rolls[i]!) < Math.abs(rolls[start]!)) start = i;
+  /** The rows at one rack position; `solved`: the sides already stand at (0, 0, rack). */
+  const block = (rack: number, solved = false): RollRow[] => {
+    const out = new Array<RollRow>(rolls.length);
     const at = (i: number) => {
       const phi = rolls[i]!;
       const s = half * Math.sin(phi / RAD);
@@ -373,7 +431,7 @@ export function rollSweep(corner: Corner, options: RollSweepOptions) {
       const l = poseOutputs(sides.left);
       const r = poseOutputs(sides.right);
       const rc = rollCentreOf(frontViewIc(sides.left), frontViewIc(sides.right));
-      block[i] = {
+      out[i] = {
         rollDeg: phi,
         rackMm: rack,
         leftTravelMm: -s,
@@ -388,14 +446,34 @@ export function rollSweep(corner: Corner, options: RollSweepOptions) {
         rollCamberDeg: (r.camberDeg + phi - (l.camberDeg - phi)) / 2,
         rollCentreHeightMm: rc ? rc.heightMm : null,
         rollCentreYMm: rc ? rc.yMm : null,
-        ackermannPercent: options.wheelbaseMm && corner.steered ? ackermannPercent(l.steerDeg, r.steerDeg, sides.trackMm, options.wheelbaseMm) : null,
+        ackermannPercent: null,
       };
     };
+    if (!solved) solveBoth(sides, 0, 0, rack);
     for (let i = start; i < rolls.length; i++) at(i);
     solveBoth(sides, -half * Math.sin(rolls[start]! / RAD), half * Math.sin(rolls[start]! / RAD), rack);
     for (let i = start - 1; i >= 0; i--) at(i);
-    rows.push(...block);
+    return out;
+  };
+  const blocks: RollRow[][] = [];
+  for (const rack of racks) {
+    const co = rollCoefficients(sides, rack);
+    byRack.push({ rackMm: rack, rollSteerCoefficient: co.eps, rollCamberDegPerDeg: co.rollCamber });
+    blocks.push(block(rack, true));
   }
+  if (options.wheelbaseMm && corner.steered) {
+    // Ackermann at each roll: steer measured from the straight-ahead rack at the same wheel travels (static toe
+    // and roll steer removed), with t_s of the straight-ahead pose at design height.
+    const sa = straightAhead(sides);
+    const k = racks.indexOf(sa.rackMm);
+    const ref = k >= 0 ? blocks[k]! : block(sa.rackMm);
+    for (const b of blocks) {
+      b.forEach((row, i) => {
+        row.ackermannPercent = ackermannPercent(row.leftSteerDeg - ref[i]!.leftSteerDeg, row.rightSteerDeg - ref[i]!.rightSteerDeg, sa.steeringAxisTrackMm, options.wheelbaseMm!);
+      });
+    }
+  }
+  for (const b of blocks) rows.push(...b);
   const main = byRack.find((b) => b.rackMm === 0) ?? byRack[0]!;
   return {
     rows,
@@ -413,8 +491,15 @@ export interface AxleSummary {
   trackMm: number;
   /** Toe-in gradient at design height, deg/m (mean of both sides). */
   bumpSteerDegPerM: number;
+  /** Mechanical trail at the ground, mm (mean of both sides; positive when the steering axis meets the ground ahead of the contact patch). */
+  mechanicalTrailMm: number;
   springMotionRatio?: number;
+  /** Bar lever-end travel per unit wheel travel (mm/mm), tied to the corner's own lever radius. */
   barMotionRatio?: number;
+  /** Bar twist per unit wheel travel, rad/m (mean of both sides): what the bar's roll stiffness needs. */
+  barTwistRadPerM?: number;
+  /** The corner's bar lever radius (bar axis to the drop link's inner end), mm. */
+  barLeverMm?: number;
 }
 
 /** What the balance model takes from an axle's kinematics (design height, given rack). */
@@ -433,9 +518,14 @@ export function axleSummary(corner: Corner, options: { rackMm?: number; rightCor
     rollCentreHeightMm: rc.heightMm,
     trackMm: sides.trackMm,
     bumpSteerDegPerM: (co.l.toeGradientDegPerM + co.r.toeGradientDegPerM) / 2,
+    mechanicalTrailMm: (co.l.mechanicalTrailMm + co.r.mechanicalTrailMm) / 2,
   };
   if (co.l.motionRatio !== undefined && co.r.motionRatio !== undefined) out.springMotionRatio = (co.l.motionRatio + co.r.motionRatio) / 2;
   if (co.l.barMotionRatio !== undefined && co.r.barMotionRatio !== undefined) out.barMotionRatio = (co.l.barMotionRatio + co.r.barMotionRatio) / 2;
+  if (co.l.barTwistRadPerM !== undefined && co.r.barTwistRadPerM !== undefined) {
+    out.barTwistRadPerM = (co.l.barTwistRadPerM + co.r.barTwistRadPerM) / 2;
+    out.barLeverMm = sides.left.model.bar!.leverRadius;
+  }
   return out;
 }
 

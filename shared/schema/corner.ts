@@ -333,37 +333,27 @@ export function cornerSemanticIssues(corner: z.infer<typeof cornerShapeSchema>):
   if (norm(sub(wc, sp)) < tol) add('points.spindle', 'points.spindle coincides with points.wheelCentre: the spin axis is undefined');
   else if (sp[1] >= wc[1]) add('points.spindle', `points.spindle (y ${sp[1]}) must be inboard of points.wheelCentre (y ${wc[1]}) so the spin axis points outboard`);
 
-  let inner: string[];
-  let uprightPts: string[];
-  /** Body-point / upright-point pairs that are one link's own ends (the link and arm rules report those). */
-  let ownEnds: Array<[string, string]>;
   if (corner.type === 'double-wishbone') {
     arm('lowerFront', 'lowerRear', 'lowerOuter', 'lower arm');
     arm('upperFront', 'upperRear', 'upperOuter', 'upper arm');
     link('tieRodInner', 'tieRodOuter', 'tie rod');
     link('lowerOuter', 'upperOuter', 'kingpin (lower to upper ball joint)');
-    inner = ['lowerFront', 'lowerRear', 'upperFront', 'upperRear', 'tieRodInner'];
-    uprightPts = ['lowerOuter', 'upperOuter', 'tieRodOuter'];
-    ownEnds = [['lowerFront', 'lowerOuter'], ['lowerRear', 'lowerOuter'], ['upperFront', 'upperOuter'], ['upperRear', 'upperOuter'], ['tieRodInner', 'tieRodOuter']];
+    // The steering axis runs through both ball joints; the tie rod needs a lever about it.
+    if (norm(sub(pts['upperOuter']!, pts['lowerOuter']!)) >= tol && distanceToLine(pts['tieRodOuter']!, pts['lowerOuter']!, pts['upperOuter']!) < tol) {
+      add('points.tieRodOuter', 'points.tieRodOuter lies on the steering axis (lowerOuter–upperOuter, collinear with both ball joints): the tie rod has no lever to hold the steer');
+    }
   } else if (corner.type === 'strut') {
     arm('lowerFront', 'lowerRear', 'lowerOuter', 'lower arm');
     link('tieRodInner', 'tieRodOuter', 'tie rod');
     link('strutLower', 'strutTop', 'strut axis');
-    inner = ['lowerFront', 'lowerRear', 'strutTop', 'tieRodInner'];
-    uprightPts = ['lowerOuter', 'strutLower', 'tieRodOuter'];
-    ownEnds = [['lowerFront', 'lowerOuter'], ['lowerRear', 'lowerOuter'], ['strutTop', 'strutLower'], ['tieRodInner', 'tieRodOuter']];
-    if (norm(sub(pts['strutTop']!, pts['strutLower']!)) >= tol && distanceToLine(pts['lowerOuter']!, pts['strutLower']!, pts['strutTop']!) < tol) {
-      add('points.lowerOuter', 'points.lowerOuter lies on the strut axis (strutLower–strutTop): the upright cannot be located');
+    // A lower ball joint on the strut axis is well posed (the steering axis is then the strut axis): not refused.
+    // The steering axis runs from the lower ball joint to the top mount; the tie rod needs a lever about it.
+    if (norm(sub(pts['strutTop']!, pts['lowerOuter']!)) >= tol && distanceToLine(pts['tieRodOuter']!, pts['lowerOuter']!, pts['strutTop']!) < tol) {
+      add('points.tieRodOuter', 'points.tieRodOuter lies on the steering axis (lowerOuter–strutTop): the tie rod has no lever to hold the steer');
     }
   } else {
-    inner = [];
-    uprightPts = [];
-    ownEnds = [];
     for (let i = 1; i <= 5; i++) {
       link(`link${i}Inner`, `link${i}Outer`, `link ${i}`);
-      inner.push(`link${i}Inner`);
-      uprightPts.push(`link${i}Outer`);
-      ownEnds.push([`link${i}Inner`, `link${i}Outer`]);
     }
     for (let i = 1; i <= 5; i++) {
       for (let j = i + 1; j <= 5; j++) {
@@ -374,29 +364,10 @@ export function cornerSemanticIssues(corner: z.infer<typeof cornerShapeSchema>):
     }
   }
 
-  // The upright must be a body, not a line.
-  if (corner.type !== 'five-link') {
-    const [a, b, c] = uprightPts.map((n) => pts[n]!) as [Vec3, Vec3, Vec3];
-    if (norm(sub(b, a)) >= tol && distanceToLine(c, a, b) < tol) {
-      add(`points.${uprightPts[2]}`, `points.${uprightPts[2]} is collinear with points.${uprightPts[0]} and points.${uprightPts[1]}: the upright's rotation about that line is undefined`);
-    }
-  }
-
-  // No body-side point on an upright point (e.g. lowerFront on the spindle): a body mount cannot sit on the
-  // upright. A link's own two ends are left to the link and arm rules above.
-  for (const b of inner) {
-    for (const u of ['wheelCentre', 'spindle', ...uprightPts]) {
-      if (ownEnds.some(([i, o]) => i === b && o === u)) continue;
-      if (norm(sub(pts[b]!, pts[u]!)) < tol) {
-        add(`points.${b}`, `points.${b} ${fmt(pts[b]!)} coincides with points.${u} ${fmt(pts[u]!)}: a body-side point cannot sit on an upright point (they must be at least ${tol} mm apart)`);
-      }
-    }
-  }
-
-  // Wheel centre outboard of every body-side link point.
-  for (const n of inner) {
-    if (wc[1] <= pts[n]![1]) add('points.wheelCentre', `points.wheelCentre (y ${wc[1]}) is not outboard of points.${n} (y ${pts[n]![1]}); enter the LEFT corner (y > 0)`);
-  }
+  // Not refused (well posed, the pose Jacobian stays regular; test/shared/kinematics/jacobian.test.ts): a body-side
+  // point at the same place as an upright point (a packaging clash, not a singularity), and a body-side point
+  // outboard of the wheel centre. Only the side convention is checked: the LEFT corner is entered (y > 0).
+  if (!(wc[1] > 0)) add('points.wheelCentre', `points.wheelCentre (y ${wc[1]}) must be on the left (y > 0); enter the LEFT corner`);
 
   // Steering.
   if (corner.steeringStiffnessNPerMm !== undefined && !corner.steered) {

@@ -58,14 +58,20 @@ export const antiRollBarSchema = z.union([
       innerDiameterMm: nonNegative('antiRollBar.innerDiameterMm').optional(),
       /** Active (twisting) length between the lever roots, mm. */
       activeLengthMm: positive('antiRollBar.activeLengthMm'),
-      /** Lever (arm) length from the bar axis to the drop link, mm. */
-      leverLengthMm: positive('antiRollBar.leverLengthMm'),
-      /** Drop-link travel per unit wheel travel. */
-      linkMotionRatio: positive('antiRollBar.linkMotionRatio'),
+      /** Lever (arm) length from the bar axis to the drop link, mm (with linkMotionRatio; not needed with twistRadPerM). */
+      leverLengthMm: positive('antiRollBar.leverLengthMm').optional(),
+      /** Drop-link travel per unit wheel travel (with leverLengthMm; not needed with twistRadPerM). */
+      linkMotionRatio: positive('antiRollBar.linkMotionRatio').optional(),
+      /** Bar twist per unit wheel travel, rad/m: replaces leverLengthMm and linkMotionRatio (a linked corner's bar geometry writes it). */
+      twistRadPerM: positive('antiRollBar.twistRadPerM').optional(),
       /** Shear modulus, GPa (default 79.3, steel: Shigley table A-5). */
       shearModulusGPa: positive('antiRollBar.shearModulusGPa').optional(),
     })
-    .refine((b) => (b.innerDiameterMm ?? 0) < b.outerDiameterMm, { message: 'innerDiameterMm must be smaller than outerDiameterMm', path: ['innerDiameterMm'] }),
+    .refine((b) => (b.innerDiameterMm ?? 0) < b.outerDiameterMm, { message: 'innerDiameterMm must be smaller than outerDiameterMm', path: ['innerDiameterMm'] })
+    .refine((b) => b.twistRadPerM !== undefined || (b.leverLengthMm !== undefined && b.linkMotionRatio !== undefined), {
+      message: 'give leverLengthMm and linkMotionRatio, or twistRadPerM (bar twist per wheel travel)',
+      path: ['leverLengthMm'],
+    }),
 ]);
 
 export const axleSchema = z
@@ -89,6 +95,8 @@ export const axleSchema = z
     steeringStiffnessNmPerDeg: positive('steeringStiffnessNmPerDeg').optional(),
     /** Lateral-force compliance camber of the axle: outward wheel inclination, deg per kN of axle lateral force. */
     complianceCamberDegPerKN: finite('complianceCamberDegPerKN').optional(),
+    /** Mechanical (caster) trail at the ground, mm, positive when the steering axis meets the ground ahead of the contact patch (a linked corner's kinematics write it). */
+    mechanicalTrailMm: finite('mechanicalTrailMm').optional(),
   })
   .superRefine((a, ctx) => {
     if (a.spring === undefined && a.rollStiffnessNmPerDeg === undefined) {

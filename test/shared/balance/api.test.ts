@@ -2,6 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { computeBalance } from '../../../shared/balance/api.js';
 import { exampleVehicles } from '../../../shared/balance/examples.js';
 import { evaluateBalance } from '../../../shared/balance/index.js';
+import { solveSteadyCornering } from '../../../shared/balance/steady.js';
+import { balanceCore } from '../../../shared/balance/understeer.js';
 import { InputError } from '../../../shared/errors.js';
 import { axleSummary, exampleCorners, rackForAxleSteer } from '../../../shared/kinematics/index.js';
 
@@ -24,8 +26,8 @@ describe('computeBalance: kinematics link', () => {
       expect(r.effectiveVehicle.rear.spring!.motionRatio).toBe(kin.springMotionRatio);
     }
     // The bar of this vehicle is a roll rate at the wheels: its motion ratio does not apply, and a note says so.
-    expect(rear.source.barMotionRatio).toBe('not-applicable');
-    expect(rear.notes.join(' ')).toMatch(/bar motion ratio not used/);
+    expect(rear.source.barTwistRadPerM).toBe('not-applicable');
+    expect(rear.notes.join(' ')).toMatch(/bar geometry not used/);
   });
 
   it('the budget uses the linked ε: matches evaluateBalance of the effective vehicle', () => {
@@ -49,11 +51,12 @@ describe('computeBalance: kinematics link', () => {
     expect(o.kinematicsLink.rear.used.rollSteerCoefficient).toBe(exampleVehicles.tur26Ember.rear.rollSteerCoefficient);
   });
 
-  it('reads the steered front at the rack position a corner radius needs (δ = L/R + K·a_y)', () => {
+  it('reads the steered front at the rack position a corner radius needs (the steady steer on that radius at 0.4 g)', () => {
     const o = computeBalance({ ...fs, sensitivity: false, cornerRadiusM: 15 });
     const f = o.kinematicsLink.front;
-    const L = exampleVehicles.tur26Ember.wheelbaseMm / 1000;
-    const expectedSteer = (L / 15) * (180 / Math.PI) + o.understeerBudget.total * 0.4;
+    // Second route: the Newton solution of the steady force and yaw balance on R = 15 m at 0.4 g (Gillespie, re-derived),
+    // not the tangent K(0.4 g)·a_y the link used to add.
+    const expectedSteer = solveSteadyCornering(balanceCore(o.effectiveVehicle), 15, 0.4).steerDeg;
     expect(f.axleSteerDeg!).toBeCloseTo(expectedSteer, 3);
     expect(f.rackMm!).toBeCloseTo(rackForAxleSteer(exampleCorners.fsFrontWishbone, f.axleSteerDeg!), 9);
     expect(f.rackMm).not.toBe(0);
@@ -162,7 +165,7 @@ describe('errors name the request field', () => {
   it('an axle whose compliances cancel its tyres is refused, naming the axle', () => {
     // Rear compliance steer chosen so that it cancels every other rear entry: D_r = 0 (constructed).
     const v = structuredClone(exampleVehicles.brackenfieldB3);
-    const b = evaluateBalance(v, { sensitivity: false }).axleCompliance.rear;
+    const b = evaluateBalance(v, { sensitivity: false }).onCentreAxleCompliance.rear;
     const perKN = v.rear.complianceSteerDegPerKN!;
     v.rear.complianceSteerDegPerKN = perKN - (b.total * perKN) / b.complianceSteer;
     try {
@@ -176,17 +179,19 @@ describe('errors name the request field', () => {
 });
 
 describe('bar geometry and the link', () => {
-  it('a bar entered by geometry takes its drop-link motion ratio from the corner', () => {
+  it('a bar entered by geometry takes its twist per wheel travel from the corner, not the vehicle lever', () => {
     const v = exampleVehicles.tur25Cinder; // rear bar by geometry (tube)
     const o = computeBalance({ vehicle: v, rearCorner: exampleCorners.fsRearWishbone, sensitivity: false });
     const kin = axleSummary(exampleCorners.fsRearWishbone, { rackMm: 0 });
-    expect(kin.barMotionRatio).toBeDefined();
-    expect(o.kinematicsLink.rear.source.barMotionRatio).toBe('kinematics');
+    expect(kin.barTwistRadPerM).toBeDefined();
+    expect(o.kinematicsLink.rear.source.barTwistRadPerM).toBe('kinematics');
+    expect(o.kinematicsLink.rear.used.barTwistRadPerM).toBe(kin.barTwistRadPerM);
     const bar = o.effectiveVehicle.rear.antiRollBar!;
-    expect('linkMotionRatio' in bar && bar.linkMotionRatio).toBe(kin.barMotionRatio);
-    // Kφ,bar = π(D⁴ − d⁴)G/(32 l) · (MR/lever)² · t² (kktse; Shigley G = 79.3 GPa), in N·m/deg.
+    expect('leverLengthMm' in bar).toBe(false);
+    expect('twistRadPerM' in bar && bar.twistRadPerM).toBe(kin.barTwistRadPerM);
+    // Kφ,bar = π(D⁴ − d⁴)G/(32 l) · θ_w² · t² (kktse, "Simplified lateral load transfer analysis"; Shigley G = 79.3 GPa), in N·m/deg.
     const kTheta = (Math.PI * (0.014 ** 4 - 0.011 ** 4) * 79.3e9) / (32 * 0.36);
-    const expected = kTheta * (kin.barMotionRatio! / 0.065) ** 2 * 1.19 ** 2 * (Math.PI / 180);
+    const expected = kTheta * kin.barTwistRadPerM! ** 2 * 1.19 ** 2 * (Math.PI / 180);
     expect(o.rollStiffnessNmPerDeg.detail.rear.barNmPerDeg).toBeCloseTo(expected, 9);
   });
 

@@ -39,14 +39,23 @@ describe('a vehicle with no valid lateral-acceleration range', () => {
     expect(['front', 'rear']).toContain(e.details['axle']);
   });
 
-  it('a degenerate corner (lower front pivot on the spindle point) linked into the vehicle is refused at the door, naming both points', () => {
+  it('a corner with its lower front pivot on the spindle point is well posed but puts the roll centre 3 m up: a SolveError naming the roll centres, not NaN', () => {
     const front = structuredClone(exampleCorners.fsFrontWishbone);
     if (front.type !== 'double-wishbone') throw new Error('example changed');
     front.points.lowerFront = [...front.points.spindle];
-    // The corner schema refuses a body point on an upright point (issue 3 validation), before any solve.
-    const run = () => computeBalance({ vehicle: exampleVehicles.brackenfieldB5, frontCorner: front, rearCorner: exampleCorners.fsRearWishbone });
-    expect(run).toThrow(/^Invalid balance request: frontCorner\.points\.lowerFront: .*coincides with points\.spindle/);
-    expect(run).not.toThrow(SolveError);
+    // Issue 13 §1.7: the corner schema refuses only singular geometry; this pose Jacobian is regular
+    // (test/shared/kinematics/jacobian.test.ts), so the corner is accepted and its kinematics are read.
+    let err: unknown;
+    try {
+      computeBalance({ vehicle: exampleVehicles.brackenfieldB5, frontCorner: front, rearCorner: exampleCorners.fsRearWishbone });
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(SolveError);
+    const e = err as SolveError;
+    expect(e.code).toBe('singular_geometry');
+    expect(e.message).toMatch(/rollCentreHeightMm/);
+    expect(e.message).toMatch(/front \d{4} mm/);
   });
 
   it('plausible roll-centre heights still evaluate, every number finite', () => {

@@ -1,3 +1,4 @@
+import { lusolve } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { DEG, G } from '../../../shared/balance/constants.js';
 import { exampleVehicles } from '../../../shared/balance/examples.js';
@@ -72,11 +73,46 @@ describe('lateral load transfer', () => {
     expect(Math.abs(b.loadTransferMomentNm - expected) / expected).toBeLessThanOrEqual(1e-9);
   });
 
-  it('keeps the roll-moment balance to 1e-9 for every example vehicle, gravity term on and off (property)', () => {
+  it('load transfer per axle agrees with a second, free-body computation for every example vehicle, gravity term on and off', () => {
+    // Second way (derived here, not the product's closed form): unknowns body roll φ and each axle's roll on its
+    // tyres θ_f, θ_r per g. Each axle: K_t,i·θ_i = K_s,i·(φ − θ_i) (the suspension's roll moment rolls the axle on
+    // its tyres); the body about the roll axis: Σ K_s,i·(φ − θ_i) = m_s·g·h₁ (+ m_s·g·h₁·φ with the gravity term).
+    // Solved as a 3×3 linear system (mathjs lusolve); then ΔW_i·t_i = K_s,i·(φ − θ_i) + m_s,i·g·h_rc,i + m_u,i·g·h_u,i,
+    // m_s,i by the lever rule from the sprung CG. Moment balance of the whole car as a check of the derivation:
+    // Σ ΔW_i·t_i = m·g·h + m_s·g·h₁·φ (domain.md).
     for (const v of Object.values(exampleVehicles)) {
       for (const rollGravityTerm of [true, false]) {
-        const r = evaluateRoll({ ...v, options: { rollGravityTerm } });
-        expect(r.rollMomentBalance.relativeError).toBeLessThanOrEqual(1e-9);
+        const veh = { ...v, options: { rollGravityTerm } };
+        const r = evaluateRoll(veh);
+        const L = v.wheelbaseMm / 1000;
+        const muf = v.front.unsprungMassKg ?? 0;
+        const mur = v.rear.unsprungMassKg ?? 0;
+        const ms = v.massKg - muf - mur;
+        const xs = (v.massKg * (v.cgToFrontAxleMm / 1000) - mur * L) / ms;
+        const hs = (v.massKg * (v.cgHeightMm / 1000) - muf * ((v.front.unsprungCgHeightMm ?? 0) / 1000) - mur * ((v.rear.unsprungCgHeightMm ?? 0) / 1000)) / ms;
+        const hrf = r.rollCentreHeightMm.front / 1000;
+        const hrr = r.rollCentreHeightMm.rear / 1000;
+        const h1 = hs - (hrf + ((hrr - hrf) * xs) / L);
+        const ks = { f: r.rollStiffness.front.suspensionNmPerDeg / DEG, r: r.rollStiffness.rear.suspensionNmPerDeg / DEG };
+        const kt = { f: (r.rollStiffness.front.tyresNmPerDeg ?? 1e30) / DEG, r: (r.rollStiffness.rear.tyresNmPerDeg ?? 1e30) / DEG };
+        const grav = rollGravityTerm ? ms * G * h1 : 0;
+        const A = [
+          [ks.f + ks.r - grav, -ks.f, -ks.r],
+          [-ks.f, ks.f + kt.f, 0],
+          [-ks.r, 0, ks.r + kt.r],
+        ];
+        const x = lusolve(A, [ms * G * h1, 0, 0]) as number[][];
+        const [phi, thf, thr] = [x[0]![0]!, x[1]![0]!, x[2]![0]!];
+        const tf = v.front.trackMm / 1000;
+        const tr = v.rear.trackMm / 1000;
+        const dwf = (ks.f * (phi - thf) + ((ms * (L - xs)) / L) * G * hrf + muf * G * ((v.front.unsprungCgHeightMm ?? 0) / 1000)) / tf;
+        const dwr = (ks.r * (phi - thr) + ((ms * xs) / L) * G * hrr + mur * G * ((v.rear.unsprungCgHeightMm ?? 0) / 1000)) / tr;
+        expect(Math.abs(r.rollGradientDegPerG - phi / DEG) / (phi / DEG)).toBeLessThanOrEqual(1e-9);
+        expect(Math.abs(r.lateralLoadTransfer.front.totalNPerG - dwf) / dwf).toBeLessThanOrEqual(1e-9);
+        expect(Math.abs(r.lateralLoadTransfer.rear.totalNPerG - dwr) / dwr).toBeLessThanOrEqual(1e-9);
+        const moment = dwf * tf + dwr * tr;
+        const expected = v.massKg * G * (v.cgHeightMm / 1000) + (rollGravityTerm ? ms * G * h1 * phi : 0);
+        expect(Math.abs(moment - expected) / expected).toBeLessThanOrEqual(1e-9);
         const lt = r.lateralLoadTransfer.front;
         expect(lt.elasticNPerG + lt.geometricNPerG + lt.unsprungNPerG).toBeCloseTo(lt.totalNPerG, 9);
         expect(lt.unsprungNPerG).toBeGreaterThan(0);

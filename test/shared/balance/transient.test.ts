@@ -11,7 +11,8 @@ import { kktseBicycle } from './fixtures.js';
 
 // kktse.github.io, "Typical cornering compliances" fixture: C_i = W_i / D_i.
 const core = balanceCore(kktseBicycle());
-const budget = understeerBudget(core);
+// The transient runs about straight ahead: the on-centre budget (a_y → 0), as evaluateBalance uses.
+const budget = understeerBudget(core, 0);
 const V = 100 * KPH;
 const model = transientModels(core, budget.axleCompliance, V).twoDof;
 const steer = 1 * DEG;

@@ -23,10 +23,12 @@ describe('bicycle model against the kktse measured-car fixture', () => {
   // derived with g = 9.81 and 57.3, we use 9.80665 and 180/π: tolerance 0.3 % (check-values.md).
   const r = evaluateBalance(kktseBicycle(), { speedKph: 100, speedsKph: [100], sensitivity: false });
 
-  it('K = Df − Dr = 3.6 deg/g, all from the tyres term', () => {
-    expect(r.understeerBudget.total).toBeCloseTo(3.6, 12);
+  it('on-centre K = Df − Dr = 3.6 deg/g, all from the tyres term; the budget adds load transfer at its a_y', () => {
+    expect(r.onCentreUndersteerGradientDegPerG).toBeCloseTo(3.6, 12);
     expect(r.understeerBudget.tyres).toBeCloseTo(3.6, 12);
     expect(r.understeerBudget.rollSteer).toBe(0);
+    expect(r.understeerBudget.total).toBeCloseTo(3.6 + r.understeerBudget.loadTransfer, 12);
+    expect(r.budgetTermLateralAccelerationG).toEqual({ tyres: 0, loadTransfer: 0.4, rollSteer: 0, rollCamber: 0, complianceSteer: 0, alignTorque: 0 });
   });
 
   it('characteristic speed 73.5 km/h and peak yaw-rate gain 3.82 1/s', () => {
@@ -108,7 +110,9 @@ describe('understeer budget: Bundorf table and sign convention', () => {
   }
 
   it('reports every axle entry and K = 4.1', () => {
-    const r = evaluateBalance(bundorfCar(), { sensitivity: false });
+    // Bundorf's "tyres + load transfer" entry is entered as the static axle compliance, so the budget is read
+    // on-centre (a_y = 0), where the model's own load-transfer term is zero by definition.
+    const r = evaluateBalance(bundorfCar(), { sensitivity: false, lateralAccelerationG: 0 });
     const f = r.axleCompliance.front;
     const rr = r.axleCompliance.rear;
     const close = (x: number, y: number) => expect(Math.abs(x - y)).toBeLessThanOrEqual(1e-9);
@@ -208,7 +212,12 @@ describe('load-sensitive tyres and the steer curve', () => {
     const s = solveSteadyCornering(core, R, 0.5);
     const sf = core.front.steerOutDegPerG * 0.5;
     const sr = core.rear.steerOutDegPerG * 0.5;
-    const slip = (c: typeof core.front, A: number) => ((c.lateralForceNPerG + c.camberStiffnessNPerDeg * c.inclinationDegPerG) * A) / (c.corneringStiffnessNPerDeg - 2 * c.quadraticPerDegPerN * (c.loadTransferNPerG * A) ** 2);
+    // This car gives tyre.loadSensitivity {a, b}: each tyre at W/2 ± ΔW, C = a·Fz − b·Fz², so the axle has C0 − 2b·ΔW².
+    const slip = (c: typeof core.front, A: number) => {
+      const law = c.tyreLaw;
+      if (law.kind !== 'quadratic') throw new Error('fixture must give loadSensitivity');
+      return ((c.lateralForceNPerG + c.camberStiffnessNPerDeg * c.inclinationDegPerG) * A) / (c.corneringStiffnessNPerDeg - 2 * law.b * (c.loadTransferNPerG * A) ** 2);
+    };
     expect(s.steerDeg).toBeCloseTo((2.56 / R) / DEG + slip(core.front, 0.5) + sf - slip(core.rear, 0.5) - sr, 9);
   });
 

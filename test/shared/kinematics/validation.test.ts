@@ -21,16 +21,16 @@ const cases: Array<[string, () => any, Mut, string, string]> = [
   ['lower ball joint on the lower pivot axis', dw, (c) => (c.points.lowerOuter = [0, 205, 112.5]), 'points.lowerOuter', 'pivot axis'],
   ['upper ball joint on the upper pivot axis', dw, (c) => (c.points.upperOuter = [0, 252.5, 287.5]), 'points.upperOuter', 'upper arm'],
   ['kingpin of zero length', dw, (c) => (c.points.upperOuter = [...c.points.lowerOuter]), 'points.upperOuter', 'points.lowerOuter'],
-  ['upright points collinear', dw, (c) => (c.points.tieRodOuter = [-18, 540, 570]), 'points.tieRodOuter', 'collinear'],
+  ['tie-rod outer point on the steering axis (collinear with both ball joints)', dw, (c) => (c.points.tieRodOuter = [-18, 540, 570]), 'points.tieRodOuter', 'steering axis'],
   ['spindle on the wheel centre', dw, (c) => (c.points.spindle = [...c.points.wheelCentre]), 'points.spindle', 'points.wheelCentre'],
   ['spindle outboard of the wheel centre', dw, (c) => (c.points.spindle = [0, 650, 255]), 'points.spindle', 'inboard'],
-  ['wheel centre not outboard', dw, (c) => (c.points.wheelCentre = [0, 240, 255]), 'points.wheelCentre', 'points.upperFront'],
+  ['wheel centre on the right (a right corner entered as the left)', dw, (c) => (c.points.wheelCentre = [0, -600, 255]), 'points.wheelCentre', 'LEFT corner'],
   ['rack stroke without zero', dw, (c) => (c.steering.rackStroke = [5, 30]), 'steering.rackStroke', 'does not contain 0'],
   ['rack stroke reversed', dw, (c) => (c.steering.rackStroke = [30, -30]), 'steering.rackStroke', 'min < max'],
   ['rack axis of zero length', dw, (c) => (c.steering.rackAxis = [0, 0, 0]), 'steering.rackAxis', 'zero length'],
   ['steered corner without steering', dw, (c) => delete c.steering, 'steering', 'steered'],
   ['strut axis of zero length', strut, (c) => (c.points.strutLower = [...c.points.strutTop]), 'points.strutTop', 'points.strutLower'],
-  ['lower ball joint on the strut axis', strut, (c) => (c.points.lowerOuter = [-50, 560, 1020]), 'points.lowerOuter', 'strut axis'],
+  ['strut: tie-rod outer point on the steering axis (lower ball joint to top mount)', strut, (c) => (c.points.tieRodOuter = [2, 700, 248]), 'points.tieRodOuter', 'steering axis'],
   ['five-link link of zero length', five, (c) => (c.points.link3Outer = [...c.points.link3Inner]), 'points.link3Outer', 'link 3'],
   ['five-link duplicate links', five, (c) => ((c.points.link2Inner = [...c.points.link1Inner]), (c.points.link2Outer = [...c.points.link1Outer])), 'points.link2Outer', 'link 1'],
   ['steering arm stroke without zero', armSteer, (c) => (c.steering.angularStrokeDeg = [2, 30]), 'steering.angularStrokeDeg', 'does not contain 0'],
@@ -48,11 +48,6 @@ const cases: Array<[string, () => any, Mut, string, string]> = [
   ['bar axis of zero length', dw, (c) => (c.antiRollBar.barAxisDirection = [0, 0, 0]), 'antiRollBar.barAxisDirection', 'zero length'],
   ['drop link on the bar axis', dw, (c) => (c.antiRollBar.dropLinkInner = [60, 350, 220]), 'antiRollBar.dropLinkInner', 'bar axis'],
   ['drop link on an upper arm a strut lacks', strut, (c) => (c.antiRollBar.dropLinkOuterOn = 'upperArm'), 'antiRollBar.dropLinkOuterOn', 'no upper arm'],
-  // A body-side point on an upright point (other than a link's own two ends, covered above).
-  ['lower front pivot on the spindle point', dw, (c) => (c.points.lowerFront = [...c.points.spindle]), 'points.lowerFront', 'points.spindle'],
-  ['tie-rod inner point on the lower ball joint', dw, (c) => (c.points.tieRodInner = [...c.points.lowerOuter]), 'points.tieRodInner', 'points.lowerOuter'],
-  ['strut top mount on the tie-rod outer point', strut, (c) => (c.points.strutTop = [...c.points.tieRodOuter]), 'points.strutTop', 'points.tieRodOuter'],
-  ['five-link inner point on another link’s outer point', five, (c) => (c.points.link1Inner = [...c.points.link2Outer]), 'points.link1Inner', 'points.link2Outer'],
 ];
 
 describe('corner validation names the point', () => {

@@ -65,6 +65,10 @@ describe('BalancePage', () => {
     expect(Number(cells[0])).toBeCloseTo(result.understeerBudget.rollSteer, 3);
     expect(Number(cells[1])).toBeCloseTo(result.comparison!.variant.understeerBudget.rollSteer, 3);
     expect(row.classList.contains('rw-differs')).toBe(true);
+    // The on-centre K (speeds, gains, step steer) is shown beside K at the budget's lateral acceleration, and the tyre law is named.
+    const k0 = [...root.querySelectorAll('[data-testid="key-figures"] tr')].find((tr) => tr.textContent?.includes('on-centre'))!;
+    expect(Number(k0.querySelectorAll('td')[0]!.textContent)).toBeCloseTo(result.onCentreUndersteerGradientDegPerG, 3);
+    expect(root.textContent).toContain('Tyre stiffness at other loads');
     expect(root.querySelectorAll('rw-line-chart').length).toBe(3);
     expect(root.querySelector('rw-safety-caution')).not.toBeNull();
   });

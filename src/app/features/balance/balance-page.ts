@@ -106,7 +106,8 @@ export class BalancePage implements OnInit {
       digits,
     });
     return [
-      row('Understeer gradient K', 'deg/g', (x) => x.understeerBudget.total),
+      row('Understeer gradient K on-centre (speeds, gains, step steer)', 'deg/g', (x) => x.onCentreUndersteerGradientDegPerG),
+      row(`Understeer gradient K at ${r.budgetLateralAccelerationG} g`, 'deg/g', (x) => x.understeerBudget.total),
       row('Roll steer term', 'deg/g', (x) => x.understeerBudget.rollSteer),
       row('Compliance steer term', 'deg/g', (x) => x.understeerBudget.complianceSteer),
       row('Roll gradient', 'deg/g', (x) => x.rollGradientDegPerG),
