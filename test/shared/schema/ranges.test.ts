@@ -5,6 +5,7 @@
  * (shared/schema/ranges.ts says so beside them); these checks are about the
  * door, not about the exact figures.
  */
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { cornerSchema } from '../../../shared/schema/corner.js';
 import { cornerUnusualValues } from '../../../shared/schema/corner-ranges.js';
@@ -25,6 +26,14 @@ describe('every range is coherent', () => {
       expect(range.typical[0], key).toBeLessThanOrEqual(range.typical[1]);
       expect(range.typical[0], key).toBeGreaterThanOrEqual(range.min);
       expect(range.typical[1], key).toBeLessThanOrEqual(range.max);
+    }
+  });
+
+  it('docs/inputs.md lists every range with its accepted bounds', () => {
+    const doc = readFileSync(new URL('../../../docs/inputs.md', import.meta.url), 'utf8');
+    for (const [key, range] of Object.entries({ ...VEHICLE_RANGES, ...CORNER_RANGES, ...INTENT_RANGES })) {
+      const accepted = `${range.minExclusive ? '> ' : ''}${formatRangeValue(range.min)} … ${formatRangeValue(range.max)}`;
+      expect(doc, key).toContain(`| \`${key}\` | ${range.label} | ${range.unit || '–'} | ${accepted} |`);
     }
   });
 
