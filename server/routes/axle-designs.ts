@@ -34,7 +34,6 @@ const decisionSchema = z.strictObject({ message: revisionMessage });
  */
 const importFieldsSchema = z.strictObject({ frame: z.string().max(2000).optional(), corner: z.string().max(60_000).optional() });
 
-
 function importFields(body: unknown) {
   const fields = validate(importFieldsSchema, body ?? {}, 'upload fields');
   return {

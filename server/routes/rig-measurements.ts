@@ -14,6 +14,8 @@ import { jsonUploadField, singleTextUpload, uploadedText } from '../http/upload.
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
 import { AXLES } from '../db/schema.js';
 import { rigMappingSchema } from '../../shared/io/rig-mapping-schema.js';
+import { INTENT_RANGES } from '../../shared/schema/ranges.js';
+import { inRange } from '../../shared/schema/ranged.js';
 import { RIG_BASES, rigToleranceSchema } from '../../shared/intent/rig-compare.js';
 import type { RigMeasurements } from '../services/rig-measurements.js';
 import { idParam } from './vehicles.js';
@@ -30,7 +32,7 @@ const optionsSchema = z.strictObject({
   name: z.string().trim().max(120).optional(),
   note: z.string().trim().max(1000).optional(),
   side: z.enum(['left', 'right']).default('left'),
-  rackMm: z.number().finite().default(0),
+  rackMm: inRange(z.number().finite(), INTENT_RANGES.rackPositionMm, 'rackMm').default(0),
   basis: z.enum(RIG_BASES).default('change'),
 });
 
@@ -42,7 +44,6 @@ const createFieldsSchema = z.strictObject({
 });
 
 const listQuery = z.strictObject({ configurationId: uuid.optional(), designId: uuid.optional() });
-
 
 const RIG_EXTENSIONS = ['csv', 'txt', 'tsv'];
 

@@ -99,7 +99,7 @@ export const CORNER_RANGES = {
 } as const satisfies Record<string, InputRange>;
 
 export const INTENT_RANGES = {
-  travelMm: r('suspension travel', 'mm', -500, 500, [-150, 150]),
+  travelMm: r('suspension travel', 'mm', -1000, 1000, [-150, 150]),
   bumpHeightMm: pos('bump height', 'mm', 1000, [5, 100]),
   rackPositionMm: r('rack position', 'mm', -500, 500, [-120, 120]),
   travelStepMm: pos('travel step', 'mm', 500, [0.5, 20]),
@@ -107,6 +107,10 @@ export const INTENT_RANGES = {
   shimThicknessMm: pos('shim thickness', 'mm', 50, [0.1, 5]),
   threadPitchMm: pos('thread pitch', 'mm', 20, [0.5, 3]),
   referenceRollDeg: pos('reference roll angle', 'deg', 15, [0.5, 5]),
+  /** Compute requests: body roll of an axle roll sweep. */
+  rollDeg: r('body roll angle', 'deg', -30, 30, [-6, 6]),
+  /** Rack travel per handwheel revolution. */
+  rackMmPerHandwheelRev: pos('rack travel per handwheel turn', 'mm', 500, [25, 90]),
   /** Caution thresholds are in each caution's own unit (deg, mm, deg/m²…): only kept finite and bounded. */
   cautionThreshold: r('caution threshold', '', -1e6, 1e6, [-1e6, 1e6]),
 } as const satisfies Record<string, InputRange>;
