@@ -3,7 +3,8 @@
  * fallback) everywhere else. Routes are thin; services talk to Drizzle;
  * engine calls go to the worker pool; every error reaches one handler.
  */
-import { limitJsonDepth } from './http/json-depth.js';
+import { jsonBody } from './http/body.js';
+import { refuseNulCharacters } from './http/text.js';
 import { isUploadRequest } from './http/upload.js';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
@@ -115,15 +116,17 @@ export function createApp(config: Config, db: Database): RollwiseApp {
     res.setHeader('Cache-Control', 'no-store');
     next();
   });
+  // What will be refused is refused before the body is read (issue 12 §4): the content type, the token, the
+  // CSRF header, then who is signed in; only then is the body parsed, with its route's limit (http/body.ts).
   api.use(requireJsonBody);
-  api.use(express.json({ limit: config.bodyLimit }));
-  api.use(limitJsonDepth());
   api.use(bearerAuth(apiTokens));
   api.use(csrfProtection(config.publicUrl));
   api.use('/health', healthRouter(db.pool));
   // A token-authenticated request neither reads nor creates a session.
   api.use((req, res, next) => (req.tokenGrant ? next() : session.middleware(req, res, next)));
   api.use(absoluteTimeout(config.sessionAbsoluteMs));
+  api.use(jsonBody(config.bodyLimit));
+  api.use(refuseNulCharacters);
   api.use('/auth/tokens', apiTokensRouter(apiTokens, auth));
   api.use('/auth', authRouter(config, accounts, db.pool, auth));
   api.use('/teams/:teamId/vehicles/:vehicleId/axle-designs', vehicleAxleDesignsRouter(designs, auth));

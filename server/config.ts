@@ -52,7 +52,7 @@ export interface Config {
    * one address can cause and how fast it can probe which addresses exist).
    */
   addressLimit: { windowMs: number; max: number };
-  /** Largest accepted JSON body (express/body-parser size syntax). */
+  /** Largest JSON body of the routes that take a whole document (express/body-parser size syntax); other routes take less (server/http/body.ts). */
   bodyLimit: string;
   /** Milliseconds to wait for a database connection before answering 503. */
   dbConnectTimeoutMs: number;
@@ -140,7 +140,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
       // Test suites register hundreds of throwaway accounts from 127.0.0.1.
       max: int(env, 'ADDRESS_MAX_ATTEMPTS', test ? 100_000 : 50, 1),
     },
-    bodyLimit: env['BODY_LIMIT'] || '1mb',
+    bodyLimit: env['BODY_LIMIT'] || '256kb',
     dbConnectTimeoutMs: int(env, 'DB_CONNECT_TIMEOUT_MS', 3000, 100),
     // One core stays with the event loop so reads keep their latency while solves run.
     computeThreads: int(env, 'COMPUTE_THREADS', Math.max(1, availableParallelism() - 1), 1),

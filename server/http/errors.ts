@@ -89,6 +89,10 @@ export function toErrorBody(err: unknown): ErrorBody {
     return { status: o.status, code: 'bad_request', message: o.message };
   }
   if (pgCode(err) === '23505') return { status: 409, code: 'conflict', message: 'That conflicts with an existing record' };
+  // A character PostgreSQL cannot store (U+0000 in text or jsonb) that got past refuseNulCharacters (text.ts): the client's input.
+  if (pgCode(err) === '22021' || pgCode(err) === '22P05') {
+    return { status: 400, code: 'invalid_input', message: 'The request holds a character that cannot be stored (NUL, U+0000)' };
+  }
   return { status: 500, code: 'internal_error', message: 'Something went wrong on the server; it has been logged.' };
 }
 

@@ -7,6 +7,7 @@
 import type { Request, RequestHandler } from 'express';
 import multer from 'multer';
 import { HttpError } from './errors.js';
+import { nulError, nulPaths } from './text.js';
 
 export const UPLOAD_LIMIT_BYTES = 256 * 1024;
 
@@ -46,6 +47,9 @@ export function singleTextUpload(fieldName: string, extensions: readonly string[
       if (err) return next(err);
       const file = req.file;
       if (!file) return next(new HttpError(400, 'invalid_upload', `Attach the file in the field "${fieldName}"`));
+      // The text fields and the file's name are stored or parsed: no NUL characters (text.ts).
+      const nul = [...nulPaths(req.body ?? {}), ...(file.originalname.includes('\u0000') ? [fieldName] : [])];
+      if (nul.length) return next(nulError(nul, 'upload fields'));
       const type = file.mimetype.split(';')[0]!.trim().toLowerCase();
       if (!TEXT_TYPES.has(type) && !UNKNOWN_TYPES.has(type)) {
         return next(new HttpError(415, 'unsupported_media_type', `A ${type} file cannot be imported; send ${extensions.map((e) => `.${e}`).join(', ')} text`));
@@ -56,6 +60,23 @@ export function singleTextUpload(fieldName: string, extensions: readonly string[
       next();
     });
   };
+}
+
+/**
+ * A multipart text field that holds JSON (the column mapping, a CAD frame,
+ * a corner): parsed, 400 naming the field when it is not JSON or holds a
+ * NUL character in any of its texts.
+ */
+export function jsonUploadField(field: string, text: string): unknown {
+  let value: unknown;
+  try {
+    value = JSON.parse(text);
+  } catch {
+    throw new HttpError(400, 'invalid_input', `Invalid upload fields: ${field}: not valid JSON`, { fields: [{ path: field, message: 'not valid JSON' }] });
+  }
+  const nul = nulPaths(value, [field]);
+  if (nul.length) throw nulError(nul, 'upload fields');
+  return value;
 }
 
 /** The uploaded file as text, or 415 when it is not UTF-8 text. */

@@ -6,7 +6,7 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { HttpError, validate } from '../http/errors.js';
-import { singleTextUpload, uploadedText } from '../http/upload.js';
+import { jsonUploadField, singleTextUpload, uploadedText } from '../http/upload.js';
 import { cadFrameSchema } from '../../shared/io/cad-frame-schema.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
 import { AXLES } from '../db/schema.js';
@@ -34,19 +34,11 @@ const decisionSchema = z.strictObject({ message: revisionMessage });
  */
 const importFieldsSchema = z.strictObject({ frame: z.string().max(2000).optional(), corner: z.string().max(60_000).optional() });
 
-function jsonField(field: string, text: string): unknown {
-  try {
-    return JSON.parse(text);
-  } catch {
-    throw new HttpError(400, 'invalid_input', `Invalid upload fields: ${field}: not valid JSON`, { fields: [{ path: field, message: 'not valid JSON' }] });
-  }
-}
-
 function importFields(body: unknown) {
   const fields = validate(importFieldsSchema, body ?? {}, 'upload fields');
   return {
-    frame: fields.frame === undefined ? undefined : validate(cadFrameSchema, jsonField('frame', fields.frame), 'frame'),
-    corner: fields.corner === undefined ? undefined : parseCorner(jsonField('corner', fields.corner)),
+    frame: fields.frame === undefined ? undefined : validate(cadFrameSchema, jsonUploadField('frame', fields.frame), 'frame'),
+    corner: fields.corner === undefined ? undefined : parseCorner(jsonUploadField('corner', fields.corner)),
   };
 }
 

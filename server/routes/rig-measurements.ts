@@ -10,10 +10,12 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { HttpError, validate } from '../http/errors.js';
-import { singleTextUpload, uploadedText } from '../http/upload.js';
+import { jsonUploadField, singleTextUpload, uploadedText } from '../http/upload.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
 import { AXLES } from '../db/schema.js';
 import { rigMappingSchema } from '../../shared/io/rig-mapping-schema.js';
+import { INTENT_RANGES } from '../../shared/schema/ranges.js';
+import { inRange } from '../../shared/schema/ranged.js';
 import { RIG_BASES, rigToleranceSchema } from '../../shared/intent/rig-compare.js';
 import type { RigMeasurements } from '../services/rig-measurements.js';
 import { idParam } from './vehicles.js';
@@ -30,7 +32,7 @@ const optionsSchema = z.strictObject({
   name: z.string().trim().max(120).optional(),
   note: z.string().trim().max(1000).optional(),
   side: z.enum(['left', 'right']).default('left'),
-  rackMm: z.number().finite().default(0),
+  rackMm: inRange(z.number().finite(), INTENT_RANGES.rackPositionMm, 'rackMm').default(0),
   basis: z.enum(RIG_BASES).default('change'),
 });
 
@@ -42,14 +44,6 @@ const createFieldsSchema = z.strictObject({
 });
 
 const listQuery = z.strictObject({ configurationId: uuid.optional(), designId: uuid.optional() });
-
-function jsonField(field: string, text: string): unknown {
-  try {
-    return JSON.parse(text);
-  } catch {
-    throw new HttpError(400, 'invalid_input', `Invalid upload fields: ${field}: not valid JSON`, { fields: [{ path: field, message: 'not valid JSON' }] });
-  }
-}
 
 const RIG_EXTENSIONS = ['csv', 'txt', 'tsv'];
 
@@ -65,9 +59,9 @@ export function rigMeasurementsRouter(rig: RigMeasurements, auth: Authorizer): R
 
   r.post('/rig-measurements', requirePermission('vehicle:manage'), singleTextUpload('file', RIG_EXTENSIONS), async (req, res) => {
     const fields = validate(createFieldsSchema, req.body ?? {}, 'upload fields');
-    const mapping = validate(rigMappingSchema, jsonField('mapping', fields.mapping), 'mapping');
-    const target = validate(targetSchema, jsonField('target', fields.target), 'target');
-    const options = validate(optionsSchema, fields.options === undefined ? {} : jsonField('options', fields.options), 'options');
+    const mapping = validate(rigMappingSchema, jsonUploadField('mapping', fields.mapping), 'mapping');
+    const target = validate(targetSchema, jsonUploadField('target', fields.target), 'target');
+    const options = validate(optionsSchema, fields.options === undefined ? {} : jsonUploadField('options', fields.options), 'options');
     const file = uploadedText(req);
     res.status(201).json(await rig.create(currentAccess(req).teamId, currentUser(req).id, file, mapping, target, options));
   });

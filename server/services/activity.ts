@@ -4,7 +4,7 @@
  * as timestamptz (UTC) and sent as ISO 8601 UTC; the CSV can add a column in
  * the reader's time zone.
  */
-import Papa from 'papaparse';
+import { toCsv } from '../../shared/io/csv.js';
 import { and, desc, eq, lt, sql } from 'drizzle-orm';
 import type { Executor, Orm } from '../db/client.js';
 import { activityLog, users } from '../db/schema.js';
@@ -46,10 +46,6 @@ export interface ActivityQuery {
   limit: number;
 }
 
-/** A cell a spreadsheet would run as a formula (=, +, -, @, tab, CR first) gets a leading apostrophe; numbers are never touched. */
-export function toCsv(header: string[], rows: (string | number | null)[][]): string {
-  return Papa.unparse({ fields: header, data: rows }, { escapeFormulae: true, newline: '\r\n' });
-}
 
 export function checkTimeZone(tz: string): string {
   try {

@@ -12,7 +12,7 @@ import { HttpError, notFound } from '../http/errors.js';
 import type { TrackProfileId } from '../../shared/intent/profiles.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import type { Configurations, ConfigurationResults } from './configurations.js';
-import { toCsv } from './activity.js';
+import { toCsv } from '../../shared/io/csv.js';
 
 export interface KeyFigures {
   /** ε per axle, deg/deg (as used by the balance model). */

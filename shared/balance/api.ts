@@ -9,6 +9,8 @@
 import * as z from 'zod';
 import { parseOrThrow, SolveError } from '../errors.js';
 import { cornerDocumentSchema } from '../schema/corner.js';
+import { VEHICLE_RANGES } from '../schema/ranges.js';
+import { inRange } from '../schema/ranged.js';
 import { upgradeVehicleDocument, vehicleSchema, type Vehicle } from '../schema/vehicle.js';
 import { compareBalance, type BalanceComparison } from './compare.js';
 import { evaluateBalance, type BalanceOptions, type BalanceResult } from './index.js';
@@ -19,14 +21,16 @@ export { linkVehicle, rollSteerTermDegPerG, type AxleLink, type AxleOverrides, t
 const finite = z.number().finite();
 
 /** Entered values that win over both the kinematics and the vehicle's own fields. */
+// Held to the vehicle document's plausible ranges (shared/schema/ranges.ts, docs/inputs.md).
+const overrideNumber = (key: string) => inRange(z.number().finite(), VEHICLE_RANGES[key]!, key);
 export const axleOverridesSchema = z.strictObject({
-  rollSteerCoefficient: finite.optional(),
-  rollCamberDegPerDeg: finite.optional(),
-  rollCentreHeightMm: finite.optional(),
-  springMotionRatio: finite.positive().optional(),
-  barMotionRatio: finite.positive().optional(),
-  barTwistRadPerM: finite.positive().optional(),
-  mechanicalTrailMm: finite.optional(),
+  rollSteerCoefficient: overrideNumber('rollSteerCoefficient').optional(),
+  rollCamberDegPerDeg: overrideNumber('rollCamberDegPerDeg').optional(),
+  rollCentreHeightMm: overrideNumber('rollCentreHeightMm').optional(),
+  springMotionRatio: overrideNumber('spring.motionRatio').optional(),
+  barMotionRatio: overrideNumber('antiRollBar.linkMotionRatio').optional(),
+  barTwistRadPerM: overrideNumber('antiRollBar.twistRadPerM').optional(),
+  mechanicalTrailMm: overrideNumber('mechanicalTrailMm').optional(),
 });
 
 const vehicleDocument = z.preprocess(upgradeVehicleDocument, vehicleSchema);

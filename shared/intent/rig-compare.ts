@@ -15,6 +15,8 @@
 import * as z from 'zod';
 import { InputError, SolveError, parseOrThrow } from '../errors.js';
 import { cornerDocumentSchema, type Corner } from '../schema/corner.js';
+import { INTENT_RANGES } from '../schema/ranges.js';
+import { inRange } from '../schema/ranged.js';
 import { compileCorner, type Side } from '../kinematics/model.js';
 import { CornerSolver } from '../kinematics/solver.js';
 import { poseRow } from '../kinematics/pose.js';
@@ -270,7 +272,7 @@ export const rigCompareRequestSchema = z.strictObject({
     )
     .min(RIG_LIMITS.minRows)
     .max(RIG_LIMITS.maxRows),
-  rackMm: finite.optional(),
+  rackMm: inRange(z.number().finite(), INTENT_RANGES.rackPositionMm, 'rackMm').optional(),
   side: z.enum(['left', 'right']).optional(),
   basis: z.enum(RIG_BASES).optional(),
   tolerance: rigToleranceSchema.optional(),

@@ -1,4 +1,5 @@
 import Papa from 'papaparse';
+import { toCsv } from './csv.js';
 import type { Corner, Vec3 } from '../schema/corner.js';
 import { getPoint, hardpointRows, pointName, withPoints } from './hardpoint-points.js';
 import { frameProblems, isRightHanded, mapCadPoints, type CadFrame, IDENTITY_FRAME } from './cad-frame.js';
@@ -46,7 +47,9 @@ function stripBom(text: string): string {
 
 /** Rows of cells with their 1-based line numbers; comment (#) and blank lines dropped. */
 function tableRows(text: string): { line: number; cells: string[] }[] {
-  const clean = stripBom(text);
+  // Comment lines are blanked before parsing (keeping the line count for messages): a title with quotes in it
+  // would otherwise open a quoted field that swallows the header.
+  const clean = stripBom(text).replace(/^[ \t]*#.*$/gm, '');
   const parsed = Papa.parse<string[]>(clean, { delimiter: detectDelimiter(clean), skipEmptyLines: false });
   return parsed.data
     .map((cells, i) => ({ line: i + 1, cells: cells.map((c) => c.trim()) }))
@@ -172,13 +175,11 @@ export function readHardpointFile(name: string, text: string, corner: Corner): H
 
 /** CSV export: convention lines, then one row per point with its plain name. */
 export function hardpointCsv(corner: Corner, title: string): string {
-  const esc = (s: string) => (/[",\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
-  const lines = [
-    ...[title, ...EXPORT_CONVENTION].map((l) => `# ${l}`),
-    'point,name,x (mm),y (mm),z (mm)',
-    ...hardpointRows(corner).map((r) => [r.key, esc(r.name), ...r.value.map(String)].join(',')),
-  ];
-  return lines.join('\r\n') + '\r\n';
+  return toCsv(
+    ['point', 'name', 'x (mm)', 'y (mm)', 'z (mm)'],
+    hardpointRows(corner).map((r) => [r.key, r.name, ...r.value]),
+    [title, ...EXPORT_CONVENTION],
+  );
 }
 
 /** JSON export: the corner document with its units and sign convention stated beside it. */

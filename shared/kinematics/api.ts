@@ -6,6 +6,8 @@
 import * as z from 'zod';
 import { InputError, SolveError, parseOrThrow } from '../errors.js';
 import { cornerDocumentSchema, upgradeCornerDocument } from '../schema/corner.js';
+import { INTENT_RANGES, VEHICLE_RANGES } from '../schema/ranges.js';
+import { inRange } from '../schema/ranged.js';
 import { sweepCorner, expandRange } from './sweep.js';
 import { axleKinematics, rollSweep, rightCornerToLeftFrame } from './axle.js';
 
@@ -15,9 +17,14 @@ export const MAX_POSES_PER_REQUEST = 20_000;
 export const MAX_RACK_POSITIONS = 25;
 
 const finite = z.number().finite();
-const rangeSchema = z.strictObject({ from: finite, to: finite, step: finite });
+// Travel, roll and rack positions are held to their plausible ranges (shared/schema/ranges.ts, docs/inputs.md).
+const travel = inRange(z.number().finite(), INTENT_RANGES.travelMm);
+const rangeSchema = z.strictObject({ from: travel, to: travel, step: finite });
+const roll = inRange(z.number().finite(), INTENT_RANGES.rollDeg);
+const rollRangeSchema = z.strictObject({ from: roll, to: roll, step: finite });
 const cornerField = cornerDocumentSchema;
-const rackList = z.array(finite).min(1).max(MAX_RACK_POSITIONS).optional();
+const rackList = z.array(inRange(z.number().finite(), INTENT_RANGES.rackPositionMm)).min(1).max(MAX_RACK_POSITIONS).optional();
+const vehicleNumber = (key: string) => inRange(z.number().finite().positive(), VEHICLE_RANGES[key]!, key);
 
 export const cornerSweepRequestSchema = z.strictObject({
   corner: cornerField,
@@ -26,7 +33,7 @@ export const cornerSweepRequestSchema = z.strictObject({
   /** Rack positions, mm (default [0]). */
   rackMm: rackList,
   /** Travel window of the fits, mm. */
-  fitRange: z.strictObject({ fromMm: finite, toMm: finite }).optional(),
+  fitRange: z.strictObject({ fromMm: travel, toMm: travel }).optional(),
 });
 export type CornerSweepRequest = z.infer<typeof cornerSweepRequestSchema>;
 
@@ -35,22 +42,22 @@ export const axleRollRequestSchema = z.strictObject({
   /** Explicit RIGHT corner in vehicle coordinates (y < 0); default: the mirror of `corner`. */
   rightCorner: z.unknown().optional(),
   /** Body roll range, deg (positive = right side down). */
-  roll: rangeSchema,
+  roll: rollRangeSchema,
   rackMm: rackList,
   /** Wheelbase, mm: enables Ackermann percentages. */
-  wheelbaseMm: finite.positive().optional(),
+  wheelbaseMm: vehicleNumber('wheelbaseMm').optional(),
   /** Anti-dive / anti-squat inputs. */
   anti: z
     .strictObject({
       axle: z.enum(['front', 'rear']),
-      cgHeightMm: finite.positive(),
-      wheelbaseMm: finite.positive(),
+      cgHeightMm: vehicleNumber('cgHeightMm'),
+      wheelbaseMm: vehicleNumber('wheelbaseMm'),
       brakeFrontFraction: finite.min(0).max(1).optional(),
       driveFrontFraction: finite.min(0).max(1).optional(),
     })
     .optional(),
   /** Rack travel per handwheel revolution, mm: enables the overall steering ratio. */
-  rackMmPerHandwheelRev: finite.positive().optional(),
+  rackMmPerHandwheelRev: inRange(z.number().finite(), INTENT_RANGES.rackMmPerHandwheelRev, 'rackMmPerHandwheelRev').optional(),
 });
 export type AxleRollRequest = z.infer<typeof axleRollRequestSchema>;
 

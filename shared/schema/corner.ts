@@ -13,6 +13,9 @@
 import * as z from 'zod';
 import type { FieldIssue } from '../errors.js';
 import { InputError, formatPath } from '../errors.js';
+import { CORNER_RANGES } from './ranges.js';
+import { cornerRangeIssues } from './corner-ranges.js';
+import { inRange } from './ranged.js';
 
 export const CORNER_FORMAT_VERSION = 1;
 
@@ -56,7 +59,14 @@ function strictObject<T extends z.ZodRawShape>(shape: T) {
 }
 
 const finite = z.number().finite();
-export const vec3Schema = z.tuple([finite, finite, finite]);
+// Coordinates and the other corner numbers are held to their plausible ranges (shared/schema/ranges.ts, docs/inputs.md).
+const coordinate = inRange(z.number().finite(), CORNER_RANGES.coordinateMm);
+export const vec3Schema = z.tuple([coordinate, coordinate, coordinate]);
+const directionComponent = inRange(z.number().finite(), CORNER_RANGES.directionComponent);
+/** A direction: only where it points counts (normalised on use). */
+const directionSchema = z.tuple([directionComponent, directionComponent, directionComponent]);
+const rackStrokeEnd = inRange(finite, CORNER_RANGES.rackStrokeMm);
+const armStrokeEnd = inRange(finite, CORNER_RANGES.armStrokeDeg);
 
 /** Body-mounted lever or rocker attachments say what they ride on. */
 export const attachmentSchema = z.enum(['lowerArm', 'upperArm', 'upright']);
@@ -65,9 +75,9 @@ export type Attachment = z.infer<typeof attachmentSchema>;
 const rackSteeringSchema = strictObject({
   kind: z.literal('rack'),
   /** Direction of rack travel in the vehicle frame (normalised on use). */
-  rackAxis: vec3Schema.default([0, 1, 0]),
+  rackAxis: directionSchema.default([0, 1, 0]),
   /** Rack travel limits [min, max] in mm; must contain 0. */
-  rackStroke: z.tuple([finite, finite]),
+  rackStroke: z.tuple([rackStrokeEnd, rackStrokeEnd]),
 });
 
 /**
@@ -79,9 +89,9 @@ const rackSteeringSchema = strictObject({
 const armSteeringSchema = strictObject({
   kind: z.literal('arm'),
   armAxisPoint: vec3Schema,
-  armAxisDirection: vec3Schema,
+  armAxisDirection: directionSchema,
   /** Arm rotation limits [min, max] in degrees; must contain 0. */
-  angularStrokeDeg: z.tuple([finite, finite]),
+  angularStrokeDeg: z.tuple([armStrokeEnd, armStrokeEnd]),
 });
 
 export const steeringSchema = z.discriminatedUnion('kind', [rackSteeringSchema, armSteeringSchema]);
@@ -98,7 +108,7 @@ const directSpringSchema = strictObject({
 const rockerSpringSchema = strictObject({
   kind: z.literal('rocker'),
   rockerPivot: vec3Schema,
-  rockerAxis: vec3Schema,
+  rockerAxis: directionSchema,
   rodOuter: vec3Schema,
   rodOuterOn: attachmentSchema,
   rodRocker: vec3Schema,
@@ -116,13 +126,16 @@ export const antiRollBarSchema = strictObject({
   /** The drop link's inner end, on the end of the bar's lever. */
   dropLinkInner: vec3Schema,
   barAxisPoint: vec3Schema,
-  barAxisDirection: vec3Schema,
+  barAxisDirection: directionSchema,
 });
 export type AntiRollBar = z.infer<typeof antiRollBarSchema>;
 
 const wheelSchema = strictObject({
   /** Loaded radius, mm. */
-  radius: finite.refine((r) => r > 0, { message: 'wheel.radius must be positive (loaded radius in mm)' }),
+  radius: inRange(
+    finite.refine((r) => r > 0, { message: 'wheel.radius must be positive (loaded radius in mm)' }),
+    CORNER_RANGES.wheelRadiusMm,
+  ),
 });
 
 const common = {
@@ -424,5 +437,7 @@ export function cornerSemanticIssues(corner: z.infer<typeof cornerShapeSchema>):
       add('antiRollBar.dropLinkInner', `antiRollBar.dropLinkInner ${fmt(bar.dropLinkInner)} lies on the bar axis: the bar has no lever`);
     }
   }
+  // Plausible sizes: a kingpin metres long, a point far from its wheel (shared/schema/corner-ranges.ts).
+  issues.push(...cornerRangeIssues(corner));
   return issues;
 }

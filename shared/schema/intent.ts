@@ -10,6 +10,8 @@ import { armStrokeMm, innerName, MOVABLE_COORDINATE_PATTERN } from './steering-l
 import { upgradeVehicleDocument, vehicleSchema } from './vehicle.js';
 import { TRACK_PROFILE_IDS, trackProfiles } from '../intent/profiles.js';
 import { CAUTION_RULES } from '../intent/cautions.js';
+import { CORNER_RANGES, INTENT_RANGES, type InputRange } from './ranges.js';
+import { inRange } from './ranged.js';
 
 // The steering-link helpers and the movable-coordinate pattern live in a
 // zod-free module (the browser's kinematics worker uses them without the
@@ -21,6 +23,8 @@ export const INTENT_FORMAT_VERSION = 1 as const;
 export const MAX_SWEEP_POINTS_PER_SOLVE = 201;
 
 const finite = (what: string) => z.number({ error: `${what} must be a number` }).finite();
+/** A finite number held to its plausible range (shared/schema/ranges.ts, docs/inputs.md). */
+const ranged = (what: string, range: InputRange, base = finite(what)) => inRange(base, range, what);
 const coordinateSchema = z.string().regex(MOVABLE_COORDINATE_PATTERN, {
   message: 'expected tieRodInner.z, tieRodInner.y, tieRodOuter.z, tieRodOuter.x, rack.z (any of x, y, z) or link<k>Inner/Outer.<axis> for a five-link toe link',
 });
@@ -39,35 +43,35 @@ export const trackProfileChoiceSchema = z.union([
   z.strictObject({
     id: z.enum(TRACK_PROFILE_IDS),
     /** Travel range of the sweeps [droop, bump], mm; must contain 0. */
-    travelMm: z.tuple([finite('travelMm[0]'), finite('travelMm[1]')]).optional(),
+    travelMm: z.tuple([ranged('travelMm[0]', INTENT_RANGES.travelMm), ranged('travelMm[1]', INTENT_RANGES.travelMm)]).optional(),
     /** Single-wheel bump height of the bump cautions, mm. */
-    bumpHeightMm: finite('bumpHeightMm').positive().max(1000).optional(),
+    bumpHeightMm: ranged('bumpHeightMm', INTENT_RANGES.bumpHeightMm).optional(),
   }),
 ]);
 
 const levelThresholdsSchema = z.strictObject({
-  info: finite('info').optional(),
-  warning: finite('warning').optional(),
-  critical: finite('critical').optional(),
+  info: ranged('info', INTENT_RANGES.cautionThreshold).optional(),
+  warning: ranged('warning', INTENT_RANGES.cautionThreshold).optional(),
+  critical: ranged('critical', INTENT_RANGES.cautionThreshold).optional(),
 });
 
 export const intentOptionsSchema = z.strictObject({
   /** Rack positions (mm) of the worst-toe report and bump cautions; default: stroke min, 0, stroke max. */
-  rackPositionsMm: z.array(finite('rackPositionsMm[]')).min(1).max(9).optional(),
+  rackPositionsMm: z.array(ranged('rackPositionsMm[]', INTENT_RANGES.rackPositionMm)).min(1).max(9).optional(),
   /** Travel step of the objective and verification sweeps, mm (default: range / 20). */
-  travelStepMm: finite('travelStepMm').positive().optional(),
+  travelStepMm: ranged('travelStepMm', INTENT_RANGES.travelStepMm).optional(),
   /** Optional bound on the worst toe deviation from its linear fit at any rack position, deg. */
-  worstToeBoundDeg: finite('worstToeBoundDeg').positive().optional(),
+  worstToeBoundDeg: ranged('worstToeBoundDeg', INTENT_RANGES.worstToeBoundDeg).optional(),
   /** Members of the returned solution family (default 21). */
   familySize: z.number().int().min(3).max(101).default(21),
   /** Shim thickness for the shim stacks at each end, mm. */
-  shimThicknessMm: finite('shimThicknessMm').positive().default(1),
+  shimThicknessMm: ranged('shimThicknessMm', INTENT_RANGES.shimThicknessMm).default(1),
   /** Thread pitch of the tie-rod adjuster, mm per turn. */
-  threadPitchMm: finite('threadPitchMm').positive().default(1.5),
+  threadPitchMm: ranged('threadPitchMm', INTENT_RANGES.threadPitchMm).default(1.5),
   /** `single-thread`: one turn = one pitch; `turnbuckle` (left- and right-hand threads): one turn = two pitches. */
   adjuster: z.enum(['single-thread', 'turnbuckle']).default('single-thread'),
   /** Roll angle (deg) at which the curvature caution compares roll steer; default from the vehicle at 1 g, else 2°. */
-  referenceRollDeg: finite('referenceRollDeg').positive().max(15).optional(),
+  referenceRollDeg: ranged('referenceRollDeg', INTENT_RANGES.referenceRollDeg).optional(),
 });
 
 /** Smallest travel range a solve fits toe over (mm); below it the fit's curvature is numerical noise. */
@@ -81,7 +85,7 @@ export const intentSchema = z
     axle: z.enum(['front', 'rear'], { error: 'axle must be "front" or "rear"' }),
     target: intentTargetSchema,
     movable: z.array(coordinateSchema).min(1, 'movable must name at least one coordinate').max(5),
-    bounds: z.record(z.string(), z.tuple([finite('min'), finite('max')])),
+    bounds: z.record(z.string(), z.tuple([ranged('min', CORNER_RANGES.coordinateMm), ranged('max', CORNER_RANGES.coordinateMm)])),
     trackProfile: trackProfileChoiceSchema,
     vehicle: z.preprocess(upgradeVehicleDocument, vehicleSchema).optional(),
     options: intentOptionsSchema.default(() => intentOptionsSchema.parse({})),

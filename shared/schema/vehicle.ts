@@ -5,12 +5,16 @@
  * Every field is documented with its unit in docs/balance.md.
  */
 import * as z from 'zod';
+import { GENERIC_RANGE, VEHICLE_RANGES } from './ranges.js';
+import { inRange } from './ranged.js';
 
 export const VEHICLE_FORMAT_VERSION = 1 as const;
 
-const positive = (what: string) => z.number({ error: `${what} must be a number` }).finite().positive(`${what} must be > 0`);
-const nonNegative = (what: string) => z.number({ error: `${what} must be a number` }).finite().min(0, `${what} must be ≥ 0`);
-const finite = (what: string) => z.number({ error: `${what} must be a number` }).finite();
+// Every number is also held to its plausible range (shared/schema/ranges.ts, by the key `what`; docs/inputs.md).
+const ranged = (what: string, base: z.ZodNumber) => inRange(base, VEHICLE_RANGES[what] ?? GENERIC_RANGE, what);
+const positive = (what: string) => ranged(what, z.number({ error: `${what} must be a number` }).finite().positive(`${what} must be > 0`));
+const nonNegative = (what: string) => ranged(what, z.number({ error: `${what} must be a number` }).finite().min(0, `${what} must be ≥ 0`));
+const finite = (what: string) => ranged(what, z.number({ error: `${what} must be a number` }).finite());
 
 /** Cα(Fz) = a·Fz − b·Fz² per tyre; Cα in N/deg, Fz in N (a in 1/deg, b in 1/(deg·N)). */
 export const loadSensitivitySchema = z.strictObject({

@@ -14,6 +14,9 @@
  *   readDuringCompute  the read mix (10 connections) while the compute scenario runs beside it, 10 s
  *   readPacedDuringCompute  the same at a steady 200 reads/s (a wait caused by solves, not by reads saturating the cores)
  *   mixed            50 connections, 30 s: 8 reads to 1 sweep, one session
+ *   healthIdle / healthDuringFlood  GET /api/health at a steady 50/s, alone and while 8 anonymous clients
+ *                    POST 1 MB JSON bodies to a members' route as fast as they can (issue 12 §4: the body of a
+ *                    request that will be refused is never parsed, so health should stay near its idle latency)
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
@@ -64,7 +67,7 @@ function print(name: string, f: Figures): void {
   );
 }
 
-/** One bounded autocannon run; a watchdog stops it if it overruns its duration. */
+/** One bounded autocannon run; a watchdog stops it if it overruns its duration. An empty cookie: an anonymous client. */
 async function cannon(url: string, cookie: string, o: { connections: number; seconds: number; requests: Request[]; overallRate?: number }): Promise<Result> {
   const instance = autocannon({
     url,
@@ -73,7 +76,7 @@ async function cannon(url: string, cookie: string, o: { connections: number; sec
     duration: o.seconds,
     maxOverallRequests: MAX_REQUESTS,
     timeout: 10,
-    headers: { cookie, 'x-rollwise-request': '1', 'content-type': 'application/json' },
+    headers: { ...(cookie ? { cookie } : {}), 'x-rollwise-request': '1', 'content-type': 'application/json' },
     requests: o.requests,
   });
   const watchdog = setTimeout(() => instance.stop(), (o.seconds + 15) * 1000);
@@ -198,6 +201,21 @@ async function main(): Promise<void> {
     const mixed = figures(await cannon(base, cookie, { connections: 50, seconds: MIXED_S, requests: [...reads, ...reads, sweep] }));
     print('mixed (50 conn.)', mixed);
 
+    // Anonymous 1 MB bodies against a members' route (answered 401 unread) beside steady health checks.
+    const health: Request[] = [{ method: 'GET', path: '/api/health' }];
+    const megabyte = JSON.stringify({ name: 'flood', data: Array.from({ length: 500_000 }, (_, i) => i % 10) });
+    const flood: Request[] = [{ method: 'POST', path: `/api/teams/${team.id}/vehicles`, body: megabyte }];
+    const healthIdle = figures(await cannon(base, '', { connections: 2, seconds: SHORT_S, requests: health, overallRate: 50 }));
+    print('health idle', healthIdle);
+    const [healthBeside, floodBeside] = await Promise.all([
+      cannon(base, '', { connections: 2, seconds: SHORT_S, requests: health, overallRate: 50 }),
+      cannon(base, '', { connections: 8, seconds: SHORT_S, requests: flood }),
+    ]);
+    const healthDuringFlood = figures(healthBeside);
+    const floodFigures = figures(floodBeside);
+    print('health during flood', healthDuringFlood);
+    console.log(`${'1 MB anonymous flood'.padEnd(20)} ${String(floodFigures.rps).padStart(8)} req/s of ${(megabyte.length / 1e6).toFixed(2)} MB, ${floodFigures.requests} requests (${floodFigures.non2xx} answered 401 as they should, ${floodFigures.errors - floodFigures.non2xx} connection errors)`);
+
     const out: Record<string, number> = {};
     const put = (prefix: string, f: Figures) => {
       for (const [k, v] of Object.entries(f)) out[`${prefix}.${k}`] = v;
@@ -208,6 +226,9 @@ async function main(): Promise<void> {
     put('load.computeDuringRead', computeDuringRead);
     put('load.readPacedDuringCompute', readPacedDuringCompute);
     put('load.mixed', mixed);
+    put('load.healthIdle', healthIdle);
+    put('load.healthDuringFlood', healthDuringFlood);
+    put('load.anonymousFlood', floodFigures);
     out['load.machine.cores'] = cpus().length;
     out['load.machine.loadAvgBefore'] = Math.round(loadBefore * 10) / 10;
     out['load.machine.loadAvgAfter'] = Math.round(loadavg()[0]! * 10) / 10;
@@ -222,6 +243,7 @@ async function main(): Promise<void> {
     console.log(`  mixed p99 ≤ 200 ms                   ${check(mixed.p99Ms <= 200)} (${mixed.p99Ms} ms)`);
     console.log(`  read p99 ≤ 50 ms while compute runs  ${check(readDuringCompute.p99Ms <= 50)} (${readDuringCompute.p99Ms} ms; reads as fast as they go)`);
     console.log(`    at a steady ${READ_PACED_RPS} reads/s beside the same compute: p99 ${readPacedDuringCompute.p99Ms} ms (${check(readPacedDuringCompute.p99Ms <= 50)})`);
+    console.log(`  health p99 under a 1 MB anonymous flood  ${healthDuringFlood.p99Ms} ms vs ${healthIdle.p99Ms} ms idle (p50 ${healthDuringFlood.p50Ms} vs ${healthIdle.p50Ms} ms)`);
     console.log(`  (1-minute load average ${loadBefore.toFixed(1)} before, ${loadavg()[0]!.toFixed(1)} after, on ${cpus().length} cores)`);
     console.log(`\nwrote test-results/load.json (${Object.keys(out).length} figures) in ${Math.round((Date.now() - started) / 1000)} s`);
   } finally {

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import { exampleVehicles } from '../../shared/balance/examples.js';
-import { toCsv } from '../../server/services/activity.js';
+import { toCsv } from '../../shared/io/csv.js';
 import { addMember, agent, expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;

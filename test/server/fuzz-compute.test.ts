@@ -43,7 +43,7 @@ const MAX_VALID_SOLVES = 12;
 
 /*
  * Deep nesting: the API refuses bodies nested deeper than 64 levels with a 400
- * (server/http/json-depth.ts); before that, ~3000 levels overflowed the stack
+ * (server/http/body.ts, on the raw bytes before parsing); before that, ~3000 levels overflowed the stack
  * when the task was cloned to a worker (500). The mix stays at ≤ 2000 levels
  * because this file's own recursive JSON writer would overflow beyond that;
  * 5000 levels are tested directly in http.test.ts and below.

@@ -1,23 +1,9 @@
-/** CSV text of a table (RFC 4180 quoting), and a browser download of it. */
-
-function csvCell(value: string | number): string {
-  const text = typeof value === 'number' ? (Number.isFinite(value) ? String(value) : '') : value;
-  return /[",\n\r]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
-}
-
-/** Lines starting with `#` carry context (units, sign convention) before the header row. */
-export function toCsv(
-  header: readonly string[],
-  rows: readonly (readonly (string | number)[])[],
-  commentLines: readonly string[] = [],
-): string {
-  const lines = [
-    ...commentLines.map((c) => `# ${c}`),
-    header.map(csvCell).join(','),
-    ...rows.map((r) => r.map(csvCell).join(',')),
-  ];
-  return lines.join('\r\n') + '\r\n';
-}
+/**
+ * CSV downloads in the browser. The CSV text itself comes from the one shared
+ * writer (shared/io/csv.ts: RFC 4180 quoting, spreadsheet formulas escaped),
+ * the same the server's exports use.
+ */
+export { toCsv } from '../../../shared/io/csv';
 
 /** File name from a title: lower case, words joined by hyphens. */
 export function fileNameFor(title: string, extension: string): string {

@@ -29,6 +29,18 @@ describe('HardpointTable', () => {
     expect(Number(z.value)).toBe(inner[2]);
   });
 
+  it('notes a possible but unusual point beside its row, without refusing it', () => {
+    expect(setUp(true).el.querySelector('.rw-unusual')).toBeNull();
+    const corner = structuredClone(exampleCorners.fsFrontWishbone);
+    if (corner.type !== 'double-wishbone') throw new Error('example changed');
+    const lo = corner.points.lowerOuter;
+    // A kingpin of 800 mm (typical 120–600 mm, shared/schema/ranges.ts; common practice, from memory).
+    corner.points.upperOuter = [lo[0], lo[1], lo[2] + 800];
+    const { el } = setUp(true, corner);
+    const row = el.querySelector('tr[data-key="points.upperOuter"]')!;
+    expect(row.querySelector('.rw-unusual')!.textContent!.trim()).toBe('Unusual: 800 mm is unusual for a kingpin length (typical 120–600 mm)');
+  });
+
   it('commits an edit on change, with a decimal comma accepted', () => {
     const { el, edits } = setUp(true);
     const z = el.querySelector<HTMLInputElement>('#hp-points-tieRodInner-z')!;

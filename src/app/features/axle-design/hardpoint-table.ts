@@ -3,6 +3,7 @@ import type { Corner, Vec3 } from '../../../../shared/schema/corner';
 import { formatNumber } from '../../charts/chart-types';
 import { hardpointRows, HardpointRow, linkRows } from './hardpoint-model';
 import { parseDecimal, readPastedBlock } from './hardpoint-io';
+import { cornerUnusualValues } from '../../../../shared/schema/corner-ranges';
 
 export interface PointEdit {
   readonly key: string;
@@ -37,6 +38,15 @@ export class HardpointTable {
   protected readonly rows = computed(() => hardpointRows(this.corner()));
   protected readonly links = computed(() => linkRows(this.corner()));
   protected readonly changedSet = computed(() => new Set(this.changed()));
+  /** Possible but unusual values (shared/schema/ranges.ts), by row key: shown beside the point, never refused. */
+  protected readonly unusual = computed(() => {
+    const byRow = new Map<string, string[]>();
+    for (const w of cornerUnusualValues(this.corner())) {
+      const key = w.path.replace(/\[\d\]$/, '');
+      byRow.set(key, [...(byRow.get(key) ?? []), w.message]);
+    }
+    return byRow;
+  });
   /** Cells holding text that is not a number: `key:axis` → message. */
   protected readonly invalid = signal<ReadonlyMap<string, string>>(new Map());
   protected readonly pasteMessage = signal<string | null>(null);

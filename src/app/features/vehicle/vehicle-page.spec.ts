@@ -94,7 +94,7 @@ describe('VehiclePage', () => {
   it('names a bad entry and saves nothing', async () => {
     const { harness, root } = await open(['team:read', 'vehicle:edit']);
     const cg = field(root, 'CG behind the front axle');
-    cg.value = '99999';
+    cg.value = '9999';
     cg.dispatchEvent(new Event('input'));
     const mass = field(root, 'Total mass');
     mass.value = 'heavy';
@@ -111,6 +111,25 @@ describe('VehiclePage', () => {
     // The schema's own rule (CG ahead of the rear axle) is shown beside its field.
     expect(root.textContent).toContain('must be less than wheelbaseMm');
     backend.expectNone('/api/teams/t-tal/vehicles/v-ember/data');
+  });
+
+  it('shows an unusual entry beside its field in plain words, and still saves it', async () => {
+    const { harness, root } = await open(['team:read', 'vehicle:edit']);
+    const hintOf = (label: string) =>
+      [...root.querySelectorAll('mat-form-field')].find((f) => f.querySelector('mat-label')?.textContent?.trim() === label)!.querySelector('.rw-unusual')?.textContent?.trim();
+    expect(hintOf('Total mass')).toBeUndefined();
+    const mass = field(root, 'Total mass');
+    mass.value = '5000';
+    mass.dispatchEvent(new Event('input'));
+    harness.detectChanges();
+    // Typical band from shared/schema/ranges.ts (common practice, from memory).
+    expect(hintOf('Total mass')).toBe('Unusual: 5000 kg is unusual for a vehicle mass (typical 150–3500 kg)');
+    (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
+    const req = backend.expectOne('/api/teams/t-tal/vehicles/v-ember/data');
+    expect(req.request.body.data.massKg).toBe(5000);
+    req.flush(record(5, req.request.body.data));
+    await settle();
+    backend.expectOne('/api/teams/t-tal/vehicles/v-ember/revisions').flush([]);
   });
 
   it('gives a viewer the values read only', async () => {

@@ -9,6 +9,7 @@ import { MatCheckbox } from '@angular/material/checkbox';
 import { MatButtonToggle, MatButtonToggleGroup } from '@angular/material/button-toggle';
 import { firstValueFrom } from 'rxjs';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
+import { unusualValue, vehicleRangeFor } from '../../../../shared/schema/ranges';
 import { AuthService } from '../../core/auth/auth-service';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
@@ -236,6 +237,19 @@ export class VehiclePage implements OnInit {
       if (v !== null) out.set(field.path, this.toStored(field, v));
     }
     return out;
+  }
+
+  /**
+   * A possible but unusual entry (shared/schema/ranges.ts), in the user's words, e.g. "5000 kg is unusual for a
+   * vehicle mass (typical 150–3500 kg)": shown beside the field, never refused. The figures are in stored units.
+   */
+  protected unusualText(field: VehicleField): string | null {
+    this.formVersion();
+    const range = vehicleRangeFor(field.path);
+    const control = this.form.controls[field.path]!;
+    const shown = parseDecimal(control.value ?? '');
+    if (!range || shown === null || control.invalid) return null;
+    return unusualValue(range, this.toStored(field, shown));
   }
 
   protected errorText(field: VehicleField): string {
