@@ -27,7 +27,7 @@ import { ToeCurve, type ToeStatistics, type ToeTable } from './toe.js';
 import { lateralGains, lateralModel, type LateralModel } from './lateral.js';
 
 export * from './road.js';
-export { quarterCarOf, quarterCarGains, travelGain, axleShare, DEFAULT_BODY_DAMPING_RATIO, type QuarterCar, type QuarterCarInfo } from './quarter-car.js';
+export { quarterCarOf, quarterCarGains, quarterCarRate, travelGain, axleShare, DEFAULT_BODY_DAMPING_RATIO, type QuarterCar, type QuarterCarInfo } from './quarter-car.js';
 export { ToeCurve, ToeTable, type ToeStatistics } from './toe.js';
 export { lateralModel, lateralGains, DEFAULT_RELAXATION_LENGTH_M, type LateralModel } from './lateral.js';
 
@@ -205,6 +205,8 @@ export interface LateralEventResult {
   headingChangeDeg: number | null;
   /** Heading change at the end of the simulation (the course the driver must correct), deg. */
   finalHeadingChangeDeg: number | null;
+  /** Yaw rate at the end of the simulation, deg/s (zero once a passing event has died out). */
+  finalYawRateDegPerS: number | null;
 }
 
 /**
@@ -285,6 +287,7 @@ export function simulateLateral(h: EventHistory, lat: LateralModel, left: ToeTab
     peakLateralAccelerationMS2: ok ? peakAy : null,
     headingChangeDeg: ok ? peakPsi / DEG : null,
     finalHeadingChangeDeg: ok ? psi / DEG : null,
+    finalYawRateDegPerS: ok ? r / DEG : null,
   };
 }
 

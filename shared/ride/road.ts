@@ -71,20 +71,26 @@ export function velocityPsd(road: RoadSpectrum): number {
 
 /**
  * A profile synthesised as a sum of sinusoids with the class's PSD:
- * z(x) = Σ √(2·Gd(n_k)·Δn)·cos(2π·n_k·x + θ_k), n_k evenly spaced over the
- * band, θ_k from `random` (uniform in [0, 1)). Its variance is ∫Gd dn over the band.
+ * z(x) = Σ √(2·Gd(n_k)·Δn)·cos(2π·n_k·x + θ_k), θ_k from `random` (uniform
+ * in [0, 1)). The lines sit at odd multiples of Δn/2 (Δn = band/count, the
+ * first near the band's start), so the profile repeats every 1/Δn metres and
+ * its mean square over one period is exactly Σ Gd(n_k)·Δn.
  */
 export function synthesiseProfile(gd0M3: number, count: number, random: () => number, band: readonly [number, number] = ISO8608_BAND) {
   const dn = (band[1] - band[0]) / count;
   const n = new Float64Array(count);
   const amp = new Float64Array(count);
   const phase = new Float64Array(count);
+  const k0 = Math.round(band[0] / dn);
   for (let k = 0; k < count; k++) {
-    n[k] = band[0] + (k + 0.5) * dn;
+    n[k] = (k0 + k + 0.5) * dn;
     amp[k] = Math.sqrt(2 * spatialPsd(gd0M3, n[k]!) * dn);
     phase[k] = 2 * Math.PI * random();
   }
   return {
+    /** Spatial frequencies of the lines, cycles/m, and the period of the profile, m. */
+    lines: n,
+    periodM: 1 / dn,
     /** Height at distance x, m. */
     heightM(x: number): number {
       let z = 0;
