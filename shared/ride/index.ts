@@ -38,7 +38,7 @@ export const SPECTRAL_INTERVALS = 512;
 export const RIDE_METHOD = {
   randomRoad:
     'frequency domain: |H(f)|² of the linear quarter car (and of the toe, tyre-lag and bicycle-model chain) times the ISO 8608 temporal PSD, integrated over the band by Simpson’s rule in ln f (512 intervals)',
-  events: 'time domain: the same linear quarter car and lateral chain integrated by fixed-step fourth-order Runge–Kutta (step 0.5 ms, or 1/40 of the bump’s duration when shorter)',
+  events: 'time domain: the same linear quarter car and lateral chain integrated by fixed-step fourth-order Runge–Kutta (step 1 ms, or finer: 1/20 of the bump’s duration, and ω·dt ≤ 0.2 for the wheel-hop mode)',
   correlation:
     'each wheel a quarter car of its own (anti-roll bar inactive); steering given for uncorrelated left and right tracks (used for the bump cost) and for fully correlated in-phase tracks',
   toe: 'toe change through the full kinematics: E[Δtoe²] by 9-point Gauss–Hermite quadrature on the toe curve over the Gaussian wheel travel; the dynamic chain uses the equivalent gain RMS toe / RMS travel',
@@ -153,44 +153,72 @@ export const EVENT_SETTLE_S = 2;
 /** The quarter car through an event at `speedMps`, by fixed-step RK4 from static equilibrium. */
 export function simulateQuarterCar(q: QuarterCar, event: RideEvent, speedMps: number, staticLoadN: number): EventHistory {
   const bumpS = event.kind === 'bump' ? event.lengthMm / 1000 / speedMps : 0;
-  const dt = Math.min(5e-4, bumpS > 0 ? bumpS / 40 : 5e-4);
+  // Step: 1 ms, or finer to resolve the bump (20 steps over it) and the wheel-hop mode (ω·dt ≤ 0.2).
+  const wHop = Math.sqrt((q.wheelRateNPerM + q.tyreRateNPerM) / q.unsprungMassKg);
+  const dt = Math.min(1e-3, bumpS > 0 ? bumpS / 20 : 1e-3, 0.2 / wHop);
   const n = Math.ceil((bumpS + EVENT_SETTLE_S) / dt) + 1;
   const travel = new Float64Array(n);
   const load = new Float64Array(n);
   const acc = new Float64Array(n);
-  const y = new Float64Array(4);
-  const k1 = new Float64Array(4);
-  const k2 = new Float64Array(4);
-  const k3 = new Float64Array(4);
-  const k4 = new Float64Array(4);
-  const tmp = new Float64Array(4);
+  const ms = q.sprungMassKg;
+  const mu = q.unsprungMassKg;
+  const k = q.wheelRateNPerM;
+  const c = q.damperNsPerM;
+  const kt = q.tyreRateNPerM;
+  let zs = 0;
+  let vs = 0;
+  let zu = 0;
+  let vu = 0;
   if (event.kind === 'landing') {
     const v0 = Math.sqrt(2 * G * (event.dropHeightMm / 1000));
-    y[1] = -v0;
-    y[3] = -v0;
+    vs = -v0;
+    vu = -v0;
   }
   const h = event.kind === 'bump' ? event.heightMm / 1000 : 0;
   const len = event.kind === 'bump' ? event.lengthMm / 1000 : 1;
-  const road = (t: number) => {
+  const kx = Math.PI / len;
+  const road = (t: number): number => {
     const x = t * speedMps;
-    return x > 0 && x < len ? h * Math.sin((Math.PI * x) / len) : 0;
+    return x > 0 && x < len ? h * Math.sin(kx * x) : 0;
   };
+  // RK4 on [z_s, ż_s, z_u, ż_u] (the equations of quarter-car.ts, written out here for speed).
   for (let i = 0; i < n; i++) {
     const t = i * dt;
     const zr = road(t);
-    travel[i] = (y[2]! - y[0]!) * 1000;
-    load[i] = staticLoadN + q.tyreRateNPerM * (zr - y[2]!);
-    quarterCarRate(q, y, 0, zr, k1, 0);
-    acc[i] = k1[1]!;
+    travel[i] = (zu - zs) * 1000;
+    load[i] = staticLoadN + kt * (zr - zu);
+    const f1 = k * (zs - zu) + c * (vs - vu);
+    acc[i] = -f1 / ms;
     if (i === n - 1) break;
     const zm = road(t + dt / 2);
-    for (let j = 0; j < 4; j++) tmp[j] = y[j]! + (dt / 2) * k1[j]!;
-    quarterCarRate(q, tmp, 0, zm, k2, 0);
-    for (let j = 0; j < 4; j++) tmp[j] = y[j]! + (dt / 2) * k2[j]!;
-    quarterCarRate(q, tmp, 0, zm, k3, 0);
-    for (let j = 0; j < 4; j++) tmp[j] = y[j]! + dt * k3[j]!;
-    quarterCarRate(q, tmp, 0, road(t + dt), k4, 0);
-    for (let j = 0; j < 4; j++) y[j] = y[j]! + (dt / 6) * (k1[j]! + 2 * k2[j]! + 2 * k3[j]! + k4[j]!);
+    const z1 = road(t + dt);
+    const a1s = -f1 / ms;
+    const a1u = (f1 - kt * (zu - zr)) / mu;
+    const zs2 = zs + (dt / 2) * vs;
+    const vs2 = vs + (dt / 2) * a1s;
+    const zu2 = zu + (dt / 2) * vu;
+    const vu2 = vu + (dt / 2) * a1u;
+    const f2 = k * (zs2 - zu2) + c * (vs2 - vu2);
+    const a2s = -f2 / ms;
+    const a2u = (f2 - kt * (zu2 - zm)) / mu;
+    const zs3 = zs + (dt / 2) * vs2;
+    const vs3 = vs + (dt / 2) * a2s;
+    const zu3 = zu + (dt / 2) * vu2;
+    const vu3 = vu + (dt / 2) * a2u;
+    const f3 = k * (zs3 - zu3) + c * (vs3 - vu3);
+    const a3s = -f3 / ms;
+    const a3u = (f3 - kt * (zu3 - zm)) / mu;
+    const zs4 = zs + dt * vs3;
+    const vs4 = vs + dt * a3s;
+    const zu4 = zu + dt * vu3;
+    const vu4 = vu + dt * a3u;
+    const f4 = k * (zs4 - zu4) + c * (vs4 - vu4);
+    const a4s = -f4 / ms;
+    const a4u = (f4 - kt * (zu4 - z1)) / mu;
+    zs += (dt / 6) * (vs + 2 * vs2 + 2 * vs3 + vs4);
+    vs += (dt / 6) * (a1s + 2 * a2s + 2 * a3s + a4s);
+    zu += (dt / 6) * (vu + 2 * vu2 + 2 * vu3 + vu4);
+    vu += (dt / 6) * (a1u + 2 * a2u + 2 * a3u + a4u);
   }
   return { dtS: dt, travelMm: travel, tyreLoadN: load, bodyAccelerationMS2: acc };
 }
@@ -257,8 +285,8 @@ export function simulateLateral(h: EventHistory, lat: LateralModel, left: ToeTab
   const k2 = [0, 0, 0, 0];
   const k3 = [0, 0, 0, 0];
   const k4 = [0, 0, 0, 0];
+  let t0 = target(0, 0);
   for (let i = 0; i < n; i++) {
-    const t0 = target(i, 0);
     peakToe = Math.max(peakToe, tToe / DEG);
     peakSteer = Math.max(peakSteer, Math.abs(tSteer) / DEG);
     peakF = Math.max(peakF, Math.abs(F));
@@ -268,7 +296,7 @@ export function simulateLateral(h: EventHistory, lat: LateralModel, left: ToeTab
     peakPsi = Math.max(peakPsi, Math.abs(psi));
     if (i === n - 1) break;
     const tm = target(i, 0.5);
-    const t1 = target(i, 1);
+    const t1 = target(i + 1, 0);
     rate(F, beta, r, t0, k1);
     rate(F + (dt / 2) * k1[0]!, beta + (dt / 2) * k1[1]!, r + (dt / 2) * k1[2]!, tm, k2);
     rate(F + (dt / 2) * k2[0]!, beta + (dt / 2) * k2[1]!, r + (dt / 2) * k2[2]!, tm, k3);
@@ -277,6 +305,7 @@ export function simulateLateral(h: EventHistory, lat: LateralModel, left: ToeTab
     beta += (dt / 6) * (k1[1]! + 2 * k2[1]! + 2 * k3[1]! + k4[1]!);
     r += (dt / 6) * (k1[2]! + 2 * k2[2]! + 2 * k3[2]! + k4[2]!);
     psi += (dt / 6) * (k1[3]! + 2 * k2[3]! + 2 * k3[3]! + k4[3]!);
+    t0 = target(i + 1, 0);
   }
   const ok = !lat.unstable;
   return {
@@ -467,11 +496,12 @@ export function evaluateRide(vehicle: Vehicle, o: RideOptions): RideResult {
       for (const s of steering) {
         if (s.condition === 'full-lock') continue;
         const lt = new ToeCurve(corner, 'left', s.rackMm, range).table(lo, hi);
-        const rt = new ToeCurve(corner, 'right', s.rackMm, range).table(lo, hi);
+        // Straight ahead the right wheel is the left one's mirror: the same toe curve.
+        const rt = s.rackMm === 0 ? lt : new ToeCurve(corner, 'right', s.rackMm, range).table(lo, hi);
         const cond = s.condition;
         if (event.kind === 'bump') {
           const a = simulateLateral(hist, lat, lt, null);
-          const b = simulateLateral(hist, lat, null, rt);
+          const b = s.rackMm === 0 ? a : simulateLateral(hist, lat, null, rt);
           const worse = (b.headingChangeDeg ?? b.peakSideForceN) > (a.headingChangeDeg ?? a.peakSideForceN) ? { ...b, wheel: 'right' as const } : { ...a, wheel: 'left' as const };
           out.steering.push({ ...worse, condition: cond, rackMm: s.rackMm });
         } else {
