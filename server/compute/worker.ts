@@ -7,6 +7,7 @@ import type { ComputeKind, ComputeTask, ProgressMessage, WorkerOutcome } from '.
 import { serializeError } from './tasks.js';
 import { computeAxleRoll, computeCornerSweep } from '../../shared/kinematics/api.js';
 import { computeBalance } from '../../shared/balance/api.js';
+import { computeRide } from '../../shared/ride/api.js';
 import { computeSolve } from '../../shared/intent/api.js';
 import { computeRigComparison } from '../../shared/intent/rig-compare.js';
 
@@ -16,6 +17,7 @@ const ENGINES: Record<ComputeKind, Engine> = {
   'corner-sweep': computeCornerSweep,
   'axle-roll': computeAxleRoll,
   balance: computeBalance,
+  ride: computeRide,
   solve: computeSolve,
   'rig-compare': computeRigComparison,
 };

@@ -226,7 +226,12 @@ export function simulateQuarterCar(q: QuarterCar, event: RideEvent, speedMps: nu
 export interface LateralEventResult {
   peakToeChangeDeg: number;
   peakAxleSteerDeg: number;
+  /** Largest side force of the axle (both wheels, tyre lag included), N. */
   peakSideForceN: number;
+  /** Largest side force one wheel's toe change asks of its tyre, C(F_z)·|δ| without the lag, N. */
+  peakWheelSideForceN: number;
+  /** The same as a fraction of that wheel's load at the time, –. */
+  peakWheelSideForceFraction: number;
   peakYawRateDegPerS: number | null;
   peakLateralAccelerationMS2: number | null;
   /** Largest |heading change| within the simulated time, deg. */
@@ -253,6 +258,8 @@ export function simulateLateral(h: EventHistory, lat: LateralModel, left: ToeTab
   // Target force at sample i (and between samples by linear interpolation); also the steer and toe there.
   let tSteer = 0;
   let tToe = 0;
+  let tWheelForce = 0;
+  let tWheelFraction = 0;
   const target = (i: number, f: number): number => {
     const j = i + 1 < n ? i + 1 : n - 1;
     const s = h.travelMm[i]! * (1 - f) + h.travelMm[j]! * f;
@@ -262,6 +269,8 @@ export function simulateLateral(h: EventHistory, lat: LateralModel, left: ToeTab
     const dr = right ? right.deltaToeDeg(s) * DEG : 0;
     tSteer = (dl + dr) / 2;
     tToe = Math.max(Math.abs(dl), Math.abs(dr));
+    tWheelForce = c * tToe;
+    tWheelFraction = fz > 0 ? tWheelForce / fz : 0;
     return c * (dl + dr);
   };
   // State: F, β, r, ψ
@@ -275,6 +284,8 @@ export function simulateLateral(h: EventHistory, lat: LateralModel, left: ToeTab
   let peakR = 0;
   let peakAy = 0;
   let peakPsi = 0;
+  let peakWheelForce = 0;
+  let peakWheelFraction = 0;
   const rate = (Fs: number, bs: number, rs: number, Ft: number, out: number[]) => {
     out[0] = (Ft - Fs) / tau;
     out[1] = a11 * bs + a12 * rs + b1 * Fs;
@@ -289,6 +300,8 @@ export function simulateLateral(h: EventHistory, lat: LateralModel, left: ToeTab
   for (let i = 0; i < n; i++) {
     peakToe = Math.max(peakToe, tToe / DEG);
     peakSteer = Math.max(peakSteer, Math.abs(tSteer) / DEG);
+    peakWheelForce = Math.max(peakWheelForce, tWheelForce);
+    peakWheelFraction = Math.max(peakWheelFraction, tWheelFraction);
     peakF = Math.max(peakF, Math.abs(F));
     peakR = Math.max(peakR, Math.abs(r));
     const betaDot = a11 * beta + a12 * r + b1 * F;
@@ -312,6 +325,8 @@ export function simulateLateral(h: EventHistory, lat: LateralModel, left: ToeTab
     peakToeChangeDeg: peakToe,
     peakAxleSteerDeg: peakSteer,
     peakSideForceN: peakF,
+    peakWheelSideForceN: peakWheelForce,
+    peakWheelSideForceFraction: peakWheelFraction,
     peakYawRateDegPerS: ok ? peakR / DEG : null,
     peakLateralAccelerationMS2: ok ? peakAy : null,
     headingChangeDeg: ok ? peakPsi / DEG : null,
