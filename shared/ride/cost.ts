@@ -14,8 +14,9 @@
  */
 import type { Corner } from '../schema/corner.js';
 import type { Vehicle } from '../schema/vehicle.js';
-import { evaluateRide, type RideResult } from './index.js';
-import { ROAD_CLASS_WORDS, type RoadClass } from './road.js';
+import { evaluateRide, quarterCarOf, quarterCarSpectra, steeringSpectra, ToeCurve, lateralModel, type RideResult } from './index.js';
+import { ROAD_CLASS_WORDS, roadSpectrum, type RoadClass } from './road.js';
+import { rackForAxleSteer } from '../kinematics/index.js';
 
 const DEG = Math.PI / 180;
 /** Time over which the heading change is turned into a lateral drift, s. */
@@ -127,4 +128,57 @@ export function bumpCost(vehicle: Vehicle, axle: 'front' | 'rear', corner: Corne
 
 function fmt(x: number, d: number): string {
   return x.toFixed(d);
+}
+
+/**
+ * The random-road part of the bump cost as a function of the geometry alone,
+ * for the solver's budget and its family chart: the quarter car, the road
+ * and the lateral chain do not depend on the toe curve, so the yaw-rate
+ * variance per unit axle-steer gain, I = ∫|H_r·H_s|²·G df, is integrated
+ * once; a geometry then costs its toe statistics only (9 poses per wheel and
+ * condition). Same figures as `bumpCost(...).yawRateRmsDegPerS`.
+ */
+export class RandomRoadYawCost {
+  private readonly sigmaMm: number;
+  /** Yaw-rate variance per unit κ² (κ² in rad²/m², variance in (deg/s)²). */
+  private readonly perKappa2: number;
+  readonly steadyYawRateDegPerS: number;
+  readonly unstable: boolean;
+
+  constructor(
+    vehicle: Vehicle,
+    private readonly axle: 'front' | 'rear',
+    private readonly p: BumpCostProfile,
+  ) {
+    const { car, info } = quarterCarOf(vehicle, axle);
+    const V = p.speedKph / 3.6;
+    const road = roadSpectrum(p.roadClass, V);
+    this.sigmaMm = quarterCarSpectra(car, road).travelRmsM * 1000;
+    const lat = lateralModel(vehicle, axle, V);
+    this.unstable = lat.unstable;
+    const unit = steeringSpectra(car, lat, 2 * lat.wheelStiffnessNPerRad(info.staticTyreLoadN), road, 1);
+    this.perKappa2 = (unit.yawRateRmsDegPerS ?? 0) ** 2;
+    this.steadyYawRateDegPerS = V / p.cornerRadiusM / DEG;
+    this.wheelbaseMm = vehicle.wheelbaseMm;
+  }
+  private readonly wheelbaseMm: number;
+
+  /** RMS yaw-rate disturbance of `corner` (worse of on-centre and the operating steer), deg/s and % of V/R; null above the critical speed. */
+  of(corner: Corner): { yawRateRmsDegPerS: number; yawDisturbancePct: number } | null {
+    if (this.unstable) return null;
+    const racks = [0];
+    if (corner.steered) racks.push(rackForAxleSteer(corner, (this.wheelbaseMm / 1000 / this.p.cornerRadiusM) / DEG));
+    let worst = 0;
+    for (const rack of racks) {
+      const l = new ToeCurve(corner, 'left', rack, this.p.travelMm).gaussian(this.sigmaMm).equivalentGradientDegPerM * DEG;
+      const r = rack === 0 ? l : new ToeCurve(corner, 'right', rack, this.p.travelMm).gaussian(this.sigmaMm).equivalentGradientDegPerM * DEG;
+      worst = Math.max(worst, Math.sqrt(((l * l + r * r) / 4) * this.perKappa2));
+    }
+    return { yawRateRmsDegPerS: worst, yawDisturbancePct: (100 * worst) / this.steadyYawRateDegPerS };
+  }
+
+  /** Poses one `of` call solves (for the solver's pose count). */
+  posesPerCall(corner: Corner): number {
+    return corner.steered ? 27 : 9;
+  }
 }

@@ -9,6 +9,7 @@ import { cornerDocumentSchema, type Corner } from './corner.js';
 import { armStrokeMm, innerName, MOVABLE_COORDINATE_PATTERN } from './steering-link.js';
 import { upgradeVehicleDocument, vehicleSchema } from './vehicle.js';
 import { TRACK_PROFILE_IDS, trackProfiles } from '../intent/profiles.js';
+import { ROAD_CLASSES } from '../ride/road.js';
 import { CAUTION_RULES } from '../intent/cautions.js';
 
 // The steering-link helpers and the movable-coordinate pattern live in a
@@ -40,6 +41,16 @@ export const trackProfileChoiceSchema = z.union([
     travelMm: z.tuple([finite('travelMm[0]'), finite('travelMm[1]')]).optional(),
     /** Single-wheel bump height of the bump cautions, mm. */
     bumpHeightMm: finite('bumpHeightMm').positive().max(1000).optional(),
+    /** Length of that half-sine bump, mm. */
+    bumpLengthMm: finite('bumpLengthMm').positive().max(100000).optional(),
+    /** ISO 8608 class of the profile's random road. */
+    roadClass: z.enum(ROAD_CLASSES, { error: 'roadClass must be one of the ISO 8608 classes A to H' }).optional(),
+    /** Speed of the bump cost, km/h. */
+    speedKph: finite('speedKph').min(1).max(400).optional(),
+    /** Radius of the corner whose steer a steered axle is judged at, m. */
+    cornerRadiusM: finite('cornerRadiusM').min(2).max(10000).optional(),
+    /** Drop height of a landing, mm (null: no landing). */
+    landingDropMm: finite('landingDropMm').positive().max(5000).nullable().optional(),
   }),
 ]);
 
@@ -56,6 +67,11 @@ export const intentOptionsSchema = z.strictObject({
   travelStepMm: finite('travelStepMm').positive().optional(),
   /** Optional bound on the worst toe deviation from its linear fit at any rack position, deg. */
   worstToeBoundDeg: finite('worstToeBoundDeg').positive().optional(),
+  /**
+   * Optional bump-cost budget: the largest RMS yaw-rate disturbance on the profile's road, as a
+   * percentage of the steady yaw rate of its corner (the unit of the bump-yaw-disturbance caution). Needs the vehicle.
+   */
+  bumpYawBudgetPct: finite('bumpYawBudgetPct').positive().max(1000).optional(),
   /** Members of the returned solution family (default 21). */
   familySize: z.number().int().min(3).max(101).default(21),
   /** Shim thickness for the shim stacks at each end, mm. */
@@ -103,6 +119,9 @@ export const intentSchema = z
     for (const [k, b] of Object.entries(intent.bounds)) {
       if (!seen.has(k)) issue(['bounds', k], `bounds.${k} is given but ${k} is not in movable`);
       else if (!(b[0] < b[1])) issue(['bounds', k], `bounds.${k} [${b[0]}, ${b[1]}] must have min < max`);
+    }
+    if (intent.options.bumpYawBudgetPct !== undefined && !intent.vehicle) {
+      issue(['options', 'bumpYawBudgetPct'], 'vehicle is required for options.bumpYawBudgetPct (the ride model needs its masses, springs, dampers and tyres)');
     }
     if ('understeerChangeDegPerG' in intent.target && !intent.vehicle) {
       issue(['vehicle'], 'vehicle is required for target.understeerChangeDegPerG (the suspension roll gradient turns it into a roll steer coefficient)');

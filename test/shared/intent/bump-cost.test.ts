@@ -8,9 +8,10 @@ import { describe, expect, it } from 'vitest';
 import { exampleVehicles } from '../../../shared/balance/index.js';
 import { exampleCorners, sweepCorner } from '../../../shared/kinematics/index.js';
 import { cornerSchema, type Corner } from '../../../shared/schema/corner.js';
-import { cautionsForCorner } from '../../../shared/intent/index.js';
+import { cautionsForCorner, solveIntent } from '../../../shared/intent/index.js';
+import { intentSchema } from '../../../shared/schema/intent.js';
 import { resolveTrackProfile } from '../../../shared/intent/profiles.js';
-import { bumpCost } from '../../../shared/ride/cost.js';
+import { bumpCost, RandomRoadYawCost } from '../../../shared/ride/cost.js';
 
 const bumpSteer = (c: Corner) => sweepCorner(c, { travel: { from: -20, to: 20, step: 5 } }).fit.bumpSteerDegPerM;
 const withInnerDz = (c: Corner, dz: number): Corner => {
@@ -79,5 +80,59 @@ describe('bump cost of a typical production car', () => {
     expect(list.find((c) => c.code === 'bump-cost-unavailable')?.message).toMatch(/front\.tyre\.verticalRateNPerMm/);
     const none = cautionsForCorner(production, { axle: 'front', trackProfile: 'smooth-circuit' });
     expect(none.find((c) => c.code === 'bump-cost-unavailable')?.message).toMatch(/vehicle/);
+  });
+});
+
+describe('the solver and the bump cost', () => {
+  const corner = exampleCorners.fsRearWishbone;
+  const vehicle = exampleVehicles.tur26Ember;
+  const p = corner.points as Record<string, [number, number, number]>;
+  const base = {
+    corner,
+    axle: 'rear' as const,
+    target: { rollSteerCoefficient: -0.05 },
+    movable: ['tieRodInner.z'],
+    bounds: { 'tieRodInner.z': [p['tieRodInner']![2] - 30, p['tieRodInner']![2] + 30] },
+    trackProfile: 'bumpy-circuit' as const,
+    vehicle,
+  };
+
+  it('the quick random-road cost is the bump cost’s own figure', () => {
+    const prof = resolveTrackProfile('bumpy-circuit');
+    const quick = new RandomRoadYawCost(vehicle, 'rear', prof).of(corner)!;
+    const full = bumpCost(vehicle, 'rear', corner, prof);
+    expect(quick.yawRateRmsDegPerS / full.yawRateRmsDegPerS!).toBeCloseTo(1, 9);
+    expect(quick.yawDisturbancePct / full.yawDisturbancePct!).toBeCloseTo(1, 9);
+  });
+
+  it('reports the proposal’s bump cost and a trade-off curve of balance against bump cost with real spread', () => {
+    const r = solveIntent(intentSchema.parse(base));
+    expect(r.bumpCost?.roadInWords).toMatch(/ISO 8608 class B/);
+    expect(r.family.every((m) => m.bumpCost !== null)).toBe(true);
+    expect(r.tradeOff.length).toBeGreaterThanOrEqual(5);
+    const pct = r.tradeOff.map((t) => t.yawDisturbancePct);
+    const dk = r.tradeOff.map((t) => t.understeerChangeDegPerG!);
+    expect(Math.max(...pct) - Math.min(...pct)).toBeGreaterThan(0.1 * Math.max(...pct));
+    expect(Math.max(...dk) - Math.min(...dk)).toBeGreaterThan(0.01);
+    // More roll steer, more bump steer: the cost grows with |ε| away from the zero-bump-steer height (derived, domain.md: ε = −g·(t/2)·π/180).
+    const byEps = [...r.tradeOff].sort((a, b) => Math.abs(a.rollSteerCoefficient) - Math.abs(b.rollSteerCoefficient));
+    expect(byEps.at(-1)!.yawDisturbancePct).toBeGreaterThan(byEps[0]!.yawDisturbancePct);
+  });
+
+  it('a bump-cost budget below what the target needs makes the solve infeasible, naming the option', () => {
+    const free = solveIntent(intentSchema.parse(base));
+    const need = free.bumpCost!.yawDisturbancePct!;
+    const tight = solveIntent(intentSchema.parse({ ...base, options: { bumpYawBudgetPct: need / 2 } }));
+    expect(tight.feasible).toBe(false);
+    expect(tight.limitingBound?.coordinate ?? tight.limitingBounds[0]?.coordinate).toBe('options.bumpYawBudgetPct');
+    expect(tight.reason).toMatch(/bumpYawBudgetPct/);
+    const loose = solveIntent(intentSchema.parse({ ...base, options: { bumpYawBudgetPct: need * 2 } }));
+    expect(loose.feasible).toBe(true);
+    expect(loose.bumpYawBudgetPct).toBe(need * 2);
+  });
+
+  it('a budget needs the vehicle', () => {
+    const { vehicle: _v, ...noVehicle } = base;
+    expect(intentSchema.safeParse({ ...noVehicle, options: { bumpYawBudgetPct: 1 } }).success).toBe(false);
   });
 });
