@@ -54,16 +54,18 @@ export interface RideSpectra {
   tyreLoadRmsN: number;
 }
 
-/** ∫ over the band by Simpson's rule in ln f of `integrand(f)·f`. */
-function simpsonLog(fromHz: number, toHz: number, n: number, integrand: (f: number) => void, acc: Float64Array, weightInto: (w: number) => void): void {
+/**
+ * Simpson's rule in u = ln f over [fromHz, toHz] (∫F df = ∫F·f du): calls
+ * `evaluate(f)` at each node, then `accumulate(w)` with that node's weight,
+ * so the caller sums w·F(f) for as many outputs as it evaluates.
+ */
+function simpsonLog(fromHz: number, toHz: number, n: number, evaluate: (f: number) => void, accumulate: (w: number) => void): void {
   const h = Math.log(toHz / fromHz) / n;
   for (let i = 0; i <= n; i++) {
     const f = fromHz * Math.exp(i * h);
-    integrand(f);
-    const wgt = (i === 0 || i === n ? 1 : i % 2 === 1 ? 4 : 2) * (h / 3) * f;
-    weightInto(wgt);
+    evaluate(f);
+    accumulate((i === 0 || i === n ? 1 : i % 2 === 1 ? 4 : 2) * (h / 3) * f);
   }
-  void acc;
 }
 
 /** Variances of the quarter car's outputs on a road spectrum (band of `road`). */
@@ -79,7 +81,6 @@ export function quarterCarSpectra(q: QuarterCar, road: RoadSpectrum, intervals =
       quarterCarGains(q, 2 * Math.PI * f, g);
       psd = temporalPsd(road, f);
     },
-    v,
     (w) => {
       const p = psd * w;
       v[0]! += g[0]! * p;
@@ -120,7 +121,6 @@ export function steeringSpectra(q: QuarterCar, lat: LateralModel, axleStiffnessN
       lateralGains(lat, axleStiffnessNPerRad, w, lg);
       base = (tg[0]! * tg[0]! + tg[1]! * tg[1]!) * kappa2 * temporalPsd(road, f);
     },
-    v,
     (wgt) => {
       const p = base * wgt;
       v[0]! += p;
@@ -436,9 +436,11 @@ export function evaluateRide(vehicle: Vehicle, o: RideOptions): RideResult {
     axleStiffness = 2 * lat.wheelStiffnessNPerRad(info.staticTyreLoadN);
     if (lat.unstable) notes.push('the linear bicycle model is unstable at this speed (oversteer above the critical speed): no yaw outputs');
     const range = o.travelRangeMm ?? null;
-    const condition = (cond: SteeringCondition['condition'], rackMm: number, axleSteerDeg: number, radius: number | null): SteeringCondition => {
+    const condition = (cond: SteeringCondition['condition'], rackMm: number, radius: number | null): SteeringCondition => {
       const l = new ToeCurve(corner, 'left', rackMm, range);
       const r = new ToeCurve(corner, 'right', rackMm, range);
+      // Mean steer of the axle from the two wheels' static toe at this rack: δ_L = −toe_L, δ_R = +toe_R (domain.md).
+      const axleSteerDeg = rackMm === 0 ? 0 : (-l.staticToeDeg + r.staticToeDeg) / 2;
       const ls = l.gaussian(sigmaMm);
       const rs = r.gaussian(sigmaMm);
       const gl = (ls.equivalentGradientDegPerM * DEG);
@@ -456,24 +458,22 @@ export function evaluateRide(vehicle: Vehicle, o: RideOptions): RideResult {
         inPhase: steeringSpectra(car, lat!, axleStiffness, road, inp),
       };
     };
-    steering.push(condition('on-centre', 0, 0, null));
+    steering.push(condition('on-centre', 0, null));
     if (corner.steered && o.cornerRadiusM !== undefined) {
       const steerDeg = (vehicle.wheelbaseMm / 1000 / o.cornerRadiusM) / DEG;
       const rack = rackForAxleSteer(corner, steerDeg);
-      steering.push(condition('operating-steer', rack, steerDeg, o.cornerRadiusM));
+      steering.push(condition('operating-steer', rack, o.cornerRadiusM));
     }
     const stroke = steeringStrokeMm(corner);
     if (corner.steered && stroke && o.fullLock !== false) {
       for (const rack of stroke) {
         try {
-          steering.push(condition('full-lock', rack, Number.NaN, null));
+          steering.push(condition('full-lock', rack, null));
         } catch (e) {
           if (!(e instanceof SolveError)) throw e;
           notes.push(`full lock at rack ${rack} mm: ${e.message}`);
         }
       }
-      // The axle's mean steer at full lock, for the words.
-      for (const s of steering) if (s.condition === 'full-lock') s.axleSteerDeg = meanSteerAt(corner, s.rackMm);
     }
   }
   const runEvent = (event: RideEvent): EventResult => {
@@ -557,13 +557,6 @@ export function evaluateRide(vehicle: Vehicle, o: RideOptions): RideResult {
     landing,
     notes,
   };
-}
-
-function meanSteerAt(corner: Corner, rackMm: number): number {
-  const l = new ToeCurve(corner, 'left', rackMm);
-  const r = new ToeCurve(corner, 'right', rackMm);
-  // δ_L = −toe_L, δ_R = +toe_R (domain.md)
-  return (-l.staticToeDeg + r.staticToeDeg) / 2;
 }
 
 function fmtSpeed(kph: number): string {
