@@ -172,13 +172,14 @@ export function cautionInputs(
 /**
  * The ride model's bump cost of `corner` on the profile (shared/ride/cost.ts),
  * or why there is none: no vehicle, or a vehicle without the ride data (the
- * InputError's field is named). Counts its poses: the toe curves it solves.
+ * InputError's field is named). Adds an estimate of its poses to the count
+ * (the ride model solves its toe curves with its own solvers).
  */
 export function rideCost(counter: PoseCounter, ctx: CautionContext, profile: TrackProfile, corner: Corner): { cost: BumpCost | null; unavailable: string | undefined } {
   if (!ctx.vehicle) return { cost: null, unavailable: 'give the vehicle to judge the bump steer on the profile’s road' };
   try {
     const cost = bumpCost(ctx.vehicle, ctx.axle, corner, profile);
-    // 9 Gauss–Hermite poses per wheel and condition, and the event tables (21 or more each).
+    // Estimate: 9 Gauss–Hermite poses per wheel and condition, and the event tables (21 or more each).
     counter.poses += corner.steered ? 4 * 9 + 4 * 9 + 4 * 21 : 2 * 9 + 2 * 21;
     return { cost, unavailable: undefined };
   } catch (e) {
