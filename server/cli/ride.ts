@@ -1,6 +1,6 @@
 /**
  * `rollwise ride --vehicle FILE --axle front|rear --road-class A..H --speed=KPH
- *  [--corner FILE] [--radius=M] [--bump=HEIGHT_MM:LENGTH_MM] [--landing=DROP_MM] [--summary]`
+ *  [--corner FILE] [--radius=M] [--bump=HEIGHT_MM:LENGTH_MM] [--landing=DROP_MM] [--travel=DROOP_MM:BUMP_MM] [--summary]`
  * The ride model and bump cost of one axle on an ISO 8608 road (docs/ride.md).
  * Bad input → exit 2 naming the field; a pose out of reach → exit 3.
  */
@@ -9,7 +9,7 @@ import { computeRide } from '../../shared/ride/api.js';
 import { convertUnitEntries } from '../../shared/schema/units.js';
 import { parseArgs, readJsonFile, requireArg, runCommand } from './args.js';
 
-const KNOWN = ['vehicle', 'axle', 'road-class', 'speed', 'corner', 'radius', 'bump', 'landing', 'summary'];
+const KNOWN = ['vehicle', 'axle', 'road-class', 'speed', 'corner', 'radius', 'bump', 'landing', 'travel', 'summary'];
 
 /** Request fields → the flag or file that carries them, for error messages. */
 const FLAGS: [string, string][] = [
@@ -19,6 +19,7 @@ const FLAGS: [string, string][] = [
   ['cornerRadiusM', '--radius'],
   ['bump', '--bump'],
   ['landing', '--landing'],
+  ['travelRangeMm', '--travel'],
   ['corner', '--corner'],
   ['vehicle', '--vehicle (vehicle)'],
 ];
@@ -69,6 +70,14 @@ export async function rideCommand(argv: string[]): Promise<number> {
         throw new InputError(`--bump must be HEIGHT_MM:LENGTH_MM with numbers, got "${bump}"`, [{ path: '--bump', message: 'expected HEIGHT_MM:LENGTH_MM' }]);
       }
       input['bump'] = { heightMm: nums[0], lengthMm: nums[1] };
+    }
+    const travel = args.get('travel');
+    if (travel !== undefined) {
+      const parts = travel.split(':').map((x) => (x.trim() === '' ? Number.NaN : Number(x)));
+      if (parts.length !== 2 || parts.some((n) => !Number.isFinite(n))) {
+        throw new InputError(`--travel must be DROOP_MM:BUMP_MM with numbers, got "${travel}"`, [{ path: '--travel', message: 'expected DROOP_MM:BUMP_MM' }]);
+      }
+      input['travelRangeMm'] = parts;
     }
     const landing = numberArg(args, 'landing');
     if (landing !== undefined) input['landing'] = { dropHeightMm: landing };

@@ -66,7 +66,7 @@ export class ToeCurve {
       });
     } catch (e) {
       if (e instanceof SolveError) {
-        throw new SolveError(e.code, `${e.message} (the ride model needs the ${this.side} wheel's toe over ${travelsMm[0]!.toFixed(1)} to ${travelsMm[travelsMm.length - 1]!.toFixed(1)} mm of travel at rack ${this.rackMm.toFixed(1)} mm)`, e.details);
+        throw new SolveError(e.code, `${e.message} (the ride model needs the ${this.side} wheel's toe over ${travelsMm[0]!.toFixed(1)} to ${travelsMm[travelsMm.length - 1]!.toFixed(1)} mm of travel at rack ${this.rackMm.toFixed(1)} mm; give the suspension's travel range, travelRangeMm or --travel=DROOP:BUMP, to hold the wheel at its stops)`, e.details);
       }
       throw e;
     }

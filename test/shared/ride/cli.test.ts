@@ -55,6 +55,7 @@ describe('rollwise ride (CLI)', { timeout: 90_000 }, () => {
     [['--axle', 'front', '--road-class', 'B', '--speed=fast'], /--speed/],
     [['--axle', 'front', '--road-class', 'B', '--speed=60', '--bump=20'], /--bump/],
     [['--axle', 'front', '--road-class', 'B', '--speed=60', '--wheel=1'], /--wheel/],
+    [['--axle', 'front', '--road-class', 'B', '--speed=60', '--travel=80'], /--travel/],
   ])('exits 2 naming the field for %j', (args, field) => {
     const r = run('--vehicle', VEHICLE, ...args);
     expect(r.code).toBe(2);
