@@ -9,6 +9,10 @@ const commands: Record<string, { help: string; load: () => Promise<Command> }> =
   roll: { help: 'roll --corner FILE --roll=FROM:TO:STEP [--rack=…] [--wheelbase=MM]', load: async () => (await import('./kinematics.js')).rollCommand },
   compliance: { help: 'compliance --corner FILE [--travel=MM] [--rack=MM]', load: async () => (await import('./compliance.js')).complianceCommand },
   balance: { help: 'balance --vehicle FILE [--front-corner FILE --rear-corner FILE] [--speed=KPH]', load: async () => (await import('./balance.js')).balanceCommand },
+  ride: {
+    help: 'ride --vehicle FILE --axle front|rear --road-class A..H --speed=KPH [--corner FILE] [--radius=M] [--bump=HEIGHT_MM:LENGTH_MM] [--landing=DROP_MM]',
+    load: async () => (await import('./ride.js')).rideCommand,
+  },
   solve: { help: 'solve --intent FILE', load: async () => (await import('./intent.js')).solveCommand },
 };
 

@@ -1,7 +1,7 @@
 /** What crosses the worker boundary: task kinds, and errors as plain data (class identity does not survive structured clone). */
 import { InputError, SolveError, type FieldIssue, type SolveErrorCode } from '../../shared/errors.js';
 
-export const COMPUTE_KINDS = ['corner-sweep', 'axle-roll', 'corner-compliance', 'balance', 'solve', 'rig-compare'] as const;
+export const COMPUTE_KINDS = ['corner-sweep', 'axle-roll', 'corner-compliance', 'balance', 'ride', 'solve', 'rig-compare'] as const;
 export type ComputeKind = (typeof COMPUTE_KINDS)[number];
 
 export interface ComputeTask {

@@ -8,6 +8,7 @@ import { serializeError } from './tasks.js';
 import { computeAxleRoll, computeCornerSweep } from '../../shared/kinematics/api.js';
 import { computeBalance } from '../../shared/balance/api.js';
 import { computeCornerCompliance } from '../../shared/compliance/api.js';
+import { computeRide } from '../../shared/ride/api.js';
 import { computeSolve } from '../../shared/intent/api.js';
 import { computeRigComparison } from '../../shared/intent/rig-compare.js';
 
@@ -18,6 +19,7 @@ const ENGINES: Record<ComputeKind, Engine> = {
   'axle-roll': computeAxleRoll,
   'corner-compliance': computeCornerCompliance,
   balance: computeBalance,
+  ride: computeRide,
   solve: computeSolve,
   'rig-compare': computeRigComparison,
 };

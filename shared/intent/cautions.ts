@@ -8,6 +8,7 @@
  * docs/cautions.md documents every code, default and basis.
  */
 import type { TrackProfile, TrackProfileId } from './profiles.js';
+import type { BumpCost } from '../ride/cost.js';
 export { trackProfiles, resolveTrackProfile, TRACK_PROFILE_IDS } from './profiles.js';
 
 export type CautionLevel = 'info' | 'warning' | 'critical';
@@ -26,6 +27,10 @@ export interface Caution {
 }
 
 export const CAUTION_CODES = [
+  'bump-yaw-disturbance',
+  'bump-heading-change',
+  'landing-side-force',
+  'bump-cost-unavailable',
   'bump-toe-change',
   'bump-lateral-force',
   'bump-lateral-scrub',
@@ -63,34 +68,46 @@ interface RuleDefinition {
   defaults: LevelThresholds | Record<TrackProfileId, LevelThresholds>;
 }
 
-const ALIGNMENT_BASIS =
-  'common practice: alignment specs hold toe to about ±0.1–0.2° per wheel (check-values.md); a bump that toes the wheel by more than that is felt';
-
 /** Rig-measurement codes compare with the team's rig tolerance (shared/intent/rig-compare.ts), not with per-profile thresholds. */
 export type RigCautionCode = 'rig-toe-disagreement' | 'rig-camber-disagreement';
 
-export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-steer-unmodelled' | 'rack-pose-unreachable' | 'safety-notice' | RigCautionCode>, RuleDefinition>> = {
+export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-steer-unmodelled' | 'rack-pose-unreachable' | 'safety-notice' | 'bump-cost-unavailable' | RigCautionCode>, RuleDefinition>> = {
+  'bump-yaw-disturbance': {
+    unit: '% of the steady yaw rate',
+    basis:
+      'product default, stated in consequences: RMS yaw-rate disturbance from bump steer on the profile’s ISO 8608 road (ride model, independent left and right tracks) ' +
+      'against the steady yaw rate V/R of the profile’s corner; Gaussian peaks reach about three times the RMS, so at 2 % the path curvature wanders by about ±6 % ' +
+      '(felt as nervousness) and at 5 % by about ±15 % (the driver corrects all the time)',
+    defaults: { warning: 2, critical: 5 },
+  },
+  'bump-heading-change': {
+    unit: 'm of drift in 1 s',
+    basis:
+      'product default, stated in consequences: the heading change after the profile’s single-wheel bump (ride model, time domain) turned into the sideways drift ' +
+      'it makes within one second at the profile’s speed; 0.1 m asks for a steering correction, 0.25 m (about a tyre’s width) uses the margin to a kerb or lane edge',
+    defaults: { warning: 0.1, critical: 0.25 },
+  },
+  'landing-side-force': {
+    unit: 'fraction of the wheel load',
+    basis:
+      'product default, stated in consequences: the side force a landing wheel’s toe change asks of its tyre (cornering stiffness at the instantaneous load), ' +
+      'as a fraction of that load; the wheels seldom land together, so a tenth of the load darts the car and a quarter takes a large share of the grip ' +
+      '(tyre friction about 1, from memory); common practice: off-road and on landings the aim is zero bump steer',
+    defaults: { warning: 0.1, critical: 0.25 },
+  },
   'bump-toe-change': {
     unit: 'deg',
-    basis: ALIGNMENT_BASIS + '; tighter where landings are heavy',
-    defaults: {
-      'smooth-circuit': { warning: 0.15, critical: 0.3 },
-      'bumpy-circuit': { warning: 0.1, critical: 0.2 },
-      'rough-road': { warning: 0.1, critical: 0.2 },
-      'off-road': { warning: 0.05, critical: 0.15 },
-    },
+    basis:
+      'information: the toe change of the geometry over the profile’s single-wheel bump; its consequences are judged in yaw rate, heading and landing side force ' +
+      '(a static alignment tolerance is no basis for a dynamic limit, so there is no default: it fires only on thresholds a team sets)',
+    defaults: {},
   },
   'bump-lateral-force': {
     unit: 'fraction of landing load',
     basis:
-      'common practice (product default): a side force of a few per cent of the wheel load from one bump is noticeable as a dart; ' +
-      'cornering coefficient of car tyres about 0.15–0.25 per degree (from memory) when the vehicle gives none',
-    defaults: {
-      'smooth-circuit': { warning: 0.03, critical: 0.06 },
-      'bumpy-circuit': { warning: 0.02, critical: 0.05 },
-      'rough-road': { warning: 0.02, critical: 0.05 },
-      'off-road': { warning: 0.01, critical: 0.03 },
-    },
+      'kept for teams that set their own thresholds (no default): the quasi-static side force of the bump’s toe change at the profile’s landing load; ' +
+      'the ride-based landing-side-force rule replaces it',
+    defaults: {},
   },
   'bump-lateral-scrub': {
     unit: 'mm',
@@ -104,8 +121,10 @@ export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-ste
   },
   'front-roll-steer-feel': {
     unit: 'deg/deg',
-    basis: 'common practice (domain.md): front roll steer reaches the driver through the steering; the rear has no such path',
-    defaults: { info: 0.01, warning: 0.03, critical: 0.08 },
+    basis:
+      'information, common practice: front roll steer reaches the driver through the steering, the rear has no such path; production cars carry ' +
+      'front roll understeer of 0.05–0.1 deg/deg (front bump steer −2 to −10 deg/m), so the level alone is no fault: its bump consequences are judged in yaw rate and heading',
+    defaults: { info: 0.03 },
   },
   'long-travel-roll-steer': {
     unit: 'deg/deg',
@@ -125,8 +144,10 @@ export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-ste
   },
   'lock-bump-steer-spread': {
     unit: 'deg/m',
-    basis: 'common practice (check-values.md): production bump steer spans about −10 to +4 deg/m, so a spread of 5 deg/m across the stroke is large',
-    defaults: { warning: 5, critical: 15 },
+    basis:
+      'information (steered axles are judged on-centre and at the operating steer; full lock is information): production bump steer spans about −10 to +4 deg/m ' +
+      '(common practice), so a spread of 5 deg/m across the stroke is worth knowing',
+    defaults: { info: 5 },
   },
   'compliance-steer-rivals': {
     unit: 'ratio',
@@ -165,6 +186,10 @@ export interface CautionInputs {
   profile: TrackProfile;
   /** Achieved roll steer coefficient ε, deg/deg (domain.md sign). */
   rollSteerCoefficient: number;
+  /** The ride model's bump cost on the profile (needs the vehicle with its ride data), or null. */
+  bumpCost?: BumpCost | null | undefined;
+  /** Why there is no bump cost (no vehicle, or the field the ride model needs), when there is none. */
+  bumpCostUnavailable?: string | undefined;
   /** Largest |toe change| over the profile's single-wheel bump across the rack positions, deg. */
   bumpToeChangeDeg: number;
   /** Rack position of that largest change, mm. */
@@ -215,16 +240,51 @@ export function evaluateCautions(inputs: CautionInputs): Caution[] {
   const eps = inputs.rollSteerCoefficient;
   const rackNote = inputs.steered && inputs.bumpToeRackMm !== 0 ? ` at rack ${fmt(inputs.bumpToeRackMm, 1)} mm` : '';
 
+  const bc = inputs.bumpCost;
+  if (bc) {
+    const at = bc.judgedAt === 'operating-steer' ? ` (at the steer of a ${fmt(bc.cornerRadiusM, 0)} m corner)` : '';
+    if (bc.yawDisturbancePct !== null) {
+      out.push(
+        measured('bump-yaw-disturbance', bc.yawDisturbancePct, inputs, (th) =>
+          `On a ${bc.roadInWords} this bump steer shakes the car's yaw rate by ${fmt(bc.yawRateRmsDegPerS ?? 0)} deg/s RMS${at}, ${fmt(bc.yawDisturbancePct ?? 0, 2)} % of the ${fmt(bc.steadyYawRateDegPerS, 1)} deg/s of a ${fmt(bc.cornerRadiusM, 0)} m corner (limit ${fmt(th, 1)} %).`,
+        ),
+      );
+    }
+    if (bc.driftM !== null) {
+      out.push(
+        measured('bump-heading-change', Math.abs(bc.driftM), inputs, (th) =>
+          `A ${fmt(bc.bumpHeightMm, 0)} mm bump under one wheel at ${fmt(bc.speedKph, 0)} km/h turns the car by ${fmt(bc.headingChangeDeg ?? 0)}°: ${fmt(100 * Math.abs(bc.driftM ?? 0), 1)} cm of sideways drift within a second (limit ${fmt(100 * th, 0)} cm).`,
+        ),
+      );
+    }
+    if (bc.landingSideForceFraction !== null) {
+      out.push(
+        measured('landing-side-force', bc.landingSideForceFraction, inputs, (th) =>
+          `Landing from ${fmt(bc.landingDropMm ?? 0, 0)} mm, a wheel's toe change pushes its tyre sideways with ${fmt(100 * bc.landingSideForceFraction!, 1)} % of its load (limit ${fmt(100 * th, 0)} %): the car darts when the wheels land unevenly.`,
+        ),
+      );
+    }
+  } else if (inputs.bumpCostUnavailable) {
+    out.push({
+      level: 'info',
+      code: 'bump-cost-unavailable',
+      message: `No bump cost in yaw rate and heading: ${inputs.bumpCostUnavailable}.`,
+      value: null,
+      threshold: null,
+      unit: '',
+      basis: 'the ride model needs the vehicle (masses, spring, tyre rate)',
+    });
+  }
   out.push(
-    measured('bump-toe-change', inputs.bumpToeChangeDeg, inputs, (th) =>
-      `A ${fmt(p.bumpHeightMm, 0)} mm single-wheel bump toes the wheel by ${fmt(inputs.bumpToeChangeDeg)}°${rackNote}, at or above ${fmt(th)}° for ${p.label.toLowerCase()}.`,
+    measured('bump-toe-change', inputs.bumpToeChangeDeg, inputs, () =>
+      `A ${fmt(p.bumpHeightMm, 0)} mm single-wheel bump toes the wheel by ${fmt(inputs.bumpToeChangeDeg)}°${rackNote} (information; its consequences are judged in yaw rate and heading).`,
     ),
   );
   const index = inputs.corneringCoefficientPerDeg * inputs.bumpToeChangeDeg;
   out.push(
     measured('bump-lateral-force', index, inputs, (th) => {
       const force = inputs.landingLoadN !== null ? ` (about ${fmt(index * inputs.landingLoadN, 0)} N at a landing load of ${fmt(inputs.landingLoadN, 0)} N)` : '';
-      return `That toe change pushes the tyre sideways with ${fmt(100 * index, 1)} % of its landing load${force}, at or above ${fmt(100 * th, 1)} %; cornering coefficient from ${inputs.corneringCoefficientSource}.`;
+      return `That toe change pushes the tyre sideways with ${fmt(100 * index, 1)} % of its landing load${force}, at or above your ${fmt(100 * th, 1)} %; cornering coefficient from ${inputs.corneringCoefficientSource}.`;
     }),
   );
   out.push(
@@ -235,7 +295,7 @@ export function evaluateCautions(inputs: CautionInputs): Caution[] {
   if (inputs.axle === 'front' && inputs.steered) {
     out.push(
       measured('front-roll-steer-feel', Math.abs(eps), inputs, () =>
-        `Front roll steer of ${fmt(eps)} deg/deg disturbs steering feel and kicks back through the steering wheel over bumps; prefer the rear axle for deliberate roll steer where you can.`,
+        `Front roll steer of ${fmt(eps)} deg/deg reaches the driver through the steering over bumps; prefer the rear axle for deliberate roll steer where you can.`,
       ),
     );
   }
@@ -261,7 +321,7 @@ export function evaluateCautions(inputs: CautionInputs): Caution[] {
   if (inputs.steered) {
     out.push(
       measured('lock-bump-steer-spread', inputs.lockBumpSteerSpreadDegPerM, inputs, () =>
-        `Bump steer at rack ${fmt(inputs.lockBumpSteerRackMm, 1)} mm differs from straight ahead by ${fmt(inputs.lockBumpSteerSpreadDegPerM, 1)} deg/m: the match holds at one rack position only.`,
+        `Bump steer at rack ${fmt(inputs.lockBumpSteerRackMm, 1)} mm differs from straight ahead by ${fmt(inputs.lockBumpSteerSpreadDegPerM, 1)} deg/m: the match holds at one rack position only (information: the bump cost is judged on-centre and at the operating steer).`,
       ),
     );
   }

@@ -13,6 +13,7 @@ import { evaluateCautions, type Caution, type CautionThresholds } from './cautio
 import { resolveTrackProfile, type TrackProfileChoice, type TrackProfileId } from './profiles.js';
 import { cautionInputs, sweepRacks } from './measure.js';
 import { linked, PoseCounter, rollSteer } from './link.js';
+import type { BumpCost } from '../ride/cost.js';
 
 export interface CornerCautionOptions {
   axle: 'front' | 'rear';
@@ -57,6 +58,14 @@ export function linkedRollGradients(counter: PoseCounter, vehicle: Vehicle | und
  * `rack-pose-unreachable` cautions.
  */
 export function cautionsForCorner(corner: Corner, options: CornerCautionOptions): Caution[] {
+  return measureCornerCautions(corner, options).cautions;
+}
+
+/**
+ * `cautionsForCorner` with the bump cost the ride model gave them (the
+ * screens show it beside the results), or why there is none.
+ */
+export function measureCornerCautions(corner: Corner, options: CornerCautionOptions): { cautions: Caution[]; bumpCost: BumpCost | null; bumpCostUnavailable: string | null } {
   const counter = new PoseCounter();
   const profile = resolveTrackProfile(options.trackProfile);
   const [from, to] = profile.travelMm;
@@ -80,5 +89,6 @@ export function cautionsForCorner(corner: Corner, options: CornerCautionOptions)
     referenceRollDeg: options.referenceRollDeg,
     thresholds: options.thresholds,
   };
-  return evaluateCautions(cautionInputs(counter, context, profile, corner, eps, measured.byRack, measured.unreachableRacks));
+  const inputs = cautionInputs(counter, context, profile, corner, eps, measured.byRack, measured.unreachableRacks);
+  return { cautions: evaluateCautions(inputs), bumpCost: inputs.bumpCost ?? null, bumpCostUnavailable: inputs.bumpCostUnavailable ?? null };
 }

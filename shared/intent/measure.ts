@@ -15,6 +15,8 @@ import type { TrackProfile } from './profiles.js';
 import { pose, PoseCounter, sweep } from './link.js';
 import { axleComplianceOf } from '../compliance/axle.js';
 import { describeTyreLoadLaw, tyreLoadLaw, tyreStiffnessAt } from '../balance/tyre.js';
+import { InputError } from '../errors.js';
+import { bumpCost, type BumpCost } from '../ride/cost.js';
 
 const G_STD = 9.80665;
 /** Cornering stiffness per unit load used when the vehicle gives no tyre data, 1/deg (from memory: 0.15–0.25 for car tyres). */
@@ -143,10 +145,13 @@ export function cautionInputs(
       complianceKnown = true;
     }
   }
+  const ride = rideCost(counter, ctx, profile, corner);
   return {
     axle: ctx.axle,
     steered: corner.steered,
     profile,
+    bumpCost: ride.cost,
+    bumpCostUnavailable: ride.unavailable,
     rollSteerCoefficient: eps,
     bumpToeChangeDeg: Math.abs(worstBump.bumpToeChangeDeg),
     bumpToeRackMm: worstBump.rackMm,
@@ -164,4 +169,24 @@ export function cautionInputs(
     unreachableRacks,
     thresholds: ctx.thresholds,
   };
+}
+
+/**
+ * The ride model's bump cost of `corner` on the profile (shared/ride/cost.ts),
+ * or why there is none: no vehicle, or a vehicle without the ride data (the
+ * InputError's field is named). Adds an estimate of its poses to the count
+ * (the ride model solves its toe curves with its own solvers).
+ */
+export function rideCost(counter: PoseCounter, ctx: CautionContext, profile: TrackProfile, corner: Corner): { cost: BumpCost | null; unavailable: string | undefined } {
+  if (!ctx.vehicle) return { cost: null, unavailable: 'give the vehicle to judge the bump steer on the profile’s road' };
+  try {
+    const cost = bumpCost(ctx.vehicle, ctx.axle, corner, profile);
+    // Estimate: 9 Gauss–Hermite poses per wheel and condition, and the event tables (21 or more each).
+    counter.poses += corner.steered ? 4 * 9 + 4 * 9 + 4 * 21 : 2 * 9 + 2 * 21;
+    return { cost, unavailable: undefined };
+  } catch (e) {
+    if (e instanceof InputError) return { cost: null, unavailable: e.issues[0] ? `${e.issues[0].path}: ${e.issues[0].message}` : e.message };
+    if (e instanceof SolveError) return { cost: null, unavailable: `the toe curve is out of reach over the travel the road asks for (${e.message})` };
+    throw e;
+  }
 }

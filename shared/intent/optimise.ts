@@ -46,7 +46,7 @@ export interface LimitingBound {
   side: 'min' | 'max';
   /** The bound's value, in `unit`. */
   value: number;
-  unit: 'mm' | 'deg';
+  unit: 'mm' | 'deg' | '%';
 }
 
 export interface FamilyOutcome {

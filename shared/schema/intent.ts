@@ -9,6 +9,7 @@ import { cornerDocumentSchema, type Corner } from './corner.js';
 import { armStrokeMm, innerName, MOVABLE_COORDINATE_PATTERN } from './steering-link.js';
 import { upgradeVehicleDocument, vehicleSchema } from './vehicle.js';
 import { TRACK_PROFILE_IDS, trackProfiles } from '../intent/profiles.js';
+import { ROAD_CLASSES } from '../ride/road.js';
 import { CAUTION_RULES } from '../intent/cautions.js';
 import { CORNER_RANGES, INTENT_RANGES, type InputRange } from './ranges.js';
 import { inRange } from './ranged.js';
@@ -46,6 +47,16 @@ export const trackProfileChoiceSchema = z.union([
     travelMm: z.tuple([ranged('travelMm[0]', INTENT_RANGES.travelMm), ranged('travelMm[1]', INTENT_RANGES.travelMm)]).optional(),
     /** Single-wheel bump height of the bump cautions, mm. */
     bumpHeightMm: ranged('bumpHeightMm', INTENT_RANGES.bumpHeightMm).optional(),
+    /** Length of that half-sine bump, mm. */
+    bumpLengthMm: ranged('bumpLengthMm', INTENT_RANGES.bumpLengthMm).optional(),
+    /** ISO 8608 class of the profile's random road. */
+    roadClass: z.enum(ROAD_CLASSES, { error: 'roadClass must be one of the ISO 8608 classes A to H' }).optional(),
+    /** Speed of the bump cost, km/h. */
+    speedKph: ranged('speedKph', INTENT_RANGES.speedKph).optional(),
+    /** Radius of the corner whose steer a steered axle is judged at, m. */
+    cornerRadiusM: ranged('cornerRadiusM', INTENT_RANGES.cornerRadiusM).optional(),
+    /** Drop height of a landing, mm (null: no landing). */
+    landingDropMm: ranged('landingDropMm', INTENT_RANGES.landingDropMm).nullable().optional(),
   }),
 ]);
 
@@ -62,6 +73,11 @@ export const intentOptionsSchema = z.strictObject({
   travelStepMm: ranged('travelStepMm', INTENT_RANGES.travelStepMm).optional(),
   /** Optional bound on the worst toe deviation from its linear fit at any rack position, deg. */
   worstToeBoundDeg: ranged('worstToeBoundDeg', INTENT_RANGES.worstToeBoundDeg).optional(),
+  /**
+   * Optional bump-cost budget: the largest RMS yaw-rate disturbance on the profile's road, as a
+   * percentage of the steady yaw rate of its corner (the unit of the bump-yaw-disturbance caution). Needs the vehicle.
+   */
+  bumpYawBudgetPct: ranged('bumpYawBudgetPct', INTENT_RANGES.bumpYawBudgetPct).optional(),
   /** Members of the returned solution family (default 21). */
   familySize: z.number().int().min(3).max(101).default(21),
   /** Shim thickness for the shim stacks at each end, mm. */
@@ -112,6 +128,9 @@ export const intentSchema = z
     }
     if ('rollAndComplianceSteerDegPerG' in intent.target && !intent.vehicle) {
       issue(['vehicle'], 'vehicle is required for target.rollAndComplianceSteerDegPerG (its suspension roll and axle load turn steer per degree and per kN into deg/g)');
+    }
+    if (intent.options.bumpYawBudgetPct !== undefined && !intent.vehicle) {
+      issue(['options', 'bumpYawBudgetPct'], 'vehicle is required for options.bumpYawBudgetPct (the ride model needs its masses, springs, dampers and tyres)');
     }
     if ('understeerChangeDegPerG' in intent.target && !intent.vehicle) {
       issue(['vehicle'], 'vehicle is required for target.understeerChangeDegPerG (the suspension roll gradient turns it into a roll steer coefficient)');

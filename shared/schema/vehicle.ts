@@ -36,10 +36,18 @@ export const tyreSchema = z
     verticalRateNPerMm: positive('verticalRateNPerMm').optional(),
     /** Pneumatic trail, mm (aligning torque = lateral force × trail). */
     pneumaticTrailMm: nonNegative('pneumaticTrailMm').optional(),
+    /** Relaxation length of the side force, mm (ride model; absent = 500 mm, docs/ride.md). */
+    relaxationLengthMm: positive('relaxationLengthMm').optional(),
   })
   .refine((t) => t.corneringStiffnessNPerDeg !== undefined || t.axleComplianceDegPerG !== undefined || t.loadSensitivity !== undefined, {
     message: 'give corneringStiffnessNPerDeg, axleComplianceDegPerG or loadSensitivity',
   });
+
+/** Damper of one wheel, referred to the wheel (ride model; absent = a body damping ratio of 0.3, docs/ride.md). */
+export const damperSchema = z.strictObject({
+  /** Damping force per unit wheel velocity, N·s/mm (the damper's own rate × its motion ratio²). */
+  wheelRateNsPerMm: positive('damper.wheelRateNsPerMm'),
+});
 
 export const springSchema = z.strictObject({
   /** Spring rate, N/mm. */
@@ -86,6 +94,8 @@ export const axleSchema = z
     unsprungCgHeightMm: nonNegative('unsprungCgHeightMm').optional(),
     tyre: tyreSchema,
     spring: springSchema.optional(),
+    /** Damper wheel rate of the axle's wheels (ride model and bump cost). */
+    damper: damperSchema.optional(),
     antiRollBar: antiRollBarSchema.optional(),
     /** Suspension roll stiffness entered directly (replaces springs and bar), N·m/deg. */
     rollStiffnessNmPerDeg: positive('rollStiffnessNmPerDeg').optional(),

@@ -10,6 +10,7 @@ import { exampleVehicles } from '../../shared/balance/examples.js';
 import { computeAxleRoll, computeCornerSweep } from '../../shared/kinematics/api.js';
 import { computeBalance } from '../../shared/balance/api.js';
 import { computeCornerCompliance } from '../../shared/compliance/api.js';
+import { computeRide } from '../../shared/ride/api.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import { createApp } from '../../server/app.js';
 import { agent, expectError, registerUser, startTestApp, testConfig, type Agent, type TestApp } from './helpers.js';
@@ -74,6 +75,17 @@ describe('direct compute calls', () => {
     const r = await user.post('/api/compute/balance').send(balanceInput).expect(200);
     expect(r.body.result).toEqual(json(computeBalance(balanceInput)));
     expect(r.body.result.rollGradientDegPerG).toBeGreaterThan(0);
+  });
+
+  it('ride returns the engine result (the same code as the CLI and the browser worker)', async () => {
+    const rideInput = { vehicle: exampleVehicles.tur26Ember, corner: exampleCorners.fsFrontWishbone, axle: 'front', roadClass: 'B', speedKph: 60, bump: { heightMm: 20, lengthMm: 400 } };
+    const r = await user.post('/api/compute/ride').send(rideInput).expect(200);
+    expect(r.body.result).toEqual(json(computeRide(rideInput)));
+    expect(r.body.result.wheelTravelRmsMm).toBeGreaterThan(0);
+    expect(r.body.result.bump.peakToeChangeDeg).toBeGreaterThan(0);
+    const bad = await user.post('/api/compute/ride').send({ ...rideInput, roadClass: 'Z' });
+    expectError(bad, 400, 'invalid_input');
+    expect((bad.body.error.details.fields as { path: string }[]).map((f) => f.path)).toContain('roadClass');
   });
 
   it('solve returns a solution with cautions', async () => {

@@ -2,6 +2,7 @@ import type { Corner, Vec3 } from '../../../shared/schema/corner';
 import type { Caution } from '../../../shared/intent/cautions';
 import type { ComplianceBesideRollSteer } from '../../../shared/compliance/compare';
 import type { TrackProfile, TrackProfileChoice } from '../../../shared/intent/profiles';
+import type { BumpCost } from '../../../shared/ride/cost';
 
 /** What the cautions beside the results are measured for. */
 export interface CautionRequest {
@@ -22,6 +23,9 @@ export type CornerCautions =
       /** Whether the vehicle's tyres, loads and roll were used, and why not. */
       readonly vehicleUsed: boolean;
       readonly vehicleNote: string | null;
+      /** The ride model's bump cost on the profile (shared/ride), or why there is none. */
+      readonly bumpCost: BumpCost | null;
+      readonly bumpCostUnavailable: string | null;
     }
   | { readonly ok: false; readonly profile: TrackProfile; readonly failure: AnalysisFailure };
 

@@ -8,7 +8,7 @@ import { InputError, SolveError } from '../../../shared/errors';
 import { rollSweep, solvePose, sweepCorner } from '../../../shared/kinematics/index';
 import type { Corner, Vec3 } from '../../../shared/schema/corner';
 import { upgradeVehicleDocument, vehicleSchema, type Vehicle } from '../../../shared/schema/vehicle';
-import { cautionRackPositions, cautionsForCorner } from '../../../shared/intent/corner-cautions';
+import { cautionRackPositions, measureCornerCautions } from '../../../shared/intent/corner-cautions';
 import { resolveTrackProfile } from '../../../shared/intent/profiles';
 import { complianceBesideRollSteer } from '../../../shared/compliance/compare';
 import type { AnalysisFailure, AnalysisRequest, CautionRequest, CornerAnalysis, CornerCautions, DrawnPose, RackCurve, RollCurve } from './analysis-types';
@@ -116,8 +116,17 @@ function cornerCautions(corner: Corner, request: CautionRequest): CornerCautions
   const profile = resolveTrackProfile(request.trackProfile);
   const { vehicle, note } = vehicleFrom(request.vehicleData);
   try {
-    const list = cautionsForCorner(corner, { axle: request.axle, trackProfile: request.trackProfile, vehicle });
-    return { ok: true, list, profile, racksMm: cautionRackPositions(corner), vehicleUsed: vehicle !== undefined, vehicleNote: note };
+    const m = measureCornerCautions(corner, { axle: request.axle, trackProfile: request.trackProfile, vehicle });
+    return {
+      ok: true,
+      list: m.cautions,
+      profile,
+      racksMm: cautionRackPositions(corner),
+      vehicleUsed: vehicle !== undefined,
+      vehicleNote: note,
+      bumpCost: m.bumpCost,
+      bumpCostUnavailable: m.bumpCostUnavailable,
+    };
   } catch (error) {
     if (error instanceof InputError || error instanceof SolveError) return { ok: false, profile, failure: describeFailure(error) };
     throw error;

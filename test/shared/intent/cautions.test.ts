@@ -8,6 +8,31 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { CAUTION_RULES, evaluateCautions, thresholdsFor, type CautionInputs, type ThresholdCautionCode } from '../../../shared/intent/cautions.js';
 import { resolveTrackProfile, trackProfiles } from '../../../shared/intent/profiles.js';
+import type { BumpCost } from '../../../shared/ride/cost.js';
+
+/** A bump cost with everything quiet; the ride model's own tests check how the figures are made. */
+const cost = (over: Partial<BumpCost> = {}): BumpCost => ({
+  roadInWords: 'very good road (ISO 8608 class A) at 100 km/h',
+  roadClass: 'A',
+  speedKph: 100,
+  cornerRadiusM: 60,
+  judgedAt: 'on-centre',
+  wheelTravelRmsMm: 3,
+  toeRmsDeg: 0,
+  yawRateRmsDegPerS: 0,
+  steadyYawRateDegPerS: 26.5,
+  yawDisturbancePct: 0,
+  bumpHeightMm: 10,
+  bumpLengthMm: 300,
+  headingChangeDeg: 0,
+  driftM: 0,
+  peakToeChangeDeg: 0,
+  landingDropMm: null,
+  landingSideForceFraction: null,
+  fullLockBumpSteerDegPerM: null,
+  summary: '',
+  ...over,
+});
 
 const quiet = (over: Partial<CautionInputs> = {}): CautionInputs => ({
   axle: 'rear',
@@ -44,8 +69,9 @@ describe('caution rules', () => {
 
   // [code, inputs producing value v, profile]
   const cases: Array<[ThresholdCautionCode, (v: number) => Partial<CautionInputs>, Partial<CautionInputs>]> = [
-    ['bump-toe-change', (v) => ({ bumpToeChangeDeg: v, corneringCoefficientPerDeg: 0 }), {}],
-    ['bump-lateral-force', (v) => ({ bumpToeChangeDeg: v / 0.2 }), { profile: resolveTrackProfile({ id: 'smooth-circuit' }) }],
+    ['bump-yaw-disturbance', (v) => ({ bumpCost: cost({ yawDisturbancePct: v }) }), {}],
+    ['bump-heading-change', (v) => ({ bumpCost: cost({ driftM: -v, headingChangeDeg: -0.1 }) }), {}],
+    ['landing-side-force', (v) => ({ bumpCost: cost({ landingSideForceFraction: v, landingDropMm: 500 }) }), { profile: resolveTrackProfile('off-road') }],
     ['bump-lateral-scrub', (v) => ({ bumpScrubMm: v }), {}],
     ['front-roll-steer-feel', (v) => ({ rollSteerCoefficient: v }), { axle: 'front' }],
     ['long-travel-roll-steer', (v) => ({ rollSteerCoefficient: -v }), { profile: resolveTrackProfile('off-road') }],
@@ -103,21 +129,44 @@ describe('caution rules', () => {
   });
 
   it('per-vehicle thresholds override the defaults', () => {
-    const i = quiet({ bumpToeChangeDeg: 0.12, corneringCoefficientPerDeg: 0 });
-    expect(codes(i)).not.toContain('bump-toe-change:warning');
-    expect(codes({ ...i, thresholds: { 'bump-toe-change': { warning: 0.1 } } })).toContain('bump-toe-change:warning');
+    const i = quiet({ bumpCost: cost({ yawDisturbancePct: 1.5 }) });
+    expect(codes(i)).not.toContain('bump-yaw-disturbance:warning');
+    expect(codes({ ...i, thresholds: { 'bump-yaw-disturbance': { warning: 1 } } })).toContain('bump-yaw-disturbance:warning');
   });
 
-  it('bump thresholds tighten from smooth circuit to off-road (profiles carry their own defaults)', () => {
-    const w = (id: keyof typeof trackProfiles) => thresholdsFor('bump-toe-change', id).warning!;
-    expect(w('off-road')).toBeLessThan(w('bumpy-circuit'));
-    expect(w('bumpy-circuit')).toBeLessThan(w('smooth-circuit'));
+  it('judges the toe change itself only on a team’s own thresholds: an alignment tolerance is no basis for a dynamic limit', () => {
+    // domain.md / issue 13: thresholds are stated in consequences (yaw rate, heading), never in alignment tolerance.
+    for (const code of ['bump-toe-change', 'bump-lateral-force'] as const) {
+      for (const id of Object.keys(trackProfiles) as (keyof typeof trackProfiles)[]) expect(thresholdsFor(code, id)).toEqual({});
+      expect(CAUTION_RULES[code].basis).not.toMatch(/alignment spec/);
+    }
+    const big = quiet({ bumpToeChangeDeg: 2, landingLoadN: 3000 });
+    expect(codes(big).some((c) => c.startsWith('bump-toe-change') || c.startsWith('bump-lateral-force'))).toBe(false);
+    expect(codes({ ...big, thresholds: { 'bump-toe-change': { warning: 0.5 } } })).toContain('bump-toe-change:warning');
   });
 
-  it('the profile overrides of travel and bump height apply', () => {
-    const p = resolveTrackProfile({ id: 'bumpy-circuit', travelMm: [-20, 30], bumpHeightMm: 12 });
+  it('says why there is no bump cost when the ride model cannot run', () => {
+    const c = evaluateCautions(quiet({ bumpCostUnavailable: 'vehicle.front.tyre.verticalRateNPerMm: required by the ride model' })).find((x) => x.code === 'bump-cost-unavailable');
+    expect(c?.level).toBe('info');
+    expect(c?.message).toMatch(/verticalRateNPerMm/);
+  });
+
+  it('states the heading rule in drift at the profile speed and the yaw rule against the steady yaw rate', () => {
+    const c = evaluateCautions(quiet({ bumpCost: cost({ headingChangeDeg: 0.6, driftM: (100 / 3.6) * Math.tan((0.6 * Math.PI) / 180) }) })).find((x) => x.code === 'bump-heading-change')!;
+    expect(c.level).toBe('critical');
+    expect(c.message).toMatch(/29\.1 cm of sideways drift/);
+    const y = evaluateCautions(quiet({ bumpCost: cost({ yawRateRmsDegPerS: 0.8, yawDisturbancePct: 3.02 }) })).find((x) => x.code === 'bump-yaw-disturbance')!;
+    expect(y.level).toBe('warning');
+    expect(y.message).toMatch(/26\.5 deg\/s of a 60 m corner/);
+  });
+
+  it('the profile overrides of travel, bump, road, speed and corner apply', () => {
+    const p = resolveTrackProfile({ id: 'bumpy-circuit', travelMm: [-20, 30], bumpHeightMm: 12, roadClass: 'D', speedKph: 55, cornerRadiusM: 25, bumpLengthMm: 800 });
     expect(p.travelMm).toEqual([-20, 30]);
     expect(p.bumpHeightMm).toBe(12);
+    expect([p.roadClass, p.speedKph, p.cornerRadiusM, p.bumpLengthMm]).toEqual(['D', 55, 25, 800]);
+    expect(resolveTrackProfile('off-road').landingDropMm).toBeGreaterThan(0);
+    expect(resolveTrackProfile('smooth-circuit').landingDropMm).toBeNull();
     expect(resolveTrackProfile('bumpy-circuit').bumpHeightMm).toBe(trackProfiles['bumpy-circuit'].bumpHeightMm);
   });
 });

@@ -24,6 +24,7 @@ import { hardpointCsv, hardpointJson } from './hardpoint-io';
 import { changedPoints, getPoint, pointName, withPoint, withPoints } from './hardpoint-model';
 import { HardpointTable, PointEdit } from './hardpoint-table';
 import { LinkageViews } from './linkage-views';
+import { BumpCostView } from '../bump-cost';
 import { CornerCautions } from './corner-cautions';
 import { TrackProfileSelect } from './track-profile-select';
 
@@ -52,7 +53,7 @@ function profileStorageKey(designId: string): string {
  */
 @Component({
   selector: 'rw-axle-design-page',
-  imports: [DatePipe, RouterLink, MatButton, MatProgressBar, HardpointTable, HardpointImport, LinkageViews, LineChart, SafetyCaution, CornerCautions, TrackProfileSelect, RigMeasurementsPanel],
+  imports: [DatePipe, RouterLink, MatButton, MatProgressBar, HardpointTable, HardpointImport, LinkageViews, LineChart, SafetyCaution, CornerCautions, BumpCostView, TrackProfileSelect, RigMeasurementsPanel],
   templateUrl: './axle-design-page.html',
   styleUrl: './axle-design-page.scss',
   providers: [KinematicsClient],
@@ -462,6 +463,11 @@ export class AxleDesignPage implements OnInit {
     const c = this.analysis()?.cautions;
     return c && c.ok ? c.list : null;
   });
+  /** The ride model's bump cost beside the roll steer (null until the cautions are measured). */
+  protected readonly bumpCost = computed(() => {
+    const c = this.analysis()?.cautions;
+    return c && c.ok ? { cost: c.bumpCost, unavailable: c.bumpCostUnavailable } : null;
+  });
   protected readonly cautionFailure = computed(() => {
     const c = this.analysis()?.cautions;
     return c && !c.ok ? c.failure : null;
@@ -472,7 +478,7 @@ export class AxleDesignPage implements OnInit {
     const c = this.analysis()?.cautions;
     if (!c) return '';
     const p = c.profile;
-    const where = `over ${p.travelMm[0]} to ${p.travelMm[1]} mm of travel (the curves' range) with a ${p.bumpHeightMm} mm single-wheel bump`;
+    const where = `over ${p.travelMm[0]} to ${p.travelMm[1]} mm of travel (the curves' range) with a ${p.bumpHeightMm} mm single-wheel bump, on ISO 8608 class ${p.roadClass} at ${p.speedKph} km/h`;
     if (!c.ok) return `Measured ${where}.`;
     const racks = c.racksMm.length > 1 ? `, at rack ${c.racksMm.join(', ')} mm` : '';
     const vehicle = c.vehicleUsed ? "the vehicle's tyres, loads and roll" : `product default tyre figures (${c.vehicleNote ?? 'no vehicle'})`;

@@ -4,7 +4,7 @@ import { CautionList } from '../intent/caution-list';
 
 /** Which result each caution concerns: the bump-steer fits, or the roll steer ε. */
 export const CAUTION_GROUPS: Readonly<Record<'bump' | 'roll', readonly CautionCode[]>> = {
-  bump: ['bump-toe-change', 'bump-lateral-force', 'bump-lateral-scrub', 'lock-bump-steer-spread', 'rack-pose-unreachable'],
+  bump: ['bump-yaw-disturbance', 'bump-heading-change', 'landing-side-force', 'bump-cost-unavailable', 'bump-toe-change', 'bump-lateral-force', 'bump-lateral-scrub', 'lock-bump-steer-spread', 'rack-pose-unreachable'],
   roll: ['front-roll-steer-feel', 'long-travel-roll-steer', 'rear-roll-oversteer', 'roll-steer-curvature', 'compliance-steer-rivals', 'compliance-steer-unmodelled'],
 };
 

@@ -9,7 +9,7 @@ import { trackProfiles, type TrackProfileId } from '../../../../shared/intent/pr
       <span>Track profile for the cautions</span>
       <select [value]="value()" (change)="pick($event)">
         @for (p of profiles; track p.id) {
-          <option [value]="p.id" [selected]="p.id === value()">{{ p.label }} ({{ p.bumpHeightMm }} mm bump)</option>
+          <option [value]="p.id" [selected]="p.id === value()">{{ p.label }} (ISO 8608 class {{ p.roadClass }} at {{ p.speedKph }} km/h, {{ p.bumpHeightMm }} mm bump)</option>
         }
       </select>
     </label>

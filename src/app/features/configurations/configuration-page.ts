@@ -1,3 +1,5 @@
+import { BumpCostView } from '../bump-cost';
+import type { BumpCost } from '../../../../shared/ride/cost';
 import { RigMeasurementsPanel } from '../rig/rig-measurements-panel';
 import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal, viewChild } from '@angular/core';
 import { ActivatedRoute, RouterLink } from '@angular/router';
@@ -34,7 +36,9 @@ import { StatusChip } from './status-chip';
 
 type Load<T> = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; value: T };
 
-type AxleCautions = { axle: 'front' | 'rear'; ok: true; list: readonly Caution[] } | { axle: 'front' | 'rear'; ok: false; message: string };
+type AxleCautions =
+  | { axle: 'front' | 'rear'; ok: true; list: readonly Caution[]; bumpCost?: BumpCost | null; bumpCostUnavailable?: string | null }
+  | { axle: 'front' | 'rear'; ok: false; message: string };
 
 const BUDGET_TERMS = [
   ['tyres', 'Tyres'],
@@ -69,7 +73,7 @@ interface FrozenFigure {
  */
 @Component({
   selector: 'rw-configuration-page',
-  imports: [RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, StatusChip, ReviewComments, RigMeasurementsPanel],
+  imports: [RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel],
   providers: [KinematicsClient],
   templateUrl: './configuration-page.html',
   styleUrl: './configuration-page.scss',
@@ -264,7 +268,11 @@ export class ConfigurationPage implements OnInit {
             cautions: { axle, trackProfile: { id: c.trackProfile }, vehicleData: vehicle.data },
           });
           const k = a.cautions;
-          out.push(k && k.ok ? { axle, ok: true, list: k.list } : { axle, ok: false, message: k && !k.ok ? k.failure.message : 'No cautions were measured.' });
+          out.push(
+            k && k.ok
+              ? { axle, ok: true, list: k.list, bumpCost: k.bumpCost, bumpCostUnavailable: k.bumpCostUnavailable }
+              : { axle, ok: false, message: k && !k.ok ? k.failure.message : 'No cautions were measured.' },
+          );
         } catch (error) {
           out.push({ axle, ok: false, message: error instanceof AnalysisError ? error.failure.message : String(error) });
         }

@@ -20,6 +20,7 @@ import { SafetyCaution } from '../safety-caution';
 import { parseDecimal } from '../axle-design/hardpoint-io';
 import { pointName } from '../axle-design/hardpoint-model';
 import { CautionList } from './caution-list';
+import { BumpCostView } from '../bump-cost';
 
 export type TargetKind = 'epsilon' | 'toePerRoll' | 'understeer' | 'zeroBump';
 
@@ -48,7 +49,7 @@ const DEFAULT_HALF_RANGE_MM = 20;
  */
 @Component({
   selector: 'rw-intent-page',
-  imports: [RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution, CautionList],
+  imports: [RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution, CautionList, BumpCostView],
   templateUrl: './intent-page.html',
   styleUrl: './intent-page.scss',
   providers: [IntentClient],
@@ -75,6 +76,8 @@ export class IntentPage implements OnInit {
   protected readonly travelFromText = signal(String(trackProfiles['smooth-circuit'].travelMm[0]));
   protected readonly travelToText = signal(String(trackProfiles['smooth-circuit'].travelMm[1]));
   protected readonly bumpText = signal(String(trackProfiles['smooth-circuit'].bumpHeightMm));
+  /** Optional bump-cost budget: RMS yaw-rate disturbance on the profile's road, % of the steady yaw rate (empty: none). */
+  protected readonly budgetText = signal('');
   protected readonly movable = signal<Readonly<Record<string, MovableState>>>({});
 
   protected readonly profiles = Object.values(trackProfiles);
@@ -134,6 +137,11 @@ export class IntentPage implements OnInit {
     if (from === null || to === null || !(from < 0 && to > 0)) out.push('Travel range: from a droop below 0 to a bump above 0 mm.');
     const bump = parseDecimal(this.bumpText());
     if (bump === null || bump <= 0) out.push('Single-wheel bump height: a positive number of mm.');
+    if (this.budgetText().trim() !== '') {
+      const budget = parseDecimal(this.budgetText());
+      if (budget === null || budget <= 0) out.push('Bump-cost budget: a positive percentage, or leave it empty.');
+      else if (!this.vehicleValid()) out.push('Bump-cost budget: needs the vehicle data (masses, springs, dampers and tyres).');
+    }
     return out;
   });
 
@@ -170,9 +178,27 @@ export class IntentPage implements OnInit {
     };
   });
 
+  /**
+   * Balance gained against bump cost: with a vehicle that runs the ride model, the primary coordinate
+   * across its bounds (x: yaw-rate disturbance on the profile's road, % of the steady yaw rate);
+   * otherwise the family members against their toe change over the single-wheel bump.
+   */
   protected readonly tradeOffChart = computed(() => {
     const r = this.result();
     if (!r) return null;
+    if (r.tradeOff.length > 0) {
+      const useUndersteer = r.tradeOff.every((t) => t.understeerChangeDegPerG !== null);
+      const y = (t: (typeof r.tradeOff)[number]) => (useUndersteer ? t.understeerChangeDegPerG! : t.rollSteerCoefficient);
+      const points = r.tradeOff.map((t) => ({ x: t.yawDisturbancePct, y: y(t) })).sort((a, b) => a.x - b.x);
+      const chosen = r.family.find((m) => m.chosen);
+      const chosenY = chosen ? (useUndersteer ? chosen.understeerChangeDegPerG : chosen.rollSteerCoefficient) : null;
+      return {
+        series: [{ name: `${r.primaryCoordinate} across its bounds`, points }],
+        marks: chosen?.bumpCost && chosenY !== null ? [{ x: chosen.bumpCost.yawDisturbancePct, y: chosenY, label: 'Chosen' }] : [],
+        x: { label: `Yaw-rate disturbance on ${r.bumpCost?.roadInWords ?? 'the profile road'}, % of steady yaw rate`, unit: '%' },
+        y: useUndersteer ? { label: 'Understeer change', unit: 'deg/g' } : { label: 'Roll steer coefficient ε', unit: 'deg/deg' },
+      };
+    }
     const members = r.family.filter((m) => m.bumpToeChangeDeg !== null);
     if (members.length === 0) return null;
     const useUndersteer = members.every((m) => m.understeerChangeDegPerG !== null);
@@ -182,6 +208,7 @@ export class IntentPage implements OnInit {
     return {
       series: [{ name: 'Family members', points }],
       marks: chosen ? [{ x: Math.abs(chosen.bumpToeChangeDeg!), y: yOf(chosen), label: 'Chosen' }] : [],
+      x: { label: 'Toe change over the single-wheel bump', unit: 'deg' },
       y: useUndersteer ? { label: 'Understeer change', unit: 'deg/g' } : { label: 'Roll steer coefficient ε', unit: 'deg/deg' },
     };
   });
@@ -278,6 +305,7 @@ export class IntentPage implements OnInit {
         bumpHeightMm: parseDecimal(this.bumpText())!,
       },
       ...(this.vehicleValid() ? { vehicle: this.vehicleData() } : {}),
+      ...(this.budgetText().trim() !== '' ? { options: { bumpYawBudgetPct: parseDecimal(this.budgetText())! } } : {}),
     };
   }
 

@@ -19,6 +19,8 @@ import { CautionList } from '../intent/caution-list';
 import { routeParam } from '../route-params';
 import { rollSteerWords } from '../roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
+import { BumpCostView } from '../bump-cost';
+import { DEFAULT_TRACK_PROFILE } from '../../../../shared/intent/profiles';
 
 const TRAVEL = { from: -25, to: 25, step: 2.5 };
 const ROLL = { from: -3, to: 3, step: 0.25 };
@@ -32,7 +34,7 @@ const ROLL = { from: -3, to: 3, step: 0.25 };
  */
 @Component({
   selector: 'rw-design-report-page',
-  imports: [DatePipe, RouterLink, MatButton, HardpointTable, LineChart, BarChart, CautionList, SafetyCaution],
+  imports: [DatePipe, RouterLink, MatButton, HardpointTable, LineChart, BarChart, CautionList, SafetyCaution, BumpCostView],
   templateUrl: './design-report-page.html',
   styleUrl: './design-report-page.scss',
   encapsulation: ViewEncapsulation.None,
@@ -65,6 +67,12 @@ export class DesignReportPage implements OnInit {
     const a = this.analysis();
     const d = this.design();
     return a && d ? rollSteerWords(a.rollSteerCoefficient, d.axle) : '';
+  });
+
+  /** The ride model's bump cost on the axle's default track profile, beside the roll steer. */
+  protected readonly bumpCost = computed(() => {
+    const c = this.analysis()?.cautions;
+    return c && c.ok ? { cost: c.bumpCost, unavailable: c.bumpCostUnavailable } : c && !c.ok ? { cost: null, unavailable: c.failure.message } : null;
   });
 
   protected readonly cautions = computed<Caution[]>(() => {
@@ -117,8 +125,13 @@ export class DesignReportPage implements OnInit {
       return;
     }
     const stroke = design.corner.steered && design.corner.steering?.kind === 'rack' ? design.corner.steering.rackStroke : null;
+    // The bump cost beside the roll steer needs the vehicle's ride data (masses, springs, dampers, tyres).
+    const vehicleData = await firstValueFrom(this.api.vehicle(this.teamId, this.vehicleId))
+      .then((v) => v.data as unknown)
+      .catch(() => null);
+    const cautions = { axle: design.axle, trackProfile: { id: DEFAULT_TRACK_PROFILE[design.axle] }, vehicleData };
     const kinematics = this.engine
-      .analyse({ corner: design.corner, travel: TRAVEL, rackMm: stroke ? [0, stroke[0] / 2, stroke[1] / 2] : [0], roll: ROLL, pose: { travelMm: 0, rackMm: 0 } })
+      .analyse({ corner: design.corner, travel: TRAVEL, rackMm: stroke ? [0, stroke[0] / 2, stroke[1] / 2] : [0], roll: ROLL, pose: { travelMm: 0, rackMm: 0 }, cautions })
       .then((a) => this.analysis.set(a))
       .catch((e) => this.analysisError.set(e instanceof AnalysisError ? e.message : String(e)));
     const others = Promise.all([
