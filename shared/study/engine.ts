@@ -107,7 +107,7 @@ export class StudyModel {
   private readonly nomL: Float64Array;
   private readonly nomR: Float64Array;
   private readonly nominalStatic: { toeDeg: number; camberDeg: number };
-  private readonly setupSens: { camberPerShim: number; toePerShim: number; toePerLength: number } | null;
+  readonly setupSens: { camberPerShim: number; toePerShim: number; toePerLength: number; camberPerLength: number } | null;
   /** Points a camber shim moves along y: the upper-arm pickups (double wishbone) or the strut top (camber plate). */
   private readonly shimPoints: string[];
   private readonly buildL: BuildSide;
@@ -332,6 +332,7 @@ export class StudyModel {
       camberPerShim: sp && sm ? (sp.camber - sm.camber) / (2 * h) : 0,
       toePerShim: sp && sm ? (sp.toe - sm.toe) / (2 * h) : 0,
       toePerLength: (lp.toe - lm.toe) / (2 * h),
+      camberPerLength: (lp.camber - lm.camber) / (2 * h),
     };
   }
 
@@ -381,34 +382,40 @@ export class StudyModel {
     let poses = 0;
     try {
       const setup = this.spec.kind === 'tolerance' ? this.spec.setup : null;
-      const buildSide = (b: BuildSide, offsets: PointMoves | null, nom: Float64Array): PoseRow => {
-        const s = b.solver;
-        b.apply(offsets, 0, 0);
+      const buildSide = (bs: BuildSide, offsets: PointMoves | null, nom: Float64Array): PoseRow => {
+        const s = bs.solver;
+        bs.apply(offsets, 0, 0);
         this.warm(s, nom, 0);
         s.solve(0, 0);
         poses++;
-        if (setup && this.setupSens) {
-          const sens = this.setupSens;
+        if (setup && this.setupSens && (setup.camberShimMm !== undefined || setup.toeAdjusterStepMm !== undefined)) {
+          // As on an alignment stand: read toe and camber, set the shim and the tie-rod length that cancel both
+          // (their coupling through the nominal sensitivities), to the shim and adjuster resolution; read and set again.
+          const g = this.setupSens;
+          const useShim = setup.camberShimMm !== undefined && g.camberPerShim !== 0;
+          const useToe = setup.toeAdjusterStepMm !== undefined && g.toePerLength !== 0;
           let shim = 0;
-          const shimStep = setup.camberShimMm;
-          if (shimStep !== undefined && sens.camberPerShim !== 0) {
-            shim = -(poseRow(s).camberDeg - this.nominalStatic.camberDeg) / sens.camberPerShim;
-            if (shimStep > 0) shim = Math.round(shim / shimStep) * shimStep;
-            if (shim !== 0) {
-              b.apply(offsets, shim, 0);
-              s.solve(0, 0);
-              poses++;
-            }
-          }
-          const toeStep = setup.toeAdjusterStepMm;
-          if (toeStep !== undefined && sens.toePerLength !== 0) {
-            let dl = -(toeOf(s) - this.nominalStatic.toeDeg) / sens.toePerLength;
-            if (toeStep > 0) dl = Math.round(dl / toeStep) * toeStep;
-            if (dl !== 0) {
-              b.apply(offsets, shim, dl);
-              s.solve(0, 0);
-              poses++;
-            }
+          let dl = 0;
+          for (let pass = 0; pass < 2; pass++) {
+            const dc = -(poseRow(s).camberDeg - this.nominalStatic.camberDeg);
+            const dt = -(toeOf(s) - this.nominalStatic.toeDeg);
+            let a = 0;
+            let b = 0;
+            if (useShim && useToe) {
+              const det = g.camberPerShim * g.toePerLength - g.camberPerLength * g.toePerShim;
+              a = (dc * g.toePerLength - g.camberPerLength * dt) / det;
+              b = (g.camberPerShim * dt - g.toePerShim * dc) / det;
+            } else if (useShim) a = dc / g.camberPerShim;
+            else b = dt / g.toePerLength;
+            const q = (v: number, step: number | undefined) => (step ? Math.round(v / step) * step : v);
+            const nextShim = useShim ? q(shim + a, setup.camberShimMm) : 0;
+            const nextDl = useToe ? q(dl + b, setup.toeAdjusterStepMm) : 0;
+            if (nextShim === shim && nextDl === dl) break;
+            shim = nextShim;
+            dl = nextDl;
+            bs.apply(offsets, shim, dl);
+            s.solve(0, 0);
+            poses++;
           }
         }
         return poseRow(s);
