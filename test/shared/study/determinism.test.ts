@@ -118,8 +118,9 @@ describe('design sweep', { timeout: 120_000 }, () => {
     // No variant in the scatter beats a front member on both counts.
     for (const f of front) for (const v of r.sweep!.scatter) expect(v.gainDegPerG > f.gainDegPerG && v.costDeg < f.costDeg).toBe(false);
     const v = variantCorner(sweep, front[0]!.index);
-    expect(v.points.tieRodInner[2]).toBeCloseTo(front[0]!.factors[0]!, 12);
-    expect(v.points.tieRodOuter[2]).toBeCloseTo(front[0]!.factors[1]!, 12);
+    const pts = v.points as Record<string, [number, number, number]>;
+    expect(pts['tieRodInner']![2]).toBeCloseTo(front[0]!.factors[0]!, 12);
+    expect(pts['tieRodOuter']![2]).toBeCloseTo(front[0]!.factors[1]!, 12);
     expect(() => compileCorner(v)).not.toThrow();
     expect(() => variantCorner(sweep, 40)).toThrow(/not a variant/);
     expect(r.sweep!.surfaces.find((s) => s.output === 'rollSteerCoefficient')!.r2).toBeGreaterThan(0.95);
