@@ -34,6 +34,10 @@ import { Programmes } from './services/programmes.js';
 import { programmesRouter, teamProgrammesRouter } from './routes/programmes.js';
 import { createComputePool } from './compute/pool.js';
 import { SolveJobs } from './compute/jobs.js';
+import { JobQueue } from './compute/queue.js';
+import { QueueRunner } from './compute/runner.js';
+import { queueHandlers } from './compute/handlers.js';
+import { workerOptions } from './worker.js';
 import { healthRouter } from './routes/health.js';
 import { authRouter } from './routes/auth.js';
 import { teamsRouter } from './routes/teams.js';
@@ -88,7 +92,11 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   const designs = new AxleDesigns(db.orm);
   const proposals = new Proposals(db.orm, designs);
   const pool = createComputePool({ threads: config.computeThreads, warm: config.computeWarmStart });
-  const jobs = new SolveJobs(pool, { timeLimitMs: config.solveJobTimeLimitMs });
+  const queue = new JobQueue(db.pool);
+  const jobs = new SolveJobs(db, queue, { timeLimitMs: config.solveJobTimeLimitMs });
+  // Tests and single-process set-ups: a queue worker in this process (npm start runs a worker process instead).
+  const runner = config.inProcessWorker ? new QueueRunner(db, { ...workerOptions(config, logger), warm: false }, queueHandlers) : undefined;
+  const runnerStarted = runner?.start().catch((err: unknown) => logger.error({ err }, 'the in-process queue worker could not start'));
   const configurations = new Configurations(db.orm, pool, config.computeTimeLimitMs, config.publicUrl);
   programmes = new Programmes(db.orm, configurations);
 
@@ -169,6 +177,9 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   app.close = async () => {
     session.close();
     jobs.close();
+    await runnerStarted;
+    await runner?.stop(5_000);
+    await queue.stop();
     await mail?.stop();
     await pool.close();
   };
