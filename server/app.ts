@@ -93,7 +93,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   const proposals = new Proposals(db.orm, designs);
   const pool = createComputePool({ threads: config.computeThreads, warm: config.computeWarmStart });
   const queue = new JobQueue(db.pool);
-  const jobs = new SolveJobs(db, queue, { timeLimitMs: config.solveJobTimeLimitMs });
+  const jobs = new SolveJobs(db, queue, { timeLimitMs: config.solveJobTimeLimitMs, retainMs: config.solveJobRetainMs });
   // Tests and single-process set-ups: a queue worker in this process (npm start runs a worker process instead).
   const runner = config.inProcessWorker ? new QueueRunner(db, { ...workerOptions(config, logger), warm: false }, queueHandlers) : undefined;
   const runnerStarted = runner?.start().catch((err: unknown) => logger.error({ err }, 'the in-process queue worker could not start'));

@@ -63,6 +63,8 @@ export interface Config {
   computeWarmStart: boolean;
   /** Time limit of a background solve job (longer family sweeps). */
   solveJobTimeLimitMs: number;
+  /** A finished solve job keeps its answer this long; then its id answers 410 job_gone (expired). */
+  solveJobRetainMs: number;
   /** bcrypt cost factor for password hashes. */
   bcryptRounds: number;
   /** Job queue workers (server/worker.ts): concurrent solve jobs and study chunks per worker process. */
@@ -162,6 +164,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     computeTimeLimitMs: int(env, 'COMPUTE_TIME_LIMIT_MS', 10_000, 50),
     computeWarmStart: !test,
     solveJobTimeLimitMs: int(env, 'SOLVE_JOB_TIME_LIMIT_MS', 120_000, 50),
+    solveJobRetainMs: int(env, 'SOLVE_JOB_RETAIN_MINUTES', 15, 0) * 60_000,
     // Tests hash many throwaway passwords; everything else uses a real cost.
     bcryptRounds: int(env, 'BCRYPT_ROUNDS', test ? 4 : 12, 4),
     workerSolveSlots: int(env, 'WORKER_SOLVE_SLOTS', 1, 0),
