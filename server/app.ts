@@ -49,6 +49,8 @@ import { devMailRouter } from './routes/dev-mail.js';
 import { MailWorker } from './mail/outbox.js';
 import { RigMeasurements } from './services/rig-measurements.js';
 import { rigMeasurementsRouter } from './routes/rig-measurements.js';
+import { Studies } from './services/studies.js';
+import { studiesRouter } from './routes/studies.js';
 
 export type RollwiseApp = Express & {
   /** Stops the app's own timers, workers and session store (not the database). */
@@ -99,6 +101,10 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   const runnerStarted = runner?.start().catch((err: unknown) => logger.error({ err }, 'the in-process queue worker could not start'));
   const configurations = new Configurations(db.orm, pool, config.computeTimeLimitMs, config.publicUrl);
   programmes = new Programmes(db.orm, configurations);
+  const studies = new Studies(db, queue, { designs, vehicles, configurations, proposals }, {
+    maxActivePerTeam: config.studyMaxActivePerTeam,
+    chunkExpireSeconds: config.studyChunkExpireSeconds,
+  });
 
   const mail = config.smtpUrl
     ? new MailWorker(db.orm, {
@@ -140,6 +146,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use('/invitations', invitationLinksRouter(invitations, accounts));
   api.use('/teams/:teamId/invitations', teamInvitationsRouter(invitations, auth));
   api.use('/teams/:teamId/configurations', configurationsRouter(configurations, auth));
+  api.use('/teams/:teamId/studies', studiesRouter(studies, auth));
   if (!config.production) api.use('/teams/:teamId/dev/mail', devMailRouter(db.orm, auth));
   api.use('/teams/:teamId', rigMeasurementsRouter(new RigMeasurements(db.orm, configurations, pool, config.computeTimeLimitMs), auth));
   api.use('/teams/:teamId', activityRouter(activity, designs, auth));

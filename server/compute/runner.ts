@@ -25,6 +25,7 @@ import type PgBoss from 'pg-boss';
 import type { Database } from '../db/client.js';
 import { toErrorBody } from '../http/errors.js';
 import { createComputePool, type ComputePool } from './pool.js';
+import { cancelStudyChunks } from '../services/studies.js';
 import { JobQueue, NOTIFY_CHANNEL, QUEUES, type QueueJobData } from './queue.js';
 
 export interface RunnerOptions {
@@ -289,6 +290,7 @@ export const lostHandler: QueueHandler = async (ctx, job) => {
         },
       ],
     );
-    await ctx.queue.notify(`cancel:${data.studyId}`);
+    const { rows } = await ctx.db.pool.query<{ total_chunks: number }>('SELECT total_chunks FROM studies WHERE id = $1', [data.studyId]);
+    if (rows[0]) await cancelStudyChunks(ctx.queue, data.studyId, rows[0].total_chunks);
   }
 };
