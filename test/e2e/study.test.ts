@@ -38,7 +38,12 @@ describe('Tolerance study in Chromium', () => {
     await page.getByLabel('Coordinate of tolerance 2').selectOption('sphere');
     await page.getByLabel('Distribution of tolerance 2').selectOption('uniform');
     await page.getByRole('button', { name: 'Start the study' }).click();
-    await page.waitForURL((url) => /\/studies\/[0-9a-f-]{36}$/.test(url.pathname));
+    // The study page, or the form's error in the user's words (reported as the failure).
+    const refused = page.locator('.rw-study-form [role="alert"]');
+    await Promise.race([
+      page.waitForURL((url) => /\/studies\/[0-9a-f-]{36}$/.test(url.pathname)),
+      refused.waitFor().then(async () => expect.fail(`the study was refused: ${await refused.innerText()}`)),
+    ]);
     await page.getByRole('heading', { name: /Front pickups in the jig/ }).waitFor();
 
     // Progress: the page polls until every chunk is in (600 samples in two chunks of 500 and 100).
