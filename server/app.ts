@@ -35,6 +35,10 @@ import { Programmes } from './services/programmes.js';
 import { programmesRouter, teamProgrammesRouter } from './routes/programmes.js';
 import { createComputePool } from './compute/pool.js';
 import { SolveJobs } from './compute/jobs.js';
+import { JobQueue } from './compute/queue.js';
+import { QueueRunner } from './compute/runner.js';
+import { queueHandlers } from './compute/handlers.js';
+import { workerOptions } from './worker.js';
 import { healthRouter } from './routes/health.js';
 import { authRouter } from './routes/auth.js';
 import { teamsRouter } from './routes/teams.js';
@@ -46,6 +50,8 @@ import { devMailRouter } from './routes/dev-mail.js';
 import { MailWorker } from './mail/outbox.js';
 import { RigMeasurements } from './services/rig-measurements.js';
 import { rigMeasurementsRouter } from './routes/rig-measurements.js';
+import { Studies } from './services/studies.js';
+import { studiesRouter } from './routes/studies.js';
 
 export type RollwiseApp = Express & {
   /** Stops the app's own timers, workers and session store (not the database). */
@@ -89,9 +95,17 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   const designs = new AxleDesigns(db.orm);
   const proposals = new Proposals(db.orm, designs);
   const pool = createComputePool({ threads: config.computeThreads, warm: config.computeWarmStart });
-  const jobs = new SolveJobs(pool, { timeLimitMs: config.solveJobTimeLimitMs });
+  const queue = new JobQueue(db.pool);
+  const jobs = new SolveJobs(db, queue, { timeLimitMs: config.solveJobTimeLimitMs, retainMs: config.solveJobRetainMs });
+  // Tests and single-process set-ups: a queue worker in this process (npm start runs a worker process instead).
+  const runner = config.inProcessWorker ? new QueueRunner(db, { ...workerOptions(config, logger), warm: false }, queueHandlers) : undefined;
+  const runnerStarted = runner?.start().catch((err: unknown) => logger.error({ err }, 'the in-process queue worker could not start'));
   const configurations = new Configurations(db.orm, pool, config.computeTimeLimitMs, config.publicUrl);
   programmes = new Programmes(db.orm, configurations);
+  const studies = new Studies(db, queue, { designs, vehicles, configurations, proposals }, {
+    maxActivePerTeam: config.studyMaxActivePerTeam,
+    chunkExpireSeconds: config.studyChunkExpireSeconds,
+  });
 
   const mail = config.smtpUrl
     ? new MailWorker(db.orm, {
@@ -135,6 +149,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use('/invitations', invitationLinksRouter(invitations, accounts, config.addressLimit));
   api.use('/teams/:teamId/invitations', teamInvitationsRouter(invitations, auth));
   api.use('/teams/:teamId/configurations', configurationsRouter(configurations, auth));
+  api.use('/teams/:teamId/studies', studiesRouter(studies, auth));
   if (!config.production) api.use('/dev/mail', devMailRouter(db.orm, auth));
   api.use('/teams/:teamId', rigMeasurementsRouter(new RigMeasurements(db.orm, configurations, pool, config.computeTimeLimitMs), auth));
   api.use('/teams/:teamId', activityRouter(activity, designs, auth));
@@ -172,6 +187,9 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   app.close = async () => {
     session.close();
     jobs.close();
+    await runnerStarted;
+    await runner?.stop(5_000);
+    await queue.stop();
     await mail?.stop();
     await pool.close();
   };

@@ -63,8 +63,25 @@ export interface Config {
   computeWarmStart: boolean;
   /** Time limit of a background solve job (longer family sweeps). */
   solveJobTimeLimitMs: number;
+  /** A finished solve job keeps its answer this long; then its id answers 410 job_gone (expired). */
+  solveJobRetainMs: number;
   /** bcrypt cost factor for password hashes. */
   bcryptRounds: number;
+  /** Job queue workers (server/worker.ts): concurrent solve jobs and study chunks per worker process. */
+  workerSolveSlots: number;
+  workerStudySlots: number;
+  /** Idle workers look for jobs this often (a NOTIFY wakes them sooner). */
+  queuePollMs: number;
+  /** pg-boss maintenance interval: how soon a dead worker's job is noticed after its expiry. */
+  queueMaintenanceSeconds: number;
+  /** A study chunk taken by a worker that then goes silent is handed to another after this long. */
+  studyChunkExpireSeconds: number;
+  /** Time limit of one study chunk on a worker thread. */
+  studyChunkTimeLimitMs: number;
+  /** Studies a team may have queued or running at once (more: 429). */
+  studyMaxActivePerTeam: number;
+  /** Run a queue worker inside the server process (tests and single-process set-ups; `npm start` runs a worker process instead). */
+  inProcessWorker: boolean;
 }
 
 export const DEV_SESSION_SECRET = 'rollwise-development-secret-not-for-production';
@@ -147,7 +164,16 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     computeTimeLimitMs: int(env, 'COMPUTE_TIME_LIMIT_MS', 10_000, 50),
     computeWarmStart: !test,
     solveJobTimeLimitMs: int(env, 'SOLVE_JOB_TIME_LIMIT_MS', 120_000, 50),
+    solveJobRetainMs: int(env, 'SOLVE_JOB_RETAIN_MINUTES', 15, 0) * 60_000,
     // Tests hash many throwaway passwords; everything else uses a real cost.
     bcryptRounds: int(env, 'BCRYPT_ROUNDS', test ? 4 : 12, 4),
+    workerSolveSlots: int(env, 'WORKER_SOLVE_SLOTS', 1, 0),
+    workerStudySlots: int(env, 'WORKER_STUDY_SLOTS', 1, 0),
+    queuePollMs: int(env, 'QUEUE_POLL_MS', test ? 200 : 2000, 50),
+    queueMaintenanceSeconds: int(env, 'QUEUE_MAINTENANCE_SECONDS', test ? 1 : 30, 1),
+    studyChunkExpireSeconds: int(env, 'STUDY_CHUNK_EXPIRE_SECONDS', 120, 1),
+    studyChunkTimeLimitMs: int(env, 'STUDY_CHUNK_TIME_LIMIT_MS', 60_000, 50),
+    studyMaxActivePerTeam: int(env, 'STUDY_MAX_ACTIVE_PER_TEAM', 3, 1),
+    inProcessWorker: flag(env, 'ROLLWISE_IN_PROCESS_WORKER', test),
   };
 }

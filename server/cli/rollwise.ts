@@ -14,6 +14,7 @@ const commands: Record<string, { help: string; load: () => Promise<Command> }> =
     load: async () => (await import('./ride.js')).rideCommand,
   },
   solve: { help: 'solve --intent FILE', load: async () => (await import('./intent.js')).solveCommand },
+  study: { help: 'study --spec FILE [--progress]', load: async () => (await import('./study.js')).studyCommand },
 };
 
 async function main(): Promise<number> {

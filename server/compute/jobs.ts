@@ -1,123 +1,198 @@
 /**
- * Background solve jobs with polled progress. Kept in memory: a job lives
- * for the lifetime of the server process (a restart loses running jobs; the
- * client re-submits) and is forgotten `retainMs` after it finishes.
+ * Background solve jobs with polled progress, on the job queue. The job's
+ * row (compute_jobs) is what its owner polls; the work travels on the
+ * pg-boss `solve` queue under the same id, and whichever worker process
+ * takes it writes progress and the answer back to the row
+ * (server/compute/runner.ts). A server restart loses nothing: the row and
+ * the queued job are in PostgreSQL.
+ *
+ * A job that can no longer give its answer answers 410 `job_gone` with the
+ * reason: its result was dropped `retainMs` after it finished (`expired`),
+ * or the queue lost it (its workers died more often than the retry limit,
+ * or the queue's own retention dropped it while it waited: `lost`). The row
+ * stays as a tombstone for `tombstoneMs`, so the id never looks wrong.
  */
-import { randomUUID } from 'node:crypto';
-import { HttpError, notFound, toErrorBody } from '../http/errors.js';
-import type { ComputePool } from './pool.js';
+import { and, eq, inArray, lt, sql } from 'drizzle-orm';
+import { HttpError, notFound } from '../http/errors.js';
+import type { Database } from '../db/client.js';
+import { computeJobs } from '../db/schema.js';
+import { QUEUES, type JobQueue, type QueueJobData, bossDb } from './queue.js';
 
 export type JobState = 'queued' | 'running' | 'succeeded' | 'failed' | 'cancelled';
 
-/** What GET /api/compute/solve-jobs/:id shows. */
+/** What GET /api/compute/solve-jobs/:id shows (the result goes on as the worker's JSON text). */
 export interface JobView {
   id: string;
   state: JobState;
   progress: { fraction: number; message: string };
-  result?: unknown;
+  /** The engine's answer as JSON text (succeeded jobs). */
+  resultJson?: string;
   /** As the direct call would have answered. */
   error?: { code: string; message: string; details?: unknown; status: number };
   createdAt: Date;
   finishedAt?: Date;
 }
 
-interface Job extends JobView {
-  ownerId: string;
-  abort: AbortController;
+export interface SolveJobOptions {
+  timeLimitMs: number;
+  maxActivePerUser?: number;
+  /** How long a finished job keeps its answer. */
+  retainMs?: number;
+  /** How long the tombstone of an expired or lost job answers 410 before the id is forgotten. */
+  tombstoneMs?: number;
 }
 
+type Row = typeof computeJobs.$inferSelect;
+
+const GONE_MESSAGES = {
+  expired: (retainMs: number) =>
+    `This solve job finished more than ${Math.round(retainMs / 60_000)} minutes ago and its result is no longer kept; start the solve again`,
+  lost: () => 'This solve job was lost: the workers running it stopped before it finished; start the solve again',
+};
+
 export class SolveJobs {
-  private readonly jobs = new Map<string, Job>();
   private readonly sweeper: NodeJS.Timeout;
+  private readonly retainMs: number;
+  private readonly tombstoneMs: number;
 
   constructor(
-    private readonly pool: ComputePool,
-    private readonly o: { timeLimitMs: number; maxActivePerUser?: number; retainMs?: number },
+    private readonly db: Database,
+    private readonly queue: JobQueue,
+    private readonly o: SolveJobOptions,
   ) {
-    this.sweeper = setInterval(() => this.forgetOld(), 60_000);
+    this.retainMs = o.retainMs ?? 15 * 60_000;
+    this.tombstoneMs = o.tombstoneMs ?? 30 * 24 * 3_600_000;
+    this.sweeper = setInterval(() => void this.sweep().catch(() => undefined), 60_000);
     this.sweeper.unref();
   }
 
-  start(ownerId: string, input: unknown): JobView {
-    const active = [...this.jobs.values()].filter((j) => j.ownerId === ownerId && (j.state === 'queued' || j.state === 'running'));
-    if (active.length >= (this.o.maxActivePerUser ?? 3)) {
+  async start(ownerId: string, input: unknown): Promise<JobView> {
+    const [{ active } = { active: 0 }] = await this.db.orm
+      .select({ active: sql<number>`count(*)::int` })
+      .from(computeJobs)
+      .where(and(eq(computeJobs.ownerId, ownerId), inArray(computeJobs.state, ['queued', 'running'])));
+    if (active >= (this.o.maxActivePerUser ?? 3)) {
       throw new HttpError(429, 'too_many_jobs', 'You already have several solves running; wait for one to finish or cancel it');
     }
-    const job: Job = {
-      id: randomUUID(),
-      ownerId,
-      state: 'queued',
-      progress: { fraction: 0, message: 'Waiting for a free worker' },
-      createdAt: new Date(),
-      abort: new AbortController(),
-    };
-    this.jobs.set(job.id, job);
-    this.pool
-      .run('solve', input, {
-        timeLimitMs: this.o.timeLimitMs,
-        signal: job.abort.signal,
-        onProgress: (m) => {
-          if (job.state === 'queued') job.state = 'running';
-          if (m.type === 'progress') job.progress = { fraction: Math.min(1, Math.max(0, m.fraction)), message: m.message };
-          else job.progress = { fraction: 0, message: 'Started' };
-        },
-      })
-      .then(
-        (result) => {
-          job.state = 'succeeded';
-          job.result = result;
-          job.progress = { fraction: 1, message: 'Done' };
-        },
-        (err: unknown) => {
-          if (job.state === 'cancelled') return;
-          const b = toErrorBody(err);
-          job.state = 'failed';
-          job.error = { status: b.status, code: b.code, message: b.message, ...(b.details !== undefined ? { details: b.details } : {}) };
-        },
-      )
-      .finally(() => {
-        job.finishedAt = new Date();
-      });
-    return this.view(job);
-  }
-
-  get(ownerId: string, id: string): JobView {
-    return this.view(this.owned(ownerId, id));
-  }
-
-  cancel(ownerId: string, id: string): JobView {
-    const job = this.owned(ownerId, id);
-    if (job.state === 'queued' || job.state === 'running') {
-      job.state = 'cancelled';
-      job.progress = { ...job.progress, message: 'Cancelled' };
-      job.abort.abort();
+    const boss = await this.queue.ready();
+    // The row and the queue job land together or not at all.
+    const client = await this.db.pool.connect();
+    let row: Row;
+    try {
+      await client.query('BEGIN');
+      try {
+        const ins = await client.query<{ id: string }>(`INSERT INTO compute_jobs (owner_id, kind) VALUES ($1, 'solve') RETURNING id`, [ownerId]);
+        const id = ins.rows[0]!.id;
+        const data: QueueJobData = { kind: 'solve', jobId: id, input, timeLimitMs: this.o.timeLimitMs };
+        await boss.send(QUEUES.solve, data, {
+          id,
+          // One more try on another worker if the first one dies; the engine's own errors are answers, not retries.
+          retryLimit: 1,
+          retryDelay: 1,
+          // A worker that died is noticed this long after it took the job (the time limit stops a live one first).
+          expireInSeconds: Math.ceil(this.o.timeLimitMs / 1000) + 30,
+          deadLetter: QUEUES.lost,
+          db: bossDb(client),
+        });
+        await this.queue.notify('wake', client);
+        await client.query('COMMIT');
+        row = (await this.db.orm.select().from(computeJobs).where(eq(computeJobs.id, id)))[0]!;
+      } catch (err) {
+        await client.query('ROLLBACK').catch(() => undefined);
+        throw err;
+      }
+    } finally {
+      client.release();
     }
-    return this.view(job);
+    return view(row);
+  }
+
+  async get(ownerId: string, id: string): Promise<JobView> {
+    return view(await this.live(await this.owned(ownerId, id)));
+  }
+
+  async cancel(ownerId: string, id: string): Promise<JobView> {
+    const row = await this.live(await this.owned(ownerId, id));
+    if (row.state !== 'queued' && row.state !== 'running') return view(row);
+    const [updated] = await this.db.orm
+      .update(computeJobs)
+      .set({ state: 'cancelled', progressMessage: 'Cancelled', finishedAt: new Date() })
+      .where(and(eq(computeJobs.id, id), inArray(computeJobs.state, ['queued', 'running'])))
+      .returning();
+    if (updated) {
+      const boss = await this.queue.ready();
+      await boss.cancel(QUEUES.solve, id);
+      // The worker running it (if any) stops the computation.
+      await this.queue.notify(`cancel:${id}`);
+      return view(updated);
+    }
+    // It finished meanwhile.
+    return this.get(ownerId, id);
   }
 
   close(): void {
     clearInterval(this.sweeper);
-    for (const j of this.jobs.values()) j.abort.abort();
-    this.jobs.clear();
   }
 
-  private owned(ownerId: string, id: string): Job {
-    const job = this.jobs.get(id);
+  private async owned(ownerId: string, id: string): Promise<Row> {
+    const [row] = await this.db.orm.select().from(computeJobs).where(eq(computeJobs.id, id));
     // Someone else's job is as invisible as a missing one.
-    if (!job || job.ownerId !== ownerId) throw notFound('Solve job');
-    return job;
+    if (!row || row.ownerId !== ownerId) throw notFound('Solve job');
+    return row;
   }
 
-  private view(j: Job): JobView {
-    const v: JobView = { id: j.id, state: j.state, progress: j.progress, createdAt: j.createdAt };
-    if (j.result !== undefined) v.result = j.result;
-    if (j.error) v.error = j.error;
-    if (j.finishedAt) v.finishedAt = j.finishedAt;
-    return v;
+  /** The row, or 410 when its answer is gone (marking it so on the way). */
+  private async live(row: Row): Promise<Row> {
+    if (row.goneReason) throw this.gone(row.goneReason);
+    if (row.finishedAt && row.finishedAt.getTime() + this.retainMs < Date.now()) {
+      await this.markGone(row.id, 'expired');
+      throw this.gone('expired');
+    }
+    if (row.state === 'queued' || row.state === 'running') {
+      // The row says waiting or running: ask the queue whether anyone still has it.
+      const boss = await this.queue.ready();
+      const job = await boss.getJobById(QUEUES.solve, row.id);
+      if (!job || job.state === 'failed' || job.state === 'cancelled' || job.state === 'completed') {
+        // Re-read: a worker may have finished it between our two reads.
+        const [again] = await this.db.orm.select().from(computeJobs).where(eq(computeJobs.id, row.id));
+        if (again && again.state !== 'queued' && again.state !== 'running') return this.live(again);
+        await this.markGone(row.id, 'lost');
+        throw this.gone('lost');
+      }
+    }
+    return row;
   }
 
-  private forgetOld(): void {
-    const limit = Date.now() - (this.o.retainMs ?? 15 * 60_000);
-    for (const [id, j] of this.jobs) if (j.finishedAt && j.finishedAt.getTime() < limit) this.jobs.delete(id);
+  private gone(reason: 'expired' | 'lost'): HttpError {
+    return new HttpError(410, 'job_gone', GONE_MESSAGES[reason](this.retainMs), { reason });
   }
+
+  private async markGone(id: string, reason: 'expired' | 'lost'): Promise<void> {
+    await this.db.orm
+      .update(computeJobs)
+      .set({
+        goneReason: reason,
+        resultJson: null,
+        ...(reason === 'lost' ? { state: 'failed' as const, finishedAt: new Date() } : {}),
+      })
+      .where(eq(computeJobs.id, id));
+  }
+
+  /** Drops answers past their retention (tombstones stay) and forgets old tombstones. */
+  async sweep(): Promise<void> {
+    const now = Date.now();
+    await this.db.orm
+      .update(computeJobs)
+      .set({ goneReason: 'expired', resultJson: null })
+      .where(and(lt(computeJobs.finishedAt, new Date(now - this.retainMs)), sql`${computeJobs.goneReason} IS NULL`));
+    await this.db.orm.delete(computeJobs).where(lt(computeJobs.finishedAt, new Date(now - this.tombstoneMs)));
+  }
+}
+
+function view(r: Row): JobView {
+  const v: JobView = { id: r.id, state: r.state, progress: { fraction: r.progressFraction, message: r.progressMessage }, createdAt: r.createdAt };
+  if (r.resultJson !== null) v.resultJson = r.resultJson;
+  if (r.error) v.error = r.error as JobView['error'];
+  if (r.finishedAt) v.finishedAt = r.finishedAt;
+  return v;
 }

@@ -8,7 +8,7 @@ import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
 import { SolveError } from '../../shared/errors.js';
 import { HttpError } from '../http/errors.js';
-import { deserializeError, type ComputeKind, type ComputeTask, type ProgressMessage, type WorkerOutcome } from './tasks.js';
+import { deserializeError, type ComputeTask, type TaskKind, type ProgressMessage, type WorkerOutcome } from './tasks.js';
 
 export interface RunOptions {
   timeLimitMs: number;
@@ -18,9 +18,9 @@ export interface RunOptions {
 }
 
 export interface ComputePool {
-  run(kind: ComputeKind, input: unknown, o: RunOptions): Promise<unknown>;
+  run(kind: TaskKind, input: unknown, o: RunOptions): Promise<unknown>;
   /** The same, with the result as JSON text made in the worker (for routes that only send it on). */
-  runJson(kind: ComputeKind, input: unknown, o: RunOptions): Promise<string>;
+  runJson(kind: TaskKind, input: unknown, o: RunOptions): Promise<string>;
   close(): Promise<void>;
 }
 
@@ -43,10 +43,10 @@ export function createComputePool(o: { threads: number; maxQueue?: number; warm?
 
   if (o.warm) get();
   return {
-    async run(kind: ComputeKind, input: unknown, opts: RunOptions): Promise<unknown> {
+    async run(kind: TaskKind, input: unknown, opts: RunOptions): Promise<unknown> {
       return exec({ kind, input }, opts);
     },
-    async runJson(kind: ComputeKind, input: unknown, opts: RunOptions): Promise<string> {
+    async runJson(kind: TaskKind, input: unknown, opts: RunOptions): Promise<string> {
       return (await exec({ kind, input, asJson: true }, opts)) as string;
     },
     async close() {

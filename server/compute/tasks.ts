@@ -3,9 +3,12 @@ import { InputError, SolveError, type FieldIssue, type SolveErrorCode } from '..
 
 export const COMPUTE_KINDS = ['corner-sweep', 'axle-roll', 'corner-compliance', 'balance', 'ride', 'solve', 'rig-compare'] as const;
 export type ComputeKind = (typeof COMPUTE_KINDS)[number];
+/** Also run on worker threads, by queue workers only (no /api/compute route): one study chunk, and a study's combination. */
+export const STUDY_KINDS = ['study-chunk', 'study-combine'] as const;
+export type TaskKind = ComputeKind | (typeof STUDY_KINDS)[number];
 
 export interface ComputeTask {
-  kind: ComputeKind;
+  kind: TaskKind;
   input: unknown;
   /** Receives `ProgressMessage`s (solve only). */
   progressPort?: import('node:worker_threads').MessagePort;

@@ -3,7 +3,7 @@
  * Each engine entry point validates its own input with the shared request
  * schemas and throws InputError / SolveError; those are returned as data.
  */
-import type { ComputeKind, ComputeTask, ProgressMessage, WorkerOutcome } from './tasks.js';
+import type { ComputeTask, ProgressMessage, TaskKind, WorkerOutcome } from './tasks.js';
 import { serializeError } from './tasks.js';
 import { computeAxleRoll, computeCornerSweep } from '../../shared/kinematics/api.js';
 import { computeBalance } from '../../shared/balance/api.js';
@@ -11,10 +11,26 @@ import { computeCornerCompliance } from '../../shared/compliance/api.js';
 import { computeRide } from '../../shared/ride/api.js';
 import { computeSolve } from '../../shared/intent/api.js';
 import { computeRigComparison } from '../../shared/intent/rig-compare.js';
+import { combineStudyChunks, runStudyChunk, type StudyChunkResult } from '../../shared/study/index.js';
 
 type Engine = (input: unknown, onProgress?: (fraction: number, message: string) => void) => unknown;
 
-const ENGINES: Record<ComputeKind, Engine> = {
+/**
+ * A study's spec, parsed once per thread: every chunk of a study carries the
+ * same spec (keyed by study id), and shared/study caches its prepared model
+ * by the spec object, so the thread keeps the first copy it was given.
+ */
+const specs = new Map<string, unknown>();
+function studySpec(studyId: string, spec: unknown): unknown {
+  let s = specs.get(studyId);
+  if (s === undefined) {
+    if (specs.size >= 8) specs.delete(specs.keys().next().value!);
+    specs.set(studyId, (s = spec));
+  }
+  return s;
+}
+
+const ENGINES: Record<TaskKind, Engine> = {
   'corner-sweep': computeCornerSweep,
   'axle-roll': computeAxleRoll,
   'corner-compliance': computeCornerCompliance,
@@ -22,6 +38,14 @@ const ENGINES: Record<ComputeKind, Engine> = {
   ride: computeRide,
   solve: computeSolve,
   'rig-compare': computeRigComparison,
+  'study-chunk': (input) => {
+    const i = input as { studyId: string; spec: unknown; chunkIndex: number };
+    return runStudyChunk(studySpec(i.studyId, i.spec), i.chunkIndex);
+  },
+  'study-combine': (input) => {
+    const i = input as { studyId: string; spec: unknown; chunks: StudyChunkResult[] };
+    return combineStudyChunks(studySpec(i.studyId, i.spec), i.chunks);
+  },
 };
 
 export default async function runComputeTask(task: ComputeTask): Promise<WorkerOutcome> {

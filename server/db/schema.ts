@@ -574,3 +574,103 @@ export const teamRigSettings = pgTable('team_rig_settings', {
   updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });
+
+export const COMPUTE_JOB_STATES = ['queued', 'running', 'succeeded', 'failed', 'cancelled'] as const;
+export type ComputeJobState = (typeof COMPUTE_JOB_STATES)[number];
+
+/**
+ * A background solve job: what its owner polls. The work itself travels on
+ * the pg-boss queue (same id); a worker process writes progress and the
+ * result here. `goneReason` is set when the result was dropped after its
+ * retention time or the queue lost the job; the row stays as a tombstone so
+ * the id answers 410 with the reason instead of a 404.
+ */
+export const computeJobs = pgTable(
+  'compute_jobs',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    ownerId: uuid('owner_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: ['solve'] }).notNull(),
+    state: text('state', { enum: COMPUTE_JOB_STATES }).notNull().default('queued'),
+    progressFraction: doublePrecision('progress_fraction').notNull().default(0),
+    progressMessage: text('progress_message').notNull().default('Waiting for a free worker'),
+    /** The engine's answer as JSON text (kept as the worker wrote it). */
+    resultJson: text('result_json'),
+    /** `{ status, code, message, details? }`, as the direct call would have answered. */
+    error: jsonb('error'),
+    goneReason: text('gone_reason', { enum: ['expired', 'lost'] }),
+    createdAt: createdAt(),
+    startedAt: timestamp('started_at', { withTimezone: true }),
+    finishedAt: timestamp('finished_at', { withTimezone: true }),
+  },
+  (t) => [index('compute_jobs_owner_idx').on(t.ownerId, t.state), index('compute_jobs_finished_idx').on(t.finishedAt)],
+);
+
+export const STUDY_STATUSES = ['queued', 'running', 'completed', 'failed', 'cancelled'] as const;
+export type StudyStatus = (typeof STUDY_STATUSES)[number];
+
+/**
+ * A tolerance study or design sweep. `spec` is the fully resolved,
+ * self-contained study (shared/study StudySpec) the workers run; it is cut
+ * into `totalChunks` chunks, each a pg-boss job. `doneChunks`/`doneSamples`
+ * only move when a chunk row is first inserted (study_chunks' key), so a
+ * retried chunk is never counted twice.
+ */
+export const studies = pgTable(
+  'studies',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: ['tolerance', 'sweep'] }).notNull(),
+    label: text('label').notNull(),
+    status: text('status', { enum: STUDY_STATUSES }).notNull().default('queued'),
+    /** What the user asked for (studyRequestSchema), kept for display and re-runs. */
+    request: jsonb('request').notNull(),
+    /** `{ axleDesignId, revision }` or `{ configurationId, revision }`, revision resolved. */
+    target: jsonb('target').notNull(),
+    spec: jsonb('spec').notNull(),
+    seed: integer('seed').notNull(),
+    totalChunks: integer('total_chunks').notNull(),
+    totalSamples: integer('total_samples').notNull(),
+    doneChunks: integer('done_chunks').notNull().default(0),
+    doneSamples: integer('done_samples').notNull().default(0),
+    /** Summed compute time of the done chunks (for throughput figures). */
+    computeMs: doublePrecision('compute_ms').notNull().default(0),
+    posesSolved: doublePrecision('poses_solved').notNull().default(0),
+    result: jsonb('result'),
+    error: jsonb('error'),
+    createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+    startedAt: timestamp('started_at', { withTimezone: true }),
+    finishedAt: timestamp('finished_at', { withTimezone: true }),
+  },
+  (t) => [
+    index('studies_team_idx').on(t.teamId, t.createdAt),
+    index('studies_active_idx').on(t.teamId, t.status),
+    check('studies_progress', sql`${t.doneChunks} >= 0 AND ${t.doneChunks} <= ${t.totalChunks}`),
+  ],
+);
+
+/** One finished chunk of a study; the key makes a retried chunk land once. */
+export const studyChunks = pgTable(
+  'study_chunks',
+  {
+    studyId: uuid('study_id')
+      .notNull()
+      .references(() => studies.id, { onDelete: 'cascade' }),
+    chunkIndex: integer('chunk_index').notNull(),
+    samples: integer('samples').notNull(),
+    poses: doublePrecision('poses').notNull(),
+    /** shared/study StudyChunkResult. */
+    result: jsonb('result').notNull(),
+    computeMs: doublePrecision('compute_ms').notNull(),
+    /** Which worker process computed it (host:pid), for operations. */
+    worker: text('worker').notNull(),
+    finishedAt: timestamp('finished_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.studyId, t.chunkIndex] })],
+);

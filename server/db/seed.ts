@@ -11,7 +11,7 @@ import type { Orm } from './client.js';
 import { axleDesignRevisions, axleDesigns, configurations, memberships, teams, users, vehicleRevisions, vehicles, type Axle } from './schema.js';
 import type { Role } from '../permissions.js';
 import type { ComputePool } from '../compute/pool.js';
-import { deserializeError, type ComputeKind } from '../compute/tasks.js';
+import { deserializeError, type TaskKind } from '../compute/tasks.js';
 import runComputeTask from '../compute/worker.js';
 import { Configurations, type ReviewAction } from '../services/configurations.js';
 import { Accounts } from '../services/accounts.js';
@@ -182,7 +182,7 @@ export const DEMO_TEAMS: DemoTeam[] = [
 ];
 
 /** The compute pool's tasks run in this process: the seed runs once at start, before the server's worker pool exists. */
-async function runInProcess(kind: ComputeKind, input: unknown, asJson: boolean): Promise<unknown> {
+async function runInProcess(kind: TaskKind, input: unknown, asJson: boolean): Promise<unknown> {
   const out = await runComputeTask({ kind, input, asJson });
   if (!out.ok) throw deserializeError(out.error);
   return 'json' in out ? out.json : out.result;

@@ -2,7 +2,8 @@
  * /api/compute: engine calls for signed-in users, run in the worker pool.
  * The engines validate their own input (shared request schemas), so the
  * body is passed through as received; 400 / 422 come back with the
- * engine's field or geometry details.
+ * engine's field or geometry details. Solve jobs go on the job queue
+ * (server/compute/jobs.ts) and run in a worker process.
  */
 import { Router } from 'express';
 import { ENGINE_VERSION } from '../../shared/version.js';
@@ -18,7 +19,12 @@ export function computeRouter(pool: ComputePool, jobs: SolveJobs, auth: Authoriz
     if (!isUuid(raw)) throw notFound('Solve job');
     return raw;
   };
-  const jobBody = (j: JobView) => ({ engineVersion: ENGINE_VERSION, ...j });
+  // The worker's answer goes on as the JSON text it wrote (no parse and re-stringify of a large result here).
+  const sendJob = (res: import('express').Response, j: JobView, extra: Record<string, unknown> = {}) => {
+    const { resultJson, ...rest } = j;
+    const head = JSON.stringify({ ...extra, engineVersion: ENGINE_VERSION, ...rest });
+    res.type('application/json').send(resultJson === undefined ? head : `${head.slice(0, -1)},"result":${resultJson}}`);
+  };
 
   for (const kind of COMPUTE_KINDS) {
     r.post(`/${kind}`, auth.requireUser, async (req, res) => {
@@ -33,17 +39,18 @@ export function computeRouter(pool: ComputePool, jobs: SolveJobs, auth: Authoriz
     });
   }
 
-  r.post('/solve-jobs', auth.requireUser, (req, res) => {
-    const job = jobs.start(currentUser(req).id, req.body);
-    res.status(202).location(`${req.baseUrl}/solve-jobs/${job.id}`).json({ jobId: job.id, ...jobBody(job) });
+  r.post('/solve-jobs', auth.requireUser, async (req, res) => {
+    const job = await jobs.start(currentUser(req).id, req.body);
+    res.status(202).location(`${req.baseUrl}/solve-jobs/${job.id}`);
+    sendJob(res, job, { jobId: job.id });
   });
 
-  r.get('/solve-jobs/:jobId', auth.requireUser, (req, res) => {
-    res.json(jobBody(jobs.get(currentUser(req).id, jobId(req.params['jobId']))));
+  r.get('/solve-jobs/:jobId', auth.requireUser, async (req, res) => {
+    sendJob(res, await jobs.get(currentUser(req).id, jobId(req.params['jobId'])));
   });
 
-  r.delete('/solve-jobs/:jobId', auth.requireUser, (req, res) => {
-    res.json(jobBody(jobs.cancel(currentUser(req).id, jobId(req.params['jobId']))));
+  r.delete('/solve-jobs/:jobId', auth.requireUser, async (req, res) => {
+    sendJob(res, await jobs.cancel(currentUser(req).id, jobId(req.params['jobId'])));
   });
 
   return r;

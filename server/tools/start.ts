@@ -1,8 +1,11 @@
 /**
  * `npm start`: a local PostgreSQL cluster under .data/ (created on first run,
  * kept between runs), migrations, the demo seed, a production build of the
- * app, and app + API on one origin. Ctrl-C stops the server and the database.
+ * app, app + API on one origin, and queue worker processes
+ * (ROLLWISE_WORKERS, default 1; server/worker.ts). Ctrl-C stops the workers
+ * (each finishes its running job), the server and the database.
  */
+import { spawn, type ChildProcess } from 'node:child_process';
 import { mkdirSync, existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { createHash } from 'node:crypto';
 import { join, resolve } from 'node:path';
@@ -56,6 +59,7 @@ async function main(): Promise<void> {
     stopDb();
     throw err;
   }
+  const workers = startWorkers(Number(process.env['ROLLWISE_WORKERS'] ?? 1));
   console.log(`
 Rollwise is running at ${server.url}${server.smtpUrl ? `\nDevelopment mail goes to the local fake SMTP server at ${server.smtpUrl}` : ''}
 
@@ -76,12 +80,48 @@ Press Ctrl-C to stop (the data is kept for the next npm start).`);
     if (stopping) return;
     stopping = true;
     console.log('\n[rollwise] stopping…');
-    await server.close().catch(() => undefined);
+    await Promise.all([stopWorkers(workers), server.close().catch(() => undefined)]);
     stopDb();
     process.exit(0);
   };
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);
+}
+
+/** Queue workers as child processes with the server's environment; one that dies is restarted. */
+function startWorkers(n: number): { children: ChildProcess[]; stopping: boolean } {
+  const state = { children: [] as ChildProcess[], stopping: false };
+  const launch = (slot: number) => {
+    const child = spawn(process.execPath, ['--import', 'tsx', join(root, 'server', 'worker.ts')], { env: process.env, stdio: 'inherit' });
+    state.children[slot] = child;
+    child.on('exit', (code, signal) => {
+      if (state.stopping) return;
+      console.log(`[rollwise] queue worker ${slot + 1} stopped (${signal ?? `exit ${code}`}); starting it again`);
+      setTimeout(() => launch(slot), 1000);
+    });
+  };
+  for (let i = 0; i < n; i++) launch(i);
+  console.log(`[rollwise] started ${n} queue worker process(es)`);
+  return state;
+}
+
+/** SIGTERM: each worker finishes its running job (up to 30 s) and exits; a worker still there after 35 s is killed. */
+async function stopWorkers(state: { children: ChildProcess[]; stopping: boolean }): Promise<void> {
+  state.stopping = true;
+  await Promise.all(
+    state.children.map(
+      (c) =>
+        new Promise<void>((resolve) => {
+          if (c.exitCode !== null || c.signalCode !== null) return resolve();
+          const kill = setTimeout(() => c.kill('SIGKILL'), 35_000);
+          c.once('exit', () => {
+            clearTimeout(kill);
+            resolve();
+          });
+          c.kill('SIGTERM');
+        }),
+    ),
+  );
 }
 
 main().catch((err: unknown) => {

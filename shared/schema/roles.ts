@@ -21,14 +21,15 @@ export const PERMISSIONS = [
   'review:decide',
   'review:submit',
   'review:comment',
+  'study:run',
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
 /** The matrix: which permissions each role grants. */
 export const ROLE_PERMISSIONS: Readonly<Record<Role, readonly Permission[]>> = {
   owner: ['team:read', 'members:manage', 'vehicle:manage', 'review:comment'],
-  engineer: ['team:read', 'vehicle:manage', 'vehicle:edit', 'design:propose', 'review:submit', 'review:comment'],
-  designer: ['team:read', 'vehicle:manage', 'design:edit', 'design:accept', 'review:submit', 'review:comment'],
+  engineer: ['team:read', 'vehicle:manage', 'vehicle:edit', 'design:propose', 'review:submit', 'review:comment', 'study:run'],
+  designer: ['team:read', 'vehicle:manage', 'design:edit', 'design:accept', 'review:submit', 'review:comment', 'study:run'],
   reviewer: ['team:read', 'review:decide', 'review:comment'],
   viewer: ['team:read'],
 };

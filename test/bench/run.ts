@@ -12,7 +12,7 @@ import { dirname, join } from 'node:path';
 export type BenchFigures = Record<string, number>;
 
 const here = dirname(fileURLToPath(import.meta.url));
-const modules = ['kinematics', 'compliance', 'balance', 'ride', 'intent', 'ui'];
+const modules = ['kinematics', 'compliance', 'balance', 'ride', 'intent', 'study', 'ui', 'queue'];
 const only = process.argv.slice(2);
 
 const all: BenchFigures = {};

@@ -24,7 +24,7 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import autocannon, { type Request, type Result } from 'autocannon';
 import { startThrowawayCluster } from '../../server/tools/pg.js';
-import { spawn, type ChildProcess } from 'node:child_process';
+import { startServerProcess } from '../support/server-process.js';
 import { DEMO_PASSWORD } from '../../server/db/seed.js';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 
@@ -85,40 +85,6 @@ async function cannon(url: string, cookie: string, o: { connections: number; sec
   } finally {
     clearTimeout(watchdog);
   }
-}
-
-/** Runs `node --import tsx server/main.ts` with the given environment; resolves with its URL once it listens. */
-function startServerProcess(env: Record<string, string>): Promise<{ url: string; close(): Promise<void> }> {
-  const main = join(here, '..', '..', 'server', 'main.ts');
-  const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', main], {
-    env: { ...process.env, NODE_ENV: 'development', ...env },
-    stdio: ['ignore', 'pipe', 'inherit'],
-  });
-  const close = () =>
-    new Promise<void>((resolve) => {
-      if (child.exitCode !== null) return resolve();
-      child.once('exit', () => resolve());
-      child.kill('SIGTERM');
-    });
-  return new Promise((resolve, reject) => {
-    let out = '';
-    const timer = setTimeout(() => {
-      void close();
-      reject(new Error(`the server did not start within 60 s:\n${out}`));
-    }, 60_000);
-    child.stdout!.on('data', (d: Buffer) => {
-      out += d.toString();
-      const m = /Rollwise is running at (\S+)/.exec(out);
-      if (m) {
-        clearTimeout(timer);
-        resolve({ url: m[1]!, close });
-      }
-    });
-    child.once('exit', (code) => {
-      clearTimeout(timer);
-      reject(new Error(`the server exited (${code}) before it listened:\n${out}`));
-    });
-  });
 }
 
 async function main(): Promise<void> {

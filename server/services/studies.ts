@@ -1,0 +1,287 @@
+/**
+ * Tolerance studies and design sweeps on the job queue. A request names
+ * its target by id; the service loads the documents, builds the
+ * self-contained spec (shared/study), cuts it into chunks (planStudy) and
+ * puts one `study-chunk` job per chunk on the queue in the same transaction
+ * as the study row. Worker processes run the chunks
+ * (server/compute/study-handlers.ts) and combine them when all are in.
+ *
+ * Fair share (docs/operations.md): a team may have `maxActivePerTeam`
+ * studies queued or running at once (more: 429 too_many_studies); chunk k
+ * of every study has priority −k, so running studies advance a chunk at a
+ * time in turn; solve jobs have their own queue and worker lanes.
+ */
+import { randomInt } from 'node:crypto';
+import { and, desc, eq, inArray, sql } from 'drizzle-orm';
+import { parseOrThrow } from '../../shared/errors.js';
+import { planStudy, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
+import type { Database } from '../db/client.js';
+import { studies, users } from '../db/schema.js';
+import { HttpError, notFound, validate } from '../http/errors.js';
+import type { AxleDesigns } from './axle-designs.js';
+import type { Configurations } from './configurations.js';
+import type { Proposals, ProposalView } from './proposals.js';
+import type { Vehicles } from './vehicles.js';
+import { QUEUES, bossDb, type JobQueue, type QueueJobData } from '../compute/queue.js';
+
+export type StudyStatus = 'queued' | 'running' | 'completed' | 'failed' | 'cancelled';
+
+export interface StudyView {
+  id: string;
+  kind: 'tolerance' | 'sweep';
+  label: string;
+  status: StudyStatus;
+  progress: { doneChunks: number; totalChunks: number; doneSamples: number; totalSamples: number };
+  /** From the measured chunk rate since the first chunk started; null until a chunk is done. */
+  etaSeconds: number | null;
+  error: { code: string; message: string } | null;
+  /** The target with its revision resolved (and the axle of a configuration). */
+  target: Record<string, unknown>;
+  seed: number;
+  createdAt: Date;
+  startedAt: Date | null;
+  finishedAt: Date | null;
+  createdBy: { id: string; displayName: string } | null;
+  result?: StudyResult;
+}
+
+export interface StudyOptions {
+  maxActivePerTeam: number;
+  /** A chunk a worker took and went silent on goes to another worker after this long. */
+  chunkExpireSeconds: number;
+}
+
+/** The queue job id of chunk `i` of a study: fixed, so a study's chunks can be cancelled by id. */
+export function chunkJobId(studyId: string, i: number): string {
+  // The study id with its last 8 hex digits replaced by the chunk index (studies have at most 100 000 / 10 chunks).
+  const hex = studyId.replace(/-/g, '');
+  const h = `${hex.slice(0, 24)}${i.toString(16).padStart(8, '0')}`;
+  return `${h.slice(0, 8)}-${h.slice(8, 12)}-${h.slice(12, 16)}-${h.slice(16, 20)}-${h.slice(20)}`;
+}
+
+type Row = typeof studies.$inferSelect;
+
+const listColumns = {
+  id: studies.id,
+  teamId: studies.teamId,
+  kind: studies.kind,
+  label: studies.label,
+  status: studies.status,
+  target: studies.target,
+  seed: studies.seed,
+  totalChunks: studies.totalChunks,
+  totalSamples: studies.totalSamples,
+  doneChunks: studies.doneChunks,
+  doneSamples: studies.doneSamples,
+  error: studies.error,
+  createdBy: studies.createdBy,
+  createdAt: studies.createdAt,
+  startedAt: studies.startedAt,
+  finishedAt: studies.finishedAt,
+  creatorName: users.displayName,
+};
+type ListRow = Pick<Row, Exclude<keyof typeof listColumns, 'creatorName'>> & { creatorName: string | null };
+
+export class Studies {
+  constructor(
+    private readonly db: Database,
+    private readonly queue: JobQueue,
+    private readonly deps: { designs: AxleDesigns; vehicles: Vehicles; configurations: Configurations; proposals: Proposals },
+    private readonly o: StudyOptions,
+  ) {}
+
+  async create(teamId: string, userId: string, body: unknown): Promise<StudyView> {
+    const request = validate(studyRequestSchema, body, 'study');
+    const [{ active } = { active: 0 }] = await this.db.orm
+      .select({ active: sql<number>`count(*)::int` })
+      .from(studies)
+      .where(and(eq(studies.teamId, teamId), inArray(studies.status, ['queued', 'running'])));
+    if (active >= this.o.maxActivePerTeam) {
+      throw new HttpError(
+        429,
+        'too_many_studies',
+        `Your team already has ${active} studies waiting or running (at most ${this.o.maxActivePerTeam} at once); wait for one to finish or cancel one`,
+        { limit: this.o.maxActivePerTeam },
+      );
+    }
+    const { spec, target, targetName } = await this.resolve(teamId, request);
+    const plan = planStudy(spec);
+    const label = request.label || `${spec.kind === 'tolerance' ? 'Tolerance study' : 'Design sweep'} of ${targetName}, ${plan.totalSamples} ${spec.kind === 'tolerance' ? 'samples' : 'variants'}`;
+    const boss = await this.queue.ready();
+    const client = await this.db.pool.connect();
+    let id: string;
+    try {
+      await client.query('BEGIN');
+      try {
+        const ins = await client.query<{ id: string }>(
+          `INSERT INTO studies (team_id, kind, label, request, target, spec, seed, total_chunks, total_samples, created_by)
+           VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10) RETURNING id`,
+          [teamId, spec.kind, label, request, target, spec, spec.seed, plan.chunkCount, plan.totalSamples, userId],
+        );
+        id = ins.rows[0]!.id;
+        const jobs = [];
+        for (let i = 0; i < plan.chunkCount; i++) {
+          const data: QueueJobData = { kind: 'study-chunk', studyId: id, teamId, chunkIndex: i };
+          jobs.push({
+            id: chunkJobId(id, i),
+            name: QUEUES.studyChunk,
+            data,
+            // Studies take turns: chunk k of every study before chunk k+1 of any.
+            priority: -i,
+            retryLimit: 3,
+            retryDelay: 0,
+            expireInSeconds: this.o.chunkExpireSeconds,
+            deadLetter: QUEUES.lost,
+          });
+        }
+        for (let i = 0; i < jobs.length; i += 1000) await boss.insert(jobs.slice(i, i + 1000), { db: bossDb(client) });
+        await this.queue.notify('wake', client);
+        await client.query('COMMIT');
+      } catch (err) {
+        await client.query('ROLLBACK').catch(() => undefined);
+        throw err;
+      }
+    } finally {
+      client.release();
+    }
+    return this.get(teamId, id);
+  }
+
+  async list(teamId: string): Promise<StudyView[]> {
+    const rows = await this.db.orm
+      .select(listColumns)
+      .from(studies)
+      .leftJoin(users, eq(users.id, studies.createdBy))
+      .where(eq(studies.teamId, teamId))
+      .orderBy(desc(studies.createdAt))
+      .limit(200);
+    return rows.map((r) => view(r));
+  }
+
+  /** The study with its result; 410 job_gone when its work was lost. */
+  async get(teamId: string, id: string): Promise<StudyView> {
+    const r = await this.row(teamId, id);
+    if (r.error && (r.error as { code?: string }).code === 'job_gone') throw gone(r);
+    return view(r, r.result as StudyResult | null);
+  }
+
+  async cancel(teamId: string, id: string): Promise<StudyView> {
+    const r = await this.row(teamId, id);
+    if (r.status !== 'queued' && r.status !== 'running') return this.get(teamId, id);
+    const [updated] = await this.db.orm
+      .update(studies)
+      .set({ status: 'cancelled', finishedAt: new Date() })
+      .where(and(eq(studies.id, id), inArray(studies.status, ['queued', 'running'])))
+      .returning({ id: studies.id });
+    if (updated) await cancelStudyChunks(this.queue, id, r.totalChunks);
+    return this.get(teamId, id);
+  }
+
+  async csv(teamId: string, id: string): Promise<{ filename: string; text: string }> {
+    const r = await this.row(teamId, id);
+    if (r.error && (r.error as { code?: string }).code === 'job_gone') throw gone(r);
+    if (r.status !== 'completed' || !r.result) throw new HttpError(409, 'study_not_completed', 'The study has no result yet; export it once it has completed');
+    const slug = r.label.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'study';
+    return { filename: `${slug}.csv`, text: studyResultCsv(r.spec as StudySpec, r.result as StudyResult) };
+  }
+
+  /** Opens variant `index` of a completed design sweep as a proposal on the studied axle design. */
+  async proposeVariant(teamId: string, id: string, index: number, userId: string): Promise<ProposalView> {
+    const r = await this.row(teamId, id);
+    if (r.kind !== 'sweep') throw new HttpError(409, 'not_a_sweep', 'Only a design sweep has variants to propose');
+    if (r.status !== 'completed') throw new HttpError(409, 'study_not_completed', 'The sweep has not completed yet');
+    const t = r.target as { designId?: string; revision?: number };
+    if (!t.designId || !t.revision) throw notFound('Axle design');
+    const corner = variantCorner(r.spec as StudySpec, index);
+    return this.deps.proposals.create(teamId, t.designId, userId, {
+      corner,
+      baseRevision: t.revision,
+      message: `Variant ${index + 1} of "${r.label}"`,
+      origin: { studyId: id, variant: index },
+    });
+  }
+
+  private async row(teamId: string, id: string): Promise<Row & { creatorName: string | null }> {
+    const [r] = await this.db.orm
+      .select({ study: studies, creatorName: users.displayName })
+      .from(studies)
+      .leftJoin(users, eq(users.id, studies.createdBy))
+      .where(and(eq(studies.id, id), eq(studies.teamId, teamId)));
+    if (!r) throw notFound('Study');
+    return { ...r.study, creatorName: r.creatorName };
+  }
+
+  /** The spec from the request and the target's documents. */
+  private async resolve(teamId: string, request: StudyRequest): Promise<{ spec: StudySpec; target: Record<string, unknown>; targetName: string }> {
+    const { target: wanted, trackProfile, ...settings } = request;
+    const seed = request.seed ?? randomInt(0, 0x7fff_ffff);
+    let docs: { axle: 'front' | 'rear'; corner: unknown; vehicle?: unknown; otherCorner?: unknown; trackProfile: unknown };
+    let target: Record<string, unknown>;
+    let targetName: string;
+    if ('axleDesignId' in wanted) {
+      const d = await this.deps.designs.get(teamId, wanted.axleDesignId);
+      const revision = wanted.revision ?? d.revision;
+      const corner = revision === d.revision ? d.corner : (await this.deps.designs.revision(teamId, d.id, revision)).corner;
+      const v = await this.deps.vehicles.get(teamId, d.vehicleId);
+      docs = { axle: d.axle, corner, ...(v.data ? { vehicle: v.data } : {}), trackProfile: trackProfile ?? 'smooth-circuit' };
+      target = { axleDesignId: d.id, designId: d.id, revision, axle: d.axle };
+      targetName = `${d.name} r${revision}`;
+    } else {
+      const c = await this.deps.configurations.get(teamId, wanted.configurationId);
+      const { revision, refs, inputs } = await this.deps.configurations.inputs(teamId, wanted.configurationId, wanted.revision);
+      const axle = wanted.axle;
+      docs = {
+        axle,
+        corner: axle === 'front' ? inputs.frontCorner : inputs.rearCorner,
+        otherCorner: axle === 'front' ? inputs.rearCorner : inputs.frontCorner,
+        ...(inputs.vehicle ? { vehicle: inputs.vehicle } : {}),
+        trackProfile: trackProfile ?? inputs.trackProfile,
+      };
+      const designId = axle === 'front' ? refs.frontDesignId : refs.rearDesignId;
+      const designRevision = axle === 'front' ? refs.frontDesignRevision : refs.rearDesignRevision;
+      target = { configurationId: c.id, revision, axle, designId, designRevision };
+      targetName = `${c.name} r${revision} (${axle})`;
+    }
+    const spec = parseOrThrow(studySpecSchema, { ...settings, ...docs, target: wanted, seed }, 'study');
+    // A design sweep's variants are proposed on the design revision the study ran on.
+    if ('designRevision' in target) target['revision'] = target['designRevision'];
+    return { spec, target, targetName };
+  }
+}
+
+/** Cancels the chunk jobs still waiting (by their fixed ids) and tells the workers running one to stop. */
+export async function cancelStudyChunks(queue: JobQueue, studyId: string, totalChunks: number): Promise<void> {
+  const boss = await queue.ready();
+  const ids = Array.from({ length: totalChunks }, (_, i) => chunkJobId(studyId, i));
+  for (let i = 0; i < ids.length; i += 1000) await boss.cancel(QUEUES.studyChunk, ids.slice(i, i + 1000));
+  await queue.notify(`cancel:${studyId}`);
+}
+
+function gone(r: Row): HttpError {
+  return new HttpError(410, 'job_gone', (r.error as { message: string }).message, { reason: 'lost', studyId: r.id });
+}
+
+function view(r: ListRow, result?: StudyResult | null): StudyView {
+  let etaSeconds: number | null = null;
+  if (r.status === 'running' && r.startedAt && r.doneChunks > 0 && r.doneChunks < r.totalChunks) {
+    const elapsedS = (Date.now() - r.startedAt.getTime()) / 1000;
+    etaSeconds = Math.max(0, Math.round(((r.totalChunks - r.doneChunks) * elapsedS) / r.doneChunks));
+  }
+  const v: StudyView = {
+    id: r.id,
+    kind: r.kind,
+    label: r.label,
+    status: r.status,
+    progress: { doneChunks: r.doneChunks, totalChunks: r.totalChunks, doneSamples: r.doneSamples, totalSamples: r.totalSamples },
+    etaSeconds,
+    error: (r.error as StudyView['error']) ?? null,
+    target: r.target as Record<string, unknown>,
+    seed: r.seed,
+    createdAt: r.createdAt,
+    startedAt: r.startedAt,
+    finishedAt: r.finishedAt,
+    createdBy: r.createdBy ? { id: r.createdBy, displayName: r.creatorName ?? '' } : null,
+  };
+  if (result) v.result = result;
+  return v;
+}
