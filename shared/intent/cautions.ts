@@ -128,7 +128,7 @@ export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-ste
   },
   'long-travel-roll-steer': {
     unit: 'deg/deg',
-    basis: 'common practice (domain.md): off-road and on landings the aim is zero bump steer; a loaded wheel that toes on landing makes the car dart',
+    basis: 'common practice: off-road and on landings the aim is zero bump steer; a loaded wheel that toes on landing makes the car dart',
     defaults: { warning: 0.005, critical: 0.03 },
   },
   'rear-roll-oversteer': {
@@ -151,7 +151,7 @@ export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-ste
   },
   'compliance-steer-rivals': {
     unit: 'ratio',
-    basis: 'common practice (Bundorf analysis table, check-values.md: compliance steer terms are of the same order as roll steer on road cars)',
+    basis: 'common practice (the Bundorf understeer budget of a road car, after Bundorf & Leffert, SAE 760713: compliance steer terms are of the same order as roll steer)',
     defaults: { warning: 0.5, critical: 1 },
   },
 };
@@ -340,7 +340,7 @@ export function evaluateCautions(inputs: CautionInputs): Caution[] {
       value: null,
       threshold: null,
       unit: '',
-      basis: 'common practice (Bundorf analysis table, check-values.md)',
+      basis: 'common practice (the Bundorf understeer budget of a road car, after Bundorf & Leffert, SAE 760713)',
     });
   }
   for (const u of inputs.unreachableRacks ?? []) {

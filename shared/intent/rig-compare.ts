@@ -40,7 +40,7 @@ export interface RigTolerance {
 export const DEFAULT_RIG_TOLERANCE: Readonly<RigTolerance> = { toeDeg: 0.1, camberDeg: 0.25 };
 
 export const RIG_TOLERANCE_BASIS =
-  "the team's rig tolerance (product default: toe 0.1°, the lower end of the common ±0.1–0.2° alignment tolerance in check-values.md, common practice; camber 0.25°, from memory: alignment specs hold camber to about ±0.25–0.5°)";
+  "the team's rig tolerance (product default: toe 0.1°, the lower end of the usual ±0.1–0.2° alignment tolerance, common practice; camber 0.25°, from memory: alignment specs hold camber to about ±0.25–0.5°)";
 
 /**
  * `absolute`: the values as measured and as predicted. `change`: each series
