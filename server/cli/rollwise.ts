@@ -9,6 +9,7 @@ const commands: Record<string, { help: string; load: () => Promise<Command> }> =
   roll: { help: 'roll --corner FILE --roll=FROM:TO:STEP [--rack=…] [--wheelbase=MM]', load: async () => (await import('./kinematics.js')).rollCommand },
   balance: { help: 'balance --vehicle FILE [--front-corner FILE --rear-corner FILE] [--speed=KPH]', load: async () => (await import('./balance.js')).balanceCommand },
   solve: { help: 'solve --intent FILE', load: async () => (await import('./intent.js')).solveCommand },
+  study: { help: 'study --spec FILE [--progress]', load: async () => (await import('./study.js')).studyCommand },
 };
 
 async function main(): Promise<number> {

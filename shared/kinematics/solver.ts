@@ -116,6 +116,21 @@ export class CornerSolver {
     this.setSteer();
   }
 
+  /**
+   * Re-reads the steering link's body point after the model's arrays were
+   * changed in place (a study's toleranced build moves pickups without
+   * compiling a new model); the pose state is kept.
+   */
+  modelMoved(): void {
+    const k = 3 * this.model.steerRow;
+    const b = this.model.bodyPts;
+    const a = this.steerInner0;
+    a[0] = b[k]!;
+    a[1] = b[k + 1]!;
+    a[2] = b[k + 2]!;
+    this.setSteer();
+  }
+
   /** Places the steering inner point for input s = sc[3] (mm): rack translation or arm rotation. */
   private setSteer(): void {
     const s = this.sc[3]!;

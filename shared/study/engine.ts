@@ -107,8 +107,19 @@ export class StudyModel {
   private readonly nomL: Float64Array;
   private readonly nomR: Float64Array;
   private readonly nominalStatic: { toeDeg: number; camberDeg: number };
-  private readonly setupSens: { camberPerShim: number; toePerShim: number; toePerLength: number } | null;
+  readonly setupSens: { camberPerShim: number; toePerShim: number; toePerLength: number; camberPerLength: number } | null;
+  /** Points a camber shim moves along y: the upper-arm pickups (double wishbone) or the strut top (camber plate). */
+  private readonly shimPoints: string[];
+  private readonly buildL: BuildSide;
+  private readonly buildR: BuildSide;
+  /** Balance-model sensitivities ∂K/∂(ε, roll camber, roll-centre height) and the nominal values they start from. */
+  private readonly balanceSens: [number, number, number] | null = null;
+  private readonly nominalAxle: [number, number, number] = [0, 0, 0];
   private readonly D = new Float64Array(9);
+  /** Per-rack scratch of a sample: toe at design and over the bump, bump-steer gradient. */
+  private readonly zeroToe = new Float64Array(8);
+  private readonly bumpToe = new Float64Array(8);
+  private readonly grads = new Float64Array(8);
   private readonly fitX: Float64Array;
   private readonly fitY: Float64Array;
   /** Output index by key. */
@@ -162,6 +173,9 @@ export class StudyModel {
     for (let i = 0; i < n; i++) this.fitX[i] = this.travels[i]! / 1000;
     this.fitY = new Float64Array(n);
 
+    this.shimPoints = this.corner.type === 'double-wishbone' ? ['upperFront', 'upperRear'] : this.corner.type === 'strut' ? ['strutTop'] : [];
+    this.buildL = new BuildSide(this.model, 'left', this.shimPoints);
+    this.buildR = new BuildSide(this.model, 'right', this.shimPoints);
     this.nomL = this.solveNominal(left, 'left');
     this.nomR = this.solveNominal(right, 'right');
     const st = new CornerSolver(this.model, 'left');
@@ -174,6 +188,9 @@ export class StudyModel {
       const c = spec.axle === 'front' ? { frontCorner: this.corner, rearCorner: spec.otherCorner as Corner | undefined } : { frontCorner: spec.otherCorner as Corner | undefined, rearCorner: this.corner };
       this.linked = linkVehicle({ vehicle: spec.vehicle as Vehicle, ...c }, {}, null);
       this.nominalK = understeerBudget(balanceCore(this.linked.vehicle)).understeerBudget.total;
+      const used = this.linked[spec.axle].used;
+      this.nominalAxle = [used.rollSteerCoefficient, used.rollCamberDegPerDeg, used.rollCentreHeightMm];
+      if (spec.kind === 'tolerance') this.balanceSens = this.balanceSensitivities();
     } else {
       this.linked = null;
       this.nominalK = null;
@@ -244,30 +261,69 @@ export class StudyModel {
     return o;
   }
 
+  /**
+   * The nominal poses, solved along the pose list as a sample will be: from
+   * each pose, the solver's own predictor to the next, then Newton. Stores
+   * per pose the converged state (c, R) and what the predictor missed
+   * (Δc, and the rotation ΔR with R = ΔR·R_predicted): a sample adds the
+   * nominal's miss to its own prediction, so only the difference between
+   * the two predictors' errors is left for Newton.
+   */
   private solveNominal(poses: PoseDef[], side: 'left' | 'right'): Float64Array {
     const s = new CornerSolver(this.model, side);
-    const out = new Float64Array(12 * poses.length);
+    const out = new Float64Array(24 * poses.length);
+    const pc = new Float64Array(3);
+    const pR = new Float64Array(9);
+    s.solve(0, 0);
     poses.forEach((p, k) => {
-      s.reset();
-      s.solve(0, 0);
-      s.solveTowards(p.travelMm, p.rackMm);
-      out.set(s.c, 12 * k);
-      out.set(s.R, 12 * k + 3);
+      const o = 24 * k;
+      if (k > 0) {
+        s.predict(p.travelMm - s.travelMm, p.rackMm - s.rackMm);
+        pc.set(s.c);
+        pR.set(s.R);
+        try {
+          s.solve(p.travelMm, p.rackMm);
+        } catch {
+          // A long step the predictor could not bridge: walk there from design (the sample falls back to Newton alone).
+          s.reset();
+          s.solve(0, 0);
+          s.solveTowards(p.travelMm, p.rackMm);
+        }
+        for (let i = 0; i < 3; i++) out[o + 12 + i] = s.c[i]! - pc[i]!;
+        // ΔR = R · R_predictedᵀ
+        for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) out[o + 15 + 3 * i + j] = s.R[3 * i]! * pR[3 * j]! + s.R[3 * i + 1]! * pR[3 * j + 1]! + s.R[3 * i + 2]! * pR[3 * j + 2]!;
+      }
+      out.set(s.c, o);
+      out.set(s.R, o + 3);
     });
     return out;
+  }
+
+  /** Predicts pose k of a sample from its previous pose: its own predictor, plus the nominal's miss at k. */
+  private predictFrom(s: CornerSolver, nom: Float64Array, p: PoseDef, k: number): void {
+    s.predict(p.travelMm - s.travelMm, p.rackMm - s.rackMm);
+    const o = 24 * k;
+    const c = s.c;
+    const R = s.R;
+    const D = this.D;
+    for (let i = 0; i < 3; i++) c[i] = c[i]! + nom[o + 12 + i]!;
+    for (let i = 0; i < 9; i++) D[i] = R[i]!;
+    for (let i = 0; i < 3; i++) {
+      for (let j = 0; j < 3; j++) R[3 * i + j] = nom[o + 15 + 3 * i]! * D[j]! + nom[o + 15 + 3 * i + 1]! * D[3 + j]! + nom[o + 15 + 3 * i + 2]! * D[6 + j]!;
+    }
   }
 
   /** Toe and camber per mm of camber shim and toe per mm of tie-rod length, at the nominal design (central differences). */
   private setupSensitivities() {
     const h = 0.05;
+    const b = new BuildSide(this.model, 'left', this.shimPoints);
     const at = (shim: number, dl: number) => {
-      const m = this.buildModel(this.shimMoves({}, shim), true);
-      m.lengths[m.steerRow]! += dl;
-      const s = new CornerSolver(m, 'left');
-      s.solve(0, 0);
-      return { toe: toeOf(s), camber: poseRow(s).camberDeg };
+      b.apply(null, shim, dl);
+      this.warm(b.solver, this.nomL, 0);
+      b.solver.solve(0, 0);
+      return { toe: toeOf(b.solver), camber: poseRow(b.solver).camberDeg };
     };
-    const canShim = this.corner.type !== 'five-link';
+    const canShim = this.shimPoints.length > 0;
     const sp = canShim ? at(h, 0) : null;
     const sm = canShim ? at(-h, 0) : null;
     const lp = at(0, h);
@@ -276,125 +332,118 @@ export class StudyModel {
       camberPerShim: sp && sm ? (sp.camber - sm.camber) / (2 * h) : 0,
       toePerShim: sp && sm ? (sp.toe - sm.toe) / (2 * h) : 0,
       toePerLength: (lp.toe - lm.toe) / (2 * h),
+      camberPerLength: (lp.camber - lm.camber) / (2 * h),
     };
   }
 
-  /** Adds a camber shim (mm, outboard positive) to a set of moves: the upper-arm pickups (double wishbone) or the strut top (camber plate) move along y. */
-  private shimMoves(moves: PointMoves, shim: number): PointMoves {
-    if (shim === 0) return moves;
-    const pts = this.corner.points as Record<string, Vec3>;
-    const names = this.corner.type === 'double-wishbone' ? ['upperFront', 'upperRear'] : this.corner.type === 'strut' ? ['strutTop'] : [];
-    const out = { ...moves };
-    for (const n of names) {
-      const p = out[n] ?? pts[n]!;
-      out[n] = [p[0], p[1] + shim, p[2]];
-    }
-    return out;
+  /** Understeer gradient (deg/g) per unit of ε, roll camber and roll-centre height at the nominal design (central differences), for toleranced builds. */
+  private balanceSensitivities(): [number, number, number] {
+    const lv = this.linked!;
+    const name = this.spec.axle;
+    const link = lv[name];
+    const k = (d: [number, number, number]) => {
+      const axle = { ...lv.vehicle[name] };
+      axle.rollSteerCoefficient = (axle.rollSteerCoefficient ?? 0) + d[0];
+      axle.rollCamberDegPerDeg = (axle.rollCamberDegPerDeg ?? 0) + d[1];
+      axle.rollCentreHeightMm += d[2];
+      return understeerBudget(balanceCore({ ...lv.vehicle, [name]: axle })).understeerBudget.total;
+    };
+    const steps: [number, number, number] = [1e-3, 1e-3, 0.5];
+    const used = [link.source.rollSteerCoefficient, link.source.rollCamberDegPerDeg, link.source.rollCentreHeightMm];
+    return steps.map((h, i) => {
+      if (used[i] !== 'kinematics') return 0;
+      const d: [number, number, number] = [0, 0, 0];
+      d[i] = h;
+      const up = k(d);
+      d[i] = -h;
+      return (up - k(d)) / (2 * h);
+    }) as [number, number, number];
   }
 
-  /** The model of a moved corner; `build`: links keep their drawing lengths (a toleranced build), else they fit the moved points (a design variant). */
-  buildModel(moves: PointMoves, build: boolean): CornerModel {
-    if (Object.keys(moves).length === 0) {
-      if (!build) return this.model;
-      const c = moveCornerPoints(this.corner, {});
-      return compileCorner(c);
-    }
-    const m = compileCorner(moveCornerPoints(this.corner, { points: moves }));
-    if (build) m.lengths.set(this.model.lengths);
-    return m;
-  }
-
-  /** Sets the solver to the nominal state of pose k, moved by the sample's offset at pose `prev` (the solver's current state). */
-  private warm(s: CornerSolver, nom: Float64Array, k: number, prev: number): void {
-    const c = s.c;
-    const R = s.R;
-    const o = 12 * k;
-    if (prev < 0) {
-      for (let i = 0; i < 3; i++) c[i] = nom[o + i]!;
-      for (let i = 0; i < 9; i++) R[i] = nom[o + 3 + i]!;
-      return;
-    }
-    const q = 12 * prev;
-    // D = R_sample(prev) · R_nominal(prev)ᵀ, then R = D · R_nominal(k), c = c_nominal(k) + (c_sample(prev) − c_nominal(prev)).
-    const D = this.D;
-    for (let i = 0; i < 3; i++) {
-      for (let j = 0; j < 3; j++) {
-        D[3 * i + j] = R[3 * i]! * nom[q + 3 + 3 * j]! + R[3 * i + 1]! * nom[q + 3 + 3 * j + 1]! + R[3 * i + 2]! * nom[q + 3 + 3 * j + 2]!;
-      }
-    }
-    for (let i = 0; i < 3; i++) {
-      for (let j = 0; j < 3; j++) R[3 * i + j] = D[3 * i]! * nom[o + 3 + j]! + D[3 * i + 1]! * nom[o + 3 + 3 + j]! + D[3 * i + 2]! * nom[o + 3 + 6 + j]!;
-    }
-    for (let i = 0; i < 3; i++) c[i] = nom[o + i]! + c[i]! - nom[q + i]!;
-  }
-
-  /** Static pose of a side from the nominal start; returns Newton solves used. */
-  private solveStatic(s: CornerSolver, nom: Float64Array): void {
-    this.warm(s, nom, 0, -1);
-    s.solve(0, 0);
+  /** Sets the solver to the nominal state of pose k. */
+  private warm(s: CornerSolver, nom: Float64Array, k: number): void {
+    const o = 24 * k;
+    for (let i = 0; i < 3; i++) s.c[i] = nom[o + i]!;
+    for (let i = 0; i < 9; i++) s.R[i] = nom[o + 3 + i]!;
+    // As the nominal after reset: at design (so the next solve keeps no tangent history from an earlier sample).
+    s.travelMm = 0;
+    s.rackMm = 0;
+    s.forgetHistory();
   }
 
   /**
-   * One sample. `left` and `right` are the moves of each corner (left frame);
-   * `build` says whether links keep their drawing lengths. Never throws for
-   * unsolvable geometry: the outcome carries the message instead.
+   * One sample: a toleranced build (`offsets` of each side's points, left
+   * frame, mm; `right` null keeps the right corner nominal) or a design
+   * variant (`moves`: absolute positions, links made to fit, both sides).
+   * Never throws for unsolvable geometry: the outcome carries the message.
    */
-  evaluate(left: PointMoves, right: PointMoves | null, build: boolean, out: Float64Array): SampleOutcome {
+  evaluate(sample: { build: { left: PointMoves; right: PointMoves | null } } | { variant: PointMoves }, out: Float64Array): SampleOutcome {
     out.fill(NaN);
     let poses = 0;
     try {
       const setup = this.spec.kind === 'tolerance' ? this.spec.setup : null;
-      const side = (moves: PointMoves, which: 'left' | 'right'): { s: CornerSolver; row: PoseRow } => {
-        let m = this.buildModel(moves, build);
-        let s = new CornerSolver(m, which);
-        const nom = which === 'left' ? this.nomL : this.nomR;
-        this.solveStatic(s, nom);
+      const buildSide = (bs: BuildSide, offsets: PointMoves | null, nom: Float64Array): PoseRow => {
+        const s = bs.solver;
+        bs.apply(offsets, 0, 0);
+        this.warm(s, nom, 0);
+        s.solve(0, 0);
         poses++;
-        if (setup && this.setupSens) {
-          const sens = this.setupSens;
-          const shimStep = setup.camberShimMm;
-          if (shimStep !== undefined && sens.camberPerShim !== 0) {
-            const cam = poseRow(s).camberDeg;
-            let shim = -(cam - this.nominalStatic.camberDeg) / sens.camberPerShim;
-            if (shimStep > 0) shim = Math.round(shim / shimStep) * shimStep;
-            if (shim !== 0) {
-              m = this.buildModel(this.shimMoves(moves, shim), build);
-              s = new CornerSolver(m, which);
-              this.solveStatic(s, nom);
-              poses++;
-            }
-          }
-          const toeStep = setup.toeAdjusterStepMm;
-          if (toeStep !== undefined && sens.toePerLength !== 0) {
-            let dl = -(toeOf(s) - this.nominalStatic.toeDeg) / sens.toePerLength;
-            if (toeStep > 0) dl = Math.round(dl / toeStep) * toeStep;
-            if (dl !== 0) {
-              m.lengths[m.steerRow]! += dl;
-              s.solve(0, 0);
-              poses++;
-            }
+        if (setup && this.setupSens && (setup.camberShimMm !== undefined || setup.toeAdjusterStepMm !== undefined)) {
+          // As on an alignment stand: read toe and camber, set the shim and the tie-rod length that cancel both
+          // (their coupling through the nominal sensitivities), to the shim and adjuster resolution; read and set again.
+          const g = this.setupSens;
+          const useShim = setup.camberShimMm !== undefined && g.camberPerShim !== 0;
+          const useToe = setup.toeAdjusterStepMm !== undefined && g.toePerLength !== 0;
+          let shim = 0;
+          let dl = 0;
+          for (let pass = 0; pass < 2; pass++) {
+            const dc = -(poseRow(s).camberDeg - this.nominalStatic.camberDeg);
+            const dt = -(toeOf(s) - this.nominalStatic.toeDeg);
+            let a = 0;
+            let b = 0;
+            if (useShim && useToe) {
+              const det = g.camberPerShim * g.toePerLength - g.camberPerLength * g.toePerShim;
+              a = (dc * g.toePerLength - g.camberPerLength * dt) / det;
+              b = (g.camberPerShim * dt - g.toePerShim * dc) / det;
+            } else if (useShim) a = dc / g.camberPerShim;
+            else b = dt / g.toePerLength;
+            const q = (v: number, step: number | undefined) => (step ? Math.round(v / step) * step : v);
+            const nextShim = useShim ? q(shim + a, setup.camberShimMm) : 0;
+            const nextDl = useToe ? q(dl + b, setup.toeAdjusterStepMm) : 0;
+            if (nextShim === shim && nextDl === dl) break;
+            shim = nextShim;
+            dl = nextDl;
+            bs.apply(offsets, shim, dl);
+            s.solve(0, 0);
+            poses++;
           }
         }
-        return { s, row: poseRow(s) };
+        return poseRow(s);
       };
-
-      const L = side(left, 'left');
-      const R = right === null ? null : side(right, 'right');
-      const sl = L.s;
-      const icL = frontViewIc(sl);
+      let sl: CornerSolver;
       let sr: CornerSolver;
+      let rowL: PoseRow;
       let rowR: PoseRow;
-      if (R) {
-        sr = R.s;
-        rowR = R.row;
+      const exact = 'variant' in sample;
+      if ('build' in sample) {
+        rowL = buildSide(this.buildL, sample.build.left, this.nomL);
+        sl = this.buildL.solver;
+        rowR = buildSide(this.buildR, sample.build.right, this.nomR);
+        sr = this.buildR.solver;
       } else {
-        sr = new CornerSolver(this.model, 'right');
-        this.solveStatic(sr, this.nomR);
-        poses++;
+        const m = Object.keys(sample.variant).length ? compileCorner(moveCornerPoints(this.corner, { points: sample.variant })) : this.model;
+        sl = new CornerSolver(m, 'left');
+        sr = new CornerSolver(m, 'right');
+        this.warm(sl, this.nomL, 0);
+        sl.solve(0, 0);
+        this.warm(sr, this.nomR, 0);
+        sr.solve(0, 0);
+        poses += 2;
+        rowL = poseRow(sl);
         rowR = poseRow(sr);
       }
+      const icL = frontViewIc(sl);
       const icR = frontViewIc(sr);
-      const rowL = L.row;
       const idx = this.index;
       out[idx['staticToeDeg']!] = rowL.toeDeg;
       out[idx['staticCamberDeg']!] = rowL.camberDeg;
@@ -408,9 +457,9 @@ export class StudyModel {
       // Left pose list (from index 1: the static pose is solved).
       const lp = this.leftPoses;
       const racks = this.racks;
-      const zeroToe = new Float64Array(racks.length);
-      const bumpToe = new Float64Array(racks.length);
-      const grads = new Float64Array(racks.length);
+      const zeroToe = this.zeroToe;
+      const bumpToe = this.bumpToe;
+      const grads = this.grads;
       let bumpCpY = NaN;
       let steerRollL = NaN;
       let steerRollLm = NaN;
@@ -420,7 +469,7 @@ export class StudyModel {
       let filled = 0;
       for (let k = 1; k < lp.length; k++) {
         const p = lp[k]!;
-        this.warm(sl, this.nomL, k, k - 1);
+        this.predictFrom(sl, this.nomL, p, k);
         sl.solve(p.travelMm, p.rackMm);
         poses++;
         if (p.kind === P_ZERO) zeroToe[p.tag] = toeOf(sl);
@@ -456,7 +505,7 @@ export class StudyModel {
       let rcRoll: ReturnType<typeof rollCentreOf> = null;
       for (let k = 1; k < rp.length; k++) {
         const p = rp[k]!;
-        this.warm(sr, this.nomR, k, k - 1);
+        this.predictFrom(sr, this.nomR, p, k);
         sr.solve(p.travelMm, p.rackMm);
         poses++;
         // Right side steer angle = its toe (toe_R = δ_R).
@@ -484,9 +533,15 @@ export class StudyModel {
       out[idx['bumpScrubMm']!] = Math.abs(bumpCpY - rowL.contactPatch[1]);
 
       if (this.linked && this.nominalK !== null) {
-        const k = this.understeerGradient(out, rowL, rowR);
-        out[idx['understeerGradientChangeDegPerG']!] = k - this.nominalK;
-        if (this.spec.kind === 'sweep') out[idx['balanceGainDegPerG']!] = (this.spec.balanceDirection === 'more-understeer' ? 1 : -1) * (k - this.nominalK);
+        let dk: number;
+        if (exact) dk = this.understeerGradient(out, rowL, rowR) - this.nominalK;
+        else {
+          const g = this.balanceSens!;
+          const rc = out[idx['rollCentreHeightMm']!]!;
+          dk = g[0] * (out[idx['rollSteerCoefficient']!]! - this.nominalAxle[0]) + g[1] * (out[idx['rollCamberDegPerDeg']!]! - this.nominalAxle[1]) + (Number.isFinite(rc) ? g[2] * (rc - this.nominalAxle[2]) : 0);
+        }
+        out[idx['understeerGradientChangeDegPerG']!] = dk;
+        if (this.spec.kind === 'sweep') out[idx['balanceGainDegPerG']!] = (this.spec.balanceDirection === 'more-understeer' ? 1 : -1) * dk;
       }
       return { values: out, poses, error: null };
     } catch (e) {
@@ -515,13 +570,110 @@ export class StudyModel {
     return understeerBudget(balanceCore({ ...lv.vehicle, [name]: axle })).understeerBudget.total;
   }
 
-  /** Moves of one tolerance entry's draw on a corner. */
-  static applyTolerance(pts: Record<string, Vec3>, moves: PointMoves, t: Tolerance, d: [number, number, number]): void {
-    const p = moves[t.point] ?? pts[t.point]!;
-    moves[t.point] = [p[0] + d[0], p[1] + d[1], p[2] + d[2]];
-  }
-
   static axisIndex(a: 'x' | 'y' | 'z'): 0 | 1 | 2 {
     return AXIS_INDEX[a];
   }
+}
+
+/**
+ * One side of a toleranced build: a working copy of the nominal model whose
+ * link points, kingpin points and strut mounts are moved in place for each
+ * sample (links keep their drawing lengths; the tie rod's changes only by
+ * the toe adjuster), with one solver that is reused. Spring, rocker and bar
+ * linkages stay at their nominal geometry.
+ */
+class BuildSide {
+  readonly model: CornerModel;
+  readonly solver: CornerSolver;
+  private readonly inner: Record<string, number[]> = {};
+  private readonly outer: Record<string, number[]> = {};
+
+  constructor(
+    private readonly nominal: CornerModel,
+    side: 'left' | 'right',
+    private readonly shimPoints: string[],
+  ) {
+    const n = nominal;
+    const v3 = (v: Vec3): Vec3 => [v[0], v[1], v[2]];
+    const kp = n.kingpin;
+    this.model = {
+      ...n,
+      bodyPts: n.bodyPts.slice(),
+      localPts: n.localPts.slice(),
+      lengths: n.lengths.slice(),
+      strut: n.strut && { ...n.strut, top: n.strut.top.slice(), lowerLocal: n.strut.lowerLocal.slice() },
+      kingpin: kp.kind === 'points' ? { kind: 'points', lowerLocal: v3(kp.lowerLocal), upperLocal: v3(kp.upperLocal) } : kp.kind === 'strut' ? { kind: 'strut', lowerLocal: v3(kp.lowerLocal), top: v3(kp.top) } : kp,
+      lowerOuterLocal: n.lowerOuterLocal && v3(n.lowerOuterLocal),
+      upperOuterLocal: n.upperOuterLocal && v3(n.upperOuterLocal),
+    };
+    // Which constraint rows each point ends: matched by position in the nominal corner.
+    const pts = n.corner.points as Record<string, Vec3>;
+    const same = (a: ArrayLike<number>, o: number, p: Vec3, shift: Vec3 | null) =>
+      Math.abs(a[o]! + (shift ? shift[0] : 0) - p[0]) < 1e-9 && Math.abs(a[o + 1]! + (shift ? shift[1] : 0) - p[1]) < 1e-9 && Math.abs(a[o + 2]! + (shift ? shift[2] : 0) - p[2]) < 1e-9;
+    for (const [name, p] of Object.entries(pts)) {
+      for (let i = 0; i < n.nDist; i++) {
+        if (same(n.bodyPts, 3 * i, p, null)) (this.inner[name] ??= []).push(i);
+        if (same(n.localPts, 3 * i, p, n.wc0)) (this.outer[name] ??= []).push(i);
+      }
+    }
+    this.solver = new CornerSolver(this.model, side);
+  }
+
+  /** Back to nominal, then the sample's offsets (left frame, mm), a camber shim along y and a tie-rod length change (mm). */
+  apply(offsets: PointMoves | null, shimMm: number, tieRodMm: number): void {
+    const n = this.nominal;
+    const m = this.model;
+    m.bodyPts.set(n.bodyPts);
+    m.localPts.set(n.localPts);
+    m.lengths.set(n.lengths);
+    const kp = m.kingpin;
+    const nkp = n.kingpin;
+    if (m.strut && n.strut) {
+      m.strut.top.set(n.strut.top);
+      m.strut.lowerLocal.set(n.strut.lowerLocal);
+    }
+    if (kp.kind === 'points' && nkp.kind === 'points') {
+      copy3(kp.lowerLocal, nkp.lowerLocal);
+      copy3(kp.upperLocal, nkp.upperLocal);
+    } else if (kp.kind === 'strut' && nkp.kind === 'strut') {
+      copy3(kp.lowerLocal, nkp.lowerLocal);
+      copy3(kp.top, nkp.top);
+    }
+    if (m.lowerOuterLocal && n.lowerOuterLocal) copy3(m.lowerOuterLocal, n.lowerOuterLocal);
+    if (m.upperOuterLocal && n.upperOuterLocal) copy3(m.upperOuterLocal, n.upperOuterLocal);
+    if (offsets) for (const name in offsets) this.move(name, offsets[name]!);
+    if (shimMm !== 0) for (const name of this.shimPoints) this.move(name, [0, shimMm, 0]);
+    m.lengths[m.steerRow]! += tieRodMm;
+    this.solver.modelMoved();
+  }
+
+  private move(name: string, d: Vec3): void {
+    const m = this.model;
+    for (const i of this.inner[name] ?? []) add3(m.bodyPts, 3 * i, d);
+    for (const i of this.outer[name] ?? []) add3(m.localPts, 3 * i, d);
+    const kp = m.kingpin;
+    if (name === 'strutTop' && m.strut) {
+      add3(m.strut.top, 0, d);
+      if (kp.kind === 'strut') add3(kp.top, 0, d);
+    } else if (name === 'strutLower' && m.strut) add3(m.strut.lowerLocal, 0, d);
+    else if (name === 'lowerOuter') {
+      if (kp.kind !== 'instant') add3(kp.lowerLocal, 0, d);
+      if (m.lowerOuterLocal) add3(m.lowerOuterLocal, 0, d);
+    } else if (name === 'upperOuter') {
+      if (kp.kind === 'points') add3(kp.upperLocal, 0, d);
+      if (m.upperOuterLocal) add3(m.upperOuterLocal, 0, d);
+    }
+  }
+}
+
+function copy3(a: number[] | Float64Array, b: ArrayLike<number>): void {
+  a[0] = b[0]!;
+  a[1] = b[1]!;
+  a[2] = b[2]!;
+}
+
+function add3(a: number[] | Float64Array, o: number, d: ArrayLike<number>): void {
+  a[o] = a[o]! + d[0]!;
+  a[o + 1] = a[o + 1]! + d[1]!;
+  a[o + 2] = a[o + 2]! + d[2]!;
 }

@@ -113,34 +113,34 @@ export function drawFactors(p: Prepared, index: number, x: Float64Array): void {
   }
 }
 
-/** The point moves of each side (left frame) for factor values x. */
-function movesFor(p: Prepared, x: Float64Array): { left: PointMoves; right: PointMoves | null } {
+/** A sample's input to the engine: the offsets of each side's points (toleranced build, left frame) or the variant's point positions (sweep). */
+function sampleInput(p: Prepared, x: Float64Array): { build: { left: PointMoves; right: PointMoves | null } } | { variant: PointMoves } {
   const pts = p.model.corner.points as Record<string, Vec3>;
+  if (p.spec.kind === 'sweep') {
+    const variant: PointMoves = {};
+    p.spec.factors.forEach((f, d) => {
+      const q = variant[f.point] ?? [pts[f.point]![0], pts[f.point]![1], pts[f.point]![2]];
+      q[StudyModel.axisIndex(f.axis)] = x[d]!;
+      variant[f.point] = q;
+    });
+    return { variant };
+  }
   const left: PointMoves = {};
   const right: PointMoves = {};
   const add = (m: PointMoves, point: string, axis: 0 | 1 | 2, v: number) => {
-    const q = m[point] ?? [pts[point]![0], pts[point]![1], pts[point]![2]];
+    const q = m[point] ?? [0, 0, 0];
     q[axis] += v;
     m[point] = q;
   };
-  const factors = p.model.factors;
-  if (p.spec.kind === 'sweep') {
-    p.spec.factors.forEach((f, d) => {
-      const q = left[f.point] ?? [pts[f.point]![0], pts[f.point]![1], pts[f.point]![2]];
-      q[StudyModel.axisIndex(f.axis)] = x[d]!;
-      left[f.point] = q;
-    });
-    return { left, right: null };
-  }
-  const spec = p.spec as ToleranceSpec;
-  factors.forEach((f, j) => {
+  const spec = p.spec;
+  p.model.factors.forEach((f, j) => {
     const t = spec.tolerances[f.source]!;
     const ax = StudyModel.axisIndex(f.axis);
-    // The right corner is solved in the left frame: its vehicle-frame y deviation flips.
+    // The right corner is solved in the left frame: its vehicle-frame y offset flips.
     if (f.side === 'left') add(left, t.point, ax, x[j]!);
     else add(right, t.point, ax, ax === 1 ? -x[j]! : x[j]!);
   });
-  return { left, right: spec.sides === 'both' ? right : null };
+  return { build: { left, right: spec.sides === 'both' ? right : null } };
 }
 
 // ---------- chunks ----------
@@ -176,11 +176,9 @@ export function runStudyChunk(spec: StudySpec | unknown, chunkIndex: number): St
   const failures: { sample: number; message: string }[] = [];
   let failedCount = 0;
   let poses = 0;
-  const build = p.spec.kind === 'tolerance';
   for (let i = 0; i < n; i++) {
     drawFactors(p, first + i, x);
-    const mv = movesFor(p, x);
-    const r = m.evaluate(mv.left, mv.right, build, buf);
+    const r = m.evaluate(sampleInput(p, x), buf);
     poses += r.poses;
     if (r.error !== null) {
       failedCount++;
@@ -334,7 +332,7 @@ export function combineStudyChunks(specInput: StudySpec | unknown, chunks: reado
   }
   // The nominal design, for reference.
   const nominal = new Float64Array(nOut);
-  m.evaluate({}, spec.kind === 'tolerance' && spec.sides === 'both' ? {} : null, false, nominal);
+  m.evaluate(spec.kind === 'tolerance' ? { build: { left: {}, right: null } } : { variant: {} }, nominal);
 
   const tol = spec.kind === 'tolerance' && rows.length > P + 1 ? leastSquares(X, P, rows, cols) : null;
   let surfaces: ResponseSurface[] = [];
@@ -490,8 +488,8 @@ export function variantCorner(specInput: StudySpec | unknown, index: number): Co
   }
   const x = new Float64Array(p.model.factors.length);
   drawFactors(p, index, x);
-  const { left } = movesFor(p, x);
-  return structuredClone(moveCornerPoints(p.model.corner, { points: left }));
+  const input = sampleInput(p, x);
+  return structuredClone(moveCornerPoints(p.model.corner, { points: 'variant' in input ? input.variant : {} }));
 }
 
 /** The factor values of a variant or sample (mm), by factor key. */

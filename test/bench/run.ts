@@ -12,7 +12,7 @@ import { dirname, join } from 'node:path';
 export type BenchFigures = Record<string, number>;
 
 const here = dirname(fileURLToPath(import.meta.url));
-const modules = ['kinematics', 'balance', 'intent', 'ui', 'queue'];
+const modules = ['kinematics', 'balance', 'intent', 'study', 'ui', 'queue'];
 const only = process.argv.slice(2);
 
 const all: BenchFigures = {};

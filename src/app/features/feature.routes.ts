@@ -49,6 +49,18 @@ export const FEATURE_ROUTES: Routes = [
     loadComponent: () => import('./configurations/configurations-page').then((m) => m.ConfigurationsPage),
   },
   {
+    // Tolerance studies and design sweeps (issue 16): the team's list, a new study, one study's progress and results.
+    path: 'studies',
+    pathMatch: 'full',
+    title: 'Studies · Rollwise',
+    loadComponent: () => import('./studies/studies-page').then((m) => m.StudiesPage),
+  },
+  {
+    path: 'studies/:studyId',
+    title: 'Study · Rollwise',
+    loadComponent: () => import('./studies/study-page').then((m) => m.StudyPage),
+  },
+  {
     // The page review mail links to (PUBLIC_URL/teams/:teamId/configurations/:id).
     path: 'configurations/:configurationId',
     title: 'Configuration · Rollwise',

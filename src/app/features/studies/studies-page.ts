@@ -1,0 +1,202 @@
+import { ChangeDetectionStrategy, Component, computed, inject, OnDestroy, OnInit, signal } from '@angular/core';
+import { ActivatedRoute, Router, RouterLink } from '@angular/router';
+import { MatButton } from '@angular/material/button';
+import { MatIcon } from '@angular/material/icon';
+import { MatProgressBar } from '@angular/material/progress-bar';
+import { firstValueFrom } from 'rxjs';
+import { TRACK_PROFILE_IDS, trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
+import { MAX_STUDY_SAMPLES, type StudyRequest } from '../../../../shared/study/schema';
+import { apiProblem } from '../../core/http/api-error';
+import { TeamAccess } from '../../core/teams/team-access';
+import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
+import { routeParam } from '../route-params';
+import { etaWords, STATUS_WORDS, StudiesApi, type StudyView } from './studies-api';
+
+type ListState = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; list: readonly StudyView[] };
+
+interface ToleranceRow {
+  point: string;
+  axis: 'x' | 'y' | 'z' | 'sphere';
+  plusMinusMm: number;
+  distribution: 'normal' | 'uniform';
+}
+
+interface FactorRow {
+  point: string;
+  axis: 'x' | 'y' | 'z';
+  fromMm: number;
+  toMm: number;
+  levels: number;
+}
+
+/** Every corner point a tolerance or a sweep may name (the wheel axis points excepted); the server checks them against the corner's type. */
+const POINT_NAMES = [
+  'lowerFront', 'lowerRear', 'lowerOuter', 'upperFront', 'upperRear', 'upperOuter', 'tieRodInner', 'tieRodOuter', 'strutTop', 'strutLower',
+  'link1Inner', 'link1Outer', 'link2Inner', 'link2Outer', 'link3Inner', 'link3Outer', 'link4Inner', 'link4Outer', 'link5Inner', 'link5Outer',
+];
+
+/**
+ * `/teams/:teamId/studies[?axleDesignId=…|?configurationId=…]`: the team's
+ * tolerance studies and design sweeps with their progress, and a new study
+ * of the axle design or configuration the page was opened from.
+ */
+@Component({
+  selector: 'rw-studies-page',
+  imports: [RouterLink, MatButton, MatIcon, MatProgressBar],
+  templateUrl: './studies-page.html',
+  styleUrl: './studies.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class StudiesPage implements OnInit, OnDestroy {
+  private readonly route = inject(ActivatedRoute);
+  private readonly router = inject(Router);
+  private readonly api = inject(StudiesApi);
+  protected readonly access = inject(TeamAccess);
+
+  protected readonly teamId = routeParam(this.route, 'teamId');
+  protected readonly axleDesignId = this.route.snapshot.queryParamMap.get('axleDesignId');
+  protected readonly configurationId = this.route.snapshot.queryParamMap.get('configurationId');
+  protected readonly hasTarget = !!(this.axleDesignId || this.configurationId);
+  protected readonly state = signal<ListState>({ kind: 'loading' });
+  protected readonly statusWords = STATUS_WORDS;
+  protected readonly eta = etaWords;
+  protected readonly pointNames = POINT_NAMES;
+  protected readonly profiles = TRACK_PROFILE_IDS.map((id) => trackProfiles[id]);
+  protected readonly maxSamples = MAX_STUDY_SAMPLES;
+  private readonly timeZone = browserTimeZone();
+  private timer: ReturnType<typeof setInterval> | null = null;
+
+  // ---- the form ----
+  protected readonly kind = signal<'tolerance' | 'sweep'>('tolerance');
+  protected readonly label = signal('');
+  protected readonly axle = signal<'front' | 'rear'>('front');
+  protected readonly profile = signal<TrackProfileId | ''>('');
+  protected readonly samples = signal(2000);
+  protected readonly seed = signal<number | null>(null);
+  protected readonly tolerances = signal<ToleranceRow[]>([{ point: 'tieRodInner', axis: 'z', plusMinusMm: 0.5, distribution: 'normal' }]);
+  protected readonly normalSigmas = signal(3);
+  protected readonly shimMm = signal<number | null>(null);
+  protected readonly adjusterMm = signal<number | null>(null);
+  protected readonly racks = signal('0');
+  protected readonly design = signal<'full-factorial' | 'latin-hypercube'>('latin-hypercube');
+  protected readonly factors = signal<FactorRow[]>([{ point: 'tieRodInner', axis: 'z', fromMm: 0, toMm: 10, levels: 5 }]);
+  protected readonly direction = signal<'more-understeer' | 'less-understeer'>('more-understeer');
+  protected readonly formError = signal<string | null>(null);
+  protected readonly saving = signal(false);
+  protected readonly variantCount = computed(() => (this.design() === 'full-factorial' ? this.factors().reduce((a, f) => a * Math.max(2, f.levels), 1) : this.samples()));
+
+  ngOnInit(): void {
+    void firstValueFrom(this.access.load(this.teamId)).catch(() => undefined);
+    void this.load();
+    // Progress of running studies, every two seconds while any is queued or running.
+    this.timer = setInterval(() => {
+      const s = this.state();
+      if (s.kind === 'ready' && s.list.some((x) => x.status === 'queued' || x.status === 'running')) void this.load(true);
+    }, 2000);
+  }
+
+  ngOnDestroy(): void {
+    if (this.timer) clearInterval(this.timer);
+  }
+
+  protected async load(quiet = false): Promise<void> {
+    if (!quiet) this.state.set({ kind: 'loading' });
+    try {
+      const { studies } = await firstValueFrom(this.api.list(this.teamId));
+      this.state.set({ kind: 'ready', list: studies });
+    } catch (error) {
+      if (!quiet) this.state.set({ kind: 'error', message: apiProblem(error).message });
+    }
+  }
+
+  protected localTime(iso: string): string {
+    return formatLocalTime(iso, this.timeZone);
+  }
+
+  protected percent(s: StudyView): number {
+    return s.progress.totalSamples > 0 ? (100 * s.progress.doneSamples) / s.progress.totalSamples : 0;
+  }
+
+  protected value(event: Event): string {
+    return (event.target as HTMLInputElement | HTMLSelectElement).value;
+  }
+
+  protected num(event: Event): number {
+    return Number(this.value(event));
+  }
+
+  protected optionalNum(event: Event): number | null {
+    const v = this.value(event).trim();
+    return v === '' ? null : Number(v);
+  }
+
+  protected setTolerance(i: number, patch: Partial<ToleranceRow>): void {
+    this.tolerances.update((rows) => rows.map((r, k) => (k === i ? { ...r, ...patch } : r)));
+  }
+
+  protected addTolerance(): void {
+    this.tolerances.update((rows) => [...rows, { point: 'lowerFront', axis: 'sphere', plusMinusMm: 0.5, distribution: 'normal' }]);
+  }
+
+  protected removeTolerance(i: number): void {
+    this.tolerances.update((rows) => rows.filter((_, k) => k !== i));
+  }
+
+  protected setFactor(i: number, patch: Partial<FactorRow>): void {
+    this.factors.update((rows) => rows.map((r, k) => (k === i ? { ...r, ...patch } : r)));
+  }
+
+  protected addFactor(): void {
+    this.factors.update((rows) => [...rows, { point: 'tieRodOuter', axis: 'z', fromMm: 0, toMm: 10, levels: 5 }]);
+  }
+
+  protected removeFactor(i: number): void {
+    this.factors.update((rows) => rows.filter((_, k) => k !== i));
+  }
+
+  /** The request body of docs/api.md from the form. */
+  protected request(): StudyRequest {
+    const target = this.axleDesignId ? { axleDesignId: this.axleDesignId } : { configurationId: this.configurationId!, axle: this.axle() };
+    const racks = this.racks().split(',').map((r) => Number(r.trim())).filter((r) => r.toString() !== 'NaN');
+    const common = {
+      target,
+      ...(this.label().trim() ? { label: this.label().trim() } : {}),
+      ...(this.seed() !== null ? { seed: this.seed()! } : {}),
+      ...(this.profile() ? { trackProfile: this.profile() as TrackProfileId } : {}),
+      analysis: { travelPoints: 11, rackMm: racks.length ? racks : [0], rollDeg: 2 },
+    };
+    if (this.kind() === 'tolerance') {
+      return {
+        ...common,
+        kind: 'tolerance',
+        samples: this.samples(),
+        tolerances: this.tolerances(),
+        normalSigmas: this.normalSigmas(),
+        sides: 'both',
+        setup: { ...(this.shimMm() !== null ? { camberShimMm: this.shimMm()! } : {}), ...(this.adjusterMm() !== null ? { toeAdjusterStepMm: this.adjusterMm()! } : {}) },
+      } as StudyRequest;
+    }
+    return {
+      ...common,
+      kind: 'sweep',
+      design: this.design(),
+      ...(this.design() === 'latin-hypercube' ? { samples: this.samples() } : {}),
+      factors: this.factors(),
+      balanceDirection: this.direction(),
+    } as StudyRequest;
+  }
+
+  protected async start(): Promise<void> {
+    this.formError.set(null);
+    this.saving.set(true);
+    try {
+      const { study } = await firstValueFrom(this.api.start(this.teamId, this.request()));
+      await this.router.navigate(['/teams', this.teamId, 'studies', study.id]);
+    } catch (error) {
+      const p = apiProblem(error);
+      this.formError.set(p.message);
+    } finally {
+      this.saving.set(false);
+    }
+  }
+}

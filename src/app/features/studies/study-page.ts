@@ -1,0 +1,177 @@
+import { ChangeDetectionStrategy, Component, computed, inject, OnDestroy, OnInit, signal } from '@angular/core';
+import { ActivatedRoute, RouterLink } from '@angular/router';
+import { MatButton } from '@angular/material/button';
+import { MatIcon } from '@angular/material/icon';
+import { MatProgressBar } from '@angular/material/progress-bar';
+import { firstValueFrom } from 'rxjs';
+import type { OutputResult, StudyResult } from '../../../../shared/study/index';
+import { BarChart } from '../../charts/bar-chart';
+import { LineChart } from '../../charts/line-chart';
+import { formatNumber, type BarGroup, type LineSeries } from '../../charts/chart-types';
+import { downloadText, fileNameFor } from '../../charts/csv';
+import { apiProblem } from '../../core/http/api-error';
+import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
+import { routeParam } from '../route-params';
+import { SafetyCaution } from '../safety-caution';
+import { etaWords, STATUS_WORDS, StudiesApi, type StudyView } from './studies-api';
+
+type StudyState = { kind: 'loading' } | { kind: 'error'; message: string; gone: boolean } | { kind: 'ready'; study: StudyView };
+
+const LEVEL_WORDS = { info: 'Notice', warning: 'Warning', critical: 'Critical' } as const;
+
+/**
+ * `/teams/:teamId/studies/:studyId`: a study's progress (with the time
+ * left), cancel, and its results: histograms with P5 / P50 / P95, the
+ * tornado of the tolerances, the probability of breaching each caution
+ * threshold, and for a design sweep the Pareto front of balance gained
+ * against bump cost with each variant openable as a proposal; CSV export.
+ */
+@Component({
+  selector: 'rw-study-page',
+  imports: [RouterLink, MatButton, MatIcon, MatProgressBar, BarChart, LineChart, SafetyCaution],
+  templateUrl: './study-page.html',
+  styleUrl: './studies.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class StudyPage implements OnInit, OnDestroy {
+  private readonly route = inject(ActivatedRoute);
+  private readonly api = inject(StudiesApi);
+  protected readonly teamId = routeParam(this.route, 'teamId');
+  protected readonly studyId = routeParam(this.route, 'studyId');
+  protected readonly state = signal<StudyState>({ kind: 'loading' });
+  protected readonly statusWords = STATUS_WORDS;
+  protected readonly levelWords = LEVEL_WORDS;
+  protected readonly fmt = (v: number | null | undefined, d = 4) => (v === null || v === undefined ? '—' : formatNumber(v, d));
+  protected readonly pct = (p: number) => `${formatNumber(100 * p, 3)} %`;
+  private readonly timeZone = browserTimeZone();
+  private timer: ReturnType<typeof setTimeout> | null = null;
+  protected readonly busy = signal(false);
+  protected readonly actionError = signal<string | null>(null);
+  protected readonly actionNote = signal<string | null>(null);
+  protected readonly chosen = signal<string>('');
+
+  protected readonly study = computed(() => {
+    const s = this.state();
+    return s.kind === 'ready' ? s.study : null;
+  });
+  protected readonly result = computed<StudyResult | null>(() => this.study()?.result ?? null);
+  protected readonly running = computed(() => {
+    const st = this.study()?.status;
+    return st === 'queued' || st === 'running';
+  });
+  protected readonly percent = computed(() => {
+    const s = this.study();
+    return s && s.progress.totalSamples > 0 ? (100 * s.progress.doneSamples) / s.progress.totalSamples : 0;
+  });
+  protected readonly eta = computed(() => etaWords(this.study()?.etaSeconds ?? null));
+
+  /** The output shown in the charts (default: the bump cost for a sweep, roll steer for a tolerance study). */
+  protected readonly output = computed<OutputResult | null>(() => {
+    const r = this.result();
+    if (!r) return null;
+    return r.outputs.find((o) => o.key === this.chosen()) ?? r.outputs.find((o) => o.key === 'rollSteerCoefficient') ?? r.outputs[0] ?? null;
+  });
+
+  protected readonly histogram = computed<BarGroup[]>(() => {
+    const o = this.output();
+    if (!o) return [];
+    const h = o.histogram;
+    return h.counts.map((c, i) => ({ label: formatNumber(h.from + (i + 0.5) * h.width, 3), values: [c] }));
+  });
+
+  protected readonly tornado = computed<BarGroup[]>(() => (this.output()?.tornado ?? []).slice(0, 12).map((t) => ({ label: t.label, values: [t.src] })));
+
+  protected readonly breaches = computed(() => (this.result()?.outputs ?? []).flatMap((o) => o.breaches.map((b) => ({ output: o, ...b }))));
+
+  protected readonly pareto = computed<LineSeries[]>(() => {
+    const sw = this.result()?.sweep;
+    if (!sw) return [];
+    return [
+      { name: 'Variants', style: 'points', points: sw.scatter.map((v) => ({ x: v.costDeg, y: v.gainDegPerG })) },
+      { name: 'Pareto front', points: sw.pareto.map((v) => ({ x: v.costDeg, y: v.gainDegPerG })) },
+    ];
+  });
+
+  protected readonly mainEffects = computed<LineSeries[]>(() => {
+    const sw = this.result()?.sweep;
+    const o = this.output();
+    if (!sw || !o) return [];
+    return sw.mainEffects.map((m) => ({
+      name: m.factor,
+      points: m.at.flatMap((x, i) => {
+        const y = m.means[o.key]?.[i];
+        return y === null || y === undefined ? [] : [{ x: x - m.at[0]!, y }];
+      }),
+    }));
+  });
+
+  ngOnInit(): void {
+    void this.load();
+  }
+
+  ngOnDestroy(): void {
+    if (this.timer) clearTimeout(this.timer);
+  }
+
+  protected async load(quiet = false): Promise<void> {
+    if (!quiet) this.state.set({ kind: 'loading' });
+    try {
+      const { study } = await firstValueFrom(this.api.get(this.teamId, this.studyId));
+      this.state.set({ kind: 'ready', study });
+      if (study.status === 'queued' || study.status === 'running') this.timer = setTimeout(() => void this.load(true), 1500);
+    } catch (error) {
+      const p = apiProblem(error);
+      this.state.set({ kind: 'error', message: p.message, gone: p.status === 410 });
+    }
+  }
+
+  protected localTime(iso: string): string {
+    return formatLocalTime(iso, this.timeZone);
+  }
+
+  protected choose(event: Event): void {
+    this.chosen.set((event.target as HTMLSelectElement).value);
+  }
+
+  protected async cancel(): Promise<void> {
+    this.busy.set(true);
+    this.actionError.set(null);
+    try {
+      const { study } = await firstValueFrom(this.api.cancel(this.teamId, this.studyId));
+      if (this.timer) clearTimeout(this.timer);
+      this.state.set({ kind: 'ready', study });
+    } catch (error) {
+      this.actionError.set(apiProblem(error).message);
+    } finally {
+      this.busy.set(false);
+    }
+  }
+
+  protected async exportCsv(): Promise<void> {
+    this.actionError.set(null);
+    try {
+      const text = await firstValueFrom(this.api.csv(this.teamId, this.studyId));
+      downloadText(text, fileNameFor(this.study()?.label || 'rollwise-study', 'csv'));
+    } catch (error) {
+      this.actionError.set(apiProblem(error).message);
+    }
+  }
+
+  protected async openVariant(index: number): Promise<void> {
+    this.busy.set(true);
+    this.actionError.set(null);
+    this.actionNote.set(null);
+    try {
+      await firstValueFrom(this.api.openVariant(this.teamId, this.studyId, index));
+      this.actionNote.set(`Variant ${index} is open as a proposal on the axle design.`);
+    } catch (error) {
+      this.actionError.set(apiProblem(error).message);
+    } finally {
+      this.busy.set(false);
+    }
+  }
+
+  protected breachWords(b: { absolute: boolean; threshold: number }, unit: string): string {
+    return `${b.absolute ? '|value|' : 'value'} ≥ ${formatNumber(b.threshold, 4)} ${unit}`;
+  }
+}
