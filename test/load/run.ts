@@ -14,6 +14,8 @@
  *   readDuringCompute  the read mix (10 connections) while the compute scenario runs beside it, 10 s
  *   readPacedDuringCompute  the same at a steady 200 reads/s (a wait caused by solves, not by reads saturating the cores)
  *   mixed            50 connections, 30 s: 8 reads to 1 sweep, one session
+ *   readDuringStudy  the read mix and the study's own progress at a steady 200 reads/s, 10 s, while a
+ *                    20 000-sample tolerance study runs on two `npm run worker` processes (issue 16)
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
@@ -22,6 +24,7 @@ import { fileURLToPath } from 'node:url';
 import autocannon, { type Request, type Result } from 'autocannon';
 import { startThrowawayCluster } from '../../server/tools/pg.js';
 import { startServerProcess } from '../support/server-process.js';
+import { spawnWorker } from '../support/workers.js';
 import { DEMO_PASSWORD } from '../../server/db/seed.js';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 
@@ -164,6 +167,44 @@ async function main(): Promise<void> {
     const mixed = figures(await cannon(base, cookie, { connections: 50, seconds: MIXED_S, requests: [...reads, ...reads, sweep] }));
     print('mixed (50 conn.)', mixed);
 
+    // Reads while a study runs on two worker processes (the server only answers; the workers compute).
+    const workers = [await spawnWorker(cluster.url), await spawnWorker(cluster.url)];
+    let readDuringStudy: Figures;
+    let studyChunks = 0;
+    try {
+      const api = async (method: string, path: string, body?: unknown) => {
+        const r = await fetch(`${base}${path}`, {
+          method,
+          headers: { cookie, 'x-rollwise-request': '1', ...(body ? { 'content-type': 'application/json' } : {}) },
+          ...(body ? { body: JSON.stringify(body) } : {}),
+        });
+        if (!r.ok) throw new Error(`${method} ${path} answered ${r.status}: ${await r.text()}`);
+        return (await r.json()) as { study: { id: string; status: string; progress: { doneChunks: number } } };
+      };
+      const studyPath = `/api/teams/${team.id}/studies`;
+      const { study } = await api('POST', studyPath, {
+        kind: 'tolerance',
+        target: { axleDesignId: design.id },
+        seed: 8,
+        samples: 20_000,
+        tolerances: ['lowerFront', 'lowerRear', 'upperFront', 'upperRear', 'tieRodInner', 'tieRodOuter'].map((point) => ({ point, axis: 'sphere', plusMinusMm: 0.5, distribution: 'normal' })),
+        analysis: { rackMm: [-10, 0, 10], rollDeg: 2 },
+      });
+      for (let s = study; s.status !== 'running'; s = (await api('GET', `${studyPath}/${study.id}`)).study) {
+        if (s.status !== 'queued') throw new Error(`the load study ended ${s.status} before the reads`);
+        await new Promise((r) => setTimeout(r, 50));
+      }
+      readDuringStudy = figures(
+        await cannon(base, cookie, { connections: 10, seconds: SHORT_S, requests: [...reads, { method: 'GET', path: `${studyPath}/${study.id}` }], overallRate: READ_PACED_RPS }),
+      );
+      const after = (await api('DELETE', `${studyPath}/${study.id}`)).study;
+      studyChunks = after.progress.doneChunks;
+    } finally {
+      await Promise.all(workers.map((w) => w.stop()));
+    }
+    print(`read ${READ_PACED_RPS}/s + study`, readDuringStudy);
+    console.log(`  (the study landed ${studyChunks} chunks of 500 samples meanwhile)`);
+
     const out: Record<string, number> = {};
     const put = (prefix: string, f: Figures) => {
       for (const [k, v] of Object.entries(f)) out[`${prefix}.${k}`] = v;
@@ -174,6 +215,8 @@ async function main(): Promise<void> {
     put('load.computeDuringRead', computeDuringRead);
     put('load.readPacedDuringCompute', readPacedDuringCompute);
     put('load.mixed', mixed);
+    put('load.readDuringStudy', readDuringStudy);
+    out['load.studyChunksDuringReads'] = studyChunks;
     out['load.machine.cores'] = cpus().length;
     out['load.machine.loadAvgBefore'] = Math.round(loadBefore * 10) / 10;
     out['load.machine.loadAvgAfter'] = Math.round(loadavg()[0]! * 10) / 10;
@@ -181,13 +224,14 @@ async function main(): Promise<void> {
     mkdirSync(dir, { recursive: true });
     writeFileSync(join(dir, 'load.json'), JSON.stringify(out, null, 2) + '\n');
 
-    const totalErrors = read.errors + compute.errors + readDuringCompute.errors + computeDuringRead.errors + readPacedDuringCompute.errors + mixed.errors;
+    const totalErrors = read.errors + compute.errors + readDuringCompute.errors + computeDuringRead.errors + readPacedDuringCompute.errors + mixed.errors + readDuringStudy.errors;
     const check = (ok: boolean) => (ok ? 'met' : 'NOT met');
     console.log(`\ntargets (shown, not asserted):`);
     console.log(`  zero errors                          ${check(totalErrors === 0)} (${totalErrors})`);
     console.log(`  mixed p99 ≤ 200 ms                   ${check(mixed.p99Ms <= 200)} (${mixed.p99Ms} ms)`);
     console.log(`  read p99 ≤ 50 ms while compute runs  ${check(readDuringCompute.p99Ms <= 50)} (${readDuringCompute.p99Ms} ms; reads as fast as they go)`);
     console.log(`    at a steady ${READ_PACED_RPS} reads/s beside the same compute: p99 ${readPacedDuringCompute.p99Ms} ms (${check(readPacedDuringCompute.p99Ms <= 50)})`);
+    console.log(`  read p99 ≤ 50 ms while a study runs   ${check(readDuringStudy.p99Ms <= 50)} (${readDuringStudy.p99Ms} ms at ${READ_PACED_RPS} reads/s, two workers)`);
     console.log(`  (1-minute load average ${loadBefore.toFixed(1)} before, ${loadavg()[0]!.toFixed(1)} after, on ${cpus().length} cores)`);
     console.log(`\nwrote test-results/load.json (${Object.keys(out).length} figures) in ${Math.round((Date.now() - started) / 1000)} s`);
   } finally {
