@@ -23,7 +23,7 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import autocannon, { type Request, type Result } from 'autocannon';
 import { startThrowawayCluster } from '../../server/tools/pg.js';
-import { startServerProcess } from '../support/server-process.js';
+import { startSeededServer } from '../support/server-process.js';
 import { spawnWorker } from '../support/workers.js';
 import { DEMO_PASSWORD } from '../../server/db/seed.js';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
@@ -91,16 +91,8 @@ async function main(): Promise<void> {
   const started = Date.now();
   console.log('load: starting a throwaway PostgreSQL cluster and the server…');
   const cluster = await startThrowawayCluster('rollwise_load');
-  const server = await startServerProcess({
-    DATABASE_URL: cluster.url,
-    HOST: '127.0.0.1',
-    PORT: '0',
-    ROLLWISE_SEED_DEMO: 'true',
-    LOG_LEVEL: 'warn',
-    ROLLWISE_STATIC_DIR: join(here, 'no-static-dir'),
-    // Seeding hashes a dozen demo passwords; a low cost keeps start-up short (sign-in cost is not what is measured).
-    BCRYPT_ROUNDS: '4',
-  });
+  const server = await startSeededServer(cluster.url);
+
   try {
     const base = server.url;
     const signIn = await fetch(`${base}/api/auth/sign-in`, {

@@ -8,6 +8,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import pg from 'pg';
+import { waitFor } from '../support/wait.js';
 import { spawnWorker, type WorkerProcess } from '../support/workers.js';
 import { expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 import { chunkJobId } from '../../server/services/studies.js';
@@ -34,16 +35,6 @@ const request = () => ({
   ],
   analysis: { rackMm: [-10, 0, 10], rollDeg: 2 },
 });
-
-async function waitFor<T>(what: string, probe: () => Promise<T | undefined>, boundMs = 120_000): Promise<T> {
-  const until = Date.now() + boundMs;
-  for (;;) {
-    const v = await probe();
-    if (v !== undefined) return v;
-    if (Date.now() > until) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 25));
-  }
-}
 
 const studyRow = async (id: string) =>
   (await direct.query<{ status: string; done_chunks: number; total_chunks: number; done_samples: number; total_samples: number }>('SELECT * FROM studies WHERE id = $1', [id])).rows[0]!;
