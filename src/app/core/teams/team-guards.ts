@@ -17,6 +17,7 @@ const PERMISSION_WORDS: Readonly<Record<Permission, string>> = {
   'review:decide': 'decide reviews',
   'review:submit': 'submit configurations for review',
   'review:comment': 'comment on reviews',
+  'study:run': 'run tolerance studies and design sweeps',
 };
 
 /**

@@ -57,6 +57,7 @@ export class StudiesPage implements OnInit, OnDestroy {
   protected readonly axleDesignId = this.route.snapshot.queryParamMap.get('axleDesignId');
   protected readonly configurationId = this.route.snapshot.queryParamMap.get('configurationId');
   protected readonly hasTarget = !!(this.axleDesignId || this.configurationId);
+  protected readonly canRun = this.access.permission('study:run');
   protected readonly state = signal<ListState>({ kind: 'loading' });
   protected readonly statusWords = STATUS_WORDS;
   protected readonly eta = etaWords;

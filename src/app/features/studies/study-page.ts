@@ -11,6 +11,7 @@ import { formatNumber, type BarGroup, type LineSeries } from '../../charts/chart
 import { downloadText, fileNameFor } from '../../charts/csv';
 import { apiProblem } from '../../core/http/api-error';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
+import { TeamAccess } from '../../core/teams/team-access';
 import { routeParam } from '../route-params';
 import { SafetyCaution } from '../safety-caution';
 import { etaWords, STATUS_WORDS, StudiesApi, type StudyView } from './studies-api';
@@ -36,6 +37,8 @@ const LEVEL_WORDS = { info: 'Notice', warning: 'Warning', critical: 'Critical' }
 export class StudyPage implements OnInit, OnDestroy {
   private readonly route = inject(ActivatedRoute);
   private readonly api = inject(StudiesApi);
+  private readonly access = inject(TeamAccess);
+  protected readonly canRun = this.access.permission('study:run');
   protected readonly teamId = routeParam(this.route, 'teamId');
   protected readonly studyId = routeParam(this.route, 'studyId');
   protected readonly state = signal<StudyState>({ kind: 'loading' });
@@ -79,7 +82,13 @@ export class StudyPage implements OnInit, OnDestroy {
     return h.counts.map((c, i) => ({ label: formatNumber(h.from + (i + 0.5) * h.width, 3), values: [c] }));
   });
 
-  protected readonly tornado = computed<BarGroup[]>(() => (this.output()?.tornado ?? []).slice(0, 12).map((t) => ({ label: t.label, values: [t.src] })));
+  /** The ten largest, labelled short: point, coordinate, L or R. */
+  protected readonly tornado = computed<BarGroup[]>(() =>
+    (this.output()?.tornado ?? []).slice(0, 10).map((t) => {
+      const [side, point, axis] = t.factor.split('.');
+      return { label: `${point} ${axis} ${side === 'right' ? 'R' : 'L'}`, values: [t.src] };
+    }),
+  );
 
   protected readonly breaches = computed(() => (this.result()?.outputs ?? []).flatMap((o) => o.breaches.map((b) => ({ output: o, ...b }))));
 
@@ -106,6 +115,7 @@ export class StudyPage implements OnInit, OnDestroy {
   });
 
   ngOnInit(): void {
+    void firstValueFrom(this.access.load(this.teamId)).catch(() => undefined);
     void this.load();
   }
 

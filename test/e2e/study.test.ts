@@ -1,0 +1,87 @@
+/**
+ * Browser test of tolerance studies (issue 16, "How it is checked": start a
+ * study, watch progress, see the histograms and the tornado chart, export
+ * CSV). The demo designer opens the front baseline design of TUR-26 Ember,
+ * starts a tolerance study of two tolerances from its link, watches the study
+ * page until the queue's worker (in the test server's process) has run every
+ * chunk, reads the histogram with P5 / P50 / P95 and the tornado, and exports
+ * the CSV. The page carries the safety caution, ends without console errors
+ * or requests leaving 127.0.0.1, and passes the accessibility check. Needs
+ * `npx ng build` first.
+ */
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { consoleErrors, offsiteRequests, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+
+describe('Tolerance study in Chromium', () => {
+  const env = useE2eApp();
+
+  it('designer starts a study of a design, watches it finish, reads histogram and tornado, exports CSV', { timeout: 240_000 }, async () => {
+    const page = await env.browser.newPage();
+    await signIn(page, env.app.baseUrl, 'designer@tallowmere.example');
+    await page.goto(env.app.baseUrl + '/teams');
+    await page.getByRole('link', { name: /Tallowmere/ }).first().click();
+    await page.getByRole('link', { name: 'TUR-26 Ember' }).click();
+    await page.getByRole('heading', { name: 'TUR-26 Ember' }).waitFor();
+    await page.getByRole('link', { name: 'Front baseline' }).click();
+    await page.getByRole('heading', { name: /Front baseline/ }).waitFor();
+    await page.getByRole('link', { name: 'Tolerance study or design sweep' }).click();
+    await page.getByRole('heading', { name: 'New study of this axle design' }).waitFor();
+
+    // Two tolerances: the tie-rod inner height (normal ±0.5 mm) and the upper ball joint anywhere in a 0.5 mm ball (uniform).
+    await page.getByLabel('Label', { exact: true }).fill('Front pickups in the jig');
+    await page.getByLabel('Samples').fill('600');
+    await page.getByLabel('Camber shim thickness').fill('0.5');
+    await page.getByLabel('Toe adjuster step').fill('0.375');
+    await page.getByRole('button', { name: 'Add a tolerance' }).click();
+    await page.getByLabel('Point of tolerance 2').fill('upperOuter');
+    await page.getByLabel('Coordinate of tolerance 2').selectOption('sphere');
+    await page.getByLabel('Distribution of tolerance 2').selectOption('uniform');
+    await page.getByRole('button', { name: 'Start the study' }).click();
+    // The study page, or the form's error in the user's words (reported as the failure).
+    const refused = page.locator('.rw-study-form [role="alert"]');
+    await Promise.race([
+      page.waitForURL((url) => /\/studies\/[0-9a-f-]{36}$/.test(url.pathname)),
+      refused.waitFor().then(async () => expect.fail(`the study was refused: ${await refused.innerText()}`)),
+    ]);
+    await page.getByRole('heading', { name: /Front pickups in the jig/ }).waitFor();
+
+    // Progress: the page polls until every chunk is in (600 samples in two chunks of 500 and 100).
+    const status = page.getByTestId('study-status');
+    await status.getByText('Completed').waitFor({ timeout: 180_000 });
+    expect(await status.innerText()).toContain('600 of 600 samples (2 of 2 chunks)');
+
+    // Results: the safety caution, the output summary, the histogram with its percentiles and the tornado.
+    await page.getByRole('note').filter({ hasText: 'Verify on a kinematics rig' }).waitFor();
+    const summary = page.getByRole('table', { name: 'Output summary' });
+    await summary.getByRole('rowheader', { name: 'Roll steer ε' }).waitFor();
+    const histogram = page.getByTestId('study-histogram');
+    expect(await histogram.locator('rect').count()).toBeGreaterThan(5);
+    const percentiles = await histogram.locator('p').innerText();
+    expect(percentiles).toMatch(/P5 -?[\d.]+ · P50 -?[\d.]+ · P95 -?[\d.]+ deg\/deg/);
+    const tornado = page.getByTestId('study-tornado');
+    await tornado.getByText('Which tolerances matter: Roll steer ε').first().waitFor();
+    expect(await tornado.innerText()).toContain('tieRodInner z');
+    await page.getByLabel('Output shown in the charts').selectOption({ label: 'Bump-steer gradient' });
+    await page.getByTestId('study-histogram').getByText('Distribution: Bump-steer gradient').first().waitFor();
+    await page.getByRole('table', { name: 'Caution thresholds reached' }).waitFor();
+
+    // CSV export: a download with the outputs, the tornado and the caution.
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Export CSV' }).click()]);
+    expect(download.suggestedFilename()).toBe('front-pickups-in-the-jig.csv');
+    const csv = readFileSync((await download.path())!, 'utf8');
+    expect(csv).toContain('rollSteerCoefficient');
+    expect(csv).toContain('standardized regression coefficient');
+    expect(csv).toContain('Verify on a kinematics rig');
+
+    // The team's list shows it completed.
+    await page.getByRole('link', { name: 'All studies' }).click();
+    await page.getByRole('table', { name: 'Studies' }).getByRole('link', { name: 'Front pickups in the jig' }).waitFor();
+    await page.goBack();
+    await status.getByText('Completed').waitFor();
+    await saveScreenshot(page, 'study-results');
+    expect(await seriousA11yViolations(page)).toEqual([]);
+    expect(offsiteRequests(page)).toEqual([]);
+    expect(consoleErrors(page)).toEqual([]);
+  });
+});
