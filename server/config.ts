@@ -169,7 +169,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     bcryptRounds: int(env, 'BCRYPT_ROUNDS', test ? 4 : 12, 4),
     workerSolveSlots: int(env, 'WORKER_SOLVE_SLOTS', 1, 0),
     workerStudySlots: int(env, 'WORKER_STUDY_SLOTS', 1, 0),
-    queuePollMs: int(env, 'QUEUE_POLL_MS', test ? 200 : 2000, 50),
+    queuePollMs: int(env, 'QUEUE_POLL_MS', test ? 1000 : 2000, 50),
     queueMaintenanceSeconds: int(env, 'QUEUE_MAINTENANCE_SECONDS', test ? 1 : 30, 1),
     studyChunkExpireSeconds: int(env, 'STUDY_CHUNK_EXPIRE_SECONDS', 120, 1),
     studyChunkTimeLimitMs: int(env, 'STUDY_CHUNK_TIME_LIMIT_MS', 60_000, 50),

@@ -16,7 +16,7 @@ import { and, eq, inArray, lt, sql } from 'drizzle-orm';
 import { HttpError, notFound } from '../http/errors.js';
 import type { Database } from '../db/client.js';
 import { computeJobs } from '../db/schema.js';
-import { QUEUES, type JobQueue, type QueueJobData, bossDb } from './queue.js';
+import { QUEUES, bossDb, inTransaction, type JobQueue, type QueueJobData } from './queue.js';
 
 export type JobState = 'queued' | 'running' | 'succeeded' | 'failed' | 'cancelled';
 
@@ -76,35 +76,25 @@ export class SolveJobs {
     }
     const boss = await this.queue.ready();
     // The row and the queue job land together or not at all.
-    const client = await this.db.pool.connect();
-    let row: Row;
-    try {
-      await client.query('BEGIN');
-      try {
-        const ins = await client.query<{ id: string }>(`INSERT INTO compute_jobs (owner_id, kind) VALUES ($1, 'solve') RETURNING id`, [ownerId]);
-        const id = ins.rows[0]!.id;
-        const data: QueueJobData = { kind: 'solve', jobId: id, input, timeLimitMs: this.o.timeLimitMs };
-        await boss.send(QUEUES.solve, data, {
-          id,
-          // One more try on another worker if the first one dies; the engine's own errors are answers, not retries.
-          retryLimit: 1,
-          retryDelay: 1,
-          // A worker that died is noticed this long after it took the job (the time limit stops a live one first).
-          expireInSeconds: Math.ceil(this.o.timeLimitMs / 1000) + 30,
-          deadLetter: QUEUES.lost,
-          db: bossDb(client),
-        });
-        await this.queue.notify('wake', client);
-        await client.query('COMMIT');
-        row = (await this.db.orm.select().from(computeJobs).where(eq(computeJobs.id, id)))[0]!;
-      } catch (err) {
-        await client.query('ROLLBACK').catch(() => undefined);
-        throw err;
-      }
-    } finally {
-      client.release();
-    }
-    return view(row);
+    const id = (await inTransaction(this.db.pool, async (client) => {
+      const ins = await client.query<{ id: string }>(`INSERT INTO compute_jobs (owner_id, kind) VALUES ($1, 'solve') RETURNING id`, [ownerId]);
+      const jobId = ins.rows[0]!.id;
+      const data: QueueJobData = { kind: 'solve', jobId, input, timeLimitMs: this.o.timeLimitMs };
+      await boss.send(QUEUES.solve, data, {
+        id: jobId,
+        // One more try on another worker if the first one dies; the engine's own errors are answers, not retries.
+        retryLimit: 1,
+        retryDelay: 1,
+        // A worker that died is noticed this long after it took the job (the time limit stops a live one first).
+        expireInSeconds: Math.ceil(this.o.timeLimitMs / 1000) + 30,
+        deadLetter: QUEUES.lost,
+        db: bossDb(client),
+      });
+      await this.queue.notify('wake', client);
+      return jobId;
+    }))!;
+    const [row] = await this.db.orm.select().from(computeJobs).where(eq(computeJobs.id, id));
+    return view(row!);
   }
 
   async get(ownerId: string, id: string): Promise<JobView> {

@@ -48,6 +48,33 @@ export function bossDb(q: Queryable): PgBoss.Db {
   return { executeSql: (text, values) => q.query(text, values) as Promise<{ rows: any[] }> };
 }
 
+/**
+ * Runs `fn` in a transaction on a client of its own, so that our rows and the
+ * queue's jobs (pg-boss given `bossDb(client)`) land together or not at all.
+ * `fn` returning `rollback` undoes everything without an error.
+ */
+export async function inTransaction<T>(pool: pg.Pool, fn: (client: pg.PoolClient) => Promise<T | typeof rollback>): Promise<T | undefined> {
+  const client = await pool.connect();
+  try {
+    await client.query('BEGIN');
+    try {
+      const out = await fn(client);
+      if (out === rollback) {
+        await client.query('ROLLBACK');
+        return undefined;
+      }
+      await client.query('COMMIT');
+      return out;
+    } catch (err) {
+      await client.query('ROLLBACK').catch(() => undefined);
+      throw err;
+    }
+  } finally {
+    client.release();
+  }
+}
+export const rollback: unique symbol = Symbol('rollback');
+
 export interface QueueOptions {
   /** Run pg-boss maintenance here (expires jobs of dead workers, archives, drops). One process per interval does it. */
   supervise?: boolean;

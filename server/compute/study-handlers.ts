@@ -11,7 +11,7 @@ import { InputError, SolveError } from '../../shared/errors.js';
 import type { StudyChunkResult, StudyResult } from '../../shared/study/index.js';
 import { toErrorBody } from '../http/errors.js';
 import { cancelStudyChunks } from '../services/studies.js';
-import { QUEUES, bossDb, type QueueJobData } from './queue.js';
+import { QUEUES, bossDb, inTransaction, rollback, type QueueJobData } from './queue.js';
 import type { QueueHandler, RunnerContext } from './runner.js';
 
 interface StudyRowLite {
@@ -60,43 +60,28 @@ export const studyChunkHandler: QueueHandler = async (ctx, job) => {
   }
   const computeMs = performance.now() - t0;
 
-  const client = await ctx.db.pool.connect();
-  try {
-    await client.query('BEGIN');
-    try {
-      const ins = await client.query(
-        `INSERT INTO study_chunks (study_id, chunk_index, samples, poses, result, compute_ms, worker)
-         VALUES ($1, $2, $3, $4, $5, $6, $7) ON CONFLICT DO NOTHING`,
-        [studyId, chunkIndex, chunk.samples, chunk.poses, chunk, computeMs, ctx.workerName],
-      );
-      if (ins.rowCount === 0) {
-        await client.query('ROLLBACK');
-        return;
-      }
-      const up = await client.query<{ done_chunks: number; total_chunks: number }>(
-        `UPDATE studies SET done_chunks = done_chunks + 1, done_samples = done_samples + $2, compute_ms = compute_ms + $3, poses_solved = poses_solved + $4
-          WHERE id = $1 AND status IN ('queued', 'running') RETURNING done_chunks, total_chunks`,
-        [studyId, chunk.samples, computeMs, chunk.poses],
-      );
-      const s = up.rows[0];
-      if (!s) {
-        // Cancelled (or failed) while this chunk ran: nothing of it is kept.
-        await client.query('ROLLBACK');
-        return;
-      }
-      if (s.done_chunks === s.total_chunks) {
-        const combine: QueueJobData = { kind: 'study-combine', studyId };
-        await ctx.boss.send(QUEUES.studyCombine, combine, { retryLimit: 3, expireInSeconds: 900, deadLetter: QUEUES.lost, db: bossDb(client) });
-        await ctx.queue.notify('wake', client);
-      }
-      await client.query('COMMIT');
-    } catch (err) {
-      await client.query('ROLLBACK').catch(() => undefined);
-      throw err;
+  await inTransaction(ctx.db.pool, async (client) => {
+    const ins = await client.query(
+      `INSERT INTO study_chunks (study_id, chunk_index, samples, poses, result, compute_ms, worker)
+       VALUES ($1, $2, $3, $4, $5, $6, $7) ON CONFLICT DO NOTHING`,
+      [studyId, chunkIndex, chunk.samples, chunk.poses, chunk, computeMs, ctx.workerName],
+    );
+    if (ins.rowCount === 0) return rollback;
+    const up = await client.query<{ done_chunks: number; total_chunks: number }>(
+      `UPDATE studies SET done_chunks = done_chunks + 1, done_samples = done_samples + $2, compute_ms = compute_ms + $3, poses_solved = poses_solved + $4
+        WHERE id = $1 AND status IN ('queued', 'running') RETURNING done_chunks, total_chunks`,
+      [studyId, chunk.samples, computeMs, chunk.poses],
+    );
+    const s = up.rows[0];
+    // Cancelled (or failed) while this chunk ran: nothing of it is kept.
+    if (!s) return rollback;
+    if (s.done_chunks === s.total_chunks) {
+      const combine: QueueJobData = { kind: 'study-combine', studyId };
+      await ctx.boss.send(QUEUES.studyCombine, combine, { retryLimit: 3, expireInSeconds: 900, deadLetter: QUEUES.lost, db: bossDb(client) });
+      await ctx.queue.notify('wake', client);
     }
-  } finally {
-    client.release();
-  }
+    return true;
+  });
 };
 
 export const studyCombineHandler: QueueHandler = async (ctx, job) => {

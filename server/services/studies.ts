@@ -22,7 +22,7 @@ import type { AxleDesigns } from './axle-designs.js';
 import type { Configurations } from './configurations.js';
 import type { Proposals, ProposalView } from './proposals.js';
 import type { Vehicles } from './vehicles.js';
-import { QUEUES, bossDb, type JobQueue, type QueueJobData } from '../compute/queue.js';
+import { QUEUES, bossDb, inTransaction, type JobQueue, type QueueJobData } from '../compute/queue.js';
 
 export type StudyStatus = 'queued' | 'running' | 'completed' | 'failed' | 'cancelled';
 
@@ -108,42 +108,32 @@ export class Studies {
     const plan = planStudy(spec);
     const label = request.label || `${spec.kind === 'tolerance' ? 'Tolerance study' : 'Design sweep'} of ${targetName}, ${plan.totalSamples} ${spec.kind === 'tolerance' ? 'samples' : 'variants'}`;
     const boss = await this.queue.ready();
-    const client = await this.db.pool.connect();
-    let id: string;
-    try {
-      await client.query('BEGIN');
-      try {
-        const ins = await client.query<{ id: string }>(
-          `INSERT INTO studies (team_id, kind, label, request, target, spec, seed, total_chunks, total_samples, created_by)
-           VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10) RETURNING id`,
-          [teamId, spec.kind, label, request, target, spec, spec.seed, plan.chunkCount, plan.totalSamples, userId],
-        );
-        id = ins.rows[0]!.id;
-        const jobs = [];
-        for (let i = 0; i < plan.chunkCount; i++) {
-          const data: QueueJobData = { kind: 'study-chunk', studyId: id, teamId, chunkIndex: i };
-          jobs.push({
-            id: chunkJobId(id, i),
-            name: QUEUES.studyChunk,
-            data,
-            // Studies take turns: chunk k of every study before chunk k+1 of any.
-            priority: -i,
-            retryLimit: 3,
-            retryDelay: 0,
-            expireInSeconds: this.o.chunkExpireSeconds,
-            deadLetter: QUEUES.lost,
-          });
-        }
-        for (let i = 0; i < jobs.length; i += 1000) await boss.insert(jobs.slice(i, i + 1000), { db: bossDb(client) });
-        await this.queue.notify('wake', client);
-        await client.query('COMMIT');
-      } catch (err) {
-        await client.query('ROLLBACK').catch(() => undefined);
-        throw err;
+    const id = (await inTransaction(this.db.pool, async (client) => {
+      const ins = await client.query<{ id: string }>(
+        `INSERT INTO studies (team_id, kind, label, request, target, spec, seed, total_chunks, total_samples, created_by)
+         VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10) RETURNING id`,
+        [teamId, spec.kind, label, request, target, spec, spec.seed, plan.chunkCount, plan.totalSamples, userId],
+      );
+      const studyId = ins.rows[0]!.id;
+      const jobs = [];
+      for (let i = 0; i < plan.chunkCount; i++) {
+        const data: QueueJobData = { kind: 'study-chunk', studyId, teamId, chunkIndex: i };
+        jobs.push({
+          id: chunkJobId(studyId, i),
+          name: QUEUES.studyChunk,
+          data,
+          // Studies take turns: chunk k of every study before chunk k+1 of any.
+          priority: -i,
+          retryLimit: 3,
+          retryDelay: 0,
+          expireInSeconds: this.o.chunkExpireSeconds,
+          deadLetter: QUEUES.lost,
+        });
       }
-    } finally {
-      client.release();
-    }
+      for (let i = 0; i < jobs.length; i += 1000) await boss.insert(jobs.slice(i, i + 1000), { db: bossDb(client) });
+      await this.queue.notify('wake', client);
+      return studyId;
+    }))!;
     return this.get(teamId, id);
   }
 

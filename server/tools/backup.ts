@@ -21,6 +21,7 @@ import { createReadStream, createWriteStream, existsSync, renameSync, rmSync, st
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import pg from 'pg';
+import { QUEUE_SCHEMA } from '../compute/queue.js';
 import { loadConfig } from '../config.js';
 
 const PG_BIN = process.env['ROLLWISE_PG_BIN'] ?? '/usr/lib/postgresql/15/bin';
@@ -118,6 +119,16 @@ async function userTableCount(databaseUrl: string): Promise<number> {
   }
 }
 
+async function dropQueueSchema(databaseUrl: string): Promise<void> {
+  const client = new pg.Client({ connectionString: databaseUrl, connectionTimeoutMillis: 5000 });
+  await client.connect();
+  try {
+    await client.query(`DROP SCHEMA IF EXISTS ${QUEUE_SCHEMA} CASCADE`);
+  } finally {
+    await client.end();
+  }
+}
+
 /** Restores a dump into `databaseUrl` in one transaction. The database must exist; with `clean` its objects are dropped first. */
 export async function restoreDatabase(databaseUrl: string, file: string, o: { clean?: boolean } = {}): Promise<{ tables: number }> {
   if (!existsSync(file)) throw new BackupError(`no such file: ${file}`);
@@ -128,6 +139,10 @@ export async function restoreDatabase(databaseUrl: string, file: string, o: { cl
       throw new BackupError(`the target database already holds ${existing} tables; restore into an empty database, or pass --clean to replace its contents`);
     }
   }
+  // pg_restore --clean cannot drop the job queue's partitioned tables piece by piece (a partition's
+  // inherited key cannot be dropped before its parent's); the queue schema goes whole first. It is
+  // in the dump, and a server or worker re-creates it at start should the restore then fail.
+  if (o.clean) await dropQueueSchema(databaseUrl);
   const { url } = splitPassword(databaseUrl);
   const args = ['--no-owner', '--no-privileges', '--exit-on-error', '--single-transaction', `--dbname=${url}`];
   if (o.clean) args.push('--clean', '--if-exists');

@@ -12,28 +12,19 @@
  * work on the machine shares its cores.
  */
 import { loadavg } from 'node:os';
-import { join } from 'node:path';
 import pg from 'pg';
 import type { BenchFigures } from './run.js';
 import { startThrowawayCluster } from '../../server/tools/pg.js';
 import { DEMO_PASSWORD } from '../../server/db/seed.js';
-import { startServerProcess } from '../support/server-process.js';
+import { startSeededServer } from '../support/server-process.js';
 import { spawnWorker, type WorkerProcess } from '../support/workers.js';
 
 const round = (x: number, d = 2) => Math.round(x * 10 ** d) / 10 ** d;
 
 export async function run(): Promise<BenchFigures> {
   const cluster = await startThrowawayCluster('rollwise_bench_study');
-  const server = await startServerProcess({
-    DATABASE_URL: cluster.url,
-    HOST: '127.0.0.1',
-    PORT: '0',
-    ROLLWISE_SEED_DEMO: 'true',
-    LOG_LEVEL: 'warn',
-    ROLLWISE_STATIC_DIR: join(import.meta.dirname, 'no-static-dir'),
-    BCRYPT_ROUNDS: '4',
-    STUDY_MAX_ACTIVE_PER_TEAM: '10',
-  });
+  const server = await startSeededServer(cluster.url, { STUDY_MAX_ACTIVE_PER_TEAM: '10' });
+
   const db = new pg.Pool({ connectionString: cluster.url, max: 2 });
   const workers: WorkerProcess[] = [];
   try {

@@ -17,6 +17,8 @@
  *   healthIdle / healthDuringFlood  GET /api/health at a steady 50/s, alone and while 8 anonymous clients
  *                    POST 1 MB JSON bodies to a members' route as fast as they can (issue 12 §4: the body of a
  *                    request that will be refused is never parsed, so health should stay near its idle latency)
+ *   readDuringStudy  the read mix and the study's own progress at a steady 200 reads/s, 10 s, while a
+ *                    20 000-sample tolerance study runs on two `npm run worker` processes (issue 16)
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
@@ -24,7 +26,8 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import autocannon, { type Request, type Result } from 'autocannon';
 import { startThrowawayCluster } from '../../server/tools/pg.js';
-import { startServerProcess } from '../support/server-process.js';
+import { startSeededServer } from '../support/server-process.js';
+import { spawnWorker } from '../support/workers.js';
 import { DEMO_PASSWORD } from '../../server/db/seed.js';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 
@@ -91,16 +94,8 @@ async function main(): Promise<void> {
   const started = Date.now();
   console.log('load: starting a throwaway PostgreSQL cluster and the server…');
   const cluster = await startThrowawayCluster('rollwise_load');
-  const server = await startServerProcess({
-    DATABASE_URL: cluster.url,
-    HOST: '127.0.0.1',
-    PORT: '0',
-    ROLLWISE_SEED_DEMO: 'true',
-    LOG_LEVEL: 'warn',
-    ROLLWISE_STATIC_DIR: join(here, 'no-static-dir'),
-    // Seeding hashes a dozen demo passwords; a low cost keeps start-up short (sign-in cost is not what is measured).
-    BCRYPT_ROUNDS: '4',
-  });
+  const server = await startSeededServer(cluster.url);
+
   try {
     const base = server.url;
     const signIn = await fetch(`${base}/api/auth/sign-in`, {
@@ -181,6 +176,43 @@ async function main(): Promise<void> {
     const floodFigures = figures(floodBeside);
     print('health during flood', healthDuringFlood);
     console.log(`${'1 MB anonymous flood'.padEnd(20)} ${String(floodFigures.rps).padStart(8)} req/s of ${(megabyte.length / 1e6).toFixed(2)} MB, ${floodFigures.requests} requests (${floodFigures.non2xx} answered 401 as they should, ${floodFigures.errors - floodFigures.non2xx} connection errors)`);
+    // Reads while a study runs on two worker processes (the server only answers; the workers compute).
+    const workers = [await spawnWorker(cluster.url), await spawnWorker(cluster.url)];
+    let readDuringStudy: Figures;
+    let studyChunks = 0;
+    try {
+      const api = async (method: string, path: string, body?: unknown) => {
+        const r = await fetch(`${base}${path}`, {
+          method,
+          headers: { cookie, 'x-rollwise-request': '1', ...(body ? { 'content-type': 'application/json' } : {}) },
+          ...(body ? { body: JSON.stringify(body) } : {}),
+        });
+        if (!r.ok) throw new Error(`${method} ${path} answered ${r.status}: ${await r.text()}`);
+        return (await r.json()) as { study: { id: string; status: string; progress: { doneChunks: number } } };
+      };
+      const studyPath = `/api/teams/${team.id}/studies`;
+      const { study } = await api('POST', studyPath, {
+        kind: 'tolerance',
+        target: { axleDesignId: design.id },
+        seed: 8,
+        samples: 20_000,
+        tolerances: ['lowerFront', 'lowerRear', 'upperFront', 'upperRear', 'tieRodInner', 'tieRodOuter'].map((point) => ({ point, axis: 'sphere', plusMinusMm: 0.5, distribution: 'normal' })),
+        analysis: { rackMm: [-10, 0, 10], rollDeg: 2 },
+      });
+      for (let s = study; s.status !== 'running'; s = (await api('GET', `${studyPath}/${study.id}`)).study) {
+        if (s.status !== 'queued') throw new Error(`the load study ended ${s.status} before the reads`);
+        await new Promise((r) => setTimeout(r, 50));
+      }
+      readDuringStudy = figures(
+        await cannon(base, cookie, { connections: 10, seconds: SHORT_S, requests: [...reads, { method: 'GET', path: `${studyPath}/${study.id}` }], overallRate: READ_PACED_RPS }),
+      );
+      const after = (await api('DELETE', `${studyPath}/${study.id}`)).study;
+      studyChunks = after.progress.doneChunks;
+    } finally {
+      await Promise.all(workers.map((w) => w.stop()));
+    }
+    print(`read ${READ_PACED_RPS}/s + study`, readDuringStudy);
+    console.log(`  (the study landed ${studyChunks} chunks of 500 samples meanwhile)`);
 
     const out: Record<string, number> = {};
     const put = (prefix: string, f: Figures) => {
@@ -195,6 +227,8 @@ async function main(): Promise<void> {
     put('load.healthIdle', healthIdle);
     put('load.healthDuringFlood', healthDuringFlood);
     put('load.anonymousFlood', floodFigures);
+    put('load.readDuringStudy', readDuringStudy);
+    out['load.studyChunksDuringReads'] = studyChunks;
     out['load.machine.cores'] = cpus().length;
     out['load.machine.loadAvgBefore'] = Math.round(loadBefore * 10) / 10;
     out['load.machine.loadAvgAfter'] = Math.round(loadavg()[0]! * 10) / 10;
@@ -202,7 +236,7 @@ async function main(): Promise<void> {
     mkdirSync(dir, { recursive: true });
     writeFileSync(join(dir, 'load.json'), JSON.stringify(out, null, 2) + '\n');
 
-    const totalErrors = read.errors + compute.errors + readDuringCompute.errors + computeDuringRead.errors + readPacedDuringCompute.errors + mixed.errors;
+    const totalErrors = read.errors + compute.errors + readDuringCompute.errors + computeDuringRead.errors + readPacedDuringCompute.errors + mixed.errors + readDuringStudy.errors;
     const check = (ok: boolean) => (ok ? 'met' : 'NOT met');
     console.log(`\ntargets (shown, not asserted):`);
     console.log(`  zero errors                          ${check(totalErrors === 0)} (${totalErrors})`);
@@ -210,6 +244,7 @@ async function main(): Promise<void> {
     console.log(`  read p99 ≤ 50 ms while compute runs  ${check(readDuringCompute.p99Ms <= 50)} (${readDuringCompute.p99Ms} ms; reads as fast as they go)`);
     console.log(`    at a steady ${READ_PACED_RPS} reads/s beside the same compute: p99 ${readPacedDuringCompute.p99Ms} ms (${check(readPacedDuringCompute.p99Ms <= 50)})`);
     console.log(`  health p99 under a 1 MB anonymous flood  ${healthDuringFlood.p99Ms} ms vs ${healthIdle.p99Ms} ms idle (p50 ${healthDuringFlood.p50Ms} vs ${healthIdle.p50Ms} ms)`);
+    console.log(`  read p99 ≤ 50 ms while a study runs   ${check(readDuringStudy.p99Ms <= 50)} (${readDuringStudy.p99Ms} ms at ${READ_PACED_RPS} reads/s, two workers)`);
     console.log(`  (1-minute load average ${loadBefore.toFixed(1)} before, ${loadavg()[0]!.toFixed(1)} after, on ${cpus().length} cores)`);
     console.log(`\nwrote test-results/load.json (${Object.keys(out).length} figures) in ${Math.round((Date.now() - started) / 1000)} s`);
   } finally {

@@ -99,6 +99,7 @@ const agents = {} as Record<Exclude<Who, 'tokenRead' | 'tokenWrite'>, Agent>;
 const tokens = { tokenRead: '', tokenWrite: '' };
 let spareAgent: Agent;
 const ids = {
+  study: '',
   team: '',
   otherTeam: '',
   vehicle: '',
@@ -191,6 +192,19 @@ beforeAll(async () => {
 
   await mintTokens();
   ids.job = (await ok(agents.engineer.post('/api/compute/solve-jobs').send(PROBE), 202)).body.jobId;
+  // A tolerance study, cancelled at once so every caller meets the same state.
+  ids.study = (
+    await ok(
+      agents.engineer.post(`${team()}/studies`).send({
+        kind: 'tolerance',
+        target: { axleDesignId: ids.design },
+        samples: 10,
+        tolerances: [{ point: 'tieRodInner', axis: 'z', plusMinusMm: 0.5, distribution: 'normal' }],
+      }),
+      202,
+    )
+  ).body.study.id;
+  await ok(agents.engineer.delete(`${team()}/studies/${ids.study}`), 200);
 
   // A rig measurement of the front baseline (its own predicted toe and camber, as a rig would give them).
   const sweep = sweepCorner(exampleCorners.fsFrontWishbone, { travel: { from: -25, to: 25, step: 5 } });
@@ -406,6 +420,18 @@ const ROWS: Row[] = [
   { route: 'GET /api/teams/:teamId/rig-measurements', path: () => `${team()}/rig-measurements`, expect: teamRead() },
   { route: 'GET /api/teams/:teamId/rig-measurements/:measurementId', path: () => `${team()}/rig-measurements/${ids.rigMeasurement}`, expect: teamRead() },
   // An id that does not exist: past authorisation it is 404, short of it 403 (nothing deleted either way).
+  // Studies (docs/permissions.md): study:run (engineer, designer) starts and cancels; team:read reads; a sweep variant becomes a proposal with design:propose.
+  { route: 'POST /api/teams/:teamId/studies', path: () => `${team()}/studies`, body: PROBE, expect: teamRoute(['engineer', 'designer'], 400, { method: 'POST' }) },
+  { route: 'GET /api/teams/:teamId/studies', path: () => `${team()}/studies`, expect: teamRead() },
+  { route: 'GET /api/teams/:teamId/studies/:studyId', path: () => `${team()}/studies/${ids.study}`, expect: teamRead() },
+  // Cancelling a cancelled study answers the study as it is.
+  { route: 'DELETE /api/teams/:teamId/studies/:studyId', path: () => `${team()}/studies/${ids.study}`, expect: teamRoute(['engineer', 'designer'], 200, { method: 'DELETE' }) },
+  { route: 'GET /api/teams/:teamId/studies/:studyId/csv', path: () => `${team()}/studies/${ids.study}/csv`, expect: teamRead('GET', '409 study_not_completed') },
+  {
+    route: 'POST /api/teams/:teamId/studies/:studyId/variants/:index/proposal',
+    path: () => `${team()}/studies/${ids.study}/variants/0/proposal`,
+    expect: teamRoute(['engineer'], '409 not_a_sweep', { method: 'POST' }),
+  },
   { route: 'DELETE /api/teams/:teamId/rig-measurements/:measurementId', path: () => `${team()}/rig-measurements/${RANDOM_ID}`, expect: teamRoute(['owner', 'engineer', 'designer'], 404, { method: 'DELETE' }) },
   { route: 'GET /api/teams/:teamId/rig-tolerance', path: () => `${team()}/rig-tolerance`, expect: teamRead() },
   { route: 'PUT /api/teams/:teamId/rig-tolerance', path: () => `${team()}/rig-tolerance`, body: PROBE, expect: teamRoute(['owner'], 400, { method: 'PUT' }) },

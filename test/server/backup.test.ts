@@ -22,7 +22,8 @@ let t: TestApp;
 let cluster: (Cluster & { remove(): void }) | undefined;
 
 beforeAll(async () => {
-  t = await startTestApp({ seed: true });
+  // No queue worker in this app: its pg-boss maintenance would stamp pgboss.version between the dump and the comparison.
+  t = await startTestApp({ seed: true, config: { inProcessWorker: false } });
   // A session row and an edited vehicle revision, on top of the seed.
   const engineer = await signIn(t.app, 'engineer@tallowmere.example');
   const teams = await engineer.get('/api/teams').expect(200);

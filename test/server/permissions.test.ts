@@ -433,15 +433,15 @@ describe('role × route matrix (Tallowmere; non-member is a Brackenfield reviewe
     const detail = await bo.get(`/api/teams/${b.id}`).expect(200);
     expect(detail.body.roles).toEqual(['owner', 'engineer', 'designer']);
     expect([...detail.body.permissions].sort()).toEqual(
-      ['team:read', 'members:manage', 'vehicle:manage', 'vehicle:edit', 'design:propose', 'design:edit', 'design:accept', 'review:submit', 'review:comment'].sort(),
+      ['team:read', 'members:manage', 'vehicle:manage', 'vehicle:edit', 'design:propose', 'design:edit', 'design:accept', 'review:submit', 'review:comment', 'study:run'].sort(),
     );
   });
 
   it('GET team reports the caller’s own permissions per role', async () => {
     const expected: Record<string, string[]> = {
       owner: ['team:read', 'members:manage', 'vehicle:manage', 'review:comment'],
-      engineer: ['team:read', 'vehicle:manage', 'vehicle:edit', 'design:propose', 'review:submit', 'review:comment'],
-      designer: ['team:read', 'vehicle:manage', 'design:edit', 'design:accept', 'review:submit', 'review:comment'],
+      engineer: ['team:read', 'vehicle:manage', 'vehicle:edit', 'design:propose', 'review:submit', 'review:comment', 'study:run'],
+      designer: ['team:read', 'vehicle:manage', 'design:edit', 'design:accept', 'review:submit', 'review:comment', 'study:run'],
       reviewer: ['team:read', 'review:decide', 'review:comment'],
       viewer: ['team:read'],
     };

@@ -11,6 +11,7 @@ import { exampleCorners } from '../../shared/kinematics/examples.js';
 import { computeSolve } from '../../shared/intent/api.js';
 import { QUEUE_SCHEMA, QUEUES, bossDb } from '../../server/compute/queue.js';
 import { freshDatabaseUrl } from '../support/db.js';
+import { waitFor } from '../support/wait.js';
 import { spawnWorker } from '../support/workers.js';
 import { expectError, registerUser, signIn, startTestApp, type TestApp } from './helpers.js';
 
@@ -22,17 +23,6 @@ const solveInput = {
   bounds: { 'tieRodInner.z': [141.5, 181.5] },
   trackProfile: 'smooth-circuit',
 };
-
-/** Polls `probe` until it returns a value (state waits; the bound only turns a hang into a failure). */
-async function waitFor<T>(what: string, probe: () => Promise<T | undefined>, boundMs = 60_000): Promise<T> {
-  const until = Date.now() + boundMs;
-  for (;;) {
-    const v = await probe();
-    if (v !== undefined) return v;
-    if (Date.now() > until) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 50));
-  }
-}
 
 async function jobRow(url: string, id: string): Promise<{ state: string; gone_reason: string | null }> {
   const c = new pg.Client({ connectionString: url });

@@ -8,6 +8,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import pg from 'pg';
+import { waitFor } from '../support/wait.js';
 import { spawnWorker, type WorkerProcess } from '../support/workers.js';
 import { expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 import { chunkJobId } from '../../server/services/studies.js';
@@ -34,16 +35,6 @@ const request = () => ({
   ],
   analysis: { rackMm: [-10, 0, 10], rollDeg: 2 },
 });
-
-async function waitFor<T>(what: string, probe: () => Promise<T | undefined>, boundMs = 120_000): Promise<T> {
-  const until = Date.now() + boundMs;
-  for (;;) {
-    const v = await probe();
-    if (v !== undefined) return v;
-    if (Date.now() > until) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 25));
-  }
-}
 
 const studyRow = async (id: string) =>
   (await direct.query<{ status: string; done_chunks: number; total_chunks: number; done_samples: number; total_samples: number }>('SELECT * FROM studies WHERE id = $1', [id])).rows[0]!;
@@ -178,6 +169,59 @@ describe('studies on worker processes', () => {
     const next = await start();
     expect((await completed(next)).result).toEqual(undisturbed.result);
     expect((await studyRow(id)).done_chunks).toBe(s.done_chunks);
+    await stopWorkers();
+  }, 240_000);
+
+  it("fair share: another team's single solve and small study finish while one team's big study runs (solve lanes; studies take turns by chunk)", async () => {
+    // One worker: one study lane, one solve lane.
+    workers.push(await spawnWorker(t.databaseUrl));
+    const big = (await engineer.post(`/api/teams/${teamId}/studies`).send({ ...request(), samples: 4000, chunkSamples: 10 }).expect(202)).body.study.id as string;
+    await waitFor('the big study to be under way', async () => ((await studyRow(big)).done_chunks >= 2 ? true : undefined));
+    const running = (await engineer.get(`/api/teams/${teamId}/studies/${big}`).expect(200)).body.study;
+    expect(running.status).toBe('running');
+    expect(typeof running.etaSeconds).toBe('number');
+
+    const bo = await signIn(t.app, 'owner@brackenfield.example');
+    const other = (await bo.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'brackenfield').id as string;
+    const otherVehicle = (await bo.get(`/api/teams/${other}/vehicles`).expect(200)).body[0].id as string;
+    const otherDesign = (await bo.get(`/api/teams/${other}/vehicles/${otherVehicle}/axle-designs`).expect(200)).body[0].id as string;
+    const { exampleCorners } = await import('../../shared/kinematics/examples.js');
+    const solve = (
+      await bo
+        .post('/api/compute/solve-jobs')
+        .send({
+          corner: exampleCorners.fsRearWishbone,
+          axle: 'rear',
+          target: { rollSteerCoefficient: -0.02 },
+          movable: ['tieRodInner.z'],
+          bounds: { 'tieRodInner.z': [141.5, 181.5] },
+          trackProfile: 'smooth-circuit',
+        })
+        .expect(202)
+    ).body.jobId as string;
+    const small = (
+      await bo
+        .post(`/api/teams/${other}/studies`)
+        .send({
+          ...request(),
+          target: { axleDesignId: otherDesign },
+          samples: 30,
+          chunkSamples: 10,
+          // Brackenfield's road car has struts: a tie-rod pickup is common to every layout.
+          tolerances: [{ point: 'tieRodInner', axis: 'z', plusMinusMm: 0.5, distribution: 'normal' }],
+        })
+        .expect(202)
+    ).body.study.id as string;
+    await waitFor('the solve job', async () => {
+      const r = await bo.get(`/api/compute/solve-jobs/${solve}`).expect(200);
+      return r.body.state === 'succeeded' ? true : undefined;
+    });
+    await waitFor('the small study', async () => ((await studyRow(small)).status === 'completed' ? true : undefined));
+    // Both finished while the big study (400 chunks) was still running.
+    const bigNow = await studyRow(big);
+    expect(bigNow.status).toBe('running');
+    expect(bigNow.done_chunks).toBeLessThan(400);
+    await engineer.delete(`/api/teams/${teamId}/studies/${big}`).expect(200);
     await stopWorkers();
   }, 240_000);
 
