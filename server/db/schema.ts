@@ -20,6 +20,7 @@ import {
   primaryKey,
   check,
 } from 'drizzle-orm/pg-core';
+import { AXLE_NAMES } from '../../shared/schema/axle.js';
 
 const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
 
@@ -110,8 +111,6 @@ export const vehicleRevisions = pgTable(
   (t) => [primaryKey({ columns: [t.vehicleId, t.revision] })],
 );
 
-export const AXLES = ['front', 'rear'] as const;
-export type Axle = (typeof AXLES)[number];
 export const DESIGN_STATUSES = ['draft', 'proposed', 'accepted', 'approved', 'changes_requested'] as const;
 export type DesignStatus = (typeof DESIGN_STATUSES)[number];
 
@@ -122,7 +121,7 @@ export const axleDesigns = pgTable(
     vehicleId: uuid('vehicle_id')
       .notNull()
       .references(() => vehicles.id, { onDelete: 'cascade' }),
-    axle: text('axle', { enum: AXLES }).notNull(),
+    axle: text('axle', { enum: AXLE_NAMES }).notNull(),
     name: text('name').notNull(),
     status: text('status', { enum: DESIGN_STATUSES }).notNull().default('draft'),
     archived: boolean('archived').notNull().default(false),
@@ -535,7 +534,7 @@ export const rigMeasurements = pgTable(
     attachedTo: text('attached_to', { enum: RIG_ATTACHMENTS }).notNull(),
     configurationId: uuid('configuration_id').references(() => configurations.id, { onDelete: 'cascade' }),
     configurationRevision: integer('configuration_revision'),
-    axle: text('axle', { enum: AXLES }).notNull(),
+    axle: text('axle', { enum: AXLE_NAMES }).notNull(),
     designId: uuid('design_id')
       .notNull()
       .references(() => axleDesigns.id, { onDelete: 'cascade' }),

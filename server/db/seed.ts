@@ -8,7 +8,7 @@ import { randomBytes } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import { and, eq, inArray, sql } from 'drizzle-orm';
 import type { Orm } from './client.js';
-import { axleDesignRevisions, axleDesigns, configurations, memberships, teams, users, vehicleRevisions, vehicles, type Axle } from './schema.js';
+import { axleDesignRevisions, axleDesigns, configurations, memberships, teams, users, vehicleRevisions, vehicles } from './schema.js';
 import type { Role } from '../permissions.js';
 import type { ComputePool } from '../compute/pool.js';
 import { deserializeError, type TaskKind } from '../compute/tasks.js';
@@ -20,6 +20,7 @@ import type { TrackProfileId } from '../../shared/intent/profiles.js';
 import { exampleVehicles, type ExampleVehicleName } from '../../shared/balance/examples.js';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import type { Corner } from '../../shared/schema/corner.js';
+import type { AxleName } from '../../shared/schema/axle.js';
 
 export const DEMO_PASSWORD = 'demo-pass-2026';
 
@@ -47,7 +48,7 @@ function raiseSteeringInner(corner: Corner, dzMm: number): Corner {
 const C = exampleCorners;
 
 interface DemoDesign {
-  axle: Axle;
+  axle: AxleName;
   name: string;
   corner: Corner;
 }
@@ -293,7 +294,7 @@ async function seedConfigurations(tx: Orm, teamId: string, t: DemoTeam, userId: 
     const [vehicle] = await tx.select({ id: vehicles.id }).from(vehicles).where(and(eq(vehicles.teamId, teamId), eq(vehicles.name, c.vehicle)));
     if (!vehicle) throw new Error(`seed: vehicle ${c.vehicle} missing`);
     const designs = await tx.select({ id: axleDesigns.id, name: axleDesigns.name, axle: axleDesigns.axle }).from(axleDesigns).where(eq(axleDesigns.vehicleId, vehicle.id));
-    const design = (axle: Axle, name: string) => {
+    const design = (axle: AxleName, name: string) => {
       const d = designs.find((x) => x.axle === axle && x.name === name);
       if (!d) throw new Error(`seed: ${axle} design ${name} missing`);
       return d.id;

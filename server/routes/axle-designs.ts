@@ -9,12 +9,12 @@ import { HttpError, validate } from '../http/errors.js';
 import { jsonUploadField, singleTextUpload, uploadedText } from '../http/upload.js';
 import { cadFrameSchema } from '../../shared/io/cad-frame-schema.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
-import { AXLES } from '../db/schema.js';
+import { AXLE_NAMES } from '../../shared/schema/axle.js';
 import { parseCorner, type AxleDesigns } from '../services/axle-designs.js';
 import type { Proposals } from '../services/proposals.js';
 import { archivedQuery, baseRevision, compareRevisions, documentName, idParam, revisionMessage, revisionNumber } from './vehicles.js';
 
-const createSchema = z.strictObject({ axle: z.enum(AXLES), name: documentName, corner: z.unknown() });
+const createSchema = z.strictObject({ axle: z.enum(AXLE_NAMES), name: documentName, corner: z.unknown() });
 const patchSchema = z
   .strictObject({ name: documentName.optional(), archived: z.boolean().optional(), baseRevision, message: revisionMessage })
   .refine((p) => p.name !== undefined || p.archived !== undefined, { message: 'give name or archived', path: ['name'] });

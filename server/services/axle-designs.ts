@@ -5,7 +5,7 @@
  */
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import type { Executor, Orm } from '../db/client.js';
-import { axleDesignRevisions, axleDesigns, users, vehicles, type Axle, type DesignStatus } from '../db/schema.js';
+import { axleDesignRevisions, axleDesigns, users, vehicles, type DesignStatus } from '../db/schema.js';
 import { HttpError, notFound } from '../http/errors.js';
 import { cornerSchema, upgradeCornerDocument, type Corner } from '../../shared/schema/corner.js';
 import type { CadFrame } from '../../shared/io/cad-frame.js';
@@ -21,11 +21,12 @@ export interface ImportPreview {
 }
 import { parseDocument, staleRevision, type RevisionRow } from './revisions.js';
 import { changeWords, recordActivity } from './activity.js';
+import type { AxleName } from '../../shared/schema/axle.js';
 
 export interface AxleDesignView {
   id: string;
   vehicleId: string;
-  axle: Axle;
+  axle: AxleName;
   name: string;
   revision: number;
   status: DesignStatus;
@@ -81,7 +82,7 @@ export class AxleDesigns {
     return { ...d, corner: upgradeCornerDocument(d.corner) };
   }
 
-  async create(teamId: string, vehicleId: string, authorId: string, input: { axle: Axle; name: string; corner: Corner }): Promise<AxleDesignView> {
+  async create(teamId: string, vehicleId: string, authorId: string, input: { axle: AxleName; name: string; corner: Corner }): Promise<AxleDesignView> {
     await this.vehicleInTeam(teamId, vehicleId);
     return this.orm.transaction(async (tx) => {
       const [d] = await tx

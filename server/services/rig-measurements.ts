@@ -10,7 +10,7 @@
  */
 import { and, desc, eq, type SQL } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
-import { axleDesignRevisions, axleDesigns, rigMeasurements, teamRigSettings, users, vehicles, type Axle } from '../db/schema.js';
+import { axleDesignRevisions, axleDesigns, rigMeasurements, teamRigSettings, users, vehicles } from '../db/schema.js';
 import { HttpError, notFound } from '../http/errors.js';
 import type { ComputePool } from '../compute/pool.js';
 import type { Configurations } from './configurations.js';
@@ -20,10 +20,11 @@ import { previewRigCsv, readRigCsv, type RigMapping, type RigPoint, type RigPrev
 import { DEFAULT_RIG_TOLERANCE, type RigBasis, type RigComparison, type RigTolerance } from '../../shared/intent/rig-compare.js';
 import { upgradeCornerDocument } from '../../shared/schema/corner.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
+import type { AxleName } from '../../shared/schema/axle.js';
 
 /** What a measurement is compared with. */
 export type RigTarget =
-  | { kind: 'configuration'; configurationId: string; configurationRevision?: number | undefined; axle: Axle }
+  | { kind: 'configuration'; configurationId: string; configurationRevision?: number | undefined; axle: AxleName }
   | { kind: 'baseline'; designId: string; designRevision?: number | undefined };
 
 export interface RigOptions {

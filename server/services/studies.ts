@@ -23,6 +23,7 @@ import type { Configurations } from './configurations.js';
 import type { Proposals, ProposalView } from './proposals.js';
 import type { Vehicles } from './vehicles.js';
 import { QUEUES, bossDb, inTransaction, type JobQueue, type QueueJobData } from '../compute/queue.js';
+import type { AxleName } from '../../shared/schema/axle.js';
 
 export type StudyStatus = 'queued' | 'running' | 'completed' | 'failed' | 'cancelled';
 
@@ -205,7 +206,7 @@ export class Studies {
   private async resolve(teamId: string, request: StudyRequest): Promise<{ spec: StudySpec; target: Record<string, unknown>; targetName: string }> {
     const { target: wanted, trackProfile, ...settings } = request;
     const seed = request.seed ?? randomInt(0, 0x7fff_ffff);
-    let docs: { axle: 'front' | 'rear'; corner: unknown; vehicle?: unknown; otherCorner?: unknown; trackProfile: unknown };
+    let docs: { axle: AxleName; corner: unknown; vehicle?: unknown; otherCorner?: unknown; trackProfile: unknown };
     let target: Record<string, unknown>;
     let targetName: string;
     if ('axleDesignId' in wanted) {

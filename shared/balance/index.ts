@@ -7,7 +7,7 @@
 import { SAFETY_CAUTION } from '../intent/cautions.js';
 import { SolveError } from '../errors.js';
 import type { Vehicle } from '../schema/vehicle.js';
-import { DEG, KPH } from './constants.js';
+import { KPH } from './constants.js';
 import { evaluateRoll, type AxleLoadTransfer, type AxleRollStiffness, type MassProperties } from './roll.js';
 import { gainsAt, sideslipZeroSpeedKph, speedCharacteristic, steerCurve, type GainRow, type SpeedCharacteristic, type SteerCurve } from './steady.js';
 import { stepResponse, transientModels, type StepResponse } from './transient.js';
@@ -25,6 +25,8 @@ import {
   type UndersteerBudget,
   type Validity,
 } from './understeer.js';
+import { RAD_PER_DEG } from '../angles.js';
+import { AXLE_NAMES } from '../schema/axle.js';
 
 export { exampleVehicles, type ExampleVehicleName } from './examples.js';
 export { rollSteerUndersteerDegPerG, suspensionRollGradients, understeerSensitivity, budgetFromCompliances, BUDGET_TERMS } from './understeer.js';
@@ -127,7 +129,7 @@ export function evaluateBalance(vehicle: Vehicle, options: BalanceOptions = {}):
   });
   const speedMps = (options.speedKph ?? 80) * KPH;
   const models = transientModels(core, onCentre.axleCompliance, speedMps);
-  const stepOpts = { steerRad: (options.stepSteerDeg ?? 1) * DEG, durationS: options.stepDurationS ?? 3, sampleS: options.stepSampleS ?? 0.002, historyEvery: Math.max(1, Math.round(0.01 / (options.stepSampleS ?? 0.002))) };
+  const stepOpts = { steerRad: (options.stepSteerDeg ?? 1) * RAD_PER_DEG, durationS: options.stepDurationS ?? 3, sampleS: options.stepSampleS ?? 0.002, historyEvery: Math.max(1, Math.round(0.01 / (options.stepSampleS ?? 0.002))) };
   const step2 = stepResponse(models.twoDof, stepOpts);
   const step3 = models.threeDof ? stepResponse(models.threeDof, stepOpts) : null;
   const mb = roll.rollMomentBalance;
@@ -197,7 +199,7 @@ export function evaluateBalance(vehicle: Vehicle, options: BalanceOptions = {}):
 function refuseNoValidRange(core: ReturnType<typeof balanceCore>, v: Validity): void {
   const limit = physicalLimit(v);
   if (limit > 0) return;
-  const axle = (['front', 'rear'] as const).find((a) => !(v.wheelLiftG[a] > 0) || !((v.stiffnessLimitG[a] ?? Infinity) > 0)) ?? 'front';
+  const axle = AXLE_NAMES.find((a) => !(v.wheelLiftG[a] > 0) || !((v.stiffnessLimitG[a] ?? Infinity) > 0)) ?? 'front';
   const transfer = core[axle].loadTransferNPerG;
   throw new SolveError(
     'singular_geometry',

@@ -28,6 +28,7 @@ import { SolveError } from '../errors.js';
 import { BUSHING_POINTS, type Bushing, type Corner } from '../schema/corner.js';
 import type { CornerModel } from '../kinematics/model.js';
 import type { CornerSolver } from '../kinematics/solver.js';
+import { DEG_PER_RAD } from '../angles.js';
 
 /** The unit loads at the tyre (left corner). */
 export const LOAD_NAMES = ['lateralForce', 'aligningMoment', 'brakingForce', 'tractionForce', 'verticalForce'] as const;
@@ -450,8 +451,6 @@ export interface LoadResponse {
   contactPatchMm: [number, number, number];
 }
 
-const RAD = 180 / Math.PI;
-
 /** Toe and camber change (deg) of the upright rotation δω at the pose (left wheel: toe = −δ). */
 export function toeCamberOf(pc: PoseCompliance, w: ArrayLike<number>): { toeDeg: number; camberDeg: number; da: [number, number, number] } {
   const a = pc.spin;
@@ -459,7 +458,7 @@ export function toeCamberOf(pc: PoseCompliance, w: ArrayLike<number>): { toeDeg:
   const day = w[2]! * a[0] - w[0]! * a[2];
   const daz = w[0]! * a[1] - w[1]! * a[0];
   const dSteer = (a[0] * day - a[1] * dax) / (a[0] * a[0] + a[1] * a[1]);
-  return { toeDeg: -dSteer * RAD, camberDeg: (-daz / Math.sqrt(1 - a[2] * a[2])) * RAD, da: [dax, day, daz] };
+  return { toeDeg: -dSteer * DEG_PER_RAD, camberDeg: (-daz / Math.sqrt(1 - a[2] * a[2])) * DEG_PER_RAD, da: [dax, day, daz] };
 }
 
 /** Solves one load at the pose. */

@@ -9,6 +9,7 @@
  */
 import type { TrackProfile, TrackProfileId } from './profiles.js';
 import type { BumpCost } from '../ride/cost.js';
+import type { AxleName } from '../schema/axle.js';
 export { trackProfiles, resolveTrackProfile, TRACK_PROFILE_IDS } from './profiles.js';
 
 export type CautionLevel = 'info' | 'warning' | 'critical';
@@ -181,7 +182,7 @@ export function levelFor(value: number, t: LevelThresholds): { level: CautionLev
 
 /** What the rules measure; the solver fills it from the verified kinematics. */
 export interface CautionInputs {
-  axle: 'front' | 'rear';
+  axle: AxleName;
   steered: boolean;
   profile: TrackProfile;
   /** Achieved roll steer coefficient ε, deg/deg (domain.md sign). */

@@ -14,9 +14,10 @@ import { resolveTrackProfile, type TrackProfileChoice, type TrackProfileId } fro
 import { cautionInputs, sweepRacks } from './measure.js';
 import { linked, PoseCounter, rollSteer } from './link.js';
 import type { BumpCost } from '../ride/cost.js';
+import type { AxleName } from '../schema/axle.js';
 
 export interface CornerCautionOptions {
-  axle: 'front' | 'rear';
+  axle: AxleName;
   /** A profile id, or `{ id, travelMm?, bumpHeightMm? }` overriding its travel range and bump height. */
   trackProfile: TrackProfileId | TrackProfileChoice;
   /** The vehicle: tyre data and loads for the lateral-force index, compliance steer, suspension roll for the reference roll. */
@@ -40,7 +41,7 @@ export function cautionRackPositions(corner: Corner, list?: number[]): number[] 
 }
 
 /** Suspension roll gradients with `corner` linked into the vehicle (balance model), or null (no vehicle, or a roll centre at infinity). */
-export function linkedRollGradients(counter: PoseCounter, vehicle: Vehicle | undefined, axle: 'front' | 'rear', corner: Corner) {
+export function linkedRollGradients(counter: PoseCounter, vehicle: Vehicle | undefined, axle: AxleName, corner: Corner) {
   if (!vehicle) return null;
   try {
     return suspensionRollGradients(linked(counter, vehicle, axle, corner).vehicle);

@@ -17,6 +17,7 @@ import { axleComplianceOf } from '../compliance/axle.js';
 import { describeTyreLoadLaw, tyreLoadLaw, tyreStiffnessAt } from '../balance/tyre.js';
 import { InputError } from '../errors.js';
 import { bumpCost, type BumpCost } from '../ride/cost.js';
+import type { AxleName } from '../schema/axle.js';
 
 const G_STD = 9.80665;
 /** Cornering stiffness per unit load used when the vehicle gives no tyre data, 1/deg (from memory: 0.15–0.25 for car tyres). */
@@ -74,7 +75,7 @@ export function sweepRacks(
 
 /** Who the cautions are for: the axle, the vehicle (tyres, loads, compliance) and its suspension roll, the team's thresholds. */
 export interface CautionContext {
-  axle: 'front' | 'rear';
+  axle: AxleName;
   vehicle?: Vehicle | undefined;
   /** Suspension roll gradients of the vehicle with this corner linked in (balance model), deg/g; null without a vehicle. */
   gradients: { frontDegPerG: number; rearDegPerG: number } | null;

@@ -21,8 +21,11 @@ import { asBuiltCorner, workshopNumbers, type WorkshopNumbers } from './workshop
 import { cautionRackPositions } from './corner-cautions.js';
 import { cautionInputs, sweepRacks, type RackFit, type UnreachableRack } from './measure.js';
 import { linked, pose, PoseCounter, trialCorner, rollSteer, steering, summary, sweep } from './link.js';
-import type { SweepRow } from '../kinematics/index.js';
+import { posedPoints, type SweepRow } from '../kinematics/index.js';
 import { RandomRoadYawCost, type BumpCost } from '../ride/cost.js';
+import { DEG_PER_RAD } from '../angles.js';
+import { rollSteerWords } from '../balance/roll-steer-words.js';
+import type { AxleName } from '../schema/axle.js';
 
 export type { RackFit, UnreachableRack } from './measure.js';
 export { DEFAULT_CORNERING_COEFFICIENT_PER_DEG, DEFAULT_REFERENCE_ROLL_DEG } from './measure.js';
@@ -65,7 +68,7 @@ export interface SolveResult {
   engineVersion: string;
   feasible: boolean;
   reason: string | null;
-  axle: 'front' | 'rear';
+  axle: AxleName;
   target: {
     kind: 'rollSteerCoefficient' | 'understeerChangeDegPerG' | 'zeroBumpSteer' | 'rollAndComplianceSteerDegPerG';
     rollSteerCoefficient: number;
@@ -137,12 +140,6 @@ export interface SideEffects {
   /** Largest angle the tie rod turns through at each ball joint over travel and rack, relative to its design direction, deg. */
   ballJointArticulationDeg: { inner: { before: number; after: number }; outer: { before: number; after: number } };
 }
-
-const label = (axle: 'front' | 'rear', eps: number): string => {
-  if (Math.abs(eps) < 5e-4) return 'no roll steer';
-  const under = axle === 'front' ? eps > 0 : eps < 0;
-  return under ? 'roll understeer' : 'roll oversteer';
-};
 
 /** The solve of one intent. Throws SolveError where the verification cannot reach a pose. */
 export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult {
@@ -471,17 +468,17 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
       rollSteerCoefficient: epsTarget,
       understeerChangeDegPerG: targetDK ?? uChangeEps(epsTarget),
       outsideToeInDegPerDegRoll: -epsTarget,
-      label: label(intent.axle, epsTarget),
+      label: rollSteerWords(epsTarget, intent.axle),
     },
     trackProfile: profile,
-    current: { rollSteerCoefficient: epsCurrent, label: label(intent.axle, epsCurrent), objectiveRmsDeg: currentObjective },
+    current: { rollSteerCoefficient: epsCurrent, label: rollSteerWords(epsCurrent, intent.axle), objectiveRmsDeg: currentObjective },
     geometry: { tieRodInner: pts[inner]!, tieRodOuter: pts[outer]!, innerPoint: inner, outerPoint: outer },
     coordinates,
     corner: proposed,
     achieved: {
       verified: true,
       rollSteerCoefficient: epsVerified,
-      label: label(intent.axle, epsVerified),
+      label: rollSteerWords(epsVerified, intent.axle),
       outsideToeInDegPerDegRoll: -epsVerified,
       bumpSteerDegPerM: straight.bumpSteerDegPerM,
       curvatureDegPerM2: straight.curvatureDegPerM2,
@@ -527,14 +524,14 @@ export function rackPositions(intent: Intent): number[] {
  * The axle's steer out of the turn per g in a linked vehicle (the budget's own terms): roll steer, compliance
  * steer (lateral force and aligning torque) and their sum, deg/g.
  */
-export function axleSteerOut(v: Vehicle, axle: 'front' | 'rear'): { rollSteerDegPerG: number; complianceSteerDegPerG: number; totalDegPerG: number } {
+export function axleSteerOut(v: Vehicle, axle: AxleName): { rollSteerDegPerG: number; complianceSteerDegPerG: number; totalDegPerG: number } {
   const c = understeerBudget(balanceCore(v)).axleCompliance[axle];
   const compliance = c.complianceSteer + c.alignTorqueComplianceSteer;
   return { rollSteerDegPerG: c.rollSteer, complianceSteerDegPerG: compliance, totalDegPerG: c.rollSteer + compliance };
 }
 
 /** A vehicle with `axle`'s roll steer coefficient set to ε (what the balance link's override does). */
-function withRollSteer(v: Vehicle, axle: 'front' | 'rear', eps: number): Vehicle {
+function withRollSteer(v: Vehicle, axle: AxleName, eps: number): Vehicle {
   return { ...v, [axle]: { ...v[axle], rollSteerCoefficient: eps } };
 }
 
@@ -562,7 +559,7 @@ function linkedRollSteer(counter: PoseCounter, intent: Intent, corner: Corner, r
  * model's roll-steer term with each corner linked in (`linkVehicle` +
  * `rollSteerTermDegPerG`, the path of `computeBalance`).
  */
-export function understeerChange(vehicle: Vehicle, axle: 'front' | 'rear', baseline: Corner, proposed: Corner): number {
+export function understeerChange(vehicle: Vehicle, axle: AxleName, baseline: Corner, proposed: Corner): number {
   const k = (c: Corner) => rollSteerTermDegPerG(linked(new PoseCounter(), vehicle, axle, c).vehicle);
   return k(proposed) - k(baseline);
 }
@@ -648,17 +645,15 @@ function rollCentreHeight(counter: PoseCounter, c: Corner): number | null {
 
 /** Largest angle of the tie rod from its design direction at each ball joint, over the travel ends and rack positions, deg. */
 function articulation(counter: PoseCounter, c: Corner, racks: number[], travel: { from: number; to: number }): { inner: number; outer: number } {
+  const innerKey = innerName(c);
+  const outerKey = outerName(c);
   const p = c.points as Record<string, Vec3>;
-  const inner = p[innerName(c)]!;
-  const outer = p[outerName(c)]!;
-  const wc = p['wheelCentre']!;
-  const st = c.steering;
-  const axis: Vec3 = st?.kind === 'rack' ? st.rackAxis : [0, 1, 0];
-  const an = Math.hypot(...axis);
+  const inner = p[innerKey]!;
+  const outer = p[outerKey]!;
   const d0: Vec3 = [outer[0] - inner[0], outer[1] - inner[1], outer[2] - inner[2]];
   const angle = (a: Vec3, b: Vec3) => {
     const cos = (a[0] * b[0] + a[1] * b[1] + a[2] * b[2]) / (Math.hypot(...a) * Math.hypot(...b));
-    return Math.acos(Math.min(1, Math.max(-1, cos))) * (180 / Math.PI);
+    return Math.acos(Math.min(1, Math.max(-1, cos))) * DEG_PER_RAD;
   };
   let maxIn = 0;
   let maxOut = 0;
@@ -672,14 +667,9 @@ function articulation(counter: PoseCounter, c: Corner, racks: number[], travel: 
         throw e;
       }
       const R = ps.state.R;
-      const l: Vec3 = [outer[0] - wc[0], outer[1] - wc[1], outer[2] - wc[2]];
-      const o: Vec3 = [
-        ps.state.c[0] + R[0]! * l[0] + R[1]! * l[1] + R[2]! * l[2],
-        ps.state.c[1] + R[3]! * l[0] + R[4]! * l[1] + R[5]! * l[2],
-        ps.state.c[2] + R[6]! * l[0] + R[7]! * l[1] + R[8]! * l[2],
-      ];
-      // Arm steering moves the inner point on an arc; the rack's straight line is close enough for the joint angle at the stroke used here.
-      const i: Vec3 = st?.kind === 'rack' ? [inner[0] + (r * axis[0]) / an, inner[1] + (r * axis[1]) / an, inner[2] + (r * axis[2]) / an] : inner;
+      const at = posedPoints(c, ps.state);
+      const o = at[outerKey]!;
+      const i = at[innerKey]!;
       const d: Vec3 = [o[0] - i[0], o[1] - i[1], o[2] - i[2]];
       maxIn = Math.max(maxIn, angle(d, d0));
       // In the upright's frame: Rᵀ·d against the design direction.

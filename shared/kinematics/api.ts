@@ -10,6 +10,7 @@ import { INTENT_RANGES, VEHICLE_RANGES } from '../schema/ranges.js';
 import { inRange } from '../schema/ranged.js';
 import { sweepCorner, expandRange } from './sweep.js';
 import { axleKinematics, rollSweep, rightCornerToLeftFrame } from './axle.js';
+import { AXLE_NAMES } from '../schema/axle.js';
 
 /** Most poses one request may solve (sweep rows; roll rows count both wheels). */
 export const MAX_POSES_PER_REQUEST = 20_000;
@@ -49,7 +50,7 @@ export const axleRollRequestSchema = z.strictObject({
   /** Anti-dive / anti-squat inputs. */
   anti: z
     .strictObject({
-      axle: z.enum(['front', 'rear']),
+      axle: z.enum(AXLE_NAMES),
       cgHeightMm: vehicleNumber('cgHeightMm'),
       wheelbaseMm: vehicleNumber('wheelbaseMm'),
       brakeFrontFraction: finite.min(0).max(1).optional(),

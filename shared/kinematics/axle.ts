@@ -11,7 +11,8 @@ import { compileCorner } from './model.js';
 import { CornerSolver } from './solver.js';
 import { kingpinAxis, poseOutputs, uprightPoint, type PoseResult } from './pose.js';
 import { expandRange, checkRack, type Range } from './sweep.js';
-import { RAD } from './vec.js';
+import { DEG_PER_RAD } from '../angles.js';
+import type { AxleName } from '../schema/axle.js';
 
 // ---------- the two sides ----------
 
@@ -72,7 +73,7 @@ function steerPerRack(s: CornerSolver): number {
   const w: Vec3 = [s.tSteer[3]!, s.tSteer[4]!, s.tSteer[5]!];
   const da: Vec3 = [w[1] * a[2] - w[2] * a[1], w[2] * a[0] - w[0] * a[2], w[0] * a[1] - w[1] * a[0]];
   const ddm = (a[0] * da[1] - a[1] * da[0]) / (a[0] * a[0] + a[1] * a[1]);
-  return (s.side === 'left' ? ddm : -ddm) * RAD;
+  return (s.side === 'left' ? ddm : -ddm) * DEG_PER_RAD;
 }
 
 function rot(R: Float64Array, v: ArrayLike<number>): Vec3 {
@@ -169,7 +170,7 @@ export function sideViewIc(s: CornerSolver): SideViewIc {
 
 export interface AntiOptions {
   /** Which axle the corner is. */
-  axle: 'front' | 'rear';
+  axle: AxleName;
   cgHeightMm: number;
   wheelbaseMm: number;
   /** Share of braking force on the front axle (0–1); outboard brakes act at the contact patch. */
@@ -211,8 +212,8 @@ export function ackermannPercent(leftSteerDeg: number, rightSteerDeg: number, st
   const mean = (leftSteerDeg + rightSteerDeg) / 2;
   if (Math.abs(mean) < 0.5 || !(wheelbaseMm > 0) || steeringAxisTrackMm === null || !Number.isFinite(steeringAxisTrackMm)) return null;
   const left = mean > 0;
-  const inner = Math.abs(left ? leftSteerDeg : rightSteerDeg) / RAD;
-  const outer = Math.abs(left ? rightSteerDeg : leftSteerDeg) / RAD;
+  const inner = Math.abs(left ? leftSteerDeg : rightSteerDeg) / DEG_PER_RAD;
+  const outer = Math.abs(left ? rightSteerDeg : leftSteerDeg) / DEG_PER_RAD;
   if (!(outer > 0)) return null;
   const cotIdeal = 1 / Math.tan(outer) - steeringAxisTrackMm / wheelbaseMm;
   const ideal = Math.atan2(1, cotIdeal);
@@ -392,11 +393,11 @@ function rollCoefficients(sides: AxleSides, rack: number): { eps: number; rollCa
   const { l, r } = solveBoth(sides, 0, 0, rack);
   const half = sides.trackMm / 2;
   // ds/dφ = t/2 per rad; left travel −s, right +s (domain.md). Rates in deg/mm → deg/rad, then per degree.
-  const dMean = ((-steerRatePerMm(l) + steerRatePerMm(r)) / 2) * half / RAD;
+  const dMean = ((-steerRatePerMm(l) + steerRatePerMm(r)) / 2) * half / DEG_PER_RAD;
   const gL = l.camberGradientDegPerM / 1000;
   const gR = r.camberGradientDegPerM / 1000;
   // d/dφ[(γ_R(+s) + φ − γ_L(−s) + φ)/2]
-  const rollCamber = 1 + ((gR + gL) / 2) * half / RAD;
+  const rollCamber = 1 + ((gR + gL) / 2) * half / DEG_PER_RAD;
   return { eps: -dMean, rollCamber, l, r };
 }
 
@@ -425,7 +426,7 @@ export function rollSweep(corner: Corner, options: RollSweepOptions) {
     const out = new Array<RollRow>(rolls.length);
     const at = (i: number) => {
       const phi = rolls[i]!;
-      const s = half * Math.sin(phi / RAD);
+      const s = half * Math.sin(phi / DEG_PER_RAD);
       sides.left.solveTowards(-s, rack);
       sides.right.solveTowards(s, rack);
       const l = poseOutputs(sides.left);
@@ -451,7 +452,7 @@ export function rollSweep(corner: Corner, options: RollSweepOptions) {
     };
     if (!solved) solveBoth(sides, 0, 0, rack);
     for (let i = start; i < rolls.length; i++) at(i);
-    solveBoth(sides, -half * Math.sin(rolls[start]! / RAD), half * Math.sin(rolls[start]! / RAD), rack);
+    solveBoth(sides, -half * Math.sin(rolls[start]! / DEG_PER_RAD), half * Math.sin(rolls[start]! / DEG_PER_RAD), rack);
     for (let i = start - 1; i >= 0; i--) at(i);
     return out;
   };

@@ -8,6 +8,7 @@ export { CornerSolver, RESIDUAL_TOL_MM, type SolveDiagnostics } from './solver.j
 export { poseOutputs, poseRow, kingpinAxis, type PoseResult, type PoseRow, type KingpinAxis } from './pose.js';
 export {
   solvePose,
+  posedPoints,
   posedHardpoints,
   sweepCorner,
   sweepTravels,

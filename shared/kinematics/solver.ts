@@ -131,6 +131,20 @@ export class CornerSolver {
     this.setSteer();
   }
 
+  /**
+   * Takes a solved pose's state as the current one (no solve): wheel centre,
+   * rotation, travel and steering input, with the steering inner point placed
+   * for that input. For reading points off a pose solved elsewhere.
+   */
+  place(state: { c: ArrayLike<number>; R: ArrayLike<number>; travelMm: number; rackMm: number }): void {
+    this.c.set(state.c);
+    this.R.set(state.R);
+    this.travelMm = state.travelMm;
+    this.rackMm = state.rackMm;
+    this.sc[3] = state.rackMm;
+    this.setSteer();
+  }
+
   /** Places the steering inner point for input s = sc[3] (mm): rack translation or arm rotation. */
   private setSteer(): void {
     const s = this.sc[3]!;

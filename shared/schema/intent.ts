@@ -13,6 +13,7 @@ import { ROAD_CLASSES } from '../ride/road.js';
 import { CAUTION_RULES } from '../intent/cautions.js';
 import { CORNER_RANGES, INTENT_RANGES, type InputRange } from './ranges.js';
 import { inRange } from './ranged.js';
+import { AXLE_NAMES } from './axle.js';
 
 // The steering-link helpers and the movable-coordinate pattern live in a
 // zod-free module (the browser's kinematics worker uses them without the
@@ -98,7 +99,7 @@ export const intentSchema = z
     formatVersion: z.literal(INTENT_FORMAT_VERSION).optional(),
     name: z.string().max(200).optional(),
     corner: cornerDocumentSchema,
-    axle: z.enum(['front', 'rear'], { error: 'axle must be "front" or "rear"' }),
+    axle: z.enum(AXLE_NAMES, { error: 'axle must be "front" or "rear"' }),
     target: intentTargetSchema,
     movable: z.array(coordinateSchema).min(1, 'movable must name at least one coordinate').max(5),
     bounds: z.record(z.string(), z.tuple([ranged('min', CORNER_RANGES.coordinateMm), ranged('max', CORNER_RANGES.coordinateMm)])),

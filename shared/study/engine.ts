@@ -18,12 +18,12 @@ import { InputError, SolveError } from '../errors.js';
 import type { Corner, Vec3 } from '../schema/corner.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { compileCorner, moveCornerPoints, CornerSolver, poseRow, polyFit, frontViewIc, rollCentreOf, checkRack, type CornerModel, type PoseRow, type FrontViewIc } from '../kinematics/index.js';
-import { RAD } from '../kinematics/vec.js';
 import { linkVehicle, type LinkedVehicle } from '../balance/link.js';
 import { balanceCore, understeerBudget } from '../balance/understeer.js';
 import { resolveTrackProfile, type TrackProfile } from '../intent/profiles.js';
 import { thresholdsFor, CAUTION_RULES, type CautionThresholds, type LevelThresholds } from '../intent/cautions.js';
 import { FIXED_POINTS, type StudySpec, type Tolerance } from './schema.js';
+import { DEG_PER_RAD } from '../angles.js';
 
 // ---------- outputs ----------
 
@@ -86,7 +86,7 @@ function toeOf(s: CornerSolver): number {
   const a0 = s.model.spin0;
   const ax = R[0]! * a0[0] + R[1]! * a0[1] + R[2]! * a0[2];
   const ay = R[3]! * a0[0] + R[4]! * a0[1] + R[5]! * a0[2];
-  return -Math.atan2(-ax, ay) * RAD;
+  return -Math.atan2(-ax, ay) * DEG_PER_RAD;
 }
 
 /** Everything of a study that does not change between samples. */
@@ -159,7 +159,7 @@ export class StudyModel {
       left.push({ kind: P_BUMP, travelMm: this.profile.bumpHeightMm, rackMm: r, tag: k, grid: 0 });
       for (const g of order) left.push({ kind: P_GRID, travelMm: this.travels[g]!, rackMm: r, tag: k, grid: g });
     });
-    const s = this.halfTrackMm * Math.sin(a.rollDeg / RAD);
+    const s = this.halfTrackMm * Math.sin(a.rollDeg / DEG_PER_RAD);
     // Roll φ > 0 (right side down): left travel −s, right +s (domain.md).
     left.push({ kind: P_ROLL, travelMm: -s, rackMm: 0, tag: 1, grid: 0 }, { kind: P_ROLL, travelMm: s, rackMm: 0, tag: -1, grid: 0 });
     const right: PoseDef[] = [
@@ -449,8 +449,8 @@ export class StudyModel {
       out[idx['staticCamberDeg']!] = rowL.camberDeg;
       const half = this.halfTrackMm;
       // ε = −dδ̄/dφ and roll camber at φ = 0 from the analytic gradients (as shared/kinematics rollSweep): ds/dφ = t/2 per rad, left −s, right +s.
-      out[idx['rollSteerCoefficient']!] = -((rowL.toeGradientDegPerM + rowR.toeGradientDegPerM) / 2000) * half / RAD;
-      out[idx['rollCamberDegPerDeg']!] = 1 + ((rowL.camberGradientDegPerM + rowR.camberGradientDegPerM) / 2000) * half / RAD;
+      out[idx['rollSteerCoefficient']!] = -((rowL.toeGradientDegPerM + rowR.toeGradientDegPerM) / 2000) * half / DEG_PER_RAD;
+      out[idx['rollCamberDegPerDeg']!] = 1 + ((rowL.camberGradientDegPerM + rowR.camberGradientDegPerM) / 2000) * half / DEG_PER_RAD;
       const rc = rollCentreOf(icL, icR);
       out[idx['rollCentreHeightMm']!] = rc ? rc.heightMm : NaN;
 

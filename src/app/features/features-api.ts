@@ -3,8 +3,8 @@ import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 import type { Corner } from '../../../shared/schema/corner';
 import { SHOW_ERRORS_INLINE } from '../core/http/api-error';
+import type { AxleName } from '../../../shared/schema/axle';
 
-export type AxleName = 'front' | 'rear';
 
 /** `GET /api/teams/:teamId/axle-designs/:designId`. */
 export interface AxleDesign {

@@ -3,10 +3,11 @@ import type { Caution } from '../../../shared/intent/cautions';
 import type { ComplianceBesideRollSteer } from '../../../shared/compliance/compare';
 import type { TrackProfile, TrackProfileChoice } from '../../../shared/intent/profiles';
 import type { BumpCost } from '../../../shared/ride/cost';
+import type { AxleName } from '../../../shared/schema/axle';
 
 /** What the cautions beside the results are measured for. */
 export interface CautionRequest {
-  readonly axle: 'front' | 'rear';
+  readonly axle: AxleName;
   readonly trackProfile: TrackProfileChoice;
   /** The vehicle's stored data (validated in the worker; left out of the cautions when incomplete), or null. */
   readonly vehicleData: unknown;

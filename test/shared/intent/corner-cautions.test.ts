@@ -13,6 +13,7 @@ import { intentSchema } from '../../../shared/schema/intent.js';
 import type { Corner, Vec3 } from '../../../shared/schema/corner.js';
 import { SolveError } from '../../../shared/errors.js';
 import { CAUTION_RULES, cautionsForCorner, DEFAULT_TRACK_PROFILE, solveIntent, type CautionThresholds } from '../../../shared/intent/index.js';
+import type { AxleName } from '../../../shared/schema/axle.js';
 
 function heights(corner: Corner, range: number): Record<string, [number, number]> {
   const p = corner.points as Record<string, Vec3>;
@@ -44,7 +45,7 @@ describe('cautionsForCorner gives the solver’s cautions for the solver’s geo
 });
 
 describe('each measured rule just below and just above its threshold (any corner, not a solved one)', () => {
-  const cases: Array<{ corner: Corner; axle: 'front' | 'rear'; codes: (keyof typeof CAUTION_RULES)[] }> = [
+  const cases: Array<{ corner: Corner; axle: AxleName; codes: (keyof typeof CAUTION_RULES)[] }> = [
     {
       corner: exampleCorners.fsFrontWishbone,
       axle: 'front',

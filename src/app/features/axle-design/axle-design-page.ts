@@ -16,7 +16,7 @@ import { AnalysisError, AnalysisSuperseded, KinematicsClient } from '../../worke
 import type { AnalysisFailure, AnalysisRequest, CornerAnalysis } from '../../workers/analysis-types';
 import { AxleDesign, FeaturesApi, Proposal, RevisionRow } from '../features-api';
 import { routeParam } from '../route-params';
-import { rollSteerWords } from '../roll-steer-words';
+import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { EditHistory } from './edit-history';
 import { HardpointImport } from './hardpoint-import';

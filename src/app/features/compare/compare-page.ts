@@ -10,7 +10,7 @@ import { AnalysisError, KinematicsClient } from '../../workers/kinematics-client
 import type { CornerAnalysis } from '../../workers/analysis-types';
 import { AxleDesign, AxleDesignSummary, FeaturesApi } from '../features-api';
 import { routeParam } from '../route-params';
-import { rollSteerWords } from '../roll-steer-words';
+import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 
 interface Compared {

@@ -33,12 +33,13 @@ import { RefOption, ReviewComments } from './review-comments';
 import { ActionSpec, actionsFor, CHART_REFS, diffValue, fmt, keyFigures, pathLabel, problemText, STATUS_WORDS } from './review-words';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { StatusChip } from './status-chip';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 type Load<T> = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; value: T };
 
 type AxleCautions =
-  | { axle: 'front' | 'rear'; ok: true; list: readonly Caution[]; bumpCost?: BumpCost | null; bumpCostUnavailable?: string | null }
-  | { axle: 'front' | 'rear'; ok: false; message: string };
+  | { axle: AxleName; ok: true; list: readonly Caution[]; bumpCost?: BumpCost | null; bumpCostUnavailable?: string | null }
+  | { axle: AxleName; ok: false; message: string };
 
 const BUDGET_TERMS = [
   ['tyres', 'Tyres'],

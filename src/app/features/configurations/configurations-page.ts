@@ -15,6 +15,7 @@ import { Configuration, ConfigurationsApi, NewConfiguration } from './configurat
 import { problemText } from './review-words';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { StatusChip } from './status-chip';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 type ListState = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; list: readonly Configuration[] };
 
@@ -137,7 +138,7 @@ export class ConfigurationsPage implements OnInit {
     }
   }
 
-  protected async chooseDesign(axle: 'front' | 'rear', id: string): Promise<void> {
+  protected async chooseDesign(axle: AxleName, id: string): Promise<void> {
     (axle === 'front' ? this.formFront : this.formRear).set(id);
     (axle === 'front' ? this.formFrontRevision : this.formRearRevision).set('');
     const revisions = axle === 'front' ? this.frontRevisions : this.rearRevisions;

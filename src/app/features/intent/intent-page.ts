@@ -15,7 +15,7 @@ import { AnalysisError, AnalysisSuperseded } from '../../workers/kinematics-clie
 import { IntentClient } from '../../workers/intent-client';
 import { AxleDesign, FeaturesApi } from '../features-api';
 import { routeParam } from '../route-params';
-import { rollSteerWords } from '../roll-steer-words';
+import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { parseDecimal } from '../axle-design/hardpoint-io';
 import { pointName } from '../axle-design/hardpoint-model';

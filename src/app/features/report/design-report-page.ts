@@ -17,7 +17,7 @@ import { HardpointTable } from '../axle-design/hardpoint-table';
 import { AxleDesign, FeaturesApi, Proposal, RevisionRow, VehicleRecord } from '../features-api';
 import { CautionList } from '../intent/caution-list';
 import { routeParam } from '../route-params';
-import { rollSteerWords } from '../roll-steer-words';
+import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { BumpCostView } from '../bump-cost';
 import { DEFAULT_TRACK_PROFILE } from '../../../../shared/intent/profiles';

@@ -25,6 +25,7 @@ import type { LoadState } from '../../core/http/load-state';
 import { CautionList } from '../intent/caution-list';
 import { SafetyCaution } from '../safety-caution';
 import { RigApi, type RigMeasurementDetail, type RigMeasurementSummary, type RigPreviewAnswer, type RigTarget, type RigToleranceView } from './rig-api';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 /** Where the upload of a new file stands. */
 type UploadState =
@@ -76,7 +77,7 @@ export class RigMeasurementsPanel {
   /** Without a configuration: compare with this axle design as a baseline (at `designRevision`, default its current one). */
   readonly designId = input<string | null>(null);
   readonly designRevision = input<number | null>(null);
-  readonly axle = input<'front' | 'rear'>('front');
+  readonly axle = input<AxleName>('front');
   /** The caller holds `vehicle:manage` (upload and delete); the server checks it again. */
   readonly canEdit = input<boolean>(true);
   /** The caller holds `members:manage` (set the team's rig tolerance). */
@@ -110,7 +111,7 @@ export class RigMeasurementsPanel {
   protected readonly toeSign = signal<(typeof TOE_SIGNS)[number]>('toe-in-positive');
   protected readonly camberSign = signal<(typeof CAMBER_SIGNS)[number]>('top-out-positive');
   // What it is compared with.
-  protected readonly chosenAxle = signal<'front' | 'rear'>('front');
+  protected readonly chosenAxle = signal<AxleName>('front');
   protected readonly side = signal<'left' | 'right'>('left');
   protected readonly rackText = signal('0');
   protected readonly basis = signal<RigBasis>('change');

@@ -11,6 +11,7 @@ import { TeamAccess } from '../../core/teams/team-access';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { routeParam } from '../route-params';
 import { etaWords, STATUS_WORDS, StudiesApi, type StudyView } from './studies-api';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 type ListState = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; list: readonly StudyView[] };
 
@@ -70,7 +71,7 @@ export class StudiesPage implements OnInit, OnDestroy {
   // ---- the form ----
   protected readonly kind = signal<'tolerance' | 'sweep'>('tolerance');
   protected readonly label = signal('');
-  protected readonly axle = signal<'front' | 'rear'>('front');
+  protected readonly axle = signal<AxleName>('front');
   protected readonly profile = signal<TrackProfileId | ''>('');
   protected readonly samples = signal(2000);
   protected readonly seed = signal<number | null>(null);
