@@ -36,7 +36,10 @@ import { HttpError, notFound } from '../http/errors.js';
 import { hasPermission, type Permission, type Role } from '../permissions.js';
 import type { ComputePool } from '../compute/pool.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
-import { trackProfiles, type TrackProfileId } from '../../shared/intent/profiles.js';
+import type { TrackProfileId } from '../../shared/intent/profiles.js';
+import { configurationAnalysis, configurationRequests } from '../../shared/configuration/analyse.js';
+import type { BalanceResponse } from '../../shared/balance/api.js';
+import type { SweepResult } from '../../shared/kinematics/index.js';
 import { upgradeCornerDocument } from '../../shared/schema/corner.js';
 import { upgradeVehicleDocument } from '../../shared/schema/vehicle.js';
 import { staleRevision } from './revisions.js';
@@ -399,18 +402,12 @@ export class Configurations {
     };
   }
 
-  /** Runs the shared engines on the inputs (balance with both corners linked; each corner over the profile's travel). */
+  /** Runs the shared engines on the inputs (shared/configuration/analyse.ts: balance with both corners linked; each corner over the profile's travel). */
   async compute(inputs: ConfigurationInputs): Promise<ConfigurationResults> {
-    const profile = trackProfiles[inputs.trackProfile];
-    const o = { timeLimitMs: this.computeTimeLimitMs };
-    const travel = { from: profile.travelMm[0], to: profile.travelMm[1], step: (profile.travelMm[1] - profile.travelMm[0]) / 40 };
-    const sweep = (corner: unknown) => this.pool.run('corner-sweep', { corner, travel }, o).then((r) => (r as { fit: unknown }).fit);
-    const [balance, front, rear] = await Promise.all([
-      this.pool.run('balance', { vehicle: inputs.vehicle, frontCorner: inputs.frontCorner, rearCorner: inputs.rearCorner }, o),
-      sweep(inputs.frontCorner),
-      sweep(inputs.rearCorner),
-    ]);
-    return { balance, bumpSteer: { front, rear, travelMm: profile.travelMm } };
+    const r = configurationRequests(inputs);
+    const run = (kind: 'balance' | 'corner-sweep', input: unknown) => this.pool.run(kind, input, { timeLimitMs: this.computeTimeLimitMs });
+    const [balance, front, rear] = await Promise.all([run('balance', r.balance), run('corner-sweep', r.front), run('corner-sweep', r.rear)]);
+    return configurationAnalysis(r, balance as BalanceResponse, front as SweepResult, rear as SweepResult);
   }
 
   async results(teamId: string, id: string, revision?: number) {

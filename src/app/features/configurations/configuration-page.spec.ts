@@ -3,9 +3,8 @@ import { HttpTestingController, provideHttpClientTesting, TestRequest } from '@a
 import { TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
-import { computeBalance } from '../../../../shared/balance/api';
 import { exampleVehicles } from '../../../../shared/balance/examples';
-import { computeCornerSweep } from '../../../../shared/kinematics/api';
+import { analyseConfiguration } from '../../../../shared/configuration/analyse';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import type { Caution } from '../../../../shared/intent/cautions';
 import type { AnalysisRequest, CornerAnalysis } from '../../workers/analysis-types';
@@ -17,12 +16,13 @@ import { Answer, refuse, serve } from './spec-backend';
 const TEAM = '/api/teams/t-tal';
 const C = `${TEAM}/configurations/c1`;
 
-// Results as the server computes them: the same engines, called directly (trackProfile smooth-circuit: ±25 mm).
-const sweep = (corner: unknown) => computeCornerSweep({ corner, travel: { from: -25, to: 25, step: 1.25 } }).fit;
-const RESULTS: ConfigurationResults = {
-  balance: computeBalance({ vehicle: exampleVehicles.tur26Ember, frontCorner: exampleCorners.fsFrontWishbone, rearCorner: exampleCorners.fsRearWishbone }),
-  bumpSteer: { front: sweep(exampleCorners.fsFrontWishbone), rear: sweep(exampleCorners.fsRearWishbone), travelMm: [-25, 25] },
-};
+// Results as the server computes them: the same shared function, called directly (trackProfile smooth-circuit: ±25 mm).
+const RESULTS: ConfigurationResults = analyseConfiguration({
+  vehicle: exampleVehicles.tur26Ember,
+  frontCorner: exampleCorners.fsFrontWishbone,
+  rearCorner: exampleCorners.fsRearWishbone,
+  trackProfile: 'smooth-circuit',
+});
 
 function config(over: Partial<Configuration> = {}): Configuration {
   return {
