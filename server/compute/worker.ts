@@ -10,7 +10,7 @@ import { computeBalance } from '../../shared/balance/api.js';
 import { computeCornerCompliance } from '../../shared/compliance/api.js';
 import { computeRide } from '../../shared/ride/api.js';
 import { computeSolve } from '../../shared/intent/api.js';
-import { computeRigComparison } from '../../shared/intent/rig-compare.js';
+import { computeRigComparison } from '../../shared/rig/compare.js';
 import { combineStudyChunks, runStudyChunk, type StudyChunkResult } from '../../shared/study/index.js';
 
 type Engine = (input: unknown, onProgress?: (fraction: number, message: string) => void) => unknown;

@@ -234,7 +234,7 @@ export const configurations = pgTable(
       .notNull()
       .references(() => axleDesigns.id),
     rearDesignRevision: integer('rear_design_revision').notNull(),
-    /** Track profile id of the intent engine (shared/intent/profiles.ts). */
+    /** Track profile id of the intent engine (shared/tracks/profiles.ts). */
     trackProfile: text('track_profile').notNull(),
     archived: boolean('archived').notNull().default(false),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),

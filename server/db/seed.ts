@@ -16,7 +16,7 @@ import runComputeTask from '../compute/worker.js';
 import { Configurations, type ReviewAction } from '../services/configurations.js';
 import { Accounts } from '../services/accounts.js';
 import { Invitations } from '../services/invitations.js';
-import type { TrackProfileId } from '../../shared/intent/profiles.js';
+import type { TrackProfileId } from '../../shared/tracks/profiles.js';
 import { exampleVehicles, type ExampleVehicleName } from '../../shared/balance/examples.js';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import type { Corner } from '../../shared/schema/corner.js';

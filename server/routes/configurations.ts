@@ -3,7 +3,7 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { validate } from '../http/errors.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
-import { TRACK_PROFILE_IDS } from '../../shared/intent/profiles.js';
+import { TRACK_PROFILE_IDS } from '../../shared/tracks/profiles.js';
 import { TRANSITIONS, type Configurations, type ReviewAction } from '../services/configurations.js';
 import { archivedQuery, baseRevision, documentName, idParam, revisionMessage } from './vehicles.js';
 

@@ -16,7 +16,7 @@ import { AXLE_NAMES } from '../../shared/schema/axle.js';
 import { rigMappingSchema } from '../../shared/io/rig-mapping-schema.js';
 import { INTENT_RANGES } from '../../shared/schema/ranges.js';
 import { inRange } from '../../shared/schema/ranged.js';
-import { RIG_BASES, rigToleranceSchema } from '../../shared/intent/rig-compare.js';
+import { RIG_BASES, rigToleranceSchema } from '../../shared/rig/compare.js';
 import type { RigMeasurements } from '../services/rig-measurements.js';
 import { idParam } from './vehicles.js';
 

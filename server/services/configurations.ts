@@ -36,7 +36,7 @@ import { HttpError, notFound } from '../http/errors.js';
 import { hasPermission, type Permission, type Role } from '../permissions.js';
 import type { ComputePool } from '../compute/pool.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
-import type { TrackProfileId } from '../../shared/intent/profiles.js';
+import type { TrackProfileId } from '../../shared/tracks/profiles.js';
 import { configurationAnalysis, configurationRequests } from '../../shared/configuration/analyse.js';
 import type { BalanceResponse } from '../../shared/balance/api.js';
 import type { SweepResult } from '../../shared/kinematics/index.js';

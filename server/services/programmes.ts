@@ -9,7 +9,7 @@ import { and, asc, desc, eq } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { configurations, programmeSnapshots, programmeTeams, programmes, teams, users } from '../db/schema.js';
 import { HttpError, notFound } from '../http/errors.js';
-import type { TrackProfileId } from '../../shared/intent/profiles.js';
+import type { TrackProfileId } from '../../shared/tracks/profiles.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import type { Configurations, ConfigurationResults } from './configurations.js';
 import { toCsv } from '../../shared/io/csv.js';

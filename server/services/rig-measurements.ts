@@ -3,7 +3,7 @@
  * (shared/io/rig-measurement.ts), stored whole or not at all against a
  * configuration revision's front or rear axle design, or against an axle
  * design revision as a baseline of the current car, and compared with the
- * design's predicted toe and camber (shared/intent/rig-compare.ts, run in
+ * design's predicted toe and camber (shared/rig/compare.ts, run in
  * the compute pool). The comparison is recomputed on every read with the
  * team's current rig tolerance; nothing computed is stored or taken from
  * the browser.
@@ -17,7 +17,7 @@ import type { Configurations } from './configurations.js';
 import { recordActivity } from './activity.js';
 import type { UploadedText } from '../http/upload.js';
 import { previewRigCsv, readRigCsv, type RigMapping, type RigPoint, type RigPreview } from '../../shared/io/rig-measurement.js';
-import { DEFAULT_RIG_TOLERANCE, type RigBasis, type RigComparison, type RigTolerance } from '../../shared/intent/rig-compare.js';
+import { DEFAULT_RIG_TOLERANCE, type RigBasis, type RigComparison, type RigTolerance } from '../../shared/rig/compare.js';
 import { upgradeCornerDocument } from '../../shared/schema/corner.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import type { AxleName } from '../../shared/schema/axle.js';

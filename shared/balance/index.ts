@@ -4,7 +4,7 @@
  * and the step-steer transient. Pure and synchronous; docs/balance.md
  * documents every formula and output.
  */
-import { SAFETY_CAUTION } from '../intent/cautions.js';
+import { SAFETY_CAUTION } from '../cautions/cautions.js';
 import { SolveError } from '../errors.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { KPH } from './constants.js';

@@ -11,7 +11,7 @@ import { parseOrThrow } from '../errors.js';
 import { computeBalance, type BalanceResponse } from '../balance/api.js';
 import { computeCornerSweep } from '../kinematics/api.js';
 import type { Range, SweepResult } from '../kinematics/index.js';
-import { TRACK_PROFILE_IDS, trackProfiles, type TrackProfileId } from '../intent/profiles.js';
+import { TRACK_PROFILE_IDS, trackProfiles, type TrackProfileId } from '../tracks/profiles.js';
 
 /** Travel steps of each corner's bump-steer sweep over the profile's travel range. */
 export const CONFIGURATION_SWEEP_STEPS = 40;

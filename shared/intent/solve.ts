@@ -12,14 +12,14 @@ import { rollSteerTermDegPerG } from '../balance/link.js';
 import { balanceCore, understeerBudget } from '../balance/understeer.js';
 import { ENGINE_VERSION } from '../version.js';
 import { InputError, SolveError } from '../errors.js';
-import { evaluateCautions, SAFETY_CAUTION, type Caution } from './cautions.js';
-import { resolveTrackProfile, type TrackProfile } from './profiles.js';
+import { evaluateCautions, SAFETY_CAUTION, type Caution } from '../cautions/cautions.js';
+import { resolveTrackProfile, type TrackProfile } from '../tracks/profiles.js';
 import { readCoordinates } from './coordinates.js';
 import { solveFamily, type LimitingBound } from './optimise.js';
 import { linearFitDeviation, secantRoot } from './numeric.js';
 import { asBuiltCorner, workshopNumbers, type WorkshopNumbers } from './workshop.js';
-import { cautionRackPositions } from './corner-cautions.js';
-import { cautionInputs, sweepRacks, type RackFit, type UnreachableRack } from './measure.js';
+import { cautionRackPositions } from '../cautions/corner-cautions.js';
+import { cautionInputs, sweepRacks, type RackFit, type UnreachableRack } from '../cautions/measure.js';
 import { linked, pose, PoseCounter, trialCorner, rollSteer, steering, summary, sweep } from './link.js';
 import { posedPoints, type SweepRow } from '../kinematics/index.js';
 import { RandomRoadYawCost, type BumpCost } from '../ride/cost.js';
@@ -27,8 +27,8 @@ import { DEG_PER_RAD } from '../angles.js';
 import { rollSteerWords } from '../balance/roll-steer-words.js';
 import type { AxleName } from '../schema/axle.js';
 
-export type { RackFit, UnreachableRack } from './measure.js';
-export { DEFAULT_CORNERING_COEFFICIENT_PER_DEG, DEFAULT_REFERENCE_ROLL_DEG } from './measure.js';
+export type { RackFit, UnreachableRack } from '../cautions/measure.js';
+export { DEFAULT_CORNERING_COEFFICIENT_PER_DEG, DEFAULT_REFERENCE_ROLL_DEG } from '../cautions/measure.js';
 
 export type Progress = (fraction: number, message: string) => void;
 

@@ -8,7 +8,7 @@ import * as z from 'zod';
 import { parseOrThrow } from '../errors.js';
 import { cornerDocumentSchema } from '../schema/corner.js';
 import { upgradeVehicleDocument, vehicleSchema } from '../schema/vehicle.js';
-import { SAFETY_CAUTION } from '../intent/cautions.js';
+import { SAFETY_CAUTION } from '../cautions/cautions.js';
 import { ENGINE_VERSION } from '../version.js';
 import { evaluateRide, ROAD_CLASSES, type RideResult } from './index.js';
 import { AXLE_NAMES } from '../schema/axle.js';

@@ -6,7 +6,7 @@
  * leading apostrophe).
  */
 import Papa from 'papaparse';
-import { SAFETY_CAUTION } from '../intent/cautions.js';
+import { SAFETY_CAUTION } from '../cautions/cautions.js';
 import type { StudySpec } from './schema.js';
 import type { StudyResult } from './run.js';
 

@@ -20,8 +20,8 @@ import type { Vehicle } from '../schema/vehicle.js';
 import { compileCorner, moveCornerPoints, CornerSolver, poseRow, polyFit, frontViewIc, rollCentreOf, checkRack, type CornerModel, type PoseRow, type FrontViewIc } from '../kinematics/index.js';
 import { linkVehicle, type LinkedVehicle } from '../balance/link.js';
 import { balanceCore, understeerBudget } from '../balance/understeer.js';
-import { resolveTrackProfile, type TrackProfile } from '../intent/profiles.js';
-import { thresholdsFor, CAUTION_RULES, type CautionThresholds, type LevelThresholds } from '../intent/cautions.js';
+import { resolveTrackProfile, type TrackProfile } from '../tracks/profiles.js';
+import { thresholdsFor, CAUTION_RULES, type CautionThresholds, type LevelThresholds } from '../cautions/cautions.js';
 import { FIXED_POINTS, type StudySpec, type Tolerance } from './schema.js';
 import { DEG_PER_RAD } from '../angles.js';
 

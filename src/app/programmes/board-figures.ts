@@ -1,4 +1,4 @@
-import { trackProfiles, type TrackProfileId } from '../../../shared/intent/profiles';
+import { trackProfiles, type TrackProfileId } from '../../../shared/tracks/profiles';
 import type { ConfigurationStatus } from '../features/configurations/configurations-api';
 import { STATUS_WORDS } from '../features/configurations/review-words';
 import type { BoardRow, KeyFigures } from './programmes-api';

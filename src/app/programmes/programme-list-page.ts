@@ -9,7 +9,7 @@ import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSelectModule } from '@angular/material/select';
 import { Router, RouterLink } from '@angular/router';
 import { combineLatest, EMPTY, switchMap } from 'rxjs';
-import { trackProfiles, type TrackProfileId } from '../../../shared/intent/profiles';
+import { trackProfiles, type TrackProfileId } from '../../../shared/tracks/profiles';
 import { formatLocalTime, browserTimeZone } from '../core/time/local-time';
 import { AuthService } from '../core/auth/auth-service';
 import { apiProblem } from '../core/http/api-error';

@@ -1,7 +1,7 @@
 import type { Corner, Vec3 } from '../../../shared/schema/corner';
-import type { Caution } from '../../../shared/intent/cautions';
+import type { Caution } from '../../../shared/cautions/cautions';
 import type { ComplianceBesideRollSteer } from '../../../shared/compliance/compare';
-import type { TrackProfile, TrackProfileChoice } from '../../../shared/intent/profiles';
+import type { TrackProfile, TrackProfileChoice } from '../../../shared/tracks/profiles';
 import type { BumpCost } from '../../../shared/ride/cost';
 import type { AxleName } from '../../../shared/schema/axle';
 
@@ -13,7 +13,7 @@ export interface CautionRequest {
   readonly vehicleData: unknown;
 }
 
-/** The cautions of the corner (shared/intent `cautionsForCorner`), or why they could not be measured. */
+/** The cautions of the corner (shared/cautions `cautionsForCorner`), or why they could not be measured. */
 export type CornerCautions =
   | {
       readonly ok: true;

@@ -8,8 +8,8 @@ import { InputError, SolveError } from '../../../shared/errors';
 import { posedPoints, rollSweep, solvePose, sweepCorner } from '../../../shared/kinematics/index';
 import type { Corner } from '../../../shared/schema/corner';
 import { upgradeVehicleDocument, vehicleSchema, type Vehicle } from '../../../shared/schema/vehicle';
-import { cautionRackPositions, measureCornerCautions } from '../../../shared/intent/corner-cautions';
-import { resolveTrackProfile } from '../../../shared/intent/profiles';
+import { cautionRackPositions, measureCornerCautions } from '../../../shared/cautions/corner-cautions';
+import { resolveTrackProfile } from '../../../shared/tracks/profiles';
 import { complianceBesideRollSteer } from '../../../shared/compliance/compare';
 import type { AnalysisFailure, AnalysisRequest, CautionRequest, CornerAnalysis, CornerCautions, DrawnPose, RackCurve, RollCurve } from './analysis-types';
 
@@ -81,7 +81,7 @@ function cornerCompliance(request: AnalysisRequest, eps: number): CornerAnalysis
   }
 }
 
-/** The corner's cautions on the chosen profile (shared/intent); a profile it cannot reach is reported, not fatal to the kinematics. */
+/** The corner's cautions on the chosen profile (shared/cautions); a profile it cannot reach is reported, not fatal to the kinematics. */
 function cornerCautions(corner: Corner, request: CautionRequest): CornerCautions {
   const profile = resolveTrackProfile(request.trackProfile);
   const { vehicle, note } = vehicleFrom(request.vehicleData);

@@ -15,8 +15,8 @@ import { bicycleModel3, stepResponse } from '../../../shared/balance/transient.j
 import { tyreLoadLaw, tyreStiffnessAt } from '../../../shared/balance/tyre.js';
 import { balanceCore } from '../../../shared/balance/understeer.js';
 import { PoseCounter } from '../../../shared/intent/link.js';
-import { cautionInputs } from '../../../shared/intent/measure.js';
-import { resolveTrackProfile } from '../../../shared/intent/profiles.js';
+import { cautionInputs } from '../../../shared/cautions/measure.js';
+import { resolveTrackProfile } from '../../../shared/tracks/profiles.js';
 import { axleSummary, exampleCorners, solvePose } from '../../../shared/kinematics/index.js';
 import type { Corner, Vec3 } from '../../../shared/schema/corner.js';
 import { kktseBicycle, vehicle } from './fixtures.js';

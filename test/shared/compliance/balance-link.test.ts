@@ -12,9 +12,9 @@ import { cornerCompliance } from '../../../shared/compliance/index.js';
 import { linkVehicle } from '../../../shared/balance/link.js';
 import { evaluateBalance } from '../../../shared/balance/index.js';
 import { exampleVehicles } from '../../../shared/balance/examples.js';
-import { cautionInputs } from '../../../shared/intent/measure.js';
+import { cautionInputs } from '../../../shared/cautions/measure.js';
 import { PoseCounter } from '../../../shared/intent/link.js';
-import { resolveTrackProfile } from '../../../shared/intent/profiles.js';
+import { resolveTrackProfile } from '../../../shared/tracks/profiles.js';
 import { planarWishbone } from '../kinematics/helpers.js';
 
 const root = join(import.meta.dirname, '..', '..', '..');

@@ -6,7 +6,7 @@ import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
 import type { Corner, Vec3 } from '../../../../shared/schema/corner';
-import { DEFAULT_TRACK_PROFILE, trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
+import { DEFAULT_TRACK_PROFILE, trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
 import { LineChart } from '../../charts/line-chart';

@@ -6,7 +6,7 @@ import { RouterTestingHarness } from '@angular/router/testing';
 import { exampleVehicles } from '../../../../shared/balance/examples';
 import { analyseConfiguration } from '../../../../shared/configuration/analyse';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
-import type { Caution } from '../../../../shared/intent/cautions';
+import type { Caution } from '../../../../shared/cautions/cautions';
 import type { AnalysisRequest, CornerAnalysis } from '../../workers/analysis-types';
 import { KinematicsClient } from '../../workers/kinematics-client';
 import { ConfigurationPage } from './configuration-page';

@@ -4,7 +4,7 @@ import { Observable } from 'rxjs';
 import type { BalanceResponse } from '../../../../shared/balance/api';
 import type { ToeFit } from '../../../../shared/kinematics/fit';
 import type { Corner } from '../../../../shared/schema/corner';
-import type { TrackProfileId } from '../../../../shared/intent/profiles';
+import type { TrackProfileId } from '../../../../shared/tracks/profiles';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
 
 /** `status` of a configuration (docs/workflow.md). */

@@ -4,7 +4,7 @@ import { MatButton } from '@angular/material/button';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
-import { trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
+import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import type { VehicleSummary } from '../../core/api-types';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';

@@ -4,7 +4,7 @@ import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
 import type { SolveResult } from '../../../../shared/intent/index';
-import { trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
+import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import { innerName, outerName } from '../../../../shared/schema/steering-link';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { apiProblem } from '../../core/http/api-error';

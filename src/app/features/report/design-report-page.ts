@@ -4,7 +4,7 @@ import { ActivatedRoute, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { firstValueFrom } from 'rxjs';
 import type { BalanceResponse } from '../../../../shared/balance/api';
-import type { Caution } from '../../../../shared/intent/cautions';
+import type { Caution } from '../../../../shared/cautions/cautions';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { ENGINE_VERSION } from '../../../../shared/version';
 import { apiProblem } from '../../core/http/api-error';
@@ -20,7 +20,7 @@ import { routeParam } from '../route-params';
 import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { BumpCostView } from '../bump-cost';
-import { DEFAULT_TRACK_PROFILE } from '../../../../shared/intent/profiles';
+import { DEFAULT_TRACK_PROFILE } from '../../../../shared/tracks/profiles';
 
 const TRAVEL = { from: -25, to: 25, step: 2.5 };
 const ROLL = { from: -3, to: 3, step: 0.25 };

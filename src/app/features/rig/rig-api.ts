@@ -2,7 +2,7 @@ import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 import type { RigMapping, RigPoint, RigPreview } from '../../../../shared/io/rig-measurement';
-import type { RigBasis, RigComparison, RigTolerance } from '../../../../shared/intent/rig-compare';
+import type { RigBasis, RigComparison, RigTolerance } from '../../../../shared/rig/compare';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
 import type { AxleName } from '../../../../shared/schema/axle';
 

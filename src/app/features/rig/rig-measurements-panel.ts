@@ -17,7 +17,7 @@ import {
   type ToeUnit,
   type TravelUnit,
 } from '../../../../shared/io/rig-measurement';
-import type { RigBasis, RigComparison, RigStats } from '../../../../shared/intent/rig-compare';
+import type { RigBasis, RigComparison, RigStats } from '../../../../shared/rig/compare';
 import { LineChart } from '../../charts/line-chart';
 import { formatNumber, type LineSeries } from '../../charts/chart-types';
 import { apiProblem } from '../../core/http/api-error';

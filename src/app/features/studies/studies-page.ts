@@ -4,7 +4,7 @@ import { MatButton } from '@angular/material/button';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
-import { TRACK_PROFILE_IDS, trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
+import { TRACK_PROFILE_IDS, trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import { MAX_STUDY_SAMPLES, type StudyRequest } from '../../../../shared/study/schema';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';

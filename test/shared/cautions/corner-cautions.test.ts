@@ -12,7 +12,10 @@ import { exampleVehicles } from '../../../shared/balance/index.js';
 import { intentSchema } from '../../../shared/schema/intent.js';
 import type { Corner, Vec3 } from '../../../shared/schema/corner.js';
 import { SolveError } from '../../../shared/errors.js';
-import { CAUTION_RULES, cautionsForCorner, DEFAULT_TRACK_PROFILE, solveIntent, type CautionThresholds } from '../../../shared/intent/index.js';
+import { solveIntent } from '../../../shared/intent/index.js';
+import { CAUTION_RULES, type CautionThresholds } from '../../../shared/cautions/cautions.js';
+import { cautionsForCorner } from '../../../shared/cautions/corner-cautions.js';
+import { DEFAULT_TRACK_PROFILE } from '../../../shared/tracks/profiles.js';
 import type { AxleName } from '../../../shared/schema/axle.js';
 
 function heights(corner: Corner, range: number): Record<string, [number, number]> {

@@ -10,9 +10,9 @@ import type { Vehicle } from '../schema/vehicle.js';
 import { SolveError } from '../errors.js';
 import { suspensionRollGradients } from '../balance/understeer.js';
 import { evaluateCautions, type Caution, type CautionThresholds } from './cautions.js';
-import { resolveTrackProfile, type TrackProfileChoice, type TrackProfileId } from './profiles.js';
+import { resolveTrackProfile, type TrackProfileChoice, type TrackProfileId } from '../tracks/profiles.js';
 import { cautionInputs, sweepRacks } from './measure.js';
-import { linked, PoseCounter, rollSteer } from './link.js';
+import { linked, PoseCounter, rollSteer } from '../intent/link.js';
 import type { BumpCost } from '../ride/cost.js';
 import type { AxleName } from '../schema/axle.js';
 

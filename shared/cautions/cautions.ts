@@ -7,10 +7,9 @@
  * highest level whose threshold the value reaches (value ≥ threshold).
  * docs/cautions.md documents every code, default and basis.
  */
-import type { TrackProfile, TrackProfileId } from './profiles.js';
+import type { TrackProfile, TrackProfileId } from '../tracks/profiles.js';
 import type { BumpCost } from '../ride/cost.js';
 import type { AxleName } from '../schema/axle.js';
-export { trackProfiles, resolveTrackProfile, TRACK_PROFILE_IDS } from './profiles.js';
 
 export type CautionLevel = 'info' | 'warning' | 'critical';
 
@@ -69,7 +68,7 @@ interface RuleDefinition {
   defaults: LevelThresholds | Record<TrackProfileId, LevelThresholds>;
 }
 
-/** Rig-measurement codes compare with the team's rig tolerance (shared/intent/rig-compare.ts), not with per-profile thresholds. */
+/** Rig-measurement codes compare with the team's rig tolerance (shared/rig/compare.ts), not with per-profile thresholds. */
 export type RigCautionCode = 'rig-toe-disagreement' | 'rig-camber-disagreement';
 
 export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-steer-unmodelled' | 'rack-pose-unreachable' | 'safety-notice' | 'bump-cost-unavailable' | RigCautionCode>, RuleDefinition>> = {

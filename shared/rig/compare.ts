@@ -22,7 +22,7 @@ import { CornerSolver } from '../kinematics/solver.js';
 import { poseRow } from '../kinematics/pose.js';
 import { checkRack, sweepTravels } from '../kinematics/sweep.js';
 import { assertFinite } from '../kinematics/api.js';
-import { SAFETY_CAUTION, type Caution } from './cautions.js';
+import { SAFETY_CAUTION, type Caution } from '../cautions/cautions.js';
 import { RIG_BOUNDS, RIG_LIMITS, type RigPoint } from '../io/rig-measurement.js';
 
 /** Largest |measured − predicted| a team accepts before a caution, deg. */
