@@ -6,6 +6,7 @@ import { firstValueFrom } from 'rxjs';
 import type { SolveResult } from '../../../../shared/intent/index';
 import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import { innerName, outerName } from '../../../../shared/schema/steering-link';
+import { intentSchema } from '../../../../shared/schema/intent';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
@@ -111,14 +112,18 @@ export class IntentPage implements OnInit {
     return rows;
   });
 
-  /** Problems with the entries, in words; the solve runs only without any. */
+  /**
+   * Problems with the entries, in words; the solve runs only without any. The
+   * form checks only that its texts are numbers; the rules of an intent (bounds
+   * min < max, one of rack.z and the inner height, a droop-to-bump travel
+   * range, what needs the vehicle) are the shared intent schema's, the same the
+   * server and the solver apply. Bounds that leave out the current geometry are
+   * the form's own advice.
+   */
   protected readonly problems = computed(() => {
     const out: string[] = [];
     const kind = this.targetKind();
     if (kind !== 'zeroBump' && parseDecimal(this.targetText()) === null) out.push('Target: enter a number.');
-    if (kind === 'understeer' && !this.vehicleValid()) {
-      out.push('An understeer-gradient target needs complete vehicle data (the vehicle page) to turn it into a roll steer coefficient.');
-    }
     const on = this.movableRows().filter((r) => this.movable()[r.name]?.on);
     if (on.length === 0) out.push('Choose at least one coordinate that may move.');
     for (const r of on) {
@@ -126,21 +131,17 @@ export class IntentPage implements OnInit {
       const lo = parseDecimal(s.min);
       const hi = parseDecimal(s.max);
       if (lo === null || hi === null) out.push(`${r.label}: bounds must be numbers in mm.`);
-      else if (!(lo < hi)) out.push(`${r.label}: the lower bound must be below the upper bound.`);
-      else if (!r.offset && (r.current < lo || r.current > hi)) out.push(`${r.label}: the bounds must include the current ${r.current} mm.`);
+      else if (!r.offset && lo < hi && (r.current < lo || r.current > hi)) out.push(`${r.label}: the bounds must include the current ${r.current} mm.`);
     }
-    if (on.some((r) => r.name === 'rack.z') && on.some((r) => r.name.endsWith('Inner.z'))) {
-      out.push('Rack height and the inner point height move the same point: choose one of them.');
-    }
-    const from = parseDecimal(this.travelFromText());
-    const to = parseDecimal(this.travelToText());
-    if (from === null || to === null || !(from < 0 && to > 0)) out.push('Travel range: from a droop below 0 to a bump above 0 mm.');
-    const bump = parseDecimal(this.bumpText());
-    if (bump === null || bump <= 0) out.push('Single-wheel bump height: a positive number of mm.');
-    if (this.budgetText().trim() !== '') {
-      const budget = parseDecimal(this.budgetText());
-      if (budget === null || budget <= 0) out.push('Bump-cost budget: a positive percentage, or leave it empty.');
-      else if (!this.vehicleValid()) out.push('Bump-cost budget: needs the vehicle data (masses, springs, dampers and tyres).');
+    if (parseDecimal(this.travelFromText()) === null || parseDecimal(this.travelToText()) === null) out.push('Travel range: from a droop below 0 to a bump above 0 mm.');
+    if (parseDecimal(this.bumpText()) === null) out.push('Single-wheel bump height: a positive number of mm.');
+    if (this.budgetText().trim() !== '' && parseDecimal(this.budgetText()) === null) out.push('Bump-cost budget: a positive percentage, or leave it empty.');
+    if (out.length > 0 || !this.design()) return out;
+    const checked = intentSchema.safeParse(this.intentDocument());
+    if (checked.success) return out;
+    for (const issue of checked.error.issues) {
+      const row = this.movableRows().find((r) => issue.path[0] === 'bounds' && issue.path[1] === r.name);
+      out.push(row ? `${row.label}: ${issue.message}.` : `${issue.message}.`);
     }
     return out;
   });
