@@ -38,24 +38,24 @@ export const DEFAULT_SPEEDS_KPH: readonly number[] = Array.from({ length: 20 }, 
 
 export interface BalanceOptions {
   /** Lateral acceleration of the load-transfer term, g (default 0.4). */
-  lateralAccelerationG?: number;
+  lateralAccelerationG?: number | undefined;
   /** Speed of the step steer, km/h (default 80). */
-  speedKph?: number;
+  speedKph?: number | undefined;
   /** Speeds of the gain table, km/h (default 10…200 in steps of 10). */
-  speedsKph?: readonly number[];
+  speedsKph?: readonly number[] | undefined;
   /** Radius of the steer-angle curve, m (default 40). */
-  cornerRadiusM?: number;
+  cornerRadiusM?: number | undefined;
   /** Highest lateral acceleration of the steer curve, g (default 0.8, cut at the validity limit). */
-  steerCurveMaxG?: number;
-  steerCurvePoints?: number;
+  steerCurveMaxG?: number | undefined;
+  steerCurvePoints?: number | undefined;
   /** Road-wheel step steer, deg (default 1). */
-  stepSteerDeg?: number;
+  stepSteerDeg?: number | undefined;
   /** Simulated time of the step, s (default 3). */
-  stepDurationS?: number;
+  stepDurationS?: number | undefined;
   /** Sampling interval of the step metrics, s (default 0.002; crossings interpolated); history rows every 10 ms. */
-  stepSampleS?: number;
+  stepSampleS?: number | undefined;
   /** Rank the inputs by their effect on K (default true). */
-  sensitivity?: boolean;
+  sensitivity?: boolean | undefined;
   /** K points of K(a_y) (default 9, from 0 to the validity limit). */
   gradientPoints?: number;
 }

@@ -17,9 +17,14 @@ import type { AxleName } from '../schema/axle.js';
 // ---------- the two sides ----------
 
 /** Mirrors a RIGHT corner (vehicle frame, y < 0) into the left frame; the rack axis stays a vehicle-frame direction. */
+/** A point as a document holds it: three numbers. */
+function isPoint(v: unknown): v is [number, number, number] {
+  return Array.isArray(v) && v.length === 3 && v.every((n) => typeof n === 'number');
+}
+
 export function rightCornerToLeftFrame(right: unknown): Corner {
   const flip = (v: unknown, key: string): unknown => {
-    if (Array.isArray(v) && v.length === 3 && v.every((n) => typeof n === 'number') && key !== 'rackAxis') return [v[0], -v[1], v[2]];
+    if (isPoint(v) && key !== 'rackAxis') return [v[0], -v[1], v[2]];
     if (Array.isArray(v)) return v.map((x) => flip(x, ''));
     if (v && typeof v === 'object') return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, flip(x, k)]));
     return v;
@@ -174,20 +179,20 @@ export interface AntiOptions {
   cgHeightMm: number;
   wheelbaseMm: number;
   /** Share of braking force on the front axle (0–1); outboard brakes act at the contact patch. */
-  brakeFrontFraction?: number;
+  brakeFrontFraction?: number | undefined;
   /** Share of drive force on the front axle (0–1); drive through half-shafts acts at the wheel centre. */
-  driveFrontFraction?: number;
+  driveFrontFraction?: number | undefined;
 }
 
 export interface AxleKinematicsOptions {
-  rightCorner?: unknown;
-  rackMm?: number;
-  wheelbaseMm?: number;
-  anti?: AntiOptions;
+  rightCorner?: unknown | undefined;
+  rackMm?: number | undefined;
+  wheelbaseMm?: number | undefined;
+  anti?: AntiOptions | undefined;
   /** Rack travel per handwheel revolution, mm (gives the overall steering ratio). */
-  rackMmPerHandwheelRev?: number;
+  rackMmPerHandwheelRev?: number | undefined;
   /** Number of points over the rack stroke for the steering table (default 21). */
-  steeringPoints?: number;
+  steeringPoints?: number | undefined;
 }
 
 export interface SteeringRow {
@@ -383,9 +388,9 @@ export interface RollRackSummary {
 
 export interface RollSweepOptions {
   roll: Range;
-  rackMm?: number[];
-  rightCorner?: unknown;
-  wheelbaseMm?: number;
+  rackMm?: number[] | undefined;
+  rightCorner?: unknown | undefined;
+  wheelbaseMm?: number | undefined;
 }
 
 /** ε and roll camber at φ = 0 for one rack position, from the analytic tangents. */

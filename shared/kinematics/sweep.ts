@@ -64,9 +64,9 @@ export interface SweepFit extends ToeFit {
 export interface SweepOptions {
   travel: Range;
   /** Steering inputs, mm (default [0]). */
-  rackMm?: number[];
+  rackMm?: number[] | undefined;
   /** Travel window for the fits, mm (default: the whole sweep). */
-  fitRange?: { fromMm: number; toMm: number };
+  fitRange?: { fromMm: number; toMm: number } | undefined;
   side?: Side;
 }
 

@@ -40,7 +40,7 @@ export function armStrokeMm(corner: Corner): [number, number] | null {
   const tri = p[innerName(corner)]!;
   const d = st.armAxisDirection;
   const n = Math.hypot(d[0], d[1], d[2]);
-  const r = [tri[0] - st.armAxisPoint[0], tri[1] - st.armAxisPoint[1], tri[2] - st.armAxisPoint[2]];
+  const r: [number, number, number] = [tri[0] - st.armAxisPoint[0], tri[1] - st.armAxisPoint[1], tri[2] - st.armAxisPoint[2]];
   const along = (r[0] * d[0] + r[1] * d[1] + r[2] * d[2]) / n;
   const radius = Math.sqrt(Math.max(0, r[0] ** 2 + r[1] ** 2 + r[2] ** 2 - along ** 2));
   const k = (radius * Math.PI) / 180;
