@@ -1,7 +1,7 @@
 /**
  * `npm test`: every suite on one throwaway PostgreSQL cluster, then one plain
  * closing line `N passed, N failed` summed over all runners.
- *   1. type check of shared/, server/ and test/ (tsc)
+ *   1. type check of shared/, server/ and test/ (tsc), and of shared/ under tsconfig.shared.json's stricter options
  *   2. vitest: engine (shared) and API (server, real PostgreSQL)
  *   3. Angular component specs (ng test: vitest + jsdom)
  *   4. production build of the app, then browser tests (playwright-core + Chromium)
@@ -84,7 +84,10 @@ async function main(): Promise<number> {
     console.log('\n[rollwise] type check (tsc)…');
     await timed(async () => {
       const tsc = await run(bin('tsc'), ['-p', 'tsconfig.node.json'], env);
-      tallies.push({ step: 'type check', passed: tsc.code === 0 ? 1 : 0, failed: tsc.code === 0 ? 0 : 1 });
+      // shared/ again under the stricter options (noUncheckedIndexedAccess, exactOptionalPropertyTypes).
+      const strict = await run(bin('tsc'), ['-p', 'tsconfig.shared.json'], env);
+      const ok = tsc.code === 0 && strict.code === 0;
+      tallies.push({ step: 'type check', passed: ok ? 1 : 0, failed: ok ? 0 : 1 });
     });
 
     console.log('\n[rollwise] engine and API tests (vitest)…');

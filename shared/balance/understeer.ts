@@ -182,11 +182,6 @@ export function understeerGradientAt(core: BalanceCore, lateralG: number): numbe
   return axleSlipGradientDegPerG(core.front, lateralG) + core.front.steerOutDegPerG - axleSlipGradientDegPerG(core.rear, lateralG) - core.rear.steerOutDegPerG;
 }
 
-/** On-centre understeer gradient K(a_y → 0), deg/g: what the characteristic and critical speeds, the gains and the step steer use. */
-export function onCentreUndersteerGradient(core: BalanceCore): number {
-  return understeerGradientAt(core, 0);
-}
-
 /**
  * Road-wheel steer beyond the kinematic L/R at steady lateral acceleration A
  * (g), deg: the axle slips and steer-outs of this model at A (its secant, not

@@ -24,7 +24,7 @@ export const configurationInputsSchema = z.strictObject({
   rearCorner: z.unknown(),
   trackProfile: z.enum(TRACK_PROFILE_IDS),
 });
-export type ConfigurationInputs = z.infer<typeof configurationInputsSchema>;
+type ConfigurationInputs = z.infer<typeof configurationInputsSchema>;
 
 export interface ConfigurationAnalysis {
   /** The balance engine's answer for the vehicle with both corners linked. */

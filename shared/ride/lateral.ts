@@ -116,9 +116,4 @@ export function lateralGains(m: LateralModel, axleStiffnessNPerRad: number, w: n
   out[2] = f2 * (ar * ar + ai * ai);
 }
 
-/** Steady yaw rate of a corner of radius R at speed V, rad/s (V/R). */
-export function steadyYawRate(speedMps: number, radiusM: number): number {
-  return speedMps / radiusM;
-}
-
 export { G };

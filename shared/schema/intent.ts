@@ -18,7 +18,7 @@ import { AXLE_NAMES } from './axle.js';
 // The steering-link helpers and the movable-coordinate pattern live in a
 // zod-free module (the browser's kinematics worker uses them without the
 // schema); re-exported here for the intent code.
-export { innerName, outerName, steeringStrokeMm, MOVABLE_COORDINATE_PATTERN, type MovableCoordinate } from './steering-link.js';
+export { innerName, outerName, steeringStrokeMm, MOVABLE_COORDINATE_PATTERN } from './steering-link.js';
 
 export const INTENT_FORMAT_VERSION = 1 as const;
 /** Largest number of travel points per sweep a solve accepts (it runs dozens of sweeps). */
@@ -38,7 +38,7 @@ export const intentTargetSchema = z.union([
   /** Roll steer plus compliance steer of the axle (deg/g, positive out of the turn), compliance from the corner's bushings or the vehicle. */
   z.strictObject({ rollAndComplianceSteerDegPerG: finite('target.rollAndComplianceSteerDegPerG').min(-20).max(20) }),
 ], { error: 'target must be { rollSteerCoefficient }, { understeerChangeDegPerG }, { zeroBumpSteer: true } or { rollAndComplianceSteerDegPerG }' });
-export type IntentTarget = z.infer<typeof intentTargetSchema>;
+type IntentTarget = z.infer<typeof intentTargetSchema>;
 
 export const trackProfileChoiceSchema = z.union([
   z.enum(TRACK_PROFILE_IDS),
