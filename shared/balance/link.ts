@@ -95,7 +95,7 @@ function linkAxle(v: Vehicle, name: AxleName, corner: Corner | undefined, o: Axl
   axle.rollSteerCoefficient = eps.value ?? 0;
   axle.rollCamberDegPerDeg = camber.value ?? 0;
   axle.rollCentreHeightMm = rc.value!;
-  let spring = { value: axle.spring?.motionRatio as number | undefined, source: (axle.spring ? 'vehicle' : 'not-applicable') as ValueSource };
+  let spring = { value: axle.spring?.motionRatio, source: (axle.spring ? 'vehicle' : 'not-applicable') as ValueSource };
   if (axle.spring && axle.rollStiffnessNmPerDeg === undefined) {
     spring = pick(o?.springMotionRatio, kin?.springMotionRatio, axle.spring.motionRatio);
     axle.spring.motionRatio = spring.value!;
@@ -207,7 +207,7 @@ export function linkVehicle(c: BalanceCase, options: { lateralAccelerationG?: nu
   let f = linkFront();
   for (let pass = 0; iterate && pass < 3; pass++) {
     const beyond = blame(`${prefix}vehicle`, () => steerBeyondKinematicDeg(balanceCore({ ...v, front: f.axle, rear: r.axle }), lateralG));
-    const next = ackermannDeg! + beyond;
+    const next = ackermannDeg + beyond;
     if (Math.abs(next - steerDeg!) < 1e-4) break;
     steerDeg = next;
     f = linkFront();

@@ -166,7 +166,7 @@ export function thresholdsFor(
   overrides: CautionThresholds = {},
 ): LevelThresholds {
   const d = CAUTION_RULES[code].defaults;
-  const base: LevelThresholds = 'info' in d || 'warning' in d || 'critical' in d ? (d as LevelThresholds) : (d as Record<TrackProfileId, LevelThresholds>)[profile];
+  const base: LevelThresholds = 'info' in d || 'warning' in d || 'critical' in d ? d : (d as Record<TrackProfileId, LevelThresholds>)[profile];
   return { ...base, ...(overrides[code] ?? {}) };
 }
 

@@ -77,7 +77,7 @@ function rates(b: Bushing | undefined): Rates | null {
 export function complianceSpec(m: CornerModel): ComplianceSpec {
   const hit = specCache.get(m);
   if (hit) return hit;
-  const c = m.corner as Corner;
+  const c = m.corner;
   const b = (c.bushings ?? {}) as Record<string, Bushing | undefined>;
   const la = (c.linkAxialNPerMm ?? {}) as Record<string, number | undefined>;
   const steering = c.steered && c.steeringStiffnessNPerMm ? 1 / c.steeringStiffnessNPerMm : 0;

@@ -433,7 +433,7 @@ export class CornerSolver {
       let next = this.sc[0]!;
       let tries = 0;
       while (!(next < res) && tries < 12) {
-        sc[2]! *= 0.5;
+        sc[2] *= 0.5;
         this.applyStep(dx);
         this.evaluate();
         next = this.sc[0]!;

@@ -202,7 +202,7 @@ export function compareRigMeasurement(corner: Corner, measured: readonly RigPoin
     });
   } catch (e) {
     if (!(e instanceof SolveError)) throw e;
-    const at = typeof e.details['travelMm'] === 'number' ? (e.details['travelMm'] as number) : null;
+    const at = typeof e.details['travelMm'] === 'number' ? e.details['travelMm'] : null;
     const beyond = at === null ? null : at >= 0 ? pts.reduce((a, b) => (b.travelMm > a.travelMm ? b : a)) : pts.reduce((a, b) => (b.travelMm < a.travelMm ? b : a));
     throw new SolveError(
       'unreachable_pose',
