@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { Component, computed, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -20,7 +20,8 @@ interface ShownMail extends CapturedMail {
  * confirmation or invitation link reaches anyone but its addressee.
  */
 @Component({
-  selector: 'app-dev-mail-page',
+  selector: 'rw-dev-mail-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [DatePipe, MatButtonModule, MatIconModule],
   templateUrl: './dev-mail-page.html',
   styleUrl: './dev-mail-page.scss',

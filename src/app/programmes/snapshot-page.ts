@@ -1,4 +1,4 @@
-import { Component, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -13,7 +13,8 @@ import { ProgrammesApi, Snapshot } from './programmes-api';
 
 /** `/programmes/:programmeId/snapshots/:snapshotId`: the board as it was frozen, and its CSV. */
 @Component({
-  selector: 'app-snapshot-page',
+  selector: 'rw-snapshot-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [RouterLink, MatButtonModule, MatIconModule, MatProgressSpinnerModule, SafetyCaution, BoardTable],
   template: `
     <section class="rw-page">
@@ -47,7 +48,7 @@ import { ProgrammesApi, Snapshot } from './programmes-api';
         @if (snap.board.rows.length === 0) {
           <div class="rw-state" role="status">The board was empty when this snapshot was taken.</div>
         } @else {
-          <app-board-table [board]="snap.board" [timeZone]="timeZone" [caption]="'Snapshot ' + (snap.label ?? '')" />
+          <rw-board-table [board]="snap.board" [timeZone]="timeZone" [caption]="'Snapshot ' + (snap.label ?? '')" />
         }
       }
     </section>

@@ -1,4 +1,4 @@
-import { Component, computed, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -19,7 +19,8 @@ import { ProgrammesApi, TeamProgramme } from './programmes-api';
  * in. Accepting lets that programme's instructor read the team (never write).
  */
 @Component({
-  selector: 'app-team-programmes-page',
+  selector: 'rw-team-programmes-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatButtonModule, MatIconModule, MatProgressSpinnerModule],
   templateUrl: './team-programmes-page.html',
   styleUrl: './team-programmes-page.scss',

@@ -1,4 +1,4 @@
-import { Component, computed, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -19,7 +19,8 @@ import { Notifier } from '../core/layout/notifier';
 
 /** `/teams/:teamId`: the team's vehicles, with the commands the caller's roles allow. */
 @Component({
-  selector: 'app-team-dashboard-page',
+  selector: 'rw-team-dashboard-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     FormsModule,
     MatButtonModule,

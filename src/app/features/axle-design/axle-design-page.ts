@@ -27,6 +27,7 @@ import { LinkageViews } from './linkage-views';
 import { BumpCostView } from '../bump-cost';
 import { CornerCautions } from './corner-cautions';
 import { TrackProfileSelect } from './track-profile-select';
+import { NumPipe } from '../../core/format/num-pipe';
 
 interface Conflict {
   readonly theirs: AxleDesign;
@@ -53,7 +54,7 @@ function profileStorageKey(designId: string): string {
  */
 @Component({
   selector: 'rw-axle-design-page',
-  imports: [DatePipe, RouterLink, MatButton, MatProgressBar, HardpointTable, HardpointImport, LinkageViews, LineChart, SafetyCaution, CornerCautions, BumpCostView, TrackProfileSelect, RigMeasurementsPanel],
+  imports: [NumPipe, DatePipe, RouterLink, MatButton, MatProgressBar, HardpointTable, HardpointImport, LinkageViews, LineChart, SafetyCaution, CornerCautions, BumpCostView, TrackProfileSelect, RigMeasurementsPanel],
   templateUrl: './axle-design-page.html',
   styleUrl: './axle-design-page.scss',
   providers: [KinematicsClient],
@@ -484,10 +485,6 @@ export class AxleDesignPage implements OnInit {
     const vehicle = c.vehicleUsed ? "the vehicle's tyres, loads and roll" : `product default tyre figures (${c.vehicleNote ?? 'no vehicle'})`;
     return `Measured ${where}${racks}, with ${vehicle}; thresholds are the product defaults for ${p.label.toLowerCase()}.`;
   });
-
-  protected fmt(v: number | undefined, digits = 3): string {
-    return v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
-  }
 
   protected vec(v: Vec3 | undefined): string {
     return v ? v.map((n) => String(Number(n.toPrecision(8)))).join(', ') : '(none)';

@@ -17,6 +17,7 @@ import { parseDecimal } from './hardpoint-io';
 import { HardpointImportApi, ImportPreview } from './hardpoint-import-api';
 import { LinkageViews } from './linkage-views';
 import { MatButton } from '@angular/material/button';
+import { NumPipe } from '../../core/format/num-pipe';
 
 /** Where the server's reading of the chosen file stands. */
 type ImportState =
@@ -39,7 +40,7 @@ type ImportState =
  */
 @Component({
   selector: 'rw-hardpoint-import',
-  imports: [LinkageViews, MatButton],
+  imports: [NumPipe, LinkageViews, MatButton],
   templateUrl: './hardpoint-import.html',
   styleUrl: './hardpoint-import.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -94,10 +95,6 @@ export class HardpointImport {
   });
 
   protected readonly canApply = computed(() => (this.mapped()?.size ?? 0) > 0);
-
-  protected fmt(v: number): string {
-    return formatNumber(v, 7);
-  }
 
   protected chooseFile(event: Event): void {
     const file = (event.target as HTMLInputElement).files?.[0];

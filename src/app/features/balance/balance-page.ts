@@ -17,6 +17,7 @@ import { BarGroup, LineSeries } from '../../charts/chart-types';
 import { AxleDesignSummary, FeaturesApi, VehicleRecord } from '../features-api';
 import { routeParam } from '../route-params';
 import { SafetyCaution } from '../safety-caution';
+import { NumPipe } from '../../core/format/num-pipe';
 
 const BUDGET_LABELS: readonly [keyof BalanceResponse['understeerBudget'], string][] = [
   ['tyres', 'Tyres'],
@@ -46,7 +47,7 @@ interface KeyFigure {
  */
 @Component({
   selector: 'rw-balance-page',
-  imports: [RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution],
+  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution],
   templateUrl: './balance-page.html',
   styleUrl: './balance-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -221,10 +222,6 @@ export class BalancePage implements OnInit {
 
   protected designName(id: string): string {
     return this.designs().find((d) => d.id === id)?.name ?? 'values entered on the vehicle page';
-  }
-
-  protected fmt(v: number | null | undefined, digits = 3): string {
-    return v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
   }
 
   protected change(f: KeyFigure): string {

@@ -12,6 +12,8 @@ import { AxleDesign, AxleDesignSummary, FeaturesApi } from '../features-api';
 import { routeParam } from '../route-params';
 import { rollSteerWords } from '../roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
+import { formatNum } from '../../core/format/num';
+import { NumPipe } from '../../core/format/num-pipe';
 
 interface Compared {
   readonly design: AxleDesign;
@@ -38,7 +40,7 @@ const ROLL = { from: -3, to: 3, step: 0.25 };
  */
 @Component({
   selector: 'rw-compare-page',
-  imports: [RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution],
+  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution],
   templateUrl: './compare-page.html',
   styleUrl: './compare-page.scss',
   providers: [KinematicsClient],
@@ -159,15 +161,11 @@ export class ComparePage implements OnInit {
     this.running.set(false);
   }
 
-  protected fmt(v: number | null, digits: number): string {
-    return v === null || !Number.isFinite(v) ? '–' : v.toFixed(digits);
-  }
-
   /** True where a value differs from the first design's at the shown precision. */
   protected differs(row: FigureRow, i: number): boolean {
     const first = row.values[0];
     const v = row.values[i];
-    return i > 0 && first !== null && first !== undefined && v !== null && v !== undefined && this.fmt(v, row.digits) !== this.fmt(first, row.digits);
+    return i > 0 && first !== null && first !== undefined && v !== null && v !== undefined && formatNum(v, { decimals: row.digits }) !== formatNum(first, { decimals: row.digits });
   }
 
   protected checked(event: Event): boolean {

@@ -30,9 +30,10 @@ import {
   TransitionRow,
 } from './configurations-api';
 import { RefOption, ReviewComments } from './review-comments';
-import { ActionSpec, actionsFor, CHART_REFS, diffValue, fmt, keyFigures, pathLabel, problemText, STATUS_WORDS } from './review-words';
+import { ActionSpec, actionsFor, CHART_REFS, diffValue, keyFigures, pathLabel, problemText, STATUS_WORDS } from './review-words';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { StatusChip } from './status-chip';
+import { NumPipe } from '../../core/format/num-pipe';
 
 type Load<T> = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; value: T };
 
@@ -73,7 +74,7 @@ interface FrozenFigure {
  */
 @Component({
   selector: 'rw-configuration-page',
-  imports: [RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel],
+  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel],
   providers: [KinematicsClient],
   templateUrl: './configuration-page.html',
   styleUrl: './configuration-page.scss',
@@ -89,7 +90,6 @@ export class ConfigurationPage implements OnInit {
   protected readonly teamId = routeParam(this.route, 'teamId');
   protected readonly configurationId = routeParam(this.route, 'configurationId');
   protected readonly timeZone = browserTimeZone();
-  protected readonly fmt = fmt;
   protected readonly diffValue = diffValue;
   protected readonly pathLabel = pathLabel;
   protected localTime(iso: string): string {

@@ -21,6 +21,7 @@ import { parseDecimal } from '../axle-design/hardpoint-io';
 import { pointName } from '../axle-design/hardpoint-model';
 import { CautionList } from './caution-list';
 import { BumpCostView } from '../bump-cost';
+import { NumPipe } from '../../core/format/num-pipe';
 
 export type TargetKind = 'epsilon' | 'toePerRoll' | 'understeer' | 'zeroBump';
 
@@ -49,7 +50,7 @@ const DEFAULT_HALF_RANGE_MM = 20;
  */
 @Component({
   selector: 'rw-intent-page',
-  imports: [RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution, CautionList, BumpCostView],
+  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution, CautionList, BumpCostView],
   templateUrl: './intent-page.html',
   styleUrl: './intent-page.scss',
   providers: [IntentClient],
@@ -363,10 +364,6 @@ export class IntentPage implements OnInit {
     } finally {
       this.proposing.set(false);
     }
-  }
-
-  protected fmt(v: number | null | undefined, digits = 3): string {
-    return v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
   }
 
   protected words(eps: number): string {

@@ -21,6 +21,7 @@ import { rollSteerWords } from '../roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { BumpCostView } from '../bump-cost';
 import { DEFAULT_TRACK_PROFILE } from '../../../../shared/intent/profiles';
+import { NumPipe } from '../../core/format/num-pipe';
 
 const TRAVEL = { from: -25, to: 25, step: 2.5 };
 const ROLL = { from: -3, to: 3, step: 0.25 };
@@ -34,9 +35,11 @@ const ROLL = { from: -3, to: 3, step: 0.25 };
  */
 @Component({
   selector: 'rw-design-report-page',
-  imports: [DatePipe, RouterLink, MatButton, HardpointTable, LineChart, BarChart, CautionList, SafetyCaution, BumpCostView],
+  imports: [NumPipe, DatePipe, RouterLink, MatButton, HardpointTable, LineChart, BarChart, CautionList, SafetyCaution, BumpCostView],
   templateUrl: './design-report-page.html',
   styleUrl: './design-report-page.scss',
+  // The print stylesheet reaches the app shell (hides the top bar when printing).
+  // eslint-disable-next-line @angular-eslint/use-component-view-encapsulation
   encapsulation: ViewEncapsulation.None,
   providers: [KinematicsClient],
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -167,7 +170,4 @@ export class DesignReportPage implements OnInit {
     globalThis.print();
   }
 
-  protected fmt(v: number | null | undefined, digits = 3): string {
-    return v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
-  }
 }

@@ -25,6 +25,7 @@ import type { LoadState } from '../../core/http/load-state';
 import { CautionList } from '../intent/caution-list';
 import { SafetyCaution } from '../safety-caution';
 import { RigApi, type RigMeasurementDetail, type RigMeasurementSummary, type RigPreviewAnswer, type RigTarget, type RigToleranceView } from './rig-api';
+import { NumPipe } from '../../core/format/num-pipe';
 
 /** Where the upload of a new file stands. */
 type UploadState =
@@ -61,7 +62,7 @@ const UNIT_WORDS: Readonly<Record<string, string>> = {
  */
 @Component({
   selector: 'rw-rig-measurements',
-  imports: [MatButton, LineChart, CautionList, SafetyCaution],
+  imports: [NumPipe, MatButton, LineChart, CautionList, SafetyCaution],
   templateUrl: './rig-measurements-panel.html',
   styleUrl: './rig-measurements-panel.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -119,7 +120,7 @@ export class RigMeasurementsPanel {
   protected readonly toleranceCamberText = signal('');
 
   private file: Blob | null = null;
-  private fileText = signal<string | null>(null);
+  private readonly fileText = signal<string | null>(null);
   private requests = new Subscription();
 
   constructor() {
@@ -232,10 +233,6 @@ export class RigMeasurementsPanel {
   protected readonly timeZone = browserTimeZone();
   protected localTime(iso: string): string {
     return formatLocalTime(iso, this.timeZone);
-  }
-
-  protected fmt(v: number, digits = 4): string {
-    return formatNumber(v, digits);
   }
 
   protected statsRows(c: RigComparison): { label: string; s: RigStats }[] {

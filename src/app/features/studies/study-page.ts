@@ -15,6 +15,7 @@ import { TeamAccess } from '../../core/teams/team-access';
 import { routeParam } from '../route-params';
 import { SafetyCaution } from '../safety-caution';
 import { etaWords, STATUS_WORDS, StudiesApi, type StudyView } from './studies-api';
+import { NumPipe } from '../../core/format/num-pipe';
 
 type StudyState = { kind: 'loading' } | { kind: 'error'; message: string; gone: boolean } | { kind: 'ready'; study: StudyView };
 
@@ -29,7 +30,7 @@ const LEVEL_WORDS = { info: 'Notice', warning: 'Warning', critical: 'Critical' }
  */
 @Component({
   selector: 'rw-study-page',
-  imports: [RouterLink, MatButton, MatIcon, MatProgressBar, BarChart, LineChart, SafetyCaution],
+  imports: [NumPipe, RouterLink, MatButton, MatIcon, MatProgressBar, BarChart, LineChart, SafetyCaution],
   templateUrl: './study-page.html',
   styleUrl: './studies.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -44,7 +45,6 @@ export class StudyPage implements OnInit, OnDestroy {
   protected readonly state = signal<StudyState>({ kind: 'loading' });
   protected readonly statusWords = STATUS_WORDS;
   protected readonly levelWords = LEVEL_WORDS;
-  protected readonly fmt = (v: number | null | undefined, d = 4) => (v === null || v === undefined ? '—' : formatNumber(v, d));
   protected readonly pct = (p: number) => `${formatNumber(100 * p, 3)} %`;
   private readonly timeZone = browserTimeZone();
   private timer: ReturnType<typeof setTimeout> | null = null;
