@@ -1,7 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, DestroyRef, inject, input, output, signal } from '@angular/core';
 import { Subscription } from 'rxjs';
 import type { Corner, Vec3 } from '../../../../shared/schema/corner';
-import { formatNumber } from '../../charts/chart-types';
 import { apiProblem } from '../../core/http/api-error';
 import {
   AXIS_DIRECTIONS,
@@ -18,6 +17,7 @@ import { HardpointImportApi, ImportPreview } from './hardpoint-import-api';
 import { LinkageViews } from './linkage-views';
 import { MatButton } from '@angular/material/button';
 import { NumPipe } from '../../core/format/num-pipe';
+import { inputValue } from '../../core/forms/dom-events';
 
 /** Where the server's reading of the chosen file stands. */
 type ImportState =
@@ -46,6 +46,7 @@ type ImportState =
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class HardpointImport {
+  protected readonly inputValue = inputValue;
   private readonly api = inject(HardpointImportApi);
 
   readonly corner = input.required<Corner>();
