@@ -5,6 +5,7 @@ import { MIN_PASSWORD_LENGTH, matchingPasswords } from '../auth/password-rules';
 import { NewPasswordFields } from './new-password-fields';
 
 @Component({
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [ReactiveFormsModule, NewPasswordFields],
   template: `<form [formGroup]="form">
     <rw-new-password-fields label="New password" repeatLabel="Repeat new password" requiredMessage="Choose a new password." passwordControl="newPassword" />

@@ -19,13 +19,14 @@ import {
 } from '../../../../shared/io/rig-measurement';
 import type { RigBasis, RigComparison, RigStats } from '../../../../shared/intent/rig-compare';
 import { LineChart } from '../../charts/line-chart';
-import { formatNumber, type LineSeries } from '../../charts/chart-types';
+import { type LineSeries } from '../../charts/chart-types';
 import { apiProblem } from '../../core/http/api-error';
 import type { LoadState } from '../../core/http/load-state';
 import { CautionList } from '../intent/caution-list';
 import { SafetyCaution } from '../safety-caution';
 import { RigApi, type RigMeasurementDetail, type RigMeasurementSummary, type RigPreviewAnswer, type RigTarget, type RigToleranceView } from './rig-api';
 import { NumPipe } from '../../core/format/num-pipe';
+import { inputChecked, inputValue, optionValue } from '../../core/forms/dom-events';
 
 /** Where the upload of a new file stands. */
 type UploadState =
@@ -68,6 +69,9 @@ const UNIT_WORDS: Readonly<Record<string, string>> = {
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class RigMeasurementsPanel {
+  protected readonly inputChecked = inputChecked;
+  protected readonly inputValue = inputValue;
+  protected readonly optionValue = optionValue;
   private readonly api = inject(RigApi);
   private readonly dialog = inject(MatDialog);
 
