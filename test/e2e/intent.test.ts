@@ -131,7 +131,7 @@ describe('Intent panel in Chromium', () => {
     await designer.locator('[data-testid="report"] rw-line-chart path.rw-series-line').first().waitFor();
     await designer.locator('[data-testid="report"] rw-bar-chart rect.rw-bar').first().waitFor();
     await designer.emulateMedia({ media: 'print' });
-    await expect(designer.locator('app-root > header').isVisible()).resolves.toBe(false);
+    await expect(designer.locator('rw-root > header').isVisible()).resolves.toBe(false);
     await expect(designer.getByRole('button', { name: 'Print' }).isVisible()).resolves.toBe(false);
     await expect(designer.locator('rw-safety-caution').isVisible()).resolves.toBe(true);
     await saveScreenshot(designer, 'report-print');

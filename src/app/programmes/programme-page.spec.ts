@@ -112,8 +112,8 @@ describe('ProgrammePage', () => {
     const { root } = await render();
     const buttons = [...root.querySelectorAll('button')].map((b) => b.textContent?.trim());
     expect(buttons).toEqual(['group_add Invite team', 'refresh Refresh board', 'photo_camera Take snapshot']);
-    expect(root.querySelectorAll('app-board-table input, app-board-table button, app-board-table select')).toHaveLength(0);
-    expect([...root.querySelectorAll('app-board-table a')].every((a) => /^\/teams\/[^/]+\/configurations\/[^/]+$/.test(a.getAttribute('href')!))).toBe(true);
+    expect(root.querySelectorAll('rw-board-table input, rw-board-table button, rw-board-table select')).toHaveLength(0);
+    expect([...root.querySelectorAll('rw-board-table a')].every((a) => /^\/teams\/[^/]+\/configurations\/[^/]+$/.test(a.getAttribute('href')!))).toBe(true);
   });
 
   it('explains an empty board', async () => {

@@ -1,4 +1,4 @@
-import { Component, computed, inject, input, signal, WritableSignal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal, WritableSignal } from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -36,7 +36,8 @@ const TEAM_STATUS_WORDS: Readonly<Record<ProgrammeTeamStatus, string>> = {
  * instructor only reads the teams: nothing here changes a team's data.
  */
 @Component({
-  selector: 'app-programme-page',
+  selector: 'rw-programme-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     ReactiveFormsModule,
     RouterLink,

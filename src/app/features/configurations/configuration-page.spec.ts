@@ -1,7 +1,7 @@
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting, TestRequest } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
+import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { exampleVehicles } from '../../../../shared/balance/examples';
 import { analyseConfiguration } from '../../../../shared/configuration/analyse';
@@ -96,7 +96,7 @@ describe('ConfigurationPage', () => {
   beforeEach(async () => {
     engine = new FakeEngine();
     TestBed.configureTestingModule({
-      providers: [provideRouter([{ path: 'teams/:teamId/configurations/:configurationId', component: ConfigurationPage }]), provideHttpClient(), provideHttpClientTesting()],
+      providers: [provideRouter([{ path: 'teams/:teamId/configurations/:configurationId', component: ConfigurationPage }], withComponentInputBinding()), provideHttpClient(), provideHttpClientTesting()],
     });
     TestBed.overrideComponent(ConfigurationPage, { set: { providers: [{ provide: KinematicsClient, useValue: engine }] } });
     await TestBed.compileComponents();

@@ -1,8 +1,8 @@
 import { BumpCostView } from '../bump-cost';
 import type { BumpCost } from '../../../../shared/ride/cost';
 import { RigMeasurementsPanel } from '../rig/rig-measurements-panel';
-import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal, viewChild } from '@angular/core';
-import { ActivatedRoute, RouterLink } from '@angular/router';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
+import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
@@ -16,7 +16,6 @@ import type { BarGroup, LineSeries } from '../../charts/chart-types';
 import { AnalysisError, KinematicsClient } from '../../workers/kinematics-client';
 import { CornerCautions } from '../axle-design/corner-cautions';
 import { AxleDesignSummary, FeaturesApi } from '../features-api';
-import { routeParam } from '../route-params';
 import { SafetyCaution } from '../safety-caution';
 import {
   ApprovalDetail,
@@ -30,9 +29,12 @@ import {
   TransitionRow,
 } from './configurations-api';
 import { RefOption, ReviewComments } from './review-comments';
-import { ActionSpec, actionsFor, CHART_REFS, diffValue, fmt, keyFigures, pathLabel, problemText, STATUS_WORDS } from './review-words';
+import { ActionSpec, actionsFor, CHART_REFS, diffValue, keyFigures, pathLabel, problemText, STATUS_WORDS } from './review-words';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { StatusChip } from './status-chip';
+import { NumPipe } from '../../core/format/num-pipe';
+import { optionValue } from '../../core/forms/dom-events';
+import { routeKey } from '../route-params';
 import type { AxleName } from '../../../../shared/schema/axle';
 
 type Load<T> = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; value: T };
@@ -74,25 +76,34 @@ interface FrozenFigure {
  */
 @Component({
   selector: 'rw-configuration-page',
-  imports: [RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel],
+  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel],
   providers: [KinematicsClient],
   templateUrl: './configuration-page.html',
   styleUrl: './configuration-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class ConfigurationPage implements OnInit {
-  private readonly route = inject(ActivatedRoute);
+export class ConfigurationPage {
+  protected readonly optionValue = optionValue;
   private readonly api = inject(ConfigurationsApi);
   private readonly features = inject(FeaturesApi);
   private readonly engine = inject(KinematicsClient);
   protected readonly access = inject(TeamAccess);
 
-  protected readonly teamId = routeParam(this.route, 'teamId');
-  protected readonly configurationId = routeParam(this.route, 'configurationId');
+  readonly teamId = input.required<string>();
+  readonly configurationId = input.required<string>();
   protected readonly timeZone = browserTimeZone();
-  protected readonly fmt = fmt;
   protected readonly diffValue = diffValue;
   protected readonly pathLabel = pathLabel;
+  constructor() {
+    // Loads on arrival and again when the router reuses this page for other route parameters.
+    effect(() => {
+      routeKey(this.teamId(), this.configurationId());
+      untracked(() => {
+        void this.loadAll();
+      });
+    });
+  }
+
   protected localTime(iso: string): string {
     return formatLocalTime(iso, this.timeZone);
   }
@@ -201,14 +212,10 @@ export class ConfigurationPage implements OnInit {
   protected readonly comparison = signal<Load<CompareAnswer> | null>(null);
   protected readonly compareChoices = computed(() => this.others());
 
-  ngOnInit(): void {
-    void this.loadAll();
-  }
-
   protected async loadAll(): Promise<void> {
     this.config.set({ kind: 'loading' });
     try {
-      const [c] = await Promise.all([firstValueFrom(this.api.get(this.teamId, this.configurationId)), firstValueFrom(this.access.load(this.teamId)).catch(() => null)]);
+      const [c] = await Promise.all([firstValueFrom(this.api.get(this.teamId(), this.configurationId())), firstValueFrom(this.access.load(this.teamId())).catch(() => null)]);
       this.config.set({ kind: 'ready', value: c });
       this.compareB.set(c.id);
       void this.loadResults(c);
@@ -221,11 +228,11 @@ export class ConfigurationPage implements OnInit {
   /** History, revisions, approvals and the team's other configurations (for compare). */
   private async loadSide(c: Configuration): Promise<void> {
     const [history, revisions, approvals, others, designs] = await Promise.all([
-      firstValueFrom(this.api.history(this.teamId, c.id)).catch(() => []),
-      firstValueFrom(this.api.revisions(this.teamId, c.id)).catch(() => []),
-      firstValueFrom(this.api.approvals(this.teamId, c.id)).catch(() => []),
-      firstValueFrom(this.api.list(this.teamId)).catch(() => []),
-      firstValueFrom(this.features.axleDesigns(this.teamId, c.vehicle.id)).catch(() => []),
+      firstValueFrom(this.api.history(this.teamId(), c.id)).catch(() => []),
+      firstValueFrom(this.api.revisions(this.teamId(), c.id)).catch(() => []),
+      firstValueFrom(this.api.approvals(this.teamId(), c.id)).catch(() => []),
+      firstValueFrom(this.api.list(this.teamId())).catch(() => []),
+      firstValueFrom(this.features.axleDesigns(this.teamId(), c.vehicle.id)).catch(() => []),
     ]);
     this.history.set(history);
     this.revisions.set(revisions);
@@ -240,7 +247,7 @@ export class ConfigurationPage implements OnInit {
     this.results.set({ kind: 'loading' });
     this.cautions.set({ kind: 'loading' });
     try {
-      this.results.set({ kind: 'ready', value: await firstValueFrom(this.api.results(this.teamId, c.id)) });
+      this.results.set({ kind: 'ready', value: await firstValueFrom(this.api.results(this.teamId(), c.id)) });
     } catch (error) {
       this.results.set({ kind: 'error', message: problemText(error) });
     }
@@ -251,9 +258,9 @@ export class ConfigurationPage implements OnInit {
   private async loadCautions(c: Configuration): Promise<void> {
     try {
       const [vehicle, front, rear] = await Promise.all([
-        firstValueFrom(this.api.vehicleRevision(this.teamId, c.vehicle.id, c.vehicle.revision)),
-        firstValueFrom(this.api.designRevision(this.teamId, c.front.designId, c.front.revision)),
-        firstValueFrom(this.api.designRevision(this.teamId, c.rear.designId, c.rear.revision)),
+        firstValueFrom(this.api.vehicleRevision(this.teamId(), c.vehicle.id, c.vehicle.revision)),
+        firstValueFrom(this.api.designRevision(this.teamId(), c.front.designId, c.front.revision)),
+        firstValueFrom(this.api.designRevision(this.teamId(), c.rear.designId, c.rear.revision)),
       ]);
       const p = trackProfiles[c.trackProfile];
       const [from, to] = p.travelMm;
@@ -287,7 +294,7 @@ export class ConfigurationPage implements OnInit {
   protected async showApproval(id: string): Promise<void> {
     this.approval.set({ kind: 'loading' });
     try {
-      this.approval.set({ kind: 'ready', value: await firstValueFrom(this.api.approval(this.teamId, this.configurationId, id)) });
+      this.approval.set({ kind: 'ready', value: await firstValueFrom(this.api.approval(this.teamId(), this.configurationId(), id)) });
     } catch (error) {
       this.approval.set({ kind: 'error', message: problemText(error) });
     }
@@ -305,7 +312,7 @@ export class ConfigurationPage implements OnInit {
     this.stepError.set(null);
     this.stepNotice.set(null);
     try {
-      const after = await firstValueFrom(this.api.act(this.teamId, c.id, a.action, c.revision, message || undefined));
+      const after = await firstValueFrom(this.api.act(this.teamId(), c.id, a.action, c.revision, message || undefined));
       this.config.set({ kind: 'ready', value: after });
       this.stepMessage.set('');
       this.stepNotice.set(`${a.label}: done. The configuration is now ${STATUS_WORDS[after.status].label.toLowerCase()}.`);
@@ -321,7 +328,7 @@ export class ConfigurationPage implements OnInit {
 
   private async reloadConfig(): Promise<void> {
     try {
-      const c = await firstValueFrom(this.api.get(this.teamId, this.configurationId));
+      const c = await firstValueFrom(this.api.get(this.teamId(), this.configurationId()));
       this.config.set({ kind: 'ready', value: c });
     } catch {
       /* the error shown stays */
@@ -370,7 +377,7 @@ export class ConfigurationPage implements OnInit {
     this.stepBusy.set(true);
     this.reviseError.set(null);
     try {
-      const after = await firstValueFrom(this.api.revise(this.teamId, c.id, change));
+      const after = await firstValueFrom(this.api.revise(this.teamId(), c.id, change));
       this.config.set({ kind: 'ready', value: after });
       this.revising.set(false);
       this.stepNotice.set(`Saved as revision ${after.revision}; the configuration is a draft again.`);
@@ -391,7 +398,7 @@ export class ConfigurationPage implements OnInit {
     this.stepBusy.set(true);
     this.stepError.set(null);
     try {
-      const after = await firstValueFrom(this.api.setArchived(this.teamId, c.id, archived));
+      const after = await firstValueFrom(this.api.setArchived(this.teamId(), c.id, archived));
       this.config.set({ kind: 'ready', value: after });
       this.stepNotice.set(archived ? 'Archived: hidden from the list (shown with “Show archived”), kept with its history and approvals.' : 'Restored to the list.');
     } catch (error) {
@@ -409,7 +416,7 @@ export class ConfigurationPage implements OnInit {
     try {
       const value = await firstValueFrom(
         this.api.compare(
-          this.teamId,
+          this.teamId(),
           { id: c.id, ...(this.compareARevision() ? { revision: Number(this.compareARevision()) } : {}) },
           { id: b, ...(this.compareBRevision() ? { revision: Number(this.compareBRevision()) } : {}) },
         ),

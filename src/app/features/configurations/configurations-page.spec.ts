@@ -1,6 +1,6 @@
 import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter, Router } from '@angular/router';
+import { provideRouter, Router, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { provideHttpClient } from '@angular/common/http';
 import { provideHttpClientTesting } from '@angular/common/http/testing';
@@ -47,7 +47,7 @@ describe('ConfigurationsPage', () => {
         provideRouter([
           { path: 'teams/:teamId/configurations', component: ConfigurationsPage },
           { path: 'teams/:teamId/configurations/:configurationId', children: [] },
-        ]),
+        ], withComponentInputBinding()),
         provideHttpClient(),
         provideHttpClientTesting(),
       ],

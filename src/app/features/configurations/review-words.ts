@@ -103,11 +103,6 @@ export function validRef(ref: string): boolean {
   return /^(budget|chart:[a-z0-9-]{1,60}|caution:[a-z0-9-]{1,60}|figure:[A-Za-z0-9_.[\]-]{1,120})$/.test(ref);
 }
 
-/** A number for tables; "–" when missing. */
-export function fmt(v: unknown, digits = 3): string {
-  return typeof v === 'number' && Number.isFinite(v) ? v.toFixed(digits) : v === null || v === undefined ? '–' : String(v);
-}
-
 /** A difference value: numbers to significant digits, other values as text. */
 export function diffValue(v: unknown): string {
   if (typeof v === 'number') return Number.isFinite(v) ? String(Number(v.toPrecision(6))) : '–';

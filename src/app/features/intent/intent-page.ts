@@ -1,5 +1,5 @@
-import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal } from '@angular/core';
-import { ActivatedRoute, RouterLink } from '@angular/router';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
@@ -15,13 +15,14 @@ import { ChartMark, LineSeries } from '../../charts/chart-types';
 import { AnalysisError, AnalysisSuperseded } from '../../workers/kinematics-client';
 import { IntentClient } from '../../workers/intent-client';
 import { AxleDesign, FeaturesApi } from '../features-api';
-import { routeParam } from '../route-params';
 import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { parseDecimal } from '../axle-design/hardpoint-io';
 import { pointName } from '../axle-design/hardpoint-model';
 import { CautionList } from './caution-list';
 import { BumpCostView } from '../bump-cost';
+import { NumPipe } from '../../core/format/num-pipe';
+import { routeKey } from '../route-params';
 
 export type TargetKind = 'epsilon' | 'toePerRoll' | 'understeer' | 'zeroBump';
 
@@ -50,21 +51,20 @@ const DEFAULT_HALF_RANGE_MM = 20;
  */
 @Component({
   selector: 'rw-intent-page',
-  imports: [RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution, CautionList, BumpCostView],
+  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution, CautionList, BumpCostView],
   templateUrl: './intent-page.html',
   styleUrl: './intent-page.scss',
   providers: [IntentClient],
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class IntentPage implements OnInit {
-  private readonly route = inject(ActivatedRoute);
+export class IntentPage {
   private readonly api = inject(FeaturesApi);
   private readonly access = inject(TeamAccess);
   private readonly solver = inject(IntentClient);
 
-  protected readonly teamId = routeParam(this.route, 'teamId');
-  protected readonly vehicleId = routeParam(this.route, 'vehicleId');
-  protected readonly designId = routeParam(this.route, 'designId');
+  readonly teamId = input.required<string>();
+  readonly vehicleId = input.required<string>();
+  readonly designId = input.required<string>();
 
   protected readonly loadError = signal<string | null>(null);
   protected readonly design = signal<AxleDesign | null>(null);
@@ -227,20 +227,26 @@ export class IntentPage implements OnInit {
     }));
   });
 
-  ngOnInit(): void {
-    void this.load();
+  constructor() {
+    // Loads on arrival and again when the router reuses this page for other route parameters.
+    effect(() => {
+      routeKey(this.teamId(), this.vehicleId(), this.designId());
+      untracked(() => {
+        void this.load();
+      });
+    });
   }
 
   private async load(): Promise<void> {
     try {
       const [design] = await Promise.all([
-        firstValueFrom(this.api.axleDesign(this.teamId, this.designId)),
-        firstValueFrom(this.access.load(this.teamId)),
+        firstValueFrom(this.api.axleDesign(this.teamId(), this.designId())),
+        firstValueFrom(this.access.load(this.teamId())),
       ]);
       this.design.set(design);
       this.initMovable();
       try {
-        const vehicle = await firstValueFrom(this.api.vehicle(this.teamId, this.vehicleId));
+        const vehicle = await firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId()));
         this.vehicleData.set(vehicle.data);
       } catch {
         this.vehicleData.set(null);
@@ -343,7 +349,7 @@ export class IntentPage implements OnInit {
     this.proposeError.set(null);
     try {
       const p = await firstValueFrom(
-        this.api.propose(this.teamId, this.designId, {
+        this.api.propose(this.teamId(), this.designId(), {
           corner: r.corner,
           baseRevision: d.revision,
           message: this.proposeMessage().trim() || `Intent: ${r.target.label}, ε ${r.achieved.rollSteerCoefficient.toFixed(4)}`,
@@ -364,10 +370,6 @@ export class IntentPage implements OnInit {
     } finally {
       this.proposing.set(false);
     }
-  }
-
-  protected fmt(v: number | null | undefined, digits = 3): string {
-    return v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
   }
 
   protected words(eps: number): string {

@@ -19,12 +19,14 @@ import {
 } from '../../../../shared/io/rig-measurement';
 import type { RigBasis, RigComparison, RigStats } from '../../../../shared/rig/compare';
 import { LineChart } from '../../charts/line-chart';
-import { formatNumber, type LineSeries } from '../../charts/chart-types';
+import { type LineSeries } from '../../charts/chart-types';
 import { apiProblem } from '../../core/http/api-error';
 import type { LoadState } from '../../core/http/load-state';
 import { CautionList } from '../intent/caution-list';
 import { SafetyCaution } from '../safety-caution';
 import { RigApi, type RigMeasurementDetail, type RigMeasurementSummary, type RigPreviewAnswer, type RigTarget, type RigToleranceView } from './rig-api';
+import { NumPipe } from '../../core/format/num-pipe';
+import { inputChecked, inputValue, optionValue } from '../../core/forms/dom-events';
 import type { AxleName } from '../../../../shared/schema/axle';
 
 /** Where the upload of a new file stands. */
@@ -62,12 +64,15 @@ const UNIT_WORDS: Readonly<Record<string, string>> = {
  */
 @Component({
   selector: 'rw-rig-measurements',
-  imports: [MatButton, LineChart, CautionList, SafetyCaution],
+  imports: [NumPipe, MatButton, LineChart, CautionList, SafetyCaution],
   templateUrl: './rig-measurements-panel.html',
   styleUrl: './rig-measurements-panel.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class RigMeasurementsPanel {
+  protected readonly inputChecked = inputChecked;
+  protected readonly inputValue = inputValue;
+  protected readonly optionValue = optionValue;
   private readonly api = inject(RigApi);
   private readonly dialog = inject(MatDialog);
 
@@ -120,7 +125,7 @@ export class RigMeasurementsPanel {
   protected readonly toleranceCamberText = signal('');
 
   private file: Blob | null = null;
-  private fileText = signal<string | null>(null);
+  private readonly fileText = signal<string | null>(null);
   private requests = new Subscription();
 
   constructor() {
@@ -233,10 +238,6 @@ export class RigMeasurementsPanel {
   protected readonly timeZone = browserTimeZone();
   protected localTime(iso: string): string {
     return formatLocalTime(iso, this.timeZone);
-  }
-
-  protected fmt(v: number, digits = 4): string {
-    return formatNumber(v, digits);
   }
 
   protected statsRows(c: RigComparison): { label: string; s: RigStats }[] {
