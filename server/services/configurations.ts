@@ -44,6 +44,7 @@ import { enqueueMail, type OutgoingMail } from '../mail/outbox.js';
 import { mailText } from '../mail/messages.js';
 import { diffDocuments, type Difference } from './document-diff.js';
 import { recordActivity } from './activity.js';
+import { ReviewGates, type GateInput } from './review-gates.js';
 
 export type ReviewAction = 'submit' | 'withdraw' | 'approve' | 'request-changes' | 'release' | 'validate';
 export const REVIEW_ACTIONS: readonly ReviewAction[] = ['submit', 'withdraw', 'approve', 'request-changes', 'release', 'validate'];
@@ -476,7 +477,7 @@ export class Configurations {
     id: string,
     actor: { id: string; roles: readonly Role[] },
     action: ReviewAction,
-    o: { message?: string | undefined; expectRevision?: number | undefined } = {},
+    o: { message?: string | undefined; expectRevision?: number | undefined; gate?: GateInput | undefined } = {},
     afterTransition?: (tx: Executor, c: ConfigurationView, from: ConfigurationStatus) => Promise<void>,
   ): Promise<ConfigurationView> {
     const t = TRANSITIONS[action];
@@ -489,6 +490,7 @@ export class Configurations {
     if (t.decision && (await this.authored(actor.id, id, before.revision, this.orm))) {
       throw new HttpError(403, 'own_revision', 'You authored this configuration or a revision it uses; another reviewer must decide', { action });
     }
+    const gate = await new ReviewGates(this.orm, this, this.pool, this.computeTimeLimitMs).check(teamId, before, action, o.gate); // sign-off and validation gates (review-gates.ts)
     // Approval freezes what the engines say now (computed before the transaction: it may take a moment).
     const snapshot = action === 'approve' ? await this.inputs(teamId, id, before.revision) : undefined;
     const results = snapshot ? await this.compute(snapshot.inputs) : undefined;
@@ -507,6 +509,7 @@ export class Configurations {
         .insert(configurationTransitions)
         .values({ configurationId: id, revision: before.revision, fromStatus: before.status, toStatus: t.to, message: o.message ?? null, actorId: actor.id })
         .returning({ id: configurationTransitions.id });
+      await gate.record(tx, transitionRow!.id, actor.id);
       if (snapshot && results) {
         await tx.insert(configurationApprovals).values({
           configurationId: id,
