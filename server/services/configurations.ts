@@ -45,6 +45,7 @@ import { mailText } from '../mail/messages.js';
 import { diffDocuments, type Difference } from './document-diff.js';
 import { recordActivity } from './activity.js';
 import { ReviewGates, type GateInput } from './review-gates.js';
+import { ACTION_WORDS, STATUS_WORDS } from './review-words.js';
 
 export type ReviewAction = 'submit' | 'withdraw' | 'approve' | 'request-changes' | 'release' | 'validate';
 export const REVIEW_ACTIONS: readonly ReviewAction[] = ['submit', 'withdraw', 'approve', 'request-changes', 'release', 'validate'];
@@ -145,7 +146,7 @@ function toView(r: Row): ConfigurationView {
 }
 
 const invalidTransition = (action: ReviewAction, status: ConfigurationStatus) =>
-  new HttpError(409, 'invalid_transition', `A configuration that is ${status.replace('_', ' ')} cannot be sent to "${action}"`, {
+  new HttpError(409, 'invalid_transition', `A configuration that is ${STATUS_WORDS[status]} cannot be moved by "${ACTION_WORDS[action]}"`, {
     action,
     status,
     allowedFrom: TRANSITIONS[action].from,
@@ -528,7 +529,7 @@ export class Configurations {
         action: `configuration.${action}`,
         subjectType: 'configuration',
         subjectId: id,
-        summary: `Configuration "${after.name}" revision ${after.revision}: ${before.status.replace('_', ' ')} → ${t.to.replace('_', ' ')}${o.message ? ` (${o.message})` : ''}`,
+        summary: `Configuration "${after.name}" revision ${after.revision}: ${STATUS_WORDS[before.status]} → ${STATUS_WORDS[t.to]}${o.message ? ` (${o.message})` : ''}`,
       });
       await enqueueMail(tx, await this.reviewMails(tx, teamId, after, action, actor.id, o.message ?? null, transitionRow!.id));
       await afterTransition?.(tx, after, before.status);
@@ -575,7 +576,7 @@ export class Configurations {
     const text =
       action === 'submit'
         ? mailText.reviewRequested({ ...base, submitterName: actor?.name ?? 'Someone' })
-        : mailText.decisionMade({ ...base, deciderName: actor?.name ?? 'A reviewer', decision: action === 'approve' ? 'approved' : 'changes requested' });
+        : mailText.decisionMade({ ...base, deciderName: actor?.name ?? 'A reviewer', decision: STATUS_WORDS[TRANSITIONS[action].to] });
     return recipients
       .filter((r) => r.id !== actorId)
       .map((r) => ({ kind: action === 'submit' ? 'review-requested' : 'decision-made', to: r.email, teamId, ...text, dedupeKey: `transition:${transitionId}:${r.id}` }));

@@ -152,7 +152,11 @@ export class ReviewGates {
   /** What a configuration revision's gates ask for now (the sign-off dialog and the validate step show it). */
   async status(teamId: string, id: string, revision?: number) {
     const { revision: rev, refs, inputs } = await this.configs.inputs(teamId, id, revision);
-    const [lists, evidence, tolerance, records] = await Promise.all([this.cautions(inputs), this.evidence(teamId, refs), this.rig.tolerance(teamId), this.records(id)]);
+    // One after another: the seed runs this inside a transaction (one connection).
+    const lists = await this.cautions(inputs);
+    const evidence = await this.evidence(teamId, refs);
+    const tolerance = await this.rig.tolerance(teamId);
+    const records = await this.records(id);
     return {
       revision: rev,
       critical: ReviewGates.critical(lists),

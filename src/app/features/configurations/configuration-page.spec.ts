@@ -11,7 +11,7 @@ import type { Caution } from '../../../../shared/intent/cautions';
 import type { AnalysisRequest, CornerAnalysis } from '../../workers/analysis-types';
 import { KinematicsClient } from '../../workers/kinematics-client';
 import { ConfigurationPage } from './configuration-page';
-import type { Configuration, ConfigurationResults } from './configurations-api';
+import type { Configuration, ConfigurationResults, GatesAnswer } from './configurations-api';
 import { Answer, refuse, serve } from './spec-backend';
 
 const TEAM = '/api/teams/t-tal';
@@ -51,6 +51,17 @@ const BUMP_CAUTION: Caution = {
   unit: 'deg',
   basis: 'product default',
 } as Caution;
+
+/** GET …/gates: the Critical items the server measured and the rig evidence per axle. */
+function gates(critical: GatesAnswer['critical'] = []): GatesAnswer {
+  return {
+    revision: 2,
+    critical,
+    rig: { tolerance: { toeDeg: 0.1, camberDeg: 0.25, isDefault: true }, axles: [] },
+    acknowledgements: [],
+    waivers: [],
+  };
+}
 
 /** The kinematics worker's answer for the cautions (the worker itself has its own specs). */
 class FakeEngine {
@@ -152,7 +163,7 @@ describe('ConfigurationPage', () => {
 
   it.each([
     ['in_review', ['team:read', 'vehicle:manage', 'review:submit'], ['Withdraw from review']],
-    ['in_review', ['team:read', 'review:decide'], ['Approve', 'Request changes']],
+    ['in_review', ['team:read', 'review:decide'], ['Sign off', 'Return for rework']],
     ['draft', ['team:read', 'review:decide'], []],
     ['approved', ['team:read', 'review:decide'], ['Release to build']],
     ['approved', ['team:read', 'review:submit'], []],
@@ -166,14 +177,14 @@ describe('ConfigurationPage', () => {
   it('a change request needs a message; it is sent with the revision looked at, and a refusal is shown', async () => {
     const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide', 'review:comment']);
     const press = (label: string) => [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === label)!.click();
-    press('Request changes');
+    press('Return for rework');
     harness.detectChanges();
-    expect(root.querySelector('.rw-review [role="alert"]')!.textContent).toContain('Say what should change');
+    expect(root.querySelector('.rw-review [role="alert"]')!.textContent).toContain('Say what needs rework');
     backend.expectNone(`${C}/request-changes`);
     const box = root.querySelector('textarea[name="stepMessage"]') as HTMLTextAreaElement;
     box.value = 'Raise the rear toe link';
     box.dispatchEvent(new Event('input'));
-    press('Request changes');
+    press('Return for rework');
     let body: unknown;
     await serve(backend, {
       [`POST ${C}/request-changes`]: (req: TestRequest) => {
@@ -188,20 +199,55 @@ describe('ConfigurationPage', () => {
     });
     harness.detectChanges();
     expect(body).toEqual({ revision: 2, message: 'Raise the rear toe link' });
-    expect(root.querySelector('rw-status-chip')!.textContent).toContain('Changes requested');
-    expect(root.querySelector('.rw-history')!.textContent).toContain('In review → Changes requested');
+    expect(root.querySelector('rw-status-chip')!.textContent).toContain('Returned for rework');
+    expect(root.querySelector('.rw-history')!.textContent).toContain('In review → Returned for rework');
     expect(buttons(root)).toEqual([]);
   });
 
   it('shows the server’s own-work refusal of an approval', async () => {
     const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide']);
-    [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === 'Approve')!.click();
+    [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === 'Sign off')!.click();
     await serve(backend, {
+      [`GET ${C}/gates`]: gates(),
       [`POST ${C}/approve`]: refuse(403, 'own_revision', 'You authored this configuration or a revision it uses; another reviewer must decide'),
     });
     harness.detectChanges();
     expect(root.querySelector('.rw-review [role="alert"]')!.textContent).toContain('another reviewer must decide');
     expect(root.querySelector('rw-status-chip')!.textContent).toContain('In review');
+  });
+
+  it('a sign-off with a Critical caution asks for a written reason and sends it with the step', async () => {
+    const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide']);
+    [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === 'Sign off')!.click();
+    const critical = { axle: 'rear' as const, code: 'rear-roll-oversteer', message: 'Rear roll steer of 0.035 deg/deg steers the rear wheels out of the turn', value: 0.035, threshold: 0.03, unit: 'deg/deg' };
+    await serve(backend, { [`GET ${C}/gates`]: gates([critical]) });
+    harness.detectChanges();
+    const dialog = document.querySelector('rw-review-gate-dialog') as HTMLElement;
+    expect(dialog.textContent).toContain('Rear axle: Rear roll steer of 0.035 deg/deg');
+    const confirm = [...dialog.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Sign off')!;
+    expect(confirm.disabled).toBe(true);
+    backend.expectNone(`${C}/approve`);
+    const reason = dialog.querySelector('textarea') as HTMLTextAreaElement;
+    reason.value = 'Wanted: the rear is set to loosen mid-corner on the tight autocross';
+    reason.dispatchEvent(new Event('input'));
+    harness.detectChanges();
+    expect(confirm.disabled).toBe(false);
+    confirm.click();
+    let body: unknown;
+    await serve(backend, {
+      [`POST ${C}/approve`]: (req: TestRequest) => {
+        body = req.request.body;
+        return config({ status: 'approved' });
+      },
+      [`GET ${C}/history`]: [],
+      [`GET ${C}/revisions`]: [],
+      [`GET ${C}/approvals`]: [],
+      [`GET ${TEAM}/configurations`]: [],
+      [`GET ${TEAM}/vehicles/v-ember/axle-designs`]: [],
+    });
+    harness.detectChanges();
+    expect(body).toEqual({ revision: 2, acknowledgements: [{ axle: 'rear', code: 'rear-roll-oversteer', reason: 'Wanted: the rear is set to loosen mid-corner on the tight autocross' }] });
+    expect(root.querySelector('rw-status-chip')!.textContent).toContain('Signed off');
   });
 
   it('an approved configuration shows its frozen figures beside a recompute with the current engine', async () => {
@@ -260,7 +306,7 @@ describe('ConfigurationPage', () => {
     expect(thread.textContent).toContain('On: Understeer budget');
     expect(thread.textContent).toContain('Open');
     // Resolve the thread.
-    [...thread.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Resolve thread')!.click();
+    [...thread.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Close remark')!.click();
     await serve(backend, {
       [`POST ${C}/comments/k1/resolve`]: { id: 'k1', resolved: true },
       [`GET ${C}/comments`]: [
@@ -268,8 +314,8 @@ describe('ConfigurationPage', () => {
       ],
     });
     harness.detectChanges();
-    expect(root.querySelector('.rw-thread .rw-thread-state')!.textContent).toBe('Resolved');
-    expect([...root.querySelectorAll('.rw-thread button')].map((b) => b.textContent!.trim())).toContain('Reopen thread');
+    expect(root.querySelector('.rw-thread .rw-thread-state')!.textContent).toBe('Closed');
+    expect([...root.querySelectorAll('.rw-thread button')].map((b) => b.textContent!.trim())).toContain('Reopen remark');
   });
 
   it('compares an older revision with the current one: changed inputs and results side by side', async () => {
