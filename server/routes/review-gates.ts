@@ -17,7 +17,8 @@ import { renderPdf } from '../services/record-pdf.js';
 import { idParam } from './vehicles.js';
 
 const axle = z.enum(['front', 'rear'], { error: 'use front or rear' });
-const reason = z.string().trim().min(3, 'write the reason (at least a few words)').max(2000, 'keep the reason under 2000 characters');
+/** Reasons up to 1000 characters, at most 24 of them: a sign-off body stays well inside the 32 kB door (server/http/body.ts). */
+const reason = z.string().trim().min(3, 'write the reason (at least a few words)').max(1000, 'keep the reason to 1000 characters or fewer');
 const acknowledgement = z.strictObject({ axle, code: z.string().regex(/^[a-z0-9-]{1,60}$/, 'is not a caution code'), reason });
 const waiver = z.strictObject({ axle, reason });
 
@@ -33,7 +34,7 @@ export function readTransitionBody(
 ): { message?: string | undefined; revision?: number | undefined } & GateInput {
   const schema =
     action === 'approve'
-      ? base.extend({ acknowledgements: z.array(acknowledgement).max(50).optional() })
+      ? base.extend({ acknowledgements: z.array(acknowledgement).max(24).optional() })
       : action === 'validate'
         ? base.extend({ waivers: z.array(waiver).max(2).optional() })
         : base;

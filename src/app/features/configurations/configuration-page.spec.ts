@@ -1,6 +1,7 @@
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting, TestRequest } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { computeBalance } from '../../../../shared/balance/api';
@@ -107,7 +108,12 @@ describe('ConfigurationPage', () => {
   beforeEach(async () => {
     engine = new FakeEngine();
     TestBed.configureTestingModule({
-      providers: [provideRouter([{ path: 'teams/:teamId/configurations/:configurationId', component: ConfigurationPage }]), provideHttpClient(), provideHttpClientTesting()],
+      providers: [
+        provideRouter([{ path: 'teams/:teamId/configurations/:configurationId', component: ConfigurationPage }]),
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+      ],
     });
     TestBed.overrideComponent(ConfigurationPage, { set: { providers: [{ provide: KinematicsClient, useValue: engine }] } });
     await TestBed.compileComponents();
@@ -148,7 +154,7 @@ describe('ConfigurationPage', () => {
     const rear = root.querySelector('.rw-axle-cautions[data-axle="rear"]')!;
     expect(rear.querySelector('[data-code="bump-toe-change"]')!.textContent).toContain('Warning');
     expect(root.querySelector('rw-safety-caution')!.textContent).toContain('Verify on a kinematics rig');
-    expect(root.querySelector('[data-testid="no-approval"]')!.textContent).toContain('Not approved yet');
+    expect(root.querySelector('[data-testid="no-approval"]')!.textContent).toContain('Not signed off yet');
     expect(root.querySelector('[data-testid="approval"]')).toBeNull();
     // A viewer has no review steps, cannot revise or archive, and cannot comment.
     expect(buttons(root)).toEqual([]);
@@ -263,7 +269,7 @@ describe('ConfigurationPage', () => {
     });
     const section = root.querySelector('[data-testid="approval"]')!;
     expect(root.querySelector('[data-testid="no-approval"]')).toBeNull();
-    expect(section.textContent).toContain('approved by Ravi Osei');
+    expect(section.textContent).toContain('signed off by Ravi Osei');
     expect(section.textContent).toContain('gives 1 different figure(s)');
     const rows = [...section.querySelectorAll('[data-testid="frozen-figures"] tbody tr')];
     const k = rows.find((r) => r.querySelector('th')!.textContent!.trim() === 'Understeer gradient K')!;

@@ -44,14 +44,7 @@ interface Item {
             @for (a of data.gates.rig.axles; track a.axle) {
               <li>
                 <span class="material-symbols-outlined" aria-hidden="true">{{ a.satisfied ? 'fact_check' : 'pending_actions' }}</span>
-                {{ axleWords[a.axle] }}, design revision {{ a.designRevision }}:
-                @if (a.satisfied) {
-                  rig evidence within tolerance ({{ withinCount(a.measurements) }} of {{ a.measurements.length }} measurements).
-                } @else if (a.measurements.length) {
-                  {{ a.measurements.length }} rig measurement(s), none within tolerance.
-                } @else {
-                  no rig measurement yet.
-                }
+                <span>{{ axleWords[a.axle] }}, design revision {{ a.designRevision }}: {{ evidenceWords(a) }}</span>
               </li>
             }
           </ul>
@@ -62,8 +55,8 @@ interface Item {
             @if (item.detail) { <p class="rw-gate-detail">{{ item.detail }}</p> }
             <mat-form-field appearance="outline" class="rw-gate-reason">
               <mat-label>{{ data.mode === 'sign-off' ? 'Why this is acceptable' : 'Why it counts as validated without rig evidence' }}</mat-label>
-              <textarea matInput rows="2" maxlength="2000" [attr.name]="'reason-' + i" [value]="reasons()[item.key] ?? ''" (input)="setReason(item.key, $event)" (blur)="touched.set(true)" required></textarea>
-              @if (touched() && !reasonOk(item.key)) { <mat-error>Write the reason (at least a few words).</mat-error> }
+              <textarea matInput rows="2" maxlength="1000" [attr.name]="'reason-' + i" [value]="reasons()[item.key] ?? ''" (input)="setReason(item.key, $event)" (blur)="touched.set(true)" required></textarea>
+              <mat-hint [class.rw-gate-missing]="touched() && !reasonOk(item.key)">{{ reasonOk(item.key) ? 'Kept in the review record with your name.' : 'Required: write the reason (at least a few words).' }}</mat-hint>
             </mat-form-field>
           </div>
         } @empty {
@@ -84,6 +77,7 @@ interface Item {
     .rw-gate-reason { width: 100%; min-width: 24rem; }
     .rw-gate-evidence { list-style: none; padding: 0; }
     .rw-gate-evidence li { display: flex; gap: 0.4rem; align-items: flex-start; margin: 0.25rem 0; }
+    .rw-gate-missing { color: var(--mat-sys-error); font-weight: 600; }
     .rw-gate-tolerance { color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-body-small); }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -125,8 +119,10 @@ export class ReviewGateDialog {
     this.reasons.update((r) => ({ ...r, [key]: value }));
   }
 
-  protected withinCount(list: readonly { within: boolean }[]): number {
-    return list.filter((m) => m.within).length;
+  protected evidenceWords(a: { satisfied: boolean; measurements: readonly { within: boolean }[] }): string {
+    const n = a.measurements.length;
+    if (a.satisfied) return `rig evidence within tolerance (${a.measurements.filter((m) => m.within).length} of ${n} measurements).`;
+    return n ? `${n} rig measurement${n === 1 ? '' : 's'}, none within tolerance.` : 'no rig measurement yet.';
   }
 
   protected confirm(): void {
