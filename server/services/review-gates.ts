@@ -16,7 +16,7 @@
  */
 import { asc, eq } from 'drizzle-orm';
 import type { Executor, Orm } from '../db/client.js';
-import { cautionAcknowledgements, configurationTransitions, rigEvidenceWaivers, users, type Axle } from '../db/schema.js';
+import { cautionAcknowledgements, rigEvidenceWaivers, users, type Axle } from '../db/schema.js';
 import { HttpError } from '../http/errors.js';
 import type { ComputePool } from '../compute/pool.js';
 import type { AxleCautionList } from '../../shared/intent/configuration-cautions.js';
@@ -278,23 +278,5 @@ export class ReviewGates {
           .values(waivers.map((w) => ({ configurationId: before.id, revision: before.revision, transitionId, axle: w.axle, reason: w.reason, waivedBy: actorId })));
       },
     };
-  }
-
-  /** The transitions (who decided what, when) of a configuration, for the review record. */
-  async transitions(id: string) {
-    return this.orm
-      .select({
-        id: configurationTransitions.id,
-        revision: configurationTransitions.revision,
-        fromStatus: configurationTransitions.fromStatus,
-        toStatus: configurationTransitions.toStatus,
-        message: configurationTransitions.message,
-        actorName: users.displayName,
-        createdAt: configurationTransitions.createdAt,
-      })
-      .from(configurationTransitions)
-      .leftJoin(users, eq(users.id, configurationTransitions.actorId))
-      .where(eq(configurationTransitions.configurationId, id))
-      .orderBy(asc(configurationTransitions.createdAt));
   }
 }

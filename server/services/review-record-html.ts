@@ -68,7 +68,7 @@ function inputTable(title: string, top: string, doc: unknown): string {
 function curveSvg(title: string, unit: string, series: { name: string; dash: string; points: { x: number; y: number }[] }[]): string {
   const w = 320;
   const h = 200;
-  const m = { l: 52, r: 12, t: 12, b: 36 };
+  const m = { l: 52, r: 12, t: 26, b: 36 };
   const xs = series.flatMap((s) => s.points.map((p) => p.x));
   const ys = series.flatMap((s) => s.points.map((p) => p.y));
   if (!xs.length) return `<p>${esc(title)}: no curve (the corner could not be swept).</p>`;
@@ -85,7 +85,7 @@ function curveSvg(title: string, unit: string, series: { name: string; dash: str
   const xTicks = x.ticks(5).map((t) => `<g transform="translate(${x(t)},${h - m.b})"><line y2="4"/><text y="15" text-anchor="middle">${num(t, 0)}</text></g>`);
   const yTicks = y.ticks(5).map((t) => `<g transform="translate(${m.l},${y(t)})"><line x2="-4"/><line class="grid" x2="${w - m.l - m.r}"/><text x="-6" dy="0.32em" text-anchor="end">${esc(y.tickFormat(5)(t)).replace('-', '−')}</text></g>`);
   const lines = series.map((s) => `<path d="${path(s.points) ?? ''}" class="curve" stroke-dasharray="${s.dash}"/>`).join('');
-  const legend = series.map((s, i) => `<g transform="translate(${m.l + 8 + i * 90},${m.t + 6})"><line x2="22" class="curve" stroke-dasharray="${s.dash}"/><text x="26" dy="0.32em">${esc(s.name)}</text></g>`).join('');
+  const legend = series.map((s, i) => `<g transform="translate(${m.l + 8 + i * 90},9)"><line x2="22" class="curve" stroke-dasharray="${s.dash}"/><text x="26" dy="0.32em">${esc(s.name)}</text></g>`).join('');
   return `<figure class="curve-figure"><svg viewBox="0 0 ${w} ${h}" role="img" aria-label="${esc(title)}"><g class="axis">${xTicks.join('')}${yTicks.join('')}<line x1="${m.l}" x2="${w - m.r}" y1="${h - m.b}" y2="${h - m.b}"/><line x1="${m.l}" x2="${m.l}" y1="${m.t}" y2="${h - m.b}"/></g>${lines}${legend}<text class="axis-title" x="${(m.l + w - m.r) / 2}" y="${h - 4}" text-anchor="middle">Wheel travel, mm (bump +)</text><text class="axis-title" transform="translate(12,${(m.t + h - m.b) / 2}) rotate(-90)" text-anchor="middle">${esc(unit)}</text></svg><figcaption>${esc(title)}</figcaption></figure>`;
 }
 
