@@ -160,6 +160,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
       new LatestPreview(db.orm, configurations),
       new ReviewRecord(db.orm, configurations, pool, config.computeTimeLimitMs),
       auth,
+      config.chromiumPath,
     ),
   );
   api.use('/teams/:teamId/studies', studiesRouter(studies, auth));

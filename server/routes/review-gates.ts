@@ -46,7 +46,7 @@ const revisionQuery = z.strictObject({ revision: z.coerce.number().int().positiv
 /** The strict policy of the record page: no script, nothing loaded, shown only inside the app's own frame. */
 const RECORD_PAGE_POLICY = "default-src 'none'; style-src 'unsafe-inline'; img-src data:; frame-ancestors 'self'; base-uri 'none'; form-action 'none'";
 
-export function reviewGatesRouter(gates: ReviewGates, preview: LatestPreview, record: ReviewRecord, auth: Authorizer): Router {
+export function reviewGatesRouter(gates: ReviewGates, preview: LatestPreview, record: ReviewRecord, auth: Authorizer, chromiumPath: string): Router {
   const r = Router({ mergeParams: true });
   const { requirePermission } = auth;
   const configId = (raw: unknown) => idParam(raw, 'Configuration');
@@ -78,7 +78,7 @@ export function reviewGatesRouter(gates: ReviewGates, preview: LatestPreview, re
     const q = validate(revisionQuery, req.query, 'query');
     const answer = await record.record(currentAccess(req).teamId, configId(req.params['configurationId']), q.revision);
     const title = `${answer.configuration.name}, revision ${answer.revision.number}`;
-    const pdf = await renderPdf(renderReviewRecordHtml(answer), { footerText: `Review record: ${title} · made ${answer.generatedAt.toISOString().slice(0, 10)}` });
+    const pdf = await renderPdf(renderReviewRecordHtml(answer), { footerText: `Review record: ${title} · made ${answer.generatedAt.toISOString().slice(0, 10)}`, executablePath: chromiumPath });
     const file = `review-record-${answer.configuration.name.replace(/[^A-Za-z0-9._-]+/g, '-').slice(0, 60)}-r${answer.revision.number}.pdf`;
     res.setHeader('Content-Disposition', `attachment; filename="${file}"`);
     res.type('application/pdf').send(pdf);

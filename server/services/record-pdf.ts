@@ -36,8 +36,8 @@ function oneAtATime<T>(job: () => Promise<T>): Promise<T> {
 export interface PdfOptions {
   /** Shown in every page's footer beside the page count. */
   footerText: string;
-  /** Chromium's path; default CHROMIUM_PATH or /usr/bin/chromium. */
-  executablePath?: string | undefined;
+  /** Chromium's path (config `chromiumPath`, CHROMIUM_PATH). */
+  executablePath: string;
 }
 
 const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
@@ -54,7 +54,7 @@ export function renderPdf(html: string, o: PdfOptions): Promise<Buffer> {
     try {
       const browser = await chromium
         .launch({
-          executablePath: o.executablePath ?? process.env['CHROMIUM_PATH'] ?? '/usr/bin/chromium',
+          executablePath: o.executablePath,
           headless: true,
           args: ['--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
           env: { ...process.env, HOME: home, XDG_CONFIG_HOME: join(home, 'config'), XDG_CACHE_HOME: join(home, 'cache') },
