@@ -46,6 +46,10 @@ import { vehiclesRouter } from './routes/vehicles.js';
 import { axleDesignsRouter, vehicleAxleDesignsRouter } from './routes/axle-designs.js';
 import { computeRouter } from './routes/compute.js';
 import { configurationsRouter } from './routes/configurations.js';
+import { reviewGatesRouter } from './routes/review-gates.js';
+import { ReviewGates } from './services/review-gates.js';
+import { LatestPreview } from './services/latest-preview.js';
+import { ReviewRecord } from './services/review-record.js';
 import { devMailRouter } from './routes/dev-mail.js';
 import { MailWorker } from './mail/outbox.js';
 import { RigMeasurements } from './services/rig-measurements.js';
@@ -149,6 +153,16 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use('/invitations', invitationLinksRouter(invitations, accounts, config.addressLimit));
   api.use('/teams/:teamId/invitations', teamInvitationsRouter(invitations, auth));
   api.use('/teams/:teamId/configurations', configurationsRouter(configurations, auth));
+  api.use(
+    '/teams/:teamId/configurations',
+    reviewGatesRouter(
+      new ReviewGates(db.orm, configurations, pool, config.computeTimeLimitMs),
+      new LatestPreview(db.orm, configurations),
+      new ReviewRecord(db.orm, configurations, pool, config.computeTimeLimitMs),
+      auth,
+      config.chromiumPath,
+    ),
+  );
   api.use('/teams/:teamId/studies', studiesRouter(studies, auth));
   if (!config.production) api.use('/dev/mail', devMailRouter(db.orm, auth));
   api.use('/teams/:teamId', rigMeasurementsRouter(new RigMeasurements(db.orm, configurations, pool, config.computeTimeLimitMs), auth));

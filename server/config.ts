@@ -61,6 +61,8 @@ export interface Config {
   computeTimeLimitMs: number;
   /** Start a compute worker at start-up rather than on the first request (off in tests). */
   computeWarmStart: boolean;
+  /** Chromium that prints review records to PDF (Debian's package). */
+  chromiumPath: string;
   /** Time limit of a background solve job (longer family sweeps). */
   solveJobTimeLimitMs: number;
   /** A finished solve job keeps its answer this long; then its id answers 410 job_gone (expired). */
@@ -163,6 +165,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     computeThreads: int(env, 'COMPUTE_THREADS', Math.max(1, availableParallelism() - 1), 1),
     computeTimeLimitMs: int(env, 'COMPUTE_TIME_LIMIT_MS', 10_000, 50),
     computeWarmStart: !test,
+    chromiumPath: env['CHROMIUM_PATH'] || '/usr/bin/chromium',
     solveJobTimeLimitMs: int(env, 'SOLVE_JOB_TIME_LIMIT_MS', 120_000, 50),
     solveJobRetainMs: int(env, 'SOLVE_JOB_RETAIN_MINUTES', 15, 0) * 60_000,
     // Tests hash many throwaway passwords; everything else uses a real cost.

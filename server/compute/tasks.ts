@@ -5,7 +5,9 @@ export const COMPUTE_KINDS = ['corner-sweep', 'axle-roll', 'corner-compliance', 
 export type ComputeKind = (typeof COMPUTE_KINDS)[number];
 /** Also run on worker threads, by queue workers only (no /api/compute route): one study chunk, and a study's combination. */
 export const STUDY_KINDS = ['study-chunk', 'study-combine'] as const;
-export type TaskKind = ComputeKind | (typeof STUDY_KINDS)[number];
+/** Run for the review gates only (no /api/compute route): both corners' cautions of a configuration. */
+export const REVIEW_KINDS = ['configuration-cautions'] as const;
+export type TaskKind = ComputeKind | (typeof STUDY_KINDS)[number] | (typeof REVIEW_KINDS)[number];
 
 export interface ComputeTask {
   kind: TaskKind;

@@ -11,6 +11,7 @@ import { computeCornerCompliance } from '../../shared/compliance/api.js';
 import { computeRide } from '../../shared/ride/api.js';
 import { computeSolve } from '../../shared/intent/api.js';
 import { computeRigComparison } from '../../shared/rig/compare.js';
+import { computeConfigurationCautions } from '../../shared/cautions/configuration-cautions.js';
 import { combineStudyChunks, runStudyChunk, type StudyChunkResult } from '../../shared/study/index.js';
 
 type Engine = (input: unknown, onProgress?: (fraction: number, message: string) => void) => unknown;
@@ -38,6 +39,7 @@ const ENGINES: Record<TaskKind, Engine> = {
   ride: computeRide,
   solve: computeSolve,
   'rig-compare': computeRigComparison,
+  'configuration-cautions': computeConfigurationCautions,
   'study-chunk': (input) => {
     const i = input as { studyId: string; spec: unknown; chunkIndex: number };
     return runStudyChunk(studySpec(i.studyId, i.spec), i.chunkIndex);

@@ -673,3 +673,57 @@ export const studyChunks = pgTable(
   },
   (t) => [primaryKey({ columns: [t.studyId, t.chunkIndex] })],
 );
+
+/**
+ * A reviewer's written acknowledgement of one Critical caution, given with the
+ * sign-off it allowed (the transition to approved). The caution is kept as it
+ * read then (message, value, threshold), so the record says what was accepted
+ * even after the engine or the thresholds change. Never updated.
+ */
+export const cautionAcknowledgements = pgTable(
+  'caution_acknowledgements',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    configurationId: uuid('configuration_id')
+      .notNull()
+      .references(() => configurations.id, { onDelete: 'cascade' }),
+    revision: integer('revision').notNull(),
+    transitionId: uuid('transition_id')
+      .notNull()
+      .references(() => configurationTransitions.id, { onDelete: 'cascade' }),
+    axle: text('axle', { enum: AXLE_NAMES }).notNull(),
+    code: text('code').notNull(),
+    message: text('message').notNull(),
+    value: doublePrecision('value'),
+    threshold: doublePrecision('threshold'),
+    unit: text('unit'),
+    reason: text('reason').notNull(),
+    acknowledgedBy: uuid('acknowledged_by').references(() => users.id, { onDelete: 'set null' }),
+    acknowledgedAt: timestamp('acknowledged_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('caution_acknowledgements_configuration_idx').on(t.configurationId, t.revision)],
+);
+
+/**
+ * A recorded waiver of the rig evidence for one axle, given with the move to
+ * validated that it allowed: the reason says why the configuration counts as
+ * validated without a measurement within the team's tolerance. Never updated.
+ */
+export const rigEvidenceWaivers = pgTable(
+  'rig_evidence_waivers',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    configurationId: uuid('configuration_id')
+      .notNull()
+      .references(() => configurations.id, { onDelete: 'cascade' }),
+    revision: integer('revision').notNull(),
+    transitionId: uuid('transition_id')
+      .notNull()
+      .references(() => configurationTransitions.id, { onDelete: 'cascade' }),
+    axle: text('axle', { enum: AXLE_NAMES }).notNull(),
+    reason: text('reason').notNull(),
+    waivedBy: uuid('waived_by').references(() => users.id, { onDelete: 'set null' }),
+    waivedAt: timestamp('waived_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('rig_evidence_waivers_configuration_idx').on(t.configurationId, t.revision)],
+);

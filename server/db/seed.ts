@@ -12,6 +12,7 @@ import { axleDesignRevisions, axleDesigns, configurations, memberships, teams, u
 import type { Role } from '../permissions.js';
 import type { ComputePool } from '../compute/pool.js';
 import { deserializeError, type TaskKind } from '../compute/tasks.js';
+import { ReviewGates } from '../services/review-gates.js';
 import runComputeTask from '../compute/worker.js';
 import { Configurations, type ReviewAction } from '../services/configurations.js';
 import { Accounts } from '../services/accounts.js';
@@ -62,7 +63,8 @@ interface DemoConfiguration {
   trackProfile: TrackProfileId;
   author: string;
   message: string;
-  steps: { action: ReviewAction; by: string; message?: string }[];
+  /** `acknowledge`: with a sign-off, the reason written against each Critical caution the gate asks about. */
+  steps: { action: ReviewAction; by: string; message?: string; acknowledge?: string }[];
   comments?: { by: string; body: string; resultRef?: string }[];
 }
 
@@ -113,7 +115,12 @@ export const DEMO_TEAMS: DemoTeam[] = [
         message: 'Baseline for the 2026 season',
         steps: [
           { action: 'submit', by: 'designer@tallowmere.example', message: 'Baseline as built' },
-          { action: 'approve', by: 'reviewer@tallowmere.example', message: 'Balance as intended for the smooth circuits' },
+          {
+            action: 'approve',
+            by: 'reviewer@tallowmere.example',
+            message: 'Balance as intended for the smooth circuits',
+            acknowledge: 'Known from last season: bush compliance is part of the balance we set on track; rig check of the bushes booked before release',
+          },
         ],
       },
       {
@@ -175,7 +182,12 @@ export const DEMO_TEAMS: DemoTeam[] = [
         message: 'Production baseline',
         steps: [
           { action: 'submit', by: 'owner@brackenfield.example' },
-          { action: 'approve', by: 'reviewer@brackenfield.example', message: 'Road baseline agreed' },
+          {
+            action: 'approve',
+            by: 'reviewer@brackenfield.example',
+            message: 'Road baseline agreed',
+            acknowledge: 'Reviewed at the chassis meeting: accepted for the road baseline, to be checked on the rig before release',
+          },
         ],
       },
     ],
@@ -308,7 +320,9 @@ async function seedConfigurations(tx: Orm, teamId: string, t: DemoTeam, userId: 
       message: c.message,
     });
     for (const step of c.steps) {
-      await service.transition(teamId, created.id, { id: userId.get(step.by)!, roles: roles.get(step.by)! }, step.action, { message: step.message });
+      const critical = step.acknowledge ? (await new ReviewGates(tx, service, inProcessPool, 60_000).status(teamId, created.id)).critical : [];
+      const gate = { acknowledgements: critical.map((c) => ({ axle: c.axle, code: c.code, reason: step.acknowledge! })) };
+      await service.transition(teamId, created.id, { id: userId.get(step.by)!, roles: roles.get(step.by)! }, step.action, { message: step.message, gate });
     }
     for (const comment of c.comments ?? []) {
       await service.addComment(teamId, created.id, userId.get(comment.by)!, { body: comment.body, resultRef: comment.resultRef });

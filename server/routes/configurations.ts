@@ -5,6 +5,7 @@ import { validate } from '../http/errors.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
 import { TRACK_PROFILE_IDS } from '../../shared/tracks/profiles.js';
 import { TRANSITIONS, type Configurations, type ReviewAction } from '../services/configurations.js';
+import { readTransitionBody } from './review-gates.js';
 import { archivedQuery, baseRevision, documentName, idParam, revisionMessage } from './vehicles.js';
 
 const uuid = z.uuid('must be an id');
@@ -106,10 +107,10 @@ export function configurationsRouter(configs: Configurations, auth: Authorizer):
   for (const action of Object.keys(TRANSITIONS) as ReviewAction[]) {
     const t = TRANSITIONS[action];
     r.post(`/:configurationId/${action}`, requirePermission(t.permission), async (req, res) => {
-      const body = validate(action === 'request-changes' ? changesSchema : transitionSchema, req.body ?? {});
+      const { revision, message, ...gate } = readTransitionBody(action, action === 'request-changes' ? changesSchema : transitionSchema, req.body ?? {});
       const a = currentAccess(req);
       const actor = { id: currentUser(req).id, roles: a.roles };
-      res.json(await configs.transition(a.teamId, configId(req.params['configurationId']), actor, action, { message: body.message, expectRevision: body.revision }));
+      res.json(await configs.transition(a.teamId, configId(req.params['configurationId']), actor, action, { message, expectRevision: revision, gate }));
     });
   }
 

@@ -47,6 +47,8 @@ import { enqueueMail, type OutgoingMail } from '../mail/outbox.js';
 import { mailText } from '../mail/messages.js';
 import { diffDocuments, type Difference } from './document-diff.js';
 import { recordActivity } from './activity.js';
+import { ReviewGates, type GateInput } from './review-gates.js';
+import { ACTION_WORDS, STATUS_WORDS } from './review-words.js';
 
 export type ReviewAction = 'submit' | 'withdraw' | 'approve' | 'request-changes' | 'release' | 'validate';
 export const REVIEW_ACTIONS: readonly ReviewAction[] = ['submit', 'withdraw', 'approve', 'request-changes', 'release', 'validate'];
@@ -147,7 +149,7 @@ function toView(r: Row): ConfigurationView {
 }
 
 const invalidTransition = (action: ReviewAction, status: ConfigurationStatus) =>
-  new HttpError(409, 'invalid_transition', `A configuration that is ${status.replace('_', ' ')} cannot be sent to "${action}"`, {
+  new HttpError(409, 'invalid_transition', `A configuration that is ${STATUS_WORDS[status]} cannot be moved by "${ACTION_WORDS[action]}"`, {
     action,
     status,
     allowedFrom: TRANSITIONS[action].from,
@@ -473,7 +475,7 @@ export class Configurations {
     id: string,
     actor: { id: string; roles: readonly Role[] },
     action: ReviewAction,
-    o: { message?: string | undefined; expectRevision?: number | undefined } = {},
+    o: { message?: string | undefined; expectRevision?: number | undefined; gate?: GateInput | undefined } = {},
     afterTransition?: (tx: Executor, c: ConfigurationView, from: ConfigurationStatus) => Promise<void>,
   ): Promise<ConfigurationView> {
     const t = TRANSITIONS[action];
@@ -486,6 +488,7 @@ export class Configurations {
     if (t.decision && (await this.authored(actor.id, id, before.revision, this.orm))) {
       throw new HttpError(403, 'own_revision', 'You authored this configuration or a revision it uses; another reviewer must decide', { action });
     }
+    const gate = await new ReviewGates(this.orm, this, this.pool, this.computeTimeLimitMs).check(teamId, before, action, o.gate); // sign-off and validation gates (review-gates.ts)
     // Approval freezes what the engines say now (computed before the transaction: it may take a moment).
     const snapshot = action === 'approve' ? await this.inputs(teamId, id, before.revision) : undefined;
     const results = snapshot ? await this.compute(snapshot.inputs) : undefined;
@@ -504,6 +507,7 @@ export class Configurations {
         .insert(configurationTransitions)
         .values({ configurationId: id, revision: before.revision, fromStatus: before.status, toStatus: t.to, message: o.message ?? null, actorId: actor.id })
         .returning({ id: configurationTransitions.id });
+      await gate.record(tx, transitionRow!.id, actor.id);
       if (snapshot && results) {
         await tx.insert(configurationApprovals).values({
           configurationId: id,
@@ -522,7 +526,7 @@ export class Configurations {
         action: `configuration.${action}`,
         subjectType: 'configuration',
         subjectId: id,
-        summary: `Configuration "${after.name}" revision ${after.revision}: ${before.status.replace('_', ' ')} → ${t.to.replace('_', ' ')}${o.message ? ` (${o.message})` : ''}`,
+        summary: `Configuration "${after.name}" revision ${after.revision}: ${STATUS_WORDS[before.status]} → ${STATUS_WORDS[t.to]}${o.message ? ` (${o.message})` : ''}`,
       });
       await enqueueMail(tx, await this.reviewMails(tx, teamId, after, action, actor.id, o.message ?? null, transitionRow!.id));
       await afterTransition?.(tx, after, before.status);
@@ -569,7 +573,7 @@ export class Configurations {
     const text =
       action === 'submit'
         ? mailText.reviewRequested({ ...base, submitterName: actor?.name ?? 'Someone' })
-        : mailText.decisionMade({ ...base, deciderName: actor?.name ?? 'A reviewer', decision: action === 'approve' ? 'approved' : 'changes requested' });
+        : mailText.decisionMade({ ...base, deciderName: actor?.name ?? 'A reviewer', decision: STATUS_WORDS[TRANSITIONS[action].to] });
     return recipients
       .filter((r) => r.id !== actorId)
       .map((r) => ({ kind: action === 'submit' ? 'review-requested' : 'decision-made', to: r.email, teamId, ...text, dedupeKey: `transition:${transitionId}:${r.id}` }));

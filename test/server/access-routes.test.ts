@@ -176,7 +176,8 @@ beforeAll(async () => {
     )
   ).body.id;
   await ok(agents.engineer.post(`${configuration()}/submit`).send({}), 200);
-  await ok(agents.reviewer.post(`${configuration()}/approve`).send({}), 200);
+  const critical = (await ok(agents.reviewer.get(`${configuration()}/gates`), 200)).body.critical as { axle: string; code: string }[];
+  await ok(agents.reviewer.post(`${configuration()}/approve`).send({ acknowledgements: critical.map((c) => ({ axle: c.axle, code: c.code, reason: 'accepted for the access fixture' })) }), 200);
   ids.approval = (await ok(agents.owner.get(`${configuration()}/approvals`), 200)).body[0].id;
   ids.comment = (await ok(agents.reviewer.post(`${configuration()}/comments`).send({ body: 'Thread for the access check' }), 201)).body.id;
 
@@ -397,6 +398,13 @@ const ROWS: Row[] = [
     (a): Row => ({ route: `POST /api/teams/:teamId/configurations/:configurationId/${a}`, path: () => `${configuration()}/${a}`, body: PROBE, expect: teamRoute(['reviewer'], 400, { method: 'POST' }) }),
   ),
   { route: 'GET /api/teams/:teamId/configurations/:configurationId/approvals', path: () => `${configuration()}/approvals`, expect: teamRead() },
+  // Sign-off gates, the latest-revisions preview and the review record: team:read (docs/permissions.md). The page and the
+  // PDF are called with a revision the query schema refuses: 400 once past authorisation, and no browser is started.
+  { route: 'GET /api/teams/:teamId/configurations/:configurationId/gates', path: () => `${configuration()}/gates`, expect: teamRead() },
+  { route: 'GET /api/teams/:teamId/configurations/:configurationId/latest-preview', path: () => `${configuration()}/latest-preview`, expect: teamRead() },
+  { route: 'GET /api/teams/:teamId/configurations/:configurationId/record', path: () => `${configuration()}/record`, expect: teamRead() },
+  { route: 'GET /api/teams/:teamId/configurations/:configurationId/record.html', path: () => `${configuration()}/record.html?revision=none`, expect: teamRead('GET', 400) },
+  { route: 'GET /api/teams/:teamId/configurations/:configurationId/record.pdf', path: () => `${configuration()}/record.pdf?revision=none`, expect: teamRead('GET', 400) },
   { route: 'GET /api/teams/:teamId/configurations/:configurationId/approvals/:approvalId', path: () => `${configuration()}/approvals/${ids.approval}`, expect: teamRead() },
   { route: 'GET /api/teams/:teamId/configurations/:configurationId/comments', path: () => `${configuration()}/comments`, expect: teamRead() },
   {

@@ -91,7 +91,10 @@ describe('programmes', () => {
     await bo.post(`/api/teams/${brackenfield}/programmes/${programmeId}/accept`).send({}).expect(200);
     const tc = await configurationOf(dana, tallowmere, 'TUR-26 Ember', 'Ember for the study');
     await dana.post(`/api/teams/${tallowmere}/configurations/${tc}/submit`).send({}).expect(200);
-    await ravi.post(`/api/teams/${tallowmere}/configurations/${tc}/approve`).send({}).expect(200);
+    // The sign-off carries a written reason for each Critical caution the gate names (the gate itself: review-gates.test.ts).
+    const critical = (await ravi.get(`/api/teams/${tallowmere}/configurations/${tc}/gates`).expect(200)).body.critical as { axle: string; code: string }[];
+    const acknowledgements = critical.map((c) => ({ axle: c.axle, code: c.code, reason: 'accepted for the board test' }));
+    await ravi.post(`/api/teams/${tallowmere}/configurations/${tc}/approve`).send({ acknowledgements }).expect(200);
     await configurationOf(bo, brackenfield, 'Brackenfield B3 hatchback', 'B3 for the study');
 
     const board = await iris.get(`/api/programmes/${programmeId}/board`).expect(200);

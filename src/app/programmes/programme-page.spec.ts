@@ -89,7 +89,7 @@ describe('ProgrammePage', () => {
     const { root, group, cells } = await render();
     expect(root.querySelector('rw-safety-caution')?.textContent).toContain(SAFETY_CAUTION_TEXT);
     const ember = group('Ember for the study');
-    expect(ember.querySelector('.status')?.textContent?.trim()).toBe('Approved');
+    expect(ember.querySelector('.status')?.textContent?.trim()).toBe('Signed off');
     // The name opens the configuration in its team (read only for the instructor).
     expect(ember.querySelector('a.config-link')?.getAttribute('href')).toBe('/teams/t-tal/configurations/c1');
     expect(ember.querySelector('tr.latest th.kind')?.textContent).toContain('Latest · rev 2');

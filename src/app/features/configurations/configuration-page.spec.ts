@@ -1,6 +1,7 @@
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting, TestRequest } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { exampleVehicles } from '../../../../shared/balance/examples';
@@ -10,7 +11,7 @@ import type { Caution } from '../../../../shared/cautions/cautions';
 import type { AnalysisRequest, CornerAnalysis } from '../../workers/analysis-types';
 import { KinematicsClient } from '../../workers/kinematics-client';
 import { ConfigurationPage } from './configuration-page';
-import type { Configuration, ConfigurationResults } from './configurations-api';
+import type { Configuration, ConfigurationResults, GatesAnswer } from './configurations-api';
 import { Answer, refuse, serve } from './spec-backend';
 
 const TEAM = '/api/teams/t-tal';
@@ -51,6 +52,17 @@ const BUMP_CAUTION: Caution = {
   unit: 'deg',
   basis: 'product default',
 } as Caution;
+
+/** GET …/gates: the Critical items the server measured and the rig evidence per axle. */
+function gates(critical: GatesAnswer['critical'] = []): GatesAnswer {
+  return {
+    revision: 2,
+    critical,
+    rig: { tolerance: { toeDeg: 0.1, camberDeg: 0.25, isDefault: true }, axles: [] },
+    acknowledgements: [],
+    waivers: [],
+  };
+}
 
 /** The kinematics worker's answer for the cautions (the worker itself has its own specs). */
 class FakeEngine {
@@ -96,7 +108,12 @@ describe('ConfigurationPage', () => {
   beforeEach(async () => {
     engine = new FakeEngine();
     TestBed.configureTestingModule({
-      providers: [provideRouter([{ path: 'teams/:teamId/configurations/:configurationId', component: ConfigurationPage }], withComponentInputBinding()), provideHttpClient(), provideHttpClientTesting()],
+      providers: [
+        provideRouter([{ path: 'teams/:teamId/configurations/:configurationId', component: ConfigurationPage }], withComponentInputBinding()),
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+      ],
     });
     TestBed.overrideComponent(ConfigurationPage, { set: { providers: [{ provide: KinematicsClient, useValue: engine }] } });
     await TestBed.compileComponents();
@@ -137,7 +154,7 @@ describe('ConfigurationPage', () => {
     const rear = root.querySelector('.rw-axle-cautions[data-axle="rear"]')!;
     expect(rear.querySelector('[data-code="bump-toe-change"]')!.textContent).toContain('Warning');
     expect(root.querySelector('rw-safety-caution')!.textContent).toContain('Verify on a kinematics rig');
-    expect(root.querySelector('[data-testid="no-approval"]')!.textContent).toContain('Not approved yet');
+    expect(root.querySelector('[data-testid="no-approval"]')!.textContent).toContain('Not signed off yet');
     expect(root.querySelector('[data-testid="approval"]')).toBeNull();
     // A viewer has no review steps, cannot revise or archive, and cannot comment.
     expect(buttons(root)).toEqual([]);
@@ -152,7 +169,7 @@ describe('ConfigurationPage', () => {
 
   it.each([
     ['in_review', ['team:read', 'vehicle:manage', 'review:submit'], ['Withdraw from review']],
-    ['in_review', ['team:read', 'review:decide'], ['Approve', 'Request changes']],
+    ['in_review', ['team:read', 'review:decide'], ['Sign off', 'Return for rework']],
     ['draft', ['team:read', 'review:decide'], []],
     ['approved', ['team:read', 'review:decide'], ['Release to build']],
     ['approved', ['team:read', 'review:submit'], []],
@@ -166,14 +183,14 @@ describe('ConfigurationPage', () => {
   it('a change request needs a message; it is sent with the revision looked at, and a refusal is shown', async () => {
     const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide', 'review:comment']);
     const press = (label: string) => [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === label)!.click();
-    press('Request changes');
+    press('Return for rework');
     harness.detectChanges();
-    expect(root.querySelector('.rw-review [role="alert"]')!.textContent).toContain('Say what should change');
+    expect(root.querySelector('.rw-review [role="alert"]')!.textContent).toContain('Say what needs rework');
     backend.expectNone(`${C}/request-changes`);
     const box = root.querySelector('textarea[name="stepMessage"]') as HTMLTextAreaElement;
     box.value = 'Raise the rear toe link';
     box.dispatchEvent(new Event('input'));
-    press('Request changes');
+    press('Return for rework');
     let body: unknown;
     await serve(backend, {
       [`POST ${C}/request-changes`]: (req: TestRequest) => {
@@ -188,20 +205,55 @@ describe('ConfigurationPage', () => {
     });
     harness.detectChanges();
     expect(body).toEqual({ revision: 2, message: 'Raise the rear toe link' });
-    expect(root.querySelector('rw-status-chip')!.textContent).toContain('Changes requested');
-    expect(root.querySelector('.rw-history')!.textContent).toContain('In review → Changes requested');
+    expect(root.querySelector('rw-status-chip')!.textContent).toContain('Returned for rework');
+    expect(root.querySelector('.rw-history')!.textContent).toContain('In review → Returned for rework');
     expect(buttons(root)).toEqual([]);
   });
 
   it('shows the server’s own-work refusal of an approval', async () => {
     const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide']);
-    [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === 'Approve')!.click();
+    [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === 'Sign off')!.click();
     await serve(backend, {
+      [`GET ${C}/gates`]: gates(),
       [`POST ${C}/approve`]: refuse(403, 'own_revision', 'You authored this configuration or a revision it uses; another reviewer must decide'),
     });
     harness.detectChanges();
     expect(root.querySelector('.rw-review [role="alert"]')!.textContent).toContain('another reviewer must decide');
     expect(root.querySelector('rw-status-chip')!.textContent).toContain('In review');
+  });
+
+  it('a sign-off with a Critical caution asks for a written reason and sends it with the step', async () => {
+    const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide']);
+    [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === 'Sign off')!.click();
+    const critical = { axle: 'rear' as const, code: 'rear-roll-oversteer', message: 'Rear roll steer of 0.035 deg/deg steers the rear wheels out of the turn', value: 0.035, threshold: 0.03, unit: 'deg/deg' };
+    await serve(backend, { [`GET ${C}/gates`]: gates([critical]) });
+    harness.detectChanges();
+    const dialog = document.querySelector('rw-review-gate-dialog') as HTMLElement;
+    expect(dialog.textContent).toContain('Rear axle: Rear roll steer of 0.035 deg/deg');
+    const confirm = [...dialog.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Sign off')!;
+    expect(confirm.disabled).toBe(true);
+    backend.expectNone(`${C}/approve`);
+    const reason = dialog.querySelector('textarea') as HTMLTextAreaElement;
+    reason.value = 'Wanted: the rear is set to loosen mid-corner on the tight autocross';
+    reason.dispatchEvent(new Event('input'));
+    harness.detectChanges();
+    expect(confirm.disabled).toBe(false);
+    confirm.click();
+    let body: unknown;
+    await serve(backend, {
+      [`POST ${C}/approve`]: (req: TestRequest) => {
+        body = req.request.body;
+        return config({ status: 'approved' });
+      },
+      [`GET ${C}/history`]: [],
+      [`GET ${C}/revisions`]: [],
+      [`GET ${C}/approvals`]: [],
+      [`GET ${TEAM}/configurations`]: [],
+      [`GET ${TEAM}/vehicles/v-ember/axle-designs`]: [],
+    });
+    harness.detectChanges();
+    expect(body).toEqual({ revision: 2, acknowledgements: [{ axle: 'rear', code: 'rear-roll-oversteer', reason: 'Wanted: the rear is set to loosen mid-corner on the tight autocross' }] });
+    expect(root.querySelector('rw-status-chip')!.textContent).toContain('Signed off');
   });
 
   it('an approved configuration shows its frozen figures beside a recompute with the current engine', async () => {
@@ -217,7 +269,7 @@ describe('ConfigurationPage', () => {
     });
     const section = root.querySelector('[data-testid="approval"]')!;
     expect(root.querySelector('[data-testid="no-approval"]')).toBeNull();
-    expect(section.textContent).toContain('approved by Ravi Osei');
+    expect(section.textContent).toContain('signed off by Ravi Osei');
     expect(section.textContent).toContain('gives 1 different figure(s)');
     const rows = [...section.querySelectorAll('[data-testid="frozen-figures"] tbody tr')];
     const k = rows.find((r) => r.querySelector('th')!.textContent!.trim() === 'Understeer gradient K')!;
@@ -260,7 +312,7 @@ describe('ConfigurationPage', () => {
     expect(thread.textContent).toContain('On: Understeer budget');
     expect(thread.textContent).toContain('Open');
     // Resolve the thread.
-    [...thread.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Resolve thread')!.click();
+    [...thread.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Close remark')!.click();
     await serve(backend, {
       [`POST ${C}/comments/k1/resolve`]: { id: 'k1', resolved: true },
       [`GET ${C}/comments`]: [
@@ -268,8 +320,8 @@ describe('ConfigurationPage', () => {
       ],
     });
     harness.detectChanges();
-    expect(root.querySelector('.rw-thread .rw-thread-state')!.textContent).toBe('Resolved');
-    expect([...root.querySelectorAll('.rw-thread button')].map((b) => b.textContent!.trim())).toContain('Reopen thread');
+    expect(root.querySelector('.rw-thread .rw-thread-state')!.textContent).toBe('Closed');
+    expect([...root.querySelectorAll('.rw-thread button')].map((b) => b.textContent!.trim())).toContain('Reopen remark');
   });
 
   it('compares an older revision with the current one: changed inputs and results side by side', async () => {

@@ -5,6 +5,9 @@ import { ChangeDetectionStrategy, Component, computed, effect, inject, input, si
 import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
+import { MatDialog } from '@angular/material/dialog';
+import { ReviewGateDialog, type ReviewGateDialogData } from './review-gate-dialog';
+import { LatestPreviewDialog, type LatestPreviewDialogData } from './latest-preview-dialog';
 import { firstValueFrom } from 'rxjs';
 import type { Caution } from '../../../../shared/cautions/cautions';
 import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
@@ -25,6 +28,7 @@ import {
   ConfigurationChange,
   ConfigurationRevision,
   ConfigurationsApi,
+  GateBody,
   ResultsAnswer,
   TransitionRow,
 } from './configurations-api';
@@ -87,6 +91,7 @@ export class ConfigurationPage {
   private readonly api = inject(ConfigurationsApi);
   private readonly features = inject(FeaturesApi);
   private readonly engine = inject(KinematicsClient);
+  private readonly dialog = inject(MatDialog);
   protected readonly access = inject(TeamAccess);
 
   readonly teamId = input.required<string>();
@@ -305,14 +310,16 @@ export class ConfigurationPage {
     if (!c || this.stepBusy()) return;
     const message = this.stepMessage().trim();
     if (a.needsMessage && !message) {
-      this.stepError.set(`Say what should change (the message is required for “${a.label}”).`);
+      this.stepError.set(`Say what needs rework (the message is required for “${a.label}”).`);
       return;
     }
     this.stepBusy.set(true);
     this.stepError.set(null);
     this.stepNotice.set(null);
     try {
-      const after = await firstValueFrom(this.api.act(this.teamId(), c.id, a.action, c.revision, message || undefined));
+      const gate = await this.gateFor(a, c);
+      if (gate === null) return;
+      const after = await firstValueFrom(this.api.act(this.teamId(), c.id, a.action, c.revision, message || undefined, gate));
       this.config.set({ kind: 'ready', value: after });
       this.stepMessage.set('');
       this.stepNotice.set(`${a.label}: done. The configuration is now ${STATUS_WORDS[after.status].label.toLowerCase()}.`);
@@ -324,6 +331,22 @@ export class ConfigurationPage {
     } finally {
       this.stepBusy.set(false);
     }
+  }
+
+  /**
+   * The gate of a sign-off or of the move to validated, asked of the server (the Critical cautions it
+   * measures, the rig evidence against the team's tolerance): the dialog collects a reason for each
+   * Critical caution, or a waiver for each axle without evidence. `{}` when nothing is asked, null when
+   * the reviewer cancelled.
+   */
+  private async gateFor(a: ActionSpec, c: Configuration): Promise<GateBody | null> {
+    if (a.action !== 'approve' && a.action !== 'validate') return {};
+    const gates = await firstValueFrom(this.api.gates(this.teamId(), c.id));
+    const needed = a.action === 'approve' ? gates.critical.length > 0 : gates.rig.axles.some((x) => !x.satisfied);
+    if (!needed) return {};
+    const data: ReviewGateDialogData = { mode: a.action === 'approve' ? 'sign-off' : 'validate', configurationName: c.name, gates };
+    const body = await firstValueFrom(this.dialog.open<ReviewGateDialog, ReviewGateDialogData, GateBody>(ReviewGateDialog, { data, width: '40rem', maxWidth: '95vw' }).afterClosed());
+    return body ?? null;
   }
 
   private async reloadConfig(): Promise<void> {
@@ -377,6 +400,16 @@ export class ConfigurationPage {
     this.stepBusy.set(true);
     this.reviseError.set(null);
     try {
+      if (latest) {
+        // Show what the latest revisions change before anything is saved; save exactly the revisions shown.
+        const preview = await firstValueFrom(this.api.latestPreview(this.teamId(), c.id));
+        const data: LatestPreviewDialogData = { configurationName: c.name, preview };
+        const ok = await firstValueFrom(this.dialog.open<LatestPreviewDialog, LatestPreviewDialogData, boolean>(LatestPreviewDialog, { data, width: '52rem', maxWidth: '95vw' }).afterClosed());
+        if (!ok) return;
+        change.vehicleRevision = preview.latest.vehicleRevision;
+        if (change.frontDesignId === preview.latest.frontDesignId) change.frontDesignRevision = preview.latest.frontDesignRevision;
+        if (change.rearDesignId === preview.latest.rearDesignId) change.rearDesignRevision = preview.latest.rearDesignRevision;
+      }
       const after = await firstValueFrom(this.api.revise(this.teamId(), c.id, change));
       this.config.set({ kind: 'ready', value: after });
       this.revising.set(false);

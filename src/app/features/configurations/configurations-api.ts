@@ -155,6 +155,56 @@ export interface DesignRevisionRecord {
   readonly corner: Corner;
 }
 
+/** A Critical item a sign-off must acknowledge (GET …/gates `critical`). */
+export interface CriticalCaution {
+  readonly axle: 'front' | 'rear';
+  readonly code: string;
+  readonly message: string;
+  readonly value: number | null;
+  readonly threshold: number | null;
+  readonly unit: string | null;
+}
+
+export interface RigEvidence {
+  readonly id: string;
+  readonly name: string;
+  readonly toeLargestDeg: number;
+  readonly camberLargestDeg: number | null;
+  readonly within: boolean;
+  readonly authorName: string | null;
+  readonly createdAt: string;
+}
+
+/** GET …/configurations/:id/gates: what a sign-off and the move to validated ask for now. */
+export interface GatesAnswer {
+  readonly revision: number;
+  readonly critical: readonly CriticalCaution[];
+  readonly rig: {
+    readonly tolerance: { readonly toeDeg: number; readonly camberDeg: number; readonly isDefault: boolean };
+    readonly axles: readonly { readonly axle: 'front' | 'rear'; readonly designRevision: number; readonly measurements: readonly RigEvidence[]; readonly satisfied: boolean }[];
+  };
+  readonly acknowledgements: readonly { readonly axle: 'front' | 'rear'; readonly code: string; readonly reason: string; readonly acknowledgedByName: string | null }[];
+  readonly waivers: readonly { readonly axle: 'front' | 'rear'; readonly reason: string; readonly waivedByName: string | null }[];
+}
+
+/** What a reviewer sends with a step: reasons for Critical cautions (sign-off) or rig waivers (validated). */
+export interface GateBody {
+  readonly acknowledgements?: readonly { readonly axle: 'front' | 'rear'; readonly code: string; readonly reason: string }[];
+  readonly waivers?: readonly { readonly axle: 'front' | 'rear'; readonly reason: string }[];
+}
+
+/** GET …/configurations/:id/latest-preview. */
+export interface LatestPreviewAnswer {
+  readonly engineVersion: string;
+  readonly revision: number;
+  readonly current: ConfigurationRefs;
+  readonly latest: ConfigurationRefs;
+  readonly changedRefs: readonly { readonly ref: 'vehicleRevision' | 'frontDesignRevision' | 'rearDesignRevision'; readonly from: number; readonly to: number }[];
+  readonly upToDate: boolean;
+  readonly inputs: readonly Difference[];
+  readonly results: readonly Difference[];
+}
+
 const inline = () => ({ context: new HttpContext().set(SHOW_ERRORS_INLINE, true) });
 const e = encodeURIComponent;
 
@@ -200,8 +250,23 @@ export class ConfigurationsApi {
   }
 
   /** A review step; `revision` is the one the caller looked at (a newer one is 409 stale_revision). */
-  act(teamId: string, id: string, action: ReviewAction, revision: number, message?: string): Observable<Configuration> {
-    return this.http.post<Configuration>(`${this.base(teamId, id)}/${action}`, { revision, ...(message ? { message } : {}) }, inline());
+  act(teamId: string, id: string, action: ReviewAction, revision: number, message?: string, gate: GateBody = {}): Observable<Configuration> {
+    return this.http.post<Configuration>(`${this.base(teamId, id)}/${action}`, { revision, ...(message ? { message } : {}), ...gate }, inline());
+  }
+
+  /** What the sign-off and validated gates ask for on a revision (default the current one). */
+  gates(teamId: string, id: string): Observable<GatesAnswer> {
+    return this.http.get<GatesAnswer>(`${this.base(teamId, id)}/gates`, inline());
+  }
+
+  /** What re-pointing at the latest vehicle and design revisions would change; nothing is saved. */
+  latestPreview(teamId: string, id: string): Observable<LatestPreviewAnswer> {
+    return this.http.get<LatestPreviewAnswer>(`${this.base(teamId, id)}/latest-preview`, inline());
+  }
+
+  /** Addresses of the review record's printable page and its PDF (same origin; the session cookie goes with them). */
+  recordUrl(teamId: string, id: string, kind: 'html' | 'pdf'): string {
+    return `${this.base(teamId, id)}/record.${kind}`;
   }
 
   approvals(teamId: string, id: string): Observable<ApprovalSummary[]> {

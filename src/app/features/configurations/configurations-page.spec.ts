@@ -72,7 +72,7 @@ describe('ConfigurationsPage', () => {
     const { root } = await open('/teams/t-tal/configurations', ['team:read']);
     const rows = [...root.querySelectorAll('tbody tr')];
     expect(rows).toHaveLength(2);
-    expect(rows[0]!.querySelector('rw-status-chip')!.textContent).toContain('Approved');
+    expect(rows[0]!.querySelector('rw-status-chip')!.textContent).toContain('Signed off');
     expect(rows[1]!.querySelector('rw-status-chip')!.textContent).toContain('Draft');
     expect(rows[0]!.textContent).toContain('Rear baseline rev 3');
     expect(rows[0]!.textContent).toContain('Smooth circuit');
