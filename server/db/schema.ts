@@ -20,6 +20,7 @@ import {
   primaryKey,
   check,
 } from 'drizzle-orm/pg-core';
+import type { ConfigurationResults, FrozenInputs } from '../../shared/api/configurations.js';
 
 const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
 
@@ -299,8 +300,8 @@ export const configurationApprovals = pgTable(
       .references(() => configurations.id, { onDelete: 'cascade' }),
     revision: integer('revision').notNull(),
     engineVersion: text('engine_version').notNull(),
-    inputs: jsonb('inputs').notNull(),
-    results: jsonb('results').notNull(),
+    inputs: jsonb('inputs').$type<FrozenInputs>().notNull(),
+    results: jsonb('results').$type<ConfigurationResults>().notNull(),
     message: text('message'),
     approvedBy: uuid('approved_by').references(() => users.id, { onDelete: 'set null' }),
     approvedAt: timestamp('approved_at', { withTimezone: true }).notNull().defaultNow(),

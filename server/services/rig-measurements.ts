@@ -11,7 +11,7 @@
 import { and, desc, eq, type SQL } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { axleDesignRevisions, axleDesigns, rigMeasurements, teamRigSettings, users, vehicles, type Axle } from '../db/schema.js';
-import { HttpError, notFound } from '../http/errors.js';
+import { DomainError, notFound } from '../../shared/errors.js';
 import type { ComputePool } from '../compute/pool.js';
 import type { Configurations } from './configurations.js';
 import { recordActivity } from './activity.js';
@@ -42,7 +42,7 @@ export interface RigToleranceView extends RigTolerance {
 }
 
 const rowErrors = (errors: string[]) =>
-  new HttpError(400, 'rig_rows', `The rig file was refused: ${errors[0]}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, { errors });
+  new DomainError('invalid', 'rig_rows', `The rig file was refused: ${errors[0]}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, { errors });
 
 const summaryColumns = {
   id: rigMeasurements.id,
@@ -131,7 +131,7 @@ export class RigMeasurements {
       .select({ corner: axleDesignRevisions.corner })
       .from(axleDesignRevisions)
       .where(and(eq(axleDesignRevisions.designId, designId), eq(axleDesignRevisions.revision, revision)));
-    if (!r) throw new HttpError(404, 'not_found', `Axle design revision ${revision} not found`, { field: 'designRevision' });
+    if (!r) throw new DomainError('not_found', 'not_found', `Axle design revision ${revision} not found`, { field: 'designRevision' });
     return upgradeCornerDocument(r.corner);
   }
 
