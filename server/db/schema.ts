@@ -21,6 +21,7 @@ import {
   check,
 } from 'drizzle-orm/pg-core';
 import type { ConfigurationResults, FrozenInputs } from '../../shared/api/configurations.js';
+import type { TrackProfileId } from '../../shared/intent/profiles.js';
 
 const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
 
@@ -237,7 +238,7 @@ export const configurations = pgTable(
       .references(() => axleDesigns.id),
     rearDesignRevision: integer('rear_design_revision').notNull(),
     /** Track profile id of the intent engine (shared/intent/profiles.ts). */
-    trackProfile: text('track_profile').notNull(),
+    trackProfile: text('track_profile').$type<TrackProfileId>().notNull(),
     archived: boolean('archived').notNull().default(false),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
     updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
@@ -261,7 +262,7 @@ export const configurationRevisions = pgTable(
     frontDesignRevision: integer('front_design_revision').notNull(),
     rearDesignId: uuid('rear_design_id').notNull(),
     rearDesignRevision: integer('rear_design_revision').notNull(),
-    trackProfile: text('track_profile').notNull(),
+    trackProfile: text('track_profile').$type<TrackProfileId>().notNull(),
     message: text('message'),
     authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
@@ -471,7 +472,7 @@ export const programmes = pgTable('programmes', {
   instructorId: uuid('instructor_id')
     .notNull()
     .references(() => users.id, { onDelete: 'cascade' }),
-  trackProfile: text('track_profile').notNull(),
+  trackProfile: text('track_profile').$type<TrackProfileId>().notNull(),
   createdAt: createdAt(),
 });
 

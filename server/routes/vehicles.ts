@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { notFound, validate } from '../http/errors.js';
 import { currentAccess, currentUser, isUuid, type Authorizer } from '../http/authorize.js';
 import { parseVehicleData, type Vehicles } from '../services/vehicles.js';
+import { loadParam, loaded } from './loaders.js';
 import { diffDocuments } from '../services/document-diff.js';
 
 export const documentName = z.string().trim().min(1, 'is required').max(120);
@@ -33,7 +34,7 @@ export function idParam(raw: unknown, what: string): string {
 export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
   const { requirePermission } = auth;
-  const vehicleId = (raw: unknown) => idParam(raw, 'Vehicle');
+  r.param('vehicleId', loadParam('vehicle', 'Vehicle', (req, id) => vehicles.get(currentAccess(req).teamId, id)));
 
   r.get('/', requirePermission('team:read'), async (req, res) => {
     const q = validate(archivedQuery, req.query, 'query');
@@ -46,19 +47,21 @@ export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
   });
 
   r.get('/:vehicleId', requirePermission('team:read'), async (req, res) => {
-    res.json(await vehicles.get(currentAccess(req).teamId, vehicleId(req.params['vehicleId'])));
+    res.json(await loaded(req, 'vehicle'));
   });
 
   r.patch('/:vehicleId', requirePermission('vehicle:manage'), async (req, res) => {
     const { baseRevision: base, ...change } = validate(patchSchema, req.body);
-    res.json(await vehicles.update(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), currentUser(req).id, base, change));
+    const v = await loaded(req, 'vehicle');
+    res.json(await vehicles.update(currentAccess(req).teamId, v.id, currentUser(req).id, base, change));
   });
 
   r.put('/:vehicleId/data', requirePermission('vehicle:edit'), async (req, res) => {
     const input = validate(dataSchema, req.body);
     const data = parseVehicleData(input.data);
+    const v = await loaded(req, 'vehicle');
     res.json(
-      await vehicles.update(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), currentUser(req).id, input.baseRevision, {
+      await vehicles.update(currentAccess(req).teamId, v.id, currentUser(req).id, input.baseRevision, {
         data,
         message: input.message,
       }),
@@ -66,18 +69,18 @@ export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
   });
 
   r.get('/:vehicleId/revisions', requirePermission('team:read'), async (req, res) => {
-    res.json(await vehicles.revisions(currentAccess(req).teamId, vehicleId(req.params['vehicleId'])));
+    res.json(await vehicles.revisions(await loaded(req, 'vehicle')));
   });
 
   // Changed values between two revisions (e.g. ?from=1&to=3), side by side.
   r.get('/:vehicleId/compare', requirePermission('team:read'), async (req, res) => {
-    const teamId = currentAccess(req).teamId;
-    const id = vehicleId(req.params['vehicleId']);
-    res.json(await compareRevisions(req.query, (n) => vehicles.revision(teamId, id, n), 'data'));
+    const v = await loaded(req, 'vehicle');
+    res.json(await compareRevisions(req.query, (n) => vehicles.revision(v, n), 'data'));
   });
 
   r.get('/:vehicleId/revisions/:revision', requirePermission('team:read'), async (req, res) => {
-    res.json(await vehicles.revision(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), revisionNumber(req.params['revision'])));
+    const v = await loaded(req, 'vehicle');
+    res.json(await vehicles.revision(v, revisionNumber(req.params['revision'])));
   });
 
   return r;

@@ -71,13 +71,9 @@ const columns = {
 export class AxleDesigns {
   constructor(private readonly orm: Orm) {}
 
-  private async vehicleInTeam(teamId: string, vehicleId: string): Promise<void> {
-    const [v] = await this.orm.select({ id: vehicles.id }).from(vehicles).where(and(eq(vehicles.id, vehicleId), eq(vehicles.teamId, teamId)));
-    if (!v) throw notFound('Vehicle');
-  }
-
-  async list(teamId: string, vehicleId: string, includeArchived: boolean) {
-    await this.vehicleInTeam(teamId, vehicleId);
+  /** The vehicle's designs (`vehicle` as loaded for the team). */
+  async list(vehicle: { id: string }, includeArchived: boolean) {
+    const vehicleId = vehicle.id;
     const where = includeArchived
       ? eq(axleDesigns.vehicleId, vehicleId)
       : and(eq(axleDesigns.vehicleId, vehicleId), eq(axleDesigns.archived, false));
@@ -100,8 +96,9 @@ export class AxleDesigns {
     return { ...d, corner: upgradeCornerDocument(d.corner) };
   }
 
-  async create(teamId: string, vehicleId: string, authorId: string, input: { axle: Axle; name: string; corner: Corner }): Promise<AxleDesignView> {
-    await this.vehicleInTeam(teamId, vehicleId);
+  /** A new design of the team's vehicle (`vehicle` as loaded for the team). */
+  async create(teamId: string, vehicle: { id: string }, authorId: string, input: { axle: Axle; name: string; corner: Corner }): Promise<AxleDesignView> {
+    const vehicleId = vehicle.id;
     return this.orm.transaction(async (tx) => {
       const [d] = await tx
         .insert(axleDesigns)
@@ -183,12 +180,10 @@ export class AxleDesigns {
    * into instead of the stored one so the preview shows what the user has.
    */
   async previewImport(
-    teamId: string,
-    designId: string,
+    design: AxleDesignView,
     file: { name: string; text: string },
     options: { frame?: CadFrame | undefined; corner?: Corner | undefined } = {},
   ): Promise<ImportPreview> {
-    const design = await this.get(teamId, designId);
     const stored = parseCorner(design.corner);
     if (options.corner && options.corner.type !== stored.type) {
       throw new DomainError('invalid', 'invalid_input', `Invalid upload fields: corner: this design is a ${stored.type}, not a ${options.corner.type}`, {
@@ -215,8 +210,8 @@ export class AxleDesigns {
     }
   }
 
-  async revisions(teamId: string, designId: string): Promise<(RevisionRow & { status: DesignStatus })[]> {
-    await this.get(teamId, designId);
+  /** The design's revisions, newest first (`design` as loaded for the team). */
+  async revisions(design: { id: string }): Promise<(RevisionRow & { status: DesignStatus })[]> {
     return this.orm
       .select({
         revision: axleDesignRevisions.revision,
@@ -227,12 +222,16 @@ export class AxleDesigns {
       })
       .from(axleDesignRevisions)
       .leftJoin(users, eq(users.id, axleDesignRevisions.authorId))
-      .where(eq(axleDesignRevisions.designId, designId))
+      .where(eq(axleDesignRevisions.designId, design.id))
       .orderBy(desc(axleDesignRevisions.revision));
   }
 
   async revision(teamId: string, designId: string, revision: number) {
-    await this.get(teamId, designId);
+    return this.revisionOf(await this.get(teamId, designId), revision);
+  }
+
+  /** One stored revision of the design (`design` as loaded for the team). */
+  async revisionOf(design: { id: string }, revision: number) {
     const [r] = await this.orm
       .select({
         revision: axleDesignRevisions.revision,
@@ -246,7 +245,7 @@ export class AxleDesigns {
       })
       .from(axleDesignRevisions)
       .leftJoin(users, eq(users.id, axleDesignRevisions.authorId))
-      .where(and(eq(axleDesignRevisions.designId, designId), eq(axleDesignRevisions.revision, revision)));
+      .where(and(eq(axleDesignRevisions.designId, design.id), eq(axleDesignRevisions.revision, revision)));
     if (!r) throw notFound('Revision');
     return { ...r, corner: upgradeCornerDocument(r.corner) };
   }

@@ -6,6 +6,8 @@
  * them), review.ts (the review state machine), approvals.ts (frozen
  * snapshots) and comments.ts (review threads). `Configurations` is the one
  * object routes and other services hold; each method hands over to its part.
+ * Methods taking `c` expect the configuration as loaded for its team
+ * (routes/loaders.ts); the others check the team themselves.
  */
 import type { Executor, Orm } from '../db/client.js';
 import type { ComputePool } from '../compute/pool.js';
@@ -31,8 +33,8 @@ export class Configurations {
     this.store = new ConfigurationStore(orm);
     this.engines = new ConfigurationCompute(orm, this.store, pool, computeTimeLimitMs);
     this.review = new ConfigurationReview(orm, this.store, this.engines, publicUrl);
-    this.snapshots = new ConfigurationApprovals(orm, this.store, this.engines);
-    this.threads = new ConfigurationComments(orm, this.store);
+    this.snapshots = new ConfigurationApprovals(orm, this.engines);
+    this.threads = new ConfigurationComments(orm);
   }
 
   // ---- store.ts: reading, creating, revising -------------------------------------
@@ -48,14 +50,14 @@ export class Configurations {
   revise(teamId: string, id: string, authorId: string, baseRevision: number, change: ConfigurationChange) {
     return this.store.revise(teamId, id, authorId, baseRevision, change);
   }
-  setArchived(teamId: string, id: string, userId: string, archived: boolean) {
-    return this.store.setArchived(teamId, id, userId, archived);
+  setArchived(teamId: string, c: { id: string }, userId: string, archived: boolean) {
+    return this.store.setArchived(teamId, c, userId, archived);
   }
-  revisions(teamId: string, id: string) {
-    return this.store.revisions(teamId, id);
+  revisions(c: { id: string }) {
+    return this.store.revisions(c);
   }
-  history(teamId: string, id: string) {
-    return this.store.history(teamId, id);
+  history(c: { id: string }) {
+    return this.store.history(c);
   }
 
   // ---- compute.ts: inputs and results --------------------------------------------
@@ -84,24 +86,24 @@ export class Configurations {
   }
 
   // ---- approvals.ts: frozen snapshots --------------------------------------------
-  approvals(teamId: string, id: string) {
-    return this.snapshots.approvals(teamId, id);
+  approvals(c: { id: string }) {
+    return this.snapshots.approvals(c);
   }
-  approval(teamId: string, id: string, approvalId: string) {
-    return this.snapshots.approval(teamId, id, approvalId);
+  approval(c: { id: string }, approvalId: string) {
+    return this.snapshots.approval(c, approvalId);
   }
-  frozen(teamId: string, id: string, approvalId: string) {
-    return this.snapshots.frozen(teamId, id, approvalId);
+  frozen(c: { id: string }, approvalId: string) {
+    return this.snapshots.frozen(c, approvalId);
   }
 
   // ---- comments.ts: review threads -----------------------------------------------
-  comments(teamId: string, id: string) {
-    return this.threads.comments(teamId, id);
+  comments(c: { id: string }) {
+    return this.threads.comments(c);
   }
-  addComment(teamId: string, id: string, authorId: string, input: { body: string; resultRef?: string | undefined; parentId?: string | undefined }) {
-    return this.threads.addComment(teamId, id, authorId, input);
+  addComment(teamId: string, c: ConfigurationView, authorId: string, input: { body: string; resultRef?: string | undefined; parentId?: string | undefined }) {
+    return this.threads.addComment(teamId, c, authorId, input);
   }
-  resolveThread(teamId: string, id: string, commentId: string, userId: string, resolved: boolean) {
-    return this.threads.resolveThread(teamId, id, commentId, userId, resolved);
+  resolveThread(c: { id: string }, commentId: string, userId: string, resolved: boolean) {
+    return this.threads.resolveThread(c, commentId, userId, resolved);
   }
 }

@@ -152,14 +152,14 @@ export class Programmes {
         let latest: BoardRow['latest'];
         try {
           const { inputs } = await this.configs.inputs(t.teamId, c.id, c.revision);
-          latest = { revision: c.revision, trackProfile: p.trackProfile, figures: keyFigures(await this.configs.compute({ ...inputs, trackProfile: p.trackProfile as TrackProfileId })) };
+          latest = { revision: c.revision, trackProfile: p.trackProfile, figures: keyFigures(await this.configs.compute({ ...inputs, trackProfile: p.trackProfile })) };
         } catch (err) {
           latest = { revision: c.revision, error: err instanceof Error ? err.message : String(err) };
         }
-        const [a] = await this.configs.approvals(t.teamId, c.id);
+        const [a] = await this.configs.approvals(c);
         let approved: BoardRow['approved'] = null;
         if (a) {
-          const full = await this.configs.frozen(t.teamId, c.id, a.id);
+          const full = await this.configs.frozen(c, a.id);
           approved = { revision: a.revision, approvedAt: a.approvedAt, engineVersion: a.engineVersion, trackProfile: full.trackProfile, figures: keyFigures(full.results) };
         }
         rows.push({ teamId: t.teamId, teamName: t.teamName, configurationId: c.id, configurationName: c.name, status: c.status, latest, approved });

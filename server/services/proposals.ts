@@ -59,19 +59,24 @@ export class Proposals {
     private readonly designs: AxleDesigns,
   ) {}
 
-  async list(teamId: string, designId: string): Promise<ProposalView[]> {
-    await this.designs.get(teamId, designId);
+  /** The design's proposals, newest first (`design` as loaded for the team). */
+  async list(design: { id: string }): Promise<ProposalView[]> {
     return this.orm
       .select(columns)
       .from(axleDesignProposals)
       .leftJoin(author, eq(author.id, axleDesignProposals.authorId))
       .leftJoin(decider, eq(decider.id, axleDesignProposals.decidedBy))
-      .where(eq(axleDesignProposals.designId, designId))
+      .where(eq(axleDesignProposals.designId, design.id))
       .orderBy(desc(axleDesignProposals.createdAt));
   }
 
   async get(teamId: string, designId: string, proposalId: string): Promise<ProposalView> {
-    await this.designs.get(teamId, designId);
+    return this.getOf(await this.designs.get(teamId, designId), proposalId);
+  }
+
+  /** One proposal of the design (`design` as loaded for the team); 404 when it is another design's. */
+  async getOf(design: { id: string }, proposalId: string): Promise<ProposalView> {
+    const designId = design.id;
     const [p] = await this.orm
       .select({ ...columns, corner: axleDesignProposals.corner })
       .from(axleDesignProposals)

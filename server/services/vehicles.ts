@@ -117,18 +117,18 @@ export class Vehicles {
     view: (tx, teamId, id) => this.get(teamId, id, tx),
   };
 
-  async revisions(teamId: string, vehicleId: string): Promise<RevisionRow[]> {
-    await this.get(teamId, vehicleId);
+  /** The vehicle's revisions, newest first (`vehicle` as loaded for the team). */
+  async revisions(vehicle: { id: string }): Promise<RevisionRow[]> {
     return this.orm
       .select({ revision: vehicleRevisions.revision, message: vehicleRevisions.message, authorName: users.displayName, createdAt: vehicleRevisions.createdAt })
       .from(vehicleRevisions)
       .leftJoin(users, eq(users.id, vehicleRevisions.authorId))
-      .where(eq(vehicleRevisions.vehicleId, vehicleId))
+      .where(eq(vehicleRevisions.vehicleId, vehicle.id))
       .orderBy(desc(vehicleRevisions.revision));
   }
 
-  async revision(teamId: string, vehicleId: string, revision: number) {
-    await this.get(teamId, vehicleId);
+  /** One stored revision of the vehicle (`vehicle` as loaded for the team). */
+  async revision(vehicle: { id: string }, revision: number) {
     const [r] = await this.orm
       .select({
         revision: vehicleRevisions.revision,
@@ -141,7 +141,7 @@ export class Vehicles {
       })
       .from(vehicleRevisions)
       .leftJoin(users, eq(users.id, vehicleRevisions.authorId))
-      .where(and(eq(vehicleRevisions.vehicleId, vehicleId), eq(vehicleRevisions.revision, revision)));
+      .where(and(eq(vehicleRevisions.vehicleId, vehicle.id), eq(vehicleRevisions.revision, revision)));
     if (!r) throw notFound('Revision');
     return { ...r, data: r.data === null ? null : upgradeVehicleDocument(r.data) };
   }

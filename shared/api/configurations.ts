@@ -125,3 +125,17 @@ export interface CommentThread extends ReviewComment {
   readonly resolved: boolean;
   readonly replies: readonly ReviewComment[];
 }
+
+/** The answer of posting a comment or resolving / reopening a thread: the stored comment (`resolved` on threads). */
+export interface StoredComment {
+  readonly id: string;
+  readonly configurationId: string;
+  readonly revision: number;
+  readonly parentId: string | null;
+  readonly resultRef: string | null;
+  readonly body: string;
+  readonly authorId: string | null;
+  readonly createdAt: string;
+  readonly resolvedAt: string | null;
+  readonly resolvedBy: string | null;
+}

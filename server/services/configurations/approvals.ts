@@ -1,7 +1,8 @@
 /**
  * Approvals of configurations: the inputs, results and engine version frozen
  * when a reviewer approved (written by configurations/review.ts), read back
- * and recomputed by today's engine beside them.
+ * and recomputed by today's engine beside them. Each method takes the
+ * configuration as loaded for its team (routes/loaders.ts).
  */
 import { and, desc, eq } from 'drizzle-orm';
 import type { Orm } from '../../db/client.js';
@@ -10,18 +11,16 @@ import { notFound } from '../../../shared/errors.js';
 import { ENGINE_VERSION } from '../../../shared/version.js';
 import type { ConfigurationResults } from '../../../shared/api/configurations.js';
 import type { Difference } from '../document-diff.js';
-import type { ConfigurationStore } from './store.js';
 import { diffResults, type ConfigurationCompute } from './compute.js';
 
 export class ConfigurationApprovals {
   constructor(
     private readonly orm: Orm,
-    private readonly store: ConfigurationStore,
     private readonly engines: ConfigurationCompute,
   ) {}
 
-  async approvals(teamId: string, id: string) {
-    await this.store.get(teamId, id);
+  /** The configuration's approvals, newest first (`c` as the team's). */
+  async approvals(c: { id: string }) {
     return this.orm
       .select({
         id: configurationApprovals.id,
@@ -33,24 +32,22 @@ export class ConfigurationApprovals {
       })
       .from(configurationApprovals)
       .leftJoin(users, eq(users.id, configurationApprovals.approvedBy))
-      .where(eq(configurationApprovals.configurationId, id))
+      .where(eq(configurationApprovals.configurationId, c.id))
       .orderBy(desc(configurationApprovals.approvedAt));
   }
 
   /** An approval's frozen inputs' track profile and results, as stored. */
-  async frozen(teamId: string, id: string, approvalId: string): Promise<{ trackProfile: string; results: ConfigurationResults }> {
-    await this.store.get(teamId, id);
+  async frozen(c: { id: string }, approvalId: string): Promise<{ trackProfile: string; results: ConfigurationResults }> {
     const [a] = await this.orm
       .select({ inputs: configurationApprovals.inputs, results: configurationApprovals.results })
       .from(configurationApprovals)
-      .where(and(eq(configurationApprovals.id, approvalId), eq(configurationApprovals.configurationId, id)));
+      .where(and(eq(configurationApprovals.id, approvalId), eq(configurationApprovals.configurationId, c.id)));
     if (!a) throw notFound('Approval');
     return { trackProfile: a.inputs.trackProfile, results: a.results };
   }
 
   /** The frozen snapshot as approved, and beside it what the current engine computes from the same frozen inputs. */
-  async approval(teamId: string, id: string, approvalId: string) {
-    await this.store.get(teamId, id);
+  async approval(c: { id: string }, approvalId: string) {
     const [a] = await this.orm
       .select({
         id: configurationApprovals.id,
@@ -64,7 +61,7 @@ export class ConfigurationApprovals {
       })
       .from(configurationApprovals)
       .leftJoin(users, eq(users.id, configurationApprovals.approvedBy))
-      .where(and(eq(configurationApprovals.id, approvalId), eq(configurationApprovals.configurationId, id)));
+      .where(and(eq(configurationApprovals.id, approvalId), eq(configurationApprovals.configurationId, c.id)));
     if (!a) throw notFound('Approval');
     const frozen = a.inputs;
     let recompute: { engineVersion: string; differences: Difference[] } | { engineVersion: string; error: { code: string; message: string } };

@@ -4,16 +4,14 @@ import type { Orm } from '../../db/client.js';
 import { reviewComments, users } from '../../db/schema.js';
 import { DomainError, notFound } from '../../../shared/errors.js';
 import { recordActivity } from '../activity.js';
-import type { ConfigurationStore } from './store.js';
+import type { ConfigurationView } from './store.js';
 
+/** Each method takes the configuration as loaded for its team (routes/loaders.ts). */
 export class ConfigurationComments {
-  constructor(
-    private readonly orm: Orm,
-    private readonly store: ConfigurationStore,
-  ) {}
+  constructor(private readonly orm: Orm) {}
 
-  async comments(teamId: string, id: string) {
-    await this.store.get(teamId, id);
+  async comments(c: { id: string }) {
+    const id = c.id;
     const rows = await this.orm
       .select({
         id: reviewComments.id,
@@ -37,8 +35,8 @@ export class ConfigurationComments {
     return threads;
   }
 
-  async addComment(teamId: string, id: string, authorId: string, input: { body: string; resultRef?: string | undefined; parentId?: string | undefined }) {
-    const c = await this.store.get(teamId, id);
+  async addComment(teamId: string, c: ConfigurationView, authorId: string, input: { body: string; resultRef?: string | undefined; parentId?: string | undefined }) {
+    const id = c.id;
     if (input.parentId !== undefined) {
       const [p] = await this.orm
         .select({ parentId: reviewComments.parentId })
@@ -59,8 +57,8 @@ export class ConfigurationComments {
     });
   }
 
-  async resolveThread(teamId: string, id: string, commentId: string, userId: string, resolved: boolean) {
-    await this.store.get(teamId, id);
+  async resolveThread(c: { id: string }, commentId: string, userId: string, resolved: boolean) {
+    const id = c.id;
     const [row] = await this.orm
       .update(reviewComments)
       .set(resolved ? { resolvedAt: sql`now()`, resolvedBy: userId } : { resolvedAt: null, resolvedBy: null })

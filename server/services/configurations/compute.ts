@@ -9,7 +9,7 @@ import { axleDesignRevisions, vehicleRevisions } from '../../db/schema.js';
 import type { ComputePool } from '../../compute/pool.js';
 import { notFound } from '../../../shared/errors.js';
 import { ENGINE_VERSION } from '../../../shared/version.js';
-import { trackProfiles, type TrackProfileId } from '../../../shared/intent/profiles.js';
+import { trackProfiles } from '../../../shared/intent/profiles.js';
 import { upgradeCornerDocument, type Corner } from '../../../shared/schema/corner.js';
 import type { BalanceResponse } from '../../../shared/balance/api.js';
 import type { ToeFit } from '../../../shared/kinematics/fit.js';
@@ -57,7 +57,7 @@ export class ConfigurationCompute {
       frontDesignRevision: r.frontDesignRevision,
       rearDesignId: r.rearDesignId,
       rearDesignRevision: r.rearDesignRevision,
-      trackProfile: r.trackProfile as TrackProfileId,
+      trackProfile: r.trackProfile,
     };
     return {
       revision: r.revision,

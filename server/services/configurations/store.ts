@@ -55,7 +55,7 @@ export type ConfigurationView = {
   vehicle: { id: string; name: string; revision: number };
   front: { designId: string; name: string; revision: number };
   rear: { designId: string; name: string; revision: number };
-  trackProfile: string;
+  trackProfile: TrackProfileId;
   updatedAt: Date;
   updatedByName: string | null;
   createdAt: Date;
@@ -237,7 +237,7 @@ export class ConfigurationStore {
           frontDesignRevision: change.frontDesignRevision ?? (change.frontDesignId ? undefined : previous.frontDesignRevision),
           rearDesignId: change.rearDesignId ?? previous.rearDesignId,
           rearDesignRevision: change.rearDesignRevision ?? (change.rearDesignId ? undefined : previous.rearDesignRevision),
-          trackProfile: change.trackProfile ?? (previous.trackProfile as TrackProfileId),
+          trackProfile: change.trackProfile ?? previous.trackProfile,
         },
         tx,
       );
@@ -272,14 +272,13 @@ export class ConfigurationStore {
   };
 
   /** Archive or restore (configurations are never deleted). */
-  async setArchived(teamId: string, id: string, userId: string, archived: boolean): Promise<ConfigurationView> {
-    await this.get(teamId, id);
-    await this.orm.update(configurations).set({ archived, updatedAt: sql`now()`, updatedBy: userId }).where(eq(configurations.id, id));
-    return this.get(teamId, id);
+  async setArchived(teamId: string, c: { id: string }, userId: string, archived: boolean): Promise<ConfigurationView> {
+    await this.orm.update(configurations).set({ archived, updatedAt: sql`now()`, updatedBy: userId }).where(eq(configurations.id, c.id));
+    return this.get(teamId, c.id);
   }
 
-  async revisions(teamId: string, id: string) {
-    await this.get(teamId, id);
+  /** The configuration's revisions, newest first (`c` as loaded for the team). */
+  async revisions(c: { id: string }) {
     return this.orm
       .select({
         revision: configurationRevisions.revision,
@@ -297,12 +296,12 @@ export class ConfigurationStore {
       })
       .from(configurationRevisions)
       .leftJoin(users, eq(users.id, configurationRevisions.authorId))
-      .where(eq(configurationRevisions.configurationId, id))
+      .where(eq(configurationRevisions.configurationId, c.id))
       .orderBy(desc(configurationRevisions.revision));
   }
 
-  async history(teamId: string, id: string) {
-    await this.get(teamId, id);
+  /** Every review transition, oldest first (`c` as loaded for the team). */
+  async history(c: { id: string }) {
     return this.orm
       .select({
         revision: configurationTransitions.revision,
@@ -314,7 +313,7 @@ export class ConfigurationStore {
       })
       .from(configurationTransitions)
       .leftJoin(users, eq(users.id, configurationTransitions.actorId))
-      .where(eq(configurationTransitions.configurationId, id))
+      .where(eq(configurationTransitions.configurationId, c.id))
       .orderBy(asc(configurationTransitions.createdAt));
   }
 
