@@ -15,6 +15,9 @@ import type { Proposals } from '../services/proposals.js';
 import type { Vehicles } from '../services/vehicles.js';
 import { archivedQuery, baseRevision, compareRevisions, documentName, revisionMessage, revisionNumber } from './vehicles.js';
 import { loadParam, loadParentParam, loaded } from './loaders.js';
+import { reply } from '../http/reply.js';
+import type { AxleDesign, AxleDesignSummary, Proposal } from '../../shared/api/documents.js';
+import type { RevisionRow } from '../../shared/api/common.js';
 
 const createSchema = z.strictObject({ axle: z.enum(AXLES), name: documentName, corner: z.unknown() });
 const patchSchema = z
@@ -50,13 +53,13 @@ export function vehicleAxleDesignsRouter(designs: AxleDesigns, vehicles: Vehicle
   r.use(loadParentParam('vehicleId', loadParam('vehicle', 'Vehicle', (req, id) => vehicles.get(currentAccess(req).teamId, id))));
   r.get('/', auth.requirePermission('team:read'), async (req, res) => {
     const q = validate(archivedQuery, req.query, 'query');
-    res.json(await designs.list(await loaded(req, 'vehicle'), q.archived === 'true'));
+    reply<AxleDesignSummary[]>(res, await designs.list(await loaded(req, 'vehicle'), q.archived === 'true'));
   });
   r.post('/', auth.requirePermission('vehicle:manage'), async (req, res) => {
     const input = validate(createSchema, req.body);
     const corner = parseCorner(input.corner);
     const vehicle = await loaded(req, 'vehicle');
-    res.status(201).json(await designs.create(currentAccess(req).teamId, vehicle, currentUser(req).id, { ...input, corner }));
+    reply<AxleDesign>(res, await designs.create(currentAccess(req).teamId, vehicle, currentUser(req).id, { ...input, corner }), 201);
   });
   return r;
 }
@@ -69,20 +72,20 @@ export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, au
   r.param('proposalId', loadParam('proposal', 'Proposal', async (req, id) => proposals.getOf(await loaded(req, 'design'), id)));
 
   r.get('/:designId', requirePermission('team:read'), async (req, res) => {
-    res.json(await loaded(req, 'design'));
+    reply<AxleDesign>(res, await loaded(req, 'design'));
   });
 
   r.patch('/:designId', requirePermission('vehicle:manage'), async (req, res) => {
     const { baseRevision: base, ...change } = validate(patchSchema, req.body);
     const d = await loaded(req, 'design');
-    res.json(await designs.update(currentAccess(req).teamId, d.id, currentUser(req).id, base, change));
+    reply<AxleDesign>(res, await designs.update(currentAccess(req).teamId, d.id, currentUser(req).id, base, change));
   });
 
   r.put('/:designId/corner', requirePermission('design:edit'), async (req, res) => {
     const input = validate(cornerBodySchema, req.body);
     const corner = parseCorner(input.corner);
     const d = await loaded(req, 'design');
-    res.json(await designs.update(currentAccess(req).teamId, d.id, currentUser(req).id, input.baseRevision, { corner, message: input.message }));
+    reply<AxleDesign>(res, await designs.update(currentAccess(req).teamId, d.id, currentUser(req).id, input.baseRevision, { corner, message: input.message }));
   });
 
   // Reads an uploaded CSV or JSON file against the current corner and answers the preview; saves nothing.
@@ -93,7 +96,7 @@ export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, au
   });
 
   r.get('/:designId/revisions', requirePermission('team:read'), async (req, res) => {
-    res.json(await designs.revisions(await loaded(req, 'design')));
+    reply<RevisionRow[]>(res, await designs.revisions(await loaded(req, 'design')));
   });
 
   // Changed values (hardpoint coordinates one by one) between two revisions, e.g. ?from=1&to=3.
@@ -108,7 +111,7 @@ export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, au
   });
 
   r.get('/:designId/proposals', requirePermission('team:read'), async (req, res) => {
-    res.json(await proposals.list(await loaded(req, 'design')));
+    reply<Proposal[]>(res, await proposals.list(await loaded(req, 'design')));
   });
 
   r.post('/:designId/proposals', requirePermission('design:propose'), async (req, res) => {
@@ -116,11 +119,11 @@ export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, au
     const corner = parseCorner(input.corner);
     const d = await loaded(req, 'design');
     const p = await proposals.create(currentAccess(req).teamId, d.id, currentUser(req).id, { ...input, corner });
-    res.status(201).json(p);
+    reply<Proposal>(res, p, 201);
   });
 
   r.get('/:designId/proposals/:proposalId', requirePermission('team:read'), async (req, res) => {
-    res.json(await loaded(req, 'proposal'));
+    reply<Proposal>(res, await loaded(req, 'proposal'));
   });
 
   r.post('/:designId/proposals/:proposalId/accept', requirePermission('design:accept'), async (req, res) => {

@@ -5,6 +5,9 @@ import { notFound, validate } from '../http/errors.js';
 import { currentAccess, currentUser, isUuid, type Authorizer } from '../http/authorize.js';
 import { parseVehicleData, type Vehicles } from '../services/vehicles.js';
 import { loadParam, loaded } from './loaders.js';
+import { reply } from '../http/reply.js';
+import type { VehicleRecord, VehicleSummary } from '../../shared/api/documents.js';
+import type { RevisionRow } from '../../shared/api/common.js';
 import { diffDocuments } from '../services/document-diff.js';
 
 export const documentName = z.string().trim().min(1, 'is required').max(120);
@@ -38,22 +41,22 @@ export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
 
   r.get('/', requirePermission('team:read'), async (req, res) => {
     const q = validate(archivedQuery, req.query, 'query');
-    res.json(await vehicles.list(currentAccess(req).teamId, q.archived === 'true'));
+    reply<VehicleSummary[]>(res, await vehicles.list(currentAccess(req).teamId, q.archived === 'true'));
   });
 
   r.post('/', requirePermission('vehicle:manage'), async (req, res) => {
     const input = validate(createSchema, req.body);
-    res.status(201).json(await vehicles.create(currentAccess(req).teamId, currentUser(req).id, input));
+    reply<VehicleRecord>(res, await vehicles.create(currentAccess(req).teamId, currentUser(req).id, input), 201);
   });
 
   r.get('/:vehicleId', requirePermission('team:read'), async (req, res) => {
-    res.json(await loaded(req, 'vehicle'));
+    reply<VehicleRecord>(res, await loaded(req, 'vehicle'));
   });
 
   r.patch('/:vehicleId', requirePermission('vehicle:manage'), async (req, res) => {
     const { baseRevision: base, ...change } = validate(patchSchema, req.body);
     const v = await loaded(req, 'vehicle');
-    res.json(await vehicles.update(currentAccess(req).teamId, v.id, currentUser(req).id, base, change));
+    reply<VehicleRecord>(res, await vehicles.update(currentAccess(req).teamId, v.id, currentUser(req).id, base, change));
   });
 
   r.put('/:vehicleId/data', requirePermission('vehicle:edit'), async (req, res) => {
@@ -69,7 +72,7 @@ export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
   });
 
   r.get('/:vehicleId/revisions', requirePermission('team:read'), async (req, res) => {
-    res.json(await vehicles.revisions(await loaded(req, 'vehicle')));
+    reply<RevisionRow[]>(res, await vehicles.revisions(await loaded(req, 'vehicle')));
   });
 
   // Changed values between two revisions (e.g. ?from=1&to=3), side by side.

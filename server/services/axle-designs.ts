@@ -31,7 +31,7 @@ export interface AxleDesignView {
   revision: number;
   status: DesignStatus;
   archived: boolean;
-  corner: unknown;
+  corner: Corner;
   updatedAt: Date;
   updatedByName: string | null;
 }
@@ -55,6 +55,12 @@ export interface AxleDesignChange {
 type AxleDesignRow = typeof axleDesigns.$inferSelect;
 
 export const parseCorner = (doc: unknown): Corner => parseDocument(cornerSchema, upgradeCornerDocument, doc, 'corner');
+
+/**
+ * A corner as stored (design, revision or proposal rows): every one passed `parseCorner`
+ * before it was written, and the upgrade brings an older format to today's.
+ */
+export const storedCorner = (doc: unknown): Corner => upgradeCornerDocument(doc) as Corner;
 
 const columns = {
   id: axleDesigns.id,
@@ -93,7 +99,7 @@ export class AxleDesigns {
       .leftJoin(users, eq(users.id, axleDesigns.updatedBy))
       .where(and(eq(axleDesigns.id, designId), eq(vehicles.teamId, teamId)));
     if (!d) throw notFound('Axle design');
-    return { ...d, corner: upgradeCornerDocument(d.corner) };
+    return { ...d, corner: storedCorner(d.corner) };
   }
 
   /** A new design of the team's vehicle (`vehicle` as loaded for the team). */
@@ -247,6 +253,6 @@ export class AxleDesigns {
       .leftJoin(users, eq(users.id, axleDesignRevisions.authorId))
       .where(and(eq(axleDesignRevisions.designId, design.id), eq(axleDesignRevisions.revision, revision)));
     if (!r) throw notFound('Revision');
-    return { ...r, corner: upgradeCornerDocument(r.corner) };
+    return { ...r, corner: storedCorner(r.corner) };
   }
 }

@@ -10,8 +10,8 @@ import { alias } from 'drizzle-orm/pg-core';
 import type { Orm } from '../db/client.js';
 import { axleDesignProposals, users, type ProposalStatus } from '../db/schema.js';
 import { DomainError, notFound } from '../../shared/errors.js';
-import { upgradeCornerDocument, type Corner } from '../../shared/schema/corner.js';
-import type { AxleDesigns, AxleDesignView } from './axle-designs.js';
+import type { Corner } from '../../shared/schema/corner.js';
+import { storedCorner, type AxleDesigns, type AxleDesignView } from './axle-designs.js';
 import { recordActivity } from './activity.js';
 import { writeRevision } from './revisions.js';
 
@@ -29,7 +29,7 @@ export interface ProposalView {
   decidedAt: Date | null;
   decisionMessage: string | null;
   acceptedRevision: number | null;
-  corner?: unknown;
+  corner?: Corner;
 }
 
 const author = alias(users, 'author');
@@ -84,7 +84,7 @@ export class Proposals {
       .leftJoin(decider, eq(decider.id, axleDesignProposals.decidedBy))
       .where(and(eq(axleDesignProposals.id, proposalId), eq(axleDesignProposals.designId, designId)));
     if (!p) throw notFound('Proposal');
-    return { ...p, corner: upgradeCornerDocument(p.corner) };
+    return { ...p, corner: storedCorner(p.corner) };
   }
 
   async create(

@@ -9,7 +9,7 @@ export interface Difference {
 }
 
 /** One entry of a document's revision list. */
-export interface RevisionEntry {
+export interface RevisionRow {
   readonly revision: number;
   readonly message: string | null;
   readonly authorName: string | null;

@@ -10,12 +10,12 @@ import type { ComputePool } from '../../compute/pool.js';
 import { notFound } from '../../../shared/errors.js';
 import { ENGINE_VERSION } from '../../../shared/version.js';
 import { trackProfiles } from '../../../shared/intent/profiles.js';
-import { upgradeCornerDocument, type Corner } from '../../../shared/schema/corner.js';
 import type { BalanceResponse } from '../../../shared/balance/api.js';
 import type { ToeFit } from '../../../shared/kinematics/fit.js';
 import { upgradeVehicleDocument } from '../../../shared/schema/vehicle.js';
 import type { ConfigurationInputs, ConfigurationResults } from '../../../shared/api/configurations.js';
 import { diffDocuments, type Difference } from '../document-diff.js';
+import { storedCorner } from '../axle-designs.js';
 import type { ConfigurationRefs, ConfigurationStore } from './store.js';
 
 export type { ConfigurationInputs, ConfigurationResults };
@@ -47,8 +47,7 @@ export class ConfigurationCompute {
         .from(axleDesignRevisions)
         .where(and(eq(axleDesignRevisions.designId, designId), eq(axleDesignRevisions.revision, rev)));
       if (!d) throw notFound('Axle design revision');
-      // Revision rows hold corners the corner schema accepted when they were written; the upgrade brings them to today's format.
-      return upgradeCornerDocument(d.corner) as Corner;
+      return storedCorner(d.corner);
     };
     const refs: ConfigurationRefs = {
       vehicleId: r.vehicleId,
