@@ -22,6 +22,8 @@ import {
 } from 'drizzle-orm/pg-core';
 import type { ConfigurationResults, FrozenInputs } from '../../shared/api/configurations.js';
 import type { TrackProfileId } from '../../shared/intent/profiles.js';
+import type { RigMapping, RigPoint } from '../../shared/io/rig-measurement.js';
+import type { Role } from '../permissions.js';
 
 const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
 
@@ -64,7 +66,7 @@ export const memberships = pgTable(
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
     /** A set of roles: owner, engineer, designer, reviewer, viewer. */
-    roles: text('roles').array().notNull(),
+    roles: text('roles').array().$type<Role[]>().notNull(),
     createdAt: createdAt(),
   },
   (t) => [
@@ -389,7 +391,7 @@ export const teamInvitations = pgTable(
       .references(() => teams.id, { onDelete: 'cascade' }),
     /** Stored lower-cased. */
     email: text('email').notNull(),
-    roles: text('roles').array().notNull(),
+    roles: text('roles').array().$type<Role[]>().notNull(),
     invitedBy: uuid('invited_by').references(() => users.id, { onDelete: 'set null' }),
     expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
     acceptedAt: timestamp('accepted_at', { withTimezone: true }),
@@ -546,9 +548,9 @@ export const rigMeasurements = pgTable(
     rackMm: doublePrecision('rack_mm').notNull().default(0),
     basis: text('basis', { enum: RIG_BASES }).notNull().default('change'),
     /** The mapping the file was read with (shared/io/rig-measurement.ts `RigMapping`). */
-    mapping: jsonb('mapping').notNull(),
+    mapping: jsonb('mapping').$type<RigMapping>().notNull(),
     /** Parsed points: `{ travelMm, toeDeg, camberDeg, line }[]`, mm and deg, Rollwise signs. */
-    points: jsonb('points').notNull(),
+    points: jsonb('points').$type<RigPoint[]>().notNull(),
     pointCount: integer('point_count').notNull(),
     hasCamber: boolean('has_camber').notNull(),
     note: text('note'),

@@ -57,7 +57,7 @@ export class Accounts {
       .innerJoin(teams, eq(teams.id, memberships.teamId))
       .where(eq(memberships.userId, userId))
       .orderBy(asc(teams.name));
-    return { user: { ...user, emailVerified: verifiedAt !== null }, memberships: rows.map((r) => ({ ...r, roles: r.roles as Role[] })) };
+    return { user: { ...user, emailVerified: verifiedAt !== null }, memberships: rows };
   }
 
   async register(input: { email: string; password: string; displayName: string }): Promise<string> {

@@ -63,7 +63,7 @@ export class Invitations {
       const text = mailText.invitation({ teamName: team!.name, inviterName: inviter?.name ?? 'A team owner', roles: input.roles, link: this.link(token), expiresAt });
       if (o.mail !== false) await enqueueMail(tx, { kind: 'invitation', to: email, teamId, ...text, dedupeKey: `invitation:${inv!.id}` });
       await recordActivity(tx, { teamId, actorId: inviterId, action: 'invitation.create', subjectType: 'invitation', subjectId: inv!.id, summary: `Invited ${email} as ${input.roles.join(', ')}` });
-      return { id: inv!.id, email, roles: input.roles as Role[], expiresAt, acceptedAt: null };
+      return { id: inv!.id, email, roles: input.roles, expiresAt, acceptedAt: null };
     });
   }
 
@@ -104,7 +104,7 @@ export class Invitations {
   async info(token: string): Promise<InvitationInfo> {
     const inv = await this.load(token);
     // Whether the address has an account is not said: the page offers signing in and registering alike.
-    return { teamId: inv.teamId, teamName: inv.teamName, email: inv.email, roles: inv.roles as Role[], invitedByName: inv.invitedByName, expiresAt: inv.expiresAt };
+    return { teamId: inv.teamId, teamName: inv.teamName, email: inv.email, roles: inv.roles, invitedByName: inv.invitedByName, expiresAt: inv.expiresAt };
   }
 
   /**
@@ -129,7 +129,7 @@ export class Invitations {
   }
 
   private async acceptLoaded(
-    inv: { id: string; teamId: string; email: string; roles: string[] },
+    inv: { id: string; teamId: string; email: string; roles: Role[] },
     who: { userId: string; email: string; emailVerified: boolean } | { register: { displayName: string; password: string } },
   ): Promise<{ userId: string; teamId: string }> {
     if ('userId' in who && normaliseEmail(who.email) !== inv.email) {

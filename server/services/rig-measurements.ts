@@ -219,11 +219,11 @@ export class RigMeasurements {
   async get(teamId: string, id: string) {
     const s = await this.summary(teamId, id);
     const [row] = await this.orm.select({ mapping: rigMeasurements.mapping, points: rigMeasurements.points }).from(rigMeasurements).where(eq(rigMeasurements.id, id));
-    const points = row!.points as RigPoint[];
+    const points = row!.points;
     const corner = await this.designCorner(s.designId, s.designRevision);
     const tolerance = await this.tolerance(teamId);
     const comparison = await this.compare(corner, points, { rackMm: s.rackMm, side: s.side, basis: s.basis }, tolerance);
-    return { ...s, mapping: row!.mapping as RigMapping, points, comparison, engineVersion: ENGINE_VERSION };
+    return { ...s, mapping: row!.mapping, points, comparison, engineVersion: ENGINE_VERSION };
   }
 
   async remove(teamId: string, id: string, userId: string): Promise<void> {

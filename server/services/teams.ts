@@ -33,7 +33,7 @@ export class Teams {
       .innerJoin(teams, eq(teams.id, memberships.teamId))
       .where(eq(memberships.userId, userId))
       .orderBy(asc(teams.name));
-    return rows.map((r) => ({ ...r, roles: r.roles as Role[] }));
+    return rows;
   }
 
   async detail(teamId: string, roles: Role[]) {
@@ -75,7 +75,7 @@ export class Teams {
       .innerJoin(users, eq(users.id, memberships.userId))
       .where(eq(memberships.teamId, teamId))
       .orderBy(asc(users.displayName));
-    return rows.map((r) => ({ ...r, roles: r.roles as Role[] }));
+    return rows;
   }
 
   /** Changes roles (roles given) or removes the member (roles null), never leaving the team without an owner. */
