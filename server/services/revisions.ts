@@ -15,8 +15,6 @@ import type { Executor } from '../db/client.js';
 import { notFound, parseOrThrow, staleRevision } from '../../shared/errors.js';
 import { recordActivity, type ActivityEntry } from './activity.js';
 
-export { staleRevision };
-
 /** Upgrades an engineering document to the current format and validates it (400 listing fields). */
 export function parseDocument<T>(schema: ZodType<T>, upgrade: (doc: unknown) => unknown, doc: unknown, what: string): T {
   return parseOrThrow(schema, upgrade(doc), what);
