@@ -147,7 +147,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use(refuseNulCharacters);
   api.use('/auth/tokens', apiTokensRouter(apiTokens, auth));
   api.use('/auth', authRouter(config, accounts, db.pool, auth));
-  api.use('/teams/:teamId/vehicles/:vehicleId/axle-designs', vehicleAxleDesignsRouter(designs, auth));
+  api.use('/teams/:teamId/vehicles/:vehicleId/axle-designs', vehicleAxleDesignsRouter(designs, vehicles, auth));
   api.use('/teams/:teamId/vehicles', vehiclesRouter(vehicles, auth));
   api.use('/teams/:teamId/axle-designs', axleDesignsRouter(designs, proposals, auth));
   api.use('/invitations', invitationLinksRouter(invitations, accounts, config.addressLimit));

@@ -21,6 +21,10 @@ import {
   check,
 } from 'drizzle-orm/pg-core';
 import { AXLE_NAMES } from '../../shared/schema/axle.js';
+import type { ConfigurationResults, FrozenInputs } from '../../shared/api/configurations.js';
+import type { TrackProfileId } from '../../shared/tracks/profiles.js';
+import type { RigMapping, RigPoint } from '../../shared/io/rig-measurement.js';
+import type { Role } from '../permissions.js';
 
 const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
 
@@ -63,7 +67,7 @@ export const memberships = pgTable(
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
     /** A set of roles: owner, engineer, designer, reviewer, viewer. */
-    roles: text('roles').array().notNull(),
+    roles: text('roles').array().$type<Role[]>().notNull(),
     createdAt: createdAt(),
   },
   (t) => [
@@ -235,7 +239,7 @@ export const configurations = pgTable(
       .references(() => axleDesigns.id),
     rearDesignRevision: integer('rear_design_revision').notNull(),
     /** Track profile id of the intent engine (shared/tracks/profiles.ts). */
-    trackProfile: text('track_profile').notNull(),
+    trackProfile: text('track_profile').$type<TrackProfileId>().notNull(),
     archived: boolean('archived').notNull().default(false),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
     updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
@@ -259,7 +263,7 @@ export const configurationRevisions = pgTable(
     frontDesignRevision: integer('front_design_revision').notNull(),
     rearDesignId: uuid('rear_design_id').notNull(),
     rearDesignRevision: integer('rear_design_revision').notNull(),
-    trackProfile: text('track_profile').notNull(),
+    trackProfile: text('track_profile').$type<TrackProfileId>().notNull(),
     message: text('message'),
     authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
@@ -298,8 +302,8 @@ export const configurationApprovals = pgTable(
       .references(() => configurations.id, { onDelete: 'cascade' }),
     revision: integer('revision').notNull(),
     engineVersion: text('engine_version').notNull(),
-    inputs: jsonb('inputs').notNull(),
-    results: jsonb('results').notNull(),
+    inputs: jsonb('inputs').$type<FrozenInputs>().notNull(),
+    results: jsonb('results').$type<ConfigurationResults>().notNull(),
     message: text('message'),
     approvedBy: uuid('approved_by').references(() => users.id, { onDelete: 'set null' }),
     approvedAt: timestamp('approved_at', { withTimezone: true }).notNull().defaultNow(),
@@ -386,7 +390,7 @@ export const teamInvitations = pgTable(
       .references(() => teams.id, { onDelete: 'cascade' }),
     /** Stored lower-cased. */
     email: text('email').notNull(),
-    roles: text('roles').array().notNull(),
+    roles: text('roles').array().$type<Role[]>().notNull(),
     invitedBy: uuid('invited_by').references(() => users.id, { onDelete: 'set null' }),
     expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
     acceptedAt: timestamp('accepted_at', { withTimezone: true }),
@@ -469,7 +473,7 @@ export const programmes = pgTable('programmes', {
   instructorId: uuid('instructor_id')
     .notNull()
     .references(() => users.id, { onDelete: 'cascade' }),
-  trackProfile: text('track_profile').notNull(),
+  trackProfile: text('track_profile').$type<TrackProfileId>().notNull(),
   createdAt: createdAt(),
 });
 
@@ -543,9 +547,9 @@ export const rigMeasurements = pgTable(
     rackMm: doublePrecision('rack_mm').notNull().default(0),
     basis: text('basis', { enum: RIG_BASES }).notNull().default('change'),
     /** The mapping the file was read with (shared/io/rig-measurement.ts `RigMapping`). */
-    mapping: jsonb('mapping').notNull(),
+    mapping: jsonb('mapping').$type<RigMapping>().notNull(),
     /** Parsed points: `{ travelMm, toeDeg, camberDeg, line }[]`, mm and deg, Rollwise signs. */
-    points: jsonb('points').notNull(),
+    points: jsonb('points').$type<RigPoint[]>().notNull(),
     pointCount: integer('point_count').notNull(),
     hasCamber: boolean('has_camber').notNull(),
     note: text('note'),

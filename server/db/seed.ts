@@ -325,7 +325,7 @@ async function seedConfigurations(tx: Orm, teamId: string, t: DemoTeam, userId: 
       await service.transition(teamId, created.id, { id: userId.get(step.by)!, roles: roles.get(step.by)! }, step.action, { message: step.message, gate });
     }
     for (const comment of c.comments ?? []) {
-      await service.addComment(teamId, created.id, userId.get(comment.by)!, { body: comment.body, resultRef: comment.resultRef });
+      await service.addComment(teamId, created, userId.get(comment.by)!, { body: comment.body, resultRef: comment.resultRef });
     }
   }
 }

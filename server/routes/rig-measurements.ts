@@ -9,7 +9,7 @@
  */
 import { Router } from 'express';
 import { z } from 'zod';
-import { HttpError, validate } from '../http/errors.js';
+import { validate } from '../http/errors.js';
 import { jsonUploadField, singleTextUpload, uploadedText } from '../http/upload.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
 import { AXLE_NAMES } from '../../shared/schema/axle.js';

@@ -10,7 +10,7 @@ import type { Orm } from '../db/client.js';
 import { axleDesignRevisions, axleDesigns, vehicleRevisions, vehicles } from '../db/schema.js';
 import { HttpError } from '../http/errors.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
-import { upgradeCornerDocument } from '../../shared/schema/corner.js';
+import { storedCorner } from './axle-designs.js';
 import { upgradeVehicleDocument } from '../../shared/schema/vehicle.js';
 import { diffDocuments } from './document-diff.js';
 import { diffResults, type ConfigurationInputs, type ConfigurationRefs, type Configurations } from './configurations.js';
@@ -43,7 +43,7 @@ export class LatestPreview {
         .select({ corner: axleDesignRevisions.corner })
         .from(axleDesignRevisions)
         .where(and(eq(axleDesignRevisions.designId, designId), eq(axleDesignRevisions.revision, revision)));
-      return upgradeCornerDocument(d!.corner);
+      return storedCorner(d!.corner);
     };
     return {
       vehicle: upgradeVehicleDocument(v.data),

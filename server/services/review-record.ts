@@ -85,7 +85,7 @@ export class ReviewRecord {
       this.gates.evidence(teamId, refs),
       this.gates.rigTolerance(teamId),
       this.gates.records(id),
-      this.configs.history(teamId, id),
+      this.configs.history({ id }),
       this.orm
         .select({
           id: configurationApprovals.id,

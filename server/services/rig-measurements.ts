@@ -11,7 +11,7 @@
 import { and, desc, eq, type SQL } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { axleDesignRevisions, axleDesigns, rigMeasurements, teamRigSettings, users, vehicles } from '../db/schema.js';
-import { HttpError, notFound } from '../http/errors.js';
+import { DomainError, notFound } from '../../shared/errors.js';
 import type { ComputePool } from '../compute/pool.js';
 import type { Configurations } from './configurations.js';
 import { recordActivity } from './activity.js';
@@ -43,7 +43,7 @@ export interface RigToleranceView extends RigTolerance {
 }
 
 const rowErrors = (errors: string[]) =>
-  new HttpError(400, 'rig_rows', `The rig file was refused: ${errors[0]}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, { errors });
+  new DomainError('invalid', 'rig_rows', `The rig file was refused: ${errors[0]}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, { errors });
 
 const summaryColumns = {
   id: rigMeasurements.id,
@@ -132,7 +132,7 @@ export class RigMeasurements {
       .select({ corner: axleDesignRevisions.corner })
       .from(axleDesignRevisions)
       .where(and(eq(axleDesignRevisions.designId, designId), eq(axleDesignRevisions.revision, revision)));
-    if (!r) throw new HttpError(404, 'not_found', `Axle design revision ${revision} not found`, { field: 'designRevision' });
+    if (!r) throw new DomainError('not_found', 'not_found', `Axle design revision ${revision} not found`, { field: 'designRevision' });
     return upgradeCornerDocument(r.corner);
   }
 
@@ -220,11 +220,11 @@ export class RigMeasurements {
   async get(teamId: string, id: string) {
     const s = await this.summary(teamId, id);
     const [row] = await this.orm.select({ mapping: rigMeasurements.mapping, points: rigMeasurements.points }).from(rigMeasurements).where(eq(rigMeasurements.id, id));
-    const points = row!.points as RigPoint[];
+    const points = row!.points;
     const corner = await this.designCorner(s.designId, s.designRevision);
     const tolerance = await this.tolerance(teamId);
     const comparison = await this.compare(corner, points, { rackMm: s.rackMm, side: s.side, basis: s.basis }, tolerance);
-    return { ...s, mapping: row!.mapping as RigMapping, points, comparison, engineVersion: ENGINE_VERSION };
+    return { ...s, mapping: row!.mapping, points, comparison, engineVersion: ENGINE_VERSION };
   }
 
   async remove(teamId: string, id: string, userId: string): Promise<void> {

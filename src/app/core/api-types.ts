@@ -66,14 +66,7 @@ export interface TeamInvitation {
 }
 
 /** `GET /api/teams/:teamId/vehicles` rows. */
-export interface VehicleSummary {
-  readonly id: string;
-  readonly name: string;
-  readonly archived: boolean;
-  readonly revision: number;
-  readonly updatedAt: string;
-  readonly updatedByName: string | null;
-}
+export type { VehicleSummary } from '../../../shared/api/documents';
 
 /** The one error shape of the API. */
 export interface ApiErrorBody {

@@ -1,122 +1,41 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
-import type { BalanceResponse } from '../../../../shared/balance/api';
-import type { ToeFit } from '../../../../shared/kinematics/fit';
 import type { Corner } from '../../../../shared/schema/corner';
 import type { TrackProfileId } from '../../../../shared/tracks/profiles';
+import type {
+  ApprovalDetail,
+  ApprovalSummary,
+  CommentThread,
+  CompareAnswer,
+  Configuration,
+  ConfigurationRefs,
+  ConfigurationRevision,
+  ResultsAnswer,
+  ReviewAction,
+  ReviewComment,
+  TransitionRow,
+} from '../../../../shared/api/configurations';
+import type { Difference } from '../../../../shared/api/common';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
 
-/** `status` of a configuration (docs/workflow.md). */
-export type ConfigurationStatus = 'draft' | 'in_review' | 'approved' | 'changes_requested' | 'released' | 'validated';
-
-/** The review steps of the server's state machine (POST …/configurations/:id/<action>). */
-export type ReviewAction = 'submit' | 'withdraw' | 'approve' | 'request-changes' | 'release' | 'validate';
-
-/** `Configuration` of docs/api.md. */
-export interface Configuration {
-  readonly id: string;
-  readonly name: string;
-  readonly status: ConfigurationStatus;
-  readonly revision: number;
-  readonly archived: boolean;
-  readonly vehicle: { readonly id: string; readonly name: string; readonly revision: number };
-  readonly front: { readonly designId: string; readonly name: string; readonly revision: number };
-  readonly rear: { readonly designId: string; readonly name: string; readonly revision: number };
-  readonly trackProfile: TrackProfileId;
-  readonly updatedAt: string;
-  readonly updatedByName: string | null;
-  readonly createdAt: string;
-}
-
-export interface ConfigurationRefs {
-  readonly vehicleId: string;
-  readonly vehicleRevision: number;
-  readonly frontDesignId: string;
-  readonly frontDesignRevision: number;
-  readonly rearDesignId: string;
-  readonly rearDesignRevision: number;
-  readonly trackProfile: TrackProfileId;
-}
-
-export interface ConfigurationRevision extends ConfigurationRefs {
-  readonly revision: number;
-  readonly name: string;
-  readonly message: string | null;
-  readonly authorName: string | null;
-  readonly createdAt: string;
-}
-
-export interface TransitionRow {
-  readonly revision: number;
-  readonly fromStatus: ConfigurationStatus;
-  readonly toStatus: ConfigurationStatus;
-  readonly message: string | null;
-  readonly actorName: string | null;
-  readonly createdAt: string;
-}
-
-/** What the engines compute for a configuration (the balance with both corners linked; each corner's fit over the profile's travel). */
-export interface ConfigurationResults {
-  readonly balance: BalanceResponse;
-  readonly bumpSteer: { readonly front: ToeFit; readonly rear: ToeFit; readonly travelMm: readonly [number, number] };
-}
-
-export interface ResultsAnswer {
-  readonly revision: number;
-  readonly refs: ConfigurationRefs;
-  readonly engineVersion: string;
-  readonly results: ConfigurationResults;
-}
-
-/** `Difference` of docs/api.md: a changed value at a dotted path; `change` = b − a for numbers. */
-export interface Difference {
-  readonly path: string;
-  readonly a: unknown;
-  readonly b: unknown;
-  readonly change?: number;
-}
-
-export interface ApprovalSummary {
-  readonly id: string;
-  readonly revision: number;
-  readonly engineVersion: string;
-  readonly message: string | null;
-  readonly approvedByName: string | null;
-  readonly approvedAt: string;
-}
-
-export interface ApprovalDetail extends ApprovalSummary {
-  readonly inputs: { readonly refs: ConfigurationRefs; readonly vehicle: unknown; readonly frontCorner: Corner; readonly rearCorner: Corner; readonly trackProfile: TrackProfileId };
-  readonly results: ConfigurationResults;
-  readonly recompute:
-    | { readonly engineVersion: string; readonly differences: readonly Difference[] }
-    | { readonly engineVersion: string; readonly error: { readonly code: string; readonly message: string } };
-}
-
-export interface CompareAnswer {
-  readonly engineVersion: string;
-  readonly a: { readonly configurationId: string; readonly revision: number; readonly refs: ConfigurationRefs };
-  readonly b: { readonly configurationId: string; readonly revision: number; readonly refs: ConfigurationRefs };
-  readonly inputs: readonly Difference[];
-  readonly results: readonly Difference[];
-}
-
-export interface ReviewComment {
-  readonly id: string;
-  readonly revision: number;
-  readonly parentId: string | null;
-  readonly resultRef: string | null;
-  readonly body: string;
-  readonly authorName: string | null;
-  readonly createdAt: string;
-  readonly resolvedAt: string | null;
-}
-
-export interface CommentThread extends ReviewComment {
-  readonly resolved: boolean;
-  readonly replies: readonly ReviewComment[];
-}
+/** The response types are the server's own (shared/api): docs/api.md, "Configurations and review". */
+export type {
+  ApprovalDetail,
+  ApprovalSummary,
+  CommentThread,
+  CompareAnswer,
+  Configuration,
+  ConfigurationRefs,
+  ConfigurationResults,
+  ConfigurationRevision,
+  ConfigurationStatus,
+  ResultsAnswer,
+  ReviewAction,
+  ReviewComment,
+  TransitionRow,
+} from '../../../../shared/api/configurations';
+export type { Difference } from '../../../../shared/api/common';
 
 export interface NewConfiguration {
   readonly name: string;

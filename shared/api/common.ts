@@ -1,0 +1,17 @@
+/** Response types used by several resources of the API (docs/api.md); framework-free types only. */
+
+/** `Difference` of docs/api.md: a changed value at a dotted path; `change` = b − a for numbers. */
+export interface Difference {
+  readonly path: string;
+  readonly a: unknown;
+  readonly b: unknown;
+  readonly change?: number;
+}
+
+/** One entry of a document's revision list. */
+export interface RevisionRow {
+  readonly revision: number;
+  readonly message: string | null;
+  readonly authorName: string | null;
+  readonly createdAt: string;
+}
