@@ -27,6 +27,8 @@ import { LinkageViews } from './linkage-views';
 import { BumpCostView } from '../bump-cost';
 import { CornerCautions } from './corner-cautions';
 import { TrackProfileSelect } from './track-profile-select';
+import { Linkage3dPanel } from '../linkage-view/linkage-3d-panel';
+import { OutputCurves } from '../linkage-view/output-curves';
 
 interface Conflict {
   readonly theirs: AxleDesign;
@@ -53,7 +55,7 @@ function profileStorageKey(designId: string): string {
  */
 @Component({
   selector: 'rw-axle-design-page',
-  imports: [DatePipe, RouterLink, MatButton, MatProgressBar, HardpointTable, HardpointImport, LinkageViews, LineChart, SafetyCaution, CornerCautions, BumpCostView, TrackProfileSelect, RigMeasurementsPanel],
+  imports: [DatePipe, RouterLink, MatButton, MatProgressBar, HardpointTable, HardpointImport, LinkageViews, LineChart, SafetyCaution, CornerCautions, BumpCostView, TrackProfileSelect, RigMeasurementsPanel, Linkage3dPanel, OutputCurves],
   templateUrl: './axle-design-page.html',
   styleUrl: './axle-design-page.scss',
   providers: [KinematicsClient],
@@ -110,6 +112,8 @@ export class AxleDesignPage implements OnInit {
   protected readonly poseTravel = signal(0);
   protected readonly poseRack = signal(0);
   protected readonly settingsError = signal<string | null>(null);
+  /** Hardpoint selected in the table or picked in the 3D view (its table key). */
+  protected readonly selectedPoint = signal<string | null>(null);
 
   protected readonly rackStroke = computed<[number, number] | null>(() => {
     const c = this.corner();
