@@ -36,6 +36,10 @@ import { Linkage3d } from './linkage-3d';
     </div>
   `,
   styles: `
+    :host {
+      display: block;
+      min-width: 0;
+    }
     .rw-3d-panel {
       display: grid;
       gap: 8px;

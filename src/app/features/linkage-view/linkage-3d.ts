@@ -41,7 +41,7 @@ const COLOURS = {
   link: 0x2e6b6e,
   uprightEdge: 0xa4532a,
   selected: 0xe3a21a,
-  tyre: 0x2a2a2a,
+  tyre: 0x4a4f55,
   grid: 0xc9c4b8,
 };
 const POINT_RADIUS_MM = 7;
@@ -204,7 +204,8 @@ export class Linkage3d {
 
   private fit(): void {
     const stage = this.host().nativeElement;
-    const w = Math.max(200, stage.clientWidth);
+    // The stage's own width (the canvas never widens it: max-width 100 %, and the hosts may shrink).
+    const w = Math.max(200, Math.floor(stage.getBoundingClientRect().width));
     const h = Math.round(Math.min(560, Math.max(320, w * 0.6)));
     this.renderer?.setSize(w, h);
     this.labelRenderer?.setSize(w, h);
@@ -239,9 +240,10 @@ export class Linkage3d {
         this.linkage.add(mesh);
         const el = document.createElement('span');
         el.className = 'rw-3d-label';
+        el.dataset['point'] = `points.${name}`;
         el.textContent = pointName(`points.${name}`, corner);
+        // Anchored at the point; the style lifts the name 16 px above it (linkage-3d.scss).
         const label = new CSS2DObject(el);
-        label.position.set(0, 0, POINT_RADIUS_MM * 2.2);
         label.visible = this.labels();
         mesh.add(label);
         this.pointLabels.set(name, label);
@@ -275,7 +277,7 @@ export class Linkage3d {
     // The tyre: a torus squashed along the spin axis (local y), a translucent band so the linkage shows through.
     const tyre = new Mesh(
       new TorusGeometry(radius - width * 0.3, width * 0.3, 16, 64),
-      new MeshLambertMaterial({ color: COLOURS.tyre, transparent: true, opacity: 0.32, side: DoubleSide, depthWrite: false }),
+      new MeshLambertMaterial({ color: COLOURS.tyre, transparent: true, opacity: 0.16, side: DoubleSide, depthWrite: false }),
     );
     tyre.rotation.x = Math.PI / 2;
     tyre.scale.set(1, 1, (width / (width * 0.6)) * 0.9);
