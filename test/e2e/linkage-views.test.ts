@@ -56,7 +56,7 @@ describe('Linkage views in Chromium', () => {
     await page.locator('[data-chart="casterDeg"] path.rw-series-line').first().waitFor();
     await page.locator('[data-output="toeDeg"] input').uncheck();
     await page.locator('[data-chart="toeDeg"]').waitFor({ state: 'detached' });
-    await page.getByRole('button', { name: 'Body roll' }).click();
+    await page.locator('[data-testid="curve-axis"] button', { hasText: 'Body roll' }).click();
     await page.locator('[data-chart="casterDeg"] .rw-axis-label-x', { hasText: 'Body roll' }).waitFor();
 
     // No two text elements of a curve chart overlap (ticks, axis titles).
