@@ -332,7 +332,7 @@ export class Linkage3d {
     let span = 0;
     for (const p of all) span = Math.max(span, centre.distanceTo(new Vector3(...p)));
     span = Math.max(span, this.corner().wheel.radius) * 1.15;
-    // About 3.4 spans away with the 35° field of view: the linkage fills most of the stage.
+    // About 3.3 spans away with the 35° field of view: the linkage fills most of the stage.
     this.camera.position.set(centre.x + span * 2.0, centre.y + span * 2.3, centre.z + span * 1.2);
     this.controls?.target.copy(centre);
     this.controls?.update();
