@@ -48,8 +48,8 @@ describe('Linkage views in Chromium', () => {
     if (drawn) await page.locator('.rw-3d-label-selected[data-point="points.lowerOuter"]').waitFor();
     await saveScreenshot(page, drawn ? 'editor-3d-view' : 'editor-3d-view-no-webgl');
 
-    // Output curves: load when scrolled to; the picker shows and hides charts.
-    await page.getByText('Output curves (toe, camber, caster, roll centre and more) load here.').scrollIntoViewIfNeeded();
+    // Output curves: load when opened; the picker shows and hides charts.
+    await page.getByTestId('open-curves').click();
     await page.getByTestId('curves-grid').waitFor();
     await page.locator('[data-chart="toeDeg"] path.rw-series-line').first().waitFor();
     await page.locator('[data-output="casterDeg"] input').check();

@@ -28,7 +28,7 @@ import { BumpCostView } from '../bump-cost';
 import { CornerCautions } from './corner-cautions';
 import { TrackProfileSelect } from './track-profile-select';
 import { Linkage3dPanel } from '../linkage-view/linkage-3d-panel';
-import { OutputCurves } from '../linkage-view/output-curves';
+import { OutputCurvesPanel } from '../linkage-view/output-curves-panel';
 
 interface Conflict {
   readonly theirs: AxleDesign;
@@ -55,7 +55,7 @@ function profileStorageKey(designId: string): string {
  */
 @Component({
   selector: 'rw-axle-design-page',
-  imports: [DatePipe, RouterLink, MatButton, MatProgressBar, HardpointTable, HardpointImport, LinkageViews, LineChart, SafetyCaution, CornerCautions, BumpCostView, TrackProfileSelect, RigMeasurementsPanel, Linkage3dPanel, OutputCurves],
+  imports: [DatePipe, RouterLink, MatButton, MatProgressBar, HardpointTable, HardpointImport, LinkageViews, LineChart, SafetyCaution, CornerCautions, BumpCostView, TrackProfileSelect, RigMeasurementsPanel, Linkage3dPanel, OutputCurvesPanel],
   templateUrl: './axle-design-page.html',
   styleUrl: './axle-design-page.scss',
   providers: [KinematicsClient],

@@ -27,7 +27,7 @@ import { Linkage3d } from './linkage-3d';
             [selectedKey]="selectedKey()"
             (picked)="picked.emit($event)"
           />
-        } @loading (minimum 200ms) {
+        } @loading {
           <p class="rw-muted" role="status">Loading the 3D view…</p>
         } @error {
           <p role="alert">The 3D view could not be loaded. Reload the page and try again.</p>

@@ -1,4 +1,4 @@
-import { afterNextRender, ChangeDetectionStrategy, Component, computed, DestroyRef, effect, ElementRef, inject, input, output, signal, untracked, viewChild } from '@angular/core';
+import { AfterViewInit, ChangeDetectionStrategy, Component, computed, DestroyRef, effect, ElementRef, inject, input, output, signal, untracked, viewChild } from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatCheckbox } from '@angular/material/checkbox';
 import {
@@ -78,7 +78,7 @@ function webglAvailable(): boolean {
   providers: [ViewsClient],
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class Linkage3d {
+export class Linkage3d implements AfterViewInit {
   private readonly engine = inject(ViewsClient);
 
   readonly corner = input.required<Corner>();
@@ -119,8 +119,12 @@ export class Linkage3d {
   private timer: ReturnType<typeof setInterval> | null = null;
   private framed = false;
 
+  /** The stage element exists once the view is initialised. */
+  ngAfterViewInit(): void {
+    this.start();
+  }
+
   constructor() {
-    afterNextRender(() => this.start());
     // Rebuild when the corner's structure or values change; move when the pose changes.
     effect(() => {
       const corner = this.corner();

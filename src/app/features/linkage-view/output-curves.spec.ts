@@ -62,6 +62,11 @@ describe('OutputCurves', () => {
     expect(charts(el)).toEqual(['camberDeg', 'casterDeg', 'rollCentreHeightMm']);
     // One series per geometry: the design being edited.
     expect(el.querySelectorAll('[data-chart="casterDeg"] g.rw-series')).toHaveLength(1);
+
+    Array.from(el.querySelectorAll<HTMLButtonElement>('button')).find((b) => b.textContent!.includes('Toe, camber and roll centre only'))!.click();
+    fixture.detectChanges();
+    await fixture.whenStable();
+    expect(charts(el)).toEqual(['toeDeg', 'camberDeg', 'rollCentreHeightMm']);
   });
 
   it('Ackermann is drawn only against rack travel, with the vehicle wheelbase', async () => {

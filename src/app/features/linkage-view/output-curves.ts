@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, OnInit, signal, untracked } from '@angular/core';
+import { MatButton } from '@angular/material/button';
 import { MatButtonToggle, MatButtonToggleGroup } from '@angular/material/button-toggle';
 import { MatCheckbox } from '@angular/material/checkbox';
 import { firstValueFrom } from 'rxjs';
@@ -29,7 +30,7 @@ type LoadState = { readonly kind: 'loading' } | { readonly kind: 'ready'; readon
  */
 @Component({
   selector: 'rw-output-curves',
-  imports: [LineChart, MatCheckbox, MatButtonToggleGroup, MatButtonToggle],
+  imports: [LineChart, MatButton, MatCheckbox, MatButtonToggleGroup, MatButtonToggle],
   templateUrl: './output-curves.html',
   styleUrl: './output-curves.scss',
   providers: [ViewsClient],
@@ -157,6 +158,11 @@ export class OutputCurves implements OnInit {
 
   protected setAxis(value: unknown): void {
     if (value === 'travel' || value === 'steer' || value === 'roll') this.axis.set(value);
+  }
+
+  /** Back to the first three outputs (toe, camber, roll centre height). */
+  protected usualOutputs(): void {
+    this.chosen.set(new Set(DEFAULT_OUTPUTS));
   }
 
   protected toggleOutput(key: string, on: boolean): void {
