@@ -38,13 +38,15 @@ describe('Linkage views in Chromium', () => {
       const box = (await label.boundingBox())!;
       await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2 + 16);
       await page.locator('tr.rw-selected[data-key="points.upperOuter"]').waitFor();
-      await expect(page.getByTestId('picked-point').innerText()).resolves.toBe('Upper ball joint');
+      await page.getByTestId('picked-point').filter({ hasText: /^Upper ball joint$/ }).waitFor();
     } else {
       await expect(page.getByTestId('no-webgl').innerText()).resolves.toContain('WebGL');
     }
     // The reverse: a row selected in the table is the point shown selected in the view.
     await page.locator('tr[data-key="points.lowerOuter"] th').click();
-    await expect(page.getByTestId('picked-point').innerText()).resolves.toBe('Lower ball joint');
+    // Wait for the redraw (the selection is a signal; reading the text at once would race it).
+    await page.getByTestId('picked-point').filter({ hasText: /^Lower ball joint$/ }).waitFor();
+    await page.locator('tr.rw-selected[data-key="points.lowerOuter"]').waitFor();
     if (drawn) await page.locator('.rw-3d-label-selected[data-point="points.lowerOuter"]').waitFor();
     await saveScreenshot(page, drawn ? 'editor-3d-view' : 'editor-3d-view-no-webgl');
 
