@@ -87,6 +87,18 @@ function rot(R: Float64Array, v: ArrayLike<number>): Vec3 {
 
 // ---------- instant centres ----------
 
+/** Design position (left frame) of the upright point now at p: wc0 + Rᵀ(p − c). */
+function designPosition(s: CornerSolver, p: Vec3): Vec3 {
+  const R = s.R;
+  const d = [p[0] - s.c[0]!, p[1] - s.c[1]!, p[2] - s.c[2]!] as const;
+  const w = s.model.wc0;
+  return [
+    w[0]! + R[0]! * d[0] + R[3]! * d[1] + R[6]! * d[2],
+    w[1]! + R[1]! * d[0] + R[4]! * d[1] + R[7]! * d[2],
+    w[2]! + R[2]! * d[0] + R[5]! * d[1] + R[8]! * d[2],
+  ];
+}
+
 export interface FrontViewIc {
   /** Instant centre in the vehicle front view (y, z), mm; null at infinity (parallel arms). */
   yMm: number | null;
@@ -102,7 +114,8 @@ export function frontViewIc(s: CornerSolver): FrontViewIc {
   const p = poseOutputs(s);
   const sg = s.side === 'left' ? 1 : -1;
   const cpLeft: Vec3 = [p.contactPatch[0], sg * p.contactPatch[1], p.contactPatch[2]];
-  const { v } = uprightPoint(s, cpLeft, s.tTravel);
+  // The upright point that is the contact patch at this pose (uprightPoint takes design coordinates).
+  const { v } = uprightPoint(s, designPosition(s, cpLeft), s.tTravel);
   // Left frame: the instant centre lies on the perpendicular to the contact-patch velocity.
   const vy = v[1];
   const vz = v[2];
@@ -158,7 +171,7 @@ export function sideViewIc(s: CornerSolver): SideViewIc {
   const p = poseOutputs(s);
   const cp = p.contactPatch;
   const sg = s.side === 'left' ? 1 : -1;
-  const vcp = uprightPoint(s, [cp[0], sg * cp[1], cp[2]], s.tTravel).v;
+  const vcp = uprightPoint(s, designPosition(s, [cp[0], sg * cp[1], cp[2]]), s.tTravel).v;
   const vwc: Vec3 = [s.tTravel[0]!, s.tTravel[1]!, s.tTravel[2]!];
   const wy = s.tTravel[4]!;
   const far = Math.abs(wy) < 1e-12;

@@ -24,6 +24,8 @@ import { hardpointCsv, hardpointJson } from './hardpoint-io';
 import { HardpointTable, PointEdit } from './hardpoint-table';
 import { LinkageViews } from './linkage-views';
 import { SaveConflict } from './save-conflict';
+import { Linkage3dPanel } from '../linkage-view/linkage-3d-panel';
+import { OutputCurvesPanel } from '../linkage-view/output-curves-panel';
 import { checkTravelRange, SweepSettings, type TravelRange } from './sweep-settings';
 import { TrackProfileSelect } from './track-profile-select';
 
@@ -80,6 +82,8 @@ function storedProfile(designId: string): TrackProfileId | null {
     DesignProposals,
     SaveConflict,
     SweepSettings,
+    Linkage3dPanel,
+    OutputCurvesPanel,
   ],
   templateUrl: './axle-design-page.html',
   styleUrl: './axle-design-page.scss',
@@ -122,6 +126,8 @@ export class AxleDesignPage {
   protected readonly travelStep = computed(() => this.travel().step);
   protected readonly poseTravel = signal(0);
   protected readonly poseRack = signal(0);
+  /** The hardpoint picked in the 3D view or selected in the table (its table key). */
+  protected readonly selectedPoint = signal<string | null>(null);
 
   protected readonly rackStroke = computed<[number, number] | null>(() => {
     const c = this.corner();
