@@ -9,6 +9,7 @@
 import { line, scaleLinear } from 'd3';
 import { pathWords } from '../../shared/io/document-words.js';
 import type { ReviewRecordAnswer } from './review-record.js';
+import type { AxleName } from '../../shared/schema/axle.js';
 
 const esc = (v: unknown): string =>
   String(v ?? '').replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
@@ -94,7 +95,7 @@ const AXLE = { front: 'Front', rear: 'Rear' } as const;
 export function renderReviewRecordHtml(r: ReviewRecordAnswer): string {
   const results = r.results as {
     balance: { understeerBudget: Record<string, number>; kinematicsLink?: Record<string, { used?: { rollSteerCoefficient?: number } }>; rollGradientDegPerG?: number; characteristicSpeedKph?: number | null };
-    bumpSteer: Record<'front' | 'rear', { byRack?: { rackMm: number; bumpSteerDegPerM: number; camberGainDegPerM: number }[] }>;
+    bumpSteer: Record<AxleName, { byRack?: { rackMm: number; bumpSteerDegPerM: number; camberGainDegPerM: number }[] }>;
   };
   const budget = results.balance.understeerBudget;
   const budgetRows = (

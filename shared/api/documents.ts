@@ -4,7 +4,7 @@
  */
 import type { Corner } from '../schema/corner.js';
 
-export type AxleName = 'front' | 'rear';
+import type { AxleName } from '../schema/axle.js';
 
 /** `GET /api/teams/:teamId/vehicles` rows. */
 export interface VehicleSummary {

@@ -12,6 +12,7 @@ import type { Caution } from './cautions.js';
 import { measureCornerCautions } from './corner-cautions.js';
 import type { TrackProfileId } from '../tracks/profiles.js';
 import type { BumpCost } from '../ride/cost.js';
+import type { AxleName } from '../schema/axle.js';
 
 export interface ConfigurationCautionsInput {
   vehicle: unknown;
@@ -21,8 +22,8 @@ export interface ConfigurationCautionsInput {
 }
 
 export type AxleCautionList =
-  | { axle: 'front' | 'rear'; ok: true; cautions: Caution[]; bumpCost: BumpCost | null; bumpCostUnavailable: string | null }
-  | { axle: 'front' | 'rear'; ok: false; failure: { code: string; message: string } };
+  | { axle: AxleName; ok: true; cautions: Caution[]; bumpCost: BumpCost | null; bumpCostUnavailable: string | null }
+  | { axle: AxleName; ok: false; failure: { code: string; message: string } };
 
 /** The vehicle as the balance model reads it, or undefined when it is missing or incomplete (as on the screen). */
 function usableVehicle(data: unknown): Vehicle | undefined {

@@ -12,6 +12,7 @@ import { StudyModel, type FactorInfo, type OutputDefinition, type PointMoves } f
 import { permutation, stream, STREAM_LHS, STREAM_SAMPLE } from './random.js';
 import { DEFAULT_CHUNK_SAMPLES, MAX_STUDY_SAMPLES, studySpecSchema, type StudySpec, type SweepSpec, type ToleranceSpec } from './schema.js';
 import { histogram, leastSquares, paretoFront, summarise, wilson, type Histogram, type Summary } from './stats.js';
+import type { AxleName } from '../schema/axle.js';
 
 // ---------- preparation (cached per spec object) ----------
 
@@ -255,7 +256,7 @@ export interface StudyResult {
   failedSamples: number;
   failures: { sample: number; message: string }[];
   poses: number;
-  axle: 'front' | 'rear';
+  axle: AxleName;
   trackProfile: { id: string; label: string; bumpHeightMm: number; travelMm: [number, number] };
   factors: FactorInfo[];
   outputs: OutputResult[];

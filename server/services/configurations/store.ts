@@ -22,6 +22,7 @@ import { DomainError, notFound } from '../../../shared/errors.js';
 import type { TrackProfileId } from '../../../shared/tracks/profiles.js';
 import { writeRevision, type RevisionedDocument } from '../revisions.js';
 import { recordActivity } from '../activity.js';
+import type { AxleName } from '../../../shared/schema/axle.js';
 
 export interface ConfigurationRefs {
   vehicleId: string;
@@ -146,7 +147,7 @@ export class ConfigurationStore {
         field: 'vehicleRevision',
       });
     }
-    const design = async (axle: 'front' | 'rear', id: string, revision: number | undefined) => {
+    const design = async (axle: AxleName, id: string, revision: number | undefined) => {
       const [d] = await orm
         .select({ id: axleDesigns.id, axle: axleDesigns.axle, revision: axleDesigns.revision })
         .from(axleDesigns)

@@ -5,10 +5,10 @@ import type { Corner } from '../../../shared/schema/corner';
 import type { AxleDesign, AxleDesignSummary, Proposal, VehicleRecord } from '../../../shared/api/documents';
 import type { RevisionRow } from '../../../shared/api/common';
 import { SHOW_ERRORS_INLINE } from '../core/http/api-error';
-import type { AxleName } from '../../../shared/schema/axle';
 
 /** The response types are the server's own (shared/api): docs/api.md, "Vehicles" and "Axle designs". */
-export type { AxleDesign, AxleDesignSummary, AxleName, Proposal, VehicleRecord } from '../../../shared/api/documents';
+export type { AxleDesign, AxleDesignSummary, Proposal, VehicleRecord } from '../../../shared/api/documents';
+export type { AxleName } from '../../../shared/schema/axle';
 export type { RevisionRow } from '../../../shared/api/common';
 
 const inline = () => ({ context: new HttpContext().set(SHOW_ERRORS_INLINE, true) });

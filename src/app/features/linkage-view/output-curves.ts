@@ -14,6 +14,7 @@ import { FeaturesApi, type Proposal, type RevisionRow } from '../features-api';
 import { DEFAULT_OUTPUTS, outputDefs, SWEEP_AXES, type OutputDef } from './output-defs';
 import { ViewsClient } from './views-client';
 import type { CurveSource, CurvesReply } from './views-types';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 /** Roll range of the roll axis, deg (a hard cornering car rolls a few degrees). */
 const ROLL_RANGE = { from: -3, to: 3, step: 0.5 };
@@ -42,7 +43,7 @@ export class OutputCurves implements OnInit {
   private readonly configs = inject(ConfigurationsApi);
 
   readonly corner = input.required<Corner>();
-  readonly axle = input<'front' | 'rear'>('front');
+  readonly axle = input<AxleName>('front');
   readonly teamId = input.required<string>();
   readonly designId = input.required<string>();
   readonly vehicleId = input.required<string>();

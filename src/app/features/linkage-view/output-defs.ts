@@ -1,5 +1,6 @@
 import type { OutputCurveAxis, OutputCurveRow } from '../../../../shared/kinematics/output-curves';
 import type { AxisSpec } from '../../charts/chart-types';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 /** A per-pose output the curves panel can draw. */
 export interface OutputDef {
@@ -12,7 +13,7 @@ export interface OutputDef {
 }
 
 /** Every output, in the order the picker lists them. Words and sign notes are ours; units those of the engine (mm, deg). */
-export function outputDefs(axle: 'front' | 'rear'): readonly OutputDef[] {
+export function outputDefs(axle: AxleName): readonly OutputDef[] {
   return [
     { key: 'toeDeg', title: 'Toe', y: { label: 'Toe, + in', unit: 'deg' }, group: 'Wheel angles' },
     { key: 'camberDeg', title: 'Camber', y: { label: 'Camber to the body, + top outboard', unit: 'deg' }, group: 'Wheel angles' },

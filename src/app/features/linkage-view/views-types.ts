@@ -1,6 +1,7 @@
 import type { Corner, Vec3 } from '../../../../shared/schema/corner';
 import type { OutputCurveAxis, OutputCurveRow } from '../../../../shared/kinematics/output-curves';
 import type { AnalysisFailure } from '../../workers/analysis-types';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 /** One geometry to draw curves for: the design being edited, a saved revision or a proposal. */
 export interface CurveSource {
@@ -19,7 +20,7 @@ export interface CurvesRequest {
   /** Rack held in travel and roll sweeps; travel held in the steer sweep. */
   readonly rackMm: number;
   readonly travelMm: number;
-  readonly axle: 'front' | 'rear';
+  readonly axle: AxleName;
   /** The vehicle's stored data (wheelbase and CG height for Ackermann and the anti features), validated in the worker. */
   readonly vehicleData: unknown;
 }
