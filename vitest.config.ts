@@ -5,10 +5,6 @@ import { defineConfig } from 'vitest/config';
 // component specs run through `ng test`, which has its own vitest set-up.
 export default defineConfig({
   test: {
-    // Two test files at a time. vitest's default on a 2-core machine is one (cores - 1), which
-    // leaves a core idle whenever an API file waits on PostgreSQL, a queue worker process or a
-    // poll; with two, an engine file computes meanwhile. The e2e project keeps one file at a time.
-    maxWorkers: 2,
     projects: [
       {
         test: {

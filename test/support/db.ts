@@ -17,3 +17,12 @@ export function freshDatabaseUrl(prefix = 't'): string {
 export function migratedDatabaseUrl(prefix = 't'): string {
   return createDatabase(inject('pgPort'), `${prefix}_${randomBytes(6).toString('hex')}`, inject('pgTemplate'));
 }
+
+/**
+ * A migrated database with the demo seeded (`seedDemo` at bcrypt cost 4), copied from the run's
+ * seeded template: what `startTestApp({ seed: true })` starts on. Seeding it again finds
+ * everything there (the seed is idempotent).
+ */
+export function seededDatabaseUrl(prefix = 't'): string {
+  return createDatabase(inject('pgPort'), `${prefix}_${randomBytes(6).toString('hex')}`, inject('pgSeededTemplate'));
+}
