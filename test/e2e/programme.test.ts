@@ -215,7 +215,7 @@ describe('programmes, API tokens and the activity log', () => {
     await iris.locator('rw-board-table a.config-link', { hasText: 'Ember, toe link +6 mm' }).click();
     await iris.getByRole('heading', { level: 1, name: 'Ember, toe link +6 mm' }).waitFor();
     // The page and its results have loaded (every loading bar gone).
-    await iris.waitForFunction(() => !document.querySelector('mat-progress-bar[mode="indeterminate"], .rw-busy-bar'), null, { timeout: 60_000 });
+    await expect.poll(() => iris.locator('mat-progress-bar[mode="indeterminate"], .rw-busy-bar').count(), { timeout: 60_000 }).toBe(0);
     expect(await iris.locator('button[data-action], textarea, .rw-comment-on').count()).toBe(0);
     for (const name of ['Make a new revision', 'Archive configuration', 'Comment on the budget']) {
       expect(await iris.getByRole('button', { name }).count(), name).toBe(0);
