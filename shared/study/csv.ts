@@ -54,7 +54,7 @@ export function studyResultCsv(spec: Pick<StudySpec, 'kind' | 'label'>, result: 
   );
   if (result.sweep) {
     const names = result.factors.map((f) => f.key);
-    parts.push(table(['variant', 'balance gained (deg/g)', 'bump cost (deg)', ...names], result.sweep.pareto.map((v) => [v.index, v.gainDegPerG, v.costDeg, ...v.factors])));
+    parts.push(table(['variant', 'balance gained (deg/g)', `bump cost: ${result.sweep.costOutput} (${result.sweep.costUnit})`, ...names], result.sweep.pareto.map((v) => [v.index, v.gainDegPerG, v.cost, ...v.factors])));
     parts.push(
       table(
         ['output', 'term', 'coefficient'],

@@ -96,9 +96,19 @@ export class StudyPage implements OnInit, OnDestroy {
     const sw = this.result()?.sweep;
     if (!sw) return [];
     return [
-      { name: 'Variants', style: 'points', points: sw.scatter.map((v) => ({ x: v.costDeg, y: v.gainDegPerG })) },
-      { name: 'Pareto front', points: sw.pareto.map((v) => ({ x: v.costDeg, y: v.gainDegPerG })) },
+      { name: 'Variants', style: 'points', points: sw.scatter.map((v) => ({ x: v.cost, y: v.gainDegPerG })) },
+      { name: 'Pareto front', points: sw.pareto.map((v) => ({ x: v.cost, y: v.gainDegPerG })) },
     ];
+  });
+
+  /** The Pareto chart's cost axis: the ride model's yaw disturbance on the profile's road, or the toe change over the bump. */
+  protected readonly costAxis = computed(() => {
+    const r = this.result();
+    const sw = r?.sweep;
+    if (!r || !sw) return { label: 'Bump cost', unit: '' };
+    return sw.costOutput === 'bumpYawDisturbancePct'
+      ? { label: `Bump cost (yaw-rate disturbance, ${r.bumpCost.roadInWords})`, unit: '%' }
+      : { label: 'Bump cost (toe change over the bump)', unit: 'deg' };
   });
 
   protected readonly mainEffects = computed<LineSeries[]>(() => {
