@@ -31,6 +31,7 @@ import { createComputePool, type ComputePool } from './pool.js';
 import { cancelStudyChunks } from '../services/studies.js';
 import { JobQueue, NOTIFY_CHANNEL, QUEUES, type QueueJobData } from './queue.js';
 import { beginChunk, computeChunk, landChunk, type ChunkWork } from './study-handlers.js';
+import { reconcileStudies, type ReconcileOutcome } from './reconcile.js';
 
 export interface RunnerOptions {
   databaseUrl: string;
@@ -41,6 +42,10 @@ export interface RunnerOptions {
   maintenanceIntervalSeconds: number;
   /** Time limit of one study chunk on a thread. */
   chunkTimeLimitMs: number;
+  /** Reconciliation of running studies with the queue (reconcile.ts): how often, the chunk jobs' expiry, and the stall bound. */
+  reconcileSeconds: number;
+  chunkExpireSeconds: number;
+  stallSeconds: number;
   /** Start the threads at once (worker processes) rather than at the first job (a worker inside the server). */
   warm?: boolean;
   logger?: { info(o: object, m: string): void; warn(o: object, m: string): void };
@@ -80,6 +85,8 @@ export class QueueRunner {
   private readonly wakers = new Set<() => void>();
   private readonly cancels = new Map<string, Set<AbortController>>();
   private ctx!: RunnerContext;
+  private reconcileTimer: NodeJS.Timeout | undefined;
+  private reconciling: Promise<unknown> = Promise.resolve();
 
   constructor(
     private readonly db: Database,
@@ -112,15 +119,32 @@ export class QueueRunner {
     }
     for (let i = 0; i < this.o.solveSlots; i++) this.lanes.push(this.lane([QUEUES.solve, QUEUES.lost]));
     for (let i = 0; i < this.o.studySlots; i++) this.lanes.push(this.studyLane());
+    this.reconcileTimer = setInterval(() => {
+      this.reconciling = this.reconcile();
+    }, this.o.reconcileSeconds * 1000);
+    this.reconcileTimer.unref();
+  }
+
+  /** One reconciliation pass (reconcile.ts); errors are logged, the next pass tries again. */
+  async reconcile(): Promise<ReconcileOutcome | undefined> {
+    try {
+      const r = await reconcileStudies(this.ctx, { chunkExpireSeconds: this.o.chunkExpireSeconds, stallSeconds: this.o.stallSeconds });
+      if (r.requeuedChunks || r.resentCombines || r.failedStudies) this.o.logger?.warn({ ...r }, 'study reconciliation: chunks had left the queue undone');
+      return r;
+    } catch (err) {
+      this.o.logger?.warn({ err }, 'study reconciliation failed; next pass retries');
+      return undefined;
+    }
   }
 
   /** Stops taking jobs, lets the running ones finish (or abandons them after `graceMs`), and closes. */
   async stop(graceMs = 30_000): Promise<void> {
     if (this.stopping) return;
     this.stopping = true;
+    clearInterval(this.reconcileTimer);
     for (const w of this.wakers) w();
     let timer: NodeJS.Timeout | undefined;
-    await Promise.race([Promise.all(this.lanes), new Promise((r) => (timer = setTimeout(r, graceMs)))]);
+    await Promise.race([Promise.all([...this.lanes, this.reconciling]), new Promise((r) => (timer = setTimeout(r, graceMs)))]);
     clearTimeout(timer);
     const l = this.listener;
     this.listener = undefined;
