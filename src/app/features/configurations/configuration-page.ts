@@ -17,6 +17,7 @@ import { AnalysisError, KinematicsClient } from '../../workers/kinematics-client
 import { CornerCautions } from '../axle-design/corner-cautions';
 import { AxleDesignSummary, FeaturesApi } from '../features-api';
 import { routeParam } from '../route-params';
+import { ConfigurationStudies } from '../studies/configuration-studies';
 import { SafetyCaution } from '../safety-caution';
 import {
   ApprovalDetail,
@@ -73,7 +74,7 @@ interface FrozenFigure {
  */
 @Component({
   selector: 'rw-configuration-page',
-  imports: [RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel],
+  imports: [RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel, ConfigurationStudies],
   providers: [KinematicsClient],
   templateUrl: './configuration-page.html',
   styleUrl: './configuration-page.scss',

@@ -15,6 +15,7 @@ import { TeamAccess } from '../../core/teams/team-access';
 import { routeParam } from '../route-params';
 import { SafetyCaution } from '../safety-caution';
 import { etaWords, STATUS_WORDS, StudiesApi, type StudyView } from './studies-api';
+import { StudyAttach } from './study-attach';
 
 type StudyState = { kind: 'loading' } | { kind: 'error'; message: string; gone: boolean } | { kind: 'ready'; study: StudyView };
 
@@ -29,7 +30,7 @@ const LEVEL_WORDS = { info: 'Notice', warning: 'Warning', critical: 'Critical' }
  */
 @Component({
   selector: 'rw-study-page',
-  imports: [RouterLink, MatButton, MatIcon, MatProgressBar, BarChart, LineChart, SafetyCaution],
+  imports: [RouterLink, MatButton, MatIcon, MatProgressBar, BarChart, LineChart, SafetyCaution, StudyAttach],
   templateUrl: './study-page.html',
   styleUrl: './studies.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
