@@ -4,7 +4,7 @@ import { MatButton } from '@angular/material/button';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
-import type { OutputResult, StudyResult } from '../../../../shared/study/index';
+import type { OutputResult, StudyResult, VariantPoint } from '../../../../shared/study/index';
 import { BarChart } from '../../charts/bar-chart';
 import { LineChart } from '../../charts/line-chart';
 import { formatNumber, type BarGroup, type LineSeries } from '../../charts/chart-types';
@@ -18,6 +18,9 @@ import { etaWords, STATUS_WORDS, StudiesApi, type StudyView } from './studies-ap
 import { StudyAttach } from './study-attach';
 
 type StudyState = { kind: 'loading' } | { kind: 'error'; message: string; gone: boolean } | { kind: 'ready'; study: StudyView };
+
+/** A variant's bump cost; results stored before the ride-model bump cost carry the toe change as costDeg. */
+export const costOf = (v: VariantPoint): number => v.cost ?? (v as { costDeg?: number }).costDeg ?? NaN;
 
 const LEVEL_WORDS = { info: 'Notice', warning: 'Warning', critical: 'Critical' } as const;
 
@@ -97,8 +100,8 @@ export class StudyPage implements OnInit, OnDestroy {
     const sw = this.result()?.sweep;
     if (!sw) return [];
     return [
-      { name: 'Variants', style: 'points', points: sw.scatter.map((v) => ({ x: v.cost, y: v.gainDegPerG })) },
-      { name: 'Pareto front', points: sw.pareto.map((v) => ({ x: v.cost, y: v.gainDegPerG })) },
+      { name: 'Variants', style: 'points', points: sw.scatter.map((v) => ({ x: costOf(v), y: v.gainDegPerG })) },
+      { name: 'Pareto front', points: sw.pareto.map((v) => ({ x: costOf(v), y: v.gainDegPerG })) },
     ];
   });
 
@@ -111,6 +114,8 @@ export class StudyPage implements OnInit, OnDestroy {
       ? { label: `Bump cost (yaw-rate disturbance, ${r.bumpCost.roadInWords})`, unit: '%' }
       : { label: 'Bump cost (toe change over the bump)', unit: 'deg' };
   });
+
+  protected readonly costOf = costOf;
 
   protected readonly mainEffects = computed<LineSeries[]>(() => {
     const sw = this.result()?.sweep;
