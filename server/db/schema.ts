@@ -658,6 +658,30 @@ export const studies = pgTable(
   ],
 );
 
+/**
+ * A completed study attached to a configuration's review record (same team):
+ * listed with its key figures on the configuration and, the latest per team,
+ * on the programme board. Detaching deletes the row.
+ */
+export const studyAttachments = pgTable(
+  'study_attachments',
+  {
+    studyId: uuid('study_id')
+      .notNull()
+      .references(() => studies.id, { onDelete: 'cascade' }),
+    configurationId: uuid('configuration_id')
+      .notNull()
+      .references(() => configurations.id, { onDelete: 'cascade' }),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    note: text('note').notNull().default(''),
+    attachedBy: uuid('attached_by').references(() => users.id, { onDelete: 'set null' }),
+    attachedAt: timestamp('attached_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.studyId, t.configurationId] }), index('study_attachments_configuration_idx').on(t.configurationId, t.attachedAt), index('study_attachments_team_idx').on(t.teamId, t.attachedAt)],
+);
+
 /** One finished chunk of a study; the key makes a retried chunk land once. */
 export const studyChunks = pgTable(
   'study_chunks',

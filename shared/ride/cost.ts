@@ -140,7 +140,8 @@ function fmt(x: number, d: number): string {
  * condition). Same figures as `bumpCost(...).yawRateRmsDegPerS`.
  */
 export class RandomRoadYawCost {
-  private readonly sigmaMm: number;
+  /** RMS wheel travel on this road, mm: the Gaussian travel the toe statistics are taken over. */
+  readonly sigmaMm: number;
   /** Yaw-rate variance per unit κ² (κ² in rad²/m², variance in (deg/s)²). */
   private readonly perKappa2: number;
   readonly steadyYawRateDegPerS: number;
@@ -164,15 +165,37 @@ export class RandomRoadYawCost {
   }
   private readonly wheelbaseMm: number;
 
+  /** The rack positions judged: 0, and for a steered corner the operating steer of the profile's corner (Ackermann angle L/R). */
+  racksMm(corner: Corner): number[] {
+    const racks = [0];
+    if (corner.steered) racks.push(rackForAxleSteer(corner, this.wheelbaseMm / 1000 / this.p.cornerRadiusM / RAD_PER_DEG));
+    return racks;
+  }
+
   /** RMS yaw-rate disturbance of `corner` (worse of on-centre and the operating steer), deg/s and % of V/R; null above the critical speed. */
   of(corner: Corner): { yawRateRmsDegPerS: number; yawDisturbancePct: number } | null {
     if (this.unstable) return null;
-    const racks = [0];
-    if (corner.steered) racks.push(rackForAxleSteer(corner, (this.wheelbaseMm / 1000 / this.p.cornerRadiusM) / RAD_PER_DEG));
+    return this.fromToeRms(
+      this.racksMm(corner).map((rack) => {
+        const l = new ToeCurve(corner, 'left', rack, this.p.travelMm).gaussian(this.sigmaMm).rmsDeg;
+        const r = rack === 0 ? l : new ToeCurve(corner, 'right', rack, this.p.travelMm).gaussian(this.sigmaMm).rmsDeg;
+        return [l, r];
+      }),
+    );
+  }
+
+  /**
+   * The same figure from the toe statistics of each judged condition, for callers that solve the toe
+   * themselves (studies): [left, right] RMS toe change (deg) over the Gaussian travel of RMS `sigmaMm`
+   * (ToeCurve.gaussian, travels clipped to the profile's range). Null above the critical speed.
+   */
+  fromToeRms(conditions: [number, number][]): { yawRateRmsDegPerS: number; yawDisturbancePct: number } | null {
+    if (this.unstable) return null;
     let worst = 0;
-    for (const rack of racks) {
-      const l = new ToeCurve(corner, 'left', rack, this.p.travelMm).gaussian(this.sigmaMm).equivalentGradientDegPerM * RAD_PER_DEG;
-      const r = rack === 0 ? l : new ToeCurve(corner, 'right', rack, this.p.travelMm).gaussian(this.sigmaMm).equivalentGradientDegPerM * RAD_PER_DEG;
+    for (const [lRms, rRms] of conditions) {
+      // Equivalent gains rms/σ (rad/m); the sign drops out of the squares.
+      const l = this.sigmaMm > 0 ? ((lRms / (this.sigmaMm / 1000)) * RAD_PER_DEG) : 0;
+      const r = this.sigmaMm > 0 ? ((rRms / (this.sigmaMm / 1000)) * RAD_PER_DEG) : 0;
       worst = Math.max(worst, Math.sqrt(((l * l + r * r) / 4) * this.perKappa2));
     }
     return { yawRateRmsDegPerS: worst, yawDisturbancePct: (100 * worst) / this.steadyYawRateDegPerS };

@@ -440,6 +440,19 @@ const ROWS: Row[] = [
     path: () => `${team()}/studies/${ids.study}/variants/0/proposal`,
     expect: teamRoute(['engineer'], '409 not_a_sweep', { method: 'POST' }),
   },
+  // Attaching needs a completed study (the probe's is cancelled); detaching an attachment that does not exist is 404.
+  {
+    route: 'PUT /api/teams/:teamId/studies/:studyId/attachments/:configurationId',
+    path: () => `${team()}/studies/${ids.study}/attachments/${ids.configuration}`,
+    body: { note: 'probe' },
+    expect: teamRoute(['engineer', 'designer'], '409 study_not_completed', { method: 'PUT' }),
+  },
+  {
+    route: 'DELETE /api/teams/:teamId/studies/:studyId/attachments/:configurationId',
+    path: () => `${team()}/studies/${ids.study}/attachments/${ids.configuration}`,
+    expect: teamRoute(['engineer', 'designer'], 404, { method: 'DELETE' }),
+  },
+  { route: 'GET /api/programmes/:programmeId/studies', path: () => `${programme()}/studies`, expect: irisOnly(200) },
   { route: 'DELETE /api/teams/:teamId/rig-measurements/:measurementId', path: () => `${team()}/rig-measurements/${RANDOM_ID}`, expect: teamRoute(['owner', 'engineer', 'designer'], 404, { method: 'DELETE' }) },
   { route: 'GET /api/teams/:teamId/rig-tolerance', path: () => `${team()}/rig-tolerance`, expect: teamRead() },
   { route: 'PUT /api/teams/:teamId/rig-tolerance', path: () => `${team()}/rig-tolerance`, body: PROBE, expect: teamRoute(['owner'], 400, { method: 'PUT' }) },

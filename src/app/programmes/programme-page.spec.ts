@@ -70,6 +70,9 @@ describe('ProgrammePage', () => {
     backend.expectOne('/api/programmes/p1/board').flush(board);
     backend.expectOne('/api/programmes/p1/snapshots').flush([{ id: 's1', label: 'Deadline week 6', takenAt: '2026-10-10T17:00:00.000Z' }]);
     await fixture.whenStable();
+    // The attached-studies section (features/studies/programme-studies.ts) asks for its own rows.
+    for (const r of backend.match('/api/programmes/p1/studies')) r.flush({ programmeId: 'p1', teams: [] });
+    await fixture.whenStable();
     const root = fixture.nativeElement as HTMLElement;
     const group = (name: string) => [...root.querySelectorAll<HTMLElement>('tbody.config')].find((g) => g.textContent?.includes(name))!;
     const cells = (tr: Element | null) => [...(tr?.querySelectorAll('td') ?? [])].map((td) => td.textContent?.trim());

@@ -1,3 +1,4 @@
+import { ProgrammeStudies } from '../features/studies/programme-studies';
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal, WritableSignal } from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
@@ -48,6 +49,7 @@ const TEAM_STATUS_WORDS: Readonly<Record<ProgrammeTeamStatus, string>> = {
     MatProgressSpinnerModule,
     SafetyCaution,
     BoardTable,
+    ProgrammeStudies,
   ],
   templateUrl: './programme-page.html',
   styleUrl: './programme-page.scss',

@@ -83,6 +83,7 @@ function table(c: Configuration, permissions: string[], extra: Record<string, An
     [`GET ${TEAM}/axle-designs/d-f/revisions/1`]: { revision: 1, name: 'Front baseline', corner: exampleCorners.fsFrontWishbone },
     [`GET ${TEAM}/axle-designs/d-r/revisions/3`]: { revision: 3, name: 'Rear baseline', corner: exampleCorners.fsRearWishbone },
     [`GET ${C}/history`]: [],
+    [`GET ${TEAM}/studies`]: { attachments: [] },
     [`GET ${C}/revisions`]: [
       { revision: 2, name: c.name, vehicleId: 'v-ember', vehicleRevision: 1, frontDesignId: 'd-f', frontDesignRevision: 1, rearDesignId: 'd-r', rearDesignRevision: 3, trackProfile: 'smooth-circuit', message: 'rear moved', authorName: 'Dana Quist', createdAt: '2026-12-01T10:00:00.000Z' },
       { revision: 1, name: c.name, vehicleId: 'v-ember', vehicleRevision: 1, frontDesignId: 'd-f', frontDesignRevision: 1, rearDesignId: 'd-r', rearDesignRevision: 2, trackProfile: 'smooth-circuit', message: null, authorName: 'Dana Quist', createdAt: '2026-12-01T09:00:00.000Z' },

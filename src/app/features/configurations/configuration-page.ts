@@ -19,6 +19,7 @@ import type { BarGroup, LineSeries } from '../../charts/chart-types';
 import { AnalysisError, KinematicsClient } from '../../workers/kinematics-client';
 import { CornerCautions } from '../axle-design/corner-cautions';
 import { AxleDesignSummary, FeaturesApi } from '../features-api';
+import { ConfigurationStudies } from '../studies/configuration-studies';
 import { SafetyCaution } from '../safety-caution';
 import {
   ApprovalDetail,
@@ -80,7 +81,7 @@ interface FrozenFigure {
  */
 @Component({
   selector: 'rw-configuration-page',
-  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel],
+  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel, ConfigurationStudies],
   providers: [KinematicsClient],
   templateUrl: './configuration-page.html',
   styleUrl: './configuration-page.scss',

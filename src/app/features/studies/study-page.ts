@@ -4,7 +4,7 @@ import { MatButton } from '@angular/material/button';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
-import type { OutputResult, StudyResult } from '../../../../shared/study/index';
+import type { OutputResult, StudyResult, VariantPoint } from '../../../../shared/study/index';
 import { BarChart } from '../../charts/bar-chart';
 import { LineChart } from '../../charts/line-chart';
 import { formatNumber, type BarGroup, type LineSeries } from '../../charts/chart-types';
@@ -18,8 +18,12 @@ import { NumPipe } from '../../core/format/num-pipe';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { EMPTY, expand, map, switchMap, timer } from 'rxjs';
 import { loadState, resourceProblem } from '../../core/http/load-state';
+import { StudyAttach } from './study-attach';
 
 const isActive = (s: StudyView): boolean => s.status === 'queued' || s.status === 'running';
+
+/** A variant's bump cost; results stored before the ride-model bump cost carry the toe change as costDeg. */
+export const costOf = (v: VariantPoint): number => v.cost ?? (v as { costDeg?: number }).costDeg ?? NaN;
 
 const LEVEL_WORDS = { info: 'Notice', warning: 'Warning', critical: 'Critical' } as const;
 
@@ -32,7 +36,7 @@ const LEVEL_WORDS = { info: 'Notice', warning: 'Warning', critical: 'Critical' }
  */
 @Component({
   selector: 'rw-study-page',
-  imports: [NumPipe, RouterLink, MatButton, MatIcon, MatProgressBar, BarChart, LineChart, SafetyCaution],
+  imports: [NumPipe, RouterLink, MatButton, MatIcon, MatProgressBar, BarChart, LineChart, SafetyCaution, StudyAttach],
   templateUrl: './study-page.html',
   styleUrl: './studies.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -106,10 +110,22 @@ export class StudyPage {
     const sw = this.result()?.sweep;
     if (!sw) return [];
     return [
-      { name: 'Variants', style: 'points', points: sw.scatter.map((v) => ({ x: v.costDeg, y: v.gainDegPerG })) },
-      { name: 'Pareto front', points: sw.pareto.map((v) => ({ x: v.costDeg, y: v.gainDegPerG })) },
+      { name: 'Variants', style: 'points', points: sw.scatter.map((v) => ({ x: costOf(v), y: v.gainDegPerG })) },
+      { name: 'Pareto front', points: sw.pareto.map((v) => ({ x: costOf(v), y: v.gainDegPerG })) },
     ];
   });
+
+  /** The Pareto chart's cost axis: the ride model's yaw disturbance on the profile's road, or the toe change over the bump. */
+  protected readonly costAxis = computed(() => {
+    const r = this.result();
+    const sw = r?.sweep;
+    if (!r || !sw) return { label: 'Bump cost', unit: '' };
+    return sw.costOutput === 'bumpYawDisturbancePct'
+      ? { label: `Bump cost (yaw-rate disturbance, ${r.bumpCost.roadInWords})`, unit: '%' }
+      : { label: 'Bump cost (toe change over the bump)', unit: 'deg' };
+  });
+
+  protected readonly costOf = costOf;
 
   protected readonly mainEffects = computed<LineSeries[]>(() => {
     const sw = this.result()?.sweep;
