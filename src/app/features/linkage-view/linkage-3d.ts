@@ -197,16 +197,16 @@ export class Linkage3d implements AfterViewInit {
     this.controls = new OrbitControls(this.camera, this.labelRenderer.domElement);
     this.controls.addEventListener('change', () => this.render());
     this.listenForPicks(this.labelRenderer.domElement);
-    this.resize = new ResizeObserver(() => this.fit());
+    this.resize = new ResizeObserver(() => this.fitToView());
     this.resize.observe(stage);
-    this.fit();
+    this.fitToView();
     const corner = this.corner();
     this.build(corner);
     this.pose(this.posed() ?? (corner.points as Record<string, Vec3>), this.contactPatch());
     this.highlight(this.selectedKey());
   }
 
-  private fit(): void {
+  private fitToView(): void {
     const stage = this.host().nativeElement;
     // The stage's own width (the canvas never widens it: max-width 100 %, and the hosts may shrink).
     const w = Math.max(200, Math.floor(stage.getBoundingClientRect().width));
