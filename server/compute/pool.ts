@@ -26,25 +26,22 @@ export interface ComputePool {
 
 const WORKER = new URL('./worker.ts', import.meta.url).href;
 
-/**
- * `warm`: start one worker right away (loading the engines takes about a second) instead of at the first request;
- * `keepThreads`: start and keep all `threads` (a queue worker's study lanes, each with its thread warmed up at start).
- */
-export function createComputePool(o: { threads: number; maxQueue?: number; warm?: boolean; keepThreads?: boolean }): ComputePool {
+/** `warm`: start one worker right away (loading the engines takes about a second) instead of at the first request. */
+export function createComputePool(o: { threads: number; maxQueue?: number; warm?: boolean }): ComputePool {
   // Workers run the TypeScript sources through tsx, like the main process.
   const hasTsx = process.execArgv.some((a, i, all) => a.includes('tsx') && (all[i - 1] === '--import' || a.startsWith('--import')));
   let pool: Piscina | undefined;
   const get = () =>
     (pool ??= new Piscina({
       filename: WORKER,
-      minThreads: o.keepThreads ? o.threads : o.warm ? 1 : 0,
+      minThreads: o.warm ? 1 : 0,
       maxThreads: o.threads,
       maxQueue: o.maxQueue ?? 64,
       idleTimeout: 60_000,
       execArgv: hasTsx ? process.execArgv : [...process.execArgv, '--import', 'tsx'],
     }));
 
-  if (o.warm || o.keepThreads) get();
+  if (o.warm) get();
   return {
     async run(kind: TaskKind, input: unknown, opts: RunOptions): Promise<unknown> {
       return exec({ kind, input }, opts);

@@ -20,11 +20,6 @@ import {
   primaryKey,
   check,
 } from 'drizzle-orm/pg-core';
-import { AXLE_NAMES } from '../../shared/schema/axle.js';
-import type { ConfigurationResults, FrozenInputs } from '../../shared/api/configurations.js';
-import type { TrackProfileId } from '../../shared/tracks/profiles.js';
-import type { RigMapping, RigPoint } from '../../shared/io/rig-measurement.js';
-import type { Role } from '../permissions.js';
 
 const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
 
@@ -67,7 +62,7 @@ export const memberships = pgTable(
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
     /** A set of roles: owner, engineer, designer, reviewer, viewer. */
-    roles: text('roles').array().$type<Role[]>().notNull(),
+    roles: text('roles').array().notNull(),
     createdAt: createdAt(),
   },
   (t) => [
@@ -115,6 +110,8 @@ export const vehicleRevisions = pgTable(
   (t) => [primaryKey({ columns: [t.vehicleId, t.revision] })],
 );
 
+export const AXLES = ['front', 'rear'] as const;
+export type Axle = (typeof AXLES)[number];
 export const DESIGN_STATUSES = ['draft', 'proposed', 'accepted', 'approved', 'changes_requested'] as const;
 export type DesignStatus = (typeof DESIGN_STATUSES)[number];
 
@@ -125,7 +122,7 @@ export const axleDesigns = pgTable(
     vehicleId: uuid('vehicle_id')
       .notNull()
       .references(() => vehicles.id, { onDelete: 'cascade' }),
-    axle: text('axle', { enum: AXLE_NAMES }).notNull(),
+    axle: text('axle', { enum: AXLES }).notNull(),
     name: text('name').notNull(),
     status: text('status', { enum: DESIGN_STATUSES }).notNull().default('draft'),
     archived: boolean('archived').notNull().default(false),
@@ -238,8 +235,8 @@ export const configurations = pgTable(
       .notNull()
       .references(() => axleDesigns.id),
     rearDesignRevision: integer('rear_design_revision').notNull(),
-    /** Track profile id of the intent engine (shared/tracks/profiles.ts). */
-    trackProfile: text('track_profile').$type<TrackProfileId>().notNull(),
+    /** Track profile id of the intent engine (shared/intent/profiles.ts). */
+    trackProfile: text('track_profile').notNull(),
     archived: boolean('archived').notNull().default(false),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
     updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
@@ -263,7 +260,7 @@ export const configurationRevisions = pgTable(
     frontDesignRevision: integer('front_design_revision').notNull(),
     rearDesignId: uuid('rear_design_id').notNull(),
     rearDesignRevision: integer('rear_design_revision').notNull(),
-    trackProfile: text('track_profile').$type<TrackProfileId>().notNull(),
+    trackProfile: text('track_profile').notNull(),
     message: text('message'),
     authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
@@ -302,8 +299,8 @@ export const configurationApprovals = pgTable(
       .references(() => configurations.id, { onDelete: 'cascade' }),
     revision: integer('revision').notNull(),
     engineVersion: text('engine_version').notNull(),
-    inputs: jsonb('inputs').$type<FrozenInputs>().notNull(),
-    results: jsonb('results').$type<ConfigurationResults>().notNull(),
+    inputs: jsonb('inputs').notNull(),
+    results: jsonb('results').notNull(),
     message: text('message'),
     approvedBy: uuid('approved_by').references(() => users.id, { onDelete: 'set null' }),
     approvedAt: timestamp('approved_at', { withTimezone: true }).notNull().defaultNow(),
@@ -390,7 +387,7 @@ export const teamInvitations = pgTable(
       .references(() => teams.id, { onDelete: 'cascade' }),
     /** Stored lower-cased. */
     email: text('email').notNull(),
-    roles: text('roles').array().$type<Role[]>().notNull(),
+    roles: text('roles').array().notNull(),
     invitedBy: uuid('invited_by').references(() => users.id, { onDelete: 'set null' }),
     expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
     acceptedAt: timestamp('accepted_at', { withTimezone: true }),
@@ -473,7 +470,7 @@ export const programmes = pgTable('programmes', {
   instructorId: uuid('instructor_id')
     .notNull()
     .references(() => users.id, { onDelete: 'cascade' }),
-  trackProfile: text('track_profile').$type<TrackProfileId>().notNull(),
+  trackProfile: text('track_profile').notNull(),
   createdAt: createdAt(),
 });
 
@@ -538,7 +535,7 @@ export const rigMeasurements = pgTable(
     attachedTo: text('attached_to', { enum: RIG_ATTACHMENTS }).notNull(),
     configurationId: uuid('configuration_id').references(() => configurations.id, { onDelete: 'cascade' }),
     configurationRevision: integer('configuration_revision'),
-    axle: text('axle', { enum: AXLE_NAMES }).notNull(),
+    axle: text('axle', { enum: AXLES }).notNull(),
     designId: uuid('design_id')
       .notNull()
       .references(() => axleDesigns.id, { onDelete: 'cascade' }),
@@ -547,9 +544,9 @@ export const rigMeasurements = pgTable(
     rackMm: doublePrecision('rack_mm').notNull().default(0),
     basis: text('basis', { enum: RIG_BASES }).notNull().default('change'),
     /** The mapping the file was read with (shared/io/rig-measurement.ts `RigMapping`). */
-    mapping: jsonb('mapping').$type<RigMapping>().notNull(),
+    mapping: jsonb('mapping').notNull(),
     /** Parsed points: `{ travelMm, toeDeg, camberDeg, line }[]`, mm and deg, Rollwise signs. */
-    points: jsonb('points').$type<RigPoint[]>().notNull(),
+    points: jsonb('points').notNull(),
     pointCount: integer('point_count').notNull(),
     hasCamber: boolean('has_camber').notNull(),
     note: text('note'),
@@ -658,30 +655,6 @@ export const studies = pgTable(
   ],
 );
 
-/**
- * A completed study attached to a configuration's review record (same team):
- * listed with its key figures on the configuration and, the latest per team,
- * on the programme board. Detaching deletes the row.
- */
-export const studyAttachments = pgTable(
-  'study_attachments',
-  {
-    studyId: uuid('study_id')
-      .notNull()
-      .references(() => studies.id, { onDelete: 'cascade' }),
-    configurationId: uuid('configuration_id')
-      .notNull()
-      .references(() => configurations.id, { onDelete: 'cascade' }),
-    teamId: uuid('team_id')
-      .notNull()
-      .references(() => teams.id, { onDelete: 'cascade' }),
-    note: text('note').notNull().default(''),
-    attachedBy: uuid('attached_by').references(() => users.id, { onDelete: 'set null' }),
-    attachedAt: timestamp('attached_at', { withTimezone: true }).notNull().defaultNow(),
-  },
-  (t) => [primaryKey({ columns: [t.studyId, t.configurationId] }), index('study_attachments_configuration_idx').on(t.configurationId, t.attachedAt), index('study_attachments_team_idx').on(t.teamId, t.attachedAt)],
-);
-
 /** One finished chunk of a study; the key makes a retried chunk land once. */
 export const studyChunks = pgTable(
   'study_chunks',
@@ -700,58 +673,4 @@ export const studyChunks = pgTable(
     finishedAt: timestamp('finished_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [primaryKey({ columns: [t.studyId, t.chunkIndex] })],
-);
-
-/**
- * A reviewer's written acknowledgement of one Critical caution, given with the
- * sign-off it allowed (the transition to approved). The caution is kept as it
- * read then (message, value, threshold), so the record says what was accepted
- * even after the engine or the thresholds change. Never updated.
- */
-export const cautionAcknowledgements = pgTable(
-  'caution_acknowledgements',
-  {
-    id: uuid('id').primaryKey().defaultRandom(),
-    configurationId: uuid('configuration_id')
-      .notNull()
-      .references(() => configurations.id, { onDelete: 'cascade' }),
-    revision: integer('revision').notNull(),
-    transitionId: uuid('transition_id')
-      .notNull()
-      .references(() => configurationTransitions.id, { onDelete: 'cascade' }),
-    axle: text('axle', { enum: AXLE_NAMES }).notNull(),
-    code: text('code').notNull(),
-    message: text('message').notNull(),
-    value: doublePrecision('value'),
-    threshold: doublePrecision('threshold'),
-    unit: text('unit'),
-    reason: text('reason').notNull(),
-    acknowledgedBy: uuid('acknowledged_by').references(() => users.id, { onDelete: 'set null' }),
-    acknowledgedAt: timestamp('acknowledged_at', { withTimezone: true }).notNull().defaultNow(),
-  },
-  (t) => [index('caution_acknowledgements_configuration_idx').on(t.configurationId, t.revision)],
-);
-
-/**
- * A recorded waiver of the rig evidence for one axle, given with the move to
- * validated that it allowed: the reason says why the configuration counts as
- * validated without a measurement within the team's tolerance. Never updated.
- */
-export const rigEvidenceWaivers = pgTable(
-  'rig_evidence_waivers',
-  {
-    id: uuid('id').primaryKey().defaultRandom(),
-    configurationId: uuid('configuration_id')
-      .notNull()
-      .references(() => configurations.id, { onDelete: 'cascade' }),
-    revision: integer('revision').notNull(),
-    transitionId: uuid('transition_id')
-      .notNull()
-      .references(() => configurationTransitions.id, { onDelete: 'cascade' }),
-    axle: text('axle', { enum: AXLE_NAMES }).notNull(),
-    reason: text('reason').notNull(),
-    waivedBy: uuid('waived_by').references(() => users.id, { onDelete: 'set null' }),
-    waivedAt: timestamp('waived_at', { withTimezone: true }).notNull().defaultNow(),
-  },
-  (t) => [index('rig_evidence_waivers_configuration_idx').on(t.configurationId, t.revision)],
 );

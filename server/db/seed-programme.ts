@@ -13,7 +13,7 @@ import { memberships, teams, users } from './schema.js';
 import { createComputePool } from '../compute/pool.js';
 import { Configurations } from '../services/configurations.js';
 import { Programmes } from '../services/programmes.js';
-import type { TrackProfileId } from '../../shared/tracks/profiles.js';
+import type { TrackProfileId } from '../../shared/intent/profiles.js';
 
 export const DEMO_PROGRAMME = {
   name: 'Winter roll-steer comparison',

@@ -107,7 +107,7 @@ export function createAuthorizer(orm: Orm, instructorReads?: (userId: string, te
       if (!hasPermission(m.roles, permission)) {
         throw new HttpError(403, 'forbidden', `Your roles in this team do not allow this (needs ${permission})`, { permission });
       }
-      req.access = { teamId, roles: m.roles };
+      req.access = { teamId, roles: m.roles as Role[] };
       next();
     };
   }

@@ -5,7 +5,7 @@
  */
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError, type ZodType } from 'zod';
-import { DomainError, InputError, SolveError, formatPath, notFound, type DomainErrorKind, type FieldIssue } from '../../shared/errors.js';
+import { InputError, SolveError, formatPath, type FieldIssue } from '../../shared/errors.js';
 
 export class HttpError extends Error {
   constructor(
@@ -19,18 +19,7 @@ export class HttpError extends Error {
   }
 }
 
-/** HttpError is for the HTTP layer itself (middleware: sessions, tokens, CSRF, uploads); services throw domain errors. */
-export { notFound };
-
-/** The status of each kind of domain error (shared/errors.ts). */
-export const DOMAIN_STATUS: Readonly<Record<DomainErrorKind, number>> = {
-  invalid: 400,
-  unauthenticated: 401,
-  forbidden: 403,
-  not_found: 404,
-  conflict: 409,
-  gone: 410,
-};
+export const notFound = (what = 'Resource') => new HttpError(404, 'not_found', `${what} not found`);
 
 /** Parses request input with a zod schema; failure is 400 listing every field. */
 export function validate<T>(schema: ZodType<T>, input: unknown, what = 'request'): T {
@@ -80,7 +69,6 @@ export interface ErrorBody {
 /** Maps any thrown value to status + body. */
 export function toErrorBody(err: unknown): ErrorBody {
   if (err instanceof HttpError) return { status: err.status, code: err.code, message: err.message, details: err.details };
-  if (err instanceof DomainError) return { status: DOMAIN_STATUS[err.kind], code: err.code, message: err.message, details: err.details };
   if (err instanceof ZodError) {
     const h = invalidInput(err, 'request');
     return { status: 400, code: h.code, message: h.message, details: h.details };

@@ -9,7 +9,7 @@ import { validate } from '../http/errors.js';
 import { currentAccess, type Authorizer } from '../http/authorize.js';
 import { checkTimeZone, type Activity, type ActivityQuery } from '../services/activity.js';
 import type { AxleDesigns } from '../services/axle-designs.js';
-import { loadParam, loaded } from './loaders.js';
+import { idParam } from './vehicles.js';
 
 const querySchema = z
   .object({
@@ -24,7 +24,6 @@ const querySchema = z
 
 export function activityRouter(activity: Activity, designs: AxleDesigns, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
-  r.param('designId', loadParam('design', 'Axle design', (req, id) => designs.get(currentAccess(req).teamId, id)));
 
   async function answer(res: Response, teamId: string, raw: unknown, designId?: string, fileName = 'activity') {
     const q = validate(querySchema, raw, 'query');
@@ -45,7 +44,7 @@ export function activityRouter(activity: Activity, designs: AxleDesigns, auth: A
 
   r.get('/axle-designs/:designId/activity', auth.requirePermission('team:read'), async (req, res) => {
     const teamId = currentAccess(req).teamId;
-    const d = await loaded(req, 'design'); // 404 outside the team
+    const d = await designs.get(teamId, idParam(req.params['designId'], 'Axle design')); // 404 outside the team
     await answer(res, teamId, req.query, d.id, 'design-activity');
   });
 

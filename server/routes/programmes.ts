@@ -6,7 +6,7 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { validate } from '../http/errors.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
-import { TRACK_PROFILE_IDS } from '../../shared/tracks/profiles.js';
+import { TRACK_PROFILE_IDS } from '../../shared/intent/profiles.js';
 import { Programmes, type BoardRow } from '../services/programmes.js';
 import { idParam } from './vehicles.js';
 

@@ -9,14 +9,14 @@
  */
 import { Router } from 'express';
 import { z } from 'zod';
-import { validate } from '../http/errors.js';
+import { HttpError, validate } from '../http/errors.js';
 import { jsonUploadField, singleTextUpload, uploadedText } from '../http/upload.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
-import { AXLE_NAMES } from '../../shared/schema/axle.js';
+import { AXLES } from '../db/schema.js';
 import { rigMappingSchema } from '../../shared/io/rig-mapping-schema.js';
 import { INTENT_RANGES } from '../../shared/schema/ranges.js';
 import { inRange } from '../../shared/schema/ranged.js';
-import { RIG_BASES, rigToleranceSchema } from '../../shared/rig/compare.js';
+import { RIG_BASES, rigToleranceSchema } from '../../shared/intent/rig-compare.js';
 import type { RigMeasurements } from '../services/rig-measurements.js';
 import { idParam } from './vehicles.js';
 
@@ -24,7 +24,7 @@ const uuid = z.uuid('must be an id');
 const rev = z.number().int().positive();
 
 const targetSchema = z.discriminatedUnion('kind', [
-  z.strictObject({ kind: z.literal('configuration'), configurationId: uuid, configurationRevision: rev.optional(), axle: z.enum(AXLE_NAMES) }),
+  z.strictObject({ kind: z.literal('configuration'), configurationId: uuid, configurationRevision: rev.optional(), axle: z.enum(AXLES) }),
   z.strictObject({ kind: z.literal('baseline'), designId: uuid, designRevision: rev.optional() }),
 ]);
 

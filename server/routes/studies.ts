@@ -6,11 +6,6 @@
  *   DELETE /:studyId                           cancel: every chunk stops
  *   GET    /:studyId/csv                       the result as CSV
  *   POST   /:studyId/variants/:index/proposal  a design-sweep variant as a proposal on its axle design → 201
- *   PUT    /:studyId/attachments/:configurationId  attach a completed study to a configuration's review record
- *   DELETE /:studyId/attachments/:configurationId  detach it → 204
- *   GET    /?attachedTo=:configurationId       the studies attached to a configuration, with key figures
- * and, mounted at /api/programmes/:programmeId/studies (programmeStudiesRouter):
- *   GET    /                                   per accepted team, its latest attached study (the programme's instructor)
  * A study whose work was lost answers 410 job_gone with the reason.
  */
 import { Router } from 'express';
@@ -21,8 +16,6 @@ import type { Studies } from '../services/studies.js';
 import { idParam } from './vehicles.js';
 
 const indexParam = z.coerce.number().int().min(0).max(1_000_000);
-const listQuery = z.object({ attachedTo: z.uuid('must be a configuration id').optional() });
-const attachSchema = z.strictObject({ note: z.string().trim().max(500).optional() });
 
 export function studiesRouter(studies: Studies, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
@@ -36,23 +29,7 @@ export function studiesRouter(studies: Studies, auth: Authorizer): Router {
   });
 
   r.get('/', requirePermission('team:read'), async (req, res) => {
-    const q = validate(listQuery, req.query, 'query');
-    if (q.attachedTo) {
-      res.json({ attachments: await studies.attachedTo(teamId(req), q.attachedTo) });
-      return;
-    }
     res.json({ studies: await studies.list(teamId(req)) });
-  });
-
-  r.put('/:studyId/attachments/:configurationId', requirePermission('study:run'), async (req, res) => {
-    const { note } = validate(attachSchema, req.body ?? {}, 'attachment');
-    const configurationId = idParam(req.params['configurationId'], 'Configuration');
-    res.json({ attachment: await studies.attach(teamId(req), studyId(req.params['studyId']), configurationId, currentUser(req).id, note ?? '') });
-  });
-
-  r.delete('/:studyId/attachments/:configurationId', requirePermission('study:run'), async (req, res) => {
-    await studies.detach(teamId(req), studyId(req.params['studyId']), idParam(req.params['configurationId'], 'Configuration'));
-    res.status(204).end();
   });
 
   r.get('/:studyId', requirePermission('team:read'), async (req, res) => {
@@ -76,14 +53,5 @@ export function studiesRouter(studies: Studies, auth: Authorizer): Router {
     res.status(201).json({ proposal });
   });
 
-  return r;
-}
-
-/** Mounted at /api/programmes/:programmeId/studies: the programme board's study column (its instructor only, as the board). */
-export function programmeStudiesRouter(studies: Studies, auth: Authorizer): Router {
-  const r = Router({ mergeParams: true });
-  r.get('/', auth.requireUser, async (req, res) => {
-    res.json(await studies.programmeStudies(currentUser(req), idParam((req.params as Record<string, string>)['programmeId'], 'Programme')));
-  });
   return r;
 }

@@ -4,10 +4,6 @@ import { z } from 'zod';
 import { notFound, validate } from '../http/errors.js';
 import { currentAccess, currentUser, isUuid, type Authorizer } from '../http/authorize.js';
 import { parseVehicleData, type Vehicles } from '../services/vehicles.js';
-import { loadParam, loaded } from './loaders.js';
-import { reply } from '../http/reply.js';
-import type { VehicleRecord, VehicleSummary } from '../../shared/api/documents.js';
-import type { RevisionRow } from '../../shared/api/common.js';
 import { diffDocuments } from '../services/document-diff.js';
 
 export const documentName = z.string().trim().min(1, 'is required').max(120);
@@ -37,34 +33,32 @@ export function idParam(raw: unknown, what: string): string {
 export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
   const { requirePermission } = auth;
-  r.param('vehicleId', loadParam('vehicle', 'Vehicle', (req, id) => vehicles.get(currentAccess(req).teamId, id)));
+  const vehicleId = (raw: unknown) => idParam(raw, 'Vehicle');
 
   r.get('/', requirePermission('team:read'), async (req, res) => {
     const q = validate(archivedQuery, req.query, 'query');
-    reply<VehicleSummary[]>(res, await vehicles.list(currentAccess(req).teamId, q.archived === 'true'));
+    res.json(await vehicles.list(currentAccess(req).teamId, q.archived === 'true'));
   });
 
   r.post('/', requirePermission('vehicle:manage'), async (req, res) => {
     const input = validate(createSchema, req.body);
-    reply<VehicleRecord>(res, await vehicles.create(currentAccess(req).teamId, currentUser(req).id, input), 201);
+    res.status(201).json(await vehicles.create(currentAccess(req).teamId, currentUser(req).id, input));
   });
 
   r.get('/:vehicleId', requirePermission('team:read'), async (req, res) => {
-    reply<VehicleRecord>(res, await loaded(req, 'vehicle'));
+    res.json(await vehicles.get(currentAccess(req).teamId, vehicleId(req.params['vehicleId'])));
   });
 
   r.patch('/:vehicleId', requirePermission('vehicle:manage'), async (req, res) => {
     const { baseRevision: base, ...change } = validate(patchSchema, req.body);
-    const v = await loaded(req, 'vehicle');
-    reply<VehicleRecord>(res, await vehicles.update(currentAccess(req).teamId, v.id, currentUser(req).id, base, change));
+    res.json(await vehicles.update(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), currentUser(req).id, base, change));
   });
 
   r.put('/:vehicleId/data', requirePermission('vehicle:edit'), async (req, res) => {
     const input = validate(dataSchema, req.body);
     const data = parseVehicleData(input.data);
-    const v = await loaded(req, 'vehicle');
     res.json(
-      await vehicles.update(currentAccess(req).teamId, v.id, currentUser(req).id, input.baseRevision, {
+      await vehicles.update(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), currentUser(req).id, input.baseRevision, {
         data,
         message: input.message,
       }),
@@ -72,18 +66,18 @@ export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
   });
 
   r.get('/:vehicleId/revisions', requirePermission('team:read'), async (req, res) => {
-    reply<RevisionRow[]>(res, await vehicles.revisions(await loaded(req, 'vehicle')));
+    res.json(await vehicles.revisions(currentAccess(req).teamId, vehicleId(req.params['vehicleId'])));
   });
 
   // Changed values between two revisions (e.g. ?from=1&to=3), side by side.
   r.get('/:vehicleId/compare', requirePermission('team:read'), async (req, res) => {
-    const v = await loaded(req, 'vehicle');
-    res.json(await compareRevisions(req.query, (n) => vehicles.revision(v, n), 'data'));
+    const teamId = currentAccess(req).teamId;
+    const id = vehicleId(req.params['vehicleId']);
+    res.json(await compareRevisions(req.query, (n) => vehicles.revision(teamId, id, n), 'data'));
   });
 
   r.get('/:vehicleId/revisions/:revision', requirePermission('team:read'), async (req, res) => {
-    const v = await loaded(req, 'vehicle');
-    res.json(await vehicles.revision(v, revisionNumber(req.params['revision'])));
+    res.json(await vehicles.revision(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), revisionNumber(req.params['revision'])));
   });
 
   return r;

@@ -8,8 +8,8 @@
 import { and, asc, desc, eq } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { configurations, programmeSnapshots, programmeTeams, programmes, teams, users } from '../db/schema.js';
-import { DomainError, notFound } from '../../shared/errors.js';
-import type { TrackProfileId } from '../../shared/tracks/profiles.js';
+import { HttpError, notFound } from '../http/errors.js';
+import type { TrackProfileId } from '../../shared/intent/profiles.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import type { Configurations, ConfigurationResults } from './configurations.js';
 import { toCsv } from '../../shared/io/csv.js';
@@ -72,7 +72,7 @@ export class Programmes {
   ) {}
 
   private instructorOnly(user: { instructor: boolean }) {
-    if (!user.instructor) throw new DomainError('forbidden', 'forbidden', 'Only instructors run programmes');
+    if (!user.instructor) throw new HttpError(403, 'forbidden', 'Only instructors run programmes');
   }
 
   async create(user: { id: string; instructor: boolean }, input: { name: string; trackProfile: TrackProfileId }) {
@@ -101,9 +101,9 @@ export class Programmes {
   async inviteTeam(user: { id: string }, id: string, teamSlug: string) {
     await this.get(user, id);
     const [t] = await this.orm.select({ id: teams.id }).from(teams).where(eq(teams.slug, teamSlug));
-    if (!t) throw new DomainError('not_found', 'not_found', `No team has the address "${teamSlug}"`, { field: 'teamSlug' });
+    if (!t) throw new HttpError(404, 'not_found', `No team has the address "${teamSlug}"`, { field: 'teamSlug' });
     const rows = await this.orm.insert(programmeTeams).values({ programmeId: id, teamId: t.id }).onConflictDoNothing().returning();
-    if (!rows.length) throw new DomainError('conflict', 'already_invited', 'That team is already in this programme');
+    if (!rows.length) throw new HttpError(409, 'already_invited', 'That team is already in this programme');
     return (await this.get(user, id)).teams.find((x) => x.teamId === t.id)!;
   }
 
@@ -152,14 +152,14 @@ export class Programmes {
         let latest: BoardRow['latest'];
         try {
           const { inputs } = await this.configs.inputs(t.teamId, c.id, c.revision);
-          latest = { revision: c.revision, trackProfile: p.trackProfile, figures: keyFigures(await this.configs.compute({ ...inputs, trackProfile: p.trackProfile })) };
+          latest = { revision: c.revision, trackProfile: p.trackProfile, figures: keyFigures(await this.configs.compute({ ...inputs, trackProfile: p.trackProfile as TrackProfileId })) };
         } catch (err) {
           latest = { revision: c.revision, error: err instanceof Error ? err.message : String(err) };
         }
-        const [a] = await this.configs.approvals(c);
+        const [a] = await this.configs.approvals(t.teamId, c.id);
         let approved: BoardRow['approved'] = null;
         if (a) {
-          const full = await this.configs.frozen(c, a.id);
+          const full = await this.configs.frozen(t.teamId, c.id, a.id);
           approved = { revision: a.revision, approvedAt: a.approvedAt, engineVersion: a.engineVersion, trackProfile: full.trackProfile, figures: keyFigures(full.results) };
         }
         rows.push({ teamId: t.teamId, teamName: t.teamName, configurationId: c.id, configurationName: c.name, status: c.status, latest, approved });

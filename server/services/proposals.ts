@@ -8,12 +8,11 @@
 import { and, desc, eq, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import type { Orm } from '../db/client.js';
-import { axleDesignProposals, users, type ProposalStatus } from '../db/schema.js';
-import { DomainError, notFound } from '../../shared/errors.js';
-import type { Corner } from '../../shared/schema/corner.js';
-import { storedCorner, type AxleDesigns, type AxleDesignView } from './axle-designs.js';
+import { axleDesignProposals, axleDesignRevisions, axleDesigns, users, type ProposalStatus } from '../db/schema.js';
+import { HttpError, notFound } from '../http/errors.js';
+import { upgradeCornerDocument, type Corner } from '../../shared/schema/corner.js';
+import type { AxleDesigns, AxleDesignView } from './axle-designs.js';
 import { recordActivity } from './activity.js';
-import { writeRevision } from './revisions.js';
 
 export interface ProposalView {
   id: string;
@@ -29,7 +28,7 @@ export interface ProposalView {
   decidedAt: Date | null;
   decisionMessage: string | null;
   acceptedRevision: number | null;
-  corner?: Corner;
+  corner?: unknown;
 }
 
 const author = alias(users, 'author');
@@ -51,7 +50,7 @@ const columns = {
   acceptedRevision: axleDesignProposals.acceptedRevision,
 };
 
-const closed = (p: { status: string }) => new DomainError('conflict', 'proposal_closed', `This proposal is already ${p.status}`);
+const closed = (p: { status: string }) => new HttpError(409, 'proposal_closed', `This proposal is already ${p.status}`);
 
 export class Proposals {
   constructor(
@@ -59,24 +58,19 @@ export class Proposals {
     private readonly designs: AxleDesigns,
   ) {}
 
-  /** The design's proposals, newest first (`design` as loaded for the team). */
-  async list(design: { id: string }): Promise<ProposalView[]> {
+  async list(teamId: string, designId: string): Promise<ProposalView[]> {
+    await this.designs.get(teamId, designId);
     return this.orm
       .select(columns)
       .from(axleDesignProposals)
       .leftJoin(author, eq(author.id, axleDesignProposals.authorId))
       .leftJoin(decider, eq(decider.id, axleDesignProposals.decidedBy))
-      .where(eq(axleDesignProposals.designId, design.id))
+      .where(eq(axleDesignProposals.designId, designId))
       .orderBy(desc(axleDesignProposals.createdAt));
   }
 
   async get(teamId: string, designId: string, proposalId: string): Promise<ProposalView> {
-    return this.getOf(await this.designs.get(teamId, designId), proposalId);
-  }
-
-  /** One proposal of the design (`design` as loaded for the team); 404 when it is another design's. */
-  async getOf(design: { id: string }, proposalId: string): Promise<ProposalView> {
-    const designId = design.id;
+    await this.designs.get(teamId, designId);
     const [p] = await this.orm
       .select({ ...columns, corner: axleDesignProposals.corner })
       .from(axleDesignProposals)
@@ -84,7 +78,7 @@ export class Proposals {
       .leftJoin(decider, eq(decider.id, axleDesignProposals.decidedBy))
       .where(and(eq(axleDesignProposals.id, proposalId), eq(axleDesignProposals.designId, designId)));
     if (!p) throw notFound('Proposal');
-    return { ...p, corner: storedCorner(p.corner) };
+    return { ...p, corner: upgradeCornerDocument(p.corner) };
   }
 
   async create(
@@ -126,29 +120,37 @@ export class Proposals {
       if (!p) throw notFound('Proposal');
       if (p.status !== 'open') throw closed(p);
       const [proposer] = p.authorId ? await tx.select({ name: users.displayName }).from(users).where(eq(users.id, p.authorId)) : [];
+      const [row] = await tx
+        .update(axleDesigns)
+        .set({ corner: p.corner, status: 'accepted', revision: sql`${axleDesigns.revision} + 1`, updatedAt: sql`now()`, updatedBy: deciderId })
+        .where(and(eq(axleDesigns.id, designId), eq(axleDesigns.revision, p.baseRevision)))
+        .returning();
+      if (!row) throw this.outdated(p.baseRevision, await this.designs.get(teamId, designId, tx));
       const note = [`Accepted proposal${proposer ? ` by ${proposer.name}` : ''}`, p.message, message].filter(Boolean).join(': ');
-      const { row } = await writeRevision(tx, this.designs.document, {
-        teamId,
-        id: designId,
-        baseRevision: p.baseRevision,
-        change: { corner: p.corner, status: 'accepted' },
-        authorId: deciderId,
+      await tx.insert(axleDesignRevisions).values({
+        designId,
+        revision: row.revision,
+        name: row.name,
+        status: row.status,
+        archived: row.archived,
+        corner: row.corner,
         message: note,
         // The geometry's author is the proposer; the design records who accepted it.
-        revisionAuthorId: p.authorId,
-        conflict: (current) => this.outdated(p.baseRevision, current),
-        activity: (_previous, row) => ({
-          action: 'proposal.accept',
-          subjectType: 'proposal',
-          subjectId: proposalId,
-          designId,
-          summary: `Accepted a proposal for "${row.name}" as revision ${row.revision}`,
-        }),
+        authorId: p.authorId,
       });
       await tx
         .update(axleDesignProposals)
         .set({ status: 'accepted', decidedBy: deciderId, decidedAt: sql`now()`, decisionMessage: message ?? null, acceptedRevision: row.revision })
         .where(eq(axleDesignProposals.id, proposalId));
+      await recordActivity(tx, {
+        teamId,
+        actorId: deciderId,
+        action: 'proposal.accept',
+        subjectType: 'proposal',
+        subjectId: proposalId,
+        designId,
+        summary: `Accepted a proposal for "${row.name}" as revision ${row.revision}`,
+      });
     });
     return { proposal: await this.get(teamId, designId, proposalId), design: await this.designs.get(teamId, designId) };
   }
@@ -160,7 +162,7 @@ export class Proposals {
   /** Only the author may withdraw their own open proposal. */
   async withdraw(teamId: string, designId: string, proposalId: string, userId: string): Promise<ProposalView> {
     const p = await this.get(teamId, designId, proposalId);
-    if (p.authorId !== userId) throw new DomainError('forbidden', 'forbidden', 'Only the author can withdraw a proposal');
+    if (p.authorId !== userId) throw new HttpError(403, 'forbidden', 'Only the author can withdraw a proposal');
     return this.close(teamId, designId, proposalId, 'withdrawn', userId);
   }
 
@@ -182,8 +184,9 @@ export class Proposals {
     return this.get(teamId, designId, proposalId);
   }
 
-  private outdated(baseRevision: number, current: AxleDesignView): DomainError {
-    return new DomainError('conflict',
+  private outdated(baseRevision: number, current: AxleDesignView): HttpError {
+    return new HttpError(
+      409,
       'proposal_outdated',
       `The design is at revision ${current.revision}, but the proposal was made on revision ${baseRevision}; propose again on the current geometry`,
       { baseRevision, current },

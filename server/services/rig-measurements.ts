@@ -3,28 +3,27 @@
  * (shared/io/rig-measurement.ts), stored whole or not at all against a
  * configuration revision's front or rear axle design, or against an axle
  * design revision as a baseline of the current car, and compared with the
- * design's predicted toe and camber (shared/rig/compare.ts, run in
+ * design's predicted toe and camber (shared/intent/rig-compare.ts, run in
  * the compute pool). The comparison is recomputed on every read with the
  * team's current rig tolerance; nothing computed is stored or taken from
  * the browser.
  */
 import { and, desc, eq, type SQL } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
-import { axleDesignRevisions, axleDesigns, rigMeasurements, teamRigSettings, users, vehicles } from '../db/schema.js';
-import { DomainError, notFound } from '../../shared/errors.js';
+import { axleDesignRevisions, axleDesigns, rigMeasurements, teamRigSettings, users, vehicles, type Axle } from '../db/schema.js';
+import { HttpError, notFound } from '../http/errors.js';
 import type { ComputePool } from '../compute/pool.js';
 import type { Configurations } from './configurations.js';
 import { recordActivity } from './activity.js';
 import type { UploadedText } from '../http/upload.js';
 import { previewRigCsv, readRigCsv, type RigMapping, type RigPoint, type RigPreview } from '../../shared/io/rig-measurement.js';
-import { DEFAULT_RIG_TOLERANCE, type RigBasis, type RigComparison, type RigTolerance } from '../../shared/rig/compare.js';
+import { DEFAULT_RIG_TOLERANCE, type RigBasis, type RigComparison, type RigTolerance } from '../../shared/intent/rig-compare.js';
 import { upgradeCornerDocument } from '../../shared/schema/corner.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
-import type { AxleName } from '../../shared/schema/axle.js';
 
 /** What a measurement is compared with. */
 export type RigTarget =
-  | { kind: 'configuration'; configurationId: string; configurationRevision?: number | undefined; axle: AxleName }
+  | { kind: 'configuration'; configurationId: string; configurationRevision?: number | undefined; axle: Axle }
   | { kind: 'baseline'; designId: string; designRevision?: number | undefined };
 
 export interface RigOptions {
@@ -43,7 +42,7 @@ export interface RigToleranceView extends RigTolerance {
 }
 
 const rowErrors = (errors: string[]) =>
-  new DomainError('invalid', 'rig_rows', `The rig file was refused: ${errors[0]}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, { errors });
+  new HttpError(400, 'rig_rows', `The rig file was refused: ${errors[0]}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, { errors });
 
 const summaryColumns = {
   id: rigMeasurements.id,
@@ -132,7 +131,7 @@ export class RigMeasurements {
       .select({ corner: axleDesignRevisions.corner })
       .from(axleDesignRevisions)
       .where(and(eq(axleDesignRevisions.designId, designId), eq(axleDesignRevisions.revision, revision)));
-    if (!r) throw new DomainError('not_found', 'not_found', `Axle design revision ${revision} not found`, { field: 'designRevision' });
+    if (!r) throw new HttpError(404, 'not_found', `Axle design revision ${revision} not found`, { field: 'designRevision' });
     return upgradeCornerDocument(r.corner);
   }
 
@@ -220,11 +219,11 @@ export class RigMeasurements {
   async get(teamId: string, id: string) {
     const s = await this.summary(teamId, id);
     const [row] = await this.orm.select({ mapping: rigMeasurements.mapping, points: rigMeasurements.points }).from(rigMeasurements).where(eq(rigMeasurements.id, id));
-    const points = row!.points;
+    const points = row!.points as RigPoint[];
     const corner = await this.designCorner(s.designId, s.designRevision);
     const tolerance = await this.tolerance(teamId);
     const comparison = await this.compare(corner, points, { rackMm: s.rackMm, side: s.side, basis: s.basis }, tolerance);
-    return { ...s, mapping: row!.mapping, points, comparison, engineVersion: ENGINE_VERSION };
+    return { ...s, mapping: row!.mapping as RigMapping, points, comparison, engineVersion: ENGINE_VERSION };
   }
 
   async remove(teamId: string, id: string, userId: string): Promise<void> {

@@ -14,17 +14,15 @@
 import { randomInt } from 'node:crypto';
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import { parseOrThrow } from '../../shared/errors.js';
-import { planStudy, studyKeyFigures, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, type StudyKeyFigure, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
+import { planStudy, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
 import type { Database } from '../db/client.js';
-import { configurations, programmeTeams, studies, studyAttachments, teams, users } from '../db/schema.js';
+import { studies, users } from '../db/schema.js';
 import { HttpError, notFound, validate } from '../http/errors.js';
 import type { AxleDesigns } from './axle-designs.js';
 import type { Configurations } from './configurations.js';
 import type { Proposals, ProposalView } from './proposals.js';
 import type { Vehicles } from './vehicles.js';
-import type { Programmes } from './programmes.js';
 import { QUEUES, bossDb, inTransaction, type JobQueue, type QueueJobData } from '../compute/queue.js';
-import type { AxleName } from '../../shared/schema/axle.js';
 
 export type StudyStatus = 'queued' | 'running' | 'completed' | 'failed' | 'cancelled';
 
@@ -84,24 +82,11 @@ const listColumns = {
 };
 type ListRow = Pick<Row, Exclude<keyof typeof listColumns, 'creatorName'>> & { creatorName: string | null };
 
-/** A study attached to a configuration's review record, with its key figures. */
-export interface AttachedStudy {
-  studyId: string;
-  configurationId: string;
-  label: string;
-  kind: 'tolerance' | 'sweep';
-  totalSamples: number;
-  note: string;
-  attachedAt: Date;
-  attachedBy: { id: string; displayName: string } | null;
-  keyFigures: StudyKeyFigure[];
-}
-
 export class Studies {
   constructor(
     private readonly db: Database,
     private readonly queue: JobQueue,
-    private readonly deps: { designs: AxleDesigns; vehicles: Vehicles; configurations: Configurations; proposals: Proposals; programmes: Programmes },
+    private readonly deps: { designs: AxleDesigns; vehicles: Vehicles; configurations: Configurations; proposals: Proposals },
     private readonly o: StudyOptions,
   ) {}
 
@@ -130,7 +115,21 @@ export class Studies {
         [teamId, spec.kind, label, request, target, spec, spec.seed, plan.chunkCount, plan.totalSamples, userId],
       );
       const studyId = ins.rows[0]!.id;
-      const jobs = chunkJobs(studyId, teamId, Array.from({ length: plan.chunkCount }, (_, i) => i), this.o.chunkExpireSeconds);
+      const jobs = [];
+      for (let i = 0; i < plan.chunkCount; i++) {
+        const data: QueueJobData = { kind: 'study-chunk', studyId, teamId, chunkIndex: i };
+        jobs.push({
+          id: chunkJobId(studyId, i),
+          name: QUEUES.studyChunk,
+          data,
+          // Studies take turns: chunk k of every study before chunk k+1 of any.
+          priority: -i,
+          retryLimit: 3,
+          retryDelay: 0,
+          expireInSeconds: this.o.chunkExpireSeconds,
+          deadLetter: QUEUES.lost,
+        });
+      }
       for (let i = 0; i < jobs.length; i += 1000) await boss.insert(jobs.slice(i, i + 1000), { db: bossDb(client) });
       await this.queue.notify('wake', client);
       return studyId;
@@ -192,67 +191,6 @@ export class Studies {
     });
   }
 
-  /** Attaches a completed study to a configuration of the same team (idempotent: attaching again updates the note). */
-  async attach(teamId: string, id: string, configurationId: string, userId: string, note: string): Promise<AttachedStudy> {
-    const r = await this.row(teamId, id);
-    if (r.status !== 'completed' || !r.result) throw new HttpError(409, 'study_not_completed', 'Only a completed study can be attached to a configuration');
-    const [c] = await this.db.orm.select({ id: configurations.id }).from(configurations).where(and(eq(configurations.id, configurationId), eq(configurations.teamId, teamId)));
-    if (!c) throw notFound('Configuration');
-    await this.db.orm
-      .insert(studyAttachments)
-      .values({ studyId: id, configurationId, teamId, note, attachedBy: userId })
-      .onConflictDoUpdate({ target: [studyAttachments.studyId, studyAttachments.configurationId], set: { note } });
-    const list = await this.attachedTo(teamId, configurationId);
-    return list.find((a) => a.studyId === id)!;
-  }
-
-  async detach(teamId: string, id: string, configurationId: string): Promise<void> {
-    await this.row(teamId, id);
-    const gone = await this.db.orm
-      .delete(studyAttachments)
-      .where(and(eq(studyAttachments.studyId, id), eq(studyAttachments.configurationId, configurationId), eq(studyAttachments.teamId, teamId)))
-      .returning({ studyId: studyAttachments.studyId });
-    if (!gone.length) throw notFound('Attachment');
-  }
-
-  /** The studies attached to a configuration, newest attachment first, with their key figures. */
-  async attachedTo(teamId: string, configurationId: string): Promise<AttachedStudy[]> {
-    const rows = await this.db.orm
-      .select({ a: studyAttachments, label: studies.label, kind: studies.kind, totalSamples: studies.totalSamples, result: studies.result, byName: users.displayName })
-      .from(studyAttachments)
-      .innerJoin(studies, eq(studies.id, studyAttachments.studyId))
-      .leftJoin(users, eq(users.id, studyAttachments.attachedBy))
-      .where(and(eq(studyAttachments.teamId, teamId), eq(studyAttachments.configurationId, configurationId)))
-      .orderBy(desc(studyAttachments.attachedAt))
-      .limit(100);
-    return rows.map((r) => attachedView(r));
-  }
-
-  /** The programme board's study column: per accepted team, its latest attached study (instructor of the programme only). */
-  async programmeStudies(user: { id: string }, programmeId: string): Promise<{ programmeId: string; teams: { teamId: string; teamName: string; configurationName: string | null; study: AttachedStudy | null }[] }> {
-    await this.deps.programmes.get(user, programmeId);
-    const members = await this.db.orm
-      .select({ teamId: programmeTeams.teamId, teamName: teams.name })
-      .from(programmeTeams)
-      .innerJoin(teams, eq(teams.id, programmeTeams.teamId))
-      .where(and(eq(programmeTeams.programmeId, programmeId), eq(programmeTeams.status, 'accepted')))
-      .orderBy(teams.name);
-    const out = [];
-    for (const m of members) {
-      const [r] = await this.db.orm
-        .select({ a: studyAttachments, label: studies.label, kind: studies.kind, totalSamples: studies.totalSamples, result: studies.result, byName: users.displayName, configurationName: configurations.name })
-        .from(studyAttachments)
-        .innerJoin(studies, eq(studies.id, studyAttachments.studyId))
-        .innerJoin(configurations, eq(configurations.id, studyAttachments.configurationId))
-        .leftJoin(users, eq(users.id, studyAttachments.attachedBy))
-        .where(and(eq(studyAttachments.teamId, m.teamId), eq(configurations.archived, false)))
-        .orderBy(desc(studyAttachments.attachedAt))
-        .limit(1);
-      out.push({ teamId: m.teamId, teamName: m.teamName, configurationName: r?.configurationName ?? null, study: r ? attachedView(r) : null });
-    }
-    return { programmeId, teams: out };
-  }
-
   private async row(teamId: string, id: string): Promise<Row & { creatorName: string | null }> {
     const [r] = await this.db.orm
       .select({ study: studies, creatorName: users.displayName })
@@ -267,7 +205,7 @@ export class Studies {
   private async resolve(teamId: string, request: StudyRequest): Promise<{ spec: StudySpec; target: Record<string, unknown>; targetName: string }> {
     const { target: wanted, trackProfile, ...settings } = request;
     const seed = request.seed ?? randomInt(0, 0x7fff_ffff);
-    let docs: { axle: AxleName; corner: unknown; vehicle?: unknown; otherCorner?: unknown; trackProfile: unknown };
+    let docs: { axle: 'front' | 'rear'; corner: unknown; vehicle?: unknown; otherCorner?: unknown; trackProfile: unknown };
     let target: Record<string, unknown>;
     let targetName: string;
     if ('axleDesignId' in wanted) {
@@ -301,44 +239,12 @@ export class Studies {
   }
 }
 
-/** The queue jobs of chunks `indices` of a study (fixed ids: chunkJobId). */
-export function chunkJobs(studyId: string, teamId: string, indices: number[], expireInSeconds: number) {
-  return indices.map((i) => {
-    const data: QueueJobData = { kind: 'study-chunk', studyId, teamId, chunkIndex: i };
-    return {
-      id: chunkJobId(studyId, i),
-      name: QUEUES.studyChunk,
-      data,
-      // Studies take turns: chunk k of every study before chunk k+1 of any.
-      priority: -i,
-      retryLimit: 3,
-      retryDelay: 0,
-      expireInSeconds,
-      deadLetter: QUEUES.lost,
-    };
-  });
-}
-
 /** Cancels the chunk jobs still waiting (by their fixed ids) and tells the workers running one to stop. */
 export async function cancelStudyChunks(queue: JobQueue, studyId: string, totalChunks: number): Promise<void> {
   const boss = await queue.ready();
   const ids = Array.from({ length: totalChunks }, (_, i) => chunkJobId(studyId, i));
   for (let i = 0; i < ids.length; i += 1000) await boss.cancel(QUEUES.studyChunk, ids.slice(i, i + 1000));
   await queue.notify(`cancel:${studyId}`);
-}
-
-function attachedView(r: { a: typeof studyAttachments.$inferSelect; label: string; kind: 'tolerance' | 'sweep'; totalSamples: number; result: unknown; byName: string | null }): AttachedStudy {
-  return {
-    studyId: r.a.studyId,
-    configurationId: r.a.configurationId,
-    label: r.label,
-    kind: r.kind,
-    totalSamples: r.totalSamples,
-    note: r.a.note,
-    attachedAt: r.a.attachedAt,
-    attachedBy: r.a.attachedBy ? { id: r.a.attachedBy, displayName: r.byName ?? '' } : null,
-    keyFigures: r.result ? studyKeyFigures(r.result as StudyResult) : [],
-  };
 }
 
 function gone(r: Row): HttpError {

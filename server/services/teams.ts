@@ -3,7 +3,7 @@ import { and, asc, eq } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { configurationApprovals, configurations, memberships, teams, users } from '../db/schema.js';
 import { revokeTokens } from './api-tokens.js';
-import { DomainError, notFound } from '../../shared/errors.js';
+import { HttpError, notFound } from '../http/errors.js';
 import { permissionsOf, type Role } from '../permissions.js';
 import { recordActivity } from './activity.js';
 
@@ -21,7 +21,7 @@ export interface Member {
   roles: Role[];
 }
 
-const lastOwner = () => new DomainError('conflict', 'last_owner', 'A team needs at least one owner: make someone else an owner first');
+const lastOwner = () => new HttpError(409, 'last_owner', 'A team needs at least one owner: make someone else an owner first');
 
 export class Teams {
   constructor(private readonly orm: Orm) {}
@@ -33,7 +33,7 @@ export class Teams {
       .innerJoin(teams, eq(teams.id, memberships.teamId))
       .where(eq(memberships.userId, userId))
       .orderBy(asc(teams.name));
-    return rows;
+    return rows.map((r) => ({ ...r, roles: r.roles as Role[] }));
   }
 
   async detail(teamId: string, roles: Role[]) {
@@ -45,7 +45,7 @@ export class Teams {
   async create(userId: string, input: { name: string; slug: string }): Promise<TeamSummary> {
     return this.orm.transaction(async (tx) => {
       const [t] = await tx.insert(teams).values(input).onConflictDoNothing({ target: teams.slug }).returning();
-      if (!t) throw new DomainError('conflict', 'slug_taken', `The address "${input.slug}" is already used by another team`);
+      if (!t) throw new HttpError(409, 'slug_taken', `The address "${input.slug}" is already used by another team`);
       await tx.insert(memberships).values({ teamId: t.id, userId, roles: ['owner'] });
       return { id: t.id, name: t.name, slug: t.slug, roles: ['owner'] };
     });
@@ -64,7 +64,7 @@ export class Teams {
       .innerJoin(configurations, eq(configurations.id, configurationApprovals.configurationId))
       .where(eq(configurations.teamId, teamId))
       .limit(1);
-    if (a) throw new DomainError('conflict', 'has_approvals', 'This team has approved configurations; approved work is kept: archive its vehicles and designs instead');
+    if (a) throw new HttpError(409, 'has_approvals', 'This team has approved configurations; approved work is kept: archive its vehicles and designs instead');
     await this.orm.delete(teams).where(eq(teams.id, teamId));
   }
 
@@ -75,7 +75,7 @@ export class Teams {
       .innerJoin(users, eq(users.id, memberships.userId))
       .where(eq(memberships.teamId, teamId))
       .orderBy(asc(users.displayName));
-    return rows;
+    return rows.map((r) => ({ ...r, roles: r.roles as Role[] }));
   }
 
   /** Changes roles (roles given) or removes the member (roles null), never leaving the team without an owner. */

@@ -12,23 +12,20 @@ import { rollSteerTermDegPerG } from '../balance/link.js';
 import { balanceCore, understeerBudget } from '../balance/understeer.js';
 import { ENGINE_VERSION } from '../version.js';
 import { InputError, SolveError } from '../errors.js';
-import { evaluateCautions, SAFETY_CAUTION, type Caution } from '../cautions/cautions.js';
-import { resolveTrackProfile, type TrackProfile } from '../tracks/profiles.js';
+import { evaluateCautions, SAFETY_CAUTION, type Caution } from './cautions.js';
+import { resolveTrackProfile, type TrackProfile } from './profiles.js';
 import { readCoordinates } from './coordinates.js';
 import { solveFamily, type LimitingBound } from './optimise.js';
 import { linearFitDeviation, secantRoot } from './numeric.js';
 import { asBuiltCorner, workshopNumbers, type WorkshopNumbers } from './workshop.js';
-import { cautionRackPositions } from '../cautions/corner-cautions.js';
-import { cautionInputs, sweepRacks, type RackFit, type UnreachableRack } from '../cautions/measure.js';
+import { cautionRackPositions } from './corner-cautions.js';
+import { cautionInputs, sweepRacks, type RackFit, type UnreachableRack } from './measure.js';
 import { linked, pose, PoseCounter, trialCorner, rollSteer, steering, summary, sweep } from './link.js';
-import { posedPoints, type SweepRow } from '../kinematics/index.js';
+import type { SweepRow } from '../kinematics/index.js';
 import { RandomRoadYawCost, type BumpCost } from '../ride/cost.js';
-import { DEG_PER_RAD } from '../angles.js';
-import { rollSteerWords } from '../balance/roll-steer-words.js';
-import type { AxleName } from '../schema/axle.js';
 
-export type { RackFit, UnreachableRack } from '../cautions/measure.js';
-export { DEFAULT_CORNERING_COEFFICIENT_PER_DEG, DEFAULT_REFERENCE_ROLL_DEG } from '../cautions/measure.js';
+export type { RackFit, UnreachableRack } from './measure.js';
+export { DEFAULT_CORNERING_COEFFICIENT_PER_DEG, DEFAULT_REFERENCE_ROLL_DEG } from './measure.js';
 
 export type Progress = (fraction: number, message: string) => void;
 
@@ -68,7 +65,7 @@ export interface SolveResult {
   engineVersion: string;
   feasible: boolean;
   reason: string | null;
-  axle: AxleName;
+  axle: 'front' | 'rear';
   target: {
     kind: 'rollSteerCoefficient' | 'understeerChangeDegPerG' | 'zeroBumpSteer' | 'rollAndComplianceSteerDegPerG';
     rollSteerCoefficient: number;
@@ -140,6 +137,12 @@ export interface SideEffects {
   /** Largest angle the tie rod turns through at each ball joint over travel and rack, relative to its design direction, deg. */
   ballJointArticulationDeg: { inner: { before: number; after: number }; outer: { before: number; after: number } };
 }
+
+const label = (axle: 'front' | 'rear', eps: number): string => {
+  if (Math.abs(eps) < 5e-4) return 'no roll steer';
+  const under = axle === 'front' ? eps > 0 : eps < 0;
+  return under ? 'roll understeer' : 'roll oversteer';
+};
 
 /** The solve of one intent. Throws SolveError where the verification cannot reach a pose. */
 export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult {
@@ -468,17 +471,17 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
       rollSteerCoefficient: epsTarget,
       understeerChangeDegPerG: targetDK ?? uChangeEps(epsTarget),
       outsideToeInDegPerDegRoll: -epsTarget,
-      label: rollSteerWords(epsTarget, intent.axle),
+      label: label(intent.axle, epsTarget),
     },
     trackProfile: profile,
-    current: { rollSteerCoefficient: epsCurrent, label: rollSteerWords(epsCurrent, intent.axle), objectiveRmsDeg: currentObjective },
+    current: { rollSteerCoefficient: epsCurrent, label: label(intent.axle, epsCurrent), objectiveRmsDeg: currentObjective },
     geometry: { tieRodInner: pts[inner]!, tieRodOuter: pts[outer]!, innerPoint: inner, outerPoint: outer },
     coordinates,
     corner: proposed,
     achieved: {
       verified: true,
       rollSteerCoefficient: epsVerified,
-      label: rollSteerWords(epsVerified, intent.axle),
+      label: label(intent.axle, epsVerified),
       outsideToeInDegPerDegRoll: -epsVerified,
       bumpSteerDegPerM: straight.bumpSteerDegPerM,
       curvatureDegPerM2: straight.curvatureDegPerM2,
@@ -524,14 +527,14 @@ export function rackPositions(intent: Intent): number[] {
  * The axle's steer out of the turn per g in a linked vehicle (the budget's own terms): roll steer, compliance
  * steer (lateral force and aligning torque) and their sum, deg/g.
  */
-export function axleSteerOut(v: Vehicle, axle: AxleName): { rollSteerDegPerG: number; complianceSteerDegPerG: number; totalDegPerG: number } {
+export function axleSteerOut(v: Vehicle, axle: 'front' | 'rear'): { rollSteerDegPerG: number; complianceSteerDegPerG: number; totalDegPerG: number } {
   const c = understeerBudget(balanceCore(v)).axleCompliance[axle];
   const compliance = c.complianceSteer + c.alignTorqueComplianceSteer;
   return { rollSteerDegPerG: c.rollSteer, complianceSteerDegPerG: compliance, totalDegPerG: c.rollSteer + compliance };
 }
 
 /** A vehicle with `axle`'s roll steer coefficient set to ε (what the balance link's override does). */
-function withRollSteer(v: Vehicle, axle: AxleName, eps: number): Vehicle {
+function withRollSteer(v: Vehicle, axle: 'front' | 'rear', eps: number): Vehicle {
   return { ...v, [axle]: { ...v[axle], rollSteerCoefficient: eps } };
 }
 
@@ -559,7 +562,7 @@ function linkedRollSteer(counter: PoseCounter, intent: Intent, corner: Corner, r
  * model's roll-steer term with each corner linked in (`linkVehicle` +
  * `rollSteerTermDegPerG`, the path of `computeBalance`).
  */
-export function understeerChange(vehicle: Vehicle, axle: AxleName, baseline: Corner, proposed: Corner): number {
+export function understeerChange(vehicle: Vehicle, axle: 'front' | 'rear', baseline: Corner, proposed: Corner): number {
   const k = (c: Corner) => rollSteerTermDegPerG(linked(new PoseCounter(), vehicle, axle, c).vehicle);
   return k(proposed) - k(baseline);
 }
@@ -645,15 +648,17 @@ function rollCentreHeight(counter: PoseCounter, c: Corner): number | null {
 
 /** Largest angle of the tie rod from its design direction at each ball joint, over the travel ends and rack positions, deg. */
 function articulation(counter: PoseCounter, c: Corner, racks: number[], travel: { from: number; to: number }): { inner: number; outer: number } {
-  const innerKey = innerName(c);
-  const outerKey = outerName(c);
   const p = c.points as Record<string, Vec3>;
-  const inner = p[innerKey]!;
-  const outer = p[outerKey]!;
+  const inner = p[innerName(c)]!;
+  const outer = p[outerName(c)]!;
+  const wc = p['wheelCentre']!;
+  const st = c.steering;
+  const axis: Vec3 = st?.kind === 'rack' ? st.rackAxis : [0, 1, 0];
+  const an = Math.hypot(...axis);
   const d0: Vec3 = [outer[0] - inner[0], outer[1] - inner[1], outer[2] - inner[2]];
   const angle = (a: Vec3, b: Vec3) => {
     const cos = (a[0] * b[0] + a[1] * b[1] + a[2] * b[2]) / (Math.hypot(...a) * Math.hypot(...b));
-    return Math.acos(Math.min(1, Math.max(-1, cos))) * DEG_PER_RAD;
+    return Math.acos(Math.min(1, Math.max(-1, cos))) * (180 / Math.PI);
   };
   let maxIn = 0;
   let maxOut = 0;
@@ -667,9 +672,14 @@ function articulation(counter: PoseCounter, c: Corner, racks: number[], travel: 
         throw e;
       }
       const R = ps.state.R;
-      const at = posedPoints(c, ps.state);
-      const o = at[outerKey]!;
-      const i = at[innerKey]!;
+      const l: Vec3 = [outer[0] - wc[0], outer[1] - wc[1], outer[2] - wc[2]];
+      const o: Vec3 = [
+        ps.state.c[0] + R[0]! * l[0] + R[1]! * l[1] + R[2]! * l[2],
+        ps.state.c[1] + R[3]! * l[0] + R[4]! * l[1] + R[5]! * l[2],
+        ps.state.c[2] + R[6]! * l[0] + R[7]! * l[1] + R[8]! * l[2],
+      ];
+      // Arm steering moves the inner point on an arc; the rack's straight line is close enough for the joint angle at the stroke used here.
+      const i: Vec3 = st?.kind === 'rack' ? [inner[0] + (r * axis[0]) / an, inner[1] + (r * axis[1]) / an, inner[2] + (r * axis[2]) / an] : inner;
       const d: Vec3 = [o[0] - i[0], o[1] - i[1], o[2] - i[2]];
       maxIn = Math.max(maxIn, angle(d, d0));
       // In the upright's frame: Rᵀ·d against the design direction.

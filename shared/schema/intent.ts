@@ -8,17 +8,16 @@ import * as z from 'zod';
 import { cornerDocumentSchema, type Corner } from './corner.js';
 import { armStrokeMm, innerName, MOVABLE_COORDINATE_PATTERN } from './steering-link.js';
 import { upgradeVehicleDocument, vehicleSchema } from './vehicle.js';
-import { TRACK_PROFILE_IDS, trackProfiles } from '../tracks/profiles.js';
+import { TRACK_PROFILE_IDS, trackProfiles } from '../intent/profiles.js';
 import { ROAD_CLASSES } from '../ride/road.js';
-import { CAUTION_RULES } from '../cautions/cautions.js';
+import { CAUTION_RULES } from '../intent/cautions.js';
 import { CORNER_RANGES, INTENT_RANGES, type InputRange } from './ranges.js';
 import { inRange } from './ranged.js';
-import { AXLE_NAMES } from './axle.js';
 
 // The steering-link helpers and the movable-coordinate pattern live in a
 // zod-free module (the browser's kinematics worker uses them without the
 // schema); re-exported here for the intent code.
-export { innerName, outerName, steeringStrokeMm, MOVABLE_COORDINATE_PATTERN } from './steering-link.js';
+export { innerName, outerName, steeringStrokeMm, MOVABLE_COORDINATE_PATTERN, type MovableCoordinate } from './steering-link.js';
 
 export const INTENT_FORMAT_VERSION = 1 as const;
 /** Largest number of travel points per sweep a solve accepts (it runs dozens of sweeps). */
@@ -38,7 +37,7 @@ export const intentTargetSchema = z.union([
   /** Roll steer plus compliance steer of the axle (deg/g, positive out of the turn), compliance from the corner's bushings or the vehicle. */
   z.strictObject({ rollAndComplianceSteerDegPerG: finite('target.rollAndComplianceSteerDegPerG').min(-20).max(20) }),
 ], { error: 'target must be { rollSteerCoefficient }, { understeerChangeDegPerG }, { zeroBumpSteer: true } or { rollAndComplianceSteerDegPerG }' });
-type IntentTarget = z.infer<typeof intentTargetSchema>;
+export type IntentTarget = z.infer<typeof intentTargetSchema>;
 
 export const trackProfileChoiceSchema = z.union([
   z.enum(TRACK_PROFILE_IDS),
@@ -99,7 +98,7 @@ export const intentSchema = z
     formatVersion: z.literal(INTENT_FORMAT_VERSION).optional(),
     name: z.string().max(200).optional(),
     corner: cornerDocumentSchema,
-    axle: z.enum(AXLE_NAMES, { error: 'axle must be "front" or "rear"' }),
+    axle: z.enum(['front', 'rear'], { error: 'axle must be "front" or "rear"' }),
     target: intentTargetSchema,
     movable: z.array(coordinateSchema).min(1, 'movable must name at least one coordinate').max(5),
     bounds: z.record(z.string(), z.tuple([ranged('min', CORNER_RANGES.coordinateMm), ranged('max', CORNER_RANGES.coordinateMm)])),

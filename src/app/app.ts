@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, inject, viewChild } from '@angular/core';
+import { Component, DestroyRef, ElementRef, inject, viewChild } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import {
@@ -15,8 +15,7 @@ import { LoadingIndicator } from './core/layout/loading-indicator';
 import { TopBar } from './core/layout/top-bar';
 
 @Component({
-  selector: 'rw-root',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-root',
   imports: [RouterOutlet, TopBar, MatButtonModule],
   templateUrl: './app.html',
   styleUrl: './app.scss',

@@ -164,9 +164,9 @@ describe('programmes, API tokens and the activity log', () => {
 
     // The instructor's board lists both teams, with the safety caution.
     await iris.getByRole('button', { name: 'Refresh board' }).click();
-    const groups = iris.locator('rw-board-table tbody.config');
+    const groups = iris.locator('app-board-table tbody.config');
     await groups.nth(1).waitFor({ timeout: 60_000 });
-    const names = (await iris.locator('rw-board-table .config-name').allInnerTexts()).map((n) => n.replace(/\s+/g, ' ').trim());
+    const names = (await iris.locator('app-board-table .config-name').allInnerTexts()).map((n) => n.replace(/\s+/g, ' ').trim());
     // Sorted by team, then configuration; the demo teams may hold other configurations too.
     expect(names).toContain(`B3 baseline ${BRACKENFIELD}`);
     expect(names).toContain(`Ember, toe link +6 mm ${TALLOWMERE}`);
@@ -182,7 +182,7 @@ describe('programmes, API tokens and the activity log', () => {
     }
     await iris.getByRole('note').filter({ hasText: 'Design estimates from an idealised rigid-link model' }).waitFor();
     // Nothing on the board edits a team's data.
-    expect(await iris.locator('rw-board-table').locator('button, input, select, textarea').count()).toBe(0);
+    expect(await iris.locator('app-board-table').locator('button, input, select, textarea').count()).toBe(0);
     await iris.locator('table.teams').getByText('Accepted').nth(1).waitFor();
     expect(await seriousA11yViolations(iris)).toEqual([]);
     await saveScreenshot(iris, 'programme-board');
@@ -206,16 +206,16 @@ describe('programmes, API tokens and the activity log', () => {
     await snapshotLink.click();
     await iris.waitForURL((url) => /^\/programmes\/[^/]+\/snapshots\/[^/]+$/.test(url.pathname));
     await iris.getByRole('heading', { name: 'Deadline week 6' }).waitFor();
-    await iris.locator('rw-board-table tbody.config').nth(1).waitFor();
+    await iris.locator('app-board-table tbody.config').nth(1).waitFor();
     expect(await seriousA11yViolations(iris)).toEqual([]);
     await saveScreenshot(iris, 'programme-snapshot');
 
     // From the board the instructor opens a configuration in its team: read only, no step,
     // revision, archive or comment controls (she holds no permission in the team).
-    await iris.locator('rw-board-table a.config-link', { hasText: 'Ember, toe link +6 mm' }).click();
+    await iris.locator('app-board-table a.config-link', { hasText: 'Ember, toe link +6 mm' }).click();
     await iris.getByRole('heading', { level: 1, name: 'Ember, toe link +6 mm' }).waitFor();
     // The page and its results have loaded (every loading bar gone).
-    await expect.poll(() => iris.locator('mat-progress-bar[mode="indeterminate"], .rw-busy-bar').count(), { timeout: 60_000 }).toBe(0);
+    await iris.waitForFunction(() => !document.querySelector('mat-progress-bar[mode="indeterminate"], .rw-busy-bar'), null, { timeout: 60_000 });
     expect(await iris.locator('button[data-action], textarea, .rw-comment-on').count()).toBe(0);
     for (const name of ['Make a new revision', 'Archive configuration', 'Comment on the budget']) {
       expect(await iris.getByRole('button', { name }).count(), name).toBe(0);

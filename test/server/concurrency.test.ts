@@ -172,14 +172,10 @@ describe('an approval racing an edit', () => {
   it('whichever lands first, the approval is of the revision it saw, the edit makes a draft, and the status history is one unbroken chain', async () => {
     const outcomes = new Set<string>();
     // The approval computes results before it writes; the edit starts a little later each round so both orders happen.
-    // (The sign-off gate now measures both axles' cautions first, so the longest delay is 2 s.)
-    for (const delayMs of [0, 40, 120, 250, 500, 1000, 2000]) {
+    for (const delayMs of [0, 40, 120, 250, 500, 1000]) {
       const c = await inReview(`Race ${delayMs}`);
-      // A written reason for each Critical caution, gathered before the race (the gate itself: review-gates.test.ts).
-      const critical = (await reviewer.get(`${c.url}/gates`).expect(200)).body.critical as { axle: string; code: string }[];
-      const acknowledgements = critical.map((x) => ({ axle: x.axle, code: x.code, reason: 'accepted for the race test' }));
       const [approve, revise] = await Promise.all([
-        reviewer.post(`${c.url}/approve`).send({ revision: c.revision, acknowledgements }),
+        reviewer.post(`${c.url}/approve`).send({ revision: c.revision }),
         new Promise((r) => setTimeout(r, delayMs)).then(() => eli.put(c.url).send({ baseRevision: c.revision, trackProfile: 'bumpy-circuit', message: 'softer track' })),
       ]);
       expect([200, 409], JSON.stringify(approve.body)).toContain(approve.status);

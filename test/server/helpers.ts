@@ -1,7 +1,7 @@
 /** Shared set-up for API tests: a migrated fresh database, an app on it, and signed-in agents. */
 import request from 'supertest';
 import { expect } from 'vitest';
-import { migratedDatabaseUrl, seededDatabaseUrl } from '../support/db.js';
+import { freshDatabaseUrl } from '../support/db.js';
 import { loadConfig, type Config } from '../../server/config.js';
 import { createDatabase, type Database } from '../../server/db/client.js';
 import { migrateDatabase } from '../../server/db/migrate.js';
@@ -22,14 +22,9 @@ export function testConfig(databaseUrl: string, overrides: Partial<Config> = {})
   return { ...loadConfig({ NODE_ENV: 'test' }), databaseUrl, staticDir: '/nonexistent-rollwise-static', ...overrides };
 }
 
-/**
- * A fresh database and an app on it: a copy of the run's migrated template, or with `seed` of
- * its seeded one (test/support/pg-global-setup.ts). `migrateDatabase` and, with `seed`,
- * `seedDemo` still run, as at every server start: on the copy they find nothing to do, and on a
- * `databaseUrl` you pass (say an empty `freshDatabaseUrl()`) they do it all.
- */
+/** A fresh database (migrated, optionally seeded) and an app on it. */
 export async function startTestApp(o: { seed?: boolean; databaseUrl?: string; config?: Partial<Config> } = {}): Promise<TestApp> {
-  const databaseUrl = o.databaseUrl ?? (o.seed ? seededDatabaseUrl() : migratedDatabaseUrl());
+  const databaseUrl = o.databaseUrl ?? freshDatabaseUrl();
   const db = createDatabase(databaseUrl);
   await migrateDatabase(db);
   if (o.seed) await seedDemo(db.orm, { bcryptRounds: 4 });

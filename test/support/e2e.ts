@@ -1,5 +1,5 @@
 /**
- * Browser-test harness: the real server (fresh copy of the migrated template database, seeded)
+ * Browser-test harness: the real server (fresh database, migrated, seeded)
  * serving the production build, and Debian's Chromium through
  * playwright-core. Every page fails its test on a request that leaves
  * 127.0.0.1, and records console errors and uncaught page errors.
@@ -11,7 +11,7 @@ import { tmpdir } from 'node:os';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { AxeBuilder } from '@axe-core/playwright';
 import { afterAll, beforeAll } from 'vitest';
-import { migratedDatabaseUrl } from './db.js';
+import { freshDatabaseUrl } from './db.js';
 import { freePort } from '../../server/tools/pg.js';
 
 const root = resolve(import.meta.dirname, '..', '..');
@@ -28,7 +28,7 @@ export async function startE2eApp(): Promise<E2eApp> {
   if (!existsSync(join(staticDir, 'index.html'))) {
     throw new Error(`No built app in ${staticDir}: run \`npx ng build\` first (npm test does).`);
   }
-  const databaseUrl = migratedDatabaseUrl('e2e');
+  const databaseUrl = freshDatabaseUrl('e2e');
   const { startServer } = await import('../../server/main.js');
   // A known port up front, so links in mail (built from publicUrl) point at this server.
   const port = await freePort();
@@ -163,35 +163,4 @@ export async function seriousA11yViolations(page: Page): Promise<string[]> {
   return result.violations
     .filter((v) => v.impact === 'serious' || v.impact === 'critical')
     .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
-}
-
-/**
- * A new axle design, a copy of a demo design's corner, made through the API as the person
- * signed in on `page` (its context's cookies): a test that edits and saves works on its own
- * design, so no test depends on what another one saved, and any test runs alone or in any
- * order. Returns the design's path in the app (`/teams/…/vehicles/…/axle-designs/…`).
- */
-export async function copyOfDemoDesign(
-  page: Page,
-  baseUrl: string,
-  from: { team: string; vehicle: string; design: string },
-  name: string,
-): Promise<string> {
-  const api = async <T>(path: string, body?: unknown): Promise<T> => {
-    const headers = { 'X-Rollwise-Request': '1' };
-    const r = body === undefined ? await page.request.get(baseUrl + path, { headers }) : await page.request.post(baseUrl + path, { headers, data: body });
-    if (!r.ok()) throw new Error(`${body === undefined ? 'GET' : 'POST'} ${path}: ${r.status()} ${await r.text()}`);
-    return (await r.json()) as T;
-  };
-  const byName = <T extends { name: string }>(list: T[], n: string, what: string): T => {
-    const found = list.find((x) => x.name === n);
-    if (!found) throw new Error(`no ${what} "${n}" among ${list.map((x) => x.name).join(', ')}`);
-    return found;
-  };
-  const team = byName(await api<{ id: string; name: string }[]>('/api/teams'), from.team, 'team');
-  const vehicle = byName(await api<{ id: string; name: string }[]>(`/api/teams/${team.id}/vehicles`), from.vehicle, 'vehicle');
-  const designs = await api<{ id: string; name: string; axle: string }[]>(`/api/teams/${team.id}/vehicles/${vehicle.id}/axle-designs`);
-  const source = await api<{ axle: string; corner: unknown }>(`/api/teams/${team.id}/axle-designs/${byName(designs, from.design, 'axle design').id}`);
-  const created = await api<{ id: string }>(`/api/teams/${team.id}/vehicles/${vehicle.id}/axle-designs`, { axle: source.axle, name, corner: source.corner });
-  return `/teams/${team.id}/vehicles/${vehicle.id}/axle-designs/${created.id}`;
 }

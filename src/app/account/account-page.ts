@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, effect, inject, signal } from '@angular/core';
+import { Component, effect, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -13,8 +13,7 @@ import { Notifier } from '../core/layout/notifier';
 
 /** The signed-in user's name, display units, password and personal API tokens. */
 @Component({
-  selector: 'rw-account-page',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-account-page',
   imports: [
     ReactiveFormsModule,
     MatFormFieldModule,

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { Component, inject, signal } from '@angular/core';
 import {
   FormGroupDirective,
   NonNullableFormBuilder,
@@ -19,8 +19,7 @@ import { NewPasswordFields } from '../core/forms/new-password-fields';
 
 /** Current password, new password twice; success ends the user's other sessions. */
 @Component({
-  selector: 'rw-change-password-form',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-change-password-form',
   imports: [NewPasswordFields, ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule],
   templateUrl: './change-password-form.html',
 })

@@ -1,5 +1,6 @@
 import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
+import { ActivatedRoute, convertToParamMap } from '@angular/router';
 import { fakeNotifier, FakeNotifier, shellTestProviders } from '../../testing/shell-testing';
 import { ForgotPasswordPage } from './forgot-password-page';
 
@@ -13,12 +14,11 @@ describe('ForgotPasswordPage', () => {
       imports: [ForgotPasswordPage],
       providers: [
         ...shellTestProviders(notifier),
+        { provide: ActivatedRoute, useValue: { snapshot: { queryParamMap: convertToParamMap(query) } } },
       ],
     }).compileComponents();
     backend = TestBed.inject(HttpTestingController);
     const fixture = TestBed.createComponent(ForgotPasswordPage);
-    // The router binds `?email=` to the input of that name.
-    if (query['email'] !== undefined) fixture.componentRef.setInput('email', query['email']);
     await fixture.whenStable();
     const root = fixture.nativeElement as HTMLElement;
     const email = () => root.querySelector<HTMLInputElement>('input[formcontrolname="email"]')!;

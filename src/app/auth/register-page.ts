@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -15,8 +15,7 @@ import { apiProblem } from '../core/http/api-error';
 import { NewPasswordFields } from '../core/forms/new-password-fields';
 
 @Component({
-  selector: 'rw-register-page',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-register-page',
   imports: [NewPasswordFields, ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule, RouterLink],
   templateUrl: './register-page.html',
 })

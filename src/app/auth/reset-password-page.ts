@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
+import { Component, inject, input, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -20,8 +20,7 @@ import { AccountLinksApi } from './account-links-api';
  * signs in afresh with the new password.
  */
 @Component({
-  selector: 'rw-reset-password-page',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-reset-password-page',
   imports: [NewPasswordFields, ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule, RouterLink],
   templateUrl: './reset-password-page.html',
 })

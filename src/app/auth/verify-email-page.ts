@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, effect, inject, input, signal, untracked } from '@angular/core';
+import { Component, effect, inject, input, signal, untracked } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { RouterLink } from '@angular/router';
 import { AuthService } from '../core/auth/auth-service';
@@ -16,8 +16,7 @@ type Outcome =
  * replaced from here by a signed-in user.
  */
 @Component({
-  selector: 'rw-verify-email-page',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-verify-email-page',
   imports: [MatButtonModule, RouterLink],
   templateUrl: './verify-email-page.html',
 })

@@ -66,7 +66,14 @@ export interface TeamInvitation {
 }
 
 /** `GET /api/teams/:teamId/vehicles` rows. */
-export type { VehicleSummary } from '../../../shared/api/documents';
+export interface VehicleSummary {
+  readonly id: string;
+  readonly name: string;
+  readonly archived: boolean;
+  readonly revision: number;
+  readonly updatedAt: string;
+  readonly updatedByName: string | null;
+}
 
 /** The one error shape of the API. */
 export interface ApiErrorBody {

@@ -1,9 +1,10 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
-import { rxResource } from '@angular/core/rxjs-interop';
+import { Component, computed, inject } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { loadState } from '../core/http/load-state';
+import { BehaviorSubject, switchMap } from 'rxjs';
+import { LoadState, toLoadState } from '../core/http/load-state';
 import { AuthService } from '../core/auth/auth-service';
 import { CapturedMail, DevMailApi } from './dev-mail-api';
 import { MailSegment, splitMailLinks } from './mail-links';
@@ -19,8 +20,7 @@ interface ShownMail extends CapturedMail {
  * confirmation or invitation link reaches anyone but its addressee.
  */
 @Component({
-  selector: 'rw-dev-mail-page',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-dev-mail-page',
   imports: [DatePipe, MatButtonModule, MatIconModule],
   templateUrl: './dev-mail-page.html',
   styleUrl: './dev-mail-page.scss',
@@ -29,8 +29,11 @@ export class DevMailPage {
   private readonly api = inject(DevMailApi);
   protected readonly auth = inject(AuthService);
 
-  private readonly inbox = rxResource({ stream: () => this.api.list() });
-  protected readonly state = loadState(this.inbox);
+  private readonly reload$ = new BehaviorSubject<void>(undefined);
+  protected readonly state = toSignal(
+    this.reload$.pipe(switchMap(() => toLoadState(this.api.list()))),
+    { initialValue: { status: 'loading' } as LoadState<CapturedMail[]> },
+  );
 
   protected readonly mails = computed<readonly ShownMail[]>(() => {
     const state = this.state();
@@ -40,8 +43,6 @@ export class DevMailPage {
   });
 
   protected refresh(): void {
-    // The list goes while the inbox is read again: what shows afterwards is the inbox now.
-    this.inbox.set(undefined);
-    this.inbox.reload();
+    this.reload$.next();
   }
 }

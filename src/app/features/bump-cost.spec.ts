@@ -1,7 +1,7 @@
 import { TestBed } from '@angular/core/testing';
 import { exampleCorners } from '../../../shared/kinematics/examples';
 import { exampleVehicles } from '../../../shared/balance/examples';
-import { resolveTrackProfile } from '../../../shared/tracks/profiles';
+import { resolveTrackProfile } from '../../../shared/intent/profiles';
 import { bumpCost } from '../../../shared/ride/cost';
 import { BumpCostView } from './bump-cost';
 

@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -41,8 +41,7 @@ const LINK_TITLES: Readonly<Record<string, string>> = {
  * whether the address has an account. Expired, used and tampered links say so.
  */
 @Component({
-  selector: 'rw-invitation-page',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-invitation-page',
   imports: [NewPasswordFields, 
     DatePipe,
     ReactiveFormsModule,

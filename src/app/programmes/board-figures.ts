@@ -1,8 +1,7 @@
-import { trackProfiles, type TrackProfileId } from '../../../shared/tracks/profiles';
+import { trackProfiles, type TrackProfileId } from '../../../shared/intent/profiles';
 import type { ConfigurationStatus } from '../features/configurations/configurations-api';
 import { STATUS_WORDS } from '../features/configurations/review-words';
 import type { BoardRow, KeyFigures } from './programmes-api';
-import { formatNum } from '../core/format/num';
 
 /** The key figures of the board, in the order shown, with units and shown digits. */
 export const BOARD_FIGURES: readonly { key: keyof KeyFigures; label: string; unit: string; digits: number }[] = [
@@ -26,7 +25,7 @@ export function profileLabel(id: string): string {
 /** A figure to `digits` decimals with a real minus sign; a dash when missing. */
 export function formatFigure(value: number | null | undefined, digits: number): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return '—';
-  const text = formatNum(Math.abs(value), { decimals: digits });
+  const text = Math.abs(value).toFixed(digits);
   return (value < 0 && Number(text) !== 0 ? '−' : '') + text;
 }
 

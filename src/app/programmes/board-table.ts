@@ -30,7 +30,7 @@ interface ShownRow {
  * an instructor holds none in the team).
  */
 @Component({
-  selector: 'rw-board-table',
+  selector: 'app-board-table',
   imports: [RouterLink],
   templateUrl: './board-table.html',
   styleUrl: './board-table.scss',
@@ -54,7 +54,7 @@ export class BoardTable {
     })),
   );
 
-  protected readonly figure = formatFigure;
+  protected readonly fmt = formatFigure;
   protected readonly change = formatChange;
   protected readonly statusWords = statusWords;
   protected readonly profileLabel = profileLabel;

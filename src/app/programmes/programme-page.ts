@@ -1,5 +1,4 @@
-import { ProgrammeStudies } from '../features/studies/programme-studies';
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal, WritableSignal } from '@angular/core';
+import { Component, computed, inject, input, signal, WritableSignal } from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -37,8 +36,7 @@ const TEAM_STATUS_WORDS: Readonly<Record<ProgrammeTeamStatus, string>> = {
  * instructor only reads the teams: nothing here changes a team's data.
  */
 @Component({
-  selector: 'rw-programme-page',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-programme-page',
   imports: [
     ReactiveFormsModule,
     RouterLink,
@@ -49,7 +47,6 @@ const TEAM_STATUS_WORDS: Readonly<Record<ProgrammeTeamStatus, string>> = {
     MatProgressSpinnerModule,
     SafetyCaution,
     BoardTable,
-    ProgrammeStudies,
   ],
   templateUrl: './programme-page.html',
   styleUrl: './programme-page.scss',

@@ -1,7 +1,7 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
-import type { TrackProfileId } from '../../../shared/tracks/profiles';
+import type { TrackProfileId } from '../../../shared/intent/profiles';
 import { SHOW_ERRORS_INLINE } from '../core/http/api-error';
 
 /** For requests made from a form that shows the error beside itself. */

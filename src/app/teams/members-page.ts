@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { Component, computed, inject, input, signal } from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import {
   AbstractControl,
@@ -37,8 +37,7 @@ function atLeastOneRole(control: AbstractControl): ValidationErrors | null {
  * they accept), see open invitations, change members' roles, remove them.
  */
 @Component({
-  selector: 'rw-members-page',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-members-page',
   imports: [
     DatePipe,
     ReactiveFormsModule,

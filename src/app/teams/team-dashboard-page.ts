@@ -1,5 +1,5 @@
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
-import { rxResource } from '@angular/core/rxjs-interop';
+import { Component, computed, inject, input, signal } from '@angular/core';
+import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -7,8 +7,9 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { RouterLink } from '@angular/router';
+import { combineLatest, switchMap } from 'rxjs';
 import { ROLE_DESCRIPTIONS, VehicleSummary } from '../core/api-types';
-import { loadState } from '../core/http/load-state';
+import { LoadState, toLoadState } from '../core/http/load-state';
 import { confirmAction } from '../core/layout/confirm-dialog';
 import { TeamAccess } from '../core/teams/team-access';
 import { VehicleNameDialog, VehicleNameDialogData } from './vehicle-name-dialog';
@@ -18,8 +19,7 @@ import { Notifier } from '../core/layout/notifier';
 
 /** `/teams/:teamId`: the team's vehicles, with the commands the caller's roles allow. */
 @Component({
-  selector: 'rw-team-dashboard-page',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-team-dashboard-page',
   imports: [
     FormsModule,
     MatButtonModule,
@@ -43,17 +43,23 @@ export class TeamDashboardPage {
 
   protected readonly canManage = this.access.permission('vehicle:manage');
   protected readonly showArchived = signal(false);
-  private readonly vehicles = rxResource({
-    params: () => ({ teamId: this.teamId(), archived: this.showArchived() }),
-    stream: ({ params: p }) => this.api.list(p.teamId, p.archived),
-  });
-  protected readonly state = loadState(this.vehicles);
+  private readonly reloads = signal(0);
+  protected readonly state = signal<LoadState<VehicleSummary[]>>({ status: 'loading' });
   protected readonly roleWords = computed(() =>
     (this.access.team()?.roles ?? []).map((role) => ({ role, description: ROLE_DESCRIPTIONS[role] })),
   );
 
+  constructor() {
+    combineLatest([toObservable(this.teamId), toObservable(this.showArchived), toObservable(this.reloads)])
+      .pipe(
+        switchMap(([teamId, archived]) => toLoadState(this.api.list(teamId, archived))),
+        takeUntilDestroyed(),
+      )
+      .subscribe((state) => this.state.set(state));
+  }
+
   protected reload(): void {
-    this.vehicles.reload();
+    this.reloads.update((n) => n + 1);
   }
 
   protected createVehicle(): void {

@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
+import { Component, computed, input, output } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatTableModule } from '@angular/material/table';
@@ -12,8 +12,7 @@ import { VehicleSummary } from '../core/api-types';
  * archive controls exist only when `canManage` (vehicle:manage) is true.
  */
 @Component({
-  selector: 'rw-vehicle-table',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-vehicle-table',
   imports: [MatTableModule, MatButtonModule, MatIconModule, MatTooltipModule, RouterLink, DatePipe],
   templateUrl: './vehicle-table.html',
   styleUrl: './vehicle-table.scss',

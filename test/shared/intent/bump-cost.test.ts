@@ -8,10 +8,9 @@ import { describe, expect, it } from 'vitest';
 import { exampleVehicles } from '../../../shared/balance/index.js';
 import { exampleCorners, sweepCorner } from '../../../shared/kinematics/index.js';
 import { cornerSchema, type Corner } from '../../../shared/schema/corner.js';
-import { solveIntent } from '../../../shared/intent/index.js';
-import { cautionsForCorner } from '../../../shared/cautions/corner-cautions.js';
+import { cautionsForCorner, solveIntent } from '../../../shared/intent/index.js';
 import { intentSchema } from '../../../shared/schema/intent.js';
-import { resolveTrackProfile } from '../../../shared/tracks/profiles.js';
+import { resolveTrackProfile } from '../../../shared/intent/profiles.js';
 import { bumpCost, RandomRoadYawCost } from '../../../shared/ride/cost.js';
 
 const bumpSteer = (c: Corner) => sweepCorner(c, { travel: { from: -20, to: 20, step: 5 } }).fit.bumpSteerDegPerM;

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
+import { Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialog, MatDialogModule } from '@angular/material/dialog';
 import { Observable } from 'rxjs';
@@ -12,8 +12,7 @@ export interface ConfirmDialogData {
 
 /** A yes/no question before something that cannot be undone from this screen. */
 @Component({
-  selector: 'rw-confirm-dialog',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-confirm-dialog',
   imports: [MatDialogModule, MatButtonModule],
   template: `
     <h2 mat-dialog-title>{{ data.title }}</h2>

@@ -1,10 +1,9 @@
-import { ChangeDetectionStrategy, Component } from '@angular/core';
+import { Component } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { RouterLink } from '@angular/router';
 
 @Component({
-  selector: 'rw-not-found-page',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-not-found-page',
   imports: [RouterLink, MatButtonModule],
   template: `
     <section class="rw-page-narrow">

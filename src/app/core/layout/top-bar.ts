@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject } from '@angular/core';
+import { Component, computed, effect, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDividerModule } from '@angular/material/divider';
 import { MatIconModule } from '@angular/material/icon';
@@ -12,8 +12,7 @@ import { Notifier } from './notifier';
 
 /** Product name, team switcher, the team's sections and the user menu. */
 @Component({
-  selector: 'rw-top-bar',
-  changeDetection: ChangeDetectionStrategy.OnPush,
+  selector: 'app-top-bar',
   imports: [
     MatToolbarModule,
     MatButtonModule,

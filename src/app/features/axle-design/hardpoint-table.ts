@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, effect, ElementRef, inject, input, output, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input, output, signal } from '@angular/core';
 import type { Corner, Vec3 } from '../../../../shared/schema/corner';
 import { formatNumber } from '../../charts/chart-types';
 import { hardpointRows, HardpointRow, linkRows } from './hardpoint-model';
@@ -30,11 +30,6 @@ export class HardpointTable {
   /** Keys to mark as changed since the last saved revision. */
   readonly changed = input<readonly string[]>([]);
 
-  /** Key of the selected row (e.g. `points.upperOuter`), shared with the 3D view. */
-  readonly selectedKey = input<string | null>(null);
-  /** A row was selected (its point name clicked or one of its cells focused). */
-  readonly rowSelected = output<string>();
-
   readonly pointEdited = output<PointEdit>();
   /** Several points at once (a pasted block); applied as one undo step. */
   readonly pointsPasted = output<ReadonlyMap<string, Vec3>>();
@@ -55,22 +50,6 @@ export class HardpointTable {
   /** Cells holding text that is not a number: `key:axis` → message. */
   protected readonly invalid = signal<ReadonlyMap<string, string>>(new Map());
   protected readonly pasteMessage = signal<string | null>(null);
-
-  private readonly element = inject<ElementRef<HTMLElement>>(ElementRef);
-
-  constructor() {
-    // A point picked elsewhere (the 3D view) brings its row into view.
-    effect(() => {
-      const key = this.selectedKey();
-      if (!key) return;
-      const row = this.element.nativeElement.querySelector(`tr[data-key="${key}"]`);
-      if (row && 'scrollIntoView' in row) (row as HTMLElement).scrollIntoView?.({ block: 'nearest' });
-    });
-  }
-
-  protected select(key: string): void {
-    if (key !== this.selectedKey()) this.rowSelected.emit(key);
-  }
 
   protected format(v: number): string {
     return formatNumber(v, 8);

@@ -1,7 +1,7 @@
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter, withComponentInputBinding } from '@angular/router';
+import { provideRouter } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { computeBalance } from '../../../../shared/balance/api';
 import { exampleVehicles } from '../../../../shared/balance/examples';
@@ -23,7 +23,7 @@ describe('BalancePage', () => {
 
   beforeEach(async () => {
     await TestBed.configureTestingModule({
-      providers: [provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId/balance', component: BalancePage }], withComponentInputBinding()), provideHttpClient(), provideHttpClientTesting()],
+      providers: [provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId/balance', component: BalancePage }]), provideHttpClient(), provideHttpClientTesting()],
     }).compileComponents();
     backend = TestBed.inject(HttpTestingController);
   });

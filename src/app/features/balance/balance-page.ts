@@ -1,5 +1,5 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
-import { RouterLink } from '@angular/router';
+import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal } from '@angular/core';
+import { ActivatedRoute, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
@@ -15,9 +15,8 @@ import { BarChart } from '../../charts/bar-chart';
 import { LineChart } from '../../charts/line-chart';
 import { BarGroup, LineSeries } from '../../charts/chart-types';
 import { AxleDesignSummary, FeaturesApi, VehicleRecord } from '../features-api';
+import { routeParam } from '../route-params';
 import { SafetyCaution } from '../safety-caution';
-import { NumPipe } from '../../core/format/num-pipe';
-import { routeKey } from '../route-params';
 
 const BUDGET_LABELS: readonly [keyof BalanceResponse['understeerBudget'], string][] = [
   ['tyres', 'Tyres'],
@@ -47,16 +46,17 @@ interface KeyFigure {
  */
 @Component({
   selector: 'rw-balance-page',
-  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution],
+  imports: [RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution],
   templateUrl: './balance-page.html',
   styleUrl: './balance-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class BalancePage {
+export class BalancePage implements OnInit {
+  private readonly route = inject(ActivatedRoute);
   private readonly api = inject(FeaturesApi);
 
-  readonly teamId = input.required<string>();
-  readonly vehicleId = input.required<string>();
+  protected readonly teamId = routeParam(this.route, 'teamId');
+  protected readonly vehicleId = routeParam(this.route, 'vehicleId');
 
   protected readonly loadError = signal<string | null>(null);
   protected readonly vehicle = signal<VehicleRecord | null>(null);
@@ -158,21 +158,15 @@ export class BalancePage {
     })),
   );
 
-  constructor() {
-    // Loads on arrival and again when the router reuses this page for other route parameters.
-    effect(() => {
-      routeKey(this.teamId(), this.vehicleId());
-      untracked(() => {
-        void this.load();
-      });
-    });
+  ngOnInit(): void {
+    void this.load();
   }
 
   private async load(): Promise<void> {
     try {
       const [vehicle, designs] = await Promise.all([
-        firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId())),
-        firstValueFrom(this.api.axleDesigns(this.teamId(), this.vehicleId())),
+        firstValueFrom(this.api.vehicle(this.teamId, this.vehicleId)),
+        firstValueFrom(this.api.axleDesigns(this.teamId, this.vehicleId)),
       ]);
       this.vehicle.set(vehicle);
       this.designs.set(designs);
@@ -189,7 +183,7 @@ export class BalancePage {
 
   private async corner(id: string): Promise<Corner | undefined> {
     if (!id) return undefined;
-    return (await firstValueFrom(this.api.axleDesign(this.teamId(), id))).corner;
+    return (await firstValueFrom(this.api.axleDesign(this.teamId, id))).corner;
   }
 
   protected async evaluate(): Promise<void> {
@@ -227,6 +221,10 @@ export class BalancePage {
 
   protected designName(id: string): string {
     return this.designs().find((d) => d.id === id)?.name ?? 'values entered on the vehicle page';
+  }
+
+  protected fmt(v: number | null | undefined, digits = 3): string {
+    return v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
   }
 
   protected change(f: KeyFigure): string {

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal } from '@angular/core';
 import { ActivatedRoute, Router, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
@@ -9,11 +9,9 @@ import { LineSeries } from '../../charts/chart-types';
 import { AnalysisError, KinematicsClient } from '../../workers/kinematics-client';
 import type { CornerAnalysis } from '../../workers/analysis-types';
 import { AxleDesign, AxleDesignSummary, FeaturesApi } from '../features-api';
-import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
+import { routeParam } from '../route-params';
+import { rollSteerWords } from '../roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
-import { formatNum } from '../../core/format/num';
-import { NumPipe } from '../../core/format/num-pipe';
-import { routeKey } from '../route-params';
 
 interface Compared {
   readonly design: AxleDesign;
@@ -40,25 +38,23 @@ const ROLL = { from: -3, to: 3, step: 0.25 };
  */
 @Component({
   selector: 'rw-compare-page',
-  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution],
+  imports: [RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution],
   templateUrl: './compare-page.html',
   styleUrl: './compare-page.scss',
   providers: [KinematicsClient],
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class ComparePage {
+export class ComparePage implements OnInit {
   private readonly route = inject(ActivatedRoute);
   private readonly router = inject(Router);
   private readonly api = inject(FeaturesApi);
   private readonly engine = inject(KinematicsClient);
 
-  readonly teamId = input.required<string>();
-  readonly vehicleId = input.required<string>();
-  /** `?designs=a,b`: the designs compared (kept in the address so a comparison can be shared). */
-  readonly designs = input<string | undefined>(undefined);
+  protected readonly teamId = routeParam(this.route, 'teamId');
+  protected readonly vehicleId = routeParam(this.route, 'vehicleId');
   protected readonly maxCompared = MAX_COMPARED;
 
-  protected readonly designList = signal<readonly AxleDesignSummary[] | null>(null);
+  protected readonly designs = signal<readonly AxleDesignSummary[] | null>(null);
   protected readonly loadError = signal<string | null>(null);
   protected readonly chosen = signal<readonly string[]>([]);
   protected readonly running = signal(false);
@@ -115,21 +111,15 @@ export class ComparePage {
     }),
   );
 
-  constructor() {
-    // Loads on arrival and again when the router reuses this page for other route parameters.
-    effect(() => {
-      routeKey(this.teamId(), this.vehicleId());
-      const fromUrl = (this.designs() ?? '').split(',').filter(Boolean);
-      untracked(() => {
-        this.chosen.set(fromUrl.slice(0, MAX_COMPARED));
-        void this.load(fromUrl.length >= 2);
-      });
-    });
+  ngOnInit(): void {
+    const fromUrl = (this.route.snapshot.queryParamMap.get('designs') ?? '').split(',').filter(Boolean);
+    this.chosen.set(fromUrl.slice(0, MAX_COMPARED));
+    void this.load(fromUrl.length >= 2);
   }
 
   private async load(runNow: boolean): Promise<void> {
     try {
-      this.designList.set(await firstValueFrom(this.api.axleDesigns(this.teamId(), this.vehicleId())));
+      this.designs.set(await firstValueFrom(this.api.axleDesigns(this.teamId, this.vehicleId)));
       if (runNow) await this.compare();
     } catch (error) {
       this.loadError.set(apiProblem(error).message);
@@ -147,7 +137,7 @@ export class ComparePage {
     const out: Compared[] = [];
     for (const id of this.chosen()) {
       try {
-        const design = await firstValueFrom(this.api.axleDesign(this.teamId(), id));
+        const design = await firstValueFrom(this.api.axleDesign(this.teamId, id));
         const stroke = design.corner.steered && design.corner.steering?.kind === 'rack' ? design.corner.steering.rackStroke : null;
         try {
           const analysis = await this.engine.analyse({
@@ -169,11 +159,15 @@ export class ComparePage {
     this.running.set(false);
   }
 
+  protected fmt(v: number | null, digits: number): string {
+    return v === null || !Number.isFinite(v) ? '–' : v.toFixed(digits);
+  }
+
   /** True where a value differs from the first design's at the shown precision. */
   protected differs(row: FigureRow, i: number): boolean {
     const first = row.values[0];
     const v = row.values[i];
-    return i > 0 && first !== null && first !== undefined && v !== null && v !== undefined && formatNum(v, { decimals: row.digits }) !== formatNum(first, { decimals: row.digits });
+    return i > 0 && first !== null && first !== undefined && v !== null && v !== undefined && this.fmt(v, row.digits) !== this.fmt(first, row.digits);
   }
 
   protected checked(event: Event): boolean {

@@ -49,14 +49,14 @@ type ThreadsState = { kind: 'loading' } | { kind: 'error'; message: string } | {
           @if (s.threads.length === 0) {
             <p class="rw-state" role="status">No comments yet.</p>
           } @else {
-            <ol class="rw-threads" aria-label="Review remarks">
+            <ol class="rw-threads" aria-label="Comment threads">
               @for (t of s.threads; track t.id) {
                 <li class="rw-thread" [class.rw-thread-resolved]="t.resolved" [attr.data-ref]="t.resultRef">
                   <article [attr.aria-label]="'Comment by ' + (t.authorName ?? 'someone')">
                     <p class="rw-thread-meta">
                       <strong>{{ t.authorName ?? 'Someone' }}</strong> · <time [attr.datetime]="t.createdAt">{{ time(t.createdAt) }}</time> · on revision {{ t.revision }}
                       @if (t.resultRef) { · <span class="rw-thread-ref">On: {{ label(t.resultRef) }}</span> }
-                      · <span class="rw-thread-state">{{ t.resolved ? 'Closed' : 'Open' }}</span>
+                      · <span class="rw-thread-state">{{ t.resolved ? 'Resolved' : 'Open' }}</span>
                     </p>
                     <p class="rw-thread-body">{{ t.body }}</p>
                     @for (r of t.replies; track r.id) {
@@ -72,7 +72,7 @@ type ThreadsState = { kind: 'loading' } | { kind: 'error'; message: string } | {
                         </label>
                         <div class="rw-form-actions">
                           <button mat-stroked-button type="submit" [disabled]="busy()">Reply</button>
-                          <button mat-button type="button" [disabled]="busy()" (click)="setResolved(t, !t.resolved)">{{ t.resolved ? 'Reopen remark' : 'Close remark' }}</button>
+                          <button mat-button type="button" [disabled]="busy()" (click)="setResolved(t, !t.resolved)">{{ t.resolved ? 'Reopen thread' : 'Resolve thread' }}</button>
                         </div>
                       </form>
                     }

@@ -6,8 +6,8 @@ import type { ConfigurationResults, ConfigurationStatus, ReviewAction } from './
 export const STATUS_WORDS: Readonly<Record<ConfigurationStatus, { label: string; icon: string }>> = {
   draft: { label: 'Draft', icon: 'edit_note' },
   in_review: { label: 'In review', icon: 'rate_review' },
-  changes_requested: { label: 'Returned for rework', icon: 'construction' },
-  approved: { label: 'Signed off', icon: 'signature' },
+  changes_requested: { label: 'Changes requested', icon: 'assignment_return' },
+  approved: { label: 'Approved', icon: 'task_alt' },
   released: { label: 'Released to build', icon: 'precision_manufacturing' },
   validated: { label: 'Validated', icon: 'verified' },
 };
@@ -19,7 +19,7 @@ export interface ActionSpec {
   readonly from: readonly ConfigurationStatus[];
   /** A decision: never on one's own work (the server answers 403 own_revision). */
   readonly decision: boolean;
-  /** The message is required (return for rework: say what). */
+  /** The message is required (request changes: say what). */
   readonly needsMessage: boolean;
 }
 
@@ -27,8 +27,8 @@ export interface ActionSpec {
 export const ACTIONS: readonly ActionSpec[] = [
   { action: 'submit', label: 'Submit for review', permission: 'review:submit', from: ['draft'], decision: false, needsMessage: false },
   { action: 'withdraw', label: 'Withdraw from review', permission: 'review:submit', from: ['in_review'], decision: false, needsMessage: false },
-  { action: 'approve', label: 'Sign off', permission: 'review:decide', from: ['in_review'], decision: true, needsMessage: false },
-  { action: 'request-changes', label: 'Return for rework', permission: 'review:decide', from: ['in_review'], decision: true, needsMessage: true },
+  { action: 'approve', label: 'Approve', permission: 'review:decide', from: ['in_review'], decision: true, needsMessage: false },
+  { action: 'request-changes', label: 'Request changes', permission: 'review:decide', from: ['in_review'], decision: true, needsMessage: true },
   { action: 'release', label: 'Release to build', permission: 'review:decide', from: ['approved'], decision: true, needsMessage: false },
   { action: 'validate', label: 'Mark validated', permission: 'review:decide', from: ['released'], decision: true, needsMessage: false },
 ];
@@ -101,6 +101,11 @@ export function refLabel(ref: string): string {
 /** Whether a reference is one the server accepts (routes/configurations.ts `resultRef`). */
 export function validRef(ref: string): boolean {
   return /^(budget|chart:[a-z0-9-]{1,60}|caution:[a-z0-9-]{1,60}|figure:[A-Za-z0-9_.[\]-]{1,120})$/.test(ref);
+}
+
+/** A number for tables; "–" when missing. */
+export function fmt(v: unknown, digits = 3): string {
+  return typeof v === 'number' && Number.isFinite(v) ? v.toFixed(digits) : v === null || v === undefined ? '–' : String(v);
 }
 
 /** A difference value: numbers to significant digits, other values as text. */

@@ -1,7 +1,7 @@
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter, withComponentInputBinding } from '@angular/router';
+import { provideRouter } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { exampleVehicles } from '../../../../shared/balance/examples';
@@ -30,7 +30,7 @@ describe('IntentPage', () => {
   beforeEach(async () => {
     await TestBed.configureTestingModule({
       providers: [
-        provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId/axle-designs/:designId/intent', component: IntentPage }], withComponentInputBinding()),
+        provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId/axle-designs/:designId/intent', component: IntentPage }]),
         provideHttpClient(),
         provideHttpClientTesting(),
       ],

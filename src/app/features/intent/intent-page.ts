@@ -1,12 +1,11 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
-import { RouterLink } from '@angular/router';
+import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal } from '@angular/core';
+import { ActivatedRoute, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
 import type { SolveResult } from '../../../../shared/intent/index';
-import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
+import { trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
 import { innerName, outerName } from '../../../../shared/schema/steering-link';
-import { intentSchema } from '../../../../shared/schema/intent';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
@@ -15,14 +14,13 @@ import { ChartMark, LineSeries } from '../../charts/chart-types';
 import { AnalysisError, AnalysisSuperseded } from '../../workers/kinematics-client';
 import { IntentClient } from '../../workers/intent-client';
 import { AxleDesign, FeaturesApi } from '../features-api';
-import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
+import { routeParam } from '../route-params';
+import { rollSteerWords } from '../roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { parseDecimal } from '../axle-design/hardpoint-io';
 import { pointName } from '../axle-design/hardpoint-model';
 import { CautionList } from './caution-list';
 import { BumpCostView } from '../bump-cost';
-import { NumPipe } from '../../core/format/num-pipe';
-import { routeKey } from '../route-params';
 
 export type TargetKind = 'epsilon' | 'toePerRoll' | 'understeer' | 'zeroBump';
 
@@ -51,20 +49,21 @@ const DEFAULT_HALF_RANGE_MM = 20;
  */
 @Component({
   selector: 'rw-intent-page',
-  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution, CautionList, BumpCostView],
+  imports: [RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution, CautionList, BumpCostView],
   templateUrl: './intent-page.html',
   styleUrl: './intent-page.scss',
   providers: [IntentClient],
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class IntentPage {
+export class IntentPage implements OnInit {
+  private readonly route = inject(ActivatedRoute);
   private readonly api = inject(FeaturesApi);
   private readonly access = inject(TeamAccess);
   private readonly solver = inject(IntentClient);
 
-  readonly teamId = input.required<string>();
-  readonly vehicleId = input.required<string>();
-  readonly designId = input.required<string>();
+  protected readonly teamId = routeParam(this.route, 'teamId');
+  protected readonly vehicleId = routeParam(this.route, 'vehicleId');
+  protected readonly designId = routeParam(this.route, 'designId');
 
   protected readonly loadError = signal<string | null>(null);
   protected readonly design = signal<AxleDesign | null>(null);
@@ -112,18 +111,14 @@ export class IntentPage {
     return rows;
   });
 
-  /**
-   * Problems with the entries, in words; the solve runs only without any. The
-   * form checks only that its texts are numbers; the rules of an intent (bounds
-   * min < max, one of rack.z and the inner height, a droop-to-bump travel
-   * range, what needs the vehicle) are the shared intent schema's, the same the
-   * server and the solver apply. Bounds that leave out the current geometry are
-   * the form's own advice.
-   */
+  /** Problems with the entries, in words; the solve runs only without any. */
   protected readonly problems = computed(() => {
     const out: string[] = [];
     const kind = this.targetKind();
     if (kind !== 'zeroBump' && parseDecimal(this.targetText()) === null) out.push('Target: enter a number.');
+    if (kind === 'understeer' && !this.vehicleValid()) {
+      out.push('An understeer-gradient target needs complete vehicle data (the vehicle page) to turn it into a roll steer coefficient.');
+    }
     const on = this.movableRows().filter((r) => this.movable()[r.name]?.on);
     if (on.length === 0) out.push('Choose at least one coordinate that may move.');
     for (const r of on) {
@@ -131,17 +126,21 @@ export class IntentPage {
       const lo = parseDecimal(s.min);
       const hi = parseDecimal(s.max);
       if (lo === null || hi === null) out.push(`${r.label}: bounds must be numbers in mm.`);
-      else if (!r.offset && lo < hi && (r.current < lo || r.current > hi)) out.push(`${r.label}: the bounds must include the current ${r.current} mm.`);
+      else if (!(lo < hi)) out.push(`${r.label}: the lower bound must be below the upper bound.`);
+      else if (!r.offset && (r.current < lo || r.current > hi)) out.push(`${r.label}: the bounds must include the current ${r.current} mm.`);
     }
-    if (parseDecimal(this.travelFromText()) === null || parseDecimal(this.travelToText()) === null) out.push('Travel range: from a droop below 0 to a bump above 0 mm.');
-    if (parseDecimal(this.bumpText()) === null) out.push('Single-wheel bump height: a positive number of mm.');
-    if (this.budgetText().trim() !== '' && parseDecimal(this.budgetText()) === null) out.push('Bump-cost budget: a positive percentage, or leave it empty.');
-    if (out.length > 0 || !this.design()) return out;
-    const checked = intentSchema.safeParse(this.intentDocument());
-    if (checked.success) return out;
-    for (const issue of checked.error.issues) {
-      const row = this.movableRows().find((r) => issue.path[0] === 'bounds' && issue.path[1] === r.name);
-      out.push(row ? `${row.label}: ${issue.message}.` : `${issue.message}.`);
+    if (on.some((r) => r.name === 'rack.z') && on.some((r) => r.name.endsWith('Inner.z'))) {
+      out.push('Rack height and the inner point height move the same point: choose one of them.');
+    }
+    const from = parseDecimal(this.travelFromText());
+    const to = parseDecimal(this.travelToText());
+    if (from === null || to === null || !(from < 0 && to > 0)) out.push('Travel range: from a droop below 0 to a bump above 0 mm.');
+    const bump = parseDecimal(this.bumpText());
+    if (bump === null || bump <= 0) out.push('Single-wheel bump height: a positive number of mm.');
+    if (this.budgetText().trim() !== '') {
+      const budget = parseDecimal(this.budgetText());
+      if (budget === null || budget <= 0) out.push('Bump-cost budget: a positive percentage, or leave it empty.');
+      else if (!this.vehicleValid()) out.push('Bump-cost budget: needs the vehicle data (masses, springs, dampers and tyres).');
     }
     return out;
   });
@@ -227,26 +226,20 @@ export class IntentPage {
     }));
   });
 
-  constructor() {
-    // Loads on arrival and again when the router reuses this page for other route parameters.
-    effect(() => {
-      routeKey(this.teamId(), this.vehicleId(), this.designId());
-      untracked(() => {
-        void this.load();
-      });
-    });
+  ngOnInit(): void {
+    void this.load();
   }
 
   private async load(): Promise<void> {
     try {
       const [design] = await Promise.all([
-        firstValueFrom(this.api.axleDesign(this.teamId(), this.designId())),
-        firstValueFrom(this.access.load(this.teamId())),
+        firstValueFrom(this.api.axleDesign(this.teamId, this.designId)),
+        firstValueFrom(this.access.load(this.teamId)),
       ]);
       this.design.set(design);
       this.initMovable();
       try {
-        const vehicle = await firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId()));
+        const vehicle = await firstValueFrom(this.api.vehicle(this.teamId, this.vehicleId));
         this.vehicleData.set(vehicle.data);
       } catch {
         this.vehicleData.set(null);
@@ -349,7 +342,7 @@ export class IntentPage {
     this.proposeError.set(null);
     try {
       const p = await firstValueFrom(
-        this.api.propose(this.teamId(), this.designId(), {
+        this.api.propose(this.teamId, this.designId, {
           corner: r.corner,
           baseRevision: d.revision,
           message: this.proposeMessage().trim() || `Intent: ${r.target.label}, ε ${r.achieved.rollSteerCoefficient.toFixed(4)}`,
@@ -370,6 +363,10 @@ export class IntentPage {
     } finally {
       this.proposing.set(false);
     }
+  }
+
+  protected fmt(v: number | null | undefined, digits = 3): string {
+    return v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
   }
 
   protected words(eps: number): string {

@@ -1,10 +1,10 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked, ViewEncapsulation } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal, ViewEncapsulation } from '@angular/core';
 import { DatePipe } from '@angular/common';
-import { RouterLink } from '@angular/router';
+import { ActivatedRoute, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { firstValueFrom } from 'rxjs';
 import type { BalanceResponse } from '../../../../shared/balance/api';
-import type { Caution } from '../../../../shared/cautions/cautions';
+import type { Caution } from '../../../../shared/intent/cautions';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { ENGINE_VERSION } from '../../../../shared/version';
 import { apiProblem } from '../../core/http/api-error';
@@ -16,12 +16,11 @@ import type { CornerAnalysis } from '../../workers/analysis-types';
 import { HardpointTable } from '../axle-design/hardpoint-table';
 import { AxleDesign, FeaturesApi, Proposal, RevisionRow, VehicleRecord } from '../features-api';
 import { CautionList } from '../intent/caution-list';
-import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
+import { routeParam } from '../route-params';
+import { rollSteerWords } from '../roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { BumpCostView } from '../bump-cost';
-import { DEFAULT_TRACK_PROFILE } from '../../../../shared/tracks/profiles';
-import { NumPipe } from '../../core/format/num-pipe';
-import { routeKey } from '../route-params';
+import { DEFAULT_TRACK_PROFILE } from '../../../../shared/intent/profiles';
 
 const TRAVEL = { from: -25, to: 25, step: 2.5 };
 const ROLL = { from: -3, to: 3, step: 0.25 };
@@ -35,22 +34,21 @@ const ROLL = { from: -3, to: 3, step: 0.25 };
  */
 @Component({
   selector: 'rw-design-report-page',
-  imports: [NumPipe, DatePipe, RouterLink, MatButton, HardpointTable, LineChart, BarChart, CautionList, SafetyCaution, BumpCostView],
+  imports: [DatePipe, RouterLink, MatButton, HardpointTable, LineChart, BarChart, CautionList, SafetyCaution, BumpCostView],
   templateUrl: './design-report-page.html',
   styleUrl: './design-report-page.scss',
-  // The print stylesheet reaches the app shell (hides the top bar when printing).
-  // eslint-disable-next-line @angular-eslint/use-component-view-encapsulation
   encapsulation: ViewEncapsulation.None,
   providers: [KinematicsClient],
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class DesignReportPage {
+export class DesignReportPage implements OnInit {
+  private readonly route = inject(ActivatedRoute);
   private readonly api = inject(FeaturesApi);
   private readonly engine = inject(KinematicsClient);
 
-  readonly teamId = input.required<string>();
-  readonly vehicleId = input.required<string>();
-  readonly designId = input.required<string>();
+  protected readonly teamId = routeParam(this.route, 'teamId');
+  protected readonly vehicleId = routeParam(this.route, 'vehicleId');
+  protected readonly designId = routeParam(this.route, 'designId');
   protected readonly engineVersion = ENGINE_VERSION;
   protected readonly printedAt = new Date().toISOString();
   protected readonly travel = TRAVEL;
@@ -113,20 +111,14 @@ export class DesignReportPage {
     ).map(([label, v]) => ({ label, values: [v] }));
   });
 
-  constructor() {
-    // Loads on arrival and again when the router reuses this page for other route parameters.
-    effect(() => {
-      routeKey(this.teamId(), this.vehicleId(), this.designId());
-      untracked(() => {
-        void this.load();
-      });
-    });
+  ngOnInit(): void {
+    void this.load();
   }
 
   private async load(): Promise<void> {
     let design: AxleDesign;
     try {
-      design = await firstValueFrom(this.api.axleDesign(this.teamId(), this.designId()));
+      design = await firstValueFrom(this.api.axleDesign(this.teamId, this.designId));
       this.design.set(design);
     } catch (error) {
       this.loadError.set(apiProblem(error).message);
@@ -134,7 +126,7 @@ export class DesignReportPage {
     }
     const stroke = design.corner.steered && design.corner.steering?.kind === 'rack' ? design.corner.steering.rackStroke : null;
     // The bump cost beside the roll steer needs the vehicle's ride data (masses, springs, dampers, tyres).
-    const vehicleData = await firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId()))
+    const vehicleData = await firstValueFrom(this.api.vehicle(this.teamId, this.vehicleId))
       .then((v) => v.data as unknown)
       .catch(() => null);
     const cautions = { axle: design.axle, trackProfile: { id: DEFAULT_TRACK_PROFILE[design.axle] }, vehicleData };
@@ -143,8 +135,8 @@ export class DesignReportPage {
       .then((a) => this.analysis.set(a))
       .catch((e) => this.analysisError.set(e instanceof AnalysisError ? e.message : String(e)));
     const others = Promise.all([
-      firstValueFrom(this.api.axleDesignRevisions(this.teamId(), this.designId())).then((r) => this.revisions.set(r)),
-      firstValueFrom(this.api.proposals(this.teamId(), this.designId())).then((list) =>
+      firstValueFrom(this.api.axleDesignRevisions(this.teamId, this.designId)).then((r) => this.revisions.set(r)),
+      firstValueFrom(this.api.proposals(this.teamId, this.designId)).then((list) =>
         this.source.set(list.find((p) => p.status === 'accepted' && p.acceptedRevision === design.revision) ?? null),
       ),
       this.loadBalance(design),
@@ -154,16 +146,16 @@ export class DesignReportPage {
 
   /** The vehicle with this design on its axle and the first design of the other axle. */
   private async loadBalance(design: AxleDesign): Promise<void> {
-    const vehicle = await firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId()));
+    const vehicle = await firstValueFrom(this.api.vehicle(this.teamId, this.vehicleId));
     this.vehicle.set(vehicle);
     if (!vehicleSchema.safeParse(vehicle.data).success) {
       this.balanceNote.set('The vehicle data is incomplete, so no understeer budget is given.');
       return;
     }
-    const list = await firstValueFrom(this.api.axleDesigns(this.teamId(), this.vehicleId()));
+    const list = await firstValueFrom(this.api.axleDesigns(this.teamId, this.vehicleId));
     const otherAxle = design.axle === 'front' ? 'rear' : 'front';
     const other = list.find((d) => d.axle === otherAxle);
-    const otherCorner = other ? (await firstValueFrom(this.api.axleDesign(this.teamId(), other.id))).corner : undefined;
+    const otherCorner = other ? (await firstValueFrom(this.api.axleDesign(this.teamId, other.id))).corner : undefined;
     const corners = design.axle === 'front' ? { frontCorner: design.corner, rearCorner: otherCorner } : { frontCorner: otherCorner, rearCorner: design.corner };
     const request = { vehicle: vehicle.data, ...Object.fromEntries(Object.entries(corners).filter(([, c]) => c)) };
     const response = await firstValueFrom(this.api.balance<BalanceResponse>(request));
@@ -175,4 +167,7 @@ export class DesignReportPage {
     globalThis.print();
   }
 
+  protected fmt(v: number | null | undefined, digits = 3): string {
+    return v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
+  }
 }

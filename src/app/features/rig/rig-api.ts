@@ -2,13 +2,12 @@ import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 import type { RigMapping, RigPoint, RigPreview } from '../../../../shared/io/rig-measurement';
-import type { RigBasis, RigComparison, RigTolerance } from '../../../../shared/rig/compare';
+import type { RigBasis, RigComparison, RigTolerance } from '../../../../shared/intent/rig-compare';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
-import type { AxleName } from '../../../../shared/schema/axle';
 
 /** What a measurement is compared with (docs/rig-measurements.md). */
 export type RigTarget =
-  | { readonly kind: 'configuration'; readonly configurationId: string; readonly configurationRevision?: number; readonly axle: AxleName }
+  | { readonly kind: 'configuration'; readonly configurationId: string; readonly configurationRevision?: number; readonly axle: 'front' | 'rear' }
   | { readonly kind: 'baseline'; readonly designId: string; readonly designRevision?: number };
 
 export interface RigOptions {
@@ -27,7 +26,7 @@ export interface RigMeasurementSummary {
   readonly attachedTo: 'configuration' | 'baseline';
   readonly configurationId: string | null;
   readonly configurationRevision: number | null;
-  readonly axle: AxleName;
+  readonly axle: 'front' | 'rear';
   readonly designId: string;
   readonly designName: string;
   readonly designRevision: number;

@@ -1,7 +1,7 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
-import type { StudyKeyFigure, StudyRequest, StudyResult, StudyTarget } from '../../../../shared/study/index';
+import type { StudyRequest, StudyResult, StudyTarget } from '../../../../shared/study/index';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
 
 export type StudyStatus = 'queued' | 'running' | 'completed' | 'failed' | 'cancelled';
@@ -19,25 +19,6 @@ export interface StudyView {
   readonly createdAt: string;
   readonly createdBy: { readonly id: string; readonly displayName: string } | null;
   readonly result?: StudyResult;
-}
-
-/** `AttachedStudy` of docs/api.md: a completed study on a configuration's review record, with its key figures. */
-export interface AttachedStudy {
-  readonly studyId: string;
-  readonly configurationId: string;
-  readonly label: string;
-  readonly kind: 'tolerance' | 'sweep';
-  readonly totalSamples: number;
-  readonly note: string;
-  readonly attachedAt: string;
-  readonly attachedBy: { readonly id: string; readonly displayName: string } | null;
-  readonly keyFigures: readonly StudyKeyFigure[];
-}
-
-/** `GET /api/programmes/:programmeId/studies`: per accepted team, its latest attached study. */
-export interface ProgrammeStudies {
-  readonly programmeId: string;
-  readonly teams: readonly { readonly teamId: string; readonly teamName: string; readonly configurationName: string | null; readonly study: AttachedStudy | null }[];
 }
 
 const inline = () => ({ context: new HttpContext().set(SHOW_ERRORS_INLINE, true) });
@@ -75,22 +56,6 @@ export class StudiesApi {
   openVariant(teamId: string, id: string, index: number): Observable<{ proposal: { id: string } }> {
     return this.http.post<{ proposal: { id: string } }>(`${this.base(teamId, id)}/variants/${index}/proposal`, {}, inline());
   }
-
-  attach(teamId: string, id: string, configurationId: string, note: string): Observable<{ attachment: AttachedStudy }> {
-    return this.http.put<{ attachment: AttachedStudy }>(`${this.base(teamId, id)}/attachments/${e(configurationId)}`, { note }, inline());
-  }
-
-  detach(teamId: string, id: string, configurationId: string): Observable<void> {
-    return this.http.delete<void>(`${this.base(teamId, id)}/attachments/${e(configurationId)}`, inline());
-  }
-
-  attachedTo(teamId: string, configurationId: string): Observable<{ attachments: AttachedStudy[] }> {
-    return this.http.get<{ attachments: AttachedStudy[] }>(this.base(teamId), { ...inline(), params: { attachedTo: configurationId } });
-  }
-
-  programmeStudies(programmeId: string): Observable<ProgrammeStudies> {
-    return this.http.get<ProgrammeStudies>(`/api/programmes/${e(programmeId)}/studies`, inline());
-  }
 }
 
 /** Words for a study's status. */
@@ -109,5 +74,4 @@ export function etaWords(seconds: number | null): string {
   if (s < 60) return `about ${s} s left`;
   const m = Math.floor(s / 60);
   return `about ${m} min ${s % 60} s left`;
-
 }

@@ -1,4 +1,3 @@
-import type { AxleName } from '../../../../shared/schema/axle';
 /**
  * The vehicle data of the balance model as form fields: dotted path into the
  * vehicle document, label in plain words, and the unit the document stores
@@ -24,7 +23,7 @@ function f(path: string, label: string, storedUnit: string | null, plainUnit: st
   return { path, label, storedUnit, plainUnit, required };
 }
 
-function axleFields(axle: AxleName): VehicleField[] {
+function axleFields(axle: 'front' | 'rear'): VehicleField[] {
   const p = (k: string) => `${axle}.${k}`;
   return [
     f(p('trackMm'), 'Track', 'mm', 'mm', true),

@@ -1,7 +1,7 @@
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter, withComponentInputBinding } from '@angular/router';
+import { provideRouter } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { exampleVehicles } from '../../../../shared/balance/examples';
 import { VehiclePage } from './vehicle-page';
@@ -18,7 +18,7 @@ describe('VehiclePage', () => {
 
   beforeEach(async () => {
     await TestBed.configureTestingModule({
-      providers: [provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId', component: VehiclePage }], withComponentInputBinding()), provideHttpClient(), provideHttpClientTesting()],
+      providers: [provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId', component: VehiclePage }]), provideHttpClient(), provideHttpClientTesting()],
     }).compileComponents();
     backend = TestBed.inject(HttpTestingController);
   });

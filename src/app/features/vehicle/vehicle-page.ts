@@ -1,23 +1,22 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal } from '@angular/core';
 import { DatePipe } from '@angular/common';
 import { AbstractControl, FormControl, FormGroup, ReactiveFormsModule, ValidationErrors } from '@angular/forms';
-import { RouterLink } from '@angular/router';
+import { ActivatedRoute, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import { MatCheckbox } from '@angular/material/checkbox';
 import { MatButtonToggle, MatButtonToggleGroup } from '@angular/material/button-toggle';
-import { firstValueFrom, map, merge } from 'rxjs';
+import { firstValueFrom } from 'rxjs';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { unusualValue, vehicleRangeFor } from '../../../../shared/schema/ranges';
 import { AuthService } from '../../core/auth/auth-service';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
 import { AxleDesignSummary, FeaturesApi, RevisionRow, VehicleRecord } from '../features-api';
+import { routeParam } from '../route-params';
 import { parseDecimal } from '../axle-design/hardpoint-io';
 import { ALL_VEHICLE_FIELDS, readPath, VEHICLE_FIELD_GROUPS, VehicleField, writePath } from './vehicle-fields';
-import { routeKey } from '../route-params';
-import { toSignal } from '@angular/core/rxjs-interop';
 
 type Units = 'si' | 'imperial';
 type UnitsModule = typeof import('../../../../shared/schema/units');
@@ -56,13 +55,14 @@ function requiredText(control: AbstractControl<string>): ValidationErrors | null
   changeDetection: ChangeDetectionStrategy.OnPush,
   host: { '(window:beforeunload)': 'warnBeforeUnload($event)' },
 })
-export class VehiclePage {
+export class VehiclePage implements OnInit {
+  private readonly route = inject(ActivatedRoute);
   private readonly api = inject(FeaturesApi);
   private readonly access = inject(TeamAccess);
   private readonly auth = inject(AuthService);
 
-  readonly teamId = input.required<string>();
-  readonly vehicleId = input.required<string>();
+  protected readonly teamId = routeParam(this.route, 'teamId');
+  protected readonly vehicleId = routeParam(this.route, 'vehicleId');
 
   protected readonly groups = VEHICLE_FIELD_GROUPS;
   protected readonly loading = signal(true);
@@ -79,6 +79,7 @@ export class VehiclePage {
   protected readonly saveIssues = signal<readonly string[]>([]);
   protected readonly notice = signal<string | null>(null);
   protected readonly stale = signal<VehicleRecord | null>(null);
+  private readonly formVersion = signal(0);
 
   protected readonly editable = computed(() => this.access.can('vehicle:edit'));
 
@@ -89,38 +90,25 @@ export class VehiclePage {
   protected readonly frontDesigns = computed(() => (this.designs() ?? []).filter((d) => d.axle === 'front'));
   protected readonly rearDesigns = computed(() => (this.designs() ?? []).filter((d) => d.axle === 'rear'));
 
-  /**
-   * The form's state as a signal, read again from the form on each of its
-   * events (value, status, pristine, touched): what `dirty` and the unusual-value
-   * notes are computed from. Programmatic fills and enables emit events too.
-   */
-  private readonly formState = toSignal(
-    merge(this.form.events, this.rollGravityTerm.events).pipe(map(() => this.readFormState())),
-    { initialValue: this.readFormState() },
-  );
-
   /** True when the form differs from the stored revision. */
-  readonly dirty = computed(() => this.formState().dirty);
+  readonly dirty = computed(() => {
+    this.formVersion();
+    return this.form.dirty || this.rollGravityTerm.dirty;
+  });
 
   constructor() {
-    // Loads on arrival and again when the router reuses this page for other route parameters.
-    effect(() => {
-      routeKey(this.teamId(), this.vehicleId());
-      untracked(() => {
-        void this.load();
-      });
-    });
     for (const field of ALL_VEHICLE_FIELDS) {
       this.form.addControl(
         field.path,
         new FormControl<string>('', { nonNullable: true, validators: field.required ? [requiredText, numberText] : [numberText] }),
       );
     }
+    this.form.valueChanges.subscribe(() => this.formVersion.update((v) => v + 1));
+    this.rollGravityTerm.valueChanges.subscribe(() => this.formVersion.update((v) => v + 1));
   }
 
-  private readFormState(): { dirty: boolean; values: Readonly<Record<string, string>>; invalid: ReadonlySet<string> } {
-    const invalid = new Set(Object.entries(this.form.controls).flatMap(([path, c]) => (c.invalid ? [path] : [])));
-    return { dirty: this.form.dirty || this.rollGravityTerm.dirty, values: this.form.getRawValue(), invalid };
+  ngOnInit(): void {
+    void this.load();
   }
 
   /** Closing or reloading the tab with unsaved entries asks first. */
@@ -132,8 +120,8 @@ export class VehiclePage {
     this.loading.set(true);
     try {
       const [vehicle] = await Promise.all([
-        firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId())),
-        firstValueFrom(this.access.load(this.teamId())),
+        firstValueFrom(this.api.vehicle(this.teamId, this.vehicleId)),
+        firstValueFrom(this.access.load(this.teamId)),
       ]);
       if (this.auth.displayUnits() === 'imperial') await this.useUnits('imperial', false);
       this.adopt(vehicle);
@@ -149,7 +137,7 @@ export class VehiclePage {
 
   private async loadDesigns(): Promise<void> {
     try {
-      this.designs.set(await firstValueFrom(this.api.axleDesigns(this.teamId(), this.vehicleId())));
+      this.designs.set(await firstValueFrom(this.api.axleDesigns(this.teamId, this.vehicleId)));
       this.designsError.set(null);
     } catch (error) {
       this.designsError.set(apiProblem(error).message);
@@ -158,7 +146,7 @@ export class VehiclePage {
 
   private async loadRevisions(): Promise<void> {
     try {
-      this.revisions.set(await firstValueFrom(this.api.vehicleRevisions(this.teamId(), this.vehicleId())));
+      this.revisions.set(await firstValueFrom(this.api.vehicleRevisions(this.teamId, this.vehicleId)));
     } catch {
       this.revisions.set([]);
     }
@@ -168,26 +156,27 @@ export class VehiclePage {
     this.vehicle.set(vehicle);
     this.fillForm(vehicle.data);
     if (!this.editable()) {
-      this.form.disable();
-      this.rollGravityTerm.disable();
+      this.form.disable({ emitEvent: false });
+      this.rollGravityTerm.disable({ emitEvent: false });
     } else {
       for (const field of ALL_VEHICLE_FIELDS) {
         const control = this.form.controls[field.path]!;
-        if (this.barByGeometry(field)) control.disable();
-        else control.enable();
+        if (this.barByGeometry(field)) control.disable({ emitEvent: false });
+        else control.enable({ emitEvent: false });
       }
     }
     this.form.markAsPristine();
     this.rollGravityTerm.markAsPristine();
+    this.formVersion.update((v) => v + 1);
   }
 
   private fillForm(data: unknown): void {
     for (const field of ALL_VEHICLE_FIELDS) {
       const stored = readPath(data, field.path);
-      this.form.controls[field.path]!.setValue(typeof stored === 'number' ? this.formatForDisplay(field, stored) : '');
+      this.form.controls[field.path]!.setValue(typeof stored === 'number' ? this.formatForDisplay(field, stored) : '', { emitEvent: false });
     }
     const gravity = readPath(data, 'options.rollGravityTerm');
-    this.rollGravityTerm.setValue(gravity !== false);
+    this.rollGravityTerm.setValue(gravity !== false, { emitEvent: false });
   }
 
   /** The bar's roll rate field is not offered when the bar is given by its geometry (kept as entered). */
@@ -235,7 +224,7 @@ export class VehiclePage {
       for (const field of ALL_VEHICLE_FIELDS) {
         const v = stored.get(field.path);
         const control = this.form.controls[field.path]!;
-        if (v !== undefined) control.setValue(this.formatForDisplay(field, v));
+        if (v !== undefined) control.setValue(this.formatForDisplay(field, v), { emitEvent: false });
       }
     }
   }
@@ -255,10 +244,11 @@ export class VehiclePage {
    * vehicle mass (typical 150–3500 kg)": shown beside the field, never refused. The figures are in stored units.
    */
   protected unusualText(field: VehicleField): string | null {
-    const state = this.formState();
+    this.formVersion();
     const range = vehicleRangeFor(field.path);
-    const shown = parseDecimal(state.values[field.path] ?? '');
-    if (!range || shown === null || state.invalid.has(field.path)) return null;
+    const control = this.form.controls[field.path]!;
+    const shown = parseDecimal(control.value ?? '');
+    if (!range || shown === null || control.invalid) return null;
     return unusualValue(range, this.toStored(field, shown));
   }
 
@@ -309,7 +299,7 @@ export class VehiclePage {
     this.saving.set(true);
     try {
       const saved = await firstValueFrom(
-        this.api.saveVehicleData(this.teamId(), this.vehicleId(), data, baseRevision, this.message.value.trim() || undefined),
+        this.api.saveVehicleData(this.teamId, this.vehicleId, data, baseRevision, this.message.value.trim() || undefined),
       );
       this.stale.set(null);
       this.message.setValue('');
@@ -320,7 +310,7 @@ export class VehiclePage {
       const problem = apiProblem(error);
       if (problem.status === 409) {
         const current = (problem.details as { current?: VehicleRecord } | undefined)?.current;
-        this.stale.set(current && 'revision' in current ? current : await firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId())));
+        this.stale.set(current && 'revision' in current ? current : await firstValueFrom(this.api.vehicle(this.teamId, this.vehicleId)));
       } else if (problem.status === 400) {
         const fields = (problem.details as { fields?: { path: string; message: string }[] } | undefined)?.fields ?? [];
         this.saveIssues.set(fields.map((f) => `${f.path}: ${f.message}`));

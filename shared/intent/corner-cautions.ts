@@ -10,14 +10,13 @@ import type { Vehicle } from '../schema/vehicle.js';
 import { SolveError } from '../errors.js';
 import { suspensionRollGradients } from '../balance/understeer.js';
 import { evaluateCautions, type Caution, type CautionThresholds } from './cautions.js';
-import { resolveTrackProfile, type TrackProfileChoice, type TrackProfileId } from '../tracks/profiles.js';
+import { resolveTrackProfile, type TrackProfileChoice, type TrackProfileId } from './profiles.js';
 import { cautionInputs, sweepRacks } from './measure.js';
-import { linked, PoseCounter, rollSteer } from '../intent/link.js';
+import { linked, PoseCounter, rollSteer } from './link.js';
 import type { BumpCost } from '../ride/cost.js';
-import type { AxleName } from '../schema/axle.js';
 
 export interface CornerCautionOptions {
-  axle: AxleName;
+  axle: 'front' | 'rear';
   /** A profile id, or `{ id, travelMm?, bumpHeightMm? }` overriding its travel range and bump height. */
   trackProfile: TrackProfileId | TrackProfileChoice;
   /** The vehicle: tyre data and loads for the lateral-force index, compliance steer, suspension roll for the reference roll. */
@@ -41,7 +40,7 @@ export function cautionRackPositions(corner: Corner, list?: number[]): number[] 
 }
 
 /** Suspension roll gradients with `corner` linked into the vehicle (balance model), or null (no vehicle, or a roll centre at infinity). */
-export function linkedRollGradients(counter: PoseCounter, vehicle: Vehicle | undefined, axle: AxleName, corner: Corner) {
+export function linkedRollGradients(counter: PoseCounter, vehicle: Vehicle | undefined, axle: 'front' | 'rear', corner: Corner) {
   if (!vehicle) return null;
   try {
     return suspensionRollGradients(linked(counter, vehicle, axle, corner).vehicle);

@@ -7,9 +7,9 @@
  * highest level whose threshold the value reaches (value ≥ threshold).
  * docs/cautions.md documents every code, default and basis.
  */
-import type { TrackProfile, TrackProfileId } from '../tracks/profiles.js';
+import type { TrackProfile, TrackProfileId } from './profiles.js';
 import type { BumpCost } from '../ride/cost.js';
-import type { AxleName } from '../schema/axle.js';
+export { trackProfiles, resolveTrackProfile, TRACK_PROFILE_IDS } from './profiles.js';
 
 export type CautionLevel = 'info' | 'warning' | 'critical';
 
@@ -68,7 +68,7 @@ interface RuleDefinition {
   defaults: LevelThresholds | Record<TrackProfileId, LevelThresholds>;
 }
 
-/** Rig-measurement codes compare with the team's rig tolerance (shared/rig/compare.ts), not with per-profile thresholds. */
+/** Rig-measurement codes compare with the team's rig tolerance (shared/intent/rig-compare.ts), not with per-profile thresholds. */
 export type RigCautionCode = 'rig-toe-disagreement' | 'rig-camber-disagreement';
 
 export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-steer-unmodelled' | 'rack-pose-unreachable' | 'safety-notice' | 'bump-cost-unavailable' | RigCautionCode>, RuleDefinition>> = {
@@ -166,7 +166,7 @@ export function thresholdsFor(
   overrides: CautionThresholds = {},
 ): LevelThresholds {
   const d = CAUTION_RULES[code].defaults;
-  const base: LevelThresholds = 'info' in d || 'warning' in d || 'critical' in d ? d : (d as Record<TrackProfileId, LevelThresholds>)[profile];
+  const base: LevelThresholds = 'info' in d || 'warning' in d || 'critical' in d ? (d as LevelThresholds) : (d as Record<TrackProfileId, LevelThresholds>)[profile];
   return { ...base, ...(overrides[code] ?? {}) };
 }
 
@@ -181,7 +181,7 @@ export function levelFor(value: number, t: LevelThresholds): { level: CautionLev
 
 /** What the rules measure; the solver fills it from the verified kinematics. */
 export interface CautionInputs {
-  axle: AxleName;
+  axle: 'front' | 'rear';
   steered: boolean;
   profile: TrackProfile;
   /** Achieved roll steer coefficient ε, deg/deg (domain.md sign). */

@@ -22,7 +22,7 @@ import { CornerSolver } from '../kinematics/solver.js';
 import { poseRow } from '../kinematics/pose.js';
 import { checkRack, sweepTravels } from '../kinematics/sweep.js';
 import { assertFinite } from '../kinematics/api.js';
-import { SAFETY_CAUTION, type Caution } from '../cautions/cautions.js';
+import { SAFETY_CAUTION, type Caution } from './cautions.js';
 import { RIG_BOUNDS, RIG_LIMITS, type RigPoint } from '../io/rig-measurement.js';
 
 /** Largest |measured − predicted| a team accepts before a caution, deg. */
@@ -202,7 +202,7 @@ export function compareRigMeasurement(corner: Corner, measured: readonly RigPoin
     });
   } catch (e) {
     if (!(e instanceof SolveError)) throw e;
-    const at = typeof e.details['travelMm'] === 'number' ? e.details['travelMm'] : null;
+    const at = typeof e.details['travelMm'] === 'number' ? (e.details['travelMm'] as number) : null;
     const beyond = at === null ? null : at >= 0 ? pts.reduce((a, b) => (b.travelMm > a.travelMm ? b : a)) : pts.reduce((a, b) => (b.travelMm < a.travelMm ? b : a));
     throw new SolveError(
       'unreachable_pose',

@@ -1,9 +1,8 @@
-import { describe, expect, it } from 'vitest';
-import { rollSteerWords } from '../../../shared/balance/roll-steer-words.js';
+import { rollSteerWords } from './roll-steer-words';
 
 // Sign convention of shared/docs/domain.md: ε = −dδ̄/dφ; positive ε at the
 // front is roll understeer, at the rear roll oversteer; "rear roll
-// understeer of 0.06" means ε_r = −0.06 (Gillespie's sign of roll steer, from memory).
+// understeer of 0.06" means ε_r = −0.06.
 describe('rollSteerWords', () => {
   it('follows the domain sign convention on both axles', () => {
     expect(rollSteerWords(0.05, 'front')).toBe('roll understeer');

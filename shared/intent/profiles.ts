@@ -14,7 +14,6 @@
  * unmade tracks D and worse. docs/cautions.md lists them with their basis.
  */
 import type { RoadClass } from '../ride/road.js';
-import type { AxleName } from '../schema/axle.js';
 export const TRACK_PROFILE_IDS = ['smooth-circuit', 'bumpy-circuit', 'rough-road', 'off-road'] as const;
 export type TrackProfileId = (typeof TRACK_PROFILE_IDS)[number];
 
@@ -103,7 +102,7 @@ export const trackProfiles: Readonly<Record<TrackProfileId, TrackProfile>> = {
 };
 
 /** The profile a screen starts from for each axle (vehicles store no profile of their own yet). */
-export const DEFAULT_TRACK_PROFILE: Readonly<Record<AxleName, TrackProfileId>> = { front: 'smooth-circuit', rear: 'smooth-circuit' };
+export const DEFAULT_TRACK_PROFILE: Readonly<Record<'front' | 'rear', TrackProfileId>> = { front: 'smooth-circuit', rear: 'smooth-circuit' };
 
 /** Total travel (mm) from which any profile counts as long travel. */
 export const LONG_TRAVEL_SPAN_MM = 300;

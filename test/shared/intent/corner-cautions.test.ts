@@ -12,11 +12,7 @@ import { exampleVehicles } from '../../../shared/balance/index.js';
 import { intentSchema } from '../../../shared/schema/intent.js';
 import type { Corner, Vec3 } from '../../../shared/schema/corner.js';
 import { SolveError } from '../../../shared/errors.js';
-import { solveIntent } from '../../../shared/intent/index.js';
-import { CAUTION_RULES, type CautionThresholds } from '../../../shared/cautions/cautions.js';
-import { cautionsForCorner } from '../../../shared/cautions/corner-cautions.js';
-import { DEFAULT_TRACK_PROFILE } from '../../../shared/tracks/profiles.js';
-import type { AxleName } from '../../../shared/schema/axle.js';
+import { CAUTION_RULES, cautionsForCorner, DEFAULT_TRACK_PROFILE, solveIntent, type CautionThresholds } from '../../../shared/intent/index.js';
 
 function heights(corner: Corner, range: number): Record<string, [number, number]> {
   const p = corner.points as Record<string, Vec3>;
@@ -48,7 +44,7 @@ describe('cautionsForCorner gives the solver’s cautions for the solver’s geo
 });
 
 describe('each measured rule just below and just above its threshold (any corner, not a solved one)', () => {
-  const cases: Array<{ corner: Corner; axle: AxleName; codes: (keyof typeof CAUTION_RULES)[] }> = [
+  const cases: Array<{ corner: Corner; axle: 'front' | 'rear'; codes: (keyof typeof CAUTION_RULES)[] }> = [
     {
       corner: exampleCorners.fsFrontWishbone,
       axle: 'front',

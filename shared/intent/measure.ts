@@ -11,13 +11,12 @@ import type { Vehicle } from '../schema/vehicle.js';
 import { SolveError } from '../errors.js';
 import type { SweepRow } from '../kinematics/index.js';
 import type { CautionInputs, CautionThresholds } from './cautions.js';
-import type { TrackProfile } from '../tracks/profiles.js';
-import { pose, PoseCounter, sweep } from '../intent/link.js';
+import type { TrackProfile } from './profiles.js';
+import { pose, PoseCounter, sweep } from './link.js';
 import { axleComplianceOf } from '../compliance/axle.js';
 import { describeTyreLoadLaw, tyreLoadLaw, tyreStiffnessAt } from '../balance/tyre.js';
 import { InputError } from '../errors.js';
 import { bumpCost, type BumpCost } from '../ride/cost.js';
-import type { AxleName } from '../schema/axle.js';
 
 const G_STD = 9.80665;
 /** Cornering stiffness per unit load used when the vehicle gives no tyre data, 1/deg (from memory: 0.15–0.25 for car tyres). */
@@ -75,7 +74,7 @@ export function sweepRacks(
 
 /** Who the cautions are for: the axle, the vehicle (tyres, loads, compliance) and its suspension roll, the team's thresholds. */
 export interface CautionContext {
-  axle: AxleName;
+  axle: 'front' | 'rear';
   vehicle?: Vehicle | undefined;
   /** Suspension roll gradients of the vehicle with this corner linked in (balance model), deg/g; null without a vehicle. */
   gradients: { frontDegPerG: number; rearDegPerG: number } | null;

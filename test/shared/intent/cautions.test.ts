@@ -6,8 +6,8 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { CAUTION_RULES, evaluateCautions, thresholdsFor, type CautionInputs, type ThresholdCautionCode } from '../../../shared/cautions/cautions.js';
-import { resolveTrackProfile, trackProfiles } from '../../../shared/tracks/profiles.js';
+import { CAUTION_RULES, evaluateCautions, thresholdsFor, type CautionInputs, type ThresholdCautionCode } from '../../../shared/intent/cautions.js';
+import { resolveTrackProfile, trackProfiles } from '../../../shared/intent/profiles.js';
 import type { BumpCost } from '../../../shared/ride/cost.js';
 
 /** A bump cost with everything quiet; the ride model's own tests check how the figures are made. */
@@ -176,7 +176,7 @@ describe('docs/cautions.md', () => {
     const { readFileSync } = await import('node:fs');
     const { join } = await import('node:path');
     const doc = readFileSync(join(import.meta.dirname, '..', '..', '..', 'docs', 'cautions.md'), 'utf8');
-    const { CAUTION_CODES } = await import('../../../shared/cautions/cautions.js');
+    const { CAUTION_CODES } = await import('../../../shared/intent/cautions.js');
     for (const code of CAUTION_CODES) expect(doc).toContain(`\`${code}\``);
     for (const [code, rule] of Object.entries(CAUTION_RULES)) {
       const row = doc.split('\n').find((l) => l.startsWith(`| \`${code}\``))!;
