@@ -2,6 +2,7 @@ import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { fakeNotifier, FakeNotifier, shellTestProviders } from '../../testing/shell-testing';
 import { ForgotPasswordPage } from './forgot-password-page';
+import { settle } from '../../testing/settle';
 
 describe('ForgotPasswordPage', () => {
   let backend: HttpTestingController;
@@ -19,18 +20,18 @@ describe('ForgotPasswordPage', () => {
     const fixture = TestBed.createComponent(ForgotPasswordPage);
     // The router binds `?email=` to the input of that name.
     if (query['email'] !== undefined) fixture.componentRef.setInput('email', query['email']);
-    await fixture.whenStable();
+    await settle();
     const root = fixture.nativeElement as HTMLElement;
     const email = () => root.querySelector<HTMLInputElement>('input[formcontrolname="email"]')!;
     const type = async (value: string) => {
       email().value = value;
       email().dispatchEvent(new Event('input'));
       email().dispatchEvent(new Event('blur'));
-      await fixture.whenStable();
+      await settle();
     };
     const submit = async () => {
       root.querySelector<HTMLButtonElement>('button[type="submit"]')!.click();
-      await fixture.whenStable();
+      await settle();
     };
     const errors = () => [...root.querySelectorAll('mat-error')].map((e) => e.textContent?.trim());
     return { fixture, root, email, type, submit, errors };
@@ -62,7 +63,7 @@ describe('ForgotPasswordPage', () => {
     expect(request.request.body).toEqual({ email: 'designer@tallowmere.example' });
     expect(request.request.headers.get('X-Rollwise-Request')).toBe('1');
     request.flush({ status: 'If an account uses that address, a reset link is on its way.' }, { status: 202, statusText: 'Accepted' });
-    await fixture.whenStable();
+    await settle();
     const status = root.querySelector('[role="status"]')?.textContent ?? '';
     expect(status).toContain('If an account uses designer@tallowmere.example');
     expect(root.querySelector('form')).toBeNull();
@@ -76,7 +77,7 @@ describe('ForgotPasswordPage', () => {
       { error: { code: 'rate_limited', message: 'Too many reset requests. Please wait a few minutes and try again.' } },
       { status: 429, statusText: 'Too Many Requests' },
     );
-    await fixture.whenStable();
+    await settle();
     expect(root.querySelector('[role="alert"]')?.textContent?.trim()).toBe(
       'Too many reset requests. Please wait a few minutes and try again.',
     );

@@ -6,6 +6,7 @@ import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { HardpointTable } from '../axle-design/hardpoint-table';
 import { Linkage3d } from './linkage-3d';
 import { linkagePairs } from './linkage-pairs';
+import { settle } from '../../../testing/settle';
 
 /** The editor's wiring of the 3D view and the hardpoint table (axle-design-page.html): one selected key, both ways. */
 @Component({
@@ -24,7 +25,7 @@ class Host {
 async function setUp() {
   const fixture = TestBed.createComponent(Host);
   fixture.detectChanges();
-  await fixture.whenStable();
+  await settle();
   const view = fixture.debugElement.query(By.directive(Linkage3d)).componentInstance as Linkage3d;
   return { fixture, el: fixture.nativeElement as HTMLElement, view };
 }
@@ -35,7 +36,7 @@ describe('Linkage3d with the hardpoint table', () => {
     expect(el.querySelector('tr.rw-selected')).toBeNull();
     view.picked.emit('points.upperOuter');
     fixture.detectChanges();
-    await fixture.whenStable();
+    await settle();
     const rows = el.querySelectorAll('tr.rw-selected');
     expect(rows).toHaveLength(1);
     expect(rows[0]!.getAttribute('data-key')).toBe('points.upperOuter');
@@ -47,7 +48,7 @@ describe('Linkage3d with the hardpoint table', () => {
     const { fixture, el } = await setUp();
     el.querySelector<HTMLElement>('tr[data-key="points.lowerOuter"] th')!.click();
     fixture.detectChanges();
-    await fixture.whenStable();
+    await settle();
     expect(fixture.componentInstance.selected()).toBe('points.lowerOuter');
     expect(el.querySelector('[data-testid="picked-point"]')!.textContent).toBe('Lower ball joint');
     expect(el.querySelector('tr.rw-selected')!.getAttribute('data-key')).toBe('points.lowerOuter');
