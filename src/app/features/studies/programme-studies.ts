@@ -21,7 +21,7 @@ type State = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 
     } @else if (s.kind === 'error') {
       <p class="rw-error" role="alert">The attached studies could not be loaded: {{ s.message }}</p>
     } @else if (s.value.teams.length === 0) {
-      <p class="rw-muted">No team has accepted yet.</p>
+      <p class="rw-muted">No team is on the board yet, so no study is attached.</p>
     } @else {
       <table class="rw-table" aria-label="Latest attached study per team" data-testid="programme-studies">
         <thead>
