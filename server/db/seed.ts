@@ -119,7 +119,7 @@ export const DEMO_TEAMS: DemoTeam[] = [
             action: 'approve',
             by: 'reviewer@tallowmere.example',
             message: 'Balance as intended for the smooth circuits',
-            acknowledge: 'Known from last season: bush compliance is part of the balance we set on track; rig check of the bushes booked before release',
+            acknowledge: 'Reviewed at the chassis meeting: accepted for the smooth circuits, to be checked on the rig before release',
           },
         ],
       },

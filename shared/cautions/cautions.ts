@@ -151,8 +151,11 @@ export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-ste
   },
   'compliance-steer-rivals': {
     unit: 'ratio',
-    basis: 'common practice (the Bundorf understeer budget of a road car, after Bundorf & Leffert, SAE 760713: compliance steer terms are of the same order as roll steer)',
-    defaults: { warning: 0.5, critical: 1 },
+    basis:
+      'the Bundorf understeer budget of a road car (after Bundorf & Leffert, SAE 760713): its elastic steer is 1.7 times its roll steer at the front ' +
+      'and 1.25 times at the rear, so a ratio of that order is ordinary and only noted; a ratio of 3 or more (product default) means the bushes, ' +
+      'not the link heights, set the axle steer in a corner. Not a hazard in itself, so never critical',
+    defaults: { info: 1, warning: 3 },
   },
 };
 
@@ -328,7 +331,7 @@ export function evaluateCautions(inputs: CautionInputs): Caution[] {
   if (inputs.complianceRatio !== null) {
     out.push(
       measured('compliance-steer-rivals', inputs.complianceRatio, inputs, () =>
-        `Elastic steer under lateral force${inputs.complianceSource === 'computed' ? " (computed from the corner's bushings)" : ''} is ${fmt(inputs.complianceRatio ?? 0, 2)} times the kinematic roll steer of this axle: the rigid-link result alone does not set the balance.`,
+        `Elastic steer under lateral force${inputs.complianceSource === 'computed' ? " (computed from the corner's bushings)" : ''} is ${fmt(inputs.complianceRatio ?? 0, 2)} times the kinematic roll steer of this axle: a change of the link heights moves this axle's steer in a corner less than the rigid-link figures alone suggest, so confirm the bush rates on a rig before relying on the roll-steer intent.`,
       ),
     );
   } else if (p.road && !inputs.complianceKnown) {

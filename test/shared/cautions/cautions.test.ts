@@ -114,6 +114,19 @@ describe('caution rules', () => {
     expect(codes(quiet({ profile: resolveTrackProfile('rough-road'), rollSteerCoefficient: 0.01 })).some((c) => c.startsWith('long-travel'))).toBe(false);
   });
 
+  it('compliance steer on the published road car is noted, never warned of or critical', () => {
+    // Bundorf analysis table (Wikipedia, "Bundorf analysis", after Bundorf & Leffert, SAE 760713), deg/g:
+    // front roll steer 0.6, compliance steer 0.3 (lateral force) + 0.7 (aligning torque);
+    // rear roll steer −0.4, compliance steer −0.1 + 0.6. An ordinary production car must not read as a hazard.
+    const front = Math.abs(0.3 + 0.7) / Math.abs(0.6);
+    const rear = Math.abs(-0.1 + 0.6) / Math.abs(-0.4);
+    expect(codes(quiet({ axle: 'front', complianceRatio: front }))).toContain('compliance-steer-rivals:info');
+    expect(codes(quiet({ axle: 'rear', complianceRatio: rear }))).toContain('compliance-steer-rivals:info');
+    // However large the ratio, elastic steer is a statement of what steers the axle, not a danger.
+    expect(codes(quiet({ complianceRatio: 50 }))).toContain('compliance-steer-rivals:warning');
+    expect(thresholdsFor('compliance-steer-rivals', 'smooth-circuit').critical).toBeUndefined();
+  });
+
   it('road profiles without compliance data get the unmodelled-compliance notice', () => {
     expect(codes(quiet({ profile: resolveTrackProfile('rough-road') }))).toContain('compliance-steer-unmodelled:info');
     expect(codes(quiet({ profile: resolveTrackProfile('rough-road'), complianceKnown: true }))).not.toContain('compliance-steer-unmodelled:info');
