@@ -419,7 +419,7 @@ beforeAll(async () => {
   const r = await user.post('/api/auth/register').send({ email: 'fuzz@fuzz.example', password: 'long-enough-pass', displayName: 'Fuzz Runner' });
   expect(r.status, JSON.stringify(r.body)).toBe(201);
   // Every base request is valid: the mutations start from something that works. Checked on an app with
-  // the product's default time limit: the fuzzing app's 3 s limit (which keeps runaway mutations short)
+  // the tests' default time limit (helpers.ts): the fuzzing app's 3 s limit (which keeps runaway mutations short)
   // also counts a worker thread loading the engines, which on a busy machine can take longer than that.
   const checker = await startTestApp();
   try {

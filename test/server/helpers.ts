@@ -19,7 +19,9 @@ export interface TestApp {
 }
 
 export function testConfig(databaseUrl: string, overrides: Partial<Config> = {}): Config {
-  return { ...loadConfig({ NODE_ENV: 'test' }), databaseUrl, staticDir: '/nonexistent-rollwise-static', ...overrides };
+  // The 10 s compute limit guards a server against costly requests; a test that is not about it must not fail because a
+  // loaded CI machine computes slowly (a demo snapshot's recompute took over 10 s at load 18). Tests of the limit set their own.
+  return { ...loadConfig({ NODE_ENV: 'test' }), databaseUrl, staticDir: '/nonexistent-rollwise-static', computeTimeLimitMs: 60_000, ...overrides };
 }
 
 /**
