@@ -42,6 +42,9 @@ export async function startE2eApp(): Promise<E2eApp> {
     logLevel: 'silent',
     production: false,
     fakeSmtp: true,
+    // No browser test is about the 10 s compute limit: a loaded CI machine must not turn a slow
+    // configuration analysis into a missing result (the server tests of the limit set their own).
+    computeTimeLimitMs: 60_000,
   });
   return { baseUrl: server.url, databaseUrl, stop: () => server.close() };
 }
