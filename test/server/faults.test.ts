@@ -159,7 +159,7 @@ describe('a solve past its time limit', () => {
     user = (await registerUser(t.app)).agent;
     // Set-up only waits for the first worker to load the engines: up to 60 s on a loaded CI machine.
     await quickAnswers(600);
-  });
+  }, 120_000);
 
   /** A quick call answers once a worker has loaded the engines (about a second, more than LIMIT_MS). */
   async function quickAnswers(tries = 100): Promise<number> {
