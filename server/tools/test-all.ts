@@ -2,16 +2,16 @@
  * `npm test`: every suite on one throwaway PostgreSQL cluster, then one plain
  * closing line `N passed, N failed` summed over all runners.
  *
- * Two lanes run side by side (on 2 cores the unit run waits on PostgreSQL and
- * HTTP as much as it computes, so the other lane fills the gaps):
- *   lane 1: vitest: engine (shared) and API (server, real PostgreSQL)
- *   lane 2: type check of shared/, server/ and test/ (tsc), shared/ again under
- *           tsconfig.shared.json's stricter options, then the Angular
- *           component specs (ng test: vitest + jsdom), then the production
- *           build of the app
- * and, once both lanes are done, the browser tests (playwright-core +
- * Chromium) against that build, alone on the machine.
- *
+ * Two lanes run side by side on one cluster (on 2 cores each waits on
+ * PostgreSQL, HTTP or the browser as much as it computes, so the other lane
+ * fills the gaps):
+ *   lane 1: vitest: engine (shared) and API (server, real PostgreSQL), then
+ *           the type check of shared/, server/ and test/ (tsc), shared/ again
+ *           under tsconfig.shared.json's stricter options, then the Angular
+ *           component specs (ng test: vitest + jsdom)
+ *   lane 2: the production build of the app, then the browser tests
+ *           (playwright-core + Chromium) against it, the longest chain, so it
+ *           starts at once
  * Each runner's output is held back and printed whole when it ends, under
  * its own heading, so two runners never interleave; a live line says when
  * each starts and ends. A step that fails without reporting tests (a type
@@ -118,16 +118,21 @@ async function vitest(step: string, projects: string[]): Promise<Tally> {
   return vitestTally(step, out, await runner(step, bin('vitest'), args));
 }
 
-/** Lane 2: type check, component specs, then the build the browser tests need; true when the build succeeded. */
-async function checksAndBuild(): Promise<boolean> {
+/** Lane 1: the engine and API tests, the type checks, then the component specs. */
+async function unitAndChecks(): Promise<void> {
+  tallies.push(await vitest('unit', ['shared', 'server']));
   tallies.push(wholeTally('type check', await runner('type check', bin('tsc'), ['-p', 'tsconfig.node.json'])));
   // shared/ again under the stricter options (noUncheckedIndexedAccess, exactOptionalPropertyTypes).
   tallies.push(wholeTally('strict shared', await runner('strict shared', bin('tsc'), ['-p', 'tsconfig.shared.json'])));
   tallies.push(ngTally(await runner('angular specs', bin('ng'), ['test', '--watch=false'])));
+}
+
+/** Lane 2: the build the browser tests need, then the browser tests (none when the build fails: it counts as a failure). */
+async function buildAndBrowser(): Promise<void> {
   const build = await runner('app build', bin('ng'), ['build', '--configuration', 'production']);
   // A good build is no test of its own (it counts nothing), but its time is in the summary.
   tallies.push(build.code === 0 ? { step: 'app build', passed: 0, failed: 0, seconds: build.seconds } : wholeTally('app build', build));
-  return build.code === 0;
+  if (build.code === 0) tallies.push(await vitest('e2e', ['e2e']));
 }
 
 async function main(): Promise<number> {
@@ -135,15 +140,13 @@ async function main(): Promise<number> {
   const cluster = await startThrowawayCluster('postgres_probe');
   env['ROLLWISE_TEST_PG_PORT'] = String(cluster.port);
   try {
-    const [unit, built] = await Promise.all([vitest('unit', ['shared', 'server']), checksAndBuild()]);
-    tallies.unshift(unit);
-    if (built) tallies.push(await vitest('e2e', ['e2e']));
+    await Promise.all([unitAndChecks(), buildAndBrowser()]);
   } finally {
     cluster.remove();
   }
   const passed = tallies.reduce((s, t) => s + t.passed, 0);
   const failed = tallies.reduce((s, t) => s + t.failed, 0);
-  console.log('\n[rollwise] summary (lane 1 and lane 2 ran side by side, then the browser tests)');
+  console.log('\n[rollwise] summary (lane 1: unit, type checks, component specs; lane 2, beside it: build, browser tests)');
   for (const t of tallies) {
     const counts = t.step === 'app build' && t.failed === 0 ? 'built' : `${t.passed} passed, ${t.failed} failed`;
     console.log(`  ${t.step.padEnd(16)} ${counts} in ${t.seconds} s`);
