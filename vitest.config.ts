@@ -40,7 +40,9 @@ export default defineConfig({
           environment: 'node',
           globalSetup: ['test/support/pg-global-setup.ts'],
           fileParallelism: false,
-          testTimeout: 90_000,
+          // A hang guard, not a speed check: the longest walk (review, four people) took over 90 s at load 12,
+          // and the browser tests now run beside the unit tests.
+          testTimeout: 180_000,
           hookTimeout: 120_000,
         },
       },

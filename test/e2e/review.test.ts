@@ -3,8 +3,9 @@
  * checked"): the demo designer makes a configuration of TUR-26 Ember and
  * submits it; the reviewer, in another browser context, comments on the
  * understeer budget and requests changes; the designer revises it (the rear
- * design with the toe link raised) and submits again; the reviewer approves
- * and releases it, and sees the approval snapshot beside its recompute; the
+ * design with the toe link lowered) and submits again; the reviewer signs it
+ * off, which the gate refuses until the Critical rear roll oversteer has a
+ * written reason, releases it, and sees the approval snapshot beside its recompute; the
  * reviewer and the designer each find their review mails in their own
  * development mailbox, and the team owner finds none of them. Every page
  * ends without console errors or requests leaving 127.0.0.1, and passes the
@@ -12,12 +13,14 @@
  */
 import type { Locator, Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+import { consoleErrors, copyOfDemoDesign, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
 const NAME = 'Ember review walk';
-const COMMENT = 'The rear roll-steer term of the budget looks small for the bumpy tracks.';
+/** The designer's new rear design: the toe link's inner end 6 mm lower, which steers the rear axle out of the turn as the body rolls. */
+const LOWERED = 'Rear, toe link inner 6 mm lower';
+const COMMENT = 'The car pushes mid-corner on the bumpy tracks; the rear roll-steer term of the budget could free it.';
 
 /** Waits until the results and the cautions of the configuration page are in. */
 async function settled(page: Page): Promise<void> {
@@ -66,6 +69,9 @@ describe('Configuration review in Chromium', () => {
     // The designer makes the configuration from the team dashboard and submits it.
     const designer = await env.browser.newPage();
     await signIn(designer, env.app.baseUrl, 'designer@tallowmere.example');
+    await copyOfDemoDesign(designer, env.app.baseUrl, { team: 'Tallowmere University Racing', vehicle: 'TUR-26 Ember', design: 'Rear baseline' }, LOWERED, (c) => {
+      c.points['tieRodInner']![2] -= 6;
+    });
     await designer.goto(env.app.baseUrl + '/teams');
     await designer.getByRole('link', { name: /Tallowmere/ }).first().click();
     await designer.getByRole('link', { name: 'Configurations and review' }).click();
@@ -116,7 +122,7 @@ describe('Configuration review in Chromium', () => {
     // A change request needs words; with them it goes through.
     await reviewer.getByRole('button', { name: 'Return for rework' }).click();
     await reviewer.getByText('Say what needs rework').waitFor();
-    await reviewer.getByLabel(/Message with the review step/).fill('Raise the rear toe link');
+    await reviewer.getByLabel(/Message with the review step/).fill('Lower the rear toe link');
     await reviewer.getByRole('button', { name: 'Return for rework' }).click();
     await expectStatus(reviewer, 'Returned for rework');
     expect(await seriousA11yViolations(reviewer)).toEqual([]);
@@ -127,17 +133,17 @@ describe('Configuration review in Chromium', () => {
     await settled(designer);
     await expectStatus(designer, 'Returned for rework');
     const designerThread = designer.locator('.rw-thread').filter({ hasText: COMMENT });
-    await designerThread.getByLabel('Reply', { exact: true }).fill('Raised the rear toe link inner point by 6 mm.');
+    await designerThread.getByLabel('Reply', { exact: true }).fill('Lowered the rear toe link inner point by 6 mm.');
     await designerThread.getByRole('button', { name: 'Reply' }).click();
-    await designerThread.getByText('Raised the rear toe link inner point by 6 mm.', { exact: true }).waitFor();
+    await designerThread.getByText('Lowered the rear toe link inner point by 6 mm.', { exact: true }).waitFor();
     await designer.getByRole('button', { name: 'Make a new revision' }).click();
-    await designer.getByLabel('Rear axle design', { exact: true }).selectOption({ label: 'Rear, toe link inner +6 mm (now revision 1)' });
-    await designer.getByLabel('Message (what changed)').fill('Rear toe link inner +6 mm');
+    await designer.getByLabel('Rear axle design', { exact: true }).selectOption({ label: `${LOWERED} (now revision 1)` });
+    await designer.getByLabel('Message (what changed)').fill('Rear toe link inner 6 mm lower');
     await designer.getByRole('button', { name: 'Save new revision' }).click();
     await designer.getByText('Saved as revision 2; the configuration is a draft again.').waitFor();
     await expectStatus(designer, 'Draft');
     await settled(designer);
-    expect(await designer.getByTestId('inputs').innerText()).toContain('Rear, toe link inner +6 mm, revision 1');
+    expect(await designer.getByTestId('inputs').innerText()).toContain(`${LOWERED}, revision 1`);
     // Compare the first revision with the new one: the toe link's inner height changed, and the roll-steer term with it.
     await designer.getByRole('button', { name: 'Compare revision 1 with the current one' }).click();
     const comparison = designer.getByTestId('comparison');
@@ -152,13 +158,17 @@ describe('Configuration review in Chromium', () => {
     await reviewer.reload();
     await settled(reviewer);
     await expectStatus(reviewer, 'In review');
-    await reviewer.getByLabel(/Message with the review step/).fill('Rear roll understeer as asked');
+    await reviewer.getByLabel(/Message with the review step/).fill('Rear roll steer as asked');
     await reviewer.getByRole('button', { name: 'Sign off' }).click();
-    // The sign-off gate: a written reason for each Critical caution the server measured, in the dialog.
+    // The sign-off gate: a written reason for each Critical caution the server measured, in the dialog. The lowered
+    // rear toe link is rear roll oversteer (common practice: it lowers stability as cornering builds), a Critical caution.
     const gate = reviewer.getByRole('dialog');
     await gate.getByRole('heading', { name: /^Sign off / }).waitFor();
+    await gate.locator('.rw-gate-item[data-axle="rear"][data-code="rear-roll-oversteer"]').waitFor();
+    // Refused while a reason is missing: the dialog's Sign off stays inactive.
+    expect(await gate.getByRole('button', { name: 'Sign off' }).isDisabled()).toBe(true);
     const reasons = gate.getByRole('textbox');
-    for (let i = 0; i < (await reasons.count()); i++) await reasons.nth(i).fill('Accepted for the circuit car; checked on the rig before release');
+    for (let i = 0; i < (await reasons.count()); i++) await reasons.nth(i).fill('Accepted for the bumpy tracks; step-steer check on the skid pad before release');
     await gate.getByRole('button', { name: 'Sign off' }).click();
     await expectStatus(reviewer, 'Signed off');
     const approval = reviewer.getByTestId('approval');

@@ -175,13 +175,15 @@ export async function seriousA11yViolations(page: Page): Promise<string[]> {
  * A new axle design, a copy of a demo design's corner, made through the API as the person
  * signed in on `page` (its context's cookies): a test that edits and saves works on its own
  * design, so no test depends on what another one saved, and any test runs alone or in any
- * order. Returns the design's path in the app (`/teams/…/vehicles/…/axle-designs/…`).
+ * order. `edit` changes the copied corner first (a moved point). Returns the design's path in
+ * the app (`/teams/…/vehicles/…/axle-designs/…`).
  */
 export async function copyOfDemoDesign(
   page: Page,
   baseUrl: string,
   from: { team: string; vehicle: string; design: string },
   name: string,
+  edit?: (corner: { points: Record<string, [number, number, number]> }) => void,
 ): Promise<string> {
   const api = async <T>(path: string, body?: unknown): Promise<T> => {
     const headers = { 'X-Rollwise-Request': '1' };
@@ -198,6 +200,7 @@ export async function copyOfDemoDesign(
   const vehicle = byName(await api<{ id: string; name: string }[]>(`/api/teams/${team.id}/vehicles`), from.vehicle, 'vehicle');
   const designs = await api<{ id: string; name: string; axle: string }[]>(`/api/teams/${team.id}/vehicles/${vehicle.id}/axle-designs`);
   const source = await api<{ axle: string; corner: unknown }>(`/api/teams/${team.id}/axle-designs/${byName(designs, from.design, 'axle design').id}`);
+  edit?.(source.corner as { points: Record<string, [number, number, number]> });
   const created = await api<{ id: string }>(`/api/teams/${team.id}/vehicles/${vehicle.id}/axle-designs`, { axle: source.axle, name, corner: source.corner });
   return `/teams/${team.id}/vehicles/${vehicle.id}/axle-designs/${created.id}`;
 }
