@@ -139,7 +139,9 @@ export const CAUTION_RULES: Readonly<Record<Exclude<CautionCode, 'compliance-ste
   'roll-steer-curvature': {
     unit: 'deg/deg',
     basis:
-      'common practice (product default): the loaded outside wheel sets most of the axle side force, so a curved toe line changes the effective roll steer between turn-in and mid-corner',
+      'common practice (product default): the loaded outside wheel sets most of the axle side force, so a curved toe line changes the effective roll steer between turn-in and mid-corner; ' +
+      'a change toward oversteer as the roll builds takes stability away once the driver is committed and is judged on these thresholds, while a change toward understeer ' +
+      '(the progressive toe-in of an ordinary road car’s rear axle) makes the car steadier and is only noted',
     defaults: { warning: 0.01, critical: 0.025 },
   },
   'lock-bump-steer-spread': {
@@ -316,11 +318,17 @@ export function evaluateCautions(inputs: CautionInputs): Caution[] {
       ),
     );
   }
-  out.push(
-    measured('roll-steer-curvature', Math.abs(inputs.rollSteerCurvatureChange), inputs, () =>
-      `The toe line is curved: the loaded outside wheel's roll steer changes by ${fmt(inputs.rollSteerCurvatureChange)} deg/deg between 0° and ${fmt(inputs.referenceRollDeg, 1)}° of roll, so the balance shifts between turn-in and mid-corner.`,
-    ),
-  );
+  {
+    // ε's sign (domain.md): positive is roll understeer at the front and roll oversteer at the rear.
+    const change = inputs.rollSteerCurvatureChange;
+    const towardOversteer = inputs.axle === 'front' ? change < 0 : change > 0;
+    const c = measured('roll-steer-curvature', Math.abs(change), inputs, () =>
+      towardOversteer
+        ? `The toe line is curved: the loaded outside wheel's roll steer changes by ${fmt(change)} deg/deg between 0° and ${fmt(inputs.referenceRollDeg, 1)}° of roll, toward oversteer, so the car loses stability as cornering builds, after turn-in.`
+        : `The toe line is curved: the loaded outside wheel's roll steer changes by ${fmt(change)} deg/deg between 0° and ${fmt(inputs.referenceRollDeg, 1)}° of roll, toward understeer, so the car grows steadier as cornering builds (information: the balance shifts between turn-in and mid-corner).`,
+    );
+    out.push(c && !towardOversteer ? { ...c, level: 'info' } : c);
+  }
   if (inputs.steered) {
     out.push(
       measured('lock-bump-steer-spread', inputs.lockBumpSteerSpreadDegPerM, inputs, () =>

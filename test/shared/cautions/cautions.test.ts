@@ -76,7 +76,8 @@ describe('caution rules', () => {
     ['front-roll-steer-feel', (v) => ({ rollSteerCoefficient: v }), { axle: 'front' }],
     ['long-travel-roll-steer', (v) => ({ rollSteerCoefficient: -v }), { profile: resolveTrackProfile('off-road') }],
     ['rear-roll-oversteer', (v) => ({ rollSteerCoefficient: v }), { axle: 'rear' }],
-    ['roll-steer-curvature', (v) => ({ rollSteerCurvatureChange: -v }), {}],
+    // Rear axle: a positive change of ε is toward roll oversteer (domain.md), the direction judged on the thresholds.
+    ['roll-steer-curvature', (v) => ({ rollSteerCurvatureChange: v }), {}],
     ['lock-bump-steer-spread', (v) => ({ lockBumpSteerSpreadDegPerM: v, lockBumpSteerRackMm: 30 }), {}],
     ['compliance-steer-rivals', (v) => ({ complianceRatio: v }), {}],
   ];
@@ -112,6 +113,17 @@ describe('caution rules', () => {
     expect(long.longTravel).toBe(true);
     expect(codes(quiet({ profile: long, rollSteerCoefficient: 0.01 }))).toContain('long-travel-roll-steer:warning');
     expect(codes(quiet({ profile: resolveTrackProfile('rough-road'), rollSteerCoefficient: 0.01 })).some((c) => c.startsWith('long-travel'))).toBe(false);
+  });
+
+  it('a toe line curving toward understeer as the body rolls is noted, never warned of', () => {
+    // Sign convention (domain.md): positive ε is roll understeer at the front, roll oversteer at the rear.
+    // A progressive rear toe-in in bump (common practice on road cars' rear axles) curves the rear toward understeer.
+    expect(codes(quiet({ axle: 'rear', rollSteerCurvatureChange: -0.04 }))).toContain('roll-steer-curvature:info');
+    expect(codes(quiet({ axle: 'rear', rollSteerCurvatureChange: 0.04 }))).toContain('roll-steer-curvature:critical');
+    expect(codes(quiet({ axle: 'front', rollSteerCurvatureChange: 0.04 }))).toContain('roll-steer-curvature:info');
+    expect(codes(quiet({ axle: 'front', rollSteerCurvatureChange: -0.04 }))).toContain('roll-steer-curvature:critical');
+    // Below the lowest threshold nothing is said, whichever the direction.
+    expect(codes(quiet({ axle: 'rear', rollSteerCurvatureChange: -0.005 })).some((c) => c.startsWith('roll-steer-curvature'))).toBe(false);
   });
 
   it('compliance steer on the published road car is noted, never warned of or critical', () => {
