@@ -28,6 +28,11 @@ const commands: Record<string, { help: string; load: () => Promise<Command> }> =
 /** Runs one command line (`argv` without node and the script: `['sweep', '--corner', …]`); resolves with the exit code. */
 export async function runRollwise(argv: readonly string[], io: CliIo = processIo): Promise<number> {
   const [name, ...rest] = argv;
+  if (name === 'help' || name === '--help' || name === '-h') {
+    io.stdout('Usage: npm run --silent rollwise -- COMMAND [FLAGS]  (JSON on stdout; messages on stderr; exit 2 on bad input)\nCommands:\n');
+    for (const c of Object.values(commands)) io.stdout(`  ${c.help}\n`);
+    return 0;
+  }
   const cmd = name ? commands[name] : undefined;
   if (!cmd) {
     io.stderr(`rollwise: ${name ? `unknown command "${name}"` : 'no command given'}\nCommands:\n`);
