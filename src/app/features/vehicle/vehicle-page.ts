@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
 import { DatePipe } from '@angular/common';
 import { AbstractControl, FormControl, FormGroup, ReactiveFormsModule, ValidationErrors } from '@angular/forms';
 import { RouterLink } from '@angular/router';
@@ -7,17 +7,17 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import { MatCheckbox } from '@angular/material/checkbox';
 import { MatButtonToggle, MatButtonToggleGroup } from '@angular/material/button-toggle';
-import { firstValueFrom, map, merge } from 'rxjs';
+import { catchError, firstValueFrom, forkJoin, map, merge, of, switchMap } from 'rxjs';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { unusualValue, vehicleRangeFor } from '../../../../shared/schema/ranges';
 import { AuthService } from '../../core/auth/auth-service';
 import { apiProblem } from '../../core/http/api-error';
+import { loadState } from '../../core/http/load-state';
 import { TeamAccess } from '../../core/teams/team-access';
-import { AxleDesignSummary, FeaturesApi, RevisionRow, VehicleRecord } from '../features-api';
+import { FeaturesApi, RevisionRow, VehicleRecord } from '../features-api';
 import { parseDecimal } from '../axle-design/hardpoint-io';
 import { ALL_VEHICLE_FIELDS, readPath, VEHICLE_FIELD_GROUPS, VehicleField, writePath } from './vehicle-fields';
-import { routeKey } from '../route-params';
-import { toSignal } from '@angular/core/rxjs-interop';
+import { rxResource, toSignal } from '@angular/core/rxjs-interop';
 
 type Units = 'si' | 'imperial';
 type UnitsModule = typeof import('../../../../shared/schema/units');
@@ -65,14 +65,35 @@ export class VehiclePage {
   readonly vehicleId = input.required<string>();
 
   protected readonly groups = VEHICLE_FIELD_GROUPS;
-  protected readonly loading = signal(true);
-  protected readonly loadError = signal<string | null>(null);
-  protected readonly vehicle = signal<VehicleRecord | null>(null);
-  protected readonly designs = signal<readonly AxleDesignSummary[] | null>(null);
-  protected readonly designsError = signal<string | null>(null);
-  protected readonly revisions = signal<readonly RevisionRow[]>([]);
   protected readonly units = signal<Units>('si');
   private unitsModule: UnitsModule | null = null;
+
+  /** The vehicle as stored, with the team's permissions (and the unit table when the user reads inch/pound). */
+  private readonly loaded = rxResource({
+    params: () => ({ teamId: this.teamId(), vehicleId: this.vehicleId() }),
+    stream: ({ params: p }) =>
+      forkJoin([this.api.vehicle(p.teamId, p.vehicleId), this.access.load(p.teamId)]).pipe(
+        switchMap(async ([vehicle]) => {
+          if (this.auth.displayUnits() === 'imperial') await this.useUnits('imperial', false);
+          return vehicle;
+        }),
+      ),
+  });
+  protected readonly state = loadState(this.loaded);
+  /** The revision the form was filled from: the one loaded, then the one saved or taken over. */
+  protected readonly vehicle = linkedSignal<VehicleRecord | null>(() => (this.loaded.hasValue() ? this.loaded.value() : null));
+
+  private readonly designList = rxResource({
+    params: () => ({ teamId: this.teamId(), vehicleId: this.vehicleId() }),
+    stream: ({ params: p }) => this.api.axleDesigns(p.teamId, p.vehicleId),
+  });
+  protected readonly designs = loadState(this.designList);
+
+  private readonly revisionList = rxResource({
+    params: () => ({ teamId: this.teamId(), vehicleId: this.vehicleId() }),
+    stream: ({ params: p }) => this.api.vehicleRevisions(p.teamId, p.vehicleId).pipe(catchError(() => of([] as RevisionRow[]))),
+  });
+  protected readonly revisions = computed<readonly RevisionRow[]>(() => (this.revisionList.hasValue() ? this.revisionList.value() : []));
 
   protected readonly saving = signal(false);
   protected readonly saveError = signal<string | null>(null);
@@ -86,8 +107,12 @@ export class VehiclePage {
   protected readonly rollGravityTerm = new FormControl<boolean>(true, { nonNullable: true });
   protected readonly message = new FormControl<string>('', { nonNullable: true });
 
-  protected readonly frontDesigns = computed(() => (this.designs() ?? []).filter((d) => d.axle === 'front'));
-  protected readonly rearDesigns = computed(() => (this.designs() ?? []).filter((d) => d.axle === 'rear'));
+  private readonly designsShown = computed(() => {
+    const d = this.designs();
+    return d.status === 'ready' ? d.value : [];
+  });
+  protected readonly frontDesigns = computed(() => this.designsShown().filter((d) => d.axle === 'front'));
+  protected readonly rearDesigns = computed(() => this.designsShown().filter((d) => d.axle === 'rear'));
 
   /**
    * The form's state as a signal, read again from the form on each of its
@@ -103,12 +128,11 @@ export class VehiclePage {
   readonly dirty = computed(() => this.formState().dirty);
 
   constructor() {
-    // Loads on arrival and again when the router reuses this page for other route parameters.
+    // Each loaded vehicle (on arrival, and when the router reuses this page for another vehicle) fills the form.
     effect(() => {
-      routeKey(this.teamId(), this.vehicleId());
-      untracked(() => {
-        void this.load();
-      });
+      if (!this.loaded.hasValue()) return;
+      const vehicle = this.loaded.value();
+      untracked(() => this.adopt(vehicle));
     });
     for (const field of ALL_VEHICLE_FIELDS) {
       this.form.addControl(
@@ -126,42 +150,6 @@ export class VehiclePage {
   /** Closing or reloading the tab with unsaved entries asks first. */
   protected warnBeforeUnload(event: BeforeUnloadEvent): void {
     if (this.dirty()) event.preventDefault();
-  }
-
-  private async load(): Promise<void> {
-    this.loading.set(true);
-    try {
-      const [vehicle] = await Promise.all([
-        firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId())),
-        firstValueFrom(this.access.load(this.teamId())),
-      ]);
-      if (this.auth.displayUnits() === 'imperial') await this.useUnits('imperial', false);
-      this.adopt(vehicle);
-      this.loadError.set(null);
-    } catch (error) {
-      this.loadError.set(apiProblem(error).message);
-    } finally {
-      this.loading.set(false);
-    }
-    void this.loadDesigns();
-    void this.loadRevisions();
-  }
-
-  private async loadDesigns(): Promise<void> {
-    try {
-      this.designs.set(await firstValueFrom(this.api.axleDesigns(this.teamId(), this.vehicleId())));
-      this.designsError.set(null);
-    } catch (error) {
-      this.designsError.set(apiProblem(error).message);
-    }
-  }
-
-  private async loadRevisions(): Promise<void> {
-    try {
-      this.revisions.set(await firstValueFrom(this.api.vehicleRevisions(this.teamId(), this.vehicleId())));
-    } catch {
-      this.revisions.set([]);
-    }
   }
 
   private adopt(vehicle: VehicleRecord): void {
@@ -315,7 +303,7 @@ export class VehiclePage {
       this.message.setValue('');
       this.adopt(saved);
       this.notice.set(`Saved as revision ${saved.revision}.`);
-      void this.loadRevisions();
+      this.revisionList.reload();
     } catch (error) {
       const problem = apiProblem(error);
       if (problem.status === 409) {
@@ -346,7 +334,7 @@ export class VehiclePage {
     this.stale.set(null);
     this.adopt(theirs);
     this.notice.set(`Showing revision ${theirs.revision}.`);
-    void this.loadRevisions();
+    this.revisionList.reload();
   }
 
   protected discard(): void {
