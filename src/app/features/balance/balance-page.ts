@@ -1,8 +1,9 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, signal } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
-import { firstValueFrom } from 'rxjs';
+import { firstValueFrom, forkJoin } from 'rxjs';
 import type { AxleLink, BalanceResponse } from '../../../../shared/balance/api';
 import type { BalanceResult } from '../../../../shared/balance/index';
 
@@ -11,13 +12,13 @@ type Evaluated = BalanceResult & { kinematicsLink: { front: AxleLink; rear: Axle
 import type { Corner } from '../../../../shared/schema/corner';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { apiProblem } from '../../core/http/api-error';
+import { loadState } from '../../core/http/load-state';
 import { BarChart } from '../../charts/bar-chart';
 import { LineChart } from '../../charts/line-chart';
 import { BarGroup, LineSeries } from '../../charts/chart-types';
-import { AxleDesignSummary, FeaturesApi, VehicleRecord } from '../features-api';
+import { AxleDesignSummary, FeaturesApi } from '../features-api';
 import { SafetyCaution } from '../safety-caution';
 import { NumPipe } from '../../core/format/num-pipe';
-import { routeKey } from '../route-params';
 
 const BUDGET_LABELS: readonly [keyof BalanceResponse['understeerBudget'], string][] = [
   ['tyres', 'Tyres'],
@@ -58,13 +59,29 @@ export class BalancePage {
   readonly teamId = input.required<string>();
   readonly vehicleId = input.required<string>();
 
-  protected readonly loadError = signal<string | null>(null);
-  protected readonly vehicle = signal<VehicleRecord | null>(null);
-  protected readonly designs = signal<readonly AxleDesignSummary[]>([]);
-  protected readonly baselineFront = signal('');
-  protected readonly baselineRear = signal('');
-  protected readonly variantFront = signal('');
-  protected readonly variantRear = signal('');
+  /** The vehicle and its axle designs, loaded again when the router reuses this page for another vehicle. */
+  private readonly loaded = rxResource({
+    params: () => ({ teamId: this.teamId(), vehicleId: this.vehicleId() }),
+    stream: ({ params: p }) =>
+      forkJoin({ vehicle: this.api.vehicle(p.teamId, p.vehicleId), designs: this.api.axleDesigns(p.teamId, p.vehicleId) }),
+  });
+  protected readonly state = loadState(this.loaded);
+  protected readonly vehicle = computed(() => {
+    const s = this.state();
+    return s.status === 'ready' ? s.value.vehicle : null;
+  });
+  protected readonly designs = computed<readonly AxleDesignSummary[]>(() => {
+    const s = this.state();
+    return s.status === 'ready' ? s.value.designs : [];
+  });
+  protected readonly fronts = computed(() => this.designs().filter((d) => d.axle === 'front'));
+  protected readonly rears = computed(() => this.designs().filter((d) => d.axle === 'rear'));
+  // The choices start from the loaded designs: baseline and variant on the first front design,
+  // the baseline on the first rear design and the variant on the second.
+  protected readonly baselineFront = linkedSignal(() => this.fronts()[0]?.id ?? '');
+  protected readonly baselineRear = linkedSignal(() => this.rears()[0]?.id ?? '');
+  protected readonly variantFront = linkedSignal(() => this.fronts()[0]?.id ?? '');
+  protected readonly variantRear = linkedSignal(() => this.rears()[1]?.id ?? '');
   protected readonly speedKph = signal('80');
   protected readonly radiusM = signal('40');
 
@@ -72,8 +89,6 @@ export class BalancePage {
   protected readonly failure = signal<string | null>(null);
   protected readonly result = signal<BalanceResponse | null>(null);
 
-  protected readonly fronts = computed(() => this.designs().filter((d) => d.axle === 'front'));
-  protected readonly rears = computed(() => this.designs().filter((d) => d.axle === 'rear'));
   protected readonly vehicleProblem = computed(() => {
     const v = this.vehicle();
     if (!v) return null;
@@ -157,35 +172,6 @@ export class BalancePage {
       points: value.map((h) => ({ x: h.tS, y: h.yawRateDegPerS })),
     })),
   );
-
-  constructor() {
-    // Loads on arrival and again when the router reuses this page for other route parameters.
-    effect(() => {
-      routeKey(this.teamId(), this.vehicleId());
-      untracked(() => {
-        void this.load();
-      });
-    });
-  }
-
-  private async load(): Promise<void> {
-    try {
-      const [vehicle, designs] = await Promise.all([
-        firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId())),
-        firstValueFrom(this.api.axleDesigns(this.teamId(), this.vehicleId())),
-      ]);
-      this.vehicle.set(vehicle);
-      this.designs.set(designs);
-      const front = designs.find((d) => d.axle === 'front');
-      const rears = designs.filter((d) => d.axle === 'rear');
-      this.baselineFront.set(front?.id ?? '');
-      this.baselineRear.set(rears[0]?.id ?? '');
-      this.variantFront.set(front?.id ?? '');
-      this.variantRear.set(rears[1]?.id ?? '');
-    } catch (error) {
-      this.loadError.set(apiProblem(error).message);
-    }
-  }
 
   private async corner(id: string): Promise<Corner | undefined> {
     if (!id) return undefined;
