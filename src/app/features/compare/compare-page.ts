@@ -1,19 +1,20 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { ActivatedRoute, Router, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
 import { apiProblem } from '../../core/http/api-error';
+import { loadState } from '../../core/http/load-state';
 import { LineChart } from '../../charts/line-chart';
 import { LineSeries } from '../../charts/chart-types';
 import { AnalysisError, KinematicsClient } from '../../workers/kinematics-client';
 import type { CornerAnalysis } from '../../workers/analysis-types';
-import { AxleDesign, AxleDesignSummary, FeaturesApi } from '../features-api';
+import { AxleDesign, FeaturesApi } from '../features-api';
 import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { formatNum } from '../../core/format/num';
 import { NumPipe } from '../../core/format/num-pipe';
-import { routeKey } from '../route-params';
 
 interface Compared {
   readonly design: AxleDesign;
@@ -58,9 +59,22 @@ export class ComparePage {
   readonly designs = input<string | undefined>(undefined);
   protected readonly maxCompared = MAX_COMPARED;
 
-  protected readonly designList = signal<readonly AxleDesignSummary[] | null>(null);
-  protected readonly loadError = signal<string | null>(null);
-  protected readonly chosen = signal<readonly string[]>([]);
+  private readonly designList = rxResource({
+    params: () => ({ teamId: this.teamId(), vehicleId: this.vehicleId() }),
+    stream: ({ params: p }) => this.api.axleDesigns(p.teamId, p.vehicleId),
+  });
+  /** The vehicle's axle designs to choose from. */
+  protected readonly state = loadState(this.designList);
+  /** Why a chosen design could not be read for the comparison. */
+  protected readonly compareError = signal<string | null>(null);
+  private readonly fromUrl = computed(() => (this.designs() ?? '').split(',').filter(Boolean), {
+    equal: (a, b) => a.join(',') === b.join(','),
+  });
+  /** The designs ticked: those in the address (again for another vehicle), until the user changes the choice. */
+  protected readonly chosen = linkedSignal<readonly string[]>(() => {
+    this.vehicleId();
+    return this.fromUrl().slice(0, MAX_COMPARED);
+  });
   protected readonly running = signal(false);
   protected readonly compared = signal<readonly Compared[]>([]);
   protected readonly travel = TRAVEL;
@@ -116,24 +130,12 @@ export class ComparePage {
   );
 
   constructor() {
-    // Loads on arrival and again when the router reuses this page for other route parameters.
+    // A shared address with two or more designs compares them once the vehicle's designs have loaded
+    // (on arrival, and when the router reuses this page for other parameters).
     effect(() => {
-      routeKey(this.teamId(), this.vehicleId());
-      const fromUrl = (this.designs() ?? '').split(',').filter(Boolean);
-      untracked(() => {
-        this.chosen.set(fromUrl.slice(0, MAX_COMPARED));
-        void this.load(fromUrl.length >= 2);
-      });
+      if (this.state().status !== 'ready' || this.fromUrl().length < 2) return;
+      untracked(() => void this.compare());
     });
-  }
-
-  private async load(runNow: boolean): Promise<void> {
-    try {
-      this.designList.set(await firstValueFrom(this.api.axleDesigns(this.teamId(), this.vehicleId())));
-      if (runNow) await this.compare();
-    } catch (error) {
-      this.loadError.set(apiProblem(error).message);
-    }
   }
 
   protected toggle(id: string, on: boolean): void {
@@ -143,6 +145,7 @@ export class ComparePage {
   protected async compare(): Promise<void> {
     if (this.choiceProblem() || this.running()) return;
     this.running.set(true);
+    this.compareError.set(null);
     void this.router.navigate([], { relativeTo: this.route, queryParams: { designs: this.chosen().join(',') }, replaceUrl: true });
     const out: Compared[] = [];
     for (const id of this.chosen()) {
@@ -162,7 +165,7 @@ export class ComparePage {
           out.push({ design, analysis: null, error: error instanceof AnalysisError ? error.message : String(error) });
         }
       } catch (error) {
-        this.loadError.set(apiProblem(error).message);
+        this.compareError.set(apiProblem(error).message);
       }
     }
     this.compared.set(out);
