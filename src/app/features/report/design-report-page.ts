@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked, ViewEncapsulation } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { DatePipe } from '@angular/common';
 import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
@@ -8,6 +9,7 @@ import type { Caution } from '../../../../shared/cautions/cautions';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { ENGINE_VERSION } from '../../../../shared/version';
 import { apiProblem } from '../../core/http/api-error';
+import { loadState } from '../../core/http/load-state';
 import { BarChart } from '../../charts/bar-chart';
 import { LineChart } from '../../charts/line-chart';
 import { BarGroup, LineSeries } from '../../charts/chart-types';
@@ -21,7 +23,6 @@ import { SafetyCaution } from '../safety-caution';
 import { BumpCostView } from '../bump-cost';
 import { DEFAULT_TRACK_PROFILE } from '../../../../shared/tracks/profiles';
 import { NumPipe } from '../../core/format/num-pipe';
-import { routeKey } from '../route-params';
 
 const TRAVEL = { from: -25, to: 25, step: 2.5 };
 const ROLL = { from: -3, to: 3, step: 0.25 };
@@ -55,8 +56,16 @@ export class DesignReportPage {
   protected readonly printedAt = new Date().toISOString();
   protected readonly travel = TRAVEL;
 
-  protected readonly loadError = signal<string | null>(null);
-  protected readonly design = signal<AxleDesign | null>(null);
+  private readonly loaded = rxResource({
+    params: () => ({ teamId: this.teamId(), designId: this.designId() }),
+    stream: ({ params: p }) => this.api.axleDesign(p.teamId, p.designId),
+  });
+  /** The design revision the report is about. */
+  protected readonly state = loadState(this.loaded);
+  protected readonly design = computed(() => {
+    const s = this.state();
+    return s.status === 'ready' ? s.value : null;
+  });
   protected readonly vehicle = signal<VehicleRecord | null>(null);
   protected readonly revisions = signal<readonly RevisionRow[]>([]);
   protected readonly analysis = signal<CornerAnalysis | null>(null);
@@ -114,24 +123,15 @@ export class DesignReportPage {
   });
 
   constructor() {
-    // Loads on arrival and again when the router reuses this page for other route parameters.
+    // Each loaded design (on arrival, and when the router reuses this page for another one) is solved and reported.
     effect(() => {
-      routeKey(this.teamId(), this.vehicleId(), this.designId());
-      untracked(() => {
-        void this.load();
-      });
+      const design = this.design();
+      if (design) untracked(() => void this.analyse(design));
     });
   }
 
-  private async load(): Promise<void> {
-    let design: AxleDesign;
-    try {
-      design = await firstValueFrom(this.api.axleDesign(this.teamId(), this.designId()));
-      this.design.set(design);
-    } catch (error) {
-      this.loadError.set(apiProblem(error).message);
-      return;
-    }
+  /** The design's kinematics (in the Web Worker), its revisions and source proposal, and the vehicle's balance with it. */
+  private async analyse(design: AxleDesign): Promise<void> {
     const stroke = design.corner.steered && design.corner.steering?.kind === 'rack' ? design.corner.steering.rackStroke : null;
     // The bump cost beside the roll steer needs the vehicle's ride data (masses, springs, dampers, tyres).
     const vehicleData = await firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId()))
