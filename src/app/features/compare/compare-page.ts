@@ -134,7 +134,9 @@ export class ComparePage {
     // (on arrival, and when the router reuses this page for other parameters).
     effect(() => {
       if (this.state().status !== 'ready' || this.fromUrl().length < 2) return;
-      untracked(() => void this.compare());
+      untracked(() => {
+        void this.compare();
+      });
     });
   }
 

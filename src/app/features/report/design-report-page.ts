@@ -126,7 +126,11 @@ export class DesignReportPage {
     // Each loaded design (on arrival, and when the router reuses this page for another one) is solved and reported.
     effect(() => {
       const design = this.design();
-      if (design) untracked(() => void this.analyse(design));
+      if (design) {
+        untracked(() => {
+          void this.analyse(design);
+        });
+      }
     });
   }
 
