@@ -7,8 +7,8 @@ import { computeBalance } from '../../../../shared/balance/api';
 import { exampleVehicles } from '../../../../shared/balance/examples';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { BalancePage } from './balance-page';
+import { settle } from '../../../testing/settle';
 
-const settle = () => new Promise((resolve) => setTimeout(resolve, 0));
 const T = '/api/teams/t-tal';
 const raised = structuredClone(exampleCorners.fsRearWishbone);
 raised.points.tieRodInner[2] += 6;
@@ -30,32 +30,48 @@ describe('BalancePage', () => {
 
   afterEach(() => backend.verify());
 
-  it('evaluates baseline and variant designs and shows the budget side by side with changes highlighted', async () => {
+  const DESIGNS = [
+    { id: 'd-front', axle: 'front', name: 'Front baseline', revision: 1, status: 'draft', updatedAt: '' },
+    { id: 'd-rear', axle: 'rear', name: 'Rear baseline', revision: 1, status: 'draft', updatedAt: '' },
+    { id: 'd-rear6', axle: 'rear', name: 'Rear +6', revision: 1, status: 'draft', updatedAt: '' },
+  ];
+
+  /** Opens the page and answers its loads; the evaluation starts by itself (no button). */
+  async function open() {
     const harness = await RouterTestingHarness.create();
     await harness.navigateByUrl('/teams/t-tal/vehicles/v-ember/balance', BalancePage);
     backend.expectOne(`${T}/vehicles/v-ember`).flush({ id: 'v-ember', name: 'TUR-26 Ember', archived: false, revision: 1, data: exampleVehicles.tur26Ember, updatedAt: '', updatedByName: null });
-    backend.expectOne(`${T}/vehicles/v-ember/axle-designs`).flush([
-      { id: 'd-front', axle: 'front', name: 'Front baseline', revision: 1, status: 'draft', updatedAt: '' },
-      { id: 'd-rear', axle: 'rear', name: 'Rear baseline', revision: 1, status: 'draft', updatedAt: '' },
-      { id: 'd-rear6', axle: 'rear', name: 'Rear +6', revision: 1, status: 'draft', updatedAt: '' },
-    ]);
+    backend.expectOne(`${T}/vehicles/v-ember/axle-designs`).flush(DESIGNS);
     await settle();
-    harness.detectChanges();
-    const root = harness.routeNativeElement as HTMLElement;
-    [...root.querySelectorAll('button')].find((b) => b.textContent?.trim() === 'Evaluate')!.click();
-    await settle();
-    for (const id of ['d-front', 'd-rear', 'd-front', 'd-rear6']) {
-      const reqs = backend.match(`${T}/axle-designs/${id}`);
-      reqs.forEach((r) => r.flush({ id, vehicleId: 'v-ember', axle: id === 'd-front' ? 'front' : 'rear', name: id, revision: 1, status: 'draft', corner: CORNERS[id], updatedAt: '', updatedByName: null }));
+    return { harness, root: harness.routeNativeElement as HTMLElement };
+  }
+
+  /** Answers the corner reads still open, then the balance request with the real engine (as the server's worker would). */
+  async function answerEvaluation() {
+    for (const id of Object.keys(CORNERS)) {
+      backend.match(`${T}/axle-designs/${id}`).forEach((r) => r.flush({ id, vehicleId: 'v-ember', axle: id === 'd-front' ? 'front' : 'rear', name: id, revision: 1, status: 'draft', corner: CORNERS[id], updatedAt: '', updatedByName: null }));
     }
     await settle();
     const req = backend.expectOne('/api/compute/balance');
-    expect(req.request.body.rearCorner).toEqual(exampleCorners.fsRearWishbone);
-    expect(req.request.body.variant.rearCorner.points.tieRodInner[2]).toBe(exampleCorners.fsRearWishbone.points.tieRodInner[2] + 6);
-    // The real balance engine answers, as the server's worker would.
     const result = computeBalance(req.request.body);
     req.flush({ engineVersion: 'test', result });
     await settle();
+    return { body: req.request.body, result };
+  }
+
+  function choose(root: HTMLElement, legend: string, label: string, optionText: string) {
+    const fieldset = [...root.querySelectorAll('fieldset')].find((f) => f.querySelector('legend')?.textContent?.trim() === legend)!;
+    const select = [...fieldset.querySelectorAll('label')].find((l) => l.textContent?.includes(label))!.querySelector('select')!;
+    select.value = [...select.options].find((o) => o.textContent?.trim() === optionText)!.value;
+    select.dispatchEvent(new Event('change'));
+  }
+
+  it('evaluates on open, without a button, baseline and variant side by side with changes highlighted', async () => {
+    const { harness, root } = await open();
+    expect([...root.querySelectorAll('button')].some((b) => b.textContent?.trim() === 'Evaluate')).toBe(false);
+    const { body, result } = await answerEvaluation();
+    expect(body.rearCorner).toEqual(exampleCorners.fsRearWishbone);
+    expect(body.variant.rearCorner.points.tieRodInner[2]).toBe(exampleCorners.fsRearWishbone.points.tieRodInner[2] + 6);
     harness.detectChanges();
 
     const rollSteerBars = root.querySelectorAll('rw-bar-chart [data-group="Roll steer"] rect');
@@ -71,5 +87,53 @@ describe('BalancePage', () => {
     expect(root.textContent).toContain('Tyre stiffness at other loads');
     expect(root.querySelectorAll('rw-line-chart').length).toBe(3);
     expect(root.querySelector('rw-safety-caution')).not.toBeNull();
+    expect(root.querySelector('[data-testid="out-of-date"]')).toBeNull();
+  });
+
+  it('names in its legend the designs actually compared: only the rear differs, so only the rear is named', async () => {
+    const { harness, root } = await open();
+    await answerEvaluation();
+    harness.detectChanges();
+    const table = root.querySelector('rw-bar-chart table') ?? root.querySelector('rw-bar-chart');
+    expect(table!.textContent).toContain('Baseline: rear Rear baseline');
+    expect(table!.textContent).toContain('Variant: rear Rear +6');
+    expect(root.querySelector('[data-testid="evaluated-inputs"]')!.textContent).toContain('Variant: rear Rear +6.');
+  });
+
+  it('marks the result out of date under new choices until their evaluation arrives, then shows the new one', async () => {
+    const { harness, root } = await open();
+    await answerEvaluation();
+    harness.detectChanges();
+    choose(root, 'Variant', 'Rear axle design', 'Rear baseline');
+    await settle();
+    harness.detectChanges();
+    // The comparison on screen is no longer the one chosen: said in words, while the new evaluation runs.
+    expect(root.querySelector('[data-testid="out-of-date"]')!.textContent).toContain('A new evaluation is running');
+    expect(root.querySelector('[data-testid="no-variant"]')).not.toBeNull();
+    const { body } = await answerEvaluation();
+    expect(body.variant).toBeUndefined();
+    harness.detectChanges();
+    expect(root.querySelector('[data-testid="out-of-date"]')).toBeNull();
+    expect(root.querySelectorAll('rw-bar-chart [data-group="Roll steer"] rect').length).toBe(1);
+    expect(root.querySelector('[data-testid="evaluated-inputs"]')!.textContent).toContain('Baseline: front Front baseline, rear Rear baseline.');
+  });
+
+  it('says beside the field what is wrong with a condition, sends nothing and marks the result out of date', async () => {
+    const { harness, root } = await open();
+    await answerEvaluation();
+    harness.detectChanges();
+    const [speed, radius] = [...root.querySelectorAll('fieldset input')] as HTMLInputElement[];
+    speed!.value = '500';
+    speed!.dispatchEvent(new Event('change'));
+    radius!.value = 'wide';
+    radius!.dispatchEvent(new Event('change'));
+    await settle();
+    harness.detectChanges();
+    // Both at once, each in the user's words (the request's limits: shared/balance/api.ts).
+    expect(root.querySelector('[data-testid="speed-error"]')!.textContent).toBe('500 is outside 1 to 400 km/h.');
+    expect(root.querySelector('[data-testid="radius-error"]')!.textContent).toBe('"wide" is not a number.');
+    expect(speed!.getAttribute('aria-invalid')).toBe('true');
+    backend.expectNone('/api/compute/balance');
+    expect(root.querySelector('[data-testid="out-of-date"]')!.textContent).toContain('Correct the entries above');
   });
 });

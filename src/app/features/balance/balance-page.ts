@@ -1,9 +1,8 @@
-import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, signal, untracked } from '@angular/core';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { RouterLink } from '@angular/router';
-import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
-import { firstValueFrom, forkJoin } from 'rxjs';
+import { forkJoin, map, Observable, of, switchMap } from 'rxjs';
 import type { AxleLink, BalanceResponse } from '../../../../shared/balance/api';
 import type { BalanceResult } from '../../../../shared/balance/index';
 
@@ -11,8 +10,9 @@ import type { BalanceResult } from '../../../../shared/balance/index';
 type Evaluated = BalanceResult & { kinematicsLink: { front: AxleLink; rear: AxleLink } };
 import type { Corner } from '../../../../shared/schema/corner';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
-import { apiProblem } from '../../core/http/api-error';
-import { loadState } from '../../core/http/load-state';
+import { loadState, resourceProblem } from '../../core/http/load-state';
+import { formatRangeValue } from '../../../../shared/schema/ranges';
+import { parseDecimal } from '../axle-design/hardpoint-io';
 import { BarChart } from '../../charts/bar-chart';
 import { LineChart } from '../../charts/line-chart';
 import { BarGroup, LineSeries } from '../../charts/chart-types';
@@ -38,6 +38,54 @@ interface KeyFigure {
   readonly digits: number;
 }
 
+/** The inputs one evaluation was made with. */
+interface BalanceInputs {
+  readonly vehicleId: string;
+  readonly vehicleRevision: number;
+  readonly baselineFront: string;
+  readonly baselineRear: string;
+  readonly variantFront: string;
+  readonly variantRear: string;
+  readonly speedKph: number;
+  readonly radiusM: number;
+}
+
+/** A result with the inputs that produced it. */
+interface Evaluation {
+  readonly inputs: BalanceInputs;
+  readonly result: BalanceResponse;
+}
+
+function sameInputs(a: BalanceInputs | undefined, b: BalanceInputs | undefined): boolean {
+  if (a === undefined || b === undefined) return a === b;
+  return (Object.keys(a) as (keyof BalanceInputs)[]).every((k) => a[k] === b[k]);
+}
+
+function hasVariant(p: BalanceInputs): boolean {
+  return p.variantFront !== p.baselineFront || p.variantRear !== p.baselineRear;
+}
+
+/** The request's limits (shared/balance/api.ts: the step-steer model divides by the speed). */
+const SPEED_RANGE_KPH = { min: 1, max: 400 } as const;
+const RADIUS_RANGE_M = { min: 2, max: 10_000 } as const;
+
+/** What is wrong with a typed condition, in the user's words ("500 is outside 1 to 400 km/h"), or null. */
+function rangeProblem(text: string, range: { min: number; max: number }, unit: string): string | null {
+  if (text.trim() === '') return 'Enter a value.';
+  const v = parseDecimal(text);
+  if (v === null) return `"${text.trim()}" is not a number.`;
+  if (v < range.min || v > range.max) return `${formatRangeValue(v)} is outside ${formatRangeValue(range.min)} to ${formatRangeValue(range.max)} ${unit}.`;
+  return null;
+}
+
+/** Legend names of the cases drawn: the baseline's designs, and the variant's where it differs. */
+function caseNames(p: BalanceInputs, name: (id: string) => string): string[] {
+  if (!hasVariant(p)) return [`Baseline: front ${name(p.baselineFront)}, rear ${name(p.baselineRear)}`];
+  const parts = (front: string, rear: string) =>
+    [p.variantFront !== p.baselineFront ? `front ${name(front)}` : null, p.variantRear !== p.baselineRear ? `rear ${name(rear)}` : null].filter(Boolean).join(', ');
+  return [`Baseline: ${parts(p.baselineFront, p.baselineRear)}`, `Variant: ${parts(p.variantFront, p.variantRear)}`];
+}
+
 /**
  * Balance view: the vehicle with a baseline pair of axle designs and a
  * variant pair, evaluated by the balance model on the server (which reads
@@ -48,7 +96,7 @@ interface KeyFigure {
  */
 @Component({
   selector: 'rw-balance-page',
-  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution],
+  imports: [NumPipe, RouterLink, MatProgressBar, BarChart, LineChart, SafetyCaution],
   templateUrl: './balance-page.html',
   styleUrl: './balance-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -82,12 +130,60 @@ export class BalancePage {
   protected readonly baselineRear = linkedSignal(() => this.rears()[0]?.id ?? '');
   protected readonly variantFront = linkedSignal(() => this.fronts()[0]?.id ?? '');
   protected readonly variantRear = linkedSignal(() => this.rears()[1]?.id ?? '');
-  protected readonly speedKph = signal('80');
-  protected readonly radiusM = signal('40');
+  /** The step-steer speed and corner radius as typed (km/h, m). */
+  protected readonly speedText = signal('80');
+  protected readonly radiusText = signal('40');
 
-  protected readonly running = signal(false);
-  protected readonly failure = signal<string | null>(null);
-  protected readonly result = signal<BalanceResponse | null>(null);
+  /** What each condition field says is wrong with its entry, in the user's words (all at once, beside the field). */
+  protected readonly conditionErrors = computed(() => ({
+    speed: rangeProblem(this.speedText(), SPEED_RANGE_KPH, 'km/h'),
+    radius: rangeProblem(this.radiusText(), RADIUS_RANGE_M, 'm'),
+  }));
+
+  /**
+   * The inputs of the evaluation the screen asks for: the vehicle revision, the four design choices
+   * and the conditions; undefined while an entry is invalid or the vehicle data incomplete.
+   */
+  protected readonly inputs = computed<BalanceInputs | undefined>(
+    () => {
+      const v = this.vehicle();
+      const errors = this.conditionErrors();
+      if (!v || this.vehicleProblem() || errors.speed || errors.radius) return undefined;
+      return {
+        vehicleId: v.id,
+        vehicleRevision: v.revision,
+        baselineFront: this.baselineFront(),
+        baselineRear: this.baselineRear(),
+        variantFront: this.variantFront(),
+        variantRear: this.variantRear(),
+        speedKph: parseDecimal(this.speedText())!,
+        radiusM: parseDecimal(this.radiusText())!,
+      };
+    },
+    { equal: sameInputs },
+  );
+
+  /** The evaluation on the server: runs on open and again for every new set of inputs (the latest wins). */
+  private readonly evaluation = rxResource({
+    params: () => this.inputs(),
+    stream: ({ params: p }) => this.evaluate(p),
+  });
+
+  /**
+   * The result on screen with the inputs that produced it. While a new evaluation runs, or when the
+   * entries are invalid or the evaluation failed, the last result stays, marked out of date.
+   */
+  protected readonly shown = linkedSignal<Evaluation | undefined, Evaluation | null>({
+    source: () => (this.evaluation.hasValue() ? this.evaluation.value() : undefined),
+    computation: (value, previous) => value ?? (previous?.value && previous.value.inputs.vehicleId === this.vehicleId() ? previous.value : null),
+  });
+  protected readonly result = computed(() => this.shown()?.result ?? null);
+  protected readonly running = this.evaluation.isLoading;
+  protected readonly outOfDate = computed(() => {
+    const shown = this.shown();
+    return shown !== null && !sameInputs(shown.inputs, this.inputs());
+  });
+  protected readonly failure = computed(() => (this.evaluation.status() === 'error' ? resourceProblem(this.evaluation.error()).message : null));
 
   protected readonly vehicleProblem = computed(() => {
     const v = this.vehicle();
@@ -97,7 +193,15 @@ export class BalancePage {
   });
 
   protected readonly hasVariant = computed(() => this.result()?.comparison != null);
-  protected readonly seriesNames = computed(() => (this.hasVariant() ? ['Baseline', 'Variant'] : ['Baseline']));
+  /**
+   * The names of the cases drawn, from the inputs of the result shown (not the current choices): each
+   * says which designs it is, naming only the axles that differ when a variant is compared.
+   */
+  protected readonly caseNames = computed<readonly string[]>(() => {
+    const shown = this.shown();
+    return shown ? caseNames(shown.inputs, (id) => this.designName(id)) : [];
+  });
+  protected readonly seriesNames = computed(() => [...this.caseNames()]);
 
   protected readonly budgetGroups = computed<BarGroup[]>(() => {
     const r = this.result();
@@ -142,13 +246,17 @@ export class BalancePage {
     ];
   });
 
+  /** Corners of the designs already read, by design and revision. */
+  private readonly corners = new Map<string, Corner>();
+
   protected readonly sensitivity = computed(() => (this.result()?.sensitivity?.entries ?? []).slice(0, 12));
 
   private both<T>(pick: (r: Evaluated) => T): { name: string; value: T }[] {
     const r = this.result();
     if (!r) return [];
-    const out = [{ name: 'Baseline', value: pick(r) }];
-    if (r.comparison) out.push({ name: 'Variant', value: pick(r.comparison.variant) });
+    const [baseline = 'Baseline', variant = 'Variant'] = this.caseNames();
+    const out = [{ name: baseline, value: pick(r) }];
+    if (r.comparison) out.push({ name: variant, value: pick(r.comparison.variant) });
     return out;
   }
 
@@ -173,46 +281,40 @@ export class BalancePage {
     })),
   );
 
-  private async corner(id: string): Promise<Corner | undefined> {
-    if (!id) return undefined;
-    return (await firstValueFrom(this.api.axleDesign(this.teamId(), id))).corner;
-  }
-
-  protected async evaluate(): Promise<void> {
-    const v = this.vehicle();
-    if (!v || this.vehicleProblem() || this.running()) return;
-    const speed = Number(this.speedKph());
-    const radius = Number(this.radiusM());
-    if (!(speed > 0 && speed <= 400) || !(radius >= 2 && radius <= 10000)) {
-      this.failure.set('Speed: above 0 and at most 400 km/h; corner radius: 2 to 10 000 m.');
-      return;
-    }
-    this.running.set(true);
-    this.failure.set(null);
-    try {
-      const [bf, br, vf, vr] = await Promise.all(
-        [this.baselineFront(), this.baselineRear(), this.variantFront(), this.variantRear()].map((id) => this.corner(id)),
+  /** Reads the chosen designs' corners (each design revision once) and asks the server for the balance. */
+  private evaluate(p: BalanceInputs): Observable<Evaluation> {
+    const vehicle = untracked(this.vehicle)!;
+    const corner = (id: string): Observable<Corner | undefined> => {
+      if (!id) return of(undefined);
+      const revision = untracked(this.designs).find((d) => d.id === id)?.revision;
+      const key = `${id}@${revision}`;
+      const known = this.corners.get(key);
+      if (known) return of(known);
+      return this.api.axleDesign(untracked(this.teamId), id).pipe(
+        map((d) => {
+          this.corners.set(key, d.corner);
+          return d.corner;
+        }),
       );
-      const hasVariant = this.variantFront() !== this.baselineFront() || this.variantRear() !== this.baselineRear();
-      const request = {
-        vehicle: v.data,
-        ...(bf ? { frontCorner: bf } : {}),
-        ...(br ? { rearCorner: br } : {}),
-        speedKph: speed,
-        cornerRadiusM: radius,
-        ...(hasVariant ? { variant: { vehicle: v.data, ...(vf ? { frontCorner: vf } : {}), ...(vr ? { rearCorner: vr } : {}) } } : {}),
-      };
-      const response = await firstValueFrom(this.api.balance<BalanceResponse>(request));
-      this.result.set(response.result);
-    } catch (error) {
-      this.failure.set(apiProblem(error).message);
-    } finally {
-      this.running.set(false);
-    }
+    };
+    return forkJoin([corner(p.baselineFront), corner(p.baselineRear), corner(p.variantFront), corner(p.variantRear)]).pipe(
+      switchMap(([bf, br, vf, vr]) => {
+        const request = {
+          vehicle: vehicle.data,
+          ...(bf ? { frontCorner: bf } : {}),
+          ...(br ? { rearCorner: br } : {}),
+          speedKph: p.speedKph,
+          cornerRadiusM: p.radiusM,
+          ...(hasVariant(p) ? { variant: { vehicle: vehicle.data, ...(vf ? { frontCorner: vf } : {}), ...(vr ? { rearCorner: vr } : {}) } } : {}),
+        };
+        return this.api.balance<BalanceResponse>(request);
+      }),
+      map((response) => ({ inputs: p, result: response.result })),
+    );
   }
 
   protected designName(id: string): string {
-    return this.designs().find((d) => d.id === id)?.name ?? 'values entered on the vehicle page';
+    return this.designs().find((d) => d.id === id)?.name ?? 'vehicle page values';
   }
 
   protected change(f: KeyFigure): string {

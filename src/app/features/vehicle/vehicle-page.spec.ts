@@ -5,9 +5,9 @@ import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { exampleVehicles } from '../../../../shared/balance/examples';
 import { VehiclePage } from './vehicle-page';
+import { settle } from '../../../testing/settle';
 
 const URL = '/teams/t-tal/vehicles/v-ember';
-const settle = () => new Promise((resolve) => setTimeout(resolve, 0));
 
 function record(revision: number, data: unknown = exampleVehicles.tur26Ember) {
   return { id: 'v-ember', name: 'TUR-26 Ember', archived: false, revision, data, updatedAt: '2026-12-01T10:00:00.000Z', updatedByName: 'Eli Marsh' };
