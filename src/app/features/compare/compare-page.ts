@@ -14,7 +14,8 @@ import { AxleDesign, FeaturesApi } from '../features-api';
 import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { formatNum } from '../../core/format/num';
-import { NumPipe } from '../../core/format/num-pipe';
+import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
+import { type QuantityKind, unitLabel } from '../../core/format/quantities';
 
 interface Compared {
   readonly design: AxleDesign;
@@ -22,12 +23,18 @@ interface Compared {
   readonly error: string | null;
 }
 
+/** One key figure of each compared design: labelled, in the user's units, rounded as its quantity is (core/format/quantities.ts). */
 interface FigureRow {
   readonly label: string;
-  readonly unit: string;
-  readonly digits: number;
+  readonly kind: QuantityKind;
   readonly values: readonly (number | null)[];
   readonly words?: readonly string[];
+}
+
+/** Figures of one kind (roll, bump steer, camber), shown under their own heading. */
+interface FigureGroup {
+  readonly title: string;
+  readonly rows: readonly FigureRow[];
 }
 
 const MAX_COMPARED = 4;
@@ -52,6 +59,8 @@ export class ComparePage {
   private readonly router = inject(Router);
   private readonly api = inject(FeaturesApi);
   private readonly engine = inject(KinematicsClient);
+  /** The user's unit system (SI or inch/pound). */
+  protected readonly units = inject(DISPLAY_UNITS);
 
   readonly teamId = input.required<string>();
   readonly vehicleId = input.required<string>();
@@ -84,26 +93,41 @@ export class ComparePage {
     return n < 2 ? 'Choose at least two designs.' : n > MAX_COMPARED ? `Choose at most ${MAX_COMPARED} designs.` : null;
   });
 
-  protected readonly figures = computed<FigureRow[]>(() => {
+  protected readonly figureGroups = computed<FigureGroup[]>(() => {
     const list = this.compared();
     const a = (pick: (x: CornerAnalysis) => number) => list.map((c) => (c.analysis ? pick(c.analysis) : null));
     const rack0 = (x: CornerAnalysis) => x.curves.find((k) => k.rackMm === 0) ?? x.curves[0]!;
     return [
-      { label: 'Revision', unit: '', digits: 0, values: list.map((c) => c.design.revision) },
       {
-        label: 'Roll steer coefficient ε',
-        unit: 'deg/deg',
-        digits: 4,
-        values: a((x) => x.rollSteerCoefficient),
-        words: list.map((c) => (c.analysis ? rollSteerWords(c.analysis.rollSteerCoefficient, c.design.axle) : '')),
+        title: 'In roll',
+        rows: [
+          {
+            label: 'Roll steer coefficient ε',
+            kind: 'rollSteer',
+            values: a((x) => x.rollSteerCoefficient),
+            words: list.map((c) => (c.analysis ? rollSteerWords(c.analysis.rollSteerCoefficient, c.design.axle) : '')),
+          },
+          { label: 'Roll camber coefficient', kind: 'rollSteer', values: a((x) => x.rollCamberDegPerDeg) },
+        ],
       },
-      { label: 'Roll camber coefficient', unit: 'deg/deg', digits: 3, values: a((x) => x.rollCamberDegPerDeg) },
-      { label: 'Bump steer, rack 0', unit: 'deg/m', digits: 3, values: a((x) => rack0(x).bumpSteerDegPerM) },
-      { label: 'Toe curvature, rack 0', unit: 'deg/m²', digits: 2, values: a((x) => rack0(x).curvatureDegPerM2) },
-      { label: 'Largest toe deviation from linear, rack 0', unit: 'deg', digits: 4, values: a((x) => rack0(x).maxDeviationDeg) },
-      { label: 'Camber gain, rack 0', unit: 'deg/m', digits: 2, values: a((x) => rack0(x).camberGainDegPerM) },
+      {
+        title: 'Toe over one-wheel bump (rack centred)',
+        rows: [
+          { label: 'Bump steer (toe-in per bump travel)', kind: 'bumpSteer', values: a((x) => rack0(x).bumpSteerDegPerM) },
+          { label: 'Toe curvature', kind: 'toeCurvature', values: a((x) => rack0(x).curvatureDegPerM2) },
+          { label: 'Largest toe departure from a straight line', kind: 'angle', values: a((x) => rack0(x).maxDeviationDeg) },
+        ],
+      },
+      {
+        title: 'Camber over bump (rack centred)',
+        rows: [{ label: 'Camber gain', kind: 'camberGain', values: a((x) => rack0(x).camberGainDegPerM) }],
+      },
     ];
   });
+
+  protected unitOf(kind: QuantityKind): string {
+    return unitLabel(kind, this.units());
+  }
 
   private overlay(pick: (x: CornerAnalysis) => { x: number; y: number }[]): LineSeries[] {
     return this.compared()
@@ -174,11 +198,12 @@ export class ComparePage {
     this.running.set(false);
   }
 
-  /** True where a value differs from the first design's at the shown precision. */
+  /** True where a value differs from the first design's as shown (in the user's units, at its quantity's precision). */
   protected differs(row: FigureRow, i: number): boolean {
     const first = row.values[0];
     const v = row.values[i];
-    return i > 0 && first !== null && first !== undefined && v !== null && v !== undefined && formatNum(v, { decimals: row.digits }) !== formatNum(first, { decimals: row.digits });
+    if (i === 0 || first === null || first === undefined || v === null || v === undefined) return false;
+    return formatNum(v, { kind: row.kind }, this.units()) !== formatNum(first, { kind: row.kind }, this.units());
   }
 
   protected checked(event: Event): boolean {
