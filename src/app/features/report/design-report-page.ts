@@ -74,6 +74,14 @@ export class DesignReportPage {
   protected readonly balanceNote = signal<string | null>(null);
   protected readonly source = signal<Proposal | null>(null);
 
+  /** The author of the revision reported, as its revision list names it (the record's last writer until the list is there). */
+  protected readonly revisionAuthor = computed(() => {
+    const d = this.design();
+    if (!d) return null;
+    const row = this.revisions().find((r) => r.revision === d.revision);
+    return row ? row.authorName : d.updatedByName;
+  });
+
   protected readonly words = computed(() => {
     const a = this.analysis();
     const d = this.design();

@@ -9,8 +9,8 @@ import { settle } from '../../../testing/settle';
 
 const URL = '/teams/t-tal/vehicles/v-ember';
 
-function record(revision: number, data: unknown = exampleVehicles.tur26Ember) {
-  return { id: 'v-ember', name: 'TUR-26 Ember', archived: false, revision, data, updatedAt: '2026-12-01T10:00:00.000Z', updatedByName: 'Eli Marsh' };
+function record(revision: number, data: unknown = exampleVehicles.tur26Ember, updatedByName = 'Eli Marsh') {
+  return { id: 'v-ember', name: 'TUR-26 Ember', archived: false, revision, data, updatedAt: '2026-12-01T10:00:00.000Z', updatedByName };
 }
 
 describe('VehiclePage', () => {
@@ -25,10 +25,10 @@ describe('VehiclePage', () => {
 
   afterEach(() => backend.verify());
 
-  async function open(permissions: string[]) {
+  async function open(permissions: string[], updatedByName = 'Eli Marsh') {
     const harness = await RouterTestingHarness.create();
     await harness.navigateByUrl(URL, VehiclePage);
-    backend.expectOne('/api/teams/t-tal/vehicles/v-ember').flush(record(4));
+    backend.expectOne('/api/teams/t-tal/vehicles/v-ember').flush(record(4, exampleVehicles.tur26Ember, updatedByName));
     backend.expectOne('/api/teams/t-tal').flush({ id: 't-tal', name: 'Tallowmere University Racing', slug: 'tallowmere', roles: [], permissions });
     await settle();
     backend.expectOne('/api/teams/t-tal/vehicles/v-ember/axle-designs').flush([
@@ -36,7 +36,8 @@ describe('VehiclePage', () => {
       { id: 'd2', axle: 'rear', name: 'Rear baseline', revision: 2, status: 'approved', updatedAt: '2026-12-01T10:00:00.000Z' },
     ]);
     backend.expectOne('/api/teams/t-tal/vehicles/v-ember/revisions').flush([
-      { revision: 4, message: 'Springs', authorName: 'Eli Marsh', createdAt: '2026-12-01T10:00:00.000Z' },
+      { revision: 4, message: 'Stiffer rear springs for the autocross', authorName: 'Eli Marsh', createdAt: '2026-12-01T10:00:00.000Z' },
+      { revision: 3, message: 'Tyre data from the rig', authorName: 'Dana Quist', createdAt: '2026-11-30T10:00:00.000Z' },
     ]);
     await settle();
     harness.detectChanges();
@@ -60,7 +61,21 @@ describe('VehiclePage', () => {
     expect(tables[1]!.textContent).toContain('Rear baseline');
     expect(Number(field(root, 'Total mass').value)).toBe(exampleVehicles.tur26Ember.massKg);
     expect(unitOf(root, 'Wheelbase')).toBe('mm');
-    expect(root.textContent).toContain('Revision 4 · Eli Marsh');
+    expect(root.textContent).toContain('saved by Eli Marsh');
+  });
+
+  it('shows each revision with its author and the author\'s own note; the header names the revision\'s author as the list does', async () => {
+    // A record whose last writer is not the revision's author (an older server wrote who accepted a proposal there).
+    const { root } = await open(['team:read'], 'Dana Quist');
+    const items = [...root.querySelectorAll('.rw-revision-list li')].map((li) => li.textContent!.replace(/\s+/g, ' ').trim());
+    expect(items[0]).toContain('Revision 4 · Eli Marsh');
+    expect(items[0]).toContain('— Stiffer rear springs for the autocross');
+    expect(items[1]).toContain('Revision 3 · Dana Quist');
+    expect(items[1]).toContain('— Tyre data from the rig');
+    const header = root.querySelector('.rw-revision')!.textContent!;
+    expect(header).toContain('Revision 4');
+    expect(header).toContain('by Eli Marsh');
+    expect(header).not.toContain('Dana Quist');
   });
 
   it('shows inch/pound values on request and saves them converted back to SI', async () => {

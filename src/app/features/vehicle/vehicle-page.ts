@@ -95,6 +95,14 @@ export class VehiclePage {
   });
   protected readonly revisions = computed<readonly RevisionRow[]>(() => (this.revisionList.hasValue() ? this.revisionList.value() : []));
 
+  /** The author of the revision shown, as the revision list names it (the record's last writer until the list is there). */
+  protected readonly revisionAuthor = computed(() => {
+    const v = this.vehicle();
+    if (!v) return null;
+    const row = this.revisions().find((r) => r.revision === v.revision);
+    return row ? row.authorName : v.updatedByName;
+  });
+
   protected readonly saving = signal(false);
   protected readonly saveError = signal<string | null>(null);
   protected readonly saveIssues = signal<readonly string[]>([]);
