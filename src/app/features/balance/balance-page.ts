@@ -13,6 +13,7 @@ import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { loadState, resourceProblem } from '../../core/http/load-state';
 import { formatRangeValue } from '../../../../shared/schema/ranges';
 import { parseDecimal } from '../axle-design/hardpoint-io';
+import { vehicleIssuePlace, vehicleIssueText } from '../vehicle/vehicle-fields';
 import { BarChart } from '../../charts/bar-chart';
 import { LineChart } from '../../charts/line-chart';
 import { BarGroup, LineSeries } from '../../charts/chart-types';
@@ -189,7 +190,9 @@ export class BalancePage {
     const v = this.vehicle();
     if (!v) return null;
     const r = vehicleSchema.safeParse(v.data);
-    return r.success ? null : `The vehicle data is incomplete (${r.error.issues[0]?.path.join('.') || 'vehicle'}: ${r.error.issues[0]?.message}). Complete it on the vehicle page.`;
+    if (r.success) return null;
+    const issues = r.error.issues.map((i) => `${vehicleIssuePlace(i.path)}: ${vehicleIssueText(i.message)}`);
+    return `The vehicle data is incomplete (${issues.join('; ')}). Complete it on the vehicle page.`;
   });
 
   protected readonly hasVariant = computed(() => this.result()?.comparison != null);
