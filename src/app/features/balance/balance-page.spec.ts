@@ -100,6 +100,24 @@ describe('BalancePage', () => {
     expect(root.querySelector('[data-testid="evaluated-inputs"]')!.textContent).toContain('Variant: rear Rear +6.');
   });
 
+  it('says the step is a road-wheel angle, with its handwheel angle, and ends the time axis once the transient has settled', async () => {
+    const { harness, root } = await open();
+    const { result } = await answerEvaluation();
+    harness.detectChanges();
+    const chart = [...root.querySelectorAll('rw-line-chart')].find((c) => c.querySelector('figcaption')?.textContent?.includes('Yaw rate after a step'))!;
+    const title = chart.querySelector('figcaption')!.textContent!;
+    const ratio = exampleVehicles.tur26Ember.steeringRatio!;
+    expect(title).toContain('1 deg road-wheel angle');
+    expect(title).toContain(`${Number((ratio * 1).toPrecision(3))} deg at the handwheel`);
+    // The time axis covers the slower case's settling (2 % band, ISO 7401 style) but not the whole 3 s simulated.
+    const settled = Math.max(result.stepSteer.settlingTimeS!, result.comparison!.variant.stepSteer.settlingTimeS!);
+    const ticks = [...chart.querySelectorAll('.rw-axis-x text')].map((t) => Number(t.textContent));
+    expect(result.stepSteer.durationS).toBe(3);
+    expect(settled).toBeLessThan(1);
+    expect(Math.max(...ticks)).toBeGreaterThanOrEqual(settled);
+    expect(Math.max(...ticks)).toBeLessThan(result.stepSteer.durationS);
+  });
+
   it('marks the result out of date under new choices until their evaluation arrives, then shows the new one', async () => {
     const { harness, root } = await open();
     await answerEvaluation();

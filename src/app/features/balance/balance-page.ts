@@ -20,6 +20,7 @@ import { BarGroup, LineSeries } from '../../charts/chart-types';
 import { AxleDesignSummary, FeaturesApi } from '../features-api';
 import { SafetyCaution } from '../safety-caution';
 import { NumPipe } from '../../core/format/num-pipe';
+import { formatNum } from '../../core/format/num';
 
 const BUDGET_LABELS: readonly [keyof BalanceResponse['understeerBudget'], string][] = [
   ['tyres', 'Tyres'],
@@ -277,12 +278,41 @@ export class BalancePage {
     ]),
   );
 
-  protected readonly stepSeries = computed<LineSeries[]>(() =>
-    this.both((r) => r.stepSteer.history).map(({ name, value }) => ({
+  /**
+   * How long the step-steer chart runs: twice the slowest shown case's settling time (or its peak or
+   * response time when it settles sooner), rounded up to a tenth or half second, within the simulated
+   * time; the whole simulation when a case has not settled in it.
+   */
+  protected readonly stepWindowS = computed(() => {
+    const r = this.result();
+    if (!r) return null;
+    const steps = [r.stepSteer, ...(r.comparison ? [r.comparison.variant.stepSteer] : [])];
+    const duration = Math.max(...steps.map((x) => x.durationS));
+    if (steps.some((x) => x.settlingTimeS === null)) return duration;
+    const slowest = Math.max(...steps.map((x) => Math.max(x.settlingTimeS ?? 0, x.peakTimeS ?? 0, x.responseTimeS ?? 0)));
+    const want = 2 * slowest;
+    const grain = want < 1 ? 0.1 : 0.5;
+    return Math.min(duration, Math.max(grain, Math.ceil(want / grain - 1e-9) * grain));
+  });
+
+  protected readonly stepSeries = computed<LineSeries[]>(() => {
+    const end = this.stepWindowS() ?? Infinity;
+    return this.both((r) => r.stepSteer.history).map(({ name, value }) => ({
       name,
-      points: value.map((h) => ({ x: h.tS, y: h.yawRateDegPerS })),
-    })),
-  );
+      points: value.filter((h) => h.tS <= end + 1e-9).map((h) => ({ x: h.tS, y: h.yawRateDegPerS })),
+    }));
+  });
+
+  /** The step's input in words: a road-wheel angle, with the handwheel angle where the steering ratio is known. */
+  protected readonly stepInput = computed(() => {
+    const r = this.result();
+    if (!r) return '';
+    const ratio = r.effectiveVehicle.steeringRatio;
+    const road = `${formatNum(r.stepSteer.steerDeg, { sig: 3 })} deg road-wheel angle`;
+    return ratio === undefined
+      ? `${road} (no steering ratio on the vehicle page, so no handwheel angle)`
+      : `${road} (${formatNum(r.stepSteer.steerDeg * ratio, { sig: 3 })} deg at the handwheel, overall ratio ${formatNum(ratio, { sig: 3 })}:1)`;
+  });
 
   /** Reads the chosen designs' corners (each design revision once) and asks the server for the balance. */
   private evaluate(p: BalanceInputs): Observable<Evaluation> {
