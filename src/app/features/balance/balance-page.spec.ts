@@ -7,6 +7,9 @@ import { computeBalance } from '../../../../shared/balance/api';
 import { exampleVehicles } from '../../../../shared/balance/examples';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { BalancePage } from './balance-page';
+import { signal } from '@angular/core';
+import type { DisplayUnits } from '../../core/api-types';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { settle } from '../../../testing/settle';
 
 const T = '/api/teams/t-tal';
@@ -20,10 +23,17 @@ const CORNERS: Record<string, typeof exampleCorners.fsFrontWishbone> = {
 
 describe('BalancePage', () => {
   let backend: HttpTestingController;
+  const units = signal<DisplayUnits>('si');
 
   beforeEach(async () => {
+    units.set('si');
     await TestBed.configureTestingModule({
-      providers: [provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId/balance', component: BalancePage }], withComponentInputBinding()), provideHttpClient(), provideHttpClientTesting()],
+      providers: [
+        provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId/balance', component: BalancePage }], withComponentInputBinding()),
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        { provide: DISPLAY_UNITS, useValue: units },
+      ],
     }).compileComponents();
     backend = TestBed.inject(HttpTestingController);
   });
@@ -153,5 +163,32 @@ describe('BalancePage', () => {
     expect(speed!.getAttribute('aria-invalid')).toBe('true');
     backend.expectNone('/api/compute/balance');
     expect(root.querySelector('[data-testid="out-of-date"]')!.textContent).toContain('Correct the entries above');
+  });
+
+  it('writes speeds, radii, roll stiffness and load transfer in inch/pound units when the user reads inch/pound, and names inputs in words', async () => {
+    units.set('imperial');
+    const { harness, root } = await open();
+    harness.detectChanges();
+    const [speed, radius] = [...root.querySelectorAll('fieldset input')] as HTMLInputElement[];
+    // 80 km/h and 40 m in mph and ft (1 mi = 1609.344 m, 1 ft = 0.3048 m exactly).
+    expect(speed!.value).toBe('49.71');
+    expect(radius!.value).toBe('131.2');
+    expect(speed!.closest('label')!.textContent).toContain('(mph)');
+    const { body, result } = await answerEvaluation();
+    expect(body.speedKph).toBeCloseTo((49.71 * 1609.344) / 1000, 9);
+    // The field shows 131.2 ft (4 significant figures of 131.23 ft), which is 39.99 m: what is typed is what is sent.
+    expect(body.cornerRadiusM).toBeCloseTo(131.2 * 0.3048, 9);
+    harness.detectChanges();
+    const figure = (label: string) => [...root.querySelectorAll('[data-testid="key-figures"] tr')].find((tr) => tr.querySelector('th')?.textContent?.trim() === label)!;
+    const stiffness = figure('Roll stiffness, front');
+    expect(stiffness.lastElementChild!.textContent!.trim()).toBe('lbf·ft/deg');
+    // 1 lbf·ft = 4.4482216152605 N × 0.3048 m.
+    expect(Number(stiffness.querySelector('td')!.textContent)).toBeCloseTo(result.rollStiffnessNmPerDeg.front / (4.4482216152605 * 0.3048), 0);
+    expect(figure('Lateral load transfer, front').lastElementChild!.textContent!.trim()).toBe('lbf/g');
+    expect(root.querySelector('[data-testid="evaluated-inputs"]')!.textContent).toContain('49.71 mph');
+    // The sensitivity ranking names each input by its label, never by its document key.
+    const inputs = [...root.querySelectorAll('table')].find((t) => t.querySelector('caption')?.textContent?.includes('ranked'))!;
+    expect(inputs.querySelectorAll('tbody tr').length).toBeGreaterThan(0);
+    expect(inputs.textContent).not.toMatch(/\b(front|rear)\.[a-z]/);
   });
 });

@@ -13,7 +13,7 @@ import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { loadState, resourceProblem } from '../../core/http/load-state';
 import { formatRangeValue } from '../../../../shared/schema/ranges';
 import { parseDecimal } from '../axle-design/hardpoint-io';
-import { vehicleIssuePlace, vehicleIssueText } from '../vehicle/vehicle-fields';
+import { ALL_VEHICLE_FIELDS, vehicleIssuePlace, vehicleIssueText } from '../vehicle/vehicle-fields';
 import { BarChart } from '../../charts/bar-chart';
 import { LineChart } from '../../charts/line-chart';
 import { BarGroup, LineSeries } from '../../charts/chart-types';
@@ -21,6 +21,9 @@ import { AxleDesignSummary, FeaturesApi } from '../features-api';
 import { SafetyCaution } from '../safety-caution';
 import { NumPipe } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import { inDisplayUnits, QUANTITIES, type QuantityKind, unitLabel } from '../../core/format/quantities';
+import type { DisplayUnits } from '../../core/api-types';
 
 const BUDGET_LABELS: readonly [keyof BalanceResponse['understeerBudget'], string][] = [
   ['tyres', 'Tyres'],
@@ -39,6 +42,15 @@ interface KeyFigure {
   readonly variant: number | null;
   readonly digits: number;
 }
+
+/** The quantity kind of a vehicle field's stored unit, for showing it in the user's units. */
+const STORED_KIND: Readonly<Record<string, QuantityKind>> = {
+  mm: 'length',
+  kg: 'mass',
+  'N / mm': 'linearRate',
+  'N m / deg': 'rollStiffness',
+  'kg m^2': 'inertia',
+};
 
 /** The inputs one evaluation was made with. */
 interface BalanceInputs {
@@ -70,6 +82,17 @@ function hasVariant(p: BalanceInputs): boolean {
 /** The request's limits (shared/balance/api.ts: the step-steer model divides by the speed). */
 const SPEED_RANGE_KPH = { min: 1, max: 400 } as const;
 const RADIUS_RANGE_M = { min: 2, max: 10_000 } as const;
+
+/** A value typed in the user's units as the stored (SI-based) value. */
+function fromDisplayUnits(value: number, kind: QuantityKind, units: DisplayUnits): number {
+  return units === 'imperial' ? value / QUANTITIES[kind].factor : value;
+}
+
+/** A range of stored values in the user's units, rounded as the message shows it. */
+function inUnits(range: { min: number; max: number }, kind: QuantityKind, units: DisplayUnits): { min: number; max: number } {
+  const round = (v: number) => Number(formatNum(v, { kind }, units));
+  return { min: round(range.min), max: round(range.max) };
+}
 
 /** What is wrong with a typed condition, in the user's words ("500 is outside 1 to 400 km/h"), or null. */
 function rangeProblem(text: string, range: { min: number; max: number }, unit: string): string | null {
@@ -132,14 +155,16 @@ export class BalancePage {
   protected readonly baselineRear = linkedSignal(() => this.rears()[0]?.id ?? '');
   protected readonly variantFront = linkedSignal(() => this.fronts()[0]?.id ?? '');
   protected readonly variantRear = linkedSignal(() => this.rears()[1]?.id ?? '');
-  /** The step-steer speed and corner radius as typed (km/h, m). */
-  protected readonly speedText = signal('80');
-  protected readonly radiusText = signal('40');
+  /** The user's unit system (SI or inch/pound): figures, charts and the condition fields follow it. */
+  protected readonly units = inject(DISPLAY_UNITS);
+  /** The step-steer speed and corner radius as typed, in the user's units (km/h and m, or mph and ft); 80 km/h and 40 m to start. */
+  protected readonly speedText = linkedSignal(() => formatNum(80, { kind: 'speed' }, this.units()));
+  protected readonly radiusText = linkedSignal(() => formatNum(40, { kind: 'distance' }, this.units()));
 
-  /** What each condition field says is wrong with its entry, in the user's words (all at once, beside the field). */
+  /** What each condition field says is wrong with its entry, in the user's words and units (all at once, beside the field). */
   protected readonly conditionErrors = computed(() => ({
-    speed: rangeProblem(this.speedText(), SPEED_RANGE_KPH, 'km/h'),
-    radius: rangeProblem(this.radiusText(), RADIUS_RANGE_M, 'm'),
+    speed: rangeProblem(this.speedText(), inUnits(SPEED_RANGE_KPH, 'speed', this.units()), unitLabel('speed', this.units())),
+    radius: rangeProblem(this.radiusText(), inUnits(RADIUS_RANGE_M, 'distance', this.units()), unitLabel('distance', this.units())),
   }));
 
   /**
@@ -158,8 +183,8 @@ export class BalancePage {
         baselineRear: this.baselineRear(),
         variantFront: this.variantFront(),
         variantRear: this.variantRear(),
-        speedKph: parseDecimal(this.speedText())!,
-        radiusM: parseDecimal(this.radiusText())!,
+        speedKph: fromDisplayUnits(parseDecimal(this.speedText())!, 'speed', this.units()),
+        radiusM: fromDisplayUnits(parseDecimal(this.radiusText())!, 'distance', this.units()),
       };
     },
     { equal: sameInputs },
@@ -221,29 +246,32 @@ export class BalancePage {
     const r = this.result();
     if (!r) return [];
     const v = r.comparison?.variant ?? null;
-    const row = (label: string, unit: string, pick: (x: Evaluated) => number | null, digits = 3): KeyFigure => ({
-      label,
-      unit,
-      baseline: pick(r),
-      variant: v ? pick(v) : null,
-      digits,
-    });
+    const units = this.units();
+    // A figure with a quantity kind is shown in the user's unit system; the others have one unit in both.
+    const row = (label: string, unit: string | QuantityKind, pick: (x: Evaluated) => number | null, digits = 3): KeyFigure => {
+      const kind = unit in QUANTITIES ? (unit as QuantityKind) : null;
+      const shown = (x: Evaluated) => {
+        const value = pick(x);
+        return value === null || kind === null ? value : inDisplayUnits(value, kind, units);
+      };
+      return { label, unit: kind ? unitLabel(kind, units) : unit, baseline: shown(r), variant: v ? shown(v) : null, digits };
+    };
     return [
       row('Understeer gradient K on-centre (speeds, gains, step steer)', 'deg/g', (x) => x.onCentreUndersteerGradientDegPerG),
       row(`Understeer gradient K at ${r.budgetLateralAccelerationG} g`, 'deg/g', (x) => x.understeerBudget.total),
       row('Roll steer term', 'deg/g', (x) => x.understeerBudget.rollSteer),
       row('Compliance steer term', 'deg/g', (x) => x.understeerBudget.complianceSteer),
       row('Roll gradient', 'deg/g', (x) => x.rollGradientDegPerG),
-      row('Roll stiffness, front', 'N·m/deg', (x) => x.rollStiffnessNmPerDeg.front, 0),
-      row('Roll stiffness, rear', 'N·m/deg', (x) => x.rollStiffnessNmPerDeg.rear, 0),
+      row('Roll stiffness, front', 'rollStiffness', (x) => x.rollStiffnessNmPerDeg.front, 0),
+      row('Roll stiffness, rear', 'rollStiffness', (x) => x.rollStiffnessNmPerDeg.rear, 0),
       row('Roll stiffness, front share', '%', (x) => x.rollStiffnessNmPerDeg.frontShare * 100, 1),
-      row('Lateral load transfer, front', 'N/g', (x) => x.lateralLoadTransfer.frontNPerG, 0),
-      row('Lateral load transfer, rear', 'N/g', (x) => x.lateralLoadTransfer.rearNPerG, 0),
+      row('Lateral load transfer, front', 'forcePerG', (x) => x.lateralLoadTransfer.frontNPerG, 0),
+      row('Lateral load transfer, rear', 'forcePerG', (x) => x.lateralLoadTransfer.rearNPerG, 0),
       row('Load transfer, front share', '%', (x) => x.lateralLoadTransfer.frontShare * 100, 1),
       row('Roll steer coefficient ε used, front', 'deg/deg', (x) => x.kinematicsLink.front.used.rollSteerCoefficient, 4),
       row('Roll steer coefficient ε used, rear', 'deg/deg', (x) => x.kinematicsLink.rear.used.rollSteerCoefficient, 4),
-      row('Characteristic speed', 'km/h', (x) => x.characteristicSpeedKph, 1),
-      row('Critical speed', 'km/h', (x) => x.criticalSpeedKph, 1),
+      row('Characteristic speed', 'speed', (x) => x.characteristicSpeedKph, 1),
+      row('Critical speed', 'speed', (x) => x.criticalSpeedKph, 1),
       row('Step steer: response time (90 %)', 's', (x) => x.stepSteer.responseTimeS, 3),
       row('Step steer: overshoot', '%', (x) => x.stepSteer.overshootPct, 1),
       row('Step steer: settling time (2 %)', 's', (x) => x.stepSteer.settlingTimeS, 3),
@@ -267,7 +295,7 @@ export class BalancePage {
   protected readonly yawGain = computed<LineSeries[]>(() =>
     this.both((r) => r.gains.rows).map(({ name, value }) => ({
       name,
-      points: value.filter((g) => g.yawRateGainPerS !== null).map((g) => ({ x: g.speedKph, y: g.yawRateGainPerS! })),
+      points: value.filter((g) => g.yawRateGainPerS !== null).map((g) => ({ x: inDisplayUnits(g.speedKph, 'speed', this.units()), y: g.yawRateGainPerS! })),
     })),
   );
 
@@ -344,6 +372,24 @@ export class BalancePage {
       }),
       map((response) => ({ inputs: p, result: response.result })),
     );
+  }
+
+  protected unitOf(kind: QuantityKind): string {
+    return unitLabel(kind, this.units());
+  }
+
+  /** A sensitivity entry's input in words, never its document key: "Rear axle, spring rate". */
+  protected inputName(path: string): string {
+    return vehicleIssuePlace(path.split('.'));
+  }
+
+  /** A sensitivity entry's value with its unit, in the user's units where the quantity has them. */
+  protected inputValue(path: string, value: number): string {
+    const field = ALL_VEHICLE_FIELDS.find((f) => f.path === path);
+    const kind = field?.storedUnit ? STORED_KIND[field.storedUnit] : undefined;
+    if (kind) return `${formatNum(value, { kind }, this.units())} ${unitLabel(kind, this.units())}`;
+    const unit = field && field.plainUnit !== 'ratio' ? ` ${field.plainUnit}` : '';
+    return `${formatNum(value, { sig: 4 })}${unit}`;
   }
 
   protected designName(id: string): string {
