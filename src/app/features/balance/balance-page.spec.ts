@@ -121,7 +121,7 @@ describe('BalancePage', () => {
     expect(title).toContain(`${Number((ratio * 1).toPrecision(3))} deg at the handwheel`);
     // The time axis covers the slower case's settling (2 % band, ISO 7401 style) but not the whole 3 s simulated.
     const settled = Math.max(result.stepSteer.settlingTimeS!, result.comparison!.variant.stepSteer.settlingTimeS!);
-    const ticks = [...chart.querySelectorAll('.rw-axis-x text')].map((t) => Number(t.textContent));
+    const ticks = [...chart.querySelectorAll('.rw-axis-x text')].map((t) => Number(t.textContent!.replace('−', '-')));
     expect(result.stepSteer.durationS).toBe(3);
     expect(settled).toBeLessThan(1);
     expect(Math.max(...ticks)).toBeGreaterThanOrEqual(settled);

@@ -99,5 +99,10 @@ describe('ComparePage', () => {
     // 1 in = 25.4 mm exactly: deg/in = deg/m × 0.0254.
     expect(bump[0]).toBe(String(Number((reference.curves[0]!.bumpSteerDegPerM * 0.0254).toPrecision(3))));
     expect(row(root, 'Toe curvature')[2]).toBe('deg/in²');
+    // The travel range and the curves' travel axis follow too: ±25 mm is ±0.9843 in.
+    expect(root.querySelector('[data-testid="compare-travel"]')!.textContent).toContain('Travel -0.9843 to 0.9843 in');
+    const toeChart = [...root.querySelectorAll('rw-line-chart')].find((c) => c.textContent?.includes('Toe change against wheel travel'))!;
+    const ticks = [...toeChart.querySelectorAll('.rw-axis-x text')].map((t) => Math.abs(Number(t.textContent!.replace('−', '-'))));
+    expect(Math.max(...ticks)).toBeLessThan(1.5);
   });
 });

@@ -15,7 +15,7 @@ import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { formatNum } from '../../core/format/num';
 import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
-import { type QuantityKind, unitLabel } from '../../core/format/quantities';
+import { inDisplayUnits, type QuantityKind, unitLabel } from '../../core/format/quantities';
 
 interface Compared {
   readonly design: AxleDesign;
@@ -139,11 +139,13 @@ export class ComparePage {
     this.overlay((x) => {
       const c = x.curves.find((k) => k.rackMm === 0) ?? x.curves[0]!;
       const ride = c.points.find((p) => p.travelMm === 0)?.toeDeg ?? 0;
-      return c.points.map((p) => ({ x: p.travelMm, y: p.toeDeg - ride }));
+      return c.points.map((p) => ({ x: inDisplayUnits(p.travelMm, 'length', this.units()), y: p.toeDeg - ride }));
     }),
   );
   protected readonly camberOverlay = computed(() =>
-    this.overlay((x) => (x.curves.find((k) => k.rackMm === 0) ?? x.curves[0]!).points.map((p) => ({ x: p.travelMm, y: p.camberDeg }))),
+    this.overlay((x) =>
+      (x.curves.find((k) => k.rackMm === 0) ?? x.curves[0]!).points.map((p) => ({ x: inDisplayUnits(p.travelMm, 'length', this.units()), y: p.camberDeg })),
+    ),
   );
   protected readonly rollOverlay = computed(() =>
     this.overlay((x) => {
