@@ -22,7 +22,9 @@ import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { BumpCostView } from '../bump-cost';
 import { DEFAULT_TRACK_PROFILE } from '../../../../shared/tracks/profiles';
-import { NumPipe } from '../../core/format/num-pipe';
+import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
+import { formatNum } from '../../core/format/num';
+import { inDisplayUnits, type QuantityKind, unitLabel } from '../../core/format/quantities';
 
 const TRAVEL = { from: -25, to: 25, step: 2.5 };
 const ROLL = { from: -3, to: 3, step: 0.25 };
@@ -54,6 +56,8 @@ export class DesignReportPage {
   readonly designId = input.required<string>();
   protected readonly engineVersion = ENGINE_VERSION;
   protected readonly printedAt = new Date().toISOString();
+  /** The user's unit system (SI or inch/pound): the report's figures and curves follow it. */
+  protected readonly units = inject(DISPLAY_UNITS);
   protected readonly travel = TRAVEL;
 
   private readonly loaded = rxResource({
@@ -102,16 +106,19 @@ export class DesignReportPage {
   protected readonly toe = computed<LineSeries[]>(() =>
     (this.analysis()?.curves ?? []).map((c) => {
       const ride = c.points.find((p) => p.travelMm === 0)?.toeDeg ?? 0;
-      return { name: `Rack ${c.rackMm} mm`, points: c.points.map((p) => ({ x: p.travelMm, y: p.toeDeg - ride })) };
+      return { name: this.rackName(c.rackMm), points: c.points.map((p) => ({ x: inDisplayUnits(p.travelMm, 'length', this.units()), y: p.toeDeg - ride })) };
     }),
   );
   protected readonly camber = computed<LineSeries[]>(() =>
-    (this.analysis()?.curves ?? []).map((c) => ({ name: `Rack ${c.rackMm} mm`, points: c.points.map((p) => ({ x: p.travelMm, y: p.camberDeg })) })),
+    (this.analysis()?.curves ?? []).map((c) => ({
+      name: this.rackName(c.rackMm),
+      points: c.points.map((p) => ({ x: inDisplayUnits(p.travelMm, 'length', this.units()), y: p.camberDeg })),
+    })),
   );
   protected readonly roll = computed<LineSeries[]>(() =>
     (this.analysis()?.roll ?? []).map((c) => {
       const zero = c.points.find((p) => p.rollDeg === 0)?.axleSteerDeg ?? 0;
-      return { name: `Rack ${c.rackMm} mm`, points: c.points.map((p) => ({ x: p.rollDeg, y: p.axleSteerDeg - zero })) };
+      return { name: this.rackName(c.rackMm), points: c.points.map((p) => ({ x: p.rollDeg, y: p.axleSteerDeg - zero })) };
     }),
   );
   protected readonly budget = computed<BarGroup[]>(() => {
@@ -181,6 +188,14 @@ export class DesignReportPage {
     const response = await firstValueFrom(this.api.balance<BalanceResponse>(request));
     this.balance.set(response.result);
     this.balanceNote.set(`With the ${otherAxle} axle design ${other ? `"${other.name}"` : 'values of the vehicle page'}.`);
+  }
+
+  protected unit(kind: QuantityKind): string {
+    return unitLabel(kind, this.units());
+  }
+
+  private rackName(rackMm: number): string {
+    return `Rack ${formatNum(rackMm, { kind: 'length' }, this.units())} ${this.unit('length')}`;
   }
 
   protected print(): void {
