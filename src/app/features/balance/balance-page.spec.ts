@@ -98,6 +98,10 @@ describe('BalancePage', () => {
     expect(root.querySelectorAll('rw-line-chart').length).toBe(3);
     expect(root.querySelector('rw-safety-caution')).not.toBeNull();
     expect(root.querySelector('[data-testid="out-of-date"]')).toBeNull();
+    // Where each linked value came from, in words rather than the model's source codes.
+    const used = root.querySelector('.rw-link-notes')!.textContent!;
+    expect(used).toContain("(from the axle design's kinematics)");
+    expect(used).not.toMatch(/\((kinematics|vehicle|not-applicable)\)/);
   });
 
   it('names in its legend the designs actually compared: only the rear differs, so only the rear is named', async () => {

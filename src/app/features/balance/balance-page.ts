@@ -52,6 +52,17 @@ const STORED_KIND: Readonly<Record<string, QuantityKind>> = {
   'kg m^2': 'inertia',
 };
 
+/** Where each linked value came from (shared/balance/link.ts ValueSource, compliance-link.ts ComplianceSource), in words. */
+const SOURCE_WORDS: Readonly<Record<string, string>> = {
+  kinematics: "from the axle design's kinematics",
+  vehicle: 'from the vehicle page',
+  override: 'entered for this evaluation',
+  'not-applicable': 'not used',
+  entered: 'entered on the vehicle page',
+  computed: "from the axle design's bushings",
+  none: 'none',
+};
+
 /** The inputs one evaluation was made with. */
 interface BalanceInputs {
   readonly vehicleId: string;
@@ -372,6 +383,11 @@ export class BalancePage {
       }),
       map((response) => ({ inputs: p, result: response.result })),
     );
+  }
+
+  /** Where a value the balance model used came from, in words. */
+  protected sourceWords(source: string): string {
+    return SOURCE_WORDS[source] ?? source;
   }
 
   protected unitOf(kind: QuantityKind): string {
