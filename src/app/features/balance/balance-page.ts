@@ -19,9 +19,8 @@ import { LineChart } from '../../charts/line-chart';
 import { BarGroup, LineSeries } from '../../charts/chart-types';
 import { AxleDesignSummary, FeaturesApi } from '../features-api';
 import { SafetyCaution } from '../safety-caution';
-import { NumPipe } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
-import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
 import { inDisplayUnits, QUANTITIES, type QuantityKind, unitLabel } from '../../core/format/quantities';
 import type { DisplayUnits } from '../../core/api-types';
 
