@@ -125,16 +125,15 @@ export class Proposals {
         .for('update');
       if (!p) throw notFound('Proposal');
       if (p.status !== 'open') throw closed(p);
-      const [proposer] = p.authorId ? await tx.select({ name: users.displayName }).from(users).where(eq(users.id, p.authorId)) : [];
-      const note = [`Accepted proposal${proposer ? ` by ${proposer.name}` : ''}`, p.message, message].filter(Boolean).join(': ');
       const { row } = await writeRevision(tx, this.designs.document, {
         teamId,
         id: designId,
         baseRevision: p.baseRevision,
         change: { corner: p.corner, status: 'accepted' },
         authorId: deciderId,
-        message: note,
-        // The geometry's author is the proposer; the design records who accepted it.
+        // The revision is the proposer's: their own note and their name, in the history and on the design alike.
+        // Who accepted it, and what they said, stay on the proposal (decidedBy, decisionMessage) and in the activity.
+        message: p.message,
         revisionAuthorId: p.authorId,
         conflict: (current) => this.outdated(p.baseRevision, current),
         activity: (_previous, row) => ({

@@ -180,6 +180,7 @@ export function renderReviewRecordHtml(r: ReviewRecordAnswer): string {
     <dt>Snapshot fingerprint</dt><dd class="fingerprint">${r.approval ? esc(r.approval.fingerprint) : 'none: this revision is not signed off'}</dd>
     <dt>Record made</dt><dd>${when(r.generatedAt)}, engine ${esc(r.engineVersion)}</dd>
     <dt>Filing reference</dt><dd>${esc(r.configuration.id)} / ${r.revision.number}</dd>
+    <dt>Units</dt><dd>SI (mm, kg, N, deg) throughout, as filed, whatever a reader's display setting</dd>
   </dl>
   <p class="safety" role="note"><strong>Safety:</strong> ${esc(r.safetyNotice)}</p>
 </header>

@@ -70,7 +70,9 @@ export async function writeRevision<Row extends { id: string; revision: number }
     const current = await doc.view(tx, w.teamId, w.id);
     throw w.conflict ? w.conflict(current) : staleRevision(w.baseRevision, current);
   }
-  const row = await doc.update(tx, previous, previous.revision + 1, w.change, w.authorId);
+  // The document names its latest revision's author, as the revision list does.
+  const revisionAuthor = w.revisionAuthorId === undefined || w.revisionAuthorId === null ? w.authorId : w.revisionAuthorId;
+  const row = await doc.update(tx, previous, previous.revision + 1, w.change, revisionAuthor);
   await doc.insertRevision(tx, row, { message: w.message, authorId: w.revisionAuthorId === undefined ? w.authorId : w.revisionAuthorId });
   await recordActivity(tx, { teamId: w.teamId, actorId: w.authorId, ...w.activity(previous, row) });
   return { previous, row };

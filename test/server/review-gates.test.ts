@@ -249,6 +249,8 @@ describe('configuration review record', () => {
     expect(page.text).toContain(expected);
     expect(page.text).toContain(REASON);
     expect(page.text).toContain('Verify on a kinematics rig');
+    // The filed record stays in SI and says so (issue 15 §2).
+    expect(page.text).toContain('SI (mm, kg, N, deg) throughout, as filed');
     expect(page.text).not.toContain('<script');
 
     const pdf = await viewer

@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked, ViewEncapsulation } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { DatePipe } from '@angular/common';
 import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
@@ -8,6 +9,7 @@ import type { Caution } from '../../../../shared/cautions/cautions';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { ENGINE_VERSION } from '../../../../shared/version';
 import { apiProblem } from '../../core/http/api-error';
+import { loadState } from '../../core/http/load-state';
 import { BarChart } from '../../charts/bar-chart';
 import { LineChart } from '../../charts/line-chart';
 import { BarGroup, LineSeries } from '../../charts/chart-types';
@@ -20,8 +22,9 @@ import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { BumpCostView } from '../bump-cost';
 import { DEFAULT_TRACK_PROFILE } from '../../../../shared/tracks/profiles';
-import { NumPipe } from '../../core/format/num-pipe';
-import { routeKey } from '../route-params';
+import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
+import { formatNum } from '../../core/format/num';
+import { inDisplayUnits, type QuantityKind, unitLabel } from '../../core/format/quantities';
 
 const TRAVEL = { from: -25, to: 25, step: 2.5 };
 const ROLL = { from: -3, to: 3, step: 0.25 };
@@ -53,10 +56,20 @@ export class DesignReportPage {
   readonly designId = input.required<string>();
   protected readonly engineVersion = ENGINE_VERSION;
   protected readonly printedAt = new Date().toISOString();
+  /** The user's unit system (SI or inch/pound): the report's figures and curves follow it. */
+  protected readonly units = inject(DISPLAY_UNITS);
   protected readonly travel = TRAVEL;
 
-  protected readonly loadError = signal<string | null>(null);
-  protected readonly design = signal<AxleDesign | null>(null);
+  private readonly loaded = rxResource({
+    params: () => ({ teamId: this.teamId(), designId: this.designId() }),
+    stream: ({ params: p }) => this.api.axleDesign(p.teamId, p.designId),
+  });
+  /** The design revision the report is about. */
+  protected readonly state = loadState(this.loaded);
+  protected readonly design = computed(() => {
+    const s = this.state();
+    return s.status === 'ready' ? s.value : null;
+  });
   protected readonly vehicle = signal<VehicleRecord | null>(null);
   protected readonly revisions = signal<readonly RevisionRow[]>([]);
   protected readonly analysis = signal<CornerAnalysis | null>(null);
@@ -64,6 +77,14 @@ export class DesignReportPage {
   protected readonly balance = signal<BalanceResponse | null>(null);
   protected readonly balanceNote = signal<string | null>(null);
   protected readonly source = signal<Proposal | null>(null);
+
+  /** The author of the revision reported, as its revision list names it (the record's last writer until the list is there). */
+  protected readonly revisionAuthor = computed(() => {
+    const d = this.design();
+    if (!d) return null;
+    const row = this.revisions().find((r) => r.revision === d.revision);
+    return row ? row.authorName : d.updatedByName;
+  });
 
   protected readonly words = computed(() => {
     const a = this.analysis();
@@ -85,16 +106,19 @@ export class DesignReportPage {
   protected readonly toe = computed<LineSeries[]>(() =>
     (this.analysis()?.curves ?? []).map((c) => {
       const ride = c.points.find((p) => p.travelMm === 0)?.toeDeg ?? 0;
-      return { name: `Rack ${c.rackMm} mm`, points: c.points.map((p) => ({ x: p.travelMm, y: p.toeDeg - ride })) };
+      return { name: this.rackName(c.rackMm), points: c.points.map((p) => ({ x: inDisplayUnits(p.travelMm, 'length', this.units()), y: p.toeDeg - ride })) };
     }),
   );
   protected readonly camber = computed<LineSeries[]>(() =>
-    (this.analysis()?.curves ?? []).map((c) => ({ name: `Rack ${c.rackMm} mm`, points: c.points.map((p) => ({ x: p.travelMm, y: p.camberDeg })) })),
+    (this.analysis()?.curves ?? []).map((c) => ({
+      name: this.rackName(c.rackMm),
+      points: c.points.map((p) => ({ x: inDisplayUnits(p.travelMm, 'length', this.units()), y: p.camberDeg })),
+    })),
   );
   protected readonly roll = computed<LineSeries[]>(() =>
     (this.analysis()?.roll ?? []).map((c) => {
       const zero = c.points.find((p) => p.rollDeg === 0)?.axleSteerDeg ?? 0;
-      return { name: `Rack ${c.rackMm} mm`, points: c.points.map((p) => ({ x: p.rollDeg, y: p.axleSteerDeg - zero })) };
+      return { name: this.rackName(c.rackMm), points: c.points.map((p) => ({ x: p.rollDeg, y: p.axleSteerDeg - zero })) };
     }),
   );
   protected readonly budget = computed<BarGroup[]>(() => {
@@ -114,24 +138,19 @@ export class DesignReportPage {
   });
 
   constructor() {
-    // Loads on arrival and again when the router reuses this page for other route parameters.
+    // Each loaded design (on arrival, and when the router reuses this page for another one) is solved and reported.
     effect(() => {
-      routeKey(this.teamId(), this.vehicleId(), this.designId());
-      untracked(() => {
-        void this.load();
-      });
+      const design = this.design();
+      if (design) {
+        untracked(() => {
+          void this.analyse(design);
+        });
+      }
     });
   }
 
-  private async load(): Promise<void> {
-    let design: AxleDesign;
-    try {
-      design = await firstValueFrom(this.api.axleDesign(this.teamId(), this.designId()));
-      this.design.set(design);
-    } catch (error) {
-      this.loadError.set(apiProblem(error).message);
-      return;
-    }
+  /** The design's kinematics (in the Web Worker), its revisions and source proposal, and the vehicle's balance with it. */
+  private async analyse(design: AxleDesign): Promise<void> {
     const stroke = design.corner.steered && design.corner.steering?.kind === 'rack' ? design.corner.steering.rackStroke : null;
     // The bump cost beside the roll steer needs the vehicle's ride data (masses, springs, dampers, tyres).
     const vehicleData = await firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId()))
@@ -169,6 +188,14 @@ export class DesignReportPage {
     const response = await firstValueFrom(this.api.balance<BalanceResponse>(request));
     this.balance.set(response.result);
     this.balanceNote.set(`With the ${otherAxle} axle design ${other ? `"${other.name}"` : 'values of the vehicle page'}.`);
+  }
+
+  protected unit(kind: QuantityKind): string {
+    return unitLabel(kind, this.units());
+  }
+
+  private rackName(rackMm: number): string {
+    return `Rack ${formatNum(rackMm, { kind: 'length' }, this.units())} ${this.unit('length')}`;
   }
 
   protected print(): void {

@@ -29,6 +29,8 @@ describe('ReviewRecordPage', () => {
     expect(pdf.getAttribute('href')).toBe('/api/teams/t-tal/configurations/c1/record.pdf');
     expect(pdf.hasAttribute('download')).toBe(true);
     expect(root.querySelector('rw-safety-caution')!.textContent).toContain('Verify on a kinematics rig');
+    // The filed record is in SI whatever the reader's display setting, and the page says so.
+    expect(root.querySelector('[data-testid="record-units"]')!.textContent).toContain('in SI units');
     // Printing is offered once the document is there.
     const print = [...root.querySelectorAll('button')].find((b) => b.textContent!.includes('Print'))!;
     frame.dispatchEvent(new Event('load'));

@@ -33,6 +33,10 @@ import { SafetyCaution } from '../safety-caution';
         </div>
       </header>
       <rw-safety-caution />
+      <p class="rw-muted rw-record-units" data-testid="record-units">
+        The review record is the filed document: its figures are in SI units (mm, kg, N, deg) whatever your display setting, so every
+        copy reads the same.
+      </p>
       @if (!loaded()) {
         <mat-progress-bar mode="indeterminate" aria-label="Preparing the review record" />
         <p class="rw-state" role="status">Preparing the review record (both axles are computed now)…</p>
@@ -53,7 +57,7 @@ import { SafetyCaution } from '../safety-caution';
     .rw-record-actions .material-symbols-outlined { vertical-align: middle; margin-right: 0.25rem; }
     .rw-record-frame { width: 100%; min-height: 80vh; border: 1px solid var(--mat-sys-outline-variant); background: #fff; }
     @media print {
-      .rw-record-toolbar, rw-safety-caution { display: none; }
+      .rw-record-toolbar, rw-safety-caution, .rw-record-units { display: none; }
       .rw-record-frame { border: 0; min-height: 0; height: auto; }
     }
   `,
