@@ -13,11 +13,10 @@
  */
 import { randomInt } from 'node:crypto';
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
-import { parseOrThrow } from '../../shared/errors.js';
 import { planStudy, studyKeyFigures, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, type StudyKeyFigure, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
 import type { Database } from '../db/client.js';
 import { configurations, programmeTeams, studies, studyAttachments, teams, users } from '../db/schema.js';
-import { HttpError, notFound, validate } from '../http/errors.js';
+import { DomainError, notFound, parseOrThrow } from '../../shared/errors.js';
 import type { AxleDesigns } from './axle-designs.js';
 import type { Configurations } from './configurations.js';
 import type { Proposals, ProposalView } from './proposals.js';
@@ -106,14 +105,14 @@ export class Studies {
   ) {}
 
   async create(teamId: string, userId: string, body: unknown): Promise<StudyView> {
-    const request = validate(studyRequestSchema, body, 'study');
+    const request = parseOrThrow(studyRequestSchema, body, 'study');
     const [{ active } = { active: 0 }] = await this.db.orm
       .select({ active: sql<number>`count(*)::int` })
       .from(studies)
       .where(and(eq(studies.teamId, teamId), inArray(studies.status, ['queued', 'running'])));
     if (active >= this.o.maxActivePerTeam) {
-      throw new HttpError(
-        429,
+      throw new DomainError(
+        'too_many',
         'too_many_studies',
         `Your team already has ${active} studies waiting or running (at most ${this.o.maxActivePerTeam} at once); wait for one to finish or cancel one`,
         { limit: this.o.maxActivePerTeam },
@@ -171,7 +170,7 @@ export class Studies {
   async csv(teamId: string, id: string): Promise<{ filename: string; text: string }> {
     const r = await this.row(teamId, id);
     if (r.error && (r.error as { code?: string }).code === 'job_gone') throw gone(r);
-    if (r.status !== 'completed' || !r.result) throw new HttpError(409, 'study_not_completed', 'The study has no result yet; export it once it has completed');
+    if (r.status !== 'completed' || !r.result) throw new DomainError('conflict', 'study_not_completed', 'The study has no result yet; export it once it has completed');
     const slug = r.label.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'study';
     return { filename: `${slug}.csv`, text: studyResultCsv(r.spec as StudySpec, r.result as StudyResult) };
   }
@@ -179,8 +178,8 @@ export class Studies {
   /** Opens variant `index` of a completed design sweep as a proposal on the studied axle design. */
   async proposeVariant(teamId: string, id: string, index: number, userId: string): Promise<ProposalView> {
     const r = await this.row(teamId, id);
-    if (r.kind !== 'sweep') throw new HttpError(409, 'not_a_sweep', 'Only a design sweep has variants to propose');
-    if (r.status !== 'completed') throw new HttpError(409, 'study_not_completed', 'The sweep has not completed yet');
+    if (r.kind !== 'sweep') throw new DomainError('conflict', 'not_a_sweep', 'Only a design sweep has variants to propose');
+    if (r.status !== 'completed') throw new DomainError('conflict', 'study_not_completed', 'The sweep has not completed yet');
     const t = r.target as { designId?: string; revision?: number };
     if (!t.designId || !t.revision) throw notFound('Axle design');
     const corner = variantCorner(r.spec as StudySpec, index);
@@ -195,7 +194,7 @@ export class Studies {
   /** Attaches a completed study to a configuration of the same team (idempotent: attaching again updates the note). */
   async attach(teamId: string, id: string, configurationId: string, userId: string, note: string): Promise<AttachedStudy> {
     const r = await this.row(teamId, id);
-    if (r.status !== 'completed' || !r.result) throw new HttpError(409, 'study_not_completed', 'Only a completed study can be attached to a configuration');
+    if (r.status !== 'completed' || !r.result) throw new DomainError('conflict', 'study_not_completed', 'Only a completed study can be attached to a configuration');
     const [c] = await this.db.orm.select({ id: configurations.id }).from(configurations).where(and(eq(configurations.id, configurationId), eq(configurations.teamId, teamId)));
     if (!c) throw notFound('Configuration');
     await this.db.orm
@@ -341,8 +340,8 @@ function attachedView(r: { a: typeof studyAttachments.$inferSelect; label: strin
   };
 }
 
-function gone(r: Row): HttpError {
-  return new HttpError(410, 'job_gone', (r.error as { message: string }).message, { reason: 'lost', studyId: r.id });
+function gone(r: Row): DomainError {
+  return new DomainError('gone', 'job_gone', (r.error as { message: string }).message, { reason: 'lost', studyId: r.id });
 }
 
 function view(r: ListRow, result?: StudyResult | null): StudyView {
