@@ -21,6 +21,7 @@ import type { VehicleView } from '../services/vehicles.js';
 import type { AxleDesignView } from '../services/axle-designs.js';
 import type { ProposalView } from '../services/proposals.js';
 import type { ConfigurationView } from '../services/configurations.js';
+import type { RigMeasurementSummary } from '../services/rig-measurements.js';
 
 /** What each loader puts on the request. */
 export interface Loaded {
@@ -28,6 +29,7 @@ export interface Loaded {
   design: AxleDesignView;
   configuration: ConfigurationView;
   proposal: ProposalView;
+  rigMeasurement: RigMeasurementSummary;
 }
 
 type Loaders = { [K in keyof Loaded]?: () => Promise<Loaded[K]> };

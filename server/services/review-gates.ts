@@ -126,7 +126,7 @@ export class ReviewGates {
       const rows = (await this.rig.list(teamId, { designId })).filter((m) => m.designRevision === designRevision).slice(0, EVIDENCE_LIMIT);
       const measurements: RigEvidence[] = [];
       for (const row of rows) {
-        const m = await this.rig.get(teamId, row.id);
+        const m = await this.rig.get(teamId, row);
         const disagreeing = m.comparison.cautions.some((c) => c.code === 'rig-toe-disagreement' || c.code === 'rig-camber-disagreement');
         measurements.push({
           id: m.id,
