@@ -22,6 +22,7 @@ import type { AxleDesignView } from '../services/axle-designs.js';
 import type { ProposalView } from '../services/proposals.js';
 import type { ConfigurationView } from '../services/configurations.js';
 import type { RigMeasurementSummary } from '../services/rig-measurements.js';
+import type { StudyRow } from '../services/studies.js';
 
 /** What each loader puts on the request. */
 export interface Loaded {
@@ -30,6 +31,7 @@ export interface Loaded {
   configuration: ConfigurationView;
   proposal: ProposalView;
   rigMeasurement: RigMeasurementSummary;
+  study: StudyRow;
 }
 
 type Loaders = { [K in keyof Loaded]?: () => Promise<Loaded[K]> };

@@ -61,6 +61,8 @@ export function chunkJobId(studyId: string, i: number): string {
 }
 
 type Row = typeof studies.$inferSelect;
+/** A study row as the `:studyId` loader gives it, with its creator's name. */
+export type StudyRow = Row & { creatorName: string | null };
 
 const listColumns = {
   id: studies.id,
@@ -134,7 +136,7 @@ export class Studies {
       await this.queue.notify('wake', client);
       return studyId;
     }))!;
-    return this.get(teamId, id);
+    return this.get(await this.load(teamId, id));
   }
 
   async list(teamId: string): Promise<StudyView[]> {
@@ -149,26 +151,24 @@ export class Studies {
   }
 
   /** The study with its result; 410 job_gone when its work was lost. */
-  async get(teamId: string, id: string): Promise<StudyView> {
-    const r = await this.row(teamId, id);
+  get(r: StudyRow): StudyView {
     if (r.error && (r.error as { code?: string }).code === 'job_gone') throw gone(r);
     return view(r, r.result as StudyResult | null);
   }
 
-  async cancel(teamId: string, id: string): Promise<StudyView> {
-    const r = await this.row(teamId, id);
-    if (r.status !== 'queued' && r.status !== 'running') return this.get(teamId, id);
+  async cancel(teamId: string, r: StudyRow): Promise<StudyView> {
+    const id = r.id;
+    if (r.status !== 'queued' && r.status !== 'running') return this.get(r);
     const [updated] = await this.db.orm
       .update(studies)
       .set({ status: 'cancelled', finishedAt: new Date() })
       .where(and(eq(studies.id, id), inArray(studies.status, ['queued', 'running'])))
       .returning({ id: studies.id });
     if (updated) await cancelStudyChunks(this.queue, id, r.totalChunks);
-    return this.get(teamId, id);
+    return this.get(await this.load(teamId, id));
   }
 
-  async csv(teamId: string, id: string): Promise<{ filename: string; text: string }> {
-    const r = await this.row(teamId, id);
+  csv(r: StudyRow): { filename: string; text: string } {
     if (r.error && (r.error as { code?: string }).code === 'job_gone') throw gone(r);
     if (r.status !== 'completed' || !r.result) throw new DomainError('conflict', 'study_not_completed', 'The study has no result yet; export it once it has completed');
     const slug = r.label.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'study';
@@ -176,8 +176,7 @@ export class Studies {
   }
 
   /** Opens variant `index` of a completed design sweep as a proposal on the studied axle design. */
-  async proposeVariant(teamId: string, id: string, index: number, userId: string): Promise<ProposalView> {
-    const r = await this.row(teamId, id);
+  async proposeVariant(teamId: string, r: StudyRow, index: number, userId: string): Promise<ProposalView> {
     if (r.kind !== 'sweep') throw new DomainError('conflict', 'not_a_sweep', 'Only a design sweep has variants to propose');
     if (r.status !== 'completed') throw new DomainError('conflict', 'study_not_completed', 'The sweep has not completed yet');
     const t = r.target as { designId?: string; revision?: number };
@@ -187,13 +186,13 @@ export class Studies {
       corner,
       baseRevision: t.revision,
       message: `Variant ${index + 1} of "${r.label}"`,
-      origin: { studyId: id, variant: index },
+      origin: { studyId: r.id, variant: index },
     });
   }
 
   /** Attaches a completed study to a configuration of the same team (idempotent: attaching again updates the note). */
-  async attach(teamId: string, id: string, configurationId: string, userId: string, note: string): Promise<AttachedStudy> {
-    const r = await this.row(teamId, id);
+  async attach(teamId: string, r: StudyRow, configurationId: string, userId: string, note: string): Promise<AttachedStudy> {
+    const id = r.id;
     if (r.status !== 'completed' || !r.result) throw new DomainError('conflict', 'study_not_completed', 'Only a completed study can be attached to a configuration');
     const [c] = await this.db.orm.select({ id: configurations.id }).from(configurations).where(and(eq(configurations.id, configurationId), eq(configurations.teamId, teamId)));
     if (!c) throw notFound('Configuration');
@@ -205,8 +204,8 @@ export class Studies {
     return list.find((a) => a.studyId === id)!;
   }
 
-  async detach(teamId: string, id: string, configurationId: string): Promise<void> {
-    await this.row(teamId, id);
+  async detach(teamId: string, r: StudyRow, configurationId: string): Promise<void> {
+    const id = r.id;
     const gone = await this.db.orm
       .delete(studyAttachments)
       .where(and(eq(studyAttachments.studyId, id), eq(studyAttachments.configurationId, configurationId), eq(studyAttachments.teamId, teamId)))
@@ -252,7 +251,8 @@ export class Studies {
     return { programmeId, teams: out };
   }
 
-  private async row(teamId: string, id: string): Promise<Row & { creatorName: string | null }> {
+  /** The study, if it is the team's (the `:studyId` loader). */
+  async load(teamId: string, id: string): Promise<StudyRow> {
     const [r] = await this.db.orm
       .select({ study: studies, creatorName: users.displayName })
       .from(studies)
