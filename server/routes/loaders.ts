@@ -23,6 +23,7 @@ import type { ProposalView } from '../services/proposals.js';
 import type { ConfigurationView } from '../services/configurations.js';
 import type { RigMeasurementSummary } from '../services/rig-measurements.js';
 import type { StudyRow } from '../services/studies.js';
+import type { ProgrammeRow } from '../services/programmes.js';
 
 /** What each loader puts on the request. */
 export interface Loaded {
@@ -32,6 +33,7 @@ export interface Loaded {
   proposal: ProposalView;
   rigMeasurement: RigMeasurementSummary;
   study: StudyRow;
+  programme: ProgrammeRow;
 }
 
 type Loaders = { [K in keyof Loaded]?: () => Promise<Loaded[K]> };

@@ -19,7 +19,9 @@ import { currentAccess, currentUser, type Authorizer } from '../http/authorize.j
 import { validate } from '../http/errors.js';
 import type { Studies } from '../services/studies.js';
 import { idParam } from './vehicles.js';
-import { loadParam, loaded } from './loaders.js';
+import { loadParam, loadParentParam, loaded } from './loaders.js';
+import { loadProgramme } from './programmes.js';
+import type { Programmes } from '../services/programmes.js';
 
 const indexParam = z.coerce.number().int().min(0).max(1_000_000);
 const listQuery = z.object({ attachedTo: z.uuid('must be a configuration id').optional() });
@@ -82,10 +84,11 @@ export function studiesRouter(studies: Studies, auth: Authorizer): Router {
 }
 
 /** Mounted at /api/programmes/:programmeId/studies: the programme board's study column (its instructor only, as the board). */
-export function programmeStudiesRouter(studies: Studies, auth: Authorizer): Router {
+export function programmeStudiesRouter(studies: Studies, programmes: Programmes, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
+  r.use(loadParentParam('programmeId', loadProgramme(programmes)));
   r.get('/', auth.requireUser, async (req, res) => {
-    res.json(await studies.programmeStudies(currentUser(req), idParam((req.params as Record<string, string>)['programmeId'], 'Programme')));
+    res.json(await studies.programmeStudies(await loaded(req, 'programme')));
   });
   return r;
 }

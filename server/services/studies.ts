@@ -21,7 +21,7 @@ import type { AxleDesigns } from './axle-designs.js';
 import type { Configurations } from './configurations.js';
 import type { Proposals, ProposalView } from './proposals.js';
 import type { Vehicles } from './vehicles.js';
-import type { Programmes } from './programmes.js';
+import type { ProgrammeRow } from './programmes.js';
 import { QUEUES, bossDb, inTransaction, type JobQueue, type QueueJobData } from '../compute/queue.js';
 import type { AxleName } from '../../shared/schema/axle.js';
 
@@ -102,7 +102,7 @@ export class Studies {
   constructor(
     private readonly db: Database,
     private readonly queue: JobQueue,
-    private readonly deps: { designs: AxleDesigns; vehicles: Vehicles; configurations: Configurations; proposals: Proposals; programmes: Programmes },
+    private readonly deps: { designs: AxleDesigns; vehicles: Vehicles; configurations: Configurations; proposals: Proposals },
     private readonly o: StudyOptions,
   ) {}
 
@@ -227,8 +227,8 @@ export class Studies {
   }
 
   /** The programme board's study column: per accepted team, its latest attached study (instructor of the programme only). */
-  async programmeStudies(user: { id: string }, programmeId: string): Promise<{ programmeId: string; teams: { teamId: string; teamName: string; configurationName: string | null; study: AttachedStudy | null }[] }> {
-    await this.deps.programmes.get(user, programmeId);
+  async programmeStudies(programme: ProgrammeRow): Promise<{ programmeId: string; teams: { teamId: string; teamName: string; configurationName: string | null; study: AttachedStudy | null }[] }> {
+    const programmeId = programme.id;
     const members = await this.db.orm
       .select({ teamId: programmeTeams.teamId, teamName: teams.name })
       .from(programmeTeams)
