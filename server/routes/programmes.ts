@@ -9,15 +9,19 @@ import { currentAccess, currentUser, type Authorizer } from '../http/authorize.j
 import { TRACK_PROFILE_IDS } from '../../shared/tracks/profiles.js';
 import { Programmes, type BoardRow } from '../services/programmes.js';
 import { idParam } from './vehicles.js';
+import { loadParam, loaded } from './loaders.js';
 
 const createSchema = z.strictObject({ name: z.string().trim().min(1, 'is required').max(120), trackProfile: z.enum(TRACK_PROFILE_IDS) });
 const inviteSchema = z.strictObject({ teamSlug: z.string().trim().min(1).max(60) });
 const snapshotSchema = z.strictObject({ label: z.string().trim().min(1).max(120).optional() });
 const formatQuery = z.object({ format: z.enum(['json', 'csv']).optional() });
 
+/** The `:programmeId` loader of the instructor's routes: the programme, for its instructor only (anyone else: 404). */
+export const loadProgramme = (programmes: Programmes) => loadParam('programme', 'Programme', (req, id) => programmes.load(currentUser(req), id));
+
 export function programmesRouter(programmes: Programmes, auth: Authorizer): Router {
   const r = Router();
-  const pid = (raw: unknown) => idParam(raw, 'Programme');
+  r.param('programmeId', loadProgramme(programmes));
 
   r.get('/', auth.requireUser, async (req, res) => {
     res.json(await programmes.list(currentUser(req)));
@@ -26,25 +30,26 @@ export function programmesRouter(programmes: Programmes, auth: Authorizer): Rout
     res.status(201).json(await programmes.create(currentUser(req), validate(createSchema, req.body)));
   });
   r.get('/:programmeId', auth.requireUser, async (req, res) => {
-    res.json(await programmes.get(currentUser(req), pid(req.params['programmeId'])));
+    res.json(await programmes.get(await loaded(req, 'programme')));
   });
   r.post('/:programmeId/teams', auth.requireUser, async (req, res) => {
     const { teamSlug } = validate(inviteSchema, req.body);
-    res.status(201).json(await programmes.inviteTeam(currentUser(req), pid(req.params['programmeId']), teamSlug));
+    res.status(201).json(await programmes.inviteTeam(await loaded(req, 'programme'), teamSlug));
   });
   r.get('/:programmeId/board', auth.requireUser, async (req, res) => {
-    res.json(await programmes.board(currentUser(req), pid(req.params['programmeId'])));
+    res.json(await programmes.board(await loaded(req, 'programme')));
   });
   r.post('/:programmeId/snapshots', auth.requireUser, async (req, res) => {
     const { label } = validate(snapshotSchema, req.body ?? {});
-    res.status(201).json(await programmes.snapshot(currentUser(req), pid(req.params['programmeId']), label));
+    res.status(201).json(await programmes.snapshot(currentUser(req), await loaded(req, 'programme'), label));
   });
   r.get('/:programmeId/snapshots', auth.requireUser, async (req, res) => {
-    res.json(await programmes.snapshots(currentUser(req), pid(req.params['programmeId'])));
+    res.json(await programmes.snapshots(await loaded(req, 'programme')));
   });
   r.get('/:programmeId/snapshots/:snapshotId', auth.requireUser, async (req, res) => {
     const q = validate(formatQuery, req.query, 'query');
-    const s = await programmes.snapshotById(currentUser(req), pid(req.params['programmeId']), idParam(req.params['snapshotId'], 'Snapshot'));
+    const p = await loaded(req, 'programme');
+    const s = await programmes.snapshotById(p, idParam(req.params['snapshotId'], 'Snapshot'));
     if (q.format === 'csv') {
       res.setHeader('Content-Type', 'text/csv; charset=utf-8');
       res.setHeader('Content-Disposition', `attachment; filename="programme-board-${s.takenAt.toISOString().slice(0, 10)}.csv"`);

@@ -18,7 +18,7 @@ import { INTENT_RANGES } from '../../shared/schema/ranges.js';
 import { inRange } from '../../shared/schema/ranged.js';
 import { RIG_BASES, rigToleranceSchema } from '../../shared/rig/compare.js';
 import type { RigMeasurements } from '../services/rig-measurements.js';
-import { idParam } from './vehicles.js';
+import { loadParam, loaded } from './loaders.js';
 
 const uuid = z.uuid('must be an id');
 const rev = z.number().int().positive();
@@ -50,7 +50,7 @@ const RIG_EXTENSIONS = ['csv', 'txt', 'tsv'];
 export function rigMeasurementsRouter(rig: RigMeasurements, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
   const { requirePermission } = auth;
-  const measurementId = (raw: unknown) => idParam(raw, 'Rig measurement');
+  r.param('measurementId', loadParam('rigMeasurement', 'Rig measurement', (req, id) => rig.summary(currentAccess(req).teamId, id)));
 
   r.post('/rig-measurements/preview', requirePermission('vehicle:manage'), singleTextUpload('file', RIG_EXTENSIONS), (req, res) => {
     validate(z.strictObject({}), req.body ?? {}, 'upload fields');
@@ -72,11 +72,11 @@ export function rigMeasurementsRouter(rig: RigMeasurements, auth: Authorizer): R
   });
 
   r.get('/rig-measurements/:measurementId', requirePermission('team:read'), async (req, res) => {
-    res.json(await rig.get(currentAccess(req).teamId, measurementId(req.params['measurementId'])));
+    res.json(await rig.get(currentAccess(req).teamId, await loaded(req, 'rigMeasurement')));
   });
 
   r.delete('/rig-measurements/:measurementId', requirePermission('vehicle:manage'), async (req, res) => {
-    await rig.remove(currentAccess(req).teamId, measurementId(req.params['measurementId']), currentUser(req).id);
+    await rig.remove(currentAccess(req).teamId, await loaded(req, 'rigMeasurement'), currentUser(req).id);
     res.status(204).end();
   });
 

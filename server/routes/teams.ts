@@ -1,7 +1,8 @@
 /** /api/teams: teams and their members (who join only by accepting an invitation: routes/invitations.ts). */
 import { Router } from 'express';
 import { z } from 'zod';
-import { validate, notFound } from '../http/errors.js';
+import { validate } from '../http/errors.js';
+import { notFound } from '../../shared/errors.js';
 import { currentAccess, currentUser, isUuid, type Authorizer } from '../http/authorize.js';
 import { ROLES } from '../permissions.js';
 import type { Teams } from '../services/teams.js';

@@ -1,7 +1,8 @@
 /** /api/teams/:teamId/vehicles: vehicles, their data and revisions. */
 import { Router } from 'express';
 import { z } from 'zod';
-import { notFound, validate } from '../http/errors.js';
+import { validate } from '../http/errors.js';
+import { notFound } from '../../shared/errors.js';
 import { currentAccess, currentUser, isUuid, type Authorizer } from '../http/authorize.js';
 import { parseVehicleData, type Vehicles } from '../services/vehicles.js';
 import { loadParam, loaded } from './loaders.js';

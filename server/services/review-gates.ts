@@ -17,8 +17,8 @@
 import { asc, eq } from 'drizzle-orm';
 import type { Executor, Orm } from '../db/client.js';
 import { cautionAcknowledgements, rigEvidenceWaivers, users } from '../db/schema.js';
+import { DomainError, InputError } from '../../shared/errors.js';
 import type { AxleName } from '../../shared/schema/axle.js';
-import { HttpError } from '../http/errors.js';
 import type { ComputePool } from '../compute/pool.js';
 import type { AxleCautionList } from '../../shared/cautions/configuration-cautions.js';
 import type { Caution } from '../../shared/cautions/cautions.js';
@@ -126,7 +126,7 @@ export class ReviewGates {
       const rows = (await this.rig.list(teamId, { designId })).filter((m) => m.designRevision === designRevision).slice(0, EVIDENCE_LIMIT);
       const measurements: RigEvidence[] = [];
       for (const row of rows) {
-        const m = await this.rig.get(teamId, row.id);
+        const m = await this.rig.get(teamId, row);
         const disagreeing = m.comparison.cautions.some((c) => c.code === 'rig-toe-disagreement' || c.code === 'rig-camber-disagreement');
         measurements.push({
           id: m.id,
@@ -228,11 +228,11 @@ export class ReviewGates {
       else if (!byKey.has(key(a))) fields.push({ path: `acknowledgements[${i}]`, message: `${AXLE_WORDS[a.axle]} has no Critical caution "${a.code}" on revision ${before.revision}` });
       seen.add(key(a));
     });
-    if (fields.length) throw new HttpError(400, 'invalid_input', `Acknowledgements that match no Critical caution: ${fields.map((f) => f.message).join('; ')}`, { fields });
+    if (fields.length) throw new InputError(`Acknowledgements that match no Critical caution: ${fields.map((f) => f.message).join('; ')}`, fields);
     const missing = critical.filter((c) => !seen.has(key(c)));
     if (missing.length) {
-      throw new HttpError(
-        409,
+      throw new DomainError(
+        'conflict',
         'cautions_unacknowledged',
         `Signing off needs a written reason for every Critical caution. Not yet acknowledged: ${missing.map((c) => `${AXLE_WORDS[c.axle].toLowerCase()}: ${c.message}`).join('; ')}`,
         { unacknowledged: missing },
@@ -256,7 +256,7 @@ export class ReviewGates {
     const [evidence, tolerance] = await Promise.all([this.evidence(teamId, refs), this.rig.tolerance(teamId)]);
     const twice = waivers.findIndex((w, i) => waivers.findIndex((x) => x.axle === w.axle) !== i);
     if (twice >= 0) {
-      throw new HttpError(400, 'invalid_input', `${AXLE_WORDS[waivers[twice]!.axle]} is waived twice`, { fields: [{ path: `waivers[${twice}]`, message: 'this axle is waived twice' }] });
+      throw new InputError(`${AXLE_WORDS[waivers[twice]!.axle]} is waived twice`, [{ path: `waivers[${twice}]`, message: 'this axle is waived twice' }]);
     }
     const missing = evidence.filter((e) => !e.satisfied && !waivers.some((w) => w.axle === e.axle));
     if (missing.length) {
@@ -266,7 +266,7 @@ export class ReviewGates {
           ? `${AXLE_WORDS[e.axle].toLowerCase()} (${e.measurements.length} measurement${e.measurements.length === 1 ? '' : 's'} of design revision ${e.designRevision}, none ${within})`
           : `${AXLE_WORDS[e.axle].toLowerCase()} (no rig measurement of design revision ${e.designRevision})`,
       );
-      throw new HttpError(409, 'rig_evidence_missing', `Marking as validated needs rig evidence ${within} for each axle, or a recorded waiver with a reason. Missing: ${what.join('; ')}`, {
+      throw new DomainError('conflict', 'rig_evidence_missing', `Marking as validated needs rig evidence ${within} for each axle, or a recorded waiver with a reason. Missing: ${what.join('; ')}`, {
         axles: missing.map((e) => ({ axle: e.axle, designId: e.designId, designRevision: e.designRevision, measurements: e.measurements.length })),
         tolerance: { toeDeg: tolerance.toeDeg, camberDeg: tolerance.camberDeg },
       });

@@ -12,7 +12,7 @@ import { createHash } from 'node:crypto';
 import { and, asc, eq } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { configurationApprovals, configurationRevisions, teams, users } from '../db/schema.js';
-import { notFound } from '../http/errors.js';
+import { notFound } from '../../shared/errors.js';
 import type { ComputePool } from '../compute/pool.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import { SAFETY_CAUTION } from '../../shared/cautions/cautions.js';

@@ -45,6 +45,9 @@ export interface RigToleranceView extends RigTolerance {
 const rowErrors = (errors: string[]) =>
   new DomainError('invalid', 'rig_rows', `The rig file was refused: ${errors[0]}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, { errors });
 
+/** A measurement's row without its points: what the list shows and the `:measurementId` loader gives. */
+export type RigMeasurementSummary = Awaited<ReturnType<RigMeasurements['list']>>[number];
+
 const summaryColumns = {
   id: rigMeasurements.id,
   name: rigMeasurements.name,
@@ -210,16 +213,16 @@ export class RigMeasurements {
       .leftJoin(users, eq(users.id, rigMeasurements.authorId));
   }
 
-  private async summary(teamId: string, id: string) {
+  /** The measurement's summary row, if it is the team's (the `:measurementId` loader). */
+  async summary(teamId: string, id: string): Promise<RigMeasurementSummary> {
     const [row] = await this.select().where(and(eq(rigMeasurements.id, id), eq(rigMeasurements.teamId, teamId)));
     if (!row) throw notFound('Rig measurement');
     return row;
   }
 
   /** One measurement with its mapping and points, and the comparison recomputed now with the team's tolerance. */
-  async get(teamId: string, id: string) {
-    const s = await this.summary(teamId, id);
-    const [row] = await this.orm.select({ mapping: rigMeasurements.mapping, points: rigMeasurements.points }).from(rigMeasurements).where(eq(rigMeasurements.id, id));
+  async get(teamId: string, s: RigMeasurementSummary) {
+    const [row] = await this.orm.select({ mapping: rigMeasurements.mapping, points: rigMeasurements.points }).from(rigMeasurements).where(eq(rigMeasurements.id, s.id));
     const points = row!.points;
     const corner = await this.designCorner(s.designId, s.designRevision);
     const tolerance = await this.tolerance(teamId);
@@ -227,10 +230,9 @@ export class RigMeasurements {
     return { ...s, mapping: row!.mapping, points, comparison, engineVersion: ENGINE_VERSION };
   }
 
-  async remove(teamId: string, id: string, userId: string): Promise<void> {
-    const s = await this.summary(teamId, id);
+  async remove(teamId: string, s: RigMeasurementSummary, userId: string): Promise<void> {
     await this.orm.transaction(async (tx) => {
-      await tx.delete(rigMeasurements).where(eq(rigMeasurements.id, id));
+      await tx.delete(rigMeasurements).where(eq(rigMeasurements.id, s.id));
       await recordActivity(tx, {
         teamId,
         actorId: userId,

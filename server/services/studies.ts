@@ -13,16 +13,15 @@
  */
 import { randomInt } from 'node:crypto';
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
-import { parseOrThrow } from '../../shared/errors.js';
 import { planStudy, studyKeyFigures, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, type StudyKeyFigure, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
 import type { Database } from '../db/client.js';
 import { configurations, programmeTeams, studies, studyAttachments, teams, users } from '../db/schema.js';
-import { HttpError, notFound, validate } from '../http/errors.js';
+import { DomainError, notFound, parseOrThrow } from '../../shared/errors.js';
 import type { AxleDesigns } from './axle-designs.js';
 import type { Configurations } from './configurations.js';
 import type { Proposals, ProposalView } from './proposals.js';
 import type { Vehicles } from './vehicles.js';
-import type { Programmes } from './programmes.js';
+import type { ProgrammeRow } from './programmes.js';
 import { QUEUES, bossDb, inTransaction, type JobQueue, type QueueJobData } from '../compute/queue.js';
 import type { AxleName } from '../../shared/schema/axle.js';
 
@@ -62,6 +61,8 @@ export function chunkJobId(studyId: string, i: number): string {
 }
 
 type Row = typeof studies.$inferSelect;
+/** A study row as the `:studyId` loader gives it, with its creator's name. */
+export type StudyRow = Row & { creatorName: string | null };
 
 const listColumns = {
   id: studies.id,
@@ -101,19 +102,19 @@ export class Studies {
   constructor(
     private readonly db: Database,
     private readonly queue: JobQueue,
-    private readonly deps: { designs: AxleDesigns; vehicles: Vehicles; configurations: Configurations; proposals: Proposals; programmes: Programmes },
+    private readonly deps: { designs: AxleDesigns; vehicles: Vehicles; configurations: Configurations; proposals: Proposals },
     private readonly o: StudyOptions,
   ) {}
 
   async create(teamId: string, userId: string, body: unknown): Promise<StudyView> {
-    const request = validate(studyRequestSchema, body, 'study');
+    const request = parseOrThrow(studyRequestSchema, body, 'study');
     const [{ active } = { active: 0 }] = await this.db.orm
       .select({ active: sql<number>`count(*)::int` })
       .from(studies)
       .where(and(eq(studies.teamId, teamId), inArray(studies.status, ['queued', 'running'])));
     if (active >= this.o.maxActivePerTeam) {
-      throw new HttpError(
-        429,
+      throw new DomainError(
+        'too_many',
         'too_many_studies',
         `Your team already has ${active} studies waiting or running (at most ${this.o.maxActivePerTeam} at once); wait for one to finish or cancel one`,
         { limit: this.o.maxActivePerTeam },
@@ -135,7 +136,7 @@ export class Studies {
       await this.queue.notify('wake', client);
       return studyId;
     }))!;
-    return this.get(teamId, id);
+    return this.get(await this.load(teamId, id));
   }
 
   async list(teamId: string): Promise<StudyView[]> {
@@ -150,37 +151,34 @@ export class Studies {
   }
 
   /** The study with its result; 410 job_gone when its work was lost. */
-  async get(teamId: string, id: string): Promise<StudyView> {
-    const r = await this.row(teamId, id);
+  get(r: StudyRow): StudyView {
     if (r.error && (r.error as { code?: string }).code === 'job_gone') throw gone(r);
     return view(r, r.result as StudyResult | null);
   }
 
-  async cancel(teamId: string, id: string): Promise<StudyView> {
-    const r = await this.row(teamId, id);
-    if (r.status !== 'queued' && r.status !== 'running') return this.get(teamId, id);
+  async cancel(teamId: string, r: StudyRow): Promise<StudyView> {
+    const id = r.id;
+    if (r.status !== 'queued' && r.status !== 'running') return this.get(r);
     const [updated] = await this.db.orm
       .update(studies)
       .set({ status: 'cancelled', finishedAt: new Date() })
       .where(and(eq(studies.id, id), inArray(studies.status, ['queued', 'running'])))
       .returning({ id: studies.id });
     if (updated) await cancelStudyChunks(this.queue, id, r.totalChunks);
-    return this.get(teamId, id);
+    return this.get(await this.load(teamId, id));
   }
 
-  async csv(teamId: string, id: string): Promise<{ filename: string; text: string }> {
-    const r = await this.row(teamId, id);
+  csv(r: StudyRow): { filename: string; text: string } {
     if (r.error && (r.error as { code?: string }).code === 'job_gone') throw gone(r);
-    if (r.status !== 'completed' || !r.result) throw new HttpError(409, 'study_not_completed', 'The study has no result yet; export it once it has completed');
+    if (r.status !== 'completed' || !r.result) throw new DomainError('conflict', 'study_not_completed', 'The study has no result yet; export it once it has completed');
     const slug = r.label.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'study';
     return { filename: `${slug}.csv`, text: studyResultCsv(r.spec as StudySpec, r.result as StudyResult) };
   }
 
   /** Opens variant `index` of a completed design sweep as a proposal on the studied axle design. */
-  async proposeVariant(teamId: string, id: string, index: number, userId: string): Promise<ProposalView> {
-    const r = await this.row(teamId, id);
-    if (r.kind !== 'sweep') throw new HttpError(409, 'not_a_sweep', 'Only a design sweep has variants to propose');
-    if (r.status !== 'completed') throw new HttpError(409, 'study_not_completed', 'The sweep has not completed yet');
+  async proposeVariant(teamId: string, r: StudyRow, index: number, userId: string): Promise<ProposalView> {
+    if (r.kind !== 'sweep') throw new DomainError('conflict', 'not_a_sweep', 'Only a design sweep has variants to propose');
+    if (r.status !== 'completed') throw new DomainError('conflict', 'study_not_completed', 'The sweep has not completed yet');
     const t = r.target as { designId?: string; revision?: number };
     if (!t.designId || !t.revision) throw notFound('Axle design');
     const corner = variantCorner(r.spec as StudySpec, index);
@@ -188,14 +186,14 @@ export class Studies {
       corner,
       baseRevision: t.revision,
       message: `Variant ${index + 1} of "${r.label}"`,
-      origin: { studyId: id, variant: index },
+      origin: { studyId: r.id, variant: index },
     });
   }
 
   /** Attaches a completed study to a configuration of the same team (idempotent: attaching again updates the note). */
-  async attach(teamId: string, id: string, configurationId: string, userId: string, note: string): Promise<AttachedStudy> {
-    const r = await this.row(teamId, id);
-    if (r.status !== 'completed' || !r.result) throw new HttpError(409, 'study_not_completed', 'Only a completed study can be attached to a configuration');
+  async attach(teamId: string, r: StudyRow, configurationId: string, userId: string, note: string): Promise<AttachedStudy> {
+    const id = r.id;
+    if (r.status !== 'completed' || !r.result) throw new DomainError('conflict', 'study_not_completed', 'Only a completed study can be attached to a configuration');
     const [c] = await this.db.orm.select({ id: configurations.id }).from(configurations).where(and(eq(configurations.id, configurationId), eq(configurations.teamId, teamId)));
     if (!c) throw notFound('Configuration');
     await this.db.orm
@@ -206,8 +204,8 @@ export class Studies {
     return list.find((a) => a.studyId === id)!;
   }
 
-  async detach(teamId: string, id: string, configurationId: string): Promise<void> {
-    await this.row(teamId, id);
+  async detach(teamId: string, r: StudyRow, configurationId: string): Promise<void> {
+    const id = r.id;
     const gone = await this.db.orm
       .delete(studyAttachments)
       .where(and(eq(studyAttachments.studyId, id), eq(studyAttachments.configurationId, configurationId), eq(studyAttachments.teamId, teamId)))
@@ -229,8 +227,8 @@ export class Studies {
   }
 
   /** The programme board's study column: per accepted team, its latest attached study (instructor of the programme only). */
-  async programmeStudies(user: { id: string }, programmeId: string): Promise<{ programmeId: string; teams: { teamId: string; teamName: string; configurationName: string | null; study: AttachedStudy | null }[] }> {
-    await this.deps.programmes.get(user, programmeId);
+  async programmeStudies(programme: ProgrammeRow): Promise<{ programmeId: string; teams: { teamId: string; teamName: string; configurationName: string | null; study: AttachedStudy | null }[] }> {
+    const programmeId = programme.id;
     const members = await this.db.orm
       .select({ teamId: programmeTeams.teamId, teamName: teams.name })
       .from(programmeTeams)
@@ -253,7 +251,8 @@ export class Studies {
     return { programmeId, teams: out };
   }
 
-  private async row(teamId: string, id: string): Promise<Row & { creatorName: string | null }> {
+  /** The study, if it is the team's (the `:studyId` loader). */
+  async load(teamId: string, id: string): Promise<StudyRow> {
     const [r] = await this.db.orm
       .select({ study: studies, creatorName: users.displayName })
       .from(studies)
@@ -341,8 +340,8 @@ function attachedView(r: { a: typeof studyAttachments.$inferSelect; label: strin
   };
 }
 
-function gone(r: Row): HttpError {
-  return new HttpError(410, 'job_gone', (r.error as { message: string }).message, { reason: 'lost', studyId: r.id });
+function gone(r: Row): DomainError {
+  return new DomainError('gone', 'job_gone', (r.error as { message: string }).message, { reason: 'lost', studyId: r.id });
 }
 
 function view(r: ListRow, result?: StudyResult | null): StudyView {
