@@ -156,6 +156,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use(
     '/teams/:teamId/configurations',
     reviewGatesRouter(
+      configurations,
       new ReviewGates(db.orm, configurations, pool, config.computeTimeLimitMs),
       new LatestPreview(db.orm, configurations),
       new ReviewRecord(db.orm, configurations, pool, config.computeTimeLimitMs),

@@ -117,8 +117,7 @@ export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, au
   r.post('/:designId/proposals', requirePermission('design:propose'), async (req, res) => {
     const input = validate(proposalSchema, req.body);
     const corner = parseCorner(input.corner);
-    const d = await loaded(req, 'design');
-    const p = await proposals.create(currentAccess(req).teamId, d.id, currentUser(req).id, { ...input, corner });
+    const p = await proposals.create(currentAccess(req).teamId, await loaded(req, 'design'), currentUser(req).id, { ...input, corner });
     reply<Proposal>(res, p, 201);
   });
 
@@ -129,18 +128,18 @@ export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, au
   r.post('/:designId/proposals/:proposalId/accept', requirePermission('design:accept'), async (req, res) => {
     const { message } = validate(decisionSchema, req.body ?? {});
     const p = await loaded(req, 'proposal');
-    res.json(await proposals.accept(currentAccess(req).teamId, p.designId, p.id, currentUser(req).id, message));
+    res.json(await proposals.accept(currentAccess(req).teamId, await loaded(req, 'design'), p, currentUser(req).id, message));
   });
 
   r.post('/:designId/proposals/:proposalId/reject', requirePermission('design:accept'), async (req, res) => {
     const { message } = validate(decisionSchema, req.body ?? {});
     const p = await loaded(req, 'proposal');
-    res.json(await proposals.reject(currentAccess(req).teamId, p.designId, p.id, currentUser(req).id, message));
+    res.json(await proposals.reject(currentAccess(req).teamId, await loaded(req, 'design'), p, currentUser(req).id, message));
   });
 
   r.delete('/:designId/proposals/:proposalId', requirePermission('design:propose'), async (req, res) => {
     const p = await loaded(req, 'proposal');
-    res.json(await proposals.withdraw(currentAccess(req).teamId, p.designId, p.id, currentUser(req).id));
+    res.json(await proposals.withdraw(currentAccess(req).teamId, await loaded(req, 'design'), p, currentUser(req).id));
   });
 
   return r;

@@ -116,8 +116,7 @@ export function configurationsRouter(configs: Configurations, auth: Authorizer):
 
   r.get('/:configurationId/results', requirePermission('team:read'), async (req, res) => {
     const q = validate(revisionQuery, req.query, 'query');
-    const c = await loaded(req, 'configuration');
-    reply<ResultsAnswer>(res, await configs.results(currentAccess(req).teamId, c.id, q.revision));
+    reply<ResultsAnswer>(res, await configs.results(await loaded(req, 'configuration'), q.revision));
   });
 
   for (const action of Object.keys(TRANSITIONS) as ReviewAction[]) {

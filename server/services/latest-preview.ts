@@ -53,8 +53,9 @@ export class LatestPreview {
     };
   }
 
-  async preview(teamId: string, id: string) {
-    const current = await this.configs.inputs(teamId, id);
+  /** `c`: the configuration as loaded for its team. */
+  async preview(c: { id: string; revision: number }) {
+    const current = await this.configs.inputs(c);
     const latest = await this.latestRefs(current.refs);
     const changedRefs = (['vehicleRevision', 'frontDesignRevision', 'rearDesignRevision'] as const)
       .filter((k) => current.refs[k] !== latest[k])

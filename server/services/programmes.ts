@@ -161,7 +161,7 @@ export class Programmes {
       for (const c of list) {
         let latest: BoardRow['latest'];
         try {
-          const { inputs } = await this.configs.inputs(t.teamId, c.id, c.revision);
+          const { inputs } = await this.configs.inputs(c);
           latest = { revision: c.revision, trackProfile: p.trackProfile, figures: keyFigures(await this.configs.compute({ ...inputs, trackProfile: p.trackProfile })) };
         } catch (err) {
           latest = { revision: c.revision, error: err instanceof Error ? err.message : String(err) };

@@ -151,13 +151,13 @@ export class ReviewGates {
   }
 
   /** What a configuration revision's gates ask for now (the sign-off dialog and the validate step show it). */
-  async status(teamId: string, id: string, revision?: number) {
-    const { revision: rev, refs, inputs } = await this.configs.inputs(teamId, id, revision);
+  async status(teamId: string, c: { id: string; revision: number }, revision?: number) {
+    const { revision: rev, refs, inputs } = await this.configs.inputs(c, revision);
     // One after another: the seed runs this inside a transaction (one connection).
     const lists = await this.cautions(inputs);
     const evidence = await this.evidence(teamId, refs);
     const tolerance = await this.rig.tolerance(teamId);
-    const records = await this.records(id);
+    const records = await this.records(c.id);
     return {
       revision: rev,
       critical: ReviewGates.critical(lists),
@@ -217,7 +217,7 @@ export class ReviewGates {
   }
 
   private async checkSignOff(teamId: string, before: ConfigurationView, given: CautionAcknowledgementInput[]): Promise<GatePass> {
-    const { inputs } = await this.configs.inputs(teamId, before.id, before.revision);
+    const { inputs } = await this.configs.inputs(before, before.revision);
     const critical = ReviewGates.critical(await this.cautions(inputs));
     const key = (x: { axle: AxleName; code: string }) => `${x.axle}:${x.code}`;
     const byKey = new Map(critical.map((c) => [key(c), c]));
@@ -252,7 +252,7 @@ export class ReviewGates {
   }
 
   private async checkValidation(teamId: string, before: ConfigurationView, waivers: RigWaiverInput[]): Promise<GatePass> {
-    const { refs } = await this.configs.inputs(teamId, before.id, before.revision);
+    const { refs } = await this.configs.inputs(before, before.revision);
     const [evidence, tolerance] = await Promise.all([this.evidence(teamId, refs), this.rig.tolerance(teamId)]);
     const twice = waivers.findIndex((w, i) => waivers.findIndex((x) => x.axle === w.axle) !== i);
     if (twice >= 0) {

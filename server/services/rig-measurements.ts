@@ -113,7 +113,7 @@ export class RigMeasurements {
   /** The design revision and corner a target stands for (404 for another team's). */
   private async resolveTarget(teamId: string, target: RigTarget) {
     if (target.kind === 'configuration') {
-      const c = await this.configurations.inputs(teamId, target.configurationId, target.configurationRevision);
+      const c = await this.configurations.inputs(await this.configurations.get(teamId, target.configurationId), target.configurationRevision);
       const designId = target.axle === 'front' ? c.refs.frontDesignId : c.refs.rearDesignId;
       const designRevision = target.axle === 'front' ? c.refs.frontDesignRevision : c.refs.rearDesignRevision;
       const corner = target.axle === 'front' ? c.inputs.frontCorner : c.inputs.rearCorner;

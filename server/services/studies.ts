@@ -182,7 +182,7 @@ export class Studies {
     const t = r.target as { designId?: string; revision?: number };
     if (!t.designId || !t.revision) throw notFound('Axle design');
     const corner = variantCorner(r.spec as StudySpec, index);
-    return this.deps.proposals.create(teamId, t.designId, userId, {
+    return this.deps.proposals.create(teamId, await this.deps.designs.get(teamId, t.designId), userId, {
       corner,
       baseRevision: t.revision,
       message: `Variant ${index + 1} of "${r.label}"`,
@@ -279,7 +279,7 @@ export class Studies {
       targetName = `${d.name} r${revision}`;
     } else {
       const c = await this.deps.configurations.get(teamId, wanted.configurationId);
-      const { revision, refs, inputs } = await this.deps.configurations.inputs(teamId, wanted.configurationId, wanted.revision);
+      const { revision, refs, inputs } = await this.deps.configurations.inputs(c, wanted.revision);
       const axle = wanted.axle;
       docs = {
         axle,
