@@ -182,7 +182,7 @@ export class SolveJobs {
 function view(r: Row): JobView {
   const v: JobView = { id: r.id, state: r.state, progress: { fraction: r.progressFraction, message: r.progressMessage }, createdAt: r.createdAt };
   if (r.resultJson !== null) v.resultJson = r.resultJson;
-  if (r.error) v.error = r.error as JobView['error'];
+  if (r.error) v.error = r.error;
   if (r.finishedAt) v.finishedAt = r.finishedAt;
   return v;
 }

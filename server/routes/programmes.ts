@@ -7,9 +7,11 @@ import { z } from 'zod';
 import { validate } from '../http/errors.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
 import { TRACK_PROFILE_IDS } from '../../shared/tracks/profiles.js';
-import { Programmes, type BoardRow } from '../services/programmes.js';
+import { Programmes } from '../services/programmes.js';
 import { idParam } from './vehicles.js';
 import { loadParam, loaded } from './loaders.js';
+import { reply } from '../http/reply.js';
+import type { Board, Programme, ProgrammeDetail, ProgrammeTeam, Snapshot, SnapshotSummary, TeamProgramme } from '../../shared/api/programmes.js';
 
 const createSchema = z.strictObject({ name: z.string().trim().min(1, 'is required').max(120), trackProfile: z.enum(TRACK_PROFILE_IDS) });
 const inviteSchema = z.strictObject({ teamSlug: z.string().trim().min(1).max(60) });
@@ -24,27 +26,27 @@ export function programmesRouter(programmes: Programmes, auth: Authorizer): Rout
   r.param('programmeId', loadProgramme(programmes));
 
   r.get('/', auth.requireUser, async (req, res) => {
-    res.json(await programmes.list(currentUser(req)));
+    reply<Programme[]>(res, await programmes.list(currentUser(req)));
   });
   r.post('/', auth.requireUser, async (req, res) => {
-    res.status(201).json(await programmes.create(currentUser(req), validate(createSchema, req.body)));
+    reply<Programme>(res, await programmes.create(currentUser(req), validate(createSchema, req.body)), 201);
   });
   r.get('/:programmeId', auth.requireUser, async (req, res) => {
-    res.json(await programmes.get(await loaded(req, 'programme')));
+    reply<ProgrammeDetail>(res, await programmes.get(await loaded(req, 'programme')));
   });
   r.post('/:programmeId/teams', auth.requireUser, async (req, res) => {
     const { teamSlug } = validate(inviteSchema, req.body);
-    res.status(201).json(await programmes.inviteTeam(await loaded(req, 'programme'), teamSlug));
+    reply<ProgrammeTeam>(res, await programmes.inviteTeam(await loaded(req, 'programme'), teamSlug), 201);
   });
   r.get('/:programmeId/board', auth.requireUser, async (req, res) => {
-    res.json(await programmes.board(await loaded(req, 'programme')));
+    reply<Board>(res, await programmes.board(await loaded(req, 'programme')));
   });
   r.post('/:programmeId/snapshots', auth.requireUser, async (req, res) => {
     const { label } = validate(snapshotSchema, req.body ?? {});
-    res.status(201).json(await programmes.snapshot(currentUser(req), await loaded(req, 'programme'), label));
+    reply<Snapshot>(res, await programmes.snapshot(currentUser(req), await loaded(req, 'programme'), label), 201);
   });
   r.get('/:programmeId/snapshots', auth.requireUser, async (req, res) => {
-    res.json(await programmes.snapshots(await loaded(req, 'programme')));
+    reply<SnapshotSummary[]>(res, await programmes.snapshots(await loaded(req, 'programme')));
   });
   r.get('/:programmeId/snapshots/:snapshotId', auth.requireUser, async (req, res) => {
     const q = validate(formatQuery, req.query, 'query');
@@ -53,10 +55,10 @@ export function programmesRouter(programmes: Programmes, auth: Authorizer): Rout
     if (q.format === 'csv') {
       res.setHeader('Content-Type', 'text/csv; charset=utf-8');
       res.setHeader('Content-Disposition', `attachment; filename="programme-board-${s.takenAt.toISOString().slice(0, 10)}.csv"`);
-      res.send(Programmes.csv(s.board as { rows: BoardRow[] }));
+      res.send(Programmes.csv(s.board));
       return;
     }
-    res.json(s);
+    reply<Snapshot>(res, s);
   });
   return r;
 }
@@ -65,7 +67,7 @@ export function programmesRouter(programmes: Programmes, auth: Authorizer): Rout
 export function teamProgrammesRouter(programmes: Programmes, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
   r.get('/', auth.requirePermission('members:manage'), async (req, res) => {
-    res.json(await programmes.forTeam(currentAccess(req).teamId));
+    reply<TeamProgramme[]>(res, await programmes.forTeam(currentAccess(req).teamId));
   });
   for (const [path, status] of [['accept', 'accepted'], ['decline', 'declined']] as const) {
     r.post(`/:programmeId/${path}`, auth.requirePermission('members:manage'), async (req, res) => {

@@ -13,22 +13,10 @@ import type { TrackProfileId } from '../../shared/tracks/profiles.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import type { Configurations, ConfigurationResults } from './configurations.js';
 import { toCsv } from '../../shared/io/csv.js';
+import type { Board, BoardRow, KeyFigures } from '../../shared/api/programmes.js';
 
 /** A programme as the `:programmeId` loader gives it (its instructor only). */
 export type ProgrammeRow = typeof programmes.$inferSelect;
-
-export interface KeyFigures {
-  /** ε per axle, deg/deg (as used by the balance model). */
-  rollSteerFront: number | null;
-  rollSteerRear: number | null;
-  /** Roll-steer term of the understeer budget, deg/g: the understeer-gradient change the roll steer makes. */
-  rollSteerUndersteerDegPerG: number | null;
-  /** Whole understeer gradient, deg/g. */
-  understeerGradientDegPerG: number | null;
-  /** Bump steer of each corner over the profile's travel, deg/m. */
-  bumpSteerFrontDegPerM: number | null;
-  bumpSteerRearDegPerM: number | null;
-}
 
 const num = (x: unknown): number | null => (typeof x === 'number' ? x : null);
 function pick(o: unknown, path: string[]): unknown {
@@ -47,16 +35,6 @@ export function keyFigures(r: ConfigurationResults): KeyFigures {
     bumpSteerFrontDegPerM: num(pick(r.bumpSteer, ['front', 'bumpSteerDegPerM'])),
     bumpSteerRearDegPerM: num(pick(r.bumpSteer, ['rear', 'bumpSteerDegPerM'])),
   };
-}
-
-export interface BoardRow {
-  teamId: string;
-  teamName: string;
-  configurationId: string;
-  configurationName: string;
-  status: string;
-  latest: { revision: number; trackProfile: string; figures: KeyFigures } | { revision: number; error: string };
-  approved: { revision: number; approvedAt: Date; engineVersion: string; trackProfile: string; figures: KeyFigures } | null;
 }
 
 const FIGURE_KEYS: (keyof KeyFigures)[] = [
@@ -148,7 +126,7 @@ export class Programmes {
     return !!r;
   }
 
-  async board(programme: ProgrammeRow): Promise<{ programmeId: string; trackProfile: string; engineVersion: string; rows: BoardRow[] }> {
+  async board(programme: ProgrammeRow): Promise<Board> {
     const id = programme.id;
     const p = await this.get(programme);
     const rows: BoardRow[] = [];
@@ -170,7 +148,7 @@ export class Programmes {
         let approved: BoardRow['approved'] = null;
         if (a) {
           const full = await this.configs.frozen(c, a.id);
-          approved = { revision: a.revision, approvedAt: a.approvedAt, engineVersion: a.engineVersion, trackProfile: full.trackProfile, figures: keyFigures(full.results) };
+          approved = { revision: a.revision, approvedAt: a.approvedAt.toISOString(), engineVersion: a.engineVersion, trackProfile: full.trackProfile, figures: keyFigures(full.results) };
         }
         rows.push({ teamId: t.teamId, teamName: t.teamName, configurationId: c.id, configurationName: c.name, status: c.status, latest, approved });
       }
@@ -201,7 +179,7 @@ export class Programmes {
   }
 
   /** The snapshot as CSV: one line per configuration, latest and approved figures side by side. */
-  static csv(board: { rows: BoardRow[] }): string {
+  static csv(board: Board): string {
     const header = [
       'team',
       'configuration',

@@ -88,7 +88,7 @@ export class Proposals {
     teamId: string,
     design: AxleDesignView,
     authorId: string,
-    input: { corner: Corner; baseRevision: number; message?: string | undefined; origin?: unknown },
+    input: { corner: Corner; baseRevision: number; message?: string | undefined; origin?: Record<string, unknown> | undefined },
   ): Promise<ProposalView> {
     const designId = design.id;
     if (input.baseRevision !== design.revision) throw this.outdated(input.baseRevision, design);

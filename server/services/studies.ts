@@ -24,27 +24,15 @@ import type { Vehicles } from './vehicles.js';
 import type { ProgrammeRow } from './programmes.js';
 import { QUEUES, bossDb, inTransaction, type JobQueue, type QueueJobData } from '../compute/queue.js';
 import type { AxleName } from '../../shared/schema/axle.js';
+import type { AttachedStudy as AttachedStudyWire, StudyResolvedTarget, StudyView as StudyWire } from '../../shared/api/studies.js';
 
-export type StudyStatus = 'queued' | 'running' | 'completed' | 'failed' | 'cancelled';
-
-export interface StudyView {
-  id: string;
-  kind: 'tolerance' | 'sweep';
-  label: string;
-  status: StudyStatus;
-  progress: { doneChunks: number; totalChunks: number; doneSamples: number; totalSamples: number };
-  /** From the measured chunk rate since the first chunk started; null until a chunk is done. */
-  etaSeconds: number | null;
-  error: { code: string; message: string } | null;
-  /** The target with its revision resolved (and the axle of a configuration). */
-  target: Record<string, unknown>;
-  seed: number;
+/** A study as the service hands it over: the wire type with its times still Dates (`res.json` writes them as ISO strings). */
+export type StudyView = Omit<StudyWire, 'createdAt' | 'startedAt' | 'finishedAt' | 'result'> & {
   createdAt: Date;
   startedAt: Date | null;
   finishedAt: Date | null;
-  createdBy: { id: string; displayName: string } | null;
   result?: StudyResult;
-}
+};
 
 export interface StudyOptions {
   maxActivePerTeam: number;
@@ -85,18 +73,8 @@ const listColumns = {
 };
 type ListRow = Pick<Row, Exclude<keyof typeof listColumns, 'creatorName'>> & { creatorName: string | null };
 
-/** A study attached to a configuration's review record, with its key figures. */
-export interface AttachedStudy {
-  studyId: string;
-  configurationId: string;
-  label: string;
-  kind: 'tolerance' | 'sweep';
-  totalSamples: number;
-  note: string;
-  attachedAt: Date;
-  attachedBy: { id: string; displayName: string } | null;
-  keyFigures: StudyKeyFigure[];
-}
+/** A study attached to a configuration's review record, with its key figures (`attachedAt` still a Date). */
+export type AttachedStudy = Omit<AttachedStudyWire, 'attachedAt'> & { attachedAt: Date };
 
 export class Studies {
   constructor(
@@ -152,8 +130,8 @@ export class Studies {
 
   /** The study with its result; 410 job_gone when its work was lost. */
   get(r: StudyRow): StudyView {
-    if (r.error && (r.error as { code?: string }).code === 'job_gone') throw gone(r);
-    return view(r, r.result as StudyResult | null);
+    if (r.error?.code === 'job_gone') throw gone(r);
+    return view(r, r.result);
   }
 
   async cancel(teamId: string, r: StudyRow): Promise<StudyView> {
@@ -169,19 +147,18 @@ export class Studies {
   }
 
   csv(r: StudyRow): { filename: string; text: string } {
-    if (r.error && (r.error as { code?: string }).code === 'job_gone') throw gone(r);
+    if (r.error?.code === 'job_gone') throw gone(r);
     if (r.status !== 'completed' || !r.result) throw new DomainError('conflict', 'study_not_completed', 'The study has no result yet; export it once it has completed');
     const slug = r.label.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'study';
-    return { filename: `${slug}.csv`, text: studyResultCsv(r.spec as StudySpec, r.result as StudyResult) };
+    return { filename: `${slug}.csv`, text: studyResultCsv(r.spec, r.result) };
   }
 
   /** Opens variant `index` of a completed design sweep as a proposal on the studied axle design. */
   async proposeVariant(teamId: string, r: StudyRow, index: number, userId: string): Promise<ProposalView> {
     if (r.kind !== 'sweep') throw new DomainError('conflict', 'not_a_sweep', 'Only a design sweep has variants to propose');
     if (r.status !== 'completed') throw new DomainError('conflict', 'study_not_completed', 'The sweep has not completed yet');
-    const t = r.target as { designId?: string; revision?: number };
-    if (!t.designId || !t.revision) throw notFound('Axle design');
-    const corner = variantCorner(r.spec as StudySpec, index);
+    const t = r.target;
+    const corner = variantCorner(r.spec, index);
     return this.deps.proposals.create(teamId, await this.deps.designs.get(teamId, t.designId), userId, {
       corner,
       baseRevision: t.revision,
@@ -263,11 +240,11 @@ export class Studies {
   }
 
   /** The spec from the request and the target's documents. */
-  private async resolve(teamId: string, request: StudyRequest): Promise<{ spec: StudySpec; target: Record<string, unknown>; targetName: string }> {
+  private async resolve(teamId: string, request: StudyRequest): Promise<{ spec: StudySpec; target: StudyResolvedTarget; targetName: string }> {
     const { target: wanted, trackProfile, ...settings } = request;
     const seed = request.seed ?? randomInt(0, 0x7fff_ffff);
     let docs: { axle: AxleName; corner: unknown; vehicle?: unknown; otherCorner?: unknown; trackProfile: unknown };
-    let target: Record<string, unknown>;
+    let target: StudyResolvedTarget;
     let targetName: string;
     if ('axleDesignId' in wanted) {
       const d = await this.deps.designs.get(teamId, wanted.axleDesignId);
@@ -290,12 +267,11 @@ export class Studies {
       };
       const designId = axle === 'front' ? refs.frontDesignId : refs.rearDesignId;
       const designRevision = axle === 'front' ? refs.frontDesignRevision : refs.rearDesignRevision;
-      target = { configurationId: c.id, revision, axle, designId, designRevision };
+      // A design sweep's variants are proposed on the design revision the study ran on: `revision` is that one.
+      target = { configurationId: c.id, revision: designRevision, axle, designId, designRevision };
       targetName = `${c.name} r${revision} (${axle})`;
     }
     const spec = parseOrThrow(studySpecSchema, { ...settings, ...docs, target: wanted, seed }, 'study');
-    // A design sweep's variants are proposed on the design revision the study ran on.
-    if ('designRevision' in target) target['revision'] = target['designRevision'];
     return { spec, target, targetName };
   }
 }
@@ -326,7 +302,7 @@ export async function cancelStudyChunks(queue: JobQueue, studyId: string, totalC
   await queue.notify(`cancel:${studyId}`);
 }
 
-function attachedView(r: { a: typeof studyAttachments.$inferSelect; label: string; kind: 'tolerance' | 'sweep'; totalSamples: number; result: unknown; byName: string | null }): AttachedStudy {
+function attachedView(r: { a: typeof studyAttachments.$inferSelect; label: string; kind: 'tolerance' | 'sweep'; totalSamples: number; result: StudyResult | null; byName: string | null }): AttachedStudy {
   return {
     studyId: r.a.studyId,
     configurationId: r.a.configurationId,
@@ -336,12 +312,12 @@ function attachedView(r: { a: typeof studyAttachments.$inferSelect; label: strin
     note: r.a.note,
     attachedAt: r.a.attachedAt,
     attachedBy: r.a.attachedBy ? { id: r.a.attachedBy, displayName: r.byName ?? '' } : null,
-    keyFigures: r.result ? studyKeyFigures(r.result as StudyResult) : [],
+    keyFigures: r.result ? studyKeyFigures(r.result) : [],
   };
 }
 
 function gone(r: Row): DomainError {
-  return new DomainError('gone', 'job_gone', (r.error as { message: string }).message, { reason: 'lost', studyId: r.id });
+  return new DomainError('gone', 'job_gone', r.error?.message ?? 'The study was lost', { reason: 'lost', studyId: r.id });
 }
 
 function view(r: ListRow, result?: StudyResult | null): StudyView {
@@ -357,8 +333,8 @@ function view(r: ListRow, result?: StudyResult | null): StudyView {
     status: r.status,
     progress: { doneChunks: r.doneChunks, totalChunks: r.totalChunks, doneSamples: r.doneSamples, totalSamples: r.totalSamples },
     etaSeconds,
-    error: (r.error as StudyView['error']) ?? null,
-    target: r.target as Record<string, unknown>,
+    error: r.error,
+    target: r.target,
     seed: r.seed,
     createdAt: r.createdAt,
     startedAt: r.startedAt,
