@@ -6,6 +6,8 @@ import { notFound } from '../../shared/errors.js';
 import { currentAccess, currentUser, isUuid, type Authorizer } from '../http/authorize.js';
 import { ROLES } from '../permissions.js';
 import type { Teams } from '../services/teams.js';
+import { reply } from '../http/reply.js';
+import type { TeamDetail, TeamMember, TeamSummary } from '../../shared/api/teams.js';
 
 const teamName = z.string().trim().min(1, 'is required').max(120);
 const slug = z
@@ -33,21 +35,21 @@ export function teamsRouter(teams: Teams, auth: Authorizer): Router {
   const { requireUser, requirePermission } = auth;
 
   r.get('/', requireUser, async (req, res) => {
-    res.json(await teams.listFor(currentUser(req).id));
+    reply<TeamSummary[]>(res, await teams.listFor(currentUser(req).id));
   });
 
   r.post('/', requireUser, async (req, res) => {
-    res.status(201).json(await teams.create(currentUser(req).id, validate(createTeamSchema, req.body)));
+    reply<TeamSummary>(res, await teams.create(currentUser(req).id, validate(createTeamSchema, req.body)), 201);
   });
 
   r.get('/:teamId', requirePermission('team:read'), async (req, res) => {
     const a = currentAccess(req);
-    res.json(await teams.detail(a.teamId, a.roles));
+    reply<TeamDetail>(res, await teams.detail(a.teamId, a.roles));
   });
 
   r.patch('/:teamId', requirePermission('members:manage'), async (req, res) => {
     const a = currentAccess(req);
-    res.json(await teams.rename(a.teamId, validate(renameTeamSchema, req.body).name, a.roles));
+    reply<TeamDetail>(res, await teams.rename(a.teamId, validate(renameTeamSchema, req.body).name, a.roles));
   });
 
   r.delete('/:teamId', requirePermission('members:manage'), async (req, res) => {
@@ -56,7 +58,7 @@ export function teamsRouter(teams: Teams, auth: Authorizer): Router {
   });
 
   r.get('/:teamId/members', requirePermission('team:read'), async (req, res) => {
-    res.json(await teams.members(currentAccess(req).teamId));
+    reply<TeamMember[]>(res, await teams.members(currentAccess(req).teamId));
   });
 
   // Nobody is added directly: people join by accepting an invitation (routes/invitations.ts).
