@@ -15,6 +15,8 @@ import type { ReviewRecord } from '../services/review-record.js';
 import { renderReviewRecordHtml } from '../services/review-record-html.js';
 import { renderPdf } from '../services/record-pdf.js';
 import { loadParam, loaded } from './loaders.js';
+import { reply } from '../http/reply.js';
+import type { GatesAnswer, LatestPreviewAnswer } from '../../shared/api/configurations.js';
 
 const axle = z.enum(['front', 'rear'], { error: 'use front or rear' });
 /** Reasons up to 1000 characters, at most 24 of them: a sign-off body stays well inside the 32 kB door (server/http/body.ts). */
@@ -60,12 +62,12 @@ export function reviewGatesRouter(
 
   r.get('/:configurationId/gates', requirePermission('team:read'), async (req, res) => {
     const q = validate(revisionQuery, req.query, 'query');
-    res.json(await gates.status(currentAccess(req).teamId, await loaded(req, 'configuration'), q.revision));
+    reply<GatesAnswer>(res, await gates.status(currentAccess(req).teamId, await loaded(req, 'configuration'), q.revision));
   });
 
   r.get('/:configurationId/latest-preview', requirePermission('team:read'), async (req, res) => {
     validate(z.strictObject({}), req.query, 'query');
-    res.json(await preview.preview(await loaded(req, 'configuration')));
+    reply<LatestPreviewAnswer>(res, await preview.preview(await loaded(req, 'configuration')));
   });
 
   r.get('/:configurationId/record', requirePermission('team:read'), async (req, res) => {

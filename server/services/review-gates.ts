@@ -24,6 +24,7 @@ import type { AxleCautionList } from '../../shared/cautions/configuration-cautio
 import type { Caution } from '../../shared/cautions/cautions.js';
 import type { ConfigurationInputs, ConfigurationRefs, ConfigurationView, Configurations, ReviewAction } from './configurations.js';
 import { RigMeasurements } from './rig-measurements.js';
+import type { AxleEvidence as AxleEvidenceWire, CriticalCaution, RigEvidence as RigEvidenceWire } from '../../shared/api/configurations.js';
 
 export interface CautionAcknowledgementInput {
   axle: AxleName;
@@ -40,40 +41,13 @@ export interface GateInput {
   waivers?: RigWaiverInput[] | undefined;
 }
 
-/** One Critical item a sign-off must acknowledge. */
-export interface CriticalCaution {
-  axle: AxleName;
-  code: string;
-  message: string;
-  value: number | null;
-  threshold: number | null;
-  unit: string | null;
-}
-
 /** Code of the item standing for an axle whose cautions could not be measured. */
 export const CAUTIONS_UNMEASURED = 'cautions-unmeasured';
 
-export interface RigEvidence {
-  id: string;
-  name: string;
-  attachedTo: string;
-  side: string;
-  basis: string;
-  authorName: string | null;
-  createdAt: Date;
-  toeLargestDeg: number;
-  camberLargestDeg: number | null;
-  within: boolean;
-}
-
-export interface AxleEvidence {
-  axle: AxleName;
-  designId: string;
-  designRevision: number;
-  measurements: RigEvidence[];
-  /** At least one measurement within the team's tolerance. */
-  satisfied: boolean;
-}
+/** A rig measurement as evidence (`createdAt` still a Date; the record also shows what it is attached to, its side and basis). */
+export type RigEvidence = Omit<RigEvidenceWire, 'createdAt'> & { createdAt: Date; attachedTo: string; side: string; basis: string };
+/** One axle's rig evidence. */
+export type AxleEvidence = Omit<AxleEvidenceWire, 'measurements'> & { designId: string; measurements: RigEvidence[] };
 
 /** Runs after the status row is written, inside its transaction. */
 export interface GatePass {

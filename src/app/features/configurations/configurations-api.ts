@@ -9,8 +9,9 @@ import type {
   CommentThread,
   CompareAnswer,
   Configuration,
-  ConfigurationRefs,
   ConfigurationRevision,
+  GatesAnswer,
+  LatestPreviewAnswer,
   ResultsAnswer,
   ReviewAction,
   ReviewComment,
@@ -30,6 +31,9 @@ export type {
   ConfigurationResults,
   ConfigurationRevision,
   ConfigurationStatus,
+  CriticalCaution,
+  GatesAnswer,
+  LatestPreviewAnswer,
   ResultsAnswer,
   ReviewAction,
   ReviewComment,
@@ -74,54 +78,10 @@ export interface DesignRevisionRecord {
   readonly corner: Corner;
 }
 
-/** A Critical item a sign-off must acknowledge (GET …/gates `critical`). */
-export interface CriticalCaution {
-  readonly axle: 'front' | 'rear';
-  readonly code: string;
-  readonly message: string;
-  readonly value: number | null;
-  readonly threshold: number | null;
-  readonly unit: string | null;
-}
-
-export interface RigEvidence {
-  readonly id: string;
-  readonly name: string;
-  readonly toeLargestDeg: number;
-  readonly camberLargestDeg: number | null;
-  readonly within: boolean;
-  readonly authorName: string | null;
-  readonly createdAt: string;
-}
-
-/** GET …/configurations/:id/gates: what a sign-off and the move to validated ask for now. */
-export interface GatesAnswer {
-  readonly revision: number;
-  readonly critical: readonly CriticalCaution[];
-  readonly rig: {
-    readonly tolerance: { readonly toeDeg: number; readonly camberDeg: number; readonly isDefault: boolean };
-    readonly axles: readonly { readonly axle: 'front' | 'rear'; readonly designRevision: number; readonly measurements: readonly RigEvidence[]; readonly satisfied: boolean }[];
-  };
-  readonly acknowledgements: readonly { readonly axle: 'front' | 'rear'; readonly code: string; readonly reason: string; readonly acknowledgedByName: string | null }[];
-  readonly waivers: readonly { readonly axle: 'front' | 'rear'; readonly reason: string; readonly waivedByName: string | null }[];
-}
-
 /** What a reviewer sends with a step: reasons for Critical cautions (sign-off) or rig waivers (validated). */
 export interface GateBody {
   readonly acknowledgements?: readonly { readonly axle: 'front' | 'rear'; readonly code: string; readonly reason: string }[];
   readonly waivers?: readonly { readonly axle: 'front' | 'rear'; readonly reason: string }[];
-}
-
-/** GET …/configurations/:id/latest-preview. */
-export interface LatestPreviewAnswer {
-  readonly engineVersion: string;
-  readonly revision: number;
-  readonly current: ConfigurationRefs;
-  readonly latest: ConfigurationRefs;
-  readonly changedRefs: readonly { readonly ref: 'vehicleRevision' | 'frontDesignRevision' | 'rearDesignRevision'; readonly from: number; readonly to: number }[];
-  readonly upToDate: boolean;
-  readonly inputs: readonly Difference[];
-  readonly results: readonly Difference[];
 }
 
 const inline = () => ({ context: new HttpContext().set(SHOW_ERRORS_INLINE, true) });
