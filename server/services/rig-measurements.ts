@@ -21,6 +21,7 @@ import { DEFAULT_RIG_TOLERANCE, type RigBasis, type RigComparison, type RigToler
 import { upgradeCornerDocument } from '../../shared/schema/corner.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import type { AxleName } from '../../shared/schema/axle.js';
+import type { RigToleranceView as RigToleranceWire } from '../../shared/api/rig.js';
 
 /** What a measurement is compared with. */
 export type RigTarget =
@@ -35,12 +36,8 @@ export interface RigOptions {
   basis: RigBasis;
 }
 
-export interface RigToleranceView extends RigTolerance {
-  /** True when the team has not set its own (the product defaults apply). */
-  isDefault: boolean;
-  updatedAt: Date | null;
-  updatedByName: string | null;
-}
+/** The team's tolerance (`updatedAt` still a Date). */
+export type RigToleranceView = Omit<RigToleranceWire, 'updatedAt'> & { updatedAt: Date | null };
 
 const rowErrors = (errors: string[]) =>
   new DomainError('invalid', 'rig_rows', `The rig file was refused: ${errors[0]}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, { errors });
