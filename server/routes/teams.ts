@@ -65,7 +65,7 @@ export function teamsRouter(teams: Teams, auth: Authorizer): Router {
 
   r.patch('/:teamId/members/:userId', requirePermission('members:manage'), async (req, res) => {
     const input = validate(changeRolesSchema, req.body);
-    res.json(await teams.changeMember(currentAccess(req).teamId, memberId(req.params['userId']), input.roles, currentUser(req).id));
+    reply<TeamMember | null>(res, await teams.changeMember(currentAccess(req).teamId, memberId(req.params['userId']), input.roles, currentUser(req).id));
   });
 
   // Any member may leave a team (the last owner may not).

@@ -53,3 +53,14 @@ export interface ApiToken {
 export interface CreatedApiToken extends ApiToken {
   readonly token: string;
 }
+
+/** `GET /api/dev/mail` rows (development servers only): what the local fake SMTP server captured for the signed-in person. */
+export interface CapturedMail {
+  readonly id: string;
+  readonly messageId: string;
+  readonly from: string;
+  readonly to: readonly string[];
+  readonly subject: string;
+  readonly text: string;
+  readonly receivedAt: string;
+}

@@ -15,3 +15,10 @@ export interface RevisionRow {
   readonly authorName: string | null;
   readonly createdAt: string;
 }
+
+/** `GET …/compare?from=&to=` of a vehicle or axle design: the changed values of two revisions. */
+export interface RevisionCompare {
+  readonly from: number;
+  readonly to: number;
+  readonly changes: readonly Difference[];
+}

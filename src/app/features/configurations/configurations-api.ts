@@ -1,7 +1,6 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
-import type { Corner } from '../../../../shared/schema/corner';
 import type { TrackProfileId } from '../../../../shared/tracks/profiles';
 import type {
   ApprovalDetail,
@@ -17,7 +16,7 @@ import type {
   ReviewComment,
   TransitionRow,
 } from '../../../../shared/api/configurations';
-import type { Difference } from '../../../../shared/api/common';
+import type { DesignRevisionRecord, VehicleRevisionRecord } from '../../../../shared/api/documents';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
 
 /** The response types are the server's own (shared/api): docs/api.md, "Configurations and review". */
@@ -40,6 +39,7 @@ export type {
   TransitionRow,
 } from '../../../../shared/api/configurations';
 export type { Difference } from '../../../../shared/api/common';
+export type { DesignRevisionRecord, VehicleRevisionRecord } from '../../../../shared/api/documents';
 
 export interface NewConfiguration {
   readonly name: string;
@@ -67,16 +67,6 @@ export interface ConfigurationChange {
 }
 
 /** A stored revision of a vehicle or axle design (only the fields these screens read). */
-export interface VehicleRevisionRecord {
-  readonly revision: number;
-  readonly name: string;
-  readonly data: unknown;
-}
-export interface DesignRevisionRecord {
-  readonly revision: number;
-  readonly name: string;
-  readonly corner: Corner;
-}
 
 /** What a reviewer sends with a step: reasons for Critical cautions (sign-off) or rig waivers (validated). */
 export interface GateBody {
