@@ -6,6 +6,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError, type ZodType } from 'zod';
 import { DomainError, InputError, SolveError, formatPath, type DomainErrorKind, type FieldIssue } from '../../shared/errors.js';
+import type { ApiErrorBody } from '../../shared/api/common.js';
 
 /** For the HTTP layer itself (middleware: sessions, tokens, CSRF, uploads); services throw domain errors (shared/errors.ts). */
 export class HttpError extends Error {
@@ -110,9 +111,8 @@ export function toErrorBody(err: unknown): ErrorBody {
 }
 
 export function sendError(res: Parameters<RequestHandler>[1], body: ErrorBody): void {
-  const error: Record<string, unknown> = { code: body.code, message: body.message };
-  if (body.details !== undefined) error['details'] = body.details;
-  res.status(body.status).json({ error });
+  const answer: ApiErrorBody = { error: { code: body.code, message: body.message, ...(body.details !== undefined ? { details: body.details } : {}) } };
+  res.status(body.status).json(answer);
 }
 
 export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {

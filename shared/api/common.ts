@@ -22,3 +22,12 @@ export interface RevisionCompare {
   readonly to: number;
   readonly changes: readonly Difference[];
 }
+
+/** The one error shape of the API: every refusal and failure answers `{ error: { code, message, details? } }`. */
+export interface ApiErrorBody {
+  readonly error: {
+    readonly code: string;
+    readonly message: string;
+    readonly details?: unknown;
+  };
+}

@@ -15,14 +15,8 @@ export type { TeamDetail, TeamInvitation, TeamMember, TeamSummary } from '../../
 /** `GET /api/teams/:teamId/vehicles` rows. */
 export type { VehicleSummary } from '../../../shared/api/documents';
 
-/** The one error shape of the API. */
-export interface ApiErrorBody {
-  readonly error: {
-    readonly code: string;
-    readonly message: string;
-    readonly details?: unknown;
-  };
-}
+/** The one error shape of the API (the server's, shared/api/common.ts). */
+export type { ApiErrorBody } from '../../../shared/api/common';
 
 /** What each role is for, in plain words (shown beside the role choices). */
 export const ROLE_DESCRIPTIONS: Readonly<Record<Role, string>> = {
