@@ -106,7 +106,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   const runnerStarted = runner?.start().catch((err: unknown) => logger.error({ err }, 'the in-process queue worker could not start'));
   const configurations = new Configurations(db.orm, pool, config.computeTimeLimitMs, config.publicUrl);
   programmes = new Programmes(db.orm, configurations);
-  const studies = new Studies(db, queue, { designs, vehicles, configurations, proposals, programmes }, {
+  const studies = new Studies(db, queue, { designs, vehicles, configurations, proposals }, {
     maxActivePerTeam: config.studyMaxActivePerTeam,
     chunkExpireSeconds: config.studyChunkExpireSeconds,
   });
@@ -156,6 +156,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use(
     '/teams/:teamId/configurations',
     reviewGatesRouter(
+      configurations,
       new ReviewGates(db.orm, configurations, pool, config.computeTimeLimitMs),
       new LatestPreview(db.orm, configurations),
       new ReviewRecord(db.orm, configurations, pool, config.computeTimeLimitMs),
@@ -168,7 +169,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use('/teams/:teamId', rigMeasurementsRouter(new RigMeasurements(db.orm, configurations, pool, config.computeTimeLimitMs), auth));
   api.use('/teams/:teamId', activityRouter(activity, designs, auth));
   api.use('/teams/:teamId/programmes', teamProgrammesRouter(programmes, auth));
-  api.use('/programmes/:programmeId/studies', programmeStudiesRouter(studies, auth));
+  api.use('/programmes/:programmeId/studies', programmeStudiesRouter(studies, programmes, auth));
   api.use('/programmes', programmesRouter(programmes, auth));
   api.use('/teams', teamsRouter(teams, auth));
   api.use('/compute', computeRouter(pool, jobs, auth, config.computeTimeLimitMs));

@@ -60,7 +60,17 @@ export function parseOrThrow<T>(schema: ZodType<T>, input: unknown, what = 'inpu
  * error handler (server/http/errors.ts) maps each kind to its status, the CLI
  * and workers to their own answers.
  */
-export type DomainErrorKind = 'invalid' | 'unauthenticated' | 'forbidden' | 'not_found' | 'conflict' | 'gone';
+export type DomainErrorKind =
+  | 'invalid'
+  | 'unauthenticated'
+  | 'forbidden'
+  | 'not_found'
+  | 'conflict'
+  | 'gone'
+  /** The caller already has as much work running as allowed; wait for some to finish. */
+  | 'too_many'
+  /** The server cannot do this right now (busy, or a facility is not installed); try again or another way. */
+  | 'unavailable';
 
 /** A rule of the product refused the request: `code` is the API's error code, `details` what the caller needs to recover. */
 export class DomainError extends Error {

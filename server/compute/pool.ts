@@ -6,8 +6,7 @@
  */
 import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import { SolveError } from '../../shared/errors.js';
-import { HttpError } from '../http/errors.js';
+import { DomainError, SolveError } from '../../shared/errors.js';
 import { deserializeError, type ComputeTask, type TaskKind, type ProgressMessage, type WorkerOutcome } from './tasks.js';
 
 export interface RunOptions {
@@ -80,9 +79,9 @@ export function createComputePool(o: { threads: number; maxQueue?: number; warm?
           timeLimitMs: opts.timeLimitMs,
         });
       }
-      if (opts.signal?.aborted) throw new HttpError(409, 'cancelled', 'The computation was cancelled');
+      if (opts.signal?.aborted) throw new DomainError('conflict', 'cancelled', 'The computation was cancelled');
       if (err instanceof Error && /queue is at limit/i.test(err.message)) {
-        throw new HttpError(503, 'compute_busy', 'The server is busy with other computations; try again in a moment');
+        throw new DomainError('unavailable', 'compute_busy', 'The server is busy with other computations; try again in a moment');
       }
       throw err;
     } finally {

@@ -25,6 +25,11 @@ import type { ConfigurationResults, FrozenInputs } from '../../shared/api/config
 import type { TrackProfileId } from '../../shared/tracks/profiles.js';
 import type { RigMapping, RigPoint } from '../../shared/io/rig-measurement.js';
 import type { Role } from '../permissions.js';
+import type { Board } from '../../shared/api/programmes.js';
+import type { StudyError, StudyResolvedTarget } from '../../shared/api/studies.js';
+import type { StudyRequest, StudySpec } from '../../shared/study/schema.js';
+import type { StudyChunkResult, StudyResult } from '../../shared/study/run.js';
+import type { ErrorBody } from '../http/errors.js';
 
 const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
 
@@ -178,7 +183,7 @@ export const axleDesignProposals = pgTable(
     corner: jsonb('corner').notNull(),
     message: text('message'),
     /** What produced it (e.g. the intent and the solve summary), kept for the reviewer. */
-    origin: jsonb('origin'),
+    origin: jsonb('origin').$type<Record<string, unknown>>(),
     status: text('status', { enum: PROPOSAL_STATUSES }).notNull().default('open'),
     authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
@@ -506,7 +511,7 @@ export const programmeSnapshots = pgTable(
       .notNull()
       .references(() => programmes.id, { onDelete: 'cascade' }),
     label: text('label'),
-    board: jsonb('board').notNull(),
+    board: jsonb('board').$type<Board>().notNull(),
     takenBy: uuid('taken_by').references(() => users.id, { onDelete: 'set null' }),
     takenAt: timestamp('taken_at', { withTimezone: true }).notNull().defaultNow(),
   },
@@ -602,7 +607,7 @@ export const computeJobs = pgTable(
     /** The engine's answer as JSON text (kept as the worker wrote it). */
     resultJson: text('result_json'),
     /** `{ status, code, message, details? }`, as the direct call would have answered. */
-    error: jsonb('error'),
+    error: jsonb('error').$type<ErrorBody>(),
     goneReason: text('gone_reason', { enum: ['expired', 'lost'] }),
     createdAt: createdAt(),
     startedAt: timestamp('started_at', { withTimezone: true }),
@@ -632,10 +637,10 @@ export const studies = pgTable(
     label: text('label').notNull(),
     status: text('status', { enum: STUDY_STATUSES }).notNull().default('queued'),
     /** What the user asked for (studyRequestSchema), kept for display and re-runs. */
-    request: jsonb('request').notNull(),
-    /** `{ axleDesignId, revision }` or `{ configurationId, revision }`, revision resolved. */
-    target: jsonb('target').notNull(),
-    spec: jsonb('spec').notNull(),
+    request: jsonb('request').$type<StudyRequest>().notNull(),
+    /** The target with its revision resolved (shared/api/studies.ts). */
+    target: jsonb('target').$type<StudyResolvedTarget>().notNull(),
+    spec: jsonb('spec').$type<StudySpec>().notNull(),
     seed: integer('seed').notNull(),
     totalChunks: integer('total_chunks').notNull(),
     totalSamples: integer('total_samples').notNull(),
@@ -644,8 +649,8 @@ export const studies = pgTable(
     /** Summed compute time of the done chunks (for throughput figures). */
     computeMs: doublePrecision('compute_ms').notNull().default(0),
     posesSolved: doublePrecision('poses_solved').notNull().default(0),
-    result: jsonb('result'),
-    error: jsonb('error'),
+    result: jsonb('result').$type<StudyResult>(),
+    error: jsonb('error').$type<StudyError>(),
     createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
     startedAt: timestamp('started_at', { withTimezone: true }),
@@ -692,8 +697,7 @@ export const studyChunks = pgTable(
     chunkIndex: integer('chunk_index').notNull(),
     samples: integer('samples').notNull(),
     poses: doublePrecision('poses').notNull(),
-    /** shared/study StudyChunkResult. */
-    result: jsonb('result').notNull(),
+    result: jsonb('result').$type<StudyChunkResult>().notNull(),
     computeMs: doublePrecision('compute_ms').notNull(),
     /** Which worker process computed it (host:pid), for operations. */
     worker: text('worker').notNull(),

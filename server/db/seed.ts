@@ -320,7 +320,7 @@ async function seedConfigurations(tx: Orm, teamId: string, t: DemoTeam, userId: 
       message: c.message,
     });
     for (const step of c.steps) {
-      const critical = step.acknowledge ? (await new ReviewGates(tx, service, inProcessPool, 60_000).status(teamId, created.id)).critical : [];
+      const critical = step.acknowledge ? (await new ReviewGates(tx, service, inProcessPool, 60_000).status(teamId, created)).critical : [];
       const gate = { acknowledgements: critical.map((c) => ({ axle: c.axle, code: c.code, reason: step.acknowledge! })) };
       await service.transition(teamId, created.id, { id: userId.get(step.by)!, roles: roles.get(step.by)! }, step.action, { message: step.message, gate });
     }

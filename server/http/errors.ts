@@ -5,8 +5,10 @@
  */
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError, type ZodType } from 'zod';
-import { DomainError, InputError, SolveError, formatPath, notFound, type DomainErrorKind, type FieldIssue } from '../../shared/errors.js';
+import { DomainError, InputError, SolveError, formatPath, type DomainErrorKind, type FieldIssue } from '../../shared/errors.js';
+import type { ApiErrorBody } from '../../shared/api/common.js';
 
+/** For the HTTP layer itself (middleware: sessions, tokens, CSRF, uploads); services throw domain errors (shared/errors.ts). */
 export class HttpError extends Error {
   constructor(
     readonly status: number,
@@ -19,8 +21,6 @@ export class HttpError extends Error {
   }
 }
 
-/** HttpError is for the HTTP layer itself (middleware: sessions, tokens, CSRF, uploads); services throw domain errors. */
-export { notFound };
 
 /** The status of each kind of domain error (shared/errors.ts). */
 export const DOMAIN_STATUS: Readonly<Record<DomainErrorKind, number>> = {
@@ -30,6 +30,8 @@ export const DOMAIN_STATUS: Readonly<Record<DomainErrorKind, number>> = {
   not_found: 404,
   conflict: 409,
   gone: 410,
+  too_many: 429,
+  unavailable: 503,
 };
 
 /** Parses request input with a zod schema; failure is 400 listing every field. */
@@ -109,9 +111,8 @@ export function toErrorBody(err: unknown): ErrorBody {
 }
 
 export function sendError(res: Parameters<RequestHandler>[1], body: ErrorBody): void {
-  const error: Record<string, unknown> = { code: body.code, message: body.message };
-  if (body.details !== undefined) error['details'] = body.details;
-  res.status(body.status).json({ error });
+  const answer: ApiErrorBody = { error: { code: body.code, message: body.message, ...(body.details !== undefined ? { details: body.details } : {}) } };
+  res.status(body.status).json(answer);
 }
 
 export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {

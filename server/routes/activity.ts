@@ -10,6 +10,8 @@ import { currentAccess, type Authorizer } from '../http/authorize.js';
 import { checkTimeZone, type Activity, type ActivityQuery } from '../services/activity.js';
 import type { AxleDesigns } from '../services/axle-designs.js';
 import { loadParam, loaded } from './loaders.js';
+import { reply } from '../http/reply.js';
+import type { ActivityEntry } from '../../shared/api/teams.js';
 
 const querySchema = z
   .object({
@@ -36,7 +38,7 @@ export function activityRouter(activity: Activity, designs: AxleDesigns, auth: A
       res.send(await activity.csv(teamId, { ...query, timeZone }));
       return;
     }
-    res.json(await activity.list(teamId, query));
+    reply<ActivityEntry[]>(res, await activity.list(teamId, query));
   }
 
   r.get('/activity', auth.requirePermission('team:read'), async (req, res) => {

@@ -16,8 +16,8 @@ import type { Vehicles } from '../services/vehicles.js';
 import { archivedQuery, baseRevision, compareRevisions, documentName, revisionMessage, revisionNumber } from './vehicles.js';
 import { loadParam, loadParentParam, loaded } from './loaders.js';
 import { reply } from '../http/reply.js';
-import type { AxleDesign, AxleDesignSummary, Proposal } from '../../shared/api/documents.js';
-import type { RevisionRow } from '../../shared/api/common.js';
+import type { AcceptedProposal, AxleDesign, AxleDesignSummary, DesignRevisionRecord, ImportPreview, Proposal } from '../../shared/api/documents.js';
+import type { RevisionCompare, RevisionRow } from '../../shared/api/common.js';
 
 const createSchema = z.strictObject({ axle: z.enum(AXLE_NAMES), name: documentName, corner: z.unknown() });
 const patchSchema = z
@@ -92,7 +92,7 @@ export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, au
   r.post('/:designId/import', requirePermission('design:edit'), singleTextUpload('file', ['csv', 'txt', 'tsv', 'json']), async (req, res) => {
     const fields = importFields(req.body);
     const file = uploadedText(req);
-    res.json(await designs.previewImport(await loaded(req, 'design'), file, fields));
+    reply<ImportPreview>(res, await designs.previewImport(await loaded(req, 'design'), file, fields));
   });
 
   r.get('/:designId/revisions', requirePermission('team:read'), async (req, res) => {
@@ -102,12 +102,12 @@ export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, au
   // Changed values (hardpoint coordinates one by one) between two revisions, e.g. ?from=1&to=3.
   r.get('/:designId/compare', requirePermission('team:read'), async (req, res) => {
     const d = await loaded(req, 'design');
-    res.json(await compareRevisions(req.query, (n) => designs.revisionOf(d, n), 'corner'));
+    reply<RevisionCompare>(res, await compareRevisions(req.query, (n) => designs.revisionOf(d, n), 'corner'));
   });
 
   r.get('/:designId/revisions/:revision', requirePermission('team:read'), async (req, res) => {
     const d = await loaded(req, 'design');
-    res.json(await designs.revisionOf(d, revisionNumber(req.params['revision'])));
+    reply<DesignRevisionRecord>(res, await designs.revisionOf(d, revisionNumber(req.params['revision'])));
   });
 
   r.get('/:designId/proposals', requirePermission('team:read'), async (req, res) => {
@@ -117,8 +117,7 @@ export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, au
   r.post('/:designId/proposals', requirePermission('design:propose'), async (req, res) => {
     const input = validate(proposalSchema, req.body);
     const corner = parseCorner(input.corner);
-    const d = await loaded(req, 'design');
-    const p = await proposals.create(currentAccess(req).teamId, d.id, currentUser(req).id, { ...input, corner });
+    const p = await proposals.create(currentAccess(req).teamId, await loaded(req, 'design'), currentUser(req).id, { ...input, corner });
     reply<Proposal>(res, p, 201);
   });
 
@@ -129,18 +128,18 @@ export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, au
   r.post('/:designId/proposals/:proposalId/accept', requirePermission('design:accept'), async (req, res) => {
     const { message } = validate(decisionSchema, req.body ?? {});
     const p = await loaded(req, 'proposal');
-    res.json(await proposals.accept(currentAccess(req).teamId, p.designId, p.id, currentUser(req).id, message));
+    reply<AcceptedProposal>(res, await proposals.accept(currentAccess(req).teamId, await loaded(req, 'design'), p, currentUser(req).id, message));
   });
 
   r.post('/:designId/proposals/:proposalId/reject', requirePermission('design:accept'), async (req, res) => {
     const { message } = validate(decisionSchema, req.body ?? {});
     const p = await loaded(req, 'proposal');
-    res.json(await proposals.reject(currentAccess(req).teamId, p.designId, p.id, currentUser(req).id, message));
+    reply<Proposal>(res, await proposals.reject(currentAccess(req).teamId, await loaded(req, 'design'), p, currentUser(req).id, message));
   });
 
   r.delete('/:designId/proposals/:proposalId', requirePermission('design:propose'), async (req, res) => {
     const p = await loaded(req, 'proposal');
-    res.json(await proposals.withdraw(currentAccess(req).teamId, p.designId, p.id, currentUser(req).id));
+    reply<Proposal>(res, await proposals.withdraw(currentAccess(req).teamId, await loaded(req, 'design'), p, currentUser(req).id));
   });
 
   return r;

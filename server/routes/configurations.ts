@@ -74,6 +74,7 @@ export function configurationsRouter(configs: Configurations, auth: Authorizer):
   const r = Router({ mergeParams: true });
   const { requirePermission } = auth;
   r.param('configurationId', loadParam('configuration', 'Configuration', (req, id) => configs.get(currentAccess(req).teamId, id)));
+  r.param('approvalId', loadParam('approval', 'Approval', async (req, id) => configs.approval(await loaded(req, 'configuration'), id)));
 
   r.get('/', requirePermission('team:read'), async (req, res) => {
     const q = validate(archivedQuery, req.query, 'query');
@@ -115,8 +116,7 @@ export function configurationsRouter(configs: Configurations, auth: Authorizer):
 
   r.get('/:configurationId/results', requirePermission('team:read'), async (req, res) => {
     const q = validate(revisionQuery, req.query, 'query');
-    const c = await loaded(req, 'configuration');
-    reply<ResultsAnswer>(res, await configs.results(currentAccess(req).teamId, c.id, q.revision));
+    reply<ResultsAnswer>(res, await configs.results(await loaded(req, 'configuration'), q.revision));
   });
 
   for (const action of Object.keys(TRANSITIONS) as ReviewAction[]) {
@@ -135,8 +135,7 @@ export function configurationsRouter(configs: Configurations, auth: Authorizer):
   });
 
   r.get('/:configurationId/approvals/:approvalId', requirePermission('team:read'), async (req, res) => {
-    const c = await loaded(req, 'configuration');
-    reply<ApprovalDetail>(res, await configs.approval(c, idParam(req.params['approvalId'], 'Approval')));
+    reply<ApprovalDetail>(res, await loaded(req, 'approval'));
   });
 
   r.get('/:configurationId/comments', requirePermission('team:read'), async (req, res) => {

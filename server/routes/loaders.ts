@@ -1,7 +1,9 @@
 /**
  * `router.param` loaders: the document a path names (`:vehicleId`,
- * `:designId`, `:configurationId`, `:proposalId`), loaded once per request,
- * checked to belong to the path's team (and parent), typed.
+ * `:designId`, `:configurationId`, `:proposalId`, `:approvalId`,
+ * `:measurementId`, `:studyId`, and `:programmeId` for its instructor),
+ * loaded once per request, checked to belong to the path's team (and
+ * parent), typed.
  *
  *   r.param('vehicleId', loadParam('vehicle', 'Vehicle', (req, id) => vehicles.get(currentAccess(req).teamId, id)));
  *   r.get('/:vehicleId/revisions', requirePermission('team:read'), async (req, res) => {
@@ -20,7 +22,10 @@ import { isUuid } from '../http/authorize.js';
 import type { VehicleView } from '../services/vehicles.js';
 import type { AxleDesignView } from '../services/axle-designs.js';
 import type { ProposalView } from '../services/proposals.js';
-import type { ConfigurationView } from '../services/configurations.js';
+import type { ConfigurationView, Configurations } from '../services/configurations.js';
+import type { RigMeasurementSummary } from '../services/rig-measurements.js';
+import type { StudyRow } from '../services/studies.js';
+import type { ProgrammeRow } from '../services/programmes.js';
 
 /** What each loader puts on the request. */
 export interface Loaded {
@@ -28,6 +33,11 @@ export interface Loaded {
   design: AxleDesignView;
   configuration: ConfigurationView;
   proposal: ProposalView;
+  rigMeasurement: RigMeasurementSummary;
+  study: StudyRow;
+  programme: ProgrammeRow;
+  /** An approval's frozen snapshot beside the current engine's recompute (of the path's configuration). */
+  approval: Awaited<ReturnType<Configurations['approval']>>;
 }
 
 type Loaders = { [K in keyof Loaded]?: () => Promise<Loaded[K]> };

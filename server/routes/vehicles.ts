@@ -1,13 +1,14 @@
 /** /api/teams/:teamId/vehicles: vehicles, their data and revisions. */
 import { Router } from 'express';
 import { z } from 'zod';
-import { notFound, validate } from '../http/errors.js';
+import { validate } from '../http/errors.js';
+import { notFound } from '../../shared/errors.js';
 import { currentAccess, currentUser, isUuid, type Authorizer } from '../http/authorize.js';
 import { parseVehicleData, type Vehicles } from '../services/vehicles.js';
 import { loadParam, loaded } from './loaders.js';
 import { reply } from '../http/reply.js';
-import type { VehicleRecord, VehicleSummary } from '../../shared/api/documents.js';
-import type { RevisionRow } from '../../shared/api/common.js';
+import type { VehicleRecord, VehicleRevisionRecord, VehicleSummary } from '../../shared/api/documents.js';
+import type { RevisionCompare, RevisionRow } from '../../shared/api/common.js';
 import { diffDocuments } from '../services/document-diff.js';
 
 export const documentName = z.string().trim().min(1, 'is required').max(120);
@@ -63,7 +64,8 @@ export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
     const input = validate(dataSchema, req.body);
     const data = parseVehicleData(input.data);
     const v = await loaded(req, 'vehicle');
-    res.json(
+    reply<VehicleRecord>(
+      res,
       await vehicles.update(currentAccess(req).teamId, v.id, currentUser(req).id, input.baseRevision, {
         data,
         message: input.message,
@@ -78,12 +80,12 @@ export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
   // Changed values between two revisions (e.g. ?from=1&to=3), side by side.
   r.get('/:vehicleId/compare', requirePermission('team:read'), async (req, res) => {
     const v = await loaded(req, 'vehicle');
-    res.json(await compareRevisions(req.query, (n) => vehicles.revision(v, n), 'data'));
+    reply<RevisionCompare>(res, await compareRevisions(req.query, (n) => vehicles.revision(v, n), 'data'));
   });
 
   r.get('/:vehicleId/revisions/:revision', requirePermission('team:read'), async (req, res) => {
     const v = await loaded(req, 'vehicle');
-    res.json(await vehicles.revision(v, revisionNumber(req.params['revision'])));
+    reply<VehicleRevisionRecord>(res, await vehicles.revision(v, revisionNumber(req.params['revision'])));
   });
 
   return r;

@@ -10,6 +10,7 @@ import { enqueueMail } from '../mail/outbox.js';
 import { mailText } from '../mail/messages.js';
 import type { Role } from '../permissions.js';
 import { revokeTokens } from './api-tokens.js';
+import type { Me } from '../../shared/api/accounts.js';
 
 /** Links in account mail: signing secret, the app's address, lifetimes. */
 export interface AccountMailOptions {
@@ -21,10 +22,8 @@ export interface AccountMailOptions {
 
 const sha256 = (s: string) => createHash('sha256').update(s).digest('hex');
 
-export interface Me {
-  user: { id: string; email: string; displayName: string; displayUnits: 'si' | 'imperial'; instructor: boolean; emailVerified: boolean };
-  memberships: { teamId: string; teamName: string; teamSlug: string; roles: Role[] }[];
-}
+/** `Me` as the server always fills it: whether the address is confirmed, and whether the person is an instructor. */
+export type MeView = Me & { readonly user: { readonly emailVerified: boolean; readonly instructor: boolean } };
 
 const resetLinkInvalid = () => new DomainError('invalid', 'reset_link_invalid', 'This reset link is not valid, was already used or has expired; ask for a new one');
 
@@ -44,7 +43,7 @@ export class Accounts {
     return bcrypt.hash(password, this.bcryptRounds);
   }
 
-  async me(userId: string): Promise<Me> {
+  async me(userId: string): Promise<MeView> {
     const [u] = await this.orm
       .select({ id: users.id, email: users.email, displayName: users.displayName, displayUnits: users.displayUnits, instructor: users.instructor, verifiedAt: users.emailVerifiedAt })
       .from(users)

@@ -12,17 +12,10 @@ import { cornerSchema, upgradeCornerDocument, type Corner } from '../../shared/s
 import type { CadFrame } from '../../shared/io/cad-frame.js';
 import { prepareHardpointImport, type ChangedPoint } from '../../shared/io/hardpoints.js';
 
-/** `POST …/import`: what the file would make of the design's corner; nothing is stored. */
-export interface ImportPreview {
-  corner: Corner;
-  changedPoints: ChangedPoint[];
-  warnings: string[];
-  /** The design revision the preview was made on (save with it as baseRevision). */
-  baseRevision: number;
-}
 import { parseDocument, writeRevision, type RevisionedDocument, type RevisionRow } from './revisions.js';
 import { changeWords, recordActivity } from './activity.js';
 import type { AxleName } from '../../shared/schema/axle.js';
+import type { ImportPreview } from '../../shared/api/documents.js';
 
 export interface AxleDesignView {
   id: string;

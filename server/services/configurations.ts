@@ -62,14 +62,14 @@ export class Configurations {
   }
 
   // ---- compute.ts: inputs and results --------------------------------------------
-  inputs(teamId: string, id: string, revision?: number) {
-    return this.engines.inputs(teamId, id, revision);
+  inputs(c: { id: string; revision: number }, revision?: number) {
+    return this.engines.inputs(c, revision);
   }
   compute(inputs: ConfigurationInputs) {
     return this.engines.compute(inputs);
   }
-  results(teamId: string, id: string, revision?: number) {
-    return this.engines.results(teamId, id, revision);
+  results(c: { id: string; revision: number }, revision?: number) {
+    return this.engines.results(c, revision);
   }
   compare(teamId: string, a: { id: string; revision?: number | undefined }, b: { id: string; revision?: number | undefined }) {
     return this.engines.compare(teamId, a, b);

@@ -19,19 +19,14 @@ import { mailText } from '../mail/messages.js';
 import type { Role } from '../permissions.js';
 import { normaliseEmail, type Accounts } from './accounts.js';
 import { recordActivity } from './activity.js';
+import type { InvitationInfo as InvitationInfoWire } from '../../shared/api/teams.js';
 
 const invalid = () => new DomainError('not_found', 'invitation_invalid', 'This invitation link is not valid; ask the team owner for a new one');
 const expired = () => new DomainError('gone', 'invitation_expired', 'This invitation has expired; ask the team owner for a new one');
 const used = () => new DomainError('gone', 'invitation_used', 'This invitation has already been accepted');
 
-export interface InvitationInfo {
-  teamId: string;
-  teamName: string;
-  email: string;
-  roles: Role[];
-  invitedByName: string | null;
-  expiresAt: Date;
-}
+/** What the invitation page shows (`expiresAt` still a Date). */
+export type InvitationInfo = Omit<InvitationInfoWire, 'expiresAt'> & { expiresAt: Date };
 
 export class Invitations {
   constructor(

@@ -8,7 +8,7 @@
 import { and, eq } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { axleDesignRevisions, axleDesigns, vehicleRevisions, vehicles } from '../db/schema.js';
-import { HttpError } from '../http/errors.js';
+import { DomainError } from '../../shared/errors.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import { storedCorner } from './axle-designs.js';
 import { upgradeVehicleDocument } from '../../shared/schema/vehicle.js';
@@ -34,7 +34,7 @@ export class LatestPreview {
       .from(vehicleRevisions)
       .where(and(eq(vehicleRevisions.vehicleId, refs.vehicleId), eq(vehicleRevisions.revision, refs.vehicleRevision)));
     if (!v || v.data === null) {
-      throw new HttpError(409, 'incomplete_configuration', `The vehicle's latest revision (${refs.vehicleRevision}) has no vehicle data yet; enter the balance model data first`, {
+      throw new DomainError('conflict', 'incomplete_configuration', `The vehicle's latest revision (${refs.vehicleRevision}) has no vehicle data yet; enter the balance model data first`, {
         field: 'vehicleRevision',
       });
     }
@@ -53,8 +53,9 @@ export class LatestPreview {
     };
   }
 
-  async preview(teamId: string, id: string) {
-    const current = await this.configs.inputs(teamId, id);
+  /** `c`: the configuration as loaded for its team. */
+  async preview(c: { id: string; revision: number }) {
+    const current = await this.configs.inputs(c);
     const latest = await this.latestRefs(current.refs);
     const changedRefs = (['vehicleRevision', 'frontDesignRevision', 'rearDesignRevision'] as const)
       .filter((k) => current.refs[k] !== latest[k])

@@ -70,10 +70,6 @@ export class Proposals {
       .orderBy(desc(axleDesignProposals.createdAt));
   }
 
-  async get(teamId: string, designId: string, proposalId: string): Promise<ProposalView> {
-    return this.getOf(await this.designs.get(teamId, designId), proposalId);
-  }
-
   /** One proposal of the design (`design` as loaded for the team); 404 when it is another design's. */
   async getOf(design: { id: string }, proposalId: string): Promise<ProposalView> {
     const designId = design.id;
@@ -87,13 +83,14 @@ export class Proposals {
     return { ...p, corner: storedCorner(p.corner) };
   }
 
+  /** A new open proposal on `design` (as loaded for the team). */
   async create(
     teamId: string,
-    designId: string,
+    design: AxleDesignView,
     authorId: string,
-    input: { corner: Corner; baseRevision: number; message?: string | undefined; origin?: unknown },
+    input: { corner: Corner; baseRevision: number; message?: string | undefined; origin?: Record<string, unknown> | undefined },
   ): Promise<ProposalView> {
-    const design = await this.designs.get(teamId, designId);
+    const designId = design.id;
     if (input.baseRevision !== design.revision) throw this.outdated(input.baseRevision, design);
     const p = await this.orm.transaction(async (tx) => {
       const [row] = await tx
@@ -111,12 +108,17 @@ export class Proposals {
       });
       return row!;
     });
-    return this.get(teamId, designId, p.id);
+    return this.getOf(design, p.id);
   }
 
-  /** Writes the proposed corner as the design's next revision (status `accepted`). */
-  async accept(teamId: string, designId: string, proposalId: string, deciderId: string, message?: string): Promise<{ proposal: ProposalView; design: AxleDesignView }> {
-    await this.designs.get(teamId, designId);
+  /**
+   * Writes the proposed corner as the design's next revision (status `accepted`).
+   * `design` and `proposal` as loaded for the team (routes/loaders.ts); the
+   * proposal is read again under a row lock.
+   */
+  async accept(teamId: string, design: { id: string }, proposal: { id: string }, deciderId: string, message?: string): Promise<{ proposal: ProposalView; design: AxleDesignView }> {
+    const designId = design.id;
+    const proposalId = proposal.id;
     await this.orm.transaction(async (tx) => {
       const [p] = await tx
         .select()
@@ -149,22 +151,22 @@ export class Proposals {
         .set({ status: 'accepted', decidedBy: deciderId, decidedAt: sql`now()`, decisionMessage: message ?? null, acceptedRevision: row.revision })
         .where(eq(axleDesignProposals.id, proposalId));
     });
-    return { proposal: await this.get(teamId, designId, proposalId), design: await this.designs.get(teamId, designId) };
+    return { proposal: await this.getOf(design, proposalId), design: await this.designs.get(teamId, designId) };
   }
 
-  async reject(teamId: string, designId: string, proposalId: string, deciderId: string, message?: string): Promise<ProposalView> {
-    return this.close(teamId, designId, proposalId, 'rejected', deciderId, message);
+  async reject(teamId: string, design: AxleDesignView, proposal: { id: string }, deciderId: string, message?: string): Promise<ProposalView> {
+    return this.close(teamId, design, proposal.id, 'rejected', deciderId, message);
   }
 
   /** Only the author may withdraw their own open proposal. */
-  async withdraw(teamId: string, designId: string, proposalId: string, userId: string): Promise<ProposalView> {
-    const p = await this.get(teamId, designId, proposalId);
-    if (p.authorId !== userId) throw new DomainError('forbidden', 'forbidden', 'Only the author can withdraw a proposal');
-    return this.close(teamId, designId, proposalId, 'withdrawn', userId);
+  async withdraw(teamId: string, design: AxleDesignView, proposal: ProposalView, userId: string): Promise<ProposalView> {
+    if (proposal.authorId !== userId) throw new DomainError('forbidden', 'forbidden', 'Only the author can withdraw a proposal');
+    return this.close(teamId, design, proposal.id, 'withdrawn', userId);
   }
 
-  private async close(teamId: string, designId: string, proposalId: string, status: 'rejected' | 'withdrawn', userId: string, message?: string) {
-    const design = await this.designs.get(teamId, designId);
+  /** `design` as loaded for the team; only an open proposal closes (else 409 with its state now). */
+  private async close(teamId: string, design: AxleDesignView, proposalId: string, status: 'rejected' | 'withdrawn', userId: string, message?: string) {
+    const designId = design.id;
     const updated = await this.orm.transaction(async (tx) => {
       const rows = await tx
         .update(axleDesignProposals)
@@ -177,8 +179,8 @@ export class Proposals {
       }
       return rows;
     });
-    if (!updated.length) throw closed(await this.get(teamId, designId, proposalId));
-    return this.get(teamId, designId, proposalId);
+    if (!updated.length) throw closed(await this.getOf(design, proposalId));
+    return this.getOf(design, proposalId);
   }
 
   private outdated(baseRevision: number, current: AxleDesignView): DomainError {

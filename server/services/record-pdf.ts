@@ -11,7 +11,7 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { HttpError } from '../http/errors.js';
+import { DomainError } from '../../shared/errors.js';
 
 const MAX_WAITING = 4;
 let line: Promise<unknown> = Promise.resolve();
@@ -20,7 +20,7 @@ let waiting = 0;
 /** Runs `job` after every earlier one has finished (one at a time). */
 function oneAtATime<T>(job: () => Promise<T>): Promise<T> {
   if (waiting >= MAX_WAITING) {
-    return Promise.reject(new HttpError(503, 'busy', 'Several review records are being printed right now; try again in a minute'));
+    return Promise.reject(new DomainError('unavailable', 'busy', 'Several review records are being printed right now; try again in a minute'));
   }
   waiting++;
   const run = line.then(job, job);
@@ -48,7 +48,7 @@ export function renderPdf(html: string, o: PdfOptions): Promise<Buffer> {
     try {
       ({ chromium } = await import('playwright-core'));
     } catch {
-      throw new HttpError(503, 'pdf_unavailable', 'PDF printing is not installed on this server; print the record page from the browser instead');
+      throw new DomainError('unavailable', 'pdf_unavailable', 'PDF printing is not installed on this server; print the record page from the browser instead');
     }
     const home = mkdtempSync(join(tmpdir(), 'rollwise-record-'));
     try {
@@ -60,7 +60,7 @@ export function renderPdf(html: string, o: PdfOptions): Promise<Buffer> {
           env: { ...process.env, HOME: home, XDG_CONFIG_HOME: join(home, 'config'), XDG_CACHE_HOME: join(home, 'cache') },
         })
         .catch(() => {
-          throw new HttpError(503, 'pdf_unavailable', 'The PDF printer (Chromium) could not start on this server; print the record page from the browser instead');
+          throw new DomainError('unavailable', 'pdf_unavailable', 'The PDF printer (Chromium) could not start on this server; print the record page from the browser instead');
         });
       try {
         const context = await browser.newContext({ javaScriptEnabled: false, offline: true });

@@ -17,13 +17,14 @@
 import { asc, eq } from 'drizzle-orm';
 import type { Executor, Orm } from '../db/client.js';
 import { cautionAcknowledgements, rigEvidenceWaivers, users } from '../db/schema.js';
+import { DomainError, InputError } from '../../shared/errors.js';
 import type { AxleName } from '../../shared/schema/axle.js';
-import { HttpError } from '../http/errors.js';
 import type { ComputePool } from '../compute/pool.js';
 import type { AxleCautionList } from '../../shared/cautions/configuration-cautions.js';
 import type { Caution } from '../../shared/cautions/cautions.js';
 import type { ConfigurationInputs, ConfigurationRefs, ConfigurationView, Configurations, ReviewAction } from './configurations.js';
 import { RigMeasurements } from './rig-measurements.js';
+import type { AxleEvidence as AxleEvidenceWire, CriticalCaution, RigEvidence as RigEvidenceWire } from '../../shared/api/configurations.js';
 
 export interface CautionAcknowledgementInput {
   axle: AxleName;
@@ -40,40 +41,13 @@ export interface GateInput {
   waivers?: RigWaiverInput[] | undefined;
 }
 
-/** One Critical item a sign-off must acknowledge. */
-export interface CriticalCaution {
-  axle: AxleName;
-  code: string;
-  message: string;
-  value: number | null;
-  threshold: number | null;
-  unit: string | null;
-}
-
 /** Code of the item standing for an axle whose cautions could not be measured. */
 export const CAUTIONS_UNMEASURED = 'cautions-unmeasured';
 
-export interface RigEvidence {
-  id: string;
-  name: string;
-  attachedTo: string;
-  side: string;
-  basis: string;
-  authorName: string | null;
-  createdAt: Date;
-  toeLargestDeg: number;
-  camberLargestDeg: number | null;
-  within: boolean;
-}
-
-export interface AxleEvidence {
-  axle: AxleName;
-  designId: string;
-  designRevision: number;
-  measurements: RigEvidence[];
-  /** At least one measurement within the team's tolerance. */
-  satisfied: boolean;
-}
+/** A rig measurement as evidence (`createdAt` still a Date; the record also shows what it is attached to, its side and basis). */
+export type RigEvidence = Omit<RigEvidenceWire, 'createdAt'> & { createdAt: Date; attachedTo: string; side: string; basis: string };
+/** One axle's rig evidence. */
+export type AxleEvidence = Omit<AxleEvidenceWire, 'measurements'> & { designId: string; measurements: RigEvidence[] };
 
 /** Runs after the status row is written, inside its transaction. */
 export interface GatePass {
@@ -126,7 +100,7 @@ export class ReviewGates {
       const rows = (await this.rig.list(teamId, { designId })).filter((m) => m.designRevision === designRevision).slice(0, EVIDENCE_LIMIT);
       const measurements: RigEvidence[] = [];
       for (const row of rows) {
-        const m = await this.rig.get(teamId, row.id);
+        const m = await this.rig.get(teamId, row);
         const disagreeing = m.comparison.cautions.some((c) => c.code === 'rig-toe-disagreement' || c.code === 'rig-camber-disagreement');
         measurements.push({
           id: m.id,
@@ -151,13 +125,13 @@ export class ReviewGates {
   }
 
   /** What a configuration revision's gates ask for now (the sign-off dialog and the validate step show it). */
-  async status(teamId: string, id: string, revision?: number) {
-    const { revision: rev, refs, inputs } = await this.configs.inputs(teamId, id, revision);
+  async status(teamId: string, c: { id: string; revision: number }, revision?: number) {
+    const { revision: rev, refs, inputs } = await this.configs.inputs(c, revision);
     // One after another: the seed runs this inside a transaction (one connection).
     const lists = await this.cautions(inputs);
     const evidence = await this.evidence(teamId, refs);
     const tolerance = await this.rig.tolerance(teamId);
-    const records = await this.records(id);
+    const records = await this.records(c.id);
     return {
       revision: rev,
       critical: ReviewGates.critical(lists),
@@ -217,7 +191,7 @@ export class ReviewGates {
   }
 
   private async checkSignOff(teamId: string, before: ConfigurationView, given: CautionAcknowledgementInput[]): Promise<GatePass> {
-    const { inputs } = await this.configs.inputs(teamId, before.id, before.revision);
+    const { inputs } = await this.configs.inputs(before, before.revision);
     const critical = ReviewGates.critical(await this.cautions(inputs));
     const key = (x: { axle: AxleName; code: string }) => `${x.axle}:${x.code}`;
     const byKey = new Map(critical.map((c) => [key(c), c]));
@@ -228,11 +202,11 @@ export class ReviewGates {
       else if (!byKey.has(key(a))) fields.push({ path: `acknowledgements[${i}]`, message: `${AXLE_WORDS[a.axle]} has no Critical caution "${a.code}" on revision ${before.revision}` });
       seen.add(key(a));
     });
-    if (fields.length) throw new HttpError(400, 'invalid_input', `Acknowledgements that match no Critical caution: ${fields.map((f) => f.message).join('; ')}`, { fields });
+    if (fields.length) throw new InputError(`Acknowledgements that match no Critical caution: ${fields.map((f) => f.message).join('; ')}`, fields);
     const missing = critical.filter((c) => !seen.has(key(c)));
     if (missing.length) {
-      throw new HttpError(
-        409,
+      throw new DomainError(
+        'conflict',
         'cautions_unacknowledged',
         `Signing off needs a written reason for every Critical caution. Not yet acknowledged: ${missing.map((c) => `${AXLE_WORDS[c.axle].toLowerCase()}: ${c.message}`).join('; ')}`,
         { unacknowledged: missing },
@@ -252,11 +226,11 @@ export class ReviewGates {
   }
 
   private async checkValidation(teamId: string, before: ConfigurationView, waivers: RigWaiverInput[]): Promise<GatePass> {
-    const { refs } = await this.configs.inputs(teamId, before.id, before.revision);
+    const { refs } = await this.configs.inputs(before, before.revision);
     const [evidence, tolerance] = await Promise.all([this.evidence(teamId, refs), this.rig.tolerance(teamId)]);
     const twice = waivers.findIndex((w, i) => waivers.findIndex((x) => x.axle === w.axle) !== i);
     if (twice >= 0) {
-      throw new HttpError(400, 'invalid_input', `${AXLE_WORDS[waivers[twice]!.axle]} is waived twice`, { fields: [{ path: `waivers[${twice}]`, message: 'this axle is waived twice' }] });
+      throw new InputError(`${AXLE_WORDS[waivers[twice]!.axle]} is waived twice`, [{ path: `waivers[${twice}]`, message: 'this axle is waived twice' }]);
     }
     const missing = evidence.filter((e) => !e.satisfied && !waivers.some((w) => w.axle === e.axle));
     if (missing.length) {
@@ -266,7 +240,7 @@ export class ReviewGates {
           ? `${AXLE_WORDS[e.axle].toLowerCase()} (${e.measurements.length} measurement${e.measurements.length === 1 ? '' : 's'} of design revision ${e.designRevision}, none ${within})`
           : `${AXLE_WORDS[e.axle].toLowerCase()} (no rig measurement of design revision ${e.designRevision})`,
       );
-      throw new HttpError(409, 'rig_evidence_missing', `Marking as validated needs rig evidence ${within} for each axle, or a recorded waiver with a reason. Missing: ${what.join('; ')}`, {
+      throw new DomainError('conflict', 'rig_evidence_missing', `Marking as validated needs rig evidence ${within} for each axle, or a recorded waiver with a reason. Missing: ${what.join('; ')}`, {
         axles: missing.map((e) => ({ axle: e.axle, designId: e.designId, designRevision: e.designRevision, measurements: e.measurements.length })),
         tolerance: { toeDeg: tolerance.toeDeg, camberDeg: tolerance.camberDeg },
       });

@@ -12,12 +12,12 @@ import { createHash } from 'node:crypto';
 import { and, asc, eq } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { configurationApprovals, configurationRevisions, teams, users } from '../db/schema.js';
-import { notFound } from '../http/errors.js';
+import { notFound } from '../../shared/errors.js';
 import type { ComputePool } from '../compute/pool.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import { SAFETY_CAUTION } from '../../shared/cautions/cautions.js';
 import { trackProfiles } from '../../shared/tracks/profiles.js';
-import type { Configurations } from './configurations.js';
+import type { Configurations, ConfigurationView } from './configurations.js';
 import { ReviewGates } from './review-gates.js';
 
 /** JSON with object keys sorted at every level: jsonb does not keep key order, the fingerprint must not depend on it. */
@@ -66,9 +66,10 @@ export class ReviewRecord {
     return sweep.rows.filter((r) => r.rackMm === 0).map((r) => ({ travelMm: r.travelMm, toeDeg: r.toeDeg, camberDeg: r.camberDeg }));
   }
 
-  async record(teamId: string, id: string, revision?: number) {
-    const configuration = await this.configs.get(teamId, id);
-    const { revision: rev, refs, inputs } = await this.configs.inputs(teamId, id, revision);
+  /** `configuration`: as loaded for its team (routes/loaders.ts). */
+  async record(teamId: string, configuration: ConfigurationView, revision?: number) {
+    const id = configuration.id;
+    const { revision: rev, refs, inputs } = await this.configs.inputs(configuration, revision);
     const profile = trackProfiles[refs.trackProfile];
     const [team] = await this.orm.select({ name: teams.name }).from(teams).where(eq(teams.id, teamId));
     if (!team) throw notFound('Team');

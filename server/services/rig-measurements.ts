@@ -21,6 +21,7 @@ import { DEFAULT_RIG_TOLERANCE, type RigBasis, type RigComparison, type RigToler
 import { upgradeCornerDocument } from '../../shared/schema/corner.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import type { AxleName } from '../../shared/schema/axle.js';
+import type { RigToleranceView as RigToleranceWire } from '../../shared/api/rig.js';
 
 /** What a measurement is compared with. */
 export type RigTarget =
@@ -35,15 +36,14 @@ export interface RigOptions {
   basis: RigBasis;
 }
 
-export interface RigToleranceView extends RigTolerance {
-  /** True when the team has not set its own (the product defaults apply). */
-  isDefault: boolean;
-  updatedAt: Date | null;
-  updatedByName: string | null;
-}
+/** The team's tolerance (`updatedAt` still a Date). */
+export type RigToleranceView = Omit<RigToleranceWire, 'updatedAt'> & { updatedAt: Date | null };
 
 const rowErrors = (errors: string[]) =>
   new DomainError('invalid', 'rig_rows', `The rig file was refused: ${errors[0]}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, { errors });
+
+/** A measurement's row without its points: what the list shows and the `:measurementId` loader gives. */
+export type RigMeasurementSummary = Awaited<ReturnType<RigMeasurements['list']>>[number];
 
 const summaryColumns = {
   id: rigMeasurements.id,
@@ -110,7 +110,7 @@ export class RigMeasurements {
   /** The design revision and corner a target stands for (404 for another team's). */
   private async resolveTarget(teamId: string, target: RigTarget) {
     if (target.kind === 'configuration') {
-      const c = await this.configurations.inputs(teamId, target.configurationId, target.configurationRevision);
+      const c = await this.configurations.inputs(await this.configurations.get(teamId, target.configurationId), target.configurationRevision);
       const designId = target.axle === 'front' ? c.refs.frontDesignId : c.refs.rearDesignId;
       const designRevision = target.axle === 'front' ? c.refs.frontDesignRevision : c.refs.rearDesignRevision;
       const corner = target.axle === 'front' ? c.inputs.frontCorner : c.inputs.rearCorner;
@@ -210,16 +210,16 @@ export class RigMeasurements {
       .leftJoin(users, eq(users.id, rigMeasurements.authorId));
   }
 
-  private async summary(teamId: string, id: string) {
+  /** The measurement's summary row, if it is the team's (the `:measurementId` loader). */
+  async summary(teamId: string, id: string): Promise<RigMeasurementSummary> {
     const [row] = await this.select().where(and(eq(rigMeasurements.id, id), eq(rigMeasurements.teamId, teamId)));
     if (!row) throw notFound('Rig measurement');
     return row;
   }
 
   /** One measurement with its mapping and points, and the comparison recomputed now with the team's tolerance. */
-  async get(teamId: string, id: string) {
-    const s = await this.summary(teamId, id);
-    const [row] = await this.orm.select({ mapping: rigMeasurements.mapping, points: rigMeasurements.points }).from(rigMeasurements).where(eq(rigMeasurements.id, id));
+  async get(teamId: string, s: RigMeasurementSummary) {
+    const [row] = await this.orm.select({ mapping: rigMeasurements.mapping, points: rigMeasurements.points }).from(rigMeasurements).where(eq(rigMeasurements.id, s.id));
     const points = row!.points;
     const corner = await this.designCorner(s.designId, s.designRevision);
     const tolerance = await this.tolerance(teamId);
@@ -227,10 +227,9 @@ export class RigMeasurements {
     return { ...s, mapping: row!.mapping, points, comparison, engineVersion: ENGINE_VERSION };
   }
 
-  async remove(teamId: string, id: string, userId: string): Promise<void> {
-    const s = await this.summary(teamId, id);
+  async remove(teamId: string, s: RigMeasurementSummary, userId: string): Promise<void> {
     await this.orm.transaction(async (tx) => {
-      await tx.delete(rigMeasurements).where(eq(rigMeasurements.id, id));
+      await tx.delete(rigMeasurements).where(eq(rigMeasurements.id, s.id));
       await recordActivity(tx, {
         teamId,
         actorId: userId,

@@ -6,20 +6,7 @@ import { revokeTokens } from './api-tokens.js';
 import { DomainError, notFound } from '../../shared/errors.js';
 import { permissionsOf, type Role } from '../permissions.js';
 import { recordActivity } from './activity.js';
-
-export interface TeamSummary {
-  id: string;
-  name: string;
-  slug: string;
-  roles: Role[];
-}
-
-export interface Member {
-  userId: string;
-  email: string;
-  displayName: string;
-  roles: Role[];
-}
+import type { TeamMember, TeamSummary } from '../../shared/api/teams.js';
 
 const lastOwner = () => new DomainError('conflict', 'last_owner', 'A team needs at least one owner: make someone else an owner first');
 
@@ -68,7 +55,7 @@ export class Teams {
     await this.orm.delete(teams).where(eq(teams.id, teamId));
   }
 
-  async members(teamId: string): Promise<Member[]> {
+  async members(teamId: string): Promise<TeamMember[]> {
     const rows = await this.orm
       .select({ userId: users.id, email: users.email, displayName: users.displayName, roles: memberships.roles })
       .from(memberships)
@@ -79,7 +66,7 @@ export class Teams {
   }
 
   /** Changes roles (roles given) or removes the member (roles null), never leaving the team without an owner. */
-  async changeMember(teamId: string, userId: string, roles: Role[] | null, actorId: string | null = null): Promise<Member | null> {
+  async changeMember(teamId: string, userId: string, roles: Role[] | null, actorId: string | null = null): Promise<TeamMember | null> {
     return this.orm.transaction(async (tx) => {
       // Lock the team's memberships so two concurrent demotions cannot both pass the owner count.
       const all = await tx

@@ -15,3 +15,19 @@ export interface RevisionRow {
   readonly authorName: string | null;
   readonly createdAt: string;
 }
+
+/** `GET …/compare?from=&to=` of a vehicle or axle design: the changed values of two revisions. */
+export interface RevisionCompare {
+  readonly from: number;
+  readonly to: number;
+  readonly changes: readonly Difference[];
+}
+
+/** The one error shape of the API: every refusal and failure answers `{ error: { code, message, details? } }`. */
+export interface ApiErrorBody {
+  readonly error: {
+    readonly code: string;
+    readonly message: string;
+    readonly details?: unknown;
+  };
+}

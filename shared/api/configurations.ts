@@ -5,6 +5,7 @@
  * and the app's data access reads them; framework-free types only.
  */
 import type { BalanceResponse } from '../balance/api.js';
+import type { AxleName } from '../schema/axle.js';
 import type { ToeFit } from '../kinematics/fit.js';
 import type { Corner } from '../schema/corner.js';
 import type { TrackProfileId } from '../tracks/profiles.js';
@@ -138,4 +139,57 @@ export interface StoredComment {
   readonly createdAt: string;
   readonly resolvedAt: string | null;
   readonly resolvedBy: string | null;
+}
+
+/** One Critical item a sign-off must acknowledge (an axle whose cautions could not be measured counts as one). */
+export interface CriticalCaution {
+  readonly axle: AxleName;
+  readonly code: string;
+  readonly message: string;
+  readonly value: number | null;
+  readonly threshold: number | null;
+  readonly unit: string | null;
+}
+
+/** A rig measurement of an axle design revision a configuration uses, compared now with the team's tolerance. */
+export interface RigEvidence {
+  readonly id: string;
+  readonly name: string;
+  readonly authorName: string | null;
+  readonly createdAt: string;
+  readonly toeLargestDeg: number;
+  readonly camberLargestDeg: number | null;
+  readonly within: boolean;
+}
+
+/** The rig evidence of one axle; `satisfied` when at least one measurement is within the tolerance. */
+export interface AxleEvidence {
+  readonly axle: AxleName;
+  readonly designRevision: number;
+  readonly measurements: readonly RigEvidence[];
+  readonly satisfied: boolean;
+}
+
+/** GET …/configurations/:id/gates: what a sign-off and the move to validated ask for now. */
+export interface GatesAnswer {
+  readonly revision: number;
+  readonly critical: readonly CriticalCaution[];
+  readonly rig: {
+    readonly tolerance: { readonly toeDeg: number; readonly camberDeg: number; readonly isDefault: boolean };
+    readonly axles: readonly AxleEvidence[];
+  };
+  readonly acknowledgements: readonly { readonly axle: AxleName; readonly code: string; readonly reason: string; readonly acknowledgedByName: string | null }[];
+  readonly waivers: readonly { readonly axle: AxleName; readonly reason: string; readonly waivedByName: string | null }[];
+}
+
+/** GET …/configurations/:id/latest-preview: what moving to the latest vehicle and design revisions would change (nothing is saved). */
+export interface LatestPreviewAnswer {
+  readonly engineVersion: string;
+  readonly revision: number;
+  readonly current: ConfigurationRefs;
+  readonly latest: ConfigurationRefs;
+  readonly changedRefs: readonly { readonly ref: 'vehicleRevision' | 'frontDesignRevision' | 'rearDesignRevision'; readonly from: number; readonly to: number }[];
+  readonly upToDate: boolean;
+  readonly inputs: readonly Difference[];
+  readonly results: readonly Difference[];
 }

@@ -72,10 +72,11 @@ const TOKEN_SCOPE: Cell = '403 token_scope';
 function teamRoute(holders: Role[], ok: Cell, o: { method: string; teamRead?: boolean }): Record<Who, Cell> {
   const read = o.method === 'GET';
   const e: Partial<Record<Who, Cell>> = { anonymous: 401, otherTeam: 404, instructorPending: 404 };
-  for (const r of ROLE_LIST) e[r] = holders.includes(r) ? ok : 403;
+  const cell = (r: Role): Cell => (holders.includes(r) ? ok : 403);
+  for (const r of ROLE_LIST) e[r] = cell(r);
   e.instructorAccepted = read && o.teamRead ? ok : 404;
-  e.tokenRead = read ? e.engineer : TOKEN_SCOPE;
-  e.tokenWrite = e.engineer;
+  e.tokenRead = read ? cell('engineer') : TOKEN_SCOPE;
+  e.tokenWrite = cell('engineer');
   return e as Record<Who, Cell>;
 }
 const ALL_ROLES: Role[] = [...ROLE_LIST];

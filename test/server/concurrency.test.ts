@@ -32,9 +32,12 @@ let rearId = '';
 
 beforeAll(async () => {
   t = await startTestApp({ seed: true });
-  [dana, eli, owner, reviewer] = await Promise.all(
-    ['designer@tallowmere.example', 'engineer@tallowmere.example', 'owner@tallowmere.example', 'reviewer@tallowmere.example'].map((e) => signIn(t.app, e)),
-  );
+  [dana, eli, owner, reviewer] = await Promise.all([
+    signIn(t.app, 'designer@tallowmere.example'),
+    signIn(t.app, 'engineer@tallowmere.example'),
+    signIn(t.app, 'owner@tallowmere.example'),
+    signIn(t.app, 'reviewer@tallowmere.example'),
+  ]);
   teamId = (await owner.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
   const s = await registerUser(t.app, 'Sam Second');
   await addMember(t, owner, teamId, s, ['engineer', 'designer']);
@@ -56,7 +59,7 @@ function raised(dzMm: number): Corner {
   c.points.tieRodInner = [p[0], p[1], p[2] + dzMm];
   return c;
 }
-const tieRodZ = (corner: { points: { tieRodInner: number[] } }) => corner.points.tieRodInner[2];
+const tieRodZ = (corner: { points: { tieRodInner: readonly [number, number, number] } }) => corner.points.tieRodInner[2];
 
 describe('two sessions save the same axle design at once', () => {
   it('exactly one wins each round; the other gets 409 with the current revision, saves on top, and both are in the history', async () => {
@@ -254,7 +257,7 @@ describe('the server killed in the middle of a burst of saves', () => {
       fetch(`${url}${path}`, {
         method: init.method ?? 'GET',
         headers: { cookie, 'x-rollwise-request': '1', ...(init.body === undefined ? {} : { 'content-type': 'application/json' }) },
-        body: init.body === undefined ? undefined : JSON.stringify(init.body),
+        body: init.body === undefined ? null : JSON.stringify(init.body),
       });
   }
 

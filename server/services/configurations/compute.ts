@@ -33,10 +33,9 @@ export class ConfigurationCompute {
     private readonly computeTimeLimitMs: number,
   ) {}
 
-  /** The documents of one revision (default: the current one). */
-  async inputs(teamId: string, id: string, revision?: number): Promise<{ revision: number; refs: ConfigurationRefs; inputs: ConfigurationInputs }> {
-    const c = await this.store.get(teamId, id);
-    const r = await this.store.revisionRow(id, revision ?? c.revision);
+  /** The documents of one revision (default: the current one) of `c`, the configuration as loaded for its team. */
+  async inputs(c: { id: string; revision: number }, revision?: number): Promise<{ revision: number; refs: ConfigurationRefs; inputs: ConfigurationInputs }> {
+    const r = await this.store.revisionRow(c.id, revision ?? c.revision);
     const [v] = await this.orm
       .select({ data: vehicleRevisions.data })
       .from(vehicleRevisions)
@@ -79,14 +78,15 @@ export class ConfigurationCompute {
     return configurationAnalysis(r, balance as BalanceResponse, front as SweepResult, rear as SweepResult);
   }
 
-  async results(teamId: string, id: string, revision?: number) {
-    const { revision: rev, refs, inputs } = await this.inputs(teamId, id, revision);
+  async results(c: { id: string; revision: number }, revision?: number) {
+    const { revision: rev, refs, inputs } = await this.inputs(c, revision);
     return { revision: rev, refs, engineVersion: ENGINE_VERSION, results: await this.compute(inputs) };
   }
 
   /** Changed inputs and changed key results of two configuration revisions, side by side. */
   async compare(teamId: string, a: { id: string; revision?: number | undefined }, b: { id: string; revision?: number | undefined }) {
-    const [ia, ib] = await Promise.all([this.inputs(teamId, a.id, a.revision), this.inputs(teamId, b.id, b.revision)]);
+    const of = async (x: { id: string; revision?: number | undefined }) => this.inputs(await this.store.get(teamId, x.id), x.revision);
+    const [ia, ib] = await Promise.all([of(a), of(b)]);
     const [ra, rb] = await Promise.all([this.compute(ia.inputs), this.compute(ib.inputs)]);
     return {
       engineVersion: ENGINE_VERSION,

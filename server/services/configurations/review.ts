@@ -91,7 +91,7 @@ export class ConfigurationReview {
     }
     const gate = await this.gates.check(teamId, before, action, o.gate);
     // Approval freezes what the engines say now (computed before the transaction: it may take a moment).
-    const snapshot = action === 'approve' ? await this.engines.inputs(teamId, id, before.revision) : undefined;
+    const snapshot = action === 'approve' ? await this.engines.inputs(before, before.revision) : undefined;
     const results = snapshot ? await this.engines.compute(snapshot.inputs) : undefined;
     return this.orm.transaction(async (tx) => {
       const [row] = await tx

@@ -45,7 +45,7 @@ export interface RefsInput {
 }
 
 /** What a new revision may change; a changed vehicle or design without a revision means its current revision. */
-export type ConfigurationChange = Partial<RefsInput> & { name?: string | undefined; message?: string | undefined };
+export type ConfigurationChange = { [K in keyof RefsInput]?: RefsInput[K] | undefined } & { name?: string | undefined; message?: string | undefined };
 
 export type ConfigurationView = {
   id: string;

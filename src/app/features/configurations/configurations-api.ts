@@ -1,7 +1,6 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
-import type { Corner } from '../../../../shared/schema/corner';
 import type { TrackProfileId } from '../../../../shared/tracks/profiles';
 import type {
   ApprovalDetail,
@@ -9,14 +8,15 @@ import type {
   CommentThread,
   CompareAnswer,
   Configuration,
-  ConfigurationRefs,
   ConfigurationRevision,
+  GatesAnswer,
+  LatestPreviewAnswer,
   ResultsAnswer,
   ReviewAction,
   ReviewComment,
   TransitionRow,
 } from '../../../../shared/api/configurations';
-import type { Difference } from '../../../../shared/api/common';
+import type { DesignRevisionRecord, VehicleRevisionRecord } from '../../../../shared/api/documents';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
 
 /** The response types are the server's own (shared/api): docs/api.md, "Configurations and review". */
@@ -30,12 +30,16 @@ export type {
   ConfigurationResults,
   ConfigurationRevision,
   ConfigurationStatus,
+  CriticalCaution,
+  GatesAnswer,
+  LatestPreviewAnswer,
   ResultsAnswer,
   ReviewAction,
   ReviewComment,
   TransitionRow,
 } from '../../../../shared/api/configurations';
 export type { Difference } from '../../../../shared/api/common';
+export type { DesignRevisionRecord, VehicleRevisionRecord } from '../../../../shared/api/documents';
 
 export interface NewConfiguration {
   readonly name: string;
@@ -63,65 +67,11 @@ export interface ConfigurationChange {
 }
 
 /** A stored revision of a vehicle or axle design (only the fields these screens read). */
-export interface VehicleRevisionRecord {
-  readonly revision: number;
-  readonly name: string;
-  readonly data: unknown;
-}
-export interface DesignRevisionRecord {
-  readonly revision: number;
-  readonly name: string;
-  readonly corner: Corner;
-}
-
-/** A Critical item a sign-off must acknowledge (GET …/gates `critical`). */
-export interface CriticalCaution {
-  readonly axle: 'front' | 'rear';
-  readonly code: string;
-  readonly message: string;
-  readonly value: number | null;
-  readonly threshold: number | null;
-  readonly unit: string | null;
-}
-
-export interface RigEvidence {
-  readonly id: string;
-  readonly name: string;
-  readonly toeLargestDeg: number;
-  readonly camberLargestDeg: number | null;
-  readonly within: boolean;
-  readonly authorName: string | null;
-  readonly createdAt: string;
-}
-
-/** GET …/configurations/:id/gates: what a sign-off and the move to validated ask for now. */
-export interface GatesAnswer {
-  readonly revision: number;
-  readonly critical: readonly CriticalCaution[];
-  readonly rig: {
-    readonly tolerance: { readonly toeDeg: number; readonly camberDeg: number; readonly isDefault: boolean };
-    readonly axles: readonly { readonly axle: 'front' | 'rear'; readonly designRevision: number; readonly measurements: readonly RigEvidence[]; readonly satisfied: boolean }[];
-  };
-  readonly acknowledgements: readonly { readonly axle: 'front' | 'rear'; readonly code: string; readonly reason: string; readonly acknowledgedByName: string | null }[];
-  readonly waivers: readonly { readonly axle: 'front' | 'rear'; readonly reason: string; readonly waivedByName: string | null }[];
-}
 
 /** What a reviewer sends with a step: reasons for Critical cautions (sign-off) or rig waivers (validated). */
 export interface GateBody {
   readonly acknowledgements?: readonly { readonly axle: 'front' | 'rear'; readonly code: string; readonly reason: string }[];
   readonly waivers?: readonly { readonly axle: 'front' | 'rear'; readonly reason: string }[];
-}
-
-/** GET …/configurations/:id/latest-preview. */
-export interface LatestPreviewAnswer {
-  readonly engineVersion: string;
-  readonly revision: number;
-  readonly current: ConfigurationRefs;
-  readonly latest: ConfigurationRefs;
-  readonly changedRefs: readonly { readonly ref: 'vehicleRevision' | 'frontDesignRevision' | 'rearDesignRevision'; readonly from: number; readonly to: number }[];
-  readonly upToDate: boolean;
-  readonly inputs: readonly Difference[];
-  readonly results: readonly Difference[];
 }
 
 const inline = () => ({ context: new HttpContext().set(SHOW_ERRORS_INLINE, true) });

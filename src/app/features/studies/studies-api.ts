@@ -1,44 +1,12 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
-import type { StudyKeyFigure, StudyRequest, StudyResult, StudyTarget } from '../../../../shared/study/index';
+import type { StudyRequest } from '../../../../shared/study/index';
+import type { AttachedStudy, ProgrammeStudies, StudyStatus, StudyView } from '../../../../shared/api/studies';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
 
-export type StudyStatus = 'queued' | 'running' | 'completed' | 'failed' | 'cancelled';
-
-/** `StudyView` of docs/api.md ("Studies"). */
-export interface StudyView {
-  readonly id: string;
-  readonly kind: 'tolerance' | 'sweep';
-  readonly label: string | null;
-  readonly status: StudyStatus;
-  readonly progress: { readonly doneChunks: number; readonly totalChunks: number; readonly doneSamples: number; readonly totalSamples: number };
-  readonly etaSeconds: number | null;
-  readonly error: { readonly code: string; readonly message: string } | null;
-  readonly target: StudyTarget;
-  readonly createdAt: string;
-  readonly createdBy: { readonly id: string; readonly displayName: string } | null;
-  readonly result?: StudyResult;
-}
-
-/** `AttachedStudy` of docs/api.md: a completed study on a configuration's review record, with its key figures. */
-export interface AttachedStudy {
-  readonly studyId: string;
-  readonly configurationId: string;
-  readonly label: string;
-  readonly kind: 'tolerance' | 'sweep';
-  readonly totalSamples: number;
-  readonly note: string;
-  readonly attachedAt: string;
-  readonly attachedBy: { readonly id: string; readonly displayName: string } | null;
-  readonly keyFigures: readonly StudyKeyFigure[];
-}
-
-/** `GET /api/programmes/:programmeId/studies`: per accepted team, its latest attached study. */
-export interface ProgrammeStudies {
-  readonly programmeId: string;
-  readonly teams: readonly { readonly teamId: string; readonly teamName: string; readonly configurationName: string | null; readonly study: AttachedStudy | null }[];
-}
+// The answers' types are the server's (shared/api/studies.ts).
+export type { AttachedStudy, ProgrammeStudies, StudyStatus, StudyView } from '../../../../shared/api/studies';
 
 const inline = () => ({ context: new HttpContext().set(SHOW_ERRORS_INLINE, true) });
 const e = encodeURIComponent;
