@@ -6,9 +6,9 @@
  * PostgreSQL, HTTP or the browser as much as it computes, so the other lane
  * fills the gaps):
  *   lane 1: vitest: engine (shared) and API (server, real PostgreSQL), then
- *           the type check of shared/, server/ and test/ (tsc), shared/ again
- *           under tsconfig.shared.json's stricter options, then the Angular
- *           component specs (ng test: vitest + jsdom)
+ *           the type check of shared/, server/ and test/ (tsc, with
+ *           noUncheckedIndexedAccess and exactOptionalPropertyTypes), then
+ *           the Angular component specs (ng test: vitest + jsdom)
  *   lane 2: the production build of the app, then the browser tests
  *           (playwright-core + Chromium) against it, the longest chain, so it
  *           starts at once
@@ -122,8 +122,6 @@ async function vitest(step: string, projects: string[]): Promise<Tally> {
 async function unitAndChecks(): Promise<void> {
   tallies.push(await vitest('unit', ['shared', 'server']));
   tallies.push(wholeTally('type check', await runner('type check', bin('tsc'), ['-p', 'tsconfig.node.json'])));
-  // shared/ again under the stricter options (noUncheckedIndexedAccess, exactOptionalPropertyTypes).
-  tallies.push(wholeTally('strict shared', await runner('strict shared', bin('tsc'), ['-p', 'tsconfig.shared.json'])));
   tallies.push(ngTally(await runner('angular specs', bin('ng'), ['test', '--watch=false'])));
 }
 
