@@ -24,7 +24,8 @@ export const INTENT_FORMAT_VERSION = 1 as const;
 /** Largest number of travel points per sweep a solve accepts (it runs dozens of sweeps). */
 export const MAX_SWEEP_POINTS_PER_SOLVE = 201;
 
-const finite = (what: string) => z.number({ error: `${what} must be a number` }).finite();
+/** A finite number; "must be a number" only when it is not one (a range issue keeps its own words). */
+const finite = (what: string) => z.number({ error: (iss) => (iss.code === 'invalid_type' ? `${what} must be a number` : undefined) }).finite();
 /** A finite number held to its plausible range (shared/schema/ranges.ts, docs/inputs.md). */
 const ranged = (what: string, range: InputRange, base = finite(what)) => inRange(base, range, what);
 const coordinateSchema = z.string().regex(MOVABLE_COORDINATE_PATTERN, {
@@ -32,11 +33,11 @@ const coordinateSchema = z.string().regex(MOVABLE_COORDINATE_PATTERN, {
 });
 
 export const intentTargetSchema = z.union([
-  z.strictObject({ rollSteerCoefficient: finite('target.rollSteerCoefficient').min(-1).max(1) }),
-  z.strictObject({ understeerChangeDegPerG: finite('target.understeerChangeDegPerG').min(-20).max(20) }),
+  z.strictObject({ rollSteerCoefficient: ranged('target.rollSteerCoefficient', INTENT_RANGES.rollSteerCoefficient) }),
+  z.strictObject({ understeerChangeDegPerG: ranged('target.understeerChangeDegPerG', INTENT_RANGES.understeerChangeDegPerG) }),
   z.strictObject({ zeroBumpSteer: z.literal(true) }),
   /** Roll steer plus compliance steer of the axle (deg/g, positive out of the turn), compliance from the corner's bushings or the vehicle. */
-  z.strictObject({ rollAndComplianceSteerDegPerG: finite('target.rollAndComplianceSteerDegPerG').min(-20).max(20) }),
+  z.strictObject({ rollAndComplianceSteerDegPerG: ranged('target.rollAndComplianceSteerDegPerG', INTENT_RANGES.axleSteerDegPerG) }),
 ], { error: 'target must be { rollSteerCoefficient }, { understeerChangeDegPerG }, { zeroBumpSteer: true } or { rollAndComplianceSteerDegPerG }' });
 type IntentTarget = z.infer<typeof intentTargetSchema>;
 
@@ -87,6 +88,10 @@ export const intentOptionsSchema = z.strictObject({
   threadPitchMm: ranged('threadPitchMm', INTENT_RANGES.threadPitchMm).default(1.5),
   /** `single-thread`: one turn = one pitch; `turnbuckle` (left- and right-hand threads): one turn = two pitches. */
   adjuster: z.enum(['single-thread', 'turnbuckle']).default('single-thread'),
+  /** How far the adjuster can change the link's length either way, mm; beyond it a new link is needed (default 5 mm, from memory). */
+  adjusterReachMm: ranged('adjusterReachMm', INTENT_RANGES.adjusterReachMm).default(5),
+  /** Tallest shim stack an end takes, mm; beyond it a new bracket is needed (default 10 mm, from memory). */
+  shimStackMaxMm: ranged('shimStackMaxMm', INTENT_RANGES.shimStackMaxMm).default(10),
   /** Roll angle (deg) at which the curvature caution compares roll steer; default from the vehicle at 1 g, else 2°. */
   referenceRollDeg: ranged('referenceRollDeg', INTENT_RANGES.referenceRollDeg).optional(),
 });
@@ -125,23 +130,23 @@ export const intentSchema = z
     }
     for (const [k, b] of Object.entries(intent.bounds)) {
       if (!seen.has(k)) issue(['bounds', k], `bounds.${k} is given but ${k} is not in movable`);
-      else if (!(b[0] < b[1])) issue(['bounds', k], `bounds.${k} [${b[0]}, ${b[1]}] must have min < max`);
+      else if (!(b[0] < b[1])) issue(['bounds', k], `the lowest, ${b[0]} mm, must be below the highest, ${b[1]} mm`);
     }
     if ('rollAndComplianceSteerDegPerG' in intent.target && !intent.vehicle) {
       issue(['vehicle'], 'vehicle is required for target.rollAndComplianceSteerDegPerG (its suspension roll and axle load turn steer per degree and per kN into deg/g)');
     }
     if (intent.options.bumpYawBudgetPct !== undefined && !intent.vehicle) {
-      issue(['options', 'bumpYawBudgetPct'], 'vehicle is required for options.bumpYawBudgetPct (the ride model needs its masses, springs, dampers and tyres)');
+      issue(['options', 'bumpYawBudgetPct'], 'a bump-cost budget needs the vehicle (the ride model needs its masses, springs, dampers and tyres)');
     }
     if ('understeerChangeDegPerG' in intent.target && !intent.vehicle) {
       issue(['vehicle'], 'vehicle is required for target.understeerChangeDegPerG (the suspension roll gradient turns it into a roll steer coefficient)');
     }
     const tp = intent.trackProfile;
     if (typeof tp === 'object' && tp.travelMm && !(tp.travelMm[0] < 0 && tp.travelMm[1] > 0)) {
-      issue(['trackProfile', 'travelMm'], `trackProfile.travelMm [${tp.travelMm[0]}, ${tp.travelMm[1]}] must run from droop (< 0) to bump (> 0)`);
+      issue(['trackProfile', 'travelMm'], `the travel range ${tp.travelMm[0]} to ${tp.travelMm[1]} mm must run from droop (below 0) to bump (above 0)`);
     } else if (typeof tp === 'object' && tp.travelMm && tp.travelMm[1] - tp.travelMm[0] < MIN_TRAVEL_SPAN_MM) {
       // A span of micrometres makes the toe fit's curvature a ratio of rounding errors (NaN or 1e47 deg/m²).
-      issue(['trackProfile', 'travelMm'], `trackProfile.travelMm [${tp.travelMm[0]}, ${tp.travelMm[1]}] spans less than ${MIN_TRAVEL_SPAN_MM} mm of travel`);
+      issue(['trackProfile', 'travelMm'], `the travel range ${tp.travelMm[0]} to ${tp.travelMm[1]} mm spans less than ${MIN_TRAVEL_SPAN_MM} mm`);
     }
     const travel = typeof tp === 'object' && tp.travelMm ? tp.travelMm : trackProfiles[typeof tp === 'object' ? tp.id : tp].travelMm;
     const stepMm = intent.options.travelStepMm;
