@@ -115,54 +115,77 @@ export const intentSchema = z
     // Only codes with a threshold rule can be tuned (not the notices, nor the rig tolerance cautions, which take the team's tolerance).
     cautionThresholds: z.partialRecord(z.enum(Object.keys(CAUTION_RULES) as [string, ...string[]]), levelThresholdsSchema).optional(),
   })
-  .superRefine((intent, ctx) => {
-    const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });
-    const seen = new Set<string>();
-    intent.movable.forEach((m, i) => {
-      if (seen.has(m)) issue(['movable', i], `${m} is listed twice`);
-      seen.add(m);
-      const why = coordinateProblem(intent.corner, m);
-      if (why) issue(['movable', i], why);
-      if (!intent.bounds[m]) issue(['bounds', m], `bounds.${m} is required: every movable coordinate needs packaging bounds [min, max] in mm`);
-    });
-    if (seen.has('rack.z') && seen.has(innerName(intent.corner) + '.z')) {
-      issue(['movable'], `rack.z and ${innerName(intent.corner)}.z move the same point: list one of them`);
-    }
-    for (const [k, b] of Object.entries(intent.bounds)) {
-      if (!seen.has(k)) issue(['bounds', k], `bounds.${k} is given but ${k} is not in movable`);
-      else if (!(b[0] < b[1])) issue(['bounds', k], `the lowest, ${b[0]} mm, must be below the highest, ${b[1]} mm`);
-    }
-    if ('rollAndComplianceSteerDegPerG' in intent.target && !intent.vehicle) {
-      issue(['vehicle'], 'vehicle is required for target.rollAndComplianceSteerDegPerG (its suspension roll and axle load turn steer per degree and per kN into deg/g)');
-    }
-    if (intent.options.bumpYawBudgetPct !== undefined && !intent.vehicle) {
-      issue(['options', 'bumpYawBudgetPct'], 'a bump-cost budget needs the vehicle (the ride model needs its masses, springs, dampers and tyres)');
-    }
-    if ('understeerChangeDegPerG' in intent.target && !intent.vehicle) {
-      issue(['vehicle'], 'vehicle is required for target.understeerChangeDegPerG (the suspension roll gradient turns it into a roll steer coefficient)');
-    }
-    const tp = intent.trackProfile;
-    if (typeof tp === 'object' && tp.travelMm && !(tp.travelMm[0] < 0 && tp.travelMm[1] > 0)) {
-      issue(['trackProfile', 'travelMm'], `the travel range ${tp.travelMm[0]} to ${tp.travelMm[1]} mm must run from droop (below 0) to bump (above 0)`);
-    } else if (typeof tp === 'object' && tp.travelMm && tp.travelMm[1] - tp.travelMm[0] < MIN_TRAVEL_SPAN_MM) {
-      // A span of micrometres makes the toe fit's curvature a ratio of rounding errors (NaN or 1e47 deg/m²).
-      issue(['trackProfile', 'travelMm'], `the travel range ${tp.travelMm[0]} to ${tp.travelMm[1]} mm spans less than ${MIN_TRAVEL_SPAN_MM} mm`);
-    }
-    const travel = typeof tp === 'object' && tp.travelMm ? tp.travelMm : trackProfiles[typeof tp === 'object' ? tp.id : tp].travelMm;
-    const stepMm = intent.options.travelStepMm;
-    if (stepMm !== undefined && (travel[1] - travel[0]) / stepMm < 4) {
-      issue(['options', 'travelStepMm'], `options.travelStepMm ${stepMm} mm leaves fewer than five sweep points over the travel range [${travel[0]}, ${travel[1]}] mm`);
-    }
-    if (stepMm !== undefined && (travel[1] - travel[0]) / stepMm > MAX_SWEEP_POINTS_PER_SOLVE - 1) {
-      issue(['options', 'travelStepMm'], `options.travelStepMm ${stepMm} mm gives more than ${MAX_SWEEP_POINTS_PER_SOLVE} sweep points over [${travel[0]}, ${travel[1]}] mm; a solve runs dozens of sweeps`);
-    }
-    const st = intent.corner.steering;
-    const stroke = st?.kind === 'rack' ? st.rackStroke : st?.kind === 'arm' ? armStrokeMm(intent.corner) : null;
-    (intent.options.rackPositionsMm ?? []).forEach((r, i) => {
-      if (!intent.corner.steered) issue(['options', 'rackPositionsMm', i], 'the corner is not steered: rack positions do not apply');
-      else if (stroke && (r < stroke[0] || r > stroke[1])) issue(['options', 'rackPositionsMm', i], `rack position ${r} mm is outside the stroke [${stroke[0]}, ${stroke[1]}]`);
-    });
-  });
+  .superRefine(
+    (intent, ctx) => {
+      // Runs also when a field already has an issue (see `when`), so every problem is reported at once:
+      // each rule looks only at values that passed their own field's check.
+      const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });
+      const fin = (v: unknown): v is number => typeof v === 'number' && Number.isFinite(v);
+      const pair = (v: unknown): v is [number, number] => Array.isArray(v) && fin(v[0]) && fin(v[1]);
+      const seen = new Set<string>();
+      intent.movable.forEach((m, i) => {
+        if (typeof m !== 'string') return;
+        if (seen.has(m)) issue(['movable', i], `${m} is listed twice`);
+        seen.add(m);
+        const why = coordinateProblem(intent.corner, m);
+        if (why) issue(['movable', i], why);
+        if (!intent.bounds[m]) issue(['bounds', m], `bounds.${m} is required: every movable coordinate needs packaging bounds [min, max] in mm`);
+      });
+      if (seen.has('rack.z') && seen.has(innerName(intent.corner) + '.z')) {
+        issue(['movable'], `rack.z and ${innerName(intent.corner)}.z move the same point: list one of them`);
+      }
+      for (const [k, b] of Object.entries(intent.bounds)) {
+        if (!seen.has(k)) issue(['bounds', k], `bounds.${k} is given but ${k} is not in movable`);
+        else if (pair(b) && !(b[0] < b[1])) issue(['bounds', k], `the lowest, ${b[0]} mm, must be below the highest, ${b[1]} mm`);
+      }
+      const target: object = typeof intent.target === 'object' && intent.target !== null ? intent.target : {};
+      if ('rollAndComplianceSteerDegPerG' in target && !intent.vehicle) {
+        issue(['vehicle'], 'vehicle is required for target.rollAndComplianceSteerDegPerG (its suspension roll and axle load turn steer per degree and per kN into deg/g)');
+      }
+      const options: Partial<z.infer<typeof intentOptionsSchema>> = typeof intent.options === 'object' && intent.options !== null ? intent.options : {};
+      if (options.bumpYawBudgetPct !== undefined && !intent.vehicle) {
+        issue(['options', 'bumpYawBudgetPct'], 'a bump-cost budget needs the vehicle (the ride model needs its masses, springs, dampers and tyres)');
+      }
+      if ('understeerChangeDegPerG' in target && !intent.vehicle) {
+        issue(['vehicle'], 'vehicle is required for target.understeerChangeDegPerG (the suspension roll gradient turns it into a roll steer coefficient)');
+      }
+      const tp = intent.trackProfile;
+      const entered = typeof tp === 'object' && tp !== null && pair(tp.travelMm) ? tp.travelMm : null;
+      if (entered && !(entered[0] < 0 && entered[1] > 0)) {
+        issue(['trackProfile', 'travelMm'], `the travel range ${entered[0]} to ${entered[1]} mm must run from droop (below 0) to bump (above 0)`);
+      } else if (entered && entered[1] - entered[0] < MIN_TRAVEL_SPAN_MM) {
+        // A span of micrometres makes the toe fit's curvature a ratio of rounding errors (NaN or 1e47 deg/m²).
+        issue(['trackProfile', 'travelMm'], `the travel range ${entered[0]} to ${entered[1]} mm spans less than ${MIN_TRAVEL_SPAN_MM} mm`);
+      }
+      const id = typeof tp === 'object' && tp !== null ? tp.id : tp;
+      const travel = entered ?? (Object.hasOwn(trackProfiles, id) ? trackProfiles[id].travelMm : null);
+      const stepMm = options.travelStepMm;
+      if (travel && fin(stepMm) && (travel[1] - travel[0]) / stepMm < 4) {
+        issue(['options', 'travelStepMm'], `options.travelStepMm ${stepMm} mm leaves fewer than five sweep points over the travel range [${travel[0]}, ${travel[1]}] mm`);
+      }
+      if (travel && fin(stepMm) && (travel[1] - travel[0]) / stepMm > MAX_SWEEP_POINTS_PER_SOLVE - 1) {
+        issue(['options', 'travelStepMm'], `options.travelStepMm ${stepMm} mm gives more than ${MAX_SWEEP_POINTS_PER_SOLVE} sweep points over [${travel[0]}, ${travel[1]}] mm; a solve runs dozens of sweeps`);
+      }
+      const st = intent.corner.steering;
+      const stroke = st?.kind === 'rack' ? st.rackStroke : st?.kind === 'arm' ? armStrokeMm(intent.corner) : null;
+      (Array.isArray(options.rackPositionsMm) ? options.rackPositionsMm : []).forEach((r, i) => {
+        if (!intent.corner.steered) issue(['options', 'rackPositionsMm', i], 'the corner is not steered: rack positions do not apply');
+        else if (stroke && fin(r) && (r < stroke[0] || r > stroke[1])) issue(['options', 'rackPositionsMm', i], `rack position ${r} mm is outside the stroke [${stroke[0]}, ${stroke[1]}]`);
+      });
+    },
+    {
+      // The rules read the corner, the movable list and the bounds: they run whenever those have a usable
+      // shape, even with a bad number elsewhere, so a form hears of every problem at once.
+      when: (payload) => {
+        const v = payload.value as Record<string, unknown> | null | undefined;
+        if (!v || typeof v !== 'object' || !Array.isArray(v['movable']) || !v['bounds'] || typeof v['bounds'] !== 'object') return false;
+        return payload.issues.every((i) => {
+          const path = i.path ?? [];
+          return !['corner', 'axle', 'movable', 'bounds', 'formatVersion'].includes(String(path[0])) || (path[0] === 'bounds' && path.length > 2);
+        });
+      },
+    },
+  );
 
 export type Intent = z.infer<typeof intentSchema>;
 export type IntentInput = z.input<typeof intentSchema>;

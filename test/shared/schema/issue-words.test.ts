@@ -50,4 +50,19 @@ describe('issueWords', () => {
     expect(w.some((m) => m.startsWith('the rack height and the inner end’s height move the same point'))).toBe(true);
     expect(w.join(' ')).not.toMatch(/tieRodInner|rack\.z|trackProfile/);
   });
+
+  it('a bad number does not hide the document’s other rules: every problem comes at once', () => {
+    const bad = {
+      corner: exampleCorners.fsFrontWishbone,
+      axle: 'front',
+      target: { rollSteerCoefficient: 5 },
+      movable: ['tieRodInner.z'],
+      bounds: { 'tieRodInner.z': [160, Number.NaN] },
+      trackProfile: { id: 'smooth-circuit', travelMm: [10, 20] },
+      options: { shimThicknessMm: Number.NaN },
+    };
+    const r = intentSchema.safeParse(bad);
+    const paths = (r.error?.issues ?? []).map((i) => i.path.join('.'));
+    expect(paths.sort()).toEqual(['bounds.tieRodInner.z.1', 'options.shimThicknessMm', 'target.rollSteerCoefficient', 'trackProfile.travelMm']);
+  });
 });
