@@ -1,4 +1,7 @@
+import { signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
+import type { DisplayUnits } from '../core/api-types';
+import { DISPLAY_UNITS } from '../core/format/num-pipe';
 import { exampleCorners } from '../../../shared/kinematics/examples';
 import { exampleVehicles } from '../../../shared/balance/examples';
 import { resolveTrackProfile } from '../../../shared/tracks/profiles';
@@ -28,6 +31,19 @@ describe('BumpCostView', () => {
 
   it('says what is missing when there is no bump cost', () => {
     const el = render(null, 'vehicle.front.tyre.verticalRateNPerMm: required by the ride model');
-    expect(el.querySelector('[data-testid="bump-cost-none"]')!.textContent).toContain('verticalRateNPerMm');
+    const text = el.querySelector('[data-testid="bump-cost-none"]')!.textContent!;
+    expect(text).toContain("the vehicle's front tyre vertical rate: required by the ride model");
+    expect(text).not.toContain('verticalRateNPerMm');
+  });
+
+  it('writes lengths and distances in the user’s inch-pound units', () => {
+    TestBed.overrideProvider(DISPLAY_UNITS, { useValue: signal<DisplayUnits>('imperial') });
+    const cost = bumpCost(exampleVehicles.tur26Ember, 'front', exampleCorners.fsFrontWishbone, resolveTrackProfile('bumpy-circuit'));
+    const el = render(cost);
+    // 1 in = 25.4 mm, 1 ft = 0.3048 m exactly (NIST SP 811).
+    const heading = el.querySelector('[data-testid="bump-cost-heading"]')!.closest('div')!.textContent!;
+    expect(heading).toContain(`${Number((cost.bumpHeightMm / 25.4).toPrecision(4))} in ×`);
+    expect(el.querySelector('[data-testid="bump-cost-yaw"]')!.textContent).toContain(`${Number((cost.cornerRadiusM / 0.3048).toPrecision(3))} ft corner`);
+    expect(el.textContent).not.toMatch(/\d mm\b/);
   });
 });

@@ -1,6 +1,10 @@
-import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import type { BumpCost } from '../../../shared/ride/cost';
 import { formatFigure } from '../programmes/board-figures';
+import { DISPLAY_UNITS } from '../core/format/num-pipe';
+import { formatNum } from '../core/format/num';
+import { unitLabel, type QuantityKind } from '../core/format/quantities';
+import { vehicleRangeFor } from '../../../shared/schema/ranges';
 
 /**
  * The bump cost of an axle's roll steer on the chosen track profile, from the
@@ -20,34 +24,34 @@ import { formatFigure } from '../programmes/board-figures';
             <dt>Yaw-rate disturbance</dt>
             <dd data-testid="bump-cost-yaw">
               @if (c.yawRateRmsDegPerS !== null) {
-                {{ f(c.yawRateRmsDegPerS, 3) }} deg/s RMS, {{ f(c.yawDisturbancePct, 2) }} % of the {{ f(c.steadyYawRateDegPerS, 1) }} deg/s of a {{ c.cornerRadiusM }} m corner
+                {{ f(c.yawRateRmsDegPerS, 3) }} deg/s RMS, {{ f(c.yawDisturbancePct, 2) }} % of the {{ f(c.steadyYawRateDegPerS, 1) }} deg/s of a {{ q(c.cornerRadiusM, 'distance') }} corner
               } @else {
                 no steady state: the car is above its critical speed
               }
             </dd>
           </div>
           <div>
-            <dt>{{ c.bumpHeightMm }} mm × {{ c.bumpLengthMm }} mm bump under one wheel</dt>
+            <dt>{{ q(c.bumpHeightMm, 'length') }} × {{ q(c.bumpLengthMm, 'length') }} bump under one wheel</dt>
             <dd data-testid="bump-cost-heading">
-              turns the car by {{ f(c.headingChangeDeg, 3) }}° ({{ f(c.driftM === null ? null : 100 * c.driftM, 1) }} cm of drift within a second); toe changes by up to {{ f(c.peakToeChangeDeg, 3) }}°
+              turns the car by {{ f(c.headingChangeDeg, 3) }}° ({{ c.driftM === null ? '–' : q(1000 * c.driftM, 'length') }} of drift within a second); toe changes by up to {{ f(c.peakToeChangeDeg, 3) }}°
             </dd>
           </div>
           @if (c.landingSideForceFraction !== null) {
             <div>
-              <dt>Landing from {{ c.landingDropMm }} mm</dt>
+              <dt>Landing from {{ q(c.landingDropMm, 'length') }}</dt>
               <dd data-testid="bump-cost-landing">a wheel's toe change pushes its tyre sideways with {{ f(100 * c.landingSideForceFraction, 1) }} % of its load</dd>
             </div>
           }
           @if (c.fullLockBumpSteerDegPerM !== null) {
             <div>
               <dt>At full lock (information)</dt>
-              <dd>bump steer up to {{ f(c.fullLockBumpSteerDegPerM, 2) }} deg/m</dd>
+              <dd>bump steer up to {{ q(c.fullLockBumpSteerDegPerM, 'bumpSteer') }}</dd>
             </div>
           }
         </dl>
-        <p class="rw-muted">Wheel travel {{ f(c.wheelTravelRmsMm, 1) }} mm RMS; left and right tracks taken as independent.</p>
+        <p class="rw-muted">Wheel travel {{ q(c.wheelTravelRmsMm, 'length') }} RMS; left and right tracks taken as independent.</p>
       } @else {
-        <p class="rw-muted" data-testid="bump-cost-none">No bump cost: {{ unavailable() ?? 'not measured' }}.</p>
+        <p class="rw-muted" data-testid="bump-cost-none">No bump cost: {{ unavailableWords() }}.</p>
       }
     </div>
   `,
@@ -66,8 +70,24 @@ export class BumpCostView {
   readonly unavailable = input<string | null>(null);
   readonly title = input<string>('Bump cost of this roll steer');
 
+  private readonly units = inject(DISPLAY_UNITS);
+
+  /** Why there is no bump cost, with a vehicle key named in words ("the front tyre vertical rate"). */
+  protected readonly unavailableWords = computed(() =>
+    (this.unavailable() ?? 'not measured').replace(/\bvehicle\.((front|rear)\.)?([A-Za-z.]+)/g, (key: string, _axle: string, axle: string | undefined, rest: string) => {
+      const label = vehicleRangeFor(`${axle ? `${axle}.` : ''}${rest}`)?.label ?? rest.split('.').pop()!.replace(/([A-Z])/g, ' $1').toLowerCase();
+      return `the vehicle's ${axle ? `${axle} ` : ''}${label}`;
+    }),
+  );
+
   protected f(v: number | null | undefined, digits: number): string {
     return formatFigure(v, digits);
+  }
+
+  /** A stored figure with its unit, in the user's unit system (to the quantity's significant figures). */
+  protected q(v: number | null | undefined, kind: QuantityKind): string {
+    const text = formatNum(v, { kind }, this.units());
+    return text === '–' ? text : `${text} ${unitLabel(kind, this.units())}`;
   }
 
   protected judged(c: BumpCost): string {

@@ -41,6 +41,8 @@ export const QUANTITIES = {
   understeerGradient: { si: 'deg/g', imperial: 'deg/g', factor: 1, sig: 3 },
   rollSteer: { si: 'deg/deg', imperial: 'deg/deg', factor: 1, sig: 3 },
   bumpSteer: { si: 'deg/m', imperial: 'deg/in', factor: IN_MM / 1000, sig: 3 },
+  /** Distances on the road: a corner radius, the drift after a bump. */
+  distance: { si: 'm', imperial: 'ft', factor: 1 / FT_M, sig: 3 },
   /** Camber change per length of wheel travel (the same units as bump steer). */
   camberGain: { si: 'deg/m', imperial: 'deg/in', factor: IN_MM / 1000, sig: 3 },
   /** Second-order term of a toe or camber curve against travel. */

@@ -10,7 +10,7 @@ import type { DisplayUnits } from '../../core/api-types';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { settle } from '../../../testing/settle';
 import type { AxleDesign } from '../features-api';
-import { IntentPage } from './intent-page';
+import { IntentPage, rigToeChange } from './intent-page';
 
 const URL = '/teams/t-tal/vehicles/v-ember/axle-designs/d-rear/intent';
 const DESIGN: AxleDesign = {
@@ -24,6 +24,33 @@ const DESIGN: AxleDesign = {
   updatedAt: '2026-12-01T10:00:00.000Z',
   updatedByName: 'Dana Quist',
 };
+/** A rig file of this revision at rack 0: toe against travel, with a static offset the overlay takes out. */
+const RIG_FILE = {
+  id: 'rm1',
+  name: 'Shakedown',
+  fileName: 'shakedown.csv',
+  attachedTo: 'baseline',
+  configurationId: null,
+  configurationRevision: null,
+  axle: 'rear',
+  designId: 'd-rear',
+  designName: 'Rear baseline',
+  designRevision: 3,
+  side: 'left',
+  rackMm: 0,
+  basis: 'absolute',
+  pointCount: 3,
+  hasCamber: false,
+  note: null,
+  authorName: 'Eli Marsh',
+  createdAt: '2026-12-02T10:00:00.000Z',
+  points: [
+    { travelMm: -20, toeDeg: 0.2, camberDeg: null, line: 2 },
+    { travelMm: 0, toeDeg: 0.25, camberDeg: null, line: 3 },
+    { travelMm: 20, toeDeg: 0.31, camberDeg: null, line: 4 },
+  ],
+};
+
 /** Issue 5: the verified geometry meets the target within 0.002 deg/deg. */
 const TARGET_TOL = 0.002;
 
@@ -46,12 +73,15 @@ describe('IntentPage', () => {
 
   afterEach(() => backend.verify());
 
-  async function open(permissions: string[]) {
+  async function open(permissions: string[], rig: typeof RIG_FILE[] = []) {
     const harness = await RouterTestingHarness.create();
     await harness.navigateByUrl(URL, IntentPage);
     backend.expectOne('/api/teams/t-tal/axle-designs/d-rear').flush(DESIGN);
     backend.expectOne('/api/teams/t-tal').flush({ id: 't-tal', name: 'Tallowmere University Racing', slug: 'tallowmere', roles: ['engineer'], permissions });
     await settle();
+    backend.expectOne('/api/teams/t-tal/rig-measurements?designId=d-rear').flush(rig.map(({ points: _points, ...summary }) => summary));
+    await settle();
+    for (const f of rig) backend.expectOne(`/api/teams/t-tal/rig-measurements/${f.id}`).flush(f);
     backend.expectOne('/api/teams/t-tal/vehicles/v-ember').flush({
       id: 'v-ember',
       name: 'TUR-26 Ember',
@@ -128,7 +158,7 @@ describe('IntentPage', () => {
   });
 
   it('solves, shows the target asked beside the result, and works out any member the user picks', async () => {
-    const { harness, root } = await open(['team:read', 'design:propose', 'vehicle:edit']);
+    const { harness, root } = await open(['team:read', 'design:propose', 'vehicle:edit'], [RIG_FILE]);
     await solveFor(harness, root, '-0,06');
     expect(text(root, 'asked-target')).toBe('Target asked: ε = -0.06 deg/deg (roll understeer)');
     const achieved = Number(text(root, 'achieved-epsilon').split(' ')[0]);
@@ -139,8 +169,9 @@ describe('IntentPage', () => {
     expect(text(root, 'as-built-epsilon')).toMatch(/^ε -?\d\.\d{4} deg\/deg/);
     expect(text(root, 'sensitivity')).toMatch(/deg\/deg per mm/);
     expect(text(root, 'static-toe')).toMatch(/toward toe-(in|out)|none/);
-    // Proposed curves over the current ones.
+    // Proposed curves over the current ones, and the rig file of this revision as points from its ride-height toe.
     expect(root.querySelectorAll('[data-testid="toe-overlay"] path.rw-series-line').length).toBe(2);
+    expect(root.querySelector('[data-testid="toe-overlay"]')!.textContent).toContain('Rig: Shakedown (left wheel)');
     expect(root.querySelectorAll('[data-testid="roll-overlay"] path.rw-series-line').length).toBe(2);
     expect(root.querySelector('[data-testid="trade-off"]')).not.toBeNull();
 
@@ -206,5 +237,12 @@ describe('IntentPage', () => {
     expect(root.textContent).toContain('Travel from (in, droop)');
     const shim = [...root.querySelectorAll('label')].find((l) => l.textContent?.includes('Shim thickness'))!.querySelector('input')!;
     expect(Number(shim.value)).toBeCloseTo(1 / 25.4, 5);
+  });
+
+  it('draws a rig file as toe change from its own ride-height value', () => {
+    expect(rigToeChange(RIG_FILE.points).map((p) => Number(p.toeDeg.toFixed(6)))).toEqual([-0.05, 0, 0.06]);
+    // Points that do not straddle ride height cannot be referred to it.
+    expect(rigToeChange([{ travelMm: 5, toeDeg: 1 }, { travelMm: 10, toeDeg: 2 }])).toEqual([]);
+    expect(rigToeChange([{ travelMm: -10, toeDeg: 0 }, { travelMm: 10, toeDeg: 0.2 }])[0]!.toeDeg).toBeCloseTo(-0.1, 12);
   });
 });

@@ -27,6 +27,21 @@ import { NumPipe, DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
 import { inDisplayUnits, unitLabel, type QuantityKind } from '../../core/format/quantities';
 import { routeKey } from '../route-params';
+import { RigApi, type RigMeasurementDetail } from '../rig/rig-api';
+
+/** Rig files drawn over the toe curves at most (the newest). */
+const RIG_OVERLAYS = 3;
+
+/** A rig file's measured toe as change from ride height (its value at travel 0 interpolated), mm and deg. */
+export function rigToeChange(points: readonly { travelMm: number; toeDeg: number }[]): { travelMm: number; toeDeg: number }[] {
+  const sorted = [...points].sort((a, b) => a.travelMm - b.travelMm);
+  const above = sorted.findIndex((p) => p.travelMm >= 0);
+  if (above < 0 || (above === 0 && sorted[0]!.travelMm > 0)) return [];
+  const hi = sorted[above]!;
+  const lo = sorted[Math.max(0, above - 1)]!;
+  const atZero = hi.travelMm === 0 || hi === lo ? hi.toeDeg : lo.toeDeg + ((0 - lo.travelMm) / (hi.travelMm - lo.travelMm)) * (hi.toeDeg - lo.toeDeg);
+  return sorted.map((p) => ({ travelMm: p.travelMm, toeDeg: p.toeDeg - atZero }));
+}
 
 export type TargetKind = 'epsilon' | 'toePerRoll' | 'understeer' | 'zeroBump';
 
@@ -105,6 +120,7 @@ export class IntentPage {
   private readonly api = inject(FeaturesApi);
   private readonly access = inject(TeamAccess);
   private readonly solver = inject(IntentClient);
+  private readonly rig = inject(RigApi);
   protected readonly units = inject(DISPLAY_UNITS);
 
   readonly teamId = input.required<string>();
@@ -147,6 +163,9 @@ export class IntentPage {
   protected readonly proposing = signal(false);
   protected readonly proposed = signal<string | null>(null);
   protected readonly proposeError = signal<string | null>(null);
+
+  /** Rig measurements of this revision at rack 0 (the current geometry as built), drawn over the toe curves. */
+  protected readonly rigFiles = signal<readonly RigMeasurementDetail[]>([]);
 
   protected readonly vehicleValid = computed(() => vehicleSchema.safeParse(this.vehicleData()).success);
 
@@ -423,9 +442,15 @@ export class IntentPage {
   protected readonly toeOverlay = computed<LineSeries[]>(() => {
     const d = this.details();
     if (!d) return [];
+    const rig: LineSeries[] = this.rigFiles().map((f) => ({
+      name: `Rig: ${f.name} (${f.side} wheel)`,
+      style: 'points',
+      points: rigToeChange(f.points).map((p) => ({ x: this.len(p.travelMm), y: p.toeDeg })),
+    }));
     return [
       { name: 'Current geometry', points: d.toeCurve.map((p) => ({ x: this.len(p.travelMm), y: p.currentDeg })) },
       { name: 'Proposed geometry', points: d.toeCurve.map((p) => ({ x: this.len(p.travelMm), y: p.proposedDeg })) },
+      ...rig.filter((r) => r.points.length > 0),
     ];
   });
 
@@ -485,6 +510,7 @@ export class IntentPage {
       ]);
       this.design.set(design);
       this.initEntries();
+      void this.loadRig(design);
       try {
         const vehicle = await firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId()));
         this.vehicleData.set(vehicle.data);
@@ -493,6 +519,20 @@ export class IntentPage {
       }
     } catch (error) {
       this.loadError.set(apiProblem(error).message);
+    }
+  }
+
+  /** The newest rig files measured on this revision at rack 0; none when there are none or they cannot be read. */
+  private async loadRig(design: AxleDesign): Promise<void> {
+    try {
+      const list = await firstValueFrom(this.rig.list(this.teamId(), { designId: design.id }));
+      const mine = list
+        .filter((m) => m.designId === design.id && m.designRevision === design.revision && m.rackMm === 0)
+        .sort((a, b) => b.createdAt.localeCompare(a.createdAt))
+        .slice(0, RIG_OVERLAYS);
+      this.rigFiles.set(await Promise.all(mine.map((m) => firstValueFrom(this.rig.get(this.teamId(), m.id)))));
+    } catch {
+      this.rigFiles.set([]);
     }
   }
 
