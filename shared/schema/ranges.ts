@@ -29,6 +29,8 @@ export interface InputRange {
   readonly typical: readonly [number, number];
 }
 
+// Marked free of side effects so a bundle that imports one helper of this module drops the tables it does not use.
+/* @__NO_SIDE_EFFECTS__ */
 const r = (label: string, unit: string, min: number, max: number, typical: [number, number], minExclusive = false): InputRange => ({
   label,
   unit,
@@ -38,6 +40,7 @@ const r = (label: string, unit: string, min: number, max: number, typical: [numb
   ...(minExclusive ? { minExclusive } : {}),
 });
 /** Strictly positive quantity up to `max`. */
+/* @__NO_SIDE_EFFECTS__ */
 const pos = (label: string, unit: string, max: number, typical: [number, number]) => r(label, unit, 0, max, typical, true);
 
 /**

@@ -4,7 +4,16 @@ import { formatFigure } from '../programmes/board-figures';
 import { DISPLAY_UNITS } from '../core/format/num-pipe';
 import { formatNum } from '../core/format/num';
 import { unitLabel, type QuantityKind } from '../core/format/quantities';
-import { vehicleRangeFor } from '../../../shared/schema/ranges';
+
+/** A document key in words, its unit suffix dropped: `tyre.verticalRateNPerMm` → "tyre vertical rate". */
+function keyWords(key: string): string {
+  return key
+    .split('.')
+    .map((part) => part.replace(/(?:Ns?PerMm|NPerDeg|NmPerDeg|NPerKN|DegPerG|DegPerKN|Mm|Kg|Kph|Deg|Pct|M|N)$/, '').replace(/([A-Z])/g, ' $1'))
+    .join(' ')
+    .toLowerCase()
+    .trim();
+}
 
 /**
  * The bump cost of an axle's roll steer on the chosen track profile, from the
@@ -75,7 +84,7 @@ export class BumpCostView {
   /** Why there is no bump cost, with a vehicle key named in words ("the front tyre vertical rate"). */
   protected readonly unavailableWords = computed(() =>
     (this.unavailable() ?? 'not measured').replace(/\bvehicle\.((front|rear)\.)?([A-Za-z.]+)/g, (key: string, _axle: string, axle: string | undefined, rest: string) => {
-      const label = vehicleRangeFor(`${axle ? `${axle}.` : ''}${rest}`)?.label ?? rest.split('.').pop()!.replace(/([A-Z])/g, ' $1').toLowerCase();
+      const label = keyWords(rest);
       return `the vehicle's ${axle ? `${axle} ` : ''}${label}`;
     }),
   );
