@@ -317,7 +317,14 @@ export class IntentPage {
 
   protected readonly axle = computed(() => this.design()?.axle ?? 'rear');
 
-  protected readonly targetWords = computed(() => this.askedWords({ kind: this.targetKind(), value: parseDecimal(this.targetText()) }));
+  /** What the typed target means on this axle ("roll understeer"), beside the field. */
+  protected readonly targetWords = computed(() => {
+    const v = parseDecimal(this.targetText());
+    if (v === null) return '';
+    if (this.targetKind() === 'epsilon') return rollSteerWords(v, this.axle());
+    if (this.targetKind() === 'toePerRoll') return rollSteerWords(-v, this.axle());
+    return '';
+  });
 
   /** The target asked for, in words: "ε = 0.02 deg/deg (roll understeer)". */
   protected askedWords(t: AskedTarget): string {
@@ -416,7 +423,9 @@ export class IntentPage {
     const useUndersteer = r.tradeOff.every((t) => t.understeerChangeDegPerG !== null);
     const x = (t: (typeof r.tradeOff)[number]) => (useYaw ? t.yawRateRmsDegPerS! : Math.abs(t.bumpToeChangeDeg));
     const y = (t: (typeof r.tradeOff)[number]) => (useUndersteer ? t.understeerChangeDegPerG! : t.rollSteerCoefficient);
-    const points = r.tradeOff.map((t) => ({ x: x(t), y: y(t) })).sort((a, b) => a.x - b.x);
+    // In the order of the sweep (the coordinate across its bounds): the bump cost falls to its least where the
+    // toe line is straightest and rises again, so sorting by cost would zig-zag between the two sides.
+    const points = [...r.tradeOff].sort((a, b) => a.valueMm - b.valueMm).map((t) => ({ x: x(t), y: y(t) }));
     const marks: ChartMark[] = [];
     const m = this.selectedMember()?.member;
     const mx = m ? (useYaw ? (m.bumpCost?.yawRateRmsDegPerS ?? null) : m.bumpToeChangeDeg === null ? null : Math.abs(m.bumpToeChangeDeg)) : null;
