@@ -66,21 +66,6 @@ describe('IntentClient', () => {
     const error = await solve.catch((e: unknown) => e);
     expect((error as AnalysisError).failure).toEqual({ code: 'worker_failed', message: 'The solver worker failed: script error' });
   });
-});
-
-describe('IntentClient member details', () => {
-  let client: IntentClient;
-
-  beforeEach(() => {
-    FakeWorker.created = [];
-    vi.stubGlobal('Worker', FakeWorker);
-    client = new IntentClient();
-  });
-
-  afterEach(() => {
-    client.ngOnDestroy();
-    vi.unstubAllGlobals();
-  });
 
   it('works out a member in its own worker, without stopping a running solve', async () => {
     const solve = client.solve({ n: 1 }, () => undefined);
