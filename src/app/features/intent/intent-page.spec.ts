@@ -213,6 +213,9 @@ describe('IntentPage', () => {
     harness.detectChanges();
     expect(text(root, 'out-of-date')).toContain('solved for ε = -0.03 deg/deg');
     expect(button(root, 'Propose as draft revision').disabled).toBe(true);
+    // Still readable beside the note, with the target it was solved for.
+    expect(text(root, 'achieved-epsilon')).toMatch(/^-0\.0[23]\d\d deg\/deg/);
+    expect(text(root, 'asked-target')).toBe('Target asked: ε = -0.03 deg/deg (roll understeer)');
 
     // A travel range the corner cannot reach: the old result goes, the failure names the target and the fix in words.
     type(root, 'Travel to', '600');

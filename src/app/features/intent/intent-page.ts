@@ -358,10 +358,15 @@ export class IntentPage {
   protected readonly selected = linkedSignal(() => Math.max(0, this.members().findIndex((m) => m.solverPick)));
   protected readonly selectedMember = computed(() => this.members()[this.selected()] ?? null);
 
+  /** The workshop entries as the intent carries them (they change the workshop numbers, never the solve). */
+  private readonly workshopKey = computed(() => {
+    const options = (this.document()?.['options'] ?? {}) as Record<string, unknown>;
+    return JSON.stringify(WORKSHOP_OPTION_KEYS.map((k) => options[k]));
+  });
+  /** The solve, the member and the workshop entries a worked-out member belongs to (other entries only make the result out of date). */
   private readonly detailsKey = computed(() => {
     const m = this.selectedMember();
-    const doc = this.document();
-    return m && doc ? JSON.stringify({ solve: this.solved()?.key, member: m.coordinates, options: doc['options'] }) : '';
+    return m ? JSON.stringify({ solve: this.solved()?.key, member: m.coordinates, workshop: this.workshopKey() }) : '';
   });
   private readonly detailsState = signal<{ key: string; value: ProposalDetails } | { key: string; error: string } | null>(null);
   /** The chosen member worked out, when it belongs to the entries on screen. */
