@@ -110,7 +110,7 @@ export interface SolveResult {
   sideEffects: SideEffects;
   workshop: WorkshopNumbers & {
     asBuilt: { rollSteerCoefficient: number; geometry: { tieRodInner: Vec3; tieRodOuter: Vec3 } };
-    staticToe: { designToeDeg: number; toeAfterShimmingDeg: number; resetDeg: number; note: string };
+    staticToe: StaticToeReset;
   };
   understeerChangeDegPerG: number | null;
   /** The proposal's axle steer out of the turn with compliance included, deg/g, and where the compliance came from; null without a vehicle. */
@@ -122,12 +122,31 @@ export interface SolveResult {
   /** The budget the solve was bounded by (options.bumpYawBudgetPct), % of the steady yaw rate, or null. */
   bumpYawBudgetPct: number | null;
   /**
-   * Balance bought against bump cost (with a vehicle that runs the ride model): the primary coordinate
-   * (`primaryCoordinate`) in 11 steps across its bounds, the others as proposed; empty otherwise.
+   * Balance bought against bump cost: the primary coordinate (`primaryCoordinate`) in 11 steps across its
+   * bounds, the others as proposed, each with ε, its understeer change (with a vehicle), the toe change
+   * over the profile's single-wheel bump (rack 0) and, with a vehicle that runs the ride model, the
+   * random-road yaw-rate disturbance (null otherwise).
    */
-  tradeOff: { valueMm: number; rollSteerCoefficient: number; understeerChangeDegPerG: number | null; yawRateRmsDegPerS: number; yawDisturbancePct: number }[];
+  tradeOff: {
+    valueMm: number;
+    rollSteerCoefficient: number;
+    understeerChangeDegPerG: number | null;
+    yawRateRmsDegPerS: number | null;
+    yawDisturbancePct: number | null;
+    bumpToeChangeDeg: number;
+  }[];
   safety: string;
   diagnostics: { poses: number; targetEvaluations: number; objectiveEvaluations: number };
+}
+
+/** Static toe after shimming and the re-set that brings it back to design (resetDeg = design − after, deg). */
+export interface StaticToeReset {
+  designToeDeg: number;
+  toeAfterShimmingDeg: number;
+  resetDeg: number;
+  /** Which way the re-set moves the wheel: toward toe-in (resetDeg > 0) or toe-out; none below 0.0005°. */
+  direction: 'toe-in' | 'toe-out' | 'none';
+  note: string;
 }
 
 export interface SideEffects {
@@ -401,9 +420,10 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
     sensitivity[n] = (up - dn) / (2 * h);
   });
 
-  // Balance bought against bump cost: the primary coordinate across its bounds, the others as proposed.
+  // Balance bought against bump cost: the primary coordinate across its bounds, the others as proposed
+  // (the family itself all meets the target, so it has no spread in balance to trade).
   const tradeOff: SolveResult['tradeOff'] = [];
-  if (yawCost.model) {
+  {
     const pi = names.indexOf(outcome.primary);
     const n = 11;
     for (let k = 0; k < n; k++) {
@@ -411,7 +431,15 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
       const c = build(q.map((x, i) => (i === pi ? v : x)));
       try {
         const cost = bumpYaw(c);
-        if (cost) tradeOff.push({ valueMm: v, rollSteerCoefficient: epsOf(c), understeerChangeDegPerG: uChange(c), ...cost });
+        const bumpToe = pose(counter, c, bump).toeDeg - pose(counter, c, 0).toeDeg;
+        tradeOff.push({
+          valueMm: v,
+          rollSteerCoefficient: epsOf(c),
+          understeerChangeDegPerG: uChange(c),
+          yawRateRmsDegPerS: cost?.yawRateRmsDegPerS ?? null,
+          yawDisturbancePct: cost?.yawDisturbancePct ?? null,
+          bumpToeChangeDeg: bumpToe,
+        });
       } catch (e) {
         if (!(e instanceof SolveError)) throw e; // a geometry the kinematics cannot reach is left out of the curve
       }
@@ -571,7 +599,7 @@ export function understeerChange(vehicle: Vehicle, axle: AxleName, baseline: Cor
  * (a temporary rack along the rod): exact to first order, the second-order
  * residual is below 1e-4 mm for changes of a few mm.
  */
-function toeAfterShimming(counter: PoseCounter, current: Corner, built: Corner): SolveResult['workshop']['staticToe'] {
+export function toeAfterShimming(counter: PoseCounter, current: Corner, built: Corner): StaticToeReset {
   const inner = innerName(current);
   const outer = outerName(current);
   const cp = current.points as Record<string, Vec3>;
@@ -587,10 +615,12 @@ function toeAfterShimming(counter: PoseCounter, current: Corner, built: Corner):
     steering: { kind: 'rack' as const, rackAxis: [u[0] / n, u[1] / n, u[2] / n] as Vec3, rackStroke: [-Math.abs(dl) - 1, Math.abs(dl) + 1] as [number, number] },
   } as Corner;
   const after = pose(counter, probe, 0, dl).toeDeg;
+  const reset = designToe - after;
   return {
     designToeDeg: designToe,
     toeAfterShimmingDeg: after,
-    resetDeg: designToe - after,
+    resetDeg: reset,
+    direction: Math.abs(reset) < 5e-4 ? 'none' : reset > 0 ? 'toe-in' : 'toe-out',
     note: 'Shim both ends first, then turn the adjuster by the stated turns to bring static toe back to its design value, and check it on the alignment rig.',
   };
 }

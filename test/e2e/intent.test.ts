@@ -51,7 +51,7 @@ describe('Intent panel in Chromium', () => {
     await expect(engineer.getByTestId('achieved-epsilon').innerText()).resolves.toContain('roll understeer');
     // TUR-26 Ember has full vehicle data, so the understeer change is a number of deg/g.
     await expect(engineer.getByTestId('understeer-change').innerText()).resolves.toMatch(/^-?\d+\.\d{3} deg\/g$/);
-    await engineer.getByTestId('workshop').getByText('Tie-rod length').waitFor();
+    await engineer.getByTestId('workshop').getByText('Length of the toe link').waitFor();
     await engineer.locator('rw-caution-list li').first().waitFor();
     await engineer.getByText('Design estimates from an idealised rigid-link model.', { exact: false }).waitFor();
     expect(await seriousA11yViolations(engineer)).toEqual([]);

@@ -1,7 +1,7 @@
-import type { SolveResult } from '../../../shared/intent/index';
+import type { ProposalDetails, SolveResult } from '../../../shared/intent/index';
 import { FakeWorker } from '../../testing/fake-worker';
 import { IntentClient } from './intent-client';
-import { AnalysisError } from './kinematics-client';
+import { AnalysisError, AnalysisSuperseded } from './kinematics-client';
 
 describe('IntentClient', () => {
   let client: IntentClient;
@@ -65,5 +65,27 @@ describe('IntentClient', () => {
     FakeWorker.created[0]!.fail('script error');
     const error = await solve.catch((e: unknown) => e);
     expect((error as AnalysisError).failure).toEqual({ code: 'worker_failed', message: 'The solver worker failed: script error' });
+  });
+
+  it('works out a member in its own worker, without stopping a running solve', async () => {
+    const solve = client.solve({ n: 1 }, () => undefined);
+    const details = client.details({ n: 1 }, { 'tieRodInner.z': 140 });
+    const [solver, member] = FakeWorker.created;
+    expect(solver!.terminated).toBe(false);
+    const { id, member: asked } = member!.posted[0] as { id: number; member: unknown };
+    expect(asked).toEqual({ 'tieRodInner.z': 140 });
+    const value = { rollSteerCoefficient: 0.02 } as unknown as ProposalDetails;
+    member!.reply({ id, kind: 'details', details: value });
+    await expect(details).resolves.toBe(value);
+    expect(member!.terminated).toBe(true);
+    client.cancel();
+    await solve.catch(() => undefined);
+  });
+
+  it('a newer member request supersedes the one before', async () => {
+    const first = client.details({}, { a: 1 });
+    void client.details({}, { a: 2 }).catch(() => undefined);
+    await expect(first).rejects.toBeInstanceOf(AnalysisSuperseded);
+    expect(FakeWorker.created[0]!.terminated).toBe(true);
   });
 });

@@ -111,13 +111,13 @@ describe('the solver and the bump cost', () => {
     expect(r.bumpCost?.roadInWords).toMatch(/ISO 8608 class B/);
     expect(r.family.every((m) => m.bumpCost !== null)).toBe(true);
     expect(r.tradeOff.length).toBeGreaterThanOrEqual(5);
-    const pct = r.tradeOff.map((t) => t.yawDisturbancePct);
+    const pct = r.tradeOff.map((t) => t.yawDisturbancePct!);
     const dk = r.tradeOff.map((t) => t.understeerChangeDegPerG!);
     expect(Math.max(...pct) - Math.min(...pct)).toBeGreaterThan(0.1 * Math.max(...pct));
     expect(Math.max(...dk) - Math.min(...dk)).toBeGreaterThan(0.01);
     // More roll steer, more bump steer: the cost grows with |ε| away from the zero-bump-steer height (derived, domain.md: ε = −g·(t/2)·π/180).
     const byEps = [...r.tradeOff].sort((a, b) => Math.abs(a.rollSteerCoefficient) - Math.abs(b.rollSteerCoefficient));
-    expect(byEps.at(-1)!.yawDisturbancePct).toBeGreaterThan(byEps[0]!.yawDisturbancePct);
+    expect(byEps.at(-1)!.yawDisturbancePct!).toBeGreaterThan(byEps[0]!.yawDisturbancePct!);
   });
 
   it('a bump-cost budget below what the target needs makes the solve infeasible, naming the option', () => {

@@ -41,15 +41,19 @@ export const QUANTITIES = {
   understeerGradient: { si: 'deg/g', imperial: 'deg/g', factor: 1, sig: 3 },
   rollSteer: { si: 'deg/deg', imperial: 'deg/deg', factor: 1, sig: 3 },
   bumpSteer: { si: 'deg/m', imperial: 'deg/in', factor: IN_MM / 1000, sig: 3 },
-  /** Camber change per wheel travel (the same dimension as bump steer). */
+  /** Camber change per length of wheel travel (the same units as bump steer). */
   camberGain: { si: 'deg/m', imperial: 'deg/in', factor: IN_MM / 1000, sig: 3 },
-  /** Second-order term of the toe curve against travel. */
-  toeCurvature: { si: 'deg/m²', imperial: 'deg/in²', factor: (IN_MM / 1000) ** 2, sig: 3 },
+  /** Second-order term of a toe or camber curve against travel. */
+  curvature: { si: 'deg/m²', imperial: 'deg/in²', factor: (IN_MM / 1000) ** 2, sig: 3 },
   speed: { si: 'km/h', imperial: 'mph', factor: 1000 / (FT_M * 5280), sig: 4 },
-  /** Distances of metres (a corner radius). */
-  distance: { si: 'm', imperial: 'ft', factor: 1 / FT_M, sig: 4 },
+  /** Distances on the road: a corner radius, the drift after a bump. */
+  distance: { si: 'm', imperial: 'ft', factor: 1 / FT_M, sig: 3 },
   /** Lateral load transfer per g of lateral acceleration. */
   forcePerG: { si: 'N/g', imperial: 'lbf/g', factor: 1 / LBF_N, sig: 4 },
+  /** Compliance steer or camber per force (1 klbf = 4.4482216152605 kN). */
+  anglePerForce: { si: 'deg/kN', imperial: 'deg/klbf', factor: LBF_N, sig: 3 },
+  /** Compliance steer per moment (1 klbf·ft = 4.4482216152605 kN × 0.3048 m). */
+  anglePerMoment: { si: 'deg/(kN·m)', imperial: 'deg/(klbf·ft)', factor: LBF_N * FT_M, sig: 3 },
 } as const satisfies Record<string, QuantityUnits>;
 
 export type QuantityKind = keyof typeof QUANTITIES;

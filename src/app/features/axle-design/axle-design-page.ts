@@ -8,7 +8,10 @@ import type { Corner, Vec3 } from '../../../../shared/schema/corner';
 import { LineSeries } from '../../charts/chart-types';
 import { downloadText, fileNameFor } from '../../charts/csv';
 import { LineChart } from '../../charts/line-chart';
-import { NumPipe } from '../../core/format/num-pipe';
+import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
+import { formatNum } from '../../core/format/num';
+import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
+import { failureWords } from '../../workers/failure-words';
 import { TeamAccess } from '../../core/teams/team-access';
 import type { AnalysisFailure, AnalysisRequest, CornerAnalysis } from '../../workers/analysis-types';
 import { AnalysisError, AnalysisSuperseded, KinematicsClient } from '../../workers/kinematics-client';
@@ -146,8 +149,20 @@ export class AxleDesignPage {
   private readonly chosenProfile = linkedSignal<TrackProfileId | null>(() => storedProfile(this.designId()));
   protected readonly trackProfileId = computed<TrackProfileId>(() => this.chosenProfile() ?? DEFAULT_TRACK_PROFILE[this.axle() ?? 'front']);
 
-  protected readonly analysis = signal<CornerAnalysis | null>(null);
+  /** The analysis on screen and the request that produced it: the figures always carry their own inputs. */
+  private readonly analysed = signal<{ readonly request: AnalysisRequest; readonly analysis: CornerAnalysis } | null>(null);
+  protected readonly analysis = computed(() => this.analysed()?.analysis ?? null);
+  /** The travel range the figures on screen were fitted over (the solved request's, not the fields'). */
+  protected readonly fittedRange = computed(() => this.analysed()?.request.travel ?? null);
   protected readonly failure = signal<AnalysisFailure | null>(null);
+  /** The latest change could not be solved: what is shown belongs to the last geometry and settings that solved. */
+  protected readonly outOfDate = computed(() => this.failure() !== null && this.analysed() !== null);
+  protected readonly failureText = computed(() => {
+    const f = this.failure();
+    return f ? failureWords(f) : '';
+  });
+  protected readonly units = inject(DISPLAY_UNITS);
+  protected readonly lengthUnit = computed(() => unitLabel('length', this.units()));
   protected readonly solving = signal(false);
 
   protected readonly saveMessage = signal('');
@@ -168,25 +183,35 @@ export class AxleDesignPage {
     (this.analysis()?.curves ?? []).map((c) => {
       const atRide = c.points.find((p) => p.travelMm === 0)?.toeDeg ?? c.points[0]?.toeDeg ?? 0;
       return {
-        name: `Rack ${c.rackMm} mm`,
-        points: c.points.map((p) => ({ x: p.travelMm, y: p.toeDeg - atRide })),
+        name: `Rack ${this.length(c.rackMm)} ${this.lengthUnit()}`,
+        points: c.points.map((p) => ({ x: this.len(p.travelMm), y: p.toeDeg - atRide })),
       };
     }),
   );
 
   protected readonly camberSeries = computed<LineSeries[]>(() =>
     (this.analysis()?.curves ?? []).map((c) => ({
-      name: `Rack ${c.rackMm} mm`,
-      points: c.points.map((p) => ({ x: p.travelMm, y: p.camberDeg })),
+      name: `Rack ${this.length(c.rackMm)} ${this.lengthUnit()}`,
+      points: c.points.map((p) => ({ x: this.len(p.travelMm), y: p.camberDeg })),
     })),
   );
+
+  /** A stored length (mm) as a number in the user's unit. */
+  private len(mm: number): number {
+    return inDisplayUnits(mm, 'length', this.units());
+  }
+
+  /** A stored length (mm) as text in the user's unit, without the unit. */
+  protected length(mm: number): string {
+    return formatNum(mm, { kind: 'length' }, this.units());
+  }
 
   /** Axle steer change from zero roll per rack position (the steer angle itself is set by the rack). */
   protected readonly rollSeries = computed<LineSeries[]>(() =>
     (this.analysis()?.roll ?? []).map((c) => {
       const atZero = c.points.find((p) => p.rollDeg === 0)?.axleSteerDeg ?? 0;
       return {
-        name: `Rack ${c.rackMm} mm`,
+        name: `Rack ${this.length(c.rackMm)} ${this.lengthUnit()}`,
         points: c.points.map((p) => ({ x: p.rollDeg, y: p.axleSteerDeg - atZero })),
       };
     }),
@@ -194,7 +219,10 @@ export class AxleDesignPage {
 
   protected readonly toeDescription = computed(() => {
     const first = this.analysis()?.curves[0];
-    return first ? `Bump steer at rack ${first.rackMm} mm: ${first.bumpSteerDegPerM.toFixed(3)} deg/m toe-in per metre of bump.` : '';
+    const u = this.units();
+    return first
+      ? `Bump steer at rack ${this.length(first.rackMm)} ${this.lengthUnit()}: ${formatNum(first.bumpSteerDegPerM, { kind: 'bumpSteer' }, u)} ${unitLabel('bumpSteer', u)} of toe-in per ${u === 'imperial' ? 'inch' : 'metre'} of bump.`
+      : '';
   });
 
   constructor() {
@@ -229,8 +257,9 @@ export class AxleDesignPage {
   ): Promise<void> {
     this.solving.set(true);
     try {
-      const analysis = await this.engine.analyse({ corner, travel, rackMm, roll: ROLL_RANGE, pose, ...(cautions ? { cautions } : {}) });
-      this.analysis.set(analysis);
+      const request: AnalysisRequest = { corner, travel, rackMm, roll: ROLL_RANGE, pose, ...(cautions ? { cautions } : {}) };
+      const analysis = await this.engine.analyse(request);
+      this.analysed.set({ request, analysis });
       this.failure.set(null);
       this.solving.set(false);
     } catch (error) {
@@ -336,12 +365,18 @@ export class AxleDesignPage {
     const c = this.analysis()?.cautions;
     if (!c) return '';
     const p = c.profile;
-    const where = `over ${p.travelMm[0]} to ${p.travelMm[1]} mm of travel (the curves' range) with a ${p.bumpHeightMm} mm single-wheel bump, on ISO 8608 class ${p.roadClass} at ${p.speedKph} km/h`;
+    const lu = this.lengthUnit();
+    const where = `over ${this.length(p.travelMm[0])} to ${this.length(p.travelMm[1])} ${lu} of travel (the curves' range) with a ${this.length(p.bumpHeightMm)} ${lu} single-wheel bump, on ISO 8608 class ${p.roadClass} at ${p.speedKph} km/h`;
     if (!c.ok) return `Measured ${where}.`;
-    const racks = c.racksMm.length > 1 ? `, at rack ${c.racksMm.join(', ')} mm` : '';
+    const racks = c.racksMm.length > 1 ? `, at rack ${c.racksMm.map((r) => this.length(r)).join(', ')} ${lu}` : '';
     const vehicle = c.vehicleUsed ? "the vehicle's tyres, loads and roll" : `product default tyre figures (${c.vehicleNote ?? 'no vehicle'})`;
     return `Measured ${where}${racks}, with ${vehicle}; thresholds are the product defaults for ${p.label.toLowerCase()}.`;
   });
+
+  /** An engine failure in the user's words. */
+  protected plain(f: AnalysisFailure): string {
+    return failureWords(f);
+  }
 
   protected numberFrom(event: Event): number {
     return Number((event.target as HTMLInputElement).value);

@@ -114,7 +114,7 @@ export class ComparePage {
         title: 'Toe over one-wheel bump (rack centred)',
         rows: [
           { label: 'Bump steer (toe-in per bump travel)', kind: 'bumpSteer', values: a((x) => rack0(x).bumpSteerDegPerM) },
-          { label: 'Toe curvature', kind: 'toeCurvature', values: a((x) => rack0(x).curvatureDegPerM2) },
+          { label: 'Toe curvature', kind: 'curvature', values: a((x) => rack0(x).curvatureDegPerM2) },
           { label: 'Largest toe departure from a straight line', kind: 'angle', values: a((x) => rack0(x).maxDeviationDeg) },
         ],
       },

@@ -31,6 +31,8 @@ import { pointName } from '../../../../shared/io/hardpoint-points';
 import { AnalysisSuperseded } from '../../workers/kinematics-client';
 import { linkagePairs, UPRIGHT_POINT_NAMES } from './linkage-pairs';
 import { ViewsClient } from './views-client';
+import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
+import { unitLabel } from '../../core/format/quantities';
 import type { LinkagePose } from './views-types';
 
 /** Our palette for the 3D view (reads on screen and in greyscale: body dark, upright mid, selection light and large). */
@@ -72,7 +74,7 @@ function webglAvailable(): boolean {
  */
 @Component({
   selector: 'rw-linkage-3d',
-  imports: [MatButton, MatCheckbox],
+  imports: [MatButton, MatCheckbox, NumPipe],
   templateUrl: './linkage-3d.html',
   styleUrl: './linkage-3d.scss',
   providers: [ViewsClient],
@@ -100,6 +102,9 @@ export class Linkage3d implements AfterViewInit {
   protected readonly labels = signal(true);
   protected readonly animating = signal(false);
   protected readonly animationTravel = signal<number | null>(null);
+  private readonly units = inject(DISPLAY_UNITS);
+  /** The user's length unit for the pose read-out. */
+  protected readonly lengthUnit = computed(() => unitLabel('length', this.units()));
   protected readonly pickedName = computed(() => {
     const k = this.selectedKey();
     return k ? pointName(k, this.corner()) : null;

@@ -1,6 +1,9 @@
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
+import type { DisplayUnits } from '../../core/api-types';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { exampleVehicles } from '../../../../shared/balance/examples';
 import { serve, settle } from '../configurations/spec-backend';
@@ -8,8 +11,8 @@ import { OutputCurves } from './output-curves';
 
 const TEAM = '/api/teams/t1';
 
-async function setUp() {
-  TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting()] });
+async function setUp(units: DisplayUnits = 'si') {
+  TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting(), { provide: DISPLAY_UNITS, useValue: signal(units) }] });
   const fixture = TestBed.createComponent(OutputCurves);
   const ref = fixture.componentRef;
   ref.setInput('corner', exampleCorners.fsFrontWishbone);
@@ -91,5 +94,13 @@ describe('OutputCurves', () => {
     expect(names).toEqual(['Revision 3 (shown)', 'Revision 2']);
     // The revision being edited is not offered as its own overlay.
     expect(el.querySelector('[data-overlay="r:3"]')).toBeNull();
+  });
+
+  it('draws lengths in inches for an inch-pound user: the travel axis and the roll centre height', async () => {
+    const { el } = await setUp('imperial');
+    expect(el.querySelector('[data-chart="toeDeg"] .rw-axis-label-x')!.textContent).toContain('Wheel travel, both wheels, + bump (in)');
+    expect(el.querySelector('[data-chart="rollCentreHeightMm"]')!.textContent).toContain('Roll centre above the ground (in)');
+    // Toe stays in degrees in both systems.
+    expect(el.querySelector('[data-chart="toeDeg"]')!.textContent).toContain('(deg)');
   });
 });

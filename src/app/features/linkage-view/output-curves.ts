@@ -6,7 +6,10 @@ import { firstValueFrom } from 'rxjs';
 import type { Corner } from '../../../../shared/schema/corner';
 import type { OutputCurveAxis } from '../../../../shared/kinematics/output-curves';
 import { LineChart } from '../../charts/line-chart';
-import type { LineSeries } from '../../charts/chart-types';
+import type { AxisSpec, LineSeries } from '../../charts/chart-types';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import { formatNum } from '../../core/format/num';
+import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
 import { apiProblem } from '../../core/http/api-error';
 import { AnalysisError, AnalysisSuperseded } from '../../workers/kinematics-client';
 import { ConfigurationsApi } from '../configurations/configurations-api';
@@ -111,13 +114,15 @@ export class OutputCurves implements OnInit {
       .map((d) => {
         const series: LineSeries[] = [];
         const missing: string[] = [];
+        const x = this.shownValue(SWEEP_AXES[axis].x);
+        const y = this.shownValue(d.y);
         for (const c of s.reply.curves) {
           if (!c.rows) continue;
-          const points = c.rows.filter((r) => r[d.key] !== null && Number.isFinite(r[d.key] as number)).map((r) => ({ x: r.x, y: r[d.key] as number }));
+          const points = c.rows.filter((r) => r[d.key] !== null && Number.isFinite(r[d.key] as number)).map((r) => ({ x: x(r.x), y: y(r[d.key] as number) }));
           if (points.length > 0) series.push({ name: c.label, points });
           else missing.push(c.label);
         }
-        return { def: d, series, missing };
+        return { def: d, y: this.shownAxis(d.y), series, missing };
       });
   });
 
@@ -129,10 +134,25 @@ export class OutputCurves implements OnInit {
     const s = this.state();
     return s.kind === 'ready' ? s.reply.vehicleNote : null;
   });
-  protected readonly xAxis = computed(() => SWEEP_AXES[this.axis()].x);
-  protected readonly heldAt = computed(() =>
-    this.axis() === 'steer' ? `Both wheels at ${this.travelMm()} mm travel; rack over its whole stroke.` : `Rack at ${this.rackMm()} mm.`,
-  );
+  protected readonly xAxis = computed(() => this.shownAxis(SWEEP_AXES[this.axis()].x));
+  protected readonly heldAt = computed(() => {
+    const u = this.units();
+    const len = (mm: number) => `${formatNum(mm, { kind: 'length' }, u)} ${unitLabel('length', u)}`;
+    return this.axis() === 'steer' ? `Both wheels at ${len(this.travelMm())} travel; rack over its whole stroke.` : `Rack at ${len(this.rackMm())}.`;
+  });
+
+  private readonly units = inject(DISPLAY_UNITS);
+
+  /** An axis in the user's unit system: a length in mm becomes inches for an inch-pound user. */
+  private shownAxis(a: AxisSpec): AxisSpec {
+    return a.unit === 'mm' ? { ...a, unit: unitLabel('length', this.units()) } : a;
+  }
+
+  /** How a value of that axis is shown (lengths converted, everything else as the engine gives it). */
+  private shownValue(a: AxisSpec): (v: number) => number {
+    const u = this.units();
+    return a.unit === 'mm' ? (v) => inDisplayUnits(v, 'length', u) : (v) => v;
+  }
 
   ngOnInit(): void {
     void this.loadVehicle();
