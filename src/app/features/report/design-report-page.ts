@@ -1,5 +1,4 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked, ViewEncapsulation } from '@angular/core';
-import { DatePipe } from '@angular/common';
 import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { firstValueFrom } from 'rxjs';
@@ -22,6 +21,7 @@ import { BumpCostView } from '../bump-cost';
 import { DEFAULT_TRACK_PROFILE } from '../../../../shared/tracks/profiles';
 import { NumPipe } from '../../core/format/num-pipe';
 import { routeKey } from '../route-params';
+import { LocalTimePipe } from '../../core/time/local-time';
 
 const TRAVEL = { from: -25, to: 25, step: 2.5 };
 const ROLL = { from: -3, to: 3, step: 0.25 };
@@ -35,7 +35,7 @@ const ROLL = { from: -3, to: 3, step: 0.25 };
  */
 @Component({
   selector: 'rw-design-report-page',
-  imports: [NumPipe, DatePipe, RouterLink, MatButton, HardpointTable, LineChart, BarChart, CautionList, SafetyCaution, BumpCostView],
+  imports: [NumPipe, LocalTimePipe, RouterLink, MatButton, HardpointTable, LineChart, BarChart, CautionList, SafetyCaution, BumpCostView],
   templateUrl: './design-report-page.html',
   styleUrl: './design-report-page.scss',
   // The print stylesheet reaches the app shell (hides the top bar when printing).

@@ -1,5 +1,4 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
-import { DatePipe } from '@angular/common';
 import { AbstractControl, FormControl, FormGroup, ReactiveFormsModule, ValidationErrors } from '@angular/forms';
 import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
@@ -18,6 +17,7 @@ import { parseDecimal } from '../axle-design/hardpoint-io';
 import { ALL_VEHICLE_FIELDS, readPath, VEHICLE_FIELD_GROUPS, VehicleField, writePath } from './vehicle-fields';
 import { routeKey } from '../route-params';
 import { toSignal } from '@angular/core/rxjs-interop';
+import { LocalTimePipe } from '../../core/time/local-time';
 
 type Units = 'si' | 'imperial';
 type UnitsModule = typeof import('../../../../shared/schema/units');
@@ -41,7 +41,7 @@ function requiredText(control: AbstractControl<string>): ValidationErrors | null
 @Component({
   selector: 'rw-vehicle-page',
   imports: [
-    DatePipe,
+    LocalTimePipe,
     RouterLink,
     ReactiveFormsModule,
     MatButton,
