@@ -29,6 +29,7 @@ const LBF_N = 4.4482216152605;
 const IN_MM = 25.4;
 const LB_KG = 0.45359237;
 const FT_M = 0.3048;
+const MI_KM = 1.609344;
 
 export const QUANTITIES = {
   length: { si: 'mm', imperial: 'in', factor: 1 / IN_MM, sig: 4 },
@@ -41,6 +42,10 @@ export const QUANTITIES = {
   understeerGradient: { si: 'deg/g', imperial: 'deg/g', factor: 1, sig: 3 },
   rollSteer: { si: 'deg/deg', imperial: 'deg/deg', factor: 1, sig: 3 },
   bumpSteer: { si: 'deg/m', imperial: 'deg/in', factor: IN_MM / 1000, sig: 3 },
+  /** Camber change per length of wheel travel. */
+  camberGain: { si: 'deg/m', imperial: 'deg/in', factor: IN_MM / 1000, sig: 3 },
+  /** Vehicle speed (1 mi = 1.609344 km exactly). */
+  speed: { si: 'km/h', imperial: 'mph', factor: 1 / MI_KM, sig: 4 },
 } as const satisfies Record<string, QuantityUnits>;
 
 export type QuantityKind = keyof typeof QUANTITIES;
@@ -53,4 +58,15 @@ export function inDisplayUnits(value: number, kind: QuantityKind, units: Display
 /** The unit a value of this kind is shown in, e.g. unitLabel('length', 'imperial') = 'in'. */
 export function unitLabel(kind: QuantityKind, units: DisplayUnits): string {
   return QUANTITIES[kind][units];
+}
+
+/**
+ * Decimals for a figure shown to `siDecimals` in its stored unit, in the
+ * chosen system: as many more as the conversion shrinks the number by powers
+ * of ten (deg/m to 2 decimals is deg/in to 4), so the resolution shown stays
+ * the same in either system.
+ */
+export function displayDecimals(kind: QuantityKind, units: DisplayUnits, siDecimals: number): number {
+  if (units === 'si') return siDecimals;
+  return Math.max(0, siDecimals + Math.round(Math.log10(1 / QUANTITIES[kind].factor)));
 }
