@@ -310,11 +310,21 @@ describe('ConfigurationPage', () => {
     [...root.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Comment on the budget')!.click();
     harness.detectChanges();
     await new Promise((r) => setTimeout(r, 0));
-    const select = root.querySelector('rw-review-comments select[name="resultRef"]') as HTMLSelectElement;
-    expect(select.value).toBe('budget');
+    const select = root.querySelector('rw-review-comments mat-select[name="resultRef"]') as HTMLElement;
+    expect(select.textContent!.trim()).toBe('Understeer budget');
     expect(document.activeElement).toBe(root.querySelector('rw-review-comments textarea[name="body"]'));
     // The rear caution is one of the things a comment can point at.
-    expect([...select.options].map((o) => o.value)).toContain('caution:bump-toe-change');
+    (select.querySelector('.mat-mdc-select-trigger') as HTMLElement).click();
+    harness.detectChanges();
+    const options = [...document.querySelectorAll('mat-option')].map((o) => o.textContent!.trim());
+    expect(options).toContain('Understeer budget');
+    expect(options).toContain(`Caution: ${BUMP_CAUTION.message}`);
+    (document.querySelector('mat-option') as HTMLElement).click(); // "The configuration as a whole" closes the list…
+    harness.detectChanges();
+    (select.querySelector('.mat-mdc-select-trigger') as HTMLElement).click();
+    harness.detectChanges();
+    [...document.querySelectorAll<HTMLElement>('mat-option')].find((o) => o.textContent!.trim() === 'Understeer budget')!.click(); // …and back to the budget.
+    harness.detectChanges();
     const box = root.querySelector('rw-review-comments textarea[name="body"]') as HTMLTextAreaElement;
     box.value = 'Rear roll-steer term looks small';
     box.dispatchEvent(new Event('input'));

@@ -1,3 +1,4 @@
+import { DOCUMENT } from '@angular/common';
 import { BumpCostView } from '../bump-cost';
 import type { BumpCost } from '../../../../shared/ride/cost';
 import { RigMeasurementsPanel } from '../rig/rig-measurements-panel';
@@ -40,9 +41,12 @@ import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { displayDecimals, inDisplayUnits, type QuantityKind, unitLabel } from '../../core/format/quantities';
 import { StatusChip } from './status-chip';
 import { NumPipe } from '../../core/format/num-pipe';
-import { optionValue } from '../../core/forms/dom-events';
 import { routeKey } from '../route-params';
 import type { AxleName } from '../../../../shared/schema/axle';
+import { MatCheckbox } from '@angular/material/checkbox';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { MatOption, MatSelect } from '@angular/material/select';
 
 type Load<T> = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; value: T };
 
@@ -86,14 +90,13 @@ interface FrozenFigure {
  */
 @Component({
   selector: 'rw-configuration-page',
-  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel, ConfigurationStudies],
+  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, MatFormField, MatLabel, MatInput, MatSelect, MatOption, MatCheckbox, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel, ConfigurationStudies],
   providers: [KinematicsClient],
   templateUrl: './configuration-page.html',
   styleUrl: './configuration-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class ConfigurationPage {
-  protected readonly optionValue = optionValue;
   private readonly api = inject(ConfigurationsApi);
   private readonly features = inject(FeaturesApi);
   private readonly engine = inject(KinematicsClient);
@@ -312,7 +315,36 @@ export class ConfigurationPage {
     }
   }
 
+  /** "On this page": the page's sections, in order (the approval snapshot once there is one). */
+  protected readonly sections = computed(() => [
+    { id: 'rw-inputs-title', label: 'What it pins' },
+    { id: 'rw-review-title', label: 'Review' },
+    { id: 'rw-results-title', label: 'Results' },
+    { id: 'rw-rig-section', label: 'Rig measurements' },
+    ...(this.approvals().length > 0 ? [{ id: 'rw-approval-title', label: 'Approval snapshot' }] : []),
+    { id: 'rw-studies-title', label: 'Studies' },
+    { id: 'rw-comments-title', label: 'Comments' },
+    { id: 'rw-history-title', label: 'History' },
+    { id: 'rw-compare-title', label: 'Compare' },
+  ]);
+  private readonly document = inject(DOCUMENT);
+
+  /** Brings a section into view (opening it when folded) and moves the keyboard focus to its heading. */
+  protected jump(id: string): void {
+    const target = this.document.getElementById(id);
+    if (!target) return;
+    const fold = target.closest('details');
+    if (fold) fold.open = true;
+    if (!target.hasAttribute('tabindex')) target.setAttribute('tabindex', '-1');
+    target.scrollIntoView({ block: 'start' });
+    target.focus({ preventScroll: true });
+  }
+
+  /** The approval shown in the snapshot section. */
+  protected readonly approvalId = signal<string | null>(null);
+
   protected async showApproval(id: string): Promise<void> {
+    this.approvalId.set(id);
     this.approval.set({ kind: 'loading' });
     try {
       this.approval.set({ kind: 'ready', value: await firstValueFrom(this.api.approval(this.teamId(), this.configurationId(), id)) });
@@ -502,7 +534,4 @@ export class ConfigurationPage {
     return (event.target as HTMLInputElement | HTMLSelectElement | HTMLTextAreaElement).value;
   }
 
-  protected checked(event: Event): boolean {
-    return (event.target as HTMLInputElement).checked;
-  }
 }
