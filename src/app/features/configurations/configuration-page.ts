@@ -1,4 +1,3 @@
-import { DOCUMENT } from '@angular/common';
 import { BumpCostView } from '../bump-cost';
 import type { BumpCost } from '../../../../shared/ride/cost';
 import { RigMeasurementsPanel } from '../rig/rig-measurements-panel';
@@ -44,6 +43,7 @@ import { NumPipe } from '../../core/format/num-pipe';
 import { routeKey } from '../route-params';
 import type { AxleName } from '../../../../shared/schema/axle';
 import { MatCheckbox } from '@angular/material/checkbox';
+import { PageSection, SectionNav } from '../../core/layout/section-nav';
 import { MatFormField, MatLabel } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
@@ -90,7 +90,7 @@ interface FrozenFigure {
  */
 @Component({
   selector: 'rw-configuration-page',
-  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, MatFormField, MatLabel, MatInput, MatSelect, MatOption, MatCheckbox, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel, ConfigurationStudies],
+  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, MatFormField, MatLabel, MatInput, MatSelect, MatOption, MatCheckbox, SectionNav, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel, ConfigurationStudies],
   providers: [KinematicsClient],
   templateUrl: './configuration-page.html',
   styleUrl: './configuration-page.scss',
@@ -316,7 +316,7 @@ export class ConfigurationPage {
   }
 
   /** "On this page": the page's sections, in order (the approval snapshot once there is one). */
-  protected readonly sections = computed(() => [
+  protected readonly sections = computed<PageSection[]>(() => [
     { id: 'rw-inputs-title', label: 'What it pins' },
     { id: 'rw-review-title', label: 'Review' },
     { id: 'rw-results-title', label: 'Results' },
@@ -327,19 +327,6 @@ export class ConfigurationPage {
     { id: 'rw-history-title', label: 'History' },
     { id: 'rw-compare-title', label: 'Compare' },
   ]);
-  private readonly document = inject(DOCUMENT);
-
-  /** Brings a section into view (opening it when folded) and moves the keyboard focus to its heading. */
-  protected jump(id: string): void {
-    const target = this.document.getElementById(id);
-    if (!target) return;
-    const fold = target.closest('details');
-    if (fold) fold.open = true;
-    if (!target.hasAttribute('tabindex')) target.setAttribute('tabindex', '-1');
-    target.scrollIntoView({ block: 'start' });
-    target.focus({ preventScroll: true });
-  }
-
   /** The approval shown in the snapshot section. */
   protected readonly approvalId = signal<string | null>(null);
 
