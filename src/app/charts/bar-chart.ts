@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { scaleBand, scaleLinear } from 'd3';
 import { BarGroup, formatNumber } from './chart-types';
-import { CHART_FONT, lineHeight, textWidth, wrapWords } from './chart-text';
+import { CHART_FONT, lineHeight, textWidth, valueAxisText, wrapWords } from './chart-text';
 import { ChartData } from './chart-data';
 import { toCsv } from './csv';
 
@@ -77,22 +77,11 @@ export class BarChart {
 
   protected readonly valueTitle = computed(() => `${this.valueLabel()} (${this.unit()})`);
 
-  /** The value-axis title, wrapped to the plot's height. */
-  protected readonly titleLines = computed(() => {
-    const title = this.valueTitle();
-    return wrapWords(title, this.plotHeight() - 8, CHART_FONT.title) ?? [title];
-  });
-
-  /** Left margin: the widest tick label, the tick, a gap and the title's lines. */
-  protected readonly left = computed(() => {
-    const widest = Math.max(0, ...this.tickValues().map((t) => textWidth(t.label, CHART_FONT.tick)));
-    return Math.max(MARGIN.left, Math.ceil(widest + 8 + 8 + this.titleLines().length * lineHeight(CHART_FONT.title)));
-  });
-
-  /** x of each title line (the text is turned a quarter, reading upwards). */
-  protected readonly titleX = computed(() =>
-    this.titleLines().map((_, i) => 4 - this.left() + CHART_FONT.title * 0.8 + i * lineHeight(CHART_FONT.title)),
+  /** The value axis' title lines and the left margin they and the tick labels take. */
+  protected readonly axisText = computed(() =>
+    valueAxisText(this.valueTitle(), this.plotHeight(), this.tickValues().map((t) => t.label), MARGIN.left),
   );
+  protected readonly left = computed(() => this.axisText().left);
 
   protected readonly plotWidth = computed(() => this.width() - this.left() - MARGIN.right);
 

@@ -62,3 +62,21 @@ export interface TextBox {
 export function boxesOverlap(a: TextBox, b: TextBox): boolean {
   return a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
 }
+
+/** The value (y) axis' text: its title wrapped to the plot's height, and the left margin it and the tick labels take. */
+export interface ValueAxisText {
+  /** The title's lines (turned a quarter, reading upwards). */
+  readonly lines: readonly string[];
+  /** Offset of each line from the plot's left edge, in the turned text's own y (negative: leftwards). */
+  readonly lineOffsets: readonly number[];
+  /** Left margin: the widest tick label, the tick, a gap and the title's lines (at least `minLeft`). */
+  readonly left: number;
+}
+
+export function valueAxisText(title: string, plotHeight: number, tickLabels: readonly string[], minLeft: number): ValueAxisText {
+  const lines = wrapWords(title, plotHeight - 8, CHART_FONT.title) ?? [title];
+  const lh = lineHeight(CHART_FONT.title);
+  const widest = Math.max(0, ...tickLabels.map((t) => textWidth(t, CHART_FONT.tick)));
+  const left = Math.max(minLeft, Math.ceil(widest + 8 + 8 + lines.length * lh));
+  return { lines, left, lineOffsets: lines.map((_, i) => 4 - left + CHART_FONT.title * 0.8 + i * lh) };
+}

@@ -11,7 +11,7 @@ import {
   SERIES_MARKERS,
 } from './chart-types';
 import { ChartData } from './chart-data';
-import { boxesOverlap, CHART_FONT, lineHeight, TextBox, textWidth, wrapWords } from './chart-text';
+import { boxesOverlap, CHART_FONT, TextBox, textWidth, valueAxisText } from './chart-text';
 import { toCsv } from './csv';
 import { seriesTable, tableCells } from './series-table';
 
@@ -88,21 +88,11 @@ export class LineChart {
 
   protected readonly plotHeight = computed(() => this.height() - MARGIN.top - MARGIN.bottom);
 
-  protected readonly yTitleLines = computed(() => {
-    const title = this.yTitle();
-    return wrapWords(title, this.plotHeight() - 8, CHART_FONT.title) ?? [title];
-  });
-
-  /** Left margin: the widest y tick label, the tick, a gap and the y title's lines. */
-  protected readonly left = computed(() => {
-    const widest = Math.max(0, ...this.yTicks().map((t) => textWidth(t.label, CHART_FONT.tick)));
-    return Math.max(MARGIN.left, Math.ceil(widest + 8 + 8 + this.yTitleLines().length * lineHeight(CHART_FONT.title)));
-  });
-
-  /** Local y of each y-title line (the title is turned a quarter, reading upwards). */
-  protected readonly yTitleY = computed(() =>
-    this.yTitleLines().map((_, i) => 4 - this.left() + CHART_FONT.title * 0.8 + i * lineHeight(CHART_FONT.title)),
+  /** The y axis' title lines and the left margin they and the tick labels take. */
+  protected readonly yAxisText = computed(() =>
+    valueAxisText(this.yTitle(), this.plotHeight(), this.yTicks().map((t) => t.label), MARGIN.left),
   );
+  protected readonly left = computed(() => this.yAxisText().left);
 
   protected readonly plotWidth = computed(() => this.width() - this.left() - MARGIN.right);
 
