@@ -113,7 +113,7 @@ describe('Configuration review in Chromium', () => {
     await reviewer.getByRole('button', { name: 'Comment on the budget' }).click();
     const commentBox = reviewer.getByLabel('Comment', { exact: true });
     await expect.poll(() => commentBox.evaluate((el) => el === document.activeElement)).toBe(true);
-    expect(await reviewer.getByLabel('Points at').inputValue()).toBe('budget');
+    expect((await reviewer.getByRole('combobox', { name: /^Points at/ }).innerText()).trim()).toBe('Understeer budget');
     await reviewer.keyboard.type(COMMENT);
     await reviewer.getByRole('button', { name: 'Post comment' }).click();
     const thread = reviewer.locator('.rw-thread').filter({ hasText: COMMENT });
@@ -137,7 +137,8 @@ describe('Configuration review in Chromium', () => {
     await designerThread.getByRole('button', { name: 'Reply' }).click();
     await designerThread.getByText('Lowered the rear toe link inner point by 6 mm.', { exact: true }).waitFor();
     await designer.getByRole('button', { name: 'Make a new revision' }).click();
-    await designer.getByLabel('Rear axle design', { exact: true }).selectOption({ label: `${LOWERED} (now revision 1)` });
+    await designer.getByRole('combobox', { name: /^Rear axle design/ }).click();
+    await designer.getByRole('option', { name: `${LOWERED} (now revision 1)` }).click();
     await designer.getByLabel('Message (what changed)').fill('Rear toe link inner 6 mm lower');
     await designer.getByRole('button', { name: 'Save new revision' }).click();
     await designer.getByText('Saved as revision 2; the configuration is a draft again.').waitFor();

@@ -76,7 +76,7 @@ describe('ApiTokensSection', () => {
   });
 
   it('creates a token for the chosen team and shows its secret once, with a warning and a copy button', async () => {
-    const { fixture, root } = await render([]);
+    const { root } = await render([]);
     expect(root.textContent).toContain('You have no API tokens.');
     const name = root.querySelector<HTMLInputElement>('input[formcontrolname="name"]')!;
     name.value = 'Batch study';
@@ -107,7 +107,7 @@ describe('ApiTokensSection', () => {
   });
 
   it('refuses to create a token without a name', async () => {
-    const { fixture, root } = await render([]);
+    const { root } = await render([]);
     root.querySelector<HTMLButtonElement>('.token-form button[type="submit"]')!.click();
     await settle();
     expect(root.querySelector('mat-error')?.textContent?.trim()).toBe('Name the token so you can tell it apart later.');
@@ -132,7 +132,7 @@ describe('ApiTokensSection', () => {
   });
 
   it('revokes only after confirmation', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     root.querySelector<HTMLButtonElement>('[aria-label="Revoke token Nightly sweep"]')!.click();
     await settle();
     expect(document.querySelector('mat-dialog-content')?.textContent).toContain('stops working at once');

@@ -67,7 +67,7 @@ describe('ActivityPage', () => {
   });
 
   it('filters the loaded entries by text', async () => {
-    const { fixture, root, rows } = await render();
+    const { root, rows } = await render();
     const input = root.querySelector<HTMLInputElement>('.filters input')!;
     input.value = 'vera';
     input.dispatchEvent(new Event('input'));
@@ -94,7 +94,7 @@ describe('ActivityPage', () => {
 
   it('pages to older entries after the last one shown (its time and id)', async () => {
     const full = Array.from({ length: 100 }, (_, i) => entry(i));
-    const { fixture, root, rows } = await render(undefined, full);
+    const { root, rows } = await render(undefined, full);
     root.querySelector<HTMLButtonElement>('.rw-form-actions button')!.click();
     await settle();
     const req = backend.expectOne((r) => r.url === '/api/teams/t-tal/activity' && r.params.has('before'));

@@ -55,7 +55,7 @@ describe('ForgotPasswordPage', () => {
   });
 
   it('requests the link with the trimmed address and answers without saying whether it has an account', async () => {
-    const { type, submit, root, fixture } = await setUp();
+    const { type, submit, root } = await setUp();
     await type('  designer@tallowmere.example ');
     await submit();
     const request = backend.expectOne('/api/auth/password-reset');
@@ -70,7 +70,7 @@ describe('ForgotPasswordPage', () => {
   });
 
   it('shows a refusal (rate limit) inline, not in a snackbar, and keeps the form', async () => {
-    const { type, submit, root, fixture } = await setUp();
+    const { type, submit, root } = await setUp();
     await type('designer@tallowmere.example');
     await submit();
     backend.expectOne('/api/auth/password-reset').flush(

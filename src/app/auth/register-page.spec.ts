@@ -76,7 +76,7 @@ describe('RegisterPage', () => {
   });
 
   it('marks the e-mail field when the address is already registered', async () => {
-    const { fixture, fill, submit, errors, alerts } = await render();
+    const { fill, submit, errors, alerts } = await render();
     await fill({
       displayName: 'Eli Marsh',
       email: 'engineer@tallowmere.example',

@@ -59,7 +59,7 @@ describe('ResetPasswordPage', () => {
   });
 
   it('sends the token from the link with the new password and says to sign in', async () => {
-    const { fill, submit, root, fixture } = await render();
+    const { fill, submit, root } = await render();
     await fill({ password: 'a-new-passphrase', confirm: 'a-new-passphrase' });
     await submit();
     const request = backend.expectOne('/api/auth/password-reset/confirm');
@@ -74,7 +74,7 @@ describe('ResetPasswordPage', () => {
   });
 
   it('explains a used or expired link and offers a new one, without a snackbar', async () => {
-    const { fill, submit, root, fixture, alerts } = await render();
+    const { fill, submit, root, alerts } = await render();
     await fill({ password: 'a-new-passphrase', confirm: 'a-new-passphrase' });
     await submit();
     backend.expectOne('/api/auth/password-reset/confirm').flush(
@@ -89,7 +89,7 @@ describe('ResetPasswordPage', () => {
   });
 
   it('keeps the form for a refused password (field issues)', async () => {
-    const { fill, submit, root, fixture, alerts } = await render();
+    const { fill, submit, root, alerts } = await render();
     await fill({ password: 'ééééééééééééééééééééééééééééééééééééé', confirm: 'ééééééééééééééééééééééééééééééééééééé' });
     await submit();
     backend.expectOne('/api/auth/password-reset/confirm').flush(

@@ -85,7 +85,7 @@ describe('SignInPage', () => {
   });
 
   it("shows the server's refusal inline and clears the password", async () => {
-    const { type, submit, root, input, fixture } = await render();
+    const { type, submit, root, input } = await render();
     await type('email', 'engineer@tallowmere.example');
     await type('password', 'not-the-password');
     await submit();
@@ -100,7 +100,7 @@ describe('SignInPage', () => {
   });
 
   it('offers a password reset, carrying the address typed so far', async () => {
-    const { type, root, fixture } = await render();
+    const { type, root } = await render();
     const forgot = () => [...root.querySelectorAll('a')].find((a) => a.textContent?.trim() === 'Forgot your password?')!;
     expect(forgot().getAttribute('href')).toBe('/forgot-password');
     await type('email', ' designer@tallowmere.example ');

@@ -46,7 +46,7 @@ describe('DevMailPage', () => {
   }
 
   it('lists the captured mail newest first with time, recipients, subject and body, links clickable', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     backend.expectOne({ method: 'GET', url: '/api/dev/mail' }).flush([RESET, INVITE]);
     await settle();
     const items = [...root.querySelectorAll('li.mail')];
@@ -65,7 +65,7 @@ describe('DevMailPage', () => {
   });
 
   it('says when nothing was captured, and fetches again on Refresh', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     backend.expectOne('/api/dev/mail').flush([]);
     await settle();
     expect(root.querySelector('[role="status"]')?.textContent?.trim()).toBe('No mail captured yet.');
@@ -77,7 +77,7 @@ describe('DevMailPage', () => {
   });
 
   it('shows a refusal on the page, not in a snackbar', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     backend.expectOne('/api/dev/mail').flush(
       { error: { code: 'not_found', message: 'No such route: GET /api/dev/mail' } },
       { status: 404, statusText: 'Not Found' },

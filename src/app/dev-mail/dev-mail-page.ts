@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
@@ -7,6 +6,7 @@ import { loadState } from '../core/http/load-state';
 import { AuthService } from '../core/auth/auth-service';
 import { CapturedMail, DevMailApi } from './dev-mail-api';
 import { MailSegment, splitMailLinks } from './mail-links';
+import { LocalTimePipe } from '../core/time/local-time';
 
 interface ShownMail extends CapturedMail {
   readonly segments: readonly MailSegment[];
@@ -21,7 +21,7 @@ interface ShownMail extends CapturedMail {
 @Component({
   selector: 'rw-dev-mail-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, MatButtonModule, MatIconModule],
+  imports: [LocalTimePipe, MatButtonModule, MatIconModule],
   templateUrl: './dev-mail-page.html',
   styleUrl: './dev-mail-page.scss',
 })

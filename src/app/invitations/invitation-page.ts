@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -18,6 +17,7 @@ import { NewPasswordFields } from '../core/forms/new-password-fields';
 import { Notifier } from '../core/layout/notifier';
 import { TeamAccess } from '../core/teams/team-access';
 import { InvitationInfo, InvitationsApi } from './invitations-api';
+import { LocalTimePipe } from '../core/time/local-time';
 
 type Loaded =
   | { readonly status: 'loading' }
@@ -44,7 +44,7 @@ const LINK_TITLES: Readonly<Record<string, string>> = {
   selector: 'rw-invitation-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [NewPasswordFields, 
-    DatePipe,
+    LocalTimePipe,
     ReactiveFormsModule,
     MatFormFieldModule,
     MatInputModule,

@@ -34,7 +34,7 @@ describe('ProgrammeListPage', () => {
   afterEach(() => backend.verify());
 
   it('lists the instructor’s programmes with their track profile', async () => {
-    const { fixture, root } = await render(IRIS);
+    const { root } = await render(IRIS);
     expect(root.textContent).toContain('Loading programmes…');
     backend.expectOne('/api/programmes').flush([
       { id: 'p1', name: 'Autumn roll-steer study', trackProfile: 'bumpy-circuit', instructorId: 'u-iris', createdAt: '2026-10-01T09:00:00.000Z' },
@@ -47,7 +47,7 @@ describe('ProgrammeListPage', () => {
   });
 
   it('says so when there is none, and when loading fails', async () => {
-    const { fixture, root } = await render(IRIS);
+    const { root } = await render(IRIS);
     backend.expectOne('/api/programmes').flush({ error: { code: 'internal', message: 'Database unreachable' } }, { status: 500, statusText: 'Error' });
     await settle();
     expect(root.querySelector('[role="alert"]')?.textContent).toContain('Database unreachable');
@@ -59,7 +59,7 @@ describe('ProgrammeListPage', () => {
   });
 
   it('creates a programme with a trimmed name and opens it', async () => {
-    const { fixture, root } = await render(IRIS);
+    const { root } = await render(IRIS);
     backend.expectOne('/api/programmes').flush([]);
     await settle();
     const navigate = vi.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
@@ -77,7 +77,7 @@ describe('ProgrammeListPage', () => {
   });
 
   it('refuses an empty name without asking the server', async () => {
-    const { fixture, root } = await render(IRIS);
+    const { root } = await render(IRIS);
     backend.expectOne('/api/programmes').flush([]);
     await settle();
     const name = root.querySelector<HTMLInputElement>('input[formcontrolname="name"]')!;

@@ -113,8 +113,10 @@ describe('ProgrammePage', () => {
 
   it('has no edit controls for the teams’ data: only invite, refresh and snapshot', async () => {
     const { root } = await render();
-    const buttons = [...root.querySelectorAll('button')].map((b) => b.textContent?.trim());
+    const buttons = [...root.querySelectorAll('button')].filter((b) => !b.closest('rw-section-nav')).map((b) => b.textContent?.trim());
     expect(buttons).toEqual(['group_add Invite team', 'refresh Refresh board', 'photo_camera Take snapshot']);
+    // The long page has its list of sections (buttons that only move within the page).
+    expect([...root.querySelectorAll('rw-section-nav button')].map((b) => b.textContent?.trim())).toEqual(['Teams', 'Board', 'Attached studies', 'Snapshots']);
     expect(root.querySelectorAll('rw-board-table input, rw-board-table button, rw-board-table select')).toHaveLength(0);
     expect([...root.querySelectorAll('rw-board-table a')].every((a) => /^\/teams\/[^/]+\/configurations\/[^/]+$/.test(a.getAttribute('href')!))).toBe(true);
   });

@@ -17,6 +17,7 @@ import { SafetyCaution } from '../features/safety-caution';
 import { BoardTable } from './board-table';
 import { profileLabel } from './board-figures';
 import { Board, ProgrammeDetail, ProgrammesApi, ProgrammeTeamStatus, SnapshotSummary } from './programmes-api';
+import { PageSection, SectionNav } from '../core/layout/section-nav';
 
 /** A reload keeps what is shown until the new answer arrives (the forms below it stay put). */
 function keepShown<T>(target: WritableSignal<LoadState<T>>, next: LoadState<T>): void {
@@ -50,11 +51,20 @@ const TEAM_STATUS_WORDS: Readonly<Record<ProgrammeTeamStatus, string>> = {
     SafetyCaution,
     BoardTable,
     ProgrammeStudies,
+    SectionNav,
   ],
   templateUrl: './programme-page.html',
   styleUrl: './programme-page.scss',
 })
 export class ProgrammePage {
+  /** "On this page": the programme's sections, in order. */
+  protected readonly sections: readonly PageSection[] = [
+    { id: 'teams-heading', label: 'Teams' },
+    { id: 'board-heading', label: 'Board' },
+    { id: 'programme-studies-heading', label: 'Attached studies' },
+    { id: 'snapshots-heading', label: 'Snapshots' },
+  ];
+
   /** Bound from the route parameter. */
   readonly programmeId = input.required<string>();
 

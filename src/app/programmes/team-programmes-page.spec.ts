@@ -48,7 +48,7 @@ describe('TeamProgrammesPage', () => {
   });
 
   it('accepts after the owner confirms what the instructor will see', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     root.querySelector<HTMLButtonElement>('[aria-label="Accept Autumn roll-steer study"]')!.click();
     await settle();
     expect(document.querySelector('mat-dialog-content')?.textContent).toContain('Iris Calder will be able to read');
@@ -63,7 +63,7 @@ describe('TeamProgrammesPage', () => {
   });
 
   it('sends nothing when the owner cancels a decline', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     root.querySelector<HTMLButtonElement>('[aria-label="Decline Autumn roll-steer study"]')!.click();
     await settle();
     dialogButton('Cancel').click();

@@ -40,7 +40,7 @@ describe('TeamDashboardPage', () => {
   }
 
   it('shows a loading state, then the vehicles, to a viewer without any command', async () => {
-    const { fixture, root } = await render(team(['viewer'], ['team:read']));
+    const { root } = await render(team(['viewer'], ['team:read']));
     expect(root.querySelector('[role="status"]')?.textContent).toContain('Loading vehicles');
     backend.expectOne('/api/teams/t-tal/vehicles').flush(VEHICLES);
     await settle();
@@ -54,7 +54,7 @@ describe('TeamDashboardPage', () => {
   });
 
   it('links every member to the team’s configurations and their review', async () => {
-    const { fixture, root } = await render(team(['viewer'], ['team:read']));
+    const { root } = await render(team(['viewer'], ['team:read']));
     backend.expectOne('/api/teams/t-tal/vehicles').flush(VEHICLES);
     await settle();
     const link = [...root.querySelectorAll('a')].find((a) => a.textContent?.trim() === 'Configurations and review');
@@ -62,7 +62,7 @@ describe('TeamDashboardPage', () => {
   });
 
   it('gives an engineer the new-vehicle, rename and archive commands', async () => {
-    const { fixture, root } = await render(
+    const { root } = await render(
       team(['engineer'], ['team:read', 'vehicle:manage', 'vehicle:edit', 'design:propose']),
     );
     backend.expectOne('/api/teams/t-tal/vehicles').flush(VEHICLES);
@@ -74,7 +74,7 @@ describe('TeamDashboardPage', () => {
   });
 
   it('asks for archived vehicles too when "Show archived" is on', async () => {
-    const { fixture, root } = await render(team(['viewer'], ['team:read']));
+    const { root } = await render(team(['viewer'], ['team:read']));
     backend.expectOne('/api/teams/t-tal/vehicles').flush([]);
     await settle();
     expect(root.textContent).toContain('No vehicles in use.');
@@ -86,7 +86,7 @@ describe('TeamDashboardPage', () => {
   });
 
   it('shows an error state with a retry when the list fails', async () => {
-    const { fixture, root } = await render(team(['viewer'], ['team:read']));
+    const { root } = await render(team(['viewer'], ['team:read']));
     backend.expectOne('/api/teams/t-tal/vehicles').flush(
       { error: { code: 'database_unavailable', message: 'The database is not reachable.' } },
       { status: 503, statusText: 'Service Unavailable' },

@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -6,6 +5,7 @@ import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 import { VehicleSummary } from '../core/api-types';
+import { LocalTimePipe } from '../core/time/local-time';
 
 /**
  * The team's vehicles. Row names link to the vehicle screen; the rename and
@@ -14,7 +14,7 @@ import { VehicleSummary } from '../core/api-types';
 @Component({
   selector: 'rw-vehicle-table',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatTableModule, MatButtonModule, MatIconModule, MatTooltipModule, RouterLink, DatePipe],
+  imports: [MatTableModule, MatButtonModule, MatIconModule, MatTooltipModule, RouterLink, LocalTimePipe],
   templateUrl: './vehicle-table.html',
   styleUrl: './vehicle-table.scss',
 })

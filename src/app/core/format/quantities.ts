@@ -29,6 +29,7 @@ const LBF_N = 4.4482216152605;
 const IN_MM = 25.4;
 const LB_KG = 0.45359237;
 const FT_M = 0.3048;
+const MI_KM = 1.609344;
 
 export const QUANTITIES = {
   length: { si: 'mm', imperial: 'in', factor: 1 / IN_MM, sig: 4 },
@@ -45,7 +46,8 @@ export const QUANTITIES = {
   camberGain: { si: 'deg/m', imperial: 'deg/in', factor: IN_MM / 1000, sig: 3 },
   /** Second-order term of a toe or camber curve against travel. */
   curvature: { si: 'deg/m²', imperial: 'deg/in²', factor: (IN_MM / 1000) ** 2, sig: 3 },
-  speed: { si: 'km/h', imperial: 'mph', factor: 1000 / (FT_M * 5280), sig: 4 },
+  /** Vehicle speed (1 mi = 1.609344 km exactly). */
+  speed: { si: 'km/h', imperial: 'mph', factor: 1 / MI_KM, sig: 4 },
   /** Distances on the road: a corner radius, the drift after a bump. */
   distance: { si: 'm', imperial: 'ft', factor: 1 / FT_M, sig: 3 },
   /** Lateral load transfer per g of lateral acceleration. */
@@ -66,4 +68,15 @@ export function inDisplayUnits(value: number, kind: QuantityKind, units: Display
 /** The unit a value of this kind is shown in, e.g. unitLabel('length', 'imperial') = 'in'. */
 export function unitLabel(kind: QuantityKind, units: DisplayUnits): string {
   return QUANTITIES[kind][units];
+}
+
+/**
+ * Decimals for a figure shown to `siDecimals` in its stored unit, in the
+ * chosen system: as many more as the conversion shrinks the number by powers
+ * of ten (deg/m to 2 decimals is deg/in to 4), so the resolution shown stays
+ * the same in either system.
+ */
+export function displayDecimals(kind: QuantityKind, units: DisplayUnits, siDecimals: number): number {
+  if (units === 'si') return siDecimals;
+  return Math.max(0, siDecimals + Math.round(Math.log10(1 / QUANTITIES[kind].factor)));
 }

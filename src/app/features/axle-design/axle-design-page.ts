@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
@@ -31,6 +30,7 @@ import { Linkage3dPanel } from '../linkage-view/linkage-3d-panel';
 import { OutputCurvesPanel } from '../linkage-view/output-curves-panel';
 import { checkTravelRange, SweepSettings, type TravelRange } from './sweep-settings';
 import { TrackProfileSelect } from './track-profile-select';
+import { LocalTimePipe } from '../../core/time/local-time';
 
 const ROLL_RANGE = { from: -3, to: 3, step: 0.25 };
 
@@ -69,7 +69,7 @@ function storedProfile(designId: string): TrackProfileId | null {
   selector: 'rw-axle-design-page',
   imports: [
     NumPipe,
-    DatePipe,
+    LocalTimePipe,
     RouterLink,
     MatButton,
     MatProgressBar,

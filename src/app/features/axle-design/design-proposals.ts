@@ -1,8 +1,8 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import type { Proposal } from '../features-api';
 import { AxleDesignStore } from './axle-design-store';
+import { LocalTimePipe } from '../../core/time/local-time';
 
 /** What a proposal's origin says in figures: the roll steer it reaches and the understeer change. */
 export function proposalSummary(p: Proposal): string {
@@ -17,7 +17,7 @@ export function proposalSummary(p: Proposal): string {
 @Component({
   selector: 'rw-design-proposals',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, MatButton],
+  imports: [LocalTimePipe, MatButton],
   template: `
     @if (store.openProposals().length > 0) {
       <section class="rw-proposals" aria-labelledby="rw-proposals-title">
@@ -28,7 +28,7 @@ export function proposalSummary(p: Proposal): string {
         <ul>
           @for (p of store.openProposals(); track p.id) {
             <li [attr.data-proposal]="p.id">
-              From {{ p.authorName ?? 'an engineer' }} on revision {{ p.baseRevision }}, {{ p.createdAt | date: 'medium' }}:
+              From {{ p.authorName ?? 'an engineer' }} on revision {{ p.baseRevision }}, {{ p.createdAt | localTime }}:
               {{ p.message ?? '(no note)' }} @if (summary(p); as s) { ({{ s }}) }
               @if (canAccept()) {
                 <button mat-flat-button type="button" (click)="store.decide(p, 'accept')" [disabled]="store.deciding() || store.dirty()">Accept as new revision</button>

@@ -1,3 +1,4 @@
+import { signal } from '@angular/core';
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting, TestRequest } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
@@ -13,6 +14,8 @@ import { KinematicsClient } from '../../workers/kinematics-client';
 import { ConfigurationPage } from './configuration-page';
 import type { Configuration, ConfigurationResults, GatesAnswer } from './configurations-api';
 import { Answer, refuse, serve } from './spec-backend';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import type { DisplayUnits } from '../../core/api-types';
 
 const TEAM = '/api/teams/t-tal';
 const C = `${TEAM}/configurations/c1`;
@@ -105,15 +108,19 @@ function table(c: Configuration, permissions: string[], extra: Record<string, An
 describe('ConfigurationPage', () => {
   let backend: HttpTestingController;
   let engine: FakeEngine;
+  /** The signed-in user's unit system (account setting). */
+  let units: ReturnType<typeof signal<DisplayUnits>>;
 
   beforeEach(async () => {
     engine = new FakeEngine();
+    units = signal<DisplayUnits>('si');
     TestBed.configureTestingModule({
       providers: [
         provideRouter([{ path: 'teams/:teamId/configurations/:configurationId', component: ConfigurationPage }], withComponentInputBinding()),
         provideHttpClient(),
         provideHttpClientTesting(),
         { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+        { provide: DISPLAY_UNITS, useValue: units },
       ],
     });
     TestBed.overrideComponent(ConfigurationPage, { set: { providers: [{ provide: KinematicsClient, useValue: engine }] } });
@@ -161,6 +168,21 @@ describe('ConfigurationPage', () => {
     expect(buttons(root)).toEqual([]);
     expect(root.querySelector('.rw-review button')).toBeNull();
     expect(root.querySelector('rw-review-comments form')).toBeNull();
+  });
+
+  it('shows the key figures and the speed axis in the user’s inch-pound units, to the same resolution', async () => {
+    units.set('imperial');
+    const { root } = await open(config(), ['team:read']);
+    const figures = [...root.querySelectorAll('[data-testid="key-figures"] tbody tr')].map((r) => [...r.children].map((x) => x.textContent!.trim()));
+    const row = (label: string) => figures.find((f) => f[0] === label)!;
+    // 1 in = 25.4 mm and 1 mi = 1.609344 km exactly (by definition): deg/m × 0.0254 = deg/in, km/h ÷ 1.609344 = mph.
+    expect(row('Bump steer, front').slice(1, 3)).toEqual([(RESULTS.bumpSteer.front.bumpSteerDegPerM * 0.0254).toFixed(5), 'deg/in']);
+    expect(row('Camber gain, rear').slice(1, 3)).toEqual([(RESULTS.bumpSteer.rear.camberGainDegPerM * 0.0254).toFixed(4), 'deg/in']);
+    expect(row('Understeer gradient K').slice(1, 3)).toEqual([RESULTS.balance.understeerBudget.total.toFixed(3), 'deg/g']);
+    const speed = row('Characteristic speed');
+    expect(speed[2]).toBe('mph');
+    expect(speed[1]).toBe(((RESULTS.balance.characteristicSpeedKph ?? Number.NaN) / 1.609344).toFixed(1));
+    expect(root.querySelector('rw-line-chart .rw-axis-label-x')!.textContent!.trim()).toBe('Speed (mph)');
   });
 
   it('offers each role only its own review steps for the status', async () => {
@@ -288,11 +310,21 @@ describe('ConfigurationPage', () => {
     [...root.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Comment on the budget')!.click();
     harness.detectChanges();
     await new Promise((r) => setTimeout(r, 0));
-    const select = root.querySelector('rw-review-comments select[name="resultRef"]') as HTMLSelectElement;
-    expect(select.value).toBe('budget');
+    const select = root.querySelector('rw-review-comments mat-select[name="resultRef"]') as HTMLElement;
+    expect(select.textContent!.trim()).toBe('Understeer budget');
     expect(document.activeElement).toBe(root.querySelector('rw-review-comments textarea[name="body"]'));
     // The rear caution is one of the things a comment can point at.
-    expect([...select.options].map((o) => o.value)).toContain('caution:bump-toe-change');
+    (select.querySelector('.mat-mdc-select-trigger') as HTMLElement).click();
+    harness.detectChanges();
+    const options = [...document.querySelectorAll('mat-option')].map((o) => o.textContent!.trim());
+    expect(options).toContain('Understeer budget');
+    expect(options).toContain(`Caution: ${BUMP_CAUTION.message}`);
+    (document.querySelector('mat-option') as HTMLElement).click(); // "The configuration as a whole" closes the list…
+    harness.detectChanges();
+    (select.querySelector('.mat-mdc-select-trigger') as HTMLElement).click();
+    harness.detectChanges();
+    [...document.querySelectorAll<HTMLElement>('mat-option')].find((o) => o.textContent!.trim() === 'Understeer budget')!.click(); // …and back to the budget.
+    harness.detectChanges();
     const box = root.querySelector('rw-review-comments textarea[name="body"]') as HTMLTextAreaElement;
     box.value = 'Rear roll-steer term looks small';
     box.dispatchEvent(new Event('input'));

@@ -34,13 +34,19 @@ import {
   TransitionRow,
 } from './configurations-api';
 import { RefOption, ReviewComments } from './review-comments';
-import { ActionSpec, actionsFor, CHART_REFS, diffValue, keyFigures, pathLabel, problemText, STATUS_WORDS } from './review-words';
+import { ActionSpec, actionsFor, CHART_REFS, diffValue, type KeyFigure, keyFigures, pathLabel, problemText, STATUS_WORDS } from './review-words';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import { displayDecimals, inDisplayUnits, type QuantityKind, unitLabel } from '../../core/format/quantities';
 import { StatusChip } from './status-chip';
 import { NumPipe } from '../../core/format/num-pipe';
-import { optionValue } from '../../core/forms/dom-events';
 import { routeKey } from '../route-params';
 import type { AxleName } from '../../../../shared/schema/axle';
+import { MatCheckbox } from '@angular/material/checkbox';
+import { PageSection, SectionNav } from '../../core/layout/section-nav';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { MatOption, MatSelect } from '@angular/material/select';
 
 type Load<T> = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; value: T };
 
@@ -62,7 +68,10 @@ const BUDGET_TERMS = [
 interface FrozenFigure {
   readonly path: string;
   readonly label: string;
+  /** Unit in the user's system. */
   readonly unit: string;
+  readonly kind: QuantityKind;
+  /** Decimals in the user's system. */
   readonly digits: number;
   readonly frozen: number | null;
   readonly now: number | null;
@@ -81,14 +90,13 @@ interface FrozenFigure {
  */
 @Component({
   selector: 'rw-configuration-page',
-  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel, ConfigurationStudies],
+  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, MatFormField, MatLabel, MatInput, MatSelect, MatOption, MatCheckbox, SectionNav, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel, ConfigurationStudies],
   providers: [KinematicsClient],
   templateUrl: './configuration-page.html',
   styleUrl: './configuration-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class ConfigurationPage {
-  protected readonly optionValue = optionValue;
   private readonly api = inject(ConfigurationsApi);
   private readonly features = inject(FeaturesApi);
   private readonly engine = inject(KinematicsClient);
@@ -150,9 +158,15 @@ export class ConfigurationPage {
   protected readonly canSetTolerance = computed(() => this.access.permissions().has('members:manage'));
 
   // ---- results ----
+  /** The user's unit system (account setting): key figures, charts and the snapshot follow it. */
+  protected readonly units = inject(DISPLAY_UNITS);
+  /** A key figure's unit and decimals in the user's system (the value converts through the num pipe's kind). */
+  private inUnits<F extends KeyFigure>(f: F): F {
+    return { ...f, unit: unitLabel(f.kind, this.units()), digits: displayDecimals(f.kind, this.units(), f.digits) };
+  }
   protected readonly figures = computed(() => {
     const r = this.results();
-    return r.kind === 'ready' ? keyFigures(r.value.results) : [];
+    return r.kind === 'ready' ? keyFigures(r.value.results).map((f) => this.inUnits(f)) : [];
   });
   protected readonly budgetGroups = computed<BarGroup[]>(() => {
     const r = this.results();
@@ -164,8 +178,10 @@ export class ConfigurationPage {
     const r = this.results();
     if (r.kind !== 'ready') return [];
     const rows = r.value.results.balance.gains.rows;
-    return [{ name: 'Yaw-rate gain', points: rows.filter((g) => g.yawRateGainPerS !== null).map((g) => ({ x: g.speedKph, y: g.yawRateGainPerS! })) }];
+    const units = this.units();
+    return [{ name: 'Yaw-rate gain', points: rows.filter((g) => g.yawRateGainPerS !== null).map((g) => ({ x: inDisplayUnits(g.speedKph, 'speed', units), y: g.yawRateGainPerS! })) }];
   });
+  protected readonly speedUnit = computed(() => unitLabel('speed', this.units()));
   protected readonly refOptions = computed<RefOption[]>(() => {
     const out: RefOption[] = [{ ref: 'budget', label: 'Understeer budget' }];
     for (const [name, label] of Object.entries(CHART_REFS)) out.push({ ref: `chart:${name}`, label });
@@ -192,10 +208,12 @@ export class ConfigurationPage {
     const a = this.approval();
     if (!a || a.kind !== 'ready') return [];
     const diffs = 'differences' in a.value.recompute ? a.value.recompute.differences : [];
-    return keyFigures(a.value.results).map((f) => {
+    return keyFigures(a.value.results).map((raw) => {
+      const f = this.inUnits(raw);
       const d = diffs.find((x) => x.path === f.path);
       const now = d ? (typeof d.b === 'number' ? d.b : null) : 'error' in a.value.recompute ? null : f.value;
-      return { path: f.path, label: f.label, unit: f.unit, digits: f.digits, frozen: f.value, now, change: d && typeof d.change === 'number' ? d.change : now === null ? null : 0 };
+      const change = d && typeof d.change === 'number' ? inDisplayUnits(d.change, f.kind, this.units()) : now === null ? null : 0;
+      return { path: f.path, label: f.label, unit: f.unit, kind: f.kind, digits: f.digits, frozen: f.value, now, change };
     });
   });
 
@@ -297,7 +315,23 @@ export class ConfigurationPage {
     }
   }
 
+  /** "On this page": the page's sections, in order (the approval snapshot once there is one). */
+  protected readonly sections = computed<PageSection[]>(() => [
+    { id: 'rw-inputs-title', label: 'What it pins' },
+    { id: 'rw-review-title', label: 'Review' },
+    { id: 'rw-results-title', label: 'Results' },
+    { id: 'rw-rig-section', label: 'Rig measurements' },
+    ...(this.approvals().length > 0 ? [{ id: 'rw-approval-title', label: 'Approval snapshot' }] : []),
+    { id: 'rw-studies-title', label: 'Studies' },
+    { id: 'rw-comments-title', label: 'Comments' },
+    { id: 'rw-history-title', label: 'History' },
+    { id: 'rw-compare-title', label: 'Compare' },
+  ]);
+  /** The approval shown in the snapshot section. */
+  protected readonly approvalId = signal<string | null>(null);
+
   protected async showApproval(id: string): Promise<void> {
+    this.approvalId.set(id);
     this.approval.set({ kind: 'loading' });
     try {
       this.approval.set({ kind: 'ready', value: await firstValueFrom(this.api.approval(this.teamId(), this.configurationId(), id)) });
@@ -487,7 +521,4 @@ export class ConfigurationPage {
     return (event.target as HTMLInputElement | HTMLSelectElement | HTMLTextAreaElement).value;
   }
 
-  protected checked(event: Event): boolean {
-    return (event.target as HTMLInputElement).checked;
-  }
 }

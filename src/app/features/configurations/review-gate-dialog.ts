@@ -77,7 +77,7 @@ interface Item {
     .rw-gate-reason { width: 100%; min-width: 24rem; }
     .rw-gate-evidence { list-style: none; padding: 0; }
     .rw-gate-evidence li { display: flex; gap: 0.4rem; align-items: flex-start; margin: 0.25rem 0; }
-    .rw-gate-missing { color: var(--mat-sys-error); font-weight: 600; }
+    .rw-gate-missing { color: var(--rw-caution-critical); font-weight: 600; }
     .rw-gate-tolerance { color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-body-small); }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -1,6 +1,7 @@
 import type { Permission } from '../../core/api-types';
 import { apiProblem } from '../../core/http/api-error';
 import type { ConfigurationResults, ConfigurationStatus, ReviewAction } from './configurations-api';
+import type { QuantityKind } from '../../core/format/quantities';
 
 /** Each status in words with an icon, so no state is told by colour alone. */
 export const STATUS_WORDS: Readonly<Record<ConfigurationStatus, { label: string; icon: string }>> = {
@@ -47,22 +48,26 @@ export interface KeyFigure {
   /** The result path (`figure:<path>` in a comment). */
   readonly path: string;
   readonly label: string;
+  /** Unit of the stored (SI-based) value. */
   readonly unit: string;
+  /** What it measures: its unit and rounding in the user's system. */
+  readonly kind: QuantityKind;
+  /** Decimals shown in the stored unit (displayDecimals gives them in the user's system). */
   readonly digits: number;
   readonly value: number | null;
 }
 
-const FIGURES: readonly { path: string; label: string; unit: string; digits: number }[] = [
-  { path: 'balance.kinematicsLink.front.used.rollSteerCoefficient', label: 'Roll steer ε, front', unit: 'deg/deg', digits: 4 },
-  { path: 'balance.kinematicsLink.rear.used.rollSteerCoefficient', label: 'Roll steer ε, rear', unit: 'deg/deg', digits: 4 },
-  { path: 'balance.understeerBudget.rollSteer', label: 'Understeer-gradient change from roll steer', unit: 'deg/g', digits: 3 },
-  { path: 'balance.understeerBudget.total', label: 'Understeer gradient K', unit: 'deg/g', digits: 3 },
-  { path: 'balance.rollGradientDegPerG', label: 'Roll gradient', unit: 'deg/g', digits: 3 },
-  { path: 'balance.characteristicSpeedKph', label: 'Characteristic speed', unit: 'km/h', digits: 1 },
-  { path: 'bumpSteer.front.bumpSteerDegPerM', label: 'Bump steer, front', unit: 'deg/m', digits: 3 },
-  { path: 'bumpSteer.rear.bumpSteerDegPerM', label: 'Bump steer, rear', unit: 'deg/m', digits: 3 },
-  { path: 'bumpSteer.front.camberGainDegPerM', label: 'Camber gain, front', unit: 'deg/m', digits: 2 },
-  { path: 'bumpSteer.rear.camberGainDegPerM', label: 'Camber gain, rear', unit: 'deg/m', digits: 2 },
+const FIGURES: readonly { path: string; label: string; unit: string; kind: QuantityKind; digits: number }[] = [
+  { path: 'balance.kinematicsLink.front.used.rollSteerCoefficient', label: 'Roll steer ε, front', unit: 'deg/deg', kind: 'rollSteer', digits: 4 },
+  { path: 'balance.kinematicsLink.rear.used.rollSteerCoefficient', label: 'Roll steer ε, rear', unit: 'deg/deg', kind: 'rollSteer', digits: 4 },
+  { path: 'balance.understeerBudget.rollSteer', label: 'Understeer-gradient change from roll steer', unit: 'deg/g', kind: 'understeerGradient', digits: 3 },
+  { path: 'balance.understeerBudget.total', label: 'Understeer gradient K', unit: 'deg/g', kind: 'understeerGradient', digits: 3 },
+  { path: 'balance.rollGradientDegPerG', label: 'Roll gradient', unit: 'deg/g', kind: 'understeerGradient', digits: 3 },
+  { path: 'balance.characteristicSpeedKph', label: 'Characteristic speed', unit: 'km/h', kind: 'speed', digits: 1 },
+  { path: 'bumpSteer.front.bumpSteerDegPerM', label: 'Bump steer, front', unit: 'deg/m', kind: 'bumpSteer', digits: 3 },
+  { path: 'bumpSteer.rear.bumpSteerDegPerM', label: 'Bump steer, rear', unit: 'deg/m', kind: 'bumpSteer', digits: 3 },
+  { path: 'bumpSteer.front.camberGainDegPerM', label: 'Camber gain, front', unit: 'deg/m', kind: 'camberGain', digits: 2 },
+  { path: 'bumpSteer.rear.camberGainDegPerM', label: 'Camber gain, rear', unit: 'deg/m', kind: 'camberGain', digits: 2 },
 ];
 
 /** The value at a dotted path (`a.b[2].c`), or undefined. */

@@ -1,6 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked, ViewEncapsulation } from '@angular/core';
 import { rxResource } from '@angular/core/rxjs-interop';
-import { DatePipe } from '@angular/common';
 import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { firstValueFrom } from 'rxjs';
@@ -25,6 +24,7 @@ import { DEFAULT_TRACK_PROFILE } from '../../../../shared/tracks/profiles';
 import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
 import { inDisplayUnits, type QuantityKind, unitLabel } from '../../core/format/quantities';
+import { LocalTimePipe } from '../../core/time/local-time';
 
 const TRAVEL = { from: -25, to: 25, step: 2.5 };
 const ROLL = { from: -3, to: 3, step: 0.25 };
@@ -38,7 +38,7 @@ const ROLL = { from: -3, to: 3, step: 0.25 };
  */
 @Component({
   selector: 'rw-design-report-page',
-  imports: [NumPipe, DatePipe, RouterLink, MatButton, HardpointTable, LineChart, BarChart, CautionList, SafetyCaution, BumpCostView],
+  imports: [NumPipe, LocalTimePipe, RouterLink, MatButton, HardpointTable, LineChart, BarChart, CautionList, SafetyCaution, BumpCostView],
   templateUrl: './design-report-page.html',
   styleUrl: './design-report-page.scss',
   // The print stylesheet reaches the app shell (hides the top bar when printing).

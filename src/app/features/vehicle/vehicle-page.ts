@@ -1,5 +1,4 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
-import { DatePipe } from '@angular/common';
 import { AbstractControl, FormControl, FormGroup, ReactiveFormsModule, ValidationErrors } from '@angular/forms';
 import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
@@ -19,6 +18,7 @@ import { parseDecimal } from '../axle-design/hardpoint-io';
 import { ALL_VEHICLE_FIELDS, BarMode, barModeOf, readPath, VEHICLE_FIELD_GROUPS, VehicleField, vehicleIssuePlace, vehicleIssueText, writePath } from './vehicle-fields';
 import type { AxleName } from '../../../../shared/schema/axle';
 import { rxResource, toSignal } from '@angular/core/rxjs-interop';
+import { LocalTimePipe } from '../../core/time/local-time';
 
 type Units = 'si' | 'imperial';
 type UnitsModule = typeof import('../../../../shared/schema/units');
@@ -42,7 +42,7 @@ function requiredText(control: AbstractControl<string>): ValidationErrors | null
 @Component({
   selector: 'rw-vehicle-page',
   imports: [
-    DatePipe,
+    LocalTimePipe,
     RouterLink,
     ReactiveFormsModule,
     MatButton,
