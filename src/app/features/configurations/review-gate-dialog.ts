@@ -106,7 +106,7 @@ export class ReviewGateDialog {
           .filter((a) => !a.satisfied)
           .map((a) => ({ key: a.axle, axle: a.axle, code: 'rig-waiver', title: `${AXLE_WORDS[a.axle]}: waive the rig evidence`, detail: '' }));
 
-  protected readonly reasons = signal<Readonly<Record<string, string>>>({});
+  protected readonly reasons = signal<Readonly<Partial<Record<string, string>>>>({});
   protected readonly touched = signal(false);
   protected readonly complete = computed(() => this.items.every((i) => (this.reasons()[i.key] ?? '').trim().length >= MIN_REASON));
 
