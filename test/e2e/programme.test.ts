@@ -138,7 +138,7 @@ describe('programmes, API tokens and the activity log', () => {
     // Revoked on the account page (after confirming), the token is refused at once.
     await ana.reload();
     const tokenRow = ana.locator('.tokens li').filter({ hasText: 'Batch study script' });
-    await tokenRow.filter({ hasText: /last used \d/ }).waitFor();
+    await tokenRow.filter({ hasText: /last used \w/ }).waitFor(); // a date in the browser's own format (en-US: "Dec 4, 2026, …")
     await tokenRow.getByRole('button', { name: 'Revoke token Batch study script' }).click();
     await ana.getByRole('dialog').getByRole('button', { name: 'Revoke token' }).click();
     await tokenRow.filter({ hasText: /Revoked \d/ }).waitFor();

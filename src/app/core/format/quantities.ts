@@ -49,7 +49,7 @@ export const QUANTITIES = {
   /** Vehicle speed (1 mi = 1.609344 km exactly). */
   speed: { si: 'km/h', imperial: 'mph', factor: 1 / MI_KM, sig: 4 },
   /** Distances on the road: a corner radius, the drift after a bump. */
-  distance: { si: 'm', imperial: 'ft', factor: 1 / FT_M, sig: 3 },
+  distance: { si: 'm', imperial: 'ft', factor: 1 / FT_M, sig: 4 },
   /** Lateral load transfer per g of lateral acceleration. */
   forcePerG: { si: 'N/g', imperial: 'lbf/g', factor: 1 / LBF_N, sig: 4 },
   /** Compliance steer or camber per force (1 klbf = 4.4482216152605 kN). */
