@@ -141,7 +141,7 @@ describe('programmes, API tokens and the activity log', () => {
     await tokenRow.filter({ hasText: /last used \w/ }).waitFor(); // a date in the browser's own format (en-US: "Dec 4, 2026, …")
     await tokenRow.getByRole('button', { name: 'Revoke token Batch study script' }).click();
     await ana.getByRole('dialog').getByRole('button', { name: 'Revoke token' }).click();
-    await tokenRow.filter({ hasText: /Revoked \d/ }).waitFor();
+    await tokenRow.filter({ hasText: /Revoked \w/ }).waitFor(); // a date in the browser's own format
     expect(await tokenRow.getByRole('button').count()).toBe(0);
     const refused = await fetch(`${team}/vehicles`, { headers: bearer });
     expect(refused.status).toBe(401);
@@ -233,7 +233,9 @@ describe('programmes, API tokens and the activity log', () => {
     expect(await first.innerText()).toContain('configuration.create');
     expect(await ana.locator('table.activity thead th').first().innerText()).toBe('When (Asia/Tokyo)');
     const utc = new Date((await first.locator('time').getAttribute('datetime'))!);
-    const shownHour = Number(/, (\d\d):\d\d:\d\d$/.exec(await first.locator('time').innerText())![1]);
+    // The hour as shown, in the browser's own format: 24-hour ("…, 19:05:12") or 12-hour ("…, 07:05:12 PM").
+    const shown = /(\d{1,2}):\d\d:\d\d(?:\s*([AP])\.?\s*M\.?)?$/i.exec((await first.locator('time').innerText()).trim())!;
+    const shownHour = shown[2] ? (Number(shown[1]) % 12) + (shown[2].toUpperCase() === 'P' ? 12 : 0) : Number(shown[1]);
     expect(shownHour).toBe((utc.getUTCHours() + 9) % 24);
     const [log] = await Promise.all([ana.waitForEvent('download'), ana.getByRole('link', { name: 'Download CSV' }).click()]);
     const logCsv = readFileSync((await log.path())!, 'utf8');
