@@ -1,7 +1,4 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { TestBed } from '@angular/core/testing';
-import { provideRouter, withComponentInputBinding } from '@angular/router';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { computeBalance } from '../../../../shared/balance/api';
 import { exampleVehicles } from '../../../../shared/balance/examples';
@@ -9,8 +6,8 @@ import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { BalancePage } from './balance-page';
 import { signal } from '@angular/core';
 import type { DisplayUnits } from '../../core/api-types';
-import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { settle } from '../../../testing/settle';
+import { routedPageTestBed } from '../../../testing/routed-page';
 
 const T = '/api/teams/t-tal';
 const raised = structuredClone(exampleCorners.fsRearWishbone);
@@ -27,15 +24,7 @@ describe('BalancePage', () => {
 
   beforeEach(async () => {
     units.set('si');
-    await TestBed.configureTestingModule({
-      providers: [
-        provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId/balance', component: BalancePage }], withComponentInputBinding()),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        { provide: DISPLAY_UNITS, useValue: units },
-      ],
-    }).compileComponents();
-    backend = TestBed.inject(HttpTestingController);
+    backend = await routedPageTestBed('teams/:teamId/vehicles/:vehicleId/balance', BalancePage, units);
   });
 
   afterEach(() => backend.verify());

@@ -1,15 +1,12 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { signal } from '@angular/core';
-import { TestBed } from '@angular/core/testing';
-import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { analyseCorner } from '../../workers/corner-analysis';
 import type { DisplayUnits } from '../../core/api-types';
-import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { settle } from '../../../testing/settle';
 import { ComparePage } from './compare-page';
+import { routedPageTestBed } from '../../../testing/routed-page';
 
 const T = '/api/teams/t-tal';
 const raised = structuredClone(exampleCorners.fsRearWishbone);
@@ -26,15 +23,7 @@ describe('ComparePage', () => {
 
   beforeEach(async () => {
     units.set('si');
-    await TestBed.configureTestingModule({
-      providers: [
-        provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId/compare', component: ComparePage }], withComponentInputBinding()),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        { provide: DISPLAY_UNITS, useValue: units },
-      ],
-    }).compileComponents();
-    backend = TestBed.inject(HttpTestingController);
+    backend = await routedPageTestBed('teams/:teamId/vehicles/:vehicleId/compare', ComparePage, units);
   });
 
   afterEach(() => backend.verify());

@@ -1,16 +1,13 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { signal } from '@angular/core';
-import { TestBed } from '@angular/core/testing';
-import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { exampleVehicles } from '../../../../shared/balance/examples';
 import type { DisplayUnits } from '../../core/api-types';
-import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { settle } from '../../../testing/settle';
 import type { AxleDesign } from '../features-api';
 import { IntentPage, rigToeChange } from './intent-page';
+import { routedPageTestBed } from '../../../testing/routed-page';
 
 const URL = '/teams/t-tal/vehicles/v-ember/axle-designs/d-rear/intent';
 const DESIGN: AxleDesign = {
@@ -60,15 +57,7 @@ describe('IntentPage', () => {
 
   beforeEach(async () => {
     units.set('si');
-    await TestBed.configureTestingModule({
-      providers: [
-        provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId/axle-designs/:designId/intent', component: IntentPage }], withComponentInputBinding()),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        { provide: DISPLAY_UNITS, useValue: units },
-      ],
-    }).compileComponents();
-    backend = TestBed.inject(HttpTestingController);
+    backend = await routedPageTestBed('teams/:teamId/vehicles/:vehicleId/axle-designs/:designId/intent', IntentPage, units);
   });
 
   afterEach(() => backend.verify());

@@ -1,15 +1,12 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting, TestRequest } from '@angular/common/http/testing';
+import { HttpTestingController, TestRequest } from '@angular/common/http/testing';
 import { signal } from '@angular/core';
-import { TestBed } from '@angular/core/testing';
-import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { computeBalance } from '../../../../shared/balance/api';
 import { exampleVehicles } from '../../../../shared/balance/examples';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import type { DisplayUnits } from '../../core/api-types';
-import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { DesignReportPage } from './design-report-page';
+import { routedPageTestBed } from '../../../testing/routed-page';
 
 const T = '/api/teams/t-tal';
 const design = (id: string, axle: 'front' | 'rear', revision: number, updatedByName: string) => ({
@@ -50,15 +47,7 @@ describe('DesignReportPage', () => {
 
   beforeEach(async () => {
     units.set('si');
-    await TestBed.configureTestingModule({
-      providers: [
-        provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId/axle-designs/:designId/report', component: DesignReportPage }], withComponentInputBinding()),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        { provide: DISPLAY_UNITS, useValue: units },
-      ],
-    }).compileComponents();
-    backend = TestBed.inject(HttpTestingController);
+    backend = await routedPageTestBed('teams/:teamId/vehicles/:vehicleId/axle-designs/:designId/report', DesignReportPage, units);
   });
 
   /** Opens the report and serves its requests until the kinematics, the revisions and the budget are on it. */
