@@ -46,12 +46,16 @@ import { vehiclesRouter } from './routes/vehicles.js';
 import { axleDesignsRouter, vehicleAxleDesignsRouter } from './routes/axle-designs.js';
 import { computeRouter } from './routes/compute.js';
 import { configurationsRouter } from './routes/configurations.js';
+import { reviewGatesRouter } from './routes/review-gates.js';
+import { ReviewGates } from './services/review-gates.js';
+import { LatestPreview } from './services/latest-preview.js';
+import { ReviewRecord } from './services/review-record.js';
 import { devMailRouter } from './routes/dev-mail.js';
 import { MailWorker } from './mail/outbox.js';
 import { RigMeasurements } from './services/rig-measurements.js';
 import { rigMeasurementsRouter } from './routes/rig-measurements.js';
 import { Studies } from './services/studies.js';
-import { studiesRouter } from './routes/studies.js';
+import { programmeStudiesRouter, studiesRouter } from './routes/studies.js';
 
 export type RollwiseApp = Express & {
   /** Stops the app's own timers, workers and session store (not the database). */
@@ -143,17 +147,29 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   api.use(refuseNulCharacters);
   api.use('/auth/tokens', apiTokensRouter(apiTokens, auth));
   api.use('/auth', authRouter(config, accounts, db.pool, auth));
-  api.use('/teams/:teamId/vehicles/:vehicleId/axle-designs', vehicleAxleDesignsRouter(designs, auth));
+  api.use('/teams/:teamId/vehicles/:vehicleId/axle-designs', vehicleAxleDesignsRouter(designs, vehicles, auth));
   api.use('/teams/:teamId/vehicles', vehiclesRouter(vehicles, auth));
   api.use('/teams/:teamId/axle-designs', axleDesignsRouter(designs, proposals, auth));
   api.use('/invitations', invitationLinksRouter(invitations, accounts, config.addressLimit));
   api.use('/teams/:teamId/invitations', teamInvitationsRouter(invitations, auth));
   api.use('/teams/:teamId/configurations', configurationsRouter(configurations, auth));
+  api.use(
+    '/teams/:teamId/configurations',
+    reviewGatesRouter(
+      configurations,
+      new ReviewGates(db.orm, configurations, pool, config.computeTimeLimitMs),
+      new LatestPreview(db.orm, configurations),
+      new ReviewRecord(db.orm, configurations, pool, config.computeTimeLimitMs),
+      auth,
+      config.chromiumPath,
+    ),
+  );
   api.use('/teams/:teamId/studies', studiesRouter(studies, auth));
   if (!config.production) api.use('/dev/mail', devMailRouter(db.orm, auth));
   api.use('/teams/:teamId', rigMeasurementsRouter(new RigMeasurements(db.orm, configurations, pool, config.computeTimeLimitMs), auth));
   api.use('/teams/:teamId', activityRouter(activity, designs, auth));
   api.use('/teams/:teamId/programmes', teamProgrammesRouter(programmes, auth));
+  api.use('/programmes/:programmeId/studies', programmeStudiesRouter(studies, programmes, auth));
   api.use('/programmes', programmesRouter(programmes, auth));
   api.use('/teams', teamsRouter(teams, auth));
   api.use('/compute', computeRouter(pool, jobs, auth, config.computeTimeLimitMs));

@@ -61,6 +61,8 @@ export interface Config {
   computeTimeLimitMs: number;
   /** Start a compute worker at start-up rather than on the first request (off in tests). */
   computeWarmStart: boolean;
+  /** Chromium that prints review records to PDF (Debian's package). */
+  chromiumPath: string;
   /** Time limit of a background solve job (longer family sweeps). */
   solveJobTimeLimitMs: number;
   /** A finished solve job keeps its answer this long; then its id answers 410 job_gone (expired). */
@@ -78,6 +80,10 @@ export interface Config {
   studyChunkExpireSeconds: number;
   /** Time limit of one study chunk on a worker thread. */
   studyChunkTimeLimitMs: number;
+  /** Workers check running studies this often for chunk jobs that left the queue undone (server/compute/reconcile.ts). */
+  studyReconcileSeconds: number;
+  /** A study with a chunk whose job ended without landing fails (410 job_gone) after this long without progress. */
+  studyStallSeconds: number;
   /** Studies a team may have queued or running at once (more: 429). */
   studyMaxActivePerTeam: number;
   /** Run a queue worker inside the server process (tests and single-process set-ups; `npm start` runs a worker process instead). */
@@ -163,6 +169,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     computeThreads: int(env, 'COMPUTE_THREADS', Math.max(1, availableParallelism() - 1), 1),
     computeTimeLimitMs: int(env, 'COMPUTE_TIME_LIMIT_MS', 10_000, 50),
     computeWarmStart: !test,
+    chromiumPath: env['CHROMIUM_PATH'] || '/usr/bin/chromium',
     solveJobTimeLimitMs: int(env, 'SOLVE_JOB_TIME_LIMIT_MS', 120_000, 50),
     solveJobRetainMs: int(env, 'SOLVE_JOB_RETAIN_MINUTES', 15, 0) * 60_000,
     // Tests hash many throwaway passwords; everything else uses a real cost.
@@ -173,6 +180,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     queueMaintenanceSeconds: int(env, 'QUEUE_MAINTENANCE_SECONDS', test ? 1 : 30, 1),
     studyChunkExpireSeconds: int(env, 'STUDY_CHUNK_EXPIRE_SECONDS', 120, 1),
     studyChunkTimeLimitMs: int(env, 'STUDY_CHUNK_TIME_LIMIT_MS', 60_000, 50),
+    studyReconcileSeconds: int(env, 'STUDY_RECONCILE_SECONDS', test ? 1 : 60, 1),
+    studyStallSeconds: int(env, 'STUDY_STALL_SECONDS', 600, 1),
     studyMaxActivePerTeam: int(env, 'STUDY_MAX_ACTIVE_PER_TEAM', 3, 1),
     inProcessWorker: flag(env, 'ROLLWISE_IN_PROCESS_WORKER', test),
   };

@@ -54,6 +54,9 @@ export function workerOptions(config: Config, logger?: ReturnType<typeof createL
     pollMs: config.queuePollMs,
     maintenanceIntervalSeconds: config.queueMaintenanceSeconds,
     chunkTimeLimitMs: config.studyChunkTimeLimitMs,
+    reconcileSeconds: config.studyReconcileSeconds,
+    chunkExpireSeconds: config.studyChunkExpireSeconds,
+    stallSeconds: config.studyStallSeconds,
     ...(logger ? { logger } : {}),
   };
 }

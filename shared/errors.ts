@@ -54,3 +54,46 @@ export function parseOrThrow<T>(schema: ZodType<T>, input: unknown, what = 'inpu
   const first = issues[0];
   throw new InputError(`Invalid ${what}: ${first ? `${first.path}: ${first.message}` : 'unknown problem'}`, issues);
 }
+
+/**
+ * What kind of refusal a domain error is. Services say only this; the HTTP
+ * error handler (server/http/errors.ts) maps each kind to its status, the CLI
+ * and workers to their own answers.
+ */
+export type DomainErrorKind =
+  | 'invalid'
+  | 'unauthenticated'
+  | 'forbidden'
+  | 'not_found'
+  | 'conflict'
+  | 'gone'
+  /** The caller already has as much work running as allowed; wait for some to finish. */
+  | 'too_many'
+  /** The server cannot do this right now (busy, or a facility is not installed); try again or another way. */
+  | 'unavailable';
+
+/** A rule of the product refused the request: `code` is the API's error code, `details` what the caller needs to recover. */
+export class DomainError extends Error {
+  constructor(
+    readonly kind: DomainErrorKind,
+    readonly code: string,
+    message: string,
+    readonly details?: unknown,
+  ) {
+    super(message);
+    this.name = 'DomainError';
+  }
+}
+
+/** `<what> not found` (also for things the caller may not see: it never says which). */
+export const notFound = (what = 'Resource', details?: unknown): DomainError =>
+  new DomainError('not_found', 'not_found', `${what} not found`, details);
+
+/** A write based on an old revision of a document; `current` is the state now, so nothing is lost. */
+export const staleRevision = (baseRevision: number, current: { revision: number }): DomainError =>
+  new DomainError(
+    'conflict',
+    'stale_revision',
+    `Someone saved revision ${current.revision} after the revision ${baseRevision} you started from; reload and re-apply your change`,
+    { baseRevision, current },
+  );

@@ -55,23 +55,37 @@ export function parseList(value: string, flag: string): number[] {
   return parts;
 }
 
+/**
+ * Where a command writes: the process's own streams when run as a program,
+ * strings collected by a test when run in-process (test/support/cli.ts).
+ */
+export interface CliIo {
+  stdout(text: string): void;
+  stderr(text: string): void;
+}
+
+export const processIo: CliIo = {
+  stdout: (text) => void process.stdout.write(text),
+  stderr: (text) => void process.stderr.write(text),
+};
+
 /** Runs a subcommand body, mapping typed errors to exit codes: 2 bad input, 3 unsolvable pose. */
-export async function runCommand(body: () => Promise<unknown> | unknown): Promise<number> {
+export async function runCommand(io: CliIo, body: () => Promise<unknown> | unknown): Promise<number> {
   try {
     const result = await body();
-    process.stdout.write(JSON.stringify(result, null, 2) + '\n');
+    io.stdout(JSON.stringify(result, null, 2) + '\n');
     return 0;
   } catch (e) {
     if (e instanceof InputError) {
-      process.stderr.write(`rollwise: ${e.message}\n`);
-      for (const i of e.issues.slice(1, 10)) process.stderr.write(`  ${i.path}: ${i.message}\n`);
+      io.stderr(`rollwise: ${e.message}\n`);
+      for (const i of e.issues.slice(1, 10)) io.stderr(`  ${i.path}: ${i.message}\n`);
       return 2;
     }
     if (e instanceof SolveError) {
-      process.stderr.write(`rollwise: ${e.message}\n`);
+      io.stderr(`rollwise: ${e.message}\n`);
       return 3;
     }
-    process.stderr.write(`rollwise: internal error: ${(e as Error).stack ?? e}\n`);
+    io.stderr(`rollwise: internal error: ${(e as Error).stack ?? e}\n`);
     return 1;
   }
 }

@@ -7,7 +7,7 @@
 import { computeBalance } from '../../shared/balance/api.js';
 import { InputError } from '../../shared/errors.js';
 import { convertUnitEntries } from '../../shared/schema/units.js';
-import { parseArgs, readJsonFile, requireArg, runCommand } from './args.js';
+import { parseArgs, readJsonFile, requireArg, runCommand, type CliIo } from './args.js';
 
 const KNOWN = new Set(['vehicle', 'front-corner', 'rear-corner', 'speed', 'radius', 'ay', 'variant', 'summary']);
 
@@ -30,8 +30,8 @@ function readVehicle(path: string, flag: string): unknown {
   }
 }
 
-export async function balanceCommand(argv: string[]): Promise<number> {
-  return runCommand(() => {
+export async function balanceCommand(argv: string[], io: CliIo): Promise<number> {
+  return runCommand(io, () => {
     const args = parseArgs(argv);
     for (const k of args.keys()) if (!KNOWN.has(k)) throw new InputError(`unknown option --${k}`, [{ path: `--${k}`, message: 'unknown option' }]);
     const input: Record<string, unknown> = { vehicle: readVehicle(requireArg(args, 'vehicle'), '--vehicle') };

@@ -6,7 +6,7 @@
 import { InputError } from '../../shared/errors.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import { computeAxleRoll, computeCornerSweep } from '../../shared/kinematics/api.js';
-import { parseArgs, parseList, parseRange, readJsonFile, requireArg, runCommand } from './args.js';
+import { parseArgs, parseList, parseRange, readJsonFile, requireArg, runCommand, type CliIo } from './args.js';
 
 export function rejectUnknown(args: Map<string, string>, allowed: string[]): void {
   for (const k of args.keys()) {
@@ -49,8 +49,8 @@ export function withFlags<T>(body: () => T, map: Record<string, string>): T {
 }
 
 /** `sweep --corner FILE --travel=FROM:TO:STEP [--rack=R1,R2,…] [--fit=FROM:TO]` */
-export function sweepCommand(argv: string[]): Promise<number> {
-  return runCommand(() => {
+export function sweepCommand(argv: string[], io: CliIo): Promise<number> {
+  return runCommand(io, () => {
     const args = parseArgs(argv);
     rejectUnknown(args, ['corner', 'travel', 'rack', 'fit']);
     const cornerPath = requireArg(args, 'corner');
@@ -71,8 +71,8 @@ export function sweepCommand(argv: string[]): Promise<number> {
 }
 
 /** `roll --corner FILE --roll=FROM:TO:STEP [--rack=…] [--wheelbase=MM] [--right-corner FILE] [--axle=front|rear --cg-height=MM [--brake-front=F] [--drive-front=F]] [--rack-per-rev=MM]` */
-export function rollCommand(argv: string[]): Promise<number> {
-  return runCommand(() => {
+export function rollCommand(argv: string[], io: CliIo): Promise<number> {
+  return runCommand(io, () => {
     const args = parseArgs(argv);
     rejectUnknown(args, ['corner', 'roll', 'rack', 'wheelbase', 'right-corner', 'axle', 'cg-height', 'brake-front', 'drive-front', 'rack-per-rev']);
     const cornerPath = requireArg(args, 'corner');

@@ -7,7 +7,7 @@
 import { InputError } from '../../shared/errors.js';
 import { computeRide } from '../../shared/ride/api.js';
 import { convertUnitEntries } from '../../shared/schema/units.js';
-import { parseArgs, readJsonFile, requireArg, runCommand } from './args.js';
+import { parseArgs, readJsonFile, requireArg, runCommand, type CliIo } from './args.js';
 
 const KNOWN = ['vehicle', 'axle', 'road-class', 'speed', 'corner', 'radius', 'bump', 'landing', 'travel', 'summary'];
 
@@ -41,8 +41,8 @@ function renamePath(p: string): string {
   return p;
 }
 
-export async function rideCommand(argv: string[]): Promise<number> {
-  return runCommand(() => {
+export async function rideCommand(argv: string[], io: CliIo): Promise<number> {
+  return runCommand(io, () => {
     const args = parseArgs(argv);
     for (const k of args.keys()) if (!KNOWN.includes(k)) throw new InputError(`--${k}: unknown option (expected ${KNOWN.map((a) => `--${a}`).join(', ')})`, [{ path: `--${k}`, message: 'unknown option' }]);
     const vehicleDoc = readJsonFile(requireArg(args, 'vehicle'), '--vehicle');

@@ -10,13 +10,13 @@ import { InputError } from '../../shared/errors.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import { planStudy, runStudyChunk, combineStudyChunks, studySpecSchema } from '../../shared/study/index.js';
 import { parseOrThrow } from '../../shared/errors.js';
-import { parseArgs, readJsonFile, requireArg, runCommand } from './args.js';
+import { parseArgs, readJsonFile, requireArg, runCommand, type CliIo } from './args.js';
 
 const DOCUMENT_FIELDS = ['corner', 'otherCorner', 'vehicle'] as const;
 
 /** `study --spec FILE [--progress]` */
-export function studyCommand(argv: string[]): Promise<number> {
-  return runCommand(() => {
+export function studyCommand(argv: string[], io: CliIo): Promise<number> {
+  return runCommand(io, () => {
     const args = parseArgs(argv);
     for (const k of args.keys()) {
       if (k !== 'spec' && k !== 'progress') throw new InputError(`--${k}: unknown option (expected --spec, --progress)`, [{ path: `--${k}`, message: 'unknown option' }]);
@@ -45,7 +45,7 @@ export function studyCommand(argv: string[]): Promise<number> {
     const progress = args.has('progress');
     for (let i = 0; i < plan.chunkCount; i++) {
       chunks.push(runStudyChunk(spec, i));
-      if (progress) process.stderr.write(`chunk ${i + 1} of ${plan.chunkCount}\n`);
+      if (progress) io.stderr(`chunk ${i + 1} of ${plan.chunkCount}\n`);
     }
     return { engineVersion: ENGINE_VERSION, plan, result: combineStudyChunks(spec, chunks) };
   });

@@ -13,7 +13,7 @@
  * stays as a tombstone for `tombstoneMs`, so the id never looks wrong.
  */
 import { and, eq, inArray, lt, sql } from 'drizzle-orm';
-import { HttpError, notFound } from '../http/errors.js';
+import { DomainError, notFound } from '../../shared/errors.js';
 import type { Database } from '../db/client.js';
 import { computeJobs } from '../db/schema.js';
 import { QUEUES, bossDb, inTransaction, type JobQueue, type QueueJobData } from './queue.js';
@@ -72,7 +72,7 @@ export class SolveJobs {
       .from(computeJobs)
       .where(and(eq(computeJobs.ownerId, ownerId), inArray(computeJobs.state, ['queued', 'running'])));
     if (active >= (this.o.maxActivePerUser ?? 3)) {
-      throw new HttpError(429, 'too_many_jobs', 'You already have several solves running; wait for one to finish or cancel it');
+      throw new DomainError('too_many', 'too_many_jobs', 'You already have several solves running; wait for one to finish or cancel it');
     }
     const boss = await this.queue.ready();
     // The row and the queue job land together or not at all.
@@ -153,8 +153,8 @@ export class SolveJobs {
     return row;
   }
 
-  private gone(reason: 'expired' | 'lost'): HttpError {
-    return new HttpError(410, 'job_gone', GONE_MESSAGES[reason](this.retainMs), { reason });
+  private gone(reason: 'expired' | 'lost'): DomainError {
+    return new DomainError('gone', 'job_gone', GONE_MESSAGES[reason](this.retainMs), { reason });
   }
 
   private async markGone(id: string, reason: 'expired' | 'lost'): Promise<void> {
@@ -182,7 +182,7 @@ export class SolveJobs {
 function view(r: Row): JobView {
   const v: JobView = { id: r.id, state: r.state, progress: { fraction: r.progressFraction, message: r.progressMessage }, createdAt: r.createdAt };
   if (r.resultJson !== null) v.resultJson = r.resultJson;
-  if (r.error) v.error = r.error as JobView['error'];
+  if (r.error) v.error = r.error;
   if (r.finishedAt) v.finishedAt = r.finishedAt;
   return v;
 }

@@ -6,8 +6,7 @@
  */
 import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import { SolveError } from '../../shared/errors.js';
-import { HttpError } from '../http/errors.js';
+import { DomainError, SolveError } from '../../shared/errors.js';
 import { deserializeError, type ComputeTask, type TaskKind, type ProgressMessage, type WorkerOutcome } from './tasks.js';
 
 export interface RunOptions {
@@ -26,22 +25,25 @@ export interface ComputePool {
 
 const WORKER = new URL('./worker.ts', import.meta.url).href;
 
-/** `warm`: start one worker right away (loading the engines takes about a second) instead of at the first request. */
-export function createComputePool(o: { threads: number; maxQueue?: number; warm?: boolean }): ComputePool {
+/**
+ * `warm`: start one worker right away (loading the engines takes about a second) instead of at the first request;
+ * `keepThreads`: start and keep all `threads` (a queue worker's study lanes, each with its thread warmed up at start).
+ */
+export function createComputePool(o: { threads: number; maxQueue?: number; warm?: boolean; keepThreads?: boolean }): ComputePool {
   // Workers run the TypeScript sources through tsx, like the main process.
   const hasTsx = process.execArgv.some((a, i, all) => a.includes('tsx') && (all[i - 1] === '--import' || a.startsWith('--import')));
   let pool: Piscina | undefined;
   const get = () =>
     (pool ??= new Piscina({
       filename: WORKER,
-      minThreads: o.warm ? 1 : 0,
+      minThreads: o.keepThreads ? o.threads : o.warm ? 1 : 0,
       maxThreads: o.threads,
       maxQueue: o.maxQueue ?? 64,
       idleTimeout: 60_000,
       execArgv: hasTsx ? process.execArgv : [...process.execArgv, '--import', 'tsx'],
     }));
 
-  if (o.warm) get();
+  if (o.warm || o.keepThreads) get();
   return {
     async run(kind: TaskKind, input: unknown, opts: RunOptions): Promise<unknown> {
       return exec({ kind, input }, opts);
@@ -77,9 +79,9 @@ export function createComputePool(o: { threads: number; maxQueue?: number; warm?
           timeLimitMs: opts.timeLimitMs,
         });
       }
-      if (opts.signal?.aborted) throw new HttpError(409, 'cancelled', 'The computation was cancelled');
+      if (opts.signal?.aborted) throw new DomainError('conflict', 'cancelled', 'The computation was cancelled');
       if (err instanceof Error && /queue is at limit/i.test(err.message)) {
-        throw new HttpError(503, 'compute_busy', 'The server is busy with other computations; try again in a moment');
+        throw new DomainError('unavailable', 'compute_busy', 'The server is busy with other computations; try again in a moment');
       }
       throw err;
     } finally {

@@ -8,7 +8,10 @@
  *   a user's solve never waits behind study chunks; it shares the cores
  *   with them at the operating system's discretion.
  * - `studySlots` study lanes (queue `study-combine` first, then
- *   `study-chunk`, whose priority −chunkIndex makes studies take turns).
+ *   `study-chunk`, whose priority −chunkIndex makes studies take turns),
+ *   each with a thread of its own (warmed up at start). A study lane keeps
+ *   its thread busy: while a chunk computes it takes and checks the next
+ *   job, and the finished chunk lands while the next one computes.
  * A lane that finds work asks again at once; an idle lane sleeps until a
  * NOTIFY on `rollwise_queue` or `pollMs`.
  *
@@ -27,6 +30,8 @@ import { toErrorBody } from '../http/errors.js';
 import { createComputePool, type ComputePool } from './pool.js';
 import { cancelStudyChunks } from '../services/studies.js';
 import { JobQueue, NOTIFY_CHANNEL, QUEUES, type QueueJobData } from './queue.js';
+import { beginChunk, computeChunk, landChunk, type ChunkWork } from './study-handlers.js';
+import { reconcileStudies, type ReconcileOutcome } from './reconcile.js';
 
 export interface RunnerOptions {
   databaseUrl: string;
@@ -37,6 +42,10 @@ export interface RunnerOptions {
   maintenanceIntervalSeconds: number;
   /** Time limit of one study chunk on a thread. */
   chunkTimeLimitMs: number;
+  /** Reconciliation of running studies with the queue (reconcile.ts): how often, the chunk jobs' expiry, and the stall bound. */
+  reconcileSeconds: number;
+  chunkExpireSeconds: number;
+  stallSeconds: number;
   /** Start the threads at once (worker processes) rather than at the first job (a worker inside the server). */
   warm?: boolean;
   logger?: { info(o: object, m: string): void; warn(o: object, m: string): void };
@@ -47,7 +56,10 @@ export interface RunnerContext {
   db: Database;
   boss: PgBoss;
   queue: JobQueue;
+  /** Threads of the solve lanes. */
   pool: ComputePool;
+  /** Threads of the study lanes (one per lane). */
+  studyPool: ComputePool;
   workerName: string;
   options: RunnerOptions;
   /** An AbortSignal that fires when `cancel:<key>` is notified (until `release`). */
@@ -66,12 +78,15 @@ export class QueueRunner {
   readonly stats: RunnerStats = { jobs: 0, failures: 0 };
   private readonly queue: JobQueue;
   private readonly pool: ComputePool;
+  private readonly studyPool: ComputePool;
   private listener: pg.Client | undefined;
   private stopping = false;
   private readonly lanes: Promise<void>[] = [];
   private readonly wakers = new Set<() => void>();
   private readonly cancels = new Map<string, Set<AbortController>>();
   private ctx!: RunnerContext;
+  private reconcileTimer: NodeJS.Timeout | undefined;
+  private reconciling: Promise<unknown> = Promise.resolve();
 
   constructor(
     private readonly db: Database,
@@ -79,7 +94,8 @@ export class QueueRunner {
     private readonly handlers: Partial<Record<string, QueueHandler>>,
   ) {
     this.queue = new JobQueue(db.pool, { supervise: true, maintenanceIntervalSeconds: o.maintenanceIntervalSeconds });
-    this.pool = createComputePool({ threads: o.solveSlots + o.studySlots, maxQueue: 1024, warm: o.warm ?? true });
+    this.pool = createComputePool({ threads: o.solveSlots, maxQueue: 1024, warm: o.warm ?? true });
+    this.studyPool = createComputePool({ threads: o.studySlots, maxQueue: 1024, keepThreads: o.warm ?? true });
   }
 
   async start(): Promise<void> {
@@ -89,28 +105,53 @@ export class QueueRunner {
       boss,
       queue: this.queue,
       pool: this.pool,
+      studyPool: this.studyPool,
       workerName: this.workerName,
       options: this.o,
       watchCancel: (key) => this.watchCancel(key),
     };
     await this.listen();
+    // Each study thread solves a small built-in study first: its first real chunk then runs compiled code.
+    if (this.o.warm ?? true) {
+      const t0 = performance.now();
+      await Promise.all(Array.from({ length: this.o.studySlots }, () => this.studyPool.run('study-warm', null, { timeLimitMs: 60_000 }).catch(() => undefined)));
+      this.o.logger?.info({ ms: Math.round(performance.now() - t0) }, 'study threads warmed up');
+    }
     for (let i = 0; i < this.o.solveSlots; i++) this.lanes.push(this.lane([QUEUES.solve, QUEUES.lost]));
-    for (let i = 0; i < this.o.studySlots; i++) this.lanes.push(this.lane([QUEUES.studyCombine, QUEUES.studyChunk]));
+    for (let i = 0; i < this.o.studySlots; i++) this.lanes.push(this.studyLane());
+    this.reconcileTimer = setInterval(() => {
+      this.reconciling = this.reconcile();
+    }, this.o.reconcileSeconds * 1000);
+    this.reconcileTimer.unref();
+  }
+
+  /** One reconciliation pass (reconcile.ts); errors are logged, the next pass tries again. */
+  async reconcile(): Promise<ReconcileOutcome | undefined> {
+    try {
+      const r = await reconcileStudies(this.ctx, { chunkExpireSeconds: this.o.chunkExpireSeconds, stallSeconds: this.o.stallSeconds });
+      if (r.requeuedChunks || r.resentCombines || r.failedStudies) this.o.logger?.warn({ ...r }, 'study reconciliation: chunks had left the queue undone');
+      return r;
+    } catch (err) {
+      this.o.logger?.warn({ err }, 'study reconciliation failed; next pass retries');
+      return undefined;
+    }
   }
 
   /** Stops taking jobs, lets the running ones finish (or abandons them after `graceMs`), and closes. */
   async stop(graceMs = 30_000): Promise<void> {
     if (this.stopping) return;
     this.stopping = true;
+    clearInterval(this.reconcileTimer);
     for (const w of this.wakers) w();
     let timer: NodeJS.Timeout | undefined;
-    await Promise.race([Promise.all(this.lanes), new Promise((r) => (timer = setTimeout(r, graceMs)))]);
+    await Promise.race([Promise.all([...this.lanes, this.reconciling]), new Promise((r) => (timer = setTimeout(r, graceMs)))]);
     clearTimeout(timer);
     const l = this.listener;
     this.listener = undefined;
     await l?.end().catch(() => undefined);
     await this.queue.stop();
     await this.pool.close();
+    await this.studyPool.close();
   }
 
   private async lane(names: string[]): Promise<void> {
@@ -134,6 +175,96 @@ export class QueueRunner {
       }
       if (!worked && !this.stopping) await this.idle();
     }
+  }
+
+  /** The first job waiting on `names`, in that order of precedence. */
+  private async fetchFirst(names: string[]): Promise<{ name: string; job: PgBoss.JobWithMetadata<QueueJobData> } | undefined> {
+    for (const name of names) {
+      if (this.stopping) return undefined;
+      try {
+        const [job] = await this.ctx.boss.fetch<QueueJobData>(name, { batchSize: 1, includeMetadata: true });
+        if (job) return { name, job };
+      } catch (err) {
+        this.o.logger?.warn({ err, queue: name }, 'could not fetch from the queue');
+      }
+    }
+    return undefined;
+  }
+
+  /**
+   * A study lane: combine jobs first, then chunks. A chunk runs in three
+   * phases (study-handlers.ts): check, compute on the lane's thread, land.
+   * While a chunk computes, the lane takes and checks the next job; the
+   * computed chunk lands while the next one computes (one landing at a time),
+   * so the thread does not wait for the database between chunks. A job taken
+   * ahead is run even when the worker is stopping (it would otherwise wait
+   * for its expiry).
+   */
+  private async studyLane(): Promise<void> {
+    const names = [QUEUES.studyCombine, QUEUES.studyChunk];
+    let ahead: Promise<{ name: string; job: PgBoss.JobWithMetadata<QueueJobData> } | undefined> | undefined;
+    let landing: Promise<void> = Promise.resolve();
+    while (!this.stopping || ahead) {
+      const next = await (ahead ?? this.fetchFirst(names));
+      ahead = undefined;
+      if (!next) {
+        await landing;
+        if (!this.stopping) await this.idle();
+        continue;
+      }
+      const { name, job } = next;
+      if (name !== QUEUES.studyChunk) {
+        await landing;
+        const handler = this.handlers[name];
+        if (handler) await this.runOne(name, handler, job);
+        continue;
+      }
+      this.stats.jobs++;
+      let work: ChunkWork | null;
+      try {
+        work = await beginChunk(this.ctx, job);
+      } catch (err) {
+        await this.failJob(name, job, err);
+        continue;
+      }
+      if (!work) {
+        await this.completeJob(name, job);
+        continue;
+      }
+      const computing = computeChunk(this.ctx, work);
+      // Take the next job while this one computes (the catch keeps an early rejection from going unhandled).
+      if (!this.stopping) ahead = this.fetchFirst(names);
+      let done: Awaited<ReturnType<typeof computeChunk>>;
+      try {
+        done = await computing;
+      } catch (err) {
+        await this.failJob(name, job, err);
+        continue;
+      }
+      await landing;
+      const w = work;
+      landing = (done ? landChunk(this.ctx, w, done.chunk, done.computeMs) : Promise.resolve()).then(
+        () => this.completeJob(name, job),
+        (err: unknown) => this.failJob(name, job, err),
+      );
+    }
+    await landing;
+  }
+
+  private async completeJob(name: string, job: PgBoss.JobWithMetadata<QueueJobData>): Promise<void> {
+    try {
+      await this.ctx.boss.complete(name, job.id);
+    } catch (err) {
+      // Not told: the job expires and runs again, and its landed chunk is recognised (study_chunks key).
+      this.o.logger?.warn({ err, queue: name, job: job.id }, 'could not mark the queue job done');
+    }
+  }
+
+  private async failJob(name: string, job: PgBoss.JobWithMetadata<QueueJobData>, err: unknown): Promise<void> {
+    this.stats.failures++;
+    this.o.logger?.warn({ err, queue: name, job: job.id }, 'queue job failed; pg-boss retries it');
+    const b = toErrorBody(err);
+    await this.ctx.boss.fail(name, job.id, { code: b.code, message: b.message }).catch(() => undefined);
   }
 
   private async runOne(name: string, handler: QueueHandler, job: PgBoss.JobWithMetadata<QueueJobData>): Promise<void> {

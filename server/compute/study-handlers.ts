@@ -12,6 +12,7 @@ import type { StudyChunkResult, StudyResult } from '../../shared/study/index.js'
 import { toErrorBody } from '../http/errors.js';
 import { cancelStudyChunks } from '../services/studies.js';
 import { QUEUES, bossDb, inTransaction, rollback, type QueueJobData } from './queue.js';
+import type PgBoss from 'pg-boss';
 import type { QueueHandler, RunnerContext } from './runner.js';
 
 interface StudyRowLite {
@@ -23,6 +24,23 @@ interface StudyRowLite {
 async function loadStudy(ctx: RunnerContext, studyId: string): Promise<StudyRowLite | undefined> {
   const r = await ctx.db.pool.query<StudyRowLite>('SELECT status, spec, total_chunks FROM studies WHERE id = $1', [studyId]);
   return r.rows[0];
+}
+
+/**
+ * Study specs by study id, kept by this process: a spec never changes once
+ * the study is stored, so a worker reads it once per study rather than once
+ * per chunk (a spec carries whole corner and vehicle documents).
+ */
+const specs = new Map<string, unknown>();
+async function studySpec(ctx: RunnerContext, studyId: string): Promise<unknown> {
+  const hit = specs.get(studyId);
+  if (hit !== undefined) return hit;
+  const r = await ctx.db.pool.query<{ spec: unknown }>('SELECT spec FROM studies WHERE id = $1', [studyId]);
+  const spec = r.rows[0]?.spec;
+  if (spec === undefined) return undefined;
+  if (specs.size >= 16) specs.delete(specs.keys().next().value!);
+  specs.set(studyId, spec);
+  return spec;
 }
 
 /** An engine error fails the study (retrying cannot help); the rest of its chunks are cancelled. */
@@ -37,43 +55,84 @@ async function failStudy(ctx: RunnerContext, studyId: string, totalChunks: numbe
 
 const isEngineError = (err: unknown) => err instanceof InputError || err instanceof SolveError;
 
-export const studyChunkHandler: QueueHandler = async (ctx, job) => {
-  const data = job.data as Extract<QueueJobData, { kind: 'study-chunk' }>;
-  const { studyId, chunkIndex } = data;
-  const study = await loadStudy(ctx, studyId);
-  if (!study || (study.status !== 'queued' && study.status !== 'running')) return;
-  const done = await ctx.db.pool.query('SELECT 1 FROM study_chunks WHERE study_id = $1 AND chunk_index = $2', [studyId, chunkIndex]);
-  if (done.rowCount) return; // Landed by an earlier attempt that died before telling the queue.
-  await ctx.db.pool.query(`UPDATE studies SET status = 'running', started_at = coalesce(started_at, now()) WHERE id = $1 AND status = 'queued'`, [studyId]);
+/** A chunk job a lane has taken, checked and ready to compute. */
+export interface ChunkWork {
+  studyId: string;
+  chunkIndex: number;
+  totalChunks: number;
+  spec: unknown;
+}
 
-  const watch = ctx.watchCancel(studyId);
-  let chunk: StudyChunkResult;
+/**
+ * Phase 1 of a chunk, one query: is the study still active and the chunk not
+ * landed yet (by an earlier attempt that died before telling the queue)?
+ * Marks the study running with its first chunk. Null: nothing to do.
+ */
+export async function beginChunk(ctx: RunnerContext, job: PgBoss.JobWithMetadata<QueueJobData>): Promise<ChunkWork | null> {
+  const { studyId, chunkIndex } = job.data as Extract<QueueJobData, { kind: 'study-chunk' }>;
+  const r = await ctx.db.pool.query<{ status: string; total_chunks: number; landed: boolean }>(
+    `WITH started AS (
+       UPDATE studies SET status = 'running', started_at = coalesce(started_at, now()) WHERE id = $1 AND status = 'queued' RETURNING id
+     )
+     SELECT s.status, s.total_chunks,
+            EXISTS (SELECT 1 FROM study_chunks c WHERE c.study_id = $1 AND c.chunk_index = $2) AS landed,
+            (SELECT count(*) FROM started) AS started
+       FROM studies s WHERE s.id = $1`,
+    [studyId, chunkIndex],
+  );
+  const s = r.rows[0];
+  if (!s || (s.status !== 'queued' && s.status !== 'running') || s.landed) return null;
+  const spec = await studySpec(ctx, studyId);
+  if (spec === undefined) return null;
+  return { studyId, chunkIndex, totalChunks: s.total_chunks, spec };
+}
+
+/**
+ * Phase 2: the chunk on a study thread. Null when there is nothing to land:
+ * cancelled meanwhile, or an engine error that failed the study. Any other
+ * error is thrown (the queue retries the chunk).
+ */
+export async function computeChunk(ctx: RunnerContext, w: ChunkWork): Promise<{ chunk: StudyChunkResult; computeMs: number } | null> {
+  const watch = ctx.watchCancel(w.studyId);
   const t0 = performance.now();
   try {
-    chunk = (await ctx.pool.run('study-chunk', { studyId, spec: study.spec, chunkIndex }, { timeLimitMs: ctx.options.chunkTimeLimitMs, signal: watch.signal })) as StudyChunkResult;
+    const chunk = (await ctx.studyPool.run('study-chunk', { studyId: w.studyId, spec: w.spec, chunkIndex: w.chunkIndex }, {
+      timeLimitMs: ctx.options.chunkTimeLimitMs,
+      signal: watch.signal,
+    })) as StudyChunkResult;
+    return { chunk, computeMs: performance.now() - t0 };
   } catch (err) {
-    if (watch.signal.aborted) return; // Cancelled or failed meanwhile.
-    if (isEngineError(err)) return failStudy(ctx, studyId, study.total_chunks, err);
+    if (watch.signal.aborted) return null; // Cancelled or failed meanwhile.
+    if (isEngineError(err)) {
+      await failStudy(ctx, w.studyId, w.totalChunks, err);
+      return null;
+    }
     throw err; // The queue retries it.
   } finally {
     watch.release();
   }
-  const computeMs = performance.now() - t0;
+}
 
+/**
+ * Phase 3, one transaction: the study_chunks row (its (study, chunk) key
+ * makes a retried or duplicated chunk land once), the study's counters and,
+ * with the last chunk, the `study-combine` job.
+ */
+export async function landChunk(ctx: RunnerContext, w: ChunkWork, chunk: StudyChunkResult, computeMs: number): Promise<void> {
+  const { studyId, chunkIndex } = w;
   await inTransaction(ctx.db.pool, async (client) => {
-    const ins = await client.query(
-      `INSERT INTO study_chunks (study_id, chunk_index, samples, poses, result, compute_ms, worker)
-       VALUES ($1, $2, $3, $4, $5, $6, $7) ON CONFLICT DO NOTHING`,
+    const r = await client.query<{ done_chunks: number; total_chunks: number }>(
+      `WITH ins AS (
+         INSERT INTO study_chunks (study_id, chunk_index, samples, poses, result, compute_ms, worker)
+         VALUES ($1, $2, $3, $4, $5, $6, $7) ON CONFLICT DO NOTHING RETURNING 1
+       )
+       UPDATE studies SET done_chunks = done_chunks + 1, done_samples = done_samples + $3, compute_ms = compute_ms + $6, poses_solved = poses_solved + $4
+        WHERE id = $1 AND status IN ('queued', 'running') AND EXISTS (SELECT 1 FROM ins)
+        RETURNING done_chunks, total_chunks`,
       [studyId, chunkIndex, chunk.samples, chunk.poses, chunk, computeMs, ctx.workerName],
     );
-    if (ins.rowCount === 0) return rollback;
-    const up = await client.query<{ done_chunks: number; total_chunks: number }>(
-      `UPDATE studies SET done_chunks = done_chunks + 1, done_samples = done_samples + $2, compute_ms = compute_ms + $3, poses_solved = poses_solved + $4
-        WHERE id = $1 AND status IN ('queued', 'running') RETURNING done_chunks, total_chunks`,
-      [studyId, chunk.samples, computeMs, chunk.poses],
-    );
-    const s = up.rows[0];
-    // Cancelled (or failed) while this chunk ran: nothing of it is kept.
+    const s = r.rows[0];
+    // Landed before (a duplicate), or cancelled (or failed) while this chunk ran: nothing of it is kept.
     if (!s) return rollback;
     if (s.done_chunks === s.total_chunks) {
       const combine: QueueJobData = { kind: 'study-combine', studyId };
@@ -82,6 +141,14 @@ export const studyChunkHandler: QueueHandler = async (ctx, job) => {
     }
     return true;
   });
+}
+
+/** The three phases in a row (the study lane overlaps them with the next chunk: runner.ts). */
+export const studyChunkHandler: QueueHandler = async (ctx, job) => {
+  const w = await beginChunk(ctx, job);
+  if (!w) return;
+  const done = await computeChunk(ctx, w);
+  if (done) await landChunk(ctx, w, done.chunk, done.computeMs);
 };
 
 export const studyCombineHandler: QueueHandler = async (ctx, job) => {
@@ -91,7 +158,7 @@ export const studyCombineHandler: QueueHandler = async (ctx, job) => {
   const rows = await ctx.db.pool.query<{ result: StudyChunkResult }>('SELECT result FROM study_chunks WHERE study_id = $1 ORDER BY chunk_index', [studyId]);
   let result: StudyResult;
   try {
-    result = (await ctx.pool.run(
+    result = (await ctx.studyPool.run(
       'study-combine',
       { studyId, spec: study.spec, chunks: rows.rows.map((r) => r.result) },
       { timeLimitMs: Math.max(ctx.options.chunkTimeLimitMs, 300_000) },

@@ -3,9 +3,14 @@ import { InputError, SolveError, type FieldIssue, type SolveErrorCode } from '..
 
 export const COMPUTE_KINDS = ['corner-sweep', 'axle-roll', 'corner-compliance', 'balance', 'ride', 'solve', 'rig-compare'] as const;
 export type ComputeKind = (typeof COMPUTE_KINDS)[number];
-/** Also run on worker threads, by queue workers only (no /api/compute route): one study chunk, and a study's combination. */
-export const STUDY_KINDS = ['study-chunk', 'study-combine'] as const;
-export type TaskKind = ComputeKind | (typeof STUDY_KINDS)[number];
+/**
+ * Also run on worker threads, by queue workers only (no /api/compute route): one study chunk, a study's
+ * combination, and the warm-up a worker runs on each study thread at start (a small built-in study).
+ */
+export const STUDY_KINDS = ['study-chunk', 'study-combine', 'study-warm'] as const;
+/** Run for the review gates only (no /api/compute route): both corners' cautions of a configuration. */
+export const REVIEW_KINDS = ['configuration-cautions'] as const;
+export type TaskKind = ComputeKind | (typeof STUDY_KINDS)[number] | (typeof REVIEW_KINDS)[number];
 
 export interface ComputeTask {
   kind: TaskKind;

@@ -10,8 +10,11 @@ import { computeBalance } from '../../shared/balance/api.js';
 import { computeCornerCompliance } from '../../shared/compliance/api.js';
 import { computeRide } from '../../shared/ride/api.js';
 import { computeSolve } from '../../shared/intent/api.js';
-import { computeRigComparison } from '../../shared/intent/rig-compare.js';
+import { computeRigComparison } from '../../shared/rig/compare.js';
+import { computeConfigurationCautions } from '../../shared/cautions/configuration-cautions.js';
 import { combineStudyChunks, runStudyChunk, type StudyChunkResult } from '../../shared/study/index.js';
+import { exampleCorners } from '../../shared/kinematics/index.js';
+import { exampleVehicles } from '../../shared/balance/index.js';
 
 type Engine = (input: unknown, onProgress?: (fraction: number, message: string) => void) => unknown;
 
@@ -30,6 +33,31 @@ function studySpec(studyId: string, spec: unknown): unknown {
   return s;
 }
 
+/**
+ * The warm-up a queue worker runs once on each study thread at start: a small built-in tolerance study
+ * (the example double-wishbone corner, both sides, three rack positions, roll sweep, set-up), so the
+ * engine's code is compiled before the first real chunk arrives. Returns the poses it solved.
+ */
+function warmUp(): number {
+  const spec = {
+    kind: 'tolerance',
+    axle: 'front',
+    corner: exampleCorners.fsFrontWishbone,
+    vehicle: exampleVehicles.tur26Ember,
+    trackProfile: 'smooth-circuit',
+    samples: 400,
+    chunkSamples: 400,
+    seed: 1,
+    tolerances: [
+      { point: 'tieRodInner', axis: 'sphere', plusMinusMm: 0.5, distribution: 'normal' },
+      { point: 'upperOuter', axis: 'z', plusMinusMm: 0.5, distribution: 'uniform' },
+    ],
+    setup: { camberShimMm: 0.5, toeAdjusterStepMm: 0.375 },
+    analysis: { rackMm: [-10, 0, 10], rollDeg: 2 },
+  };
+  return runStudyChunk(spec, 0).poses;
+}
+
 const ENGINES: Record<TaskKind, Engine> = {
   'corner-sweep': computeCornerSweep,
   'axle-roll': computeAxleRoll,
@@ -38,6 +66,7 @@ const ENGINES: Record<TaskKind, Engine> = {
   ride: computeRide,
   solve: computeSolve,
   'rig-compare': computeRigComparison,
+  'configuration-cautions': computeConfigurationCautions,
   'study-chunk': (input) => {
     const i = input as { studyId: string; spec: unknown; chunkIndex: number };
     return runStudyChunk(studySpec(i.studyId, i.spec), i.chunkIndex);
@@ -46,6 +75,7 @@ const ENGINES: Record<TaskKind, Engine> = {
     const i = input as { studyId: string; spec: unknown; chunks: StudyChunkResult[] };
     return combineStudyChunks(studySpec(i.studyId, i.spec), i.chunks);
   },
+  'study-warm': () => warmUp(),
 };
 
 export default async function runComputeTask(task: ComputeTask): Promise<WorkerOutcome> {

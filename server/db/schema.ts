@@ -20,6 +20,16 @@ import {
   primaryKey,
   check,
 } from 'drizzle-orm/pg-core';
+import { AXLE_NAMES } from '../../shared/schema/axle.js';
+import type { ConfigurationResults, FrozenInputs } from '../../shared/api/configurations.js';
+import type { TrackProfileId } from '../../shared/tracks/profiles.js';
+import type { RigMapping, RigPoint } from '../../shared/io/rig-measurement.js';
+import type { Role } from '../permissions.js';
+import type { Board } from '../../shared/api/programmes.js';
+import type { StudyError, StudyResolvedTarget } from '../../shared/api/studies.js';
+import type { StudyRequest, StudySpec } from '../../shared/study/schema.js';
+import type { StudyChunkResult, StudyResult } from '../../shared/study/run.js';
+import type { ErrorBody } from '../http/errors.js';
 
 const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
 
@@ -62,7 +72,7 @@ export const memberships = pgTable(
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
     /** A set of roles: owner, engineer, designer, reviewer, viewer. */
-    roles: text('roles').array().notNull(),
+    roles: text('roles').array().$type<Role[]>().notNull(),
     createdAt: createdAt(),
   },
   (t) => [
@@ -110,8 +120,6 @@ export const vehicleRevisions = pgTable(
   (t) => [primaryKey({ columns: [t.vehicleId, t.revision] })],
 );
 
-export const AXLES = ['front', 'rear'] as const;
-export type Axle = (typeof AXLES)[number];
 export const DESIGN_STATUSES = ['draft', 'proposed', 'accepted', 'approved', 'changes_requested'] as const;
 export type DesignStatus = (typeof DESIGN_STATUSES)[number];
 
@@ -122,7 +130,7 @@ export const axleDesigns = pgTable(
     vehicleId: uuid('vehicle_id')
       .notNull()
       .references(() => vehicles.id, { onDelete: 'cascade' }),
-    axle: text('axle', { enum: AXLES }).notNull(),
+    axle: text('axle', { enum: AXLE_NAMES }).notNull(),
     name: text('name').notNull(),
     status: text('status', { enum: DESIGN_STATUSES }).notNull().default('draft'),
     archived: boolean('archived').notNull().default(false),
@@ -175,7 +183,7 @@ export const axleDesignProposals = pgTable(
     corner: jsonb('corner').notNull(),
     message: text('message'),
     /** What produced it (e.g. the intent and the solve summary), kept for the reviewer. */
-    origin: jsonb('origin'),
+    origin: jsonb('origin').$type<Record<string, unknown>>(),
     status: text('status', { enum: PROPOSAL_STATUSES }).notNull().default('open'),
     authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
@@ -235,8 +243,8 @@ export const configurations = pgTable(
       .notNull()
       .references(() => axleDesigns.id),
     rearDesignRevision: integer('rear_design_revision').notNull(),
-    /** Track profile id of the intent engine (shared/intent/profiles.ts). */
-    trackProfile: text('track_profile').notNull(),
+    /** Track profile id of the intent engine (shared/tracks/profiles.ts). */
+    trackProfile: text('track_profile').$type<TrackProfileId>().notNull(),
     archived: boolean('archived').notNull().default(false),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
     updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
@@ -260,7 +268,7 @@ export const configurationRevisions = pgTable(
     frontDesignRevision: integer('front_design_revision').notNull(),
     rearDesignId: uuid('rear_design_id').notNull(),
     rearDesignRevision: integer('rear_design_revision').notNull(),
-    trackProfile: text('track_profile').notNull(),
+    trackProfile: text('track_profile').$type<TrackProfileId>().notNull(),
     message: text('message'),
     authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
@@ -299,8 +307,8 @@ export const configurationApprovals = pgTable(
       .references(() => configurations.id, { onDelete: 'cascade' }),
     revision: integer('revision').notNull(),
     engineVersion: text('engine_version').notNull(),
-    inputs: jsonb('inputs').notNull(),
-    results: jsonb('results').notNull(),
+    inputs: jsonb('inputs').$type<FrozenInputs>().notNull(),
+    results: jsonb('results').$type<ConfigurationResults>().notNull(),
     message: text('message'),
     approvedBy: uuid('approved_by').references(() => users.id, { onDelete: 'set null' }),
     approvedAt: timestamp('approved_at', { withTimezone: true }).notNull().defaultNow(),
@@ -387,7 +395,7 @@ export const teamInvitations = pgTable(
       .references(() => teams.id, { onDelete: 'cascade' }),
     /** Stored lower-cased. */
     email: text('email').notNull(),
-    roles: text('roles').array().notNull(),
+    roles: text('roles').array().$type<Role[]>().notNull(),
     invitedBy: uuid('invited_by').references(() => users.id, { onDelete: 'set null' }),
     expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
     acceptedAt: timestamp('accepted_at', { withTimezone: true }),
@@ -470,7 +478,7 @@ export const programmes = pgTable('programmes', {
   instructorId: uuid('instructor_id')
     .notNull()
     .references(() => users.id, { onDelete: 'cascade' }),
-  trackProfile: text('track_profile').notNull(),
+  trackProfile: text('track_profile').$type<TrackProfileId>().notNull(),
   createdAt: createdAt(),
 });
 
@@ -503,7 +511,7 @@ export const programmeSnapshots = pgTable(
       .notNull()
       .references(() => programmes.id, { onDelete: 'cascade' }),
     label: text('label'),
-    board: jsonb('board').notNull(),
+    board: jsonb('board').$type<Board>().notNull(),
     takenBy: uuid('taken_by').references(() => users.id, { onDelete: 'set null' }),
     takenAt: timestamp('taken_at', { withTimezone: true }).notNull().defaultNow(),
   },
@@ -535,7 +543,7 @@ export const rigMeasurements = pgTable(
     attachedTo: text('attached_to', { enum: RIG_ATTACHMENTS }).notNull(),
     configurationId: uuid('configuration_id').references(() => configurations.id, { onDelete: 'cascade' }),
     configurationRevision: integer('configuration_revision'),
-    axle: text('axle', { enum: AXLES }).notNull(),
+    axle: text('axle', { enum: AXLE_NAMES }).notNull(),
     designId: uuid('design_id')
       .notNull()
       .references(() => axleDesigns.id, { onDelete: 'cascade' }),
@@ -544,9 +552,9 @@ export const rigMeasurements = pgTable(
     rackMm: doublePrecision('rack_mm').notNull().default(0),
     basis: text('basis', { enum: RIG_BASES }).notNull().default('change'),
     /** The mapping the file was read with (shared/io/rig-measurement.ts `RigMapping`). */
-    mapping: jsonb('mapping').notNull(),
+    mapping: jsonb('mapping').$type<RigMapping>().notNull(),
     /** Parsed points: `{ travelMm, toeDeg, camberDeg, line }[]`, mm and deg, Rollwise signs. */
-    points: jsonb('points').notNull(),
+    points: jsonb('points').$type<RigPoint[]>().notNull(),
     pointCount: integer('point_count').notNull(),
     hasCamber: boolean('has_camber').notNull(),
     note: text('note'),
@@ -599,7 +607,7 @@ export const computeJobs = pgTable(
     /** The engine's answer as JSON text (kept as the worker wrote it). */
     resultJson: text('result_json'),
     /** `{ status, code, message, details? }`, as the direct call would have answered. */
-    error: jsonb('error'),
+    error: jsonb('error').$type<ErrorBody>(),
     goneReason: text('gone_reason', { enum: ['expired', 'lost'] }),
     createdAt: createdAt(),
     startedAt: timestamp('started_at', { withTimezone: true }),
@@ -629,10 +637,10 @@ export const studies = pgTable(
     label: text('label').notNull(),
     status: text('status', { enum: STUDY_STATUSES }).notNull().default('queued'),
     /** What the user asked for (studyRequestSchema), kept for display and re-runs. */
-    request: jsonb('request').notNull(),
-    /** `{ axleDesignId, revision }` or `{ configurationId, revision }`, revision resolved. */
-    target: jsonb('target').notNull(),
-    spec: jsonb('spec').notNull(),
+    request: jsonb('request').$type<StudyRequest>().notNull(),
+    /** The target with its revision resolved (shared/api/studies.ts). */
+    target: jsonb('target').$type<StudyResolvedTarget>().notNull(),
+    spec: jsonb('spec').$type<StudySpec>().notNull(),
     seed: integer('seed').notNull(),
     totalChunks: integer('total_chunks').notNull(),
     totalSamples: integer('total_samples').notNull(),
@@ -641,8 +649,8 @@ export const studies = pgTable(
     /** Summed compute time of the done chunks (for throughput figures). */
     computeMs: doublePrecision('compute_ms').notNull().default(0),
     posesSolved: doublePrecision('poses_solved').notNull().default(0),
-    result: jsonb('result'),
-    error: jsonb('error'),
+    result: jsonb('result').$type<StudyResult>(),
+    error: jsonb('error').$type<StudyError>(),
     createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
     startedAt: timestamp('started_at', { withTimezone: true }),
@@ -655,6 +663,30 @@ export const studies = pgTable(
   ],
 );
 
+/**
+ * A completed study attached to a configuration's review record (same team):
+ * listed with its key figures on the configuration and, the latest per team,
+ * on the programme board. Detaching deletes the row.
+ */
+export const studyAttachments = pgTable(
+  'study_attachments',
+  {
+    studyId: uuid('study_id')
+      .notNull()
+      .references(() => studies.id, { onDelete: 'cascade' }),
+    configurationId: uuid('configuration_id')
+      .notNull()
+      .references(() => configurations.id, { onDelete: 'cascade' }),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    note: text('note').notNull().default(''),
+    attachedBy: uuid('attached_by').references(() => users.id, { onDelete: 'set null' }),
+    attachedAt: timestamp('attached_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.studyId, t.configurationId] }), index('study_attachments_configuration_idx').on(t.configurationId, t.attachedAt), index('study_attachments_team_idx').on(t.teamId, t.attachedAt)],
+);
+
 /** One finished chunk of a study; the key makes a retried chunk land once. */
 export const studyChunks = pgTable(
   'study_chunks',
@@ -665,12 +697,65 @@ export const studyChunks = pgTable(
     chunkIndex: integer('chunk_index').notNull(),
     samples: integer('samples').notNull(),
     poses: doublePrecision('poses').notNull(),
-    /** shared/study StudyChunkResult. */
-    result: jsonb('result').notNull(),
+    result: jsonb('result').$type<StudyChunkResult>().notNull(),
     computeMs: doublePrecision('compute_ms').notNull(),
     /** Which worker process computed it (host:pid), for operations. */
     worker: text('worker').notNull(),
     finishedAt: timestamp('finished_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [primaryKey({ columns: [t.studyId, t.chunkIndex] })],
+);
+
+/**
+ * A reviewer's written acknowledgement of one Critical caution, given with the
+ * sign-off it allowed (the transition to approved). The caution is kept as it
+ * read then (message, value, threshold), so the record says what was accepted
+ * even after the engine or the thresholds change. Never updated.
+ */
+export const cautionAcknowledgements = pgTable(
+  'caution_acknowledgements',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    configurationId: uuid('configuration_id')
+      .notNull()
+      .references(() => configurations.id, { onDelete: 'cascade' }),
+    revision: integer('revision').notNull(),
+    transitionId: uuid('transition_id')
+      .notNull()
+      .references(() => configurationTransitions.id, { onDelete: 'cascade' }),
+    axle: text('axle', { enum: AXLE_NAMES }).notNull(),
+    code: text('code').notNull(),
+    message: text('message').notNull(),
+    value: doublePrecision('value'),
+    threshold: doublePrecision('threshold'),
+    unit: text('unit'),
+    reason: text('reason').notNull(),
+    acknowledgedBy: uuid('acknowledged_by').references(() => users.id, { onDelete: 'set null' }),
+    acknowledgedAt: timestamp('acknowledged_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('caution_acknowledgements_configuration_idx').on(t.configurationId, t.revision)],
+);
+
+/**
+ * A recorded waiver of the rig evidence for one axle, given with the move to
+ * validated that it allowed: the reason says why the configuration counts as
+ * validated without a measurement within the team's tolerance. Never updated.
+ */
+export const rigEvidenceWaivers = pgTable(
+  'rig_evidence_waivers',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    configurationId: uuid('configuration_id')
+      .notNull()
+      .references(() => configurations.id, { onDelete: 'cascade' }),
+    revision: integer('revision').notNull(),
+    transitionId: uuid('transition_id')
+      .notNull()
+      .references(() => configurationTransitions.id, { onDelete: 'cascade' }),
+    axle: text('axle', { enum: AXLE_NAMES }).notNull(),
+    reason: text('reason').notNull(),
+    waivedBy: uuid('waived_by').references(() => users.id, { onDelete: 'set null' }),
+    waivedAt: timestamp('waived_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('rig_evidence_waivers_configuration_idx').on(t.configurationId, t.revision)],
 );

@@ -13,7 +13,7 @@ import { memberships, teams, users } from './schema.js';
 import { createComputePool } from '../compute/pool.js';
 import { Configurations } from '../services/configurations.js';
 import { Programmes } from '../services/programmes.js';
-import type { TrackProfileId } from '../../shared/intent/profiles.js';
+import type { TrackProfileId } from '../../shared/tracks/profiles.js';
 
 export const DEMO_PROGRAMME = {
   name: 'Winter roll-steer comparison',
@@ -48,8 +48,9 @@ export async function seedDemoProgramme(orm: Orm): Promise<void> {
       for (const t of DEMO_PROGRAMME.teams) {
         const [team] = await orm.select({ id: teams.id }).from(teams).where(eq(teams.slug, t.slug));
         if (!team) throw new Error(`seedDemoProgramme: demo team ${t.slug} is missing; run seedDemo first`);
-        const entry = (await programmes.get(instructor, programme.id)).teams.find((x) => x.teamId === team.id);
-        if (!entry) await programmes.inviteTeam(instructor, programme.id, t.slug);
+        const loaded = await programmes.load(instructor, programme.id);
+        const entry = (await programmes.get(loaded)).teams.find((x) => x.teamId === team.id);
+        if (!entry) await programmes.inviteTeam(loaded, t.slug);
         // Accept only a fresh invitation: an answer a demo user gave stays.
         if (t.accept && (!entry || entry.status === 'invited')) {
           const owners = await orm

@@ -8,18 +8,20 @@ import { randomBytes } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import { and, eq, inArray, sql } from 'drizzle-orm';
 import type { Orm } from './client.js';
-import { axleDesignRevisions, axleDesigns, configurations, memberships, teams, users, vehicleRevisions, vehicles, type Axle } from './schema.js';
+import { axleDesignRevisions, axleDesigns, configurations, memberships, teams, users, vehicleRevisions, vehicles } from './schema.js';
 import type { Role } from '../permissions.js';
 import type { ComputePool } from '../compute/pool.js';
 import { deserializeError, type TaskKind } from '../compute/tasks.js';
+import { ReviewGates } from '../services/review-gates.js';
 import runComputeTask from '../compute/worker.js';
 import { Configurations, type ReviewAction } from '../services/configurations.js';
 import { Accounts } from '../services/accounts.js';
 import { Invitations } from '../services/invitations.js';
-import type { TrackProfileId } from '../../shared/intent/profiles.js';
+import type { TrackProfileId } from '../../shared/tracks/profiles.js';
 import { exampleVehicles, type ExampleVehicleName } from '../../shared/balance/examples.js';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import type { Corner } from '../../shared/schema/corner.js';
+import type { AxleName } from '../../shared/schema/axle.js';
 
 export const DEMO_PASSWORD = 'demo-pass-2026';
 
@@ -47,7 +49,7 @@ function raiseSteeringInner(corner: Corner, dzMm: number): Corner {
 const C = exampleCorners;
 
 interface DemoDesign {
-  axle: Axle;
+  axle: AxleName;
   name: string;
   corner: Corner;
 }
@@ -61,7 +63,8 @@ interface DemoConfiguration {
   trackProfile: TrackProfileId;
   author: string;
   message: string;
-  steps: { action: ReviewAction; by: string; message?: string }[];
+  /** `acknowledge`: with a sign-off, the reason written against each Critical caution the gate asks about. */
+  steps: { action: ReviewAction; by: string; message?: string; acknowledge?: string }[];
   comments?: { by: string; body: string; resultRef?: string }[];
 }
 
@@ -112,7 +115,12 @@ export const DEMO_TEAMS: DemoTeam[] = [
         message: 'Baseline for the 2026 season',
         steps: [
           { action: 'submit', by: 'designer@tallowmere.example', message: 'Baseline as built' },
-          { action: 'approve', by: 'reviewer@tallowmere.example', message: 'Balance as intended for the smooth circuits' },
+          {
+            action: 'approve',
+            by: 'reviewer@tallowmere.example',
+            message: 'Balance as intended for the smooth circuits',
+            acknowledge: 'Reviewed at the chassis meeting: accepted for the smooth circuits, to be checked on the rig before release',
+          },
         ],
       },
       {
@@ -174,7 +182,12 @@ export const DEMO_TEAMS: DemoTeam[] = [
         message: 'Production baseline',
         steps: [
           { action: 'submit', by: 'owner@brackenfield.example' },
-          { action: 'approve', by: 'reviewer@brackenfield.example', message: 'Road baseline agreed' },
+          {
+            action: 'approve',
+            by: 'reviewer@brackenfield.example',
+            message: 'Road baseline agreed',
+            acknowledge: 'Reviewed at the chassis meeting: accepted for the road baseline, to be checked on the rig before release',
+          },
         ],
       },
     ],
@@ -293,7 +306,7 @@ async function seedConfigurations(tx: Orm, teamId: string, t: DemoTeam, userId: 
     const [vehicle] = await tx.select({ id: vehicles.id }).from(vehicles).where(and(eq(vehicles.teamId, teamId), eq(vehicles.name, c.vehicle)));
     if (!vehicle) throw new Error(`seed: vehicle ${c.vehicle} missing`);
     const designs = await tx.select({ id: axleDesigns.id, name: axleDesigns.name, axle: axleDesigns.axle }).from(axleDesigns).where(eq(axleDesigns.vehicleId, vehicle.id));
-    const design = (axle: Axle, name: string) => {
+    const design = (axle: AxleName, name: string) => {
       const d = designs.find((x) => x.axle === axle && x.name === name);
       if (!d) throw new Error(`seed: ${axle} design ${name} missing`);
       return d.id;
@@ -307,10 +320,12 @@ async function seedConfigurations(tx: Orm, teamId: string, t: DemoTeam, userId: 
       message: c.message,
     });
     for (const step of c.steps) {
-      await service.transition(teamId, created.id, { id: userId.get(step.by)!, roles: roles.get(step.by)! }, step.action, { message: step.message });
+      const critical = step.acknowledge ? (await new ReviewGates(tx, service, inProcessPool, 60_000).status(teamId, created)).critical : [];
+      const gate = { acknowledgements: critical.map((c) => ({ axle: c.axle, code: c.code, reason: step.acknowledge! })) };
+      await service.transition(teamId, created.id, { id: userId.get(step.by)!, roles: roles.get(step.by)! }, step.action, { message: step.message, gate });
     }
     for (const comment of c.comments ?? []) {
-      await service.addComment(teamId, created.id, userId.get(comment.by)!, { body: comment.body, resultRef: comment.resultRef });
+      await service.addComment(teamId, created, userId.get(comment.by)!, { body: comment.body, resultRef: comment.resultRef });
     }
   }
 }

@@ -10,7 +10,8 @@ import { and, eq } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { memberships, users } from '../db/schema.js';
 import { hasPermission, type Permission, type Role } from '../permissions.js';
-import { HttpError, notFound } from './errors.js';
+import { HttpError } from './errors.js';
+import { notFound } from '../../shared/errors.js';
 import { tokenAllows, tokenAllowsOutsideTeam } from './bearer.js';
 
 export interface SessionUser {
@@ -107,7 +108,7 @@ export function createAuthorizer(orm: Orm, instructorReads?: (userId: string, te
       if (!hasPermission(m.roles, permission)) {
         throw new HttpError(403, 'forbidden', `Your roles in this team do not allow this (needs ${permission})`, { permission });
       }
-      req.access = { teamId, roles: m.roles as Role[] };
+      req.access = { teamId, roles: m.roles };
       next();
     };
   }

@@ -5,8 +5,10 @@
  */
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError, type ZodType } from 'zod';
-import { InputError, SolveError, formatPath, type FieldIssue } from '../../shared/errors.js';
+import { DomainError, InputError, SolveError, formatPath, type DomainErrorKind, type FieldIssue } from '../../shared/errors.js';
+import type { ApiErrorBody } from '../../shared/api/common.js';
 
+/** For the HTTP layer itself (middleware: sessions, tokens, CSRF, uploads); services throw domain errors (shared/errors.ts). */
 export class HttpError extends Error {
   constructor(
     readonly status: number,
@@ -19,7 +21,18 @@ export class HttpError extends Error {
   }
 }
 
-export const notFound = (what = 'Resource') => new HttpError(404, 'not_found', `${what} not found`);
+
+/** The status of each kind of domain error (shared/errors.ts). */
+export const DOMAIN_STATUS: Readonly<Record<DomainErrorKind, number>> = {
+  invalid: 400,
+  unauthenticated: 401,
+  forbidden: 403,
+  not_found: 404,
+  conflict: 409,
+  gone: 410,
+  too_many: 429,
+  unavailable: 503,
+};
 
 /** Parses request input with a zod schema; failure is 400 listing every field. */
 export function validate<T>(schema: ZodType<T>, input: unknown, what = 'request'): T {
@@ -69,6 +82,7 @@ export interface ErrorBody {
 /** Maps any thrown value to status + body. */
 export function toErrorBody(err: unknown): ErrorBody {
   if (err instanceof HttpError) return { status: err.status, code: err.code, message: err.message, details: err.details };
+  if (err instanceof DomainError) return { status: DOMAIN_STATUS[err.kind], code: err.code, message: err.message, details: err.details };
   if (err instanceof ZodError) {
     const h = invalidInput(err, 'request');
     return { status: 400, code: h.code, message: h.message, details: h.details };
@@ -97,9 +111,8 @@ export function toErrorBody(err: unknown): ErrorBody {
 }
 
 export function sendError(res: Parameters<RequestHandler>[1], body: ErrorBody): void {
-  const error: Record<string, unknown> = { code: body.code, message: body.message };
-  if (body.details !== undefined) error['details'] = body.details;
-  res.status(body.status).json({ error });
+  const answer: ApiErrorBody = { error: { code: body.code, message: body.message, ...(body.details !== undefined ? { details: body.details } : {}) } };
+  res.status(body.status).json(answer);
 }
 
 export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {

@@ -9,7 +9,9 @@ import { validate } from '../http/errors.js';
 import { currentAccess, type Authorizer } from '../http/authorize.js';
 import { checkTimeZone, type Activity, type ActivityQuery } from '../services/activity.js';
 import type { AxleDesigns } from '../services/axle-designs.js';
-import { idParam } from './vehicles.js';
+import { loadParam, loaded } from './loaders.js';
+import { reply } from '../http/reply.js';
+import type { ActivityEntry } from '../../shared/api/teams.js';
 
 const querySchema = z
   .object({
@@ -24,6 +26,7 @@ const querySchema = z
 
 export function activityRouter(activity: Activity, designs: AxleDesigns, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
+  r.param('designId', loadParam('design', 'Axle design', (req, id) => designs.get(currentAccess(req).teamId, id)));
 
   async function answer(res: Response, teamId: string, raw: unknown, designId?: string, fileName = 'activity') {
     const q = validate(querySchema, raw, 'query');
@@ -35,7 +38,7 @@ export function activityRouter(activity: Activity, designs: AxleDesigns, auth: A
       res.send(await activity.csv(teamId, { ...query, timeZone }));
       return;
     }
-    res.json(await activity.list(teamId, query));
+    reply<ActivityEntry[]>(res, await activity.list(teamId, query));
   }
 
   r.get('/activity', auth.requirePermission('team:read'), async (req, res) => {
@@ -44,7 +47,7 @@ export function activityRouter(activity: Activity, designs: AxleDesigns, auth: A
 
   r.get('/axle-designs/:designId/activity', auth.requirePermission('team:read'), async (req, res) => {
     const teamId = currentAccess(req).teamId;
-    const d = await designs.get(teamId, idParam(req.params['designId'], 'Axle design')); // 404 outside the team
+    const d = await loaded(req, 'design'); // 404 outside the team
     await answer(res, teamId, req.query, d.id, 'design-activity');
   });
 

@@ -6,6 +6,8 @@ import { currentUser, type Authorizer } from '../http/authorize.js';
 import { TOKEN_SCOPES } from '../db/schema.js';
 import type { ApiTokens } from '../services/api-tokens.js';
 import { idParam } from './vehicles.js';
+import { reply } from '../http/reply.js';
+import type { ApiToken, CreatedApiToken } from '../../shared/api/accounts.js';
 
 const createSchema = z.strictObject({
   name: z.string().trim().min(1, 'is required').max(100),
@@ -17,10 +19,10 @@ const createSchema = z.strictObject({
 export function apiTokensRouter(tokens: ApiTokens, auth: Authorizer): Router {
   const r = Router();
   r.get('/', auth.requireUser, async (req, res) => {
-    res.json(await tokens.list(currentUser(req).id));
+    reply<ApiToken[]>(res, await tokens.list(currentUser(req).id));
   });
   r.post('/', auth.requireUser, async (req, res) => {
-    res.status(201).json(await tokens.create(currentUser(req).id, validate(createSchema, req.body)));
+    reply<CreatedApiToken>(res, await tokens.create(currentUser(req).id, validate(createSchema, req.body)), 201);
   });
   r.delete('/:tokenId', auth.requireUser, async (req, res) => {
     await tokens.revoke(currentUser(req).id, idParam(req.params['tokenId'], 'Token'));

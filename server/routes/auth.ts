@@ -9,6 +9,8 @@ import { HttpError, validate } from '../http/errors.js';
 import { currentUser, type Authorizer } from '../http/authorize.js';
 import { destroySession, endOtherSessions, establishSession, SESSION_COOKIE } from '../http/session.js';
 import { normaliseEmail, type Accounts } from '../services/accounts.js';
+import { reply } from '../http/reply.js';
+import type { Me } from '../../shared/api/accounts.js';
 
 // bcrypt reads at most 72 bytes; longer passwords would be silently truncated.
 export const password = (min: number) =>
@@ -68,14 +70,14 @@ export function authRouter(config: Config, accounts: Accounts, pool: pg.Pool, au
   const changePasswordAccountLimiter = perAccountFailures(config.signInLimit, 'Too many wrong current passwords. Please wait a few minutes and try again.');
 
   r.get('/me', auth.requireUser, async (req, res) => {
-    res.json(await accounts.me(currentUser(req).id));
+    reply<Me>(res, await accounts.me(currentUser(req).id));
   });
 
   r.patch('/me', auth.requireUser, async (req, res) => {
     const patch = validate(profileSchema, req.body);
     const id = currentUser(req).id;
     await accounts.updateProfile(id, patch);
-    res.json(await accounts.me(id));
+    reply<Me>(res, await accounts.me(id));
   });
 
   // Public: anyone may register (a bounded number of times per address).
@@ -83,7 +85,7 @@ export function authRouter(config: Config, accounts: Accounts, pool: pg.Pool, au
     const input = validate(registerSchema, req.body);
     const id = await accounts.register(input);
     await establishSession(req, id);
-    res.status(201).json(await accounts.me(id));
+    reply<Me>(res, await accounts.me(id), 201);
   });
 
   // Public, rate-limited.
@@ -92,7 +94,7 @@ export function authRouter(config: Config, accounts: Accounts, pool: pg.Pool, au
     const id = await accounts.verify(e, p);
     if (!id) throw new HttpError(401, 'invalid_credentials', 'The e-mail address or password is not correct');
     await establishSession(req, id);
-    res.json(await accounts.me(id));
+    reply<Me>(res, await accounts.me(id));
   });
 
   // Public: signing out when already signed out is not an error.

@@ -5,16 +5,21 @@
  */
 import { Router } from 'express';
 import { z } from 'zod';
-import { HttpError, validate } from '../http/errors.js';
+import { validate } from '../http/errors.js';
 import { jsonUploadField, singleTextUpload, uploadedText } from '../http/upload.js';
 import { cadFrameSchema } from '../../shared/io/cad-frame-schema.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
-import { AXLES } from '../db/schema.js';
+import { AXLE_NAMES } from '../../shared/schema/axle.js';
 import { parseCorner, type AxleDesigns } from '../services/axle-designs.js';
 import type { Proposals } from '../services/proposals.js';
-import { archivedQuery, baseRevision, compareRevisions, documentName, idParam, revisionMessage, revisionNumber } from './vehicles.js';
+import type { Vehicles } from '../services/vehicles.js';
+import { archivedQuery, baseRevision, compareRevisions, documentName, revisionMessage, revisionNumber } from './vehicles.js';
+import { loadParam, loadParentParam, loaded } from './loaders.js';
+import { reply } from '../http/reply.js';
+import type { AcceptedProposal, AxleDesign, AxleDesignSummary, DesignRevisionRecord, ImportPreview, Proposal } from '../../shared/api/documents.js';
+import type { RevisionCompare, RevisionRow } from '../../shared/api/common.js';
 
-const createSchema = z.strictObject({ axle: z.enum(AXLES), name: documentName, corner: z.unknown() });
+const createSchema = z.strictObject({ axle: z.enum(AXLE_NAMES), name: documentName, corner: z.unknown() });
 const patchSchema = z
   .strictObject({ name: documentName.optional(), archived: z.boolean().optional(), baseRevision, message: revisionMessage })
   .refine((p) => p.name !== undefined || p.archived !== undefined, { message: 'give name or archived', path: ['name'] });
@@ -43,17 +48,18 @@ function importFields(body: unknown) {
 }
 
 /** Mounted at /api/teams/:teamId/vehicles/:vehicleId/axle-designs. */
-export function vehicleAxleDesignsRouter(designs: AxleDesigns, auth: Authorizer): Router {
+export function vehicleAxleDesignsRouter(designs: AxleDesigns, vehicles: Vehicles, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
+  r.use(loadParentParam('vehicleId', loadParam('vehicle', 'Vehicle', (req, id) => vehicles.get(currentAccess(req).teamId, id))));
   r.get('/', auth.requirePermission('team:read'), async (req, res) => {
     const q = validate(archivedQuery, req.query, 'query');
-    res.json(await designs.list(currentAccess(req).teamId, idParam(req.params['vehicleId'], 'Vehicle'), q.archived === 'true'));
+    reply<AxleDesignSummary[]>(res, await designs.list(await loaded(req, 'vehicle'), q.archived === 'true'));
   });
   r.post('/', auth.requirePermission('vehicle:manage'), async (req, res) => {
     const input = validate(createSchema, req.body);
     const corner = parseCorner(input.corner);
-    const vehicleId = idParam(req.params['vehicleId'], 'Vehicle');
-    res.status(201).json(await designs.create(currentAccess(req).teamId, vehicleId, currentUser(req).id, { ...input, corner }));
+    const vehicle = await loaded(req, 'vehicle');
+    reply<AxleDesign>(res, await designs.create(currentAccess(req).teamId, vehicle, currentUser(req).id, { ...input, corner }), 201);
   });
   return r;
 }
@@ -62,81 +68,78 @@ export function vehicleAxleDesignsRouter(designs: AxleDesigns, auth: Authorizer)
 export function axleDesignsRouter(designs: AxleDesigns, proposals: Proposals, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
   const { requirePermission } = auth;
-  const designId = (raw: unknown) => idParam(raw, 'Axle design');
-  const proposalId = (raw: unknown) => idParam(raw, 'Proposal');
+  r.param('designId', loadParam('design', 'Axle design', (req, id) => designs.get(currentAccess(req).teamId, id)));
+  r.param('proposalId', loadParam('proposal', 'Proposal', async (req, id) => proposals.getOf(await loaded(req, 'design'), id)));
 
   r.get('/:designId', requirePermission('team:read'), async (req, res) => {
-    res.json(await designs.get(currentAccess(req).teamId, designId(req.params['designId'])));
+    reply<AxleDesign>(res, await loaded(req, 'design'));
   });
 
   r.patch('/:designId', requirePermission('vehicle:manage'), async (req, res) => {
     const { baseRevision: base, ...change } = validate(patchSchema, req.body);
-    res.json(await designs.update(currentAccess(req).teamId, designId(req.params['designId']), currentUser(req).id, base, change));
+    const d = await loaded(req, 'design');
+    reply<AxleDesign>(res, await designs.update(currentAccess(req).teamId, d.id, currentUser(req).id, base, change));
   });
 
   r.put('/:designId/corner', requirePermission('design:edit'), async (req, res) => {
     const input = validate(cornerBodySchema, req.body);
     const corner = parseCorner(input.corner);
-    res.json(
-      await designs.update(currentAccess(req).teamId, designId(req.params['designId']), currentUser(req).id, input.baseRevision, {
-        corner,
-        message: input.message,
-      }),
-    );
+    const d = await loaded(req, 'design');
+    reply<AxleDesign>(res, await designs.update(currentAccess(req).teamId, d.id, currentUser(req).id, input.baseRevision, { corner, message: input.message }));
   });
 
   // Reads an uploaded CSV or JSON file against the current corner and answers the preview; saves nothing.
   r.post('/:designId/import', requirePermission('design:edit'), singleTextUpload('file', ['csv', 'txt', 'tsv', 'json']), async (req, res) => {
     const fields = importFields(req.body);
     const file = uploadedText(req);
-    res.json(await designs.previewImport(currentAccess(req).teamId, designId(req.params['designId']), file, fields));
+    reply<ImportPreview>(res, await designs.previewImport(await loaded(req, 'design'), file, fields));
   });
 
   r.get('/:designId/revisions', requirePermission('team:read'), async (req, res) => {
-    res.json(await designs.revisions(currentAccess(req).teamId, designId(req.params['designId'])));
+    reply<RevisionRow[]>(res, await designs.revisions(await loaded(req, 'design')));
   });
 
   // Changed values (hardpoint coordinates one by one) between two revisions, e.g. ?from=1&to=3.
   r.get('/:designId/compare', requirePermission('team:read'), async (req, res) => {
-    const teamId = currentAccess(req).teamId;
-    const id = designId(req.params['designId']);
-    res.json(await compareRevisions(req.query, (n) => designs.revision(teamId, id, n), 'corner'));
+    const d = await loaded(req, 'design');
+    reply<RevisionCompare>(res, await compareRevisions(req.query, (n) => designs.revisionOf(d, n), 'corner'));
   });
 
   r.get('/:designId/revisions/:revision', requirePermission('team:read'), async (req, res) => {
-    res.json(await designs.revision(currentAccess(req).teamId, designId(req.params['designId']), revisionNumber(req.params['revision'])));
+    const d = await loaded(req, 'design');
+    reply<DesignRevisionRecord>(res, await designs.revisionOf(d, revisionNumber(req.params['revision'])));
   });
 
   r.get('/:designId/proposals', requirePermission('team:read'), async (req, res) => {
-    res.json(await proposals.list(currentAccess(req).teamId, designId(req.params['designId'])));
+    reply<Proposal[]>(res, await proposals.list(await loaded(req, 'design')));
   });
 
   r.post('/:designId/proposals', requirePermission('design:propose'), async (req, res) => {
     const input = validate(proposalSchema, req.body);
     const corner = parseCorner(input.corner);
-    const p = await proposals.create(currentAccess(req).teamId, designId(req.params['designId']), currentUser(req).id, { ...input, corner });
-    res.status(201).json(p);
+    const p = await proposals.create(currentAccess(req).teamId, await loaded(req, 'design'), currentUser(req).id, { ...input, corner });
+    reply<Proposal>(res, p, 201);
   });
 
   r.get('/:designId/proposals/:proposalId', requirePermission('team:read'), async (req, res) => {
-    res.json(await proposals.get(currentAccess(req).teamId, designId(req.params['designId']), proposalId(req.params['proposalId'])));
+    reply<Proposal>(res, await loaded(req, 'proposal'));
   });
 
   r.post('/:designId/proposals/:proposalId/accept', requirePermission('design:accept'), async (req, res) => {
     const { message } = validate(decisionSchema, req.body ?? {});
-    const ids = [currentAccess(req).teamId, designId(req.params['designId']), proposalId(req.params['proposalId'])] as const;
-    res.json(await proposals.accept(...ids, currentUser(req).id, message));
+    const p = await loaded(req, 'proposal');
+    reply<AcceptedProposal>(res, await proposals.accept(currentAccess(req).teamId, await loaded(req, 'design'), p, currentUser(req).id, message));
   });
 
   r.post('/:designId/proposals/:proposalId/reject', requirePermission('design:accept'), async (req, res) => {
     const { message } = validate(decisionSchema, req.body ?? {});
-    const ids = [currentAccess(req).teamId, designId(req.params['designId']), proposalId(req.params['proposalId'])] as const;
-    res.json(await proposals.reject(...ids, currentUser(req).id, message));
+    const p = await loaded(req, 'proposal');
+    reply<Proposal>(res, await proposals.reject(currentAccess(req).teamId, await loaded(req, 'design'), p, currentUser(req).id, message));
   });
 
   r.delete('/:designId/proposals/:proposalId', requirePermission('design:propose'), async (req, res) => {
-    const ids = [currentAccess(req).teamId, designId(req.params['designId']), proposalId(req.params['proposalId'])] as const;
-    res.json(await proposals.withdraw(...ids, currentUser(req).id));
+    const p = await loaded(req, 'proposal');
+    reply<Proposal>(res, await proposals.withdraw(currentAccess(req).teamId, await loaded(req, 'design'), p, currentUser(req).id));
   });
 
   return r;

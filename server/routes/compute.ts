@@ -8,7 +8,7 @@
 import { Router } from 'express';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import { currentUser, isUuid, type Authorizer } from '../http/authorize.js';
-import { notFound } from '../http/errors.js';
+import { notFound } from '../../shared/errors.js';
 import type { ComputePool } from '../compute/pool.js';
 import type { SolveJobs, JobView } from '../compute/jobs.js';
 import { COMPUTE_KINDS } from '../compute/tasks.js';

@@ -3,9 +3,23 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { validate } from '../http/errors.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
-import { TRACK_PROFILE_IDS } from '../../shared/intent/profiles.js';
+import { TRACK_PROFILE_IDS } from '../../shared/tracks/profiles.js';
 import { TRANSITIONS, type Configurations, type ReviewAction } from '../services/configurations.js';
+import { readTransitionBody } from './review-gates.js';
 import { archivedQuery, baseRevision, documentName, idParam, revisionMessage } from './vehicles.js';
+import { loadParam, loaded } from './loaders.js';
+import { reply } from '../http/reply.js';
+import type {
+  ApprovalDetail,
+  ApprovalSummary,
+  CommentThread,
+  CompareAnswer,
+  Configuration,
+  ConfigurationRevision,
+  ResultsAnswer,
+  StoredComment,
+  TransitionRow,
+} from '../../shared/api/configurations.js';
 
 const uuid = z.uuid('must be an id');
 const rev = z.number().int().positive();
@@ -59,82 +73,85 @@ const commentSchema = z.strictObject({ body: z.string().trim().min(1, 'is requir
 export function configurationsRouter(configs: Configurations, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
   const { requirePermission } = auth;
-  const configId = (raw: unknown) => idParam(raw, 'Configuration');
+  r.param('configurationId', loadParam('configuration', 'Configuration', (req, id) => configs.get(currentAccess(req).teamId, id)));
+  r.param('approvalId', loadParam('approval', 'Approval', async (req, id) => configs.approval(await loaded(req, 'configuration'), id)));
 
   r.get('/', requirePermission('team:read'), async (req, res) => {
     const q = validate(archivedQuery, req.query, 'query');
-    res.json(await configs.list(currentAccess(req).teamId, q.archived === 'true'));
+    reply<Configuration[]>(res, await configs.list(currentAccess(req).teamId, q.archived === 'true'));
   });
 
   r.post('/', requirePermission('vehicle:manage'), async (req, res) => {
     const input = validate(createSchema, req.body);
-    res.status(201).json(await configs.create(currentAccess(req).teamId, currentUser(req).id, input));
+    reply<Configuration>(res, await configs.create(currentAccess(req).teamId, currentUser(req).id, input), 201);
   });
 
   r.get('/compare', requirePermission('team:read'), async (req, res) => {
     const q = validate(compareQuery, req.query, 'query');
-    res.json(await configs.compare(currentAccess(req).teamId, { id: q.a, revision: q.aRevision }, { id: q.b, revision: q.bRevision }));
+    reply<CompareAnswer>(res, await configs.compare(currentAccess(req).teamId, { id: q.a, revision: q.aRevision }, { id: q.b, revision: q.bRevision }));
   });
 
   r.get('/:configurationId', requirePermission('team:read'), async (req, res) => {
-    res.json(await configs.get(currentAccess(req).teamId, configId(req.params['configurationId'])));
+    reply<Configuration>(res, await loaded(req, 'configuration'));
   });
 
   r.put('/:configurationId', requirePermission('vehicle:manage'), async (req, res) => {
     const { baseRevision: base, ...change } = validate(reviseSchema, req.body);
-    res.json(await configs.revise(currentAccess(req).teamId, configId(req.params['configurationId']), currentUser(req).id, base, change));
+    const c = await loaded(req, 'configuration');
+    reply<Configuration>(res, await configs.revise(currentAccess(req).teamId, c.id, currentUser(req).id, base, change));
   });
 
   r.patch('/:configurationId', requirePermission('vehicle:manage'), async (req, res) => {
     const { archived } = validate(archiveSchema, req.body);
-    res.json(await configs.setArchived(currentAccess(req).teamId, configId(req.params['configurationId']), currentUser(req).id, archived));
+    reply<Configuration>(res, await configs.setArchived(currentAccess(req).teamId, await loaded(req, 'configuration'), currentUser(req).id, archived));
   });
 
   r.get('/:configurationId/revisions', requirePermission('team:read'), async (req, res) => {
-    res.json(await configs.revisions(currentAccess(req).teamId, configId(req.params['configurationId'])));
+    reply<ConfigurationRevision[]>(res, await configs.revisions(await loaded(req, 'configuration')));
   });
 
   r.get('/:configurationId/history', requirePermission('team:read'), async (req, res) => {
-    res.json(await configs.history(currentAccess(req).teamId, configId(req.params['configurationId'])));
+    reply<TransitionRow[]>(res, await configs.history(await loaded(req, 'configuration')));
   });
 
   r.get('/:configurationId/results', requirePermission('team:read'), async (req, res) => {
     const q = validate(revisionQuery, req.query, 'query');
-    res.json(await configs.results(currentAccess(req).teamId, configId(req.params['configurationId']), q.revision));
+    reply<ResultsAnswer>(res, await configs.results(await loaded(req, 'configuration'), q.revision));
   });
 
   for (const action of Object.keys(TRANSITIONS) as ReviewAction[]) {
     const t = TRANSITIONS[action];
     r.post(`/:configurationId/${action}`, requirePermission(t.permission), async (req, res) => {
-      const body = validate(action === 'request-changes' ? changesSchema : transitionSchema, req.body ?? {});
+      const { revision, message, ...gate } = readTransitionBody(action, action === 'request-changes' ? changesSchema : transitionSchema, req.body ?? {});
       const a = currentAccess(req);
       const actor = { id: currentUser(req).id, roles: a.roles };
-      res.json(await configs.transition(a.teamId, configId(req.params['configurationId']), actor, action, { message: body.message, expectRevision: body.revision }));
+      const c = await loaded(req, 'configuration');
+      reply<Configuration>(res, await configs.transition(a.teamId, c.id, actor, action, { message, expectRevision: revision, gate }));
     });
   }
 
   r.get('/:configurationId/approvals', requirePermission('team:read'), async (req, res) => {
-    res.json(await configs.approvals(currentAccess(req).teamId, configId(req.params['configurationId'])));
+    reply<ApprovalSummary[]>(res, await configs.approvals(await loaded(req, 'configuration')));
   });
 
   r.get('/:configurationId/approvals/:approvalId', requirePermission('team:read'), async (req, res) => {
-    const ids = [currentAccess(req).teamId, configId(req.params['configurationId']), idParam(req.params['approvalId'], 'Approval')] as const;
-    res.json(await configs.approval(...ids));
+    reply<ApprovalDetail>(res, await loaded(req, 'approval'));
   });
 
   r.get('/:configurationId/comments', requirePermission('team:read'), async (req, res) => {
-    res.json(await configs.comments(currentAccess(req).teamId, configId(req.params['configurationId'])));
+    reply<CommentThread[]>(res, await configs.comments(await loaded(req, 'configuration')));
   });
 
   r.post('/:configurationId/comments', requirePermission('review:comment'), async (req, res) => {
     const input = validate(commentSchema, req.body);
-    res.status(201).json(await configs.addComment(currentAccess(req).teamId, configId(req.params['configurationId']), currentUser(req).id, input));
+    const c = await loaded(req, 'configuration');
+    reply<StoredComment>(res, await configs.addComment(currentAccess(req).teamId, c, currentUser(req).id, input), 201);
   });
 
   for (const [path, resolved] of [['resolve', true], ['reopen', false]] as const) {
     r.post(`/:configurationId/comments/:commentId/${path}`, requirePermission('review:comment'), async (req, res) => {
-      const ids = [currentAccess(req).teamId, configId(req.params['configurationId']), idParam(req.params['commentId'], 'Comment thread')] as const;
-      res.json(await configs.resolveThread(...ids, currentUser(req).id, resolved));
+      const c = await loaded(req, 'configuration');
+      reply<StoredComment & { readonly resolved: boolean }>(res, await configs.resolveThread(c, idParam(req.params['commentId'], 'Comment thread'), currentUser(req).id, resolved));
     });
   }
 

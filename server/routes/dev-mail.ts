@@ -13,6 +13,8 @@ import { Router } from 'express';
 import { sql } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { currentUser, type Authorizer } from '../http/authorize.js';
+import { reply } from '../http/reply.js';
+import type { CapturedMail } from '../../shared/api/accounts.js';
 
 export function devMailRouter(orm: Orm, auth: Authorizer): Router {
   const r = Router();
@@ -34,7 +36,8 @@ export function devMailRouter(orm: Orm, auth: Authorizer): Router {
       LIMIT 200`);
     // Only the own address is shown as recipient.
     const email = currentUser(req).email;
-    res.json(
+    reply<CapturedMail[]>(
+      res,
       rows.rows.map((m) => ({ id: m.id, messageId: m.message_id, from: m.from_address, to: [email], subject: m.subject, text: m.text_body, receivedAt: m.received_at })),
     );
   });

@@ -13,6 +13,8 @@ import { ROLES } from '../permissions.js';
 import type { Accounts } from '../services/accounts.js';
 import type { Invitations } from '../services/invitations.js';
 import { displayName, email, password } from './auth.js';
+import { reply } from '../http/reply.js';
+import type { AcceptedInvitation, InvitationInfo, TeamInvitation } from '../../shared/api/teams.js';
 
 const roles = z
   .array(z.enum(ROLES))
@@ -26,11 +28,11 @@ const token = (raw: unknown) => validate(z.string().min(10).max(2000), raw, 'inv
 export function teamInvitationsRouter(invitations: Invitations, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
   r.get('/', auth.requirePermission('members:manage'), async (req, res) => {
-    res.json(await invitations.list(currentAccess(req).teamId));
+    reply<TeamInvitation[]>(res, await invitations.list(currentAccess(req).teamId));
   });
   r.post('/', auth.requirePermission('members:manage'), async (req, res) => {
     const input = validate(inviteSchema, req.body);
-    res.status(201).json(await invitations.create(currentAccess(req).teamId, currentUser(req).id, input));
+    reply<TeamInvitation>(res, await invitations.create(currentAccess(req).teamId, currentUser(req).id, input), 201);
   });
   return r;
 }
@@ -41,7 +43,7 @@ export function invitationLinksRouter(invitations: Invitations, accounts: Accoun
   // Accepting may create an account (a bcrypt hash): limited per client address like registering.
   const acceptLimiter = perAddress(limit, 'Too many invitations accepted from this address. Please wait a few minutes and try again.');
   r.get('/:token', async (req, res) => {
-    res.json(await invitations.info(token(req.params['token'])));
+    reply<InvitationInfo>(res, await invitations.info(token(req.params['token'])));
   });
   r.post('/:token/accept', acceptLimiter, async (req, res) => {
     const t = token(req.params['token']);
@@ -58,7 +60,7 @@ export function invitationLinksRouter(invitations: Invitations, accounts: Accoun
       result = await invitations.accept(t, { register: reg });
       await establishSession(req, result.userId);
     }
-    res.json({ teamId: result.teamId, me: await accounts.me(result.userId) });
+    reply<AcceptedInvitation>(res, { teamId: result.teamId, me: await accounts.me(result.userId) });
   });
   return r;
 }

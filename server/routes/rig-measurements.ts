@@ -9,22 +9,24 @@
  */
 import { Router } from 'express';
 import { z } from 'zod';
-import { HttpError, validate } from '../http/errors.js';
+import { validate } from '../http/errors.js';
 import { jsonUploadField, singleTextUpload, uploadedText } from '../http/upload.js';
 import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
-import { AXLES } from '../db/schema.js';
+import { AXLE_NAMES } from '../../shared/schema/axle.js';
 import { rigMappingSchema } from '../../shared/io/rig-mapping-schema.js';
 import { INTENT_RANGES } from '../../shared/schema/ranges.js';
 import { inRange } from '../../shared/schema/ranged.js';
-import { RIG_BASES, rigToleranceSchema } from '../../shared/intent/rig-compare.js';
+import { RIG_BASES, rigToleranceSchema } from '../../shared/rig/compare.js';
 import type { RigMeasurements } from '../services/rig-measurements.js';
-import { idParam } from './vehicles.js';
+import { loadParam, loaded } from './loaders.js';
+import { reply } from '../http/reply.js';
+import type { CreatedRigMeasurement, RigMeasurementDetail, RigMeasurementSummary, RigPreviewAnswer, RigToleranceView } from '../../shared/api/rig.js';
 
 const uuid = z.uuid('must be an id');
 const rev = z.number().int().positive();
 
 const targetSchema = z.discriminatedUnion('kind', [
-  z.strictObject({ kind: z.literal('configuration'), configurationId: uuid, configurationRevision: rev.optional(), axle: z.enum(AXLES) }),
+  z.strictObject({ kind: z.literal('configuration'), configurationId: uuid, configurationRevision: rev.optional(), axle: z.enum(AXLE_NAMES) }),
   z.strictObject({ kind: z.literal('baseline'), designId: uuid, designRevision: rev.optional() }),
 ]);
 
@@ -50,11 +52,11 @@ const RIG_EXTENSIONS = ['csv', 'txt', 'tsv'];
 export function rigMeasurementsRouter(rig: RigMeasurements, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
   const { requirePermission } = auth;
-  const measurementId = (raw: unknown) => idParam(raw, 'Rig measurement');
+  r.param('measurementId', loadParam('rigMeasurement', 'Rig measurement', (req, id) => rig.summary(currentAccess(req).teamId, id)));
 
   r.post('/rig-measurements/preview', requirePermission('vehicle:manage'), singleTextUpload('file', RIG_EXTENSIONS), (req, res) => {
     validate(z.strictObject({}), req.body ?? {}, 'upload fields');
-    res.json(rig.preview(uploadedText(req)));
+    reply<RigPreviewAnswer>(res, rig.preview(uploadedText(req)));
   });
 
   r.post('/rig-measurements', requirePermission('vehicle:manage'), singleTextUpload('file', RIG_EXTENSIONS), async (req, res) => {
@@ -63,30 +65,30 @@ export function rigMeasurementsRouter(rig: RigMeasurements, auth: Authorizer): R
     const target = validate(targetSchema, jsonUploadField('target', fields.target), 'target');
     const options = validate(optionsSchema, fields.options === undefined ? {} : jsonUploadField('options', fields.options), 'options');
     const file = uploadedText(req);
-    res.status(201).json(await rig.create(currentAccess(req).teamId, currentUser(req).id, file, mapping, target, options));
+    reply<CreatedRigMeasurement>(res, await rig.create(currentAccess(req).teamId, currentUser(req).id, file, mapping, target, options), 201);
   });
 
   r.get('/rig-measurements', requirePermission('team:read'), async (req, res) => {
     const q = validate(listQuery, req.query, 'query');
-    res.json(await rig.list(currentAccess(req).teamId, q));
+    reply<RigMeasurementSummary[]>(res, await rig.list(currentAccess(req).teamId, q));
   });
 
   r.get('/rig-measurements/:measurementId', requirePermission('team:read'), async (req, res) => {
-    res.json(await rig.get(currentAccess(req).teamId, measurementId(req.params['measurementId'])));
+    reply<RigMeasurementDetail>(res, await rig.get(currentAccess(req).teamId, await loaded(req, 'rigMeasurement')));
   });
 
   r.delete('/rig-measurements/:measurementId', requirePermission('vehicle:manage'), async (req, res) => {
-    await rig.remove(currentAccess(req).teamId, measurementId(req.params['measurementId']), currentUser(req).id);
+    await rig.remove(currentAccess(req).teamId, await loaded(req, 'rigMeasurement'), currentUser(req).id);
     res.status(204).end();
   });
 
   r.get('/rig-tolerance', requirePermission('team:read'), async (req, res) => {
-    res.json(await rig.tolerance(currentAccess(req).teamId));
+    reply<RigToleranceView>(res, await rig.tolerance(currentAccess(req).teamId));
   });
 
   r.put('/rig-tolerance', requirePermission('members:manage'), async (req, res) => {
     const t = validate(rigToleranceSchema, req.body, 'rig tolerance');
-    res.json(await rig.setTolerance(currentAccess(req).teamId, currentUser(req).id, t));
+    reply<RigToleranceView>(res, await rig.setTolerance(currentAccess(req).teamId, currentUser(req).id, t));
   });
 
   return r;

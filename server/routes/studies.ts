@@ -6,6 +6,11 @@
  *   DELETE /:studyId                           cancel: every chunk stops
  *   GET    /:studyId/csv                       the result as CSV
  *   POST   /:studyId/variants/:index/proposal  a design-sweep variant as a proposal on its axle design → 201
+ *   PUT    /:studyId/attachments/:configurationId  attach a completed study to a configuration's review record
+ *   DELETE /:studyId/attachments/:configurationId  detach it → 204
+ *   GET    /?attachedTo=:configurationId       the studies attached to a configuration, with key figures
+ * and, mounted at /api/programmes/:programmeId/studies (programmeStudiesRouter):
+ *   GET    /                                   per accepted team, its latest attached study (the programme's instructor)
  * A study whose work was lost answers 410 job_gone with the reason.
  */
 import { Router } from 'express';
@@ -14,34 +19,60 @@ import { currentAccess, currentUser, type Authorizer } from '../http/authorize.j
 import { validate } from '../http/errors.js';
 import type { Studies } from '../services/studies.js';
 import { idParam } from './vehicles.js';
+import { loadParam, loadParentParam, loaded } from './loaders.js';
+import { loadProgramme } from './programmes.js';
+import { reply } from '../http/reply.js';
+import type { AttachedStudy, ProgrammeStudies, StudyView } from '../../shared/api/studies.js';
+import type { Proposal } from '../../shared/api/documents.js';
+import type { Programmes } from '../services/programmes.js';
 
 const indexParam = z.coerce.number().int().min(0).max(1_000_000);
+const listQuery = z.object({ attachedTo: z.uuid('must be a configuration id').optional() });
+const attachSchema = z.strictObject({ note: z.string().trim().max(500).optional() });
 
 export function studiesRouter(studies: Studies, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
   const { requirePermission } = auth;
   const teamId = (req: import('express').Request) => currentAccess(req).teamId;
-  const studyId = (raw: unknown) => idParam(raw, 'Study');
+  r.param('studyId', loadParam('study', 'Study', (req, id) => studies.load(teamId(req), id)));
 
   r.post('/', requirePermission('study:run'), async (req, res) => {
     const study = await studies.create(teamId(req), currentUser(req).id, req.body);
-    res.status(202).location(`${req.baseUrl}/${study.id}`).json({ study });
+    res.location(`${req.baseUrl}/${study.id}`);
+    reply<{ study: StudyView }>(res, { study }, 202);
   });
 
   r.get('/', requirePermission('team:read'), async (req, res) => {
-    res.json({ studies: await studies.list(teamId(req)) });
+    const q = validate(listQuery, req.query, 'query');
+    if (q.attachedTo) {
+      reply<{ attachments: AttachedStudy[] }>(res, { attachments: await studies.attachedTo(teamId(req), q.attachedTo) });
+      return;
+    }
+    reply<{ studies: StudyView[] }>(res, { studies: await studies.list(teamId(req)) });
+  });
+
+  r.put('/:studyId/attachments/:configurationId', requirePermission('study:run'), async (req, res) => {
+    const { note } = validate(attachSchema, req.body ?? {}, 'attachment');
+    const configurationId = idParam(req.params['configurationId'], 'Configuration');
+    reply<{ attachment: AttachedStudy }>(res, { attachment: await studies.attach(teamId(req), await loaded(req, 'study'), configurationId, currentUser(req).id, note ?? '') });
+  });
+
+  r.delete('/:studyId/attachments/:configurationId', requirePermission('study:run'), async (req, res) => {
+    const configurationId = idParam(req.params['configurationId'], 'Configuration');
+    await studies.detach(teamId(req), await loaded(req, 'study'), configurationId);
+    res.status(204).end();
   });
 
   r.get('/:studyId', requirePermission('team:read'), async (req, res) => {
-    res.json({ study: await studies.get(teamId(req), studyId(req.params['studyId'])) });
+    reply<{ study: StudyView }>(res, { study: studies.get(await loaded(req, 'study')) });
   });
 
   r.delete('/:studyId', requirePermission('study:run'), async (req, res) => {
-    res.json({ study: await studies.cancel(teamId(req), studyId(req.params['studyId'])) });
+    reply<{ study: StudyView }>(res, { study: await studies.cancel(teamId(req), await loaded(req, 'study')) });
   });
 
   r.get('/:studyId/csv', requirePermission('team:read'), async (req, res) => {
-    const { filename, text } = await studies.csv(teamId(req), studyId(req.params['studyId']));
+    const { filename, text } = studies.csv(await loaded(req, 'study'));
     res.setHeader('Content-Type', 'text/csv; charset=utf-8');
     res.setHeader('Content-Disposition', `attachment; filename="${filename}"`);
     res.send(text);
@@ -49,9 +80,19 @@ export function studiesRouter(studies: Studies, auth: Authorizer): Router {
 
   r.post('/:studyId/variants/:index/proposal', requirePermission('design:propose'), async (req, res) => {
     const index = validate(indexParam, req.params['index'], 'variant index');
-    const proposal = await studies.proposeVariant(teamId(req), studyId(req.params['studyId']), index, currentUser(req).id);
-    res.status(201).json({ proposal });
+    const proposal = await studies.proposeVariant(teamId(req), await loaded(req, 'study'), index, currentUser(req).id);
+    reply<{ proposal: Proposal }>(res, { proposal }, 201);
   });
 
+  return r;
+}
+
+/** Mounted at /api/programmes/:programmeId/studies: the programme board's study column (its instructor only, as the board). */
+export function programmeStudiesRouter(studies: Studies, programmes: Programmes, auth: Authorizer): Router {
+  const r = Router({ mergeParams: true });
+  r.use(loadParentParam('programmeId', loadProgramme(programmes)));
+  r.get('/', auth.requireUser, async (req, res) => {
+    reply<ProgrammeStudies>(res, await studies.programmeStudies(await loaded(req, 'programme')));
+  });
   return r;
 }

@@ -1,10 +1,13 @@
 /** /api/teams: teams and their members (who join only by accepting an invitation: routes/invitations.ts). */
 import { Router } from 'express';
 import { z } from 'zod';
-import { validate, notFound } from '../http/errors.js';
+import { validate } from '../http/errors.js';
+import { notFound } from '../../shared/errors.js';
 import { currentAccess, currentUser, isUuid, type Authorizer } from '../http/authorize.js';
 import { ROLES } from '../permissions.js';
 import type { Teams } from '../services/teams.js';
+import { reply } from '../http/reply.js';
+import type { TeamDetail, TeamMember, TeamSummary } from '../../shared/api/teams.js';
 
 const teamName = z.string().trim().min(1, 'is required').max(120);
 const slug = z
@@ -32,21 +35,21 @@ export function teamsRouter(teams: Teams, auth: Authorizer): Router {
   const { requireUser, requirePermission } = auth;
 
   r.get('/', requireUser, async (req, res) => {
-    res.json(await teams.listFor(currentUser(req).id));
+    reply<TeamSummary[]>(res, await teams.listFor(currentUser(req).id));
   });
 
   r.post('/', requireUser, async (req, res) => {
-    res.status(201).json(await teams.create(currentUser(req).id, validate(createTeamSchema, req.body)));
+    reply<TeamSummary>(res, await teams.create(currentUser(req).id, validate(createTeamSchema, req.body)), 201);
   });
 
   r.get('/:teamId', requirePermission('team:read'), async (req, res) => {
     const a = currentAccess(req);
-    res.json(await teams.detail(a.teamId, a.roles));
+    reply<TeamDetail>(res, await teams.detail(a.teamId, a.roles));
   });
 
   r.patch('/:teamId', requirePermission('members:manage'), async (req, res) => {
     const a = currentAccess(req);
-    res.json(await teams.rename(a.teamId, validate(renameTeamSchema, req.body).name, a.roles));
+    reply<TeamDetail>(res, await teams.rename(a.teamId, validate(renameTeamSchema, req.body).name, a.roles));
   });
 
   r.delete('/:teamId', requirePermission('members:manage'), async (req, res) => {
@@ -55,14 +58,14 @@ export function teamsRouter(teams: Teams, auth: Authorizer): Router {
   });
 
   r.get('/:teamId/members', requirePermission('team:read'), async (req, res) => {
-    res.json(await teams.members(currentAccess(req).teamId));
+    reply<TeamMember[]>(res, await teams.members(currentAccess(req).teamId));
   });
 
   // Nobody is added directly: people join by accepting an invitation (routes/invitations.ts).
 
   r.patch('/:teamId/members/:userId', requirePermission('members:manage'), async (req, res) => {
     const input = validate(changeRolesSchema, req.body);
-    res.json(await teams.changeMember(currentAccess(req).teamId, memberId(req.params['userId']), input.roles, currentUser(req).id));
+    reply<TeamMember | null>(res, await teams.changeMember(currentAccess(req).teamId, memberId(req.params['userId']), input.roles, currentUser(req).id));
   });
 
   // Any member may leave a team (the last owner may not).

@@ -1,9 +1,14 @@
 /** /api/teams/:teamId/vehicles: vehicles, their data and revisions. */
 import { Router } from 'express';
 import { z } from 'zod';
-import { notFound, validate } from '../http/errors.js';
+import { validate } from '../http/errors.js';
+import { notFound } from '../../shared/errors.js';
 import { currentAccess, currentUser, isUuid, type Authorizer } from '../http/authorize.js';
 import { parseVehicleData, type Vehicles } from '../services/vehicles.js';
+import { loadParam, loaded } from './loaders.js';
+import { reply } from '../http/reply.js';
+import type { VehicleRecord, VehicleRevisionRecord, VehicleSummary } from '../../shared/api/documents.js';
+import type { RevisionCompare, RevisionRow } from '../../shared/api/common.js';
 import { diffDocuments } from '../services/document-diff.js';
 
 export const documentName = z.string().trim().min(1, 'is required').max(120);
@@ -33,32 +38,35 @@ export function idParam(raw: unknown, what: string): string {
 export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
   const r = Router({ mergeParams: true });
   const { requirePermission } = auth;
-  const vehicleId = (raw: unknown) => idParam(raw, 'Vehicle');
+  r.param('vehicleId', loadParam('vehicle', 'Vehicle', (req, id) => vehicles.get(currentAccess(req).teamId, id)));
 
   r.get('/', requirePermission('team:read'), async (req, res) => {
     const q = validate(archivedQuery, req.query, 'query');
-    res.json(await vehicles.list(currentAccess(req).teamId, q.archived === 'true'));
+    reply<VehicleSummary[]>(res, await vehicles.list(currentAccess(req).teamId, q.archived === 'true'));
   });
 
   r.post('/', requirePermission('vehicle:manage'), async (req, res) => {
     const input = validate(createSchema, req.body);
-    res.status(201).json(await vehicles.create(currentAccess(req).teamId, currentUser(req).id, input));
+    reply<VehicleRecord>(res, await vehicles.create(currentAccess(req).teamId, currentUser(req).id, input), 201);
   });
 
   r.get('/:vehicleId', requirePermission('team:read'), async (req, res) => {
-    res.json(await vehicles.get(currentAccess(req).teamId, vehicleId(req.params['vehicleId'])));
+    reply<VehicleRecord>(res, await loaded(req, 'vehicle'));
   });
 
   r.patch('/:vehicleId', requirePermission('vehicle:manage'), async (req, res) => {
     const { baseRevision: base, ...change } = validate(patchSchema, req.body);
-    res.json(await vehicles.update(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), currentUser(req).id, base, change));
+    const v = await loaded(req, 'vehicle');
+    reply<VehicleRecord>(res, await vehicles.update(currentAccess(req).teamId, v.id, currentUser(req).id, base, change));
   });
 
   r.put('/:vehicleId/data', requirePermission('vehicle:edit'), async (req, res) => {
     const input = validate(dataSchema, req.body);
     const data = parseVehicleData(input.data);
-    res.json(
-      await vehicles.update(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), currentUser(req).id, input.baseRevision, {
+    const v = await loaded(req, 'vehicle');
+    reply<VehicleRecord>(
+      res,
+      await vehicles.update(currentAccess(req).teamId, v.id, currentUser(req).id, input.baseRevision, {
         data,
         message: input.message,
       }),
@@ -66,18 +74,18 @@ export function vehiclesRouter(vehicles: Vehicles, auth: Authorizer): Router {
   });
 
   r.get('/:vehicleId/revisions', requirePermission('team:read'), async (req, res) => {
-    res.json(await vehicles.revisions(currentAccess(req).teamId, vehicleId(req.params['vehicleId'])));
+    reply<RevisionRow[]>(res, await vehicles.revisions(await loaded(req, 'vehicle')));
   });
 
   // Changed values between two revisions (e.g. ?from=1&to=3), side by side.
   r.get('/:vehicleId/compare', requirePermission('team:read'), async (req, res) => {
-    const teamId = currentAccess(req).teamId;
-    const id = vehicleId(req.params['vehicleId']);
-    res.json(await compareRevisions(req.query, (n) => vehicles.revision(teamId, id, n), 'data'));
+    const v = await loaded(req, 'vehicle');
+    reply<RevisionCompare>(res, await compareRevisions(req.query, (n) => vehicles.revision(v, n), 'data'));
   });
 
   r.get('/:vehicleId/revisions/:revision', requirePermission('team:read'), async (req, res) => {
-    res.json(await vehicles.revision(currentAccess(req).teamId, vehicleId(req.params['vehicleId']), revisionNumber(req.params['revision'])));
+    const v = await loaded(req, 'vehicle');
+    reply<VehicleRevisionRecord>(res, await vehicles.revision(v, revisionNumber(req.params['revision'])));
   });
 
   return r;

@@ -4,12 +4,13 @@ import bcrypt from 'bcryptjs';
 import { and, asc, eq, gt, isNull, sql } from 'drizzle-orm';
 import type { Executor, Orm } from '../db/client.js';
 import { memberships, passwordResets, teams, users } from '../db/schema.js';
-import { HttpError } from '../http/errors.js';
+import { DomainError } from '../../shared/errors.js';
 import { makeToken, readToken } from '../http/signed-token.js';
 import { enqueueMail } from '../mail/outbox.js';
 import { mailText } from '../mail/messages.js';
 import type { Role } from '../permissions.js';
 import { revokeTokens } from './api-tokens.js';
+import type { Me } from '../../shared/api/accounts.js';
 
 /** Links in account mail: signing secret, the app's address, lifetimes. */
 export interface AccountMailOptions {
@@ -21,12 +22,10 @@ export interface AccountMailOptions {
 
 const sha256 = (s: string) => createHash('sha256').update(s).digest('hex');
 
-export interface Me {
-  user: { id: string; email: string; displayName: string; displayUnits: 'si' | 'imperial'; instructor: boolean; emailVerified: boolean };
-  memberships: { teamId: string; teamName: string; teamSlug: string; roles: Role[] }[];
-}
+/** `Me` as the server always fills it: whether the address is confirmed, and whether the person is an instructor. */
+export type MeView = Me & { readonly user: { readonly emailVerified: boolean; readonly instructor: boolean } };
 
-const resetLinkInvalid = () => new HttpError(400, 'reset_link_invalid', 'This reset link is not valid, was already used or has expired; ask for a new one');
+const resetLinkInvalid = () => new DomainError('invalid', 'reset_link_invalid', 'This reset link is not valid, was already used or has expired; ask for a new one');
 
 export const normaliseEmail = (email: string) => email.trim().toLowerCase();
 
@@ -44,12 +43,12 @@ export class Accounts {
     return bcrypt.hash(password, this.bcryptRounds);
   }
 
-  async me(userId: string): Promise<Me> {
+  async me(userId: string): Promise<MeView> {
     const [u] = await this.orm
       .select({ id: users.id, email: users.email, displayName: users.displayName, displayUnits: users.displayUnits, instructor: users.instructor, verifiedAt: users.emailVerifiedAt })
       .from(users)
       .where(eq(users.id, userId));
-    if (!u) throw new HttpError(401, 'unauthenticated', 'Please sign in');
+    if (!u) throw new DomainError('unauthenticated', 'unauthenticated', 'Please sign in');
     const { verifiedAt, ...user } = u;
     const rows = await this.orm
       .select({ teamId: teams.id, teamName: teams.name, teamSlug: teams.slug, roles: memberships.roles })
@@ -57,7 +56,7 @@ export class Accounts {
       .innerJoin(teams, eq(teams.id, memberships.teamId))
       .where(eq(memberships.userId, userId))
       .orderBy(asc(teams.name));
-    return { user: { ...user, emailVerified: verifiedAt !== null }, memberships: rows.map((r) => ({ ...r, roles: r.roles as Role[] })) };
+    return { user: { ...user, emailVerified: verifiedAt !== null }, memberships: rows };
   }
 
   async register(input: { email: string; password: string; displayName: string }): Promise<string> {
@@ -70,7 +69,7 @@ export class Accounts {
         .onConflictDoNothing({ target: users.email })
         .returning({ id: users.id });
       const row = rows[0];
-      if (!row) throw new HttpError(409, 'email_taken', 'An account with that e-mail address already exists');
+      if (!row) throw new DomainError('conflict', 'email_taken', 'An account with that e-mail address already exists');
       await this.enqueueVerification(tx, row.id, email, input.displayName);
       return row.id;
     });
@@ -86,8 +85,8 @@ export class Accounts {
   /** Sends a new verification mail (the old links keep working until they expire). */
   async resendVerification(userId: string): Promise<void> {
     const [u] = await this.orm.select().from(users).where(eq(users.id, userId));
-    if (!u) throw new HttpError(401, 'unauthenticated', 'Please sign in');
-    if (u.emailVerifiedAt) throw new HttpError(409, 'already_verified', 'Your e-mail address is already confirmed');
+    if (!u) throw new DomainError('unauthenticated', 'unauthenticated', 'Please sign in');
+    if (u.emailVerifiedAt) throw new DomainError('conflict', 'already_verified', 'Your e-mail address is already confirmed');
     await this.orm.transaction((tx) => this.enqueueVerification(tx, u.id, u.email, u.displayName));
   }
 
@@ -95,15 +94,15 @@ export class Accounts {
   async verifyEmail(token: string): Promise<void> {
     const t = readToken<{ uid: string; email: string }>(this.mail.secret, 'verify-email', token);
     if (!t.ok || typeof t.payload.uid !== 'string' || typeof t.payload.email !== 'string') {
-      throw new HttpError(400, 'verification_invalid', 'This confirmation link is not valid');
+      throw new DomainError('invalid', 'verification_invalid', 'This confirmation link is not valid');
     }
-    if (t.expired) throw new HttpError(410, 'verification_expired', 'This confirmation link has expired; ask for a new one from your account page');
+    if (t.expired) throw new DomainError('gone', 'verification_expired', 'This confirmation link has expired; ask for a new one from your account page');
     const done = await this.orm
       .update(users)
       .set({ emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, now())` })
       .where(and(eq(users.id, t.payload.uid), eq(users.email, t.payload.email)))
       .returning({ id: users.id });
-    if (!done.length) throw new HttpError(400, 'verification_invalid', 'This confirmation link is for an address the account no longer uses');
+    if (!done.length) throw new DomainError('invalid', 'verification_invalid', 'This confirmation link is for an address the account no longer uses');
   }
 
   /** Mails a single-use reset link when the address has an account; says nothing either way. */
@@ -155,9 +154,9 @@ export class Accounts {
 
   async changePassword(userId: string, currentPassword: string, newPassword: string): Promise<void> {
     const [u] = await this.orm.select({ passwordHash: users.passwordHash }).from(users).where(eq(users.id, userId));
-    if (!u) throw new HttpError(401, 'unauthenticated', 'Please sign in');
+    if (!u) throw new DomainError('unauthenticated', 'unauthenticated', 'Please sign in');
     if (!(await bcrypt.compare(currentPassword, u.passwordHash))) {
-      throw new HttpError(400, 'wrong_password', 'The current password is not correct', { fields: [{ path: 'currentPassword', message: 'not correct' }] });
+      throw new DomainError('invalid', 'wrong_password', 'The current password is not correct', { fields: [{ path: 'currentPassword', message: 'not correct' }] });
     }
     const passwordHash = await this.hashPassword(newPassword);
     await this.orm.transaction(async (tx) => {

@@ -8,7 +8,7 @@ import { toCsv } from '../../shared/io/csv.js';
 import { and, desc, eq, lt, sql } from 'drizzle-orm';
 import type { Executor, Orm } from '../db/client.js';
 import { activityLog, users } from '../db/schema.js';
-import { HttpError } from '../http/errors.js';
+import { DomainError } from '../../shared/errors.js';
 
 export interface ActivityEntry {
   teamId: string;
@@ -25,10 +25,13 @@ export async function recordActivity(tx: Executor, e: ActivityEntry): Promise<vo
 }
 
 /** "renamed, archived, data changed" from what a revision changed. */
-export function changeWords(change: Record<string, unknown>, docWord: string): string {
+export function changeWords<K extends string>(
+  change: { name?: string | undefined; archived?: boolean | undefined } & { [P in K]?: unknown },
+  docWord: K,
+): string {
   const words: string[] = [];
-  if (change['name'] !== undefined) words.push(`renamed to "${String(change['name'])}"`);
-  if (change['archived'] !== undefined) words.push(change['archived'] ? 'archived' : 'restored');
+  if (change.name !== undefined) words.push(`renamed to "${change.name}"`);
+  if (change.archived !== undefined) words.push(change.archived ? 'archived' : 'restored');
   if (change[docWord] !== undefined) words.push(`${docWord} changed`);
   return words.join(', ') || 'changed';
 }
@@ -52,7 +55,7 @@ export function checkTimeZone(tz: string): string {
     new Intl.DateTimeFormat('en-GB', { timeZone: tz });
     return tz;
   } catch {
-    throw new HttpError(400, 'invalid_input', `Unknown time zone "${tz}"`, { fields: [{ path: 'timeZone', message: 'is not an IANA time zone' }] });
+    throw new DomainError('invalid', 'invalid_input', `Unknown time zone "${tz}"`, { fields: [{ path: 'timeZone', message: 'is not an IANA time zone' }] });
   }
 }
 

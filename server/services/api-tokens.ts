@@ -7,7 +7,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import { and, desc, eq, isNull, sql } from 'drizzle-orm';
 import type { Executor, Orm } from '../db/client.js';
 import { apiTokens, memberships, teams, users, type TokenScope } from '../db/schema.js';
-import { HttpError, notFound } from '../http/errors.js';
+import { DomainError, notFound } from '../../shared/errors.js';
 import type { SessionUser } from '../http/authorize.js';
 
 export const TOKEN_PREFIX = 'rw_';
@@ -38,7 +38,7 @@ export class ApiTokens {
       .select({ teamId: memberships.teamId })
       .from(memberships)
       .where(and(eq(memberships.userId, userId), eq(memberships.teamId, input.teamId)));
-    if (!m) throw new HttpError(404, 'not_found', 'Team not found', { field: 'teamId' });
+    if (!m) throw new DomainError('not_found', 'not_found', 'Team not found', { field: 'teamId' });
     const token = TOKEN_PREFIX + randomBytes(32).toString('base64url');
     const expiresAt = input.expiresInDays ? new Date(Date.now() + input.expiresInDays * 86_400_000) : null;
     const [row] = await this.orm

@@ -4,38 +4,57 @@
  * `draft`: an approval is for the geometry it was given on.
  */
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
+import type { PgUpdateSetSource } from 'drizzle-orm/pg-core';
 import type { Executor, Orm } from '../db/client.js';
-import { axleDesignRevisions, axleDesigns, users, vehicles, type Axle, type DesignStatus } from '../db/schema.js';
-import { HttpError, notFound } from '../http/errors.js';
+import { axleDesignRevisions, axleDesigns, users, vehicles, type DesignStatus } from '../db/schema.js';
+import { DomainError, InputError, notFound } from '../../shared/errors.js';
 import { cornerSchema, upgradeCornerDocument, type Corner } from '../../shared/schema/corner.js';
 import type { CadFrame } from '../../shared/io/cad-frame.js';
 import { prepareHardpointImport, type ChangedPoint } from '../../shared/io/hardpoints.js';
 
-/** `POST …/import`: what the file would make of the design's corner; nothing is stored. */
-export interface ImportPreview {
-  corner: Corner;
-  changedPoints: ChangedPoint[];
-  warnings: string[];
-  /** The design revision the preview was made on (save with it as baseRevision). */
-  baseRevision: number;
-}
-import { parseDocument, staleRevision, type RevisionRow } from './revisions.js';
+import { parseDocument, writeRevision, type RevisionedDocument, type RevisionRow } from './revisions.js';
 import { changeWords, recordActivity } from './activity.js';
+import type { AxleName } from '../../shared/schema/axle.js';
+import type { ImportPreview } from '../../shared/api/documents.js';
 
 export interface AxleDesignView {
   id: string;
   vehicleId: string;
-  axle: Axle;
+  axle: AxleName;
   name: string;
   revision: number;
   status: DesignStatus;
   archived: boolean;
-  corner: unknown;
+  corner: Corner;
   updatedAt: Date;
   updatedByName: string | null;
 }
 
+/** What an editor's revision of a design may change. */
+export interface AxleDesignEdit {
+  name?: string | undefined;
+  archived?: boolean | undefined;
+  corner?: Corner;
+  message?: string | undefined;
+}
+
+/** What a revision of a design may write (an accepted proposal also sets the status). */
+export interface AxleDesignChange {
+  name?: string | undefined;
+  archived?: boolean | undefined;
+  corner?: unknown;
+  status?: DesignStatus;
+}
+
+type AxleDesignRow = typeof axleDesigns.$inferSelect;
+
 export const parseCorner = (doc: unknown): Corner => parseDocument(cornerSchema, upgradeCornerDocument, doc, 'corner');
+
+/**
+ * A corner as stored (design, revision or proposal rows): every one passed `parseCorner`
+ * before it was written, and the upgrade brings an older format to today's.
+ */
+export const storedCorner = (doc: unknown): Corner => upgradeCornerDocument(doc) as Corner;
 
 const columns = {
   id: axleDesigns.id,
@@ -52,13 +71,9 @@ const columns = {
 export class AxleDesigns {
   constructor(private readonly orm: Orm) {}
 
-  private async vehicleInTeam(teamId: string, vehicleId: string): Promise<void> {
-    const [v] = await this.orm.select({ id: vehicles.id }).from(vehicles).where(and(eq(vehicles.id, vehicleId), eq(vehicles.teamId, teamId)));
-    if (!v) throw notFound('Vehicle');
-  }
-
-  async list(teamId: string, vehicleId: string, includeArchived: boolean) {
-    await this.vehicleInTeam(teamId, vehicleId);
+  /** The vehicle's designs (`vehicle` as loaded for the team). */
+  async list(vehicle: { id: string }, includeArchived: boolean) {
+    const vehicleId = vehicle.id;
     const where = includeArchived
       ? eq(axleDesigns.vehicleId, vehicleId)
       : and(eq(axleDesigns.vehicleId, vehicleId), eq(axleDesigns.archived, false));
@@ -78,11 +93,12 @@ export class AxleDesigns {
       .leftJoin(users, eq(users.id, axleDesigns.updatedBy))
       .where(and(eq(axleDesigns.id, designId), eq(vehicles.teamId, teamId)));
     if (!d) throw notFound('Axle design');
-    return { ...d, corner: upgradeCornerDocument(d.corner) };
+    return { ...d, corner: storedCorner(d.corner) };
   }
 
-  async create(teamId: string, vehicleId: string, authorId: string, input: { axle: Axle; name: string; corner: Corner }): Promise<AxleDesignView> {
-    await this.vehicleInTeam(teamId, vehicleId);
+  /** A new design of the team's vehicle (`vehicle` as loaded for the team). */
+  async create(teamId: string, vehicle: { id: string }, authorId: string, input: { axle: AxleName; name: string; corner: Corner }): Promise<AxleDesignView> {
+    const vehicleId = vehicle.id;
     return this.orm.transaction(async (tx) => {
       const [d] = await tx
         .insert(axleDesigns)
@@ -104,50 +120,57 @@ export class AxleDesigns {
     });
   }
 
-  async update(
-    teamId: string,
-    designId: string,
-    authorId: string,
-    baseRevision: number,
-    change: { name?: string | undefined; archived?: boolean | undefined; corner?: Corner; message?: string | undefined },
-  ): Promise<AxleDesignView> {
-    const existing = await this.get(teamId, designId); // 404 outside the team
+  /** Applies a change based on `baseRevision`; a geometry change returns the design to draft. */
+  async update(teamId: string, designId: string, authorId: string, baseRevision: number, change: AxleDesignEdit): Promise<AxleDesignView> {
     return this.orm.transaction(async (tx) => {
-      const set: Record<string, unknown> = { revision: sql`${axleDesigns.revision} + 1`, updatedAt: sql`now()`, updatedBy: authorId };
-      if (change.name !== undefined) set['name'] = change.name;
-      if (change.archived !== undefined) set['archived'] = change.archived;
-      if (change.corner !== undefined) {
-        set['corner'] = change.corner;
-        set['status'] = 'draft';
-      }
-      const [row] = await tx
-        .update(axleDesigns)
-        .set(set)
-        .where(and(eq(axleDesigns.id, existing.id), eq(axleDesigns.revision, baseRevision)))
-        .returning();
-      if (!row) throw staleRevision(baseRevision, await this.get(teamId, designId, tx));
-      await tx.insert(axleDesignRevisions).values({
-        designId,
-        revision: row.revision,
-        name: row.name,
-        status: row.status,
-        archived: row.archived,
-        corner: row.corner,
-        message: change.message ?? null,
-        authorId,
-      });
-      await recordActivity(tx, {
+      const { row } = await writeRevision(tx, this.document, {
         teamId,
-        actorId: authorId,
-        action: change.corner !== undefined ? 'design.corner' : 'design.update',
-        subjectType: 'axle_design',
-        subjectId: designId,
-        designId,
-        summary: `Axle design "${row.name}" revision ${row.revision}: ${changeWords(change, 'corner')}${change.message ? ` (${change.message})` : ''}`,
+        id: designId,
+        baseRevision,
+        change: change.corner !== undefined ? { ...change, status: 'draft' } : change,
+        authorId,
+        message: change.message ?? null,
+        activity: (_previous, row) => ({
+          action: change.corner !== undefined ? 'design.corner' : 'design.update',
+          subjectType: 'axle_design',
+          subjectId: designId,
+          designId,
+          summary: `Axle design "${row.name}" revision ${row.revision}: ${changeWords(change, 'corner')}${change.message ? ` (${change.message})` : ''}`,
+        }),
       });
-      return this.get(teamId, designId, tx);
+      return this.get(teamId, row.id, tx);
     });
   }
+
+  /** How an axle design is locked, updated and its revision row written (services/revisions.ts); proposals accept through it. */
+  readonly document: RevisionedDocument<AxleDesignRow, AxleDesignChange, AxleDesignView> = {
+    what: 'Axle design',
+    lock: async (tx, teamId, id) => {
+      const [d] = await tx
+        .select({ design: axleDesigns })
+        .from(axleDesigns)
+        .innerJoin(vehicles, eq(vehicles.id, axleDesigns.vehicleId))
+        .where(and(eq(axleDesigns.id, id), eq(vehicles.teamId, teamId)))
+        .for('update', { of: axleDesigns });
+      return d?.design;
+    },
+    update: async (tx, previous, revision, change, authorId) => {
+      const set: PgUpdateSetSource<typeof axleDesigns> = { revision, updatedAt: sql`now()`, updatedBy: authorId };
+      if (change.name !== undefined) set.name = change.name;
+      if (change.archived !== undefined) set.archived = change.archived;
+      if (change.corner !== undefined) set.corner = change.corner;
+      if (change.status !== undefined) set.status = change.status;
+      const [row] = await tx.update(axleDesigns).set(set).where(eq(axleDesigns.id, previous.id)).returning();
+      if (!row) throw new Error('update of a locked axle design returned nothing');
+      return row;
+    },
+    insertRevision: async (tx, row, o) => {
+      await tx
+        .insert(axleDesignRevisions)
+        .values({ designId: row.id, revision: row.revision, name: row.name, status: row.status, archived: row.archived, corner: row.corner, ...o });
+    },
+    view: (tx, teamId, id) => this.get(teamId, id, tx),
+  };
 
   /**
    * Reads an uploaded hardpoint file against the design's current corner:
@@ -157,22 +180,20 @@ export class AxleDesigns {
    * into instead of the stored one so the preview shows what the user has.
    */
   async previewImport(
-    teamId: string,
-    designId: string,
+    design: AxleDesignView,
     file: { name: string; text: string },
     options: { frame?: CadFrame | undefined; corner?: Corner | undefined } = {},
   ): Promise<ImportPreview> {
-    const design = await this.get(teamId, designId);
     const stored = parseCorner(design.corner);
     if (options.corner && options.corner.type !== stored.type) {
-      throw new HttpError(400, 'invalid_input', `Invalid upload fields: corner: this design is a ${stored.type}, not a ${options.corner.type}`, {
+      throw new DomainError('invalid', 'invalid_input', `Invalid upload fields: corner: this design is a ${stored.type}, not a ${options.corner.type}`, {
         fields: [{ path: 'corner.type', message: `must be ${stored.type}` }],
       });
     }
     const prepared = prepareHardpointImport(options.corner ?? stored, file.name, file.text, options.frame);
     if (!prepared.ok) {
       const n = prepared.errors.length;
-      throw new HttpError(400, 'import_rows', `${file.name} cannot be imported: ${prepared.errors[0]}${n > 1 ? ` (and ${n - 1} more)` : ''}`, {
+      throw new DomainError('invalid', 'import_rows', `${file.name} cannot be imported: ${prepared.errors[0]}${n > 1 ? ` (and ${n - 1} more)` : ''}`, {
         errors: prepared.errors,
       });
     }
@@ -180,17 +201,17 @@ export class AxleDesigns {
       const corner = parseCorner(prepared.corner);
       return { corner, changedPoints: prepared.changedPoints, warnings: prepared.warnings, baseRevision: design.revision };
     } catch (e) {
-      if (!(e instanceof HttpError) || e.code !== 'invalid_input') throw e;
-      const fields = (e.details as { fields: { path: string; message: string }[] }).fields;
-      throw new HttpError(400, 'import_geometry', `The imported points break the corner: ${fields[0] ? `${fields[0].path}: ${fields[0].message}` : e.message}`, {
+      if (!(e instanceof InputError)) throw e;
+      const fields = e.issues;
+      throw new DomainError('invalid', 'import_geometry', `The imported points break the corner: ${fields[0] ? `${fields[0].path}: ${fields[0].message}` : e.message}`, {
         fields,
         changedPoints: prepared.changedPoints,
       });
     }
   }
 
-  async revisions(teamId: string, designId: string): Promise<(RevisionRow & { status: DesignStatus })[]> {
-    await this.get(teamId, designId);
+  /** The design's revisions, newest first (`design` as loaded for the team). */
+  async revisions(design: { id: string }): Promise<(RevisionRow & { status: DesignStatus })[]> {
     return this.orm
       .select({
         revision: axleDesignRevisions.revision,
@@ -201,12 +222,16 @@ export class AxleDesigns {
       })
       .from(axleDesignRevisions)
       .leftJoin(users, eq(users.id, axleDesignRevisions.authorId))
-      .where(eq(axleDesignRevisions.designId, designId))
+      .where(eq(axleDesignRevisions.designId, design.id))
       .orderBy(desc(axleDesignRevisions.revision));
   }
 
   async revision(teamId: string, designId: string, revision: number) {
-    await this.get(teamId, designId);
+    return this.revisionOf(await this.get(teamId, designId), revision);
+  }
+
+  /** One stored revision of the design (`design` as loaded for the team). */
+  async revisionOf(design: { id: string }, revision: number) {
     const [r] = await this.orm
       .select({
         revision: axleDesignRevisions.revision,
@@ -220,8 +245,8 @@ export class AxleDesigns {
       })
       .from(axleDesignRevisions)
       .leftJoin(users, eq(users.id, axleDesignRevisions.authorId))
-      .where(and(eq(axleDesignRevisions.designId, designId), eq(axleDesignRevisions.revision, revision)));
+      .where(and(eq(axleDesignRevisions.designId, design.id), eq(axleDesignRevisions.revision, revision)));
     if (!r) throw notFound('Revision');
-    return { ...r, corner: upgradeCornerDocument(r.corner) };
+    return { ...r, corner: storedCorner(r.corner) };
   }
 }

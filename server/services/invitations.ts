@@ -12,26 +12,21 @@
 import { and, desc, eq, gt, isNull, sql } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { memberships, teamInvitations, teams, users } from '../db/schema.js';
-import { HttpError } from '../http/errors.js';
+import { DomainError } from '../../shared/errors.js';
 import { makeToken, readToken } from '../http/signed-token.js';
 import { enqueueMail } from '../mail/outbox.js';
 import { mailText } from '../mail/messages.js';
 import type { Role } from '../permissions.js';
 import { normaliseEmail, type Accounts } from './accounts.js';
 import { recordActivity } from './activity.js';
+import type { InvitationInfo as InvitationInfoWire } from '../../shared/api/teams.js';
 
-const invalid = () => new HttpError(404, 'invitation_invalid', 'This invitation link is not valid; ask the team owner for a new one');
-const expired = () => new HttpError(410, 'invitation_expired', 'This invitation has expired; ask the team owner for a new one');
-const used = () => new HttpError(410, 'invitation_used', 'This invitation has already been accepted');
+const invalid = () => new DomainError('not_found', 'invitation_invalid', 'This invitation link is not valid; ask the team owner for a new one');
+const expired = () => new DomainError('gone', 'invitation_expired', 'This invitation has expired; ask the team owner for a new one');
+const used = () => new DomainError('gone', 'invitation_used', 'This invitation has already been accepted');
 
-export interface InvitationInfo {
-  teamId: string;
-  teamName: string;
-  email: string;
-  roles: Role[];
-  invitedByName: string | null;
-  expiresAt: Date;
-}
+/** What the invitation page shows (`expiresAt` still a Date). */
+export type InvitationInfo = Omit<InvitationInfoWire, 'expiresAt'> & { expiresAt: Date };
 
 export class Invitations {
   constructor(
@@ -53,7 +48,7 @@ export class Invitations {
       .innerJoin(users, eq(users.id, memberships.userId))
       .where(and(eq(memberships.teamId, teamId), eq(users.email, email)));
     // Owners see their members' addresses anyway; the answer names nobody.
-    if (member) throw new HttpError(409, 'already_member', 'That address belongs to a member of this team already');
+    if (member) throw new DomainError('conflict', 'already_member', 'That address belongs to a member of this team already');
     const expiresAt = new Date(Date.now() + this.o.ttlMs);
     return this.orm.transaction(async (tx) => {
       const [inv] = await tx.insert(teamInvitations).values({ teamId, email, roles: input.roles, invitedBy: inviterId, expiresAt }).returning();
@@ -63,7 +58,7 @@ export class Invitations {
       const text = mailText.invitation({ teamName: team!.name, inviterName: inviter?.name ?? 'A team owner', roles: input.roles, link: this.link(token), expiresAt });
       if (o.mail !== false) await enqueueMail(tx, { kind: 'invitation', to: email, teamId, ...text, dedupeKey: `invitation:${inv!.id}` });
       await recordActivity(tx, { teamId, actorId: inviterId, action: 'invitation.create', subjectType: 'invitation', subjectId: inv!.id, summary: `Invited ${email} as ${input.roles.join(', ')}` });
-      return { id: inv!.id, email, roles: input.roles as Role[], expiresAt, acceptedAt: null };
+      return { id: inv!.id, email, roles: input.roles, expiresAt, acceptedAt: null };
     });
   }
 
@@ -104,7 +99,7 @@ export class Invitations {
   async info(token: string): Promise<InvitationInfo> {
     const inv = await this.load(token);
     // Whether the address has an account is not said: the page offers signing in and registering alike.
-    return { teamId: inv.teamId, teamName: inv.teamName, email: inv.email, roles: inv.roles as Role[], invitedByName: inv.invitedByName, expiresAt: inv.expiresAt };
+    return { teamId: inv.teamId, teamName: inv.teamName, email: inv.email, roles: inv.roles, invitedByName: inv.invitedByName, expiresAt: inv.expiresAt };
   }
 
   /**
@@ -129,15 +124,15 @@ export class Invitations {
   }
 
   private async acceptLoaded(
-    inv: { id: string; teamId: string; email: string; roles: string[] },
+    inv: { id: string; teamId: string; email: string; roles: Role[] },
     who: { userId: string; email: string; emailVerified: boolean } | { register: { displayName: string; password: string } },
   ): Promise<{ userId: string; teamId: string }> {
     if ('userId' in who && normaliseEmail(who.email) !== inv.email) {
-      throw new HttpError(403, 'wrong_email', 'This invitation is for another e-mail address; sign in with the invited address');
+      throw new DomainError('forbidden', 'wrong_email', 'This invitation is for another e-mail address; sign in with the invited address');
     }
     // Membership binds to a confirmed address: an account registered with someone else's address cannot take their place.
     if ('userId' in who && !who.emailVerified) {
-      throw new HttpError(403, 'email_unverified', 'Confirm your e-mail address first (the link is in the mail we sent when you registered; your account page sends a new one), then accept');
+      throw new DomainError('forbidden', 'email_unverified', 'Confirm your e-mail address first (the link is in the mail we sent when you registered; your account page sends a new one), then accept');
     }
     const passwordHash = 'register' in who ? await this.accounts.hashPassword(who.register.password) : null;
     return this.orm.transaction(async (tx) => {
@@ -155,11 +150,11 @@ export class Invitations {
           .values({ email: inv.email, displayName: who.register.displayName, passwordHash: passwordHash!, emailVerifiedAt: sql`now()` })
           .onConflictDoNothing({ target: users.email })
           .returning({ id: users.id });
-        if (!rows[0]) throw new HttpError(409, 'email_taken', 'This address already has an account: sign in with it (or reset its password), then accept the invitation');
+        if (!rows[0]) throw new DomainError('conflict', 'email_taken', 'This address already has an account: sign in with it (or reset its password), then accept the invitation');
         userId = rows[0].id;
       }
       const added = await tx.insert(memberships).values({ teamId: inv.teamId, userId, roles: inv.roles }).onConflictDoNothing().returning();
-      if (!added.length) throw new HttpError(409, 'already_member', 'You are already a member of this team');
+      if (!added.length) throw new DomainError('conflict', 'already_member', 'You are already a member of this team');
       await tx.update(teamInvitations).set({ acceptedBy: userId }).where(eq(teamInvitations.id, inv.id));
       await recordActivity(tx, { teamId: inv.teamId, actorId: userId, action: 'invitation.accept', subjectType: 'invitation', subjectId: inv.id, summary: `${inv.email} accepted the invitation as ${inv.roles.join(', ')}` });
       return { userId, teamId: inv.teamId };

@@ -8,24 +8,15 @@
 import { and, asc, desc, eq } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { configurations, programmeSnapshots, programmeTeams, programmes, teams, users } from '../db/schema.js';
-import { HttpError, notFound } from '../http/errors.js';
-import type { TrackProfileId } from '../../shared/intent/profiles.js';
+import { DomainError, notFound } from '../../shared/errors.js';
+import type { TrackProfileId } from '../../shared/tracks/profiles.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import type { Configurations, ConfigurationResults } from './configurations.js';
 import { toCsv } from '../../shared/io/csv.js';
+import type { Board, BoardRow, KeyFigures } from '../../shared/api/programmes.js';
 
-export interface KeyFigures {
-  /** ε per axle, deg/deg (as used by the balance model). */
-  rollSteerFront: number | null;
-  rollSteerRear: number | null;
-  /** Roll-steer term of the understeer budget, deg/g: the understeer-gradient change the roll steer makes. */
-  rollSteerUndersteerDegPerG: number | null;
-  /** Whole understeer gradient, deg/g. */
-  understeerGradientDegPerG: number | null;
-  /** Bump steer of each corner over the profile's travel, deg/m. */
-  bumpSteerFrontDegPerM: number | null;
-  bumpSteerRearDegPerM: number | null;
-}
+/** A programme as the `:programmeId` loader gives it (its instructor only). */
+export type ProgrammeRow = typeof programmes.$inferSelect;
 
 const num = (x: unknown): number | null => (typeof x === 'number' ? x : null);
 function pick(o: unknown, path: string[]): unknown {
@@ -46,16 +37,6 @@ export function keyFigures(r: ConfigurationResults): KeyFigures {
   };
 }
 
-export interface BoardRow {
-  teamId: string;
-  teamName: string;
-  configurationId: string;
-  configurationName: string;
-  status: string;
-  latest: { revision: number; trackProfile: string; figures: KeyFigures } | { revision: number; error: string };
-  approved: { revision: number; approvedAt: Date; engineVersion: string; trackProfile: string; figures: KeyFigures } | null;
-}
-
 const FIGURE_KEYS: (keyof KeyFigures)[] = [
   'rollSteerFront',
   'rollSteerRear',
@@ -72,7 +53,7 @@ export class Programmes {
   ) {}
 
   private instructorOnly(user: { instructor: boolean }) {
-    if (!user.instructor) throw new HttpError(403, 'forbidden', 'Only instructors run programmes');
+    if (!user.instructor) throw new DomainError('forbidden', 'forbidden', 'Only instructors run programmes');
   }
 
   async create(user: { id: string; instructor: boolean }, input: { name: string; trackProfile: TrackProfileId }) {
@@ -85,10 +66,16 @@ export class Programmes {
     return this.orm.select().from(programmes).where(eq(programmes.instructorId, user.id)).orderBy(asc(programmes.name));
   }
 
-  /** The programme, for its instructor only (anyone else: 404). */
-  async get(user: { id: string }, id: string) {
+  /** The programme row, for its instructor only (anyone else: 404); the `:programmeId` loader. */
+  async load(user: { id: string }, id: string): Promise<ProgrammeRow> {
     const [p] = await this.orm.select().from(programmes).where(and(eq(programmes.id, id), eq(programmes.instructorId, user.id)));
     if (!p) throw notFound('Programme');
+    return p;
+  }
+
+  /** The loaded programme with its teams. */
+  async get(p: ProgrammeRow) {
+    const id = p.id;
     const members = await this.orm
       .select({ teamId: programmeTeams.teamId, teamName: teams.name, teamSlug: teams.slug, status: programmeTeams.status, invitedAt: programmeTeams.invitedAt, decidedAt: programmeTeams.decidedAt })
       .from(programmeTeams)
@@ -98,13 +85,13 @@ export class Programmes {
     return { ...p, teams: members };
   }
 
-  async inviteTeam(user: { id: string }, id: string, teamSlug: string) {
-    await this.get(user, id);
+  async inviteTeam(p: ProgrammeRow, teamSlug: string) {
+    const id = p.id;
     const [t] = await this.orm.select({ id: teams.id }).from(teams).where(eq(teams.slug, teamSlug));
-    if (!t) throw new HttpError(404, 'not_found', `No team has the address "${teamSlug}"`, { field: 'teamSlug' });
+    if (!t) throw new DomainError('not_found', 'not_found', `No team has the address "${teamSlug}"`, { field: 'teamSlug' });
     const rows = await this.orm.insert(programmeTeams).values({ programmeId: id, teamId: t.id }).onConflictDoNothing().returning();
-    if (!rows.length) throw new HttpError(409, 'already_invited', 'That team is already in this programme');
-    return (await this.get(user, id)).teams.find((x) => x.teamId === t.id)!;
+    if (!rows.length) throw new DomainError('conflict', 'already_invited', 'That team is already in this programme');
+    return (await this.get(p)).teams.find((x) => x.teamId === t.id)!;
   }
 
   /** A team's programme invitations, for its owner. */
@@ -139,8 +126,9 @@ export class Programmes {
     return !!r;
   }
 
-  async board(user: { id: string }, id: string): Promise<{ programmeId: string; trackProfile: string; engineVersion: string; rows: BoardRow[] }> {
-    const p = await this.get(user, id);
+  async board(programme: ProgrammeRow): Promise<Board> {
+    const id = programme.id;
+    const p = await this.get(programme);
     const rows: BoardRow[] = [];
     for (const t of p.teams.filter((x) => x.status === 'accepted')) {
       const list = await this.orm
@@ -151,16 +139,16 @@ export class Programmes {
       for (const c of list) {
         let latest: BoardRow['latest'];
         try {
-          const { inputs } = await this.configs.inputs(t.teamId, c.id, c.revision);
-          latest = { revision: c.revision, trackProfile: p.trackProfile, figures: keyFigures(await this.configs.compute({ ...inputs, trackProfile: p.trackProfile as TrackProfileId })) };
+          const { inputs } = await this.configs.inputs(c);
+          latest = { revision: c.revision, trackProfile: p.trackProfile, figures: keyFigures(await this.configs.compute({ ...inputs, trackProfile: p.trackProfile })) };
         } catch (err) {
           latest = { revision: c.revision, error: err instanceof Error ? err.message : String(err) };
         }
-        const [a] = await this.configs.approvals(t.teamId, c.id);
+        const [a] = await this.configs.approvals(c);
         let approved: BoardRow['approved'] = null;
         if (a) {
-          const full = await this.configs.frozen(t.teamId, c.id, a.id);
-          approved = { revision: a.revision, approvedAt: a.approvedAt, engineVersion: a.engineVersion, trackProfile: full.trackProfile, figures: keyFigures(full.results) };
+          const full = await this.configs.frozen(c, a.id);
+          approved = { revision: a.revision, approvedAt: a.approvedAt.toISOString(), engineVersion: a.engineVersion, trackProfile: full.trackProfile, figures: keyFigures(full.results) };
         }
         rows.push({ teamId: t.teamId, teamName: t.teamName, configurationId: c.id, configurationName: c.name, status: c.status, latest, approved });
       }
@@ -168,14 +156,14 @@ export class Programmes {
     return { programmeId: id, trackProfile: p.trackProfile, engineVersion: ENGINE_VERSION, rows };
   }
 
-  async snapshot(user: { id: string }, id: string, label?: string) {
-    const board = await this.board(user, id);
-    const [s] = await this.orm.insert(programmeSnapshots).values({ programmeId: id, label: label ?? null, board, takenBy: user.id }).returning();
+  async snapshot(user: { id: string }, p: ProgrammeRow, label?: string) {
+    const board = await this.board(p);
+    const [s] = await this.orm.insert(programmeSnapshots).values({ programmeId: p.id, label: label ?? null, board, takenBy: user.id }).returning();
     return s!;
   }
 
-  async snapshots(user: { id: string }, id: string) {
-    await this.get(user, id);
+  async snapshots(p: ProgrammeRow) {
+    const id = p.id;
     return this.orm
       .select({ id: programmeSnapshots.id, label: programmeSnapshots.label, takenAt: programmeSnapshots.takenAt })
       .from(programmeSnapshots)
@@ -183,15 +171,15 @@ export class Programmes {
       .orderBy(desc(programmeSnapshots.takenAt));
   }
 
-  async snapshotById(user: { id: string }, id: string, snapshotId: string) {
-    await this.get(user, id);
+  async snapshotById(p: ProgrammeRow, snapshotId: string) {
+    const id = p.id;
     const [s] = await this.orm.select().from(programmeSnapshots).where(and(eq(programmeSnapshots.id, snapshotId), eq(programmeSnapshots.programmeId, id)));
     if (!s) throw notFound('Snapshot');
     return s;
   }
 
   /** The snapshot as CSV: one line per configuration, latest and approved figures side by side. */
-  static csv(board: { rows: BoardRow[] }): string {
+  static csv(board: Board): string {
     const header = [
       'team',
       'configuration',

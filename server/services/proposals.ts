@@ -8,11 +8,12 @@
 import { and, desc, eq, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import type { Orm } from '../db/client.js';
-import { axleDesignProposals, axleDesignRevisions, axleDesigns, users, type ProposalStatus } from '../db/schema.js';
-import { HttpError, notFound } from '../http/errors.js';
-import { upgradeCornerDocument, type Corner } from '../../shared/schema/corner.js';
-import type { AxleDesigns, AxleDesignView } from './axle-designs.js';
+import { axleDesignProposals, users, type ProposalStatus } from '../db/schema.js';
+import { DomainError, notFound } from '../../shared/errors.js';
+import type { Corner } from '../../shared/schema/corner.js';
+import { storedCorner, type AxleDesigns, type AxleDesignView } from './axle-designs.js';
 import { recordActivity } from './activity.js';
+import { writeRevision } from './revisions.js';
 
 export interface ProposalView {
   id: string;
@@ -28,7 +29,7 @@ export interface ProposalView {
   decidedAt: Date | null;
   decisionMessage: string | null;
   acceptedRevision: number | null;
-  corner?: unknown;
+  corner?: Corner;
 }
 
 const author = alias(users, 'author');
@@ -50,7 +51,7 @@ const columns = {
   acceptedRevision: axleDesignProposals.acceptedRevision,
 };
 
-const closed = (p: { status: string }) => new HttpError(409, 'proposal_closed', `This proposal is already ${p.status}`);
+const closed = (p: { status: string }) => new DomainError('conflict', 'proposal_closed', `This proposal is already ${p.status}`);
 
 export class Proposals {
   constructor(
@@ -58,19 +59,20 @@ export class Proposals {
     private readonly designs: AxleDesigns,
   ) {}
 
-  async list(teamId: string, designId: string): Promise<ProposalView[]> {
-    await this.designs.get(teamId, designId);
+  /** The design's proposals, newest first (`design` as loaded for the team). */
+  async list(design: { id: string }): Promise<ProposalView[]> {
     return this.orm
       .select(columns)
       .from(axleDesignProposals)
       .leftJoin(author, eq(author.id, axleDesignProposals.authorId))
       .leftJoin(decider, eq(decider.id, axleDesignProposals.decidedBy))
-      .where(eq(axleDesignProposals.designId, designId))
+      .where(eq(axleDesignProposals.designId, design.id))
       .orderBy(desc(axleDesignProposals.createdAt));
   }
 
-  async get(teamId: string, designId: string, proposalId: string): Promise<ProposalView> {
-    await this.designs.get(teamId, designId);
+  /** One proposal of the design (`design` as loaded for the team); 404 when it is another design's. */
+  async getOf(design: { id: string }, proposalId: string): Promise<ProposalView> {
+    const designId = design.id;
     const [p] = await this.orm
       .select({ ...columns, corner: axleDesignProposals.corner })
       .from(axleDesignProposals)
@@ -78,16 +80,17 @@ export class Proposals {
       .leftJoin(decider, eq(decider.id, axleDesignProposals.decidedBy))
       .where(and(eq(axleDesignProposals.id, proposalId), eq(axleDesignProposals.designId, designId)));
     if (!p) throw notFound('Proposal');
-    return { ...p, corner: upgradeCornerDocument(p.corner) };
+    return { ...p, corner: storedCorner(p.corner) };
   }
 
+  /** A new open proposal on `design` (as loaded for the team). */
   async create(
     teamId: string,
-    designId: string,
+    design: AxleDesignView,
     authorId: string,
-    input: { corner: Corner; baseRevision: number; message?: string | undefined; origin?: unknown },
+    input: { corner: Corner; baseRevision: number; message?: string | undefined; origin?: Record<string, unknown> | undefined },
   ): Promise<ProposalView> {
-    const design = await this.designs.get(teamId, designId);
+    const designId = design.id;
     if (input.baseRevision !== design.revision) throw this.outdated(input.baseRevision, design);
     const p = await this.orm.transaction(async (tx) => {
       const [row] = await tx
@@ -105,12 +108,17 @@ export class Proposals {
       });
       return row!;
     });
-    return this.get(teamId, designId, p.id);
+    return this.getOf(design, p.id);
   }
 
-  /** Writes the proposed corner as the design's next revision (status `accepted`). */
-  async accept(teamId: string, designId: string, proposalId: string, deciderId: string, message?: string): Promise<{ proposal: ProposalView; design: AxleDesignView }> {
-    await this.designs.get(teamId, designId);
+  /**
+   * Writes the proposed corner as the design's next revision (status `accepted`).
+   * `design` and `proposal` as loaded for the team (routes/loaders.ts); the
+   * proposal is read again under a row lock.
+   */
+  async accept(teamId: string, design: { id: string }, proposal: { id: string }, deciderId: string, message?: string): Promise<{ proposal: ProposalView; design: AxleDesignView }> {
+    const designId = design.id;
+    const proposalId = proposal.id;
     await this.orm.transaction(async (tx) => {
       const [p] = await tx
         .select()
@@ -119,55 +127,46 @@ export class Proposals {
         .for('update');
       if (!p) throw notFound('Proposal');
       if (p.status !== 'open') throw closed(p);
-      const [proposer] = p.authorId ? await tx.select({ name: users.displayName }).from(users).where(eq(users.id, p.authorId)) : [];
-      const [row] = await tx
-        .update(axleDesigns)
-        .set({ corner: p.corner, status: 'accepted', revision: sql`${axleDesigns.revision} + 1`, updatedAt: sql`now()`, updatedBy: deciderId })
-        .where(and(eq(axleDesigns.id, designId), eq(axleDesigns.revision, p.baseRevision)))
-        .returning();
-      if (!row) throw this.outdated(p.baseRevision, await this.designs.get(teamId, designId, tx));
-      const note = [`Accepted proposal${proposer ? ` by ${proposer.name}` : ''}`, p.message, message].filter(Boolean).join(': ');
-      await tx.insert(axleDesignRevisions).values({
-        designId,
-        revision: row.revision,
-        name: row.name,
-        status: row.status,
-        archived: row.archived,
-        corner: row.corner,
-        message: note,
-        // The geometry's author is the proposer; the design records who accepted it.
-        authorId: p.authorId,
+      const { row } = await writeRevision(tx, this.designs.document, {
+        teamId,
+        id: designId,
+        baseRevision: p.baseRevision,
+        change: { corner: p.corner, status: 'accepted' },
+        authorId: deciderId,
+        // The revision is the proposer's: their own note and their name, in the history and on the design alike.
+        // Who accepted it, and what they said, stay on the proposal (decidedBy, decisionMessage) and in the activity.
+        message: p.message,
+        revisionAuthorId: p.authorId,
+        conflict: (current) => this.outdated(p.baseRevision, current),
+        activity: (_previous, row) => ({
+          action: 'proposal.accept',
+          subjectType: 'proposal',
+          subjectId: proposalId,
+          designId,
+          summary: `Accepted a proposal for "${row.name}" as revision ${row.revision}`,
+        }),
       });
       await tx
         .update(axleDesignProposals)
         .set({ status: 'accepted', decidedBy: deciderId, decidedAt: sql`now()`, decisionMessage: message ?? null, acceptedRevision: row.revision })
         .where(eq(axleDesignProposals.id, proposalId));
-      await recordActivity(tx, {
-        teamId,
-        actorId: deciderId,
-        action: 'proposal.accept',
-        subjectType: 'proposal',
-        subjectId: proposalId,
-        designId,
-        summary: `Accepted a proposal for "${row.name}" as revision ${row.revision}`,
-      });
     });
-    return { proposal: await this.get(teamId, designId, proposalId), design: await this.designs.get(teamId, designId) };
+    return { proposal: await this.getOf(design, proposalId), design: await this.designs.get(teamId, designId) };
   }
 
-  async reject(teamId: string, designId: string, proposalId: string, deciderId: string, message?: string): Promise<ProposalView> {
-    return this.close(teamId, designId, proposalId, 'rejected', deciderId, message);
+  async reject(teamId: string, design: AxleDesignView, proposal: { id: string }, deciderId: string, message?: string): Promise<ProposalView> {
+    return this.close(teamId, design, proposal.id, 'rejected', deciderId, message);
   }
 
   /** Only the author may withdraw their own open proposal. */
-  async withdraw(teamId: string, designId: string, proposalId: string, userId: string): Promise<ProposalView> {
-    const p = await this.get(teamId, designId, proposalId);
-    if (p.authorId !== userId) throw new HttpError(403, 'forbidden', 'Only the author can withdraw a proposal');
-    return this.close(teamId, designId, proposalId, 'withdrawn', userId);
+  async withdraw(teamId: string, design: AxleDesignView, proposal: ProposalView, userId: string): Promise<ProposalView> {
+    if (proposal.authorId !== userId) throw new DomainError('forbidden', 'forbidden', 'Only the author can withdraw a proposal');
+    return this.close(teamId, design, proposal.id, 'withdrawn', userId);
   }
 
-  private async close(teamId: string, designId: string, proposalId: string, status: 'rejected' | 'withdrawn', userId: string, message?: string) {
-    const design = await this.designs.get(teamId, designId);
+  /** `design` as loaded for the team; only an open proposal closes (else 409 with its state now). */
+  private async close(teamId: string, design: AxleDesignView, proposalId: string, status: 'rejected' | 'withdrawn', userId: string, message?: string) {
+    const designId = design.id;
     const updated = await this.orm.transaction(async (tx) => {
       const rows = await tx
         .update(axleDesignProposals)
@@ -180,13 +179,12 @@ export class Proposals {
       }
       return rows;
     });
-    if (!updated.length) throw closed(await this.get(teamId, designId, proposalId));
-    return this.get(teamId, designId, proposalId);
+    if (!updated.length) throw closed(await this.getOf(design, proposalId));
+    return this.getOf(design, proposalId);
   }
 
-  private outdated(baseRevision: number, current: AxleDesignView): HttpError {
-    return new HttpError(
-      409,
+  private outdated(baseRevision: number, current: AxleDesignView): DomainError {
+    return new DomainError('conflict',
       'proposal_outdated',
       `The design is at revision ${current.revision}, but the proposal was made on revision ${baseRevision}; propose again on the current geometry`,
       { baseRevision, current },

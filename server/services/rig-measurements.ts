@@ -3,27 +3,29 @@
  * (shared/io/rig-measurement.ts), stored whole or not at all against a
  * configuration revision's front or rear axle design, or against an axle
  * design revision as a baseline of the current car, and compared with the
- * design's predicted toe and camber (shared/intent/rig-compare.ts, run in
+ * design's predicted toe and camber (shared/rig/compare.ts, run in
  * the compute pool). The comparison is recomputed on every read with the
  * team's current rig tolerance; nothing computed is stored or taken from
  * the browser.
  */
 import { and, desc, eq, type SQL } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
-import { axleDesignRevisions, axleDesigns, rigMeasurements, teamRigSettings, users, vehicles, type Axle } from '../db/schema.js';
-import { HttpError, notFound } from '../http/errors.js';
+import { axleDesignRevisions, axleDesigns, rigMeasurements, teamRigSettings, users, vehicles } from '../db/schema.js';
+import { DomainError, notFound } from '../../shared/errors.js';
 import type { ComputePool } from '../compute/pool.js';
 import type { Configurations } from './configurations.js';
 import { recordActivity } from './activity.js';
 import type { UploadedText } from '../http/upload.js';
 import { previewRigCsv, readRigCsv, type RigMapping, type RigPoint, type RigPreview } from '../../shared/io/rig-measurement.js';
-import { DEFAULT_RIG_TOLERANCE, type RigBasis, type RigComparison, type RigTolerance } from '../../shared/intent/rig-compare.js';
+import { DEFAULT_RIG_TOLERANCE, type RigBasis, type RigComparison, type RigTolerance } from '../../shared/rig/compare.js';
 import { upgradeCornerDocument } from '../../shared/schema/corner.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
+import type { AxleName } from '../../shared/schema/axle.js';
+import type { RigToleranceView as RigToleranceWire } from '../../shared/api/rig.js';
 
 /** What a measurement is compared with. */
 export type RigTarget =
-  | { kind: 'configuration'; configurationId: string; configurationRevision?: number | undefined; axle: Axle }
+  | { kind: 'configuration'; configurationId: string; configurationRevision?: number | undefined; axle: AxleName }
   | { kind: 'baseline'; designId: string; designRevision?: number | undefined };
 
 export interface RigOptions {
@@ -34,15 +36,14 @@ export interface RigOptions {
   basis: RigBasis;
 }
 
-export interface RigToleranceView extends RigTolerance {
-  /** True when the team has not set its own (the product defaults apply). */
-  isDefault: boolean;
-  updatedAt: Date | null;
-  updatedByName: string | null;
-}
+/** The team's tolerance (`updatedAt` still a Date). */
+export type RigToleranceView = Omit<RigToleranceWire, 'updatedAt'> & { updatedAt: Date | null };
 
 const rowErrors = (errors: string[]) =>
-  new HttpError(400, 'rig_rows', `The rig file was refused: ${errors[0]}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, { errors });
+  new DomainError('invalid', 'rig_rows', `The rig file was refused: ${errors[0]}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, { errors });
+
+/** A measurement's row without its points: what the list shows and the `:measurementId` loader gives. */
+export type RigMeasurementSummary = Awaited<ReturnType<RigMeasurements['list']>>[number];
 
 const summaryColumns = {
   id: rigMeasurements.id,
@@ -109,7 +110,7 @@ export class RigMeasurements {
   /** The design revision and corner a target stands for (404 for another team's). */
   private async resolveTarget(teamId: string, target: RigTarget) {
     if (target.kind === 'configuration') {
-      const c = await this.configurations.inputs(teamId, target.configurationId, target.configurationRevision);
+      const c = await this.configurations.inputs(await this.configurations.get(teamId, target.configurationId), target.configurationRevision);
       const designId = target.axle === 'front' ? c.refs.frontDesignId : c.refs.rearDesignId;
       const designRevision = target.axle === 'front' ? c.refs.frontDesignRevision : c.refs.rearDesignRevision;
       const corner = target.axle === 'front' ? c.inputs.frontCorner : c.inputs.rearCorner;
@@ -131,7 +132,7 @@ export class RigMeasurements {
       .select({ corner: axleDesignRevisions.corner })
       .from(axleDesignRevisions)
       .where(and(eq(axleDesignRevisions.designId, designId), eq(axleDesignRevisions.revision, revision)));
-    if (!r) throw new HttpError(404, 'not_found', `Axle design revision ${revision} not found`, { field: 'designRevision' });
+    if (!r) throw new DomainError('not_found', 'not_found', `Axle design revision ${revision} not found`, { field: 'designRevision' });
     return upgradeCornerDocument(r.corner);
   }
 
@@ -209,27 +210,26 @@ export class RigMeasurements {
       .leftJoin(users, eq(users.id, rigMeasurements.authorId));
   }
 
-  private async summary(teamId: string, id: string) {
+  /** The measurement's summary row, if it is the team's (the `:measurementId` loader). */
+  async summary(teamId: string, id: string): Promise<RigMeasurementSummary> {
     const [row] = await this.select().where(and(eq(rigMeasurements.id, id), eq(rigMeasurements.teamId, teamId)));
     if (!row) throw notFound('Rig measurement');
     return row;
   }
 
   /** One measurement with its mapping and points, and the comparison recomputed now with the team's tolerance. */
-  async get(teamId: string, id: string) {
-    const s = await this.summary(teamId, id);
-    const [row] = await this.orm.select({ mapping: rigMeasurements.mapping, points: rigMeasurements.points }).from(rigMeasurements).where(eq(rigMeasurements.id, id));
-    const points = row!.points as RigPoint[];
+  async get(teamId: string, s: RigMeasurementSummary) {
+    const [row] = await this.orm.select({ mapping: rigMeasurements.mapping, points: rigMeasurements.points }).from(rigMeasurements).where(eq(rigMeasurements.id, s.id));
+    const points = row!.points;
     const corner = await this.designCorner(s.designId, s.designRevision);
     const tolerance = await this.tolerance(teamId);
     const comparison = await this.compare(corner, points, { rackMm: s.rackMm, side: s.side, basis: s.basis }, tolerance);
-    return { ...s, mapping: row!.mapping as RigMapping, points, comparison, engineVersion: ENGINE_VERSION };
+    return { ...s, mapping: row!.mapping, points, comparison, engineVersion: ENGINE_VERSION };
   }
 
-  async remove(teamId: string, id: string, userId: string): Promise<void> {
-    const s = await this.summary(teamId, id);
+  async remove(teamId: string, s: RigMeasurementSummary, userId: string): Promise<void> {
     await this.orm.transaction(async (tx) => {
-      await tx.delete(rigMeasurements).where(eq(rigMeasurements.id, id));
+      await tx.delete(rigMeasurements).where(eq(rigMeasurements.id, s.id));
       await recordActivity(tx, {
         teamId,
         actorId: userId,

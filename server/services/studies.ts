@@ -13,37 +13,26 @@
  */
 import { randomInt } from 'node:crypto';
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
-import { parseOrThrow } from '../../shared/errors.js';
-import { planStudy, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
+import { planStudy, studyKeyFigures, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, type StudyKeyFigure, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
 import type { Database } from '../db/client.js';
-import { studies, users } from '../db/schema.js';
-import { HttpError, notFound, validate } from '../http/errors.js';
+import { configurations, programmeTeams, studies, studyAttachments, teams, users } from '../db/schema.js';
+import { DomainError, notFound, parseOrThrow } from '../../shared/errors.js';
 import type { AxleDesigns } from './axle-designs.js';
 import type { Configurations } from './configurations.js';
 import type { Proposals, ProposalView } from './proposals.js';
 import type { Vehicles } from './vehicles.js';
+import type { ProgrammeRow } from './programmes.js';
 import { QUEUES, bossDb, inTransaction, type JobQueue, type QueueJobData } from '../compute/queue.js';
+import type { AxleName } from '../../shared/schema/axle.js';
+import type { AttachedStudy as AttachedStudyWire, StudyResolvedTarget, StudyView as StudyWire } from '../../shared/api/studies.js';
 
-export type StudyStatus = 'queued' | 'running' | 'completed' | 'failed' | 'cancelled';
-
-export interface StudyView {
-  id: string;
-  kind: 'tolerance' | 'sweep';
-  label: string;
-  status: StudyStatus;
-  progress: { doneChunks: number; totalChunks: number; doneSamples: number; totalSamples: number };
-  /** From the measured chunk rate since the first chunk started; null until a chunk is done. */
-  etaSeconds: number | null;
-  error: { code: string; message: string } | null;
-  /** The target with its revision resolved (and the axle of a configuration). */
-  target: Record<string, unknown>;
-  seed: number;
+/** A study as the service hands it over: the wire type with its times still Dates (`res.json` writes them as ISO strings). */
+export type StudyView = Omit<StudyWire, 'createdAt' | 'startedAt' | 'finishedAt' | 'result'> & {
   createdAt: Date;
   startedAt: Date | null;
   finishedAt: Date | null;
-  createdBy: { id: string; displayName: string } | null;
   result?: StudyResult;
-}
+};
 
 export interface StudyOptions {
   maxActivePerTeam: number;
@@ -60,6 +49,8 @@ export function chunkJobId(studyId: string, i: number): string {
 }
 
 type Row = typeof studies.$inferSelect;
+/** A study row as the `:studyId` loader gives it, with its creator's name. */
+export type StudyRow = Row & { creatorName: string | null };
 
 const listColumns = {
   id: studies.id,
@@ -82,6 +73,9 @@ const listColumns = {
 };
 type ListRow = Pick<Row, Exclude<keyof typeof listColumns, 'creatorName'>> & { creatorName: string | null };
 
+/** A study attached to a configuration's review record, with its key figures (`attachedAt` still a Date). */
+export type AttachedStudy = Omit<AttachedStudyWire, 'attachedAt'> & { attachedAt: Date };
+
 export class Studies {
   constructor(
     private readonly db: Database,
@@ -91,14 +85,14 @@ export class Studies {
   ) {}
 
   async create(teamId: string, userId: string, body: unknown): Promise<StudyView> {
-    const request = validate(studyRequestSchema, body, 'study');
+    const request = parseOrThrow(studyRequestSchema, body, 'study');
     const [{ active } = { active: 0 }] = await this.db.orm
       .select({ active: sql<number>`count(*)::int` })
       .from(studies)
       .where(and(eq(studies.teamId, teamId), inArray(studies.status, ['queued', 'running'])));
     if (active >= this.o.maxActivePerTeam) {
-      throw new HttpError(
-        429,
+      throw new DomainError(
+        'too_many',
         'too_many_studies',
         `Your team already has ${active} studies waiting or running (at most ${this.o.maxActivePerTeam} at once); wait for one to finish or cancel one`,
         { limit: this.o.maxActivePerTeam },
@@ -115,26 +109,12 @@ export class Studies {
         [teamId, spec.kind, label, request, target, spec, spec.seed, plan.chunkCount, plan.totalSamples, userId],
       );
       const studyId = ins.rows[0]!.id;
-      const jobs = [];
-      for (let i = 0; i < plan.chunkCount; i++) {
-        const data: QueueJobData = { kind: 'study-chunk', studyId, teamId, chunkIndex: i };
-        jobs.push({
-          id: chunkJobId(studyId, i),
-          name: QUEUES.studyChunk,
-          data,
-          // Studies take turns: chunk k of every study before chunk k+1 of any.
-          priority: -i,
-          retryLimit: 3,
-          retryDelay: 0,
-          expireInSeconds: this.o.chunkExpireSeconds,
-          deadLetter: QUEUES.lost,
-        });
-      }
+      const jobs = chunkJobs(studyId, teamId, Array.from({ length: plan.chunkCount }, (_, i) => i), this.o.chunkExpireSeconds);
       for (let i = 0; i < jobs.length; i += 1000) await boss.insert(jobs.slice(i, i + 1000), { db: bossDb(client) });
       await this.queue.notify('wake', client);
       return studyId;
     }))!;
-    return this.get(teamId, id);
+    return this.get(await this.load(teamId, id));
   }
 
   async list(teamId: string): Promise<StudyView[]> {
@@ -149,49 +129,107 @@ export class Studies {
   }
 
   /** The study with its result; 410 job_gone when its work was lost. */
-  async get(teamId: string, id: string): Promise<StudyView> {
-    const r = await this.row(teamId, id);
-    if (r.error && (r.error as { code?: string }).code === 'job_gone') throw gone(r);
-    return view(r, r.result as StudyResult | null);
+  get(r: StudyRow): StudyView {
+    if (r.error?.code === 'job_gone') throw gone(r);
+    return view(r, r.result);
   }
 
-  async cancel(teamId: string, id: string): Promise<StudyView> {
-    const r = await this.row(teamId, id);
-    if (r.status !== 'queued' && r.status !== 'running') return this.get(teamId, id);
+  async cancel(teamId: string, r: StudyRow): Promise<StudyView> {
+    const id = r.id;
+    if (r.status !== 'queued' && r.status !== 'running') return this.get(r);
     const [updated] = await this.db.orm
       .update(studies)
       .set({ status: 'cancelled', finishedAt: new Date() })
       .where(and(eq(studies.id, id), inArray(studies.status, ['queued', 'running'])))
       .returning({ id: studies.id });
     if (updated) await cancelStudyChunks(this.queue, id, r.totalChunks);
-    return this.get(teamId, id);
+    return this.get(await this.load(teamId, id));
   }
 
-  async csv(teamId: string, id: string): Promise<{ filename: string; text: string }> {
-    const r = await this.row(teamId, id);
-    if (r.error && (r.error as { code?: string }).code === 'job_gone') throw gone(r);
-    if (r.status !== 'completed' || !r.result) throw new HttpError(409, 'study_not_completed', 'The study has no result yet; export it once it has completed');
+  csv(r: StudyRow): { filename: string; text: string } {
+    if (r.error?.code === 'job_gone') throw gone(r);
+    if (r.status !== 'completed' || !r.result) throw new DomainError('conflict', 'study_not_completed', 'The study has no result yet; export it once it has completed');
     const slug = r.label.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'study';
-    return { filename: `${slug}.csv`, text: studyResultCsv(r.spec as StudySpec, r.result as StudyResult) };
+    return { filename: `${slug}.csv`, text: studyResultCsv(r.spec, r.result) };
   }
 
   /** Opens variant `index` of a completed design sweep as a proposal on the studied axle design. */
-  async proposeVariant(teamId: string, id: string, index: number, userId: string): Promise<ProposalView> {
-    const r = await this.row(teamId, id);
-    if (r.kind !== 'sweep') throw new HttpError(409, 'not_a_sweep', 'Only a design sweep has variants to propose');
-    if (r.status !== 'completed') throw new HttpError(409, 'study_not_completed', 'The sweep has not completed yet');
-    const t = r.target as { designId?: string; revision?: number };
-    if (!t.designId || !t.revision) throw notFound('Axle design');
-    const corner = variantCorner(r.spec as StudySpec, index);
-    return this.deps.proposals.create(teamId, t.designId, userId, {
+  async proposeVariant(teamId: string, r: StudyRow, index: number, userId: string): Promise<ProposalView> {
+    if (r.kind !== 'sweep') throw new DomainError('conflict', 'not_a_sweep', 'Only a design sweep has variants to propose');
+    if (r.status !== 'completed') throw new DomainError('conflict', 'study_not_completed', 'The sweep has not completed yet');
+    const t = r.target;
+    const corner = variantCorner(r.spec, index);
+    return this.deps.proposals.create(teamId, await this.deps.designs.get(teamId, t.designId), userId, {
       corner,
       baseRevision: t.revision,
       message: `Variant ${index + 1} of "${r.label}"`,
-      origin: { studyId: id, variant: index },
+      origin: { studyId: r.id, variant: index },
     });
   }
 
-  private async row(teamId: string, id: string): Promise<Row & { creatorName: string | null }> {
+  /** Attaches a completed study to a configuration of the same team (idempotent: attaching again updates the note). */
+  async attach(teamId: string, r: StudyRow, configurationId: string, userId: string, note: string): Promise<AttachedStudy> {
+    const id = r.id;
+    if (r.status !== 'completed' || !r.result) throw new DomainError('conflict', 'study_not_completed', 'Only a completed study can be attached to a configuration');
+    const [c] = await this.db.orm.select({ id: configurations.id }).from(configurations).where(and(eq(configurations.id, configurationId), eq(configurations.teamId, teamId)));
+    if (!c) throw notFound('Configuration');
+    await this.db.orm
+      .insert(studyAttachments)
+      .values({ studyId: id, configurationId, teamId, note, attachedBy: userId })
+      .onConflictDoUpdate({ target: [studyAttachments.studyId, studyAttachments.configurationId], set: { note } });
+    const list = await this.attachedTo(teamId, configurationId);
+    return list.find((a) => a.studyId === id)!;
+  }
+
+  async detach(teamId: string, r: StudyRow, configurationId: string): Promise<void> {
+    const id = r.id;
+    const gone = await this.db.orm
+      .delete(studyAttachments)
+      .where(and(eq(studyAttachments.studyId, id), eq(studyAttachments.configurationId, configurationId), eq(studyAttachments.teamId, teamId)))
+      .returning({ studyId: studyAttachments.studyId });
+    if (!gone.length) throw notFound('Attachment');
+  }
+
+  /** The studies attached to a configuration, newest attachment first, with their key figures. */
+  async attachedTo(teamId: string, configurationId: string): Promise<AttachedStudy[]> {
+    const rows = await this.db.orm
+      .select({ a: studyAttachments, label: studies.label, kind: studies.kind, totalSamples: studies.totalSamples, result: studies.result, byName: users.displayName })
+      .from(studyAttachments)
+      .innerJoin(studies, eq(studies.id, studyAttachments.studyId))
+      .leftJoin(users, eq(users.id, studyAttachments.attachedBy))
+      .where(and(eq(studyAttachments.teamId, teamId), eq(studyAttachments.configurationId, configurationId)))
+      .orderBy(desc(studyAttachments.attachedAt))
+      .limit(100);
+    return rows.map((r) => attachedView(r));
+  }
+
+  /** The programme board's study column: per accepted team, its latest attached study (instructor of the programme only). */
+  async programmeStudies(programme: ProgrammeRow): Promise<{ programmeId: string; teams: { teamId: string; teamName: string; configurationName: string | null; study: AttachedStudy | null }[] }> {
+    const programmeId = programme.id;
+    const members = await this.db.orm
+      .select({ teamId: programmeTeams.teamId, teamName: teams.name })
+      .from(programmeTeams)
+      .innerJoin(teams, eq(teams.id, programmeTeams.teamId))
+      .where(and(eq(programmeTeams.programmeId, programmeId), eq(programmeTeams.status, 'accepted')))
+      .orderBy(teams.name);
+    const out = [];
+    for (const m of members) {
+      const [r] = await this.db.orm
+        .select({ a: studyAttachments, label: studies.label, kind: studies.kind, totalSamples: studies.totalSamples, result: studies.result, byName: users.displayName, configurationName: configurations.name })
+        .from(studyAttachments)
+        .innerJoin(studies, eq(studies.id, studyAttachments.studyId))
+        .innerJoin(configurations, eq(configurations.id, studyAttachments.configurationId))
+        .leftJoin(users, eq(users.id, studyAttachments.attachedBy))
+        .where(and(eq(studyAttachments.teamId, m.teamId), eq(configurations.archived, false)))
+        .orderBy(desc(studyAttachments.attachedAt))
+        .limit(1);
+      out.push({ teamId: m.teamId, teamName: m.teamName, configurationName: r?.configurationName ?? null, study: r ? attachedView(r) : null });
+    }
+    return { programmeId, teams: out };
+  }
+
+  /** The study, if it is the team's (the `:studyId` loader). */
+  async load(teamId: string, id: string): Promise<StudyRow> {
     const [r] = await this.db.orm
       .select({ study: studies, creatorName: users.displayName })
       .from(studies)
@@ -202,11 +240,11 @@ export class Studies {
   }
 
   /** The spec from the request and the target's documents. */
-  private async resolve(teamId: string, request: StudyRequest): Promise<{ spec: StudySpec; target: Record<string, unknown>; targetName: string }> {
+  private async resolve(teamId: string, request: StudyRequest): Promise<{ spec: StudySpec; target: StudyResolvedTarget; targetName: string }> {
     const { target: wanted, trackProfile, ...settings } = request;
     const seed = request.seed ?? randomInt(0, 0x7fff_ffff);
-    let docs: { axle: 'front' | 'rear'; corner: unknown; vehicle?: unknown; otherCorner?: unknown; trackProfile: unknown };
-    let target: Record<string, unknown>;
+    let docs: { axle: AxleName; corner: unknown; vehicle?: unknown; otherCorner?: unknown; trackProfile: unknown };
+    let target: StudyResolvedTarget;
     let targetName: string;
     if ('axleDesignId' in wanted) {
       const d = await this.deps.designs.get(teamId, wanted.axleDesignId);
@@ -218,7 +256,7 @@ export class Studies {
       targetName = `${d.name} r${revision}`;
     } else {
       const c = await this.deps.configurations.get(teamId, wanted.configurationId);
-      const { revision, refs, inputs } = await this.deps.configurations.inputs(teamId, wanted.configurationId, wanted.revision);
+      const { revision, refs, inputs } = await this.deps.configurations.inputs(c, wanted.revision);
       const axle = wanted.axle;
       docs = {
         axle,
@@ -229,14 +267,31 @@ export class Studies {
       };
       const designId = axle === 'front' ? refs.frontDesignId : refs.rearDesignId;
       const designRevision = axle === 'front' ? refs.frontDesignRevision : refs.rearDesignRevision;
-      target = { configurationId: c.id, revision, axle, designId, designRevision };
+      // A design sweep's variants are proposed on the design revision the study ran on: `revision` is that one.
+      target = { configurationId: c.id, revision: designRevision, axle, designId, designRevision };
       targetName = `${c.name} r${revision} (${axle})`;
     }
     const spec = parseOrThrow(studySpecSchema, { ...settings, ...docs, target: wanted, seed }, 'study');
-    // A design sweep's variants are proposed on the design revision the study ran on.
-    if ('designRevision' in target) target['revision'] = target['designRevision'];
     return { spec, target, targetName };
   }
+}
+
+/** The queue jobs of chunks `indices` of a study (fixed ids: chunkJobId). */
+export function chunkJobs(studyId: string, teamId: string, indices: number[], expireInSeconds: number) {
+  return indices.map((i) => {
+    const data: QueueJobData = { kind: 'study-chunk', studyId, teamId, chunkIndex: i };
+    return {
+      id: chunkJobId(studyId, i),
+      name: QUEUES.studyChunk,
+      data,
+      // Studies take turns: chunk k of every study before chunk k+1 of any.
+      priority: -i,
+      retryLimit: 3,
+      retryDelay: 0,
+      expireInSeconds,
+      deadLetter: QUEUES.lost,
+    };
+  });
 }
 
 /** Cancels the chunk jobs still waiting (by their fixed ids) and tells the workers running one to stop. */
@@ -247,8 +302,22 @@ export async function cancelStudyChunks(queue: JobQueue, studyId: string, totalC
   await queue.notify(`cancel:${studyId}`);
 }
 
-function gone(r: Row): HttpError {
-  return new HttpError(410, 'job_gone', (r.error as { message: string }).message, { reason: 'lost', studyId: r.id });
+function attachedView(r: { a: typeof studyAttachments.$inferSelect; label: string; kind: 'tolerance' | 'sweep'; totalSamples: number; result: StudyResult | null; byName: string | null }): AttachedStudy {
+  return {
+    studyId: r.a.studyId,
+    configurationId: r.a.configurationId,
+    label: r.label,
+    kind: r.kind,
+    totalSamples: r.totalSamples,
+    note: r.a.note,
+    attachedAt: r.a.attachedAt,
+    attachedBy: r.a.attachedBy ? { id: r.a.attachedBy, displayName: r.byName ?? '' } : null,
+    keyFigures: r.result ? studyKeyFigures(r.result) : [],
+  };
+}
+
+function gone(r: Row): DomainError {
+  return new DomainError('gone', 'job_gone', r.error?.message ?? 'The study was lost', { reason: 'lost', studyId: r.id });
 }
 
 function view(r: ListRow, result?: StudyResult | null): StudyView {
@@ -264,8 +333,8 @@ function view(r: ListRow, result?: StudyResult | null): StudyView {
     status: r.status,
     progress: { doneChunks: r.doneChunks, totalChunks: r.totalChunks, doneSamples: r.doneSamples, totalSamples: r.totalSamples },
     etaSeconds,
-    error: (r.error as StudyView['error']) ?? null,
-    target: r.target as Record<string, unknown>,
+    error: r.error,
+    target: r.target,
     seed: r.seed,
     createdAt: r.createdAt,
     startedAt: r.startedAt,

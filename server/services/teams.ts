@@ -3,25 +3,12 @@ import { and, asc, eq } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { configurationApprovals, configurations, memberships, teams, users } from '../db/schema.js';
 import { revokeTokens } from './api-tokens.js';
-import { HttpError, notFound } from '../http/errors.js';
+import { DomainError, notFound } from '../../shared/errors.js';
 import { permissionsOf, type Role } from '../permissions.js';
 import { recordActivity } from './activity.js';
+import type { TeamMember, TeamSummary } from '../../shared/api/teams.js';
 
-export interface TeamSummary {
-  id: string;
-  name: string;
-  slug: string;
-  roles: Role[];
-}
-
-export interface Member {
-  userId: string;
-  email: string;
-  displayName: string;
-  roles: Role[];
-}
-
-const lastOwner = () => new HttpError(409, 'last_owner', 'A team needs at least one owner: make someone else an owner first');
+const lastOwner = () => new DomainError('conflict', 'last_owner', 'A team needs at least one owner: make someone else an owner first');
 
 export class Teams {
   constructor(private readonly orm: Orm) {}
@@ -33,7 +20,7 @@ export class Teams {
       .innerJoin(teams, eq(teams.id, memberships.teamId))
       .where(eq(memberships.userId, userId))
       .orderBy(asc(teams.name));
-    return rows.map((r) => ({ ...r, roles: r.roles as Role[] }));
+    return rows;
   }
 
   async detail(teamId: string, roles: Role[]) {
@@ -45,7 +32,7 @@ export class Teams {
   async create(userId: string, input: { name: string; slug: string }): Promise<TeamSummary> {
     return this.orm.transaction(async (tx) => {
       const [t] = await tx.insert(teams).values(input).onConflictDoNothing({ target: teams.slug }).returning();
-      if (!t) throw new HttpError(409, 'slug_taken', `The address "${input.slug}" is already used by another team`);
+      if (!t) throw new DomainError('conflict', 'slug_taken', `The address "${input.slug}" is already used by another team`);
       await tx.insert(memberships).values({ teamId: t.id, userId, roles: ['owner'] });
       return { id: t.id, name: t.name, slug: t.slug, roles: ['owner'] };
     });
@@ -64,22 +51,22 @@ export class Teams {
       .innerJoin(configurations, eq(configurations.id, configurationApprovals.configurationId))
       .where(eq(configurations.teamId, teamId))
       .limit(1);
-    if (a) throw new HttpError(409, 'has_approvals', 'This team has approved configurations; approved work is kept: archive its vehicles and designs instead');
+    if (a) throw new DomainError('conflict', 'has_approvals', 'This team has approved configurations; approved work is kept: archive its vehicles and designs instead');
     await this.orm.delete(teams).where(eq(teams.id, teamId));
   }
 
-  async members(teamId: string): Promise<Member[]> {
+  async members(teamId: string): Promise<TeamMember[]> {
     const rows = await this.orm
       .select({ userId: users.id, email: users.email, displayName: users.displayName, roles: memberships.roles })
       .from(memberships)
       .innerJoin(users, eq(users.id, memberships.userId))
       .where(eq(memberships.teamId, teamId))
       .orderBy(asc(users.displayName));
-    return rows.map((r) => ({ ...r, roles: r.roles as Role[] }));
+    return rows;
   }
 
   /** Changes roles (roles given) or removes the member (roles null), never leaving the team without an owner. */
-  async changeMember(teamId: string, userId: string, roles: Role[] | null, actorId: string | null = null): Promise<Member | null> {
+  async changeMember(teamId: string, userId: string, roles: Role[] | null, actorId: string | null = null): Promise<TeamMember | null> {
     return this.orm.transaction(async (tx) => {
       // Lock the team's memberships so two concurrent demotions cannot both pass the owner count.
       const all = await tx

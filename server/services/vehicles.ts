@@ -4,11 +4,12 @@
  * current revision, so a stale write can never overwrite a newer one.
  */
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
+import type { PgUpdateSetSource } from 'drizzle-orm/pg-core';
 import type { Executor, Orm } from '../db/client.js';
 import { users, vehicleRevisions, vehicles } from '../db/schema.js';
-import { notFound } from '../http/errors.js';
+import { notFound } from '../../shared/errors.js';
 import { upgradeVehicleDocument, vehicleSchema, type Vehicle } from '../../shared/schema/vehicle.js';
-import { parseDocument, staleRevision, type RevisionRow } from './revisions.js';
+import { parseDocument, writeRevision, type RevisionedDocument, type RevisionRow } from './revisions.js';
 import { changeWords, recordActivity } from './activity.js';
 
 export interface VehicleView {
@@ -22,6 +23,16 @@ export interface VehicleView {
 }
 
 export type VehicleSummary = Omit<VehicleView, 'data'>;
+
+/** What one vehicle revision may change. */
+export interface VehicleChange {
+  name?: string | undefined;
+  archived?: boolean | undefined;
+  data?: Vehicle;
+  message?: string | undefined;
+}
+
+type VehicleRow = typeof vehicles.$inferSelect;
 
 export const parseVehicleData = (doc: unknown): Vehicle => parseDocument(vehicleSchema, upgradeVehicleDocument, doc, 'vehicle data');
 
@@ -64,64 +75,60 @@ export class Vehicles {
   }
 
   /** Applies a change based on `baseRevision`; 409 `stale_revision` when someone saved in between. */
-  async update(
-    teamId: string,
-    vehicleId: string,
-    authorId: string,
-    baseRevision: number,
-    change: { name?: string | undefined; archived?: boolean | undefined; data?: Vehicle; message?: string | undefined },
-  ): Promise<VehicleView> {
+  async update(teamId: string, vehicleId: string, authorId: string, baseRevision: number, change: VehicleChange): Promise<VehicleView> {
     return this.orm.transaction(async (tx) => {
-      const set: Record<string, unknown> = {
-        revision: sql`${vehicles.revision} + 1`,
-        updatedAt: sql`now()`,
-        updatedBy: authorId,
-      };
-      if (change.name !== undefined) set['name'] = change.name;
-      if (change.archived !== undefined) set['archived'] = change.archived;
-      if (change.data !== undefined) set['data'] = change.data;
-      const [row] = await tx
-        .update(vehicles)
-        .set(set)
-        .where(and(eq(vehicles.id, vehicleId), eq(vehicles.teamId, teamId), eq(vehicles.revision, baseRevision)))
-        .returning();
-      if (!row) {
-        const current = await this.get(teamId, vehicleId, tx); // 404 when it is not this team's
-        throw staleRevision(baseRevision, current);
-      }
-      await tx.insert(vehicleRevisions).values({
-        vehicleId,
-        revision: row.revision,
-        name: row.name,
-        archived: row.archived,
-        data: row.data,
-        message: change.message ?? null,
-        authorId,
-      });
-      await recordActivity(tx, {
+      const { row } = await writeRevision(tx, this.document, {
         teamId,
-        actorId: authorId,
-        action: change.data !== undefined ? 'vehicle.data' : 'vehicle.update',
-        subjectType: 'vehicle',
-        subjectId: vehicleId,
-        summary: `Vehicle "${row.name}" revision ${row.revision}: ${changeWords(change, 'data')}${change.message ? ` (${change.message})` : ''}`,
+        id: vehicleId,
+        baseRevision,
+        change,
+        authorId,
+        message: change.message ?? null,
+        activity: (_previous, row) => ({
+          action: change.data !== undefined ? 'vehicle.data' : 'vehicle.update',
+          subjectType: 'vehicle',
+          subjectId: vehicleId,
+          summary: `Vehicle "${row.name}" revision ${row.revision}: ${changeWords(change, 'data')}${change.message ? ` (${change.message})` : ''}`,
+        }),
       });
-      return this.get(teamId, vehicleId, tx);
+      return this.get(teamId, row.id, tx);
     });
   }
 
-  async revisions(teamId: string, vehicleId: string): Promise<RevisionRow[]> {
-    await this.get(teamId, vehicleId);
+  /** How a vehicle is locked, updated and its revision row written (services/revisions.ts). */
+  private readonly document: RevisionedDocument<VehicleRow, VehicleChange, VehicleView> = {
+    what: 'Vehicle',
+    lock: async (tx, teamId, id) => {
+      const [v] = await tx.select().from(vehicles).where(and(eq(vehicles.id, id), eq(vehicles.teamId, teamId))).for('update');
+      return v;
+    },
+    update: async (tx, previous, revision, change, authorId) => {
+      const set: PgUpdateSetSource<typeof vehicles> = { revision, updatedAt: sql`now()`, updatedBy: authorId };
+      if (change.name !== undefined) set.name = change.name;
+      if (change.archived !== undefined) set.archived = change.archived;
+      if (change.data !== undefined) set.data = change.data;
+      const [row] = await tx.update(vehicles).set(set).where(eq(vehicles.id, previous.id)).returning();
+      if (!row) throw new Error('update of a locked vehicle returned nothing');
+      return row;
+    },
+    insertRevision: async (tx, row, o) => {
+      await tx.insert(vehicleRevisions).values({ vehicleId: row.id, revision: row.revision, name: row.name, archived: row.archived, data: row.data, ...o });
+    },
+    view: (tx, teamId, id) => this.get(teamId, id, tx),
+  };
+
+  /** The vehicle's revisions, newest first (`vehicle` as loaded for the team). */
+  async revisions(vehicle: { id: string }): Promise<RevisionRow[]> {
     return this.orm
       .select({ revision: vehicleRevisions.revision, message: vehicleRevisions.message, authorName: users.displayName, createdAt: vehicleRevisions.createdAt })
       .from(vehicleRevisions)
       .leftJoin(users, eq(users.id, vehicleRevisions.authorId))
-      .where(eq(vehicleRevisions.vehicleId, vehicleId))
+      .where(eq(vehicleRevisions.vehicleId, vehicle.id))
       .orderBy(desc(vehicleRevisions.revision));
   }
 
-  async revision(teamId: string, vehicleId: string, revision: number) {
-    await this.get(teamId, vehicleId);
+  /** One stored revision of the vehicle (`vehicle` as loaded for the team). */
+  async revision(vehicle: { id: string }, revision: number) {
     const [r] = await this.orm
       .select({
         revision: vehicleRevisions.revision,
@@ -134,7 +141,7 @@ export class Vehicles {
       })
       .from(vehicleRevisions)
       .leftJoin(users, eq(users.id, vehicleRevisions.authorId))
-      .where(and(eq(vehicleRevisions.vehicleId, vehicleId), eq(vehicleRevisions.revision, revision)));
+      .where(and(eq(vehicleRevisions.vehicleId, vehicle.id), eq(vehicleRevisions.revision, revision)));
     if (!r) throw notFound('Revision');
     return { ...r, data: r.data === null ? null : upgradeVehicleDocument(r.data) };
   }

@@ -136,8 +136,16 @@ export async function startThrowawayCluster(database = 'rollwise_test'): Promise
   };
 }
 
-/** Creates another database in a running cluster (one per test file keeps files independent). */
-export function createDatabase(port: number, name: string): string {
-  asPostgres(join(PG_BIN, 'createdb'), ['-h', '127.0.0.1', '-p', String(port), '-U', 'postgres', name], { quiet: true });
+/**
+ * Creates another database in a running cluster (one per test file keeps files independent),
+ * empty or as a copy of `template` (which must have no open connections).
+ */
+export function createDatabase(port: number, name: string, template?: string): string {
+  asPostgres(join(PG_BIN, 'createdb'), ['-h', '127.0.0.1', '-p', String(port), '-U', 'postgres', ...(template ? ['-T', template] : []), name], { quiet: true });
   return `postgres://postgres@127.0.0.1:${port}/${name}`;
+}
+
+/** Drops a database of a running cluster, ending its connections first. */
+export function dropDatabase(port: number, name: string): void {
+  asPostgres(join(PG_BIN, 'dropdb'), ['-h', '127.0.0.1', '-p', String(port), '-U', 'postgres', '--if-exists', '--force', name], { quiet: true });
 }

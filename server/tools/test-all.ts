@@ -1,17 +1,29 @@
 /**
  * `npm test`: every suite on one throwaway PostgreSQL cluster, then one plain
  * closing line `N passed, N failed` summed over all runners.
- *   1. type check of shared/, server/ and test/ (tsc)
- *   2. vitest: engine (shared) and API (server, real PostgreSQL)
- *   3. Angular component specs (ng test: vitest + jsdom)
- *   4. production build of the app, then browser tests (playwright-core + Chromium)
- * A step that fails without reporting tests (a type error, a build error)
- * counts as one failure, so a broken step can never look green.
+ *
+ * Two lanes run side by side on one cluster (on 2 cores each waits on
+ * PostgreSQL, HTTP or the browser as much as it computes, so the other lane
+ * fills the gaps):
+ *   lane 1: vitest: engine (shared) and API (server, real PostgreSQL), then
+ *           the type check of shared/, server/ and test/ (tsc, with
+ *           noUncheckedIndexedAccess and exactOptionalPropertyTypes), then
+ *           the Angular component specs (ng test: vitest + jsdom)
+ *   lane 2: the production build of the app, then the browser tests
+ *           (playwright-core + Chromium) against it, the longest chain, so it
+ *           starts at once
+ * Each runner's output is held back and printed whole when it ends, under
+ * its own heading, so two runners never interleave; a live line says when
+ * each starts and ends. A step that fails without reporting tests (a type
+ * error, a build error) counts as one failure, so a broken step can never
+ * look green; the summary names each runner with its counts and time, and
+ * repeats the heading of every runner that failed.
  */
+import { spawn } from 'node:child_process';
 import { mkdirSync, readFileSync, existsSync, rmSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { startThrowawayCluster } from './pg.js';
-import { run, bin } from './run.js';
+import { bin } from './run.js';
 
 const root = resolve(import.meta.dirname, '..', '..');
 process.chdir(root);
@@ -22,100 +34,123 @@ interface Tally {
   step: string;
   passed: number;
   failed: number;
-  /** Wall-clock seconds the step took. */
-  seconds?: number;
+  /** Wall-clock seconds the runner took. */
+  seconds: number;
 }
 const tallies: Tally[] = [];
 const env: NodeJS.ProcessEnv = { ...process.env, NO_COLOR: '1', FORCE_COLOR: '0', NG_CLI_ANALYTICS: 'false' };
+const t0 = Date.now();
+const clock = () => `${Math.round((Date.now() - t0) / 1000)} s`.padStart(6);
 
 function stripAnsi(s: string): string {
   return s.replace(/\x1b\[[0-9;]*[A-Za-z]/g, '');
 }
 
+interface Finished {
+  code: number;
+  output: string;
+  seconds: number;
+}
+
+/**
+ * Runs one runner with its output held back; prints it whole, under a
+ * heading, when the runner ends (so runners side by side never interleave).
+ */
+function runner(step: string, cmd: string, args: string[]): Promise<Finished> {
+  console.log(`[rollwise ${clock()}] ${step}: started`);
+  const started = Date.now();
+  return new Promise((done) => {
+    const child = spawn(cmd, args, { env, stdio: ['ignore', 'pipe', 'pipe'] });
+    let output = '';
+    child.stdout.on('data', (c: Buffer) => (output += c.toString()));
+    child.stderr.on('data', (c: Buffer) => (output += c.toString()));
+    const finish = (code: number) => {
+      const seconds = Math.round((Date.now() - started) / 1000);
+      console.log(`\n[rollwise ${clock()}] ${step}: ended with exit code ${code} after ${seconds} s; its output:`);
+      process.stdout.write(output.endsWith('\n') || output === '' ? output : output + '\n');
+      console.log(`[rollwise ${clock()}] ${step}: end of output`);
+      done({ code, output, seconds });
+    };
+    child.on('close', (code, signal) => finish(code ?? (signal ? 128 : 1)));
+    child.on('error', (err) => {
+      output += String(err);
+      finish(127);
+    });
+  });
+}
+
 /** vitest's JSON report → counts; a file that failed to load counts as a failure. */
-function vitestTally(step: string, file: string, code: number): Tally {
-  if (!existsSync(file)) return { step, passed: 0, failed: code === 0 ? 0 : 1 };
-  const r = JSON.parse(readFileSync(file, 'utf8')) as {
+function vitestTally(step: string, file: string, r: Finished): Tally {
+  if (!existsSync(file)) return { step, passed: 0, failed: r.code === 0 ? 0 : 1, seconds: r.seconds };
+  const report = JSON.parse(readFileSync(file, 'utf8')) as {
     numPassedTests: number;
     numFailedTests: number;
     testResults: { status: string; assertionResults: unknown[] }[];
   };
-  const brokenFiles = r.testResults.filter((f) => f.status === 'failed' && f.assertionResults.length === 0).length;
-  let failed = r.numFailedTests + brokenFiles;
-  if (code !== 0 && failed === 0) failed = 1;
-  return { step, passed: r.numPassedTests, failed };
+  const brokenFiles = report.testResults.filter((f) => f.status === 'failed' && f.assertionResults.length === 0).length;
+  let failed = report.numFailedTests + brokenFiles;
+  if (r.code !== 0 && failed === 0) failed = 1;
+  return { step, passed: report.numPassedTests, failed, seconds: r.seconds };
 }
 
 /** ng test prints vitest's summary line: `Tests  2 failed | 40 passed (42)`. */
-function ngTally(output: string, code: number): Tally {
-  const lines = stripAnsi(output).split('\n').filter((l) => /^\s*Tests\s+\d/.test(l));
+function ngTally(r: Finished): Tally {
+  const lines = stripAnsi(r.output).split('\n').filter((l) => /^\s*Tests\s+\d/.test(l));
   let passed = 0;
   let failed = 0;
   for (const l of lines) {
     passed += Number(/(\d+) passed/.exec(l)?.[1] ?? 0);
     failed += Number(/(\d+) failed/.exec(l)?.[1] ?? 0);
   }
-  if (code !== 0 && failed === 0) failed = 1;
-  return { step: 'angular specs', passed, failed };
+  if (r.code !== 0 && failed === 0) failed = 1;
+  return { step: 'angular specs', passed, failed, seconds: r.seconds };
 }
 
-async function vitest(step: string, projects: string[]): Promise<void> {
+/** A step that passes or fails as a whole (type check, build): one check. */
+function wholeTally(step: string, r: Finished): Tally {
+  return { step, passed: r.code === 0 ? 1 : 0, failed: r.code === 0 ? 0 : 1, seconds: r.seconds };
+}
+
+async function vitest(step: string, projects: string[]): Promise<Tally> {
   const out = join(results, `vitest-${step}.json`);
   rmSync(out, { force: true });
   const args = ['run', ...projects.flatMap((p) => ['--project', p]), '--reporter=default', '--reporter=json', `--outputFile.json=${out}`];
-  const r = await run(bin('vitest'), args, env);
-  tallies.push(vitestTally(step, out, r.code));
+  return vitestTally(step, out, await runner(step, bin('vitest'), args));
 }
 
-/** Runs one step and stamps the tallies it adds with the time it took. */
-async function timed(step: () => Promise<void>): Promise<void> {
-  const from = tallies.length;
-  const t = Date.now();
-  await step();
-  for (const tally of tallies.slice(from)) tally.seconds = Math.round((Date.now() - t) / 1000);
+/** Lane 1: the engine and API tests, the type checks, then the component specs. */
+async function unitAndChecks(): Promise<void> {
+  tallies.push(await vitest('unit', ['shared', 'server']));
+  tallies.push(wholeTally('type check', await runner('type check', bin('tsc'), ['-p', 'tsconfig.node.json'])));
+  tallies.push(ngTally(await runner('angular specs', bin('ng'), ['test', '--watch=false'])));
+}
+
+/** Lane 2: the build the browser tests need, then the browser tests (none when the build fails: it counts as a failure). */
+async function buildAndBrowser(): Promise<void> {
+  const build = await runner('app build', bin('ng'), ['build', '--configuration', 'production']);
+  // A good build is no test of its own (it counts nothing), but its time is in the summary.
+  tallies.push(build.code === 0 ? { step: 'app build', passed: 0, failed: 0, seconds: build.seconds } : wholeTally('app build', build));
+  if (build.code === 0) tallies.push(await vitest('e2e', ['e2e']));
 }
 
 async function main(): Promise<number> {
-  const t0 = Date.now();
-  console.log('[rollwise] starting a throwaway PostgreSQL cluster…');
+  console.log(`[rollwise ${clock()}] starting a throwaway PostgreSQL cluster…`);
   const cluster = await startThrowawayCluster('postgres_probe');
   env['ROLLWISE_TEST_PG_PORT'] = String(cluster.port);
   try {
-    console.log('\n[rollwise] type check (tsc)…');
-    await timed(async () => {
-      const tsc = await run(bin('tsc'), ['-p', 'tsconfig.node.json'], env);
-      tallies.push({ step: 'type check', passed: tsc.code === 0 ? 1 : 0, failed: tsc.code === 0 ? 0 : 1 });
-    });
-
-    console.log('\n[rollwise] engine and API tests (vitest)…');
-    await timed(() => vitest('unit', ['shared', 'server']));
-
-    console.log('\n[rollwise] Angular component specs (ng test)…');
-    await timed(async () => {
-      const ng = await run(bin('ng'), ['test', '--watch=false'], env);
-      tallies.push(ngTally(ng.output, ng.code));
-    });
-
-    console.log('\n[rollwise] building the app for the browser tests…');
-    const buildStart = Date.now();
-    const build = await run(bin('ng'), ['build', '--configuration', 'production'], env);
-    const buildSeconds = Math.round((Date.now() - buildStart) / 1000);
-    if (build.code !== 0) {
-      tallies.push({ step: 'app build', passed: 0, failed: 1, seconds: buildSeconds });
-    } else {
-      console.log(`\n[rollwise] browser tests (playwright-core + Chromium), after a ${buildSeconds} s build…`);
-      await timed(() => vitest('e2e', ['e2e']));
-    }
+    await Promise.all([unitAndChecks(), buildAndBrowser()]);
   } finally {
     cluster.remove();
   }
   const passed = tallies.reduce((s, t) => s + t.passed, 0);
   const failed = tallies.reduce((s, t) => s + t.failed, 0);
-  console.log('\n[rollwise] summary');
+  console.log('\n[rollwise] summary (lane 1: unit, type checks, component specs; lane 2, beside it: build, browser tests)');
   for (const t of tallies) {
-    const time = t.seconds === undefined ? '' : ` in ${t.seconds} s`;
-    console.log(`  ${t.step.padEnd(16)} ${t.passed} passed, ${t.failed} failed${time}`);
+    const counts = t.step === 'app build' && t.failed === 0 ? 'built' : `${t.passed} passed, ${t.failed} failed`;
+    console.log(`  ${t.step.padEnd(16)} ${counts} in ${t.seconds} s`);
   }
+  const broken = tallies.filter((t) => t.failed > 0).map((t) => t.step);
+  if (broken.length) console.log(`  failed: ${broken.join(', ')} (each runner's output is above under "[rollwise …] <runner>: ended …")`);
   console.log(`  took ${Math.round((Date.now() - t0) / 1000)} s`);
   console.log(`${passed} passed, ${failed} failed`);
   return failed === 0 && passed > 0 ? 0 : 1;

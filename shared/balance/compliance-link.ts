@@ -8,6 +8,7 @@
 import type { Corner } from '../schema/corner.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { axleComplianceOf, type AxleComplianceFigures } from '../compliance/axle.js';
+import type { AxleName } from '../schema/axle.js';
 
 export type ComplianceSource = 'entered' | 'computed' | 'none';
 
@@ -20,7 +21,7 @@ export interface ComplianceLink {
 }
 
 /** Writes the computed compliance into the copied axle where the vehicle enters none; notes say what was used. */
-export function linkCompliance(axle: Vehicle['front'], name: 'front' | 'rear', corner: Corner | undefined, rackMm: number | null, notes: string[]): ComplianceLink {
+export function linkCompliance(axle: Vehicle['front'], name: AxleName, corner: Corner | undefined, rackMm: number | null, notes: string[]): ComplianceLink {
   const computed = corner ? axleComplianceOf(corner, { rackMm: rackMm ?? 0, pneumaticTrailMm: axle.tyre.pneumaticTrailMm }) : null;
   const enteredSteer = axle.complianceSteerDegPerKN !== undefined;
   const enteredK = axle.steeringStiffnessNmPerDeg !== undefined;

@@ -2,10 +2,5 @@
 
 /** Standard gravity, m/s² (domain.md: g = 9.80665). */
 export const G = 9.80665;
-/** Radians per degree. */
-export const DEG = Math.PI / 180;
 /** m/s per km/h. */
 export const KPH = 1 / 3.6;
-
-export type AxleName = 'front' | 'rear';
-export const AXLES: readonly AxleName[] = ['front', 'rear'];

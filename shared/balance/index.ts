@@ -4,10 +4,10 @@
  * and the step-steer transient. Pure and synchronous; docs/balance.md
  * documents every formula and output.
  */
-import { SAFETY_CAUTION } from '../intent/cautions.js';
+import { SAFETY_CAUTION } from '../cautions/cautions.js';
 import { SolveError } from '../errors.js';
 import type { Vehicle } from '../schema/vehicle.js';
-import { DEG, KPH } from './constants.js';
+import { KPH } from './constants.js';
 import { evaluateRoll, type AxleLoadTransfer, type AxleRollStiffness, type MassProperties } from './roll.js';
 import { gainsAt, sideslipZeroSpeedKph, speedCharacteristic, steerCurve, type GainRow, type SpeedCharacteristic, type SteerCurve } from './steady.js';
 import { stepResponse, transientModels, type StepResponse } from './transient.js';
@@ -25,6 +25,8 @@ import {
   type UndersteerBudget,
   type Validity,
 } from './understeer.js';
+import { RAD_PER_DEG } from '../angles.js';
+import { AXLE_NAMES } from '../schema/axle.js';
 
 export { exampleVehicles, type ExampleVehicleName } from './examples.js';
 export { rollSteerUndersteerDegPerG, suspensionRollGradients, understeerSensitivity, budgetFromCompliances, BUDGET_TERMS } from './understeer.js';
@@ -36,24 +38,24 @@ export const DEFAULT_SPEEDS_KPH: readonly number[] = Array.from({ length: 20 }, 
 
 export interface BalanceOptions {
   /** Lateral acceleration of the load-transfer term, g (default 0.4). */
-  lateralAccelerationG?: number;
+  lateralAccelerationG?: number | undefined;
   /** Speed of the step steer, km/h (default 80). */
-  speedKph?: number;
+  speedKph?: number | undefined;
   /** Speeds of the gain table, km/h (default 10…200 in steps of 10). */
-  speedsKph?: readonly number[];
+  speedsKph?: readonly number[] | undefined;
   /** Radius of the steer-angle curve, m (default 40). */
-  cornerRadiusM?: number;
+  cornerRadiusM?: number | undefined;
   /** Highest lateral acceleration of the steer curve, g (default 0.8, cut at the validity limit). */
-  steerCurveMaxG?: number;
-  steerCurvePoints?: number;
+  steerCurveMaxG?: number | undefined;
+  steerCurvePoints?: number | undefined;
   /** Road-wheel step steer, deg (default 1). */
-  stepSteerDeg?: number;
+  stepSteerDeg?: number | undefined;
   /** Simulated time of the step, s (default 3). */
-  stepDurationS?: number;
+  stepDurationS?: number | undefined;
   /** Sampling interval of the step metrics, s (default 0.002; crossings interpolated); history rows every 10 ms. */
-  stepSampleS?: number;
+  stepSampleS?: number | undefined;
   /** Rank the inputs by their effect on K (default true). */
-  sensitivity?: boolean;
+  sensitivity?: boolean | undefined;
   /** K points of K(a_y) (default 9, from 0 to the validity limit). */
   gradientPoints?: number;
 }
@@ -127,7 +129,7 @@ export function evaluateBalance(vehicle: Vehicle, options: BalanceOptions = {}):
   });
   const speedMps = (options.speedKph ?? 80) * KPH;
   const models = transientModels(core, onCentre.axleCompliance, speedMps);
-  const stepOpts = { steerRad: (options.stepSteerDeg ?? 1) * DEG, durationS: options.stepDurationS ?? 3, sampleS: options.stepSampleS ?? 0.002, historyEvery: Math.max(1, Math.round(0.01 / (options.stepSampleS ?? 0.002))) };
+  const stepOpts = { steerRad: (options.stepSteerDeg ?? 1) * RAD_PER_DEG, durationS: options.stepDurationS ?? 3, sampleS: options.stepSampleS ?? 0.002, historyEvery: Math.max(1, Math.round(0.01 / (options.stepSampleS ?? 0.002))) };
   const step2 = stepResponse(models.twoDof, stepOpts);
   const step3 = models.threeDof ? stepResponse(models.threeDof, stepOpts) : null;
   const mb = roll.rollMomentBalance;
@@ -197,7 +199,7 @@ export function evaluateBalance(vehicle: Vehicle, options: BalanceOptions = {}):
 function refuseNoValidRange(core: ReturnType<typeof balanceCore>, v: Validity): void {
   const limit = physicalLimit(v);
   if (limit > 0) return;
-  const axle = (['front', 'rear'] as const).find((a) => !(v.wheelLiftG[a] > 0) || !((v.stiffnessLimitG[a] ?? Infinity) > 0)) ?? 'front';
+  const axle = AXLE_NAMES.find((a) => !(v.wheelLiftG[a] > 0) || !((v.stiffnessLimitG[a] ?? Infinity) > 0)) ?? 'front';
   const transfer = core[axle].loadTransferNPerG;
   throw new SolveError(
     'singular_geometry',

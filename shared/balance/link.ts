@@ -11,10 +11,11 @@ import { InputError, SolveError } from '../errors.js';
 import { axleSummary, rackForAxleSteer, type AxleSummary } from '../kinematics/index.js';
 import type { Corner } from '../schema/corner.js';
 import type { Vehicle } from '../schema/vehicle.js';
-import { DEG } from './constants.js';
 import { barTwistRadPerM } from './roll.js';
 import { balanceCore, DEFAULT_BUDGET_LATERAL_G, steerBeyondKinematicDeg, understeerBudget } from './understeer.js';
 import { linkCompliance, type ComplianceLink } from './compliance-link.js';
+import { RAD_PER_DEG } from '../angles.js';
+import type { AxleName } from '../schema/axle.js';
 
 /** Entered values that win over both the kinematics and the vehicle's own fields (`axleOverridesSchema` in api.ts). */
 export interface AxleOverrides {
@@ -73,7 +74,7 @@ function pick<T>(override: T | undefined, kin: T | undefined, own: T | undefined
 }
 
 /** Writes the linked values into a copy of the vehicle's axle and says where each came from. */
-function linkAxle(v: Vehicle, name: 'front' | 'rear', corner: Corner | undefined, o: AxleOverrides | undefined, steerDeg: number | null): { axle: Vehicle['front']; link: AxleLink } {
+function linkAxle(v: Vehicle, name: AxleName, corner: Corner | undefined, o: AxleOverrides | undefined, steerDeg: number | null): { axle: Vehicle['front']; link: AxleLink } {
   const axle = structuredClone(v[name]);
   const notes: string[] = [];
   let kin: AxleSummary | null = null;
@@ -94,7 +95,7 @@ function linkAxle(v: Vehicle, name: 'front' | 'rear', corner: Corner | undefined
   axle.rollSteerCoefficient = eps.value ?? 0;
   axle.rollCamberDegPerDeg = camber.value ?? 0;
   axle.rollCentreHeightMm = rc.value!;
-  let spring = { value: axle.spring?.motionRatio as number | undefined, source: (axle.spring ? 'vehicle' : 'not-applicable') as ValueSource };
+  let spring = { value: axle.spring?.motionRatio, source: (axle.spring ? 'vehicle' : 'not-applicable') as ValueSource };
   if (axle.spring && axle.rollStiffnessNmPerDeg === undefined) {
     spring = pick(o?.springMotionRatio, kin?.springMotionRatio, axle.spring.motionRatio);
     axle.spring.motionRatio = spring.value!;
@@ -142,7 +143,7 @@ function linkAxle(v: Vehicle, name: 'front' | 'rear', corner: Corner | undefined
  * lever radius, and the vehicle's `leverLengthMm` and `linkMotionRatio` are
  * dropped from the evaluated vehicle); the vehicle's own figures.
  */
-function linkBar(axle: Vehicle['front'], name: 'front' | 'rear', kin: AxleSummary | null, o: AxleOverrides | undefined, notes: string[]): { value: number | undefined; source: ValueSource } {
+function linkBar(axle: Vehicle['front'], name: AxleName, kin: AxleSummary | null, o: AxleOverrides | undefined, notes: string[]): { value: number | undefined; source: ValueSource } {
   const b = axle.antiRollBar;
   const offered = o?.barTwistRadPerM !== undefined || o?.barMotionRatio !== undefined || kin?.barTwistRadPerM !== undefined;
   if (!b || !('outerDiameterMm' in b) || axle.rollStiffnessNmPerDeg !== undefined) {
@@ -197,7 +198,7 @@ export interface LinkedVehicle {
  */
 export function linkVehicle(c: BalanceCase, options: { lateralAccelerationG?: number | undefined } = {}, radiusM: number | null = null, prefix = ''): LinkedVehicle {
   const v = c.vehicle;
-  const ackermannDeg = radiusM !== null ? (v.wheelbaseMm / 1000 / radiusM) / DEG : null;
+  const ackermannDeg = radiusM !== null ? (v.wheelbaseMm / 1000 / radiusM) / RAD_PER_DEG : null;
   const lateralG = options.lateralAccelerationG ?? DEFAULT_BUDGET_LATERAL_G;
   const iterate = ackermannDeg !== null && c.frontCorner?.steered === true;
   const r = blame(`${prefix}rearCorner`, () => linkAxle(v, 'rear', c.rearCorner, c.overrides?.rear, null));
@@ -206,7 +207,7 @@ export function linkVehicle(c: BalanceCase, options: { lateralAccelerationG?: nu
   let f = linkFront();
   for (let pass = 0; iterate && pass < 3; pass++) {
     const beyond = blame(`${prefix}vehicle`, () => steerBeyondKinematicDeg(balanceCore({ ...v, front: f.axle, rear: r.axle }), lateralG));
-    const next = ackermannDeg! + beyond;
+    const next = ackermannDeg + beyond;
     if (Math.abs(next - steerDeg!) < 1e-4) break;
     steerDeg = next;
     f = linkFront();

@@ -3,9 +3,11 @@
  * (docs/balance.md §2). SI internally (m, N, rad); results carry their units
  * in their names. Conventions of shared/docs/domain.md.
  */
-import type { AntiRollBar, Axle, Vehicle } from '../schema/vehicle.js';
+import type { AntiRollBar, VehicleAxle, Vehicle } from '../schema/vehicle.js';
 import { InputError } from '../errors.js';
-import { DEG, G, type AxleName } from './constants.js';
+import { G } from './constants.js';
+import type { AxleName } from '../schema/axle.js';
+import { RAD_PER_DEG } from '../angles.js';
 
 /** Steel shear modulus, GPa (Shigley, Mechanical Engineering Design, table A-5; common handbook value). */
 export const STEEL_SHEAR_MODULUS_GPA = 79.3;
@@ -34,7 +36,7 @@ export function barTwistRadPerM(bar: Extract<AntiRollBar, { outerDiameterMm: num
  * Kφ = k_θ·θ_w²·t², θ_w the bar twist per unit wheel travel (kktse, "Simplified lateral load transfer analysis").
  */
 export function barRollStiffnessNmPerRad(bar: AntiRollBar, trackM: number): number {
-  if ('rollRateNmPerDeg' in bar) return bar.rollRateNmPerDeg / DEG;
+  if ('rollRateNmPerDeg' in bar) return bar.rollRateNmPerDeg / RAD_PER_DEG;
   const kTheta = barTorsionalRateNmPerRad(bar.outerDiameterMm / 1000, (bar.innerDiameterMm ?? 0) / 1000, bar.activeLengthMm / 1000, (bar.shearModulusGPa ?? STEEL_SHEAR_MODULUS_GPA) * 1e9);
   const twist = barTwistRadPerM(bar);
   return kTheta * twist * twist * trackM * trackM;
@@ -64,14 +66,14 @@ export interface AxleRollStiffness {
   source: 'springs-and-bar' | 'entered-roll-stiffness';
 }
 
-export function axleRollStiffness(axle: Axle): AxleRollStiffness {
+export function axleRollStiffness(axle: VehicleAxle): AxleRollStiffness {
   const t = axle.trackMm / 1000;
   let springs = 0;
   let bar = 0;
   let suspension: number;
   let source: AxleRollStiffness['source'];
   if (axle.rollStiffnessNmPerDeg !== undefined) {
-    suspension = axle.rollStiffnessNmPerDeg / DEG;
+    suspension = axle.rollStiffnessNmPerDeg / RAD_PER_DEG;
     source = 'entered-roll-stiffness';
   } else {
     const s = axle.spring!;
@@ -83,11 +85,11 @@ export function axleRollStiffness(axle: Axle): AxleRollStiffness {
   const tyres = axle.tyre.verticalRateNPerMm !== undefined ? tyreRollStiffnessNmPerRad(axle.tyre.verticalRateNPerMm * 1000, t) : Infinity;
   const total = seriesStiffness(tyres, suspension);
   return {
-    springsNmPerDeg: springs * DEG,
-    barNmPerDeg: bar * DEG,
-    suspensionNmPerDeg: suspension * DEG,
-    tyresNmPerDeg: Number.isFinite(tyres) ? tyres * DEG : null,
-    totalNmPerDeg: total * DEG,
+    springsNmPerDeg: springs * RAD_PER_DEG,
+    barNmPerDeg: bar * RAD_PER_DEG,
+    suspensionNmPerDeg: suspension * RAD_PER_DEG,
+    tyresNmPerDeg: Number.isFinite(tyres) ? tyres * RAD_PER_DEG : null,
+    totalNmPerDeg: total * RAD_PER_DEG,
     source,
   };
 }
@@ -177,13 +179,13 @@ export function evaluateRoll(v: Vehicle): RollModel {
   };
   const mass = massProperties(v, { front: rcMm.front / 1000, rear: rcMm.rear / 1000 });
   const ks = { front: axleRollStiffness(v.front), rear: axleRollStiffness(v.rear) };
-  const kTotal = (ks.front.totalNmPerDeg + ks.rear.totalNmPerDeg) / DEG;
+  const kTotal = (ks.front.totalNmPerDeg + ks.rear.totalNmPerDeg) / RAD_PER_DEG;
   const h1 = mass.sprungCgAboveRollAxisM;
   const phiPerMps2 = rollGradientRadPerMps2(mass.sprungMassKg, h1, kTotal, gravityTerm);
   const gravityNmPerRad = gravityTerm ? mass.sprungMassKg * G * h1 : 0;
   if (!(kTotal - gravityNmPerRad > 0)) {
     // The message names the fields, so it reads on its own wherever the error is relayed.
-    const message = `front and rear roll stiffness, ${(kTotal * DEG).toFixed(1)} N·m/deg in total, does not exceed the sprung mass's gravity term ${(gravityNmPerRad * DEG).toFixed(1)} N·m/deg: the body has no stable roll angle (check cgHeightMm and the roll-centre heights too)`;
+    const message = `front and rear roll stiffness, ${(kTotal * RAD_PER_DEG).toFixed(1)} N·m/deg in total, does not exceed the sprung mass's gravity term ${(gravityNmPerRad * RAD_PER_DEG).toFixed(1)} N·m/deg: the body has no stable roll angle (check cgHeightMm and the roll-centre heights too)`;
     throw new InputError(message, [
       { path: 'front', message: 'roll stiffness too low for the sprung mass and its height above the roll axis' },
       { path: 'rear', message: 'roll stiffness too low for the sprung mass and its height above the roll axis' },
@@ -194,7 +196,7 @@ export function evaluateRoll(v: Vehicle): RollModel {
   const axleLt = (name: AxleName): AxleLoadTransfer => {
     const axle = v[name];
     const t = axle.trackMm / 1000;
-    const k = ks[name].totalNmPerDeg / DEG;
+    const k = ks[name].totalNmPerDeg / RAD_PER_DEG;
     const msAxle = name === 'front' ? mass.sprungFrontKg : mass.sprungRearKg;
     const elastic = (k * phiPerG) / t;
     const geometric = (msAxle * G * (rcMm[name] / 1000)) / t;
@@ -206,13 +208,13 @@ export function evaluateRoll(v: Vehicle): RollModel {
   const ltMoment = front.totalNPerG * (v.front.trackMm / 1000) + rear.totalNPerG * (v.rear.trackMm / 1000);
   const applied = v.massKg * G * (v.cgHeightMm / 1000);
   const gravity = gravityTerm ? mass.sprungMassKg * G * h1 * phiPerG : 0;
-  const suspRoll = (name: AxleName) => (phiPerG * ks[name].totalNmPerDeg) / ks[name].suspensionNmPerDeg / DEG;
+  const suspRoll = (name: AxleName) => (phiPerG * ks[name].totalNmPerDeg) / ks[name].suspensionNmPerDeg / RAD_PER_DEG;
   return {
     gravityTerm,
     mass,
     rollStiffness: ks,
     rollStiffnessFrontShare: ks.front.totalNmPerDeg / (ks.front.totalNmPerDeg + ks.rear.totalNmPerDeg),
-    rollGradientDegPerG: phiPerG / DEG,
+    rollGradientDegPerG: phiPerG / RAD_PER_DEG,
     suspensionRollDegPerG: { front: suspRoll('front'), rear: suspRoll('rear') },
     lateralLoadTransfer: { front, rear, frontShare: front.totalNPerG / (front.totalNPerG + rear.totalNPerG) },
     rollMomentBalance: {

@@ -4,8 +4,9 @@
  * docs/balance.md §4). K in deg/g, speeds in km/h at the API, m/s inside.
  */
 import { SolveError } from '../errors.js';
-import { DEG, G, KPH } from './constants.js';
+import { G, KPH } from './constants.js';
 import { axleStiffnessAt, type BalanceCore } from './understeer.js';
+import { RAD_PER_DEG } from '../angles.js';
 
 export interface SpeedCharacteristic {
   regime: 'understeer' | 'oversteer' | 'neutral';
@@ -25,7 +26,7 @@ export function speedCharacteristic(kDegPerG: number, wheelbaseM: number): Speed
   if (Math.abs(kDegPerG) <= NEUTRAL_K_DEG_PER_G) {
     return { regime: 'neutral', characteristicSpeedKph: null, criticalSpeedKph: null, neutral: true, peakYawRateGainPerS: null };
   }
-  const v = Math.sqrt((wheelbaseM * G) / (Math.abs(kDegPerG) * DEG));
+  const v = Math.sqrt((wheelbaseM * G) / (Math.abs(kDegPerG) * RAD_PER_DEG));
   if (kDegPerG > 0) return { regime: 'understeer', characteristicSpeedKph: v / KPH, criticalSpeedKph: null, neutral: false, peakYawRateGainPerS: v / (2 * wheelbaseM) };
   return { regime: 'oversteer', characteristicSpeedKph: null, criticalSpeedKph: v / KPH, neutral: false, peakYawRateGainPerS: null };
 }
@@ -58,11 +59,11 @@ export interface GainInputs {
 export function gainsAt(p: GainInputs, speedKph: number): GainRow {
   const V = speedKph * KPH;
   const q = (V * V) / G;
-  const den = p.wheelbaseM + p.kDegPerG * DEG * q;
+  const den = p.wheelbaseM + p.kDegPerG * RAD_PER_DEG * q;
   if (!(den > 0)) return { speedKph, stable: false, yawRateGainPerS: null, lateralAccelerationGainGPerDeg: null, sideslipGain: null, handwheel: null };
   const yaw = V / den;
-  const lat = (q * DEG) / den;
-  const beta = (p.cgToRearM - p.rearComplianceDegPerG * DEG * q) / den;
+  const lat = (q * RAD_PER_DEG) / den;
+  const beta = (p.cgToRearM - p.rearComplianceDegPerG * RAD_PER_DEG * q) / den;
   const n = p.steeringRatio;
   return {
     speedKph,
@@ -77,7 +78,7 @@ export function gainsAt(p: GainInputs, speedKph: number): GainRow {
 /** Speed where the CG's sideslip crosses zero: V = √(b·g/D_r) (D_r in rad/g), km/h; null when D_r ≤ 0. */
 export function sideslipZeroSpeedKph(cgToRearM: number, rearComplianceDegPerG: number): number | null {
   if (!(rearComplianceDegPerG > 0)) return null;
-  return Math.sqrt((cgToRearM * G) / (rearComplianceDegPerG * DEG)) / KPH;
+  return Math.sqrt((cgToRearM * G) / (rearComplianceDegPerG * RAD_PER_DEG)) / KPH;
 }
 
 export interface SteerCurveRow {
@@ -116,8 +117,8 @@ export function solveSteadyCornering(core: BalanceCore, radiusM: number, lateral
   const Cr = axleStiffnessAt(r, lateralG);
   const W = core.vehicle.massKg * G;
   const forces = (delta: number, beta: number) => {
-    const alphaF = delta - f.steerOutDegPerG * lateralG - beta - (a / radiusM) / DEG;
-    const alphaR = -r.steerOutDegPerG * lateralG - beta + (b / radiusM) / DEG;
+    const alphaF = delta - f.steerOutDegPerG * lateralG - beta - (a / radiusM) / RAD_PER_DEG;
+    const alphaR = -r.steerOutDegPerG * lateralG - beta + (b / radiusM) / RAD_PER_DEG;
     const Ff = Cf * alphaF - f.camberStiffnessNPerDeg * f.inclinationDegPerG * lateralG;
     const Fr = Cr * alphaR - r.camberStiffnessNPerDeg * r.inclinationDegPerG * lateralG;
     return [Ff + Fr - W * lateralG, Ff * arm.front - Fr * arm.rear] as const;
@@ -129,7 +130,7 @@ export function solveSteadyCornering(core: BalanceCore, radiusM: number, lateral
   const j22 = -Cf * arm.front + Cr * arm.rear;
   const det = j11 * j22 - j12 * j21;
   if (!(Math.abs(det) > 0)) throw new SolveError('singular_geometry', `steady cornering has no solution at ${lateralG} g`, { lateralAccelerationG: lateralG });
-  let delta = (core.wheelbaseM / radiusM) / DEG;
+  let delta = (core.wheelbaseM / radiusM) / RAD_PER_DEG;
   let beta = 0;
   const tol = 1e-10 * W;
   for (let it = 1; it <= 20; it++) {
@@ -156,7 +157,7 @@ export interface SteerCurve {
 export function steerCurve(core: BalanceCore, opts: { radiusM: number; maxG: number; points: number; slopeAtG: number; linearKDegPerG: number; limitG: number }): SteerCurve {
   const maxG = Math.min(opts.maxG, 0.98 * opts.limitG);
   const n = core.vehicle.steeringRatio;
-  const ackermannDeg = (core.wheelbaseM / opts.radiusM) / DEG;
+  const ackermannDeg = (core.wheelbaseM / opts.radiusM) / RAD_PER_DEG;
   const rows: SteerCurveRow[] = [];
   for (let i = 0; i < opts.points; i++) {
     const A = opts.points === 1 ? maxG : (maxG * i) / (opts.points - 1);

@@ -6,10 +6,11 @@
  * ISO 7401).
  */
 import { InputError } from '../errors.js';
-import { DEG, G, KPH } from './constants.js';
+import { G, KPH } from './constants.js';
 import { integrateOnGrid } from './ode.js';
 import { eigenvalues, matVec, modesOf, solveLinear, type Complex, type Matrix, type Mode } from './linear.js';
 import type { AxleCompliance, BalanceCore } from './understeer.js';
+import { RAD_PER_DEG } from '../angles.js';
 
 export interface LinearModel {
   dof: 2 | 3;
@@ -247,15 +248,15 @@ export function stepResponse(model: LinearModel, o: StepOptions): StepResponse {
   const base = {
     model: model.dof === 2 ? ('2-dof' as const) : ('3-dof' as const),
     speedKph: model.speedMps / KPH,
-    steerDeg: o.steerRad / DEG,
+    steerDeg: o.steerRad / RAD_PER_DEG,
     durationS: o.durationS,
     stable,
     eigenvalues: eigs,
     modes,
     naturalFrequencyHz: main?.naturalFrequencyHz ?? null,
     dampingRatio: main?.dampingRatio ?? null,
-    steadyYawRateDegPerS: ss[1]! / DEG,
-    steadyRollDeg: model.dof === 3 ? ss[2]! / DEG : null,
+    steadyYawRateDegPerS: ss[1]! / RAD_PER_DEG,
+    steadyRollDeg: model.dof === 3 ? ss[2]! / RAD_PER_DEG : null,
   };
   if (!stable) {
     return { ...base, responseTimeS: null, peakTimeS: null, overshootPct: 0, settlingTimeS: null, history: [], odeSteps: 0 };
@@ -277,10 +278,10 @@ export function stepResponse(model: LinearModel, o: StepOptions): StepResponse {
     const betaDot = dx[0]! + model.B[0]! * o.steerRad;
     history.push({
       tS: Math.round(sol.t[i]! * 1e9) / 1e9,
-      yawRateDegPerS: x[1]! / DEG,
-      sideslipDeg: x[0]! / DEG,
+      yawRateDegPerS: x[1]! / RAD_PER_DEG,
+      sideslipDeg: x[0]! / RAD_PER_DEG,
       lateralAccelerationG: (model.speedMps * (betaDot + x[1]!)) / G,
-      rollDeg: model.dof === 3 ? x[2]! / DEG : null,
+      rollDeg: model.dof === 3 ? x[2]! / RAD_PER_DEG : null,
     });
   }
   return { ...base, ...metrics, history, odeSteps: sol.steps };
@@ -288,7 +289,7 @@ export function stepResponse(model: LinearModel, o: StepOptions): StepResponse {
 
 /** Effective axle cornering stiffness W_i / D_i, N/rad (D_i in deg/g: the axle's total compliance, or a part of it). */
 export function effectiveStiffnessNPerRad(staticLoadN: number, complianceDegPerG: number): number {
-  return staticLoadN / (complianceDegPerG * DEG);
+  return staticLoadN / (complianceDegPerG * RAD_PER_DEG);
 }
 
 export function bicycleParameters(core: BalanceCore, frontDegPerG: number, rearDegPerG: number): BicycleParameters {
@@ -323,8 +324,8 @@ export function transientModels(core: BalanceCore, c: { front: AxleCompliance; r
       sprungMassKg: core.roll.mass.sprungMassKg,
       sprungCgAboveRollAxisM: core.roll.mass.sprungCgAboveRollAxisM,
       rollInertiaKgM2: v.rollInertiaKgM2,
-      rollDampingNmsPerRad: v.rollDampingNmsPerDeg / DEG,
-      rollStiffnessNmPerRad: (core.roll.rollStiffness.front.totalNmPerDeg + core.roll.rollStiffness.rear.totalNmPerDeg) / DEG,
+      rollDampingNmsPerRad: v.rollDampingNmsPerDeg / RAD_PER_DEG,
+      rollStiffnessNmPerRad: (core.roll.rollStiffness.front.totalNmPerDeg + core.roll.rollStiffness.rear.totalNmPerDeg) / RAD_PER_DEG,
       gravityTerm: core.roll.gravityTerm,
       frontRollSteer: perRoll(c.front),
       rearRollSteer: perRoll(c.rear),

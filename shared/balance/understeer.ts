@@ -5,8 +5,9 @@
  * memory; Bundorf & Leffert, SAE 760713, for the split). docs/balance.md §3.
  */
 import { InputError } from '../errors.js';
-import type { Axle, Vehicle } from '../schema/vehicle.js';
-import { G, type AxleName } from './constants.js';
+import type { VehicleAxle, Vehicle } from '../schema/vehicle.js';
+import { G } from './constants.js';
+import type { AxleName } from '../schema/axle.js';
 import { evaluateRoll, type RollModel } from './roll.js';
 import { tyreLoadLaw, tyreStiffnessAt, tyreStiffnessSlope, type TyreLoadLaw } from './tyre.js';
 
@@ -58,7 +59,7 @@ export interface BalanceCore {
   cgToFrontM: number;
 }
 
-function axleCorneringStiffness(axle: Axle, staticLoadN: number, path: string): { c0: number; law: TyreLoadLaw } {
+function axleCorneringStiffness(axle: VehicleAxle, staticLoadN: number, path: string): { c0: number; law: TyreLoadLaw } {
   const fz = staticLoadN / 2;
   const law = tyreLoadLaw(axle.tyre, fz);
   const c = tyreStiffnessAt(law, fz);
@@ -138,7 +139,7 @@ export function axleSlipGradientDegPerG(c: AxleCore, lateralG: number): number {
 }
 
 /** The axle's compliance split into the budget's terms, deg/g; loadTransfer at lateral acceleration A. */
-export function axleCompliance(c: AxleCore, ax: Axle, lateralG: number): AxleCompliance {
+export function axleCompliance(c: AxleCore, ax: VehicleAxle, lateralG: number): AxleCompliance {
   const c0 = c.corneringStiffnessNPerDeg;
   const fy = c.lateralForceNPerG;
   const tyres = c.staticLoadN / c0;
@@ -179,11 +180,6 @@ export function budgetFromCompliances(front: Record<BudgetTerm, number>, rear: R
 /** Tangent understeer gradient dδ/da_y at lateral acceleration A, deg/g. */
 export function understeerGradientAt(core: BalanceCore, lateralG: number): number {
   return axleSlipGradientDegPerG(core.front, lateralG) + core.front.steerOutDegPerG - axleSlipGradientDegPerG(core.rear, lateralG) - core.rear.steerOutDegPerG;
-}
-
-/** On-centre understeer gradient K(a_y → 0), deg/g: what the characteristic and critical speeds, the gains and the step steer use. */
-export function onCentreUndersteerGradient(core: BalanceCore): number {
-  return understeerGradientAt(core, 0);
 }
 
 /**

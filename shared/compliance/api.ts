@@ -29,7 +29,7 @@ export const cornerComplianceRequestSchema = z.strictObject({
     })
     .optional(),
 });
-export type CornerComplianceRequest = z.infer<typeof cornerComplianceRequestSchema>;
+type CornerComplianceRequest = z.infer<typeof cornerComplianceRequestSchema>;
 
 export type CornerComplianceResult = CornerComplianceReport & { sweep?: ComplianceRow[] };
 

@@ -8,6 +8,7 @@ import type { Vehicle } from '../schema/vehicle.js';
 import { balanceCore } from '../balance/understeer.js';
 import { cornerCompliance } from './index.js';
 import { axleComplianceOf } from './axle.js';
+import type { AxleName } from '../schema/axle.js';
 
 export interface ComplianceBesideRollSteer {
   /** No bushings, link or steering rates: every compliance figure is zero. */
@@ -24,7 +25,7 @@ export interface ComplianceBesideRollSteer {
 }
 
 /** The corner's compliance figures, and with a vehicle both steers in deg/g (the balance model's suspension roll gradient and axle lateral force per g). */
-export function complianceBesideRollSteer(corner: Corner, rollSteerCoefficient: number, axle: 'front' | 'rear', vehicle?: Vehicle): ComplianceBesideRollSteer {
+export function complianceBesideRollSteer(corner: Corner, rollSteerCoefficient: number, axle: AxleName, vehicle?: Vehicle): ComplianceBesideRollSteer {
   const r = cornerCompliance(corner);
   const a = axleComplianceOf(corner, { pneumaticTrailMm: vehicle?.[axle].tyre.pneumaticTrailMm });
   let perG: ComplianceBesideRollSteer['perG'] = null;

@@ -28,6 +28,8 @@ import { SolveError } from '../errors.js';
 import { BUSHING_POINTS, type Bushing, type Corner } from '../schema/corner.js';
 import type { CornerModel } from '../kinematics/model.js';
 import type { CornerSolver } from '../kinematics/solver.js';
+import { DEG_PER_RAD } from '../angles.js';
+import { luFactor, luSolve, luSolveTransposed } from '../numeric/lu.js';
 
 /** The unit loads at the tyre (left corner). */
 export const LOAD_NAMES = ['lateralForce', 'aligningMoment', 'brakingForce', 'tractionForce', 'verticalForce'] as const;
@@ -75,7 +77,7 @@ function rates(b: Bushing | undefined): Rates | null {
 export function complianceSpec(m: CornerModel): ComplianceSpec {
   const hit = specCache.get(m);
   if (hit) return hit;
-  const c = m.corner as Corner;
+  const c = m.corner;
   const b = (c.bushings ?? {}) as Record<string, Bushing | undefined>;
   const la = (c.linkAxialNPerMm ?? {}) as Record<string, number | undefined>;
   const steering = c.steered && c.steeringStiffnessNPerMm ? 1 / c.steeringStiffnessNPerMm : 0;
@@ -126,76 +128,11 @@ export function complianceSpec(m: CornerModel): ComplianceSpec {
 
 // ---------- small dense algebra (6×6, row-major) ----------
 
-/** LU with partial pivoting of a 6×6 matrix in place; false when singular. */
+/** LU with partial pivoting of a 6×6 matrix in place; false when singular (a pivot below 1e-12 of the largest entry). */
 function lu6(A: Float64Array, piv: Int32Array): boolean {
   let scale = 0;
   for (let i = 0; i < 36; i++) scale = Math.max(scale, Math.abs(A[i]!));
-  for (let k = 0; k < 6; k++) {
-    let p = k;
-    let best = Math.abs(A[6 * k + k]!);
-    for (let i = k + 1; i < 6; i++) {
-      const v = Math.abs(A[6 * i + k]!);
-      if (v > best) (best = v), (p = i);
-    }
-    if (!(best > 1e-12 * scale)) return false;
-    piv[k] = p;
-    if (p !== k) {
-      for (let j = 0; j < 6; j++) {
-        const t = A[6 * k + j]!;
-        A[6 * k + j] = A[6 * p + j]!;
-        A[6 * p + j] = t;
-      }
-    }
-    const inv = 1 / A[6 * k + k]!;
-    for (let i = k + 1; i < 6; i++) {
-      const f = (A[6 * i + k]! *= inv);
-      if (f !== 0) for (let j = k + 1; j < 6; j++) A[6 * i + j]! -= f * A[6 * k + j]!;
-    }
-  }
-  return true;
-}
-
-/** Solves A·x = b (b overwritten), A factored by lu6. */
-function solve6(LU: Float64Array, piv: Int32Array, b: Float64Array, off = 0): void {
-  for (let k = 0; k < 6; k++) {
-    const p = piv[k]!;
-    if (p !== k) {
-      const t = b[off + k]!;
-      b[off + k] = b[off + p]!;
-      b[off + p] = t;
-    }
-  }
-  for (let k = 0; k < 6; k++) {
-    const bk = b[off + k]!;
-    for (let i = k + 1; i < 6; i++) b[off + i]! -= LU[6 * i + k]! * bk;
-  }
-  for (let k = 5; k >= 0; k--) {
-    let s = b[off + k]!;
-    for (let j = k + 1; j < 6; j++) s -= LU[6 * k + j]! * b[off + j]!;
-    b[off + k] = s / LU[6 * k + k]!;
-  }
-}
-
-/** Solves Aᵀ·y = b (b overwritten), A factored by lu6 (P·A = L·U ⇒ Aᵀ = Uᵀ·Lᵀ·P). */
-function solveT6(LU: Float64Array, piv: Int32Array, b: Float64Array, off = 0): void {
-  for (let k = 0; k < 6; k++) {
-    let s = b[off + k]!;
-    for (let j = 0; j < k; j++) s -= LU[6 * j + k]! * b[off + j]!;
-    b[off + k] = s / LU[6 * k + k]!;
-  }
-  for (let k = 5; k >= 0; k--) {
-    let s = b[off + k]!;
-    for (let j = k + 1; j < 6; j++) s -= LU[6 * j + k]! * b[off + j]!;
-    b[off + k] = s;
-  }
-  for (let k = 5; k >= 0; k--) {
-    const p = piv[k]!;
-    if (p !== k) {
-      const t = b[off + k]!;
-      b[off + k] = b[off + p]!;
-      b[off + p] = t;
-    }
-  }
+  return luFactor(A, 6, piv, 1e-12 * scale);
 }
 
 // ---------- per-pose evaluation ----------
@@ -396,13 +333,13 @@ export function evaluatePoseCompliance(s: CornerSolver, spec: ComplianceSpec = c
     const col = scratchCol;
     for (let j = 0; j < 6; j++) {
       for (let i = 0; i < 6; i++) col[i] = C[6 * i + j]!;
-      solve6(lu, piv, col);
+      luSolve(lu, 6, piv, col);
       for (let i = 0; i < 6; i++) Y[6 * i + j] = col[i]!;
     }
     for (let j = 0; j < 6; j++) {
       // Column j of G = A⁻¹ · (row j of Y)ᵀ.
       for (let i = 0; i < 6; i++) col[i] = Y[6 * j + i]!;
-      solve6(lu, piv, col);
+      luSolve(lu, 6, piv, col);
       for (let i = 0; i < 6; i++) G[6 * i + j] = col[i]!;
     }
   }
@@ -450,8 +387,6 @@ export interface LoadResponse {
   contactPatchMm: [number, number, number];
 }
 
-const RAD = 180 / Math.PI;
-
 /** Toe and camber change (deg) of the upright rotation δω at the pose (left wheel: toe = −δ). */
 export function toeCamberOf(pc: PoseCompliance, w: ArrayLike<number>): { toeDeg: number; camberDeg: number; da: [number, number, number] } {
   const a = pc.spin;
@@ -459,7 +394,7 @@ export function toeCamberOf(pc: PoseCompliance, w: ArrayLike<number>): { toeDeg:
   const day = w[2]! * a[0] - w[0]! * a[2];
   const daz = w[0]! * a[1] - w[1]! * a[0];
   const dSteer = (a[0] * day - a[1] * dax) / (a[0] * a[0] + a[1] * a[1]);
-  return { toeDeg: -dSteer * RAD, camberDeg: (-daz / Math.sqrt(1 - a[2] * a[2])) * RAD, da: [dax, day, daz] };
+  return { toeDeg: -dSteer * DEG_PER_RAD, camberDeg: (-daz / Math.sqrt(1 - a[2] * a[2])) * DEG_PER_RAD, da: [dax, day, daz] };
 }
 
 /** Solves one load at the pose. */
@@ -471,7 +406,7 @@ export function respond(pc: PoseCompliance, f: Float64Array): LoadResponse {
     x[i] = v;
   }
   const lambda = Float64Array.from(f);
-  solveT6(pc.lu, pc.piv, lambda);
+  luSolveTransposed(pc.lu, 6, pc.piv, lambda);
   const { toeDeg, camberDeg, da } = toeCamberOf(pc, x.subarray(3, 6));
   // Contact point c + r·n̂, n = a_z·a − ẑ: dn = da_z·a + a_z·da.
   const a = pc.spin;

@@ -6,10 +6,17 @@
 import { parseOrThrow } from '../errors.js';
 import { intentSchema } from '../schema/intent.js';
 import { solveIntent, type Progress, type SolveResult } from './solve.js';
+import { proposalDetails, type ProposalDetails } from './member.js';
 
 export function computeSolve(input: unknown, onProgress?: Progress): SolveResult {
   const intent = parseOrThrow(intentSchema, input, 'intent');
   return jsonSafe(solveIntent(intent, onProgress));
+}
+
+/** One chosen member of the family (coordinate values by name, mm) worked out for the workshop; validates the intent first. */
+export function computeProposalDetails(input: unknown, values: Readonly<Record<string, number>>): ProposalDetails {
+  const intent = parseOrThrow(intentSchema, input, 'intent');
+  return jsonSafe(proposalDetails(intent, values));
 }
 
 /** Replaces non-finite numbers by null so the result survives JSON unchanged. */

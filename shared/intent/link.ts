@@ -4,11 +4,12 @@
  * (`PoseCounter`) and the search never computes kinematics of its own.
  * Counts: one per pose solved (a sweep row, one wheel of an axle pose).
  */
-import type { Corner, Vec3 } from '../schema/corner.js';
+import type { Corner } from '../schema/corner.js';
 import type { Vehicle } from '../schema/vehicle.js';
-import { axleKinematics, axleSummary, moveCornerPoints, rollSteerCoefficient, solvePose, sweepCorner, type AxleSummary, type PoseResult, type SweepResult } from '../kinematics/index.js';
+import { axleKinematics, axleSummary, moveCornerPoints, rollSteerCoefficient, solvePose, sweepCorner, type AxleSummary, type PoseResult, type PoseState, type SweepResult } from '../kinematics/index.js';
 import { linkVehicle, type LinkedVehicle } from '../balance/link.js';
 import { coordinateMoves } from './coordinates.js';
+import type { AxleName } from '../schema/axle.js';
 
 export class PoseCounter {
   poses = 0;
@@ -23,11 +24,11 @@ export function trialCorner(current: Corner, names: string[], values: number[]):
   return moveCornerPoints(current, coordinateMoves(current, names, values));
 }
 
-export type Pose = PoseResult & { state: { c: Vec3; R: number[] } };
+export type Pose = PoseResult & { state: PoseState };
 
 export function pose(counter: PoseCounter, corner: Corner, travelMm: number, rackMm = 0): Pose {
   counter.poses++;
-  return solvePose(corner, { travelMm, rackMm }) as Pose;
+  return solvePose(corner, { travelMm, rackMm });
 }
 
 export function sweep(counter: PoseCounter, corner: Corner, travel: { from: number; to: number; step: number }, rackMm: number[]): SweepResult {
@@ -59,7 +60,7 @@ export function steering(counter: PoseCounter, corner: Corner, wheelbaseMm: numb
  * height and motion ratios read from the corner (its axleSummary, two poses),
  * the other axle as entered. `rollSteerCoefficient` overrides the corner's ε.
  */
-export function linked(counter: PoseCounter, vehicle: Vehicle, axle: 'front' | 'rear', corner: Corner, rollSteerCoefficient?: number): LinkedVehicle {
+export function linked(counter: PoseCounter, vehicle: Vehicle, axle: AxleName, corner: Corner, rollSteerCoefficient?: number): LinkedVehicle {
   counter.poses += 2;
   const overrides = rollSteerCoefficient === undefined ? undefined : { [axle]: { rollSteerCoefficient } };
   return linkVehicle({ vehicle, ...(axle === 'front' ? { frontCorner: corner } : { rearCorner: corner }), ...(overrides ? { overrides } : {}) });

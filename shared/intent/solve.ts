@@ -12,20 +12,23 @@ import { rollSteerTermDegPerG } from '../balance/link.js';
 import { balanceCore, understeerBudget } from '../balance/understeer.js';
 import { ENGINE_VERSION } from '../version.js';
 import { InputError, SolveError } from '../errors.js';
-import { evaluateCautions, SAFETY_CAUTION, type Caution } from './cautions.js';
-import { resolveTrackProfile, type TrackProfile } from './profiles.js';
+import { evaluateCautions, SAFETY_CAUTION, type Caution } from '../cautions/cautions.js';
+import { resolveTrackProfile, type TrackProfile } from '../tracks/profiles.js';
 import { readCoordinates } from './coordinates.js';
 import { solveFamily, type LimitingBound } from './optimise.js';
 import { linearFitDeviation, secantRoot } from './numeric.js';
 import { asBuiltCorner, workshopNumbers, type WorkshopNumbers } from './workshop.js';
-import { cautionRackPositions } from './corner-cautions.js';
-import { cautionInputs, sweepRacks, type RackFit, type UnreachableRack } from './measure.js';
+import { cautionRackPositions } from '../cautions/corner-cautions.js';
+import { cautionInputs, sweepRacks, type RackFit, type UnreachableRack } from '../cautions/measure.js';
 import { linked, pose, PoseCounter, trialCorner, rollSteer, steering, summary, sweep } from './link.js';
-import type { SweepRow } from '../kinematics/index.js';
+import { posedPoints, type SweepRow } from '../kinematics/index.js';
 import { RandomRoadYawCost, type BumpCost } from '../ride/cost.js';
+import { DEG_PER_RAD } from '../angles.js';
+import { rollSteerWords } from '../balance/roll-steer-words.js';
+import type { AxleName } from '../schema/axle.js';
 
-export type { RackFit, UnreachableRack } from './measure.js';
-export { DEFAULT_CORNERING_COEFFICIENT_PER_DEG, DEFAULT_REFERENCE_ROLL_DEG } from './measure.js';
+export type { RackFit, UnreachableRack } from '../cautions/measure.js';
+export { DEFAULT_CORNERING_COEFFICIENT_PER_DEG, DEFAULT_REFERENCE_ROLL_DEG } from '../cautions/measure.js';
 
 export type Progress = (fraction: number, message: string) => void;
 
@@ -65,7 +68,7 @@ export interface SolveResult {
   engineVersion: string;
   feasible: boolean;
   reason: string | null;
-  axle: 'front' | 'rear';
+  axle: AxleName;
   target: {
     kind: 'rollSteerCoefficient' | 'understeerChangeDegPerG' | 'zeroBumpSteer' | 'rollAndComplianceSteerDegPerG';
     rollSteerCoefficient: number;
@@ -107,7 +110,7 @@ export interface SolveResult {
   sideEffects: SideEffects;
   workshop: WorkshopNumbers & {
     asBuilt: { rollSteerCoefficient: number; geometry: { tieRodInner: Vec3; tieRodOuter: Vec3 } };
-    staticToe: { designToeDeg: number; toeAfterShimmingDeg: number; resetDeg: number; note: string };
+    staticToe: StaticToeReset;
   };
   understeerChangeDegPerG: number | null;
   /** The proposal's axle steer out of the turn with compliance included, deg/g, and where the compliance came from; null without a vehicle. */
@@ -119,12 +122,31 @@ export interface SolveResult {
   /** The budget the solve was bounded by (options.bumpYawBudgetPct), % of the steady yaw rate, or null. */
   bumpYawBudgetPct: number | null;
   /**
-   * Balance bought against bump cost (with a vehicle that runs the ride model): the primary coordinate
-   * (`primaryCoordinate`) in 11 steps across its bounds, the others as proposed; empty otherwise.
+   * Balance bought against bump cost: the primary coordinate (`primaryCoordinate`) in 11 steps across its
+   * bounds, the others as proposed, each with ε, its understeer change (with a vehicle), the toe change
+   * over the profile's single-wheel bump (rack 0) and, with a vehicle that runs the ride model, the
+   * random-road yaw-rate disturbance (null otherwise).
    */
-  tradeOff: { valueMm: number; rollSteerCoefficient: number; understeerChangeDegPerG: number | null; yawRateRmsDegPerS: number; yawDisturbancePct: number }[];
+  tradeOff: {
+    valueMm: number;
+    rollSteerCoefficient: number;
+    understeerChangeDegPerG: number | null;
+    yawRateRmsDegPerS: number | null;
+    yawDisturbancePct: number | null;
+    bumpToeChangeDeg: number;
+  }[];
   safety: string;
   diagnostics: { poses: number; targetEvaluations: number; objectiveEvaluations: number };
+}
+
+/** Static toe after shimming and the re-set that brings it back to design (resetDeg = design − after, deg). */
+export interface StaticToeReset {
+  designToeDeg: number;
+  toeAfterShimmingDeg: number;
+  resetDeg: number;
+  /** Which way the re-set moves the wheel: toward toe-in (resetDeg > 0) or toe-out; none below 0.0005°. */
+  direction: 'toe-in' | 'toe-out' | 'none';
+  note: string;
 }
 
 export interface SideEffects {
@@ -137,12 +159,6 @@ export interface SideEffects {
   /** Largest angle the tie rod turns through at each ball joint over travel and rack, relative to its design direction, deg. */
   ballJointArticulationDeg: { inner: { before: number; after: number }; outer: { before: number; after: number } };
 }
-
-const label = (axle: 'front' | 'rear', eps: number): string => {
-  if (Math.abs(eps) < 5e-4) return 'no roll steer';
-  const under = axle === 'front' ? eps > 0 : eps < 0;
-  return under ? 'roll understeer' : 'roll oversteer';
-};
 
 /** The solve of one intent. Throws SolveError where the verification cannot reach a pose. */
 export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult {
@@ -404,9 +420,10 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
     sensitivity[n] = (up - dn) / (2 * h);
   });
 
-  // Balance bought against bump cost: the primary coordinate across its bounds, the others as proposed.
+  // Balance bought against bump cost: the primary coordinate across its bounds, the others as proposed
+  // (the family itself all meets the target, so it has no spread in balance to trade).
   const tradeOff: SolveResult['tradeOff'] = [];
-  if (yawCost.model) {
+  {
     const pi = names.indexOf(outcome.primary);
     const n = 11;
     for (let k = 0; k < n; k++) {
@@ -414,7 +431,15 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
       const c = build(q.map((x, i) => (i === pi ? v : x)));
       try {
         const cost = bumpYaw(c);
-        if (cost) tradeOff.push({ valueMm: v, rollSteerCoefficient: epsOf(c), understeerChangeDegPerG: uChange(c), ...cost });
+        const bumpToe = pose(counter, c, bump).toeDeg - pose(counter, c, 0).toeDeg;
+        tradeOff.push({
+          valueMm: v,
+          rollSteerCoefficient: epsOf(c),
+          understeerChangeDegPerG: uChange(c),
+          yawRateRmsDegPerS: cost?.yawRateRmsDegPerS ?? null,
+          yawDisturbancePct: cost?.yawDisturbancePct ?? null,
+          bumpToeChangeDeg: bumpToe,
+        });
       } catch (e) {
         if (!(e instanceof SolveError)) throw e; // a geometry the kinematics cannot reach is left out of the curve
       }
@@ -471,17 +496,17 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
       rollSteerCoefficient: epsTarget,
       understeerChangeDegPerG: targetDK ?? uChangeEps(epsTarget),
       outsideToeInDegPerDegRoll: -epsTarget,
-      label: label(intent.axle, epsTarget),
+      label: rollSteerWords(epsTarget, intent.axle),
     },
     trackProfile: profile,
-    current: { rollSteerCoefficient: epsCurrent, label: label(intent.axle, epsCurrent), objectiveRmsDeg: currentObjective },
+    current: { rollSteerCoefficient: epsCurrent, label: rollSteerWords(epsCurrent, intent.axle), objectiveRmsDeg: currentObjective },
     geometry: { tieRodInner: pts[inner]!, tieRodOuter: pts[outer]!, innerPoint: inner, outerPoint: outer },
     coordinates,
     corner: proposed,
     achieved: {
       verified: true,
       rollSteerCoefficient: epsVerified,
-      label: label(intent.axle, epsVerified),
+      label: rollSteerWords(epsVerified, intent.axle),
       outsideToeInDegPerDegRoll: -epsVerified,
       bumpSteerDegPerM: straight.bumpSteerDegPerM,
       curvatureDegPerM2: straight.curvatureDegPerM2,
@@ -527,14 +552,14 @@ export function rackPositions(intent: Intent): number[] {
  * The axle's steer out of the turn per g in a linked vehicle (the budget's own terms): roll steer, compliance
  * steer (lateral force and aligning torque) and their sum, deg/g.
  */
-export function axleSteerOut(v: Vehicle, axle: 'front' | 'rear'): { rollSteerDegPerG: number; complianceSteerDegPerG: number; totalDegPerG: number } {
+export function axleSteerOut(v: Vehicle, axle: AxleName): { rollSteerDegPerG: number; complianceSteerDegPerG: number; totalDegPerG: number } {
   const c = understeerBudget(balanceCore(v)).axleCompliance[axle];
   const compliance = c.complianceSteer + c.alignTorqueComplianceSteer;
   return { rollSteerDegPerG: c.rollSteer, complianceSteerDegPerG: compliance, totalDegPerG: c.rollSteer + compliance };
 }
 
 /** A vehicle with `axle`'s roll steer coefficient set to ε (what the balance link's override does). */
-function withRollSteer(v: Vehicle, axle: 'front' | 'rear', eps: number): Vehicle {
+function withRollSteer(v: Vehicle, axle: AxleName, eps: number): Vehicle {
   return { ...v, [axle]: { ...v[axle], rollSteerCoefficient: eps } };
 }
 
@@ -562,7 +587,7 @@ function linkedRollSteer(counter: PoseCounter, intent: Intent, corner: Corner, r
  * model's roll-steer term with each corner linked in (`linkVehicle` +
  * `rollSteerTermDegPerG`, the path of `computeBalance`).
  */
-export function understeerChange(vehicle: Vehicle, axle: 'front' | 'rear', baseline: Corner, proposed: Corner): number {
+export function understeerChange(vehicle: Vehicle, axle: AxleName, baseline: Corner, proposed: Corner): number {
   const k = (c: Corner) => rollSteerTermDegPerG(linked(new PoseCounter(), vehicle, axle, c).vehicle);
   return k(proposed) - k(baseline);
 }
@@ -574,7 +599,7 @@ export function understeerChange(vehicle: Vehicle, axle: 'front' | 'rear', basel
  * (a temporary rack along the rod): exact to first order, the second-order
  * residual is below 1e-4 mm for changes of a few mm.
  */
-function toeAfterShimming(counter: PoseCounter, current: Corner, built: Corner): SolveResult['workshop']['staticToe'] {
+export function toeAfterShimming(counter: PoseCounter, current: Corner, built: Corner): StaticToeReset {
   const inner = innerName(current);
   const outer = outerName(current);
   const cp = current.points as Record<string, Vec3>;
@@ -590,10 +615,12 @@ function toeAfterShimming(counter: PoseCounter, current: Corner, built: Corner):
     steering: { kind: 'rack' as const, rackAxis: [u[0] / n, u[1] / n, u[2] / n] as Vec3, rackStroke: [-Math.abs(dl) - 1, Math.abs(dl) + 1] as [number, number] },
   } as Corner;
   const after = pose(counter, probe, 0, dl).toeDeg;
+  const reset = designToe - after;
   return {
     designToeDeg: designToe,
     toeAfterShimmingDeg: after,
-    resetDeg: designToe - after,
+    resetDeg: reset,
+    direction: Math.abs(reset) < 5e-4 ? 'none' : reset > 0 ? 'toe-in' : 'toe-out',
     note: 'Shim both ends first, then turn the adjuster by the stated turns to bring static toe back to its design value, and check it on the alignment rig.',
   };
 }
@@ -648,17 +675,15 @@ function rollCentreHeight(counter: PoseCounter, c: Corner): number | null {
 
 /** Largest angle of the tie rod from its design direction at each ball joint, over the travel ends and rack positions, deg. */
 function articulation(counter: PoseCounter, c: Corner, racks: number[], travel: { from: number; to: number }): { inner: number; outer: number } {
+  const innerKey = innerName(c);
+  const outerKey = outerName(c);
   const p = c.points as Record<string, Vec3>;
-  const inner = p[innerName(c)]!;
-  const outer = p[outerName(c)]!;
-  const wc = p['wheelCentre']!;
-  const st = c.steering;
-  const axis: Vec3 = st?.kind === 'rack' ? st.rackAxis : [0, 1, 0];
-  const an = Math.hypot(...axis);
+  const inner = p[innerKey]!;
+  const outer = p[outerKey]!;
   const d0: Vec3 = [outer[0] - inner[0], outer[1] - inner[1], outer[2] - inner[2]];
   const angle = (a: Vec3, b: Vec3) => {
     const cos = (a[0] * b[0] + a[1] * b[1] + a[2] * b[2]) / (Math.hypot(...a) * Math.hypot(...b));
-    return Math.acos(Math.min(1, Math.max(-1, cos))) * (180 / Math.PI);
+    return Math.acos(Math.min(1, Math.max(-1, cos))) * DEG_PER_RAD;
   };
   let maxIn = 0;
   let maxOut = 0;
@@ -672,14 +697,9 @@ function articulation(counter: PoseCounter, c: Corner, racks: number[], travel: 
         throw e;
       }
       const R = ps.state.R;
-      const l: Vec3 = [outer[0] - wc[0], outer[1] - wc[1], outer[2] - wc[2]];
-      const o: Vec3 = [
-        ps.state.c[0] + R[0]! * l[0] + R[1]! * l[1] + R[2]! * l[2],
-        ps.state.c[1] + R[3]! * l[0] + R[4]! * l[1] + R[5]! * l[2],
-        ps.state.c[2] + R[6]! * l[0] + R[7]! * l[1] + R[8]! * l[2],
-      ];
-      // Arm steering moves the inner point on an arc; the rack's straight line is close enough for the joint angle at the stroke used here.
-      const i: Vec3 = st?.kind === 'rack' ? [inner[0] + (r * axis[0]) / an, inner[1] + (r * axis[1]) / an, inner[2] + (r * axis[2]) / an] : inner;
+      const at = posedPoints(c, ps.state);
+      const o = at[outerKey]!;
+      const i = at[innerKey]!;
       const d: Vec3 = [o[0] - i[0], o[1] - i[1], o[2] - i[2]];
       maxIn = Math.max(maxIn, angle(d, d0));
       // In the upright's frame: Rᵀ·d against the design direction.

@@ -1,9 +1,11 @@
 /**
  * Workshop numbers: what a mechanic does to turn the current corner into the
- * proposed one. Tie-rod length and its change, a shim stack at each end for
+ * proposed one. The moved link's length and its change, a shim stack at each end for
  * the height changes (whole shims of the stated thickness, so the "as built"
  * geometry is what the shims really give), the adjuster turns for the
- * length change, and moves that are not shim work (lateral or fore-aft).
+ * length change, and moves that are not shim work (lateral or fore-aft). Where
+ * the adjuster's reach or the tallest shim stack cannot make the change, it
+ * says a new link or bracket is needed instead of giving turns.
  */
 import type { Corner, Vec3 } from '../schema/corner.js';
 import { innerName, outerName } from '../schema/intent.js';
@@ -23,6 +25,8 @@ export interface ShimStack {
 }
 
 export interface WorkshopNumbers {
+  /** The link whose ends move, in the trade's words: "tie rod" (steered), "toe link" (not steered), "link 5 (toe link)" (five-link). */
+  link: string;
   tieRod: { lengthBeforeMm: number; lengthAfterMm: number; changeMm: number; asBuiltLengthMm: number };
   shims: ShimStack[];
   adjuster: {
@@ -33,7 +37,18 @@ export interface WorkshopNumbers {
     /** Turns for the as-built length change, + lengthens. */
     turns: number;
     direction: 'lengthen' | 'shorten' | 'none';
+    /** Length change either way the adjuster can make, mm. */
+    reachMm: number;
+    /** Whether the as-built length change is within that reach. */
+    withinReach: boolean;
   };
+  /** Tallest shim stack an end takes, mm. */
+  shimStackMaxMm: number;
+  /**
+   * What the adjusters cannot do, in words ("a new link or bracket is needed …"); empty when shims
+   * and the thread adjuster reach the proposal. Lateral and fore-aft moves are always new parts.
+   */
+  newParts: string[];
   /** Moves that are not shim work: new bracket, arm or rack length, mm. */
   otherMoves: { point: string; axis: 'x' | 'y'; changeMm: number }[];
 }
@@ -71,7 +86,7 @@ export function asBuiltCorner(current: Corner, proposed: Corner, shimThicknessMm
 export function workshopNumbers(
   current: Corner,
   proposed: Corner,
-  opts: { shimThicknessMm: number; threadPitchMm: number; adjuster: 'single-thread' | 'turnbuckle' },
+  opts: { shimThicknessMm: number; threadPitchMm: number; adjuster: 'single-thread' | 'turnbuckle'; adjusterReachMm: number; shimStackMaxMm: number },
 ): WorkshopNumbers {
   const inner = innerName(current);
   const outer = outerName(current);
@@ -96,7 +111,26 @@ export function workshopNumbers(
       if (Math.abs(d) > 1e-9) otherMoves.push({ point, axis, changeMm: d });
     }
   }
+  const link = linkName(current);
+  const withinReach = Math.abs(dl) <= opts.adjusterReachMm + 1e-9;
+  const newParts: string[] = [];
+  if (!withinReach) {
+    newParts.push(
+      `A new link or bracket is needed: the ${link} must ${dl > 0 ? 'lengthen' : 'shorten'} by ${round2(Math.abs(dl))} mm, beyond the adjuster's reach of ${round2(opts.adjusterReachMm)} mm.`,
+    );
+  }
+  for (const s of shims) {
+    if (Math.abs(s.stackMm) > opts.shimStackMaxMm + 1e-9) {
+      newParts.push(
+        `A new bracket is needed at the ${link}'s ${s.end} end: it must ${s.stackMm > 0 ? 'rise' : 'drop'} by ${round2(Math.abs(s.stackMm))} mm, more than a ${round2(opts.shimStackMaxMm)} mm shim stack.`,
+      );
+    }
+  }
+  for (const o of otherMoves) {
+    newParts.push(`A new link or bracket is needed: the ${link}'s ${o.point === inner ? 'inner' : 'outer'} end moves ${o.axis === 'x' ? 'fore-aft' : 'sideways'} by ${round2(o.changeMm)} mm, which shims and the adjuster cannot do.`);
+  }
   return {
+    link,
     tieRod: { lengthBeforeMm: before, lengthAfterMm: after, changeMm: after - before, asBuiltLengthMm: asBuilt },
     shims,
     adjuster: {
@@ -105,7 +139,22 @@ export function workshopNumbers(
       lengthPerTurnMm: perTurn,
       turns: dl / perTurn,
       direction: Math.abs(dl) < 1e-9 ? 'none' : dl > 0 ? 'lengthen' : 'shorten',
+      reachMm: opts.adjusterReachMm,
+      withinReach,
     },
+    shimStackMaxMm: opts.shimStackMaxMm,
+    newParts,
     otherMoves,
   };
+}
+
+const round2 = (v: number) => String(Math.round(v * 100) / 100);
+
+/**
+ * The link whose ends the solver moves, as the trade names it: a steered corner's
+ * tie rod, an unsteered corner's toe link, a five-link's toe link by its number.
+ */
+export function linkName(corner: Corner): string {
+  if (corner.type === 'five-link') return `link ${corner.toeLink} (toe link)`;
+  return corner.steered ? 'tie rod' : 'toe link';
 }

@@ -73,7 +73,10 @@ export function mapCadPoint(p: Vec3, frame: CadFrame): Vec3 {
   const out: Vec3 = [frame.originMm[0], frame.originMm[1], frame.originMm[2]];
   frame.axes.forEach((axis, i) => {
     const u = unitVector(axis);
-    for (let j = 0; j < 3; j++) out[j] += u[j]! * p[i]! * k;
+    const pi = p[i]!;
+    out[0] += u[0] * pi * k;
+    out[1] += u[1] * pi * k;
+    out[2] += u[2] * pi * k;
   });
   if (frame.side === 'right') out[1] = -out[1];
   // Round away float noise from unit conversion (1e-9 mm is far below any tolerance).

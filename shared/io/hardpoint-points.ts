@@ -111,9 +111,9 @@ export function hardpointRows(corner: Corner): HardpointRow[] {
       rows.push({ key, name: pointName(key, corner), group, value });
     }
   };
-  collect('points', 'Linkage', corner.points as Record<string, unknown>);
-  collect('spring', 'Spring', corner.spring as Record<string, unknown> | undefined, SPRING_NAMES);
-  collect('antiRollBar', 'Anti-roll bar', corner.antiRollBar as Record<string, unknown> | undefined, BAR_NAMES);
+  collect('points', 'Linkage', corner.points);
+  collect('spring', 'Spring', corner.spring, SPRING_NAMES);
+  collect('antiRollBar', 'Anti-roll bar', corner.antiRollBar, BAR_NAMES);
   return rows;
 }
 

@@ -140,7 +140,7 @@ export function readHardpointJson(text: string, corner: Corner): HardpointImport
   } catch (e) {
     return { ok: false, errors: [`Not valid JSON: ${e instanceof Error ? e.message : String(e)}`] };
   }
-  const inner = doc && typeof doc === 'object' && 'corner' in doc ? (doc as { corner: unknown }).corner : doc;
+  const inner = doc && typeof doc === 'object' && 'corner' in doc ? doc.corner : doc;
   if (!inner || typeof inner !== 'object') return { ok: false, errors: ['The JSON holds no corner document.'] };
   const c = inner as Partial<Corner>;
   if (c.type !== corner.type) {

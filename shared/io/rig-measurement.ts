@@ -13,6 +13,7 @@
  */
 import Papa from 'papaparse';
 import { detectDelimiter, parseDecimal } from './hardpoints.js';
+import { RAD_PER_DEG } from '../angles.js';
 
 /** Limits of one rig file: bytes (the upload limit of the API) and data rows. */
 export const RIG_LIMITS = {
@@ -44,7 +45,6 @@ export type CamberUnit = (typeof CAMBER_UNITS)[number];
 
 const MM_PER_IN = 25.4;
 const DEG_PER_ARCMIN = 1 / 60;
-const RAD = Math.PI / 180;
 
 /**
  * Which column holds what (0-based column indexes of the file), units and
@@ -212,7 +212,7 @@ function sizeProblem(text: string): string | null {
 
 /** Toe in degrees (toe-in positive) from a value in the file's unit and sign. */
 function toeToDeg(v: number, m: RigMapping): number {
-  const deg = m.toeUnit === 'deg' ? v : m.toeUnit === 'arcmin' ? v * DEG_PER_ARCMIN : Math.asin(Math.max(-1, Math.min(1, v / m.rimDiameterMm!))) / RAD;
+  const deg = m.toeUnit === 'deg' ? v : m.toeUnit === 'arcmin' ? v * DEG_PER_ARCMIN : Math.asin(Math.max(-1, Math.min(1, v / m.rimDiameterMm!))) / RAD_PER_DEG;
   return m.toeSign === 'toe-in-positive' ? deg : -deg;
 }
 

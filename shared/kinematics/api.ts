@@ -10,6 +10,7 @@ import { INTENT_RANGES, VEHICLE_RANGES } from '../schema/ranges.js';
 import { inRange } from '../schema/ranged.js';
 import { sweepCorner, expandRange } from './sweep.js';
 import { axleKinematics, rollSweep, rightCornerToLeftFrame } from './axle.js';
+import { AXLE_NAMES } from '../schema/axle.js';
 
 /** Most poses one request may solve (sweep rows; roll rows count both wheels). */
 export const MAX_POSES_PER_REQUEST = 20_000;
@@ -35,7 +36,7 @@ export const cornerSweepRequestSchema = z.strictObject({
   /** Travel window of the fits, mm. */
   fitRange: z.strictObject({ fromMm: travel, toMm: travel }).optional(),
 });
-export type CornerSweepRequest = z.infer<typeof cornerSweepRequestSchema>;
+type CornerSweepRequest = z.infer<typeof cornerSweepRequestSchema>;
 
 export const axleRollRequestSchema = z.strictObject({
   corner: cornerField,
@@ -49,7 +50,7 @@ export const axleRollRequestSchema = z.strictObject({
   /** Anti-dive / anti-squat inputs. */
   anti: z
     .strictObject({
-      axle: z.enum(['front', 'rear']),
+      axle: z.enum(AXLE_NAMES),
       cgHeightMm: vehicleNumber('cgHeightMm'),
       wheelbaseMm: vehicleNumber('wheelbaseMm'),
       brakeFrontFraction: finite.min(0).max(1).optional(),
@@ -59,7 +60,7 @@ export const axleRollRequestSchema = z.strictObject({
   /** Rack travel per handwheel revolution, mm: enables the overall steering ratio. */
   rackMmPerHandwheelRev: inRange(z.number().finite(), INTENT_RANGES.rackMmPerHandwheelRev, 'rackMmPerHandwheelRev').optional(),
 });
-export type AxleRollRequest = z.infer<typeof axleRollRequestSchema>;
+type AxleRollRequest = z.infer<typeof axleRollRequestSchema>;
 
 function capPoses(n: number, field: string): void {
   if (n > MAX_POSES_PER_REQUEST) {

@@ -11,14 +11,20 @@ import { compileCorner } from './model.js';
 import { CornerSolver } from './solver.js';
 import { kingpinAxis, poseOutputs, uprightPoint, type PoseResult } from './pose.js';
 import { expandRange, checkRack, type Range } from './sweep.js';
-import { RAD } from './vec.js';
+import { DEG_PER_RAD } from '../angles.js';
+import type { AxleName } from '../schema/axle.js';
 
 // ---------- the two sides ----------
 
 /** Mirrors a RIGHT corner (vehicle frame, y < 0) into the left frame; the rack axis stays a vehicle-frame direction. */
+/** A point as a document holds it: three numbers. */
+function isPoint(v: unknown): v is [number, number, number] {
+  return Array.isArray(v) && v.length === 3 && v.every((n) => typeof n === 'number');
+}
+
 export function rightCornerToLeftFrame(right: unknown): Corner {
   const flip = (v: unknown, key: string): unknown => {
-    if (Array.isArray(v) && v.length === 3 && v.every((n) => typeof n === 'number') && key !== 'rackAxis') return [v[0], -v[1], v[2]];
+    if (isPoint(v) && key !== 'rackAxis') return [v[0], -v[1], v[2]];
     if (Array.isArray(v)) return v.map((x) => flip(x, ''));
     if (v && typeof v === 'object') return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, flip(x, k)]));
     return v;
@@ -72,7 +78,7 @@ function steerPerRack(s: CornerSolver): number {
   const w: Vec3 = [s.tSteer[3]!, s.tSteer[4]!, s.tSteer[5]!];
   const da: Vec3 = [w[1] * a[2] - w[2] * a[1], w[2] * a[0] - w[0] * a[2], w[0] * a[1] - w[1] * a[0]];
   const ddm = (a[0] * da[1] - a[1] * da[0]) / (a[0] * a[0] + a[1] * a[1]);
-  return (s.side === 'left' ? ddm : -ddm) * RAD;
+  return (s.side === 'left' ? ddm : -ddm) * DEG_PER_RAD;
 }
 
 function rot(R: Float64Array, v: ArrayLike<number>): Vec3 {
@@ -80,6 +86,18 @@ function rot(R: Float64Array, v: ArrayLike<number>): Vec3 {
 }
 
 // ---------- instant centres ----------
+
+/** Design position (left frame) of the upright point now at p: wc0 + Rᵀ(p − c). */
+function designPosition(s: CornerSolver, p: Vec3): Vec3 {
+  const R = s.R;
+  const d = [p[0] - s.c[0]!, p[1] - s.c[1]!, p[2] - s.c[2]!] as const;
+  const w = s.model.wc0;
+  return [
+    w[0]! + R[0]! * d[0] + R[3]! * d[1] + R[6]! * d[2],
+    w[1]! + R[1]! * d[0] + R[4]! * d[1] + R[7]! * d[2],
+    w[2]! + R[2]! * d[0] + R[5]! * d[1] + R[8]! * d[2],
+  ];
+}
 
 export interface FrontViewIc {
   /** Instant centre in the vehicle front view (y, z), mm; null at infinity (parallel arms). */
@@ -96,7 +114,8 @@ export function frontViewIc(s: CornerSolver): FrontViewIc {
   const p = poseOutputs(s);
   const sg = s.side === 'left' ? 1 : -1;
   const cpLeft: Vec3 = [p.contactPatch[0], sg * p.contactPatch[1], p.contactPatch[2]];
-  const { v } = uprightPoint(s, cpLeft, s.tTravel);
+  // The upright point that is the contact patch at this pose (uprightPoint takes design coordinates).
+  const { v } = uprightPoint(s, designPosition(s, cpLeft), s.tTravel);
   // Left frame: the instant centre lies on the perpendicular to the contact-patch velocity.
   const vy = v[1];
   const vz = v[2];
@@ -152,7 +171,7 @@ export function sideViewIc(s: CornerSolver): SideViewIc {
   const p = poseOutputs(s);
   const cp = p.contactPatch;
   const sg = s.side === 'left' ? 1 : -1;
-  const vcp = uprightPoint(s, [cp[0], sg * cp[1], cp[2]], s.tTravel).v;
+  const vcp = uprightPoint(s, designPosition(s, [cp[0], sg * cp[1], cp[2]]), s.tTravel).v;
   const vwc: Vec3 = [s.tTravel[0]!, s.tTravel[1]!, s.tTravel[2]!];
   const wy = s.tTravel[4]!;
   const far = Math.abs(wy) < 1e-12;
@@ -169,24 +188,24 @@ export function sideViewIc(s: CornerSolver): SideViewIc {
 
 export interface AntiOptions {
   /** Which axle the corner is. */
-  axle: 'front' | 'rear';
+  axle: AxleName;
   cgHeightMm: number;
   wheelbaseMm: number;
   /** Share of braking force on the front axle (0–1); outboard brakes act at the contact patch. */
-  brakeFrontFraction?: number;
+  brakeFrontFraction?: number | undefined;
   /** Share of drive force on the front axle (0–1); drive through half-shafts acts at the wheel centre. */
-  driveFrontFraction?: number;
+  driveFrontFraction?: number | undefined;
 }
 
 export interface AxleKinematicsOptions {
-  rightCorner?: unknown;
-  rackMm?: number;
-  wheelbaseMm?: number;
-  anti?: AntiOptions;
+  rightCorner?: unknown | undefined;
+  rackMm?: number | undefined;
+  wheelbaseMm?: number | undefined;
+  anti?: AntiOptions | undefined;
   /** Rack travel per handwheel revolution, mm (gives the overall steering ratio). */
-  rackMmPerHandwheelRev?: number;
+  rackMmPerHandwheelRev?: number | undefined;
   /** Number of points over the rack stroke for the steering table (default 21). */
-  steeringPoints?: number;
+  steeringPoints?: number | undefined;
 }
 
 export interface SteeringRow {
@@ -211,8 +230,8 @@ export function ackermannPercent(leftSteerDeg: number, rightSteerDeg: number, st
   const mean = (leftSteerDeg + rightSteerDeg) / 2;
   if (Math.abs(mean) < 0.5 || !(wheelbaseMm > 0) || steeringAxisTrackMm === null || !Number.isFinite(steeringAxisTrackMm)) return null;
   const left = mean > 0;
-  const inner = Math.abs(left ? leftSteerDeg : rightSteerDeg) / RAD;
-  const outer = Math.abs(left ? rightSteerDeg : leftSteerDeg) / RAD;
+  const inner = Math.abs(left ? leftSteerDeg : rightSteerDeg) / DEG_PER_RAD;
+  const outer = Math.abs(left ? rightSteerDeg : leftSteerDeg) / DEG_PER_RAD;
   if (!(outer > 0)) return null;
   const cotIdeal = 1 / Math.tan(outer) - steeringAxisTrackMm / wheelbaseMm;
   const ideal = Math.atan2(1, cotIdeal);
@@ -382,9 +401,9 @@ export interface RollRackSummary {
 
 export interface RollSweepOptions {
   roll: Range;
-  rackMm?: number[];
-  rightCorner?: unknown;
-  wheelbaseMm?: number;
+  rackMm?: number[] | undefined;
+  rightCorner?: unknown | undefined;
+  wheelbaseMm?: number | undefined;
 }
 
 /** ε and roll camber at φ = 0 for one rack position, from the analytic tangents. */
@@ -392,11 +411,11 @@ function rollCoefficients(sides: AxleSides, rack: number): { eps: number; rollCa
   const { l, r } = solveBoth(sides, 0, 0, rack);
   const half = sides.trackMm / 2;
   // ds/dφ = t/2 per rad; left travel −s, right +s (domain.md). Rates in deg/mm → deg/rad, then per degree.
-  const dMean = ((-steerRatePerMm(l) + steerRatePerMm(r)) / 2) * half / RAD;
+  const dMean = ((-steerRatePerMm(l) + steerRatePerMm(r)) / 2) * half / DEG_PER_RAD;
   const gL = l.camberGradientDegPerM / 1000;
   const gR = r.camberGradientDegPerM / 1000;
   // d/dφ[(γ_R(+s) + φ − γ_L(−s) + φ)/2]
-  const rollCamber = 1 + ((gR + gL) / 2) * half / RAD;
+  const rollCamber = 1 + ((gR + gL) / 2) * half / DEG_PER_RAD;
   return { eps: -dMean, rollCamber, l, r };
 }
 
@@ -425,7 +444,7 @@ export function rollSweep(corner: Corner, options: RollSweepOptions) {
     const out = new Array<RollRow>(rolls.length);
     const at = (i: number) => {
       const phi = rolls[i]!;
-      const s = half * Math.sin(phi / RAD);
+      const s = half * Math.sin(phi / DEG_PER_RAD);
       sides.left.solveTowards(-s, rack);
       sides.right.solveTowards(s, rack);
       const l = poseOutputs(sides.left);
@@ -451,7 +470,7 @@ export function rollSweep(corner: Corner, options: RollSweepOptions) {
     };
     if (!solved) solveBoth(sides, 0, 0, rack);
     for (let i = start; i < rolls.length; i++) at(i);
-    solveBoth(sides, -half * Math.sin(rolls[start]! / RAD), half * Math.sin(rolls[start]! / RAD), rack);
+    solveBoth(sides, -half * Math.sin(rolls[start]! / DEG_PER_RAD), half * Math.sin(rolls[start]! / DEG_PER_RAD), rack);
     for (let i = start - 1; i >= 0; i--) at(i);
     return out;
   };

@@ -138,4 +138,4 @@ const roadRearFiveLink: Corner = {
 };
 
 export const exampleCorners = { fsFrontWishbone, fsRearWishbone, roadFrontStrut, roadRearFiveLink } as const satisfies Record<string, Corner>;
-export type ExampleCornerName = keyof typeof exampleCorners;
+type ExampleCornerName = keyof typeof exampleCorners;

@@ -2,12 +2,13 @@
  * Corner and axle kinematics: public library API (see docs/kinematics.md).
  * Conventions (axes, signs, units) are those of shared/docs/domain.md.
  */
-export { exampleCorners, type ExampleCornerName } from './examples.js';
+export { exampleCorners } from './examples.js';
 export { compileCorner, moveCornerPoints, type CornerModel, type CornerMoves, type Side } from './model.js';
 export { CornerSolver, RESIDUAL_TOL_MM, type SolveDiagnostics } from './solver.js';
 export { poseOutputs, poseRow, kingpinAxis, type PoseResult, type PoseRow, type KingpinAxis } from './pose.js';
 export {
   solvePose,
+  posedPoints,
   posedHardpoints,
   sweepCorner,
   sweepTravels,

@@ -8,7 +8,8 @@ import { SolveError } from '../errors.js';
 import type { Vec3, Attachment } from '../schema/corner.js';
 import type { ArmModel, LeverModel } from './model.js';
 import type { CornerSolver } from './solver.js';
-import { add, cross, dot, norm, sub, scale, RAD, rotateOffsetCsInto } from './vec.js';
+import { add, cross, dot, norm, sub, scale, rotateOffsetCsInto } from './vec.js';
+import { DEG_PER_RAD } from '../angles.js';
 
 export interface PoseRow {
   /** Wheel-centre travel from design, mm (+ bump). */
@@ -333,19 +334,19 @@ export function poseRow(s: CornerSolver): PoseRow {
   const out: PoseRow = {
     travelMm: s.travelMm,
     rackMm: s.rackMm,
-    toeDeg: -dm * RAD,
-    camberDeg: -Math.asin(az) * RAD,
-    steerDeg: (right ? -dm : dm) * RAD,
+    toeDeg: -dm * DEG_PER_RAD,
+    camberDeg: -Math.asin(az) * DEG_PER_RAD,
+    steerDeg: (right ? -dm : dm) * DEG_PER_RAD,
     wheelCentre: [c[0]!, right ? -c[1]! : c[1]!, c[2]!],
     contactPatch: [cpx, right ? -cpy : cpy, cpz],
     halfTrackChangeMm: cpy - m.cp0[1],
     wheelCentreShiftXMm: c[0]! - m.wc0[0],
-    kingpinInclinationDeg: Math.atan2(-uy, uz) * RAD,
-    casterDeg: Math.atan2(-ux, uz) * RAD,
+    kingpinInclinationDeg: Math.atan2(-uy, uz) * DEG_PER_RAD,
+    casterDeg: Math.atan2(-ux, uz) * DEG_PER_RAD,
     scrubRadiusMm: (cpx - Gx) * -hy + (cpy - Gy) * hx,
     mechanicalTrailMm: (Gx - cpx) * hx + (Gy - cpy) * hy,
-    toeGradientDegPerM: -ddm * RAD * 1000,
-    camberGradientDegPerM: (-daz / Math.sqrt(1 - az * az)) * RAD * 1000,
+    toeGradientDegPerM: -ddm * DEG_PER_RAD * 1000,
+    camberGradientDegPerM: (-daz / Math.sqrt(1 - az * az)) * DEG_PER_RAD * 1000,
     iterations: s.iterations,
   };
 

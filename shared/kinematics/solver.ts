@@ -14,6 +14,7 @@
 import { SolveError } from '../errors.js';
 import type { CornerModel, Side } from './model.js';
 import { rotateOffsetInto } from './vec.js';
+import { luFactor, luSolve } from '../numeric/lu.js';
 
 /** Convergence tolerance on every residual row, mm. */
 export const RESIDUAL_TOL_MM = 1e-10;
@@ -128,6 +129,20 @@ export class CornerSolver {
     a[0] = b[k]!;
     a[1] = b[k + 1]!;
     a[2] = b[k + 2]!;
+    this.setSteer();
+  }
+
+  /**
+   * Takes a solved pose's state as the current one (no solve): wheel centre,
+   * rotation, travel and steering input, with the steering inner point placed
+   * for that input. For reading points off a pose solved elsewhere.
+   */
+  place(state: { c: ArrayLike<number>; R: ArrayLike<number>; travelMm: number; rackMm: number }): void {
+    this.c.set(state.c);
+    this.R.set(state.R);
+    this.travelMm = state.travelMm;
+    this.rackMm = state.rackMm;
+    this.sc[3] = state.rackMm;
     this.setSteer();
   }
 
@@ -256,34 +271,7 @@ export class CornerSolver {
 
   /** LU with partial pivoting of the 5×5 J, in place (J then holds L and U), pivots in piv; false if singular. */
   private factor(): boolean {
-    const A = this.J;
-    const piv = this.piv;
-    for (let k = 0; k < 5; k++) {
-      let p = k;
-      let best = Math.abs(A[5 * k + k]!);
-      for (let i = k + 1; i < 5; i++) {
-        const v = Math.abs(A[5 * i + k]!);
-        if (v > best) {
-          best = v;
-          p = i;
-        }
-      }
-      if (!(best > 1e-13)) return false;
-      piv[k] = p;
-      if (p !== k) {
-        for (let j = 0; j < 5; j++) {
-          const t = A[5 * k + j]!;
-          A[5 * k + j] = A[5 * p + j]!;
-          A[5 * p + j] = t;
-        }
-      }
-      const inv = 1 / A[5 * k + k]!;
-      for (let i = k + 1; i < 5; i++) {
-        const f = (A[5 * i + k]! *= inv);
-        if (f !== 0) for (let j = k + 1; j < 5; j++) A[5 * i + j]! -= f * A[5 * k + j]!;
-      }
-    }
-    return true;
+    return luFactor(this.J, 5, this.piv, 1e-13);
   }
 
   /**
@@ -292,30 +280,11 @@ export class CornerSolver {
    * driving row, then the factored 5×5 for the rest.
    */
   private backSolve(b: Float64Array): void {
-    const A = this.J;
-    const piv = this.piv;
     const jz = this.jz;
     const r = this.r5;
     const z = b[5]!;
     for (let i = 0; i < 5; i++) r[i] = b[i]! - jz[i]! * z;
-    // Row swaps were applied to whole rows (L included), so permute r first, then substitute.
-    for (let k = 0; k < 5; k++) {
-      const p = piv[k]!;
-      if (p !== k) {
-        const t = r[k]!;
-        r[k] = r[p]!;
-        r[p] = t;
-      }
-    }
-    for (let k = 0; k < 5; k++) {
-      const rk = r[k]!;
-      for (let i = k + 1; i < 5; i++) r[i]! -= A[5 * i + k]! * rk;
-    }
-    for (let k = 4; k >= 0; k--) {
-      let s = r[k]!;
-      for (let j = k + 1; j < 5; j++) s -= A[5 * k + j]! * r[j]!;
-      r[k] = s / A[5 * k + k]!;
-    }
+    luSolve(this.J, 5, this.piv, r);
     b[0] = r[0]!;
     b[1] = r[1]!;
     b[2] = z;
@@ -464,7 +433,7 @@ export class CornerSolver {
       let next = this.sc[0]!;
       let tries = 0;
       while (!(next < res) && tries < 12) {
-        sc[2]! *= 0.5;
+        sc[2] *= 0.5;
         this.applyStep(dx);
         this.evaluate();
         next = this.sc[0]!;

@@ -64,9 +64,9 @@ export interface SweepFit extends ToeFit {
 export interface SweepOptions {
   travel: Range;
   /** Steering inputs, mm (default [0]). */
-  rackMm?: number[];
+  rackMm?: number[] | undefined;
   /** Travel window for the fits, mm (default: the whole sweep). */
-  fitRange?: { fromMm: number; toMm: number };
+  fitRange?: { fromMm: number; toMm: number } | undefined;
   side?: Side;
 }
 
@@ -203,34 +203,43 @@ export interface PoseState {
   rackMm: number;
 }
 
+/** Points carried by the upright (they move as one rigid body with it); five-link adds `link1Outer`…`link5Outer`. */
+const UPRIGHT_POINTS: ReadonlySet<string> = new Set(['wheelCentre', 'spindle', 'lowerOuter', 'upperOuter', 'tieRodOuter', 'strutLower', 'link1Outer', 'link2Outer', 'link3Outer', 'link4Outer', 'link5Outer']);
+
 /**
- * Every entry of `corner.points` at a pose, left frame, mm: upright points
- * (wheel centre, spindle, outer joints, strut lower point, link outers) move
- * with the upright, body points stay, and the tie-rod / toe-link inner point
- * follows the rack or steering arm. For drawing the linkage.
+ * Every entry of `corner.points` at a solved pose (`solvePose(...).state`,
+ * left frame), mm: upright points (wheel centre, spindle, outer joints, strut
+ * lower point, link outers) at c + R·(p − wc₀), body points where they are,
+ * and the tie-rod / toe-link inner point where the rack or steering arm puts
+ * it for the pose's steering input. The one place that moves hardpoints with
+ * a pose: drawings, joint articulation and the like read it.
  */
-export function posedHardpoints(corner: Corner, at: { travelMm: number; rackMm?: number }): Record<string, Vec3> {
+export function posedPoints(corner: Corner, pose: PoseState): Record<string, Vec3> {
   const model = compileCorner(corner);
-  const rack = at.rackMm ?? 0;
-  checkRack(model, [rack], 'rackMm');
   const s = new CornerSolver(model, 'left');
-  s.solve(0, 0);
-  s.solveTowards(at.travelMm, rack);
-  const pts = model.corner.points as Record<string, Vec3>;
-  const upright = new Set(['wheelCentre', 'spindle', 'lowerOuter', 'upperOuter', 'tieRodOuter', 'strutLower', 'link1Outer', 'link2Outer', 'link3Outer', 'link4Outer', 'link5Outer']);
+  s.place(pose);
   const steerInner = model.corner.type === 'five-link' ? `link${model.corner.toeLink}Inner` : 'tieRodInner';
-  const out: Record<string, Vec3> = {};
+  const wc0 = model.wc0;
+  const c = s.c;
   const R = s.R;
-  for (const [key, p] of Object.entries(pts)) {
-    if (upright.has(key)) {
-      const d = [p[0] - model.wc0[0], p[1] - model.wc0[1], p[2] - model.wc0[2]] as const;
+  const out: Record<string, Vec3> = {};
+  for (const [key, p] of Object.entries(model.corner.points as Record<string, Vec3>)) {
+    if (UPRIGHT_POINTS.has(key)) {
+      const d0 = p[0] - wc0[0];
+      const d1 = p[1] - wc0[1];
+      const d2 = p[2] - wc0[2];
       out[key] = [
-        s.c[0]! + R[0]! * d[0] + R[1]! * d[1] + R[2]! * d[2],
-        s.c[1]! + R[3]! * d[0] + R[4]! * d[1] + R[5]! * d[2],
-        s.c[2]! + R[6]! * d[0] + R[7]! * d[1] + R[8]! * d[2],
+        c[0]! + R[0]! * d0 + R[1]! * d1 + R[2]! * d2,
+        c[1]! + R[3]! * d0 + R[4]! * d1 + R[5]! * d2,
+        c[2]! + R[6]! * d0 + R[7]! * d1 + R[8]! * d2,
       ];
     } else if (key === steerInner) out[key] = [s.steerInner[0]!, s.steerInner[1]!, s.steerInner[2]!];
     else out[key] = [p[0], p[1], p[2]];
   }
   return out;
+}
+
+/** `posedPoints` at a travel and steering input, solved by continuation from the design pose. For drawing the linkage. */
+export function posedHardpoints(corner: Corner, at: { travelMm: number; rackMm?: number }): Record<string, Vec3> {
+  return posedPoints(corner, solvePose(corner, at).state);
 }

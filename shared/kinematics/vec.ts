@@ -12,7 +12,6 @@ export const cross = (a: ArrayLike<number>, b: ArrayLike<number>): Vec3 => [
 ];
 export const norm = (a: ArrayLike<number>): number => Math.hypot(a[0]!, a[1]!, a[2]!);
 export const unit = (a: ArrayLike<number>): Vec3 => scale(a, 1 / norm(a));
-export const RAD = 180 / Math.PI;
 
 /**
  * Rodrigues rotation of the offset (p − origin) about the unit axis u by

@@ -8,15 +8,16 @@ import * as z from 'zod';
 import { parseOrThrow } from '../errors.js';
 import { cornerDocumentSchema } from '../schema/corner.js';
 import { upgradeVehicleDocument, vehicleSchema } from '../schema/vehicle.js';
-import { SAFETY_CAUTION } from '../intent/cautions.js';
+import { SAFETY_CAUTION } from '../cautions/cautions.js';
 import { ENGINE_VERSION } from '../version.js';
 import { evaluateRide, ROAD_CLASSES, type RideResult } from './index.js';
+import { AXLE_NAMES } from '../schema/axle.js';
 
 const finite = z.number().finite();
 
 export const rideRequestSchema = z.strictObject({
   vehicle: z.preprocess(upgradeVehicleDocument, vehicleSchema),
-  axle: z.enum(['front', 'rear'], { error: 'axle must be "front" or "rear"' }),
+  axle: z.enum(AXLE_NAMES, { error: 'axle must be "front" or "rear"' }),
   roadClass: z.enum(ROAD_CLASSES, { error: 'roadClass must be one of the ISO 8608 classes A to H' }),
   /** Speed, km/h. */
   speedKph: finite.min(1, 'speedKph must be at least 1 km/h').max(400, 'speedKph must be at most 400 km/h'),
@@ -41,7 +42,7 @@ export const rideRequestSchema = z.strictObject({
   /** Report bump steer at the ends of the steering stroke (default true). */
   fullLock: z.boolean().optional(),
 });
-export type RideRequest = z.input<typeof rideRequestSchema>;
+type RideRequest = z.input<typeof rideRequestSchema>;
 
 export interface RideResponse extends RideResult {
   vehicleName: string | null;

@@ -17,8 +17,9 @@ import type { Vehicle } from '../schema/vehicle.js';
 import { evaluateRide, quarterCarOf, quarterCarSpectra, steeringSpectra, ToeCurve, lateralModel, type RideResult } from './index.js';
 import { ROAD_CLASS_WORDS, roadSpectrum, type RoadClass } from './road.js';
 import { rackForAxleSteer } from '../kinematics/index.js';
+import { RAD_PER_DEG } from '../angles.js';
+import type { AxleName } from '../schema/axle.js';
 
-const DEG = Math.PI / 180;
 /** Time over which the heading change is turned into a lateral drift, s. */
 export const DRIFT_HORIZON_S = 1;
 
@@ -64,7 +65,7 @@ export interface BumpCost {
   summary: string;
 }
 
-export function bumpCostFrom(r: RideResult, p: BumpCostProfile, axle: 'front' | 'rear'): BumpCost {
+export function bumpCostFrom(r: RideResult, p: BumpCostProfile, axle: AxleName): BumpCost {
   const pick = <T extends { condition: string }>(xs: T[], value: (x: T) => number): T | null => {
     let best: T | null = null;
     for (const x of xs) if (x.condition === 'on-centre' || x.condition === 'operating-steer') if (!best || value(x) > value(best)) best = x;
@@ -74,10 +75,10 @@ export function bumpCostFrom(r: RideResult, p: BumpCostProfile, axle: 'front' | 
   const bump = r.bump ? pick(r.bump.steering, (s) => s.headingChangeDeg ?? s.peakSideForceN) : null;
   const landing = r.landing ? pick(r.landing.steering, (s) => s.peakWheelSideForceFraction) : null;
   const V = p.speedKph / 3.6;
-  const steady = V / p.cornerRadiusM / DEG;
+  const steady = V / p.cornerRadiusM / RAD_PER_DEG;
   const yaw = random?.uncorrelated.yawRateRmsDegPerS ?? null;
   const heading = bump?.headingChangeDeg ?? null;
-  const drift = heading === null ? null : V * DRIFT_HORIZON_S * Math.tan(heading * DEG);
+  const drift = heading === null ? null : V * DRIFT_HORIZON_S * Math.tan(heading * RAD_PER_DEG);
   const fullLock = r.steering.filter((s) => s.condition === 'full-lock');
   let lock: number | null = null;
   for (const s of fullLock) for (const w of [s.wheels.left, s.wheels.right]) if (lock === null || Math.abs(w.gradientDegPerM) > Math.abs(lock)) lock = w.gradientDegPerM;
@@ -111,7 +112,7 @@ export function bumpCostFrom(r: RideResult, p: BumpCostProfile, axle: 'front' | 
 }
 
 /** The bump cost of `corner` on `axle` of `vehicle` on a profile (throws InputError when the vehicle lacks ride data). */
-export function bumpCost(vehicle: Vehicle, axle: 'front' | 'rear', corner: Corner, p: BumpCostProfile): BumpCost {
+export function bumpCost(vehicle: Vehicle, axle: AxleName, corner: Corner, p: BumpCostProfile): BumpCost {
   const r = evaluateRide(vehicle, {
     axle,
     roadClass: p.roadClass,
@@ -139,7 +140,8 @@ function fmt(x: number, d: number): string {
  * condition). Same figures as `bumpCost(...).yawRateRmsDegPerS`.
  */
 export class RandomRoadYawCost {
-  private readonly sigmaMm: number;
+  /** RMS wheel travel on this road, mm: the Gaussian travel the toe statistics are taken over. */
+  readonly sigmaMm: number;
   /** Yaw-rate variance per unit κ² (κ² in rad²/m², variance in (deg/s)²). */
   private readonly perKappa2: number;
   readonly steadyYawRateDegPerS: number;
@@ -147,7 +149,7 @@ export class RandomRoadYawCost {
 
   constructor(
     vehicle: Vehicle,
-    private readonly axle: 'front' | 'rear',
+    private readonly axle: AxleName,
     private readonly p: BumpCostProfile,
   ) {
     const { car, info } = quarterCarOf(vehicle, axle);
@@ -158,20 +160,42 @@ export class RandomRoadYawCost {
     this.unstable = lat.unstable;
     const unit = steeringSpectra(car, lat, 2 * lat.wheelStiffnessNPerRad(info.staticTyreLoadN), road, 1);
     this.perKappa2 = (unit.yawRateRmsDegPerS ?? 0) ** 2;
-    this.steadyYawRateDegPerS = V / p.cornerRadiusM / DEG;
+    this.steadyYawRateDegPerS = V / p.cornerRadiusM / RAD_PER_DEG;
     this.wheelbaseMm = vehicle.wheelbaseMm;
   }
   private readonly wheelbaseMm: number;
 
+  /** The rack positions judged: 0, and for a steered corner the operating steer of the profile's corner (Ackermann angle L/R). */
+  racksMm(corner: Corner): number[] {
+    const racks = [0];
+    if (corner.steered) racks.push(rackForAxleSteer(corner, this.wheelbaseMm / 1000 / this.p.cornerRadiusM / RAD_PER_DEG));
+    return racks;
+  }
+
   /** RMS yaw-rate disturbance of `corner` (worse of on-centre and the operating steer), deg/s and % of V/R; null above the critical speed. */
   of(corner: Corner): { yawRateRmsDegPerS: number; yawDisturbancePct: number } | null {
     if (this.unstable) return null;
-    const racks = [0];
-    if (corner.steered) racks.push(rackForAxleSteer(corner, (this.wheelbaseMm / 1000 / this.p.cornerRadiusM) / DEG));
+    return this.fromToeRms(
+      this.racksMm(corner).map((rack) => {
+        const l = new ToeCurve(corner, 'left', rack, this.p.travelMm).gaussian(this.sigmaMm).rmsDeg;
+        const r = rack === 0 ? l : new ToeCurve(corner, 'right', rack, this.p.travelMm).gaussian(this.sigmaMm).rmsDeg;
+        return [l, r];
+      }),
+    );
+  }
+
+  /**
+   * The same figure from the toe statistics of each judged condition, for callers that solve the toe
+   * themselves (studies): [left, right] RMS toe change (deg) over the Gaussian travel of RMS `sigmaMm`
+   * (ToeCurve.gaussian, travels clipped to the profile's range). Null above the critical speed.
+   */
+  fromToeRms(conditions: [number, number][]): { yawRateRmsDegPerS: number; yawDisturbancePct: number } | null {
+    if (this.unstable) return null;
     let worst = 0;
-    for (const rack of racks) {
-      const l = new ToeCurve(corner, 'left', rack, this.p.travelMm).gaussian(this.sigmaMm).equivalentGradientDegPerM * DEG;
-      const r = rack === 0 ? l : new ToeCurve(corner, 'right', rack, this.p.travelMm).gaussian(this.sigmaMm).equivalentGradientDegPerM * DEG;
+    for (const [lRms, rRms] of conditions) {
+      // Equivalent gains rms/σ (rad/m); the sign drops out of the squares.
+      const l = this.sigmaMm > 0 ? ((lRms / (this.sigmaMm / 1000)) * RAD_PER_DEG) : 0;
+      const r = this.sigmaMm > 0 ? ((rRms / (this.sigmaMm / 1000)) * RAD_PER_DEG) : 0;
       worst = Math.max(worst, Math.sqrt(((l * l + r * r) / 4) * this.perKappa2));
     }
     return { yawRateRmsDegPerS: worst, yawDisturbancePct: (100 * worst) / this.steadyYawRateDegPerS };

@@ -25,13 +25,14 @@ import { quarterCarGains, quarterCarOf, quarterCarRate, travelGain, type Quarter
 import { roadSpectrum, temporalPsd, ROAD_CLASS_WORDS, ISO8608_BAND, type RoadClass, type RoadSpectrum } from './road.js';
 import { ToeCurve, type ToeStatistics, type ToeTable } from './toe.js';
 import { lateralGains, lateralModel, type LateralModel } from './lateral.js';
+import { RAD_PER_DEG } from '../angles.js';
+import type { AxleName } from '../schema/axle.js';
 
 export * from './road.js';
 export { quarterCarOf, quarterCarGains, quarterCarRate, travelGain, axleShare, DEFAULT_BODY_DAMPING_RATIO, type QuarterCar, type QuarterCarInfo } from './quarter-car.js';
 export { ToeCurve, ToeTable, type ToeStatistics } from './toe.js';
 export { lateralModel, lateralGains, DEFAULT_RELAXATION_LENGTH_M, type LateralModel } from './lateral.js';
 
-const DEG = Math.PI / 180;
 /** Intervals of the Simpson rule over ln f across the band (even). */
 export const SPECTRAL_INTERVALS = 512;
 
@@ -130,9 +131,9 @@ export function steeringSpectra(q: QuarterCar, lat: LateralModel, axleStiffnessN
     },
   );
   return {
-    axleSteerRmsDeg: Math.sqrt(v[0]!) / DEG,
+    axleSteerRmsDeg: Math.sqrt(v[0]!) / RAD_PER_DEG,
     sideForceRmsN: Math.sqrt(v[1]!),
-    yawRateRmsDegPerS: lat.unstable ? null : Math.sqrt(v[2]!) / DEG,
+    yawRateRmsDegPerS: lat.unstable ? null : Math.sqrt(v[2]!) / RAD_PER_DEG,
     lateralAccelerationRmsMS2: lat.unstable ? null : Math.sqrt(v[3]!),
   };
 }
@@ -265,8 +266,8 @@ export function simulateLateral(h: EventHistory, lat: LateralModel, left: ToeTab
     const s = h.travelMm[i]! * (1 - f) + h.travelMm[j]! * f;
     const fz = h.tyreLoadN[i]! * (1 - f) + h.tyreLoadN[j]! * f;
     const c = lat.wheelStiffnessNPerRad(fz);
-    const dl = left ? -left.deltaToeDeg(s) * DEG : 0;
-    const dr = right ? right.deltaToeDeg(s) * DEG : 0;
+    const dl = left ? -left.deltaToeDeg(s) * RAD_PER_DEG : 0;
+    const dr = right ? right.deltaToeDeg(s) * RAD_PER_DEG : 0;
     tSteer = (dl + dr) / 2;
     tToe = Math.max(Math.abs(dl), Math.abs(dr));
     tWheelForce = c * tToe;
@@ -298,8 +299,8 @@ export function simulateLateral(h: EventHistory, lat: LateralModel, left: ToeTab
   const k4 = [0, 0, 0, 0];
   let t0 = target(0, 0);
   for (let i = 0; i < n; i++) {
-    peakToe = Math.max(peakToe, tToe / DEG);
-    peakSteer = Math.max(peakSteer, Math.abs(tSteer) / DEG);
+    peakToe = Math.max(peakToe, tToe / RAD_PER_DEG);
+    peakSteer = Math.max(peakSteer, Math.abs(tSteer) / RAD_PER_DEG);
     peakWheelForce = Math.max(peakWheelForce, tWheelForce);
     peakWheelFraction = Math.max(peakWheelFraction, tWheelFraction);
     peakF = Math.max(peakF, Math.abs(F));
@@ -327,11 +328,11 @@ export function simulateLateral(h: EventHistory, lat: LateralModel, left: ToeTab
     peakSideForceN: peakF,
     peakWheelSideForceN: peakWheelForce,
     peakWheelSideForceFraction: peakWheelFraction,
-    peakYawRateDegPerS: ok ? peakR / DEG : null,
+    peakYawRateDegPerS: ok ? peakR / RAD_PER_DEG : null,
     peakLateralAccelerationMS2: ok ? peakAy : null,
-    headingChangeDeg: ok ? peakPsi / DEG : null,
-    finalHeadingChangeDeg: ok ? psi / DEG : null,
-    finalYawRateDegPerS: ok ? r / DEG : null,
+    headingChangeDeg: ok ? peakPsi / RAD_PER_DEG : null,
+    finalHeadingChangeDeg: ok ? psi / RAD_PER_DEG : null,
+    finalYawRateDegPerS: ok ? r / RAD_PER_DEG : null,
   };
 }
 
@@ -340,7 +341,7 @@ export function simulateLateral(h: EventHistory, lat: LateralModel, left: ToeTab
 export type RideEvent = { kind: 'bump'; heightMm: number; lengthMm: number } | { kind: 'landing'; dropHeightMm: number };
 
 export interface RideOptions {
-  axle: 'front' | 'rear';
+  axle: AxleName;
   roadClass: RoadClass;
   speedKph: number;
   /** The axle's left corner: toe, side-force and yaw outputs. */
@@ -396,7 +397,7 @@ export interface EventResult {
 }
 
 export interface RideResult {
-  axle: 'front' | 'rear';
+  axle: AxleName;
   roadClass: RoadClass;
   roadInWords: string;
   speedKph: number;
@@ -443,8 +444,8 @@ export function evaluateRide(vehicle: Vehicle, o: RideOptions): RideResult {
       const axleSteerDeg = rackMm === 0 ? 0 : (-l.staticToeDeg + r.staticToeDeg) / 2;
       const ls = l.gaussian(sigmaMm);
       const rs = r.gaussian(sigmaMm);
-      const gl = (ls.equivalentGradientDegPerM * DEG);
-      const gr = (rs.equivalentGradientDegPerM * DEG);
+      const gl = (ls.equivalentGradientDegPerM * RAD_PER_DEG);
+      const gr = (rs.equivalentGradientDegPerM * RAD_PER_DEG);
       const unc = (gl * gl + gr * gr) / 4;
       const inp = ((gr - gl) / 2) ** 2;
       return {
@@ -460,7 +461,7 @@ export function evaluateRide(vehicle: Vehicle, o: RideOptions): RideResult {
     };
     steering.push(condition('on-centre', 0, null));
     if (corner.steered && o.cornerRadiusM !== undefined) {
-      const steerDeg = (vehicle.wheelbaseMm / 1000 / o.cornerRadiusM) / DEG;
+      const steerDeg = (vehicle.wheelbaseMm / 1000 / o.cornerRadiusM) / RAD_PER_DEG;
       const rack = rackForAxleSteer(corner, steerDeg);
       steering.push(condition('operating-steer', rack, o.cornerRadiusM));
     }
@@ -548,7 +549,7 @@ export function evaluateRide(vehicle: Vehicle, o: RideOptions): RideResult {
           relaxationLengthM: lat.relaxationLengthM,
           relaxationSource: lat.relaxationSource,
           tyreStiffnessLaw: lat.stiffnessLaw,
-          axleCorneringStiffnessNPerDeg: axleStiffness * DEG,
+          axleCorneringStiffnessNPerDeg: axleStiffness * RAD_PER_DEG,
           unstableAtSpeed: lat.unstable,
         }
       : null,

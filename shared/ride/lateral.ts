@@ -16,6 +16,8 @@ import { balanceCore } from '../balance/understeer.js';
 import { understeerBudget } from '../balance/understeer.js';
 import { bicycleModel2, bicycleParameters } from '../balance/transient.js';
 import { describeTyreLoadLaw, tyreLoadLaw, tyreStiffnessAt } from '../balance/tyre.js';
+import { DEG_PER_RAD } from '../angles.js';
+import type { AxleName } from '../schema/axle.js';
 
 /** Tyre relaxation length used when the vehicle gives none, m (check-values.md: 0.3–0.8 m for car tyres, from memory). */
 export const DEFAULT_RELAXATION_LENGTH_M = 0.5;
@@ -40,7 +42,7 @@ export interface LateralModel {
 }
 
 /** The lateral chain of `axle` at `speedMps`. */
-export function lateralModel(v: Vehicle, axle: 'front' | 'rear', speedMps: number): LateralModel {
+export function lateralModel(v: Vehicle, axle: AxleName, speedMps: number): LateralModel {
   const core = balanceCore(v);
   const budget = understeerBudget(core, 0);
   const p = bicycleParameters(core, budget.axleCompliance.front.total, budget.axleCompliance.rear.total);
@@ -53,8 +55,7 @@ export function lateralModel(v: Vehicle, axle: 'front' | 'rear', speedMps: numbe
   // The one tyre load law of the balance model (shared/balance/tyre.ts): the vehicle's quadratic, or the
   // degressive law from the static-load stiffness.
   const tyreLaw = tyreLoadLaw(tyre, staticLoad);
-  const RAD = 180 / Math.PI;
-  const law = (fz: number): number => (fz > 0 ? Math.max(0, tyreStiffnessAt(tyreLaw, fz)) * RAD : 0);
+  const law = (fz: number): number => (fz > 0 ? Math.max(0, tyreStiffnessAt(tyreLaw, fz)) * DEG_PER_RAD : 0);
   const text = `${describeTyreLoadLaw(tyreLaw)}, at the instantaneous load`;
   if (!(law(staticLoad) > 0)) {
     throw new InputError(`vehicle.${axle}.tyre: the tyre has no positive cornering stiffness at its static load`, [{ path: `vehicle.${axle}.tyre`, message: 'no positive cornering stiffness at static load' }]);
@@ -113,11 +114,6 @@ export function lateralGains(m: LateralModel, axleStiffnessNPerRad: number, w: n
   out[0] = f2;
   out[1] = f2 * (rr * rr + ri * ri);
   out[2] = f2 * (ar * ar + ai * ai);
-}
-
-/** Steady yaw rate of a corner of radius R at speed V, rad/s (V/R). */
-export function steadyYawRate(speedMps: number, radiusM: number): number {
-  return speedMps / radiusM;
 }
 
 export { G };

@@ -10,6 +10,7 @@
 import { InputError } from '../errors.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { G } from '../balance/constants.js';
+import type { AxleName } from '../schema/axle.js';
 
 /** Damping ratio of the body mode used when the vehicle gives no damper, – (common practice: passenger cars about 0.2–0.4, from memory). */
 export const DEFAULT_BODY_DAMPING_RATIO = 0.3;
@@ -44,7 +45,7 @@ export interface QuarterCarInfo {
 }
 
 /** Static share of the vehicle's weight on the axle. */
-export function axleShare(v: Vehicle, axle: 'front' | 'rear'): number {
+export function axleShare(v: Vehicle, axle: AxleName): number {
   const a = v.cgToFrontAxleMm / v.wheelbaseMm;
   return axle === 'front' ? 1 - a : a;
 }
@@ -56,7 +57,7 @@ export function axleShare(v: Vehicle, axle: 'front' | 'rear'): number {
  * `axle.tyre.verticalRateNPerMm`. The anti-roll bar does not act (in-phase
  * motion). Throws InputError naming the missing field.
  */
-export function quarterCarOf(v: Vehicle, axle: 'front' | 'rear'): { car: QuarterCar; info: QuarterCarInfo } {
+export function quarterCarOf(v: Vehicle, axle: AxleName): { car: QuarterCar; info: QuarterCarInfo } {
   const ax = v[axle];
   const need = (ok: boolean, path: string, what: string) => {
     if (!ok) throw new InputError(`vehicle.${axle}.${path}: the ride model needs ${what}`, [{ path: `vehicle.${axle}.${path}`, message: `required by the ride model (${what})` }]);

@@ -107,13 +107,7 @@ export function synthesiseProfile(gd0M3: number, count: number, random: () => nu
 }
 
 /** A discrete event under the wheel. */
-export type RoadEvent =
+type RoadEvent =
   | { kind: 'bump'; heightMm: number; lengthMm: number }
   | { kind: 'landing'; dropHeightMm: number };
 
-/** Half-sine bump z = h·sin(πx/ℓ) for 0 ≤ x ≤ ℓ, and its slope; x and results in m. */
-export function halfSine(heightM: number, lengthM: number, x: number): { z: number; dz: number } {
-  if (x <= 0 || x >= lengthM) return { z: 0, dz: 0 };
-  const k = Math.PI / lengthM;
-  return { z: heightM * Math.sin(k * x), dz: heightM * k * Math.cos(k * x) };
-}

@@ -95,7 +95,7 @@ const armSteeringSchema = strictObject({
 });
 
 export const steeringSchema = z.discriminatedUnion('kind', [rackSteeringSchema, armSteeringSchema]);
-export type Steering = z.infer<typeof steeringSchema>;
+type Steering = z.infer<typeof steeringSchema>;
 
 const directSpringSchema = strictObject({
   kind: z.literal('direct'),
@@ -117,7 +117,7 @@ const rockerSpringSchema = strictObject({
 });
 
 export const springSchema = z.discriminatedUnion('kind', [directSpringSchema, rockerSpringSchema]);
-export type Spring = z.infer<typeof springSchema>;
+type Spring = z.infer<typeof springSchema>;
 
 /** Anti-roll bar: a drop link from the suspension to the bar's lever end. */
 export const antiRollBarSchema = strictObject({
@@ -128,7 +128,7 @@ export const antiRollBarSchema = strictObject({
   barAxisPoint: vec3Schema,
   barAxisDirection: directionSchema,
 });
-export type AntiRollBar = z.infer<typeof antiRollBarSchema>;
+type AntiRollBar = z.infer<typeof antiRollBarSchema>;
 
 const wheelSchema = strictObject({
   /** Loaded radius, mm. */
@@ -253,11 +253,11 @@ export const cornerSchema = cornerShapeSchema.superRefine((corner, ctx) => {
 });
 
 export type Corner = z.infer<typeof cornerSchema>;
-export type CornerInput = z.input<typeof cornerSchema>;
-export type CornerType = Corner['type'];
+type CornerInput = z.input<typeof cornerSchema>;
+type CornerType = Corner['type'];
 export type DoubleWishboneCorner = Extract<Corner, { type: 'double-wishbone' }>;
-export type StrutCorner = Extract<Corner, { type: 'strut' }>;
-export type FiveLinkCorner = Extract<Corner, { type: 'five-link' }>;
+type StrutCorner = Extract<Corner, { type: 'strut' }>;
+type FiveLinkCorner = Extract<Corner, { type: 'five-link' }>;
 
 /**
  * Brings an older corner document to the current formatVersion. Version 1 is

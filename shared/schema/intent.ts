@@ -8,22 +8,24 @@ import * as z from 'zod';
 import { cornerDocumentSchema, type Corner } from './corner.js';
 import { armStrokeMm, innerName, MOVABLE_COORDINATE_PATTERN } from './steering-link.js';
 import { upgradeVehicleDocument, vehicleSchema } from './vehicle.js';
-import { TRACK_PROFILE_IDS, trackProfiles } from '../intent/profiles.js';
+import { TRACK_PROFILE_IDS, trackProfiles } from '../tracks/profiles.js';
 import { ROAD_CLASSES } from '../ride/road.js';
-import { CAUTION_RULES } from '../intent/cautions.js';
+import { CAUTION_RULES } from '../cautions/cautions.js';
 import { CORNER_RANGES, INTENT_RANGES, type InputRange } from './ranges.js';
 import { inRange } from './ranged.js';
+import { AXLE_NAMES } from './axle.js';
 
 // The steering-link helpers and the movable-coordinate pattern live in a
 // zod-free module (the browser's kinematics worker uses them without the
 // schema); re-exported here for the intent code.
-export { innerName, outerName, steeringStrokeMm, MOVABLE_COORDINATE_PATTERN, type MovableCoordinate } from './steering-link.js';
+export { innerName, outerName, steeringStrokeMm, MOVABLE_COORDINATE_PATTERN } from './steering-link.js';
 
 export const INTENT_FORMAT_VERSION = 1 as const;
 /** Largest number of travel points per sweep a solve accepts (it runs dozens of sweeps). */
 export const MAX_SWEEP_POINTS_PER_SOLVE = 201;
 
-const finite = (what: string) => z.number({ error: `${what} must be a number` }).finite();
+/** A finite number; "must be a number" only when it is not one (a range issue keeps its own words). */
+const finite = (what: string) => z.number({ error: (iss) => (iss.code === 'invalid_type' ? `${what} must be a number` : undefined) }).finite();
 /** A finite number held to its plausible range (shared/schema/ranges.ts, docs/inputs.md). */
 const ranged = (what: string, range: InputRange, base = finite(what)) => inRange(base, range, what);
 const coordinateSchema = z.string().regex(MOVABLE_COORDINATE_PATTERN, {
@@ -31,13 +33,13 @@ const coordinateSchema = z.string().regex(MOVABLE_COORDINATE_PATTERN, {
 });
 
 export const intentTargetSchema = z.union([
-  z.strictObject({ rollSteerCoefficient: finite('target.rollSteerCoefficient').min(-1).max(1) }),
-  z.strictObject({ understeerChangeDegPerG: finite('target.understeerChangeDegPerG').min(-20).max(20) }),
+  z.strictObject({ rollSteerCoefficient: ranged('target.rollSteerCoefficient', INTENT_RANGES.rollSteerCoefficient) }),
+  z.strictObject({ understeerChangeDegPerG: ranged('target.understeerChangeDegPerG', INTENT_RANGES.understeerChangeDegPerG) }),
   z.strictObject({ zeroBumpSteer: z.literal(true) }),
   /** Roll steer plus compliance steer of the axle (deg/g, positive out of the turn), compliance from the corner's bushings or the vehicle. */
-  z.strictObject({ rollAndComplianceSteerDegPerG: finite('target.rollAndComplianceSteerDegPerG').min(-20).max(20) }),
+  z.strictObject({ rollAndComplianceSteerDegPerG: ranged('target.rollAndComplianceSteerDegPerG', INTENT_RANGES.axleSteerDegPerG) }),
 ], { error: 'target must be { rollSteerCoefficient }, { understeerChangeDegPerG }, { zeroBumpSteer: true } or { rollAndComplianceSteerDegPerG }' });
-export type IntentTarget = z.infer<typeof intentTargetSchema>;
+type IntentTarget = z.infer<typeof intentTargetSchema>;
 
 export const trackProfileChoiceSchema = z.union([
   z.enum(TRACK_PROFILE_IDS),
@@ -86,6 +88,10 @@ export const intentOptionsSchema = z.strictObject({
   threadPitchMm: ranged('threadPitchMm', INTENT_RANGES.threadPitchMm).default(1.5),
   /** `single-thread`: one turn = one pitch; `turnbuckle` (left- and right-hand threads): one turn = two pitches. */
   adjuster: z.enum(['single-thread', 'turnbuckle']).default('single-thread'),
+  /** How far the adjuster can change the link's length either way, mm; beyond it a new link is needed (default 5 mm, from memory). */
+  adjusterReachMm: ranged('adjusterReachMm', INTENT_RANGES.adjusterReachMm).default(5),
+  /** Tallest shim stack an end takes, mm; beyond it a new bracket is needed (default 10 mm, from memory). */
+  shimStackMaxMm: ranged('shimStackMaxMm', INTENT_RANGES.shimStackMaxMm).default(10),
   /** Roll angle (deg) at which the curvature caution compares roll steer; default from the vehicle at 1 g, else 2°. */
   referenceRollDeg: ranged('referenceRollDeg', INTENT_RANGES.referenceRollDeg).optional(),
 });
@@ -98,7 +104,7 @@ export const intentSchema = z
     formatVersion: z.literal(INTENT_FORMAT_VERSION).optional(),
     name: z.string().max(200).optional(),
     corner: cornerDocumentSchema,
-    axle: z.enum(['front', 'rear'], { error: 'axle must be "front" or "rear"' }),
+    axle: z.enum(AXLE_NAMES, { error: 'axle must be "front" or "rear"' }),
     target: intentTargetSchema,
     movable: z.array(coordinateSchema).min(1, 'movable must name at least one coordinate').max(5),
     bounds: z.record(z.string(), z.tuple([ranged('min', CORNER_RANGES.coordinateMm), ranged('max', CORNER_RANGES.coordinateMm)])),
@@ -109,54 +115,77 @@ export const intentSchema = z
     // Only codes with a threshold rule can be tuned (not the notices, nor the rig tolerance cautions, which take the team's tolerance).
     cautionThresholds: z.partialRecord(z.enum(Object.keys(CAUTION_RULES) as [string, ...string[]]), levelThresholdsSchema).optional(),
   })
-  .superRefine((intent, ctx) => {
-    const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });
-    const seen = new Set<string>();
-    intent.movable.forEach((m, i) => {
-      if (seen.has(m)) issue(['movable', i], `${m} is listed twice`);
-      seen.add(m);
-      const why = coordinateProblem(intent.corner, m);
-      if (why) issue(['movable', i], why);
-      if (!intent.bounds[m]) issue(['bounds', m], `bounds.${m} is required: every movable coordinate needs packaging bounds [min, max] in mm`);
-    });
-    if (seen.has('rack.z') && seen.has(innerName(intent.corner) + '.z')) {
-      issue(['movable'], `rack.z and ${innerName(intent.corner)}.z move the same point: list one of them`);
-    }
-    for (const [k, b] of Object.entries(intent.bounds)) {
-      if (!seen.has(k)) issue(['bounds', k], `bounds.${k} is given but ${k} is not in movable`);
-      else if (!(b[0] < b[1])) issue(['bounds', k], `bounds.${k} [${b[0]}, ${b[1]}] must have min < max`);
-    }
-    if ('rollAndComplianceSteerDegPerG' in intent.target && !intent.vehicle) {
-      issue(['vehicle'], 'vehicle is required for target.rollAndComplianceSteerDegPerG (its suspension roll and axle load turn steer per degree and per kN into deg/g)');
-    }
-    if (intent.options.bumpYawBudgetPct !== undefined && !intent.vehicle) {
-      issue(['options', 'bumpYawBudgetPct'], 'vehicle is required for options.bumpYawBudgetPct (the ride model needs its masses, springs, dampers and tyres)');
-    }
-    if ('understeerChangeDegPerG' in intent.target && !intent.vehicle) {
-      issue(['vehicle'], 'vehicle is required for target.understeerChangeDegPerG (the suspension roll gradient turns it into a roll steer coefficient)');
-    }
-    const tp = intent.trackProfile;
-    if (typeof tp === 'object' && tp.travelMm && !(tp.travelMm[0] < 0 && tp.travelMm[1] > 0)) {
-      issue(['trackProfile', 'travelMm'], `trackProfile.travelMm [${tp.travelMm[0]}, ${tp.travelMm[1]}] must run from droop (< 0) to bump (> 0)`);
-    } else if (typeof tp === 'object' && tp.travelMm && tp.travelMm[1] - tp.travelMm[0] < MIN_TRAVEL_SPAN_MM) {
-      // A span of micrometres makes the toe fit's curvature a ratio of rounding errors (NaN or 1e47 deg/m²).
-      issue(['trackProfile', 'travelMm'], `trackProfile.travelMm [${tp.travelMm[0]}, ${tp.travelMm[1]}] spans less than ${MIN_TRAVEL_SPAN_MM} mm of travel`);
-    }
-    const travel = typeof tp === 'object' && tp.travelMm ? tp.travelMm : trackProfiles[typeof tp === 'object' ? tp.id : tp].travelMm;
-    const stepMm = intent.options.travelStepMm;
-    if (stepMm !== undefined && (travel[1] - travel[0]) / stepMm < 4) {
-      issue(['options', 'travelStepMm'], `options.travelStepMm ${stepMm} mm leaves fewer than five sweep points over the travel range [${travel[0]}, ${travel[1]}] mm`);
-    }
-    if (stepMm !== undefined && (travel[1] - travel[0]) / stepMm > MAX_SWEEP_POINTS_PER_SOLVE - 1) {
-      issue(['options', 'travelStepMm'], `options.travelStepMm ${stepMm} mm gives more than ${MAX_SWEEP_POINTS_PER_SOLVE} sweep points over [${travel[0]}, ${travel[1]}] mm; a solve runs dozens of sweeps`);
-    }
-    const st = intent.corner.steering;
-    const stroke = st?.kind === 'rack' ? st.rackStroke : st?.kind === 'arm' ? armStrokeMm(intent.corner) : null;
-    (intent.options.rackPositionsMm ?? []).forEach((r, i) => {
-      if (!intent.corner.steered) issue(['options', 'rackPositionsMm', i], 'the corner is not steered: rack positions do not apply');
-      else if (stroke && (r < stroke[0] || r > stroke[1])) issue(['options', 'rackPositionsMm', i], `rack position ${r} mm is outside the stroke [${stroke[0]}, ${stroke[1]}]`);
-    });
-  });
+  .superRefine(
+    (intent, ctx) => {
+      // Runs also when a field already has an issue (see `when`), so every problem is reported at once:
+      // each rule looks only at values that passed their own field's check.
+      const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });
+      const fin = (v: unknown): v is number => typeof v === 'number' && Number.isFinite(v);
+      const pair = (v: unknown): v is [number, number] => Array.isArray(v) && fin(v[0]) && fin(v[1]);
+      const seen = new Set<string>();
+      intent.movable.forEach((m, i) => {
+        if (typeof m !== 'string') return;
+        if (seen.has(m)) issue(['movable', i], `${m} is listed twice`);
+        seen.add(m);
+        const why = coordinateProblem(intent.corner, m);
+        if (why) issue(['movable', i], why);
+        if (!intent.bounds[m]) issue(['bounds', m], `bounds.${m} is required: every movable coordinate needs packaging bounds [min, max] in mm`);
+      });
+      if (seen.has('rack.z') && seen.has(innerName(intent.corner) + '.z')) {
+        issue(['movable'], `rack.z and ${innerName(intent.corner)}.z move the same point: list one of them`);
+      }
+      for (const [k, b] of Object.entries(intent.bounds)) {
+        if (!seen.has(k)) issue(['bounds', k], `bounds.${k} is given but ${k} is not in movable`);
+        else if (pair(b) && !(b[0] < b[1])) issue(['bounds', k], `the lowest, ${b[0]} mm, must be below the highest, ${b[1]} mm`);
+      }
+      const target: object = typeof intent.target === 'object' && intent.target !== null ? intent.target : {};
+      if ('rollAndComplianceSteerDegPerG' in target && !intent.vehicle) {
+        issue(['vehicle'], 'vehicle is required for target.rollAndComplianceSteerDegPerG (its suspension roll and axle load turn steer per degree and per kN into deg/g)');
+      }
+      const options: Partial<z.infer<typeof intentOptionsSchema>> = typeof intent.options === 'object' && intent.options !== null ? intent.options : {};
+      if (options.bumpYawBudgetPct !== undefined && !intent.vehicle) {
+        issue(['options', 'bumpYawBudgetPct'], 'a bump-cost budget needs the vehicle (the ride model needs its masses, springs, dampers and tyres)');
+      }
+      if ('understeerChangeDegPerG' in target && !intent.vehicle) {
+        issue(['vehicle'], 'vehicle is required for target.understeerChangeDegPerG (the suspension roll gradient turns it into a roll steer coefficient)');
+      }
+      const tp = intent.trackProfile;
+      const entered = typeof tp === 'object' && tp !== null && pair(tp.travelMm) ? tp.travelMm : null;
+      if (entered && !(entered[0] < 0 && entered[1] > 0)) {
+        issue(['trackProfile', 'travelMm'], `the travel range ${entered[0]} to ${entered[1]} mm must run from droop (below 0) to bump (above 0)`);
+      } else if (entered && entered[1] - entered[0] < MIN_TRAVEL_SPAN_MM) {
+        // A span of micrometres makes the toe fit's curvature a ratio of rounding errors (NaN or 1e47 deg/m²).
+        issue(['trackProfile', 'travelMm'], `the travel range ${entered[0]} to ${entered[1]} mm spans less than ${MIN_TRAVEL_SPAN_MM} mm`);
+      }
+      const id = typeof tp === 'object' && tp !== null ? tp.id : tp;
+      const travel = entered ?? (Object.hasOwn(trackProfiles, id) ? trackProfiles[id].travelMm : null);
+      const stepMm = options.travelStepMm;
+      if (travel && fin(stepMm) && (travel[1] - travel[0]) / stepMm < 4) {
+        issue(['options', 'travelStepMm'], `options.travelStepMm ${stepMm} mm leaves fewer than five sweep points over the travel range [${travel[0]}, ${travel[1]}] mm`);
+      }
+      if (travel && fin(stepMm) && (travel[1] - travel[0]) / stepMm > MAX_SWEEP_POINTS_PER_SOLVE - 1) {
+        issue(['options', 'travelStepMm'], `options.travelStepMm ${stepMm} mm gives more than ${MAX_SWEEP_POINTS_PER_SOLVE} sweep points over [${travel[0]}, ${travel[1]}] mm; a solve runs dozens of sweeps`);
+      }
+      const st = intent.corner.steering;
+      const stroke = st?.kind === 'rack' ? st.rackStroke : st?.kind === 'arm' ? armStrokeMm(intent.corner) : null;
+      (Array.isArray(options.rackPositionsMm) ? options.rackPositionsMm : []).forEach((r, i) => {
+        if (!intent.corner.steered) issue(['options', 'rackPositionsMm', i], 'the corner is not steered: rack positions do not apply');
+        else if (stroke && fin(r) && (r < stroke[0] || r > stroke[1])) issue(['options', 'rackPositionsMm', i], `rack position ${r} mm is outside the stroke [${stroke[0]}, ${stroke[1]}]`);
+      });
+    },
+    {
+      // The rules read the corner, the movable list and the bounds: they run whenever those have a usable
+      // shape, even with a bad number elsewhere, so a form hears of every problem at once.
+      when: (payload) => {
+        const v = payload.value as Record<string, unknown> | null | undefined;
+        if (!v || typeof v !== 'object' || !Array.isArray(v['movable']) || !v['bounds'] || typeof v['bounds'] !== 'object') return false;
+        return payload.issues.every((i) => {
+          const path = i.path ?? [];
+          return !['corner', 'axle', 'movable', 'bounds', 'formatVersion'].includes(String(path[0])) || (path[0] === 'bounds' && path.length > 2);
+        });
+      },
+    },
+  );
 
 export type Intent = z.infer<typeof intentSchema>;
 export type IntentInput = z.input<typeof intentSchema>;

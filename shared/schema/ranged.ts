@@ -12,6 +12,7 @@ export function inRange<T extends z.ZodNumber>(base: T, range: InputRange, what?
     // A value the base already refused (not finite, not positive) gets that one issue, not two.
     if (ctx.issues.length > 0 || !Number.isFinite(ctx.value)) return;
     const why = impossibleValue(range, ctx.value);
-    if (why) ctx.issues.push({ code: 'custom', message: what ? `${what}: ${why}` : why, input: ctx.value });
+    if (why) // `params` carry the range, so a screen can say it in the user's words (schema/issue-words.ts).
+    if (why) ctx.issues.push({ code: 'custom', message: what ? `${what}: ${why}` : why, input: ctx.value, params: { range, value: ctx.value }, continue: true });
   });
 }

@@ -29,6 +29,8 @@ export interface InputRange {
   readonly typical: readonly [number, number];
 }
 
+// Marked free of side effects so a bundle that imports one helper of this module drops the tables it does not use.
+/* @__NO_SIDE_EFFECTS__ */
 const r = (label: string, unit: string, min: number, max: number, typical: [number, number], minExclusive = false): InputRange => ({
   label,
   unit,
@@ -38,6 +40,7 @@ const r = (label: string, unit: string, min: number, max: number, typical: [numb
   ...(minExclusive ? { minExclusive } : {}),
 });
 /** Strictly positive quantity up to `max`. */
+/* @__NO_SIDE_EFFECTS__ */
 const pos = (label: string, unit: string, max: number, typical: [number, number]) => r(label, unit, 0, max, typical, true);
 
 /**
@@ -116,6 +119,14 @@ export const INTENT_RANGES = {
   worstToeBoundDeg: pos('worst toe bound', 'deg', 45, [0.01, 2]),
   shimThicknessMm: pos('shim thickness', 'mm', 50, [0.1, 5]),
   threadPitchMm: pos('thread pitch', 'mm', 20, [0.5, 3]),
+  /** How far the adjuster can change the link's length either way before its threads run out. */
+  adjusterReachMm: pos('adjuster reach', 'mm', 200, [3, 20]),
+  /** Tallest shim stack an end takes (the bolt's spare length). */
+  shimStackMaxMm: pos('largest shim stack', 'mm', 200, [3, 25]),
+  /** Intent targets. */
+  rollSteerCoefficient: r('roll steer coefficient', 'deg/deg', -1, 1, [-0.2, 0.2]),
+  understeerChangeDegPerG: r('understeer-gradient change', 'deg/g', -20, 20, [-1, 1]),
+  axleSteerDegPerG: r('axle steer per g', 'deg/g', -20, 20, [-1, 1]),
   referenceRollDeg: pos('reference roll angle', 'deg', 15, [0.5, 5]),
   /** Compute requests: body roll of an axle roll sweep. */
   rollDeg: r('body roll angle', 'deg', -30, 30, [-6, 6]),

@@ -15,7 +15,7 @@ import type { Corner } from './corner.js';
  * coordinate in mm.
  */
 export const MOVABLE_COORDINATE_PATTERN = /^(?:(tieRodInner|tieRodOuter|link[1-5]Inner|link[1-5]Outer)\.([xyz])|rack\.z)$/;
-export type MovableCoordinate = string;
+type MovableCoordinate = string;
 
 /** The point that plays the tie-rod inner part: `tieRodInner`, or `link<k>Inner` of a five-link's toe link. */
 export function innerName(corner: Corner): string {
@@ -40,7 +40,7 @@ export function armStrokeMm(corner: Corner): [number, number] | null {
   const tri = p[innerName(corner)]!;
   const d = st.armAxisDirection;
   const n = Math.hypot(d[0], d[1], d[2]);
-  const r = [tri[0] - st.armAxisPoint[0], tri[1] - st.armAxisPoint[1], tri[2] - st.armAxisPoint[2]];
+  const r: [number, number, number] = [tri[0] - st.armAxisPoint[0], tri[1] - st.armAxisPoint[1], tri[2] - st.armAxisPoint[2]];
   const along = (r[0] * d[0] + r[1] * d[1] + r[2] * d[2]) / n;
   const radius = Math.sqrt(Math.max(0, r[0] ** 2 + r[1] ** 2 + r[2] ** 2 - along ** 2));
   const k = (radius * Math.PI) / 180;

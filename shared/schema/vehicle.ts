@@ -158,7 +158,8 @@ export const vehicleSchema = z
 export type Vehicle = z.infer<typeof vehicleSchema>;
 /** What a caller may write: defaults (options) may be omitted. */
 export type VehicleInput = z.input<typeof vehicleSchema>;
-export type Axle = z.infer<typeof axleSchema>;
+/** One axle's data in a vehicle document (its name is `AxleName`, shared/schema/axle.ts). */
+export type VehicleAxle = z.infer<typeof axleSchema>;
 export type TyreData = z.infer<typeof tyreSchema>;
 export type AntiRollBar = z.infer<typeof antiRollBarSchema>;
 

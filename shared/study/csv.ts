@@ -6,7 +6,7 @@
  * leading apostrophe).
  */
 import Papa from 'papaparse';
-import { SAFETY_CAUTION } from '../intent/cautions.js';
+import { SAFETY_CAUTION } from '../cautions/cautions.js';
 import type { StudySpec } from './schema.js';
 import type { StudyResult } from './run.js';
 
@@ -54,7 +54,11 @@ export function studyResultCsv(spec: Pick<StudySpec, 'kind' | 'label'>, result: 
   );
   if (result.sweep) {
     const names = result.factors.map((f) => f.key);
-    parts.push(table(['variant', 'balance gained (deg/g)', 'bump cost (deg)', ...names], result.sweep.pareto.map((v) => [v.index, v.gainDegPerG, v.costDeg, ...v.factors])));
+    parts.push(table(
+        ['variant', 'balance gained (deg/g)', `bump cost: ${result.sweep.costOutput ?? 'bumpToeChangeDeg'} (${result.sweep.costUnit ?? 'deg'})`, ...names],
+        // Results stored before the ride-model bump cost carry the toe change over the bump as costDeg.
+        result.sweep.pareto.map((v) => [v.index, v.gainDegPerG, v.cost ?? (v as { costDeg?: number }).costDeg ?? null, ...v.factors]),
+      ));
     parts.push(
       table(
         ['output', 'term', 'coefficient'],

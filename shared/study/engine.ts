@@ -18,12 +18,15 @@ import { InputError, SolveError } from '../errors.js';
 import type { Corner, Vec3 } from '../schema/corner.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { compileCorner, moveCornerPoints, CornerSolver, poseRow, polyFit, frontViewIc, rollCentreOf, checkRack, type CornerModel, type PoseRow, type FrontViewIc } from '../kinematics/index.js';
-import { RAD } from '../kinematics/vec.js';
 import { linkVehicle, type LinkedVehicle } from '../balance/link.js';
 import { balanceCore, understeerBudget } from '../balance/understeer.js';
-import { resolveTrackProfile, type TrackProfile } from '../intent/profiles.js';
-import { thresholdsFor, CAUTION_RULES, type CautionThresholds, type LevelThresholds } from '../intent/cautions.js';
+import { resolveTrackProfile, type TrackProfile } from '../tracks/profiles.js';
+import { thresholdsFor, CAUTION_RULES, type CautionThresholds, type LevelThresholds } from '../cautions/cautions.js';
+import { RandomRoadYawCost } from '../ride/cost.js';
+import { GH_NODES, GH_WEIGHTS } from '../ride/toe.js';
+import { ROAD_CLASS_WORDS } from '../ride/road.js';
 import { FIXED_POINTS, type StudySpec, type Tolerance } from './schema.js';
+import { DEG_PER_RAD } from '../angles.js';
 
 // ---------- outputs ----------
 
@@ -47,6 +50,11 @@ const P_ZERO = 1; // travel 0 at a rack position
 const P_BUMP = 2; // the profile's single-wheel bump at a rack position
 const P_GRID = 3; // a point of the bump-steer fit
 const P_ROLL = 4; // the roll sweep
+const P_RIDE_ZERO = 5; // travel 0 at the operating-steer rack of the ride model's bump cost
+const P_RIDE = 6; // a Gauss–Hermite travel of the ride model's bump cost at a judged rack
+
+/** Gauss–Hermite nodes outward from design: up, then down (node 4 is travel 0). */
+const RIDE_NODE_ORDER = [5, 6, 7, 8, 3, 2, 1, 0];
 
 interface PoseDef {
   kind: number;
@@ -86,7 +94,7 @@ function toeOf(s: CornerSolver): number {
   const a0 = s.model.spin0;
   const ax = R[0]! * a0[0] + R[1]! * a0[1] + R[2]! * a0[2];
   const ay = R[3]! * a0[0] + R[4]! * a0[1] + R[5]! * a0[2];
-  return -Math.atan2(-ax, ay) * RAD;
+  return -Math.atan2(-ax, ay) * DEG_PER_RAD;
 }
 
 /** Everything of a study that does not change between samples. */
@@ -124,6 +132,15 @@ export class StudyModel {
   private readonly fitY: Float64Array;
   /** Output index by key. */
   readonly index: Record<string, number> = {};
+  /** The ride model's random-road bump cost (shared/ride) on the profile's ISO 8608 road; null without a vehicle with ride data. */
+  readonly ride: RandomRoadYawCost | null = null;
+  /** Why there is no ride-model bump cost (null when there is one). */
+  readonly rideWhy: string | null = null;
+  /** Racks judged by the ride model: 0 and, steered, the operating steer of the profile's corner. */
+  readonly rideRacks: number[] = [];
+  /** Gauss–Hermite toe per judged rack (9 nodes each), left and right, and the toe at design height. */
+  private readonly rideToeL = new Float64Array(18);
+  private readonly rideToeR = new Float64Array(18);
 
   constructor(readonly spec: StudySpec) {
     this.corner = compileCorner(spec.corner).corner;
@@ -146,6 +163,18 @@ export class StudyModel {
       throw new InputError('setup.camberShimMm: a five-link corner has no camber shims in this model; leave camber set-up out', [{ path: 'setup.camberShimMm', message: 'not available on a five-link corner' }]);
     }
     this.factors = this.buildFactors(spec);
+    if (spec.vehicle) {
+      try {
+        this.ride = new RandomRoadYawCost(spec.vehicle as Vehicle, spec.axle, this.profile);
+        this.rideRacks = this.ride.racksMm(this.corner);
+        checkRack(this.model, this.rideRacks, 'trackProfile');
+      } catch (e) {
+        if (!(e instanceof InputError)) throw e;
+        this.ride = null;
+        this.rideRacks = [];
+        this.rideWhy = e.issues[0] ? `${e.issues[0].path}: ${e.issues[0].message}` : e.message;
+      }
+    } else this.rideWhy = 'give the vehicle (with its ride data) to price the bump steer on the profile’s road';
     this.outputs = this.buildOutputs(spec);
     this.outputs.forEach((o, i) => (this.index[o.key] = i));
 
@@ -159,7 +188,7 @@ export class StudyModel {
       left.push({ kind: P_BUMP, travelMm: this.profile.bumpHeightMm, rackMm: r, tag: k, grid: 0 });
       for (const g of order) left.push({ kind: P_GRID, travelMm: this.travels[g]!, rackMm: r, tag: k, grid: g });
     });
-    const s = this.halfTrackMm * Math.sin(a.rollDeg / RAD);
+    const s = this.halfTrackMm * Math.sin(a.rollDeg / DEG_PER_RAD);
     // Roll φ > 0 (right side down): left travel −s, right +s (domain.md).
     left.push({ kind: P_ROLL, travelMm: -s, rackMm: 0, tag: 1, grid: 0 }, { kind: P_ROLL, travelMm: s, rackMm: 0, tag: -1, grid: 0 });
     const right: PoseDef[] = [
@@ -167,6 +196,18 @@ export class StudyModel {
       { kind: P_ROLL, travelMm: s, rackMm: 0, tag: 1, grid: 0 },
       { kind: P_ROLL, travelMm: -s, rackMm: 0, tag: -1, grid: 0 },
     ];
+    // The ride model's toe statistics (shared/ride ToeCurve.gaussian): both wheels at the Gauss–Hermite travels
+    // σ·xᵢ (clipped to the profile's travel range) at each judged rack; travel 0 at rack 0 is the design pose.
+    if (this.ride) {
+      const [lo, hi] = this.profile.travelMm;
+      const sigma = this.ride.sigmaMm;
+      for (const poses of [left, right]) {
+        this.rideRacks.forEach((rack, c) => {
+          if (rack !== 0) poses.push({ kind: P_RIDE_ZERO, travelMm: 0, rackMm: rack, tag: c, grid: 4 });
+          for (const g of RIDE_NODE_ORDER) poses.push({ kind: P_RIDE, travelMm: Math.min(hi, Math.max(lo, GH_NODES[g]! * sigma)), rackMm: rack, tag: c, grid: g });
+        });
+      }
+    }
     this.leftPoses = left;
     this.rightPoses = right;
     this.fitX = new Float64Array(n);
@@ -253,9 +294,21 @@ export class StudyModel {
       { key: 'rollCamberDegPerDeg', label: 'Roll camber', unit: 'deg/deg' },
       { key: 'rollCentreHeightMm', label: 'Roll centre height', unit: 'mm' },
       { key: 'rollCentreHeightAtRollMm', label: `Roll centre height at ${spec.analysis.rollDeg}° of roll`, unit: 'mm' },
-      { key: 'bumpToeChangeDeg', label: `Bump cost: toe change over a ${this.profile.bumpHeightMm} mm single-wheel bump (${this.profile.label.toLowerCase()})`, unit: 'deg', breach: rule('bump-toe-change', true) },
+      { key: 'bumpToeChangeDeg', label: `Toe change over a ${this.profile.bumpHeightMm} mm single-wheel bump (${this.profile.label.toLowerCase()})`, unit: 'deg', breach: rule('bump-toe-change', true) },
       { key: 'bumpScrubMm', label: 'Contact-patch scrub over that bump', unit: 'mm', breach: rule('bump-lateral-scrub', true) },
     );
+    if (this.ride) {
+      const road = `${ROAD_CLASS_WORDS[this.profile.roadClass]} at ${this.profile.speedKph} km/h`;
+      o.push(
+        {
+          key: 'bumpYawDisturbancePct',
+          label: `Bump cost: RMS yaw-rate disturbance on an ${road}, % of the steady yaw rate on a ${this.profile.cornerRadiusM} m corner`,
+          unit: '%',
+          breach: rule('bump-yaw-disturbance', false),
+        },
+        { key: 'bumpYawRateRmsDegPerS', label: `RMS yaw-rate disturbance on an ${road}`, unit: 'deg/s' },
+      );
+    }
     if (spec.vehicle) o.push({ key: 'understeerGradientChangeDegPerG', label: 'Understeer-gradient change with the vehicle', unit: 'deg/g' });
     if (spec.kind === 'sweep') o.push({ key: 'balanceGainDegPerG', label: `Balance gained (${spec.balanceDirection === 'more-understeer' ? 'toward understeer' : 'toward oversteer'})`, unit: 'deg/g' });
     return o;
@@ -449,8 +502,8 @@ export class StudyModel {
       out[idx['staticCamberDeg']!] = rowL.camberDeg;
       const half = this.halfTrackMm;
       // ε = −dδ̄/dφ and roll camber at φ = 0 from the analytic gradients (as shared/kinematics rollSweep): ds/dφ = t/2 per rad, left −s, right +s.
-      out[idx['rollSteerCoefficient']!] = -((rowL.toeGradientDegPerM + rowR.toeGradientDegPerM) / 2000) * half / RAD;
-      out[idx['rollCamberDegPerDeg']!] = 1 + ((rowL.camberGradientDegPerM + rowR.camberGradientDegPerM) / 2000) * half / RAD;
+      out[idx['rollSteerCoefficient']!] = -((rowL.toeGradientDegPerM + rowR.toeGradientDegPerM) / 2000) * half / DEG_PER_RAD;
+      out[idx['rollCamberDegPerDeg']!] = 1 + ((rowL.camberGradientDegPerM + rowR.camberGradientDegPerM) / 2000) * half / DEG_PER_RAD;
       const rc = rollCentreOf(icL, icR);
       out[idx['rollCentreHeightMm']!] = rc ? rc.heightMm : NaN;
 
@@ -496,8 +549,9 @@ export class StudyModel {
             steerRollL = -toeOf(sl);
             icLroll = frontViewIc(sl);
           } else steerRollLm = -toeOf(sl);
-        }
+        } else this.rideToeL[9 * p.tag + p.grid] = toeOf(sl);
       }
+      if (this.ride) this.rideToeL[4] = zeroToe[0]!;
       // Right side roll poses.
       const rp = this.rightPoses;
       let steerRollR = NaN;
@@ -508,6 +562,10 @@ export class StudyModel {
         this.predictFrom(sr, this.nomR, p, k);
         sr.solve(p.travelMm, p.rackMm);
         poses++;
+        if (p.kind === P_RIDE || p.kind === P_RIDE_ZERO) {
+          this.rideToeR[9 * p.tag + p.grid] = toeOf(sr);
+          continue;
+        }
         // Right side steer angle = its toe (toe_R = δ_R).
         if (p.tag > 0) {
           steerRollR = toeOf(sr);
@@ -531,6 +589,14 @@ export class StudyModel {
       if (racks.length > 1) out[idx['lockBumpSteerSpreadDegPerM']!] = spread;
       out[idx['bumpToeChangeDeg']!] = cost;
       out[idx['bumpScrubMm']!] = Math.abs(bumpCpY - rowL.contactPatch[1]);
+      if (this.ride) {
+        this.rideToeR[4] = rowR.toeDeg;
+        const y = this.ride.fromToeRms(this.rideRacks.map((_, c) => [gaussRms(this.rideToeL, c), gaussRms(this.rideToeR, c)]));
+        if (y) {
+          out[idx['bumpYawDisturbancePct']!] = y.yawDisturbancePct;
+          out[idx['bumpYawRateRmsDegPerS']!] = y.yawRateRmsDegPerS;
+        }
+      }
 
       if (this.linked && this.nominalK !== null) {
         let dk: number;
@@ -665,6 +731,17 @@ class BuildSide {
       if (m.upperOuterLocal) add3(m.upperOuterLocal, 0, d);
     }
   }
+}
+
+/** E[Δtoe²]^½ over the Gauss–Hermite travels of condition c (node 4: design height), as shared/ride ToeCurve.gaussian. */
+function gaussRms(toe: Float64Array, c: number): number {
+  const o = 9 * c;
+  let m2 = 0;
+  for (let i = 0; i < 9; i++) {
+    const d = toe[o + i]! - toe[o + 4]!;
+    m2 += GH_WEIGHTS[i]! * d * d;
+  }
+  return Math.sqrt(m2);
 }
 
 function copy3(a: number[] | Float64Array, b: ArrayLike<number>): void {

@@ -48,3 +48,4 @@ export {
 } from './run.js';
 export type { FactorInfo, OutputDefinition } from './engine.js';
 export { studyResultCsv } from './csv.js';
+export { studyKeyFigures, type StudyKeyFigure } from './key-figures.js';

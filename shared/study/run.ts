@@ -8,10 +8,12 @@ import { InputError, parseOrThrow } from '../errors.js';
 import type { Corner, Vec3 } from '../schema/corner.js';
 import { moveCornerPoints } from '../kinematics/index.js';
 import { ENGINE_VERSION } from '../version.js';
+import { ROAD_CLASS_WORDS } from '../ride/road.js';
 import { StudyModel, type FactorInfo, type OutputDefinition, type PointMoves } from './engine.js';
 import { permutation, stream, STREAM_LHS, STREAM_SAMPLE } from './random.js';
 import { DEFAULT_CHUNK_SAMPLES, MAX_STUDY_SAMPLES, studySpecSchema, type StudySpec, type SweepSpec, type ToleranceSpec } from './schema.js';
 import { histogram, leastSquares, paretoFront, summarise, wilson, type Histogram, type Summary } from './stats.js';
+import type { AxleName } from '../schema/axle.js';
 
 // ---------- preparation (cached per spec object) ----------
 
@@ -242,7 +244,8 @@ export interface MainEffect {
 export interface VariantPoint {
   index: number;
   gainDegPerG: number;
-  costDeg: number;
+  /** The bump cost, in the unit of the sweep's `costOutput`. */
+  cost: number;
   factors: number[];
 }
 
@@ -255,8 +258,13 @@ export interface StudyResult {
   failedSamples: number;
   failures: { sample: number; message: string }[];
   poses: number;
-  axle: 'front' | 'rear';
-  trackProfile: { id: string; label: string; bumpHeightMm: number; travelMm: [number, number] };
+  axle: AxleName;
+  trackProfile: { id: string; label: string; bumpHeightMm: number; travelMm: [number, number]; roadClass: string; speedKph: number };
+  /**
+   * The bump cost: the ride model's RMS yaw-rate disturbance on the profile's ISO 8608 road (output
+   * `bumpYawDisturbancePct`), or, without a vehicle with ride data, none (`output` null, `why` says what is missing).
+   */
+  bumpCost: { output: string | null; roadInWords: string; why: string | null };
   factors: FactorInfo[];
   outputs: OutputResult[];
   /** How the tornado ranks the tolerances (tolerance studies). */
@@ -265,6 +273,9 @@ export interface StudyResult {
   sweep: null | {
     design: 'full-factorial' | 'latin-hypercube';
     balanceDirection: 'more-understeer' | 'less-understeer';
+    /** The output the Pareto front takes as the bump cost: the ride model's yaw disturbance, else the toe change over the bump. */
+    costOutput: string;
+    costUnit: string;
     surfaces: ResponseSurface[];
     mainEffects: MainEffect[];
     pareto: VariantPoint[];
@@ -385,8 +396,9 @@ export function combineStudyChunks(specInput: StudySpec | unknown, chunks: reado
   let sweep: StudyResult['sweep'] = null;
   if (spec.kind === 'sweep') {
     const gain = cols[m.index['balanceGainDegPerG']!]!;
-    const cost = cols[m.index['bumpToeChangeDeg']!]!;
-    const point = (i: number): VariantPoint => ({ index: i, gainDegPerG: gain[i]!, costDeg: cost[i]!, factors: Array.from(X.subarray(i * P, i * P + P)) });
+    const costOutput = m.ride ? 'bumpYawDisturbancePct' : 'bumpToeChangeDeg';
+    const cost = cols[m.index[costOutput]!]!;
+    const point = (i: number): VariantPoint => ({ index: i, gainDegPerG: gain[i]!, cost: cost[i]!, factors: Array.from(X.subarray(i * P, i * P + P)) });
     const front = paretoFront(gain, cost, rows);
     const step = Math.max(1, Math.ceil(rows.length / 2000));
     const scatter: VariantPoint[] = [];
@@ -394,6 +406,8 @@ export function combineStudyChunks(specInput: StudySpec | unknown, chunks: reado
     sweep = {
       design: spec.design,
       balanceDirection: spec.balanceDirection,
+      costOutput,
+      costUnit: m.outputs[m.index[costOutput]!]!.unit,
       surfaces,
       mainEffects: mainEffects(spec, X, P, rows, cols, m.outputs),
       pareto: front.slice(0, 1000).map(point),
@@ -411,7 +425,19 @@ export function combineStudyChunks(specInput: StudySpec | unknown, chunks: reado
     failures,
     poses,
     axle: spec.axle,
-    trackProfile: { id: profile.id, label: profile.label, bumpHeightMm: profile.bumpHeightMm, travelMm: [m.travels[0]!, m.travels[m.travels.length - 1]!] },
+    trackProfile: {
+      id: profile.id,
+      label: profile.label,
+      bumpHeightMm: profile.bumpHeightMm,
+      travelMm: [m.travels[0]!, m.travels[m.travels.length - 1]!],
+      roadClass: profile.roadClass,
+      speedKph: profile.speedKph,
+    },
+    bumpCost: {
+      output: m.ride ? 'bumpYawDisturbancePct' : null,
+      roadInWords: `${ROAD_CLASS_WORDS[profile.roadClass]} at ${profile.speedKph} km/h`,
+      why: m.rideWhy,
+    },
     factors: m.factors,
     outputs,
     sensitivityMethod: spec.kind === 'tolerance' ? SENSITIVITY_METHOD : null,

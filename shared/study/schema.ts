@@ -9,8 +9,8 @@
 import * as z from 'zod';
 import { cornerDocumentSchema } from '../schema/corner.js';
 import { vehicleSchema, upgradeVehicleDocument } from '../schema/vehicle.js';
-import { TRACK_PROFILE_IDS } from '../intent/profiles.js';
-import { CAUTION_RULES } from '../intent/cautions.js';
+import { TRACK_PROFILE_IDS } from '../tracks/profiles.js';
+import { CAUTION_RULES } from '../cautions/cautions.js';
 
 /** Most samples (tolerance study) or variants (design sweep) one study may hold. */
 export const MAX_STUDY_SAMPLES = 100_000;

@@ -5,7 +5,7 @@
  * response surfaces), the Latin-hypercube strata and the Pareto front.
  * Linear algebra through mathjs (lusolve).
  */
-import { lusolve } from 'mathjs';
+import { lup, lusolve } from 'mathjs';
 
 export interface Summary {
   n: number;
@@ -82,8 +82,11 @@ export function solveSymmetric(A: Float64Array, b: Float64Array[], p: number): F
   const M: number[][] = [];
   for (let i = 0; i < p; i++) M.push(Array.from(A.subarray(i * p, i * p + p)));
   try {
+    // One LU decomposition (with partial pivoting) for every right-hand side.
+    const d = lup(M);
     return b.map((rhs) => {
-      const x = lusolve(M, Array.from(rhs).map((v) => [v])) as number[][];
+      const r = lusolve(d, Array.from(rhs).map((v) => [v]));
+      const x = (Array.isArray(r) ? r : r.valueOf()) as number[][];
       const out = Float64Array.from(x.map((r) => r[0]!));
       if (!out.every(Number.isFinite)) throw new Error('singular');
       return out;

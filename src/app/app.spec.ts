@@ -20,7 +20,7 @@ describe('App shell', () => {
     const root = fixture.nativeElement as HTMLElement;
     expect(root.querySelector('.plain-brand')?.textContent?.trim()).toBe('Rollwise');
     expect(root.querySelector('.skip-link')?.textContent?.trim()).toBe('Skip to content');
-    expect(root.querySelector('app-top-bar')).toBeNull();
+    expect(root.querySelector('rw-top-bar')).toBeNull();
     const backend = TestBed.inject(HttpTestingController);
     backend.expectOne('/api/health').flush({ status: 'ok', database: 'reachable', engineVersion: ENGINE_VERSION });
     await fixture.whenStable();

@@ -1,4 +1,4 @@
-import { Component, DestroyRef, ElementRef, inject, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, inject, viewChild } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import {
@@ -15,7 +15,8 @@ import { LoadingIndicator } from './core/layout/loading-indicator';
 import { TopBar } from './core/layout/top-bar';
 
 @Component({
-  selector: 'app-root',
+  selector: 'rw-root',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [RouterOutlet, TopBar, MatButtonModule],
   templateUrl: './app.html',
   styleUrl: './app.scss',

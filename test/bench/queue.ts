@@ -6,11 +6,18 @@
  *                                  two workers (target ≤ 6 s on the 2-core machine)
  *   study.tolerance10k.oneWorkerWallS   the same with one worker
  *   study.scalingTwoWorkers        chunk throughput of two worker processes ÷ one (target ≥ 1.7)
- *   study.queueOverheadPerChunkMs  per chunk, worker time not spent computing (fetch, hand-off to the
- *                                  thread, landing the chunk), from the one-worker run
+ *   study.queueOverheadPerChunkMs  per chunk, chunk-phase time not spent computing on the lane's thread (fetch,
+ *                                  hand-off to the thread, landing), from the one-worker run
+ * and the same measured in CPU time (this machine is shared: wall time counts other processes' turns):
+ *   study.tolerance10k.workerCpuS  CPU seconds of the two worker processes (all threads) for the 10 000-sample study
+ *   study.queuePosesPerWorkerCpuS  poses per CPU second of a worker process, main thread and queue work included
+ *                                  (one-worker run)
+ *   study.scalingTwoWorkersCpu     what scalingTwoWorkers would be with a core per worker: the one worker's CPU
+ *                                  time ÷ the busier of the two workers' CPU time
  * Figures only; nothing passes or fails. The load average is printed: other
  * work on the machine shares its cores.
  */
+import { readFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import pg from 'pg';
 import type { BenchFigures } from './run.js';
@@ -20,6 +27,14 @@ import { startSeededServer } from '../support/server-process.js';
 import { spawnWorker, type WorkerProcess } from '../support/workers.js';
 
 const round = (x: number, d = 2) => Math.round(x * 10 ** d) / 10 ** d;
+
+/** CPU seconds (user + system, all threads) a process has used so far, from /proc (Linux; clock ticks of 1/100 s). */
+function cpuSeconds(pid: number): number {
+  const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
+  const f = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+  // Fields 14 and 15 of proc(5) (utime, stime); f starts at field 3.
+  return (Number(f[11]) + Number(f[12])) / 100;
+}
 
 export async function run(): Promise<BenchFigures> {
   const cluster = await startThrowawayCluster('rollwise_bench_study');
@@ -64,6 +79,7 @@ export async function run(): Promise<BenchFigures> {
 
     /** Submit → stored result, and the chunk phase from the study's chunk rows. */
     const measure = async (samples: number, seed: number) => {
+      const cpu0 = workers.map((w) => cpuSeconds(w.pid));
       const t0 = performance.now();
       const { study: s } = await api<{ study: { id: string } }>('POST', `/api/teams/${team.id}/studies`, study(samples, seed));
       for (;;) {
@@ -73,6 +89,7 @@ export async function run(): Promise<BenchFigures> {
         await new Promise((r) => setTimeout(r, 20));
       }
       const wallS = (performance.now() - t0) / 1000;
+      const workerCpuS = workers.map((w, i) => cpuSeconds(w.pid) - cpu0[i]!);
       const c = (
         await db.query<{ chunks: number; samples: number; compute_ms: number; phase_s: number; poses: number }>(
           `SELECT count(*)::int AS chunks, sum(c.samples)::int AS samples, sum(c.compute_ms)::float AS compute_ms, sum(c.poses)::float AS poses,
@@ -81,7 +98,7 @@ export async function run(): Promise<BenchFigures> {
           [s.id],
         )
       ).rows[0]!;
-      return { wallS, ...c };
+      return { wallS, workerCpuS, ...c };
     };
 
     const results: Record<number, Awaited<ReturnType<typeof measure>>> = {};
@@ -91,7 +108,8 @@ export async function run(): Promise<BenchFigures> {
       results[n] = await measure(10_000, 2026);
       console.log(
         `  ${n} worker(s): 10 000 samples in ${round(results[n].wallS)} s submit→stored; chunk phase ${round(results[n].phase_s)} s, ${results[n].chunks} chunks, ` +
-          `compute ${round(results[n].compute_ms / 1000)} s, ${Math.round(results[n].poses / (results[n].compute_ms / 1000))} poses/s per busy thread`,
+          `compute ${round(results[n].compute_ms / 1000)} s, ${Math.round(results[n].poses / (results[n].compute_ms / 1000))} poses/s per busy thread; ` +
+          `worker CPU ${results[n].workerCpuS.map((x) => round(x)).join(' + ')} s`,
       );
     }
     const one = results[1]!;
@@ -104,6 +122,9 @@ export async function run(): Promise<BenchFigures> {
       'study.tolerance10k.oneWorkerWallS': round(one.wallS),
       'study.scalingTwoWorkers': round(one.phase_s / two.phase_s),
       'study.queueOverheadPerChunkMs': round(overheadMs, 1),
+      'study.tolerance10k.workerCpuS': round(two.workerCpuS.reduce((a, b) => a + b, 0)),
+      'study.queuePosesPerWorkerCpuS': Math.round(one.poses / one.workerCpuS[0]!),
+      'study.scalingTwoWorkersCpu': round(one.workerCpuS[0]! / Math.max(...two.workerCpuS)),
     };
   } finally {
     await Promise.all(workers.map((w) => w.stop()));

@@ -67,6 +67,7 @@ export async function run(): Promise<Record<string, number>> {
     'study.posesPerSecondPerWorker': round(poses / wallS, 0),
     'study.posesPerSecondPerWorkerCpu': round(poses / cpuS, 0),
     'study.tolerance10k.inProcessS': round(wallS, 2),
+    'study.tolerance10k.inProcessCpuS': round(cpuS, 2),
     'study.tolerance10k.combineS': round(combineS, 2),
     'study.posesPerSample': round(poses / plan.totalSamples, 1),
     'study.usPerPose': round(studyUsPerPose, 3),

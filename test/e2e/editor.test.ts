@@ -5,14 +5,20 @@
  * page's Web Worker, no server round trip), save, see the new revision; as
  * the demo viewer see the same design with no edit controls. Real server,
  * fresh seeded database, Debian's Chromium. Needs `npx ng build` first.
+ * Each test stands alone: the first works on the demo's Front baseline, the
+ * others that save work on their own copy of it (made through the API), so
+ * any test runs alone or in any order.
  */
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+import { consoleErrors, copyOfDemoDesign, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
 const TIE_ROD_INNER_Z = 'Tie rod, inner end (rack), z in mm';
+const FRONT_BASELINE = { team: 'Tallowmere University Racing', vehicle: 'TUR-26 Ember', design: 'Front baseline' };
+/** Bound of a wait on what the page shows (playwright's own default for its waits): it only turns a hang into a failure. */
+const SHOWN = { timeout: 30_000 };
 
 /** From the team dashboard to the front baseline design of TUR-26 Ember, through the vehicle page. */
 async function openFrontBaseline(page: Page): Promise<string> {
@@ -28,18 +34,22 @@ function rackZeroBumpSteer(page: Page): Promise<string> {
   return page.locator('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]').innerText();
 }
 
+/** The rack-0 bump steer as shown, for `expect.poll`: a wait on what the user reads, not on the DOM by hand. */
+function shownBumpSteer(page: Page): () => Promise<string> {
+  return async () => (await rackZeroBumpSteer(page)).trim();
+}
+
 function toePath(page: Page): Promise<string | null> {
   return page.locator('[data-testid="toe-chart"] svg.rw-chart-svg path.rw-series-line').first().getAttribute('d');
 }
 
 describe('Axle design editor in Chromium', () => {
   const env = useE2eApp();
-  let designPath = '';
 
   it('lets the designer change the tie-rod inner height, see toe and gradient change, and save a new revision', async () => {
     const page = await env.browser.newPage();
     await signIn(page, env.app.baseUrl, 'designer@tallowmere.example');
-    designPath = await openFrontBaseline(page);
+    const designPath = await openFrontBaseline(page);
     expect(designPath).toMatch(/^\/teams\/[^/]+\/vehicles\/[^/]+\/axle-designs\/[^/]+$/);
     await expect(page.getByTestId('revision').innerText()).resolves.toMatch(/^Revision 1\b/);
 
@@ -58,10 +68,7 @@ describe('Axle design editor in Chromium', () => {
     });
     await zInput.fill(String(zBefore + 8));
     await zInput.press('Enter');
-    await page.waitForFunction(
-      (before) => document.querySelector('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]')?.textContent?.trim() !== before,
-      gradientBefore,
-    );
+    await expect.poll(shownBumpSteer(page), SHOWN).not.toBe(gradientBefore.trim());
     const gradientAfter = await rackZeroBumpSteer(page);
     expect(gradientAfter).not.toBe(gradientBefore);
     expect(await toePath(page)).not.toBe(pathBefore);
@@ -72,15 +79,9 @@ describe('Axle design editor in Chromium', () => {
 
     // Undo and redo move between the two versions.
     await page.getByRole('button', { name: 'Undo' }).click();
-    await page.waitForFunction(
-      (before) => document.querySelector('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]')?.textContent?.trim() === before,
-      gradientBefore,
-    );
+    await expect.poll(shownBumpSteer(page), SHOWN).toBe(gradientBefore.trim());
     await page.getByRole('button', { name: 'Redo' }).click();
-    await page.waitForFunction(
-      (after) => document.querySelector('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]')?.textContent?.trim() === after,
-      gradientAfter,
-    );
+    await expect.poll(shownBumpSteer(page), SHOWN).toBe(gradientAfter.trim());
 
     await page.getByLabel('Revision note').fill('Tie-rod inner point up 8 mm');
     await page.getByRole('button', { name: 'Save revision' }).click();
@@ -93,10 +94,7 @@ describe('Axle design editor in Chromium', () => {
     await page.locator('[data-testid="toe-chart"] path.rw-series-line').first().waitFor();
     expect(Number(await page.getByLabel(TIE_ROD_INNER_Z).inputValue())).toBe(zBefore + 8);
     await expect(page.getByTestId('revision').innerText()).resolves.toMatch(/^Revision 2\b/);
-    await page.waitForFunction(
-      (after) => document.querySelector('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]')?.textContent?.trim() === after,
-      gradientAfter,
-    );
+    await expect.poll(shownBumpSteer(page), SHOWN).toBe(gradientAfter.trim());
 
     expect(await seriousA11yViolations(page)).toEqual([]);
     await saveScreenshot(page, 'editor-designer');
@@ -108,6 +106,7 @@ describe('Axle design editor in Chromium', () => {
   it('keeps both versions when a save is stale', async () => {
     const mine = await env.browser.newPage();
     await signIn(mine, env.app.baseUrl, 'designer@tallowmere.example');
+    const designPath = await copyOfDemoDesign(mine, env.app.baseUrl, FRONT_BASELINE, 'Front, stale-save check');
     await mine.goto(env.app.baseUrl + designPath);
     await mine.locator('[data-testid="toe-chart"] path.rw-series-line').first().waitFor();
     const revision = Number(/Revision (\d+)/.exec(await mine.getByTestId('revision').innerText())![1]);
@@ -144,6 +143,7 @@ describe('Axle design editor in Chromium', () => {
   it('imports hardpoints: a good CSV, one with a bad row, and one from another CAD frame', async () => {
     const page = await env.browser.newPage();
     await signIn(page, env.app.baseUrl, 'designer@tallowmere.example');
+    const designPath = await copyOfDemoDesign(page, env.app.baseUrl, FRONT_BASELINE, 'Front, import check');
     await page.goto(env.app.baseUrl + designPath);
     await page.locator('[data-testid="toe-chart"] path.rw-series-line').first().waitFor();
     const z = Number(await page.getByLabel(TIE_ROD_INNER_Z).inputValue());
@@ -174,10 +174,7 @@ describe('Axle design editor in Chromium', () => {
     await page.getByRole('button', { name: 'Apply import' }).click();
     await page.getByText('Imported 1 point(s).', { exact: false }).waitFor();
     expect(Number(await page.getByLabel(TIE_ROD_INNER_Z).inputValue())).toBe(z + 4.5);
-    await page.waitForFunction(
-      (b) => document.querySelector('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]')?.textContent?.trim() !== b,
-      before,
-    );
+    await expect.poll(shownBumpSteer(page), SHOWN).not.toBe(before.trim());
 
     // A file from a CAD model with y to the right, z down, in metres: mapped before it is applied.
     await page.getByRole('button', { name: 'Import…' }).click();
@@ -187,17 +184,15 @@ describe('Axle design editor in Chromium', () => {
     await page.locator('rw-hardpoint-import .rw-overlay').first().waitFor();
     await saveScreenshot(page, 'editor-import-cad-preview');
     await page.getByRole('button', { name: 'Apply import' }).click();
-    // The first import's "Imported 1 point(s)." is still on the page: wait for the table to show the new value
-    // (a condition, not a counted number of 50 ms polls that a loaded machine could run out of).
+    // The first import's "Imported 1 point(s)." is still on the page: wait for the table to show the new value.
     const innerZ = page.getByLabel(TIE_ROD_INNER_Z);
-    await page.waitForFunction((v) => Math.abs(Number((document.getElementById('hp-points-tieRodInner-z') as HTMLInputElement).value) - v) < 1e-6, z + 2);
+    await expect.poll(async () => Number(await innerZ.inputValue()), SHOWN).toBeCloseTo(z + 2, 6);
     await page.getByText('Imported 1 point(s).', { exact: false }).waitFor();
-    expect(Number(await innerZ.inputValue())).toBeCloseTo(z + 2, 6);
     expect(Number(await page.getByLabel('Tie rod, inner end (rack), y in mm').inputValue())).toBeCloseTo(y, 6);
 
     // Each import is one undo step.
     await page.getByRole('button', { name: 'Undo' }).click();
-    await page.waitForFunction((v) => Number((document.getElementById('hp-points-tieRodInner-z') as HTMLInputElement).value) === v, z + 4.5);
+    await expect.poll(async () => Number(await innerZ.inputValue()), SHOWN).toBe(z + 4.5);
     // The server refuses the bad file with 400 (the browser logs every 4xx response); nothing else may be logged.
     expect(consoleErrors(page).filter((e) => !/status of 400/.test(e))).toEqual([]);
     await page.close();
@@ -206,6 +201,7 @@ describe('Axle design editor in Chromium', () => {
   it('can be worked by keyboard alone: reach a coordinate, change it, undo, redo and save', async () => {
     const page = await env.browser.newPage();
     await signIn(page, env.app.baseUrl, 'designer@tallowmere.example');
+    const designPath = await copyOfDemoDesign(page, env.app.baseUrl, FRONT_BASELINE, 'Front, keyboard check');
     await page.goto(env.app.baseUrl + designPath);
     await page.locator('[data-testid="toe-chart"] path.rw-series-line').first().waitFor();
     const revision = Number(/Revision (\d+)/.exec(await page.getByTestId('revision').innerText())![1]);
@@ -223,10 +219,7 @@ describe('Axle design editor in Chromium', () => {
     await page.keyboard.press('Control+A');
     await page.keyboard.type(String(z + 5));
     await page.keyboard.press('Enter');
-    await page.waitForFunction(
-      (b) => document.querySelector('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]')?.textContent?.trim() !== b,
-      before,
-    );
+    await expect.poll(shownBumpSteer(page), SHOWN).not.toBe(before.trim());
 
     // Back up to the toolbar: Undo, then Redo, then Save revision, by keyboard.
     const reach = async (name: string) => {
@@ -239,10 +232,7 @@ describe('Axle design editor in Chromium', () => {
     await reach('Save revision');
     await reach('Undo');
     await page.keyboard.press('Enter');
-    await page.waitForFunction(
-      (b) => document.querySelector('[data-testid="fit-table"] tr[data-rack="0"] [data-testid="bump-steer"]')?.textContent?.trim() === b,
-      before,
-    );
+    await expect.poll(shownBumpSteer(page), SHOWN).toBe(before.trim());
     await page.keyboard.press('Tab'); // Redo
     await page.keyboard.press('Enter');
     await page.getByText('1 point(s) changed since revision').waitFor();

@@ -138,10 +138,10 @@ describe('programmes, API tokens and the activity log', () => {
     // Revoked on the account page (after confirming), the token is refused at once.
     await ana.reload();
     const tokenRow = ana.locator('.tokens li').filter({ hasText: 'Batch study script' });
-    await tokenRow.filter({ hasText: /last used \d/ }).waitFor();
+    await tokenRow.filter({ hasText: /last used \w/ }).waitFor(); // a date in the browser's own format (en-US: "Dec 4, 2026, …")
     await tokenRow.getByRole('button', { name: 'Revoke token Batch study script' }).click();
     await ana.getByRole('dialog').getByRole('button', { name: 'Revoke token' }).click();
-    await tokenRow.filter({ hasText: /Revoked \d/ }).waitFor();
+    await tokenRow.filter({ hasText: /Revoked \w/ }).waitFor(); // a date in the browser's own format
     expect(await tokenRow.getByRole('button').count()).toBe(0);
     const refused = await fetch(`${team}/vehicles`, { headers: bearer });
     expect(refused.status).toBe(401);
@@ -164,9 +164,9 @@ describe('programmes, API tokens and the activity log', () => {
 
     // The instructor's board lists both teams, with the safety caution.
     await iris.getByRole('button', { name: 'Refresh board' }).click();
-    const groups = iris.locator('app-board-table tbody.config');
+    const groups = iris.locator('rw-board-table tbody.config');
     await groups.nth(1).waitFor({ timeout: 60_000 });
-    const names = (await iris.locator('app-board-table .config-name').allInnerTexts()).map((n) => n.replace(/\s+/g, ' ').trim());
+    const names = (await iris.locator('rw-board-table .config-name').allInnerTexts()).map((n) => n.replace(/\s+/g, ' ').trim());
     // Sorted by team, then configuration; the demo teams may hold other configurations too.
     expect(names).toContain(`B3 baseline ${BRACKENFIELD}`);
     expect(names).toContain(`Ember, toe link +6 mm ${TALLOWMERE}`);
@@ -182,7 +182,7 @@ describe('programmes, API tokens and the activity log', () => {
     }
     await iris.getByRole('note').filter({ hasText: 'Design estimates from an idealised rigid-link model' }).waitFor();
     // Nothing on the board edits a team's data.
-    expect(await iris.locator('app-board-table').locator('button, input, select, textarea').count()).toBe(0);
+    expect(await iris.locator('rw-board-table').locator('button, input, select, textarea').count()).toBe(0);
     await iris.locator('table.teams').getByText('Accepted').nth(1).waitFor();
     expect(await seriousA11yViolations(iris)).toEqual([]);
     await saveScreenshot(iris, 'programme-board');
@@ -206,16 +206,16 @@ describe('programmes, API tokens and the activity log', () => {
     await snapshotLink.click();
     await iris.waitForURL((url) => /^\/programmes\/[^/]+\/snapshots\/[^/]+$/.test(url.pathname));
     await iris.getByRole('heading', { name: 'Deadline week 6' }).waitFor();
-    await iris.locator('app-board-table tbody.config').nth(1).waitFor();
+    await iris.locator('rw-board-table tbody.config').nth(1).waitFor();
     expect(await seriousA11yViolations(iris)).toEqual([]);
     await saveScreenshot(iris, 'programme-snapshot');
 
     // From the board the instructor opens a configuration in its team: read only, no step,
     // revision, archive or comment controls (she holds no permission in the team).
-    await iris.locator('app-board-table a.config-link', { hasText: 'Ember, toe link +6 mm' }).click();
+    await iris.locator('rw-board-table a.config-link', { hasText: 'Ember, toe link +6 mm' }).click();
     await iris.getByRole('heading', { level: 1, name: 'Ember, toe link +6 mm' }).waitFor();
     // The page and its results have loaded (every loading bar gone).
-    await iris.waitForFunction(() => !document.querySelector('mat-progress-bar[mode="indeterminate"], .rw-busy-bar'), null, { timeout: 60_000 });
+    await expect.poll(() => iris.locator('mat-progress-bar[mode="indeterminate"], .rw-busy-bar').count(), { timeout: 60_000 }).toBe(0);
     expect(await iris.locator('button[data-action], textarea, .rw-comment-on').count()).toBe(0);
     for (const name of ['Make a new revision', 'Archive configuration', 'Comment on the budget']) {
       expect(await iris.getByRole('button', { name }).count(), name).toBe(0);
@@ -233,7 +233,9 @@ describe('programmes, API tokens and the activity log', () => {
     expect(await first.innerText()).toContain('configuration.create');
     expect(await ana.locator('table.activity thead th').first().innerText()).toBe('When (Asia/Tokyo)');
     const utc = new Date((await first.locator('time').getAttribute('datetime'))!);
-    const shownHour = Number(/, (\d\d):\d\d:\d\d$/.exec(await first.locator('time').innerText())![1]);
+    // The hour as shown, in the browser's own format: 24-hour ("…, 19:05:12") or 12-hour ("…, 07:05:12 PM").
+    const shown = /(\d{1,2}):\d\d:\d\d(?:\s*([AP])\.?\s*M\.?)?$/i.exec((await first.locator('time').innerText()).trim())!;
+    const shownHour = shown[2] ? (Number(shown[1]) % 12) + (shown[2].toUpperCase() === 'P' ? 12 : 0) : Number(shown[1]);
     expect(shownHour).toBe((utc.getUTCHours() + 9) % 24);
     const [log] = await Promise.all([ana.waitForEvent('download'), ana.getByRole('link', { name: 'Download CSV' }).click()]);
     const logCsv = readFileSync((await log.path())!, 'utf8');

@@ -3,8 +3,9 @@
  * checked"): the demo designer makes a configuration of TUR-26 Ember and
  * submits it; the reviewer, in another browser context, comments on the
  * understeer budget and requests changes; the designer revises it (the rear
- * design with the toe link raised) and submits again; the reviewer approves
- * and releases it, and sees the approval snapshot beside its recompute; the
+ * design with the toe link lowered) and submits again; the reviewer signs it
+ * off, which the gate refuses until the Critical rear roll oversteer has a
+ * written reason, releases it, and sees the approval snapshot beside its recompute; the
  * reviewer and the designer each find their review mails in their own
  * development mailbox, and the team owner finds none of them. Every page
  * ends without console errors or requests leaving 127.0.0.1, and passes the
@@ -12,12 +13,14 @@
  */
 import type { Locator, Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+import { consoleErrors, copyOfDemoDesign, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
 const NAME = 'Ember review walk';
-const COMMENT = 'The rear roll-steer term of the budget looks small for the bumpy tracks.';
+/** The designer's new rear design: the toe link's inner end 6 mm lower, which steers the rear axle out of the turn as the body rolls. */
+const LOWERED = 'Rear, toe link inner 6 mm lower';
+const COMMENT = 'The car pushes mid-corner on the bumpy tracks; the rear roll-steer term of the budget could free it.';
 
 /** Waits until the results and the cautions of the configuration page are in. */
 async function settled(page: Page): Promise<void> {
@@ -38,13 +41,20 @@ async function expectStatus(page: Page, label: string): Promise<void> {
 /** The captured mail with this subject to this address, refreshing until the outbox has sent it. */
 async function waitForMail(page: Page, subject: string, to: string): Promise<Locator> {
   const mail = page.locator('li.mail').filter({ has: page.getByRole('heading', { name: subject }) }).filter({ hasText: to });
-  for (let attempt = 0; attempt < 40; attempt++) {
-    if ((await mail.count()) > 0) return mail.first();
-    await page.waitForTimeout(500);
-    await page.getByRole('button', { name: 'Refresh' }).click();
-    await page.locator('mat-progress-bar, .rw-busy-bar').waitFor({ state: 'detached' });
-  }
-  throw new Error(`No mail "${subject}" to ${to} reached the development mail page`);
+  // The outbox sends within a poll or two of the queue worker: press Refresh, as the person would, until the mail is listed.
+  await expect
+    .poll(
+      async () => {
+        if ((await mail.count()) === 0) {
+          await page.getByRole('button', { name: 'Refresh' }).click();
+          await page.locator('mat-progress-bar, .rw-busy-bar').waitFor({ state: 'detached' });
+        }
+        return mail.count();
+      },
+      { timeout: 40_000, interval: 250, message: `mail "${subject}" to ${to} on the development mail page` },
+    )
+    .toBeGreaterThan(0);
+  return mail.first();
 }
 
 function clean(page: Page): void {
@@ -59,6 +69,9 @@ describe('Configuration review in Chromium', () => {
     // The designer makes the configuration from the team dashboard and submits it.
     const designer = await env.browser.newPage();
     await signIn(designer, env.app.baseUrl, 'designer@tallowmere.example');
+    await copyOfDemoDesign(designer, env.app.baseUrl, { team: 'Tallowmere University Racing', vehicle: 'TUR-26 Ember', design: 'Rear baseline' }, LOWERED, (c) => {
+      c.points['tieRodInner']![2] -= 6;
+    });
     await designer.goto(env.app.baseUrl + '/teams');
     await designer.getByRole('link', { name: /Tallowmere/ }).first().click();
     await designer.getByRole('link', { name: 'Configurations and review' }).click();
@@ -83,7 +96,7 @@ describe('Configuration review in Chromium', () => {
     await expectStatus(designer, 'Draft');
     expect(await designer.getByTestId('inputs').innerText()).toContain('Bumpy circuit');
     // The designer may submit, never decide.
-    expect(await designer.getByRole('button', { name: 'Approve' }).count()).toBe(0);
+    expect(await designer.getByRole('button', { name: 'Sign off' }).count()).toBe(0);
     await designer.getByLabel(/Message with the review step/).fill('Please look at the rear');
     await designer.getByRole('button', { name: 'Submit for review' }).click();
     await expectStatus(designer, 'In review');
@@ -100,37 +113,38 @@ describe('Configuration review in Chromium', () => {
     await reviewer.getByRole('button', { name: 'Comment on the budget' }).click();
     const commentBox = reviewer.getByLabel('Comment', { exact: true });
     await expect.poll(() => commentBox.evaluate((el) => el === document.activeElement)).toBe(true);
-    expect(await reviewer.getByLabel('Points at').inputValue()).toBe('budget');
+    expect((await reviewer.getByRole('combobox', { name: /^Points at/ }).innerText()).trim()).toBe('Understeer budget');
     await reviewer.keyboard.type(COMMENT);
     await reviewer.getByRole('button', { name: 'Post comment' }).click();
     const thread = reviewer.locator('.rw-thread').filter({ hasText: COMMENT });
     await thread.waitFor();
     expect(await thread.innerText()).toContain('On: Understeer budget');
     // A change request needs words; with them it goes through.
-    await reviewer.getByRole('button', { name: 'Request changes' }).click();
-    await reviewer.getByText('Say what should change').waitFor();
-    await reviewer.getByLabel(/Message with the review step/).fill('Raise the rear toe link');
-    await reviewer.getByRole('button', { name: 'Request changes' }).click();
-    await expectStatus(reviewer, 'Changes requested');
+    await reviewer.getByRole('button', { name: 'Return for rework' }).click();
+    await reviewer.getByText('Say what needs rework').waitFor();
+    await reviewer.getByLabel(/Message with the review step/).fill('Lower the rear toe link');
+    await reviewer.getByRole('button', { name: 'Return for rework' }).click();
+    await expectStatus(reviewer, 'Returned for rework');
     expect(await seriousA11yViolations(reviewer)).toEqual([]);
     await saveScreenshot(reviewer, 'review-2-reviewer-changes-requested');
 
     // The designer reads the comment, replies, and makes a new revision with the raised toe link.
     await designer.reload();
     await settled(designer);
-    await expectStatus(designer, 'Changes requested');
+    await expectStatus(designer, 'Returned for rework');
     const designerThread = designer.locator('.rw-thread').filter({ hasText: COMMENT });
-    await designerThread.getByLabel('Reply', { exact: true }).fill('Raised the rear toe link inner point by 6 mm.');
+    await designerThread.getByLabel('Reply', { exact: true }).fill('Lowered the rear toe link inner point by 6 mm.');
     await designerThread.getByRole('button', { name: 'Reply' }).click();
-    await designerThread.getByText('Raised the rear toe link inner point by 6 mm.', { exact: true }).waitFor();
+    await designerThread.getByText('Lowered the rear toe link inner point by 6 mm.', { exact: true }).waitFor();
     await designer.getByRole('button', { name: 'Make a new revision' }).click();
-    await designer.getByLabel('Rear axle design', { exact: true }).selectOption({ label: 'Rear, toe link inner +6 mm (now revision 1)' });
-    await designer.getByLabel('Message (what changed)').fill('Rear toe link inner +6 mm');
+    await designer.getByRole('combobox', { name: /^Rear axle design/ }).click();
+    await designer.getByRole('option', { name: `${LOWERED} (now revision 1)` }).click();
+    await designer.getByLabel('Message (what changed)').fill('Rear toe link inner 6 mm lower');
     await designer.getByRole('button', { name: 'Save new revision' }).click();
     await designer.getByText('Saved as revision 2; the configuration is a draft again.').waitFor();
     await expectStatus(designer, 'Draft');
     await settled(designer);
-    expect(await designer.getByTestId('inputs').innerText()).toContain('Rear, toe link inner +6 mm, revision 1');
+    expect(await designer.getByTestId('inputs').innerText()).toContain(`${LOWERED}, revision 1`);
     // Compare the first revision with the new one: the toe link's inner height changed, and the roll-steer term with it.
     await designer.getByRole('button', { name: 'Compare revision 1 with the current one' }).click();
     const comparison = designer.getByTestId('comparison');
@@ -145,17 +159,27 @@ describe('Configuration review in Chromium', () => {
     await reviewer.reload();
     await settled(reviewer);
     await expectStatus(reviewer, 'In review');
-    await reviewer.getByLabel(/Message with the review step/).fill('Rear roll understeer as asked');
-    await reviewer.getByRole('button', { name: 'Approve' }).click();
-    await expectStatus(reviewer, 'Approved');
+    await reviewer.getByLabel(/Message with the review step/).fill('Rear roll steer as asked');
+    await reviewer.getByRole('button', { name: 'Sign off' }).click();
+    // The sign-off gate: a written reason for each Critical caution the server measured, in the dialog. The lowered
+    // rear toe link is rear roll oversteer (common practice: it lowers stability as cornering builds), a Critical caution.
+    const gate = reviewer.getByRole('dialog');
+    await gate.getByRole('heading', { name: /^Sign off / }).waitFor();
+    await gate.locator('.rw-gate-item[data-axle="rear"][data-code="rear-roll-oversteer"]').waitFor();
+    // Refused while a reason is missing: the dialog's Sign off stays inactive.
+    expect(await gate.getByRole('button', { name: 'Sign off' }).isDisabled()).toBe(true);
+    const reasons = gate.getByRole('textbox');
+    for (let i = 0; i < (await reasons.count()); i++) await reasons.nth(i).fill('Accepted for the bumpy tracks; step-steer check on the skid pad before release');
+    await gate.getByRole('button', { name: 'Sign off' }).click();
+    await expectStatus(reviewer, 'Signed off');
     const approval = reviewer.getByTestId('approval');
     await approval.getByText('gives the same figures').waitFor();
-    expect(await approval.innerText()).toContain('Revision 2 approved by Ravi Osei');
+    expect(await approval.innerText()).toContain('Revision 2 signed off by Ravi Osei');
     await reviewer.getByRole('button', { name: 'Release to build' }).click();
     await expectStatus(reviewer, 'Released to build');
-    await reviewer.locator('.rw-history li').filter({ hasText: 'Approved → Released to build' }).waitFor();
-    await reviewer.locator('.rw-thread').filter({ hasText: COMMENT }).getByRole('button', { name: 'Resolve thread' }).click();
-    await reviewer.locator('.rw-thread').filter({ hasText: COMMENT }).locator('.rw-thread-state').getByText('Resolved').waitFor();
+    await reviewer.locator('.rw-history li').filter({ hasText: 'Signed off → Released to build' }).waitFor();
+    await reviewer.locator('.rw-thread').filter({ hasText: COMMENT }).getByRole('button', { name: 'Close remark' }).click();
+    await reviewer.locator('.rw-thread').filter({ hasText: COMMENT }).locator('.rw-thread-state').getByText('Closed').waitFor();
     expect(await seriousA11yViolations(reviewer)).toEqual([]);
     await saveScreenshot(reviewer, 'review-3-reviewer-released');
     clean(reviewer);
@@ -172,8 +196,8 @@ describe('Configuration review in Chromium', () => {
     expect(await asked.innerText()).toContain('Please look at the rear');
     await waitForMail(reviewer, `Review requested: ${NAME} (revision 2)`, 'reviewer@tallowmere.example');
     await openOwnMail(designer, 'Dana Quist');
-    await waitForMail(designer, `${NAME} (revision 1): changes requested`, 'designer@tallowmere.example');
-    const approved = await waitForMail(designer, `${NAME} (revision 2): approved`, 'designer@tallowmere.example');
+    await waitForMail(designer, `${NAME} (revision 1): returned for rework`, 'designer@tallowmere.example');
+    const approved = await waitForMail(designer, `${NAME} (revision 2): signed off`, 'designer@tallowmere.example');
     // The mailed link opens the configuration page on this server.
     expect(await approved.getByRole('link').first().getAttribute('href')).toBe(env.app.baseUrl + configurationPath);
     // Nobody reads another's mail: the designer's mailbox holds none of the reviewer's, and the owner's none of either.

@@ -131,7 +131,7 @@ async function main(): Promise<void> {
     };
     // Warm-up: the worker pool starts its threads (and tsx compiles the engine) on the first compute.
     for (let i = 0; i < 3; i++) {
-      const r = await fetch(`${base}${sweep.path}`, { method: 'POST', headers: { cookie, 'x-rollwise-request': '1', 'content-type': 'application/json' }, body: sweep.body });
+      const r = await fetch(`${base}${sweep.path}`, { method: 'POST', headers: { cookie, 'x-rollwise-request': '1', 'content-type': 'application/json' }, body: sweep.body ?? null });
       if (r.status !== 200) throw new Error(`warm-up sweep answered ${r.status}: ${await r.text()}`);
     }
 

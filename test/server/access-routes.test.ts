@@ -72,10 +72,11 @@ const TOKEN_SCOPE: Cell = '403 token_scope';
 function teamRoute(holders: Role[], ok: Cell, o: { method: string; teamRead?: boolean }): Record<Who, Cell> {
   const read = o.method === 'GET';
   const e: Partial<Record<Who, Cell>> = { anonymous: 401, otherTeam: 404, instructorPending: 404 };
-  for (const r of ROLE_LIST) e[r] = holders.includes(r) ? ok : 403;
+  const cell = (r: Role): Cell => (holders.includes(r) ? ok : 403);
+  for (const r of ROLE_LIST) e[r] = cell(r);
   e.instructorAccepted = read && o.teamRead ? ok : 404;
-  e.tokenRead = read ? e.engineer : TOKEN_SCOPE;
-  e.tokenWrite = e.engineer;
+  e.tokenRead = read ? cell('engineer') : TOKEN_SCOPE;
+  e.tokenWrite = cell('engineer');
   return e as Record<Who, Cell>;
 }
 const ALL_ROLES: Role[] = [...ROLE_LIST];
@@ -176,7 +177,8 @@ beforeAll(async () => {
     )
   ).body.id;
   await ok(agents.engineer.post(`${configuration()}/submit`).send({}), 200);
-  await ok(agents.reviewer.post(`${configuration()}/approve`).send({}), 200);
+  const critical = (await ok(agents.reviewer.get(`${configuration()}/gates`), 200)).body.critical as { axle: string; code: string }[];
+  await ok(agents.reviewer.post(`${configuration()}/approve`).send({ acknowledgements: critical.map((c) => ({ axle: c.axle, code: c.code, reason: 'accepted for the access fixture' })) }), 200);
   ids.approval = (await ok(agents.owner.get(`${configuration()}/approvals`), 200)).body[0].id;
   ids.comment = (await ok(agents.reviewer.post(`${configuration()}/comments`).send({ body: 'Thread for the access check' }), 201)).body.id;
 
@@ -397,6 +399,13 @@ const ROWS: Row[] = [
     (a): Row => ({ route: `POST /api/teams/:teamId/configurations/:configurationId/${a}`, path: () => `${configuration()}/${a}`, body: PROBE, expect: teamRoute(['reviewer'], 400, { method: 'POST' }) }),
   ),
   { route: 'GET /api/teams/:teamId/configurations/:configurationId/approvals', path: () => `${configuration()}/approvals`, expect: teamRead() },
+  // Sign-off gates, the latest-revisions preview and the review record: team:read (docs/permissions.md). The page and the
+  // PDF are called with a revision the query schema refuses: 400 once past authorisation, and no browser is started.
+  { route: 'GET /api/teams/:teamId/configurations/:configurationId/gates', path: () => `${configuration()}/gates`, expect: teamRead() },
+  { route: 'GET /api/teams/:teamId/configurations/:configurationId/latest-preview', path: () => `${configuration()}/latest-preview`, expect: teamRead() },
+  { route: 'GET /api/teams/:teamId/configurations/:configurationId/record', path: () => `${configuration()}/record`, expect: teamRead() },
+  { route: 'GET /api/teams/:teamId/configurations/:configurationId/record.html', path: () => `${configuration()}/record.html?revision=none`, expect: teamRead('GET', 400) },
+  { route: 'GET /api/teams/:teamId/configurations/:configurationId/record.pdf', path: () => `${configuration()}/record.pdf?revision=none`, expect: teamRead('GET', 400) },
   { route: 'GET /api/teams/:teamId/configurations/:configurationId/approvals/:approvalId', path: () => `${configuration()}/approvals/${ids.approval}`, expect: teamRead() },
   { route: 'GET /api/teams/:teamId/configurations/:configurationId/comments', path: () => `${configuration()}/comments`, expect: teamRead() },
   {
@@ -432,6 +441,19 @@ const ROWS: Row[] = [
     path: () => `${team()}/studies/${ids.study}/variants/0/proposal`,
     expect: teamRoute(['engineer'], '409 not_a_sweep', { method: 'POST' }),
   },
+  // Attaching needs a completed study (the probe's is cancelled); detaching an attachment that does not exist is 404.
+  {
+    route: 'PUT /api/teams/:teamId/studies/:studyId/attachments/:configurationId',
+    path: () => `${team()}/studies/${ids.study}/attachments/${ids.configuration}`,
+    body: { note: 'probe' },
+    expect: teamRoute(['engineer', 'designer'], '409 study_not_completed', { method: 'PUT' }),
+  },
+  {
+    route: 'DELETE /api/teams/:teamId/studies/:studyId/attachments/:configurationId',
+    path: () => `${team()}/studies/${ids.study}/attachments/${ids.configuration}`,
+    expect: teamRoute(['engineer', 'designer'], 404, { method: 'DELETE' }),
+  },
+  { route: 'GET /api/programmes/:programmeId/studies', path: () => `${programme()}/studies`, expect: irisOnly(200) },
   { route: 'DELETE /api/teams/:teamId/rig-measurements/:measurementId', path: () => `${team()}/rig-measurements/${RANDOM_ID}`, expect: teamRoute(['owner', 'engineer', 'designer'], 404, { method: 'DELETE' }) },
   { route: 'GET /api/teams/:teamId/rig-tolerance', path: () => `${team()}/rig-tolerance`, expect: teamRead() },
   { route: 'PUT /api/teams/:teamId/rig-tolerance', path: () => `${team()}/rig-tolerance`, body: PROBE, expect: teamRoute(['owner'], 400, { method: 'PUT' }) },

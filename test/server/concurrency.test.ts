@@ -32,9 +32,12 @@ let rearId = '';
 
 beforeAll(async () => {
   t = await startTestApp({ seed: true });
-  [dana, eli, owner, reviewer] = await Promise.all(
-    ['designer@tallowmere.example', 'engineer@tallowmere.example', 'owner@tallowmere.example', 'reviewer@tallowmere.example'].map((e) => signIn(t.app, e)),
-  );
+  [dana, eli, owner, reviewer] = await Promise.all([
+    signIn(t.app, 'designer@tallowmere.example'),
+    signIn(t.app, 'engineer@tallowmere.example'),
+    signIn(t.app, 'owner@tallowmere.example'),
+    signIn(t.app, 'reviewer@tallowmere.example'),
+  ]);
   teamId = (await owner.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
   const s = await registerUser(t.app, 'Sam Second');
   await addMember(t, owner, teamId, s, ['engineer', 'designer']);
@@ -56,7 +59,7 @@ function raised(dzMm: number): Corner {
   c.points.tieRodInner = [p[0], p[1], p[2] + dzMm];
   return c;
 }
-const tieRodZ = (corner: { points: { tieRodInner: number[] } }) => corner.points.tieRodInner[2];
+const tieRodZ = (corner: { points: { tieRodInner: readonly [number, number, number] } }) => corner.points.tieRodInner[2];
 
 describe('two sessions save the same axle design at once', () => {
   it('exactly one wins each round; the other gets 409 with the current revision, saves on top, and both are in the history', async () => {
@@ -172,10 +175,14 @@ describe('an approval racing an edit', () => {
   it('whichever lands first, the approval is of the revision it saw, the edit makes a draft, and the status history is one unbroken chain', async () => {
     const outcomes = new Set<string>();
     // The approval computes results before it writes; the edit starts a little later each round so both orders happen.
-    for (const delayMs of [0, 40, 120, 250, 500, 1000]) {
+    // (The sign-off gate now measures both axles' cautions first, so the longest delay is 2 s.)
+    for (const delayMs of [0, 40, 120, 250, 500, 1000, 2000]) {
       const c = await inReview(`Race ${delayMs}`);
+      // A written reason for each Critical caution, gathered before the race (the gate itself: review-gates.test.ts).
+      const critical = (await reviewer.get(`${c.url}/gates`).expect(200)).body.critical as { axle: string; code: string }[];
+      const acknowledgements = critical.map((x) => ({ axle: x.axle, code: x.code, reason: 'accepted for the race test' }));
       const [approve, revise] = await Promise.all([
-        reviewer.post(`${c.url}/approve`).send({ revision: c.revision }),
+        reviewer.post(`${c.url}/approve`).send({ revision: c.revision, acknowledgements }),
         new Promise((r) => setTimeout(r, delayMs)).then(() => eli.put(c.url).send({ baseRevision: c.revision, trackProfile: 'bumpy-circuit', message: 'softer track' })),
       ]);
       expect([200, 409], JSON.stringify(approve.body)).toContain(approve.status);
@@ -250,7 +257,7 @@ describe('the server killed in the middle of a burst of saves', () => {
       fetch(`${url}${path}`, {
         method: init.method ?? 'GET',
         headers: { cookie, 'x-rollwise-request': '1', ...(init.body === undefined ? {} : { 'content-type': 'application/json' }) },
-        body: init.body === undefined ? undefined : JSON.stringify(init.body),
+        body: init.body === undefined ? null : JSON.stringify(init.body),
       });
   }
 

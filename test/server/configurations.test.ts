@@ -53,7 +53,29 @@ async function newConfiguration(by: Agent, name: string, rear = rearId): Promise
   return r.body.id as string;
 }
 
-const act = (who: Agent, id: string, action: string, body: object = {}) => who.post(`${team()}/configurations/${id}/${action}`).send(body);
+/**
+ * A review step. A sign-off carries a written reason for each Critical caution the gate names and a move
+ * to validated a waiver per axle (the gates are tested in review-gates.test.ts; here they are met).
+ */
+function act(who: Agent, id: string, action: string, body: object = {}) {
+  const url = `${team()}/configurations/${id}`;
+  const run = (async () => {
+    let gate = {};
+    if (action === 'approve') {
+      const critical = (await who.get(`${url}/gates`)).body.critical as { axle: string; code: string }[] | undefined;
+      gate = { acknowledgements: (critical ?? []).map((c) => ({ axle: c.axle, code: c.code, reason: 'accepted for this test' })) };
+    }
+    if (action === 'validate') gate = { waivers: ['front', 'rear'].map((axle) => ({ axle, reason: 'validated on track for this test' })) };
+    return who.post(`${url}/${action}`).send({ ...gate, ...body });
+  })();
+  return Object.assign(run, {
+    expect: async (status: number) => {
+      const r = await run;
+      expect(r.status, JSON.stringify(r.body)).toBe(status);
+      return r;
+    },
+  });
+}
 
 describe('configurations', () => {
   it('a configuration pins one vehicle revision, one front and one rear design revision and a track profile', async () => {

@@ -86,8 +86,10 @@ describe('PostgreSQL stopped and restarted while requests run', () => {
     // A request in the middle of a transaction holds a connection between two statements when the database stops.
     const held = await db.pool.connect();
     await held.query('BEGIN');
-    const stoppedAt = Date.now() - t0;
     await relay.stop(); // every connection gets FATAL 57P01, then the port is closed
+    // Down from here: the stop takes effect when it returns (measured before it, a request sent during a slow stop
+    // on a loaded machine was still answered 200 and counted as sent while down).
+    const stoppedAt = Date.now() - t0;
     await sleep(1200);
     // Its loss was not an uncaught 'error' (that would end the process; vitest would fail the run): its next statement fails as unavailable (503).
     const lost = await held.query('SELECT 1').then(() => 'answered', (e: unknown) => e);
@@ -135,10 +137,11 @@ describe('PostgreSQL stopped and restarted while requests run', () => {
 });
 
 describe('a solve past its time limit', () => {
-  // The limit is a few times shorter than each heavy call takes on this machine with a warm worker (measured
-  // 2026-12-02: the solve ~120 ms, the fine sweep ~90 ms with its JSON), and far longer than the quick call (~1 ms).
-  // (At 150 ms the engine, made faster, finished the old heavy solve inside the limit now and then.)
-  const LIMIT_MS = 25;
+  // The limit is a quarter of what the faster heavy call takes on a warm worker of this machine, measured at
+  // set-up under the same load as the test (quiet, 2026-12-02: the solve ~120 ms, the fine sweep ~90 ms with its
+  // JSON, so 25 ms, never less), and far longer than the quick call (~1 ms quiet). A fixed 25 ms limit failed at
+  // load 7 (the browser tests running beside): the quick call no longer fitted inside it, the heavy ones still did not.
+  let LIMIT_MS = 25;
   let t: TestApp;
   let user: Agent;
   const heavySweep = { corner: exampleCorners.fsFrontWishbone, travel: { from: -25, to: 25, step: 0.01 }, rackMm: [-10, 0, 10] };
@@ -153,23 +156,43 @@ describe('a solve past its time limit', () => {
     trackProfile: { id: 'bumpy-circuit', travelMm: [-40, 40] },
     options: { familySize: 101, travelStepMm: 0.4, rackPositionsMm: [-20, -15, -10, -5, 0, 5, 10, 15, 20] },
   };
+  /** The faster heavy call's time on a warm worker now, on an app of its own with the tests' long limit. */
+  async function heavyCallMs(): Promise<number> {
+    const cal = await startTestApp({ config: { computeThreads: 1, computeWarmStart: true } });
+    try {
+      const u = (await registerUser(cal.app)).agent;
+      await u.post('/api/compute/axle-roll').send(quickRoll).expect(200);
+      await u.post('/api/compute/solve').send(heavySolve).expect(200); // the first run also compiles
+      let s = performance.now();
+      await u.post('/api/compute/solve').send(heavySolve).expect(200);
+      const solveMs = performance.now() - s;
+      s = performance.now();
+      await u.post('/api/compute/corner-sweep').send(heavySweep).expect(200);
+      return Math.min(solveMs, performance.now() - s);
+    } finally {
+      await cal.close();
+    }
+  }
+
   beforeAll(async () => {
+    LIMIT_MS = Math.max(25, Math.round((await heavyCallMs()) / 4));
     // One worker kept warm: a worker stopped at the limit is replaced at once instead of at the next request.
     t = await startTestApp({ seed: true, config: { computeTimeLimitMs: LIMIT_MS, solveJobTimeLimitMs: LIMIT_MS, computeThreads: 1, computeWarmStart: true } });
     user = (await registerUser(t.app)).agent;
-    await quickAnswers();
-  });
+    // Set-up only waits for the first worker to load the engines: up to 60 s on a loaded CI machine.
+    await quickAnswers(600);
+  }, 120_000);
 
   /** A quick call answers once a worker has loaded the engines (about a second, more than LIMIT_MS). */
-  async function quickAnswers(): Promise<number> {
+  async function quickAnswers(tries = 100): Promise<number> {
     const s = performance.now();
-    for (let i = 0; i < 100; i++) {
+    for (let i = 0; i < tries; i++) {
       const r = await user.post('/api/compute/axle-roll').send(quickRoll);
       if (r.status === 200) return performance.now() - s;
       expectError(r, 422, 'time_limit');
       await sleep(100);
     }
-    throw new Error('no worker answered a quick call within 10 s');
+    throw new Error(`no worker answered a quick call within ${tries / 10} s`);
   }
   afterAll(async () => {
     await t?.close();
@@ -216,7 +239,9 @@ describe('a solve past its time limit', () => {
     // Off it, the only cost is CPU shared with the workers (and their restart) on a small machine: tens of ms.
     expect(median(during), summary).toBeLessThan(median(before) + 100);
     expect(Math.max(...during), summary).toBeLessThan(1000);
-    // The pool replaced the stopped workers by itself: a quick call answers again.
-    expect(await quickAnswers()).toBeLessThan(10_000);
-  });
+    // The pool replaced the stopped workers by itself: a quick call answers again, once the new worker has loaded
+    // the engines (about a second when quiet; 20 s with the cores four times oversubscribed). quickAnswers throws
+    // if no call answers within its 60 s.
+    expect(await quickAnswers(600)).toBeGreaterThan(0);
+  }, 120_000);
 });

@@ -1,31 +1,30 @@
 /**
  * Fuzzing the command line (issue 8, part 1): a few dozen seeded runs of
- * `rollwise sweep | roll | balance | solve`, spawned as a user runs them
- * (each spawn costs ~1 s, so dozens, not thousands), with mutated arguments
- * and input files. Every run must end with exit 0 and finite JSON, exit 2
+ * `rollwise sweep | roll | balance | solve` through the program's own runner,
+ * in-process (test/support/cli.ts: the same parsing, commands, exit codes and
+ * messages; cli-process.test.ts runs the real process), with mutated
+ * arguments and input files. Every run must end with exit 0 and finite JSON, exit 2
  * with the offending flag or field named on stderr, or exit 3 with the travel
  * (or roll angle) named; never exit 1, never a stack trace.
  *
  * Replay: the seed is printed; FUZZ_SEED=<seed> reruns the same cases.
  */
-import { spawn } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
+import { runCli } from '../support/cli.js';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import { exampleVehicles } from '../../shared/balance/examples.js';
 
 // A fixed default keeps CI repeatable; FUZZ_SEED=<n> explores (or replays) other bodies.
 const SEED = process.env['FUZZ_SEED'] ? Number(process.env['FUZZ_SEED']) : 20_261_202;
-const ROOT = resolve('.');
-const CLI = join(ROOT, 'server', 'cli', 'rollwise.ts');
 const dir = mkdtempSync(join(tmpdir(), 'rollwise-cli-fuzz-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 const RUNS = 8;
-const PARALLEL = 4; // 32 spawns in all
+const PARALLEL = 4; // 32 runs in all
 
 let fileCounter = 0;
 function file(content: string | Buffer): string {
@@ -124,19 +123,9 @@ function argvOf(c: Case): string[] {
   }
 }
 
-function run(argv: string[]): Promise<{ status: number | null; stdout: string; stderr: string }> {
-  return new Promise((done) => {
-    const child = spawn(process.execPath, ['--import', 'tsx', CLI, ...argv], { cwd: ROOT, stdio: ['ignore', 'pipe', 'pipe'] });
-    let stdout = '';
-    let stderr = '';
-    child.stdout.on('data', (d: Buffer) => (stdout += d.toString()));
-    child.stderr.on('data', (d: Buffer) => (stderr += d.toString()));
-    const timer = setTimeout(() => child.kill('SIGKILL'), 60_000);
-    child.on('close', (status) => {
-      clearTimeout(timer);
-      done({ status, stdout, stderr });
-    });
-  });
+async function run(argv: string[]): Promise<{ status: number | null; stdout: string; stderr: string }> {
+  const r = await runCli(...argv);
+  return { status: r.code, stdout: r.stdout, stderr: r.stderr };
 }
 
 const STACK = /\n\s+at \S.*[(:]\d+|node:internal|\.ts:\d+:\d+|internal error/;
@@ -184,7 +173,7 @@ const caseArb: fc.Arbitrary<Case> = fc.record({
 });
 
 describe('rollwise command line under fuzzed arguments and files', () => {
-  it(`${RUNS * PARALLEL} spawned runs: exit 0, 2 naming the field or 3 naming the travel; no stack trace`, async () => {
+  it(`${RUNS * PARALLEL} runs: exit 0, 2 naming the field or 3 naming the travel; no stack trace`, async () => {
     console.log(`fuzz-cli seed ${SEED} (replay: FUZZ_SEED=${SEED})`);
     let runs = 0;
     await fc.assert(
@@ -202,7 +191,7 @@ describe('rollwise command line under fuzzed arguments and files', () => {
           if (wrong) throw new Error(wrong);
         }
       }),
-      // No shrinking: each step would spawn more processes.
+      // No shrinking: a failing case is reported as it was drawn (replay it with its seed).
       { seed: SEED, numRuns: RUNS, endOnFailure: true },
     );
     console.log(`fuzz-cli: ${runs} runs, exit codes ${[...seen].map(([s, n]) => `${s}×${n}`).join(' ')}`);

@@ -1,7 +1,7 @@
 /** Shared set-up for API tests: a migrated fresh database, an app on it, and signed-in agents. */
 import request from 'supertest';
 import { expect } from 'vitest';
-import { freshDatabaseUrl } from '../support/db.js';
+import { migratedDatabaseUrl, seededDatabaseUrl } from '../support/db.js';
 import { loadConfig, type Config } from '../../server/config.js';
 import { createDatabase, type Database } from '../../server/db/client.js';
 import { migrateDatabase } from '../../server/db/migrate.js';
@@ -19,12 +19,19 @@ export interface TestApp {
 }
 
 export function testConfig(databaseUrl: string, overrides: Partial<Config> = {}): Config {
-  return { ...loadConfig({ NODE_ENV: 'test' }), databaseUrl, staticDir: '/nonexistent-rollwise-static', ...overrides };
+  // The 10 s compute limit guards a server against costly requests; a test that is not about it must not fail because a
+  // loaded CI machine computes slowly (a demo snapshot's recompute took over 10 s at load 18). Tests of the limit set their own.
+  return { ...loadConfig({ NODE_ENV: 'test' }), databaseUrl, staticDir: '/nonexistent-rollwise-static', computeTimeLimitMs: 60_000, ...overrides };
 }
 
-/** A fresh database (migrated, optionally seeded) and an app on it. */
+/**
+ * A fresh database and an app on it: a copy of the run's migrated template, or with `seed` of
+ * its seeded one (test/support/pg-global-setup.ts). `migrateDatabase` and, with `seed`,
+ * `seedDemo` still run, as at every server start: on the copy they find nothing to do, and on a
+ * `databaseUrl` you pass (say an empty `freshDatabaseUrl()`) they do it all.
+ */
 export async function startTestApp(o: { seed?: boolean; databaseUrl?: string; config?: Partial<Config> } = {}): Promise<TestApp> {
-  const databaseUrl = o.databaseUrl ?? freshDatabaseUrl();
+  const databaseUrl = o.databaseUrl ?? (o.seed ? seededDatabaseUrl() : migratedDatabaseUrl());
   const db = createDatabase(databaseUrl);
   await migrateDatabase(db);
   if (o.seed) await seedDemo(db.orm, { bcryptRounds: 4 });

@@ -75,7 +75,7 @@ describe('mail', () => {
     expect(asked.from).toBe('no-reply@rollwise.invalid');
 
     await reviewer.post(`/api/teams/${teamId}/configurations/${id}/request-changes`).send({ message: 'ε rear too small — raise the toe link' }).expect(200);
-    const decided = await fake.waitFor((m) => m.subject.startsWith('Mail walk (revision 1): changes requested'));
+    const decided = await fake.waitFor((m) => m.subject.startsWith('Mail walk (revision 1): returned for rework'));
     expect(decided.to).toEqual(['designer@tallowmere.example']);
     expect(decided.text).toContain('Ravi Osei decided');
     expect(decided.text).toContain('ε rear too small — raise the toe link');
@@ -144,7 +144,7 @@ describe('mail', () => {
     const subjects = async (a: Agent) => ((await a.get('/api/dev/mail').expect(200)).body as { subject: string; to: string[] }[]).map((m) => m.subject);
     // Ravi was asked to review "Mail walk"; Dana was told the decision. Ana, their owner, sees neither.
     expect((await subjects(reviewer)).some((x) => x.startsWith('Review requested: Mail walk'))).toBe(true);
-    expect((await subjects(designer)).some((x) => x.startsWith('Mail walk (revision 1): changes requested'))).toBe(true);
+    expect((await subjects(designer)).some((x) => x.startsWith('Mail walk (revision 1): returned for rework'))).toBe(true);
     expect((await subjects(owner)).some((x) => x.includes('Mail walk'))).toBe(false);
     expect(await subjects(reviewer)).not.toContain('Batch 1');
     const kit = await signIn(t.app, 'owner@brackenfield.example');

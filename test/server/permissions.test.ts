@@ -269,7 +269,7 @@ const ROWS: Row[] = [
   { name: 'compare configurations', method: 'get', path: () => `${team()}/configurations/compare?a=${configurationId}&b=${configurationId}`, expect: READ },
   { name: 'submit for review', method: 'post', beforeEach: () => freshConfiguration('draft'), path: () => `${configuration()}/submit`, body: () => ({}), expect: REVIEW_SUBMIT },
   { name: 'withdraw from review', method: 'post', beforeEach: () => freshConfiguration('in_review'), path: () => `${configuration()}/withdraw`, body: () => ({}), expect: REVIEW_SUBMIT },
-  { name: 'approve', method: 'post', beforeEach: () => freshConfiguration('in_review'), path: () => `${configuration()}/approve`, body: () => ({}), expect: REVIEW_DECIDE },
+  { name: 'approve (sign off)', method: 'post', beforeEach: () => freshConfiguration('in_review'), path: () => `${configuration()}/approve`, body: signOffBody, expect: REVIEW_DECIDE },
   {
     name: 'request changes',
     method: 'post',
@@ -279,7 +279,10 @@ const ROWS: Row[] = [
     expect: REVIEW_DECIDE,
   },
   { name: 'release', method: 'post', beforeEach: () => freshConfiguration('approved'), path: () => `${configuration()}/release`, body: () => ({}), expect: REVIEW_DECIDE },
-  { name: 'validate', method: 'post', beforeEach: () => freshConfiguration('released'), path: () => `${configuration()}/validate`, body: () => ({}), expect: REVIEW_DECIDE },
+  { name: 'validate', method: 'post', beforeEach: () => freshConfiguration('released'), path: () => `${configuration()}/validate`, body: () => WAIVERS, expect: REVIEW_DECIDE },
+  { name: 'sign-off gates', method: 'get', path: () => `${configuration()}/gates`, expect: READ },
+  { name: 'latest revisions preview', method: 'get', path: () => `${configuration()}/latest-preview`, expect: READ },
+  { name: 'review record', method: 'get', path: () => `${configuration()}/record`, expect: READ },
   { name: 'list approvals', method: 'get', before: () => freshConfiguration('approved'), path: () => `${configuration()}/approvals`, expect: READ },
   { name: 'read approval with recompute', method: 'get', path: () => `${configuration()}/approvals/${approvalId}`, expect: READ },
   { name: 'list comments', method: 'get', path: () => `${configuration()}/comments`, expect: READ },
@@ -351,6 +354,14 @@ async function configurationBody(name: string) {
   };
 }
 
+/** A sign-off body with a written reason for each Critical caution the gate names (the gates themselves: review-gates.test.ts). */
+async function signOffBody(): Promise<object> {
+  const critical = (await agents.owner.get(`${configuration()}/gates`).expect(200)).body.critical as { axle: string; code: string }[];
+  return { acknowledgements: critical.map((c) => ({ axle: c.axle, code: c.code, reason: 'accepted for the permission matrix' })) };
+}
+/** Waivers of the rig evidence for both axles (no rig data in this fixture). */
+const WAIVERS = { waivers: [{ axle: 'front', reason: 'no rig data in this fixture' }, { axle: 'rear', reason: 'no rig data in this fixture' }] };
+
 /** A new configuration (by the owner, who decides nothing) brought to `state` by the engineer and the reviewer. */
 async function freshConfiguration(state: 'draft' | 'in_review' | 'approved' | 'released'): Promise<void> {
   const c = await agents.owner.post(`${team()}/configurations`).send(await configurationBody(`Matrix ${state}`));
@@ -359,7 +370,7 @@ async function freshConfiguration(state: 'draft' | 'in_review' | 'approved' | 'r
   const steps = { draft: [], in_review: ['submit'], approved: ['submit', 'approve'], released: ['submit', 'approve', 'release'] }[state];
   for (const step of steps) {
     const who = step === 'submit' ? agents.engineer : agents.reviewer;
-    const r = await who.post(`${configuration()}/${step}`).send({});
+    const r = await who.post(`${configuration()}/${step}`).send(step === 'approve' ? await signOffBody() : {});
     expect(r.status, `${step}: ${JSON.stringify(r.body)}`).toBe(200);
   }
   if (state !== 'draft' && state !== 'in_review') {

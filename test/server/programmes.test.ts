@@ -5,9 +5,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
-import { computeBalance } from '../../shared/balance/api.js';
-import { computeCornerSweep } from '../../shared/kinematics/api.js';
-import { trackProfiles } from '../../shared/intent/profiles.js';
+import { analyseConfiguration } from '../../shared/configuration/analyse.js';
 import { expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
@@ -93,7 +91,10 @@ describe('programmes', () => {
     await bo.post(`/api/teams/${brackenfield}/programmes/${programmeId}/accept`).send({}).expect(200);
     const tc = await configurationOf(dana, tallowmere, 'TUR-26 Ember', 'Ember for the study');
     await dana.post(`/api/teams/${tallowmere}/configurations/${tc}/submit`).send({}).expect(200);
-    await ravi.post(`/api/teams/${tallowmere}/configurations/${tc}/approve`).send({}).expect(200);
+    // The sign-off carries a written reason for each Critical caution the gate names (the gate itself: review-gates.test.ts).
+    const critical = (await ravi.get(`/api/teams/${tallowmere}/configurations/${tc}/gates`).expect(200)).body.critical as { axle: string; code: string }[];
+    const acknowledgements = critical.map((c) => ({ axle: c.axle, code: c.code, reason: 'accepted for the board test' }));
+    await ravi.post(`/api/teams/${tallowmere}/configurations/${tc}/approve`).send({ acknowledgements }).expect(200);
     await configurationOf(bo, brackenfield, 'Brackenfield B3 hatchback', 'B3 for the study');
 
     const board = await iris.get(`/api/programmes/${programmeId}/board`).expect(200);
@@ -111,13 +112,13 @@ describe('programmes', () => {
     // The figures are the engines' own, for the same documents (direct calls).
     const inputs = (await iris.get(`/api/teams/${tallowmere}/configurations/${tc}/approvals`).expect(200)).body[0];
     const frozen = (await iris.get(`/api/teams/${tallowmere}/configurations/${tc}/approvals/${inputs.id}`).expect(200)).body.inputs;
-    const direct = computeBalance({ vehicle: frozen.vehicle, frontCorner: frozen.frontCorner, rearCorner: frozen.rearCorner });
+    // The board's latest figures are on the programme's profile; the approved column on the configuration's own.
+    const onBoard = analyseConfiguration({ vehicle: frozen.vehicle, frontCorner: frozen.frontCorner, rearCorner: frozen.rearCorner, trackProfile: 'bumpy-circuit' });
+    const direct = onBoard.balance;
     const ember = rows[1]!;
     expect(ember.latest.figures.rollSteerRear).toBeCloseTo(direct.kinematicsLink.rear.used.rollSteerCoefficient, 12);
     expect(ember.latest.figures.rollSteerUndersteerDegPerG).toBeCloseTo(direct.understeerBudget.rollSteer, 12);
-    const [from, to] = trackProfiles['bumpy-circuit'].travelMm;
-    const sweep = computeCornerSweep({ corner: frozen.frontCorner, travel: { from, to, step: (to - from) / 40 } });
-    expect(ember.latest.figures.bumpSteerFrontDegPerM).toBeCloseTo(sweep.fit.bumpSteerDegPerM, 12);
+    expect(ember.latest.figures.bumpSteerFrontDegPerM).toBeCloseTo(onBoard.bumpSteer.front.bumpSteerDegPerM, 12);
     // The approved column is the frozen snapshot, on the configuration's own profile.
     expect(ember.approved!.trackProfile).toBe('smooth-circuit');
     expect(ember.approved!.figures.understeerGradientDegPerG).toBeCloseTo(direct.understeerBudget.total, 12);

@@ -44,11 +44,14 @@ describe('proposals', () => {
 
     const a = await designer.post(`${base}/proposals/${p.body.id}/accept`).send({ message: 'looks right' }).expect(200);
     expect(a.body.proposal).toMatchObject({ status: 'accepted', acceptedRevision: 2, decidedByName: 'Dana Quist', decisionMessage: 'looks right' });
-    expect(a.body.design).toMatchObject({ revision: 2, status: 'accepted', updatedByName: 'Dana Quist' });
+    // The design names the revision's author, as its revision list does (issue 15 §1); who accepted stays on the proposal.
+    expect(a.body.design).toMatchObject({ revision: 2, status: 'accepted', updatedByName: 'Eli Marsh' });
     expect(a.body.design.corner.points.tieRodInner[2]).toBe(raised(4).points.tieRodInner[2]);
     const revs = await designer.get(`${base}/revisions`).expect(200);
     expect(revs.body[0]).toMatchObject({ revision: 2, authorName: 'Eli Marsh', status: 'accepted' });
-    expect(revs.body[0].message).toContain('Accepted proposal by Eli Marsh');
+    // The history shows the author's own note, not one written over it.
+    expect(revs.body[0].message).toBe('solve for −0.02');
+    expect((await designer.get(base).expect(200)).body.updatedByName).toBe(revs.body[0].authorName);
     expectError(await designer.post(`${base}/proposals/${p.body.id}/accept`).send({}), 409, 'proposal_closed');
   });
 

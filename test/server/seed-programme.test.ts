@@ -13,7 +13,7 @@ let brackenfield = '';
 beforeAll(async () => {
   t = await startTestApp({ seed: true });
   await seedDemoProgramme(t.db.orm);
-  [iris, ana, bo] = await Promise.all(['instructor@programme.example', 'owner@tallowmere.example', 'owner@brackenfield.example'].map((e) => signIn(t.app, e)));
+  [iris, ana, bo] = await Promise.all([signIn(t.app, 'instructor@programme.example'), signIn(t.app, 'owner@tallowmere.example'), signIn(t.app, 'owner@brackenfield.example')]);
   tallowmere = (await ana.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
   brackenfield = (await bo.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'brackenfield').id;
 });

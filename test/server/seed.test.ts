@@ -9,10 +9,12 @@ import { exampleVehicles } from '../../shared/balance/examples.js';
 import { computeBalance } from '../../shared/balance/api.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import { signIn, startTestApp, type TestApp } from './helpers.js';
+import { migratedDatabaseUrl } from '../support/db.js';
 
 let t: TestApp;
 beforeAll(async () => {
-  t = await startTestApp({ seed: true });
+  // The seed itself runs here, on an unseeded database (other files copy the run's seeded template).
+  t = await startTestApp({ databaseUrl: migratedDatabaseUrl(), seed: true });
 });
 afterAll(async () => {
   await t?.close();

@@ -11,7 +11,7 @@ import { exampleCorners } from '../../shared/kinematics/examples.js';
 import { sweepCorner } from '../../shared/kinematics/sweep.js';
 import { SolveError, InputError } from '../../shared/errors.js';
 import { previewRigCsv, readRigCsv, RIG_LIMITS, type RigMapping, type RigPoint } from '../../shared/io/rig-measurement.js';
-import { compareRigMeasurement, DEFAULT_RIG_TOLERANCE } from '../../shared/intent/rig-compare.js';
+import { compareRigMeasurement, DEFAULT_RIG_TOLERANCE } from '../../shared/rig/compare.js';
 import { planarWishbone } from './kinematics/helpers.js';
 
 const fixture = (name: string) => readFileSync(new URL(`../fixtures/rig/${name}`, import.meta.url), 'utf8');

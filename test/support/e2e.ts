@@ -1,5 +1,5 @@
 /**
- * Browser-test harness: the real server (fresh database, migrated, seeded)
+ * Browser-test harness: the real server (fresh copy of the migrated template database, seeded)
  * serving the production build, and Debian's Chromium through
  * playwright-core. Every page fails its test on a request that leaves
  * 127.0.0.1, and records console errors and uncaught page errors.
@@ -11,7 +11,7 @@ import { tmpdir } from 'node:os';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { AxeBuilder } from '@axe-core/playwright';
 import { afterAll, beforeAll } from 'vitest';
-import { freshDatabaseUrl } from './db.js';
+import { migratedDatabaseUrl } from './db.js';
 import { freePort } from '../../server/tools/pg.js';
 
 const root = resolve(import.meta.dirname, '..', '..');
@@ -28,7 +28,7 @@ export async function startE2eApp(): Promise<E2eApp> {
   if (!existsSync(join(staticDir, 'index.html'))) {
     throw new Error(`No built app in ${staticDir}: run \`npx ng build\` first (npm test does).`);
   }
-  const databaseUrl = freshDatabaseUrl('e2e');
+  const databaseUrl = migratedDatabaseUrl('e2e');
   const { startServer } = await import('../../server/main.js');
   // A known port up front, so links in mail (built from publicUrl) point at this server.
   const port = await freePort();
@@ -42,6 +42,9 @@ export async function startE2eApp(): Promise<E2eApp> {
     logLevel: 'silent',
     production: false,
     fakeSmtp: true,
+    // No browser test is about the 10 s compute limit: a loaded CI machine must not turn a slow
+    // configuration analysis into a missing result (the server tests of the limit set their own).
+    computeTimeLimitMs: 60_000,
   });
   return { baseUrl: server.url, databaseUrl, stop: () => server.close() };
 }
@@ -159,8 +162,45 @@ export async function signIn(page: Page, baseUrl: string, email: string, passwor
  */
 export async function seriousA11yViolations(page: Page): Promise<string[]> {
   await page.locator('mat-progress-bar[mode="indeterminate"], .rw-busy-bar').waitFor({ state: 'detached' });
+  // The page as its reader sees it: until the shipped icon font has loaded, an icon shows its ligature's name
+  // as plain text (the top bar's mark read as the text "360" and failed the contrast rule at load 15).
+  await page.evaluate(() => document.fonts.ready.then(() => undefined));
   const result = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']).analyze();
   return result.violations
     .filter((v) => v.impact === 'serious' || v.impact === 'critical')
     .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
+}
+
+/**
+ * A new axle design, a copy of a demo design's corner, made through the API as the person
+ * signed in on `page` (its context's cookies): a test that edits and saves works on its own
+ * design, so no test depends on what another one saved, and any test runs alone or in any
+ * order. `edit` changes the copied corner first (a moved point). Returns the design's path in
+ * the app (`/teams/…/vehicles/…/axle-designs/…`).
+ */
+export async function copyOfDemoDesign(
+  page: Page,
+  baseUrl: string,
+  from: { team: string; vehicle: string; design: string },
+  name: string,
+  edit?: (corner: { points: Record<string, [number, number, number]> }) => void,
+): Promise<string> {
+  const api = async <T>(path: string, body?: unknown): Promise<T> => {
+    const headers = { 'X-Rollwise-Request': '1' };
+    const r = body === undefined ? await page.request.get(baseUrl + path, { headers }) : await page.request.post(baseUrl + path, { headers, data: body });
+    if (!r.ok()) throw new Error(`${body === undefined ? 'GET' : 'POST'} ${path}: ${r.status()} ${await r.text()}`);
+    return (await r.json()) as T;
+  };
+  const byName = <T extends { name: string }>(list: T[], n: string, what: string): T => {
+    const found = list.find((x) => x.name === n);
+    if (!found) throw new Error(`no ${what} "${n}" among ${list.map((x) => x.name).join(', ')}`);
+    return found;
+  };
+  const team = byName(await api<{ id: string; name: string }[]>('/api/teams'), from.team, 'team');
+  const vehicle = byName(await api<{ id: string; name: string }[]>(`/api/teams/${team.id}/vehicles`), from.vehicle, 'vehicle');
+  const designs = await api<{ id: string; name: string; axle: string }[]>(`/api/teams/${team.id}/vehicles/${vehicle.id}/axle-designs`);
+  const source = await api<{ axle: string; corner: unknown }>(`/api/teams/${team.id}/axle-designs/${byName(designs, from.design, 'axle design').id}`);
+  edit?.(source.corner as { points: Record<string, [number, number, number]> });
+  const created = await api<{ id: string }>(`/api/teams/${team.id}/vehicles/${vehicle.id}/axle-designs`, { axle: source.axle, name, corner: source.corner });
+  return `/teams/${team.id}/vehicles/${vehicle.id}/axle-designs/${created.id}`;
 }

@@ -2,30 +2,12 @@ import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 import { SHOW_ERRORS_INLINE } from '../core/http/api-error';
+import type { ApiToken, CreatedApiToken, TokenScope } from '../../../shared/api/accounts';
 
 const INLINE = { context: new HttpContext().set(SHOW_ERRORS_INLINE, true) };
 
-export type TokenScope = 'read' | 'write';
-
-/** `GET /api/auth/tokens` rows (docs/api.md, "Personal API tokens"). */
-export interface ApiToken {
-  readonly id: string;
-  readonly name: string;
-  readonly teamId: string;
-  readonly teamName: string;
-  readonly scope: TokenScope;
-  /** The first characters of the secret, to recognise it. */
-  readonly prefix: string;
-  readonly expiresAt: string | null;
-  readonly lastUsedAt: string | null;
-  readonly revokedAt: string | null;
-  readonly createdAt: string;
-}
-
-/** The answer to creating one: the secret is in it this once only. */
-export interface CreatedApiToken extends ApiToken {
-  readonly token: string;
-}
+// The answers' types are the server's (shared/api/accounts.ts).
+export type { ApiToken, CreatedApiToken, TokenScope } from '../../../shared/api/accounts';
 
 export interface NewApiToken {
   readonly name: string;

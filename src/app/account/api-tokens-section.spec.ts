@@ -7,6 +7,7 @@ import { Me } from '../core/api-types';
 import { AuthService } from '../core/auth/auth-service';
 import { ApiToken } from './api-tokens-api';
 import { ApiTokensSection } from './api-tokens-section';
+import { settle } from '../../testing/settle';
 
 const ELI: Me = {
   user: { id: 'u-eli', email: 'engineer@tallowmere.example', displayName: 'Eli Marsh', displayUnits: 'si' },
@@ -56,9 +57,9 @@ describe('ApiTokensSection', () => {
 
   async function render(list: ApiToken[] = [TOKEN]) {
     const fixture = TestBed.createComponent(ApiTokensSection);
-    await fixture.whenStable();
+    await settle();
     backend.expectOne('/api/auth/tokens').flush(list);
-    await fixture.whenStable();
+    await settle();
     return { fixture, root: fixture.nativeElement as HTMLElement };
   }
 
@@ -75,40 +76,40 @@ describe('ApiTokensSection', () => {
   });
 
   it('creates a token for the chosen team and shows its secret once, with a warning and a copy button', async () => {
-    const { fixture, root } = await render([]);
+    const { root } = await render([]);
     expect(root.textContent).toContain('You have no API tokens.');
     const name = root.querySelector<HTMLInputElement>('input[formcontrolname="name"]')!;
     name.value = 'Batch study';
     name.dispatchEvent(new Event('input'));
     root.querySelector<HTMLInputElement>('mat-radio-button[value="write"] input')!.click();
     root.querySelector<HTMLButtonElement>('.token-form button[type="submit"]')!.click();
-    await fixture.whenStable();
+    await settle();
     const post = backend.expectOne({ method: 'POST', url: '/api/auth/tokens' });
     // The current team (the first membership) is preselected; 90 days is the default expiry.
     expect(post.request.body).toEqual({ name: 'Batch study', teamId: 't-tal', scope: 'write', expiresInDays: 90 });
     post.flush({ ...TOKEN, id: 'k3', name: 'Batch study', scope: 'write', token: SECRET });
-    await fixture.whenStable();
+    await settle();
     backend.expectOne('/api/auth/tokens').flush([{ ...TOKEN, id: 'k3', name: 'Batch study', scope: 'write' }]);
-    await fixture.whenStable();
+    await settle();
     // The emptied form shows no error after the token was made.
     expect(root.querySelector('.token-form mat-error')).toBeNull();
     const secret = root.querySelector('.secret')!;
     expect(secret.textContent).toContain('This is the only time Rollwise shows it');
     expect(secret.querySelector<HTMLInputElement>('input')!.value).toBe(SECRET);
     [...secret.querySelectorAll('button')].find((b) => b.textContent?.includes('Copy token'))!.click();
-    await fixture.whenStable();
+    await settle();
     expect(copy).toHaveBeenCalledWith(SECRET);
     expect(secret.textContent).toContain('Copied');
     [...secret.querySelectorAll('button')].find((b) => b.textContent?.includes('I have stored it'))!.click();
-    await fixture.whenStable();
+    await settle();
     expect(root.querySelector('.secret')).toBeNull();
     expect(root.textContent).not.toContain(SECRET);
   });
 
   it('refuses to create a token without a name', async () => {
-    const { fixture, root } = await render([]);
+    const { root } = await render([]);
     root.querySelector<HTMLButtonElement>('.token-form button[type="submit"]')!.click();
-    await fixture.whenStable();
+    await settle();
     expect(root.querySelector('mat-error')?.textContent?.trim()).toBe('Name the token so you can tell it apart later.');
     backend.expectNone({ method: 'POST', url: '/api/auth/tokens' });
   });
@@ -121,24 +122,24 @@ describe('ApiTokensSection', () => {
     const cmp = fixture.componentInstance as unknown as { form: { controls: { expiresInDays: { setValue(v: number): void } } } };
     cmp.form.controls.expiresInDays.setValue(0);
     root.querySelector<HTMLButtonElement>('.token-form button[type="submit"]')!.click();
-    await fixture.whenStable();
+    await settle();
     const post = backend.expectOne({ method: 'POST', url: '/api/auth/tokens' });
     expect(post.request.body).toEqual({ name: 'Forever', teamId: 't-tal', scope: 'read' });
     post.flush({ error: { code: 'not_found', message: 'Team not found' } }, { status: 404, statusText: 'Not Found' });
-    await fixture.whenStable();
+    await settle();
     expect(root.querySelector('.rw-form-error')?.textContent?.trim()).toBe('Team not found');
     expect(notifier.error).not.toHaveBeenCalled();
   });
 
   it('revokes only after confirmation', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     root.querySelector<HTMLButtonElement>('[aria-label="Revoke token Nightly sweep"]')!.click();
-    await fixture.whenStable();
+    await settle();
     expect(document.querySelector('mat-dialog-content')?.textContent).toContain('stops working at once');
     [...document.querySelectorAll<HTMLButtonElement>('mat-dialog-actions button')].find((b) => b.textContent?.trim() === 'Revoke token')!.click();
-    await fixture.whenStable();
+    await settle();
     backend.expectOne({ method: 'DELETE', url: '/api/auth/tokens/k1' }).flush(null, { status: 204, statusText: 'No Content' });
-    await fixture.whenStable();
+    await settle();
     expect(notifier.info).toHaveBeenCalledWith('Token "Nightly sweep" revoked.');
     backend.expectOne('/api/auth/tokens').flush([{ ...TOKEN, revokedAt: '2026-12-02T10:00:00.000Z' }]);
   });

@@ -1,6 +1,6 @@
 import { Clipboard } from '@angular/cdk/clipboard';
-import { Component, computed, effect, inject, signal } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, signal } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -10,11 +10,10 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatRadioModule } from '@angular/material/radio';
 import { MatSelectModule } from '@angular/material/select';
-import { switchMap } from 'rxjs';
 import { browserTimeZone, formatLocalTime } from '../core/time/local-time';
 import { AuthService } from '../core/auth/auth-service';
 import { apiProblem } from '../core/http/api-error';
-import { LoadState, toLoadState } from '../core/http/load-state';
+import { loadState } from '../core/http/load-state';
 import { confirmAction } from '../core/layout/confirm-dialog';
 import { Notifier } from '../core/layout/notifier';
 import { ApiToken, ApiTokensApi, CreatedApiToken, TokenScope } from './api-tokens-api';
@@ -34,7 +33,8 @@ const EXPIRY_CHOICES: readonly { days: number; label: string }[] = [
  * once, list them and revoke them.
  */
 @Component({
-  selector: 'app-api-tokens-section',
+  selector: 'rw-api-tokens-section',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     ReactiveFormsModule,
     MatButtonModule,
@@ -49,6 +49,11 @@ const EXPIRY_CHOICES: readonly { days: number; label: string }[] = [
   styleUrl: './api-tokens-section.scss',
 })
 export class ApiTokensSection {
+  /** Selects the whole secret on focus, ready to copy. */
+  protected selectAll(event: Event): void {
+    (event.target as HTMLInputElement).select();
+  }
+
   private readonly api = inject(ApiTokensApi);
   protected readonly auth = inject(AuthService);
   private readonly clipboard = inject(Clipboard);
@@ -57,8 +62,9 @@ export class ApiTokensSection {
 
   protected readonly expiryChoices = EXPIRY_CHOICES;
   protected readonly timeZone = browserTimeZone();
-  protected readonly state = signal<LoadState<ApiToken[]>>({ status: 'loading' });
-  private readonly reloads = signal(0);
+  // A reload keeps the list shown until the new one arrives.
+  private readonly tokens = rxResource({ stream: () => this.api.list() });
+  protected readonly state = loadState(this.tokens);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     name: ['', [Validators.required, Validators.maxLength(100)]],
@@ -75,15 +81,6 @@ export class ApiTokensSection {
   protected readonly teams = computed(() => this.auth.memberships());
 
   constructor() {
-    toObservable(this.reloads)
-      .pipe(
-        switchMap(() => toLoadState(this.api.list())),
-        takeUntilDestroyed(),
-      )
-      .subscribe((s) => {
-        if (s.status === 'loading' && this.state().status === 'ready') return;
-        this.state.set(s);
-      });
     // Preselect the current team once memberships are known.
     effect(() => {
       const team = this.auth.currentTeam();
@@ -92,7 +89,7 @@ export class ApiTokensSection {
   }
 
   protected reload(): void {
-    this.reloads.update((n) => n + 1);
+    this.tokens.reload();
   }
 
   protected local(iso: string): string {

@@ -1,4 +1,4 @@
-import { Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import {
   FormGroupDirective,
   NonNullableFormBuilder,
@@ -19,7 +19,8 @@ import { NewPasswordFields } from '../core/forms/new-password-fields';
 
 /** Current password, new password twice; success ends the user's other sessions. */
 @Component({
-  selector: 'app-change-password-form',
+  selector: 'rw-change-password-form',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [NewPasswordFields, ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule],
   templateUrl: './change-password-form.html',
 })

@@ -1,18 +1,10 @@
 import { HttpClient, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
+import type { ActivityEntry } from '../../../shared/api/teams';
 
-/** `GET /api/teams/:teamId/activity` rows (docs/api.md, "Activity log"); `at` is UTC. */
-export interface ActivityEntry {
-  readonly id: string;
-  readonly at: string;
-  readonly actorName: string | null;
-  readonly action: string;
-  readonly subjectType: string;
-  readonly subjectId: string | null;
-  readonly designId: string | null;
-  readonly summary: string;
-}
+// The answers' type is the server's (shared/api/teams.ts).
+export type { ActivityEntry } from '../../../shared/api/teams';
 
 /** Entries per request (the API allows 1–5000). */
 export const ACTIVITY_PAGE_SIZE = 100;

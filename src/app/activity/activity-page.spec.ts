@@ -4,6 +4,7 @@ import { fakeNotifier, shellTestProviders } from '../../testing/shell-testing';
 import { ActivityEntry } from './activity-api';
 import { ActivityPage } from './activity-page';
 import { browserTimeZone, formatLocalTime } from '../core/time/local-time';
+import { settle } from '../../testing/settle';
 
 const entry = (n: number, over: Partial<ActivityEntry> = {}): ActivityEntry => ({
   id: `a${n}`,
@@ -34,12 +35,12 @@ describe('ActivityPage', () => {
     const fixture = TestBed.createComponent(ActivityPage);
     fixture.componentRef.setInput('teamId', 't-tal');
     if (designId) fixture.componentRef.setInput('designId', designId);
-    await fixture.whenStable();
+    await settle();
     const path = designId ? `/api/teams/t-tal/axle-designs/${designId}/activity` : '/api/teams/t-tal/activity';
     const req = backend.expectOne((r) => r.url === path);
     expect(req.request.params.get('limit')).toBe('100');
     req.flush(entries);
-    await fixture.whenStable();
+    await settle();
     const root = fixture.nativeElement as HTMLElement;
     const rows = () => [...root.querySelectorAll('table.activity tbody tr')].map((tr) => [...tr.querySelectorAll('td')].map((td) => td.textContent?.trim()));
     return { fixture, root, rows };
@@ -66,16 +67,16 @@ describe('ActivityPage', () => {
   });
 
   it('filters the loaded entries by text', async () => {
-    const { fixture, root, rows } = await render();
+    const { root, rows } = await render();
     const input = root.querySelector<HTMLInputElement>('.filters input')!;
     input.value = 'vera';
     input.dispatchEvent(new Event('input'));
-    await fixture.whenStable();
+    await settle();
     expect(rows().map((r) => r[3])).toEqual(['Added Vera Nyman']);
     expect(root.querySelector('.count')?.textContent?.trim()).toBe('1 of 3 loaded entries shown.');
     input.value = 'nothing like this';
     input.dispatchEvent(new Event('input'));
-    await fixture.whenStable();
+    await settle();
     expect(root.textContent).toContain('No loaded entry matches the filter.');
   });
 
@@ -93,14 +94,14 @@ describe('ActivityPage', () => {
 
   it('pages to older entries after the last one shown (its time and id)', async () => {
     const full = Array.from({ length: 100 }, (_, i) => entry(i));
-    const { fixture, root, rows } = await render(undefined, full);
+    const { root, rows } = await render(undefined, full);
     root.querySelector<HTMLButtonElement>('.rw-form-actions button')!.click();
-    await fixture.whenStable();
+    await settle();
     const req = backend.expectOne((r) => r.url === '/api/teams/t-tal/activity' && r.params.has('before'));
     expect(req.request.params.get('before')).toBe(full[99]!.at);
     expect(req.request.params.get('beforeId')).toBe(full[99]!.id);
     req.flush([entry(100)]);
-    await fixture.whenStable();
+    await settle();
     expect(rows()).toHaveLength(101);
     expect(root.querySelector('.rw-form-actions button')).toBeNull();
   });
@@ -113,15 +114,15 @@ describe('ActivityPage', () => {
   it('shows the API’s reason when loading fails, and tries again', async () => {
     const fixture = TestBed.createComponent(ActivityPage);
     fixture.componentRef.setInput('teamId', 't-tal');
-    await fixture.whenStable();
+    await settle();
     backend
       .expectOne((r) => r.url === '/api/teams/t-tal/activity')
       .flush({ error: { code: 'not_found', message: 'Team not found' } }, { status: 404, statusText: 'Not Found' });
-    await fixture.whenStable();
+    await settle();
     const root = fixture.nativeElement as HTMLElement;
     expect(root.querySelector('[role="alert"]')?.textContent).toContain('Team not found');
     root.querySelector<HTMLButtonElement>('.rw-state-error button')!.click();
-    await fixture.whenStable();
+    await settle();
     backend.expectOne((r) => r.url === '/api/teams/t-tal/activity').flush([]);
   });
 });

@@ -1,4 +1,4 @@
-import { Component, computed, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -32,7 +32,8 @@ export const SUBJECT_WORDS: Readonly<Partial<Record<string, string>>> = {
  * browser's time zone (named on the page); the CSV carries both.
  */
 @Component({
-  selector: 'app-activity-page',
+  selector: 'rw-activity-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     FormsModule,
     RouterLink,

@@ -1,8 +1,8 @@
 import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { ActivatedRoute, convertToParamMap } from '@angular/router';
 import { fakeNotifier, FakeNotifier, shellTestProviders } from '../../testing/shell-testing';
 import { ForgotPasswordPage } from './forgot-password-page';
+import { settle } from '../../testing/settle';
 
 describe('ForgotPasswordPage', () => {
   let backend: HttpTestingController;
@@ -14,23 +14,24 @@ describe('ForgotPasswordPage', () => {
       imports: [ForgotPasswordPage],
       providers: [
         ...shellTestProviders(notifier),
-        { provide: ActivatedRoute, useValue: { snapshot: { queryParamMap: convertToParamMap(query) } } },
       ],
     }).compileComponents();
     backend = TestBed.inject(HttpTestingController);
     const fixture = TestBed.createComponent(ForgotPasswordPage);
-    await fixture.whenStable();
+    // The router binds `?email=` to the input of that name.
+    if (query['email'] !== undefined) fixture.componentRef.setInput('email', query['email']);
+    await settle();
     const root = fixture.nativeElement as HTMLElement;
     const email = () => root.querySelector<HTMLInputElement>('input[formcontrolname="email"]')!;
     const type = async (value: string) => {
       email().value = value;
       email().dispatchEvent(new Event('input'));
       email().dispatchEvent(new Event('blur'));
-      await fixture.whenStable();
+      await settle();
     };
     const submit = async () => {
       root.querySelector<HTMLButtonElement>('button[type="submit"]')!.click();
-      await fixture.whenStable();
+      await settle();
     };
     const errors = () => [...root.querySelectorAll('mat-error')].map((e) => e.textContent?.trim());
     return { fixture, root, email, type, submit, errors };
@@ -54,7 +55,7 @@ describe('ForgotPasswordPage', () => {
   });
 
   it('requests the link with the trimmed address and answers without saying whether it has an account', async () => {
-    const { type, submit, root, fixture } = await setUp();
+    const { type, submit, root } = await setUp();
     await type('  designer@tallowmere.example ');
     await submit();
     const request = backend.expectOne('/api/auth/password-reset');
@@ -62,21 +63,21 @@ describe('ForgotPasswordPage', () => {
     expect(request.request.body).toEqual({ email: 'designer@tallowmere.example' });
     expect(request.request.headers.get('X-Rollwise-Request')).toBe('1');
     request.flush({ status: 'If an account uses that address, a reset link is on its way.' }, { status: 202, statusText: 'Accepted' });
-    await fixture.whenStable();
+    await settle();
     const status = root.querySelector('[role="status"]')?.textContent ?? '';
     expect(status).toContain('If an account uses designer@tallowmere.example');
     expect(root.querySelector('form')).toBeNull();
   });
 
   it('shows a refusal (rate limit) inline, not in a snackbar, and keeps the form', async () => {
-    const { type, submit, root, fixture } = await setUp();
+    const { type, submit, root } = await setUp();
     await type('designer@tallowmere.example');
     await submit();
     backend.expectOne('/api/auth/password-reset').flush(
       { error: { code: 'rate_limited', message: 'Too many reset requests. Please wait a few minutes and try again.' } },
       { status: 429, statusText: 'Too Many Requests' },
     );
-    await fixture.whenStable();
+    await settle();
     expect(root.querySelector('[role="alert"]')?.textContent?.trim()).toBe(
       'Too many reset requests. Please wait a few minutes and try again.',
     );

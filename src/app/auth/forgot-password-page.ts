@@ -1,9 +1,9 @@
-import { Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input, OnInit, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { ActivatedRoute, RouterLink } from '@angular/router';
+import { RouterLink } from '@angular/router';
 import { apiProblem } from '../core/http/api-error';
 import { AccountLinksApi } from './account-links-api';
 
@@ -12,16 +12,19 @@ import { AccountLinksApi } from './account-links-api';
  * unknown addresses, so the page never tells who has an account.
  */
 @Component({
-  selector: 'app-forgot-password-page',
+  selector: 'rw-forgot-password-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule, RouterLink],
   templateUrl: './forgot-password-page.html',
 })
-export class ForgotPasswordPage {
+export class ForgotPasswordPage implements OnInit {
   private readonly api = inject(AccountLinksApi);
+  /** `?email=`: the address typed so far on the sign-in page. */
+  readonly email = input<string | undefined>(undefined);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     email: [
-      inject(ActivatedRoute).snapshot.queryParamMap.get('email') ?? '',
+      '',
       [Validators.required, Validators.email, Validators.maxLength(254)],
     ],
   });
@@ -29,6 +32,11 @@ export class ForgotPasswordPage {
   protected readonly failure = signal<string | null>(null);
   /** The address a link was requested for (shown back once sent). */
   protected readonly sentTo = signal<string | null>(null);
+
+  ngOnInit(): void {
+    const email = this.email();
+    if (email) this.form.controls.email.setValue(email);
+  }
 
   protected submit(): void {
     this.failure.set(null);

@@ -4,6 +4,7 @@ import { fakeNotifier, shellTestProviders } from '../../testing/shell-testing';
 import { Router } from '@angular/router';
 import { Me } from '../core/api-types';
 import { RegisterPage } from './register-page';
+import { settle } from '../../testing/settle';
 
 const NEW_USER: Me = {
   user: { id: 'u-new', email: 'new@tallowmere.example', displayName: 'Noor Pell', displayUnits: 'si' },
@@ -25,7 +26,7 @@ describe('RegisterPage', () => {
 
   async function render() {
     const fixture = TestBed.createComponent(RegisterPage);
-    await fixture.whenStable();
+    await settle();
     const root = fixture.nativeElement as HTMLElement;
     const fill = async (values: Record<string, string>) => {
       for (const [name, value] of Object.entries(values)) {
@@ -34,11 +35,11 @@ describe('RegisterPage', () => {
         input.dispatchEvent(new Event('input'));
         input.dispatchEvent(new Event('blur'));
       }
-      await fixture.whenStable();
+      await settle();
     };
     const submit = async () => {
       root.querySelector<HTMLButtonElement>('button[type="submit"]')!.click();
-      await fixture.whenStable();
+      await settle();
     };
     const errors = () => [...root.querySelectorAll('mat-error')].map((e) => e.textContent?.trim());
     const alerts = () => [...root.querySelectorAll('[role="alert"]')].map((e) => e.textContent?.trim());
@@ -75,7 +76,7 @@ describe('RegisterPage', () => {
   });
 
   it('marks the e-mail field when the address is already registered', async () => {
-    const { fixture, fill, submit, errors, alerts } = await render();
+    const { fill, submit, errors, alerts } = await render();
     await fill({
       displayName: 'Eli Marsh',
       email: 'engineer@tallowmere.example',
@@ -87,7 +88,7 @@ describe('RegisterPage', () => {
       { error: { code: 'email_taken', message: 'An account with this e-mail address already exists' } },
       { status: 409, statusText: 'Conflict' },
     );
-    await fixture.whenStable();
+    await settle();
     expect(errors()).toEqual(['An account with this e-mail already exists.']);
     expect(alerts()).toEqual(['An account with this e-mail address already exists']);
   });

@@ -1,4 +1,4 @@
-import { Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -15,7 +15,8 @@ import { apiProblem } from '../core/http/api-error';
 import { NewPasswordFields } from '../core/forms/new-password-fields';
 
 @Component({
-  selector: 'app-register-page',
+  selector: 'rw-register-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [NewPasswordFields, ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule, RouterLink],
   templateUrl: './register-page.html',
 })

@@ -2,6 +2,7 @@ import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { fakeNotifier, FakeNotifier, shellTestProviders } from '../../testing/shell-testing';
 import { ResetPasswordPage } from './reset-password-page';
+import { settle } from '../../testing/settle';
 
 const TOKEN = 'q6l0Zr0wXbS1_reset-token-from-mail';
 
@@ -24,7 +25,7 @@ describe('ResetPasswordPage', () => {
   async function render() {
     const fixture = TestBed.createComponent(ResetPasswordPage);
     fixture.componentRef.setInput('token', TOKEN);
-    await fixture.whenStable();
+    await settle();
     const root = fixture.nativeElement as HTMLElement;
     const fill = async (values: Record<string, string>) => {
       for (const [name, value] of Object.entries(values)) {
@@ -33,11 +34,11 @@ describe('ResetPasswordPage', () => {
         input.dispatchEvent(new Event('input'));
         input.dispatchEvent(new Event('blur'));
       }
-      await fixture.whenStable();
+      await settle();
     };
     const submit = async () => {
       root.querySelector<HTMLButtonElement>('button[type="submit"]')!.click();
-      await fixture.whenStable();
+      await settle();
     };
     const errors = () => [...root.querySelectorAll('mat-error')].map((e) => e.textContent?.trim());
     const alerts = () => [...root.querySelectorAll('[role="alert"]')].map((e) => e.textContent?.trim());
@@ -58,14 +59,14 @@ describe('ResetPasswordPage', () => {
   });
 
   it('sends the token from the link with the new password and says to sign in', async () => {
-    const { fill, submit, root, fixture } = await render();
+    const { fill, submit, root } = await render();
     await fill({ password: 'a-new-passphrase', confirm: 'a-new-passphrase' });
     await submit();
     const request = backend.expectOne('/api/auth/password-reset/confirm');
     expect(request.request.body).toEqual({ token: TOKEN, newPassword: 'a-new-passphrase' });
     expect(request.request.headers.get('X-Rollwise-Request')).toBe('1');
     request.flush(null, { status: 204, statusText: 'No Content' });
-    await fixture.whenStable();
+    await settle();
     expect(root.querySelector('[role="status"]')?.textContent).toContain('Your password is changed');
     expect(root.querySelector('a[href="/sign-in"]')).not.toBeNull();
     // Nobody was signed in here, so nothing else is asked.
@@ -73,14 +74,14 @@ describe('ResetPasswordPage', () => {
   });
 
   it('explains a used or expired link and offers a new one, without a snackbar', async () => {
-    const { fill, submit, root, fixture, alerts } = await render();
+    const { fill, submit, root, alerts } = await render();
     await fill({ password: 'a-new-passphrase', confirm: 'a-new-passphrase' });
     await submit();
     backend.expectOne('/api/auth/password-reset/confirm').flush(
       { error: { code: 'reset_link_invalid', message: 'This reset link is not valid, was already used or has expired; ask for a new one' } },
       { status: 400, statusText: 'Bad Request' },
     );
-    await fixture.whenStable();
+    await settle();
     expect(alerts()).toEqual(['This reset link is not valid, was already used or has expired; ask for a new one']);
     expect(root.querySelector('form')).toBeNull();
     expect(root.querySelector('a[href="/forgot-password"]')?.textContent?.trim()).toBe('Ask for a new link');
@@ -88,14 +89,14 @@ describe('ResetPasswordPage', () => {
   });
 
   it('keeps the form for a refused password (field issues)', async () => {
-    const { fill, submit, root, fixture, alerts } = await render();
+    const { fill, submit, root, alerts } = await render();
     await fill({ password: 'ééééééééééééééééééééééééééééééééééééé', confirm: 'ééééééééééééééééééééééééééééééééééééé' });
     await submit();
     backend.expectOne('/api/auth/password-reset/confirm').flush(
       { error: { code: 'invalid_input', message: 'newPassword: must be at most 72 bytes', details: { fields: [{ path: 'newPassword', message: 'must be at most 72 bytes' }] } } },
       { status: 400, statusText: 'Bad Request' },
     );
-    await fixture.whenStable();
+    await settle();
     expect(alerts()).toEqual(['newPassword: must be at most 72 bytes']);
     expect(root.querySelector('form')).not.toBeNull();
   });

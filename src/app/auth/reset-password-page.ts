@@ -1,4 +1,4 @@
-import { Component, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -20,7 +20,8 @@ import { AccountLinksApi } from './account-links-api';
  * signs in afresh with the new password.
  */
 @Component({
-  selector: 'app-reset-password-page',
+  selector: 'rw-reset-password-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [NewPasswordFields, ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule, RouterLink],
   templateUrl: './reset-password-page.html',
 })

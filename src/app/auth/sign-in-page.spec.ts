@@ -4,6 +4,7 @@ import { fakeNotifier, shellTestProviders } from '../../testing/shell-testing';
 import { Router } from '@angular/router';
 import { Me } from '../core/api-types';
 import { SignInPage } from './sign-in-page';
+import { settle } from '../../testing/settle';
 
 const ELI: Me = {
   user: { id: 'u-eli', email: 'engineer@tallowmere.example', displayName: 'Eli Marsh', displayUnits: 'si' },
@@ -12,18 +13,18 @@ const ELI: Me = {
 
 async function render() {
   const fixture = TestBed.createComponent(SignInPage);
-  await fixture.whenStable();
+  await settle();
   const root = fixture.nativeElement as HTMLElement;
   const input = (name: string) => root.querySelector<HTMLInputElement>(`input[formcontrolname="${name}"]`)!;
   const type = async (name: string, value: string) => {
     input(name).value = value;
     input(name).dispatchEvent(new Event('input'));
     input(name).dispatchEvent(new Event('blur'));
-    await fixture.whenStable();
+    await settle();
   };
   const submit = async () => {
     root.querySelector<HTMLButtonElement>('button[type="submit"]')!.click();
-    await fixture.whenStable();
+    await settle();
   };
   const errors = () => [...root.querySelectorAll('mat-error')].map((e) => e.textContent?.trim());
   return { fixture, root, input, type, submit, errors };
@@ -84,7 +85,7 @@ describe('SignInPage', () => {
   });
 
   it("shows the server's refusal inline and clears the password", async () => {
-    const { type, submit, root, input, fixture } = await render();
+    const { type, submit, root, input } = await render();
     await type('email', 'engineer@tallowmere.example');
     await type('password', 'not-the-password');
     await submit();
@@ -92,18 +93,18 @@ describe('SignInPage', () => {
       { error: { code: 'invalid_credentials', message: 'E-mail or password is not right.' } },
       { status: 401, statusText: 'Unauthorized' },
     );
-    await fixture.whenStable();
+    await settle();
     expect(root.querySelector('[role="alert"]')?.textContent?.trim()).toBe('E-mail or password is not right.');
     expect(input('password').value).toBe('');
     expect(root.querySelector<HTMLButtonElement>('button[type="submit"]')!.disabled).toBe(false);
   });
 
   it('offers a password reset, carrying the address typed so far', async () => {
-    const { type, root, fixture } = await render();
+    const { type, root } = await render();
     const forgot = () => [...root.querySelectorAll('a')].find((a) => a.textContent?.trim() === 'Forgot your password?')!;
     expect(forgot().getAttribute('href')).toBe('/forgot-password');
     await type('email', ' designer@tallowmere.example ');
-    await fixture.whenStable();
+    await settle();
     const href = new URL(forgot().getAttribute('href')!, 'http://127.0.0.1');
     expect(href.pathname).toBe('/forgot-password');
     expect(href.searchParams.get('email')).toBe('designer@tallowmere.example');

@@ -1,15 +1,16 @@
-import { Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { ActivatedRoute, Router, RouterLink } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
 import { homeUrl, safeReturnUrl } from '../core/auth/auth-guards';
 import { AuthService } from '../core/auth/auth-service';
 import { apiProblem } from '../core/http/api-error';
 
 @Component({
-  selector: 'app-sign-in-page',
+  selector: 'rw-sign-in-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule, RouterLink],
   templateUrl: './sign-in-page.html',
   styles: `
@@ -21,7 +22,8 @@ import { apiProblem } from '../core/http/api-error';
 export class SignInPage {
   private readonly auth = inject(AuthService);
   private readonly router = inject(Router);
-  private readonly route = inject(ActivatedRoute);
+  /** `?returnUrl=`: where a guard sent the visitor from (only same-site paths are followed). */
+  readonly returnUrl = input<string | undefined>(undefined);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     email: ['', [Validators.required, Validators.email]],
@@ -47,7 +49,7 @@ export class SignInPage {
     this.auth.signIn(email.trim(), password).subscribe({
       next: () => {
         const target =
-          safeReturnUrl(this.route.snapshot.queryParamMap.get('returnUrl')) ?? homeUrl(this.auth);
+          safeReturnUrl(this.returnUrl() ?? null) ?? homeUrl(this.auth);
         void this.router.navigateByUrl(target);
       },
       error: (error: unknown) => {

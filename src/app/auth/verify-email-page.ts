@@ -1,4 +1,4 @@
-import { Component, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, effect, inject, input, signal, untracked } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { RouterLink } from '@angular/router';
 import { AuthService } from '../core/auth/auth-service';
@@ -16,7 +16,8 @@ type Outcome =
  * replaced from here by a signed-in user.
  */
 @Component({
-  selector: 'app-verify-email-page',
+  selector: 'rw-verify-email-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatButtonModule, RouterLink],
   templateUrl: './verify-email-page.html',
 })

@@ -1,3 +1,4 @@
+import { formatNum } from '../core/format/num';
 /**
  * Plain inputs of the chart components. Charts know nothing about the
  * solver: a screen turns its results into series with units and hands them
@@ -55,7 +56,5 @@ export type MarkerShape = (typeof SERIES_MARKERS)[number];
 
 /** Numbers for tables and CSV: enough digits for engineering use, no float noise. */
 export function formatNumber(value: number, significant = 6): string {
-  if (!Number.isFinite(value)) return '';
-  if (value === 0) return '0';
-  return String(Number(value.toPrecision(significant)));
+  return formatNum(value, { sig: significant, missing: '' });
 }

@@ -11,6 +11,7 @@ import {
   SERIES_MARKERS,
 } from './chart-types';
 import { ChartData } from './chart-data';
+import { boxesOverlap, CHART_FONT, TextBox, textWidth, valueAxisText } from './chart-text';
 import { toCsv } from './csv';
 import { seriesTable, tableCells } from './series-table';
 
@@ -85,8 +86,15 @@ export class LineChart {
   protected readonly id = `rw-line-chart-${nextChartId++}`;
   protected readonly margin = MARGIN;
 
-  protected readonly plotWidth = computed(() => this.width() - MARGIN.left - MARGIN.right);
   protected readonly plotHeight = computed(() => this.height() - MARGIN.top - MARGIN.bottom);
+
+  /** The y axis' title lines and the left margin they and the tick labels take. */
+  protected readonly yAxisText = computed(() =>
+    valueAxisText(this.yTitle(), this.plotHeight(), this.yTicks().map((t) => t.label), MARGIN.left),
+  );
+  protected readonly left = computed(() => this.yAxisText().left);
+
+  protected readonly plotWidth = computed(() => this.width() - this.left() - MARGIN.right);
 
   private readonly xScale = computed(() => {
     const xs = this.series().flatMap((s) => s.points.map((p) => p.x));
@@ -103,10 +111,21 @@ export class LineChart {
       .range([this.plotHeight(), 0]);
   });
 
+  /** x ticks: fewer when their labels would come closer than a gap. */
   protected readonly xTicks = computed<Tick[]>(() => {
     const scale = this.xScale();
-    const format = scale.tickFormat(6);
-    return scale.ticks(6).map((t) => ({ position: scale(t), label: format(t) }));
+    for (const count of [6, 4, 2]) {
+      const format = scale.tickFormat(count);
+      const ticks = scale.ticks(count).map((t) => ({ position: scale(t), label: format(t) }));
+      const fits = ticks.every(
+        (t, i) =>
+          i === 0 ||
+          t.position - ticks[i - 1]!.position >=
+            (textWidth(t.label, CHART_FONT.tick) + textWidth(ticks[i - 1]!.label, CHART_FONT.tick)) / 2 + 6,
+      );
+      if (fits || count === 2) return ticks;
+    }
+    return [];
   });
 
   protected readonly yTicks = computed<Tick[]>(() => {
@@ -151,9 +170,35 @@ export class LineChart {
     });
   });
 
-  protected readonly drawnMarks = computed(() =>
-    this.marks().map((m) => ({ ...m, cx: this.xScale()(m.x), cy: this.yScale()(m.y) })),
-  );
+  /**
+   * Marks with their labels placed beside them where no other label is:
+   * above right, below right, above left or below left, in that order.
+   */
+  protected readonly drawnMarks = computed(() => {
+    const font = CHART_FONT.title;
+    const placed: TextBox[] = [];
+    return this.marks().map((m) => {
+      const cx = this.xScale()(m.x);
+      const cy = this.yScale()(m.y);
+      const w = textWidth(m.label, font);
+      const candidates = [
+        { x: cx + 10, y: cy - 8, anchor: 'start' },
+        { x: cx + 10, y: cy + 8 + font, anchor: 'start' },
+        { x: cx - 10, y: cy - 8, anchor: 'end' },
+        { x: cx - 10, y: cy + 8 + font, anchor: 'end' },
+      ] as const;
+      const boxOf = (c: (typeof candidates)[number]): TextBox => ({
+        x: c.anchor === 'start' ? c.x : c.x - w,
+        y: c.y - font,
+        width: w,
+        height: font * 1.25,
+      });
+      const inside = (b: TextBox) => b.x >= -4 && b.x + b.width <= this.plotWidth() + MARGIN.right && b.y >= -MARGIN.top && b.y + b.height <= this.plotHeight();
+      const chosen = candidates.find((c) => inside(boxOf(c)) && !placed.some((p) => boxesOverlap(p, boxOf(c)))) ?? candidates[0];
+      placed.push(boxOf(chosen));
+      return { ...m, cx, cy, lx: chosen.x, ly: chosen.y, anchor: chosen.anchor };
+    });
+  });
 
   protected readonly xTitle = computed(() => axisTitle(this.x()));
   protected readonly yTitle = computed(() => axisTitle(this.y()));

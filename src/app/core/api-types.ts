@@ -6,83 +6,17 @@
 // Roles, permissions and the matrix: one copy, shared with the server.
 export { PERMISSIONS, ROLE_PERMISSIONS, ROLES } from '../../../shared/schema/roles';
 export type { Permission, Role } from '../../../shared/schema/roles';
-import type { Permission, Role } from '../../../shared/schema/roles';
+import type { Role } from '../../../shared/schema/roles';
 
-export type DisplayUnits = 'si' | 'imperial';
-
-export interface User {
-  readonly id: string;
-  readonly email: string;
-  readonly displayName: string;
-  readonly displayUnits: DisplayUnits;
-  /** The address was confirmed (verification link, invitation or password reset). */
-  readonly emailVerified?: boolean;
-  /** May create programmes (an account property, not a team role). */
-  readonly instructor?: boolean;
-}
-
-export interface Membership {
-  readonly teamId: string;
-  readonly teamName: string;
-  readonly teamSlug: string;
-  readonly roles: readonly Role[];
-}
-
-/** `GET /api/auth/me`, also returned by sign-in, register and profile updates. */
-export interface Me {
-  readonly user: User;
-  readonly memberships: readonly Membership[];
-}
-
-/** `GET /api/teams` rows. */
-export interface TeamSummary {
-  readonly id: string;
-  readonly name: string;
-  readonly slug: string;
-  readonly roles: readonly Role[];
-}
-
-/** `GET /api/teams/:teamId`: the caller's own roles and permissions. */
-export interface TeamDetail extends TeamSummary {
-  readonly permissions: readonly Permission[];
-}
-
-export interface TeamMember {
-  readonly userId: string;
-  readonly email: string;
-  readonly displayName: string;
-  readonly roles: readonly Role[];
-}
-
-/** `POST /api/teams/:teamId/invitations` answer and `GET …/invitations` rows (the list adds who invited, and when). */
-export interface TeamInvitation {
-  readonly id: string;
-  readonly email: string;
-  readonly roles: readonly Role[];
-  readonly expiresAt: string;
-  readonly acceptedAt: string | null;
-  readonly invitedByName?: string | null;
-  readonly createdAt?: string;
-}
+// The answers' types are the server's (shared/api/accounts.ts, teams.ts).
+export type { DisplayUnits, Me, Membership, User } from '../../../shared/api/accounts';
+export type { TeamDetail, TeamInvitation, TeamMember, TeamSummary } from '../../../shared/api/teams';
 
 /** `GET /api/teams/:teamId/vehicles` rows. */
-export interface VehicleSummary {
-  readonly id: string;
-  readonly name: string;
-  readonly archived: boolean;
-  readonly revision: number;
-  readonly updatedAt: string;
-  readonly updatedByName: string | null;
-}
+export type { VehicleSummary } from '../../../shared/api/documents';
 
-/** The one error shape of the API. */
-export interface ApiErrorBody {
-  readonly error: {
-    readonly code: string;
-    readonly message: string;
-    readonly details?: unknown;
-  };
-}
+/** The one error shape of the API (the server's, shared/api/common.ts). */
+export type { ApiErrorBody } from '../../../shared/api/common';
 
 /** What each role is for, in plain words (shown beside the role choices). */
 export const ROLE_DESCRIPTIONS: Readonly<Record<Role, string>> = {

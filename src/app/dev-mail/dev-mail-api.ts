@@ -2,19 +2,13 @@ import { HttpClient, HttpContext, HttpErrorResponse } from '@angular/common/http
 import { inject, Injectable, signal } from '@angular/core';
 import { Observable } from 'rxjs';
 import { SHOW_ERRORS_INLINE } from '../core/http/api-error';
+import type { CapturedMail } from '../../../shared/api/accounts';
+
+// The answer's type is the server's (shared/api/accounts.ts).
+export type { CapturedMail } from '../../../shared/api/accounts';
 
 const INLINE = { context: new HttpContext().set(SHOW_ERRORS_INLINE, true) };
 
-/** `GET /api/dev/mail` rows: what the local fake SMTP server captured for the signed-in person. */
-export interface CapturedMail {
-  readonly id: string;
-  readonly messageId: string;
-  readonly from: string;
-  readonly to: readonly string[];
-  readonly subject: string;
-  readonly text: string;
-  readonly receivedAt: string;
-}
 
 const DEV_MAIL_PATH = '/api/dev/mail';
 

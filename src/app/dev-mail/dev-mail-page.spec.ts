@@ -3,6 +3,7 @@ import { TestBed } from '@angular/core/testing';
 import { fakeNotifier, FakeNotifier, shellTestProviders } from '../../testing/shell-testing';
 import { CapturedMail, DevMailApi } from './dev-mail-api';
 import { DevMailPage } from './dev-mail-page';
+import { settle } from '../../testing/settle';
 
 const RESET: CapturedMail = {
   id: 'm2',
@@ -40,14 +41,14 @@ describe('DevMailPage', () => {
 
   async function render() {
     const fixture = TestBed.createComponent(DevMailPage);
-    await fixture.whenStable();
+    await settle();
     return { fixture, root: fixture.nativeElement as HTMLElement };
   }
 
   it('lists the captured mail newest first with time, recipients, subject and body, links clickable', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     backend.expectOne({ method: 'GET', url: '/api/dev/mail' }).flush([RESET, INVITE]);
-    await fixture.whenStable();
+    await settle();
     const items = [...root.querySelectorAll('li.mail')];
     expect(items.map((i) => i.querySelector('h2')?.textContent?.trim())).toEqual([
       'Reset your Rollwise password',
@@ -64,24 +65,24 @@ describe('DevMailPage', () => {
   });
 
   it('says when nothing was captured, and fetches again on Refresh', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     backend.expectOne('/api/dev/mail').flush([]);
-    await fixture.whenStable();
+    await settle();
     expect(root.querySelector('[role="status"]')?.textContent?.trim()).toBe('No mail captured yet.');
     [...root.querySelectorAll('button')].find((b) => b.textContent?.includes('Refresh'))!.click();
-    await fixture.whenStable();
+    await settle();
     backend.expectOne('/api/dev/mail').flush([INVITE]);
-    await fixture.whenStable();
+    await settle();
     expect(root.querySelectorAll('li.mail').length).toBe(1);
   });
 
   it('shows a refusal on the page, not in a snackbar', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     backend.expectOne('/api/dev/mail').flush(
       { error: { code: 'not_found', message: 'No such route: GET /api/dev/mail' } },
       { status: 404, statusText: 'Not Found' },
     );
-    await fixture.whenStable();
+    await settle();
     expect(root.querySelector('[role="alert"]')?.textContent?.trim()).toBe('No such route: GET /api/dev/mail');
     expect(notifier.error).not.toHaveBeenCalled();
   });

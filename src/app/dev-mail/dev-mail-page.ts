@@ -1,13 +1,12 @@
-import { DatePipe } from '@angular/common';
-import { Component, computed, inject } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { BehaviorSubject, switchMap } from 'rxjs';
-import { LoadState, toLoadState } from '../core/http/load-state';
+import { loadState } from '../core/http/load-state';
 import { AuthService } from '../core/auth/auth-service';
 import { CapturedMail, DevMailApi } from './dev-mail-api';
 import { MailSegment, splitMailLinks } from './mail-links';
+import { LocalTimePipe } from '../core/time/local-time';
 
 interface ShownMail extends CapturedMail {
   readonly segments: readonly MailSegment[];
@@ -20,8 +19,9 @@ interface ShownMail extends CapturedMail {
  * confirmation or invitation link reaches anyone but its addressee.
  */
 @Component({
-  selector: 'app-dev-mail-page',
-  imports: [DatePipe, MatButtonModule, MatIconModule],
+  selector: 'rw-dev-mail-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [LocalTimePipe, MatButtonModule, MatIconModule],
   templateUrl: './dev-mail-page.html',
   styleUrl: './dev-mail-page.scss',
 })
@@ -29,11 +29,8 @@ export class DevMailPage {
   private readonly api = inject(DevMailApi);
   protected readonly auth = inject(AuthService);
 
-  private readonly reload$ = new BehaviorSubject<void>(undefined);
-  protected readonly state = toSignal(
-    this.reload$.pipe(switchMap(() => toLoadState(this.api.list()))),
-    { initialValue: { status: 'loading' } as LoadState<CapturedMail[]> },
-  );
+  private readonly inbox = rxResource({ stream: () => this.api.list() });
+  protected readonly state = loadState(this.inbox);
 
   protected readonly mails = computed<readonly ShownMail[]>(() => {
     const state = this.state();
@@ -43,6 +40,8 @@ export class DevMailPage {
   });
 
   protected refresh(): void {
-    this.reload$.next();
+    // The list goes while the inbox is read again: what shows afterwards is the inbox now.
+    this.inbox.set(undefined);
+    this.inbox.reload();
   }
 }

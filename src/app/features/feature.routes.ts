@@ -61,6 +61,12 @@ export const FEATURE_ROUTES: Routes = [
     loadComponent: () => import('./studies/study-page').then((m) => m.StudyPage),
   },
   {
+    // The configuration review record, laid out for filing (print and PDF).
+    path: 'configurations/:configurationId/record',
+    title: 'Review record · Rollwise',
+    loadComponent: () => import('./report/review-record-page').then((m) => m.ReviewRecordPage),
+  },
+  {
     // The page review mail links to (PUBLIC_URL/teams/:teamId/configurations/:id).
     path: 'configurations/:configurationId',
     title: 'Configuration · Rollwise',

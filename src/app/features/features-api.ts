@@ -2,67 +2,14 @@ import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 import type { Corner } from '../../../shared/schema/corner';
+import type { AxleDesign, AxleDesignSummary, Proposal, VehicleRecord } from '../../../shared/api/documents';
+import type { RevisionRow } from '../../../shared/api/common';
 import { SHOW_ERRORS_INLINE } from '../core/http/api-error';
 
-export type AxleName = 'front' | 'rear';
-
-/** `GET /api/teams/:teamId/axle-designs/:designId`. */
-export interface AxleDesign {
-  readonly id: string;
-  readonly vehicleId: string;
-  readonly axle: AxleName;
-  readonly name: string;
-  readonly revision: number;
-  readonly status: string;
-  readonly corner: Corner;
-  readonly updatedAt: string;
-  readonly updatedByName: string | null;
-}
-
-/** `GET /api/teams/:teamId/vehicles/:vehicleId/axle-designs` rows. */
-export interface AxleDesignSummary {
-  readonly id: string;
-  readonly axle: AxleName;
-  readonly name: string;
-  readonly revision: number;
-  readonly status: string;
-  readonly updatedAt: string;
-}
-
-/** A revision history row (vehicles and axle designs). */
-export interface RevisionRow {
-  readonly revision: number;
-  readonly message: string | null;
-  readonly authorName: string | null;
-  readonly createdAt: string;
-}
-
-/** `GET /api/teams/:teamId/vehicles/:vehicleId`. */
-export interface VehicleRecord {
-  readonly id: string;
-  readonly name: string;
-  readonly archived: boolean;
-  readonly revision: number;
-  readonly data: unknown;
-  readonly updatedAt: string;
-  readonly updatedByName: string | null;
-}
-
-/** A geometry proposal on an axle design (engineer proposes, designer accepts). */
-export interface Proposal {
-  readonly id: string;
-  readonly designId: string;
-  readonly baseRevision: number;
-  readonly status: 'open' | 'accepted' | 'rejected' | 'withdrawn' | string;
-  readonly message: string | null;
-  readonly origin: unknown;
-  readonly authorName: string | null;
-  readonly createdAt: string;
-  readonly decidedByName: string | null;
-  readonly decidedAt: string | null;
-  readonly acceptedRevision: number | null;
-  readonly corner?: Corner;
-}
+/** The response types are the server's own (shared/api): docs/api.md, "Vehicles" and "Axle designs". */
+export type { AxleDesign, AxleDesignSummary, Proposal, VehicleRecord } from '../../../shared/api/documents';
+export type { AxleName } from '../../../shared/schema/axle';
+export type { RevisionRow } from '../../../shared/api/common';
 
 const inline = () => ({ context: new HttpContext().set(SHOW_ERRORS_INLINE, true) });
 

@@ -1,10 +1,9 @@
-import { ActivatedRoute } from '@angular/router';
-
-/** A path parameter of this route or any parent (`teamId` is set two levels up). */
-export function routeParam(route: ActivatedRoute, name: string): string {
-  for (let r: ActivatedRoute | null = route; r; r = r.parent) {
-    const v = r.snapshot.paramMap.get(name);
-    if (v !== null) return v;
-  }
-  return '';
+/**
+ * Names the route inputs an effect reloads on: `routeKey(this.teamId(), this.designId())`
+ * reads them (so the effect runs again when the router reuses the page for other
+ * parameters) and returns them joined. Pages whose loading is not yet a
+ * resource use it; a resource's `params` does the same job.
+ */
+export function routeKey(...params: readonly (string | undefined)[]): string {
+  return params.join('/');
 }

@@ -1,5 +1,4 @@
-import { DatePipe } from '@angular/common';
-import { Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -18,6 +17,7 @@ import { NewPasswordFields } from '../core/forms/new-password-fields';
 import { Notifier } from '../core/layout/notifier';
 import { TeamAccess } from '../core/teams/team-access';
 import { InvitationInfo, InvitationsApi } from './invitations-api';
+import { LocalTimePipe } from '../core/time/local-time';
 
 type Loaded =
   | { readonly status: 'loading' }
@@ -41,9 +41,10 @@ const LINK_TITLES: Readonly<Record<string, string>> = {
  * whether the address has an account. Expired, used and tampered links say so.
  */
 @Component({
-  selector: 'app-invitation-page',
+  selector: 'rw-invitation-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [NewPasswordFields, 
-    DatePipe,
+    LocalTimePipe,
     ReactiveFormsModule,
     MatFormFieldModule,
     MatInputModule,

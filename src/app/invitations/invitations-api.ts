@@ -1,28 +1,14 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
-import { Me, Role } from '../core/api-types';
+import type { AcceptedInvitation, InvitationInfo } from '../../../shared/api/teams';
 import { SHOW_ERRORS_INLINE } from '../core/http/api-error';
 
 /** The invitation page explains every refusal itself. */
 const INLINE = { context: new HttpContext().set(SHOW_ERRORS_INLINE, true) };
 
-/** `GET /api/invitations/:token`: what the invitation offers. Reading it never accepts. */
-export interface InvitationInfo {
-  readonly teamId: string;
-  readonly teamName: string;
-  /** The invited address (lower-case). */
-  readonly email: string;
-  readonly roles: readonly Role[];
-  readonly invitedByName: string | null;
-  readonly expiresAt: string;
-}
-
-/** `POST /api/invitations/:token/accept`. */
-export interface AcceptedInvitation {
-  readonly teamId: string;
-  readonly me: Me;
-}
+// The answers' types are the server's (shared/api/teams.ts).
+export type { AcceptedInvitation, InvitationInfo } from '../../../shared/api/teams';
 
 /** A new person's account, created by accepting. */
 export interface InvitationRegistration {

@@ -18,7 +18,7 @@ describe('board figures', () => {
   });
 
   it('names statuses and track profiles in words', () => {
-    expect(statusWords('changes_requested')).toBe('Changes requested');
+    expect(statusWords('changes_requested')).toBe('Returned for rework');
     expect(statusWords('something_new')).toBe('something_new');
     expect(profileLabel('bumpy-circuit')).toBe('Bumpy circuit');
   });

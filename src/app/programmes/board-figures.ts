@@ -1,17 +1,38 @@
-import { trackProfiles, type TrackProfileId } from '../../../shared/intent/profiles';
+import { trackProfiles, type TrackProfileId } from '../../../shared/tracks/profiles';
 import type { ConfigurationStatus } from '../features/configurations/configurations-api';
 import { STATUS_WORDS } from '../features/configurations/review-words';
 import type { BoardRow, KeyFigures } from './programmes-api';
+import { formatNum } from '../core/format/num';
+import { displayDecimals, inDisplayUnits, type QuantityKind, unitLabel } from '../core/format/quantities';
+import type { DisplayUnits } from '../core/api-types';
 
-/** The key figures of the board, in the order shown, with units and shown digits. */
-export const BOARD_FIGURES: readonly { key: keyof KeyFigures; label: string; unit: string; digits: number }[] = [
-  { key: 'rollSteerFront', label: 'ε front', unit: 'deg/deg', digits: 3 },
-  { key: 'rollSteerRear', label: 'ε rear', unit: 'deg/deg', digits: 3 },
-  { key: 'rollSteerUndersteerDegPerG', label: 'Roll-steer understeer', unit: 'deg/g', digits: 3 },
-  { key: 'understeerGradientDegPerG', label: 'Understeer gradient', unit: 'deg/g', digits: 3 },
-  { key: 'bumpSteerFrontDegPerM', label: 'Bump steer front', unit: 'deg/m', digits: 2 },
-  { key: 'bumpSteerRearDegPerM', label: 'Bump steer rear', unit: 'deg/m', digits: 2 },
+export interface BoardFigure {
+  readonly key: keyof KeyFigures;
+  readonly label: string;
+  /** What it measures: the stored unit and the user's (unitLabel). */
+  readonly kind: QuantityKind;
+  /** Decimals shown in the stored unit (displayDecimals gives them in the user's system). */
+  readonly digits: number;
+}
+
+/** The key figures of the board, in the order shown, with what they measure and shown digits. */
+export const BOARD_FIGURES: readonly BoardFigure[] = [
+  { key: 'rollSteerFront', label: 'ε front', kind: 'rollSteer', digits: 3 },
+  { key: 'rollSteerRear', label: 'ε rear', kind: 'rollSteer', digits: 3 },
+  { key: 'rollSteerUndersteerDegPerG', label: 'Roll-steer understeer', kind: 'understeerGradient', digits: 3 },
+  { key: 'understeerGradientDegPerG', label: 'Understeer gradient', kind: 'understeerGradient', digits: 3 },
+  { key: 'bumpSteerFrontDegPerM', label: 'Bump steer front', kind: 'bumpSteer', digits: 2 },
+  { key: 'bumpSteerRearDegPerM', label: 'Bump steer rear', kind: 'bumpSteer', digits: 2 },
 ];
+
+/** A board figure's stored value in the user's unit system, with its unit and decimals there. */
+export function boardFigureIn(f: BoardFigure, units: DisplayUnits): { unit: string; digits: number; convert: (v: number | null | undefined) => number | null } {
+  return {
+    unit: unitLabel(f.kind, units),
+    digits: displayDecimals(f.kind, units, f.digits),
+    convert: (v) => (v === null || v === undefined ? null : inDisplayUnits(v, f.kind, units)),
+  };
+}
 
 /** A configuration's review status in words (the configuration screens' own words). */
 export function statusWords(status: string): string {
@@ -25,7 +46,7 @@ export function profileLabel(id: string): string {
 /** A figure to `digits` decimals with a real minus sign; a dash when missing. */
 export function formatFigure(value: number | null | undefined, digits: number): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return '—';
-  const text = Math.abs(value).toFixed(digits);
+  const text = formatNum(Math.abs(value), { decimals: digits });
   return (value < 0 && Number(text) !== 0 ? '−' : '') + text;
 }
 

@@ -1,8 +1,10 @@
-import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
+import { DISPLAY_UNITS } from '../core/format/num-pipe';
 import { RouterLink } from '@angular/router';
 import { formatLocalTime } from '../core/time/local-time';
 import {
   BOARD_FIGURES,
+  boardFigureIn,
   formatChange,
   formatFigure,
   latestError,
@@ -30,7 +32,7 @@ interface ShownRow {
  * an instructor holds none in the team).
  */
 @Component({
-  selector: 'app-board-table',
+  selector: 'rw-board-table',
   imports: [RouterLink],
   templateUrl: './board-table.html',
   styleUrl: './board-table.scss',
@@ -42,7 +44,9 @@ export class BoardTable {
   /** Caption words, e.g. "Board now" or the snapshot's label. */
   readonly caption = input('Programme board');
 
-  protected readonly figures = BOARD_FIGURES;
+  /** The user's unit system (account setting): bump steer in deg/m or deg/in. */
+  private readonly units = inject(DISPLAY_UNITS);
+  protected readonly figures = computed(() => BOARD_FIGURES.map((f) => ({ ...f, ...boardFigureIn(f, this.units()) })));
   protected readonly profile = computed(() => profileLabel(this.board().trackProfile));
   protected readonly rows = computed<ShownRow[]>(() =>
     this.board().rows.map((row) => ({
@@ -54,7 +58,7 @@ export class BoardTable {
     })),
   );
 
-  protected readonly fmt = formatFigure;
+  protected readonly figure = formatFigure;
   protected readonly change = formatChange;
   protected readonly statusWords = statusWords;
   protected readonly profileLabel = profileLabel;

@@ -1,5 +1,5 @@
-import { Component, computed, inject, signal } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -8,19 +8,19 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSelectModule } from '@angular/material/select';
 import { Router, RouterLink } from '@angular/router';
-import { combineLatest, EMPTY, switchMap } from 'rxjs';
-import { trackProfiles, type TrackProfileId } from '../../../shared/intent/profiles';
+import { trackProfiles, type TrackProfileId } from '../../../shared/tracks/profiles';
 import { formatLocalTime, browserTimeZone } from '../core/time/local-time';
 import { AuthService } from '../core/auth/auth-service';
 import { apiProblem } from '../core/http/api-error';
-import { LoadState, toLoadState } from '../core/http/load-state';
+import { loadState } from '../core/http/load-state';
 import { Notifier } from '../core/layout/notifier';
 import { profileLabel } from './board-figures';
-import { Programme, ProgrammesApi } from './programmes-api';
+import { ProgrammesApi } from './programmes-api';
 
 /** `/programmes`: an instructor's programmes, and a form to start one. */
 @Component({
-  selector: 'app-programme-list-page',
+  selector: 'rw-programme-list-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     ReactiveFormsModule,
     RouterLink,
@@ -44,8 +44,12 @@ export class ProgrammeListPage {
   protected readonly profiles = Object.values(trackProfiles);
   protected readonly profileLabel = profileLabel;
   protected readonly timeZone = browserTimeZone();
-  protected readonly state = signal<LoadState<Programme[]>>({ status: 'loading' });
-  private readonly reloads = signal(0);
+  // Only instructors have programmes; nobody else is sent asking.
+  private readonly programmes = rxResource({
+    params: () => (this.instructor() ? true : undefined),
+    stream: () => this.api.list(),
+  });
+  protected readonly state = loadState(this.programmes);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     name: ['', [Validators.required, Validators.maxLength(120)]],
@@ -54,18 +58,8 @@ export class ProgrammeListPage {
   protected readonly creating = signal(false);
   protected readonly failure = signal<string | null>(null);
 
-  constructor() {
-    // Only instructors have programmes; nobody else is sent asking.
-    combineLatest([toObservable(this.instructor), toObservable(this.reloads)])
-      .pipe(
-        switchMap(([instructor]) => (instructor ? toLoadState(this.api.list()) : EMPTY)),
-        takeUntilDestroyed(),
-      )
-      .subscribe((s) => this.state.set(s));
-  }
-
   protected reload(): void {
-    this.reloads.update((n) => n + 1);
+    this.programmes.reload();
   }
 
   protected local(iso: string): string {

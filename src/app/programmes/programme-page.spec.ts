@@ -70,6 +70,9 @@ describe('ProgrammePage', () => {
     backend.expectOne('/api/programmes/p1/board').flush(board);
     backend.expectOne('/api/programmes/p1/snapshots').flush([{ id: 's1', label: 'Deadline week 6', takenAt: '2026-10-10T17:00:00.000Z' }]);
     await fixture.whenStable();
+    // The attached-studies section (features/studies/programme-studies.ts) asks for its own rows.
+    for (const r of backend.match('/api/programmes/p1/studies')) r.flush({ programmeId: 'p1', teams: [] });
+    await fixture.whenStable();
     const root = fixture.nativeElement as HTMLElement;
     const group = (name: string) => [...root.querySelectorAll<HTMLElement>('tbody.config')].find((g) => g.textContent?.includes(name))!;
     const cells = (tr: Element | null) => [...(tr?.querySelectorAll('td') ?? [])].map((td) => td.textContent?.trim());
@@ -89,7 +92,7 @@ describe('ProgrammePage', () => {
     const { root, group, cells } = await render();
     expect(root.querySelector('rw-safety-caution')?.textContent).toContain(SAFETY_CAUTION_TEXT);
     const ember = group('Ember for the study');
-    expect(ember.querySelector('.status')?.textContent?.trim()).toBe('Approved');
+    expect(ember.querySelector('.status')?.textContent?.trim()).toBe('Signed off');
     // The name opens the configuration in its team (read only for the instructor).
     expect(ember.querySelector('a.config-link')?.getAttribute('href')).toBe('/teams/t-tal/configurations/c1');
     expect(ember.querySelector('tr.latest th.kind')?.textContent).toContain('Latest · rev 2');
@@ -110,10 +113,12 @@ describe('ProgrammePage', () => {
 
   it('has no edit controls for the teams’ data: only invite, refresh and snapshot', async () => {
     const { root } = await render();
-    const buttons = [...root.querySelectorAll('button')].map((b) => b.textContent?.trim());
+    const buttons = [...root.querySelectorAll('button')].filter((b) => !b.closest('rw-section-nav')).map((b) => b.textContent?.trim());
     expect(buttons).toEqual(['group_add Invite team', 'refresh Refresh board', 'photo_camera Take snapshot']);
-    expect(root.querySelectorAll('app-board-table input, app-board-table button, app-board-table select')).toHaveLength(0);
-    expect([...root.querySelectorAll('app-board-table a')].every((a) => /^\/teams\/[^/]+\/configurations\/[^/]+$/.test(a.getAttribute('href')!))).toBe(true);
+    // The long page has its list of sections (buttons that only move within the page).
+    expect([...root.querySelectorAll('rw-section-nav button')].map((b) => b.textContent?.trim())).toEqual(['Teams', 'Board', 'Attached studies', 'Snapshots']);
+    expect(root.querySelectorAll('rw-board-table input, rw-board-table button, rw-board-table select')).toHaveLength(0);
+    expect([...root.querySelectorAll('rw-board-table a')].every((a) => /^\/teams\/[^/]+\/configurations\/[^/]+$/.test(a.getAttribute('href')!))).toBe(true);
   });
 
   it('explains an empty board', async () => {

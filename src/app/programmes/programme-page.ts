@@ -1,4 +1,5 @@
-import { Component, computed, inject, input, signal, WritableSignal } from '@angular/core';
+import { ProgrammeStudies } from '../features/studies/programme-studies';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal, WritableSignal } from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -16,6 +17,7 @@ import { SafetyCaution } from '../features/safety-caution';
 import { BoardTable } from './board-table';
 import { profileLabel } from './board-figures';
 import { Board, ProgrammeDetail, ProgrammesApi, ProgrammeTeamStatus, SnapshotSummary } from './programmes-api';
+import { PageSection, SectionNav } from '../core/layout/section-nav';
 
 /** A reload keeps what is shown until the new answer arrives (the forms below it stay put). */
 function keepShown<T>(target: WritableSignal<LoadState<T>>, next: LoadState<T>): void {
@@ -36,7 +38,8 @@ const TEAM_STATUS_WORDS: Readonly<Record<ProgrammeTeamStatus, string>> = {
  * instructor only reads the teams: nothing here changes a team's data.
  */
 @Component({
-  selector: 'app-programme-page',
+  selector: 'rw-programme-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     ReactiveFormsModule,
     RouterLink,
@@ -47,11 +50,21 @@ const TEAM_STATUS_WORDS: Readonly<Record<ProgrammeTeamStatus, string>> = {
     MatProgressSpinnerModule,
     SafetyCaution,
     BoardTable,
+    ProgrammeStudies,
+    SectionNav,
   ],
   templateUrl: './programme-page.html',
   styleUrl: './programme-page.scss',
 })
 export class ProgrammePage {
+  /** "On this page": the programme's sections, in order. */
+  protected readonly sections: readonly PageSection[] = [
+    { id: 'teams-heading', label: 'Teams' },
+    { id: 'board-heading', label: 'Board' },
+    { id: 'programme-studies-heading', label: 'Attached studies' },
+    { id: 'snapshots-heading', label: 'Snapshots' },
+  ];
+
   /** Bound from the route parameter. */
   readonly programmeId = input.required<string>();
 

@@ -1,98 +1,26 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
-import type { TrackProfileId } from '../../../shared/intent/profiles';
+import type { TrackProfileId } from '../../../shared/tracks/profiles';
 import { SHOW_ERRORS_INLINE } from '../core/http/api-error';
+import type { Board, Programme, ProgrammeDetail, ProgrammeTeam, Snapshot, SnapshotSummary, TeamProgramme } from '../../../shared/api/programmes';
 
 /** For requests made from a form that shows the error beside itself. */
 const INLINE = { context: new HttpContext().set(SHOW_ERRORS_INLINE, true) };
 
-export type ProgrammeTeamStatus = 'invited' | 'accepted' | 'declined';
-
-/** `GET /api/programmes` rows and `POST /api/programmes` (docs/api.md, "Programmes"). */
-export interface Programme {
-  readonly id: string;
-  readonly name: string;
-  readonly trackProfile: TrackProfileId;
-  readonly instructorId: string;
-  readonly createdAt: string;
-}
-
-export interface ProgrammeTeam {
-  readonly teamId: string;
-  readonly teamName: string;
-  readonly teamSlug: string;
-  readonly status: ProgrammeTeamStatus;
-  readonly invitedAt: string;
-  readonly decidedAt: string | null;
-}
-
-export interface ProgrammeDetail extends Programme {
-  readonly teams: readonly ProgrammeTeam[];
-}
-
-/** Key figures of one configuration (server/services/programmes.ts `KeyFigures`). */
-export interface KeyFigures {
-  /** ε per axle, deg/deg. */
-  readonly rollSteerFront: number | null;
-  readonly rollSteerRear: number | null;
-  /** Roll-steer term of the understeer budget: the understeer-gradient change roll steer makes, deg/g. */
-  readonly rollSteerUndersteerDegPerG: number | null;
-  readonly understeerGradientDegPerG: number | null;
-  /** Bump steer over the profile's travel, deg/m. */
-  readonly bumpSteerFrontDegPerM: number | null;
-  readonly bumpSteerRearDegPerM: number | null;
-}
-
-export type BoardLatest =
-  | { readonly revision: number; readonly trackProfile: string; readonly figures: KeyFigures }
-  | { readonly revision: number; readonly error: string };
-
-export interface BoardApproved {
-  readonly revision: number;
-  readonly approvedAt: string;
-  readonly engineVersion: string;
-  readonly trackProfile: string;
-  readonly figures: KeyFigures;
-}
-
-export interface BoardRow {
-  readonly teamId: string;
-  readonly teamName: string;
-  readonly configurationId: string;
-  readonly configurationName: string;
-  readonly status: string;
-  readonly latest: BoardLatest;
-  readonly approved: BoardApproved | null;
-}
-
-export interface Board {
-  readonly programmeId: string;
-  readonly trackProfile: string;
-  readonly engineVersion: string;
-  readonly rows: readonly BoardRow[];
-}
-
-export interface SnapshotSummary {
-  readonly id: string;
-  readonly label: string | null;
-  readonly takenAt: string;
-}
-
-export interface Snapshot extends SnapshotSummary {
-  readonly programmeId: string;
-  readonly board: Board;
-}
-
-/** `GET /api/teams/:teamId/programmes` rows (the team owner's view). */
-export interface TeamProgramme {
-  readonly programmeId: string;
-  readonly name: string;
-  readonly instructorName: string | null;
-  readonly trackProfile: TrackProfileId;
-  readonly status: ProgrammeTeamStatus;
-  readonly invitedAt: string;
-}
+// The answers' types are the server's (shared/api/programmes.ts).
+export type {
+  Board,
+  BoardRow,
+  KeyFigures,
+  Programme,
+  ProgrammeDetail,
+  ProgrammeTeam,
+  ProgrammeTeamStatus,
+  Snapshot,
+  SnapshotSummary,
+  TeamProgramme,
+} from '../../../shared/api/programmes';
 
 const base = '/api/programmes';
 const one = (id: string) => `${base}/${encodeURIComponent(id)}`;

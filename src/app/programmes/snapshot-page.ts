@@ -1,19 +1,19 @@
-import { Component, inject, input, signal } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
-import { combineLatest, switchMap } from 'rxjs';
 import { browserTimeZone, formatLocalTime } from '../core/time/local-time';
-import { LoadState, toLoadState } from '../core/http/load-state';
+import { loadState } from '../core/http/load-state';
 import { SafetyCaution } from '../features/safety-caution';
 import { BoardTable } from './board-table';
-import { ProgrammesApi, Snapshot } from './programmes-api';
+import { ProgrammesApi } from './programmes-api';
 
 /** `/programmes/:programmeId/snapshots/:snapshotId`: the board as it was frozen, and its CSV. */
 @Component({
-  selector: 'app-snapshot-page',
+  selector: 'rw-snapshot-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [RouterLink, MatButtonModule, MatIconModule, MatProgressSpinnerModule, SafetyCaution, BoardTable],
   template: `
     <section class="rw-page">
@@ -47,7 +47,7 @@ import { ProgrammesApi, Snapshot } from './programmes-api';
         @if (snap.board.rows.length === 0) {
           <div class="rw-state" role="status">The board was empty when this snapshot was taken.</div>
         } @else {
-          <app-board-table [board]="snap.board" [timeZone]="timeZone" [caption]="'Snapshot ' + (snap.label ?? '')" />
+          <rw-board-table [board]="snap.board" [timeZone]="timeZone" [caption]="'Snapshot ' + (snap.label ?? '')" />
         }
       }
     </section>
@@ -64,20 +64,14 @@ export class SnapshotPage {
 
   protected readonly api = inject(ProgrammesApi);
   protected readonly timeZone = browserTimeZone();
-  protected readonly state = signal<LoadState<Snapshot>>({ status: 'loading' });
-  private readonly reloads = signal(0);
-
-  constructor() {
-    combineLatest([toObservable(this.programmeId), toObservable(this.snapshotId), toObservable(this.reloads)])
-      .pipe(
-        switchMap(([p, s]) => toLoadState(this.api.snapshot(p, s))),
-        takeUntilDestroyed(),
-      )
-      .subscribe((s) => this.state.set(s));
-  }
+  private readonly snapshot = rxResource({
+    params: () => ({ programmeId: this.programmeId(), snapshotId: this.snapshotId() }),
+    stream: ({ params: p }) => this.api.snapshot(p.programmeId, p.snapshotId),
+  });
+  protected readonly state = loadState(this.snapshot);
 
   protected reload(): void {
-    this.reloads.update((n) => n + 1);
+    this.snapshot.reload();
   }
 
   protected local(iso: string): string {

@@ -4,6 +4,7 @@ import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { fakeNotifier, FakeNotifier, shellTestProviders } from '../../testing/shell-testing';
 import { TeamProgrammesPage } from './team-programmes-page';
 import { TeamProgramme } from './programmes-api';
+import { settle } from '../../testing/settle';
 
 const LIST: TeamProgramme[] = [
   { programmeId: 'p1', name: 'Autumn roll-steer study', instructorName: 'Iris Calder', trackProfile: 'bumpy-circuit', status: 'invited', invitedAt: '2026-10-01T09:05:00.000Z' },
@@ -27,9 +28,9 @@ describe('TeamProgrammesPage', () => {
   async function render(list: TeamProgramme[] = LIST) {
     const fixture = TestBed.createComponent(TeamProgrammesPage);
     fixture.componentRef.setInput('teamId', 't-tal');
-    await fixture.whenStable();
+    await settle();
     backend.expectOne('/api/teams/t-tal/programmes').flush(list);
-    await fixture.whenStable();
+    await settle();
     return { fixture, root: fixture.nativeElement as HTMLElement };
   }
 
@@ -47,26 +48,26 @@ describe('TeamProgrammesPage', () => {
   });
 
   it('accepts after the owner confirms what the instructor will see', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     root.querySelector<HTMLButtonElement>('[aria-label="Accept Autumn roll-steer study"]')!.click();
-    await fixture.whenStable();
+    await settle();
     expect(document.querySelector('mat-dialog-content')?.textContent).toContain('Iris Calder will be able to read');
     dialogButton('Accept').click();
-    await fixture.whenStable();
+    await settle();
     backend.expectOne({ method: 'POST', url: '/api/teams/t-tal/programmes/p1/accept' }).flush({ status: 'accepted' });
-    await fixture.whenStable();
+    await settle();
     expect(notifier.info).toHaveBeenCalledWith(expect.stringContaining('takes part in "Autumn roll-steer study"'));
     backend.expectOne('/api/teams/t-tal/programmes').flush(LIST.map((p) => ({ ...p, status: 'accepted' as const })));
-    await fixture.whenStable();
+    await settle();
     expect(root.textContent).toContain('No invitation is waiting for an answer.');
   });
 
   it('sends nothing when the owner cancels a decline', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     root.querySelector<HTMLButtonElement>('[aria-label="Decline Autumn roll-steer study"]')!.click();
-    await fixture.whenStable();
+    await settle();
     dialogButton('Cancel').click();
-    await fixture.whenStable();
+    await settle();
     backend.expectNone({ method: 'POST' });
   });
 

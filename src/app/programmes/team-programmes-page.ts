@@ -1,12 +1,11 @@
-import { Component, computed, inject, input, signal } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
-import { combineLatest, switchMap } from 'rxjs';
 import { browserTimeZone, formatLocalTime } from '../core/time/local-time';
-import { LoadState, toLoadState } from '../core/http/load-state';
+import { loadState } from '../core/http/load-state';
 import { confirmAction } from '../core/layout/confirm-dialog';
 import { Notifier } from '../core/layout/notifier';
 import { TeamAccess } from '../core/teams/team-access';
@@ -19,7 +18,8 @@ import { ProgrammesApi, TeamProgramme } from './programmes-api';
  * in. Accepting lets that programme's instructor read the team (never write).
  */
 @Component({
-  selector: 'app-team-programmes-page',
+  selector: 'rw-team-programmes-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatButtonModule, MatIconModule, MatProgressSpinnerModule],
   templateUrl: './team-programmes-page.html',
   styleUrl: './team-programmes-page.scss',
@@ -34,8 +34,9 @@ export class TeamProgrammesPage {
 
   protected readonly timeZone = browserTimeZone();
   protected readonly profileLabel = profileLabel;
-  protected readonly state = signal<LoadState<TeamProgramme[]>>({ status: 'loading' });
-  private readonly reloads = signal(0);
+  // A reload keeps the list shown until the new one arrives.
+  private readonly programmes = rxResource({ params: () => this.teamId(), stream: ({ params: teamId }) => this.api.forTeam(teamId) });
+  protected readonly state = loadState(this.programmes);
   /** The programme whose answer is being sent. */
   protected readonly busy = signal<string | null>(null);
 
@@ -43,25 +44,13 @@ export class TeamProgrammesPage {
   protected readonly taking = computed(() => this.byStatus('accepted'));
   protected readonly declined = computed(() => this.byStatus('declined'));
 
-  constructor() {
-    combineLatest([toObservable(this.teamId), toObservable(this.reloads)])
-      .pipe(
-        switchMap(([teamId]) => toLoadState(this.api.forTeam(teamId))),
-        takeUntilDestroyed(),
-      )
-      .subscribe((s) => {
-        if (s.status === 'loading' && this.state().status === 'ready') return;
-        this.state.set(s);
-      });
-  }
-
   private byStatus(status: TeamProgramme['status']): TeamProgramme[] {
     const s = this.state();
     return s.status === 'ready' ? s.value.filter((p) => p.status === status) : [];
   }
 
   protected reload(): void {
-    this.reloads.update((n) => n + 1);
+    this.programmes.reload();
   }
 
   protected local(iso: string): string {

@@ -1,5 +1,4 @@
-import { DatePipe } from '@angular/common';
-import { Component, computed, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import {
   AbstractControl,
@@ -26,6 +25,7 @@ import { confirmAction } from '../core/layout/confirm-dialog';
 import { TeamAccess } from '../core/teams/team-access';
 import { TeamsApi } from '../core/teams/teams-api';
 import { Notifier } from '../core/layout/notifier';
+import { LocalTimePipe } from '../core/time/local-time';
 
 function atLeastOneRole(control: AbstractControl): ValidationErrors | null {
   const roles = control.value as readonly Role[] | null;
@@ -37,9 +37,10 @@ function atLeastOneRole(control: AbstractControl): ValidationErrors | null {
  * they accept), see open invitations, change members' roles, remove them.
  */
 @Component({
-  selector: 'app-members-page',
+  selector: 'rw-members-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
-    DatePipe,
+    LocalTimePipe,
     ReactiveFormsModule,
     MatButtonModule,
     MatChipsModule,

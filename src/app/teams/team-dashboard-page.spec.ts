@@ -4,6 +4,7 @@ import { fakeNotifier, FakeNotifier, shellTestProviders } from '../../testing/sh
 import { Permission, TeamDetail, VehicleSummary } from '../core/api-types';
 import { TeamAccess } from '../core/teams/team-access';
 import { TeamDashboardPage } from './team-dashboard-page';
+import { settle } from '../../testing/settle';
 
 const VEHICLES: VehicleSummary[] = [
   { id: 'v-ember', name: 'TUR-26 Ember', archived: false, revision: 2, updatedAt: '2026-11-30T09:15:00.000Z', updatedByName: 'Eli Marsh' },
@@ -34,15 +35,15 @@ describe('TeamDashboardPage', () => {
     backend.expectOne('/api/teams/t-tal').flush(detail);
     const fixture = TestBed.createComponent(TeamDashboardPage);
     fixture.componentRef.setInput('teamId', 't-tal');
-    await fixture.whenStable();
+    await settle();
     return { fixture, root: fixture.nativeElement as HTMLElement };
   }
 
   it('shows a loading state, then the vehicles, to a viewer without any command', async () => {
-    const { fixture, root } = await render(team(['viewer'], ['team:read']));
+    const { root } = await render(team(['viewer'], ['team:read']));
     expect(root.querySelector('[role="status"]')?.textContent).toContain('Loading vehicles');
     backend.expectOne('/api/teams/t-tal/vehicles').flush(VEHICLES);
-    await fixture.whenStable();
+    await settle();
     expect([...root.querySelectorAll('a.vehicle-link')].map((a) => a.textContent?.trim())).toEqual([
       'TUR-26 Ember',
       'TUR-25 Cinder',
@@ -53,19 +54,19 @@ describe('TeamDashboardPage', () => {
   });
 
   it('links every member to the team’s configurations and their review', async () => {
-    const { fixture, root } = await render(team(['viewer'], ['team:read']));
+    const { root } = await render(team(['viewer'], ['team:read']));
     backend.expectOne('/api/teams/t-tal/vehicles').flush(VEHICLES);
-    await fixture.whenStable();
+    await settle();
     const link = [...root.querySelectorAll('a')].find((a) => a.textContent?.trim() === 'Configurations and review');
     expect(link?.getAttribute('href')).toBe('/teams/t-tal/configurations');
   });
 
   it('gives an engineer the new-vehicle, rename and archive commands', async () => {
-    const { fixture, root } = await render(
+    const { root } = await render(
       team(['engineer'], ['team:read', 'vehicle:manage', 'vehicle:edit', 'design:propose']),
     );
     backend.expectOne('/api/teams/t-tal/vehicles').flush(VEHICLES);
-    await fixture.whenStable();
+    await settle();
     const buttonTexts = [...root.querySelectorAll('button')].map((b) => b.textContent?.trim());
     expect(buttonTexts.some((t) => t?.includes('New vehicle'))).toBe(true);
     expect(root.querySelector('[aria-label="Rename TUR-26 Ember"]')).not.toBeNull();
@@ -73,29 +74,29 @@ describe('TeamDashboardPage', () => {
   });
 
   it('asks for archived vehicles too when "Show archived" is on', async () => {
-    const { fixture, root } = await render(team(['viewer'], ['team:read']));
+    const { root } = await render(team(['viewer'], ['team:read']));
     backend.expectOne('/api/teams/t-tal/vehicles').flush([]);
-    await fixture.whenStable();
+    await settle();
     expect(root.textContent).toContain('No vehicles in use.');
     root.querySelector<HTMLButtonElement>('mat-slide-toggle button')!.click();
-    await fixture.whenStable();
+    await settle();
     const request = backend.expectOne((r) => r.url === '/api/teams/t-tal/vehicles');
     expect(request.request.params.get('archived')).toBe('true');
     request.flush([]);
   });
 
   it('shows an error state with a retry when the list fails', async () => {
-    const { fixture, root } = await render(team(['viewer'], ['team:read']));
+    const { root } = await render(team(['viewer'], ['team:read']));
     backend.expectOne('/api/teams/t-tal/vehicles').flush(
       { error: { code: 'database_unavailable', message: 'The database is not reachable.' } },
       { status: 503, statusText: 'Service Unavailable' },
     );
-    await fixture.whenStable();
+    await settle();
     expect(root.querySelector('[role="alert"]')?.textContent).toContain('The database is not reachable.');
     [...root.querySelectorAll('button')].find((b) => b.textContent?.includes('Try again'))!.click();
-    await fixture.whenStable();
+    await settle();
     backend.expectOne('/api/teams/t-tal/vehicles').flush(VEHICLES);
-    await fixture.whenStable();
+    await settle();
     expect(root.querySelectorAll('a.vehicle-link').length).toBe(2);
   });
 });

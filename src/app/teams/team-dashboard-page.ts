@@ -1,5 +1,5 @@
-import { Component, computed, inject, input, signal } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -7,9 +7,8 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { RouterLink } from '@angular/router';
-import { combineLatest, switchMap } from 'rxjs';
 import { ROLE_DESCRIPTIONS, VehicleSummary } from '../core/api-types';
-import { LoadState, toLoadState } from '../core/http/load-state';
+import { loadState } from '../core/http/load-state';
 import { confirmAction } from '../core/layout/confirm-dialog';
 import { TeamAccess } from '../core/teams/team-access';
 import { VehicleNameDialog, VehicleNameDialogData } from './vehicle-name-dialog';
@@ -19,7 +18,8 @@ import { Notifier } from '../core/layout/notifier';
 
 /** `/teams/:teamId`: the team's vehicles, with the commands the caller's roles allow. */
 @Component({
-  selector: 'app-team-dashboard-page',
+  selector: 'rw-team-dashboard-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     FormsModule,
     MatButtonModule,
@@ -43,23 +43,17 @@ export class TeamDashboardPage {
 
   protected readonly canManage = this.access.permission('vehicle:manage');
   protected readonly showArchived = signal(false);
-  private readonly reloads = signal(0);
-  protected readonly state = signal<LoadState<VehicleSummary[]>>({ status: 'loading' });
+  private readonly vehicles = rxResource({
+    params: () => ({ teamId: this.teamId(), archived: this.showArchived() }),
+    stream: ({ params: p }) => this.api.list(p.teamId, p.archived),
+  });
+  protected readonly state = loadState(this.vehicles);
   protected readonly roleWords = computed(() =>
     (this.access.team()?.roles ?? []).map((role) => ({ role, description: ROLE_DESCRIPTIONS[role] })),
   );
 
-  constructor() {
-    combineLatest([toObservable(this.teamId), toObservable(this.showArchived), toObservable(this.reloads)])
-      .pipe(
-        switchMap(([teamId, archived]) => toLoadState(this.api.list(teamId, archived))),
-        takeUntilDestroyed(),
-      )
-      .subscribe((state) => this.state.set(state));
-  }
-
   protected reload(): void {
-    this.reloads.update((n) => n + 1);
+    this.vehicles.reload();
   }
 
   protected createVehicle(): void {

@@ -1,4 +1,4 @@
-import { Component, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -15,7 +15,8 @@ export const VEHICLE_NAME_MAX_LENGTH = 120;
 
 /** Asks for a vehicle name (new vehicle or rename); closes with the trimmed name. */
 @Component({
-  selector: 'app-vehicle-name-dialog',
+  selector: 'rw-vehicle-name-dialog',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [ReactiveFormsModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatButtonModule],
   template: `
     <h2 mat-dialog-title>{{ data.title }}</h2>

@@ -5,49 +5,19 @@
  * Runs inside the Web Worker (or in the page where no Worker exists).
  */
 import { InputError, SolveError } from '../../../shared/errors';
-import { rollSweep, solvePose, sweepCorner } from '../../../shared/kinematics/index';
-import type { Corner, Vec3 } from '../../../shared/schema/corner';
+import { posedPoints, rollSweep, solvePose, sweepCorner } from '../../../shared/kinematics/index';
+import type { Corner } from '../../../shared/schema/corner';
 import { upgradeVehicleDocument, vehicleSchema, type Vehicle } from '../../../shared/schema/vehicle';
-import { cautionRackPositions, measureCornerCautions } from '../../../shared/intent/corner-cautions';
-import { resolveTrackProfile } from '../../../shared/intent/profiles';
+import { cautionRackPositions, measureCornerCautions } from '../../../shared/cautions/corner-cautions';
+import { resolveTrackProfile } from '../../../shared/tracks/profiles';
 import { complianceBesideRollSteer } from '../../../shared/compliance/compare';
 import type { AnalysisFailure, AnalysisRequest, CautionRequest, CornerAnalysis, CornerCautions, DrawnPose, RackCurve, RollCurve } from './analysis-types';
 
-/** Points carried by the upright (they move as one rigid body with it). */
-const UPRIGHT_POINTS = ['wheelCentre', 'spindle', 'lowerOuter', 'upperOuter', 'tieRodOuter', 'strutLower'];
-
-function posedPoints(request: AnalysisRequest): DrawnPose {
+/** The pose shown in the drawings: the solved pose's outputs and every hardpoint moved with it. */
+function drawnPose(request: AnalysisRequest): DrawnPose {
   const { corner, pose } = request;
   const solved = solvePose(corner, { travelMm: pose.travelMm, rackMm: pose.rackMm });
-  const { c, R } = solved.state;
-  const points = corner.points as Record<string, Vec3>;
-  const wc0 = points['wheelCentre']!;
-  // Upright-fixed point: c + R · (p − wc0), R row-major (the solver's pose state).
-  const onUpright = (p: Vec3): Vec3 => {
-    const d = [p[0] - wc0[0], p[1] - wc0[1], p[2] - wc0[2]];
-    return [
-      c[0] + R[0]! * d[0]! + R[1]! * d[1]! + R[2]! * d[2]!,
-      c[1] + R[3]! * d[0]! + R[4]! * d[1]! + R[5]! * d[2]!,
-      c[2] + R[6]! * d[0]! + R[7]! * d[1]! + R[8]! * d[2]!,
-    ];
-  };
-  const drawn: Record<string, Vec3> = {};
-  for (const [key, p] of Object.entries(points)) {
-    const moves = UPRIGHT_POINTS.includes(key) || /^link[1-5]Outer$/.test(key);
-    drawn[key] = moves ? onUpright(p) : [p[0], p[1], p[2]];
-  }
-  // The rack carries the tie-rod inner point along its axis.
-  const steering = corner.steering;
-  if (steering?.kind === 'rack' && corner.steered && pose.rackMm !== 0) {
-    const a = steering.rackAxis;
-    const n = Math.hypot(a[0], a[1], a[2]);
-    const inner = points['tieRodInner']!;
-    drawn['tieRodInner'] = [
-      inner[0] + (pose.rackMm * a[0]) / n,
-      inner[1] + (pose.rackMm * a[1]) / n,
-      inner[2] + (pose.rackMm * a[2]) / n,
-    ];
-  }
+  const drawn = posedPoints(corner, solved.state);
   return {
     travelMm: pose.travelMm,
     rackMm: pose.rackMm,
@@ -83,7 +53,7 @@ export function analyseCorner(request: AnalysisRequest): CornerAnalysis {
     roll: rollCurves,
     rollSteerCoefficient: roll.rollSteerCoefficient,
     rollCamberDegPerDeg: roll.rollCamberDegPerDeg,
-    pose: posedPoints(request),
+    pose: drawnPose(request),
     cautions: request.cautions ? cornerCautions(request.corner, request.cautions) : null,
     compliance: cornerCompliance(request, roll.rollSteerCoefficient),
     elapsedMs: performance.now() - started,
@@ -111,7 +81,7 @@ function cornerCompliance(request: AnalysisRequest, eps: number): CornerAnalysis
   }
 }
 
-/** The corner's cautions on the chosen profile (shared/intent); a profile it cannot reach is reported, not fatal to the kinematics. */
+/** The corner's cautions on the chosen profile (shared/cautions); a profile it cannot reach is reported, not fatal to the kinematics. */
 function cornerCautions(corner: Corner, request: CautionRequest): CornerCautions {
   const profile = resolveTrackProfile(request.trackProfile);
   const { vehicle, note } = vehicleFrom(request.vehicleData);

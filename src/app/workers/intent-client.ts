@@ -1,67 +1,94 @@
 import { Injectable, OnDestroy } from '@angular/core';
-import type { SolveResult } from '../../../shared/intent/index';
+import type { ProposalDetails, SolveResult } from '../../../shared/intent/index';
 import type { IntentWorkerReply } from './intent-types';
-import { AnalysisError } from './kinematics-client';
+import { AnalysisError, AnalysisSuperseded } from './kinematics-client';
+
+/** One worker and the promise it answers. */
+interface Run {
+  worker: Worker | null;
+  reject: ((e: unknown) => void) | null;
+}
 
 /**
- * Runs the intent back-solver in a Web Worker with progress reports. One
- * solve at a time; `cancel()` ends the worker (and with it the solve).
- * Without Worker support (unit tests) the solver runs in the page.
+ * Runs the intent back-solver in a Web Worker with progress reports, and works
+ * out a chosen family member in a second one (so choosing a member never stops
+ * a solve). One of each at a time: `cancel()` ends the solve; a new member
+ * request supersedes the one before. Without Worker support (unit tests) the
+ * engine runs in the page.
  */
 @Injectable()
 export class IntentClient implements OnDestroy {
-  private worker: Worker | null = null;
   private nextId = 1;
-  private reject: ((e: unknown) => void) | null = null;
+  private readonly solveRun: Run = { worker: null, reject: null };
+  private readonly memberRun: Run = { worker: null, reject: null };
 
   solve(intent: unknown, onProgress: (fraction: number, message: string) => void): Promise<SolveResult> {
     this.cancel();
-    const id = this.nextId++;
-    if (typeof Worker === 'undefined') return this.solveInPage(intent, onProgress);
-    return new Promise<SolveResult>((resolve, reject) => {
-      this.reject = reject;
-      const worker = new Worker(new URL('./intent.worker', import.meta.url), { type: 'module', name: 'rollwise-intent' });
-      this.worker = worker;
-      worker.addEventListener('message', (e: MessageEvent<IntentWorkerReply>) => {
-        const r = e.data;
-        if (r.id !== id) return;
-        if (r.kind === 'progress') onProgress(r.fraction, r.message);
-        else {
-          this.reject = null;
-          this.stopWorker();
-          if (r.kind === 'done') resolve(r.result);
-          else reject(new AnalysisError(r.failure));
-        }
-      });
-      worker.addEventListener('error', (e: ErrorEvent) => {
-        this.reject = null;
-        this.stopWorker();
-        reject(new AnalysisError({ code: 'worker_failed', message: `The solver worker failed: ${e.message || 'unknown error'}` }));
-      });
-      worker.postMessage({ id, intent });
+    if (typeof Worker === 'undefined') return this.inPage(() => import('../../../shared/intent/api').then((m) => m.computeSolve(intent, onProgress)));
+    return this.start(this.solveRun, { intent }, onProgress).then((r) => {
+      if (r.kind !== 'done') throw new AnalysisError({ code: 'engine_error', message: 'The solver answered with something else.' });
+      return r.result;
+    });
+  }
+
+  /** The family member at `member` (movable coordinates by name, mm) worked out for the workshop. */
+  details(intent: unknown, member: Readonly<Record<string, number>>): Promise<ProposalDetails> {
+    this.stop(this.memberRun, new AnalysisSuperseded());
+    if (typeof Worker === 'undefined') return this.inPage(() => import('../../../shared/intent/api').then((m) => m.computeProposalDetails(intent, member)));
+    return this.start(this.memberRun, { intent, member }, () => undefined).then((r) => {
+      if (r.kind !== 'details') throw new AnalysisError({ code: 'engine_error', message: 'The solver answered with something else.' });
+      return r.details;
     });
   }
 
   /** Stops a running solve; its promise rejects with a "cancelled" failure. */
   cancel(): void {
-    if (this.reject) this.reject(new AnalysisError({ code: 'cancelled', message: 'The solve was cancelled.' }));
-    this.reject = null;
-    this.stopWorker();
+    this.stop(this.solveRun, new AnalysisError({ code: 'cancelled', message: 'The solve was cancelled.' }));
   }
 
   ngOnDestroy(): void {
     this.cancel();
+    this.stop(this.memberRun, new AnalysisSuperseded());
   }
 
-  private stopWorker(): void {
-    this.worker?.terminate();
-    this.worker = null;
+  private start(run: Run, message: { intent: unknown; member?: Readonly<Record<string, number>> }, onProgress: (f: number, m: string) => void) {
+    const id = this.nextId++;
+    return new Promise<Exclude<IntentWorkerReply, { kind: 'progress' | 'failed' }>>((resolve, reject) => {
+      run.reject = reject;
+      const worker = new Worker(new URL('./intent.worker', import.meta.url), { type: 'module', name: 'rollwise-intent' });
+      run.worker = worker;
+      worker.addEventListener('message', (e: MessageEvent<IntentWorkerReply>) => {
+        const r = e.data;
+        if (r.id !== id) return;
+        if (r.kind === 'progress') onProgress(r.fraction, r.message);
+        else {
+          run.reject = null;
+          this.stop(run, null);
+          if (r.kind === 'failed') reject(new AnalysisError(r.failure));
+          else resolve(r);
+        }
+      });
+      worker.addEventListener('error', (e: ErrorEvent) => {
+        run.reject = null;
+        this.stop(run, null);
+        reject(new AnalysisError({ code: 'worker_failed', message: `The solver worker failed: ${e.message || 'unknown error'}` }));
+      });
+      worker.postMessage({ id, ...message });
+    });
   }
 
-  private async solveInPage(intent: unknown, onProgress: (f: number, m: string) => void): Promise<SolveResult> {
-    const [{ computeSolve }, { describeFailure }] = await Promise.all([import('../../../shared/intent/api'), import('./corner-analysis')]);
+  /** Ends the run's worker; a waiting promise rejects with `why`. */
+  private stop(run: Run, why: unknown): void {
+    if (run.reject && why !== null) run.reject(why);
+    run.reject = null;
+    run.worker?.terminate();
+    run.worker = null;
+  }
+
+  private async inPage<T>(work: () => Promise<T>): Promise<T> {
+    const { describeFailure } = await import('./corner-analysis');
     try {
-      return computeSolve(intent, onProgress);
+      return await work();
     } catch (error) {
       throw new AnalysisError(describeFailure(error));
     }

@@ -1,8 +1,10 @@
-import type { SolveResult } from '../../../shared/intent/index';
+import type { ProposalDetails, SolveResult } from '../../../shared/intent/index';
 import type { AnalysisFailure } from './analysis-types';
 
-export type IntentWorkerRequest = { readonly id: number; readonly intent: unknown };
+/** A solve of the intent, or (with `member`) one family member worked out for the workshop. */
+export type IntentWorkerRequest = { readonly id: number; readonly intent: unknown; readonly member?: Readonly<Record<string, number>> };
 export type IntentWorkerReply =
   | { readonly id: number; readonly kind: 'progress'; readonly fraction: number; readonly message: string }
   | { readonly id: number; readonly kind: 'done'; readonly result: SolveResult }
+  | { readonly id: number; readonly kind: 'details'; readonly details: ProposalDetails }
   | { readonly id: number; readonly kind: 'failed'; readonly failure: AnalysisFailure };

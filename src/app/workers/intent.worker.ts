@@ -1,17 +1,21 @@
 /**
  * Web Worker running the back-solver of shared/intent (solveIntent through
- * its validating entry point computeSolve), reporting progress as it goes.
+ * its validating entry point computeSolve), reporting progress as it goes;
+ * with a `member` it works out that family member (computeProposalDetails).
  */
-import { computeSolve } from '../../../shared/intent/api';
+import { computeProposalDetails, computeSolve } from '../../../shared/intent/api';
 import { describeFailure } from './corner-analysis';
 import type { IntentWorkerReply, IntentWorkerRequest } from './intent-types';
 
 addEventListener('message', (event: MessageEvent<IntentWorkerRequest>) => {
-  const { id, intent } = event.data;
+  const { id, intent, member } = event.data;
   let reply: IntentWorkerReply;
   try {
-    const result = computeSolve(intent, (fraction, message) => postMessage({ id, kind: 'progress', fraction, message } satisfies IntentWorkerReply));
-    reply = { id, kind: 'done', result };
+    if (member) reply = { id, kind: 'details', details: computeProposalDetails(intent, member) };
+    else {
+      const result = computeSolve(intent, (fraction, message) => postMessage({ id, kind: 'progress', fraction, message } satisfies IntentWorkerReply));
+      reply = { id, kind: 'done', result };
+    }
   } catch (error) {
     reply = { id, kind: 'failed', failure: describeFailure(error) };
   }

@@ -1,21 +1,18 @@
-import { spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { runCli } from '../../support/cli.js';
 import { evaluateBalance } from '../../../shared/balance/index.js';
 import { exampleVehicles } from '../../../shared/balance/examples.js';
 
-const run = (...args: string[]) => {
-  const r = spawnSync('node', ['--import', 'tsx', 'server/cli/rollwise.ts', 'balance', ...args], { encoding: 'utf8', timeout: 60_000 });
-  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
-};
+// In-process: the program's own runner with collected output (test/support/cli.ts).
+const run = (...args: string[]) => runCli('balance', ...args);
 const tmp = mkdtempSync(join(tmpdir(), 'rollwise-balance-cli-'));
 
-// Each spawn starts node + tsx (1–3 s on the shared 2-core machine): generous per-test timeouts.
 describe('rollwise balance (CLI)', { timeout: 90_000 }, () => {
-  it('prints the issue-4 keys for a vehicle file, the same numbers as the library', () => {
-    const r = run('--vehicle', 'test/fixtures/vehicles/brackenfield-b3.json', '--speed=90');
+  it('prints the issue-4 keys for a vehicle file, the same numbers as the library', async () => {
+    const r = await run('--vehicle', 'test/fixtures/vehicles/brackenfield-b3.json', '--speed=90');
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);
     for (const k of ['rollGradientDegPerG', 'rollStiffnessNmPerDeg', 'lateralLoadTransfer', 'understeerBudget', 'gains', 'stepSteer']) expect(out).toHaveProperty(k);
@@ -30,31 +27,31 @@ describe('rollwise balance (CLI)', { timeout: 90_000 }, () => {
     expect(out.caution).toMatch(/rig/);
   });
 
-  it('links corner files and accepts inch/pound entry', () => {
-    const r = run('--vehicle', 'test/fixtures/vehicles/tur26-ember.json', '--front-corner', 'test/fixtures/corners/fs-front-wishbone.json', '--rear-corner', 'test/fixtures/corners/fs-rear-wishbone.json', '--radius=15');
+  it('links corner files and accepts inch/pound entry', async () => {
+    const r = await run('--vehicle', 'test/fixtures/vehicles/tur26-ember.json', '--front-corner', 'test/fixtures/corners/fs-front-wishbone.json', '--rear-corner', 'test/fixtures/corners/fs-rear-wishbone.json', '--radius=15');
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);
     expect(out.kinematicsLink.front.source.rollSteerCoefficient).toBe('kinematics');
-    const imp = run('--vehicle', 'test/fixtures/vehicles/brackenfield-b3-imperial.json', '--summary');
+    const imp = await run('--vehicle', 'test/fixtures/vehicles/brackenfield-b3-imperial.json', '--summary');
     expect(imp.code).toBe(0);
     const si = evaluateBalance(exampleVehicles.brackenfieldB3, { sensitivity: false });
     // The imperial file rounds the SI values to about 6 significant figures.
     expect(Math.abs(JSON.parse(imp.stdout).rollGradientDegPerG - si.rollGradientDegPerG) / si.rollGradientDegPerG).toBeLessThan(1e-4);
   });
 
-  it('bad input: stderr names the field, exit 2', () => {
+  it('bad input: stderr names the field, exit 2', async () => {
     const bad = join(tmp, 'bad.json');
     writeFileSync(bad, JSON.stringify({ ...exampleVehicles.tur26Ember, front: { ...exampleVehicles.tur26Ember.front, trackMm: 'wide' } }));
-    const r = run('--vehicle', bad);
+    const r = await run('--vehicle', bad);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/front\.trackMm/);
     expect(r.stdout).toBe('');
     const neg = join(tmp, 'neg.json');
     writeFileSync(neg, JSON.stringify({ ...exampleVehicles.tur26Ember, cgHeightMm: -1 }));
-    const r2 = run('--vehicle', neg);
+    const r2 = await run('--vehicle', neg);
     expect(r2.code).toBe(2);
     expect(r2.stderr).toMatch(/vehicle\.cgHeightMm/);
-    const r3 = run('--vehicle', 'test/fixtures/vehicles/tur26-ember.json', '--speed=fast');
+    const r3 = await run('--vehicle', 'test/fixtures/vehicles/tur26-ember.json', '--speed=fast');
     expect(r3.code).toBe(2);
     expect(r3.stderr).toMatch(/--speed/);
   });

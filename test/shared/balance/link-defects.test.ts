@@ -5,7 +5,8 @@
 import { eigs } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { computeBalance } from '../../../shared/balance/api.js';
-import { DEG, G, KPH } from '../../../shared/balance/constants.js';
+import { G, KPH } from '../../../shared/balance/constants.js';
+import { RAD_PER_DEG } from '../../../shared/angles.js';
 import { exampleVehicles } from '../../../shared/balance/examples.js';
 import { evaluateBalance } from '../../../shared/balance/index.js';
 import { modesOf, eigenvalues } from '../../../shared/balance/linear.js';
@@ -14,8 +15,8 @@ import { bicycleModel3, stepResponse } from '../../../shared/balance/transient.j
 import { tyreLoadLaw, tyreStiffnessAt } from '../../../shared/balance/tyre.js';
 import { balanceCore } from '../../../shared/balance/understeer.js';
 import { PoseCounter } from '../../../shared/intent/link.js';
-import { cautionInputs } from '../../../shared/intent/measure.js';
-import { resolveTrackProfile } from '../../../shared/intent/profiles.js';
+import { cautionInputs } from '../../../shared/cautions/measure.js';
+import { resolveTrackProfile } from '../../../shared/tracks/profiles.js';
 import { axleSummary, exampleCorners, solvePose } from '../../../shared/kinematics/index.js';
 import type { Corner, Vec3 } from '../../../shared/schema/corner.js';
 import { kktseBicycle, vehicle } from './fixtures.js';
@@ -59,8 +60,8 @@ describe('1. anti-roll bar from the corner: its own twist per wheel travel, not 
 
   const kTheta = (Math.PI * 0.02 ** 4 * 79.3e9) / (32 * 0.9); // π·D⁴·G/(32·l) (kktse, "Simplified lateral load transfer analysis")
   const t = track / 1000;
-  const barCorner = kTheta * (1 / 0.13) ** 2 * t * t * DEG; // N·m/deg with the corner's 130 mm lever
-  const barVehicleLever = kTheta * (1 / 0.2) ** 2 * t * t * DEG; // what dividing by the vehicle's 200 mm lever gave
+  const barCorner = kTheta * (1 / 0.13) ** 2 * t * t * RAD_PER_DEG; // N·m/deg with the corner's 130 mm lever
+  const barVehicleLever = kTheta * (1 / 0.2) ** 2 * t * t * RAD_PER_DEG; // what dividing by the vehicle's 200 mm lever gave
 
   it('the corner gives 1/0.130 rad/m of bar twist per wheel travel', () => {
     expect(o.kinematicsLink.front.used.barTwistRadPerM!).toBeCloseTo(1 / 0.13, 9);
@@ -76,8 +77,8 @@ describe('1. anti-roll bar from the corner: its own twist per wheel travel, not 
 
   it('roll gradient and front load-transfer share follow by hand from that bar rate', () => {
     // domain.md / Barton & Fieldhouse: φ/a_y = m_s·h₁/(ΣKφ − m_s·g·h₁); LLT_i = Kφ_i·φ/t_i + m_s,i·g·h_rc,i/t_i (kktse).
-    const kf = (0.5 * 30000 * t * t + barCorner / DEG); // N·m/rad: springs ½·k·MR²·t² plus bar
-    const kr = 600 / DEG;
+    const kf = (0.5 * 30000 * t * t + barCorner / RAD_PER_DEG); // N·m/rad: springs ½·k·MR²·t² plus bar
+    const kr = 600 / RAD_PER_DEG;
     const L = 2.6;
     const a = 1.04;
     const hra = 0.08 + ((0.12 - 0.08) * a) / L;
@@ -85,7 +86,7 @@ describe('1. anti-roll bar from the corner: its own twist per wheel travel, not 
     const phiPerG = (1400 * G * h1) / (kf + kr - 1400 * G * h1); // rad per g (rigid tyres, no unsprung mass)
     const lltF = (kf * phiPerG) / t + (1400 * ((L - a) / L) * G * 0.08) / t;
     const lltR = (kr * phiPerG) / 1.5 + (1400 * (a / L) * G * 0.12) / 1.5;
-    expect(rel(o.rollGradientDegPerG, phiPerG / DEG)).toBeLessThan(1e-9);
+    expect(rel(o.rollGradientDegPerG, phiPerG / RAD_PER_DEG)).toBeLessThan(1e-9);
     expect(rel(o.lateralLoadTransfer.frontShare, lltF / (lltF + lltR))).toBeLessThan(1e-9);
   });
 
@@ -120,13 +121,13 @@ describe('2. characteristic speed, gains and step steer use the on-centre K', ()
 
   it('V_char = √(57.3·L·g/K) and r/δ = (V/L)/(1 + K·V²/(57.3·L·g)) with that K (Gillespie, check-values.md)', () => {
     expect(k0).toBeGreaterThan(0);
-    const vchar = Math.sqrt((L * G) / (k0 * DEG)) / KPH;
+    const vchar = Math.sqrt((L * G) / (k0 * RAD_PER_DEG)) / KPH;
     expect(rel(r.characteristicSpeedKph!, vchar)).toBeLessThan(1e-6);
     const V = 100 * KPH;
-    const gain = V / L / (1 + (k0 * DEG * V * V) / (L * G));
+    const gain = V / L / (1 + (k0 * RAD_PER_DEG * V * V) / (L * G));
     expect(rel(r.gains.rows[0]!.yawRateGainPerS!, gain)).toBeLessThan(1e-6);
     // The step steer settles on the same steady gain.
-    expect(rel(r.stepSteer.steadyYawRateDegPerS * DEG, gain * r.stepSteer.steerDeg * DEG)).toBeLessThan(1e-6);
+    expect(rel(r.stepSteer.steadyYawRateDegPerS * RAD_PER_DEG, gain * r.stepSteer.steerDeg * RAD_PER_DEG)).toBeLessThan(1e-6);
   });
 });
 
@@ -217,7 +218,7 @@ describe('6. modes: conjugate pairs as oscillations, real roots as time constant
       const match = ref.find((x) => Math.abs(x.re - m.eigenvalue.re) < 1e-6 * Math.abs(x.re))!;
       expect(m.timeConstantS!).toBeCloseTo(-1 / match.re, 9);
     }
-    const s = stepResponse(model, { steerRad: DEG, durationS: 1, sampleS: 0.01, historyEvery: 10 });
+    const s = stepResponse(model, { steerRad: RAD_PER_DEG, durationS: 1, sampleS: 0.01, historyEvery: 10 });
     expect(s.naturalFrequencyHz).toBeNull();
   });
 

@@ -1,6 +1,7 @@
 import { lusolve } from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import { DEG, G } from '../../../shared/balance/constants.js';
+import { G } from '../../../shared/balance/constants.js';
+import { RAD_PER_DEG } from '../../../shared/angles.js';
 import { exampleVehicles } from '../../../shared/balance/examples.js';
 import {
   axleRollStiffness,
@@ -22,14 +23,14 @@ describe('roll gradient', () => {
     // tolerance half a unit of the last digit (0.00005 rad/(m/s²), 0.05 deg/g).
     const perMps2 = rollGradientRadPerMps2(1280, 0.365, 28650, true);
     expect(Math.abs(perMps2 - 0.0194)).toBeLessThanOrEqual(0.00005);
-    expect(Math.abs((perMps2 * G) / DEG - 10.9)).toBeLessThanOrEqual(0.05);
+    expect(Math.abs((perMps2 * G) / RAD_PER_DEG - 10.9)).toBeLessThanOrEqual(0.05);
     // Without the gravity term the same car would show m_s·h₁/K only: clearly less.
     expect(rollGradientRadPerMps2(1280, 0.365, 28650, false)).toBeLessThan(perMps2 * 0.9);
   });
 
   it('gives the same through a whole vehicle (roll centres on the ground, no unsprung mass)', () => {
     // Same source; the vehicle carries the roll stiffness as two equal entered axles.
-    const perAxleNmPerDeg = (28650 / 2) * DEG;
+    const perAxleNmPerDeg = (28650 / 2) * RAD_PER_DEG;
     const axle = { trackMm: 1500, rollCentreHeightMm: 0, rollStiffnessNmPerDeg: perAxleNmPerDeg, tyre: { corneringStiffnessNPerDeg: 1000 } };
     const v = vehicle({ massKg: 1280, wheelbaseMm: 2600, cgToFrontAxleMm: 1200, cgHeightMm: 365, yawInertiaKgM2: 2000, front: axle, rear: axle });
     const r = evaluateRoll(v);
@@ -68,7 +69,7 @@ describe('lateral load transfer', () => {
     const ratio = on.lateralLoadTransfer.front.totalNPerG / off.lateralLoadTransfer.front.totalNPerG;
     expect(Math.abs((ratio - 1) * 100 - 3.6)).toBeLessThanOrEqual(0.05);
     const b = on.rollMomentBalance;
-    const phiRad = on.rollGradientDegPerG * DEG;
+    const phiRad = on.rollGradientDegPerG * RAD_PER_DEG;
     const expected = 1288 * G * 0.533 + 1288 * G * on.mass.sprungCgAboveRollAxisM * phiRad;
     expect(Math.abs(b.loadTransferMomentNm - expected) / expected).toBeLessThanOrEqual(1e-9);
   });
@@ -93,8 +94,8 @@ describe('lateral load transfer', () => {
         const hrf = r.rollCentreHeightMm.front / 1000;
         const hrr = r.rollCentreHeightMm.rear / 1000;
         const h1 = hs - (hrf + ((hrr - hrf) * xs) / L);
-        const ks = { f: r.rollStiffness.front.suspensionNmPerDeg / DEG, r: r.rollStiffness.rear.suspensionNmPerDeg / DEG };
-        const kt = { f: (r.rollStiffness.front.tyresNmPerDeg ?? 1e30) / DEG, r: (r.rollStiffness.rear.tyresNmPerDeg ?? 1e30) / DEG };
+        const ks = { f: r.rollStiffness.front.suspensionNmPerDeg / RAD_PER_DEG, r: r.rollStiffness.rear.suspensionNmPerDeg / RAD_PER_DEG };
+        const kt = { f: (r.rollStiffness.front.tyresNmPerDeg ?? 1e30) / RAD_PER_DEG, r: (r.rollStiffness.rear.tyresNmPerDeg ?? 1e30) / RAD_PER_DEG };
         const grav = rollGravityTerm ? ms * G * h1 : 0;
         const A = [
           [ks.f + ks.r - grav, -ks.f, -ks.r],
@@ -107,7 +108,7 @@ describe('lateral load transfer', () => {
         const tr = v.rear.trackMm / 1000;
         const dwf = (ks.f * (phi - thf) + ((ms * (L - xs)) / L) * G * hrf + muf * G * ((v.front.unsprungCgHeightMm ?? 0) / 1000)) / tf;
         const dwr = (ks.r * (phi - thr) + ((ms * xs) / L) * G * hrr + mur * G * ((v.rear.unsprungCgHeightMm ?? 0) / 1000)) / tr;
-        expect(Math.abs(r.rollGradientDegPerG - phi / DEG) / (phi / DEG)).toBeLessThanOrEqual(1e-9);
+        expect(Math.abs(r.rollGradientDegPerG - phi / RAD_PER_DEG) / (phi / RAD_PER_DEG)).toBeLessThanOrEqual(1e-9);
         expect(Math.abs(r.lateralLoadTransfer.front.totalNPerG - dwf) / dwf).toBeLessThanOrEqual(1e-9);
         expect(Math.abs(r.lateralLoadTransfer.rear.totalNPerG - dwr) / dwr).toBeLessThanOrEqual(1e-9);
         const moment = dwf * tf + dwr * tr;
@@ -151,7 +152,7 @@ describe('roll stiffness', () => {
     // kktse: MR_bar = bar twist per unit wheel travel = link ratio / lever length.
     const k = barRollStiffnessNmPerRad({ outerDiameterMm: 20, innerDiameterMm: 16, activeLengthMm: 500, leverLengthMm: 100, linkMotionRatio: 0.5 }, 1.2);
     expect(k).toBeCloseTo(tube * (0.5 / 0.1) ** 2 * 1.2 ** 2, 6);
-    expect(barRollStiffnessNmPerRad({ rollRateNmPerDeg: 300 }, 1.2)).toBeCloseTo(300 / DEG, 9);
+    expect(barRollStiffnessNmPerRad({ rollRateNmPerDeg: 300 }, 1.2)).toBeCloseTo(300 / RAD_PER_DEG, 9);
   });
 
   it('stiff tyres make suspension roll equal body roll; soft tyres make it smaller (property)', () => {

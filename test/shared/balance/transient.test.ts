@@ -1,6 +1,7 @@
 import { eigs } from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import { DEG, KPH } from '../../../shared/balance/constants.js';
+import { KPH } from '../../../shared/balance/constants.js';
+import { RAD_PER_DEG } from '../../../shared/angles.js';
 import { exampleVehicles } from '../../../shared/balance/examples.js';
 import { evaluateBalance } from '../../../shared/balance/index.js';
 import { characteristicPolynomial, eigenvalues, evalPolynomial, polynomialRoots } from '../../../shared/balance/linear.js';
@@ -15,27 +16,27 @@ const core = balanceCore(kktseBicycle());
 const budget = understeerBudget(core, 0);
 const V = 100 * KPH;
 const model = transientModels(core, budget.axleCompliance, V).twoDof;
-const steer = 1 * DEG;
+const steer = 1 * RAD_PER_DEG;
 
 describe('2-DOF step steer (kktse fixture, 100 km/h, 1° road-wheel step)', () => {
   const long = stepResponse(model, { steerRad: steer, durationS: 10, sampleS: 0.001, historyEvery: 1 });
 
   it('odex settles on the analytic steady yaw rate within 1e-6 relative; that is 0.06369 rad/s', () => {
-    const rss = long.steadyYawRateDegPerS * DEG;
-    const last = long.history[long.history.length - 1]!.yawRateDegPerS * DEG;
+    const rss = long.steadyYawRateDegPerS * RAD_PER_DEG;
+    const last = long.history[long.history.length - 1]!.yawRateDegPerS * RAD_PER_DEG;
     expect(Math.abs(last - rss) / rss).toBeLessThanOrEqual(1e-6);
     // check-values.md: 0.06369 rad/s, derived with g = 9.81 → 0.3 %.
     expect(Math.abs(rss - 0.06369) / 0.06369).toBeLessThanOrEqual(0.003);
     // Steady state agrees with the steady-state gain formula (Gillespie) to round-off.
-    const gain = V / (2.67 + 3.6 * DEG * (V * V) / 9.80665);
+    const gain = V / (2.67 + 3.6 * RAD_PER_DEG * (V * V) / 9.80665);
     expect(rss / steer).toBeCloseTo(gain, 9);
   });
 
   it('odex follows the closed-form step response of the same linear model within 1e-6 of the steady value', () => {
     const r = closedFormYawRate2(model, steer);
-    const rss = long.steadyYawRateDegPerS * DEG;
+    const rss = long.steadyYawRateDegPerS * RAD_PER_DEG;
     let worst = 0;
-    for (const h of long.history) worst = Math.max(worst, Math.abs(h.yawRateDegPerS * DEG - r(h.tS)) / rss);
+    for (const h of long.history) worst = Math.max(worst, Math.abs(h.yawRateDegPerS * RAD_PER_DEG - r(h.tS)) / rss);
     expect(worst).toBeLessThanOrEqual(1e-6);
     expect(r(0)).toBeCloseTo(0, 15);
   });
@@ -51,7 +52,7 @@ describe('2-DOF step steer (kktse fixture, 100 km/h, 1° road-wheel step)', () =
 
   it('peak time is where the closed form has zero slope; response and settling times match it', () => {
     const r = closedFormYawRate2(model, steer);
-    const rss = long.steadyYawRateDegPerS * DEG;
+    const rss = long.steadyYawRateDegPerS * RAD_PER_DEG;
     const dr = (t: number) => (r(t + 1e-6) - r(t - 1e-6)) / 2e-6;
     expect(Math.abs(dr(long.peakTimeS!)) / rss).toBeLessThan(1e-4);
     expect(r(long.responseTimeS!) / rss).toBeCloseTo(0.9, 5);
@@ -63,8 +64,8 @@ describe('2-DOF step steer (kktse fixture, 100 km/h, 1° road-wheel step)', () =
     const { massKg: m, yawInertiaKgM2: Iz } = core.vehicle;
     const a = 1.041;
     const b = 1.629;
-    const Cf = core.front.staticLoadN / (6.7 * DEG);
-    const Cr = core.rear.staticLoadN / (3.1 * DEG);
+    const Cf = core.front.staticLoadN / (6.7 * RAD_PER_DEG);
+    const Cr = core.rear.staticLoadN / (3.1 * RAD_PER_DEG);
     const a1 = (Cf + Cr) / (m * V) + (a * a * Cf + b * b * Cr) / (Iz * V);
     const a0 = (Cf * Cr * (a + b) ** 2) / (m * Iz * V * V) - (a * Cf - b * Cr) / Iz;
     const roots = polynomialRoots([1, a1, a0]);
@@ -92,7 +93,7 @@ describe('3-DOF model with roll', () => {
     const s2 = stepResponse(models.twoDof, { steerRad: steer, durationS: 3, sampleS: 0.001, historyEvery: 10 });
     const s3 = stepResponse(m3, { steerRad: steer, durationS: 3, sampleS: 0.001, historyEvery: 10 });
     expect(s3.steadyYawRateDegPerS).toBeCloseTo(s2.steadyYawRateDegPerS, 9);
-    const ayG = ((s2.steadyYawRateDegPerS * DEG) * 90 * KPH) / 9.80665;
+    const ayG = ((s2.steadyYawRateDegPerS * RAD_PER_DEG) * 90 * KPH) / 9.80665;
     expect(s3.steadyRollDeg!).toBeCloseTo(c.roll.rollGradientDegPerG * ayG, 9);
     // Roll lags: at 0.05 s the roll is still far from its steady value.
     const early = s3.history.find((h) => h.tS >= 0.05)!;

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { DEG, G } from '../../../shared/balance/constants.js';
+import { G } from '../../../shared/balance/constants.js';
+import { RAD_PER_DEG } from '../../../shared/angles.js';
 import { exampleVehicles } from '../../../shared/balance/examples.js';
 import { evaluateBalance } from '../../../shared/balance/index.js';
 import { gainsAt, sideslipZeroSpeedKph, solveSteadyCornering, speedCharacteristic } from '../../../shared/balance/steady.js';
@@ -199,7 +200,7 @@ describe('load-sensitive tyres and the steer curve', () => {
     within(r.steerCurve.kFromSlopeDegPerG, r.understeerBudget.total, 1e-6);
     // The linear curve is Ackermann + K_linear·a_y.
     const row = r.steerCurve.rows[5]!;
-    expect(row.linearSteerDeg).toBeCloseTo((2.56 / 40) / DEG + r.linearUndersteerGradientDegPerG * row.lateralAccelerationG, 9);
+    expect(row.linearSteerDeg).toBeCloseTo((2.56 / 40) / RAD_PER_DEG + r.linearUndersteerGradientDegPerG * row.lateralAccelerationG, 9);
     expect(row.handwheelDeg).toBeCloseTo(row.steerDeg * v.steeringRatio!, 9);
     // Linear and load-sensitive curves meet at 0 g and part with lateral acceleration.
     expect(r.steerCurve.rows[0]!.steerDeg).toBeCloseTo(r.steerCurve.rows[0]!.linearSteerDeg, 9);
@@ -218,7 +219,7 @@ describe('load-sensitive tyres and the steer curve', () => {
       if (law.kind !== 'quadratic') throw new Error('fixture must give loadSensitivity');
       return ((c.lateralForceNPerG + c.camberStiffnessNPerDeg * c.inclinationDegPerG) * A) / (c.corneringStiffnessNPerDeg - 2 * law.b * (c.loadTransferNPerG * A) ** 2);
     };
-    expect(s.steerDeg).toBeCloseTo((2.56 / R) / DEG + slip(core.front, 0.5) + sf - slip(core.rear, 0.5) - sr, 9);
+    expect(s.steerDeg).toBeCloseTo((2.56 / R) / RAD_PER_DEG + slip(core.front, 0.5) + sf - slip(core.rear, 0.5) - sr, 9);
   });
 
   it('validity: the steer curve stops before an inner wheel lifts', () => {
@@ -248,7 +249,7 @@ describe('speed characteristic', () => {
     const r = evaluateBalance(v, { sensitivity: false, speedKph: 60 });
     expect(r.regime).toBe('oversteer');
     expect(r.characteristicSpeedKph).toBeNull();
-    const vcrit = Math.sqrt((2.67 * G) / (1.0 * DEG)) * 3.6;
+    const vcrit = Math.sqrt((2.67 * G) / (1.0 * RAD_PER_DEG)) * 3.6;
     expect(r.criticalSpeedKph).toBeCloseTo(vcrit, 9);
     const above = r.gains.rows.filter((x) => x.speedKph > vcrit);
     expect(above.length).toBeGreaterThan(0);

@@ -12,14 +12,14 @@ import { cornerCompliance } from '../../../shared/compliance/index.js';
 import { linkVehicle } from '../../../shared/balance/link.js';
 import { evaluateBalance } from '../../../shared/balance/index.js';
 import { exampleVehicles } from '../../../shared/balance/examples.js';
-import { cautionInputs } from '../../../shared/intent/measure.js';
+import { cautionInputs } from '../../../shared/cautions/measure.js';
 import { PoseCounter } from '../../../shared/intent/link.js';
-import { resolveTrackProfile } from '../../../shared/intent/profiles.js';
+import { resolveTrackProfile } from '../../../shared/tracks/profiles.js';
 import { planarWishbone } from '../kinematics/helpers.js';
 
 const root = join(import.meta.dirname, '..', '..', '..');
 const fixture = (n: string) => JSON.parse(readFileSync(join(root, 'test', 'fixtures', 'corners', `${n}.json`), 'utf8')) as Corner;
-const RAD = Math.PI / 180;
+const RAD_PER_DEG = Math.PI / 180;
 
 /** A vehicle with no compliance figures of its own. */
 function bareVehicle(): Vehicle {
@@ -45,7 +45,7 @@ describe('axle compliance from a corner', () => {
     const a = axleComplianceOf({ ...c, bushings: { tieRodInner: { radialNPerMm: 5000, axialNPerMm: k } } } as Corner, { pneumaticTrailMm: 30 })!;
     expect(a.mechanicalTrailMm).toBeCloseTo(-25, 9);
     expect(a.complianceSteerDegPerKN).toBeCloseTo(0, 12);
-    expect(a.steeringStiffnessNmPerDeg!).toBeCloseTo(((2 * k * r * r) / 1000) * RAD, 6);
+    expect(a.steeringStiffnessNmPerDeg!).toBeCloseTo(((2 * k * r * r) / 1000) * RAD_PER_DEG, 6);
     // The contact-patch figure carries the trail's moment: steer out of the turn = F·t_m/K per axle.
     expect(a.contactPatchSteerDegPerKN).toBeCloseTo((1000 * -0.025) / a.steeringStiffnessNmPerDeg!, 9);
     // Total with the pneumatic trail: F·(t_m + t_p)/K.

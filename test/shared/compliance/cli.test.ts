@@ -1,6 +1,6 @@
-/** `rollwise compliance`, spawned as a user would run it. Source: issue 17, "Interfaces" (JSON keys, exit 2 naming the field, rigid corner says so). */
+/** `rollwise compliance`, run in-process through the program's runner. Source: issue 17, "Interfaces" (JSON keys, exit 2 naming the field, rigid corner says so). */
 import { describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
+import { runCli } from '../../support/cli.js';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -9,14 +9,12 @@ import { cornerCompliance } from '../../../shared/compliance/index.js';
 const root = join(import.meta.dirname, '..', '..', '..');
 const fixture = (n: string) => join(root, 'test', 'fixtures', 'corners', n);
 
-function run(...args: string[]) {
-  const r = spawnSync(process.execPath, ['--import', 'tsx', 'server/cli/rollwise.ts', ...args], { cwd: root, encoding: 'utf8', timeout: 60_000 });
-  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
-}
+// In-process: the program's own runner with collected output (test/support/cli.ts).
+const run = runCli;
 
 describe('rollwise compliance', { timeout: 60_000 }, () => {
-  it('prints the headline figures and per-load link forces as JSON, the same as the library', () => {
-    const r = run('compliance', '--corner', fixture('road-front-strut-bushings.json'), '--travel=15', '--rack=10');
+  it('prints the headline figures and per-load link forces as JSON, the same as the library', async () => {
+    const r = await run('compliance', '--corner', fixture('road-front-strut-bushings.json'), '--travel=15', '--rack=10');
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);
     const lib = cornerCompliance(JSON.parse(readFileSync(fixture('road-front-strut-bushings.json'), 'utf8')), { travelMm: 15, rackMm: 10 });
@@ -33,8 +31,8 @@ describe('rollwise compliance', { timeout: 60_000 }, () => {
     expect(out.caution).toMatch(/Verify on a/);
   });
 
-  it('a corner without bushings is rigid and says so', () => {
-    const r = run('compliance', '--corner', fixture('road-rear-five-link.json'));
+  it('a corner without bushings is rigid and says so', async () => {
+    const r = await run('compliance', '--corner', fixture('road-rear-five-link.json'));
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);
     expect(out.rigid).toBe(true);
@@ -43,22 +41,22 @@ describe('rollwise compliance', { timeout: 60_000 }, () => {
     expect(r.stderr).toMatch(/rigid \(zero compliance\)/);
   });
 
-  it('bad input exits 2 naming the field or flag', () => {
+  it('bad input exits 2 naming the field or flag', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'rollwise-compliance-'));
     const bad = join(dir, 'bad.json');
     const c = JSON.parse(readFileSync(fixture('road-front-strut.json'), 'utf8'));
     writeFileSync(bad, JSON.stringify({ ...c, bushings: { strutTp: { radialNPerMm: 2000, axialNPerMm: 600 } } }));
-    const r1 = run('compliance', '--corner', bad);
+    const r1 = await run('compliance', '--corner', bad);
     expect(r1.code).toBe(2);
     expect(r1.stderr).toMatch(/bushings\.strutTp \(did you mean (corner\.)?bushings\.strutTop\?\)/);
     writeFileSync(bad, JSON.stringify({ ...c, bushings: { strutTop: { radialNPerMm: -1, axialNPerMm: 600 } } }));
-    const r2 = run('compliance', '--corner', bad);
+    const r2 = await run('compliance', '--corner', bad);
     expect(r2.code).toBe(2);
     expect(r2.stderr).toMatch(/bushings\.strutTop\.radialNPerMm/);
-    const r3 = run('compliance', '--corner', fixture('road-front-strut.json'), '--rack=500');
+    const r3 = await run('compliance', '--corner', fixture('road-front-strut.json'), '--rack=500');
     expect(r3.code).toBe(2);
     expect(r3.stderr).toMatch(/--rack: rack 500 mm is outside the steering stroke/);
-    const r4 = run('compliance', '--corner', fixture('road-front-strut.json'), '--travl=5');
+    const r4 = await run('compliance', '--corner', fixture('road-front-strut.json'), '--travl=5');
     expect(r4.code).toBe(2);
     expect(r4.stderr).toMatch(/--travl: unknown option/);
   });

@@ -13,7 +13,7 @@ import { planarWishbone } from '../kinematics/helpers.js';
 
 const root = join(import.meta.dirname, '..', '..', '..');
 const fixture = (n: string) => JSON.parse(readFileSync(join(root, 'test', 'fixtures', 'corners', `${n}.json`), 'utf8')) as Corner;
-const RAD = Math.PI / 180;
+const RAD_PER_DEG = Math.PI / 180;
 
 /** Every body mount of a corner on bushings of the given rates (and steering stiffness when steered). */
 function bushed(c: Corner, radial = 3000, axial = 800, extra: Partial<Corner> = {}): Corner {
@@ -51,7 +51,7 @@ describe('compliance: closed forms', () => {
     expect(r.rigid).toBe(false);
     const psiPerNmm = 1 / (k * arm * arm); // rad per N·mm, steer to the left for +M_z
     // +1 kN·m about +z steers the left wheel left, which is toe-out on the left wheel (toe = −δ).
-    expect(r.aligningMomentToeDegPerKNm).toBeCloseTo((-1e6 * psiPerNmm) / RAD, 10);
+    expect(r.aligningMomentToeDegPerKNm).toBeCloseTo((-1e6 * psiPerNmm) / RAD_PER_DEG, 10);
     // Nothing but the steering rotation: no camber, and no lateral compliance (ball joints rigid, trail 0).
     expect(r.aligningMomentCamberDegPerKNm).toBeCloseTo(0, 12);
     expect(r.lateralForceToeDegPerKN).toBeCloseTo(0, 12);
@@ -67,7 +67,7 @@ describe('compliance: closed forms', () => {
     // Springs in series (Hooke's law): bushing and rack (rack axis along the tie rod) give 1/k_eff = 1/k + 1/ks.
     const kEff = 1 / (1 / k + 1 / ks);
     const steerPerN = -20 / (kEff * arm * arm);
-    expect(r.lateralForceToeDegPerKN).toBeCloseTo((-1000 * steerPerN) / RAD, 10);
+    expect(r.lateralForceToeDegPerKN).toBeCloseTo((-1000 * steerPerN) / RAD_PER_DEG, 10);
     // The tie-rod force is the moment over the arm (statics): −20 N·mm turns the upright to the right, which
     // moves the steering-arm point (behind the axis) outboard, so the rod is in tension, 20/r N per N.
     expect(r.linkForcesN.lateralForce['tieRod']).toBeCloseTo(20 / arm, 10);
@@ -90,7 +90,7 @@ describe('compliance: closed forms', () => {
     const wc = p['wheelCentre']!;
     for (const load of LOAD_NAMES) {
       const lr = r.loads[load];
-      const rot = lr.rotationDeg.map((v) => v * RAD);
+      const rot = lr.rotationDeg.map((v) => v * RAD_PER_DEG);
       const arm3 = [0, 1, 2].map((k) => p['link3Outer']![k]! - wc[k]!);
       const move = [0, 1, 2].map((k) => lr.wheelCentreMm[k]! + cross(rot, arm3)[k]!);
       const stretch = dot(n, move); // mm per kN (kN·m)

@@ -8,9 +8,10 @@ import { describe, expect, it } from 'vitest';
 import { exampleVehicles } from '../../../shared/balance/index.js';
 import { exampleCorners, sweepCorner } from '../../../shared/kinematics/index.js';
 import { cornerSchema, type Corner } from '../../../shared/schema/corner.js';
-import { cautionsForCorner, solveIntent } from '../../../shared/intent/index.js';
+import { solveIntent } from '../../../shared/intent/index.js';
+import { cautionsForCorner } from '../../../shared/cautions/corner-cautions.js';
 import { intentSchema } from '../../../shared/schema/intent.js';
-import { resolveTrackProfile } from '../../../shared/intent/profiles.js';
+import { resolveTrackProfile } from '../../../shared/tracks/profiles.js';
 import { bumpCost, RandomRoadYawCost } from '../../../shared/ride/cost.js';
 
 const bumpSteer = (c: Corner) => sweepCorner(c, { travel: { from: -20, to: 20, step: 5 } }).fit.bumpSteerDegPerM;
@@ -110,13 +111,13 @@ describe('the solver and the bump cost', () => {
     expect(r.bumpCost?.roadInWords).toMatch(/ISO 8608 class B/);
     expect(r.family.every((m) => m.bumpCost !== null)).toBe(true);
     expect(r.tradeOff.length).toBeGreaterThanOrEqual(5);
-    const pct = r.tradeOff.map((t) => t.yawDisturbancePct);
+    const pct = r.tradeOff.map((t) => t.yawDisturbancePct!);
     const dk = r.tradeOff.map((t) => t.understeerChangeDegPerG!);
     expect(Math.max(...pct) - Math.min(...pct)).toBeGreaterThan(0.1 * Math.max(...pct));
     expect(Math.max(...dk) - Math.min(...dk)).toBeGreaterThan(0.01);
     // More roll steer, more bump steer: the cost grows with |ε| away from the zero-bump-steer height (derived, domain.md: ε = −g·(t/2)·π/180).
     const byEps = [...r.tradeOff].sort((a, b) => Math.abs(a.rollSteerCoefficient) - Math.abs(b.rollSteerCoefficient));
-    expect(byEps.at(-1)!.yawDisturbancePct).toBeGreaterThan(byEps[0]!.yawDisturbancePct);
+    expect(byEps.at(-1)!.yawDisturbancePct!).toBeGreaterThan(byEps[0]!.yawDisturbancePct!);
   });
 
   it('a bump-cost budget below what the target needs makes the solve infeasible, naming the option', () => {

@@ -13,6 +13,7 @@ import { computeBalance } from '../../../shared/balance/api.js';
 import { intentSchema, type IntentInput } from '../../../shared/schema/intent.js';
 import type { Corner, Vec3 } from '../../../shared/schema/corner.js';
 import { solveIntent, type SolveResult } from '../../../shared/intent/index.js';
+import type { AxleName } from '../../../shared/schema/axle.js';
 
 const solve = (i: IntentInput): SolveResult => solveIntent(intentSchema.parse(i));
 const ROUND_TRIP_TOL = 0.002; // issue 5: verified ε within 0.002 deg/deg of the target
@@ -55,7 +56,7 @@ function expectOnlyMovableChanged(before: Corner, after: Corner, movable: string
 }
 
 describe('round trips (verified ε within 0.002 deg/deg, issue 5)', () => {
-  const cases: Array<{ what: string; corner: Corner; axle: 'front' | 'rear'; targets: number[]; range: number }> = [
+  const cases: Array<{ what: string; corner: Corner; axle: AxleName; targets: number[]; range: number }> = [
     { what: 'front double wishbone', corner: exampleCorners.fsFrontWishbone, axle: 'front', targets: [-0.05, 0, 0.03, 0.08], range: 20 },
     { what: 'rear double wishbone (toe link)', corner: exampleCorners.fsRearWishbone, axle: 'rear', targets: [-0.08, -0.03, 0.02], range: 20 },
     { what: 'front strut', corner: exampleCorners.roadFrontStrut, axle: 'front', targets: [-0.03, 0.02, 0.1], range: 30 },

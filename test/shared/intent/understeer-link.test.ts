@@ -15,6 +15,7 @@ import { intentSchema, type IntentInput } from '../../../shared/schema/intent.js
 import type { Corner, Vec3 } from '../../../shared/schema/corner.js';
 import type { Vehicle } from '../../../shared/schema/vehicle.js';
 import { applyCoordinates, solveIntent, understeerChange } from '../../../shared/intent/index.js';
+import type { AxleName } from '../../../shared/schema/axle.js';
 
 const REL = 1e-9;
 
@@ -31,7 +32,7 @@ function around(corner: Corner, names: string[], range: number): Record<string, 
 }
 
 /** ΔK_rs of the balance API, proposed minus baseline corner on `axle`. */
-function balanceDelta(vehicle: Vehicle, axle: 'front' | 'rear', baseline: Corner, proposed: Corner): number {
+function balanceDelta(vehicle: Vehicle, axle: AxleName, baseline: Corner, proposed: Corner): number {
   const kRs = (c: Corner) => computeBalance({ vehicle, [axle === 'front' ? 'frontCorner' : 'rearCorner']: c, sensitivity: false }).understeerBudget.rollSteer;
   return kRs(proposed) - kRs(baseline);
 }
@@ -42,7 +43,7 @@ function expectRelEqual(actual: number | null, expected: number) {
 }
 
 describe('intent understeer change = balance API roll-steer term difference', () => {
-  const cases: Array<{ what: string; vehicle: Vehicle; corner: Corner; axle: 'front' | 'rear'; target: IntentInput['target']; movable: string[]; range: number }> = [
+  const cases: Array<{ what: string; vehicle: Vehicle; corner: Corner; axle: AxleName; target: IntentInput['target']; movable: string[]; range: number }> = [
     // The case reported: the rear geometry change where the two used to read 0.020 and 0.030 deg/g.
     { what: 'FS rear toe link, ε target', vehicle: exampleVehicles.tur26Ember, corner: exampleCorners.fsRearWishbone, axle: 'rear', target: { rollSteerCoefficient: -0.05 }, movable: ['tieRodInner.z', 'tieRodOuter.z'], range: 25 },
     { what: 'FS front tie rod (steered), ε target', vehicle: exampleVehicles.tur26Ember, corner: exampleCorners.fsFrontWishbone, axle: 'front', target: { rollSteerCoefficient: 0.03 }, movable: ['tieRodInner.z', 'tieRodOuter.z'], range: 20 },

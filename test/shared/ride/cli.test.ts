@@ -1,22 +1,19 @@
-import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { runCli } from '../../support/cli.js';
 import { computeRide } from '../../../shared/ride/api.js';
 
-const run = (...args: string[]) => {
-  const r = spawnSync('node', ['--import', 'tsx', 'server/cli/rollwise.ts', 'ride', ...args], { encoding: 'utf8', timeout: 60_000 });
-  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
-};
+// In-process: the program's own runner with collected output (test/support/cli.ts).
+const run = (...args: string[]) => runCli('ride', ...args);
 const tmp = mkdtempSync(join(tmpdir(), 'rollwise-ride-cli-'));
 const VEHICLE = 'test/fixtures/vehicles/tur26-ember.json';
 const CORNER = 'test/fixtures/corners/fs-front-wishbone.json';
 
-// Each spawn starts node + tsx (1–3 s on the shared 2-core machine): generous per-test timeouts.
 describe('rollwise ride (CLI)', { timeout: 90_000 }, () => {
-  it('prints the ride outputs, toe with a corner and the bump peaks, the same numbers as the library', () => {
-    const r = run('--vehicle', VEHICLE, '--axle', 'front', '--road-class', 'C', '--speed=60', '--corner', CORNER, '--bump=20:400');
+  it('prints the ride outputs, toe with a corner and the bump peaks, the same numbers as the library', async () => {
+    const r = await run('--vehicle', VEHICLE, '--axle', 'front', '--road-class', 'C', '--speed=60', '--corner', CORNER, '--bump=20:400');
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);
     const lib = computeRide({
@@ -40,8 +37,8 @@ describe('rollwise ride (CLI)', { timeout: 90_000 }, () => {
     expect(out.caution).toMatch(/rig/);
   });
 
-  it('leaves toe out without a corner, and the bump without --bump', () => {
-    const r = run('--vehicle', VEHICLE, '--axle', 'rear', '--road-class', 'a', '--speed', '120');
+  it('leaves toe out without a corner, and the bump without --bump', async () => {
+    const r = await run('--vehicle', VEHICLE, '--axle', 'rear', '--road-class', 'a', '--speed', '120');
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);
     expect(out.roadClass).toBe('A');
@@ -56,14 +53,14 @@ describe('rollwise ride (CLI)', { timeout: 90_000 }, () => {
     [['--axle', 'front', '--road-class', 'B', '--speed=60', '--bump=20'], /--bump/],
     [['--axle', 'front', '--road-class', 'B', '--speed=60', '--wheel=1'], /--wheel/],
     [['--axle', 'front', '--road-class', 'B', '--speed=60', '--travel=80'], /--travel/],
-  ])('exits 2 naming the field for %j', (args, field) => {
-    const r = run('--vehicle', VEHICLE, ...args);
+  ])('exits 2 naming the field for %j', async (args, field) => {
+    const r = await run('--vehicle', VEHICLE, ...args);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(field);
     expect(r.stdout).toBe('');
   });
 
-  it('refuses out-of-range requests in the library with the field named (what the CLI maps to its flags)', () => {
+  it('refuses out-of-range requests in the library with the field named (what the CLI maps to its flags)', async () => {
     const vehicle = JSON.parse(readFileSync(VEHICLE, 'utf8'));
     const base = { vehicle, axle: 'front', roadClass: 'B', speedKph: 60 };
     expect(() => computeRide({ ...base, speedKph: 0 })).toThrow(/speedKph/);
@@ -72,19 +69,19 @@ describe('rollwise ride (CLI)', { timeout: 90_000 }, () => {
     expect(() => computeRide({ ...base, landing: { dropHeightMm: 0 } })).toThrow(/landing\.dropHeightMm/);
   });
 
-  it('exits 2 naming the vehicle field the ride model needs', () => {
+  it('exits 2 naming the vehicle field the ride model needs', async () => {
     const doc = JSON.parse(readFileSync(VEHICLE, 'utf8'));
     delete doc.front.tyre.verticalRateNPerMm;
     const file = join(tmp, 'no-tyre-rate.json');
     writeFileSync(file, JSON.stringify(doc));
-    const r = run('--vehicle', file, '--axle', 'front', '--road-class', 'B', '--speed=60');
+    const r = await run('--vehicle', file, '--axle', 'front', '--road-class', 'B', '--speed=60');
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/front\.tyre\.verticalRateNPerMm/);
     const bad = join(tmp, 'bad-damper.json');
     doc.front.tyre.verticalRateNPerMm = 105;
     doc.front.damper = { wheelRateNsPerMm: -1 };
     writeFileSync(bad, JSON.stringify(doc));
-    const b = run('--vehicle', bad, '--axle', 'front', '--road-class', 'B', '--speed=60');
+    const b = await run('--vehicle', bad, '--axle', 'front', '--road-class', 'B', '--speed=60');
     expect(b.code).toBe(2);
     expect(b.stderr).toMatch(/front\.damper\.wheelRateNsPerMm/);
   });

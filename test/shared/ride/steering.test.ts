@@ -10,7 +10,7 @@ import { cornerDocumentSchema, type Corner } from '../../../shared/schema/corner
 import { sweepCorner } from '../../../shared/kinematics/index.js';
 import { kktseBicycle } from '../balance/fixtures.js';
 
-const DEG = Math.PI / 180;
+const RAD_PER_DEG = Math.PI / 180;
 const corner = (name: string): Corner => cornerDocumentSchema.parse(JSON.parse(readFileSync(`test/fixtures/corners/${name}.json`, 'utf8'))) as Corner;
 
 describe('lateral response to an axle steer disturbance', () => {
@@ -21,12 +21,12 @@ describe('lateral response to an axle steer disturbance', () => {
     const V = 100 / 3.6;
     const m = lateralModel(v, 'front', V);
     const frontLoad = (v.massKg * 9.80665 * (v.wheelbaseMm - v.cgToFrontAxleMm)) / v.wheelbaseMm;
-    const cEff = frontLoad / (6.7 * DEG);
+    const cEff = frontLoad / (6.7 * RAD_PER_DEG);
     const out = new Float64Array(3);
     lateralGains(m, cEff, 1e-6, out);
     expect(Math.abs(Math.sqrt(out[0]!) / cEff - 1)).toBeLessThan(1e-9);
     expect(Math.abs(Math.sqrt(out[1]!) / 3.649 - 1)).toBeLessThan(0.003);
-    expect(Math.abs((Math.sqrt(out[2]!) / 9.81) * DEG / 0.1803 - 1)).toBeLessThan(0.003);
+    expect(Math.abs((Math.sqrt(out[2]!) / 9.81) * RAD_PER_DEG / 0.1803 - 1)).toBeLessThan(0.003);
   });
 
   it('lags the side force by the relaxation length: |F/Cδ| = 1/√(1 + (ωσ/V)²)', () => {
@@ -78,7 +78,7 @@ describe('left/right correlation of the toe disturbance', () => {
   it('keeps an in-phase steer at the operating steer, where the two toe curves differ', () => {
     expect(op.cornerRadiusM).toBe(15);
     // Ackermann steer L/R (Gillespie, from memory): 1.55 m / 15 m.
-    expect(op.axleSteerDeg).toBeCloseTo((1.55 / 15) / DEG, 9);
+    expect(op.axleSteerDeg).toBeCloseTo((1.55 / 15) / RAD_PER_DEG, 9);
     expect(Math.abs(op.wheels.left.gradientDegPerM - op.wheels.right.gradientDegPerM)).toBeGreaterThan(0.1);
     const expected = (Math.abs(op.wheels.right.equivalentGradientDegPerM - op.wheels.left.equivalentGradientDegPerM) / 2) * (r.wheelTravelRmsMm / 1000);
     expect(op.inPhase.axleSteerRmsDeg / expected).toBeCloseTo(1, 3);

@@ -1,6 +1,6 @@
-/** `rollwise study --spec FILE`, spawned as a user would run it. Source: issue 16 ("the same studies from the CLI … printing JSON") and the CLI's contract (exit 2 naming the field). */
+/** `rollwise study --spec FILE`, run in-process through the program's runner. Source: issue 16 ("the same studies from the CLI … printing JSON") and the CLI's contract (exit 2 naming the field). */
 import { describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
+import { runCli } from '../../support/cli.js';
 import { mkdtempSync, writeFileSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -8,14 +8,12 @@ import { join } from 'node:path';
 const root = join(import.meta.dirname, '..', '..', '..');
 const fixture = (n: string) => join(root, 'test', 'fixtures', 'studies', n);
 
-function run(...args: string[]) {
-  const r = spawnSync(process.execPath, ['--import', 'tsx', 'server/cli/rollwise.ts', ...args], { cwd: root, encoding: 'utf8', timeout: 120_000 });
-  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
-}
+// In-process: the program's own runner with collected output (test/support/cli.ts).
+const run = runCli;
 
 describe('rollwise study', { timeout: 120_000 }, () => {
-  it('runs a tolerance study from a spec naming its documents and prints the result as JSON', () => {
-    const r = run('study', '--spec', fixture('tolerance-fs-front.json'));
+  it('runs a tolerance study from a spec naming its documents and prints the result as JSON', async () => {
+    const r = await run('study', '--spec', fixture('tolerance-fs-front.json'));
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);
@@ -29,7 +27,7 @@ describe('rollwise study', { timeout: 120_000 }, () => {
     expect(out.result.outputs.some((o: { key: string }) => o.key === 'understeerGradientChangeDegPerG')).toBe(true);
   });
 
-  it('bad input exits 2 naming the field', () => {
+  it('bad input exits 2 naming the field', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'rollwise-study-'));
     const spec = JSON.parse(readFileSync(fixture('tolerance-fs-front.json'), 'utf8'));
     spec.corner = JSON.parse(readFileSync(join(root, 'test', 'fixtures', 'corners', 'fs-front-wishbone.json'), 'utf8'));
@@ -37,16 +35,16 @@ describe('rollwise study', { timeout: 120_000 }, () => {
     spec.tolerances[1].plusMinusMm = -1;
     const file = join(dir, 'bad.json');
     writeFileSync(file, JSON.stringify(spec));
-    const a = run('study', '--spec', file);
+    const a = await run('study', '--spec', file);
     expect(a.code).toBe(2);
     expect(a.stderr).toContain('tolerances[1].plusMinusMm');
     spec.tolerances[1].plusMinusMm = 1;
     spec.kind = 'sweep';
     writeFileSync(file, JSON.stringify(spec));
-    const b = run('study', '--spec', file);
+    const b = await run('study', '--spec', file);
     expect(b.code).toBe(2);
     expect(b.stderr).toMatch(/design|factors|balanceDirection|tolerances/);
-    const c = run('study', '--spec', join(dir, 'missing.json'));
+    const c = await run('study', '--spec', join(dir, 'missing.json'));
     expect(c.code).toBe(2);
     expect(c.stderr).toContain('--spec');
   });

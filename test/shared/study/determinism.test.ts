@@ -116,7 +116,7 @@ describe('design sweep', { timeout: 120_000 }, () => {
     const front = r.sweep!.pareto;
     expect(front.length).toBeGreaterThan(0);
     // No variant in the scatter beats a front member on both counts.
-    for (const f of front) for (const v of r.sweep!.scatter) expect(v.gainDegPerG > f.gainDegPerG && v.costDeg < f.costDeg).toBe(false);
+    for (const f of front) for (const v of r.sweep!.scatter) expect(v.gainDegPerG > f.gainDegPerG && v.cost < f.cost).toBe(false);
     const v = variantCorner(sweep, front[0]!.index);
     const pts = v.points as Record<string, [number, number, number]>;
     expect(pts['tieRodInner']![2]).toBeCloseTo(front[0]!.factors[0]!, 12);

@@ -23,7 +23,7 @@ export const signedOutGuard: CanActivateFn = () => {
   return auth.ensureLoaded().pipe(map((me) => (me ? router.parseUrl(homeUrl(auth)) : true)));
 };
 
-/** The empty path: the current team's dashboard, the team list, or sign-in. */
+/** The empty path: the signed-in person's landing page (homeUrl), or sign-in. */
 export const homeRedirectGuard: CanActivateFn = () => {
   const auth = inject(AuthService);
   const router = inject(Router);
@@ -32,8 +32,13 @@ export const homeRedirectGuard: CanActivateFn = () => {
     .pipe(map((me) => router.parseUrl(me ? homeUrl(auth) : '/sign-in')));
 };
 
-/** Where a signed-in user starts: their current team, or the team list when they have none. */
-export function homeUrl(auth: AuthService): string {
+/**
+ * Where a signed-in person lands, by role: an instructor on their programmes;
+ * anyone else on the team they last worked in (remembered by this browser),
+ * else their first team, else the team list (where a new account starts).
+ */
+export function homeUrl(auth: Pick<AuthService, 'user' | 'currentTeam'>): string {
+  if (auth.user()?.instructor) return '/programmes';
   const team = auth.currentTeam();
   return team ? `/teams/${encodeURIComponent(team.teamId)}` : '/teams';
 }

@@ -1,10 +1,11 @@
-import { Component } from '@angular/core';
+import { ChangeDetectionStrategy, Component } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MIN_PASSWORD_LENGTH, matchingPasswords } from '../auth/password-rules';
 import { NewPasswordFields } from './new-password-fields';
 
 @Component({
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [ReactiveFormsModule, NewPasswordFields],
   template: `<form [formGroup]="form">
     <rw-new-password-fields label="New password" repeatLabel="Repeat new password" requiredMessage="Choose a new password." passwordControl="newPassword" />

@@ -1,39 +1,36 @@
-import { RigMeasurementsPanel } from '../rig/rig-measurements-panel';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, OnInit, signal, untracked } from '@angular/core';
-import { DatePipe } from '@angular/common';
-import { ActivatedRoute, RouterLink } from '@angular/router';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
-import { firstValueFrom } from 'rxjs';
+import { RouterLink } from '@angular/router';
+import { DEFAULT_TRACK_PROFILE, trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import type { Corner, Vec3 } from '../../../../shared/schema/corner';
-import { DEFAULT_TRACK_PROFILE, trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
-import { apiProblem } from '../../core/http/api-error';
-import { TeamAccess } from '../../core/teams/team-access';
-import { LineChart } from '../../charts/line-chart';
 import { LineSeries } from '../../charts/chart-types';
 import { downloadText, fileNameFor } from '../../charts/csv';
-import { AnalysisError, AnalysisSuperseded, KinematicsClient } from '../../workers/kinematics-client';
+import { LineChart } from '../../charts/line-chart';
+import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
+import { formatNum } from '../../core/format/num';
+import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
+import { failureWords } from '../../workers/failure-words';
+import { TeamAccess } from '../../core/teams/team-access';
 import type { AnalysisFailure, AnalysisRequest, CornerAnalysis } from '../../workers/analysis-types';
-import { AxleDesign, FeaturesApi, Proposal, RevisionRow } from '../features-api';
-import { routeParam } from '../route-params';
-import { rollSteerWords } from '../roll-steer-words';
+import { AnalysisError, AnalysisSuperseded, KinematicsClient } from '../../workers/kinematics-client';
+import { BumpCostView } from '../bump-cost';
+import { RigMeasurementsPanel } from '../rig/rig-measurements-panel';
+import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
-import { EditHistory } from './edit-history';
+import { AxleDesignStore } from './axle-design-store';
+import { CornerCautions } from './corner-cautions';
+import { DesignProposals } from './design-proposals';
 import { HardpointImport } from './hardpoint-import';
 import { hardpointCsv, hardpointJson } from './hardpoint-io';
-import { changedPoints, getPoint, pointName, withPoint, withPoints } from './hardpoint-model';
 import { HardpointTable, PointEdit } from './hardpoint-table';
 import { LinkageViews } from './linkage-views';
-import { BumpCostView } from '../bump-cost';
-import { CornerCautions } from './corner-cautions';
+import { SaveConflict } from './save-conflict';
+import { Linkage3dPanel } from '../linkage-view/linkage-3d-panel';
+import { OutputCurvesPanel } from '../linkage-view/output-curves-panel';
+import { checkTravelRange, SweepSettings, type TravelRange } from './sweep-settings';
 import { TrackProfileSelect } from './track-profile-select';
-
-interface Conflict {
-  readonly theirs: AxleDesign;
-  readonly rows: readonly { key: string; name: string; theirs: Vec3 | undefined; yours: Vec3 | undefined }[];
-}
-
-type LoadState = { readonly kind: 'loading' } | { readonly kind: 'error'; readonly message: string } | { readonly kind: 'ready' };
+import { LocalTimePipe } from '../../core/time/local-time';
 
 const ROLL_RANGE = { from: -3, to: 3, step: 0.25 };
 
@@ -45,71 +42,95 @@ function profileStorageKey(designId: string): string {
   return `rollwise.cautionProfile.${designId}`;
 }
 
+const DEFAULT_TRAVEL: TravelRange = { from: -25, to: 25, step: 2.5 };
+
+/** The travel range last used on this design in this browser, if it is still usable. */
+function storedTravel(designId: string): TravelRange {
+  const stored = globalThis.localStorage?.getItem(travelStorageKey(designId));
+  if (!stored) return DEFAULT_TRAVEL;
+  const [from, to, step] = stored.split(',').map(Number);
+  const range = { from: from ?? NaN, to: to ?? NaN, step: step ?? NaN };
+  return checkTravelRange(range) === null ? range : DEFAULT_TRAVEL;
+}
+
+function storedProfile(designId: string): TrackProfileId | null {
+  const profile = globalThis.localStorage?.getItem(profileStorageKey(designId));
+  return profile && profile in trackProfiles ? (profile as TrackProfileId) : null;
+}
+
 /**
  * Axle design editor: the corner's hardpoints with live kinematics. Every
  * committed edit re-solves in the Web Worker and redraws the views, charts
  * and fitted numbers without a server round trip; saving stores a new
- * revision against the revision the edit started from.
+ * revision against the revision the edit started from. The editor store
+ * (AxleDesignStore, one per page) owns the design, the edit history and the save.
  */
 @Component({
   selector: 'rw-axle-design-page',
-  imports: [DatePipe, RouterLink, MatButton, MatProgressBar, HardpointTable, HardpointImport, LinkageViews, LineChart, SafetyCaution, CornerCautions, BumpCostView, TrackProfileSelect, RigMeasurementsPanel],
+  imports: [
+    NumPipe,
+    LocalTimePipe,
+    RouterLink,
+    MatButton,
+    MatProgressBar,
+    HardpointTable,
+    HardpointImport,
+    LinkageViews,
+    LineChart,
+    SafetyCaution,
+    CornerCautions,
+    BumpCostView,
+    TrackProfileSelect,
+    RigMeasurementsPanel,
+    DesignProposals,
+    SaveConflict,
+    SweepSettings,
+    Linkage3dPanel,
+    OutputCurvesPanel,
+  ],
   templateUrl: './axle-design-page.html',
   styleUrl: './axle-design-page.scss',
-  providers: [KinematicsClient],
+  providers: [KinematicsClient, AxleDesignStore],
   changeDetection: ChangeDetectionStrategy.OnPush,
   host: {
     '(keydown)': 'shortcut($event)',
     '(window:beforeunload)': 'warnBeforeUnload($event)',
   },
 })
-export class AxleDesignPage implements OnInit {
-  private readonly route = inject(ActivatedRoute);
-  private readonly api = inject(FeaturesApi);
+export class AxleDesignPage {
+  // Route parameters (the router binds them; a new id on the same page loads the new design).
+  readonly teamId = input.required<string>();
+  readonly vehicleId = input.required<string>();
+  readonly designId = input.required<string>();
+
   private readonly access = inject(TeamAccess);
   private readonly engine = inject(KinematicsClient);
+  protected readonly store = inject(AxleDesignStore);
 
-  protected readonly teamId = routeParam(this.route, 'teamId');
-  protected readonly vehicleId = routeParam(this.route, 'vehicleId');
-  protected readonly designId = routeParam(this.route, 'designId');
-
-  protected readonly state = signal<LoadState>({ kind: 'loading' });
-  protected readonly saved = signal<AxleDesign | null>(null);
-  protected readonly revisions = signal<readonly RevisionRow[]>([]);
-  private history: EditHistory<Corner> | null = null;
-  private readonly historyVersion = signal(0);
+  protected readonly state = this.store.state;
+  protected readonly saved = this.store.saved;
+  protected readonly revisions = this.store.revisions;
+  protected readonly corner = this.store.corner;
+  protected readonly canUndo = this.store.canUndo;
+  protected readonly canRedo = this.store.canRedo;
+  protected readonly changed = this.store.changed;
+  readonly dirty = this.store.dirty;
 
   protected readonly editable = computed(() => this.access.can('design:edit'));
   protected readonly canAccept = computed(() => this.access.can('design:accept'));
   protected readonly canPropose = computed(() => this.access.can('design:propose'));
   protected readonly canManage = computed(() => this.access.can('vehicle:manage'));
   protected readonly canSetTolerance = computed(() => this.access.can('members:manage'));
-  protected readonly proposals = signal<readonly Proposal[]>([]);
-  protected readonly openProposals = computed(() => this.proposals().filter((p) => p.status === 'open'));
-  protected readonly deciding = signal(false);
-  protected readonly proposalError = signal<string | null>(null);
 
-  protected readonly corner = computed<Corner | null>(() => {
-    this.historyVersion();
-    return this.history?.present() ?? null;
-  });
-  protected readonly canUndo = computed(() => (this.historyVersion(), this.history?.canUndo() ?? false));
-  protected readonly canRedo = computed(() => (this.historyVersion(), this.history?.canRedo() ?? false));
-
-  protected readonly changed = computed(() => {
-    const c = this.corner();
-    const s = this.saved();
-    return c && s ? changedPoints(c, s.corner) : [];
-  });
-  readonly dirty = computed(() => this.changed().length > 0);
-
-  // Sweep settings.
-  protected readonly travelFrom = signal(-25);
-  protected readonly travelTo = signal(25);
-  protected readonly travelStep = signal(2.5);
+  // Sweep settings: the curves' travel range (remembered per design) and the pose on the sliders.
+  protected readonly travel = linkedSignal<TravelRange>(() => storedTravel(this.designId()));
+  protected readonly travelFrom = computed(() => this.travel().from);
+  protected readonly travelTo = computed(() => this.travel().to);
+  protected readonly travelStep = computed(() => this.travel().step);
   protected readonly poseTravel = signal(0);
   protected readonly poseRack = signal(0);
-  protected readonly settingsError = signal<string | null>(null);
+  /** The hardpoint picked in the 3D view or selected in the table (its table key). */
+  protected readonly selectedPoint = signal<string | null>(null);
 
   protected readonly rackStroke = computed<[number, number] | null>(() => {
     const c = this.corner();
@@ -123,21 +144,28 @@ export class AxleDesignPage implements OnInit {
     return [0, s[0] / 2, s[1] / 2].filter((v, i, a) => a.indexOf(v) === i);
   });
 
-  // Cautions beside the results: the track profile they are measured for, and the vehicle's data (tyres, loads, roll).
+  // Cautions beside the results: the track profile they are measured for (remembered per design), and the vehicle's data.
   protected readonly axle = computed(() => this.saved()?.axle ?? null);
-  private readonly chosenProfile = signal<TrackProfileId | null>(null);
+  private readonly chosenProfile = linkedSignal<TrackProfileId | null>(() => storedProfile(this.designId()));
   protected readonly trackProfileId = computed<TrackProfileId>(() => this.chosenProfile() ?? DEFAULT_TRACK_PROFILE[this.axle() ?? 'front']);
-  private readonly vehicleData = signal<unknown>(null);
 
-  protected readonly analysis = signal<CornerAnalysis | null>(null);
+  /** The analysis on screen and the request that produced it: the figures always carry their own inputs. */
+  private readonly analysed = signal<{ readonly request: AnalysisRequest; readonly analysis: CornerAnalysis } | null>(null);
+  protected readonly analysis = computed(() => this.analysed()?.analysis ?? null);
+  /** The travel range the figures on screen were fitted over (the solved request's, not the fields'). */
+  protected readonly fittedRange = computed(() => this.analysed()?.request.travel ?? null);
   protected readonly failure = signal<AnalysisFailure | null>(null);
+  /** The latest change could not be solved: what is shown belongs to the last geometry and settings that solved. */
+  protected readonly outOfDate = computed(() => this.failure() !== null && this.analysed() !== null);
+  protected readonly failureText = computed(() => {
+    const f = this.failure();
+    return f ? failureWords(f) : '';
+  });
+  protected readonly units = inject(DISPLAY_UNITS);
+  protected readonly lengthUnit = computed(() => unitLabel('length', this.units()));
   protected readonly solving = signal(false);
 
-  protected readonly saving = signal(false);
   protected readonly saveMessage = signal('');
-  protected readonly saveError = signal<string | null>(null);
-  protected readonly savedNotice = signal<string | null>(null);
-  protected readonly conflict = signal<Conflict | null>(null);
   protected readonly importing = signal(false);
 
   protected readonly axleWords = computed(() => {
@@ -155,25 +183,35 @@ export class AxleDesignPage implements OnInit {
     (this.analysis()?.curves ?? []).map((c) => {
       const atRide = c.points.find((p) => p.travelMm === 0)?.toeDeg ?? c.points[0]?.toeDeg ?? 0;
       return {
-        name: `Rack ${c.rackMm} mm`,
-        points: c.points.map((p) => ({ x: p.travelMm, y: p.toeDeg - atRide })),
+        name: `Rack ${this.length(c.rackMm)} ${this.lengthUnit()}`,
+        points: c.points.map((p) => ({ x: this.len(p.travelMm), y: p.toeDeg - atRide })),
       };
     }),
   );
 
   protected readonly camberSeries = computed<LineSeries[]>(() =>
     (this.analysis()?.curves ?? []).map((c) => ({
-      name: `Rack ${c.rackMm} mm`,
-      points: c.points.map((p) => ({ x: p.travelMm, y: p.camberDeg })),
+      name: `Rack ${this.length(c.rackMm)} ${this.lengthUnit()}`,
+      points: c.points.map((p) => ({ x: this.len(p.travelMm), y: p.camberDeg })),
     })),
   );
+
+  /** A stored length (mm) as a number in the user's unit. */
+  private len(mm: number): number {
+    return inDisplayUnits(mm, 'length', this.units());
+  }
+
+  /** A stored length (mm) as text in the user's unit, without the unit. */
+  protected length(mm: number): string {
+    return formatNum(mm, { kind: 'length' }, this.units());
+  }
 
   /** Axle steer change from zero roll per rack position (the steer angle itself is set by the rack). */
   protected readonly rollSeries = computed<LineSeries[]>(() =>
     (this.analysis()?.roll ?? []).map((c) => {
       const atZero = c.points.find((p) => p.rollDeg === 0)?.axleSteerDeg ?? 0;
       return {
-        name: `Rack ${c.rackMm} mm`,
+        name: `Rack ${this.length(c.rackMm)} ${this.lengthUnit()}`,
         points: c.points.map((p) => ({ x: p.rollDeg, y: p.axleSteerDeg - atZero })),
       };
     }),
@@ -181,21 +219,23 @@ export class AxleDesignPage implements OnInit {
 
   protected readonly toeDescription = computed(() => {
     const first = this.analysis()?.curves[0];
-    return first ? `Bump steer at rack ${first.rackMm} mm: ${first.bumpSteerDegPerM.toFixed(3)} deg/m toe-in per metre of bump.` : '';
+    const u = this.units();
+    return first
+      ? `Bump steer at rack ${this.length(first.rackMm)} ${this.lengthUnit()}: ${formatNum(first.bumpSteerDegPerM, { kind: 'bumpSteer' }, u)} ${unitLabel('bumpSteer', u)} of toe-in per ${u === 'imperial' ? 'inch' : 'metre'} of bump.`
+      : '';
   });
 
   constructor() {
+    this.store.follow(computed(() => ({ teamId: this.teamId(), vehicleId: this.vehicleId(), designId: this.designId() })));
     // Re-solve whenever the corner or the sweep settings change.
     effect(() => {
       const corner = this.corner();
-      const from = this.travelFrom();
-      const to = this.travelTo();
-      const step = this.travelStep();
+      const { from, to, step } = this.travel();
       const rackMm = this.rackPositions();
       const pose = { travelMm: this.poseTravel(), rackMm: this.rackStroke() ? this.poseRack() : 0 };
       const axle = this.axle();
       const profile = this.trackProfileId();
-      const vehicleData = this.vehicleData();
+      const vehicleData = this.store.vehicleData();
       if (!corner) return;
       // The cautions are measured over the curves' travel range (the corner's own), with the profile's bump height.
       const cautions = axle ? { axle, trackProfile: { id: profile, travelMm: [from, to] as [number, number] }, vehicleData } : undefined;
@@ -203,104 +243,23 @@ export class AxleDesignPage implements OnInit {
     });
   }
 
-  ngOnInit(): void {
-    const stored = globalThis.localStorage?.getItem(travelStorageKey(this.designId));
-    if (stored) {
-      const [from, to, step] = stored.split(',').map(Number);
-      if ([from, to, step].every(Number.isFinite) && from! < to! && step! > 0) {
-        this.travelFrom.set(from!);
-        this.travelTo.set(to!);
-        this.travelStep.set(step!);
-      }
-    }
-    const profile = globalThis.localStorage?.getItem(profileStorageKey(this.designId));
-    if (profile && profile in trackProfiles) this.chosenProfile.set(profile as TrackProfileId);
-    void this.load();
-  }
-
   protected chooseProfile(id: TrackProfileId): void {
     this.chosenProfile.set(id);
-    globalThis.localStorage?.setItem(profileStorageKey(this.designId), id);
-  }
-
-  private async load(): Promise<void> {
-    this.state.set({ kind: 'loading' });
-    try {
-      const [design, vehicle] = await Promise.all([
-        firstValueFrom(this.api.axleDesign(this.teamId, this.designId)),
-        // The cautions use the vehicle's tyres and loads where it can be read; without it they use the product defaults.
-        firstValueFrom(this.api.vehicle(this.teamId, this.vehicleId)).catch(() => null),
-        firstValueFrom(this.access.load(this.teamId)),
-      ]);
-      this.vehicleData.set(vehicle?.data ?? null);
-      this.adopt(design);
-      this.state.set({ kind: 'ready' });
-      void this.loadRevisions();
-    } catch (error) {
-      this.state.set({ kind: 'error', message: apiProblem(error).message });
-    }
-  }
-
-  private async loadRevisions(): Promise<void> {
-    try {
-      this.revisions.set(await firstValueFrom(this.api.axleDesignRevisions(this.teamId, this.designId)));
-    } catch {
-      this.revisions.set([]);
-    }
-    try {
-      this.proposals.set(await firstValueFrom(this.api.proposals(this.teamId, this.designId)));
-    } catch {
-      this.proposals.set([]);
-    }
-  }
-
-  /** Accepts (a new revision from the proposed corner) or rejects an engineer's proposal. */
-  protected async decide(proposal: Proposal, decision: 'accept' | 'reject'): Promise<void> {
-    if (this.deciding() || (decision === 'accept' && this.dirty())) return;
-    this.deciding.set(true);
-    this.proposalError.set(null);
-    try {
-      await firstValueFrom(this.api.decideProposal(this.teamId, this.designId, proposal.id, decision));
-      const design = await firstValueFrom(this.api.axleDesign(this.teamId, this.designId));
-      if (decision === 'accept') {
-        this.adopt(design);
-        this.savedNotice.set(`Accepted the proposal from ${proposal.authorName ?? 'an engineer'}: now revision ${design.revision}.`);
-      } else {
-        this.savedNotice.set('Proposal rejected; the design is unchanged.');
-      }
-      await this.loadRevisions();
-    } catch (error) {
-      this.proposalError.set(apiProblem(error).message);
-    } finally {
-      this.deciding.set(false);
-    }
-  }
-
-  protected proposalSummary(p: Proposal): string {
-    const o = p.origin as { achievedRollSteerCoefficient?: number; understeerChangeDegPerG?: number | null } | null;
-    const parts: string[] = [];
-    if (o && typeof o.achievedRollSteerCoefficient === 'number') parts.push(`ε ${o.achievedRollSteerCoefficient.toFixed(4)} deg/deg`);
-    if (o && typeof o.understeerChangeDegPerG === 'number') parts.push(`understeer change ${o.understeerChangeDegPerG.toFixed(3)} deg/g`);
-    return parts.join(', ');
-  }
-
-  private adopt(design: AxleDesign): void {
-    this.saved.set(design);
-    this.history = new EditHistory<Corner>(design.corner);
-    this.historyVersion.update((v) => v + 1);
+    globalThis.localStorage?.setItem(profileStorageKey(this.designId()), id);
   }
 
   private async solve(
     corner: Corner,
-    travel: { from: number; to: number; step: number },
+    travel: TravelRange,
     rackMm: number[],
     pose: { travelMm: number; rackMm: number },
     cautions: AnalysisRequest['cautions'],
   ): Promise<void> {
     this.solving.set(true);
     try {
-      const analysis = await this.engine.analyse({ corner, travel, rackMm, roll: ROLL_RANGE, pose, ...(cautions ? { cautions } : {}) });
-      this.analysis.set(analysis);
+      const request: AnalysisRequest = { corner, travel, rackMm, roll: ROLL_RANGE, pose, ...(cautions ? { cautions } : {}) };
+      const analysis = await this.engine.analyse(request);
+      this.analysed.set({ request, analysis });
       this.failure.set(null);
       this.solving.set(false);
     } catch (error) {
@@ -313,31 +272,25 @@ export class AxleDesignPage implements OnInit {
   // ---- editing ----
 
   protected edit(e: PointEdit): void {
-    const c = this.corner();
-    if (!c || !this.editable() || !this.history) return;
-    this.history.commit(withPoint(c, e.key, e.value));
-    this.savedNotice.set(null);
+    if (this.editable()) this.store.editPoint(e.key, e.value);
   }
 
   protected pasteMany(points: ReadonlyMap<string, Vec3>): void {
-    const c = this.corner();
-    if (!c || !this.editable() || !this.history) return;
-    this.history.commit(withPoints(c, points));
-    this.savedNotice.set(null);
+    if (this.editable()) this.store.editPoints(points);
   }
 
   protected applyImport(points: ReadonlyMap<string, Vec3>): void {
     this.pasteMany(points);
     this.importing.set(false);
-    this.savedNotice.set(`Imported ${points.size} point(s). Save to keep them as a new revision.`);
+    this.store.notice.set(`Imported ${points.size} point(s). Save to keep them as a new revision.`);
   }
 
   protected undo(): void {
-    this.history?.undo();
+    this.store.undo();
   }
 
   protected redo(): void {
-    this.history?.redo();
+    this.store.redo();
   }
 
   /** Closing or reloading the tab with unsaved edits asks first (the browser words the question). */
@@ -360,86 +313,20 @@ export class AxleDesignPage implements OnInit {
     }
   }
 
-  protected setTravel(which: 'from' | 'to' | 'step', text: string): void {
-    const v = Number(text);
-    const next = { from: this.travelFrom(), to: this.travelTo(), step: this.travelStep(), [which]: v };
-    if (!Number.isFinite(v) || next.from >= next.to || next.step <= 0 || (next.to - next.from) / next.step > 400) {
-      this.settingsError.set('Travel range: "from" below "to", a positive step, and at most 400 steps.');
-      return;
-    }
-    this.settingsError.set(null);
-    this.travelFrom.set(next.from);
-    this.travelTo.set(next.to);
-    this.travelStep.set(next.step);
+  protected setTravel(next: TravelRange): void {
+    this.travel.set(next);
     this.poseTravel.set(Math.min(next.to, Math.max(next.from, this.poseTravel())));
-    globalThis.localStorage?.setItem(travelStorageKey(this.designId), `${next.from},${next.to},${next.step}`);
+    globalThis.localStorage?.setItem(travelStorageKey(this.designId()), `${next.from},${next.to},${next.step}`);
   }
 
   // ---- saving ----
 
   protected async save(): Promise<void> {
-    const c = this.corner();
-    const s = this.saved();
-    if (!c || !s || this.saving()) return;
-    await this.saveOver(c, s.revision);
-  }
-
-  private async saveOver(corner: Corner, baseRevision: number): Promise<void> {
-    this.saving.set(true);
-    this.saveError.set(null);
-    try {
-      const result = await firstValueFrom(
-        this.api.saveCorner(this.teamId, this.designId, corner, baseRevision, this.saveMessage().trim() || undefined),
-      );
-      this.saved.set(result);
-      this.conflict.set(null);
-      this.saveMessage.set('');
-      this.savedNotice.set(`Saved as revision ${result.revision}.`);
-      void this.loadRevisions();
-    } catch (error) {
-      const problem = apiProblem(error);
-      if (problem.status === 409) await this.showConflict(problem.details);
-      else this.saveError.set(problem.message);
-    } finally {
-      this.saving.set(false);
-    }
-  }
-
-  private async showConflict(details: unknown): Promise<void> {
-    let theirs: AxleDesign | null = null;
-    const current = (details as { current?: unknown } | undefined)?.current;
-    if (current && typeof current === 'object' && 'corner' in current && 'revision' in current) theirs = current as AxleDesign;
-    if (!theirs) {
-      try {
-        theirs = await firstValueFrom(this.api.axleDesign(this.teamId, this.designId));
-      } catch (error) {
-        this.saveError.set(`Someone else saved first, and their version could not be loaded: ${apiProblem(error).message}`);
-        return;
-      }
-    }
-    const yours = this.corner()!;
-    const keys = [...new Set([...changedPoints(yours, theirs.corner), ...changedPoints(theirs.corner, yours)])];
-    this.conflict.set({
-      theirs,
-      rows: keys.map((key) => ({ key, name: pointName(key, yours), theirs: getPoint(theirs!.corner, key), yours: getPoint(yours, key) })),
-    });
+    if (await this.store.save(this.saveMessage())) this.saveMessage.set('');
   }
 
   protected async keepMine(): Promise<void> {
-    const conflict = this.conflict();
-    const c = this.corner();
-    if (!conflict || !c) return;
-    await this.saveOver(c, conflict.theirs.revision);
-  }
-
-  protected takeTheirs(): void {
-    const conflict = this.conflict();
-    if (!conflict || !this.history) return;
-    this.saved.set(conflict.theirs);
-    this.history.commit(conflict.theirs.corner);
-    this.conflict.set(null);
-    this.savedNotice.set(`Showing revision ${conflict.theirs.revision}; your version is one undo step back.`);
-    void this.loadRevisions();
+    if (await this.store.keepMine(this.saveMessage())) this.saveMessage.set('');
   }
 
   // ---- export ----
@@ -478,19 +365,17 @@ export class AxleDesignPage implements OnInit {
     const c = this.analysis()?.cautions;
     if (!c) return '';
     const p = c.profile;
-    const where = `over ${p.travelMm[0]} to ${p.travelMm[1]} mm of travel (the curves' range) with a ${p.bumpHeightMm} mm single-wheel bump, on ISO 8608 class ${p.roadClass} at ${p.speedKph} km/h`;
+    const lu = this.lengthUnit();
+    const where = `over ${this.length(p.travelMm[0])} to ${this.length(p.travelMm[1])} ${lu} of travel (the curves' range) with a ${this.length(p.bumpHeightMm)} ${lu} single-wheel bump, on ISO 8608 class ${p.roadClass} at ${p.speedKph} km/h`;
     if (!c.ok) return `Measured ${where}.`;
-    const racks = c.racksMm.length > 1 ? `, at rack ${c.racksMm.join(', ')} mm` : '';
+    const racks = c.racksMm.length > 1 ? `, at rack ${c.racksMm.map((r) => this.length(r)).join(', ')} ${lu}` : '';
     const vehicle = c.vehicleUsed ? "the vehicle's tyres, loads and roll" : `product default tyre figures (${c.vehicleNote ?? 'no vehicle'})`;
     return `Measured ${where}${racks}, with ${vehicle}; thresholds are the product defaults for ${p.label.toLowerCase()}.`;
   });
 
-  protected fmt(v: number | undefined, digits = 3): string {
-    return v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
-  }
-
-  protected vec(v: Vec3 | undefined): string {
-    return v ? v.map((n) => String(Number(n.toPrecision(8)))).join(', ') : '(none)';
+  /** An engine failure in the user's words. */
+  protected plain(f: AnalysisFailure): string {
+    return failureWords(f);
   }
 
   protected numberFrom(event: Event): number {

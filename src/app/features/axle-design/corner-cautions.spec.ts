@@ -1,8 +1,8 @@
 import { TestBed } from '@angular/core/testing';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
-import { cautionsForCorner } from '../../../../shared/intent/corner-cautions';
-import type { Caution } from '../../../../shared/intent/cautions';
-import type { TrackProfileId } from '../../../../shared/intent/profiles';
+import { cautionsForCorner } from '../../../../shared/cautions/corner-cautions';
+import type { Caution } from '../../../../shared/cautions/cautions';
+import type { TrackProfileId } from '../../../../shared/tracks/profiles';
 import { CAUTION_GROUPS, CornerCautions } from './corner-cautions';
 import { TrackProfileSelect } from './track-profile-select';
 

@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
-import type { Caution, CautionCode } from '../../../../shared/intent/cautions';
+import type { Caution, CautionCode } from '../../../../shared/cautions/cautions';
 import { CautionList } from '../intent/caution-list';
 
 /** Which result each caution concerns: the bump-steer fits, or the roll steer ε. */

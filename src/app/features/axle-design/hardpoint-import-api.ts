@@ -3,16 +3,11 @@ import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 import type { Corner } from '../../../../shared/schema/corner';
 import type { CadFrame } from '../../../../shared/io/cad-frame';
-import type { ChangedPoint } from '../../../../shared/io/hardpoints';
+import type { ImportPreview } from '../../../../shared/api/documents';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
 
-/** `POST /api/teams/:teamId/axle-designs/:designId/import` answer: a preview, nothing saved. */
-export interface ImportPreview {
-  readonly corner: Corner;
-  readonly changedPoints: readonly ChangedPoint[];
-  readonly warnings: readonly string[];
-  readonly baseRevision: number;
-}
+// The answer's type is the server's (shared/api/documents.ts).
+export type { ImportPreview } from '../../../../shared/api/documents';
 
 /**
  * Uploads a hardpoint file to the server, which reads it with the shared

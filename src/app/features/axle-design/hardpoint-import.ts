@@ -1,7 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, DestroyRef, inject, input, output, signal } from '@angular/core';
 import { Subscription } from 'rxjs';
 import type { Corner, Vec3 } from '../../../../shared/schema/corner';
-import { formatNumber } from '../../charts/chart-types';
 import { apiProblem } from '../../core/http/api-error';
 import {
   AXIS_DIRECTIONS,
@@ -17,6 +16,8 @@ import { parseDecimal } from './hardpoint-io';
 import { HardpointImportApi, ImportPreview } from './hardpoint-import-api';
 import { LinkageViews } from './linkage-views';
 import { MatButton } from '@angular/material/button';
+import { NumPipe } from '../../core/format/num-pipe';
+import { inputValue } from '../../core/forms/dom-events';
 
 /** Where the server's reading of the chosen file stands. */
 type ImportState =
@@ -39,12 +40,13 @@ type ImportState =
  */
 @Component({
   selector: 'rw-hardpoint-import',
-  imports: [LinkageViews, MatButton],
+  imports: [NumPipe, LinkageViews, MatButton],
   templateUrl: './hardpoint-import.html',
   styleUrl: './hardpoint-import.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class HardpointImport {
+  protected readonly inputValue = inputValue;
   private readonly api = inject(HardpointImportApi);
 
   readonly corner = input.required<Corner>();
@@ -94,10 +96,6 @@ export class HardpointImport {
   });
 
   protected readonly canApply = computed(() => (this.mapped()?.size ?? 0) > 0);
-
-  protected fmt(v: number): string {
-    return formatNumber(v, 7);
-  }
 
   protected chooseFile(event: Event): void {
     const file = (event.target as HTMLInputElement).files?.[0];

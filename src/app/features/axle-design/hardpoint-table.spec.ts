@@ -1,4 +1,7 @@
+import { signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
+import type { DisplayUnits } from '../../core/api-types';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import type { Corner, Vec3 } from '../../../../shared/schema/corner';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { HardpointTable, PointEdit } from './hardpoint-table';
@@ -91,5 +94,21 @@ describe('HardpointTable', () => {
     const { el } = setUp(false);
     expect(el.querySelectorAll('input').length).toBe(0);
     expect(el.querySelectorAll('.rw-coordinate-text').length).toBeGreaterThan(0);
+  });
+
+  it('shows and takes coordinates in inches for an inch-pound user, storing mm', () => {
+    TestBed.overrideProvider(DISPLAY_UNITS, { useValue: signal<DisplayUnits>('imperial') });
+    const { fixture, el, edits } = setUp(true);
+    const z = el.querySelector<HTMLInputElement>('input[aria-label="Tie rod, inner end (rack), z in in"]')!;
+    // 1 in = 25.4 mm exactly (NIST SP 811).
+    expect(Number(z.value)).toBeCloseTo(inner[2] / 25.4, 6);
+    expect(el.querySelector('.rw-hardpoint-table caption')!.textContent).toContain('left corner (in;');
+    z.value = '6';
+    z.dispatchEvent(new Event('change'));
+    fixture.detectChanges();
+    expect(edits).toHaveLength(1);
+    expect(edits[0]!.key).toBe('points.tieRodInner');
+    expect(edits[0]!.value.slice(0, 2)).toEqual([inner[0], inner[1]]);
+    expect(edits[0]!.value[2]).toBeCloseTo(152.4, 9);
   });
 });

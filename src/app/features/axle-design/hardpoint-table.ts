@@ -1,9 +1,12 @@
-import { ChangeDetectionStrategy, Component, computed, input, output, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, ElementRef, inject, input, output, signal } from '@angular/core';
 import type { Corner, Vec3 } from '../../../../shared/schema/corner';
 import { formatNumber } from '../../charts/chart-types';
 import { hardpointRows, HardpointRow, linkRows } from './hardpoint-model';
 import { parseDecimal, readPastedBlock } from './hardpoint-io';
 import { cornerUnusualValues } from '../../../../shared/schema/corner-ranges';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
+import { formatNum } from '../../core/format/num';
 
 export interface PointEdit {
   readonly key: string;
@@ -13,7 +16,8 @@ export interface PointEdit {
 const AXES = ['x', 'y', 'z'] as const;
 
 /**
- * The hardpoints of a corner as an editable table (mm, left corner), with
+ * The hardpoints of a corner as an editable table (left corner, in the user's
+ * length unit: mm, or inches converted to mm on commit), with
  * the link lengths beside it. An edit is committed on the input's change
  * event (Enter or leaving the field); a block pasted from a spreadsheet
  * fills the rows from the cell it lands in. Read-only users see plain text.
@@ -30,11 +34,19 @@ export class HardpointTable {
   /** Keys to mark as changed since the last saved revision. */
   readonly changed = input<readonly string[]>([]);
 
+  /** Key of the selected row (e.g. `points.upperOuter`), shared with the 3D view. */
+  readonly selectedKey = input<string | null>(null);
+  /** A row was selected (its point name clicked or one of its cells focused). */
+  readonly rowSelected = output<string>();
+
   readonly pointEdited = output<PointEdit>();
   /** Several points at once (a pasted block); applied as one undo step. */
   readonly pointsPasted = output<ReadonlyMap<string, Vec3>>();
 
   protected readonly axes = AXES;
+  private readonly units = inject(DISPLAY_UNITS);
+  /** The user's length unit ("mm" or "in"). */
+  protected readonly unit = computed(() => unitLabel('length', this.units()));
   protected readonly rows = computed(() => hardpointRows(this.corner()));
   protected readonly links = computed(() => linkRows(this.corner()));
   protected readonly changedSet = computed(() => new Set(this.changed()));
@@ -51,8 +63,35 @@ export class HardpointTable {
   protected readonly invalid = signal<ReadonlyMap<string, string>>(new Map());
   protected readonly pasteMessage = signal<string | null>(null);
 
+  private readonly element = inject<ElementRef<HTMLElement>>(ElementRef);
+
+  constructor() {
+    // A point picked elsewhere (the 3D view) brings its row into view.
+    effect(() => {
+      const key = this.selectedKey();
+      if (!key) return;
+      const row = this.element.nativeElement.querySelector(`tr[data-key="${key}"]`);
+      if (row && 'scrollIntoView' in row) (row as HTMLElement).scrollIntoView?.({ block: 'nearest' });
+    });
+  }
+
+  protected select(key: string): void {
+    if (key !== this.selectedKey()) this.rowSelected.emit(key);
+  }
+
+  /** A stored coordinate (mm) as shown and typed: in the user's unit, 8 significant figures. */
   protected format(v: number): string {
-    return formatNumber(v, 8);
+    return formatNumber(inDisplayUnits(v, 'length', this.units()), 8);
+  }
+
+  /** A link length: to 0.01 mm, or 0.001 in. */
+  protected linkLength(mm: number): string {
+    return formatNum(mm, { kind: 'length', decimals: this.units() === 'imperial' ? 3 : 2 }, this.units());
+  }
+
+  /** A typed value in the user's unit, in mm. */
+  private stored(v: number): number {
+    return this.units() === 'imperial' ? v * 25.4 : v;
   }
 
   protected cellId(row: HardpointRow, axis: number): string {
@@ -69,15 +108,15 @@ export class HardpointTable {
     const cell = `${row.key}:${axis}`;
     const next = new Map(this.invalid());
     if (value === null) {
-      next.set(cell, `${row.name} ${AXES[axis]}: "${target.value}" is not a number in mm.`);
+      next.set(cell, `${row.name} ${AXES[axis]}: "${target.value}" is not a number in ${this.unit()}.`);
       this.invalid.set(next);
       return;
     }
     next.delete(cell);
     this.invalid.set(next);
-    if (value === row.value[axis]) return;
+    if (this.stored(value) === row.value[axis] || target.value === this.format(row.value[axis]!)) return;
     const updated: Vec3 = [row.value[0], row.value[1], row.value[2]];
-    updated[axis] = value;
+    updated[axis] = this.stored(value);
     this.pointEdited.emit({ key: row.key, value: updated });
   }
 
@@ -122,7 +161,7 @@ export class HardpointTable {
         const a = startAxis + k;
         if (a > 2) return;
         if (v === null) errors.push(`Pasted row ${i + 1} (${target.name}), ${AXES[a]}: not a number.`);
-        else value[a] = v;
+        else value[a] = this.stored(v);
       });
       if (startAxis + b.values.length > 3) errors.push(`Pasted row ${i + 1} has more columns than x, y, z.`);
       updates.set(target.key, value);

@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
-import { trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
+import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 
 /** Chooses the track profile the cautions are measured for. */
 @Component({

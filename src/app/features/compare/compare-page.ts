@@ -1,17 +1,21 @@
-import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { ActivatedRoute, Router, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
 import { apiProblem } from '../../core/http/api-error';
+import { loadState } from '../../core/http/load-state';
 import { LineChart } from '../../charts/line-chart';
 import { LineSeries } from '../../charts/chart-types';
 import { AnalysisError, KinematicsClient } from '../../workers/kinematics-client';
 import type { CornerAnalysis } from '../../workers/analysis-types';
-import { AxleDesign, AxleDesignSummary, FeaturesApi } from '../features-api';
-import { routeParam } from '../route-params';
-import { rollSteerWords } from '../roll-steer-words';
+import { AxleDesign, FeaturesApi } from '../features-api';
+import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
+import { formatNum } from '../../core/format/num';
+import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
+import { inDisplayUnits, type QuantityKind, unitLabel } from '../../core/format/quantities';
 
 interface Compared {
   readonly design: AxleDesign;
@@ -19,12 +23,18 @@ interface Compared {
   readonly error: string | null;
 }
 
+/** One key figure of each compared design: labelled, in the user's units, rounded as its quantity is (core/format/quantities.ts). */
 interface FigureRow {
   readonly label: string;
-  readonly unit: string;
-  readonly digits: number;
+  readonly kind: QuantityKind;
   readonly values: readonly (number | null)[];
   readonly words?: readonly string[];
+}
+
+/** Figures of one kind (roll, bump steer, camber), shown under their own heading. */
+interface FigureGroup {
+  readonly title: string;
+  readonly rows: readonly FigureRow[];
 }
 
 const MAX_COMPARED = 4;
@@ -38,25 +48,42 @@ const ROLL = { from: -3, to: 3, step: 0.25 };
  */
 @Component({
   selector: 'rw-compare-page',
-  imports: [RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution],
+  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution],
   templateUrl: './compare-page.html',
   styleUrl: './compare-page.scss',
   providers: [KinematicsClient],
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class ComparePage implements OnInit {
+export class ComparePage {
   private readonly route = inject(ActivatedRoute);
   private readonly router = inject(Router);
   private readonly api = inject(FeaturesApi);
   private readonly engine = inject(KinematicsClient);
+  /** The user's unit system (SI or inch/pound). */
+  protected readonly units = inject(DISPLAY_UNITS);
 
-  protected readonly teamId = routeParam(this.route, 'teamId');
-  protected readonly vehicleId = routeParam(this.route, 'vehicleId');
+  readonly teamId = input.required<string>();
+  readonly vehicleId = input.required<string>();
+  /** `?designs=a,b`: the designs compared (kept in the address so a comparison can be shared). */
+  readonly designs = input<string | undefined>(undefined);
   protected readonly maxCompared = MAX_COMPARED;
 
-  protected readonly designs = signal<readonly AxleDesignSummary[] | null>(null);
-  protected readonly loadError = signal<string | null>(null);
-  protected readonly chosen = signal<readonly string[]>([]);
+  private readonly designList = rxResource({
+    params: () => ({ teamId: this.teamId(), vehicleId: this.vehicleId() }),
+    stream: ({ params: p }) => this.api.axleDesigns(p.teamId, p.vehicleId),
+  });
+  /** The vehicle's axle designs to choose from. */
+  protected readonly state = loadState(this.designList);
+  /** Why a chosen design could not be read for the comparison. */
+  protected readonly compareError = signal<string | null>(null);
+  private readonly fromUrl = computed(() => (this.designs() ?? '').split(',').filter(Boolean), {
+    equal: (a, b) => a.join(',') === b.join(','),
+  });
+  /** The designs ticked: those in the address (again for another vehicle), until the user changes the choice. */
+  protected readonly chosen = linkedSignal<readonly string[]>(() => {
+    this.vehicleId();
+    return this.fromUrl().slice(0, MAX_COMPARED);
+  });
   protected readonly running = signal(false);
   protected readonly compared = signal<readonly Compared[]>([]);
   protected readonly travel = TRAVEL;
@@ -66,26 +93,41 @@ export class ComparePage implements OnInit {
     return n < 2 ? 'Choose at least two designs.' : n > MAX_COMPARED ? `Choose at most ${MAX_COMPARED} designs.` : null;
   });
 
-  protected readonly figures = computed<FigureRow[]>(() => {
+  protected readonly figureGroups = computed<FigureGroup[]>(() => {
     const list = this.compared();
     const a = (pick: (x: CornerAnalysis) => number) => list.map((c) => (c.analysis ? pick(c.analysis) : null));
     const rack0 = (x: CornerAnalysis) => x.curves.find((k) => k.rackMm === 0) ?? x.curves[0]!;
     return [
-      { label: 'Revision', unit: '', digits: 0, values: list.map((c) => c.design.revision) },
       {
-        label: 'Roll steer coefficient ε',
-        unit: 'deg/deg',
-        digits: 4,
-        values: a((x) => x.rollSteerCoefficient),
-        words: list.map((c) => (c.analysis ? rollSteerWords(c.analysis.rollSteerCoefficient, c.design.axle) : '')),
+        title: 'In roll',
+        rows: [
+          {
+            label: 'Roll steer coefficient ε',
+            kind: 'rollSteer',
+            values: a((x) => x.rollSteerCoefficient),
+            words: list.map((c) => (c.analysis ? rollSteerWords(c.analysis.rollSteerCoefficient, c.design.axle) : '')),
+          },
+          { label: 'Roll camber coefficient', kind: 'rollSteer', values: a((x) => x.rollCamberDegPerDeg) },
+        ],
       },
-      { label: 'Roll camber coefficient', unit: 'deg/deg', digits: 3, values: a((x) => x.rollCamberDegPerDeg) },
-      { label: 'Bump steer, rack 0', unit: 'deg/m', digits: 3, values: a((x) => rack0(x).bumpSteerDegPerM) },
-      { label: 'Toe curvature, rack 0', unit: 'deg/m²', digits: 2, values: a((x) => rack0(x).curvatureDegPerM2) },
-      { label: 'Largest toe deviation from linear, rack 0', unit: 'deg', digits: 4, values: a((x) => rack0(x).maxDeviationDeg) },
-      { label: 'Camber gain, rack 0', unit: 'deg/m', digits: 2, values: a((x) => rack0(x).camberGainDegPerM) },
+      {
+        title: 'Toe over one-wheel bump (rack centred)',
+        rows: [
+          { label: 'Bump steer (toe-in per bump travel)', kind: 'bumpSteer', values: a((x) => rack0(x).bumpSteerDegPerM) },
+          { label: 'Toe curvature', kind: 'curvature', values: a((x) => rack0(x).curvatureDegPerM2) },
+          { label: 'Largest toe departure from a straight line', kind: 'angle', values: a((x) => rack0(x).maxDeviationDeg) },
+        ],
+      },
+      {
+        title: 'Camber over bump (rack centred)',
+        rows: [{ label: 'Camber gain', kind: 'camberGain', values: a((x) => rack0(x).camberGainDegPerM) }],
+      },
     ];
   });
+
+  protected unitOf(kind: QuantityKind): string {
+    return unitLabel(kind, this.units());
+  }
 
   private overlay(pick: (x: CornerAnalysis) => { x: number; y: number }[]): LineSeries[] {
     return this.compared()
@@ -97,11 +139,13 @@ export class ComparePage implements OnInit {
     this.overlay((x) => {
       const c = x.curves.find((k) => k.rackMm === 0) ?? x.curves[0]!;
       const ride = c.points.find((p) => p.travelMm === 0)?.toeDeg ?? 0;
-      return c.points.map((p) => ({ x: p.travelMm, y: p.toeDeg - ride }));
+      return c.points.map((p) => ({ x: inDisplayUnits(p.travelMm, 'length', this.units()), y: p.toeDeg - ride }));
     }),
   );
   protected readonly camberOverlay = computed(() =>
-    this.overlay((x) => (x.curves.find((k) => k.rackMm === 0) ?? x.curves[0]!).points.map((p) => ({ x: p.travelMm, y: p.camberDeg }))),
+    this.overlay((x) =>
+      (x.curves.find((k) => k.rackMm === 0) ?? x.curves[0]!).points.map((p) => ({ x: inDisplayUnits(p.travelMm, 'length', this.units()), y: p.camberDeg })),
+    ),
   );
   protected readonly rollOverlay = computed(() =>
     this.overlay((x) => {
@@ -111,19 +155,15 @@ export class ComparePage implements OnInit {
     }),
   );
 
-  ngOnInit(): void {
-    const fromUrl = (this.route.snapshot.queryParamMap.get('designs') ?? '').split(',').filter(Boolean);
-    this.chosen.set(fromUrl.slice(0, MAX_COMPARED));
-    void this.load(fromUrl.length >= 2);
-  }
-
-  private async load(runNow: boolean): Promise<void> {
-    try {
-      this.designs.set(await firstValueFrom(this.api.axleDesigns(this.teamId, this.vehicleId)));
-      if (runNow) await this.compare();
-    } catch (error) {
-      this.loadError.set(apiProblem(error).message);
-    }
+  constructor() {
+    // A shared address with two or more designs compares them once the vehicle's designs have loaded
+    // (on arrival, and when the router reuses this page for other parameters).
+    effect(() => {
+      if (this.state().status !== 'ready' || this.fromUrl().length < 2) return;
+      untracked(() => {
+        void this.compare();
+      });
+    });
   }
 
   protected toggle(id: string, on: boolean): void {
@@ -133,11 +173,12 @@ export class ComparePage implements OnInit {
   protected async compare(): Promise<void> {
     if (this.choiceProblem() || this.running()) return;
     this.running.set(true);
+    this.compareError.set(null);
     void this.router.navigate([], { relativeTo: this.route, queryParams: { designs: this.chosen().join(',') }, replaceUrl: true });
     const out: Compared[] = [];
     for (const id of this.chosen()) {
       try {
-        const design = await firstValueFrom(this.api.axleDesign(this.teamId, id));
+        const design = await firstValueFrom(this.api.axleDesign(this.teamId(), id));
         const stroke = design.corner.steered && design.corner.steering?.kind === 'rack' ? design.corner.steering.rackStroke : null;
         try {
           const analysis = await this.engine.analyse({
@@ -152,22 +193,19 @@ export class ComparePage implements OnInit {
           out.push({ design, analysis: null, error: error instanceof AnalysisError ? error.message : String(error) });
         }
       } catch (error) {
-        this.loadError.set(apiProblem(error).message);
+        this.compareError.set(apiProblem(error).message);
       }
     }
     this.compared.set(out);
     this.running.set(false);
   }
 
-  protected fmt(v: number | null, digits: number): string {
-    return v === null || !Number.isFinite(v) ? '–' : v.toFixed(digits);
-  }
-
-  /** True where a value differs from the first design's at the shown precision. */
+  /** True where a value differs from the first design's as shown (in the user's units, at its quantity's precision). */
   protected differs(row: FigureRow, i: number): boolean {
     const first = row.values[0];
     const v = row.values[i];
-    return i > 0 && first !== null && first !== undefined && v !== null && v !== undefined && this.fmt(v, row.digits) !== this.fmt(first, row.digits);
+    if (i === 0 || first === null || first === undefined || v === null || v === undefined) return false;
+    return formatNum(v, { kind: row.kind }, this.units()) !== formatNum(first, { kind: row.kind }, this.units());
   }
 
   protected checked(event: Event): boolean {

@@ -1,28 +1,32 @@
+import { signal } from '@angular/core';
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting, TestRequest } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
+import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
-import { computeBalance } from '../../../../shared/balance/api';
 import { exampleVehicles } from '../../../../shared/balance/examples';
-import { computeCornerSweep } from '../../../../shared/kinematics/api';
+import { analyseConfiguration } from '../../../../shared/configuration/analyse';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
-import type { Caution } from '../../../../shared/intent/cautions';
+import type { Caution } from '../../../../shared/cautions/cautions';
 import type { AnalysisRequest, CornerAnalysis } from '../../workers/analysis-types';
 import { KinematicsClient } from '../../workers/kinematics-client';
 import { ConfigurationPage } from './configuration-page';
-import type { Configuration, ConfigurationResults } from './configurations-api';
+import type { Configuration, ConfigurationResults, GatesAnswer } from './configurations-api';
 import { Answer, refuse, serve } from './spec-backend';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import type { DisplayUnits } from '../../core/api-types';
 
 const TEAM = '/api/teams/t-tal';
 const C = `${TEAM}/configurations/c1`;
 
-// Results as the server computes them: the same engines, called directly (trackProfile smooth-circuit: ±25 mm).
-const sweep = (corner: unknown) => computeCornerSweep({ corner, travel: { from: -25, to: 25, step: 1.25 } }).fit;
-const RESULTS: ConfigurationResults = {
-  balance: computeBalance({ vehicle: exampleVehicles.tur26Ember, frontCorner: exampleCorners.fsFrontWishbone, rearCorner: exampleCorners.fsRearWishbone }),
-  bumpSteer: { front: sweep(exampleCorners.fsFrontWishbone), rear: sweep(exampleCorners.fsRearWishbone), travelMm: [-25, 25] },
-};
+// Results as the server computes them: the same shared function, called directly (trackProfile smooth-circuit: ±25 mm).
+const RESULTS: ConfigurationResults = analyseConfiguration({
+  vehicle: exampleVehicles.tur26Ember,
+  frontCorner: exampleCorners.fsFrontWishbone,
+  rearCorner: exampleCorners.fsRearWishbone,
+  trackProfile: 'smooth-circuit',
+});
 
 function config(over: Partial<Configuration> = {}): Configuration {
   return {
@@ -52,6 +56,17 @@ const BUMP_CAUTION: Caution = {
   basis: 'product default',
 } as Caution;
 
+/** GET …/gates: the Critical items the server measured and the rig evidence per axle. */
+function gates(critical: GatesAnswer['critical'] = []): GatesAnswer {
+  return {
+    revision: 2,
+    critical,
+    rig: { tolerance: { toeDeg: 0.1, camberDeg: 0.25, isDefault: true }, axles: [] },
+    acknowledgements: [],
+    waivers: [],
+  };
+}
+
 /** The kinematics worker's answer for the cautions (the worker itself has its own specs). */
 class FakeEngine {
   readonly requests: AnalysisRequest[] = [];
@@ -71,6 +86,7 @@ function table(c: Configuration, permissions: string[], extra: Record<string, An
     [`GET ${TEAM}/axle-designs/d-f/revisions/1`]: { revision: 1, name: 'Front baseline', corner: exampleCorners.fsFrontWishbone },
     [`GET ${TEAM}/axle-designs/d-r/revisions/3`]: { revision: 3, name: 'Rear baseline', corner: exampleCorners.fsRearWishbone },
     [`GET ${C}/history`]: [],
+    [`GET ${TEAM}/studies`]: { attachments: [] },
     [`GET ${C}/revisions`]: [
       { revision: 2, name: c.name, vehicleId: 'v-ember', vehicleRevision: 1, frontDesignId: 'd-f', frontDesignRevision: 1, rearDesignId: 'd-r', rearDesignRevision: 3, trackProfile: 'smooth-circuit', message: 'rear moved', authorName: 'Dana Quist', createdAt: '2026-12-01T10:00:00.000Z' },
       { revision: 1, name: c.name, vehicleId: 'v-ember', vehicleRevision: 1, frontDesignId: 'd-f', frontDesignRevision: 1, rearDesignId: 'd-r', rearDesignRevision: 2, trackProfile: 'smooth-circuit', message: null, authorName: 'Dana Quist', createdAt: '2026-12-01T09:00:00.000Z' },
@@ -92,11 +108,20 @@ function table(c: Configuration, permissions: string[], extra: Record<string, An
 describe('ConfigurationPage', () => {
   let backend: HttpTestingController;
   let engine: FakeEngine;
+  /** The signed-in user's unit system (account setting). */
+  let units: ReturnType<typeof signal<DisplayUnits>>;
 
   beforeEach(async () => {
     engine = new FakeEngine();
+    units = signal<DisplayUnits>('si');
     TestBed.configureTestingModule({
-      providers: [provideRouter([{ path: 'teams/:teamId/configurations/:configurationId', component: ConfigurationPage }]), provideHttpClient(), provideHttpClientTesting()],
+      providers: [
+        provideRouter([{ path: 'teams/:teamId/configurations/:configurationId', component: ConfigurationPage }], withComponentInputBinding()),
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+        { provide: DISPLAY_UNITS, useValue: units },
+      ],
     });
     TestBed.overrideComponent(ConfigurationPage, { set: { providers: [{ provide: KinematicsClient, useValue: engine }] } });
     await TestBed.compileComponents();
@@ -137,12 +162,27 @@ describe('ConfigurationPage', () => {
     const rear = root.querySelector('.rw-axle-cautions[data-axle="rear"]')!;
     expect(rear.querySelector('[data-code="bump-toe-change"]')!.textContent).toContain('Warning');
     expect(root.querySelector('rw-safety-caution')!.textContent).toContain('Verify on a kinematics rig');
-    expect(root.querySelector('[data-testid="no-approval"]')!.textContent).toContain('Not approved yet');
+    expect(root.querySelector('[data-testid="no-approval"]')!.textContent).toContain('Not signed off yet');
     expect(root.querySelector('[data-testid="approval"]')).toBeNull();
     // A viewer has no review steps, cannot revise or archive, and cannot comment.
     expect(buttons(root)).toEqual([]);
     expect(root.querySelector('.rw-review button')).toBeNull();
     expect(root.querySelector('rw-review-comments form')).toBeNull();
+  });
+
+  it('shows the key figures and the speed axis in the user’s inch-pound units, to the same resolution', async () => {
+    units.set('imperial');
+    const { root } = await open(config(), ['team:read']);
+    const figures = [...root.querySelectorAll('[data-testid="key-figures"] tbody tr')].map((r) => [...r.children].map((x) => x.textContent!.trim()));
+    const row = (label: string) => figures.find((f) => f[0] === label)!;
+    // 1 in = 25.4 mm and 1 mi = 1.609344 km exactly (by definition): deg/m × 0.0254 = deg/in, km/h ÷ 1.609344 = mph.
+    expect(row('Bump steer, front').slice(1, 3)).toEqual([(RESULTS.bumpSteer.front.bumpSteerDegPerM * 0.0254).toFixed(5), 'deg/in']);
+    expect(row('Camber gain, rear').slice(1, 3)).toEqual([(RESULTS.bumpSteer.rear.camberGainDegPerM * 0.0254).toFixed(4), 'deg/in']);
+    expect(row('Understeer gradient K').slice(1, 3)).toEqual([RESULTS.balance.understeerBudget.total.toFixed(3), 'deg/g']);
+    const speed = row('Characteristic speed');
+    expect(speed[2]).toBe('mph');
+    expect(speed[1]).toBe(((RESULTS.balance.characteristicSpeedKph ?? Number.NaN) / 1.609344).toFixed(1));
+    expect(root.querySelector('rw-line-chart .rw-axis-label-x')!.textContent!.trim()).toBe('Speed (mph)');
   });
 
   it('offers each role only its own review steps for the status', async () => {
@@ -152,7 +192,7 @@ describe('ConfigurationPage', () => {
 
   it.each([
     ['in_review', ['team:read', 'vehicle:manage', 'review:submit'], ['Withdraw from review']],
-    ['in_review', ['team:read', 'review:decide'], ['Approve', 'Request changes']],
+    ['in_review', ['team:read', 'review:decide'], ['Sign off', 'Return for rework']],
     ['draft', ['team:read', 'review:decide'], []],
     ['approved', ['team:read', 'review:decide'], ['Release to build']],
     ['approved', ['team:read', 'review:submit'], []],
@@ -166,14 +206,14 @@ describe('ConfigurationPage', () => {
   it('a change request needs a message; it is sent with the revision looked at, and a refusal is shown', async () => {
     const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide', 'review:comment']);
     const press = (label: string) => [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === label)!.click();
-    press('Request changes');
+    press('Return for rework');
     harness.detectChanges();
-    expect(root.querySelector('.rw-review [role="alert"]')!.textContent).toContain('Say what should change');
+    expect(root.querySelector('.rw-review [role="alert"]')!.textContent).toContain('Say what needs rework');
     backend.expectNone(`${C}/request-changes`);
     const box = root.querySelector('textarea[name="stepMessage"]') as HTMLTextAreaElement;
     box.value = 'Raise the rear toe link';
     box.dispatchEvent(new Event('input'));
-    press('Request changes');
+    press('Return for rework');
     let body: unknown;
     await serve(backend, {
       [`POST ${C}/request-changes`]: (req: TestRequest) => {
@@ -188,20 +228,55 @@ describe('ConfigurationPage', () => {
     });
     harness.detectChanges();
     expect(body).toEqual({ revision: 2, message: 'Raise the rear toe link' });
-    expect(root.querySelector('rw-status-chip')!.textContent).toContain('Changes requested');
-    expect(root.querySelector('.rw-history')!.textContent).toContain('In review → Changes requested');
+    expect(root.querySelector('rw-status-chip')!.textContent).toContain('Returned for rework');
+    expect(root.querySelector('.rw-history')!.textContent).toContain('In review → Returned for rework');
     expect(buttons(root)).toEqual([]);
   });
 
   it('shows the server’s own-work refusal of an approval', async () => {
     const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide']);
-    [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === 'Approve')!.click();
+    [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === 'Sign off')!.click();
     await serve(backend, {
+      [`GET ${C}/gates`]: gates(),
       [`POST ${C}/approve`]: refuse(403, 'own_revision', 'You authored this configuration or a revision it uses; another reviewer must decide'),
     });
     harness.detectChanges();
     expect(root.querySelector('.rw-review [role="alert"]')!.textContent).toContain('another reviewer must decide');
     expect(root.querySelector('rw-status-chip')!.textContent).toContain('In review');
+  });
+
+  it('a sign-off with a Critical caution asks for a written reason and sends it with the step', async () => {
+    const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide']);
+    [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === 'Sign off')!.click();
+    const critical = { axle: 'rear' as const, code: 'rear-roll-oversteer', message: 'Rear roll steer of 0.035 deg/deg steers the rear wheels out of the turn', value: 0.035, threshold: 0.03, unit: 'deg/deg' };
+    await serve(backend, { [`GET ${C}/gates`]: gates([critical]) });
+    harness.detectChanges();
+    const dialog = document.querySelector('rw-review-gate-dialog') as HTMLElement;
+    expect(dialog.textContent).toContain('Rear axle: Rear roll steer of 0.035 deg/deg');
+    const confirm = [...dialog.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Sign off')!;
+    expect(confirm.disabled).toBe(true);
+    backend.expectNone(`${C}/approve`);
+    const reason = dialog.querySelector('textarea') as HTMLTextAreaElement;
+    reason.value = 'Wanted: the rear is set to loosen mid-corner on the tight autocross';
+    reason.dispatchEvent(new Event('input'));
+    harness.detectChanges();
+    expect(confirm.disabled).toBe(false);
+    confirm.click();
+    let body: unknown;
+    await serve(backend, {
+      [`POST ${C}/approve`]: (req: TestRequest) => {
+        body = req.request.body;
+        return config({ status: 'approved' });
+      },
+      [`GET ${C}/history`]: [],
+      [`GET ${C}/revisions`]: [],
+      [`GET ${C}/approvals`]: [],
+      [`GET ${TEAM}/configurations`]: [],
+      [`GET ${TEAM}/vehicles/v-ember/axle-designs`]: [],
+    });
+    harness.detectChanges();
+    expect(body).toEqual({ revision: 2, acknowledgements: [{ axle: 'rear', code: 'rear-roll-oversteer', reason: 'Wanted: the rear is set to loosen mid-corner on the tight autocross' }] });
+    expect(root.querySelector('rw-status-chip')!.textContent).toContain('Signed off');
   });
 
   it('an approved configuration shows its frozen figures beside a recompute with the current engine', async () => {
@@ -217,7 +292,7 @@ describe('ConfigurationPage', () => {
     });
     const section = root.querySelector('[data-testid="approval"]')!;
     expect(root.querySelector('[data-testid="no-approval"]')).toBeNull();
-    expect(section.textContent).toContain('approved by Ravi Osei');
+    expect(section.textContent).toContain('signed off by Ravi Osei');
     expect(section.textContent).toContain('gives 1 different figure(s)');
     const rows = [...section.querySelectorAll('[data-testid="frozen-figures"] tbody tr')];
     const k = rows.find((r) => r.querySelector('th')!.textContent!.trim() === 'Understeer gradient K')!;
@@ -235,11 +310,21 @@ describe('ConfigurationPage', () => {
     [...root.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Comment on the budget')!.click();
     harness.detectChanges();
     await new Promise((r) => setTimeout(r, 0));
-    const select = root.querySelector('rw-review-comments select[name="resultRef"]') as HTMLSelectElement;
-    expect(select.value).toBe('budget');
+    const select = root.querySelector('rw-review-comments mat-select[name="resultRef"]') as HTMLElement;
+    expect(select.textContent!.trim()).toBe('Understeer budget');
     expect(document.activeElement).toBe(root.querySelector('rw-review-comments textarea[name="body"]'));
     // The rear caution is one of the things a comment can point at.
-    expect([...select.options].map((o) => o.value)).toContain('caution:bump-toe-change');
+    (select.querySelector('.mat-mdc-select-trigger') as HTMLElement).click();
+    harness.detectChanges();
+    const options = [...document.querySelectorAll('mat-option')].map((o) => o.textContent!.trim());
+    expect(options).toContain('Understeer budget');
+    expect(options).toContain(`Caution: ${BUMP_CAUTION.message}`);
+    (document.querySelector('mat-option') as HTMLElement).click(); // "The configuration as a whole" closes the list…
+    harness.detectChanges();
+    (select.querySelector('.mat-mdc-select-trigger') as HTMLElement).click();
+    harness.detectChanges();
+    [...document.querySelectorAll<HTMLElement>('mat-option')].find((o) => o.textContent!.trim() === 'Understeer budget')!.click(); // …and back to the budget.
+    harness.detectChanges();
     const box = root.querySelector('rw-review-comments textarea[name="body"]') as HTMLTextAreaElement;
     box.value = 'Rear roll-steer term looks small';
     box.dispatchEvent(new Event('input'));
@@ -260,7 +345,7 @@ describe('ConfigurationPage', () => {
     expect(thread.textContent).toContain('On: Understeer budget');
     expect(thread.textContent).toContain('Open');
     // Resolve the thread.
-    [...thread.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Resolve thread')!.click();
+    [...thread.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Close remark')!.click();
     await serve(backend, {
       [`POST ${C}/comments/k1/resolve`]: { id: 'k1', resolved: true },
       [`GET ${C}/comments`]: [
@@ -268,8 +353,8 @@ describe('ConfigurationPage', () => {
       ],
     });
     harness.detectChanges();
-    expect(root.querySelector('.rw-thread .rw-thread-state')!.textContent).toBe('Resolved');
-    expect([...root.querySelectorAll('.rw-thread button')].map((b) => b.textContent!.trim())).toContain('Reopen thread');
+    expect(root.querySelector('.rw-thread .rw-thread-state')!.textContent).toBe('Closed');
+    expect([...root.querySelectorAll('.rw-thread button')].map((b) => b.textContent!.trim())).toContain('Reopen remark');
   });
 
   it('compares an older revision with the current one: changed inputs and results side by side', async () => {

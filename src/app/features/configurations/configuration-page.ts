@@ -1,13 +1,16 @@
 import { BumpCostView } from '../bump-cost';
 import type { BumpCost } from '../../../../shared/ride/cost';
 import { RigMeasurementsPanel } from '../rig/rig-measurements-panel';
-import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal, viewChild } from '@angular/core';
-import { ActivatedRoute, RouterLink } from '@angular/router';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
+import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
+import { MatDialog } from '@angular/material/dialog';
+import { ReviewGateDialog, type ReviewGateDialogData } from './review-gate-dialog';
+import { LatestPreviewDialog, type LatestPreviewDialogData } from './latest-preview-dialog';
 import { firstValueFrom } from 'rxjs';
-import type { Caution } from '../../../../shared/intent/cautions';
-import { trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
+import type { Caution } from '../../../../shared/cautions/cautions';
+import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
 import { BarChart } from '../../charts/bar-chart';
@@ -16,7 +19,7 @@ import type { BarGroup, LineSeries } from '../../charts/chart-types';
 import { AnalysisError, KinematicsClient } from '../../workers/kinematics-client';
 import { CornerCautions } from '../axle-design/corner-cautions';
 import { AxleDesignSummary, FeaturesApi } from '../features-api';
-import { routeParam } from '../route-params';
+import { ConfigurationStudies } from '../studies/configuration-studies';
 import { SafetyCaution } from '../safety-caution';
 import {
   ApprovalDetail,
@@ -26,19 +29,30 @@ import {
   ConfigurationChange,
   ConfigurationRevision,
   ConfigurationsApi,
+  GateBody,
   ResultsAnswer,
   TransitionRow,
 } from './configurations-api';
 import { RefOption, ReviewComments } from './review-comments';
-import { ActionSpec, actionsFor, CHART_REFS, diffValue, fmt, keyFigures, pathLabel, problemText, STATUS_WORDS } from './review-words';
+import { ActionSpec, actionsFor, CHART_REFS, diffValue, type KeyFigure, keyFigures, pathLabel, problemText, STATUS_WORDS } from './review-words';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import { displayDecimals, inDisplayUnits, type QuantityKind, unitLabel } from '../../core/format/quantities';
 import { StatusChip } from './status-chip';
+import { NumPipe } from '../../core/format/num-pipe';
+import { routeKey } from '../route-params';
+import type { AxleName } from '../../../../shared/schema/axle';
+import { MatCheckbox } from '@angular/material/checkbox';
+import { PageSection, SectionNav } from '../../core/layout/section-nav';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { MatOption, MatSelect } from '@angular/material/select';
 
 type Load<T> = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; value: T };
 
 type AxleCautions =
-  | { axle: 'front' | 'rear'; ok: true; list: readonly Caution[]; bumpCost?: BumpCost | null; bumpCostUnavailable?: string | null }
-  | { axle: 'front' | 'rear'; ok: false; message: string };
+  | { axle: AxleName; ok: true; list: readonly Caution[]; bumpCost?: BumpCost | null; bumpCostUnavailable?: string | null }
+  | { axle: AxleName; ok: false; message: string };
 
 const BUDGET_TERMS = [
   ['tyres', 'Tyres'],
@@ -54,7 +68,10 @@ const BUDGET_TERMS = [
 interface FrozenFigure {
   readonly path: string;
   readonly label: string;
+  /** Unit in the user's system. */
   readonly unit: string;
+  readonly kind: QuantityKind;
+  /** Decimals in the user's system. */
   readonly digits: number;
   readonly frozen: number | null;
   readonly now: number | null;
@@ -73,25 +90,34 @@ interface FrozenFigure {
  */
 @Component({
   selector: 'rw-configuration-page',
-  imports: [RouterLink, MatButton, MatProgressBar, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel],
+  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, MatFormField, MatLabel, MatInput, MatSelect, MatOption, MatCheckbox, SectionNav, BarChart, LineChart, SafetyCaution, CornerCautions, BumpCostView, StatusChip, ReviewComments, RigMeasurementsPanel, ConfigurationStudies],
   providers: [KinematicsClient],
   templateUrl: './configuration-page.html',
   styleUrl: './configuration-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class ConfigurationPage implements OnInit {
-  private readonly route = inject(ActivatedRoute);
+export class ConfigurationPage {
   private readonly api = inject(ConfigurationsApi);
   private readonly features = inject(FeaturesApi);
   private readonly engine = inject(KinematicsClient);
+  private readonly dialog = inject(MatDialog);
   protected readonly access = inject(TeamAccess);
 
-  protected readonly teamId = routeParam(this.route, 'teamId');
-  protected readonly configurationId = routeParam(this.route, 'configurationId');
+  readonly teamId = input.required<string>();
+  readonly configurationId = input.required<string>();
   protected readonly timeZone = browserTimeZone();
-  protected readonly fmt = fmt;
   protected readonly diffValue = diffValue;
   protected readonly pathLabel = pathLabel;
+  constructor() {
+    // Loads on arrival and again when the router reuses this page for other route parameters.
+    effect(() => {
+      routeKey(this.teamId(), this.configurationId());
+      untracked(() => {
+        void this.loadAll();
+      });
+    });
+  }
+
   protected localTime(iso: string): string {
     return formatLocalTime(iso, this.timeZone);
   }
@@ -132,9 +158,15 @@ export class ConfigurationPage implements OnInit {
   protected readonly canSetTolerance = computed(() => this.access.permissions().has('members:manage'));
 
   // ---- results ----
+  /** The user's unit system (account setting): key figures, charts and the snapshot follow it. */
+  protected readonly units = inject(DISPLAY_UNITS);
+  /** A key figure's unit and decimals in the user's system (the value converts through the num pipe's kind). */
+  private inUnits<F extends KeyFigure>(f: F): F {
+    return { ...f, unit: unitLabel(f.kind, this.units()), digits: displayDecimals(f.kind, this.units(), f.digits) };
+  }
   protected readonly figures = computed(() => {
     const r = this.results();
-    return r.kind === 'ready' ? keyFigures(r.value.results) : [];
+    return r.kind === 'ready' ? keyFigures(r.value.results).map((f) => this.inUnits(f)) : [];
   });
   protected readonly budgetGroups = computed<BarGroup[]>(() => {
     const r = this.results();
@@ -146,8 +178,10 @@ export class ConfigurationPage implements OnInit {
     const r = this.results();
     if (r.kind !== 'ready') return [];
     const rows = r.value.results.balance.gains.rows;
-    return [{ name: 'Yaw-rate gain', points: rows.filter((g) => g.yawRateGainPerS !== null).map((g) => ({ x: g.speedKph, y: g.yawRateGainPerS! })) }];
+    const units = this.units();
+    return [{ name: 'Yaw-rate gain', points: rows.filter((g) => g.yawRateGainPerS !== null).map((g) => ({ x: inDisplayUnits(g.speedKph, 'speed', units), y: g.yawRateGainPerS! })) }];
   });
+  protected readonly speedUnit = computed(() => unitLabel('speed', this.units()));
   protected readonly refOptions = computed<RefOption[]>(() => {
     const out: RefOption[] = [{ ref: 'budget', label: 'Understeer budget' }];
     for (const [name, label] of Object.entries(CHART_REFS)) out.push({ ref: `chart:${name}`, label });
@@ -174,10 +208,12 @@ export class ConfigurationPage implements OnInit {
     const a = this.approval();
     if (!a || a.kind !== 'ready') return [];
     const diffs = 'differences' in a.value.recompute ? a.value.recompute.differences : [];
-    return keyFigures(a.value.results).map((f) => {
+    return keyFigures(a.value.results).map((raw) => {
+      const f = this.inUnits(raw);
       const d = diffs.find((x) => x.path === f.path);
       const now = d ? (typeof d.b === 'number' ? d.b : null) : 'error' in a.value.recompute ? null : f.value;
-      return { path: f.path, label: f.label, unit: f.unit, digits: f.digits, frozen: f.value, now, change: d && typeof d.change === 'number' ? d.change : now === null ? null : 0 };
+      const change = d && typeof d.change === 'number' ? inDisplayUnits(d.change, f.kind, this.units()) : now === null ? null : 0;
+      return { path: f.path, label: f.label, unit: f.unit, kind: f.kind, digits: f.digits, frozen: f.value, now, change };
     });
   });
 
@@ -200,14 +236,10 @@ export class ConfigurationPage implements OnInit {
   protected readonly comparison = signal<Load<CompareAnswer> | null>(null);
   protected readonly compareChoices = computed(() => this.others());
 
-  ngOnInit(): void {
-    void this.loadAll();
-  }
-
   protected async loadAll(): Promise<void> {
     this.config.set({ kind: 'loading' });
     try {
-      const [c] = await Promise.all([firstValueFrom(this.api.get(this.teamId, this.configurationId)), firstValueFrom(this.access.load(this.teamId)).catch(() => null)]);
+      const [c] = await Promise.all([firstValueFrom(this.api.get(this.teamId(), this.configurationId())), firstValueFrom(this.access.load(this.teamId())).catch(() => null)]);
       this.config.set({ kind: 'ready', value: c });
       this.compareB.set(c.id);
       void this.loadResults(c);
@@ -220,11 +252,11 @@ export class ConfigurationPage implements OnInit {
   /** History, revisions, approvals and the team's other configurations (for compare). */
   private async loadSide(c: Configuration): Promise<void> {
     const [history, revisions, approvals, others, designs] = await Promise.all([
-      firstValueFrom(this.api.history(this.teamId, c.id)).catch(() => []),
-      firstValueFrom(this.api.revisions(this.teamId, c.id)).catch(() => []),
-      firstValueFrom(this.api.approvals(this.teamId, c.id)).catch(() => []),
-      firstValueFrom(this.api.list(this.teamId)).catch(() => []),
-      firstValueFrom(this.features.axleDesigns(this.teamId, c.vehicle.id)).catch(() => []),
+      firstValueFrom(this.api.history(this.teamId(), c.id)).catch(() => []),
+      firstValueFrom(this.api.revisions(this.teamId(), c.id)).catch(() => []),
+      firstValueFrom(this.api.approvals(this.teamId(), c.id)).catch(() => []),
+      firstValueFrom(this.api.list(this.teamId())).catch(() => []),
+      firstValueFrom(this.features.axleDesigns(this.teamId(), c.vehicle.id)).catch(() => []),
     ]);
     this.history.set(history);
     this.revisions.set(revisions);
@@ -239,7 +271,7 @@ export class ConfigurationPage implements OnInit {
     this.results.set({ kind: 'loading' });
     this.cautions.set({ kind: 'loading' });
     try {
-      this.results.set({ kind: 'ready', value: await firstValueFrom(this.api.results(this.teamId, c.id)) });
+      this.results.set({ kind: 'ready', value: await firstValueFrom(this.api.results(this.teamId(), c.id)) });
     } catch (error) {
       this.results.set({ kind: 'error', message: problemText(error) });
     }
@@ -250,9 +282,9 @@ export class ConfigurationPage implements OnInit {
   private async loadCautions(c: Configuration): Promise<void> {
     try {
       const [vehicle, front, rear] = await Promise.all([
-        firstValueFrom(this.api.vehicleRevision(this.teamId, c.vehicle.id, c.vehicle.revision)),
-        firstValueFrom(this.api.designRevision(this.teamId, c.front.designId, c.front.revision)),
-        firstValueFrom(this.api.designRevision(this.teamId, c.rear.designId, c.rear.revision)),
+        firstValueFrom(this.api.vehicleRevision(this.teamId(), c.vehicle.id, c.vehicle.revision)),
+        firstValueFrom(this.api.designRevision(this.teamId(), c.front.designId, c.front.revision)),
+        firstValueFrom(this.api.designRevision(this.teamId(), c.rear.designId, c.rear.revision)),
       ]);
       const p = trackProfiles[c.trackProfile];
       const [from, to] = p.travelMm;
@@ -283,10 +315,26 @@ export class ConfigurationPage implements OnInit {
     }
   }
 
+  /** "On this page": the page's sections, in order (the approval snapshot once there is one). */
+  protected readonly sections = computed<PageSection[]>(() => [
+    { id: 'rw-inputs-title', label: 'What it pins' },
+    { id: 'rw-review-title', label: 'Review' },
+    { id: 'rw-results-title', label: 'Results' },
+    { id: 'rw-rig-section', label: 'Rig measurements' },
+    ...(this.approvals().length > 0 ? [{ id: 'rw-approval-title', label: 'Approval snapshot' }] : []),
+    { id: 'rw-studies-title', label: 'Studies' },
+    { id: 'rw-comments-title', label: 'Comments' },
+    { id: 'rw-history-title', label: 'History' },
+    { id: 'rw-compare-title', label: 'Compare' },
+  ]);
+  /** The approval shown in the snapshot section. */
+  protected readonly approvalId = signal<string | null>(null);
+
   protected async showApproval(id: string): Promise<void> {
+    this.approvalId.set(id);
     this.approval.set({ kind: 'loading' });
     try {
-      this.approval.set({ kind: 'ready', value: await firstValueFrom(this.api.approval(this.teamId, this.configurationId, id)) });
+      this.approval.set({ kind: 'ready', value: await firstValueFrom(this.api.approval(this.teamId(), this.configurationId(), id)) });
     } catch (error) {
       this.approval.set({ kind: 'error', message: problemText(error) });
     }
@@ -297,14 +345,16 @@ export class ConfigurationPage implements OnInit {
     if (!c || this.stepBusy()) return;
     const message = this.stepMessage().trim();
     if (a.needsMessage && !message) {
-      this.stepError.set(`Say what should change (the message is required for “${a.label}”).`);
+      this.stepError.set(`Say what needs rework (the message is required for “${a.label}”).`);
       return;
     }
     this.stepBusy.set(true);
     this.stepError.set(null);
     this.stepNotice.set(null);
     try {
-      const after = await firstValueFrom(this.api.act(this.teamId, c.id, a.action, c.revision, message || undefined));
+      const gate = await this.gateFor(a, c);
+      if (gate === null) return;
+      const after = await firstValueFrom(this.api.act(this.teamId(), c.id, a.action, c.revision, message || undefined, gate));
       this.config.set({ kind: 'ready', value: after });
       this.stepMessage.set('');
       this.stepNotice.set(`${a.label}: done. The configuration is now ${STATUS_WORDS[after.status].label.toLowerCase()}.`);
@@ -318,9 +368,25 @@ export class ConfigurationPage implements OnInit {
     }
   }
 
+  /**
+   * The gate of a sign-off or of the move to validated, asked of the server (the Critical cautions it
+   * measures, the rig evidence against the team's tolerance): the dialog collects a reason for each
+   * Critical caution, or a waiver for each axle without evidence. `{}` when nothing is asked, null when
+   * the reviewer cancelled.
+   */
+  private async gateFor(a: ActionSpec, c: Configuration): Promise<GateBody | null> {
+    if (a.action !== 'approve' && a.action !== 'validate') return {};
+    const gates = await firstValueFrom(this.api.gates(this.teamId(), c.id));
+    const needed = a.action === 'approve' ? gates.critical.length > 0 : gates.rig.axles.some((x) => !x.satisfied);
+    if (!needed) return {};
+    const data: ReviewGateDialogData = { mode: a.action === 'approve' ? 'sign-off' : 'validate', configurationName: c.name, gates };
+    const body = await firstValueFrom(this.dialog.open<ReviewGateDialog, ReviewGateDialogData, GateBody>(ReviewGateDialog, { data, width: '40rem', maxWidth: '95vw' }).afterClosed());
+    return body ?? null;
+  }
+
   private async reloadConfig(): Promise<void> {
     try {
-      const c = await firstValueFrom(this.api.get(this.teamId, this.configurationId));
+      const c = await firstValueFrom(this.api.get(this.teamId(), this.configurationId()));
       this.config.set({ kind: 'ready', value: c });
     } catch {
       /* the error shown stays */
@@ -369,7 +435,17 @@ export class ConfigurationPage implements OnInit {
     this.stepBusy.set(true);
     this.reviseError.set(null);
     try {
-      const after = await firstValueFrom(this.api.revise(this.teamId, c.id, change));
+      if (latest) {
+        // Show what the latest revisions change before anything is saved; save exactly the revisions shown.
+        const preview = await firstValueFrom(this.api.latestPreview(this.teamId(), c.id));
+        const data: LatestPreviewDialogData = { configurationName: c.name, preview };
+        const ok = await firstValueFrom(this.dialog.open<LatestPreviewDialog, LatestPreviewDialogData, boolean>(LatestPreviewDialog, { data, width: '52rem', maxWidth: '95vw' }).afterClosed());
+        if (!ok) return;
+        change.vehicleRevision = preview.latest.vehicleRevision;
+        if (change.frontDesignId === preview.latest.frontDesignId) change.frontDesignRevision = preview.latest.frontDesignRevision;
+        if (change.rearDesignId === preview.latest.rearDesignId) change.rearDesignRevision = preview.latest.rearDesignRevision;
+      }
+      const after = await firstValueFrom(this.api.revise(this.teamId(), c.id, change));
       this.config.set({ kind: 'ready', value: after });
       this.revising.set(false);
       this.stepNotice.set(`Saved as revision ${after.revision}; the configuration is a draft again.`);
@@ -390,7 +466,7 @@ export class ConfigurationPage implements OnInit {
     this.stepBusy.set(true);
     this.stepError.set(null);
     try {
-      const after = await firstValueFrom(this.api.setArchived(this.teamId, c.id, archived));
+      const after = await firstValueFrom(this.api.setArchived(this.teamId(), c.id, archived));
       this.config.set({ kind: 'ready', value: after });
       this.stepNotice.set(archived ? 'Archived: hidden from the list (shown with “Show archived”), kept with its history and approvals.' : 'Restored to the list.');
     } catch (error) {
@@ -408,7 +484,7 @@ export class ConfigurationPage implements OnInit {
     try {
       const value = await firstValueFrom(
         this.api.compare(
-          this.teamId,
+          this.teamId(),
           { id: c.id, ...(this.compareARevision() ? { revision: Number(this.compareARevision()) } : {}) },
           { id: b, ...(this.compareBRevision() ? { revision: Number(this.compareBRevision()) } : {}) },
         ),
@@ -445,7 +521,4 @@ export class ConfigurationPage implements OnInit {
     return (event.target as HTMLInputElement | HTMLSelectElement | HTMLTextAreaElement).value;
   }
 
-  protected checked(event: Event): boolean {
-    return (event.target as HTMLInputElement).checked;
-  }
 }

@@ -1,122 +1,45 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
-import type { BalanceResponse } from '../../../../shared/balance/api';
-import type { ToeFit } from '../../../../shared/kinematics/fit';
-import type { Corner } from '../../../../shared/schema/corner';
-import type { TrackProfileId } from '../../../../shared/intent/profiles';
+import type { TrackProfileId } from '../../../../shared/tracks/profiles';
+import type {
+  ApprovalDetail,
+  ApprovalSummary,
+  CommentThread,
+  CompareAnswer,
+  Configuration,
+  ConfigurationRevision,
+  GatesAnswer,
+  LatestPreviewAnswer,
+  ResultsAnswer,
+  ReviewAction,
+  ReviewComment,
+  TransitionRow,
+} from '../../../../shared/api/configurations';
+import type { DesignRevisionRecord, VehicleRevisionRecord } from '../../../../shared/api/documents';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
 
-/** `status` of a configuration (docs/workflow.md). */
-export type ConfigurationStatus = 'draft' | 'in_review' | 'approved' | 'changes_requested' | 'released' | 'validated';
-
-/** The review steps of the server's state machine (POST …/configurations/:id/<action>). */
-export type ReviewAction = 'submit' | 'withdraw' | 'approve' | 'request-changes' | 'release' | 'validate';
-
-/** `Configuration` of docs/api.md. */
-export interface Configuration {
-  readonly id: string;
-  readonly name: string;
-  readonly status: ConfigurationStatus;
-  readonly revision: number;
-  readonly archived: boolean;
-  readonly vehicle: { readonly id: string; readonly name: string; readonly revision: number };
-  readonly front: { readonly designId: string; readonly name: string; readonly revision: number };
-  readonly rear: { readonly designId: string; readonly name: string; readonly revision: number };
-  readonly trackProfile: TrackProfileId;
-  readonly updatedAt: string;
-  readonly updatedByName: string | null;
-  readonly createdAt: string;
-}
-
-export interface ConfigurationRefs {
-  readonly vehicleId: string;
-  readonly vehicleRevision: number;
-  readonly frontDesignId: string;
-  readonly frontDesignRevision: number;
-  readonly rearDesignId: string;
-  readonly rearDesignRevision: number;
-  readonly trackProfile: TrackProfileId;
-}
-
-export interface ConfigurationRevision extends ConfigurationRefs {
-  readonly revision: number;
-  readonly name: string;
-  readonly message: string | null;
-  readonly authorName: string | null;
-  readonly createdAt: string;
-}
-
-export interface TransitionRow {
-  readonly revision: number;
-  readonly fromStatus: ConfigurationStatus;
-  readonly toStatus: ConfigurationStatus;
-  readonly message: string | null;
-  readonly actorName: string | null;
-  readonly createdAt: string;
-}
-
-/** What the engines compute for a configuration (the balance with both corners linked; each corner's fit over the profile's travel). */
-export interface ConfigurationResults {
-  readonly balance: BalanceResponse;
-  readonly bumpSteer: { readonly front: ToeFit; readonly rear: ToeFit; readonly travelMm: readonly [number, number] };
-}
-
-export interface ResultsAnswer {
-  readonly revision: number;
-  readonly refs: ConfigurationRefs;
-  readonly engineVersion: string;
-  readonly results: ConfigurationResults;
-}
-
-/** `Difference` of docs/api.md: a changed value at a dotted path; `change` = b − a for numbers. */
-export interface Difference {
-  readonly path: string;
-  readonly a: unknown;
-  readonly b: unknown;
-  readonly change?: number;
-}
-
-export interface ApprovalSummary {
-  readonly id: string;
-  readonly revision: number;
-  readonly engineVersion: string;
-  readonly message: string | null;
-  readonly approvedByName: string | null;
-  readonly approvedAt: string;
-}
-
-export interface ApprovalDetail extends ApprovalSummary {
-  readonly inputs: { readonly refs: ConfigurationRefs; readonly vehicle: unknown; readonly frontCorner: Corner; readonly rearCorner: Corner; readonly trackProfile: TrackProfileId };
-  readonly results: ConfigurationResults;
-  readonly recompute:
-    | { readonly engineVersion: string; readonly differences: readonly Difference[] }
-    | { readonly engineVersion: string; readonly error: { readonly code: string; readonly message: string } };
-}
-
-export interface CompareAnswer {
-  readonly engineVersion: string;
-  readonly a: { readonly configurationId: string; readonly revision: number; readonly refs: ConfigurationRefs };
-  readonly b: { readonly configurationId: string; readonly revision: number; readonly refs: ConfigurationRefs };
-  readonly inputs: readonly Difference[];
-  readonly results: readonly Difference[];
-}
-
-export interface ReviewComment {
-  readonly id: string;
-  readonly revision: number;
-  readonly parentId: string | null;
-  readonly resultRef: string | null;
-  readonly body: string;
-  readonly authorName: string | null;
-  readonly createdAt: string;
-  readonly resolvedAt: string | null;
-}
-
-export interface CommentThread extends ReviewComment {
-  readonly resolved: boolean;
-  readonly replies: readonly ReviewComment[];
-}
+/** The response types are the server's own (shared/api): docs/api.md, "Configurations and review". */
+export type {
+  ApprovalDetail,
+  ApprovalSummary,
+  CommentThread,
+  CompareAnswer,
+  Configuration,
+  ConfigurationRefs,
+  ConfigurationResults,
+  ConfigurationRevision,
+  ConfigurationStatus,
+  CriticalCaution,
+  GatesAnswer,
+  LatestPreviewAnswer,
+  ResultsAnswer,
+  ReviewAction,
+  ReviewComment,
+  TransitionRow,
+} from '../../../../shared/api/configurations';
+export type { Difference } from '../../../../shared/api/common';
+export type { DesignRevisionRecord, VehicleRevisionRecord } from '../../../../shared/api/documents';
 
 export interface NewConfiguration {
   readonly name: string;
@@ -144,15 +67,11 @@ export interface ConfigurationChange {
 }
 
 /** A stored revision of a vehicle or axle design (only the fields these screens read). */
-export interface VehicleRevisionRecord {
-  readonly revision: number;
-  readonly name: string;
-  readonly data: unknown;
-}
-export interface DesignRevisionRecord {
-  readonly revision: number;
-  readonly name: string;
-  readonly corner: Corner;
+
+/** What a reviewer sends with a step: reasons for Critical cautions (sign-off) or rig waivers (validated). */
+export interface GateBody {
+  readonly acknowledgements?: readonly { readonly axle: 'front' | 'rear'; readonly code: string; readonly reason: string }[];
+  readonly waivers?: readonly { readonly axle: 'front' | 'rear'; readonly reason: string }[];
 }
 
 const inline = () => ({ context: new HttpContext().set(SHOW_ERRORS_INLINE, true) });
@@ -200,8 +119,23 @@ export class ConfigurationsApi {
   }
 
   /** A review step; `revision` is the one the caller looked at (a newer one is 409 stale_revision). */
-  act(teamId: string, id: string, action: ReviewAction, revision: number, message?: string): Observable<Configuration> {
-    return this.http.post<Configuration>(`${this.base(teamId, id)}/${action}`, { revision, ...(message ? { message } : {}) }, inline());
+  act(teamId: string, id: string, action: ReviewAction, revision: number, message?: string, gate: GateBody = {}): Observable<Configuration> {
+    return this.http.post<Configuration>(`${this.base(teamId, id)}/${action}`, { revision, ...(message ? { message } : {}), ...gate }, inline());
+  }
+
+  /** What the sign-off and validated gates ask for on a revision (default the current one). */
+  gates(teamId: string, id: string): Observable<GatesAnswer> {
+    return this.http.get<GatesAnswer>(`${this.base(teamId, id)}/gates`, inline());
+  }
+
+  /** What re-pointing at the latest vehicle and design revisions would change; nothing is saved. */
+  latestPreview(teamId: string, id: string): Observable<LatestPreviewAnswer> {
+    return this.http.get<LatestPreviewAnswer>(`${this.base(teamId, id)}/latest-preview`, inline());
+  }
+
+  /** Addresses of the review record's printable page and its PDF (same origin; the session cookie goes with them). */
+  recordUrl(teamId: string, id: string, kind: 'html' | 'pdf'): string {
+    return `${this.base(teamId, id)}/record.${kind}`;
   }
 
   approvals(teamId: string, id: string): Observable<ApprovalSummary[]> {

@@ -1,6 +1,6 @@
 import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter, Router } from '@angular/router';
+import { provideRouter, Router, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { provideHttpClient } from '@angular/common/http';
 import { provideHttpClientTesting } from '@angular/common/http/testing';
@@ -47,7 +47,7 @@ describe('ConfigurationsPage', () => {
         provideRouter([
           { path: 'teams/:teamId/configurations', component: ConfigurationsPage },
           { path: 'teams/:teamId/configurations/:configurationId', children: [] },
-        ]),
+        ], withComponentInputBinding()),
         provideHttpClient(),
         provideHttpClientTesting(),
       ],
@@ -72,7 +72,7 @@ describe('ConfigurationsPage', () => {
     const { root } = await open('/teams/t-tal/configurations', ['team:read']);
     const rows = [...root.querySelectorAll('tbody tr')];
     expect(rows).toHaveLength(2);
-    expect(rows[0]!.querySelector('rw-status-chip')!.textContent).toContain('Approved');
+    expect(rows[0]!.querySelector('rw-status-chip')!.textContent).toContain('Signed off');
     expect(rows[1]!.querySelector('rw-status-chip')!.textContent).toContain('Draft');
     expect(rows[0]!.textContent).toContain('Rear baseline rev 3');
     expect(rows[0]!.textContent).toContain('Smooth circuit');

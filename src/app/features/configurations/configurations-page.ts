@@ -1,20 +1,22 @@
-import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
 import { ActivatedRoute, Router, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
-import { trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
+import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import type { VehicleSummary } from '../../core/api-types';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
 import { VehiclesApi } from '../../teams/vehicles-api';
 import { AxleDesignSummary, FeaturesApi, RevisionRow } from '../features-api';
-import { routeParam } from '../route-params';
 import { Configuration, ConfigurationsApi, NewConfiguration } from './configurations-api';
 import { problemText } from './review-words';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { StatusChip } from './status-chip';
+import { optionValue } from '../../core/forms/dom-events';
+import { routeKey } from '../route-params';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 type ListState = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; list: readonly Configuration[] };
 
@@ -30,7 +32,8 @@ type ListState = { kind: 'loading' } | { kind: 'error'; message: string } | { ki
   styleUrl: './configurations-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class ConfigurationsPage implements OnInit {
+export class ConfigurationsPage {
+  protected readonly optionValue = optionValue;
   private readonly route = inject(ActivatedRoute);
   private readonly router = inject(Router);
   private readonly api = inject(ConfigurationsApi);
@@ -38,15 +41,28 @@ export class ConfigurationsPage implements OnInit {
   private readonly vehiclesApi = inject(VehiclesApi);
   protected readonly access = inject(TeamAccess);
 
-  protected readonly teamId = routeParam(this.route, 'teamId');
+  readonly teamId = input.required<string>();
   /** Only this vehicle's configurations (from the vehicle page), or all. */
-  protected readonly vehicleFilter = signal(this.route.snapshot.queryParamMap.get('vehicle') ?? '');
+  /** `?vehicle=`: the vehicle the list is filtered to. */
+  readonly vehicle = input<string | undefined>(undefined);
+  protected readonly vehicleFilter = linkedSignal(() => this.vehicle() ?? '');
   protected readonly showArchived = signal(false);
   protected readonly state = signal<ListState>({ kind: 'loading' });
   protected readonly vehicles = signal<readonly VehicleSummary[]>([]);
   protected readonly canCreate = this.access.permission('vehicle:manage');
   protected readonly timeZone = browserTimeZone();
   protected readonly profiles = Object.values(trackProfiles);
+  constructor() {
+    // Loads on arrival and again when the router reuses this page for other route parameters.
+    effect(() => {
+      routeKey(this.teamId());
+      untracked(() => {
+        void firstValueFrom(this.access.load(this.teamId())).catch(() => undefined);
+        void this.load();
+      });
+    });
+  }
+
   protected localTime(iso: string): string {
     return formatLocalTime(iso, this.timeZone);
   }
@@ -79,17 +95,12 @@ export class ConfigurationsPage implements OnInit {
   protected readonly fronts = computed(() => this.formDesigns().filter((d) => d.axle === 'front'));
   protected readonly rears = computed(() => this.formDesigns().filter((d) => d.axle === 'rear'));
 
-  ngOnInit(): void {
-    void firstValueFrom(this.access.load(this.teamId)).catch(() => undefined);
-    void this.load();
-  }
-
   protected async load(): Promise<void> {
     this.state.set({ kind: 'loading' });
     try {
       const [list, vehicles] = await Promise.all([
-        firstValueFrom(this.api.list(this.teamId, this.showArchived())),
-        firstValueFrom(this.vehiclesApi.list(this.teamId, false)).catch(() => [] as VehicleSummary[]),
+        firstValueFrom(this.api.list(this.teamId(), this.showArchived())),
+        firstValueFrom(this.vehiclesApi.list(this.teamId(), false)).catch(() => [] as VehicleSummary[]),
       ]);
       this.vehicles.set(vehicles);
       this.state.set({ kind: 'ready', list });
@@ -125,8 +136,8 @@ export class ConfigurationsPage implements OnInit {
     if (!id) return;
     try {
       const [designs, revisions] = await Promise.all([
-        firstValueFrom(this.features.axleDesigns(this.teamId, id)),
-        firstValueFrom(this.features.vehicleRevisions(this.teamId, id)),
+        firstValueFrom(this.features.axleDesigns(this.teamId(), id)),
+        firstValueFrom(this.features.vehicleRevisions(this.teamId(), id)),
       ]);
       this.formDesigns.set(designs);
       this.formVehicleRevisions.set(revisions);
@@ -137,14 +148,14 @@ export class ConfigurationsPage implements OnInit {
     }
   }
 
-  protected async chooseDesign(axle: 'front' | 'rear', id: string): Promise<void> {
+  protected async chooseDesign(axle: AxleName, id: string): Promise<void> {
     (axle === 'front' ? this.formFront : this.formRear).set(id);
     (axle === 'front' ? this.formFrontRevision : this.formRearRevision).set('');
     const revisions = axle === 'front' ? this.frontRevisions : this.rearRevisions;
     revisions.set([]);
     if (!id) return;
     try {
-      revisions.set(await firstValueFrom(this.features.axleDesignRevisions(this.teamId, id)));
+      revisions.set(await firstValueFrom(this.features.axleDesignRevisions(this.teamId(), id)));
     } catch {
       revisions.set([]);
     }
@@ -177,8 +188,8 @@ export class ConfigurationsPage implements OnInit {
     this.saving.set(true);
     this.formError.set(null);
     try {
-      const c = await firstValueFrom(this.api.create(this.teamId, body));
-      await this.router.navigate(['/teams', this.teamId, 'configurations', c.id]);
+      const c = await firstValueFrom(this.api.create(this.teamId(), body));
+      await this.router.navigate(['/teams', this.teamId(), 'configurations', c.id]);
     } catch (error) {
       this.formError.set(problemText(error));
     } finally {

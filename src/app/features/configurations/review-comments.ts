@@ -1,5 +1,8 @@
 import { ChangeDetectionStrategy, Component, ElementRef, effect, inject, input, model, signal, viewChild } from '@angular/core';
 import { MatButton } from '@angular/material/button';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { MatOption, MatSelect } from '@angular/material/select';
 import { firstValueFrom } from 'rxjs';
 import { CommentThread, ConfigurationsApi } from './configurations-api';
 import { problemText, refLabel, validRef } from './review-words';
@@ -19,19 +22,21 @@ type ThreadsState = { kind: 'loading' } | { kind: 'error'; message: string } | {
  */
 @Component({
   selector: 'rw-review-comments',
-  imports: [MatButton],
+  imports: [MatButton, MatFormField, MatLabel, MatInput, MatSelect, MatOption],
   template: `
     @if (canComment()) {
       <form class="rw-comment-form" (submit)="$event.preventDefault(); post()" aria-label="New comment">
-        <label><span>Points at</span>
-          <select aria-label="Points at" name="resultRef" (change)="target.set(value($event))">
-            <option value="" [selected]="target() === ''">The configuration as a whole</option>
-            @for (o of refOptions(); track o.ref) { <option [value]="o.ref" [selected]="target() === o.ref">{{ o.label }}</option> }
-          </select>
-        </label>
-        <label><span>Comment</span>
-          <textarea aria-label="Comment" #commentBox name="body" rows="3" maxlength="4000" [value]="draft()" (input)="draft.set(value($event))"></textarea>
-        </label>
+        <mat-form-field class="rw-wide-field">
+          <mat-label>Points at</mat-label>
+          <mat-select name="resultRef" [value]="target()" (selectionChange)="target.set($event.value)">
+            <mat-option value="">The configuration as a whole</mat-option>
+            @for (o of refOptions(); track o.ref) { <mat-option [value]="o.ref">{{ o.label }}</mat-option> }
+          </mat-select>
+        </mat-form-field>
+        <mat-form-field class="rw-wide-field">
+          <mat-label>Comment</mat-label>
+          <textarea matInput #commentBox name="body" rows="3" maxlength="4000" [value]="draft()" (input)="draft.set(value($event))"></textarea>
+        </mat-form-field>
         @if (postError(); as m) { <p class="rw-form-error" role="alert">{{ m }}</p> }
         <div class="rw-form-actions"><button mat-flat-button type="submit" [disabled]="busy()">Post comment</button></div>
       </form>
@@ -49,14 +54,14 @@ type ThreadsState = { kind: 'loading' } | { kind: 'error'; message: string } | {
           @if (s.threads.length === 0) {
             <p class="rw-state" role="status">No comments yet.</p>
           } @else {
-            <ol class="rw-threads" aria-label="Comment threads">
+            <ol class="rw-threads" aria-label="Review remarks">
               @for (t of s.threads; track t.id) {
                 <li class="rw-thread" [class.rw-thread-resolved]="t.resolved" [attr.data-ref]="t.resultRef">
                   <article [attr.aria-label]="'Comment by ' + (t.authorName ?? 'someone')">
                     <p class="rw-thread-meta">
                       <strong>{{ t.authorName ?? 'Someone' }}</strong> · <time [attr.datetime]="t.createdAt">{{ time(t.createdAt) }}</time> · on revision {{ t.revision }}
                       @if (t.resultRef) { · <span class="rw-thread-ref">On: {{ label(t.resultRef) }}</span> }
-                      · <span class="rw-thread-state">{{ t.resolved ? 'Resolved' : 'Open' }}</span>
+                      · <span class="rw-thread-state">{{ t.resolved ? 'Closed' : 'Open' }}</span>
                     </p>
                     <p class="rw-thread-body">{{ t.body }}</p>
                     @for (r of t.replies; track r.id) {
@@ -67,12 +72,13 @@ type ThreadsState = { kind: 'loading' } | { kind: 'error'; message: string } | {
                     }
                     @if (canComment()) {
                       <form class="rw-reply-form" (submit)="$event.preventDefault(); reply(t)" [attr.aria-label]="'Reply to ' + (t.authorName ?? 'this comment')">
-                        <label><span>Reply</span>
-                          <textarea aria-label="Reply" name="reply" rows="2" maxlength="4000" [value]="replies()[t.id] ?? ''" (input)="setReply(t.id, value($event))"></textarea>
-                        </label>
+                        <mat-form-field class="rw-wide-field">
+                          <mat-label>Reply</mat-label>
+                          <textarea matInput name="reply" rows="2" maxlength="4000" [value]="replies()[t.id] ?? ''" (input)="setReply(t.id, value($event))"></textarea>
+                        </mat-form-field>
                         <div class="rw-form-actions">
                           <button mat-stroked-button type="submit" [disabled]="busy()">Reply</button>
-                          <button mat-button type="button" [disabled]="busy()" (click)="setResolved(t, !t.resolved)">{{ t.resolved ? 'Reopen thread' : 'Resolve thread' }}</button>
+                          <button mat-button type="button" [disabled]="busy()" (click)="setResolved(t, !t.resolved)">{{ t.resolved ? 'Reopen remark' : 'Close remark' }}</button>
                         </div>
                       </form>
                     }
@@ -88,8 +94,7 @@ type ThreadsState = { kind: 'loading' } | { kind: 'error'; message: string } | {
   `,
   styles: `
     .rw-comment-form, .rw-reply-form { display: flex; flex-direction: column; gap: 0.4rem; max-width: 44rem; }
-    label { display: flex; flex-direction: column; gap: 0.2rem; font: var(--mat-sys-body-small); }
-    select, textarea { font: var(--mat-sys-body-medium); padding: 0.3rem; }
+    .rw-wide-field { width: 100%; }
     .rw-threads { list-style: none; padding: 0; display: flex; flex-direction: column; gap: 0.75rem; }
     .rw-thread { border-left: 4px solid var(--mat-sys-primary); padding: 0.5rem 0.75rem; background: var(--mat-sys-surface-container-low); }
     .rw-thread-resolved { border-left-style: dashed; border-left-color: var(--mat-sys-outline); }

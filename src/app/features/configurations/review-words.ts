@@ -1,13 +1,14 @@
 import type { Permission } from '../../core/api-types';
 import { apiProblem } from '../../core/http/api-error';
 import type { ConfigurationResults, ConfigurationStatus, ReviewAction } from './configurations-api';
+import type { QuantityKind } from '../../core/format/quantities';
 
 /** Each status in words with an icon, so no state is told by colour alone. */
 export const STATUS_WORDS: Readonly<Record<ConfigurationStatus, { label: string; icon: string }>> = {
   draft: { label: 'Draft', icon: 'edit_note' },
   in_review: { label: 'In review', icon: 'rate_review' },
-  changes_requested: { label: 'Changes requested', icon: 'assignment_return' },
-  approved: { label: 'Approved', icon: 'task_alt' },
+  changes_requested: { label: 'Returned for rework', icon: 'construction' },
+  approved: { label: 'Signed off', icon: 'signature' },
   released: { label: 'Released to build', icon: 'precision_manufacturing' },
   validated: { label: 'Validated', icon: 'verified' },
 };
@@ -19,7 +20,7 @@ export interface ActionSpec {
   readonly from: readonly ConfigurationStatus[];
   /** A decision: never on one's own work (the server answers 403 own_revision). */
   readonly decision: boolean;
-  /** The message is required (request changes: say what). */
+  /** The message is required (return for rework: say what). */
   readonly needsMessage: boolean;
 }
 
@@ -27,8 +28,8 @@ export interface ActionSpec {
 export const ACTIONS: readonly ActionSpec[] = [
   { action: 'submit', label: 'Submit for review', permission: 'review:submit', from: ['draft'], decision: false, needsMessage: false },
   { action: 'withdraw', label: 'Withdraw from review', permission: 'review:submit', from: ['in_review'], decision: false, needsMessage: false },
-  { action: 'approve', label: 'Approve', permission: 'review:decide', from: ['in_review'], decision: true, needsMessage: false },
-  { action: 'request-changes', label: 'Request changes', permission: 'review:decide', from: ['in_review'], decision: true, needsMessage: true },
+  { action: 'approve', label: 'Sign off', permission: 'review:decide', from: ['in_review'], decision: true, needsMessage: false },
+  { action: 'request-changes', label: 'Return for rework', permission: 'review:decide', from: ['in_review'], decision: true, needsMessage: true },
   { action: 'release', label: 'Release to build', permission: 'review:decide', from: ['approved'], decision: true, needsMessage: false },
   { action: 'validate', label: 'Mark validated', permission: 'review:decide', from: ['released'], decision: true, needsMessage: false },
 ];
@@ -47,22 +48,26 @@ export interface KeyFigure {
   /** The result path (`figure:<path>` in a comment). */
   readonly path: string;
   readonly label: string;
+  /** Unit of the stored (SI-based) value. */
   readonly unit: string;
+  /** What it measures: its unit and rounding in the user's system. */
+  readonly kind: QuantityKind;
+  /** Decimals shown in the stored unit (displayDecimals gives them in the user's system). */
   readonly digits: number;
   readonly value: number | null;
 }
 
-const FIGURES: readonly { path: string; label: string; unit: string; digits: number }[] = [
-  { path: 'balance.kinematicsLink.front.used.rollSteerCoefficient', label: 'Roll steer ε, front', unit: 'deg/deg', digits: 4 },
-  { path: 'balance.kinematicsLink.rear.used.rollSteerCoefficient', label: 'Roll steer ε, rear', unit: 'deg/deg', digits: 4 },
-  { path: 'balance.understeerBudget.rollSteer', label: 'Understeer-gradient change from roll steer', unit: 'deg/g', digits: 3 },
-  { path: 'balance.understeerBudget.total', label: 'Understeer gradient K', unit: 'deg/g', digits: 3 },
-  { path: 'balance.rollGradientDegPerG', label: 'Roll gradient', unit: 'deg/g', digits: 3 },
-  { path: 'balance.characteristicSpeedKph', label: 'Characteristic speed', unit: 'km/h', digits: 1 },
-  { path: 'bumpSteer.front.bumpSteerDegPerM', label: 'Bump steer, front', unit: 'deg/m', digits: 3 },
-  { path: 'bumpSteer.rear.bumpSteerDegPerM', label: 'Bump steer, rear', unit: 'deg/m', digits: 3 },
-  { path: 'bumpSteer.front.camberGainDegPerM', label: 'Camber gain, front', unit: 'deg/m', digits: 2 },
-  { path: 'bumpSteer.rear.camberGainDegPerM', label: 'Camber gain, rear', unit: 'deg/m', digits: 2 },
+const FIGURES: readonly { path: string; label: string; unit: string; kind: QuantityKind; digits: number }[] = [
+  { path: 'balance.kinematicsLink.front.used.rollSteerCoefficient', label: 'Roll steer ε, front', unit: 'deg/deg', kind: 'rollSteer', digits: 4 },
+  { path: 'balance.kinematicsLink.rear.used.rollSteerCoefficient', label: 'Roll steer ε, rear', unit: 'deg/deg', kind: 'rollSteer', digits: 4 },
+  { path: 'balance.understeerBudget.rollSteer', label: 'Understeer-gradient change from roll steer', unit: 'deg/g', kind: 'understeerGradient', digits: 3 },
+  { path: 'balance.understeerBudget.total', label: 'Understeer gradient K', unit: 'deg/g', kind: 'understeerGradient', digits: 3 },
+  { path: 'balance.rollGradientDegPerG', label: 'Roll gradient', unit: 'deg/g', kind: 'understeerGradient', digits: 3 },
+  { path: 'balance.characteristicSpeedKph', label: 'Characteristic speed', unit: 'km/h', kind: 'speed', digits: 1 },
+  { path: 'bumpSteer.front.bumpSteerDegPerM', label: 'Bump steer, front', unit: 'deg/m', kind: 'bumpSteer', digits: 3 },
+  { path: 'bumpSteer.rear.bumpSteerDegPerM', label: 'Bump steer, rear', unit: 'deg/m', kind: 'bumpSteer', digits: 3 },
+  { path: 'bumpSteer.front.camberGainDegPerM', label: 'Camber gain, front', unit: 'deg/m', kind: 'camberGain', digits: 2 },
+  { path: 'bumpSteer.rear.camberGainDegPerM', label: 'Camber gain, rear', unit: 'deg/m', kind: 'camberGain', digits: 2 },
 ];
 
 /** The value at a dotted path (`a.b[2].c`), or undefined. */
@@ -101,11 +106,6 @@ export function refLabel(ref: string): string {
 /** Whether a reference is one the server accepts (routes/configurations.ts `resultRef`). */
 export function validRef(ref: string): boolean {
   return /^(budget|chart:[a-z0-9-]{1,60}|caution:[a-z0-9-]{1,60}|figure:[A-Za-z0-9_.[\]-]{1,120})$/.test(ref);
-}
-
-/** A number for tables; "–" when missing. */
-export function fmt(v: unknown, digits = 3): string {
-  return typeof v === 'number' && Number.isFinite(v) ? v.toFixed(digits) : v === null || v === undefined ? '–' : String(v);
 }
 
 /** A difference value: numbers to significant digits, other values as text. */

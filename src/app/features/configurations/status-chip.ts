@@ -18,7 +18,7 @@ import { STATUS_WORDS } from './review-words';
     .rw-status[data-status='approved'], .rw-status[data-status='released'], .rw-status[data-status='validated'] {
       background: var(--mat-sys-primary-container); color: var(--mat-sys-on-primary-container);
     }
-    .rw-status[data-status='changes_requested'] { background: var(--mat-sys-error-container); color: var(--mat-sys-on-error-container); }
+    .rw-status[data-status='changes_requested'] { background: var(--rw-caution-critical-container); color: var(--rw-on-caution-critical-container); }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
-import type { Caution } from '../../../../shared/intent/cautions';
+import type { Caution } from '../../../../shared/cautions/cautions';
 
 const LEVEL_WORDS: Readonly<Record<Caution['level'], string>> = {
   info: 'Note',

@@ -1,32 +1,54 @@
-import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal } from '@angular/core';
-import { ActivatedRoute, RouterLink } from '@angular/router';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
+import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
-import type { SolveResult } from '../../../../shared/intent/index';
-import { trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
+import type { ProposalDetails, SolveResult } from '../../../../shared/intent/index';
+import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import { innerName, outerName } from '../../../../shared/schema/steering-link';
+import { intentSchema } from '../../../../shared/schema/intent';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
+import { issueWords, type SchemaIssue } from '../../../../shared/schema/issue-words';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
 import { LineChart } from '../../charts/line-chart';
 import { ChartMark, LineSeries } from '../../charts/chart-types';
 import { AnalysisError, AnalysisSuperseded } from '../../workers/kinematics-client';
 import { IntentClient } from '../../workers/intent-client';
+import { failureWords } from '../../workers/failure-words';
 import { AxleDesign, FeaturesApi } from '../features-api';
-import { routeParam } from '../route-params';
-import { rollSteerWords } from '../roll-steer-words';
+import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { parseDecimal } from '../axle-design/hardpoint-io';
 import { pointName } from '../axle-design/hardpoint-model';
 import { CautionList } from './caution-list';
 import { BumpCostView } from '../bump-cost';
+import { NumPipe, DISPLAY_UNITS } from '../../core/format/num-pipe';
+import { formatNum } from '../../core/format/num';
+import { inDisplayUnits, unitLabel, type QuantityKind } from '../../core/format/quantities';
+import { routeKey } from '../route-params';
+import { RigApi, type RigMeasurementDetail } from '../rig/rig-api';
+
+/** Rig files drawn over the toe curves at most (the newest). */
+const RIG_OVERLAYS = 3;
+
+/** A rig file's measured toe as change from ride height (its value at travel 0 interpolated), mm and deg. */
+export function rigToeChange(points: readonly { travelMm: number; toeDeg: number }[]): { travelMm: number; toeDeg: number }[] {
+  const sorted = [...points].sort((a, b) => a.travelMm - b.travelMm);
+  const above = sorted.findIndex((p) => p.travelMm >= 0);
+  if (above < 0 || (above === 0 && sorted[0]!.travelMm > 0)) return [];
+  const hi = sorted[above]!;
+  const lo = sorted[Math.max(0, above - 1)]!;
+  const atZero = hi.travelMm === 0 || hi === lo ? hi.toeDeg : lo.toeDeg + ((0 - lo.travelMm) / (hi.travelMm - lo.travelMm)) * (hi.toeDeg - lo.toeDeg);
+  return sorted.map((p) => ({ travelMm: p.travelMm, toeDeg: p.toeDeg - atZero }));
+}
 
 export type TargetKind = 'epsilon' | 'toePerRoll' | 'understeer' | 'zeroBump';
 
 interface MovableRow {
   readonly name: string;
   readonly label: string;
+  /** Current value, mm. */
   readonly current: number;
   /** rack.z bounds are offsets from the current height; all others absolute. */
   readonly offset: boolean;
@@ -34,63 +56,116 @@ interface MovableRow {
 
 interface MovableState {
   readonly on: boolean;
+  /** Bounds as typed, in the user's length unit. */
   readonly min: string;
   readonly max: string;
 }
 
+/** The target as asked, kept with the result it produced. */
+interface AskedTarget {
+  readonly kind: TargetKind;
+  readonly value: number | null;
+}
+
+/** A solve result and the entries that produced it. */
+interface Solved {
+  readonly result: SolveResult;
+  /** The solve's inputs (the intent without its workshop options), to tell when the entries have moved on. */
+  readonly key: string;
+  readonly asked: AskedTarget;
+}
+
+/** Where an entry's problems are shown: beside its field. */
+type FieldKey = 'target' | 'movable' | `bound:${string}` | 'travel' | 'bump' | 'budget' | 'shim' | 'pitch' | 'reach' | 'stack' | 'general';
+
 const DEFAULT_HALF_RANGE_MM = 20;
+const WORKSHOP_OPTION_KEYS = ['shimThicknessMm', 'threadPitchMm', 'adjuster', 'adjusterReachMm', 'shimStackMaxMm'] as const;
+const OPTION_FIELDS: Readonly<Record<string, FieldKey>> = {
+  bumpYawBudgetPct: 'budget',
+  shimThicknessMm: 'shim',
+  threadPitchMm: 'pitch',
+  adjusterReachMm: 'reach',
+  shimStackMaxMm: 'stack',
+};
+/** Workshop defaults (the intent schema's), mm. */
+const WORKSHOP_DEFAULTS_MM = { shim: 1, pitch: 1.5, reach: 5, stack: 10 } as const;
+
+const TARGET_WORDS: Readonly<Record<TargetKind, string>> = {
+  epsilon: 'roll steer coefficient ε',
+  toePerRoll: 'outside-wheel toe-in per degree of roll',
+  understeer: 'understeer-gradient change',
+  zeroBump: 'zero bump steer',
+};
 
 /**
  * Intent panel: what an axle should do in roll, what may move and within
  * which package, on which kind of track; runs the back-solver in a Web
- * Worker with progress, shows the verified result with its family, the
- * workshop numbers and the cautions beside it, and proposes the geometry as
- * a draft revision for a designer to accept.
+ * Worker with progress, shows the verified result beside the target asked
+ * (marked out of date as soon as an entry changes), lets the user pick any
+ * member of the solution family and works it out for the workshop (curves
+ * over the current ones, shims and adjuster with the user's shim and thread,
+ * as-built ε, sensitivities), with the cautions beside it, and proposes the
+ * geometry as a draft revision for a designer to accept. Every number is in
+ * the user's unit system.
  */
 @Component({
   selector: 'rw-intent-page',
-  imports: [RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution, CautionList, BumpCostView],
+  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution, CautionList, BumpCostView],
   templateUrl: './intent-page.html',
   styleUrl: './intent-page.scss',
   providers: [IntentClient],
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class IntentPage implements OnInit {
-  private readonly route = inject(ActivatedRoute);
+export class IntentPage {
   private readonly api = inject(FeaturesApi);
   private readonly access = inject(TeamAccess);
   private readonly solver = inject(IntentClient);
+  private readonly rig = inject(RigApi);
+  protected readonly units = inject(DISPLAY_UNITS);
 
-  protected readonly teamId = routeParam(this.route, 'teamId');
-  protected readonly vehicleId = routeParam(this.route, 'vehicleId');
-  protected readonly designId = routeParam(this.route, 'designId');
+  readonly teamId = input.required<string>();
+  readonly vehicleId = input.required<string>();
+  readonly designId = input.required<string>();
 
   protected readonly loadError = signal<string | null>(null);
   protected readonly design = signal<AxleDesign | null>(null);
   protected readonly vehicleData = signal<unknown | null>(null);
   protected readonly canPropose = computed(() => this.access.can('design:propose'));
 
+  /** The user's length unit ("mm" or "in"). */
+  protected readonly lengthUnit = computed(() => unitLabel('length', this.units()));
+
   protected readonly targetKind = signal<TargetKind>('epsilon');
   protected readonly targetText = signal('');
   protected readonly profileId = signal<TrackProfileId>('smooth-circuit');
-  protected readonly travelFromText = signal(String(trackProfiles['smooth-circuit'].travelMm[0]));
-  protected readonly travelToText = signal(String(trackProfiles['smooth-circuit'].travelMm[1]));
-  protected readonly bumpText = signal(String(trackProfiles['smooth-circuit'].bumpHeightMm));
+  protected readonly travelFromText = signal('');
+  protected readonly travelToText = signal('');
+  protected readonly bumpText = signal('');
   /** Optional bump-cost budget: RMS yaw-rate disturbance on the profile's road, % of the steady yaw rate (empty: none). */
   protected readonly budgetText = signal('');
   protected readonly movable = signal<Readonly<Record<string, MovableState>>>({});
+  // Workshop: the user's shims and thread, in the user's length unit.
+  protected readonly shimText = signal('');
+  protected readonly pitchText = signal('');
+  protected readonly adjusterKind = signal<'single-thread' | 'turnbuckle'>('single-thread');
+  protected readonly reachText = signal('');
+  protected readonly stackText = signal('');
 
   protected readonly profiles = Object.values(trackProfiles);
 
   protected readonly running = signal(false);
   protected readonly progress = signal(0);
   protected readonly progressMessage = signal('');
-  protected readonly failure = signal<string | null>(null);
-  protected readonly result = signal<SolveResult | null>(null);
+  /** Why the last solve did not finish, with the target it was asked for. */
+  protected readonly failure = signal<{ message: string; asked: AskedTarget } | null>(null);
+  protected readonly solved = signal<Solved | null>(null);
   protected readonly proposeMessage = signal('');
   protected readonly proposing = signal(false);
   protected readonly proposed = signal<string | null>(null);
   protected readonly proposeError = signal<string | null>(null);
+
+  /** Rig measurements of this revision at rack 0 (the current geometry as built), drawn over the toe curves. */
+  protected readonly rigFiles = signal<readonly RigMeasurementDetail[]>([]);
 
   protected readonly vehicleValid = computed(() => vehicleSchema.safeParse(this.vehicleData()).success);
 
@@ -111,172 +186,26 @@ export class IntentPage implements OnInit {
     return rows;
   });
 
-  /** Problems with the entries, in words; the solve runs only without any. */
-  protected readonly problems = computed(() => {
-    const out: string[] = [];
-    const kind = this.targetKind();
-    if (kind !== 'zeroBump' && parseDecimal(this.targetText()) === null) out.push('Target: enter a number.');
-    if (kind === 'understeer' && !this.vehicleValid()) {
-      out.push('An understeer-gradient target needs complete vehicle data (the vehicle page) to turn it into a roll steer coefficient.');
-    }
-    const on = this.movableRows().filter((r) => this.movable()[r.name]?.on);
-    if (on.length === 0) out.push('Choose at least one coordinate that may move.');
-    for (const r of on) {
-      const s = this.movable()[r.name]!;
-      const lo = parseDecimal(s.min);
-      const hi = parseDecimal(s.max);
-      if (lo === null || hi === null) out.push(`${r.label}: bounds must be numbers in mm.`);
-      else if (!(lo < hi)) out.push(`${r.label}: the lower bound must be below the upper bound.`);
-      else if (!r.offset && (r.current < lo || r.current > hi)) out.push(`${r.label}: the bounds must include the current ${r.current} mm.`);
-    }
-    if (on.some((r) => r.name === 'rack.z') && on.some((r) => r.name.endsWith('Inner.z'))) {
-      out.push('Rack height and the inner point height move the same point: choose one of them.');
-    }
-    const from = parseDecimal(this.travelFromText());
-    const to = parseDecimal(this.travelToText());
-    if (from === null || to === null || !(from < 0 && to > 0)) out.push('Travel range: from a droop below 0 to a bump above 0 mm.');
-    const bump = parseDecimal(this.bumpText());
-    if (bump === null || bump <= 0) out.push('Single-wheel bump height: a positive number of mm.');
-    if (this.budgetText().trim() !== '') {
-      const budget = parseDecimal(this.budgetText());
-      if (budget === null || budget <= 0) out.push('Bump-cost budget: a positive percentage, or leave it empty.');
-      else if (!this.vehicleValid()) out.push('Bump-cost budget: needs the vehicle data (masses, springs, dampers and tyres).');
-    }
-    return out;
-  });
+  /** Coordinate names in words, for messages and tables. */
+  protected readonly coordinateLabels = computed<Readonly<Partial<Record<string, string>>>>(() => Object.fromEntries(this.movableRows().map((r) => [r.name, r.label])));
 
-  protected readonly axle = computed(() => this.design()?.axle ?? 'rear');
+  // ---- the entries as an intent document, checked by the shared intent schema ----
 
-  protected readonly targetWords = computed(() => {
-    const v = parseDecimal(this.targetText());
-    if (v === null) return '';
-    if (this.targetKind() === 'epsilon') return rollSteerWords(v, this.axle());
-    if (this.targetKind() === 'toePerRoll') return rollSteerWords(-v, this.axle());
-    return '';
-  });
-
-  // ---- result charts ----
-
-  protected readonly familyChart = computed(() => {
-    const r = this.result();
-    if (!r || r.family.length === 0) return null;
-    const names = Object.keys(r.family[0]!.coordinates);
-    if (names.length === 0) return null;
-    const xName = r.familyParameter && names.includes(r.familyParameter) ? r.familyParameter : names[0]!;
-    const yName = names.find((n) => n !== xName) ?? null;
-    const yOf = (m: (typeof r.family)[number]) => (yName ? m.coordinates[yName]! : m.objectiveRmsDeg);
-    const series: LineSeries[] = [
-      { name: 'Solution family', points: r.family.map((m) => ({ x: m.coordinates[xName]!, y: yOf(m) })).sort((a, b) => a.x - b.x) },
-    ];
-    const chosen = r.family.find((m) => m.chosen);
-    const marks: ChartMark[] = chosen ? [{ x: chosen.coordinates[xName]!, y: yOf(chosen), label: 'Chosen' }] : [];
-    return {
-      series,
-      marks,
-      x: { label: xName, unit: 'mm' },
-      y: yName ? { label: yName, unit: 'mm' } : { label: 'RMS toe deviation', unit: 'deg' },
-    };
-  });
-
-  /**
-   * Balance gained against bump cost: with a vehicle that runs the ride model, the primary coordinate
-   * across its bounds (x: yaw-rate disturbance on the profile's road, % of the steady yaw rate);
-   * otherwise the family members against their toe change over the single-wheel bump.
-   */
-  protected readonly tradeOffChart = computed(() => {
-    const r = this.result();
-    if (!r) return null;
-    if (r.tradeOff.length > 0) {
-      const useUndersteer = r.tradeOff.every((t) => t.understeerChangeDegPerG !== null);
-      const y = (t: (typeof r.tradeOff)[number]) => (useUndersteer ? t.understeerChangeDegPerG! : t.rollSteerCoefficient);
-      const points = r.tradeOff.map((t) => ({ x: t.yawDisturbancePct, y: y(t) })).sort((a, b) => a.x - b.x);
-      const chosen = r.family.find((m) => m.chosen);
-      const chosenY = chosen ? (useUndersteer ? chosen.understeerChangeDegPerG : chosen.rollSteerCoefficient) : null;
-      return {
-        series: [{ name: `${r.primaryCoordinate} across its bounds`, points }],
-        marks: chosen?.bumpCost && chosenY !== null ? [{ x: chosen.bumpCost.yawDisturbancePct, y: chosenY, label: 'Chosen' }] : [],
-        x: { label: `Yaw-rate disturbance on ${r.bumpCost?.roadInWords ?? 'the profile road'}, % of steady yaw rate`, unit: '%' },
-        y: useUndersteer ? { label: 'Understeer change', unit: 'deg/g' } : { label: 'Roll steer coefficient ε', unit: 'deg/deg' },
-      };
-    }
-    const members = r.family.filter((m) => m.bumpToeChangeDeg !== null);
-    if (members.length === 0) return null;
-    const useUndersteer = members.every((m) => m.understeerChangeDegPerG !== null);
-    const yOf = (m: (typeof members)[number]) => (useUndersteer ? m.understeerChangeDegPerG! : m.rollSteerCoefficient);
-    const points = members.map((m) => ({ x: Math.abs(m.bumpToeChangeDeg!), y: yOf(m) })).sort((a, b) => a.x - b.x);
-    const chosen = members.find((m) => m.chosen);
-    return {
-      series: [{ name: 'Family members', points }],
-      marks: chosen ? [{ x: Math.abs(chosen.bumpToeChangeDeg!), y: yOf(chosen), label: 'Chosen' }] : [],
-      x: { label: 'Toe change over the single-wheel bump', unit: 'deg' },
-      y: useUndersteer ? { label: 'Understeer change', unit: 'deg/g' } : { label: 'Roll steer coefficient ε', unit: 'deg/deg' },
-    };
-  });
-
-  /** The result's cautions; its safety notice is the page's own caution below. */
-  protected readonly resultCautions = computed(() => (this.result()?.cautions ?? []).filter((c) => c.code !== 'safety-notice'));
-
-  protected readonly toeChart = computed<LineSeries[]>(() => {
-    const r = this.result();
-    if (!r) return [];
-    const racks = [...new Set(r.achieved.toeCurve.map((p) => p.rackMm))];
-    return racks.map((rack) => ({
-      name: `Proposed, rack ${rack} mm`,
-      points: r.achieved.toeCurve.filter((p) => p.rackMm === rack).map((p) => ({ x: p.travelMm, y: p.toeDeg })),
-    }));
-  });
-
-  ngOnInit(): void {
-    void this.load();
+  /** A length typed in the user's unit, in mm (NaN when it is not a number, so the schema says so). */
+  private mm(text: string): number {
+    const v = parseDecimal(text);
+    if (v === null) return NaN;
+    return this.units() === 'imperial' ? v * 25.4 : v;
   }
 
-  private async load(): Promise<void> {
-    try {
-      const [design] = await Promise.all([
-        firstValueFrom(this.api.axleDesign(this.teamId, this.designId)),
-        firstValueFrom(this.access.load(this.teamId)),
-      ]);
-      this.design.set(design);
-      this.initMovable();
-      try {
-        const vehicle = await firstValueFrom(this.api.vehicle(this.teamId, this.vehicleId));
-        this.vehicleData.set(vehicle.data);
-      } catch {
-        this.vehicleData.set(null);
-      }
-    } catch (error) {
-      this.loadError.set(apiProblem(error).message);
-    }
+  private number(text: string): number {
+    return parseDecimal(text) ?? NaN;
   }
 
-  private initMovable(): void {
-    const state: Record<string, MovableState> = {};
-    for (const r of this.movableRows()) {
-      const on = r.name.endsWith('Inner.z') || r.name.endsWith('Outer.z');
-      const lo = r.offset ? -DEFAULT_HALF_RANGE_MM : r.current - DEFAULT_HALF_RANGE_MM;
-      const hi = r.offset ? DEFAULT_HALF_RANGE_MM : r.current + DEFAULT_HALF_RANGE_MM;
-      state[r.name] = { on, min: String(Number(lo.toPrecision(10))), max: String(Number(hi.toPrecision(10))) };
-    }
-    this.movable.set(state);
-  }
-
-  protected setMovable(name: string, patch: Partial<MovableState>): void {
-    this.movable.update((m) => ({ ...m, [name]: { ...m[name]!, ...patch } }));
-  }
-
-  protected chooseProfile(id: string): void {
-    const p = trackProfiles[id as TrackProfileId];
-    if (!p) return;
-    this.profileId.set(p.id);
-    this.travelFromText.set(String(p.travelMm[0]));
-    this.travelToText.set(String(p.travelMm[1]));
-    this.bumpText.set(String(p.bumpHeightMm));
-  }
-
-  /** The intent document of shared/schema/intent.ts built from the entries. */
+  /** The intent document of shared/schema/intent.ts built from the entries (workshop options included). */
   intentDocument(): Record<string, unknown> {
     const d = this.design()!;
-    const value = parseDecimal(this.targetText()) ?? 0;
+    const value = this.number(this.targetText());
     const kind = this.targetKind();
     const target =
       kind === 'epsilon'
@@ -290,7 +219,7 @@ export class IntentPage implements OnInit {
     const bounds: Record<string, [number, number]> = {};
     for (const r of on) {
       const s = this.movable()[r.name]!;
-      bounds[r.name] = [parseDecimal(s.min)!, parseDecimal(s.max)!];
+      bounds[r.name] = [this.mm(s.min), this.mm(s.max)];
     }
     return {
       formatVersion: 1,
@@ -301,19 +230,383 @@ export class IntentPage implements OnInit {
       bounds,
       trackProfile: {
         id: this.profileId(),
-        travelMm: [parseDecimal(this.travelFromText())!, parseDecimal(this.travelToText())!],
-        bumpHeightMm: parseDecimal(this.bumpText())!,
+        travelMm: [this.mm(this.travelFromText()), this.mm(this.travelToText())],
+        bumpHeightMm: this.mm(this.bumpText()),
       },
       ...(this.vehicleValid() ? { vehicle: this.vehicleData() } : {}),
-      ...(this.budgetText().trim() !== '' ? { options: { bumpYawBudgetPct: parseDecimal(this.budgetText())! } } : {}),
+      options: {
+        ...(this.budgetText().trim() !== '' ? { bumpYawBudgetPct: this.number(this.budgetText()) } : {}),
+        shimThicknessMm: this.mm(this.shimText()),
+        threadPitchMm: this.mm(this.pitchText()),
+        adjuster: this.adjusterKind(),
+        adjusterReachMm: this.mm(this.reachText()),
+        shimStackMaxMm: this.mm(this.stackText()),
+      },
     };
   }
 
+  private readonly document = computed(() => (this.design() ? this.intentDocument() : null));
+
+  /** The solve's inputs without the workshop options (those only change the workshop numbers). */
+  private readonly solveKey = computed(() => {
+    const doc = this.document();
+    if (!doc) return '';
+    const options = { ...(doc['options'] as Record<string, unknown>) };
+    for (const k of WORKSHOP_OPTION_KEYS) delete options[k];
+    return JSON.stringify({ ...doc, options });
+  });
+
+  /**
+   * Every problem with the entries, beside the field it concerns, all at once. The rules are the
+   * shared intent schema's (the same the server and the solver apply), in the user's words; bounds
+   * that leave out the current geometry are the form's own advice.
+   */
+  protected readonly fieldErrors = computed<Readonly<Partial<Record<FieldKey, string[]>>>>(() => {
+    const doc = this.document();
+    if (!doc) return {};
+    const out: Partial<Record<FieldKey, string[]>> = {};
+    const add = (k: FieldKey, m: string) => (out[k] = [...(out[k] ?? []), m]);
+    const on = this.movableRows().filter((r) => this.movable()[r.name]?.on);
+    if (on.length === 0) add('movable', 'choose at least one coordinate that may move');
+    for (const r of on) {
+      const s = this.movable()[r.name]!;
+      const lo = this.mm(s.min);
+      const hi = this.mm(s.max);
+      if (!r.offset && lo < hi && (r.current < lo || r.current > hi)) add(`bound:${r.name}`, `the bounds must include the current ${formatNum(r.current, { kind: 'length' }, this.units())} ${this.lengthUnit()}`);
+    }
+    const checked = intentSchema.safeParse(doc);
+    if (checked.success) return out;
+    const labels: Record<string, string> = { 'rack.z': 'the rack height' };
+    for (const r of this.movableRows()) labels[r.name] = r.label;
+    for (const issue of checked.error.issues) {
+      if (issue.path[0] === 'movable' && on.length === 0) continue;
+      add(this.fieldOf(issue.path, doc), issueWords(issue as SchemaIssue, doc, labels));
+    }
+    return out;
+  });
+
+  private fieldOf(path: ReadonlyArray<PropertyKey>, doc: Record<string, unknown>): FieldKey {
+    const [a, b] = path;
+    if (a === 'target') return 'target';
+    if (a === 'bounds' && typeof b === 'string') return `bound:${b}`;
+    if (a === 'movable') return typeof b === 'number' ? `bound:${(doc['movable'] as string[])[b]}` : 'movable';
+    if (a === 'trackProfile') return b === 'bumpHeightMm' ? 'bump' : 'travel';
+    if (a === 'options' && typeof b === 'string') return OPTION_FIELDS[b] ?? 'general';
+    return 'general';
+  }
+
+  protected errorsOf(key: FieldKey): readonly string[] {
+    return this.fieldErrors()[key] ?? [];
+  }
+
+  protected boundErrors(name: string): readonly string[] {
+    return this.errorsOf(`bound:${name}`);
+  }
+
+  protected sensitivityOf(d: ProposalDetails, name: string): number | null {
+    return d.sensitivity[name] ?? null;
+  }
+
+  /** Problems that keep the solve from running (the workshop entries only hold back the workshop numbers). */
+  protected readonly blocking = computed(() =>
+    Object.entries(this.fieldErrors())
+      .filter(([k]) => !['shim', 'pitch', 'reach', 'stack'].includes(k))
+      .reduce((n, [, m]) => n + (m?.length ?? 0), 0),
+  );
+  protected readonly workshopBlocked = computed(() => ['shim', 'pitch', 'reach', 'stack'].some((k) => (this.fieldErrors()[k as FieldKey]?.length ?? 0) > 0));
+
+  protected readonly axle = computed(() => this.design()?.axle ?? 'rear');
+
+  /** What the typed target means on this axle ("roll understeer"), beside the field. */
+  protected readonly targetWords = computed(() => {
+    const v = parseDecimal(this.targetText());
+    if (v === null) return '';
+    if (this.targetKind() === 'epsilon') return rollSteerWords(v, this.axle());
+    if (this.targetKind() === 'toePerRoll') return rollSteerWords(-v, this.axle());
+    return '';
+  });
+
+  /** The target asked for, in words: "ε = 0.02 deg/deg (roll understeer)". */
+  protected askedWords(t: AskedTarget): string {
+    if (t.kind === 'zeroBump') return 'zero bump steer';
+    if (t.value === null) return '';
+    const n = formatNum(t.value, { sig: 4 });
+    if (t.kind === 'epsilon') return `ε = ${n} deg/deg (${rollSteerWords(t.value, this.axle())})`;
+    if (t.kind === 'toePerRoll') return `${n} deg of outside-wheel toe-in per deg of roll (${rollSteerWords(-t.value, this.axle())})`;
+    return `${n} deg/g of understeer-gradient change`;
+  }
+
+  protected readonly targetKindWords = TARGET_WORDS;
+
+  // ---- the result, and whether it still belongs to the entries ----
+
+  protected readonly result = computed(() => this.solved()?.result ?? null);
+  /** The entries changed since the result was solved: it is shown marked out of date. */
+  protected readonly outOfDate = computed(() => {
+    const s = this.solved();
+    return s !== null && s.key !== this.solveKey();
+  });
+
+  /** Members the user may choose from: the family, or (infeasible) the closest geometry alone. */
+  protected readonly members = computed(() => {
+    const r = this.result();
+    if (!r) return [];
+    if (r.family.length > 0) return r.family.map((m, i) => ({ index: i, coordinates: m.coordinates, solverPick: m.chosen, member: m }));
+    return [{ index: 0, coordinates: Object.fromEntries(r.coordinates.map((c) => [c.name, c.proposedMm])), solverPick: true, member: null }];
+  });
+  /** The member shown and worked out: the solver's pick until the user picks another. */
+  protected readonly selected = linkedSignal(() => Math.max(0, this.members().findIndex((m) => m.solverPick)));
+  protected readonly selectedMember = computed(() => this.members()[this.selected()] ?? null);
+
+  /** The workshop entries as the intent carries them (they change the workshop numbers, never the solve). */
+  private readonly workshopKey = computed(() => {
+    const options = (this.document()?.['options'] ?? {}) as Record<string, unknown>;
+    return JSON.stringify(WORKSHOP_OPTION_KEYS.map((k) => options[k]));
+  });
+  /** The solve, the member and the workshop entries a worked-out member belongs to (other entries only make the result out of date). */
+  private readonly detailsKey = computed(() => {
+    const m = this.selectedMember();
+    return m ? JSON.stringify({ solve: this.solved()?.key, member: m.coordinates, workshop: this.workshopKey() }) : '';
+  });
+  private readonly detailsState = signal<{ key: string; value: ProposalDetails } | { key: string; error: string } | null>(null);
+  /** The chosen member worked out, when it belongs to the entries on screen. */
+  protected readonly details = computed(() => {
+    const d = this.detailsState();
+    return d && 'value' in d && d.key === this.detailsKey() ? d.value : null;
+  });
+  protected readonly detailsError = computed(() => {
+    const d = this.detailsState();
+    return d && 'error' in d && d.key === this.detailsKey() ? d.error : null;
+  });
+
+  // ---- result charts (every length in the user's unit) ----
+
+  private len(v: number): number {
+    return inDisplayUnits(v, 'length', this.units());
+  }
+
+  protected unit(kind: QuantityKind): string {
+    return unitLabel(kind, this.units());
+  }
+
+  protected readonly familyChart = computed(() => {
+    const r = this.result();
+    if (!r || r.family.length === 0) return null;
+    const names = Object.keys(r.family[0]!.coordinates);
+    if (names.length === 0) return null;
+    const labels = this.coordinateLabels();
+    const xName = r.familyParameter && names.includes(r.familyParameter) ? r.familyParameter : names[0]!;
+    const yName = names.find((n) => n !== xName) ?? null;
+    const yOf = (m: (typeof r.family)[number]) => (yName ? this.len(m.coordinates[yName]!) : m.objectiveRmsDeg);
+    const point = (m: (typeof r.family)[number]) => ({ x: this.len(m.coordinates[xName]!), y: yOf(m) });
+    const series: LineSeries[] = [{ name: 'Solution family', points: r.family.map(point).sort((a, b) => a.x - b.x) }];
+    const pick = r.family.find((m) => m.chosen);
+    const chosen = r.family[this.selected()];
+    const marks: ChartMark[] = [];
+    if (pick) marks.push({ ...point(pick), label: "Solver's pick" });
+    if (chosen && chosen !== pick) marks.push({ ...point(chosen), label: 'Chosen' });
+    const u = this.lengthUnit();
+    return {
+      series,
+      marks,
+      x: { label: labels[xName] ?? xName, unit: u },
+      y: yName ? { label: labels[yName] ?? yName, unit: u } : { label: 'RMS toe deviation', unit: 'deg' },
+    };
+  });
+
+  /**
+   * Balance gained against bump cost: the primary coordinate swept across its bounds (the family
+   * itself all meets the target, so it has no balance to trade). x: the bump cost in its physical
+   * unit, the RMS yaw-rate disturbance on the profile's road (deg/s) where the vehicle runs the ride
+   * model, else the toe change over the single-wheel bump (deg); y: understeer change (deg/g) with
+   * a vehicle, else ε.
+   */
+  protected readonly tradeOffChart = computed(() => {
+    const r = this.result();
+    if (!r || r.tradeOff.length < 2) return null;
+    const useYaw = r.tradeOff.every((t) => t.yawRateRmsDegPerS !== null);
+    const useUndersteer = r.tradeOff.every((t) => t.understeerChangeDegPerG !== null);
+    const x = (t: (typeof r.tradeOff)[number]) => (useYaw ? t.yawRateRmsDegPerS! : Math.abs(t.bumpToeChangeDeg));
+    const y = (t: (typeof r.tradeOff)[number]) => (useUndersteer ? t.understeerChangeDegPerG! : t.rollSteerCoefficient);
+    // In the order of the sweep (the coordinate across its bounds): the bump cost falls to its least where the
+    // toe line is straightest and rises again, so sorting by cost would zig-zag between the two sides.
+    const points = [...r.tradeOff].sort((a, b) => a.valueMm - b.valueMm).map((t) => ({ x: x(t), y: y(t) }));
+    const marks: ChartMark[] = [];
+    const m = this.selectedMember()?.member;
+    const mx = m ? (useYaw ? (m.bumpCost?.yawRateRmsDegPerS ?? null) : m.bumpToeChangeDeg === null ? null : Math.abs(m.bumpToeChangeDeg)) : null;
+    const my = m ? (useUndersteer ? m.understeerChangeDegPerG : m.rollSteerCoefficient) : null;
+    if (mx !== null && my !== null) marks.push({ x: mx, y: my, label: m!.chosen ? "Solver's pick" : 'Chosen' });
+    const primary = this.coordinateLabels()[r.primaryCoordinate] ?? r.primaryCoordinate;
+    const spreadX = Math.max(...points.map((p) => p.x)) - Math.min(...points.map((p) => p.x));
+    const spreadY = Math.max(...points.map((p) => p.y)) - Math.min(...points.map((p) => p.y));
+    return {
+      series: [{ name: `${primary} across its bounds`, points }],
+      marks,
+      x: useYaw
+        ? { label: `Yaw-rate disturbance, RMS, on ${r.bumpCost?.roadInWords ?? "the profile's road"}`, unit: 'deg/s' }
+        : { label: `Toe change over the ${formatNum(r.trackProfile.bumpHeightMm, { kind: 'length' }, this.units())} ${this.lengthUnit()} single-wheel bump`, unit: 'deg' },
+      y: useUndersteer ? { label: 'Understeer-gradient change', unit: 'deg/g' } : { label: 'Roll steer coefficient ε', unit: 'deg/deg' },
+      description:
+        `Across the bounds of ${primary.toLowerCase()} the bump cost spans ${formatNum(spreadX, { sig: 3 })} ${useYaw ? 'deg/s' : 'deg'} ` +
+        `and the ${useUndersteer ? 'understeer change' : 'roll steer coefficient'} ${formatNum(spreadY, { sig: 3 })} ${useUndersteer ? 'deg/g' : 'deg/deg'}.`,
+    };
+  });
+
+  /** The chosen member's toe change from ride height over the current geometry's (rack straight ahead). */
+  protected readonly toeOverlay = computed<LineSeries[]>(() => {
+    const d = this.details();
+    if (!d) return [];
+    const rig: LineSeries[] = this.rigFiles().map((f) => ({
+      name: `Rig: ${f.name} (${f.side} wheel)`,
+      style: 'points',
+      points: rigToeChange(f.points).map((p) => ({ x: this.len(p.travelMm), y: p.toeDeg })),
+    }));
+    return [
+      { name: 'Current geometry', points: d.toeCurve.map((p) => ({ x: this.len(p.travelMm), y: p.currentDeg })) },
+      { name: 'Proposed geometry', points: d.toeCurve.map((p) => ({ x: this.len(p.travelMm), y: p.proposedDeg })) },
+      ...rig.filter((r) => r.points.length > 0),
+    ];
+  });
+
+  /** The chosen member's axle steer against roll over the current geometry's. */
+  protected readonly rollOverlay = computed<LineSeries[]>(() => {
+    const d = this.details();
+    if (!d) return [];
+    return [
+      { name: 'Current geometry', points: d.rollCurve.map((p) => ({ x: p.rollDeg, y: p.currentDeg })) },
+      { name: 'Proposed geometry', points: d.rollCurve.map((p) => ({ x: p.rollDeg, y: p.proposedDeg })) },
+    ];
+  });
+
+  /** The result's cautions; its safety notice is the page's own caution below. */
+  protected readonly resultCautions = computed(() => (this.result()?.cautions ?? []).filter((c) => c.code !== 'safety-notice'));
+
+  constructor() {
+    // Loads on arrival and again when the router reuses this page for other route parameters.
+    effect(() => {
+      routeKey(this.teamId(), this.vehicleId(), this.designId());
+      untracked(() => {
+        void this.load();
+      });
+    });
+    // Works out the chosen member whenever it, the result or the workshop entries change.
+    effect(() => {
+      const key = this.detailsKey();
+      const member = this.selectedMember();
+      const doc = this.document();
+      if (!key || !member || !doc || this.outOfDate() || this.workshopBlocked()) return;
+      untracked(() => void this.workOut(key, doc, member.coordinates));
+    });
+    // Entries typed in one unit system follow a change of the user's choice.
+    let shownIn = untracked(this.units);
+    effect(() => {
+      const now = this.units();
+      if (now !== shownIn) untracked(() => this.convertEntries(shownIn, now));
+      shownIn = now;
+    });
+  }
+
+  private async workOut(key: string, doc: Record<string, unknown>, member: Readonly<Record<string, number>>): Promise<void> {
+    try {
+      const value = await this.solver.details(doc, member);
+      this.detailsState.set({ key, value });
+    } catch (error) {
+      if (error instanceof AnalysisSuperseded) return;
+      this.detailsState.set({ key, error: error instanceof AnalysisError ? failureWords(error.failure) : String(error) });
+    }
+  }
+
+  private async load(): Promise<void> {
+    try {
+      const [design] = await Promise.all([
+        firstValueFrom(this.api.axleDesign(this.teamId(), this.designId())),
+        firstValueFrom(this.access.load(this.teamId())),
+      ]);
+      this.design.set(design);
+      this.initEntries();
+      void this.loadRig(design);
+      try {
+        const vehicle = await firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId()));
+        this.vehicleData.set(vehicle.data);
+      } catch {
+        this.vehicleData.set(null);
+      }
+    } catch (error) {
+      this.loadError.set(apiProblem(error).message);
+    }
+  }
+
+  /** The newest rig files measured on this revision at rack 0; none when there are none or they cannot be read. */
+  private async loadRig(design: AxleDesign): Promise<void> {
+    try {
+      const list = await firstValueFrom(this.rig.list(this.teamId(), { designId: design.id }));
+      const mine = list
+        .filter((m) => m.designId === design.id && m.designRevision === design.revision && m.rackMm === 0)
+        .sort((a, b) => b.createdAt.localeCompare(a.createdAt))
+        .slice(0, RIG_OVERLAYS);
+      this.rigFiles.set(await Promise.all(mine.map((m) => firstValueFrom(this.rig.get(this.teamId(), m.id)))));
+    } catch {
+      this.rigFiles.set([]);
+    }
+  }
+
+  /** A length in mm as an entry text in the user's unit. */
+  private lengthText(mm: number): string {
+    return formatNum(mm, { sig: 7, kind: 'length' }, this.units());
+  }
+
+  private initEntries(): void {
+    const state: Record<string, MovableState> = {};
+    for (const r of this.movableRows()) {
+      const on = r.name.endsWith('Inner.z') || r.name.endsWith('Outer.z');
+      const lo = r.offset ? -DEFAULT_HALF_RANGE_MM : r.current - DEFAULT_HALF_RANGE_MM;
+      const hi = r.offset ? DEFAULT_HALF_RANGE_MM : r.current + DEFAULT_HALF_RANGE_MM;
+      state[r.name] = { on, min: this.lengthText(lo), max: this.lengthText(hi) };
+    }
+    this.movable.set(state);
+    this.chooseProfile(this.profileId());
+    this.shimText.set(this.lengthText(WORKSHOP_DEFAULTS_MM.shim));
+    this.pitchText.set(this.lengthText(WORKSHOP_DEFAULTS_MM.pitch));
+    this.reachText.set(this.lengthText(WORKSHOP_DEFAULTS_MM.reach));
+    this.stackText.set(this.lengthText(WORKSHOP_DEFAULTS_MM.stack));
+  }
+
+  /** Rewrites every length entry from one unit system to the other. */
+  private convertEntries(from: 'si' | 'imperial', to: 'si' | 'imperial'): void {
+    const convert = (text: string) => {
+      const v = parseDecimal(text);
+      if (v === null) return text;
+      const mm = from === 'imperial' ? v * 25.4 : v;
+      return formatNum(mm, { sig: 7, kind: 'length' }, to);
+    };
+    this.movable.update((m) => Object.fromEntries(Object.entries(m).map(([k, s]) => [k, { ...s, min: convert(s.min), max: convert(s.max) }])));
+    for (const s of [this.travelFromText, this.travelToText, this.bumpText, this.shimText, this.pitchText, this.reachText, this.stackText]) s.set(convert(s()));
+  }
+
+  protected setMovable(name: string, patch: Partial<MovableState>): void {
+    this.movable.update((m) => ({ ...m, [name]: { ...m[name]!, ...patch } }));
+  }
+
+  protected chooseProfile(id: string): void {
+    const p = trackProfiles[id as TrackProfileId];
+    if (!p) return;
+    this.profileId.set(p.id);
+    this.travelFromText.set(this.lengthText(p.travelMm[0]));
+    this.travelToText.set(this.lengthText(p.travelMm[1]));
+    this.bumpText.set(this.lengthText(p.bumpHeightMm));
+  }
+
   protected async run(): Promise<void> {
-    if (this.problems().length > 0 || this.running()) return;
+    if (this.blocking() > 0 || this.running()) return;
+    const asked: AskedTarget = { kind: this.targetKind(), value: parseDecimal(this.targetText()) };
+    const key = this.solveKey();
+    // The result on screen belongs to the entries before: it goes as the new solve starts.
+    this.solved.set(null);
+    this.detailsState.set(null);
     this.running.set(true);
     this.failure.set(null);
     this.proposed.set(null);
+    this.proposeError.set(null);
     this.progress.set(0);
     this.progressMessage.set('starting');
     try {
@@ -321,10 +614,10 @@ export class IntentPage implements OnInit {
         this.progress.set(Math.round(f * 100));
         this.progressMessage.set(m);
       });
-      this.result.set(result);
+      this.solved.set({ result, key, asked });
     } catch (error) {
       if (error instanceof AnalysisSuperseded) return;
-      this.failure.set(error instanceof AnalysisError ? error.failure.message : String(error));
+      this.failure.set({ message: error instanceof AnalysisError ? failureWords(error.failure) : String(error), asked });
     } finally {
       this.running.set(false);
     }
@@ -337,23 +630,27 @@ export class IntentPage implements OnInit {
   protected async propose(): Promise<void> {
     const r = this.result();
     const d = this.design();
-    if (!r || !d || this.proposing()) return;
+    const member = this.details();
+    const m = this.selectedMember();
+    if (!r || !d || !member || !m || this.outOfDate() || this.proposing()) return;
     this.proposing.set(true);
     this.proposeError.set(null);
     try {
       const p = await firstValueFrom(
-        this.api.propose(this.teamId, this.designId, {
-          corner: r.corner,
+        this.api.propose(this.teamId(), this.designId(), {
+          corner: member.corner,
           baseRevision: d.revision,
-          message: this.proposeMessage().trim() || `Intent: ${r.target.label}, ε ${r.achieved.rollSteerCoefficient.toFixed(4)}`,
+          message: this.proposeMessage().trim() || `Intent: ${r.target.label}, ε ${formatNum(member.rollSteerCoefficient, { decimals: 4 })}`,
           origin: {
             kind: 'intent',
             target: r.target,
-            achievedRollSteerCoefficient: r.achieved.rollSteerCoefficient,
-            understeerChangeDegPerG: r.understeerChangeDegPerG,
+            achievedRollSteerCoefficient: member.rollSteerCoefficient,
+            understeerChangeDegPerG: member.understeerChangeDegPerG,
             trackProfile: r.trackProfile.id,
             engineVersion: r.engineVersion,
-            cautions: r.cautions.filter((c) => c.code !== 'safety-notice'),
+            member: m.solverPick ? 'solver-pick' : 'chosen-by-user',
+            // The solve's cautions were measured on the solver's pick; another member carries none of them.
+            cautions: m.solverPick ? r.cautions.filter((c) => c.code !== 'safety-notice') : [],
           },
         }),
       );
@@ -365,12 +662,14 @@ export class IntentPage implements OnInit {
     }
   }
 
-  protected fmt(v: number | null | undefined, digits = 3): string {
-    return v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
-  }
-
   protected words(eps: number): string {
     return rollSteerWords(eps, this.axle());
+  }
+
+  /** dε per unit length of a coordinate in the user's unit (per mm or per inch). */
+  protected perLength(perMm: number | null): number | null {
+    if (perMm === null) return null;
+    return this.units() === 'imperial' ? perMm * 25.4 : perMm;
   }
 
   protected text(event: Event): string {
@@ -379,5 +678,9 @@ export class IntentPage implements OnInit {
 
   protected checked(event: Event): boolean {
     return (event.target as HTMLInputElement).checked;
+  }
+
+  protected adjusterFrom(event: Event): 'single-thread' | 'turnbuckle' {
+    return (event.target as HTMLSelectElement).value === 'turnbuckle' ? 'turnbuckle' : 'single-thread';
   }
 }

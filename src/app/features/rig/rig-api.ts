@@ -1,13 +1,15 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
-import type { RigMapping, RigPoint, RigPreview } from '../../../../shared/io/rig-measurement';
-import type { RigBasis, RigComparison, RigTolerance } from '../../../../shared/intent/rig-compare';
+import type { RigMapping } from '../../../../shared/io/rig-measurement';
+import type { RigBasis, RigTolerance } from '../../../../shared/rig/compare';
+import type { CreatedRigMeasurement, RigMeasurementDetail, RigMeasurementSummary, RigPreviewAnswer, RigToleranceView } from '../../../../shared/api/rig';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 /** What a measurement is compared with (docs/rig-measurements.md). */
 export type RigTarget =
-  | { readonly kind: 'configuration'; readonly configurationId: string; readonly configurationRevision?: number; readonly axle: 'front' | 'rear' }
+  | { readonly kind: 'configuration'; readonly configurationId: string; readonly configurationRevision?: number; readonly axle: AxleName }
   | { readonly kind: 'baseline'; readonly designId: string; readonly designRevision?: number };
 
 export interface RigOptions {
@@ -18,43 +20,8 @@ export interface RigOptions {
   readonly basis: RigBasis;
 }
 
-/** `GET …/rig-measurements` rows. */
-export interface RigMeasurementSummary {
-  readonly id: string;
-  readonly name: string;
-  readonly fileName: string;
-  readonly attachedTo: 'configuration' | 'baseline';
-  readonly configurationId: string | null;
-  readonly configurationRevision: number | null;
-  readonly axle: 'front' | 'rear';
-  readonly designId: string;
-  readonly designName: string;
-  readonly designRevision: number;
-  readonly side: 'left' | 'right';
-  readonly rackMm: number;
-  readonly basis: RigBasis;
-  readonly pointCount: number;
-  readonly hasCamber: boolean;
-  readonly note: string | null;
-  readonly authorName: string | null;
-  readonly createdAt: string;
-}
-
-/** `GET …/rig-measurements/:id`: the points and the comparison the server computed now. */
-export interface RigMeasurementDetail extends RigMeasurementSummary {
-  readonly mapping: RigMapping;
-  readonly points: readonly RigPoint[];
-  readonly comparison: RigComparison;
-  readonly engineVersion: string;
-}
-
-export type RigPreviewAnswer = RigPreview & { readonly fileName: string };
-
-export interface RigToleranceView extends RigTolerance {
-  readonly isDefault: boolean;
-  readonly updatedAt: string | null;
-  readonly updatedByName: string | null;
-}
+// The answers' types are the server's (shared/api/rig.ts).
+export type { RigMeasurementDetail, RigMeasurementSummary, RigPreviewAnswer, RigToleranceView } from '../../../../shared/api/rig';
 
 const inline = () => ({ context: new HttpContext().set(SHOW_ERRORS_INLINE, true) });
 
@@ -73,13 +40,13 @@ export class RigApi {
     return this.http.post<RigPreviewAnswer>(`${this.base(teamId)}/rig-measurements/preview`, form, inline());
   }
 
-  create(teamId: string, file: Blob, fileName: string, mapping: RigMapping, target: RigTarget, options: RigOptions): Observable<RigMeasurementSummary & { comparison: RigComparison }> {
+  create(teamId: string, file: Blob, fileName: string, mapping: RigMapping, target: RigTarget, options: RigOptions): Observable<CreatedRigMeasurement> {
     const form = new FormData();
     form.append('mapping', JSON.stringify(mapping));
     form.append('target', JSON.stringify(target));
     form.append('options', JSON.stringify(options));
     form.append('file', file, fileName);
-    return this.http.post<RigMeasurementSummary & { comparison: RigComparison }>(`${this.base(teamId)}/rig-measurements`, form, inline());
+    return this.http.post<CreatedRigMeasurement>(`${this.base(teamId)}/rig-measurements`, form, inline());
   }
 
   list(teamId: string, filter: { configurationId?: string; designId?: string }): Observable<RigMeasurementSummary[]> {

@@ -5,7 +5,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { sweepCorner } from '../../../../shared/kinematics/sweep';
 import { previewRigCsv, readRigCsv, type RigMapping } from '../../../../shared/io/rig-measurement';
-import { compareRigMeasurement, DEFAULT_RIG_TOLERANCE } from '../../../../shared/intent/rig-compare';
+import { compareRigMeasurement, DEFAULT_RIG_TOLERANCE } from '../../../../shared/rig/compare';
 import { RigMeasurementsPanel } from './rig-measurements-panel';
 
 const TEAM = '/api/teams/team-1';

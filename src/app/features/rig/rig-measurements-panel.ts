@@ -17,14 +17,17 @@ import {
   type ToeUnit,
   type TravelUnit,
 } from '../../../../shared/io/rig-measurement';
-import type { RigBasis, RigComparison, RigStats } from '../../../../shared/intent/rig-compare';
+import type { RigBasis, RigComparison, RigStats } from '../../../../shared/rig/compare';
 import { LineChart } from '../../charts/line-chart';
-import { formatNumber, type LineSeries } from '../../charts/chart-types';
+import { type LineSeries } from '../../charts/chart-types';
 import { apiProblem } from '../../core/http/api-error';
 import type { LoadState } from '../../core/http/load-state';
 import { CautionList } from '../intent/caution-list';
 import { SafetyCaution } from '../safety-caution';
 import { RigApi, type RigMeasurementDetail, type RigMeasurementSummary, type RigPreviewAnswer, type RigTarget, type RigToleranceView } from './rig-api';
+import { NumPipe } from '../../core/format/num-pipe';
+import { inputChecked, inputValue, optionValue } from '../../core/forms/dom-events';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 /** Where the upload of a new file stands. */
 type UploadState =
@@ -61,12 +64,15 @@ const UNIT_WORDS: Readonly<Record<string, string>> = {
  */
 @Component({
   selector: 'rw-rig-measurements',
-  imports: [MatButton, LineChart, CautionList, SafetyCaution],
+  imports: [NumPipe, MatButton, LineChart, CautionList, SafetyCaution],
   templateUrl: './rig-measurements-panel.html',
   styleUrl: './rig-measurements-panel.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class RigMeasurementsPanel {
+  protected readonly inputChecked = inputChecked;
+  protected readonly inputValue = inputValue;
+  protected readonly optionValue = optionValue;
   private readonly api = inject(RigApi);
   private readonly dialog = inject(MatDialog);
 
@@ -76,7 +82,7 @@ export class RigMeasurementsPanel {
   /** Without a configuration: compare with this axle design as a baseline (at `designRevision`, default its current one). */
   readonly designId = input<string | null>(null);
   readonly designRevision = input<number | null>(null);
-  readonly axle = input<'front' | 'rear'>('front');
+  readonly axle = input<AxleName>('front');
   /** The caller holds `vehicle:manage` (upload and delete); the server checks it again. */
   readonly canEdit = input<boolean>(true);
   /** The caller holds `members:manage` (set the team's rig tolerance). */
@@ -110,7 +116,7 @@ export class RigMeasurementsPanel {
   protected readonly toeSign = signal<(typeof TOE_SIGNS)[number]>('toe-in-positive');
   protected readonly camberSign = signal<(typeof CAMBER_SIGNS)[number]>('top-out-positive');
   // What it is compared with.
-  protected readonly chosenAxle = signal<'front' | 'rear'>('front');
+  protected readonly chosenAxle = signal<AxleName>('front');
   protected readonly side = signal<'left' | 'right'>('left');
   protected readonly rackText = signal('0');
   protected readonly basis = signal<RigBasis>('change');
@@ -119,7 +125,7 @@ export class RigMeasurementsPanel {
   protected readonly toleranceCamberText = signal('');
 
   private file: Blob | null = null;
-  private fileText = signal<string | null>(null);
+  private readonly fileText = signal<string | null>(null);
   private requests = new Subscription();
 
   constructor() {
@@ -232,10 +238,6 @@ export class RigMeasurementsPanel {
   protected readonly timeZone = browserTimeZone();
   protected localTime(iso: string): string {
     return formatLocalTime(iso, this.timeZone);
-  }
-
-  protected fmt(v: number, digits = 4): string {
-    return formatNumber(v, digits);
   }
 
   protected statsRows(c: RigComparison): { label: string; s: RigStats }[] {

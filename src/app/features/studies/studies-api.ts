@@ -1,25 +1,12 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
-import type { StudyRequest, StudyResult, StudyTarget } from '../../../../shared/study/index';
+import type { StudyRequest } from '../../../../shared/study/index';
+import type { AttachedStudy, ProgrammeStudies, StudyStatus, StudyView } from '../../../../shared/api/studies';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
 
-export type StudyStatus = 'queued' | 'running' | 'completed' | 'failed' | 'cancelled';
-
-/** `StudyView` of docs/api.md ("Studies"). */
-export interface StudyView {
-  readonly id: string;
-  readonly kind: 'tolerance' | 'sweep';
-  readonly label: string | null;
-  readonly status: StudyStatus;
-  readonly progress: { readonly doneChunks: number; readonly totalChunks: number; readonly doneSamples: number; readonly totalSamples: number };
-  readonly etaSeconds: number | null;
-  readonly error: { readonly code: string; readonly message: string } | null;
-  readonly target: StudyTarget;
-  readonly createdAt: string;
-  readonly createdBy: { readonly id: string; readonly displayName: string } | null;
-  readonly result?: StudyResult;
-}
+// The answers' types are the server's (shared/api/studies.ts).
+export type { AttachedStudy, ProgrammeStudies, StudyStatus, StudyView } from '../../../../shared/api/studies';
 
 const inline = () => ({ context: new HttpContext().set(SHOW_ERRORS_INLINE, true) });
 const e = encodeURIComponent;
@@ -56,6 +43,22 @@ export class StudiesApi {
   openVariant(teamId: string, id: string, index: number): Observable<{ proposal: { id: string } }> {
     return this.http.post<{ proposal: { id: string } }>(`${this.base(teamId, id)}/variants/${index}/proposal`, {}, inline());
   }
+
+  attach(teamId: string, id: string, configurationId: string, note: string): Observable<{ attachment: AttachedStudy }> {
+    return this.http.put<{ attachment: AttachedStudy }>(`${this.base(teamId, id)}/attachments/${e(configurationId)}`, { note }, inline());
+  }
+
+  detach(teamId: string, id: string, configurationId: string): Observable<void> {
+    return this.http.delete<void>(`${this.base(teamId, id)}/attachments/${e(configurationId)}`, inline());
+  }
+
+  attachedTo(teamId: string, configurationId: string): Observable<{ attachments: AttachedStudy[] }> {
+    return this.http.get<{ attachments: AttachedStudy[] }>(this.base(teamId), { ...inline(), params: { attachedTo: configurationId } });
+  }
+
+  programmeStudies(programmeId: string): Observable<ProgrammeStudies> {
+    return this.http.get<ProgrammeStudies>(`/api/programmes/${e(programmeId)}/studies`, inline());
+  }
 }
 
 /** Words for a study's status. */
@@ -74,4 +77,5 @@ export function etaWords(seconds: number | null): string {
   if (s < 60) return `about ${s} s left`;
   const m = Math.floor(s / 60);
   return `about ${m} min ${s % 60} s left`;
+
 }

@@ -1,18 +1,20 @@
-import { ChangeDetectionStrategy, Component, computed, inject, OnDestroy, OnInit, signal } from '@angular/core';
-import { ActivatedRoute, Router, RouterLink } from '@angular/router';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { Router, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
-import { TRACK_PROFILE_IDS, trackProfiles, type TrackProfileId } from '../../../../shared/intent/profiles';
+import { TRACK_PROFILE_IDS, trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import { MAX_STUDY_SAMPLES, type StudyRequest } from '../../../../shared/study/schema';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
-import { routeParam } from '../route-params';
 import { etaWords, STATUS_WORDS, StudiesApi, type StudyView } from './studies-api';
-
-type ListState = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; list: readonly StudyView[] };
+import { optionValue } from '../../core/forms/dom-events';
+import { rxResource } from '@angular/core/rxjs-interop';
+import { catchError, EMPTY, expand, map, of, switchMap, timer } from 'rxjs';
+import { loadState } from '../../core/http/load-state';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 interface ToleranceRow {
   point: string;
@@ -35,6 +37,8 @@ const POINT_NAMES = [
   'link1Inner', 'link1Outer', 'link2Inner', 'link2Outer', 'link3Inner', 'link3Outer', 'link4Inner', 'link4Outer', 'link5Inner', 'link5Outer',
 ];
 
+const isActive = (s: StudyView): boolean => s.status === 'queued' || s.status === 'running';
+
 /**
  * `/teams/:teamId/studies[?axleDesignId=…|?configurationId=…]`: the team's
  * tolerance studies and design sweeps with their progress, and a new study
@@ -47,30 +51,40 @@ const POINT_NAMES = [
   styleUrl: './studies.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class StudiesPage implements OnInit, OnDestroy {
-  private readonly route = inject(ActivatedRoute);
+export class StudiesPage {
+  protected readonly optionValue = optionValue;
   private readonly router = inject(Router);
   private readonly api = inject(StudiesApi);
   protected readonly access = inject(TeamAccess);
 
-  protected readonly teamId = routeParam(this.route, 'teamId');
-  protected readonly axleDesignId = this.route.snapshot.queryParamMap.get('axleDesignId');
-  protected readonly configurationId = this.route.snapshot.queryParamMap.get('configurationId');
-  protected readonly hasTarget = !!(this.axleDesignId || this.configurationId);
+  readonly teamId = input.required<string>();
+  /** `?axleDesignId=` or `?configurationId=`: what a new study is of. */
+  readonly axleDesignId = input<string | undefined>(undefined);
+  readonly configurationId = input<string | undefined>(undefined);
+  protected readonly hasTarget = computed(() => !!(this.axleDesignId() || this.configurationId()));
   protected readonly canRun = this.access.permission('study:run');
-  protected readonly state = signal<ListState>({ kind: 'loading' });
+  /** The team's studies; while any is queued or running, polled every two seconds (a failed poll keeps the list shown). */
+  private readonly studies = rxResource({
+    params: () => this.teamId(),
+    stream: ({ params: teamId }) => {
+      const list = () => this.api.list(teamId).pipe(map((r): readonly StudyView[] => r.studies));
+      return list().pipe(
+        expand((studies) => (studies.some(isActive) ? timer(2000).pipe(switchMap(() => list().pipe(catchError(() => of(studies))))) : EMPTY)),
+      );
+    },
+  });
+  protected readonly state = loadState(this.studies);
   protected readonly statusWords = STATUS_WORDS;
   protected readonly eta = etaWords;
   protected readonly pointNames = POINT_NAMES;
   protected readonly profiles = TRACK_PROFILE_IDS.map((id) => trackProfiles[id]);
   protected readonly maxSamples = MAX_STUDY_SAMPLES;
   private readonly timeZone = browserTimeZone();
-  private timer: ReturnType<typeof setInterval> | null = null;
 
   // ---- the form ----
   protected readonly kind = signal<'tolerance' | 'sweep'>('tolerance');
   protected readonly label = signal('');
-  protected readonly axle = signal<'front' | 'rear'>('front');
+  protected readonly axle = signal<AxleName>('front');
   protected readonly profile = signal<TrackProfileId | ''>('');
   protected readonly samples = signal(2000);
   protected readonly seed = signal<number | null>(null);
@@ -86,28 +100,15 @@ export class StudiesPage implements OnInit, OnDestroy {
   protected readonly saving = signal(false);
   protected readonly variantCount = computed(() => (this.design() === 'full-factorial' ? this.factors().reduce((a, f) => a * Math.max(2, f.levels), 1) : this.samples()));
 
-  ngOnInit(): void {
-    void firstValueFrom(this.access.load(this.teamId)).catch(() => undefined);
-    void this.load();
-    // Progress of running studies, every two seconds while any is queued or running.
-    this.timer = setInterval(() => {
-      const s = this.state();
-      if (s.kind === 'ready' && s.list.some((x) => x.status === 'queued' || x.status === 'running')) void this.load(true);
-    }, 2000);
+  constructor() {
+    effect(() => {
+      const teamId = this.teamId();
+      untracked(() => void firstValueFrom(this.access.load(teamId)).catch(() => undefined));
+    });
   }
 
-  ngOnDestroy(): void {
-    if (this.timer) clearInterval(this.timer);
-  }
-
-  protected async load(quiet = false): Promise<void> {
-    if (!quiet) this.state.set({ kind: 'loading' });
-    try {
-      const { studies } = await firstValueFrom(this.api.list(this.teamId));
-      this.state.set({ kind: 'ready', list: studies });
-    } catch (error) {
-      if (!quiet) this.state.set({ kind: 'error', message: apiProblem(error).message });
-    }
+  protected load(): void {
+    this.studies.reload();
   }
 
   protected localTime(iso: string): string {
@@ -129,6 +130,18 @@ export class StudiesPage implements OnInit, OnDestroy {
   protected optionalNum(event: Event): number | null {
     const v = this.value(event).trim();
     return v === '' ? null : Number(v);
+  }
+
+  protected setToleranceAxis(i: number, event: Event): void {
+    this.setTolerance(i, { axis: optionValue<ToleranceRow['axis']>(event) });
+  }
+
+  protected setToleranceDistribution(i: number, event: Event): void {
+    this.setTolerance(i, { distribution: optionValue<ToleranceRow['distribution']>(event) });
+  }
+
+  protected setFactorAxis(i: number, event: Event): void {
+    this.setFactor(i, { axis: optionValue<FactorRow['axis']>(event) });
   }
 
   protected setTolerance(i: number, patch: Partial<ToleranceRow>): void {
@@ -157,7 +170,8 @@ export class StudiesPage implements OnInit, OnDestroy {
 
   /** The request body of docs/api.md from the form. */
   protected request(): StudyRequest {
-    const target = this.axleDesignId ? { axleDesignId: this.axleDesignId } : { configurationId: this.configurationId!, axle: this.axle() };
+    const axleDesignId = this.axleDesignId();
+    const target = axleDesignId ? { axleDesignId } : { configurationId: this.configurationId() ?? '', axle: this.axle() };
     const racks = this.racks().split(',').map((r) => Number(r.trim())).filter((r) => r.toString() !== 'NaN');
     const common = {
       target,
@@ -191,8 +205,8 @@ export class StudiesPage implements OnInit, OnDestroy {
     this.formError.set(null);
     this.saving.set(true);
     try {
-      const { study } = await firstValueFrom(this.api.start(this.teamId, this.request()));
-      await this.router.navigate(['/teams', this.teamId, 'studies', study.id]);
+      const { study } = await firstValueFrom(this.api.start(this.teamId(), this.request()));
+      await this.router.navigate(['/teams', this.teamId(), 'studies', study.id]);
     } catch (error) {
       const p = apiProblem(error);
       this.formError.set(p.message);

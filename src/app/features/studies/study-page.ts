@@ -1,10 +1,10 @@
-import { ChangeDetectionStrategy, Component, computed, inject, OnDestroy, OnInit, signal } from '@angular/core';
-import { ActivatedRoute, RouterLink } from '@angular/router';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { firstValueFrom } from 'rxjs';
-import type { OutputResult, StudyResult } from '../../../../shared/study/index';
+import type { OutputResult, StudyResult, VariantPoint } from '../../../../shared/study/index';
 import { BarChart } from '../../charts/bar-chart';
 import { LineChart } from '../../charts/line-chart';
 import { formatNumber, type BarGroup, type LineSeries } from '../../charts/chart-types';
@@ -12,11 +12,18 @@ import { downloadText, fileNameFor } from '../../charts/csv';
 import { apiProblem } from '../../core/http/api-error';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { TeamAccess } from '../../core/teams/team-access';
-import { routeParam } from '../route-params';
 import { SafetyCaution } from '../safety-caution';
 import { etaWords, STATUS_WORDS, StudiesApi, type StudyView } from './studies-api';
+import { NumPipe } from '../../core/format/num-pipe';
+import { rxResource } from '@angular/core/rxjs-interop';
+import { EMPTY, expand, map, switchMap, timer } from 'rxjs';
+import { loadState, resourceProblem } from '../../core/http/load-state';
+import { StudyAttach } from './study-attach';
 
-type StudyState = { kind: 'loading' } | { kind: 'error'; message: string; gone: boolean } | { kind: 'ready'; study: StudyView };
+const isActive = (s: StudyView): boolean => s.status === 'queued' || s.status === 'running';
+
+/** A variant's bump cost; results stored before the ride-model bump cost carry the toe change as costDeg. */
+export const costOf = (v: VariantPoint): number => v.cost ?? (v as { costDeg?: number }).costDeg ?? NaN;
 
 const LEVEL_WORDS = { info: 'Notice', warning: 'Warning', critical: 'Critical' } as const;
 
@@ -29,25 +36,32 @@ const LEVEL_WORDS = { info: 'Notice', warning: 'Warning', critical: 'Critical' }
  */
 @Component({
   selector: 'rw-study-page',
-  imports: [RouterLink, MatButton, MatIcon, MatProgressBar, BarChart, LineChart, SafetyCaution],
+  imports: [NumPipe, RouterLink, MatButton, MatIcon, MatProgressBar, BarChart, LineChart, SafetyCaution, StudyAttach],
   templateUrl: './study-page.html',
   styleUrl: './studies.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class StudyPage implements OnInit, OnDestroy {
-  private readonly route = inject(ActivatedRoute);
+export class StudyPage {
   private readonly api = inject(StudiesApi);
   private readonly access = inject(TeamAccess);
   protected readonly canRun = this.access.permission('study:run');
-  protected readonly teamId = routeParam(this.route, 'teamId');
-  protected readonly studyId = routeParam(this.route, 'studyId');
-  protected readonly state = signal<StudyState>({ kind: 'loading' });
+  readonly teamId = input.required<string>();
+  readonly studyId = input.required<string>();
+  /** The study; while it is queued or running, polled every 1.5 s for its progress. */
+  private readonly studyResource = rxResource({
+    params: () => ({ teamId: this.teamId(), studyId: this.studyId() }),
+    stream: ({ params: p }) => {
+      const get = () => this.api.get(p.teamId, p.studyId).pipe(map((r): StudyView => r.study));
+      return get().pipe(expand((study) => (isActive(study) ? timer(1500).pipe(switchMap(get)) : EMPTY)));
+    },
+  });
+  protected readonly state = loadState(this.studyResource);
+  /** The study was deleted or has expired (410): nothing to try again. */
+  protected readonly gone = computed(() => this.studyResource.status() === 'error' && resourceProblem(this.studyResource.error()).status === 410);
   protected readonly statusWords = STATUS_WORDS;
   protected readonly levelWords = LEVEL_WORDS;
-  protected readonly fmt = (v: number | null | undefined, d = 4) => (v === null || v === undefined ? '—' : formatNumber(v, d));
   protected readonly pct = (p: number) => `${formatNumber(100 * p, 3)} %`;
   private readonly timeZone = browserTimeZone();
-  private timer: ReturnType<typeof setTimeout> | null = null;
   protected readonly busy = signal(false);
   protected readonly actionError = signal<string | null>(null);
   protected readonly actionNote = signal<string | null>(null);
@@ -55,7 +69,7 @@ export class StudyPage implements OnInit, OnDestroy {
 
   protected readonly study = computed(() => {
     const s = this.state();
-    return s.kind === 'ready' ? s.study : null;
+    return s.status === 'ready' ? s.value : null;
   });
   protected readonly result = computed<StudyResult | null>(() => this.study()?.result ?? null);
   protected readonly running = computed(() => {
@@ -96,10 +110,22 @@ export class StudyPage implements OnInit, OnDestroy {
     const sw = this.result()?.sweep;
     if (!sw) return [];
     return [
-      { name: 'Variants', style: 'points', points: sw.scatter.map((v) => ({ x: v.costDeg, y: v.gainDegPerG })) },
-      { name: 'Pareto front', points: sw.pareto.map((v) => ({ x: v.costDeg, y: v.gainDegPerG })) },
+      { name: 'Variants', style: 'points', points: sw.scatter.map((v) => ({ x: costOf(v), y: v.gainDegPerG })) },
+      { name: 'Pareto front', points: sw.pareto.map((v) => ({ x: costOf(v), y: v.gainDegPerG })) },
     ];
   });
+
+  /** The Pareto chart's cost axis: the ride model's yaw disturbance on the profile's road, or the toe change over the bump. */
+  protected readonly costAxis = computed(() => {
+    const r = this.result();
+    const sw = r?.sweep;
+    if (!r || !sw) return { label: 'Bump cost', unit: '' };
+    return sw.costOutput === 'bumpYawDisturbancePct'
+      ? { label: `Bump cost (yaw-rate disturbance, ${r.bumpCost.roadInWords})`, unit: '%' }
+      : { label: 'Bump cost (toe change over the bump)', unit: 'deg' };
+  });
+
+  protected readonly costOf = costOf;
 
   protected readonly mainEffects = computed<LineSeries[]>(() => {
     const sw = this.result()?.sweep;
@@ -114,25 +140,15 @@ export class StudyPage implements OnInit, OnDestroy {
     }));
   });
 
-  ngOnInit(): void {
-    void firstValueFrom(this.access.load(this.teamId)).catch(() => undefined);
-    void this.load();
+  constructor() {
+    effect(() => {
+      const teamId = this.teamId();
+      untracked(() => void firstValueFrom(this.access.load(teamId)).catch(() => undefined));
+    });
   }
 
-  ngOnDestroy(): void {
-    if (this.timer) clearTimeout(this.timer);
-  }
-
-  protected async load(quiet = false): Promise<void> {
-    if (!quiet) this.state.set({ kind: 'loading' });
-    try {
-      const { study } = await firstValueFrom(this.api.get(this.teamId, this.studyId));
-      this.state.set({ kind: 'ready', study });
-      if (study.status === 'queued' || study.status === 'running') this.timer = setTimeout(() => void this.load(true), 1500);
-    } catch (error) {
-      const p = apiProblem(error);
-      this.state.set({ kind: 'error', message: p.message, gone: p.status === 410 });
-    }
+  protected load(): void {
+    this.studyResource.reload();
   }
 
   protected localTime(iso: string): string {
@@ -147,9 +163,8 @@ export class StudyPage implements OnInit, OnDestroy {
     this.busy.set(true);
     this.actionError.set(null);
     try {
-      const { study } = await firstValueFrom(this.api.cancel(this.teamId, this.studyId));
-      if (this.timer) clearTimeout(this.timer);
-      this.state.set({ kind: 'ready', study });
+      const { study } = await firstValueFrom(this.api.cancel(this.teamId(), this.studyId()));
+      this.studyResource.set(study);
     } catch (error) {
       this.actionError.set(apiProblem(error).message);
     } finally {
@@ -160,7 +175,7 @@ export class StudyPage implements OnInit, OnDestroy {
   protected async exportCsv(): Promise<void> {
     this.actionError.set(null);
     try {
-      const text = await firstValueFrom(this.api.csv(this.teamId, this.studyId));
+      const text = await firstValueFrom(this.api.csv(this.teamId(), this.studyId()));
       downloadText(text, fileNameFor(this.study()?.label || 'rollwise-study', 'csv'));
     } catch (error) {
       this.actionError.set(apiProblem(error).message);
@@ -172,7 +187,7 @@ export class StudyPage implements OnInit, OnDestroy {
     this.actionError.set(null);
     this.actionNote.set(null);
     try {
-      await firstValueFrom(this.api.openVariant(this.teamId, this.studyId, index));
+      await firstValueFrom(this.api.openVariant(this.teamId(), this.studyId(), index));
       this.actionNote.set(`Variant ${index} is open as a proposal on the axle design.`);
     } catch (error) {
       this.actionError.set(apiProblem(error).message);

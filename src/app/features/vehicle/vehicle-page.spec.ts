@@ -1,16 +1,16 @@
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
+import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { exampleVehicles } from '../../../../shared/balance/examples';
 import { VehiclePage } from './vehicle-page';
+import { settle } from '../../../testing/settle';
 
 const URL = '/teams/t-tal/vehicles/v-ember';
-const settle = () => new Promise((resolve) => setTimeout(resolve, 0));
 
-function record(revision: number, data: unknown = exampleVehicles.tur26Ember) {
-  return { id: 'v-ember', name: 'TUR-26 Ember', archived: false, revision, data, updatedAt: '2026-12-01T10:00:00.000Z', updatedByName: 'Eli Marsh' };
+function record(revision: number, data: unknown = exampleVehicles.tur26Ember, updatedByName = 'Eli Marsh') {
+  return { id: 'v-ember', name: 'TUR-26 Ember', archived: false, revision, data, updatedAt: '2026-12-01T10:00:00.000Z', updatedByName };
 }
 
 describe('VehiclePage', () => {
@@ -18,17 +18,17 @@ describe('VehiclePage', () => {
 
   beforeEach(async () => {
     await TestBed.configureTestingModule({
-      providers: [provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId', component: VehiclePage }]), provideHttpClient(), provideHttpClientTesting()],
+      providers: [provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId', component: VehiclePage }], withComponentInputBinding()), provideHttpClient(), provideHttpClientTesting()],
     }).compileComponents();
     backend = TestBed.inject(HttpTestingController);
   });
 
   afterEach(() => backend.verify());
 
-  async function open(permissions: string[]) {
+  async function open(permissions: string[], updatedByName = 'Eli Marsh') {
     const harness = await RouterTestingHarness.create();
     await harness.navigateByUrl(URL, VehiclePage);
-    backend.expectOne('/api/teams/t-tal/vehicles/v-ember').flush(record(4));
+    backend.expectOne('/api/teams/t-tal/vehicles/v-ember').flush(record(4, exampleVehicles.tur26Ember, updatedByName));
     backend.expectOne('/api/teams/t-tal').flush({ id: 't-tal', name: 'Tallowmere University Racing', slug: 'tallowmere', roles: [], permissions });
     await settle();
     backend.expectOne('/api/teams/t-tal/vehicles/v-ember/axle-designs').flush([
@@ -36,7 +36,8 @@ describe('VehiclePage', () => {
       { id: 'd2', axle: 'rear', name: 'Rear baseline', revision: 2, status: 'approved', updatedAt: '2026-12-01T10:00:00.000Z' },
     ]);
     backend.expectOne('/api/teams/t-tal/vehicles/v-ember/revisions').flush([
-      { revision: 4, message: 'Springs', authorName: 'Eli Marsh', createdAt: '2026-12-01T10:00:00.000Z' },
+      { revision: 4, message: 'Stiffer rear springs for the autocross', authorName: 'Eli Marsh', createdAt: '2026-12-01T10:00:00.000Z' },
+      { revision: 3, message: 'Tyre data from the rig', authorName: 'Dana Quist', createdAt: '2026-11-30T10:00:00.000Z' },
     ]);
     await settle();
     harness.detectChanges();
@@ -60,7 +61,21 @@ describe('VehiclePage', () => {
     expect(tables[1]!.textContent).toContain('Rear baseline');
     expect(Number(field(root, 'Total mass').value)).toBe(exampleVehicles.tur26Ember.massKg);
     expect(unitOf(root, 'Wheelbase')).toBe('mm');
-    expect(root.textContent).toContain('Revision 4 · Eli Marsh');
+    expect(root.textContent).toContain('saved by Eli Marsh');
+  });
+
+  it('shows each revision with its author and the author\'s own note; the header names the revision\'s author as the list does', async () => {
+    // A record whose last writer is not the revision's author (an older server wrote who accepted a proposal there).
+    const { root } = await open(['team:read'], 'Dana Quist');
+    const items = [...root.querySelectorAll('.rw-revision-list li')].map((li) => li.textContent!.replace(/\s+/g, ' ').trim());
+    expect(items[0]).toContain('Revision 4 · Eli Marsh');
+    expect(items[0]).toContain('— Stiffer rear springs for the autocross');
+    expect(items[1]).toContain('Revision 3 · Dana Quist');
+    expect(items[1]).toContain('— Tyre data from the rig');
+    const header = root.querySelector('.rw-revision')!.textContent!;
+    expect(header).toContain('Revision 4');
+    expect(header).toContain('by Eli Marsh');
+    expect(header).not.toContain('Dana Quist');
   });
 
   it('shows inch/pound values on request and saves them converted back to SI', async () => {
@@ -102,14 +117,16 @@ describe('VehiclePage', () => {
     harness.detectChanges();
     (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
     harness.detectChanges();
-    expect(root.textContent).toContain('Total mass must be a number');
+    expect(root.textContent).toContain('"heavy" is not a number');
     expect(root.textContent).toContain('nothing was saved');
     mass.value = String(exampleVehicles.tur26Ember.massKg);
     mass.dispatchEvent(new Event('input'));
     (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
     harness.detectChanges();
-    // The schema's own rule (CG ahead of the rear axle) is shown beside its field.
-    expect(root.textContent).toContain('must be less than wheelbaseMm');
+    // The schema's own rule (CG ahead of the rear axle) is shown beside its field, in words, never by its key.
+    const cgField = root.querySelector('mat-form-field[data-path="cgToFrontAxleMm"]')!;
+    expect(cgField.querySelector('mat-error')!.textContent!.trim()).toBe('Must be less than the wheelbase.');
+    expect(root.textContent).not.toContain('wheelbaseMm');
     backend.expectNone('/api/teams/t-tal/vehicles/v-ember/data');
   });
 
@@ -137,5 +154,85 @@ describe('VehiclePage', () => {
     expect(field(root, 'Total mass').disabled).toBe(true);
     expect(root.querySelector('button[type="submit"]')).toBeNull();
     expect(root.textContent).toContain('Read only');
+  });
+
+  function typeInto(root: HTMLElement, path: string, value: string) {
+    const input = root.querySelector(`mat-form-field[data-path="${path}"] input`) as HTMLInputElement;
+    input.value = value;
+    input.dispatchEvent(new Event('input'));
+  }
+
+  function errorOf(root: HTMLElement, path: string): string | undefined {
+    return root.querySelector(`mat-form-field[data-path="${path}"] mat-error`)?.textContent?.trim();
+  }
+
+  it('offers every input of the model: the tyre load sensitivity, relaxation length, damper and mechanical trail are there and saved', async () => {
+    const { harness, root } = await open(['team:read', 'vehicle:edit']);
+    const ember = exampleVehicles.tur26Ember;
+    const a = root.querySelector('mat-form-field[data-path="front.tyre.loadSensitivity.a"] input') as HTMLInputElement;
+    expect(Number(a.value)).toBe(ember.front.tyre.loadSensitivity!.a);
+    expect(a.disabled).toBe(false);
+    for (const path of ['front.tyre.loadSensitivity.b', 'rear.tyre.relaxationLengthMm', 'rear.damper.wheelRateNsPerMm', 'front.mechanicalTrailMm', 'front.tyre.axleComplianceDegPerG']) {
+      expect(root.querySelector(`mat-form-field[data-path="${path}"] input`), path).not.toBeNull();
+    }
+    typeInto(root, 'rear.tyre.loadSensitivity.b', '0.0003');
+    harness.detectChanges();
+    (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
+    const req = backend.expectOne('/api/teams/t-tal/vehicles/v-ember/data');
+    expect(req.request.body.data.rear.tyre.loadSensitivity).toEqual({ a: ember.rear.tyre.loadSensitivity!.a, b: 0.0003 });
+    req.flush(record(5, req.request.body.data));
+    await settle();
+    backend.expectOne('/api/teams/t-tal/vehicles/v-ember/revisions').flush([]);
+  });
+
+  it('gives the anti-roll bar by its geometry when chosen: its fields become editable and the roll rate is dropped on save', async () => {
+    const { harness, root } = await open(['team:read', 'vehicle:edit']);
+    expect(root.querySelector('mat-form-field[data-path="rear.antiRollBar.outerDiameterMm"]')).toBeNull();
+    const fieldset = [...root.querySelectorAll('fieldset')].find((f) => f.querySelector('legend')?.textContent?.trim() === 'Rear axle')!;
+    ([...fieldset.querySelectorAll('mat-button-toggle button')].find((b) => b.textContent?.includes('Its geometry')) as HTMLButtonElement).click();
+    await settle();
+    harness.detectChanges();
+    expect(root.querySelector('mat-form-field[data-path="rear.antiRollBar.rollRateNmPerDeg"]')).toBeNull();
+    // Saving with the geometry half given names each missing entry beside its field.
+    typeInto(root, 'rear.antiRollBar.outerDiameterMm', '16');
+    harness.detectChanges();
+    (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
+    harness.detectChanges();
+    expect(errorOf(root, 'rear.antiRollBar.activeLengthMm')).toContain('Needed here');
+    expect(root.textContent).not.toMatch(/activeLengthMm|Invalid input/);
+    backend.expectNone('/api/teams/t-tal/vehicles/v-ember/data');
+    typeInto(root, 'rear.antiRollBar.activeLengthMm', '380');
+    typeInto(root, 'rear.antiRollBar.twistRadPerM', '4.2');
+    harness.detectChanges();
+    (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
+    const req = backend.expectOne('/api/teams/t-tal/vehicles/v-ember/data');
+    expect(req.request.body.data.rear.antiRollBar).toEqual({ outerDiameterMm: 16, activeLengthMm: 380, twistRadPerM: 4.2 });
+    req.flush(record(5, req.request.body.data));
+    await settle();
+    backend.expectOne('/api/teams/t-tal/vehicles/v-ember/revisions').flush([]);
+  });
+
+  it('says beside ε, roll camber and the bar lever that the balance view takes them from the kinematics', async () => {
+    const { root } = await open(['team:read', 'vehicle:edit']);
+    const hint = (path: string) => root.querySelector(`mat-form-field[data-path="${path}"] .rw-linked`)?.textContent?.trim();
+    expect(hint('front.rollSteerCoefficient')).toContain("axle design's kinematics instead");
+    expect(hint('rear.rollCamberDegPerDeg')).toContain("axle design's kinematics instead");
+    expect(hint('rear.rollCentreHeightMm')).toContain("axle design's kinematics instead");
+    expect(hint('massKg')).toBeUndefined();
+  });
+
+  it('names every wrong entry at once beside its field, in the user\'s words and units', async () => {
+    const { harness, root } = await open(['team:read', 'vehicle:edit']);
+    typeInto(root, 'front.rollSteerCoefficient', '5');
+    typeInto(root, 'rear.trackMm', '12000');
+    typeInto(root, 'massKg', '0');
+    harness.detectChanges();
+    (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
+    harness.detectChanges();
+    // Possible ranges: shared/schema/ranges.ts (ε within ±1 deg/deg, track 300 to 4000 mm, mass 20 to 50 000 kg).
+    expect(errorOf(root, 'front.rollSteerCoefficient')).toBe('5 is outside -1 to 1 deg/deg.');
+    expect(errorOf(root, 'rear.trackMm')).toBe('12000 is outside 300 to 4000 mm.');
+    expect(errorOf(root, 'massKg')).toBe('0 is outside 20 to 50000 kg.');
+    backend.expectNone('/api/teams/t-tal/vehicles/v-ember/data');
   });
 });

@@ -1,22 +1,24 @@
-import { ChangeDetectionStrategy, Component, computed, inject, OnInit, signal } from '@angular/core';
-import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
 import { AbstractControl, FormControl, FormGroup, ReactiveFormsModule, ValidationErrors } from '@angular/forms';
-import { ActivatedRoute, RouterLink } from '@angular/router';
+import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import { MatCheckbox } from '@angular/material/checkbox';
 import { MatButtonToggle, MatButtonToggleGroup } from '@angular/material/button-toggle';
-import { firstValueFrom } from 'rxjs';
-import { vehicleSchema } from '../../../../shared/schema/vehicle';
-import { unusualValue, vehicleRangeFor } from '../../../../shared/schema/ranges';
+import { catchError, firstValueFrom, forkJoin, map, merge, of, switchMap } from 'rxjs';
+import { antiRollBarSchema, vehicleSchema } from '../../../../shared/schema/vehicle';
+import { formatRangeValue, unusualValue, vehicleRangeFor } from '../../../../shared/schema/ranges';
 import { AuthService } from '../../core/auth/auth-service';
 import { apiProblem } from '../../core/http/api-error';
+import { loadState } from '../../core/http/load-state';
 import { TeamAccess } from '../../core/teams/team-access';
-import { AxleDesignSummary, FeaturesApi, RevisionRow, VehicleRecord } from '../features-api';
-import { routeParam } from '../route-params';
+import { FeaturesApi, RevisionRow, VehicleRecord } from '../features-api';
 import { parseDecimal } from '../axle-design/hardpoint-io';
-import { ALL_VEHICLE_FIELDS, readPath, VEHICLE_FIELD_GROUPS, VehicleField, writePath } from './vehicle-fields';
+import { ALL_VEHICLE_FIELDS, BarMode, barModeOf, readPath, VEHICLE_FIELD_GROUPS, VehicleField, vehicleIssuePlace, vehicleIssueText, writePath } from './vehicle-fields';
+import type { AxleName } from '../../../../shared/schema/axle';
+import { rxResource, toSignal } from '@angular/core/rxjs-interop';
+import { LocalTimePipe } from '../../core/time/local-time';
 
 type Units = 'si' | 'imperial';
 type UnitsModule = typeof import('../../../../shared/schema/units');
@@ -40,7 +42,7 @@ function requiredText(control: AbstractControl<string>): ValidationErrors | null
 @Component({
   selector: 'rw-vehicle-page',
   imports: [
-    DatePipe,
+    LocalTimePipe,
     RouterLink,
     ReactiveFormsModule,
     MatButton,
@@ -55,60 +57,120 @@ function requiredText(control: AbstractControl<string>): ValidationErrors | null
   changeDetection: ChangeDetectionStrategy.OnPush,
   host: { '(window:beforeunload)': 'warnBeforeUnload($event)' },
 })
-export class VehiclePage implements OnInit {
-  private readonly route = inject(ActivatedRoute);
+export class VehiclePage {
   private readonly api = inject(FeaturesApi);
   private readonly access = inject(TeamAccess);
   private readonly auth = inject(AuthService);
 
-  protected readonly teamId = routeParam(this.route, 'teamId');
-  protected readonly vehicleId = routeParam(this.route, 'vehicleId');
+  readonly teamId = input.required<string>();
+  readonly vehicleId = input.required<string>();
 
   protected readonly groups = VEHICLE_FIELD_GROUPS;
-  protected readonly loading = signal(true);
-  protected readonly loadError = signal<string | null>(null);
-  protected readonly vehicle = signal<VehicleRecord | null>(null);
-  protected readonly designs = signal<readonly AxleDesignSummary[] | null>(null);
-  protected readonly designsError = signal<string | null>(null);
-  protected readonly revisions = signal<readonly RevisionRow[]>([]);
   protected readonly units = signal<Units>('si');
   private unitsModule: UnitsModule | null = null;
+
+  /** The vehicle as stored, with the team's permissions (and the unit table when the user reads inch/pound). */
+  private readonly loaded = rxResource({
+    params: () => ({ teamId: this.teamId(), vehicleId: this.vehicleId() }),
+    stream: ({ params: p }) =>
+      forkJoin([this.api.vehicle(p.teamId, p.vehicleId), this.access.load(p.teamId)]).pipe(
+        switchMap(async ([vehicle]) => {
+          if (this.auth.displayUnits() === 'imperial') await this.useUnits('imperial', false);
+          return vehicle;
+        }),
+      ),
+  });
+  protected readonly state = loadState(this.loaded);
+  /** The revision the form was filled from: the one loaded, then the one saved or taken over. */
+  protected readonly vehicle = linkedSignal<VehicleRecord | null>(() => (this.loaded.hasValue() ? this.loaded.value() : null));
+
+  private readonly designList = rxResource({
+    params: () => ({ teamId: this.teamId(), vehicleId: this.vehicleId() }),
+    stream: ({ params: p }) => this.api.axleDesigns(p.teamId, p.vehicleId),
+  });
+  protected readonly designs = loadState(this.designList);
+
+  private readonly revisionList = rxResource({
+    params: () => ({ teamId: this.teamId(), vehicleId: this.vehicleId() }),
+    stream: ({ params: p }) => this.api.vehicleRevisions(p.teamId, p.vehicleId).pipe(catchError(() => of([] as RevisionRow[]))),
+  });
+  protected readonly revisions = computed<readonly RevisionRow[]>(() => (this.revisionList.hasValue() ? this.revisionList.value() : []));
+
+  /** The author of the revision shown, as the revision list names it (the record's last writer until the list is there). */
+  protected readonly revisionAuthor = computed(() => {
+    const v = this.vehicle();
+    if (!v) return null;
+    const row = this.revisions().find((r) => r.revision === v.revision);
+    return row ? row.authorName : v.updatedByName;
+  });
 
   protected readonly saving = signal(false);
   protected readonly saveError = signal<string | null>(null);
   protected readonly saveIssues = signal<readonly string[]>([]);
   protected readonly notice = signal<string | null>(null);
   protected readonly stale = signal<VehicleRecord | null>(null);
-  private readonly formVersion = signal(0);
 
   protected readonly editable = computed(() => this.access.can('vehicle:edit'));
 
   protected readonly form = new FormGroup<Record<string, FormControl<string>>>({});
   protected readonly rollGravityTerm = new FormControl<boolean>(true, { nonNullable: true });
+  /** How each axle's anti-roll bar is given: only that kind's fields are shown, validated and saved. */
+  protected readonly barMode: Readonly<Record<AxleName, FormControl<BarMode>>> = {
+    front: new FormControl<BarMode>('none', { nonNullable: true }),
+    rear: new FormControl<BarMode>('none', { nonNullable: true }),
+  };
   protected readonly message = new FormControl<string>('', { nonNullable: true });
 
-  protected readonly frontDesigns = computed(() => (this.designs() ?? []).filter((d) => d.axle === 'front'));
-  protected readonly rearDesigns = computed(() => (this.designs() ?? []).filter((d) => d.axle === 'rear'));
+  private readonly designsShown = computed(() => {
+    const d = this.designs();
+    return d.status === 'ready' ? d.value : [];
+  });
+  protected readonly frontDesigns = computed(() => this.designsShown().filter((d) => d.axle === 'front'));
+  protected readonly rearDesigns = computed(() => this.designsShown().filter((d) => d.axle === 'rear'));
+
+  /**
+   * The form's state as a signal, read again from the form on each of its
+   * events (value, status, pristine, touched): what `dirty` and the unusual-value
+   * notes are computed from. Programmatic fills and enables emit events too.
+   */
+  private readonly formState = toSignal(
+    merge(this.form.events, this.rollGravityTerm.events, this.barMode.front.events, this.barMode.rear.events).pipe(map(() => this.readFormState())),
+    { initialValue: this.readFormState() },
+  );
 
   /** True when the form differs from the stored revision. */
-  readonly dirty = computed(() => {
-    this.formVersion();
-    return this.form.dirty || this.rollGravityTerm.dirty;
-  });
+  readonly dirty = computed(() => this.formState().dirty);
 
   constructor() {
+    // Each loaded vehicle (on arrival, and when the router reuses this page for another vehicle) fills the form.
+    effect(() => {
+      if (!this.loaded.hasValue()) return;
+      const vehicle = this.loaded.value();
+      untracked(() => this.adopt(vehicle));
+    });
+    for (const axle of ['front', 'rear'] as const) {
+      this.barMode[axle].valueChanges.subscribe(() => this.applyBarMode());
+    }
     for (const field of ALL_VEHICLE_FIELDS) {
       this.form.addControl(
         field.path,
-        new FormControl<string>('', { nonNullable: true, validators: field.required ? [requiredText, numberText] : [numberText] }),
+        new FormControl<string>('', {
+          nonNullable: true,
+          validators: [...(field.required ? [requiredText] : []), numberText, (c: AbstractControl<string>) => this.rangeCheck(field, c)],
+        }),
       );
     }
-    this.form.valueChanges.subscribe(() => this.formVersion.update((v) => v + 1));
-    this.rollGravityTerm.valueChanges.subscribe(() => this.formVersion.update((v) => v + 1));
   }
 
-  ngOnInit(): void {
-    void this.load();
+  private readFormState(): {
+    dirty: boolean;
+    values: Readonly<Record<string, string>>;
+    invalid: ReadonlySet<string>;
+    barMode: Readonly<Record<AxleName, BarMode>>;
+  } {
+    const invalid = new Set(Object.entries(this.form.controls).flatMap(([path, c]) => (c.invalid ? [path] : [])));
+    const dirty = this.form.dirty || this.rollGravityTerm.dirty || this.barMode.front.dirty || this.barMode.rear.dirty;
+    return { dirty, values: this.form.getRawValue(), invalid, barMode: { front: this.barMode.front.value, rear: this.barMode.rear.value } };
   }
 
   /** Closing or reloading the tab with unsaved entries asks first. */
@@ -116,74 +178,57 @@ export class VehiclePage implements OnInit {
     if (this.dirty()) event.preventDefault();
   }
 
-  private async load(): Promise<void> {
-    this.loading.set(true);
-    try {
-      const [vehicle] = await Promise.all([
-        firstValueFrom(this.api.vehicle(this.teamId, this.vehicleId)),
-        firstValueFrom(this.access.load(this.teamId)),
-      ]);
-      if (this.auth.displayUnits() === 'imperial') await this.useUnits('imperial', false);
-      this.adopt(vehicle);
-      this.loadError.set(null);
-    } catch (error) {
-      this.loadError.set(apiProblem(error).message);
-    } finally {
-      this.loading.set(false);
-    }
-    void this.loadDesigns();
-    void this.loadRevisions();
-  }
-
-  private async loadDesigns(): Promise<void> {
-    try {
-      this.designs.set(await firstValueFrom(this.api.axleDesigns(this.teamId, this.vehicleId)));
-      this.designsError.set(null);
-    } catch (error) {
-      this.designsError.set(apiProblem(error).message);
-    }
-  }
-
-  private async loadRevisions(): Promise<void> {
-    try {
-      this.revisions.set(await firstValueFrom(this.api.vehicleRevisions(this.teamId, this.vehicleId)));
-    } catch {
-      this.revisions.set([]);
-    }
-  }
-
   private adopt(vehicle: VehicleRecord): void {
     this.vehicle.set(vehicle);
     this.fillForm(vehicle.data);
+    for (const axle of ['front', 'rear'] as const) this.barMode[axle].setValue(barModeOf(vehicle.data, axle), { emitEvent: false });
     if (!this.editable()) {
-      this.form.disable({ emitEvent: false });
-      this.rollGravityTerm.disable({ emitEvent: false });
+      this.form.disable();
+      this.rollGravityTerm.disable();
+      this.barMode.front.disable();
+      this.barMode.rear.disable();
     } else {
-      for (const field of ALL_VEHICLE_FIELDS) {
-        const control = this.form.controls[field.path]!;
-        if (this.barByGeometry(field)) control.disable({ emitEvent: false });
-        else control.enable({ emitEvent: false });
-      }
+      this.barMode.front.enable();
+      this.barMode.rear.enable();
+      this.applyBarMode();
     }
     this.form.markAsPristine();
     this.rollGravityTerm.markAsPristine();
-    this.formVersion.update((v) => v + 1);
+    this.barMode.front.markAsPristine();
+    this.barMode.rear.markAsPristine();
   }
 
   private fillForm(data: unknown): void {
     for (const field of ALL_VEHICLE_FIELDS) {
       const stored = readPath(data, field.path);
-      this.form.controls[field.path]!.setValue(typeof stored === 'number' ? this.formatForDisplay(field, stored) : '', { emitEvent: false });
+      this.form.controls[field.path]!.setValue(typeof stored === 'number' ? this.formatForDisplay(field, stored) : '');
     }
     const gravity = readPath(data, 'options.rollGravityTerm');
-    this.rollGravityTerm.setValue(gravity !== false, { emitEvent: false });
+    this.rollGravityTerm.setValue(gravity !== false);
   }
 
-  /** The bar's roll rate field is not offered when the bar is given by its geometry (kept as entered). */
-  protected barByGeometry(field: VehicleField): boolean {
-    if (!field.path.endsWith('antiRollBar.rollRateNmPerDeg')) return false;
-    const bar = readPath(this.vehicle()?.data, field.path.replace('.rollRateNmPerDeg', ''));
-    return !!bar && typeof bar === 'object' && !('rollRateNmPerDeg' in bar);
+  protected barControl(groupId: string): FormControl<BarMode> {
+    return this.barMode[groupId === 'rear' ? 'rear' : 'front'];
+  }
+
+  /** Whether a field is offered: a bar field only for the way its axle's bar is given. */
+  protected shown(field: VehicleField): boolean {
+    if (!field.bar) return true;
+    const axle = field.path.startsWith('rear.') ? 'rear' : 'front';
+    return this.formState().barMode[axle] === field.bar;
+  }
+
+  /** Enables the bar fields of each axle's chosen kind and disables the others (which are neither checked nor saved). */
+  private applyBarMode(): void {
+    if (!this.editable()) return;
+    for (const field of ALL_VEHICLE_FIELDS) {
+      const control = this.form.controls[field.path]!;
+      const axle = field.path.startsWith('rear.') ? 'rear' : 'front';
+      const on = !field.bar || this.barMode[axle].value === field.bar;
+      if (on && control.disabled) control.enable({ emitEvent: false });
+      if (!on && control.enabled) control.disable({ emitEvent: false });
+    }
+    this.form.updateValueAndValidity();
   }
 
   protected unitLabel(field: VehicleField): string {
@@ -224,7 +269,7 @@ export class VehiclePage implements OnInit {
       for (const field of ALL_VEHICLE_FIELDS) {
         const v = stored.get(field.path);
         const control = this.form.controls[field.path]!;
-        if (v !== undefined) control.setValue(this.formatForDisplay(field, v), { emitEvent: false });
+        if (v !== undefined) control.setValue(this.formatForDisplay(field, v));
       }
     }
   }
@@ -244,18 +289,45 @@ export class VehiclePage implements OnInit {
    * vehicle mass (typical 150–3500 kg)": shown beside the field, never refused. The figures are in stored units.
    */
   protected unusualText(field: VehicleField): string | null {
-    this.formVersion();
+    const state = this.formState();
     const range = vehicleRangeFor(field.path);
-    const control = this.form.controls[field.path]!;
-    const shown = parseDecimal(control.value ?? '');
-    if (!range || shown === null || control.invalid) return null;
+    const shown = parseDecimal(state.values[field.path] ?? '');
+    if (!range || shown === null || state.invalid.has(field.path)) return null;
     return unusualValue(range, this.toStored(field, shown));
   }
 
+  /**
+   * A number outside what is possible for the field (shared/schema/ranges.ts), in the user's words and
+   * units: "5 is outside −1 to 1 deg/deg".
+   */
+  private rangeCheck(field: VehicleField, control: AbstractControl<string>): ValidationErrors | null {
+    const range = vehicleRangeFor(field.path);
+    const shown = parseDecimal(control.value ?? '');
+    if (!range || shown === null) return null;
+    const stored = this.toStored(field, shown);
+    const below = range.minExclusive ? stored <= range.min : stored < range.min;
+    if (!below && stored <= range.max) return null;
+    const [lo, hi] = [range.min, range.max].map((v) => formatRangeValue(this.displayValue(field, v)));
+    const unit = this.unitLabel(field);
+    const unitText = unit === 'ratio' ? '' : ` ${unit}`;
+    const text = control.value.trim();
+    return {
+      range: range.minExclusive ? `${text} is outside the possible range: more than ${lo} and at most ${hi}${unitText}` : `${text} is outside ${lo} to ${hi}${unitText}`,
+    };
+  }
+
+  private displayValue(field: VehicleField, stored: number): number {
+    const target = this.displayUnit(field);
+    return target ? this.unitsModule!.convertValue(stored, field.storedUnit!, target) : stored;
+  }
+
+  /** What is wrong with a field, in the user's words (shown beside it; every field at once). */
   protected errorText(field: VehicleField): string {
-    const errors = this.form.controls[field.path]!.errors ?? {};
+    const control = this.form.controls[field.path]!;
+    const errors = control.errors ?? {};
     if (errors['required']) return `${field.label} is required.`;
-    if (errors['number']) return `${field.label} must be a number (decimal point or comma).`;
+    if (errors['number']) return `"${control.value.trim()}" is not a number (use a decimal point or comma).`;
+    if (errors['range']) return `${String(errors['range'])}.`;
     if (errors['schema']) return String(errors['schema']);
     return '';
   }
@@ -276,17 +348,25 @@ export class VehiclePage implements OnInit {
       if (this.form.controls[field.path]!.disabled) continue;
       writePath(data, field.path, stored.get(field.path));
     }
+    // The bar is kept only in the kind chosen: the other kind's values are dropped.
+    for (const axle of ['front', 'rear'] as const) {
+      const mode = this.barMode[axle].value;
+      for (const field of ALL_VEHICLE_FIELDS) {
+        if (field.bar && field.path.startsWith(`${axle}.`) && field.bar !== mode) writePath(data, field.path, undefined);
+      }
+    }
     data['options'] = { ...((data['options'] as object | undefined) ?? {}), rollGravityTerm: this.rollGravityTerm.value };
     const check = vehicleSchema.safeParse(data);
     if (!check.success) {
       const general: string[] = [];
-      for (const issue of check.error.issues) {
-        const path = issue.path.join('.');
+      for (const issue of this.issuesOf(check.error.issues, data)) {
+        const path = issue.path.map(String).join('.');
         const control = this.form.controls[path];
-        if (control) {
-          control.setErrors({ ...(control.errors ?? {}), schema: issue.message });
+        if (control?.enabled) {
+          const words = control.value.trim() === '' ? 'Needed here: it goes with the other entries of this group.' : `${vehicleIssueText(issue.message)}.`;
+          control.setErrors({ ...(control.errors ?? {}), schema: words.charAt(0).toUpperCase() + words.slice(1) });
           control.markAsTouched();
-        } else general.push(`${path || 'vehicle'}: ${issue.message}`);
+        } else general.push(`${vehicleIssuePlace(issue.path)}: ${vehicleIssueText(issue.message)}.`);
       }
       this.saveIssues.set(general);
       this.saveError.set('The vehicle data does not pass its checks; nothing was saved.');
@@ -295,25 +375,44 @@ export class VehiclePage implements OnInit {
     await this.put(data, vehicle.revision);
   }
 
+  /**
+   * The schema's issues, with an anti-roll bar that fits neither kind (one issue for the whole bar) replaced by
+   * the issues of the kind chosen, each on its own field.
+   */
+  private issuesOf(
+    issues: readonly { path: readonly PropertyKey[]; message: string; code?: string }[],
+    data: Record<string, unknown>,
+  ): { path: readonly PropertyKey[]; message: string }[] {
+    return issues.flatMap((issue) => {
+      const [axle, key] = issue.path.map(String);
+      if (key !== 'antiRollBar' || issue.path.length !== 2 || (axle !== 'front' && axle !== 'rear')) return [issue];
+      const kind = antiRollBarSchema.options[this.barMode[axle].value === 'rate' ? 0 : 1];
+      const own = kind.safeParse(readPath(data, `${axle}.antiRollBar`));
+      return own.success ? [issue] : own.error.issues.map((i) => ({ path: [axle, 'antiRollBar', ...i.path], message: i.message }));
+    });
+  }
+
   private async put(data: unknown, baseRevision: number): Promise<void> {
     this.saving.set(true);
     try {
       const saved = await firstValueFrom(
-        this.api.saveVehicleData(this.teamId, this.vehicleId, data, baseRevision, this.message.value.trim() || undefined),
+        this.api.saveVehicleData(this.teamId(), this.vehicleId(), data, baseRevision, this.message.value.trim() || undefined),
       );
       this.stale.set(null);
       this.message.setValue('');
       this.adopt(saved);
       this.notice.set(`Saved as revision ${saved.revision}.`);
-      void this.loadRevisions();
+      this.revisionList.reload();
     } catch (error) {
       const problem = apiProblem(error);
       if (problem.status === 409) {
         const current = (problem.details as { current?: VehicleRecord } | undefined)?.current;
-        this.stale.set(current && 'revision' in current ? current : await firstValueFrom(this.api.vehicle(this.teamId, this.vehicleId)));
+        this.stale.set(current && 'revision' in current ? current : await firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId())));
       } else if (problem.status === 400) {
         const fields = (problem.details as { fields?: { path: string; message: string }[] } | undefined)?.fields ?? [];
-        this.saveIssues.set(fields.map((f) => `${f.path}: ${f.message}`));
+        this.saveIssues.set(
+          fields.map((f) => `${vehicleIssuePlace(f.path.replace(/^data\./, '').split('.'))}: ${vehicleIssueText(f.message.replace(/^[\w.]+: /, ''))}.`),
+        );
         this.saveError.set(problem.message);
       } else this.saveError.set(problem.message);
     } finally {
@@ -336,7 +435,7 @@ export class VehiclePage implements OnInit {
     this.stale.set(null);
     this.adopt(theirs);
     this.notice.set(`Showing revision ${theirs.revision}.`);
-    void this.loadRevisions();
+    this.revisionList.reload();
   }
 
   protected discard(): void {

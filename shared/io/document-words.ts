@@ -1,0 +1,103 @@
+/**
+ * Document paths in words, with their units: `frontCorner.points.tieRodInner[2]`
+ * → "Front corner · tie rod inner · z", mm. Used wherever a changed value is
+ * shown to a person (the "use the latest revisions" preview, the review
+ * record), so they read the same on screen and on paper. The unit comes
+ * from the key's unit suffix (units live in names, DEVELOPERS.md), or from
+ * the table of key results; hardpoint coordinates are mm (domain.md).
+ * Presentation only: no engineering here.
+ */
+
+/** Key suffixes → unit, longest first so `NPerMm` wins over `Mm`. */
+const SUFFIX_UNITS: readonly (readonly [string, string])[] = [
+  ['NmsPerDeg', 'N·m·s/deg'],
+  ['NmPerDeg', 'N·m/deg'],
+  ['NsPerMm', 'N·s/mm'],
+  ['NPerMm', 'N/mm'],
+  ['NPerDeg', 'N/deg'],
+  ['DegPerKN', 'deg/kN'],
+  ['DegPerDeg', 'deg/deg'],
+  ['DegPerG', 'deg/g'],
+  ['DegPerM2', 'deg/m²'],
+  ['DegPerM', 'deg/m'],
+  ['RadPerM', 'rad/m'],
+  ['PerS', '1/s'],
+  ['KgM2', 'kg·m²'],
+  ['Kph', 'km/h'],
+  ['Deg', 'deg'],
+  ['Mm', 'mm'],
+  ['Kg', 'kg'],
+  ['Pct', '%'],
+  ['Hz', 'Hz'],
+];
+
+/** Key results (the configuration's balance and bump steer) that carry no unit suffix. */
+const RESULT_WORDS: Readonly<Record<string, { label: string; unit: string }>> = {
+  'balance.understeerBudget.tyres': { label: 'Understeer budget · tyres', unit: 'deg/g' },
+  'balance.understeerBudget.loadTransfer': { label: 'Understeer budget · load transfer', unit: 'deg/g' },
+  'balance.understeerBudget.rollSteer': { label: 'Understeer budget · roll steer', unit: 'deg/g' },
+  'balance.understeerBudget.rollCamber': { label: 'Understeer budget · roll camber', unit: 'deg/g' },
+  'balance.understeerBudget.complianceSteer': { label: 'Understeer budget · compliance steer', unit: 'deg/g' },
+  'balance.understeerBudget.alignTorque': { label: 'Understeer budget · aligning torque', unit: 'deg/g' },
+  'balance.understeerBudget.total': { label: 'Understeer gradient K', unit: 'deg/g' },
+  'balance.kinematicsLink.front.used.rollSteerCoefficient': { label: 'Roll steer ε, front', unit: 'deg/deg' },
+  'balance.kinematicsLink.rear.used.rollSteerCoefficient': { label: 'Roll steer ε, rear', unit: 'deg/deg' },
+};
+
+const TOP_WORDS: Readonly<Record<string, string>> = {
+  vehicle: 'Vehicle',
+  frontCorner: 'Front corner',
+  rearCorner: 'Rear corner',
+  trackProfile: 'Track profile',
+  balance: 'Balance',
+  bumpSteer: 'Bump steer',
+};
+
+const AXES = ['x', 'y', 'z'];
+
+function stripUnit(key: string): { words: string; unit: string | null } {
+  for (const [suffix, unit] of SUFFIX_UNITS) {
+    if (key.length > suffix.length && key.endsWith(suffix)) return { words: key.slice(0, -suffix.length), unit };
+  }
+  return { words: key, unit: null };
+}
+
+/** camelCase → lower-case words ("tieRodInner" → "tie rod inner"). */
+export function keyWords(key: string): string {
+  return key
+    .replace(/([a-z0-9])([A-Z])/g, '$1 $2')
+    .replace(/([A-Z])([A-Z][a-z])/g, '$1 $2')
+    .toLowerCase();
+}
+
+/** A dotted document path in words with its unit (null when it has none, e.g. a name or a count). */
+export function pathWords(path: string): { label: string; unit: string | null } {
+  const known = RESULT_WORDS[path];
+  if (known) return known;
+  const parts = path.replace(/\[(\d+)\]/g, '.[$1]').split('.');
+  const out: string[] = [];
+  let unit: string | null = null;
+  let inPoints = false;
+  parts.forEach((p, i) => {
+    const index = /^\[(\d+)\]$/.exec(p);
+    if (index) {
+      const n = Number(index[1]);
+      // A hardpoint is [x, y, z] in mm.
+      if (inPoints && n < 3) {
+        out.push(AXES[n]!);
+        unit = 'mm';
+      } else out.push(`#${n + 1}`);
+      return;
+    }
+    if (i === 0 && TOP_WORDS[p]) {
+      out.push(TOP_WORDS[p]);
+      return;
+    }
+    inPoints = p === 'points' || inPoints;
+    if (p === 'points') return;
+    const s = stripUnit(p);
+    if (s.unit) unit = s.unit;
+    out.push(keyWords(s.words));
+  });
+  return { label: out.join(' · '), unit };
+}

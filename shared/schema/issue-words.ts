@@ -1,0 +1,106 @@
+/**
+ * A zod issue in the user's words, for screens: the value and what is wrong
+ * with it ("5 is outside −1 to 1"), never a document key or zod's own
+ * wording. The one mapping from schema issues to words: forms that validate
+ * through a shared schema (the intent panel, the vehicle form) show these
+ * beside the field the issue's path names.
+ *
+ * Pure functions over the issue's data; no zod import (the type is
+ * structural), so a browser bundle pays nothing for it.
+ */
+import { formatRangeValue, type InputRange } from './ranges.js';
+
+/** The parts of a zod (v4) issue this reads. */
+export interface SchemaIssue {
+  readonly code: string;
+  readonly path: ReadonlyArray<PropertyKey>;
+  readonly message: string;
+  readonly expected?: unknown;
+  readonly minimum?: unknown;
+  readonly maximum?: unknown;
+  readonly inclusive?: boolean;
+  readonly values?: ReadonlyArray<unknown>;
+  readonly params?: unknown;
+  readonly errors?: ReadonlyArray<ReadonlyArray<SchemaIssue>>;
+  readonly keys?: ReadonlyArray<string>;
+}
+
+/** What `inRange` (schema/ranged.ts) attaches to its issue, so the words can name the range. */
+export interface RangeIssueParams {
+  readonly range: InputRange;
+  readonly value: number;
+}
+
+/** A number as a person writes it in a message: up to 4 significant digits, a true minus sign. */
+export function wordNumber(v: number): string {
+  return formatRangeValue(v).replace(/^-/, '−').replace(/e-/, 'e−');
+}
+
+const withUnit = (v: number, unit: string) => (unit ? `${wordNumber(v)} ${unit}` : wordNumber(v));
+
+function valueAt(input: unknown, path: ReadonlyArray<PropertyKey>): unknown {
+  let v: unknown = input;
+  for (const p of path) {
+    if (v === null || typeof v !== 'object') return undefined;
+    v = (v as Record<PropertyKey, unknown>)[p];
+  }
+  return v;
+}
+
+function rangeParams(params: unknown): RangeIssueParams | null {
+  const p = params as Partial<RangeIssueParams> | undefined;
+  return p && typeof p === 'object' && p.range && typeof p.value === 'number' ? (p as RangeIssueParams) : null;
+}
+
+/**
+ * The issue in words. `input` is the document that was checked (the value
+ * at the issue's path is read from it); `labels` replaces document keys a
+ * custom message may still carry (`{ 'tieRodInner.z': 'the inner end's height' }`).
+ */
+export function issueWords(issue: SchemaIssue, input: unknown, labels: Readonly<Record<string, string>> = {}): string {
+  const value = valueAt(input, issue.path);
+  switch (issue.code) {
+    case 'invalid_type':
+      if (issue.expected === 'number') return 'enter a number';
+      if (value === undefined) return 'required';
+      return `expected ${String(issue.expected)}`;
+    case 'too_small':
+    case 'too_big': {
+      const bound = Number(issue.code === 'too_small' ? issue.minimum : issue.maximum);
+      const shown = typeof value === 'number' ? wordNumber(value) : 'This';
+      if (!Number.isFinite(bound)) return issue.message;
+      if (typeof value !== 'number') return issue.code === 'too_small' ? `at least ${wordNumber(bound)} needed` : `at most ${wordNumber(bound)} allowed`;
+      if (issue.code === 'too_small') return issue.inclusive === false ? `${shown} must be above ${wordNumber(bound)}` : `${shown} is below the least allowed, ${wordNumber(bound)}`;
+      return issue.inclusive === false ? `${shown} must be below ${wordNumber(bound)}` : `${shown} is above the most allowed, ${wordNumber(bound)}`;
+    }
+    case 'invalid_value':
+      return `choose one of ${(issue.values ?? []).map(String).join(', ')}`;
+    case 'unrecognized_keys':
+      return `not expected here: ${(issue.keys ?? []).join(', ')}`;
+    case 'invalid_union': {
+      // The branch the input was meant for is the one without unknown keys: its issues are the ones to read.
+      const meant = (issue.errors ?? []).find((branch) => branch.length > 0 && branch.every((i) => i.code !== 'unrecognized_keys'));
+      const first = meant?.[0];
+      return first ? issueWords({ ...first, path: [...issue.path, ...first.path] }, input, labels) : replaceKeys(issue.message, labels);
+    }
+    case 'custom': {
+      const r = rangeParams(issue.params);
+      if (r) {
+        const low = r.range.minExclusive ? `above ${withUnit(r.range.min, r.range.unit)}` : null;
+        return low
+          ? `${withUnit(r.value, r.range.unit)} is outside the possible ${r.range.label}: give a value ${low} and at most ${withUnit(r.range.max, r.range.unit)}`
+          : `${wordNumber(r.value)} is outside ${wordNumber(r.range.min)} to ${withUnit(r.range.max, r.range.unit)}`;
+      }
+      return replaceKeys(issue.message, labels);
+    }
+    default:
+      return replaceKeys(issue.message, labels);
+  }
+}
+
+/** Longest keys first, so `tieRodInner.z` is replaced before `tieRodInner`. */
+function replaceKeys(message: string, labels: Readonly<Record<string, string>>): string {
+  let out = message;
+  for (const key of Object.keys(labels).sort((a, b) => b.length - a.length)) out = out.split(key).join(labels[key]!);
+  return out;
+}

@@ -1,0 +1,122 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting, type TestRequest } from '@angular/common/http/testing';
+import { signal } from '@angular/core';
+import { TestBed } from '@angular/core/testing';
+import { provideRouter, withComponentInputBinding } from '@angular/router';
+import { RouterTestingHarness } from '@angular/router/testing';
+import { exampleCorners } from '../../../../shared/kinematics/examples';
+import type { DisplayUnits } from '../../core/api-types';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import { settle } from '../../../testing/settle';
+import type { AxleDesign } from '../features-api';
+import { AxleDesignPage } from './axle-design-page';
+
+const URL = '/teams/t1/vehicles/v1/axle-designs/d1';
+const DESIGN: AxleDesign = {
+  id: 'd1',
+  vehicleId: 'v1',
+  axle: 'front',
+  name: 'Front baseline',
+  revision: 2,
+  status: 'draft',
+  corner: exampleCorners.fsFrontWishbone,
+  updatedAt: '2026-12-01T10:00:00.000Z',
+  updatedByName: 'Dana Quist',
+};
+
+/** Answers what the editor loads: the design, its vehicle, the team, revisions, proposals, rig files and tolerance. */
+function answer(r: TestRequest): void {
+  const url = r.request.urlWithParams;
+  if (url === '/api/teams/t1/axle-designs/d1') r.flush(DESIGN);
+  else if (url === '/api/teams/t1/vehicles/v1') r.flush({ id: 'v1', name: 'Car', archived: false, revision: 1, data: null, updatedAt: DESIGN.updatedAt, updatedByName: null });
+  else if (url === '/api/teams/t1') r.flush({ id: 't1', name: 'Team', slug: 'team', roles: ['engineer'], permissions: ['team:read', 'design:edit'] });
+  else if (url.endsWith('/revisions')) r.flush([{ revision: 2, authorName: 'Dana Quist', createdAt: DESIGN.updatedAt, message: null }]);
+  else if (url.endsWith('/proposals')) r.flush([]);
+  else if (url.includes('tolerance')) r.flush({ toeDeg: 0.1, camberDeg: 0.1 });
+  else r.flush([]);
+}
+
+describe('AxleDesignPage results', () => {
+  let backend: HttpTestingController;
+  const units = signal<DisplayUnits>('si');
+
+  beforeEach(async () => {
+    units.set('si');
+    globalThis.localStorage?.clear();
+    await TestBed.configureTestingModule({
+      providers: [
+        provideRouter([{ path: 'teams/:teamId/vehicles/:vehicleId/axle-designs/:designId', component: AxleDesignPage }], withComponentInputBinding()),
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        { provide: DISPLAY_UNITS, useValue: units },
+      ],
+    }).compileComponents();
+    backend = TestBed.inject(HttpTestingController);
+  });
+
+  async function open() {
+    const harness = await RouterTestingHarness.create();
+    await harness.navigateByUrl(URL, AxleDesignPage);
+    const root = harness.routeNativeElement as HTMLElement;
+    await vi.waitFor(
+      async () => {
+        await settle();
+        backend.match(() => true).forEach(answer);
+        harness.detectChanges();
+        if (!root.querySelector('[data-testid="fit-caption"]')) throw new Error('no results yet');
+      },
+      { timeout: 30_000, interval: 50 },
+    );
+    return { harness, root };
+  }
+
+  const text = (root: HTMLElement, testId: string) => root.querySelector(`[data-testid="${testId}"]`)?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
+
+  function setTravel(root: HTMLElement, which: 'From' | 'To', value: string): void {
+    const input = [...root.querySelectorAll<HTMLLabelElement>('rw-sweep-settings label')].find((l) => l.textContent?.includes(which))!.querySelector('input')!;
+    input.value = value;
+    input.dispatchEvent(new Event('change'));
+  }
+
+  it('says the travel range its figures were fitted over, and marks them out of date when a change cannot be solved', async () => {
+    const { harness, root } = await open();
+    expect(text(root, 'fit-caption')).toBe('Fitted over -25 to 25 mm of travel');
+    expect(root.querySelector('[data-testid="results-out-of-date"]')).toBeNull();
+
+    // A range far beyond the corner's reach: the engine fails, the figures on screen stay those of ±25 mm and say so.
+    setTravel(root, 'From', '-400');
+    setTravel(root, 'To', '400');
+    await vi.waitFor(
+      async () => {
+        await settle();
+        backend.match(() => true).forEach(answer);
+        harness.detectChanges();
+        if (!root.querySelector('[data-testid="solve-error"]')) throw new Error('no failure yet');
+      },
+      { timeout: 30_000, interval: 50 },
+    );
+    expect(text(root, 'fit-caption')).toBe('Fitted over -25 to 25 mm of travel');
+    expect(text(root, 'results-out-of-date')).toContain('the last geometry and travel range that solved (-25 to 25 mm)');
+    const error = text(root, 'solve-error');
+    expect(error).toMatch(/^The kinematics could not be solved: The linkage cannot reach \d+(\.\d+)? mm of (bump|droop)/);
+    // No point keys, no unrounded figures.
+    expect(error).not.toMatch(/[a-z][A-Z][a-zA-Z]*–|\d\.\d{5,}/);
+  });
+
+  it('shows lengths, bump steer and curvature in the user’s inch-pound units', async () => {
+    units.set('imperial');
+    const { root } = await open();
+    // 25 mm = 0.9843 in (1 in = 25.4 mm exactly, NIST SP 811), shown to the length's 4 significant figures.
+    expect(text(root, 'fit-caption')).toBe('Fitted over -0.9843 to 0.9843 in of travel');
+    const headers = [...root.querySelectorAll('[data-testid="fit-table"] thead th')].map((th) => th.textContent!.trim());
+    expect(headers[0]).toBe('Rack (in)');
+    expect(headers[1]).toContain('deg/in');
+    expect(headers[2]).toBe('Curvature (deg/in²)');
+    const bumpSteer = Number(text(root, 'bump-steer'));
+    units.set('si');
+    TestBed.tick();
+    const perMetre = Number(root.querySelector('[data-testid="bump-steer"]')!.textContent);
+    // deg/in = deg/m × 0.0254, each side rounded to 3 significant figures.
+    expect(bumpSteer).toBeCloseTo(perMetre * 0.0254, 3);
+  });
+});

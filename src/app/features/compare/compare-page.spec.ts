@@ -1,0 +1,97 @@
+import { HttpTestingController } from '@angular/common/http/testing';
+import { signal } from '@angular/core';
+import { RouterTestingHarness } from '@angular/router/testing';
+import { exampleCorners } from '../../../../shared/kinematics/examples';
+import { analyseCorner } from '../../workers/corner-analysis';
+import type { DisplayUnits } from '../../core/api-types';
+import { settle } from '../../../testing/settle';
+import { ComparePage } from './compare-page';
+import { routedPageTestBed } from '../../../testing/routed-page';
+
+const T = '/api/teams/t-tal';
+const raised = structuredClone(exampleCorners.fsRearWishbone);
+raised.points.tieRodInner[2] += 6;
+const DESIGNS = {
+  'd-rear': { name: 'Rear baseline', corner: exampleCorners.fsRearWishbone },
+  'd-rear6': { name: 'Rear +6', corner: raised },
+} as const;
+const TRAVEL = { from: -25, to: 25, step: 2.5 };
+
+describe('ComparePage', () => {
+  let backend: HttpTestingController;
+  const units = signal<DisplayUnits>('si');
+
+  beforeEach(async () => {
+    units.set('si');
+    backend = await routedPageTestBed('teams/:teamId/vehicles/:vehicleId/compare', ComparePage, units);
+  });
+
+  afterEach(() => backend.verify());
+
+  /** Opens a shared comparison address; the page compares by itself once the designs are listed. */
+  async function openComparison() {
+    const harness = await RouterTestingHarness.create();
+    await harness.navigateByUrl('/teams/t-tal/vehicles/v-ember/compare?designs=d-rear,d-rear6', ComparePage);
+    await settle();
+    backend.expectOne(`${T}/vehicles/v-ember/axle-designs`).flush(
+      Object.entries(DESIGNS).map(([id, d]) => ({ id, axle: 'rear', name: d.name, revision: 3, status: 'draft', updatedAt: '' })),
+    );
+    // Each design is read, then solved (by the same engine the Worker runs, here on the main thread).
+    for (const [id, d] of Object.entries(DESIGNS)) {
+      await vi.waitFor(() => backend.expectOne(`${T}/axle-designs/${id}`), { timeout: 20_000, interval: 20 }).then((r) =>
+        r.flush({ id, vehicleId: 'v-ember', axle: 'rear', name: d.name, revision: 3, status: 'draft', corner: d.corner, updatedAt: '', updatedByName: null }),
+      );
+    }
+    const root = harness.routeNativeElement as HTMLElement;
+    await vi.waitFor(
+      () => {
+        harness.detectChanges();
+        if (!root.querySelector('[data-testid="compare-figures"]')) throw new Error('not compared yet');
+      },
+      { timeout: 20_000, interval: 50 },
+    );
+    return { harness, root };
+  }
+
+  function row(root: HTMLElement, label: string): string[] {
+    const tr = [...root.querySelectorAll('[data-testid="compare-figures"] tbody tr')].find((r) => r.querySelector('th')?.textContent?.trim() === label)!;
+    return [...tr.querySelectorAll('td')].map((td) => td.textContent!.replace('(differs)', '').trim());
+  }
+
+  it('shows labelled key figures grouped by kind, rounded, with their units, never raw result keys', async () => {
+    const { root } = await openComparison();
+    const table = root.querySelector('[data-testid="compare-figures"]')!;
+    const groups = [...table.querySelectorAll('.rw-group-row th')].map((th) => th.textContent!.trim());
+    expect(groups).toEqual(['In roll', 'Toe over one-wheel bump (rack centred)', 'Camber over bump (rack centred)']);
+    // No dotted result path anywhere in the table.
+    expect(table.textContent).not.toMatch(/[a-z]+\.[a-z]+[A-Z]/);
+    const expected = analyseCorner({ corner: raised, travel: TRAVEL, rackMm: [0], roll: { from: -3, to: 3, step: 0.25 }, pose: { travelMm: 0, rackMm: 0 } });
+    const bump = row(root, 'Bump steer (toe-in per bump travel)');
+    // Rounded to the quantity's 3 significant figures (core/format/quantities.ts), unit in its own column.
+    expect(bump[1]).toBe(String(Number(expected.curves[0]!.bumpSteerDegPerM.toPrecision(3))));
+    expect(bump[2]).toBe('deg/m');
+    expect(row(root, 'Toe curvature')[2]).toBe('deg/m²');
+    expect(row(root, 'Roll steer coefficient ε')[1]).toContain(String(Number(expected.rollSteerCoefficient.toPrecision(3))));
+    // The raised toe link changes the bump steer: the variant's cell is marked as differing from the reference.
+    const cells = [...table.querySelectorAll('tbody tr')].find((r) => r.textContent?.includes('Bump steer'))!.querySelectorAll('td');
+    expect(cells[1]!.classList.contains('rw-differs')).toBe(true);
+    expect(cells[0]!.classList.contains('rw-differs')).toBe(false);
+  });
+
+  it('writes the figures in inch/pound units when the user reads inch/pound', async () => {
+    const { harness, root } = await openComparison();
+    const reference = analyseCorner({ corner: exampleCorners.fsRearWishbone, travel: TRAVEL, rackMm: [0], roll: { from: -3, to: 3, step: 0.25 }, pose: { travelMm: 0, rackMm: 0 } });
+    units.set('imperial');
+    harness.detectChanges();
+    const bump = row(root, 'Bump steer (toe-in per bump travel)');
+    expect(bump[2]).toBe('deg/in');
+    // 1 in = 25.4 mm exactly: deg/in = deg/m × 0.0254.
+    expect(bump[0]).toBe(String(Number((reference.curves[0]!.bumpSteerDegPerM * 0.0254).toPrecision(3))));
+    expect(row(root, 'Toe curvature')[2]).toBe('deg/in²');
+    // The travel range and the curves' travel axis follow too: ±25 mm is ±0.9843 in.
+    expect(root.querySelector('[data-testid="compare-travel"]')!.textContent).toContain('Travel -0.9843 to 0.9843 in');
+    const toeChart = [...root.querySelectorAll('rw-line-chart')].find((c) => c.textContent?.includes('Toe change against wheel travel'))!;
+    const ticks = [...toeChart.querySelectorAll('.rw-axis-x text')].map((t) => Math.abs(Number(t.textContent!.replace('−', '-'))));
+    expect(Math.max(...ticks)).toBeLessThan(1.5);
+  });
+});

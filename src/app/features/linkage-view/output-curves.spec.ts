@@ -1,0 +1,106 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { signal } from '@angular/core';
+import { TestBed } from '@angular/core/testing';
+import type { DisplayUnits } from '../../core/api-types';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import { exampleCorners } from '../../../../shared/kinematics/examples';
+import { exampleVehicles } from '../../../../shared/balance/examples';
+import { serve, settle } from '../configurations/spec-backend';
+import { OutputCurves } from './output-curves';
+
+const TEAM = '/api/teams/t1';
+
+async function setUp(units: DisplayUnits = 'si') {
+  TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting(), { provide: DISPLAY_UNITS, useValue: signal(units) }] });
+  const fixture = TestBed.createComponent(OutputCurves);
+  const ref = fixture.componentRef;
+  ref.setInput('corner', exampleCorners.fsFrontWishbone);
+  ref.setInput('axle', 'front');
+  ref.setInput('teamId', 't1');
+  ref.setInput('designId', 'd1');
+  ref.setInput('vehicleId', 'v1');
+  ref.setInput('revision', 3);
+  ref.setInput('revisions', [
+    { revision: 3, message: null, authorName: 'Ines Varga', createdAt: '2026-11-02T10:00:00Z' },
+    { revision: 2, message: 'lower tie rod', authorName: 'Ines Varga', createdAt: '2026-11-01T10:00:00Z' },
+  ]);
+  fixture.detectChanges();
+  const backend = TestBed.inject(HttpTestingController);
+  await serve(backend, { [`GET ${TEAM}/vehicles/v1`]: { id: 'v1', name: 'Kestrel', archived: false, revision: 1, data: exampleVehicles.tur26Ember, updatedAt: '', updatedByName: null } });
+  const el = fixture.nativeElement as HTMLElement;
+  await until(fixture, () => el.querySelectorAll('[data-chart]').length > 0);
+  return { fixture, el, backend };
+}
+
+/** Waits (event loop turns, no timers) until the engine's answer is drawn. */
+async function until(fixture: { detectChanges(): void; whenStable(): Promise<unknown> }, ready: () => boolean): Promise<void> {
+  for (let i = 0; i < 200 && !ready(); i++) {
+    await settle();
+    fixture.detectChanges();
+    await fixture.whenStable();
+  }
+  expect(ready()).toBe(true);
+}
+
+const charts = (el: HTMLElement) => Array.from(el.querySelectorAll('[data-chart]')).map((c) => c.getAttribute('data-chart'));
+const box = (el: HTMLElement, key: string) => el.querySelector<HTMLInputElement>(`[data-output="${key}"] input[type="checkbox"]`)!;
+
+describe('OutputCurves', () => {
+  // Under jsdom the engine runs in the page from a lazily imported module; load it once first so each spec waits only on
+  // the engine's work, not on the module's first compilation.
+  beforeAll(async () => {
+    await import('./views-engine');
+  });
+
+  it('draws the default outputs against wheel travel, and the picker shows and hides series', async () => {
+    const { fixture, el } = await setUp();
+    expect(charts(el)).toEqual(['toeDeg', 'camberDeg', 'rollCentreHeightMm']);
+    expect(el.querySelector('[data-chart="toeDeg"] .rw-axis-label-x')!.textContent).toContain('Wheel travel, both wheels, + bump (mm)');
+
+    box(el, 'toeDeg').click();
+    box(el, 'casterDeg').click();
+    fixture.detectChanges();
+    await fixture.whenStable();
+    expect(charts(el)).toEqual(['camberDeg', 'casterDeg', 'rollCentreHeightMm']);
+    // One series per geometry: the design being edited.
+    expect(el.querySelectorAll('[data-chart="casterDeg"] g.rw-series')).toHaveLength(1);
+
+    Array.from(el.querySelectorAll<HTMLButtonElement>('button')).find((b) => b.textContent!.includes('Toe, camber and roll centre only'))!.click();
+    fixture.detectChanges();
+    await fixture.whenStable();
+    expect(charts(el)).toEqual(['toeDeg', 'camberDeg', 'rollCentreHeightMm']);
+  });
+
+  it('Ackermann is drawn only against rack travel, with the vehicle wheelbase', async () => {
+    const { fixture, el } = await setUp();
+    box(el, 'ackermannPercent').click();
+    fixture.detectChanges();
+    expect(charts(el)).not.toContain('ackermannPercent');
+    const rack = Array.from(el.querySelectorAll<HTMLButtonElement>('[data-testid="curve-axis"] button')).find((b) => b.textContent!.includes('Rack travel'))!;
+    rack.click();
+    await until(fixture, () => charts(el).includes('ackermannPercent'));
+    expect(el.querySelector('[data-chart="ackermannPercent"] .rw-axis-label-x')!.textContent).toContain('Rack travel');
+  });
+
+  it('overlays a saved revision as a second series', async () => {
+    const { fixture, el, backend } = await setUp();
+    const older = structuredClone(exampleCorners.fsFrontWishbone);
+    older.points.tieRodInner = [older.points.tieRodInner[0], older.points.tieRodInner[1], older.points.tieRodInner[2] - 10];
+    el.querySelector<HTMLInputElement>('[data-overlay="r:2"] input[type="checkbox"]')!.click();
+    await serve(backend, { [`GET ${TEAM}/axle-designs/d1/revisions/2`]: { revision: 2, name: 'Front', corner: older } });
+    await until(fixture, () => el.querySelectorAll('[data-chart="toeDeg"] g.rw-series').length === 2);
+    const names = Array.from(el.querySelectorAll('[data-chart="toeDeg"] g.rw-series')).map((g) => g.getAttribute('data-series'));
+    expect(names).toEqual(['Revision 3 (shown)', 'Revision 2']);
+    // The revision being edited is not offered as its own overlay.
+    expect(el.querySelector('[data-overlay="r:3"]')).toBeNull();
+  });
+
+  it('draws lengths in inches for an inch-pound user: the travel axis and the roll centre height', async () => {
+    const { el } = await setUp('imperial');
+    expect(el.querySelector('[data-chart="toeDeg"] .rw-axis-label-x')!.textContent).toContain('Wheel travel, both wheels, + bump (in)');
+    expect(el.querySelector('[data-chart="rollCentreHeightMm"]')!.textContent).toContain('Roll centre above the ground (in)');
+    // Toe stays in degrees in both systems.
+    expect(el.querySelector('[data-chart="toeDeg"]')!.textContent).toContain('(deg)');
+  });
+});

@@ -1,0 +1,92 @@
+import { HttpTestingController, TestRequest } from '@angular/common/http/testing';
+import { signal } from '@angular/core';
+import { RouterTestingHarness } from '@angular/router/testing';
+import { computeBalance } from '../../../../shared/balance/api';
+import { exampleVehicles } from '../../../../shared/balance/examples';
+import { exampleCorners } from '../../../../shared/kinematics/examples';
+import type { DisplayUnits } from '../../core/api-types';
+import { DesignReportPage } from './design-report-page';
+import { routedPageTestBed } from '../../../testing/routed-page';
+
+const T = '/api/teams/t-tal';
+const design = (id: string, axle: 'front' | 'rear', revision: number, updatedByName: string) => ({
+  id,
+  vehicleId: 'v-ember',
+  axle,
+  name: axle === 'front' ? 'Front baseline' : 'Rear, raised toe link',
+  revision,
+  status: 'accepted',
+  corner: axle === 'front' ? exampleCorners.fsFrontWishbone : exampleCorners.fsRearWishbone,
+  updatedAt: '2026-12-01T10:00:00.000Z',
+  updatedByName,
+});
+
+/** Answers each request the report makes as the server would (the balance by the real engine). */
+function answer(req: TestRequest): void {
+  const url = req.request.url;
+  if (url === `${T}/axle-designs/d-rear`) req.flush(design('d-rear', 'rear', 2, 'Dana Quist'));
+  else if (url === `${T}/axle-designs/d-front`) req.flush(design('d-front', 'front', 1, 'Dana Quist'));
+  else if (url === `${T}/vehicles/v-ember`) req.flush({ id: 'v-ember', name: 'TUR-26 Ember', archived: false, revision: 1, data: exampleVehicles.tur26Ember, updatedAt: '', updatedByName: null });
+  else if (url === `${T}/vehicles/v-ember/axle-designs`) req.flush([design('d-front', 'front', 1, 'Dana Quist'), design('d-rear', 'rear', 2, 'Dana Quist')]);
+  else if (url === `${T}/axle-designs/d-rear/revisions`)
+    req.flush([
+      { revision: 2, message: 'solve for −0.02', authorName: 'Eli Marsh', createdAt: '2026-12-01T10:00:00.000Z' },
+      { revision: 1, message: 'Demo data', authorName: 'Dana Quist', createdAt: '2026-11-01T10:00:00.000Z' },
+    ]);
+  else if (url === `${T}/axle-designs/d-rear/proposals`)
+    req.flush([
+      { id: 'p1', designId: 'd-rear', baseRevision: 1, status: 'accepted', message: 'solve for −0.02', origin: null, authorName: 'Eli Marsh', createdAt: '', decidedByName: 'Dana Quist', decidedAt: '', acceptedRevision: 2 },
+    ]);
+  else if (url === '/api/compute/balance') req.flush({ engineVersion: 'test', result: computeBalance(req.request.body) });
+  else throw new Error(`unexpected request ${url}`);
+}
+
+describe('DesignReportPage', () => {
+  let backend: HttpTestingController;
+  const units = signal<DisplayUnits>('si');
+
+  beforeEach(async () => {
+    units.set('si');
+    backend = await routedPageTestBed('teams/:teamId/vehicles/:vehicleId/axle-designs/:designId/report', DesignReportPage, units);
+  });
+
+  /** Opens the report and serves its requests until the kinematics, the revisions and the budget are on it. */
+  async function open() {
+    const harness = await RouterTestingHarness.create();
+    await harness.navigateByUrl('/teams/t-tal/vehicles/v-ember/axle-designs/d-rear/report', DesignReportPage);
+    const root = harness.routeNativeElement as HTMLElement;
+    await vi.waitFor(
+      () => {
+        backend.match(() => true).forEach(answer);
+        harness.detectChanges();
+        if (!root.querySelector('[data-testid="report-fit-range"]') || !root.querySelector('rw-bar-chart') || !root.textContent?.includes('accepted by')) {
+          throw new Error('report not complete yet');
+        }
+      },
+      { timeout: 30_000, interval: 30 },
+    );
+    return { harness, root };
+  }
+
+  it('names the revision author as its revision list does, with who accepted it, and lists the author\'s own notes', async () => {
+    const { root } = await open();
+    const revision = root.querySelector('[data-testid="report-revision"]')!.textContent!;
+    expect(revision).toContain('2 (accepted) by Eli Marsh, accepted by Dana Quist');
+    expect(root.textContent).toContain('Revision 2 · Eli Marsh');
+    expect(root.textContent).toContain('— solve for −0.02');
+    backend.verify();
+  });
+
+  it('writes its figures and curves in inch/pound units when the user reads inch/pound, and says which units it uses', async () => {
+    units.set('imperial');
+    const { root } = await open();
+    // ±25 mm of travel is ±0.9843 in (1 in = 25.4 mm exactly).
+    expect(root.querySelector('[data-testid="report-fit-range"]')!.textContent).toContain('Fitted over -0.9843 to 0.9843 in of travel');
+    const headers = [...root.querySelectorAll('.rw-report-table thead th')].map((th) => th.textContent!.trim());
+    expect(headers).toContain('Bump steer (deg/in)');
+    expect(headers).toContain('Toe curvature (deg/in²)');
+    expect(root.querySelector('[data-testid="report-units"]')!.textContent).toContain('Inch/pound');
+    expect(root.querySelector('rw-safety-caution')).not.toBeNull();
+    backend.verify();
+  });
+});

@@ -1,0 +1,86 @@
+/**
+ * Browser test of the editor's linkage views (issue 15, section 3): as the
+ * demo designer open an axle design, open the 3D view (three.js loads only
+ * then), see it draw or, where this Chromium gives no WebGL context, the
+ * message saying so; pick a point and see its hardpoint row selected, and
+ * the reverse; pick output curves and the sweep axis. Real server, fresh
+ * seeded database, Debian's Chromium. Needs `npx ng build` first.
+ */
+import { describe, expect, it } from 'vitest';
+import { consoleErrors, offsiteRequests, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+
+describe('Linkage views in Chromium', () => {
+  const env = useE2eApp();
+
+  it('opens the 3D view on demand, links a picked point to its table row, and draws the chosen output curves', async () => {
+    const page = await env.browser.newPage();
+    const scripts: string[] = [];
+    page.on('request', (r) => {
+      if (r.resourceType() === 'script') scripts.push(r.url());
+    });
+    await signIn(page, env.app.baseUrl, 'designer@tallowmere.example');
+    await page.getByRole('link', { name: 'TUR-26 Ember' }).click();
+    await page.getByRole('link', { name: 'Front baseline' }).click();
+    await page.getByRole('heading', { name: /Front baseline/ }).waitFor();
+    await page.locator('[data-testid="toe-chart"] path.rw-series-line').first().waitFor();
+
+    // three.js is not loaded with the editor.
+    const beforeOpen = scripts.length;
+    await page.getByTestId('open-3d').click();
+    await page.locator('[data-testid="no-webgl"], [data-testid="linkage-3d-stage"] canvas').first().waitFor();
+    expect(scripts.length).toBeGreaterThan(beforeOpen);
+    const drawn = (await page.locator('[data-testid="linkage-3d-stage"] canvas').count()) > 0;
+
+    if (drawn) {
+      // Every point is labelled; pick the upper ball joint 16 px below its name's centre (linkage-3d.scss).
+      const label = page.locator('.rw-3d-label[data-point="points.upperOuter"]');
+      await label.waitFor();
+      const box = (await label.boundingBox())!;
+      await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2 + 16);
+      await page.locator('tr.rw-selected[data-key="points.upperOuter"]').waitFor();
+      await page.getByTestId('picked-point').filter({ hasText: /^Upper ball joint$/ }).waitFor();
+    } else {
+      await expect(page.getByTestId('no-webgl').innerText()).resolves.toContain('WebGL');
+    }
+    // The reverse: a row selected in the table is the point shown selected in the view.
+    await page.locator('tr[data-key="points.lowerOuter"] th').click();
+    // Wait for the redraw (the selection is a signal; reading the text at once would race it).
+    await page.getByTestId('picked-point').filter({ hasText: /^Lower ball joint$/ }).waitFor();
+    await page.locator('tr.rw-selected[data-key="points.lowerOuter"]').waitFor();
+    if (drawn) await page.locator('.rw-3d-label-selected[data-point="points.lowerOuter"]').waitFor();
+    await saveScreenshot(page, drawn ? 'editor-3d-view' : 'editor-3d-view-no-webgl');
+
+    // Output curves: load when opened; the picker shows and hides charts.
+    await page.getByTestId('open-curves').click();
+    await page.getByTestId('curves-grid').waitFor();
+    await page.locator('[data-chart="toeDeg"] path.rw-series-line').first().waitFor();
+    await page.locator('[data-output="casterDeg"] input').check();
+    await page.locator('[data-chart="casterDeg"] path.rw-series-line').first().waitFor();
+    await page.locator('[data-output="toeDeg"] input').uncheck();
+    await page.locator('[data-chart="toeDeg"]').waitFor({ state: 'detached' });
+    await page.locator('[data-testid="curve-axis"] button', { hasText: 'Body roll' }).click();
+    await page.locator('[data-chart="casterDeg"] .rw-axis-label-x', { hasText: 'Body roll' }).waitFor();
+
+    // No two text elements of a curve chart overlap (ticks, axis titles).
+    const overlaps = await page.evaluate(() => {
+      const found: string[] = [];
+      for (const svg of document.querySelectorAll('[data-testid="curves-grid"] svg.rw-chart-svg')) {
+        const texts = [...svg.querySelectorAll('text')].filter((t) => t.textContent!.trim() !== '');
+        const boxes = texts.map((t) => t.getBoundingClientRect());
+        for (let i = 0; i < boxes.length; i++)
+          for (let j = i + 1; j < boxes.length; j++) {
+            const a = boxes[i]!;
+            const b = boxes[j]!;
+            if (a.left < b.right - 0.5 && b.left < a.right - 0.5 && a.top < b.bottom - 0.5 && b.top < a.bottom - 0.5) found.push(`${texts[i]!.textContent} / ${texts[j]!.textContent}`);
+          }
+      }
+      return found;
+    });
+    expect(overlaps).toEqual([]);
+    await saveScreenshot(page, 'editor-output-curves');
+
+    expect(await seriousA11yViolations(page)).toEqual([]);
+    expect(offsiteRequests(page)).toEqual([]);
+    expect(consoleErrors(page)).toEqual([]);
+  });
+});

@@ -1,0 +1,81 @@
+/**
+ * Browser test of every page's look (issue 15, "How it is checked"): each
+ * page is opened as the person who uses it, waits until it has settled, is
+ * saved as a screenshot under test-results/ (look-page-*.png), and has no
+ * serious or critical accessibility finding (axe, WCAG 2.2 AA rules), no
+ * console error and no request leaving 127.0.0.1. Needs `npx ng build` first.
+ */
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import { consoleErrors, offsiteRequests, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+
+async function api<T>(page: Page, url: string): Promise<T> {
+  const r = await page.request.get(url, { headers: { 'X-Rollwise-Request': '1' } });
+  if (!r.ok()) throw new Error(`GET ${url}: ${r.status()}`);
+  return (await r.json()) as T;
+}
+
+function named<T extends { name: string }>(list: T[], name: string): T {
+  const found = list.find((x) => x.name === name);
+  if (!found) throw new Error(`no "${name}" among ${list.map((x) => x.name).join(', ')}`);
+  return found;
+}
+
+/** Opens `path`, waits for `ready` and for no loading bar, then screenshots and checks the page. */
+async function visit(page: Page, base: string, name: string, path: string, ready: string): Promise<void> {
+  await page.goto(base + path);
+  await page.locator(ready).first().waitFor({ timeout: 60_000 });
+  // Settled: no loading bar left (the shell's and a section's may show at once).
+  await expect
+    .poll(() => page.locator('mat-progress-bar[mode="indeterminate"], .rw-busy-bar').count(), { timeout: 60_000, message: `the ${name} page settles` })
+    .toBe(0);
+  const findings = await seriousA11yViolations(page);
+  await saveScreenshot(page, `look-page-${name}`);
+  expect(findings, `serious or critical accessibility findings on the ${name} page`).toEqual([]);
+}
+
+describe('Every page in Chromium', () => {
+  const env = useE2eApp();
+
+  it('signed-out pages', async () => {
+    const page = await env.browser.newPage();
+    const base = env.app.baseUrl;
+    await visit(page, base, 'sign-in', '/sign-in', 'h1');
+    await visit(page, base, 'register', '/register', 'h1');
+    await visit(page, base, 'forgot-password', '/forgot-password', 'h1');
+    expect(offsiteRequests(page)).toEqual([]);
+    expect(consoleErrors(page)).toEqual([]);
+  });
+
+  it('team pages, as the team owner', async () => {
+    const page = await env.browser.newPage();
+    const base = env.app.baseUrl;
+    await signIn(page, base, 'owner@tallowmere.example');
+    const team = named(await api<{ id: string; name: string }[]>(page, `${base}/api/teams`), 'Tallowmere University Racing');
+    const t = `/teams/${team.id}`;
+    const configuration = named(await api<{ id: string; name: string }[]>(page, `${base}/api/teams/${team.id}/configurations`), 'Ember baseline');
+    await visit(page, base, 'teams', '/teams', 'h1');
+    await visit(page, base, 'team-dashboard', t, 'a.vehicle-link');
+    await visit(page, base, 'members', `${t}/members`, 'h1');
+    await visit(page, base, 'activity', `${t}/activity`, 'h1');
+    await visit(page, base, 'configurations', `${t}/configurations`, 'h1');
+    await visit(page, base, 'configuration', `${t}/configurations/${configuration.id}`, '.rw-axle-cautions[data-axle="rear"]');
+    await visit(page, base, 'studies', `${t}/studies`, 'h1');
+    await visit(page, base, 'team-programmes', `${t}/programmes`, 'h1');
+    await visit(page, base, 'account', '/account', 'h1');
+    await visit(page, base, 'dev-mail', '/dev-mail', 'h1');
+    expect(offsiteRequests(page)).toEqual([]);
+    expect(consoleErrors(page)).toEqual([]);
+  });
+
+  it('programme pages, as the instructor', async () => {
+    const page = await env.browser.newPage();
+    const base = env.app.baseUrl;
+    await signIn(page, base, 'instructor@programme.example');
+    const programmes = await api<{ id: string; name: string }[]>(page, `${base}/api/programmes`);
+    await visit(page, base, 'programmes', '/programmes', 'h1');
+    await visit(page, base, 'programme', `/programmes/${named(programmes, 'Winter roll-steer comparison').id}`, 'h2#board-heading');
+    expect(offsiteRequests(page)).toEqual([]);
+    expect(consoleErrors(page)).toEqual([]);
+  });
+});
