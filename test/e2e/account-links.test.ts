@@ -9,9 +9,8 @@
  * leaves 127.0.0.1; every page must end without console errors.
  * Needs `npx ng build` first.
  */
-import type { Locator, Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, signIn, useE2eApp } from '../support/e2e.js';
+import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, signIn, useE2eApp, waitForMail } from '../support/e2e.js';
 
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
@@ -20,27 +19,6 @@ const OWNER = 'owner@tallowmere.example';
 const NEW_PASSWORD = 'quist-fresh-pass-27';
 const SAME_ANSWER = /^If an account uses \S+, a link to choose a new password is on its way\./;
 
-/** The captured mail with this subject to this address, refreshing until the outbox has sent it. */
-async function waitForMail(page: Page, subject: string, to: string): Promise<Locator> {
-  const mail = page
-    .locator('li.mail')
-    .filter({ has: page.getByRole('heading', { name: subject }) })
-    .filter({ hasText: to });
-  // The outbox sends within a poll or two of the queue worker: press Refresh, as the person would, until the mail is listed.
-  await expect
-    .poll(
-      async () => {
-        if ((await mail.count()) === 0) {
-          await page.getByRole('button', { name: 'Refresh' }).click();
-          await page.locator('mat-progress-bar, .rw-busy-bar').waitFor({ state: 'detached' });
-        }
-        return mail.count();
-      },
-      { timeout: 40_000, interval: 250, message: `mail "${subject}" to ${to} on the development mail page` },
-    )
-    .toBeGreaterThan(0);
-  return mail.first();
-}
 
 describe('account links in mail', () => {
   const env = useE2eApp();

@@ -11,9 +11,9 @@
  * ends without console errors or requests leaving 127.0.0.1, and passes the
  * harness's accessibility check. Needs `npx ng build` first.
  */
-import type { Locator, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { consoleErrors, copyOfDemoDesign, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+import { consoleErrors, copyOfDemoDesign, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp, waitForMail } from '../support/e2e.js';
 
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
@@ -38,24 +38,6 @@ async function expectStatus(page: Page, label: string): Promise<void> {
   expect(await status(page)).toBe(label);
 }
 
-/** The captured mail with this subject to this address, refreshing until the outbox has sent it. */
-async function waitForMail(page: Page, subject: string, to: string): Promise<Locator> {
-  const mail = page.locator('li.mail').filter({ has: page.getByRole('heading', { name: subject }) }).filter({ hasText: to });
-  // The outbox sends within a poll or two of the queue worker: press Refresh, as the person would, until the mail is listed.
-  await expect
-    .poll(
-      async () => {
-        if ((await mail.count()) === 0) {
-          await page.getByRole('button', { name: 'Refresh' }).click();
-          await page.locator('mat-progress-bar, .rw-busy-bar').waitFor({ state: 'detached' });
-        }
-        return mail.count();
-      },
-      { timeout: 40_000, interval: 250, message: `mail "${subject}" to ${to} on the development mail page` },
-    )
-    .toBeGreaterThan(0);
-  return mail.first();
-}
 
 function clean(page: Page): void {
   expect(offsiteRequests(page)).toEqual([]);

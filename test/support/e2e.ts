@@ -8,9 +8,9 @@
 import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { tmpdir } from 'node:os';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { chromium, type Browser, type BrowserContext, type Locator, type Page } from 'playwright-core';
 import { AxeBuilder } from '@axe-core/playwright';
-import { afterAll, beforeAll } from 'vitest';
+import { afterAll, beforeAll, expect } from 'vitest';
 import { migratedDatabaseUrl } from './db.js';
 import { freePort } from '../../server/tools/pg.js';
 
@@ -203,4 +203,26 @@ export async function copyOfDemoDesign(
   edit?.(source.corner as { points: Record<string, [number, number, number]> });
   const created = await api<{ id: string }>(`/api/teams/${team.id}/vehicles/${vehicle.id}/axle-designs`, { axle: source.axle, name, corner: source.corner });
   return `/teams/${team.id}/vehicles/${vehicle.id}/axle-designs/${created.id}`;
+}
+
+/** The captured mail with this subject to this address, refreshing until the outbox has sent it. */
+export async function waitForMail(page: Page, subject: string, to: string): Promise<Locator> {
+  const mail = page
+    .locator('li.mail')
+    .filter({ has: page.getByRole('heading', { name: subject }) })
+    .filter({ hasText: to });
+  // The outbox sends within a poll or two of the queue worker: press Refresh, as the person would, until the mail is listed.
+  await expect
+    .poll(
+      async () => {
+        if ((await mail.count()) === 0) {
+          await page.getByRole('button', { name: 'Refresh' }).click();
+          await page.locator('mat-progress-bar, .rw-busy-bar').waitFor({ state: 'detached' });
+        }
+        return mail.count();
+      },
+      { timeout: 40_000, interval: 250, message: `mail "${subject}" to ${to} on the development mail page` },
+    )
+    .toBeGreaterThan(0);
+  return mail.first();
 }
