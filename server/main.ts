@@ -22,6 +22,8 @@ export interface RunningServer {
   url: string;
   /** smtp://… of the in-process fake SMTP server, when ROLLWISE_FAKE_SMTP started one. */
   smtpUrl?: string | undefined;
+  /** The listening HTTP server, for embedding and for tests that watch its events. */
+  http: import('node:http').Server;
   close(): Promise<void>;
 }
 
@@ -70,13 +72,17 @@ export async function startServer(overrides: Partial<Config> = {}): Promise<Runn
   return {
     url,
     smtpUrl: fake?.url,
+    http: server,
     close: () =>
       (closing ??= (async () => {
-        // Requests in flight may finish (up to a grace period); idle keep-alive connections close now.
+        // Requests in flight may finish (up to a grace period); idle keep-alive connections close now,
+        // and each connection closes as soon as its last request has been answered.
         await new Promise<void>((resolve) => {
           const force = setTimeout(() => server.closeAllConnections(), SHUTDOWN_GRACE_MS);
+          const sweep = setInterval(() => server.closeIdleConnections(), 50);
           server.close(() => {
             clearTimeout(force);
+            clearInterval(sweep);
             resolve();
           });
           server.closeIdleConnections();

@@ -95,13 +95,15 @@ describe('shutdown', () => {
       body: JSON.stringify({ email: 'late@test.example', password: 'long-enough-pass', displayName: 'Late' }),
     });
     const cookie = reg.headers.get('set-cookie')!.split(';')[0]!;
-    // A solve takes a while in the worker; close while it runs.
+    // A solve takes a while in the worker; close once the server has the request (not after a guessed
+    // delay: on a loaded machine the request may not have been read yet, and an unread connection is idle).
+    const received = new Promise((resolve) => s.http.once('request', resolve));
     const inFlight = fetch(`${s.url}/api/compute/axle-roll`, {
       method: 'POST',
       headers: { 'Content-Type': 'application/json', 'X-Rollwise-Request': '1', Cookie: cookie },
       body: JSON.stringify({ corner: (await import('../../shared/kinematics/examples.js')).exampleCorners.fsRearWishbone, roll: { from: -3, to: 3, step: 0.25 } }),
     });
-    await new Promise((r) => setTimeout(r, 100));
+    await received;
     const closing = s.close();
     const r = await inFlight;
     expect(r.status).toBe(200);
