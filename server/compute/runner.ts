@@ -83,6 +83,8 @@ export class QueueRunner {
   private stopping = false;
   private readonly lanes: Promise<void>[] = [];
   private readonly wakers = new Set<() => void>();
+  /** Counts `wake` notifications, so a lane that was busy when one arrived does not then sleep through it. */
+  private wakeSeq = 0;
   private readonly cancels = new Map<string, Set<AbortController>>();
   private ctx!: RunnerContext;
   private reconcileTimer: NodeJS.Timeout | undefined;
@@ -156,6 +158,7 @@ export class QueueRunner {
 
   private async lane(names: string[]): Promise<void> {
     while (!this.stopping) {
+      const seen = this.wakeSeq;
       let worked = false;
       for (const name of names) {
         if (this.stopping) break;
@@ -173,7 +176,7 @@ export class QueueRunner {
         await this.runOne(name, handler, job);
         break; // Back to the first queue of the lane: it has precedence.
       }
-      if (!worked && !this.stopping) await this.idle();
+      if (!worked && !this.stopping) await this.idle(seen);
     }
   }
 
@@ -204,12 +207,16 @@ export class QueueRunner {
     const names = [QUEUES.studyCombine, QUEUES.studyChunk];
     let ahead: Promise<{ name: string; job: PgBoss.JobWithMetadata<QueueJobData> } | undefined> | undefined;
     let landing: Promise<void> = Promise.resolve();
+    // The wake count when the fetch that `ahead` holds began: a job queued after that (a combine job sent by
+    // this lane's own landing, say) has woken the lane by the time it would sleep, so it looks again at once.
+    let seen = this.wakeSeq;
     while (!this.stopping || ahead) {
+      if (!ahead) seen = this.wakeSeq;
       const next = await (ahead ?? this.fetchFirst(names));
       ahead = undefined;
       if (!next) {
         await landing;
-        if (!this.stopping) await this.idle();
+        if (!this.stopping) await this.idle(seen);
         continue;
       }
       const { name, job } = next;
@@ -233,7 +240,10 @@ export class QueueRunner {
       }
       const computing = computeChunk(this.ctx, work);
       // Take the next job while this one computes (the catch keeps an early rejection from going unhandled).
-      if (!this.stopping) ahead = this.fetchFirst(names);
+      if (!this.stopping) {
+        seen = this.wakeSeq;
+        ahead = this.fetchFirst(names);
+      }
       let done: Awaited<ReturnType<typeof computeChunk>>;
       try {
         done = await computing;
@@ -280,7 +290,9 @@ export class QueueRunner {
     }
   }
 
-  private idle(): Promise<void> {
+  /** Sleeps until a wake notification or `pollMs`; at once if a wake came since `seen` was read. */
+  private idle(seen: number): Promise<void> {
+    if (this.wakeSeq !== seen) return Promise.resolve();
     return new Promise((resolve) => {
       const done = () => {
         clearTimeout(t);
@@ -321,6 +333,7 @@ export class QueueRunner {
     client.on('notification', (n) => {
       const p = n.payload ?? '';
       if (p === 'wake') {
+        this.wakeSeq++;
         for (const w of [...this.wakers]) w();
       } else if (p.startsWith('cancel:')) {
         for (const c of this.cancels.get(p.slice(7)) ?? []) c.abort();

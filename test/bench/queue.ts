@@ -91,10 +91,10 @@ export async function run(): Promise<BenchFigures> {
       const wallS = (performance.now() - t0) / 1000;
       const workerCpuS = workers.map((w, i) => cpuSeconds(w.pid) - cpu0[i]!);
       const c = (
-        await db.query<{ chunks: number; samples: number; compute_ms: number; phase_s: number; poses: number }>(
+        await db.query<{ chunks: number; samples: number; compute_ms: number; phase_s: number; poses: number; pre_s: number; post_s: number }>(
           `SELECT count(*)::int AS chunks, sum(c.samples)::int AS samples, sum(c.compute_ms)::float AS compute_ms, sum(c.poses)::float AS poses,
-                  extract(epoch FROM max(c.finished_at) - s.started_at)::float AS phase_s
-             FROM study_chunks c JOIN studies s ON s.id = c.study_id WHERE s.id = $1 GROUP BY s.started_at`,
+                  extract(epoch FROM max(c.finished_at) - s.started_at)::float AS phase_s, extract(epoch FROM s.started_at - s.created_at)::float AS pre_s, extract(epoch FROM s.finished_at - max(c.finished_at))::float AS post_s
+             FROM study_chunks c JOIN studies s ON s.id = c.study_id WHERE s.id = $1 GROUP BY s.started_at, s.created_at, s.finished_at`,
           [s.id],
         )
       ).rows[0]!;
@@ -108,7 +108,7 @@ export async function run(): Promise<BenchFigures> {
       results[n] = await measure(10_000, 2026);
       console.log(
         `  ${n} worker(s): 10 000 samples in ${round(results[n].wallS)} s submit→stored; chunk phase ${round(results[n].phase_s)} s, ${results[n].chunks} chunks, ` +
-          `compute ${round(results[n].compute_ms / 1000)} s, ${Math.round(results[n].poses / (results[n].compute_ms / 1000))} poses/s per busy thread; ` +
+          `submit→first chunk ${round(results[n].pre_s)} s, last chunk→stored ${round(results[n].post_s)} s, compute ${round(results[n].compute_ms / 1000)} s, ${Math.round(results[n].poses / (results[n].compute_ms / 1000))} poses/s per busy thread; ` +
           `worker CPU ${results[n].workerCpuS.map((x) => round(x)).join(' + ')} s`,
       );
     }

@@ -100,6 +100,15 @@ describe('studies on worker processes', () => {
     await stopWorkers();
   }, 180_000);
 
+  it('a worker that polls only every ten minutes still runs a study straight through: no wake notification is lost, not even the one its own last chunk sends for the combine step', async () => {
+    // Every job is announced by NOTIFY; a lane that was busy when one arrived must not then sleep through it.
+    workers.push(await spawnWorker(t.databaseUrl, { QUEUE_POLL_MS: '600000' }));
+    const id = await start();
+    const done = await completed(id);
+    expect(done.result).toEqual(undisturbed.result);
+    await stopWorkers();
+  }, 180_000);
+
   it('two workers give exactly the same result as one', async () => {
     workers.push(await spawnWorker(t.databaseUrl), await spawnWorker(t.databaseUrl));
     const id = await start();
