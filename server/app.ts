@@ -33,7 +33,7 @@ import { Activity } from './services/activity.js';
 import { activityRouter } from './routes/activity.js';
 import { Programmes } from './services/programmes.js';
 import { programmesRouter, teamProgrammesRouter } from './routes/programmes.js';
-import { createComputePool } from './compute/pool.js';
+import { createComputePool, PRIORITIES } from './compute/pool.js';
 import { SolveJobs } from './compute/jobs.js';
 import { JobQueue } from './compute/queue.js';
 import { QueueRunner } from './compute/runner.js';
@@ -98,7 +98,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   const vehicles = new Vehicles(db.orm);
   const designs = new AxleDesigns(db.orm);
   const proposals = new Proposals(db.orm, designs);
-  const pool = createComputePool({ threads: config.computeThreads, warm: config.computeWarmStart });
+  const pool = createComputePool({ threads: config.computeThreads, warm: config.computeWarmStart, niceIncrement: PRIORITIES.request });
   const queue = new JobQueue(db.pool);
   const jobs = new SolveJobs(db, queue, { timeLimitMs: config.solveJobTimeLimitMs, retainMs: config.solveJobRetainMs });
   // Tests and single-process set-ups: a queue worker in this process (npm start runs a worker process instead).

@@ -26,10 +26,19 @@ export interface ComputePool {
 const WORKER = new URL('./worker.ts', import.meta.url).href;
 
 /**
- * `warm`: start one worker right away (loading the engines takes about a second) instead of at the first request;
- * `keepThreads`: start and keep all `threads` (a queue worker's study lanes, each with its thread warmed up at start).
+ * Thread priorities (nice increments, higher runs later): an API request's own computation, then a user's
+ * queued solve, then study chunks. The main threads (HTTP, queue) stay at the process's priority.
  */
-export function createComputePool(o: { threads: number; maxQueue?: number; warm?: boolean; keepThreads?: boolean }): ComputePool {
+export const PRIORITIES = { request: 2, solveJob: 5, studyChunk: 10 } as const;
+
+/**
+ * `warm`: start one worker right away (loading the engines takes about a second) instead of at the first request;
+ * `keepThreads`: start and keep all `threads` (a queue worker's study lanes, each with its thread warmed up at start);
+ * `niceIncrement`: the threads' scheduling priority below the process's (Linux nice, per thread, through piscina
+ * and @napi-rs/nice), so that on a shared machine the event loops answering requests and taking jobs run first
+ * and long computations take the cores that are left (PRIORITIES below).
+ */
+export function createComputePool(o: { threads: number; maxQueue?: number; warm?: boolean; keepThreads?: boolean; niceIncrement?: number }): ComputePool {
   // Workers run the TypeScript sources through tsx, like the main process.
   const hasTsx = process.execArgv.some((a, i, all) => a.includes('tsx') && (all[i - 1] === '--import' || a.startsWith('--import')));
   let pool: Piscina | undefined;
@@ -40,6 +49,7 @@ export function createComputePool(o: { threads: number; maxQueue?: number; warm?
       maxThreads: o.threads,
       maxQueue: o.maxQueue ?? 64,
       idleTimeout: 60_000,
+      niceIncrement: o.niceIncrement ?? 0,
       execArgv: hasTsx ? process.execArgv : [...process.execArgv, '--import', 'tsx'],
     }));
 

@@ -27,7 +27,7 @@ import pg from 'pg';
 import type PgBoss from 'pg-boss';
 import type { Database } from '../db/client.js';
 import { toErrorBody } from '../http/errors.js';
-import { createComputePool, type ComputePool } from './pool.js';
+import { createComputePool, PRIORITIES, type ComputePool } from './pool.js';
 import { cancelStudyChunks } from '../services/studies.js';
 import { JobQueue, NOTIFY_CHANNEL, QUEUES, type QueueJobData } from './queue.js';
 import { beginChunk, computeChunk, landChunk, type ChunkWork } from './study-handlers.js';
@@ -96,8 +96,8 @@ export class QueueRunner {
     private readonly handlers: Partial<Record<string, QueueHandler>>,
   ) {
     this.queue = new JobQueue(db.pool, { supervise: true, maintenanceIntervalSeconds: o.maintenanceIntervalSeconds });
-    this.pool = createComputePool({ threads: o.solveSlots, maxQueue: 1024, warm: o.warm ?? true });
-    this.studyPool = createComputePool({ threads: o.studySlots, maxQueue: 1024, keepThreads: o.warm ?? true });
+    this.pool = createComputePool({ threads: o.solveSlots, maxQueue: 1024, warm: o.warm ?? true, niceIncrement: PRIORITIES.solveJob });
+    this.studyPool = createComputePool({ threads: o.studySlots, maxQueue: 1024, keepThreads: o.warm ?? true, niceIncrement: PRIORITIES.studyChunk });
   }
 
   async start(): Promise<void> {

@@ -207,6 +207,32 @@ describe('compute pool', () => {
     }
   });
 
+  it("runs its threads at the priority it is given, below the process's own (Linux nice is per thread: proc(5) and setpriority(2))", async () => {
+    const { readdirSync, readFileSync } = await import('node:fs');
+    // Field 19 of /proc/…/stat is the nice value; the fields after the command name start at field 3.
+    const niceOf = (stat: string) => Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[16]);
+    const base = niceOf(readFileSync('/proc/self/stat', 'utf8'));
+    const want = Math.min(19, base + 7);
+    const threadsAt = (nice: number) =>
+      readdirSync('/proc/self/task').filter((tid) => {
+        try {
+          return niceOf(readFileSync(`/proc/self/task/${tid}/stat`, 'utf8')) === nice;
+        } catch {
+          return false; // a thread that ended meanwhile
+        }
+      }).length;
+    const before = threadsAt(want);
+    const { createComputePool } = await import('../../server/compute/pool.js');
+    const pool = createComputePool({ threads: 1, niceIncrement: 7 });
+    try {
+      await pool.run('solve', solveInput, { timeLimitMs: 30_000 });
+      // The pool thread (and any thread it starts afterwards, which inherits its priority).
+      expect(threadsAt(want)).toBeGreaterThan(before);
+    } finally {
+      await pool.close();
+    }
+  });
+
   it('stops a task when its caller aborts (a client that went away)', async () => {
     const { createComputePool } = await import('../../server/compute/pool.js');
     const pool = createComputePool({ threads: 1 });
