@@ -103,7 +103,7 @@ describe('studies on worker processes', () => {
   }, 180_000);
 
   it('two workers give exactly the same result as one', async () => {
-    workers.push(await spawnWorker(t.databaseUrl), await spawnWorker(t.databaseUrl));
+    workers.push(...(await Promise.all([spawnWorker(t.databaseUrl), spawnWorker(t.databaseUrl)])));
     const id = await start();
     const two = await completed(id);
     expect(two.result).toEqual(undisturbed.result);
