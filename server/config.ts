@@ -72,6 +72,8 @@ export interface Config {
   /** Job queue workers (server/worker.ts): concurrent solve jobs and study chunks per worker process. */
   workerSolveSlots: number;
   workerStudySlots: number;
+  /** A worker process starts its threads and has each study thread solve a small built-in study before taking jobs. */
+  workerWarmStart: boolean;
   /** Idle workers look for jobs this often (a NOTIFY wakes them sooner). */
   queuePollMs: number;
   /** pg-boss maintenance interval: how soon a dead worker's job is noticed after its expiry. */
@@ -176,6 +178,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     bcryptRounds: int(env, 'BCRYPT_ROUNDS', test ? 4 : 12, 4),
     workerSolveSlots: int(env, 'WORKER_SOLVE_SLOTS', 1, 0),
     workerStudySlots: int(env, 'WORKER_STUDY_SLOTS', 1, 0),
+    // The warm-up is a throughput matter (the first chunk runs compiled code); tests start many workers.
+    workerWarmStart: flag(env, 'WORKER_WARM_START', !test),
     queuePollMs: int(env, 'QUEUE_POLL_MS', test ? 1000 : 2000, 50),
     queueMaintenanceSeconds: int(env, 'QUEUE_MAINTENANCE_SECONDS', test ? 1 : 30, 1),
     studyChunkExpireSeconds: int(env, 'STUDY_CHUNK_EXPIRE_SECONDS', 120, 1),

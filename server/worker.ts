@@ -51,6 +51,7 @@ export function workerOptions(config: Config, logger?: ReturnType<typeof createL
     databaseUrl: config.databaseUrl,
     solveSlots: config.workerSolveSlots,
     studySlots: config.workerStudySlots,
+    warm: config.workerWarmStart,
     pollMs: config.queuePollMs,
     maintenanceIntervalSeconds: config.queueMaintenanceSeconds,
     chunkTimeLimitMs: config.studyChunkTimeLimitMs,

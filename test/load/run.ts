@@ -177,7 +177,8 @@ async function main(): Promise<void> {
     print('health during flood', healthDuringFlood);
     console.log(`${'1 MB anonymous flood'.padEnd(20)} ${String(floodFigures.rps).padStart(8)} req/s of ${(megabyte.length / 1e6).toFixed(2)} MB, ${floodFigures.requests} requests (${floodFigures.non2xx} answered 401 as they should, ${floodFigures.errors - floodFigures.non2xx} connection errors)`);
     // Reads while a study runs on two worker processes (the server only answers; the workers compute).
-    const workers = [await spawnWorker(cluster.url), await spawnWorker(cluster.url)];
+    const warm = { WORKER_WARM_START: 'true' };
+    const workers = [await spawnWorker(cluster.url, warm), await spawnWorker(cluster.url, warm)];
     let readDuringStudy: Figures;
     let studyChunks = 0;
     try {
