@@ -145,7 +145,7 @@ describe('ProgrammePage', () => {
     slug.dispatchEvent(new Event('input'));
     root.querySelector<HTMLButtonElement>('.invite-form button[type="submit"]')!.click();
     await fixture.whenStable();
-    backend.expectOne({ method: 'POST', url: '/api/programmes/p1/teams' }).flush(DETAIL.teams[0]);
+    backend.expectOne({ method: 'POST', url: '/api/programmes/p1/teams' }).flush(DETAIL.teams[0]!);
     await fixture.whenStable();
     backend.expectOne('/api/programmes/p1').flush(DETAIL);
     await fixture.whenStable();

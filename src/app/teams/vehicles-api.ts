@@ -13,7 +13,7 @@ export class VehiclesApi {
   private readonly http = inject(HttpClient);
 
   list(teamId: string, includeArchived: boolean): Observable<VehicleSummary[]> {
-    const params = includeArchived ? new HttpParams().set('archived', 'true') : undefined;
+    const params = includeArchived ? new HttpParams().set('archived', 'true') : new HttpParams();
     return this.http.get<VehicleSummary[]>(vehiclesPath(teamId), { params });
   }
 

@@ -34,7 +34,7 @@ export class Notifier {
     );
     const snackBar = await this.snackBar;
     snackBar.open(message, options.action, {
-      duration: options.durationMs,
+      ...(options.durationMs === undefined ? {} : { duration: options.durationMs }),
       politeness: options.assertive ? 'assertive' : 'polite',
     });
   }

@@ -348,7 +348,8 @@ export class RigMeasurementsPanel {
     const mapping = this.mapping();
     if (u?.kind !== 'mapping' || !target || !mapping || !this.file || !this.canStore()) return;
     this.upload.set({ kind: 'storing', preview: u.preview });
-    const options = { name: this.name().trim() || undefined, side: this.side(), rackMm: this.rackMm() ?? 0, basis: this.basis() };
+    const name = this.name().trim();
+    const options = { ...(name ? { name } : {}), side: this.side(), rackMm: this.rackMm() ?? 0, basis: this.basis() };
     this.requests.add(
       this.api.create(this.teamId(), this.file, u.preview.fileName, mapping, target, options).subscribe({
         next: (created) => {
