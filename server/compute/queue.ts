@@ -45,7 +45,7 @@ export interface Queryable {
 
 /** pg-boss's database adapter over a pool or client of ours. */
 export function bossDb(q: Queryable): PgBoss.Db {
-  return { executeSql: (text, values) => q.query(text, values) as Promise<{ rows: any[] }> };
+  return { executeSql: (text, values) => q.query(text, values) };
 }
 
 /**

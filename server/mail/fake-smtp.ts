@@ -86,7 +86,11 @@ export async function startFakeSmtp(o: { port?: number; host?: string; store?: (
         (o.store ? o.store(m) : Promise.resolve()).then(
           () => {
             if (!messages.some((x) => x.messageId === m.messageId)) messages.push(m);
-            for (const w of waiters) if (w.match(m)) (waiters.delete(w), w.resolve(m));
+            for (const w of waiters) {
+              if (!w.match(m)) continue;
+              waiters.delete(w);
+              w.resolve(m);
+            }
             callback();
           },
           (err: Error) => callback(err),

@@ -8,7 +8,6 @@ import { DomainError } from '../../shared/errors.js';
 import { makeToken, readToken } from '../http/signed-token.js';
 import { enqueueMail } from '../mail/outbox.js';
 import { mailText } from '../mail/messages.js';
-import type { Role } from '../permissions.js';
 import { revokeTokens } from './api-tokens.js';
 import type { Me } from '../../shared/api/accounts.js';
 

@@ -10,7 +10,7 @@ import { axleDesignRevisions, axleDesigns, users, vehicles, type DesignStatus } 
 import { DomainError, InputError, notFound } from '../../shared/errors.js';
 import { cornerSchema, upgradeCornerDocument, type Corner } from '../../shared/schema/corner.js';
 import type { CadFrame } from '../../shared/io/cad-frame.js';
-import { prepareHardpointImport, type ChangedPoint } from '../../shared/io/hardpoints.js';
+import { prepareHardpointImport } from '../../shared/io/hardpoints.js';
 
 import { parseDocument, writeRevision, type RevisionedDocument, type RevisionRow } from './revisions.js';
 import { changeWords, recordActivity } from './activity.js';

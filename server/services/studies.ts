@@ -13,7 +13,7 @@
  */
 import { randomInt } from 'node:crypto';
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
-import { planStudy, studyKeyFigures, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, type StudyKeyFigure, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
+import { planStudy, studyKeyFigures, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
 import type { Database } from '../db/client.js';
 import { configurations, programmeTeams, studies, studyAttachments, teams, users } from '../db/schema.js';
 import { DomainError, notFound, parseOrThrow } from '../../shared/errors.js';

@@ -59,7 +59,6 @@ export const balanceRequestSchema = z.strictObject({
   /** A second vehicle (with its own corners and overrides) to compare with, side by side. */
   variant: z.strictObject(caseSchema).optional(),
 });
-type BalanceRequest = z.infer<typeof balanceRequestSchema>;
 
 export interface BalanceResponse extends BalanceResult {
   kinematicsLink: { front: AxleLink; rear: AxleLink; cornerRadiusM: number | null };

@@ -29,7 +29,6 @@ export const cornerComplianceRequestSchema = z.strictObject({
     })
     .optional(),
 });
-type CornerComplianceRequest = z.infer<typeof cornerComplianceRequestSchema>;
 
 export type CornerComplianceResult = CornerComplianceReport & { sweep?: ComplianceRow[] };
 

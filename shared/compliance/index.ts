@@ -30,9 +30,6 @@ export const COMPLIANCE_CAUTION =
   'Design estimates from an idealised linear elastic model (rigid arms and upright, linear bushing rates about one pose). ' +
   'Verify on a kinematics and compliance rig and in controlled testing, and follow your series’ technical regulations and the engineering codes and licensed practice that apply.';
 
-/** Is the load a moment (figures per kN·m) or a force (per kN)? */
-const isMoment = (l: LoadName) => l === 'aligningMoment';
-
 /** The response to one unit load, scaled to 1 kN (1 kN·m for the moment). */
 export interface LoadReport {
   load: LoadName;

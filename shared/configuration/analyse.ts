@@ -24,7 +24,6 @@ export const configurationInputsSchema = z.strictObject({
   rearCorner: z.unknown(),
   trackProfile: z.enum(TRACK_PROFILE_IDS),
 });
-type ConfigurationInputs = z.infer<typeof configurationInputsSchema>;
 
 export interface ConfigurationAnalysis {
   /** The balance engine's answer for the vehicle with both corners linked. */

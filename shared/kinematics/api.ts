@@ -36,7 +36,6 @@ export const cornerSweepRequestSchema = z.strictObject({
   /** Travel window of the fits, mm. */
   fitRange: z.strictObject({ fromMm: travel, toMm: travel }).optional(),
 });
-type CornerSweepRequest = z.infer<typeof cornerSweepRequestSchema>;
 
 export const axleRollRequestSchema = z.strictObject({
   corner: cornerField,
@@ -60,7 +59,6 @@ export const axleRollRequestSchema = z.strictObject({
   /** Rack travel per handwheel revolution, mm: enables the overall steering ratio. */
   rackMmPerHandwheelRev: inRange(z.number().finite(), INTENT_RANGES.rackMmPerHandwheelRev, 'rackMmPerHandwheelRev').optional(),
 });
-type AxleRollRequest = z.infer<typeof axleRollRequestSchema>;
 
 function capPoses(n: number, field: string): void {
   if (n > MAX_POSES_PER_REQUEST) {

@@ -138,4 +138,3 @@ const roadRearFiveLink: Corner = {
 };
 
 export const exampleCorners = { fsFrontWishbone, fsRearWishbone, roadFrontStrut, roadRearFiveLink } as const satisfies Record<string, Corner>;
-type ExampleCornerName = keyof typeof exampleCorners;

@@ -42,7 +42,6 @@ export const rideRequestSchema = z.strictObject({
   /** Report bump steer at the ends of the steering stroke (default true). */
   fullLock: z.boolean().optional(),
 });
-type RideRequest = z.input<typeof rideRequestSchema>;
 
 export interface RideResponse extends RideResult {
   vehicleName: string | null;

@@ -21,7 +21,7 @@ import { InputError, SolveError } from '../errors.js';
 import { steeringStrokeMm } from '../schema/steering-link.js';
 import { rackForAxleSteer } from '../kinematics/index.js';
 import { G } from '../balance/constants.js';
-import { quarterCarGains, quarterCarOf, quarterCarRate, travelGain, type QuarterCar, type QuarterCarInfo } from './quarter-car.js';
+import { quarterCarGains, quarterCarOf, travelGain, type QuarterCar, type QuarterCarInfo } from './quarter-car.js';
 import { roadSpectrum, temporalPsd, ROAD_CLASS_WORDS, ISO8608_BAND, type RoadClass, type RoadSpectrum } from './road.js';
 import { ToeCurve, type ToeStatistics, type ToeTable } from './toe.js';
 import { lateralGains, lateralModel, type LateralModel } from './lateral.js';

@@ -106,8 +106,4 @@ export function synthesiseProfile(gd0M3: number, count: number, random: () => nu
   };
 }
 
-/** A discrete event under the wheel. */
-type RoadEvent =
-  | { kind: 'bump'; heightMm: number; lengthMm: number }
-  | { kind: 'landing'; dropHeightMm: number };
 

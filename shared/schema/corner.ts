@@ -42,7 +42,10 @@ export function unknownKeysMessage(keys: readonly string[], path: ReadonlyArray<
     let bestD = Infinity;
     for (const n of known) {
       const d = editDistance(k, n);
-      if (d < bestD) (best = n), (bestD = d);
+      if (d < bestD) {
+        best = n;
+        bestD = d;
+      }
     }
     return `${at(k)}${best && bestD <= Math.max(2, Math.floor(k.length / 4)) ? ` (did you mean ${at(best)}?)` : ''}`;
   };
@@ -95,7 +98,6 @@ const armSteeringSchema = strictObject({
 });
 
 export const steeringSchema = z.discriminatedUnion('kind', [rackSteeringSchema, armSteeringSchema]);
-type Steering = z.infer<typeof steeringSchema>;
 
 const directSpringSchema = strictObject({
   kind: z.literal('direct'),
@@ -117,7 +119,6 @@ const rockerSpringSchema = strictObject({
 });
 
 export const springSchema = z.discriminatedUnion('kind', [directSpringSchema, rockerSpringSchema]);
-type Spring = z.infer<typeof springSchema>;
 
 /** Anti-roll bar: a drop link from the suspension to the bar's lever end. */
 export const antiRollBarSchema = strictObject({
@@ -128,7 +129,6 @@ export const antiRollBarSchema = strictObject({
   barAxisPoint: vec3Schema,
   barAxisDirection: directionSchema,
 });
-type AntiRollBar = z.infer<typeof antiRollBarSchema>;
 
 const wheelSchema = strictObject({
   /** Loaded radius, mm. */
@@ -253,11 +253,7 @@ export const cornerSchema = cornerShapeSchema.superRefine((corner, ctx) => {
 });
 
 export type Corner = z.infer<typeof cornerSchema>;
-type CornerInput = z.input<typeof cornerSchema>;
-type CornerType = Corner['type'];
 export type DoubleWishboneCorner = Extract<Corner, { type: 'double-wishbone' }>;
-type StrutCorner = Extract<Corner, { type: 'strut' }>;
-type FiveLinkCorner = Extract<Corner, { type: 'five-link' }>;
 
 /**
  * Brings an older corner document to the current formatVersion. Version 1 is

@@ -39,7 +39,6 @@ export const intentTargetSchema = z.union([
   /** Roll steer plus compliance steer of the axle (deg/g, positive out of the turn), compliance from the corner's bushings or the vehicle. */
   z.strictObject({ rollAndComplianceSteerDegPerG: ranged('target.rollAndComplianceSteerDegPerG', INTENT_RANGES.axleSteerDegPerG) }),
 ], { error: 'target must be { rollSteerCoefficient }, { understeerChangeDegPerG }, { zeroBumpSteer: true } or { rollAndComplianceSteerDegPerG }' });
-type IntentTarget = z.infer<typeof intentTargetSchema>;
 
 export const trackProfileChoiceSchema = z.union([
   z.enum(TRACK_PROFILE_IDS),

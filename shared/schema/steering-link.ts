@@ -15,7 +15,6 @@ import type { Corner } from './corner.js';
  * coordinate in mm.
  */
 export const MOVABLE_COORDINATE_PATTERN = /^(?:(tieRodInner|tieRodOuter|link[1-5]Inner|link[1-5]Outer)\.([xyz])|rack\.z)$/;
-type MovableCoordinate = string;
 
 /** The point that plays the tie-rod inner part: `tieRodInner`, or `link<k>Inner` of a five-link's toe link. */
 export function innerName(corner: Corner): string {

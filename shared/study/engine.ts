@@ -25,7 +25,7 @@ import { thresholdsFor, CAUTION_RULES, type CautionThresholds, type LevelThresho
 import { RandomRoadYawCost } from '../ride/cost.js';
 import { GH_NODES, GH_WEIGHTS } from '../ride/toe.js';
 import { ROAD_CLASS_WORDS } from '../ride/road.js';
-import { FIXED_POINTS, type StudySpec, type Tolerance } from './schema.js';
+import { FIXED_POINTS, type StudySpec } from './schema.js';
 import { DEG_PER_RAD } from '../angles.js';
 
 // ---------- outputs ----------

@@ -11,7 +11,7 @@ import { ENGINE_VERSION } from '../version.js';
 import { ROAD_CLASS_WORDS } from '../ride/road.js';
 import { StudyModel, type FactorInfo, type OutputDefinition, type PointMoves } from './engine.js';
 import { permutation, stream, STREAM_LHS, STREAM_SAMPLE } from './random.js';
-import { DEFAULT_CHUNK_SAMPLES, MAX_STUDY_SAMPLES, studySpecSchema, type StudySpec, type SweepSpec, type ToleranceSpec } from './schema.js';
+import { DEFAULT_CHUNK_SAMPLES, MAX_STUDY_SAMPLES, studySpecSchema, type StudySpec, type SweepSpec } from './schema.js';
 import { histogram, leastSquares, paretoFront, summarise, wilson, type Histogram, type Summary } from './stats.js';
 import type { AxleName } from '../schema/axle.js';
 
