@@ -37,7 +37,12 @@ const request = () => ({
 });
 
 const studyRow = async (id: string) =>
-  (await direct.query<{ status: string; done_chunks: number; total_chunks: number; done_samples: number; total_samples: number }>('SELECT * FROM studies WHERE id = $1', [id])).rows[0]!;
+  (
+    await direct.query<{ status: string; done_chunks: number; total_chunks: number; done_samples: number; total_samples: number; error: unknown }>(
+      'SELECT * FROM studies WHERE id = $1',
+      [id],
+    )
+  ).rows[0]!;
 
 async function start(): Promise<string> {
   const r = await engineer.post(`/api/teams/${teamId}/studies`).send(request());
@@ -48,7 +53,7 @@ async function start(): Promise<string> {
 async function completed(id: string): Promise<{ result: unknown; progress: unknown }> {
   await waitFor(`study ${id} to complete`, async () => {
     const s = await studyRow(id);
-    if (s.status === 'failed' || s.status === 'cancelled') throw new Error(`study ${id} ${s.status}`);
+    if (s.status === 'failed' || s.status === 'cancelled') throw new Error(`study ${id} ${s.status}: ${JSON.stringify(s.error)}`);
     return s.status === 'completed' ? true : undefined;
   });
   return (await engineer.get(`/api/teams/${teamId}/studies/${id}`).expect(200)).body.study;

@@ -121,6 +121,9 @@ export class Linkage3d implements AfterViewInit {
   private readonly links: { a: string; b: string; mesh: Mesh }[] = [];
   private tyre: Group | null = null;
   private resize: ResizeObserver | null = null;
+  /** The frame a resize is fitted in, and the size last fitted (a resize that changes nothing draws nothing). */
+  private resizeFrame: number | null = null;
+  private fitted = '';
   private timer: ReturnType<typeof setInterval> | null = null;
   private framed = false;
 
@@ -202,7 +205,16 @@ export class Linkage3d implements AfterViewInit {
     this.controls = new OrbitControls(this.camera, this.labelRenderer.domElement);
     this.controls.addEventListener('change', () => this.render());
     this.listenForPicks(this.labelRenderer.domElement);
-    this.resize = new ResizeObserver(() => this.fitToView());
+    // Fitted in the next frame, not inside the observer's callback: the canvas height follows the width, so
+    // resizing it there would change the observed stage again in the same frame (the browser reports that
+    // as an error, "ResizeObserver loop completed with undelivered notifications").
+    this.resize = new ResizeObserver(() => {
+      if (this.resizeFrame !== null) return;
+      this.resizeFrame = requestAnimationFrame(() => {
+        this.resizeFrame = null;
+        this.fitToView();
+      });
+    });
     this.resize.observe(stage);
     this.fitToView();
     const corner = this.corner();
@@ -216,6 +228,8 @@ export class Linkage3d implements AfterViewInit {
     // The stage's own width (the canvas never widens it: max-width 100 %, and the hosts may shrink).
     const w = Math.max(200, Math.floor(stage.getBoundingClientRect().width));
     const h = Math.round(Math.min(560, Math.max(320, w * 0.6)));
+    if (this.fitted === `${w}×${h}`) return;
+    this.fitted = `${w}×${h}`;
     this.renderer?.setSize(w, h);
     this.labelRenderer?.setSize(w, h);
     this.camera.aspect = w / h;
@@ -451,6 +465,7 @@ export class Linkage3d implements AfterViewInit {
   private stop(): void {
     if (this.timer) clearInterval(this.timer);
     this.resize?.disconnect();
+    if (this.resizeFrame !== null) cancelAnimationFrame(this.resizeFrame);
     this.controls?.dispose();
     this.dispose(this.scene);
     this.renderer?.dispose();
