@@ -135,7 +135,7 @@ export async function installQueue(q: Queryable): Promise<void> {
   boss.on('error', () => undefined);
   await boss.start();
   try {
-    await boss.createQueue(QUEUES.lost, { name: QUEUES.lost, policy: 'standard', retryLimit: 3, retentionMinutes: 60 * 24 * 7 });
+    await boss.createQueue(QUEUES.lost, { name: QUEUES.lost, policy: 'standard', retryLimit: 3, retryDelay: 1, retryBackoff: true, retentionMinutes: 60 * 24 * 7 });
     for (const name of [QUEUES.solve, QUEUES.studyChunk, QUEUES.studyCombine]) {
       await boss.createQueue(name, { name, policy: 'standard', deadLetter: QUEUES.lost });
     }

@@ -83,7 +83,7 @@ export async function reconcileStudies(ctx: RunnerContext, o: { chunkExpireSecon
       }
       if (landed.size === s.total_chunks && s.status === 'running' && !s.combining) {
         const combine: QueueJobData = { kind: 'study-combine', studyId: s.id };
-        await boss.send(QUEUES.studyCombine, combine, { retryLimit: 3, expireInSeconds: 900, deadLetter: QUEUES.lost, db: bossDb(client) });
+        await boss.send(QUEUES.studyCombine, combine, { retryLimit: 4, retryDelay: 1, retryBackoff: true, expireInSeconds: 900, deadLetter: QUEUES.lost, db: bossDb(client) });
         out.resentCombines++;
       }
       if (ended.length && s.idle_s >= o.stallSeconds) {

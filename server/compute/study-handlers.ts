@@ -136,7 +136,7 @@ export async function landChunk(ctx: RunnerContext, w: ChunkWork, chunk: StudyCh
     if (!s) return rollback;
     if (s.done_chunks === s.total_chunks) {
       const combine: QueueJobData = { kind: 'study-combine', studyId };
-      await ctx.boss.send(QUEUES.studyCombine, combine, { retryLimit: 3, expireInSeconds: 900, deadLetter: QUEUES.lost, db: bossDb(client) });
+      await ctx.boss.send(QUEUES.studyCombine, combine, { retryLimit: 4, retryDelay: 1, retryBackoff: true, expireInSeconds: 900, deadLetter: QUEUES.lost, db: bossDb(client) });
       await ctx.queue.notify('wake', client);
     }
     return true;

@@ -286,8 +286,11 @@ export function chunkJobs(studyId: string, teamId: string, indices: number[], ex
       data,
       // Studies take turns: chunk k of every study before chunk k+1 of any.
       priority: -i,
-      retryLimit: 3,
-      retryDelay: 0,
+      // A failure is retried after 1, 2, 4, 8 s: a transient one (PostgreSQL slow to accept a connection on a
+      // loaded machine) must not use up the retries in a second and fail the study.
+      retryLimit: 4,
+      retryDelay: 1,
+      retryBackoff: true,
       expireInSeconds,
       deadLetter: QUEUES.lost,
     };

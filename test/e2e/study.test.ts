@@ -48,7 +48,15 @@ describe('Tolerance study in Chromium', () => {
 
     // Progress: the page polls until every chunk is in (600 samples in two chunks of 500 and 100).
     const status = page.getByTestId('study-status');
-    await status.getByText('Completed').waitFor({ timeout: 180_000 });
+    const stopped = page.getByRole('region', { name: 'Progress' }).getByRole('alert');
+    await Promise.race([
+      status.getByText('Completed').waitFor({ timeout: 180_000 }),
+      // (Its own timeout, or the page closing after the test, only ends the wait: the line below reports.)
+      stopped.waitFor({ timeout: 180_000 }).then(
+        async () => expect.fail(`the study stopped: ${await stopped.innerText()}`),
+        () => undefined,
+      ),
+    ]);
     expect(await status.innerText()).toContain('600 of 600 samples (2 of 2 chunks)');
 
     // Results: the safety caution, the output summary, the histogram with its percentiles and the tornado.
