@@ -1,6 +1,6 @@
 /**
  * Shapes of the Rollwise HTTP API as the browser sees them
- * (see coord/contracts.md, "HTTP API"). Dates arrive as ISO strings.
+ * (docs/api.md). Dates arrive as ISO strings.
  */
 
 // Roles, permissions and the matrix: one copy, shared with the server.

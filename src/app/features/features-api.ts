@@ -17,7 +17,7 @@ function team(teamId: string): string {
   return `/api/teams/${encodeURIComponent(teamId)}`;
 }
 
-/** Vehicles and axle designs of a team (the endpoints of coord/contracts.md). */
+/** Vehicles and axle designs of a team (docs/api.md). */
 @Injectable({ providedIn: 'root' })
 export class FeaturesApi {
   private readonly http = inject(HttpClient);
