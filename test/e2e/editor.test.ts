@@ -179,8 +179,11 @@ describe('Axle design editor in Chromium', () => {
     // A file from a CAD model with y to the right, z down, in metres: mapped before it is applied.
     await page.getByRole('button', { name: 'Import…' }).click();
     await upload('cad.csv', `point,x,y,z\ntieRodInner,${x / 1000},${-y / 1000},${-(z + 2) / 1000}\n`);
-    await page.getByLabel('Axis convention').selectOption({ label: 'x forward, y right, z down' });
-    await page.getByLabel('CAD length unit').selectOption({ label: 'metre' });
+    // Material selects: open each and pick the option.
+    await page.getByRole('combobox', { name: 'Axis convention' }).click();
+    await page.getByRole('option', { name: 'x forward, y right, z down', exact: true }).click();
+    await page.getByRole('combobox', { name: 'CAD length unit' }).click();
+    await page.getByRole('option', { name: 'metre', exact: true }).click();
     await page.locator('rw-hardpoint-import .rw-overlay').first().waitFor();
     await saveScreenshot(page, 'editor-import-cad-preview');
     await page.getByRole('button', { name: 'Apply import' }).click();
