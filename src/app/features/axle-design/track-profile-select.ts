@@ -18,7 +18,8 @@ import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/pr
     </mat-form-field>
   `,
   styles: `
-    .rw-track-profile { width: min(36rem, 100%); }
+    :host { display: block; flex: 1 1 28rem; max-width: 40rem; }
+    .rw-track-profile { width: 100%; }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
