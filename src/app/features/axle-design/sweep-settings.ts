@@ -1,6 +1,9 @@
-import { ChangeDetectionStrategy, Component, input, output, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, output, signal } from '@angular/core';
 import { MatFormField, MatLabel } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
+import { formatNum } from '../../core/format/num';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
 
 /** The wheel-travel range the editor's curves are swept over (mm). */
 export interface TravelRange {
@@ -15,18 +18,21 @@ export function checkTravelRange(r: TravelRange): string | null {
   return ok ? null : 'Travel range: "from" below "to", a positive step, and at most 400 steps.';
 }
 
-/** The travel range of the editor's curves: three Material fields, checked together, emitted only when usable. */
+/**
+ * The travel range of the editor's curves: three Material fields in the
+ * user's length unit (stored in mm), checked together, emitted only when usable.
+ */
 @Component({
   selector: 'rw-sweep-settings',
   imports: [MatFormField, MatLabel, MatInput],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <fieldset class="rw-sweep-settings">
-      <legend>Travel range of the curves (mm)</legend>
+      <legend>Travel range of the curves ({{ unit() }})</legend>
       @for (f of fields; track f.key) {
         <mat-form-field subscriptSizing="dynamic" class="rw-sweep-field">
           <mat-label>{{ f.label }}</mat-label>
-          <input matInput type="number" [attr.data-sweep]="f.key" [attr.min]="f.key === 'step' ? 0.1 : null" [value]="range()[f.key]" (change)="set(f.key, $event)" />
+          <input matInput type="number" [attr.data-sweep]="f.key" [attr.min]="f.key === 'step' ? 0.1 : null" [value]="shown(range()[f.key])" (change)="set(f.key, $event)" />
         </mat-form-field>
       }
       @if (error(); as m) {
@@ -73,8 +79,19 @@ export class SweepSettings {
     { key: 'step', label: 'Step' },
   ] as const;
 
+  private readonly units = inject(DISPLAY_UNITS);
+  protected readonly unit = computed(() => unitLabel('length', this.units()));
+
+  /** A stored length (mm) as the field shows it: mm as stored, inches to the length's significant figures. */
+  protected shown(mm: number): string {
+    return this.units() === 'imperial' ? formatNum(mm, { kind: 'length' }, 'imperial') : String(mm);
+  }
+
   protected set(which: keyof TravelRange, event: Event): void {
-    const next = { ...this.range(), [which]: Number((event.target as HTMLInputElement).value) };
+    const typed = Number((event.target as HTMLInputElement).value);
+    // Typed in the user's unit; stored in mm (an inch is 25.4 mm).
+    const mm = this.units() === 'imperial' ? typed / inDisplayUnits(1, 'length', 'imperial') : typed;
+    const next = { ...this.range(), [which]: mm };
     const problem = checkTravelRange(next);
     this.error.set(problem);
     if (!problem) this.rangeChange.emit(next);
