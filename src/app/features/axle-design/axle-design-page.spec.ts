@@ -82,6 +82,7 @@ describe('AxleDesignPage results', () => {
     const { harness, root } = await open();
     expect(text(root, 'fit-caption')).toBe('Fitted over -25 to 25 mm of travel');
     expect(root.querySelector('[data-testid="results-out-of-date"]')).toBeNull();
+    expect(root.querySelector('.rw-out-of-date')).toBeNull();
 
     // A range far beyond the corner's reach: the engine fails, the figures on screen stay those of ±25 mm and say so.
     setTravel(root, 'From', '-400');
@@ -97,6 +98,9 @@ describe('AxleDesignPage results', () => {
     );
     expect(text(root, 'fit-caption')).toBe('Fitted over -25 to 25 mm of travel');
     expect(text(root, 'results-out-of-date')).toContain('the last geometry and travel range that solved (-25 to 25 mm)');
+    // Every stage that shows a figure of that solve says it is out of date: the roll steer in intent, the cautions in cost.
+    expect(root.querySelector('section[data-stage="intent"] .rw-out-of-date .rw-stale')).not.toBeNull();
+    expect(root.querySelector('section[data-stage="cost"] .rw-out-of-date > .rw-stale')).not.toBeNull();
     const error = text(root, 'solve-error');
     expect(error).toMatch(/^The kinematics could not be solved: The linkage cannot reach \d+(\.\d+)? mm of (bump|droop)/);
     // No point keys, no unrounded figures.
