@@ -107,6 +107,23 @@ describe('AxleDesignPage results', () => {
     expect(error).not.toMatch(/[a-z][A-Z][a-zA-Z]*–|\d\.\d{5,}/);
   });
 
+  it('names the travel the fit actually spans when the step does not land on the range’s end', async () => {
+    const { harness, root } = await open();
+    // −25 to 25 mm in 7 mm steps: the sweep's last point is −25 + 7 × 7 = 24 mm (it never passes the end).
+    root.querySelector<HTMLInputElement>('rw-sweep-settings input[data-sweep="step"]')!.value = '7';
+    root.querySelector<HTMLInputElement>('rw-sweep-settings input[data-sweep="step"]')!.dispatchEvent(new Event('change'));
+    await vi.waitFor(
+      async () => {
+        await settle();
+        backend.match(() => true).forEach(answer);
+        harness.detectChanges();
+        if (text(root, 'fit-caption') === 'Fitted over -25 to 25 mm of travel') throw new Error('not re-solved yet');
+      },
+      { timeout: 30_000, interval: 50 },
+    );
+    expect(text(root, 'fit-caption')).toBe('Fitted over -25 to 24 mm of travel');
+  });
+
   it('shows lengths, bump steer and curvature in the user’s inch-pound units', async () => {
     units.set('imperial');
     const { root } = await open();

@@ -167,8 +167,16 @@ export class AxleDesignPage {
   /** The analysis on screen and the request that produced it: the figures always carry their own inputs. */
   private readonly analysed = signal<{ readonly request: AnalysisRequest; readonly analysis: CornerAnalysis } | null>(null);
   protected readonly analysis = computed(() => this.analysed()?.analysis ?? null);
-  /** The travel range the figures on screen were fitted over (the solved request's, not the fields'). */
-  protected readonly fittedRange = computed(() => this.analysed()?.request.travel ?? null);
+  /**
+   * The travel range the figures on screen were fitted over: the solved sweep's first and last travel (not the
+   * fields', and not the request's "to" when the step does not land on it).
+   */
+  protected readonly fittedRange = computed(() => {
+    const a = this.analysed();
+    if (!a) return null;
+    const travels = a.analysis.curves[0]?.points.map((p) => p.travelMm) ?? [];
+    return travels.length > 0 ? { from: Math.min(...travels), to: Math.max(...travels) } : a.request.travel;
+  });
   protected readonly failure = signal<AnalysisFailure | null>(null);
   /** The latest change could not be solved: what is shown belongs to the last geometry and settings that solved. */
   protected readonly outOfDate = computed(() => this.failure() !== null && this.analysed() !== null);

@@ -157,13 +157,14 @@ describe('OutputCurves', () => {
   it('shows curves only with the request that produced them: out of date while new inputs solve, and says the range used', async () => {
     const { fixture, el } = await setUp();
     expect(el.querySelector('[data-testid="curves-basis"]')!.textContent!.trim()).toBe('Swept over -25 to 25 mm of wheel travel; rack at 0 mm.');
-    fixture.componentRef.setInput('travelRange', { from: -10, to: 30, step: 5 });
+    // 7 mm steps from −10 mm stop at 25 mm (−10 + 5 × 7), short of the 30 mm asked for: the wording says 25.
+    fixture.componentRef.setInput('travelRange', { from: -10, to: 30, step: 7 });
     fixture.detectChanges();
     // The new range is being solved: the charts on screen are still the old ones, and say so.
     expect(el.querySelector('[data-testid="curves-out-of-date"]')!.textContent).toContain('Swept over -25 to 25 mm');
     expect(el.querySelector('.rw-curves-result')!.classList).toContain('rw-out-of-date');
     await until(fixture, () => el.querySelector('[data-testid="curves-out-of-date"]') === null);
-    expect(el.querySelector('[data-testid="curves-basis"]')!.textContent!.trim()).toBe('Swept over -10 to 30 mm of wheel travel; rack at 0 mm.');
+    expect(el.querySelector('[data-testid="curves-basis"]')!.textContent!.trim()).toBe('Swept over -10 to 25 mm of wheel travel; rack at 0 mm.');
     expect(el.querySelector('.rw-curves-result')!.classList).not.toContain('rw-out-of-date');
   });
 });

@@ -191,7 +191,10 @@ export class OutputCurves implements OnInit {
     const len = (mm: number) => formatNum(mm, { kind: 'length' }, u);
     if (r.axis === 'steer') return `Rack over its whole stroke; both wheels at ${len(r.travelMm)} ${lu} travel.`;
     if (r.axis === 'roll') return `Swept over ${formatNum(r.range.from, { decimals: 1 })} to ${formatNum(r.range.to, { decimals: 1 })} deg of body roll; rack at ${len(r.rackMm)} ${lu}.`;
-    return `Swept over ${len(r.range.from)} to ${len(r.range.to)} ${lu} of wheel travel; rack at ${len(r.rackMm)} ${lu}.`;
+    // The travels actually solved (the last step may stop short of the range's end).
+    const xs = (this.solved()?.reply.curves ?? []).flatMap((c) => (c.rows ?? []).map((row) => row.x));
+    const [from, to] = xs.length > 0 ? [Math.min(...xs), Math.max(...xs)] : [r.range.from, r.range.to];
+    return `Swept over ${len(from)} to ${len(to)} ${lu} of wheel travel; rack at ${len(r.rackMm)} ${lu}.`;
   });
   /** The rig files drawn, when measured at another rack position than the curves'. */
   protected readonly rigRackNotes = computed(() => {
