@@ -207,9 +207,8 @@ export class LinkageViews {
         const mid = { x: (p.x + q.x) / 2, y: (p.y + q.y) / 2 };
         if ((w.x - mid.x) * n.x + (w.y - mid.y) * n.y > 0) n = { x: -n.x, y: -n.y };
         const off = 14;
-        const pts3 = pts[steer.inner]!;
-        const pts4 = pts[steer.outer]!;
-        const text = this.length(Math.hypot(pts4[0] - pts3[0], pts4[1] - pts3[1], pts4[2] - pts3[2]));
+        const [i3, o3] = [pts[steer.inner]!, pts[steer.outer]!];
+        const text = this.length(Math.hypot(o3[0] - i3[0], o3[1] - i3[1], o3[2] - i3[2]));
         const tb = textBox(text, 0, 0);
         const textAt = { x: mid.x + n.x * (off + tb.h), y: mid.y + n.y * (off + tb.h) };
         dims.push({
