@@ -3,7 +3,8 @@
  * as the demo designer open an axle design, change the tie-rod inner
  * height, see the toe chart and the fitted gradient change (solved in the
  * page's Web Worker, no server round trip), save, see the new revision; as
- * the demo viewer see the same design with no edit controls. Real server,
+ * the demo viewer see the same design with no edit controls; the scaled
+ * drawings' labels never overlap as Chromium lays them out. Real server,
  * fresh seeded database, Debian's Chromium. Needs `npx ng build` first.
  * Each test stands alone: the first works on the demo's Front baseline, the
  * others that save work on their own copy of it (made through the API), so
@@ -96,6 +97,25 @@ describe('Axle design editor in Chromium', () => {
     await expect(page.getByTestId('revision').innerText()).resolves.toMatch(/^Revision 2\b/);
     await expect.poll(shownBumpSteer(page), SHOWN).toBe(gradientAfter.trim());
 
+    // The scaled drawings, as Chromium lays their text out: no two labels (point numbers, dimensions, scale) overlap.
+    await page.locator('rw-linkage-views [data-testid="scale-bar"]').first().waitFor();
+    const drawingOverlaps = await page.evaluate(() => {
+      const found: string[] = [];
+      for (const svg of document.querySelectorAll('rw-linkage-views svg')) {
+        const texts = [...svg.querySelectorAll('text')].filter((t) => t.textContent!.trim() !== '');
+        const boxes = texts.map((t) => t.getBoundingClientRect());
+        for (let i = 0; i < boxes.length; i++)
+          for (let j = i + 1; j < boxes.length; j++) {
+            const a = boxes[i]!;
+            const b = boxes[j]!;
+            if (a.left < b.right - 0.5 && b.left < a.right - 0.5 && a.top < b.bottom - 0.5 && b.top < a.bottom - 0.5) found.push(`${texts[i]!.textContent} / ${texts[j]!.textContent}`);
+          }
+      }
+      return found;
+    });
+    expect(drawingOverlaps).toEqual([]);
+    await expect(page.locator('rw-linkage-views svg text').count()).resolves.toBeGreaterThan(30);
+
     expect(await seriousA11yViolations(page)).toEqual([]);
     await saveScreenshot(page, 'editor-designer');
     expect(offsiteRequests(page)).toEqual([]);
@@ -179,8 +199,11 @@ describe('Axle design editor in Chromium', () => {
     // A file from a CAD model with y to the right, z down, in metres: mapped before it is applied.
     await page.getByRole('button', { name: 'Import…' }).click();
     await upload('cad.csv', `point,x,y,z\ntieRodInner,${x / 1000},${-y / 1000},${-(z + 2) / 1000}\n`);
-    await page.getByLabel('Axis convention').selectOption({ label: 'x forward, y right, z down' });
-    await page.getByLabel('CAD length unit').selectOption({ label: 'metre' });
+    // Material selects: open each and pick the option.
+    await page.getByRole('combobox', { name: 'Axis convention' }).click();
+    await page.getByRole('option', { name: 'x forward, y right, z down', exact: true }).click();
+    await page.getByRole('combobox', { name: 'CAD length unit' }).click();
+    await page.getByRole('option', { name: 'metre', exact: true }).click();
     await page.locator('rw-hardpoint-import .rw-overlay').first().waitFor();
     await saveScreenshot(page, 'editor-import-cad-preview');
     await page.getByRole('button', { name: 'Apply import' }).click();

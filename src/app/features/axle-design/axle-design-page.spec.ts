@@ -73,7 +73,7 @@ describe('AxleDesignPage results', () => {
   const text = (root: HTMLElement, testId: string) => root.querySelector(`[data-testid="${testId}"]`)?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
 
   function setTravel(root: HTMLElement, which: 'From' | 'To', value: string): void {
-    const input = [...root.querySelectorAll<HTMLLabelElement>('rw-sweep-settings label')].find((l) => l.textContent?.includes(which))!.querySelector('input')!;
+    const input = root.querySelector<HTMLInputElement>(`rw-sweep-settings input[data-sweep="${which.toLowerCase()}"]`)!;
     input.value = value;
     input.dispatchEvent(new Event('change'));
   }
@@ -82,6 +82,7 @@ describe('AxleDesignPage results', () => {
     const { harness, root } = await open();
     expect(text(root, 'fit-caption')).toBe('Fitted over -25 to 25 mm of travel');
     expect(root.querySelector('[data-testid="results-out-of-date"]')).toBeNull();
+    expect(root.querySelector('.rw-out-of-date')).toBeNull();
 
     // A range far beyond the corner's reach: the engine fails, the figures on screen stay those of ±25 mm and say so.
     setTravel(root, 'From', '-400');
@@ -97,10 +98,30 @@ describe('AxleDesignPage results', () => {
     );
     expect(text(root, 'fit-caption')).toBe('Fitted over -25 to 25 mm of travel');
     expect(text(root, 'results-out-of-date')).toContain('the last geometry and travel range that solved (-25 to 25 mm)');
+    // Every stage that shows a figure of that solve says it is out of date: the roll steer in intent, the cautions in cost.
+    expect(root.querySelector('section[data-stage="intent"] .rw-out-of-date .rw-stale')).not.toBeNull();
+    expect(root.querySelector('section[data-stage="cost"] .rw-out-of-date > .rw-stale')).not.toBeNull();
     const error = text(root, 'solve-error');
     expect(error).toMatch(/^The kinematics could not be solved: The linkage cannot reach \d+(\.\d+)? mm of (bump|droop)/);
     // No point keys, no unrounded figures.
     expect(error).not.toMatch(/[a-z][A-Z][a-zA-Z]*–|\d\.\d{5,}/);
+  });
+
+  it('names the travel the fit actually spans when the step does not land on the range’s end', async () => {
+    const { harness, root } = await open();
+    // −25 to 25 mm in 7 mm steps: the sweep's last point is −25 + 7 × 7 = 24 mm (it never passes the end).
+    root.querySelector<HTMLInputElement>('rw-sweep-settings input[data-sweep="step"]')!.value = '7';
+    root.querySelector<HTMLInputElement>('rw-sweep-settings input[data-sweep="step"]')!.dispatchEvent(new Event('change'));
+    await vi.waitFor(
+      async () => {
+        await settle();
+        backend.match(() => true).forEach(answer);
+        harness.detectChanges();
+        if (text(root, 'fit-caption') === 'Fitted over -25 to 25 mm of travel') throw new Error('not re-solved yet');
+      },
+      { timeout: 30_000, interval: 50 },
+    );
+    expect(text(root, 'fit-caption')).toBe('Fitted over -25 to 24 mm of travel');
   });
 
   it('shows lengths, bump steer and curvature in the user’s inch-pound units', async () => {
@@ -118,5 +139,58 @@ describe('AxleDesignPage results', () => {
     const perMetre = Number(root.querySelector('[data-testid="bump-steer"]')!.textContent);
     // deg/in = deg/m × 0.0254, each side rounded to 3 significant figures.
     expect(bumpSteer).toBeCloseTo(perMetre * 0.0254, 3);
+  });
+
+  it('walks the job in four titled stages, intent → geometry → proof → cost, each reachable from the section bar', async () => {
+    const { harness, root } = await open();
+    const stages = [...root.querySelectorAll('section[data-stage]')].map((s) => s.getAttribute('data-stage'));
+    expect(stages).toEqual(['intent', 'geometry', 'proof', 'cost']);
+    const titles = [...root.querySelectorAll('section[data-stage] > h2')].map((h) => h.textContent!.replace(/\s+/g, ' ').trim());
+    expect(titles.map((t) => t.split(' ').slice(0, 2).join(' '))).toEqual(['1 Intent', '2 Geometry', '3 Proof', '4 Cost']);
+    const nav = [...root.querySelectorAll('[data-testid="stage-nav"] button')];
+    expect(nav.map((b) => b.textContent!.trim())).toEqual(['1 Intent', '2 Geometry', '3 Proof', '4 Cost', 'Revisions']);
+    // Each stage holds its own work: the table in geometry, the fitted figures in proof.
+    expect(root.querySelector('section[data-stage="geometry"] rw-hardpoint-table')).not.toBeNull();
+    expect(root.querySelector('section[data-stage="proof"] [data-testid="fit-table"]')).not.toBeNull();
+    expect(root.querySelector('section[data-stage="intent"] [data-testid="intent-now"]')!.textContent).toContain('roll steer');
+    // Choosing a stage moves the keyboard focus to its title.
+    (nav[3] as HTMLButtonElement).click();
+    harness.detectChanges();
+    expect(document.activeElement?.id).toBe('rw-stage-cost');
+    await vi.waitFor(
+      async () => {
+        await settle();
+        harness.detectChanges();
+        if (!root.querySelector('section[data-stage="cost"] [data-testid="caution-basis"]')?.textContent?.trim()) throw new Error('no cautions yet');
+      },
+      { timeout: 30_000, interval: 50 },
+    );
+    // The cost stage says what the cautions were measured over: the range actually solved.
+    expect(text(root, 'caution-basis')).toContain('over -25 to 25 mm of travel');
+  });
+
+  it('draws the pose chosen on the Material travel slider', async () => {
+    const { harness, root } = await open();
+    await vi.waitFor(
+      async () => {
+        await settle();
+        harness.detectChanges();
+        if (!root.querySelector('[data-testid="pose-figures"]')) throw new Error('no drawings yet');
+      },
+      { timeout: 30_000, interval: 50 },
+    );
+    expect(text(root, 'pose-figures')).toMatch(/^Drawn at 0 mm of wheel travel/);
+    const thumb = root.querySelector<HTMLInputElement>('[data-testid="travel-slider"] input')!;
+    thumb.value = '10';
+    thumb.dispatchEvent(new Event('input'));
+    await vi.waitFor(
+      async () => {
+        await settle();
+        harness.detectChanges();
+        if (!/^Drawn at 10(\.0)? mm/.test(text(root, 'pose-figures'))) throw new Error('pose not redrawn yet');
+      },
+      { timeout: 30_000, interval: 50 },
+    );
+    expect(text(root, 'pose-figures')).toMatch(/^Drawn at 10(\.0)? mm of wheel travel, rack 0 mm/);
   });
 });

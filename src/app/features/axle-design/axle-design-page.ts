@@ -1,6 +1,8 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
 import { DEFAULT_TRACK_PROFILE, trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import type { Corner, Vec3 } from '../../../../shared/schema/corner';
@@ -14,22 +16,21 @@ import { failureWords } from '../../workers/failure-words';
 import { TeamAccess } from '../../core/teams/team-access';
 import type { AnalysisFailure, AnalysisRequest, CornerAnalysis } from '../../workers/analysis-types';
 import { AnalysisError, AnalysisSuperseded, KinematicsClient } from '../../workers/kinematics-client';
-import { BumpCostView } from '../bump-cost';
 import { RigMeasurementsPanel } from '../rig/rig-measurements-panel';
 import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
 import { AxleDesignStore } from './axle-design-store';
-import { CornerCautions } from './corner-cautions';
 import { DesignProposals } from './design-proposals';
 import { HardpointImport } from './hardpoint-import';
 import { hardpointCsv, hardpointJson } from './hardpoint-io';
 import { HardpointTable, PointEdit } from './hardpoint-table';
-import { LinkageViews } from './linkage-views';
 import { SaveConflict } from './save-conflict';
 import { Linkage3dPanel } from '../linkage-view/linkage-3d-panel';
 import { OutputCurvesPanel } from '../linkage-view/output-curves-panel';
-import { checkTravelRange, SweepSettings, type TravelRange } from './sweep-settings';
-import { TrackProfileSelect } from './track-profile-select';
+import { checkTravelRange, type TravelRange } from './sweep-settings';
+import { CostStage } from './cost-stage';
+import { GeometryDrawings } from './geometry-drawings';
+import { SectionNav, type PageSection } from '../../core/layout/section-nav';
 import { LocalTimePipe } from '../../core/time/local-time';
 
 const ROLL_RANGE = { from: -3, to: 3, step: 0.25 };
@@ -41,6 +42,15 @@ function travelStorageKey(designId: string): string {
 function profileStorageKey(designId: string): string {
   return `rollwise.cautionProfile.${designId}`;
 }
+
+/** The editor's four stages, in the order a design is worked, then its history. */
+export const EDITOR_STAGES: readonly PageSection[] = [
+  { id: 'rw-stage-intent', label: '1 Intent' },
+  { id: 'rw-stage-geometry', label: '2 Geometry' },
+  { id: 'rw-stage-proof', label: '3 Proof' },
+  { id: 'rw-stage-cost', label: '4 Cost' },
+  { id: 'rw-revisions-title', label: 'Revisions' },
+];
 
 const DEFAULT_TRAVEL: TravelRange = { from: -25, to: 25, step: 2.5 };
 
@@ -59,7 +69,9 @@ function storedProfile(designId: string): TrackProfileId | null {
 }
 
 /**
- * Axle design editor: the corner's hardpoints with live kinematics. Every
+ * Axle design editor, laid out as the four stages of the job (intent →
+ * geometry → proof → cost, navigable from the section bar), with the
+ * corner's hardpoints and live kinematics. Every
  * committed edit re-solves in the Web Worker and redraws the views, charts
  * and fitted numbers without a server round trip; saving stores a new
  * revision against the revision the edit started from. The editor store
@@ -75,16 +87,17 @@ function storedProfile(designId: string): TrackProfileId | null {
     MatProgressBar,
     HardpointTable,
     HardpointImport,
-    LinkageViews,
+    MatFormField,
+    MatLabel,
+    MatInput,
+    SectionNav,
+    GeometryDrawings,
+    CostStage,
     LineChart,
     SafetyCaution,
-    CornerCautions,
-    BumpCostView,
-    TrackProfileSelect,
     RigMeasurementsPanel,
     DesignProposals,
     SaveConflict,
-    SweepSettings,
     Linkage3dPanel,
     OutputCurvesPanel,
   ],
@@ -115,6 +128,8 @@ export class AxleDesignPage {
   protected readonly canRedo = this.store.canRedo;
   protected readonly changed = this.store.changed;
   readonly dirty = this.store.dirty;
+
+  protected readonly sections = EDITOR_STAGES;
 
   protected readonly editable = computed(() => this.access.can('design:edit'));
   protected readonly canAccept = computed(() => this.access.can('design:accept'));
@@ -152,8 +167,16 @@ export class AxleDesignPage {
   /** The analysis on screen and the request that produced it: the figures always carry their own inputs. */
   private readonly analysed = signal<{ readonly request: AnalysisRequest; readonly analysis: CornerAnalysis } | null>(null);
   protected readonly analysis = computed(() => this.analysed()?.analysis ?? null);
-  /** The travel range the figures on screen were fitted over (the solved request's, not the fields'). */
-  protected readonly fittedRange = computed(() => this.analysed()?.request.travel ?? null);
+  /**
+   * The travel range the figures on screen were fitted over: the solved sweep's first and last travel (not the
+   * fields', and not the request's "to" when the step does not land on it).
+   */
+  protected readonly fittedRange = computed(() => {
+    const a = this.analysed();
+    if (!a) return null;
+    const travels = a.analysis.curves[0]?.points.map((p) => p.travelMm) ?? [];
+    return travels.length > 0 ? { from: Math.min(...travels), to: Math.max(...travels) } : a.request.travel;
+  });
   protected readonly failure = signal<AnalysisFailure | null>(null);
   /** The latest change could not be solved: what is shown belongs to the last geometry and settings that solved. */
   protected readonly outOfDate = computed(() => this.failure() !== null && this.analysed() !== null);
@@ -346,40 +369,9 @@ export class AxleDesignPage {
     if (c) downloadText(hardpointJson(c, this.exportTitle()), fileNameFor(`${this.saved()!.name} corner`, 'json'), 'application/json');
   }
 
-  protected readonly cautionList = computed(() => {
-    const c = this.analysis()?.cautions;
-    return c && c.ok ? c.list : null;
-  });
-  /** The ride model's bump cost beside the roll steer (null until the cautions are measured). */
-  protected readonly bumpCost = computed(() => {
-    const c = this.analysis()?.cautions;
-    return c && c.ok ? { cost: c.bumpCost, unavailable: c.bumpCostUnavailable } : null;
-  });
-  protected readonly cautionFailure = computed(() => {
-    const c = this.analysis()?.cautions;
-    return c && !c.ok ? c.failure : null;
-  });
-
-  /** How the cautions were measured, in words (beside the profile selector). */
-  protected readonly cautionBasis = computed(() => {
-    const c = this.analysis()?.cautions;
-    if (!c) return '';
-    const p = c.profile;
-    const lu = this.lengthUnit();
-    const where = `over ${this.length(p.travelMm[0])} to ${this.length(p.travelMm[1])} ${lu} of travel (the curves' range) with a ${this.length(p.bumpHeightMm)} ${lu} single-wheel bump, on ISO 8608 class ${p.roadClass} at ${p.speedKph} km/h`;
-    if (!c.ok) return `Measured ${where}.`;
-    const racks = c.racksMm.length > 1 ? `, at rack ${c.racksMm.map((r) => this.length(r)).join(', ')} ${lu}` : '';
-    const vehicle = c.vehicleUsed ? "the vehicle's tyres, loads and roll" : `product default tyre figures (${c.vehicleNote ?? 'no vehicle'})`;
-    return `Measured ${where}${racks}, with ${vehicle}; thresholds are the product defaults for ${p.label.toLowerCase()}.`;
-  });
-
   /** An engine failure in the user's words. */
   protected plain(f: AnalysisFailure): string {
     return failureWords(f);
-  }
-
-  protected numberFrom(event: Event): number {
-    return Number((event.target as HTMLInputElement).value);
   }
 
   protected textFrom(event: Event): string {

@@ -2,7 +2,7 @@ import { TestBed } from '@angular/core/testing';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { cautionsForCorner } from '../../../../shared/cautions/corner-cautions';
 import type { Caution } from '../../../../shared/cautions/cautions';
-import type { TrackProfileId } from '../../../../shared/tracks/profiles';
+import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import { CAUTION_GROUPS, CornerCautions } from './corner-cautions';
 import { TrackProfileSelect } from './track-profile-select';
 
@@ -60,20 +60,27 @@ describe('CornerCautions', () => {
 });
 
 describe('TrackProfileSelect', () => {
-  it('offers the four profiles with their bump heights, shows the chosen one and emits a new choice', () => {
+  it('offers the four profiles with their bump heights, shows the chosen one and emits a new choice', async () => {
     const fixture = TestBed.createComponent(TrackProfileSelect);
     fixture.componentRef.setInput('value', 'smooth-circuit');
     fixture.detectChanges();
     const picked: TrackProfileId[] = [];
     fixture.componentInstance.changed.subscribe((id) => picked.push(id));
+    // The Material select shows its value once its options are initialised (a microtask after the first check).
+    await fixture.whenStable();
+    fixture.detectChanges();
     const el = fixture.nativeElement as HTMLElement;
-    const select = el.querySelector<HTMLSelectElement>('select')!;
-    expect(el.querySelector('label')!.textContent).toContain('Track profile for the cautions');
-    expect(Array.from(select.options).map((o) => o.value)).toEqual(['smooth-circuit', 'bumpy-circuit', 'rough-road', 'off-road']);
-    expect(select.value).toBe('smooth-circuit');
-    expect(select.options[1]!.textContent).toContain('25 mm bump');
-    select.value = 'bumpy-circuit';
-    select.dispatchEvent(new Event('change'));
+    expect(el.querySelector('mat-label')!.textContent).toContain('Track profile for the cautions');
+    expect(el.querySelector('.mat-mdc-select-value')!.textContent).toContain(trackProfiles['smooth-circuit'].label);
+    // The Material select opens its options in the overlay; choosing one emits it.
+    el.querySelector<HTMLElement>('.mat-mdc-select-trigger')!.click();
+    fixture.detectChanges();
+    const options = Array.from(document.querySelectorAll<HTMLElement>('mat-option'));
+    expect(options.map((o) => o.textContent!.trim().split(' (')[0])).toEqual(
+      ['smooth-circuit', 'bumpy-circuit', 'rough-road', 'off-road'].map((id) => trackProfiles[id as TrackProfileId].label),
+    );
+    expect(options[1]!.textContent).toContain('25 mm bump');
+    options[1]!.click();
     expect(picked).toEqual(['bumpy-circuit']);
   });
 });

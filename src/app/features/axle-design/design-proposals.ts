@@ -21,7 +21,7 @@ export function proposalSummary(p: Proposal): string {
   template: `
     @if (store.openProposals().length > 0) {
       <section class="rw-proposals" aria-labelledby="rw-proposals-title">
-        <h2 id="rw-proposals-title">Proposed geometry waiting for a designer</h2>
+        <h3 id="rw-proposals-title">Proposed geometry waiting for a designer</h3>
         @if (store.proposalError(); as m) {
           <p class="rw-form-error" role="alert">{{ m }}</p>
         }

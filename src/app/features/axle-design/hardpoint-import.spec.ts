@@ -21,6 +21,24 @@ function setUp() {
   return { fixture, el: fixture.nativeElement as HTMLElement, applied, http: TestBed.inject(HttpTestingController) };
 }
 
+/** Opens a Material select by its test id and clicks the option with this text. */
+function choose(fixture: { detectChanges(): void }, el: HTMLElement, testId: string, option: string): void {
+  el.querySelector<HTMLElement>(`[data-testid="${testId}"] .mat-mdc-select-trigger`)!.click();
+  fixture.detectChanges();
+  const found = Array.from(document.querySelectorAll<HTMLElement>('mat-option')).find((o) => o.textContent!.trim() === option);
+  if (!found) throw new Error(`no option "${option}"`);
+  found.click();
+  fixture.detectChanges();
+  TestBed.tick();
+}
+
+/** Lets the resource take the answer just flushed (it arrives through a promise), then redraws. */
+async function answered(fixture: { detectChanges(): void; whenStable(): Promise<unknown> }): Promise<void> {
+  await fixture.whenStable();
+  TestBed.tick();
+  fixture.detectChanges();
+}
+
 function applyButton(el: HTMLElement): HTMLButtonElement {
   return Array.from(el.querySelectorAll('button')).find((b) => b.textContent!.includes('Apply import'))!;
 }
@@ -37,7 +55,7 @@ describe('HardpointImport', () => {
   it('uploads the file with the frame and the working corner, previews the answer and applies it only on request', async () => {
     const { fixture, el, applied, http } = setUp();
     fixture.componentInstance.readText('tie-rod.csv', 'point;x (mm);y (mm);z (mm)\ntieRodInner;-55;210;170,5\n');
-    fixture.detectChanges();
+    TestBed.tick();
     expect(el.textContent).toContain('Reading tie-rod.csv');
     const req = http.expectOne(URL);
     expect(req.request.method).toBe('POST');
@@ -46,7 +64,7 @@ describe('HardpointImport', () => {
     expect(JSON.parse(body.get('frame') as string)).toEqual({ axes: ['+x', '+y', '+z'], unit: 'mm', originMm: [0, 0, 0], side: 'left' });
     expect(JSON.parse(body.get('corner') as string)).toEqual(corner);
     req.flush(await answerFor(body));
-    fixture.detectChanges();
+    await answered(fixture);
     expect(applied).toEqual([]);
     expect(el.querySelectorAll('.rw-preview-table tbody tr').length).toBe(1);
     expect(el.querySelectorAll('rw-linkage-views .rw-overlay').length).toBeGreaterThan(0);
@@ -55,12 +73,13 @@ describe('HardpointImport', () => {
     http.verify();
   });
 
-  it('shows the bad rows the server names and keeps Apply disabled', () => {
+  it('shows the bad rows the server names and keeps Apply disabled', async () => {
     const { fixture, el, applied, http } = setUp();
     fixture.componentInstance.readText('bad.csv', 'point,x,y,z\nlowerOuter,2,five,130\n');
+    TestBed.tick();
     const errors = ['Line 2 (lowerOuter): y "five" is not a number.'];
     http.expectOne(URL).flush({ error: { code: 'import_rows', message: `bad.csv cannot be imported: ${errors[0]}`, details: { errors } } }, { status: 400, statusText: 'Bad Request' });
-    fixture.detectChanges();
+    await answered(fixture);
     expect(el.querySelector('.rw-import-errors')!.textContent).toContain('Line 2 (lowerOuter): y "five" is not a number.');
     expect(el.querySelector('fieldset')).toBeNull();
     expect(applyButton(el).disabled).toBe(true);
@@ -72,32 +91,79 @@ describe('HardpointImport', () => {
     const { fixture, el, applied, http } = setUp();
     // The tie-rod inner point [-55, 210, 150] mm written with y to the right and z down, in metres.
     fixture.componentInstance.readText('cad.csv', 'point,x,y,z\ntieRodInner,-0.055,-0.21,-0.15\n');
+    TestBed.tick();
     http.expectOne(URL).flush({ error: { code: 'import_geometry', message: 'The imported points break the corner', details: { fields: [{ path: 'points', message: 'The tie rod is too short.' }] } } }, { status: 400, statusText: 'Bad Request' });
-    fixture.detectChanges();
+    await answered(fixture);
     expect(el.textContent).toContain('The tie rod is too short.');
-    const preset = el.querySelector<HTMLSelectElement>('fieldset select')!;
-    preset.value = '2'; // x forward, y right, z down
-    preset.dispatchEvent(new Event('change'));
+    choose(fixture, el, 'axis-convention', 'x forward, y right, z down');
     http.expectOne(URL).flush({ error: { code: 'import_geometry', message: 'still metres', details: { fields: [{ path: 'points', message: 'still metres' }] } } }, { status: 400, statusText: 'Bad Request' });
-    fixture.detectChanges();
-    const unit = Array.from(el.querySelectorAll<HTMLSelectElement>('fieldset select')).at(-1)!;
-    unit.value = 'm';
-    unit.dispatchEvent(new Event('change'));
+    await answered(fixture);
+    choose(fixture, el, 'cad-unit', 'metre');
     const req = http.expectOne(URL);
     expect(JSON.parse((req.request.body as FormData).get('frame') as string)).toMatchObject({ axes: ['+x', '-y', '-z'], unit: 'm' });
     req.flush(await answerFor(req.request.body as FormData));
-    fixture.detectChanges();
+    await answered(fixture);
     expect(el.textContent).not.toContain('still metres');
     applyButton(el).click();
     expect([...applied[0]!]).toEqual([['points.tieRodInner', [-55, 210, 150]]]);
   });
 
-  it('shows a refused upload (a binary file) in words', () => {
+  it('shows a refused upload (a binary file) in words', async () => {
     const { fixture, el, http } = setUp();
     fixture.componentInstance.readText('photo.csv', 'x');
+    TestBed.tick();
     http.expectOne(URL).flush({ error: { code: 'not_text', message: '"photo.csv" is a binary file (it holds NUL bytes), not CSV or JSON text' } }, { status: 415, statusText: 'Unsupported Media Type' });
-    fixture.detectChanges();
+    await answered(fixture);
     expect(el.querySelector('[role="alert"]')!.textContent).toContain('is a binary file');
     expect(applyButton(el).disabled).toBe(true);
+  });
+
+  it('takes the file from the Material button’s chooser, and the side from the Material radios', async () => {
+    const { fixture, el, http } = setUp();
+    const picker = el.querySelector<HTMLInputElement>('input[type="file"]')!;
+    expect(picker.hidden).toBe(true);
+    const opened = vi.spyOn(picker, 'click').mockImplementation(() => undefined);
+    el.querySelector<HTMLButtonElement>('[data-testid="choose-file"]')!.click();
+    expect(opened).toHaveBeenCalledTimes(1);
+    // The browser's chooser hands back a file: the same upload as any other way in.
+    const file = new File(['point,x,y,z\ntieRodInner,-55,210,160\n'], 'chosen.csv', { type: 'text/csv' });
+    Object.defineProperty(picker, 'files', { value: [file], configurable: true });
+    picker.dispatchEvent(new Event('change'));
+    TestBed.tick();
+    fixture.detectChanges();
+    expect(el.querySelector('[data-testid="file-name"]')!.textContent).toContain('chosen.csv');
+    const first = http.expectOne(URL);
+    const sent = (first.request.body as FormData).get('file') as File;
+    expect(sent.name).toBe('chosen.csv');
+    expect(await sent.text()).toBe(await file.text());
+    first.flush(await answerFor(first.request.body as FormData));
+    await answered(fixture);
+    const right = Array.from(el.querySelectorAll<HTMLElement>('mat-radio-button')).find((r) => r.textContent!.includes('Right corner'))!;
+    right.querySelector('input')!.click();
+    TestBed.tick();
+    const again = http.expectOne(URL);
+    expect(JSON.parse((again.request.body as FormData).get('frame') as string)).toMatchObject({ side: 'right' });
+    http.verify();
+  });
+
+  it('names a bad origin in words beside the frame and sends nothing until it is a number', async () => {
+    const { fixture, el, http } = setUp();
+    fixture.componentInstance.readText('tie-rod.csv', 'point,x,y,z\ntieRodInner,-55,210,160\n');
+    TestBed.tick();
+    http.expectOne(URL).flush({ corner, changedPoints: [], warnings: [], baseRevision: 3 });
+    await answered(fixture);
+    const origin = el.querySelectorAll<HTMLInputElement>('.rw-origin input')[2]!;
+    origin.value = 'ten';
+    origin.dispatchEvent(new Event('change'));
+    TestBed.tick();
+    fixture.detectChanges();
+    http.expectNone(URL);
+    expect(el.textContent).toContain('CAD origin along Rollwise z: "ten" is not a number; write it in millimetres, e.g. 12.5 or 12,5.');
+    // The frame stays on screen to be put right.
+    expect(el.querySelector('fieldset.rw-frame')).not.toBeNull();
+    origin.value = '10';
+    origin.dispatchEvent(new Event('change'));
+    TestBed.tick();
+    expect(JSON.parse((http.expectOne(URL).request.body as FormData).get('frame') as string)).toMatchObject({ originMm: [0, 0, 10] });
   });
 });

@@ -1,7 +1,11 @@
-import { ChangeDetectionStrategy, Component, computed, DestroyRef, inject, input, output, signal } from '@angular/core';
-import { Subscription } from 'rxjs';
+import { ChangeDetectionStrategy, Component, computed, inject, input, output, signal } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { MatRadioButton, MatRadioGroup } from '@angular/material/radio';
+import { MatOption, MatSelect } from '@angular/material/select';
 import type { Corner, Vec3 } from '../../../../shared/schema/corner';
-import { apiProblem } from '../../core/http/api-error';
+import { loadState, resourceProblem } from '../../core/http/load-state';
 import {
   AXIS_DIRECTIONS,
   AxisDirection,
@@ -18,9 +22,14 @@ import { LinkageViews } from './linkage-views';
 import { MatButton } from '@angular/material/button';
 import { NumPipe } from '../../core/format/num-pipe';
 import { inputValue } from '../../core/forms/dom-events';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import { formatNum } from '../../core/format/num';
+import { unitLabel } from '../../core/format/quantities';
 
 /** Where the server's reading of the chosen file stands. */
 type ImportState =
+  /** The frame as entered cannot be used yet (its problems are listed); nothing is sent. */
+  | { readonly kind: 'frame' }
   | { readonly kind: 'reading' }
   | { readonly kind: 'ready'; readonly preview: ImportPreview }
   /** Some rows are bad (each named by its line): nothing of the file can be used. */
@@ -36,11 +45,14 @@ type ImportState =
  * with the frame and the working corner; the server reads, maps and checks
  * it (shared/io) and answers the preview. Every bad row is shown by line,
  * the moved points are drawn over the current ones, and nothing is applied
- * until the whole import is valid and the user accepts it.
+ * until the whole import is valid and the user accepts it. The upload is a
+ * resource (`rxResource`) of the file, the frame and the working corner:
+ * a change of any of them reads the file again, and only the latest answer
+ * is shown.
  */
 @Component({
   selector: 'rw-hardpoint-import',
-  imports: [NumPipe, LinkageViews, MatButton],
+  imports: [NumPipe, LinkageViews, MatButton, MatFormField, MatLabel, MatInput, MatSelect, MatOption, MatRadioGroup, MatRadioButton],
   templateUrl: './hardpoint-import.html',
   styleUrl: './hardpoint-import.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -59,30 +71,43 @@ export class HardpointImport {
   protected readonly presets = FRAME_PRESETS;
   protected readonly units = Object.entries(LENGTH_UNITS).map(([id, u]) => ({ id: id as LengthUnit, label: u.label }));
 
-  protected readonly fileName = signal<string | null>(null);
-  private file: Blob | null = null;
-  private request: Subscription | null = null;
-  protected readonly state = signal<ImportState | null>(null);
+  private readonly chosen = signal<{ readonly name: string; readonly file: Blob } | null>(null);
+  protected readonly fileName = computed(() => this.chosen()?.name ?? null);
   protected readonly frame = signal<CadFrame>(IDENTITY_FRAME);
   protected readonly originText = signal<[string, string, string]>(['0', '0', '0']);
+  private readonly displayUnits = inject(DISPLAY_UNITS);
 
-  constructor() {
-    inject(DestroyRef).onDestroy(() => this.request?.unsubscribe());
-  }
+  /** The server's reading of the chosen file in the chosen frame, against the working corner. */
+  private readonly upload = rxResource({
+    params: () => {
+      const chosen = this.chosen();
+      if (!chosen || this.problems().length > 0) return undefined;
+      return { chosen, frame: this.frame(), corner: this.corner(), teamId: this.teamId(), designId: this.designId() };
+    },
+    stream: ({ params: p }) => this.api.preview(p.teamId, p.designId, p.chosen.file, p.chosen.name, p.frame, p.corner),
+  });
+  private readonly uploadState = loadState(this.upload);
+
+  protected readonly state = computed<ImportState | null>(() => {
+    if (!this.chosen()) return null;
+    if (this.problems().length > 0) return { kind: 'frame' };
+    const s = this.uploadState();
+    if (s.status === 'loading') return { kind: 'reading' };
+    if (s.status === 'ready') return { kind: 'ready', preview: s.value };
+    const p = resourceProblem(this.upload.error());
+    const details = (p.details ?? {}) as { errors?: string[]; fields?: { path: string; message: string }[] };
+    if (p.code === 'import_rows' && details.errors) return { kind: 'rows', errors: details.errors };
+    if (p.code === 'import_geometry' && details.fields) return { kind: 'geometry', problems: details.fields.map((f) => f.message) };
+    return { kind: 'refused', message: p.message };
+  });
 
   protected readonly originProblems = computed(() =>
     this.originText()
-      .map((t, i) => (parseDecimal(t) === null ? `Origin ${'xyz'[i]}: "${t}" is not a number.` : null))
+      .map((t, i) => (parseDecimal(t) === null ? `CAD origin along Rollwise ${'xyz'[i]}: "${t}" is not a number; write it in millimetres, e.g. 12.5 or 12,5.` : null))
       .filter((m): m is string => m !== null),
   );
 
   protected readonly problems = computed(() => [...frameProblems(this.frame()), ...this.originProblems()]);
-
-  /** The file was read (well or with geometry problems): the frame can be chosen and the file read again. */
-  protected readonly readable = computed(() => {
-    const k = this.state()?.kind;
-    return k === 'reading' || k === 'ready' || k === 'geometry';
-  });
 
   protected readonly preview = computed(() => {
     const s = this.state();
@@ -98,15 +123,16 @@ export class HardpointImport {
   protected readonly canApply = computed(() => (this.mapped()?.size ?? 0) > 0);
 
   protected chooseFile(event: Event): void {
-    const file = (event.target as HTMLInputElement).files?.[0];
+    const input = event.target as HTMLInputElement;
+    const file = input.files?.[0];
     if (file) this.read(file.name, file);
+    // The same file chosen again (after fixing it on disk) must fire a new change.
+    input.value = '';
   }
 
   /** Sends the file to the server with the frame and the working corner; the answer replaces any earlier one. */
   read(name: string, file: Blob): void {
-    this.fileName.set(name);
-    this.file = file;
-    this.upload();
+    this.chosen.set({ name, file });
   }
 
   /** The same as choosing a file holding `text` (for pasted text and tests). */
@@ -114,29 +140,17 @@ export class HardpointImport {
     this.read(name, new Blob([text], { type: /\.json$/i.test(name) ? 'application/json' : 'text/csv' }));
   }
 
-  private upload(): void {
-    this.request?.unsubscribe();
-    const name = this.fileName();
-    if (!this.file || !name || this.problems().length > 0) return;
-    this.state.set({ kind: 'reading' });
-    this.request = this.api.preview(this.teamId(), this.designId(), this.file, name, this.frame(), this.corner()).subscribe({
-      next: (preview) => this.state.set({ kind: 'ready', preview }),
-      error: (err: unknown) => {
-        const p = apiProblem(err);
-        const details = (p.details ?? {}) as { errors?: string[]; fields?: { path: string; message: string }[] };
-        if (p.code === 'import_rows' && details.errors) this.state.set({ kind: 'rows', errors: details.errors });
-        else if (p.code === 'import_geometry' && details.fields) this.state.set({ kind: 'geometry', problems: details.fields.map((f) => f.message) });
-        else this.state.set({ kind: 'refused', message: p.message });
-      },
-    });
+  /** How far an imported point moves, in the user's length unit. */
+  protected moved(mm: number): string {
+    const u = this.displayUnits();
+    return `${formatNum(mm, { kind: 'length' }, u)} ${unitLabel('length', u)}`;
   }
 
   private changeFrame(change: (f: CadFrame) => CadFrame): void {
     this.frame.update(change);
-    this.upload();
   }
 
-  protected usePreset(index: string): void {
+  protected usePreset(index: number | string): void {
     const preset = FRAME_PRESETS[Number(index)];
     if (preset) this.changeFrame((f) => ({ ...f, axes: preset.axes }));
   }
@@ -168,7 +182,6 @@ export class HardpointImport {
     this.originText.set(next);
     const values = next.map(parseDecimal);
     if (values.every((v) => v !== null)) this.changeFrame((f) => ({ ...f, originMm: values as Vec3 }));
-    else this.request?.unsubscribe();
   }
 
   protected apply(): void {

@@ -1,22 +1,25 @@
 import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatOption, MatSelect } from '@angular/material/select';
 import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 
 /** Chooses the track profile the cautions are measured for. */
 @Component({
   selector: 'rw-track-profile-select',
+  imports: [MatFormField, MatLabel, MatSelect, MatOption],
   template: `
-    <label class="rw-track-profile">
-      <span>Track profile for the cautions</span>
-      <select [value]="value()" (change)="pick($event)">
+    <mat-form-field class="rw-track-profile" subscriptSizing="dynamic">
+      <mat-label>Track profile for the cautions</mat-label>
+      <mat-select [value]="value()" (selectionChange)="pick($event.value)" data-testid="track-profile">
         @for (p of profiles; track p.id) {
-          <option [value]="p.id" [selected]="p.id === value()">{{ p.label }} (ISO 8608 class {{ p.roadClass }} at {{ p.speedKph }} km/h, {{ p.bumpHeightMm }} mm bump)</option>
+          <mat-option [value]="p.id">{{ p.label }} (ISO 8608 class {{ p.roadClass }} at {{ p.speedKph }} km/h, {{ p.bumpHeightMm }} mm bump)</mat-option>
         }
-      </select>
-    </label>
+      </mat-select>
+    </mat-form-field>
   `,
   styles: `
-    .rw-track-profile { display: inline-flex; flex-direction: column; gap: 0.2rem; }
-    .rw-track-profile select { font: inherit; padding: 0.25rem; }
+    :host { display: block; flex: 1 1 28rem; max-width: 40rem; }
+    .rw-track-profile { width: 100%; }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
@@ -25,8 +28,7 @@ export class TrackProfileSelect {
   readonly changed = output<TrackProfileId>();
   protected readonly profiles = Object.values(trackProfiles);
 
-  protected pick(event: Event): void {
-    const id = (event.target as HTMLSelectElement).value;
-    if (id in trackProfiles) this.changed.emit(id as TrackProfileId);
+  pick(id: unknown): void {
+    if (typeof id === 'string' && id in trackProfiles) this.changed.emit(id as TrackProfileId);
   }
 }

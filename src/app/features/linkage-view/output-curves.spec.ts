@@ -1,5 +1,5 @@
 import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController, provideHttpClientTesting, type TestRequest } from '@angular/common/http/testing';
 import { signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import type { DisplayUnits } from '../../core/api-types';
@@ -10,6 +10,29 @@ import { serve, settle } from '../configurations/spec-backend';
 import { OutputCurves } from './output-curves';
 
 const TEAM = '/api/teams/t1';
+
+/** A rig file of the design (invented): toe and camber of the left wheel at five travels. */
+const RIG = {
+  id: 'm1',
+  name: 'Shaker run 3',
+  fileName: 'shaker-3.csv',
+  attachedTo: 'baseline',
+  configurationId: null,
+  configurationRevision: null,
+  axle: 'front',
+  designId: 'd1',
+  designName: 'Front',
+  designRevision: 3,
+  side: 'left',
+  rackMm: 0,
+  basis: 'change',
+  pointCount: 5,
+  hasCamber: true,
+  note: null,
+  authorName: 'Ines Varga',
+  createdAt: '2026-11-20T09:00:00Z',
+};
+const RIG_POINTS = [-20, -10, 0, 10, 20].map((t, i) => ({ travelMm: t, toeDeg: 0.01 * t, camberDeg: -1 - 0.02 * t, line: i + 2 }));
 
 async function setUp(units: DisplayUnits = 'si') {
   TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting(), { provide: DISPLAY_UNITS, useValue: signal(units) }] });
@@ -27,7 +50,13 @@ async function setUp(units: DisplayUnits = 'si') {
   ]);
   fixture.detectChanges();
   const backend = TestBed.inject(HttpTestingController);
-  await serve(backend, { [`GET ${TEAM}/vehicles/v1`]: { id: 'v1', name: 'Kestrel', archived: false, revision: 1, data: exampleVehicles.tur26Ember, updatedAt: '', updatedByName: null } });
+  await serve(backend, {
+    [`GET ${TEAM}/vehicles/v1`]: { id: 'v1', name: 'Kestrel', archived: false, revision: 1, data: exampleVehicles.tur26Ember, updatedAt: '', updatedByName: null },
+    [`GET ${TEAM}/rig-measurements`]: (req: TestRequest) => {
+      expect(req.request.params.get('designId')).toBe('d1');
+      return [RIG];
+    },
+  });
   const el = fixture.nativeElement as HTMLElement;
   await until(fixture, () => el.querySelectorAll('[data-chart]').length > 0);
   return { fixture, el, backend };
@@ -102,5 +131,40 @@ describe('OutputCurves', () => {
     expect(el.querySelector('[data-chart="rollCentreHeightMm"]')!.textContent).toContain('Roll centre above the ground (in)');
     // Toe stays in degrees in both systems.
     expect(el.querySelector('[data-chart="toeDeg"]')!.textContent).toContain('(deg)');
+  });
+
+  it('overlays a rig measurement of the design as measured points on the toe and camber charts against travel only', async () => {
+    const { fixture, el, backend } = await setUp();
+    const box = el.querySelector<HTMLInputElement>('[data-rig="m1"] input[type="checkbox"]')!;
+    expect(box.closest('[data-rig]')!.textContent).toContain('Rig: Shaker run 3 (left wheel, as measured)');
+    box.click();
+    await serve(backend, { [`GET ${TEAM}/rig-measurements/m1`]: { ...RIG, mapping: {}, points: RIG_POINTS, comparison: {}, engineVersion: 'x' } });
+    await until(fixture, () => el.querySelectorAll('[data-chart="toeDeg"] g.rw-series').length === 2);
+    const series = (key: string) => Array.from(el.querySelectorAll(`[data-chart="${key}"] g.rw-series`)).map((g) => g.getAttribute('data-series'));
+    expect(series('toeDeg')).toEqual(['Revision 3 (shown)', 'Rig: Shaker run 3 (left wheel, as measured)']);
+    expect(series('camberDeg')).toEqual(['Revision 3 (shown)', 'Rig: Shaker run 3 (left wheel, as measured)']);
+    // Measured points, no line: one marker per point of the file.
+    const rig = el.querySelector('[data-chart="toeDeg"] g.rw-series[data-series^="Rig:"]')!;
+    expect(rig.querySelector('path.rw-series-line')).toBeNull();
+    // A roll-centre chart has no rig data.
+    expect(series('rollCentreHeightMm')).toEqual(['Revision 3 (shown)']);
+    // Against body roll the rig (measured against travel) is not drawn.
+    Array.from(el.querySelectorAll<HTMLButtonElement>('[data-testid="curve-axis"] button')).find((b) => b.textContent!.includes('Body roll'))!.click();
+    await until(fixture, () => (el.querySelector('[data-chart="toeDeg"] .rw-axis-label-x')?.textContent ?? '').includes('Body roll'));
+    expect(series('toeDeg')).toEqual(['Revision 3 (shown)']);
+  });
+
+  it('shows curves only with the request that produced them: out of date while new inputs solve, and says the range used', async () => {
+    const { fixture, el } = await setUp();
+    expect(el.querySelector('[data-testid="curves-basis"]')!.textContent!.trim()).toBe('Swept over -25 to 25 mm of wheel travel; rack at 0 mm.');
+    // 7 mm steps from −10 mm stop at 25 mm (−10 + 5 × 7), short of the 30 mm asked for: the wording says 25.
+    fixture.componentRef.setInput('travelRange', { from: -10, to: 30, step: 7 });
+    fixture.detectChanges();
+    // The new range is being solved: the charts on screen are still the old ones, and say so.
+    expect(el.querySelector('[data-testid="curves-out-of-date"]')!.textContent).toContain('Swept over -25 to 25 mm');
+    expect(el.querySelector('.rw-curves-result')!.classList).toContain('rw-out-of-date');
+    await until(fixture, () => el.querySelector('[data-testid="curves-out-of-date"]') === null);
+    expect(el.querySelector('[data-testid="curves-basis"]')!.textContent!.trim()).toBe('Swept over -10 to 25 mm of wheel travel; rack at 0 mm.');
+    expect(el.querySelector('.rw-curves-result')!.classList).not.toContain('rw-out-of-date');
   });
 });

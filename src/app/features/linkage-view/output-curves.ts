@@ -2,6 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, effect, inject, input, On
 import { MatButton } from '@angular/material/button';
 import { MatButtonToggle, MatButtonToggleGroup } from '@angular/material/button-toggle';
 import { MatCheckbox } from '@angular/material/checkbox';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { firstValueFrom } from 'rxjs';
 import type { Corner } from '../../../../shared/schema/corner';
 import type { OutputCurveAxis } from '../../../../shared/kinematics/output-curves';
@@ -11,12 +12,16 @@ import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
 import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
 import { apiProblem } from '../../core/http/api-error';
+import { loadState } from '../../core/http/load-state';
+import { RigApi, type RigMeasurementDetail } from '../rig/rig-api';
+import { LocalTimePipe } from '../../core/time/local-time';
 import { AnalysisError, AnalysisSuperseded } from '../../workers/kinematics-client';
+import { failureWords } from '../../workers/failure-words';
 import { ConfigurationsApi } from '../configurations/configurations-api';
 import { FeaturesApi, type Proposal, type RevisionRow } from '../features-api';
 import { DEFAULT_OUTPUTS, outputDefs, SWEEP_AXES, type OutputDef } from './output-defs';
 import { ViewsClient } from './views-client';
-import type { CurveSource, CurvesReply } from './views-types';
+import type { CurveSource, CurvesReply, CurvesRequest } from './views-types';
 import type { AxleName } from '../../../../shared/schema/axle';
 
 /** Roll range of the roll axis, deg (a hard cornering car rolls a few degrees). */
@@ -24,17 +29,31 @@ const ROLL_RANGE = { from: -3, to: 3, step: 0.5 };
 /** At most this many geometries on one chart (the line chart tells six apart by dash and marker). */
 const MAX_SOURCES = 6;
 
-type LoadState = { readonly kind: 'loading' } | { readonly kind: 'ready'; readonly reply: CurvesReply } | { readonly kind: 'error'; readonly message: string };
+/** What the engine was asked (the request without its kind). */
+type CurvesAsk = Omit<CurvesRequest, 'kind'>;
+/** The curves on screen always travel with the request that produced them. */
+interface Solved {
+  readonly request: CurvesAsk;
+  readonly reply: CurvesReply;
+}
+type LoadState =
+  | { readonly kind: 'loading' }
+  | { readonly kind: 'ready'; readonly reply: CurvesReply; readonly request: CurvesAsk }
+  | { readonly kind: 'error'; readonly message: string };
 
 /**
  * Every per-pose output of the axle as a curve against wheel travel, rack
  * travel or body roll. The user picks the outputs and the sweep axis and
- * overlays saved revisions and open proposals on the design being edited.
+ * overlays saved revisions, open proposals and the rig measurements of the
+ * design (as measured, on the toe and camber charts against wheel travel).
+ * What is drawn is always the answer to the request that produced it: the
+ * axis, range and held pose are read from that request, and the charts are
+ * marked out of date while newer inputs are solving or after they failed.
  * The engine runs in the views worker; this component only arranges series.
  */
 @Component({
   selector: 'rw-output-curves',
-  imports: [LineChart, MatButton, MatCheckbox, MatButtonToggleGroup, MatButtonToggle],
+  imports: [LineChart, MatButton, MatCheckbox, MatButtonToggleGroup, MatButtonToggle, LocalTimePipe],
   templateUrl: './output-curves.html',
   styleUrl: './output-curves.scss',
   providers: [ViewsClient],
@@ -44,6 +63,7 @@ export class OutputCurves implements OnInit {
   private readonly engine = inject(ViewsClient);
   private readonly api = inject(FeaturesApi);
   private readonly configs = inject(ConfigurationsApi);
+  private readonly rigApi = inject(RigApi);
 
   readonly corner = input.required<Corner>();
   readonly axle = input<AxleName>('front');
@@ -70,8 +90,26 @@ export class OutputCurves implements OnInit {
   private readonly overlayCorners = signal<ReadonlyMap<string, Corner>>(new Map());
   private readonly vehicleData = signal<unknown>(null);
   protected readonly state = signal<LoadState>({ kind: 'loading' });
+  /** The last answer that solved, with its request (kept on screen, marked out of date, while newer inputs solve or fail). */
+  private readonly solved = signal<Solved | null>(null);
   /** A newer request is running; the curves shown are those of the previous inputs until it answers. */
   protected readonly solving = signal(false);
+  /** The curves on screen are not those of the current inputs. */
+  protected readonly outOfDate = computed(() => this.solved() !== null && (this.solving() || this.state().kind === 'error'));
+
+  /** Rig measurements of this design (read from the rig API), offered as overlays. */
+  private readonly rigList = rxResource({
+    params: () => ({ teamId: this.teamId(), designId: this.designId() }),
+    stream: ({ params: p }) => this.rigApi.list(p.teamId, { designId: p.designId }),
+  });
+  protected readonly rigs = loadState(this.rigList);
+  protected readonly rigCount = computed(() => {
+    const r = this.rigs();
+    return r.status === 'ready' ? r.value.length : 0;
+  });
+  /** Rig measurements drawn (ids), and their points once loaded. */
+  protected readonly rigShown = signal<ReadonlySet<string>>(new Set());
+  private readonly rigDetails = signal<ReadonlyMap<string, RigMeasurementDetail>>(new Map());
 
   protected readonly defs = computed(() => outputDefs(this.axle()));
   protected readonly groups = computed(() => {
@@ -85,7 +123,7 @@ export class OutputCurves implements OnInit {
   });
   protected readonly steered = computed(() => this.corner().steered);
   protected readonly otherRevisions = computed(() => this.revisions().filter((r) => this.dirty() || r.revision !== this.revision()));
-  protected readonly overlayCount = computed(() => this.overlays().size);
+  protected readonly overlayCount = computed(() => this.overlays().size + this.rigShown().size);
   protected readonly maxOverlays = MAX_SOURCES - 1;
 
   private readonly sources = computed<CurveSource[]>(() => {
@@ -104,11 +142,11 @@ export class OutputCurves implements OnInit {
     return [current, ...extra];
   });
 
-  /** One chart per chosen output that applies to the axis. */
+  /** One chart per chosen output that applies to the axis the shown curves were solved along. */
   protected readonly charts = computed(() => {
-    const s = this.state();
-    if (s.kind !== 'ready') return [];
-    const axis = this.axis();
+    const solved = this.solved();
+    if (!solved) return [];
+    const axis = solved.request.axis;
     return this.defs()
       .filter((d) => this.chosen().has(d.key) && (!d.onlyAxis || d.onlyAxis === axis))
       .map((d) => {
@@ -116,29 +154,58 @@ export class OutputCurves implements OnInit {
         const missing: string[] = [];
         const x = this.shownValue(SWEEP_AXES[axis].x);
         const y = this.shownValue(d.y);
-        for (const c of s.reply.curves) {
+        for (const c of solved.reply.curves) {
           if (!c.rows) continue;
           const points = c.rows.filter((r) => r[d.key] !== null && Number.isFinite(r[d.key] as number)).map((r) => ({ x: x(r.x), y: y(r[d.key] as number) }));
           if (points.length > 0) series.push({ name: c.label, points });
           else missing.push(c.label);
+        }
+        // Rig measurements: toe and camber against wheel travel, as measured.
+        if (axis === 'travel' && (d.key === 'toeDeg' || d.key === 'camberDeg')) {
+          for (const id of this.rigShown()) {
+            const m = this.rigDetails().get(id);
+            if (!m) continue;
+            const points = m.points
+              .filter((p) => (d.key === 'toeDeg' ? true : p.camberDeg !== null))
+              .map((p) => ({ x: x(p.travelMm), y: d.key === 'toeDeg' ? p.toeDeg : p.camberDeg! }))
+              .sort((a, b) => a.x - b.x);
+            if (points.length > 0) series.push({ name: this.rigLabel(m), points, style: 'points' });
+          }
         }
         return { def: d, y: this.shownAxis(d.y), series, missing };
       });
   });
 
   protected readonly failures = computed(() => {
-    const s = this.state();
-    return s.kind === 'ready' ? s.reply.curves.filter((c) => c.failure).map((c) => `${c.label}: ${c.failure!.message}`) : [];
+    const s = this.solved();
+    return s ? s.reply.curves.filter((c) => c.failure).map((c) => `${c.label}: ${failureWords(c.failure!)}`) : [];
   });
-  protected readonly vehicleNote = computed(() => {
-    const s = this.state();
-    return s.kind === 'ready' ? s.reply.vehicleNote : null;
-  });
-  protected readonly xAxis = computed(() => this.shownAxis(SWEEP_AXES[this.axis()].x));
+  protected readonly vehicleNote = computed(() => this.solved()?.reply.vehicleNote ?? null);
+  protected readonly xAxis = computed(() => this.shownAxis(SWEEP_AXES[this.solved()?.request.axis ?? this.axis()].x));
+  /** What the shown curves were swept over and what was held, from the request that produced them. */
   protected readonly heldAt = computed(() => {
+    const r = this.solved()?.request;
+    if (!r) return '';
+    const u = this.units();
+    const lu = unitLabel('length', u);
+    const len = (mm: number) => formatNum(mm, { kind: 'length' }, u);
+    if (r.axis === 'steer') return `Rack over its whole stroke; both wheels at ${len(r.travelMm)} ${lu} travel.`;
+    if (r.axis === 'roll') return `Swept over ${formatNum(r.range.from, { decimals: 1 })} to ${formatNum(r.range.to, { decimals: 1 })} deg of body roll; rack at ${len(r.rackMm)} ${lu}.`;
+    // The travels actually solved (the last step may stop short of the range's end).
+    const xs = (this.solved()?.reply.curves ?? []).flatMap((c) => (c.rows ?? []).map((row) => row.x));
+    const [from, to] = xs.length > 0 ? [Math.min(...xs), Math.max(...xs)] : [r.range.from, r.range.to];
+    return `Swept over ${len(from)} to ${len(to)} ${lu} of wheel travel; rack at ${len(r.rackMm)} ${lu}.`;
+  });
+  /** The rig files drawn, when measured at another rack position than the curves'. */
+  protected readonly rigRackNotes = computed(() => {
+    const r = this.solved()?.request;
+    if (!r || r.axis !== 'travel') return [];
     const u = this.units();
     const len = (mm: number) => `${formatNum(mm, { kind: 'length' }, u)} ${unitLabel('length', u)}`;
-    return this.axis() === 'steer' ? `Both wheels at ${len(this.travelMm())} travel; rack over its whole stroke.` : `Rack at ${len(this.rackMm())}.`;
+    return [...this.rigShown()]
+      .map((id) => this.rigDetails().get(id))
+      .filter((m): m is RigMeasurementDetail => !!m && m.rackMm !== r.rackMm)
+      .map((m) => `${m.name} was measured at rack ${len(m.rackMm)}; the curves are at rack ${len(r.rackMm)}.`);
   });
 
   private readonly units = inject(DISPLAY_UNITS);
@@ -232,6 +299,34 @@ export class OutputCurves implements OnInit {
     return `Proposal${p?.authorName ? ' by ' + p.authorName : ''} on revision ${p?.baseRevision ?? '?'}`;
   }
 
+  protected async toggleRig(id: string, on: boolean): Promise<void> {
+    const next = new Set(this.rigShown());
+    if (!on) {
+      next.delete(id);
+      this.rigShown.set(next);
+      return;
+    }
+    if (this.overlayCount() >= this.maxOverlays) return;
+    this.overlayError.set(null);
+    try {
+      if (!this.rigDetails().has(id)) {
+        const detail = await firstValueFrom(this.rigApi.get(this.teamId(), id));
+        this.rigDetails.set(new Map(this.rigDetails()).set(id, detail));
+      }
+      this.rigShown.set(new Set([...this.rigShown(), id]));
+    } catch (error) {
+      this.overlayError.set(`The rig measurement could not be loaded: ${apiProblem(error).message}`);
+    }
+  }
+
+  protected rigLabel(m: { readonly name: string; readonly side: 'left' | 'right' }): string {
+    return `Rig: ${m.name} (${m.side} wheel, as measured)`;
+  }
+
+  protected isRigShown(id: string): boolean {
+    return this.rigShown().has(id);
+  }
+
   protected isChosen(key: string): boolean {
     return this.chosen().has(key);
   }
@@ -248,15 +343,16 @@ export class OutputCurves implements OnInit {
     }
   }
 
-  private async solve(request: Parameters<ViewsClient['curves']>[0]): Promise<void> {
+  private async solve(request: CurvesAsk): Promise<void> {
     this.solving.set(true);
     try {
       const reply = await this.engine.curves(request);
-      this.state.set({ kind: 'ready', reply });
+      this.state.set({ kind: 'ready', reply, request });
+      this.solved.set({ request, reply });
       this.solving.set(false);
     } catch (error) {
       if (error instanceof AnalysisSuperseded) return;
-      this.state.set({ kind: 'error', message: error instanceof AnalysisError ? error.failure.message : String(error) });
+      this.state.set({ kind: 'error', message: error instanceof AnalysisError ? failureWords(error.failure) : String(error) });
       this.solving.set(false);
     }
   }
