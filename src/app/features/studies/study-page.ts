@@ -3,6 +3,8 @@ import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatOption, MatSelect } from '@angular/material/select';
 import { firstValueFrom } from 'rxjs';
 import type { OutputResult, StudyResult, VariantPoint } from '../../../../shared/study/index';
 import { BarChart } from '../../charts/bar-chart';
@@ -36,7 +38,7 @@ const LEVEL_WORDS = { info: 'Notice', warning: 'Warning', critical: 'Critical' }
  */
 @Component({
   selector: 'rw-study-page',
-  imports: [NumPipe, RouterLink, MatButton, MatIcon, MatProgressBar, BarChart, LineChart, SafetyCaution, StudyAttach],
+  imports: [NumPipe, RouterLink, MatButton, MatIcon, MatProgressBar, MatFormField, MatLabel, MatSelect, MatOption, BarChart, LineChart, SafetyCaution, StudyAttach],
   templateUrl: './study-page.html',
   styleUrl: './studies.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -153,10 +155,6 @@ export class StudyPage {
 
   protected localTime(iso: string): string {
     return formatLocalTime(iso, this.timeZone);
-  }
-
-  protected choose(event: Event): void {
-    this.chosen.set((event.target as HTMLSelectElement).value);
   }
 
   protected async cancel(): Promise<void> {
