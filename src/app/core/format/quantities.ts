@@ -80,3 +80,15 @@ export function displayDecimals(kind: QuantityKind, units: DisplayUnits, siDecim
   if (units === 'si') return siDecimals;
   return Math.max(0, siDecimals + Math.round(Math.log10(1 / QUANTITIES[kind].factor)));
 }
+
+/**
+ * The kind whose stored unit is `siUnit` as written ('mm', 'deg/m', 'deg/g'),
+ * for figures that arrive with their unit as text (study outputs, document
+ * paths); null for a unit no kind converts ('%', 'deg/s'), shown as it is.
+ * Where two kinds share a unit (bump steer and camber gain, deg/m) they
+ * convert alike, and the first listed is taken.
+ */
+export function kindForUnit(siUnit: string): QuantityKind | null {
+  for (const [kind, q] of Object.entries(QUANTITIES) as [QuantityKind, QuantityUnits][]) if (q.si === siUnit) return kind;
+  return null;
+}
