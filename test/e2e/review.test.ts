@@ -137,7 +137,8 @@ describe('Configuration review in Chromium', () => {
     await designer.getByRole('button', { name: 'Compare revision 1 with the current one' }).click();
     const comparison = designer.getByTestId('comparison');
     await comparison.waitFor();
-    expect(await comparison.innerText()).toContain('rearCorner.points.tieRodInner[2]');
+    expect(await comparison.innerText()).toContain('Rear corner · tie rod inner · z');
+    expect(await comparison.innerText()).not.toMatch(/[a-z]+\.[a-z]+[A-Z]/);
     expect(await comparison.innerText()).toContain('Understeer-gradient change from roll steer');
     await designer.getByRole('button', { name: 'Submit for review' }).click();
     await expectStatus(designer, 'In review');

@@ -56,6 +56,10 @@ export const QUANTITIES = {
   anglePerForce: { si: 'deg/kN', imperial: 'deg/klbf', factor: LBF_N, sig: 3 },
   /** Compliance steer per moment (1 klbf·ft = 4.4482216152605 kN × 0.3048 m). */
   anglePerMoment: { si: 'deg/(kN·m)', imperial: 'deg/(klbf·ft)', factor: LBF_N * FT_M, sig: 3 },
+  /** Roll moment per g of lateral acceleration. */
+  momentPerG: { si: 'N·m/g', imperial: 'lbf·ft/g', factor: 1 / (LBF_N * FT_M), sig: 4 },
+  /** Anti-roll bar twist per length of wheel travel. */
+  twistPerLength: { si: 'rad/m', imperial: 'rad/in', factor: IN_MM / 1000, sig: 4 },
 } as const satisfies Record<string, QuantityUnits>;
 
 export type QuantityKind = keyof typeof QUANTITIES;

@@ -34,7 +34,7 @@ import {
   TransitionRow,
 } from './configurations-api';
 import { RefOption, ReviewComments } from './review-comments';
-import { ActionSpec, actionsFor, CHART_REFS, diffValue, type KeyFigure, keyFigures, pathLabel, problemText, STATUS_WORDS } from './review-words';
+import { ActionSpec, actionsFor, CHART_REFS, type DifferenceGroup, differenceGroups, inputWords, type KeyFigure, keyFigures, problemText, resultWords, STATUS_WORDS } from './review-words';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { displayDecimals, inDisplayUnits, type QuantityKind, unitLabel } from '../../core/format/quantities';
@@ -106,8 +106,6 @@ export class ConfigurationPage {
   readonly teamId = input.required<string>();
   readonly configurationId = input.required<string>();
   protected readonly timeZone = browserTimeZone();
-  protected readonly diffValue = diffValue;
-  protected readonly pathLabel = pathLabel;
   constructor() {
     // Loads on arrival and again when the router reuses this page for other route parameters.
     effect(() => {
@@ -161,7 +159,7 @@ export class ConfigurationPage {
   /** The user's unit system (account setting): key figures, charts and the snapshot follow it. */
   protected readonly units = inject(DISPLAY_UNITS);
   /** A key figure's unit and decimals in the user's system (the value converts through the num pipe's kind). */
-  private inUnits<F extends KeyFigure>(f: F): F {
+  private inUnits(f: KeyFigure): KeyFigure & { unit: string } {
     return { ...f, unit: unitLabel(f.kind, this.units()), digits: displayDecimals(f.kind, this.units(), f.digits) };
   }
   protected readonly figures = computed(() => {
@@ -217,6 +215,13 @@ export class ConfigurationPage {
     });
   });
 
+  /** The results a recompute of the frozen inputs gives differently, labelled, in the user's units, grouped by kind. */
+  protected readonly recomputeGroups = computed<DifferenceGroup[]>(() => {
+    const a = this.approval();
+    if (!a || a.kind !== 'ready' || 'error' in a.value.recompute) return [];
+    return differenceGroups(a.value.recompute.differences, resultWords, this.units());
+  });
+
   // ---- revise ----
   protected readonly revising = signal(false);
   protected readonly reviseName = signal('');
@@ -235,6 +240,16 @@ export class ConfigurationPage {
   protected readonly compareBRevision = signal('');
   protected readonly comparison = signal<Load<CompareAnswer> | null>(null);
   protected readonly compareChoices = computed(() => this.others());
+  /** The comparison's changed inputs and results, labelled, in the user's units, grouped by kind. */
+  protected readonly compareTables = computed(() => {
+    const k = this.comparison();
+    if (!k || k.kind !== 'ready') return [];
+    const units = this.units();
+    return [
+      { caption: 'Changed inputs', head: 'Input', testId: 'compare-inputs', count: k.value.inputs.length, none: 'No input differs.', groups: differenceGroups(k.value.inputs, inputWords, units) },
+      { caption: 'Changed results', head: 'Result', testId: 'compare-results', count: k.value.results.length, none: 'No result differs.', groups: differenceGroups(k.value.results, resultWords, units) },
+    ];
+  });
 
   protected async loadAll(): Promise<void> {
     this.config.set({ kind: 'loading' });
