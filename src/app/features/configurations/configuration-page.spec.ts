@@ -183,6 +183,8 @@ describe('ConfigurationPage', () => {
     expect(speed[2]).toBe('mph');
     expect(speed[1]).toBe(((RESULTS.balance.characteristicSpeedKph ?? Number.NaN) / 1.609344).toFixed(1));
     expect(root.querySelector('rw-line-chart .rw-axis-label-x')!.textContent!.trim()).toBe('Speed (mph)');
+    // The track profile it pins, in inch/pound too: smooth circuit travel ±25 mm is ±0.9843 in.
+    expect(root.querySelector('[data-testid="inputs"]')!.textContent).toContain('travel -0.9843 to 0.9843 in');
   });
 
   it('offers each role only its own review steps for the status', async () => {
