@@ -11,7 +11,7 @@ import { RouterLink } from '@angular/router';
 import { apiProblem } from '../core/http/api-error';
 import { loadState } from '../core/http/load-state';
 import { TeamAccess } from '../core/teams/team-access';
-import { ACTIVITY_PAGE_SIZE, ActivityApi, ActivityEntry } from './activity-api';
+import { ACTIVITY_PAGE_SIZE, ActivityApi } from './activity-api';
 import { browserTimeZone, formatLocalTime } from '../core/time/local-time';
 
 export const SUBJECT_WORDS: Readonly<Partial<Record<string, string>>> = {

@@ -129,7 +129,7 @@ describe('ProgrammePage', () => {
   });
 
   it('invites a team by its address and shows a refusal beside the form', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     const slug = root.querySelector<HTMLInputElement>('input[formcontrolname="teamSlug"]')!;
     slug.value = 'no-such-team';
     slug.dispatchEvent(new Event('input'));
@@ -157,7 +157,7 @@ describe('ProgrammePage', () => {
   });
 
   it('takes a labelled snapshot, lists snapshots and offers each as a CSV download', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     const csv = root.querySelector<HTMLAnchorElement>('.snapshots a[download]')!;
     expect(csv.getAttribute('href')).toBe('/api/programmes/p1/snapshots/s1?format=csv');
     expect(root.querySelector('.snapshots a')?.getAttribute('href')).toBe('/programmes/p1/snapshots/s1');

@@ -71,7 +71,7 @@ describe('MembersPage', () => {
   });
 
   it('invites by e-mail with the chosen roles: nobody is added until they accept', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     const email = root.querySelector<HTMLInputElement>('input[formcontrolname="email"]')!;
     email.value = ' viewer@tallowmere.example ';
     email.dispatchEvent(new Event('input'));
@@ -104,7 +104,7 @@ describe('MembersPage', () => {
   });
 
   it('refuses to send an invitation without a valid e-mail', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     root.querySelector<HTMLButtonElement>('.add-form button[type="submit"]')!.click();
     await settle();
     expect(root.querySelector('.add-form mat-error')?.textContent?.trim()).toBe('Enter the e-mail address to invite.');
@@ -112,7 +112,7 @@ describe('MembersPage', () => {
   });
 
   it('shows a refusal beside the form', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     const email = root.querySelector<HTMLInputElement>('input[formcontrolname="email"]')!;
     email.value = 'eli@tallowmere.example';
     email.dispatchEvent(new Event('input'));
@@ -128,7 +128,7 @@ describe('MembersPage', () => {
   });
 
   it('saves a role added with a chip', async () => {
-    const { fixture, chip } = await render();
+    const { chip } = await render();
     chip('Eli Marsh', 'reviewer').click();
     await settle();
     const patch = backend.expectOne({ method: 'PATCH', url: '/api/teams/t-tal/members/u-eli' });

@@ -15,7 +15,7 @@ import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
 import { VehiclesApi } from '../../teams/vehicles-api';
 import { AxleDesignSummary, FeaturesApi, RevisionRow } from '../features-api';
-import { Configuration, ConfigurationsApi, NewConfiguration } from './configurations-api';
+import { ConfigurationsApi, NewConfiguration } from './configurations-api';
 import { problemText } from './review-words';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { StatusChip } from './status-chip';
