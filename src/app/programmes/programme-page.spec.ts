@@ -1,6 +1,6 @@
 import { HttpTestingController } from '@angular/common/http/testing';
 import { settle } from '../../testing/settle';
-import { TestBed } from '@angular/core/testing';
+import { DeferBlockBehavior, DeferBlockState, TestBed } from '@angular/core/testing';
 import { fakeNotifier, FakeNotifier, shellTestProviders } from '../../testing/shell-testing';
 import { SAFETY_CAUTION_TEXT } from '../features/safety-caution';
 import { ProgrammePage } from './programme-page';
@@ -58,7 +58,7 @@ describe('ProgrammePage', () => {
 
   beforeEach(async () => {
     notifier = fakeNotifier();
-    await TestBed.configureTestingModule({ imports: [ProgrammePage], providers: shellTestProviders(notifier) }).compileComponents();
+    await TestBed.configureTestingModule({ imports: [ProgrammePage], providers: shellTestProviders(notifier), deferBlockBehavior: DeferBlockBehavior.Manual }).compileComponents();
     backend = TestBed.inject(HttpTestingController);
   });
   afterEach(() => backend.verify());
@@ -71,7 +71,10 @@ describe('ProgrammePage', () => {
     backend.expectOne('/api/programmes/p1/board').flush(board);
     backend.expectOne('/api/programmes/p1/snapshots').flush([{ id: 's1', label: 'Deadline week 6', takenAt: '2026-10-10T17:00:00.000Z' }]);
     await settle();
-    // The attached-studies section (features/studies/programme-studies.ts) asks for its own rows.
+    // The attached-studies section (features/studies/programme-studies.ts, loaded when the page is idle) asks for its own rows.
+    const [studies] = await fixture.getDeferBlocks();
+    await studies!.render(DeferBlockState.Complete);
+    await settle();
     for (const r of backend.match('/api/programmes/p1/studies')) r.flush({ programmeId: 'p1', teams: [] });
     await settle();
     const root = fixture.nativeElement as HTMLElement;
