@@ -1,5 +1,5 @@
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, signal } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -8,11 +8,10 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
-import { combineLatest, switchMap } from 'rxjs';
 import { apiProblem } from '../core/http/api-error';
-import { LoadState, toLoadState } from '../core/http/load-state';
+import { loadState } from '../core/http/load-state';
 import { TeamAccess } from '../core/teams/team-access';
-import { ACTIVITY_PAGE_SIZE, ActivityApi, ActivityEntry } from './activity-api';
+import { ACTIVITY_PAGE_SIZE, ActivityApi } from './activity-api';
 import { browserTimeZone, formatLocalTime } from '../core/time/local-time';
 
 export const SUBJECT_WORDS: Readonly<Partial<Record<string, string>>> = {
@@ -57,10 +56,17 @@ export class ActivityPage {
 
   protected readonly timeZone = browserTimeZone();
   protected readonly subjectWords = SUBJECT_WORDS;
-  protected readonly state = signal<LoadState<ActivityEntry[]>>({ status: 'loading' });
-  private readonly reloads = signal(0);
-  /** More entries may be older than the last one shown. */
-  protected readonly more = signal(false);
+  /** The latest entries, and older ones appended as they are asked for ("Load older entries"). */
+  private readonly entries = rxResource({
+    params: () => ({ teamId: this.teamId(), designId: this.designId() ?? null }),
+    stream: ({ params: p }) => this.api.list(p.teamId, p.designId),
+  });
+  protected readonly state = loadState(this.entries);
+  /** More entries may be older than the last one shown: a full first page, then a full page of older ones. */
+  protected readonly more = linkedSignal(() => {
+    const s = this.state();
+    return s.status === 'ready' && s.value.length === ACTIVITY_PAGE_SIZE;
+  });
   protected readonly loadingOlder = signal(false);
   protected readonly olderFailure = signal<string | null>(null);
 
@@ -88,21 +94,9 @@ export class ActivityPage {
 
   protected readonly csvUrl = computed(() => this.api.csvUrl(this.teamId(), this.designId() ?? null, this.timeZone));
 
-  constructor() {
-    combineLatest([toObservable(this.teamId), toObservable(this.designId), toObservable(this.reloads)])
-      .pipe(
-        switchMap(([teamId, designId]) => toLoadState(this.api.list(teamId, designId ?? null))),
-        takeUntilDestroyed(),
-      )
-      .subscribe((s) => {
-        this.state.set(s);
-        if (s.status === 'ready') this.more.set(s.value.length === ACTIVITY_PAGE_SIZE);
-      });
-  }
-
   protected reload(): void {
     this.olderFailure.set(null);
-    this.reloads.update((n) => n + 1);
+    this.entries.reload();
   }
 
   protected local(iso: string): string {
@@ -119,7 +113,7 @@ export class ActivityPage {
       next: (older) => {
         this.loadingOlder.set(false);
         const seen = new Set(s.value.map((e) => e.id));
-        this.state.set({ status: 'ready', value: [...s.value, ...older.filter((e) => !seen.has(e.id))] });
+        this.entries.set([...s.value, ...older.filter((e) => !seen.has(e.id))]);
         this.more.set(older.length === ACTIVITY_PAGE_SIZE);
       },
       error: (error: unknown) => {

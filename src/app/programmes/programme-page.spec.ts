@@ -1,5 +1,6 @@
 import { HttpTestingController } from '@angular/common/http/testing';
-import { TestBed } from '@angular/core/testing';
+import { settle } from '../../testing/settle';
+import { DeferBlockBehavior, DeferBlockState, TestBed } from '@angular/core/testing';
 import { fakeNotifier, FakeNotifier, shellTestProviders } from '../../testing/shell-testing';
 import { SAFETY_CAUTION_TEXT } from '../features/safety-caution';
 import { ProgrammePage } from './programme-page';
@@ -57,7 +58,7 @@ describe('ProgrammePage', () => {
 
   beforeEach(async () => {
     notifier = fakeNotifier();
-    await TestBed.configureTestingModule({ imports: [ProgrammePage], providers: shellTestProviders(notifier) }).compileComponents();
+    await TestBed.configureTestingModule({ imports: [ProgrammePage], providers: shellTestProviders(notifier), deferBlockBehavior: DeferBlockBehavior.Manual }).compileComponents();
     backend = TestBed.inject(HttpTestingController);
   });
   afterEach(() => backend.verify());
@@ -65,14 +66,17 @@ describe('ProgrammePage', () => {
   async function render(board: Board = BOARD) {
     const fixture = TestBed.createComponent(ProgrammePage);
     fixture.componentRef.setInput('programmeId', 'p1');
-    await fixture.whenStable();
+    await settle();
     backend.expectOne('/api/programmes/p1').flush(DETAIL);
     backend.expectOne('/api/programmes/p1/board').flush(board);
     backend.expectOne('/api/programmes/p1/snapshots').flush([{ id: 's1', label: 'Deadline week 6', takenAt: '2026-10-10T17:00:00.000Z' }]);
-    await fixture.whenStable();
-    // The attached-studies section (features/studies/programme-studies.ts) asks for its own rows.
+    await settle();
+    // The attached-studies section (features/studies/programme-studies.ts, loaded when the page is idle) asks for its own rows.
+    const [studies] = await fixture.getDeferBlocks();
+    await studies!.render(DeferBlockState.Complete);
+    await settle();
     for (const r of backend.match('/api/programmes/p1/studies')) r.flush({ programmeId: 'p1', teams: [] });
-    await fixture.whenStable();
+    await settle();
     const root = fixture.nativeElement as HTMLElement;
     const group = (name: string) => [...root.querySelectorAll<HTMLElement>('tbody.config')].find((g) => g.textContent?.includes(name))!;
     const cells = (tr: Element | null) => [...(tr?.querySelectorAll('td') ?? [])].map((td) => td.textContent?.trim());
@@ -128,27 +132,27 @@ describe('ProgrammePage', () => {
   });
 
   it('invites a team by its address and shows a refusal beside the form', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     const slug = root.querySelector<HTMLInputElement>('input[formcontrolname="teamSlug"]')!;
     slug.value = 'no-such-team';
     slug.dispatchEvent(new Event('input'));
     root.querySelector<HTMLButtonElement>('.invite-form button[type="submit"]')!.click();
-    await fixture.whenStable();
+    await settle();
     const post = backend.expectOne({ method: 'POST', url: '/api/programmes/p1/teams' });
     expect(post.request.body).toEqual({ teamSlug: 'no-such-team' });
     post.flush({ error: { code: 'not_found', message: 'No team has the address "no-such-team"' } }, { status: 404, statusText: 'Not Found' });
-    await fixture.whenStable();
+    await settle();
     expect(root.querySelector('.panel [role="alert"]')?.textContent?.trim()).toBe('No team has the address "no-such-team"');
     expect(notifier.error).not.toHaveBeenCalled();
 
     slug.value = 'brackenfield';
     slug.dispatchEvent(new Event('input'));
     root.querySelector<HTMLButtonElement>('.invite-form button[type="submit"]')!.click();
-    await fixture.whenStable();
+    await settle();
     backend.expectOne({ method: 'POST', url: '/api/programmes/p1/teams' }).flush(DETAIL.teams[0]!);
-    await fixture.whenStable();
+    await settle();
     backend.expectOne('/api/programmes/p1').flush(DETAIL);
-    await fixture.whenStable();
+    await settle();
     // The emptied field is not shown as an error after a successful invitation.
     expect(slug.value).toBe('');
     expect(root.querySelector('.invite-form mat-error')).toBeNull();
@@ -156,7 +160,7 @@ describe('ProgrammePage', () => {
   });
 
   it('takes a labelled snapshot, lists snapshots and offers each as a CSV download', async () => {
-    const { fixture, root } = await render();
+    const { root } = await render();
     const csv = root.querySelector<HTMLAnchorElement>('.snapshots a[download]')!;
     expect(csv.getAttribute('href')).toBe('/api/programmes/p1/snapshots/s1?format=csv');
     expect(root.querySelector('.snapshots a')?.getAttribute('href')).toBe('/programmes/p1/snapshots/s1');
@@ -164,16 +168,16 @@ describe('ProgrammePage', () => {
     label.value = ' Final ';
     label.dispatchEvent(new Event('input'));
     root.querySelector<HTMLButtonElement>('.snapshot-form button[type="submit"]')!.click();
-    await fixture.whenStable();
+    await settle();
     const post = backend.expectOne({ method: 'POST', url: '/api/programmes/p1/snapshots' });
     expect(post.request.body).toEqual({ label: 'Final' });
     post.flush({ id: 's2', label: 'Final', takenAt: '2026-12-01T10:00:00.000Z', programmeId: 'p1', board: BOARD });
-    await fixture.whenStable();
+    await settle();
     backend.expectOne('/api/programmes/p1/snapshots').flush([
       { id: 's2', label: 'Final', takenAt: '2026-12-01T10:00:00.000Z' },
       { id: 's1', label: 'Deadline week 6', takenAt: '2026-10-10T17:00:00.000Z' },
     ]);
-    await fixture.whenStable();
+    await settle();
     expect([...root.querySelectorAll('.snapshots li > a:first-child')].map((a) => a.textContent?.trim())).toEqual(['Final', 'Deadline week 6']);
   });
 });

@@ -1,6 +1,6 @@
 import { ProgrammeStudies } from '../features/studies/programme-studies';
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal, WritableSignal } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -8,22 +8,15 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
-import { combineLatest, switchMap } from 'rxjs';
 import { browserTimeZone, formatLocalTime } from '../core/time/local-time';
 import { apiProblem } from '../core/http/api-error';
-import { LoadState, toLoadState } from '../core/http/load-state';
+import { loadState } from '../core/http/load-state';
 import { Notifier } from '../core/layout/notifier';
 import { SafetyCaution } from '../features/safety-caution';
 import { BoardTable } from './board-table';
 import { profileLabel } from './board-figures';
 import { Board, ProgrammeDetail, ProgrammesApi, ProgrammeTeamStatus, SnapshotSummary } from './programmes-api';
 import { PageSection, SectionNav } from '../core/layout/section-nav';
-
-/** A reload keeps what is shown until the new answer arrives (the forms below it stay put). */
-function keepShown<T>(target: WritableSignal<LoadState<T>>, next: LoadState<T>): void {
-  if (next.status === 'loading' && target().status === 'ready') return;
-  target.set(next);
-}
 
 const TEAM_STATUS_WORDS: Readonly<Record<ProgrammeTeamStatus, string>> = {
   invited: 'Invited, waiting for the owner',
@@ -76,12 +69,22 @@ export class ProgrammePage {
   protected readonly profileLabel = profileLabel;
   protected readonly teamStatusWords = TEAM_STATUS_WORDS;
 
-  protected readonly detail = signal<LoadState<ProgrammeDetail>>({ status: 'loading' });
-  protected readonly board = signal<LoadState<Board>>({ status: 'loading' });
-  protected readonly snapshots = signal<LoadState<SnapshotSummary[]>>({ status: 'loading' });
-  private readonly detailReloads = signal(0);
-  private readonly boardReloads = signal(0);
-  private readonly snapshotReloads = signal(0);
+  // A reload keeps what is shown until the new answer arrives (the forms below it stay put).
+  private readonly detailResource = rxResource({
+    params: () => this.programmeId(),
+    stream: ({ params: id }) => this.api.get(id),
+  });
+  private readonly boardResource = rxResource({
+    params: () => this.programmeId(),
+    stream: ({ params: id }) => this.api.board(id),
+  });
+  private readonly snapshotList = rxResource({
+    params: () => this.programmeId(),
+    stream: ({ params: id }) => this.api.snapshots(id),
+  });
+  protected readonly detail = loadState<ProgrammeDetail>(this.detailResource);
+  protected readonly board = loadState<Board>(this.boardResource);
+  protected readonly snapshots = loadState<SnapshotSummary[]>(this.snapshotList);
 
   /** Accepted teams that have no configuration on the board (yet). */
   protected readonly acceptedWithoutRows = computed(() => {
@@ -111,39 +114,17 @@ export class ProgrammePage {
   protected readonly snapping = signal(false);
   protected readonly snapshotFailure = signal<string | null>(null);
 
-  constructor() {
-    const id$ = toObservable(this.programmeId);
-    combineLatest([id$, toObservable(this.detailReloads)])
-      .pipe(
-        switchMap(([id]) => toLoadState(this.api.get(id))),
-        takeUntilDestroyed(),
-      )
-      .subscribe((s) => keepShown(this.detail, s));
-    combineLatest([id$, toObservable(this.boardReloads)])
-      .pipe(
-        switchMap(([id]) => toLoadState(this.api.board(id))),
-        takeUntilDestroyed(),
-      )
-      .subscribe((s) => this.board.set(s));
-    combineLatest([id$, toObservable(this.snapshotReloads)])
-      .pipe(
-        switchMap(([id]) => toLoadState(this.api.snapshots(id))),
-        takeUntilDestroyed(),
-      )
-      .subscribe((s) => keepShown(this.snapshots, s));
-  }
-
   protected reloadDetail(): void {
-    this.detailReloads.update((n) => n + 1);
+    this.detailResource.reload();
   }
 
   protected reloadBoard(): void {
-    this.boardReloads.update((n) => n + 1);
+    this.boardResource.reload();
     this.reloadDetail();
   }
 
   protected reloadSnapshots(): void {
-    this.snapshotReloads.update((n) => n + 1);
+    this.snapshotList.reload();
   }
 
   protected local(iso: string): string {

@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { rxResource } from '@angular/core/rxjs-interop';
 import {
   AbstractControl,
   NonNullableFormBuilder,
@@ -16,11 +16,10 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
-import { combineLatest, switchMap } from 'rxjs';
 import { Role, ROLE_DESCRIPTIONS, ROLES, TeamInvitation, TeamMember } from '../core/api-types';
 import { AuthService } from '../core/auth/auth-service';
 import { apiProblem } from '../core/http/api-error';
-import { LoadState, toLoadState } from '../core/http/load-state';
+import { loadState } from '../core/http/load-state';
 import { confirmAction } from '../core/layout/confirm-dialog';
 import { TeamAccess } from '../core/teams/team-access';
 import { TeamsApi } from '../core/teams/teams-api';
@@ -67,9 +66,12 @@ export class MembersPage {
   protected readonly roles = ROLES;
   protected readonly roleDescriptions = ROLE_DESCRIPTIONS;
   protected readonly columns = ['member', 'roles', 'actions'];
-  protected readonly state = signal<LoadState<TeamMember[]>>({ status: 'loading' });
+  private readonly members = rxResource({
+    params: () => this.teamId(),
+    stream: ({ params: teamId }) => this.api.members(teamId),
+  });
+  protected readonly state = loadState(this.members);
   protected readonly myUserId = computed(() => this.auth.user()?.id ?? null);
-  private readonly reloads = signal(0);
 
   protected readonly addForm = inject(NonNullableFormBuilder).group({
     email: ['', [Validators.required, Validators.email]],
@@ -78,37 +80,25 @@ export class MembersPage {
   protected readonly adding = signal(false);
   protected readonly addFailure = signal<string | null>(null);
   /** Invitations not accepted yet (expired ones included, marked). */
-  protected readonly invitations = signal<LoadState<TeamInvitation[]>>({ status: 'loading' });
+  private readonly invitationList = rxResource({
+    params: () => this.teamId(),
+    stream: ({ params: teamId }) => this.api.invitations(teamId),
+  });
+  protected readonly invitations = loadState(this.invitationList);
   protected readonly openInvitations = computed(() => {
     const state = this.invitations();
     return state.status === 'ready' ? state.value.filter((i) => i.acceptedAt === null) : [];
   });
   protected readonly now = signal(Date.now());
 
-  constructor() {
-    combineLatest([toObservable(this.teamId), toObservable(this.reloads)])
-      .pipe(
-        switchMap(([teamId]) => toLoadState(this.api.members(teamId))),
-        takeUntilDestroyed(),
-      )
-      .subscribe((state) => this.state.set(state));
-    combineLatest([toObservable(this.teamId), toObservable(this.reloads)])
-      .pipe(
-        switchMap(([teamId]) => toLoadState(this.api.invitations(teamId))),
-        takeUntilDestroyed(),
-      )
-      .subscribe((state) => {
-        this.now.set(Date.now());
-        this.invitations.set(state);
-      });
-  }
-
   protected expired(invitation: TeamInvitation): boolean {
     return new Date(invitation.expiresAt).getTime() <= this.now();
   }
 
   protected reload(): void {
-    this.reloads.update((n) => n + 1);
+    this.now.set(Date.now());
+    this.members.reload();
+    this.invitationList.reload();
   }
 
   protected invite(): void {
@@ -139,7 +129,7 @@ export class MembersPage {
       void this.notifier.error(
         `${member.displayName} needs at least one role. To take them off the team, use Remove.`,
       );
-      this.reload();
+      event.source.value = [...member.roles]; // the stored roles again, without asking the server
       return;
     }
     this.api.setRoles(this.teamId(), member.userId, roles).subscribe({
@@ -148,7 +138,10 @@ export class MembersPage {
         if (member.userId === this.myUserId()) this.afterOwnChange();
         else this.reload();
       },
-      error: () => this.reload(), // e.g. last_owner: show the roles that are stored
+      error: () => {
+        event.source.value = [...member.roles]; // e.g. last_owner: show the roles that are stored…
+        this.reload(); // …and whatever else changed meanwhile
+      },
     });
   }
 

@@ -56,6 +56,10 @@ export const QUANTITIES = {
   anglePerForce: { si: 'deg/kN', imperial: 'deg/klbf', factor: LBF_N, sig: 3 },
   /** Compliance steer per moment (1 klbf·ft = 4.4482216152605 kN × 0.3048 m). */
   anglePerMoment: { si: 'deg/(kN·m)', imperial: 'deg/(klbf·ft)', factor: LBF_N * FT_M, sig: 3 },
+  /** Roll moment per g of lateral acceleration. */
+  momentPerG: { si: 'N·m/g', imperial: 'lbf·ft/g', factor: 1 / (LBF_N * FT_M), sig: 4 },
+  /** Anti-roll bar twist per length of wheel travel. */
+  twistPerLength: { si: 'rad/m', imperial: 'rad/in', factor: IN_MM / 1000, sig: 4 },
 } as const satisfies Record<string, QuantityUnits>;
 
 export type QuantityKind = keyof typeof QUANTITIES;
@@ -79,4 +83,16 @@ export function unitLabel(kind: QuantityKind, units: DisplayUnits): string {
 export function displayDecimals(kind: QuantityKind, units: DisplayUnits, siDecimals: number): number {
   if (units === 'si') return siDecimals;
   return Math.max(0, siDecimals + Math.round(Math.log10(1 / QUANTITIES[kind].factor)));
+}
+
+/**
+ * The kind whose stored unit is `siUnit` as written ('mm', 'deg/m', 'deg/g'),
+ * for figures that arrive with their unit as text (study outputs, document
+ * paths); null for a unit no kind converts ('%', 'deg/s'), shown as it is.
+ * Where two kinds share a unit (bump steer and camber gain, deg/m) they
+ * convert alike, and the first listed is taken.
+ */
+export function kindForUnit(siUnit: string): QuantityKind | null {
+  for (const [kind, q] of Object.entries(QUANTITIES) as [QuantityKind, QuantityUnits][]) if (q.si === siUnit) return kind;
+  return null;
 }

@@ -1,5 +1,4 @@
 import { computed, type Resource, type Signal } from '@angular/core';
-import { catchError, map, Observable, of, startWith } from 'rxjs';
 import { apiProblem, type ApiProblem } from './api-error';
 
 /**
@@ -30,13 +29,4 @@ export function loadState<T>(resource: Resource<T | undefined>): Signal<LoadStat
     }
     return resource.hasValue() ? { status: 'ready', value: resource.value() as T } : { status: 'loading' };
   });
-}
-
-/** Transitional: one request as the states a screen walks through (pages move to `loadState(rxResource(…))`). */
-export function toLoadState<T>(request: Observable<T>): Observable<LoadState<T>> {
-  return request.pipe(
-    map((value): LoadState<T> => ({ status: 'ready', value })),
-    catchError((error: unknown) => of<LoadState<T>>({ status: 'error', message: apiProblem(error).message })),
-    startWith<LoadState<T>>({ status: 'loading' }),
-  );
 }

@@ -7,6 +7,9 @@ import type { DisplayUnits } from '../../core/api-types';
 import { settle } from '../../../testing/settle';
 import { ComparePage } from './compare-page';
 import { routedPageTestBed } from '../../../testing/routed-page';
+import { clickToggle } from '../../../testing/material';
+import { Router } from '@angular/router';
+import { TestBed } from '@angular/core/testing';
 
 const T = '/api/teams/t-tal';
 const raised = structuredClone(exampleCorners.fsRearWishbone);
@@ -93,5 +96,39 @@ describe('ComparePage', () => {
     const toeChart = [...root.querySelectorAll('rw-line-chart')].find((c) => c.textContent?.includes('Toe change against wheel travel'))!;
     const ticks = [...toeChart.querySelectorAll('.rw-axis-x text')].map((t) => Math.abs(Number(t.textContent!.replace('−', '-'))));
     expect(Math.max(...ticks)).toBeLessThan(1.5);
+  });
+
+  it('compares the designs ticked in the Material checkboxes, and keeps them in the address', async () => {
+    const harness = await RouterTestingHarness.create();
+    await harness.navigateByUrl('/teams/t-tal/vehicles/v-ember/compare', ComparePage);
+    await settle();
+    backend.expectOne(`${T}/vehicles/v-ember/axle-designs`).flush(
+      Object.entries(DESIGNS).map(([id, d]) => ({ id, axle: 'rear', name: d.name, revision: 3, status: 'draft', updatedAt: '' })),
+    );
+    await settle();
+    harness.detectChanges();
+    const root = harness.routeNativeElement as HTMLElement;
+    const compareButton = () => [...root.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Compare')!;
+    clickToggle(root, 'Rear baseline');
+    harness.detectChanges();
+    expect(root.querySelector('[role="status"]')!.textContent).toContain('Choose at least two designs.');
+    expect(compareButton().disabled).toBe(true);
+    clickToggle(root, 'Rear +6');
+    harness.detectChanges();
+    expect(compareButton().disabled).toBe(false);
+    compareButton().click();
+    for (const [id, d] of Object.entries(DESIGNS)) {
+      await vi.waitFor(() => backend.expectOne(`${T}/axle-designs/${id}`), { timeout: 20_000, interval: 20 }).then((r) =>
+        r.flush({ id, vehicleId: 'v-ember', axle: 'rear', name: d.name, revision: 3, status: 'draft', corner: d.corner, updatedAt: '', updatedByName: null }),
+      );
+    }
+    await vi.waitFor(
+      () => {
+        harness.detectChanges();
+        if (!root.querySelector('[data-testid="compare-figures"]')) throw new Error('not compared yet');
+      },
+      { timeout: 20_000, interval: 50 },
+    );
+    expect(TestBed.inject(Router).url).toBe('/teams/t-tal/vehicles/v-ember/compare?designs=d-rear,d-rear6');
   });
 });

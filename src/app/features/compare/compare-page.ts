@@ -3,6 +3,7 @@ import { rxResource } from '@angular/core/rxjs-interop';
 import { ActivatedRoute, Router, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
+import { MatCheckbox } from '@angular/material/checkbox';
 import { firstValueFrom } from 'rxjs';
 import { apiProblem } from '../../core/http/api-error';
 import { loadState } from '../../core/http/load-state';
@@ -48,7 +49,7 @@ const ROLL = { from: -3, to: 3, step: 0.25 };
  */
 @Component({
   selector: 'rw-compare-page',
-  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution],
+  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, MatCheckbox, LineChart, SafetyCaution],
   templateUrl: './compare-page.html',
   styleUrl: './compare-page.scss',
   providers: [KinematicsClient],
@@ -206,9 +207,5 @@ export class ComparePage {
     const v = row.values[i];
     if (i === 0 || first === null || first === undefined || v === null || v === undefined) return false;
     return formatNum(v, { kind: row.kind }, this.units()) !== formatNum(first, { kind: row.kind }, this.units());
-  }
-
-  protected checked(event: Event): boolean {
-    return (event.target as HTMLInputElement).checked;
   }
 }

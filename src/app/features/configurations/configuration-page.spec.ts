@@ -183,6 +183,8 @@ describe('ConfigurationPage', () => {
     expect(speed[2]).toBe('mph');
     expect(speed[1]).toBe(((RESULTS.balance.characteristicSpeedKph ?? Number.NaN) / 1.609344).toFixed(1));
     expect(root.querySelector('rw-line-chart .rw-axis-label-x')!.textContent!.trim()).toBe('Speed (mph)');
+    // The track profile it pins, in inch/pound too: smooth circuit travel ±25 mm is ±0.9843 in.
+    expect(root.querySelector('[data-testid="inputs"]')!.textContent).toContain('travel -0.9843 to 0.9843 in');
   });
 
   it('offers each role only its own review steps for the status', async () => {
@@ -369,16 +371,37 @@ describe('ConfigurationPage', () => {
           a: { configurationId: 'c1', revision: 1, refs: {} },
           b: { configurationId: 'c1', revision: 2, refs: {} },
           inputs: [{ path: 'rearCorner.points.tieRodInner[2]', a: 180, b: 186, change: 6 }],
-          results: [{ path: 'balance.understeerBudget.rollSteer', a: 0.1, b: 0.16, change: 0.06 }],
+          results: [
+            { path: 'balance.understeerBudget.rollSteer', a: 0.1, b: 0.16, change: 0.06 },
+            { path: 'balance.rollMomentBalance.relativeError', a: 1e-9, b: 2e-9, change: 1e-9 },
+            { path: 'balance.kinematicsLink.rear.kinematics.rollCentreHeightMm', a: 25.3823676069206, b: 24.466010853944123, change: -0.916356752976477 },
+            { path: 'bumpSteer.rear.bumpSteerDegPerM', a: 2.152274613638189, b: -13.082313992117802, change: -15.234588605755991 },
+          ],
         };
       },
     });
     harness.detectChanges();
     expect(url).toBe(`${TEAM}/configurations/compare?a=c1&b=c1&aRevision=1`);
     const grid = root.querySelector('[data-testid="comparison"]')!;
-    const [inputs, results] = [...grid.querySelectorAll('table')];
-    expect([...inputs!.querySelectorAll('tbody td, tbody th')].map((x) => x.textContent!.trim())).toEqual(['rearCorner.points.tieRodInner[2]', '180', '186', '6']);
-    expect(results!.querySelector('tbody th')!.textContent!.trim()).toBe('Understeer-gradient change from roll steer');
+    const rowsOf = (id: string) => [...grid.querySelectorAll(`[data-testid="${id}"] tbody tr`)].map((tr) => [...tr.children].map((x) => x.textContent!.trim()));
+    // Labelled, grouped by kind, rounded per quantity, with units: never a raw path.
+    expect(rowsOf('compare-inputs')).toEqual([['Rear corner'], ['Rear corner · tie rod inner · z', '180', '186', '+6', 'mm']]);
+    expect(rowsOf('compare-results')).toEqual([
+      ['Understeer budget'],
+      ['Understeer-gradient change from roll steer', '0.1', '0.16', '+0.06', 'deg/g'],
+      ['Roll'],
+      ['Roll moment balance, relative error', '1e-9', '2e-9', '+1e-9', ''],
+      ['Kinematics used by the balance'],
+      ['Roll centre height, rear, from the kinematics', '25.38', '24.47', '−0.9164', 'mm'],
+      ['Bump steer and camber over the profile'],
+      ['Bump steer, rear', '2.15', '−13.1', '−15.2', 'deg/m'],
+    ]);
+    expect(grid.textContent).not.toMatch(/[a-z]+\.[a-z]+[A-Z]|\[\d\]|relativeError/);
+    // The same comparison in inch/pound: lengths in inches, bump steer per inch (1 in = 25.4 mm exactly).
+    units.set('imperial');
+    harness.detectChanges();
+    expect(rowsOf('compare-inputs')[1]).toEqual(['Rear corner · tie rod inner · z', '7.087', '7.323', '+0.2362', 'in']);
+    expect(rowsOf('compare-results')[7]).toEqual(['Bump steer, rear', '0.0547', '−0.332', '−0.387', 'deg/in']);
   });
 
   it('archives (never deletes) and restores for those who manage the team’s designs', async () => {

@@ -1,14 +1,15 @@
 import { BumpCostView } from '../bump-cost';
 import type { BumpCost } from '../../../../shared/ride/cost';
 import { RigMeasurementsPanel } from '../rig/rig-measurements-panel';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked, viewChild } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { MatDialog } from '@angular/material/dialog';
 import { ReviewGateDialog, type ReviewGateDialogData } from './review-gate-dialog';
 import { LatestPreviewDialog, type LatestPreviewDialogData } from './latest-preview-dialog';
-import { firstValueFrom } from 'rxjs';
+import { catchError, firstValueFrom, forkJoin, from, of } from 'rxjs';
 import type { Caution } from '../../../../shared/cautions/cautions';
 import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import { apiProblem } from '../../core/http/api-error';
@@ -34,21 +35,20 @@ import {
   TransitionRow,
 } from './configurations-api';
 import { RefOption, ReviewComments } from './review-comments';
-import { ActionSpec, actionsFor, CHART_REFS, diffValue, type KeyFigure, keyFigures, pathLabel, problemText, STATUS_WORDS } from './review-words';
+import { ActionSpec, actionsFor, CHART_REFS, type DifferenceGroup, differenceGroups, inputWords, type KeyFigure, keyFigures, problemText, resultWords, STATUS_WORDS } from './review-words';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { displayDecimals, inDisplayUnits, type QuantityKind, unitLabel } from '../../core/format/quantities';
 import { StatusChip } from './status-chip';
 import { NumPipe } from '../../core/format/num-pipe';
-import { routeKey } from '../route-params';
+import { loadState } from '../../core/http/load-state';
+import { inputValue } from '../../core/forms/dom-events';
 import type { AxleName } from '../../../../shared/schema/axle';
 import { MatCheckbox } from '@angular/material/checkbox';
 import { PageSection, SectionNav } from '../../core/layout/section-nav';
 import { MatFormField, MatLabel } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
-
-type Load<T> = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; value: T };
 
 type AxleCautions =
   | { axle: AxleName; ok: true; list: readonly Caution[]; bumpCost?: BumpCost | null; bumpCostUnavailable?: string | null }
@@ -106,15 +106,11 @@ export class ConfigurationPage {
   readonly teamId = input.required<string>();
   readonly configurationId = input.required<string>();
   protected readonly timeZone = browserTimeZone();
-  protected readonly diffValue = diffValue;
-  protected readonly pathLabel = pathLabel;
   constructor() {
-    // Loads on arrival and again when the router reuses this page for other route parameters.
+    // The caller's permissions in the team, again when the router reuses this page for another team.
     effect(() => {
-      routeKey(this.teamId(), this.configurationId());
-      untracked(() => {
-        void this.loadAll();
-      });
+      const teamId = this.teamId();
+      untracked(() => void firstValueFrom(this.access.load(teamId)).catch(() => null));
     });
   }
 
@@ -124,20 +120,78 @@ export class ConfigurationPage {
   protected readonly profiles = Object.values(trackProfiles);
   protected readonly statusWords = STATUS_WORDS;
 
-  protected readonly config = signal<Load<Configuration>>({ kind: 'loading' });
-  protected readonly results = signal<Load<ResultsAnswer>>({ kind: 'loading' });
-  protected readonly cautions = signal<Load<readonly AxleCautions[]>>({ kind: 'loading' });
-  protected readonly history = signal<readonly TransitionRow[]>([]);
-  protected readonly revisions = signal<readonly ConfigurationRevision[]>([]);
-  protected readonly approvals = signal<readonly ApprovalSummary[]>([]);
-  protected readonly approval = signal<Load<ApprovalDetail> | null>(null);
-  protected readonly others = signal<readonly Configuration[]>([]);
-  protected readonly designs = signal<readonly AxleDesignSummary[]>([]);
-
+  /** The configuration; a review step, a new revision or archiving puts the answer in its place. */
+  private readonly configResource = rxResource({
+    params: () => ({ teamId: this.teamId(), configurationId: this.configurationId() }),
+    stream: ({ params: p }) => this.api.get(p.teamId, p.configurationId),
+  });
+  protected readonly config = loadState(this.configResource);
   protected readonly current = computed(() => {
     const c = this.config();
-    return c.kind === 'ready' ? c.value : null;
+    return c.status === 'ready' ? c.value : null;
   });
+  /** The revision the results are of: they load again only when it changes (not on a review step). */
+  private readonly revisionShown = computed(
+    () => {
+      const c = this.current();
+      return c ? { teamId: this.teamId(), configuration: c } : undefined;
+    },
+    { equal: (a, b) => a?.teamId === b?.teamId && a?.configuration.id === b?.configuration.id && a?.configuration.revision === b?.configuration.revision },
+  );
+  /** What the engines compute for the revision, on the server. */
+  private readonly resultsResource = rxResource({
+    params: () => this.revisionShown(),
+    stream: ({ params: p }) => this.api.results(p.teamId, p.configuration.id),
+  });
+  protected readonly results = loadState<ResultsAnswer>(this.resultsResource);
+  /** The cautions of both corners on the revision's track profile, measured in the browser's kinematics worker. */
+  private readonly cautionsResource = rxResource({
+    params: () => this.revisionShown(),
+    stream: ({ params: p }) => from(this.measureCautions(p.teamId, p.configuration)),
+  });
+  protected readonly cautions = loadState<readonly AxleCautions[]>(this.cautionsResource);
+  /** History, revisions, approvals, the team's other configurations (for compare) and the vehicle's designs; again after each review step or revision. */
+  private readonly stepShown = computed(
+    () => {
+      const c = this.current();
+      return c ? { teamId: this.teamId(), configuration: c } : undefined;
+    },
+    {
+      equal: (a, b) =>
+        a?.teamId === b?.teamId && a?.configuration.id === b?.configuration.id && a?.configuration.revision === b?.configuration.revision && a?.configuration.status === b?.configuration.status,
+    },
+  );
+  private readonly sideResource = rxResource({
+    params: () => this.stepShown(),
+    stream: ({ params: { teamId, configuration: c } }) =>
+      forkJoin({
+        history: this.api.history(teamId, c.id).pipe(catchError(() => of([] as TransitionRow[]))),
+        revisions: this.api.revisions(teamId, c.id).pipe(catchError(() => of([] as ConfigurationRevision[]))),
+        approvals: this.api.approvals(teamId, c.id).pipe(catchError(() => of([] as ApprovalSummary[]))),
+        others: this.api.list(teamId).pipe(catchError(() => of([] as Configuration[]))),
+        designs: this.features.axleDesigns(teamId, c.vehicle.id).pipe(catchError(() => of([] as AxleDesignSummary[]))),
+      }),
+  });
+  private readonly side = computed(() => (this.sideResource.hasValue() ? this.sideResource.value() : null));
+  protected readonly history = computed<readonly TransitionRow[]>(() => this.side()?.history ?? []);
+  protected readonly revisions = computed<readonly ConfigurationRevision[]>(() => this.side()?.revisions ?? []);
+  protected readonly approvals = computed<readonly ApprovalSummary[]>(() => this.side()?.approvals ?? []);
+  protected readonly others = computed<readonly Configuration[]>(() => {
+    const c = this.current();
+    const others = this.side()?.others ?? [];
+    return !c || others.some((o) => o.id === c.id) ? others : [c, ...others];
+  });
+  protected readonly designs = computed<readonly AxleDesignSummary[]>(() => this.side()?.designs ?? []);
+  /** The approval shown in the snapshot section: the latest unless another is chosen. */
+  protected readonly approvalId = linkedSignal<string | null>(() => this.approvals()[0]?.id ?? null);
+  private readonly approvalResource = rxResource({
+    params: () => {
+      const id = this.approvalId();
+      return id ? { teamId: this.teamId(), configurationId: this.configurationId(), id } : undefined;
+    },
+    stream: ({ params: p }) => this.api.approval(p.teamId, p.configurationId, p.id),
+  });
+  protected readonly approval = loadState<ApprovalDetail>(this.approvalResource);
   protected readonly profile = computed(() => {
     const c = this.current();
     return c ? trackProfiles[c.trackProfile] : null;
@@ -161,32 +215,33 @@ export class ConfigurationPage {
   /** The user's unit system (account setting): key figures, charts and the snapshot follow it. */
   protected readonly units = inject(DISPLAY_UNITS);
   /** A key figure's unit and decimals in the user's system (the value converts through the num pipe's kind). */
-  private inUnits<F extends KeyFigure>(f: F): F {
+  private inUnits(f: KeyFigure): KeyFigure & { unit: string } {
     return { ...f, unit: unitLabel(f.kind, this.units()), digits: displayDecimals(f.kind, this.units(), f.digits) };
   }
   protected readonly figures = computed(() => {
     const r = this.results();
-    return r.kind === 'ready' ? keyFigures(r.value.results).map((f) => this.inUnits(f)) : [];
+    return r.status === 'ready' ? keyFigures(r.value.results).map((f) => this.inUnits(f)) : [];
   });
   protected readonly budgetGroups = computed<BarGroup[]>(() => {
     const r = this.results();
-    if (r.kind !== 'ready') return [];
+    if (r.status !== 'ready') return [];
     const b = r.value.results.balance.understeerBudget;
     return BUDGET_TERMS.map(([key, label]) => ({ label, values: [b[key]] }));
   });
   protected readonly yawGain = computed<LineSeries[]>(() => {
     const r = this.results();
-    if (r.kind !== 'ready') return [];
+    if (r.status !== 'ready') return [];
     const rows = r.value.results.balance.gains.rows;
     const units = this.units();
     return [{ name: 'Yaw-rate gain', points: rows.filter((g) => g.yawRateGainPerS !== null).map((g) => ({ x: inDisplayUnits(g.speedKph, 'speed', units), y: g.yawRateGainPerS! })) }];
   });
   protected readonly speedUnit = computed(() => unitLabel('speed', this.units()));
+  protected readonly lengthUnit = computed(() => unitLabel('length', this.units()));
   protected readonly refOptions = computed<RefOption[]>(() => {
     const out: RefOption[] = [{ ref: 'budget', label: 'Understeer budget' }];
     for (const [name, label] of Object.entries(CHART_REFS)) out.push({ ref: `chart:${name}`, label });
     const c = this.cautions();
-    if (c.kind === 'ready') {
+    if (c.status === 'ready') {
       const seen = new Set<string>();
       for (const axle of c.value) {
         if (!axle.ok) continue;
@@ -206,7 +261,7 @@ export class ConfigurationPage {
   // ---- approval snapshot ----
   protected readonly frozenFigures = computed<FrozenFigure[]>(() => {
     const a = this.approval();
-    if (!a || a.kind !== 'ready') return [];
+    if (a.status !== 'ready') return [];
     const diffs = 'differences' in a.value.recompute ? a.value.recompute.differences : [];
     return keyFigures(a.value.results).map((raw) => {
       const f = this.inUnits(raw);
@@ -215,6 +270,13 @@ export class ConfigurationPage {
       const change = d && typeof d.change === 'number' ? inDisplayUnits(d.change, f.kind, this.units()) : now === null ? null : 0;
       return { path: f.path, label: f.label, unit: f.unit, kind: f.kind, digits: f.digits, frozen: f.value, now, change };
     });
+  });
+
+  /** The results a recompute of the frozen inputs gives differently, labelled, in the user's units, grouped by kind. */
+  protected readonly recomputeGroups = computed<DifferenceGroup[]>(() => {
+    const a = this.approval();
+    if (a.status !== 'ready' || 'error' in a.value.recompute) return [];
+    return differenceGroups(a.value.recompute.differences, resultWords, this.units());
   });
 
   // ---- revise ----
@@ -231,88 +293,66 @@ export class ConfigurationPage {
 
   // ---- compare ----
   protected readonly compareARevision = signal('');
-  protected readonly compareB = signal('');
+  protected readonly compareB = linkedSignal(() => this.configurationId());
   protected readonly compareBRevision = signal('');
-  protected readonly comparison = signal<Load<CompareAnswer> | null>(null);
+  /** The comparison asked for with "Compare" (none until then). */
+  private readonly compareRequest = signal<{ a: { id: string; revision?: number }; b: { id: string; revision?: number } } | undefined>(undefined);
+  private readonly comparisonResource = rxResource({
+    params: () => {
+      const r = this.compareRequest();
+      return r ? { teamId: this.teamId(), ...r } : undefined;
+    },
+    stream: ({ params: p }) => this.api.compare(p.teamId, p.a, p.b),
+  });
+  protected readonly comparison = loadState<CompareAnswer>(this.comparisonResource);
+  protected readonly compared = computed(() => this.compareRequest() !== undefined);
   protected readonly compareChoices = computed(() => this.others());
+  /** The comparison's changed inputs and results, labelled, in the user's units, grouped by kind. */
+  protected readonly compareTables = computed(() => {
+    const k = this.comparison();
+    if (k.status !== 'ready') return [];
+    const units = this.units();
+    return [
+      { caption: 'Changed inputs', head: 'Input', testId: 'compare-inputs', count: k.value.inputs.length, none: 'No input differs.', groups: differenceGroups(k.value.inputs, inputWords, units) },
+      { caption: 'Changed results', head: 'Result', testId: 'compare-results', count: k.value.results.length, none: 'No result differs.', groups: differenceGroups(k.value.results, resultWords, units) },
+    ];
+  });
 
-  protected async loadAll(): Promise<void> {
-    this.config.set({ kind: 'loading' });
-    try {
-      const [c] = await Promise.all([firstValueFrom(this.api.get(this.teamId(), this.configurationId())), firstValueFrom(this.access.load(this.teamId())).catch(() => null)]);
-      this.config.set({ kind: 'ready', value: c });
-      this.compareB.set(c.id);
-      void this.loadResults(c);
-      void this.loadSide(c);
-    } catch (error) {
-      this.config.set({ kind: 'error', message: apiProblem(error).message });
-    }
+  protected loadAll(): void {
+    this.configResource.reload();
   }
 
-  /** History, revisions, approvals and the team's other configurations (for compare). */
-  private async loadSide(c: Configuration): Promise<void> {
-    const [history, revisions, approvals, others, designs] = await Promise.all([
-      firstValueFrom(this.api.history(this.teamId(), c.id)).catch(() => []),
-      firstValueFrom(this.api.revisions(this.teamId(), c.id)).catch(() => []),
-      firstValueFrom(this.api.approvals(this.teamId(), c.id)).catch(() => []),
-      firstValueFrom(this.api.list(this.teamId())).catch(() => []),
-      firstValueFrom(this.features.axleDesigns(this.teamId(), c.vehicle.id)).catch(() => []),
+  /** The cautions of both corners on the configuration's track profile; a corner that cannot be measured says why in its place. */
+  private async measureCautions(teamId: string, c: Configuration): Promise<readonly AxleCautions[]> {
+    const [vehicle, front, rear] = await Promise.all([
+      firstValueFrom(this.api.vehicleRevision(teamId, c.vehicle.id, c.vehicle.revision)),
+      firstValueFrom(this.api.designRevision(teamId, c.front.designId, c.front.revision)),
+      firstValueFrom(this.api.designRevision(teamId, c.rear.designId, c.rear.revision)),
     ]);
-    this.history.set(history);
-    this.revisions.set(revisions);
-    this.approvals.set(approvals);
-    this.others.set(others.some((o) => o.id === c.id) ? others : [c, ...others]);
-    this.designs.set(designs);
-    if (approvals[0]) void this.showApproval(approvals[0].id);
-    else this.approval.set(null);
-  }
-
-  private async loadResults(c: Configuration): Promise<void> {
-    this.results.set({ kind: 'loading' });
-    this.cautions.set({ kind: 'loading' });
-    try {
-      this.results.set({ kind: 'ready', value: await firstValueFrom(this.api.results(this.teamId(), c.id)) });
-    } catch (error) {
-      this.results.set({ kind: 'error', message: problemText(error) });
-    }
-    await this.loadCautions(c);
-  }
-
-  /** The cautions of both corners on the configuration's track profile, measured in the browser's kinematics worker. */
-  private async loadCautions(c: Configuration): Promise<void> {
-    try {
-      const [vehicle, front, rear] = await Promise.all([
-        firstValueFrom(this.api.vehicleRevision(this.teamId(), c.vehicle.id, c.vehicle.revision)),
-        firstValueFrom(this.api.designRevision(this.teamId(), c.front.designId, c.front.revision)),
-        firstValueFrom(this.api.designRevision(this.teamId(), c.rear.designId, c.rear.revision)),
-      ]);
-      const p = trackProfiles[c.trackProfile];
-      const [from, to] = p.travelMm;
-      const out: AxleCautions[] = [];
-      for (const [axle, corner] of [['front', front.corner], ['rear', rear.corner]] as const) {
-        try {
-          const a = await this.engine.analyse({
-            corner,
-            travel: { from, to, step: (to - from) / 20 },
-            rackMm: [0],
-            roll: { from: -2, to: 2, step: 1 },
-            pose: { travelMm: 0, rackMm: 0 },
-            cautions: { axle, trackProfile: { id: c.trackProfile }, vehicleData: vehicle.data },
-          });
-          const k = a.cautions;
-          out.push(
-            k && k.ok
-              ? { axle, ok: true, list: k.list, bumpCost: k.bumpCost, bumpCostUnavailable: k.bumpCostUnavailable }
-              : { axle, ok: false, message: k && !k.ok ? k.failure.message : 'No cautions were measured.' },
-          );
-        } catch (error) {
-          out.push({ axle, ok: false, message: error instanceof AnalysisError ? error.failure.message : String(error) });
-        }
+    const p = trackProfiles[c.trackProfile];
+    const [fromMm, toMm] = p.travelMm;
+    const out: AxleCautions[] = [];
+    for (const [axle, corner] of [['front', front.corner], ['rear', rear.corner]] as const) {
+      try {
+        const a = await this.engine.analyse({
+          corner,
+          travel: { from: fromMm, to: toMm, step: (toMm - fromMm) / 20 },
+          rackMm: [0],
+          roll: { from: -2, to: 2, step: 1 },
+          pose: { travelMm: 0, rackMm: 0 },
+          cautions: { axle, trackProfile: { id: c.trackProfile }, vehicleData: vehicle.data },
+        });
+        const k = a.cautions;
+        out.push(
+          k && k.ok
+            ? { axle, ok: true, list: k.list, bumpCost: k.bumpCost, bumpCostUnavailable: k.bumpCostUnavailable }
+            : { axle, ok: false, message: k && !k.ok ? k.failure.message : 'No cautions were measured.' },
+        );
+      } catch (error) {
+        out.push({ axle, ok: false, message: error instanceof AnalysisError ? error.failure.message : String(error) });
       }
-      this.cautions.set({ kind: 'ready', value: out });
-    } catch (error) {
-      this.cautions.set({ kind: 'error', message: problemText(error) });
     }
+    return out;
   }
 
   /** "On this page": the page's sections, in order (the approval snapshot once there is one). */
@@ -327,17 +367,8 @@ export class ConfigurationPage {
     { id: 'rw-history-title', label: 'History' },
     { id: 'rw-compare-title', label: 'Compare' },
   ]);
-  /** The approval shown in the snapshot section. */
-  protected readonly approvalId = signal<string | null>(null);
-
-  protected async showApproval(id: string): Promise<void> {
+  protected showApproval(id: string): void {
     this.approvalId.set(id);
-    this.approval.set({ kind: 'loading' });
-    try {
-      this.approval.set({ kind: 'ready', value: await firstValueFrom(this.api.approval(this.teamId(), this.configurationId(), id)) });
-    } catch (error) {
-      this.approval.set({ kind: 'error', message: problemText(error) });
-    }
   }
 
   protected async act(a: ActionSpec): Promise<void> {
@@ -355,14 +386,13 @@ export class ConfigurationPage {
       const gate = await this.gateFor(a, c);
       if (gate === null) return;
       const after = await firstValueFrom(this.api.act(this.teamId(), c.id, a.action, c.revision, message || undefined, gate));
-      this.config.set({ kind: 'ready', value: after });
+      this.configResource.set(after);
       this.stepMessage.set('');
       this.stepNotice.set(`${a.label}: done. The configuration is now ${STATUS_WORDS[after.status].label.toLowerCase()}.`);
-      await this.loadSide(after);
     } catch (error) {
       const p = apiProblem(error);
       this.stepError.set(p.code === 'own_revision' ? `${p.message}.` : problemText(error));
-      if (p.code === 'stale_revision' || p.code === 'invalid_transition') void this.reloadConfig();
+      if (p.code === 'stale_revision' || p.code === 'invalid_transition') this.configResource.reload();
     } finally {
       this.stepBusy.set(false);
     }
@@ -382,15 +412,6 @@ export class ConfigurationPage {
     const data: ReviewGateDialogData = { mode: a.action === 'approve' ? 'sign-off' : 'validate', configurationName: c.name, gates };
     const body = await firstValueFrom(this.dialog.open<ReviewGateDialog, ReviewGateDialogData, GateBody>(ReviewGateDialog, { data, width: '40rem', maxWidth: '95vw' }).afterClosed());
     return body ?? null;
-  }
-
-  private async reloadConfig(): Promise<void> {
-    try {
-      const c = await firstValueFrom(this.api.get(this.teamId(), this.configurationId()));
-      this.config.set({ kind: 'ready', value: c });
-    } catch {
-      /* the error shown stays */
-    }
   }
 
   /** "Comment" beside a result: the new comment points at it, and the keyboard focus moves to the comment box. */
@@ -446,14 +467,12 @@ export class ConfigurationPage {
         if (change.rearDesignId === preview.latest.rearDesignId) change.rearDesignRevision = preview.latest.rearDesignRevision;
       }
       const after = await firstValueFrom(this.api.revise(this.teamId(), c.id, change));
-      this.config.set({ kind: 'ready', value: after });
+      this.configResource.set(after);
       this.revising.set(false);
       this.stepNotice.set(`Saved as revision ${after.revision}; the configuration is a draft again.`);
-      void this.loadResults(after);
-      await this.loadSide(after);
     } catch (error) {
       this.reviseError.set(problemText(error));
-      if (apiProblem(error).code === 'stale_revision') void this.reloadConfig();
+      if (apiProblem(error).code === 'stale_revision') this.configResource.reload();
     } finally {
       this.stepBusy.set(false);
     }
@@ -467,7 +486,7 @@ export class ConfigurationPage {
     this.stepError.set(null);
     try {
       const after = await firstValueFrom(this.api.setArchived(this.teamId(), c.id, archived));
-      this.config.set({ kind: 'ready', value: after });
+      this.configResource.set(after);
       this.stepNotice.set(archived ? 'Archived: hidden from the list (shown with “Show archived”), kept with its history and approvals.' : 'Restored to the list.');
     } catch (error) {
       this.stepError.set(problemText(error));
@@ -476,23 +495,14 @@ export class ConfigurationPage {
     }
   }
 
-  protected async compare(): Promise<void> {
+  protected compare(): void {
     const c = this.current();
     if (!c) return;
     const b = this.compareB() || c.id;
-    this.comparison.set({ kind: 'loading' });
-    try {
-      const value = await firstValueFrom(
-        this.api.compare(
-          this.teamId(),
-          { id: c.id, ...(this.compareARevision() ? { revision: Number(this.compareARevision()) } : {}) },
-          { id: b, ...(this.compareBRevision() ? { revision: Number(this.compareBRevision()) } : {}) },
-        ),
-      );
-      this.comparison.set({ kind: 'ready', value });
-    } catch (error) {
-      this.comparison.set({ kind: 'error', message: problemText(error) });
-    }
+    this.compareRequest.set({
+      a: { id: c.id, ...(this.compareARevision() ? { revision: Number(this.compareARevision()) } : {}) },
+      b: { id: b, ...(this.compareBRevision() ? { revision: Number(this.compareBRevision()) } : {}) },
+    });
   }
 
   /** Compares one of this configuration's revisions with its current one. */
@@ -502,7 +512,7 @@ export class ConfigurationPage {
     this.compareARevision.set(String(revision));
     this.compareB.set(c.id);
     this.compareBRevision.set('');
-    void this.compare();
+    this.compare();
   }
 
   protected configName(id: string): string {
@@ -517,8 +527,6 @@ export class ConfigurationPage {
     return STATUS_WORDS[s as keyof typeof STATUS_WORDS]?.label ?? s;
   }
 
-  protected value(event: Event): string {
-    return (event.target as HTMLInputElement | HTMLSelectElement | HTMLTextAreaElement).value;
-  }
+  protected readonly value = inputValue;
 
 }

@@ -8,6 +8,7 @@ import { ConfigurationsPage } from './configurations-page';
 import type { Configuration } from './configurations-api';
 import { formatLocalTime } from '../../core/time/local-time';
 import { refuse, serve, settle } from './spec-backend';
+import { chooseOption, clickToggle, matSelect, optionTexts, typeInto } from '../../../testing/material';
 
 const TEAM = '/api/teams/t-tal';
 
@@ -128,19 +129,13 @@ describe('ConfigurationsPage', () => {
     });
     harness.detectChanges();
     const form = root.querySelector('form')!;
-    const select = (name: string, v: string) => {
-      const el = form.querySelector(`select[name="${name}"]`) as HTMLSelectElement;
-      el.value = v;
-      el.dispatchEvent(new Event('change'));
-    };
+    const select = (name: string, label: string | RegExp) => chooseOption(matSelect(form, `mat-select[name="${name}"]`), label);
     // Without a name nothing is sent.
     (form.querySelector('button[type="submit"]') as HTMLButtonElement).click();
     harness.detectChanges();
     expect(form.querySelector('[role="alert"]')!.textContent).toContain('Choose a name');
-    const name = form.querySelector('input[name="name"]') as HTMLInputElement;
-    name.value = 'Ember +6';
-    name.dispatchEvent(new Event('input'));
-    select('rear', 'd-r6');
+    typeInto(form, 'input[name="name"]', 'Ember +6');
+    select('rear', 'Rear, toe link inner +6 mm');
     await serve(backend, {
       [`GET ${TEAM}/axle-designs/d-r6/revisions`]: [
         { revision: 2, message: 'moved', authorName: 'Dana', createdAt: '' },
@@ -148,8 +143,9 @@ describe('ConfigurationsPage', () => {
       ],
     });
     harness.detectChanges();
+    expect(optionTexts(matSelect(form, 'mat-select[name="rearRevision"]'))).toEqual(['Current', '2 · moved', '1']);
     select('rearRevision', '1');
-    select('trackProfile', 'bumpy-circuit');
+    select('trackProfile', /^Bumpy circuit/);
     harness.detectChanges();
     (form.querySelector('button[type="submit"]') as HTMLButtonElement).click();
     let sent: unknown;
@@ -177,9 +173,7 @@ describe('ConfigurationsPage', () => {
       [`GET ${TEAM}/axle-designs/d-r/revisions`]: [],
     });
     harness.detectChanges();
-    const name = root.querySelector('input[name="name"]') as HTMLInputElement;
-    name.value = 'No data';
-    name.dispatchEvent(new Event('input'));
+    typeInto(root, 'input[name="name"]', 'No data');
     (root.querySelector('form button[type="submit"]') as HTMLButtonElement).click();
     await serve(backend, {
       [`POST ${TEAM}/configurations`]: refuse(409, 'incomplete_configuration', 'Vehicle revision 1 has no vehicle data yet; enter the balance model data first'),
@@ -188,5 +182,26 @@ describe('ConfigurationsPage', () => {
     expect(root.querySelector('form [role="alert"]')!.textContent).toContain('has no vehicle data yet');
     expect((root.querySelector('input[name="name"]') as HTMLInputElement).value).toBe('No data');
     expect(TestBed.inject(Router).url).toBe('/teams/t-tal/configurations?vehicle=v-ember');
+  });
+
+  it('“Show archived” (a Material checkbox) asks for the archived ones too, and the vehicle filter narrows the list', async () => {
+    const { harness, root } = await open('/teams/t-tal/configurations', ['team:read']);
+    clickToggle(root, 'Show archived');
+    let asked: string | null = null;
+    await serve(backend, {
+      [`GET ${TEAM}/configurations`]: (req: { request: { params: { get(k: string): string | null } } }) => {
+        asked = req.request.params.get('archived');
+        return [...LIST, config({ id: 'c3', name: 'Old Ember', archived: true })];
+      },
+    });
+    harness.detectChanges();
+    expect(asked).toBe('true');
+    expect(root.querySelectorAll('tbody tr')).toHaveLength(3);
+    expect(root.querySelector('tbody')!.textContent).toContain('Old Ember (archived)');
+    chooseOption(matSelect(root, 'mat-select[name="filter"]'), 'TUR-25 Cinder');
+    await settle();
+    harness.detectChanges();
+    expect([...root.querySelectorAll('tbody tr th')].map((th) => th.textContent!.trim())).toEqual(['Cinder carry-over']);
+    expect(TestBed.inject(Router).url).toBe('/teams/t-tal/configurations?vehicle=v-cinder');
   });
 });

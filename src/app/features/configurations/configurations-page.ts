@@ -1,24 +1,29 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { ActivatedRoute, Router, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
-import { firstValueFrom } from 'rxjs';
+import { MatCheckbox } from '@angular/material/checkbox';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { MatOption, MatSelect } from '@angular/material/select';
+import { catchError, firstValueFrom, of } from 'rxjs';
 import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import type { VehicleSummary } from '../../core/api-types';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
 import { VehiclesApi } from '../../teams/vehicles-api';
 import { AxleDesignSummary, FeaturesApi, RevisionRow } from '../features-api';
-import { Configuration, ConfigurationsApi, NewConfiguration } from './configurations-api';
+import { ConfigurationsApi, NewConfiguration } from './configurations-api';
 import { problemText } from './review-words';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { StatusChip } from './status-chip';
-import { optionValue } from '../../core/forms/dom-events';
-import { routeKey } from '../route-params';
+import { inputValue } from '../../core/forms/dom-events';
+import { loadState } from '../../core/http/load-state';
+import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
+import { unitLabel } from '../../core/format/quantities';
 import type { AxleName } from '../../../../shared/schema/axle';
-
-type ListState = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; list: readonly Configuration[] };
 
 /**
  * `/teams/:teamId/configurations[?vehicle=<id>]`: the team's configurations
@@ -27,13 +32,13 @@ type ListState = { kind: 'loading' } | { kind: 'error'; message: string } | { ki
  */
 @Component({
   selector: 'rw-configurations-page',
-  imports: [RouterLink, MatButton, MatIcon, MatProgressBar, StatusChip],
+  imports: [NumPipe, RouterLink, MatButton, MatIcon, MatProgressBar, MatFormField, MatLabel, MatInput, MatSelect, MatOption, MatCheckbox, StatusChip],
   templateUrl: './configurations-page.html',
   styleUrl: './configurations-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class ConfigurationsPage {
-  protected readonly optionValue = optionValue;
+  protected readonly value = inputValue;
   private readonly route = inject(ActivatedRoute);
   private readonly router = inject(Router);
   private readonly api = inject(ConfigurationsApi);
@@ -47,19 +52,28 @@ export class ConfigurationsPage {
   readonly vehicle = input<string | undefined>(undefined);
   protected readonly vehicleFilter = linkedSignal(() => this.vehicle() ?? '');
   protected readonly showArchived = signal(false);
-  protected readonly state = signal<ListState>({ kind: 'loading' });
-  protected readonly vehicles = signal<readonly VehicleSummary[]>([]);
+  /** The team's configurations (archived ones too when asked). */
+  private readonly list = rxResource({
+    params: () => ({ teamId: this.teamId(), archived: this.showArchived() }),
+    stream: ({ params: p }) => this.api.list(p.teamId, p.archived),
+  });
+  protected readonly state = loadState(this.list);
+  /** The team's vehicles (the filter and the new configuration's choice); none when they cannot be read. */
+  private readonly vehicleList = rxResource({
+    params: () => this.teamId(),
+    stream: ({ params: teamId }) => this.vehiclesApi.list(teamId, false).pipe(catchError(() => of([] as VehicleSummary[]))),
+  });
+  protected readonly vehicles = computed<readonly VehicleSummary[]>(() => this.vehicleList.value() ?? []);
+  private readonly units = inject(DISPLAY_UNITS);
+  protected readonly lengthUnit = computed(() => unitLabel('length', this.units()));
   protected readonly canCreate = this.access.permission('vehicle:manage');
   protected readonly timeZone = browserTimeZone();
   protected readonly profiles = Object.values(trackProfiles);
   constructor() {
-    // Loads on arrival and again when the router reuses this page for other route parameters.
+    // The caller's permissions in the team, again when the router reuses this page for another team.
     effect(() => {
-      routeKey(this.teamId());
-      untracked(() => {
-        void firstValueFrom(this.access.load(this.teamId())).catch(() => undefined);
-        void this.load();
-      });
+      const teamId = this.teamId();
+      untracked(() => void firstValueFrom(this.access.load(teamId)).catch(() => undefined));
     });
   }
 
@@ -69,9 +83,9 @@ export class ConfigurationsPage {
 
   protected readonly shown = computed(() => {
     const s = this.state();
-    if (s.kind !== 'ready') return [];
+    if (s.status !== 'ready') return [];
     const v = this.vehicleFilter();
-    return v ? s.list.filter((c) => c.vehicle.id === v) : s.list;
+    return v ? s.value.filter((c) => c.vehicle.id === v) : s.value;
   });
   protected readonly filterName = computed(() => this.vehicles().find((v) => v.id === this.vehicleFilter())?.name ?? null);
 
@@ -95,23 +109,12 @@ export class ConfigurationsPage {
   protected readonly fronts = computed(() => this.formDesigns().filter((d) => d.axle === 'front'));
   protected readonly rears = computed(() => this.formDesigns().filter((d) => d.axle === 'rear'));
 
-  protected async load(): Promise<void> {
-    this.state.set({ kind: 'loading' });
-    try {
-      const [list, vehicles] = await Promise.all([
-        firstValueFrom(this.api.list(this.teamId(), this.showArchived())),
-        firstValueFrom(this.vehiclesApi.list(this.teamId(), false)).catch(() => [] as VehicleSummary[]),
-      ]);
-      this.vehicles.set(vehicles);
-      this.state.set({ kind: 'ready', list });
-    } catch (error) {
-      this.state.set({ kind: 'error', message: apiProblem(error).message });
-    }
+  protected load(): void {
+    this.list.reload();
   }
 
-  protected toggleArchived(event: Event): void {
-    this.showArchived.set((event.target as HTMLInputElement).checked);
-    void this.load();
+  protected toggleArchived(checked: boolean): void {
+    this.showArchived.set(checked);
   }
 
   protected chooseFilter(id: string): void {
@@ -195,10 +198,6 @@ export class ConfigurationsPage {
     } finally {
       this.saving.set(false);
     }
-  }
-
-  protected value(event: Event): string {
-    return (event.target as HTMLInputElement | HTMLSelectElement | HTMLTextAreaElement).value;
   }
 
   protected profileLabel(id: string): string {

@@ -1,8 +1,9 @@
-import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
-import { pathWords } from '../../../../shared/io/document-words';
-import type { Difference, LatestPreviewAnswer } from './configurations-api';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import type { LatestPreviewAnswer } from './configurations-api';
+import { differenceGroups, inputWords, resultWords } from './review-words';
 
 export interface LatestPreviewDialogData {
   readonly configurationName: string;
@@ -11,35 +12,10 @@ export interface LatestPreviewDialogData {
 
 const REF_WORDS = { vehicleRevision: 'Vehicle', frontDesignRevision: 'Front axle design', rearDesignRevision: 'Rear axle design' } as const;
 
-interface Row {
-  readonly path: string;
-  readonly label: string;
-  readonly unit: string;
-  readonly from: string;
-  readonly to: string;
-  readonly change: string;
-}
-
-/** A value for the old → new table: numbers to six significant figures with a true minus, other values as text. */
-function show(v: unknown): string {
-  if (typeof v === 'number') return Number.isFinite(v) ? String(Number(v.toPrecision(6))).replace('-', '−') : '–';
-  if (v === undefined) return '(none)';
-  if (v === null) return '(empty)';
-  return typeof v === 'string' ? v : JSON.stringify(v);
-}
-
-function rows(list: readonly Difference[]): Row[] {
-  return list.map((d) => {
-    const w = pathWords(d.path);
-    const change = typeof d.change === 'number' ? `${d.change > 0 ? '+' : ''}${show(d.change)}` : '';
-    return { path: d.path, label: w.label, unit: w.unit ?? '', from: show(d.a), to: show(d.b), change };
-  });
-}
-
 /**
  * "Use the latest revisions", before anything is saved: which revisions move,
- * each changed input and each changed key result, old → new with its unit,
- * computed by the server's engines. Closes with true when the user confirms.
+ * each changed input and each changed result, old → new, labelled, rounded
+ * and in the user's units, grouped by kind, computed by the server's engines. Closes with true when the user confirms.
  */
 @Component({
   selector: 'rw-latest-preview-dialog',
@@ -53,22 +29,20 @@ function rows(list: readonly Difference[]): Row[] {
         <ul class="rw-preview-refs" data-testid="changed-refs">
           @for (r of data.preview.changedRefs; track r.ref) { <li>{{ refWords[r.ref] }}: revision {{ r.from }} → {{ r.to }}</li> }
         </ul>
-        <table class="rw-preview-table" data-testid="changed-inputs">
-          <caption>Changed inputs ({{ inputs.length }})</caption>
-          <thead><tr><th scope="col">Input</th><th scope="col">Now</th><th scope="col">Latest</th><th scope="col">Change</th><th scope="col">Unit</th></tr></thead>
-          <tbody>
-            @for (r of inputs; track r.path) { <tr><th scope="row">{{ r.label }}</th><td>{{ r.from }}</td><td>{{ r.to }}</td><td>{{ r.change }}</td><td>{{ r.unit }}</td></tr> }
-            @empty { <tr><td colspan="5">No input changes (only the revision numbers move).</td></tr> }
-          </tbody>
-        </table>
-        <table class="rw-preview-table" data-testid="changed-results">
-          <caption>Changed key results ({{ results.length }}, engine {{ data.preview.engineVersion }})</caption>
-          <thead><tr><th scope="col">Result</th><th scope="col">Now</th><th scope="col">Latest</th><th scope="col">Change</th><th scope="col">Unit</th></tr></thead>
-          <tbody>
-            @for (r of results; track r.path) { <tr><th scope="row">{{ r.label }}</th><td>{{ r.from }}</td><td>{{ r.to }}</td><td>{{ r.change }}</td><td>{{ r.unit }}</td></tr> }
-            @empty { <tr><td colspan="5">No key result changes.</td></tr> }
-          </tbody>
-        </table>
+        @for (t of tables(); track t.testId) {
+          <table class="rw-preview-table" [attr.data-testid]="t.testId">
+            <caption>{{ t.caption }}</caption>
+            <thead><tr><th scope="col">{{ t.head }}</th><th scope="col">Now</th><th scope="col">Latest</th><th scope="col">Change</th><th scope="col">Unit</th></tr></thead>
+            @for (g of t.groups; track g.group) {
+              <tbody>
+                <tr class="rw-preview-group"><th scope="colgroup" colspan="5">{{ g.group }}</th></tr>
+                @for (r of g.rows; track r.path) { <tr><th scope="row">{{ r.label }}</th><td>{{ r.a }}</td><td>{{ r.b }}</td><td>{{ r.change }}</td><td>{{ r.unit }}</td></tr> }
+              </tbody>
+            } @empty {
+              <tbody><tr><td colspan="5">{{ t.none }}</td></tr></tbody>
+            }
+          </table>
+        }
         <p class="rw-preview-note">Saving makes a new revision of the configuration and returns it to draft.</p>
       }
     </mat-dialog-content>
@@ -82,6 +56,7 @@ function rows(list: readonly Difference[]): Row[] {
     .rw-preview-table caption { text-align: left; font-weight: 600; padding: 0.25rem 0; }
     .rw-preview-table th, .rw-preview-table td { text-align: left; padding: 0.2rem 0.5rem; border-bottom: 1px solid var(--mat-sys-outline-variant); }
     .rw-preview-table td { font-variant-numeric: tabular-nums; }
+    .rw-preview-table .rw-preview-group th { font-weight: 600; padding-top: 0.5rem; border-bottom: none; }
     .rw-preview-note { color: var(--mat-sys-on-surface-variant); }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -89,6 +64,13 @@ function rows(list: readonly Difference[]): Row[] {
 export class LatestPreviewDialog {
   protected readonly data = inject<LatestPreviewDialogData>(MAT_DIALOG_DATA);
   protected readonly refWords = REF_WORDS;
-  protected readonly inputs = rows(this.data.preview.inputs);
-  protected readonly results = rows(this.data.preview.results);
+  private readonly units = inject(DISPLAY_UNITS);
+  protected readonly tables = computed(() => {
+    const p = this.data.preview;
+    const units = this.units();
+    return [
+      { testId: 'changed-inputs', caption: `Changed inputs (${p.inputs.length})`, head: 'Input', none: 'No input changes (only the revision numbers move).', groups: differenceGroups(p.inputs, inputWords, units) },
+      { testId: 'changed-results', caption: `Changed results (${p.results.length}, engine ${p.engineVersion})`, head: 'Result', none: 'No result changes.', groups: differenceGroups(p.results, resultWords, units) },
+    ];
+  });
 }

@@ -1,4 +1,5 @@
-import { ChangeDetectionStrategy, Component, ElementRef, effect, inject, input, model, signal, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, ElementRef, inject, input, model, signal, viewChild } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { MatButton } from '@angular/material/button';
 import { MatFormField, MatLabel } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
@@ -7,13 +8,13 @@ import { firstValueFrom } from 'rxjs';
 import { CommentThread, ConfigurationsApi } from './configurations-api';
 import { problemText, refLabel, validRef } from './review-words';
 import { formatLocalTime } from '../../core/time/local-time';
+import { inputValue } from '../../core/forms/dom-events';
+import { loadState } from '../../core/http/load-state';
 
 export interface RefOption {
   readonly ref: string;
   readonly label: string;
 }
-
-type ThreadsState = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; threads: readonly CommentThread[] };
 
 /**
  * Review comment threads of a configuration: post (optionally pointing at a
@@ -41,53 +42,50 @@ type ThreadsState = { kind: 'loading' } | { kind: 'error'; message: string } | {
         <div class="rw-form-actions"><button mat-flat-button type="submit" [disabled]="busy()">Post comment</button></div>
       </form>
     }
-    @switch (state().kind) {
+    @let s = state();
+    @switch (s.status) {
       @case ('loading') { <p class="rw-state" role="status">Loading comments…</p> }
       @case ('error') {
-        @if (state(); as s) { @if (s.kind === 'error') {
-          <div class="rw-state rw-state-error" role="alert"><span>The comments could not be loaded: {{ s.message }}</span>
-            <button mat-button type="button" (click)="load()">Try again</button></div>
-        } }
+        <div class="rw-state rw-state-error" role="alert"><span>The comments could not be loaded: {{ s.message }}</span>
+          <button mat-button type="button" (click)="load()">Try again</button></div>
       }
       @case ('ready') {
-        @if (state(); as s) { @if (s.kind === 'ready') {
-          @if (s.threads.length === 0) {
-            <p class="rw-state" role="status">No comments yet.</p>
-          } @else {
-            <ol class="rw-threads" aria-label="Review remarks">
-              @for (t of s.threads; track t.id) {
-                <li class="rw-thread" [class.rw-thread-resolved]="t.resolved" [attr.data-ref]="t.resultRef">
-                  <article [attr.aria-label]="'Comment by ' + (t.authorName ?? 'someone')">
-                    <p class="rw-thread-meta">
-                      <strong>{{ t.authorName ?? 'Someone' }}</strong> · <time [attr.datetime]="t.createdAt">{{ time(t.createdAt) }}</time> · on revision {{ t.revision }}
-                      @if (t.resultRef) { · <span class="rw-thread-ref">On: {{ label(t.resultRef) }}</span> }
-                      · <span class="rw-thread-state">{{ t.resolved ? 'Closed' : 'Open' }}</span>
-                    </p>
-                    <p class="rw-thread-body">{{ t.body }}</p>
-                    @for (r of t.replies; track r.id) {
-                      <div class="rw-reply">
-                        <p class="rw-thread-meta"><strong>{{ r.authorName ?? 'Someone' }}</strong> · <time [attr.datetime]="r.createdAt">{{ time(r.createdAt) }}</time></p>
-                        <p class="rw-thread-body">{{ r.body }}</p>
+        @if (s.value.length === 0) {
+          <p class="rw-state" role="status">No comments yet.</p>
+        } @else {
+          <ol class="rw-threads" aria-label="Review remarks">
+            @for (t of s.value; track t.id) {
+              <li class="rw-thread" [class.rw-thread-resolved]="t.resolved" [attr.data-ref]="t.resultRef">
+                <article [attr.aria-label]="'Comment by ' + (t.authorName ?? 'someone')">
+                  <p class="rw-thread-meta">
+                    <strong>{{ t.authorName ?? 'Someone' }}</strong> · <time [attr.datetime]="t.createdAt">{{ time(t.createdAt) }}</time> · on revision {{ t.revision }}
+                    @if (t.resultRef) { · <span class="rw-thread-ref">On: {{ label(t.resultRef) }}</span> }
+                    · <span class="rw-thread-state">{{ t.resolved ? 'Closed' : 'Open' }}</span>
+                  </p>
+                  <p class="rw-thread-body">{{ t.body }}</p>
+                  @for (r of t.replies; track r.id) {
+                    <div class="rw-reply">
+                      <p class="rw-thread-meta"><strong>{{ r.authorName ?? 'Someone' }}</strong> · <time [attr.datetime]="r.createdAt">{{ time(r.createdAt) }}</time></p>
+                      <p class="rw-thread-body">{{ r.body }}</p>
+                    </div>
+                  }
+                  @if (canComment()) {
+                    <form class="rw-reply-form" (submit)="$event.preventDefault(); reply(t)" [attr.aria-label]="'Reply to ' + (t.authorName ?? 'this comment')">
+                      <mat-form-field class="rw-wide-field">
+                        <mat-label>Reply</mat-label>
+                        <textarea matInput name="reply" rows="2" maxlength="4000" [value]="replies()[t.id] ?? ''" (input)="setReply(t.id, value($event))"></textarea>
+                      </mat-form-field>
+                      <div class="rw-form-actions">
+                        <button mat-stroked-button type="submit" [disabled]="busy()">Reply</button>
+                        <button mat-button type="button" [disabled]="busy()" (click)="setResolved(t, !t.resolved)">{{ t.resolved ? 'Reopen remark' : 'Close remark' }}</button>
                       </div>
-                    }
-                    @if (canComment()) {
-                      <form class="rw-reply-form" (submit)="$event.preventDefault(); reply(t)" [attr.aria-label]="'Reply to ' + (t.authorName ?? 'this comment')">
-                        <mat-form-field class="rw-wide-field">
-                          <mat-label>Reply</mat-label>
-                          <textarea matInput name="reply" rows="2" maxlength="4000" [value]="replies()[t.id] ?? ''" (input)="setReply(t.id, value($event))"></textarea>
-                        </mat-form-field>
-                        <div class="rw-form-actions">
-                          <button mat-stroked-button type="submit" [disabled]="busy()">Reply</button>
-                          <button mat-button type="button" [disabled]="busy()" (click)="setResolved(t, !t.resolved)">{{ t.resolved ? 'Reopen remark' : 'Close remark' }}</button>
-                        </div>
-                      </form>
-                    }
-                  </article>
-                </li>
-              }
-            </ol>
-          }
-        } }
+                    </form>
+                  }
+                </article>
+              </li>
+            }
+          </ol>
+        }
       }
     }
     @if (threadError(); as m) { <p class="rw-form-error" role="alert">{{ m }}</p> }
@@ -114,7 +112,11 @@ export class ReviewComments {
   /** What the next comment points at ('' = nothing in particular). */
   readonly target = model('');
 
-  protected readonly state = signal<ThreadsState>({ kind: 'loading' });
+  private readonly threads = rxResource({
+    params: () => ({ teamId: this.teamId(), configurationId: this.configurationId() }),
+    stream: ({ params: p }) => this.api.comments(p.teamId, p.configurationId),
+  });
+  protected readonly state = loadState<readonly CommentThread[]>(this.threads);
   protected readonly draft = signal('');
   protected readonly replies = signal<Partial<Record<string, string>>>({});
   protected readonly busy = signal(false);
@@ -122,26 +124,13 @@ export class ReviewComments {
   protected readonly threadError = signal<string | null>(null);
   private readonly commentBox = viewChild<ElementRef<HTMLTextAreaElement>>('commentBox');
 
-  constructor() {
-    effect(() => {
-      this.teamId();
-      this.configurationId();
-      void this.load();
-    });
-  }
-
   /** Moves the keyboard focus to the comment box (after "Comment" beside a result). */
   focus(): void {
     this.commentBox()?.nativeElement.focus();
   }
 
-  async load(): Promise<void> {
-    try {
-      const threads = await firstValueFrom(this.api.comments(this.teamId(), this.configurationId()));
-      this.state.set({ kind: 'ready', threads });
-    } catch (error) {
-      this.state.set({ kind: 'error', message: problemText(error) });
-    }
+  load(): void {
+    this.threads.reload();
   }
 
   protected async post(): Promise<void> {
@@ -184,7 +173,7 @@ export class ReviewComments {
     error.set(null);
     try {
       await step();
-      await this.load();
+      this.load();
     } catch (e) {
       error.set(problemText(e));
     } finally {
@@ -204,7 +193,5 @@ export class ReviewComments {
     return formatLocalTime(iso);
   }
 
-  protected value(event: Event): string {
-    return (event.target as HTMLSelectElement | HTMLTextAreaElement).value;
-  }
+  protected readonly value = inputValue;
 }

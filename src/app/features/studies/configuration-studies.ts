@@ -1,13 +1,14 @@
-import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
-import { firstValueFrom } from 'rxjs';
+import { firstValueFrom, map } from 'rxjs';
 import { apiProblem } from '../../core/http/api-error';
+import { loadState } from '../../core/http/load-state';
 import { TeamAccess } from '../../core/teams/team-access';
+import { LocalTimePipe } from '../../core/time/local-time';
 import { StudiesApi, type AttachedStudy } from './studies-api';
 import { StudyKeyFiguresTable } from './key-figures-table';
-
-type State = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; list: AttachedStudy[] };
 
 /**
  * The studies attached to a configuration's review record (shown on the
@@ -16,22 +17,22 @@ type State = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 
  */
 @Component({
   selector: 'rw-configuration-studies',
-  imports: [RouterLink, MatButton, StudyKeyFiguresTable],
+  imports: [RouterLink, MatButton, LocalTimePipe, StudyKeyFiguresTable],
   template: `
     @let s = state();
-    @if (s.kind === 'loading') {
+    @if (s.status === 'loading') {
       <p class="rw-muted" role="status">Loading the attached studies…</p>
-    } @else if (s.kind === 'error') {
+    } @else if (s.status === 'error') {
       <p class="rw-error" role="alert">The attached studies could not be loaded: {{ s.message }}</p>
-    } @else if (s.list.length === 0) {
+    } @else if (s.value.length === 0) {
       <p class="rw-muted">No study is attached. Attach a completed tolerance study or design sweep from its page.</p>
     } @else {
-      @for (a of s.list; track a.studyId) {
+      @for (a of s.value; track a.studyId) {
         <article class="rw-attached-study" data-testid="attached-study">
           <h3><a [routerLink]="['/teams', teamId(), 'studies', a.studyId]">{{ a.label }}</a></h3>
           <p class="rw-muted">
             {{ a.kind === 'tolerance' ? 'Tolerance study' : 'Design sweep' }}, {{ a.totalSamples }} {{ a.kind === 'tolerance' ? 'builds' : 'variants' }};
-            attached {{ a.attachedAt.slice(0, 10) }}@if (a.attachedBy) { by {{ a.attachedBy.displayName }}}.
+            attached <time [attr.datetime]="a.attachedAt">{{ a.attachedAt | localTime }}</time>@if (a.attachedBy) { by {{ a.attachedBy.displayName }}}.
             @if (a.note) { “{{ a.note }}” }
           </p>
           <rw-study-key-figures [figures]="a.keyFigures" [caption]="'Key figures of ' + a.label" />
@@ -54,29 +55,20 @@ export class ConfigurationStudies {
   readonly configurationId = input.required<string>();
   private readonly api = inject(StudiesApi);
   protected readonly canRun = inject(TeamAccess).permission('study:run');
-  protected readonly state = signal<State>({ kind: 'loading' });
+  private readonly attached = rxResource({
+    params: () => ({ teamId: this.teamId(), configurationId: this.configurationId() }),
+    stream: ({ params: p }) => this.api.attachedTo(p.teamId, p.configurationId).pipe(map((r): readonly AttachedStudy[] => r.attachments)),
+  });
+  protected readonly state = loadState(this.attached);
   protected readonly busy = signal(false);
   protected readonly actionError = signal<string | null>(null);
-
-  constructor() {
-    effect(() => void this.load(this.teamId(), this.configurationId()));
-  }
-
-  private async load(teamId: string, configurationId: string): Promise<void> {
-    try {
-      const { attachments } = await firstValueFrom(this.api.attachedTo(teamId, configurationId));
-      this.state.set({ kind: 'ready', list: attachments });
-    } catch (err) {
-      this.state.set({ kind: 'error', message: apiProblem(err).message });
-    }
-  }
 
   protected async detach(a: AttachedStudy): Promise<void> {
     this.busy.set(true);
     this.actionError.set(null);
     try {
       await firstValueFrom(this.api.detach(this.teamId(), a.studyId, a.configurationId));
-      await this.load(this.teamId(), this.configurationId());
+      this.attached.reload();
     } catch (err) {
       this.actionError.set(apiProblem(err).message);
     } finally {

@@ -1,8 +1,9 @@
-import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import type { StudyKeyFigure } from '../../../../shared/study/index';
-import { NumPipe } from '../../core/format/num-pipe';
+import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
+import { studyFormat, studyUnit } from './study-units';
 
-/** P5 / P50 / P95 of a study's key figures (an attached study on a configuration or the programme board). */
+/** P5 / P50 / P95 of a study's key figures (an attached study on a configuration), in the user's units. */
 @Component({
   imports: [NumPipe],
   selector: 'rw-study-key-figures',
@@ -11,7 +12,8 @@ import { NumPipe } from '../../core/format/num-pipe';
       <thead><tr><th scope="col">Figure</th><th scope="col">P5</th><th scope="col">P50</th><th scope="col">P95</th></tr></thead>
       <tbody>
         @for (f of figures(); track f.key) {
-          <tr><th scope="row">{{ f.label }} ({{ f.unit }})</th><td>{{ f.p5 | num: { sig: 4, missing: '—' } }}</td><td>{{ f.p50 | num: { sig: 4, missing: '—' } }}</td><td>{{ f.p95 | num: { sig: 4, missing: '—' } }}</td></tr>
+          @let format = studyFormat(f.unit);
+          <tr><th scope="row">{{ f.label }} ({{ studyUnit(f.unit, units()) }})</th><td>{{ f.p5 | num: format }}</td><td>{{ f.p50 | num: format }}</td><td>{{ f.p95 | num: format }}</td></tr>
         }
       </tbody>
     </table>
@@ -21,4 +23,7 @@ import { NumPipe } from '../../core/format/num-pipe';
 export class StudyKeyFiguresTable {
   readonly figures = input.required<readonly StudyKeyFigure[]>();
   readonly caption = input('Key figures of the study');
+  protected readonly units = inject(DISPLAY_UNITS);
+  protected readonly studyFormat = studyFormat;
+  protected readonly studyUnit = studyUnit;
 }

@@ -1,24 +1,24 @@
-import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
-import { firstValueFrom } from 'rxjs';
-import { apiProblem } from '../../core/http/api-error';
-import { NumPipe } from '../../core/format/num-pipe';
+import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
+import { loadState } from '../../core/http/load-state';
+import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
+import { LocalTimePipe } from '../../core/time/local-time';
+import { studyFormat, studyUnit } from './study-units';
 import { StudiesApi, type ProgrammeStudies as ProgrammeStudiesView } from './studies-api';
-
-type State = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 'ready'; value: ProgrammeStudiesView };
 
 /**
  * The programme board's study column (its instructor): per accepted team,
  * the latest study attached to one of its configurations and its headline
- * figure (P5 / P50 / P95).
+ * figure (P5 / P50 / P95) in the user's units.
  */
 @Component({
-  imports: [NumPipe],
+  imports: [NumPipe, LocalTimePipe],
   selector: 'rw-programme-studies',
   template: `
     @let s = state();
-    @if (s.kind === 'loading') {
+    @if (s.status === 'loading') {
       <p class="rw-muted" role="status">Loading the attached studies…</p>
-    } @else if (s.kind === 'error') {
+    } @else if (s.status === 'error') {
       <p class="rw-error" role="alert">The attached studies could not be loaded: {{ s.message }}</p>
     } @else if (s.value.teams.length === 0) {
       <p class="rw-muted">No team is on the board yet, so no study is attached.</p>
@@ -34,9 +34,14 @@ type State = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 
               <th scope="row">{{ t.teamName }}</th>
               @if (t.study) {
                 <td>{{ t.configurationName }}</td>
-                <td>{{ t.study.label }} ({{ t.study.totalSamples }} {{ t.study.kind === 'tolerance' ? 'builds' : 'variants' }}, {{ t.study.attachedAt.slice(0, 10) }})</td>
-                <td>{{ h ? h.label + ' (' + h.unit + ')' : '—' }}</td>
-                <td>{{ h?.p5 | num: { sig: 4, missing: '—' } }}</td><td>{{ h?.p50 | num: { sig: 4, missing: '—' } }}</td><td>{{ h?.p95 | num: { sig: 4, missing: '—' } }}</td>
+                <td>{{ t.study.label }} ({{ t.study.totalSamples }} {{ t.study.kind === 'tolerance' ? 'builds' : 'variants' }}, <time [attr.datetime]="t.study.attachedAt">{{ t.study.attachedAt | localTime }}</time>)</td>
+                @if (h) {
+                  @let format = studyFormat(h.unit);
+                  <td>{{ h.label }} ({{ studyUnit(h.unit, units()) }})</td>
+                  <td>{{ h.p5 | num: format }}</td><td>{{ h.p50 | num: format }}</td><td>{{ h.p95 | num: format }}</td>
+                } @else {
+                  <td>—</td><td>—</td><td>—</td><td>—</td>
+                }
               } @else {
                 <td colspan="6" class="rw-muted">No study attached yet</td>
               }
@@ -51,17 +56,12 @@ type State = { kind: 'loading' } | { kind: 'error'; message: string } | { kind: 
 export class ProgrammeStudies {
   readonly programmeId = input.required<string>();
   private readonly api = inject(StudiesApi);
-  protected readonly state = signal<State>({ kind: 'loading' });
-
-  constructor() {
-    effect(() => void this.load(this.programmeId()));
-  }
-
-  private async load(id: string): Promise<void> {
-    try {
-      this.state.set({ kind: 'ready', value: await firstValueFrom(this.api.programmeStudies(id)) });
-    } catch (err) {
-      this.state.set({ kind: 'error', message: apiProblem(err).message });
-    }
-  }
+  protected readonly units = inject(DISPLAY_UNITS);
+  protected readonly studyFormat = studyFormat;
+  protected readonly studyUnit = studyUnit;
+  private readonly studies = rxResource({
+    params: () => this.programmeId(),
+    stream: ({ params: id }) => this.api.programmeStudies(id),
+  });
+  protected readonly state = loadState<ProgrammeStudiesView>(this.studies);
 }

@@ -3,6 +3,10 @@ import { Router, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
+import { MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { MatOption, MatSelect } from '@angular/material/select';
+import { MatRadioButton, MatRadioGroup } from '@angular/material/radio';
 import { firstValueFrom } from 'rxjs';
 import { TRACK_PROFILE_IDS, trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import { MAX_STUDY_SAMPLES, type StudyRequest } from '../../../../shared/study/schema';
@@ -10,7 +14,7 @@ import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { etaWords, STATUS_WORDS, StudiesApi, type StudyView } from './studies-api';
-import { optionValue } from '../../core/forms/dom-events';
+import { inputValue } from '../../core/forms/dom-events';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { catchError, EMPTY, expand, map, of, switchMap, timer } from 'rxjs';
 import { loadState } from '../../core/http/load-state';
@@ -46,13 +50,15 @@ const isActive = (s: StudyView): boolean => s.status === 'queued' || s.status ==
  */
 @Component({
   selector: 'rw-studies-page',
-  imports: [RouterLink, MatButton, MatIcon, MatProgressBar],
+  imports: [RouterLink, MatButton, MatIcon, MatProgressBar, MatFormField, MatLabel, MatHint, MatInput, MatSelect, MatOption, MatRadioGroup, MatRadioButton],
   templateUrl: './studies-page.html',
   styleUrl: './studies.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class StudiesPage {
-  protected readonly optionValue = optionValue;
+  protected readonly value = inputValue;
+  protected readonly toleranceAxes: readonly ToleranceRow['axis'][] = ['x', 'y', 'z', 'sphere'];
+  protected readonly factorAxes: readonly FactorRow['axis'][] = ['x', 'y', 'z'];
   private readonly router = inject(Router);
   private readonly api = inject(StudiesApi);
   protected readonly access = inject(TeamAccess);
@@ -119,29 +125,13 @@ export class StudiesPage {
     return s.progress.totalSamples > 0 ? (100 * s.progress.doneSamples) / s.progress.totalSamples : 0;
   }
 
-  protected value(event: Event): string {
-    return (event.target as HTMLInputElement | HTMLSelectElement).value;
-  }
-
   protected num(event: Event): number {
-    return Number(this.value(event));
+    return Number(inputValue(event));
   }
 
   protected optionalNum(event: Event): number | null {
-    const v = this.value(event).trim();
+    const v = inputValue(event).trim();
     return v === '' ? null : Number(v);
-  }
-
-  protected setToleranceAxis(i: number, event: Event): void {
-    this.setTolerance(i, { axis: optionValue<ToleranceRow['axis']>(event) });
-  }
-
-  protected setToleranceDistribution(i: number, event: Event): void {
-    this.setTolerance(i, { distribution: optionValue<ToleranceRow['distribution']>(event) });
-  }
-
-  protected setFactorAxis(i: number, event: Event): void {
-    this.setFactor(i, { axis: optionValue<FactorRow['axis']>(event) });
   }
 
   protected setTolerance(i: number, patch: Partial<ToleranceRow>): void {

@@ -1,8 +1,14 @@
-import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { MatOption, MatSelect } from '@angular/material/select';
 import { firstValueFrom } from 'rxjs';
 import { apiProblem } from '../../core/http/api-error';
+import { inputValue } from '../../core/forms/dom-events';
+import { loadState } from '../../core/http/load-state';
 import { ConfigurationsApi, type Configuration } from '../configurations/configurations-api';
 import { StudiesApi } from './studies-api';
 
@@ -13,22 +19,33 @@ import { StudiesApi } from './studies-api';
  */
 @Component({
   selector: 'rw-study-attach',
-  imports: [RouterLink, MatButton],
+  imports: [RouterLink, MatButton, MatFormField, MatLabel, MatInput, MatSelect, MatOption],
   template: `
-    <form class="rw-study-row" (submit)="$event.preventDefault(); attach()" aria-label="Attach to a configuration">
-      <label><span>Attach to configuration</span>
-        <select aria-label="Configuration to attach to" name="configuration" (change)="chosen.set(value($event))">
-          <option value="" [selected]="chosen() === ''">Choose…</option>
-          @for (c of configurations(); track c.id) { <option [value]="c.id" [selected]="chosen() === c.id">{{ c.name }} (r{{ c.revision }})</option> }
-        </select>
-      </label>
-      <label><span>Note for the reviewers</span><input aria-label="Note for the reviewers" name="note" maxlength="500" [value]="note()" (input)="note.set(value($event))" /></label>
-      <button mat-stroked-button type="submit" [disabled]="busy() || chosen() === ''">Attach</button>
-    </form>
+    @let s = state();
+    @if (s.status === 'error') {
+      <p class="rw-error" role="alert">The configurations could not be loaded: {{ s.message }}</p>
+    } @else {
+      <form class="rw-study-row rw-study-attach" (submit)="$event.preventDefault(); attach()" aria-label="Attach to a configuration">
+        <mat-form-field>
+          <mat-label>Configuration to attach to</mat-label>
+          <mat-select name="configuration" [value]="chosen()" (selectionChange)="chosen.set($event.value)" [disabled]="s.status === 'loading'">
+            @for (c of configurations(); track c.id) { <mat-option [value]="c.id">{{ c.name }} (revision {{ c.revision }})</mat-option> }
+          </mat-select>
+        </mat-form-field>
+        <mat-form-field class="rw-study-wide">
+          <mat-label>Note for the reviewers</mat-label>
+          <input matInput name="note" maxlength="500" [value]="note()" (input)="note.set(value($event))" />
+        </mat-form-field>
+        <button mat-stroked-button type="submit" [disabled]="busy() || chosen() === ''">Attach</button>
+      </form>
+    }
     @if (attachedTo(); as c) {
       <p role="status">Attached to <a [routerLink]="['/teams', teamId(), 'configurations', c.id]">{{ c.name }}</a>: it is listed in its review record.</p>
     }
     @if (error(); as m) { <p class="rw-error" role="alert">{{ m }}</p> }
+  `,
+  styles: `
+    .rw-study-attach { align-items: center; }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
@@ -37,26 +54,22 @@ export class StudyAttach {
   readonly studyId = input.required<string>();
   private readonly api = inject(StudiesApi);
   private readonly configs = inject(ConfigurationsApi);
-  protected readonly configurations = signal<readonly Configuration[]>([]);
+  protected readonly value = inputValue;
+  /** The team's configurations to choose from. */
+  private readonly list = rxResource({
+    params: () => this.teamId(),
+    stream: ({ params: teamId }) => this.configs.list(teamId),
+  });
+  protected readonly state = loadState(this.list);
+  protected readonly configurations = computed<readonly Configuration[]>(() => {
+    const s = this.state();
+    return s.status === 'ready' ? s.value : [];
+  });
   protected readonly chosen = signal('');
   protected readonly note = signal('');
   protected readonly busy = signal(false);
   protected readonly error = signal<string | null>(null);
   protected readonly attachedTo = signal<Configuration | null>(null);
-
-  constructor() {
-    effect(() => {
-      const teamId = this.teamId();
-      this.configs.list(teamId).subscribe({
-        next: (list) => this.configurations.set(list),
-        error: (err: unknown) => this.error.set(`The configurations could not be loaded: ${apiProblem(err).message}`),
-      });
-    });
-  }
-
-  protected value(event: Event): string {
-    return (event.target as HTMLInputElement | HTMLSelectElement).value;
-  }
 
   protected async attach(): Promise<void> {
     const c = this.configurations().find((x) => x.id === this.chosen());

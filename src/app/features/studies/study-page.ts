@@ -3,6 +3,8 @@ import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatOption, MatSelect } from '@angular/material/select';
 import { firstValueFrom } from 'rxjs';
 import type { OutputResult, StudyResult, VariantPoint } from '../../../../shared/study/index';
 import { BarChart } from '../../charts/bar-chart';
@@ -14,7 +16,10 @@ import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { TeamAccess } from '../../core/teams/team-access';
 import { SafetyCaution } from '../safety-caution';
 import { etaWords, STATUS_WORDS, StudiesApi, type StudyView } from './studies-api';
-import { NumPipe } from '../../core/format/num-pipe';
+import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
+import { formatNum } from '../../core/format/num';
+import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
+import { studyFormat, studyUnit, studyValue } from './study-units';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { EMPTY, expand, map, switchMap, timer } from 'rxjs';
 import { loadState, resourceProblem } from '../../core/http/load-state';
@@ -36,7 +41,7 @@ const LEVEL_WORDS = { info: 'Notice', warning: 'Warning', critical: 'Critical' }
  */
 @Component({
   selector: 'rw-study-page',
-  imports: [NumPipe, RouterLink, MatButton, MatIcon, MatProgressBar, BarChart, LineChart, SafetyCaution, StudyAttach],
+  imports: [NumPipe, RouterLink, MatButton, MatIcon, MatProgressBar, MatFormField, MatLabel, MatSelect, MatOption, BarChart, LineChart, SafetyCaution, StudyAttach],
   templateUrl: './study-page.html',
   styleUrl: './studies.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -66,6 +71,11 @@ export class StudyPage {
   protected readonly actionError = signal<string | null>(null);
   protected readonly actionNote = signal<string | null>(null);
   protected readonly chosen = signal<string>('');
+  /** The user's unit system: every figure, axis and threshold of the results follows it. */
+  protected readonly units = inject(DISPLAY_UNITS);
+  protected readonly studyFormat = studyFormat;
+  protected readonly studyUnit = studyUnit;
+  protected readonly lengthUnit = computed(() => unitLabel('length', this.units()));
 
   protected readonly study = computed(() => {
     const s = this.state();
@@ -93,7 +103,8 @@ export class StudyPage {
     const o = this.output();
     if (!o) return [];
     const h = o.histogram;
-    return h.counts.map((c, i) => ({ label: formatNumber(h.from + (i + 0.5) * h.width, 3), values: [c] }));
+    const units = this.units();
+    return h.counts.map((c, i) => ({ label: formatNumber(studyValue(h.from + (i + 0.5) * h.width, o.unit, units), 3), values: [c] }));
   });
 
   /** The ten largest, labelled short: point, coordinate, L or R. */
@@ -131,11 +142,12 @@ export class StudyPage {
     const sw = this.result()?.sweep;
     const o = this.output();
     if (!sw || !o) return [];
+    const units = this.units();
     return sw.mainEffects.map((m) => ({
       name: m.factor,
       points: m.at.flatMap((x, i) => {
         const y = m.means[o.key]?.[i];
-        return y === null || y === undefined ? [] : [{ x: x - m.at[0]!, y }];
+        return y === null || y === undefined ? [] : [{ x: inDisplayUnits(x - m.at[0]!, 'length', units), y: studyValue(y, o.unit, units) }];
       }),
     }));
   });
@@ -153,10 +165,6 @@ export class StudyPage {
 
   protected localTime(iso: string): string {
     return formatLocalTime(iso, this.timeZone);
-  }
-
-  protected choose(event: Event): void {
-    this.chosen.set((event.target as HTMLSelectElement).value);
   }
 
   protected async cancel(): Promise<void> {
@@ -196,7 +204,17 @@ export class StudyPage {
     }
   }
 
+  /** A caution threshold in the user's units. */
   protected breachWords(b: { absolute: boolean; threshold: number }, unit: string): string {
-    return `${b.absolute ? '|value|' : 'value'} ≥ ${formatNumber(b.threshold, 4)} ${unit}`;
+    const units = this.units();
+    return `${b.absolute ? '|value|' : 'value'} ≥ ${formatNum(b.threshold, studyFormat(unit), units)} ${studyUnit(unit, units)}`.trimEnd();
+  }
+
+  /** The P5 / P50 / P95 line of the chosen output, in the user's units (the histogram's description and caption). */
+  protected percentileWords(o: OutputResult): string {
+    const units = this.units();
+    const f = studyFormat(o.unit);
+    const u = studyUnit(o.unit, units);
+    return `P5 ${formatNum(o.p5, f, units)} ${u}, P50 ${formatNum(o.p50, f, units)} ${u}, P95 ${formatNum(o.p95, f, units)} ${u}; nominal ${formatNum(o.nominal, f, units)} ${u}`;
   }
 }

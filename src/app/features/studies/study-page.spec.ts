@@ -1,0 +1,92 @@
+import { HttpTestingController } from '@angular/common/http/testing';
+import { signal } from '@angular/core';
+import { RouterTestingHarness } from '@angular/router/testing';
+import type { DisplayUnits } from '../../core/api-types';
+import { routedPageTestBed } from '../../../testing/routed-page';
+import { settle } from '../../../testing/settle';
+import { chooseOption, matSelect } from '../../../testing/material';
+import { StudyPage } from './study-page';
+import type { StudyView } from './studies-api';
+
+const T = '/api/teams/t-tal';
+
+/** One output of a completed study, as the server stores it (shared/study/run.ts). */
+function output(key: string, label: string, unit: string, p: [number, number, number], breaches: unknown[] = []) {
+  return {
+    key, label, unit, nominal: p[1], p5: p[0], p50: p[1], p95: p[2], mean: p[1], sd: (p[2] - p[0]) / 3.29, min: p[0], max: p[2], n: 600, r2: 0.97,
+    histogram: { from: p[0], width: (p[2] - p[0]) / 4, counts: [10, 200, 250, 130] },
+    breaches,
+    tornado: [{ factor: 'left.tieRodInner.z', src: 0.9 }, { factor: 'right.upperOuter.sphere', src: -0.2 }],
+  };
+}
+
+const STUDY = {
+  id: 's1', kind: 'tolerance', label: 'Front pickups in the jig', status: 'completed',
+  progress: { doneChunks: 2, totalChunks: 2, doneSamples: 600, totalSamples: 600 }, etaSeconds: null, error: null,
+  target: {}, seed: 7, createdAt: '2026-12-02T10:00:00.000Z', startedAt: null, finishedAt: null, createdBy: null,
+  result: {
+    kind: 'tolerance', axle: 'front', validSamples: 600, totalSamples: 600, failedSamples: 0, failures: [], seed: 7,
+    trackProfile: { id: 'bumpy-circuit', label: 'Bumpy circuit', bumpHeightMm: 25.4 },
+    percentileMethod: 'type 7', sensitivityMethod: 'standardized regression coefficients',
+    bumpCost: { output: null, why: 'no vehicle data', roadInWords: '' },
+    factors: [], sweep: null, engineVersion: '1.4.0',
+    outputs: [
+      output('rollSteerCoefficient', 'Roll steer ε', 'deg/deg', [0.0211, 0.0252, 0.0297]),
+      output('bumpSteerDegPerM', 'Bump-steer gradient', 'deg/m', [-3.12, -2.5, -1.85], [{ code: 'bump-steer', level: 'warning', absolute: true, threshold: 3, probability: 0.04, interval: [0.03, 0.06] }]),
+      output('bumpScrubMm', 'Contact-patch scrub over that bump', 'mm', [2.54, 5.08, 7.62]),
+    ],
+  },
+} as unknown as StudyView;
+
+describe('StudyPage', () => {
+  let backend: HttpTestingController;
+  const units = signal<DisplayUnits>('si');
+
+  beforeEach(async () => {
+    units.set('si');
+    backend = await routedPageTestBed('teams/:teamId/studies/:studyId', StudyPage, units);
+  });
+  afterEach(() => backend.verify());
+
+  async function open() {
+    const harness = await RouterTestingHarness.create();
+    await harness.navigateByUrl('/teams/t-tal/studies/s1', StudyPage);
+    await settle();
+    backend.expectOne(T).flush({ id: 't-tal', name: 'Tallowmere University Racing', slug: 'tallowmere', roles: [], permissions: ['team:read'] });
+    backend.expectOne(`${T}/studies/s1`).flush({ study: STUDY });
+    await settle();
+    harness.detectChanges();
+    const root = harness.routeNativeElement as HTMLElement;
+    const summary = (label: string) =>
+      [...root.querySelector('table[aria-label="Output summary"]')!.querySelectorAll('tbody tr')]
+        .find((tr) => tr.querySelector('th')!.textContent!.trim() === label)!
+        .querySelectorAll('td');
+    const percentiles = () => root.querySelector('[data-testid="study-percentiles"]')!.textContent!.replace(/\s+/g, ' ').trim();
+    return { harness, root, summary, percentiles };
+  }
+
+  it('switches the figures, the histogram and the thresholds to inch/pound when the user does', async () => {
+    const { harness, root, summary, percentiles } = await open();
+    chooseOption(matSelect(root, 'mat-select[name="output"]'), 'Bump-steer gradient');
+    harness.detectChanges();
+    // SI: deg/m to the quantity's 3 significant figures (core/format/quantities.ts).
+    expect(percentiles()).toBe('P5 -3.12 · P50 -2.5 · P95 -1.85 deg/m (nominal -2.5)');
+    expect(summary('Contact-patch scrub over that bump')[0]!.textContent!.trim()).toBe('mm');
+    expect(summary('Contact-patch scrub over that bump')[2]!.textContent!.trim()).toBe('2.54');
+    expect(root.querySelector('table[aria-label="Caution thresholds reached"]')!.textContent).toContain('|value| ≥ 3 deg/m');
+    expect(root.querySelector('[data-testid="study-histogram"]')!.textContent).toContain('Distribution: Bump-steer gradient (deg/m)');
+
+    units.set('imperial');
+    harness.detectChanges();
+    // 1 in = 25.4 mm exactly: deg/m × 0.0254 = deg/in; 2.54 mm = 0.1 in.
+    expect(percentiles()).toBe(`P5 ${Number((-3.12 * 0.0254).toPrecision(3))} · P50 -0.0635 · P95 ${Number((-1.85 * 0.0254).toPrecision(3))} deg/in (nominal -0.0635)`);
+    expect(summary('Contact-patch scrub over that bump')[0]!.textContent!.trim()).toBe('in');
+    expect(summary('Contact-patch scrub over that bump')[2]!.textContent!.trim()).toBe('0.1');
+    expect(root.querySelector('table[aria-label="Caution thresholds reached"]')!.textContent).toContain('|value| ≥ 0.0762 deg/in');
+    expect(root.querySelector('[data-testid="study-histogram"]')!.textContent).toContain('Distribution: Bump-steer gradient (deg/in)');
+    expect(root.textContent).toContain('(1 in single-wheel bump)');
+    // ε has no inch/pound form: it stays in deg/deg.
+    expect(summary('Roll steer ε')[0]!.textContent!.trim()).toBe('deg/deg');
+    expect(summary('Roll steer ε')[2]!.textContent!.trim()).toBe('0.0211');
+  });
+});
