@@ -12,7 +12,7 @@
  */
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { consoleErrors, copyOfDemoDesign, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+import { chooseOption, consoleErrors, copyOfDemoDesign, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
@@ -199,11 +199,8 @@ describe('Axle design editor in Chromium', () => {
     // A file from a CAD model with y to the right, z down, in metres: mapped before it is applied.
     await page.getByRole('button', { name: 'Import…' }).click();
     await upload('cad.csv', `point,x,y,z\ntieRodInner,${x / 1000},${-y / 1000},${-(z + 2) / 1000}\n`);
-    // Material selects: open each and pick the option.
-    await page.getByRole('combobox', { name: 'Axis convention' }).click();
-    await page.getByRole('option', { name: 'x forward, y right, z down', exact: true }).click();
-    await page.getByRole('combobox', { name: 'CAD length unit' }).click();
-    await page.getByRole('option', { name: 'metre', exact: true }).click();
+    await chooseOption(page, 'Axis convention', 'x forward, y right, z down');
+    await chooseOption(page, 'CAD length unit', 'metre');
     await page.locator('rw-hardpoint-import .rw-overlay').first().waitFor();
     await saveScreenshot(page, 'editor-import-cad-preview');
     await page.getByRole('button', { name: 'Apply import' }).click();

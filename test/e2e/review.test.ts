@@ -13,7 +13,7 @@
  */
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { consoleErrors, copyOfDemoDesign, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp, waitForMail } from '../support/e2e.js';
+import { chooseOption, consoleErrors, copyOfDemoDesign, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp, waitForMail } from '../support/e2e.js';
 
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
@@ -36,13 +36,6 @@ async function status(page: Page): Promise<string> {
 async function expectStatus(page: Page, label: string): Promise<void> {
   await page.locator('rw-status-chip').first().getByText(label, { exact: true }).waitFor();
   expect(await status(page)).toBe(label);
-}
-
-/** Picks `option` in the Material select named `name` (opens its list, clicks the option). */
-async function choose(page: Page, name: string, option: string | RegExp): Promise<void> {
-  await page.getByRole('combobox', { name, exact: true }).click();
-  await page.getByRole('option', { name: option, exact: typeof option === 'string' }).click();
-  await page.getByRole('listbox').waitFor({ state: 'detached' });
 }
 
 function clean(page: Page): void {
@@ -71,10 +64,10 @@ describe('Configuration review in Chromium', () => {
 
     await designer.getByRole('button', { name: 'New configuration' }).click();
     await designer.getByLabel('Name', { exact: true }).fill(NAME);
-    await choose(designer, 'Vehicle', 'TUR-26 Ember');
-    await choose(designer, 'Front axle design', 'Front baseline');
-    await choose(designer, 'Rear axle design', 'Rear baseline');
-    await choose(designer, 'Track profile', /^Bumpy circuit/);
+    await chooseOption(designer, 'Vehicle', 'TUR-26 Ember');
+    await chooseOption(designer, 'Front axle design', 'Front baseline');
+    await chooseOption(designer, 'Rear axle design', 'Rear baseline');
+    await chooseOption(designer, 'Track profile', /^Bumpy circuit/);
     await designer.getByLabel('Message (optional)').fill('Baseline on the bumpy profile');
     await designer.getByRole('button', { name: 'Create configuration' }).click();
     await designer.waitForURL((url) => /\/configurations\/[0-9a-f-]{36}$/.test(url.pathname));

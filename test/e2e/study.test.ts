@@ -11,15 +11,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import type { Page } from 'playwright-core';
-import { consoleErrors, offsiteRequests, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
-
-/** Picks `option` in the Material select named `name` (opens its list, clicks the option). */
-async function choose(page: Page, name: string, option: string): Promise<void> {
-  await page.getByRole('combobox', { name, exact: true }).click();
-  await page.getByRole('option', { name: option, exact: true }).click();
-  await page.getByRole('listbox').waitFor({ state: 'detached' });
-}
+import { chooseOption, consoleErrors, offsiteRequests, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 
 describe('Tolerance study in Chromium', () => {
   const env = useE2eApp();
@@ -42,9 +34,9 @@ describe('Tolerance study in Chromium', () => {
     await page.getByLabel('Camber shim thickness').fill('0.5');
     await page.getByLabel('Toe adjuster step').fill('0.375');
     await page.getByRole('button', { name: 'Add a tolerance' }).click();
-    await choose(page, 'Point of tolerance 2', 'upperOuter');
-    await choose(page, 'Coordinate of tolerance 2', 'anywhere in a ball');
-    await choose(page, 'Distribution of tolerance 2', 'Uniform');
+    await chooseOption(page, 'Point of tolerance 2', 'upperOuter');
+    await chooseOption(page, 'Coordinate of tolerance 2', 'anywhere in a ball');
+    await chooseOption(page, 'Distribution of tolerance 2', 'Uniform');
     await page.getByRole('button', { name: 'Start the study' }).click();
     // The study page, or the form's error in the user's words (reported as the failure).
     const refused = page.locator('.rw-study-form [role="alert"]');
@@ -78,7 +70,7 @@ describe('Tolerance study in Chromium', () => {
     const tornado = page.getByTestId('study-tornado');
     await tornado.getByText('Which tolerances matter: Roll steer ε').first().waitFor();
     expect(await tornado.innerText()).toContain('tieRodInner z');
-    await choose(page, 'Output shown in the charts', 'Bump-steer gradient');
+    await chooseOption(page, 'Output shown in the charts', 'Bump-steer gradient');
     await page.getByTestId('study-histogram').getByText('Distribution: Bump-steer gradient').first().waitFor();
     await page.getByRole('table', { name: 'Caution thresholds reached' }).waitFor();
 

@@ -147,6 +147,13 @@ export async function saveScreenshot(page: Page, name: string): Promise<string> 
   return file;
 }
 
+/** Picks `option` in the Material select named `name`, as a user does: opens its list, clicks the option, waits for the list to close. */
+export async function chooseOption(page: Page, name: string, option: string | RegExp): Promise<void> {
+  await page.getByRole('combobox', { name, exact: true }).click();
+  await page.getByRole('option', { name: option, exact: typeof option === 'string' }).click();
+  await page.getByRole('listbox').waitFor({ state: 'detached' });
+}
+
 /** Signs in through the sign-in page and waits until the app has left it. */
 export async function signIn(page: Page, baseUrl: string, email: string, password = DEMO_PASSWORD): Promise<void> {
   await page.goto(`${baseUrl}/sign-in`);
