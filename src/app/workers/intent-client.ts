@@ -2,6 +2,8 @@ import { Injectable, OnDestroy } from '@angular/core';
 import type { ProposalDetails, SolveResult } from '../../../shared/intent/index';
 import type { IntentWorkerReply } from './intent-types';
 import { AnalysisError, AnalysisSuperseded } from './kinematics-client';
+import type { DisplayUnits } from '../core/api-types';
+import { cautionFigures } from './caution-figures';
 
 /** One worker and the promise it answers. */
 interface Run {
@@ -22,20 +24,20 @@ export class IntentClient implements OnDestroy {
   private readonly solveRun: Run = { worker: null, reject: null };
   private readonly memberRun: Run = { worker: null, reject: null };
 
-  solve(intent: unknown, onProgress: (fraction: number, message: string) => void): Promise<SolveResult> {
+  solve(intent: unknown, onProgress: (fraction: number, message: string) => void, units: DisplayUnits = 'si'): Promise<SolveResult> {
     this.cancel();
-    if (typeof Worker === 'undefined') return this.inPage(() => import('../../../shared/intent/api').then((m) => m.computeSolve(intent, onProgress)));
-    return this.start(this.solveRun, { intent }, onProgress).then((r) => {
+    if (typeof Worker === 'undefined') return this.inPage(() => import('../../../shared/intent/api').then((m) => m.computeSolve(intent, onProgress, cautionFigures(units))));
+    return this.start(this.solveRun, { intent, units }, onProgress).then((r) => {
       if (r.kind !== 'done') throw new AnalysisError({ code: 'engine_error', message: 'The solver answered with something else.' });
       return r.result;
     });
   }
 
-  /** The family member at `member` (movable coordinates by name, mm) worked out for the workshop. */
-  details(intent: unknown, member: Readonly<Record<string, number>>): Promise<ProposalDetails> {
+  /** The family member at `member` (movable coordinates by name, mm) worked out for the workshop, its cautions worded in `units`. */
+  details(intent: unknown, member: Readonly<Record<string, number>>, units: DisplayUnits = 'si'): Promise<ProposalDetails> {
     this.stop(this.memberRun, new AnalysisSuperseded());
-    if (typeof Worker === 'undefined') return this.inPage(() => import('../../../shared/intent/api').then((m) => m.computeProposalDetails(intent, member)));
-    return this.start(this.memberRun, { intent, member }, () => undefined).then((r) => {
+    if (typeof Worker === 'undefined') return this.inPage(() => import('../../../shared/intent/api').then((m) => m.computeProposalDetails(intent, member, cautionFigures(units))));
+    return this.start(this.memberRun, { intent, member, units }, () => undefined).then((r) => {
       if (r.kind !== 'details') throw new AnalysisError({ code: 'engine_error', message: 'The solver answered with something else.' });
       return r.details;
     });
@@ -51,7 +53,7 @@ export class IntentClient implements OnDestroy {
     this.stop(this.memberRun, new AnalysisSuperseded());
   }
 
-  private start(run: Run, message: { intent: unknown; member?: Readonly<Record<string, number>> }, onProgress: (f: number, m: string) => void) {
+  private start(run: Run, message: { intent: unknown; member?: Readonly<Record<string, number>>; units: DisplayUnits }, onProgress: (f: number, m: string) => void) {
     const id = this.nextId++;
     return new Promise<Exclude<IntentWorkerReply, { kind: 'progress' | 'failed' }>>((resolve, reject) => {
       run.reject = reject;

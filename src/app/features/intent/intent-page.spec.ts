@@ -170,10 +170,15 @@ describe('IntentPage', () => {
     const pick = rows.findIndex((r) => r.querySelector<HTMLInputElement>('input[type="radio"]')!.checked);
     const other = pick === 0 ? rows.length - 1 : 0;
     const before = text(root, 'coordinates');
+    const verifiedBefore = text(root, 'verified');
+    expect(root.textContent).toContain('Cautions for this member');
     rows[other]!.querySelector<HTMLInputElement>('input[type="radio"]')!.click();
     await until(harness, () => text(root, 'coordinates') !== '' && text(root, 'coordinates') !== before);
     const otherEps = Number(text(root, 'achieved-epsilon').split(' ')[0]);
     expect(Math.abs(otherEps + 0.06)).toBeLessThanOrEqual(TARGET_TOL);
+    // Its own verification (bump steer, worst toe) and its own cautions, not the solver's pick's.
+    expect(text(root, 'verified')).toContain('This member, verified');
+    expect(text(root, 'verified')).not.toBe(verifiedBefore);
 
     // A tiny adjuster reach: the workshop says a new part is needed instead of a number of turns.
     type(root, 'Adjuster reach', '0.001');
@@ -186,6 +191,9 @@ describe('IntentPage', () => {
     button(root, 'Propose as draft revision').click();
     const req = backend.expectOne('/api/teams/t-tal/axle-designs/d-rear/proposals');
     expect(req.request.body.baseRevision).toBe(3);
+    // The chosen member's own cautions go with the proposal (those shown beside it).
+    const shownCodes = [...root.querySelectorAll('rw-caution-list li[data-code]')].map((li) => li.getAttribute('data-code'));
+    expect(req.request.body.origin.cautions.map((c: { code: string }) => c.code)).toEqual(shownCodes);
     expect(req.request.body.origin.member).toBe('chosen-by-user');
     const chosenInner = Number(rows[other]!.querySelectorAll('td')[1]!.textContent);
     expect(req.request.body.corner.points.tieRodInner[2]).toBeCloseTo(chosenInner, 1);
@@ -220,7 +228,7 @@ describe('IntentPage', () => {
 
   it('shows and takes lengths in inches when the user chose inch-pound units', async () => {
     units.set('imperial');
-    const { root } = await open(['team:read']);
+    const { harness, root } = await open(['team:read']);
     const inner = exampleCorners.fsRearWishbone.points.tieRodInner[2];
     const low = root.querySelector<HTMLInputElement>('input[aria-label="Toe link, inner end (body): height z, lowest"]')!;
     // 1 in = 25.4 mm exactly (NIST SP 811).
@@ -229,6 +237,10 @@ describe('IntentPage', () => {
     expect(root.textContent).toContain('Travel from (in, droop)');
     const shim = [...root.querySelectorAll('label')].find((l) => l.textContent?.includes('Shim thickness'))!.querySelector('input')!;
     expect(Number(shim.value)).toBeCloseTo(1 / 25.4, 5);
+    // Entry problems speak inches too: 50 mm (the largest shim) is 1.969 in.
+    type(root, 'Shim thickness', '0');
+    harness.detectChanges();
+    expect(text(root, 'err-shim')).toBe('Shim thickness: 0 in is outside the possible shim thickness: give a value above 0 in and at most 1.969 in.');
   });
 
   it('draws a rig file as toe change from its own ride-height value', () => {

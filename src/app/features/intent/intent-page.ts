@@ -8,7 +8,7 @@ import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/pr
 import { innerName, outerName } from '../../../../shared/schema/steering-link';
 import { intentSchema } from '../../../../shared/schema/intent';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
-import { issueWords, type SchemaIssue } from '../../../../shared/schema/issue-words';
+import { issueWords, wordNumber, type FigureWords, type SchemaIssue } from '../../../../shared/schema/issue-words';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
 import { LineChart } from '../../charts/line-chart';
@@ -280,10 +280,14 @@ export class IntentPage {
     for (const r of this.movableRows()) labels[r.name] = r.label;
     for (const issue of checked.error.issues) {
       if (issue.path[0] === 'movable' && on.length === 0) continue;
-      add(this.fieldOf(issue.path, doc), issueWords(issue as SchemaIssue, doc, labels));
+      add(this.fieldOf(issue.path, doc), issueWords(issue as SchemaIssue, doc, labels, this.figureWords));
     }
     return out;
   });
+
+  /** A figure of an entry problem in the user's units (lengths in inches for an inch/pound user). */
+  private readonly figureWords: FigureWords = (v, unit) =>
+    unit === 'mm' ? { value: wordNumber(inDisplayUnits(v, 'length', this.units())), unit: this.lengthUnit() } : { value: wordNumber(v), unit };
 
   private fieldOf(path: ReadonlyArray<PropertyKey>, doc: Record<string, unknown>): FieldKey {
     const [a, b] = path;
@@ -363,10 +367,10 @@ export class IntentPage {
     const options = (this.document()?.['options'] ?? {}) as Record<string, unknown>;
     return JSON.stringify(WORKSHOP_OPTION_KEYS.map((k) => options[k]));
   });
-  /** The solve, the member and the workshop entries a worked-out member belongs to (other entries only make the result out of date). */
+  /** The solve, the member, the workshop entries and the unit system (of its cautions' words) a worked-out member belongs to (other entries only make the result out of date). */
   private readonly detailsKey = computed(() => {
     const m = this.selectedMember();
-    return m ? JSON.stringify({ solve: this.solved()?.key, member: m.coordinates, workshop: this.workshopKey() }) : '';
+    return m ? JSON.stringify({ solve: this.solved()?.key, member: m.coordinates, workshop: this.workshopKey(), units: this.units() }) : '';
   });
   private readonly detailsState = signal<{ key: string; value: ProposalDetails } | { key: string; error: string } | null>(null);
   /** The chosen member worked out, when it belongs to the entries on screen. */
@@ -478,8 +482,8 @@ export class IntentPage {
     ];
   });
 
-  /** The result's cautions; its safety notice is the page's own caution below. */
-  protected readonly resultCautions = computed(() => (this.result()?.cautions ?? []).filter((c) => c.code !== 'safety-notice'));
+  /** The chosen member's own cautions; its safety notice is the page's own caution below. */
+  protected readonly memberCautions = computed(() => (this.details()?.cautions ?? []).filter((c) => c.code !== 'safety-notice'));
 
   constructor() {
     // Loads on arrival and again when the router reuses this page for other route parameters.
@@ -508,11 +512,11 @@ export class IntentPage {
 
   private async workOut(key: string, doc: Record<string, unknown>, member: Readonly<Record<string, number>>): Promise<void> {
     try {
-      const value = await this.solver.details(doc, member);
+      const value = await this.solver.details(doc, member, untracked(this.units));
       this.detailsState.set({ key, value });
     } catch (error) {
       if (error instanceof AnalysisSuperseded) return;
-      this.detailsState.set({ key, error: error instanceof AnalysisError ? failureWords(error.failure) : String(error) });
+      this.detailsState.set({ key, error: error instanceof AnalysisError ? failureWords(error.failure, this.units()) : String(error) });
     }
   }
 
@@ -610,14 +614,18 @@ export class IntentPage {
     this.progress.set(0);
     this.progressMessage.set('starting');
     try {
-      const result = await this.solver.solve(this.intentDocument(), (f, m) => {
-        this.progress.set(Math.round(f * 100));
-        this.progressMessage.set(m);
-      });
+      const result = await this.solver.solve(
+        this.intentDocument(),
+        (f, m) => {
+          this.progress.set(Math.round(f * 100));
+          this.progressMessage.set(m);
+        },
+        this.units(),
+      );
       this.solved.set({ result, key, asked });
     } catch (error) {
       if (error instanceof AnalysisSuperseded) return;
-      this.failure.set({ message: error instanceof AnalysisError ? failureWords(error.failure) : String(error), asked });
+      this.failure.set({ message: error instanceof AnalysisError ? failureWords(error.failure, this.units()) : String(error), asked });
     } finally {
       this.running.set(false);
     }
@@ -649,8 +657,8 @@ export class IntentPage {
             trackProfile: r.trackProfile.id,
             engineVersion: r.engineVersion,
             member: m.solverPick ? 'solver-pick' : 'chosen-by-user',
-            // The solve's cautions were measured on the solver's pick; another member carries none of them.
-            cautions: m.solverPick ? r.cautions.filter((c) => c.code !== 'safety-notice') : [],
+            // The chosen member's own cautions, measured on its geometry.
+            cautions: member.cautions.filter((c) => c.code !== 'safety-notice'),
           },
         }),
       );
