@@ -68,9 +68,6 @@ describe('IntentPage', () => {
     backend.expectOne('/api/teams/t-tal/axle-designs/d-rear').flush(DESIGN);
     backend.expectOne('/api/teams/t-tal').flush({ id: 't-tal', name: 'Tallowmere University Racing', slug: 'tallowmere', roles: ['engineer'], permissions });
     await settle();
-    backend.expectOne('/api/teams/t-tal/rig-measurements?designId=d-rear').flush(rig.map(({ points: _points, ...summary }) => summary));
-    await settle();
-    for (const f of rig) backend.expectOne(`/api/teams/t-tal/rig-measurements/${f.id}`).flush(f);
     backend.expectOne('/api/teams/t-tal/vehicles/v-ember').flush({
       id: 'v-ember',
       name: 'TUR-26 Ember',
@@ -81,12 +78,20 @@ describe('IntentPage', () => {
       updatedByName: null,
     });
     await settle();
+    backend.expectOne('/api/teams/t-tal/rig-measurements?designId=d-rear').flush(rig.map(({ points: _points, ...summary }) => summary));
+    await settle();
+    for (const f of rig) backend.expectOne(`/api/teams/t-tal/rig-measurements/${f.id}`).flush(f);
+    await settle();
     harness.detectChanges();
     return { harness, root: harness.routeNativeElement as HTMLElement };
   }
 
+  /** The Material field whose label reads `label`. */
+  const field = (root: HTMLElement, label: string) =>
+    [...root.querySelectorAll('mat-form-field')].find((f) => f.querySelector('mat-label')?.textContent?.includes(label))!.querySelector<HTMLInputElement>('input')!;
+
   function type(root: HTMLElement, label: string, value: string): void {
-    const input = [...root.querySelectorAll<HTMLInputElement>('label')].find((l) => l.textContent?.includes(label))!.querySelector('input')!;
+    const input = field(root, label);
     input.value = value;
     input.dispatchEvent(new Event('input'));
     input.dispatchEvent(new Event('change'));
@@ -115,11 +120,14 @@ describe('IntentPage', () => {
   it('offers the toe-link heights as movable, with bounds around the current ones', async () => {
     const { root } = await open(['team:read', 'design:propose', 'vehicle:edit']);
     const inner = exampleCorners.fsRearWishbone.points.tieRodInner[2];
-    const box = root.querySelector<HTMLInputElement>('#mv-tieRodInner\\.z')!;
+    const box = root.querySelector<HTMLInputElement>('mat-checkbox[data-coordinate="tieRodInner.z"] input')!;
     expect(box.checked).toBe(true);
+    // One component family: Material fields, selects, checkboxes and radios only.
+    expect(root.querySelectorAll('select, input:not(.mat-mdc-input-element):not(.mdc-checkbox__native-control):not(.mdc-radio__native-control)').length).toBe(0);
+    expect(root.querySelectorAll('mat-select').length).toBe(2);
     expect(root.querySelector<HTMLInputElement>('input[aria-label="Toe link, inner end (body): height z, lowest"]')!.value).toBe(String(inner - 20));
     // Not steered: no rack height to move.
-    expect(root.querySelector('#mv-rack\\.z')).toBeNull();
+    expect(root.querySelector('mat-checkbox[data-coordinate="rack.z"]')).toBeNull();
     // No target yet: the solve waits for a number, said beside the target.
     expect(text(root, 'err-target')).toBe('Target: enter a number.');
     expect(button(root, 'Solve').disabled).toBe(true);
@@ -235,7 +243,7 @@ describe('IntentPage', () => {
     expect(Number(low.value)).toBeCloseTo((inner - 20) / 25.4, 5);
     expect(root.textContent).toContain('packaging bounds (in)');
     expect(root.textContent).toContain('Travel from (in, droop)');
-    const shim = [...root.querySelectorAll('label')].find((l) => l.textContent?.includes('Shim thickness'))!.querySelector('input')!;
+    const shim = field(root, 'Shim thickness');
     expect(Number(shim.value)).toBeCloseTo(1 / 25.4, 5);
     // Entry problems speak inches too: 50 mm (the largest shim) is 1.969 in.
     type(root, 'Shim thickness', '0');

@@ -1,8 +1,14 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
-import { firstValueFrom } from 'rxjs';
+import { MatCheckbox } from '@angular/material/checkbox';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { MatRadioButton, MatRadioGroup } from '@angular/material/radio';
+import { MatOption, MatSelect } from '@angular/material/select';
+import { catchError, firstValueFrom, forkJoin, map, of, switchMap } from 'rxjs';
 import type { ProposalDetails, SolveResult } from '../../../../shared/intent/index';
 import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import { innerName, outerName } from '../../../../shared/schema/steering-link';
@@ -10,6 +16,7 @@ import { intentSchema } from '../../../../shared/schema/intent';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { issueWords, wordNumber, type FigureWords, type SchemaIssue } from '../../../../shared/schema/issue-words';
 import { apiProblem } from '../../core/http/api-error';
+import { loadState } from '../../core/http/load-state';
 import { TeamAccess } from '../../core/teams/team-access';
 import { LineChart } from '../../charts/line-chart';
 import { ChartMark, LineSeries } from '../../charts/chart-types';
@@ -26,7 +33,6 @@ import { BumpCostView } from '../bump-cost';
 import { NumPipe, DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
 import { inDisplayUnits, unitLabel, type QuantityKind } from '../../core/format/quantities';
-import { routeKey } from '../route-params';
 import { RigApi, type RigMeasurementDetail } from '../rig/rig-api';
 
 /** Rig files drawn over the toe curves at most (the newest). */
@@ -110,7 +116,24 @@ const TARGET_WORDS: Readonly<Record<TargetKind, string>> = {
  */
 @Component({
   selector: 'rw-intent-page',
-  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution, CautionList, BumpCostView],
+  imports: [
+    NumPipe,
+    RouterLink,
+    MatButton,
+    MatProgressBar,
+    MatCheckbox,
+    MatFormField,
+    MatLabel,
+    MatInput,
+    MatRadioGroup,
+    MatRadioButton,
+    MatSelect,
+    MatOption,
+    LineChart,
+    SafetyCaution,
+    CautionList,
+    BumpCostView,
+  ],
   templateUrl: './intent-page.html',
   styleUrl: './intent-page.scss',
   providers: [IntentClient],
@@ -127,9 +150,32 @@ export class IntentPage {
   readonly vehicleId = input.required<string>();
   readonly designId = input.required<string>();
 
-  protected readonly loadError = signal<string | null>(null);
-  protected readonly design = signal<AxleDesign | null>(null);
-  protected readonly vehicleData = signal<unknown | null>(null);
+  /**
+   * The axle design, the team's permissions and the vehicle's data (null where the vehicle cannot be read:
+   * the understeer target then waits for it), loaded again when the router reuses this page.
+   */
+  private readonly loaded = rxResource({
+    params: () => ({ teamId: this.teamId(), vehicleId: this.vehicleId(), designId: this.designId() }),
+    stream: ({ params: p }) =>
+      forkJoin({ design: this.api.axleDesign(p.teamId, p.designId), access: this.access.load(p.teamId) }).pipe(
+        switchMap(({ design }) =>
+          this.api.vehicle(p.teamId, p.vehicleId).pipe(
+            map((v): unknown => v.data),
+            catchError(() => of(null)),
+            map((vehicle) => ({ design, vehicle })),
+          ),
+        ),
+      ),
+  });
+  protected readonly state = loadState(this.loaded);
+  protected readonly design = computed<AxleDesign | null>(() => {
+    const s = this.state();
+    return s.status === 'ready' ? s.value.design : null;
+  });
+  protected readonly vehicleData = computed<unknown>(() => {
+    const s = this.state();
+    return s.status === 'ready' ? s.value.vehicle : null;
+  });
   protected readonly canPropose = computed(() => this.access.can('design:propose'));
 
   /** The user's length unit ("mm" or "in"). */
@@ -486,11 +532,16 @@ export class IntentPage {
   protected readonly memberCautions = computed(() => (this.details()?.cautions ?? []).filter((c) => c.code !== 'safety-notice'));
 
   constructor() {
-    // Loads on arrival and again when the router reuses this page for other route parameters.
+    // The entries start from each design loaded (on arrival, and when the router reuses this page), with its rig files.
     effect(() => {
-      routeKey(this.teamId(), this.vehicleId(), this.designId());
+      const design = this.design();
+      if (!design) return;
       untracked(() => {
-        void this.load();
+        this.solved.set(null);
+        this.failure.set(null);
+        this.detailsState.set(null);
+        this.initEntries();
+        void this.loadRig(design);
       });
     });
     // Works out the chosen member whenever it, the result or the workshop entries change.
@@ -517,26 +568,6 @@ export class IntentPage {
     } catch (error) {
       if (error instanceof AnalysisSuperseded) return;
       this.detailsState.set({ key, error: error instanceof AnalysisError ? failureWords(error.failure, this.units()) : String(error) });
-    }
-  }
-
-  private async load(): Promise<void> {
-    try {
-      const [design] = await Promise.all([
-        firstValueFrom(this.api.axleDesign(this.teamId(), this.designId())),
-        firstValueFrom(this.access.load(this.teamId())),
-      ]);
-      this.design.set(design);
-      this.initEntries();
-      void this.loadRig(design);
-      try {
-        const vehicle = await firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId()));
-        this.vehicleData.set(vehicle.data);
-      } catch {
-        this.vehicleData.set(null);
-      }
-    } catch (error) {
-      this.loadError.set(apiProblem(error).message);
     }
   }
 
@@ -682,13 +713,5 @@ export class IntentPage {
 
   protected text(event: Event): string {
     return (event.target as HTMLInputElement).value;
-  }
-
-  protected checked(event: Event): boolean {
-    return (event.target as HTMLInputElement).checked;
-  }
-
-  protected adjusterFrom(event: Event): 'single-thread' | 'turnbuckle' {
-    return (event.target as HTMLSelectElement).value === 'turnbuckle' ? 'turnbuckle' : 'single-thread';
   }
 }
