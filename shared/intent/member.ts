@@ -13,12 +13,10 @@ import { rollSweep, type SweepRow } from '../kinematics/index.js';
 import { readCoordinates } from './coordinates.js';
 import { PoseCounter, rollSteer, sweep, trialCorner } from './link.js';
 import { asBuiltCorner, workshopNumbers, type WorkshopNumbers } from './workshop.js';
-import { judgeMember, toeAfterShimming, understeerChange, verifyOverRacks, type CoordinateChange, type StaticToeReset } from './solve.js';
+import { coordinateChanges, judgeMember, sensitivities, toeAfterShimming, understeerChange, verifyOverRacks, type CoordinateChange, type StaticToeReset } from './solve.js';
 import { SI_FIGURES, type Caution, type CautionFigures } from '../cautions/cautions.js';
 import type { BumpCost } from '../ride/cost.js';
 
-/** Step of the central differences of the sensitivities, mm (as the solver's own). */
-const SENSITIVITY_STEP_MM = 0.5;
 /** Roll range of the roll-steer curves, deg (either way). */
 const ROLL_RANGE_DEG = 3;
 
@@ -73,22 +71,17 @@ export function proposalDetails(intent: Intent, values: Readonly<Record<string, 
   const current = intent.corner;
   const names = intent.movable;
   const q0 = readCoordinates(current, names);
+  const lo = names.map((n) => intent.bounds[n]![0]);
+  const hi = names.map((n) => intent.bounds[n]![1]);
   const q = names.map((n, i) => {
     const v = values[n];
-    const [lo, hi] = intent.bounds[n]!;
-    return v === undefined || !Number.isFinite(v) ? q0[i]! : Math.min(hi, Math.max(lo, v));
+    return v === undefined || !Number.isFinite(v) ? q0[i]! : Math.min(hi[i]!, Math.max(lo[i]!, v));
   });
   const proposed = trialCorner(current, names, q);
   const eps = rollSteer(counter, proposed);
   const epsCurrent = rollSteer(counter, current);
 
-  const sensitivity: Record<string, number> = {};
-  names.forEach((n, i) => {
-    const h = SENSITIVITY_STEP_MM;
-    const up = rollSteer(counter, trialCorner(current, names, q.map((x, j) => (j === i ? x + h : x))));
-    const dn = rollSteer(counter, trialCorner(current, names, q.map((x, j) => (j === i ? x - h : x))));
-    sensitivity[n] = (up - dn) / (2 * h);
-  });
+  const sensitivity = sensitivities((x) => rollSteer(counter, trialCorner(current, names, x)), names, q);
 
   const workshop = workshopNumbers(current, proposed, intent.options);
   const built = asBuiltCorner(current, proposed, intent.options.shimThicknessMm);
@@ -128,17 +121,7 @@ export function proposalDetails(intent: Intent, values: Readonly<Record<string, 
   const rollNew = steerFromZero(proposed);
 
   return {
-    coordinates: names.map((n, i) => {
-      const [lo, hi] = intent.bounds[n]!;
-      return {
-        name: n,
-        currentMm: q0[i]!,
-        proposedMm: q[i]!,
-        changeMm: q[i]! - q0[i]!,
-        boundsMm: [lo, hi],
-        atBound: Math.abs(q[i]! - lo) < 1e-6 ? 'min' : Math.abs(q[i]! - hi) < 1e-6 ? 'max' : null,
-      };
-    }),
+    coordinates: coordinateChanges(names, q0, q, lo, hi),
     corner: proposed,
     rollSteerCoefficient: eps,
     currentRollSteerCoefficient: epsCurrent,

@@ -412,13 +412,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress, figures: Caut
     if (!placed) family.push(memberOut(q, true, true, achievedObjective));
   }
 
-  const sensitivity: Record<string, number> = {};
-  names.forEach((n, i) => {
-    const h = 0.5;
-    const up = epsOf(build(q.map((x, j) => (j === i ? x + h : x))));
-    const dn = epsOf(build(q.map((x, j) => (j === i ? x - h : x))));
-    sensitivity[n] = (up - dn) / (2 * h);
-  });
+  const sensitivity = sensitivities((x) => epsOf(build(x)), names, q);
 
   // Balance bought against bump cost: the primary coordinate across its bounds, the others as proposed
   // (the family itself all meets the target, so it has no spread in balance to trade).
@@ -462,14 +456,8 @@ export function solveIntent(intent: Intent, onProgress?: Progress, figures: Caut
   const pts = proposed.points as Record<string, Vec3>;
   const inner = innerName(current);
   const outer = outerName(current);
-  const coordinates: CoordinateChange[] = names.map((n, i) => ({
-    name: n,
-    currentMm: q0[i]!,
-    proposedMm: q[i]!,
-    changeMm: q[i]! - q0[i]!,
-    boundsMm: [lo[i]!, hi[i]!],
-    atBound: Math.abs(q[i]! - lo[i]!) < 1e-6 ? 'min' : Math.abs(q[i]! - hi[i]!) < 1e-6 ? 'max' : null,
-  }));
+  const coordinates = coordinateChanges(names, q0, q, lo, hi);
+
   progress(1, 'done');
   const targetKind =
     'rollSteerCoefficient' in intent.target
@@ -580,6 +568,27 @@ export function judgeMember(
   const context = { axle: intent.axle, vehicle: intent.vehicle, gradients, referenceRollDeg: intent.options.referenceRollDeg, thresholds: intent.cautionThresholds };
   const inputs = cautionInputs(counter, context, profile, corner, eps, verified.byRack, verified.unreachableRacks);
   return { cautions: evaluateCautions(inputs, figures), bumpCost: inputs.bumpCost ?? null, bumpCostUnavailable: inputs.bumpCostUnavailable ?? null };
+}
+
+/** Step of the central differences of the sensitivities, mm. */
+const SENSITIVITY_STEP_MM = 0.5;
+
+/** dε per mm of each coordinate at q (central differences ±0.5 mm), deg/deg per mm; `eps` gives ε at a coordinate vector. */
+export function sensitivities(eps: (q: number[]) => number, names: readonly string[], q: readonly number[]): Record<string, number> {
+  const out: Record<string, number> = {};
+  const h = SENSITIVITY_STEP_MM;
+  names.forEach((n, i) => {
+    out[n] = (eps(q.map((x, j) => (j === i ? x + h : x))) - eps(q.map((x, j) => (j === i ? x - h : x)))) / (2 * h);
+  });
+  return out;
+}
+
+/** Each coordinate's current and proposed value, its change and bounds, and which bound it sits at, mm. */
+export function coordinateChanges(names: readonly string[], q0: readonly number[], q: readonly number[], lo: readonly number[], hi: readonly number[]): CoordinateChange[] {
+  return names.map((name, i) => {
+    const [a, b, v] = [lo[i]!, hi[i]!, q[i]!];
+    return { name, currentMm: q0[i]!, proposedMm: v, changeMm: v - q0[i]!, boundsMm: [a, b], atBound: Math.abs(v - a) < 1e-6 ? 'min' : Math.abs(v - b) < 1e-6 ? 'max' : null };
+  });
 }
 
 /** Rack positions of the verification: 0 first, then the intent's or the stroke's ends. */

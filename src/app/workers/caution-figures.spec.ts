@@ -1,16 +1,17 @@
 import { SI_FIGURES } from '../../../shared/cautions/cautions';
 import { cautionFigures } from './caution-figures';
+import { figureUnits } from './intent-client';
 
 describe('cautionFigures', () => {
   it('writes SI figures as the shared rules do by default', () => {
-    const si = cautionFigures('si');
+    const si = cautionFigures(figureUnits('si'));
     expect(si.length(12.345, 1)).toBe(SI_FIGURES.length(12.345, 1));
     expect(si.drift(0.123, 1)).toBe(SI_FIGURES.drift(0.123, 1));
     expect(si.bumpSteer(-8.25, 1)).toBe(SI_FIGURES.bumpSteer(-8.25, 1));
   });
 
   it('writes inch/pound figures with the exact factors (1 in = 25.4 mm, 1 ft = 0.3048 m, 1 mi = 1.609344 km, 1 lbf = 4.4482216152605 N)', () => {
-    const us = cautionFigures('imperial');
+    const us = cautionFigures(figureUnits('imperial'));
     // 1 decimal in mm is 2 in inches (the same resolution, log10 25.4 ≈ 1.4).
     expect(us.length(50.8, 1)).toBe('2.00 in');
     expect(us.distance(30.48)).toBe('100 ft');

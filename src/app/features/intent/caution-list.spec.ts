@@ -1,4 +1,4 @@
-import { Component, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import type { Caution } from '../../../../shared/cautions/cautions';
 import type { DisplayUnits } from '../../core/api-types';
@@ -8,7 +8,7 @@ import { CautionList } from './caution-list';
 const SCRUB: Caution = { level: 'warning', code: 'bump-lateral-scrub', message: 'The contact patch moves sideways.', value: 12.7, threshold: 5.08, unit: 'mm', basis: 'common practice' };
 const DRIFT: Caution = { level: 'critical', code: 'bump-heading-change', message: 'The car drifts.', value: 0.3048, threshold: 0.25, unit: 'm of drift in 1 s', basis: 'product default' };
 
-@Component({ selector: 'rw-host', imports: [CautionList], template: `<rw-caution-list [cautions]="cautions" />` })
+@Component({ selector: 'rw-host', imports: [CautionList], template: `<rw-caution-list [cautions]="cautions" />`, changeDetection: ChangeDetectionStrategy.OnPush })
 class Host {
   cautions = [SCRUB, DRIFT];
 }

@@ -29,7 +29,7 @@ import { apiProblem } from '../../core/http/api-error';
 import { loadState, type LoadState } from '../../core/http/load-state';
 import { CautionList } from '../intent/caution-list';
 import { SafetyCaution } from '../safety-caution';
-import { RigApi, type RigMeasurementDetail, type RigMeasurementSummary, type RigPreviewAnswer, type RigTarget, type RigToleranceView } from './rig-api';
+import { RigApi, type RigMeasurementDetail, type RigMeasurementSummary, type RigPreviewAnswer, type RigTarget } from './rig-api';
 import { NumPipe } from '../../core/format/num-pipe';
 import type { AxleName } from '../../../../shared/schema/axle';
 
