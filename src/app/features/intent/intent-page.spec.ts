@@ -166,7 +166,8 @@ describe('IntentPage', () => {
     expect(text(root, 'as-built-epsilon')).toMatch(/^ε -?\d\.\d{4} deg\/deg/);
     expect(text(root, 'sensitivity')).toMatch(/deg\/deg per mm/);
     expect(text(root, 'static-toe')).toMatch(/toward toe-(in|out)|none/);
-    // Proposed curves over the current ones, and the rig file of this revision as points from its ride-height toe.
+    // Proposed curves over the current ones (a deferred part of the page), and the rig file of this revision as points from its ride-height toe.
+    await until(harness, () => root.querySelector('[data-testid="toe-overlay"] path.rw-series-line') !== null);
     expect(root.querySelectorAll('[data-testid="toe-overlay"] path.rw-series-line').length).toBe(2);
     expect(root.querySelector('[data-testid="toe-overlay"]')!.textContent).toContain('Rig: Shakedown (left wheel)');
     expect(root.querySelectorAll('[data-testid="roll-overlay"] path.rw-series-line').length).toBe(2);
