@@ -3,7 +3,7 @@ import type { ProposalDetails, SolveResult } from '../../../shared/intent/index'
 import type { IntentWorkerReply } from './intent-types';
 import { AnalysisError, AnalysisSuperseded } from './kinematics-client';
 import type { DisplayUnits } from '../core/api-types';
-import { cautionFigures, type FigureUnit, type FigureUnits } from './caution-figures';
+import type { FigureUnit, FigureUnits } from './caution-figures';
 import { displayDecimals, inDisplayUnits, unitLabel, type QuantityKind } from '../core/format/quantities';
 
 /** The units of the cautions' figures for the worker, from the app's quantity table (exact factors, resolution kept). */
@@ -33,7 +33,7 @@ export class IntentClient implements OnDestroy {
 
   solve(intent: unknown, onProgress: (fraction: number, message: string) => void, units: DisplayUnits = 'si'): Promise<SolveResult> {
     this.cancel();
-    if (typeof Worker === 'undefined') return this.inPage(() => import('../../../shared/intent/api').then((m) => m.computeSolve(intent, onProgress, cautionFigures(figureUnits(units)))));
+    if (typeof Worker === 'undefined') return this.inPage(async () => (await import('../../../shared/intent/api')).computeSolve(intent, onProgress, (await import('./caution-figures')).cautionFigures(figureUnits(units))));
     return this.start(this.solveRun, { intent, figures: figureUnits(units) }, onProgress).then((r) => {
       if (r.kind !== 'done') throw new AnalysisError({ code: 'engine_error', message: 'The solver answered with something else.' });
       return r.result;
@@ -43,7 +43,7 @@ export class IntentClient implements OnDestroy {
   /** The family member at `member` (movable coordinates by name, mm) worked out for the workshop, its cautions worded in `units`. */
   details(intent: unknown, member: Readonly<Record<string, number>>, units: DisplayUnits = 'si'): Promise<ProposalDetails> {
     this.stop(this.memberRun, new AnalysisSuperseded());
-    if (typeof Worker === 'undefined') return this.inPage(() => import('../../../shared/intent/api').then((m) => m.computeProposalDetails(intent, member, cautionFigures(figureUnits(units)))));
+    if (typeof Worker === 'undefined') return this.inPage(async () => (await import('../../../shared/intent/api')).computeProposalDetails(intent, member, (await import('./caution-figures')).cautionFigures(figureUnits(units))));
     return this.start(this.memberRun, { intent, member, figures: figureUnits(units) }, () => undefined).then((r) => {
       if (r.kind !== 'details') throw new AnalysisError({ code: 'engine_error', message: 'The solver answered with something else.' });
       return r.details;
