@@ -96,12 +96,6 @@ const OPTION_FIELDS: Readonly<Record<string, FieldKey>> = {
 /** Workshop defaults (the intent schema's), mm. */
 const WORKSHOP_DEFAULTS_MM = { shim: 1, pitch: 1.5, reach: 5, stack: 10 } as const;
 
-const TARGET_WORDS: Readonly<Record<TargetKind, string>> = {
-  epsilon: 'roll steer coefficient ε',
-  toePerRoll: 'outside-wheel toe-in per degree of roll',
-  understeer: 'understeer-gradient change',
-  zeroBump: 'zero bump steer',
-};
 
 /**
  * Intent panel: what an axle should do in roll, what may move and within
@@ -385,8 +379,6 @@ export class IntentPage {
     if (t.kind === 'toePerRoll') return `${n} deg of outside-wheel toe-in per deg of roll (${rollSteerWords(-t.value, this.axle())})`;
     return `${n} deg/g of understeer-gradient change`;
   }
-
-  protected readonly targetKindWords = TARGET_WORDS;
 
   // ---- the result, and whether it still belongs to the entries ----
 
