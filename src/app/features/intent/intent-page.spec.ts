@@ -6,7 +6,8 @@ import { exampleVehicles } from '../../../../shared/balance/examples';
 import type { DisplayUnits } from '../../core/api-types';
 import { settle } from '../../../testing/settle';
 import type { AxleDesign } from '../features-api';
-import { IntentPage, rigToeChange } from './intent-page';
+import { IntentPage } from './intent-page';
+import { rigToeChange } from './intent-charts';
 import { routedPageTestBed } from '../../../testing/routed-page';
 
 const URL = '/teams/t-tal/vehicles/v-ember/axle-designs/d-rear/intent';
