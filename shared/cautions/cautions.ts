@@ -226,6 +226,34 @@ export interface CautionInputs {
 
 const fmt = (x: number, d = 3): string => (Math.abs(x) >= 100 ? x.toFixed(0) : x.toFixed(d));
 
+/**
+ * How a caution writes a figure with a unit, in the user's unit system: each returns the number and its
+ * unit ("12.5 mm" or "0.49 in"). `siDecimals` is the resolution in the stored unit; a formatter for other
+ * units keeps the same resolution. Screens pass theirs (built on the app's one number formatter); servers,
+ * reports in SI and tests use `SI_FIGURES`.
+ */
+export interface CautionFigures {
+  /** A length on the car, mm. */
+  length(mm: number, siDecimals: number): string;
+  /** A short sideways drift on the road, m (SI writes it in cm). */
+  drift(m: number, siDecimals: number): string;
+  /** A distance on the road (a corner radius), m. */
+  distance(m: number): string;
+  speed(kph: number): string;
+  force(n: number): string;
+  /** A bump-steer gradient, deg/m. */
+  bumpSteer(degPerM: number, siDecimals: number): string;
+}
+
+export const SI_FIGURES: CautionFigures = {
+  length: (mm, d) => `${fmt(mm, d)} mm`,
+  drift: (m, d) => `${fmt(100 * m, d)} cm`,
+  distance: (m) => `${fmt(m, 0)} m`,
+  speed: (kph) => `${fmt(kph, 0)} km/h`,
+  force: (n) => `${fmt(n, 0)} N`,
+  bumpSteer: (g, d) => `${fmt(g, d)} deg/m`,
+};
+
 function measured(
   code: keyof typeof CAUTION_RULES,
   value: number,
@@ -239,33 +267,34 @@ function measured(
 }
 
 /** Every caution that applies, most severe first; the safety notice always comes last. */
-export function evaluateCautions(inputs: CautionInputs): Caution[] {
+export function evaluateCautions(inputs: CautionInputs, figures: CautionFigures = SI_FIGURES): Caution[] {
+  const f = figures;
   const out: (Caution | null)[] = [];
   const p = inputs.profile;
   const eps = inputs.rollSteerCoefficient;
-  const rackNote = inputs.steered && inputs.bumpToeRackMm !== 0 ? ` at rack ${fmt(inputs.bumpToeRackMm, 1)} mm` : '';
+  const rackNote = inputs.steered && inputs.bumpToeRackMm !== 0 ? ` at rack ${f.length(inputs.bumpToeRackMm, 1)}` : '';
 
   const bc = inputs.bumpCost;
   if (bc) {
-    const at = bc.judgedAt === 'operating-steer' ? ` (at the steer of a ${fmt(bc.cornerRadiusM, 0)} m corner)` : '';
+    const at = bc.judgedAt === 'operating-steer' ? ` (at the steer of a ${f.distance(bc.cornerRadiusM)} corner)` : '';
     if (bc.yawDisturbancePct !== null) {
       out.push(
         measured('bump-yaw-disturbance', bc.yawDisturbancePct, inputs, (th) =>
-          `On a ${bc.roadInWords} this bump steer shakes the car's yaw rate by ${fmt(bc.yawRateRmsDegPerS ?? 0)} deg/s RMS${at}, ${fmt(bc.yawDisturbancePct ?? 0, 2)} % of the ${fmt(bc.steadyYawRateDegPerS, 1)} deg/s of a ${fmt(bc.cornerRadiusM, 0)} m corner (limit ${fmt(th, 1)} %).`,
+          `On a ${bc.roadInWords} this bump steer shakes the car's yaw rate by ${fmt(bc.yawRateRmsDegPerS ?? 0)} deg/s RMS${at}, ${fmt(bc.yawDisturbancePct ?? 0, 2)} % of the ${fmt(bc.steadyYawRateDegPerS, 1)} deg/s of a ${f.distance(bc.cornerRadiusM)} corner (limit ${fmt(th, 1)} %).`,
         ),
       );
     }
     if (bc.driftM !== null) {
       out.push(
         measured('bump-heading-change', Math.abs(bc.driftM), inputs, (th) =>
-          `A ${fmt(bc.bumpHeightMm, 0)} mm bump under one wheel at ${fmt(bc.speedKph, 0)} km/h turns the car by ${fmt(bc.headingChangeDeg ?? 0)}°: ${fmt(100 * Math.abs(bc.driftM ?? 0), 1)} cm of sideways drift within a second (limit ${fmt(100 * th, 0)} cm).`,
+          `A ${f.length(bc.bumpHeightMm, 0)} bump under one wheel at ${f.speed(bc.speedKph)} turns the car by ${fmt(bc.headingChangeDeg ?? 0)}°: ${f.drift(Math.abs(bc.driftM ?? 0), 1)} of sideways drift within a second (limit ${f.drift(th, 0)}).`,
         ),
       );
     }
     if (bc.landingSideForceFraction !== null) {
       out.push(
         measured('landing-side-force', bc.landingSideForceFraction, inputs, (th) =>
-          `Landing from ${fmt(bc.landingDropMm ?? 0, 0)} mm, a wheel's toe change pushes its tyre sideways with ${fmt(100 * bc.landingSideForceFraction!, 1)} % of its load (limit ${fmt(100 * th, 0)} %): the car darts when the wheels land unevenly.`,
+          `Landing from ${f.length(bc.landingDropMm ?? 0, 0)}, a wheel's toe change pushes its tyre sideways with ${fmt(100 * bc.landingSideForceFraction!, 1)} % of its load (limit ${fmt(100 * th, 0)} %): the car darts when the wheels land unevenly.`,
         ),
       );
     }
@@ -282,19 +311,19 @@ export function evaluateCautions(inputs: CautionInputs): Caution[] {
   }
   out.push(
     measured('bump-toe-change', inputs.bumpToeChangeDeg, inputs, () =>
-      `A ${fmt(p.bumpHeightMm, 0)} mm single-wheel bump toes the wheel by ${fmt(inputs.bumpToeChangeDeg)}°${rackNote} (information; its consequences are judged in yaw rate and heading).`,
+      `A ${f.length(p.bumpHeightMm, 0)} single-wheel bump toes the wheel by ${fmt(inputs.bumpToeChangeDeg)}°${rackNote} (information; its consequences are judged in yaw rate and heading).`,
     ),
   );
   const index = inputs.corneringCoefficientPerDeg * inputs.bumpToeChangeDeg;
   out.push(
     measured('bump-lateral-force', index, inputs, (th) => {
-      const force = inputs.landingLoadN !== null ? ` (about ${fmt(index * inputs.landingLoadN, 0)} N at a landing load of ${fmt(inputs.landingLoadN, 0)} N)` : '';
+      const force = inputs.landingLoadN !== null ? ` (about ${f.force(index * inputs.landingLoadN)} at a landing load of ${f.force(inputs.landingLoadN)})` : '';
       return `That toe change pushes the tyre sideways with ${fmt(100 * index, 1)} % of its landing load${force}, at or above your ${fmt(100 * th, 1)} %; cornering coefficient from ${inputs.corneringCoefficientSource}.`;
     }),
   );
   out.push(
     measured('bump-lateral-scrub', inputs.bumpScrubMm, inputs, (th) =>
-      `The contact patch moves ${fmt(inputs.bumpScrubMm, 1)} mm sideways over the ${fmt(p.bumpHeightMm, 0)} mm bump (limit ${fmt(th, 1)} mm): the tyre scrubs and the car is nudged off line.`,
+      `The contact patch moves ${f.length(inputs.bumpScrubMm, 1)} sideways over the ${f.length(p.bumpHeightMm, 0)} bump (limit ${f.length(th, 1)}): the tyre scrubs and the car is nudged off line.`,
     ),
   );
   if (inputs.axle === 'front' && inputs.steered) {
@@ -332,7 +361,7 @@ export function evaluateCautions(inputs: CautionInputs): Caution[] {
   if (inputs.steered) {
     out.push(
       measured('lock-bump-steer-spread', inputs.lockBumpSteerSpreadDegPerM, inputs, () =>
-        `Bump steer at rack ${fmt(inputs.lockBumpSteerRackMm, 1)} mm differs from straight ahead by ${fmt(inputs.lockBumpSteerSpreadDegPerM, 1)} deg/m: the match holds at one rack position only (information: the bump cost is judged on-centre and at the operating steer).`,
+        `Bump steer at rack ${f.length(inputs.lockBumpSteerRackMm, 1)} differs from straight ahead by ${f.bumpSteer(inputs.lockBumpSteerSpreadDegPerM, 1)}: the match holds at one rack position only (information: the bump cost is judged on-centre and at the operating steer).`,
       ),
     );
   }
@@ -358,7 +387,7 @@ export function evaluateCautions(inputs: CautionInputs): Caution[] {
     out.push({
       level: 'warning',
       code: 'rack-pose-unreachable',
-      message: `At rack ${fmt(u.rackMm, 1)} mm the proposed geometry cannot reach ${u.travelMm !== null ? `travel ${fmt(u.travelMm, 1)} mm` : 'the whole travel range'}: ${u.message}. Its bump steer there is not verified.`,
+      message: `At rack ${f.length(u.rackMm, 1)} the proposed geometry cannot reach ${u.travelMm !== null ? `travel ${f.length(u.travelMm, 1)}` : 'the whole travel range'}: ${u.message}. Its bump steer there is not verified.`,
       value: u.rackMm,
       threshold: null,
       unit: 'mm',

@@ -13,10 +13,10 @@ import { rollSweep, type SweepRow } from '../kinematics/index.js';
 import { readCoordinates } from './coordinates.js';
 import { PoseCounter, rollSteer, sweep, trialCorner } from './link.js';
 import { asBuiltCorner, workshopNumbers, type WorkshopNumbers } from './workshop.js';
-import { toeAfterShimming, understeerChange, type CoordinateChange, type StaticToeReset } from './solve.js';
+import { coordinateChanges, judgeMember, sensitivities, toeAfterShimming, understeerChange, verifyOverRacks, type CoordinateChange, type StaticToeReset } from './solve.js';
+import { SI_FIGURES, type Caution, type CautionFigures } from '../cautions/cautions.js';
+import type { BumpCost } from '../ride/cost.js';
 
-/** Step of the central differences of the sensitivities, mm (as the solver's own). */
-const SENSITIVITY_STEP_MM = 0.5;
 /** Roll range of the roll-steer curves, deg (either way). */
 const ROLL_RANGE_DEG = 3;
 
@@ -39,6 +39,22 @@ export interface ProposalDetails {
     understeerChangeDegPerG: number | null;
   };
   staticToe: StaticToeReset;
+  /** This member verified over the travel at each rack position of the verification (as the solver verifies its pick). */
+  verified: {
+    /** Bump steer with the rack straight ahead, deg/m, and the curvature of its toe line, deg/m². */
+    bumpSteerDegPerM: number;
+    curvatureDegPerM2: number;
+    /** Largest toe deviation from its line at any rack position reached, deg, and that rack position, mm. */
+    worstToeDeg: number;
+    worstToeRackMm: number;
+    /** Rack positions this member cannot reach over the whole travel. */
+    unreachableRackMm: number[];
+  };
+  /** This member's own cautions (its safety notice last), measured as the solver measures its pick's. */
+  cautions: Caution[];
+  /** This member's bump cost on the profile's road (ride model), or why there is none. */
+  bumpCost: BumpCost | null;
+  bumpCostUnavailable: string | null;
   /** Toe change from ride height against travel, rack straight ahead, deg: current and this member, same travels. */
   toeCurve: { travelMm: number; currentDeg: number; proposedDeg: number }[];
   /** Axle steer change from zero roll against body roll, rack straight ahead, deg (+ left): current and this member. */
@@ -50,27 +66,22 @@ export interface ProposalDetails {
  * bounds. Throws SolveError where the kinematics cannot reach the member's
  * poses over the intent's travel range.
  */
-export function proposalDetails(intent: Intent, values: Readonly<Record<string, number>>): ProposalDetails {
+export function proposalDetails(intent: Intent, values: Readonly<Record<string, number>>, figures: CautionFigures = SI_FIGURES): ProposalDetails {
   const counter = new PoseCounter();
   const current = intent.corner;
   const names = intent.movable;
   const q0 = readCoordinates(current, names);
+  const lo = names.map((n) => intent.bounds[n]![0]);
+  const hi = names.map((n) => intent.bounds[n]![1]);
   const q = names.map((n, i) => {
     const v = values[n];
-    const [lo, hi] = intent.bounds[n]!;
-    return v === undefined || !Number.isFinite(v) ? q0[i]! : Math.min(hi, Math.max(lo, v));
+    return v === undefined || !Number.isFinite(v) ? q0[i]! : Math.min(hi[i]!, Math.max(lo[i]!, v));
   });
   const proposed = trialCorner(current, names, q);
   const eps = rollSteer(counter, proposed);
   const epsCurrent = rollSteer(counter, current);
 
-  const sensitivity: Record<string, number> = {};
-  names.forEach((n, i) => {
-    const h = SENSITIVITY_STEP_MM;
-    const up = rollSteer(counter, trialCorner(current, names, q.map((x, j) => (j === i ? x + h : x))));
-    const dn = rollSteer(counter, trialCorner(current, names, q.map((x, j) => (j === i ? x - h : x))));
-    sensitivity[n] = (up - dn) / (2 * h);
-  });
+  const sensitivity = sensitivities((x) => rollSteer(counter, trialCorner(current, names, x)), names, q);
 
   const workshop = workshopNumbers(current, proposed, intent.options);
   const built = asBuiltCorner(current, proposed, intent.options.shimThicknessMm);
@@ -101,21 +112,16 @@ export function proposalDetails(intent: Intent, values: Readonly<Record<string, 
     const zero = rows.find((r) => r.rollDeg === 0)?.axleSteerDeg ?? 0;
     return rows.map((r) => ({ rollDeg: r.rollDeg, steerDeg: r.axleSteerDeg - zero }));
   };
+  const checked = verifyOverRacks(counter, intent, proposed);
+  const straight = checked.byRack.find((r) => r.rackMm === 0)!;
+  const worst = checked.byRack.reduce((w, r) => (r.maxDeviationDeg > w.maxDeviationDeg ? r : w), straight);
+  const judged = judgeMember(counter, intent, proposed, eps, checked, undefined, figures);
+
   const rollNow = steerFromZero(current);
   const rollNew = steerFromZero(proposed);
 
   return {
-    coordinates: names.map((n, i) => {
-      const [lo, hi] = intent.bounds[n]!;
-      return {
-        name: n,
-        currentMm: q0[i]!,
-        proposedMm: q[i]!,
-        changeMm: q[i]! - q0[i]!,
-        boundsMm: [lo, hi],
-        atBound: Math.abs(q[i]! - lo) < 1e-6 ? 'min' : Math.abs(q[i]! - hi) < 1e-6 ? 'max' : null,
-      };
-    }),
+    coordinates: coordinateChanges(names, q0, q, lo, hi),
     corner: proposed,
     rollSteerCoefficient: eps,
     currentRollSteerCoefficient: epsCurrent,
@@ -124,6 +130,14 @@ export function proposalDetails(intent: Intent, values: Readonly<Record<string, 
     workshop,
     asBuilt: { rollSteerCoefficient: epsBuilt, shimRoundingEffect: epsBuilt - eps, understeerChangeDegPerG: dK(built) },
     staticToe: toeAfterShimming(counter, current, built),
+    verified: {
+      bumpSteerDegPerM: straight.bumpSteerDegPerM,
+      curvatureDegPerM2: straight.curvatureDegPerM2,
+      worstToeDeg: worst.maxDeviationDeg,
+      worstToeRackMm: worst.rackMm,
+      unreachableRackMm: checked.unreachableRacks.map((u) => u.rackMm),
+    },
+    ...judged,
     toeCurve: toeNow.map((p, i) => ({ travelMm: p.travelMm, currentDeg: p.toeDeg, proposedDeg: toeNew[i]?.toeDeg ?? NaN })),
     rollCurve: rollNow.map((p, i) => ({ rollDeg: p.rollDeg, currentDeg: p.steerDeg, proposedDeg: rollNew[i]?.steerDeg ?? NaN })),
   };

@@ -12,7 +12,7 @@ import { rollSteerTermDegPerG } from '../balance/link.js';
 import { balanceCore, understeerBudget } from '../balance/understeer.js';
 import { ENGINE_VERSION } from '../version.js';
 import { InputError, SolveError } from '../errors.js';
-import { evaluateCautions, SAFETY_CAUTION, type Caution } from '../cautions/cautions.js';
+import { evaluateCautions, SAFETY_CAUTION, SI_FIGURES, type Caution, type CautionFigures } from '../cautions/cautions.js';
 import { resolveTrackProfile, type TrackProfile } from '../tracks/profiles.js';
 import { readCoordinates } from './coordinates.js';
 import { solveFamily, type LimitingBound } from './optimise.js';
@@ -161,7 +161,7 @@ export interface SideEffects {
 }
 
 /** The solve of one intent. Throws SolveError where the verification cannot reach a pose. */
-export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult {
+export function solveIntent(intent: Intent, onProgress?: Progress, figures: CautionFigures = SI_FIGURES): SolveResult {
   const counter = new PoseCounter();
   const progress = (f: number, m: string) => onProgress?.(Math.min(1, Math.max(0, f)), m);
   const current = intent.corner;
@@ -337,7 +337,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
 
   progress(0.7, 'verifying with the full kinematics');
   const bump = profile.bumpHeightMm;
-  const { byRack, rows: verificationRows, unreachableRacks } = sweepRacks(counter, proposed, travel, racks, bump);
+  const { byRack, rows: verificationRows, unreachableRacks } = verifyOverRacks(counter, intent, proposed);
   const verifiedRacks = byRack.map((r) => r.rackMm);
   const straight = byRack.find((r) => r.rackMm === 0)!;
   let worst = byRack[0]!;
@@ -412,13 +412,7 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
     if (!placed) family.push(memberOut(q, true, true, achievedObjective));
   }
 
-  const sensitivity: Record<string, number> = {};
-  names.forEach((n, i) => {
-    const h = 0.5;
-    const up = epsOf(build(q.map((x, j) => (j === i ? x + h : x))));
-    const dn = epsOf(build(q.map((x, j) => (j === i ? x - h : x))));
-    sensitivity[n] = (up - dn) / (2 * h);
-  });
+  const sensitivity = sensitivities((x) => epsOf(build(x)), names, q);
 
   // Balance bought against bump cost: the primary coordinate across its bounds, the others as proposed
   // (the family itself all meets the target, so it has no spread in balance to trade).
@@ -450,7 +444,6 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   // The verified understeer change and the suspension roll the cautions use, from the proposal linked into the vehicle.
   const proposedLink = proposed === current ? base : linkedRollSteer(counter, intent, proposed, false);
   const proposedDK = base && proposedLink ? proposedLink.kRs - base.kRs : null;
-  const proposedGradients = proposedLink ? suspensionRollGradients(proposedLink.vehicle) : gradients;
 
   progress(0.9, 'workshop numbers and cautions');
   const ws = workshopNumbers(current, proposed, intent.options);
@@ -458,21 +451,13 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
   const builtPts = asBuilt.points as Record<string, Vec3>;
   const staticToe = toeAfterShimming(counter, current, asBuilt);
 
-  const cautionContext = { axle: intent.axle, vehicle: intent.vehicle, gradients: proposedGradients, referenceRollDeg: intent.options.referenceRollDeg, thresholds: intent.cautionThresholds };
-  const measuredInputs = cautionInputs(counter, cautionContext, profile, proposed, epsVerified, byRack, unreachableRacks);
-  const cautions = evaluateCautions(measuredInputs);
+  const judged = judgeMember(counter, intent, proposed, epsVerified, { byRack, unreachableRacks }, { base, link: proposedLink }, figures);
 
   const pts = proposed.points as Record<string, Vec3>;
   const inner = innerName(current);
   const outer = outerName(current);
-  const coordinates: CoordinateChange[] = names.map((n, i) => ({
-    name: n,
-    currentMm: q0[i]!,
-    proposedMm: q[i]!,
-    changeMm: q[i]! - q0[i]!,
-    boundsMm: [lo[i]!, hi[i]!],
-    atBound: Math.abs(q[i]! - lo[i]!) < 1e-6 ? 'min' : Math.abs(q[i]! - hi[i]!) < 1e-6 ? 'max' : null,
-  }));
+  const coordinates = coordinateChanges(names, q0, q, lo, hi);
+
   progress(1, 'done');
   const targetKind =
     'rollSteerCoefficient' in intent.target
@@ -533,14 +518,77 @@ export function solveIntent(intent: Intent, onProgress?: Progress): SolveResult 
     },
     understeerChangeDegPerG: proposedDK,
     axleSteer,
-    cautions,
-    bumpCost: measuredInputs.bumpCost ?? null,
-    bumpCostUnavailable: measuredInputs.bumpCostUnavailable ?? null,
+    cautions: judged.cautions,
+    bumpCost: judged.bumpCost,
+    bumpCostUnavailable: judged.bumpCostUnavailable,
     bumpYawBudgetPct: budget ?? null,
     tradeOff,
     safety: SAFETY_CAUTION,
     diagnostics: { poses: counter.poses, targetEvaluations: outcome.evaluations.constraint, objectiveEvaluations: outcome.evaluations.objective },
   };
+}
+
+/**
+ * The verification sweep of a geometry of the intent: over the profile's travel (the intent's step) at each
+ * rack position of the verification, with the toe change over the profile's single-wheel bump.
+ */
+export function verifyOverRacks(counter: PoseCounter, intent: Intent, corner: Corner): ReturnType<typeof sweepRacks> {
+  const profile = resolveTrackProfile(intent.trackProfile);
+  const [from, to] = profile.travelMm;
+  const travel = { from, to, step: intent.options.travelStepMm ?? (to - from) / 20 };
+  return sweepRacks(counter, corner, travel, rackPositions(intent), profile.bumpHeightMm);
+}
+
+/** What a geometry of the intent is judged by: its cautions and its bump cost on the profile's road (or why there is none). */
+export interface MemberJudgement {
+  cautions: Caution[];
+  bumpCost: BumpCost | null;
+  bumpCostUnavailable: string | null;
+}
+
+/**
+ * The cautions and bump cost of one geometry of the intent (the solver's pick or any member the user
+ * chooses), from its verification sweep and, with a vehicle, its suspension roll with that geometry
+ * linked in (the current geometry's where the balance model cannot link it). `links` passes what the
+ * caller already linked; `figures` writes the messages' figures in the user's units.
+ */
+export function judgeMember(
+  counter: PoseCounter,
+  intent: Intent,
+  corner: Corner,
+  eps: number,
+  verified: { byRack: RackFit[]; unreachableRacks: UnreachableRack[] },
+  links?: { base: { vehicle: Vehicle } | null; link: { vehicle: Vehicle } | null },
+  figures: CautionFigures = SI_FIGURES,
+): MemberJudgement {
+  const profile = resolveTrackProfile(intent.trackProfile);
+  const base = links ? links.base : linkedRollSteer(counter, intent, intent.corner, false);
+  const link = links ? links.link : corner === intent.corner ? base : linkedRollSteer(counter, intent, corner, false);
+  const gradients = link ? suspensionRollGradients(link.vehicle) : base ? suspensionRollGradients(base.vehicle) : null;
+  const context = { axle: intent.axle, vehicle: intent.vehicle, gradients, referenceRollDeg: intent.options.referenceRollDeg, thresholds: intent.cautionThresholds };
+  const inputs = cautionInputs(counter, context, profile, corner, eps, verified.byRack, verified.unreachableRacks);
+  return { cautions: evaluateCautions(inputs, figures), bumpCost: inputs.bumpCost ?? null, bumpCostUnavailable: inputs.bumpCostUnavailable ?? null };
+}
+
+/** Step of the central differences of the sensitivities, mm. */
+const SENSITIVITY_STEP_MM = 0.5;
+
+/** dε per mm of each coordinate at q (central differences ±0.5 mm), deg/deg per mm; `eps` gives ε at a coordinate vector. */
+export function sensitivities(eps: (q: number[]) => number, names: readonly string[], q: readonly number[]): Record<string, number> {
+  const out: Record<string, number> = {};
+  const h = SENSITIVITY_STEP_MM;
+  names.forEach((n, i) => {
+    out[n] = (eps(q.map((x, j) => (j === i ? x + h : x))) - eps(q.map((x, j) => (j === i ? x - h : x)))) / (2 * h);
+  });
+  return out;
+}
+
+/** Each coordinate's current and proposed value, its change and bounds, and which bound it sits at, mm. */
+export function coordinateChanges(names: readonly string[], q0: readonly number[], q: readonly number[], lo: readonly number[], hi: readonly number[]): CoordinateChange[] {
+  return names.map((name, i) => {
+    const [a, b, v] = [lo[i]!, hi[i]!, q[i]!];
+    return { name, currentMm: q0[i]!, proposedMm: v, changeMm: v - q0[i]!, boundsMm: [a, b], atBound: Math.abs(v - a) < 1e-6 ? 'min' : Math.abs(v - b) < 1e-6 ? 'max' : null };
+  });
 }
 
 /** Rack positions of the verification: 0 first, then the intent's or the stroke's ends. */

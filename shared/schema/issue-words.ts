@@ -36,7 +36,29 @@ export function wordNumber(v: number): string {
   return formatRangeValue(v).replace(/^-/, '−').replace(/e-/, 'e−');
 }
 
-const withUnit = (v: number, unit: string) => (unit ? `${wordNumber(v)} ${unit}` : wordNumber(v));
+/**
+ * Writes a figure stored in `unit` in the user's unit system: the number (as `wordNumber` writes it) and the
+ * unit it is now in. Screens pass theirs (a length in mm becomes inches for an inch/pound user); without one,
+ * figures stay in their stored unit.
+ */
+export type FigureWords = (value: number, unit: string) => { value: string; unit: string };
+
+const storedUnit: FigureWords = (v, unit) => ({ value: wordNumber(v), unit });
+
+/** A number with a unit, then the unit, in a message: "25.4 mm", "−1 to 1 deg/deg". */
+const MESSAGE_FIGURE = /([−-]?\d+(?:\.\d+)?(?:e[−-]?\d+)?)(?:(\s+to\s+)([−-]?\d+(?:\.\d+)?(?:e[−-]?\d+)?))?\s+(mm)\b/g;
+
+/** A custom message's lengths ("the lowest, 25 mm, …", "−100 to 100 mm") rewritten with `figure`. */
+function figuresIn(message: string, figure: FigureWords): string {
+  if (figure === storedUnit) return message;
+  const num = (t: string) => Number(t.replace(/−/g, '-'));
+  return message.replace(MESSAGE_FIGURE, (_all, a: string, to: string | undefined, b: string | undefined, unit: string) => {
+    const fa = figure(num(a), unit);
+    if (to === undefined || b === undefined) return `${fa.value} ${fa.unit}`;
+    const fb = figure(num(b), unit);
+    return `${fa.value}${to}${fb.value} ${fb.unit}`;
+  });
+}
 
 function valueAt(input: unknown, path: ReadonlyArray<PropertyKey>): unknown {
   let v: unknown = input;
@@ -55,10 +77,17 @@ function rangeParams(params: unknown): RangeIssueParams | null {
 /**
  * The issue in words. `input` is the document that was checked (the value
  * at the issue's path is read from it); `labels` replaces document keys a
- * custom message may still carry (`{ 'tieRodInner.z': 'the inner end's height' }`).
+ * custom message may still carry (`{ 'tieRodInner.z': 'the inner end's height' }`);
+ * `figure` writes its figures in the user's units (ranges, and lengths in mm
+ * within a message).
  */
-export function issueWords(issue: SchemaIssue, input: unknown, labels: Readonly<Record<string, string>> = {}): string {
+export function issueWords(issue: SchemaIssue, input: unknown, labels: Readonly<Record<string, string>> = {}, figure: FigureWords = storedUnit): string {
   const value = valueAt(input, issue.path);
+  const withUnit = (v: number, unit: string) => {
+    if (!unit) return wordNumber(v);
+    const f = figure(v, unit);
+    return `${f.value} ${f.unit}`;
+  };
   switch (issue.code) {
     case 'invalid_type':
       if (issue.expected === 'number') return 'enter a number';
@@ -81,7 +110,7 @@ export function issueWords(issue: SchemaIssue, input: unknown, labels: Readonly<
       // The branch the input was meant for is the one without unknown keys: its issues are the ones to read.
       const meant = (issue.errors ?? []).find((branch) => branch.length > 0 && branch.every((i) => i.code !== 'unrecognized_keys'));
       const first = meant?.[0];
-      return first ? issueWords({ ...first, path: [...issue.path, ...first.path] }, input, labels) : replaceKeys(issue.message, labels);
+      return first ? issueWords({ ...first, path: [...issue.path, ...first.path] }, input, labels, figure) : figuresIn(replaceKeys(issue.message, labels), figure);
     }
     case 'custom': {
       const r = rangeParams(issue.params);
@@ -89,12 +118,12 @@ export function issueWords(issue: SchemaIssue, input: unknown, labels: Readonly<
         const low = r.range.minExclusive ? `above ${withUnit(r.range.min, r.range.unit)}` : null;
         return low
           ? `${withUnit(r.value, r.range.unit)} is outside the possible ${r.range.label}: give a value ${low} and at most ${withUnit(r.range.max, r.range.unit)}`
-          : `${wordNumber(r.value)} is outside ${wordNumber(r.range.min)} to ${withUnit(r.range.max, r.range.unit)}`;
+          : `${r.range.unit ? figure(r.value, r.range.unit).value : wordNumber(r.value)} is outside ${r.range.unit ? figure(r.range.min, r.range.unit).value : wordNumber(r.range.min)} to ${withUnit(r.range.max, r.range.unit)}`;
       }
-      return replaceKeys(issue.message, labels);
+      return figuresIn(replaceKeys(issue.message, labels), figure);
     }
     default:
-      return replaceKeys(issue.message, labels);
+      return figuresIn(replaceKeys(issue.message, labels), figure);
   }
 }
 

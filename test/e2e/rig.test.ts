@@ -37,6 +37,12 @@ function shown(text: string): number {
   return Number(text.trim().replace('\u2212', '-'));
 }
 
+/** Picks the rear axle in the panel's Material select, as a user does (open the list, click the option). */
+async function chooseRearAxle(page: Page): Promise<void> {
+  await page.locator('rw-rig-measurements mat-select[name="axle"]').click();
+  await page.getByRole('option', { name: 'Rear', exact: true }).click();
+}
+
 describe('Rig measurements in Chromium', () => {
   const env = useE2eApp();
 
@@ -54,7 +60,7 @@ describe('Rig measurements in Chromium', () => {
     // A bad line: the mapping step shows the reader's message naming it, and nothing can be stored.
     await upload(page, 'ember-rear-bad.csv', rigFile(true));
     await panel.getByRole('heading', { name: 'Map the columns of ember-rear-bad.csv' }).waitFor();
-    await panel.locator('select[name="axle"]').selectOption('rear');
+    await chooseRearAxle(page);
     const problems = panel.locator('.rw-rig-local-errors');
     await problems.waitFor();
     expect(await problems.innerText()).toMatch(/line 6/i);
@@ -66,7 +72,7 @@ describe('Rig measurements in Chromium', () => {
     // The good file, mapped to the rear axle, stored and compared.
     await upload(page, 'ember-rear-rig.csv', rigFile());
     await panel.getByRole('heading', { name: 'Map the columns of ember-rear-rig.csv' }).waitFor();
-    await panel.locator('select[name="axle"]').selectOption('rear');
+    await chooseRearAxle(page);
     await panel.locator('.rw-rig-converted').waitFor();
     await panel.getByRole('button', { name: 'Store measurement' }).click();
     const figures = panel.locator('table.rw-rig-figures');

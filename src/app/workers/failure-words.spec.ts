@@ -25,4 +25,14 @@ describe('failureWords', () => {
       'the vehicle has no roll at 0.1235 deg',
     );
   });
+
+  it('writes lengths in inches for an inch/pound user (1 in = 25.4 mm exactly)', () => {
+    const failure = {
+      code: 'unreachable_pose',
+      message: 'x',
+      details: { travelMm: -50.8, rackMm: 12.7, link: 'tie rod (tieRodInner–tieRodOuter)', travelRangeMm: [-101.6, 101.6] },
+    };
+    expect(failureWords(failure, 'imperial')).toBe('The linkage cannot reach 2 in of droop with the rack at 0.5 in: the tie rod cannot reach. Narrow the travel range (now −4 to 4 in) to what the corner can reach.');
+    expect(failureWords({ code: 'invalid_input', message: 'the bump of 25.4 mm is beyond the travel' }, 'imperial')).toBe('the bump of 1 in is beyond the travel');
+  });
 });

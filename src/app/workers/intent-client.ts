@@ -2,6 +2,15 @@ import { Injectable, OnDestroy } from '@angular/core';
 import type { ProposalDetails, SolveResult } from '../../../shared/intent/index';
 import type { IntentWorkerReply } from './intent-types';
 import { AnalysisError, AnalysisSuperseded } from './kinematics-client';
+import type { DisplayUnits } from '../core/api-types';
+import type { FigureUnit, FigureUnits } from './caution-figures';
+import { displayDecimals, inDisplayUnits, unitLabel, type QuantityKind } from '../core/format/quantities';
+
+/** The units of the cautions' figures for the worker, from the app's quantity table (exact factors, resolution kept). */
+export function figureUnits(units: DisplayUnits): FigureUnits {
+  const of = (kind: QuantityKind): FigureUnit => ({ unit: unitLabel(kind, units), factor: inDisplayUnits(1, kind, units), extraDecimals: displayDecimals(kind, units, 0) });
+  return { length: of('length'), distance: of('distance'), speed: of('speed'), force: of('force'), bumpSteer: of('bumpSteer'), drift: units === 'si' ? null : of('length') };
+}
 
 /** One worker and the promise it answers. */
 interface Run {
@@ -22,20 +31,20 @@ export class IntentClient implements OnDestroy {
   private readonly solveRun: Run = { worker: null, reject: null };
   private readonly memberRun: Run = { worker: null, reject: null };
 
-  solve(intent: unknown, onProgress: (fraction: number, message: string) => void): Promise<SolveResult> {
+  solve(intent: unknown, onProgress: (fraction: number, message: string) => void, units: DisplayUnits = 'si'): Promise<SolveResult> {
     this.cancel();
-    if (typeof Worker === 'undefined') return this.inPage(() => import('../../../shared/intent/api').then((m) => m.computeSolve(intent, onProgress)));
-    return this.start(this.solveRun, { intent }, onProgress).then((r) => {
+    if (typeof Worker === 'undefined') return this.inPage(async () => (await import('../../../shared/intent/api')).computeSolve(intent, onProgress, (await import('./caution-figures')).cautionFigures(figureUnits(units))));
+    return this.start(this.solveRun, { intent, figures: figureUnits(units) }, onProgress).then((r) => {
       if (r.kind !== 'done') throw new AnalysisError({ code: 'engine_error', message: 'The solver answered with something else.' });
       return r.result;
     });
   }
 
-  /** The family member at `member` (movable coordinates by name, mm) worked out for the workshop. */
-  details(intent: unknown, member: Readonly<Record<string, number>>): Promise<ProposalDetails> {
+  /** The family member at `member` (movable coordinates by name, mm) worked out for the workshop, its cautions worded in `units`. */
+  details(intent: unknown, member: Readonly<Record<string, number>>, units: DisplayUnits = 'si'): Promise<ProposalDetails> {
     this.stop(this.memberRun, new AnalysisSuperseded());
-    if (typeof Worker === 'undefined') return this.inPage(() => import('../../../shared/intent/api').then((m) => m.computeProposalDetails(intent, member)));
-    return this.start(this.memberRun, { intent, member }, () => undefined).then((r) => {
+    if (typeof Worker === 'undefined') return this.inPage(async () => (await import('../../../shared/intent/api')).computeProposalDetails(intent, member, (await import('./caution-figures')).cautionFigures(figureUnits(units))));
+    return this.start(this.memberRun, { intent, member, figures: figureUnits(units) }, () => undefined).then((r) => {
       if (r.kind !== 'details') throw new AnalysisError({ code: 'engine_error', message: 'The solver answered with something else.' });
       return r.details;
     });
@@ -51,7 +60,7 @@ export class IntentClient implements OnDestroy {
     this.stop(this.memberRun, new AnalysisSuperseded());
   }
 
-  private start(run: Run, message: { intent: unknown; member?: Readonly<Record<string, number>> }, onProgress: (f: number, m: string) => void) {
+  private start(run: Run, message: { intent: unknown; member?: Readonly<Record<string, number>>; figures: FigureUnits }, onProgress: (f: number, m: string) => void) {
     const id = this.nextId++;
     return new Promise<Exclude<IntentWorkerReply, { kind: 'progress' | 'failed' }>>((resolve, reject) => {
       run.reject = reject;

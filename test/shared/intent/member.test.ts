@@ -10,6 +10,8 @@ import { intentSchema, type IntentInput } from '../../../shared/schema/intent.js
 import type { Corner, Vec3 } from '../../../shared/schema/corner.js';
 import { asBuiltCorner, linkName, proposalDetails, solveIntent, workshopNumbers } from '../../../shared/intent/index.js';
 import { DEG_PER_RAD } from '../../../shared/angles.js';
+import { exampleVehicles } from '../../../shared/balance/index.js';
+import { SI_FIGURES, type CautionFigures } from '../../../shared/cautions/cautions.js';
 
 const front = exampleCorners.fsFrontWishbone;
 const p = front.points as Record<string, Vec3>;
@@ -93,6 +95,59 @@ describe('a chosen family member', () => {
     const r = d.staticToe;
     expect(r.resetDeg).toBeCloseTo(r.designToeDeg - r.toeAfterShimmingDeg, 12);
     expect(r.direction).toBe(Math.abs(r.resetDeg) < 5e-4 ? 'none' : r.resetDeg > 0 ? 'toe-in' : 'toe-out');
+  });
+});
+
+describe('a chosen member’s own cautions, bump cost and verification (issue 15 §3: not the solver’s pick’s)', () => {
+  // The FS rear toe link with the vehicle, so the ride model prices the bump steer; every bump-toe-change and
+  // scrub reading is reported (a team's zero thresholds), so each member's caution carries its own measured value.
+  const rear = exampleCorners.fsRearWishbone;
+  const rp = rear.points as Record<string, Vec3>;
+  const i = intentSchema.parse({
+    corner: rear,
+    axle: 'rear',
+    target: { rollSteerCoefficient: -0.03 },
+    movable: ['tieRodInner.z', 'tieRodOuter.z'],
+    bounds: { 'tieRodInner.z': [rp['tieRodInner']![2] - 25, rp['tieRodInner']![2] + 25], 'tieRodOuter.z': [rp['tieRodOuter']![2] - 25, rp['tieRodOuter']![2] + 25] },
+    trackProfile: 'bumpy-circuit',
+    vehicle: exampleVehicles.tur26Ember,
+    cautionThresholds: { 'bump-toe-change': { info: 0 }, 'bump-lateral-scrub': { info: 0 } },
+  });
+  const solved = solveIntent(i);
+  const pick = solved.family.find((m) => m.chosen)!;
+  // The member farthest from the pick along the family: a different geometry with its own bump toe.
+  const far = solved.family.reduce((a, m) => (Math.abs(m.bumpToeChangeDeg! - pick.bumpToeChangeDeg!) > Math.abs(a.bumpToeChangeDeg! - pick.bumpToeChangeDeg!) ? m : a), pick);
+  const value = (cs: { code: string; value: number | null }[], code: string) => cs.find((c) => c.code === code)?.value ?? null;
+
+  it('the solver’s pick worked out as a member has the solver’s own cautions, bump cost and verified figures', () => {
+    const d = proposalDetails(i, pick.coordinates);
+    expect(d.cautions.map((c) => [c.code, c.level])).toEqual(solved.cautions.map((c) => [c.code, c.level]));
+    for (const c of solved.cautions) if (c.value !== null) expect(value(d.cautions, c.code)).toBeCloseTo(c.value, 6);
+    expect(d.bumpCost).not.toBeNull();
+    expect(d.bumpCost!.yawRateRmsDegPerS).toBeCloseTo(solved.bumpCost!.yawRateRmsDegPerS!, 6);
+    expect(d.verified.bumpSteerDegPerM).toBeCloseTo(solved.achieved.bumpSteerDegPerM, 6);
+    expect(d.verified.worstToeDeg).toBeCloseTo(solved.achieved.worstToeDeg, 6);
+  });
+
+  it('another member carries its own: its bump toe and yaw-rate disturbance are the family table’s figures for it', () => {
+    expect(far).not.toBe(pick);
+    const d = proposalDetails(i, far.coordinates);
+    // The rear is unsteered: the caution's largest bump toe is the one at rack 0, the family's own figure.
+    expect(value(d.cautions, 'bump-toe-change')).toBeCloseTo(Math.abs(far.bumpToeChangeDeg!), 9);
+    expect(value(d.cautions, 'bump-toe-change')).not.toBeCloseTo(value(solved.cautions, 'bump-toe-change')!, 4);
+    expect(d.bumpCost!.yawRateRmsDegPerS).toBeCloseTo(far.bumpCost!.yawRateRmsDegPerS, 9);
+    expect(d.cautions.at(-1)!.code).toBe('safety-notice');
+  });
+
+  it('writes the cautions’ figures with the formatter it is given (1 in = 25.4 mm exactly, international yard of 1959)', () => {
+    const inches: CautionFigures = { ...SI_FIGURES, length: (mm) => `${(mm / 25.4).toFixed(3)} in` };
+    const si = proposalDetails(i, far.coordinates);
+    const us = proposalDetails(i, far.coordinates, inches);
+    const scrubSi = si.cautions.find((c) => c.code === 'bump-lateral-scrub')!;
+    const scrubUs = us.cautions.find((c) => c.code === 'bump-lateral-scrub')!;
+    expect(scrubSi.message).toMatch(/ mm sideways/);
+    expect(scrubUs.message).not.toMatch(/\bmm\b/);
+    expect(scrubUs.message).toContain(`${(scrubSi.value! / 25.4).toFixed(3)} in sideways`);
   });
 });
 

@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { intentSchema, intentTargetSchema } from '../../../shared/schema/intent.js';
-import { issueWords } from '../../../shared/schema/issue-words.js';
+import { issueWords, type FigureWords } from '../../../shared/schema/issue-words.js';
 import { exampleCorners } from '../../../shared/kinematics/index.js';
 
 const words = (schema: { safeParse(v: unknown): { success: boolean; error?: { issues: unknown[] } } }, input: unknown, labels?: Record<string, string>) =>
@@ -33,6 +33,24 @@ describe('issueWords', () => {
     const w = words(intentSchema, base);
     expect(w).toHaveLength(1);
     expect(w[0]).toMatch(/^0 mm is outside the possible shim thickness: give a value above 0 mm and at most 50 mm$/);
+  });
+
+  it('writes lengths in the user’s units with the formatter it is given (1 in = 25.4 mm exactly)', () => {
+    const inches: FigureWords = (v, unit) => (unit === 'mm' ? { value: String(Math.round((v / 25.4) * 1000) / 1000), unit: 'in' } : { value: String(v), unit });
+    const doc = {
+      corner: exampleCorners.fsFrontWishbone,
+      axle: 'front',
+      target: { rollSteerCoefficient: 0.02 },
+      movable: ['tieRodInner.z'],
+      bounds: { 'tieRodInner.z': [160 * 25.4, 130 * 25.4] },
+      trackProfile: { id: 'smooth-circuit', travelMm: [25.4, 50.8] },
+      options: { shimThicknessMm: 0 },
+    };
+    const w = (intentSchema.safeParse(doc).error?.issues ?? []).map((i) => issueWords(i as Parameters<typeof issueWords>[0], doc, {}, inches));
+    expect(w).toContain('0 in is outside the possible shim thickness: give a value above 0 in and at most 1.969 in');
+    expect(w).toContain('the lowest, 160 in, must be below the highest, 130 in');
+    expect(w).toContain('the travel range 1 to 2 in must run from droop (below 0) to bump (above 0)');
+    expect(w.join(' ')).not.toMatch(/\bmm\b/);
   });
 
   it('every issue at once, document keys replaced by the screen’s labels', () => {

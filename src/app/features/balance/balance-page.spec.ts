@@ -58,16 +58,20 @@ describe('BalancePage', () => {
     return { body: req.request.body, result };
   }
 
+  /** Picks an option of the Material select labelled `label` in the fieldset `legend`, as a user does (open, click). */
   function choose(root: HTMLElement, legend: string, label: string, optionText: string) {
     const fieldset = [...root.querySelectorAll('fieldset')].find((f) => f.querySelector('legend')?.textContent?.trim() === legend)!;
-    const select = [...fieldset.querySelectorAll('label')].find((l) => l.textContent?.includes(label))!.querySelector('select')!;
-    select.value = [...select.options].find((o) => o.textContent?.trim() === optionText)!.value;
-    select.dispatchEvent(new Event('change'));
+    const field = [...fieldset.querySelectorAll('mat-form-field')].find((l) => l.querySelector('mat-label')?.textContent?.includes(label))!;
+    (field.querySelector('.mat-mdc-select-trigger') as HTMLElement).click();
+    [...document.querySelectorAll<HTMLElement>('mat-option')].find((o) => o.textContent?.trim() === optionText)!.click();
   }
 
   it('evaluates on open, without a button, baseline and variant side by side with changes highlighted', async () => {
     const { harness, root } = await open();
     expect([...root.querySelectorAll('button')].some((b) => b.textContent?.trim() === 'Evaluate')).toBe(false);
+    // One component family: Material selects and form fields, no native controls beside them.
+    expect(root.querySelectorAll('select, input:not(.mat-mdc-input-element)').length).toBe(0);
+    expect(root.querySelectorAll('mat-select').length).toBe(4);
     const { body, result } = await answerEvaluation();
     expect(body.rearCorner).toEqual(exampleCorners.fsRearWishbone);
     expect(body.variant.rearCorner.points.tieRodInner[2]).toBe(exampleCorners.fsRearWishbone.points.tieRodInner[2] + 6);
@@ -166,7 +170,7 @@ describe('BalancePage', () => {
     // 80 km/h and 40 m in mph and ft (1 mi = 1609.344 m, 1 ft = 0.3048 m exactly).
     expect(speed!.value).toBe('49.71');
     expect(radius!.value).toBe('131.2');
-    expect(speed!.closest('label')!.textContent).toContain('(mph)');
+    expect(speed!.closest('mat-form-field')!.querySelector('mat-label')!.textContent).toContain('(mph)');
     const { body, result } = await answerEvaluation();
     expect(body.speedKph).toBeCloseTo((49.71 * 1609.344) / 1000, 9);
     // The field shows 131.2 ft (4 significant figures of 131.23 ft), which is 39.99 m: what is typed is what is sent.

@@ -2,6 +2,9 @@ import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSign
 import { rxResource } from '@angular/core/rxjs-interop';
 import { RouterLink } from '@angular/router';
 import { MatProgressBar } from '@angular/material/progress-bar';
+import { MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { MatOption, MatSelect } from '@angular/material/select';
 import { forkJoin, map, Observable, of, switchMap } from 'rxjs';
 import type { AxleLink, BalanceResponse } from '../../../../shared/balance/api';
 import type { BalanceResult } from '../../../../shared/balance/index';
@@ -131,7 +134,7 @@ function caseNames(p: BalanceInputs, name: (id: string) => string): string[] {
  */
 @Component({
   selector: 'rw-balance-page',
-  imports: [NumPipe, RouterLink, MatProgressBar, BarChart, LineChart, SafetyCaution],
+  imports: [NumPipe, RouterLink, MatProgressBar, MatFormField, MatLabel, MatHint, MatInput, MatSelect, MatOption, BarChart, LineChart, SafetyCaution],
   templateUrl: './balance-page.html',
   styleUrl: './balance-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -423,6 +426,6 @@ export class BalancePage {
   }
 
   protected value(event: Event): string {
-    return (event.target as HTMLInputElement | HTMLSelectElement).value;
+    return (event.target as HTMLInputElement).value;
   }
 }

@@ -1,5 +1,15 @@
-import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import type { Caution } from '../../../../shared/cautions/cautions';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import { formatNum } from '../../core/format/num';
+import { unitLabel, type QuantityKind } from '../../core/format/quantities';
+
+/** The quantity a caution's measured value is, by the unit its rule states it in (others are the same in either system). */
+const CAUTION_UNIT_KINDS: Readonly<Record<string, QuantityKind>> = {
+  mm: 'length',
+  'deg/m': 'bumpSteer',
+  'm of drift in 1 s': 'distance',
+};
 
 const LEVEL_WORDS: Readonly<Record<Caution['level'], string>> = {
   info: 'Note',
@@ -7,7 +17,7 @@ const LEVEL_WORDS: Readonly<Record<Caution['level'], string>> = {
   critical: 'Critical',
 };
 
-/** Cautions beside the result they concern: level, message, measured value and threshold, basis. */
+/** Cautions beside the result they concern: level, message, measured value and threshold (in the user's unit system), basis. */
 @Component({
   selector: 'rw-caution-list',
   template: `
@@ -21,7 +31,7 @@ const LEVEL_WORDS: Readonly<Record<Caution['level'], string>> = {
             <span class="rw-caution-message">{{ c.message }}</span>
             @if (c.value !== null) {
               <span class="rw-caution-figures">
-                Value {{ c.value.toPrecision(3) }} {{ c.unit }}@if (c.threshold !== null) {; threshold {{ c.threshold.toPrecision(3) }} {{ c.unit }}}.
+                Value {{ figure(c, c.value) }}@if (c.threshold !== null) {; threshold {{ figure(c, c.threshold) }}}.
               </span>
             }
             <span class="rw-caution-basis">Basis: {{ c.basis }}</span>
@@ -44,4 +54,13 @@ export class CautionList {
   readonly cautions = input.required<readonly Caution[]>();
   readonly label = input<string>('Cautions');
   protected readonly levelWords = LEVEL_WORDS;
+  private readonly units = inject(DISPLAY_UNITS);
+
+  /** A caution's value or threshold with its unit, in the user's unit system, to 3 significant figures. */
+  protected figure(c: Caution, v: number): string {
+    const kind = CAUTION_UNIT_KINDS[c.unit];
+    if (!kind) return `${formatNum(v, { sig: 3 })}${c.unit ? ' ' + c.unit : ''}`;
+    const unit = unitLabel(kind, this.units()) + (c.unit.startsWith('m of ') ? c.unit.slice(1) : '');
+    return `${formatNum(v, { sig: 3, kind }, this.units())} ${unit}`;
+  }
 }

@@ -6,7 +6,8 @@ import { exampleVehicles } from '../../../../shared/balance/examples';
 import type { DisplayUnits } from '../../core/api-types';
 import { settle } from '../../../testing/settle';
 import type { AxleDesign } from '../features-api';
-import { IntentPage, rigToeChange } from './intent-page';
+import { IntentPage } from './intent-page';
+import { rigToeChange } from './intent-charts';
 import { routedPageTestBed } from '../../../testing/routed-page';
 
 const URL = '/teams/t-tal/vehicles/v-ember/axle-designs/d-rear/intent';
@@ -68,9 +69,6 @@ describe('IntentPage', () => {
     backend.expectOne('/api/teams/t-tal/axle-designs/d-rear').flush(DESIGN);
     backend.expectOne('/api/teams/t-tal').flush({ id: 't-tal', name: 'Tallowmere University Racing', slug: 'tallowmere', roles: ['engineer'], permissions });
     await settle();
-    backend.expectOne('/api/teams/t-tal/rig-measurements?designId=d-rear').flush(rig.map(({ points: _points, ...summary }) => summary));
-    await settle();
-    for (const f of rig) backend.expectOne(`/api/teams/t-tal/rig-measurements/${f.id}`).flush(f);
     backend.expectOne('/api/teams/t-tal/vehicles/v-ember').flush({
       id: 'v-ember',
       name: 'TUR-26 Ember',
@@ -81,12 +79,20 @@ describe('IntentPage', () => {
       updatedByName: null,
     });
     await settle();
+    backend.expectOne('/api/teams/t-tal/rig-measurements?designId=d-rear').flush(rig.map(({ points: _points, ...summary }) => summary));
+    await settle();
+    for (const f of rig) backend.expectOne(`/api/teams/t-tal/rig-measurements/${f.id}`).flush(f);
+    await settle();
     harness.detectChanges();
     return { harness, root: harness.routeNativeElement as HTMLElement };
   }
 
+  /** The Material field whose label reads `label`. */
+  const field = (root: HTMLElement, label: string) =>
+    [...root.querySelectorAll('mat-form-field')].find((f) => f.querySelector('mat-label')?.textContent?.includes(label))!.querySelector<HTMLInputElement>('input')!;
+
   function type(root: HTMLElement, label: string, value: string): void {
-    const input = [...root.querySelectorAll<HTMLInputElement>('label')].find((l) => l.textContent?.includes(label))!.querySelector('input')!;
+    const input = field(root, label);
     input.value = value;
     input.dispatchEvent(new Event('input'));
     input.dispatchEvent(new Event('change'));
@@ -115,11 +121,14 @@ describe('IntentPage', () => {
   it('offers the toe-link heights as movable, with bounds around the current ones', async () => {
     const { root } = await open(['team:read', 'design:propose', 'vehicle:edit']);
     const inner = exampleCorners.fsRearWishbone.points.tieRodInner[2];
-    const box = root.querySelector<HTMLInputElement>('#mv-tieRodInner\\.z')!;
+    const box = root.querySelector<HTMLInputElement>('mat-checkbox[data-coordinate="tieRodInner.z"] input')!;
     expect(box.checked).toBe(true);
+    // One component family: Material fields, selects, checkboxes and radios only.
+    expect(root.querySelectorAll('select, input:not(.mat-mdc-input-element):not(.mdc-checkbox__native-control):not(.mdc-radio__native-control)').length).toBe(0);
+    expect(root.querySelectorAll('mat-select').length).toBe(2);
     expect(root.querySelector<HTMLInputElement>('input[aria-label="Toe link, inner end (body): height z, lowest"]')!.value).toBe(String(inner - 20));
     // Not steered: no rack height to move.
-    expect(root.querySelector('#mv-rack\\.z')).toBeNull();
+    expect(root.querySelector('mat-checkbox[data-coordinate="rack.z"]')).toBeNull();
     // No target yet: the solve waits for a number, said beside the target.
     expect(text(root, 'err-target')).toBe('Target: enter a number.');
     expect(button(root, 'Solve').disabled).toBe(true);
@@ -158,7 +167,8 @@ describe('IntentPage', () => {
     expect(text(root, 'as-built-epsilon')).toMatch(/^ε -?\d\.\d{4} deg\/deg/);
     expect(text(root, 'sensitivity')).toMatch(/deg\/deg per mm/);
     expect(text(root, 'static-toe')).toMatch(/toward toe-(in|out)|none/);
-    // Proposed curves over the current ones, and the rig file of this revision as points from its ride-height toe.
+    // Proposed curves over the current ones (a deferred part of the page), and the rig file of this revision as points from its ride-height toe.
+    await until(harness, () => root.querySelector('[data-testid="toe-overlay"] path.rw-series-line') !== null);
     expect(root.querySelectorAll('[data-testid="toe-overlay"] path.rw-series-line').length).toBe(2);
     expect(root.querySelector('[data-testid="toe-overlay"]')!.textContent).toContain('Rig: Shakedown (left wheel)');
     expect(root.querySelectorAll('[data-testid="roll-overlay"] path.rw-series-line').length).toBe(2);
@@ -170,10 +180,15 @@ describe('IntentPage', () => {
     const pick = rows.findIndex((r) => r.querySelector<HTMLInputElement>('input[type="radio"]')!.checked);
     const other = pick === 0 ? rows.length - 1 : 0;
     const before = text(root, 'coordinates');
+    const verifiedBefore = text(root, 'verified');
+    expect(root.textContent).toContain('Cautions for this member');
     rows[other]!.querySelector<HTMLInputElement>('input[type="radio"]')!.click();
     await until(harness, () => text(root, 'coordinates') !== '' && text(root, 'coordinates') !== before);
     const otherEps = Number(text(root, 'achieved-epsilon').split(' ')[0]);
     expect(Math.abs(otherEps + 0.06)).toBeLessThanOrEqual(TARGET_TOL);
+    // Its own verification (bump steer, worst toe) and its own cautions, not the solver's pick's.
+    expect(text(root, 'verified')).toContain('This member, verified');
+    expect(text(root, 'verified')).not.toBe(verifiedBefore);
 
     // A tiny adjuster reach: the workshop says a new part is needed instead of a number of turns.
     type(root, 'Adjuster reach', '0.001');
@@ -186,6 +201,9 @@ describe('IntentPage', () => {
     button(root, 'Propose as draft revision').click();
     const req = backend.expectOne('/api/teams/t-tal/axle-designs/d-rear/proposals');
     expect(req.request.body.baseRevision).toBe(3);
+    // The chosen member's own cautions go with the proposal (those shown beside it).
+    const shownCodes = [...root.querySelectorAll('rw-caution-list li[data-code]')].map((li) => li.getAttribute('data-code'));
+    expect(req.request.body.origin.cautions.map((c: { code: string }) => c.code)).toEqual(shownCodes);
     expect(req.request.body.origin.member).toBe('chosen-by-user');
     const chosenInner = Number(rows[other]!.querySelectorAll('td')[1]!.textContent);
     expect(req.request.body.corner.points.tieRodInner[2]).toBeCloseTo(chosenInner, 1);
@@ -220,15 +238,19 @@ describe('IntentPage', () => {
 
   it('shows and takes lengths in inches when the user chose inch-pound units', async () => {
     units.set('imperial');
-    const { root } = await open(['team:read']);
+    const { harness, root } = await open(['team:read']);
     const inner = exampleCorners.fsRearWishbone.points.tieRodInner[2];
     const low = root.querySelector<HTMLInputElement>('input[aria-label="Toe link, inner end (body): height z, lowest"]')!;
     // 1 in = 25.4 mm exactly (NIST SP 811).
     expect(Number(low.value)).toBeCloseTo((inner - 20) / 25.4, 5);
     expect(root.textContent).toContain('packaging bounds (in)');
     expect(root.textContent).toContain('Travel from (in, droop)');
-    const shim = [...root.querySelectorAll('label')].find((l) => l.textContent?.includes('Shim thickness'))!.querySelector('input')!;
+    const shim = field(root, 'Shim thickness');
     expect(Number(shim.value)).toBeCloseTo(1 / 25.4, 5);
+    // Entry problems speak inches too: 50 mm (the largest shim) is 1.969 in.
+    type(root, 'Shim thickness', '0');
+    harness.detectChanges();
+    expect(text(root, 'err-shim')).toBe('Shim thickness: 0 in is outside the possible shim thickness: give a value above 0 in and at most 1.969 in.');
   });
 
   it('draws a rig file as toe change from its own ride-height value', () => {

@@ -1,18 +1,24 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
-import { firstValueFrom } from 'rxjs';
+import { MatCheckbox } from '@angular/material/checkbox';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { MatRadioButton, MatRadioGroup } from '@angular/material/radio';
+import { MatOption, MatSelect } from '@angular/material/select';
+import { catchError, firstValueFrom, forkJoin, map, of, switchMap } from 'rxjs';
 import type { ProposalDetails, SolveResult } from '../../../../shared/intent/index';
 import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import { innerName, outerName } from '../../../../shared/schema/steering-link';
 import { intentSchema } from '../../../../shared/schema/intent';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
-import { issueWords, type SchemaIssue } from '../../../../shared/schema/issue-words';
+import { issueWords, wordNumber, type FigureWords, type SchemaIssue } from '../../../../shared/schema/issue-words';
 import { apiProblem } from '../../core/http/api-error';
+import { loadState } from '../../core/http/load-state';
 import { TeamAccess } from '../../core/teams/team-access';
-import { LineChart } from '../../charts/line-chart';
-import { ChartMark, LineSeries } from '../../charts/chart-types';
+import { IntentCharts } from './intent-charts';
 import { AnalysisError, AnalysisSuperseded } from '../../workers/kinematics-client';
 import { IntentClient } from '../../workers/intent-client';
 import { failureWords } from '../../workers/failure-words';
@@ -26,22 +32,10 @@ import { BumpCostView } from '../bump-cost';
 import { NumPipe, DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
 import { inDisplayUnits, unitLabel, type QuantityKind } from '../../core/format/quantities';
-import { routeKey } from '../route-params';
 import { RigApi, type RigMeasurementDetail } from '../rig/rig-api';
 
 /** Rig files drawn over the toe curves at most (the newest). */
 const RIG_OVERLAYS = 3;
-
-/** A rig file's measured toe as change from ride height (its value at travel 0 interpolated), mm and deg. */
-export function rigToeChange(points: readonly { travelMm: number; toeDeg: number }[]): { travelMm: number; toeDeg: number }[] {
-  const sorted = [...points].sort((a, b) => a.travelMm - b.travelMm);
-  const above = sorted.findIndex((p) => p.travelMm >= 0);
-  if (above < 0 || (above === 0 && sorted[0]!.travelMm > 0)) return [];
-  const hi = sorted[above]!;
-  const lo = sorted[Math.max(0, above - 1)]!;
-  const atZero = hi.travelMm === 0 || hi === lo ? hi.toeDeg : lo.toeDeg + ((0 - lo.travelMm) / (hi.travelMm - lo.travelMm)) * (hi.toeDeg - lo.toeDeg);
-  return sorted.map((p) => ({ travelMm: p.travelMm, toeDeg: p.toeDeg - atZero }));
-}
 
 export type TargetKind = 'epsilon' | 'toePerRoll' | 'understeer' | 'zeroBump';
 
@@ -90,12 +84,6 @@ const OPTION_FIELDS: Readonly<Record<string, FieldKey>> = {
 /** Workshop defaults (the intent schema's), mm. */
 const WORKSHOP_DEFAULTS_MM = { shim: 1, pitch: 1.5, reach: 5, stack: 10 } as const;
 
-const TARGET_WORDS: Readonly<Record<TargetKind, string>> = {
-  epsilon: 'roll steer coefficient ε',
-  toePerRoll: 'outside-wheel toe-in per degree of roll',
-  understeer: 'understeer-gradient change',
-  zeroBump: 'zero bump steer',
-};
 
 /**
  * Intent panel: what an axle should do in roll, what may move and within
@@ -110,7 +98,24 @@ const TARGET_WORDS: Readonly<Record<TargetKind, string>> = {
  */
 @Component({
   selector: 'rw-intent-page',
-  imports: [NumPipe, RouterLink, MatButton, MatProgressBar, LineChart, SafetyCaution, CautionList, BumpCostView],
+  imports: [
+    NumPipe,
+    RouterLink,
+    MatButton,
+    MatProgressBar,
+    MatCheckbox,
+    MatFormField,
+    MatLabel,
+    MatInput,
+    MatRadioGroup,
+    MatRadioButton,
+    MatSelect,
+    MatOption,
+    IntentCharts,
+    SafetyCaution,
+    CautionList,
+    BumpCostView,
+  ],
   templateUrl: './intent-page.html',
   styleUrl: './intent-page.scss',
   providers: [IntentClient],
@@ -127,9 +132,32 @@ export class IntentPage {
   readonly vehicleId = input.required<string>();
   readonly designId = input.required<string>();
 
-  protected readonly loadError = signal<string | null>(null);
-  protected readonly design = signal<AxleDesign | null>(null);
-  protected readonly vehicleData = signal<unknown | null>(null);
+  /**
+   * The axle design, the team's permissions and the vehicle's data (null where the vehicle cannot be read:
+   * the understeer target then waits for it), loaded again when the router reuses this page.
+   */
+  private readonly loaded = rxResource({
+    params: () => ({ teamId: this.teamId(), vehicleId: this.vehicleId(), designId: this.designId() }),
+    stream: ({ params: p }) =>
+      forkJoin({ design: this.api.axleDesign(p.teamId, p.designId), access: this.access.load(p.teamId) }).pipe(
+        switchMap(({ design }) =>
+          this.api.vehicle(p.teamId, p.vehicleId).pipe(
+            map((v): unknown => v.data),
+            catchError(() => of(null)),
+            map((vehicle) => ({ design, vehicle })),
+          ),
+        ),
+      ),
+  });
+  protected readonly state = loadState(this.loaded);
+  protected readonly design = computed<AxleDesign | null>(() => {
+    const s = this.state();
+    return s.status === 'ready' ? s.value.design : null;
+  });
+  protected readonly vehicleData = computed<unknown>(() => {
+    const s = this.state();
+    return s.status === 'ready' ? s.value.vehicle : null;
+  });
   protected readonly canPropose = computed(() => this.access.can('design:propose'));
 
   /** The user's length unit ("mm" or "in"). */
@@ -280,10 +308,14 @@ export class IntentPage {
     for (const r of this.movableRows()) labels[r.name] = r.label;
     for (const issue of checked.error.issues) {
       if (issue.path[0] === 'movable' && on.length === 0) continue;
-      add(this.fieldOf(issue.path, doc), issueWords(issue as SchemaIssue, doc, labels));
+      add(this.fieldOf(issue.path, doc), issueWords(issue as SchemaIssue, doc, labels, this.figureWords));
     }
     return out;
   });
+
+  /** A figure of an entry problem in the user's units (lengths in inches for an inch/pound user). */
+  private readonly figureWords: FigureWords = (v, unit) =>
+    unit === 'mm' ? { value: wordNumber(inDisplayUnits(v, 'length', this.units())), unit: this.lengthUnit() } : { value: wordNumber(v), unit };
 
   private fieldOf(path: ReadonlyArray<PropertyKey>, doc: Record<string, unknown>): FieldKey {
     const [a, b] = path;
@@ -336,8 +368,6 @@ export class IntentPage {
     return `${n} deg/g of understeer-gradient change`;
   }
 
-  protected readonly targetKindWords = TARGET_WORDS;
-
   // ---- the result, and whether it still belongs to the entries ----
 
   protected readonly result = computed(() => this.solved()?.result ?? null);
@@ -363,10 +393,10 @@ export class IntentPage {
     const options = (this.document()?.['options'] ?? {}) as Record<string, unknown>;
     return JSON.stringify(WORKSHOP_OPTION_KEYS.map((k) => options[k]));
   });
-  /** The solve, the member and the workshop entries a worked-out member belongs to (other entries only make the result out of date). */
+  /** The solve, the member, the workshop entries and the unit system (of its cautions' words) a worked-out member belongs to (other entries only make the result out of date). */
   private readonly detailsKey = computed(() => {
     const m = this.selectedMember();
-    return m ? JSON.stringify({ solve: this.solved()?.key, member: m.coordinates, workshop: this.workshopKey() }) : '';
+    return m ? JSON.stringify({ solve: this.solved()?.key, member: m.coordinates, workshop: this.workshopKey(), units: this.units() }) : '';
   });
   private readonly detailsState = signal<{ key: string; value: ProposalDetails } | { key: string; error: string } | null>(null);
   /** The chosen member worked out, when it belongs to the entries on screen. */
@@ -381,112 +411,24 @@ export class IntentPage {
 
   // ---- result charts (every length in the user's unit) ----
 
-  private len(v: number): number {
-    return inDisplayUnits(v, 'length', this.units());
-  }
-
   protected unit(kind: QuantityKind): string {
     return unitLabel(kind, this.units());
   }
 
-  protected readonly familyChart = computed(() => {
-    const r = this.result();
-    if (!r || r.family.length === 0) return null;
-    const names = Object.keys(r.family[0]!.coordinates);
-    if (names.length === 0) return null;
-    const labels = this.coordinateLabels();
-    const xName = r.familyParameter && names.includes(r.familyParameter) ? r.familyParameter : names[0]!;
-    const yName = names.find((n) => n !== xName) ?? null;
-    const yOf = (m: (typeof r.family)[number]) => (yName ? this.len(m.coordinates[yName]!) : m.objectiveRmsDeg);
-    const point = (m: (typeof r.family)[number]) => ({ x: this.len(m.coordinates[xName]!), y: yOf(m) });
-    const series: LineSeries[] = [{ name: 'Solution family', points: r.family.map(point).sort((a, b) => a.x - b.x) }];
-    const pick = r.family.find((m) => m.chosen);
-    const chosen = r.family[this.selected()];
-    const marks: ChartMark[] = [];
-    if (pick) marks.push({ ...point(pick), label: "Solver's pick" });
-    if (chosen && chosen !== pick) marks.push({ ...point(chosen), label: 'Chosen' });
-    const u = this.lengthUnit();
-    return {
-      series,
-      marks,
-      x: { label: labels[xName] ?? xName, unit: u },
-      y: yName ? { label: labels[yName] ?? yName, unit: u } : { label: 'RMS toe deviation', unit: 'deg' },
-    };
-  });
-
-  /**
-   * Balance gained against bump cost: the primary coordinate swept across its bounds (the family
-   * itself all meets the target, so it has no balance to trade). x: the bump cost in its physical
-   * unit, the RMS yaw-rate disturbance on the profile's road (deg/s) where the vehicle runs the ride
-   * model, else the toe change over the single-wheel bump (deg); y: understeer change (deg/g) with
-   * a vehicle, else ε.
-   */
-  protected readonly tradeOffChart = computed(() => {
-    const r = this.result();
-    if (!r || r.tradeOff.length < 2) return null;
-    const useYaw = r.tradeOff.every((t) => t.yawRateRmsDegPerS !== null);
-    const useUndersteer = r.tradeOff.every((t) => t.understeerChangeDegPerG !== null);
-    const x = (t: (typeof r.tradeOff)[number]) => (useYaw ? t.yawRateRmsDegPerS! : Math.abs(t.bumpToeChangeDeg));
-    const y = (t: (typeof r.tradeOff)[number]) => (useUndersteer ? t.understeerChangeDegPerG! : t.rollSteerCoefficient);
-    // In the order of the sweep (the coordinate across its bounds): the bump cost falls to its least where the
-    // toe line is straightest and rises again, so sorting by cost would zig-zag between the two sides.
-    const points = [...r.tradeOff].sort((a, b) => a.valueMm - b.valueMm).map((t) => ({ x: x(t), y: y(t) }));
-    const marks: ChartMark[] = [];
-    const m = this.selectedMember()?.member;
-    const mx = m ? (useYaw ? (m.bumpCost?.yawRateRmsDegPerS ?? null) : m.bumpToeChangeDeg === null ? null : Math.abs(m.bumpToeChangeDeg)) : null;
-    const my = m ? (useUndersteer ? m.understeerChangeDegPerG : m.rollSteerCoefficient) : null;
-    if (mx !== null && my !== null) marks.push({ x: mx, y: my, label: m!.chosen ? "Solver's pick" : 'Chosen' });
-    const primary = this.coordinateLabels()[r.primaryCoordinate] ?? r.primaryCoordinate;
-    const spreadX = Math.max(...points.map((p) => p.x)) - Math.min(...points.map((p) => p.x));
-    const spreadY = Math.max(...points.map((p) => p.y)) - Math.min(...points.map((p) => p.y));
-    return {
-      series: [{ name: `${primary} across its bounds`, points }],
-      marks,
-      x: useYaw
-        ? { label: `Yaw-rate disturbance, RMS, on ${r.bumpCost?.roadInWords ?? "the profile's road"}`, unit: 'deg/s' }
-        : { label: `Toe change over the ${formatNum(r.trackProfile.bumpHeightMm, { kind: 'length' }, this.units())} ${this.lengthUnit()} single-wheel bump`, unit: 'deg' },
-      y: useUndersteer ? { label: 'Understeer-gradient change', unit: 'deg/g' } : { label: 'Roll steer coefficient ε', unit: 'deg/deg' },
-      description:
-        `Across the bounds of ${primary.toLowerCase()} the bump cost spans ${formatNum(spreadX, { sig: 3 })} ${useYaw ? 'deg/s' : 'deg'} ` +
-        `and the ${useUndersteer ? 'understeer change' : 'roll steer coefficient'} ${formatNum(spreadY, { sig: 3 })} ${useUndersteer ? 'deg/g' : 'deg/deg'}.`,
-    };
-  });
-
-  /** The chosen member's toe change from ride height over the current geometry's (rack straight ahead). */
-  protected readonly toeOverlay = computed<LineSeries[]>(() => {
-    const d = this.details();
-    if (!d) return [];
-    const rig: LineSeries[] = this.rigFiles().map((f) => ({
-      name: `Rig: ${f.name} (${f.side} wheel)`,
-      style: 'points',
-      points: rigToeChange(f.points).map((p) => ({ x: this.len(p.travelMm), y: p.toeDeg })),
-    }));
-    return [
-      { name: 'Current geometry', points: d.toeCurve.map((p) => ({ x: this.len(p.travelMm), y: p.currentDeg })) },
-      { name: 'Proposed geometry', points: d.toeCurve.map((p) => ({ x: this.len(p.travelMm), y: p.proposedDeg })) },
-      ...rig.filter((r) => r.points.length > 0),
-    ];
-  });
-
-  /** The chosen member's axle steer against roll over the current geometry's. */
-  protected readonly rollOverlay = computed<LineSeries[]>(() => {
-    const d = this.details();
-    if (!d) return [];
-    return [
-      { name: 'Current geometry', points: d.rollCurve.map((p) => ({ x: p.rollDeg, y: p.currentDeg })) },
-      { name: 'Proposed geometry', points: d.rollCurve.map((p) => ({ x: p.rollDeg, y: p.proposedDeg })) },
-    ];
-  });
-
-  /** The result's cautions; its safety notice is the page's own caution below. */
-  protected readonly resultCautions = computed(() => (this.result()?.cautions ?? []).filter((c) => c.code !== 'safety-notice'));
+  /** The chosen member's own cautions; its safety notice is the page's own caution below. */
+  protected readonly memberCautions = computed(() => (this.details()?.cautions ?? []).filter((c) => c.code !== 'safety-notice'));
 
   constructor() {
-    // Loads on arrival and again when the router reuses this page for other route parameters.
+    // The entries start from each design loaded (on arrival, and when the router reuses this page), with its rig files.
     effect(() => {
-      routeKey(this.teamId(), this.vehicleId(), this.designId());
+      const design = this.design();
+      if (!design) return;
       untracked(() => {
-        void this.load();
+        this.solved.set(null);
+        this.failure.set(null);
+        this.detailsState.set(null);
+        this.initEntries();
+        void this.loadRig(design);
       });
     });
     // Works out the chosen member whenever it, the result or the workshop entries change.
@@ -508,31 +450,11 @@ export class IntentPage {
 
   private async workOut(key: string, doc: Record<string, unknown>, member: Readonly<Record<string, number>>): Promise<void> {
     try {
-      const value = await this.solver.details(doc, member);
+      const value = await this.solver.details(doc, member, untracked(this.units));
       this.detailsState.set({ key, value });
     } catch (error) {
       if (error instanceof AnalysisSuperseded) return;
-      this.detailsState.set({ key, error: error instanceof AnalysisError ? failureWords(error.failure) : String(error) });
-    }
-  }
-
-  private async load(): Promise<void> {
-    try {
-      const [design] = await Promise.all([
-        firstValueFrom(this.api.axleDesign(this.teamId(), this.designId())),
-        firstValueFrom(this.access.load(this.teamId())),
-      ]);
-      this.design.set(design);
-      this.initEntries();
-      void this.loadRig(design);
-      try {
-        const vehicle = await firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId()));
-        this.vehicleData.set(vehicle.data);
-      } catch {
-        this.vehicleData.set(null);
-      }
-    } catch (error) {
-      this.loadError.set(apiProblem(error).message);
+      this.detailsState.set({ key, error: error instanceof AnalysisError ? failureWords(error.failure, this.units()) : String(error) });
     }
   }
 
@@ -610,14 +532,18 @@ export class IntentPage {
     this.progress.set(0);
     this.progressMessage.set('starting');
     try {
-      const result = await this.solver.solve(this.intentDocument(), (f, m) => {
-        this.progress.set(Math.round(f * 100));
-        this.progressMessage.set(m);
-      });
+      const result = await this.solver.solve(
+        this.intentDocument(),
+        (f, m) => {
+          this.progress.set(Math.round(f * 100));
+          this.progressMessage.set(m);
+        },
+        this.units(),
+      );
       this.solved.set({ result, key, asked });
     } catch (error) {
       if (error instanceof AnalysisSuperseded) return;
-      this.failure.set({ message: error instanceof AnalysisError ? failureWords(error.failure) : String(error), asked });
+      this.failure.set({ message: error instanceof AnalysisError ? failureWords(error.failure, this.units()) : String(error), asked });
     } finally {
       this.running.set(false);
     }
@@ -649,8 +575,8 @@ export class IntentPage {
             trackProfile: r.trackProfile.id,
             engineVersion: r.engineVersion,
             member: m.solverPick ? 'solver-pick' : 'chosen-by-user',
-            // The solve's cautions were measured on the solver's pick; another member carries none of them.
-            cautions: m.solverPick ? r.cautions.filter((c) => c.code !== 'safety-notice') : [],
+            // The chosen member's own cautions, measured on its geometry.
+            cautions: member.cautions.filter((c) => c.code !== 'safety-notice'),
           },
         }),
       );
@@ -674,13 +600,5 @@ export class IntentPage {
 
   protected text(event: Event): string {
     return (event.target as HTMLInputElement).value;
-  }
-
-  protected checked(event: Event): boolean {
-    return (event.target as HTMLInputElement).checked;
-  }
-
-  protected adjusterFrom(event: Event): 'single-thread' | 'turnbuckle' {
-    return (event.target as HTMLSelectElement).value === 'turnbuckle' ? 'turnbuckle' : 'single-thread';
   }
 }

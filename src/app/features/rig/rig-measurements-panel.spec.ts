@@ -1,4 +1,4 @@
-import { TestBed } from '@angular/core/testing';
+import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { provideHttpClient } from '@angular/common/http';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
@@ -7,6 +7,7 @@ import { sweepCorner } from '../../../../shared/kinematics/sweep';
 import { previewRigCsv, readRigCsv, type RigMapping } from '../../../../shared/io/rig-measurement';
 import { compareRigMeasurement, DEFAULT_RIG_TOLERANCE } from '../../../../shared/rig/compare';
 import { RigMeasurementsPanel } from './rig-measurements-panel';
+import { settle } from '../../../testing/settle';
 
 const TEAM = '/api/teams/team-1';
 const corner = exampleCorners.fsFrontWishbone;
@@ -29,9 +30,16 @@ function setUp(inputs: Record<string, unknown> = { configurationId: 'config-1' }
   return { fixture, el: fixture.nativeElement as HTMLElement, http };
 }
 
-function answerStart(http: HttpTestingController, list: unknown[] = []) {
+async function answerStart(fixture: ComponentFixture<RigMeasurementsPanel>, http: HttpTestingController, list: unknown[] = []) {
   http.expectOne((r) => r.url === `${TEAM}/rig-measurements`).flush(list);
   http.expectOne(`${TEAM}/rig-tolerance`).flush({ ...DEFAULT_RIG_TOLERANCE, isDefault: true, updatedAt: null, updatedByName: null });
+  await drawn(fixture);
+}
+
+/** Lets the panel's resources take their answers (a task after the response) and send their next requests, and draws it. */
+async function drawn(fixture: ComponentFixture<RigMeasurementsPanel>): Promise<void> {
+  await settle();
+  fixture.detectChanges();
 }
 
 const button = (el: HTMLElement, text: string) => Array.from(el.querySelectorAll('button')).find((b) => b.textContent!.includes(text))!;
@@ -64,15 +72,23 @@ const summary = (id: string) => ({
   createdAt: '2026-11-30T10:15:00.000Z',
 });
 
+/** Chooses `option` in the Material select named `name`, as a user does (open the list, click the option). */
+function pick(fixture: { detectChanges(): void }, el: HTMLElement, name: string, option: string): void {
+  (el.querySelector(`mat-select[name=${name}] .mat-mdc-select-trigger`) as HTMLElement).click();
+  fixture.detectChanges();
+  [...document.querySelectorAll<HTMLElement>('mat-option')].find((o) => o.textContent!.trim() === option)!.click();
+  fixture.detectChanges();
+}
+
 describe('RigMeasurementsPanel', () => {
-  it('shows the empty state and the team tolerance once loaded', () => {
+  it('shows the empty state and the team tolerance once loaded', async () => {
     const { fixture, el, http } = setUp();
     expect(el.textContent).toContain('Loading rig measurements');
     const list = http.expectOne((r) => r.url === `${TEAM}/rig-measurements`);
     expect(list.request.params.get('configurationId')).toBe('config-1');
     list.flush([]);
     http.expectOne(`${TEAM}/rig-tolerance`).flush({ toeDeg: 0.08, camberDeg: 0.3, isDefault: false, updatedAt: '2026-11-01T00:00:00Z', updatedByName: 'Ana Ferreira' });
-    fixture.detectChanges();
+    await drawn(fixture);
     expect(el.querySelector('.rw-rig-empty')!.textContent).toContain('No rig measurements');
     expect(el.textContent).toContain('toe 0.08°, camber 0.3°');
     expect(el.textContent).toContain('set by Ana Ferreira');
@@ -81,7 +97,7 @@ describe('RigMeasurementsPanel', () => {
 
   it('uploads, maps, stores and shows the overlay with RMS, largest difference, the tolerance caution and the safety caution', async () => {
     const { fixture, el, http } = setUp();
-    answerStart(http);
+    await answerStart(fixture, http);
     const text = engineFile(0.12);
     await fixture.componentInstance.readText('rig.csv', text);
     const previewReq = http.expectOne(`${TEAM}/rig-measurements/preview`);
@@ -89,13 +105,15 @@ describe('RigMeasurementsPanel', () => {
     previewReq.flush(previewAnswer('rig.csv', text));
     fixture.detectChanges();
     // The proposed mapping fills the dropdowns, the file's first rows and the converted values are shown.
-    expect(el.querySelector<HTMLSelectElement>('select[name=camberColumn]')!.value).toBe('2');
+    // Column 2 of the file ("camber") is proposed for camber: the select shows its name (once its options are drawn).
+    await fixture.whenStable();
+    fixture.detectChanges();
+    expect(el.querySelector('mat-select[name=camberColumn]')!.textContent!.trim()).toBe(previewAnswer('rig.csv', text).columns[2]);
+    // One component family: Material fields, selects and checkbox; the file picker is a Material button driving a hidden input.
+    expect(el.querySelectorAll('select, input:not(.mat-mdc-input-element):not(.mdc-checkbox__native-control):not([type=file][hidden])').length).toBe(0);
     expect(el.querySelectorAll('.rw-rig-preview tbody tr').length).toBe(8);
     expect(el.querySelectorAll('.rw-rig-converted tbody tr').length).toBe(8);
-    const basis = el.querySelector<HTMLSelectElement>('select[name=basis]')!;
-    basis.value = 'absolute';
-    basis.dispatchEvent(new Event('change'));
-    fixture.detectChanges();
+    pick(fixture, el, 'basis', 'Values as measured');
     button(el, 'Store measurement').click();
     const create = http.expectOne(`${TEAM}/rig-measurements`);
     const body = create.request.body as FormData;
@@ -104,6 +122,7 @@ describe('RigMeasurementsPanel', () => {
     expect(JSON.parse(body.get('target') as string)).toEqual({ kind: 'configuration', configurationId: 'config-1', axle: 'front' });
     expect(JSON.parse(body.get('options') as string)).toMatchObject({ basis: 'absolute', rackMm: 0, side: 'left', name: 'rig' });
     create.flush({ ...summary('m-1') });
+    await drawn(fixture);
     http.expectOne((r) => r.url === `${TEAM}/rig-measurements`).flush([summary('m-1')]);
     const read = readRigCsv(text, mapping);
     if (!read.ok) throw new Error(read.errors.join('; '));
@@ -149,7 +168,7 @@ describe('RigMeasurementsPanel', () => {
 
   it('shows a refusal of the upload itself (a binary file) with the server message', async () => {
     const { fixture, el, http } = setUp();
-    answerStart(http);
+    await answerStart(fixture, http);
     await fixture.componentInstance.readText('rig.csv', 'PK\u0000\u0003');
     http
       .expectOne(`${TEAM}/rig-measurements/preview`)
@@ -161,22 +180,19 @@ describe('RigMeasurementsPanel', () => {
 
   it('keeps Store disabled when two quantities share a column', async () => {
     const { fixture, el, http } = setUp();
-    answerStart(http);
+    await answerStart(fixture, http);
     const text = engineFile(0);
     await fixture.componentInstance.readText('rig.csv', text);
     http.expectOne(`${TEAM}/rig-measurements/preview`).flush(previewAnswer('rig.csv', text));
     fixture.detectChanges();
-    const toe = el.querySelector<HTMLSelectElement>('select[name=toeColumn]')!;
-    toe.value = '0';
-    toe.dispatchEvent(new Event('change'));
-    fixture.detectChanges();
+    pick(fixture, el, 'toeColumn', previewAnswer('rig.csv', text).columns[0]!);
     expect(el.textContent).toContain('Travel, toe and camber must be different columns.');
     expect(button(el, 'Store measurement').disabled).toBe(true);
   });
 
   it('deletes a stored measurement after confirmation and lists again', async () => {
     const { fixture, el, http } = setUp();
-    answerStart(http, [summary('m-1')]);
+    await answerStart(fixture, http, [summary('m-1')]);
     fixture.detectChanges();
     expect(el.querySelectorAll('.rw-rig-list tbody tr').length).toBe(1);
     button(el, 'Delete').click();
@@ -189,15 +205,16 @@ describe('RigMeasurementsPanel', () => {
     const del = http.expectOne(`${TEAM}/rig-measurements/m-1`);
     expect(del.request.method).toBe('DELETE');
     del.flush(null, { status: 204, statusText: 'No Content' });
+    await drawn(fixture);
     http.expectOne((r) => r.url === `${TEAM}/rig-measurements`).flush([]);
-    fixture.detectChanges();
+    await drawn(fixture);
     expect(el.querySelector('.rw-rig-empty')).not.toBeNull();
     http.verify();
   });
 
-  it('lets an owner set the team tolerance, refusing a non-positive value before sending', () => {
+  it('lets an owner set the team tolerance, refusing a non-positive value before sending', async () => {
     const { fixture, el, http } = setUp({ configurationId: 'config-1', canSetTolerance: true });
-    answerStart(http);
+    await answerStart(fixture, http);
     fixture.detectChanges();
     const toe = el.querySelector<HTMLInputElement>('input[name=toeTol]')!;
     expect(toe.value).toBe('0.1');
@@ -213,16 +230,16 @@ describe('RigMeasurementsPanel', () => {
     expect(put.request.method).toBe('PUT');
     expect(put.request.body).toEqual({ toeDeg: 0.15, camberDeg: 0.25 });
     put.flush({ toeDeg: 0.15, camberDeg: 0.25, isDefault: false, updatedAt: '2026-12-01T00:00:00Z', updatedByName: 'Ana Ferreira' });
-    fixture.detectChanges();
+    await drawn(fixture);
     expect(el.textContent).toContain('toe 0.15°, camber 0.25°');
     http.verify();
   });
 
-  it('offers no upload without edit rights, and shows a list error', () => {
+  it('offers no upload without edit rights, and shows a list error', async () => {
     const { fixture, el, http } = setUp({ configurationId: 'config-1', canEdit: false });
     http.expectOne((r) => r.url === `${TEAM}/rig-measurements`).flush({ error: { code: 'not_found', message: 'Configuration not found' } }, { status: 404, statusText: 'Not Found' });
     http.expectOne(`${TEAM}/rig-tolerance`).flush({ ...DEFAULT_RIG_TOLERANCE, isDefault: true, updatedAt: null, updatedByName: null });
-    fixture.detectChanges();
+    await drawn(fixture);
     expect(el.querySelector('input[type=file]')).toBeNull();
     expect(el.textContent).toContain('could not be loaded: Configuration not found');
   });

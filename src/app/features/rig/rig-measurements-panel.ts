@@ -1,7 +1,12 @@
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { ChangeDetectionStrategy, Component, computed, DestroyRef, effect, inject, input, signal, untracked } from '@angular/core';
-import { Subscription } from 'rxjs';
+import { of, Subscription } from 'rxjs';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { MatButton } from '@angular/material/button';
+import { MatCheckbox } from '@angular/material/checkbox';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { MatOption, MatSelect } from '@angular/material/select';
 import { MatDialog } from '@angular/material/dialog';
 import { confirmAction } from '../../core/layout/confirm-dialog';
 import {
@@ -21,12 +26,11 @@ import type { RigBasis, RigComparison, RigStats } from '../../../../shared/rig/c
 import { LineChart } from '../../charts/line-chart';
 import { type LineSeries } from '../../charts/chart-types';
 import { apiProblem } from '../../core/http/api-error';
-import type { LoadState } from '../../core/http/load-state';
+import { loadState, type LoadState } from '../../core/http/load-state';
 import { CautionList } from '../intent/caution-list';
 import { SafetyCaution } from '../safety-caution';
-import { RigApi, type RigMeasurementDetail, type RigMeasurementSummary, type RigPreviewAnswer, type RigTarget, type RigToleranceView } from './rig-api';
+import { RigApi, type RigMeasurementDetail, type RigMeasurementSummary, type RigPreviewAnswer, type RigTarget } from './rig-api';
 import { NumPipe } from '../../core/format/num-pipe';
-import { inputChecked, inputValue, optionValue } from '../../core/forms/dom-events';
 import type { AxleName } from '../../../../shared/schema/axle';
 
 /** Where the upload of a new file stands. */
@@ -64,15 +68,12 @@ const UNIT_WORDS: Readonly<Record<string, string>> = {
  */
 @Component({
   selector: 'rw-rig-measurements',
-  imports: [NumPipe, MatButton, LineChart, CautionList, SafetyCaution],
+  imports: [NumPipe, MatButton, MatCheckbox, MatFormField, MatLabel, MatInput, MatSelect, MatOption, LineChart, CautionList, SafetyCaution],
   templateUrl: './rig-measurements-panel.html',
   styleUrl: './rig-measurements-panel.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class RigMeasurementsPanel {
-  protected readonly inputChecked = inputChecked;
-  protected readonly inputValue = inputValue;
-  protected readonly optionValue = optionValue;
   private readonly api = inject(RigApi);
   private readonly dialog = inject(MatDialog);
 
@@ -96,9 +97,20 @@ export class RigMeasurementsPanel {
   protected readonly camberSigns = CAMBER_SIGNS;
   protected readonly words = UNIT_WORDS;
 
-  protected readonly list = signal<LoadState<RigMeasurementSummary[]>>({ status: 'loading' });
+  /** What is stored for the configuration or design, loaded again for new inputs and after a store or a delete. */
+  private readonly listResource = rxResource({
+    params: () => ({ team: this.teamId(), config: this.configurationId(), design: this.designId() }),
+    stream: ({ params: p }) =>
+      !p.config && !p.design ? of<RigMeasurementSummary[]>([]) : this.api.list(p.team, p.config ? { configurationId: p.config } : { designId: p.design! }),
+  });
+  protected readonly list = loadState(this.listResource);
   protected readonly selected = signal<LoadState<RigMeasurementDetail> | null>(null);
-  protected readonly tolerance = signal<LoadState<RigToleranceView>>({ status: 'loading' });
+  /** The team's rig tolerance (set again by an owner's save). */
+  private readonly toleranceResource = rxResource({
+    params: () => ({ team: this.teamId() }),
+    stream: ({ params: p }) => this.api.tolerance(p.team),
+  });
+  protected readonly tolerance = loadState(this.toleranceResource);
   protected readonly upload = signal<UploadState | null>(null);
   protected readonly actionError = signal<string | null>(null);
 
@@ -131,14 +143,19 @@ export class RigMeasurementsPanel {
   constructor() {
     inject(DestroyRef).onDestroy(() => this.requests.unsubscribe());
     effect(() => {
-      const team = this.teamId();
-      const config = this.configurationId();
-      const design = this.designId();
+      this.teamId();
+      this.configurationId();
+      this.designId();
       this.chosenAxle.set(this.axle());
+      untracked(() => this.selected.set(null));
+    });
+    // The tolerance fields start from the tolerance loaded or saved.
+    effect(() => {
+      const t = this.tolerance();
+      if (t.status !== 'ready') return;
       untracked(() => {
-        this.selected.set(null);
-        this.reload(team, config, design);
-        this.loadTolerance(team);
+        this.toleranceToeText.set(String(t.value.toeDeg));
+        this.toleranceCamberText.set(String(t.value.camberDeg));
       });
     });
   }
@@ -248,36 +265,8 @@ export class RigMeasurementsPanel {
     return this.preview()?.columns[i] ?? `Column ${i + 1}`;
   }
 
-  private reload(team: string, config: string | null, design: string | null): void {
-    if (!config && !design) {
-      this.list.set({ status: 'ready', value: [] });
-      return;
-    }
-    this.list.set({ status: 'loading' });
-    this.requests.add(
-      this.api.list(team, config ? { configurationId: config } : { designId: design! }).subscribe({
-        next: (rows) => this.list.set({ status: 'ready', value: rows }),
-        error: (e: unknown) => this.list.set({ status: 'error', message: apiProblem(e).message }),
-      }),
-    );
-  }
-
   private refresh(): void {
-    this.reload(this.teamId(), this.configurationId(), this.designId());
-  }
-
-  private loadTolerance(team: string): void {
-    this.tolerance.set({ status: 'loading' });
-    this.requests.add(
-      this.api.tolerance(team).subscribe({
-        next: (t) => {
-          this.tolerance.set({ status: 'ready', value: t });
-          this.toleranceToeText.set(String(t.toeDeg));
-          this.toleranceCamberText.set(String(t.camberDeg));
-        },
-        error: (e: unknown) => this.tolerance.set({ status: 'error', message: apiProblem(e).message }),
-      }),
-    );
+    this.listResource.reload();
   }
 
   protected chooseFile(event: Event): void {
@@ -333,12 +322,8 @@ export class RigMeasurementsPanel {
     this.camberSign.set(m?.camberSign ?? 'top-out-positive');
   }
 
-  protected setNumber(sig: { set(v: number): void }, value: string): void {
-    sig.set(Number(value));
-  }
-
   protected setText(sig: { set(v: string): void }, event: Event): void {
-    sig.set((event.target as HTMLInputElement | HTMLSelectElement).value);
+    sig.set((event.target as HTMLInputElement).value);
   }
 
   /** Sends the file with the mapping; the server reads it again, compares and stores it whole, or refuses it. */
@@ -424,7 +409,7 @@ export class RigMeasurementsPanel {
     this.requests.add(
       this.api.setTolerance(this.teamId(), t).subscribe({
         next: (v) => {
-          this.tolerance.set({ status: 'ready', value: v });
+          this.toleranceResource.set(v);
           const s = this.selected();
           if (s?.status === 'ready') this.show(s.value.id);
         },
