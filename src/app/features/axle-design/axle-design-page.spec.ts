@@ -64,6 +64,8 @@ describe('AxleDesignPage results', () => {
         backend.match(() => true).forEach(answer);
         harness.detectChanges();
         if (!root.querySelector('[data-testid="fit-caption"]')) throw new Error('no results yet');
+        // The drawings and their travel fields are a deferred part: loaded on their own time.
+        if (!root.querySelector('rw-sweep-settings input')) throw new Error('no travel fields yet');
       },
       { timeout: 30_000, interval: 50 },
     );
