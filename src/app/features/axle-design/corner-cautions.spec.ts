@@ -3,6 +3,7 @@ import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { cautionsForCorner } from '../../../../shared/cautions/corner-cautions';
 import type { Caution } from '../../../../shared/cautions/cautions';
 import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
+import { formatNum } from '../../core/format/num';
 import { CAUTION_GROUPS, CornerCautions } from './corner-cautions';
 import { TrackProfileSelect } from './track-profile-select';
 
@@ -38,8 +39,9 @@ describe('CornerCautions', () => {
     expect(li.classList).toContain('rw-caution-warning');
     expect(li.textContent).toContain('Warning');
     expect(li.textContent).toContain(toe.message);
-    expect(li.textContent).toContain(`Value ${toe.value!.toPrecision(3)} deg`);
-    expect(li.textContent).toContain(`threshold ${toe.threshold!.toPrecision(3)} deg`);
+    // To 3 significant figures through the app's one formatter (trailing zeros dropped).
+    expect(li.textContent).toContain(`Value ${formatNum(toe.value, { sig: 3 })} deg`);
+    expect(li.textContent).toContain(`threshold ${formatNum(toe.threshold, { sig: 3 })} deg`);
     expect(li.textContent).toContain(`Basis: ${toe.basis}`);
     expect(items.find((x) => x.dataset['code'] === 'bump-lateral-scrub')!.classList).toContain('rw-caution-critical');
   });
