@@ -133,8 +133,13 @@ describe('ConfigurationPage', () => {
     const harness = await RouterTestingHarness.create();
     await harness.navigateByUrl('/teams/t-tal/configurations/c1', ConfigurationPage);
     const answers = table(c, permissions, extra);
-    await serve(backend, answers);
-    harness.detectChanges();
+    // Parts of the page ask for their data once the page around them has rendered (the rig panel, the
+    // approval snapshot): answer, render, and answer again until a render asks for nothing new.
+    for (let round = 0; round < 6; round++) {
+      const seen = await serve(backend, answers);
+      harness.detectChanges();
+      if (seen.length === 0 && round > 0) break;
+    }
     return { harness, root: harness.routeNativeElement as HTMLElement, answers };
   }
 
