@@ -12,7 +12,7 @@
  */
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { chooseOption, consoleErrors, copyOfDemoDesign, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+import { chooseOption, consoleErrors, overlappingTexts, copyOfDemoDesign, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
 
@@ -99,20 +99,7 @@ describe('Axle design editor in Chromium', () => {
 
     // The scaled drawings, as Chromium lays their text out: no two labels (point numbers, dimensions, scale) overlap.
     await page.locator('rw-linkage-views [data-testid="scale-bar"]').first().waitFor();
-    const drawingOverlaps = await page.evaluate(() => {
-      const found: string[] = [];
-      for (const svg of document.querySelectorAll('rw-linkage-views svg')) {
-        const texts = [...svg.querySelectorAll('text')].filter((t) => t.textContent!.trim() !== '');
-        const boxes = texts.map((t) => t.getBoundingClientRect());
-        for (let i = 0; i < boxes.length; i++)
-          for (let j = i + 1; j < boxes.length; j++) {
-            const a = boxes[i]!;
-            const b = boxes[j]!;
-            if (a.left < b.right - 0.5 && b.left < a.right - 0.5 && a.top < b.bottom - 0.5 && b.top < a.bottom - 0.5) found.push(`${texts[i]!.textContent} / ${texts[j]!.textContent}`);
-          }
-      }
-      return found;
-    });
+    const drawingOverlaps = await overlappingTexts(page, 'rw-linkage-views svg');
     expect(drawingOverlaps).toEqual([]);
     await expect(page.locator('rw-linkage-views svg text').count()).resolves.toBeGreaterThan(30);
 

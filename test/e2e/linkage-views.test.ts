@@ -7,7 +7,7 @@
  * seeded database, Debian's Chromium. Needs `npx ng build` first.
  */
 import { describe, expect, it } from 'vitest';
-import { consoleErrors, offsiteRequests, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+import { consoleErrors, overlappingTexts, offsiteRequests, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 
 describe('Linkage views in Chromium', () => {
   const env = useE2eApp();
@@ -62,20 +62,7 @@ describe('Linkage views in Chromium', () => {
     await page.locator('[data-chart="casterDeg"] .rw-axis-label-x', { hasText: 'Body roll' }).waitFor();
 
     // No two text elements of a curve chart overlap (ticks, axis titles).
-    const overlaps = await page.evaluate(() => {
-      const found: string[] = [];
-      for (const svg of document.querySelectorAll('[data-testid="curves-grid"] svg.rw-chart-svg')) {
-        const texts = [...svg.querySelectorAll('text')].filter((t) => t.textContent!.trim() !== '');
-        const boxes = texts.map((t) => t.getBoundingClientRect());
-        for (let i = 0; i < boxes.length; i++)
-          for (let j = i + 1; j < boxes.length; j++) {
-            const a = boxes[i]!;
-            const b = boxes[j]!;
-            if (a.left < b.right - 0.5 && b.left < a.right - 0.5 && a.top < b.bottom - 0.5 && b.top < a.bottom - 0.5) found.push(`${texts[i]!.textContent} / ${texts[j]!.textContent}`);
-          }
-      }
-      return found;
-    });
+    const overlaps = await overlappingTexts(page, '[data-testid="curves-grid"] svg.rw-chart-svg');
     expect(overlaps).toEqual([]);
     await saveScreenshot(page, 'editor-output-curves');
 

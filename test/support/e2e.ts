@@ -147,6 +147,27 @@ export async function saveScreenshot(page: Page, name: string): Promise<string> 
   return file;
 }
 
+/**
+ * Pairs of text elements that overlap on screen (by more than half a pixel), as Chromium lays them out,
+ * within each svg that `svgSelector` matches: "first text / second text". Empty when no two overlap.
+ */
+export async function overlappingTexts(page: Page, svgSelector: string): Promise<string[]> {
+  return page.evaluate((selector) => {
+    const found: string[] = [];
+    for (const svg of document.querySelectorAll(selector)) {
+      const texts = [...svg.querySelectorAll('text')].filter((t) => t.textContent!.trim() !== '');
+      const boxes = texts.map((t) => t.getBoundingClientRect());
+      for (let i = 0; i < boxes.length; i++)
+        for (let j = i + 1; j < boxes.length; j++) {
+          const a = boxes[i]!;
+          const b = boxes[j]!;
+          if (a.left < b.right - 0.5 && b.left < a.right - 0.5 && a.top < b.bottom - 0.5 && b.top < a.bottom - 0.5) found.push(`${texts[i]!.textContent} / ${texts[j]!.textContent}`);
+        }
+    }
+    return found;
+  }, svgSelector);
+}
+
 /** Picks `option` in the Material select named `name`, as a user does: opens its list, clicks the option, waits for the list to close. */
 export async function chooseOption(page: Page, name: string, option: string | RegExp): Promise<void> {
   await page.getByRole('combobox', { name, exact: true }).click();
