@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # First step of `npm start` and `npm test` on any machine: install what is
 # missing. npm itself runs this script, so it only needs bash and node.
-#   - node_modules: `npm ci` when missing or older than package-lock.json
+#   - node_modules: `npm ci` when missing, or not installed from this package-lock.json
 #   - PostgreSQL 15 (Debian package) when its server binary is absent
 #   - Debian's Chromium, for `npm test` only (browser tests)
 set -euo pipefail
@@ -16,6 +16,11 @@ apt_install() {
 }
 
 lock_sum=$(sha256sum package-lock.json | cut -d' ' -f1)
+# Installed by hand (`npm ci`) after the lock file was written: npm's own record of the tree
+# (node_modules/.package-lock.json) is newer than the lock, so the tree is the lock's.
+if [ ! -f node_modules/.rollwise-lock-sum ] && [ node_modules/.package-lock.json -nt package-lock.json ]; then
+  echo "$lock_sum" > node_modules/.rollwise-lock-sum
+fi
 if [ ! -f node_modules/.rollwise-lock-sum ] || [ "$(cat node_modules/.rollwise-lock-sum)" != "$lock_sum" ]; then
   echo "[rollwise] installing npm packages (npm ci)…"
   npm ci --no-audit --no-fund --loglevel=error
