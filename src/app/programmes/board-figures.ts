@@ -45,9 +45,7 @@ export function profileLabel(id: string): string {
 
 /** A figure to `digits` decimals with a real minus sign; a dash when missing. */
 export function formatFigure(value: number | null | undefined, digits: number): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
-  const text = formatNum(Math.abs(value), { decimals: digits });
-  return (value < 0 && Number(text) !== 0 ? '−' : '') + text;
+  return formatNum(value, { decimals: digits, sign: 'minus', missing: '—' });
 }
 
 /**
@@ -56,10 +54,8 @@ export function formatFigure(value: number | null | undefined, digits: number): 
  */
 export function formatChange(latest: number | null | undefined, approved: number | null | undefined, digits: number): string {
   if (latest == null || approved == null || !Number.isFinite(latest) || !Number.isFinite(approved)) return '—';
-  const d = latest - approved;
-  const text = Math.abs(d).toFixed(digits);
-  if (Number(text) === 0) return 'no change';
-  return (d > 0 ? '+' : '−') + text;
+  const text = formatNum(latest - approved, { decimals: digits, sign: 'change' });
+  return text === '0' ? 'no change' : text;
 }
 
 export function latestFigures(row: BoardRow): KeyFigures | null {

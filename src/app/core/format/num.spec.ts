@@ -31,6 +31,16 @@ describe('formatNum', () => {
     // Angles are the same in both systems.
     expect(formatNum(1.2345, { kind: 'angle' }, 'imperial')).toBe('1.23');
   });
+
+  it('writes a typographic minus or a signed change when asked, and no sign on what rounds to zero', () => {
+    expect(formatNum(-0.0421, { decimals: 3, sign: 'minus' })).toBe('\u22120.042');
+    expect(formatNum(0.0421, { decimals: 3, sign: 'minus' })).toBe('0.042');
+    expect(formatNum(-0.0001, { decimals: 3, sign: 'minus' })).toBe('0.000');
+    expect(formatNum(0.025, { decimals: 3, sign: 'change' })).toBe('+0.025');
+    expect(formatNum(-0.025, { decimals: 3, sign: 'change' })).toBe('\u22120.025');
+    expect(formatNum(0.0003, { decimals: 3, sign: 'change' })).toBe('0');
+    expect(formatNum(-25.4, { kind: 'length', sign: 'change' }, 'imperial')).toBe('\u22121');
+  });
 });
 
 describe('NumPipe', () => {

@@ -417,8 +417,7 @@ export class BalancePage {
   protected change(f: KeyFigure): string {
     if (f.baseline === null || f.variant === null) return '–';
     if (!this.differs(f)) return '0';
-    const d = f.variant - f.baseline;
-    return (d > 0 ? '+' : '') + d.toFixed(f.digits);
+    return formatNum(f.variant - f.baseline, { decimals: f.digits, sign: 'change' });
   }
 
   protected differs(f: KeyFigure): boolean {
