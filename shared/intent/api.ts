@@ -6,22 +6,16 @@
  */
 import { parseOrThrow } from '../errors.js';
 import { intentSchema } from '../schema/intent.js';
-import { solveIntent, type Progress, type SolveResult } from './solve.js';
-import { proposalDetails, type ProposalDetails } from './member.js';
+import type { Progress, SolveResult } from './solve.js';
+import type { ProposalDetails } from './member.js';
 import type { CautionFigures } from '../cautions/cautions.js';
+import { proposalDetailsJson, solveIntentJson } from './json.js';
 
 export function computeSolve(input: unknown, onProgress?: Progress, figures?: CautionFigures): SolveResult {
-  const intent = parseOrThrow(intentSchema, input, 'intent');
-  return jsonSafe(solveIntent(intent, onProgress, figures));
+  return solveIntentJson(parseOrThrow(intentSchema, input, 'intent'), onProgress, figures);
 }
 
 /** One chosen member of the family (coordinate values by name, mm) worked out for the workshop; validates the intent first. */
 export function computeProposalDetails(input: unknown, values: Readonly<Record<string, number>>, figures?: CautionFigures): ProposalDetails {
-  const intent = parseOrThrow(intentSchema, input, 'intent');
-  return jsonSafe(proposalDetails(intent, values, figures));
-}
-
-/** Replaces non-finite numbers by null so the result survives JSON unchanged. */
-function jsonSafe<T>(value: T): T {
-  return JSON.parse(JSON.stringify(value, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v))) as T;
+  return proposalDetailsJson(parseOrThrow(intentSchema, input, 'intent'), values, figures);
 }

@@ -5,7 +5,8 @@
  * reports as achieved comes from that verification, not from the search.
  */
 import type { Corner, Vec3 } from '../schema/corner.js';
-import { innerName, outerName, type Intent } from '../schema/intent.js';
+import type { Intent } from '../schema/intent.js';
+import { innerName, outerName } from '../schema/steering-link.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { suspensionRollGradients } from '../balance/index.js';
 import { rollSteerTermDegPerG } from '../balance/link.js';

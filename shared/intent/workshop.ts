@@ -8,7 +8,7 @@
  * says a new link or bracket is needed instead of giving turns.
  */
 import type { Corner, Vec3 } from '../schema/corner.js';
-import { innerName, outerName } from '../schema/intent.js';
+import { innerName, outerName } from '../schema/steering-link.js';
 
 export interface ShimStack {
   end: 'inner' | 'outer';

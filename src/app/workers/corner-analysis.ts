@@ -11,7 +11,8 @@ import { upgradeVehicleDocument, vehicleSchema, type Vehicle } from '../../../sh
 import { cautionRackPositions, measureCornerCautions } from '../../../shared/cautions/corner-cautions';
 import { resolveTrackProfile } from '../../../shared/tracks/profiles';
 import { complianceBesideRollSteer } from '../../../shared/compliance/compare';
-import type { AnalysisFailure, AnalysisRequest, CautionRequest, CornerAnalysis, CornerCautions, DrawnPose, RackCurve, RollCurve } from './analysis-types';
+import { describeFailure } from './describe-failure';
+import type { AnalysisRequest, CautionRequest, CornerAnalysis, CornerCautions, DrawnPose, RackCurve, RollCurve } from './analysis-types';
 
 /** The pose shown in the drawings: the solved pose's outputs and every hardpoint moved with it. */
 function drawnPose(request: AnalysisRequest): DrawnPose {
@@ -101,11 +102,4 @@ function cornerCautions(corner: Corner, request: CautionRequest): CornerCautions
     if (error instanceof InputError || error instanceof SolveError) return { ok: false, profile, failure: describeFailure(error) };
     throw error;
   }
-}
-
-/** Engine errors as plain data: InputError lists fields, SolveError names travel, rack and link. */
-export function describeFailure(error: unknown): AnalysisFailure {
-  if (error instanceof InputError) return { code: error.code, message: error.message, details: error.issues };
-  if (error instanceof SolveError) return { code: error.code, message: error.message, details: error.details };
-  return { code: 'engine_error', message: error instanceof Error ? error.message : String(error) };
 }

@@ -1,6 +1,9 @@
 import { Injectable, OnDestroy } from '@angular/core';
 import type { ProposalDetails, SolveResult } from '../../../shared/intent/index';
+import { parseOrThrow } from '../../../shared/errors';
+import { intentSchema, type Intent } from '../../../shared/schema/intent';
 import type { IntentWorkerReply } from './intent-types';
+import { describeFailure } from './describe-failure';
 import { AnalysisError, AnalysisSuperseded } from './kinematics-client';
 import type { DisplayUnits } from '../core/api-types';
 import type { FigureUnit, FigureUnits } from './caution-figures';
@@ -22,8 +25,11 @@ interface Run {
  * Runs the intent back-solver in a Web Worker with progress reports, and works
  * out a chosen family member in a second one (so choosing a member never stops
  * a solve). One of each at a time: `cancel()` ends the solve; a new member
- * request supersedes the one before. Without Worker support (unit tests) the
- * engine runs in the page.
+ * request supersedes the one before. The intent is validated here, in the page,
+ * before it is posted (a refused one rejects with the schema's field issues and
+ * starts no worker), so the worker carries no intent or vehicle schema
+ * (docs/bundles.md). Without Worker support (unit tests) the engine runs in the page,
+ * through the validating entry points the server and the CLI use.
  */
 @Injectable()
 export class IntentClient implements OnDestroy {
@@ -33,8 +39,10 @@ export class IntentClient implements OnDestroy {
 
   solve(intent: unknown, onProgress: (fraction: number, message: string) => void, units: DisplayUnits = 'si'): Promise<SolveResult> {
     this.cancel();
-    if (typeof Worker === 'undefined') return this.inPage(async () => (await import('../../../shared/intent/api')).computeSolve(intent, onProgress, (await import('./caution-figures')).cautionFigures(figureUnits(units))));
-    return this.start(this.solveRun, { intent, figures: figureUnits(units) }, onProgress).then((r) => {
+    const parsed = validated(intent);
+    if (!parsed.ok) return Promise.reject(parsed.error);
+    if (typeof Worker === 'undefined') return this.inPage(async () => (await import('../../../shared/intent/api')).computeSolve(parsed.intent, onProgress, (await import('./caution-figures')).cautionFigures(figureUnits(units))));
+    return this.start(this.solveRun, { intent: parsed.intent, figures: figureUnits(units) }, onProgress).then((r) => {
       if (r.kind !== 'done') throw new AnalysisError({ code: 'engine_error', message: 'The solver answered with something else.' });
       return r.result;
     });
@@ -43,8 +51,10 @@ export class IntentClient implements OnDestroy {
   /** The family member at `member` (movable coordinates by name, mm) worked out for the workshop, its cautions worded in `units`. */
   details(intent: unknown, member: Readonly<Record<string, number>>, units: DisplayUnits = 'si'): Promise<ProposalDetails> {
     this.stop(this.memberRun, new AnalysisSuperseded());
-    if (typeof Worker === 'undefined') return this.inPage(async () => (await import('../../../shared/intent/api')).computeProposalDetails(intent, member, (await import('./caution-figures')).cautionFigures(figureUnits(units))));
-    return this.start(this.memberRun, { intent, member, figures: figureUnits(units) }, () => undefined).then((r) => {
+    const parsed = validated(intent);
+    if (!parsed.ok) return Promise.reject(parsed.error);
+    if (typeof Worker === 'undefined') return this.inPage(async () => (await import('../../../shared/intent/api')).computeProposalDetails(parsed.intent, member, (await import('./caution-figures')).cautionFigures(figureUnits(units))));
+    return this.start(this.memberRun, { intent: parsed.intent, member, figures: figureUnits(units) }, () => undefined).then((r) => {
       if (r.kind !== 'details') throw new AnalysisError({ code: 'engine_error', message: 'The solver answered with something else.' });
       return r.details;
     });
@@ -60,7 +70,7 @@ export class IntentClient implements OnDestroy {
     this.stop(this.memberRun, new AnalysisSuperseded());
   }
 
-  private start(run: Run, message: { intent: unknown; member?: Readonly<Record<string, number>>; figures: FigureUnits }, onProgress: (f: number, m: string) => void) {
+  private start(run: Run, message: { intent: Intent; member?: Readonly<Record<string, number>>; figures: FigureUnits }, onProgress: (f: number, m: string) => void) {
     const id = this.nextId++;
     return new Promise<Exclude<IntentWorkerReply, { kind: 'progress' | 'failed' }>>((resolve, reject) => {
       run.reject = reject;
@@ -95,11 +105,19 @@ export class IntentClient implements OnDestroy {
   }
 
   private async inPage<T>(work: () => Promise<T>): Promise<T> {
-    const { describeFailure } = await import('./corner-analysis');
     try {
       return await work();
     } catch (error) {
       throw new AnalysisError(describeFailure(error));
     }
+  }
+}
+
+/** The intent document parsed by `intentSchema`, or the refusal as the worker would have answered it (InputError's field issues). */
+function validated(intent: unknown): { ok: true; intent: Intent } | { ok: false; error: AnalysisError } {
+  try {
+    return { ok: true, intent: parseOrThrow(intentSchema, intent, 'intent') };
+  } catch (error) {
+    return { ok: false, error: new AnalysisError(describeFailure(error)) };
   }
 }

@@ -1,11 +1,13 @@
 /**
  * Web Worker running the back-solver of shared/intent (solveIntent through
- * its validating entry point computeSolve), reporting progress as it goes;
- * with a `member` it works out that family member (computeProposalDetails).
- * Cautions are worded in the units the page sends (`figures`).
+ * solveIntentJson), reporting progress as it goes; with a `member` it works
+ * out that family member (proposalDetailsJson). The intent arrives validated:
+ * IntentClient parses it with `intentSchema` in the page before posting, so
+ * this worker carries neither the intent nor the vehicle schema
+ * (docs/bundles.md). Cautions are worded in the units the page sends (`figures`).
  */
-import { computeProposalDetails, computeSolve } from '../../../shared/intent/api';
-import { describeFailure } from './corner-analysis';
+import { proposalDetailsJson, solveIntentJson } from '../../../shared/intent/json';
+import { describeFailure } from './describe-failure';
 import type { IntentWorkerReply, IntentWorkerRequest } from './intent-types';
 import { cautionFigures } from './caution-figures';
 
@@ -14,9 +16,9 @@ addEventListener('message', (event: MessageEvent<IntentWorkerRequest>) => {
   const figures = cautionFigures(event.data.figures);
   let reply: IntentWorkerReply;
   try {
-    if (member) reply = { id, kind: 'details', details: computeProposalDetails(intent, member, figures) };
+    if (member) reply = { id, kind: 'details', details: proposalDetailsJson(intent, member, figures) };
     else {
-      const result = computeSolve(intent, (fraction, message) => postMessage({ id, kind: 'progress', fraction, message } satisfies IntentWorkerReply), figures);
+      const result = solveIntentJson(intent, (fraction, message) => postMessage({ id, kind: 'progress', fraction, message } satisfies IntentWorkerReply), figures);
       reply = { id, kind: 'done', result };
     }
   } catch (error) {

@@ -86,11 +86,11 @@ export class KinematicsClient implements OnDestroy {
   private async runInPage(job: Pending): Promise<void> {
     let reply: WorkerReply;
     try {
-      const engine = await import('./corner-analysis');
+      const [engine, { describeFailure }] = await Promise.all([import('./corner-analysis'), import('./describe-failure')]);
       try {
         reply = { id: job.id, ok: true, analysis: engine.analyseCorner(job.request) };
       } catch (error) {
-        reply = { id: job.id, ok: false, failure: engine.describeFailure(error) };
+        reply = { id: job.id, ok: false, failure: describeFailure(error) };
       }
     } catch (error) {
       reply = { id: job.id, ok: false, failure: { code: 'engine_load_failed', message: String(error) } };

@@ -3,7 +3,8 @@
  * so editing a hardpoint never stalls the page. One message in, one reply
  * out; the client keeps only the latest request.
  */
-import { analyseCorner, describeFailure } from './corner-analysis';
+import { analyseCorner } from './corner-analysis';
+import { describeFailure } from './describe-failure';
 import type { WorkerReply, WorkerRequest } from './analysis-types';
 
 addEventListener('message', (event: MessageEvent<WorkerRequest>) => {

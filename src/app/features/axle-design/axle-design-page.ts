@@ -182,7 +182,7 @@ export class AxleDesignPage {
   protected readonly outOfDate = computed(() => this.failure() !== null && this.analysed() !== null);
   protected readonly failureText = computed(() => {
     const f = this.failure();
-    return f ? failureWords(f) : '';
+    return f ? failureWords(f, this.units()) : '';
   });
   protected readonly units = inject(DISPLAY_UNITS);
   protected readonly lengthUnit = computed(() => unitLabel('length', this.units()));
@@ -371,7 +371,7 @@ export class AxleDesignPage {
 
   /** An engine failure in the user's words. */
   protected plain(f: AnalysisFailure): string {
-    return failureWords(f);
+    return failureWords(f, this.units());
   }
 
   protected textFrom(event: Event): string {

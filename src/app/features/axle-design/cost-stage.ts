@@ -80,7 +80,7 @@ export class CostStage {
 
   protected readonly failure = computed(() => {
     const c = this.cautions();
-    return c && !c.ok ? failureWords(c.failure) : '';
+    return c && !c.ok ? failureWords(c.failure, this.units()) : '';
   });
 
   /** How the cautions were measured, in words (beside the profile selector), from the solve that measured them. */

@@ -63,6 +63,46 @@ describe('HardpointTable', () => {
     expect(el.querySelector('[role="alert"]')!.textContent).toContain('Tie rod, inner end (rack) z: "17o" is not a number');
   });
 
+  it('edits in compact Material form fields: the error sits in the cell\'s own field, Escape restores the value and clears it', async () => {
+    const { fixture, el, edits } = setUp(true);
+    const z = el.querySelector<HTMLInputElement>('#hp-points-tieRodInner-z')!;
+    const field = z.closest('mat-form-field')!;
+    expect(z.classList).toContain('mat-mdc-input-element');
+    expect(field.closest('tr')!.getAttribute('data-key')).toBe('points.tieRodInner');
+    z.value = 'abc';
+    z.dispatchEvent(new Event('change'));
+    fixture.detectChanges();
+    await fixture.whenStable();
+    expect(field.classList).toContain('mat-form-field-invalid');
+    const error = field.querySelector('mat-error')!;
+    expect(error.textContent).toContain('"abc" is not a number in mm');
+    expect(z.getAttribute('aria-describedby')).toContain(error.id);
+    // Other cells stay valid.
+    expect(el.querySelectorAll('.mat-form-field-invalid')).toHaveLength(1);
+
+    z.dispatchEvent(new KeyboardEvent('keydown', { key: 'Escape' }));
+    fixture.detectChanges();
+    await fixture.whenStable();
+    expect(Number(z.value)).toBe(inner[2]);
+    expect(field.classList).not.toContain('mat-form-field-invalid');
+    expect(field.querySelector('mat-error')).toBeNull();
+    expect(z.getAttribute('aria-invalid')).toBe('false');
+    expect(edits).toEqual([]);
+  });
+
+  it('selects a row when one of its fields takes the focus, and marks the row the 3D view selected', () => {
+    const { fixture, el } = setUp(true);
+    const picked: string[] = [];
+    fixture.componentInstance.rowSelected.subscribe((k) => picked.push(k));
+    el.querySelector<HTMLInputElement>('#hp-points-upperOuter-y')!.dispatchEvent(new FocusEvent('focusin', { bubbles: true }));
+    expect(picked).toEqual(['points.upperOuter']);
+    fixture.componentRef.setInput('selectedKey', 'points.lowerOuter');
+    fixture.detectChanges();
+    const selected = [...el.querySelectorAll('tr.rw-selected')];
+    expect(selected.map((r) => r.getAttribute('data-key'))).toEqual(['points.lowerOuter']);
+    expect(selected[0]!.querySelectorAll('mat-form-field')).toHaveLength(3);
+  });
+
   it('applies a pasted spreadsheet block downward from the cell it lands in', () => {
     const { fixture, pastes } = setUp(true);
     const rows = fixture.componentInstance['rows']();

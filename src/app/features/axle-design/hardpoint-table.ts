@@ -7,6 +7,9 @@ import { cornerUnusualValues } from '../../../../shared/schema/corner-ranges';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
 import { formatNum } from '../../core/format/num';
+import { MatError, MatFormField } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { ErrorState } from '../../core/forms/error-state';
 
 export interface PointEdit {
   readonly key: string;
@@ -18,12 +21,16 @@ const AXES = ['x', 'y', 'z'] as const;
 /**
  * The hardpoints of a corner as an editable table (left corner, in the user's
  * length unit: mm, or inches converted to mm on commit), with
- * the link lengths beside it. An edit is committed on the input's change
- * event (Enter or leaving the field); a block pasted from a spreadsheet
- * fills the rows from the cell it lands in. Read-only users see plain text.
+ * the link lengths beside it. Each cell is a compact Material form field
+ * (`matInput`); an edit is committed on the input's change event (Enter or
+ * leaving the field), Escape restores the shown value, text that is not a
+ * number puts the field in its error state with the message beside it; a
+ * block pasted from a spreadsheet fills the rows from the cell it lands in.
+ * Read-only users see plain text.
  */
 @Component({
   selector: 'rw-hardpoint-table',
+  imports: [MatFormField, MatInput, MatError, ErrorState],
   templateUrl: './hardpoint-table.html',
   styleUrl: './hardpoint-table.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

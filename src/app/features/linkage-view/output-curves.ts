@@ -178,7 +178,7 @@ export class OutputCurves implements OnInit {
 
   protected readonly failures = computed(() => {
     const s = this.solved();
-    return s ? s.reply.curves.filter((c) => c.failure).map((c) => `${c.label}: ${failureWords(c.failure!)}`) : [];
+    return s ? s.reply.curves.filter((c) => c.failure).map((c) => `${c.label}: ${failureWords(c.failure!, this.units())}`) : [];
   });
   protected readonly vehicleNote = computed(() => this.solved()?.reply.vehicleNote ?? null);
   protected readonly xAxis = computed(() => this.shownAxis(SWEEP_AXES[this.solved()?.request.axis ?? this.axis()].x));
@@ -352,7 +352,7 @@ export class OutputCurves implements OnInit {
       this.solving.set(false);
     } catch (error) {
       if (error instanceof AnalysisSuperseded) return;
-      this.state.set({ kind: 'error', message: error instanceof AnalysisError ? failureWords(error.failure) : String(error) });
+      this.state.set({ kind: 'error', message: error instanceof AnalysisError ? failureWords(error.failure, this.units()) : String(error) });
       this.solving.set(false);
     }
   }

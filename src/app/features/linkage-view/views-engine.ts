@@ -8,7 +8,7 @@ import { outputCurves } from '../../../../shared/kinematics/output-curves';
 import { posedHardpoints, solvePose } from '../../../../shared/kinematics/index';
 import { upgradeVehicleDocument, vehicleSchema } from '../../../../shared/schema/vehicle';
 import type { Corner } from '../../../../shared/schema/corner';
-import { describeFailure } from '../../workers/corner-analysis';
+import { describeFailure } from '../../workers/describe-failure';
 import type { CurvesReply, CurvesRequest, PosesReply, PosesRequest, SourceCurves, ViewsReply, ViewsRequest } from './views-types';
 
 export { describeFailure };

@@ -50,18 +50,19 @@ describe('DesignReportPage', () => {
     backend = await routedPageTestBed('teams/:teamId/vehicles/:vehicleId/axle-designs/:designId/report', DesignReportPage, units);
   });
 
-  /** Opens the report and serves its requests until the kinematics, the revisions and the budget are on it. */
-  async function open() {
+  /** Opens the report and serves its requests (through `serve`, `answer` unless given) until `complete` holds. */
+  async function open(
+    serve: (req: TestRequest) => void = answer,
+    complete = (root: HTMLElement) => !!root.querySelector('[data-testid="report-fit-range"]') && !!root.querySelector('rw-bar-chart') && !!root.textContent?.includes('accepted by'),
+  ) {
     const harness = await RouterTestingHarness.create();
     await harness.navigateByUrl('/teams/t-tal/vehicles/v-ember/axle-designs/d-rear/report', DesignReportPage);
     const root = harness.routeNativeElement as HTMLElement;
     await vi.waitFor(
       () => {
-        backend.match(() => true).forEach(answer);
+        backend.match(() => true).forEach(serve);
         harness.detectChanges();
-        if (!root.querySelector('[data-testid="report-fit-range"]') || !root.querySelector('rw-bar-chart') || !root.textContent?.includes('accepted by')) {
-          throw new Error('report not complete yet');
-        }
+        if (!complete(root)) throw new Error('report not complete yet');
       },
       { timeout: 30_000, interval: 30 },
     );
@@ -87,6 +88,32 @@ describe('DesignReportPage', () => {
     expect(headers).toContain('Toe curvature (deg/in²)');
     expect(root.querySelector('[data-testid="report-units"]')!.textContent).toContain('Inch/pound');
     expect(root.querySelector('rw-safety-caution')).not.toBeNull();
+    backend.verify();
+  });
+
+  it('says which part could not be loaded, in the server\'s words, and shows the rest', async () => {
+    const refuse = (req: TestRequest) => req.flush({ error: { code: 'unavailable', message: 'The server is busy; try again in a minute.' } }, { status: 503, statusText: 'Service Unavailable' });
+    const { root } = await open(
+      (req) => (req.request.url.endsWith('/revisions') || req.request.url.endsWith('/proposals') ? refuse(req) : answer(req)),
+      (r) => !!r.querySelector('[data-testid="report-fit-range"]') && !!r.querySelector('rw-bar-chart') && r.querySelectorAll('[role="alert"]').length >= 2,
+    );
+    const alerts = [...root.querySelectorAll('[role="alert"]')].map((a) => a.textContent!.trim());
+    expect(alerts).toContain('The revision history could not be loaded: The server is busy; try again in a minute.');
+    expect(alerts).toContain('The proposals could not be loaded: The server is busy; try again in a minute.');
+    // Without the revision list the author is the record's last writer; the kinematics and the budget are there.
+    expect(root.querySelector('[data-testid="report-revision"]')!.textContent).toContain('2 (accepted) by Dana Quist');
+    expect(root.textContent).toContain('With the front axle design "Front baseline".');
+    backend.verify();
+  });
+
+  it('says the vehicle could not be loaded and still solves the kinematics without its ride data', async () => {
+    const { root } = await open(
+      (req) => (req.request.url === `${T}/vehicles/v-ember` ? req.flush({ error: { code: 'not_found', message: 'Vehicle not found' } }, { status: 404, statusText: 'Not Found' }) : answer(req)),
+      (r) => !!r.querySelector('[data-testid="report-fit-range"]') && !!r.textContent?.includes('accepted by'),
+    );
+    expect(root.textContent).toContain('No understeer budget: the vehicle could not be loaded: Vehicle not found');
+    expect(root.querySelector('rw-bar-chart')).toBeNull();
+    expect(root.querySelector('.rw-report-meta')!.textContent).toContain('could not be loaded: Vehicle not found');
     backend.verify();
   });
 });

@@ -1,21 +1,21 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked, ViewEncapsulation } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, ViewEncapsulation } from '@angular/core';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
-import { firstValueFrom } from 'rxjs';
+import { defer, map, Observable, of, switchMap } from 'rxjs';
 import type { BalanceResponse } from '../../../../shared/balance/api';
 import type { Caution } from '../../../../shared/cautions/cautions';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { ENGINE_VERSION } from '../../../../shared/version';
-import { apiProblem } from '../../core/http/api-error';
-import { loadState } from '../../core/http/load-state';
+import { loadState, type LoadState } from '../../core/http/load-state';
 import { BarChart } from '../../charts/bar-chart';
 import { LineChart } from '../../charts/line-chart';
 import { BarGroup, LineSeries } from '../../charts/chart-types';
 import { AnalysisError, KinematicsClient } from '../../workers/kinematics-client';
+import { failureWords } from '../../workers/failure-words';
 import type { CornerAnalysis } from '../../workers/analysis-types';
 import { HardpointTable } from '../axle-design/hardpoint-table';
-import { AxleDesign, FeaturesApi, Proposal, RevisionRow, VehicleRecord } from '../features-api';
+import { AxleDesign, FeaturesApi, VehicleRecord } from '../features-api';
 import { CautionList } from '../intent/caution-list';
 import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
@@ -70,13 +70,65 @@ export class DesignReportPage {
     const s = this.state();
     return s.status === 'ready' ? s.value : null;
   });
-  protected readonly vehicle = signal<VehicleRecord | null>(null);
-  protected readonly revisions = signal<readonly RevisionRow[]>([]);
-  protected readonly analysis = signal<CornerAnalysis | null>(null);
-  protected readonly analysisError = signal<string | null>(null);
-  protected readonly balance = signal<BalanceResponse | null>(null);
-  protected readonly balanceNote = signal<string | null>(null);
-  protected readonly source = signal<Proposal | null>(null);
+  // The report's other parts load beside the design, each through its own resource and load state.
+  private readonly vehicleResource = rxResource({
+    params: () => ({ teamId: this.teamId(), vehicleId: this.vehicleId() }),
+    stream: ({ params: p }) => this.api.vehicle(p.teamId, p.vehicleId),
+  });
+  /** The vehicle: its name, the ride data for the bump cost, and the balance. */
+  protected readonly vehicleState = loadState(this.vehicleResource);
+  protected readonly vehicle = computed(() => ready(this.vehicleState()));
+
+  private readonly revisionList = rxResource({
+    params: () => ({ teamId: this.teamId(), designId: this.designId() }),
+    stream: ({ params: p }) => this.api.axleDesignRevisions(p.teamId, p.designId),
+  });
+  protected readonly revisionsState = loadState(this.revisionList);
+  protected readonly revisions = computed(() => ready(this.revisionsState()) ?? []);
+
+  private readonly proposalList = rxResource({
+    params: () => ({ teamId: this.teamId(), designId: this.designId() }),
+    stream: ({ params: p }) => this.api.proposals(p.teamId, p.designId),
+  });
+  protected readonly proposalsState = loadState(this.proposalList);
+  /** The accepted intent proposal that produced this revision, if one did. */
+  protected readonly source = computed(() => {
+    const d = this.design();
+    const list = ready(this.proposalsState());
+    return (d && list?.find((p) => p.status === 'accepted' && p.acceptedRevision === d.revision)) || null;
+  });
+
+  /** The design's kinematics in the Web Worker, once the vehicle's ride data (for the bump cost) is known or known to be missing. */
+  private readonly analysisResource = rxResource({
+    params: () => {
+      const design = this.design();
+      const vehicle = this.vehicleState();
+      if (!design || vehicle.status === 'loading') return undefined;
+      return { design, vehicleData: vehicle.status === 'ready' ? (vehicle.value.data as unknown) : null };
+    },
+    stream: ({ params: p }) => defer(() => this.analyse(p.design, p.vehicleData)),
+  });
+  protected readonly analysisState = loadState(this.analysisResource);
+  protected readonly analysis = computed(() => ready(this.analysisState()));
+  /** Why the kinematics could not be solved, in the user's words and units. */
+  protected readonly analysisError = computed(() => {
+    const s = this.analysisState();
+    if (s.status !== 'error') return null;
+    const e = this.analysisResource.error();
+    return e instanceof AnalysisError ? failureWords(e.failure, this.units()) : s.message;
+  });
+
+  /** The vehicle's understeer budget with this design, and a note saying what the other axle was. */
+  private readonly budgetResource = rxResource({
+    params: () => {
+      const design = this.design();
+      const vehicle = this.vehicle();
+      return design && vehicle ? { teamId: this.teamId(), vehicleId: this.vehicleId(), design, vehicle } : undefined;
+    },
+    stream: ({ params: p }) => this.balanceWith(p.teamId, p.vehicleId, p.design, p.vehicle),
+  });
+  protected readonly budgetState = loadState(this.budgetResource);
+  protected readonly balance = computed(() => ready(this.budgetState())?.result ?? null);
 
   /** The author of the revision reported, as its revision list names it (the record's last writer until the list is there). */
   protected readonly revisionAuthor = computed(() => {
@@ -137,57 +189,29 @@ export class DesignReportPage {
     ).map(([label, v]) => ({ label, values: [v] }));
   });
 
-  constructor() {
-    // Each loaded design (on arrival, and when the router reuses this page for another one) is solved and reported.
-    effect(() => {
-      const design = this.design();
-      if (design) {
-        untracked(() => {
-          void this.analyse(design);
-        });
-      }
-    });
-  }
-
-  /** The design's kinematics (in the Web Worker), its revisions and source proposal, and the vehicle's balance with it. */
-  private async analyse(design: AxleDesign): Promise<void> {
+  /** The design's kinematics over the report's travel and roll, with the cautions on the axle's default track profile. */
+  private analyse(design: AxleDesign, vehicleData: unknown): Promise<CornerAnalysis> {
     const stroke = design.corner.steered && design.corner.steering?.kind === 'rack' ? design.corner.steering.rackStroke : null;
-    // The bump cost beside the roll steer needs the vehicle's ride data (masses, springs, dampers, tyres).
-    const vehicleData = await firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId()))
-      .then((v) => v.data as unknown)
-      .catch(() => null);
     const cautions = { axle: design.axle, trackProfile: { id: DEFAULT_TRACK_PROFILE[design.axle] }, vehicleData };
-    const kinematics = this.engine
-      .analyse({ corner: design.corner, travel: TRAVEL, rackMm: stroke ? [0, stroke[0] / 2, stroke[1] / 2] : [0], roll: ROLL, pose: { travelMm: 0, rackMm: 0 }, cautions })
-      .then((a) => this.analysis.set(a))
-      .catch((e) => this.analysisError.set(e instanceof AnalysisError ? e.message : String(e)));
-    const others = Promise.all([
-      firstValueFrom(this.api.axleDesignRevisions(this.teamId(), this.designId())).then((r) => this.revisions.set(r)),
-      firstValueFrom(this.api.proposals(this.teamId(), this.designId())).then((list) =>
-        this.source.set(list.find((p) => p.status === 'accepted' && p.acceptedRevision === design.revision) ?? null),
-      ),
-      this.loadBalance(design),
-    ]).catch((e) => this.balanceNote.set(apiProblem(e).message));
-    await Promise.all([kinematics, others]);
+    return this.engine.analyse({ corner: design.corner, travel: TRAVEL, rackMm: stroke ? [0, stroke[0] / 2, stroke[1] / 2] : [0], roll: ROLL, pose: { travelMm: 0, rackMm: 0 }, cautions });
   }
 
-  /** The vehicle with this design on its axle and the first design of the other axle. */
-  private async loadBalance(design: AxleDesign): Promise<void> {
-    const vehicle = await firstValueFrom(this.api.vehicle(this.teamId(), this.vehicleId()));
-    this.vehicle.set(vehicle);
-    if (!vehicleSchema.safeParse(vehicle.data).success) {
-      this.balanceNote.set('The vehicle data is incomplete, so no understeer budget is given.');
-      return;
-    }
-    const list = await firstValueFrom(this.api.axleDesigns(this.teamId(), this.vehicleId()));
+  /** The vehicle with this design on its axle and the first design of the other axle (or the vehicle page's values without one). */
+  private balanceWith(teamId: string, vehicleId: string, design: AxleDesign, vehicle: VehicleRecord): Observable<{ result: BalanceResponse | null; note: string }> {
+    if (!vehicleSchema.safeParse(vehicle.data).success) return of({ result: null, note: 'The vehicle data is incomplete, so no understeer budget is given.' });
     const otherAxle = design.axle === 'front' ? 'rear' : 'front';
-    const other = list.find((d) => d.axle === otherAxle);
-    const otherCorner = other ? (await firstValueFrom(this.api.axleDesign(this.teamId(), other.id))).corner : undefined;
-    const corners = design.axle === 'front' ? { frontCorner: design.corner, rearCorner: otherCorner } : { frontCorner: otherCorner, rearCorner: design.corner };
-    const request = { vehicle: vehicle.data, ...Object.fromEntries(Object.entries(corners).filter(([, c]) => c)) };
-    const response = await firstValueFrom(this.api.balance<BalanceResponse>(request));
-    this.balance.set(response.result);
-    this.balanceNote.set(`With the ${otherAxle} axle design ${other ? `"${other.name}"` : 'values of the vehicle page'}.`);
+    return this.api.axleDesigns(teamId, vehicleId).pipe(
+      switchMap((list) => {
+        const other = list.find((d) => d.axle === otherAxle);
+        return other ? this.api.axleDesign(teamId, other.id).pipe(map((d) => ({ name: other.name, corner: d.corner }))) : of(null);
+      }),
+      switchMap((other) => {
+        const corners = design.axle === 'front' ? { frontCorner: design.corner, rearCorner: other?.corner } : { frontCorner: other?.corner, rearCorner: design.corner };
+        const request = { vehicle: vehicle.data, ...Object.fromEntries(Object.entries(corners).filter(([, c]) => c)) };
+        const note = `With the ${otherAxle} axle design ${other ? `"${other.name}"` : 'values of the vehicle page'}.`;
+        return this.api.balance<BalanceResponse>(request).pipe(map((response) => ({ result: response.result, note })));
+      }),
+    );
   }
 
   protected unit(kind: QuantityKind): string {
@@ -201,5 +225,9 @@ export class DesignReportPage {
   protected print(): void {
     globalThis.print();
   }
+}
 
+/** The value of a ready load state, else null. */
+function ready<T>(s: LoadState<T>): T | null {
+  return s.status === 'ready' ? s.value : null;
 }
