@@ -32,15 +32,15 @@ describe('ComparePage', () => {
   afterEach(() => backend.verify());
 
   /** Opens a shared comparison address; the page compares by itself once the designs are listed. */
-  async function openComparison() {
+  async function openComparison(designs: Readonly<Record<string, { name: string; corner: typeof raised }>> = DESIGNS, ready = '[data-testid="compare-figures"]') {
     const harness = await RouterTestingHarness.create();
-    await harness.navigateByUrl('/teams/t-tal/vehicles/v-ember/compare?designs=d-rear,d-rear6', ComparePage);
+    await harness.navigateByUrl(`/teams/t-tal/vehicles/v-ember/compare?designs=${Object.keys(designs).join(',')}`, ComparePage);
     await settle();
     backend.expectOne(`${T}/vehicles/v-ember/axle-designs`).flush(
-      Object.entries(DESIGNS).map(([id, d]) => ({ id, axle: 'rear', name: d.name, revision: 3, status: 'draft', updatedAt: '' })),
+      Object.entries(designs).map(([id, d]) => ({ id, axle: 'rear', name: d.name, revision: 3, status: 'draft', updatedAt: '' })),
     );
     // Each design is read, then solved (by the same engine the Worker runs, here on the main thread).
-    for (const [id, d] of Object.entries(DESIGNS)) {
+    for (const [id, d] of Object.entries(designs)) {
       await vi.waitFor(() => backend.expectOne(`${T}/axle-designs/${id}`), { timeout: 20_000, interval: 20 }).then((r) =>
         r.flush({ id, vehicleId: 'v-ember', axle: 'rear', name: d.name, revision: 3, status: 'draft', corner: d.corner, updatedAt: '', updatedByName: null }),
       );
@@ -49,7 +49,7 @@ describe('ComparePage', () => {
     await vi.waitFor(
       () => {
         harness.detectChanges();
-        if (!root.querySelector('[data-testid="compare-figures"]')) throw new Error('not compared yet');
+        if (!root.querySelector(ready)) throw new Error('not compared yet');
       },
       { timeout: 20_000, interval: 50 },
     );
@@ -79,6 +79,22 @@ describe('ComparePage', () => {
     const cells = [...table.querySelectorAll('tbody tr')].find((r) => r.textContent?.includes('Bump steer'))!.querySelectorAll('td');
     expect(cells[1]!.classList.contains('rw-differs')).toBe(true);
     expect(cells[0]!.classList.contains('rw-differs')).toBe(false);
+  });
+
+  it("says why a design could not be solved in the user's words and units, never the engine's point keys", async () => {
+    // A toe link too short to follow the wheel: the engine cannot close it partway into bump.
+    const short = structuredClone(exampleCorners.fsRearWishbone);
+    const outer = short.points.tieRodOuter;
+    short.points.tieRodInner = [outer[0], outer[1] - 30, outer[2] - 25];
+    const { harness, root } = await openComparison({ 'd-rear': DESIGNS['d-rear'], 'd-short': { name: 'Short link', corner: short } }, '[role="alert"]');
+    const alert = () => [...root.querySelectorAll('[role="alert"]')].map((a) => a.textContent!.trim()).find((t) => t.startsWith('Short link'))!;
+    expect(alert()).toMatch(/^Short link could not be solved: The linkage cannot reach [\d.]+ mm of bump: the toe link cannot reach\./);
+    expect(alert()).not.toContain('tieRodInner');
+    const mm = Number(/reach ([\d.]+) mm/.exec(alert())![1]);
+    units.set('imperial');
+    harness.detectChanges();
+    // 1 in = 25.4 mm exactly.
+    expect(Number(/reach ([\d.]+) in of bump/.exec(alert())![1])).toBeCloseTo(mm / 25.4, 2);
   });
 
   it('writes the figures in inch/pound units when the user reads inch/pound', async () => {

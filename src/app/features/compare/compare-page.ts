@@ -10,7 +10,8 @@ import { loadState } from '../../core/http/load-state';
 import { LineChart } from '../../charts/line-chart';
 import { LineSeries } from '../../charts/chart-types';
 import { AnalysisError, KinematicsClient } from '../../workers/kinematics-client';
-import type { CornerAnalysis } from '../../workers/analysis-types';
+import type { AnalysisFailure, CornerAnalysis } from '../../workers/analysis-types';
+import { failureWords } from '../../workers/failure-words';
 import { AxleDesign, FeaturesApi } from '../features-api';
 import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
@@ -21,7 +22,8 @@ import { inDisplayUnits, type QuantityKind, unitLabel } from '../../core/format/
 interface Compared {
   readonly design: AxleDesign;
   readonly analysis: CornerAnalysis | null;
-  readonly error: string | null;
+  /** Why the engine could not solve it: a solver failure (worded in the user's units when shown) or other text. */
+  readonly error: AnalysisFailure | string | null;
 }
 
 /** One key figure of each compared design: labelled, in the user's units, rounded as its quantity is (core/format/quantities.ts). */
@@ -167,6 +169,10 @@ export class ComparePage {
     });
   }
 
+  protected errorText(error: AnalysisFailure | string): string {
+    return typeof error === 'string' ? error : failureWords(error, this.units());
+  }
+
   protected toggle(id: string, on: boolean): void {
     this.chosen.update((c) => (on ? [...c.filter((x) => x !== id), id] : c.filter((x) => x !== id)));
   }
@@ -191,7 +197,7 @@ export class ComparePage {
           });
           out.push({ design, analysis, error: null });
         } catch (error) {
-          out.push({ design, analysis: null, error: error instanceof AnalysisError ? error.message : String(error) });
+          out.push({ design, analysis: null, error: error instanceof AnalysisError ? error.failure : String(error) });
         }
       } catch (error) {
         this.compareError.set(apiProblem(error).message);
