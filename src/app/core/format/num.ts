@@ -1,28 +1,5 @@
-import type { DisplayUnits } from '../api-types';
-import { inDisplayUnits, QUANTITIES, type QuantityKind } from './quantities';
-
 /**
- * How a number is written: to a fixed number of decimals (`{ decimals: 1 }`:
- * 12.3) or to significant figures (`{ sig: 3 }`: 0.0123, 123, 1.23e+6; trailing
- * zeros dropped), never both. With a `kind` the stored SI value is shown in
- * the user's unit system, and the kind's own significant figures apply when
- * no precision is named.
+ * The app's path to the one number formatter, which lives in shared/ so that
+ * the server's exports and the review record write numbers as the screens do.
  */
-export type NumFormat = (
-  | { readonly decimals: number; readonly sig?: never }
-  | { readonly sig: number; readonly decimals?: never }
-  | { readonly decimals?: never; readonly sig?: never; readonly kind: QuantityKind }
-) & {
-  readonly kind?: QuantityKind;
-  /** Text for a missing or non-finite value; an en dash unless named. */
-  readonly missing?: string;
-};
-
-/** The one number formatter (the `num` pipe writes through it; code that needs text calls it). */
-export function formatNum(value: number | null | undefined, format: NumFormat, units: DisplayUnits = 'si'): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return format.missing ?? '–';
-  const shown = format.kind ? inDisplayUnits(value, format.kind, units) : value;
-  if (format.decimals !== undefined) return shown.toFixed(format.decimals);
-  const sig = format.sig ?? (format.kind ? QUANTITIES[format.kind].sig : 6);
-  return shown === 0 ? '0' : String(Number(shown.toPrecision(sig)));
-}
+export { formatNum, type NumFormat } from '../../../../shared/units/format';
