@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import type { StudyKeyFigure } from '../../../../shared/study/index';
 import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
-import { studyFormat, studyUnit } from './study-units';
+import { studyFormat, studyUnit } from '../../../../shared/study/units';
 
 /** P5 / P50 / P95 of a study's key figures (an attached study on a configuration), in the user's units. */
 @Component({

@@ -19,7 +19,7 @@ import { etaWords, STATUS_WORDS, StudiesApi, type StudyView } from './studies-ap
 import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
 import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
-import { studyFormat, studyUnit, studyValue } from './study-units';
+import { studyFormat, studyUnit, studyValue } from '../../../../shared/study/units';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { EMPTY, expand, map, switchMap, timer } from 'rxjs';
 import { loadState, resourceProblem } from '../../core/http/load-state';
@@ -107,13 +107,8 @@ export class StudyPage {
     return h.counts.map((c, i) => ({ label: formatNumber(studyValue(h.from + (i + 0.5) * h.width, o.unit, units), 3), values: [c] }));
   });
 
-  /** The ten largest, labelled short: point, coordinate, L or R. */
-  protected readonly tornado = computed<BarGroup[]>(() =>
-    (this.output()?.tornado ?? []).slice(0, 10).map((t) => {
-      const [side, point, axis] = t.factor.split('.');
-      return { label: `${point} ${axis} ${side === 'right' ? 'R' : 'L'}`, values: [t.src] };
-    }),
-  );
+  /** The ten largest, each named as the hardpoint table names its point, with the coordinate and the side ("Upper ball joint, z (left)"). */
+  protected readonly tornado = computed<BarGroup[]>(() => (this.output()?.tornado ?? []).slice(0, 10).map((t) => ({ label: t.label, values: [t.src] })));
 
   protected readonly breaches = computed(() => (this.result()?.outputs ?? []).flatMap((o) => o.breaches.map((b) => ({ output: o, ...b }))));
 
@@ -143,8 +138,9 @@ export class StudyPage {
     const o = this.output();
     if (!sw || !o) return [];
     const units = this.units();
+    const names = new Map(this.result()?.factors.map((f) => [f.key, f.label]));
     return sw.mainEffects.map((m) => ({
-      name: m.factor,
+      name: names.get(m.factor) ?? m.factor,
       points: m.at.flatMap((x, i) => {
         const y = m.means[o.key]?.[i];
         return y === null || y === undefined ? [] : [{ x: inDisplayUnits(x - m.at[0]!, 'length', units), y: studyValue(y, o.unit, units) }];
@@ -183,7 +179,7 @@ export class StudyPage {
   protected async exportCsv(): Promise<void> {
     this.actionError.set(null);
     try {
-      const text = await firstValueFrom(this.api.csv(this.teamId(), this.studyId()));
+      const text = await firstValueFrom(this.api.csv(this.teamId(), this.studyId(), this.units()));
       downloadText(text, fileNameFor(this.study()?.label || 'rollwise-study', 'csv'));
     } catch (error) {
       this.actionError.set(apiProblem(error).message);
