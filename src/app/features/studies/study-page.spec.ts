@@ -94,8 +94,9 @@ describe('StudyPage', () => {
   it('names each tornado bar by its point as the hardpoint table does, with the coordinate and side, never the point key', async () => {
     const { root } = await open();
     const tornado = root.querySelector('[data-testid="study-tornado"]')!.textContent!;
-    expect(tornado).toContain('Tie rod, inner end (rack), z (left)');
-    expect(tornado).toContain('Upper ball joint, x (right)');
+    // The coordinate and side first, so a name the chart cuts short still tells the bars apart.
+    expect(tornado).toContain('z left: Tie rod, inner end (rack)');
+    expect(tornado).toContain('x right: Upper ball joint');
     expect(tornado).not.toMatch(/tieRodInner|upperOuter/);
   });
 

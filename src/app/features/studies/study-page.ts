@@ -107,8 +107,17 @@ export class StudyPage {
     return h.counts.map((c, i) => ({ label: formatNumber(studyValue(h.from + (i + 0.5) * h.width, o.unit, units), 3), values: [c] }));
   });
 
-  /** The ten largest, each named as the hardpoint table names its point, with the coordinate and the side ("Upper ball joint, z (left)"). */
-  protected readonly tornado = computed<BarGroup[]>(() => (this.output()?.tornado ?? []).slice(0, 10).map((t) => ({ label: t.label, values: [t.src] })));
+  /**
+   * The ten largest, each named as the hardpoint table names its point, with the coordinate and the side.
+   * The chart turns long names and cuts them to fit, so the coordinate and side come first
+   * ("z left: Tie rod, inner end (rack)" for "Tie rod, inner end (rack), z (left)"): bars stay told apart.
+   */
+  protected readonly tornado = computed<BarGroup[]>(() =>
+    (this.output()?.tornado ?? []).slice(0, 10).map((t) => {
+      const m = /^(.*), ([xyz])(?: \((left|right)\))?$/.exec(t.label);
+      return { label: m ? `${m[2]}${m[3] ? ` ${m[3]}` : ''}: ${m[1]}` : t.label, values: [t.src] };
+    }),
+  );
 
   protected readonly breaches = computed(() => (this.result()?.outputs ?? []).flatMap((o) => o.breaches.map((b) => ({ output: o, ...b }))));
 
