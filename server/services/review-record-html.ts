@@ -31,7 +31,6 @@ function num(v: unknown, digits: number): string {
 
 /** How the record writes its figures in the reader's unit system. */
 interface Figures {
-  readonly units: DisplayUnits;
   /** A stored value of `kind` shown to `siDecimals` decimals in SI (as many more as keep that resolution in inch-pound). */
   fixed(v: unknown, kind: QuantityKind, siDecimals: number): string;
   /** A stored value of `kind` to `sig` significant figures in the reader's units. */
@@ -42,7 +41,6 @@ interface Figures {
 function figuresIn(units: DisplayUnits): Figures {
   const text = (v: unknown, write: (x: number) => string) => (typeof v === 'number' && Number.isFinite(v) ? write(v).replace('-', '−') : '–');
   return {
-    units,
     fixed: (v, kind, d) => text(v, (x) => formatNum(x, { kind, decimals: displayDecimals(kind, units, d) }, units)),
     sig: (v, kind, sig) => text(v, (x) => formatNum(x, { kind, sig }, units)),
     unit: (kind) => unitLabel(kind, units),
@@ -57,8 +55,8 @@ function cautionFigure(v: number | null | undefined, unit: string | null | undef
 }
 
 const UNIT_WORDS: Readonly<Record<DisplayUnits, string>> = {
-  si: 'SI (mm, kg, N, km/h; angles in deg), as chosen in your account; the stored record and its fingerprints are SI',
-  imperial: 'Inch-pound (in, lb, lbf, mph; angles in deg), as chosen in your account; the stored record and its fingerprints are SI',
+  si: "SI (mm, kg, N, km/h; angles in deg), the reader's choice; the stored record and its fingerprints are SI",
+  imperial: "Inch-pound (in, lb, lbf, mph; angles in deg), the reader's choice; the stored record and its fingerprints are SI",
 };
 
 /** Dates in UTC, ISO-like and unambiguous on paper whatever the reader's locale. */
@@ -144,7 +142,7 @@ const AXLE = { front: 'Front', rear: 'Rear' } as const;
 /** The record in the reader's unit system (`units`: their account's choice, or the one the request names). */
 export function renderReviewRecordHtml(r: ReviewRecordAnswer, units: DisplayUnits = 'si'): string {
   const f = figuresIn(units);
-  /** The cautions' own figure wording in the reader's units (the messages come worded so from the record's computation). */
+  /** The bump-cost sentence's figures in the reader's units (the caution messages come worded so from the record's computation). */
   const cautionWords = cautionFigures(figureUnits(units));
   const results = r.results as {
     balance: { understeerBudget: Record<string, number>; kinematicsLink?: Record<string, { used?: { rollSteerCoefficient?: number } }>; rollGradientDegPerG?: number; characteristicSpeedKph?: number | null };
