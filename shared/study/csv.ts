@@ -15,7 +15,7 @@ import { SAFETY_CAUTION } from '../cautions/cautions.js';
 import type { DisplayUnits } from '../api/accounts.js';
 import { formatNum, type NumFormat } from '../units/format.js';
 import { kindForUnit, QUANTITIES, unitLabel } from '../units/quantities.js';
-import { studyFormat, studyUnit } from './units.js';
+import { studyFormat, studyLabel, studyUnit } from './units.js';
 import type { StudySpec } from './schema.js';
 import type { StudyResult } from './run.js';
 
@@ -66,7 +66,7 @@ export function studyResultCsv(spec: Pick<StudySpec, 'kind' | 'label'>, result: 
       ['output', 'label', 'unit', 'sig', 'nominal', 'mean', 'sd', 'p5', 'p50', 'p95', 'min', 'max', 'samples', 'r2'],
       result.outputs.map((o) => [
         o.key,
-        o.label,
+        studyLabel(o.label, units),
         studyUnit(o.unit, units),
         sigOf(o.unit, 4),
         fig(o.nominal, o.unit),

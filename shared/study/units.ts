@@ -1,6 +1,7 @@
 import type { DisplayUnits } from '../api/accounts.js';
 import type { NumFormat } from '../units/format.js';
 import { inDisplayUnits, kindForUnit, unitLabel } from '../units/quantities.js';
+import { figuresIn, wordNumber } from '../schema/issue-words.js';
 
 /**
  * A study figure is stored with its unit as text ('deg/m', 'mm', '%'). The study
@@ -25,4 +26,24 @@ export function studyUnit(unit: string, units: DisplayUnits): string {
 export function studyValue(value: number, unit: string, units: DisplayUnits): number {
   const kind = kindForUnit(unit);
   return kind ? inDisplayUnits(value, kind, units) : value;
+}
+
+/** The figures a study label may carry: the profile's bump height and rack positions (mm), its corner radius (m) and speed (km/h). */
+const LABEL_UNITS = ['mm', 'm', 'km/h'];
+
+/**
+ * A study label in the reader's units: "Toe change over a 10 mm single-wheel bump" reads "… over a 0.3937 in
+ * single-wheel bump" for an inch-pound reader (figures as messages write them, shared/schema/issue-words.ts).
+ * SI labels are shown as stored.
+ */
+export function studyLabel(label: string, units: DisplayUnits): string {
+  if (units === 'si') return label;
+  return figuresIn(
+    label,
+    (v, unit) => {
+      const kind = kindForUnit(unit);
+      return kind ? { value: wordNumber(inDisplayUnits(v, kind, units)), unit: unitLabel(kind, units) } : { value: wordNumber(v), unit };
+    },
+    LABEL_UNITS,
+  );
 }

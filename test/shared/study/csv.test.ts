@@ -95,6 +95,9 @@ describe('study CSV units', { timeout: 120_000 }, () => {
     const perIn = Number(bsUs[col(us, 'p50')]);
     // Three significant figures on each side: at most 5e-3 of the value apart after two roundings.
     expect(Math.abs(perIn / (MM_PER_IN / 1000) - perM)).toBeLessThanOrEqual(1e-2 * Math.abs(perM));
+    // A label's own figure follows: the smooth circuit's 10 mm bump is 0.3937 in (4 significant figures, as messages write figures).
+    expect(row(si, 'bumpToeChangeDeg')[col(si, 'label')]).toContain('over a 10 mm single-wheel bump');
+    expect(row(us, 'bumpToeChangeDeg')[col(us, 'label')]).toContain(`over a ${Number((10 / MM_PER_IN).toPrecision(4))} in single-wheel bump`);
     // Angles stay in degrees.
     expect(row(us, 'rollSteerCoefficient')[col(us, 'unit')]).toBe('deg/deg');
     expect(tables(studyResultCsv({ kind: 'tolerance' }, result, 'imperial'))[0]!.rows.find((r) => r[0] === 'units')![1]).toMatch(/^inch-pound/);

@@ -35,6 +35,7 @@ const STUDY = {
       output('rollSteerCoefficient', 'Roll steer ε', 'deg/deg', [0.0211, 0.0252, 0.0297]),
       output('bumpSteerDegPerM', 'Bump-steer gradient', 'deg/m', [-3.12, -2.5, -1.85], [{ code: 'bump-steer', level: 'warning', absolute: true, threshold: 3, probability: 0.04, interval: [0.03, 0.06] }]),
       output('bumpScrubMm', 'Contact-patch scrub over that bump', 'mm', [2.54, 5.08, 7.62]),
+      output('bumpToeChangeDeg', 'Toe change over a 25.4 mm single-wheel bump (bumpy circuit)', 'deg', [0.01, 0.02, 0.03]),
     ],
   },
 } as unknown as StudyView;
@@ -86,6 +87,9 @@ describe('StudyPage', () => {
     expect(root.querySelector('table[aria-label="Caution thresholds reached"]')!.textContent).toContain('|value| ≥ 0.0762 deg/in');
     expect(root.querySelector('[data-testid="study-histogram"]')!.textContent).toContain('Distribution: Bump-steer gradient (deg/in)');
     expect(root.textContent).toContain('(1 in single-wheel bump)');
+    // A label's own figure follows too: 25.4 mm is 1 in.
+    expect(summary('Toe change over a 1 in single-wheel bump (bumpy circuit)')[0]!.textContent!.trim()).toBe('deg');
+    expect(root.textContent).not.toContain('25.4 mm');
     // ε has no inch/pound form: it stays in deg/deg.
     expect(summary('Roll steer ε')[0]!.textContent!.trim()).toBe('deg/deg');
     expect(summary('Roll steer ε')[2]!.textContent!.trim()).toBe('0.0211');

@@ -19,7 +19,7 @@ import { etaWords, STATUS_WORDS, StudiesApi, type StudyView } from './studies-ap
 import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
 import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
-import { studyFormat, studyUnit, studyValue } from '../../../../shared/study/units';
+import { studyFormat, studyLabel, studyUnit, studyValue } from '../../../../shared/study/units';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { EMPTY, expand, map, switchMap, timer } from 'rxjs';
 import { loadState, resourceProblem } from '../../core/http/load-state';
@@ -76,6 +76,8 @@ export class StudyPage {
   protected readonly studyFormat = studyFormat;
   protected readonly studyUnit = studyUnit;
   protected readonly lengthUnit = computed(() => unitLabel('length', this.units()));
+  /** A study label in the user's units (the figures an output's label carries: bump height, rack, speed, corner radius). */
+  protected readonly words = (label: string) => studyLabel(label, this.units());
 
   protected readonly study = computed(() => {
     const s = this.state();
@@ -136,7 +138,7 @@ export class StudyPage {
     const sw = r?.sweep;
     if (!r || !sw) return { label: 'Bump cost', unit: '' };
     return sw.costOutput === 'bumpYawDisturbancePct'
-      ? { label: `Bump cost (yaw-rate disturbance, ${r.bumpCost.roadInWords})`, unit: '%' }
+      ? { label: `Bump cost (yaw-rate disturbance, ${studyLabel(r.bumpCost.roadInWords, this.units())})`, unit: '%' }
       : { label: 'Bump cost (toe change over the bump)', unit: 'deg' };
   });
 
