@@ -1,13 +1,13 @@
 /**
  * /api/teams/:teamId/configurations/:configurationId/…: the sign-off gates,
  * the "use the latest revisions" preview and the review record (JSON, a
- * printable page and a PDF). The decisions themselves stay on the
+ * printable page and a PDF, in the reader's units). The decisions themselves stay on the
  * configurations router; this file gives their bodies the gate fields.
  */
 import { Router } from 'express';
 import { z } from 'zod';
 import { validate } from '../http/errors.js';
-import { currentAccess, type Authorizer } from '../http/authorize.js';
+import { currentAccess, currentUser, type Authorizer } from '../http/authorize.js';
 import type { Configurations, ReviewAction } from '../services/configurations.js';
 import type { GateInput, ReviewGates } from '../services/review-gates.js';
 import type { LatestPreview } from '../services/latest-preview.js';
@@ -44,6 +44,8 @@ export function readTransitionBody(
 }
 
 const revisionQuery = z.strictObject({ revision: z.coerce.number().int().positive().optional() });
+/** The record page and PDF: a revision, and the unit system to write the figures in (default the reader's account setting). */
+const recordQuery = revisionQuery.extend({ units: z.enum(['si', 'imperial'], { error: 'use si or imperial' }).optional() });
 
 /** The strict policy of the record page: no script, nothing loaded, shown only inside the app's own frame. */
 const RECORD_PAGE_POLICY = "default-src 'none'; style-src 'unsafe-inline'; img-src data:; frame-ancestors 'self'; base-uri 'none'; form-action 'none'";
@@ -76,18 +78,20 @@ export function reviewGatesRouter(
   });
 
   r.get('/:configurationId/record.html', requirePermission('team:read'), async (req, res) => {
-    const q = validate(revisionQuery, req.query, 'query');
-    const answer = await record.record(currentAccess(req).teamId, await loaded(req, 'configuration'), q.revision);
+    const q = validate(recordQuery, req.query, 'query');
+    const units = q.units ?? currentUser(req).displayUnits;
+    const answer = await record.record(currentAccess(req).teamId, await loaded(req, 'configuration'), q.revision, units);
     res.setHeader('Content-Security-Policy', RECORD_PAGE_POLICY);
     res.setHeader('X-Frame-Options', 'SAMEORIGIN');
-    res.type('html').send(renderReviewRecordHtml(answer));
+    res.type('html').send(renderReviewRecordHtml(answer, units));
   });
 
   r.get('/:configurationId/record.pdf', requirePermission('team:read'), async (req, res) => {
-    const q = validate(revisionQuery, req.query, 'query');
-    const answer = await record.record(currentAccess(req).teamId, await loaded(req, 'configuration'), q.revision);
+    const q = validate(recordQuery, req.query, 'query');
+    const units = q.units ?? currentUser(req).displayUnits;
+    const answer = await record.record(currentAccess(req).teamId, await loaded(req, 'configuration'), q.revision, units);
     const title = `${answer.configuration.name}, revision ${answer.revision.number}`;
-    const pdf = await renderPdf(renderReviewRecordHtml(answer), { footerText: `Review record: ${title} · made ${answer.generatedAt.toISOString().slice(0, 10)}`, executablePath: chromiumPath });
+    const pdf = await renderPdf(renderReviewRecordHtml(answer, units), { footerText: `Review record: ${title} · made ${answer.generatedAt.toISOString().slice(0, 10)}`, executablePath: chromiumPath });
     const file = `review-record-${answer.configuration.name.replace(/[^A-Za-z0-9._-]+/g, '-').slice(0, 60)}-r${answer.revision.number}.pdf`;
     res.setHeader('Content-Disposition', `attachment; filename="${file}"`);
     res.type('application/pdf').send(pdf);

@@ -3,7 +3,7 @@
  *   POST   /rig-measurements/preview   multipart `file`: columns, first rows, proposed mapping (nothing stored)
  *   POST   /rig-measurements           multipart `file` + `mapping` + `target` (+ `options`): stored whole, with its comparison
  *   GET    /rig-measurements           list (?configurationId=, ?designId=)
- *   GET    /rig-measurements/:id       points, mapping and the comparison recomputed now
+ *   GET    /rig-measurements/:id       points, mapping and the comparison recomputed now (cautions worded in the caller's units)
  *   DELETE /rig-measurements/:id
  *   GET    /rig-tolerance, PUT /rig-tolerance   the team's rig tolerance
  */
@@ -74,7 +74,7 @@ export function rigMeasurementsRouter(rig: RigMeasurements, auth: Authorizer): R
   });
 
   r.get('/rig-measurements/:measurementId', requirePermission('team:read'), async (req, res) => {
-    reply<RigMeasurementDetail>(res, await rig.get(currentAccess(req).teamId, await loaded(req, 'rigMeasurement')));
+    reply<RigMeasurementDetail>(res, await rig.get(currentAccess(req).teamId, await loaded(req, 'rigMeasurement'), currentUser(req).displayUnits));
   });
 
   r.delete('/rig-measurements/:measurementId', requirePermission('vehicle:manage'), async (req, res) => {

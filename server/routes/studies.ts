@@ -4,7 +4,7 @@
  *   GET    /                                   the team's studies, newest first (without results)
  *   GET    /:studyId                           one study with its result once completed
  *   DELETE /:studyId                           cancel: every chunk stops
- *   GET    /:studyId/csv                       the result as CSV
+ *   GET    /:studyId/csv[?units=si|imperial]   the result as CSV, in the caller's units (default their account's)
  *   POST   /:studyId/variants/:index/proposal  a design-sweep variant as a proposal on its axle design → 201
  *   PUT    /:studyId/attachments/:configurationId  attach a completed study to a configuration's review record
  *   DELETE /:studyId/attachments/:configurationId  detach it → 204
@@ -28,6 +28,8 @@ import type { Programmes } from '../services/programmes.js';
 
 const indexParam = z.coerce.number().int().min(0).max(1_000_000);
 const listQuery = z.object({ attachedTo: z.uuid('must be a configuration id').optional() });
+/** The CSV's unit system; without it, the caller's account setting. */
+const csvQuery = z.strictObject({ units: z.enum(['si', 'imperial'], { error: 'use si or imperial' }).optional() });
 const attachSchema = z.strictObject({ note: z.string().trim().max(500).optional() });
 
 export function studiesRouter(studies: Studies, auth: Authorizer): Router {
@@ -72,7 +74,8 @@ export function studiesRouter(studies: Studies, auth: Authorizer): Router {
   });
 
   r.get('/:studyId/csv', requirePermission('team:read'), async (req, res) => {
-    const { filename, text } = studies.csv(await loaded(req, 'study'));
+    const q = validate(csvQuery, req.query, 'query');
+    const { filename, text } = studies.csv(await loaded(req, 'study'), q.units ?? currentUser(req).displayUnits);
     res.setHeader('Content-Type', 'text/csv; charset=utf-8');
     res.setHeader('Content-Disposition', `attachment; filename="${filename}"`);
     res.send(text);

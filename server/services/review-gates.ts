@@ -20,7 +20,8 @@ import { cautionAcknowledgements, rigEvidenceWaivers, users } from '../db/schema
 import { DomainError, InputError } from '../../shared/errors.js';
 import type { AxleName } from '../../shared/schema/axle.js';
 import type { ComputePool } from '../compute/pool.js';
-import type { AxleCautionList } from '../../shared/cautions/configuration-cautions.js';
+import type { AxleCautionList, ConfigurationCautionsInput } from '../../shared/cautions/configuration-cautions.js';
+import type { DisplayUnits } from '../../shared/api/accounts.js';
 import type { Caution } from '../../shared/cautions/cautions.js';
 import type { ConfigurationInputs, ConfigurationRefs, ConfigurationView, Configurations, ReviewAction } from './configurations.js';
 import { RigMeasurements } from './rig-measurements.js';
@@ -72,8 +73,9 @@ export class ReviewGates {
   }
 
   /** Both axles' cautions on the configuration's track profile (server-side, the shared measurement). */
-  async cautions(inputs: ConfigurationInputs): Promise<AxleCautionList[]> {
-    return (await this.pool.run('configuration-cautions', inputs, { timeLimitMs: this.computeTimeLimitMs })) as AxleCautionList[];
+  async cautions(inputs: ConfigurationInputs, units: DisplayUnits = 'si'): Promise<AxleCautionList[]> {
+    const input: ConfigurationCautionsInput = { ...inputs, units };
+    return (await this.pool.run('configuration-cautions', input, { timeLimitMs: this.computeTimeLimitMs })) as AxleCautionList[];
   }
 
   /** The Critical items of both axles: each Critical caution, and each axle whose cautions could not be measured. */

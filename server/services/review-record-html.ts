@@ -5,9 +5,19 @@
  * same document on its record page and prints it; the PDF is Chromium's
  * print of it (record-pdf.ts), so screen, paper and PDF are one layout.
  * Every value is escaped; nothing is loaded from outside the document.
+ *
+ * Figures are written in the reader's unit system (SI or inch-pound, issue 15
+ * §2) through the one quantity table and formatter (shared/units), labelled
+ * from the one result table (shared/io/result-words.ts); the record's data,
+ * its JSON and the approval fingerprints stay SI.
  */
 import { line, scaleLinear } from 'd3';
-import { pathWords } from '../../shared/io/document-words.js';
+import { inputWords, resultWords } from '../../shared/io/result-words.js';
+import { displayDecimals, inDisplayUnits, kindForUnit, unitLabel, type QuantityKind } from '../../shared/units/quantities.js';
+import { formatNum } from '../../shared/units/format.js';
+import type { DisplayUnits } from '../../shared/api/accounts.js';
+import { cautionFigures, figureUnits } from '../../shared/cautions/figures.js';
+import { bumpCostWords } from '../../shared/ride/cost.js';
 import type { ReviewRecordAnswer } from './review-record.js';
 import type { AxleName } from '../../shared/schema/axle.js';
 
@@ -18,6 +28,36 @@ const esc = (v: unknown): string =>
 function num(v: unknown, digits: number): string {
   return typeof v === 'number' && Number.isFinite(v) ? v.toFixed(digits).replace('-', '−') : '–';
 }
+
+/** How the record writes its figures in the reader's unit system. */
+interface Figures {
+  /** A stored value of `kind` shown to `siDecimals` decimals in SI (as many more as keep that resolution in inch-pound). */
+  fixed(v: unknown, kind: QuantityKind, siDecimals: number): string;
+  /** A stored value of `kind` to `sig` significant figures in the reader's units. */
+  sig(v: unknown, kind: QuantityKind, sig: number): string;
+  unit(kind: QuantityKind): string;
+}
+
+function figuresIn(units: DisplayUnits): Figures {
+  const text = (v: unknown, write: (x: number) => string) => (typeof v === 'number' && Number.isFinite(v) ? write(v).replace('-', '−') : '–');
+  return {
+    fixed: (v, kind, d) => text(v, (x) => formatNum(x, { kind, decimals: displayDecimals(kind, units, d) }, units)),
+    sig: (v, kind, sig) => text(v, (x) => formatNum(x, { kind, sig }, units)),
+    unit: (kind) => unitLabel(kind, units),
+  };
+}
+
+/** A measured caution figure with its stored unit ('mm', 'deg/m', '%'), in the reader's units where a quantity kind converts it. */
+function cautionFigure(v: number | null | undefined, unit: string | null | undefined, f: Figures): string {
+  if (v === null || v === undefined) return '–';
+  const kind = unit ? kindForUnit(unit) : null;
+  return kind ? `${f.fixed(v, kind, 3)} ${esc(f.unit(kind))}` : `${num(v, 3)} ${esc(unit ?? '')}`;
+}
+
+const UNIT_WORDS: Readonly<Record<DisplayUnits, string>> = {
+  si: "SI (mm, kg, N, km/h; angles in deg), the reader's choice; the stored record and its fingerprints are SI",
+  imperial: "Inch-pound (in, lb, lbf, mph; angles in deg), the reader's choice; the stored record and its fingerprints are SI",
+};
 
 /** Dates in UTC, ISO-like and unambiguous on paper whatever the reader's locale. */
 function when(v: unknown): string {
@@ -51,22 +91,29 @@ function leaves(doc: unknown, prefix: string, out: { path: string; value: unknow
   return out;
 }
 
-function inputTable(title: string, top: string, doc: unknown): string {
+/** The inputs as entered, to 6 significant figures in the reader's units; hardpoints to 0.1 mm (or the same resolution in inches). */
+function inputTable(title: string, top: string, doc: unknown, f: Figures): string {
   const rows = leaves(doc, top)
     .filter((r) => !r.path.endsWith('formatVersion'))
     .map((r) => {
-      const w = pathWords(r.path);
+      const w = inputWords(r.path);
       const label = w.label.replace(/^[^·]+· /, '');
-      const value = Array.isArray(r.value) ? (r.value as number[]).map((x) => num(x, 1)).join(', ') : typeof r.value === 'number' ? String(Number(r.value.toPrecision(6))) : esc(r.value);
-      const unit = Array.isArray(r.value) ? 'mm (x, y, z)' : (w.unit ?? '');
+      const value = Array.isArray(r.value)
+        ? (r.value as number[]).map((x) => f.fixed(x, 'length', 1)).join(', ')
+        : typeof r.value === 'number'
+          ? w.kind
+            ? f.sig(r.value, w.kind, 6)
+            : String(Number(r.value.toPrecision(w.sig ?? 6))).replace('-', '−')
+          : esc(r.value);
+      const unit = Array.isArray(r.value) ? `${f.unit('length')} (x, y, z)` : w.kind ? f.unit(w.kind) : (w.unit ?? '');
       return `<tr><th scope="row">${esc(label)}</th><td class="num">${value}</td><td>${esc(unit)}</td></tr>`;
     })
     .join('');
   return `<table class="inputs"><caption>${esc(title)}</caption><thead><tr><th scope="col">Input</th><th scope="col">Value</th><th scope="col">Unit</th></tr></thead><tbody>${rows}</tbody></table>`;
 }
 
-/** Toe or camber against travel for both axles, drawn with scales and labelled axes. */
-function curveSvg(title: string, unit: string, series: { name: string; dash: string; points: { x: number; y: number }[] }[]): string {
+/** Toe or camber against travel for both axles, drawn with scales and labelled axes (travel already in `travelUnit`). */
+function curveSvg(title: string, unit: string, travelUnit: string, series: { name: string; dash: string; points: { x: number; y: number }[] }[]): string {
   const w = 320;
   const h = 200;
   const m = { l: 52, r: 12, t: 26, b: 36 };
@@ -83,54 +130,52 @@ function curveSvg(title: string, unit: string, series: { name: string; dash: str
   const path = line<{ x: number; y: number }>()
     .x((p) => x(p.x))
     .y((p) => y(p.y));
-  const xTicks = x.ticks(5).map((t) => `<g transform="translate(${x(t)},${h - m.b})"><line y2="4"/><text y="15" text-anchor="middle">${num(t, 0)}</text></g>`);
+  const xTicks = x.ticks(5).map((t) => `<g transform="translate(${x(t)},${h - m.b})"><line y2="4"/><text y="15" text-anchor="middle">${esc(x.tickFormat(5)(t)).replace('-', '−')}</text></g>`);
   const yTicks = y.ticks(5).map((t) => `<g transform="translate(${m.l},${y(t)})"><line x2="-4"/><line class="grid" x2="${w - m.l - m.r}"/><text x="-6" dy="0.32em" text-anchor="end">${esc(y.tickFormat(5)(t)).replace('-', '−')}</text></g>`);
   const lines = series.map((s) => `<path d="${path(s.points) ?? ''}" class="curve" stroke-dasharray="${s.dash}"/>`).join('');
   const legend = series.map((s, i) => `<g transform="translate(${m.l + 8 + i * 90},9)"><line x2="22" class="curve" stroke-dasharray="${s.dash}"/><text x="26" dy="0.32em">${esc(s.name)}</text></g>`).join('');
-  return `<figure class="curve-figure"><svg viewBox="0 0 ${w} ${h}" role="img" aria-label="${esc(title)}"><g class="axis">${xTicks.join('')}${yTicks.join('')}<line x1="${m.l}" x2="${w - m.r}" y1="${h - m.b}" y2="${h - m.b}"/><line x1="${m.l}" x2="${m.l}" y1="${m.t}" y2="${h - m.b}"/></g>${lines}${legend}<text class="axis-title" x="${(m.l + w - m.r) / 2}" y="${h - 4}" text-anchor="middle">Wheel travel, mm (bump +)</text><text class="axis-title" transform="translate(12,${(m.t + h - m.b) / 2}) rotate(-90)" text-anchor="middle">${esc(unit)}</text></svg><figcaption>${esc(title)}</figcaption></figure>`;
+  return `<figure class="curve-figure"><svg viewBox="0 0 ${w} ${h}" role="img" aria-label="${esc(title)}"><g class="axis">${xTicks.join('')}${yTicks.join('')}<line x1="${m.l}" x2="${w - m.r}" y1="${h - m.b}" y2="${h - m.b}"/><line x1="${m.l}" x2="${m.l}" y1="${m.t}" y2="${h - m.b}"/></g>${lines}${legend}<text class="axis-title" x="${(m.l + w - m.r) / 2}" y="${h - 4}" text-anchor="middle">Wheel travel, ${esc(travelUnit)} (bump +)</text><text class="axis-title" transform="translate(12,${(m.t + h - m.b) / 2}) rotate(-90)" text-anchor="middle">${esc(unit)}</text></svg><figcaption>${esc(title)}</figcaption></figure>`;
 }
 
 const AXLE = { front: 'Front', rear: 'Rear' } as const;
 
-export function renderReviewRecordHtml(r: ReviewRecordAnswer): string {
+/** The record in the reader's unit system (`units`: their account's choice, or the one the request names). */
+export function renderReviewRecordHtml(r: ReviewRecordAnswer, units: DisplayUnits = 'si'): string {
+  const f = figuresIn(units);
+  /** The bump-cost sentence's figures in the reader's units (the caution messages come worded so from the record's computation). */
+  const cautionWords = cautionFigures(figureUnits(units));
   const results = r.results as {
     balance: { understeerBudget: Record<string, number>; kinematicsLink?: Record<string, { used?: { rollSteerCoefficient?: number } }>; rollGradientDegPerG?: number; characteristicSpeedKph?: number | null };
     bumpSteer: Record<AxleName, { byRack?: { rackMm: number; bumpSteerDegPerM: number; camberGainDegPerM: number }[] }>;
   };
   const budget = results.balance.understeerBudget;
-  const budgetRows = (
-    [
-      ['tyres', 'Tyres'],
-      ['loadTransfer', 'Load transfer'],
-      ['rollSteer', 'Roll steer'],
-      ['rollCamber', 'Roll camber'],
-      ['complianceSteer', 'Compliance steer'],
-      ['alignTorque', 'Aligning torque'],
-      ['total', 'Understeer gradient K (total)'],
-    ] as const
-  )
-    .map(([k, label]) => `<tr${k === 'total' ? ' class="total"' : ''}><th scope="row">${label}</th><td class="num">${num(budget[k], 3)}</td><td>deg/g</td></tr>`)
+  const budgetRows = (['tyres', 'loadTransfer', 'rollSteer', 'rollCamber', 'complianceSteer', 'alignTorque', 'total'] as const)
+    .map((k) => {
+      const w = resultWords(`balance.understeerBudget.${k}`);
+      const kind = w.kind ?? 'understeerGradient';
+      return `<tr${k === 'total' ? ' class="total"' : ''}><th scope="row">${esc(w.label)}</th><td class="num">${f.fixed(budget[k], kind, 3)}</td><td>${esc(f.unit(kind))}</td></tr>`;
+    })
     .join('');
   const axleFigures = (['front', 'rear'] as const)
     .map((axle) => {
       const fit = results.bumpSteer[axle]?.byRack?.find((b) => b.rackMm === 0);
       const eps = results.balance.kinematicsLink?.[axle]?.used?.rollSteerCoefficient;
-      return `<tr><th scope="row">${AXLE[axle]}</th><td class="num">${num(eps, 4)}</td><td class="num">${num(fit?.bumpSteerDegPerM, 2)}</td><td class="num">${num(fit?.camberGainDegPerM, 1)}</td></tr>`;
+      return `<tr><th scope="row">${AXLE[axle]}</th><td class="num">${f.fixed(eps, 'rollSteer', 4)}</td><td class="num">${f.fixed(fit?.bumpSteerDegPerM, 'bumpSteer', 2)}</td><td class="num">${f.fixed(fit?.camberGainDegPerM, 'camberGain', 1)}</td></tr>`;
     })
     .join('');
   const curves = (q: 'toeDeg' | 'camberDeg', title: string) =>
-    curveSvg(title, q === 'toeDeg' ? 'Toe, deg (toe-in +)' : 'Camber, deg (top out +)', [
-      { name: 'Front', dash: '', points: r.curves.front.map((p) => ({ x: p.travelMm, y: p[q] })) },
-      { name: 'Rear', dash: '5 3', points: r.curves.rear.map((p) => ({ x: p.travelMm, y: p[q] })) },
+    curveSvg(title, q === 'toeDeg' ? 'Toe, deg (toe-in +)' : 'Camber, deg (top out +)', f.unit('length'), [
+      { name: 'Front', dash: '', points: r.curves.front.map((p) => ({ x: inDisplayUnits(p.travelMm, 'length', units), y: p[q] })) },
+      { name: 'Rear', dash: '5 3', points: r.curves.rear.map((p) => ({ x: inDisplayUnits(p.travelMm, 'length', units), y: p[q] })) },
     ]);
   const cautions = r.cautions
     .map((l) => {
       if (!l.ok) return `<h3>${AXLE[l.axle]} axle</h3><p class="critical">The cautions could not be measured: ${esc(l.failure.message)}</p>`;
       const rows = l.cautions
         .filter((c) => c.code !== 'safety-notice')
-        .map((c) => `<tr class="level-${esc(c.level)}"><td>${esc(c.level === 'critical' ? 'Critical' : c.level === 'warning' ? 'Warning' : 'Note')}</td><td>${esc(c.message)}</td><td class="num">${c.value === null ? '–' : `${num(c.value, 3)} ${esc(c.unit)}`}</td><td class="num">${c.threshold === null ? '–' : `${num(c.threshold, 3)} ${esc(c.unit)}`}</td></tr>`)
+        .map((c) => `<tr class="level-${esc(c.level)}"><td>${esc(c.level === 'critical' ? 'Critical' : c.level === 'warning' ? 'Warning' : 'Note')}</td><td>${esc(c.message)}</td><td class="num">${cautionFigure(c.value, c.unit, f)}</td><td class="num">${cautionFigure(c.threshold, c.unit, f)}</td></tr>`)
         .join('');
-      const cost = l.bumpCost ? `<p class="bump-cost"><strong>Bump cost:</strong> ${esc(l.bumpCost.summary)}</p>` : `<p class="bump-cost"><strong>Bump cost:</strong> not available${l.bumpCostUnavailable ? ` (${esc(l.bumpCostUnavailable)})` : ''}.</p>`;
+      const cost = l.bumpCost ? `<p class="bump-cost"><strong>Bump cost:</strong> ${esc(bumpCostWords(l.bumpCost, l.axle, cautionWords))}</p>` : `<p class="bump-cost"><strong>Bump cost:</strong> not available${l.bumpCostUnavailable ? ` (${esc(l.bumpCostUnavailable)})` : ''}.</p>`;
       return `<h3>${AXLE[l.axle]} axle</h3>${cost}${rows ? `<table><thead><tr><th scope="col">Level</th><th scope="col">Caution</th><th scope="col">Measured</th><th scope="col">Threshold</th></tr></thead><tbody>${rows}</tbody></table>` : '<p>No cautions beyond the safety notice.</p>'}`;
     })
     .join('');
@@ -175,17 +220,17 @@ export function renderReviewRecordHtml(r: ReviewRecordAnswer): string {
     <dt>Vehicle</dt><dd>${ref(r.refs.vehicle, 'vehicle')}</dd>
     <dt>Front axle design</dt><dd>${ref(r.refs.front, 'front design')}</dd>
     <dt>Rear axle design</dt><dd>${ref(r.refs.rear, 'rear design')}</dd>
-    <dt>Track profile</dt><dd>${esc(r.trackProfile.label)} (travel ${num(r.trackProfile.travelMm[0], 0)} to ${num(r.trackProfile.travelMm[1], 0)} mm)</dd>
+    <dt>Track profile</dt><dd>${esc(r.trackProfile.label)} (travel ${f.fixed(r.trackProfile.travelMm[0], 'length', 0)} to ${f.fixed(r.trackProfile.travelMm[1], 'length', 0)} ${esc(f.unit('length'))})</dd>
     <dt>Revision written by</dt><dd>${esc(r.revision.authorName ?? '–')}, ${when(r.revision.createdAt)}${r.revision.message ? ` (“${esc(r.revision.message)}”)` : ''}</dd>
     <dt>Snapshot fingerprint</dt><dd class="fingerprint">${r.approval ? esc(r.approval.fingerprint) : 'none: this revision is not signed off'}</dd>
     <dt>Record made</dt><dd>${when(r.generatedAt)}, engine ${esc(r.engineVersion)}</dd>
     <dt>Filing reference</dt><dd>${esc(r.configuration.id)} / ${r.revision.number}</dd>
-    <dt>Units</dt><dd>SI (mm, kg, N, deg) throughout, as filed, whatever a reader's display setting</dd>
+    <dt>Units</dt><dd data-units="${units}">${UNIT_WORDS[units]}</dd>
   </dl>
   <p class="safety" role="note"><strong>Safety:</strong> ${esc(r.safetyNotice)}</p>
 </header>
 <section><h2>1. Key results</h2>
-  <table><thead><tr><th scope="col">Axle</th><th scope="col">Roll steer ε, deg/deg</th><th scope="col">Bump steer, deg/m</th><th scope="col">Camber gain, deg/m</th></tr></thead><tbody>${axleFigures}</tbody></table>
+  <table><thead><tr><th scope="col">Axle</th><th scope="col">Roll steer ε, ${esc(f.unit('rollSteer'))}</th><th scope="col">Bump steer, ${esc(f.unit('bumpSteer'))}</th><th scope="col">Camber gain, ${esc(f.unit('camberGain'))}</th></tr></thead><tbody>${axleFigures}</tbody></table>
   <h3>Understeer budget</h3>
   <table class="budget"><thead><tr><th scope="col">Term</th><th scope="col">Value</th><th scope="col">Unit</th></tr></thead><tbody>${budgetRows}</tbody></table>
 </section>
@@ -202,9 +247,9 @@ export function renderReviewRecordHtml(r: ReviewRecordAnswer): string {
 <section><h2>6. Reviewers and dates</h2>${history}</section>
 <section><h2>7. Approval snapshots</h2>${approvals}</section>
 <section class="inputs-section"><h2>8. Inputs</h2>
-  ${inputTable('Vehicle', 'vehicle', r.inputs.vehicle)}
-  ${inputTable('Front corner', 'frontCorner', r.inputs.frontCorner)}
-  ${inputTable('Rear corner', 'rearCorner', r.inputs.rearCorner)}
+  ${inputTable('Vehicle', 'vehicle', r.inputs.vehicle, f)}
+  ${inputTable('Front corner', 'frontCorner', r.inputs.frontCorner, f)}
+  ${inputTable('Rear corner', 'rearCorner', r.inputs.rearCorner, f)}
 </section>
 <footer class="record-foot"><p class="safety" role="note"><strong>Safety:</strong> ${esc(r.safetyNotice)}</p></footer>
 </main></body></html>`;

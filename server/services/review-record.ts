@@ -19,6 +19,7 @@ import { SAFETY_CAUTION } from '../../shared/cautions/cautions.js';
 import { trackProfiles } from '../../shared/tracks/profiles.js';
 import type { Configurations, ConfigurationView } from './configurations.js';
 import { ReviewGates } from './review-gates.js';
+import type { DisplayUnits } from '../../shared/api/accounts.js';
 
 /** JSON with object keys sorted at every level: jsonb does not keep key order, the fingerprint must not depend on it. */
 export function canonicalJson(value: unknown): string {
@@ -66,8 +67,11 @@ export class ReviewRecord {
     return sweep.rows.filter((r) => r.rackMm === 0).map((r) => ({ travelMm: r.travelMm, toeDeg: r.toeDeg, camberDeg: r.camberDeg }));
   }
 
-  /** `configuration`: as loaded for its team (routes/loaders.ts). */
-  async record(teamId: string, configuration: ConfigurationView, revision?: number) {
+  /**
+   * `configuration`: as loaded for its team (routes/loaders.ts). `units`: the unit system the cautions'
+   * messages write their figures in (the reader's, for the page and the PDF); every value stays SI.
+   */
+  async record(teamId: string, configuration: ConfigurationView, revision?: number, units: DisplayUnits = 'si') {
     const id = configuration.id;
     const { revision: rev, refs, inputs } = await this.configs.inputs(configuration, revision);
     const profile = trackProfiles[refs.trackProfile];
@@ -80,7 +84,7 @@ export class ReviewRecord {
       .where(and(eq(configurationRevisions.configurationId, id), eq(configurationRevisions.revision, rev)));
     const [results, cautions, front, rear, evidence, tolerance, records, transitions, approvalRows] = await Promise.all([
       this.configs.compute(inputs),
-      this.gates.cautions(inputs),
+      this.gates.cautions(inputs, units),
       this.curve(inputs.frontCorner, profile.travelMm),
       this.curve(inputs.rearCorner, profile.travelMm),
       this.gates.evidence(teamId, refs),

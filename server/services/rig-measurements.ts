@@ -8,6 +8,7 @@
  * team's current rig tolerance; nothing computed is stored or taken from
  * the browser.
  */
+import type { DisplayUnits } from '../../shared/api/accounts.js';
 import { and, desc, eq, type SQL } from 'drizzle-orm';
 import type { Orm } from '../db/client.js';
 import { axleDesignRevisions, axleDesigns, rigMeasurements, teamRigSettings, users, vehicles } from '../db/schema.js';
@@ -136,9 +137,9 @@ export class RigMeasurements {
     return upgradeCornerDocument(r.corner);
   }
 
-  private compare(corner: unknown, points: RigPoint[], o: { rackMm: number; side: 'left' | 'right'; basis: RigBasis }, tolerance: RigTolerance): Promise<RigComparison> {
+  private compare(corner: unknown, points: RigPoint[], o: { rackMm: number; side: 'left' | 'right'; basis: RigBasis }, tolerance: RigTolerance, units: DisplayUnits = 'si'): Promise<RigComparison> {
     const t = { toeDeg: tolerance.toeDeg, camberDeg: tolerance.camberDeg };
-    return this.pool.run('rig-compare', { corner, points, rackMm: o.rackMm, side: o.side, basis: o.basis, tolerance: t }, { timeLimitMs: this.computeTimeLimitMs }) as Promise<RigComparison>;
+    return this.pool.run('rig-compare', { corner, points, rackMm: o.rackMm, side: o.side, basis: o.basis, tolerance: t, units }, { timeLimitMs: this.computeTimeLimitMs }) as Promise<RigComparison>;
   }
 
   /**
@@ -217,13 +218,13 @@ export class RigMeasurements {
     return row;
   }
 
-  /** One measurement with its mapping and points, and the comparison recomputed now with the team's tolerance. */
-  async get(teamId: string, s: RigMeasurementSummary) {
+  /** One measurement with its mapping and points, and the comparison recomputed now with the team's tolerance (its cautions worded in `units`). */
+  async get(teamId: string, s: RigMeasurementSummary, units: DisplayUnits = 'si') {
     const [row] = await this.orm.select({ mapping: rigMeasurements.mapping, points: rigMeasurements.points }).from(rigMeasurements).where(eq(rigMeasurements.id, s.id));
     const points = row!.points;
     const corner = await this.designCorner(s.designId, s.designRevision);
     const tolerance = await this.tolerance(teamId);
-    const comparison = await this.compare(corner, points, { rackMm: s.rackMm, side: s.side, basis: s.basis }, tolerance);
+    const comparison = await this.compare(corner, points, { rackMm: s.rackMm, side: s.side, basis: s.basis }, tolerance, units);
     return { ...s, mapping: row!.mapping, points, comparison, engineVersion: ENGINE_VERSION };
   }
 

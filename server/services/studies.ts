@@ -13,7 +13,7 @@
  */
 import { randomInt } from 'node:crypto';
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
-import { planStudy, studyKeyFigures, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
+import { planStudy, studyKeyFigures, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, withFactorLabels, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
 import type { Database } from '../db/client.js';
 import { configurations, programmeTeams, studies, studyAttachments, teams, users } from '../db/schema.js';
 import { DomainError, notFound, parseOrThrow } from '../../shared/errors.js';
@@ -24,6 +24,7 @@ import type { Vehicles } from './vehicles.js';
 import type { ProgrammeRow } from './programmes.js';
 import { QUEUES, bossDb, inTransaction, type JobQueue, type QueueJobData } from '../compute/queue.js';
 import type { AxleName } from '../../shared/schema/axle.js';
+import type { DisplayUnits } from '../../shared/api/accounts.js';
 import type { AttachedStudy as AttachedStudyWire, StudyResolvedTarget, StudyView as StudyWire } from '../../shared/api/studies.js';
 
 /** A study as the service hands it over: the wire type with its times still Dates (`res.json` writes them as ISO strings). */
@@ -131,7 +132,7 @@ export class Studies {
   /** The study with its result; 410 job_gone when its work was lost. */
   get(r: StudyRow): StudyView {
     if (r.error?.code === 'job_gone') throw gone(r);
-    return view(r, r.result);
+    return view(r, r.result && withFactorLabels(r.result, r.spec.corner));
   }
 
   async cancel(teamId: string, r: StudyRow): Promise<StudyView> {
@@ -146,11 +147,12 @@ export class Studies {
     return this.get(await this.load(teamId, id));
   }
 
-  csv(r: StudyRow): { filename: string; text: string } {
+  /** The result as CSV in `units` (the caller's choice, else their account's); the API's JSON stays SI. */
+  csv(r: StudyRow, units: DisplayUnits): { filename: string; text: string } {
     if (r.error?.code === 'job_gone') throw gone(r);
     if (r.status !== 'completed' || !r.result) throw new DomainError('conflict', 'study_not_completed', 'The study has no result yet; export it once it has completed');
     const slug = r.label.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'study';
-    return { filename: `${slug}.csv`, text: studyResultCsv(r.spec, r.result) };
+    return { filename: `${slug}.csv`, text: studyResultCsv(r.spec, withFactorLabels(r.result, r.spec.corner), units) };
   }
 
   /** Opens variant `index` of a completed design sweep as a proposal on the studied axle design. */

@@ -13,12 +13,16 @@ import { measureCornerCautions } from './corner-cautions.js';
 import type { TrackProfileId } from '../tracks/profiles.js';
 import type { BumpCost } from '../ride/cost.js';
 import type { AxleName } from '../schema/axle.js';
+import type { DisplayUnits } from '../api/accounts.js';
+import { cautionFigures, figureUnits } from './figures.js';
 
 export interface ConfigurationCautionsInput {
   vehicle: unknown;
   frontCorner: unknown;
   rearCorner: unknown;
   trackProfile: TrackProfileId;
+  /** The reader's unit system for the messages' figures (plain data, so it crosses to the worker thread); default SI. */
+  units?: DisplayUnits | undefined;
 }
 
 export type AxleCautionList =
@@ -36,10 +40,11 @@ function usableVehicle(data: unknown): Vehicle | undefined {
 export function computeConfigurationCautions(input: unknown): AxleCautionList[] {
   const i = input as ConfigurationCautionsInput;
   const vehicle = usableVehicle(i.vehicle);
+  const figures = cautionFigures(figureUnits(i.units ?? 'si'));
   return (['front', 'rear'] as const).map((axle) => {
     try {
       const corner = parseOrThrow(cornerSchema, upgradeCornerDocument(axle === 'front' ? i.frontCorner : i.rearCorner), `${axle} corner`);
-      const m = measureCornerCautions(corner, { axle, trackProfile: i.trackProfile, vehicle });
+      const m = measureCornerCautions(corner, { axle, trackProfile: i.trackProfile, vehicle, figures });
       return { axle, ok: true as const, cautions: m.cautions, bumpCost: m.bumpCost, bumpCostUnavailable: m.bumpCostUnavailable };
     } catch (e) {
       if (e instanceof InputError || e instanceof SolveError) return { axle, ok: false as const, failure: { code: e.code, message: e.message } };

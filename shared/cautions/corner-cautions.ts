@@ -9,7 +9,7 @@ import { steeringStrokeMm } from '../schema/steering-link.js';
 import type { Vehicle } from '../schema/vehicle.js';
 import { SolveError } from '../errors.js';
 import { suspensionRollGradients } from '../balance/understeer.js';
-import { evaluateCautions, type Caution, type CautionThresholds } from './cautions.js';
+import { evaluateCautions, type Caution, type CautionFigures, type CautionThresholds } from './cautions.js';
 import { resolveTrackProfile, type TrackProfileChoice, type TrackProfileId } from '../tracks/profiles.js';
 import { cautionInputs, sweepRacks } from './measure.js';
 import { linked, PoseCounter, rollSteer } from '../intent/link.js';
@@ -30,6 +30,8 @@ export interface CornerCautionOptions {
   travelStepMm?: number | undefined;
   /** Roll of the curvature caution, deg; default the vehicle's suspension roll at 1 g, else 2°. */
   referenceRollDeg?: number | undefined;
+  /** How the messages write their figures (the reader's unit system); default SI. */
+  figures?: CautionFigures | undefined;
 }
 
 /** Rack positions of the bump cautions and worst-toe report: 0 first, then the given ones or the stroke's ends. */
@@ -91,5 +93,5 @@ export function measureCornerCautions(corner: Corner, options: CornerCautionOpti
     thresholds: options.thresholds,
   };
   const inputs = cautionInputs(counter, context, profile, corner, eps, measured.byRack, measured.unreachableRacks);
-  return { cautions: evaluateCautions(inputs), bumpCost: inputs.bumpCost ?? null, bumpCostUnavailable: inputs.bumpCostUnavailable ?? null };
+  return { cautions: evaluateCautions(inputs, options.figures), bumpCost: inputs.bumpCost ?? null, bumpCostUnavailable: inputs.bumpCostUnavailable ?? null };
 }

@@ -3,8 +3,9 @@
  * → "Front corner · tie rod inner · z", mm. Used wherever a changed value is
  * shown to a person (the "use the latest revisions" preview, the review
  * record), so they read the same on screen and on paper. The unit comes
- * from the key's unit suffix (units live in names, DEVELOPERS.md), or from
- * the table of key results; hardpoint coordinates are mm (domain.md).
+ * from the key's unit suffix (units live in names, DEVELOPERS.md);
+ * hardpoint coordinates are mm (domain.md). Configuration results have their
+ * own table (result-words.ts), which falls back on these words.
  * Presentation only: no engineering here.
  */
 
@@ -30,19 +31,6 @@ const SUFFIX_UNITS: readonly (readonly [string, string])[] = [
   ['Pct', '%'],
   ['Hz', 'Hz'],
 ];
-
-/** Key results (the configuration's balance and bump steer) that carry no unit suffix. */
-const RESULT_WORDS: Readonly<Record<string, { label: string; unit: string }>> = {
-  'balance.understeerBudget.tyres': { label: 'Understeer budget · tyres', unit: 'deg/g' },
-  'balance.understeerBudget.loadTransfer': { label: 'Understeer budget · load transfer', unit: 'deg/g' },
-  'balance.understeerBudget.rollSteer': { label: 'Understeer budget · roll steer', unit: 'deg/g' },
-  'balance.understeerBudget.rollCamber': { label: 'Understeer budget · roll camber', unit: 'deg/g' },
-  'balance.understeerBudget.complianceSteer': { label: 'Understeer budget · compliance steer', unit: 'deg/g' },
-  'balance.understeerBudget.alignTorque': { label: 'Understeer budget · aligning torque', unit: 'deg/g' },
-  'balance.understeerBudget.total': { label: 'Understeer gradient K', unit: 'deg/g' },
-  'balance.kinematicsLink.front.used.rollSteerCoefficient': { label: 'Roll steer ε, front', unit: 'deg/deg' },
-  'balance.kinematicsLink.rear.used.rollSteerCoefficient': { label: 'Roll steer ε, rear', unit: 'deg/deg' },
-};
 
 const TOP_WORDS: Readonly<Record<string, string>> = {
   vehicle: 'Vehicle',
@@ -72,8 +60,6 @@ export function keyWords(key: string): string {
 
 /** A dotted document path in words with its unit (null when it has none, e.g. a name or a count). */
 export function pathWords(path: string): { label: string; unit: string | null } {
-  const known = RESULT_WORDS[path];
-  if (known) return known;
   const parts = path.replace(/\[(\d+)\]/g, '.[$1]').split('.');
   const out: string[] = [];
   let unit: string | null = null;

@@ -18,6 +18,7 @@ import { evaluateRide, quarterCarOf, quarterCarSpectra, steeringSpectra, ToeCurv
 import { ROAD_CLASS_WORDS, roadSpectrum, type RoadClass } from './road.js';
 import { rackForAxleSteer } from '../kinematics/index.js';
 import { RAD_PER_DEG } from '../angles.js';
+import { SI_FIGURES, type CautionFigures } from '../cautions/cautions.js';
 import type { AxleName } from '../schema/axle.js';
 
 /** Time over which the heading change is turned into a lateral drift, s. */
@@ -84,11 +85,7 @@ export function bumpCostFrom(r: RideResult, p: BumpCostProfile, axle: AxleName):
   for (const s of fullLock) for (const w of [s.wheels.left, s.wheels.right]) if (lock === null || Math.abs(w.gradientDegPerM) > Math.abs(lock)) lock = w.gradientDegPerM;
   const pct = yaw === null ? null : (100 * yaw) / steady;
   const words = `${ROAD_CLASS_WORDS[p.roadClass]} at ${p.speedKph} km/h`;
-  const parts = [
-    `On a ${words} the ${axle} axle's bump steer gives ${yaw === null ? 'no stable yaw response (above the critical speed)' : `${fmt(yaw, 3)} deg/s RMS of yaw-rate disturbance (${fmt(pct!, 2)} % of the ${fmt(steady, 1)} deg/s on a ${p.cornerRadiusM} m corner)`}`,
-    heading === null ? '' : `a ${p.bumpHeightMm} mm single-wheel bump turns the car by ${fmt(heading, 3)}° (${fmt(100 * drift!, 1)} cm of drift in 1 s)`,
-  ].filter(Boolean);
-  return {
+  const cost: BumpCost = {
     roadInWords: words,
     roadClass: p.roadClass,
     speedKph: p.speedKph,
@@ -107,8 +104,25 @@ export function bumpCostFrom(r: RideResult, p: BumpCostProfile, axle: AxleName):
     landingDropMm: p.landingDropMm,
     landingSideForceFraction: landing ? landing.peakWheelSideForceFraction : null,
     fullLockBumpSteerDegPerM: lock,
-    summary: parts.join('; ') + '.',
+    summary: '',
   };
+  return { ...cost, summary: bumpCostWords(cost, axle) };
+}
+
+/**
+ * The bump cost in one sentence, for screens and reports, its figures written by `figures` (the reader's
+ * unit system, shared/cautions/figures.ts; SI by default, as stored in `summary`).
+ */
+export function bumpCostWords(c: BumpCost, axle: AxleName, figures: CautionFigures = SI_FIGURES): string {
+  const f = figures;
+  const decimals = (x: number) => (Number.isInteger(x) ? 0 : 1);
+  const yaw = c.yawRateRmsDegPerS;
+  const heading = c.headingChangeDeg;
+  const parts = [
+    `On a ${ROAD_CLASS_WORDS[c.roadClass]} at ${f.speed(c.speedKph)} the ${axle} axle's bump steer gives ${yaw === null || c.yawDisturbancePct === null ? 'no stable yaw response (above the critical speed)' : `${fmt(yaw, 3)} deg/s RMS of yaw-rate disturbance (${fmt(c.yawDisturbancePct, 2)} % of the ${fmt(c.steadyYawRateDegPerS, 1)} deg/s on a ${f.distance(c.cornerRadiusM)} corner)`}`,
+    heading === null || c.driftM === null ? '' : `a ${f.length(c.bumpHeightMm, decimals(c.bumpHeightMm))} single-wheel bump turns the car by ${fmt(heading, 3)}° (${f.drift(c.driftM, 1)} of drift in 1 s)`,
+  ].filter(Boolean);
+  return parts.join('; ') + '.';
 }
 
 /** The bump cost of `corner` on `axle` of `vehicle` on a profile (throws InputError when the vehicle lacks ride data). */

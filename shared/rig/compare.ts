@@ -22,7 +22,8 @@ import { CornerSolver } from '../kinematics/solver.js';
 import { poseRow } from '../kinematics/pose.js';
 import { checkRack, sweepTravels } from '../kinematics/sweep.js';
 import { assertFinite } from '../kinematics/api.js';
-import { SAFETY_CAUTION, type Caution } from '../cautions/cautions.js';
+import { SAFETY_CAUTION, SI_FIGURES, type Caution, type CautionFigures } from '../cautions/cautions.js';
+import { cautionFigures, figureUnits } from '../cautions/figures.js';
 import { RIG_BOUNDS, RIG_LIMITS, type RigPoint } from '../io/rig-measurement.js';
 
 /** Largest |measured − predicted| a team accepts before a caution, deg. */
@@ -58,6 +59,8 @@ export interface RigCompareOptions {
   side?: Side | undefined;
   basis?: RigBasis | undefined;
   tolerance?: RigTolerance | undefined;
+  /** How the cautions write their figures (the reader's unit system, shared/cautions/figures.ts); default SI. */
+  figures?: CautionFigures | undefined;
 }
 
 export interface RigStats {
@@ -139,14 +142,14 @@ function stats(points: RigComparedPoint[], pick: (p: RigComparedPoint) => number
 
 const fmt = (x: number, d = 3) => x.toFixed(d);
 
-function disagreement(code: 'rig-toe-disagreement' | 'rig-camber-disagreement', what: string, s: RigStats, tolerance: number): Caution | null {
+function disagreement(code: 'rig-toe-disagreement' | 'rig-camber-disagreement', what: string, s: RigStats, tolerance: number, figures: CautionFigures): Caution | null {
   const value = Math.abs(s.largestDeg);
   if (!(value >= tolerance)) return null;
   return {
     level: 'warning',
     code,
     message:
-      `Measured ${what} differs from the prediction by up to ${fmt(s.largestDeg)}° (at ${fmt(s.atTravelMm, 1)} mm travel, line ${s.atLine}; RMS ${fmt(s.rmsDeg)}°), ` +
+      `Measured ${what} differs from the prediction by up to ${fmt(s.largestDeg)}° (at ${figures.length(s.atTravelMm, 1)} travel, line ${s.atLine}; RMS ${fmt(s.rmsDeg)}°), ` +
       `at or above the team's rig tolerance of ${fmt(tolerance)}°: check the rig set-up and the built hardpoints against the design before trusting the predicted figures.`,
     value,
     threshold: tolerance,
@@ -241,7 +244,8 @@ export function compareRigMeasurement(corner: Corner, measured: readonly RigPoin
   const predicted = travels.map((t) => ({ travelMm: t, toeDeg: byTravel.get(t)!.toeDeg - shift.pToe, camberDeg: byTravel.get(t)!.camberDeg - shift.pCamber }));
   const toe = stats(points, (p) => p.toe.differenceDeg);
   const camber = hasCamber ? stats(points, (p) => p.camber!.differenceDeg) : null;
-  const cautions = [disagreement('rig-toe-disagreement', 'toe', toe, tolerance.toeDeg), camber ? disagreement('rig-camber-disagreement', 'camber', camber, tolerance.camberDeg) : null].filter(
+  const figures = options.figures ?? SI_FIGURES;
+  const cautions = [disagreement('rig-toe-disagreement', 'toe', toe, tolerance.toeDeg, figures), camber ? disagreement('rig-camber-disagreement', 'camber', camber, tolerance.camberDeg, figures) : null].filter(
     (c): c is Caution => c !== null,
   );
   const result: RigComparison = { basis, rackMm, side, points, predicted, atDesign, toe, camber, tolerance: { ...tolerance }, cautions, safetyNotice: SAFETY_CAUTION };
@@ -276,11 +280,13 @@ export const rigCompareRequestSchema = z.strictObject({
   side: z.enum(['left', 'right']).optional(),
   basis: z.enum(RIG_BASES).optional(),
   tolerance: rigToleranceSchema.optional(),
+  /** The unit system the cautions write their figures in (default SI); the numbers of the answer stay SI. */
+  units: z.enum(['si', 'imperial']).optional(),
 });
 
 /** Validated entry point for the worker pool and the compute API. */
 export function computeRigComparison(input: unknown): RigComparison {
   const req = parseOrThrow(rigCompareRequestSchema, input, 'rig-compare request');
   const points: RigPoint[] = req.points.map((p, i) => ({ travelMm: p.travelMm, toeDeg: p.toeDeg, camberDeg: p.camberDeg ?? null, line: p.line ?? i + 1 }));
-  return compareRigMeasurement(req.corner, points, { rackMm: req.rackMm, side: req.side, basis: req.basis, tolerance: req.tolerance });
+  return compareRigMeasurement(req.corner, points, { rackMm: req.rackMm, side: req.side, basis: req.basis, tolerance: req.tolerance, figures: cautionFigures(figureUnits(req.units ?? 'si')) });
 }

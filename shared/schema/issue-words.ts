@@ -45,14 +45,21 @@ export type FigureWords = (value: number, unit: string) => { value: string; unit
 
 const storedUnit: FigureWords = (v, unit) => ({ value: wordNumber(v), unit });
 
-/** A number with a unit, then the unit, in a message: "25.4 mm", "−1 to 1 deg/deg". */
-const MESSAGE_FIGURE = /([−-]?\d+(?:\.\d+)?(?:e[−-]?\d+)?)(?:(\s+to\s+)([−-]?\d+(?:\.\d+)?(?:e[−-]?\d+)?))?\s+(mm)\b/g;
+/** A number with a unit, then the unit, in a message ("25.4 mm", "−100 to 100 mm"), for the units named. */
+const messageFigure = (units: readonly string[]) =>
+  new RegExp(`([−-]?\\d+(?:\\.\\d+)?(?:e[−-]?\\d+)?)(?:(\\s+to\\s+)([−-]?\\d+(?:\\.\\d+)?(?:e[−-]?\\d+)?))?\\s+(${units.map((u) => u.replace(/[/.]/g, '\\$&')).join('|')})(?![\\w/])`, 'g');
+const LENGTHS = messageFigure(['mm']);
 
-/** A custom message's lengths ("the lowest, 25 mm, …", "−100 to 100 mm") rewritten with `figure`. */
-function figuresIn(message: string, figure: FigureWords): string {
+/**
+ * A message's figures in `units` ("the lowest, 25 mm, …", "−100 to 100 mm"; by default lengths in mm)
+ * rewritten with `figure`: form messages here, and labels that carry a figure (a study output's "over a
+ * 10 mm bump … at 100 km/h") wherever they are shown in the reader's units.
+ */
+export function figuresIn(message: string, figure: FigureWords, units: readonly string[] = ['mm']): string {
   if (figure === storedUnit) return message;
   const num = (t: string) => Number(t.replace(/−/g, '-'));
-  return message.replace(MESSAGE_FIGURE, (_all, a: string, to: string | undefined, b: string | undefined, unit: string) => {
+  const pattern = units.length === 1 && units[0] === 'mm' ? LENGTHS : messageFigure(units);
+  return message.replace(pattern, (_all, a: string, to: string | undefined, b: string | undefined, unit: string) => {
     const fa = figure(num(a), unit);
     if (to === undefined || b === undefined) return `${fa.value} ${fa.unit}`;
     const fb = figure(num(b), unit);

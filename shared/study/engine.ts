@@ -27,6 +27,7 @@ import { GH_NODES, GH_WEIGHTS } from '../ride/toe.js';
 import { ROAD_CLASS_WORDS } from '../ride/road.js';
 import { FIXED_POINTS, type StudySpec } from './schema.js';
 import { DEG_PER_RAD } from '../angles.js';
+import { pointName } from '../io/hardpoint-points.js';
 
 // ---------- outputs ----------
 
@@ -68,6 +69,14 @@ interface PoseDef {
 
 /** Point moves of one corner (left frame), mm, as absolute positions. */
 export type PointMoves = Record<string, Vec3>;
+
+/**
+ * A factor in words: the point's name as the hardpoint table writes it (shared/io/hardpoint-points.ts),
+ * the coordinate, and the side of a tolerance study ("Upper ball joint, z (left)").
+ */
+export function factorLabel(corner: Corner, point: string, axis: 'x' | 'y' | 'z', side: 'left' | 'right' | 'both'): string {
+  return `${pointName(`points.${point}`, corner)}, ${axis}${side === 'both' ? '' : ` (${side})`}`;
+}
 
 /** One factor of the sampled inputs: a tolerance coordinate of one side, or a swept coordinate. */
 export interface FactorInfo {
@@ -259,14 +268,14 @@ export class StudyModel {
   private buildFactors(spec: StudySpec): FactorInfo[] {
     const out: FactorInfo[] = [];
     if (spec.kind === 'sweep') {
-      spec.factors.forEach((f, i) => out.push({ key: `${f.point}.${f.axis}`, label: `${f.point} ${f.axis}`, source: i, side: 'both', axis: f.axis }));
+      spec.factors.forEach((f, i) => out.push({ key: `${f.point}.${f.axis}`, label: factorLabel(this.corner, f.point, f.axis, 'both'), source: i, side: 'both', axis: f.axis }));
       return out;
     }
     const sides: ('left' | 'right')[] = spec.sides === 'both' ? ['left', 'right'] : ['left'];
     for (const side of sides) {
       spec.tolerances.forEach((t, i) => {
         const axes: ('x' | 'y' | 'z')[] = t.axis === 'sphere' ? ['x', 'y', 'z'] : [t.axis];
-        for (const ax of axes) out.push({ key: `${side}.${t.point}.${ax}`, label: `${t.point} ${ax} (${side})`, source: i, side, axis: ax });
+        for (const ax of axes) out.push({ key: `${side}.${t.point}.${ax}`, label: factorLabel(this.corner, t.point, ax, side), source: i, side, axis: ax });
       });
     }
     return out;

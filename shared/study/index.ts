@@ -31,6 +31,7 @@ export {
   planStudy,
   runStudyChunk,
   combineStudyChunks,
+  withFactorLabels,
   variantCorner,
   sampleFactors,
   prepareStudy,

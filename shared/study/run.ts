@@ -9,7 +9,7 @@ import type { Corner, Vec3 } from '../schema/corner.js';
 import { moveCornerPoints } from '../kinematics/index.js';
 import { ENGINE_VERSION } from '../version.js';
 import { ROAD_CLASS_WORDS } from '../ride/road.js';
-import { StudyModel, type FactorInfo, type OutputDefinition, type PointMoves } from './engine.js';
+import { factorLabel, StudyModel, type FactorInfo, type OutputDefinition, type PointMoves } from './engine.js';
 import { permutation, stream, STREAM_LHS, STREAM_SAMPLE } from './random.js';
 import { DEFAULT_CHUNK_SAMPLES, MAX_STUDY_SAMPLES, studySpecSchema, type StudySpec, type SweepSpec } from './schema.js';
 import { histogram, leastSquares, paretoFront, summarise, wilson, type Histogram, type Summary } from './stats.js';
@@ -281,6 +281,26 @@ export interface StudyResult {
     pareto: VariantPoint[];
     /** Up to 2000 variants spread evenly over the index, for the scatter behind the front. */
     scatter: VariantPoint[];
+  };
+}
+
+/**
+ * A stored result with its factors and tornado bars named as the engine names them now (`factorLabel`:
+ * the point's name and the coordinate). Results stored before carry the point keys ("upperOuter z (left)").
+ */
+export function withFactorLabels(result: StudyResult, corner: Corner): StudyResult {
+  const labels = new Map(
+    result.factors.map((f) => {
+      const parts = f.key.split('.');
+      const point = (f.side === 'both' ? parts[0] : parts[1]) ?? f.key;
+      return [f.key, factorLabel(corner, point, f.axis, f.side)] as const;
+    }),
+  );
+  const named = (key: string, label: string) => labels.get(key) ?? label;
+  return {
+    ...result,
+    factors: result.factors.map((f) => ({ ...f, label: named(f.key, f.label) })),
+    outputs: result.outputs.map((o) => (o.tornado ? { ...o, tornado: o.tornado.map((t) => ({ ...t, label: named(t.factor, t.label) })) } : o)),
   };
 }
 

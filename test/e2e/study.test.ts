@@ -69,7 +69,9 @@ describe('Tolerance study in Chromium', () => {
     expect(percentiles).toMatch(/P5 -?[\d.]+ · P50 -?[\d.]+ · P95 -?[\d.]+ deg\/deg/);
     const tornado = page.getByTestId('study-tornado');
     await tornado.getByText('Which tolerances matter: Roll steer ε').first().waitFor();
-    expect(await tornado.innerText()).toContain('tieRodInner z');
+    // Each bar names its point as the hardpoint table does (the chart's text alternative carries the whole label).
+    expect(await tornado.textContent()).toContain('z left: Tie rod, inner end (rack)');
+    expect(await tornado.textContent()).not.toContain('tieRodInner');
     await chooseOption(page, 'Output shown in the charts', 'Bump-steer gradient');
     await page.getByTestId('study-histogram').getByText('Distribution: Bump-steer gradient').first().waitFor();
     await page.getByRole('table', { name: 'Caution thresholds reached' }).waitFor();
@@ -80,6 +82,8 @@ describe('Tolerance study in Chromium', () => {
     const csv = readFileSync((await download.path())!, 'utf8');
     expect(csv).toContain('rollSteerCoefficient');
     expect(csv).toContain('standardized regression coefficient');
+    // In the user's units (the demo engineer's account is SI), with the unit in every bin row.
+    expect(csv).toContain('output,unit,bin from,bin to,count (samples)');
     expect(csv).toContain('Verify on a kinematics rig');
 
     // The team's list shows it completed.

@@ -249,8 +249,8 @@ describe('configuration review record', () => {
     expect(page.text).toContain(expected);
     expect(page.text).toContain(REASON);
     expect(page.text).toContain('Verify on a kinematics rig');
-    // The filed record stays in SI and says so (issue 15 §2).
-    expect(page.text).toContain('SI (mm, kg, N, deg) throughout, as filed');
+    // The viewer's account is SI: the record says so (issue 15 §2).
+    expect(page.text).toContain('<dd data-units="si">SI (mm, kg, N, km/h; angles in deg)');
     expect(page.text).not.toContain('<script');
 
     const pdf = await viewer
@@ -267,5 +267,34 @@ describe('configuration review record', () => {
     const bytes = pdf.body as Buffer;
     expect(bytes.subarray(0, 5).toString('latin1')).toBe('%PDF-');
     expect(bytes.length).toBeGreaterThan(10_000);
+  });
+
+  it("follows the reader's unit choice: ?units=imperial, else the account setting; hardpoints converted at 25.4 mm per inch (NIST SP 811)", async () => {
+    const id = await configurationIn('in_review', 'Record in inches');
+    const rec = (await viewer.get(`${cfg(id)}/record`).expect(200)).body;
+    const upperOuterMm = rec.inputs.frontCorner.points.upperOuter as [number, number, number];
+    const page = (await viewer.get(`${cfg(id)}/record.html`).query({ units: 'imperial' }).expect(200)).text;
+    expect(page).toContain('<dd data-units="imperial">Inch-pound');
+    expect(page).toContain('Wheel travel, in (bump +)');
+    expect(page).toContain('Bump steer, deg/in');
+    // Hardpoints to 0.1 mm in SI are written to 0.01 in (the same resolution); 1 in = 25.4 mm exactly (NIST SP 811, Appendix B).
+    const row = /<th scope="row">upper outer<\/th><td class="num">([^<]+)<\/td><td>in \(x, y, z\)<\/td>/.exec(page);
+    expect(row, 'the upper outer point in inches').not.toBeNull();
+    const inches = row![1]!.split(', ').map((v) => Number(v.replace('−', '-')));
+    inches.forEach((v, i) => expect(Math.abs(v - upperOuterMm[i]! / 25.4)).toBeLessThanOrEqual(0.005));
+    // Caution figures in the reader's units: no millimetre figure left in the cautions section.
+    const cautions = page.slice(page.indexOf('3. Bump cost and cautions'), page.indexOf('4. Critical cautions'));
+    expect(cautions).not.toMatch(/\d mm\b|<td class="num">[^<]* mm<\/td>/);
+
+    await viewer.patch('/api/auth/me').send({ displayUnits: 'imperial' }).expect(200);
+    try {
+      expect((await viewer.get(`${cfg(id)}/record.html`).expect(200)).text).toContain('data-units="imperial"');
+      expect((await viewer.get(`${cfg(id)}/record.html`).query({ units: 'si' }).expect(200)).text).toContain('data-units="si"');
+    } finally {
+      await viewer.patch('/api/auth/me').send({ displayUnits: 'si' }).expect(200);
+    }
+    const bad = await viewer.get(`${cfg(id)}/record.html`).query({ units: 'cubits' });
+    expectError(bad, 400, 'invalid_input');
+    expect(JSON.stringify(bad.body)).toContain('units');
   });
 });

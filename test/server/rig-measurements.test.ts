@@ -208,6 +208,18 @@ describe('permissions, other teams and the tolerance', () => {
     const first = await viewer.get(`${base()}/rig-measurements/${measurementId}`).expect(200);
     expect(first.body.comparison.cautions.map((c: { code: string }) => c.code)).toEqual(['rig-toe-disagreement']);
     expect(first.body.comparison.cautions[0]).toMatchObject({ level: 'warning', threshold: 0.1, unit: 'deg' });
+    // The caution's travel figure follows the reader's unit choice (issue 15 §2): 1 in = 25.4 mm exactly (NIST SP 811, Appendix B);
+    // 0.1 mm in SI is written to 0.01 in.
+    const atMm = first.body.comparison.toe.atTravelMm as number;
+    expect(first.body.comparison.cautions[0].message).toContain(`(at ${atMm.toFixed(1)} mm travel`);
+    await viewer.patch('/api/auth/me').send({ displayUnits: 'imperial' }).expect(200);
+    try {
+      const inches = await viewer.get(`${base()}/rig-measurements/${measurementId}`).expect(200);
+      expect(inches.body.comparison.cautions[0].message).toContain(`(at ${(atMm / 25.4).toFixed(2)} in travel`);
+      expect(inches.body.comparison.toe.atTravelMm).toBe(atMm);
+    } finally {
+      await viewer.patch('/api/auth/me').send({ displayUnits: 'si' }).expect(200);
+    }
     expectError(await engineer.put(`${base()}/rig-tolerance`).send({ toeDeg: 0.2, camberDeg: 0.5 }), 403, 'forbidden');
     expectError(await owner.put(`${base()}/rig-tolerance`).send({ toeDeg: -1, camberDeg: 0.5 }), 400, 'invalid_input');
     expectError(await owner.put(`${base()}/rig-tolerance`).send({ toeDeg: 0.2 }), 400, 'invalid_input');

@@ -35,7 +35,8 @@ import {
   TransitionRow,
 } from './configurations-api';
 import { RefOption, ReviewComments } from './review-comments';
-import { ActionSpec, actionsFor, CHART_REFS, type DifferenceGroup, differenceGroups, inputWords, type KeyFigure, keyFigures, problemText, resultWords, STATUS_WORDS } from './review-words';
+import { ActionSpec, actionsFor, CHART_REFS, type DifferenceGroup, differenceGroups, type KeyFigure, keyFigures, problemText, STATUS_WORDS } from './review-words';
+import { inputWords, resultWords } from '../../../../shared/io/result-words';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { displayDecimals, inDisplayUnits, type QuantityKind, unitLabel } from '../../core/format/quantities';

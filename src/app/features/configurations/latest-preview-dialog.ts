@@ -3,7 +3,8 @@ import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import type { LatestPreviewAnswer } from './configurations-api';
-import { differenceGroups, inputWords, resultWords } from './review-words';
+import { differenceGroups } from './review-words';
+import { inputWords, resultWords } from '../../../../shared/io/result-words';
 
 export interface LatestPreviewDialogData {
   readonly configurationName: string;

@@ -8,6 +8,9 @@ import { previewRigCsv, readRigCsv, type RigMapping } from '../../../../shared/i
 import { compareRigMeasurement, DEFAULT_RIG_TOLERANCE } from '../../../../shared/rig/compare';
 import { RigMeasurementsPanel } from './rig-measurements-panel';
 import { settle } from '../../../testing/settle';
+import { signal } from '@angular/core';
+import type { DisplayUnits } from '../../core/api-types';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 
 const TEAM = '/api/teams/team-1';
 const corner = exampleCorners.fsFrontWishbone;
@@ -18,9 +21,14 @@ function engineFile(offset: number): string {
   return ['Wheel travel (mm),Toe (deg),Camber (deg)', ...s.rows.map((r) => `${r.travelMm},${r.toeDeg + offset},${r.camberDeg}`)].join('\n');
 }
 
-function setUp(inputs: Record<string, unknown> = { configurationId: 'config-1' }) {
+function setUp(inputs: Record<string, unknown> = { configurationId: 'config-1' }, units = signal<DisplayUnits>('si')) {
   TestBed.configureTestingModule({
-    providers: [provideHttpClient(), provideHttpClientTesting(), { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } }],
+    providers: [
+      provideHttpClient(),
+      provideHttpClientTesting(),
+      { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+      { provide: DISPLAY_UNITS, useValue: units },
+    ],
   });
   const fixture = TestBed.createComponent(RigMeasurementsPanel);
   fixture.componentRef.setInput('teamId', 'team-1');
@@ -145,6 +153,30 @@ describe('RigMeasurementsPanel', () => {
     expect(measured.querySelectorAll('.rw-series-marker[data-shape=square]').length).toBe(read.points.length);
     expect(el.querySelector('rw-safety-caution')).not.toBeNull();
     expect(el.querySelector('.rw-rig-preview')).toBeNull();
+    http.verify();
+  });
+
+  it("draws the travel axes and writes the travel figures in the user's length unit (1 in = 25.4 mm exactly, NIST SP 811)", async () => {
+    const units = signal<DisplayUnits>('imperial');
+    const { fixture, el, http } = setUp({ configurationId: 'config-1' }, units);
+    await answerStart(fixture, http, [summary('m-1')]);
+    button(el, 'Show overlay').click();
+    const text = engineFile(0.12);
+    const mapping: RigMapping = { hasHeader: true, travelColumn: 0, toeColumn: 1, camberColumn: 2, travelUnit: 'mm', toeUnit: 'deg', travelSign: 'bump-positive', toeSign: 'toe-in-positive' };
+    const read = readRigCsv(text, mapping);
+    if (!read.ok) throw new Error(read.errors.join('; '));
+    const comparison = compareRigMeasurement(corner, read.points, { basis: 'absolute' });
+    http.expectOne(`${TEAM}/rig-measurements/m-1`).flush({ ...summary('m-1'), mapping, points: read.points, comparison, engineVersion: 'test' });
+    fixture.detectChanges();
+    const toeChart = el.querySelector('[data-testid=rig-toe-chart]')!;
+    // The measured travel runs −25 to 25 mm: ±0.9843 in (25 / 25.4, to the chart's 4 significant figures).
+    expect(toeChart.querySelector('desc')!.textContent).toContain('over Wheel travel, + bump -0.9843 to 0.9843 in');
+    expect(toeChart.textContent).not.toMatch(/\bmm\b/);
+    expect(el.querySelector('.rw-rig-figures thead')!.textContent).toContain('At travel (in)');
+    units.set('si');
+    fixture.detectChanges();
+    expect(el.querySelector('[data-testid=rig-toe-chart] desc')!.textContent).toContain('over Wheel travel, + bump -25 to 25 mm');
+    expect(el.querySelector('.rw-rig-figures thead')!.textContent).toContain('At travel (mm)');
     http.verify();
   });
 

@@ -30,7 +30,8 @@ import { loadState, type LoadState } from '../../core/http/load-state';
 import { CautionList } from '../intent/caution-list';
 import { SafetyCaution } from '../safety-caution';
 import { RigApi, type RigMeasurementDetail, type RigMeasurementSummary, type RigPreviewAnswer, type RigTarget } from './rig-api';
-import { NumPipe } from '../../core/format/num-pipe';
+import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
+import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
 import type { AxleName } from '../../../../shared/schema/axle';
 
 /** Where the upload of a new file stands. */
@@ -76,6 +77,9 @@ const UNIT_WORDS: Readonly<Record<string, string>> = {
 export class RigMeasurementsPanel {
   private readonly api = inject(RigApi);
   private readonly dialog = inject(MatDialog);
+  /** The user's unit system: the charts' travel axes, the travel and rack figures follow it (angles are deg in both). */
+  private readonly units = inject(DISPLAY_UNITS);
+  protected readonly lengthUnit = computed(() => unitLabel('length', this.units()));
 
   readonly teamId = input.required<string>();
   /** Compare with this configuration (its current revision); the axle is chosen in the panel, starting from `axle`. */
@@ -238,11 +242,13 @@ export class RigMeasurementsPanel {
   private overlay(pick: 'toe' | 'camber'): LineSeries[] {
     const c = this.comparison();
     if (!c || (pick === 'camber' && !c.camber)) return [];
+    const units = this.units();
+    const travel = (mm: number) => inDisplayUnits(mm, 'length', units);
     const measured = c.points
-      .map((p) => ({ x: p.travelMm, y: pick === 'toe' ? p.toe.measuredDeg : p.camber!.measuredDeg }))
+      .map((p) => ({ x: travel(p.travelMm), y: pick === 'toe' ? p.toe.measuredDeg : p.camber!.measuredDeg }))
       .sort((a, b) => a.x - b.x);
     return [
-      { name: `Predicted ${pick}`, points: c.predicted.map((p) => ({ x: p.travelMm, y: pick === 'toe' ? p.toeDeg : p.camberDeg })) },
+      { name: `Predicted ${pick}`, points: c.predicted.map((p) => ({ x: travel(p.travelMm), y: pick === 'toe' ? p.toeDeg : p.camberDeg })) },
       { name: `Measured ${pick}`, points: measured, style: 'points' },
     ];
   }

@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import type { StudyKeyFigure } from '../../../../shared/study/index';
 import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
-import { studyFormat, studyUnit } from './study-units';
+import { studyFormat, studyLabel, studyUnit } from '../../../../shared/study/units';
 
 /** P5 / P50 / P95 of a study's key figures (an attached study on a configuration), in the user's units. */
 @Component({
@@ -13,7 +13,7 @@ import { studyFormat, studyUnit } from './study-units';
       <tbody>
         @for (f of figures(); track f.key) {
           @let format = studyFormat(f.unit);
-          <tr><th scope="row">{{ f.label }} ({{ studyUnit(f.unit, units()) }})</th><td>{{ f.p5 | num: format }}</td><td>{{ f.p50 | num: format }}</td><td>{{ f.p95 | num: format }}</td></tr>
+          <tr><th scope="row">{{ words(f.label) }} ({{ studyUnit(f.unit, units()) }})</th><td>{{ f.p5 | num: format }}</td><td>{{ f.p50 | num: format }}</td><td>{{ f.p95 | num: format }}</td></tr>
         }
       </tbody>
     </table>
@@ -26,4 +26,6 @@ export class StudyKeyFiguresTable {
   protected readonly units = inject(DISPLAY_UNITS);
   protected readonly studyFormat = studyFormat;
   protected readonly studyUnit = studyUnit;
+  /** A key figure's label in the user's units (the figures it carries, such as the bump height). */
+  protected readonly words = (label: string) => studyLabel(label, this.units());
 }

@@ -3,7 +3,7 @@ import { rxResource } from '@angular/core/rxjs-interop';
 import { loadState } from '../../core/http/load-state';
 import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
 import { LocalTimePipe } from '../../core/time/local-time';
-import { studyFormat, studyUnit } from './study-units';
+import { studyFormat, studyUnit } from '../../../../shared/study/units';
 import { StudiesApi, type ProgrammeStudies as ProgrammeStudiesView } from './studies-api';
 
 /**

@@ -4,6 +4,7 @@ import { Observable } from 'rxjs';
 import type { StudyRequest } from '../../../../shared/study/index';
 import type { AttachedStudy, ProgrammeStudies, StudyStatus, StudyView } from '../../../../shared/api/studies';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
+import type { DisplayUnits } from '../../core/api-types';
 
 // The answers' types are the server's (shared/api/studies.ts).
 export type { AttachedStudy, ProgrammeStudies, StudyStatus, StudyView } from '../../../../shared/api/studies';
@@ -36,8 +37,9 @@ export class StudiesApi {
     return this.http.delete<{ study: StudyView }>(this.base(teamId, id), inline());
   }
 
-  csv(teamId: string, id: string): Observable<string> {
-    return this.http.get(`${this.base(teamId, id)}/csv`, { ...inline(), responseType: 'text' });
+  /** The result as CSV in `units` (the user's display choice: figures converted, every numeric column naming its unit). */
+  csv(teamId: string, id: string, units: DisplayUnits): Observable<string> {
+    return this.http.get(`${this.base(teamId, id)}/csv`, { ...inline(), params: { units }, responseType: 'text' });
   }
 
   openVariant(teamId: string, id: string, index: number): Observable<{ proposal: { id: string } }> {

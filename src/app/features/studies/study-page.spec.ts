@@ -16,7 +16,8 @@ function output(key: string, label: string, unit: string, p: [number, number, nu
     key, label, unit, nominal: p[1], p5: p[0], p50: p[1], p95: p[2], mean: p[1], sd: (p[2] - p[0]) / 3.29, min: p[0], max: p[2], n: 600, r2: 0.97,
     histogram: { from: p[0], width: (p[2] - p[0]) / 4, counts: [10, 200, 250, 130] },
     breaches,
-    tornado: [{ factor: 'left.tieRodInner.z', src: 0.9 }, { factor: 'right.upperOuter.sphere', src: -0.2 }],
+    // Named as the server names them (shared/study/engine.ts factorLabel: the hardpoint table's point name, coordinate, side).
+    tornado: [{ factor: 'left.tieRodInner.z', label: 'Tie rod, inner end (rack), z (left)', src: 0.9 }, { factor: 'right.upperOuter.x', label: 'Upper ball joint, x (right)', src: -0.2 }],
   };
 }
 
@@ -34,6 +35,7 @@ const STUDY = {
       output('rollSteerCoefficient', 'Roll steer ε', 'deg/deg', [0.0211, 0.0252, 0.0297]),
       output('bumpSteerDegPerM', 'Bump-steer gradient', 'deg/m', [-3.12, -2.5, -1.85], [{ code: 'bump-steer', level: 'warning', absolute: true, threshold: 3, probability: 0.04, interval: [0.03, 0.06] }]),
       output('bumpScrubMm', 'Contact-patch scrub over that bump', 'mm', [2.54, 5.08, 7.62]),
+      output('bumpToeChangeDeg', 'Toe change over a 25.4 mm single-wheel bump (bumpy circuit)', 'deg', [0.01, 0.02, 0.03]),
     ],
   },
 } as unknown as StudyView;
@@ -85,8 +87,45 @@ describe('StudyPage', () => {
     expect(root.querySelector('table[aria-label="Caution thresholds reached"]')!.textContent).toContain('|value| ≥ 0.0762 deg/in');
     expect(root.querySelector('[data-testid="study-histogram"]')!.textContent).toContain('Distribution: Bump-steer gradient (deg/in)');
     expect(root.textContent).toContain('(1 in single-wheel bump)');
+    // A label's own figure follows too: 25.4 mm is 1 in.
+    expect(summary('Toe change over a 1 in single-wheel bump (bumpy circuit)')[0]!.textContent!.trim()).toBe('deg');
+    expect(root.textContent).not.toContain('25.4 mm');
     // ε has no inch/pound form: it stays in deg/deg.
     expect(summary('Roll steer ε')[0]!.textContent!.trim()).toBe('deg/deg');
     expect(summary('Roll steer ε')[2]!.textContent!.trim()).toBe('0.0211');
+  });
+
+  it('names each tornado bar by its point as the hardpoint table does, with the coordinate and side, never the point key', async () => {
+    const { root } = await open();
+    const tornado = root.querySelector('[data-testid="study-tornado"]')!.textContent!;
+    // The coordinate and side first, so a name the chart cuts short still tells the bars apart.
+    expect(tornado).toContain('z left: Tie rod, inner end (rack)');
+    expect(tornado).toContain('x right: Upper ball joint');
+    expect(tornado).not.toMatch(/tieRodInner|upperOuter/);
+  });
+
+  it("asks the server for the CSV in the user's units", async () => {
+    const created = vi.fn(() => 'blob:study');
+    const original = { create: URL.createObjectURL, revoke: URL.revokeObjectURL };
+    URL.createObjectURL = created;
+    URL.revokeObjectURL = vi.fn();
+    try {
+      const { harness, root } = await open();
+      const exportButton = () => [...root.querySelectorAll('button')].find((b) => b.textContent!.includes('Export CSV'))!;
+      exportButton().click();
+      await settle();
+      backend.expectOne((r) => r.url === `${T}/studies/s1/csv` && r.params.get('units') === 'si').flush('output,unit\r\n');
+      await settle();
+      units.set('imperial');
+      harness.detectChanges();
+      exportButton().click();
+      await settle();
+      backend.expectOne((r) => r.url === `${T}/studies/s1/csv` && r.params.get('units') === 'imperial').flush('output,unit\r\n');
+      await settle();
+      expect(created).toHaveBeenCalledTimes(2);
+    } finally {
+      URL.createObjectURL = original.create;
+      URL.revokeObjectURL = original.revoke;
+    }
   });
 });

@@ -19,7 +19,7 @@ import { etaWords, STATUS_WORDS, StudiesApi, type StudyView } from './studies-ap
 import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
 import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
-import { studyFormat, studyUnit, studyValue } from './study-units';
+import { studyFormat, studyLabel, studyUnit, studyValue } from '../../../../shared/study/units';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { EMPTY, expand, map, switchMap, timer } from 'rxjs';
 import { loadState, resourceProblem } from '../../core/http/load-state';
@@ -76,6 +76,8 @@ export class StudyPage {
   protected readonly studyFormat = studyFormat;
   protected readonly studyUnit = studyUnit;
   protected readonly lengthUnit = computed(() => unitLabel('length', this.units()));
+  /** A study label in the user's units (the figures an output's label carries: bump height, rack, speed, corner radius). */
+  protected readonly words = (label: string) => studyLabel(label, this.units());
 
   protected readonly study = computed(() => {
     const s = this.state();
@@ -107,11 +109,15 @@ export class StudyPage {
     return h.counts.map((c, i) => ({ label: formatNumber(studyValue(h.from + (i + 0.5) * h.width, o.unit, units), 3), values: [c] }));
   });
 
-  /** The ten largest, labelled short: point, coordinate, L or R. */
+  /**
+   * The ten largest, each named as the hardpoint table names its point, with the coordinate and the side.
+   * The chart turns long names and cuts them to fit, so the coordinate and side come first
+   * ("z left: Tie rod, inner end (rack)" for "Tie rod, inner end (rack), z (left)"): bars stay told apart.
+   */
   protected readonly tornado = computed<BarGroup[]>(() =>
     (this.output()?.tornado ?? []).slice(0, 10).map((t) => {
-      const [side, point, axis] = t.factor.split('.');
-      return { label: `${point} ${axis} ${side === 'right' ? 'R' : 'L'}`, values: [t.src] };
+      const m = /^(.*), ([xyz])(?: \((left|right)\))?$/.exec(t.label);
+      return { label: m ? `${m[2]}${m[3] ? ` ${m[3]}` : ''}: ${m[1]}` : t.label, values: [t.src] };
     }),
   );
 
@@ -132,7 +138,7 @@ export class StudyPage {
     const sw = r?.sweep;
     if (!r || !sw) return { label: 'Bump cost', unit: '' };
     return sw.costOutput === 'bumpYawDisturbancePct'
-      ? { label: `Bump cost (yaw-rate disturbance, ${r.bumpCost.roadInWords})`, unit: '%' }
+      ? { label: `Bump cost (yaw-rate disturbance, ${studyLabel(r.bumpCost.roadInWords, this.units())})`, unit: '%' }
       : { label: 'Bump cost (toe change over the bump)', unit: 'deg' };
   });
 
@@ -143,8 +149,9 @@ export class StudyPage {
     const o = this.output();
     if (!sw || !o) return [];
     const units = this.units();
+    const names = new Map(this.result()?.factors.map((f) => [f.key, f.label]));
     return sw.mainEffects.map((m) => ({
-      name: m.factor,
+      name: names.get(m.factor) ?? m.factor,
       points: m.at.flatMap((x, i) => {
         const y = m.means[o.key]?.[i];
         return y === null || y === undefined ? [] : [{ x: inDisplayUnits(x - m.at[0]!, 'length', units), y: studyValue(y, o.unit, units) }];
@@ -183,7 +190,7 @@ export class StudyPage {
   protected async exportCsv(): Promise<void> {
     this.actionError.set(null);
     try {
-      const text = await firstValueFrom(this.api.csv(this.teamId(), this.studyId()));
+      const text = await firstValueFrom(this.api.csv(this.teamId(), this.studyId(), this.units()));
       downloadText(text, fileNameFor(this.study()?.label || 'rollwise-study', 'csv'));
     } catch (error) {
       this.actionError.set(apiProblem(error).message);
