@@ -69,7 +69,7 @@ export function workerOptions(config: Config, logger?: ReturnType<typeof createL
  * thread, so every thread that exists now is reniced (the main thread and V8's and libuv's helpers); threads
  * started later (the compute pools', which add their own increment) inherit it. Returns the main thread's nice.
  */
-export function lowerPriority(increment: number): number {
+function lowerPriority(increment: number): number {
   if (increment <= 0) return getPriority();
   let tids: number[];
   try {
