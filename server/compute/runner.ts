@@ -10,8 +10,9 @@
  * - `studySlots` study lanes (queue `study-combine` first, then
  *   `study-chunk`, whose priority −chunkIndex makes studies take turns),
  *   each with a thread of its own (warmed up at start). A study lane keeps
- *   its thread busy: while a chunk computes it takes and checks the next
- *   job, and the finished chunk lands while the next one computes.
+ *   its thread busy: shortly before a chunk is expected to finish it takes
+ *   and checks the next job, and the finished chunk lands while the next
+ *   one computes.
  * A lane that finds work asks again at once; an idle lane sleeps until a
  * NOTIFY on `rollwise_queue` or `pollMs`.
  *
