@@ -74,6 +74,8 @@ export interface Config {
   workerStudySlots: number;
   /** A worker process starts its threads and has each study thread solve a small built-in study before taking jobs. */
   workerWarmStart: boolean;
+  /** A worker process (`npm run worker`) lowers its own CPU priority by this much (Linux nice, 0–19) at start, every thread. */
+  workerNice: number;
   /** Idle workers look for jobs this often (a NOTIFY wakes them sooner). */
   queuePollMs: number;
   /** pg-boss maintenance interval: how soon a dead worker's job is noticed after its expiry. */
@@ -180,6 +182,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     workerStudySlots: int(env, 'WORKER_STUDY_SLOTS', 1, 0),
     // The warm-up is a throughput matter (the first chunk runs compiled code); tests start many workers.
     workerWarmStart: flag(env, 'WORKER_WARM_START', !test),
+    // Where workers share cores with the API (one machine), requests run first and studies take the cycles left.
+    workerNice: Math.min(19, int(env, 'WORKER_NICE', 10, 0)),
     queuePollMs: int(env, 'QUEUE_POLL_MS', test ? 1000 : 2000, 50),
     queueMaintenanceSeconds: int(env, 'QUEUE_MAINTENANCE_SECONDS', test ? 1 : 30, 1),
     studyChunkExpireSeconds: int(env, 'STUDY_CHUNK_EXPIRE_SECONDS', 120, 1),

@@ -7,6 +7,8 @@
  * finishes the running ones (up to 30 s) and exits; a worker killed outright
  * loses nothing, its job goes to another worker after the job's expiry.
  */
+import { readdirSync } from 'node:fs';
+import { getPriority, setPriority } from 'node:os';
 import { pathToFileURL } from 'node:url';
 import { loadConfig, type Config } from './config.js';
 import { createDatabase } from './db/client.js';
@@ -62,26 +64,57 @@ export function workerOptions(config: Config, logger?: ReturnType<typeof createL
   };
 }
 
+/**
+ * Lowers this process's CPU priority by `increment` (nice, capped at 19). On Linux a nice value belongs to a
+ * thread, so every thread that exists now is reniced (the main thread and V8's and libuv's helpers); threads
+ * started later (the compute pools', which add their own increment) inherit it. Returns the main thread's nice.
+ */
+function lowerPriority(increment: number): number {
+  if (increment <= 0) return getPriority();
+  let tids: number[];
+  try {
+    tids = readdirSync('/proc/self/task').map(Number);
+  } catch {
+    tids = [0]; // No /proc: the calling thread (the process, elsewhere).
+  }
+  for (const tid of tids) {
+    try {
+      setPriority(tid, Math.min(19, getPriority(tid) + increment));
+    } catch {
+      // A helper thread that ended meanwhile.
+    }
+  }
+  return getPriority();
+}
+
 const runDirectly = process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href;
 if (runDirectly) {
-  startWorker().then(
-    (w) => {
-      console.log(`Rollwise queue worker ${w.runner.workerName} is running`);
-      let stopping = false;
-      const stop = () => {
-        if (stopping) return;
-        stopping = true;
-        w.close().then(
-          () => process.exit(0),
-          () => process.exit(1),
-        );
-      };
-      process.once('SIGINT', stop);
-      process.once('SIGTERM', stop);
-    },
-    (err: unknown) => {
-      console.error('The Rollwise queue worker could not start:', err instanceof Error ? err.message : err);
-      process.exit(1);
-    },
-  );
+  let nice = 0;
+  Promise.resolve()
+    .then(() => {
+      const config = loadConfig(process.env);
+      // Before any pool starts: the API on the same cores answers first (docs/operations.md, "CPU priority").
+      nice = lowerPriority(config.workerNice);
+      return startWorker(config);
+    })
+    .then(
+      (w) => {
+        console.log(`Rollwise queue worker ${w.runner.workerName} is running (nice ${nice})`);
+        let stopping = false;
+        const stop = () => {
+          if (stopping) return;
+          stopping = true;
+          w.close().then(
+            () => process.exit(0),
+            () => process.exit(1),
+          );
+        };
+        process.once('SIGINT', stop);
+        process.once('SIGTERM', stop);
+      },
+      (err: unknown) => {
+        console.error('The Rollwise queue worker could not start:', err instanceof Error ? err.message : err);
+        process.exit(1);
+      },
+    );
 }

@@ -10,8 +10,9 @@
  * - `studySlots` study lanes (queue `study-combine` first, then
  *   `study-chunk`, whose priority −chunkIndex makes studies take turns),
  *   each with a thread of its own (warmed up at start). A study lane keeps
- *   its thread busy: while a chunk computes it takes and checks the next
- *   job, and the finished chunk lands while the next one computes.
+ *   its thread busy: shortly before a chunk is expected to finish it takes
+ *   and checks the next job, and the finished chunk lands while the next
+ *   one computes.
  * A lane that finds work asks again at once; an idle lane sleeps until a
  * NOTIFY on `rollwise_queue` or `pollMs`.
  *
@@ -65,6 +66,17 @@ export interface RunnerContext {
   /** An AbortSignal that fires when `cancel:<key>` is notified (until `release`). */
   watchCancel(key: string): { signal: AbortSignal; release(): void };
 }
+
+/** A job a study lane took; a chunk job with the outcome of its check. */
+interface Taken {
+  name: string;
+  job: PgBoss.JobWithMetadata<QueueJobData>;
+  work?: ChunkWork | null;
+  beginError?: { err: unknown };
+}
+
+/** A study lane takes its next job at least this long before its thread is expected to be free. */
+const AHEAD_LEAD_MS = 50;
 
 export type QueueHandler = (ctx: RunnerContext, job: PgBoss.JobWithMetadata<QueueJobData>) => Promise<void>;
 
@@ -194,25 +206,49 @@ export class QueueRunner {
     return undefined;
   }
 
+  /** The first job waiting on `names`; a chunk job comes checked (beginChunk: `work`, null when there is nothing to do). */
+  private async take(names: string[]): Promise<Taken | undefined> {
+    const next = await this.fetchFirst(names);
+    if (!next || next.name !== QUEUES.studyChunk) return next;
+    this.stats.jobs++;
+    try {
+      return { ...next, work: await beginChunk(this.ctx, next.job) };
+    } catch (err) {
+      return { ...next, beginError: { err } };
+    }
+  }
+
   /**
    * A study lane: combine jobs first, then chunks. A chunk runs in three
    * phases (study-handlers.ts): check, compute on the lane's thread, land.
-   * While a chunk computes, the lane takes and checks the next job; the
-   * computed chunk lands while the next one computes (one landing at a time),
-   * so the thread does not wait for the database between chunks. A job taken
-   * ahead is run even when the worker is stopping (it would otherwise wait
-   * for its expiry).
+   * Shortly before a chunk is expected to finish (the lane's last compute
+   * time less a lead of twice the last take, at least AHEAD_LEAD_MS), the
+   * lane takes and checks the next job, and the computed chunk lands while
+   * the next one computes (one landing at a time): the thread does not wait
+   * for the database between chunks, and a job taken ahead waits only that
+   * lead for its thread, so at a study's end the last chunks are not held by
+   * one busy lane while another lane is idle. A job taken ahead is run even
+   * when the worker is stopping (it would otherwise wait for its expiry).
    */
   private async studyLane(): Promise<void> {
     const names = [QUEUES.studyCombine, QUEUES.studyChunk];
-    let ahead: Promise<{ name: string; job: PgBoss.JobWithMetadata<QueueJobData> } | undefined> | undefined;
+    let ahead: Promise<Taken | undefined> | undefined;
     let landing: Promise<void> = Promise.resolve();
     // The wake count when the fetch that `ahead` holds began: a job queued after that (a combine job sent by
     // this lane's own landing, say) has woken the lane by the time it would sleep, so it looks again at once.
     let seen = this.wakeSeq;
+    // This lane's last chunk compute and job take, in ms: when to take the next job.
+    let lastComputeMs = 0;
+    let lastTakeMs = 0;
+    const takeAhead = () => {
+      if (ahead || this.stopping) return;
+      seen = this.wakeSeq;
+      const t0 = performance.now();
+      ahead = this.take(names).finally(() => (lastTakeMs = performance.now() - t0));
+    };
     while (!this.stopping || ahead) {
       if (!ahead) seen = this.wakeSeq;
-      const next = await (ahead ?? this.fetchFirst(names));
+      const next = await (ahead ?? this.take(names));
       ahead = undefined;
       if (!next) {
         await landing;
@@ -226,34 +262,32 @@ export class QueueRunner {
         if (handler) await this.runOne(name, handler, job);
         continue;
       }
-      this.stats.jobs++;
-      let work: ChunkWork | null;
-      try {
-        work = await beginChunk(this.ctx, job);
-      } catch (err) {
-        await this.failJob(name, job, err);
+      if (next.beginError) {
+        await this.failJob(name, job, next.beginError.err);
         continue;
       }
+      const work = next.work;
       if (!work) {
         await this.completeJob(name, job);
         continue;
       }
       const computing = computeChunk(this.ctx, work);
-      // Take the next job while this one computes (the catch keeps an early rejection from going unhandled).
-      if (!this.stopping) {
-        seen = this.wakeSeq;
-        ahead = this.fetchFirst(names);
-      }
+      // Take the next job while this one computes, timed to be ready when the thread is free.
+      const lead = Math.max(AHEAD_LEAD_MS, 2 * lastTakeMs);
+      const timer = lastComputeMs > lead ? setTimeout(takeAhead, lastComputeMs - lead) : undefined;
+      if (!timer) takeAhead();
       let done: Awaited<ReturnType<typeof computeChunk>>;
       try {
         done = await computing;
       } catch (err) {
         await this.failJob(name, job, err);
         continue;
+      } finally {
+        clearTimeout(timer);
       }
+      if (done) lastComputeMs = done.computeMs;
       await landing;
-      const w = work;
-      landing = (done ? landChunk(this.ctx, w, done.chunk, done.computeMs) : Promise.resolve()).then(
+      landing = (done ? landChunk(this.ctx, work, done.chunk, done.computeMs) : Promise.resolve()).then(
         () => this.completeJob(name, job),
         (err: unknown) => this.failJob(name, job, err),
       );

@@ -8,7 +8,6 @@
  * combined result is the same for a given seed.
  */
 import { InputError, SolveError } from '../../shared/errors.js';
-import type { StudyChunkResult, StudyResult } from '../../shared/study/index.js';
 import { toErrorBody } from '../http/errors.js';
 import { cancelStudyChunks } from '../services/studies.js';
 import { QUEUES, bossDb, inTransaction, rollback, type QueueJobData } from './queue.js';
@@ -55,12 +54,27 @@ async function failStudy(ctx: RunnerContext, studyId: string, totalChunks: numbe
 
 const isEngineError = (err: unknown) => err instanceof InputError || err instanceof SolveError;
 
-/** A chunk job a lane has taken, checked and ready to compute. */
+/**
+ * A chunk job a lane has taken, checked and ready to compute. `watch` fires on the study's cancel from the
+ * moment of the check (a lane may check a chunk before its thread is free); computeChunk releases it.
+ */
 export interface ChunkWork {
   studyId: string;
   chunkIndex: number;
   totalChunks: number;
   spec: unknown;
+  watch: { signal: AbortSignal; release(): void };
+}
+
+/**
+ * A computed chunk as the study thread hands it back: its counts, and the chunk result as JSON text made on
+ * that thread (the process's main thread neither stringifies it nor builds it as objects; it passes the text
+ * on to PostgreSQL).
+ */
+export interface ComputedChunk {
+  samples: number;
+  poses: number;
+  json: string;
 }
 
 /**
@@ -70,6 +84,18 @@ export interface ChunkWork {
  */
 export async function beginChunk(ctx: RunnerContext, job: PgBoss.JobWithMetadata<QueueJobData>): Promise<ChunkWork | null> {
   const { studyId, chunkIndex } = job.data as Extract<QueueJobData, { kind: 'study-chunk' }>;
+  const watch = ctx.watchCancel(studyId);
+  try {
+    const w = await checkChunk(ctx, studyId, chunkIndex, watch);
+    if (!w) watch.release();
+    return w;
+  } catch (err) {
+    watch.release();
+    throw err;
+  }
+}
+
+async function checkChunk(ctx: RunnerContext, studyId: string, chunkIndex: number, watch: ChunkWork['watch']): Promise<ChunkWork | null> {
   const r = await ctx.db.pool.query<{ status: string; total_chunks: number; landed: boolean }>(
     `WITH started AS (
        UPDATE studies SET status = 'running', started_at = coalesce(started_at, now()) WHERE id = $1 AND status = 'queued' RETURNING id
@@ -84,7 +110,7 @@ export async function beginChunk(ctx: RunnerContext, job: PgBoss.JobWithMetadata
   if (!s || (s.status !== 'queued' && s.status !== 'running') || s.landed) return null;
   const spec = await studySpec(ctx, studyId);
   if (spec === undefined) return null;
-  return { studyId, chunkIndex, totalChunks: s.total_chunks, spec };
+  return { studyId, chunkIndex, totalChunks: s.total_chunks, spec, watch };
 }
 
 /**
@@ -92,14 +118,15 @@ export async function beginChunk(ctx: RunnerContext, job: PgBoss.JobWithMetadata
  * cancelled meanwhile, or an engine error that failed the study. Any other
  * error is thrown (the queue retries the chunk).
  */
-export async function computeChunk(ctx: RunnerContext, w: ChunkWork): Promise<{ chunk: StudyChunkResult; computeMs: number } | null> {
-  const watch = ctx.watchCancel(w.studyId);
+export async function computeChunk(ctx: RunnerContext, w: ChunkWork): Promise<{ chunk: ComputedChunk; computeMs: number } | null> {
+  const watch = w.watch;
   const t0 = performance.now();
   try {
+    if (watch.signal.aborted) return null; // Cancelled between the check and now.
     const chunk = (await ctx.studyPool.run('study-chunk', { studyId: w.studyId, spec: w.spec, chunkIndex: w.chunkIndex }, {
       timeLimitMs: ctx.options.chunkTimeLimitMs,
       signal: watch.signal,
-    })) as StudyChunkResult;
+    })) as ComputedChunk;
     return { chunk, computeMs: performance.now() - t0 };
   } catch (err) {
     if (watch.signal.aborted) return null; // Cancelled or failed meanwhile.
@@ -118,7 +145,7 @@ export async function computeChunk(ctx: RunnerContext, w: ChunkWork): Promise<{ 
  * makes a retried or duplicated chunk land once), the study's counters and,
  * with the last chunk, the `study-combine` job.
  */
-export async function landChunk(ctx: RunnerContext, w: ChunkWork, chunk: StudyChunkResult, computeMs: number): Promise<void> {
+export async function landChunk(ctx: RunnerContext, w: ChunkWork, chunk: ComputedChunk, computeMs: number): Promise<void> {
   const { studyId, chunkIndex } = w;
   await inTransaction(ctx.db.pool, async (client) => {
     const r = await client.query<{ done_chunks: number; total_chunks: number }>(
@@ -129,7 +156,7 @@ export async function landChunk(ctx: RunnerContext, w: ChunkWork, chunk: StudyCh
        UPDATE studies SET done_chunks = done_chunks + 1, done_samples = done_samples + $3, compute_ms = compute_ms + $6, poses_solved = poses_solved + $4
         WHERE id = $1 AND status IN ('queued', 'running') AND EXISTS (SELECT 1 FROM ins)
         RETURNING done_chunks, total_chunks`,
-      [studyId, chunkIndex, chunk.samples, chunk.poses, chunk, computeMs, ctx.workerName],
+      [studyId, chunkIndex, chunk.samples, chunk.poses, chunk.json, computeMs, ctx.workerName],
     );
     const s = r.rows[0];
     // Landed before (a duplicate), or cancelled (or failed) while this chunk ran: nothing of it is kept.
@@ -155,14 +182,16 @@ export const studyCombineHandler: QueueHandler = async (ctx, job) => {
   const { studyId } = job.data as Extract<QueueJobData, { kind: 'study-combine' }>;
   const study = await loadStudy(ctx, studyId);
   if (!study || study.status !== 'running') return;
-  const rows = await ctx.db.pool.query<{ result: StudyChunkResult }>('SELECT result FROM study_chunks WHERE study_id = $1 ORDER BY chunk_index', [studyId]);
-  let result: StudyResult;
+  // The chunks as JSON text (a 100 000-sample study has about 35 MB of them): the study thread parses them,
+  // and hands the result back as text too, so the main thread only passes strings between PostgreSQL and the thread.
+  const rows = await ctx.db.pool.query<{ result: string }>('SELECT result::text AS result FROM study_chunks WHERE study_id = $1 ORDER BY chunk_index', [studyId]);
+  let result: string;
   try {
-    result = (await ctx.studyPool.run(
+    result = await ctx.studyPool.runJson(
       'study-combine',
       { studyId, spec: study.spec, chunks: rows.rows.map((r) => r.result) },
       { timeLimitMs: Math.max(ctx.options.chunkTimeLimitMs, 300_000) },
-    )) as StudyResult;
+    );
   } catch (err) {
     if (isEngineError(err)) return failStudy(ctx, studyId, study.total_chunks, err);
     throw err;

@@ -15,6 +15,7 @@ import { computeConfigurationCautions } from '../../shared/cautions/configuratio
 import { combineStudyChunks, runStudyChunk, type StudyChunkResult } from '../../shared/study/index.js';
 import { exampleCorners } from '../../shared/kinematics/index.js';
 import { exampleVehicles } from '../../shared/balance/index.js';
+import type { ComputedChunk } from './study-handlers.js';
 
 type Engine = (input: unknown, onProgress?: (fraction: number, message: string) => void) => unknown;
 
@@ -67,13 +68,19 @@ const ENGINES: Record<TaskKind, Engine> = {
   solve: computeSolve,
   'rig-compare': computeRigComparison,
   'configuration-cautions': computeConfigurationCautions,
+  // The chunk leaves as JSON text made here (study-handlers.ts ComputedChunk), with the counts its landing needs.
   'study-chunk': (input) => {
     const i = input as { studyId: string; spec: unknown; chunkIndex: number };
-    return runStudyChunk(studySpec(i.studyId, i.spec), i.chunkIndex);
+    const chunk = runStudyChunk(studySpec(i.studyId, i.spec), i.chunkIndex);
+    return { samples: chunk.samples, poses: chunk.poses, json: JSON.stringify(chunk) } satisfies ComputedChunk;
   },
+  // The chunks arrive as the JSON text PostgreSQL gave the main thread; they are parsed here.
   'study-combine': (input) => {
-    const i = input as { studyId: string; spec: unknown; chunks: StudyChunkResult[] };
-    return combineStudyChunks(studySpec(i.studyId, i.spec), i.chunks);
+    const i = input as { studyId: string; spec: unknown; chunks: string[] };
+    return combineStudyChunks(
+      studySpec(i.studyId, i.spec),
+      i.chunks.map((c) => JSON.parse(c) as StudyChunkResult),
+    );
   },
   'study-warm': () => warmUp(),
 };

@@ -82,14 +82,25 @@ export async function run(): Promise<BenchFigures> {
       const cpu0 = workers.map((w) => cpuSeconds(w.pid));
       const t0 = performance.now();
       const { study: s } = await api<{ study: { id: string } }>('POST', `/api/teams/${team.id}/studies`, study(samples, seed));
+      // Watched in the database (one indexed row read every 20 ms), not through the API: the server's answers
+      // would take CPU from the workers being measured; the API answers once at the end.
       for (;;) {
-        const { study: now } = await api<{ study: { status: string } }>('GET', `/api/teams/${team.id}/studies/${s.id}`);
-        if (now.status === 'completed') break;
-        if (now.status !== 'queued' && now.status !== 'running') throw new Error(`bench study ended ${now.status}`);
+        const { status } = (await db.query<{ status: string }>('SELECT status FROM studies WHERE id = $1', [s.id])).rows[0]!;
+        if (status === 'completed') break;
+        if (status !== 'queued' && status !== 'running') throw new Error(`bench study ended ${status}`);
         await new Promise((r) => setTimeout(r, 20));
       }
       const wallS = (performance.now() - t0) / 1000;
       const workerCpuS = workers.map((w, i) => cpuSeconds(w.pid) - cpu0[i]!);
+      const { study: stored } = await api<{ study: { status: string } }>('GET', `/api/teams/${team.id}/studies/${s.id}`);
+      if (stored.status !== 'completed') throw new Error(`the API shows the bench study ${stored.status}`);
+      // Each worker's chunks and when it landed its last: the gap is how long one waited for the other at the end.
+      const split = (
+        await db.query<{ chunks: number; last: number }>(
+          'SELECT count(*)::int AS chunks, extract(epoch FROM max(finished_at))::float AS last FROM study_chunks WHERE study_id = $1 GROUP BY worker ORDER BY 2',
+          [s.id],
+        )
+      ).rows;
       const c = (
         await db.query<{ chunks: number; samples: number; compute_ms: number; phase_s: number; poses: number; pre_s: number; post_s: number }>(
           `SELECT count(*)::int AS chunks, sum(c.samples)::int AS samples, sum(c.compute_ms)::float AS compute_ms, sum(c.poses)::float AS poses,
@@ -98,7 +109,7 @@ export async function run(): Promise<BenchFigures> {
           [s.id],
         )
       ).rows[0]!;
-      return { wallS, workerCpuS, ...c };
+      return { wallS, workerCpuS, perWorker: split.map((w) => w.chunks), tailS: split.length > 1 ? split.at(-1)!.last - split[0]!.last : 0, ...c };
     };
 
     const results: Record<number, Awaited<ReturnType<typeof measure>>> = {};
@@ -109,7 +120,8 @@ export async function run(): Promise<BenchFigures> {
       console.log(
         `  ${n} worker(s): 10 000 samples in ${round(results[n].wallS)} s submit→stored; chunk phase ${round(results[n].phase_s)} s, ${results[n].chunks} chunks, ` +
           `submit→first chunk ${round(results[n].pre_s)} s, last chunk→stored ${round(results[n].post_s)} s, compute ${round(results[n].compute_ms / 1000)} s, ${Math.round(results[n].poses / (results[n].compute_ms / 1000))} poses/s per busy thread; ` +
-          `worker CPU ${results[n].workerCpuS.map((x) => round(x)).join(' + ')} s`,
+          `worker CPU ${results[n].workerCpuS.map((x) => round(x)).join(' + ')} s` +
+          (n > 1 ? `; chunks per worker ${results[n].perWorker.join(' + ')}, the first to finish waited ${round(results[n].tailS)} s for the other` : ''),
       );
     }
     const one = results[1]!;

@@ -17,8 +17,11 @@
  *   healthIdle / healthDuringFlood  GET /api/health at a steady 50/s, alone and while 8 anonymous clients
  *                    POST 1 MB JSON bodies to a members' route as fast as they can (issue 12 §4: the body of a
  *                    request that will be refused is never parsed, so health should stay near its idle latency)
+ *   readPaced        the read mix alone at a steady 200 reads/s, 10 s: the floor the two scenarios below compare with
  *   readDuringStudy  the read mix and the study's own progress at a steady 200 reads/s, 10 s, while a
- *                    20 000-sample tolerance study runs on two `npm run worker` processes (issue 16)
+ *                    100 000-sample tolerance study runs on two `npm run worker` processes (issue 16); the study is
+ *                    big enough to run through the whole window (the line says whether it did: a study that
+ *                    finished early would leave reads measured beside idle workers)
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
@@ -176,11 +179,15 @@ async function main(): Promise<void> {
     const floodFigures = figures(floodBeside);
     print('health during flood', healthDuringFlood);
     console.log(`${'1 MB anonymous flood'.padEnd(20)} ${String(floodFigures.rps).padStart(8)} req/s of ${(megabyte.length / 1e6).toFixed(2)} MB, ${floodFigures.requests} requests (${floodFigures.non2xx} answered 401 as they should, ${floodFigures.errors - floodFigures.non2xx} connection errors)`);
+    // The same reads at the same steady rate with nothing else running: what the machine gives them anyway.
+    const readPaced = figures(await cannon(base, cookie, { connections: 10, seconds: SHORT_S, requests: reads, overallRate: READ_PACED_RPS }));
+    print(`read ${READ_PACED_RPS}/s alone`, readPaced);
     // Reads while a study runs on two worker processes (the server only answers; the workers compute).
     const warm = { WORKER_WARM_START: 'true' };
     const workers = [await spawnWorker(cluster.url, warm), await spawnWorker(cluster.url, warm)];
     let readDuringStudy: Figures;
     let studyChunks = 0;
+    let studyRanThroughout = false;
     try {
       const api = async (method: string, path: string, body?: unknown) => {
         const r = await fetch(`${base}${path}`, {
@@ -189,14 +196,14 @@ async function main(): Promise<void> {
           ...(body ? { body: JSON.stringify(body) } : {}),
         });
         if (!r.ok) throw new Error(`${method} ${path} answered ${r.status}: ${await r.text()}`);
-        return (await r.json()) as { study: { id: string; status: string; progress: { doneChunks: number } } };
+        return (await r.json()) as { study: { id: string; status: string; progress: { doneChunks: number; totalChunks: number } } };
       };
       const studyPath = `/api/teams/${team.id}/studies`;
       const { study } = await api('POST', studyPath, {
         kind: 'tolerance',
         target: { axleDesignId: design.id },
         seed: 8,
-        samples: 20_000,
+        samples: 100_000,
         tolerances: ['lowerFront', 'lowerRear', 'upperFront', 'upperRear', 'tieRodInner', 'tieRodOuter'].map((point) => ({ point, axis: 'sphere', plusMinusMm: 0.5, distribution: 'normal' })),
         analysis: { rackMm: [-10, 0, 10], rollDeg: 2 },
       });
@@ -209,11 +216,13 @@ async function main(): Promise<void> {
       );
       const after = (await api('DELETE', `${studyPath}/${study.id}`)).study;
       studyChunks = after.progress.doneChunks;
+      // Cancelled while still running: the workers computed through the whole window.
+      studyRanThroughout = after.status === 'cancelled' && after.progress.doneChunks < after.progress.totalChunks;
     } finally {
       await Promise.all(workers.map((w) => w.stop()));
     }
     print(`read ${READ_PACED_RPS}/s + study`, readDuringStudy);
-    console.log(`  (the study landed ${studyChunks} chunks of 500 samples meanwhile)`);
+    console.log(`  (the study landed ${studyChunks} chunks of 500 samples meanwhile; ${studyRanThroughout ? 'it was still running when the reads ended' : 'it ENDED before the reads did: part of the window had idle workers'})`);
 
     const out: Record<string, number> = {};
     const put = (prefix: string, f: Figures) => {
@@ -228,8 +237,10 @@ async function main(): Promise<void> {
     put('load.healthIdle', healthIdle);
     put('load.healthDuringFlood', healthDuringFlood);
     put('load.anonymousFlood', floodFigures);
+    put('load.readPaced', readPaced);
     put('load.readDuringStudy', readDuringStudy);
     out['load.studyChunksDuringReads'] = studyChunks;
+    out['load.studyRanThroughoutReads'] = studyRanThroughout ? 1 : 0;
     out['load.machine.cores'] = cpus().length;
     out['load.machine.loadAvgBefore'] = Math.round(loadBefore * 10) / 10;
     out['load.machine.loadAvgAfter'] = Math.round(loadavg()[0]! * 10) / 10;
@@ -237,7 +248,7 @@ async function main(): Promise<void> {
     mkdirSync(dir, { recursive: true });
     writeFileSync(join(dir, 'load.json'), JSON.stringify(out, null, 2) + '\n');
 
-    const totalErrors = read.errors + compute.errors + readDuringCompute.errors + computeDuringRead.errors + readPacedDuringCompute.errors + mixed.errors + readDuringStudy.errors;
+    const totalErrors = read.errors + compute.errors + readDuringCompute.errors + computeDuringRead.errors + readPacedDuringCompute.errors + mixed.errors + readPaced.errors + readDuringStudy.errors;
     const check = (ok: boolean) => (ok ? 'met' : 'NOT met');
     console.log(`\ntargets (shown, not asserted):`);
     console.log(`  zero errors                          ${check(totalErrors === 0)} (${totalErrors})`);
@@ -245,7 +256,7 @@ async function main(): Promise<void> {
     console.log(`  read p99 ≤ 50 ms while compute runs  ${check(readDuringCompute.p99Ms <= 50)} (${readDuringCompute.p99Ms} ms; reads as fast as they go)`);
     console.log(`    at a steady ${READ_PACED_RPS} reads/s beside the same compute: p99 ${readPacedDuringCompute.p99Ms} ms (${check(readPacedDuringCompute.p99Ms <= 50)})`);
     console.log(`  health p99 under a 1 MB anonymous flood  ${healthDuringFlood.p99Ms} ms vs ${healthIdle.p99Ms} ms idle (p50 ${healthDuringFlood.p50Ms} vs ${healthIdle.p50Ms} ms)`);
-    console.log(`  read p99 ≤ 50 ms while a study runs   ${check(readDuringStudy.p99Ms <= 50)} (${readDuringStudy.p99Ms} ms at ${READ_PACED_RPS} reads/s, two workers)`);
+    console.log(`  read p99 ≤ 50 ms while a study runs   ${check(readDuringStudy.p99Ms <= 50)} (${readDuringStudy.p99Ms} ms at ${READ_PACED_RPS} reads/s, two workers; the same reads alone: p99 ${readPaced.p99Ms} ms)`);
     console.log(`  (1-minute load average ${loadBefore.toFixed(1)} before, ${loadavg()[0]!.toFixed(1)} after, on ${cpus().length} cores)`);
     console.log(`\nwrote test-results/load.json (${Object.keys(out).length} figures) in ${Math.round((Date.now() - started) / 1000)} s`);
   } finally {
