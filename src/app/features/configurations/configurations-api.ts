@@ -18,6 +18,7 @@ import type {
 } from '../../../../shared/api/configurations';
 import type { DesignRevisionRecord, VehicleRevisionRecord } from '../../../../shared/api/documents';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
+import type { DisplayUnits } from '../../core/api-types';
 
 /** The response types are the server's own (shared/api): docs/api.md, "Configurations and review". */
 export type {
@@ -134,8 +135,9 @@ export class ConfigurationsApi {
   }
 
   /** Addresses of the review record's printable page and its PDF (same origin; the session cookie goes with them). */
-  recordUrl(teamId: string, id: string, kind: 'html' | 'pdf'): string {
-    return `${this.base(teamId, id)}/record.${kind}`;
+  /** The record document or its PDF, its figures in the given unit system (the fingerprint is of the SI values either way). */
+  recordUrl(teamId: string, id: string, kind: 'html' | 'pdf', units: DisplayUnits): string {
+    return `${this.base(teamId, id)}/record.${kind}?units=${units}`;
   }
 
   approvals(teamId: string, id: string): Observable<ApprovalSummary[]> {

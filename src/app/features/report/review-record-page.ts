@@ -5,6 +5,7 @@ import { MatAnchor, MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { ConfigurationsApi } from '../configurations/configurations-api';
 import { SafetyCaution } from '../safety-caution';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 
 /**
  * `/teams/:teamId/configurations/:configurationId/record`: the configuration
@@ -34,8 +35,13 @@ import { SafetyCaution } from '../safety-caution';
       </header>
       <rw-safety-caution />
       <p class="rw-muted rw-record-units" data-testid="record-units">
-        The review record is the filed document: its figures are in SI units (mm, kg, N, deg) whatever your display setting, so every
-        copy reads the same.
+        @if (units() === 'imperial') {
+          Figures are in inch/pound units (in, lb, lbf, deg), your display setting.
+        } @else {
+          Figures are in SI units (mm, kg, N, deg), your display setting.
+        }
+        The record names its units, and its approval fingerprint is taken from the stored SI values, so a copy in either
+        system identifies the same approved state.
       </p>
       @if (!loaded()) {
         <mat-progress-bar mode="indeterminate" aria-label="Preparing the review record" />
@@ -69,13 +75,14 @@ export class ReviewRecordPage {
   readonly teamId = input.required<string>();
   readonly configurationId = input.required<string>();
 
+  protected readonly units = inject(DISPLAY_UNITS);
   protected readonly loaded = signal(false);
   private readonly frame = viewChild<ElementRef<HTMLIFrameElement>>('frame');
 
-  protected readonly pdfUrl = computed(() => this.api.recordUrl(this.teamId(), this.configurationId(), 'pdf'));
+  protected readonly pdfUrl = computed(() => this.api.recordUrl(this.teamId(), this.configurationId(), 'pdf', this.units()));
   /** Our own API's address for the record page (same origin, a document without script under a strict policy). */
   protected readonly frameUrl = computed(() =>
-    this.sanitizer.bypassSecurityTrustResourceUrl(this.api.recordUrl(this.teamId(), this.configurationId(), 'html')),
+    this.sanitizer.bypassSecurityTrustResourceUrl(this.api.recordUrl(this.teamId(), this.configurationId(), 'html', this.units())),
   );
 
   /** Prints the record document itself (its print stylesheet), not the app around it. */
