@@ -6,14 +6,7 @@ import type { IntentWorkerReply } from './intent-types';
 import { describeFailure } from './describe-failure';
 import { AnalysisError, AnalysisSuperseded } from './kinematics-client';
 import type { DisplayUnits } from '../core/api-types';
-import type { FigureUnit, FigureUnits } from './caution-figures';
-import { displayDecimals, inDisplayUnits, unitLabel, type QuantityKind } from '../core/format/quantities';
-
-/** The units of the cautions' figures for the worker, from the app's quantity table (exact factors, resolution kept). */
-export function figureUnits(units: DisplayUnits): FigureUnits {
-  const of = (kind: QuantityKind): FigureUnit => ({ unit: unitLabel(kind, units), factor: inDisplayUnits(1, kind, units), extraDecimals: displayDecimals(kind, units, 0) });
-  return { length: of('length'), distance: of('distance'), speed: of('speed'), force: of('force'), bumpSteer: of('bumpSteer'), drift: units === 'si' ? null : of('length') };
-}
+import { figureUnits, type FigureUnits } from '../../../shared/cautions/figures';
 
 /** One worker and the promise it answers. */
 interface Run {
@@ -41,7 +34,7 @@ export class IntentClient implements OnDestroy {
     this.cancel();
     const parsed = validated(intent);
     if (!parsed.ok) return Promise.reject(parsed.error);
-    if (typeof Worker === 'undefined') return this.inPage(async () => (await import('../../../shared/intent/api')).computeSolve(parsed.intent, onProgress, (await import('./caution-figures')).cautionFigures(figureUnits(units))));
+    if (typeof Worker === 'undefined') return this.inPage(async () => (await import('../../../shared/intent/api')).computeSolve(parsed.intent, onProgress, (await import('../../../shared/cautions/figures')).cautionFigures(figureUnits(units))));
     return this.start(this.solveRun, { intent: parsed.intent, figures: figureUnits(units) }, onProgress).then((r) => {
       if (r.kind !== 'done') throw new AnalysisError({ code: 'engine_error', message: 'The solver answered with something else.' });
       return r.result;
@@ -53,7 +46,7 @@ export class IntentClient implements OnDestroy {
     this.stop(this.memberRun, new AnalysisSuperseded());
     const parsed = validated(intent);
     if (!parsed.ok) return Promise.reject(parsed.error);
-    if (typeof Worker === 'undefined') return this.inPage(async () => (await import('../../../shared/intent/api')).computeProposalDetails(parsed.intent, member, (await import('./caution-figures')).cautionFigures(figureUnits(units))));
+    if (typeof Worker === 'undefined') return this.inPage(async () => (await import('../../../shared/intent/api')).computeProposalDetails(parsed.intent, member, (await import('../../../shared/cautions/figures')).cautionFigures(figureUnits(units))));
     return this.start(this.memberRun, { intent: parsed.intent, member, figures: figureUnits(units) }, () => undefined).then((r) => {
       if (r.kind !== 'details') throw new AnalysisError({ code: 'engine_error', message: 'The solver answered with something else.' });
       return r.details;

@@ -1,6 +1,6 @@
 import type { ProposalDetails, SolveResult } from '../../../shared/intent/index';
 import type { AnalysisFailure } from './analysis-types';
-import type { FigureUnits } from './caution-figures';
+import type { FigureUnits } from '../../../shared/cautions/figures';
 import type { Intent } from '../../../shared/schema/intent';
 
 /**

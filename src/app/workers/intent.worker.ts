@@ -9,7 +9,7 @@
 import { proposalDetailsJson, solveIntentJson } from '../../../shared/intent/json';
 import { describeFailure } from './describe-failure';
 import type { IntentWorkerReply, IntentWorkerRequest } from './intent-types';
-import { cautionFigures } from './caution-figures';
+import { cautionFigures } from '../../../shared/cautions/figures';
 
 addEventListener('message', (event: MessageEvent<IntentWorkerRequest>) => {
   const { id, intent, member } = event.data;
