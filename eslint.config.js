@@ -29,6 +29,18 @@ export default tseslint.config(
     },
   },
   {
+    // Type-aware: a `!` or `as` the compiler does not need says nothing and hides the next real one
+    // (with noUncheckedIndexedAccess, a kept `!` is a claim someone checked).
+    files: ['src/**/*.ts'],
+    languageOptions: { parserOptions: { project: ['./tsconfig.app.json', './tsconfig.spec.json'], tsconfigRootDir: import.meta.dirname } },
+    rules: { '@typescript-eslint/no-unnecessary-type-assertion': 'error' },
+  },
+  {
+    files: ['shared/**/*.ts', 'server/**/*.ts'],
+    languageOptions: { parserOptions: { project: ['./tsconfig.node.json'], tsconfigRootDir: import.meta.dirname } },
+    rules: { '@typescript-eslint/no-unnecessary-type-assertion': 'error' },
+  },
+  {
     files: ['src/**/*.html'],
     extends: [...angular.configs.templateRecommended],
     rules: {

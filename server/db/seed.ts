@@ -232,7 +232,7 @@ export async function seedDemo(orm: Orm, o: { bcryptRounds?: number; publicUrl?:
     const ownerOf = (t: DemoTeam) => userId.get(t.members[0]!.email)!;
 
     // People join a team only by accepting an invitation, the demo's people too (no mail: they accept at once).
-    const invitations = new Invitations(tx as unknown as Orm, new Accounts(tx as unknown as Orm, o.bcryptRounds ?? 12), {
+    const invitations = new Invitations(tx, new Accounts(tx, o.bcryptRounds ?? 12), {
       secret: randomBytes(32).toString('hex'),
       publicUrl,
       ttlMs: 3_600_000,
@@ -284,7 +284,7 @@ export async function seedDemo(orm: Orm, o: { bcryptRounds?: number; publicUrl?:
           });
         }
       }
-      await seedConfigurations(tx as unknown as Orm, team.id, t, userId, publicUrl);
+      await seedConfigurations(tx, team.id, t, userId, publicUrl);
     }
   });
 }

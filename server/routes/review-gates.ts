@@ -40,7 +40,7 @@ export function readTransitionBody(
       : action === 'validate'
         ? base.extend({ waivers: z.array(waiver).max(2).optional() })
         : base;
-  return validate(schema, body) as { message?: string | undefined; revision?: number | undefined } & GateInput;
+  return validate(schema, body);
 }
 
 const revisionQuery = z.strictObject({ revision: z.coerce.number().int().positive().optional() });

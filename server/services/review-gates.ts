@@ -22,7 +22,6 @@ import type { AxleName } from '../../shared/schema/axle.js';
 import type { ComputePool } from '../compute/pool.js';
 import type { AxleCautionList, ConfigurationCautionsInput } from '../../shared/cautions/configuration-cautions.js';
 import type { DisplayUnits } from '../../shared/api/accounts.js';
-import type { Caution } from '../../shared/cautions/cautions.js';
 import type { ConfigurationInputs, ConfigurationRefs, ConfigurationView, Configurations, ReviewAction } from './configurations.js';
 import { RigMeasurements } from './rig-measurements.js';
 import type { AxleEvidence as AxleEvidenceWire, CriticalCaution, RigEvidence as RigEvidenceWire } from '../../shared/api/configurations.js';
@@ -86,7 +85,7 @@ export class ReviewGates {
         out.push({ axle: l.axle, code: CAUTIONS_UNMEASURED, message: `The cautions could not be measured: ${l.failure.message}`, value: null, threshold: null, unit: null });
         continue;
       }
-      for (const c of l.cautions as Caution[]) {
+      for (const c of l.cautions) {
         if (c.level === 'critical') out.push({ axle: l.axle, code: c.code, message: c.message, value: c.value ?? null, threshold: c.threshold ?? null, unit: c.unit ?? null });
       }
     }

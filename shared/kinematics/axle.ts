@@ -93,9 +93,9 @@ function designPosition(s: CornerSolver, p: Vec3): Vec3 {
   const d = [p[0] - s.c[0]!, p[1] - s.c[1]!, p[2] - s.c[2]!] as const;
   const w = s.model.wc0;
   return [
-    w[0]! + R[0]! * d[0] + R[3]! * d[1] + R[6]! * d[2],
-    w[1]! + R[1]! * d[0] + R[4]! * d[1] + R[7]! * d[2],
-    w[2]! + R[2]! * d[0] + R[5]! * d[1] + R[8]! * d[2],
+    w[0] + R[0]! * d[0] + R[3]! * d[1] + R[6]! * d[2],
+    w[1] + R[1]! * d[0] + R[4]! * d[1] + R[7]! * d[2],
+    w[2] + R[2]! * d[0] + R[5]! * d[1] + R[8]! * d[2],
   ];
 }
 

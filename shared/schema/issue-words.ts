@@ -137,6 +137,6 @@ export function issueWords(issue: SchemaIssue, input: unknown, labels: Readonly<
 /** Longest keys first, so `tieRodInner.z` is replaced before `tieRodInner`. */
 function replaceKeys(message: string, labels: Readonly<Record<string, string>>): string {
   let out = message;
-  for (const key of Object.keys(labels).sort((a, b) => b.length - a.length)) out = out.split(key).join(labels[key]!);
+  for (const key of Object.keys(labels).sort((a, b) => b.length - a.length)) out = out.split(key).join(labels[key]);
   return out;
 }

@@ -16,7 +16,6 @@
  */
 import { InputError, SolveError } from '../errors.js';
 import type { Corner, Vec3 } from '../schema/corner.js';
-import type { Vehicle } from '../schema/vehicle.js';
 import { compileCorner, moveCornerPoints, CornerSolver, poseRow, polyFit, frontViewIc, rollCentreOf, checkRack, type CornerModel, type PoseRow, type FrontViewIc } from '../kinematics/index.js';
 import { linkVehicle, type LinkedVehicle } from '../balance/link.js';
 import { balanceCore, understeerBudget } from '../balance/understeer.js';
@@ -174,7 +173,7 @@ export class StudyModel {
     this.factors = this.buildFactors(spec);
     if (spec.vehicle) {
       try {
-        this.ride = new RandomRoadYawCost(spec.vehicle as Vehicle, spec.axle, this.profile);
+        this.ride = new RandomRoadYawCost(spec.vehicle, spec.axle, this.profile);
         this.rideRacks = this.ride.racksMm(this.corner);
         checkRack(this.model, this.rideRacks, 'trackProfile');
       } catch (e) {
@@ -235,8 +234,8 @@ export class StudyModel {
     this.setupSens = spec.kind === 'tolerance' && (spec.setup.camberShimMm !== undefined || spec.setup.toeAdjusterStepMm !== undefined) ? this.setupSensitivities() : null;
 
     if (spec.vehicle) {
-      const c = spec.axle === 'front' ? { frontCorner: this.corner, rearCorner: spec.otherCorner as Corner | undefined } : { frontCorner: spec.otherCorner as Corner | undefined, rearCorner: this.corner };
-      this.linked = linkVehicle({ vehicle: spec.vehicle as Vehicle, ...c }, {}, null);
+      const c = spec.axle === 'front' ? { frontCorner: this.corner, rearCorner: spec.otherCorner } : { frontCorner: spec.otherCorner, rearCorner: this.corner };
+      this.linked = linkVehicle({ vehicle: spec.vehicle, ...c }, {}, null);
       this.nominalK = understeerBudget(balanceCore(this.linked.vehicle)).understeerBudget.total;
       const used = this.linked[spec.axle].used;
       this.nominalAxle = [used.rollSteerCoefficient, used.rollCamberDegPerDeg, used.rollCentreHeightMm];
@@ -283,7 +282,7 @@ export class StudyModel {
 
   private buildOutputs(spec: StudySpec): OutputDefinition[] {
     const p = this.profile.id;
-    const th: CautionThresholds = (spec.cautionThresholds ?? {}) as CautionThresholds;
+    const th: CautionThresholds = spec.cautionThresholds ?? {};
     const rule = (code: keyof typeof CAUTION_RULES, absolute: boolean): OutputBreachRule => ({ code, absolute, thresholds: thresholdsFor(code, p, th) });
     const o: OutputDefinition[] = [
       { key: 'staticToeDeg', label: 'Static toe (left)', unit: 'deg' },

@@ -17,8 +17,8 @@ export function matSelect(root: ParentNode, selector: string): HTMLElement {
 
 /** The option texts of a mat-select, in order (opens the panel and closes it again). */
 export function optionTexts(select: HTMLElement): string[] {
-  const texts = openSelect(select).map((o) => o.textContent!.trim());
-  (document.querySelector('.cdk-overlay-backdrop') as HTMLElement | null)?.click();
+  const texts = openSelect(select).map((o) => o.textContent.trim());
+  document.querySelector<HTMLElement>('.cdk-overlay-backdrop')?.click();
   TestBed.tick();
   return texts;
 }
@@ -42,10 +42,10 @@ function openSelect(select: HTMLElement): HTMLElement[] {
 export function chooseOption(select: HTMLElement, label: string | RegExp): void {
   const options = openSelect(select);
   const match = options.find((o) => {
-    const text = o.textContent!.trim();
+    const text = o.textContent.trim();
     return typeof label === 'string' ? text === label : label.test(text);
   });
-  if (!match) throw new Error(`no option ${String(label)} among: ${options.map((o) => o.textContent!.trim()).join(' | ')}`);
+  if (!match) throw new Error(`no option ${String(label)} among: ${options.map((o) => o.textContent.trim()).join(' | ')}`);
   match.click();
   TestBed.tick();
 }
@@ -53,7 +53,7 @@ export function chooseOption(select: HTMLElement, label: string | RegExp): void 
 /** Ticks or clears the mat-checkbox (or mat-radio-button) under `root` whose label text contains `label`. */
 export function clickToggle(root: ParentNode, label: string): void {
   const hosts = [...root.querySelectorAll<HTMLElement>('mat-checkbox, mat-radio-button')];
-  const host = hosts.find((h) => h.textContent!.includes(label));
+  const host = hosts.find((h) => h.textContent.includes(label));
   if (!host) throw new Error(`no checkbox or radio button labelled ${label}`);
   host.querySelector<HTMLInputElement>('input')!.click();
   TestBed.tick();

@@ -41,17 +41,17 @@ describe('BarChart', () => {
 
   it('labels the value axis with its unit and each group by name', () => {
     const { el } = setUp();
-    expect(el.querySelector('.rw-axis-label-y')!.textContent!.trim()).toBe('Understeer gradient (deg/g)');
-    const groups = Array.from(el.querySelectorAll('.rw-group-label')).map((t) => t.textContent!.trim());
+    expect(el.querySelector('.rw-axis-label-y')!.textContent.trim()).toBe('Understeer gradient (deg/g)');
+    const groups = Array.from(el.querySelectorAll('.rw-group-label')).map((t) => t.textContent.trim());
     expect(groups).toEqual(['Tyres', 'Roll steer', 'Total']);
     expect(el.querySelector('svg desc')!.textContent).toContain('Roll steer: Baseline 0 deg/g, Variant -0.3 deg/g');
   });
 
   it('gives a table and CSV with the change between baseline and variant', () => {
     const { fixture, el } = setUp();
-    Array.from(el.querySelectorAll('button')).find((b) => b.textContent!.includes('Show as table'))!.click();
+    Array.from(el.querySelectorAll('button')).find((b) => b.textContent.includes('Show as table'))!.click();
     fixture.detectChanges();
-    const header = Array.from(el.querySelectorAll('thead th')).map((th) => th.textContent!.trim());
+    const header = Array.from(el.querySelectorAll('thead th')).map((th) => th.textContent.trim());
     expect(header).toEqual(['Term', 'Baseline (deg/g)', 'Variant (deg/g)', 'Change (deg/g)']);
     const lines = fixture.componentInstance.csv().split('\r\n');
     expect(lines).toContain('Total,1.5,1.2,-0.3');
@@ -65,7 +65,7 @@ describe('BarChart', () => {
     ]);
     fixture.detectChanges();
     const level = Array.from(el.querySelectorAll('.rw-group-label'));
-    expect(level.map((t) => t.textContent!.trim())).toEqual(['Lateral load transfer front', 'Tyres']);
+    expect(level.map((t) => t.textContent.trim())).toEqual(['Lateral load transfer front', 'Tyres']);
     expect(level[0]!.querySelectorAll('tspan').length).toBe(1);
     expect(level[0]!.getAttribute('transform')).toBeNull();
 
@@ -107,7 +107,7 @@ describe('BarChart', () => {
     fixture.detectChanges();
     const plot = el.querySelector('svg.rw-chart-svg > g')!;
     const left = Number(/translate\(([\d.]+),/.exec(plot.getAttribute('transform')!)![1]);
-    const widest = Math.max(...Array.from(el.querySelectorAll('.rw-tick text')).map((t) => t.textContent!.trim().length));
+    const widest = Math.max(...Array.from(el.querySelectorAll('.rw-tick text')).map((t) => t.textContent.trim().length));
     expect(left).toBeGreaterThanOrEqual(widest * 12 * 0.6 + 16 + 15);
   });
 });

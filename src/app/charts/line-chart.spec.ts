@@ -71,14 +71,14 @@ describe('LineChart', () => {
 
   it('labels both axes with their units and describes the data in words', () => {
     const { el } = setUp(twoSeries);
-    expect(el.querySelector('.rw-axis-label-x')!.textContent!.trim()).toBe('Wheel travel (mm)');
-    expect(el.querySelector('.rw-axis-label-y')!.textContent!.trim()).toBe('Toe (deg)');
-    const desc = el.querySelector('svg desc')!.textContent!;
+    expect(el.querySelector('.rw-axis-label-x')!.textContent.trim()).toBe('Wheel travel (mm)');
+    expect(el.querySelector('.rw-axis-label-y')!.textContent.trim()).toBe('Toe (deg)');
+    const desc = el.querySelector('svg desc')!.textContent;
     expect(desc).toContain('Rack 0 mm: Toe from -0.08 to 0.08 deg');
     const svg = el.querySelector('svg.rw-chart-svg')!;
     expect(svg.getAttribute('role')).toBe('img');
     expect(svg.getAttribute('aria-labelledby')).toContain('-desc');
-    const tickLabels = Array.from(el.querySelectorAll('.rw-axis-x .rw-tick text')).map((t) => t.textContent!.trim());
+    const tickLabels = Array.from(el.querySelectorAll('.rw-axis-x .rw-tick text')).map((t) => t.textContent.trim());
     expect(tickLabels).toContain('0');
     expect(tickLabels).toContain('−20');
   });
@@ -86,12 +86,12 @@ describe('LineChart', () => {
   it('shows the numbers as a table on request and offers the same numbers as CSV', () => {
     const { fixture, el } = setUp(twoSeries);
     expect(el.querySelector('table')).toBeNull();
-    const toggle = Array.from(el.querySelectorAll('button')).find((b) => b.textContent!.includes('Show as table'))!;
+    const toggle = Array.from(el.querySelectorAll('button')).find((b) => b.textContent.includes('Show as table'))!;
     toggle.click();
     fixture.detectChanges();
-    const headers = Array.from(el.querySelectorAll('thead th')).map((th) => th.textContent!.trim());
+    const headers = Array.from(el.querySelectorAll('thead th')).map((th) => th.textContent.trim());
     expect(headers).toEqual(['Wheel travel (mm)', 'Rack 0 mm: Toe (deg)', 'Rack 10 mm: Toe (deg)']);
-    const firstRow = Array.from(el.querySelectorAll('tbody tr')[0]!.querySelectorAll('td')).map((td) => td.textContent!.trim());
+    const firstRow = Array.from(el.querySelectorAll('tbody tr')[0]!.querySelectorAll('td')).map((td) => td.textContent.trim());
     expect(firstRow).toEqual(['-20', '-0.08', '-0.02']);
     const csv = fixture.componentInstance.csv().split('\r\n');
     expect(csv[0]).toBe('# Toe against wheel travel');

@@ -26,7 +26,7 @@ describe('BumpCostView', () => {
     units.set('imperial');
     const cost = bumpCost(exampleVehicles.tur26Ember, 'front', exampleCorners.fsFrontWishbone, resolveTrackProfile('bumpy-circuit'));
     const el = render(cost);
-    const heading = el.querySelector('[data-testid="bump-cost-heading"]')!.closest('div')!.textContent!;
+    const heading = el.querySelector('[data-testid="bump-cost-heading"]')!.closest('div')!.textContent;
     // 1 in = 25.4 mm exactly; lengths to 4 significant figures (core/format/quantities.ts).
     expect(heading).toContain(`${Number((cost.bumpHeightMm / 25.4).toPrecision(4))} in ×`);
     expect(heading).toContain(`${Number(((1000 * cost.driftM!) / 25.4).toPrecision(4))} in of drift`);
@@ -39,7 +39,7 @@ describe('BumpCostView', () => {
     const cost = bumpCost(exampleVehicles.tur26Ember, 'front', exampleCorners.fsFrontWishbone, resolveTrackProfile('bumpy-circuit'));
     const el = render(cost);
     expect(el.querySelector('[data-testid="bump-cost-road"]')!.textContent).toContain('good road (ISO 8608 class B) at 80 km/h');
-    const yaw = el.querySelector('[data-testid="bump-cost-yaw"]')!.textContent!;
+    const yaw = el.querySelector('[data-testid="bump-cost-yaw"]')!.textContent;
     expect(yaw).toContain(cost.yawRateRmsDegPerS!.toFixed(3));
     expect(yaw).toContain(`${cost.cornerRadiusM} m corner`);
     expect(el.querySelector('[data-testid="bump-cost-heading"]')!.textContent).toContain(cost.headingChangeDeg!.toFixed(3));
@@ -49,7 +49,7 @@ describe('BumpCostView', () => {
   it('says what is missing when there is no bump cost', () => {
     const el = render(null, 'vehicle.front.tyre.verticalRateNPerMm: required by the ride model');
     // Named by the vehicle page's label, never by the document key.
-    const text = el.querySelector('[data-testid="bump-cost-none"]')!.textContent!;
+    const text = el.querySelector('[data-testid="bump-cost-none"]')!.textContent;
     expect(text).toContain('tyre vertical rate');
     expect(text).not.toContain('verticalRateNPerMm');
   });

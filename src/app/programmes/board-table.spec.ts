@@ -41,7 +41,7 @@ describe('BoardTable units', () => {
     fixture.detectChanges();
     const root = fixture.nativeElement as HTMLElement;
     const header = [...root.querySelectorAll('thead th')].map((th) => [...th.childNodes].map((n) => n.textContent!.trim()).filter(Boolean).join(' '));
-    const row = (cls: string) => [...root.querySelectorAll(`tr.${cls} td.num`)].map((td) => td.textContent!.trim());
+    const row = (cls: string) => [...root.querySelectorAll(`tr.${cls} td.num`)].map((td) => td.textContent.trim());
     return { header, row };
   }
 

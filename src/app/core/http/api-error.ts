@@ -10,7 +10,7 @@ export const SHOW_ERRORS_INLINE = new HttpContextToken<boolean>(() => false);
 
 function isApiErrorBody(body: unknown): body is ApiErrorBody {
   if (typeof body !== 'object' || body === null || !('error' in body)) return false;
-  const inner = (body as { error: unknown }).error;
+  const inner = (body).error;
   return (
     typeof inner === 'object' &&
     inner !== null &&

@@ -17,7 +17,7 @@ describe('SectionNav', () => {
     const root = fixture.nativeElement as HTMLElement;
     expect(root.querySelector('nav')!.getAttribute('aria-label')).toBe('On this page');
     const buttons = [...root.querySelectorAll('button')];
-    expect(buttons.map((b) => b.textContent!.trim())).toEqual(['Results', 'History']);
+    expect(buttons.map((b) => b.textContent.trim())).toEqual(['Results', 'History']);
 
     const fold = document.getElementById('fold') as HTMLDetailsElement;
     expect(fold.open).toBe(false);

@@ -131,7 +131,7 @@ describe('AxleDesignPage results', () => {
     const { root } = await open();
     // 25 mm = 0.9843 in (1 in = 25.4 mm exactly, NIST SP 811), shown to the length's 4 significant figures.
     expect(text(root, 'fit-caption')).toBe('Fitted over -0.9843 to 0.9843 in of travel');
-    const headers = [...root.querySelectorAll('[data-testid="fit-table"] thead th')].map((th) => th.textContent!.trim());
+    const headers = [...root.querySelectorAll('[data-testid="fit-table"] thead th')].map((th) => th.textContent.trim());
     expect(headers[0]).toBe('Rack (in)');
     expect(headers[1]).toContain('deg/in');
     expect(headers[2]).toBe('Curvature (deg/in²)');
@@ -147,10 +147,10 @@ describe('AxleDesignPage results', () => {
     const { harness, root } = await open();
     const stages = [...root.querySelectorAll('section[data-stage]')].map((s) => s.getAttribute('data-stage'));
     expect(stages).toEqual(['intent', 'geometry', 'proof', 'cost']);
-    const titles = [...root.querySelectorAll('section[data-stage] > h2')].map((h) => h.textContent!.replace(/\s+/g, ' ').trim());
+    const titles = [...root.querySelectorAll('section[data-stage] > h2')].map((h) => h.textContent.replace(/\s+/g, ' ').trim());
     expect(titles.map((t) => t.split(' ').slice(0, 2).join(' '))).toEqual(['1 Intent', '2 Geometry', '3 Proof', '4 Cost']);
     const nav = [...root.querySelectorAll('[data-testid="stage-nav"] button')];
-    expect(nav.map((b) => b.textContent!.trim())).toEqual(['1 Intent', '2 Geometry', '3 Proof', '4 Cost', 'Revisions']);
+    expect(nav.map((b) => b.textContent.trim())).toEqual(['1 Intent', '2 Geometry', '3 Proof', '4 Cost', 'Revisions']);
     // Each stage holds its own work: the table in geometry, the fitted figures in proof.
     expect(root.querySelector('section[data-stage="geometry"] rw-hardpoint-table')).not.toBeNull();
     expect(root.querySelector('section[data-stage="proof"] [data-testid="fit-table"]')).not.toBeNull();

@@ -78,7 +78,7 @@ describe('TrackProfileSelect', () => {
     el.querySelector<HTMLElement>('.mat-mdc-select-trigger')!.click();
     fixture.detectChanges();
     const options = Array.from(document.querySelectorAll<HTMLElement>('mat-option'));
-    expect(options.map((o) => o.textContent!.trim().split(' (')[0])).toEqual(
+    expect(options.map((o) => o.textContent.trim().split(' (')[0])).toEqual(
       ['smooth-circuit', 'bumpy-circuit', 'rough-road', 'off-road'].map((id) => trackProfiles[id as TrackProfileId].label),
     );
     expect(options[1]!.textContent).toContain('25 mm bump');

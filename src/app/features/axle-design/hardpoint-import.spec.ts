@@ -25,7 +25,7 @@ function setUp() {
 function choose(fixture: { detectChanges(): void }, el: HTMLElement, testId: string, option: string): void {
   el.querySelector<HTMLElement>(`[data-testid="${testId}"] .mat-mdc-select-trigger`)!.click();
   fixture.detectChanges();
-  const found = Array.from(document.querySelectorAll<HTMLElement>('mat-option')).find((o) => o.textContent!.trim() === option);
+  const found = Array.from(document.querySelectorAll<HTMLElement>('mat-option')).find((o) => o.textContent.trim() === option);
   if (!found) throw new Error(`no option "${option}"`);
   found.click();
   fixture.detectChanges();
@@ -40,7 +40,7 @@ async function answered(fixture: { detectChanges(): void; whenStable(): Promise<
 }
 
 function applyButton(el: HTMLElement): HTMLButtonElement {
-  return Array.from(el.querySelectorAll('button')).find((b) => b.textContent!.includes('Apply import'))!;
+  return Array.from(el.querySelectorAll('button')).find((b) => b.textContent.includes('Apply import'))!;
 }
 
 /** The server's answer for a good file, made with the same shared reader the server uses. */
@@ -138,7 +138,7 @@ describe('HardpointImport', () => {
     expect(await sent.text()).toBe(await file.text());
     first.flush(await answerFor(first.request.body as FormData));
     await answered(fixture);
-    const right = Array.from(el.querySelectorAll<HTMLElement>('mat-radio-button')).find((r) => r.textContent!.includes('Right corner'))!;
+    const right = Array.from(el.querySelectorAll<HTMLElement>('mat-radio-button')).find((r) => r.textContent.includes('Right corner'))!;
     right.querySelector('input')!.click();
     TestBed.tick();
     const again = http.expectOne(URL);

@@ -25,7 +25,7 @@ function setUp(editable: boolean, corner: Corner = exampleCorners.fsFrontWishbon
 describe('HardpointTable', () => {
   it('lists points in plain words with labelled coordinate inputs', () => {
     const { el } = setUp(true);
-    const names = Array.from(el.querySelectorAll('.rw-hardpoint-table tbody th[scope="row"]')).map((th) => th.textContent!.trim());
+    const names = Array.from(el.querySelectorAll('.rw-hardpoint-table tbody th[scope="row"]')).map((th) => th.textContent.trim());
     expect(names).toContain('Tie rod, inner end (rack)');
     expect(names).toContain('Upper ball joint');
     const z = el.querySelector<HTMLInputElement>('input[aria-label="Tie rod, inner end (rack), z in mm"]')!;
@@ -41,7 +41,7 @@ describe('HardpointTable', () => {
     corner.points.upperOuter = [lo[0], lo[1], lo[2] + 800];
     const { el } = setUp(true, corner);
     const row = el.querySelector('tr[data-key="points.upperOuter"]')!;
-    expect(row.querySelector('.rw-unusual')!.textContent!.trim()).toBe('Unusual: 800 mm is unusual for a kingpin length (typical 120–600 mm)');
+    expect(row.querySelector('.rw-unusual')!.textContent.trim()).toBe('Unusual: 800 mm is unusual for a kingpin length (typical 120–600 mm)');
   });
 
   it('commits an edit on change, with a decimal comma accepted', () => {
@@ -124,10 +124,10 @@ describe('HardpointTable', () => {
 
   it('shows link lengths at design', () => {
     const { el } = setUp(false);
-    const tie = Array.from(el.querySelectorAll('.rw-link-table tbody tr')).find((tr) => tr.textContent!.includes('Tie rod'))!;
+    const tie = Array.from(el.querySelectorAll('.rw-link-table tbody tr')).find((tr) => tr.textContent.includes('Tie rod'))!;
     // The straight-line distance between the two ends, to 0.01 mm.
     const length = Math.hypot(outer[0] - inner[0], outer[1] - inner[1], outer[2] - inner[2]);
-    expect(tie.querySelector('td')!.textContent!.trim()).toBe(length.toFixed(2));
+    expect(tie.querySelector('td')!.textContent.trim()).toBe(length.toFixed(2));
   });
 
   it('offers no inputs to a read-only user', () => {

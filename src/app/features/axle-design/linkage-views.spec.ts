@@ -51,7 +51,7 @@ describe('LinkageViews', () => {
 
       const bar = view.querySelector('[data-testid="scale-bar"]')!;
       const [line] = Array.from(bar.querySelectorAll('line'));
-      const stated = /^([\d.]+) mm$/.exec(bar.querySelector('text')!.textContent!.trim());
+      const stated = /^([\d.]+) mm$/.exec(bar.querySelector('text')!.textContent.trim());
       expect(stated, 'the scale bar states its length in mm').not.toBeNull();
       expect((num(line!, 'x2') - num(line!, 'x1')) / perMm).toBeCloseTo(Number(stated![1]), 6);
     }
@@ -62,11 +62,11 @@ describe('LinkageViews', () => {
     const el = draw(exampleCorners.fsFrontWishbone, patchUnder(exampleCorners.fsFrontWishbone));
     const front = el.querySelector('[data-view="front"]')!;
     const bar = front.querySelector('[data-testid="scale-bar"]')!;
-    const stated = /^([\d.]+) in$/.exec(bar.querySelector('text')!.textContent!.trim());
+    const stated = /^([\d.]+) in$/.exec(bar.querySelector('text')!.textContent.trim());
     expect(stated).not.toBeNull();
     // 1 in = 25.4 mm exactly (NIST SP 811): the bar's length in mm is the stated inches × 25.4.
     expect(Number(bar.getAttribute('data-length-mm'))).toBeCloseTo(Number(stated![1]) * 25.4, 9);
-    const halfTrack = front.querySelector('[data-dim="half-track"] text')!.textContent!.trim();
+    const halfTrack = front.querySelector('[data-dim="half-track"] text')!.textContent.trim();
     // The left contact patch's y (mm) in inches, to the length's 4 significant figures.
     const yIn = exampleCorners.fsFrontWishbone.points.wheelCentre[1] / 25.4;
     expect(halfTrack).toBe(`Half track ${Number(yIn.toPrecision(4))} in`);
@@ -114,7 +114,7 @@ describe('LinkageViews', () => {
       const key = row.getAttribute('data-key')!;
       if (!key.startsWith('points.')) continue;
       const label = el.querySelector(`[data-view="front"] [data-point="${key}"] text`)!;
-      expect(label.textContent!.trim(), key).toBe(row.querySelector('.rw-point-no')!.textContent!.trim());
+      expect(label.textContent.trim(), key).toBe(row.querySelector('.rw-point-no')!.textContent.trim());
     }
   });
 });

@@ -80,7 +80,7 @@ describe('BalancePage', () => {
     const rollSteerBars = root.querySelectorAll('rw-bar-chart [data-group="Roll steer"] rect');
     expect(rollSteerBars.length).toBe(2);
     const row = [...root.querySelectorAll('[data-testid="key-figures"] tr')].find((tr) => tr.textContent?.includes('Roll steer term'))!;
-    const cells = [...row.querySelectorAll('td')].map((td) => td.textContent!.trim());
+    const cells = [...row.querySelectorAll('td')].map((td) => td.textContent.trim());
     expect(Number(cells[0])).toBeCloseTo(result.understeerBudget.rollSteer, 3);
     expect(Number(cells[1])).toBeCloseTo(result.comparison!.variant.understeerBudget.rollSteer, 3);
     expect(row.classList.contains('rw-differs')).toBe(true);
@@ -92,7 +92,7 @@ describe('BalancePage', () => {
     expect(root.querySelector('rw-safety-caution')).not.toBeNull();
     expect(root.querySelector('[data-testid="out-of-date"]')).toBeNull();
     // Where each linked value came from, in words rather than the model's source codes.
-    const used = root.querySelector('.rw-link-notes')!.textContent!;
+    const used = root.querySelector('.rw-link-notes')!.textContent;
     expect(used).toContain("(from the axle design's kinematics)");
     expect(used).not.toMatch(/\((kinematics|vehicle|not-applicable)\)/);
   });
@@ -112,13 +112,13 @@ describe('BalancePage', () => {
     const { result } = await answerEvaluation();
     harness.detectChanges();
     const chart = [...root.querySelectorAll('rw-line-chart')].find((c) => c.querySelector('figcaption')?.textContent?.includes('Yaw rate after a step'))!;
-    const title = chart.querySelector('figcaption')!.textContent!;
+    const title = chart.querySelector('figcaption')!.textContent;
     const ratio = exampleVehicles.tur26Ember.steeringRatio!;
     expect(title).toContain('1 deg road-wheel angle');
     expect(title).toContain(`${Number((ratio * 1).toPrecision(3))} deg at the handwheel`);
     // The time axis covers the slower case's settling (2 % band, ISO 7401 style) but not the whole 3 s simulated.
     const settled = Math.max(result.stepSteer.settlingTimeS!, result.comparison!.variant.stepSteer.settlingTimeS!);
-    const ticks = [...chart.querySelectorAll('.rw-axis-x text')].map((t) => Number(t.textContent!.replace('−', '-')));
+    const ticks = [...chart.querySelectorAll('.rw-axis-x text')].map((t) => Number(t.textContent.replace('−', '-')));
     expect(result.stepSteer.durationS).toBe(3);
     expect(settled).toBeLessThan(1);
     expect(Math.max(...ticks)).toBeGreaterThanOrEqual(settled);
@@ -178,10 +178,10 @@ describe('BalancePage', () => {
     harness.detectChanges();
     const figure = (label: string) => [...root.querySelectorAll('[data-testid="key-figures"] tr')].find((tr) => tr.querySelector('th')?.textContent?.trim() === label)!;
     const stiffness = figure('Roll stiffness, front');
-    expect(stiffness.lastElementChild!.textContent!.trim()).toBe('lbf·ft/deg');
+    expect(stiffness.lastElementChild!.textContent.trim()).toBe('lbf·ft/deg');
     // 1 lbf·ft = 4.4482216152605 N × 0.3048 m.
     expect(Number(stiffness.querySelector('td')!.textContent)).toBeCloseTo(result.rollStiffnessNmPerDeg.front / (4.4482216152605 * 0.3048), 0);
-    expect(figure('Lateral load transfer, front').lastElementChild!.textContent!.trim()).toBe('lbf/g');
+    expect(figure('Lateral load transfer, front').lastElementChild!.textContent.trim()).toBe('lbf/g');
     expect(root.querySelector('[data-testid="evaluated-inputs"]')!.textContent).toContain('49.71 mph');
     // The sensitivity ranking names each input by its label, never by its document key.
     const inputs = [...root.querySelectorAll('table')].find((t) => t.querySelector('caption')?.textContent?.includes('ranked'))!;

@@ -58,13 +58,13 @@ describe('ComparePage', () => {
 
   function row(root: HTMLElement, label: string): string[] {
     const tr = [...root.querySelectorAll('[data-testid="compare-figures"] tbody tr')].find((r) => r.querySelector('th')?.textContent?.trim() === label)!;
-    return [...tr.querySelectorAll('td')].map((td) => td.textContent!.replace('(differs)', '').trim());
+    return [...tr.querySelectorAll('td')].map((td) => td.textContent.replace('(differs)', '').trim());
   }
 
   it('shows labelled key figures grouped by kind, rounded, with their units, never raw result keys', async () => {
     const { root } = await openComparison();
     const table = root.querySelector('[data-testid="compare-figures"]')!;
-    const groups = [...table.querySelectorAll('.rw-group-row th')].map((th) => th.textContent!.trim());
+    const groups = [...table.querySelectorAll('.rw-group-row th')].map((th) => th.textContent.trim());
     expect(groups).toEqual(['In roll', 'Toe over one-wheel bump (rack centred)', 'Camber over bump (rack centred)']);
     // No dotted result path anywhere in the table.
     expect(table.textContent).not.toMatch(/[a-z]+\.[a-z]+[A-Z]/);
@@ -87,7 +87,7 @@ describe('ComparePage', () => {
     const outer = short.points.tieRodOuter;
     short.points.tieRodInner = [outer[0], outer[1] - 30, outer[2] - 25];
     const { harness, root } = await openComparison({ 'd-rear': DESIGNS['d-rear'], 'd-short': { name: 'Short link', corner: short } }, '[role="alert"]');
-    const alert = () => [...root.querySelectorAll('[role="alert"]')].map((a) => a.textContent!.trim()).find((t) => t.startsWith('Short link'))!;
+    const alert = () => [...root.querySelectorAll('[role="alert"]')].map((a) => a.textContent.trim()).find((t) => t.startsWith('Short link'))!;
     expect(alert()).toMatch(/^Short link could not be solved: The linkage cannot reach [\d.]+ mm of bump: the toe link cannot reach\./);
     expect(alert()).not.toContain('tieRodInner');
     const mm = Number(/reach ([\d.]+) mm/.exec(alert())![1]);
@@ -110,7 +110,7 @@ describe('ComparePage', () => {
     // The travel range and the curves' travel axis follow too: ±25 mm is ±0.9843 in.
     expect(root.querySelector('[data-testid="compare-travel"]')!.textContent).toContain('Travel -0.9843 to 0.9843 in');
     const toeChart = [...root.querySelectorAll('rw-line-chart')].find((c) => c.textContent?.includes('Toe change against wheel travel'))!;
-    const ticks = [...toeChart.querySelectorAll('.rw-axis-x text')].map((t) => Math.abs(Number(t.textContent!.replace('−', '-'))));
+    const ticks = [...toeChart.querySelectorAll('.rw-axis-x text')].map((t) => Math.abs(Number(t.textContent.replace('−', '-'))));
     expect(Math.max(...ticks)).toBeLessThan(1.5);
   });
 
@@ -124,7 +124,7 @@ describe('ComparePage', () => {
     await settle();
     harness.detectChanges();
     const root = harness.routeNativeElement as HTMLElement;
-    const compareButton = () => [...root.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Compare')!;
+    const compareButton = () => [...root.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent.trim() === 'Compare')!;
     clickToggle(root, 'Rear baseline');
     harness.detectChanges();
     expect(root.querySelector('[role="status"]')!.textContent).toContain('Choose at least two designs.');

@@ -54,7 +54,7 @@ const BUMP_CAUTION: Caution = {
   threshold: 0.15,
   unit: 'deg',
   basis: 'product default',
-} as Caution;
+};
 
 /** GET …/gates: the Critical items the server measured and the rig evidence per axle. */
 function gates(critical: GatesAnswer['critical'] = []): GatesAnswer {
@@ -143,15 +143,15 @@ describe('ConfigurationPage', () => {
     return { harness, root: harness.routeNativeElement as HTMLElement, answers };
   }
 
-  const buttons = (root: HTMLElement) => [...root.querySelectorAll('.rw-review button[data-action]')].map((b) => b.textContent!.trim());
+  const buttons = (root: HTMLElement) => [...root.querySelectorAll('.rw-review button[data-action]')].map((b) => b.textContent.trim());
 
   it('shows what the configuration pins and the engines’ figures, with the profile’s cautions beside them', async () => {
     const { root } = await open(config(), ['team:read']);
-    const inputs = root.querySelector('[data-testid="inputs"]')!.textContent!;
+    const inputs = root.querySelector('[data-testid="inputs"]')!.textContent;
     expect(inputs).toContain('TUR-26 Ember, revision 1');
     expect(inputs).toContain('Rear baseline, revision 3');
     expect(inputs).toContain('Smooth circuit');
-    const figures = [...root.querySelectorAll('[data-testid="key-figures"] tbody tr')].map((r) => [...r.children].map((x) => x.textContent!.trim()));
+    const figures = [...root.querySelectorAll('[data-testid="key-figures"] tbody tr')].map((r) => [...r.children].map((x) => x.textContent.trim()));
     const row = (label: string) => figures.find((f) => f[0] === label)!;
     // The figures are the engine's own numbers (computed directly above), rounded for the table.
     expect(row('Roll steer ε, rear')[1]).toBe(RESULTS.balance.kinematicsLink.rear.used.rollSteerCoefficient.toFixed(4));
@@ -178,7 +178,7 @@ describe('ConfigurationPage', () => {
   it('shows the key figures and the speed axis in the user’s inch-pound units, to the same resolution', async () => {
     units.set('imperial');
     const { root } = await open(config(), ['team:read']);
-    const figures = [...root.querySelectorAll('[data-testid="key-figures"] tbody tr')].map((r) => [...r.children].map((x) => x.textContent!.trim()));
+    const figures = [...root.querySelectorAll('[data-testid="key-figures"] tbody tr')].map((r) => [...r.children].map((x) => x.textContent.trim()));
     const row = (label: string) => figures.find((f) => f[0] === label)!;
     // 1 in = 25.4 mm and 1 mi = 1.609344 km exactly (by definition): deg/m × 0.0254 = deg/in, km/h ÷ 1.609344 = mph.
     expect(row('Bump steer, front').slice(1, 3)).toEqual([(RESULTS.bumpSteer.front.bumpSteerDegPerM * 0.0254).toFixed(5), 'deg/in']);
@@ -187,7 +187,7 @@ describe('ConfigurationPage', () => {
     const speed = row('Characteristic speed');
     expect(speed[2]).toBe('mph');
     expect(speed[1]).toBe(((RESULTS.balance.characteristicSpeedKph ?? Number.NaN) / 1.609344).toFixed(1));
-    expect(root.querySelector('rw-line-chart .rw-axis-label-x')!.textContent!.trim()).toBe('Speed (mph)');
+    expect(root.querySelector('rw-line-chart .rw-axis-label-x')!.textContent.trim()).toBe('Speed (mph)');
     // The track profile it pins, in inch/pound too: smooth circuit travel ±25 mm is ±0.9843 in.
     expect(root.querySelector('[data-testid="inputs"]')!.textContent).toContain('travel -0.9843 to 0.9843 in');
   });
@@ -212,7 +212,7 @@ describe('ConfigurationPage', () => {
 
   it('a change request needs a message; it is sent with the revision looked at, and a refusal is shown', async () => {
     const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide', 'review:comment']);
-    const press = (label: string) => [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === label)!.click();
+    const press = (label: string) => [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent.trim() === label)!.click();
     press('Return for rework');
     harness.detectChanges();
     expect(root.querySelector('.rw-review [role="alert"]')!.textContent).toContain('Say what needs rework');
@@ -242,7 +242,7 @@ describe('ConfigurationPage', () => {
 
   it('shows the server’s own-work refusal of an approval', async () => {
     const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide']);
-    [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === 'Sign off')!.click();
+    [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent.trim() === 'Sign off')!.click();
     await serve(backend, {
       [`GET ${C}/gates`]: gates(),
       [`POST ${C}/approve`]: refuse(403, 'own_revision', 'You authored this configuration or a revision it uses; another reviewer must decide'),
@@ -254,13 +254,13 @@ describe('ConfigurationPage', () => {
 
   it('a sign-off with a Critical caution asks for a written reason and sends it with the step', async () => {
     const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide']);
-    [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === 'Sign off')!.click();
+    [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent.trim() === 'Sign off')!.click();
     const critical = { axle: 'rear' as const, code: 'rear-roll-oversteer', message: 'Rear roll steer of 0.035 deg/deg steers the rear wheels out of the turn', value: 0.035, threshold: 0.03, unit: 'deg/deg' };
     await serve(backend, { [`GET ${C}/gates`]: gates([critical]) });
     harness.detectChanges();
     const dialog = document.querySelector('rw-review-gate-dialog') as HTMLElement;
     expect(dialog.textContent).toContain('Rear axle: Rear roll steer of 0.035 deg/deg');
-    const confirm = [...dialog.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Sign off')!;
+    const confirm = [...dialog.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent.trim() === 'Sign off')!;
     expect(confirm.disabled).toBe(true);
     backend.expectNone(`${C}/approve`);
     const reason = dialog.querySelector('textarea') as HTMLTextAreaElement;
@@ -302,35 +302,35 @@ describe('ConfigurationPage', () => {
     expect(section.textContent).toContain('signed off by Ravi Osei');
     expect(section.textContent).toContain('gives 1 different figure(s)');
     const rows = [...section.querySelectorAll('[data-testid="frozen-figures"] tbody tr')];
-    const k = rows.find((r) => r.querySelector('th')!.textContent!.trim() === 'Understeer gradient K')!;
-    const cells = [...k.querySelectorAll('td')].map((td) => td.textContent!.trim());
+    const k = rows.find((r) => r.querySelector('th')!.textContent.trim() === 'Understeer gradient K')!;
+    const cells = [...k.querySelectorAll('td')].map((td) => td.textContent.trim());
     expect(cells[0]).toBe(frozen.balance.understeerBudget.total.toFixed(3));
     expect(cells[1]).toBe(RESULTS.balance.understeerBudget.total.toFixed(3));
     expect(cells[2]).toContain('-0.05');
     expect(cells[2]).toContain('(differs)');
-    const same = rows.find((r) => r.querySelector('th')!.textContent!.trim() === 'Roll steer ε, rear')!;
-    expect(same.querySelectorAll('td')[2]!.textContent!.trim()).toBe('none');
+    const same = rows.find((r) => r.querySelector('th')!.textContent.trim() === 'Roll steer ε, rear')!;
+    expect(same.querySelectorAll('td')[2]!.textContent.trim()).toBe('none');
   });
 
   it('“Comment on the budget” points the new comment at the budget and posts it in the server’s reference format', async () => {
     const { harness, root } = await open(config({ status: 'in_review' }), ['team:read', 'review:decide', 'review:comment']);
-    [...root.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Comment on the budget')!.click();
+    [...root.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent.trim() === 'Comment on the budget')!.click();
     harness.detectChanges();
     await new Promise((r) => setTimeout(r, 0));
     const select = root.querySelector('rw-review-comments mat-select[name="resultRef"]') as HTMLElement;
-    expect(select.textContent!.trim()).toBe('Understeer budget');
+    expect(select.textContent.trim()).toBe('Understeer budget');
     expect(document.activeElement).toBe(root.querySelector('rw-review-comments textarea[name="body"]'));
     // The rear caution is one of the things a comment can point at.
     (select.querySelector('.mat-mdc-select-trigger') as HTMLElement).click();
     harness.detectChanges();
-    const options = [...document.querySelectorAll('mat-option')].map((o) => o.textContent!.trim());
+    const options = [...document.querySelectorAll('mat-option')].map((o) => o.textContent.trim());
     expect(options).toContain('Understeer budget');
     expect(options).toContain(`Caution: ${BUMP_CAUTION.message}`);
     (document.querySelector('mat-option') as HTMLElement).click(); // "The configuration as a whole" closes the list…
     harness.detectChanges();
     (select.querySelector('.mat-mdc-select-trigger') as HTMLElement).click();
     harness.detectChanges();
-    [...document.querySelectorAll<HTMLElement>('mat-option')].find((o) => o.textContent!.trim() === 'Understeer budget')!.click(); // …and back to the budget.
+    [...document.querySelectorAll<HTMLElement>('mat-option')].find((o) => o.textContent.trim() === 'Understeer budget')!.click(); // …and back to the budget.
     harness.detectChanges();
     const box = root.querySelector('rw-review-comments textarea[name="body"]') as HTMLTextAreaElement;
     box.value = 'Rear roll-steer term looks small';
@@ -352,7 +352,7 @@ describe('ConfigurationPage', () => {
     expect(thread.textContent).toContain('On: Understeer budget');
     expect(thread.textContent).toContain('Open');
     // Resolve the thread.
-    [...thread.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent!.trim() === 'Close remark')!.click();
+    [...thread.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent.trim() === 'Close remark')!.click();
     await serve(backend, {
       [`POST ${C}/comments/k1/resolve`]: { id: 'k1', resolved: true },
       [`GET ${C}/comments`]: [
@@ -361,7 +361,7 @@ describe('ConfigurationPage', () => {
     });
     harness.detectChanges();
     expect(root.querySelector('.rw-thread .rw-thread-state')!.textContent).toBe('Closed');
-    expect([...root.querySelectorAll('.rw-thread button')].map((b) => b.textContent!.trim())).toContain('Reopen remark');
+    expect([...root.querySelectorAll('.rw-thread button')].map((b) => b.textContent.trim())).toContain('Reopen remark');
   });
 
   it('compares an older revision with the current one: changed inputs and results side by side', async () => {
@@ -388,7 +388,7 @@ describe('ConfigurationPage', () => {
     harness.detectChanges();
     expect(url).toBe(`${TEAM}/configurations/compare?a=c1&b=c1&aRevision=1`);
     const grid = root.querySelector('[data-testid="comparison"]')!;
-    const rowsOf = (id: string) => [...grid.querySelectorAll(`[data-testid="${id}"] tbody tr`)].map((tr) => [...tr.children].map((x) => x.textContent!.trim()));
+    const rowsOf = (id: string) => [...grid.querySelectorAll(`[data-testid="${id}"] tbody tr`)].map((tr) => [...tr.children].map((x) => x.textContent.trim()));
     // Labelled, grouped by kind, rounded per quantity, with units: never a raw path.
     expect(rowsOf('compare-inputs')).toEqual([['Rear corner'], ['Rear corner · tie rod inner · z', '180', '186', '+6', 'mm']]);
     expect(rowsOf('compare-results')).toEqual([
@@ -411,7 +411,7 @@ describe('ConfigurationPage', () => {
 
   it('archives (never deletes) and restores for those who manage the team’s designs', async () => {
     const { harness, root } = await open(config(), ['team:read', 'vehicle:manage']);
-    const press = (label: string) => [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent!.trim() === label)!.click();
+    const press = (label: string) => [...root.querySelectorAll<HTMLButtonElement>('.rw-review button')].find((b) => b.textContent.trim() === label)!.click();
     press('Archive configuration');
     let body: unknown;
     await serve(backend, {
@@ -423,7 +423,7 @@ describe('ConfigurationPage', () => {
     harness.detectChanges();
     expect(body).toEqual({ archived: true });
     expect(root.textContent).toContain('· archived');
-    expect([...root.querySelectorAll('.rw-review button')].map((b) => b.textContent!.trim())).toEqual(['Restore configuration']);
+    expect([...root.querySelectorAll('.rw-review button')].map((b) => b.textContent.trim())).toEqual(['Restore configuration']);
   });
 
   it('says why the configuration could not be loaded', async () => {

@@ -86,7 +86,7 @@ describe('ConfigurationsPage', () => {
   it('shows one vehicle’s configurations when opened from the vehicle page', async () => {
     const { root } = await open('/teams/t-tal/configurations?vehicle=v-cinder', ['team:read']);
     const rows = [...root.querySelectorAll('tbody tr')];
-    expect(rows.map((r) => r.querySelector('th')!.textContent!.trim())).toEqual(['Cinder carry-over']);
+    expect(rows.map((r) => r.querySelector('th')!.textContent.trim())).toEqual(['Cinder carry-over']);
     expect(root.querySelector('caption')!.textContent).toContain('of TUR-25 Cinder');
   });
 
@@ -201,7 +201,7 @@ describe('ConfigurationsPage', () => {
     chooseOption(matSelect(root, 'mat-select[name="filter"]'), 'TUR-25 Cinder');
     await settle();
     harness.detectChanges();
-    expect([...root.querySelectorAll('tbody tr th')].map((th) => th.textContent!.trim())).toEqual(['Cinder carry-over']);
+    expect([...root.querySelectorAll('tbody tr th')].map((th) => th.textContent.trim())).toEqual(['Cinder carry-over']);
     expect(TestBed.inject(Router).url).toBe('/teams/t-tal/configurations?vehicle=v-cinder');
   });
 });

@@ -19,7 +19,7 @@ function open(preview: LatestPreviewAnswer, units: DisplayUnits = 'si') {
   fixture.detectChanges();
   return fixture.nativeElement as HTMLElement;
 }
-const cells = (root: HTMLElement, id: string) => [...root.querySelectorAll(`[data-testid="${id}"] tbody tr`)].map((r) => [...r.children].map((c) => c.textContent!.trim()));
+const cells = (root: HTMLElement, id: string) => [...root.querySelectorAll(`[data-testid="${id}"] tbody tr`)].map((r) => [...r.children].map((c) => c.textContent.trim()));
 
 const MOVED: LatestPreviewAnswer = {
   engineVersion: '1.0.0',
@@ -52,7 +52,7 @@ describe('LatestPreviewDialog', () => {
     ]);
     // No raw result key anywhere.
     expect(root.textContent).not.toMatch(/[a-z]+\.[a-z]+[A-Z]|relativeError|DegPerM/);
-    const buttons = [...root.querySelectorAll('button')].map((b) => b.textContent!.trim());
+    const buttons = [...root.querySelectorAll('button')].map((b) => b.textContent.trim());
     expect(buttons).toEqual(['Keep the current revisions', 'Save with the latest revisions']);
   });
 
@@ -66,6 +66,6 @@ describe('LatestPreviewDialog', () => {
   it('says nothing would change when the revisions are already the latest, and offers no save', () => {
     const root = open({ engineVersion: '1.0.0', revision: 2, current: REFS, latest: REFS, changedRefs: [], upToDate: true, inputs: [], results: [] });
     expect(root.textContent).toContain('already at their latest revisions');
-    expect([...root.querySelectorAll('button')].map((b) => b.textContent!.trim())).toEqual(['Keep the current revisions']);
+    expect([...root.querySelectorAll('button')].map((b) => b.textContent.trim())).toEqual(['Keep the current revisions']);
   });
 });

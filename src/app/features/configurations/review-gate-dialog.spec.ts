@@ -81,11 +81,11 @@ describe('ReviewGateDialog', () => {
         },
       }),
     });
-    const evidence = root.querySelector('[data-testid="rig-evidence"]')!.textContent!;
+    const evidence = root.querySelector('[data-testid="rig-evidence"]')!.textContent;
     expect(evidence).toContain('Front axle, design revision 2: rig evidence within tolerance (1 of 1 measurements)');
     expect(evidence).toContain('Rear axle, design revision 4: no rig measurement yet');
     expect([...root.querySelectorAll('.rw-gate-item')].map((i) => i.getAttribute('data-axle'))).toEqual(['rear']);
-    expect(confirm().textContent!.trim()).toBe('Mark validated');
+    expect(confirm().textContent.trim()).toBe('Mark validated');
     expect(confirm().disabled).toBe(true);
     type(0, 'Track test on 14 March showed the expected balance');
     confirm().click();

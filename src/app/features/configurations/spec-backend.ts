@@ -22,7 +22,7 @@ export async function serve(backend: HttpTestingController, table: Record<string
       const a = table[key];
       if (typeof a === 'function') {
         const body = (a as (r: TestRequest) => unknown)(req);
-        if (body !== undefined && !req.cancelled) req.flush(body as never);
+        if (body !== undefined && !req.cancelled) req.flush(body);
       } else if (!req.cancelled) req.flush(a as never);
     }
   }

@@ -21,7 +21,7 @@ describe('CautionList', () => {
     TestBed.configureTestingModule({ providers: [{ provide: DISPLAY_UNITS, useValue: units }] });
   });
 
-  const figures = (el: HTMLElement, code: string) => el.querySelector(`[data-code="${code}"] .rw-caution-figures`)!.textContent!.replace(/\s+/g, ' ').trim();
+  const figures = (el: HTMLElement, code: string) => el.querySelector(`[data-code="${code}"] .rw-caution-figures`)!.textContent.replace(/\s+/g, ' ').trim();
 
   it('writes the measured value and threshold in the user’s unit system (1 in = 25.4 mm, 1 ft = 0.3048 m exactly)', () => {
     const f = TestBed.createComponent(Host);

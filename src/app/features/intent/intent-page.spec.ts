@@ -145,7 +145,7 @@ describe('IntentPage', () => {
     expect(text(root, 'err-shim')).toMatch(/^Shim thickness: 0 mm is outside the possible shim thickness/);
     // The workshop entry does not hold back the solve; the two solve entries do.
     expect(text(root, 'entries-need-attention')).toBe('2 entries need attention (marked beside them).');
-    const page = root.textContent!;
+    const page = root.textContent;
     for (const key of ['rollSteerCoefficient', 'trackProfile', 'travelMm', 'must be a number', 'shimThicknessMm']) expect(page).not.toContain(key);
     // Bounds the wrong way round: beside their row, with the coordinate in words.
     const low = root.querySelector<HTMLInputElement>('input[aria-label="Toe link, inner end (body): height z, lowest"]')!;
@@ -210,7 +210,7 @@ describe('IntentPage', () => {
     // Only movable coordinates change.
     expect(req.request.body.corner.points.lowerOuter).toEqual(exampleCorners.fsRearWishbone.points.lowerOuter);
     req.flush({ id: 'p1', designId: 'd-rear', baseRevision: 3, status: 'open', message: null, origin: null, authorName: 'Eli Marsh', createdAt: '', decidedByName: null, decidedAt: null, acceptedRevision: null });
-    await until(harness, () => root.textContent!.includes('Proposed as a draft on revision 3.'));
+    await until(harness, () => root.textContent.includes('Proposed as a draft on revision 3.'));
   });
 
   it('marks the result out of date under a new target, and clears it when the next solve fails', async () => {

@@ -14,7 +14,7 @@ import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/pr
 import { innerName, outerName } from '../../../../shared/schema/steering-link';
 import { intentSchema } from '../../../../shared/schema/intent';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
-import { issueWords, wordNumber, type FigureWords, type SchemaIssue } from '../../../../shared/schema/issue-words';
+import { issueWords, wordNumber, type FigureWords } from '../../../../shared/schema/issue-words';
 import { apiProblem } from '../../core/http/api-error';
 import { loadState } from '../../core/http/load-state';
 import { TeamAccess } from '../../core/teams/team-access';
@@ -308,7 +308,7 @@ export class IntentPage {
     for (const r of this.movableRows()) labels[r.name] = r.label;
     for (const issue of checked.error.issues) {
       if (issue.path[0] === 'movable' && on.length === 0) continue;
-      add(this.fieldOf(issue.path, doc), issueWords(issue as SchemaIssue, doc, labels, this.figureWords));
+      add(this.fieldOf(issue.path, doc), issueWords(issue, doc, labels, this.figureWords));
     }
     return out;
   });

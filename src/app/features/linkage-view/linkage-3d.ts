@@ -141,7 +141,7 @@ export class Linkage3d implements AfterViewInit {
       untracked(() => {
         if (!this.renderer || this.animating()) return;
         this.build(corner);
-        this.pose(posed ?? (corner.points as Record<string, Vec3>), cp);
+        this.pose(posed ?? (corner.points), cp);
       });
     });
     effect(() => {
@@ -219,7 +219,7 @@ export class Linkage3d implements AfterViewInit {
     this.fitToView();
     const corner = this.corner();
     this.build(corner);
-    this.pose(this.posed() ?? (corner.points as Record<string, Vec3>), this.contactPatch());
+    this.pose(this.posed() ?? (corner.points), this.contactPatch());
     this.highlight(this.selectedKey());
   }
 
@@ -291,7 +291,7 @@ export class Linkage3d implements AfterViewInit {
         this.linkage.add(this.tyre);
       }
     }
-    for (const [name, label] of this.pointLabels) (label.element as HTMLElement).textContent = pointName(`points.${name}`, corner);
+    for (const [name, label] of this.pointLabels) (label.element).textContent = pointName(`points.${name}`, corner);
   }
 
   private makeTyre(radius: number): Group {
@@ -442,13 +442,13 @@ export class Linkage3d implements AfterViewInit {
     this.animating.set(false);
     this.animationTravel.set(null);
     const corner = this.corner();
-    this.pose(this.posed() ?? (corner.points as Record<string, Vec3>), this.contactPatch());
+    this.pose(this.posed() ?? (corner.points), this.contactPatch());
   }
 
   protected resetView(): void {
     this.framed = false;
     const corner = this.corner();
-    this.pose(this.posed() ?? (corner.points as Record<string, Vec3>), this.contactPatch());
+    this.pose(this.posed() ?? (corner.points), this.contactPatch());
   }
 
   private dispose(o: Object3D): void {

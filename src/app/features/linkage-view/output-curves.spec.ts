@@ -95,7 +95,7 @@ describe('OutputCurves', () => {
     // One series per geometry: the design being edited.
     expect(el.querySelectorAll('[data-chart="casterDeg"] g.rw-series')).toHaveLength(1);
 
-    Array.from(el.querySelectorAll<HTMLButtonElement>('button')).find((b) => b.textContent!.includes('Toe, camber and roll centre only'))!.click();
+    Array.from(el.querySelectorAll<HTMLButtonElement>('button')).find((b) => b.textContent.includes('Toe, camber and roll centre only'))!.click();
     fixture.detectChanges();
     await fixture.whenStable();
     expect(charts(el)).toEqual(['toeDeg', 'camberDeg', 'rollCentreHeightMm']);
@@ -106,7 +106,7 @@ describe('OutputCurves', () => {
     box(el, 'ackermannPercent').click();
     fixture.detectChanges();
     expect(charts(el)).not.toContain('ackermannPercent');
-    const rack = Array.from(el.querySelectorAll<HTMLButtonElement>('[data-testid="curve-axis"] button')).find((b) => b.textContent!.includes('Rack travel'))!;
+    const rack = Array.from(el.querySelectorAll<HTMLButtonElement>('[data-testid="curve-axis"] button')).find((b) => b.textContent.includes('Rack travel'))!;
     rack.click();
     await until(fixture, () => charts(el).includes('ackermannPercent'));
     expect(el.querySelector('[data-chart="ackermannPercent"] .rw-axis-label-x')!.textContent).toContain('Rack travel');
@@ -149,14 +149,14 @@ describe('OutputCurves', () => {
     // A roll-centre chart has no rig data.
     expect(series('rollCentreHeightMm')).toEqual(['Revision 3 (shown)']);
     // Against body roll the rig (measured against travel) is not drawn.
-    Array.from(el.querySelectorAll<HTMLButtonElement>('[data-testid="curve-axis"] button')).find((b) => b.textContent!.includes('Body roll'))!.click();
+    Array.from(el.querySelectorAll<HTMLButtonElement>('[data-testid="curve-axis"] button')).find((b) => b.textContent.includes('Body roll'))!.click();
     await until(fixture, () => (el.querySelector('[data-chart="toeDeg"] .rw-axis-label-x')?.textContent ?? '').includes('Body roll'));
     expect(series('toeDeg')).toEqual(['Revision 3 (shown)']);
   });
 
   it('shows curves only with the request that produced them: out of date while new inputs solve, and says the range used', async () => {
     const { fixture, el } = await setUp();
-    expect(el.querySelector('[data-testid="curves-basis"]')!.textContent!.trim()).toBe('Swept over -25 to 25 mm of wheel travel; rack at 0 mm.');
+    expect(el.querySelector('[data-testid="curves-basis"]')!.textContent.trim()).toBe('Swept over -25 to 25 mm of wheel travel; rack at 0 mm.');
     // 7 mm steps from −10 mm stop at 25 mm (−10 + 5 × 7), short of the 30 mm asked for: the wording says 25.
     fixture.componentRef.setInput('travelRange', { from: -10, to: 30, step: 7 });
     fixture.detectChanges();
@@ -164,7 +164,7 @@ describe('OutputCurves', () => {
     expect(el.querySelector('[data-testid="curves-out-of-date"]')!.textContent).toContain('Swept over -25 to 25 mm');
     expect(el.querySelector('.rw-curves-result')!.classList).toContain('rw-out-of-date');
     await until(fixture, () => el.querySelector('[data-testid="curves-out-of-date"]') === null);
-    expect(el.querySelector('[data-testid="curves-basis"]')!.textContent!.trim()).toBe('Swept over -10 to 25 mm of wheel travel; rack at 0 mm.');
+    expect(el.querySelector('[data-testid="curves-basis"]')!.textContent.trim()).toBe('Swept over -10 to 25 mm of wheel travel; rack at 0 mm.');
     expect(el.querySelector('.rw-curves-result')!.classList).not.toContain('rw-out-of-date');
   });
 });

@@ -71,7 +71,7 @@ describe('DesignReportPage', () => {
 
   it('names the revision author as its revision list does, with who accepted it, and lists the author\'s own notes', async () => {
     const { root } = await open();
-    const revision = root.querySelector('[data-testid="report-revision"]')!.textContent!;
+    const revision = root.querySelector('[data-testid="report-revision"]')!.textContent;
     expect(revision).toContain('2 (accepted) by Eli Marsh, accepted by Dana Quist');
     expect(root.textContent).toContain('Revision 2 · Eli Marsh');
     expect(root.textContent).toContain('— solve for −0.02');
@@ -83,7 +83,7 @@ describe('DesignReportPage', () => {
     const { root } = await open();
     // ±25 mm of travel is ±0.9843 in (1 in = 25.4 mm exactly).
     expect(root.querySelector('[data-testid="report-fit-range"]')!.textContent).toContain('Fitted over -0.9843 to 0.9843 in of travel');
-    const headers = [...root.querySelectorAll('.rw-report-table thead th')].map((th) => th.textContent!.trim());
+    const headers = [...root.querySelectorAll('.rw-report-table thead th')].map((th) => th.textContent.trim());
     expect(headers).toContain('Bump steer (deg/in)');
     expect(headers).toContain('Toe curvature (deg/in²)');
     expect(root.querySelector('[data-testid="report-units"]')!.textContent).toContain('Inch/pound');
@@ -97,7 +97,7 @@ describe('DesignReportPage', () => {
       (req) => (req.request.url.endsWith('/revisions') || req.request.url.endsWith('/proposals') ? refuse(req) : answer(req)),
       (r) => !!r.querySelector('[data-testid="report-fit-range"]') && !!r.querySelector('rw-bar-chart') && r.querySelectorAll('[role="alert"]').length >= 2,
     );
-    const alerts = [...root.querySelectorAll('[role="alert"]')].map((a) => a.textContent!.trim());
+    const alerts = [...root.querySelectorAll('[role="alert"]')].map((a) => a.textContent.trim());
     expect(alerts).toContain('The revision history could not be loaded: The server is busy; try again in a minute.');
     expect(alerts).toContain('The proposals could not be loaded: The server is busy; try again in a minute.');
     // Without the revision list the author is the record's last writer; the kinematics and the budget are there.

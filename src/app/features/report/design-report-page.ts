@@ -104,7 +104,7 @@ export class DesignReportPage {
       const design = this.design();
       const vehicle = this.vehicleState();
       if (!design || vehicle.status === 'loading') return undefined;
-      return { design, vehicleData: vehicle.status === 'ready' ? (vehicle.value.data as unknown) : null };
+      return { design, vehicleData: vehicle.status === 'ready' ? (vehicle.value.data) : null };
     },
     stream: ({ params: p }) => defer(() => this.analyse(p.design, p.vehicleData)),
   });
@@ -152,7 +152,7 @@ export class DesignReportPage {
 
   protected readonly cautions = computed<Caution[]>(() => {
     const o = this.source()?.origin as { cautions?: Caution[] } | null | undefined;
-    return Array.isArray(o?.cautions) ? o!.cautions : [];
+    return Array.isArray(o?.cautions) ? o.cautions : [];
   });
 
   protected readonly toe = computed<LineSeries[]>(() =>

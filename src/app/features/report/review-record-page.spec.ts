@@ -45,7 +45,7 @@ describe('ReviewRecordPage', () => {
     units.set('si');
     harness.detectChanges();
     // Printing is offered once the document is there.
-    const print = [...root.querySelectorAll('button')].find((b) => b.textContent!.includes('Print'))!;
+    const print = [...root.querySelectorAll('button')].find((b) => b.textContent.includes('Print'))!;
     frame.dispatchEvent(new Event('load'));
     harness.detectChanges();
     expect(print.disabled).toBe(false);

@@ -50,7 +50,7 @@ async function drawn(fixture: ComponentFixture<RigMeasurementsPanel>): Promise<v
   fixture.detectChanges();
 }
 
-const button = (el: HTMLElement, text: string) => Array.from(el.querySelectorAll('button')).find((b) => b.textContent!.includes(text))!;
+const button = (el: HTMLElement, text: string) => Array.from(el.querySelectorAll('button')).find((b) => b.textContent.includes(text))!;
 
 /** What the server answers, made with the same shared reader and engine it uses. */
 function previewAnswer(name: string, text: string) {
@@ -84,7 +84,7 @@ const summary = (id: string) => ({
 function pick(fixture: { detectChanges(): void }, el: HTMLElement, name: string, option: string): void {
   (el.querySelector(`mat-select[name=${name}] .mat-mdc-select-trigger`) as HTMLElement).click();
   fixture.detectChanges();
-  [...document.querySelectorAll<HTMLElement>('mat-option')].find((o) => o.textContent!.trim() === option)!.click();
+  [...document.querySelectorAll<HTMLElement>('mat-option')].find((o) => o.textContent.trim() === option)!.click();
   fixture.detectChanges();
 }
 
@@ -116,7 +116,7 @@ describe('RigMeasurementsPanel', () => {
     // Column 2 of the file ("camber") is proposed for camber: the select shows its name (once its options are drawn).
     await fixture.whenStable();
     fixture.detectChanges();
-    expect(el.querySelector('mat-select[name=camberColumn]')!.textContent!.trim()).toBe(previewAnswer('rig.csv', text).columns[2]);
+    expect(el.querySelector('mat-select[name=camberColumn]')!.textContent.trim()).toBe(previewAnswer('rig.csv', text).columns[2]);
     // One component family: Material fields, selects and checkbox; the file picker is a Material button driving a hidden input.
     expect(el.querySelectorAll('select, input:not(.mat-mdc-input-element):not(.mdc-checkbox__native-control):not([type=file][hidden])').length).toBe(0);
     expect(el.querySelectorAll('.rw-rig-preview tbody tr').length).toBe(8);
@@ -139,12 +139,12 @@ describe('RigMeasurementsPanel', () => {
     fixture.detectChanges();
     // 0.12° toe offset: RMS and largest are the offset (an identity), above the 0.1° default tolerance.
     const toeRow = el.querySelector('.rw-rig-figures tr[data-quantity=Toe]')!;
-    expect(toeRow.querySelector('.rw-rig-rms')!.textContent!.trim()).toBe('0.12');
-    expect(toeRow.querySelector('.rw-rig-largest')!.textContent!.trim()).toBe('0.12');
+    expect(toeRow.querySelector('.rw-rig-rms')!.textContent.trim()).toBe('0.12');
+    expect(toeRow.querySelector('.rw-rig-largest')!.textContent.trim()).toBe('0.12');
     expect(el.querySelector('rw-caution-list [data-code=rig-toe-disagreement]')).not.toBeNull();
     expect(el.querySelectorAll('rw-line-chart').length).toBe(2);
     const toeChart = el.querySelector('[data-testid=rig-toe-chart]')!;
-    expect(Array.from(toeChart.querySelectorAll('.rw-legend li')).map((li) => li.textContent!.trim())).toEqual(['Predicted toe', 'Measured toe']);
+    expect(Array.from(toeChart.querySelectorAll('.rw-legend li')).map((li) => li.textContent.trim())).toEqual(['Predicted toe', 'Measured toe']);
     // Told apart without colour: the prediction is a solid line, the measurement a square at every measured point and no line.
     expect(toeChart.querySelector('.rw-series-0 .rw-series-line')!.getAttribute('stroke-dasharray')).toBeNull();
     const measured = toeChart.querySelector('svg.rw-chart-svg [data-series="Measured toe"]')!;

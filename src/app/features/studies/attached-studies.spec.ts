@@ -59,7 +59,7 @@ describe('attached studies', () => {
       ],
     });
     await settle(fixture);
-    const rows = [...(fixture.nativeElement as HTMLElement).querySelectorAll('tbody tr')].map((tr) => tr.textContent!.replace(/\s+/g, ' ').trim());
+    const rows = [...(fixture.nativeElement as HTMLElement).querySelectorAll('tbody tr')].map((tr) => tr.textContent.replace(/\s+/g, ' ').trim());
     expect(rows[0]).toContain('Ember for the study');
     expect(rows[0]).toContain('Understeer-gradient change with the vehicle (deg/g)');
     expect(rows[0]).toContain('-0.0125');
@@ -78,14 +78,14 @@ describe('attached studies', () => {
     await settle(fixture);
     const root = fixture.nativeElement as HTMLElement;
     expect(root.querySelector('a')!.getAttribute('href')).toBe('/teams/t1/studies/s1');
-    const cells = [...root.querySelectorAll('tbody tr')].map((tr) => [...tr.children].map((c) => c.textContent!.trim()));
+    const cells = [...root.querySelectorAll('tbody tr')].map((tr) => [...tr.children].map((c) => c.textContent.trim()));
     expect(cells[1]).toEqual(['Roll steer ε (deg/deg)', '0.021', '0.025', '—']);
     expect(cells[2]).toEqual(['Contact-patch scrub over that bump (mm)', '1.27', '2.54', '3.81']);
     expect(root.textContent).toContain('rig week');
     // In inch/pound the length figure is in inches (1 in = 25.4 mm exactly); ε has no other unit.
     units.set('imperial');
     fixture.detectChanges();
-    const imperial = [...root.querySelectorAll('tbody tr')].map((tr) => [...tr.children].map((c) => c.textContent!.trim()));
+    const imperial = [...root.querySelectorAll('tbody tr')].map((tr) => [...tr.children].map((c) => c.textContent.trim()));
     expect(imperial[2]).toEqual(['Contact-patch scrub over that bump (in)', '0.05', '0.1', '0.15']);
     expect(imperial[1]).toEqual(['Roll steer ε (deg/deg)', '0.021', '0.025', '—']);
   });

@@ -179,7 +179,7 @@ export class StudiesPage {
         normalSigmas: this.normalSigmas(),
         sides: 'both',
         setup: { ...(this.shimMm() !== null ? { camberShimMm: this.shimMm()! } : {}), ...(this.adjusterMm() !== null ? { toeAdjusterStepMm: this.adjusterMm()! } : {}) },
-      } as StudyRequest;
+      };
     }
     return {
       ...common,
@@ -188,7 +188,7 @@ export class StudiesPage {
       ...(this.design() === 'latin-hypercube' ? { samples: this.samples() } : {}),
       factors: this.factors(),
       balanceDirection: this.direction(),
-    } as StudyRequest;
+    };
   }
 
   protected async start(): Promise<void> {

@@ -61,9 +61,9 @@ describe('StudyPage', () => {
     const root = harness.routeNativeElement as HTMLElement;
     const summary = (label: string) =>
       [...root.querySelector('table[aria-label="Output summary"]')!.querySelectorAll('tbody tr')]
-        .find((tr) => tr.querySelector('th')!.textContent!.trim() === label)!
+        .find((tr) => tr.querySelector('th')!.textContent.trim() === label)!
         .querySelectorAll('td');
-    const percentiles = () => root.querySelector('[data-testid="study-percentiles"]')!.textContent!.replace(/\s+/g, ' ').trim();
+    const percentiles = () => root.querySelector('[data-testid="study-percentiles"]')!.textContent.replace(/\s+/g, ' ').trim();
     return { harness, root, summary, percentiles };
   }
 
@@ -73,8 +73,8 @@ describe('StudyPage', () => {
     harness.detectChanges();
     // SI: deg/m to the quantity's 3 significant figures (core/format/quantities.ts).
     expect(percentiles()).toBe('P5 -3.12 · P50 -2.5 · P95 -1.85 deg/m (nominal -2.5)');
-    expect(summary('Contact-patch scrub over that bump')[0]!.textContent!.trim()).toBe('mm');
-    expect(summary('Contact-patch scrub over that bump')[2]!.textContent!.trim()).toBe('2.54');
+    expect(summary('Contact-patch scrub over that bump')[0]!.textContent.trim()).toBe('mm');
+    expect(summary('Contact-patch scrub over that bump')[2]!.textContent.trim()).toBe('2.54');
     expect(root.querySelector('table[aria-label="Caution thresholds reached"]')!.textContent).toContain('|value| ≥ 3 deg/m');
     expect(root.querySelector('[data-testid="study-histogram"]')!.textContent).toContain('Distribution: Bump-steer gradient (deg/m)');
 
@@ -82,22 +82,22 @@ describe('StudyPage', () => {
     harness.detectChanges();
     // 1 in = 25.4 mm exactly: deg/m × 0.0254 = deg/in; 2.54 mm = 0.1 in.
     expect(percentiles()).toBe(`P5 ${Number((-3.12 * 0.0254).toPrecision(3))} · P50 -0.0635 · P95 ${Number((-1.85 * 0.0254).toPrecision(3))} deg/in (nominal -0.0635)`);
-    expect(summary('Contact-patch scrub over that bump')[0]!.textContent!.trim()).toBe('in');
-    expect(summary('Contact-patch scrub over that bump')[2]!.textContent!.trim()).toBe('0.1');
+    expect(summary('Contact-patch scrub over that bump')[0]!.textContent.trim()).toBe('in');
+    expect(summary('Contact-patch scrub over that bump')[2]!.textContent.trim()).toBe('0.1');
     expect(root.querySelector('table[aria-label="Caution thresholds reached"]')!.textContent).toContain('|value| ≥ 0.0762 deg/in');
     expect(root.querySelector('[data-testid="study-histogram"]')!.textContent).toContain('Distribution: Bump-steer gradient (deg/in)');
     expect(root.textContent).toContain('(1 in single-wheel bump)');
     // A label's own figure follows too: 25.4 mm is 1 in.
-    expect(summary('Toe change over a 1 in single-wheel bump (bumpy circuit)')[0]!.textContent!.trim()).toBe('deg');
+    expect(summary('Toe change over a 1 in single-wheel bump (bumpy circuit)')[0]!.textContent.trim()).toBe('deg');
     expect(root.textContent).not.toContain('25.4 mm');
     // ε has no inch/pound form: it stays in deg/deg.
-    expect(summary('Roll steer ε')[0]!.textContent!.trim()).toBe('deg/deg');
-    expect(summary('Roll steer ε')[2]!.textContent!.trim()).toBe('0.0211');
+    expect(summary('Roll steer ε')[0]!.textContent.trim()).toBe('deg/deg');
+    expect(summary('Roll steer ε')[2]!.textContent.trim()).toBe('0.0211');
   });
 
   it('names each tornado bar by its point as the hardpoint table does, with the coordinate and side, never the point key', async () => {
     const { root } = await open();
-    const tornado = root.querySelector('[data-testid="study-tornado"]')!.textContent!;
+    const tornado = root.querySelector('[data-testid="study-tornado"]')!.textContent;
     // The coordinate and side first, so a name the chart cuts short still tells the bars apart.
     expect(tornado).toContain('z left: Tie rod, inner end (rack)');
     expect(tornado).toContain('x right: Upper ball joint');
@@ -111,7 +111,7 @@ describe('StudyPage', () => {
     URL.revokeObjectURL = vi.fn();
     try {
       const { harness, root } = await open();
-      const exportButton = () => [...root.querySelectorAll('button')].find((b) => b.textContent!.includes('Export CSV'))!;
+      const exportButton = () => [...root.querySelectorAll('button')].find((b) => b.textContent.includes('Export CSV'))!;
       exportButton().click();
       await settle();
       backend.expectOne((r) => r.url === `${T}/studies/s1/csv` && r.params.get('units') === 'si').flush('output,unit\r\n');

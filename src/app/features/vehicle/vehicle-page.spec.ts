@@ -51,13 +51,13 @@ describe('VehiclePage', () => {
 
   function unitOf(root: HTMLElement, label: string): string {
     const formField = [...root.querySelectorAll('mat-form-field')].find((f) => f.querySelector('mat-label')?.textContent?.trim() === label)!;
-    return formField.querySelector('.rw-unit')!.textContent!.trim();
+    return formField.querySelector('.rw-unit')!.textContent.trim();
   }
 
   it('shows the axle designs by axle and the stored values with their SI units', async () => {
     const { root } = await open(['team:read', 'vehicle:edit']);
     const tables = [...root.querySelectorAll('.rw-design-table')];
-    expect(tables.map((t) => t.querySelector('caption')!.textContent!.trim())).toEqual(['Front axle', 'Rear axle']);
+    expect(tables.map((t) => t.querySelector('caption')!.textContent.trim())).toEqual(['Front axle', 'Rear axle']);
     expect(tables[1]!.textContent).toContain('Rear baseline');
     expect(Number(field(root, 'Total mass').value)).toBe(exampleVehicles.tur26Ember.massKg);
     expect(unitOf(root, 'Wheelbase')).toBe('mm');
@@ -67,12 +67,12 @@ describe('VehiclePage', () => {
   it('shows each revision with its author and the author\'s own note; the header names the revision\'s author as the list does', async () => {
     // A record whose last writer is not the revision's author (an older server wrote who accepted a proposal there).
     const { root } = await open(['team:read'], 'Dana Quist');
-    const items = [...root.querySelectorAll('.rw-revision-list li')].map((li) => li.textContent!.replace(/\s+/g, ' ').trim());
+    const items = [...root.querySelectorAll('.rw-revision-list li')].map((li) => li.textContent.replace(/\s+/g, ' ').trim());
     expect(items[0]).toContain('Revision 4 · Eli Marsh');
     expect(items[0]).toContain('— Stiffer rear springs for the autocross');
     expect(items[1]).toContain('Revision 3 · Dana Quist');
     expect(items[1]).toContain('— Tyre data from the rig');
-    const header = root.querySelector('.rw-revision')!.textContent!;
+    const header = root.querySelector('.rw-revision')!.textContent;
     expect(header).toContain('Revision 4');
     expect(header).toContain('by Eli Marsh');
     expect(header).not.toContain('Dana Quist');
@@ -125,7 +125,7 @@ describe('VehiclePage', () => {
     harness.detectChanges();
     // The schema's own rule (CG ahead of the rear axle) is shown beside its field, in words, never by its key.
     const cgField = root.querySelector('mat-form-field[data-path="cgToFrontAxleMm"]')!;
-    expect(cgField.querySelector('mat-error')!.textContent!.trim()).toBe('Must be less than the wheelbase.');
+    expect(cgField.querySelector('mat-error')!.textContent.trim()).toBe('Must be less than the wheelbase.');
     expect(root.textContent).not.toContain('wheelbaseMm');
     backend.expectNone('/api/teams/t-tal/vehicles/v-ember/data');
   });

@@ -355,7 +355,7 @@ export class VehiclePage {
         if (field.bar && field.path.startsWith(`${axle}.`) && field.bar !== mode) writePath(data, field.path, undefined);
       }
     }
-    data['options'] = { ...((data['options'] as object | undefined) ?? {}), rollGravityTerm: this.rollGravityTerm.value };
+    data['options'] = { ...((data['options']) ?? {}), rollGravityTerm: this.rollGravityTerm.value };
     const check = vehicleSchema.safeParse(data);
     if (!check.success) {
       const general: string[] = [];
