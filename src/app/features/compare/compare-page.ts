@@ -49,6 +49,11 @@ const ROLL = { from: -3, to: 3, step: 0.25 };
  * one table (cells that differ from the first design highlighted) and their
  * toe, camber and roll-steer curves overlaid. Solved in the Web Worker.
  */
+/** The bump curve with the rack centred (the first swept when no position is centred). */
+function rackCentred(x: CornerAnalysis): CornerAnalysis['curves'][number] {
+  return x.curves.find((k) => k.rackMm === 0) ?? x.curves[0]!;
+}
+
 @Component({
   selector: 'rw-compare-page',
   imports: [NumPipe, RouterLink, MatButton, MatProgressBar, MatCheckbox, LineChart, SafetyCaution],
@@ -99,7 +104,6 @@ export class ComparePage {
   protected readonly figureGroups = computed<FigureGroup[]>(() => {
     const list = this.compared();
     const a = (pick: (x: CornerAnalysis) => number) => list.map((c) => (c.analysis ? pick(c.analysis) : null));
-    const rack0 = (x: CornerAnalysis) => x.curves.find((k) => k.rackMm === 0) ?? x.curves[0]!;
     return [
       {
         title: 'In roll',
@@ -116,14 +120,14 @@ export class ComparePage {
       {
         title: 'Toe over one-wheel bump (rack centred)',
         rows: [
-          { label: 'Bump steer (toe-in per bump travel)', kind: 'bumpSteer', values: a((x) => rack0(x).bumpSteerDegPerM) },
-          { label: 'Toe curvature', kind: 'curvature', values: a((x) => rack0(x).curvatureDegPerM2) },
-          { label: 'Largest toe departure from a straight line', kind: 'angle', values: a((x) => rack0(x).maxDeviationDeg) },
+          { label: 'Bump steer (toe-in per bump travel)', kind: 'bumpSteer', values: a((x) => rackCentred(x).bumpSteerDegPerM) },
+          { label: 'Toe curvature', kind: 'curvature', values: a((x) => rackCentred(x).curvatureDegPerM2) },
+          { label: 'Largest toe departure from a straight line', kind: 'angle', values: a((x) => rackCentred(x).maxDeviationDeg) },
         ],
       },
       {
         title: 'Camber over bump (rack centred)',
-        rows: [{ label: 'Camber gain', kind: 'camberGain', values: a((x) => rack0(x).camberGainDegPerM) }],
+        rows: [{ label: 'Camber gain', kind: 'camberGain', values: a((x) => rackCentred(x).camberGainDegPerM) }],
       },
     ];
   });
@@ -140,14 +144,14 @@ export class ComparePage {
 
   protected readonly toeOverlay = computed(() =>
     this.overlay((x) => {
-      const c = x.curves.find((k) => k.rackMm === 0) ?? x.curves[0]!;
+      const c = rackCentred(x);
       const ride = c.points.find((p) => p.travelMm === 0)?.toeDeg ?? 0;
       return c.points.map((p) => ({ x: inDisplayUnits(p.travelMm, 'length', this.units()), y: p.toeDeg - ride }));
     }),
   );
   protected readonly camberOverlay = computed(() =>
     this.overlay((x) =>
-      (x.curves.find((k) => k.rackMm === 0) ?? x.curves[0]!).points.map((p) => ({ x: inDisplayUnits(p.travelMm, 'length', this.units()), y: p.camberDeg })),
+      rackCentred(x).points.map((p) => ({ x: inDisplayUnits(p.travelMm, 'length', this.units()), y: p.camberDeg })),
     ),
   );
   protected readonly rollOverlay = computed(() =>
