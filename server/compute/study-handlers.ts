@@ -196,5 +196,11 @@ export const studyCombineHandler: QueueHandler = async (ctx, job) => {
     if (isEngineError(err)) return failStudy(ctx, studyId, study.total_chunks, err);
     throw err;
   }
-  await ctx.db.pool.query(`UPDATE studies SET status = 'completed', result = $2, finished_at = now() WHERE id = $1 AND status = 'running'`, [studyId, result]);
+  // One statement: the study completes and its chunks' outputs, now in the combined result, are cleared
+  // (only when it completed here: a study cancelled meanwhile keeps what it had).
+  await ctx.db.pool.query(
+    `WITH done AS (UPDATE studies SET status = 'completed', result = $2, finished_at = now() WHERE id = $1 AND status = 'running' RETURNING id)
+     UPDATE study_chunks SET result = NULL WHERE study_id IN (SELECT id FROM done)`,
+    [studyId, result],
+  );
 };

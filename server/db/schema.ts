@@ -697,7 +697,11 @@ export const studyChunks = pgTable(
     chunkIndex: integer('chunk_index').notNull(),
     samples: integer('samples').notNull(),
     poses: doublePrecision('poses').notNull(),
-    result: jsonb('result').$type<StudyChunkResult>().notNull(),
+    /**
+     * The chunk's samples' outputs until the study's combined result is stored; then cleared (a
+     * 100 000-sample study's chunks hold about 35 MB), the row kept for its key, counts and timing.
+     */
+    result: jsonb('result').$type<StudyChunkResult>(),
     computeMs: doublePrecision('compute_ms').notNull(),
     /** Which worker process computed it (host:pid), for operations. */
     worker: text('worker').notNull(),

@@ -1,0 +1,1 @@
+ALTER TABLE "study_chunks" ALTER COLUMN "result" DROP NOT NULL;
