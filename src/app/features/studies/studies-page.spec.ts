@@ -96,14 +96,14 @@ describe('StudiesPage: the new study form', () => {
     const { root, harness } = await openDesign();
     // The unit is shown in the fields and the column heads.
     expect(root.querySelector('table[aria-label="Tolerances"] thead')!.textContent).toContain('± in');
-    expect(root.querySelector('input[aria-label="Tolerance 1 in in"]')!.closest('mat-form-field')!.textContent).toContain('in');
+    expect(root.querySelector('input[aria-label="Tolerance 1 (in)"]')!.closest('mat-form-field')!.textContent).toContain('in');
     // The default ±0.5 mm band is shown in inches: 0.5 / 25.4 = 0.019685039 (8 significant figures).
-    expect(root.querySelector<HTMLInputElement>('input[aria-label="Tolerance 1 in in"]')!.value).toBe('0.019685039');
-    enter(root, 'input[aria-label="Tolerance 1 in in"]', '0.1');
+    expect(root.querySelector<HTMLInputElement>('input[aria-label="Tolerance 1 (in)"]')!.value).toBe('0.019685039');
+    enter(root, 'input[aria-label="Tolerance 1 (in)"]', '0.1');
     enter(root, 'input[name="camberShimMm"]', '0.02');
     enter(root, 'input[name="toeAdjusterStepMm"]', '0.015');
     enter(root, 'input[name="racks"]', '-0.5, 0, 0.5');
-    expect(root.querySelector<HTMLInputElement>('input[aria-label="Tolerance 1 in in"]')!.value).toBe('0.1');
+    expect(root.querySelector<HTMLInputElement>('input[aria-label="Tolerance 1 (in)"]')!.value).toBe('0.1');
     await start(root, harness);
     const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
     const body = req.request.body as Extract<StudyRequest, { kind: 'tolerance' }>;
@@ -121,8 +121,8 @@ describe('StudiesPage: the new study form', () => {
     clickToggle(root, 'Design sweep');
     harness.detectChanges();
     expect(root.querySelector('table[aria-label="Swept coordinates"] thead')!.textContent).toContain('From (in)');
-    enter(root, 'input[aria-label="From of factor 1 in in"]', '-0.25');
-    enter(root, 'input[aria-label="To of factor 1 in in"]', '0.75');
+    enter(root, 'input[aria-label="From of factor 1 (in)"]', '-0.25');
+    enter(root, 'input[aria-label="To of factor 1 (in)"]', '0.75');
     await start(root, harness);
     const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
     const body = req.request.body as Extract<StudyRequest, { kind: 'sweep' }>;
@@ -136,9 +136,9 @@ describe('StudiesPage: the new study form', () => {
     units.set('imperial');
     const { root, harness } = await openDesign();
     // A band is at most 50 mm (the request's limit): 1.969 in to the length's 4 significant figures.
-    enter(root, 'input[aria-label="Tolerance 1 in in"]', '3');
+    enter(root, 'input[aria-label="Tolerance 1 (in)"]', '3');
     harness.detectChanges();
-    const field = root.querySelector('input[aria-label="Tolerance 1 in in"]')!.closest('mat-form-field')!;
+    const field = root.querySelector('input[aria-label="Tolerance 1 (in)"]')!.closest('mat-form-field')!;
     expect(field.querySelector('mat-error')!.textContent.trim()).toBe('Tolerance 1 must be at most 1.969 in.');
     expect(field.querySelector('input')!.getAttribute('aria-invalid')).toBe('true');
     enter(root, 'input[name="camberShimMm"]', 'thin');
@@ -150,7 +150,7 @@ describe('StudiesPage: the new study form', () => {
     backend.expectNone({ method: 'POST', url: `${T}/studies` });
     expect(root.querySelector('.rw-study-form > [role=alert]')!.textContent).toContain('Tolerance 1 must be at most 1.969 in.');
     // Corrected, the band goes (0.5 in = 12.7 mm).
-    enter(root, 'input[aria-label="Tolerance 1 in in"]', '0.5');
+    enter(root, 'input[aria-label="Tolerance 1 (in)"]', '0.5');
     enter(root, 'input[name="camberShimMm"]', '');
     await start(root, harness);
     const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
@@ -160,10 +160,25 @@ describe('StudiesPage: the new study form', () => {
     await settle();
   });
 
+  it("says when the design's points cannot be loaded, and loads them again on request", async () => {
+    const { root, harness } = await open('axleDesignId=d-front', () =>
+      backend.expectOne(`${T}/axle-designs/d-front`).flush({ error: { code: 'unavailable', message: 'The server is busy; try again in a moment.' } }, { status: 503, statusText: 'Busy' }),
+    );
+    const alert = root.querySelector('.rw-study-form > [role=alert]')!;
+    expect(alert.textContent).toContain('The points of the design could not be loaded: The server is busy; try again in a moment.');
+    [...alert.querySelectorAll('button')].find((b) => b.textContent.trim() === 'Try again')!.click();
+    await settle();
+    backend.expectOne(`${T}/axle-designs/d-front`).flush({ id: 'd-front', corner: exampleCorners.fsFrontWishbone });
+    await settle();
+    harness.detectChanges();
+    expect(root.querySelector('.rw-study-form > [role=alert]')).toBeNull();
+    expect(optionTexts(matSelect(root, 'mat-select[aria-label="Point of tolerance 1"]'))).toContain('Upper ball joint');
+  });
+
   it('takes and sends millimetres for an SI user', async () => {
     const { root, harness } = await openDesign();
     expect(root.querySelector('table[aria-label="Tolerances"] thead')!.textContent).toContain('± mm');
-    enter(root, 'input[aria-label="Tolerance 1 in mm"]', '0.25');
+    enter(root, 'input[aria-label="Tolerance 1 (mm)"]', '0.25');
     await start(root, harness);
     const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
     expect((req.request.body as Extract<StudyRequest, { kind: 'tolerance' }>).tolerances[0]!.plusMinusMm).toBe(0.25);

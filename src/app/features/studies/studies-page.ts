@@ -142,7 +142,7 @@ export class StudiesPage {
   protected readonly tolerances = signal<ToleranceRow[]>([{ point: 'tieRodInner', axis: 'z', plusMinusMm: 0.5, distribution: 'normal' }]);
   protected readonly normalSigmas = signal(3);
   protected readonly shimMm = signal<number | null>(null);
-  /** Length fields whose typed text was refused, by field ('tolerance-1', 'from-2', 'shim', 'racks'…): the message beside the field. */
+  /** Length fields whose typed text was refused, by field ('tolerance-0', 'fromMm-1', 'shim', 'racks'…): the message beside the field. */
   protected readonly lengthErrors = signal<ReadonlyMap<string, string>>(new Map());
   protected readonly adjusterMm = signal<number | null>(null);
   protected readonly racksMm = signal<readonly number[]>([0]);
@@ -162,6 +162,10 @@ export class StudiesPage {
 
   protected load(): void {
     this.studies.reload();
+  }
+
+  protected loadCorner(): void {
+    this.corner.reload();
   }
 
   protected localTime(iso: string): string {
@@ -258,11 +262,6 @@ export class StudiesPage {
       this.setLengthError('racks', null);
       this.racksMm.set(parts.map((t) => this.mmOf(Number(t))));
     }
-  }
-
-  /** The point's name as the hardpoint table writes it (its key until the corner is loaded). */
-  protected pointLabel(key: string): string {
-    return this.points().find((p) => p.key === key)?.name ?? key;
   }
 
   protected setTolerance(i: number, patch: Partial<ToleranceRow>): void {
