@@ -134,7 +134,7 @@ export class RigMeasurementsPanel {
   protected readonly camberUnit = signal<CamberUnit>('deg');
   /** Reference diameter of toe in mm at the rim, mm (typed in the user's length unit); null until given. */
   protected readonly rimDiameterMm = signal<number | null>(null);
-  /** The text typed for the diameter is not a number (the field keeps it; the diameter counts as missing). */
+  /** The text typed for the diameter is a number or empty (else the field keeps the text and the diameter counts as missing). */
   private readonly rimDiameterTyped = signal(true);
   protected readonly travelSign = signal<(typeof TRAVEL_SIGNS)[number]>('bump-positive');
   protected readonly toeSign = signal<(typeof TOE_SIGNS)[number]>('toe-in-positive');
