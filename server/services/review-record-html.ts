@@ -13,6 +13,8 @@
  */
 import { line, scaleLinear } from 'd3';
 import { inputWords, resultWords } from '../../shared/io/result-words.js';
+import { hardpointRows } from '../../shared/io/hardpoint-points.js';
+import type { Corner } from '../../shared/schema/corner.js';
 import { displayDecimals, inDisplayUnits, kindForUnit, unitLabel, type QuantityKind } from '../../shared/units/quantities.js';
 import { formatNum } from '../../shared/units/format.js';
 import type { DisplayUnits } from '../../shared/api/accounts.js';
@@ -91,13 +93,17 @@ function leaves(doc: unknown, prefix: string, out: { path: string; value: unknow
   return out;
 }
 
-/** The inputs as entered, to 6 significant figures in the reader's units; hardpoints to 0.1 mm (or the same resolution in inches). */
-function inputTable(title: string, top: string, doc: unknown, f: Figures): string {
+/**
+ * The inputs as entered, to 6 significant figures in the reader's units; hardpoints to 0.1 mm (or the same
+ * resolution in inches), named as the hardpoint table names them (shared/io/hardpoint-points.ts) when `corner` is the document.
+ */
+function inputTable(title: string, top: string, doc: unknown, f: Figures, corner?: Corner): string {
+  const pointNames = new Map(corner ? hardpointRows(corner).map((h) => [`${top}.${h.key}`, h.name]) : []);
   const rows = leaves(doc, top)
     .filter((r) => !r.path.endsWith('formatVersion'))
     .map((r) => {
       const w = inputWords(r.path);
-      const label = w.label.replace(/^[^·]+· /, '');
+      const label = (Array.isArray(r.value) ? pointNames.get(r.path) : undefined) ?? w.label.replace(/^[^·]+· /, '');
       const value = Array.isArray(r.value)
         ? (r.value as number[]).map((x) => f.fixed(x, 'length', 1)).join(', ')
         : typeof r.value === 'number'
@@ -248,8 +254,8 @@ export function renderReviewRecordHtml(r: ReviewRecordAnswer, units: DisplayUnit
 <section><h2>7. Approval snapshots</h2>${approvals}</section>
 <section class="inputs-section"><h2>8. Inputs</h2>
   ${inputTable('Vehicle', 'vehicle', r.inputs.vehicle, f)}
-  ${inputTable('Front corner', 'frontCorner', r.inputs.frontCorner, f)}
-  ${inputTable('Rear corner', 'rearCorner', r.inputs.rearCorner, f)}
+  ${inputTable('Front corner', 'frontCorner', r.inputs.frontCorner, f, r.inputs.frontCorner)}
+  ${inputTable('Rear corner', 'rearCorner', r.inputs.rearCorner, f, r.inputs.rearCorner)}
 </section>
 <footer class="record-foot"><p class="safety" role="note"><strong>Safety:</strong> ${esc(r.safetyNotice)}</p></footer>
 </main></body></html>`;

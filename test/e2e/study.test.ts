@@ -34,7 +34,7 @@ describe('Tolerance study in Chromium', () => {
     await page.getByLabel('Camber shim thickness').fill('0.5');
     await page.getByLabel('Toe adjuster step').fill('0.375');
     await page.getByRole('button', { name: 'Add a tolerance' }).click();
-    await chooseOption(page, 'Point of tolerance 2', 'upperOuter');
+    await chooseOption(page, 'Point of tolerance 2', 'Upper ball joint');
     await chooseOption(page, 'Coordinate of tolerance 2', 'anywhere in a ball');
     await chooseOption(page, 'Distribution of tolerance 2', 'Uniform');
     await page.getByRole('button', { name: 'Start the study' }).click();

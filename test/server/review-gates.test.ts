@@ -278,8 +278,12 @@ describe('configuration review record', () => {
     expect(page).toContain('Wheel travel, in (bump +)');
     expect(page).toContain('Bump steer, deg/in');
     // Hardpoints to 0.1 mm in SI are written to 0.01 in (the same resolution); 1 in = 25.4 mm exactly (NIST SP 811, Appendix B).
-    const row = /<th scope="row">upper outer<\/th><td class="num">([^<]+)<\/td><td>in \(x, y, z\)<\/td>/.exec(page);
-    expect(row, 'the upper outer point in inches').not.toBeNull();
+    // The point is named as the hardpoint table names it (issue 15 §1: no words made from internal keys).
+    const row = /<th scope="row">Upper ball joint<\/th><td class="num">([^<]+)<\/td><td>in \(x, y, z\)<\/td>/.exec(page);
+    expect(row, 'the upper ball joint in inches').not.toBeNull();
+    const inputs = page.slice(page.indexOf('8. Inputs'));
+    expect(inputs).toContain('<th scope="row">Tie rod, inner end (rack)</th>');
+    expect(inputs).not.toMatch(/<th scope="row">(upper outer|tie rod inner|lower front)<\/th>/);
     const inches = row![1]!.split(', ').map((v) => Number(v.replace('−', '-')));
     inches.forEach((v, i) => expect(Math.abs(v - upperOuterMm[i]! / 25.4)).toBeLessThanOrEqual(0.005));
     // Caution figures in the reader's units: no millimetre figure left in the cautions section.

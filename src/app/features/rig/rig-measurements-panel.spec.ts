@@ -180,6 +180,50 @@ describe('RigMeasurementsPanel', () => {
     http.verify();
   });
 
+  it("takes the rack position and the rim diameter in the user's length unit and sends mm (1 in = 25.4 mm exactly, NIST SP 811, Appendix B)", async () => {
+    const units = signal<DisplayUnits>('imperial');
+    const { fixture, el, http } = setUp({ configurationId: 'config-1' }, units);
+    await answerStart(fixture, http);
+    // Toe as millimetres at the rim (the sweep's toe in degrees stands in for the figures: only the mapping is checked here).
+    const text = engineFile(0).replace('Toe (deg)', 'Toe (mm at rim)');
+    await fixture.componentInstance.readText('rig.csv', text);
+    http.expectOne(`${TEAM}/rig-measurements/preview`).flush(previewAnswer('rig.csv', text));
+    await drawn(fixture);
+    pick(fixture, el, 'toeUnit', 'mm at the rim');
+    const enter = (name: string, value: string) => {
+      const input = el.querySelector<HTMLInputElement>(`input[name=${name}]`)!;
+      input.value = value;
+      input.dispatchEvent(new Event('input'));
+      input.dispatchEvent(new Event('change'));
+      fixture.detectChanges();
+    };
+    // The unit is in the fields; the limits are said in it (100 to 2000 mm: 3.937 to 78.74 in, 4 significant figures).
+    expect(el.querySelector('input[name=rimDiameter]')!.closest('mat-form-field')!.textContent).toContain('Reference diameter (in)');
+    expect(el.querySelector('input[name=rackMm]')!.closest('mat-form-field')!.textContent).toContain('Rack position (in)');
+    expect(el.textContent).toContain('Toe in mm at the rim needs the reference diameter, 3.937 to 78.74 in.');
+    enter('rimDiameter', '2');
+    expect(el.textContent).toContain('Toe in mm at the rim needs the reference diameter, 3.937 to 78.74 in.');
+    enter('rimDiameter', '20');
+    enter('rackMm', 'left');
+    expect(el.textContent).toContain('The rack position must be a number (in).');
+    expect(el.querySelector<HTMLInputElement>('input[name=rackMm]')!.value).toBe('left');
+    enter('rackMm', '0.5');
+    expect(el.textContent).not.toContain('reference diameter,');
+    expect(el.textContent).not.toContain('The rack position must be');
+    button(el, 'Store measurement').click();
+    const create = http.expectOne(`${TEAM}/rig-measurements`);
+    const body = create.request.body as FormData;
+    expect((JSON.parse(body.get('mapping') as string) as RigMapping).rimDiameterMm).toBeCloseTo(508, 9); // 20 × 25.4
+    expect((JSON.parse(body.get('options') as string) as { rackMm: number }).rackMm).toBeCloseTo(12.7, 9); // 0.5 × 25.4
+    create.flush({ ...summary('m-2') });
+    await drawn(fixture);
+    http.expectOne((r) => r.url === `${TEAM}/rig-measurements`).flush([summary('m-2')]);
+    // (The stored measurement's overlay is the test above's; here it is answered with a refusal.)
+    http.expectOne(`${TEAM}/rig-measurements/m-2`).flush({ error: { code: 'not_found', message: 'Rig measurement not found' } }, { status: 404, statusText: 'Not Found' });
+    fixture.detectChanges();
+    http.verify();
+  });
+
   it('shows the lines the server refuses and stores nothing', async () => {
     const { fixture, el, http } = setUp({ designId: 'design-1' });
     const list = http.expectOne((r) => r.url === `${TEAM}/rig-measurements`);
@@ -213,7 +257,8 @@ describe('RigMeasurementsPanel', () => {
   it('keeps Store disabled when two quantities share a column', async () => {
     const { fixture, el, http } = setUp();
     await answerStart(fixture, http);
-    const text = engineFile(0);
+    // Toe as millimetres at the rim (the sweep's toe in degrees stands in for the figures: only the mapping is checked here).
+    const text = engineFile(0).replace('Toe (deg)', 'Toe (mm at rim)');
     await fixture.componentInstance.readText('rig.csv', text);
     http.expectOne(`${TEAM}/rig-measurements/preview`).flush(previewAnswer('rig.csv', text));
     fixture.detectChanges();

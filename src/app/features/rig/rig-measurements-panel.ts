@@ -4,7 +4,7 @@ import { of, Subscription } from 'rxjs';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { MatButton } from '@angular/material/button';
 import { MatCheckbox } from '@angular/material/checkbox';
-import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatFormField, MatLabel, MatSuffix } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
 import { MatDialog } from '@angular/material/dialog';
@@ -32,7 +32,12 @@ import { SafetyCaution } from '../safety-caution';
 import { RigApi, type RigMeasurementDetail, type RigMeasurementSummary, type RigPreviewAnswer, type RigTarget } from './rig-api';
 import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
 import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
+import { formatNum } from '../../core/format/num';
+import { inputValue } from '../../core/forms/dom-events';
 import type { AxleName } from '../../../../shared/schema/axle';
+
+/** The reference diameter toe in mm at the rim is read with, mm (the check the panel makes before the file is read). */
+const RIM_DIAMETER_MM = { min: 100, max: 2000 } as const;
 
 /** Where the upload of a new file stands. */
 type UploadState =
@@ -69,7 +74,7 @@ const UNIT_WORDS: Readonly<Record<string, string>> = {
  */
 @Component({
   selector: 'rw-rig-measurements',
-  imports: [NumPipe, MatButton, MatCheckbox, MatFormField, MatLabel, MatInput, MatSelect, MatOption, LineChart, CautionList, SafetyCaution],
+  imports: [NumPipe, MatButton, MatCheckbox, MatFormField, MatLabel, MatSuffix, MatInput, MatSelect, MatOption, LineChart, CautionList, SafetyCaution],
   templateUrl: './rig-measurements-panel.html',
   styleUrl: './rig-measurements-panel.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -127,14 +132,20 @@ export class RigMeasurementsPanel {
   protected readonly travelUnit = signal<TravelUnit>('mm');
   protected readonly toeUnit = signal<ToeUnit>('deg');
   protected readonly camberUnit = signal<CamberUnit>('deg');
-  protected readonly rimDiameterText = signal('');
+  /** Reference diameter of toe in mm at the rim, mm (typed in the user's length unit); null until given. */
+  protected readonly rimDiameterMm = signal<number | null>(null);
+  /** The text typed for the diameter is a number or empty (else the field keeps the text and the diameter counts as missing). */
+  private readonly rimDiameterTyped = signal(true);
   protected readonly travelSign = signal<(typeof TRAVEL_SIGNS)[number]>('bump-positive');
   protected readonly toeSign = signal<(typeof TOE_SIGNS)[number]>('toe-in-positive');
   protected readonly camberSign = signal<(typeof CAMBER_SIGNS)[number]>('top-out-positive');
   // What it is compared with.
   protected readonly chosenAxle = signal<AxleName>('front');
   protected readonly side = signal<'left' | 'right'>('left');
-  protected readonly rackText = signal('0');
+  /** Rack position, mm (typed in the user's length unit). */
+  protected readonly rackPositionMm = signal<number>(0);
+  /** The text typed for the rack position is a number (else the field keeps the text and the mapping names the problem). */
+  private readonly rackTyped = signal(true);
   protected readonly basis = signal<RigBasis>('change');
   protected readonly name = signal('');
   protected readonly toleranceToeText = signal('');
@@ -182,13 +193,35 @@ export class RigMeasurementsPanel {
     return u.kind === 'mapping' || u.kind === 'storing' ? u.preview : u.kind === 'rows' || u.kind === 'refused' ? u.preview : null;
   });
 
-  protected readonly rackMm = computed(() => {
-    const v = Number(this.rackText().trim().replace(',', '.'));
-    return this.rackText().trim() !== '' && Number.isFinite(v) ? v : null;
-  });
+  protected readonly rackMm = computed(() => (this.rackTyped() ? this.rackPositionMm() : null));
+
+  /** A stored length (mm) as its field shows it and it is typed: in the user's unit, 8 significant figures (as the hardpoint table). */
+  protected shown(mm: number | null): string {
+    return formatNum(mm, { kind: 'length', sig: 8, missing: '' }, this.units());
+  }
+
+  /** A length field's text in the user's unit, in mm (1 in = 25.4 mm): null when empty, NaN when not a number. */
+  private typedMm(event: Event): number | null {
+    const text = inputValue(event).trim().replace(',', '.');
+    if (text === '') return null;
+    const typed = Number(text);
+    return Number.isFinite(typed) ? typed / inDisplayUnits(1, 'length', this.units()) : Number.NaN;
+  }
+
+  protected commitRack(event: Event): void {
+    const mm = this.typedMm(event);
+    this.rackTyped.set(mm !== null && Number.isFinite(mm));
+    if (mm !== null && Number.isFinite(mm)) this.rackPositionMm.set(mm);
+  }
+
+  protected commitRimDiameter(event: Event): void {
+    const mm = this.typedMm(event);
+    this.rimDiameterTyped.set(mm === null || Number.isFinite(mm));
+    if (mm === null || Number.isFinite(mm)) this.rimDiameterMm.set(mm);
+  }
 
   protected readonly mapping = computed<RigMapping | null>(() => {
-    const rim = Number(this.rimDiameterText().trim().replace(',', '.'));
+    const rim = this.rimDiameterTyped() ? this.rimDiameterMm() : null;
     const camber = this.camberColumn();
     const m: RigMapping = {
       hasHeader: this.hasHeader(),
@@ -200,7 +233,7 @@ export class RigMeasurementsPanel {
       travelSign: this.travelSign(),
       toeSign: this.toeSign(),
       ...(camber >= 0 ? { camberUnit: this.camberUnit(), camberSign: this.camberSign() } : {}),
-      ...(this.toeUnit() === 'mm-at-rim' && Number.isFinite(rim) && this.rimDiameterText().trim() !== '' ? { rimDiameterMm: rim } : {}),
+      ...(this.toeUnit() === 'mm-at-rim' && rim !== null ? { rimDiameterMm: rim } : {}),
     };
     return m;
   });
@@ -211,10 +244,13 @@ export class RigMeasurementsPanel {
     const out: string[] = [];
     const cols = [m.travelColumn, m.toeColumn, ...(m.camberColumn != null ? [m.camberColumn] : [])];
     if (new Set(cols).size !== cols.length) out.push('Travel, toe and camber must be different columns.');
-    if (m.toeUnit === 'mm-at-rim' && (m.rimDiameterMm === undefined || m.rimDiameterMm < 100 || m.rimDiameterMm > 2000)) {
-      out.push('Toe in mm at the rim needs the reference diameter, 100 to 2000 mm.');
+    const units = this.units();
+    const length = (mm: number) => formatNum(mm, { kind: 'length' }, units);
+    const unit = this.lengthUnit();
+    if (m.toeUnit === 'mm-at-rim' && (m.rimDiameterMm === undefined || m.rimDiameterMm < RIM_DIAMETER_MM.min || m.rimDiameterMm > RIM_DIAMETER_MM.max)) {
+      out.push(`Toe in mm at the rim needs the reference diameter, ${length(RIM_DIAMETER_MM.min)} to ${length(RIM_DIAMETER_MM.max)} ${unit}.`);
     }
-    if (this.rackMm() === null) out.push('The rack position must be a number (mm).');
+    if (this.rackMm() === null) out.push(`The rack position must be a number (${unit}).`);
     return out;
   });
 

@@ -3,7 +3,7 @@ import { Router, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
-import { MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
+import { MatError, MatFormField, MatHint, MatLabel, MatSuffix } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
 import { MatRadioButton, MatRadioGroup } from '@angular/material/radio';
@@ -19,6 +19,15 @@ import { rxResource } from '@angular/core/rxjs-interop';
 import { catchError, EMPTY, expand, map, of, switchMap, timer } from 'rxjs';
 import { loadState } from '../../core/http/load-state';
 import type { AxleName } from '../../../../shared/schema/axle';
+import type { Corner } from '../../../../shared/schema/corner';
+import { hardpointRows } from '../../../../shared/io/hardpoint-points';
+import { FIXED_POINTS } from '../../../../shared/study/schema';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import { formatNum } from '../../core/format/num';
+import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
+import { ErrorState } from '../../core/forms/error-state';
+import { FeaturesApi } from '../features-api';
+import { ConfigurationsApi } from '../configurations/configurations-api';
 
 interface ToleranceRow {
   point: string;
@@ -35,11 +44,23 @@ interface FactorRow {
   levels: number;
 }
 
-/** Every corner point a tolerance or a sweep may name (the wheel axis points excepted); the server checks them against the corner's type. */
-const POINT_NAMES = [
-  'lowerFront', 'lowerRear', 'lowerOuter', 'upperFront', 'upperRear', 'upperOuter', 'tieRodInner', 'tieRodOuter', 'strutTop', 'strutLower',
-  'link1Inner', 'link1Outer', 'link2Inner', 'link2Outer', 'link3Inner', 'link3Outer', 'link4Inner', 'link4Outer', 'link5Inner', 'link5Outer',
-];
+/** A corner point a tolerance or a sweep may name: its key in the request, its name as the hardpoint table writes it. */
+interface PointChoice {
+  readonly key: string;
+  readonly name: string;
+}
+
+/** The linkage points of the corner a study is of (the wheel axis points excepted, as the server requires), by their hardpoint-table names. */
+function pointChoices(corner: Corner): PointChoice[] {
+  return hardpointRows(corner)
+    .filter((r) => r.key.startsWith('points.'))
+    .map((r) => ({ key: r.key.slice('points.'.length), name: r.name }))
+    .filter((p) => !FIXED_POINTS.includes(p.key));
+}
+
+/** Limits of the request's lengths, mm (shared/study/schema.ts), for messages in the user's unit before anything is sent. */
+const BAND_MAX_MM = 50;
+const SETUP_MAX_MM = 10;
 
 const isActive = (s: StudyView): boolean => s.status === 'queued' || s.status === 'running';
 
@@ -50,7 +71,9 @@ const isActive = (s: StudyView): boolean => s.status === 'queued' || s.status ==
  */
 @Component({
   selector: 'rw-studies-page',
-  imports: [RouterLink, MatButton, MatIcon, MatProgressBar, MatFormField, MatLabel, MatHint, MatInput, MatSelect, MatOption, MatRadioGroup, MatRadioButton],
+  imports: [
+    RouterLink, MatButton, MatIcon, MatProgressBar, MatFormField, MatLabel, MatHint, MatError, MatSuffix, MatInput, MatSelect, MatOption, MatRadioGroup, MatRadioButton, ErrorState,
+  ],
   templateUrl: './studies-page.html',
   styleUrl: './studies.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -59,9 +82,15 @@ export class StudiesPage {
   protected readonly value = inputValue;
   protected readonly toleranceAxes: readonly ToleranceRow['axis'][] = ['x', 'y', 'z', 'sphere'];
   protected readonly factorAxes: readonly FactorRow['axis'][] = ['x', 'y', 'z'];
+  protected readonly bounds = [{ key: 'fromMm', label: 'From' }, { key: 'toMm', label: 'To' }] as const;
   private readonly router = inject(Router);
   private readonly api = inject(StudiesApi);
   protected readonly access = inject(TeamAccess);
+  private readonly features = inject(FeaturesApi);
+  private readonly configurations = inject(ConfigurationsApi);
+  /** The user's unit system: every length field is typed and shown in it; the request stays in mm. */
+  private readonly units = inject(DISPLAY_UNITS);
+  protected readonly lengthUnit = computed(() => unitLabel('length', this.units()));
 
   readonly teamId = input.required<string>();
   /** `?axleDesignId=` or `?configurationId=`: what a new study is of. */
@@ -82,7 +111,23 @@ export class StudiesPage {
   protected readonly state = loadState(this.studies);
   protected readonly statusWords = STATUS_WORDS;
   protected readonly eta = etaWords;
-  protected readonly pointNames = POINT_NAMES;
+  /** The corner the new study is of (the axle design, or the configuration's design of the chosen axle at its revision): its points' names. */
+  private readonly corner = rxResource({
+    params: () => ({ teamId: this.teamId(), axleDesignId: this.axleDesignId(), configurationId: this.configurationId(), axle: this.axle() }),
+    stream: ({ params: p }) => {
+      if (p.axleDesignId) return this.features.axleDesign(p.teamId, p.axleDesignId).pipe(map((d): Corner | null => d.corner));
+      if (!p.configurationId) return of<Corner | null>(null);
+      return this.configurations.get(p.teamId, p.configurationId).pipe(
+        switchMap((c) => this.configurations.designRevision(p.teamId, c[p.axle].designId, c[p.axle].revision)),
+        map((r): Corner | null => r.corner),
+      );
+    },
+  });
+  protected readonly cornerState = loadState(this.corner);
+  protected readonly points = computed<readonly PointChoice[]>(() => {
+    const c = this.cornerState();
+    return c.status === 'ready' && c.value ? pointChoices(c.value) : [];
+  });
   protected readonly profiles = TRACK_PROFILE_IDS.map((id) => trackProfiles[id]);
   protected readonly maxSamples = MAX_STUDY_SAMPLES;
   private readonly timeZone = browserTimeZone();
@@ -97,8 +142,10 @@ export class StudiesPage {
   protected readonly tolerances = signal<ToleranceRow[]>([{ point: 'tieRodInner', axis: 'z', plusMinusMm: 0.5, distribution: 'normal' }]);
   protected readonly normalSigmas = signal(3);
   protected readonly shimMm = signal<number | null>(null);
+  /** Length fields whose typed text was refused, by field ('tolerance-0', 'fromMm-1', 'shim', 'racks'…): the message beside the field. */
+  protected readonly lengthErrors = signal<ReadonlyMap<string, string>>(new Map());
   protected readonly adjusterMm = signal<number | null>(null);
-  protected readonly racks = signal('0');
+  protected readonly racksMm = signal<readonly number[]>([0]);
   protected readonly design = signal<'full-factorial' | 'latin-hypercube'>('latin-hypercube');
   protected readonly factors = signal<FactorRow[]>([{ point: 'tieRodInner', axis: 'z', fromMm: 0, toMm: 10, levels: 5 }]);
   protected readonly direction = signal<'more-understeer' | 'less-understeer'>('more-understeer');
@@ -115,6 +162,10 @@ export class StudiesPage {
 
   protected load(): void {
     this.studies.reload();
+  }
+
+  protected loadCorner(): void {
+    this.corner.reload();
   }
 
   protected localTime(iso: string): string {
@@ -134,6 +185,85 @@ export class StudiesPage {
     return v === '' ? null : Number(v);
   }
 
+  /** A stored length (mm) as its field shows it and it is typed: in the user's unit, 8 significant figures (as the hardpoint table). */
+  protected shown(mm: number | null): string {
+    return formatNum(mm, { kind: 'length', sig: 8, missing: '' }, this.units());
+  }
+
+  protected shownList(mm: readonly number[]): string {
+    return mm.map((v) => this.shown(v)).join(', ');
+  }
+
+  /** A value typed in the user's unit, in mm (1 in = 25.4 mm). */
+  private mmOf(typed: number): number {
+    return typed / inDisplayUnits(1, 'length', this.units());
+  }
+
+  private setLengthError(field: string, message: string | null): void {
+    const next = new Map(this.lengthErrors());
+    if (message === null) next.delete(field);
+    else next.set(field, message);
+    this.lengthErrors.set(next);
+  }
+
+  protected lengthError(field: string): string | undefined {
+    return this.lengthErrors().get(field);
+  }
+
+  /**
+   * Reads a length field's text in the user's unit: the value in mm, or null
+   * after putting the problem beside the field in the user's words and unit.
+   * `limits` are the request's, in mm; a field may be left empty only when `optional`.
+   */
+  private readLength(field: string, what: string, event: Event, limits: { min?: number; above?: number; max?: number }, optional = false): number | null | undefined {
+    const text = inputValue(event).trim().replace(',', '.');
+    const unit = this.lengthUnit();
+    const write = (mm: number) => `${formatNum(mm, { kind: 'length' }, this.units())} ${unit}`;
+    if (text === '') {
+      this.setLengthError(field, optional ? null : `${what}: enter a length in ${unit}.`);
+      return optional ? undefined : null;
+    }
+    const typed = Number(text);
+    let problem: string | null = null;
+    if (!Number.isFinite(typed)) problem = `${what}: "${text}" is not a number of ${unit}.`;
+    else {
+      const mm = this.mmOf(typed);
+      if (limits.above !== undefined && mm <= limits.above) problem = `${what} must be more than ${write(limits.above)}.`;
+      else if (limits.min !== undefined && mm < limits.min) problem = `${what} must be at least ${write(limits.min)}.`;
+      else if (limits.max !== undefined && mm > limits.max) problem = `${what} must be at most ${write(limits.max)}.`;
+    }
+    this.setLengthError(field, problem);
+    return problem ? null : this.mmOf(typed);
+  }
+
+  protected commitBand(i: number, event: Event): void {
+    const mm = this.readLength(`tolerance-${i}`, `Tolerance ${i + 1}`, event, { above: 0, max: BAND_MAX_MM });
+    if (typeof mm === 'number') this.setTolerance(i, { plusMinusMm: mm });
+  }
+
+  protected commitBound(i: number, which: 'fromMm' | 'toMm', event: Event): void {
+    const mm = this.readLength(`${which}-${i}`, `${which === 'fromMm' ? 'From' : 'To'} of coordinate ${i + 1}`, event, {});
+    if (typeof mm === 'number') this.setFactor(i, { [which]: mm });
+  }
+
+  protected commitSetup(which: 'shim' | 'adjuster', event: Event): void {
+    const mm = this.readLength(which, which === 'shim' ? 'Camber shim thickness' : 'Toe adjuster step', event, { min: 0, max: SETUP_MAX_MM }, true);
+    if (mm === null) return;
+    (which === 'shim' ? this.shimMm : this.adjusterMm).set(mm ?? null);
+  }
+
+  protected commitRacks(event: Event): void {
+    const unit = this.lengthUnit();
+    const parts = inputValue(event).split(/[,;\s]+/).filter((t) => t !== '');
+    const bad = parts.find((t) => !Number.isFinite(Number(t)));
+    if (parts.length === 0) this.setLengthError('racks', `Rack positions: enter at least one, in ${unit}.`);
+    else if (bad !== undefined) this.setLengthError('racks', `Rack positions: "${bad}" is not a number of ${unit}.`);
+    else {
+      this.setLengthError('racks', null);
+      this.racksMm.set(parts.map((t) => this.mmOf(Number(t))));
+    }
+  }
+
   protected setTolerance(i: number, patch: Partial<ToleranceRow>): void {
     this.tolerances.update((rows) => rows.map((r, k) => (k === i ? { ...r, ...patch } : r)));
   }
@@ -144,6 +274,19 @@ export class StudiesPage {
 
   protected removeTolerance(i: number): void {
     this.tolerances.update((rows) => rows.filter((_, k) => k !== i));
+    this.shiftErrors(['tolerance'], i);
+  }
+
+  /** After row `i` of a table is removed, its fields' messages go and the later rows' move up with them. */
+  private shiftErrors(prefixes: readonly string[], i: number): void {
+    const next = new Map<string, string>();
+    for (const [field, message] of this.lengthErrors()) {
+      const m = /^(.+)-(\d+)$/.exec(field);
+      if (!m || !prefixes.includes(m[1]!)) next.set(field, message);
+      else if (Number(m[2]) > i) next.set(`${m[1]}-${Number(m[2]) - 1}`, message);
+      else if (Number(m[2]) < i) next.set(field, message);
+    }
+    this.lengthErrors.set(next);
   }
 
   protected setFactor(i: number, patch: Partial<FactorRow>): void {
@@ -156,13 +299,14 @@ export class StudiesPage {
 
   protected removeFactor(i: number): void {
     this.factors.update((rows) => rows.filter((_, k) => k !== i));
+    this.shiftErrors(['fromMm', 'toMm'], i);
   }
 
   /** The request body of docs/api.md from the form. */
   protected request(): StudyRequest {
     const axleDesignId = this.axleDesignId();
     const target = axleDesignId ? { axleDesignId } : { configurationId: this.configurationId() ?? '', axle: this.axle() };
-    const racks = this.racks().split(',').map((r) => Number(r.trim())).filter((r) => r.toString() !== 'NaN');
+    const racks = [...this.racksMm()];
     const common = {
       target,
       ...(this.label().trim() ? { label: this.label().trim() } : {}),
@@ -193,6 +337,10 @@ export class StudiesPage {
 
   protected async start(): Promise<void> {
     this.formError.set(null);
+    if (this.lengthErrors().size > 0) {
+      this.formError.set(`Correct the fields marked beside them first: ${[...this.lengthErrors().values()].join(' ')}`);
+      return;
+    }
     this.saving.set(true);
     try {
       const { study } = await firstValueFrom(this.api.start(this.teamId(), this.request()));

@@ -1,0 +1,188 @@
+import { HttpTestingController } from '@angular/common/http/testing';
+import { signal } from '@angular/core';
+import { TestBed } from '@angular/core/testing';
+import { RouterTestingHarness } from '@angular/router/testing';
+import type { DisplayUnits } from '../../core/api-types';
+import { exampleCorners } from '../../../../shared/kinematics/examples';
+import { hardpointRows } from '../../../../shared/io/hardpoint-points';
+import type { StudyRequest } from '../../../../shared/study/schema';
+import { routedPageTestBed } from '../../../testing/routed-page';
+import { settle } from '../../../testing/settle';
+import { chooseOption, clickToggle, matSelect, optionTexts } from '../../../testing/material';
+import { StudiesPage } from './studies-page';
+
+const T = '/api/teams/t-tal';
+const TEAM = { id: 't-tal', name: 'Tallowmere University Racing', slug: 'tallowmere', roles: ['designer'], permissions: ['team:read', 'study:run'] };
+/** A key as the corner document spells it (`upperOuter`, `link3Inner`): never shown to the user. */
+const RAW_KEY = /^[a-z]+[A-Z0-9]\w*$/;
+
+describe('StudiesPage: the new study form', () => {
+  let backend: HttpTestingController;
+  const units = signal<DisplayUnits>('si');
+
+  beforeEach(async () => {
+    units.set('si');
+    backend = await routedPageTestBed('teams/:teamId/studies', StudiesPage, units);
+  });
+  afterEach(() => backend.verify());
+
+  /** Opens the page for a new study of `query` and answers the team, the list and the corner's requests. */
+  async function open(query: string, answerCorner: () => void): Promise<{ root: HTMLElement; harness: RouterTestingHarness }> {
+    const harness = await RouterTestingHarness.create();
+    await harness.navigateByUrl(`/teams/t-tal/studies?${query}`, StudiesPage);
+    await settle();
+    backend.expectOne(T).flush(TEAM);
+    backend.expectOne(`${T}/studies`).flush({ studies: [] });
+    answerCorner();
+    await settle();
+    harness.detectChanges();
+    return { root: harness.routeNativeElement!, harness };
+  }
+
+  const openDesign = () => open('axleDesignId=d-front', () => backend.expectOne(`${T}/axle-designs/d-front`).flush({ id: 'd-front', corner: exampleCorners.fsFrontWishbone }));
+
+  /** Types `text` into the input and leaves it (the field commits on its change event, as on blur). */
+  function enter(root: HTMLElement, selector: string, text: string): void {
+    const input = root.querySelector<HTMLInputElement>(selector);
+    if (!input) throw new Error(`no input ${selector}`);
+    input.value = text;
+    input.dispatchEvent(new Event('input'));
+    input.dispatchEvent(new Event('change'));
+    TestBed.tick();
+  }
+
+  async function start(root: HTMLElement, harness: RouterTestingHarness): Promise<void> {
+    root.querySelector<HTMLButtonElement>('button[type=submit]')!.click();
+    await settle();
+    harness.detectChanges();
+  }
+
+  it("lists the corner's points by the hardpoint table's names, never by their keys (issue 15 §1)", async () => {
+    const { root } = await openDesign();
+    const names = optionTexts(matSelect(root, 'mat-select[aria-label="Point of tolerance 1"]'));
+    // The same names as the design's hardpoint table, the wheel axis points (which a tolerance may not move) left out.
+    const table = hardpointRows(exampleCorners.fsFrontWishbone).filter((r) => r.key.startsWith('points.') && !/wheelCentre|spindle/.test(r.key)).map((r) => r.name);
+    expect(names).toEqual(table);
+    expect(names).toContain('Upper ball joint');
+    expect(names).toContain('Tie rod, inner end (rack)');
+    expect(names.filter((n) => RAW_KEY.test(n))).toEqual([]);
+    // The chosen point shows its name, not its key.
+    expect(matSelect(root, 'mat-select[aria-label="Point of tolerance 1"]').textContent.trim()).toBe('Tie rod, inner end (rack)');
+  });
+
+  it("names the unsteered rear axle's toe link, for a configuration's axle at the configuration's design revision", async () => {
+    const { root } = await open('configurationId=c-1', () => {
+      backend.expectOne(`${T}/configurations/c-1`).flush({
+        id: 'c-1', front: { designId: 'd-front', name: 'Front', revision: 3 }, rear: { designId: 'd-rear', name: 'Rear', revision: 2 },
+      });
+      backend.expectOne(`${T}/axle-designs/d-front/revisions/3`).flush({ revision: 3, corner: exampleCorners.fsFrontWishbone });
+    });
+    chooseOption(matSelect(root, 'mat-select[name="axle"]'), 'Rear');
+    await settle();
+    backend.expectOne(`${T}/configurations/c-1`).flush({
+      id: 'c-1', front: { designId: 'd-front', name: 'Front', revision: 3 }, rear: { designId: 'd-rear', name: 'Rear', revision: 2 },
+    });
+    await settle();
+    backend.expectOne(`${T}/axle-designs/d-rear/revisions/2`).flush({ revision: 2, corner: exampleCorners.fsRearWishbone });
+    await settle();
+    TestBed.tick();
+    const names = optionTexts(matSelect(root, 'mat-select[aria-label="Point of tolerance 1"]'));
+    expect(names).toContain('Toe link, inner end (body)');
+    expect(names).not.toContain('Tie rod, inner end (rack)');
+  });
+
+  it("takes an inch-pound user's lengths in inches and sends millimetres (1 in = 25.4 mm exactly, NIST SP 811, Appendix B)", async () => {
+    units.set('imperial');
+    const { root, harness } = await openDesign();
+    // The unit is shown in the fields and the column heads.
+    expect(root.querySelector('table[aria-label="Tolerances"] thead')!.textContent).toContain('± in');
+    expect(root.querySelector('input[aria-label="Tolerance 1 (in)"]')!.closest('mat-form-field')!.textContent).toContain('in');
+    // The default ±0.5 mm band is shown in inches: 0.5 / 25.4 = 0.019685039 (8 significant figures).
+    expect(root.querySelector<HTMLInputElement>('input[aria-label="Tolerance 1 (in)"]')!.value).toBe('0.019685039');
+    enter(root, 'input[aria-label="Tolerance 1 (in)"]', '0.1');
+    enter(root, 'input[name="camberShimMm"]', '0.02');
+    enter(root, 'input[name="toeAdjusterStepMm"]', '0.015');
+    enter(root, 'input[name="racks"]', '-0.5, 0, 0.5');
+    expect(root.querySelector<HTMLInputElement>('input[aria-label="Tolerance 1 (in)"]')!.value).toBe('0.1');
+    await start(root, harness);
+    const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
+    const body = req.request.body as Extract<StudyRequest, { kind: 'tolerance' }>;
+    expect(body.tolerances[0]!.plusMinusMm).toBeCloseTo(2.54, 12); // 0.1 × 25.4
+    expect(body.setup.camberShimMm).toBeCloseTo(0.508, 12); // 0.02 × 25.4
+    expect(body.setup.toeAdjusterStepMm).toBeCloseTo(0.381, 12); // 0.015 × 25.4
+    expect(body.analysis.rackMm.map((r) => Number(r.toFixed(9)))).toEqual([-12.7, 0, 12.7]);
+    req.flush({ study: { id: 's-1' } });
+    await settle();
+  });
+
+  it("takes a design sweep's bounds in the user's unit and sends millimetres (1 in = 25.4 mm, NIST SP 811)", async () => {
+    units.set('imperial');
+    const { root, harness } = await openDesign();
+    clickToggle(root, 'Design sweep');
+    harness.detectChanges();
+    expect(root.querySelector('table[aria-label="Swept coordinates"] thead')!.textContent).toContain('From (in)');
+    enter(root, 'input[aria-label="From of factor 1 (in)"]', '-0.25');
+    enter(root, 'input[aria-label="To of factor 1 (in)"]', '0.75');
+    await start(root, harness);
+    const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
+    const body = req.request.body as Extract<StudyRequest, { kind: 'sweep' }>;
+    expect(body.factors[0]!.fromMm).toBeCloseTo(-6.35, 12); // −0.25 × 25.4
+    expect(body.factors[0]!.toMm).toBeCloseTo(19.05, 12); // 0.75 × 25.4
+    req.flush({ study: { id: 's-2' } });
+    await settle();
+  });
+
+  it("refuses a length beside its field in the user's words and unit, and sends nothing", async () => {
+    units.set('imperial');
+    const { root, harness } = await openDesign();
+    // A band is at most 50 mm (the request's limit): 1.969 in to the length's 4 significant figures.
+    enter(root, 'input[aria-label="Tolerance 1 (in)"]', '3');
+    harness.detectChanges();
+    const field = root.querySelector('input[aria-label="Tolerance 1 (in)"]')!.closest('mat-form-field')!;
+    expect(field.querySelector('mat-error')!.textContent.trim()).toBe('Tolerance 1 must be at most 1.969 in.');
+    expect(field.querySelector('input')!.getAttribute('aria-invalid')).toBe('true');
+    enter(root, 'input[name="camberShimMm"]', 'thin');
+    harness.detectChanges();
+    expect(root.querySelector('input[name="camberShimMm"]')!.closest('mat-form-field')!.querySelector('mat-error')!.textContent.trim()).toBe(
+      'Camber shim thickness: "thin" is not a number of in.',
+    );
+    await start(root, harness);
+    backend.expectNone({ method: 'POST', url: `${T}/studies` });
+    expect(root.querySelector('.rw-study-form > [role=alert]')!.textContent).toContain('Tolerance 1 must be at most 1.969 in.');
+    // Corrected, the band goes (0.5 in = 12.7 mm).
+    enter(root, 'input[aria-label="Tolerance 1 (in)"]', '0.5');
+    enter(root, 'input[name="camberShimMm"]', '');
+    await start(root, harness);
+    const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
+    expect((req.request.body as Extract<StudyRequest, { kind: 'tolerance' }>).tolerances[0]!.plusMinusMm).toBeCloseTo(12.7, 12);
+    expect((req.request.body as Extract<StudyRequest, { kind: 'tolerance' }>).setup).toEqual({});
+    req.flush({ study: { id: 's-3' } });
+    await settle();
+  });
+
+  it("says when the design's points cannot be loaded, and loads them again on request", async () => {
+    const { root, harness } = await open('axleDesignId=d-front', () =>
+      backend.expectOne(`${T}/axle-designs/d-front`).flush({ error: { code: 'unavailable', message: 'The server is busy; try again in a moment.' } }, { status: 503, statusText: 'Busy' }),
+    );
+    const alert = root.querySelector('.rw-study-form > [role=alert]')!;
+    expect(alert.textContent).toContain('The points of the design could not be loaded: The server is busy; try again in a moment.');
+    [...alert.querySelectorAll('button')].find((b) => b.textContent.trim() === 'Try again')!.click();
+    await settle();
+    backend.expectOne(`${T}/axle-designs/d-front`).flush({ id: 'd-front', corner: exampleCorners.fsFrontWishbone });
+    await settle();
+    harness.detectChanges();
+    expect(root.querySelector('.rw-study-form > [role=alert]')).toBeNull();
+    expect(optionTexts(matSelect(root, 'mat-select[aria-label="Point of tolerance 1"]'))).toContain('Upper ball joint');
+  });
+
+  it('takes and sends millimetres for an SI user', async () => {
+    const { root, harness } = await openDesign();
+    expect(root.querySelector('table[aria-label="Tolerances"] thead')!.textContent).toContain('± mm');
+    enter(root, 'input[aria-label="Tolerance 1 (mm)"]', '0.25');
+    await start(root, harness);
+    const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
+    expect((req.request.body as Extract<StudyRequest, { kind: 'tolerance' }>).tolerances[0]!.plusMinusMm).toBe(0.25);
+    req.flush({ study: { id: 's-4' } });
+    await settle();
+  });
+});
