@@ -23,6 +23,8 @@ export interface QuantityUnits {
   readonly imperial: string;
   /** Inch/pound value = stored value × factor. */
   readonly factor: number;
+  /** Stored value = inch/pound value × toStored (1 / factor, written from the exact definitions so a typed 0.1 in is 2.54 mm). */
+  readonly toStored: number;
   /** Significant figures a figure of this kind is shown with unless the caller names a precision. */
   readonly sig: number;
 }
@@ -34,34 +36,34 @@ const FT_M = 0.3048;
 const MI_KM = 1.609344;
 
 export const QUANTITIES = {
-  length: { si: 'mm', imperial: 'in', factor: 1 / IN_MM, sig: 4 },
-  mass: { si: 'kg', imperial: 'lb', factor: 1 / LB_KG, sig: 4 },
-  force: { si: 'N', imperial: 'lbf', factor: 1 / LBF_N, sig: 4 },
-  angle: { si: 'deg', imperial: 'deg', factor: 1, sig: 3 },
-  linearRate: { si: 'N/mm', imperial: 'lbf/in', factor: IN_MM / LBF_N, sig: 4 },
-  rollStiffness: { si: 'N·m/deg', imperial: 'lbf·ft/deg', factor: 1 / (LBF_N * FT_M), sig: 4 },
-  inertia: { si: 'kg·m²', imperial: 'lb·ft²', factor: 1 / (LB_KG * FT_M * FT_M), sig: 4 },
-  understeerGradient: { si: 'deg/g', imperial: 'deg/g', factor: 1, sig: 3 },
-  rollSteer: { si: 'deg/deg', imperial: 'deg/deg', factor: 1, sig: 3 },
-  bumpSteer: { si: 'deg/m', imperial: 'deg/in', factor: IN_MM / 1000, sig: 3 },
+  length: { si: 'mm', imperial: 'in', factor: 1 / IN_MM, toStored: IN_MM, sig: 4 },
+  mass: { si: 'kg', imperial: 'lb', factor: 1 / LB_KG, toStored: LB_KG, sig: 4 },
+  force: { si: 'N', imperial: 'lbf', factor: 1 / LBF_N, toStored: LBF_N, sig: 4 },
+  angle: { si: 'deg', imperial: 'deg', factor: 1, toStored: 1, sig: 3 },
+  linearRate: { si: 'N/mm', imperial: 'lbf/in', factor: IN_MM / LBF_N, toStored: LBF_N / IN_MM, sig: 4 },
+  rollStiffness: { si: 'N·m/deg', imperial: 'lbf·ft/deg', factor: 1 / (LBF_N * FT_M), toStored: LBF_N * FT_M, sig: 4 },
+  inertia: { si: 'kg·m²', imperial: 'lb·ft²', factor: 1 / (LB_KG * FT_M * FT_M), toStored: LB_KG * FT_M * FT_M, sig: 4 },
+  understeerGradient: { si: 'deg/g', imperial: 'deg/g', factor: 1, toStored: 1, sig: 3 },
+  rollSteer: { si: 'deg/deg', imperial: 'deg/deg', factor: 1, toStored: 1, sig: 3 },
+  bumpSteer: { si: 'deg/m', imperial: 'deg/in', factor: IN_MM / 1000, toStored: 1000 / IN_MM, sig: 3 },
   /** Camber change per length of wheel travel (the same units as bump steer). */
-  camberGain: { si: 'deg/m', imperial: 'deg/in', factor: IN_MM / 1000, sig: 3 },
+  camberGain: { si: 'deg/m', imperial: 'deg/in', factor: IN_MM / 1000, toStored: 1000 / IN_MM, sig: 3 },
   /** Second-order term of a toe or camber curve against travel. */
-  curvature: { si: 'deg/m²', imperial: 'deg/in²', factor: (IN_MM / 1000) ** 2, sig: 3 },
+  curvature: { si: 'deg/m²', imperial: 'deg/in²', factor: (IN_MM / 1000) ** 2, toStored: (1000 / IN_MM) ** 2, sig: 3 },
   /** Vehicle speed (1 mi = 1.609344 km exactly). */
-  speed: { si: 'km/h', imperial: 'mph', factor: 1 / MI_KM, sig: 4 },
+  speed: { si: 'km/h', imperial: 'mph', factor: 1 / MI_KM, toStored: MI_KM, sig: 4 },
   /** Distances on the road: a corner radius, the drift after a bump. */
-  distance: { si: 'm', imperial: 'ft', factor: 1 / FT_M, sig: 4 },
+  distance: { si: 'm', imperial: 'ft', factor: 1 / FT_M, toStored: FT_M, sig: 4 },
   /** Lateral load transfer per g of lateral acceleration. */
-  forcePerG: { si: 'N/g', imperial: 'lbf/g', factor: 1 / LBF_N, sig: 4 },
+  forcePerG: { si: 'N/g', imperial: 'lbf/g', factor: 1 / LBF_N, toStored: LBF_N, sig: 4 },
   /** Compliance steer or camber per force (1 klbf = 4.4482216152605 kN). */
-  anglePerForce: { si: 'deg/kN', imperial: 'deg/klbf', factor: LBF_N, sig: 3 },
+  anglePerForce: { si: 'deg/kN', imperial: 'deg/klbf', factor: LBF_N, toStored: 1 / LBF_N, sig: 3 },
   /** Compliance steer per moment (1 klbf·ft = 4.4482216152605 kN × 0.3048 m). */
-  anglePerMoment: { si: 'deg/(kN·m)', imperial: 'deg/(klbf·ft)', factor: LBF_N * FT_M, sig: 3 },
+  anglePerMoment: { si: 'deg/(kN·m)', imperial: 'deg/(klbf·ft)', factor: LBF_N * FT_M, toStored: 1 / (LBF_N * FT_M), sig: 3 },
   /** Roll moment per g of lateral acceleration. */
-  momentPerG: { si: 'N·m/g', imperial: 'lbf·ft/g', factor: 1 / (LBF_N * FT_M), sig: 4 },
+  momentPerG: { si: 'N·m/g', imperial: 'lbf·ft/g', factor: 1 / (LBF_N * FT_M), toStored: LBF_N * FT_M, sig: 4 },
   /** Anti-roll bar twist per length of wheel travel. */
-  twistPerLength: { si: 'rad/m', imperial: 'rad/in', factor: IN_MM / 1000, sig: 4 },
+  twistPerLength: { si: 'rad/m', imperial: 'rad/in', factor: IN_MM / 1000, toStored: 1000 / IN_MM, sig: 4 },
 } as const satisfies Record<string, QuantityUnits>;
 
 export type QuantityKind = keyof typeof QUANTITIES;
@@ -69,6 +71,11 @@ export type QuantityKind = keyof typeof QUANTITIES;
 /** A stored value in the chosen unit system. */
 export function inDisplayUnits(value: number, kind: QuantityKind, units: DisplayUnits): number {
   return units === 'imperial' ? value * QUANTITIES[kind].factor : value;
+}
+
+/** A value typed in the user's unit system as the stored (SI-based) value: the inverse of inDisplayUnits. */
+export function fromDisplayUnits(value: number, kind: QuantityKind, units: DisplayUnits): number {
+  return units === 'imperial' ? value * QUANTITIES[kind].toStored : value;
 }
 
 /** The unit a value of this kind is shown in, e.g. unitLabel('length', 'imperial') = 'in'. */

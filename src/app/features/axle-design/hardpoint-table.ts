@@ -5,7 +5,7 @@ import { hardpointRows, HardpointRow, linkRows } from './hardpoint-model';
 import { parseDecimal, readPastedBlock } from './hardpoint-io';
 import { cornerUnusualValues } from '../../../../shared/schema/corner-ranges';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
-import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
+import { fromDisplayUnits, inDisplayUnits, unitLabel } from '../../core/format/quantities';
 import { formatNum } from '../../core/format/num';
 import { MatError, MatFormField } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
@@ -98,7 +98,7 @@ export class HardpointTable {
 
   /** A typed value in the user's unit, in mm. */
   private stored(v: number): number {
-    return this.units() === 'imperial' ? v * 25.4 : v;
+    return fromDisplayUnits(v, 'length', this.units());
   }
 
   protected cellId(row: HardpointRow, axis: number): string {

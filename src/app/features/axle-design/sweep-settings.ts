@@ -3,7 +3,7 @@ import { MatFormField, MatLabel } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import { formatNum } from '../../core/format/num';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
-import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
+import { fromDisplayUnits, unitLabel } from '../../core/format/quantities';
 
 /** The wheel-travel range the editor's curves are swept over (mm). */
 export interface TravelRange {
@@ -90,7 +90,7 @@ export class SweepSettings {
   protected set(which: keyof TravelRange, event: Event): void {
     const typed = Number((event.target as HTMLInputElement).value);
     // Typed in the user's unit; stored in mm (an inch is 25.4 mm).
-    const mm = this.units() === 'imperial' ? typed / inDisplayUnits(1, 'length', 'imperial') : typed;
+    const mm = fromDisplayUnits(typed, 'length', this.units());
     const next = { ...this.range(), [which]: mm };
     const problem = checkTravelRange(next);
     this.error.set(problem);

@@ -24,7 +24,7 @@ import { AxleDesignSummary, FeaturesApi } from '../features-api';
 import { SafetyCaution } from '../safety-caution';
 import { formatNum } from '../../core/format/num';
 import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
-import { inDisplayUnits, QUANTITIES, type QuantityKind, unitLabel } from '../../core/format/quantities';
+import { fromDisplayUnits, inDisplayUnits, QUANTITIES, type QuantityKind, unitLabel } from '../../core/format/quantities';
 import type { DisplayUnits } from '../../core/api-types';
 
 const BUDGET_LABELS: readonly [keyof BalanceResponse['understeerBudget'], string][] = [
@@ -95,11 +95,6 @@ function hasVariant(p: BalanceInputs): boolean {
 /** The request's limits (shared/balance/api.ts: the step-steer model divides by the speed). */
 const SPEED_RANGE_KPH = { min: 1, max: 400 } as const;
 const RADIUS_RANGE_M = { min: 2, max: 10_000 } as const;
-
-/** A value typed in the user's units as the stored (SI-based) value. */
-function fromDisplayUnits(value: number, kind: QuantityKind, units: DisplayUnits): number {
-  return units === 'imperial' ? value / QUANTITIES[kind].factor : value;
-}
 
 /** A range of stored values in the user's units, rounded as the message shows it. */
 function inUnits(range: { min: number; max: number }, kind: QuantityKind, units: DisplayUnits): { min: number; max: number } {

@@ -31,7 +31,7 @@ import { CautionList } from './caution-list';
 import { BumpCostView } from '../bump-cost';
 import { NumPipe, DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
-import { inDisplayUnits, unitLabel, type QuantityKind } from '../../core/format/quantities';
+import { fromDisplayUnits, inDisplayUnits, unitLabel, type QuantityKind } from '../../core/format/quantities';
 import { RigApi, type RigMeasurementDetail } from '../rig/rig-api';
 
 /** Rig files drawn over the toe curves at most (the newest). */
@@ -223,7 +223,7 @@ export class IntentPage {
   private mm(text: string): number {
     const v = parseDecimal(text);
     if (v === null) return NaN;
-    return this.units() === 'imperial' ? v * 25.4 : v;
+    return fromDisplayUnits(v, 'length', this.units());
   }
 
   private number(text: string): number {
@@ -498,7 +498,7 @@ export class IntentPage {
     const convert = (text: string) => {
       const v = parseDecimal(text);
       if (v === null) return text;
-      const mm = from === 'imperial' ? v * 25.4 : v;
+      const mm = fromDisplayUnits(v, 'length', from);
       return formatNum(mm, { sig: 7, kind: 'length' }, to);
     };
     this.movable.update((m) => Object.fromEntries(Object.entries(m).map(([k, s]) => [k, { ...s, min: convert(s.min), max: convert(s.max) }])));

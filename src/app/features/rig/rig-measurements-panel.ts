@@ -31,7 +31,7 @@ import { CautionList } from '../intent/caution-list';
 import { SafetyCaution } from '../safety-caution';
 import { RigApi, type RigMeasurementDetail, type RigMeasurementSummary, type RigPreviewAnswer, type RigTarget } from './rig-api';
 import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
-import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
+import { fromDisplayUnits, inDisplayUnits, unitLabel } from '../../core/format/quantities';
 import { formatNum } from '../../core/format/num';
 import { inputValue } from '../../core/forms/dom-events';
 import type { AxleName } from '../../../../shared/schema/axle';
@@ -205,7 +205,7 @@ export class RigMeasurementsPanel {
     const text = inputValue(event).trim().replace(',', '.');
     if (text === '') return null;
     const typed = Number(text);
-    return Number.isFinite(typed) ? typed / inDisplayUnits(1, 'length', this.units()) : Number.NaN;
+    return Number.isFinite(typed) ? fromDisplayUnits(typed, 'length', this.units()) : Number.NaN;
   }
 
   protected commitRack(event: Event): void {

@@ -24,7 +24,7 @@ import { hardpointRows } from '../../../../shared/io/hardpoint-points';
 import { FIXED_POINTS } from '../../../../shared/study/schema';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
-import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
+import { fromDisplayUnits, unitLabel } from '../../core/format/quantities';
 import { ErrorState } from '../../core/forms/error-state';
 import { FeaturesApi } from '../features-api';
 import { ConfigurationsApi } from '../configurations/configurations-api';
@@ -196,7 +196,7 @@ export class StudiesPage {
 
   /** A value typed in the user's unit, in mm (1 in = 25.4 mm). */
   private mmOf(typed: number): number {
-    return typed / inDisplayUnits(1, 'length', this.units());
+    return fromDisplayUnits(typed, 'length', this.units());
   }
 
   private setLengthError(field: string, message: string | null): void {

@@ -1,0 +1,32 @@
+/**
+ * The quantity table's two directions agree: a value shown in inch/pound
+ * units and typed back is the stored value again. The factors are the exact
+ * definitions of NIST SP 811, Appendix B (1 in = 25.4 mm, 1 lb = 0.45359237 kg,
+ * 1 lbf = 4.4482216152605 N, 1 ft = 0.3048 m, 1 mi = 1.609344 km).
+ */
+import { describe, expect, it } from 'vitest';
+import { fromDisplayUnits, inDisplayUnits, QUANTITIES, type QuantityKind } from '../../../shared/units/quantities.js';
+
+describe('fromDisplayUnits', () => {
+  it('is the inverse of inDisplayUnits for every kind (to rounding: 1e-14 relative)', () => {
+    for (const kind of Object.keys(QUANTITIES) as QuantityKind[]) {
+      for (const v of [-1234.5, -0.1, 0.1, 2, 77.7]) {
+        expect(fromDisplayUnits(inDisplayUnits(v, kind, 'imperial'), kind, 'imperial') / v, kind).toBeCloseTo(1, 14);
+      }
+      expect(fromDisplayUnits(3.3, kind, 'si')).toBe(3.3);
+    }
+  });
+
+  it('takes typed inch/pound values to the stored unit by the exact definitions (NIST SP 811, Appendix B)', () => {
+    expect(fromDisplayUnits(0.1, 'length', 'imperial')).toBe(2.54);
+    expect(fromDisplayUnits(1, 'length', 'imperial')).toBe(25.4);
+    expect(fromDisplayUnits(1, 'mass', 'imperial')).toBe(0.45359237);
+    expect(fromDisplayUnits(1, 'force', 'imperial')).toBe(4.4482216152605);
+    expect(fromDisplayUnits(100, 'speed', 'imperial')).toBeCloseTo(160.9344, 10);
+    expect(fromDisplayUnits(100, 'distance', 'imperial')).toBeCloseTo(30.48, 10);
+    // 1 lbf/in = 4.4482216152605 N / 25.4 mm.
+    expect(fromDisplayUnits(1, 'linearRate', 'imperial')).toBeCloseTo(4.4482216152605 / 25.4, 14);
+    // 1 deg/in = 1 deg / 0.0254 m.
+    expect(fromDisplayUnits(1, 'bumpSteer', 'imperial')).toBeCloseTo(1 / 0.0254, 10);
+  });
+});
