@@ -70,6 +70,21 @@ describe('StudiesPage: the new study form', () => {
     expect(matSelect(root, 'mat-select[aria-label="Point of tolerance 1"]').textContent.trim()).toBe('Tie rod, inner end (rack)');
   });
 
+  it("starts a five-link corner's rows on its toe link's body end, and adds rows on points it has (it has no tie rod or wishbone)", async () => {
+    const corner = exampleCorners.roadRearFiveLink;
+    const { root, harness } = await open('axleDesignId=d-rear', () => backend.expectOne(`${T}/axle-designs/d-rear`).flush({ id: 'd-rear', corner }));
+    const toe = hardpointRows(corner).find((r) => r.key === `points.link${corner.toeLink}Inner`)!.name;
+    expect(toe).toContain('toe link');
+    expect(matSelect(root, 'mat-select[aria-label="Point of tolerance 1"]').textContent.trim()).toBe(toe);
+    const names = optionTexts(matSelect(root, 'mat-select[aria-label="Point of tolerance 1"]'));
+    [...root.querySelectorAll<HTMLButtonElement>('button')].find((b) => /add a tolerance/i.test(b.textContent))!.click();
+    await settle();
+    harness.detectChanges();
+    const added = matSelect(root, 'mat-select[aria-label="Point of tolerance 2"]').textContent.trim();
+    expect(added).not.toBe('');
+    expect(names).toContain(added);
+  });
+
   it("names the unsteered rear axle's toe link, for a configuration's axle at the configuration's design revision", async () => {
     const { root } = await open('configurationId=c-1', () => {
       backend.expectOne(`${T}/configurations/c-1`).flush({

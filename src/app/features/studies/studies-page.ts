@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
 import { Router, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatIcon } from '@angular/material/icon';
@@ -48,6 +48,18 @@ interface FactorRow {
 interface PointChoice {
   readonly key: string;
   readonly name: string;
+}
+
+/** The point a new row starts on: the body end of the link that sets toe (tie rod or toe link), else the first point. */
+function toePoint(corner: Corner | null, points: readonly PointChoice[]): string {
+  const key = corner?.type === 'five-link' ? `link${corner.toeLink}Inner` : 'tieRodInner';
+  return points.some((p) => p.key === key) ? key : (points[0]?.key ?? key);
+}
+
+/** Rows on a point the corner has: a row on a point it lacks (another corner type) moves to `fallback`. */
+function onCornerPoints<R extends { point: string }>(rows: readonly R[], points: readonly PointChoice[], fallback: string): R[] {
+  if (points.length === 0) return [...rows];
+  return rows.map((r) => (points.some((p) => p.key === r.point) ? r : { ...r, point: fallback }));
 }
 
 /** The linkage points of the corner a study is of (the wheel axis points excepted, as the server requires), by their hardpoint-table names. */
@@ -139,7 +151,17 @@ export class StudiesPage {
   protected readonly profile = signal<TrackProfileId | ''>('');
   protected readonly samples = signal(2000);
   protected readonly seed = signal<number | null>(null);
-  protected readonly tolerances = signal<ToleranceRow[]>([{ point: 'tieRodInner', axis: 'z', plusMinusMm: 0.5, distribution: 'normal' }]);
+  /** The first point a row starts on, for the loaded corner. */
+  protected readonly defaultPoint = computed(() => {
+    const c = this.cornerState();
+    return toePoint(c.status === 'ready' ? c.value : null, this.points());
+  });
+  /** The tolerance rows; a row on a point the loaded corner lacks moves to its toe-link point. */
+  protected readonly tolerances = linkedSignal<readonly PointChoice[], ToleranceRow[]>({
+    source: this.points,
+    computation: (points, previous) =>
+      onCornerPoints(previous?.value ?? [{ point: 'tieRodInner', axis: 'z', plusMinusMm: 0.5, distribution: 'normal' }], points, untracked(this.defaultPoint)),
+  });
   protected readonly normalSigmas = signal(3);
   protected readonly shimMm = signal<number | null>(null);
   /** Length fields whose typed text was refused, by field ('tolerance-0', 'fromMm-1', 'shim', 'racks'…): the message beside the field. */
@@ -147,7 +169,11 @@ export class StudiesPage {
   protected readonly adjusterMm = signal<number | null>(null);
   protected readonly racksMm = signal<readonly number[]>([0]);
   protected readonly design = signal<'full-factorial' | 'latin-hypercube'>('latin-hypercube');
-  protected readonly factors = signal<FactorRow[]>([{ point: 'tieRodInner', axis: 'z', fromMm: 0, toMm: 10, levels: 5 }]);
+  /** The swept coordinates; as the tolerance rows, always on points the loaded corner has. */
+  protected readonly factors = linkedSignal<readonly PointChoice[], FactorRow[]>({
+    source: this.points,
+    computation: (points, previous) => onCornerPoints(previous?.value ?? [{ point: 'tieRodInner', axis: 'z', fromMm: 0, toMm: 10, levels: 5 }], points, untracked(this.defaultPoint)),
+  });
   protected readonly direction = signal<'more-understeer' | 'less-understeer'>('more-understeer');
   protected readonly formError = signal<string | null>(null);
   protected readonly saving = signal(false);
@@ -268,8 +294,14 @@ export class StudiesPage {
     this.tolerances.update((rows) => rows.map((r, k) => (k === i ? { ...r, ...patch } : r)));
   }
 
+  /** `key` when the loaded corner has that point (or is not loaded yet), else the corner's toe-link point. */
+  private pointOr(key: string): string {
+    const points = this.points();
+    return points.length === 0 || points.some((p) => p.key === key) ? key : this.defaultPoint();
+  }
+
   protected addTolerance(): void {
-    this.tolerances.update((rows) => [...rows, { point: 'lowerFront', axis: 'sphere', plusMinusMm: 0.5, distribution: 'normal' }]);
+    this.tolerances.update((rows) => [...rows, { point: this.pointOr('lowerFront'), axis: 'sphere', plusMinusMm: 0.5, distribution: 'normal' }]);
   }
 
   protected removeTolerance(i: number): void {
@@ -294,7 +326,7 @@ export class StudiesPage {
   }
 
   protected addFactor(): void {
-    this.factors.update((rows) => [...rows, { point: 'tieRodOuter', axis: 'z', fromMm: 0, toMm: 10, levels: 5 }]);
+    this.factors.update((rows) => [...rows, { point: this.pointOr('tieRodOuter'), axis: 'z', fromMm: 0, toMm: 10, levels: 5 }]);
   }
 
   protected removeFactor(i: number): void {
