@@ -40,7 +40,11 @@ export default defineConfig({
           name: 'e2e',
           include: ['test/e2e/**/*.test.ts'],
           environment: 'node',
-          globalSetup: ['test/support/pg-global-setup.ts'],
+          // Once per run: the demo database template and one Chromium (each file copies the one, connects to the other).
+          globalSetup: ['test/support/e2e-global-setup.ts'],
+          // One module graph per worker, as the server tests: the server and playwright load once, not once per file
+          // (about 2.5 s a file at load 10). Each file still starts its own server on its own database copy.
+          isolate: false,
           fileParallelism: false,
           // A hang guard, not a speed check: the longest walk (review, four people) took over 90 s at load 12,
           // and the browser tests now run beside the unit tests.
