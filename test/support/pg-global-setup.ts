@@ -54,12 +54,12 @@ function provide(project: TestProject, port: number, t: Templates): void {
  * The run's cluster: npm test's (ROLLWISE_TEST_PG_PORT) when set, else a throwaway one; `templates`
  * fills it. The teardown drops the templates from a shared cluster, or removes a throwaway one.
  */
-export async function withRunCluster<T extends object>(templates: (port: number) => Promise<T>): Promise<{ port: number; made: T; teardown(): void }> {
+export async function withRunCluster<T extends { [K in keyof T]: string }>(templates: (port: number) => Promise<T>): Promise<{ port: number; made: T; teardown(): void }> {
   const shared = process.env['ROLLWISE_TEST_PG_PORT'];
   if (shared) {
     const port = Number(shared);
     const made = await templates(port);
-    return { port, made, teardown: () => Object.values(made).forEach((name) => dropDatabase(port, String(name))) };
+    return { port, made, teardown: () => (Object.values(made) as string[]).forEach((name) => dropDatabase(port, name)) };
   }
   const cluster = await startThrowawayCluster('postgres_probe');
   return { port: cluster.port, made: await templates(cluster.port), teardown: () => cluster.remove() };
