@@ -13,6 +13,9 @@ export default defineConfig({
           // the project went from 140 s (57 s of it importing) to 18 s, every test unchanged. A test that stubs
           // something restores it in afterEach (vi.restoreAllMocks), so no file sees another's stubs.
           isolate: false,
+          // Two workers, as the server project (vitest refuses projects of one run with different maxWorkers
+          // in one group; its default on 2 cores is 1).
+          maxWorkers: 2,
           include: ['test/shared/**/*.test.ts'],
           environment: 'node',
           // No engine test is about wall time (speed is `npm run bench`'s job): the 5 s default failed a
@@ -26,6 +29,9 @@ export default defineConfig({
           // One module graph per worker, as the engine tests: imports went from about 200 s to 13 s of the run.
           // Each file starts its own app on its own database copy (helpers.ts), so no file sees another's data.
           isolate: false,
+          // Two files at a time (vitest's default on 2 cores is one): an API test waits on PostgreSQL, the
+          // queue and HTTP as much as it computes (one file at a time kept about half of one core busy).
+          maxWorkers: 2,
           include: ['test/server/**/*.test.ts'],
           environment: 'node',
           globalSetup: ['test/support/pg-global-setup.ts'],
@@ -40,8 +46,15 @@ export default defineConfig({
           name: 'e2e',
           include: ['test/e2e/**/*.test.ts'],
           environment: 'node',
-          globalSetup: ['test/support/pg-global-setup.ts'],
-          fileParallelism: false,
+          // Once per run: the demo database template and one Chromium (each file copies the one, connects to the other).
+          globalSetup: ['test/support/e2e-global-setup.ts'],
+          // One module graph per worker, as the server tests: the server and playwright load once, not once per file
+          // (about 2.5 s a file at load 10). Each file still starts its own server on its own database copy.
+          isolate: false,
+          // Two files at a time: each has its own server and database copy and its own browser contexts, so
+          // they cannot see each other's data; a browser test waits on the server and the page as much as it
+          // computes (one file alone kept about half of one core busy), so two together finish sooner.
+          maxWorkers: 2,
           // A hang guard, not a speed check: the longest walk (review, four people) took over 90 s at load 12,
           // and the browser tests now run beside the unit tests.
           testTimeout: 180_000,

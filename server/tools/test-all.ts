@@ -5,13 +5,17 @@
  * Two lanes run side by side on one cluster (on 2 cores each waits on
  * PostgreSQL, HTTP or the browser as much as it computes, so the other lane
  * fills the gaps):
- *   lane 1: vitest: engine (shared) and API (server, real PostgreSQL), then
- *           the type check of shared/, server/ and test/ (tsc, with
- *           noUncheckedIndexedAccess and exactOptionalPropertyTypes), then
- *           the Angular component specs (ng test: vitest + jsdom)
+ *   lane 1: vitest: engine (shared) and API (server, real PostgreSQL), two
+ *           files at a time
  *   lane 2: the production build of the app, then the browser tests
- *           (playwright-core + Chromium) against it, the longest chain, so it
- *           starts at once
+ *           (playwright-core + Chromium, two files at a time) against it
+ * and the two runners that need nothing else, the Angular component specs
+ * (ng test: vitest + jsdom) and the type check of shared/, server/ and test/
+ * (tsc, with noUncheckedIndexedAccess and exactOptionalPropertyTypes), go to
+ * whichever lane is free first (once the app build has ended: two Angular
+ * builds never share the cache), the longer one first: so neither lane idles
+ * while the other still has a queue, whichever of them is the long pole on
+ * the machine at hand.
  * Each runner's output is held back and printed whole when it ends, under
  * its own heading, so two runners never interleave; a live line says when
  * each starts and ends. A step that fails without reporting tests (a type
@@ -118,16 +122,30 @@ async function vitest(step: string, projects: string[]): Promise<Tally> {
   return vitestTally(step, out, await runner(step, bin('vitest'), args));
 }
 
-/** Lane 1: the engine and API tests, the type checks, then the component specs. */
-async function unitAndChecks(): Promise<void> {
+/** The runners that need nothing but the sources, longest first: each lane takes the next one when it is free. */
+const either: (() => Promise<Tally>)[] = [
+  async () => ngTally(await runner('angular specs', bin('ng'), ['test', '--watch=false'])),
+  async () => wholeTally('type check', await runner('type check', bin('tsc'), ['-p', 'tsconfig.node.json'])),
+];
+
+/** Settles when the app build has ended: no other Angular build (ng test's) runs beside it on the same cache. */
+let buildEnded: () => void = () => undefined;
+const built = new Promise<void>((done) => (buildEnded = done));
+
+async function takeFromEither(): Promise<void> {
+  await built;
+  for (let next = either.shift(); next; next = either.shift()) tallies.push(await next());
+}
+
+/** Lane 1: the engine and API tests. */
+async function unit(): Promise<void> {
   tallies.push(await vitest('unit', ['shared', 'server']));
-  tallies.push(wholeTally('type check', await runner('type check', bin('tsc'), ['-p', 'tsconfig.node.json'])));
-  tallies.push(ngTally(await runner('angular specs', bin('ng'), ['test', '--watch=false'])));
 }
 
 /** Lane 2: the build the browser tests need, then the browser tests (none when the build fails: it counts as a failure). */
 async function buildAndBrowser(): Promise<void> {
   const build = await runner('app build', bin('ng'), ['build', '--configuration', 'production']);
+  buildEnded();
   // A good build is no test of its own (it counts nothing), but its time is in the summary.
   tallies.push(build.code === 0 ? { step: 'app build', passed: 0, failed: 0, seconds: build.seconds } : wholeTally('app build', build));
   if (build.code === 0) tallies.push(await vitest('e2e', ['e2e']));
@@ -138,14 +156,15 @@ async function main(): Promise<number> {
   const cluster = await startThrowawayCluster('postgres_probe');
   env['ROLLWISE_TEST_PG_PORT'] = String(cluster.port);
   try {
-    await Promise.all([unitAndChecks(), buildAndBrowser()]);
+    await Promise.all([unit().then(takeFromEither), buildAndBrowser().then(takeFromEither)]);
   } finally {
     cluster.remove();
   }
   const passed = tallies.reduce((s, t) => s + t.passed, 0);
   const failed = tallies.reduce((s, t) => s + t.failed, 0);
-  console.log('\n[rollwise] summary (lane 1: unit, type checks, component specs; lane 2, beside it: build, browser tests)');
-  for (const t of tallies) {
+  console.log('\n[rollwise] summary (lane 1: unit; lane 2, beside it: build, browser tests; component specs and type check on the lane free first)');
+  const order = ['unit', 'app build', 'e2e', 'angular specs', 'type check'];
+  for (const t of [...tallies].sort((a, b) => order.indexOf(a.step) - order.indexOf(b.step))) {
     const counts = t.step === 'app build' && t.failed === 0 ? 'built' : `${t.passed} passed, ${t.failed} failed`;
     console.log(`  ${t.step.padEnd(16)} ${counts} in ${t.seconds} s`);
   }

@@ -11,10 +11,9 @@
  * control that writes. Every page ends without console errors, off-site requests or
  * serious accessibility findings. Needs `npx ng build` first.
  */
-import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { consoleErrors, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+import { consoleErrors, downloadedText, offsiteRequests, openBrowser, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 import { DEMO_PROGRAMME } from '../../server/db/seed-programme.js';
 
 type Browser = Awaited<ReturnType<typeof openBrowser>>;
@@ -196,7 +195,7 @@ describe('programmes, API tokens and the activity log', () => {
       iris.waitForEvent('download'),
       iris.getByRole('link', { name: 'Download CSV of Deadline week 6' }).click(),
     ]);
-    const csv = readFileSync((await download.path())!, 'utf8');
+    const csv = await downloadedText(download);
     const lines = csv.trim().split(/\r?\n/);
     expect(lines[0]).toMatch(/^team,configuration,status,latest_revision,latest_rollSteerFront,/);
     // One line per configuration on the board when the snapshot was taken.
@@ -238,7 +237,7 @@ describe('programmes, API tokens and the activity log', () => {
     const shownHour = shown[2] ? (Number(shown[1]) % 12) + (shown[2].toUpperCase() === 'P' ? 12 : 0) : Number(shown[1]);
     expect(shownHour).toBe((utc.getUTCHours() + 9) % 24);
     const [log] = await Promise.all([ana.waitForEvent('download'), ana.getByRole('link', { name: 'Download CSV' }).click()]);
-    const logCsv = readFileSync((await log.path())!, 'utf8');
+    const logCsv = await downloadedText(log);
     expect(logCsv.split(/\r?\n/)[0]).toBe('at_utc,at_local (Asia/Tokyo),actor,action,subject_type,subject_id,summary');
     expect(logCsv).toContain('Created configuration ""Ember, toe link +6 mm""');
     expect(await seriousA11yViolations(ana)).toEqual([]);

@@ -9,9 +9,8 @@
  * or requests leaving 127.0.0.1, and passes the accessibility check. Needs
  * `npx ng build` first.
  */
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { chooseOption, consoleErrors, offsiteRequests, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+import { chooseOption, consoleErrors, downloadedText, offsiteRequests, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 
 describe('Tolerance study in Chromium', () => {
   const env = useE2eApp();
@@ -79,7 +78,7 @@ describe('Tolerance study in Chromium', () => {
     // CSV export: a download with the outputs, the tornado and the caution.
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Export CSV' }).click()]);
     expect(download.suggestedFilename()).toBe('front-pickups-in-the-jig.csv');
-    const csv = readFileSync((await download.path())!, 'utf8');
+    const csv = await downloadedText(download);
     expect(csv).toContain('rollSteerCoefficient');
     expect(csv).toContain('standardized regression coefficient');
     // In the user's units (the demo engineer's account is SI), with the unit in every bin row.

@@ -26,3 +26,12 @@ export function migratedDatabaseUrl(prefix = 't'): string {
 export function seededDatabaseUrl(prefix = 't'): string {
   return createDatabase(inject('pgPort'), `${prefix}_${randomBytes(6).toString('hex')}`, inject('pgSeededTemplate'));
 }
+
+/**
+ * A migrated database with the whole demo (`seedDemo` at bcrypt cost 4 and the demo programme),
+ * copied from the browser tests' template (test/support/e2e-global-setup.ts): what each e2e file's
+ * server starts on. Only the `e2e` project provides that template.
+ */
+export function demoDatabaseUrl(prefix = 't'): string {
+  return createDatabase(inject('pgPort'), `${prefix}_${randomBytes(6).toString('hex')}`, inject('pgDemoTemplate'));
+}

@@ -1,17 +1,16 @@
 /**
- * Browser-test harness: the real server (fresh copy of the migrated template database, seeded)
- * serving the production build, and Debian's Chromium through
- * playwright-core. Every page fails its test on a request that leaves
- * 127.0.0.1, and records console errors and uncaught page errors.
- * Build the app first (`npx ng build`); npm test does.
+ * Browser-test harness: the real server (on a fresh copy of the run's demo database template)
+ * serving the production build, and the run's Chromium (Debian's, started once by
+ * test/support/e2e-global-setup.ts) through playwright-core, a new context for every page.
+ * Every page fails its test on a request that leaves 127.0.0.1, and records console errors
+ * and uncaught page errors. Build the app first (`npx ng build`); npm test does.
  */
-import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdirSync } from 'node:fs';
 import { join, resolve } from 'node:path';
-import { tmpdir } from 'node:os';
-import { chromium, type Browser, type BrowserContext, type Locator, type Page } from 'playwright-core';
+import { chromium, type Browser, type BrowserContext, type Download, type Locator, type Page } from 'playwright-core';
 import { AxeBuilder } from '@axe-core/playwright';
-import { afterAll, beforeAll, expect } from 'vitest';
-import { migratedDatabaseUrl } from './db.js';
+import { afterAll, beforeAll, expect, inject } from 'vitest';
+import { demoDatabaseUrl } from './db.js';
 import { freePort } from '../../server/tools/pg.js';
 
 const root = resolve(import.meta.dirname, '..', '..');
@@ -28,7 +27,7 @@ export async function startE2eApp(): Promise<E2eApp> {
   if (!existsSync(join(staticDir, 'index.html'))) {
     throw new Error(`No built app in ${staticDir}: run \`npx ng build\` first (npm test does).`);
   }
-  const databaseUrl = migratedDatabaseUrl('e2e');
+  const databaseUrl = demoDatabaseUrl('e2e');
   const { startServer } = await import('../../server/main.js');
   // A known port up front, so links in mail (built from publicUrl) point at this server.
   const port = await freePort();
@@ -50,8 +49,9 @@ export async function startE2eApp(): Promise<E2eApp> {
 }
 
 /**
- * The app and a browser for one describe block: started before its tests and
- * closed after them. Read `env.app` and `env.browser` inside the tests.
+ * The app and the browser for one describe block: the server started before its tests and
+ * stopped after them, the run's Chromium connected to (its contexts closed after them).
+ * Read `env.app` and `env.browser` inside the tests.
  */
 export function useE2eApp(): { readonly app: E2eApp; readonly browser: E2eBrowser } {
   let app: E2eApp | undefined;
@@ -86,19 +86,15 @@ const records = new WeakMap<Page, PageRecord>();
 
 export interface E2eBrowser {
   browser: Browser;
-  /** A page in a new context (its own cookies), guarded and recorded. */
+  /** A page in a new context (its own cookies and storage), guarded and recorded. */
   newPage(): Promise<Page>;
+  /** Closes this connection's contexts and disconnects; the run's Chromium goes on for the other files. */
   close(): Promise<void>;
 }
 
+/** Connects to the run's Chromium (test/support/e2e-global-setup.ts). */
 export async function openBrowser(): Promise<E2eBrowser> {
-  const home = mkdtempSync(join(tmpdir(), 'rollwise-chromium-'));
-  const browser = await chromium.launch({
-    executablePath: process.env['CHROMIUM_PATH'] ?? '/usr/bin/chromium',
-    headless: true,
-    args: ['--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-    env: { ...process.env, HOME: home, XDG_CONFIG_HOME: join(home, 'config'), XDG_CACHE_HOME: join(home, 'cache') },
-  });
+  const browser = await chromium.connect(inject('chromiumWsEndpoint'));
   const contexts: BrowserContext[] = [];
   return {
     browser,
@@ -124,7 +120,6 @@ export async function openBrowser(): Promise<E2eBrowser> {
     async close() {
       for (const c of contexts) await c.close().catch(() => undefined);
       await browser.close();
-      rmSync(home, { recursive: true, force: true });
     },
   };
 }
@@ -145,6 +140,17 @@ export async function saveScreenshot(page: Page, name: string): Promise<string> 
   const file = join(dir, `${name}.png`);
   await page.screenshot({ path: file, fullPage: true });
   return file;
+}
+
+/**
+ * The text of a finished download. The browser is connected to, not launched here, so playwright
+ * has no local path for the file (`download.path()` refuses): its content comes over the connection.
+ */
+export async function downloadedText(download: Download): Promise<string> {
+  const stream = await download.createReadStream();
+  const chunks: Buffer[] = [];
+  for await (const chunk of stream) chunks.push(chunk as Buffer);
+  return Buffer.concat(chunks).toString('utf8');
 }
 
 /**

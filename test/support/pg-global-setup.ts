@@ -19,7 +19,7 @@ import { migrateDatabase } from '../../server/db/migrate.js';
 import { seedDemo } from '../../server/db/seed.js';
 
 /** The bcrypt cost of the seeded template's demo passwords: what `startTestApp({ seed: true })` always used. */
-const SEED_BCRYPT_ROUNDS = 4;
+export const SEED_BCRYPT_ROUNDS = 4;
 
 interface Templates {
   migrated: string;
@@ -27,7 +27,7 @@ interface Templates {
 }
 
 /** Fills a new database (empty, or a copy of `from`); closes every connection after, as a template needs. */
-async function template(port: number, kind: string, fill: (db: ReturnType<typeof createDatabase>) => Promise<void>, from?: string): Promise<string> {
+export async function template(port: number, kind: string, fill: (db: ReturnType<typeof createDatabase>) => Promise<void>, from?: string): Promise<string> {
   const name = `template_${kind}_${randomBytes(6).toString('hex')}`;
   const db = createDatabase(createPgDatabase(port, name, from));
   try {
@@ -50,20 +50,25 @@ function provide(project: TestProject, port: number, t: Templates): void {
   project.provide('pgSeededTemplate', t.seeded);
 }
 
-export default async function setup(project: TestProject) {
+/**
+ * The run's cluster: npm test's (ROLLWISE_TEST_PG_PORT) when set, else a throwaway one; `templates`
+ * fills it. The teardown drops the templates from a shared cluster, or removes a throwaway one.
+ */
+export async function withRunCluster<T extends { [K in keyof T]: string }>(templates: (port: number) => Promise<T>): Promise<{ port: number; made: T; teardown(): void }> {
   const shared = process.env['ROLLWISE_TEST_PG_PORT'];
   if (shared) {
     const port = Number(shared);
-    const t = await templates(port);
-    provide(project, port, t);
-    return () => {
-      dropDatabase(port, t.seeded);
-      dropDatabase(port, t.migrated);
-    };
+    const made = await templates(port);
+    return { port, made, teardown: () => (Object.values(made) as string[]).forEach((name) => dropDatabase(port, name)) };
   }
   const cluster = await startThrowawayCluster('postgres_probe');
-  provide(project, cluster.port, await templates(cluster.port));
-  return () => cluster.remove();
+  return { port: cluster.port, made: await templates(cluster.port), teardown: () => cluster.remove() };
+}
+
+export default async function setup(project: TestProject) {
+  const run = await withRunCluster(templates);
+  provide(project, run.port, run.made);
+  return run.teardown;
 }
 
 declare module 'vitest' {
