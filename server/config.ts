@@ -56,6 +56,8 @@ export interface Config {
   bodyLimit: string;
   /** Milliseconds to wait for a database connection before answering 503. */
   dbConnectTimeoutMs: number;
+  /** On shutdown, how long requests in flight may take to finish before their connections are closed. */
+  shutdownGraceMs: number;
   /** Compute worker pool: threads and per-task time limit. */
   computeThreads: number;
   computeTimeLimitMs: number;
@@ -172,6 +174,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     // One core stays with the event loop so reads keep their latency while solves run.
     computeThreads: int(env, 'COMPUTE_THREADS', Math.max(1, availableParallelism() - 1), 1),
     computeTimeLimitMs: int(env, 'COMPUTE_TIME_LIMIT_MS', 10_000, 50),
+    // A compute request may run for its whole time limit: shutdown waits that long, and a little more for the answer.
+    shutdownGraceMs: int(env, 'SHUTDOWN_GRACE_MS', int(env, 'COMPUTE_TIME_LIMIT_MS', 10_000, 50) + 5_000, 0),
     computeWarmStart: !test,
     chromiumPath: env['CHROMIUM_PATH'] || '/usr/bin/chromium',
     solveJobTimeLimitMs: int(env, 'SOLVE_JOB_TIME_LIMIT_MS', 120_000, 50),

@@ -16,8 +16,6 @@ import { createLogger } from './http/logging.js';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp.js';
 import { capturedMail } from './db/schema.js';
 
-const SHUTDOWN_GRACE_MS = 5_000;
-
 export interface RunningServer {
   url: string;
   /** smtp://… of the in-process fake SMTP server, when ROLLWISE_FAKE_SMTP started one. */
@@ -75,10 +73,10 @@ export async function startServer(overrides: Partial<Config> = {}): Promise<Runn
     http: server,
     close: () =>
       (closing ??= (async () => {
-        // Requests in flight may finish (up to a grace period); idle keep-alive connections close now,
+        // Requests in flight may finish (up to the grace period, longer than a compute request's time limit); idle keep-alive connections close now,
         // and each connection closes as soon as its last request has been answered.
         await new Promise<void>((resolve) => {
-          const force = setTimeout(() => server.closeAllConnections(), SHUTDOWN_GRACE_MS);
+          const force = setTimeout(() => server.closeAllConnections(), config.shutdownGraceMs);
           const sweep = setInterval(() => server.closeIdleConnections(), 50);
           server.close(() => {
             clearTimeout(force);
