@@ -60,7 +60,7 @@ async function chartTexts(page: Page): Promise<ChartReport[]> {
     return Array.from(document.querySelectorAll<SVGSVGElement>('figure.rw-chart svg.rw-chart-svg')).map((svg) => {
       const title = svg.closest('figure')!.querySelector('figcaption')?.textContent?.trim() ?? '(untitled)';
       const texts = Array.from(svg.querySelectorAll<SVGTextElement>('text')).filter((t) => (t.textContent ?? '').trim() !== '');
-      const boxes = texts.map((t) => ({ text: t.textContent!.trim(), quad: corners(t) }));
+      const boxes = texts.map((t) => ({ text: t.textContent.trim(), quad: corners(t) }));
       const overlaps: string[] = [];
       for (let i = 0; i < boxes.length; i++) {
         for (let j = i + 1; j < boxes.length; j++) {

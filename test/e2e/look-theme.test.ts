@@ -80,7 +80,7 @@ describe('The look in Chromium', () => {
       items.map((li) => {
         const level = li.querySelector('.rw-caution-level')!;
         const before = getComputedStyle(level, '::before');
-        return { className: li.className, word: level.textContent!.trim(), icon: before.content, font: before.fontFamily };
+        return { className: li.className, word: level.textContent.trim(), icon: before.content, font: before.fontFamily };
       }),
     );
     expect(levels.length).toBeGreaterThan(0);

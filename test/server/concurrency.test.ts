@@ -230,10 +230,10 @@ describe('the server killed in the middle of a burst of saves', () => {
     });
     let out = '';
     let err = '';
-    proc.stderr!.on('data', (d) => (err += String(d)));
+    proc.stderr.on('data', (d) => (err += String(d)));
     const url = await new Promise<string>((resolve, reject) => {
       const timer = setTimeout(() => reject(new Error(`server did not start: ${out} ${err}`)), 30_000);
-      proc.stdout!.on('data', (d) => {
+      proc.stdout.on('data', (d) => {
         out += String(d);
         const m = /Rollwise is running at (\S+)/.exec(out);
         if (m) {

@@ -205,7 +205,7 @@ function applyMutation(body: Json, m: Mutation): Json {
       const where = parentOf(body, pick(m.at));
       if (where) {
         if (Array.isArray(where.parent)) Array.prototype.copyWithin.call(where.parent, where.key as number, (where.key as number) + 1), (where.parent.length -= 1);
-        else delete (where.parent as Record<PathStep, Json>)[where.key];
+        else delete where.parent[where.key];
       }
       return body;
     }
@@ -277,7 +277,7 @@ function applyMutation(body: Json, m: Mutation): Json {
     case 'formatVersion': {
       const holders = [[], ...paths].filter((p) => {
         const v = getAt(body, p);
-        return v && typeof v === 'object' && !Array.isArray(v) && 'formatVersion' in (v as object);
+        return v && typeof v === 'object' && !Array.isArray(v) && 'formatVersion' in (v);
       });
       const target = getAt(body, holders[m.at % Math.max(1, holders.length)] ?? []) as Record<string, Json>;
       if (target && typeof target === 'object' && !(target instanceof Raw)) target['formatVersion'] = clone(FORMAT_VERSIONS[m.value % FORMAT_VERSIONS.length]);

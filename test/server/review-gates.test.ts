@@ -38,7 +38,7 @@ beforeAll(async () => {
   frontId = designs.find((d) => d.name === 'Front baseline')!.id;
   rearId = designs.find((d) => d.name === 'Rear baseline')!.id;
   const lowered = structuredClone(exampleCorners.fsRearWishbone);
-  lowered.points.tieRodInner = [lowered.points.tieRodInner![0], lowered.points.tieRodInner![1], lowered.points.tieRodInner![2] - 6];
+  lowered.points.tieRodInner = [lowered.points.tieRodInner[0], lowered.points.tieRodInner[1], lowered.points.tieRodInner[2] - 6];
   oversteerRearId = (await designer.post(`${team()}/vehicles/${vehicleId}/axle-designs`).send({ axle: 'rear', name: 'Rear, toe link inner −6 mm', corner: lowered }).expect(201)).body.id;
 });
 afterAll(async () => {
@@ -217,7 +217,7 @@ describe('use the latest revisions: preview', () => {
 function sortedJson(v: unknown): string {
   if (v === null || typeof v !== 'object') return JSON.stringify(v);
   if (Array.isArray(v)) return `[${v.map(sortedJson).join(',')}]`;
-  return `{${Object.keys(v as object)
+  return `{${Object.keys(v)
     .sort()
     .map((k) => `${JSON.stringify(k)}:${sortedJson((v as Record<string, unknown>)[k])}`)
     .join(',')}}`;

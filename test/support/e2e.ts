@@ -161,7 +161,7 @@ export async function overlappingTexts(page: Page, svgSelector: string): Promise
   return page.evaluate((selector) => {
     const found: string[] = [];
     for (const svg of document.querySelectorAll(selector)) {
-      const texts = [...svg.querySelectorAll('text')].filter((t) => t.textContent!.trim() !== '');
+      const texts = [...svg.querySelectorAll('text')].filter((t) => t.textContent.trim() !== '');
       const boxes = texts.map((t) => t.getBoundingClientRect());
       for (let i = 0; i < boxes.length; i++)
         for (let j = i + 1; j < boxes.length; j++) {

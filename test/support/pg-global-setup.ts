@@ -59,7 +59,7 @@ export async function withRunCluster<T extends { [K in keyof T]: string }>(templ
   if (shared) {
     const port = Number(shared);
     const made = await templates(port);
-    return { port, made, teardown: () => (Object.values(made) as string[]).forEach((name) => dropDatabase(port, name)) };
+    return { port, made, teardown: () => Object.values<string>(made).forEach((name) => dropDatabase(port, name)) };
   }
   const cluster = await startThrowawayCluster('postgres_probe');
   return { port: cluster.port, made: await templates(cluster.port), teardown: () => cluster.remove() };

@@ -28,16 +28,16 @@ export async function spawnWorker(databaseUrl: string, env: Record<string, strin
     const onData = (b: Buffer) => {
       output += b.toString();
       if (output.includes('queue worker') && output.includes('is running')) {
-        child.stdout!.off('data', onData);
+        child.stdout.off('data', onData);
         res();
       }
     };
-    child.stdout!.on('data', onData);
-    child.stderr!.on('data', (b: Buffer) => (output += b.toString()));
+    child.stdout.on('data', onData);
+    child.stderr.on('data', (b: Buffer) => (output += b.toString()));
     void exited.then((how) => rej(new Error(`the worker exited (${how}) before it started:\n${output}`)));
   });
-  child.stdout!.resume();
-  child.stderr!.resume();
+  child.stdout.resume();
+  child.stderr.resume();
   const signal = (s: NodeJS.Signals) => {
     if (child.exitCode === null && child.signalCode === null) child.kill(s);
     return exited;

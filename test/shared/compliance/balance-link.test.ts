@@ -23,7 +23,7 @@ const RAD_PER_DEG = Math.PI / 180;
 
 /** A vehicle with no compliance figures of its own. */
 function bareVehicle(): Vehicle {
-  const v = structuredClone(exampleVehicles.brackenfieldB5) as Vehicle;
+  const v = structuredClone<Vehicle>(exampleVehicles.brackenfieldB5);
   for (const a of [v.front, v.rear]) {
     delete a.complianceSteerDegPerKN;
     delete a.steeringStiffnessNmPerDeg;
@@ -39,10 +39,10 @@ describe('axle compliance from a corner', () => {
     // under its two wheels' torques (half the axle's each) gives K_axle = 2·k·r² (N·mm/rad → N·m/deg).
     const k = 700;
     const r = 100;
-    const c = planarWishbone({ tieRodInner: [-r, 300, 200] }) as Corner & { points: Record<string, Vec3> };
-    c.points['wheelCentre'] = [25, c.points['wheelCentre']![1], c.points['wheelCentre']![2]];
-    c.points['spindle'] = [25, c.points['spindle']![1], c.points['spindle']![2]];
-    const a = axleComplianceOf({ ...c, bushings: { tieRodInner: { radialNPerMm: 5000, axialNPerMm: k } } } as Corner, { pneumaticTrailMm: 30 })!;
+    const c = planarWishbone({ tieRodInner: [-r, 300, 200] });
+    c.points['wheelCentre'] = [25, c.points['wheelCentre'][1], c.points['wheelCentre'][2]];
+    c.points['spindle'] = [25, c.points['spindle'][1], c.points['spindle'][2]];
+    const a = axleComplianceOf({ ...c, bushings: { tieRodInner: { radialNPerMm: 5000, axialNPerMm: k } } }, { pneumaticTrailMm: 30 })!;
     expect(a.mechanicalTrailMm).toBeCloseTo(-25, 9);
     expect(a.complianceSteerDegPerKN).toBeCloseTo(0, 12);
     expect(a.steeringStiffnessNmPerDeg!).toBeCloseTo(((2 * k * r * r) / 1000) * RAD_PER_DEG, 6);
@@ -145,7 +145,7 @@ describe('compliance beside roll steer (the editor figure)', () => {
     const rear = fixture('road-rear-five-link-bushings');
     const b = computeBalance({ vehicle: v, rearCorner: rear, sensitivity: false });
     const eps = b.kinematicsLink.rear.used.rollSteerCoefficient;
-    const c = complianceBesideRollSteer(rear, eps, 'rear', b.effectiveVehicle as Vehicle);
+    const c = complianceBesideRollSteer(rear, eps, 'rear', b.effectiveVehicle);
     const a = b.axleCompliance.rear;
     expect(c.rigid).toBe(false);
     expect(c.perG!.rollSteerDegPerG).toBeCloseTo(a.rollSteer, 9);

@@ -15,7 +15,7 @@ import { solveIntent } from '../../../shared/intent/index.js';
 
 const root = join(import.meta.dirname, '..', '..', '..');
 const corner = JSON.parse(readFileSync(join(root, 'test', 'fixtures', 'corners', 'road-rear-five-link-bushings.json'), 'utf8')) as Corner;
-const vehicle = structuredClone(exampleVehicles.brackenfieldB5) as Vehicle;
+const vehicle = structuredClone<Vehicle>(exampleVehicles.brackenfieldB5);
 delete vehicle.rear.complianceSteerDegPerKN;
 delete vehicle.rear.steeringStiffnessNmPerDeg;
 

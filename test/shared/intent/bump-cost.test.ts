@@ -16,9 +16,9 @@ import { bumpCost, RandomRoadYawCost } from '../../../shared/ride/cost.js';
 
 const bumpSteer = (c: Corner) => sweepCorner(c, { travel: { from: -20, to: 20, step: 5 } }).fit.bumpSteerDegPerM;
 const withInnerDz = (c: Corner, dz: number): Corner => {
-  const d = structuredClone(c) as Corner & { points: Record<string, [number, number, number]> };
-  d.points['tieRodInner']![2] += dz;
-  return cornerSchema.parse(d) as Corner;
+  const d = structuredClone<Corner & { points: Record<string, [number, number, number]> }>(c);
+  d.points['tieRodInner'][2] += dz;
+  return cornerSchema.parse(d);
 };
 /** The road strut with its tie-rod inner point moved until the bump steer (±20 mm fit) is `target` deg/m. */
 function strutWithBumpSteer(target: number): Corner {

@@ -129,7 +129,7 @@ describe('search behaviour', () => {
     const base = exampleCorners.roadFrontStrut;
     const p = base.points as Record<string, Vec3>;
     const shifted = (di: number, dO: number): Corner =>
-      ({ ...base, points: { ...base.points, tieRodInner: [p['tieRodInner']![0], p['tieRodInner']![1], p['tieRodInner']![2] + di], tieRodOuter: [p['tieRodOuter']![0], p['tieRodOuter']![1], p['tieRodOuter']![2] + dO] } }) as Corner;
+      ({ ...base, points: { ...base.points, tieRodInner: [p['tieRodInner']![0], p['tieRodInner']![1], p['tieRodInner']![2] + di], tieRodOuter: [p['tieRodOuter']![0], p['tieRodOuter']![1], p['tieRodOuter']![2] + dO] } });
     const bounds = around(base, 40);
     const run = (c: Corner) => solve({ corner: c, axle: 'front', target: { rollSteerCoefficient: 0.05 }, movable: ['tieRodInner.z', 'tieRodOuter.z'], bounds, trackProfile: 'smooth-circuit' });
     const runs = [run(base), run(shifted(12, -9)), run(shifted(-15, 14)), run(shifted(25, 25))];

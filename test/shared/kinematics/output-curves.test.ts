@@ -44,7 +44,7 @@ describe('output curves against wheel travel (both wheels, heave)', () => {
     const withSpring: Corner = {
       ...c,
       spring: { kind: 'direct', springBody: [0, 300 + a, 120 + ls], springOuter: [0, 300 + a, 120], springOuterOn: 'lowerArm' },
-    } as Corner;
+    };
     const curves = outputCurves(withSpring, { axis: 'travel', range: { from: -30, to: 30, step: 15 } });
     for (const row of curves.rows) {
       // Derived here (from memory, planar geometry): the lower arm turns by β = asin(z/300) (the parallelogram carries the

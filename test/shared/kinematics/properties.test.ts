@@ -117,11 +117,11 @@ describe('kinematics properties (fast-check, seeded)', () => {
       fc.property(cornerArb, ({ name, deltas }) => {
         const c = validOrNull(perturb(exampleCorners[name], deltas));
         fc.pre(c !== null);
-        const m = compileCorner(c!);
-        const rec = sweepRecord(c!, 'left', racksFor(m), travelsFor(name));
+        const m = compileCorner(c);
+        const rec = sweepRecord(c, 'left', racksFor(m), travelsFor(name));
         fc.pre(rec !== null);
         solved++;
-        for (const r of rec!) {
+        for (const r of rec) {
           // Source: issue 3 "every link length preserved to 1e-9 mm, the upright rigid".
           expect(r.link).toBeLessThan(1e-9);
           expect(r.rigid).toBeLessThan(1e-9);
@@ -137,15 +137,15 @@ describe('kinematics properties (fast-check, seeded)', () => {
       fc.property(cornerArb, ({ name, deltas }) => {
         const c = validOrNull(perturb(exampleCorners[name], deltas));
         fc.pre(c !== null);
-        const m = compileCorner(c!);
+        const m = compileCorner(c);
         const racks = racksFor(m);
         const travels = travelsFor(name);
-        const left = sweepRecord(c!, 'left', racks, travels);
+        const left = sweepRecord(c, 'left', racks, travels);
         // Right corner as the mirror: vehicle-frame rack −r moves its inner point like +r on the left (u = [0, 1, 0]).
-        const right = sweepRecord(c!, 'right', racks.map((r) => -r), travels);
+        const right = sweepRecord(c, 'right', racks.map((r) => -r), travels);
         fc.pre(left !== null && right !== null);
-        left!.forEach((l, k) => {
-          const r = right![k]!;
+        left.forEach((l, k) => {
+          const r = right[k]!;
           for (let i = 0; i < travels.length; i++) {
             // Source: domain.md "toe_R = toe_mirror", "δ_R = −δ_mirror"; camber equal by symmetry.
             expect(Math.abs(r.toe[i]! - l.toe[i]!)).toBeLessThan(1e-9);
@@ -163,9 +163,9 @@ describe('kinematics properties (fast-check, seeded)', () => {
       fc.property(cornerArb, ({ name, deltas }) => {
         const c = validOrNull(perturb(exampleCorners[name], deltas));
         fc.pre(c !== null);
-        const rec = sweepRecord(c!, 'left', racksFor(compileCorner(c!)), travelsFor(name));
+        const rec = sweepRecord(c, 'left', racksFor(compileCorner(c)), travelsFor(name));
         fc.pre(rec !== null);
-        for (const r of rec!) {
+        for (const r of rec) {
           for (const series of [r.toe, r.camber]) {
             const d = series.slice(1).map((v, i) => Math.abs(v - series[i]!));
             for (let i = 1; i < d.length - 1; i++) {
@@ -186,15 +186,15 @@ describe('kinematics properties (fast-check, seeded)', () => {
         fc.pre(c !== null);
         let pose;
         try {
-          const s = new CornerSolver(compileCorner(c!), 'left');
+          const s = new CornerSolver(compileCorner(c), 'left');
           s.solve(0, 0);
           pose = poseOutputs(s);
         } catch (e) {
           if (e instanceof SolveError || e instanceof InputError) return fc.pre(false);
           throw e;
         }
-        const w = c!.points.wheelCentre;
-        const sp = c!.points.spindle;
+        const w = c.points.wheelCentre;
+        const sp = c.points.spindle;
         const a = [w[0] - sp[0], w[1] - sp[1], w[2] - sp[2]];
         const n = Math.hypot(a[0]!, a[1]!, a[2]!);
         // Source: domain.md: δ = atan2(h_y, h_x), h = unit(a × ẑ); toe = −δ (left); camber = −asin(a_z).

@@ -342,9 +342,9 @@ describe('steering-box arm on both sides', () => {
     }
     // the arm's inner point moves on its circle: 60 mm radius, so 10 mm of arc is 10/60 rad of arm rotation
     const p = posedHardpointsOf(c, 10);
-    const d = Math.hypot(p[0]! + 55, p[1]! - 150);
+    const d = Math.hypot(p[0] + 55, p[1] - 150);
     expect(d).toBeCloseTo(60, 9);
-    expect(Math.atan2(p[1]! - 150, p[0]! + 55)).toBeCloseTo(Math.PI / 2 + 10 / 60, 9);
+    expect(Math.atan2(p[1] - 150, p[0] + 55)).toBeCloseTo(Math.PI / 2 + 10 / 60, 9);
   });
 });
 

@@ -43,7 +43,7 @@ describe('moveCornerPoints', () => {
     solvePose(moved, { travelMm: 10 });
     expect(spy).not.toHaveBeenCalled();
     // A corner from outside still goes through it.
-    solvePose(structuredClone(moved) as Corner, { travelMm: 10 });
+    solvePose(structuredClone<Corner>(moved), { travelMm: 10 });
     expect(spy).toHaveBeenCalledTimes(1);
   });
 
@@ -64,9 +64,9 @@ describe('moveCornerPoints', () => {
 
   it('moves a steering-box arm axis point, and refuses one on a rack', () => {
     const arm = { ...structuredClone(base), steering: { kind: 'arm' as const, armAxisPoint: [-55, 150, 141.5] as Vec3, armAxisDirection: [0, 0, 1] as Vec3, angularStrokeDeg: [-30, 30] as [number, number] } };
-    const moved = moveCornerPoints(arm as Corner, { points: { tieRodInner: up(p['tieRodInner']!, 4) }, armAxisPoint: [-55, 150, 145.5] });
+    const moved = moveCornerPoints(arm, { points: { tieRodInner: up(p['tieRodInner']!, 4) }, armAxisPoint: [-55, 150, 145.5] });
     expect(moved.steering).toMatchObject({ kind: 'arm', armAxisPoint: [-55, 150, 145.5] });
-    expect(solvePose(moved, { travelMm: 0, rackMm: 5 })).toEqual(solvePose(structuredClone(moved) as Corner, { travelMm: 0, rackMm: 5 }));
+    expect(solvePose(moved, { travelMm: 0, rackMm: 5 })).toEqual(solvePose(structuredClone<Corner>(moved), { travelMm: 0, rackMm: 5 }));
     expect(() => moveCornerPoints(base, { armAxisPoint: [0, 0, 0] })).toThrow(/steering-box arm/);
   });
 });

@@ -11,7 +11,7 @@ import { sweepCorner } from '../../../shared/kinematics/index.js';
 import { kktseBicycle } from '../balance/fixtures.js';
 
 const RAD_PER_DEG = Math.PI / 180;
-const corner = (name: string): Corner => cornerDocumentSchema.parse(JSON.parse(readFileSync(`test/fixtures/corners/${name}.json`, 'utf8'))) as Corner;
+const corner = (name: string): Corner => cornerDocumentSchema.parse(JSON.parse(readFileSync(`test/fixtures/corners/${name}.json`, 'utf8')));
 
 describe('lateral response to an axle steer disturbance', () => {
   it('reaches the published steady yaw-rate and lateral-acceleration gains at low frequency', () => {

@@ -21,7 +21,7 @@ import { ToeCurve } from '../../../shared/ride/toe.js';
 import { combineStudyChunks, runStudyChunk, variantCorner } from '../../../shared/study/index.js';
 
 const corner = exampleCorners.fsFrontWishbone;
-const vehicle = exampleVehicles.tur26Ember as Vehicle;
+const vehicle = exampleVehicles.tur26Ember;
 const z0 = corner.points.tieRodInner[2];
 
 const sweep = {
