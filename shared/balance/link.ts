@@ -85,7 +85,7 @@ function linkAxle(v: Vehicle, name: AxleName, corner: Corner | undefined, o: Axl
     axleSteerDeg = corner.steered && steerDeg !== null ? steerDeg : corner.steered ? 0 : null;
     kin = axleSummary(corner, { rackMm });
     if (Math.abs(kin.trackMm - axle.trackMm) > 0.01 * axle.trackMm) {
-      notes.push(`the corner's track (${kin.trackMm.toFixed(0)} mm) differs from the vehicle's ${name}.trackMm (${axle.trackMm.toFixed(0)} mm) by more than 1 %; the vehicle's value is used`);
+      notes.push(`the corner's track (${kin.trackMm.toFixed(0)} mm) differs from the vehicle's ${name} track (${axle.trackMm.toFixed(0)} mm) by more than 1 %; the vehicle's value is used`);
     }
   }
   const compliance = linkCompliance(axle, name, corner, rackMm, notes);

@@ -62,6 +62,8 @@ export const QUANTITIES = {
   anglePerMoment: { si: 'deg/(kN·m)', imperial: 'deg/(klbf·ft)', factor: LBF_N * FT_M, toStored: 1 / (LBF_N * FT_M), sig: 3 },
   /** Roll moment per g of lateral acceleration. */
   momentPerG: { si: 'N·m/g', imperial: 'lbf·ft/g', factor: 1 / (LBF_N * FT_M), toStored: LBF_N * FT_M, sig: 4 },
+  /** Tyre cornering stiffness: lateral force per degree of slip (1 lbf = 4.4482216152605 N). */
+  corneringStiffness: { si: 'N/deg', imperial: 'lbf/deg', factor: 1 / LBF_N, toStored: LBF_N, sig: 4 },
   /** Anti-roll bar twist per length of wheel travel. */
   twistPerLength: { si: 'rad/m', imperial: 'rad/in', factor: IN_MM / 1000, toStored: 1000 / IN_MM, sig: 4 },
 } as const satisfies Record<string, QuantityUnits>;

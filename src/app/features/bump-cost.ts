@@ -2,6 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, inject, input } from '@an
 import type { BumpCost } from '../../../shared/ride/cost';
 import { formatFigure } from '../programmes/board-figures';
 import { DISPLAY_UNITS, NumPipe } from '../core/format/num-pipe';
+import { UnitsTextPipe } from '../core/format/units-text-pipe';
 import { type QuantityKind, unitLabel } from '../core/format/quantities';
 import { vehicleIssueText } from './vehicle/vehicle-fields';
 
@@ -13,12 +14,12 @@ import { vehicleIssueText } from './vehicle/vehicle-fields';
  */
 @Component({
   selector: 'rw-bump-cost',
-  imports: [NumPipe],
+  imports: [NumPipe, UnitsTextPipe],
   template: `
     <div class="rw-bump-cost" data-testid="bump-cost">
       <h3 class="rw-bump-cost-title">{{ title() }}</h3>
       @if (cost(); as c) {
-        <p data-testid="bump-cost-road">On a {{ c.roadInWords }}, {{ judged(c) }}:</p>
+        <p data-testid="bump-cost-road">On a {{ c.roadInWords | unitsText }}, {{ judged(c) | unitsText }}:</p>
         <dl class="rw-bump-cost-figures">
           <div>
             <dt>Yaw-rate disturbance</dt>

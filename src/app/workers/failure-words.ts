@@ -1,7 +1,8 @@
 import type { AnalysisFailure } from './analysis-types';
 import type { DisplayUnits } from '../core/api-types';
 import { formatNum } from '../core/format/num';
-import { kindForUnit, QUANTITIES, unitLabel } from '../core/format/quantities';
+import { unitLabel } from '../core/format/quantities';
+import { figuresInUnits } from '../../../shared/units/text';
 
 /**
  * An engine failure in the user's words, for the editor, its views and the
@@ -27,33 +28,7 @@ export function failureWords(f: AnalysisFailure, units: DisplayUnits): string {
     const range = tr ? ` Narrow the travel range (now ${n(tr[0]!)} to ${n(tr[1]!)} ${u}) to what the corner can reach.` : '';
     return `The linkage cannot reach ${where}: ${why}.${range}`;
   }
-  return figuresIn(plainText(f.message), units);
-}
-
-const NUMBER = String.raw`[−-]?\d+(?:\.\d+)?(?:e[−-]?\d+)?`;
-/** The stored units a message may carry a figure in, longest first ("mm" before "m"). */
-const STORED_UNITS = [...new Set(Object.values(QUANTITIES).map((q) => q.si))].sort((a, b) => b.length - a.length);
-/** A figure ("82.1 mm"), or a range of them ("−100 to 100 mm"), with its unit when it has one; never inside a word ("link1"). */
-const FIGURE = new RegExp(
-  String.raw`(?<![\w.])(${NUMBER})(?:(\s+to\s+)(${NUMBER}))?(?:\s*(${STORED_UNITS.map((s) => s.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&')).join('|')})(?![\w/²·(]))?`,
-  'g',
-);
-
-/**
- * The figures of a message through the one formatter: a figure in a stored unit that the user's unit system
- * writes otherwise (mm, N, km/h, … for an inch/pound user) converted with its quantity's precision, and any other
- * unrounded figure (four decimals or more) to 4 significant figures; the rest as the engine wrote it.
- */
-function figuresIn(message: string, units: DisplayUnits): string {
-  const value = (t: string) => Number(t.replace(/−/g, '-'));
-  return message.replace(FIGURE, (all, a: string, to: string | undefined, b: string | undefined, unit: string | undefined) => {
-    const kind = unit ? kindForUnit(unit) : null;
-    if (kind && unitLabel(kind, units) !== unit) {
-      const shown = (t: string) => formatNum(value(t), { kind }, units);
-      return `${shown(a)}${to !== undefined && b !== undefined ? `${to}${shown(b)}` : ''} ${unitLabel(kind, units)}`;
-    }
-    return all.replace(/[−-]?\d+\.\d{4,}(?:e[−-]?\d+)?/g, (t) => formatNum(value(t), { sig: 4 }));
-  });
+  return figuresInUnits(plainText(f.message), units);
 }
 
 /** A link's name without the point keys in brackets: "tie rod (tieRodInner–tieRodOuter)" → "tie rod". */

@@ -89,7 +89,7 @@ export class CostStage {
     if (!c) return '';
     const p = c.profile;
     const lu = unitLabel('length', this.units());
-    const where = `over ${this.length(p.travelMm[0])} to ${this.length(p.travelMm[1])} ${lu} of travel (the curves' range) with a ${this.length(p.bumpHeightMm)} ${lu} single-wheel bump, on ISO 8608 class ${p.roadClass} at ${p.speedKph} km/h`;
+    const where = `over ${this.length(p.travelMm[0])} to ${this.length(p.travelMm[1])} ${lu} of travel (the curves' range) with a ${this.length(p.bumpHeightMm)} ${lu} single-wheel bump, on ISO 8608 class ${p.roadClass} at ${formatNum(p.speedKph, { kind: 'speed' }, this.units())} ${unitLabel('speed', this.units())}`;
     if (!c.ok) return `Measured ${where}.`;
     const racks = c.racksMm.length > 1 ? `, at rack ${c.racksMm.map((r) => this.length(r)).join(', ')} ${lu}` : '';
     const vehicle = c.vehicleUsed ? "the vehicle's tyres, loads and roll" : `product default tyre figures (${c.vehicleNote ?? 'no vehicle'})`;

@@ -23,6 +23,7 @@ import { BarGroup, LineSeries } from '../../charts/chart-types';
 import { AxleDesignSummary, FeaturesApi } from '../features-api';
 import { SafetyCaution } from '../safety-caution';
 import { formatNum } from '../../core/format/num';
+import { UnitsTextPipe } from '../../core/format/units-text-pipe';
 import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
 import { fromDisplayUnits, inDisplayUnits, QUANTITIES, type QuantityKind, unitLabel } from '../../core/format/quantities';
 import type { DisplayUnits } from '../../core/api-types';
@@ -129,7 +130,7 @@ function caseNames(p: BalanceInputs, name: (id: string) => string): string[] {
  */
 @Component({
   selector: 'rw-balance-page',
-  imports: [NumPipe, RouterLink, MatProgressBar, MatFormField, MatLabel, MatHint, MatInput, MatSelect, MatOption, BarChart, LineChart, SafetyCaution],
+  imports: [NumPipe, UnitsTextPipe, RouterLink, MatProgressBar, MatFormField, MatLabel, MatHint, MatInput, MatSelect, MatOption, BarChart, LineChart, SafetyCaution],
   templateUrl: './balance-page.html',
   styleUrl: './balance-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -3,6 +3,7 @@ import type { Caution } from '../../../../shared/cautions/cautions';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
 import { unitLabel, type QuantityKind } from '../../core/format/quantities';
+import { UnitsTextPipe } from '../../core/format/units-text-pipe';
 
 /** The quantity a caution's measured value is, by the unit its rule states it in (others are the same in either system). */
 const CAUTION_UNIT_KINDS: Readonly<Record<string, QuantityKind>> = {
@@ -20,6 +21,7 @@ const LEVEL_WORDS: Readonly<Record<Caution['level'], string>> = {
 /** Cautions beside the result they concern: level, message, measured value and threshold (in the user's unit system), basis. */
 @Component({
   selector: 'rw-caution-list',
+  imports: [UnitsTextPipe],
   template: `
     @if (cautions().length === 0) {
       <p class="rw-muted">No cautions for this result.</p>
@@ -28,13 +30,13 @@ const LEVEL_WORDS: Readonly<Record<Caution['level'], string>> = {
         @for (c of cautions(); track c.code + $index) {
           <li [class]="'rw-caution rw-caution-' + c.level" [attr.data-code]="c.code">
             <span class="rw-caution-level">{{ levelWords[c.level] }}</span>
-            <span class="rw-caution-message">{{ c.message }}</span>
+            <span class="rw-caution-message">{{ c.message | unitsText }}</span>
             @if (c.value !== null) {
               <span class="rw-caution-figures">
                 Value {{ figure(c, c.value) }}@if (c.threshold !== null) {; threshold {{ figure(c, c.threshold) }}}.
               </span>
             }
-            <span class="rw-caution-basis">Basis: {{ c.basis }}</span>
+            <span class="rw-caution-basis">Basis: {{ c.basis | unitsText }}</span>
           </li>
         }
       </ul>
