@@ -1,10 +1,13 @@
 import { defineConfig } from 'vitest/config';
+import { SlowFirstSequencer } from './test/support/slow-first-sequencer';
 
 // Suites outside src/: the engineering core (shared), the API against a real
 // PostgreSQL (server) and the browser tests in Chromium (e2e). Angular
 // component specs run through `ng test`, which has its own vitest set-up.
 export default defineConfig({
   test: {
+    // The longest files start first, so none runs alone at the end (test/support/slow-first-sequencer.ts).
+    sequence: { sequencer: SlowFirstSequencer },
     projects: [
       {
         test: {
