@@ -18,8 +18,8 @@
  *                    POST 1 MB JSON bodies to a members' route as fast as they can (issue 12 §4: the body of a
  *                    request that will be refused is never parsed, so health should stay near its idle latency)
  *   readPaced        the read mix alone at a steady 200 reads/s, 10 s: the floor the two scenarios below compare with
- *   readDuringStudy  the read mix and the study's own progress at a steady 200 reads/s, 10 s, while a
- *                    100 000-sample tolerance study runs on two `npm run worker` processes (issue 16); the study is
+ *   readDuringStudy  the read mix and the study's own progress at a steady 200 reads/s, 10 s, while two
+ *                    100 000-sample tolerance studies run on two `npm run worker` processes (issue 16); together they are
  *                    big enough to run through the whole window (the line says whether it did: a study that
  *                    finished early would leave reads measured beside idle workers)
  */
@@ -199,14 +199,21 @@ async function main(): Promise<void> {
         return (await r.json()) as { study: { id: string; status: string; progress: { doneChunks: number; totalChunks: number } } };
       };
       const studyPath = `/api/teams/${team.id}/studies`;
-      const { study } = await api('POST', studyPath, {
-        kind: 'tolerance',
-        target: { axleDesignId: design.id },
-        seed: 8,
-        samples: 100_000,
-        tolerances: ['lowerFront', 'lowerRear', 'upperFront', 'upperRear', 'tieRodInner', 'tieRodOuter'].map((point) => ({ point, axis: 'sphere', plusMinusMm: 0.5, distribution: 'normal' })),
-        analysis: { rackMm: [-10, 0, 10], rollDeg: 2 },
-      });
+      // Two 100 000-sample studies (the most one study may have), taking turns by chunk: on a quiet machine two
+      // workers finish one within the 10 s window, and the second keeps them computing to its end.
+      const submit = async (seed: number) =>
+        (
+          await api('POST', studyPath, {
+            kind: 'tolerance',
+            target: { axleDesignId: design.id },
+            seed,
+            samples: 100_000,
+            tolerances: ['lowerFront', 'lowerRear', 'upperFront', 'upperRear', 'tieRodInner', 'tieRodOuter'].map((point) => ({ point, axis: 'sphere', plusMinusMm: 0.5, distribution: 'normal' })),
+            analysis: { rackMm: [-10, 0, 10], rollDeg: 2 },
+          })
+        ).study;
+      const study = await submit(8);
+      const second = await submit(9);
       for (let s = study; s.status !== 'running'; s = (await api('GET', `${studyPath}/${study.id}`)).study) {
         if (s.status !== 'queued') throw new Error(`the load study ended ${s.status} before the reads`);
         await new Promise((r) => setTimeout(r, 50));
@@ -214,15 +221,15 @@ async function main(): Promise<void> {
       readDuringStudy = figures(
         await cannon(base, cookie, { connections: 10, seconds: SHORT_S, requests: [...reads, { method: 'GET', path: `${studyPath}/${study.id}` }], overallRate: READ_PACED_RPS }),
       );
-      const after = (await api('DELETE', `${studyPath}/${study.id}`)).study;
-      studyChunks = after.progress.doneChunks;
-      // Cancelled while still running: the workers computed through the whole window.
-      studyRanThroughout = after.status === 'cancelled' && after.progress.doneChunks < after.progress.totalChunks;
+      const after = await Promise.all([study, second].map(async (x) => (await api('DELETE', `${studyPath}/${x.id}`)).study));
+      studyChunks = after.reduce((n, x) => n + x.progress.doneChunks, 0);
+      // One still running when cancelled: the workers computed through the whole window.
+      studyRanThroughout = after.some((x) => x.status === 'cancelled' && x.progress.doneChunks < x.progress.totalChunks);
     } finally {
       await Promise.all(workers.map((w) => w.stop()));
     }
     print(`read ${READ_PACED_RPS}/s + study`, readDuringStudy);
-    console.log(`  (the study landed ${studyChunks} chunks of 500 samples meanwhile; ${studyRanThroughout ? 'it was still running when the reads ended' : 'it ENDED before the reads did: part of the window had idle workers'})`);
+    console.log(`  (the studies landed ${studyChunks} chunks of 500 samples meanwhile; ${studyRanThroughout ? 'one was still running when the reads ended' : 'both ENDED before the reads did: part of the window had idle workers'})`);
 
     const out: Record<string, number> = {};
     const put = (prefix: string, f: Figures) => {
