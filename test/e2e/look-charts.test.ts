@@ -9,7 +9,7 @@
  */
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { consoleErrors, offsiteRequests, saveScreenshot, signIn, useE2eApp } from '../support/e2e.js';
+import { apiJson as api, consoleErrors, named, offsiteRequests, saveScreenshot, signIn, useE2eApp } from '../support/e2e.js';
 
 interface ChartReport {
   chart: string;
@@ -74,17 +74,6 @@ async function chartTexts(page: Page): Promise<ChartReport[]> {
   });
 }
 
-async function api<T>(page: Page, path: string): Promise<T> {
-  const r = await page.request.get(path, { headers: { 'X-Rollwise-Request': '1' } });
-  if (!r.ok()) throw new Error(`GET ${path}: ${r.status()}`);
-  return (await r.json()) as T;
-}
-
-function byName<T extends { name: string }>(list: T[], name: string): T {
-  const found = list.find((x) => x.name === name);
-  if (!found) throw new Error(`no "${name}" among ${list.map((x) => x.name).join(', ')}`);
-  return found;
-}
 
 describe('Charts in Chromium', () => {
   const env = useE2eApp();
@@ -93,13 +82,13 @@ describe('Charts in Chromium', () => {
     const page = await env.browser.newPage();
     const base = env.app.baseUrl;
     await signIn(page, base, 'engineer@tallowmere.example');
-    const team = byName(await api<{ id: string; name: string }[]>(page, `${base}/api/teams`), 'Tallowmere University Racing');
+    const team = named(await api<{ id: string; name: string }[]>(page, `${base}/api/teams`), 'Tallowmere University Racing');
     const vehicles = await api<{ id: string; name: string }[]>(page, `${base}/api/teams/${team.id}/vehicles`);
     const vehicle = vehicles.find((v) => /Ember/.test(v.name)) ?? vehicles[0]!;
     const designs = await api<{ id: string; name: string }[]>(page, `${base}/api/teams/${team.id}/vehicles/${vehicle.id}/axle-designs`);
-    const rear = byName(designs, 'Rear baseline');
+    const rear = named(designs, 'Rear baseline');
     const configurations = await api<{ id: string; name: string }[]>(page, `${base}/api/teams/${team.id}/configurations`);
-    const configuration = byName(configurations, 'Ember baseline');
+    const configuration = named(configurations, 'Ember baseline');
 
     const pages: { name: string; path: string; charts: number }[] = [
       { name: 'configuration', path: `/teams/${team.id}/configurations/${configuration.id}`, charts: 2 },

@@ -7,19 +7,8 @@
  */
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { consoleErrors, offsiteRequests, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+import { apiJson as api, consoleErrors, named, offsiteRequests, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
 
-async function api<T>(page: Page, url: string): Promise<T> {
-  const r = await page.request.get(url, { headers: { 'X-Rollwise-Request': '1' } });
-  if (!r.ok()) throw new Error(`GET ${url}: ${r.status()}`);
-  return (await r.json()) as T;
-}
-
-function named<T extends { name: string }>(list: T[], name: string): T {
-  const found = list.find((x) => x.name === name);
-  if (!found) throw new Error(`no "${name}" among ${list.map((x) => x.name).join(', ')}`);
-  return found;
-}
 
 /** Opens `path`, waits for `ready` and for no loading bar, then screenshots and checks the page. */
 async function visit(page: Page, base: string, name: string, path: string, ready: string): Promise<void> {

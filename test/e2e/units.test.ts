@@ -9,7 +9,7 @@
  */
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { consoleErrors, saveScreenshot, signIn, useE2eApp } from '../support/e2e.js';
+import { apiJson, consoleErrors, named, saveScreenshot, signIn, useE2eApp } from '../support/e2e.js';
 
 /** A figure in a stored SI unit: a number, then mm, kg, N, N/mm, N·m, km/h, deg/m or deg/m² (not part of a longer unit or word). */
 const SI_FIGURE = /(?<![\w.])[-−]?\d+(?:\.\d+)?\s?(?:mm|kg|N\/mm|N·m|N|km\/h|deg\/m²|deg\/m)(?![\w/²·])/g;
@@ -18,18 +18,6 @@ const US_FIGURE = /(?<![\w.])[-−]?\d+(?:\.\d+)?\s?(?:in|lb|lbf|lbf\/in|lbf·ft
 /** A column or axis that names a stored SI unit on its own: "(mm)", "[kg]", "deg/m". */
 const SI_HEADING = /[([](?:mm|kg|N|N\/mm|km\/h|deg\/m|deg\/m²)[)\]]/g;
 
-async function api<T>(page: Page, base: string, method: 'GET' | 'PATCH', path: string, data?: unknown): Promise<T> {
-  const headers = { 'X-Rollwise-Request': '1' };
-  const r = method === 'GET' ? await page.request.get(base + path, { headers }) : await page.request.patch(base + path, { headers, data });
-  if (!r.ok()) throw new Error(`${method} ${path}: ${r.status()} ${await r.text()}`);
-  return (await r.json()) as T;
-}
-
-function named<T extends { name: string }>(list: T[], name: string): T {
-  const found = list.find((x) => x.name === name);
-  if (!found) throw new Error(`no "${name}" among ${list.map((x) => x.name).join(', ')}`);
-  return found;
-}
 
 /**
  * Opens `path`, waits for `ready` and for no loading bar, and returns the text the reader sees in the page's
@@ -71,16 +59,16 @@ describe('The unit choice on every screen', () => {
     const page = await env.browser.newPage();
     const base = env.app.baseUrl;
     await signIn(page, base, 'engineer@tallowmere.example');
-    const me = await api<{ user: { displayUnits: string } }>(page, base, 'PATCH', '/api/auth/me', { displayUnits: 'imperial' });
+    const me = await apiJson<{ user: { displayUnits: string } }>(page, `${base}/api/auth/me`, { displayUnits: 'imperial' });
     expect(me.user.displayUnits).toBe('imperial');
 
-    const team = named(await api<{ id: string; name: string }[]>(page, base, 'GET', '/api/teams'), 'Tallowmere University Racing');
+    const team = named(await apiJson<{ id: string; name: string }[]>(page, base + '/api/teams'), 'Tallowmere University Racing');
     const t = `/teams/${team.id}`;
-    const vehicles = await api<{ id: string; name: string }[]>(page, base, 'GET', `/api/teams/${team.id}/vehicles`);
+    const vehicles = await apiJson<{ id: string; name: string }[]>(page, base + `/api/teams/${team.id}/vehicles`);
     const vehicle = vehicles[0]!;
-    const designs = await api<{ id: string; name: string; axle: string }[]>(page, base, 'GET', `/api/teams/${team.id}/vehicles/${vehicle.id}/axle-designs`);
+    const designs = await apiJson<{ id: string; name: string; axle: string }[]>(page, base + `/api/teams/${team.id}/vehicles/${vehicle.id}/axle-designs`);
     const design = designs.find((d) => d.axle === 'front') ?? designs[0]!;
-    const configuration = named(await api<{ id: string; name: string }[]>(page, base, 'GET', `/api/teams/${team.id}/configurations`), 'Ember baseline');
+    const configuration = named(await apiJson<{ id: string; name: string }[]>(page, base + `/api/teams/${team.id}/configurations`), 'Ember baseline');
     const v = `${t}/vehicles/${vehicle.id}`;
     const d = `${v}/axle-designs/${design.id}`;
 
@@ -121,8 +109,8 @@ describe('The unit choice on every screen', () => {
     const page = await env.browser.newPage();
     const base = env.app.baseUrl;
     await signIn(page, base, 'instructor@programme.example');
-    await api(page, base, 'PATCH', '/api/auth/me', { displayUnits: 'imperial' });
-    const programme = named(await api<{ id: string; name: string }[]>(page, base, 'GET', '/api/programmes'), 'Winter roll-steer comparison');
+    await apiJson(page, `${base}/api/auth/me`, { displayUnits: 'imperial' });
+    const programme = named(await apiJson<{ id: string; name: string }[]>(page, base + '/api/programmes'), 'Winter roll-steer comparison');
     const text = await settledText(page, base, 'programme', `/programmes/${programme.id}`, 'h2#board-heading');
     expect(siLeft(text), 'figures or headings left in SI units on the programme board').toEqual([]);
     expect(consoleErrors(page)).toEqual([]);

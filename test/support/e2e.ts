@@ -181,6 +181,21 @@ export async function chooseOption(page: Page, name: string, option: string | Re
   await page.getByRole('listbox').waitFor({ state: 'detached' });
 }
 
+/** The API's JSON answer to a GET of `url` (or a PATCH with `patch`), as the person signed in on `page`. */
+export async function apiJson<T>(page: Page, url: string, patch?: unknown): Promise<T> {
+  const headers = { 'X-Rollwise-Request': '1' };
+  const r = patch === undefined ? await page.request.get(url, { headers }) : await page.request.patch(url, { headers, data: patch });
+  if (!r.ok()) throw new Error(`${patch === undefined ? 'GET' : 'PATCH'} ${url}: ${r.status()} ${await r.text()}`);
+  return (await r.json()) as T;
+}
+
+/** The item of `list` with this name (a team, vehicle, design, configuration); fails naming the ones there are. */
+export function named<T extends { name: string }>(list: readonly T[], name: string): T {
+  const found = list.find((x) => x.name === name);
+  if (!found) throw new Error(`no "${name}" among ${list.map((x) => x.name).join(', ')}`);
+  return found;
+}
+
 /** Signs in through the sign-in page and waits until the app has left it. */
 export async function signIn(page: Page, baseUrl: string, email: string, password = DEMO_PASSWORD): Promise<void> {
   await page.goto(`${baseUrl}/sign-in`);
