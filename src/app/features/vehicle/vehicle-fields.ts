@@ -57,7 +57,7 @@ function axleFields(axle: AxleName): VehicleField[] {
     f(p('antiRollBar.leverLengthMm'), 'Bar lever length', 'mm', 'mm', false, { bar: 'geometry', linked: FROM_BAR_DRAWN }),
     f(p('antiRollBar.linkMotionRatio'), 'Bar drop-link motion ratio', null, 'ratio', false, { bar: 'geometry', linked: FROM_BAR_DRAWN }),
     f(p('antiRollBar.twistRadPerM'), 'Bar twist per wheel travel (instead of lever and link)', null, 'rad/m', false, { bar: 'geometry', linked: FROM_BAR_DRAWN }),
-    f(p('antiRollBar.shearModulusGPa'), 'Bar shear modulus (empty: steel, 79.3)', null, 'GPa', false, { bar: 'geometry' }),
+    f(p('antiRollBar.shearModulusGPa'), 'Bar shear modulus (empty: steel, 79.3 GPa = 11.5 Mpsi)', 'GPa', 'GPa', false, { bar: 'geometry' }),
     f(p('rollStiffnessNmPerDeg'), 'Roll stiffness entered directly (replaces spring and bar)', 'N m / deg', 'N·m/deg'),
     f(p('rollSteerCoefficient'), 'Roll steer coefficient ε (+ out of the turn)', null, 'deg/deg', false, { linked: FROM_KINEMATICS }),
     f(p('rollCamberDegPerDeg'), 'Roll camber coefficient', null, 'deg/deg', false, { linked: FROM_KINEMATICS }),
