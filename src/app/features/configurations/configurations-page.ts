@@ -108,6 +108,11 @@ export class ConfigurationsPage {
   protected readonly saving = signal(false);
   protected readonly fronts = computed(() => this.formDesigns().filter((d) => d.axle === 'front'));
   protected readonly rears = computed(() => this.formDesigns().filter((d) => d.axle === 'rear'));
+  /** The two axles' design and revision choices, drawn by one template row. */
+  protected readonly axleChoices = [
+    { axle: 'front', title: 'Front', design: this.formFront, revision: this.formFrontRevision, designs: this.fronts, revisions: this.frontRevisions },
+    { axle: 'rear', title: 'Rear', design: this.formRear, revision: this.formRearRevision, designs: this.rears, revisions: this.rearRevisions },
+  ] as const;
 
   protected load(): void {
     this.list.reload();
