@@ -7,7 +7,7 @@
  * seeded database, Debian's Chromium. Needs `npx ng build` first.
  */
 import { describe, expect, it } from 'vitest';
-import { consoleErrors, overlappingTexts, offsiteRequests, saveScreenshot, seriousA11yViolations, signIn, useE2eApp } from '../support/e2e.js';
+import { consoleErrors, overlappingTexts, offsiteRequests, saveScreenshot, seriousA11yViolations, settledBox, signIn, useE2eApp } from '../support/e2e.js';
 
 describe('Linkage views in Chromium', () => {
   const env = useE2eApp();
@@ -33,9 +33,13 @@ describe('Linkage views in Chromium', () => {
 
     if (drawn) {
       // Every point is labelled; pick the upper ball joint 16 px below its name's centre (linkage-3d.scss).
+      // The stage is brought to the middle of the window (clear of the sticky top bar and the window's
+      // bottom edge) and the name read once the view has stopped moving (the canvas is fitted to the
+      // stage in the next animation frame, which a loaded machine delays).
       const label = page.locator('.rw-3d-label[data-point="points.upperOuter"]');
       await label.waitFor();
-      const box = (await label.boundingBox())!;
+      await page.getByTestId('linkage-3d-stage').evaluate((el) => el.scrollIntoView({ block: 'center' }));
+      const box = await settledBox(page, label);
       await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2 + 16);
       await page.locator('tr.rw-selected[data-key="points.upperOuter"]').waitFor();
       await page.getByTestId('picked-point').filter({ hasText: /^Upper ball joint$/ }).waitFor();

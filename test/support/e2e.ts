@@ -174,6 +174,24 @@ export async function overlappingTexts(page: Page, svgSelector: string): Promise
   }, svgSelector);
 }
 
+/**
+ * Where `locator` sits on screen once it has stopped moving: the box read after two animation frames
+ * equals the one read before them. For a point drawn on a canvas (a label anchored to it) that a test
+ * clicks by position, where Playwright's own "stable" check does not apply; a resize or a late redraw
+ * would otherwise move the target between reading its box and clicking.
+ */
+export async function settledBox(page: Page, locator: Locator, timeoutMs = 15_000): Promise<{ x: number; y: number; width: number; height: number }> {
+  const until = Date.now() + timeoutMs;
+  let last = await locator.boundingBox();
+  for (;;) {
+    await page.evaluate(() => new Promise<void>((done) => requestAnimationFrame(() => requestAnimationFrame(() => done()))));
+    const now = await locator.boundingBox();
+    if (now && last && now.x === last.x && now.y === last.y && now.width === last.width && now.height === last.height) return now;
+    if (Date.now() > until) throw new Error(`still moving after ${timeoutMs} ms: ${JSON.stringify(last)} then ${JSON.stringify(now)}`);
+    last = now;
+  }
+}
+
 /** Picks `option` in the Material select named `name`, as a user does: opens its list, clicks the option, waits for the list to close. */
 export async function chooseOption(page: Page, name: string, option: string | RegExp): Promise<void> {
   await page.getByRole('combobox', { name, exact: true }).click();
