@@ -98,7 +98,7 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   const vehicles = new Vehicles(db.orm);
   const designs = new AxleDesigns(db.orm);
   const proposals = new Proposals(db.orm, designs);
-  const pool = createComputePool({ threads: config.computeThreads, warm: config.computeWarmStart, niceIncrement: PRIORITIES.request });
+  const pool = createComputePool({ threads: config.computeThreads, warm: config.computeWarmStart, niceIncrement: config.computeNice ? PRIORITIES.request : 0 });
   const queue = new JobQueue(db.pool);
   const jobs = new SolveJobs(db, queue, { timeLimitMs: config.solveJobTimeLimitMs, retainMs: config.solveJobRetainMs });
   // Tests and single-process set-ups: a queue worker in this process (npm start runs a worker process instead).

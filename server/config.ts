@@ -78,6 +78,12 @@ export interface Config {
   workerWarmStart: boolean;
   /** A worker process (`npm run worker`) lowers its own CPU priority by this much (Linux nice, 0–19) at start, every thread. */
   workerNice: number;
+  /**
+   * Compute threads run below their process's priority (requests +2, solve jobs +5, study chunks +10, Linux nice):
+   * on a machine the API shares with workers, answering comes first. Off in tests, where every process is the
+   * test's own and a lowered thread only waits behind the browser and the build (the rule has its own test).
+   */
+  computeNice: boolean;
   /** Idle workers look for jobs this often (a NOTIFY wakes them sooner). */
   queuePollMs: number;
   /** pg-boss maintenance interval: how soon a dead worker's job is noticed after its expiry. */
@@ -187,7 +193,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     // The warm-up is a throughput matter (the first chunk runs compiled code); tests start many workers.
     workerWarmStart: flag(env, 'WORKER_WARM_START', !test),
     // Where workers share cores with the API (one machine), requests run first and studies take the cycles left.
-    workerNice: Math.min(19, int(env, 'WORKER_NICE', 10, 0)),
+    // Tests: 0, as computeNice (a lowered worker waited minutes behind the browser tests and the build).
+    workerNice: Math.min(19, int(env, 'WORKER_NICE', test ? 0 : 10, 0)),
+    computeNice: flag(env, 'COMPUTE_NICE', !test),
     queuePollMs: int(env, 'QUEUE_POLL_MS', test ? 1000 : 2000, 50),
     queueMaintenanceSeconds: int(env, 'QUEUE_MAINTENANCE_SECONDS', test ? 1 : 30, 1),
     studyChunkExpireSeconds: int(env, 'STUDY_CHUNK_EXPIRE_SECONDS', 120, 1),

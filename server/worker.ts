@@ -54,6 +54,7 @@ export function workerOptions(config: Config, logger?: ReturnType<typeof createL
     solveSlots: config.workerSolveSlots,
     studySlots: config.workerStudySlots,
     warm: config.workerWarmStart,
+    niceThreads: config.computeNice,
     pollMs: config.queuePollMs,
     maintenanceIntervalSeconds: config.queueMaintenanceSeconds,
     chunkTimeLimitMs: config.studyChunkTimeLimitMs,

@@ -49,6 +49,8 @@ export interface RunnerOptions {
   stallSeconds: number;
   /** Start the threads at once (worker processes) rather than at the first job (a worker inside the server). */
   warm?: boolean;
+  /** Solve and study threads run below the process (PRIORITIES); config `computeNice`. */
+  niceThreads: boolean;
   logger?: { info(o: object, m: string): void; warn(o: object, m: string): void };
 }
 
@@ -108,8 +110,8 @@ export class QueueRunner {
     private readonly handlers: Partial<Record<string, QueueHandler>>,
   ) {
     this.queue = new JobQueue(db.pool, { supervise: true, maintenanceIntervalSeconds: o.maintenanceIntervalSeconds });
-    this.pool = createComputePool({ threads: o.solveSlots, maxQueue: 1024, warm: o.warm ?? true, niceIncrement: PRIORITIES.solveJob });
-    this.studyPool = createComputePool({ threads: o.studySlots, maxQueue: 1024, keepThreads: o.warm ?? true, niceIncrement: PRIORITIES.studyChunk });
+    this.pool = createComputePool({ threads: o.solveSlots, maxQueue: 1024, warm: o.warm ?? true, niceIncrement: o.niceThreads ? PRIORITIES.solveJob : 0 });
+    this.studyPool = createComputePool({ threads: o.studySlots, maxQueue: 1024, keepThreads: o.warm ?? true, niceIncrement: o.niceThreads ? PRIORITIES.studyChunk : 0 });
   }
 
   async start(): Promise<void> {
