@@ -19,6 +19,7 @@ import type {
 import type { DesignRevisionRecord, VehicleRevisionRecord } from '../../../../shared/api/documents';
 import { SHOW_ERRORS_INLINE } from '../../core/http/api-error';
 import type { DisplayUnits } from '../../core/api-types';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 /** The response types are the server's own (shared/api): docs/api.md, "Configurations and review". */
 export type {
@@ -71,8 +72,8 @@ export interface ConfigurationChange {
 
 /** What a reviewer sends with a step: reasons for Critical cautions (sign-off) or rig waivers (validated). */
 export interface GateBody {
-  readonly acknowledgements?: readonly { readonly axle: 'front' | 'rear'; readonly code: string; readonly reason: string }[];
-  readonly waivers?: readonly { readonly axle: 'front' | 'rear'; readonly reason: string }[];
+  readonly acknowledgements?: readonly { readonly axle: AxleName; readonly code: string; readonly reason: string }[];
+  readonly waivers?: readonly { readonly axle: AxleName; readonly reason: string }[];
 }
 
 const inline = () => ({ context: new HttpContext().set(SHOW_ERRORS_INLINE, true) });

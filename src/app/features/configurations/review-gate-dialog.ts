@@ -4,6 +4,7 @@ import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/materia
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import type { CriticalCaution, GateBody, GatesAnswer } from './configurations-api';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 export interface ReviewGateDialogData {
   /** `sign-off`: a reason per Critical caution; `validate`: a waiver reason per axle without rig evidence. */
@@ -18,7 +19,7 @@ const AXLE_WORDS = { front: 'Front axle', rear: 'Rear axle' } as const;
 
 interface Item {
   readonly key: string;
-  readonly axle: 'front' | 'rear';
+  readonly axle: AxleName;
   readonly title: string;
   readonly detail: string;
   readonly code: string;

@@ -3,6 +3,7 @@ import { MatButton } from '@angular/material/button';
 import type { Corner } from '../../../../shared/schema/corner';
 import type { Proposal, RevisionRow } from '../features-api';
 import { OutputCurves } from './output-curves';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 /**
  * The editor's output curves behind a button: the panel's code and its
@@ -60,7 +61,7 @@ import { OutputCurves } from './output-curves';
 })
 export class OutputCurvesPanel {
   readonly corner = input.required<Corner>();
-  readonly axle = input<'front' | 'rear'>('front');
+  readonly axle = input<AxleName>('front');
   readonly teamId = input.required<string>();
   readonly designId = input.required<string>();
   readonly vehicleId = input.required<string>();

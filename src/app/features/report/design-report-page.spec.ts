@@ -7,9 +7,10 @@ import { exampleCorners } from '../../../../shared/kinematics/examples';
 import type { DisplayUnits } from '../../core/api-types';
 import { DesignReportPage } from './design-report-page';
 import { routedPageTestBed } from '../../../testing/routed-page';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 const T = '/api/teams/t-tal';
-const design = (id: string, axle: 'front' | 'rear', revision: number, updatedByName: string) => ({
+const design = (id: string, axle: AxleName, revision: number, updatedByName: string) => ({
   id,
   vehicleId: 'v-ember',
   axle,
