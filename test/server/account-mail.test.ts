@@ -12,7 +12,7 @@ import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp.js';
 import { startServer } from '../../server/main.js';
 import { createApp } from '../../server/app.js';
 import { freshDatabaseUrl } from '../support/db.js';
-import { agent, expectError, registerUser, signIn, startTestApp, testConfig, type Agent, type TestApp } from './helpers.js';
+import { agent, expectError, idOf, registerUser, signIn, startTestApp, testConfig, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let fake: FakeSmtp;
@@ -23,7 +23,7 @@ beforeAll(async () => {
   fake = await startFakeSmtp();
   t = await startTestApp({ seed: true, config: { smtpUrl: fake.url, mailPollMs: 50 } });
   owner = await signIn(t.app, 'owner@tallowmere.example');
-  teamId = (await owner.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
+  teamId = await idOf(owner, '/api/teams', 'tallowmere');
 });
 afterAll(async () => {
   await t?.close();

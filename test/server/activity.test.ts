@@ -4,7 +4,7 @@ import Papa from 'papaparse';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import { exampleVehicles } from '../../shared/balance/examples.js';
 import { toCsv } from '../../shared/io/csv.js';
-import { addMember, agent, expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { addMember, agent, expectError, idOf, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let owner: Agent, engineer: Agent, designer: Agent, viewer: Agent;
@@ -19,14 +19,14 @@ beforeAll(async () => {
   engineer = await signIn(t.app, 'engineer@tallowmere.example');
   designer = await signIn(t.app, 'designer@tallowmere.example');
   viewer = await signIn(t.app, 'viewer@tallowmere.example');
-  teamId = (await owner.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
-  vehicleId = (await owner.get(`/api/teams/${teamId}/vehicles`).expect(200)).body.find((v: { name: string }) => v.name === 'TUR-26 Ember').id;
-  frontId = (await owner.get(`/api/teams/${teamId}/vehicles/${vehicleId}/axle-designs`).expect(200)).body.find((d: { name: string }) => d.name === 'Front baseline').id;
+  teamId = await idOf(owner, '/api/teams', 'tallowmere');
+  vehicleId = await idOf(owner, `/api/teams/${teamId}/vehicles`, 'TUR-26 Ember');
+  frontId = await idOf(owner, `/api/teams/${teamId}/vehicles/${vehicleId}/axle-designs`, 'Front baseline');
 
   // A little history: vehicle data, a hardpoint edit with a hostile message, a configuration, a member change.
   await engineer.put(`/api/teams/${teamId}/vehicles/${vehicleId}/data`).send({ data: exampleVehicles.tur26Ember, baseRevision: 1, message: 'spring rates' }).expect(200);
   await designer.put(`/api/teams/${teamId}/axle-designs/${frontId}/corner`).send({ corner: exampleCorners.fsFrontWishbone, baseRevision: 1, message: evil }).expect(200);
-  const rearId = (await owner.get(`/api/teams/${teamId}/vehicles/${vehicleId}/axle-designs`).expect(200)).body.find((d: { name: string }) => d.name === 'Rear baseline').id;
+  const rearId = await idOf(owner, `/api/teams/${teamId}/vehicles/${vehicleId}/axle-designs`, 'Rear baseline');
   const c = await designer
     .post(`/api/teams/${teamId}/configurations`)
     .send({ name: '-5 mm toe link', vehicleId, frontDesignId: frontId, rearDesignId: rearId, trackProfile: 'smooth-circuit' })

@@ -6,7 +6,7 @@ import { eq } from 'drizzle-orm';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import { exampleVehicles } from '../../shared/balance/examples.js';
 import { apiTokens } from '../../server/db/schema.js';
-import { addMember, agent, DEMO_PASSWORD, expectError, mailedLink, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { addMember, agent, DEMO_PASSWORD, expectError, idOf, mailedLink, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let engineer: Agent;
@@ -20,7 +20,7 @@ beforeAll(async () => {
   const teams = (await engineer.get('/api/teams').expect(200)).body as { id: string; slug: string }[];
   tallowmere = teams.find((x) => x.slug === 'tallowmere')!.id;
   brackenfield = teams.find((x) => x.slug === 'brackenfield')!.id;
-  vehicle = `/api/teams/${tallowmere}/vehicles/${(await engineer.get(`/api/teams/${tallowmere}/vehicles`).expect(200)).body.find((v: { name: string }) => v.name === 'TUR-26 Ember').id}`;
+  vehicle = `/api/teams/${tallowmere}/vehicles/${await idOf(engineer, `/api/teams/${tallowmere}/vehicles`, 'TUR-26 Ember')}`;
 });
 afterAll(async () => {
   await t?.close();

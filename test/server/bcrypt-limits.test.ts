@@ -6,7 +6,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import bcrypt from 'bcryptjs';
-import { agent, expectError, mailedLink, registerUser, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { agent, expectError, idOf, mailedLink, registerUser, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let owner: Agent;
@@ -16,7 +16,7 @@ const MAX = 4;
 beforeAll(async () => {
   t = await startTestApp({ seed: true, config: { addressLimit: { windowMs: 15 * 60_000, max: MAX }, signInLimit: { windowMs: 15 * 60_000, max: MAX } } });
   owner = await signIn(t.app, 'owner@tallowmere.example');
-  teamId = (await owner.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
+  teamId = await idOf(owner, '/api/teams', 'tallowmere');
 });
 afterAll(async () => {
   await t?.close();

@@ -17,7 +17,7 @@ import pg from 'pg';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import { exampleVehicles } from '../../shared/balance/examples.js';
 import { freshDatabaseUrl } from '../support/db.js';
-import { addMember, DEMO_PASSWORD, expectError, registerUser, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { addMember, DEMO_PASSWORD, expectError, idOf, registerUser, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let dana: Agent; // designer
@@ -38,11 +38,11 @@ beforeAll(async () => {
     signIn(t.app, 'owner@tallowmere.example'),
     signIn(t.app, 'reviewer@tallowmere.example'),
   ]);
-  teamId = (await owner.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
+  teamId = await idOf(owner, '/api/teams', 'tallowmere');
   const s = await registerUser(t.app, 'Sam Second');
   await addMember(t, owner, teamId, s, ['engineer', 'designer']);
   sam = s.agent;
-  vehicleId = (await owner.get(`/api/teams/${teamId}/vehicles`).expect(200)).body.find((v: { name: string }) => v.name === 'TUR-26 Ember').id;
+  vehicleId = await idOf(owner, `/api/teams/${teamId}/vehicles`, 'TUR-26 Ember');
   const designs = (await owner.get(`/api/teams/${teamId}/vehicles/${vehicleId}/axle-designs`).expect(200)).body as { id: string; name: string }[];
   frontId = designs.find((d) => d.name === 'Front baseline')!.id;
   rearId = designs.find((d) => d.name === 'Rear baseline')!.id;

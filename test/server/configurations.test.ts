@@ -12,7 +12,7 @@ import { exampleVehicles } from '../../shared/balance/examples.js';
 import { computeBalance } from '../../shared/balance/api.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import { configurationApprovals } from '../../server/db/schema.js';
-import { expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { expectError, idOf, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let owner: Agent, engineer: Agent, designer: Agent, reviewer: Agent, viewer: Agent;
@@ -33,8 +33,8 @@ beforeAll(async () => {
   designer = await signIn(t.app, 'designer@tallowmere.example');
   reviewer = await signIn(t.app, 'reviewer@tallowmere.example');
   viewer = await signIn(t.app, 'viewer@tallowmere.example');
-  teamId = (await owner.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
-  vehicleId = (await owner.get(`${team()}/vehicles`).expect(200)).body.find((v: { name: string }) => v.name === 'TUR-26 Ember').id;
+  teamId = await idOf(owner, '/api/teams', 'tallowmere');
+  vehicleId = await idOf(owner, `${team()}/vehicles`, 'TUR-26 Ember');
   const designs = (await owner.get(`${team()}/vehicles/${vehicleId}/axle-designs`).expect(200)).body as { id: string; name: string }[];
   frontId = designs.find((d) => d.name === 'Front baseline')!.id;
   rearId = designs.find((d) => d.name === 'Rear baseline')!.id;
@@ -105,7 +105,7 @@ describe('configurations', () => {
     expectError(await designer.post(`${team()}/configurations`).send({ ...base, frontDesignId: rearId }), 400, 'invalid_input');
     expectError(await designer.post(`${team()}/configurations`).send({ ...base, rearDesignRevision: 99 }), 404, 'not_found');
     expectError(await designer.post(`${team()}/configurations`).send({ ...base, trackProfile: 'moon-base' }), 400, 'invalid_input');
-    const cinder = (await owner.get(`${team()}/vehicles`).expect(200)).body.find((v: { name: string }) => v.name === 'TUR-25 Cinder').id;
+    const cinder = await idOf(owner, `${team()}/vehicles`, 'TUR-25 Cinder');
     expectError(await designer.post(`${team()}/configurations`).send({ ...base, vehicleId: cinder }), 404, 'not_found');
     const blank = await engineer.post(`${team()}/vehicles`).send({ name: 'No data yet' }).expect(201);
     const f = await designer.post(`${team()}/vehicles/${blank.body.id}/axle-designs`).send({ axle: 'front', name: 'F', corner: exampleCorners.fsFrontWishbone }).expect(201);

@@ -18,7 +18,7 @@ import { migrateDatabase } from '../../server/db/migrate.js';
 import { seedDemo } from '../../server/db/seed.js';
 import { freePort } from '../../server/tools/pg.js';
 import { freshDatabaseUrl } from '../support/db.js';
-import { DatabaseRelay, DEMO_PASSWORD, expectError, registerUser, signIn, startTestApp, testConfig, type Agent, type TestApp } from './helpers.js';
+import { DatabaseRelay, DEMO_PASSWORD, expectError, idOf, registerUser, signIn, startTestApp, testConfig, type Agent, type TestApp } from './helpers.js';
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
@@ -45,7 +45,7 @@ describe('PostgreSQL stopped and restarted while requests run', () => {
 
   it('answers 503 quickly while it is down (never hangs, never a 500), and recovers by itself with the session intact', async () => {
     const engineer = await signIn(app, 'engineer@tallowmere.example');
-    const teamId = (await engineer.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
+    const teamId = await idOf(engineer, '/api/teams', 'tallowmere');
     const vehicle = `/api/teams/${teamId}/vehicles/${(await engineer.get(`/api/teams/${teamId}/vehicles`).expect(200)).body[0].id}`;
 
     type Sample = { from: number; at: number; status: number; ms: number; code?: string };

@@ -63,6 +63,21 @@ export async function signIn(app: RollwiseApp, email: string, password = DEMO_PA
   return a;
 }
 
+/**
+ * The id of a demo record, found by what a person sees (a team's slug, a vehicle's, design's or configuration's
+ * name) in a list the API gives `who` at `url`; fails naming the ones there are. `/api/teams` is found by slug,
+ * everything else by name.
+ */
+export async function idOf(who: Agent, url: string, key: string): Promise<string> {
+  const r = await who.get(url);
+  expect(r.status, `GET ${url}: ${JSON.stringify(r.body)}`).toBe(200);
+  const field = url === '/api/teams' ? 'slug' : 'name';
+  const list = r.body as Record<string, string>[];
+  const found = list.find((x) => x[field] === key);
+  if (!found) throw new Error(`no ${field} "${key}" at ${url} among ${list.map((x) => x[field]).join(', ')}`);
+  return found['id']!;
+}
+
 let counter = 0;
 export async function registerUser(app: RollwiseApp, name = 'Test User'): Promise<{ agent: Agent; email: string; id: string }> {
   const email = `user${++counter}-${Date.now()}@test.example`;

@@ -12,7 +12,7 @@ import request from 'supertest';
 import { users } from '../../server/db/schema.js';
 import { createLogger, errorForLog, loggableUrl } from '../../server/http/logging.js';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
-import { agent, expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { agent, expectError, idOf, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let owner: Agent;
@@ -21,7 +21,7 @@ const team = () => `/api/teams/${teamId}`;
 beforeAll(async () => {
   t = await startTestApp({ seed: true });
   owner = await signIn(t.app, 'owner@tallowmere.example');
-  teamId = (await owner.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
+  teamId = await idOf(owner, '/api/teams', 'tallowmere');
 });
 afterAll(async () => {
   await t?.close();

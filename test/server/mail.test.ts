@@ -10,7 +10,7 @@ import { eq, sql } from 'drizzle-orm';
 import { capturedMail, mailOutbox } from '../../server/db/schema.js';
 import { enqueueMail, MailWorker } from '../../server/mail/outbox.js';
 import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp.js';
-import { agent, expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { agent, expectError, idOf, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let fake: FakeSmtp;
@@ -42,8 +42,8 @@ beforeAll(async () => {
   engineer = await signIn(t.app, 'engineer@tallowmere.example');
   designer = await signIn(t.app, 'designer@tallowmere.example');
   reviewer = await signIn(t.app, 'reviewer@tallowmere.example');
-  teamId = (await owner.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
-  const vehicleId = (await owner.get(`/api/teams/${teamId}/vehicles`).expect(200)).body.find((v: { name: string }) => v.name === 'TUR-26 Ember').id;
+  teamId = await idOf(owner, '/api/teams', 'tallowmere');
+  const vehicleId = await idOf(owner, `/api/teams/${teamId}/vehicles`, 'TUR-26 Ember');
   const designs = (await owner.get(`/api/teams/${teamId}/vehicles/${vehicleId}/axle-designs`).expect(200)).body as { id: string; name: string }[];
   body = {
     vehicleId,

@@ -1,7 +1,7 @@
 /** Proposals: applying a solution never overwrites; a designer accepts it as a new revision. */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
-import { addMember, expectError, registerUser, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { addMember, expectError, idOf, registerUser, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let engineer: Agent;
@@ -12,8 +12,8 @@ beforeAll(async () => {
   t = await startTestApp({ seed: true });
   engineer = await signIn(t.app, 'engineer@tallowmere.example');
   designer = await signIn(t.app, 'designer@tallowmere.example');
-  const teamId = (await engineer.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
-  const vehicleId = (await engineer.get(`/api/teams/${teamId}/vehicles`).expect(200)).body.find((v: { name: string }) => v.name === 'TUR-26 Ember').id;
+  const teamId = await idOf(engineer, '/api/teams', 'tallowmere');
+  const vehicleId = await idOf(engineer, `/api/teams/${teamId}/vehicles`, 'TUR-26 Ember');
   const d = await designer.post(`/api/teams/${teamId}/vehicles/${vehicleId}/axle-designs`).send({ axle: 'rear', name: 'Proposal study', corner: exampleCorners.fsRearWishbone }).expect(201);
   base = `/api/teams/${teamId}/axle-designs/${d.body.id}`;
 });

@@ -13,7 +13,7 @@
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import request from 'supertest';
 import { BODY_LIMITS, PUBLIC_BODY_ROUTES } from '../../server/http/body.js';
-import { agent, expectError, listRoutes, signIn, startTestApp, type TestApp } from './helpers.js';
+import { agent, expectError, idOf, listRoutes, signIn, startTestApp, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let teamId = '';
@@ -21,7 +21,7 @@ let vehicleId = '';
 beforeAll(async () => {
   t = await startTestApp({ seed: true });
   const owner = await signIn(t.app, 'owner@tallowmere.example');
-  teamId = (await owner.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
+  teamId = await idOf(owner, '/api/teams', 'tallowmere');
   vehicleId = (await owner.get(`/api/teams/${teamId}/vehicles`).expect(200)).body[0].id;
 });
 afterAll(async () => {

@@ -11,7 +11,7 @@ import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
 import { sweepCorner } from '../../shared/kinematics/sweep.js';
-import { expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { expectError, idOf, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let designer: Agent, engineer: Agent, reviewer: Agent, viewer: Agent;
@@ -32,8 +32,8 @@ beforeAll(async () => {
   engineer = await signIn(t.app, 'engineer@tallowmere.example');
   reviewer = await signIn(t.app, 'reviewer@tallowmere.example');
   viewer = await signIn(t.app, 'viewer@tallowmere.example');
-  teamId = (await viewer.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
-  vehicleId = (await viewer.get(`${team()}/vehicles`).expect(200)).body.find((v: { name: string }) => v.name === 'TUR-26 Ember').id;
+  teamId = await idOf(viewer, '/api/teams', 'tallowmere');
+  vehicleId = await idOf(viewer, `${team()}/vehicles`, 'TUR-26 Ember');
   const designs = (await viewer.get(`${team()}/vehicles/${vehicleId}/axle-designs`).expect(200)).body as { id: string; name: string }[];
   frontId = designs.find((d) => d.name === 'Front baseline')!.id;
   rearId = designs.find((d) => d.name === 'Rear baseline')!.id;

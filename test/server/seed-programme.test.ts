@@ -1,7 +1,7 @@
 /** The demo programme seed: the invented scenario's programme, idempotent, through the real service and visible through the API. */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedDemoProgramme, DEMO_PROGRAMME } from '../../server/db/seed-programme.js';
-import { expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { expectError, idOf, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let iris: Agent;
@@ -14,8 +14,8 @@ beforeAll(async () => {
   t = await startTestApp({ seed: true });
   await seedDemoProgramme(t.db.orm);
   [iris, ana, bo] = await Promise.all([signIn(t.app, 'instructor@programme.example'), signIn(t.app, 'owner@tallowmere.example'), signIn(t.app, 'owner@brackenfield.example')]);
-  tallowmere = (await ana.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
-  brackenfield = (await bo.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'brackenfield').id;
+  tallowmere = await idOf(ana, '/api/teams', 'tallowmere');
+  brackenfield = await idOf(bo, '/api/teams', 'brackenfield');
 });
 afterAll(async () => {
   await t?.close();

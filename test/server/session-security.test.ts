@@ -9,7 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createApp } from '../../server/app.js';
 import { SESSION_COOKIE, SESSION_TABLE } from '../../server/http/session.js';
-import { agent, DEMO_PASSWORD, expectError, listRoutes, registerUser, signIn, startTestApp, testConfig, type Agent, type TestApp } from './helpers.js';
+import { agent, DEMO_PASSWORD, expectError, idOf, listRoutes, registerUser, signIn, startTestApp, testConfig, type Agent, type TestApp } from './helpers.js';
 
 const LIMIT = 4;
 let t: TestApp;
@@ -18,7 +18,7 @@ beforeAll(async () => {
   // bcrypt cost 8 (not the suite's 4) so a skipped hash would show in the timing check below.
   t = await startTestApp({ seed: true, config: { signInLimit: { windowMs: 60_000, max: LIMIT }, bcryptRounds: 8 } });
   const owner = await signIn(t.app, 'owner@tallowmere.example');
-  teamId = (await owner.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
+  teamId = await idOf(owner, '/api/teams', 'tallowmere');
 });
 afterAll(async () => {
   await t?.close();

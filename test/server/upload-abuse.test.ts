@@ -11,7 +11,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { exampleCorners } from '../../shared/kinematics/examples.js';
-import { expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { expectError, idOf, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 
 let t: TestApp;
 let designer: Agent;
@@ -36,8 +36,8 @@ async function stored(): Promise<string> {
 beforeAll(async () => {
   t = await startTestApp({ seed: true });
   designer = await signIn(t.app, 'designer@tallowmere.example');
-  teamId = (await designer.get('/api/teams').expect(200)).body.find((x: { slug: string }) => x.slug === 'tallowmere').id;
-  const vehicleId = (await designer.get(`/api/teams/${teamId}/vehicles`).expect(200)).body.find((v: { name: string }) => v.name === 'TUR-26 Ember').id;
+  teamId = await idOf(designer, '/api/teams', 'tallowmere');
+  const vehicleId = await idOf(designer, `/api/teams/${teamId}/vehicles`, 'TUR-26 Ember');
   designId = (await designer.get(`/api/teams/${teamId}/vehicles/${vehicleId}/axle-designs`).expect(200)).body.find((d: { axle: string }) => d.axle === 'front').id;
   before = await stored();
 });
