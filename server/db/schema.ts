@@ -650,6 +650,14 @@ export const studies = pgTable(
     computeMs: doublePrecision('compute_ms').notNull().default(0),
     posesSolved: doublePrecision('poses_solved').notNull().default(0),
     result: jsonb('result').$type<StudyResult>(),
+    /**
+     * The same result as the API sends it (factors named as the engine names them: withFactorLabels),
+     * JSON text made once on the worker's thread at combine time: reading a study splices it into the
+     * answer without parsing it (about 100 kB for a tolerance study). Null until completed, and for
+     * results stored before migration 0013 until their first read builds it from `result`. Set it to
+     * null in a migration when the engine's factor names change: readers rebuild it once.
+     */
+    resultJson: text('result_json'),
     error: jsonb('error').$type<StudyError>(),
     createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
