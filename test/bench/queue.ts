@@ -14,6 +14,17 @@
  *                                  (one-worker run)
  *   study.scalingTwoWorkersCpu     what scalingTwoWorkers would be with a core per worker: the one worker's CPU
  *                                  time ÷ the busier of the two workers' CPU time
+ *   study.scalingTwoWorkersCoreBound  what scalingTwoWorkers can be at most when the two workers share the 2 cores
+ *                                  with PostgreSQL, the API server and this bench: the one-worker run's chunk time
+ *                                  is its study thread's CPU (the rest runs on the other core), the two-worker
+ *                                  run's at least half the CPU every process spent in its chunk phase; so
+ *                                  2 × (one worker's CPU less its main thread's) ÷ (that CPU)
+ *   study.postgresCpuPerChunkMs    PostgreSQL's CPU per chunk in the one-worker chunk phase (fetch, check, landing,
+ *                                  complete; its background processes and this bench's 100 ms polls included)
+ *   study.readCompletedApiCpuMs    the API server's CPU per GET of the completed 10 000-sample study
+ * Each run also prints the CPU seconds of each process (workers with their main threads, PostgreSQL, the API
+ * server, the bench) from submit to the last chunk's landing and from there to the stored result, and
+ * ROLLWISE_BENCH_TIMELINE=1 prints when each chunk was taken and computed.
  * Figures only; nothing passes or fails. The load average is printed: other
  * work on the machine shares its cores.
  */
@@ -203,7 +214,7 @@ export async function run(): Promise<BenchFigures> {
       }
       const chunkPhaseS = (landed!.t - t0) / 1000;
       const combineS = (finishedAt - landed!.t) / 1000;
-      return { wallS, chunksCpu, combineCpu, chunkPhaseS, combineS, workerCpuS, perWorker: split.map((w) => w.chunks), tailS: split.length > 1 ? split.at(-1)!.last - split[0]!.last : 0, ...c };
+      return { studyId: s.id, wallS, chunksCpu, combineCpu, chunkPhaseS, combineS, workerCpuS, perWorker: split.map((w) => w.chunks), tailS: split.length > 1 ? split.at(-1)!.last - split[0]!.last : 0, ...c };
     };
 
     const results: Record<number, Awaited<ReturnType<typeof measure>>> = {};
@@ -226,6 +237,18 @@ export async function run(): Promise<BenchFigures> {
     }
     const one = results[1]!;
     const two = results[2]!;
+    // Reading the completed 10 000-sample study: the API server's CPU per answer (its event loop's work).
+    const reads = 100;
+    const apiCpu0 = treeCpuSeconds(server.pid);
+    const r0 = performance.now();
+    let answerBytes = 0;
+    for (let i = 0; i < reads; i++) {
+      const r = await fetch(`${server.url}/api/teams/${team.id}/studies/${two.studyId}`, { headers: { cookie, 'x-rollwise-request': '1', 'accept-encoding': 'identity' } });
+      answerBytes = (await r.text()).length;
+    }
+    const readMs = (performance.now() - r0) / reads;
+    const readApiCpuMs = ((treeCpuSeconds(server.pid) - apiCpu0) * 1000) / reads;
+    console.log(`  reading the completed study (${Math.round(answerBytes / 1000)} kB answer, ${reads} reads one after another): ${round(readMs, 1)} ms each, API server CPU ${round(readApiCpuMs, 1)} ms each`);
     const overheadMs = (one.phase_s * 1000 - one.compute_ms) / one.chunks;
     console.log(`  load average ${loadavg().map((x) => x.toFixed(1)).join(' ')} (2 cores; other work shares them)`);
     console.log('  targets: tolerance10k.wallS ≤ 6 s with two workers; scalingTwoWorkers ≥ 1.7');
@@ -237,6 +260,12 @@ export async function run(): Promise<BenchFigures> {
       'study.tolerance10k.workerCpuS': round(two.workerCpuS.reduce((a, b) => a + b, 0)),
       'study.queuePosesPerWorkerCpuS': Math.round(one.poses / one.workerCpuS[0]!),
       'study.scalingTwoWorkersCpu': round(one.workerCpuS[0]! / Math.max(...two.workerCpuS)),
+      'study.scalingTwoWorkersCoreBound': round(
+        (2 * (one.chunksCpu.workers[0]! - one.chunksCpu.workerMains[0]!)) /
+          (two.chunksCpu.workers.reduce((a, b) => a + b, 0) + two.chunksCpu.postgres + two.chunksCpu.api + two.chunksCpu.bench),
+      ),
+      'study.postgresCpuPerChunkMs': round((one.chunksCpu.postgres * 1000) / one.chunks, 1),
+      'study.readCompletedApiCpuMs': round(readApiCpuMs, 1),
     };
   } finally {
     await Promise.all(workers.map((w) => w.stop()));
