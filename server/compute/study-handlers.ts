@@ -183,7 +183,8 @@ export const studyCombineHandler: QueueHandler = async (ctx, job) => {
   const study = await loadStudy(ctx, studyId);
   if (!study || study.status !== 'running') return;
   // The chunks as JSON text (a 100 000-sample study has about 35 MB of them): the study thread parses them,
-  // and hands the result back as text too, so the main thread only passes strings between PostgreSQL and the thread.
+  // and hands the result back as text too (its factors named as the API names them), so the main thread only
+  // passes strings between PostgreSQL and the thread.
   const rows = await ctx.db.pool.query<{ result: string }>('SELECT result::text AS result FROM study_chunks WHERE study_id = $1 ORDER BY chunk_index', [studyId]);
   let result: string;
   try {
@@ -196,10 +197,11 @@ export const studyCombineHandler: QueueHandler = async (ctx, job) => {
     if (isEngineError(err)) return failStudy(ctx, studyId, study.total_chunks, err);
     throw err;
   }
-  // One statement: the study completes and its chunks' outputs, now in the combined result, are cleared
-  // (only when it completed here: a study cancelled meanwhile keeps what it had).
+  // One statement: the study completes with its result (as jsonb, and as the text the API serves: schema.ts
+  // result_json) and its chunks' outputs, now in the combined result, are cleared (only when it completed
+  // here: a study cancelled meanwhile keeps what it had).
   await ctx.db.pool.query(
-    `WITH done AS (UPDATE studies SET status = 'completed', result = $2, finished_at = now() WHERE id = $1 AND status = 'running' RETURNING id)
+    `WITH done AS (UPDATE studies SET status = 'completed', result = $2::text::jsonb, result_json = $2::text, finished_at = now() WHERE id = $1 AND status = 'running' RETURNING id)
      UPDATE study_chunks SET result = NULL WHERE study_id IN (SELECT id FROM done)`,
     [studyId, result],
   );

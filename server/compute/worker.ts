@@ -12,7 +12,7 @@ import { computeRide } from '../../shared/ride/api.js';
 import { computeSolve } from '../../shared/intent/api.js';
 import { computeRigComparison } from '../../shared/rig/compare.js';
 import { computeConfigurationCautions } from '../../shared/cautions/configuration-cautions.js';
-import { combineStudyChunks, runStudyChunk, type StudyChunkResult } from '../../shared/study/index.js';
+import { combineStudyChunks, runStudyChunk, withFactorLabels, type StudyChunkResult, type StudySpec } from '../../shared/study/index.js';
 import { exampleCorners } from '../../shared/kinematics/index.js';
 import { exampleVehicles } from '../../shared/balance/index.js';
 import type { ComputedChunk } from './study-handlers.js';
@@ -74,13 +74,15 @@ const ENGINES: Record<TaskKind, Engine> = {
     const chunk = runStudyChunk(studySpec(i.studyId, i.spec), i.chunkIndex);
     return { samples: chunk.samples, poses: chunk.poses, json: JSON.stringify(chunk) } satisfies ComputedChunk;
   },
-  // The chunks arrive as the JSON text PostgreSQL gave the main thread; they are parsed here.
+  // The chunks arrive as the JSON text PostgreSQL gave the main thread; they are parsed here. The result is
+  // the one the API serves (factors named from the stored spec's corner: withFactorLabels), stored once as text.
   'study-combine': (input) => {
-    const i = input as { studyId: string; spec: unknown; chunks: string[] };
-    return combineStudyChunks(
+    const i = input as { studyId: string; spec: StudySpec; chunks: string[] };
+    const result = combineStudyChunks(
       studySpec(i.studyId, i.spec),
       i.chunks.map((c) => JSON.parse(c) as StudyChunkResult),
     );
+    return withFactorLabels(result, i.spec.corner);
   },
   'study-warm': () => warmUp(),
 };

@@ -65,17 +65,18 @@ export function studiesRouter(studies: Studies, auth: Authorizer): Router {
     res.status(204).end();
   });
 
+  // `{ study: StudyView }` (shared/api) as text: the stored result is written in without parsing it (Studies.answer).
   r.get('/:studyId', requirePermission('team:read'), async (req, res) => {
-    reply<{ study: StudyView }>(res, { study: studies.get(await loaded(req, 'study')) });
+    res.type('json').send(await studies.answer(await loaded(req, 'study')));
   });
 
   r.delete('/:studyId', requirePermission('study:run'), async (req, res) => {
-    reply<{ study: StudyView }>(res, { study: await studies.cancel(teamId(req), await loaded(req, 'study')) });
+    res.type('json').send(await studies.answer(await studies.cancel(teamId(req), await loaded(req, 'study'))));
   });
 
   r.get('/:studyId/csv', requirePermission('team:read'), async (req, res) => {
     const q = validate(csvQuery, req.query, 'query');
-    const { filename, text } = studies.csv(await loaded(req, 'study'), q.units ?? currentUser(req).displayUnits);
+    const { filename, text } = await studies.csv(await loaded(req, 'study'), q.units ?? currentUser(req).displayUnits);
     res.setHeader('Content-Type', 'text/csv; charset=utf-8');
     res.setHeader('Content-Disposition', `attachment; filename="${filename}"`);
     res.send(text);

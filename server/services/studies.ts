@@ -12,7 +12,7 @@
  * time in turn; solve jobs have their own queue and worker lanes.
  */
 import { randomInt } from 'node:crypto';
-import { and, desc, eq, inArray, sql } from 'drizzle-orm';
+import { and, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm';
 import { planStudy, studyKeyFigures, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, withFactorLabels, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
 import type { Database } from '../db/client.js';
 import { configurations, programmeTeams, studies, studyAttachments, teams, users } from '../db/schema.js';
@@ -27,12 +27,14 @@ import type { AxleName } from '../../shared/schema/axle.js';
 import type { DisplayUnits } from '../../shared/api/accounts.js';
 import type { AttachedStudy as AttachedStudyWire, StudyResolvedTarget, StudyView as StudyWire } from '../../shared/api/studies.js';
 
-/** A study as the service hands it over: the wire type with its times still Dates (`res.json` writes them as ISO strings). */
+/**
+ * A study as the service hands it over: the wire type with its times still Dates (`res.json` writes them as ISO
+ * strings), without its result (`answer` writes the study with its result as text).
+ */
 export type StudyView = Omit<StudyWire, 'createdAt' | 'startedAt' | 'finishedAt' | 'result'> & {
   createdAt: Date;
   startedAt: Date | null;
   finishedAt: Date | null;
-  result?: StudyResult;
 };
 
 export interface StudyOptions {
@@ -50,8 +52,12 @@ export function chunkJobId(studyId: string, i: number): string {
 }
 
 type Row = typeof studies.$inferSelect;
-/** A study row as the `:studyId` loader gives it, with its creator's name. */
-export type StudyRow = Row & { creatorName: string | null };
+/**
+ * A study row as the `:studyId` loader gives it, with its creator's name. Without the result as an object:
+ * its text (`resultJson`) is what the reader sends, and what an export parses (`resultOf`).
+ */
+export type StudyRow = Omit<Row, 'result'> & { creatorName: string | null };
+const { result: _resultObject, ...rowColumns } = getTableColumns(studies);
 
 const listColumns = {
   id: studies.id,
@@ -129,30 +135,66 @@ export class Studies {
     return rows.map((r) => view(r));
   }
 
-  /** The study with its result; 410 job_gone when its work was lost. */
+  /** The study without its result (a study being created has none yet); 410 job_gone when its work was lost. */
   get(r: StudyRow): StudyView {
     if (r.error?.code === 'job_gone') throw gone(r);
-    return view(r, r.result && withFactorLabels(r.result, r.spec.corner));
+    return view(r);
   }
 
-  async cancel(teamId: string, r: StudyRow): Promise<StudyView> {
+  /**
+   * The study with its result, as the text of the API's answer `{ "study": … }`: the result's text stored at
+   * combine time is written in as it is, never parsed or made again on the event loop. 410 job_gone when its
+   * work was lost.
+   */
+  async answer(r: StudyRow): Promise<string> {
+    const study = JSON.stringify(this.get(r));
+    const result = r.status === 'completed' ? (r.resultJson ?? (await this.resultJsonOf(r))) : null;
+    // The view's text is an object with members: the result goes in as its last member.
+    return `{"study":${result === null ? study : `${study.slice(0, -1)},"result":${result}}`}}`;
+  }
+
+  /** The result as objects, for the exports; null until the study has completed. */
+  async resultOf(r: StudyRow): Promise<StudyResult | null> {
+    const text = r.status === 'completed' ? (r.resultJson ?? (await this.resultJsonOf(r))) : null;
+    return text === null ? null : (JSON.parse(text) as StudyResult);
+  }
+
+  /**
+   * The text of a result stored before `result_json` was (migration 0013), or whose factor names were cleared
+   * for renaming: built from the stored result once, with the factors named as the engine names them now,
+   * and kept for the next reader.
+   */
+  private async resultJsonOf(r: StudyRow): Promise<string | null> {
+    const [row] = await this.db.orm.select({ result: studies.result }).from(studies).where(eq(studies.id, r.id));
+    if (!row?.result) return null;
+    const text = JSON.stringify(withFactorLabels(row.result, r.spec.corner));
+    await this.db.orm
+      .update(studies)
+      .set({ resultJson: text })
+      .where(and(eq(studies.id, r.id), sql`${studies.resultJson} IS NULL`));
+    return text;
+  }
+
+  /** Cancels a queued or running study; returns the study as it is then (reloaded). */
+  async cancel(teamId: string, r: StudyRow): Promise<StudyRow> {
     const id = r.id;
-    if (r.status !== 'queued' && r.status !== 'running') return this.get(r);
+    if (r.status !== 'queued' && r.status !== 'running') return r;
     const [updated] = await this.db.orm
       .update(studies)
       .set({ status: 'cancelled', finishedAt: new Date() })
       .where(and(eq(studies.id, id), inArray(studies.status, ['queued', 'running'])))
       .returning({ id: studies.id });
     if (updated) await cancelStudyChunks(this.queue, id, r.totalChunks);
-    return this.get(await this.load(teamId, id));
+    return this.load(teamId, id);
   }
 
   /** The result as CSV in `units` (the caller's choice, else their account's); the API's JSON stays SI. */
-  csv(r: StudyRow, units: DisplayUnits): { filename: string; text: string } {
+  async csv(r: StudyRow, units: DisplayUnits): Promise<{ filename: string; text: string }> {
     if (r.error?.code === 'job_gone') throw gone(r);
-    if (r.status !== 'completed' || !r.result) throw new DomainError('conflict', 'study_not_completed', 'The study has no result yet; export it once it has completed');
+    const result = await this.resultOf(r);
+    if (!result) throw new DomainError('conflict', 'study_not_completed', 'The study has no result yet; export it once it has completed');
     const slug = r.label.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'study';
-    return { filename: `${slug}.csv`, text: studyResultCsv(r.spec, withFactorLabels(r.result, r.spec.corner), units) };
+    return { filename: `${slug}.csv`, text: studyResultCsv(r.spec, result, units) };
   }
 
   /** Opens variant `index` of a completed design sweep as a proposal on the studied axle design. */
@@ -172,7 +214,8 @@ export class Studies {
   /** Attaches a completed study to a configuration of the same team (idempotent: attaching again updates the note). */
   async attach(teamId: string, r: StudyRow, configurationId: string, userId: string, note: string): Promise<AttachedStudy> {
     const id = r.id;
-    if (r.status !== 'completed' || !r.result) throw new DomainError('conflict', 'study_not_completed', 'Only a completed study can be attached to a configuration');
+    // A study completes with its result, in one statement (study-handlers.ts).
+    if (r.status !== 'completed') throw new DomainError('conflict', 'study_not_completed', 'Only a completed study can be attached to a configuration');
     const [c] = await this.db.orm.select({ id: configurations.id }).from(configurations).where(and(eq(configurations.id, configurationId), eq(configurations.teamId, teamId)));
     if (!c) throw notFound('Configuration');
     await this.db.orm
@@ -233,7 +276,7 @@ export class Studies {
   /** The study, if it is the team's (the `:studyId` loader). */
   async load(teamId: string, id: string): Promise<StudyRow> {
     const [r] = await this.db.orm
-      .select({ study: studies, creatorName: users.displayName })
+      .select({ study: rowColumns, creatorName: users.displayName })
       .from(studies)
       .leftJoin(users, eq(users.id, studies.createdBy))
       .where(and(eq(studies.id, id), eq(studies.teamId, teamId)));
@@ -321,11 +364,11 @@ function attachedView(r: { a: typeof studyAttachments.$inferSelect; label: strin
   };
 }
 
-function gone(r: Row): DomainError {
+function gone(r: Pick<Row, 'id' | 'error'>): DomainError {
   return new DomainError('gone', 'job_gone', r.error?.message ?? 'The study was lost', { reason: 'lost', studyId: r.id });
 }
 
-function view(r: ListRow, result?: StudyResult | null): StudyView {
+function view(r: ListRow): StudyView {
   let etaSeconds: number | null = null;
   if (r.status === 'running' && r.startedAt && r.doneChunks > 0 && r.doneChunks < r.totalChunks) {
     const elapsedS = (Date.now() - r.startedAt.getTime()) / 1000;
@@ -346,6 +389,5 @@ function view(r: ListRow, result?: StudyResult | null): StudyView {
     finishedAt: r.finishedAt,
     createdBy: r.createdBy ? { id: r.createdBy, displayName: r.creatorName ?? '' } : null,
   };
-  if (result) v.result = result;
   return v;
 }

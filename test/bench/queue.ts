@@ -14,26 +14,71 @@
  *                                  (one-worker run)
  *   study.scalingTwoWorkersCpu     what scalingTwoWorkers would be with a core per worker: the one worker's CPU
  *                                  time ÷ the busier of the two workers' CPU time
+ *   study.scalingTwoWorkersCoreBound  what scalingTwoWorkers can be at most when the two workers share the 2 cores
+ *                                  with PostgreSQL, the API server and this bench: the one-worker run's chunk time
+ *                                  is its study thread's CPU (the rest runs on the other core), the two-worker
+ *                                  run's at least half the CPU every process spent in its chunk phase; so
+ *                                  2 × (one worker's CPU less its main thread's) ÷ (that CPU)
+ *   study.postgresCpuPerChunkMs    PostgreSQL's CPU per chunk in the one-worker chunk phase (fetch, check, landing,
+ *                                  complete; its background processes and this bench's 100 ms polls included)
+ *   study.readCompletedApiCpuMs    the API server's CPU per GET of the completed 10 000-sample study
+ * Each run also prints the CPU seconds of each process (workers with their main threads, PostgreSQL, the API
+ * server, the bench) from submit to the last chunk's landing and from there to the stored result, and
+ * ROLLWISE_BENCH_TIMELINE=1 prints when each chunk was taken and computed.
  * Figures only; nothing passes or fails. The load average is printed: other
  * work on the machine shares its cores.
  */
-import { readFileSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { loadavg } from 'node:os';
 import pg from 'pg';
 import type { BenchFigures } from './run.js';
 import { startThrowawayCluster } from '../../server/tools/pg.js';
+import { NOTIFY_CHANNEL } from '../../server/compute/queue.js';
 import { DEMO_PASSWORD } from '../../server/db/seed.js';
 import { startSeededServer } from '../support/server-process.js';
 import { spawnWorker, type WorkerProcess } from '../support/workers.js';
 
 const round = (x: number, d = 2) => Math.round(x * 10 ** d) / 10 ** d;
 
-/** CPU seconds (user + system, all threads) a process has used so far, from /proc (Linux; clock ticks of 1/100 s). */
-function cpuSeconds(pid: number): number {
-  const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
-  const f = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
-  // Fields 14 and 15 of proc(5) (utime, stime); f starts at field 3.
-  return (Number(f[11]) + Number(f[12])) / 100;
+/** Fields of a /proc stat file after the command name (f[0] is field 3 of proc(5)); undefined once the process has gone. */
+function statFields(path: string): string[] | undefined {
+  try {
+    const stat = readFileSync(path, 'utf8');
+    return stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+  } catch {
+    return undefined;
+  }
+}
+/** Clock ticks of /proc (Linux: 1/100 s). */
+const TICK_S = 0.01;
+/** CPU seconds (user + system) of a process (all threads) or, with `tid`, of one of its threads, from fields 14 and 15. */
+function cpuSeconds(pid: number, tid?: number): number {
+  const f = statFields(tid === undefined ? `/proc/${pid}/stat` : `/proc/${pid}/task/${tid}/stat`);
+  return f ? (Number(f[11]) + Number(f[12])) * TICK_S : 0;
+}
+/**
+ * CPU seconds of a process and its descendants: those running (PostgreSQL's backends, one per connection) and
+ * those already ended (their totals are in their parent's fields 16 and 17, cutime and cstime).
+ */
+function treeCpuSeconds(root: number): number {
+  const children = new Map<number, number[]>();
+  for (const d of readdirSync('/proc')) {
+    if (!/^\d+$/.test(d)) continue;
+    const f = statFields(`/proc/${d}/stat`);
+    if (!f) continue;
+    const parent = Number(f[1]);
+    children.set(parent, [...(children.get(parent) ?? []), Number(d)]);
+  }
+  let total = 0;
+  const visit = (pid: number) => {
+    const f = statFields(`/proc/${pid}/stat`);
+    if (!f) return;
+    total += (Number(f[11]) + Number(f[12]) + Number(f[13]) + Number(f[14])) * TICK_S;
+    for (const c of children.get(pid) ?? []) visit(c);
+  };
+  visit(root);
+  return total;
 }
 
 export async function run(): Promise<BenchFigures> {
@@ -42,6 +87,7 @@ export async function run(): Promise<BenchFigures> {
 
   const db = new pg.Pool({ connectionString: cluster.url, max: 2 });
   const workers: WorkerProcess[] = [];
+  const listener = new pg.Client({ connectionString: cluster.url });
   try {
     const base = server.url;
     const signIn = await fetch(`${base}/api/auth/sign-in`, {
@@ -77,21 +123,65 @@ export async function run(): Promise<BenchFigures> {
       analysis: { rackMm: [-10, 0, 10], rollDeg: 2 },
     });
 
+    const postmaster = Number(readFileSync(join(cluster.dataDir, 'postmaster.pid'), 'utf8').split('\n')[0]);
+    /** CPU seconds so far of each worker (all threads, and its main thread alone), PostgreSQL, the API server and this process. */
+    const cpuNow = () => ({
+      workers: workers.map((w) => cpuSeconds(w.pid)),
+      workerMains: workers.map((w) => cpuSeconds(w.pid, w.pid)),
+      postgres: treeCpuSeconds(postmaster),
+      api: treeCpuSeconds(server.pid),
+      bench: (process.cpuUsage().user + process.cpuUsage().system) / 1e6,
+    });
+    type Cpu = ReturnType<typeof cpuNow>;
+    const cpuSince = (a: Cpu, b: Cpu) => ({
+      workers: b.workers.map((x, i) => x - a.workers[i]!),
+      workerMains: b.workerMains.map((x, i) => x - a.workerMains[i]!),
+      postgres: b.postgres - a.postgres,
+      api: b.api - a.api,
+      bench: b.bench - a.bench,
+    });
+
+    // The workers' own wake-up call: the transaction that lands a study's last chunk notifies them to combine it.
+    await listener.connect();
+    await listener.query(`LISTEN ${NOTIFY_CHANNEL}`);
+    let onWake = () => {};
+    listener.on('notification', () => onWake());
+
     /** Submit → stored result, and the chunk phase from the study's chunk rows. */
     const measure = async (samples: number, seed: number) => {
-      const cpu0 = workers.map((w) => cpuSeconds(w.pid));
-      const t0 = performance.now();
+      const cpu0 = cpuNow();
+      const t0 = Date.now();
+      // The CPU counters are read again as the last chunk lands (on the workers' notification, within a
+      // millisecond or two), which splits the chunks from the combine step.
+      let landed: { cpu: Cpu; t: number } | undefined;
+      let studyId: string | undefined;
+      const allLanded = async () => {
+        if (landed || !studyId) return;
+        const { done_chunks, total_chunks } = (await db.query<{ done_chunks: number; total_chunks: number }>('SELECT done_chunks, total_chunks FROM studies WHERE id = $1', [studyId])).rows[0]!;
+        if (!landed && done_chunks === total_chunks) landed = { cpu: cpuNow(), t: Date.now() };
+      };
+      onWake = () => void allLanded();
       const { study: s } = await api<{ study: { id: string } }>('POST', `/api/teams/${team.id}/studies`, study(samples, seed));
-      // Watched in the database (one indexed row read every 20 ms), not through the API: the server's answers
-      // would take CPU from the workers being measured; the API answers once at the end.
+      studyId = s.id;
+      // Watched in the database every 100 ms (and on the notification above), not through the API: the server's
+      // answers would take CPU from the workers being measured; the API answers once at the end. The times
+      // measured are the study row's own, not when this loop noticed them.
+      let finishedAt = 0;
       for (;;) {
-        const { status } = (await db.query<{ status: string }>('SELECT status FROM studies WHERE id = $1', [s.id])).rows[0]!;
-        if (status === 'completed') break;
+        const { status, finished } = (await db.query<{ status: string; finished: number | null }>('SELECT status, extract(epoch FROM finished_at)::float * 1000 AS finished FROM studies WHERE id = $1', [s.id])).rows[0]!;
+        if (status === 'completed') {
+          finishedAt = finished!;
+          break;
+        }
         if (status !== 'queued' && status !== 'running') throw new Error(`bench study ended ${status}`);
-        await new Promise((r) => setTimeout(r, 20));
+        await new Promise((r) => setTimeout(r, 100));
       }
-      const wallS = (performance.now() - t0) / 1000;
-      const workerCpuS = workers.map((w, i) => cpuSeconds(w.pid) - cpu0[i]!);
+      await allLanded();
+      const cpu2 = cpuNow();
+      const wallS = (finishedAt - t0) / 1000;
+      const chunksCpu = cpuSince(cpu0, landed!.cpu);
+      const combineCpu = cpuSince(landed!.cpu, cpu2);
+      const workerCpuS = cpuSince(cpu0, cpu2).workers;
       const { study: stored } = await api<{ study: { status: string } }>('GET', `/api/teams/${team.id}/studies/${s.id}`);
       if (stored.status !== 'completed') throw new Error(`the API shows the bench study ${stored.status}`);
       // Each worker's chunks and when it landed its last: the gap is how long one waited for the other at the end.
@@ -109,7 +199,22 @@ export async function run(): Promise<BenchFigures> {
           [s.id],
         )
       ).rows[0]!;
-      return { wallS, workerCpuS, perWorker: split.map((w) => w.chunks), tailS: split.length > 1 ? split.at(-1)!.last - split[0]!.last : 0, ...c };
+      const timeline = (
+        await db.query<{ worker: string; chunk_index: number; compute_ms: number; landed_ms: number; taken_ms: number }>(
+          `SELECT c.worker, c.chunk_index, c.compute_ms, extract(epoch FROM c.finished_at - s.started_at)::float * 1000 AS landed_ms,
+                  extract(epoch FROM j.started_on - s.started_at)::float * 1000 AS taken_ms
+             FROM study_chunks c JOIN studies s ON s.id = c.study_id
+             LEFT JOIN pgboss.job j ON j.name = 'study-chunk' AND (j.data->>'studyId')::uuid = c.study_id AND (j.data->>'chunkIndex')::int = c.chunk_index
+            WHERE s.id = $1 ORDER BY c.worker, c.chunk_index`,
+          [s.id],
+        )
+      ).rows;
+      if (process.env['ROLLWISE_BENCH_TIMELINE']) {
+        for (const r of timeline) console.log(`    ${r.worker} chunk ${r.chunk_index}: taken ${Math.round(r.taken_ms)} ms, computed ${Math.round(r.landed_ms - r.compute_ms)}–${Math.round(r.landed_ms)} ms (${Math.round(r.compute_ms)} ms)`);
+      }
+      const chunkPhaseS = (landed!.t - t0) / 1000;
+      const combineS = (finishedAt - landed!.t) / 1000;
+      return { studyId: s.id, wallS, chunksCpu, combineCpu, chunkPhaseS, combineS, workerCpuS, perWorker: split.map((w) => w.chunks), tailS: split.length > 1 ? split.at(-1)!.last - split[0]!.last : 0, ...c };
     };
 
     const results: Record<number, Awaited<ReturnType<typeof measure>>> = {};
@@ -123,9 +228,27 @@ export async function run(): Promise<BenchFigures> {
           `worker CPU ${results[n].workerCpuS.map((x) => round(x)).join(' + ')} s` +
           (n > 1 ? `; chunks per worker ${results[n].perWorker.join(' + ')}, the first to finish waited ${round(results[n].tailS)} s for the other` : ''),
       );
+      const r = results[n];
+      const cpuLine = (what: string, wallS: number, c: typeof r.chunksCpu) =>
+        `    CPU s, ${what} (${round(wallS)} s wall): workers ${c.workers.map((x, i) => `${round(x)} (main thread ${round(c.workerMains[i]!)})`).join(' + ')}, ` +
+        `PostgreSQL ${round(c.postgres)}, API server ${round(c.api)}, bench ${round(c.bench)}`;
+      console.log(cpuLine('submit → every chunk landed', r.chunkPhaseS, r.chunksCpu));
+      console.log(cpuLine('every chunk landed → stored', r.combineS, r.combineCpu));
     }
     const one = results[1]!;
     const two = results[2]!;
+    // Reading the completed 10 000-sample study: the API server's CPU per answer (its event loop's work).
+    const reads = 100;
+    const apiCpu0 = treeCpuSeconds(server.pid);
+    const r0 = performance.now();
+    let answerBytes = 0;
+    for (let i = 0; i < reads; i++) {
+      const r = await fetch(`${server.url}/api/teams/${team.id}/studies/${two.studyId}`, { headers: { cookie, 'x-rollwise-request': '1', 'accept-encoding': 'identity' } });
+      answerBytes = (await r.text()).length;
+    }
+    const readMs = (performance.now() - r0) / reads;
+    const readApiCpuMs = ((treeCpuSeconds(server.pid) - apiCpu0) * 1000) / reads;
+    console.log(`  reading the completed study (${Math.round(answerBytes / 1000)} kB answer, ${reads} reads one after another): ${round(readMs, 1)} ms each, API server CPU ${round(readApiCpuMs, 1)} ms each`);
     const overheadMs = (one.phase_s * 1000 - one.compute_ms) / one.chunks;
     console.log(`  load average ${loadavg().map((x) => x.toFixed(1)).join(' ')} (2 cores; other work shares them)`);
     console.log('  targets: tolerance10k.wallS ≤ 6 s with two workers; scalingTwoWorkers ≥ 1.7');
@@ -137,9 +260,16 @@ export async function run(): Promise<BenchFigures> {
       'study.tolerance10k.workerCpuS': round(two.workerCpuS.reduce((a, b) => a + b, 0)),
       'study.queuePosesPerWorkerCpuS': Math.round(one.poses / one.workerCpuS[0]!),
       'study.scalingTwoWorkersCpu': round(one.workerCpuS[0]! / Math.max(...two.workerCpuS)),
+      'study.scalingTwoWorkersCoreBound': round(
+        (2 * (one.chunksCpu.workers[0]! - one.chunksCpu.workerMains[0]!)) /
+          (two.chunksCpu.workers.reduce((a, b) => a + b, 0) + two.chunksCpu.postgres + two.chunksCpu.api + two.chunksCpu.bench),
+      ),
+      'study.postgresCpuPerChunkMs': round((one.chunksCpu.postgres * 1000) / one.chunks, 1),
+      'study.readCompletedApiCpuMs': round(readApiCpuMs, 1),
     };
   } finally {
     await Promise.all(workers.map((w) => w.stop()));
+    await listener.end().catch(() => undefined);
     await db.end();
     await server.close();
     cluster.remove();

@@ -4,10 +4,19 @@
  * chooses, else the caller's account setting; a bad choice is refused naming
  * the parameter. The API's JSON stays SI. Conversion check: 1 in = 25.4 mm
  * exactly (NIST SP 811, Appendix B).
+ *
+ * And reading the completed study: the answer carries the result stored
+ * once, at combine time, as the text the API sends (studies.result_json),
+ * with the factors named as the engine names them; a result stored before
+ * that text existed (or whose names were cleared for renaming) is named on
+ * its first read and its text kept. Either way the answer's result is the
+ * stored result with withFactorLabels applied, as it always was.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import pg from 'pg';
 import { waitFor } from '../support/wait.js';
 import { expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { withFactorLabels, type StudyResult, type StudySpec } from '../../shared/study/index.js';
 
 /** NIST SP 811, Appendix B: the inch is 25.4 mm exactly. */
 const MM_PER_IN = 25.4;
@@ -18,9 +27,11 @@ let viewer: Agent;
 let teamId: string;
 let studyId: string;
 let nominalRollCentreMm: number;
+let direct: pg.Pool;
 
 beforeAll(async () => {
   t = await startTestApp({ seed: true, config: { studyMaxActivePerTeam: 10 } });
+  direct = new pg.Pool({ connectionString: t.databaseUrl, max: 2 });
   engineer = await signIn(t.app, 'engineer@tallowmere.example');
   viewer = await signIn(t.app, 'viewer@tallowmere.example');
   const teams = (await engineer.get('/api/teams').expect(200)).body as { id: string; slug: string }[];
@@ -47,6 +58,7 @@ beforeAll(async () => {
 }, 180_000);
 
 afterAll(async () => {
+  await direct?.end();
   await t?.close();
 });
 
@@ -96,5 +108,44 @@ describe('study CSV in the reader\'s units', { timeout: 60_000 }, () => {
     const r = await viewer.get(csvPath()).query({ units: 'furlongs' });
     expectError(r, 400, 'invalid_input');
     expect(JSON.stringify(r.body)).toContain('units');
+  });
+});
+
+describe('reading a completed study', { timeout: 60_000 }, () => {
+  const stored = async () =>
+    (await direct.query<{ result: StudyResult; result_json: string | null; spec: StudySpec }>('SELECT result, result_json, spec FROM studies WHERE id = $1', [studyId])).rows[0]!;
+  const read = async () => (await viewer.get(`/api/teams/${teamId}/studies/${studyId}`).expect(200).expect('content-type', /^application\/json/)).body.study;
+
+  it('answers the result stored at combine time: the stored result with the engine’s factor names, beside the study’s fields', async () => {
+    const row = await stored();
+    expect(row.result_json).not.toBeNull();
+    const study = await read();
+    expect(study).toMatchObject({ id: studyId, status: 'completed', progress: { doneChunks: 1, totalChunks: 1, doneSamples: 40, totalSamples: 40 } });
+    expect(study.result).toEqual(withFactorLabels(row.result, row.spec.corner));
+    expect(study.result).toEqual(JSON.parse(row.result_json!));
+    // The list still leaves results out.
+    const list = (await viewer.get(`/api/teams/${teamId}/studies`).expect(200)).body.studies as { id: string }[];
+    expect(list.find((s) => s.id === studyId)).not.toHaveProperty('result');
+  });
+
+  it('a result stored before its text, with other factor names, is named on its first read and its text kept', async () => {
+    const before = await stored();
+    // As an earlier release stored it: other names, no text.
+    const old: StudyResult = {
+      ...before.result,
+      factors: before.result.factors.map((f) => ({ ...f, label: `${f.key} (old name)` })),
+      outputs: before.result.outputs.map((o) => (o.tornado ? { ...o, tornado: o.tornado.map((b) => ({ ...b, label: `${b.factor} (old name)` })) } : o)),
+    };
+    await direct.query('UPDATE studies SET result = $2, result_json = NULL WHERE id = $1', [studyId, old]);
+    const study = await read();
+    expect(study.result).toEqual(withFactorLabels(old, before.spec.corner));
+    expect(study.result.factors[0].label).toBe('Upper ball joint, z (left)');
+    const after = await stored();
+    expect(after.result_json).not.toBeNull();
+    expect(JSON.parse(after.result_json!)).toEqual(study.result);
+    // The export reads the same named result.
+    const csv = (await viewer.get(csvPath()).expect(200)).text;
+    expect(csv).toMatch(/Upper ball joint, z \(left\)/);
+    expect(csv).not.toContain('(old name)');
   });
 });

@@ -5,7 +5,7 @@ import { join, resolve } from 'node:path';
 const here = resolve(import.meta.dirname);
 
 export /** Runs `node --import tsx server/main.ts` with the given environment; resolves with its URL once it listens. */
-function startServerProcess(env: Record<string, string>): Promise<{ url: string; close(): Promise<void> }> {
+function startServerProcess(env: Record<string, string>): Promise<{ url: string; pid: number; close(): Promise<void> }> {
   const main = join(here, '..', '..', 'server', 'main.ts');
   const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', main], {
     env: { ...process.env, NODE_ENV: 'development', ...env },
@@ -28,7 +28,7 @@ function startServerProcess(env: Record<string, string>): Promise<{ url: string;
       const m = /Rollwise is running at (\S+)/.exec(out);
       if (m) {
         clearTimeout(timer);
-        resolve({ url: m[1]!, close });
+        resolve({ url: m[1]!, pid: child.pid!, close });
       }
     });
     child.once('exit', (code) => {
@@ -40,7 +40,7 @@ function startServerProcess(env: Record<string, string>): Promise<{ url: string;
 
 
 /** The server on a throwaway database, seeded with the demo (a low bcrypt cost keeps start-up short; sign-in cost is not what is measured), API only. */
-export function startSeededServer(databaseUrl: string, env: Record<string, string> = {}): Promise<{ url: string; close(): Promise<void> }> {
+export function startSeededServer(databaseUrl: string, env: Record<string, string> = {}): Promise<{ url: string; pid: number; close(): Promise<void> }> {
   return startServerProcess({
     DATABASE_URL: databaseUrl,
     HOST: '127.0.0.1',

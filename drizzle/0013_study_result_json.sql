@@ -1,0 +1,1 @@
+ALTER TABLE "studies" ADD COLUMN "result_json" text;
