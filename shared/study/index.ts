@@ -19,13 +19,7 @@ export {
   FIXED_POINTS,
   type StudyRequest,
   type StudySpec,
-  type StudyTarget,
-  type ToleranceSpec,
   type SweepSpec,
-  type Tolerance,
-  type SweepFactor,
-  type Setup,
-  type StudyAnalysis,
 } from './schema.js';
 export {
   planStudy,

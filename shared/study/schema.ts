@@ -38,7 +38,6 @@ export const toleranceSchema = z.strictObject({
   /** `normal`: the band is ± normalSigmas standard deviations; `uniform`: equally likely anywhere in the band (or ball). */
   distribution: z.enum(['normal', 'uniform']),
 });
-export type Tolerance = z.infer<typeof toleranceSchema>;
 
 /** Workshop set-up after assembly: static camber by shims, then static toe by the tie-rod / toe-link adjuster, back to the nominal values. */
 export const setupSchema = z.strictObject({
@@ -47,7 +46,6 @@ export const setupSchema = z.strictObject({
   /** Tie-rod (toe-link) length resolution of the adjuster, mm (e.g. a quarter turn of a 1.5 mm thread: 0.375); 0 = continuous; absent = no toe set-up. */
   toeAdjusterStepMm: finite('toeAdjusterStepMm').min(0).max(10).optional(),
 });
-export type Setup = z.infer<typeof setupSchema>;
 
 /** What each sample measures: the bump-steer fits, the roll sweep. */
 export const studyAnalysisSchema = z.strictObject({
@@ -60,7 +58,6 @@ export const studyAnalysisSchema = z.strictObject({
   /** Body roll of the roll sweep (±rollDeg), deg. */
   rollDeg: finite('rollDeg').positive().max(10).default(2),
 });
-export type StudyAnalysis = z.infer<typeof studyAnalysisSchema>;
 
 export const sweepFactorSchema = z.strictObject({
   point: z.string().min(1).max(40),
@@ -71,7 +68,6 @@ export const sweepFactorSchema = z.strictObject({
   /** Levels of a full-factorial design (ignored by a Latin hypercube). */
   levels: z.number().int().min(2).max(101).default(5),
 });
-export type SweepFactor = z.infer<typeof sweepFactorSchema>;
 
 const trackProfileSchema = z.union([
   z.enum(TRACK_PROFILE_IDS),
@@ -130,7 +126,6 @@ export const studyTargetSchema = z.union([
     axle: z.enum(['front', 'rear']).default('front'),
   }),
 ]);
-export type StudyTarget = z.infer<typeof studyTargetSchema>;
 
 const requestTarget = { target: studyTargetSchema, trackProfile: trackProfileSchema.optional() };
 
@@ -166,5 +161,4 @@ export const studySpecSchema = z
     if (s.kind === 'sweep' && !s.vehicle) ctx.addIssue({ code: 'custom', path: ['vehicle'], message: 'a design sweep needs the vehicle (balance gained is its understeer-gradient change)' });
   });
 export type StudySpec = z.infer<typeof studySpecSchema>;
-export type ToleranceSpec = Extract<StudySpec, { kind: 'tolerance' }>;
 export type SweepSpec = Extract<StudySpec, { kind: 'sweep' }>;
