@@ -185,7 +185,9 @@ describe('studies on worker processes', () => {
   it("fair share: another team's single solve and small study finish while one team's big study runs (solve lanes; studies take turns by chunk)", async () => {
     // One worker: one study lane, one solve lane.
     workers.push(await spawnWorker(t.databaseUrl));
-    const big = (await engineer.post(`/api/teams/${teamId}/studies`).send({ ...request(), samples: 4000, chunkSamples: 10 }).expect(202)).body.study.id as string;
+    // Big enough to outlast the other team's work on any machine (a 400-chunk study, unniced, ran to its end
+    // first on a loaded one); it is cancelled once that work has finished.
+    const big = (await engineer.post(`/api/teams/${teamId}/studies`).send({ ...request(), samples: 40_000, chunkSamples: 10 }).expect(202)).body.study.id as string;
     await waitFor('the big study to be under way', async () => ((await studyRow(big)).done_chunks >= 2 ? true : undefined));
     const running = (await engineer.get(`/api/teams/${teamId}/studies/${big}`).expect(200)).body.study;
     expect(running.status).toBe('running');
@@ -227,10 +229,10 @@ describe('studies on worker processes', () => {
       return r.body.state === 'succeeded' ? true : undefined;
     });
     await waitFor('the small study', async () => ((await studyRow(small)).status === 'completed' ? true : undefined));
-    // Both finished while the big study (400 chunks) was still running.
+    // Both finished while the big study (4000 chunks) was still running.
     const bigNow = await studyRow(big);
     expect(bigNow.status).toBe('running');
-    expect(bigNow.done_chunks).toBeLessThan(400);
+    expect(bigNow.done_chunks).toBeLessThan(4000);
     await engineer.delete(`/api/teams/${teamId}/studies/${big}`).expect(200);
     await stopWorkers();
   }, 240_000);
