@@ -28,5 +28,7 @@ describe('fromDisplayUnits', () => {
     expect(fromDisplayUnits(1, 'linearRate', 'imperial')).toBeCloseTo(4.4482216152605 / 25.4, 14);
     // 1 deg/in = 1 deg / 0.0254 m.
     expect(fromDisplayUnits(1, 'bumpSteer', 'imperial')).toBeCloseTo(1 / 0.0254, 10);
+    // Tyre load sensitivity b: 1 per (deg·lbf) = 1 per (deg · 4.4482216152605 N).
+    expect(fromDisplayUnits(1, 'loadSensitivityB', 'imperial')).toBeCloseTo(1 / 4.4482216152605, 14);
   });
 });

@@ -234,7 +234,8 @@ export class VehiclePage {
   protected unitLabel(field: VehicleField): string {
     if (this.units() === 'imperial' && field.storedUnit && this.unitsModule) {
       const target = this.unitsModule.IMPERIAL_UNITS[field.storedUnit];
-      if (target) return target.replace(/ \/ /g, '/').replace(/\^2/g, '²').replace(/ /g, '·');
+      // mathjs text as the screen writes it: 'lbf ft / deg' → 'lbf·ft/deg', 'deg^-1 lbf^-1' → '1/(deg·lbf)'.
+      if (target) return target.replace(/^(\w+)\^-1 (\w+)\^-1$/, '1/($1 $2)').replace(/ \/ /g, '/').replace(/\^2/g, '²').replace(/ /g, '·');
     }
     return field.plainUnit;
   }
