@@ -169,6 +169,10 @@ describe('AxleDesignPage results', () => {
     );
     // The cost stage says what the cautions were measured over: the range actually solved.
     expect(text(root, 'caution-basis')).toContain('over -25 to 25 mm of travel');
+    // Beside the hardpoints, the corner's other inputs (wheel radius, rack stroke and axis, rocker and bar axes) are editable.
+    const settings = root.querySelector('section[data-stage="geometry"] rw-corner-settings');
+    expect(settings?.querySelector('mat-form-field[data-setting="wheel.radius"] input')).not.toBeNull();
+    expect(settings?.querySelector('mat-form-field[data-setting="steering.rackStroke[1]"] input')).not.toBeNull();
   });
 
   it('draws the pose chosen on the Material travel slider', async () => {

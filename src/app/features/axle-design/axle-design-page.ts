@@ -30,6 +30,7 @@ import { OutputCurvesPanel } from '../linkage-view/output-curves-panel';
 import { checkTravelRange, type TravelRange } from './sweep-settings';
 import { CostStage } from './cost-stage';
 import { GeometryDrawings } from './geometry-drawings';
+import { CornerSettings } from './corner-settings';
 import { SectionNav, type PageSection } from '../../core/layout/section-nav';
 import { LocalTimePipe } from '../../core/time/local-time';
 
@@ -92,6 +93,7 @@ function storedProfile(designId: string): TrackProfileId | null {
     MatInput,
     SectionNav,
     GeometryDrawings,
+    CornerSettings,
     CostStage,
     LineChart,
     SafetyCaution,

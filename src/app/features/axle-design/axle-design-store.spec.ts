@@ -78,6 +78,26 @@ describe('AxleDesignStore', () => {
     expect(getPoint(store.corner()!, KEY)![2]).toBeCloseTo(getPoint(corner, KEY)![2] + 5, 9);
   });
 
+  it('edits a setting that is not a point (the wheel radius) as an undo step that makes the design unsaved, and saves it', async () => {
+    store.editSetting('wheel.radius', null, 262);
+    expect(store.corner()!.wheel.radius).toBe(262);
+    expect(store.changed()).toEqual(['wheel.radius']);
+    expect(store.dirty()).toBe(true);
+    store.undo();
+    expect(store.corner()).toEqual(corner);
+    expect(store.dirty()).toBe(false);
+    store.redo();
+    const saving = store.save('');
+    const put = http.expectOne('/api/teams/t1/axle-designs/d1/corner');
+    expect(put.request.body.corner.wheel.radius).toBe(262);
+    put.flush(design('d1', 5, store.corner()!));
+    await expect(saving).resolves.toBe(true);
+    expect(store.dirty()).toBe(false);
+    await settle();
+    http.expectOne('/api/teams/t1/axle-designs/d1/revisions').flush([]);
+    http.expectOne('/api/teams/t1/axle-designs/d1/proposals').flush([]);
+  });
+
   it('saves over the loaded revision with the note, and refreshes the revision list', async () => {
     store.editPoint(KEY, moved(corner, 5));
     const saving = store.save('  raised the upper ball joint  ');

@@ -7,6 +7,7 @@ import { loadState } from '../../core/http/load-state';
 import { TeamAccess } from '../../core/teams/team-access';
 import { AxleDesign, FeaturesApi, Proposal, RevisionRow } from '../features-api';
 import { EditHistory } from './edit-history';
+import { changedSettings, withSetting } from './corner-settings-model';
 import { changedPoints, getPoint, pointName, withPoint, withPoints } from './hardpoint-model';
 
 /** Which design the editor shows (the route's parameters). */
@@ -76,7 +77,7 @@ export class AxleDesignStore {
   readonly changed = computed(() => {
     const c = this.corner();
     const s = this.saved();
-    return c && s ? changedPoints(c, s.corner) : [];
+    return c && s ? [...changedPoints(c, s.corner), ...changedSettings(c, s.corner)] : [];
   });
   readonly dirty = computed(() => this.changed().length > 0);
 
@@ -123,6 +124,14 @@ export class AxleDesignStore {
     const c = this.corner();
     if (!c) return;
     this.history.commit(withPoint(c, key, value));
+    this.notice.set(null);
+  }
+
+  /** Changes one setting that is not a point (wheel radius, a stroke end, an axis component); a new undo step. */
+  editSetting(path: string, index: number | null, value: number): void {
+    const c = this.corner();
+    if (!c) return;
+    this.history.commit(withSetting(c, path, index, value));
     this.notice.set(null);
   }
 
