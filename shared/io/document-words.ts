@@ -32,10 +32,16 @@ const SUFFIX_UNITS: readonly (readonly [string, string])[] = [
   ['Hz', 'Hz'],
 ];
 
-/** Keys whose unit is not in their name, by their parent's key: the tyre's Cα = a·Fz − b·Fz² (shared/schema/vehicle.ts). */
+/**
+ * Keys whose unit is not in their name, by their parent's key: the tyre's Cα = a·Fz − b·Fz²
+ * (shared/schema/vehicle.ts), the wheel's loaded radius and the rack's stroke (shared/schema/corner.ts).
+ */
 const KEY_UNITS: Readonly<Record<string, string>> = {
   'loadSensitivity.a': '1/deg',
   'loadSensitivity.b': '1/(deg·N)',
+  'wheel.radius': 'mm',
+  'steering.rackStroke': 'mm',
+  'steering.armAxisPoint': 'mm',
 };
 
 const TOP_WORDS: Readonly<Record<string, string>> = {

@@ -24,4 +24,12 @@ describe('inputWords', () => {
     expect(a.kind).toBeUndefined();
     expect(a.unit).toBe('1/deg');
   });
+
+  it('gives the wheel radius and the rack stroke their length, so they follow the reader\'s units', () => {
+    expect(inputWords('frontCorner.wheel.radius')).toMatchObject({ label: 'Front corner · wheel · radius', kind: 'length' });
+    expect(inputWords('frontCorner.steering.rackStroke[1]')).toMatchObject({ label: 'Front corner · steering · rack stroke · #2', kind: 'length' });
+    expect(inputWords('frontCorner.steering.angularStrokeDeg[0]').kind).toBe('angle');
+    // A direction has no unit.
+    expect(inputWords('frontCorner.steering.rackAxis[1]').kind).toBeUndefined();
+  });
 });
