@@ -118,6 +118,8 @@ describe('AxleDesignStore', () => {
     const mine = moved(corner, 5);
     store.editPoint(KEY, mine);
     const theirsCorner = structuredClone(corner);
+    // They also changed the wheel's loaded radius: a setting that is not a point is listed too.
+    theirsCorner.wheel.radius = 260;
     const saving = store.save('');
     http
       .expectOne('/api/teams/t1/axle-designs/d1/corner')
@@ -128,8 +130,9 @@ describe('AxleDesignStore', () => {
     await expect(saving).resolves.toBe(false);
     const conflict = store.conflict();
     expect(conflict?.theirs.revision).toBe(5);
-    expect(conflict?.rows.map((r) => r.key)).toEqual([KEY]);
+    expect(conflict?.rows.map((r) => r.key)).toEqual([KEY, 'wheel.radius']);
     expect(conflict?.rows[0]?.yours).toEqual(mine);
+    expect(conflict?.rows[1]).toEqual({ key: 'wheel.radius', name: 'Wheel, loaded radius', kind: 'length', theirs: [260], yours: [corner.wheel.radius] });
 
     store.takeTheirs();
     expect(store.conflict()).toBeNull();

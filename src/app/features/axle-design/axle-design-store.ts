@@ -7,7 +7,7 @@ import { loadState } from '../../core/http/load-state';
 import { TeamAccess } from '../../core/teams/team-access';
 import { AxleDesign, FeaturesApi, Proposal, RevisionRow } from '../features-api';
 import { EditHistory } from './edit-history';
-import { changedSettings, withSetting } from './corner-settings-model';
+import { changedSettings, settingRow, withSetting, type SettingKind } from './corner-settings-model';
 import { changedPoints, getPoint, pointName, withPoint, withPoints } from './hardpoint-model';
 
 /** Which design the editor shows (the route's parameters). */
@@ -17,10 +17,19 @@ export interface DesignRoute {
   readonly designId: string;
 }
 
-/** Someone else saved first: their revision, and each point where it differs from ours. */
+/** One point or setting where two versions differ: its name, what it measures, and the numbers of each (stored units). */
+export interface ConflictRow {
+  readonly key: string;
+  readonly name: string;
+  readonly kind: SettingKind;
+  readonly theirs: readonly number[] | undefined;
+  readonly yours: readonly number[] | undefined;
+}
+
+/** Someone else saved first: their revision, and each point or setting where it differs from ours. */
 export interface SaveConflict {
   readonly theirs: AxleDesign;
-  readonly rows: readonly { key: string; name: string; theirs: Vec3 | undefined; yours: Vec3 | undefined }[];
+  readonly rows: readonly ConflictRow[];
 }
 
 /**
@@ -198,10 +207,17 @@ export class AxleDesignStore {
     const yours = this.corner();
     if (!yours) return;
     const keys = [...new Set([...changedPoints(yours, theirs.corner), ...changedPoints(theirs.corner, yours)])];
+    const settings = [...new Set([...changedSettings(yours, theirs.corner), ...changedSettings(theirs.corner, yours)])];
     const other = theirs;
     this.conflict.set({
       theirs: other,
-      rows: keys.map((key) => ({ key, name: pointName(key, yours), theirs: getPoint(other.corner, key), yours: getPoint(yours, key) })),
+      rows: [
+        ...keys.map((key): ConflictRow => ({ key, name: pointName(key, yours), kind: 'length', theirs: getPoint(other.corner, key), yours: getPoint(yours, key) })),
+        ...settings.map((key): ConflictRow => {
+          const mine = settingRow(yours, key);
+          return { key, name: mine.name, kind: mine.kind, theirs: settingRow(other.corner, key).value, yours: mine.value };
+        }),
+      ],
     });
   }
 

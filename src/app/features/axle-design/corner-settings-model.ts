@@ -119,3 +119,25 @@ export function settingRule(corner: Corner, field: SettingField, value: number):
   if (field.kind === 'direction' && next.every((x) => x === 0)) return 'an axis needs a direction: x, y and z cannot all be 0';
   return null;
 }
+
+/** How a tuple setting reads as one row of a list of differences. */
+const TUPLE_WORDS: Readonly<Record<string, string>> = {
+  'steering.rackStroke': 'stroke (right, left)',
+  'steering.rackAxis': 'axis (x, y, z)',
+  'steering.angularStrokeDeg': 'stroke (both ends)',
+  'steering.armAxisPoint': 'pivot point (x, y, z)',
+  'steering.armAxisDirection': 'axis (x, y, z)',
+  'spring.rockerAxis': 'axis (x, y, z)',
+  'antiRollBar.barAxisDirection': 'axis (x, y, z)',
+};
+
+/** A setting of `corner` as one row of a list of differences: its name in words, its kind and its numbers (undefined when the corner lacks it). */
+export function settingRow(corner: Corner, path: string): { name: string; kind: SettingKind; value: readonly number[] | undefined } {
+  const group = cornerSettings(corner).find((g) => g.fields.some((f) => f.path === path));
+  const field = group?.fields.find((f) => f.path === path);
+  const v = read(corner, path);
+  const value = typeof v === 'number' ? [v] : Array.isArray(v) ? (v as number[]) : undefined;
+  if (!group || !field) return { name: path, kind: 'direction', value };
+  const words = field.index === null ? field.label.toLowerCase() : (TUPLE_WORDS[path] ?? path);
+  return { name: `${group.title}, ${words}`, kind: field.kind, value };
+}
