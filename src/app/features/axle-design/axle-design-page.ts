@@ -129,6 +129,18 @@ export class AxleDesignPage {
   protected readonly canUndo = this.store.canUndo;
   protected readonly canRedo = this.store.canRedo;
   protected readonly changed = this.store.changed;
+  /** The author of the revision shown, as the revision list names it (the record's last writer until the list is there). */
+  protected readonly revisionAuthor = computed(() => {
+    const d = this.saved();
+    if (!d) return null;
+    const row = this.revisions().find((r) => r.revision === d.revision);
+    return row ? row.authorName : d.updatedByName;
+  });
+  /** Who accepted the proposal that became the revision shown, when one did. */
+  protected readonly acceptedBy = computed(() => {
+    const d = this.saved();
+    return (d && this.store.proposals().find((p) => p.status === 'accepted' && p.acceptedRevision === d.revision)?.decidedByName) || null;
+  });
   readonly dirty = this.store.dirty;
 
   protected readonly sections = EDITOR_STAGES;
