@@ -88,6 +88,13 @@ describe('CornerSettings', () => {
     expect(Number(input('spring.rockerAxis[0]').value)).toBe(1);
   });
 
+  it('notes a possible but unusual wheel radius in the user\'s units, without refusing it', () => {
+    TestBed.overrideProvider(DISPLAY_UNITS, { useValue: signal<DisplayUnits>('imperial') });
+    // 600 mm against the typical 200 to 450 mm (shared/schema/ranges.ts; common practice, from memory); 1 in = 25.4 mm.
+    const { el } = setUp(true, withSetting(exampleCorners.fsFrontWishbone, 'wheel.radius', null, 600));
+    expect(el.querySelector('[data-group="wheel"] .rw-unusual')!.textContent.trim()).toBe('Unusual: 23.62 in is unusual for a wheel radius (typical 7.874 to 17.72 in)');
+  });
+
   it('gives a read-only user the values as text', () => {
     const { el } = setUp(false);
     expect(el.querySelector('input')).toBeNull();

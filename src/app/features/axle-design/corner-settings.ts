@@ -6,7 +6,6 @@ import { formatRangeValue, unusualValue } from '../../../../shared/schema/ranges
 import { formatNumber } from '../../charts/chart-types';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { fromDisplayUnits, inDisplayUnits, unitLabel } from '../../core/format/quantities';
-import { UnitsTextPipe } from '../../core/format/units-text-pipe';
 import { ErrorState } from '../../core/forms/error-state';
 import { inputValue } from '../../core/forms/dom-events';
 import { parseDecimal } from './hardpoint-io';
@@ -31,7 +30,7 @@ export interface SettingEdit {
  */
 @Component({
   selector: 'rw-corner-settings',
-  imports: [MatFormField, MatLabel, MatSuffix, MatError, MatInput, ErrorState, UnitsTextPipe],
+  imports: [MatFormField, MatLabel, MatSuffix, MatError, MatInput, ErrorState],
   template: `
     <section class="rw-corner-settings" aria-labelledby="rw-corner-settings-title">
       <h3 id="rw-corner-settings-title">Wheel, steering and axes</h3>
@@ -53,7 +52,7 @@ export interface SettingEdit {
               }
             }
           </div>
-          @for (w of unusual(g.id); track $index) { <p class="rw-unusual" role="note">Unusual: {{ w | unitsText }}</p> }
+          @for (w of unusual(g.id); track $index) { <p class="rw-unusual" role="note">Unusual: {{ w }}</p> }
         </fieldset>
       }
     </section>
@@ -96,7 +95,9 @@ export class CornerSettings {
   /** Possible but unusual values of a group's fields (shared/schema/ranges.ts), noted, never refused. */
   protected unusual(groupId: string): string[] {
     const group = this.groups().find((g) => g.id === groupId);
-    return (group?.fields ?? []).flatMap((f) => unusualValue(f.range, f.value) ?? []);
+    return (group?.fields ?? []).flatMap(
+      (f) => unusualValue(f.range, f.value, (v) => ({ value: formatRangeValue(f.kind === 'length' ? inDisplayUnits(v, 'length', this.units()) : v), unit: this.unit(f) })) ?? [],
+    );
   }
 
   protected commit(f: SettingField, event: Event): void {

@@ -130,6 +130,12 @@ describe('VehiclePage', () => {
     harness.detectChanges();
     expect(errorOf(root, 'rear.tyre.loadSensitivity.b')).toBe('5 is outside 0 to 4.448 1/(deg·lbf).');
     backend.expectNone('/api/teams/t-tal/vehicles/v-ember/data');
+    typeInto(root, 'rear.tyre.loadSensitivity.b', '0.003');
+    harness.detectChanges();
+    // Possible but unusual (typical 0 to 5e-4 per N, shared/schema/ranges.ts): the note is in the form's units too.
+    expect(root.querySelector('mat-form-field[data-path="rear.tyre.loadSensitivity.b"] .rw-unusual')!.textContent.trim()).toBe(
+      'Unusual: 0.003 1/(deg·lbf) is unusual for a load sensitivity b (typical 0 to 0.002224 1/(deg·lbf))',
+    );
     typeInto(root, 'rear.tyre.loadSensitivity.b', '0.0009');
     harness.detectChanges();
     (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
@@ -175,7 +181,7 @@ describe('VehiclePage', () => {
     mass.dispatchEvent(new Event('input'));
     harness.detectChanges();
     // Typical band from shared/schema/ranges.ts (common practice, from memory).
-    expect(hintOf('Total mass')).toBe('Unusual: 5000 kg is unusual for a vehicle mass (typical 150–3500 kg)');
+    expect(hintOf('Total mass')).toBe('Unusual: 5000 kg is unusual for a vehicle mass (typical 150 to 3500 kg)');
     (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
     const req = backend.expectOne('/api/teams/t-tal/vehicles/v-ember/data');
     expect(req.request.body.data.massKg).toBe(5000);

@@ -287,14 +287,15 @@ export class VehiclePage {
 
   /**
    * A possible but unusual entry (shared/schema/ranges.ts), in the user's words, e.g. "5000 kg is unusual for a
-   * vehicle mass (typical 150–3500 kg)": shown beside the field, never refused. The figures are in stored units.
+   * vehicle mass (typical 150 to 3500 kg)": shown beside the field, never refused, its figures in the units the form shows.
    */
   protected unusualText(field: VehicleField): string | null {
     const state = this.formState();
     const range = vehicleRangeFor(field.path);
     const shown = parseDecimal(state.values[field.path] ?? '');
     if (!range || shown === null || state.invalid.has(field.path)) return null;
-    return unusualValue(range, this.toStored(field, shown));
+    const unit = this.unitLabel(field);
+    return unusualValue(range, this.toStored(field, shown), (v) => ({ value: formatRangeValue(this.displayValue(field, v)), unit: unit === 'ratio' ? '' : unit }));
   }
 
   /**
