@@ -31,6 +31,7 @@ import { checkTravelRange, type TravelRange } from './sweep-settings';
 import { CostStage } from './cost-stage';
 import { GeometryDrawings } from './geometry-drawings';
 import { CornerSettings } from './corner-settings';
+import { revisionAuthor } from '../features-api';
 import { SectionNav, type PageSection } from '../../core/layout/section-nav';
 import { LocalTimePipe } from '../../core/time/local-time';
 
@@ -130,12 +131,7 @@ export class AxleDesignPage {
   protected readonly canRedo = this.store.canRedo;
   protected readonly changed = this.store.changed;
   /** The author of the revision shown, as the revision list names it (the record's last writer until the list is there). */
-  protected readonly revisionAuthor = computed(() => {
-    const d = this.saved();
-    if (!d) return null;
-    const row = this.revisions().find((r) => r.revision === d.revision);
-    return row ? row.authorName : d.updatedByName;
-  });
+  protected readonly revisionAuthor = computed(() => revisionAuthor(this.saved(), this.revisions()));
   /** Who accepted the proposal that became the revision shown, when one did. */
   protected readonly acceptedBy = computed(() => {
     const d = this.saved();

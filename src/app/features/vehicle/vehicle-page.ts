@@ -13,7 +13,7 @@ import { AuthService } from '../../core/auth/auth-service';
 import { apiProblem } from '../../core/http/api-error';
 import { loadState } from '../../core/http/load-state';
 import { TeamAccess } from '../../core/teams/team-access';
-import { FeaturesApi, RevisionRow, VehicleRecord } from '../features-api';
+import { FeaturesApi, revisionAuthor, RevisionRow, VehicleRecord } from '../features-api';
 import { parseDecimal } from '../axle-design/hardpoint-io';
 import { ALL_VEHICLE_FIELDS, BarMode, barModeOf, readPath, VEHICLE_FIELD_GROUPS, VehicleField, vehicleIssuePlace, vehicleIssueText, writePath } from './vehicle-fields';
 import type { AxleName } from '../../../../shared/schema/axle';
@@ -97,12 +97,7 @@ export class VehiclePage {
   protected readonly revisions = computed<readonly RevisionRow[]>(() => (this.revisionList.hasValue() ? this.revisionList.value() : []));
 
   /** The author of the revision shown, as the revision list names it (the record's last writer until the list is there). */
-  protected readonly revisionAuthor = computed(() => {
-    const v = this.vehicle();
-    if (!v) return null;
-    const row = this.revisions().find((r) => r.revision === v.revision);
-    return row ? row.authorName : v.updatedByName;
-  });
+  protected readonly revisionAuthor = computed(() => revisionAuthor(this.vehicle(), this.revisions()));
 
   protected readonly saving = signal(false);
   protected readonly saveError = signal<string | null>(null);
