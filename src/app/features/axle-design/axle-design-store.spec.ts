@@ -87,6 +87,14 @@ describe('AxleDesignStore', () => {
     expect(store.corner()).toEqual(corner);
     expect(store.dirty()).toBe(false);
     store.redo();
+    // Restoring the saved settings puts the radius back and keeps a moved point, as one undo step.
+    store.editPoint(KEY, moved(corner, 5));
+    store.restoreSettings();
+    expect(store.corner()!.wheel.radius).toBe(corner.wheel.radius);
+    expect(store.changed()).toEqual([KEY]);
+    store.undo();
+    expect(store.corner()!.wheel.radius).toBe(262);
+    store.undo();
     const saving = store.save('');
     const put = http.expectOne('/api/teams/t1/axle-designs/d1/corner');
     expect(put.request.body.corner.wheel.radius).toBe(262);

@@ -7,7 +7,7 @@ import { loadState } from '../../core/http/load-state';
 import { TeamAccess } from '../../core/teams/team-access';
 import { AxleDesign, FeaturesApi, Proposal, RevisionRow } from '../features-api';
 import { EditHistory } from './edit-history';
-import { changedSettings, settingRow, withSetting, type SettingKind } from './corner-settings-model';
+import { changedSettings, settingRow, withSetting, withSettingsFrom, type SettingKind } from './corner-settings-model';
 import { changedPoints, getPoint, pointName, withPoint, withPoints } from './hardpoint-model';
 
 /** Which design the editor shows (the route's parameters). */
@@ -141,6 +141,15 @@ export class AxleDesignStore {
     const c = this.corner();
     if (!c) return;
     this.history.commit(withSetting(c, path, index, value));
+    this.notice.set(null);
+  }
+
+  /** Puts back the saved revision's settings that are not points (wheel radius, strokes, axes); one undo step, the points kept. */
+  restoreSettings(): void {
+    const c = this.corner();
+    const s = this.saved();
+    if (!c || !s || changedSettings(c, s.corner).length === 0) return;
+    this.history.commit(withSettingsFrom(c, s.corner));
     this.notice.set(null);
   }
 

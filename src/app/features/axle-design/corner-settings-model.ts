@@ -141,3 +141,15 @@ export function settingRow(corner: Corner, path: string): { name: string; kind: 
   const words = field.index === null ? field.label.toLowerCase() : (TUPLE_WORDS[path] ?? path);
   return { name: `${group.title}, ${words}`, kind: field.kind, value };
 }
+
+/** A copy of `corner` with every setting that differs taken from `source` (the saved revision): the points stay as they are. */
+export function withSettingsFrom(corner: Corner, source: Corner): Corner {
+  const copy = structuredClone(corner);
+  for (const path of changedSettings(corner, source)) {
+    const keys = path.split('.');
+    const parent = read(copy, keys.slice(0, -1).join('.')) as Record<string, unknown> | undefined;
+    const value = read(source, path);
+    if (parent && typeof parent === 'object' && value !== undefined) parent[keys[keys.length - 1]!] = structuredClone(value);
+  }
+  return copy;
+}

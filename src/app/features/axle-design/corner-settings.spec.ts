@@ -95,9 +95,26 @@ describe('CornerSettings', () => {
     expect(el.querySelector('[data-group="wheel"] .rw-unusual')!.textContent.trim()).toBe('Unusual: 23.62 in is unusual for a wheel radius (typical 7.874 to 17.72 in)');
   });
 
+  it('offers to restore the saved values once a setting differs from them', () => {
+    const saved = exampleCorners.fsFrontWishbone;
+    const { fixture, el } = setUp(true, saved);
+    fixture.componentRef.setInput('saved', saved);
+    fixture.detectChanges();
+    const button = () => [...el.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent.trim() === 'Restore the saved values')!;
+    expect(button().disabled).toBe(true);
+    let restored = 0;
+    fixture.componentInstance.restored.subscribe(() => restored++);
+    fixture.componentRef.setInput('corner', withSetting(saved, 'wheel.radius', null, 262));
+    fixture.detectChanges();
+    expect(button().disabled).toBe(false);
+    button().click();
+    expect(restored).toBe(1);
+  });
+
   it('gives a read-only user the values as text', () => {
     const { el } = setUp(false);
     expect(el.querySelector('input')).toBeNull();
+    expect(el.querySelector('button')).toBeNull();
     expect(el.querySelector('[data-setting="wheel.radius"]')!.textContent).toContain('Loaded radius: 255 mm');
   });
 

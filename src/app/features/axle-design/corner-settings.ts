@@ -1,6 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input, output, signal } from '@angular/core';
 import { MatError, MatFormField, MatLabel, MatSuffix } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
+import { MatButton } from '@angular/material/button';
 import type { Corner } from '../../../../shared/schema/corner';
 import { formatRangeValue, unusualValue } from '../../../../shared/schema/ranges';
 import { formatNumber } from '../../charts/chart-types';
@@ -9,7 +10,7 @@ import { fromDisplayUnits, inDisplayUnits, unitLabel } from '../../core/format/q
 import { ErrorState } from '../../core/forms/error-state';
 import { inputValue } from '../../core/forms/dom-events';
 import { parseDecimal } from './hardpoint-io';
-import { cornerSettings, settingRule, type SettingField } from './corner-settings-model';
+import { changedSettings, cornerSettings, settingRule, type SettingField } from './corner-settings-model';
 
 /** A setting committed in stored units: the path, the tuple component (null for a plain number) and the value. */
 export interface SettingEdit {
@@ -30,7 +31,7 @@ export interface SettingEdit {
  */
 @Component({
   selector: 'rw-corner-settings',
-  imports: [MatFormField, MatLabel, MatSuffix, MatError, MatInput, ErrorState],
+  imports: [MatFormField, MatLabel, MatSuffix, MatError, MatInput, MatButton, ErrorState],
   template: `
     <section class="rw-corner-settings" aria-labelledby="rw-corner-settings-title">
       <h3 id="rw-corner-settings-title">Wheel, steering and axes</h3>
@@ -55,6 +56,9 @@ export interface SettingEdit {
           @for (w of unusual(g.id); track $index) { <p class="rw-unusual" role="note">Unusual: {{ w }}</p> }
         </fieldset>
       }
+      @if (editable()) {
+        <button mat-stroked-button type="button" [disabled]="!edited()" (click)="restore()">Restore the saved values</button>
+      }
     </section>
   `,
   styles: `
@@ -72,12 +76,27 @@ export interface SettingEdit {
 export class CornerSettings {
   readonly corner = input.required<Corner>();
   readonly editable = input<boolean>(false);
+  /** The saved revision's corner, to tell edited settings from saved ones. */
+  readonly saved = input<Corner | null>(null);
   readonly settingEdited = output<SettingEdit>();
+  /** Put back the saved revision's settings (the points stay). */
+  readonly restored = output<void>();
 
   private readonly units = inject(DISPLAY_UNITS);
   protected readonly groups = computed(() => cornerSettings(this.corner()));
   /** Refused entries by field: the message beside the field. */
   protected readonly errors = signal<ReadonlyMap<string, string>>(new Map());
+
+  /** Whether any setting differs from the saved revision. */
+  protected readonly edited = computed(() => {
+    const s = this.saved();
+    return !!s && changedSettings(this.corner(), s).length > 0;
+  });
+
+  protected restore(): void {
+    this.errors.set(new Map());
+    this.restored.emit();
+  }
 
   protected fieldId(f: SettingField): string {
     return f.index === null ? f.path : `${f.path}[${f.index}]`;
