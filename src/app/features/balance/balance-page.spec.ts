@@ -196,5 +196,7 @@ describe('BalancePage', () => {
     expect(bRow.querySelector('td')!.textContent.trim()).toBe(`${bPerLbf} 1/(deg·lbf)`);
     expect(root.querySelector('[data-testid="evaluated-inputs"]')!.textContent).toContain(`b = ${bPerLbf} 1/(deg·lbf)`);
     expect(root.querySelector('[data-testid="evaluated-inputs"]')!.textContent).not.toContain('1/(deg·N)');
+    // No SI unit left in the ranked inputs (their first 12), whatever input ranks there.
+    expect(inputs.textContent).not.toMatch(/N·s\/mm|N·m·s\/deg|1\/\(deg·N\)|N\/deg\b|N·m\/deg|\d mm\b|\d kg\b/);
   });
 });

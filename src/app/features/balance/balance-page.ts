@@ -55,6 +55,9 @@ const STORED_KIND: Readonly<Record<string, QuantityKind>> = {
   'kg m^2': 'inertia',
   'N / deg': 'corneringStiffness',
   'deg^-1 N^-1': 'loadSensitivityB',
+  'N s / mm': 'dampingRate',
+  'N m s / deg': 'rollDamping',
+  GPa: 'shearModulus',
 };
 
 /** Where each linked value came from (shared/balance/link.ts ValueSource, compliance-link.ts ComplianceSource), in words. */
