@@ -16,7 +16,7 @@ import type { Board, Programme, ProgrammeDetail, ProgrammeTeam, Snapshot, Snapsh
 const createSchema = z.strictObject({ name: z.string().trim().min(1, 'is required').max(120), trackProfile: z.enum(TRACK_PROFILE_IDS) });
 const inviteSchema = z.strictObject({ teamSlug: z.string().trim().min(1).max(60) });
 const snapshotSchema = z.strictObject({ label: z.string().trim().min(1).max(120).optional() });
-const formatQuery = z.object({ format: z.enum(['json', 'csv']).optional() });
+const formatQuery = z.object({ format: z.enum(['json', 'csv']).optional(), units: z.enum(['si', 'imperial'], { error: 'use si or imperial' }).optional() });
 
 /** The `:programmeId` loader of the instructor's routes: the programme, for its instructor only (anyone else: 404). */
 export const loadProgramme = (programmes: Programmes) => loadParam('programme', 'Programme', (req, id) => programmes.load(currentUser(req), id));
@@ -55,7 +55,7 @@ export function programmesRouter(programmes: Programmes, auth: Authorizer): Rout
     if (q.format === 'csv') {
       res.setHeader('Content-Type', 'text/csv; charset=utf-8');
       res.setHeader('Content-Disposition', `attachment; filename="programme-board-${s.takenAt.toISOString().slice(0, 10)}.csv"`);
-      res.send(Programmes.csv(s.board));
+      res.send(Programmes.csv(s.board, q.units ?? currentUser(req).displayUnits));
       return;
     }
     reply<Snapshot>(res, s);

@@ -13,6 +13,8 @@ import type { TrackProfileId } from '../../shared/tracks/profiles.js';
 import { ENGINE_VERSION } from '../../shared/version.js';
 import type { Configurations, ConfigurationResults } from './configurations.js';
 import { toCsv } from '../../shared/io/csv.js';
+import { inDisplayUnits } from '../../shared/units/quantities.js';
+import type { DisplayUnits } from '../../shared/api/accounts.js';
 import type { Board, BoardRow, KeyFigures } from '../../shared/api/programmes.js';
 
 /** A programme as the `:programmeId` loader gives it (its instructor only). */
@@ -178,17 +180,24 @@ export class Programmes {
     return s;
   }
 
-  /** The snapshot as CSV: one line per configuration, latest and approved figures side by side. */
-  static csv(board: Board): string {
+  /**
+   * The snapshot as CSV: one line per configuration, latest and approved figures side by side, in the reader's
+   * units: bump steer per inch for an inch-pound reader (the column says so, `…DegPerIn`); the other figures
+   * (deg/deg, deg/g) read the same in both systems.
+   */
+  static csv(board: Board, units: DisplayUnits = 'si'): string {
+    const perLength = (k: keyof KeyFigures) => k.endsWith('DegPerM');
+    const column = (k: keyof KeyFigures) => (units === 'imperial' && perLength(k) ? k.replace(/DegPerM$/, 'DegPerIn') : k);
+    const figure = (k: keyof KeyFigures, v: number | null | undefined) => (v === null || v === undefined ? null : perLength(k) ? inDisplayUnits(v, 'bumpSteer', units) : v);
     const header = [
       'team',
       'configuration',
       'status',
       'latest_revision',
-      ...FIGURE_KEYS.map((k) => `latest_${k}`),
+      ...FIGURE_KEYS.map((k) => `latest_${column(k)}`),
       'approved_revision',
       'approved_at_utc',
-      ...FIGURE_KEYS.map((k) => `approved_${k}`),
+      ...FIGURE_KEYS.map((k) => `approved_${column(k)}`),
     ];
     const rows = board.rows.map((r) => {
       const lf = 'figures' in r.latest ? r.latest.figures : null;
@@ -197,10 +206,10 @@ export class Programmes {
         r.configurationName,
         r.status,
         r.latest.revision,
-        ...FIGURE_KEYS.map((k) => lf?.[k] ?? null),
+        ...FIGURE_KEYS.map((k) => figure(k, lf?.[k])),
         r.approved?.revision ?? null,
         r.approved ? new Date(r.approved.approvedAt).toISOString() : null,
-        ...FIGURE_KEYS.map((k) => r.approved?.figures[k] ?? null),
+        ...FIGURE_KEYS.map((k) => figure(k, r.approved?.figures[k])),
       ];
     });
     return toCsv(header, rows);

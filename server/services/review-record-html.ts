@@ -103,15 +103,20 @@ function inputTable(title: string, top: string, doc: unknown, f: Figures, corner
     .filter((r) => !r.path.endsWith('formatVersion'))
     .map((r) => {
       const w = inputWords(r.path);
-      const label = (Array.isArray(r.value) ? pointNames.get(r.path) : undefined) ?? w.label.replace(/^[^·]+· /, '');
-      const value = Array.isArray(r.value)
+      const point = Array.isArray(r.value) ? pointNames.get(r.path) : undefined;
+      const label = point ?? w.label.replace(/^[^·]+· /, '');
+      const plain = (x: number) => String(Number(x.toPrecision(w.sig ?? 6))).replace('-', '−');
+      // A hardpoint is a length triple; another tuple (a stroke, an axis direction) is its own quantity, or plain numbers.
+      const value = point
         ? (r.value as number[]).map((x) => f.fixed(x, 'length', 1)).join(', ')
-        : typeof r.value === 'number'
-          ? w.kind
-            ? f.sig(r.value, w.kind, 6)
-            : String(Number(r.value.toPrecision(w.sig ?? 6))).replace('-', '−')
-          : esc(r.value);
-      const unit = Array.isArray(r.value) ? `${f.unit('length')} (x, y, z)` : w.kind ? f.unit(w.kind) : (w.unit ?? '');
+        : Array.isArray(r.value)
+          ? (r.value as number[]).map((x) => (w.kind ? f.sig(x, w.kind, 6) : plain(x))).join(', ')
+          : typeof r.value === 'number'
+            ? w.kind
+              ? f.sig(r.value, w.kind, 6)
+              : plain(r.value)
+            : esc(r.value);
+      const unit = point ? `${f.unit('length')} (x, y, z)` : w.kind ? f.unit(w.kind) : (w.unit ?? '');
       return `<tr><th scope="row">${esc(label)}</th><td class="num">${value}</td><td>${esc(unit)}</td></tr>`;
     })
     .join('');

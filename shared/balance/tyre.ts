@@ -54,7 +54,7 @@ export function tyreStiffnessSlope(law: TyreLoadLaw, fzN: number): number {
 
 /** The law in words, for results and cautions. */
 export function describeTyreLoadLaw(law: TyreLoadLaw): string {
-  if (law.kind === 'quadratic') return `the vehicle's tyre load sensitivity C = a·Fz − b·Fz² (a = ${law.a}, b = ${law.b})`;
+  if (law.kind === 'quadratic') return `the vehicle's tyre load sensitivity C = a·Fz − b·Fz² (a = ${law.a} 1/deg, b = ${law.b} 1/(deg·N))`;
   return (
     `a degressive law from the static-load stiffness (${law.c0NPerDeg.toFixed(1)} N/deg at ${law.staticLoadN.toFixed(0)} N): ` +
     `C = C0·x·(1 + p²)/(p² + x²), x = Fz/Fz0, p = ${law.peakLoadRatio} (Magic Formula cornering-stiffness form, peak at ${law.peakLoadRatio}× the static load)`

@@ -32,6 +32,18 @@ const SUFFIX_UNITS: readonly (readonly [string, string])[] = [
   ['Hz', 'Hz'],
 ];
 
+/**
+ * Keys whose unit is not in their name, by their parent's key: the tyre's Cα = a·Fz − b·Fz²
+ * (shared/schema/vehicle.ts), the wheel's loaded radius and the rack's stroke (shared/schema/corner.ts).
+ */
+const KEY_UNITS: Readonly<Record<string, string>> = {
+  'loadSensitivity.a': '1/deg',
+  'loadSensitivity.b': '1/(deg·N)',
+  'wheel.radius': 'mm',
+  'steering.rackStroke': 'mm',
+  'steering.armAxisPoint': 'mm',
+};
+
 const TOP_WORDS: Readonly<Record<string, string>> = {
   vehicle: 'Vehicle',
   frontCorner: 'Front corner',
@@ -83,6 +95,8 @@ export function pathWords(path: string): { label: string; unit: string | null } 
     if (p === 'points') return;
     const s = stripUnit(p);
     if (s.unit) unit = s.unit;
+    const keyUnit = i > 0 ? KEY_UNITS[`${parts[i - 1]}.${p}`] : undefined;
+    if (keyUnit) unit = keyUnit;
     out.push(keyWords(s.words));
   });
   return { label: out.join(' · '), unit };

@@ -160,13 +160,18 @@ export function impossibleValue(range: InputRange, value: number): string | null
   return null;
 }
 
-/** "1200 mm is unusual for a wheel radius (typical 200–450 mm)", or null inside the typical band (or when impossible). */
-export function unusualValue(range: InputRange, value: number): string | null {
+/**
+ * "1200 mm is unusual for a wheel radius (typical 200 to 450 mm)", or null inside the typical band (or when
+ * impossible). `shown` writes a stored figure in the units the screen shows (its number and unit); by default
+ * the stored unit, which the unit rewriting of sentences (shared/units/text.ts) reads as one range in one unit.
+ */
+export function unusualValue(range: InputRange, value: number, shown: (stored: number) => { value: string; unit: string } = (v) => ({ value: formatRangeValue(v), unit: range.unit })): string | null {
   if (!Number.isFinite(value) || impossibleValue(range, value)) return null;
   const [lo, hi] = range.typical;
   if (value >= lo && value <= hi) return null;
-  const unit = range.unit ? ` ${range.unit}` : '';
-  return `${withUnit(value, range.unit)} is unusual for a ${range.label} (typical ${formatRangeValue(lo)}–${formatRangeValue(hi)}${unit})`;
+  const [v, a, b] = [shown(value), shown(lo), shown(hi)];
+  const unit = (u: string) => (u ? ` ${u}` : '');
+  return `${v.value}${unit(v.unit)} is unusual for a ${range.label} (typical ${a.value} to ${b.value}${unit(b.unit)})`;
 }
 
 /** The range of a vehicle form field by its document path (`front.tyre.verticalRateNPerMm` → `verticalRateNPerMm`). */

@@ -54,6 +54,8 @@ export const IMPERIAL_UNITS: Readonly<Record<string, string>> = {
   'N m / deg': 'lbf ft / deg',
   'deg / kN': 'deg / lbf',
   GPa: 'psi',
+  /** Tyre load sensitivity b, 1/(deg·N): mathjs reads a unit's inverse as a negative power. */
+  'deg^-1 N^-1': 'deg^-1 lbf^-1',
 };
 
 /** Parses "48 in" into the number of `storedUnit` units; a bare number is taken as already stored. */

@@ -64,6 +64,17 @@ export const QUANTITIES = {
   momentPerG: { si: 'N·m/g', imperial: 'lbf·ft/g', factor: 1 / (LBF_N * FT_M), toStored: LBF_N * FT_M, sig: 4 },
   /** Tyre cornering stiffness: lateral force per degree of slip (1 lbf = 4.4482216152605 N). */
   corneringStiffness: { si: 'N/deg', imperial: 'lbf/deg', factor: 1 / LBF_N, toStored: LBF_N, sig: 4 },
+  /**
+   * Tyre load sensitivity b of C = a·Fz − b·Fz² (per tyre): cornering stiffness per degree lost per force
+   * squared, 1/(deg·N); in inch/pound with Fz in lbf, 1/(deg·lbf) = 1/(deg·N) × 4.4482216152605.
+   */
+  loadSensitivityB: { si: '1/(deg·N)', imperial: '1/(deg·lbf)', factor: LBF_N, toStored: 1 / LBF_N, sig: 4 },
+  /** Damper rate at the wheel: force per wheel velocity (1 lbf·s/in = 4.4482216152605 N·s / 25.4 mm). */
+  dampingRate: { si: 'N·s/mm', imperial: 'lbf·s/in', factor: IN_MM / LBF_N, toStored: LBF_N / IN_MM, sig: 4 },
+  /** Roll damping of the suspension: moment per roll rate. */
+  rollDamping: { si: 'N·m·s/deg', imperial: 'lbf·ft·s/deg', factor: 1 / (LBF_N * FT_M), toStored: LBF_N * FT_M, sig: 4 },
+  /** Shear modulus of a bar's steel (1 psi = 4.4482216152605 N / 0.0254² m² = 6894.757… Pa). */
+  shearModulus: { si: 'GPa', imperial: 'psi', factor: (1e9 * (IN_MM / 1000) ** 2) / LBF_N, toStored: LBF_N / (1e9 * (IN_MM / 1000) ** 2), sig: 4 },
   /** Anti-roll bar twist per length of wheel travel. */
   twistPerLength: { si: 'rad/m', imperial: 'rad/in', factor: IN_MM / 1000, toStored: 1000 / IN_MM, sig: 4 },
 } as const satisfies Record<string, QuantityUnits>;

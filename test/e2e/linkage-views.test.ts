@@ -3,7 +3,7 @@
  * demo designer open an axle design, open the 3D view (three.js loads only
  * then), see it draw or, where this Chromium gives no WebGL context, the
  * message saying so; pick a point and see its hardpoint row selected, and
- * the reverse; pick output curves and the sweep axis. Real server, fresh
+ * the reverse; play and stop the travel sweep; pick output curves and the sweep axis. Real server, fresh
  * seeded database, Debian's Chromium. Needs `npx ng build` first.
  */
 import { describe, expect, it } from 'vitest';
@@ -53,6 +53,16 @@ describe('Linkage views in Chromium', () => {
     await page.locator('tr.rw-selected[data-key="points.lowerOuter"]').waitFor();
     if (drawn) await page.locator('.rw-3d-label-selected[data-point="points.lowerOuter"]').waitFor();
     await saveScreenshot(page, drawn ? 'editor-3d-view' : 'editor-3d-view-no-webgl');
+    if (drawn) {
+      // The travel sweep plays: the travel the view says it shows moves through the range, and stops on request.
+      const status = page.locator('.rw-3d-toolbar [role="status"]');
+      await page.getByTestId('animate-sweep').click();
+      await status.filter({ hasText: /Sweep: .* travel/ }).waitFor();
+      const first = await status.innerText();
+      await expect.poll(() => status.innerText(), { timeout: 30_000, message: 'the sweep moves on' }).not.toBe(first);
+      await page.getByTestId('animate-sweep').filter({ hasText: 'Stop the sweep' }).click();
+      await status.filter({ hasText: /At .* travel/ }).waitFor();
+    }
 
     // Output curves: load when opened; the picker shows and hides charts.
     await page.getByTestId('open-curves').click();

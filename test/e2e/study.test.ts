@@ -36,6 +36,13 @@ describe('Tolerance study in Chromium', () => {
     await chooseOption(page, 'Point of tolerance 2', 'Upper ball joint');
     await chooseOption(page, 'Coordinate of tolerance 2', 'anywhere in a ball');
     await chooseOption(page, 'Distribution of tolerance 2', 'Uniform');
+    // A second rack position typed with a decimal comma: one chip of 2.5 mm, never two positions 2 and 5.
+    const racks = page.locator('input[name="racks"]');
+    await racks.fill('2,5');
+    await racks.press('Enter');
+    await page.locator('mat-chip-row', { hasText: '2.5 mm' }).waitFor();
+    expect(await page.locator('mat-chip-row').allInnerTexts()).toEqual([expect.stringContaining('0 mm'), expect.stringContaining('2.5 mm')]);
+    expect(await seriousA11yViolations(page)).toEqual([]);
     await page.getByRole('button', { name: 'Start the study' }).click();
     // The study page, or the form's error in the user's words (reported as the failure).
     const refused = page.locator('.rw-study-form [role="alert"]');

@@ -11,8 +11,8 @@ import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { apiJson, consoleErrors, named, saveScreenshot, signIn, useE2eApp } from '../support/e2e.js';
 
-/** A figure in a stored SI unit: a number, then mm, kg, N, N/mm, N·m, km/h, deg/m or deg/m² (not part of a longer unit or word). */
-const SI_FIGURE = /(?<![\w.])[-−]?\d+(?:\.\d+)?\s?(?:mm|kg|N\/mm|N·m|N|km\/h|deg\/m²|deg\/m)(?![\w/²·])/g;
+/** A figure in a stored SI unit: a number, then mm, kg, N, N/mm, N·m, km/h, deg/m, deg/m² or 1/(deg·N) (not part of a longer unit or word). */
+const SI_FIGURE = /(?<![\w.])[-−]?\d+(?:\.\d+)?\s?(?:mm|kg|N\/mm|N·m|N|km\/h|deg\/m²|deg\/m|1\/\(deg·N\))(?![\w/²·])/g;
 /** A figure in an inch/pound unit. */
 const US_FIGURE = /(?<![\w.])[-−]?\d+(?:\.\d+)?\s?(?:in|lb|lbf|lbf\/in|lbf·ft|mph|ft|deg\/in|deg\/in²)(?![\w/²·])/;
 /** A column or axis that names a stored SI unit on its own: "(mm)", "[kg]", "deg/m". */

@@ -143,6 +143,17 @@ describe('programmes', () => {
     const row = again.body.board.rows.find((r: { configurationName: string }) => r.configurationName === 'Ember for the study');
     expect(Number(ember[header!.indexOf('latest_rollSteerRear')])).toBe(row.latest.figures.rollSteerRear);
     expect(ember[header!.indexOf('approved_revision')]).toBe('1');
+    // In the reader's units: bump steer per inch for inch-pound (1 in = 0.0254 m exactly, NIST SP 811), the column named so.
+    const inch = await iris.get(`/api/programmes/${programmeId}/snapshots/${snap.body.id}`).query({ format: 'csv', units: 'imperial' }).expect(200);
+    const [inchHeader, ...inchLines] = Papa.parse<string[]>(inch.text, { skipEmptyLines: true }).data;
+    expect(inchHeader).toContain('latest_bumpSteerFrontDegPerIn');
+    expect(inchHeader).not.toContain('latest_bumpSteerFrontDegPerM');
+    const inchEmber = inchLines.find((l) => l[1] === 'Ember for the study')!;
+    expect(row.latest.figures.bumpSteerFrontDegPerM).toEqual(expect.any(Number));
+    expect(row.latest.figures.bumpSteerFrontDegPerM).not.toBe(0);
+    expect(Number(inchEmber[inchHeader!.indexOf('latest_bumpSteerFrontDegPerIn')])).toBeCloseTo(row.latest.figures.bumpSteerFrontDegPerM * 0.0254, 12);
+    expect(Number(inchEmber[inchHeader!.indexOf('latest_rollSteerRear')])).toBe(row.latest.figures.rollSteerRear);
+    expectError(await iris.get(`/api/programmes/${programmeId}/snapshots/${snap.body.id}`).query({ format: 'csv', units: 'cubits' }), 400, 'invalid_input');
     expectError(await kit.get(`/api/programmes/${programmeId}/snapshots/${snap.body.id}`), 404, 'not_found');
   });
 });

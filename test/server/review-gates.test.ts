@@ -286,6 +286,18 @@ describe('configuration review record', () => {
     expect(inputs).not.toMatch(/<th scope="row">(upper outer|tie rod inner|lower front)<\/th>/);
     const inches = row![1]!.split(', ').map((v) => Number(v.replace('−', '-')));
     inches.forEach((v, i) => expect(Math.abs(v - upperOuterMm[i]! / 25.4)).toBeLessThanOrEqual(0.005));
+    // Inputs whose unit is not in their key: the wheel radius in inches, the tyre load sensitivity b per lbf
+    // (1 lbf = 4.4482216152605 N, NIST SP 811), and an axis direction as plain numbers, never converted as a length.
+    const inputRow = (label: string) => new RegExp(`<th scope="row">${label}</th><td class="num">([^<]+)</td><td>([^<]*)</td>`).exec(inputs);
+    const radius = inputRow('wheel · radius');
+    expect(radius?.[2]).toBe('in');
+    expect(Math.abs(Number(radius![1]) - rec.inputs.frontCorner.wheel.radius / 25.4)).toBeLessThanOrEqual(5e-4);
+    const b = inputRow('front · tyre · load sensitivity · b');
+    expect(b?.[2]).toBe('1/(deg·lbf)');
+    expect(Number(b![1]) / (rec.inputs.vehicle.front.tyre.loadSensitivity.b * 4.4482216152605)).toBeCloseTo(1, 5);
+    const axis = inputRow('steering · rack axis');
+    expect(axis?.[1]).toBe((rec.inputs.frontCorner.steering.rackAxis as number[]).map((x) => String(x).replace('-', '−')).join(', '));
+    expect(axis?.[2]).toBe('');
     // Caution figures in the reader's units: no millimetre figure left in the cautions section.
     const cautions = page.slice(page.indexOf('3. Bump cost and cautions'), page.indexOf('4. Critical cautions'));
     expect(cautions).not.toMatch(/\d mm\b|<td class="num">[^<]* mm<\/td>/);

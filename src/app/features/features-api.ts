@@ -11,6 +11,16 @@ export type { AxleDesign, AxleDesignSummary, Proposal, VehicleRecord } from '../
 export type { AxleName } from '../../../shared/schema/axle';
 export type { RevisionRow } from '../../../shared/api/common';
 
+/**
+ * The author of a document's revision as its revision list names it; the record's last writer (`updatedByName`)
+ * until the list is there. They differ when someone else accepted a proposal as that revision: headers say the former.
+ */
+export function revisionAuthor(doc: { readonly revision: number; readonly updatedByName: string | null } | null, revisions: readonly RevisionRow[]): string | null {
+  if (!doc) return null;
+  const row = revisions.find((r) => r.revision === doc.revision);
+  return row ? row.authorName : doc.updatedByName;
+}
+
 const inline = () => ({ context: new HttpContext().set(SHOW_ERRORS_INLINE, true) });
 
 function team(teamId: string): string {

@@ -113,13 +113,13 @@ describe('unusual values pass, with a warning in the user\'s words', () => {
     const c = structuredClone(exampleCorners.fsFrontWishbone);
     c.wheel.radius = 1200;
     expect(cornerSchema.safeParse(c).success).toBe(true);
-    expect(cornerUnusualValues(c)).toContainEqual({ path: 'wheel.radius', message: '1200 mm is unusual for a wheel radius (typical 200–450 mm)' });
+    expect(cornerUnusualValues(c)).toContainEqual({ path: 'wheel.radius', message: '1200 mm is unusual for a wheel radius (typical 200 to 450 mm)' });
     expect(cornerUnusualValues(exampleCorners.fsFrontWishbone)).toEqual([]);
   });
 
   it('a 5000 kg vehicle is accepted and described; the form field finds its range by path', () => {
     expect(vehicleSchema.safeParse({ ...exampleVehicles.tur26Ember, massKg: 5000 }).success).toBe(true);
-    expect(unusualValue(vehicleRangeFor('massKg')!, 5000)).toBe('5000 kg is unusual for a vehicle mass (typical 150–3500 kg)');
+    expect(unusualValue(vehicleRangeFor('massKg')!, 5000)).toBe('5000 kg is unusual for a vehicle mass (typical 150 to 3500 kg)');
     expect(vehicleRangeFor('rear.tyre.verticalRateNPerMm')).toBe(VEHICLE_RANGES['verticalRateNPerMm']);
     expect(vehicleRangeFor('front.spring.motionRatio')).toBe(VEHICLE_RANGES['spring.motionRatio']);
     expect(unusualValue(vehicleRangeFor('massKg')!, 280)).toBeNull();

@@ -28,5 +28,12 @@ describe('fromDisplayUnits', () => {
     expect(fromDisplayUnits(1, 'linearRate', 'imperial')).toBeCloseTo(4.4482216152605 / 25.4, 14);
     // 1 deg/in = 1 deg / 0.0254 m.
     expect(fromDisplayUnits(1, 'bumpSteer', 'imperial')).toBeCloseTo(1 / 0.0254, 10);
+    // Tyre load sensitivity b: 1 per (deg·lbf) = 1 per (deg · 4.4482216152605 N).
+    expect(fromDisplayUnits(1, 'loadSensitivityB', 'imperial')).toBeCloseTo(1 / 4.4482216152605, 14);
+    // 1 lbf·s/in = 4.4482216152605 N·s / 25.4 mm; 1 lbf·ft·s/deg = 4.4482216152605 × 0.3048 N·m·s/deg.
+    expect(fromDisplayUnits(1, 'dampingRate', 'imperial')).toBeCloseTo(4.4482216152605 / 25.4, 14);
+    expect(fromDisplayUnits(1, 'rollDamping', 'imperial')).toBeCloseTo(4.4482216152605 * 0.3048, 14);
+    // 1 psi = 6894.757293168361 Pa = 6.894757293168361e-6 GPa (NIST SP 811, Appendix B.8: 6.894 757 E+03 Pa).
+    expect(fromDisplayUnits(1, 'shearModulus', 'imperial') / 6.894757293168361e-6).toBeCloseTo(1, 12);
   });
 });

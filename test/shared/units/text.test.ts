@@ -5,6 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { figuresInUnits } from '../../../shared/units/text.js';
+import { describeTyreLoadLaw } from '../../../shared/balance/tyre.js';
 
 describe('figuresInUnits', () => {
   it('rewrites each figure in a stored unit, ranges and explicit signs included', () => {
@@ -14,6 +15,10 @@ describe('figuresInUnits', () => {
     expect(figuresInUnits('class A at 100 km/h', 'imperial')).toBe('class A at 62.14 mph');
     // N/deg is a unit of its own, not newtons followed by "/deg".
     expect(figuresInUnits('stiffness (560.0 N/deg at 721 N)', 'imperial')).toBe('stiffness (125.9 lbf/deg at 162.1 lbf)');
+    // The tyre law's b per newton is per pound-force ×4.4482216152605 (0.00022 → 0.0009786); a in 1/deg is the same in both.
+    const law = describeTyreLoadLaw({ kind: 'quadratic', a: 1, b: 0.00022 });
+    expect(figuresInUnits(law, 'imperial')).toContain('(a = 1 1/deg, b = 0.0009786 1/(deg·lbf))');
+    expect(figuresInUnits(law, 'si')).toContain('(a = 1 1/deg, b = 0.00022 1/(deg·N))');
   });
 
   it('leaves words, angles and SI text alone, and rounds unrounded figures', () => {

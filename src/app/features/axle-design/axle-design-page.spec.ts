@@ -24,14 +24,18 @@ const DESIGN: AxleDesign = {
   updatedByName: 'Dana Quist',
 };
 
+/** The revision list's author of revision 2 and the proposals (a test may change them; reset before each). */
+let listAuthor = 'Dana Quist';
+let proposals: unknown[] = [];
+
 /** Answers what the editor loads: the design, its vehicle, the team, revisions, proposals, rig files and tolerance. */
 function answer(r: TestRequest): void {
   const url = r.request.urlWithParams;
   if (url === '/api/teams/t1/axle-designs/d1') r.flush(DESIGN);
   else if (url === '/api/teams/t1/vehicles/v1') r.flush({ id: 'v1', name: 'Car', archived: false, revision: 1, data: null, updatedAt: DESIGN.updatedAt, updatedByName: null });
   else if (url === '/api/teams/t1') r.flush({ id: 't1', name: 'Team', slug: 'team', roles: ['engineer'], permissions: ['team:read', 'design:edit'] });
-  else if (url.endsWith('/revisions')) r.flush([{ revision: 2, authorName: 'Dana Quist', createdAt: DESIGN.updatedAt, message: null }]);
-  else if (url.endsWith('/proposals')) r.flush([]);
+  else if (url.endsWith('/revisions')) r.flush([{ revision: 2, authorName: listAuthor, createdAt: DESIGN.updatedAt, message: 'raised the rack' }]);
+  else if (url.endsWith('/proposals')) r.flush(proposals);
   else if (url.includes('tolerance')) r.flush({ toeDeg: 0.1, camberDeg: 0.1 });
   else r.flush([]);
 }
@@ -42,6 +46,8 @@ describe('AxleDesignPage results', () => {
 
   beforeEach(async () => {
     units.set('si');
+    listAuthor = 'Dana Quist';
+    proposals = [];
     globalThis.localStorage?.clear();
     await TestBed.configureTestingModule({
       providers: [
@@ -79,6 +85,17 @@ describe('AxleDesignPage results', () => {
     input.value = value;
     input.dispatchEvent(new Event('change'));
   }
+
+  it("names in its header the revision's author as its revision list does, with who accepted the proposal it came from", async () => {
+    // The record's last writer (Dana, who accepted) is not the revision's author (Oskar, who proposed it).
+    listAuthor = 'Oskar Brandt';
+    proposals = [{ id: 'p1', designId: 'd1', baseRevision: 1, status: 'accepted', message: null, origin: null, authorName: 'Oskar Brandt', createdAt: DESIGN.updatedAt, decidedByName: 'Dana Quist', decidedAt: DESIGN.updatedAt, acceptedRevision: 2 }];
+    const { root } = await open();
+    expect(text(root, 'revision')).toContain('Revision 2 · draft · by Oskar Brandt (proposal accepted by Dana Quist)');
+    const item = root.querySelector('.rw-revision-list li[data-revision="2"]')!.textContent.replace(/\s+/g, ' ');
+    expect(item).toContain('Revision 2 · Oskar Brandt');
+    expect(item).toContain('— raised the rack');
+  });
 
   it('says the travel range its figures were fitted over, and marks them out of date when a change cannot be solved', async () => {
     const { harness, root } = await open();
@@ -169,6 +186,10 @@ describe('AxleDesignPage results', () => {
     );
     // The cost stage says what the cautions were measured over: the range actually solved.
     expect(text(root, 'caution-basis')).toContain('over -25 to 25 mm of travel');
+    // Beside the hardpoints, the corner's other inputs (wheel radius, rack stroke and axis, rocker and bar axes) are editable.
+    const settings = root.querySelector('section[data-stage="geometry"] rw-corner-settings');
+    expect(settings?.querySelector('mat-form-field[data-setting="wheel.radius"] input')).not.toBeNull();
+    expect(settings?.querySelector('mat-form-field[data-setting="steering.rackStroke[1]"] input')).not.toBeNull();
   });
 
   it('draws the pose chosen on the Material travel slider', async () => {

@@ -30,6 +30,8 @@ import { OutputCurvesPanel } from '../linkage-view/output-curves-panel';
 import { checkTravelRange, type TravelRange } from './sweep-settings';
 import { CostStage } from './cost-stage';
 import { GeometryDrawings } from './geometry-drawings';
+import { CornerSettings } from './corner-settings';
+import { revisionAuthor } from '../features-api';
 import { SectionNav, type PageSection } from '../../core/layout/section-nav';
 import { LocalTimePipe } from '../../core/time/local-time';
 
@@ -92,6 +94,7 @@ function storedProfile(designId: string): TrackProfileId | null {
     MatInput,
     SectionNav,
     GeometryDrawings,
+    CornerSettings,
     CostStage,
     LineChart,
     SafetyCaution,
@@ -127,6 +130,13 @@ export class AxleDesignPage {
   protected readonly canUndo = this.store.canUndo;
   protected readonly canRedo = this.store.canRedo;
   protected readonly changed = this.store.changed;
+  /** The author of the revision shown, as the revision list names it (the record's last writer until the list is there). */
+  protected readonly revisionAuthor = computed(() => revisionAuthor(this.saved(), this.revisions()));
+  /** Who accepted the proposal that became the revision shown, when one did. */
+  protected readonly acceptedBy = computed(() => {
+    const d = this.saved();
+    return (d && this.store.proposals().find((p) => p.status === 'accepted' && p.acceptedRevision === d.revision)?.decidedByName) || null;
+  });
   readonly dirty = this.store.dirty;
 
   protected readonly sections = EDITOR_STAGES;

@@ -78,6 +78,34 @@ describe('AxleDesignStore', () => {
     expect(getPoint(store.corner()!, KEY)![2]).toBeCloseTo(getPoint(corner, KEY)![2] + 5, 9);
   });
 
+  it('edits a setting that is not a point (the wheel radius) as an undo step that makes the design unsaved, and saves it', async () => {
+    store.editSetting('wheel.radius', null, 262);
+    expect(store.corner()!.wheel.radius).toBe(262);
+    expect(store.changed()).toEqual(['wheel.radius']);
+    expect(store.dirty()).toBe(true);
+    store.undo();
+    expect(store.corner()).toEqual(corner);
+    expect(store.dirty()).toBe(false);
+    store.redo();
+    // Restoring the saved settings puts the radius back and keeps a moved point, as one undo step.
+    store.editPoint(KEY, moved(corner, 5));
+    store.restoreSettings();
+    expect(store.corner()!.wheel.radius).toBe(corner.wheel.radius);
+    expect(store.changed()).toEqual([KEY]);
+    store.undo();
+    expect(store.corner()!.wheel.radius).toBe(262);
+    store.undo();
+    const saving = store.save('');
+    const put = http.expectOne('/api/teams/t1/axle-designs/d1/corner');
+    expect(put.request.body.corner.wheel.radius).toBe(262);
+    put.flush(design('d1', 5, store.corner()!));
+    await expect(saving).resolves.toBe(true);
+    expect(store.dirty()).toBe(false);
+    await settle();
+    http.expectOne('/api/teams/t1/axle-designs/d1/revisions').flush([]);
+    http.expectOne('/api/teams/t1/axle-designs/d1/proposals').flush([]);
+  });
+
   it('saves over the loaded revision with the note, and refreshes the revision list', async () => {
     store.editPoint(KEY, moved(corner, 5));
     const saving = store.save('  raised the upper ball joint  ');
@@ -98,6 +126,8 @@ describe('AxleDesignStore', () => {
     const mine = moved(corner, 5);
     store.editPoint(KEY, mine);
     const theirsCorner = structuredClone(corner);
+    // They also changed the wheel's loaded radius: a setting that is not a point is listed too.
+    theirsCorner.wheel.radius = 260;
     const saving = store.save('');
     http
       .expectOne('/api/teams/t1/axle-designs/d1/corner')
@@ -108,8 +138,9 @@ describe('AxleDesignStore', () => {
     await expect(saving).resolves.toBe(false);
     const conflict = store.conflict();
     expect(conflict?.theirs.revision).toBe(5);
-    expect(conflict?.rows.map((r) => r.key)).toEqual([KEY]);
+    expect(conflict?.rows.map((r) => r.key)).toEqual([KEY, 'wheel.radius']);
     expect(conflict?.rows[0]?.yours).toEqual(mine);
+    expect(conflict?.rows[1]).toEqual({ key: 'wheel.radius', name: 'Wheel, loaded radius', kind: 'length', theirs: [260], yours: [corner.wheel.radius] });
 
     store.takeTheirs();
     expect(store.conflict()).toBeNull();

@@ -7,6 +7,7 @@ import { loadState } from '../../core/http/load-state';
 import { TeamAccess } from '../../core/teams/team-access';
 import { AxleDesign, FeaturesApi, Proposal, RevisionRow } from '../features-api';
 import { EditHistory } from './edit-history';
+import { changedSettings, settingRow, withSetting, withSettingsFrom, type SettingKind } from './corner-settings-model';
 import { changedPoints, getPoint, pointName, withPoint, withPoints } from './hardpoint-model';
 
 /** Which design the editor shows (the route's parameters). */
@@ -16,10 +17,19 @@ export interface DesignRoute {
   readonly designId: string;
 }
 
-/** Someone else saved first: their revision, and each point where it differs from ours. */
+/** One point or setting where two versions differ: its name, what it measures, and the numbers of each (stored units). */
+export interface ConflictRow {
+  readonly key: string;
+  readonly name: string;
+  readonly kind: SettingKind;
+  readonly theirs: readonly number[] | undefined;
+  readonly yours: readonly number[] | undefined;
+}
+
+/** Someone else saved first: their revision, and each point or setting where it differs from ours. */
 export interface SaveConflict {
   readonly theirs: AxleDesign;
-  readonly rows: readonly { key: string; name: string; theirs: Vec3 | undefined; yours: Vec3 | undefined }[];
+  readonly rows: readonly ConflictRow[];
 }
 
 /**
@@ -76,7 +86,7 @@ export class AxleDesignStore {
   readonly changed = computed(() => {
     const c = this.corner();
     const s = this.saved();
-    return c && s ? changedPoints(c, s.corner) : [];
+    return c && s ? [...changedPoints(c, s.corner), ...changedSettings(c, s.corner)] : [];
   });
   readonly dirty = computed(() => this.changed().length > 0);
 
@@ -123,6 +133,23 @@ export class AxleDesignStore {
     const c = this.corner();
     if (!c) return;
     this.history.commit(withPoint(c, key, value));
+    this.notice.set(null);
+  }
+
+  /** Changes one setting that is not a point (wheel radius, a stroke end, an axis component); a new undo step. */
+  editSetting(path: string, index: number | null, value: number): void {
+    const c = this.corner();
+    if (!c) return;
+    this.history.commit(withSetting(c, path, index, value));
+    this.notice.set(null);
+  }
+
+  /** Puts back the saved revision's settings that are not points (wheel radius, strokes, axes); one undo step, the points kept. */
+  restoreSettings(): void {
+    const c = this.corner();
+    const s = this.saved();
+    if (!c || !s || changedSettings(c, s.corner).length === 0) return;
+    this.history.commit(withSettingsFrom(c, s.corner));
     this.notice.set(null);
   }
 
@@ -189,10 +216,17 @@ export class AxleDesignStore {
     const yours = this.corner();
     if (!yours) return;
     const keys = [...new Set([...changedPoints(yours, theirs.corner), ...changedPoints(theirs.corner, yours)])];
+    const settings = [...new Set([...changedSettings(yours, theirs.corner), ...changedSettings(theirs.corner, yours)])];
     const other = theirs;
     this.conflict.set({
       theirs: other,
-      rows: keys.map((key) => ({ key, name: pointName(key, yours), theirs: getPoint(other.corner, key), yours: getPoint(yours, key) })),
+      rows: [
+        ...keys.map((key): ConflictRow => ({ key, name: pointName(key, yours), kind: 'length', theirs: getPoint(other.corner, key), yours: getPoint(yours, key) })),
+        ...settings.map((key): ConflictRow => {
+          const mine = settingRow(yours, key);
+          return { key, name: mine.name, kind: mine.kind, theirs: settingRow(other.corner, key).value, yours: mine.value };
+        }),
+      ],
     });
   }
 

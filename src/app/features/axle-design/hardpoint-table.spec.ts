@@ -37,11 +37,22 @@ describe('HardpointTable', () => {
     const corner = structuredClone(exampleCorners.fsFrontWishbone);
     if (corner.type !== 'double-wishbone') throw new Error('example changed');
     const lo = corner.points.lowerOuter;
-    // A kingpin of 800 mm (typical 120–600 mm, shared/schema/ranges.ts; common practice, from memory).
+    // A kingpin of 800 mm (typical 120 to 600 mm, shared/schema/ranges.ts; common practice, from memory).
     corner.points.upperOuter = [lo[0], lo[1], lo[2] + 800];
     const { el } = setUp(true, corner);
     const row = el.querySelector('tr[data-key="points.upperOuter"]')!;
-    expect(row.querySelector('.rw-unusual')!.textContent.trim()).toBe('Unusual: 800 mm is unusual for a kingpin length (typical 120–600 mm)');
+    expect(row.querySelector('.rw-unusual')!.textContent.trim()).toBe('Unusual: 800 mm is unusual for a kingpin length (typical 120 to 600 mm)');
+  });
+
+  it('notes an unusual point in inches for an inch-pound user (1 in = 25.4 mm exactly)', () => {
+    TestBed.overrideProvider(DISPLAY_UNITS, { useValue: signal<DisplayUnits>('imperial') });
+    const corner = structuredClone(exampleCorners.fsFrontWishbone);
+    if (corner.type !== 'double-wishbone') throw new Error('example changed');
+    const lo = corner.points.lowerOuter;
+    corner.points.upperOuter = [lo[0], lo[1], lo[2] + 800];
+    const row = setUp(true, corner).el.querySelector('tr[data-key="points.upperOuter"]')!;
+    // 800 mm = 31.5 in; the typical 120 to 600 mm = 4.724 to 23.62 in (4 significant figures, as lengths are shown).
+    expect(row.querySelector('.rw-unusual')!.textContent.trim()).toBe('Unusual: 31.5 in is unusual for a kingpin length (typical 4.724 to 23.62 in)');
   });
 
   it('commits an edit on change, with a decimal comma accepted', () => {

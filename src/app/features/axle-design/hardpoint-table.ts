@@ -10,6 +10,7 @@ import { formatNum } from '../../core/format/num';
 import { MatError, MatFormField } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import { ErrorState } from '../../core/forms/error-state';
+import { UnitsTextPipe } from '../../core/format/units-text-pipe';
 
 export interface PointEdit {
   readonly key: string;
@@ -30,7 +31,7 @@ const AXES = ['x', 'y', 'z'] as const;
  */
 @Component({
   selector: 'rw-hardpoint-table',
-  imports: [MatFormField, MatInput, MatError, ErrorState],
+  imports: [MatFormField, MatInput, MatError, ErrorState, UnitsTextPipe],
   templateUrl: './hardpoint-table.html',
   styleUrl: './hardpoint-table.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -1,12 +1,9 @@
-import { ChangeDetectionStrategy, Component, inject, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, output } from '@angular/core';
 import { MatButton } from '@angular/material/button';
-import type { Vec3 } from '../../../../shared/schema/corner';
-import { AxleDesignStore } from './axle-design-store';
-
-/** A point as "x, y, z" in mm (8 significant figures), or "(none)". */
-export function vectorText(v: Vec3 | undefined): string {
-  return v ? v.map((n) => String(Number(n.toPrecision(8)))).join(', ') : '(none)';
-}
+import { AxleDesignStore, type ConflictRow } from './axle-design-store';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import { formatNum } from '../../core/format/num';
+import { unitLabel } from '../../core/format/quantities';
 
 /** Someone else saved first: both versions side by side, and the choice of which continues. */
 @Component({
@@ -22,13 +19,13 @@ export function vectorText(v: Vec3 | undefined): string {
           from revision {{ baseRevision() }}. Both versions are kept here; choose which one continues.
         </p>
         <table>
-          <caption>Points that differ (mm)</caption>
+          <caption>Points and settings that differ (lengths in {{ lengthUnit() }})</caption>
           <thead>
             <tr><th scope="col">Point</th><th scope="col">Theirs (revision {{ k.theirs.revision }})</th><th scope="col">Yours</th></tr>
           </thead>
           <tbody>
             @for (r of k.rows; track r.key) {
-              <tr><th scope="row">{{ r.name }}</th><td>{{ vec(r.theirs) }}</td><td>{{ vec(r.yours) }}</td></tr>
+              <tr><th scope="row">{{ r.name }}</th><td>{{ numbers(r, r.theirs) }}</td><td>{{ numbers(r, r.yours) }}</td></tr>
             }
           </tbody>
         </table>
@@ -66,5 +63,13 @@ export class SaveConflict {
   readonly baseRevision = input.required<number>();
   /** "Save mine": the page saves with its revision note. */
   readonly keepMine = output<void>();
-  protected readonly vec = vectorText;
+  private readonly units = inject(DISPLAY_UNITS);
+  protected readonly lengthUnit = computed(() => unitLabel('length', this.units()));
+
+  /** A point's or setting's numbers as "x, y, z" (8 significant figures; lengths in the user's unit, angles with theirs), or "(none)". */
+  protected numbers(row: ConflictRow, v: readonly number[] | undefined): string {
+    if (!v) return '(none)';
+    const text = v.map((n) => formatNum(n, row.kind === 'length' ? { kind: 'length', sig: 8 } : { sig: 8 }, this.units())).join(', ');
+    return row.kind === 'angle' ? `${text} deg` : text;
+  }
 }

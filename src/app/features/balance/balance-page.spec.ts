@@ -7,6 +7,7 @@ import { BalancePage } from './balance-page';
 import { signal } from '@angular/core';
 import type { DisplayUnits } from '../../core/api-types';
 import { settle } from '../../../testing/settle';
+import { formatNum } from '../../core/format/num';
 import { routedPageTestBed } from '../../../testing/routed-page';
 
 const T = '/api/teams/t-tal';
@@ -187,5 +188,15 @@ describe('BalancePage', () => {
     const inputs = [...root.querySelectorAll('table')].find((t) => t.querySelector('caption')?.textContent?.includes('ranked'))!;
     expect(inputs.querySelectorAll('tbody tr').length).toBeGreaterThan(0);
     expect(inputs.textContent).not.toMatch(/\b(front|rear)\.[a-z]/);
+    // Tyre load sensitivity b per lbf, NIST SP 811 (2008), Appendix B: 1 lbf = 4.4482216152605 N, so 0.00022 per N
+    // is 0.0009786 per lbf (4 significant figures); never the SI figure under an inch/pound heading.
+    const bPerLbf = formatNum(exampleVehicles.tur26Ember.front.tyre.loadSensitivity!.b * 4.4482216152605, { sig: 4 });
+    expect(bPerLbf).toBe('0.0009786');
+    const bRow = [...inputs.querySelectorAll('tbody tr')].find((tr) => tr.querySelector('th')?.textContent?.trim() === 'Front axle, load sensitivity b')!;
+    expect(bRow.querySelector('td')!.textContent.trim()).toBe(`${bPerLbf} 1/(deg·lbf)`);
+    expect(root.querySelector('[data-testid="evaluated-inputs"]')!.textContent).toContain(`b = ${bPerLbf} 1/(deg·lbf)`);
+    expect(root.querySelector('[data-testid="evaluated-inputs"]')!.textContent).not.toContain('1/(deg·N)');
+    // No SI unit left in the ranked inputs (their first 12), whatever input ranks there.
+    expect(inputs.textContent).not.toMatch(/N·s\/mm|N·m·s\/deg|1\/\(deg·N\)|N\/deg\b|N·m\/deg|\d mm\b|\d kg\b/);
   });
 });

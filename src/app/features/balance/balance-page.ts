@@ -53,6 +53,11 @@ const STORED_KIND: Readonly<Record<string, QuantityKind>> = {
   'N / mm': 'linearRate',
   'N m / deg': 'rollStiffness',
   'kg m^2': 'inertia',
+  'N / deg': 'corneringStiffness',
+  'deg^-1 N^-1': 'loadSensitivityB',
+  'N s / mm': 'dampingRate',
+  'N m s / deg': 'rollDamping',
+  GPa: 'shearModulus',
 };
 
 /** Where each linked value came from (shared/balance/link.ts ValueSource, compliance-link.ts ComplianceSource), in words. */

@@ -125,6 +125,27 @@ describe('OutputCurves', () => {
     expect(el.querySelector('[data-overlay="r:3"]')).toBeNull();
   });
 
+  it('overlays an open proposal, fetched with its geometry, named by its author and base revision', async () => {
+    const { fixture, el, backend } = await setUp();
+    const proposed = structuredClone(exampleCorners.fsFrontWishbone);
+    proposed.points.tieRodInner = [proposed.points.tieRodInner[0], proposed.points.tieRodInner[1], proposed.points.tieRodInner[2] + 6];
+    const listed = { id: 'p7', designId: 'd1', baseRevision: 3, status: 'open' as const, message: 'rear roll steer target', origin: null, authorName: 'Oskar Brandt', createdAt: '2026-11-03T10:00:00Z', decidedByName: null, decidedAt: null, acceptedRevision: null };
+    fixture.componentRef.setInput('proposals', [listed]);
+    fixture.detectChanges();
+    const box = el.querySelector<HTMLInputElement>('[data-overlay="p:p7"] input[type="checkbox"]')!;
+    expect(box.closest('[data-overlay]')!.textContent.trim()).toBe('Proposal by Oskar Brandt on revision 3');
+    box.click();
+    // The list carries no geometry: the proposal itself is read.
+    await serve(backend, { [`GET ${TEAM}/axle-designs/d1/proposals/p7`]: { ...listed, corner: proposed } });
+    await until(fixture, () => el.querySelectorAll('[data-chart="toeDeg"] g.rw-series').length === 2);
+    const names = Array.from(el.querySelectorAll('[data-chart="toeDeg"] g.rw-series')).map((g) => g.getAttribute('data-series'));
+    expect(names).toEqual(['Revision 3 (shown)', 'Proposal by Oskar Brandt on revision 3']);
+    // A raised tie-rod inner point gives the proposal its own toe curve: not the shown one drawn twice.
+    const paths = Array.from(el.querySelectorAll('[data-chart="toeDeg"] g.rw-series path.rw-series-line')).map((p) => p.getAttribute('d'));
+    expect(paths).toHaveLength(2);
+    expect(paths[0]).not.toBe(paths[1]);
+  });
+
   it('draws lengths in inches for an inch-pound user: the travel axis and the roll centre height', async () => {
     const { el } = await setUp('imperial');
     expect(el.querySelector('[data-chart="toeDeg"] .rw-axis-label-x')!.textContent).toContain('Wheel travel, both wheels, + bump (in)');

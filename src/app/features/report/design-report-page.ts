@@ -15,7 +15,7 @@ import { AnalysisError, KinematicsClient } from '../../workers/kinematics-client
 import { failureWords } from '../../workers/failure-words';
 import type { CornerAnalysis } from '../../workers/analysis-types';
 import { HardpointTable } from '../axle-design/hardpoint-table';
-import { AxleDesign, FeaturesApi, VehicleRecord } from '../features-api';
+import { AxleDesign, FeaturesApi, revisionAuthor, VehicleRecord } from '../features-api';
 import { CautionList } from '../intent/caution-list';
 import { rollSteerWords } from '../../../../shared/balance/roll-steer-words';
 import { SafetyCaution } from '../safety-caution';
@@ -131,12 +131,7 @@ export class DesignReportPage {
   protected readonly balance = computed(() => ready(this.budgetState())?.result ?? null);
 
   /** The author of the revision reported, as its revision list names it (the record's last writer until the list is there). */
-  protected readonly revisionAuthor = computed(() => {
-    const d = this.design();
-    if (!d) return null;
-    const row = this.revisions().find((r) => r.revision === d.revision);
-    return row ? row.authorName : d.updatedByName;
-  });
+  protected readonly revisionAuthor = computed(() => revisionAuthor(this.design(), this.revisions()));
 
   protected readonly words = computed(() => {
     const a = this.analysis();

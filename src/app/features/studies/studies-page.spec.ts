@@ -51,6 +51,20 @@ describe('StudiesPage: the new study form', () => {
     TestBed.tick();
   }
 
+  /** Types `text` into the rack-position chip field and leaves it (a chip is added on leaving, as on Enter). */
+  function addRack(root: HTMLElement, text: string): void {
+    const input = root.querySelector<HTMLInputElement>('input[name="racks"]')!;
+    input.value = text;
+    input.dispatchEvent(new Event('input'));
+    input.dispatchEvent(new FocusEvent('blur'));
+    TestBed.tick();
+  }
+
+  /** The rack positions shown as chips, as the user reads them. */
+  function rackChips(root: HTMLElement): string[] {
+    return [...root.querySelectorAll('mat-chip-row')].map((c) => c.textContent.replace('cancel', '').trim());
+  }
+
   async function start(root: HTMLElement, harness: RouterTestingHarness): Promise<void> {
     root.querySelector<HTMLButtonElement>('button[type=submit]')!.click();
     await settle();
@@ -117,7 +131,8 @@ describe('StudiesPage: the new study form', () => {
     enter(root, 'input[aria-label="Tolerance 1 (in)"]', '0.1');
     enter(root, 'input[name="camberShimMm"]', '0.02');
     enter(root, 'input[name="toeAdjusterStepMm"]', '0.015');
-    enter(root, 'input[name="racks"]', '-0.5, 0, 0.5');
+    addRack(root, '-0.5');
+    addRack(root, '0,5');
     expect(root.querySelector<HTMLInputElement>('input[aria-label="Tolerance 1 (in)"]')!.value).toBe('0.1');
     await start(root, harness);
     const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
@@ -125,7 +140,7 @@ describe('StudiesPage: the new study form', () => {
     expect(body.tolerances[0]!.plusMinusMm).toBeCloseTo(2.54, 12); // 0.1 × 25.4
     expect(body.setup.camberShimMm).toBeCloseTo(0.508, 12); // 0.02 × 25.4
     expect(body.setup.toeAdjusterStepMm).toBeCloseTo(0.381, 12); // 0.015 × 25.4
-    expect(body.analysis.rackMm.map((r) => Number(r.toFixed(9)))).toEqual([-12.7, 0, 12.7]);
+    expect(body.analysis.rackMm.map((r) => Number(r.toFixed(9)))).toEqual([0, -12.7, 12.7]);
     req.flush({ study: { id: 's-1' } });
     await settle();
   });
@@ -188,6 +203,54 @@ describe('StudiesPage: the new study form', () => {
     harness.detectChanges();
     expect(root.querySelector('.rw-study-form > [role=alert]')).toBeNull();
     expect(optionTexts(matSelect(root, 'mat-select[aria-label="Point of tolerance 1"]'))).toContain('Upper ball joint');
+  });
+
+  it('takes each rack position as one number: a comma is a decimal comma, never a separator, and what does not read is named beside the field', async () => {
+    const { root, harness } = await openDesign();
+    harness.detectChanges();
+    expect(rackChips(root)).toEqual(['0 mm']);
+    const field = root.querySelector('input[name="racks"]')!.closest('mat-form-field')!;
+    expect(field.querySelector('mat-hint')!.textContent).toContain('a comma is a decimal comma (2,5 is 2.5)');
+    // A decimal comma is part of the number: "2,5" is one position, 2.5 mm.
+    addRack(root, '2,5');
+    harness.detectChanges();
+    expect(rackChips(root)).toEqual(['0 mm', '2.5 mm']);
+    // Several at once only with spaces or semicolons between them.
+    addRack(root, '-10; 10');
+    harness.detectChanges();
+    expect(rackChips(root)).toEqual(['0 mm', '2.5 mm', '-10 mm', '10 mm']);
+    // "2,5,3" could be 2.5 and 3 or 2 and 5.3: refused in words beside the field, the text kept for correcting.
+    addRack(root, '2,5,3');
+    harness.detectChanges();
+    expect(field.querySelector('mat-error')!.textContent.trim()).toBe(
+      'Rack positions: "2,5,3" is not one number of mm. A comma is read as a decimal comma (2,5 is 2.5): enter one position at a time, or part them with spaces or semicolons.',
+    );
+    expect(field.querySelector('mat-chip-grid')!.getAttribute('aria-invalid')).toBe('true');
+    expect(root.querySelector<HTMLInputElement>('input[name="racks"]')!.value).toBe('2,5,3');
+    expect(rackChips(root)).toHaveLength(4);
+    addRack(root, 'left');
+    harness.detectChanges();
+    expect(field.querySelector('mat-error')!.textContent.trim()).toBe('Rack positions: "left" is not a number of mm.');
+    await start(root, harness);
+    backend.expectNone({ method: 'POST', url: `${T}/studies` });
+    // The same position twice, or more than the request takes (5), is refused too.
+    addRack(root, '10');
+    harness.detectChanges();
+    expect(field.querySelector('mat-error')!.textContent.trim()).toBe('Rack positions: 10 mm is already in the list.');
+    addRack(root, '20 30');
+    harness.detectChanges();
+    expect(field.querySelector('mat-error')!.textContent.trim()).toBe('Rack positions: at most 5; remove one before adding another.');
+    // A chip is removed by its own button, named by its value; correct text clears the message.
+    [...root.querySelectorAll<HTMLButtonElement>('button[matChipRemove]')].find((b) => b.getAttribute('aria-label') === 'Remove rack position -10 mm')!.click();
+    addRack(root, '5');
+    harness.detectChanges();
+    expect(field.querySelector('mat-error')).toBeNull();
+    expect(rackChips(root)).toEqual(['0 mm', '2.5 mm', '10 mm', '5 mm']);
+    await start(root, harness);
+    const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
+    expect(req.request.body.analysis.rackMm).toEqual([0, 2.5, 10, 5]);
+    req.flush({ study: { id: 's-5' } });
+    await settle();
   });
 
   it('takes and sends millimetres for an SI user', async () => {

@@ -7,9 +7,10 @@ import { MatError, MatFormField, MatHint, MatLabel, MatSuffix } from '@angular/m
 import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
 import { MatRadioButton, MatRadioGroup } from '@angular/material/radio';
+import { MatChipGrid, MatChipInput, MatChipRemove, MatChipRow, type MatChipInputEvent } from '@angular/material/chips';
 import { firstValueFrom } from 'rxjs';
 import { TRACK_PROFILE_IDS, trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
-import { MAX_STUDY_SAMPLES, type StudyRequest } from '../../../../shared/study/schema';
+import { MAX_STUDY_RACKS, MAX_STUDY_SAMPLES, type StudyRequest } from '../../../../shared/study/schema';
 import { apiProblem } from '../../core/http/api-error';
 import { TeamAccess } from '../../core/teams/team-access';
 import { browserTimeZone, formatLocalTime } from '../../core/time/local-time';
@@ -26,6 +27,8 @@ import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
 import { fromDisplayUnits, unitLabel } from '../../core/format/quantities';
 import { ErrorState } from '../../core/forms/error-state';
+import { ChipGridErrorState } from '../../core/forms/chip-grid-error-state';
+import { parseDecimal } from '../axle-design/hardpoint-io';
 import { FeaturesApi } from '../features-api';
 import { ConfigurationsApi } from '../configurations/configurations-api';
 
@@ -85,6 +88,7 @@ const isActive = (s: StudyView): boolean => s.status === 'queued' || s.status ==
   selector: 'rw-studies-page',
   imports: [
     RouterLink, MatButton, MatIcon, MatProgressBar, MatFormField, MatLabel, MatHint, MatError, MatSuffix, MatInput, MatSelect, MatOption, MatRadioGroup, MatRadioButton, ErrorState,
+    MatChipGrid, MatChipRow, MatChipInput, MatChipRemove, ChipGridErrorState,
   ],
   templateUrl: './studies-page.html',
   styleUrl: './studies.scss',
@@ -216,10 +220,6 @@ export class StudiesPage {
     return formatNum(mm, { kind: 'length', sig: 8, missing: '' }, this.units());
   }
 
-  protected shownList(mm: readonly number[]): string {
-    return mm.map((v) => this.shown(v)).join(', ');
-  }
-
   /** A value typed in the user's unit, in mm (1 in = 25.4 mm). */
   private mmOf(typed: number): number {
     return fromDisplayUnits(typed, 'length', this.units());
@@ -278,16 +278,39 @@ export class StudiesPage {
     (which === 'shim' ? this.shimMm : this.adjusterMm).set(mm ?? null);
   }
 
-  protected commitRacks(event: Event): void {
+  /**
+   * Adds the rack positions typed into the chip field (on Enter or on leaving it). Each chip is one number; a
+   * comma is always a decimal comma ("2,5" is 2.5), so only spaces and semicolons part several typed at once.
+   * Text that does not read is left in the field with the problem beside it, and nothing is added.
+   */
+  protected addRacks(event: MatChipInputEvent): void {
     const unit = this.lengthUnit();
-    const parts = inputValue(event).split(/[,;\s]+/).filter((t) => t !== '');
-    const bad = parts.find((t) => !Number.isFinite(Number(t)));
-    if (parts.length === 0) this.setLengthError('racks', `Rack positions: enter at least one, in ${unit}.`);
-    else if (bad !== undefined) this.setLengthError('racks', `Rack positions: "${bad}" is not a number of ${unit}.`);
-    else {
-      this.setLengthError('racks', null);
-      this.racksMm.set(parts.map((t) => this.mmOf(Number(t))));
+    const parts = event.value.split(/[;\s]+/).filter((t) => t !== '');
+    if (parts.length === 0) {
+      if (this.racksMm().length > 0) this.setLengthError('racks', null);
+      return;
     }
+    const bad = parts.find((t) => parseDecimal(t) === null);
+    const added = parts.map((t) => this.mmOf(parseDecimal(t) ?? NaN));
+    const next = [...this.racksMm(), ...added];
+    const twice = added.find((mm, i) => next.indexOf(mm) < this.racksMm().length + i);
+    let problem: string | null = null;
+    if (bad !== undefined) {
+      problem = bad.includes(',')
+        ? `Rack positions: "${bad}" is not one number of ${unit}. A comma is read as a decimal comma (2,5 is 2.5): enter one position at a time, or part them with spaces or semicolons.`
+        : `Rack positions: "${bad}" is not a number of ${unit}.`;
+    } else if (next.length > MAX_STUDY_RACKS) problem = `Rack positions: at most ${MAX_STUDY_RACKS}; remove one before adding another.`;
+    else if (twice !== undefined) problem = `Rack positions: ${this.shown(twice)} ${unit} is already in the list.`;
+    this.setLengthError('racks', problem);
+    if (problem) return;
+    this.racksMm.set(next);
+    event.chipInput.clear();
+  }
+
+  protected removeRack(i: number): void {
+    const next = this.racksMm().filter((_, k) => k !== i);
+    this.racksMm.set(next);
+    this.setLengthError('racks', next.length === 0 ? `Rack positions: enter at least one, in ${this.lengthUnit()}.` : null);
   }
 
   protected setTolerance(i: number, patch: Partial<ToleranceRow>): void {

@@ -42,7 +42,7 @@ function axleFields(axle: AxleName): VehicleField[] {
     f(p('tyre.corneringStiffnessNPerDeg'), 'Cornering stiffness per tyre', 'N / deg', 'N/deg'),
     f(p('tyre.axleComplianceDegPerG'), 'Axle tyre compliance (instead of the stiffness)', null, 'deg/g'),
     f(p('tyre.loadSensitivity.a'), 'Load sensitivity a (Cα = a·Fz − b·Fz², per tyre)', null, '1/deg'),
-    f(p('tyre.loadSensitivity.b'), 'Load sensitivity b', null, '1/(deg·N)'),
+    f(p('tyre.loadSensitivity.b'), 'Load sensitivity b', 'deg^-1 N^-1', '1/(deg·N)'),
     f(p('tyre.camberStiffnessNPerDeg'), 'Camber stiffness per tyre', 'N / deg', 'N/deg'),
     f(p('tyre.verticalRateNPerMm'), 'Tyre vertical rate', 'N / mm', 'N/mm'),
     f(p('tyre.pneumaticTrailMm'), 'Pneumatic trail', 'mm', 'mm'),

@@ -106,6 +106,47 @@ describe('VehiclePage', () => {
     expect(root.textContent).toContain('Saved as revision 5.');
   });
 
+  it('shows and takes the tyre load sensitivity b per pound-force for an inch/pound user, and stores it per newton', async () => {
+    // NIST SP 811 (2008), Appendix B: 1 lbf = 4.4482216152605 N (0.45359237 kg × 9.80665 m/s², exact by definition),
+    // so b per lbf = b per N × 4.4482216152605 (Cα = a·Fz − b·Fz² with Fz in lbf).
+    const LBF_N = 4.4482216152605;
+    const { harness, root } = await open(['team:read', 'vehicle:edit']);
+    const b = () => root.querySelector('mat-form-field[data-path="front.tyre.loadSensitivity.b"]')!;
+    expect(b().querySelector('.rw-unit')!.textContent.trim()).toBe('1/(deg·N)');
+    const toggle = [...root.querySelectorAll('mat-button-toggle button')].find((x) => x.textContent?.includes('Inch'))! as HTMLButtonElement;
+    toggle.click();
+    await vi.waitFor(() => {
+      harness.detectChanges();
+      if (b().querySelector('.rw-unit')!.textContent.trim() !== '1/(deg·lbf)') throw new Error('not converted yet');
+    }, { timeout: 10_000, interval: 50 });
+    const shown = Number(b().querySelector('input')!.value);
+    expect(shown / (exampleVehicles.tur26Ember.front.tyre.loadSensitivity!.b * LBF_N)).toBeCloseTo(1, 5);
+    typeInto(root, 'front.tyre.loadSensitivity.b', '0,001');
+    harness.detectChanges();
+    // 1 of 0..4.448 per lbf (0..1 per N) is possible; 5 per lbf is not, and the message says so in the user's unit.
+    typeInto(root, 'rear.tyre.loadSensitivity.b', '5');
+    harness.detectChanges();
+    (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
+    harness.detectChanges();
+    expect(errorOf(root, 'rear.tyre.loadSensitivity.b')).toBe('5 is outside 0 to 4.448 1/(deg·lbf).');
+    backend.expectNone('/api/teams/t-tal/vehicles/v-ember/data');
+    typeInto(root, 'rear.tyre.loadSensitivity.b', '0.003');
+    harness.detectChanges();
+    // Possible but unusual (typical 0 to 5e-4 per N, shared/schema/ranges.ts): the note is in the form's units too.
+    expect(root.querySelector('mat-form-field[data-path="rear.tyre.loadSensitivity.b"] .rw-unusual')!.textContent.trim()).toBe(
+      'Unusual: 0.003 1/(deg·lbf) is unusual for a load sensitivity b (typical 0 to 0.002224 1/(deg·lbf))',
+    );
+    typeInto(root, 'rear.tyre.loadSensitivity.b', '0.0009');
+    harness.detectChanges();
+    (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
+    const req = backend.expectOne('/api/teams/t-tal/vehicles/v-ember/data');
+    expect(req.request.body.data.front.tyre.loadSensitivity.b / (0.001 / LBF_N)).toBeCloseTo(1, 12);
+    expect(req.request.body.data.rear.tyre.loadSensitivity.b / (0.0009 / LBF_N)).toBeCloseTo(1, 12);
+    req.flush(record(5, req.request.body.data));
+    await settle();
+    backend.expectOne('/api/teams/t-tal/vehicles/v-ember/revisions').flush([]);
+  });
+
   it('names a bad entry and saves nothing', async () => {
     const { harness, root } = await open(['team:read', 'vehicle:edit']);
     const cg = field(root, 'CG behind the front axle');
@@ -140,7 +181,7 @@ describe('VehiclePage', () => {
     mass.dispatchEvent(new Event('input'));
     harness.detectChanges();
     // Typical band from shared/schema/ranges.ts (common practice, from memory).
-    expect(hintOf('Total mass')).toBe('Unusual: 5000 kg is unusual for a vehicle mass (typical 150–3500 kg)');
+    expect(hintOf('Total mass')).toBe('Unusual: 5000 kg is unusual for a vehicle mass (typical 150 to 3500 kg)');
     (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
     const req = backend.expectOne('/api/teams/t-tal/vehicles/v-ember/data');
     expect(req.request.body.data.massKg).toBe(5000);

@@ -13,7 +13,7 @@ import { AuthService } from '../../core/auth/auth-service';
 import { apiProblem } from '../../core/http/api-error';
 import { loadState } from '../../core/http/load-state';
 import { TeamAccess } from '../../core/teams/team-access';
-import { FeaturesApi, RevisionRow, VehicleRecord } from '../features-api';
+import { FeaturesApi, revisionAuthor, RevisionRow, VehicleRecord } from '../features-api';
 import { parseDecimal } from '../axle-design/hardpoint-io';
 import { ALL_VEHICLE_FIELDS, BarMode, barModeOf, readPath, VEHICLE_FIELD_GROUPS, VehicleField, vehicleIssuePlace, vehicleIssueText, writePath } from './vehicle-fields';
 import type { AxleName } from '../../../../shared/schema/axle';
@@ -97,12 +97,7 @@ export class VehiclePage {
   protected readonly revisions = computed<readonly RevisionRow[]>(() => (this.revisionList.hasValue() ? this.revisionList.value() : []));
 
   /** The author of the revision shown, as the revision list names it (the record's last writer until the list is there). */
-  protected readonly revisionAuthor = computed(() => {
-    const v = this.vehicle();
-    if (!v) return null;
-    const row = this.revisions().find((r) => r.revision === v.revision);
-    return row ? row.authorName : v.updatedByName;
-  });
+  protected readonly revisionAuthor = computed(() => revisionAuthor(this.vehicle(), this.revisions()));
 
   protected readonly saving = signal(false);
   protected readonly saveError = signal<string | null>(null);
@@ -234,7 +229,8 @@ export class VehiclePage {
   protected unitLabel(field: VehicleField): string {
     if (this.units() === 'imperial' && field.storedUnit && this.unitsModule) {
       const target = this.unitsModule.IMPERIAL_UNITS[field.storedUnit];
-      if (target) return target.replace(/ \/ /g, '/').replace(/\^2/g, '²').replace(/ /g, '·');
+      // mathjs text as the screen writes it: 'lbf ft / deg' → 'lbf·ft/deg', 'deg^-1 lbf^-1' → '1/(deg·lbf)'.
+      if (target) return target.replace(/^(\w+)\^-1 (\w+)\^-1$/, '1/($1 $2)').replace(/ \/ /g, '/').replace(/\^2/g, '²').replace(/ /g, '·');
     }
     return field.plainUnit;
   }
@@ -286,14 +282,15 @@ export class VehiclePage {
 
   /**
    * A possible but unusual entry (shared/schema/ranges.ts), in the user's words, e.g. "5000 kg is unusual for a
-   * vehicle mass (typical 150–3500 kg)": shown beside the field, never refused. The figures are in stored units.
+   * vehicle mass (typical 150 to 3500 kg)": shown beside the field, never refused, its figures in the units the form shows.
    */
   protected unusualText(field: VehicleField): string | null {
     const state = this.formState();
     const range = vehicleRangeFor(field.path);
     const shown = parseDecimal(state.values[field.path] ?? '');
     if (!range || shown === null || state.invalid.has(field.path)) return null;
-    return unusualValue(range, this.toStored(field, shown));
+    const unit = this.unitLabel(field);
+    return unusualValue(range, this.toStored(field, shown), (v) => ({ value: formatRangeValue(this.displayValue(field, v)), unit: unit === 'ratio' ? '' : unit }));
   }
 
   /**
