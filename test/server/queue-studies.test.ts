@@ -1,10 +1,11 @@
 /**
  * Studies on the real job queue (pg-boss on the test PostgreSQL) with real
- * worker processes (`npm run worker` as child processes): two workers give
- * the same numbers as one; a worker SIGKILLed mid-chunk loses nothing and
- * counts nothing twice; cancel stops every chunk. Every wait is on a state
- * (the study row, the queue's job rows), never a fixed sleep; the study
- * numbers are compared exactly (the chunks are pure functions of the seed).
+ * worker processes (`npm run worker` as child processes): one worker, two
+ * workers, and a worker SIGKILLed mid-chunk all give exactly the result one
+ * process computes alone from the stored spec (nothing lost, nothing counted
+ * twice); cancel stops every chunk. Every wait is on a state (the study row,
+ * the queue's job rows), never a fixed sleep; the study numbers are compared
+ * exactly (the chunks are pure functions of the seed). Each test stands alone.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import pg from 'pg';
@@ -12,6 +13,7 @@ import { waitFor } from '../support/wait.js';
 import { spawnWorker, type WorkerProcess } from '../support/workers.js';
 import { expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
 import { chunkJobId } from '../../server/services/studies.js';
+import { combineStudyChunks, planStudy, runStudyChunk, withFactorLabels, type StudySpec } from '../../shared/study/index.js';
 
 let t: TestApp;
 let engineer: Agent;
@@ -59,6 +61,16 @@ async function completed(id: string): Promise<{ result: unknown; progress: unkno
   return (await engineer.get(`/api/teams/${teamId}/studies/${id}`).expect(200)).body.study;
 }
 
+/**
+ * The study's result computed here, in one process, chunk after chunk from its stored spec, as the API
+ * writes it (factors named, through JSON): what any number of workers, killed or not, must give exactly.
+ */
+async function undisturbed(id: string): Promise<unknown> {
+  const spec = (await direct.query<{ spec: StudySpec }>('SELECT spec FROM studies WHERE id = $1', [id])).rows[0]!.spec;
+  const chunks = Array.from({ length: planStudy(spec).chunkCount }, (_, i) => runStudyChunk(spec, i));
+  return JSON.parse(JSON.stringify(withFactorLabels(combineStudyChunks(spec, chunks), spec.corner)));
+}
+
 async function stopWorkers(): Promise<void> {
   await Promise.all(workers.splice(0).map((w) => w.stop()));
 }
@@ -84,8 +96,6 @@ afterAll(async () => {
 });
 
 describe('studies on worker processes', () => {
-  let undisturbed: { result: unknown; progress: unknown };
-
   it('one worker runs a study to a stored result without sleeping through a job (it polls only every ten minutes); the API shows progress, the result and a CSV', async () => {
     const id = await start();
     const queued = (await viewer.get(`/api/teams/${teamId}/studies/${id}`).expect(200)).body.study;
@@ -94,9 +104,10 @@ describe('studies on worker processes', () => {
     // Polling every ten minutes, the worker only finishes within the wait if no NOTIFY is lost: not even the one
     // its own last chunk sends for the combine step while the lane is still busy landing that chunk.
     workers.push(await spawnWorker(t.databaseUrl, { QUEUE_POLL_MS: '600000' }));
-    undisturbed = await completed(id);
-    expect(undisturbed.progress).toEqual({ doneChunks: 12, totalChunks: 12, doneSamples: 300, totalSamples: 300 });
-    expect(undisturbed.result).toMatchObject({ kind: 'tolerance', seed: 2026, totalSamples: 300 });
+    const one = await completed(id);
+    expect(one.progress).toEqual({ doneChunks: 12, totalChunks: 12, doneSamples: 300, totalSamples: 300 });
+    expect(one.result).toMatchObject({ kind: 'tolerance', seed: 2026, totalSamples: 300 });
+    expect(one.result).toEqual(await undisturbed(id));
     // The combined result is stored; the chunks keep their rows (key, counts, timing) but not their outputs.
     const kept = (await direct.query<{ n: number; with_outputs: number }>('SELECT count(*)::int AS n, count(result)::int AS with_outputs FROM study_chunks WHERE study_id = $1', [id])).rows[0]!;
     expect(kept).toEqual({ n: 12, with_outputs: 0 });
@@ -110,11 +121,11 @@ describe('studies on worker processes', () => {
     await stopWorkers();
   }, 180_000);
 
-  it('two workers give exactly the same result as one', async () => {
+  it('two workers give exactly the result one process computes alone, chunk after chunk', async () => {
     workers.push(...(await Promise.all([spawnWorker(t.databaseUrl), spawnWorker(t.databaseUrl)])));
     const id = await start();
     const two = await completed(id);
-    expect(two.result).toEqual(undisturbed.result);
+    expect(two.result).toEqual(await undisturbed(id));
     const by = (await direct.query<{ worker: string; n: number; ms: number }>('SELECT worker, count(*)::int AS n, sum(compute_ms)::float AS ms FROM study_chunks WHERE study_id = $1 GROUP BY worker', [id])).rows;
     // Not asserted (the split is the operating system's), only shown.
     console.log(`two-worker run: ${by.map((b) => `${b.worker}: ${b.n} chunks, ${Math.round(b.ms)} ms`).join('; ')}`);
@@ -149,7 +160,7 @@ describe('studies on worker processes', () => {
     // Another worker takes the rest, including the dead worker's chunk once it expires.
     workers.push(await spawnWorker(t.databaseUrl));
     const after = await completed(id);
-    expect(after.result).toEqual(undisturbed.result);
+    expect(after.result).toEqual(await undisturbed(id));
     expect(after.progress).toEqual({ doneChunks: 12, totalChunks: 12, doneSamples: 300, totalSamples: 300 });
     const rows = (await direct.query<{ n: number }>('SELECT count(*)::int AS n FROM study_chunks WHERE study_id = $1', [id])).rows[0]!;
     expect(rows.n).toBe(12);
@@ -177,7 +188,7 @@ describe('studies on worker processes', () => {
     expect(s.done_chunks).toBeLessThan(12);
     // The worker is free again: another study runs to the end.
     const next = await start();
-    expect((await completed(next)).result).toEqual(undisturbed.result);
+    expect((await completed(next)).result).toEqual(await undisturbed(next));
     expect((await studyRow(id)).done_chunks).toBe(s.done_chunks);
     await stopWorkers();
   }, 240_000);
