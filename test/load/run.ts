@@ -183,7 +183,8 @@ async function main(): Promise<void> {
     const readPaced = figures(await cannon(base, cookie, { connections: 10, seconds: SHORT_S, requests: reads, overallRate: READ_PACED_RPS }));
     print(`read ${READ_PACED_RPS}/s alone`, readPaced);
     // Reads while a study runs on two worker processes (the server only answers; the workers compute).
-    const warm = { WORKER_WARM_START: 'true' };
+    // As deployed beside the API (docs/operations.md, "CPU priority"): spawnWorker's test defaults run a worker at the test's own priority.
+    const warm = { WORKER_WARM_START: 'true', WORKER_NICE: '10', COMPUTE_NICE: 'true' };
     const workers = [await spawnWorker(cluster.url, warm), await spawnWorker(cluster.url, warm)];
     let readDuringStudy: Figures;
     let studyChunks = 0;
