@@ -6,7 +6,7 @@
  * units. mathjs is large: the app loads this module lazily (dynamic import),
  * and only `unit` is imported from it.
  */
-import { unit } from 'mathjs';
+import { createUnit, unit } from 'mathjs';
 import { InputError, type FieldIssue } from '../errors.js';
 
 /** Stored unit of every numeric vehicle field, by key (docs/balance.md lists them). */
@@ -42,6 +42,16 @@ export const VEHICLE_FIELD_UNITS: Readonly<Record<string, string>> = {
   shearModulusGPa: 'GPa',
 };
 
+/**
+ * The kilopound-force (1000 lbf), which mathjs lacks (lbf takes no prefix): compliance per force reads
+ * in deg/klbf on every screen, as in deg/kN in SI. Defined once per mathjs instance.
+ */
+try {
+  createUnit('klbf', '1000 lbf');
+} catch {
+  // Already defined: this module was evaluated again against the same mathjs (a test runner's reload).
+}
+
 /** Inch/pound display units for the stored ones (fields with no such unit keep theirs). */
 export const IMPERIAL_UNITS: Readonly<Record<string, string>> = {
   kg: 'lb',
@@ -52,7 +62,7 @@ export const IMPERIAL_UNITS: Readonly<Record<string, string>> = {
   'N / mm': 'lbf / in',
   'N s / mm': 'lbf s / in',
   'N m / deg': 'lbf ft / deg',
-  'deg / kN': 'deg / lbf',
+  'deg / kN': 'deg / klbf',
   GPa: 'psi',
   /** Tyre load sensitivity b, 1/(deg·N): mathjs reads a unit's inverse as a negative power. */
   'deg^-1 N^-1': 'deg^-1 lbf^-1',

@@ -42,6 +42,11 @@ describe('unit entry (mathjs)', () => {
 
   it('displays stored values in inch/pound units', () => {
     expect(toImperial('trackMm', 25.4)).toEqual({ value: 1, unit: 'in' });
+    // Compliance per kilopound-force, as the other screens write it (1 klbf = 1000 lbf = 4.4482216152605 kN, NIST SP 811).
+    const steer = toImperial('complianceSteerDegPerKN', 0.2);
+    expect(steer.unit).toBe('deg / klbf');
+    expect(steer.value).toBeCloseTo(0.2 * 4.4482216152605, 12);
+    expect(parseQuantity('1 deg/klbf', 'deg / kN', 'front.complianceSteerDegPerKN')).toBeCloseTo(1 / 4.4482216152605, 12);
     expect(toImperial('massKg', 0.45359237).value).toBeCloseTo(1, 12);
     expect(toImperial('rollSteerCoefficient', 0.05)).toEqual({ value: 0.05, unit: '' });
     expect(convertValue(1, 'N / mm', 'lbf / in')).toBeCloseTo(25.4 / 4.4482216152605, 9);
