@@ -67,6 +67,12 @@ function runTool(tool: string, args: string[], databaseUrl: string, io: ToolRun 
     else child.stdout!.on('data', (d: Buffer) => (stdout += d.toString()));
     if (io.stdin && child.stdin) {
       io.stdin.on('error', (e) => child.kill() && reject(new BackupError(`cannot read the input: ${e.message}`)));
+      // A tool may stop reading before the end (pg_restore --list reads only the dump's table of contents):
+      // writing the rest then fails with EPIPE, which says nothing about the tool's work (its exit code does).
+      // Unhandled, that error ended the process.
+      child.stdin.on('error', (e: NodeJS.ErrnoException) => {
+        if (e.code !== 'EPIPE') reject(new BackupError(`cannot write to ${tool}: ${e.message}`));
+      });
       io.stdin.pipe(child.stdin);
     }
     child.on('error', (e) => reject(new BackupError(`${tool} could not start: ${e.message}`)));
