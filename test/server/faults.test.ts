@@ -177,7 +177,8 @@ describe('a solve past its time limit', () => {
   beforeAll(async () => {
     LIMIT_MS = Math.max(25, Math.round((await heavyCallMs()) / 4));
     // One worker kept warm: a worker stopped at the limit is replaced at once instead of at the next request.
-    t = await startTestApp({ seed: true, config: { computeTimeLimitMs: LIMIT_MS, solveJobTimeLimitMs: LIMIT_MS, computeThreads: 1, computeWarmStart: true } });
+    // computeNice as deployed: this test is about reads keeping their latency beside runaway solves (tests otherwise run compute threads at their own priority).
+    t = await startTestApp({ seed: true, config: { computeTimeLimitMs: LIMIT_MS, solveJobTimeLimitMs: LIMIT_MS, computeThreads: 1, computeWarmStart: true, computeNice: true } });
     user = (await registerUser(t.app)).agent;
     // Set-up only waits for the first worker to load the engines: up to 60 s on a loaded CI machine.
     await quickAnswers(600);
