@@ -1,14 +1,11 @@
-import { HttpTestingController } from '@angular/common/http/testing';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { computeBalance } from '../../../../shared/balance/api';
 import { exampleVehicles } from '../../../../shared/balance/examples';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { BalancePage } from './balance-page';
-import { signal } from '@angular/core';
-import type { DisplayUnits } from '../../core/api-types';
 import { settle } from '../../../testing/settle';
 import { formatNum } from '../../core/format/num';
-import { routedPageTestBed } from '../../../testing/routed-page';
+import { useRoutedPage } from '../../../testing/routed-page';
 
 const T = '/api/teams/t-tal';
 const raised = structuredClone(exampleCorners.fsRearWishbone);
@@ -20,15 +17,8 @@ const CORNERS: Record<string, typeof exampleCorners.fsFrontWishbone> = {
 };
 
 describe('BalancePage', () => {
-  let backend: HttpTestingController;
-  const units = signal<DisplayUnits>('si');
-
-  beforeEach(async () => {
-    units.set('si');
-    backend = await routedPageTestBed('teams/:teamId/vehicles/:vehicleId/balance', BalancePage, units);
-  });
-
-  afterEach(() => backend.verify());
+  const bed = useRoutedPage('teams/:teamId/vehicles/:vehicleId/balance', BalancePage);
+  const units = bed.units;
 
   const DESIGNS = [
     { id: 'd-front', axle: 'front', name: 'Front baseline', revision: 1, status: 'draft', updatedAt: '' },
@@ -40,8 +30,8 @@ describe('BalancePage', () => {
   async function open() {
     const harness = await RouterTestingHarness.create();
     await harness.navigateByUrl('/teams/t-tal/vehicles/v-ember/balance', BalancePage);
-    backend.expectOne(`${T}/vehicles/v-ember`).flush({ id: 'v-ember', name: 'TUR-26 Ember', archived: false, revision: 1, data: exampleVehicles.tur26Ember, updatedAt: '', updatedByName: null });
-    backend.expectOne(`${T}/vehicles/v-ember/axle-designs`).flush(DESIGNS);
+    bed.backend.expectOne(`${T}/vehicles/v-ember`).flush({ id: 'v-ember', name: 'TUR-26 Ember', archived: false, revision: 1, data: exampleVehicles.tur26Ember, updatedAt: '', updatedByName: null });
+    bed.backend.expectOne(`${T}/vehicles/v-ember/axle-designs`).flush(DESIGNS);
     await settle();
     return { harness, root: harness.routeNativeElement as HTMLElement };
   }
@@ -49,10 +39,10 @@ describe('BalancePage', () => {
   /** Answers the corner reads still open, then the balance request with the real engine (as the server's worker would). */
   async function answerEvaluation() {
     for (const id of Object.keys(CORNERS)) {
-      backend.match(`${T}/axle-designs/${id}`).forEach((r) => r.flush({ id, vehicleId: 'v-ember', axle: id === 'd-front' ? 'front' : 'rear', name: id, revision: 1, status: 'draft', corner: CORNERS[id], updatedAt: '', updatedByName: null }));
+      bed.backend.match(`${T}/axle-designs/${id}`).forEach((r) => r.flush({ id, vehicleId: 'v-ember', axle: id === 'd-front' ? 'front' : 'rear', name: id, revision: 1, status: 'draft', corner: CORNERS[id], updatedAt: '', updatedByName: null }));
     }
     await settle();
-    const req = backend.expectOne('/api/compute/balance');
+    const req = bed.backend.expectOne('/api/compute/balance');
     const result = computeBalance(req.request.body);
     req.flush({ engineVersion: 'test', result });
     await settle();
@@ -159,7 +149,7 @@ describe('BalancePage', () => {
     expect(root.querySelector('[data-testid="speed-error"]')!.textContent).toBe('500 is outside 1 to 400 km/h.');
     expect(root.querySelector('[data-testid="radius-error"]')!.textContent).toBe('"wide" is not a number.');
     expect(speed!.getAttribute('aria-invalid')).toBe('true');
-    backend.expectNone('/api/compute/balance');
+    bed.backend.expectNone('/api/compute/balance');
     expect(root.querySelector('[data-testid="out-of-date"]')!.textContent).toContain('Correct the entries above');
   });
 

@@ -1,12 +1,9 @@
-import { HttpTestingController } from '@angular/common/http/testing';
-import { signal } from '@angular/core';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { analyseCorner } from '../../workers/corner-analysis';
-import type { DisplayUnits } from '../../core/api-types';
 import { settle } from '../../../testing/settle';
 import { ComparePage } from './compare-page';
-import { routedPageTestBed } from '../../../testing/routed-page';
+import { useRoutedPage } from '../../../testing/routed-page';
 import { clickToggle } from '../../../testing/material';
 import { Router } from '@angular/router';
 import { TestBed } from '@angular/core/testing';
@@ -21,27 +18,20 @@ const DESIGNS = {
 const TRAVEL = { from: -25, to: 25, step: 2.5 };
 
 describe('ComparePage', () => {
-  let backend: HttpTestingController;
-  const units = signal<DisplayUnits>('si');
-
-  beforeEach(async () => {
-    units.set('si');
-    backend = await routedPageTestBed('teams/:teamId/vehicles/:vehicleId/compare', ComparePage, units);
-  });
-
-  afterEach(() => backend.verify());
+  const bed = useRoutedPage('teams/:teamId/vehicles/:vehicleId/compare', ComparePage);
+  const units = bed.units;
 
   /** Opens a shared comparison address; the page compares by itself once the designs are listed. */
   async function openComparison(designs: Readonly<Record<string, { name: string; corner: typeof raised }>> = DESIGNS, ready = '[data-testid="compare-figures"]') {
     const harness = await RouterTestingHarness.create();
     await harness.navigateByUrl(`/teams/t-tal/vehicles/v-ember/compare?designs=${Object.keys(designs).join(',')}`, ComparePage);
     await settle();
-    backend.expectOne(`${T}/vehicles/v-ember/axle-designs`).flush(
+    bed.backend.expectOne(`${T}/vehicles/v-ember/axle-designs`).flush(
       Object.entries(designs).map(([id, d]) => ({ id, axle: 'rear', name: d.name, revision: 3, status: 'draft', updatedAt: '' })),
     );
     // Each design is read, then solved (by the same engine the Worker runs, here on the main thread).
     for (const [id, d] of Object.entries(designs)) {
-      await vi.waitFor(() => backend.expectOne(`${T}/axle-designs/${id}`), { timeout: 20_000, interval: 20 }).then((r) =>
+      await vi.waitFor(() => bed.backend.expectOne(`${T}/axle-designs/${id}`), { timeout: 20_000, interval: 20 }).then((r) =>
         r.flush({ id, vehicleId: 'v-ember', axle: 'rear', name: d.name, revision: 3, status: 'draft', corner: d.corner, updatedAt: '', updatedByName: null }),
       );
     }
@@ -118,7 +108,7 @@ describe('ComparePage', () => {
     const harness = await RouterTestingHarness.create();
     await harness.navigateByUrl('/teams/t-tal/vehicles/v-ember/compare', ComparePage);
     await settle();
-    backend.expectOne(`${T}/vehicles/v-ember/axle-designs`).flush(
+    bed.backend.expectOne(`${T}/vehicles/v-ember/axle-designs`).flush(
       Object.entries(DESIGNS).map(([id, d]) => ({ id, axle: 'rear', name: d.name, revision: 3, status: 'draft', updatedAt: '' })),
     );
     await settle();
@@ -134,7 +124,7 @@ describe('ComparePage', () => {
     expect(compareButton().disabled).toBe(false);
     compareButton().click();
     for (const [id, d] of Object.entries(DESIGNS)) {
-      await vi.waitFor(() => backend.expectOne(`${T}/axle-designs/${id}`), { timeout: 20_000, interval: 20 }).then((r) =>
+      await vi.waitFor(() => bed.backend.expectOne(`${T}/axle-designs/${id}`), { timeout: 20_000, interval: 20 }).then((r) =>
         r.flush({ id, vehicleId: 'v-ember', axle: 'rear', name: d.name, revision: 3, status: 'draft', corner: d.corner, updatedAt: '', updatedByName: null }),
       );
     }

@@ -1,14 +1,11 @@
-import { HttpTestingController } from '@angular/common/http/testing';
-import { signal } from '@angular/core';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { exampleVehicles } from '../../../../shared/balance/examples';
-import type { DisplayUnits } from '../../core/api-types';
 import { settle } from '../../../testing/settle';
 import type { AxleDesign } from '../features-api';
 import { IntentPage } from './intent-page';
 import { rigToeChange } from './intent-charts';
-import { routedPageTestBed } from '../../../testing/routed-page';
+import { useRoutedPage } from '../../../testing/routed-page';
 
 const URL = '/teams/t-tal/vehicles/v-ember/axle-designs/d-rear/intent';
 const DESIGN: AxleDesign = {
@@ -53,23 +50,16 @@ const RIG_FILE = {
 const TARGET_TOL = 0.002;
 
 describe('IntentPage', () => {
-  let backend: HttpTestingController;
-  const units = signal<DisplayUnits>('si');
-
-  beforeEach(async () => {
-    units.set('si');
-    backend = await routedPageTestBed('teams/:teamId/vehicles/:vehicleId/axle-designs/:designId/intent', IntentPage, units);
-  });
-
-  afterEach(() => backend.verify());
+  const bed = useRoutedPage('teams/:teamId/vehicles/:vehicleId/axle-designs/:designId/intent', IntentPage);
+  const units = bed.units;
 
   async function open(permissions: string[], rig: typeof RIG_FILE[] = []) {
     const harness = await RouterTestingHarness.create();
     await harness.navigateByUrl(URL, IntentPage);
-    backend.expectOne('/api/teams/t-tal/axle-designs/d-rear').flush(DESIGN);
-    backend.expectOne('/api/teams/t-tal').flush({ id: 't-tal', name: 'Tallowmere University Racing', slug: 'tallowmere', roles: ['engineer'], permissions });
+    bed.backend.expectOne('/api/teams/t-tal/axle-designs/d-rear').flush(DESIGN);
+    bed.backend.expectOne('/api/teams/t-tal').flush({ id: 't-tal', name: 'Tallowmere University Racing', slug: 'tallowmere', roles: ['engineer'], permissions });
     await settle();
-    backend.expectOne('/api/teams/t-tal/vehicles/v-ember').flush({
+    bed.backend.expectOne('/api/teams/t-tal/vehicles/v-ember').flush({
       id: 'v-ember',
       name: 'TUR-26 Ember',
       archived: false,
@@ -79,9 +69,9 @@ describe('IntentPage', () => {
       updatedByName: null,
     });
     await settle();
-    backend.expectOne('/api/teams/t-tal/rig-measurements?designId=d-rear').flush(rig.map(({ points: _points, ...summary }) => summary));
+    bed.backend.expectOne('/api/teams/t-tal/rig-measurements?designId=d-rear').flush(rig.map(({ points: _points, ...summary }) => summary));
     await settle();
-    for (const f of rig) backend.expectOne(`/api/teams/t-tal/rig-measurements/${f.id}`).flush(f);
+    for (const f of rig) bed.backend.expectOne(`/api/teams/t-tal/rig-measurements/${f.id}`).flush(f);
     await settle();
     harness.detectChanges();
     return { harness, root: harness.routeNativeElement as HTMLElement };
@@ -199,7 +189,7 @@ describe('IntentPage', () => {
     expect(root.querySelector('[data-testid="out-of-date"]')).toBeNull();
 
     button(root, 'Propose as draft revision').click();
-    const req = backend.expectOne('/api/teams/t-tal/axle-designs/d-rear/proposals');
+    const req = bed.backend.expectOne('/api/teams/t-tal/axle-designs/d-rear/proposals');
     expect(req.request.body.baseRevision).toBe(3);
     // The chosen member's own cautions go with the proposal (those shown beside it).
     const shownCodes = [...root.querySelectorAll('rw-caution-list li[data-code]')].map((li) => li.getAttribute('data-code'));

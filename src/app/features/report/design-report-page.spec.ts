@@ -1,12 +1,10 @@
-import { HttpTestingController, TestRequest } from '@angular/common/http/testing';
-import { signal } from '@angular/core';
+import { TestRequest } from '@angular/common/http/testing';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { computeBalance } from '../../../../shared/balance/api';
 import { exampleVehicles } from '../../../../shared/balance/examples';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
-import type { DisplayUnits } from '../../core/api-types';
 import { DesignReportPage } from './design-report-page';
-import { routedPageTestBed } from '../../../testing/routed-page';
+import { useRoutedPage } from '../../../testing/routed-page';
 import type { AxleName } from '../../../../shared/schema/axle';
 
 const T = '/api/teams/t-tal';
@@ -43,13 +41,8 @@ function answer(req: TestRequest): void {
 }
 
 describe('DesignReportPage', () => {
-  let backend: HttpTestingController;
-  const units = signal<DisplayUnits>('si');
-
-  beforeEach(async () => {
-    units.set('si');
-    backend = await routedPageTestBed('teams/:teamId/vehicles/:vehicleId/axle-designs/:designId/report', DesignReportPage, units);
-  });
+  const bed = useRoutedPage('teams/:teamId/vehicles/:vehicleId/axle-designs/:designId/report', DesignReportPage);
+  const units = bed.units;
 
   /** Opens the report and serves its requests (through `serve`, `answer` unless given) until `complete` holds. */
   async function open(
@@ -61,7 +54,7 @@ describe('DesignReportPage', () => {
     const root = harness.routeNativeElement as HTMLElement;
     await vi.waitFor(
       () => {
-        backend.match(() => true).forEach(serve);
+        bed.backend.match(() => true).forEach(serve);
         harness.detectChanges();
         if (!complete(root)) throw new Error('report not complete yet');
       },
@@ -76,7 +69,7 @@ describe('DesignReportPage', () => {
     expect(revision).toContain('2 (accepted) by Eli Marsh, accepted by Dana Quist');
     expect(root.textContent).toContain('Revision 2 · Eli Marsh');
     expect(root.textContent).toContain('— solve for −0.02');
-    backend.verify();
+    bed.backend.verify();
   });
 
   it('writes its figures and curves in inch/pound units when the user reads inch/pound, and says which units it uses', async () => {
@@ -89,7 +82,7 @@ describe('DesignReportPage', () => {
     expect(headers).toContain('Toe curvature (deg/in²)');
     expect(root.querySelector('[data-testid="report-units"]')!.textContent).toContain('Inch/pound');
     expect(root.querySelector('rw-safety-caution')).not.toBeNull();
-    backend.verify();
+    bed.backend.verify();
   });
 
   it('says which part could not be loaded, in the server\'s words, and shows the rest', async () => {
@@ -104,7 +97,7 @@ describe('DesignReportPage', () => {
     // Without the revision list the author is the record's last writer; the kinematics and the budget are there.
     expect(root.querySelector('[data-testid="report-revision"]')!.textContent).toContain('2 (accepted) by Dana Quist');
     expect(root.textContent).toContain('With the front axle design "Front baseline".');
-    backend.verify();
+    bed.backend.verify();
   });
 
   it('says the vehicle could not be loaded and still solves the kinematics without its ride data', async () => {
@@ -115,6 +108,6 @@ describe('DesignReportPage', () => {
     expect(root.textContent).toContain('No understeer budget: the vehicle could not be loaded: Vehicle not found');
     expect(root.querySelector('rw-bar-chart')).toBeNull();
     expect(root.querySelector('.rw-report-meta')!.textContent).toContain('could not be loaded: Vehicle not found');
-    backend.verify();
+    bed.backend.verify();
   });
 });

@@ -1,12 +1,9 @@
-import { HttpTestingController } from '@angular/common/http/testing';
-import { signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { RouterTestingHarness } from '@angular/router/testing';
-import type { DisplayUnits } from '../../core/api-types';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { hardpointRows } from '../../../../shared/io/hardpoint-points';
 import type { StudyRequest } from '../../../../shared/study/schema';
-import { routedPageTestBed } from '../../../testing/routed-page';
+import { useRoutedPage } from '../../../testing/routed-page';
 import { settle } from '../../../testing/settle';
 import { chooseOption, clickToggle, matSelect, optionTexts } from '../../../testing/material';
 import { StudiesPage } from './studies-page';
@@ -17,29 +14,23 @@ const TEAM = { id: 't-tal', name: 'Tallowmere University Racing', slug: 'tallowm
 const RAW_KEY = /^[a-z]+[A-Z0-9]\w*$/;
 
 describe('StudiesPage: the new study form', () => {
-  let backend: HttpTestingController;
-  const units = signal<DisplayUnits>('si');
-
-  beforeEach(async () => {
-    units.set('si');
-    backend = await routedPageTestBed('teams/:teamId/studies', StudiesPage, units);
-  });
-  afterEach(() => backend.verify());
+  const bed = useRoutedPage('teams/:teamId/studies', StudiesPage);
+  const units = bed.units;
 
   /** Opens the page for a new study of `query` and answers the team, the list and the corner's requests. */
   async function open(query: string, answerCorner: () => void): Promise<{ root: HTMLElement; harness: RouterTestingHarness }> {
     const harness = await RouterTestingHarness.create();
     await harness.navigateByUrl(`/teams/t-tal/studies?${query}`, StudiesPage);
     await settle();
-    backend.expectOne(T).flush(TEAM);
-    backend.expectOne(`${T}/studies`).flush({ studies: [] });
+    bed.backend.expectOne(T).flush(TEAM);
+    bed.backend.expectOne(`${T}/studies`).flush({ studies: [] });
     answerCorner();
     await settle();
     harness.detectChanges();
     return { root: harness.routeNativeElement!, harness };
   }
 
-  const openDesign = () => open('axleDesignId=d-front', () => backend.expectOne(`${T}/axle-designs/d-front`).flush({ id: 'd-front', corner: exampleCorners.fsFrontWishbone }));
+  const openDesign = () => open('axleDesignId=d-front', () => bed.backend.expectOne(`${T}/axle-designs/d-front`).flush({ id: 'd-front', corner: exampleCorners.fsFrontWishbone }));
 
   /** Types `text` into the input and leaves it (the field commits on its change event, as on blur). */
   function enter(root: HTMLElement, selector: string, text: string): void {
@@ -86,7 +77,7 @@ describe('StudiesPage: the new study form', () => {
 
   it("starts a five-link corner's rows on its toe link's body end, and adds rows on points it has (it has no tie rod or wishbone)", async () => {
     const corner = exampleCorners.roadRearFiveLink;
-    const { root, harness } = await open('axleDesignId=d-rear', () => backend.expectOne(`${T}/axle-designs/d-rear`).flush({ id: 'd-rear', corner }));
+    const { root, harness } = await open('axleDesignId=d-rear', () => bed.backend.expectOne(`${T}/axle-designs/d-rear`).flush({ id: 'd-rear', corner }));
     const toe = hardpointRows(corner).find((r) => r.key === `points.link${corner.toeLink}Inner`)!.name;
     expect(toe).toContain('toe link');
     expect(matSelect(root, 'mat-select[aria-label="Point of tolerance 1"]').textContent.trim()).toBe(toe);
@@ -101,18 +92,18 @@ describe('StudiesPage: the new study form', () => {
 
   it("names the unsteered rear axle's toe link, for a configuration's axle at the configuration's design revision", async () => {
     const { root } = await open('configurationId=c-1', () => {
-      backend.expectOne(`${T}/configurations/c-1`).flush({
+      bed.backend.expectOne(`${T}/configurations/c-1`).flush({
         id: 'c-1', front: { designId: 'd-front', name: 'Front', revision: 3 }, rear: { designId: 'd-rear', name: 'Rear', revision: 2 },
       });
-      backend.expectOne(`${T}/axle-designs/d-front/revisions/3`).flush({ revision: 3, corner: exampleCorners.fsFrontWishbone });
+      bed.backend.expectOne(`${T}/axle-designs/d-front/revisions/3`).flush({ revision: 3, corner: exampleCorners.fsFrontWishbone });
     });
     chooseOption(matSelect(root, 'mat-select[name="axle"]'), 'Rear');
     await settle();
-    backend.expectOne(`${T}/configurations/c-1`).flush({
+    bed.backend.expectOne(`${T}/configurations/c-1`).flush({
       id: 'c-1', front: { designId: 'd-front', name: 'Front', revision: 3 }, rear: { designId: 'd-rear', name: 'Rear', revision: 2 },
     });
     await settle();
-    backend.expectOne(`${T}/axle-designs/d-rear/revisions/2`).flush({ revision: 2, corner: exampleCorners.fsRearWishbone });
+    bed.backend.expectOne(`${T}/axle-designs/d-rear/revisions/2`).flush({ revision: 2, corner: exampleCorners.fsRearWishbone });
     await settle();
     TestBed.tick();
     const names = optionTexts(matSelect(root, 'mat-select[aria-label="Point of tolerance 1"]'));
@@ -135,7 +126,7 @@ describe('StudiesPage: the new study form', () => {
     addRack(root, '0,5');
     expect(root.querySelector<HTMLInputElement>('input[aria-label="Tolerance 1 (in)"]')!.value).toBe('0.1');
     await start(root, harness);
-    const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
+    const req = bed.backend.expectOne({ method: 'POST', url: `${T}/studies` });
     const body = req.request.body as Extract<StudyRequest, { kind: 'tolerance' }>;
     expect(body.tolerances[0]!.plusMinusMm).toBeCloseTo(2.54, 12); // 0.1 × 25.4
     expect(body.setup.camberShimMm).toBeCloseTo(0.508, 12); // 0.02 × 25.4
@@ -154,7 +145,7 @@ describe('StudiesPage: the new study form', () => {
     enter(root, 'input[aria-label="From of factor 1 (in)"]', '-0.25');
     enter(root, 'input[aria-label="To of factor 1 (in)"]', '0.75');
     await start(root, harness);
-    const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
+    const req = bed.backend.expectOne({ method: 'POST', url: `${T}/studies` });
     const body = req.request.body as Extract<StudyRequest, { kind: 'sweep' }>;
     expect(body.factors[0]!.fromMm).toBeCloseTo(-6.35, 12); // −0.25 × 25.4
     expect(body.factors[0]!.toMm).toBeCloseTo(19.05, 12); // 0.75 × 25.4
@@ -177,13 +168,13 @@ describe('StudiesPage: the new study form', () => {
       'Camber shim thickness: "thin" is not a number of in.',
     );
     await start(root, harness);
-    backend.expectNone({ method: 'POST', url: `${T}/studies` });
+    bed.backend.expectNone({ method: 'POST', url: `${T}/studies` });
     expect(root.querySelector('.rw-study-form > [role=alert]')!.textContent).toContain('Tolerance 1 must be at most 1.969 in.');
     // Corrected, the band goes (0.5 in = 12.7 mm).
     enter(root, 'input[aria-label="Tolerance 1 (in)"]', '0.5');
     enter(root, 'input[name="camberShimMm"]', '');
     await start(root, harness);
-    const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
+    const req = bed.backend.expectOne({ method: 'POST', url: `${T}/studies` });
     expect((req.request.body as Extract<StudyRequest, { kind: 'tolerance' }>).tolerances[0]!.plusMinusMm).toBeCloseTo(12.7, 12);
     expect((req.request.body as Extract<StudyRequest, { kind: 'tolerance' }>).setup).toEqual({});
     req.flush({ study: { id: 's-3' } });
@@ -192,13 +183,13 @@ describe('StudiesPage: the new study form', () => {
 
   it("says when the design's points cannot be loaded, and loads them again on request", async () => {
     const { root, harness } = await open('axleDesignId=d-front', () =>
-      backend.expectOne(`${T}/axle-designs/d-front`).flush({ error: { code: 'unavailable', message: 'The server is busy; try again in a moment.' } }, { status: 503, statusText: 'Busy' }),
+      bed.backend.expectOne(`${T}/axle-designs/d-front`).flush({ error: { code: 'unavailable', message: 'The server is busy; try again in a moment.' } }, { status: 503, statusText: 'Busy' }),
     );
     const alert = root.querySelector('.rw-study-form > [role=alert]')!;
     expect(alert.textContent).toContain('The points of the design could not be loaded: The server is busy; try again in a moment.');
     [...alert.querySelectorAll('button')].find((b) => b.textContent.trim() === 'Try again')!.click();
     await settle();
-    backend.expectOne(`${T}/axle-designs/d-front`).flush({ id: 'd-front', corner: exampleCorners.fsFrontWishbone });
+    bed.backend.expectOne(`${T}/axle-designs/d-front`).flush({ id: 'd-front', corner: exampleCorners.fsFrontWishbone });
     await settle();
     harness.detectChanges();
     expect(root.querySelector('.rw-study-form > [role=alert]')).toBeNull();
@@ -232,7 +223,7 @@ describe('StudiesPage: the new study form', () => {
     harness.detectChanges();
     expect(field.querySelector('mat-error')!.textContent.trim()).toBe('Rack positions: "left" is not a number of mm.');
     await start(root, harness);
-    backend.expectNone({ method: 'POST', url: `${T}/studies` });
+    bed.backend.expectNone({ method: 'POST', url: `${T}/studies` });
     // The same position twice, or more than the request takes (5), is refused too.
     addRack(root, '10');
     harness.detectChanges();
@@ -247,7 +238,7 @@ describe('StudiesPage: the new study form', () => {
     expect(field.querySelector('mat-error')).toBeNull();
     expect(rackChips(root)).toEqual(['0 mm', '2.5 mm', '10 mm', '5 mm']);
     await start(root, harness);
-    const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
+    const req = bed.backend.expectOne({ method: 'POST', url: `${T}/studies` });
     expect(req.request.body.analysis.rackMm).toEqual([0, 2.5, 10, 5]);
     req.flush({ study: { id: 's-5' } });
     await settle();
@@ -258,7 +249,7 @@ describe('StudiesPage: the new study form', () => {
     expect(root.querySelector('table[aria-label="Tolerances"] thead')!.textContent).toContain('± mm');
     enter(root, 'input[aria-label="Tolerance 1 (mm)"]', '0.25');
     await start(root, harness);
-    const req = backend.expectOne({ method: 'POST', url: `${T}/studies` });
+    const req = bed.backend.expectOne({ method: 'POST', url: `${T}/studies` });
     expect((req.request.body as Extract<StudyRequest, { kind: 'tolerance' }>).tolerances[0]!.plusMinusMm).toBe(0.25);
     req.flush({ study: { id: 's-4' } });
     await settle();

@@ -1,8 +1,5 @@
-import { HttpTestingController } from '@angular/common/http/testing';
-import { signal } from '@angular/core';
 import { RouterTestingHarness } from '@angular/router/testing';
-import type { DisplayUnits } from '../../core/api-types';
-import { routedPageTestBed } from '../../../testing/routed-page';
+import { useRoutedPage } from '../../../testing/routed-page';
 import { settle } from '../../../testing/settle';
 import { chooseOption, matSelect } from '../../../testing/material';
 import { StudyPage } from './study-page';
@@ -41,21 +38,15 @@ const STUDY = {
 } as unknown as StudyView;
 
 describe('StudyPage', () => {
-  let backend: HttpTestingController;
-  const units = signal<DisplayUnits>('si');
-
-  beforeEach(async () => {
-    units.set('si');
-    backend = await routedPageTestBed('teams/:teamId/studies/:studyId', StudyPage, units);
-  });
-  afterEach(() => backend.verify());
+  const bed = useRoutedPage('teams/:teamId/studies/:studyId', StudyPage);
+  const units = bed.units;
 
   async function open() {
     const harness = await RouterTestingHarness.create();
     await harness.navigateByUrl('/teams/t-tal/studies/s1', StudyPage);
     await settle();
-    backend.expectOne(T).flush({ id: 't-tal', name: 'Tallowmere University Racing', slug: 'tallowmere', roles: [], permissions: ['team:read'] });
-    backend.expectOne(`${T}/studies/s1`).flush({ study: STUDY });
+    bed.backend.expectOne(T).flush({ id: 't-tal', name: 'Tallowmere University Racing', slug: 'tallowmere', roles: [], permissions: ['team:read'] });
+    bed.backend.expectOne(`${T}/studies/s1`).flush({ study: STUDY });
     await settle();
     harness.detectChanges();
     const root = harness.routeNativeElement as HTMLElement;
@@ -114,13 +105,13 @@ describe('StudyPage', () => {
       const exportButton = () => [...root.querySelectorAll('button')].find((b) => b.textContent.includes('Export CSV'))!;
       exportButton().click();
       await settle();
-      backend.expectOne((r) => r.url === `${T}/studies/s1/csv` && r.params.get('units') === 'si').flush('output,unit\r\n');
+      bed.backend.expectOne((r) => r.url === `${T}/studies/s1/csv` && r.params.get('units') === 'si').flush('output,unit\r\n');
       await settle();
       units.set('imperial');
       harness.detectChanges();
       exportButton().click();
       await settle();
-      backend.expectOne((r) => r.url === `${T}/studies/s1/csv` && r.params.get('units') === 'imperial').flush('output,unit\r\n');
+      bed.backend.expectOne((r) => r.url === `${T}/studies/s1/csv` && r.params.get('units') === 'imperial').flush('output,unit\r\n');
       await settle();
       expect(created).toHaveBeenCalledTimes(2);
     } finally {
