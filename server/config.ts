@@ -3,6 +3,7 @@
  * defaults. Production refuses to start without a real session secret.
  * Every variable is documented in docs/operations.md.
  */
+import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { resolve } from 'node:path';
 
@@ -183,7 +184,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     // A compute request may run for its whole time limit: shutdown waits that long, and a little more for the answer.
     shutdownGraceMs: int(env, 'SHUTDOWN_GRACE_MS', int(env, 'COMPUTE_TIME_LIMIT_MS', 10_000, 50) + 5_000, 0),
     computeWarmStart: !test,
-    chromiumPath: env['CHROMIUM_PATH'] || '/usr/bin/chromium',
+    chromiumPath: env['CHROMIUM_PATH'] || defaultChromiumPath(),
     solveJobTimeLimitMs: int(env, 'SOLVE_JOB_TIME_LIMIT_MS', 120_000, 50),
     solveJobRetainMs: int(env, 'SOLVE_JOB_RETAIN_MINUTES', 15, 0) * 60_000,
     // Tests hash many throwaway passwords; everything else uses a real cost.
@@ -205,4 +206,17 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     studyMaxActivePerTeam: int(env, 'STUDY_MAX_ACTIVE_PER_TEAM', 3, 1),
     inProcessWorker: flag(env, 'ROLLWISE_IN_PROCESS_WORKER', test),
   };
+}
+
+const HEADLESS_CHROMIUM = '/usr/lib/chromium/chromium-headless-shell';
+
+/**
+ * Debian's Chromium for printing and the browser tests: its headless build
+ * (package chromium-headless-shell) when installed, else the full browser.
+ * The headless build renders with the same engine without the desktop
+ * browser's machinery: in the browser tests it used about a quarter less CPU
+ * (146 against 199 CPU-s for the whole e2e project on the 2-core machine).
+ */
+export function defaultChromiumPath(): string {
+  return existsSync(HEADLESS_CHROMIUM) ? HEADLESS_CHROMIUM : '/usr/bin/chromium';
 }

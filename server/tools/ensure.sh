@@ -3,7 +3,7 @@
 # missing. npm itself runs this script, so it only needs bash and node.
 #   - node_modules: `npm ci` when missing, or not installed from this package-lock.json
 #   - PostgreSQL 15 (Debian package) when its server binary is absent
-#   - Debian's Chromium, for `npm test` only (browser tests)
+#   - Debian's Chromium and its headless build, for `npm test` only (browser tests)
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 want="${1:-start}"
@@ -32,7 +32,8 @@ if [ ! -x /usr/lib/postgresql/15/bin/postgres ]; then
   apt_install postgresql
 fi
 
-if [ "$want" = test ] && [ ! -x /usr/bin/chromium ]; then
-  echo "[rollwise] installing Chromium (Debian package) for the browser tests…"
-  apt_install chromium
+if [ "$want" = test ] && { [ ! -x /usr/bin/chromium ] || [ ! -x /usr/lib/chromium/chromium-headless-shell ]; }; then
+  # The tests drive the headless build (lighter); `npm run bench` measures the UI in the full browser.
+  echo "[rollwise] installing Chromium and its headless build (Debian packages) for the browser tests…"
+  apt_install chromium chromium-headless-shell
 fi

@@ -12,6 +12,7 @@ import { join } from 'node:path';
 import { tmpdir } from 'node:os';
 import { chromium } from 'playwright-core';
 import type { TestProject } from 'vitest/node';
+import { defaultChromiumPath } from '../../server/config.js';
 import { migrateDatabase } from '../../server/db/migrate.js';
 import { seedDemo } from '../../server/db/seed.js';
 import { seedDemoProgramme } from '../../server/db/seed-programme.js';
@@ -40,7 +41,7 @@ export default async function setup(project: TestProject) {
   };
   try {
     browser = await chromium.launchServer({
-      executablePath: process.env['CHROMIUM_PATH'] ?? '/usr/bin/chromium',
+      executablePath: process.env['CHROMIUM_PATH'] || defaultChromiumPath(),
       headless: true,
       args: ['--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
       env: { ...process.env, HOME: home, XDG_CONFIG_HOME: join(home, 'config'), XDG_CACHE_HOME: join(home, 'cache') },
