@@ -2,8 +2,9 @@
  * Browser test of the Angular shell against the real server and a fresh,
  * seeded database (issue 2, "How it is checked"): sign in as the demo
  * engineer, see the team's vehicles, switch team, sign out. The harness
- * blocks and records any request leaving 127.0.0.1 and every console error;
- * each page here must end with none of either. Needs `npx ng build` first.
+ * blocks and records any request leaving 127.0.0.1 (proved first, with two
+ * planted requests) and every console error; each page here must end with
+ * none of either. Needs `npx ng build` first.
  */
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
@@ -79,6 +80,25 @@ function vehicleLinks(page: Page): Promise<string[]> {
 
 describe('Angular shell in Chromium', () => {
   const env = useE2eApp();
+
+  it('the harness refuses and records a request that leaves 127.0.0.1 (a host name and an address)', async () => {
+    // The checks every page here ends with (no request left 127.0.0.1, no console error) are only as good as this.
+    const page = await env.browser.newPage();
+    const tryBoth = () =>
+      page.evaluate(async () => {
+        const tryFetch = (url: string) => fetch(url, { mode: 'no-cors' }).then(() => 'answered', () => 'refused');
+        return [await tryFetch('http://offsite.example/font.woff2'), await tryFetch('http://203.0.113.7/pixel.png')];
+      });
+    // A page without a content security policy: the requests reach the network and are refused there.
+    await page.goto('about:blank');
+    expect(await tryBoth()).toEqual(['refused', 'refused']);
+    await expect.poll(() => offsiteRequests(page)).toEqual(['http://offsite.example/font.woff2', 'http://203.0.113.7/pixel.png']);
+    // The app's own pages refuse them before the network (their policy allows 127.0.0.1 only): a console error each.
+    await page.goto(`${env.app.baseUrl}/sign-in`);
+    expect(await tryBoth()).toEqual(['refused', 'refused']);
+    const refusedByPolicy = (host: string) => consoleErrors(page).some((e) => e.includes('Content Security Policy') && e.includes(host));
+    await expect.poll(() => ['offsite.example', '203.0.113.7'].filter(refusedByPolicy)).toEqual(['offsite.example', '203.0.113.7']);
+  });
 
   it('signs the demo engineer in, shows each team’s vehicles across a team switch, and signs out', async () => {
     const page = await newSettledPage(env.browser);
