@@ -1,15 +1,17 @@
 /**
  * Browser-test harness: the real server (on a fresh copy of the run's demo database template)
- * serving the production build, and the run's Chromium (Debian's, started once by
- * test/support/e2e-global-setup.ts) through playwright-core, a new context for every page.
+ * serving the production build, and a Chromium of the file's own (Debian's headless build when
+ * installed) driven in-process by playwright-core, a new context for every page.
  * Every page fails its test on a request that leaves 127.0.0.1, and records console errors
  * and uncaught page errors. Build the app first (`npx ng build`); npm test does.
  */
-import { existsSync, mkdirSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Download, type Locator, type Page } from 'playwright-core';
 import { AxeBuilder } from '@axe-core/playwright';
-import { afterAll, beforeAll, expect, inject } from 'vitest';
+import { afterAll, beforeAll, expect } from 'vitest';
+import { defaultChromiumPath } from '../../server/config.js';
 import { demoDatabaseUrl } from './db.js';
 import { freePort } from '../../server/tools/pg.js';
 
@@ -49,8 +51,8 @@ export async function startE2eApp(): Promise<E2eApp> {
 }
 
 /**
- * The app and the browser for one describe block: the server started before its tests and
- * stopped after them, the run's Chromium connected to (its contexts closed after them).
+ * The app and the browser for one describe block: the server and a Chromium started before its
+ * tests and stopped after them.
  * Read `env.app` and `env.browser` inside the tests.
  */
 export function useE2eApp(): { readonly app: E2eApp; readonly browser: E2eBrowser } {
@@ -88,7 +90,7 @@ export interface E2eBrowser {
   browser: Browser;
   /** A page in a new context (its own cookies and storage), guarded and recorded. */
   newPage(): Promise<Page>;
-  /** Closes this connection's contexts and disconnects; the run's Chromium goes on for the other files. */
+  /** Closes the contexts and the browser. */
   close(): Promise<void>;
 }
 
@@ -98,9 +100,20 @@ export interface E2eBrowser {
  */
 const CLOSED_PORT = 9;
 
-/** Connects to the run's Chromium (test/support/e2e-global-setup.ts). */
+/**
+ * Starts a Chromium for one file, driven in-process. (One browser per run, connected to over
+ * playwright's websocket, sent every message through the vitest main process as well: about
+ * 11 CPU-s in 45 s of browser tests. A start costs about 0.3 CPU-s.)
+ */
 export async function openBrowser(): Promise<E2eBrowser> {
-  const browser = await chromium.connect(inject('chromiumWsEndpoint'));
+  const home = mkdtempSync(join(tmpdir(), 'rollwise-chromium-'));
+  const browser = await chromium.launch({
+    executablePath: process.env['CHROMIUM_PATH'] || defaultChromiumPath(),
+    headless: true,
+    // Without the background-networking flags Chromium tries to reach Google's hosts at start.
+    args: ['--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    env: { ...process.env, HOME: home, XDG_CONFIG_HOME: join(home, 'config'), XDG_CACHE_HOME: join(home, 'cache') },
+  });
   const contexts: BrowserContext[] = [];
   return {
     browser,
@@ -128,6 +141,7 @@ export async function openBrowser(): Promise<E2eBrowser> {
     async close() {
       for (const c of contexts) await c.close().catch(() => undefined);
       await browser.close();
+      rmSync(home, { recursive: true, force: true });
     },
   };
 }
@@ -150,10 +164,7 @@ export async function saveScreenshot(page: Page, name: string): Promise<string> 
   return file;
 }
 
-/**
- * The text of a finished download. The browser is connected to, not launched here, so playwright
- * has no local path for the file (`download.path()` refuses): its content comes over the connection.
- */
+/** The text of a finished download (read through playwright, wherever it keeps the file). */
 export async function downloadedText(download: Download): Promise<string> {
   const stream = await download.createReadStream();
   const chunks: Buffer[] = [];
