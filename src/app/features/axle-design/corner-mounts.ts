@@ -103,8 +103,9 @@ const RATE = CORNER_RANGES.complianceRateNPerMm;
             <div class="rw-mount" [attr.data-mount]="m.path">
               <span class="rw-mount-name">{{ m.label }}</span>
               @if (editable()) {
-                <mat-slide-toggle [checked]="compliant(m)" (change)="setCompliant(m, $event.checked)">{{ compliant(m) ? 'Compliant' : 'Rigid' }}</mat-slide-toggle>
+                <mat-slide-toggle [checked]="compliant(m)" (change)="setCompliant(m, $event.checked)"><span class="rw-visually-hidden">{{ m.label }}: </span>Compliant</mat-slide-toggle>
               }
+              @if (!compliant(m)) { <span class="rw-rigid">Rigid</span> }
               @if (compliant(m) && editable()) {
                 @for (r of m.rates; track r.label) {
                   <mat-form-field appearance="outline" subscriptSizing="dynamic" [attr.data-rate]="rateId(m, r)">
@@ -115,8 +116,8 @@ const RATE = CORNER_RANGES.complianceRateNPerMm;
                   </mat-form-field>
                 }
                 @if (isPending(m)) { <p class="rw-muted" role="status">Enter {{ m.rates.length > 1 ? 'both rates' : 'the rate' }}; until then the mount stays rigid.</p> }
-              } @else if (!editable()) {
-                <span class="rw-setting-text">{{ rigid(m) ? 'rigid' : readOnlyRates(m) }}</span>
+              } @else if (!editable() && !rigid(m)) {
+                <span class="rw-setting-text">{{ readOnlyRates(m) }}</span>
               }
             </div>
             @for (w of unusual(m); track $index) { <p class="rw-unusual" role="note">Unusual: {{ w }}</p> }
@@ -134,6 +135,7 @@ const RATE = CORNER_RANGES.complianceRateNPerMm;
     .rw-choice-label, .rw-mount-name { min-width: 16rem; }
     mat-form-field { width: 11rem; }
     .rw-setting-text { margin: 0.25rem 1rem 0.25rem 0; }
+    .rw-rigid { font: var(--mat-sys-label-large); }
     .rw-muted { color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-body-small); margin: 0.25rem 0 0.5rem; }
     .rw-unusual { font: var(--mat-sys-body-small); margin: 0 0 0.25rem; }
   `,

@@ -150,7 +150,8 @@ function settingPaths(corner: Corner): string[] {
 
 /** The setting paths (`wheel.radius`, `steering.rackAxis`, `steered`, `bushings.lowerFront`, …) whose value differs between two corners. */
 export function changedSettings(a: Corner, b: Corner): string[] {
-  return settingPaths(a).filter((p) => JSON.stringify(read(a, p)) !== JSON.stringify(read(b, p)));
+  // Both corners' paths: a rack stroke changed before the corner stopped being steered still differs.
+  return [...new Set([...settingPaths(a), ...settingPaths(b)])].filter((p) => JSON.stringify(read(a, p)) !== JSON.stringify(read(b, p)));
 }
 
 /**
@@ -223,6 +224,9 @@ export function withSettingsFrom(corner: Corner, source: Corner): Corner {
     const value = read(source, path);
     // A rate the saved revision lacks is rigid there; any other setting it lacks is left as it is.
     if (value === undefined && !complianceMounts(corner).some((m) => m.path === path)) continue;
+    // A part this corner does not have (a spring, a bar) is not brought back by a setting of it.
+    const holder = path.split('.').slice(0, -1).join('.');
+    if (holder && !RATE_CONTAINERS.has(holder) && typeof read(copy, holder) !== 'object') continue;
     copy = withSetting(copy, path, null, value as SettingValue);
   }
   return copy;
