@@ -6,7 +6,7 @@ import type { DisplayUnits } from '../../core/api-types';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import type { Corner } from '../../../../shared/schema/corner';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
-import { clickToggle } from '../../../testing/material';
+import { chooseOption, matSelect, optionTexts } from '../../../testing/material';
 import { AxleDesignStore } from './axle-design-store';
 import { CornerMounts } from './corner-mounts';
 import { withSetting } from './corner-settings-model';
@@ -44,13 +44,14 @@ function setUp(corner: Corner, units: DisplayUnits = 'si', editable = true) {
     if (!found) throw new Error(`nothing at ${selector}`);
     return found;
   };
-  const radios = (setting: string) => [...at(`[data-setting="${setting}"]`).querySelectorAll('mat-radio-button')].map((b) => b.textContent.trim());
+  const options = (setting: string) => optionTexts(matSelect(el, `[data-setting="${setting}"] mat-select`));
   const choose = (setting: string, label: string) => {
-    clickToggle(at(`[data-setting="${setting}"]`), label);
+    chooseOption(matSelect(el, `[data-setting="${setting}"] mat-select`), label);
     tick();
   };
+  const box = (selector: string) => at(`${selector} input[type="checkbox"]`) as HTMLInputElement;
   const toggle = (selector: string) => {
-    at(`${selector} button[role="switch"]`).click();
+    box(selector).click();
     tick();
   };
   const rateInput = (id: string) => at(`mat-form-field[data-rate="${id}"] input`) as HTMLInputElement;
@@ -65,14 +66,14 @@ function setUp(corner: Corner, units: DisplayUnits = 'si', editable = true) {
     store.undo();
     tick();
   };
-  return { fixture, el, store, radios, choose, toggle, type, rateInput, error, undo, tick };
+  return { fixture, el, store, options, box, choose, toggle, type, rateInput, error, undo, tick };
 }
 
 describe('CornerMounts', () => {
   it('offers every attachment a double wishbone allows; a choice goes into the store as one undo step', () => {
-    const { store, radios, choose, undo } = setUp(exampleCorners.fsFrontWishbone);
-    expect(radios('spring.rodOuterOn')).toEqual(['Upright', 'Lower arm', 'Upper arm']);
-    expect(radios('antiRollBar.dropLinkOuterOn')).toEqual(['Upright', 'Lower arm', 'Upper arm']);
+    const { store, options, choose, undo } = setUp(exampleCorners.fsFrontWishbone);
+    expect(options('spring.rodOuterOn')).toEqual(['Upright', 'Lower arm', 'Upper arm']);
+    expect(options('antiRollBar.dropLinkOuterOn')).toEqual(['Upright', 'Lower arm', 'Upper arm']);
     choose('spring.rodOuterOn', 'Upper arm');
     const c = store.corner()!;
     expect(c.spring?.kind === 'rocker' && c.spring.rodOuterOn).toBe('upperArm');
@@ -86,18 +87,18 @@ describe('CornerMounts', () => {
 
   it('offers a strut no upper arm and a five-link corner only the upright (the corner rules: neither has an upper arm, a five-link no arm)', () => {
     const strut = setUp(exampleCorners.roadFrontStrut);
-    expect(strut.radios('spring.springOuterOn')).toEqual(['Upright', 'Lower arm']);
+    expect(strut.options('spring.springOuterOn')).toEqual(['Upright', 'Lower arm']);
     strut.choose('spring.springOuterOn', 'Lower arm');
     const c = strut.store.corner()!;
     expect(c.spring?.kind === 'direct' && c.spring.springOuterOn).toBe('lowerArm');
     TestBed.resetTestingModule();
     const fiveLink = setUp(exampleCorners.roadRearFiveLink);
-    expect(fiveLink.radios('spring.springOuterOn')).toEqual(['Upright']);
+    expect(fiveLink.options('spring.springOuterOn')).toEqual(['Upright']);
   });
 
   it('picks the toe link of a five-link corner, and undoes it', () => {
-    const { store, radios, choose, undo, el } = setUp(exampleCorners.roadRearFiveLink);
-    expect(radios('toeLink')).toEqual(['Link 1', 'Link 2', 'Link 3', 'Link 4', 'Link 5']);
+    const { store, options, choose, undo, el } = setUp(exampleCorners.roadRearFiveLink);
+    expect(options('toeLink')).toEqual(['Link 1', 'Link 2', 'Link 3', 'Link 4', 'Link 5']);
     expect(el.querySelector('[data-group="steering"]')!.textContent).toContain('Link 5 is a fixed toe link');
     choose('toeLink', 'Link 3');
     const c = store.corner()!;
@@ -125,7 +126,7 @@ describe('CornerMounts', () => {
     expect(rear.store.canUndo()).toBe(false);
     // The corner rules' words (shared/schema/corner-rules.ts), with no document key left in them.
     expect(rear.error('steered')).toBe('Steered: a steered corner needs its steering rack or steering-box arm, which this corner does not define.');
-    expect(rear.el.querySelector<HTMLButtonElement>('[data-setting="steered"] button[role="switch"]')!.getAttribute('aria-checked')).toBe('false');
+    expect(rear.box('[data-setting="steered"]').checked).toBe(false);
   });
 
   it('refuses a fixed toe link while the steering has a rate, in words, and sends nothing', () => {
@@ -153,7 +154,7 @@ describe('CornerMounts', () => {
     type('bushings.lowerFront.axialNPerMm', '500');
     expect(store.corner()!.bushings).toEqual({ lowerFront: { radialNPerMm: 2000, axialNPerMm: 500 } });
     expect(el.querySelector(`${mount} .rw-rigid`)).toBeNull();
-    expect(el.querySelector(`${mount} button[role="switch"]`)!.getAttribute('aria-checked')).toBe('true');
+    expect((el.querySelector(`${mount} input[type="checkbox"]`) as HTMLInputElement).checked).toBe(true);
     // An edit of one rate of a compliant bushing.
     type('bushings.lowerFront.axialNPerMm', '650');
     expect(store.corner()!.bushings).toEqual({ lowerFront: { radialNPerMm: 2000, axialNPerMm: 650 } });
@@ -219,9 +220,10 @@ describe('CornerMounts', () => {
 
   it('gives a read-only user the choices and rates as text, "rigid" where a rate is absent', () => {
     const { el } = setUp(withSetting(exampleCorners.fsFrontWishbone, 'bushings.lowerRear', null, { radialNPerMm: 3000, axialNPerMm: 800 }), 'si', false);
-    expect(el.querySelector('mat-slide-toggle, mat-radio-group, input')).toBeNull();
+    expect(el.querySelector('mat-checkbox, mat-select, input')).toBeNull();
     expect(el.querySelector('[data-setting="steered"]')!.textContent.trim()).toBe('Steered');
-    expect(el.querySelector('[data-setting="spring.rodOuterOn"]')!.textContent).toContain('Lower arm');
+    expect(el.querySelector('[data-setting="spring.rodOuterOn"]')!.textContent.trim()).toBe('Push/pull rod, outer end rides on: Lower arm');
+    expect(el.querySelector('[data-setting="antiRollBar.dropLinkOuterOn"]')!.textContent.trim()).toBe('Anti-roll bar drop link, suspension end rides on: Lower arm');
     expect(el.querySelector('[data-mount="bushings.lowerFront"] .rw-rigid')!.textContent.trim()).toBe('Rigid');
     expect(el.querySelector('[data-mount="bushings.lowerRear"]')!.textContent).toContain('radial 3000 N/mm, axial 800 N/mm');
   });

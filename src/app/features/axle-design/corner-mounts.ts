@@ -1,8 +1,8 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input, output, signal } from '@angular/core';
 import { MatError, MatFormField, MatLabel, MatSuffix } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
-import { MatRadioButton, MatRadioGroup } from '@angular/material/radio';
-import { MatSlideToggle, type MatSlideToggleChange } from '@angular/material/slide-toggle';
+import { MatCheckbox, type MatCheckboxChange } from '@angular/material/checkbox';
+import { MatOption, MatSelect } from '@angular/material/select';
 import type { Corner } from '../../../../shared/schema/corner';
 import type { Attachment } from '../../../../shared/schema/corner-rules';
 import { issueWords, wordNumber, type FigureWords } from '../../../../shared/schema/issue-words';
@@ -34,7 +34,7 @@ const RATE = CORNER_RANGES.complianceRateNPerMm;
  * pushrod's) outer end and the anti-roll bar's drop link ride on (only the
  * parts the corner type has), and the compliance rates: each bushing's radial
  * and axial rate, each single link's own axial stiffness and the steering's
- * rate at the rack. A rate left out is rigid and says so; its switch makes it
+ * rate at the rack. A rate left out is rigid and says so; its Compliant box makes it
  * compliant (both rates of a bushing are asked for before it is committed) or
  * rigid again. Rates in the user's unit (N/mm or lbf/in). Every change is
  * checked with the corner's own rules (shared/schema/corner-rules.ts) before
@@ -43,30 +43,30 @@ const RATE = CORNER_RANGES.complianceRateNPerMm;
  */
 @Component({
   selector: 'rw-corner-mounts',
-  imports: [MatFormField, MatLabel, MatSuffix, MatError, MatInput, MatRadioGroup, MatRadioButton, MatSlideToggle, ErrorState],
+  imports: [MatFormField, MatLabel, MatSuffix, MatError, MatInput, MatSelect, MatOption, MatCheckbox, ErrorState],
   template: `
     <section class="rw-corner-mounts" aria-labelledby="rw-corner-mounts-title">
       <h3 id="rw-corner-mounts-title">Attachments, steering and compliance</h3>
       <fieldset data-group="steering">
         <legend>Steering</legend>
         @if (editable()) {
-          <mat-slide-toggle data-setting="steered" [checked]="corner().steered" (change)="setSteered($event)">Steered</mat-slide-toggle>
+          <mat-checkbox data-setting="steered" [checked]="corner().steered" (change)="setSteered($event)">Steered</mat-checkbox>
         } @else {
           <p class="rw-setting-text" data-setting="steered">{{ corner().steered ? 'Steered' : 'Not steered' }}</p>
         }
         <p class="rw-muted">{{ steeringNote() }}</p>
         @if (errors().get('steered'); as e) { <p class="rw-form-error" role="alert" data-error="steered">{{ e }}</p> }
         @if (toeLink(); as t) {
-          <div class="rw-choice" data-setting="toeLink">
-            <span class="rw-choice-label" id="rw-toe-link-label">Toe link</span>
-            @if (editable()) {
-              <mat-radio-group #toe="matRadioGroup" aria-labelledby="rw-toe-link-label" [value]="t" (change)="chooseToeLink(toe, $event.value)">
-                @for (n of links; track n) { <mat-radio-button [value]="n">Link {{ n }}</mat-radio-button> }
-              </mat-radio-group>
-            } @else {
-              <span>Link {{ t }}</span>
-            }
-          </div>
+          @if (editable()) {
+            <mat-form-field appearance="outline" subscriptSizing="dynamic" data-setting="toeLink">
+              <mat-label>Toe link</mat-label>
+              <mat-select #toe [value]="t" (selectionChange)="chooseToeLink(toe, $event.value)">
+                @for (n of links; track n) { <mat-option [value]="n">Link {{ n }}</mat-option> }
+              </mat-select>
+            </mat-form-field>
+          } @else {
+            <p class="rw-setting-text" data-setting="toeLink">Toe link: link {{ t }}</p>
+          }
           @if (errors().get('toeLink'); as e) { <p class="rw-form-error" role="alert" data-error="toeLink">{{ e }}</p> }
         }
       </fieldset>
@@ -76,16 +76,16 @@ const RATE = CORNER_RANGES.complianceRateNPerMm;
           <legend>What the parts ride on</legend>
           <p class="rw-muted">The part of the suspension each end is carried by; only the parts this corner type has are offered.</p>
           @for (f of attachments(); track f.path) {
-            <div class="rw-choice" [attr.data-setting]="f.path">
-              <span class="rw-choice-label" [id]="labelId(f.path)">{{ f.label }}</span>
-              @if (editable()) {
-                <mat-radio-group #g="matRadioGroup" [attr.aria-labelledby]="labelId(f.path)" [value]="f.value" (change)="chooseAttachment(g, f.path, $event.value)">
-                  @for (o of f.options; track o) { <mat-radio-button [value]="o">{{ words[o] }}</mat-radio-button> }
-                </mat-radio-group>
-              } @else {
-                <span>{{ words[f.value] }}</span>
-              }
-            </div>
+            @if (editable()) {
+              <mat-form-field class="rw-choice-field" appearance="outline" subscriptSizing="dynamic" [attr.data-setting]="f.path">
+                <mat-label>{{ f.label }}</mat-label>
+                <mat-select #g [value]="f.value" (selectionChange)="chooseAttachment(g, f.path, $event.value)">
+                  @for (o of f.options; track o) { <mat-option [value]="o">{{ words[o] }}</mat-option> }
+                </mat-select>
+              </mat-form-field>
+            } @else {
+              <p class="rw-setting-text" [attr.data-setting]="f.path">{{ f.label }}: {{ words[f.value] }}</p>
+            }
             @if (errors().get(f.path); as e) { <p class="rw-form-error" role="alert" [attr.data-error]="f.path">{{ e }}</p> }
           }
         </fieldset>
@@ -103,7 +103,7 @@ const RATE = CORNER_RANGES.complianceRateNPerMm;
             <div class="rw-mount" [attr.data-mount]="m.path">
               <span class="rw-mount-name">{{ m.label }}</span>
               @if (editable()) {
-                <mat-slide-toggle [checked]="compliant(m)" (change)="setCompliant(m, $event.checked)"><span class="rw-visually-hidden">{{ m.label }}: </span>Compliant</mat-slide-toggle>
+                <mat-checkbox [checked]="compliant(m)" (change)="setCompliant(m, $event.checked)"><span class="rw-visually-hidden">{{ m.label }}: </span>Compliant</mat-checkbox>
               }
               @if (!compliant(m)) { <span class="rw-rigid">Rigid</span> }
               @if (compliant(m) && editable()) {
@@ -131,9 +131,10 @@ const RATE = CORNER_RANGES.complianceRateNPerMm;
     fieldset { border: 1px solid var(--mat-sys-outline-variant); border-radius: 8px; margin: 0 0 0.75rem; padding: 0.25rem 0.75rem 0.75rem; }
     legend { font: var(--mat-sys-title-small); padding: 0 0.25rem; }
     h4 { font: var(--mat-sys-label-large); margin: 0.75rem 0 0.25rem; }
-    .rw-choice, .rw-mount { display: flex; flex-wrap: wrap; align-items: center; gap: 0.25rem 1rem; margin: 0.25rem 0; }
-    .rw-choice-label, .rw-mount-name { min-width: 16rem; }
-    mat-form-field { width: 11rem; }
+    .rw-mount { display: flex; flex-wrap: wrap; align-items: center; gap: 0.25rem 1rem; margin: 0.25rem 0; }
+    .rw-mount-name { min-width: 16rem; }
+    mat-form-field { width: 11rem; margin: 0.25rem 1rem 0.25rem 0; }
+    .rw-choice-field { width: 24rem; }
     .rw-setting-text { margin: 0.25rem 1rem 0.25rem 0; }
     .rw-rigid { font: var(--mat-sys-label-large); }
     .rw-muted { color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-body-small); margin: 0.25rem 0 0.5rem; }
@@ -176,10 +177,6 @@ export class CornerMounts {
   /** Mounts switched to compliant whose rates are not all given yet, with the rates typed so far (stored units). */
   private readonly pending = signal<ReadonlyMap<string, ReadonlyMap<string, number>>>(new Map());
 
-  protected labelId(path: string): string {
-    return `rw-on-${path.replace(/\./g, '-')}`;
-  }
-
   protected rateId(m: ComplianceMount, r: MountRate): string {
     return r.key ? `${m.path}.${r.key}` : m.path;
   }
@@ -215,17 +212,17 @@ export class CornerMounts {
     });
   }
 
-  protected setSteered(event: MatSlideToggleChange): void {
+  protected setSteered(event: MatCheckboxChange): void {
     if (!this.send('steered', 'steered', event.checked, 'Steered')) event.source.checked = this.corner().steered;
   }
 
-  protected chooseToeLink(group: MatRadioGroup, link: number): void {
-    if (!this.send('toeLink', 'toeLink', link, 'Toe link')) group.value = this.toeLink();
+  protected chooseToeLink(select: MatSelect, link: number): void {
+    if (!this.send('toeLink', 'toeLink', link, 'Toe link')) select.value = this.toeLink();
   }
 
-  protected chooseAttachment(group: MatRadioGroup, path: string, on: Attachment): void {
+  protected chooseAttachment(select: MatSelect, path: string, on: Attachment): void {
     const field = this.attachments().find((f) => f.path === path);
-    if (field && !this.send(path, path, on, field.label.replace(/ rides on$/, ''))) group.value = field.value;
+    if (field && !this.send(path, path, on, field.label.replace(/ rides on$/, ''))) select.value = field.value;
   }
 
   protected setCompliant(m: ComplianceMount, on: boolean): void {

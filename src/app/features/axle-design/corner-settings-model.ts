@@ -200,16 +200,20 @@ const TUPLE_WORDS: Readonly<Record<string, string>> = {
 /** A setting of `corner` as one row of a list of differences: its name in words, its kind and its numbers or words (undefined when the corner lacks it: a rate then is rigid). */
 export function settingRow(corner: Corner, path: string): { name: string; kind: SettingKind; value: readonly number[] | string | undefined } {
   const v = read(corner, path);
+  // A steering setting of a version of the corner that is not steered is named as on the steered one.
+  const named: Corner = { ...corner, steered: true };
+  const holds = (p: { readonly path: string }) => p.path === path;
   if (path === 'steered') return { name: 'Steering', kind: 'choice', value: corner.steered ? 'steered' : 'fixed toe link' };
   if (path === 'toeLink') return { name: 'Toe link', kind: 'choice', value: typeof v === 'number' ? `link ${v}` : undefined };
   const attachment = cornerAttachments(corner).find((f) => f.path === path);
   if (attachment) return { name: attachment.label, kind: 'choice', value: ATTACHMENT_WORDS[attachment.value].toLowerCase() };
-  const mount = complianceMounts(corner).find((m) => m.path === path);
+  const mount = complianceMounts(corner).find(holds) ?? complianceMounts(named).find(holds);
   if (mount) {
     const rates = mount.rates.map((r) => r.value);
     return { name: `${mount.group}, ${mount.label}${mount.rates.length > 1 ? ` (${mount.rates.map((r) => r.label.toLowerCase()).join(', ')})` : ''}`, kind: 'rate', value: rates.every((r) => r === undefined) ? undefined : rates.map((r) => r ?? NaN) };
   }
-  const group = cornerSettings(corner).find((g) => g.fields.some((f) => f.path === path));
+  const inGroup = (g: SettingGroup) => g.fields.some(holds);
+  const group = cornerSettings(corner).find(inGroup) ?? cornerSettings(named).find(inGroup);
   const field = group?.fields.find((f) => f.path === path);
   const value = typeof v === 'number' ? [v] : Array.isArray(v) ? (v as number[]) : undefined;
   if (!group || !field) return { name: path, kind: 'direction', value };

@@ -141,6 +141,9 @@ describe('CornerSettings', () => {
     expect(settingRow(edited, 'bushings.lowerFront')).toEqual({ name: 'Bushings, Lower arm, front pivot (radial, axial)', kind: 'rate', value: [2000, 500] });
     expect(settingRow(c, 'bushings.lowerFront').value).toBeUndefined();
     expect(settingRow(edited, 'steered').value).toBe('fixed toe link');
+    // A steering setting keeps its name in a version that is not steered (the other side of a save conflict).
+    expect(settingRow(edited, 'steering.rackStroke')).toEqual({ name: 'Steering rack, stroke (right, left)', kind: 'length', value: [-30, 35] });
+    expect(settingRow(exampleCorners.fsRearWishbone, 'steeringStiffnessNPerMm')).toEqual({ name: 'Steering, Steering at the rack, along its travel', kind: 'rate', value: undefined });
     expect(settingRow(edited, 'antiRollBar.dropLinkOuterOn')).toEqual({ name: 'Anti-roll bar drop link, suspension end rides on', kind: 'choice', value: 'upright' });
     // The last rate of a container gone, the container goes too: the document is as it was.
     expect(withSetting(withSetting(c, 'linkAxialNPerMm.tieRod', null, 9000), 'linkAxialNPerMm.tieRod', null, undefined)).toEqual(c);
