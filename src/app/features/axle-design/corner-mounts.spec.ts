@@ -109,6 +109,21 @@ describe('CornerMounts', () => {
     expect(back.type === 'five-link' && back.toeLink).toBe(5);
   });
 
+  it('refuses a toe link the steering arm cannot move, in the corner rules\' words, and keeps the one chosen', () => {
+    // A steered five-link corner on a steering-box arm whose axis runs through link 3's body end (invented for the rule).
+    const five = exampleCorners.roadRearFiveLink;
+    const onArm: Corner = { ...five, steered: true, steering: { kind: 'arm', armAxisPoint: five.points.link3Inner, armAxisDirection: [0, 0, 1], angularStrokeDeg: [-30, 30] } };
+    const { store, choose, error, el } = setUp(onArm);
+    choose('toeLink', 'Link 3');
+    expect(store.canUndo()).toBe(false);
+    expect(error('toeLink')).toBe('Toe link: Link 3, body end lies on the steering arm axis (the arm pivot point): the arm has no length.');
+    expect(el.querySelector('[data-setting="toeLink"] mat-select')!.textContent.trim()).toBe('Link 5');
+    choose('toeLink', 'Link 4');
+    const c = store.corner()!;
+    expect(c.type === 'five-link' && c.toeLink).toBe(4);
+    expect(error('toeLink')).toBeUndefined();
+  });
+
   it('turns steering off and on through the store; a corner without a rack or arm cannot be steered, said in words', () => {
     const front = setUp(exampleCorners.fsFrontWishbone);
     front.toggle('[data-setting="steered"]');
