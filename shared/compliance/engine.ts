@@ -25,7 +25,8 @@
  * pose solver's loops: the rows are rebuilt from the solved state.
  */
 import { SolveError } from '../errors.js';
-import { BUSHING_POINTS, type Bushing } from '../schema/corner.js';
+import type { Bushing } from '../schema/corner.js';
+import { BUSHING_POINTS } from '../schema/corner-rules.js';
 import type { CornerModel } from '../kinematics/model.js';
 import type { CornerSolver } from '../kinematics/solver.js';
 import { DEG_PER_RAD } from '../angles.js';

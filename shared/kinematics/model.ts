@@ -4,7 +4,8 @@
  * centre, design rotation = identity), link lengths, the strut line, the
  * steering input and the spring / bar mechanisms. All lengths mm.
  */
-import { cornerSchema, cornerSemanticIssues, type Corner, type Vec3, type Attachment } from '../schema/corner.js';
+import { cornerSchema, type Corner, type Vec3 } from '../schema/corner.js';
+import { cornerSemanticIssues, type Attachment } from '../schema/corner-rules.js';
 import { InputError, parseOrThrow } from '../errors.js';
 import { cross, dot, norm, sub, unit, scale } from './vec.js';
 

@@ -5,7 +5,8 @@
  * solver's analytic pose tangents, not finite differences.
  */
 import { SolveError } from '../errors.js';
-import type { Vec3, Attachment } from '../schema/corner.js';
+import type { Vec3 } from '../schema/corner.js';
+import type { Attachment } from '../schema/corner-rules.js';
 import type { ArmModel, LeverModel } from './model.js';
 import type { CornerSolver } from './solver.js';
 import { add, cross, dot, norm, sub, scale, rotateOffsetCsInto } from './vec.js';

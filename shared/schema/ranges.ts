@@ -104,6 +104,11 @@ export const CORNER_RANGES = {
   kingpinLengthMm: pos('kingpin length', 'mm', 1500, [120, 600]),
   rackStrokeMm: r('rack stroke end', 'mm', -500, 500, [-120, 120]),
   armStrokeDeg: r('steering arm stroke end', 'deg', -180, 180, [-60, 60]),
+  /**
+   * A compliance rate (a bushing's radial or axial rate, a link's own axial stiffness, the steering at the rack);
+   * absent is rigid. Above 1e7 N/mm a mount is rigid in all but name (a short solid steel link is about 2e5 N/mm).
+   */
+  complianceRateNPerMm: pos('compliance rate', 'N/mm', 1e7, [50, 500_000]),
 } as const satisfies Record<string, InputRange>;
 
 export const INTENT_RANGES = {

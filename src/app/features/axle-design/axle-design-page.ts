@@ -31,6 +31,7 @@ import { checkTravelRange, type TravelRange } from './sweep-settings';
 import { CostStage } from './cost-stage';
 import { GeometryDrawings } from './geometry-drawings';
 import { CornerSettings } from './corner-settings';
+import { CornerMounts } from './corner-mounts';
 import { revisionAuthor } from '../features-api';
 import { SectionNav, type PageSection } from '../../core/layout/section-nav';
 import { LocalTimePipe } from '../../core/time/local-time';
@@ -95,6 +96,7 @@ function storedProfile(designId: string): TrackProfileId | null {
     SectionNav,
     GeometryDrawings,
     CornerSettings,
+    CornerMounts,
     CostStage,
     LineChart,
     SafetyCaution,

@@ -106,6 +106,31 @@ describe('AxleDesignStore', () => {
     http.expectOne('/api/teams/t1/axle-designs/d1/proposals').flush([]);
   });
 
+  it('takes a choice and a compliance rate through the same setting edit: unsaved, undone, restored to rigid, and saved with the corner', async () => {
+    store.editSetting('steered', null, false);
+    store.editSetting('bushings.lowerFront', null, { radialNPerMm: 2000, axialNPerMm: 500 });
+    expect(store.corner()!.steered).toBe(false);
+    expect(store.changed()).toEqual(['steered', 'bushings.lowerFront']);
+    expect(store.dirty()).toBe(true);
+    store.undo();
+    expect(store.corner()!.bushings).toBeUndefined();
+    store.redo();
+    // Restoring the saved settings makes the bushing rigid again (the saved corner has none) and steers the wheel again.
+    store.restoreSettings();
+    expect(store.corner()).toEqual(corner);
+    expect(store.dirty()).toBe(false);
+    store.undo();
+    const saving = store.save('');
+    const put = http.expectOne('/api/teams/t1/axle-designs/d1/corner');
+    expect(put.request.body.corner.bushings).toEqual({ lowerFront: { radialNPerMm: 2000, axialNPerMm: 500 } });
+    expect(put.request.body.corner.steered).toBe(false);
+    put.flush(design('d1', 5, store.corner()!));
+    await expect(saving).resolves.toBe(true);
+    await settle();
+    http.expectOne('/api/teams/t1/axle-designs/d1/revisions').flush([]);
+    http.expectOne('/api/teams/t1/axle-designs/d1/proposals').flush([]);
+  });
+
   it('saves over the loaded revision with the note, and refreshes the revision list', async () => {
     store.editPoint(KEY, moved(corner, 5));
     const saving = store.save('  raised the upper ball joint  ');

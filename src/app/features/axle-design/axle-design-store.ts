@@ -7,7 +7,7 @@ import { loadState } from '../../core/http/load-state';
 import { TeamAccess } from '../../core/teams/team-access';
 import { AxleDesign, FeaturesApi, Proposal, RevisionRow } from '../features-api';
 import { EditHistory } from './edit-history';
-import { changedSettings, settingRow, withSetting, withSettingsFrom, type SettingKind } from './corner-settings-model';
+import { changedSettings, settingRow, withSetting, withSettingsFrom, type SettingKind, type SettingValue } from './corner-settings-model';
 import { changedPoints, getPoint, pointName, withPoint, withPoints } from './hardpoint-model';
 
 /** Which design the editor shows (the route's parameters). */
@@ -22,8 +22,9 @@ export interface ConflictRow {
   readonly key: string;
   readonly name: string;
   readonly kind: SettingKind;
-  readonly theirs: readonly number[] | undefined;
-  readonly yours: readonly number[] | undefined;
+  /** Numbers in stored units, or words for a choice; undefined where that version lacks it (a rate: rigid). */
+  readonly theirs: readonly number[] | string | undefined;
+  readonly yours: readonly number[] | string | undefined;
 }
 
 /** Someone else saved first: their revision, and each point or setting where it differs from ours. */
@@ -136,15 +137,18 @@ export class AxleDesignStore {
     this.notice.set(null);
   }
 
-  /** Changes one setting that is not a point (wheel radius, a stroke end, an axis component); a new undo step. */
-  editSetting(path: string, index: number | null, value: number): void {
+  /**
+   * Changes one setting that is not a point (wheel radius, a stroke end, an axis component, what a part rides on,
+   * the toe link, steered, a compliance rate; undefined makes a rate rigid again); a new undo step.
+   */
+  editSetting(path: string, index: number | null, value: SettingValue): void {
     const c = this.corner();
     if (!c) return;
     this.history.commit(withSetting(c, path, index, value));
     this.notice.set(null);
   }
 
-  /** Puts back the saved revision's settings that are not points (wheel radius, strokes, axes); one undo step, the points kept. */
+  /** Puts back the saved revision's settings that are not points (wheel radius, strokes, axes, choices, rates); one undo step, the points kept. */
   restoreSettings(): void {
     const c = this.corner();
     const s = this.saved();

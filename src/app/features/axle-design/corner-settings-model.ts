@@ -1,8 +1,22 @@
 import type { Corner } from '../../../../shared/schema/corner';
-import { CORNER_RANGES, type InputRange } from '../../../../shared/schema/ranges';
+import { BUSHING_POINTS, STIFF_LINKS, attachmentIssue, cornerSemanticIssues, type Attachment } from '../../../../shared/schema/corner-rules';
+import { CORNER_RANGES, formatRangeValue, type InputRange } from '../../../../shared/schema/ranges';
+import type { DisplayUnits } from '../../core/api-types';
+import { fromDisplayUnits, inDisplayUnits, type QuantityKind } from '../../core/format/quantities';
+import { parseDecimal } from './hardpoint-io';
+import { pointName } from './hardpoint-model';
 
-/** What a setting measures: a length (mm stored, the user's unit shown), an angle (deg) or a direction component (no unit). */
-export type SettingKind = 'length' | 'angle' | 'direction';
+/**
+ * What a setting measures: a length (mm stored, the user's unit shown), an angle (deg), a direction component (no
+ * unit), a compliance rate (N/mm stored, the user's unit shown; absent is rigid) or a choice (words).
+ */
+export type SettingKind = 'length' | 'angle' | 'direction' | 'rate' | 'choice';
+
+/**
+ * What a setting is set to: a number, a choice (an attachment), a flag (steered), a bushing's two rates; undefined
+ * takes a rate's key out of the corner (the mount is rigid again).
+ */
+export type SettingValue = number | string | boolean | Readonly<Record<string, number>> | undefined;
 
 /**
  * One number of a corner that is not a hardpoint position (the hardpoint
@@ -83,26 +97,61 @@ function read(corner: Corner, path: string): unknown {
   return v;
 }
 
-/** A copy of the corner with the setting at `path` (a number, or one component of a tuple) replaced; the input is not changed. */
-export function withSetting(corner: Corner, path: string, index: number | null, value: number): Corner {
-  const copy = structuredClone(corner);
+/** Containers of rates that the corner may lack (every mount rigid): created by the first rate, dropped with the last. */
+const RATE_CONTAINERS = new Set(['bushings', 'linkAxialNPerMm']);
+
+/**
+ * A copy of the corner with the setting at `path` (a value, or one component of a tuple) replaced; undefined takes the
+ * key out (a rate back to rigid). The input is not changed.
+ */
+export function withSetting(corner: Corner, path: string, index: number | null, value: SettingValue): Corner {
+  const copy = structuredClone(corner) as unknown as Record<string, unknown>;
   const keys = path.split('.');
-  const parent = read(copy, keys.slice(0, -1).join('.')) as Record<string, unknown> | undefined;
-  const last = keys[keys.length - 1]!;
-  if (!parent || typeof parent !== 'object') throw new Error(`This corner has no ${path}`);
-  if (index === null) parent[last] = value;
-  else {
+  const last = keys.pop()!;
+  const chain: Record<string, unknown>[] = [copy];
+  for (const k of keys) {
+    const parent = chain[chain.length - 1]!;
+    if (parent[k] === undefined && RATE_CONTAINERS.has(k) && value !== undefined) parent[k] = {};
+    const next = parent[k];
+    if (next === null || typeof next !== 'object') {
+      if (value === undefined) return corner;
+      throw new Error(`This corner has no ${path}`);
+    }
+    chain.push(next as Record<string, unknown>);
+  }
+  const parent = chain[chain.length - 1]!;
+  if (index === null) {
+    if (value === undefined) delete parent[last];
+    else parent[last] = structuredClone(value);
+  } else {
     const tuple = parent[last];
     if (!Array.isArray(tuple)) throw new Error(`This corner has no ${path}`);
     parent[last] = tuple.map((x: number, i) => (i === index ? value : x));
   }
-  return copy;
+  // The last rate of a container gone: the container goes too (the document says "rigid" by leaving it out).
+  for (let i = keys.length - 1; i >= 0; i--) {
+    const holder = chain[i]!;
+    const k = keys[i]!;
+    if (RATE_CONTAINERS.has(k) && Object.keys(holder[k] as object).length === 0) delete holder[k];
+  }
+  return copy as unknown as Corner;
 }
 
-/** The setting paths (`wheel.radius`, `steering.rackAxis`, …) whose value differs between two corners. */
+/** Every setting path of a corner that is not a point: the numbers above, then the choices and the compliance rates. */
+function settingPaths(corner: Corner): string[] {
+  return [
+    ...cornerSettings(corner).flatMap((g) => g.fields.map((f) => f.path)),
+    'steered',
+    ...(corner.type === 'five-link' ? ['toeLink'] : []),
+    ...cornerAttachments(corner).map((f) => f.path),
+    ...complianceMounts(corner).map((m) => m.path),
+  ].filter((p, i, all) => all.indexOf(p) === i);
+}
+
+/** The setting paths (`wheel.radius`, `steering.rackAxis`, `steered`, `bushings.lowerFront`, …) whose value differs between two corners. */
 export function changedSettings(a: Corner, b: Corner): string[] {
-  const paths = [...new Set(cornerSettings(a).flatMap((g) => g.fields.map((f) => f.path)))];
-  return paths.filter((p) => JSON.stringify(read(a, p)) !== JSON.stringify(read(b, p)));
+  // Both corners' paths: a rack stroke changed before the corner stopped being steered still differs.
+  return [...new Set([...settingPaths(a), ...settingPaths(b)])].filter((p) => JSON.stringify(read(a, p)) !== JSON.stringify(read(b, p)));
 }
 
 /**
@@ -120,6 +169,23 @@ export function settingRule(corner: Corner, field: SettingField, value: number):
   return null;
 }
 
+/**
+ * A number typed into a setting's field (`label`), in the user's units when it has a quantity `kind` (shown with
+ * `unit`): the stored value, or what is wrong with it in words (not a number, outside its possible range).
+ */
+export function typedSetting(text: string, label: string, range: InputRange, kind: QuantityKind | null, unit: string, units: DisplayUnits): { value: number } | { problem: string } {
+  const typed = parseDecimal(text);
+  if (typed === null) return { problem: `${label}: "${text}" is not a number${unit ? ` of ${unit}` : ''}.` };
+  const value = kind ? fromDisplayUnits(typed, kind, units) : typed;
+  const below = range.minExclusive ? value <= range.min : value < range.min;
+  if (!below && value <= range.max) return { value };
+  const [lo, hi] = [range.min, range.max].map((v) => formatRangeValue(kind ? inDisplayUnits(v, kind, units) : v));
+  const withUnit = unit ? ` ${unit}` : '';
+  return {
+    problem: range.minExclusive ? `${label}: ${text} is outside the possible range, more than ${lo} and at most ${hi}${withUnit}.` : `${label}: ${text} is outside ${lo} to ${hi}${withUnit}.`,
+  };
+}
+
 /** How a tuple setting reads as one row of a list of differences. */
 const TUPLE_WORDS: Readonly<Record<string, string>> = {
   'steering.rackStroke': 'stroke (right, left)',
@@ -131,11 +197,24 @@ const TUPLE_WORDS: Readonly<Record<string, string>> = {
   'antiRollBar.barAxisDirection': 'axis (x, y, z)',
 };
 
-/** A setting of `corner` as one row of a list of differences: its name in words, its kind and its numbers (undefined when the corner lacks it). */
-export function settingRow(corner: Corner, path: string): { name: string; kind: SettingKind; value: readonly number[] | undefined } {
-  const group = cornerSettings(corner).find((g) => g.fields.some((f) => f.path === path));
-  const field = group?.fields.find((f) => f.path === path);
+/** A setting of `corner` as one row of a list of differences: its name in words, its kind and its numbers or words (undefined when the corner lacks it: a rate then is rigid). */
+export function settingRow(corner: Corner, path: string): { name: string; kind: SettingKind; value: readonly number[] | string | undefined } {
   const v = read(corner, path);
+  // A steering setting of a version of the corner that is not steered is named as on the steered one.
+  const named: Corner = { ...corner, steered: true };
+  const holds = (p: { readonly path: string }) => p.path === path;
+  if (path === 'steered') return { name: 'Steering', kind: 'choice', value: corner.steered ? 'steered' : 'fixed toe link' };
+  if (path === 'toeLink') return { name: 'Toe link', kind: 'choice', value: typeof v === 'number' ? `link ${v}` : undefined };
+  const attachment = cornerAttachments(corner).find((f) => f.path === path);
+  if (attachment) return { name: attachment.label, kind: 'choice', value: ATTACHMENT_WORDS[attachment.value].toLowerCase() };
+  const mount = complianceMounts(corner).find(holds) ?? complianceMounts(named).find(holds);
+  if (mount) {
+    const rates = mount.rates.map((r) => r.value);
+    return { name: `${mount.group}, ${mount.label}${mount.rates.length > 1 ? ` (${mount.rates.map((r) => r.label.toLowerCase()).join(', ')})` : ''}`, kind: 'rate', value: rates.every((r) => r === undefined) ? undefined : rates.map((r) => r ?? NaN) };
+  }
+  const inGroup = (g: SettingGroup) => g.fields.some(holds);
+  const group = cornerSettings(corner).find(inGroup) ?? cornerSettings(named).find(inGroup);
+  const field = group?.fields.find((f) => f.path === path);
   const value = typeof v === 'number' ? [v] : Array.isArray(v) ? (v as number[]) : undefined;
   if (!group || !field) return { name: path, kind: 'direction', value };
   const words = field.index === null ? field.label.toLowerCase() : (TUPLE_WORDS[path] ?? path);
@@ -144,12 +223,114 @@ export function settingRow(corner: Corner, path: string): { name: string; kind: 
 
 /** A copy of `corner` with every setting that differs taken from `source` (the saved revision): the points stay as they are. */
 export function withSettingsFrom(corner: Corner, source: Corner): Corner {
-  const copy = structuredClone(corner);
+  let copy = corner;
   for (const path of changedSettings(corner, source)) {
-    const keys = path.split('.');
-    const parent = read(copy, keys.slice(0, -1).join('.')) as Record<string, unknown> | undefined;
     const value = read(source, path);
-    if (parent && typeof parent === 'object' && value !== undefined) parent[keys[keys.length - 1]!] = structuredClone(value);
+    // A rate the saved revision lacks is rigid there; any other setting it lacks is left as it is.
+    if (value === undefined && !complianceMounts(corner).some((m) => m.path === path)) continue;
+    // A part this corner does not have (a spring, a bar) is not brought back by a setting of it.
+    const holder = path.split('.').slice(0, -1).join('.');
+    if (holder && !RATE_CONTAINERS.has(holder) && typeof read(copy, holder) !== 'object') continue;
+    copy = withSetting(copy, path, null, value as SettingValue);
   }
   return copy;
+}
+
+// ---------- choices: what a spring, pushrod or drop link rides on, the toe link, steered ----------
+
+/** An attachment in words, in the order they are offered. */
+export const ATTACHMENT_WORDS: Readonly<Record<Attachment, string>> = { upright: 'Upright', lowerArm: 'Lower arm', upperArm: 'Upper arm' };
+const ATTACHMENT_ORDER = Object.keys(ATTACHMENT_WORDS) as Attachment[];
+
+/** What one body-mounted part's outer end rides on, with the choices the corner type allows (the corner rules say which). */
+export interface AttachmentField {
+  readonly path: string;
+  readonly label: string;
+  readonly value: Attachment;
+  readonly options: readonly Attachment[];
+}
+
+/** The corner's attachments: the spring's (or pushrod's) outer end and the anti-roll bar's drop link, where it has them. */
+export function cornerAttachments(corner: Corner): AttachmentField[] {
+  const field = (path: string, label: string, value: Attachment): AttachmentField => ({
+    path,
+    label,
+    value,
+    options: ATTACHMENT_ORDER.filter((a) => a === value || attachmentIssue(corner.type, path, a) === null),
+  });
+  const out: AttachmentField[] = [];
+  const sp = corner.spring;
+  if (sp?.kind === 'direct') out.push(field('spring.springOuterOn', 'Spring, suspension end rides on', sp.springOuterOn));
+  if (sp?.kind === 'rocker') out.push(field('spring.rodOuterOn', 'Push/pull rod, outer end rides on', sp.rodOuterOn));
+  if (corner.antiRollBar) out.push(field('antiRollBar.dropLinkOuterOn', 'Anti-roll bar drop link, suspension end rides on', corner.antiRollBar.dropLinkOuterOn));
+  return out;
+}
+
+// ---------- compliance rates ----------
+
+/** One rate of a mount: its key inside the mount (null when the mount is one number) and its value, N/mm (undefined: rigid). */
+export interface MountRate {
+  readonly key: string | null;
+  readonly label: string;
+  readonly value: number | undefined;
+}
+
+/** A place that may be compliant: a bushing (radial and axial), a single link's own axial stiffness, the steering at the rack. */
+export interface ComplianceMount {
+  readonly path: string;
+  readonly group: 'Bushings' | 'Links' | 'Steering';
+  readonly label: string;
+  readonly rates: readonly MountRate[];
+}
+
+const LINK_WORDS: Readonly<Record<string, string>> = { tieRod: 'Tie rod' };
+
+/** Every mount of the corner that may carry a rate (shared/schema/corner-rules.ts says which, per corner type), rigid or not. */
+export function complianceMounts(corner: Corner): ComplianceMount[] {
+  const bushings = (corner.bushings ?? {}) as Readonly<Record<string, { radialNPerMm: number; axialNPerMm: number } | undefined>>;
+  const links = (corner.linkAxialNPerMm ?? {}) as Readonly<Record<string, number | undefined>>;
+  const out: ComplianceMount[] = BUSHING_POINTS[corner.type].map((name) => ({
+    path: `bushings.${name}`,
+    group: 'Bushings',
+    label: pointName(`points.${name}`, corner),
+    rates: [
+      { key: 'radialNPerMm', label: 'Radial', value: bushings[name]?.radialNPerMm },
+      { key: 'axialNPerMm', label: 'Axial', value: bushings[name]?.axialNPerMm },
+    ],
+  }));
+  for (const link of STIFF_LINKS[corner.type]) {
+    const n = /^link([1-5])$/.exec(link)?.[1];
+    const label = n ? `Link ${n}${corner.type === 'five-link' && corner.toeLink === Number(n) ? ' (toe link)' : ''}` : link === 'tieRod' && !corner.steered ? 'Toe link' : (LINK_WORDS[link] ?? link);
+    out.push({ path: `linkAxialNPerMm.${link}`, group: 'Links', label: `${label}, axial`, rates: [{ key: null, label: 'Axial', value: links[link] }] });
+  }
+  if (corner.steered || corner.steeringStiffnessNPerMm !== undefined) {
+    out.push({ path: 'steeringStiffnessNPerMm', group: 'Steering', label: 'Steering at the rack, along its travel', rates: [{ key: null, label: 'Rate', value: corner.steeringStiffnessNPerMm }] });
+  }
+  return out;
+}
+
+// ---------- the corner's rules on an edit ----------
+
+/**
+ * What the corner's rules (shared/schema/corner-rules.ts, the ones the corner schema runs) say against an edit: the
+ * issues the edited corner has that the corner before it did not, as the rules word them. Empty when it may be used.
+ */
+export function editIssues(corner: Corner, path: string, index: number | null, value: SettingValue): { path: string; message: string }[] {
+  const before = new Set(cornerSemanticIssues(corner).map((i) => `${i.path}\n${i.message}`));
+  return cornerSemanticIssues(withSetting(corner, path, index, value)).filter((i) => !before.has(`${i.path}\n${i.message}`));
+}
+
+/** Document keys a rule's message may name, in the screen's words (for `issueWords`). */
+export function ruleLabels(corner: Corner): Record<string, string> {
+  const labels: Record<string, string> = {
+    'steering is required when steered is true (a rack or a steering-box arm)': 'a steered corner needs its steering rack or steering-box arm, which this corner does not define',
+    steeringStiffnessNPerMm: 'The steering rate',
+    'give its rate as linkAxialNPerMm or a bushing': 'set the steering rate back to rigid first, and give the toe link its rate as a link rate or a bushing',
+    'steering.armAxisPoint': 'the arm pivot point',
+    lowerArm: 'the lower arm',
+    upperArm: 'the upper arm',
+  };
+  for (const f of cornerAttachments(corner)) labels[f.path] = f.label.replace(/ rides on$/, '');
+  for (const name of Object.keys(corner.points)) labels[`points.${name}`] = pointName(`points.${name}`, corner);
+  return labels;
 }

@@ -5,7 +5,7 @@ import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import type { Corner } from '../../../../shared/schema/corner';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { CornerSettings, type SettingEdit } from './corner-settings';
-import { changedSettings, withSetting } from './corner-settings-model';
+import { changedSettings, settingRow, withSetting, withSettingsFrom } from './corner-settings-model';
 
 function setUp(editable: boolean, corner: Corner = exampleCorners.fsFrontWishbone) {
   const fixture = TestBed.createComponent(CornerSettings);
@@ -124,5 +124,29 @@ describe('CornerSettings', () => {
     expect(changedSettings(moved, c)).toEqual(['wheel.radius', 'steering.rackAxis']);
     expect(c.wheel.radius).toBe(255);
     expect(changedSettings(c, structuredClone(c))).toEqual([]);
+  });
+
+  it('counts the choices and the rates among the settings, and restores them from the saved revision (a rate it lacks is rigid again)', () => {
+    const c = exampleCorners.fsFrontWishbone;
+    const stroked = withSetting(c, 'steering.rackStroke', 1, 35);
+    const edited = withSetting(
+      withSetting(withSetting(stroked, 'steered', null, false), 'bushings.lowerFront', null, { radialNPerMm: 2000, axialNPerMm: 500 }),
+      'antiRollBar.dropLinkOuterOn',
+      null,
+      'upright',
+    );
+    // The stroke changed before the corner stopped being steered still differs from the saved one.
+    expect(changedSettings(edited, c).sort()).toEqual(['antiRollBar.dropLinkOuterOn', 'bushings.lowerFront', 'steered', 'steering.rackStroke']);
+    expect(withSettingsFrom(edited, c)).toEqual(c);
+    expect(settingRow(edited, 'bushings.lowerFront')).toEqual({ name: 'Bushings, Lower arm, front pivot (radial, axial)', kind: 'rate', value: [2000, 500] });
+    expect(settingRow(c, 'bushings.lowerFront').value).toBeUndefined();
+    expect(settingRow(edited, 'steered').value).toBe('fixed toe link');
+    // A steering setting keeps its name in a version that is not steered (the other side of a save conflict).
+    expect(settingRow(edited, 'steering.rackStroke')).toEqual({ name: 'Steering rack, stroke (right, left)', kind: 'length', value: [-30, 35] });
+    expect(settingRow(exampleCorners.fsRearWishbone, 'steeringStiffnessNPerMm')).toEqual({ name: 'Steering, Steering at the rack, along its travel', kind: 'rate', value: undefined });
+    expect(settingRow(edited, 'antiRollBar.dropLinkOuterOn')).toEqual({ name: 'Anti-roll bar drop link, suspension end rides on', kind: 'choice', value: 'upright' });
+    // The last rate of a container gone, the container goes too: the document is as it was.
+    expect(withSetting(withSetting(c, 'linkAxialNPerMm.tieRod', null, 9000), 'linkAxialNPerMm.tieRod', null, undefined)).toEqual(c);
+    expect(c.bushings).toBeUndefined();
   });
 });

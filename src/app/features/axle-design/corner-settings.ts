@@ -6,17 +6,19 @@ import type { Corner } from '../../../../shared/schema/corner';
 import { formatRangeValue, unusualValue } from '../../../../shared/schema/ranges';
 import { formatNumber } from '../../charts/chart-types';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
-import { fromDisplayUnits, inDisplayUnits, unitLabel } from '../../core/format/quantities';
+import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
 import { ErrorState } from '../../core/forms/error-state';
 import { inputValue } from '../../core/forms/dom-events';
-import { parseDecimal } from './hardpoint-io';
-import { changedSettings, cornerSettings, settingRule, type SettingField } from './corner-settings-model';
+import { changedSettings, cornerSettings, settingRule, typedSetting, type SettingField, type SettingValue } from './corner-settings-model';
 
-/** A setting committed in stored units: the path, the tuple component (null for a plain number) and the value. */
+/**
+ * A setting committed in stored units: the path, the tuple component (null for a plain value) and the value
+ * (undefined: a rate back to rigid). The editor's store applies it as one undo step (`AxleDesignStore.editSetting`).
+ */
 export interface SettingEdit {
   readonly path: string;
   readonly index: number | null;
-  readonly value: number;
+  readonly value: SettingValue;
 }
 
 /**
@@ -121,23 +123,12 @@ export class CornerSettings {
 
   protected commit(f: SettingField, event: Event): void {
     const text = inputValue(event).trim();
-    const typed = parseDecimal(text);
-    const unit = this.unit(f);
-    const withUnit = unit ? ` ${unit}` : '';
-    let problem: string | null = null;
-    let value = NaN;
-    if (typed === null) problem = `${f.label}: "${text}" is not a number${unit ? ` of ${unit}` : ''}.`;
-    else {
-      value = f.kind === 'length' ? fromDisplayUnits(typed, 'length', this.units()) : typed;
-      const r = f.range;
-      const below = r.minExclusive ? value <= r.min : value < r.min;
-      if (below || value > r.max) {
-        const [lo, hi] = [r.min, r.max].map((v) => formatRangeValue(f.kind === 'length' ? inDisplayUnits(v, 'length', this.units()) : v));
-        problem = r.minExclusive ? `${f.label}: ${text} is outside the possible range, more than ${lo} and at most ${hi}${withUnit}.` : `${f.label}: ${text} is outside ${lo} to ${hi}${withUnit}.`;
-      } else {
-        const rule = settingRule(this.corner(), f, value);
-        if (rule) problem = `${f.label}: ${rule}.`;
-      }
+    const typed = typedSetting(text, f.label, f.range, f.kind === 'length' ? 'length' : null, this.unit(f), this.units());
+    let problem = 'problem' in typed ? typed.problem : null;
+    const value = 'value' in typed ? typed.value : NaN;
+    if (!problem) {
+      const rule = settingRule(this.corner(), f, value);
+      if (rule) problem = `${f.label}: ${rule}.`;
     }
     const next = new Map(this.errors());
     if (problem) next.set(this.fieldId(f), problem);

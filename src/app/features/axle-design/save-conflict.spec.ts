@@ -12,6 +12,9 @@ const CONFLICT: Conflict = {
     { key: 'points.tieRodInner', name: 'Tie rod, inner end (rack)', kind: 'length', theirs: [25.4, 254, 127], yours: [25.4, 254, 152.4] },
     { key: 'wheel.radius', name: 'Wheel, loaded radius', kind: 'length', theirs: [254], yours: [266.7] },
     { key: 'steering.rackAxis', name: 'Steering rack, axis (x, y, z)', kind: 'direction', theirs: [0, 1, 0], yours: [0.1, 1, 0] },
+    { key: 'steered', name: 'Steering', kind: 'choice', theirs: 'steered', yours: 'fixed toe link' },
+    // 1751.26835 N/mm is 10 000 lbf/in and 350.2536707 N/mm 2000 lbf/in (1 lbf = 4.4482216152605 N, 1 in = 25.4 mm; NIST SP 811).
+    { key: 'bushings.lowerFront', name: 'Bushings, Lower arm, front pivot (radial, axial)', kind: 'rate', theirs: undefined, yours: [1751.26835, 350.2536707] },
   ],
 };
 
@@ -39,6 +42,9 @@ describe('SaveConflict', () => {
       ['Wheel, loaded radius', '10', '10.5'],
       // A direction has no unit: the same numbers in either system.
       ['Steering rack, axis (x, y, z)', '0, 1, 0', '0.1, 1, 0'],
+      // A choice in words; a rate left out is rigid, a rate in lbf/in.
+      ['Steering', 'steered', 'fixed toe link'],
+      ['Bushings, Lower arm, front pivot (radial, axial)', 'rigid', '10000, 2000 lbf/in'],
     ]);
   });
 
@@ -46,5 +52,6 @@ describe('SaveConflict', () => {
     const el = render('si');
     expect(el.querySelector('caption')!.textContent).toBe('Points and settings that differ (lengths in mm)');
     expect(cells(el)[1]).toEqual(['Wheel, loaded radius', '254', '266.7']);
+    expect(cells(el)[4]).toEqual(['Bushings, Lower arm, front pivot (radial, axial)', 'rigid', '1751.2684, 350.25367 N/mm']);
   });
 });

@@ -66,10 +66,15 @@ export class SaveConflict {
   private readonly units = inject(DISPLAY_UNITS);
   protected readonly lengthUnit = computed(() => unitLabel('length', this.units()));
 
-  /** A point's or setting's numbers as "x, y, z" (8 significant figures; lengths in the user's unit, angles with theirs), or "(none)". */
-  protected numbers(row: ConflictRow, v: readonly number[] | undefined): string {
-    if (!v) return '(none)';
-    const text = v.map((n) => formatNum(n, row.kind === 'length' ? { kind: 'length', sig: 8 } : { sig: 8 }, this.units())).join(', ');
-    return row.kind === 'angle' ? `${text} deg` : text;
+  /**
+   * A point's or setting's numbers as "x, y, z" (8 significant figures; lengths and rates in the user's unit, angles
+   * with theirs), a choice in words, "rigid" for a rate left out, or "(none)".
+   */
+  protected numbers(row: ConflictRow, v: readonly number[] | string | undefined): string {
+    if (typeof v === 'string') return v;
+    if (!v) return row.kind === 'rate' ? 'rigid' : '(none)';
+    const kind = row.kind === 'length' ? 'length' : row.kind === 'rate' ? 'linearRate' : null;
+    const text = v.map((n) => formatNum(n, kind ? { kind, sig: 8 } : { sig: 8 }, this.units())).join(', ');
+    return row.kind === 'angle' ? `${text} deg` : row.kind === 'rate' ? `${text} ${unitLabel('linearRate', this.units())}` : text;
   }
 }

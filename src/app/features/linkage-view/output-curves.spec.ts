@@ -2,12 +2,17 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting, type TestRequest } from '@angular/common/http/testing';
 import { signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
+import { By } from '@angular/platform-browser';
 import type { DisplayUnits } from '../../core/api-types';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { exampleVehicles } from '../../../../shared/balance/examples';
 import { serve, settle } from '../configurations/spec-backend';
 import { OutputCurves } from './output-curves';
+import { LineChart } from '../../charts/line-chart';
+import { outputCurves, type OutputCurveRow } from '../../../../shared/kinematics/output-curves';
+import type { Corner } from '../../../../shared/schema/corner';
+import type { AxleName } from '../../../../shared/schema/axle';
 
 const TEAM = '/api/teams/t1';
 
@@ -34,12 +39,12 @@ const RIG = {
 };
 const RIG_POINTS = [-20, -10, 0, 10, 20].map((t, i) => ({ travelMm: t, toeDeg: 0.01 * t, camberDeg: -1 - 0.02 * t, line: i + 2 }));
 
-async function setUp(units: DisplayUnits = 'si') {
+async function setUp(units: DisplayUnits = 'si', corner: Corner = exampleCorners.fsFrontWishbone, axle: AxleName = 'front') {
   TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting(), { provide: DISPLAY_UNITS, useValue: signal(units) }] });
   const fixture = TestBed.createComponent(OutputCurves);
   const ref = fixture.componentRef;
-  ref.setInput('corner', exampleCorners.fsFrontWishbone);
-  ref.setInput('axle', 'front');
+  ref.setInput('corner', corner);
+  ref.setInput('axle', axle);
   ref.setInput('teamId', 't1');
   ref.setInput('designId', 'd1');
   ref.setInput('vehicleId', 'v1');
@@ -188,4 +193,90 @@ describe('OutputCurves', () => {
     expect(el.querySelector('[data-testid="curves-basis"]')!.textContent.trim()).toBe('Swept over -10 to 25 mm of wheel travel; rack at 0 mm.');
     expect(el.querySelector('.rw-curves-result')!.classList).not.toContain('rw-out-of-date');
   });
+});
+
+/**
+ * Every per-pose output of issue 15 §3, one by one, named as the user reads it in the picker: the unit its axis must
+ * carry in each unit system (written here, not read from the component's table), the sweep it is drawn against and
+ * the axle whose words it carries (anti-squat is the rear axle's drive anti feature).
+ */
+const OUTPUTS: readonly { title: string; key: keyof OutputCurveRow; si: string; imperial: string; axis?: 'steer'; axle?: AxleName }[] = [
+  { title: 'Toe', key: 'toeDeg', si: 'deg', imperial: 'deg' },
+  { title: 'Camber', key: 'camberDeg', si: 'deg', imperial: 'deg' },
+  { title: 'Caster', key: 'casterDeg', si: 'deg', imperial: 'deg' },
+  { title: 'Kingpin inclination', key: 'kingpinInclinationDeg', si: 'deg', imperial: 'deg' },
+  { title: 'Scrub radius', key: 'scrubRadiusMm', si: 'mm', imperial: 'in' },
+  { title: 'Mechanical trail', key: 'mechanicalTrailMm', si: 'mm', imperial: 'in' },
+  { title: 'Half-track change', key: 'halfTrackChangeMm', si: 'mm', imperial: 'in' },
+  { title: 'Wheelbase change', key: 'wheelbaseChangeMm', si: 'mm', imperial: 'in' },
+  { title: 'Roll centre height', key: 'rollCentreHeightMm', si: 'mm', imperial: 'in' },
+  { title: 'Roll centre lateral migration', key: 'rollCentreYMm', si: 'mm', imperial: 'in' },
+  { title: 'Spring motion ratio', key: 'springMotionRatio', si: 'mm/mm', imperial: 'mm/mm' },
+  { title: 'Anti-roll bar motion ratio', key: 'barMotionRatio', si: 'mm/mm', imperial: 'mm/mm' },
+  { title: 'Anti-dive', key: 'antiBrakePercent', si: '%', imperial: '%' },
+  { title: 'Anti-lift in drive', key: 'antiDrivePercent', si: '%', imperial: '%' },
+  { title: 'Anti-lift in braking', key: 'antiBrakePercent', si: '%', imperial: '%', axle: 'rear' },
+  { title: 'Anti-squat', key: 'antiDrivePercent', si: '%', imperial: '%', axle: 'rear' },
+  { title: 'Ackermann', key: 'ackermannPercent', si: '%', imperial: '%', axis: 'steer' },
+];
+
+/** 1 in = 25.4 mm exactly (NIST SP 811). */
+const MM_PER_IN = 25.4;
+
+describe('OutputCurves, each output by name', () => {
+  beforeAll(async () => {
+    await import('./views-engine');
+  });
+
+  for (const units of ['si', 'imperial'] as const) {
+    for (const o of OUTPUTS) {
+      const axle = o.axle ?? 'front';
+      it(`${o.title} (${axle} axle, ${units}): picked alone, drawn in ${o[units]} against ${o.axis === 'steer' ? 'rack travel' : 'wheel travel'}, the engine's values`, async () => {
+        const corner = axle === 'front' ? exampleCorners.fsFrontWishbone : exampleCorners.fsRearWishbone;
+        const { fixture, el } = await setUp(units, corner, axle);
+        if (o.axis === 'steer') {
+          Array.from(el.querySelectorAll<HTMLButtonElement>('[data-testid="curve-axis"] button')).find((b) => b.textContent.includes('Rack travel'))!.click();
+          await until(fixture, () => (el.querySelector('[data-chart] .rw-axis-label-x')?.textContent ?? '').includes('Rack travel'));
+        }
+        // Picked by its name in the picker, alone: every other output cleared first.
+        const picker = el.querySelector('[data-testid="curve-picker"]')!;
+        for (const host of Array.from(picker.querySelectorAll('mat-checkbox'))) {
+          const input = host.querySelector<HTMLInputElement>('input[type="checkbox"]')!;
+          if (input.checked) input.click();
+        }
+        fixture.detectChanges();
+        const host = Array.from(picker.querySelectorAll('mat-checkbox')).find((h) => h.textContent.trim().replace(/\s+\(against rack travel\)$/, '') === o.title);
+        expect(host, `the picker offers ${o.title}`).toBeDefined();
+        host!.querySelector<HTMLInputElement>('input[type="checkbox"]')!.click();
+        await until(fixture, () => charts(el).length === 1);
+        expect(charts(el)).toEqual([host!.getAttribute('data-output')]);
+        const chart = el.querySelector('[data-chart]')!;
+        expect(chart.querySelector('figcaption')!.textContent.trim().startsWith(`${o.title} against`)).toBe(true);
+        // The axis labels carry the units of the user's system.
+        const xUnit = units === 'si' ? 'mm' : 'in';
+        expect(chart.querySelector('.rw-axis-label-x')!.textContent.trim()).toMatch(new RegExp(`\\(${xUnit}\\)$`));
+        expect(chart.querySelector('.rw-axis-label-y')!.textContent.replace(/\s+/g, ' ').trim()).toMatch(new RegExp(`\\(${o[units].replace('/', '\\/')}\\)$`));
+
+        // The engine's own answer for the same geometry, sweep and vehicle figures (the served vehicle's wheelbase and CG height).
+        const v = exampleVehicles.tur26Ember;
+        const figures = { wheelbaseMm: v.wheelbaseMm, anti: { axle, cgHeightMm: v.cgHeightMm, wheelbaseMm: v.wheelbaseMm } };
+        const rows = outputCurves(corner, o.axis === 'steer' ? { axis: 'steer', travelMm: 0, ...figures } : { axis: 'travel', range: { from: -25, to: 25, step: 2.5 }, rackMm: 0, ...figures }).rows;
+        const inUnits = (v: number, unit: string) => (unit === 'in' ? v / MM_PER_IN : v);
+        const expected = rows
+          .filter((r) => typeof r[o.key] === 'number' && Number.isFinite(r[o.key]))
+          .map((r) => ({ x: inUnits(r.x, xUnit), y: inUnits(r[o.key] as number, o[units]) }));
+        expect(expected.length).toBeGreaterThan(1);
+        const drawn = fixture.debugElement.queryAll(By.directive(LineChart)).map((d) => d.componentInstance as LineChart);
+        expect(drawn).toHaveLength(1);
+        const series = drawn[0]!.series();
+        expect(series.map((s) => s.name)).toEqual(['Revision 3 (shown)']);
+        const points = series[0]!.points;
+        expect(points).toHaveLength(expected.length);
+        points.forEach((p, i) => {
+          expect(p.x).toBeCloseTo(expected[i]!.x, 9);
+          expect(p.y).toBeCloseTo(expected[i]!.y, 9);
+        });
+      });
+    }
+  }
 });

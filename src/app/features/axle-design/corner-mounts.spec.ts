@@ -1,0 +1,245 @@
+import { provideHttpClient } from '@angular/common/http';
+import { provideHttpClientTesting } from '@angular/common/http/testing';
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { TestBed } from '@angular/core/testing';
+import type { DisplayUnits } from '../../core/api-types';
+import { DISPLAY_UNITS } from '../../core/format/num-pipe';
+import type { Corner } from '../../../../shared/schema/corner';
+import { exampleCorners } from '../../../../shared/kinematics/examples';
+import { chooseOption, matSelect, optionTexts } from '../../../testing/material';
+import { AxleDesignStore } from './axle-design-store';
+import { CornerMounts } from './corner-mounts';
+import { withSetting } from './corner-settings-model';
+
+/** The panel as the editor page binds it: the store's corner in, each change into the store's one edit path. */
+@Component({
+  selector: 'rw-corner-mounts-host',
+  imports: [CornerMounts],
+  template: `@if (store.corner(); as c) {
+    <rw-corner-mounts [corner]="c" [editable]="editable()" (settingEdited)="store.editSetting($event.path, $event.index, $event.value)" />
+  }`,
+  providers: [AxleDesignStore],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+class Host {
+  readonly store = inject(AxleDesignStore);
+  readonly editable = signal(true);
+}
+
+function setUp(corner: Corner, units: DisplayUnits = 'si', editable = true) {
+  TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting(), { provide: DISPLAY_UNITS, useValue: signal(units) }] });
+  const fixture = TestBed.createComponent(Host);
+  const store = fixture.componentInstance.store;
+  // The store as after loading a design (its history starts at the loaded corner).
+  store.history.reset(corner);
+  fixture.componentInstance.editable.set(editable);
+  fixture.detectChanges();
+  const el = fixture.nativeElement as HTMLElement;
+  const tick = () => {
+    TestBed.tick();
+    fixture.detectChanges();
+  };
+  const at = (selector: string) => {
+    const found = el.querySelector<HTMLElement>(selector);
+    if (!found) throw new Error(`nothing at ${selector}`);
+    return found;
+  };
+  const options = (setting: string) => optionTexts(matSelect(el, `[data-setting="${setting}"] mat-select`));
+  const choose = (setting: string, label: string) => {
+    chooseOption(matSelect(el, `[data-setting="${setting}"] mat-select`), label);
+    tick();
+  };
+  const box = (selector: string) => at(`${selector} input[type="checkbox"]`) as HTMLInputElement;
+  const toggle = (selector: string) => {
+    box(selector).click();
+    tick();
+  };
+  const rateInput = (id: string) => at(`mat-form-field[data-rate="${id}"] input`) as HTMLInputElement;
+  const type = (id: string, text: string) => {
+    const input = rateInput(id);
+    input.value = text;
+    input.dispatchEvent(new Event('change'));
+    tick();
+  };
+  const error = (key: string) => el.querySelector(`[data-error="${key}"]`)?.textContent.trim() ?? el.querySelector(`mat-form-field[data-rate="${key}"] mat-error`)?.textContent.trim();
+  const undo = () => {
+    store.undo();
+    tick();
+  };
+  return { fixture, el, store, options, box, choose, toggle, type, rateInput, error, undo, tick };
+}
+
+describe('CornerMounts', () => {
+  it('offers every attachment a double wishbone allows; a choice goes into the store as one undo step', () => {
+    const { store, options, choose, undo } = setUp(exampleCorners.fsFrontWishbone);
+    expect(options('spring.rodOuterOn')).toEqual(['Upright', 'Lower arm', 'Upper arm']);
+    expect(options('antiRollBar.dropLinkOuterOn')).toEqual(['Upright', 'Lower arm', 'Upper arm']);
+    choose('spring.rodOuterOn', 'Upper arm');
+    const c = store.corner()!;
+    expect(c.spring?.kind === 'rocker' && c.spring.rodOuterOn).toBe('upperArm');
+    choose('antiRollBar.dropLinkOuterOn', 'Upright');
+    expect(store.corner()!.antiRollBar?.dropLinkOuterOn).toBe('upright');
+    undo();
+    expect(store.corner()!.antiRollBar?.dropLinkOuterOn).toBe('lowerArm');
+    undo();
+    expect(store.corner()).toEqual(exampleCorners.fsFrontWishbone);
+  });
+
+  it('offers a strut no upper arm and a five-link corner only the upright (the corner rules: neither has an upper arm, a five-link no arm)', () => {
+    const strut = setUp(exampleCorners.roadFrontStrut);
+    expect(strut.options('spring.springOuterOn')).toEqual(['Upright', 'Lower arm']);
+    strut.choose('spring.springOuterOn', 'Lower arm');
+    const c = strut.store.corner()!;
+    expect(c.spring?.kind === 'direct' && c.spring.springOuterOn).toBe('lowerArm');
+    TestBed.resetTestingModule();
+    const fiveLink = setUp(exampleCorners.roadRearFiveLink);
+    expect(fiveLink.options('spring.springOuterOn')).toEqual(['Upright']);
+  });
+
+  it('picks the toe link of a five-link corner, and undoes it', () => {
+    const { store, options, choose, undo, el } = setUp(exampleCorners.roadRearFiveLink);
+    expect(options('toeLink')).toEqual(['Link 1', 'Link 2', 'Link 3', 'Link 4', 'Link 5']);
+    expect(el.querySelector('[data-group="steering"]')!.textContent).toContain('Link 5 is a fixed toe link');
+    choose('toeLink', 'Link 3');
+    const c = store.corner()!;
+    expect(c.type === 'five-link' && c.toeLink).toBe(3);
+    expect(el.querySelector('[data-group="steering"]')!.textContent).toContain('Link 3 is a fixed toe link');
+    undo();
+    const back = store.corner()!;
+    expect(back.type === 'five-link' && back.toeLink).toBe(5);
+  });
+
+  it('refuses a toe link the steering arm cannot move, in the corner rules\' words, and keeps the one chosen', () => {
+    // A steered five-link corner on a steering-box arm whose axis runs through link 3's body end (invented for the rule).
+    const five = exampleCorners.roadRearFiveLink;
+    const onArm: Corner = { ...five, steered: true, steering: { kind: 'arm', armAxisPoint: five.points.link3Inner, armAxisDirection: [0, 0, 1], angularStrokeDeg: [-30, 30] } };
+    const { store, choose, error, el } = setUp(onArm);
+    choose('toeLink', 'Link 3');
+    expect(store.canUndo()).toBe(false);
+    expect(error('toeLink')).toBe('Toe link: Link 3, body end lies on the steering arm axis (the arm pivot point): the arm has no length.');
+    expect(el.querySelector('[data-setting="toeLink"] mat-select')!.textContent.trim()).toBe('Link 5');
+    choose('toeLink', 'Link 4');
+    const c = store.corner()!;
+    expect(c.type === 'five-link' && c.toeLink).toBe(4);
+    expect(error('toeLink')).toBeUndefined();
+  });
+
+  it('turns steering off and on through the store; a corner without a rack or arm cannot be steered, said in words', () => {
+    const front = setUp(exampleCorners.fsFrontWishbone);
+    front.toggle('[data-setting="steered"]');
+    expect(front.store.corner()!.steered).toBe(false);
+    // The rack stays defined, so steering on again is the same corner.
+    front.toggle('[data-setting="steered"]');
+    expect(front.store.corner()).toEqual(exampleCorners.fsFrontWishbone);
+    front.undo();
+    expect(front.store.corner()!.steered).toBe(false);
+    TestBed.resetTestingModule();
+
+    const rear = setUp(exampleCorners.fsRearWishbone);
+    rear.toggle('[data-setting="steered"]');
+    expect(rear.store.corner()).toEqual(exampleCorners.fsRearWishbone);
+    expect(rear.store.canUndo()).toBe(false);
+    // The corner rules' words (shared/schema/corner-rules.ts), with no document key left in them.
+    expect(rear.error('steered')).toBe('Steered: a steered corner needs its steering rack or steering-box arm, which this corner does not define.');
+    expect(rear.box('[data-setting="steered"]').checked).toBe(false);
+  });
+
+  it('refuses a fixed toe link while the steering has a rate, in words, and sends nothing', () => {
+    const { store, toggle, error } = setUp(withSetting(exampleCorners.fsFrontWishbone, 'steeringStiffnessNPerMm', null, 900));
+    toggle('[data-setting="steered"]');
+    expect(store.corner()!.steered).toBe(true);
+    expect(error('steered')).toBe(
+      'Steered: The steering rate applies to a steered corner only (this corner has a fixed toe link: set the steering rate back to rigid first, and give the toe link its rate as a link rate or a bushing).',
+    );
+    expect(error('steered')).not.toMatch(/NPerMm|steered is/);
+  });
+
+  it('makes a rigid bushing compliant once both its rates are typed, as one undo step, and rigid again', () => {
+    const { store, el, toggle, type, undo, rateInput } = setUp(exampleCorners.fsFrontWishbone);
+    const mount = '[data-mount="bushings.lowerFront"]';
+    expect(el.querySelector(mount)!.textContent).toContain('Lower arm, front pivot');
+    expect(el.querySelector(`${mount} .rw-rigid`)!.textContent.trim()).toBe('Rigid');
+    expect(el.querySelector(`${mount} mat-form-field`)).toBeNull();
+    toggle(mount);
+    expect(rateInput('bushings.lowerFront.radialNPerMm').value).toBe('');
+    type('bushings.lowerFront.radialNPerMm', '2000');
+    // One rate is not a bushing yet: nothing sent, and the panel says what it waits for.
+    expect(store.corner()!.bushings).toBeUndefined();
+    expect(el.querySelector(mount)!.textContent).toContain('Enter both rates; until then the mount stays rigid.');
+    type('bushings.lowerFront.axialNPerMm', '500');
+    expect(store.corner()!.bushings).toEqual({ lowerFront: { radialNPerMm: 2000, axialNPerMm: 500 } });
+    expect(el.querySelector(`${mount} .rw-rigid`)).toBeNull();
+    expect((el.querySelector(`${mount} input[type="checkbox"]`) as HTMLInputElement).checked).toBe(true);
+    // An edit of one rate of a compliant bushing.
+    type('bushings.lowerFront.axialNPerMm', '650');
+    expect(store.corner()!.bushings).toEqual({ lowerFront: { radialNPerMm: 2000, axialNPerMm: 650 } });
+    undo();
+    expect(store.corner()!.bushings).toEqual({ lowerFront: { radialNPerMm: 2000, axialNPerMm: 500 } });
+    // Back to rigid: the key leaves the corner (the document's "rigid").
+    toggle(mount);
+    expect(store.corner()).toEqual(exampleCorners.fsFrontWishbone);
+    expect(el.querySelector(`${mount} .rw-rigid`)!.textContent.trim()).toBe('Rigid');
+    undo();
+    undo();
+    expect(store.corner()!.bushings).toBeUndefined();
+    expect(store.canUndo()).toBe(false);
+  });
+
+  it('takes and shows rates in lbf/in for an inch-pound user, storing N/mm (1 lbf = 4.4482216152605 N, 1 in = 25.4 mm; NIST SP 811)', () => {
+    const start = withSetting(exampleCorners.fsFrontWishbone, 'linkAxialNPerMm.tieRod', null, 17_512.6835);
+    const { store, el, toggle, type, rateInput, undo } = setUp(start, 'imperial');
+    expect(el.querySelector('[data-group="compliance"]')!.textContent).toContain('Rates in lbf/in');
+    // 17 512.6835 N/mm is 100 000 lbf/in to the 8 figures shown.
+    expect(rateInput('linkAxialNPerMm.tieRod').value).toBe('100000');
+    type('linkAxialNPerMm.tieRod', '50000');
+    expect(store.corner()!.linkAxialNPerMm?.['tieRod']).toBeCloseTo((50_000 * 4.4482216152605) / 25.4, 6);
+    undo();
+    expect(store.corner()!.linkAxialNPerMm?.['tieRod']).toBe(17_512.6835);
+    // The steering rate of a steered corner: one number.
+    toggle('[data-mount="steeringStiffnessNPerMm"]');
+    type('steeringStiffnessNPerMm', '1000');
+    expect(store.corner()!.steeringStiffnessNPerMm).toBeCloseTo((1000 * 4.4482216152605) / 25.4, 6);
+    toggle('[data-mount="steeringStiffnessNPerMm"]');
+    expect(store.corner()!.steeringStiffnessNPerMm).toBeUndefined();
+    expect(Object.keys(store.corner()!)).not.toContain('steeringStiffnessNPerMm');
+  });
+
+  it('refuses a rate that is not a number or not possible beside its field, in the user\'s unit, and sends nothing', () => {
+    const { store, toggle, type, error } = setUp(exampleCorners.fsFrontWishbone, 'imperial');
+    toggle('[data-mount="linkAxialNPerMm.tieRod"]');
+    type('linkAxialNPerMm.tieRod', 'stiff');
+    expect(error('linkAxialNPerMm.tieRod')).toBe('Tie rod, axial: "stiff" is not a number of lbf/in.');
+    // The possible range, shared/schema/ranges.ts: more than 0 and at most 1e7 N/mm = 5.71e7 lbf/in.
+    type('linkAxialNPerMm.tieRod', '0');
+    expect(error('linkAxialNPerMm.tieRod')).toBe('Tie rod, axial: 0 is outside the possible range, more than 0 and at most 5.71e+7 lbf/in.');
+    expect(store.canUndo()).toBe(false);
+    type('linkAxialNPerMm.tieRod', '20000');
+    expect(error('linkAxialNPerMm.tieRod')).toBeUndefined();
+    expect(store.canUndo()).toBe(true);
+  });
+
+  it('lists the mounts each corner type has: a fixed toe link has no steering rate, a five-link corner five link rates', () => {
+    const rear = setUp(exampleCorners.fsRearWishbone);
+    const mounts = () => [...rear.el.querySelectorAll('[data-mount]')].map((m) => m.getAttribute('data-mount'));
+    expect(mounts()).toEqual([
+      'bushings.lowerFront', 'bushings.lowerRear', 'bushings.upperFront', 'bushings.upperRear', 'bushings.tieRodInner',
+      'bushings.lowerOuter', 'bushings.upperOuter', 'bushings.tieRodOuter', 'linkAxialNPerMm.tieRod',
+    ]);
+    expect(rear.el.querySelector('[data-mount="linkAxialNPerMm.tieRod"]')!.textContent).toContain('Toe link, axial');
+    TestBed.resetTestingModule();
+    const five = setUp(exampleCorners.roadRearFiveLink);
+    expect([...five.el.querySelectorAll('[data-mount^="linkAxialNPerMm."]')].map((m) => m.querySelector('.rw-mount-name')!.textContent.trim())).toEqual([
+      'Link 1, axial', 'Link 2, axial', 'Link 3, axial', 'Link 4, axial', 'Link 5 (toe link), axial',
+    ]);
+  });
+
+  it('gives a read-only user the choices and rates as text, "rigid" where a rate is absent', () => {
+    const { el } = setUp(withSetting(exampleCorners.fsFrontWishbone, 'bushings.lowerRear', null, { radialNPerMm: 3000, axialNPerMm: 800 }), 'si', false);
+    expect(el.querySelector('mat-checkbox, mat-select, input')).toBeNull();
+    expect(el.querySelector('[data-setting="steered"]')!.textContent.trim()).toBe('Steered');
+    expect(el.querySelector('[data-setting="spring.rodOuterOn"]')!.textContent.trim()).toBe('Push/pull rod, outer end rides on: Lower arm');
+    expect(el.querySelector('[data-setting="antiRollBar.dropLinkOuterOn"]')!.textContent.trim()).toBe('Anti-roll bar drop link, suspension end rides on: Lower arm');
+    expect(el.querySelector('[data-mount="bushings.lowerFront"] .rw-rigid')!.textContent.trim()).toBe('Rigid');
+    expect(el.querySelector('[data-mount="bushings.lowerRear"]')!.textContent).toContain('radial 3000 N/mm, axial 800 N/mm');
+  });
+});
