@@ -64,6 +64,7 @@ export function pointName(key: string, corner: Corner): string {
     if (!corner.steered && (name === 'tieRodInner' || name === 'tieRodOuter')) {
       return name === 'tieRodInner' ? 'Toe link, inner end (body)' : 'Toe link, outer end (upright)';
     }
+    if (name === 'tieRodInner' && corner.steering?.kind === 'arm') return 'Tie rod, inner end (steering-box arm)';
     return POINT_NAMES[name] ?? linkPointName(name, corner) ?? name;
   }
   if (section === 'spring') return SPRING_NAMES[name] ?? name;

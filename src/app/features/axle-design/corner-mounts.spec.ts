@@ -7,6 +7,7 @@ import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import type { Corner } from '../../../../shared/schema/corner';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { chooseOption, matSelect, optionTexts } from '../../../testing/material';
+import { settle } from '../../../testing/settle';
 import { AxleDesignStore } from './axle-design-store';
 import { CornerMounts } from './corner-mounts';
 import { withSetting } from './corner-settings-model';
@@ -61,12 +62,27 @@ function setUp(corner: Corner, units: DisplayUnits = 'si', editable = true) {
     input.dispatchEvent(new Event('change'));
     tick();
   };
-  const error = (key: string) => el.querySelector(`[data-error="${key}"]`)?.textContent.trim() ?? el.querySelector(`mat-form-field[data-rate="${key}"] mat-error`)?.textContent.trim();
+  const error = (key: string) =>
+    el.querySelector(`[data-error="${key}"]`)?.textContent.trim() ??
+    el.querySelector(`mat-form-field[data-rate="${key}"] mat-error, mat-form-field[data-draft="${key}"] mat-error`)?.textContent.trim();
   const undo = () => {
     store.undo();
     tick();
   };
-  return { fixture, el, store, options, box, choose, toggle, type, rateInput, error, undo, tick };
+  const draftInput = (id: string) => at(`mat-form-field[data-draft="${id}"] input`) as HTMLInputElement;
+  const draft = (id: string, text: string) => {
+    const input = draftInput(id);
+    input.value = text;
+    input.dispatchEvent(new Event('change'));
+    tick();
+  };
+  const click = (action: string) => {
+    at(`button[data-action="${action}"]`).click();
+    tick();
+  };
+  const apply = () => click('apply-steering');
+  const cancel = () => click('cancel-steering');
+  return { fixture, el, store, options, box, choose, toggle, type, rateInput, error, undo, tick, draft, draftInput, apply, cancel };
 }
 
 describe('CornerMounts', () => {
@@ -124,7 +140,7 @@ describe('CornerMounts', () => {
     expect(error('toeLink')).toBeUndefined();
   });
 
-  it('turns steering off and on through the store; a corner without a rack or arm cannot be steered, said in words', () => {
+  it('turns steering off and on through the store; the rack stays defined while the corner is not steered', () => {
     const front = setUp(exampleCorners.fsFrontWishbone);
     front.toggle('[data-setting="steered"]');
     expect(front.store.corner()!.steered).toBe(false);
@@ -133,15 +149,129 @@ describe('CornerMounts', () => {
     expect(front.store.corner()).toEqual(exampleCorners.fsFrontWishbone);
     front.undo();
     expect(front.store.corner()!.steered).toBe(false);
-    TestBed.resetTestingModule();
+  });
 
-    const rear = setUp(exampleCorners.fsRearWishbone);
-    rear.toggle('[data-setting="steered"]');
-    expect(rear.store.corner()).toEqual(exampleCorners.fsRearWishbone);
-    expect(rear.store.canUndo()).toBe(false);
-    // The corner rules' words (shared/schema/corner-rules.ts), with no document key left in them.
-    expect(rear.error('steered')).toBe('Steered: a steered corner needs its steering rack or steering-box arm, which this corner does not define.');
-    expect(rear.box('[data-setting="steered"]').checked).toBe(false);
+  it('steers a corner without steering only once a rack and its stroke are given, as one undo step (mm)', () => {
+    const rear = exampleCorners.fsRearWishbone;
+    const { store, el, toggle, choose, options, draft, draftInput, apply, error, undo, box } = setUp(rear);
+    toggle('[data-setting="steered"]');
+    // Nothing made up: the corner is unchanged, and the panel asks which steering.
+    expect(store.corner()).toEqual(rear);
+    expect(box('[data-setting="steered"]').checked).toBe(true);
+    expect(options('steering.kind')).toEqual(['Steering rack', 'Steering-box arm']);
+    expect(el.querySelector('[data-group="steering-draft"]')!.textContent).toContain('Choose a steering rack or a steering-box arm');
+    choose('steering.kind', 'Steering rack');
+    // The rack's direction is the format's default, shown and editable; the stroke is asked for.
+    expect(['steering.rackAxis[0]', 'steering.rackAxis[1]', 'steering.rackAxis[2]'].map((id) => draftInput(id).value)).toEqual(['0', '1', '0']);
+    expect(draftInput('steering.rackStroke[0]').value).toBe('');
+    apply();
+    expect(error('steering.rackStroke[0]')).toBe('Stroke toward the right (−y): enter a value in mm.');
+    expect(error('steering.rackStroke[1]')).toBe('Stroke toward the left (+y): enter a value in mm.');
+    draft('steering.rackStroke[0]', 'forty');
+    expect(error('steering.rackStroke[0]')).toBe('Stroke toward the right (−y): "forty" is not a number of mm.');
+    draft('steering.rackStroke[0]', '10');
+    draft('steering.rackStroke[1]', '45');
+    apply();
+    // A stroke that misses straight ahead is refused beside the stroke, and nothing is sent.
+    expect(error('steering.rackStroke')).toBe('Stroke: the stroke must run from one end to the other through straight ahead: the first end at or below 0, the second at or above 0.');
+    expect(store.canUndo()).toBe(false);
+    draft('steering.rackStroke[0]', '-40');
+    apply();
+    expect(store.corner()).toEqual({ ...rear, steered: true, steering: { kind: 'rack', rackAxis: [0, 1, 0], rackStroke: [-40, 45] } });
+    expect(el.querySelector('[data-group="steering-draft"]')).toBeNull();
+    expect(el.querySelector('[data-setting="steering.kind"] mat-select')!.textContent.trim()).toBe('Steering rack');
+    undo();
+    expect(store.corner()).toEqual(rear);
+    expect(store.canUndo()).toBe(false);
+  });
+
+  it('takes a new rack\'s stroke in inches for an inch-pound user, storing mm (1 in = 25.4 mm exactly; NIST SP 811)', () => {
+    const rear = exampleCorners.fsRearWishbone;
+    const { store, toggle, choose, draft, apply, error, undo } = setUp(rear, 'imperial');
+    toggle('[data-setting="steered"]');
+    choose('steering.kind', 'Steering rack');
+    draft('steering.rackStroke[0]', '-1.5');
+    // The possible range, shared/schema/ranges.ts: −500 to 500 mm, written in inches.
+    draft('steering.rackStroke[1]', '25');
+    expect(error('steering.rackStroke[1]')).toBe('Stroke toward the left (+y): 25 is outside -19.69 to 19.69 in.');
+    draft('steering.rackStroke[1]', '1.75');
+    apply();
+    const st = store.corner()!.steering;
+    expect(st?.kind === 'rack' && st.rackStroke[0]).toBeCloseTo(-38.1, 9);
+    expect(st?.kind === 'rack' && st.rackStroke[1]).toBeCloseTo(44.45, 9);
+    expect(store.corner()!.steered).toBe(true);
+    undo();
+    expect(store.corner()).toEqual(rear);
+  });
+
+  it('steers with a steering-box arm whose pivot point and axis the user types; an arm that cannot move the tie rod is refused in words', () => {
+    const rear = exampleCorners.fsRearWishbone;
+    const { store, toggle, choose, draft, apply, error, undo, el } = setUp(rear);
+    toggle('[data-setting="steered"]');
+    choose('steering.kind', 'Steering-box arm');
+    // No pivot point or axis is offered: the user gives them.
+    expect([...el.querySelectorAll('[data-draft] input')].map((i) => (i as HTMLInputElement).value)).toEqual(Array(8).fill(''));
+    draft('steering.angularStrokeDeg[0]', '-30');
+    draft('steering.angularStrokeDeg[1]', '30');
+    // The pivot axis through the tie rod's inner end (invented for the rule): the arm has no length.
+    rear.points.tieRodInner.forEach((v, i) => draft(`steering.armAxisPoint[${i}]`, String(v)));
+    ['0', '0', '0'].forEach((v, i) => draft(`steering.armAxisDirection[${i}]`, v));
+    apply();
+    expect(error('steering.armAxisDirection')).toBe('Arm axis: an axis needs a direction: x, y and z cannot all be 0.');
+    draft('steering.armAxisDirection[2]', '1');
+    apply();
+    expect(error('steering.armAxisPoint')).toMatch(/^Arm pivot point: Tie rod, inner end \(steering-box arm\) lies on the steering arm axis \(the arm pivot point\): the arm has no length\.$/);
+    expect(store.canUndo()).toBe(false);
+    draft('steering.armAxisPoint[1]', '150');
+    apply();
+    expect(store.corner()).toEqual({
+      ...rear,
+      steered: true,
+      steering: { kind: 'arm', armAxisPoint: [-1640, 150, 161.5], armAxisDirection: [0, 0, 1], angularStrokeDeg: [-30, 30] },
+    });
+    undo();
+    expect(store.corner()).toEqual(rear);
+  });
+
+  it('switches a rack to an arm only once the arm\'s values are given (inches), keeps the rack on cancel, and undoes the switch', async () => {
+    const front = exampleCorners.fsFrontWishbone;
+    const { store, choose, draft, draftInput, apply, cancel, undo, el } = setUp(front, 'imperial');
+    // The select shows its value once its options are there.
+    await settle();
+    expect(el.querySelector('[data-setting="steering.kind"] mat-select')!.textContent.trim()).toBe('Steering rack');
+    choose('steering.kind', 'Steering-box arm');
+    expect(draftInput('steering.armAxisPoint[0]').closest('mat-form-field')!.textContent).toContain('in');
+    cancel();
+    expect(el.querySelector('[data-group="steering-draft"]')).toBeNull();
+    expect(el.querySelector('[data-setting="steering.kind"] mat-select')!.textContent.trim()).toBe('Steering rack');
+    expect(store.canUndo()).toBe(false);
+    choose('steering.kind', 'Steering-box arm');
+    draft('steering.angularStrokeDeg[0]', '-35');
+    draft('steering.angularStrokeDeg[1]', '35');
+    ['-4', '4', '5'].forEach((v, i) => draft(`steering.armAxisPoint[${i}]`, v));
+    ['0', '0', '1'].forEach((v, i) => draft(`steering.armAxisDirection[${i}]`, v));
+    apply();
+    const st = store.corner()!.steering;
+    expect(st?.kind).toBe('arm');
+    if (st?.kind !== 'arm') return;
+    // 4 in = 101.6 mm, 5 in = 127 mm (exact).
+    expect(st.armAxisPoint.map((v) => +v.toFixed(9))).toEqual([-101.6, 101.6, 127]);
+    expect(st.angularStrokeDeg).toEqual([-35, 35]);
+    undo();
+    expect(store.corner()).toEqual(front);
+  });
+
+  it('unticking Steered while a steering is being chosen drops it and sends nothing', () => {
+    const rear = exampleCorners.fsRearWishbone;
+    const { store, toggle, choose, draft, box, el } = setUp(rear);
+    toggle('[data-setting="steered"]');
+    choose('steering.kind', 'Steering rack');
+    draft('steering.rackStroke[0]', '-30');
+    toggle('[data-setting="steered"]');
+    expect(box('[data-setting="steered"]').checked).toBe(false);
+    expect(el.querySelector('[data-group="steering-draft"], [data-setting="steering.kind"]')).toBeNull();
+    expect(store.corner()).toEqual(rear);
+    expect(store.canUndo()).toBe(false);
   });
 
   it('refuses a fixed toe link while the steering has a rate, in words, and sends nothing', () => {
@@ -237,6 +367,7 @@ describe('CornerMounts', () => {
     const { el } = setUp(withSetting(exampleCorners.fsFrontWishbone, 'bushings.lowerRear', null, { radialNPerMm: 3000, axialNPerMm: 800 }), 'si', false);
     expect(el.querySelector('mat-checkbox, mat-select, input')).toBeNull();
     expect(el.querySelector('[data-setting="steered"]')!.textContent.trim()).toBe('Steered');
+    expect(el.querySelector('[data-setting="steering.kind"]')!.textContent.trim()).toBe('Steered by: Steering rack');
     expect(el.querySelector('[data-setting="spring.rodOuterOn"]')!.textContent.trim()).toBe('Push/pull rod, outer end rides on: Lower arm');
     expect(el.querySelector('[data-setting="antiRollBar.dropLinkOuterOn"]')!.textContent.trim()).toBe('Anti-roll bar drop link, suspension end rides on: Lower arm');
     expect(el.querySelector('[data-mount="bushings.lowerFront"] .rw-rigid')!.textContent.trim()).toBe('Rigid');

@@ -3,6 +3,7 @@ import { MatError, MatFormField, MatLabel, MatSuffix } from '@angular/material/f
 import { MatInput } from '@angular/material/input';
 import { MatCheckbox, type MatCheckboxChange } from '@angular/material/checkbox';
 import { MatOption, MatSelect } from '@angular/material/select';
+import { MatButton } from '@angular/material/button';
 import type { Corner } from '../../../../shared/schema/corner';
 import type { Attachment } from '../../../../shared/schema/corner-rules';
 import { issueWords, wordNumber, type FigureWords } from '../../../../shared/schema/issue-words';
@@ -15,21 +16,57 @@ import { inputValue } from '../../core/forms/dom-events';
 import type { SettingEdit } from './corner-settings';
 import {
   ATTACHMENT_WORDS,
+  STEERING_KIND_WORDS,
   complianceMounts,
   cornerAttachments,
   editIssues,
   ruleLabels,
+  steeringFrom,
+  steeringSlots,
+  tupleRule,
   typedSetting,
+  withSetting,
   type ComplianceMount,
   type MountRate,
+  type SettingSlot,
   type SettingValue,
+  type SteeringKind,
 } from './corner-settings-model';
 
 const RATE = CORNER_RANGES.complianceRateNPerMm;
 
 /**
+ * A steering being chosen, not yet in the corner: ticking Steered on a corner with none (`steer`), or switching a
+ * steered corner to the other kind (`switch`); the kind (none chosen yet) and the text typed into each of its fields.
+ */
+interface SteeringDraft {
+  readonly reason: 'steer' | 'switch';
+  readonly kind: SteeringKind | null;
+  readonly texts: ReadonlyMap<string, string>;
+}
+
+/** The rows of a steering's fields: one per stroke, point or axis, each field with its id (`steering.rackStroke[0]`). */
+interface DraftRow {
+  readonly path: string;
+  readonly title: string;
+  readonly slots: readonly (SettingSlot & { readonly id: string })[];
+}
+
+const ROW_TITLES: Readonly<Record<string, string>> = {
+  'steering.rackStroke': 'Stroke',
+  'steering.rackAxis': 'Rack axis',
+  'steering.angularStrokeDeg': 'Stroke',
+  'steering.armAxisPoint': 'Arm pivot point',
+  'steering.armAxisDirection': 'Arm axis',
+};
+
+/**
  * The corner's inputs that are choices or compliance, beside "Wheel, steering
- * and axes": whether the corner is steered (or has a fixed toe link), which
+ * and axes": whether the corner is steered (or has a fixed toe link) and by
+ * what (a steering rack or a steering-box arm: ticking Steered on a corner
+ * without one, or choosing the other kind, asks for that kind's stroke and
+ * axis in the user's units and sends them, with steered, as one change once
+ * every value passes the corner's rules), which
  * link of a five-link corner is the toe link, what the spring's (or
  * pushrod's) outer end and the anti-roll bar's drop link ride on (only the
  * parts the corner type has), and the compliance rates: each bushing's radial
@@ -43,19 +80,59 @@ const RATE = CORNER_RANGES.complianceRateNPerMm;
  */
 @Component({
   selector: 'rw-corner-mounts',
-  imports: [MatFormField, MatLabel, MatSuffix, MatError, MatInput, MatSelect, MatOption, MatCheckbox, ErrorState],
+  imports: [MatFormField, MatLabel, MatSuffix, MatError, MatInput, MatSelect, MatOption, MatCheckbox, MatButton, ErrorState],
   template: `
     <section class="rw-corner-mounts" aria-labelledby="rw-corner-mounts-title">
       <h3 id="rw-corner-mounts-title">Attachments, steering and compliance</h3>
       <fieldset data-group="steering">
         <legend>Steering</legend>
         @if (editable()) {
-          <mat-checkbox data-setting="steered" [checked]="corner().steered" (change)="setSteered($event)">Steered</mat-checkbox>
+          <mat-checkbox data-setting="steered" [checked]="corner().steered || draft()?.reason === 'steer'" (change)="setSteered($event)">Steered</mat-checkbox>
         } @else {
           <p class="rw-setting-text" data-setting="steered">{{ corner().steered ? 'Steered' : 'Not steered' }}</p>
         }
         <p class="rw-muted">{{ steeringNote() }}</p>
         @if (errors().get('steered'); as e) { <p class="rw-form-error" role="alert" data-error="steered">{{ e }}</p> }
+        @if (shownKind(); as k) {
+          @if (editable()) {
+            <mat-form-field class="rw-choice-field" appearance="outline" subscriptSizing="dynamic" data-setting="steering.kind">
+              <mat-label>Steered by</mat-label>
+              <mat-select #kind [value]="k === 'none' ? null : k" placeholder="Choose a rack or an arm" (selectionChange)="chooseKind(kind, $event.value)">
+                @for (o of kinds; track o) { <mat-option [value]="o">{{ kindWords[o] }}</mat-option> }
+              </mat-select>
+            </mat-form-field>
+          } @else if (k !== 'none') {
+            <p class="rw-setting-text" data-setting="steering.kind">Steered by: {{ kindWords[k] }}</p>
+          }
+        }
+        @if (draft(); as d) {
+          <div class="rw-steering-draft" data-group="steering-draft" role="group" aria-label="The new steering">
+            @if (!d.kind) {
+              <p class="rw-muted" role="status">Choose a steering rack or a steering-box arm; until its values are given the corner stays as it is.</p>
+            } @else {
+              <p class="rw-muted" role="status">{{ draftNote(d.kind) }} Nothing changes until every value is given and applied.</p>
+              @for (r of draftRows(); track r.path) {
+                <div class="rw-draft-row" [attr.data-row]="r.path">
+                  <span class="rw-mount-name">{{ r.title }}</span>
+                  @for (f of r.slots; track f.id) {
+                    <mat-form-field appearance="outline" subscriptSizing="dynamic" [attr.data-draft]="f.id">
+                      <mat-label>{{ f.label }}</mat-label>
+                      <input matInput inputmode="decimal" autocomplete="off" [rwErrorState]="!!draftErrors().get(f.id)" [value]="d.texts.get(f.id) ?? ''" (change)="typeDraft(f, $event)" />
+                      @if (unitOf(f)) { <span matTextSuffix>{{ unitOf(f) }}</span> }
+                      <mat-error role="alert">{{ draftErrors().get(f.id) }}</mat-error>
+                    </mat-form-field>
+                  }
+                </div>
+                @if (draftErrors().get(r.path); as e) { <p class="rw-form-error" role="alert" [attr.data-error]="r.path">{{ e }}</p> }
+              }
+              @if (draftErrors().get('steering'); as e) { <p class="rw-form-error" role="alert" data-error="steering">{{ e }}</p> }
+            }
+            <div class="rw-draft-actions">
+              <button mat-flat-button type="button" data-action="apply-steering" [disabled]="!d.kind" (click)="applyDraft()">Apply the steering</button>
+              <button mat-button type="button" data-action="cancel-steering" (click)="cancelDraft()">Cancel</button>
+            </div>
+          </div>
+        }
         @if (toeLink(); as t) {
           @if (editable()) {
             <mat-form-field appearance="outline" subscriptSizing="dynamic" data-setting="toeLink">
@@ -139,6 +216,9 @@ const RATE = CORNER_RANGES.complianceRateNPerMm;
     .rw-rigid { font: var(--mat-sys-label-large); }
     .rw-muted { color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-body-small); margin: 0.25rem 0 0.5rem; }
     .rw-unusual { font: var(--mat-sys-body-small); margin: 0 0 0.25rem; }
+    .rw-steering-draft { border-left: 3px solid var(--mat-sys-primary); padding: 0.25rem 0 0.25rem 0.75rem; margin: 0.5rem 0; }
+    .rw-draft-row { display: flex; flex-wrap: wrap; align-items: center; gap: 0.25rem 0; margin: 0.25rem 0; }
+    .rw-draft-actions { display: flex; gap: 0.5rem; margin-top: 0.5rem; }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
@@ -212,8 +292,145 @@ export class CornerMounts {
     });
   }
 
+  protected readonly kinds = ['rack', 'arm'] as const;
+  protected readonly kindWords = STEERING_KIND_WORDS;
+  /** A steering being chosen (null when none is): nothing of it is in the corner until it is applied. */
+  protected readonly draft = signal<SteeringDraft | null>(null);
+  /** Refusals in the steering being chosen, by field id (`steering.rackStroke[0]`), row (`steering.rackStroke`) or `steering`. */
+  protected readonly draftErrors = signal<ReadonlyMap<string, string>>(new Map());
+
+  /** The kind the select shows: the one being chosen, the corner's own when steered, 'none' while ticked without one; null: no select. */
+  protected readonly shownKind = computed((): SteeringKind | 'none' | null => {
+    const d = this.draft();
+    if (d) return d.kind ?? 'none';
+    const c = this.corner();
+    return c.steered && c.steering ? c.steering.kind : null;
+  });
+
+  protected readonly draftRows = computed((): DraftRow[] => {
+    const kind = this.draft()?.kind;
+    if (!kind) return [];
+    const rows: DraftRow[] = [];
+    for (const slot of steeringSlots(kind)) {
+      const f = { ...slot, id: `${slot.path}[${slot.index ?? 0}]` };
+      const row = rows.find((r) => r.path === slot.path);
+      if (row) rows[rows.indexOf(row)] = { ...row, slots: [...row.slots, f] };
+      else rows.push({ path: slot.path, title: ROW_TITLES[slot.path] ?? slot.label, slots: [f] });
+    }
+    return rows;
+  });
+
+  protected draftNote(kind: SteeringKind): string {
+    return kind === 'rack'
+      ? `Give the rack's stroke in ${unitLabel('length', this.units())}, from its end toward the right (at or below 0) to its end toward the left (at or above 0). The rack moves along the lateral axis (0, 1, 0) unless you give another direction.`
+      : `Give the arm's stroke in degrees, both ends (one at or below 0, the other at or above 0), its pivot point in ${unitLabel('length', this.units())} (vehicle axes) and its pivot axis direction.`;
+  }
+
+  protected unitOf(f: SettingSlot): string {
+    return f.kind === 'length' ? unitLabel('length', this.units()) : f.kind === 'angle' ? 'deg' : '';
+  }
+
   protected setSteered(event: MatCheckboxChange): void {
+    const c = this.corner();
+    if (event.checked && !c.steering) {
+      // No rack or arm to steer with: ask for one instead of making up its geometry.
+      this.setError('steered', null);
+      this.startDraft('steer', null);
+      return;
+    }
+    if (!event.checked && this.draft()?.reason === 'steer') {
+      this.cancelDraft();
+      return;
+    }
+    if (!event.checked) this.cancelDraft();
     if (!this.send('steered', 'steered', event.checked, 'Steered')) event.source.checked = this.corner().steered;
+  }
+
+  protected chooseKind(select: MatSelect, kind: SteeringKind): void {
+    const d = this.draft();
+    const own = this.corner().steered ? this.corner().steering?.kind : undefined;
+    if (d?.reason !== 'steer' && kind === own) {
+      this.cancelDraft();
+      return;
+    }
+    if (d?.kind === kind) return;
+    this.startDraft(d?.reason ?? 'switch', kind);
+    select.value = kind;
+  }
+
+  private startDraft(reason: SteeringDraft['reason'], kind: SteeringKind | null): void {
+    // The rack's direction is the corner format's own default (lateral), shown and editable, never hidden.
+    const texts = new Map<string, string>(kind === 'rack' ? [['steering.rackAxis[0]', '0'], ['steering.rackAxis[1]', '1'], ['steering.rackAxis[2]', '0']] : []);
+    this.draft.set({ reason, kind, texts });
+    this.draftErrors.set(new Map());
+  }
+
+  protected cancelDraft(): void {
+    this.draft.set(null);
+    this.draftErrors.set(new Map());
+  }
+
+  /** A field of the steering being chosen: kept as typed, and refused beside it at once when it is not a possible value. */
+  protected typeDraft(f: SettingSlot & { readonly id: string }, event: Event): void {
+    const d = this.draft();
+    if (!d) return;
+    const text = inputValue(event).trim();
+    this.draft.set({ ...d, texts: new Map(d.texts).set(f.id, text) });
+    const errors = new Map(this.draftErrors());
+    errors.delete(f.path);
+    errors.delete('steering');
+    const typed = text === '' ? null : this.typedDraft(f, text);
+    if (typed && 'problem' in typed) errors.set(f.id, typed.problem);
+    else errors.delete(f.id);
+    this.draftErrors.set(errors);
+  }
+
+  private typedDraft(f: SettingSlot, text: string) {
+    return typedSetting(text, f.label, f.range, f.kind === 'length' ? 'length' : null, this.unitOf(f), this.units());
+  }
+
+  /**
+   * Checks every value of the steering being chosen (each beside its field, all at once), then the steering as a
+   * whole with the corner's own rules; sends it as one change (steered, with its rack or arm) only when all pass.
+   */
+  protected applyDraft(): void {
+    const d = this.draft();
+    if (!d?.kind) return;
+    const kind = d.kind;
+    const errors = new Map<string, string>();
+    const values = new Map<string, number>();
+    for (const r of this.draftRows()) {
+      for (const f of r.slots) {
+        const text = d.texts.get(f.id) ?? '';
+        const typed = text === '' ? { problem: `${f.label}: enter a value${this.unitOf(f) ? ` in ${this.unitOf(f)}` : ''}.` } : this.typedDraft(f, text);
+        if ('problem' in typed) errors.set(f.id, typed.problem);
+        else values.set(f.id, typed.value);
+      }
+      const tuple = r.slots.map((f) => values.get(f.id));
+      if (tuple.every((v) => v !== undefined)) {
+        const rule = tupleRule(r.path, r.slots[0]?.kind ?? 'length', tuple);
+        if (rule) errors.set(r.path, `${r.title}: ${rule}.`);
+      }
+    }
+    if (errors.size === 0) {
+      const steering = steeringFrom(kind, (path, i) => values.get(`${path}[${i}]`) ?? NaN);
+      const corner = this.corner();
+      // Named as on the steered corner (its tie rod, not a fixed toe link).
+      const labels = ruleLabels(withSetting(corner, 'steering', null, steering));
+      for (const issue of editIssues(corner, 'steering', null, steering)) {
+        // A rule on a point (the toe link's body end on the arm's axis) belongs beside the arm's pivot point.
+        const row = issue.path.startsWith('points.') ? 'steering.armAxisPoint' : this.draftRows().some((r) => r.path === issue.path) ? issue.path : 'steering';
+        const words = issueWords({ code: 'custom', path: issue.path.split('.'), message: issue.message }, withSetting(corner, 'steering', null, steering), labels, this.figureWords);
+        errors.set(row, [errors.get(row), `${ROW_TITLES[row] ?? STEERING_KIND_WORDS[kind]}: ${words}.`].filter(Boolean).join(' '));
+      }
+      if (errors.size === 0) {
+        this.cancelDraft();
+        this.setError('steered', null);
+        this.settingEdited.emit({ path: 'steering', index: null, value: steering });
+        return;
+      }
+    }
+    this.draftErrors.set(errors);
   }
 
   protected chooseToeLink(select: MatSelect, link: number): void {

@@ -1,4 +1,4 @@
-import type { Corner } from '../../../../shared/schema/corner';
+import type { Corner, Vec3 } from '../../../../shared/schema/corner';
 import { BUSHING_POINTS, STIFF_LINKS, attachmentIssue, cornerSemanticIssues, type Attachment } from '../../../../shared/schema/corner-rules';
 import { CORNER_RANGES, formatRangeValue, type InputRange } from '../../../../shared/schema/ranges';
 import type { DisplayUnits } from '../../core/api-types';
@@ -13,10 +13,10 @@ import { pointName } from './hardpoint-model';
 export type SettingKind = 'length' | 'angle' | 'direction' | 'rate' | 'choice';
 
 /**
- * What a setting is set to: a number, a choice (an attachment), a flag (steered), a bushing's two rates; undefined
- * takes a rate's key out of the corner (the mount is rigid again).
+ * What a setting is set to: a number, a choice (an attachment), a flag (steered), a bushing's two rates, a whole
+ * steering (a rack or an arm); undefined takes a rate's key out of the corner (the mount is rigid again).
  */
-export type SettingValue = number | string | boolean | Readonly<Record<string, number>> | undefined;
+export type SettingValue = number | string | boolean | Readonly<Record<string, number>> | Steering | undefined;
 
 /**
  * One number of a corner that is not a hardpoint position (the hardpoint
@@ -47,6 +47,48 @@ function axisFields(path: string, what: string, v: readonly number[]): SettingFi
   return AXES.map((a, i) => ({ path, index: i, label: `${what} ${a}`, kind: 'direction', range: CORNER_RANGES.directionComponent, value: v[i] ?? 0 }));
 }
 
+/** A steering definition of the corner document: a rack or a steering-box arm. */
+export type Steering = NonNullable<Corner['steering']>;
+export type SteeringKind = Steering['kind'];
+
+/** A steering kind in words, in the order they are offered. */
+export const STEERING_KIND_WORDS: Readonly<Record<SteeringKind, string>> = { rack: 'Steering rack', arm: 'Steering-box arm' };
+
+/** Where a setting sits and what it measures, before it has a value (a steering being chosen has none yet). */
+export type SettingSlot = Omit<SettingField, 'value'>;
+
+const STEERING_NOTES: Readonly<Record<SteeringKind, string>> = {
+  rack: 'Stroke: the rack travel from one end to the other through straight ahead (0); + is toward the left (+y). Axis: the direction the rack moves in; only its direction counts.',
+  arm: 'Stroke: the arm rotation from one end to the other through straight ahead (0). Axis: the direction of the arm\'s pivot axis; only its direction counts.',
+};
+
+/** The numbers of a steering of `kind`, in the order they are shown: the stroke ends, then the axis (an arm: its pivot point, then its direction). */
+export function steeringSlots(kind: SteeringKind): SettingSlot[] {
+  const axis = (path: string, what: string) => axisFields(path, what, [0, 0, 0]).map(({ value: _, ...slot }) => slot);
+  if (kind === 'rack') {
+    return [
+      { path: 'steering.rackStroke', index: 0, label: 'Stroke toward the right (−y)', kind: 'length', range: CORNER_RANGES.rackStrokeMm },
+      { path: 'steering.rackStroke', index: 1, label: 'Stroke toward the left (+y)', kind: 'length', range: CORNER_RANGES.rackStrokeMm },
+      ...axis('steering.rackAxis', 'Rack axis'),
+    ];
+  }
+  return [
+    { path: 'steering.angularStrokeDeg', index: 0, label: 'Stroke, one end', kind: 'angle', range: CORNER_RANGES.armStrokeDeg },
+    { path: 'steering.angularStrokeDeg', index: 1, label: 'Stroke, other end', kind: 'angle', range: CORNER_RANGES.armStrokeDeg },
+    ...AXES.map((a, i): SettingSlot => ({ path: 'steering.armAxisPoint', index: i, label: `Arm pivot point ${a}`, kind: 'length', range: CORNER_RANGES.coordinateMm })),
+    ...axis('steering.armAxisDirection', 'Arm axis'),
+  ];
+}
+
+/** A steering of `kind` from its numbers (stored units) by `path[index]`, as `steeringSlots` lists them. */
+export function steeringFrom(kind: SteeringKind, value: (path: string, index: number) => number): Steering {
+  const tuple = (path: string) => [0, 1, 2].map((i) => value(path, i)) as Vec3;
+  const pair = (path: string): [number, number] => [value(path, 0), value(path, 1)];
+  return kind === 'rack'
+    ? { kind: 'rack', rackAxis: tuple('steering.rackAxis'), rackStroke: pair('steering.rackStroke') }
+    : { kind: 'arm', armAxisPoint: tuple('steering.armAxisPoint'), armAxisDirection: tuple('steering.armAxisDirection'), angularStrokeDeg: pair('steering.angularStrokeDeg') };
+}
+
 /** The corner's settings, grouped as the corner has them (a rack, an arm, a rocker, a bar). */
 export function cornerSettings(corner: Corner): SettingGroup[] {
   const groups: SettingGroup[] = [
@@ -58,28 +100,12 @@ export function cornerSettings(corner: Corner): SettingGroup[] {
     },
   ];
   const st = corner.steered ? corner.steering : undefined;
-  if (st?.kind === 'rack') {
+  if (st) {
     groups.push({
-      id: 'rack',
-      title: 'Steering rack',
-      note: 'Stroke: the rack travel from one end to the other through straight ahead (0); + is toward the left (+y). Axis: the direction the rack moves in; only its direction counts.',
-      fields: [
-        { path: 'steering.rackStroke', index: 0, label: 'Stroke toward the right (−y)', kind: 'length', range: CORNER_RANGES.rackStrokeMm, value: st.rackStroke[0] },
-        { path: 'steering.rackStroke', index: 1, label: 'Stroke toward the left (+y)', kind: 'length', range: CORNER_RANGES.rackStrokeMm, value: st.rackStroke[1] },
-        ...axisFields('steering.rackAxis', 'Rack axis', st.rackAxis),
-      ],
-    });
-  } else if (st?.kind === 'arm') {
-    groups.push({
-      id: 'arm',
-      title: 'Steering arm',
-      note: 'Stroke: the arm rotation from one end to the other through straight ahead (0). Axis: the direction of the arm\'s pivot axis; only its direction counts.',
-      fields: [
-        { path: 'steering.angularStrokeDeg', index: 0, label: 'Stroke, one end', kind: 'angle', range: CORNER_RANGES.armStrokeDeg, value: st.angularStrokeDeg[0] },
-        { path: 'steering.angularStrokeDeg', index: 1, label: 'Stroke, other end', kind: 'angle', range: CORNER_RANGES.armStrokeDeg, value: st.angularStrokeDeg[1] },
-        ...AXES.map((a, i): SettingField => ({ path: 'steering.armAxisPoint', index: i, label: `Arm pivot point ${a}`, kind: 'length', range: CORNER_RANGES.coordinateMm, value: st.armAxisPoint[i] ?? 0 })),
-        ...axisFields('steering.armAxisDirection', 'Arm axis', st.armAxisDirection),
-      ],
+      id: st.kind,
+      title: st.kind === 'rack' ? 'Steering rack' : 'Steering arm',
+      note: STEERING_NOTES[st.kind],
+      fields: steeringSlots(st.kind).map((slot) => ({ ...slot, value: (read(corner, slot.path) as readonly number[])[slot.index ?? 0] ?? 0 })),
     });
   }
   if (corner.spring?.kind === 'rocker') {
@@ -102,7 +128,8 @@ const RATE_CONTAINERS = new Set(['bushings', 'linkAxialNPerMm']);
 
 /**
  * A copy of the corner with the setting at `path` (a value, or one component of a tuple) replaced; undefined takes the
- * key out (a rate back to rigid). The input is not changed.
+ * key out (a rate back to rigid). A whole steering (`steering`, a rack or an arm) makes the corner steered as well.
+ * The input is not changed.
  */
 export function withSetting(corner: Corner, path: string, index: number | null, value: SettingValue): Corner {
   const copy = structuredClone(corner) as unknown as Record<string, unknown>;
@@ -123,6 +150,8 @@ export function withSetting(corner: Corner, path: string, index: number | null, 
   if (index === null) {
     if (value === undefined) delete parent[last];
     else parent[last] = structuredClone(value);
+    // A steering put in is chosen to steer with: ticking Steered and giving its rack or arm is one change.
+    if (path === 'steering' && value !== undefined) copy['steered'] = true;
   } else {
     const tuple = parent[last];
     if (!Array.isArray(tuple)) throw new Error(`This corner has no ${path}`);
@@ -142,6 +171,7 @@ function settingPaths(corner: Corner): string[] {
   return [
     ...cornerSettings(corner).flatMap((g) => g.fields.map((f) => f.path)),
     'steered',
+    ...(corner.steering ? ['steering.kind'] : []),
     ...(corner.type === 'five-link' ? ['toeLink'] : []),
     ...cornerAttachments(corner).map((f) => f.path),
     ...complianceMounts(corner).map((m) => m.path),
@@ -155,18 +185,22 @@ export function changedSettings(a: Corner, b: Corner): string[] {
 }
 
 /**
- * What is wrong with a setting once `value` (stored unit) is put in, beyond its possible range: a stroke that
- * does not run through straight ahead, an axis with no direction. Null when it may be used.
+ * What is wrong with a tuple setting's numbers (`path`, stored units) beyond each one's possible range: a stroke that
+ * does not run through straight ahead, an axis with no direction. Null when they may be used.
  */
-export function settingRule(corner: Corner, field: SettingField, value: number): string | null {
-  if (field.index === null) return null;
-  const next = (read(withSetting(corner, field.path, field.index, value), field.path) as number[]).slice();
-  if (field.path === 'steering.rackStroke' || field.path === 'steering.angularStrokeDeg') {
-    const [lo, hi] = next as [number, number];
+export function tupleRule(path: string, kind: SettingKind, values: readonly number[]): string | null {
+  if (path === 'steering.rackStroke' || path === 'steering.angularStrokeDeg') {
+    const [lo = NaN, hi = NaN] = values;
     if (!(lo <= 0 && hi >= 0 && lo < hi)) return 'the stroke must run from one end to the other through straight ahead: the first end at or below 0, the second at or above 0';
   }
-  if (field.kind === 'direction' && next.every((x) => x === 0)) return 'an axis needs a direction: x, y and z cannot all be 0';
+  if (kind === 'direction' && values.every((x) => x === 0)) return 'an axis needs a direction: x, y and z cannot all be 0';
   return null;
+}
+
+/** What is wrong with a setting once `value` (stored unit) is put in, beyond its possible range (`tupleRule`). Null when it may be used. */
+export function settingRule(corner: Corner, field: SettingField, value: number): string | null {
+  if (field.index === null) return null;
+  return tupleRule(field.path, field.kind, read(withSetting(corner, field.path, field.index, value), field.path) as number[]);
 }
 
 /**
@@ -204,6 +238,7 @@ export function settingRow(corner: Corner, path: string): { name: string; kind: 
   const named: Corner = { ...corner, steered: true };
   const holds = (p: { readonly path: string }) => p.path === path;
   if (path === 'steered') return { name: 'Steering', kind: 'choice', value: corner.steered ? 'steered' : 'fixed toe link' };
+  if (path === 'steering.kind') return { name: 'Steering, kind', kind: 'choice', value: corner.steering ? STEERING_KIND_WORDS[corner.steering.kind].toLowerCase() : undefined };
   if (path === 'toeLink') return { name: 'Toe link', kind: 'choice', value: typeof v === 'number' ? `link ${v}` : undefined };
   const attachment = cornerAttachments(corner).find((f) => f.path === path);
   if (attachment) return { name: attachment.label, kind: 'choice', value: ATTACHMENT_WORDS[attachment.value].toLowerCase() };
@@ -223,8 +258,9 @@ export function settingRow(corner: Corner, path: string): { name: string; kind: 
 
 /** A copy of `corner` with every setting that differs taken from `source` (the saved revision): the points stay as they are. */
 export function withSettingsFrom(corner: Corner, source: Corner): Corner {
-  let copy = corner;
-  for (const path of changedSettings(corner, source)) {
+  // A steering of the other kind, or one the saved revision lacks, comes back whole: one kind's numbers do not fit the other.
+  let copy = source.steering?.kind === corner.steering?.kind ? corner : withSetting(corner, 'steering', null, source.steering);
+  for (const path of changedSettings(copy, source)) {
     const value = read(source, path);
     // A rate the saved revision lacks is rigid there; any other setting it lacks is left as it is.
     if (value === undefined && !complianceMounts(corner).some((m) => m.path === path)) continue;
@@ -327,6 +363,10 @@ export function ruleLabels(corner: Corner): Record<string, string> {
     steeringStiffnessNPerMm: 'The steering rate',
     'give its rate as linkAxialNPerMm or a bushing': 'set the steering rate back to rigid first, and give the toe link its rate as a link rate or a bushing',
     'steering.armAxisPoint': 'the arm pivot point',
+    'steering.armAxisDirection': 'the arm axis',
+    'steering.angularStrokeDeg': 'the arm stroke',
+    'steering.rackStroke': 'the rack stroke',
+    'steering.rackAxis': 'the rack axis',
     lowerArm: 'the lower arm',
     upperArm: 'the upper arm',
   };

@@ -149,4 +149,21 @@ describe('CornerSettings', () => {
     expect(withSetting(withSetting(c, 'linkAxialNPerMm.tieRod', null, 9000), 'linkAxialNPerMm.tieRod', null, undefined)).toEqual(c);
     expect(c.bushings).toBeUndefined();
   });
+
+  it('counts a steering of the other kind, or a new one, as a change, and restores the saved steering whole', () => {
+    const front = exampleCorners.fsFrontWishbone;
+    const arm = { kind: 'arm', armAxisPoint: [-40, 150, 140], armAxisDirection: [0, 0, 1], angularStrokeDeg: [-30, 30] } as const;
+    const switched = withSetting(front, 'steering', null, { ...arm, armAxisPoint: [...arm.armAxisPoint], armAxisDirection: [...arm.armAxisDirection], angularStrokeDeg: [...arm.angularStrokeDeg] });
+    expect(changedSettings(switched, front)).toContain('steering.kind');
+    expect(settingRow(switched, 'steering.kind')).toEqual({ name: 'Steering, kind', kind: 'choice', value: 'steering-box arm' });
+    expect(settingRow(front, 'steering.kind').value).toBe('steering rack');
+    // The rack comes back whole, not the arm with a rack's stroke put into it.
+    expect(withSettingsFrom(switched, front)).toEqual(front);
+    // A rear corner given a rack (steered with it in one change) goes back to having none.
+    const rear = exampleCorners.fsRearWishbone;
+    const steered = withSetting(rear, 'steering', null, { kind: 'rack', rackAxis: [0, 1, 0], rackStroke: [-20, 20] });
+    expect(steered.steered).toBe(true);
+    expect(changedSettings(steered, rear).sort()).toEqual(['steered', 'steering.kind', 'steering.rackAxis', 'steering.rackStroke']);
+    expect(withSettingsFrom(steered, rear)).toEqual(rear);
+  });
 });
