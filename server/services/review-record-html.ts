@@ -14,6 +14,7 @@
 import { line, scaleLinear } from 'd3';
 import { inputWords, resultWords } from '../../shared/io/result-words.js';
 import { hardpointRows } from '../../shared/io/hardpoint-points.js';
+import { cornerInputRows } from '../../shared/io/corner-inputs.js';
 import type { Corner } from '../../shared/schema/corner.js';
 import { displayDecimals, inDisplayUnits, kindForUnit, unitLabel, type QuantityKind } from '../../shared/units/quantities.js';
 import { formatNum } from '../../shared/units/format.js';
@@ -100,7 +101,7 @@ function leaves(doc: unknown, prefix: string, out: { path: string; value: unknow
 function inputTable(title: string, top: string, doc: unknown, f: Figures, corner?: Corner): string {
   const pointNames = new Map(corner ? hardpointRows(corner).map((h) => [`${top}.${h.key}`, h.name]) : []);
   const rows = leaves(doc, top)
-    .filter((r) => !r.path.endsWith('formatVersion'))
+    .filter((r) => !r.path.endsWith('formatVersion') && !(corner && LISTED_APART.test(r.path.slice(top.length + 1))))
     .map((r) => {
       const w = inputWords(r.path);
       const point = Array.isArray(r.value) ? pointNames.get(r.path) : undefined;
@@ -118,6 +119,29 @@ function inputTable(title: string, top: string, doc: unknown, f: Figures, corner
             : esc(r.value);
       const unit = point ? `${f.unit('length')} (x, y, z)` : w.kind ? f.unit(w.kind) : (w.unit ?? '');
       return `<tr><th scope="row">${esc(label)}</th><td class="num">${value}</td><td>${esc(unit)}</td></tr>`;
+    })
+    .join('');
+  return `<table class="inputs"><caption>${esc(title)}</caption><thead><tr><th scope="col">Input</th><th scope="col">Value</th><th scope="col">Unit</th></tr></thead><tbody>${rows}</tbody></table>`;
+}
+
+/** Corner keys the steering, attachments and compliance table lists in words (cornerInputTable), left out of the plain list. */
+const LISTED_APART = /^(steered|steering\.|toeLink|spring\.\w+On$|antiRollBar\.dropLinkOuterOn|bushings\.|linkAxialNPerMm\.|steeringStiffnessNPerMm)/;
+
+/**
+ * A corner's steering (steered or a fixed toe link, the rack or arm with its stroke and axis), the five-link toe link,
+ * what each part rides on and every compliance rate, "rigid" where none is given (shared/io/corner-inputs.ts), as the
+ * design report lists them; numbers to 6 significant figures in the reader's units.
+ */
+function cornerInputTable(title: string, corner: Corner, f: Figures): string {
+  let group = '';
+  const rows = cornerInputRows(corner)
+    .map((r) => {
+      const head = r.group === group ? '' : `<tr><th scope="colgroup" colspan="3">${esc(r.group)}</th></tr>`;
+      group = r.group;
+      const rigid = typeof r.value !== 'string' && 'rigid' in r.value;
+      const value =
+        typeof r.value === 'string' ? esc(r.value) : 'rigid' in r.value ? 'rigid' : r.value.map((x) => (r.kind ? f.sig(x, r.kind, 6) : String(Number(x.toPrecision(6))).replace('-', '−'))).join(', ');
+      return `${head}<tr><th scope="row">${esc(r.label)}</th><td class="num">${value}</td><td>${r.kind && !rigid ? esc(f.unit(r.kind)) : ''}</td></tr>`;
     })
     .join('');
   return `<table class="inputs"><caption>${esc(title)}</caption><thead><tr><th scope="col">Input</th><th scope="col">Value</th><th scope="col">Unit</th></tr></thead><tbody>${rows}</tbody></table>`;
@@ -260,7 +284,9 @@ export function renderReviewRecordHtml(r: ReviewRecordAnswer, units: DisplayUnit
 <section class="inputs-section"><h2>8. Inputs</h2>
   ${inputTable('Vehicle', 'vehicle', r.inputs.vehicle, f)}
   ${inputTable('Front corner', 'frontCorner', r.inputs.frontCorner, f, r.inputs.frontCorner)}
+  ${cornerInputTable('Front corner: steering, attachments and compliance', r.inputs.frontCorner, f)}
   ${inputTable('Rear corner', 'rearCorner', r.inputs.rearCorner, f, r.inputs.rearCorner)}
+  ${cornerInputTable('Rear corner: steering, attachments and compliance', r.inputs.rearCorner, f)}
 </section>
 <footer class="record-foot"><p class="safety" role="note"><strong>Safety:</strong> ${esc(r.safetyNotice)}</p></footer>
 </main></body></html>`;

@@ -269,6 +269,41 @@ describe('configuration review record', () => {
     expect(bytes.length).toBeGreaterThan(10_000);
   });
 
+  it('lists each corner\'s steering, what its parts ride on and every compliance rate in words, "rigid" where none is given, in the reader\'s units', async () => {
+    // A rear design with one compliant bushing and a toe-link rate (invented values); every other mount is rigid.
+    const compliant = { ...structuredClone(exampleCorners.fsRearWishbone), bushings: { lowerFront: { radialNPerMm: 1751.2683524647638, axialNPerMm: 875.6341762323819 } }, linkAxialNPerMm: { tieRod: 8756.341762323819 } };
+    const rear = (await designer.post(`${team()}/vehicles/${vehicleId}/axle-designs`).send({ axle: 'rear', name: 'Rear, compliant front pivot', corner: compliant }).expect(201)).body.id as string;
+    const id = await configurationIn('in_review', 'Record with compliance', rear);
+    const rec = (await viewer.get(`${cfg(id)}/record`).expect(200)).body;
+    const page = (await viewer.get(`${cfg(id)}/record.html`).query({ units: 'imperial' }).expect(200)).text;
+    const table = (title: string) => {
+      const at = page.indexOf(`<caption>${title}</caption>`);
+      expect(at, title).toBeGreaterThan(0);
+      const html = page.slice(at, page.indexOf('</table>', at));
+      return Object.fromEntries([...html.matchAll(/<th scope="row">([^<]+)<\/th><td class="num">([^<]*)<\/td><td>([^<]*)<\/td>/g)].map((m) => [m[1], `${m[2]} | ${m[3]}`]));
+    };
+    const back = table('Rear corner: steering, attachments and compliance');
+    expect(back['Steered']).toBe('no: a fixed toe link | ');
+    // 1751.27 N/mm is 10 000 lbf/in, 875.634 N/mm 5000 lbf/in (1 lbf = 4.4482216152605 N, 1 in = 25.4 mm; NIST SP 811).
+    expect(back['Bushing, Lower arm, front pivot (radial, axial)']).toBe('10000, 5000 | lbf/in');
+    expect(back['Bushing, Lower arm, rear pivot (radial, axial)']).toBe('rigid | ');
+    expect(back['Link rate, Toe link, axial']).toBe('50000 | lbf/in');
+    expect(back['Spring, suspension end rides on']).toBe(`${rec.inputs.rearCorner.spring.springOuterOn === 'lowerArm' ? 'lower arm' : 'upright'} | `);
+    expect(Object.keys(back).filter((k) => k.startsWith('Steering rate'))).toEqual([]);
+    const front = table('Front corner: steering, attachments and compliance');
+    expect(front['Steered']).toBe('yes | ');
+    expect(front['Steered by']).toBe('steering rack | ');
+    const [lo, hi] = rec.inputs.frontCorner.steering.rackStroke as [number, number];
+    const inches = (mm: number) => String(Number((mm / 25.4).toPrecision(6))).replace('-', '−');
+    expect(front['Rack stroke (toward the right, toward the left)']).toBe(`${inches(lo)}, ${inches(hi)} | in`);
+    // The demo front corner gives no steering rate: rigid.
+    expect(rec.inputs.frontCorner.steeringStiffnessNPerMm).toBeUndefined();
+    expect(front['Steering rate, steering at the rack, along its travel']).toBe('rigid | ');
+    // The plain list no longer repeats these keys in document words.
+    const plain = page.slice(page.indexOf('<caption>Rear corner</caption>'), page.indexOf('<caption>Rear corner: steering'));
+    expect(plain).not.toMatch(/<th scope="row">(steered|bushings · |spring outer on|link axial)/);
+  });
+
   it("follows the reader's unit choice: ?units=imperial, else the account setting; hardpoints converted at 25.4 mm per inch (NIST SP 811)", async () => {
     const id = await configurationIn('in_review', 'Record in inches');
     const rec = (await viewer.get(`${cfg(id)}/record`).expect(200)).body;
@@ -295,7 +330,7 @@ describe('configuration review record', () => {
     const b = inputRow('front · tyre · load sensitivity · b');
     expect(b?.[2]).toBe('1/(deg·lbf)');
     expect(Number(b![1]) / (rec.inputs.vehicle.front.tyre.loadSensitivity.b * 4.4482216152605)).toBeCloseTo(1, 5);
-    const axis = inputRow('steering · rack axis');
+    const axis = inputRow('Rack axis direction \\(x, y, z\\)');
     expect(axis?.[1]).toBe((rec.inputs.frontCorner.steering.rackAxis as number[]).map((x) => String(x).replace('-', '−')).join(', '));
     expect(axis?.[2]).toBe('');
     // Caution figures in the reader's units: no millimetre figure left in the cautions section.

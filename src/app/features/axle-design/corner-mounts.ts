@@ -14,11 +14,8 @@ import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
 import { ErrorState } from '../../core/forms/error-state';
 import { inputValue } from '../../core/forms/dom-events';
 import type { SettingEdit } from './corner-settings';
+import { ATTACHMENT_WORDS, STEERING_KIND_WORDS, complianceMounts, cornerAttachments, type ComplianceMount, type MountRate, type SteeringKind } from '../../../../shared/io/corner-inputs';
 import {
-  ATTACHMENT_WORDS,
-  STEERING_KIND_WORDS,
-  complianceMounts,
-  cornerAttachments,
   editIssues,
   ruleLabels,
   steeringFrom,
@@ -26,11 +23,8 @@ import {
   tupleRule,
   typedSetting,
   withSetting,
-  type ComplianceMount,
-  type MountRate,
   type SettingSlot,
   type SettingValue,
-  type SteeringKind,
 } from './corner-settings-model';
 
 const RATE = CORNER_RANGES.complianceRateNPerMm;

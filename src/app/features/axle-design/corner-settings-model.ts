@@ -1,5 +1,6 @@
 import type { Corner, Vec3 } from '../../../../shared/schema/corner';
-import { BUSHING_POINTS, STIFF_LINKS, attachmentIssue, cornerSemanticIssues, type Attachment } from '../../../../shared/schema/corner-rules';
+import { cornerSemanticIssues } from '../../../../shared/schema/corner-rules';
+import { ATTACHMENT_WORDS, STEERING_KIND_WORDS, complianceMounts, cornerAttachments, type Steering, type SteeringKind } from '../../../../shared/io/corner-inputs';
 import { CORNER_RANGES, formatRangeValue, type InputRange } from '../../../../shared/schema/ranges';
 import type { DisplayUnits } from '../../core/api-types';
 import { fromDisplayUnits, inDisplayUnits, type QuantityKind } from '../../core/format/quantities';
@@ -47,12 +48,6 @@ function axisFields(path: string, what: string, v: readonly number[]): SettingFi
   return AXES.map((a, i) => ({ path, index: i, label: `${what} ${a}`, kind: 'direction', range: CORNER_RANGES.directionComponent, value: v[i] ?? 0 }));
 }
 
-/** A steering definition of the corner document: a rack or a steering-box arm. */
-export type Steering = NonNullable<Corner['steering']>;
-export type SteeringKind = Steering['kind'];
-
-/** A steering kind in words, in the order they are offered. */
-export const STEERING_KIND_WORDS: Readonly<Record<SteeringKind, string>> = { rack: 'Steering rack', arm: 'Steering-box arm' };
 
 /** Where a setting sits and what it measures, before it has a value (a steering being chosen has none yet). */
 export type SettingSlot = Omit<SettingField, 'value'>;
@@ -270,79 +265,6 @@ export function withSettingsFrom(corner: Corner, source: Corner): Corner {
     copy = withSetting(copy, path, null, value as SettingValue);
   }
   return copy;
-}
-
-// ---------- choices: what a spring, pushrod or drop link rides on, the toe link, steered ----------
-
-/** An attachment in words, in the order they are offered. */
-export const ATTACHMENT_WORDS: Readonly<Record<Attachment, string>> = { upright: 'Upright', lowerArm: 'Lower arm', upperArm: 'Upper arm' };
-const ATTACHMENT_ORDER = Object.keys(ATTACHMENT_WORDS) as Attachment[];
-
-/** What one body-mounted part's outer end rides on, with the choices the corner type allows (the corner rules say which). */
-export interface AttachmentField {
-  readonly path: string;
-  readonly label: string;
-  readonly value: Attachment;
-  readonly options: readonly Attachment[];
-}
-
-/** The corner's attachments: the spring's (or pushrod's) outer end and the anti-roll bar's drop link, where it has them. */
-export function cornerAttachments(corner: Corner): AttachmentField[] {
-  const field = (path: string, label: string, value: Attachment): AttachmentField => ({
-    path,
-    label,
-    value,
-    options: ATTACHMENT_ORDER.filter((a) => a === value || attachmentIssue(corner.type, path, a) === null),
-  });
-  const out: AttachmentField[] = [];
-  const sp = corner.spring;
-  if (sp?.kind === 'direct') out.push(field('spring.springOuterOn', 'Spring, suspension end rides on', sp.springOuterOn));
-  if (sp?.kind === 'rocker') out.push(field('spring.rodOuterOn', 'Push/pull rod, outer end rides on', sp.rodOuterOn));
-  if (corner.antiRollBar) out.push(field('antiRollBar.dropLinkOuterOn', 'Anti-roll bar drop link, suspension end rides on', corner.antiRollBar.dropLinkOuterOn));
-  return out;
-}
-
-// ---------- compliance rates ----------
-
-/** One rate of a mount: its key inside the mount (null when the mount is one number) and its value, N/mm (undefined: rigid). */
-export interface MountRate {
-  readonly key: string | null;
-  readonly label: string;
-  readonly value: number | undefined;
-}
-
-/** A place that may be compliant: a bushing (radial and axial), a single link's own axial stiffness, the steering at the rack. */
-export interface ComplianceMount {
-  readonly path: string;
-  readonly group: 'Bushings' | 'Links' | 'Steering';
-  readonly label: string;
-  readonly rates: readonly MountRate[];
-}
-
-const LINK_WORDS: Readonly<Record<string, string>> = { tieRod: 'Tie rod' };
-
-/** Every mount of the corner that may carry a rate (shared/schema/corner-rules.ts says which, per corner type), rigid or not. */
-export function complianceMounts(corner: Corner): ComplianceMount[] {
-  const bushings = (corner.bushings ?? {}) as Readonly<Record<string, { radialNPerMm: number; axialNPerMm: number } | undefined>>;
-  const links = (corner.linkAxialNPerMm ?? {}) as Readonly<Record<string, number | undefined>>;
-  const out: ComplianceMount[] = BUSHING_POINTS[corner.type].map((name) => ({
-    path: `bushings.${name}`,
-    group: 'Bushings',
-    label: pointName(`points.${name}`, corner),
-    rates: [
-      { key: 'radialNPerMm', label: 'Radial', value: bushings[name]?.radialNPerMm },
-      { key: 'axialNPerMm', label: 'Axial', value: bushings[name]?.axialNPerMm },
-    ],
-  }));
-  for (const link of STIFF_LINKS[corner.type]) {
-    const n = /^link([1-5])$/.exec(link)?.[1];
-    const label = n ? `Link ${n}${corner.type === 'five-link' && corner.toeLink === Number(n) ? ' (toe link)' : ''}` : link === 'tieRod' && !corner.steered ? 'Toe link' : (LINK_WORDS[link] ?? link);
-    out.push({ path: `linkAxialNPerMm.${link}`, group: 'Links', label: `${label}, axial`, rates: [{ key: null, label: 'Axial', value: links[link] }] });
-  }
-  if (corner.steered || corner.steeringStiffnessNPerMm !== undefined) {
-    out.push({ path: 'steeringStiffnessNPerMm', group: 'Steering', label: 'Steering at the rack, along its travel', rates: [{ key: null, label: 'Rate', value: corner.steeringStiffnessNPerMm }] });
-  }
-  return out;
 }
 
 // ---------- the corner's rules on an edit ----------

@@ -6,6 +6,7 @@ import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { DesignReportPage } from './design-report-page';
 import { useRoutedPage } from '../../../testing/routed-page';
 import type { AxleName } from '../../../../shared/schema/axle';
+import type { Corner } from '../../../../shared/schema/corner';
 
 const T = '/api/teams/t-tal';
 const design = (id: string, axle: AxleName, revision: number, updatedByName: string) => ({
@@ -109,5 +110,53 @@ describe('DesignReportPage', () => {
     expect(root.querySelector('rw-bar-chart')).toBeNull();
     expect(root.querySelector('.rw-report-meta')!.textContent).toContain('could not be loaded: Vehicle not found');
     bed.backend.verify();
+  });
+
+  /** Serves the rear design with `corner` in place of the demo's, everything else as `answer` does. */
+  const withCorner = (corner: Corner) => (req: TestRequest) =>
+    req.request.url === `${T}/axle-designs/d-rear` ? req.flush({ ...design('d-rear', 'rear', 2, 'Dana Quist'), corner }) : answer(req);
+  const inputRows = (root: HTMLElement) =>
+    Object.fromEntries(
+      [...root.querySelectorAll('[data-testid="report-corner-inputs"] tbody tr')]
+        .filter((tr) => tr.querySelector('th[scope="row"]'))
+        .map((tr) => [tr.querySelector('th')!.textContent.trim(), [...tr.querySelectorAll('td')].map((td) => td.textContent.trim()).join(' | ')]),
+    );
+
+  it('lists the steering, what the parts ride on and every compliance rate, "rigid" where none is given', async () => {
+    const rear = exampleCorners.fsRearWishbone;
+    const { root } = await open(withCorner({ ...rear, bushings: { lowerFront: { radialNPerMm: 2000, axialNPerMm: 500 } }, linkAxialNPerMm: { tieRod: 9000 } }));
+    const rows = inputRows(root);
+    expect(rows['Steered']).toBe('no: a fixed toe link | ');
+    expect(rows['Steered by']).toBeUndefined();
+    expect(rows['Bushing, Lower arm, front pivot (radial, axial)']).toBe('2000, 500 | N/mm');
+    expect(rows['Bushing, Lower arm, rear pivot (radial, axial)']).toBe('rigid | ');
+    expect(rows['Link rate, Toe link, axial']).toBe('9000 | N/mm');
+    expect(rows['Spring, suspension end rides on']).toBe('lower arm | ');
+    expect(rows['Anti-roll bar drop link, suspension end rides on']).toBe('upper arm | ');
+    // A fixed toe link has no steering rate to list.
+    expect(Object.keys(rows).filter((k) => k.startsWith('Steering rate'))).toEqual([]);
+    const groups = [...root.querySelectorAll('[data-testid="report-corner-inputs"] th[scope="colgroup"]')].map((th) => th.textContent.trim());
+    expect(groups).toEqual(['Steering', 'What the parts ride on', 'Compliance']);
+  });
+
+  it('lists a steering-box arm and the rates in inch/pound units (1 in = 25.4 mm, 1 lbf = 4.4482216152605 N; NIST SP 811)', async () => {
+    units.set('imperial');
+    const front = exampleCorners.fsFrontWishbone;
+    const arm: Corner = {
+      ...front,
+      steering: { kind: 'arm', armAxisPoint: [-50.8, 152.4, 139.7], armAxisDirection: [0, 0, 1], angularStrokeDeg: [-30, 30] },
+      steeringStiffnessNPerMm: 17.512683524647638,
+    };
+    const { root } = await open(withCorner(arm));
+    const rows = inputRows(root);
+    expect(rows['Steered']).toBe('yes | ');
+    expect(rows['Steered by']).toBe('steering-box arm | ');
+    expect(rows['Arm stroke (one end, other end)']).toBe('−30, 30 | deg');
+    // −50.8, 152.4, 139.7 mm are −2, 6, 5.5 in exactly.
+    expect(rows['Arm pivot point (x, y, z)']).toBe('−2, 6, 5.5 | in');
+    expect(rows['Arm axis direction (x, y, z)']).toBe('0, 0, 1 | ');
+    // 17.5127 N/mm is 100 lbf/in.
+    expect(rows['Steering rate, steering at the rack, along its travel']).toBe('100 | lbf/in');
+    expect(rows['Link rate, Tie rod, axial']).toBe('rigid | ');
   });
 });

@@ -25,6 +25,7 @@ import { DISPLAY_UNITS, NumPipe } from '../../core/format/num-pipe';
 import { formatNum } from '../../core/format/num';
 import { inDisplayUnits, type QuantityKind, unitLabel } from '../../core/format/quantities';
 import { LocalTimePipe } from '../../core/time/local-time';
+import { cornerInputRows } from '../../../../shared/io/corner-inputs';
 
 const TRAVEL = { from: -25, to: 25, step: 2.5 };
 const ROLL = { from: -3, to: 3, step: 0.25 };
@@ -208,6 +209,18 @@ export class DesignReportPage {
       }),
     );
   }
+
+  /** The corner's steering, attachments and compliance (rigid where no rate is given), in the user's units, each group headed once. */
+  protected readonly inputRows = computed(() => {
+    const d = this.design();
+    const units = this.units();
+    return (d ? cornerInputRows(d.corner) : []).map((r, i, all) => {
+      const rigid = typeof r.value !== 'string' && 'rigid' in r.value;
+      const value =
+        typeof r.value === 'string' ? r.value : 'rigid' in r.value ? 'rigid' : r.value.map((x) => formatNum(x, r.kind ? { kind: r.kind, sig: 6, sign: 'minus' } : { sig: 6, sign: 'minus' }, units)).join(', ');
+      return { group: all[i - 1]?.group === r.group ? null : r.group, label: r.label, value, unit: r.kind && !rigid ? this.unit(r.kind) : '' };
+    });
+  });
 
   protected unit(kind: QuantityKind): string {
     return unitLabel(kind, this.units());
