@@ -261,9 +261,13 @@ describe('CornerMounts', () => {
     expect(store.corner()).toEqual(front);
   });
 
-  it('unticking Steered while a steering is being chosen drops it and sends nothing', () => {
+  it('unticking Steered, or Cancel, while a steering is being chosen drops it and sends nothing', () => {
     const rear = exampleCorners.fsRearWishbone;
-    const { store, toggle, choose, draft, box, el } = setUp(rear);
+    const { store, toggle, choose, draft, box, el, cancel } = setUp(rear);
+    toggle('[data-setting="steered"]');
+    cancel();
+    expect(box('[data-setting="steered"]').checked).toBe(false);
+    expect(el.querySelector('[data-group="steering-draft"]')).toBeNull();
     toggle('[data-setting="steered"]');
     choose('steering.kind', 'Steering rack');
     draft('steering.rackStroke[0]', '-30');
