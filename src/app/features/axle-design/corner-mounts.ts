@@ -409,12 +409,13 @@ export class CornerMounts {
     if (errors.size === 0) {
       const steering = steeringFrom(kind, (path, i) => values.get(`${path}[${i}]`) ?? NaN);
       const corner = this.corner();
+      const steered = withSetting(corner, 'steering', null, steering);
       // Named as on the steered corner (its tie rod, not a fixed toe link).
-      const labels = ruleLabels(withSetting(corner, 'steering', null, steering));
+      const labels = ruleLabels(steered);
       for (const issue of editIssues(corner, 'steering', null, steering)) {
         // A rule on a point (the toe link's body end on the arm's axis) belongs beside the arm's pivot point.
         const row = issue.path.startsWith('points.') ? 'steering.armAxisPoint' : this.draftRows().some((r) => r.path === issue.path) ? issue.path : 'steering';
-        const words = issueWords({ code: 'custom', path: issue.path.split('.'), message: issue.message }, withSetting(corner, 'steering', null, steering), labels, this.figureWords);
+        const words = issueWords({ code: 'custom', path: issue.path.split('.'), message: issue.message }, steered, labels, this.figureWords);
         errors.set(row, [errors.get(row), `${ROW_TITLES[row] ?? STEERING_KIND_WORDS[kind]}: ${words}.`].filter(Boolean).join(' '));
       }
       if (errors.size === 0) {

@@ -48,7 +48,6 @@ function axisFields(path: string, what: string, v: readonly number[]): SettingFi
   return AXES.map((a, i) => ({ path, index: i, label: `${what} ${a}`, kind: 'direction', range: CORNER_RANGES.directionComponent, value: v[i] ?? 0 }));
 }
 
-
 /** Where a setting sits and what it measures, before it has a value (a steering being chosen has none yet). */
 export type SettingSlot = Omit<SettingField, 'value'>;
 
