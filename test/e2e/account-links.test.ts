@@ -61,7 +61,7 @@ describe('account links in mail', () => {
     await device.getByRole('heading', { name: 'Your development mail' }).waitFor();
     const mail = await waitForMail(device, 'Reset your Rollwise password', DESIGNER);
     const link = mail.locator('pre a');
-    expect(await link.count()).toBe(1);
+    await expect.poll(() => link.count()).toBe(1);
     const href = new URL((await link.getAttribute('href'))!);
     expect(href.pathname).toMatch(/^\/reset-password\/[A-Za-z0-9_-]{20,}$/);
     expect(await link.innerText()).toBe(href.href);

@@ -305,8 +305,12 @@ export async function waitForMail(page: Page, subject: string, to: string): Prom
     .poll(
       async () => {
         if ((await mail.count()) === 0) {
+          // Refresh empties the list and reads the inbox again: count once that answer is shown,
+          // not while the old list may still be on screen (a count then, and the list gone after).
+          const read = page.waitForResponse((r) => new URL(r.url()).pathname === '/api/dev/mail' && r.request().method() === 'GET');
           await page.getByRole('button', { name: 'Refresh' }).click();
-          await page.locator('mat-progress-bar, .rw-busy-bar').waitFor({ state: 'detached' });
+          await read;
+          await page.getByText('Loading captured mail…').waitFor({ state: 'detached' });
         }
         return mail.count();
       },
