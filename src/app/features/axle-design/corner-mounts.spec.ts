@@ -56,12 +56,12 @@ function setUp(corner: Corner, units: DisplayUnits = 'si', editable = true) {
     tick();
   };
   const rateInput = (id: string) => at(`mat-form-field[data-rate="${id}"] input`) as HTMLInputElement;
-  const type = (id: string, text: string) => {
-    const input = rateInput(id);
+  const typeInto = (input: HTMLInputElement, text: string) => {
     input.value = text;
     input.dispatchEvent(new Event('change'));
     tick();
   };
+  const type = (id: string, text: string) => typeInto(rateInput(id), text);
   const error = (key: string) =>
     el.querySelector(`[data-error="${key}"]`)?.textContent.trim() ??
     el.querySelector(`mat-form-field[data-rate="${key}"] mat-error, mat-form-field[data-draft="${key}"] mat-error`)?.textContent.trim();
@@ -70,12 +70,7 @@ function setUp(corner: Corner, units: DisplayUnits = 'si', editable = true) {
     tick();
   };
   const draftInput = (id: string) => at(`mat-form-field[data-draft="${id}"] input`) as HTMLInputElement;
-  const draft = (id: string, text: string) => {
-    const input = draftInput(id);
-    input.value = text;
-    input.dispatchEvent(new Event('change'));
-    tick();
-  };
+  const draft = (id: string, text: string) => typeInto(draftInput(id), text);
   const click = (action: string) => {
     at(`button[data-action="${action}"]`).click();
     tick();
