@@ -106,8 +106,9 @@ export function createApp(config: Config, db: Database): RollwiseApp {
   const runnerStarted = runner?.start().catch((err: unknown) => logger.error({ err }, 'the in-process queue worker could not start'));
   const configurations = new Configurations(db.orm, pool, config.computeTimeLimitMs, config.publicUrl);
   programmes = new Programmes(db.orm, configurations);
-  const studies = new Studies(db, queue, { designs, vehicles, configurations, proposals }, {
+  const studies = new Studies(db, queue, pool, { designs, vehicles, configurations, proposals }, {
     maxActivePerTeam: config.studyMaxActivePerTeam,
+    computeTimeLimitMs: config.computeTimeLimitMs,
     chunkExpireSeconds: config.studyChunkExpireSeconds,
   });
 

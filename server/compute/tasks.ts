@@ -8,9 +8,13 @@ export type ComputeKind = (typeof COMPUTE_KINDS)[number];
  * combination, and the warm-up a worker runs on each study thread at start (a small built-in study).
  */
 export const STUDY_KINDS = ['study-chunk', 'study-combine', 'study-warm'] as const;
-/** Run for the review gates only (no /api/compute route): both corners' cautions of a configuration. */
-export const REVIEW_KINDS = ['configuration-cautions'] as const;
-export type TaskKind = ComputeKind | (typeof STUDY_KINDS)[number] | (typeof REVIEW_KINDS)[number];
+/**
+ * Run for the API's own services (no /api/compute route): both corners' cautions of a configuration (the
+ * review gates), and a submitted study's plan, which builds and checks its model (up to some 40 ms: off the
+ * event loop, so a class submitting at once does not hold up everyone's reads).
+ */
+export const SERVICE_KINDS = ['configuration-cautions', 'study-plan'] as const;
+export type TaskKind = ComputeKind | (typeof STUDY_KINDS)[number] | (typeof SERVICE_KINDS)[number];
 
 export interface ComputeTask {
   kind: TaskKind;

@@ -12,7 +12,7 @@ import { computeRide } from '../../shared/ride/api.js';
 import { computeSolve } from '../../shared/intent/api.js';
 import { computeRigComparison } from '../../shared/rig/compare.js';
 import { computeConfigurationCautions } from '../../shared/cautions/configuration-cautions.js';
-import { combineStudyChunks, runStudyChunk, withFactorLabels, type StudyChunkResult, type StudySpec } from '../../shared/study/index.js';
+import { combineStudyChunks, planStudy, runStudyChunk, withFactorLabels, type StudyChunkResult, type StudySpec } from '../../shared/study/index.js';
 import { exampleCorners } from '../../shared/kinematics/index.js';
 import { exampleVehicles } from '../../shared/balance/index.js';
 import type { ComputedChunk } from './study-handlers.js';
@@ -68,6 +68,7 @@ const ENGINES: Record<TaskKind, Engine> = {
   solve: computeSolve,
   'rig-compare': computeRigComparison,
   'configuration-cautions': computeConfigurationCautions,
+  'study-plan': planStudy,
   // The chunk leaves as JSON text made here (study-handlers.ts ComputedChunk), with the counts its landing needs.
   'study-chunk': (input) => {
     const i = input as { studyId: string; spec: unknown; chunkIndex: number };

@@ -1,7 +1,7 @@
 /**
  * Tolerance studies and design sweeps on the job queue. A request names
  * its target by id; the service loads the documents, builds the
- * self-contained spec (shared/study), cuts it into chunks (planStudy) and
+ * self-contained spec (shared/study), cuts it into chunks (planStudy, on the compute pool) and
  * puts one `study-chunk` job per chunk on the queue in the same transaction
  * as the study row. Worker processes run the chunks
  * (server/compute/study-handlers.ts) and combine them when all are in.
@@ -13,7 +13,8 @@
  */
 import { randomInt } from 'node:crypto';
 import { and, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm';
-import { planStudy, studyKeyFigures, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, withFactorLabels, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
+import { studyKeyFigures, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, withFactorLabels, type StudyPlan, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
+import type { ComputePool } from '../compute/pool.js';
 import type { Database } from '../db/client.js';
 import { configurations, programmeTeams, studies, studyAttachments, teams, users } from '../db/schema.js';
 import { DomainError, notFound, parseOrThrow } from '../../shared/errors.js';
@@ -39,6 +40,8 @@ export type StudyView = Omit<StudyWire, 'createdAt' | 'startedAt' | 'finishedAt'
 
 export interface StudyOptions {
   maxActivePerTeam: number;
+  /** Time limit of a submitted study's plan on the compute pool, ms. */
+  computeTimeLimitMs: number;
   /** A chunk a worker took and went silent on goes to another worker after this long. */
   chunkExpireSeconds: number;
 }
@@ -87,6 +90,8 @@ export class Studies {
   constructor(
     private readonly db: Database,
     private readonly queue: JobQueue,
+    /** Builds a submitted study's model off the event loop (the plan checks it). */
+    private readonly pool: ComputePool,
     private readonly deps: { designs: AxleDesigns; vehicles: Vehicles; configurations: Configurations; proposals: Proposals },
     private readonly o: StudyOptions,
   ) {}
@@ -106,7 +111,7 @@ export class Studies {
       );
     }
     const { spec, target, targetName } = await this.resolve(teamId, request);
-    const plan = planStudy(spec);
+    const plan = (await this.pool.run('study-plan', spec, { timeLimitMs: this.o.computeTimeLimitMs })) as StudyPlan;
     const label = request.label || `${spec.kind === 'tolerance' ? 'Tolerance study' : 'Design sweep'} of ${targetName}, ${plan.totalSamples} ${spec.kind === 'tolerance' ? 'samples' : 'variants'}`;
     const boss = await this.queue.ready();
     const id = (await inTransaction(this.db.pool, async (client) => {
