@@ -188,7 +188,7 @@ describe('CornerMounts', () => {
     draft('steering.rackStroke[0]', '-1.5');
     // The possible range, shared/schema/ranges.ts: −500 to 500 mm, written in inches.
     draft('steering.rackStroke[1]', '25');
-    expect(error('steering.rackStroke[1]')).toBe('Stroke toward the left (+y): 25 is outside -19.69 to 19.69 in.');
+    expect(error('steering.rackStroke[1]')).toBe('Stroke toward the left (+y): 25 is outside −19.69 to 19.69 in.');
     draft('steering.rackStroke[1]', '1.75');
     apply();
     const st = store.corner()!.steering;

@@ -7,7 +7,7 @@ import { MatButton } from '@angular/material/button';
 import type { Corner } from '../../../../shared/schema/corner';
 import type { Attachment } from '../../../../shared/schema/corner-rules';
 import { issueWords, wordNumber, type FigureWords } from '../../../../shared/schema/issue-words';
-import { CORNER_RANGES, formatRangeValue, unusualValue } from '../../../../shared/schema/ranges';
+import { CORNER_RANGES, unusualValue } from '../../../../shared/schema/ranges';
 import { formatNumber } from '../../charts/chart-types';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
@@ -279,7 +279,7 @@ export class CornerMounts {
 
   /** Possible but unusual rates (shared/schema/ranges.ts), noted, never refused. */
   protected unusual(m: ComplianceMount): string[] {
-    const shown = (v: number) => ({ value: formatRangeValue(inDisplayUnits(v, 'linearRate', this.units())), unit: this.rateUnit() });
+    const shown = (v: number) => ({ value: wordNumber(inDisplayUnits(v, 'linearRate', this.units())), unit: this.rateUnit() });
     return m.rates.flatMap((r) => {
       const w = r.value === undefined ? null : unusualValue(RATE, r.value, shown);
       return w ? [`${m.rates.length > 1 ? `${m.label}, ${r.label.toLowerCase()}` : m.label}: ${w}`] : [];

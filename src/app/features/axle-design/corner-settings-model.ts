@@ -1,7 +1,8 @@
 import type { Corner, Vec3 } from '../../../../shared/schema/corner';
 import { cornerSemanticIssues } from '../../../../shared/schema/corner-rules';
 import { ATTACHMENT_WORDS, STEERING_KIND_WORDS, complianceMounts, cornerAttachments, type Steering, type SteeringKind } from '../../../../shared/io/corner-inputs';
-import { CORNER_RANGES, formatRangeValue, type InputRange } from '../../../../shared/schema/ranges';
+import { CORNER_RANGES, type InputRange } from '../../../../shared/schema/ranges';
+import { wordNumber } from '../../../../shared/schema/issue-words';
 import type { DisplayUnits } from '../../core/api-types';
 import { fromDisplayUnits, inDisplayUnits, type QuantityKind } from '../../core/format/quantities';
 import { parseDecimal } from './hardpoint-io';
@@ -207,7 +208,7 @@ export function typedSetting(text: string, label: string, range: InputRange, kin
   const value = kind ? fromDisplayUnits(typed, kind, units) : typed;
   const below = range.minExclusive ? value <= range.min : value < range.min;
   if (!below && value <= range.max) return { value };
-  const [lo, hi] = [range.min, range.max].map((v) => formatRangeValue(kind ? inDisplayUnits(v, kind, units) : v));
+  const [lo, hi] = [range.min, range.max].map((v) => wordNumber(kind ? inDisplayUnits(v, kind, units) : v));
   const withUnit = unit ? ` ${unit}` : '';
   return {
     problem: range.minExclusive ? `${label}: ${text} is outside the possible range, more than ${lo} and at most ${hi}${withUnit}.` : `${label}: ${text} is outside ${lo} to ${hi}${withUnit}.`,

@@ -83,7 +83,7 @@ describe('CornerSettings', () => {
     expect(edits[0]!.value).toBeCloseTo(254, 9);
     // The possible range is said in inches too: at most 2000 mm = 78.74 in.
     type('steering.rackStroke[1]', '30');
-    expect(error('steering.rackStroke[1]')).toBe('Stroke toward the left (+y): 30 is outside -19.69 to 19.69 in.');
+    expect(error('steering.rackStroke[1]')).toBe('Stroke toward the left (+y): 30 is outside −19.69 to 19.69 in.');
     // Axes have no unit: the same numbers in either system.
     expect(Number(input('spring.rockerAxis[0]').value)).toBe(1);
   });

@@ -3,7 +3,8 @@ import { MatError, MatFormField, MatLabel, MatSuffix } from '@angular/material/f
 import { MatInput } from '@angular/material/input';
 import { MatButton } from '@angular/material/button';
 import type { Corner } from '../../../../shared/schema/corner';
-import { formatRangeValue, unusualValue } from '../../../../shared/schema/ranges';
+import { unusualValue } from '../../../../shared/schema/ranges';
+import { wordNumber } from '../../../../shared/schema/issue-words';
 import { formatNumber } from '../../charts/chart-types';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
@@ -117,7 +118,7 @@ export class CornerSettings {
   protected unusual(groupId: string): string[] {
     const group = this.groups().find((g) => g.id === groupId);
     return (group?.fields ?? []).flatMap(
-      (f) => unusualValue(f.range, f.value, (v) => ({ value: formatRangeValue(f.kind === 'length' ? inDisplayUnits(v, 'length', this.units()) : v), unit: this.unit(f) })) ?? [],
+      (f) => unusualValue(f.range, f.value, (v) => ({ value: wordNumber(f.kind === 'length' ? inDisplayUnits(v, 'length', this.units()) : v), unit: this.unit(f) })) ?? [],
     );
   }
 

@@ -14,7 +14,7 @@ type Evaluated = BalanceResult & { kinematicsLink: { front: AxleLink; rear: Axle
 import type { Corner } from '../../../../shared/schema/corner';
 import { vehicleSchema } from '../../../../shared/schema/vehicle';
 import { loadState, resourceProblem } from '../../core/http/load-state';
-import { formatRangeValue } from '../../../../shared/schema/ranges';
+import { wordNumber } from '../../../../shared/schema/issue-words';
 import { parseDecimal } from '../axle-design/hardpoint-io';
 import { ALL_VEHICLE_FIELDS, vehicleIssuePlace, vehicleIssueText } from '../vehicle/vehicle-fields';
 import { BarChart } from '../../charts/bar-chart';
@@ -113,7 +113,7 @@ function rangeProblem(text: string, range: { min: number; max: number }, unit: s
   if (text.trim() === '') return 'Enter a value.';
   const v = parseDecimal(text);
   if (v === null) return `"${text.trim()}" is not a number.`;
-  if (v < range.min || v > range.max) return `${formatRangeValue(v)} is outside ${formatRangeValue(range.min)} to ${formatRangeValue(range.max)} ${unit}.`;
+  if (v < range.min || v > range.max) return `${wordNumber(v)} is outside ${wordNumber(range.min)} to ${wordNumber(range.max)} ${unit}.`;
   return null;
 }
 

@@ -271,7 +271,7 @@ describe('VehiclePage', () => {
     (root.querySelector('button[type="submit"]') as HTMLButtonElement).click();
     harness.detectChanges();
     // Possible ranges: shared/schema/ranges.ts (ε within ±1 deg/deg, track 300 to 4000 mm, mass 20 to 50 000 kg).
-    expect(errorOf(root, 'front.rollSteerCoefficient')).toBe('5 is outside -1 to 1 deg/deg.');
+    expect(errorOf(root, 'front.rollSteerCoefficient')).toBe('5 is outside −1 to 1 deg/deg.');
     expect(errorOf(root, 'rear.trackMm')).toBe('12000 is outside 300 to 4000 mm.');
     expect(errorOf(root, 'massKg')).toBe('0 is outside 20 to 50000 kg.');
     backend.expectNone('/api/teams/t-tal/vehicles/v-ember/data');

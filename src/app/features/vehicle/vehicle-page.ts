@@ -8,7 +8,8 @@ import { MatCheckbox } from '@angular/material/checkbox';
 import { MatButtonToggle, MatButtonToggleGroup } from '@angular/material/button-toggle';
 import { catchError, firstValueFrom, forkJoin, map, merge, of, switchMap } from 'rxjs';
 import { antiRollBarSchema, vehicleSchema } from '../../../../shared/schema/vehicle';
-import { formatRangeValue, unusualValue, vehicleRangeFor } from '../../../../shared/schema/ranges';
+import { unusualValue, vehicleRangeFor } from '../../../../shared/schema/ranges';
+import { wordNumber } from '../../../../shared/schema/issue-words';
 import { AuthService } from '../../core/auth/auth-service';
 import { apiProblem } from '../../core/http/api-error';
 import { loadState } from '../../core/http/load-state';
@@ -290,7 +291,7 @@ export class VehiclePage {
     const shown = parseDecimal(state.values[field.path] ?? '');
     if (!range || shown === null || state.invalid.has(field.path)) return null;
     const unit = this.unitLabel(field);
-    return unusualValue(range, this.toStored(field, shown), (v) => ({ value: formatRangeValue(this.displayValue(field, v)), unit: unit === 'ratio' ? '' : unit }));
+    return unusualValue(range, this.toStored(field, shown), (v) => ({ value: wordNumber(this.displayValue(field, v)), unit: unit === 'ratio' ? '' : unit }));
   }
 
   /**
@@ -304,7 +305,7 @@ export class VehiclePage {
     const stored = this.toStored(field, shown);
     const below = range.minExclusive ? stored <= range.min : stored < range.min;
     if (!below && stored <= range.max) return null;
-    const [lo, hi] = [range.min, range.max].map((v) => formatRangeValue(this.displayValue(field, v)));
+    const [lo, hi] = [range.min, range.max].map((v) => wordNumber(this.displayValue(field, v)));
     const unit = this.unitLabel(field);
     const unitText = unit === 'ratio' ? '' : ` ${unit}`;
     const text = control.value.trim();
