@@ -1,5 +1,6 @@
-import { Directive, effect, inject, input } from '@angular/core';
+import { Directive, inject, input } from '@angular/core';
 import { MatChipGrid } from '@angular/material/chips';
+import { followErrorState } from './error-state';
 
 /**
  * `rwErrorState` (core/forms/error-state.ts) for a `mat-chip-grid` that no form
@@ -13,12 +14,6 @@ export class ChipGridErrorState {
   readonly rwErrorState = input.required<boolean>();
 
   constructor() {
-    const grid = inject(MatChipGrid);
-    grid.errorStateMatcher = { isErrorState: () => this.rwErrorState() };
-    effect(() => {
-      this.rwErrorState();
-      grid.updateErrorState();
-      grid.stateChanges.next();
-    });
+    followErrorState(inject(MatChipGrid), this.rwErrorState);
   }
 }

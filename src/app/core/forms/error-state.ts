@@ -1,5 +1,7 @@
 import { Directive, effect, inject, input } from '@angular/core';
+import type { ErrorStateMatcher } from '@angular/material/core';
 import { MatInput } from '@angular/material/input';
+import type { Subject } from 'rxjs';
 
 /**
  * Puts a `matInput` that no form control drives into its error state while
@@ -20,11 +22,27 @@ export class ErrorState {
   readonly rwErrorState = input.required<boolean>();
 
   constructor() {
-    const control = inject(MatInput);
-    control.errorStateMatcher = { isErrorState: () => this.rwErrorState() };
-    effect(() => {
-      this.rwErrorState();
-      control.updateErrorState();
-    });
+    followErrorState(inject(MatInput), this.rwErrorState);
   }
+}
+
+/** What a Material control with an error state offers (an input, a chip grid): its matcher, its update, its change stream. */
+interface ErrorStateControl {
+  errorStateMatcher: ErrorStateMatcher;
+  updateErrorState(): void;
+  readonly stateChanges: Subject<void>;
+}
+
+/**
+ * Makes `control` show its error state exactly while `inError()` is true, and tells its form field
+ * whenever that changes. The one way the `rwErrorState` directives drive a control; call it in an
+ * injection context (it creates an effect).
+ */
+export function followErrorState(control: ErrorStateControl, inError: () => boolean): void {
+  control.errorStateMatcher = { isErrorState: () => inError() };
+  effect(() => {
+    inError();
+    control.updateErrorState();
+    control.stateChanges.next();
+  });
 }

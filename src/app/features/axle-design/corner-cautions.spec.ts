@@ -1,10 +1,10 @@
-import { TestBed } from '@angular/core/testing';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { cautionsForCorner } from '../../../../shared/cautions/corner-cautions';
 import type { Caution } from '../../../../shared/cautions/cautions';
 import { trackProfiles, type TrackProfileId } from '../../../../shared/tracks/profiles';
 import { formatNum } from '../../core/format/num';
 import { CAUTION_GROUPS, CornerCautions } from './corner-cautions';
+import { renderComponent } from '../../../testing/render';
 import { TrackProfileSelect } from './track-profile-select';
 
 /** Real cautions of the example front wishbone from the shared engine, with thresholds low enough that each bump rule fires. */
@@ -17,12 +17,7 @@ function realCautions(): Caution[] {
 }
 
 function render(cautions: readonly Caution[], group: 'bump' | 'roll') {
-  const fixture = TestBed.createComponent(CornerCautions);
-  fixture.componentRef.setInput('cautions', cautions);
-  fixture.componentRef.setInput('group', group);
-  fixture.componentRef.setInput('title', group === 'bump' ? 'Bump-steer cautions' : 'Roll-steer cautions');
-  fixture.detectChanges();
-  return fixture.nativeElement as HTMLElement;
+  return renderComponent(CornerCautions, { cautions, group, title: group === 'bump' ? 'Bump-steer cautions' : 'Roll-steer cautions' }).nativeElement as HTMLElement;
 }
 
 describe('CornerCautions', () => {
@@ -63,9 +58,7 @@ describe('CornerCautions', () => {
 
 describe('TrackProfileSelect', () => {
   it('offers the four profiles with their bump heights, shows the chosen one and emits a new choice', async () => {
-    const fixture = TestBed.createComponent(TrackProfileSelect);
-    fixture.componentRef.setInput('value', 'smooth-circuit');
-    fixture.detectChanges();
+    const fixture = renderComponent(TrackProfileSelect, { value: 'smooth-circuit' });
     const picked: TrackProfileId[] = [];
     fixture.componentInstance.changed.subscribe((id) => picked.push(id));
     // The Material select shows its value once its options are initialised (a microtask after the first check).

@@ -56,12 +56,12 @@ function setUp(corner: Corner, units: DisplayUnits = 'si', editable = true) {
     tick();
   };
   const rateInput = (id: string) => at(`mat-form-field[data-rate="${id}"] input`) as HTMLInputElement;
-  const typeInto = (input: HTMLInputElement, text: string) => {
+  const commitText = (input: HTMLInputElement, text: string) => {
     input.value = text;
     input.dispatchEvent(new Event('change'));
     tick();
   };
-  const type = (id: string, text: string) => typeInto(rateInput(id), text);
+  const type = (id: string, text: string) => commitText(rateInput(id), text);
   const error = (key: string) =>
     el.querySelector(`[data-error="${key}"]`)?.textContent.trim() ??
     el.querySelector(`mat-form-field[data-rate="${key}"] mat-error, mat-form-field[data-draft="${key}"] mat-error`)?.textContent.trim();
@@ -70,14 +70,14 @@ function setUp(corner: Corner, units: DisplayUnits = 'si', editable = true) {
     tick();
   };
   const draftInput = (id: string) => at(`mat-form-field[data-draft="${id}"] input`) as HTMLInputElement;
-  const draft = (id: string, text: string) => typeInto(draftInput(id), text);
+  const draft = (id: string, text: string) => commitText(draftInput(id), text);
   const click = (action: string) => {
     at(`button[data-action="${action}"]`).click();
     tick();
   };
   const apply = () => click('apply-steering');
   const cancel = () => click('cancel-steering');
-  return { fixture, el, store, options, box, choose, toggle, type, rateInput, error, undo, tick, draft, draftInput, apply, cancel };
+  return { fixture, el, store, at, options, box, choose, toggle, type, rateInput, error, undo, tick, draft, draftInput, apply, cancel };
 }
 
 describe('CornerMounts', () => {
@@ -124,15 +124,21 @@ describe('CornerMounts', () => {
     // A steered five-link corner on a steering-box arm whose axis runs through link 3's body end (invented for the rule).
     const five = exampleCorners.roadRearFiveLink;
     const onArm: Corner = { ...five, steered: true, steering: { kind: 'arm', armAxisPoint: five.points.link3Inner, armAxisDirection: [0, 0, 1], angularStrokeDeg: [-30, 30] } };
-    const { store, choose, error, el } = setUp(onArm);
+    const { store, choose, error, el, at } = setUp(onArm);
     choose('toeLink', 'Link 3');
     expect(store.canUndo()).toBe(false);
     expect(error('toeLink')).toBe('Toe link: Link 3, body end lies on the steering arm axis (the arm pivot point): the arm has no length.');
     expect(el.querySelector('[data-setting="toeLink"] mat-select')!.textContent.trim()).toBe('Link 5');
+    // The refused choice is shown as Material shows a field in error: outlined, described by its message.
+    const toeField = at('mat-form-field[data-setting="toeLink"]');
+    expect(toeField.classList).toContain('mat-form-field-invalid');
+    expect(at('[data-setting="toeLink"] mat-select').getAttribute('aria-invalid')).toBe('true');
+    expect(at('[data-setting="toeLink"] mat-select').getAttribute('aria-describedby')).toContain(toeField.querySelector('mat-error')!.id);
     choose('toeLink', 'Link 4');
     const c = store.corner()!;
     expect(c.type === 'five-link' && c.toeLink).toBe(4);
     expect(error('toeLink')).toBeUndefined();
+    expect(at('mat-form-field[data-setting="toeLink"]').classList).not.toContain('mat-form-field-invalid');
   });
 
   it('turns steering off and on through the store; the rack stays defined while the corner is not steered', () => {

@@ -11,6 +11,7 @@ import { CORNER_RANGES, unusualValue } from '../../../../shared/schema/ranges';
 import { formatNumber } from '../../charts/chart-types';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { inDisplayUnits, unitLabel } from '../../core/format/quantities';
+import { SelectErrorState } from '../../core/forms/select-error-state';
 import { ErrorState } from '../../core/forms/error-state';
 import { inputValue } from '../../core/forms/dom-events';
 import type { SettingEdit } from './corner-settings';
@@ -74,7 +75,7 @@ const ROW_TITLES: Readonly<Record<string, string>> = {
  */
 @Component({
   selector: 'rw-corner-mounts',
-  imports: [MatFormField, MatLabel, MatSuffix, MatError, MatInput, MatSelect, MatOption, MatCheckbox, MatButton, ErrorState],
+  imports: [MatFormField, MatLabel, MatSuffix, MatError, MatInput, MatSelect, MatOption, MatCheckbox, MatButton, ErrorState, SelectErrorState],
   template: `
     <section class="rw-corner-mounts" aria-labelledby="rw-corner-mounts-title">
       <h3 id="rw-corner-mounts-title">Attachments, steering and compliance</h3>
@@ -131,14 +132,14 @@ const ROW_TITLES: Readonly<Record<string, string>> = {
           @if (editable()) {
             <mat-form-field appearance="outline" subscriptSizing="dynamic" data-setting="toeLink">
               <mat-label>Toe link</mat-label>
-              <mat-select #toe [value]="t" (selectionChange)="chooseToeLink(toe, $event.value)">
+              <mat-select #toe [value]="t" [rwErrorState]="errors().has('toeLink')" (selectionChange)="chooseToeLink(toe, $event.value)">
                 @for (n of links; track n) { <mat-option [value]="n">Link {{ n }}</mat-option> }
               </mat-select>
+              @if (errors().get('toeLink'); as e) { <mat-error role="alert" data-error="toeLink">{{ e }}</mat-error> }
             </mat-form-field>
           } @else {
             <p class="rw-setting-text" data-setting="toeLink">Toe link: link {{ t }}</p>
           }
-          @if (errors().get('toeLink'); as e) { <p class="rw-form-error" role="alert" data-error="toeLink">{{ e }}</p> }
         }
       </fieldset>
 
@@ -150,14 +151,14 @@ const ROW_TITLES: Readonly<Record<string, string>> = {
             @if (editable()) {
               <mat-form-field class="rw-choice-field" appearance="outline" subscriptSizing="dynamic" [attr.data-setting]="f.path">
                 <mat-label>{{ f.label }}</mat-label>
-                <mat-select #g [value]="f.value" (selectionChange)="chooseAttachment(g, f.path, $event.value)">
+                <mat-select #g [value]="f.value" [rwErrorState]="errors().has(f.path)" (selectionChange)="chooseAttachment(g, f.path, $event.value)">
                   @for (o of f.options; track o) { <mat-option [value]="o">{{ words[o] }}</mat-option> }
                 </mat-select>
+                @if (errors().get(f.path); as e) { <mat-error role="alert" [attr.data-error]="f.path">{{ e }}</mat-error> }
               </mat-form-field>
             } @else {
               <p class="rw-setting-text" [attr.data-setting]="f.path">{{ f.label }}: {{ words[f.value] }}</p>
             }
-            @if (errors().get(f.path); as e) { <p class="rw-form-error" role="alert" [attr.data-error]="f.path">{{ e }}</p> }
           }
         </fieldset>
       }

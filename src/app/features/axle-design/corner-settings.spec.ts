@@ -5,13 +5,11 @@ import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import type { Corner } from '../../../../shared/schema/corner';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { CornerSettings, type SettingEdit } from './corner-settings';
+import { renderComponent } from '../../../testing/render';
 import { changedSettings, settingRow, withSetting, withSettingsFrom } from './corner-settings-model';
 
 function setUp(editable: boolean, corner: Corner = exampleCorners.fsFrontWishbone) {
-  const fixture = TestBed.createComponent(CornerSettings);
-  fixture.componentRef.setInput('corner', corner);
-  fixture.componentRef.setInput('editable', editable);
-  fixture.detectChanges();
+  const fixture = renderComponent(CornerSettings, { corner, editable });
   const edits: SettingEdit[] = [];
   fixture.componentInstance.settingEdited.subscribe((e) => edits.push(e));
   const el = fixture.nativeElement as HTMLElement;

@@ -4,6 +4,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import type { Vec3 } from '../../../../shared/schema/corner';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { prepareHardpointImport } from '../../../../shared/io/hardpoints';
+import { renderComponent } from '../../../testing/render';
 import { HardpointImport } from './hardpoint-import';
 
 const corner = exampleCorners.fsFrontWishbone;
@@ -11,11 +12,7 @@ const URL = '/api/teams/team-1/axle-designs/design-1/import';
 
 function setUp() {
   TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting()] });
-  const fixture = TestBed.createComponent(HardpointImport);
-  fixture.componentRef.setInput('corner', corner);
-  fixture.componentRef.setInput('teamId', 'team-1');
-  fixture.componentRef.setInput('designId', 'design-1');
-  fixture.detectChanges();
+  const fixture = renderComponent(HardpointImport, { corner, teamId: 'team-1', designId: 'design-1' });
   const applied: ReadonlyMap<string, Vec3>[] = [];
   fixture.componentInstance.applied.subscribe((m) => applied.push(m));
   return { fixture, el: fixture.nativeElement as HTMLElement, applied, http: TestBed.inject(HttpTestingController) };

@@ -4,6 +4,7 @@ import type { DisplayUnits } from '../../core/api-types';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import type { Corner, Vec3 } from '../../../../shared/schema/corner';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
+import { renderComponent } from '../../../testing/render';
 import { HardpointTable, PointEdit } from './hardpoint-table';
 
 const example = exampleCorners.fsFrontWishbone;
@@ -11,10 +12,7 @@ const inner = example.points.tieRodInner;
 const outer = example.points.tieRodOuter;
 
 function setUp(editable: boolean, corner: Corner = exampleCorners.fsFrontWishbone) {
-  const fixture = TestBed.createComponent(HardpointTable);
-  fixture.componentRef.setInput('corner', corner);
-  fixture.componentRef.setInput('editable', editable);
-  fixture.detectChanges();
+  const fixture = renderComponent(HardpointTable, { corner, editable });
   const edits: PointEdit[] = [];
   const pastes: ReadonlyMap<string, Vec3>[] = [];
   fixture.componentInstance.pointEdited.subscribe((e) => edits.push(e));

@@ -6,17 +6,14 @@ import type { Corner, Vec3 } from '../../../../shared/schema/corner';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { boxesOverlap, placeLabels, scaleBarLength, type Box } from './drawing-layout';
 import { HardpointTable } from './hardpoint-table';
+import { renderComponent } from '../../../testing/render';
 import { LinkageViews } from './linkage-views';
 
 const units = signal<DisplayUnits>('si');
 
 function draw(corner: Corner, contactPatch: Vec3 | null = null): HTMLElement {
   TestBed.configureTestingModule({ providers: [{ provide: DISPLAY_UNITS, useValue: units }] });
-  const fixture = TestBed.createComponent(LinkageViews);
-  fixture.componentRef.setInput('corner', corner);
-  fixture.componentRef.setInput('contactPatch', contactPatch);
-  fixture.detectChanges();
-  return fixture.nativeElement as HTMLElement;
+  return renderComponent(LinkageViews, { corner, contactPatch }).nativeElement as HTMLElement;
 }
 
 const num = (el: Element, name: string) => Number(el.getAttribute(name));
@@ -105,9 +102,7 @@ describe('LinkageViews', () => {
   it('numbers each point as its row in the hardpoint table', () => {
     const corner = exampleCorners.roadRearFiveLink;
     const el = draw(corner);
-    const table = TestBed.createComponent(HardpointTable);
-    table.componentRef.setInput('corner', corner);
-    table.detectChanges();
+    const table = renderComponent(HardpointTable, { corner });
     const rows = (table.nativeElement as HTMLElement).querySelectorAll('tr[data-key]');
     expect(rows.length).toBeGreaterThan(10);
     for (const row of Array.from(rows)) {

@@ -4,6 +4,7 @@ import type { DisplayUnits } from '../../core/api-types';
 import { DISPLAY_UNITS } from '../../core/format/num-pipe';
 import { exampleCorners } from '../../../../shared/kinematics/examples';
 import { AxleDesignStore, type SaveConflict as Conflict } from './axle-design-store';
+import { renderComponent } from '../../../testing/render';
 import { SaveConflict } from './save-conflict';
 
 const CONFLICT: Conflict = {
@@ -25,10 +26,7 @@ function render(units: DisplayUnits): HTMLElement {
       { provide: AxleDesignStore, useValue: { conflict: signal(CONFLICT), saving: signal(false), takeTheirs: () => undefined } },
     ],
   });
-  const fixture = TestBed.createComponent(SaveConflict);
-  fixture.componentRef.setInput('baseRevision', 4);
-  fixture.detectChanges();
-  return fixture.nativeElement as HTMLElement;
+  return renderComponent(SaveConflict, { baseRevision: 4 }).nativeElement as HTMLElement;
 }
 
 const cells = (el: HTMLElement) => [...el.querySelectorAll('tbody tr')].map((tr) => [...tr.children].map((c) => c.textContent.trim()));
