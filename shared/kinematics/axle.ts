@@ -9,7 +9,7 @@ import { InputError, SolveError, formatPath } from '../errors.js';
 import { cornerSchema, type Corner, type Vec3 } from '../schema/corner.js';
 import { compileCorner } from './model.js';
 import { CornerSolver } from './solver.js';
-import { kingpinAxis, poseOutputs, uprightPoint, type PoseResult } from './pose.js';
+import { kingpinAxis, poseOutputs, uprightPoint, wheelStateInto, WHEEL_CP, type PoseResult } from './pose.js';
 import { expandRange, checkRack, type Range } from './sweep.js';
 import { DEG_PER_RAD } from '../angles.js';
 import type { AxleName } from '../schema/axle.js';
@@ -109,17 +109,46 @@ export interface FrontViewIc {
   cp: [number, number];
 }
 
-/** Front-view instant centre of a solved side, in the vehicle frame (right side mirrored back). */
-export function frontViewIc(s: CornerSolver): FrontViewIc {
-  const p = poseOutputs(s);
+/** Slots of frontViewIcInto's output. */
+const IC_Y = 0;
+const IC_Z = 1;
+const IC_DIR_Y = 2;
+const IC_DIR_Z = 3;
+const IC_CP_Y = 4;
+const IC_CP_Z = 5;
+
+const wheel = new Float64Array(10);
+
+/**
+ * The front-view instant centre of a solved side, in the vehicle frame
+ * (right side mirrored back), written to out: [y, z] (NaN at infinity),
+ * the unit direction (y, z) from the contact patch toward it, and the
+ * contact patch (y, z). No allocation: studies call it per sample.
+ */
+export function frontViewIcInto(s: CornerSolver, out: Float64Array): void {
+  wheelStateInto(s, wheel);
   const sg = s.side === 'left' ? 1 : -1;
-  const cpLeft: Vec3 = [p.contactPatch[0], sg * p.contactPatch[1], p.contactPatch[2]];
-  // The upright point that is the contact patch at this pose (uprightPoint takes design coordinates).
-  const { v } = uprightPoint(s, designPosition(s, cpLeft), s.tTravel);
+  const R = s.R;
+  const c = s.c;
+  const t = s.tTravel;
+  // Velocity of the upright point that is the contact patch at this pose (left frame): v = v_c + ω × (p − c),
+  // with p − c taken through the point's design position as uprightPoint does.
+  const w = s.model.wc0;
+  const e0 = wheel[WHEEL_CP]! - c[0]!;
+  const e1 = wheel[WHEEL_CP + 1]! - c[1]!;
+  const e2 = wheel[WHEEL_CP + 2]! - c[2]!;
+  const q0 = w[0] + R[0]! * e0 + R[3]! * e1 + R[6]! * e2 - w[0];
+  const q1 = w[1] + R[1]! * e0 + R[4]! * e1 + R[7]! * e2 - w[1];
+  const q2 = w[2] + R[2]! * e0 + R[5]! * e1 + R[8]! * e2 - w[2];
+  const d0 = R[0]! * q0 + R[1]! * q1 + R[2]! * q2;
+  const d1 = R[3]! * q0 + R[4]! * q1 + R[5]! * q2;
+  const d2 = R[6]! * q0 + R[7]! * q1 + R[8]! * q2;
+  const wx = t[3]!;
+  const wy = t[4]!;
+  const wz = t[5]!;
+  const vy = t[1]! + (wz * d0 - wx * d2);
+  const vz = t[2]! + (wx * d1 - wy * d0);
   // Left frame: the instant centre lies on the perpendicular to the contact-patch velocity.
-  const vy = v[1];
-  const vz = v[2];
-  const wx = s.tTravel[3]!;
   let dy = -vz;
   let dz = vy;
   const n = Math.hypot(dy, dz);
@@ -130,26 +159,48 @@ export function frontViewIc(s: CornerSolver): FrontViewIc {
     dy = -dy;
     dz = -dz;
   }
+  const cpy = wheel[WHEEL_CP + 1]!;
+  const cpz = wheel[WHEEL_CP + 2]!;
   const far = Math.abs(wx) < 1e-12;
-  const yL = far ? null : cpLeft[1] - vz / wx;
-  const zL = far ? null : cpLeft[2] + vy / wx;
+  out[IC_Y] = far ? NaN : sg * (cpy - vz / wx);
+  out[IC_Z] = far ? NaN : cpz + vy / wx;
+  out[IC_DIR_Y] = sg * dy;
+  out[IC_DIR_Z] = dz;
+  out[IC_CP_Y] = sg * cpy;
+  out[IC_CP_Z] = cpz;
+}
+
+const ic = new Float64Array(6);
+
+/** Front-view instant centre of a solved side, in the vehicle frame (right side mirrored back). */
+export function frontViewIc(s: CornerSolver): FrontViewIc {
+  frontViewIcInto(s, ic);
+  const far = Number.isNaN(ic[IC_Y]!);
   return {
-    yMm: yL === null ? null : sg * yL,
-    zMm: zL,
-    lineDir: [sg * dy, dz],
-    cp: [sg * cpLeft[1], cpLeft[2]],
+    yMm: far ? null : ic[IC_Y]!,
+    zMm: far ? null : ic[IC_Z]!,
+    lineDir: [ic[IC_DIR_Y]!, ic[IC_DIR_Z]!],
+    cp: [ic[IC_CP_Y]!, ic[IC_CP_Z]!],
   };
 }
 
 /** Intersection of the two contact-patch-to-IC lines (front view), mm; null if parallel. */
 export function rollCentreOf(l: FrontViewIc, r: FrontViewIc): { yMm: number; heightMm: number } | null {
-  // l.cp + a·l.dir = r.cp + b·r.dir
-  const det = l.lineDir[0] * -r.lineDir[1] - l.lineDir[1] * -r.lineDir[0];
-  if (Math.abs(det) < 1e-12) return null;
-  const ry = r.cp[0] - l.cp[0];
-  const rz = r.cp[1] - l.cp[1];
-  const a = (ry * -r.lineDir[1] - rz * -r.lineDir[0]) / det;
-  return { yMm: l.cp[0] + a * l.lineDir[0], heightMm: l.cp[1] + a * l.lineDir[1] };
+  const a = alongLeftLine(l.cp[0], l.cp[1], l.lineDir[0], l.lineDir[1], r.cp[0], r.cp[1], r.lineDir[0], r.lineDir[1]);
+  return Number.isNaN(a) ? null : { yMm: l.cp[0] + a * l.lineDir[0], heightMm: l.cp[1] + a * l.lineDir[1] };
+}
+
+/** Roll-centre height (mm) from two frontViewIcInto outputs, as rollCentreOf; NaN if the lines are parallel. */
+export function rollCentreHeightOf(l: Float64Array, r: Float64Array): number {
+  const a = alongLeftLine(l[IC_CP_Y]!, l[IC_CP_Z]!, l[IC_DIR_Y]!, l[IC_DIR_Z]!, r[IC_CP_Y]!, r[IC_CP_Z]!, r[IC_DIR_Y]!, r[IC_DIR_Z]!);
+  return l[IC_CP_Z]! + a * l[IC_DIR_Z]!;
+}
+
+/** The a where the lines (ly, lz) + a·(ldy, ldz) and (ry, rz) + b·(rdy, rdz) cross; NaN if parallel. */
+function alongLeftLine(ly: number, lz: number, ldy: number, ldz: number, ry: number, rz: number, rdy: number, rdz: number): number {
+  const det = ldy * -rdz - ldz * -rdy;
+  if (Math.abs(det) < 1e-12) return NaN;
+  return ((ry - ly) * -rdz - (rz - lz) * -rdy) / det;
 }
 
 export interface SideViewIc {

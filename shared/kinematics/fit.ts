@@ -28,24 +28,47 @@ export function polyFit(xs: ArrayLike<number>, ys: ArrayLike<number>, quadratic:
     b1 += x * y;
     b2 += x2 * y;
   }
-  const A = [n, s1, s2, s1, s2, s3, s2, s3, s4];
-  const b = [b0, b1, b2];
-  const sol = solveSmall(A, b, k);
-  const c0 = sol[0]!;
-  const c1 = sol[1]!;
-  const c2 = k === 3 ? sol[2]! : 0;
+  const M = fitM;
+  const x = fitX;
+  M[0] = n;
+  M[1] = s1;
+  M[2] = s2;
+  M[3] = s1;
+  M[4] = s2;
+  M[5] = s3;
+  M[6] = s2;
+  M[7] = s3;
+  M[8] = s4;
+  x[0] = b0;
+  x[1] = b1;
+  x[2] = b2;
+  solveSmall(M, x, k);
+  const c0 = x[0];
+  const c1 = x[1];
+  const c2 = k === 3 ? x[2] : 0;
   // y = c0 + c1 (x − m) + c2 (x − m)²
   return [c0 - c1 * mx + c2 * mx * mx, c1 - 2 * c2 * mx, c2];
 }
 
-function solveSmall(A: number[], b: number[], k: number): number[] {
-  const M = A.slice();
-  const x = b.slice(0, k);
+// Scratch of polyFit's normal equations (single-threaded; no allocation per fit).
+const fitM = new Float64Array(9);
+const fitX = new Float64Array(3);
+
+/** Solves the k×k system in the top-left of M (rows of 3) for x in place (partial pivoting); M is overwritten. */
+function solveSmall(M: Float64Array, x: Float64Array, k: number): void {
   for (let c = 0; c < k; c++) {
     let p = c;
     for (let r = c + 1; r < k; r++) if (Math.abs(M[3 * r + c]!) > Math.abs(M[3 * p + c]!)) p = r;
-    for (let j = 0; j < 3; j++) [M[3 * c + j], M[3 * p + j]] = [M[3 * p + j]!, M[3 * c + j]!];
-    [x[c], x[p]] = [x[p]!, x[c]!];
+    if (p !== c) {
+      for (let j = 0; j < 3; j++) {
+        const t = M[3 * c + j]!;
+        M[3 * c + j] = M[3 * p + j]!;
+        M[3 * p + j] = t;
+      }
+      const t = x[c]!;
+      x[c] = x[p]!;
+      x[p] = t;
+    }
     for (let r = c + 1; r < k; r++) {
       const f = M[3 * r + c]! / M[3 * c + c]!;
       for (let j = c; j < k; j++) M[3 * r + j]! -= f * M[3 * c + j]!;
@@ -57,7 +80,6 @@ function solveSmall(A: number[], b: number[], k: number): number[] {
     for (let j = c + 1; j < k; j++) s -= M[3 * c + j]! * x[j]!;
     x[c] = s / M[3 * c + c]!;
   }
-  return x;
 }
 
 export interface ToeFit {

@@ -257,8 +257,24 @@ export function kingpinAxis(s: CornerSolver): KingpinAxis {
   return { point: p, dir };
 }
 
-/** Per-pose outputs as a sweep row (no side, no diagnostics object), computed with scalar arithmetic. */
-export function poseRow(s: CornerSolver): PoseRow {
+/** Slots of wheelStateInto's output. */
+const WHEEL_TOE = 0;
+export const WHEEL_CAMBER = 1;
+const WHEEL_TOE_GRADIENT = 2;
+const WHEEL_CAMBER_GRADIENT = 3;
+/** Contact patch x, y, z in the left frame (slots 4 to 6), mm. */
+export const WHEEL_CP = 4;
+/** Spin axis a = R·a0 (slots 7 to 9). */
+const WHEEL_SPIN = 7;
+
+/**
+ * The wheel's state at the solver's pose, as poseRow reports it, without
+ * building a row: toe and camber (deg), their gradients (deg/m of bump),
+ * the contact patch in the left frame (mm) and the spin axis, written to
+ * out (10 slots, WHEEL_* above). For per-sample loops that need a few
+ * outputs of many poses.
+ */
+export function wheelStateInto(s: CornerSolver, out: Float64Array): void {
   const m = s.model;
   const R = s.R;
   const c = s.c;
@@ -276,15 +292,38 @@ export function poseRow(s: CornerSolver): PoseRow {
   const hn2 = ax * ax + ay * ay;
   const dm = Math.atan2(-ax, ay);
   const ddm = (ax * day - ay * dax) / hn2;
-  const right = s.side === 'right';
   // Contact patch: wheel centre + R·unit(projection of −ẑ on the wheel plane).
   const nx = az * ax;
   const ny = az * ay;
   const nz = -1 + az * az;
   const f = m.radius / Math.sqrt(nx * nx + ny * ny + nz * nz);
-  const cpx = c[0]! + f * nx;
-  const cpy = c[1]! + f * ny;
-  const cpz = c[2]! + f * nz;
+  out[WHEEL_TOE] = -dm * DEG_PER_RAD;
+  out[WHEEL_CAMBER] = -Math.asin(az) * DEG_PER_RAD;
+  out[WHEEL_TOE_GRADIENT] = -ddm * DEG_PER_RAD * 1000;
+  out[WHEEL_CAMBER_GRADIENT] = (-daz / Math.sqrt(1 - az * az)) * DEG_PER_RAD * 1000;
+  out[WHEEL_CP] = c[0]! + f * nx;
+  out[WHEEL_CP + 1] = c[1]! + f * ny;
+  out[WHEEL_CP + 2] = c[2]! + f * nz;
+  out[WHEEL_SPIN] = ax;
+  out[WHEEL_SPIN + 1] = ay;
+  out[WHEEL_SPIN + 2] = az;
+}
+
+const wheel = new Float64Array(10);
+
+/** Per-pose outputs as a sweep row (no side, no diagnostics object), computed with scalar arithmetic. */
+export function poseRow(s: CornerSolver): PoseRow {
+  const m = s.model;
+  const R = s.R;
+  const c = s.c;
+  wheelStateInto(s, wheel);
+  const ax = wheel[WHEEL_SPIN]!;
+  const ay = wheel[WHEEL_SPIN + 1]!;
+  const toeDeg = wheel[WHEEL_TOE]!;
+  const right = s.side === 'right';
+  const cpx = wheel[WHEEL_CP]!;
+  const cpy = wheel[WHEEL_CP + 1]!;
+  const cpz = wheel[WHEEL_CP + 2]!;
 
   // Kingpin axis (unit, pointing up) through point (kx, ky, kz).
   let kx: number, ky: number, kz: number, ux: number, uy: number, uz: number;
@@ -328,16 +367,16 @@ export function poseRow(s: CornerSolver): PoseRow {
   const g = (cpz - kz) / uz;
   const Gx = kx + g * ux;
   const Gy = ky + g * uy;
-  const hn = Math.sqrt(hn2);
+  const hn = Math.sqrt(ax * ax + ay * ay);
   const hx = ay / hn;
   const hy = -ax / hn;
 
   const out: PoseRow = {
     travelMm: s.travelMm,
     rackMm: s.rackMm,
-    toeDeg: -dm * DEG_PER_RAD,
-    camberDeg: -Math.asin(az) * DEG_PER_RAD,
-    steerDeg: (right ? -dm : dm) * DEG_PER_RAD,
+    toeDeg,
+    camberDeg: wheel[WHEEL_CAMBER]!,
+    steerDeg: right ? toeDeg : -toeDeg,
     wheelCentre: [c[0]!, right ? -c[1]! : c[1]!, c[2]!],
     contactPatch: [cpx, right ? -cpy : cpy, cpz],
     halfTrackChangeMm: cpy - m.cp0[1],
@@ -346,8 +385,8 @@ export function poseRow(s: CornerSolver): PoseRow {
     casterDeg: Math.atan2(-ux, uz) * DEG_PER_RAD,
     scrubRadiusMm: (cpx - Gx) * -hy + (cpy - Gy) * hx,
     mechanicalTrailMm: (Gx - cpx) * hx + (Gy - cpy) * hy,
-    toeGradientDegPerM: -ddm * DEG_PER_RAD * 1000,
-    camberGradientDegPerM: (-daz / Math.sqrt(1 - az * az)) * DEG_PER_RAD * 1000,
+    toeGradientDegPerM: wheel[WHEEL_TOE_GRADIENT]!,
+    camberGradientDegPerM: wheel[WHEEL_CAMBER_GRADIENT]!,
     iterations: s.iterations,
   };
 

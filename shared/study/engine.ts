@@ -16,7 +16,21 @@
  */
 import { InputError, SolveError } from '../errors.js';
 import type { Corner, Vec3 } from '../schema/corner.js';
-import { compileCorner, moveCornerPoints, CornerSolver, poseRow, polyFit, frontViewIc, rollCentreOf, checkRack, type CornerModel, type PoseRow, type FrontViewIc } from '../kinematics/index.js';
+import {
+  compileCorner,
+  moveCornerPoints,
+  CornerSolver,
+  poseRow,
+  wheelStateInto,
+  WHEEL_CAMBER,
+  WHEEL_CP,
+  polyFit,
+  frontViewIcInto,
+  rollCentreHeightOf,
+  checkRack,
+  type CornerModel,
+  type PoseRow,
+} from '../kinematics/index.js';
 import { linkVehicle, type LinkedVehicle } from '../balance/link.js';
 import { balanceCore, understeerBudget } from '../balance/understeer.js';
 import { resolveTrackProfile, type TrackProfile } from '../tracks/profiles.js';
@@ -149,6 +163,18 @@ export class StudyModel {
   /** Gauss–Hermite toe per judged rack (9 nodes each), left and right, and the toe at design height. */
   private readonly rideToeL = new Float64Array(18);
   private readonly rideToeR = new Float64Array(18);
+  /** Per judged rack: the left and right toe RMS handed to the ride model. */
+  private readonly rideRms: [number, number][] = [];
+  /** Output index of each rack's bump-steer gradient (rack 0: the main one). */
+  private readonly gradIndex: number[] = [];
+  /** Scratch of a sample: the wheel state of a pose, and front-view instant centres (static left and right, left and right at roll). */
+  private readonly wheel = new Float64Array(10);
+  private readonly icL = new Float64Array(6);
+  private readonly icR = new Float64Array(6);
+  private readonly icLroll = new Float64Array(6);
+  private readonly icRroll = new Float64Array(6);
+  /** Poses solved for the sample being evaluated. */
+  private poses = 0;
 
   constructor(readonly spec: StudySpec) {
     this.corner = compileCorner(spec.corner).corner;
@@ -185,6 +211,8 @@ export class StudyModel {
     } else this.rideWhy = 'give the vehicle (with its ride data) to price the bump steer on the profile’s road';
     this.outputs = this.buildOutputs(spec);
     this.outputs.forEach((o, i) => (this.index[o.key] = i));
+    this.gradIndex = this.racks.map((r, k) => this.index[k === 0 ? 'bumpSteerDegPerM' : `bumpSteerDegPerM@${r}`]!);
+    this.rideRms = this.rideRacks.map(() => [0, 0]);
 
     // Poses: static, then per rack: travel 0, the bump, the fit grid outward from design; then the roll sweep.
     const left: PoseDef[] = [{ kind: P_STATIC, travelMm: 0, rackMm: 0, tag: 0, grid: 0 }];
@@ -440,56 +468,18 @@ export class StudyModel {
    */
   evaluate(sample: { build: { left: PointMoves; right: PointMoves | null } } | { variant: PointMoves }, out: Float64Array): SampleOutcome {
     out.fill(NaN);
-    let poses = 0;
+    this.poses = 0;
+    const wheel = this.wheel;
     try {
-      const setup = this.spec.kind === 'tolerance' ? this.spec.setup : null;
-      const buildSide = (bs: BuildSide, offsets: PointMoves | null, nom: Float64Array): PoseRow => {
-        const s = bs.solver;
-        bs.apply(offsets, 0, 0);
-        this.warm(s, nom, 0);
-        s.solve(0, 0);
-        poses++;
-        if (setup && this.setupSens && (setup.camberShimMm !== undefined || setup.toeAdjusterStepMm !== undefined)) {
-          // As on an alignment stand: read toe and camber, set the shim and the tie-rod length that cancel both
-          // (their coupling through the nominal sensitivities), to the shim and adjuster resolution; read and set again.
-          const g = this.setupSens;
-          const useShim = setup.camberShimMm !== undefined && g.camberPerShim !== 0;
-          const useToe = setup.toeAdjusterStepMm !== undefined && g.toePerLength !== 0;
-          let shim = 0;
-          let dl = 0;
-          for (let pass = 0; pass < 2; pass++) {
-            const dc = -(poseRow(s).camberDeg - this.nominalStatic.camberDeg);
-            const dt = -(toeOf(s) - this.nominalStatic.toeDeg);
-            let a = 0;
-            let b = 0;
-            if (useShim && useToe) {
-              const det = g.camberPerShim * g.toePerLength - g.camberPerLength * g.toePerShim;
-              a = (dc * g.toePerLength - g.camberPerLength * dt) / det;
-              b = (g.camberPerShim * dt - g.toePerShim * dc) / det;
-            } else if (useShim) a = dc / g.camberPerShim;
-            else b = dt / g.toePerLength;
-            const q = (v: number, step: number | undefined) => (step ? Math.round(v / step) * step : v);
-            const nextShim = useShim ? q(shim + a, setup.camberShimMm) : 0;
-            const nextDl = useToe ? q(dl + b, setup.toeAdjusterStepMm) : 0;
-            if (nextShim === shim && nextDl === dl) break;
-            shim = nextShim;
-            dl = nextDl;
-            bs.apply(offsets, shim, dl);
-            s.solve(0, 0);
-            poses++;
-          }
-        }
-        return poseRow(s);
-      };
       let sl: CornerSolver;
       let sr: CornerSolver;
       let rowL: PoseRow;
       let rowR: PoseRow;
       const exact = 'variant' in sample;
       if ('build' in sample) {
-        rowL = buildSide(this.buildL, sample.build.left, this.nomL);
+        rowL = this.buildSide(this.buildL, sample.build.left, this.nomL);
         sl = this.buildL.solver;
-        rowR = buildSide(this.buildR, sample.build.right, this.nomR);
+        rowR = this.buildSide(this.buildR, sample.build.right, this.nomR);
         sr = this.buildR.solver;
       } else {
         const m = Object.keys(sample.variant).length ? compileCorner(moveCornerPoints(this.corner, { points: sample.variant })) : this.model;
@@ -499,12 +489,12 @@ export class StudyModel {
         sl.solve(0, 0);
         this.warm(sr, this.nomR, 0);
         sr.solve(0, 0);
-        poses += 2;
+        this.poses += 2;
         rowL = poseRow(sl);
         rowR = poseRow(sr);
       }
-      const icL = frontViewIc(sl);
-      const icR = frontViewIc(sr);
+      frontViewIcInto(sl, this.icL);
+      frontViewIcInto(sr, this.icR);
       const idx = this.index;
       out[idx['staticToeDeg']!] = rowL.toeDeg;
       out[idx['staticCamberDeg']!] = rowL.camberDeg;
@@ -512,8 +502,7 @@ export class StudyModel {
       // ε = −dδ̄/dφ and roll camber at φ = 0 from the analytic gradients (as shared/kinematics rollSweep): ds/dφ = t/2 per rad, left −s, right +s.
       out[idx['rollSteerCoefficient']!] = -((rowL.toeGradientDegPerM + rowR.toeGradientDegPerM) / 2000) * half / DEG_PER_RAD;
       out[idx['rollCamberDegPerDeg']!] = 1 + ((rowL.camberGradientDegPerM + rowR.camberGradientDegPerM) / 2000) * half / DEG_PER_RAD;
-      const rc = rollCentreOf(icL, icR);
-      out[idx['rollCentreHeightMm']!] = rc ? rc.heightMm : NaN;
+      out[idx['rollCentreHeightMm']!] = rollCentreHeightOf(this.icL, this.icR);
 
       // Left pose list (from index 1: the static pose is solved).
       const lp = this.leftPoses;
@@ -524,7 +513,7 @@ export class StudyModel {
       let bumpCpY = NaN;
       let steerRollL = NaN;
       let steerRollLm = NaN;
-      let icLroll: FrontViewIc | null = null;
+      let rollIcL = false;
       const fitY = this.fitY;
       let block = 0;
       let filled = 0;
@@ -532,11 +521,14 @@ export class StudyModel {
         const p = lp[k]!;
         this.predictFrom(sl, this.nomL, p, k);
         sl.solve(p.travelMm, p.rackMm);
-        poses++;
+        this.poses++;
         if (p.kind === P_ZERO) zeroToe[p.tag] = toeOf(sl);
         else if (p.kind === P_BUMP) {
           bumpToe[p.tag] = toeOf(sl);
-          if (p.tag === 0) bumpCpY = poseRow(sl).contactPatch[1];
+          if (p.tag === 0) {
+            wheelStateInto(sl, wheel);
+            bumpCpY = wheel[WHEEL_CP + 1]!;
+          }
         } else if (p.kind === P_GRID) {
           if (p.tag !== block) {
             block = p.tag;
@@ -555,7 +547,8 @@ export class StudyModel {
           // Steer angle, positive to the left: the left side's is minus its toe.
           if (p.tag > 0) {
             steerRollL = -toeOf(sl);
-            icLroll = frontViewIc(sl);
+            frontViewIcInto(sl, this.icLroll);
+            rollIcL = true;
           } else steerRollLm = -toeOf(sl);
         } else this.rideToeL[9 * p.tag + p.grid] = toeOf(sl);
       }
@@ -564,12 +557,12 @@ export class StudyModel {
       const rp = this.rightPoses;
       let steerRollR = NaN;
       let steerRollRm = NaN;
-      let rcRoll: ReturnType<typeof rollCentreOf> = null;
+      let rcRoll = NaN;
       for (let k = 1; k < rp.length; k++) {
         const p = rp[k]!;
         this.predictFrom(sr, this.nomR, p, k);
         sr.solve(p.travelMm, p.rackMm);
-        poses++;
+        this.poses++;
         if (p.kind === P_RIDE || p.kind === P_RIDE_ZERO) {
           this.rideToeR[9 * p.tag + p.grid] = toeOf(sr);
           continue;
@@ -577,19 +570,21 @@ export class StudyModel {
         // Right side steer angle = its toe (toe_R = δ_R).
         if (p.tag > 0) {
           steerRollR = toeOf(sr);
-          rcRoll = icLroll ? rollCentreOf(icLroll, frontViewIc(sr)) : null;
+          if (rollIcL) {
+            frontViewIcInto(sr, this.icRroll);
+            rcRoll = rollCentreHeightOf(this.icLroll, this.icRroll);
+          }
         } else steerRollRm = toeOf(sr);
       }
       const phi = this.spec.analysis.rollDeg;
       out[idx['rollSteerSecantDegPerDeg']!] = -((steerRollL + steerRollR) / 2 - (steerRollLm + steerRollRm) / 2) / (2 * phi);
-      out[idx['rollCentreHeightAtRollMm']!] = rcRoll ? rcRoll.heightMm : NaN;
+      out[idx['rollCentreHeightAtRollMm']!] = rcRoll;
 
-      out[idx['bumpSteerDegPerM']!] = grads[0]!;
       let spread = 0;
       let cost = 0;
       for (let r = 0; r < racks.length; r++) {
+        out[this.gradIndex[r]!] = grads[r]!;
         if (r > 0) {
-          out[idx[`bumpSteerDegPerM@${racks[r]}`]!] = grads[r]!;
           spread = Math.max(spread, Math.abs(grads[r]! - grads[0]!));
         }
         cost = Math.max(cost, Math.abs(bumpToe[r]! - zeroToe[r]!));
@@ -599,7 +594,12 @@ export class StudyModel {
       out[idx['bumpScrubMm']!] = Math.abs(bumpCpY - rowL.contactPatch[1]);
       if (this.ride) {
         this.rideToeR[4] = rowR.toeDeg;
-        const y = this.ride.fromToeRms(this.rideRacks.map((_, c) => [gaussRms(this.rideToeL, c), gaussRms(this.rideToeR, c)]));
+        const rms = this.rideRms;
+        for (let c = 0; c < rms.length; c++) {
+          rms[c]![0] = gaussRms(this.rideToeL, c);
+          rms[c]![1] = gaussRms(this.rideToeR, c);
+        }
+        const y = this.ride.fromToeRms(rms);
         if (y) {
           out[idx['bumpYawDisturbancePct']!] = y.yawDisturbancePct;
           out[idx['bumpYawRateRmsDegPerS']!] = y.yawRateRmsDegPerS;
@@ -617,14 +617,58 @@ export class StudyModel {
         out[idx['understeerGradientChangeDegPerG']!] = dk;
         if (this.spec.kind === 'sweep') out[idx['balanceGainDegPerG']!] = (this.spec.balanceDirection === 'more-understeer' ? 1 : -1) * dk;
       }
-      return { values: out, poses, error: null };
+      return { values: out, poses: this.poses, error: null };
     } catch (e) {
       if (e instanceof SolveError || e instanceof InputError) {
         out.fill(NaN);
-        return { values: out, poses, error: e.message };
+        return { values: out, poses: this.poses, error: e.message };
       }
       throw e;
     }
+  }
+
+  /**
+   * Assembles one side of a toleranced build at design height and, with a
+   * set-up given, sets it as on an alignment stand. Returns its design pose's row.
+   */
+  private buildSide(bs: BuildSide, offsets: PointMoves | null, nom: Float64Array): PoseRow {
+    const setup = this.spec.kind === 'tolerance' ? this.spec.setup : null;
+    const s = bs.solver;
+    bs.apply(offsets, 0, 0);
+    this.warm(s, nom, 0);
+    s.solve(0, 0);
+    this.poses++;
+    if (setup && this.setupSens && (setup.camberShimMm !== undefined || setup.toeAdjusterStepMm !== undefined)) {
+      // As on an alignment stand: read toe and camber, set the shim and the tie-rod length that cancel both
+      // (their coupling through the nominal sensitivities), to the shim and adjuster resolution; read and set again.
+      const g = this.setupSens;
+      const useShim = setup.camberShimMm !== undefined && g.camberPerShim !== 0;
+      const useToe = setup.toeAdjusterStepMm !== undefined && g.toePerLength !== 0;
+      let shim = 0;
+      let dl = 0;
+      for (let pass = 0; pass < 2; pass++) {
+        wheelStateInto(s, this.wheel);
+        const dc = -(this.wheel[WHEEL_CAMBER]! - this.nominalStatic.camberDeg);
+        const dt = -(toeOf(s) - this.nominalStatic.toeDeg);
+        let a = 0;
+        let b = 0;
+        if (useShim && useToe) {
+          const det = g.camberPerShim * g.toePerLength - g.camberPerLength * g.toePerShim;
+          a = (dc * g.toePerLength - g.camberPerLength * dt) / det;
+          b = (g.camberPerShim * dt - g.toePerShim * dc) / det;
+        } else if (useShim) a = dc / g.camberPerShim;
+        else b = dt / g.toePerLength;
+        const nextShim = useShim ? quantize(shim + a, setup.camberShimMm) : 0;
+        const nextDl = useToe ? quantize(dl + b, setup.toeAdjusterStepMm) : 0;
+        if (nextShim === shim && nextDl === dl) break;
+        shim = nextShim;
+        dl = nextDl;
+        bs.apply(offsets, shim, dl);
+        s.solve(0, 0);
+        this.poses++;
+      }
+    }
+    return poseRow(s);
   }
 
   /** Understeer gradient (deg/g) of the linked vehicle with this sample's axle values (balance model, shared/balance). */
@@ -739,6 +783,11 @@ class BuildSide {
       if (m.upperOuterLocal) add3(m.upperOuterLocal, 0, d);
     }
   }
+}
+
+/** v rounded to the nearest multiple of step (no step: v). */
+function quantize(v: number, step: number | undefined): number {
+  return step ? Math.round(v / step) * step : v;
 }
 
 /** E[Δtoe²]^½ over the Gauss–Hermite travels of condition c (node 4: design height), as shared/ride ToeCurve.gaussian. */
