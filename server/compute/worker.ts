@@ -12,7 +12,7 @@ import { computeRide } from '../../shared/ride/api.js';
 import { computeSolve } from '../../shared/intent/api.js';
 import { computeRigComparison } from '../../shared/rig/compare.js';
 import { computeConfigurationCautions } from '../../shared/cautions/configuration-cautions.js';
-import { combineStudyChunks, planStudy, runStudyChunk, withFactorLabels, type StudyChunkResult, type StudySpec } from '../../shared/study/index.js';
+import { chunkFromWire, chunkToWire, combineStudyChunks, planStudy, runStudyChunk, withFactorLabels, type StudySpec } from '../../shared/study/index.js';
 import { exampleCorners } from '../../shared/kinematics/index.js';
 import { exampleVehicles } from '../../shared/balance/index.js';
 import type { ComputedChunk } from './study-handlers.js';
@@ -69,19 +69,20 @@ const ENGINES: Record<TaskKind, Engine> = {
   'rig-compare': computeRigComparison,
   'configuration-cautions': computeConfigurationCautions,
   'study-plan': planStudy,
-  // The chunk leaves as JSON text made here (study-handlers.ts ComputedChunk), with the counts its landing needs.
+  // The chunk leaves in its wire form made here (study-handlers.ts ComputedChunk), with the counts its landing needs.
   'study-chunk': (input) => {
     const i = input as { studyId: string; spec: unknown; chunkIndex: number };
     const chunk = runStudyChunk(studySpec(i.studyId, i.spec), i.chunkIndex);
-    return { samples: chunk.samples, poses: chunk.poses, json: JSON.stringify(chunk) } satisfies ComputedChunk;
+    return { samples: chunk.samples, poses: chunk.poses, ...chunkToWire(chunk) } satisfies ComputedChunk;
   },
-  // The chunks arrive as the JSON text PostgreSQL gave the main thread; they are parsed here. The result is
-  // the one the API serves (factors named from the stored spec's corner: withFactorLabels), stored once as text.
+  // The chunks arrive as PostgreSQL gave them to the main thread (header text, outputs bytes); they are decoded
+  // here. The result is the one the API serves (factors named from the stored spec's corner: withFactorLabels),
+  // stored once as text.
   'study-combine': (input) => {
-    const i = input as { studyId: string; spec: StudySpec; chunks: string[] };
+    const i = input as { studyId: string; spec: StudySpec; chunks: { header: string; outputs: Uint8Array | null }[] };
     const result = combineStudyChunks(
       studySpec(i.studyId, i.spec),
-      i.chunks.map((c) => JSON.parse(c) as StudyChunkResult),
+      i.chunks.map((c) => chunkFromWire(c.header, c.outputs)),
     );
     return withFactorLabels(result, i.spec.corner);
   },

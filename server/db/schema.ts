@@ -19,6 +19,7 @@ import {
   uniqueIndex,
   primaryKey,
   check,
+  customType,
 } from 'drizzle-orm/pg-core';
 import { AXLE_NAMES } from '../../shared/schema/axle.js';
 import type { ConfigurationResults, FrozenInputs } from '../../shared/api/configurations.js';
@@ -619,6 +620,9 @@ export const computeJobs = pgTable(
 export const STUDY_STATUSES = ['queued', 'running', 'completed', 'failed', 'cancelled'] as const;
 export type StudyStatus = (typeof STUDY_STATUSES)[number];
 
+/** PostgreSQL `bytea`, as node-postgres gives it (a Buffer). */
+const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' });
+
 /**
  * A tolerance study or design sweep. `spec` is the fully resolved,
  * self-contained study (shared/study StudySpec) the workers run; it is cut
@@ -706,13 +710,19 @@ export const studyChunks = pgTable(
     samples: integer('samples').notNull(),
     poses: doublePrecision('poses').notNull(),
     /**
-     * The chunk's samples' outputs until the study's combined result is stored; then cleared (a
-     * 100 000-sample study's chunks hold about 35 MB), the row kept for its key, counts and timing.
-     * `json`, stored as the worker's text without compression (STORAGE EXTERNAL, migration 0012):
-     * nothing queries inside it, and the combine reads it back as that text, so PostgreSQL neither
-     * converts it to jsonb nor compresses it (about 5 ms of its CPU per 500-sample chunk, beside the workers).
+     * The chunk's counts and failures (shared/study chunkToWire's header) until the study's combined
+     * result is stored; then cleared with `outputs`, the row kept for its key, counts and timing.
+     * `json`, stored as the worker's text without compression (STORAGE EXTERNAL, migration 0012).
+     * A chunk landed before migration 0014 carries its outputs here too, as JSON arrays.
      */
-    result: json('result').$type<StudyChunkResult>(),
+    result: json('result').$type<Omit<StudyChunkResult, 'values'>>(),
+    /**
+     * The chunk's outputs as little-endian doubles (chunkToWire), until the combined result is stored
+     * (a 100 000-sample study's chunks hold about 14 MB). Sent and stored as bytes, uncompressed
+     * (STORAGE EXTERNAL, migration 0014): nothing queries inside them, and neither the worker nor
+     * PostgreSQL writes or parses them as text.
+     */
+    outputs: bytea('outputs'),
     computeMs: doublePrecision('compute_ms').notNull(),
     /** Which worker process computed it (host:pid), for operations. */
     worker: text('worker').notNull(),

@@ -109,8 +109,8 @@ describe('studies on worker processes', () => {
     expect(one.result).toMatchObject({ kind: 'tolerance', seed: 2026, totalSamples: 300 });
     expect(one.result).toEqual(await undisturbed(id));
     // The combined result is stored; the chunks keep their rows (key, counts, timing) but not their outputs.
-    const kept = (await direct.query<{ n: number; with_outputs: number }>('SELECT count(*)::int AS n, count(result)::int AS with_outputs FROM study_chunks WHERE study_id = $1', [id])).rows[0]!;
-    expect(kept).toEqual({ n: 12, with_outputs: 0 });
+    const kept = (await direct.query<{ n: number; with_header: number; with_outputs: number }>('SELECT count(*)::int AS n, count(result)::int AS with_header, count(outputs)::int AS with_outputs FROM study_chunks WHERE study_id = $1', [id])).rows[0]!;
+    expect(kept).toEqual({ n: 12, with_header: 0, with_outputs: 0 });
     const list = (await viewer.get(`/api/teams/${teamId}/studies`).expect(200)).body.studies as { id: string; result?: unknown }[];
     expect(list.find((s) => s.id === id)).toBeDefined();
     expect(list.every((s) => s.result === undefined)).toBe(true);

@@ -39,6 +39,8 @@ describe('bump cost of a study: the ride model on the profile’s road class', {
   const chunk = runStudyChunk(sweep, 0);
   const result = combineStudyChunks(sweep, [chunk]);
   const k = result.outputs.findIndex((o) => o.key === 'bumpYawDisturbancePct');
+  /** The chunk's output k of variant i (StudyChunkResult.values: output by output). */
+  const value = (i: number) => chunk.values[k * chunk.samples + i]!;
   const profile = resolveTrackProfile('bumpy-circuit');
 
   it('names the road (ISO 8608 class of the profile) and ranks the Pareto front by the yaw disturbance', () => {
@@ -47,14 +49,14 @@ describe('bump cost of a study: the ride model on the profile’s road class', {
     expect(result.bumpCost.roadInWords).toContain(`${profile.speedKph} km/h`);
     expect(result.sweep!.costOutput).toBe('bumpYawDisturbancePct');
     expect(result.outputs[k]!.breach?.code).toBe('bump-yaw-disturbance');
-    for (const v of result.sweep!.pareto) expect(v.cost).toBe(chunk.values[k]![v.index]);
+    for (const v of result.sweep!.pareto) expect(v.cost).toBe(value(v.index));
   });
 
   it('the nominal design costs what the full ride model says (bumpCost)', () => {
     const full = bumpCost(vehicle, 'front', corner, profile);
     // Same poses, same quadrature: agreement to the solver's convergence (residuals below 1e-10 mm).
     expect(result.outputs[k]!.nominal!).toBeCloseTo(full.yawDisturbancePct!, 9);
-    expect(chunk.values[k]![1]).toBeCloseTo(full.yawDisturbancePct!, 9); // variant 1 is the design itself
+    expect(value(1)).toBeCloseTo(full.yawDisturbancePct!, 9); // variant 1 is the design itself
   });
 
   it('each variant costs what the ride model’s own toe curves give at the judged racks', () => {
@@ -65,9 +67,9 @@ describe('bump cost of a study: the ride model on the profile’s road class', {
       const v = variantCorner(sweep, i);
       const toe = (side: 'left' | 'right', rack: number) => new ToeCurve(v, side, rack, profile.travelMm).gaussian(model.sigmaMm).rmsDeg;
       const expected = model.fromToeRms(racks.map((r) => [toe('left', r), toe('right', r)]))!;
-      expect(chunk.values[k]![i]).toBeCloseTo(expected.yawDisturbancePct, 9);
+      expect(value(i)).toBeCloseTo(expected.yawDisturbancePct, 9);
       // A toe link 5 mm off its design height steers over bumps: it costs more than the design.
-      expect(chunk.values[k]![i]!).toBeGreaterThan(chunk.values[k]![1]!);
+      expect(value(i)).toBeGreaterThan(value(1));
     }
   });
 

@@ -10,7 +10,7 @@ import Papa from 'papaparse';
 import { exampleCorners } from '../../../shared/kinematics/index.js';
 import { exampleVehicles } from '../../../shared/balance/index.js';
 import { pointName } from '../../../shared/io/hardpoint-points.js';
-import { combineStudyChunks, planStudy, runStudyChunk, studyResultCsv, withFactorLabels, type StudyResult } from '../../../shared/study/index.js';
+import { chunkFromWire, chunkToWire, combineStudyChunks, planStudy, runStudyChunk, studyResultCsv, withFactorLabels, type StudyResult } from '../../../shared/study/index.js';
 
 /** NIST SP 811, Appendix B: the inch is 25.4 mm exactly. */
 const MM_PER_IN = 25.4;
@@ -46,7 +46,13 @@ const sweep = {
 
 function run(spec: unknown): StudyResult {
   const plan = planStudy(spec);
-  return combineStudyChunks(spec, Array.from({ length: plan.chunkCount }, (_, i) => JSON.parse(JSON.stringify(runStudyChunk(spec, i)))));
+  return combineStudyChunks(
+    spec,
+    Array.from({ length: plan.chunkCount }, (_, i) => {
+      const w = chunkToWire(runStudyChunk(spec, i));
+      return chunkFromWire(w.header, w.outputs);
+    }),
+  );
 }
 
 /** The CSV's tables (separated by blank lines), each as header and rows. */

@@ -6,13 +6,15 @@
  * 1979, from memory); the Pareto front is the set of points no other point
  * beats on both objectives (common practice); Wilson's score interval
  * (Wilson 1927, from memory; 0 of 100 gives an upper bound z²/(n + z²));
- * percentiles by linear interpolation, Hyndman & Fan type 7 (from memory).
+ * percentiles by linear interpolation, Hyndman & Fan type 7 (from memory);
+ * a chunk's outputs travel as IEEE 754 binary64 values, which hold every
+ * double exactly, NaN included (IEEE 754-2008, common practice).
  */
 import { describe, expect, it } from 'vitest';
 import { exampleCorners, compileCorner } from '../../../shared/kinematics/index.js';
 import { exampleVehicles } from '../../../shared/balance/index.js';
 import { InputError } from '../../../shared/errors.js';
-import { planStudy, runStudyChunk, combineStudyChunks, sampleFactors, variantCorner, studyResultCsv, studyRequestSchema, studySpecSchema } from '../../../shared/study/index.js';
+import { planStudy, runStudyChunk, combineStudyChunks, chunkToWire, chunkFromWire, sampleFactors, variantCorner, studyResultCsv, studyRequestSchema, studySpecSchema } from '../../../shared/study/index.js';
 import { paretoFront, percentile, wilson } from '../../../shared/study/stats.js';
 
 const tolerance = {
@@ -31,10 +33,16 @@ const tolerance = {
   analysis: { rackMm: [0, 10] },
 };
 
+/** A chunk as the combine gets it: through the wire format the workers store. */
+function travelled(c: ReturnType<typeof runStudyChunk>) {
+  const w = chunkToWire(c);
+  return chunkFromWire(w.header, w.outputs);
+}
+
 function all(spec: unknown, order?: (n: number) => number[]) {
   const plan = planStudy(spec);
   const idx = order ? order(plan.chunkCount) : Array.from({ length: plan.chunkCount }, (_, i) => i);
-  return idx.map((i) => JSON.parse(JSON.stringify(runStudyChunk(spec, i))));
+  return idx.map((i) => travelled(runStudyChunk(spec, i)));
 }
 
 describe('determinism', { timeout: 120_000 }, () => {
@@ -49,7 +57,32 @@ describe('determinism', { timeout: 120_000 }, () => {
     expect(combineStudyChunks(b, all(b))).toEqual(forward);
     expect(combineStudyChunks(c, all(c))).toEqual(forward);
     // A chunk run twice (a retried worker) gives the same numbers.
-    expect(JSON.parse(JSON.stringify(runStudyChunk(a, 3)))).toEqual(all(a)[3]);
+    expect(travelled(runStudyChunk(a, 3))).toEqual(all(a)[3]);
+  });
+
+  it('a chunk travels exactly: every double, NaN where a sample has no value, its counts and failures', () => {
+    const c = runStudyChunk({ ...tolerance, chunkSamples: 40 }, 1);
+    const odd = Float64Array.from([Math.PI, -0, 5e-324, -1.7976931348623157e308, NaN, 0.1 + 0.2]);
+    const withOdd = { ...c, values: Float64Array.from([...odd, ...c.values.subarray(odd.length)]), failures: [{ sample: 41, message: 'Pose unreachable at travel 12 mm' }], failedCount: 1 };
+    const w = chunkToWire(withOdd);
+    expect(w.outputs.byteLength).toBe(8 * c.values.length);
+    const back = chunkFromWire(w.header, w.outputs);
+    expect(back).toEqual(withOdd);
+    for (let i = 0; i < odd.length; i++) expect(Object.is(back.values[i], odd[i])).toBe(true);
+    // Cut short in storage: refused, not read as other numbers.
+    expect(() => chunkFromWire(w.header, w.outputs.subarray(0, w.outputs.byteLength - 3))).toThrow(/not whole doubles/);
+  });
+
+  it('a chunk stored before outputs travelled as doubles (one JSON array per output, null for none) still combines', () => {
+    const a = { ...tolerance, chunkSamples: 40 };
+    const chunks = all(a);
+    const legacy = chunks.map((c) => {
+      const { values, ...rest } = c;
+      const cols = Array.from({ length: values.length / c.samples }, (_, k) => Array.from(values.subarray(k * c.samples, (k + 1) * c.samples), (v) => (Number.isNaN(v) ? null : v)));
+      return chunkFromWire(JSON.stringify({ ...rest, values: cols }), null);
+    });
+    expect(legacy).toEqual(chunks);
+    expect(combineStudyChunks(a, legacy)).toEqual(combineStudyChunks(a, chunks));
   });
 
   it('another seed gives other samples', () => {
@@ -64,7 +97,7 @@ describe('determinism', { timeout: 120_000 }, () => {
     const a = { ...tolerance, chunkSamples: 40 };
     const chunks = all(a);
     expect(() => combineStudyChunks(a, chunks.slice(1))).toThrow(/chunk 0 of 3 is missing/);
-    expect(() => combineStudyChunks(a, [...chunks, chunks[1]])).toThrow(/chunk 1 is given twice/);
+    expect(() => combineStudyChunks(a, [...chunks, chunks[1]!])).toThrow(/chunk 1 is given twice/);
     expect(() => runStudyChunk(a, 3)).toThrow(InputError);
   });
 });
