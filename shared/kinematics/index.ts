@@ -5,7 +5,7 @@
 export { exampleCorners } from './examples.js';
 export { compileCorner, moveCornerPoints, type CornerModel, type CornerMoves, type Side } from './model.js';
 export { CornerSolver, RESIDUAL_TOL_MM, type SolveDiagnostics } from './solver.js';
-export { poseOutputs, poseRow, wheelStateInto, WHEEL_CAMBER, WHEEL_CP, kingpinAxis, type PoseResult, type PoseRow, type KingpinAxis } from './pose.js';
+export { poseOutputs, poseRow, wheelStateInto, WHEEL_TOE, WHEEL_CAMBER, WHEEL_TOE_GRADIENT, WHEEL_CAMBER_GRADIENT, WHEEL_CP, kingpinAxis, type PoseResult, type PoseRow, type KingpinAxis } from './pose.js';
 export {
   solvePose,
   posedPoints,

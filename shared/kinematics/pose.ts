@@ -258,10 +258,10 @@ export function kingpinAxis(s: CornerSolver): KingpinAxis {
 }
 
 /** Slots of wheelStateInto's output. */
-const WHEEL_TOE = 0;
+export const WHEEL_TOE = 0;
 export const WHEEL_CAMBER = 1;
-const WHEEL_TOE_GRADIENT = 2;
-const WHEEL_CAMBER_GRADIENT = 3;
+export const WHEEL_TOE_GRADIENT = 2;
+export const WHEEL_CAMBER_GRADIENT = 3;
 /** Contact patch x, y, z in the left frame (slots 4 to 6), mm. */
 export const WHEEL_CP = 4;
 /** Spin axis a = R·a0 (slots 7 to 9). */

@@ -22,7 +22,10 @@ import {
   CornerSolver,
   poseRow,
   wheelStateInto,
+  WHEEL_TOE,
   WHEEL_CAMBER,
+  WHEEL_TOE_GRADIENT,
+  WHEEL_CAMBER_GRADIENT,
   WHEEL_CP,
   polyFit,
   frontViewIcInto,
@@ -167,8 +170,10 @@ export class StudyModel {
   private readonly rideRms: [number, number][] = [];
   /** Output index of each rack's bump-steer gradient (rack 0: the main one). */
   private readonly gradIndex: number[] = [];
-  /** Scratch of a sample: the wheel state of a pose, and front-view instant centres (static left and right, left and right at roll). */
+  /** Scratch of a sample: the wheel state of a pose and of each side's design pose, and front-view instant centres (static left and right, left and right at roll). */
   private readonly wheel = new Float64Array(10);
+  private readonly wheelL = new Float64Array(10);
+  private readonly wheelR = new Float64Array(10);
   private readonly icL = new Float64Array(6);
   private readonly icR = new Float64Array(6);
   private readonly icLroll = new Float64Array(6);
@@ -473,13 +478,12 @@ export class StudyModel {
     try {
       let sl: CornerSolver;
       let sr: CornerSolver;
-      let rowL: PoseRow;
-      let rowR: PoseRow;
-      const exact = 'variant' in sample;
+      // A design variant's design-pose rows: the balance model takes its spring and bar motion from them.
+      let rows: [PoseRow, PoseRow] | null = null;
       if ('build' in sample) {
-        rowL = this.buildSide(this.buildL, sample.build.left, this.nomL);
+        this.buildSide(this.buildL, sample.build.left, this.nomL);
         sl = this.buildL.solver;
-        rowR = this.buildSide(this.buildR, sample.build.right, this.nomR);
+        this.buildSide(this.buildR, sample.build.right, this.nomR);
         sr = this.buildR.solver;
       } else {
         const m = Object.keys(sample.variant).length ? compileCorner(moveCornerPoints(this.corner, { points: sample.variant })) : this.model;
@@ -490,18 +494,21 @@ export class StudyModel {
         this.warm(sr, this.nomR, 0);
         sr.solve(0, 0);
         this.poses += 2;
-        rowL = poseRow(sl);
-        rowR = poseRow(sr);
+        rows = [poseRow(sl), poseRow(sr)];
       }
       frontViewIcInto(sl, this.icL);
       frontViewIcInto(sr, this.icR);
       const idx = this.index;
-      out[idx['staticToeDeg']!] = rowL.toeDeg;
-      out[idx['staticCamberDeg']!] = rowL.camberDeg;
+      const wL = this.wheelL;
+      const wR = this.wheelR;
+      wheelStateInto(sl, wL);
+      wheelStateInto(sr, wR);
+      out[idx['staticToeDeg']!] = wL[WHEEL_TOE]!;
+      out[idx['staticCamberDeg']!] = wL[WHEEL_CAMBER]!;
       const half = this.halfTrackMm;
       // ε = −dδ̄/dφ and roll camber at φ = 0 from the analytic gradients (as shared/kinematics rollSweep): ds/dφ = t/2 per rad, left −s, right +s.
-      out[idx['rollSteerCoefficient']!] = -((rowL.toeGradientDegPerM + rowR.toeGradientDegPerM) / 2000) * half / DEG_PER_RAD;
-      out[idx['rollCamberDegPerDeg']!] = 1 + ((rowL.camberGradientDegPerM + rowR.camberGradientDegPerM) / 2000) * half / DEG_PER_RAD;
+      out[idx['rollSteerCoefficient']!] = -((wL[WHEEL_TOE_GRADIENT]! + wR[WHEEL_TOE_GRADIENT]!) / 2000) * half / DEG_PER_RAD;
+      out[idx['rollCamberDegPerDeg']!] = 1 + ((wL[WHEEL_CAMBER_GRADIENT]! + wR[WHEEL_CAMBER_GRADIENT]!) / 2000) * half / DEG_PER_RAD;
       out[idx['rollCentreHeightMm']!] = rollCentreHeightOf(this.icL, this.icR);
 
       // Left pose list (from index 1: the static pose is solved).
@@ -591,9 +598,9 @@ export class StudyModel {
       }
       if (racks.length > 1) out[idx['lockBumpSteerSpreadDegPerM']!] = spread;
       out[idx['bumpToeChangeDeg']!] = cost;
-      out[idx['bumpScrubMm']!] = Math.abs(bumpCpY - rowL.contactPatch[1]);
+      out[idx['bumpScrubMm']!] = Math.abs(bumpCpY - wL[WHEEL_CP + 1]!);
       if (this.ride) {
-        this.rideToeR[4] = rowR.toeDeg;
+        this.rideToeR[4] = wR[WHEEL_TOE]!;
         const rms = this.rideRms;
         for (let c = 0; c < rms.length; c++) {
           rms[c]![0] = gaussRms(this.rideToeL, c);
@@ -608,7 +615,7 @@ export class StudyModel {
 
       if (this.linked && this.nominalK !== null) {
         let dk: number;
-        if (exact) dk = this.understeerGradient(out, rowL, rowR) - this.nominalK;
+        if (rows) dk = this.understeerGradient(out, rows[0], rows[1]) - this.nominalK;
         else {
           const g = this.balanceSens!;
           const rc = out[idx['rollCentreHeightMm']!]!;
@@ -629,9 +636,9 @@ export class StudyModel {
 
   /**
    * Assembles one side of a toleranced build at design height and, with a
-   * set-up given, sets it as on an alignment stand. Returns its design pose's row.
+   * set-up given, sets it as on an alignment stand.
    */
-  private buildSide(bs: BuildSide, offsets: PointMoves | null, nom: Float64Array): PoseRow {
+  private buildSide(bs: BuildSide, offsets: PointMoves | null, nom: Float64Array): void {
     const setup = this.spec.kind === 'tolerance' ? this.spec.setup : null;
     const s = bs.solver;
     bs.apply(offsets, 0, 0);
@@ -668,7 +675,6 @@ export class StudyModel {
         this.poses++;
       }
     }
-    return poseRow(s);
   }
 
   /** Understeer gradient (deg/g) of the linked vehicle with this sample's axle values (balance model, shared/balance). */

@@ -23,6 +23,8 @@ interface Prepared {
   total: number;
   chunkSamples: number;
   lhs: Int32Array[] | null;
+  /** A tolerance study's sample input, refilled for each sample (sampleInput): no objects made per sample. */
+  input?: { build: { left: PointMoves; right: PointMoves | null } };
 }
 
 const prepared = new WeakMap<object, Prepared>();
@@ -127,22 +129,24 @@ function sampleInput(p: Prepared, x: Float64Array): { build: { left: PointMoves;
     });
     return { variant };
   }
-  const left: PointMoves = {};
-  const right: PointMoves = {};
-  const add = (m: PointMoves, point: string, axis: 0 | 1 | 2, v: number) => {
-    const q = m[point] ?? [0, 0, 0];
-    q[axis] += v;
-    m[point] = q;
-  };
   const spec = p.spec;
-  p.model.factors.forEach((f, j) => {
-    const t = spec.tolerances[f.source]!;
+  // Each toleranced point's offset, per side, summed over its factors (in factor order) from zero.
+  if (!p.input) {
+    const moves = () => Object.fromEntries<Vec3>(spec.tolerances.map((t) => [t.point, [0, 0, 0]]));
+    p.input = { build: { left: moves(), right: spec.sides === 'both' ? moves() : null } };
+  }
+  const { left, right } = p.input.build;
+  for (const m of [left, right]) if (m) for (const k in m) m[k]!.fill(0);
+  const factors = p.model.factors;
+  for (let j = 0; j < factors.length; j++) {
+    const f = factors[j]!;
+    const point = spec.tolerances[f.source]!.point;
     const ax = StudyModel.axisIndex(f.axis);
     // The right corner is solved in the left frame: its vehicle-frame y offset flips.
-    if (f.side === 'left') add(left, t.point, ax, x[j]!);
-    else add(right, t.point, ax, ax === 1 ? -x[j]! : x[j]!);
-  });
-  return { build: { left, right: spec.sides === 'both' ? right : null } };
+    if (f.side === 'left') left[point]![ax] += x[j]!;
+    else right![point]![ax] += ax === 1 ? -x[j]! : x[j]!;
+  }
+  return p.input;
 }
 
 // ---------- chunks ----------
