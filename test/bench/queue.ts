@@ -6,6 +6,8 @@
  *                                  two workers (target ≤ 6 s on the 2-core machine)
  *   study.tolerance10k.oneWorkerWallS   the same with one worker
  *   study.scalingTwoWorkers        chunk throughput of two worker processes ÷ one (target ≥ 1.7)
+ * Every figure is the median round's: ROLLWISE_BENCH_ROUNDS rounds (default 3) of one worker, then two, each
+ * a few seconds apart, because this machine's speed drifts from one minute to the next (each round is printed).
  *   study.queueOverheadPerChunkMs  per chunk, chunk-phase time not spent computing on the lane's thread (fetch,
  *                                  hand-off to the thread, landing), from the one-worker run
  * and the same measured in CPU time (this machine is shared: wall time counts other processes' turns):
@@ -40,6 +42,12 @@ import { startSeededServer } from '../support/server-process.js';
 import { spawnWorker, type WorkerProcess } from '../support/workers.js';
 
 const round = (x: number, d = 2) => Math.round(x * 10 ** d) / 10 ** d;
+
+/** Rounds of one worker then two (ROLLWISE_BENCH_ROUNDS, default 3). */
+const ROUNDS = Math.max(1, Number(process.env['ROLLWISE_BENCH_ROUNDS'] ?? 3));
+const WORKER_ENV = { NODE_ENV: 'production', SESSION_SECRET: 'x'.repeat(40) };
+/** Samples of the warm-up study each worker runs before it is measured. */
+const WARM_SAMPLES = 4000;
 
 /** Fields of a /proc stat file after the command name (f[0] is field 3 of proc(5)); undefined once the process has gone. */
 function statFields(path: string): string[] | undefined {
@@ -217,26 +225,42 @@ export async function run(): Promise<BenchFigures> {
       return { studyId: s.id, wallS, chunksCpu, combineCpu, chunkPhaseS, combineS, workerCpuS, perWorker: split.map((w) => w.chunks), tailS: split.length > 1 ? split.at(-1)!.last - split[0]!.last : 0, ...c };
     };
 
-    const results: Record<number, Awaited<ReturnType<typeof measure>>> = {};
-    for (const n of [1, 2]) {
-      while (workers.length < n) workers.push(await spawnWorker(cluster.url, { NODE_ENV: 'production', SESSION_SECRET: 'x'.repeat(40) }));
-      await measure(1000, 7); // warm-up: threads load the engines, the JIT warms
-      results[n] = await measure(10_000, 2026);
+    type Measured = Awaited<ReturnType<typeof measure>>;
+    const report = (n: number, r: Measured) => {
       console.log(
-        `  ${n} worker(s): 10 000 samples in ${round(results[n].wallS)} s submit→stored; chunk phase ${round(results[n].phase_s)} s, ${results[n].chunks} chunks, ` +
-          `submit→first chunk ${round(results[n].pre_s)} s, last chunk→stored ${round(results[n].post_s)} s, compute ${round(results[n].compute_ms / 1000)} s, ${Math.round(results[n].poses / (results[n].compute_ms / 1000))} poses/s per busy thread; ` +
-          `worker CPU ${results[n].workerCpuS.map((x) => round(x)).join(' + ')} s` +
-          (n > 1 ? `; chunks per worker ${results[n].perWorker.join(' + ')}, the first to finish waited ${round(results[n].tailS)} s for the other` : ''),
+        `  ${n} worker(s): 10 000 samples in ${round(r.wallS)} s submit→stored; chunk phase ${round(r.phase_s)} s, ${r.chunks} chunks, ` +
+          `submit→first chunk ${round(r.pre_s)} s, last chunk→stored ${round(r.post_s)} s, compute ${round(r.compute_ms / 1000)} s, ${Math.round(r.poses / (r.compute_ms / 1000))} poses/s per busy thread; ` +
+          `worker CPU ${r.workerCpuS.map((x) => round(x)).join(' + ')} s` +
+          (n > 1 ? `; chunks per worker ${r.perWorker.join(' + ')}, the first to finish waited ${round(r.tailS)} s for the other` : ''),
       );
-      const r = results[n];
       const cpuLine = (what: string, wallS: number, c: typeof r.chunksCpu) =>
         `    CPU s, ${what} (${round(wallS)} s wall): workers ${c.workers.map((x, i) => `${round(x)} (main thread ${round(c.workerMains[i]!)})`).join(' + ')}, ` +
         `PostgreSQL ${round(c.postgres)}, API server ${round(c.api)}, bench ${round(c.bench)}`;
       console.log(cpuLine('submit → every chunk landed', r.chunkPhaseS, r.chunksCpu));
       console.log(cpuLine('every chunk landed → stored', r.combineS, r.combineCpu));
+    };
+    // Rounds of one worker, then two, a few seconds apart: this machine's speed drifts by ±15 % from one minute
+    // to the next (other machines share its host), so each ratio compares runs made close together, and the
+    // figures are the median round's. The second worker is started for each round and stopped after it. Each
+    // worker first runs a warm-up study (WARM_SAMPLES) so that both compare as long-running workers do: a
+    // fresh process still compiles the engine's code on its background threads for its first few hundred
+    // milliseconds of chunks, on the cores the measured study needs.
+    const rounds: { one: Measured; two: Measured; ratio: number }[] = [];
+    workers.push(await spawnWorker(cluster.url, WORKER_ENV));
+    await measure(WARM_SAMPLES, 7);
+    for (let k = 0; k < ROUNDS; k++) {
+      console.log(`  round ${k + 1} of ${ROUNDS}`);
+      const one = await measure(10_000, 2026 + k);
+      report(1, one);
+      workers.push(await spawnWorker(cluster.url, WORKER_ENV));
+      await measure(WARM_SAMPLES, 7);
+      const two = await measure(10_000, 2026 + k);
+      report(2, two);
+      await workers.pop()!.stop();
+      rounds.push({ one, two, ratio: one.phase_s / two.phase_s });
     }
-    const one = results[1]!;
-    const two = results[2]!;
+    const { one, two } = [...rounds].sort((a, b) => a.ratio - b.ratio)[Math.floor(ROUNDS / 2)]!;
+    console.log(`  scaling by round: ${rounds.map((r) => round(r.ratio)).join(', ')} (the figures below are the median round's)`);
     // Reading the completed 10 000-sample study: the API server's CPU per answer (its event loop's work).
     const reads = 100;
     const apiCpu0 = treeCpuSeconds(server.pid);
