@@ -146,7 +146,7 @@ export function cornerSemanticIssues(corner: Corner): FieldIssue[] {
     else {
       const tri = corner.type === 'five-link' ? `link${corner.toeLink}Inner` : 'tieRodInner';
       if (distanceToAxis(pts[tri]!, s.armAxisPoint, s.armAxisDirection) < tol) {
-        add(`points.${tri}`, `points.${tri} lies on the steering arm axis (steering.armAxisPoint): the arm has no length`);
+        add(`points.${tri}`, `points.${tri} lies on the steering arm's pivot axis: the arm has no length`);
       }
     }
   }

@@ -34,7 +34,7 @@ const cases: Array<[string, () => any, Mut, string, string]> = [
   ['five-link link of zero length', five, (c) => (c.points.link3Outer = [...c.points.link3Inner]), 'points.link3Outer', 'link 3'],
   ['five-link duplicate links', five, (c) => ((c.points.link2Inner = [...c.points.link1Inner]), (c.points.link2Outer = [...c.points.link1Outer])), 'points.link2Outer', 'link 1'],
   ['steering arm stroke without zero', armSteer, (c) => (c.steering.angularStrokeDeg = [2, 30]), 'steering.angularStrokeDeg', 'does not contain 0'],
-  ['tie-rod inner point on the steering arm axis', armSteer, (c) => (c.steering.armAxisPoint = [-55, 210, 0]), 'points.tieRodInner', 'steering arm axis'],
+  ['tie-rod inner point on the steering arm axis', armSteer, (c) => (c.steering.armAxisPoint = [-55, 210, 0]), 'points.tieRodInner', "steering arm's pivot axis"],
   ['steering arm axis of zero length', armSteer, (c) => (c.steering.armAxisDirection = [0, 0, 0]), 'steering.armAxisDirection', 'zero length'],
   ['spring on an upper arm a strut lacks', strut, (c) => (c.spring.springOuterOn = 'upperArm'), 'spring.springOuterOn', 'no upper arm'],
   ['spring on a lower arm a five-link lacks', five, (c) => (c.spring.springOuterOn = 'lowerArm'), 'spring.springOuterOn', 'no arm'],

@@ -127,7 +127,7 @@ describe('CornerMounts', () => {
     const { store, choose, error, el, at } = setUp(onArm);
     choose('toeLink', 'Link 3');
     expect(store.canUndo()).toBe(false);
-    expect(error('toeLink')).toBe('Toe link: Link 3, body end lies on the steering arm axis (the arm pivot point): the arm has no length.');
+    expect(error('toeLink')).toBe('Toe link: Link 3, body end lies on the steering arm\'s pivot axis: the arm has no length.');
     expect(el.querySelector('[data-setting="toeLink"] mat-select')!.textContent.trim()).toBe('Link 5');
     // The refused choice is shown as Material shows a field in error: outlined, described by its message.
     const toeField = at('mat-form-field[data-setting="toeLink"]');
@@ -221,7 +221,7 @@ describe('CornerMounts', () => {
     expect(error('steering.armAxisDirection')).toBe('Arm axis: an axis needs a direction: x, y and z cannot all be 0.');
     draft('steering.armAxisDirection[2]', '1');
     apply();
-    expect(error('steering.armAxisPoint')).toMatch(/^Arm pivot point: Tie rod, inner end \(steering-box arm\) lies on the steering arm axis \(the arm pivot point\): the arm has no length\.$/);
+    expect(error('steering.armAxisPoint')).toMatch(/^Arm pivot point: Tie rod, inner end \(steering-box arm\) lies on the steering arm's pivot axis: the arm has no length\.$/);
     expect(store.canUndo()).toBe(false);
     draft('steering.armAxisPoint[1]', '150');
     apply();
