@@ -13,7 +13,7 @@
  */
 import { randomInt } from 'node:crypto';
 import { and, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm';
-import { studyKeyFigures, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, withFactorLabels, type StudyPlan, type StudyRequest, type StudyResult, type StudySpec } from '../../shared/study/index.js';
+import { KEY_FIGURE_OUTPUTS, studyKeyFigures, studyRequestSchema, studyResultCsv, studySpecSchema, variantCorner, withFactorLabels, type StudyPlan, type StudyRequest, type StudyResult, type StudySpec, type KeyFigureSource } from '../../shared/study/index.js';
 import type { ComputePool } from '../compute/pool.js';
 import type { Database } from '../db/client.js';
 import { configurations, programmeTeams, studies, studyAttachments, teams, users } from '../db/schema.js';
@@ -243,7 +243,7 @@ export class Studies {
   /** The studies attached to a configuration, newest attachment first, with their key figures. */
   async attachedTo(teamId: string, configurationId: string): Promise<AttachedStudy[]> {
     const rows = await this.db.orm
-      .select({ a: studyAttachments, label: studies.label, kind: studies.kind, totalSamples: studies.totalSamples, result: studies.result, byName: users.displayName })
+      .select({ a: studyAttachments, label: studies.label, kind: studies.kind, totalSamples: studies.totalSamples, keyOutputs: keyOutputs(), byName: users.displayName })
       .from(studyAttachments)
       .innerJoin(studies, eq(studies.id, studyAttachments.studyId))
       .leftJoin(users, eq(users.id, studyAttachments.attachedBy))
@@ -262,19 +262,30 @@ export class Studies {
       .innerJoin(teams, eq(teams.id, programmeTeams.teamId))
       .where(and(eq(programmeTeams.programmeId, programmeId), eq(programmeTeams.status, 'accepted')))
       .orderBy(teams.name);
-    const out = [];
-    for (const m of members) {
-      const [r] = await this.db.orm
-        .select({ a: studyAttachments, label: studies.label, kind: studies.kind, totalSamples: studies.totalSamples, result: studies.result, byName: users.displayName, configurationName: configurations.name })
-        .from(studyAttachments)
-        .innerJoin(studies, eq(studies.id, studyAttachments.studyId))
-        .innerJoin(configurations, eq(configurations.id, studyAttachments.configurationId))
-        .leftJoin(users, eq(users.id, studyAttachments.attachedBy))
-        .where(and(eq(studyAttachments.teamId, m.teamId), eq(configurations.archived, false)))
-        .orderBy(desc(studyAttachments.attachedAt))
-        .limit(1);
-      out.push({ teamId: m.teamId, teamName: m.teamName, configurationName: r?.configurationName ?? null, study: r ? attachedView(r) : null });
-    }
+    // Each team's latest attachment to a configuration in use, all teams in one query.
+    const latest = members.length
+      ? await this.db.orm
+          .selectDistinctOn([studyAttachments.teamId], {
+            a: studyAttachments,
+            label: studies.label,
+            kind: studies.kind,
+            totalSamples: studies.totalSamples,
+            keyOutputs: keyOutputs(),
+            byName: users.displayName,
+            configurationName: configurations.name,
+          })
+          .from(studyAttachments)
+          .innerJoin(studies, eq(studies.id, studyAttachments.studyId))
+          .innerJoin(configurations, eq(configurations.id, studyAttachments.configurationId))
+          .leftJoin(users, eq(users.id, studyAttachments.attachedBy))
+          .where(and(inArray(studyAttachments.teamId, members.map((m) => m.teamId)), eq(configurations.archived, false)))
+          .orderBy(studyAttachments.teamId, desc(studyAttachments.attachedAt))
+      : [];
+    const byTeam = new Map(latest.map((r) => [r.a.teamId, r]));
+    const out = members.map((m) => {
+      const r = byTeam.get(m.teamId);
+      return { teamId: m.teamId, teamName: m.teamName, configurationName: r?.configurationName ?? null, study: r ? attachedView(r) : null };
+    });
     return { programmeId, teams: out };
   }
 
@@ -355,7 +366,21 @@ export async function cancelStudyChunks(queue: JobQueue, studyId: string, totalC
   await queue.notify(`cancel:${studyId}`);
 }
 
-function attachedView(r: { a: typeof studyAttachments.$inferSelect; label: string; kind: 'tolerance' | 'sweep'; totalSamples: number; result: StudyResult | null; byName: string | null }): AttachedStudy {
+/**
+ * The outputs of a stored result that key figures come from (KEY_FIGURE_OUTPUTS), picked out by PostgreSQL:
+ * a board of forty teams reads forty small arrays, not forty whole results (about 100 kB each). Null without a
+ * result or without any of those outputs.
+ */
+function keyOutputs() {
+  const keys = sql.join(
+    KEY_FIGURE_OUTPUTS.map((k) => sql`${k}`),
+    sql`, `,
+  );
+  return sql<KeyFigureSource[] | null>`(SELECT jsonb_agg(jsonb_build_object('key', o->'key', 'label', o->'label', 'unit', o->'unit', 'p5', o->'p5', 'p50', o->'p50', 'p95', o->'p95'))
+    FROM jsonb_array_elements(${studies.result}->'outputs') AS o WHERE o->>'key' IN (${keys}))`;
+}
+
+function attachedView(r: { a: typeof studyAttachments.$inferSelect; label: string; kind: 'tolerance' | 'sweep'; totalSamples: number; keyOutputs: KeyFigureSource[] | null; byName: string | null }): AttachedStudy {
   return {
     studyId: r.a.studyId,
     configurationId: r.a.configurationId,
@@ -365,7 +390,7 @@ function attachedView(r: { a: typeof studyAttachments.$inferSelect; label: strin
     note: r.a.note,
     attachedAt: r.a.attachedAt,
     attachedBy: r.a.attachedBy ? { id: r.a.attachedBy, displayName: r.byName ?? '' } : null,
-    keyFigures: r.result ? studyKeyFigures(r.result) : [],
+    keyFigures: r.keyOutputs ? studyKeyFigures({ outputs: r.keyOutputs }) : [],
   };
 }
 

@@ -46,4 +46,4 @@ export {
 } from './run.js';
 export type { FactorInfo, OutputDefinition } from './engine.js';
 export { studyResultCsv } from './csv.js';
-export { studyKeyFigures, type StudyKeyFigure } from './key-figures.js';
+export { studyKeyFigures, KEY_FIGURE_OUTPUTS, type StudyKeyFigure, type KeyFigureSource } from './key-figures.js';

@@ -4,7 +4,7 @@
  * the balance change, roll steer, the bump cost and static toe. The first
  * present is the headline.
  */
-import type { StudyResult } from './run.js';
+import type { OutputResult } from './run.js';
 
 export interface StudyKeyFigure {
   key: string;
@@ -15,12 +15,17 @@ export interface StudyKeyFigure {
   p95: number | null;
 }
 
-const KEYS = ['understeerGradientChangeDegPerG', 'rollSteerCoefficient', 'bumpYawDisturbancePct', 'bumpToeChangeDeg', 'staticToeDeg'] as const;
+/** The outputs key figures are taken from, in order of precedence. */
+export const KEY_FIGURE_OUTPUTS = ['understeerGradientChangeDegPerG', 'rollSteerCoefficient', 'bumpYawDisturbancePct', 'bumpToeChangeDeg', 'staticToeDeg'] as const;
 
-export function studyKeyFigures(result: Pick<StudyResult, 'outputs'>): StudyKeyFigure[] {
-  const num = (x: number) => (Number.isFinite(x) ? x : null);
+/** What the key figures read of an output; a stored result has null where a percentile is not a number. */
+export type KeyFigureSource = Pick<OutputResult, 'key' | 'label' | 'unit'> & { p5: number | null; p50: number | null; p95: number | null };
+
+/** From a result's outputs (all of them, or only those named in KEY_FIGURE_OUTPUTS). */
+export function studyKeyFigures(result: { readonly outputs: readonly KeyFigureSource[] }): StudyKeyFigure[] {
+  const num = (x: number | null) => (x !== null && Number.isFinite(x) ? x : null);
   const out: StudyKeyFigure[] = [];
-  for (const key of KEYS) {
+  for (const key of KEY_FIGURE_OUTPUTS) {
     const o = result.outputs.find((x) => x.key === key);
     // The toe change over the bump only where there is no ride-model bump cost.
     if (!o || (key === 'bumpToeChangeDeg' && out.some((f) => f.key === 'bumpYawDisturbancePct'))) continue;

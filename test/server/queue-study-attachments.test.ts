@@ -11,6 +11,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { waitFor } from '../support/wait.js';
 import { expectError, signIn, startTestApp, type Agent, type TestApp } from './helpers.js';
+import { studyKeyFigures } from '../../shared/study/index.js';
 
 let t: TestApp;
 let engineer: Agent;
@@ -83,6 +84,8 @@ describe('attaching studies to a configuration and the programme board', { timeo
     const eps = done.result.outputs.find((o: { key: string }) => o.key === 'rollSteerCoefficient');
     const f = figs.find((x) => x.key === 'rollSteerCoefficient')!;
     expect([f.p5, f.p50, f.p95]).toEqual([eps.p5, eps.p50, eps.p95]);
+    // PostgreSQL picks the key figures' outputs out of the stored result: the same figures as from the whole result.
+    expect(figs).toEqual(studyKeyFigures(done.result));
     expect(f.p5).toBeLessThanOrEqual(f.p50);
     expect(f.p50).toBeLessThanOrEqual(f.p95);
 
@@ -96,6 +99,7 @@ describe('attaching studies to a configuration and the programme board', { timeo
     const row = board.teams.find((x: { teamId: string }) => x.teamId === teamId);
     expect(row.study.studyId).toBe(id);
     expect(row.study.keyFigures.length).toBeGreaterThan(0);
+    expect(row.study.keyFigures).toEqual(studyKeyFigures(done.result));
 
     await engineer.delete(path).expect(204);
     const after = (await viewer.get(`/api/teams/${teamId}/studies`).query({ attachedTo: configurationId }).expect(200)).body.attachments as { studyId: string }[];
