@@ -132,7 +132,8 @@ export function frontViewIcInto(s: CornerSolver, out: Float64Array): void {
   const c = s.c;
   const t = s.tTravel;
   // Velocity of the upright point that is the contact patch at this pose (left frame): v = v_c + ω × (p − c),
-  // with p − c taken through the point's design position as uprightPoint does.
+  // with p − c taken through the point's design position, R·(Rᵀ(p − c)), in the order uprightPoint rounds it,
+  // so the figures are the same to the last bit as before this scalar form.
   const w = s.model.wc0;
   const e0 = wheel[WHEEL_CP]! - c[0]!;
   const e1 = wheel[WHEEL_CP + 1]! - c[1]!;
