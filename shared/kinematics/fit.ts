@@ -30,14 +30,11 @@ export function polyFit(xs: ArrayLike<number>, ys: ArrayLike<number>, quadratic:
   }
   const M = fitM;
   const x = fitX;
+  // The symmetric normal matrix [n s1 s2; s1 s2 s3; s2 s3 s4] and the right-hand side, in place.
   M[0] = n;
-  M[1] = s1;
-  M[2] = s2;
-  M[3] = s1;
-  M[4] = s2;
-  M[5] = s3;
-  M[6] = s2;
-  M[7] = s3;
+  M[1] = M[3] = s1;
+  M[2] = M[4] = M[6] = s2;
+  M[5] = M[7] = s3;
   M[8] = s4;
   x[0] = b0;
   x[1] = b1;
